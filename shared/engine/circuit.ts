@@ -1,0 +1,118 @@
+/**
+ * The circuit every design describes (ENGINE-CONTRACT.md), as data: nodes, elements and the
+ * rails. The engine's solvers and the SPICE netlist writer both read this one description, so
+ * the simulated circuit is the predicted one by construction.
+ */
+import type { Design } from './types';
+import { tailElements } from './tail-elements';
+
+/** Which part of the stage an element belongs to: the pair and its loads, or the tail element. */
+export type CircuitPart = 'pair' | 'tail';
+
+export interface ResistorElement {
+  kind: 'resistor';
+  name: string;
+  nodes: [string, string];
+  resistanceOhm: number;
+  part: CircuitPart;
+}
+
+export interface TransistorElement {
+  kind: 'npn';
+  name: string;
+  collector: string;
+  base: string;
+  emitter: string;
+  /** Area factor: scales IS (used for the pair's VBE mismatch). */
+  area: number;
+  part: CircuitPart;
+}
+
+export interface CapacitorElement {
+  kind: 'capacitor';
+  name: string;
+  nodes: [string, string];
+  capacitanceF: number;
+  part: CircuitPart;
+}
+
+export type CircuitElement = ResistorElement | TransistorElement | CapacitorElement;
+
+/** The ground node's name (SPICE's node 0). */
+export const GROUND = '0';
+
+/** Node names with a fixed DC voltage: rails and inputs. */
+export const RAIL_NODES = { positive: 'vp', negative: 'vn' } as const;
+export const INPUT_NODES = ['in1', 'in2'] as const;
+/** The tail node, where the tail element meets the pair. */
+export const TAIL_NODE = 't';
+/** The collectors (outputs). */
+export const COLLECTOR_NODES = ['c1', 'c2'] as const;
+
+export interface StageCircuit {
+  /** Nodes held at a fixed DC voltage by ideal sources (ground included). */
+  fixedNodesV: Record<string, number>;
+  elements: CircuitElement[];
+  /** A starting guess for the free nodes' voltages (V), from hand analysis. */
+  initialGuessV: Record<string, number>;
+}
+
+/** Rough VBE used only for starting guesses, V. */
+const GUESS_VBE_V = 0.65;
+
+/** Builds the stage circuit of a design: the pair, its loads and the tail element. */
+export function stageCircuit(design: Design): StageCircuit {
+  const { positiveV, negativeV } = design.supply;
+  const vicmV = design.inputCommonModeV ?? 0;
+  const rcOhm = design.collectorResistanceOhm;
+  const mismatch = design.collectorMismatch ?? 0;
+  const reOhm = design.pairEmitterResistanceOhm ?? 0;
+  const pairArea2 = 1 + (design.pairSaturationCurrentMismatch ?? 0);
+  const tailNodeGuessV = vicmV - GUESS_VBE_V;
+  const emitterNodes = reOhm > 0 ? ['e1', 'e2'] : [TAIL_NODE, TAIL_NODE];
+
+  const elements: CircuitElement[] = [
+    { kind: 'resistor', name: 'RC1', nodes: [RAIL_NODES.positive, 'c1'], resistanceOhm: rcOhm, part: 'pair' },
+    { kind: 'resistor', name: 'RC2', nodes: [RAIL_NODES.positive, 'c2'], resistanceOhm: rcOhm * (1 + mismatch), part: 'pair' },
+    { kind: 'npn', name: 'Q1', collector: 'c1', base: 'in1', emitter: emitterNodes[0], area: 1, part: 'pair' },
+    { kind: 'npn', name: 'Q2', collector: 'c2', base: 'in2', emitter: emitterNodes[1], area: pairArea2, part: 'pair' },
+  ];
+  if (reOhm > 0) {
+    elements.push(
+      { kind: 'resistor', name: 'RE1', nodes: ['e1', TAIL_NODE], resistanceOhm: reOhm, part: 'pair' },
+      { kind: 'resistor', name: 'RE2', nodes: ['e2', TAIL_NODE], resistanceOhm: reOhm, part: 'pair' },
+    );
+  }
+  const tail = tailElements(design.tail, { positiveV, negativeV, tailNodeGuessV, vbeGuessV: GUESS_VBE_V });
+  elements.push(...tail.elements);
+
+  const tailCapacitanceF = design.tailCapacitanceF ?? 0;
+  if (tailCapacitanceF > 0) {
+    elements.push({ kind: 'capacitor', name: 'CT', nodes: [TAIL_NODE, GROUND], capacitanceF: tailCapacitanceF, part: 'tail' });
+  }
+
+  const tailCurrentGuessA = tail.currentGuessA;
+  const collectorGuessV = Math.max(positiveV - (tailCurrentGuessA / 2) * rcOhm, tailNodeGuessV + 0.3);
+  const initialGuessV: Record<string, number> = {
+    c1: collectorGuessV,
+    c2: collectorGuessV,
+    [TAIL_NODE]: tailNodeGuessV,
+    ...tail.initialGuessV,
+  };
+  if (reOhm > 0) {
+    initialGuessV.e1 = tailNodeGuessV;
+    initialGuessV.e2 = tailNodeGuessV;
+    initialGuessV[TAIL_NODE] = tailNodeGuessV - (tailCurrentGuessA / 2) * reOhm;
+  }
+  return {
+    fixedNodesV: {
+      [GROUND]: 0,
+      [RAIL_NODES.positive]: positiveV,
+      [RAIL_NODES.negative]: negativeV,
+      in1: vicmV,
+      in2: vicmV,
+    },
+    elements,
+    initialGuessV,
+  };
+}

@@ -1,0 +1,124 @@
+/**
+ * The six tail elements of ENGINE-CONTRACT.md as circuit elements between the tail node `t`
+ * and the negative rail, each with a hand-analysis starting guess for the solver.
+ * To add a topology: add its id to TOPOLOGIES (types.ts), a builder here, a closed form in
+ * closed-form.ts and a sizing entry in sizing.ts.
+ */
+import type { TailDesign } from './types';
+import type { CircuitElement } from './circuit';
+
+const VP = 'vp';
+const VN = 'vn';
+const T = 't';
+
+/** Thermal voltage used only for starting guesses (room temperature), V. */
+const GUESS_VT_V = 0.0259;
+
+export interface TailGuessContext {
+  positiveV: number;
+  negativeV: number;
+  tailNodeGuessV: number;
+  vbeGuessV: number;
+}
+
+export interface TailElements {
+  elements: CircuitElement[];
+  initialGuessV: Record<string, number>;
+  currentGuessA: number;
+}
+
+function resistor(name: string, a: string, b: string, resistanceOhm: number): CircuitElement {
+  return { kind: 'resistor', name, nodes: [a, b], resistanceOhm, part: 'tail' };
+}
+
+function npn(name: string, collector: string, base: string, emitter: string): CircuitElement {
+  return { kind: 'npn', name, collector, base, emitter, area: 1, part: 'tail' };
+}
+
+/** Output current of a Widlar source from I·RE = VT·ln(Iref/I), by fixed-point iteration. */
+function widlarGuessA(referenceA: number, emitterOhm: number): number {
+  let currentA = Math.min(referenceA, GUESS_VT_V / Math.max(emitterOhm, 1e-9));
+  for (let i = 0; i < 30; i += 1) {
+    currentA = (GUESS_VT_V * Math.log(referenceA / Math.max(currentA, 1e-15))) / emitterOhm;
+    currentA = Math.min(Math.max(currentA, referenceA * 1e-4), referenceA);
+  }
+  return currentA;
+}
+
+/** Elements and guesses of one tail element. */
+export function tailElements(tail: TailDesign, ctx: TailGuessContext): TailElements {
+  const { positiveV: vp, negativeV: vn, vbeGuessV: vbe } = ctx;
+  switch (tail.topology) {
+    case 'resistor':
+      return {
+        elements: [resistor('RT', T, VN, tail.resistanceOhm)],
+        initialGuessV: {},
+        currentGuessA: Math.max(ctx.tailNodeGuessV - vn, 0) / tail.resistanceOhm,
+      };
+    case 'simple-mirror': {
+      const refA = Math.max(vp - vn - vbe, 0) / tail.referenceResistanceOhm;
+      return {
+        elements: [resistor('RREF', VP, 'ref', tail.referenceResistanceOhm), npn('Q3', 'ref', 'ref', VN), npn('Q4', T, 'ref', VN)],
+        initialGuessV: { ref: vn + vbe },
+        currentGuessA: refA,
+      };
+    }
+    case 'degenerated-mirror': {
+      const reOhm = tail.emitterResistanceOhm;
+      const refA = Math.max(vp - vn - vbe, 0) / (tail.referenceResistanceOhm + reOhm);
+      return {
+        elements: [
+          resistor('RREF', VP, 'ref', tail.referenceResistanceOhm),
+          npn('Q3', 'ref', 'ref', 'e3'),
+          resistor('RE3', 'e3', VN, reOhm),
+          npn('Q4', T, 'ref', 'e4'),
+          resistor('RE4', 'e4', VN, reOhm),
+        ],
+        initialGuessV: { ref: vn + refA * reOhm + vbe, e3: vn + refA * reOhm, e4: vn + refA * reOhm },
+        currentGuessA: refA,
+      };
+    }
+    case 'widlar': {
+      const reOhm = tail.emitterResistanceOhm;
+      const refA = Math.max(vp - vn - vbe, 0) / tail.referenceResistanceOhm;
+      const outA = widlarGuessA(refA, reOhm);
+      return {
+        elements: [
+          resistor('RREF', VP, 'ref', tail.referenceResistanceOhm),
+          npn('Q3', 'ref', 'ref', VN),
+          npn('Q4', T, 'ref', 'e4'),
+          resistor('RE4', 'e4', VN, reOhm),
+        ],
+        initialGuessV: { ref: vn + vbe, e4: vn + outA * reOhm },
+        currentGuessA: outA,
+      };
+    }
+    case 'wilson': {
+      const refA = Math.max(vp - vn - 2 * vbe, 0) / tail.referenceResistanceOhm;
+      return {
+        elements: [
+          resistor('RREF', VP, 'ref', tail.referenceResistanceOhm),
+          npn('Q3', 'ref', 'x', VN),
+          npn('Q5', T, 'ref', 'x'),
+          npn('Q4', 'x', 'x', VN),
+        ],
+        initialGuessV: { ref: vn + 2 * vbe, x: vn + vbe },
+        currentGuessA: refA,
+      };
+    }
+    case 'cascode': {
+      const refA = Math.max(vp - vn - 2 * vbe, 0) / tail.referenceResistanceOhm;
+      return {
+        elements: [
+          resistor('RREF', VP, 'ref', tail.referenceResistanceOhm),
+          npn('Q5', 'ref', 'ref', 'm3'),
+          npn('Q3', 'm3', 'm3', VN),
+          npn('Q4', 'm4', 'm3', VN),
+          npn('Q6', T, 'ref', 'm4'),
+        ],
+        initialGuessV: { ref: vn + 2 * vbe, m3: vn + vbe, m4: vn + vbe },
+        currentGuessA: refA,
+      };
+    }
+  }
+}

@@ -1,0 +1,223 @@
+/**
+ * Public shapes of the engine: the `analyze` input (a fully sized design), its output, and the
+ * `recommend` output. These are the command line's public interface (ENGINE-CONTRACT.md):
+ * fields may be added, never renamed. Every quantity is SI; names carry their unit.
+ */
+
+/** Tail topologies in order of simplicity (the order "simplest-sufficient" walks). */
+export const TOPOLOGIES = [
+  'resistor',
+  'simple-mirror',
+  'degenerated-mirror',
+  'widlar',
+  'wilson',
+  'cascode',
+] as const;
+export type TopologyId = (typeof TOPOLOGIES)[number];
+
+export interface DeviceParams {
+  family: 'npn';
+  /** Forward current gain BF (SPICE), V/V. */
+  beta: number;
+  /** Forward Early voltage VAF in volts; omitted or 0 means infinite. */
+  earlyVoltageV?: number;
+  /** Saturation current IS at 27 °C in amperes. When absent, derived from vbeOnV. */
+  saturationCurrentA?: number;
+  /** Hand-calculation VBE used to derive IS when IS is absent (VBE at 1 mA, 27 °C). */
+  vbeOnV?: number;
+  /** Collector-emitter voltage below which a transistor counts as saturated, volts. */
+  vceSatV?: number;
+  /** 1-sigma VBE difference between the two pair transistors at equal currents, volts. */
+  vbeMismatchSigmaV?: number;
+}
+
+export interface Supply {
+  positiveV: number;
+  negativeV: number;
+}
+
+export type TailDesign =
+  | { topology: 'resistor'; resistanceOhm: number }
+  | { topology: 'simple-mirror'; referenceResistanceOhm: number }
+  | { topology: 'degenerated-mirror'; referenceResistanceOhm: number; emitterResistanceOhm: number }
+  | { topology: 'widlar'; referenceResistanceOhm: number; emitterResistanceOhm: number }
+  | { topology: 'wilson'; referenceResistanceOhm: number }
+  | { topology: 'cascode'; referenceResistanceOhm: number };
+
+/** `analyze` input: one fully sized emitter-coupled pair with its tail. */
+export interface Design {
+  device: DeviceParams;
+  supply: Supply;
+  collectorResistanceOhm: number;
+  /** ε: RC2 = RC1·(1 + ε). Default 0. */
+  collectorMismatch?: number;
+  /** Equal degeneration resistors in each pair emitter, ohms. Default 0. */
+  pairEmitterResistanceOhm?: number;
+  /** δ: IS of Q2 = IS·(1 + δ) (pair VBE mismatch, δ ≈ ΔVBE/VT). Default 0. Added field. */
+  pairSaturationCurrentMismatch?: number;
+  tail: TailDesign;
+  /** DC voltage on both bases, volts. Default 0. */
+  inputCommonModeV?: number;
+  /** Circuit temperature in °C. Default 27 (SPICE's TNOM). */
+  temperatureC?: number;
+  /** Parasitic capacitance from the tail node to AC ground, farads. Default 0. */
+  tailCapacitanceF?: number;
+}
+
+export type Region = 'forward-active' | 'saturated' | 'cut-off';
+
+/** Operating point of one transistor (added field of the analyze output). */
+export interface TransistorOperatingPoint {
+  name: string;
+  collectorCurrentA: number;
+  baseCurrentA: number;
+  vbeV: number;
+  vceV: number;
+  vcbV: number;
+  region: Region;
+}
+
+export interface AnalyzeResult {
+  tailCurrentA: number;
+  collectorCurrentA: number;
+  collectorVoltageV: number;
+  tailNodeVoltageV: number;
+  transconductanceS: number;
+  tailOutputResistanceOhm: number;
+  differentialGain: number;
+  singleEndedGain: number;
+  commonModeGain: number;
+  differentialCommonModeGain: number;
+  cmrrDb: { singleEnded: number; differential: number | null };
+  cmrrCornerHz: number | null;
+  powerW: number;
+  warnings: string[];
+  /** Added: the textbook limit of the tail's output resistance and its formula. */
+  tailOutputResistanceClosedForm: { valueOhm: number; formula: string };
+  /** Added: every transistor's operating point. */
+  transistors: TransistorOperatingPoint[];
+  /** Added: Q2's collector voltage, volts. */
+  collector2VoltageV: number;
+  /** Added: current drawn by reference branches (mirror inputs), amperes. */
+  referenceCurrentA: number;
+  /** Added: smallest VCE − VCE(sat) over the tail's transistors (V(t) − V− for a resistor), volts. */
+  tailComplianceMarginV: number;
+  /** Added: Q1/Q2 smallest VCE − VCE(sat), volts. */
+  pairSaturationMarginV: number;
+}
+
+export type Severity = 'blocking' | 'advisory';
+
+export interface Check {
+  rule: string;
+  passed: boolean;
+  severity: Severity;
+  reason: string;
+  /** Added: the margin the rule compared, in the unit named by `marginUnit`. */
+  margin?: number | null;
+  marginUnit?: string;
+}
+
+export type ResistorSeries = 'E24' | 'E96' | 'E192';
+export type OutputKind = 'differential' | 'single-ended';
+export type SelectionPolicy = 'simplest-sufficient' | 'highest-rejection';
+
+/** A requirement spec after schema validation (defaults applied). Schema: shared/schema/spec.schema.json. */
+export interface Spec {
+  title: string;
+  device: DeviceParams & { vceSatV: number; vbeMismatchSigmaV: number };
+  supply: Supply;
+  gain: { target: number; tolerancePercent: number; output: OutputKind };
+  cmrr: { minDb: number; atFrequencyHz: number; marginDb: number; minYieldPercent: number };
+  inputCommonMode: { minV: number; maxV: number };
+  outputSwingVpp: number;
+  powerBudgetW: number;
+  tailCurrentA?: number;
+  temperatureC: { min: number; max: number };
+  /** `tolerance` is a fraction: 0.01 means ±1 %. */
+  resistors: { series: ResistorSeries; tolerance: number };
+  tailCapacitanceF: number;
+  topologies: TopologyId[];
+  policy: SelectionPolicy;
+  hazards: { patientConnected: boolean; mainsReferenced: boolean };
+  monteCarlo: { samples: number; seed: number };
+}
+
+/**
+ * The facts one option's checks are decided on: the engine's figures, worst corner already
+ * taken and margins already computed, so rules only compare (rules/README in DEVELOPERS.md).
+ * Margins are "how far on the good side", negative when failing.
+ */
+export interface OptionFacts {
+  topology: TopologyId;
+  output: OutputKind;
+  isDifferentialOutput: boolean;
+  isResistorTail: boolean;
+  /** Single-ended (tail-limited) rejection at the spec frequency, worst corner, dB. */
+  cmrrAtFrequencyDb: number;
+  cmrrFrequencyHz: number;
+  cmrrRequiredDb: number;
+  cmrrMarginRequiredDb: number;
+  /** cmrrAtFrequencyDb − (cmrrRequiredDb + cmrrMarginRequiredDb). */
+  cmrrMarginDb: number;
+  worstCmrrCorner: string;
+  /** Differential output only (null otherwise): mismatch-limited worst case at the spec frequency. */
+  cmrrDifferentialWorstCaseDb: number | null;
+  /** cmrrDifferentialWorstCaseDb − cmrrRequiredDb (null when single-ended). */
+  cmrrDifferentialWorstCaseMarginDb: number | null;
+  /** Monte Carlo yield against cmrrRequiredDb, per cent (null when single-ended). */
+  monteCarloYieldPercent: number | null;
+  monteCarloSamples: number;
+  requiredYieldPercent: number;
+  /** monteCarloYieldPercent − requiredYieldPercent (null when single-ended). */
+  yieldMarginPercent: number | null;
+  /** Gain at nominal conditions for the spec's output kind, magnitude, V/V. */
+  gainPredicted: number;
+  gainTarget: number;
+  gainErrorPercent: number;
+  gainTolerancePercent: number;
+  /** gainTolerancePercent − |gainErrorPercent|. */
+  gainMarginPercent: number;
+  /** Tail compliance at the lowest input common-mode voltage (worst temperature), V. */
+  icmLowMarginV: number;
+  icmLowV: number;
+  /** Pair out of saturation at the highest input common-mode voltage with the swing's negative peak, V. */
+  icmHighMarginV: number;
+  icmHighV: number;
+  /** Output swing margin at nominal input common mode: min of upward and downward room, V. */
+  swingMarginV: number;
+  swingPeakPerCollectorV: number;
+  outputSwingVpp: number;
+  /** Highest supply power over the corners, W. */
+  powerWorstW: number;
+  powerBudgetW: number;
+  powerMarginW: number;
+  /** Tail-current change over the temperature range, per cent of the nominal. */
+  tailCurrentDriftPercent: number;
+  tailCurrentDriftLimitPercent: number;
+  tailCurrentDriftMarginPercent: number;
+  temperatureMinC: number;
+  temperatureMaxC: number;
+  /** Gain change between the input common-mode extremes, per cent of nominal. */
+  gainVsCommonModePercent: number;
+  gainVsCommonModeMarginPercent: number;
+  /** Rail span |V+ − V−| and the usual safe-to-touch limit [IEC62368]. */
+  railSpanV: number;
+  hazardousVoltageLimitV: number;
+  patientConnected: boolean;
+  mainsReferenced: boolean;
+  /** Transistors saturated or cut off at any corner (names with corner), empty when none. */
+  operatingPointProblems: string[];
+  operatingPointProblemCount: number;
+  /** Tail output resistance at the spec frequency |Rout ∥ 1/(jωCt)|, ohms, and its textbook limit. */
+  tailImpedanceAtFrequencyOhm: number;
+  tailOutputResistanceOhm: number;
+  tailOutputResistanceClosedFormOhm: number;
+  tailOutputResistanceFormula: string;
+}
+
+/** A rule set as the engine sees it: a version and an evaluator (rules/ provides it). */
+export interface RuleSet {
+  version: string;
+  evaluate(facts: OptionFacts): Promise<Check[]>;
+}
