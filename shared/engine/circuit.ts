@@ -57,18 +57,21 @@ export interface StageCircuit {
   initialGuessV: Record<string, number>;
 }
 
-/** Rough VBE used only for starting guesses, V. */
+/** Rough VBE used only for starting guesses when the caller has none, V. */
 const GUESS_VBE_V = 0.65;
 
-/** Builds the stage circuit of a design: the pair, its loads and the tail element. */
-export function stageCircuit(design: Design): StageCircuit {
+/**
+ * Builds the stage circuit of a design: the pair, its loads and the tail element.
+ * `vbeGuessV` only shapes the solver's starting guess.
+ */
+export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCircuit {
   const { positiveV, negativeV } = design.supply;
   const vicmV = design.inputCommonModeV ?? 0;
   const rcOhm = design.collectorResistanceOhm;
   const mismatch = design.collectorMismatch ?? 0;
   const reOhm = design.pairEmitterResistanceOhm ?? 0;
   const pairArea2 = 1 + (design.pairSaturationCurrentMismatch ?? 0);
-  const tailNodeGuessV = vicmV - GUESS_VBE_V;
+  const tailNodeGuessV = vicmV - vbeGuessV;
   const emitterNodes = reOhm > 0 ? ['e1', 'e2'] : [TAIL_NODE, TAIL_NODE];
 
   const elements: CircuitElement[] = [
@@ -83,7 +86,7 @@ export function stageCircuit(design: Design): StageCircuit {
       { kind: 'resistor', name: 'RE2', nodes: ['e2', TAIL_NODE], resistanceOhm: reOhm, part: 'pair' },
     );
   }
-  const tail = tailElements(design.tail, { positiveV, negativeV, tailNodeGuessV, vbeGuessV: GUESS_VBE_V });
+  const tail = tailElements(design.tail, { positiveV, negativeV, tailNodeGuessV, vbeGuessV });
   elements.push(...tail.elements);
 
   const tailCapacitanceF = design.tailCapacitanceF ?? 0;

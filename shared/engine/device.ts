@@ -73,6 +73,9 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
   const isA = saturationCurrentAtA(nominalSaturationCurrentA(device), temperatureC);
   const bf = device.beta;
   const inverseVafPerV = 1 / earlyVoltageOrInfinityV(device);
+  // Local copies: module bindings are read in the innermost loop of every solve.
+  const gminS = GMIN_S;
+  const br = REVERSE_BETA;
   return {
     thermalVoltageV: vtV,
     saturationCurrentA: isA,
@@ -92,12 +95,12 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
       // Base charge with VAR = IKF = ∞: 1/qb = 1 − vbc/VAF, so the Early factor is (1 + VCB/VAF)
       const earlyFactor = 1 - vbcV * inverseVafPerV;
       return {
-        icA: (forwardA - reverseA) * earlyFactor - reverseA / REVERSE_BETA - GMIN_S * vbcV,
-        ibA: forwardA / bf + GMIN_S * vbeV + reverseA / REVERSE_BETA + GMIN_S * vbcV,
+        icA: (forwardA - reverseA) * earlyFactor - reverseA / br - gminS * vbcV,
+        ibA: forwardA / bf + gminS * vbeV + reverseA / br + gminS * vbcV,
         dIcDVbeS: dForwardS * earlyFactor,
-        dIcDVbcS: -dReverseS * earlyFactor - (forwardA - reverseA) * inverseVafPerV - dReverseS / REVERSE_BETA - GMIN_S,
-        dIbDVbeS: dForwardS / bf + GMIN_S,
-        dIbDVbcS: dReverseS / REVERSE_BETA + GMIN_S,
+        dIcDVbcS: -dReverseS * earlyFactor - (forwardA - reverseA) * inverseVafPerV - dReverseS / br - gminS,
+        dIbDVbeS: dForwardS / bf + gminS,
+        dIbDVbcS: dReverseS / br + gminS,
       };
     },
   };

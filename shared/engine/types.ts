@@ -93,14 +93,14 @@ export interface AnalyzeResult {
   powerW: number;
   warnings: string[];
   /** Added: the textbook limit of the tail's output resistance and its formula. */
-  tailOutputResistanceClosedForm: { valueOhm: number; formula: string };
+  tailOutputResistanceClosedForm: { valueOhm: number | null; formula: string };
   /** Added: every transistor's operating point. */
   transistors: TransistorOperatingPoint[];
   /** Added: Q2's collector voltage, volts. */
   collector2VoltageV: number;
   /** Added: current drawn by reference branches (mirror inputs), amperes. */
   referenceCurrentA: number;
-  /** Added: smallest VCE − VCE(sat) over the tail's transistors (V(t) − V− for a resistor), volts. */
+  /** Added: VCE − VCE(sat) of the tail's output transistor (collector at t); V(t) − V− for a resistor, volts. */
   tailComplianceMarginV: number;
   /** Added: Q1/Q2 smallest VCE − VCE(sat), volts. */
   pairSaturationMarginV: number;
@@ -212,7 +212,7 @@ export interface OptionFacts {
   /** Tail output resistance at the spec frequency |Rout ∥ 1/(jωCt)|, ohms, and its textbook limit. */
   tailImpedanceAtFrequencyOhm: number;
   tailOutputResistanceOhm: number;
-  tailOutputResistanceClosedFormOhm: number;
+  tailOutputResistanceClosedFormOhm: number | null;
   tailOutputResistanceFormula: string;
 }
 

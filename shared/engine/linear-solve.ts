@@ -1,0 +1,75 @@
+/**
+ * Dense LU factorisation with partial pivoting for the small node systems of one stage
+ * (a dozen nodes at most). Row-major Float64Array matrices of size n×n.
+ */
+
+/** Threshold below which a pivot counts as zero: the node system is singular. */
+const SINGULAR_PIVOT = 1e-300;
+
+export interface LuFactors {
+  n: number;
+  lu: Float64Array;
+  pivot: Int32Array;
+}
+
+/**
+ * Factorises `matrix` (n×n, row-major), in place when `inPlace` (the caller's matrix is then
+ * overwritten), else a copy. Throws when the system is singular.
+ */
+export function luFactor(matrix: Float64Array, n: number, inPlace = false): LuFactors {
+  const lu = inPlace ? matrix : Float64Array.from(matrix);
+  const pivot = new Int32Array(n);
+  for (let k = 0; k < n; k += 1) {
+    let best = k;
+    let bestAbs = Math.abs(lu[k * n + k]);
+    for (let r = k + 1; r < n; r += 1) {
+      const v = Math.abs(lu[r * n + k]);
+      if (v > bestAbs) {
+        best = r;
+        bestAbs = v;
+      }
+    }
+    if (!(bestAbs > SINGULAR_PIVOT)) throw new Error('singular node system');
+    pivot[k] = best;
+    if (best !== k) {
+      for (let c = 0; c < n; c += 1) {
+        const tmp = lu[k * n + c];
+        lu[k * n + c] = lu[best * n + c];
+        lu[best * n + c] = tmp;
+      }
+    }
+    const diag = lu[k * n + k];
+    for (let r = k + 1; r < n; r += 1) {
+      const factor = lu[r * n + k] / diag;
+      lu[r * n + k] = factor;
+      if (factor !== 0) {
+        for (let c = k + 1; c < n; c += 1) lu[r * n + c] -= factor * lu[k * n + c];
+      }
+    }
+  }
+  return { n, lu, pivot };
+}
+
+/** Solves A·x = b with the factors of A; returns a new vector. */
+export function luSolve({ n, lu, pivot }: LuFactors, rhs: Float64Array): Float64Array {
+  const x = Float64Array.from(rhs);
+  for (let k = 0; k < n; k += 1) {
+    const p = pivot[k];
+    if (p !== k) {
+      const tmp = x[k];
+      x[k] = x[p];
+      x[p] = tmp;
+    }
+  }
+  for (let r = 1; r < n; r += 1) {
+    let sum = x[r];
+    for (let c = 0; c < r; c += 1) sum -= lu[r * n + c] * x[c];
+    x[r] = sum;
+  }
+  for (let r = n - 1; r >= 0; r -= 1) {
+    let sum = x[r];
+    for (let c = r + 1; c < n; c += 1) sum -= lu[r * n + c] * x[c];
+    x[r] = sum / lu[r * n + r];
+  }
+  return x;
+}

@@ -1,0 +1,250 @@
+/**
+ * The product's one SPICE netlist writer (SPICE3 syntax, as ngspice reads it), and a small reader
+ * of element lines. The netlist is built from `stageCircuit(design)`, so the simulated circuit is
+ * the predicted one by construction. Verification jobs, `.cir` export and the reference tests
+ * all go through `spiceNetlist`: to get another analysis, call it with other options — never
+ * edit a netlist's text with string replaces (".options" contains ".op").
+ */
+import type { Design } from './types';
+import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
+import type { CircuitElement } from './circuit';
+import { earlyVoltageOrInfinityV, nominalSaturationCurrentA } from './device';
+import { NOMINAL_TEMPERATURE_C } from './constants';
+
+/** The `.model` name every transistor of the stage uses. */
+export const SPICE_MODEL_NAME = 'QNPN';
+/** Supply sources: `i(vp)`, `i(vn)` in ngspice's output. */
+export const SUPPLY_SOURCES = { positive: 'VP', negative: 'VN' } as const;
+/** Input sources on in1 and in2: `i(vin1)`, `i(vin2)`. */
+export const INPUT_SOURCES = ['VIN1', 'VIN2'] as const;
+/** The test source holding the tail node in an `ac-tail` netlist: Rout = 1/|i(vtail)|. */
+export const TAIL_TEST_SOURCE = 'VTAIL';
+
+/** A logarithmic AC sweep, `.ac dec pointsPerDecade startHz stopHz`. */
+export interface AcSweep {
+  startHz: number;
+  stopHz: number;
+  pointsPerDecade: number;
+}
+
+/**
+ * Which single analysis the netlist runs (ngspice returns only the first plot of a batch run,
+ * so a netlist carries exactly one analysis card):
+ * - `op`: DC operating point.
+ * - `ac-differential`: in1 AC 0.5 ∠0°, in2 AC 0.5 ∠180°, so v(in1 − in2) = 1 (contract drive).
+ * - `ac-common-mode`: in1 and in2 both AC 1 ∠0°, so v_cm = 1.
+ * - `ac-tail`: the tail element alone (part 'tail'), its node t held by an ideal source at DC
+ *   `tailNodeV` (t's operating-point voltage) and AC 1, so Rout = 1/|i(vtail)|.
+ */
+export type NetlistOptions =
+  | { analysis: 'op' }
+  | ({ analysis: 'ac-differential' } & AcSweep)
+  | ({ analysis: 'ac-common-mode' } & AcSweep)
+  | ({ analysis: 'ac-tail'; tailNodeV: number } & AcSweep);
+
+export type NetlistAnalysis = NetlistOptions['analysis'];
+
+/** Shortest text that reads back as the same double (JavaScript's round-trip form, e.g. 1e-14). */
+function spiceNumber(value: number): string {
+  if (!Number.isFinite(value)) throw new RangeError(`netlist value must be finite, got ${value}`);
+  return String(value);
+}
+
+/** An element's SPICE name: its circuit name, prefixed with the SPICE letter if it lacks it. */
+function elementName(letter: string, name: string): string {
+  return name.toUpperCase().startsWith(letter) ? name : `${letter}${name}`;
+}
+
+function elementLine(element: CircuitElement): string {
+  switch (element.kind) {
+    case 'resistor':
+      return `${elementName('R', element.name)} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.resistanceOhm)}`;
+    case 'capacitor':
+      return `${elementName('C', element.name)} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.capacitanceF)}`;
+    case 'npn': {
+      const area = element.area !== 1 ? ` area=${spiceNumber(element.area)}` : '';
+      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${SPICE_MODEL_NAME}${area}`;
+    }
+  }
+}
+
+/** `.model` card: IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE]. */
+function modelCard(design: Design): string {
+  const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(design.device.beta)}`];
+  const vafV = earlyVoltageOrInfinityV(design.device);
+  if (Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
+  return `.model ${SPICE_MODEL_NAME} NPN (${parameters.join(' ')})`;
+}
+
+function dcSource(name: string, node: string, dcV: number, ac = ''): string {
+  return `${name} ${node} ${GROUND} DC ${spiceNumber(dcV)}${ac}`;
+}
+
+function analysisCard(options: NetlistOptions): string {
+  if (options.analysis === 'op') return '.op';
+  const { startHz, stopHz, pointsPerDecade } = options;
+  if (!(startHz > 0 && stopHz >= startHz && Number.isInteger(pointsPerDecade) && pointsPerDecade >= 1)) {
+    throw new RangeError(`AC sweep needs 0 < startHz <= stopHz and an integer pointsPerDecade >= 1`);
+  }
+  return `.ac dec ${pointsPerDecade} ${spiceNumber(startHz)} ${spiceNumber(stopHz)}`;
+}
+
+/** Input-drive lines for the analysis: in1/in2 at the common-mode DC voltage, or the tail test source. */
+function inputDriveLines(options: NetlistOptions, commonModeV: number): string[] {
+  const [in1, in2] = INPUT_NODES;
+  const [vin1, vin2] = INPUT_SOURCES;
+  switch (options.analysis) {
+    case 'op':
+      return [dcSource(vin1, in1, commonModeV), dcSource(vin2, in2, commonModeV)];
+    case 'ac-differential':
+      return [
+        '* v(in1) - v(in2) = 1, split symmetrically',
+        dcSource(vin1, in1, commonModeV, ' AC 0.5 0'),
+        dcSource(vin2, in2, commonModeV, ' AC 0.5 180'),
+      ];
+    case 'ac-common-mode':
+      return ['* both bases driven together, v_cm = 1', dcSource(vin1, in1, commonModeV, ' AC 1 0'), dcSource(vin2, in2, commonModeV, ' AC 1 0')];
+    case 'ac-tail':
+      return [
+        '* no pair: the tail node is held at its operating-point voltage; Rout = 1/|i(vtail)|',
+        dcSource(TAIL_TEST_SOURCE, TAIL_NODE, options.tailNodeV, ' AC 1 0'),
+      ];
+  }
+}
+
+/**
+ * SPICE3 netlist of a design for one analysis. Sections: title, supplies (VP on vp, VN on vn),
+ * input drive, pair and loads, tail element, one `.model` card, `.options temp tnom`, the
+ * analysis card, `.end`. Transistor area factors are written only when ≠ 1.
+ */
+export function spiceNetlist(design: Design, options: NetlistOptions): string {
+  const circuit = stageCircuit(design);
+  const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
+  const includePair = options.analysis !== 'ac-tail';
+  const pairLines = circuit.elements.filter((element) => element.part === 'pair').map(elementLine);
+  const tailLines = circuit.elements.filter((element) => element.part === 'tail').map(elementLine);
+  const lines = [
+    `Longtail differential pair, ${design.tail.topology} tail (${options.analysis})`,
+    '* --- supplies ---',
+    dcSource(SUPPLY_SOURCES.positive, RAIL_NODES.positive, circuit.fixedNodesV[RAIL_NODES.positive]),
+    dcSource(SUPPLY_SOURCES.negative, RAIL_NODES.negative, circuit.fixedNodesV[RAIL_NODES.negative]),
+    '* --- input drive ---',
+    ...inputDriveLines(options, circuit.fixedNodesV[INPUT_NODES[0]]),
+    '* --- pair and loads ---',
+    ...(includePair ? pairLines : ['* (left out: the tail element is analysed alone)']),
+    `* --- tail element (${design.tail.topology}) ---`,
+    ...tailLines,
+    '* --- device model and conditions ---',
+    modelCard(design),
+    `.options temp=${spiceNumber(temperatureC)} tnom=${spiceNumber(NOMINAL_TEMPERATURE_C)}`,
+    '* --- analysis ---',
+    analysisCard(options),
+    '.end',
+  ];
+  return `${lines.join('\n')}\n`;
+}
+
+/** An element line read back from a netlist. Names and nodes as written (SPICE is case-insensitive). */
+export type ParsedElement =
+  | { kind: 'R'; name: string; nodes: [string, string]; valueOhm: number }
+  | { kind: 'C'; name: string; nodes: [string, string]; valueF: number }
+  | { kind: 'V'; name: string; nodes: [string, string]; dcV: number; acMagnitude: number; acPhaseDeg: number }
+  | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; model: string; area: number };
+
+/** SPICE scale suffixes, longest first; case-insensitive; `m` is milli, `meg` mega [SPICE]. */
+const SPICE_SUFFIXES: ReadonlyArray<[string, number]> = [
+  ['meg', 1e6],
+  ['mil', 25.4e-6],
+  ['f', 1e-15],
+  ['p', 1e-12],
+  ['n', 1e-9],
+  ['u', 1e-6],
+  ['m', 1e-3],
+  ['k', 1e3],
+  ['g', 1e9],
+  ['t', 1e12],
+];
+
+/** A SPICE number with an optional scale suffix and ignored trailing letters ("10uF" → 1e-5). */
+export function parseSpiceNumber(text: string): number {
+  const match = /^([+-]?(?:\d+\.?\d*|\.\d+)(?:e[+-]?\d+)?)([a-z]*)$/i.exec(text.trim());
+  if (!match) throw new SyntaxError(`not a SPICE number: "${text}"`);
+  const letters = match[2].toLowerCase();
+  const suffix = SPICE_SUFFIXES.find(([name]) => letters.startsWith(name));
+  return Number(match[1]) * (suffix ? suffix[1] : 1);
+}
+
+/** Logical lines: comments dropped (`*` lines, `;` inline), `+` continuations joined, title skipped. */
+function logicalLines(text: string): string[] {
+  const lines: string[] = [];
+  text.split(/\r?\n/).forEach((raw, index) => {
+    if (index === 0) return; // the title line
+    const line = raw.replace(/;.*$/, '').trim();
+    if (line === '' || line.startsWith('*')) return;
+    if (line.startsWith('+') && lines.length > 0) lines[lines.length - 1] += ` ${line.slice(1).trim()}`;
+    else lines.push(line);
+  });
+  return lines;
+}
+
+const NUMBER_START = /^[-+.\d]/;
+
+function parseVoltageSource(name: string, tokens: string[]): ParsedElement {
+  const nodes: [string, string] = [tokens[1], tokens[2]];
+  const rest = tokens.slice(3);
+  const numberAt = (index: number): number | undefined =>
+    rest[index] !== undefined && NUMBER_START.test(rest[index]) ? parseSpiceNumber(rest[index]) : undefined;
+  let dcV = numberAt(0) ?? 0;
+  let acMagnitude = 0;
+  let acPhaseDeg = 0;
+  rest.forEach((token, index) => {
+    const word = token.toLowerCase();
+    if (word === 'dc') dcV = numberAt(index + 1) ?? 0;
+    if (word === 'ac') {
+      acMagnitude = numberAt(index + 1) ?? 1;
+      acPhaseDeg = numberAt(index + 1) === undefined ? 0 : (numberAt(index + 2) ?? 0);
+    }
+  });
+  return { kind: 'V', name, nodes, dcV, acMagnitude, acPhaseDeg };
+}
+
+function parseTransistor(name: string, tokens: string[]): ParsedElement {
+  const [, collector, base, emitter, model, ...rest] = tokens;
+  let area = 1;
+  for (const token of rest) {
+    const keyed = /^area=(.+)$/i.exec(token);
+    if (keyed) area = parseSpiceNumber(keyed[1]);
+    else if (NUMBER_START.test(token)) area = parseSpiceNumber(token);
+  }
+  return { kind: 'Q', name, collector, base, emitter, model, area };
+}
+
+/**
+ * Reads the R, C, V and Q element lines of a netlist (other lines and dot cards are skipped).
+ * Handles comments, `;` inline comments, `+` continuations and scale suffixes. A Q line is read
+ * as `Qname collector base emitter model [area | area=value]` (no substrate node).
+ */
+export function parseNetlistElements(text: string): ParsedElement[] {
+  const elements: ParsedElement[] = [];
+  for (const line of logicalLines(text)) {
+    const tokens = line.split(/\s+/);
+    const name = tokens[0];
+    switch (name[0].toUpperCase()) {
+      case 'R':
+        elements.push({ kind: 'R', name, nodes: [tokens[1], tokens[2]], valueOhm: parseSpiceNumber(tokens[3]) });
+        break;
+      case 'C':
+        elements.push({ kind: 'C', name, nodes: [tokens[1], tokens[2]], valueF: parseSpiceNumber(tokens[3]) });
+        break;
+      case 'V':
+        elements.push(parseVoltageSource(name, tokens));
+        break;
+      case 'Q':
+        elements.push(parseTransistor(name, tokens));
+        break;
+      default:
+        break;
+    }
+  }
+  return elements;
+}

@@ -1,0 +1,170 @@
+/**
+ * Nodal analysis of a stage circuit: index the free nodes, stamp resistors and transistors
+ * (linearised at junction voltages) into the node conductance matrix. Shared by the DC
+ * operating-point solve (Newton) and the small-signal solve (the Jacobian at the solution).
+ */
+import type { StageCircuit } from './circuit';
+import type { BjtEval, DeviceModel } from './device';
+
+/** A node reference: index ≥ 0 is a free node, index < 0 is fixed node −index − 1. */
+export type NodeRef = number;
+
+export interface IndexedResistor {
+  name: string;
+  a: NodeRef;
+  b: NodeRef;
+  conductanceS: number;
+  tail: boolean;
+}
+
+export interface IndexedTransistor {
+  name: string;
+  c: NodeRef;
+  b: NodeRef;
+  e: NodeRef;
+  area: number;
+  tail: boolean;
+}
+
+export interface IndexedCircuit {
+  freeNodes: string[];
+  fixedNodes: string[];
+  fixedV: Float64Array;
+  resistors: IndexedResistor[];
+  transistors: IndexedTransistor[];
+  nodeRef(name: string): NodeRef;
+}
+
+/** Indexes the circuit's nodes: fixed ones from `fixedNodesV`, every other node is free. */
+export function indexCircuit(circuit: StageCircuit): IndexedCircuit {
+  const fixedNodes = Object.keys(circuit.fixedNodesV);
+  const fixedV = Float64Array.from(fixedNodes.map((n) => circuit.fixedNodesV[n]));
+  const freeNodes: string[] = [];
+  const refs = new Map<string, NodeRef>();
+  fixedNodes.forEach((n, i) => refs.set(n, -i - 1));
+  const ref = (name: string): NodeRef => {
+    let r = refs.get(name);
+    if (r === undefined) {
+      r = freeNodes.length;
+      freeNodes.push(name);
+      refs.set(name, r);
+    }
+    return r;
+  };
+  const resistors: IndexedResistor[] = [];
+  const transistors: IndexedTransistor[] = [];
+  for (const el of circuit.elements) {
+    if (el.kind === 'resistor') {
+      resistors.push({ name: el.name, a: ref(el.nodes[0]), b: ref(el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
+    } else if (el.kind === 'npn') {
+      transistors.push({ name: el.name, c: ref(el.collector), b: ref(el.base), e: ref(el.emitter), area: el.area, tail: el.part === 'tail' });
+    } else {
+      ref(el.nodes[0]);
+      ref(el.nodes[1]);
+    }
+  }
+  return {
+    freeNodes,
+    fixedNodes,
+    fixedV,
+    resistors,
+    transistors,
+    nodeRef(name) {
+      const r = refs.get(name);
+      if (r === undefined) throw new Error(`no node ${name}`);
+      return r;
+    },
+  };
+}
+
+/** Voltage of a node given the free-node vector. */
+export function nodeVoltage(ic: IndexedCircuit, v: Float64Array, node: NodeRef): number {
+  return node >= 0 ? v[node] : ic.fixedV[-node - 1];
+}
+
+/**
+ * KCL equations Σ (currents leaving a free node) = 0 in linear form J·v = rhs over the free
+ * nodes; fixed-node terms move to the right-hand side, and their coefficients are kept in
+ * `fixedColumns` (row-major n × fixed) for small-signal drives. Buffers are reused: `resetStamp`.
+ */
+export interface NodeStamp {
+  n: number;
+  nFixed: number;
+  matrix: Float64Array;
+  rhs: Float64Array;
+  fixedColumns: Float64Array;
+  fixedV: Float64Array;
+}
+
+export function createStamp(ic: IndexedCircuit): NodeStamp {
+  const n = ic.freeNodes.length;
+  const nFixed = ic.fixedNodes.length;
+  return { n, nFixed, matrix: new Float64Array(n * n), rhs: new Float64Array(n), fixedColumns: new Float64Array(n * nFixed), fixedV: ic.fixedV };
+}
+
+export function resetStamp(stamp: NodeStamp): void {
+  stamp.matrix.fill(0);
+  stamp.rhs.fill(0);
+  stamp.fixedColumns.fill(0);
+}
+
+/** Adds coefficient `g` of the voltage at `col` to the current leaving node `row`. */
+function addCoefficient(stamp: NodeStamp, row: NodeRef, col: NodeRef, g: number): void {
+  if (row < 0) return;
+  if (col >= 0) stamp.matrix[row * stamp.n + col] += g;
+  else {
+    const k = -col - 1;
+    stamp.fixedColumns[row * stamp.nFixed + k] += g;
+    stamp.rhs[row] -= g * stamp.fixedV[k];
+  }
+}
+
+/** Stamps a conductance between two nodes. */
+export function stampConductance(stamp: NodeStamp, a: NodeRef, b: NodeRef, g: number): void {
+  addCoefficient(stamp, a, a, g);
+  addCoefficient(stamp, a, b, -g);
+  addCoefficient(stamp, b, b, g);
+  addCoefficient(stamp, b, a, -g);
+}
+
+/**
+ * Stamps a transistor linearised at junction voltages (vbe0, vbc0) with evaluation `ev`:
+ * ic = ic0 + A·(vbe − vbe0) + B·(vbc − vbc0), ib likewise, ie = −ic − ib.
+ */
+export function stampTransistor(stamp: NodeStamp, q: IndexedTransistor, ev: BjtEval, vbe0V: number, vbc0V: number): void {
+  const a = ev.dIcDVbeS;
+  const b = ev.dIcDVbcS;
+  const c = ev.dIbDVbeS;
+  const d = ev.dIbDVbcS;
+  const icEqA = ev.icA - a * vbe0V - b * vbc0V;
+  const ibEqA = ev.ibA - c * vbe0V - d * vbc0V;
+  // collector row: ic = A·(vb − ve) + B·(vb − vc) + icEq
+  addCoefficient(stamp, q.c, q.b, a + b);
+  addCoefficient(stamp, q.c, q.e, -a);
+  addCoefficient(stamp, q.c, q.c, -b);
+  if (q.c >= 0) stamp.rhs[q.c] -= icEqA;
+  // base row
+  addCoefficient(stamp, q.b, q.b, c + d);
+  addCoefficient(stamp, q.b, q.e, -c);
+  addCoefficient(stamp, q.b, q.c, -d);
+  if (q.b >= 0) stamp.rhs[q.b] -= ibEqA;
+  // emitter row: ie = −(ic + ib)
+  addCoefficient(stamp, q.e, q.b, -(a + b + c + d));
+  addCoefficient(stamp, q.e, q.e, a + c);
+  addCoefficient(stamp, q.e, q.c, b + d);
+  if (q.e >= 0) stamp.rhs[q.e] += icEqA + ibEqA;
+}
+
+/** Junction voltages of a transistor at a node-voltage vector. */
+export function junctionVoltages(ic: IndexedCircuit, v: Float64Array, q: IndexedTransistor): { vbeV: number; vbcV: number } {
+  const vb = nodeVoltage(ic, v, q.b);
+  return { vbeV: vb - nodeVoltage(ic, v, q.e), vbcV: vb - nodeVoltage(ic, v, q.c) };
+}
+
+/** Evaluates every transistor at its junction voltages. */
+export function evaluateTransistors(ic: IndexedCircuit, model: DeviceModel, v: Float64Array): BjtEval[] {
+  return ic.transistors.map((q) => {
+    const { vbeV, vbcV } = junctionVoltages(ic, v, q);
+    return model.evaluate(vbeV, vbcV, q.area);
+  });
+}
