@@ -75,12 +75,12 @@ function transistorOperatingPoints(ic: IndexedCircuit, op: OperatingPoint, vceSa
 export function transfersAt(solution: Pick<StageSolution, 'stage' | 'design'>, frequencyHz: number): StageTransfers {
   const { stage, design } = solution;
   const omegaCtS = 2 * Math.PI * frequencyHz * (design.tailCapacitanceF ?? 0);
-  const [c1, c2] = COLLECTOR_NODES;
+  const { collector1, betweenCollectors } = stage.outputs;
   return {
-    differentialGain: transferAt(stage, stage.differential, { [c1]: 1, [c2]: -1 }, omegaCtS),
-    singleEndedGain: transferAt(stage, stage.differential, { [c1]: 1 }, omegaCtS),
-    commonModeGain: transferAt(stage, stage.commonMode, { [c1]: 1 }, omegaCtS),
-    differentialCommonModeGain: transferAt(stage, stage.commonMode, { [c1]: 1, [c2]: -1 }, omegaCtS),
+    differentialGain: transferAt(stage, stage.differential, betweenCollectors, omegaCtS),
+    singleEndedGain: transferAt(stage, stage.differential, collector1, omegaCtS),
+    commonModeGain: transferAt(stage, stage.commonMode, collector1, omegaCtS),
+    differentialCommonModeGain: transferAt(stage, stage.commonMode, betweenCollectors, omegaCtS),
   };
 }
 

@@ -36,11 +36,22 @@ export interface AcSweep {
  * - `ac-tail`: the tail element alone (part 'tail'), its node t held by an ideal source at DC
  *   `tailNodeV` (t's operating-point voltage) and AC 1, so Rout = 1/|i(vtail)|.
  */
-export type NetlistOptions =
+export type NetlistOptions = (
   | { analysis: 'op' }
   | ({ analysis: 'ac-differential' } & AcSweep)
   | ({ analysis: 'ac-common-mode' } & AcSweep)
-  | ({ analysis: 'ac-tail'; tailNodeV: number } & AcSweep);
+  | ({ analysis: 'ac-tail'; tailNodeV: number } & AcSweep)
+) &
+  NetlistSolverSettings;
+
+/**
+ * Solver settings written on the `.options` line. Omitted: ngspice's defaults (RELTOL = 1e-3),
+ * which is what an exported `.cir` should carry; verification runs may ask for a tighter one.
+ */
+export interface NetlistSolverSettings {
+  /** ngspice RELTOL, the relative convergence tolerance of the Newton iteration. */
+  relativeTolerance?: number;
+}
 
 export type NetlistAnalysis = NetlistOptions['analysis'];
 
@@ -80,6 +91,16 @@ function dcSource(name: string, node: string, dcV: number, ac = ''): string {
   return `${name} ${node} ${GROUND} DC ${spiceNumber(dcV)}${ac}`;
 }
 
+/** `.options temp tnom [reltol]`: the circuit temperature, TNOM = 27 °C [SPICE], and solver settings. */
+function optionsCard(temperatureC: number, settings: NetlistSolverSettings): string {
+  const words = [`temp=${spiceNumber(temperatureC)}`, `tnom=${spiceNumber(NOMINAL_TEMPERATURE_C)}`];
+  if (settings.relativeTolerance !== undefined) {
+    if (!(settings.relativeTolerance > 0 && settings.relativeTolerance < 1)) throw new RangeError('relativeTolerance must be in (0, 1)');
+    words.push(`reltol=${spiceNumber(settings.relativeTolerance)}`);
+  }
+  return `.options ${words.join(' ')}`;
+}
+
 function analysisCard(options: NetlistOptions): string {
   if (options.analysis === 'op') return '.op';
   const { startHz, stopHz, pointsPerDecade } = options;
@@ -114,8 +135,8 @@ function inputDriveLines(options: NetlistOptions, commonModeV: number): string[]
 
 /**
  * SPICE3 netlist of a design for one analysis. Sections: title, supplies (VP on vp, VN on vn),
- * input drive, pair and loads, tail element, one `.model` card, `.options temp tnom`, the
- * analysis card, `.end`. Transistor area factors are written only when ≠ 1.
+ * input drive, pair and loads, tail element, one `.model` card, `.options temp tnom [reltol]`,
+ * the analysis card, `.end`. Transistor area factors are written only when ≠ 1.
  */
 export function spiceNetlist(design: Design, options: NetlistOptions): string {
   const circuit = stageCircuit(design);
@@ -136,7 +157,7 @@ export function spiceNetlist(design: Design, options: NetlistOptions): string {
     ...tailLines,
     '* --- device model and conditions ---',
     modelCard(design),
-    `.options temp=${spiceNumber(temperatureC)} tnom=${spiceNumber(NOMINAL_TEMPERATURE_C)}`,
+    optionsCard(temperatureC, options),
     '* --- analysis ---',
     analysisCard(options),
     '.end',
@@ -151,27 +172,31 @@ export type ParsedElement =
   | { kind: 'V'; name: string; nodes: [string, string]; dcV: number; acMagnitude: number; acPhaseDeg: number }
   | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; model: string; area: number };
 
-/** SPICE scale suffixes, longest first; case-insensitive; `m` is milli, `meg` mega [SPICE]. */
-const SPICE_SUFFIXES: ReadonlyArray<[string, number]> = [
-  ['meg', 1e6],
-  ['mil', 25.4e-6],
-  ['f', 1e-15],
-  ['p', 1e-12],
-  ['n', 1e-9],
-  ['u', 1e-6],
-  ['m', 1e-3],
-  ['k', 1e3],
-  ['g', 1e9],
-  ['t', 1e12],
+/** SPICE scale suffixes as powers of ten, longest first; case-insensitive; `m` is milli, `meg` mega [SPICE]. */
+const SPICE_SUFFIX_EXPONENTS: ReadonlyArray<[string, number]> = [
+  ['meg', 6],
+  ['f', -15],
+  ['p', -12],
+  ['n', -9],
+  ['u', -6],
+  ['m', -3],
+  ['k', 3],
+  ['g', 9],
+  ['t', 12],
 ];
+/** `mil`: a thousandth of an inch, in metres [SPICE]. */
+const MIL_M = 25.4e-6;
 
 /** A SPICE number with an optional scale suffix and ignored trailing letters ("10uF" → 1e-5). */
 export function parseSpiceNumber(text: string): number {
-  const match = /^([+-]?(?:\d+\.?\d*|\.\d+)(?:e[+-]?\d+)?)([a-z]*)$/i.exec(text.trim());
+  const match = /^([+-]?(?:\d+\.?\d*|\.\d+))(?:e([+-]?\d+))?([a-z]*)$/i.exec(text.trim());
   if (!match) throw new SyntaxError(`not a SPICE number: "${text}"`);
-  const letters = match[2].toLowerCase();
-  const suffix = SPICE_SUFFIXES.find(([name]) => letters.startsWith(name));
-  return Number(match[1]) * (suffix ? suffix[1] : 1);
+  const [, mantissa, exponent = '0', letters] = match;
+  const lower = letters.toLowerCase();
+  if (lower.startsWith('mil')) return Number(`${mantissa}e${exponent}`) * MIL_M;
+  const suffix = SPICE_SUFFIX_EXPONENTS.find(([name]) => lower.startsWith(name));
+  // Adding exponents (not multiplying by 1e-12) keeps "22p" exactly 2.2e-11.
+  return Number(`${mantissa}e${Number(exponent) + (suffix ? suffix[1] : 0)}`);
 }
 
 /** Logical lines: comments dropped (`*` lines, `;` inline), `+` continuations joined, title skipped. */

@@ -57,7 +57,7 @@ function limitJunctionV(newV: number, oldV: number, vtV: number, criticalV: numb
 
 function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: Float64Array): { v: Float64Array; iterations: number } | null {
   const n = ic.freeNodes.length;
-  let v = Float64Array.from(start);
+  let v: Float64Array = Float64Array.from(start);
   const nq = ic.transistors.length;
   const vbeOld = new Float64Array(nq);
   const vbcOld = new Float64Array(nq);
@@ -110,7 +110,7 @@ export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel): 
   let solved = newtonSolve(ic, model, guess);
   let iterations = solved?.iterations ?? MAX_ITERATIONS;
   if (!solved) {
-    let v = guess.map((x) => x * SOURCE_STEPS[0]);
+    let v: Float64Array = guess.map((x) => x * SOURCE_STEPS[0]);
     for (const fraction of SOURCE_STEPS) {
       const step = newtonSolve(scaledCircuit(ic, fraction), model, v);
       if (!step) throw new ConvergenceError(`the operating point did not converge (source stepping stalled at ${Math.round(fraction * 100)} % of the rails)`);

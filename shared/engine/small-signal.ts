@@ -6,7 +6,7 @@
  * (Sherman–Morrison), so one factorisation gives every transfer at every frequency:
  *   H(y) = H0 − y·x[t]·z[out] / (1 + y·z[t]),  z = G⁻¹·e_t,  y = j·2π·f·Ct.
  */
-import { INPUT_NODES, TAIL_NODE } from './circuit';
+import { COLLECTOR_NODES, INPUT_NODES, TAIL_NODE } from './circuit';
 import { luFactor, luSolve } from './linear-solve';
 import { createStamp, stampConductance, stampTransistor, type IndexedCircuit, type NodeStamp } from './node-system';
 import type { OperatingPoint } from './operating-point';
@@ -29,6 +29,8 @@ export interface SmallSignalStage {
   index(node: string): number;
   /** Tail output resistance seen from t with t held at its operating point, ohms. */
   tailOutputResistanceOhm: number;
+  /** The outputs the contract names: c1 alone and c1 − c2. */
+  outputs: { collector1: OutputWeights; betweenCollectors: OutputWeights };
 }
 
 function stampJacobian(op: OperatingPoint, onlyTail: boolean): NodeStamp {
@@ -77,7 +79,10 @@ export function smallSignalStage(op: OperatingPoint): SmallSignalStage {
   const tailIndex = ic.nodeRef(TAIL_NODE);
   const unit = new Float64Array(stamper.n);
   unit[tailIndex] = 1;
+  const c1 = ic.nodeRef(COLLECTOR_NODES[0]);
+  const c2 = ic.nodeRef(COLLECTOR_NODES[1]);
   return {
+    outputs: { collector1: { nodes: [c1], weights: [1] }, betweenCollectors: { nodes: [c1, c2], weights: [1, -1] } },
     differential: driveResponse(ic, stamper, factors, 0.5, -0.5),
     commonMode: driveResponse(ic, stamper, factors, 1, 1),
     tailInjection: luSolve(factors, unit),
@@ -87,17 +92,29 @@ export function smallSignalStage(op: OperatingPoint): SmallSignalStage {
   };
 }
 
+/** An output as weights on collector-side free nodes, e.g. {c1: 1, c2: −1} for c1 − c2. */
+export interface OutputWeights {
+  nodes: number[];
+  weights: number[];
+}
+
+/** Resolves named output weights to node indexes once. */
+export function outputWeights(stage: SmallSignalStage, weights: Record<string, number>): OutputWeights {
+  const names = Object.keys(weights);
+  return { nodes: names.map((n) => stage.index(n)), weights: names.map((n) => weights[n]) };
+}
+
 /**
- * A transfer to an output (weights on free nodes, e.g. c1 − c2) from a drive response,
- * at the tail admittance y = j·ω·Ct (ωCt given as `omegaCtS`).
+ * A transfer to an output from a drive response, at the tail admittance y = j·ω·Ct
+ * (ωCt given as `omegaCtS`).
  */
-export function transferAt(stage: SmallSignalStage, response: Float64Array, weights: Record<string, number>, omegaCtS: number): Complex {
+export function transferAt(stage: SmallSignalStage, response: Float64Array, output: OutputWeights, omegaCtS: number): Complex {
   let h0 = 0;
   let zOut = 0;
-  for (const [node, w] of Object.entries(weights)) {
-    const i = stage.index(node);
-    h0 += w * response[i];
-    zOut += w * stage.tailInjection[i];
+  for (let k = 0; k < output.nodes.length; k += 1) {
+    const i = output.nodes[k];
+    h0 += output.weights[k] * response[i];
+    zOut += output.weights[k] * stage.tailInjection[i];
   }
   if (omegaCtS === 0) return { re: h0, im: 0 };
   // H = h0 − jw·p/(1 + jw·u), p = x[t]·z[out], u = z[t]

@@ -1,0 +1,78 @@
+import type { OptionFacts } from '../shared/engine/types';
+
+/** The value shape of a fact, as far as rule conditions and reason templates care. */
+export type FactKind = 'number' | 'number-or-null' | 'boolean' | 'text' | 'text-list';
+
+/** The kind a field's TypeScript type calls for (never for a type no template can print). */
+type KindOf<T> = [T] extends [boolean]
+  ? 'boolean'
+  : [T] extends [number]
+    ? 'number'
+    : [T] extends [number | null]
+      ? 'number-or-null'
+      : [T] extends [readonly string[]]
+        ? 'text-list'
+        : [T] extends [string]
+          ? 'text'
+          : never;
+
+/**
+ * Every OptionFacts field and its kind, checked against its type: adding or retyping a fact in
+ * shared/engine/types.ts fails the type check here until this table follows. The loader uses it
+ * to reject a rule that names an unknown fact or formats one the wrong way.
+ */
+export const FACT_KINDS: { readonly [K in keyof OptionFacts]-?: KindOf<OptionFacts[K]> & FactKind } = {
+  topology: 'text',
+  output: 'text',
+  isDifferentialOutput: 'boolean',
+  isResistorTail: 'boolean',
+  cmrrAtFrequencyDb: 'number',
+  cmrrFrequencyHz: 'number',
+  cmrrRequiredDb: 'number',
+  cmrrMarginRequiredDb: 'number',
+  cmrrMarginDb: 'number',
+  worstCmrrCorner: 'text',
+  cmrrDifferentialWorstCaseDb: 'number-or-null',
+  cmrrDifferentialWorstCaseMarginDb: 'number-or-null',
+  monteCarloYieldPercent: 'number-or-null',
+  monteCarloSamples: 'number',
+  requiredYieldPercent: 'number',
+  yieldMarginPercent: 'number-or-null',
+  gainPredicted: 'number',
+  gainTarget: 'number',
+  gainErrorPercent: 'number',
+  gainTolerancePercent: 'number',
+  gainMarginPercent: 'number',
+  icmLowMarginV: 'number',
+  icmLowV: 'number',
+  icmHighMarginV: 'number',
+  icmHighV: 'number',
+  swingMarginV: 'number',
+  swingPeakPerCollectorV: 'number',
+  outputSwingVpp: 'number',
+  powerWorstW: 'number',
+  powerBudgetW: 'number',
+  powerMarginW: 'number',
+  tailCurrentDriftPercent: 'number',
+  tailCurrentDriftLimitPercent: 'number',
+  tailCurrentDriftMarginPercent: 'number',
+  temperatureMinC: 'number',
+  temperatureMaxC: 'number',
+  gainVsCommonModePercent: 'number',
+  gainVsCommonModeMarginPercent: 'number',
+  railSpanV: 'number',
+  hazardousVoltageLimitV: 'number',
+  patientConnected: 'boolean',
+  mainsReferenced: 'boolean',
+  operatingPointProblems: 'text-list',
+  operatingPointProblemCount: 'number',
+  tailImpedanceAtFrequencyOhm: 'number',
+  tailOutputResistanceOhm: 'number',
+  tailOutputResistanceClosedFormOhm: 'number-or-null',
+  tailOutputResistanceFormula: 'text',
+};
+
+/** True when `name` is an OptionFacts field. */
+export function isFactName(name: string): name is keyof OptionFacts {
+  return Object.prototype.hasOwnProperty.call(FACT_KINDS, name);
+}

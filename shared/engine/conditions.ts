@@ -1,0 +1,55 @@
+/**
+ * The operating conditions a spec asks the design to hold over: nominal, the four corners of
+ * input common-mode × temperature, and sweeps for plots.
+ */
+import { NOMINAL_TEMPERATURE_C } from './constants';
+import type { Spec } from './types';
+
+export interface Condition {
+  label: string;
+  inputCommonModeV: number;
+  temperatureC: number;
+}
+
+/** Points in the temperature sweep (endpoints included). */
+export const TEMPERATURE_SWEEP_POINTS = 7;
+
+function formatVolts(v: number): string {
+  return `${v < 0 ? '−' : ''}${Math.abs(Number(v.toPrecision(4)))} V`;
+}
+
+function formatCelsius(t: number): string {
+  return `${t < 0 ? '−' : ''}${Math.abs(Number(t.toPrecision(4)))} °C`;
+}
+
+/** A readable label for a condition, e.g. "ICM −2 V, 85 °C". */
+export function conditionLabel(inputCommonModeV: number, temperatureC: number): string {
+  return `ICM ${formatVolts(inputCommonModeV)}, ${formatCelsius(temperatureC)}`;
+}
+
+function condition(inputCommonModeV: number, temperatureC: number): Condition {
+  return { label: conditionLabel(inputCommonModeV, temperatureC), inputCommonModeV, temperatureC };
+}
+
+/** Nominal: mid input common-mode range, 27 °C (SPICE's TNOM) clamped into the temperature range. */
+export function nominalCondition(spec: Spec): Condition {
+  const { min, max } = spec.temperatureC;
+  const temperatureC = Math.min(Math.max(NOMINAL_TEMPERATURE_C, min), max);
+  return condition((spec.inputCommonMode.minV + spec.inputCommonMode.maxV) / 2, temperatureC);
+}
+
+/** The four corners: input common-mode min/max × temperature min/max. */
+export function cornerConditions(spec: Spec): Condition[] {
+  const { minV, maxV } = spec.inputCommonMode;
+  const { min, max } = spec.temperatureC;
+  return [condition(minV, min), condition(minV, max), condition(maxV, min), condition(maxV, max)];
+}
+
+/** Temperatures from min to max at the nominal input common mode. */
+export function temperatureSweep(spec: Spec): Condition[] {
+  const icmV = nominalCondition(spec).inputCommonModeV;
+  const { min, max } = spec.temperatureC;
+  return Array.from({ length: TEMPERATURE_SWEEP_POINTS }, (_, i) =>
+    condition(icmV, min + ((max - min) * i) / (TEMPERATURE_SWEEP_POINTS - 1)),
+  );
+}

@@ -1,0 +1,185 @@
+/**
+ * Evaluating one sized option over the spec's conditions: nominal, four corners, a temperature
+ * sweep, the mismatch worst case and Monte Carlo for differential outputs, and the facts its
+ * checks are decided on (worst corner taken, margins computed; rules only compare).
+ */
+import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
+import { solveStage, singleEndedCmrrDbAt, type StageSolution } from './analyze';
+import { mismatchSensitivity, mismatchStages, monteCarloCmrr, worstCaseMismatchCmrrDb, type MonteCarloResult } from './mismatch';
+import { designAt, outputGain } from './sizing';
+import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
+
+/** Usual safe-to-touch limit for DC rails [IEC62368]. */
+export const HAZARDOUS_VOLTAGE_LIMIT_V = 60;
+/** Points per decade and range of the rejection-versus-frequency curve. */
+const CURVE_POINTS_PER_DECADE = 4;
+const CURVE_START_HZ = 1;
+const CURVE_STOP_HZ = 1e9;
+
+export interface ConditionFigures {
+  label: string;
+  inputCommonModeV: number;
+  temperatureC: number;
+  tailCurrentA: number;
+  gain: number;
+  cmrrAtFrequencyDb: number;
+  cmrrDifferentialWorstCaseDb: number | null;
+  powerW: number;
+  tailComplianceMarginV: number;
+  pairSaturationMarginV: number;
+  warnings: string[];
+}
+
+export interface OptionCurves {
+  /** Rejection against frequency at nominal conditions (single-ended; differential worst case when that output is used). */
+  cmrrVsFrequency: { frequencyHz: number; singleEndedDb: number; differentialWorstCaseDb: number | null }[];
+  /** Tail current and gain against temperature at the nominal input common mode. */
+  temperatureSweep: { temperatureC: number; tailCurrentA: number; gain: number }[];
+}
+
+export interface OptionEvaluation {
+  predicted: AnalyzeResult;
+  facts: OptionFacts;
+  corners: ConditionFigures[];
+  curves: OptionCurves;
+  monteCarlo: MonteCarloResult | null;
+}
+
+function at(spec: Spec, design: Design, condition: Condition): StageSolution {
+  return solveStage(designAt(spec, condition, design.tail, design.collectorResistanceOhm));
+}
+
+function frequencyGrid(): number[] {
+  const decades = Math.log10(CURVE_STOP_HZ / CURVE_START_HZ);
+  return Array.from({ length: decades * CURVE_POINTS_PER_DECADE + 1 }, (_, i) => CURVE_START_HZ * 10 ** (i / CURVE_POINTS_PER_DECADE));
+}
+
+/** Evaluates a sized design against its spec. */
+export function evaluateOption(spec: Spec, design: Design): OptionEvaluation {
+  const f = spec.cmrr.atFrequencyHz;
+  const differentialOutput = spec.gain.output === 'differential';
+  const tolerance = spec.resistors.tolerance;
+  const sigmaV = spec.device.vbeMismatchSigmaV;
+  const nominal = nominalCondition(spec);
+  const nominalSolution = at(spec, design, nominal);
+  const predicted = nominalSolution.result;
+
+  const corners = cornerConditions(spec).map((condition) => {
+    const solution = at(spec, design, condition);
+    const sensitivity = differentialOutput ? mismatchSensitivity(mismatchStages(solution.design), f) : null;
+    const figures: ConditionFigures = {
+      label: condition.label,
+      inputCommonModeV: condition.inputCommonModeV,
+      temperatureC: condition.temperatureC,
+      tailCurrentA: solution.result.tailCurrentA,
+      gain: outputGain(spec, solution.result),
+      cmrrAtFrequencyDb: singleEndedCmrrDbAt(solution, f),
+      cmrrDifferentialWorstCaseDb: sensitivity ? worstCaseMismatchCmrrDb(sensitivity, tolerance, sigmaV) : null,
+      powerW: solution.result.powerW,
+      tailComplianceMarginV: solution.result.tailComplianceMarginV,
+      pairSaturationMarginV: solution.result.pairSaturationMarginV,
+      warnings: solution.result.warnings,
+    };
+    return { figures, sensitivity };
+  });
+  const cornerFigures = corners.map((c) => c.figures);
+  const worstSingle = cornerFigures.reduce((a, b) => (b.cmrrAtFrequencyDb < a.cmrrAtFrequencyDb ? b : a));
+
+  let monteCarlo: MonteCarloResult | null = null;
+  let worstDifferential: number | null = null;
+  if (differentialOutput) {
+    const worst = corners.reduce((a, b) => (b.figures.cmrrDifferentialWorstCaseDb! < a.figures.cmrrDifferentialWorstCaseDb! ? b : a));
+    worstDifferential = worst.figures.cmrrDifferentialWorstCaseDb;
+    monteCarlo = monteCarloCmrr(worst.sensitivity!, tolerance, sigmaV, spec.cmrr.minDb, spec.monteCarlo.samples, spec.monteCarlo.seed);
+  }
+
+  const sweepConditions = temperatureSweep(spec);
+  const sweep = sweepConditions.map((condition) => at(spec, design, condition).result);
+  const sweepCurrents = sweep.map((r) => r.tailCurrentA);
+  const driftPercent = ((Math.max(...sweepCurrents) - Math.min(...sweepCurrents)) / predicted.tailCurrentA) * 100;
+  const icmLow = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.minV, label: '' }).result;
+  const icmHigh = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.maxV, label: '' }).result;
+  const gainNominal = outputGain(spec, predicted);
+  const gainVsIcmPercent = (Math.abs(outputGain(spec, icmHigh) - outputGain(spec, icmLow)) / gainNominal) * 100;
+  const gainErrorPercent = ((gainNominal - spec.gain.target) / spec.gain.target) * 100;
+
+  // Each collector swings the whole output swing for a single-ended output, half of it for a differential one.
+  const swingPeakV = spec.outputSwingVpp / (differentialOutput ? 4 : 2);
+  const lowCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.minV);
+  const highCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.maxV);
+  const upRoomV = spec.supply.positiveV - Math.max(predicted.collectorVoltageV, predicted.collector2VoltageV);
+  const swingMarginV = Math.min(upRoomV - swingPeakV, predicted.pairSaturationMarginV - swingPeakV);
+  const powerWorstW = Math.max(predicted.powerW, ...cornerFigures.map((c) => c.powerW));
+  const problems = [
+    ...predicted.warnings.map((w) => `${nominal.label}: ${w}`),
+    ...cornerFigures.flatMap((c) => c.warnings.map((w) => `${c.label}: ${w}`)),
+  ];
+  const omegaCt = 2 * Math.PI * f * spec.tailCapacitanceF;
+  const rout = predicted.tailOutputResistanceOhm;
+  const driftLimit = spec.gain.tolerancePercent;
+  const cmrrRequired = spec.cmrr.minDb;
+  const yieldPercent = monteCarlo ? monteCarlo.yieldPercent : null;
+
+  const facts: OptionFacts = {
+    topology: design.tail.topology,
+    output: spec.gain.output,
+    isDifferentialOutput: differentialOutput,
+    isResistorTail: design.tail.topology === 'resistor',
+    cmrrAtFrequencyDb: worstSingle.cmrrAtFrequencyDb,
+    cmrrFrequencyHz: f,
+    cmrrRequiredDb: cmrrRequired,
+    cmrrMarginRequiredDb: spec.cmrr.marginDb,
+    cmrrMarginDb: worstSingle.cmrrAtFrequencyDb - (cmrrRequired + spec.cmrr.marginDb),
+    worstCmrrCorner: worstSingle.label,
+    cmrrDifferentialWorstCaseDb: worstDifferential,
+    cmrrDifferentialWorstCaseMarginDb: worstDifferential === null ? null : worstDifferential - cmrrRequired,
+    monteCarloYieldPercent: yieldPercent,
+    monteCarloSamples: spec.monteCarlo.samples,
+    requiredYieldPercent: spec.cmrr.minYieldPercent,
+    yieldMarginPercent: yieldPercent === null ? null : yieldPercent - spec.cmrr.minYieldPercent,
+    gainPredicted: gainNominal,
+    gainTarget: spec.gain.target,
+    gainErrorPercent,
+    gainTolerancePercent: spec.gain.tolerancePercent,
+    gainMarginPercent: spec.gain.tolerancePercent - Math.abs(gainErrorPercent),
+    icmLowMarginV: Math.min(...lowCorners.map((c) => c.tailComplianceMarginV)),
+    icmLowV: spec.inputCommonMode.minV,
+    icmHighMarginV: Math.min(...highCorners.map((c) => c.pairSaturationMarginV)) - swingPeakV,
+    icmHighV: spec.inputCommonMode.maxV,
+    swingMarginV,
+    swingPeakPerCollectorV: swingPeakV,
+    outputSwingVpp: spec.outputSwingVpp,
+    powerWorstW,
+    powerBudgetW: spec.powerBudgetW,
+    powerMarginW: spec.powerBudgetW - powerWorstW,
+    tailCurrentDriftPercent: driftPercent,
+    tailCurrentDriftLimitPercent: driftLimit,
+    tailCurrentDriftMarginPercent: driftLimit - driftPercent,
+    temperatureMinC: spec.temperatureC.min,
+    temperatureMaxC: spec.temperatureC.max,
+    gainVsCommonModePercent: gainVsIcmPercent,
+    gainVsCommonModeMarginPercent: spec.gain.tolerancePercent - gainVsIcmPercent,
+    railSpanV: spec.supply.positiveV - spec.supply.negativeV,
+    hazardousVoltageLimitV: HAZARDOUS_VOLTAGE_LIMIT_V,
+    patientConnected: spec.hazards.patientConnected,
+    mainsReferenced: spec.hazards.mainsReferenced,
+    operatingPointProblems: problems,
+    operatingPointProblemCount: problems.length,
+    tailImpedanceAtFrequencyOhm: rout / Math.sqrt(1 + (omegaCt * rout) ** 2),
+    tailOutputResistanceOhm: rout,
+    tailOutputResistanceClosedFormOhm: predicted.tailOutputResistanceClosedForm.valueOhm,
+    tailOutputResistanceFormula: predicted.tailOutputResistanceClosedForm.formula,
+  };
+
+  const nominalMismatch = differentialOutput ? mismatchStages(nominalSolution.design) : null;
+  const curves: OptionCurves = {
+    cmrrVsFrequency: frequencyGrid().map((frequencyHz) => ({
+      frequencyHz,
+      singleEndedDb: singleEndedCmrrDbAt(nominalSolution, frequencyHz),
+      differentialWorstCaseDb: nominalMismatch ? worstCaseMismatchCmrrDb(mismatchSensitivity(nominalMismatch, frequencyHz), tolerance, sigmaV) : null,
+    })),
+    temperatureSweep: sweep.map((r, i) => ({ temperatureC: sweepConditions[i].temperatureC, tailCurrentA: r.tailCurrentA, gain: outputGain(spec, r) })),
+  };
+  return { predicted, facts, corners: cornerFigures, curves, monteCarlo };
+}
+

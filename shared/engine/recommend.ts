@@ -1,0 +1,124 @@
+/**
+ * `recommend`: a requirement spec in, every tail option of the spec's catalogue out, sized on
+ * preferred values, evaluated over the spec's conditions, checked by the rule set, ranked,
+ * with the policy's recommendation (ENGINE-CONTRACT.md). The rule set is passed in (rules/
+ * loads it), so this module stays free of I/O.
+ */
+import { nominalCondition } from './conditions';
+import { evaluateOption, type ConditionFigures, type OptionCurves } from './option-evaluation';
+import type { MonteCarloResult } from './mismatch';
+import { rankOptions, recommendedTopology } from './ranking';
+import { sizeTopology } from './sizing';
+import type { AnalyzeResult, Check, Design, OptionFacts, RuleSet, SelectionPolicy, Spec, TopologyId } from './types';
+import { ENGINE_VERSION, ESTIMATE_NOTICE } from './version';
+
+export interface RecommendOption {
+  topology: TopologyId;
+  rank: number;
+  passes: boolean;
+  /** Fully sized analyze input at nominal conditions (null only when sizing itself failed). */
+  design: Design | null;
+  /** The analyze output for that design at nominal conditions (null when it could not be solved). */
+  predicted: AnalyzeResult | null;
+  checks: Check[];
+  /** The rejection that matters for the spec's output at the spec frequency, worst corner, dB. */
+  rejectionDb: number | null;
+  figures: OptionFacts | null;
+  corners: ConditionFigures[];
+  curves: OptionCurves | null;
+  monteCarlo: MonteCarloResult | null;
+  sizingNotes: string[];
+  error?: string;
+}
+
+export interface RecommendResult {
+  engineVersion: string;
+  rulesetVersion: string;
+  policy: SelectionPolicy;
+  recommended: TopologyId | null;
+  /** One sentence on why the recommendation is what it is. */
+  summary: string;
+  /** Failed advisory checks that are cautions (hazards), repeated here so nobody misses them. */
+  cautions: string[];
+  notice: string;
+  options: RecommendOption[];
+}
+
+const CAUTION_RULES = new Set(['hazardous-voltage', 'patient-connected', 'mains-referenced']);
+
+async function optionFor(spec: Spec, topology: TopologyId, ruleSet: RuleSet): Promise<Omit<RecommendOption, 'rank'>> {
+  let design: Design | null = null;
+  let notes: string[] = [];
+  try {
+    const sized = sizeTopology(spec, topology, nominalCondition(spec));
+    design = sized.design;
+    notes = sized.notes;
+    const evaluation = evaluateOption(spec, design);
+    const checks = await ruleSet.evaluate(evaluation.facts);
+    const facts = evaluation.facts;
+    return {
+      topology,
+      passes: checks.every((c) => c.passed || c.severity !== 'blocking'),
+      design,
+      predicted: evaluation.predicted,
+      checks,
+      rejectionDb: facts.isDifferentialOutput ? facts.cmrrDifferentialWorstCaseDb : facts.cmrrAtFrequencyDb,
+      figures: facts,
+      corners: evaluation.corners,
+      curves: evaluation.curves,
+      monteCarlo: evaluation.monteCarlo,
+      sizingNotes: notes,
+    };
+  } catch (error) {
+    const message = error instanceof Error ? error.message : String(error);
+    return {
+      topology,
+      passes: false,
+      design,
+      predicted: null,
+      checks: [{ rule: 'operating-point', passed: false, severity: 'blocking', reason: `This option could not be solved at the spec's conditions: ${message}.`, margin: null }],
+      rejectionDb: null,
+      figures: null,
+      corners: [],
+      curves: null,
+      monteCarlo: null,
+      sizingNotes: notes,
+      error: message,
+    };
+  }
+}
+
+function summaryFor(recommended: TopologyId | null, policy: SelectionPolicy, passingCount: number, total: number): string {
+  if (recommended === null) return `None of the ${total} options passes every blocking check; the ranking shows what each one lacks.`;
+  const why = policy === 'simplest-sufficient' ? 'the simplest option that passes every blocking check' : 'the passing option with the highest rejection';
+  return `${recommended}: ${why} (${passingCount} of ${total} options pass).`;
+}
+
+/**
+ * Sizes, evaluates, checks and ranks every topology the spec lists. `spec` must have passed
+ * the schema (defaults applied); `ruleSet` comes from rules/ (loadRuleSet).
+ */
+export async function recommend(spec: Spec, ruleSet: RuleSet): Promise<RecommendResult> {
+  const evaluated = [];
+  for (const topology of spec.topologies) evaluated.push(await optionFor(spec, topology, ruleSet));
+  const rankable = evaluated.map((o) => ({
+    ...o,
+    tailImpedanceAtFrequencyOhm: o.figures?.tailImpedanceAtFrequencyOhm ?? 0,
+    rejectionDb: o.rejectionDb ?? -Infinity,
+  }));
+  const ranked = rankOptions(rankable);
+  const recommended = recommendedTopology(rankable, spec.policy);
+  const byTopology = new Map(evaluated.map((o) => [o.topology, o]));
+  const options = ranked.map((r, i) => ({ ...byTopology.get(r.topology)!, rank: i + 1 }));
+  const cautions = [...new Set(evaluated.flatMap((o) => o.checks.filter((c) => CAUTION_RULES.has(c.rule) && !c.passed).map((c) => c.reason)))];
+  return {
+    engineVersion: ENGINE_VERSION,
+    rulesetVersion: ruleSet.version,
+    policy: spec.policy,
+    recommended,
+    summary: summaryFor(recommended, spec.policy, evaluated.filter((o) => o.passes).length, evaluated.length),
+    cautions,
+    notice: ESTIMATE_NOTICE,
+    options,
+  };
+}

@@ -1,0 +1,76 @@
+/**
+ * Reads a quantity as engineers type it in a form ("4k7", "10µ", "2 pF", "-12 V", "1meg",
+ * "2.2e-3", "68kΩ") into an SI number. Pure; the form shows the value understood before saving.
+ */
+import { PREFIX_SPELLINGS } from './si-prefixes';
+import { spellsUnit, unitSymbolFor, type UnitSymbol } from './unit-symbols';
+
+/** The number read, in SI units, or why the text could not be read. */
+export type ParseQuantityResult = { ok: true; value: number } | { ok: false; message: string };
+
+/** A plain decimal number with an optional exponent, then the rest of the text. */
+const NUMBER_PATTERN = /^([+-]?)(\d+(?:\.\d*)?|\.\d+)(?:[eE]([+-]?\d+))?\s*(.*)$/;
+/** "4k7": digits, a prefix standing for the decimal point, digits (common practice, IEC 60062 style). */
+const INFIX_PATTERN = /^([+-]?)(\d+)([^\d\s.]+)(\d+)\s*(.*)$/;
+
+/** A prefix exponent and the unit text left after it, or an error message. */
+type SuffixReading = { ok: true; exponent: number } | { ok: false; message: string };
+
+/**
+ * Parses `text` to a number in SI units. A unit at the end is accepted when it is `unit` (or one
+ * of its spellings) or absent; another unit is an error. "M" is mega and "m" milli (forms),
+ * "meg" mega in any case, "u" micro; dB, %, °C and ratios take no prefix.
+ */
+export function parseQuantity(text: string, unit?: string): ParseQuantityResult {
+  const normalized = text.trim().replace(/\u2212/g, '-');
+  if (normalized === '') return { ok: false, message: 'is empty: enter a number' };
+  if (normalized.includes(',')) return { ok: false, message: `"${text}": use a point as the decimal separator` };
+  const expected = unit === undefined ? undefined : unitSymbolFor(unit);
+  const infix = INFIX_PATTERN.exec(normalized);
+  if (infix) {
+    const [, sign, whole, mark, fraction, rest] = infix;
+    const markExponent = infixExponent(mark, expected);
+    if (markExponent !== undefined) {
+      const suffix = readSuffix(rest, expected, false);
+      if (!suffix.ok) return suffix;
+      return finish(`${sign}${whole}.${fraction}e${markExponent}`, text);
+    }
+  }
+  const plain = NUMBER_PATTERN.exec(normalized);
+  if (!plain) return { ok: false, message: `"${text}" is not a number (examples: 4.7k, 4k7, 2.2e-3, 10 µA)` };
+  const [, sign, digits, exponentText, rest] = plain;
+  const suffix = readSuffix(rest, expected, true);
+  if (!suffix.ok) return suffix;
+  return finish(`${sign}${digits}e${Number(exponentText ?? 0) + suffix.exponent}`, text);
+}
+
+/** The exponent a mark between digits stands for: a prefix ("4k7"), or "R" for ohms ("4R7"). */
+function infixExponent(mark: string, expected: UnitSymbol | undefined): number | undefined {
+  if (mark === 'R' && expected?.symbol === 'Ω') return 0;
+  return PREFIX_SPELLINGS.find((p) => p.spelling === mark)?.prefix.exponent;
+}
+
+/** Reads what follows the number: nothing, the unit, or a prefix and then optionally the unit. */
+function readSuffix(rest: string, expected: UnitSymbol | undefined, prefixAllowed: boolean): SuffixReading {
+  const trimmed = rest.trim();
+  if (trimmed === '' || (expected && spellsUnit(trimmed, expected))) return { ok: true, exponent: 0 };
+  for (const { spelling, prefix } of PREFIX_SPELLINGS) {
+    if (!trimmed.startsWith(spelling)) continue;
+    const after = trimmed.slice(spelling.length).trim();
+    if (after !== '' && !(expected && spellsUnit(after, expected))) continue;
+    if (!prefixAllowed) return { ok: false, message: `has a second prefix "${spelling}"` };
+    if (expected && !expected.takesPrefix) {
+      return { ok: false, message: `${expected.symbol} takes no prefix: "${spelling}" is not allowed` };
+    }
+    return { ok: true, exponent: prefix.exponent };
+  }
+  const wanted = expected ? `expected ${expected.printed || 'a plain number'}` : 'expected a plain number';
+  return { ok: false, message: `has an unexpected unit "${trimmed}": ${wanted}` };
+}
+
+/** Converts the assembled decimal text (correctly rounded) and rejects overflow. */
+function finish(decimal: string, original: string): ParseQuantityResult {
+  const value = Number(decimal);
+  if (!Number.isFinite(value)) return { ok: false, message: `"${original}" is out of range` };
+  return { ok: true, value: Object.is(value, -0) ? 0 : value };
+}

@@ -1,0 +1,41 @@
+/**
+ * SI decimal prefixes used at the edges (forms, reports), femto to tera [SI]. Data, not
+ * branches: parsing and formatting both read this one table.
+ */
+
+/** One SI prefix: the symbol printed, the spellings accepted when parsing, and its power of ten. */
+export interface SiPrefix {
+  /** Printed symbol ("µ" is U+00B5 MICRO SIGN). */
+  symbol: string;
+  name: string;
+  /** Power of ten the prefix stands for. */
+  exponent: number;
+  /**
+   * Other spellings accepted in forms: "u" and Greek "μ" for micro (ASCII habit), "K" for kilo
+   * and "meg" (any case) for mega, as in SPICE (common practice).
+   */
+  aliases: readonly string[];
+}
+
+/** The prefixes from femto to tera, smallest first [SI]. */
+export const SI_PREFIXES: readonly SiPrefix[] = [
+  { symbol: 'f', name: 'femto', exponent: -15, aliases: [] },
+  { symbol: 'p', name: 'pico', exponent: -12, aliases: [] },
+  { symbol: 'n', name: 'nano', exponent: -9, aliases: [] },
+  { symbol: 'µ', name: 'micro', exponent: -6, aliases: ['u', 'μ'] },
+  { symbol: 'm', name: 'milli', exponent: -3, aliases: [] },
+  { symbol: 'k', name: 'kilo', exponent: 3, aliases: ['K'] },
+  { symbol: 'M', name: 'mega', exponent: 6, aliases: ['meg', 'Meg', 'MEG'] },
+  { symbol: 'G', name: 'giga', exponent: 9, aliases: [] },
+  { symbol: 'T', name: 'tera', exponent: 12, aliases: [] },
+];
+
+/** The prefix printed for a power of ten that is a multiple of 3 in range, else undefined. */
+export function prefixForExponent(exponent: number): SiPrefix | undefined {
+  return SI_PREFIXES.find((prefix) => prefix.exponent === exponent);
+}
+
+/** Every accepted spelling with its prefix, longest first so "meg" wins over "m". */
+export const PREFIX_SPELLINGS: readonly { spelling: string; prefix: SiPrefix }[] = SI_PREFIXES.flatMap(
+  (prefix) => [prefix.symbol, ...prefix.aliases].map((spelling) => ({ spelling, prefix })),
+).sort((a, b) => b.spelling.length - a.spelling.length);

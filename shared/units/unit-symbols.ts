@@ -1,0 +1,44 @@
+/**
+ * Unit symbols the edges print and accept, as data: which spellings mean the same unit and
+ * whether the unit takes an SI prefix. Units not listed are taken as written, with prefixes.
+ */
+
+/** How one unit is written. */
+export interface UnitSymbol {
+  /** Canonical symbol, as in the schema's `x-unit`. */
+  symbol: string;
+  /** Text printed after the number ("" for a pure number). */
+  printed: string;
+  /** Other spellings accepted when parsing. */
+  aliases: readonly string[];
+  /** Whether "k", "µ"... may precede it (not for dB, %, °C or ratios: common practice). */
+  takesPrefix: boolean;
+}
+
+/** Units of the Longtail forms and reports [SI]; "1" is SI's unit of a dimensionless number. */
+export const UNIT_SYMBOLS: readonly UnitSymbol[] = [
+  { symbol: 'V', printed: 'V', aliases: [], takesPrefix: true },
+  { symbol: 'A', printed: 'A', aliases: [], takesPrefix: true },
+  { symbol: 'Ω', printed: 'Ω', aliases: ['Ω', 'ohm', 'ohms', 'Ohm', 'Ohms'], takesPrefix: true },
+  { symbol: 'W', printed: 'W', aliases: [], takesPrefix: true },
+  { symbol: 'Hz', printed: 'Hz', aliases: ['hz'], takesPrefix: true },
+  { symbol: 'F', printed: 'F', aliases: [], takesPrefix: true },
+  { symbol: 'S', printed: 'S', aliases: [], takesPrefix: true },
+  { symbol: 'dB', printed: 'dB', aliases: ['db'], takesPrefix: false },
+  { symbol: '%', printed: '%', aliases: [], takesPrefix: false },
+  { symbol: '°C', printed: '°C', aliases: ['℃', 'degC'], takesPrefix: false },
+  { symbol: 'V/V', printed: 'V/V', aliases: [], takesPrefix: false },
+  { symbol: 'A/A', printed: 'A/A', aliases: [], takesPrefix: false },
+  { symbol: '1', printed: '', aliases: [], takesPrefix: false },
+];
+
+/** The unit a symbol or alias names; an unlisted one is its own symbol and takes prefixes. */
+export function unitSymbolFor(unit: string): UnitSymbol {
+  const known = UNIT_SYMBOLS.find((u) => u.symbol === unit || u.aliases.includes(unit));
+  return known ?? { symbol: unit, printed: unit, aliases: [], takesPrefix: true };
+}
+
+/** Whether typed text (trimmed) spells the unit. */
+export function spellsUnit(text: string, unit: UnitSymbol): boolean {
+  return text === unit.symbol || text === unit.printed || unit.aliases.includes(text);
+}

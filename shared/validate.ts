@@ -1,0 +1,59 @@
+/**
+ * Validation of the two public inputs, the requirement spec and the `analyze` design: one ajv
+ * instance, each schema (shared/schema, the single source of truth) compiled once at load,
+ * defaults applied to a copy, then the cross-field rules. Errors are "/json/path: message".
+ */
+import AjvImport, { type SchemaObject, type ValidateFunction } from 'ajv';
+import type { Design, Spec } from './engine/types';
+import designSchemaJson from './schema/design.schema.json';
+import specSchemaJson from './schema/spec.schema.json';
+import { issuesFromAjvErrors } from './validation/ajv-issues';
+import { designCrossFieldIssues, specCrossFieldIssues } from './validation/cross-field-rules';
+import type { ValidationIssue, ValidationResult } from './validation/validation-issue';
+
+export { formatIssue, type ValidationIssue, type ValidationResult } from './validation/validation-issue';
+
+/** The requirement-spec JSON Schema (draft-07), for the web form and the server. Do not mutate. */
+export const SPEC_SCHEMA: SchemaObject = specSchemaJson;
+/** The `analyze` design JSON Schema (draft-07), for the web form and the server. Do not mutate. */
+export const DESIGN_SCHEMA: SchemaObject = designSchemaJson;
+
+// ajv is CommonJS: under Node's ESM loader the default import is module.exports, elsewhere .default
+const Ajv = (AjvImport as unknown as { default?: typeof AjvImport }).default ?? AjvImport;
+
+const ajv = new Ajv({
+  allErrors: true, // report every problem, not just the first
+  useDefaults: true,
+  discriminator: true, // the tail's oneOf picks its branch by `topology`
+  verbose: true, // errors carry the data and schema, for messages with units and values
+});
+ajv.addKeyword('x-unit');
+
+const validateSpecSchema: ValidateFunction = ajv.compile(SPEC_SCHEMA);
+const validateDesignSchema: ValidateFunction = ajv.compile(DESIGN_SCHEMA);
+
+/** Validates a requirement spec; on success `value` is a copy with every default filled in. */
+export function validateSpec(input: unknown): ValidationResult<Spec> {
+  return validateWith<Spec>(input, validateSpecSchema, specCrossFieldIssues);
+}
+
+/** Validates an `analyze` input; on success `value` is a copy with the documented defaults filled in. */
+export function validateDesign(input: unknown): ValidationResult<Design> {
+  return validateWith<Design>(input, validateDesignSchema, designCrossFieldIssues);
+}
+
+function validateWith<T>(
+  input: unknown,
+  schemaCheck: ValidateFunction,
+  crossFieldIssues: (value: T) => ValidationIssue[],
+): ValidationResult<T> {
+  let copy: unknown;
+  try {
+    copy = structuredClone(input); // defaults are written into the copy, never the caller's object
+  } catch {
+    return { ok: false, errors: [{ path: '', message: 'must be plain JSON data' }] };
+  }
+  if (!schemaCheck(copy)) return { ok: false, errors: issuesFromAjvErrors(schemaCheck.errors ?? []) };
+  const issues = crossFieldIssues(copy as T);
+  return issues.length > 0 ? { ok: false, errors: issues } : { ok: true, value: copy as T };
+}

@@ -1,0 +1,63 @@
+/**
+ * Rules relating two fields, run after the schema has passed. Each issue sits at the field
+ * that breaks the rule and names the other field and both numbers.
+ */
+import type { Design, Spec, Supply } from '../engine/types';
+import type { ValidationIssue } from './validation-issue';
+
+/** Every cross-field problem of a schema-valid spec. */
+export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
+  const issues = railOrderIssues(spec.supply);
+  const { minV, maxV } = spec.inputCommonMode;
+  if (minV > maxV) {
+    issues.push({ path: '/inputCommonMode/minV', message: `must be at most inputCommonMode.maxV (${volts(maxV)}), got ${volts(minV)}` });
+  }
+  const { min: minC, max: maxC } = spec.temperatureC;
+  if (minC > maxC) {
+    issues.push({ path: '/temperatureC/min', message: `must be at most temperatureC.max (${maxC} °C), got ${minC} °C` });
+  }
+  if (issues.some((i) => i.path === '/supply/negativeV')) return issues;
+  issues.push(...insideRailsIssues('/inputCommonMode/minV', minV, spec.supply));
+  issues.push(...insideRailsIssues('/inputCommonMode/maxV', maxV, spec.supply));
+  const spanV = tidy(spec.supply.positiveV - spec.supply.negativeV);
+  if (spec.outputSwingVpp >= spanV) {
+    issues.push({
+      path: '/outputSwingVpp',
+      message: `must be less than the rail span supply.positiveV - supply.negativeV (${volts(spanV)}), got ${volts(spec.outputSwingVpp)}`,
+    });
+  }
+  return issues;
+}
+
+/** Every cross-field problem of a schema-valid design (defaults applied). */
+export function designCrossFieldIssues(design: Design): ValidationIssue[] {
+  const issues = railOrderIssues(design.supply);
+  if (issues.length > 0 || design.inputCommonModeV === undefined) return issues;
+  return insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply);
+}
+
+/** The negative rail must be below the positive one. */
+function railOrderIssues(supply: Supply): ValidationIssue[] {
+  if (supply.negativeV < supply.positiveV) return [];
+  return [{ path: '/supply/negativeV', message: `must be < supply.positiveV (${volts(supply.positiveV)}), got ${volts(supply.negativeV)}` }];
+}
+
+/** A DC voltage strictly between the rails (assumes the rails are in order). */
+function insideRailsIssues(path: string, valueV: number, supply: Supply): ValidationIssue[] {
+  if (valueV >= supply.positiveV) {
+    return [{ path, message: `must be below supply.positiveV (${volts(supply.positiveV)}), got ${volts(valueV)}` }];
+  }
+  if (valueV <= supply.negativeV) {
+    return [{ path, message: `must be above supply.negativeV (${volts(supply.negativeV)}), got ${volts(valueV)}` }];
+  }
+  return [];
+}
+
+function volts(valueV: number): string {
+  return `${valueV} V`;
+}
+
+/** Drops binary noise from a difference (12 - 0.1 is 11.9, not 11.899999999999999). */
+function tidy(value: number): number {
+  return Number(value.toPrecision(12));
+}

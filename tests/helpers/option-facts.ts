@@ -1,0 +1,60 @@
+import type { OptionFacts } from '../../shared/engine/types';
+
+/**
+ * A complete, self-consistent OptionFacts with invented demo numbers (not from any circuit):
+ * a degenerated-mirror tail, differential output, every check passing. Margins agree with the
+ * figures beside them, so a test that overrides a figure overrides its margin with it.
+ */
+export function makeOptionFacts(overrides: Partial<OptionFacts> = {}): OptionFacts {
+  return {
+    topology: 'degenerated-mirror',
+    output: 'differential',
+    isDifferentialOutput: true,
+    isResistorTail: false,
+    cmrrAtFrequencyDb: 94.2,
+    cmrrFrequencyHz: 1000,
+    cmrrRequiredDb: 80,
+    cmrrMarginRequiredDb: 6,
+    cmrrMarginDb: 8.2,
+    worstCmrrCorner: 'ICM −2 V, 85 °C',
+    cmrrDifferentialWorstCaseDb: 101.5,
+    cmrrDifferentialWorstCaseMarginDb: 21.5,
+    monteCarloYieldPercent: 99.2,
+    monteCarloSamples: 2000,
+    requiredYieldPercent: 95,
+    yieldMarginPercent: 4.2,
+    gainPredicted: 98.6,
+    gainTarget: 100,
+    gainErrorPercent: -1.4,
+    gainTolerancePercent: 5,
+    gainMarginPercent: 3.6,
+    icmLowMarginV: 0.85,
+    icmLowV: -2,
+    icmHighMarginV: 1.35,
+    icmHighV: 2,
+    swingMarginV: 2.4,
+    swingPeakPerCollectorV: 1,
+    outputSwingVpp: 4,
+    powerWorstW: 0.0284,
+    powerBudgetW: 0.05,
+    powerMarginW: 0.0216,
+    tailCurrentDriftPercent: 2.1,
+    tailCurrentDriftLimitPercent: 10,
+    tailCurrentDriftMarginPercent: 7.9,
+    temperatureMinC: -40,
+    temperatureMaxC: 85,
+    gainVsCommonModePercent: 0.3,
+    gainVsCommonModeMarginPercent: 1.7,
+    railSpanV: 24,
+    hazardousVoltageLimitV: 60,
+    patientConnected: false,
+    mainsReferenced: false,
+    operatingPointProblems: [],
+    operatingPointProblemCount: 0,
+    tailImpedanceAtFrequencyOhm: 2.1e6,
+    tailOutputResistanceOhm: 2.3e6,
+    tailOutputResistanceClosedFormOhm: 2.0e6,
+    tailOutputResistanceFormula: 'ro·(1 + gm·(RE ∥ rπ))',
+    ...overrides,
+  };
+}

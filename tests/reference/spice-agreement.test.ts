@@ -1,0 +1,173 @@
+/**
+ * `analyze` against ngspice on the same circuit: every topology at several bias points, split
+ * and single supplies, −40/27/85 °C, with and without pair degeneration, with load and IS
+ * mismatch (differential CMRR) and with a tail capacitance (CMRR corner). The reference figures
+ * come from `spiceFigures` (tests/helpers/spice.ts), measured on the netlist the product writes.
+ *
+ * Which tolerance judges which figure: tail and collector current (3 %); differential,
+ * single-ended and common-mode gain (5 %); the differential common-mode gain, a small mismatch
+ * residue, through the differential CMRR (2 dB) and its sign; power (5 %); tail output
+ * resistance (20 %); CMRR corner (20 %).
+ */
+import { beforeAll, describe, expect, test } from 'vitest';
+import { analyze } from '../../shared/engine/analyze';
+import type { AnalyzeResult, Design, DeviceParams } from '../../shared/engine/types';
+import { spiceFigures, startSpice, type SpiceFigures } from '../helpers/spice';
+
+// tolerances from the issue; the reference is ngspice (eecircuit-engine) on the same netlist
+const CURRENT_TOLERANCE = 0.03;
+const GAIN_TOLERANCE = 0.05;
+const CMRR_SINGLE_ENDED_TOLERANCE_DB = 1.5;
+const CMRR_DIFFERENTIAL_TOLERANCE_DB = 2;
+const TAIL_OUTPUT_RESISTANCE_TOLERANCE = 0.2;
+const CORNER_FREQUENCY_TOLERANCE = 0.2;
+const POWER_TOLERANCE = 0.05;
+
+/** ngspice's first start (WebAssembly instantiation) takes about a second; allow for a slow machine. */
+const ENGINE_START_TIMEOUT_MS = 120_000;
+/** A transistor counts as forward-active in the reference when VBE and VCE exceed these, V. */
+const MIN_ACTIVE_VBE_V = 0.4;
+const MIN_ACTIVE_VCE_V = 0.3;
+
+/** Four invented small-signal NPN devices (IS at 27 °C, BF, VAF). */
+const DEVICE_A: DeviceParams = { family: 'npn', beta: 210, earlyVoltageV: 62, saturationCurrentA: 1.4e-14 };
+const DEVICE_B: DeviceParams = { family: 'npn', beta: 95, earlyVoltageV: 118, saturationCurrentA: 6.5e-15 };
+const DEVICE_C: DeviceParams = { family: 'npn', beta: 275, earlyVoltageV: 45, saturationCurrentA: 1.9e-14 };
+const DEVICE_D: DeviceParams = { family: 'npn', beta: 140, earlyVoltageV: 87, saturationCurrentA: 9.3e-15 };
+
+interface AgreementCase {
+  title: string;
+  design: Design;
+}
+
+function railsText(design: Design): string {
+  const { positiveV, negativeV } = design.supply;
+  return negativeV === 0 ? `single +${positiveV} V` : positiveV === -negativeV ? `±${positiveV} V` : `+${positiveV}/${negativeV} V`;
+}
+
+function caseOf(design: Design): AgreementCase {
+  const extras = [
+    `Vicm ${design.inputCommonModeV ?? 0} V`,
+    design.pairEmitterResistanceOhm ? `RE ${design.pairEmitterResistanceOhm} Ω` : '',
+    design.collectorMismatch ? `ε ${design.collectorMismatch}` : '',
+    design.pairSaturationCurrentMismatch ? `δ ${design.pairSaturationCurrentMismatch}` : '',
+    design.tailCapacitanceF ? `Ct ${Math.round(design.tailCapacitanceF * 1e12)} pF` : '',
+  ].filter((text) => text !== '');
+  return { title: `${design.tail.topology}, ${railsText(design)}, ${design.temperatureC} °C, ${extras.join(', ')}`, design };
+}
+
+const split = (v: number) => ({ positiveV: v, negativeV: -v });
+const single = (v: number) => ({ positiveV: v, negativeV: 0 });
+
+/** Per topology: split rails matched; single supply with load mismatch; ±15 V degenerated with IS mismatch and 2 pF; both mismatches and 20 pF. */
+const DESIGNS: Design[] = [
+  // resistor
+  { device: DEVICE_A, supply: split(5), collectorResistanceOhm: 3300, tail: { topology: 'resistor', resistanceOhm: 4300 }, inputCommonModeV: 0, temperatureC: 27 },
+  { device: DEVICE_B, supply: single(12), collectorResistanceOhm: 15000, collectorMismatch: 0.01, tail: { topology: 'resistor', resistanceOhm: 5600 }, inputCommonModeV: 3.3, temperatureC: 85 },
+  { device: DEVICE_C, supply: split(15), collectorResistanceOhm: 18000, pairEmitterResistanceOhm: 150, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'resistor', resistanceOhm: 27000 }, inputCommonModeV: 1, temperatureC: -40, tailCapacitanceF: 2e-12 },
+  { device: DEVICE_D, supply: split(9), collectorResistanceOhm: 8200, pairEmitterResistanceOhm: 68, collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'resistor', resistanceOhm: 8200 }, inputCommonModeV: -1.5, temperatureC: 85, tailCapacitanceF: 20e-12 },
+  // simple mirror
+  { device: DEVICE_A, supply: split(9), collectorResistanceOhm: 6800, tail: { topology: 'simple-mirror', referenceResistanceOhm: 15000 }, inputCommonModeV: 0, temperatureC: 27 },
+  { device: DEVICE_B, supply: single(10), collectorResistanceOhm: 10000, collectorMismatch: 0.01, tail: { topology: 'simple-mirror', referenceResistanceOhm: 20000 }, inputCommonModeV: 2.5, temperatureC: -40 },
+  { device: DEVICE_C, supply: split(15), collectorResistanceOhm: 12000, pairEmitterResistanceOhm: 100, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'simple-mirror', referenceResistanceOhm: 33000 }, inputCommonModeV: 0, temperatureC: 85, tailCapacitanceF: 2e-12 },
+  { device: DEVICE_D, supply: split(5), collectorResistanceOhm: 4700, collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'simple-mirror', referenceResistanceOhm: 10000 }, inputCommonModeV: -2, temperatureC: 85, tailCapacitanceF: 20e-12 },
+  // degenerated mirror
+  { device: DEVICE_B, supply: split(5), collectorResistanceOhm: 2700, tail: { topology: 'degenerated-mirror', referenceResistanceOhm: 6800, emitterResistanceOhm: 470 }, inputCommonModeV: 0, temperatureC: 27 },
+  { device: DEVICE_A, supply: single(15), collectorResistanceOhm: 15000, collectorMismatch: 0.01, tail: { topology: 'degenerated-mirror', referenceResistanceOhm: 27000, emitterResistanceOhm: 1000 }, inputCommonModeV: 4, temperatureC: 85 },
+  { device: DEVICE_D, supply: split(15), collectorResistanceOhm: 16000, pairEmitterResistanceOhm: 220, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'degenerated-mirror', referenceResistanceOhm: 36000, emitterResistanceOhm: 560 }, inputCommonModeV: 2, temperatureC: -40, tailCapacitanceF: 2e-12 },
+  { device: DEVICE_C, supply: split(9), collectorResistanceOhm: 9100, collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'degenerated-mirror', referenceResistanceOhm: 18000, emitterResistanceOhm: 330 }, inputCommonModeV: -3, temperatureC: 27, tailCapacitanceF: 20e-12 },
+  // Widlar
+  { device: DEVICE_D, supply: split(9), collectorResistanceOhm: 27000, tail: { topology: 'widlar', referenceResistanceOhm: 12000, emitterResistanceOhm: 220 }, inputCommonModeV: 0, temperatureC: 27 },
+  { device: DEVICE_A, supply: single(12), collectorResistanceOhm: 39000, collectorMismatch: 0.01, tail: { topology: 'widlar', referenceResistanceOhm: 22000, emitterResistanceOhm: 330 }, inputCommonModeV: 3, temperatureC: -40 },
+  { device: DEVICE_B, supply: split(15), collectorResistanceOhm: 22000, pairEmitterResistanceOhm: 330, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'widlar', referenceResistanceOhm: 39000, emitterResistanceOhm: 150 }, inputCommonModeV: 0, temperatureC: 85, tailCapacitanceF: 2e-12 },
+  { device: DEVICE_C, supply: split(5), collectorResistanceOhm: 33000, collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'widlar', referenceResistanceOhm: 5600, emitterResistanceOhm: 390 }, inputCommonModeV: -1, temperatureC: -40, tailCapacitanceF: 20e-12 },
+  // Wilson
+  { device: DEVICE_C, supply: split(5), collectorResistanceOhm: 3900, tail: { topology: 'wilson', referenceResistanceOhm: 8200 }, inputCommonModeV: 0, temperatureC: 27 },
+  { device: DEVICE_D, supply: single(9), collectorResistanceOhm: 12000, collectorMismatch: 0.01, tail: { topology: 'wilson', referenceResistanceOhm: 15000 }, inputCommonModeV: 2.2, temperatureC: 85 },
+  { device: DEVICE_A, supply: split(15), collectorResistanceOhm: 20000, pairEmitterResistanceOhm: 68, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'wilson', referenceResistanceOhm: 47000 }, inputCommonModeV: 0, temperatureC: -40, tailCapacitanceF: 2e-12 },
+  { device: DEVICE_B, supply: split(9), collectorResistanceOhm: 10000, collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'wilson', referenceResistanceOhm: 20000 }, inputCommonModeV: 1.5, temperatureC: 27, tailCapacitanceF: 20e-12 },
+  // cascode
+  { device: DEVICE_B, supply: split(9), collectorResistanceOhm: 8200, tail: { topology: 'cascode', referenceResistanceOhm: 18000 }, inputCommonModeV: 0, temperatureC: 27 },
+  { device: DEVICE_C, supply: single(12), collectorResistanceOhm: 18000, collectorMismatch: 0.01, tail: { topology: 'cascode', referenceResistanceOhm: 22000 }, inputCommonModeV: 3.5, temperatureC: -40 },
+  { device: DEVICE_D, supply: split(15), collectorResistanceOhm: 27000, pairEmitterResistanceOhm: 150, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'cascode', referenceResistanceOhm: 56000 }, inputCommonModeV: 0, temperatureC: 85, tailCapacitanceF: 2e-12 },
+  { device: DEVICE_A, supply: split(5), collectorResistanceOhm: 5600, collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'cascode', referenceResistanceOhm: 9100 }, inputCommonModeV: -0.5, temperatureC: -40, tailCapacitanceF: 20e-12 },
+];
+const CASES: AgreementCase[] = DESIGNS.map(caseOf);
+
+function relativeError(predicted: number, reference: number): number {
+  return Math.abs(predicted - reference) / Math.abs(reference);
+}
+
+function describeValues(what: string, predicted: number | null, reference: number | null): string {
+  return `${what}: analyze ${predicted} vs ngspice ${reference}`;
+}
+
+function expectRelative(what: string, predicted: number, reference: number, tolerance: number): void {
+  expect(Number.isFinite(predicted), describeValues(what, predicted, reference)).toBe(true);
+  expect(relativeError(predicted, reference), describeValues(what, predicted, reference)).toBeLessThanOrEqual(tolerance);
+}
+
+function expectWithinDb(what: string, predictedDb: number | null, referenceDb: number | null, toleranceDb: number): void {
+  expect(predictedDb === null, describeValues(`${what} (null?)`, predictedDb, referenceDb)).toBe(referenceDb === null);
+  if (predictedDb === null || referenceDb === null) return;
+  expect(Math.abs(predictedDb - referenceDb), describeValues(what, predictedDb, referenceDb)).toBeLessThanOrEqual(toleranceDb);
+}
+
+describe('analyze agrees with ngspice on the same circuit', () => {
+  beforeAll(startSpice, ENGINE_START_TIMEOUT_MS);
+
+  describe.each(CASES)('$title', ({ design }) => {
+    let reference: Promise<SpiceFigures> | undefined;
+    const spice = (): Promise<SpiceFigures> => (reference ??= spiceFigures(design));
+    let predictedResult: AnalyzeResult | undefined;
+    const predicted = (): AnalyzeResult => (predictedResult ??= analyze(design));
+
+    test('reference: every transistor forward-active in ngspice', async () => {
+      for (const q of (await spice()).transistors) {
+        expect(q.vbeV, `${q.name} VBE`).toBeGreaterThan(MIN_ACTIVE_VBE_V);
+        if (q.vcbV !== 0) expect(q.vceV, `${q.name} VCE`).toBeGreaterThan(MIN_ACTIVE_VCE_V);
+      }
+    });
+
+    test('tail and collector current within 3 %', async () => {
+      const s = await spice();
+      expectRelative('tailCurrentA', predicted().tailCurrentA, s.tailCurrentA, CURRENT_TOLERANCE);
+      expectRelative('collectorCurrentA', predicted().collectorCurrentA, s.collectorCurrentA, CURRENT_TOLERANCE);
+    });
+
+    test('differential, single-ended and common-mode gain within 5 %, signs agree', async () => {
+      const s = await spice();
+      const p = predicted();
+      expectRelative('differentialGain', p.differentialGain, s.differentialGain, GAIN_TOLERANCE);
+      expectRelative('singleEndedGain', p.singleEndedGain, s.singleEndedGain, GAIN_TOLERANCE);
+      expectRelative('commonModeGain', p.commonModeGain, s.commonModeGain, GAIN_TOLERANCE);
+      expect(Math.sign(p.differentialCommonModeGain), describeValues('differentialCommonModeGain sign', p.differentialCommonModeGain, s.differentialCommonModeGain)).toBe(
+        Math.sign(s.differentialCommonModeGain),
+      );
+    });
+
+    test('single-ended CMRR within 1.5 dB', async () => {
+      expectWithinDb('cmrrDb.singleEnded', predicted().cmrrDb.singleEnded, (await spice()).cmrrDb.singleEnded, CMRR_SINGLE_ENDED_TOLERANCE_DB);
+    });
+
+    test('differential (mismatch) CMRR within 2 dB, null when matched', async () => {
+      expectWithinDb('cmrrDb.differential', predicted().cmrrDb.differential, (await spice()).cmrrDb.differential, CMRR_DIFFERENTIAL_TOLERANCE_DB);
+    });
+
+    test('tail output resistance within 20 %', async () => {
+      const s = await spice();
+      expectRelative('tailOutputResistanceOhm', predicted().tailOutputResistanceOhm, s.tailOutputResistanceOhm, TAIL_OUTPUT_RESISTANCE_TOLERANCE);
+    });
+
+    test('CMRR corner within 20 %, null without tail capacitance', async () => {
+      const s = await spice();
+      const p = predicted();
+      expect(p.cmrrCornerHz === null, describeValues('cmrrCornerHz (null?)', p.cmrrCornerHz, s.cmrrCornerHz)).toBe(s.cmrrCornerHz === null);
+      if (p.cmrrCornerHz !== null && s.cmrrCornerHz !== null) expectRelative('cmrrCornerHz', p.cmrrCornerHz, s.cmrrCornerHz, CORNER_FREQUENCY_TOLERANCE);
+    });
+
+    test('power within 5 %', async () => {
+      expectRelative('powerW', predicted().powerW, (await spice()).powerW, POWER_TOLERANCE);
+    });
+  });
+});

@@ -1,0 +1,464 @@
+/**
+ * The SPICE netlist writer (shared/engine/netlist.ts): structure, node connections against the
+ * contract's circuit table (ENGINE-CONTRACT.md), read back through `parseNetlistElements`, and
+ * ngspice runs of every topology with sanity checks against hand formulas (DOMAIN.md).
+ */
+import { beforeAll, describe, expect, test } from 'vitest';
+import { stageCircuit } from '../../../shared/engine/circuit';
+import { thermalVoltageV } from '../../../shared/engine/constants';
+import { nominalSaturationCurrentA, saturationCurrentAtA } from '../../../shared/engine/device';
+import {
+  SPICE_MODEL_NAME,
+  TAIL_TEST_SOURCE,
+  parseNetlistElements,
+  parseSpiceNumber,
+  spiceNetlist,
+  type NetlistOptions,
+  type ParsedElement,
+} from '../../../shared/engine/netlist';
+import { TOPOLOGIES, type Design, type DeviceParams, type TailDesign, type TopologyId } from '../../../shared/engine/types';
+import { spiceAc, spiceFigures, spiceOperatingPoint, startSpice } from '../../helpers/spice';
+
+/** ngspice's first start (WebAssembly instantiation) takes about a second; allow for a slow machine. */
+const ENGINE_START_TIMEOUT_MS = 120_000;
+
+const DEVICE: DeviceParams = { family: 'npn', beta: 165, earlyVoltageV: 92, saturationCurrentA: 1.1e-14 };
+/** The same device without the Early effect, for hand formulas that assume none. */
+const DEVICE_NO_EARLY: DeviceParams = { family: 'npn', beta: 165, saturationCurrentA: 1.1e-14 };
+
+const TAILS: Record<TopologyId, TailDesign> = {
+  resistor: { topology: 'resistor', resistanceOhm: 5100 },
+  'simple-mirror': { topology: 'simple-mirror', referenceResistanceOhm: 16000 },
+  'degenerated-mirror': { topology: 'degenerated-mirror', referenceResistanceOhm: 15000, emitterResistanceOhm: 680 },
+  widlar: { topology: 'widlar', referenceResistanceOhm: 11000, emitterResistanceOhm: 270 },
+  wilson: { topology: 'wilson', referenceResistanceOhm: 15000 },
+  cascode: { topology: 'cascode', referenceResistanceOhm: 15000 },
+};
+
+function designFor(topology: TopologyId, overrides: Partial<Design> = {}): Design {
+  return {
+    device: DEVICE,
+    supply: { positiveV: 9, negativeV: -9 },
+    collectorResistanceOhm: 6200,
+    tail: TAILS[topology],
+    inputCommonModeV: 0.5,
+    temperatureC: 27,
+    ...overrides,
+  };
+}
+
+const AC_SWEEP = { startHz: 1, stopHz: 1e10, pointsPerDecade: 50 };
+const ANALYSES: NetlistOptions[] = [
+  { analysis: 'op' },
+  { analysis: 'ac-differential', ...AC_SWEEP },
+  { analysis: 'ac-common-mode', ...AC_SWEEP },
+  { analysis: 'ac-tail', tailNodeV: -0.2, ...AC_SWEEP },
+];
+
+type ParsedQ = Extract<ParsedElement, { kind: 'Q' }>;
+type ParsedR = Extract<ParsedElement, { kind: 'R' }>;
+type ParsedV = Extract<ParsedElement, { kind: 'V' }>;
+
+function transistor(elements: ParsedElement[], name: string): ParsedQ {
+  const found = elements.find((e): e is ParsedQ => e.kind === 'Q' && e.name === name);
+  if (!found) throw new Error(`no transistor ${name} in the netlist`);
+  return found;
+}
+
+function source(elements: ParsedElement[], name: string): ParsedV {
+  const found = elements.find((e): e is ParsedV => e.kind === 'V' && e.name === name);
+  if (!found) throw new Error(`no source ${name} in the netlist`);
+  return found;
+}
+
+/** Resistors joining nodes a and b, either way round. */
+function resistorsBetween(elements: ParsedElement[], a: string, b: string): ParsedR[] {
+  return elements.filter(
+    (e): e is ParsedR => e.kind === 'R' && ((e.nodes[0] === a && e.nodes[1] === b) || (e.nodes[0] === b && e.nodes[1] === a)),
+  );
+}
+
+/** The one resistor between a and b, with its value checked. */
+function expectResistor(elements: ParsedElement[], a: string, b: string, valueOhm: number): void {
+  const found = resistorsBetween(elements, a, b);
+  expect(found, `one resistor between ${a} and ${b}`).toHaveLength(1);
+  expect(found[0].valueOhm).toBe(valueOhm);
+}
+
+function modelParameters(netlist: string): Record<string, number> {
+  const cards = netlist.split('\n').filter((line) => /^\.model\s/i.test(line));
+  expect(cards).toHaveLength(1);
+  const match = /^\.model\s+(\S+)\s+npn\s*\((.*)\)\s*$/i.exec(cards[0]);
+  expect(match, cards[0]).not.toBeNull();
+  expect(match![1]).toBe(SPICE_MODEL_NAME);
+  return Object.fromEntries(
+    match![2]
+      .trim()
+      .split(/\s+/)
+      .map((pair) => pair.split('='))
+      .map(([key, value]) => [key.toUpperCase(), parseSpiceNumber(value)]),
+  );
+}
+
+/** Analysis cards: `.op`, `.ac`, `.dc`, `.tran`, `.noise`, … as whole first words (not `.options`). */
+function analysisCards(netlist: string): string[] {
+  return netlist.split('\n').filter((line) => /^\.(op|ac|dc|tran|noise|tf|pz|disto|sens)(\s|$)/i.test(line));
+}
+
+/** Contract table (ENGINE-CONTRACT.md, "Tail elements"), checked on the parsed netlist. */
+const CONTRACT_CONNECTIONS: Record<TopologyId, (elements: ParsedElement[], tail: TailDesign) => void> = {
+  resistor: (elements, tail) => {
+    expectResistor(elements, 't', 'vn', (tail as { resistanceOhm: number }).resistanceOhm);
+  },
+  'simple-mirror': (elements, tail) => {
+    const q3 = transistor(elements, 'Q3');
+    const q4 = transistor(elements, 'Q4');
+    expect(q3.collector, 'Q3 diode-connected').toBe(q3.base);
+    expectResistor(elements, 'vp', q3.collector, (tail as { referenceResistanceOhm: number }).referenceResistanceOhm);
+    expect(q3.emitter).toBe('vn');
+    expect(q4.base, "Q4 shares Q3's base").toBe(q3.base);
+    expect(q4.emitter).toBe('vn');
+    expect(q4.collector).toBe('t');
+  },
+  'degenerated-mirror': (elements, tail) => {
+    const { referenceResistanceOhm, emitterResistanceOhm } = tail as { referenceResistanceOhm: number; emitterResistanceOhm: number };
+    const q3 = transistor(elements, 'Q3');
+    const q4 = transistor(elements, 'Q4');
+    expect(q3.collector).toBe(q3.base);
+    expectResistor(elements, 'vp', q3.collector, referenceResistanceOhm);
+    expect(q4.base).toBe(q3.base);
+    expect(q4.collector).toBe('t');
+    expect(q3.emitter).not.toBe(q4.emitter);
+    expectResistor(elements, q3.emitter, 'vn', emitterResistanceOhm);
+    expectResistor(elements, q4.emitter, 'vn', emitterResistanceOhm);
+  },
+  widlar: (elements, tail) => {
+    const { referenceResistanceOhm, emitterResistanceOhm } = tail as { referenceResistanceOhm: number; emitterResistanceOhm: number };
+    const q3 = transistor(elements, 'Q3');
+    const q4 = transistor(elements, 'Q4');
+    expect(q3.collector).toBe(q3.base);
+    expectResistor(elements, 'vp', q3.collector, referenceResistanceOhm);
+    expect(q3.emitter, 'only Q4 has an emitter resistor').toBe('vn');
+    expect(q4.base).toBe(q3.base);
+    expect(q4.collector).toBe('t');
+    expectResistor(elements, q4.emitter, 'vn', emitterResistanceOhm);
+  },
+  wilson: (elements, tail) => {
+    const q3 = transistor(elements, 'Q3');
+    const q4 = transistor(elements, 'Q4');
+    const q5 = transistor(elements, 'Q5');
+    expectResistor(elements, 'vp', q3.collector, (tail as { referenceResistanceOhm: number }).referenceResistanceOhm);
+    expect(q3.emitter).toBe('vn');
+    expect(q5.collector).toBe('t');
+    expect(q5.base, "Q5's base at Q3's collector").toBe(q3.collector);
+    expect(q5.emitter).toBe('x');
+    expect([q4.collector, q4.base], 'Q4 diode-connected at x').toEqual(['x', 'x']);
+    expect(q4.emitter).toBe('vn');
+    expect(q3.base, "Q3's base tied to x").toBe('x');
+  },
+  cascode: (elements, tail) => {
+    const q3 = transistor(elements, 'Q3');
+    const q4 = transistor(elements, 'Q4');
+    const q5 = transistor(elements, 'Q5');
+    const q6 = transistor(elements, 'Q6');
+    expect(q3.collector, 'Q3 diode-connected').toBe(q3.base);
+    expect(q3.emitter).toBe('vn');
+    expect(q4.base).toBe(q3.base);
+    expect(q4.emitter).toBe('vn');
+    expect(q5.collector, 'Q5 diode-connected').toBe(q5.base);
+    expect(q5.emitter, "Q5 stacked on Q3's collector").toBe(q3.collector);
+    expectResistor(elements, 'vp', q5.collector, (tail as { referenceResistanceOhm: number }).referenceResistanceOhm);
+    expect(q6.emitter, "Q6 stacked on Q4's collector").toBe(q4.collector);
+    expect(q6.base, "Q6's base tied to Q5's base").toBe(q5.base);
+    expect(q6.collector).toBe('t');
+  },
+};
+
+describe('spiceNetlist: structure', () => {
+  test.each(TOPOLOGIES.flatMap((topology) => ANALYSES.map((options) => ({ topology, options }))))(
+    '$topology, $options.analysis: sections, one model card, one analysis card, .end',
+    ({ topology, options }) => {
+      const netlist = spiceNetlist(designFor(topology), options);
+      const lines = netlist.trimEnd().split('\n');
+      expect(lines[0]).not.toMatch(/^[.*+]/);
+      for (const header of ['* --- supplies ---', '* --- input drive ---', '* --- pair and loads ---', `* --- tail element (${topology}) ---`]) {
+        expect(lines).toContain(header);
+      }
+      expect(lines[lines.length - 1]).toBe('.end');
+      modelParameters(netlist);
+      const cards = analysisCards(netlist);
+      expect(cards).toHaveLength(1);
+      expect(cards[0]).toBe(options.analysis === 'op' ? '.op' : '.ac dec 50 1 10000000000');
+    },
+  );
+
+  test.each(TOPOLOGIES)('%s: every element of stageCircuit is written with its nodes and value', (topology) => {
+    const design = designFor(topology, {
+      pairEmitterResistanceOhm: 120,
+      collectorMismatch: 0.01,
+      pairSaturationCurrentMismatch: 0.02,
+      tailCapacitanceF: 4.7e-12,
+    });
+    const parsed = parseNetlistElements(spiceNetlist(design, { analysis: 'op' }));
+    const circuit = stageCircuit(design);
+    expect(parsed.filter((e) => e.kind !== 'V')).toHaveLength(circuit.elements.length);
+    for (const element of circuit.elements) {
+      const found = parsed.find((e) => e.name === element.name);
+      expect(found, element.name).toBeDefined();
+      if (element.kind === 'resistor') expect(found).toEqual({ kind: 'R', name: element.name, nodes: element.nodes, valueOhm: element.resistanceOhm });
+      if (element.kind === 'capacitor') expect(found).toEqual({ kind: 'C', name: element.name, nodes: element.nodes, valueF: element.capacitanceF });
+      if (element.kind === 'npn') {
+        expect(found).toEqual({
+          kind: 'Q',
+          name: element.name,
+          collector: element.collector,
+          base: element.base,
+          emitter: element.emitter,
+          model: SPICE_MODEL_NAME,
+          area: element.area,
+        });
+      }
+    }
+  });
+
+  test.each(TOPOLOGIES)('%s: tail element connected as the contract table says', (topology) => {
+    const design = designFor(topology);
+    const elements = parseNetlistElements(spiceNetlist(design, { analysis: 'op' }));
+    CONTRACT_CONNECTIONS[topology](elements, design.tail);
+  });
+
+  test.each([
+    { degenerationOhm: 0, q1Emitter: 't', q2Emitter: 't' },
+    { degenerationOhm: 150, q1Emitter: 'e1', q2Emitter: 'e2' },
+  ])('pair: bases at in1/in2, loads from vp, emitters to t (degeneration $degenerationOhm Ω)', ({ degenerationOhm, q1Emitter, q2Emitter }) => {
+    const design = designFor('wilson', { pairEmitterResistanceOhm: degenerationOhm, collectorMismatch: 0.01 });
+    const elements = parseNetlistElements(spiceNetlist(design, { analysis: 'op' }));
+    const q1 = transistor(elements, 'Q1');
+    const q2 = transistor(elements, 'Q2');
+    expect([q1.collector, q1.base, q1.emitter]).toEqual(['c1', 'in1', q1Emitter]);
+    expect([q2.collector, q2.base, q2.emitter]).toEqual(['c2', 'in2', q2Emitter]);
+    expectResistor(elements, 'vp', 'c1', 6200);
+    expectResistor(elements, 'vp', 'c2', 6200 * 1.01);
+    if (degenerationOhm > 0) {
+      expectResistor(elements, 'e1', 't', degenerationOhm);
+      expectResistor(elements, 'e2', 't', degenerationOhm);
+    }
+  });
+
+  test('supplies and inputs: VP on vp, VN on vn, inputs at the common-mode DC voltage', () => {
+    const design = designFor('simple-mirror', { supply: { positiveV: 12, negativeV: 0 }, inputCommonModeV: 3.3 });
+    const elements = parseNetlistElements(spiceNetlist(design, { analysis: 'op' }));
+    expect(source(elements, 'VP')).toMatchObject({ nodes: ['vp', '0'], dcV: 12, acMagnitude: 0 });
+    expect(source(elements, 'VN')).toMatchObject({ nodes: ['vn', '0'], dcV: 0, acMagnitude: 0 });
+    expect(source(elements, 'VIN1')).toMatchObject({ nodes: ['in1', '0'], dcV: 3.3, acMagnitude: 0 });
+    expect(source(elements, 'VIN2')).toMatchObject({ nodes: ['in2', '0'], dcV: 3.3, acMagnitude: 0 });
+  });
+
+  test('ac-differential: v(in1 − in2) = 1 split as 0.5 ∠0° and 0.5 ∠180°', () => {
+    const elements = parseNetlistElements(spiceNetlist(designFor('wilson'), { analysis: 'ac-differential', ...AC_SWEEP }));
+    expect(source(elements, 'VIN1')).toMatchObject({ dcV: 0.5, acMagnitude: 0.5, acPhaseDeg: 0 });
+    expect(source(elements, 'VIN2')).toMatchObject({ dcV: 0.5, acMagnitude: 0.5, acPhaseDeg: 180 });
+  });
+
+  test('ac-common-mode: both inputs AC 1 ∠0°', () => {
+    const elements = parseNetlistElements(spiceNetlist(designFor('wilson'), { analysis: 'ac-common-mode', ...AC_SWEEP }));
+    expect(source(elements, 'VIN1')).toMatchObject({ dcV: 0.5, acMagnitude: 1, acPhaseDeg: 0 });
+    expect(source(elements, 'VIN2')).toMatchObject({ dcV: 0.5, acMagnitude: 1, acPhaseDeg: 0 });
+  });
+
+  test.each(TOPOLOGIES)('%s, ac-tail: only the tail elements, t held by a source at tailNodeV with AC 1', (topology) => {
+    const design = designFor(topology, { pairEmitterResistanceOhm: 100, tailCapacitanceF: 1e-11 });
+    const elements = parseNetlistElements(spiceNetlist(design, { analysis: 'ac-tail', tailNodeV: -0.61, ...AC_SWEEP }));
+    const tailNames = stageCircuit(design)
+      .elements.filter((e) => e.part === 'tail')
+      .map((e) => e.name);
+    expect(elements.filter((e) => e.kind !== 'V').map((e) => e.name)).toEqual(tailNames);
+    expect(source(elements, TAIL_TEST_SOURCE)).toMatchObject({ nodes: ['t', '0'], dcV: -0.61, acMagnitude: 1, acPhaseDeg: 0 });
+    expect(elements.some((e) => e.name === 'VIN1' || e.name === 'VIN2')).toBe(false);
+    CONTRACT_CONNECTIONS[topology](elements, design.tail);
+  });
+
+  test('model card: the effective IS (from vbeOnV when IS is absent), BF, VAF; VAF omitted when infinite', () => {
+    const withEarly = modelParameters(spiceNetlist(designFor('resistor'), { analysis: 'op' }));
+    expect(withEarly).toEqual({ IS: 1.1e-14, BF: 165, VAF: 92 });
+    const fromVbe: DeviceParams = { family: 'npn', beta: 240, vbeOnV: 0.68, earlyVoltageV: 0 };
+    const derived = modelParameters(spiceNetlist(designFor('resistor', { device: fromVbe }), { analysis: 'op' }));
+    expect(derived).toEqual({ IS: nominalSaturationCurrentA(fromVbe), BF: 240 });
+  });
+
+  test.each([-40, 27, 85])('.options carries temp=%s and tnom=27 on its own line', (temperatureC) => {
+    const netlist = spiceNetlist(designFor('widlar', { temperatureC }), { analysis: 'op' });
+    const options = netlist.split('\n').filter((line) => /^\.options\s/i.test(line));
+    expect(options).toEqual([`.options temp=${temperatureC} tnom=27`]);
+  });
+
+  test('a solver RELTOL, when asked for, joins the same .options line', () => {
+    const netlist = spiceNetlist(designFor('widlar'), { analysis: 'op', relativeTolerance: 1e-6 });
+    expect(netlist.split('\n').filter((line) => /^\.options\s/i.test(line))).toEqual(['.options temp=27 tnom=27 reltol=0.000001']);
+    expect(() => spiceNetlist(designFor('widlar'), { analysis: 'op', relativeTolerance: 0 })).toThrow(RangeError);
+  });
+
+  test('transistor area factors are written only when ≠ 1', () => {
+    const elements = parseNetlistElements(spiceNetlist(designFor('cascode', { pairSaturationCurrentMismatch: -0.015 }), { analysis: 'op' }));
+    expect(transistor(elements, 'Q2').area).toBe(0.985);
+    const netlist = spiceNetlist(designFor('cascode'), { analysis: 'op' });
+    expect(netlist).not.toMatch(/area=/i);
+  });
+
+  test('rejects an AC sweep that SPICE cannot run', () => {
+    expect(() => spiceNetlist(designFor('resistor'), { analysis: 'ac-common-mode', startHz: 0, stopHz: 10, pointsPerDecade: 5 })).toThrow(RangeError);
+    expect(() => spiceNetlist(designFor('resistor'), { analysis: 'ac-common-mode', startHz: 1, stopHz: 10, pointsPerDecade: 2.5 })).toThrow(RangeError);
+  });
+});
+
+describe('parseNetlistElements and parseSpiceNumber', () => {
+  test.each([
+    ['4.7k', 4700],
+    ['10uF', 1e-5],
+    ['1MEG', 1e6],
+    ['1M', 1e-3],
+    ['2.2e3', 2200],
+    ['-9', -9],
+    ['.5p', 0.5e-12],
+    ['3mil', 3 * 25.4e-6],
+  ])('%s reads as %s', (text, expected) => {
+    expect(parseSpiceNumber(text)).toBeCloseTo(expected, 12);
+  });
+
+  test('comments, inline comments, continuation lines, suffixes and area forms', () => {
+    const text = [
+      'hand-written check netlist',
+      '* a comment line',
+      'R1 a b 4.7k ; inline comment',
+      'Q7 c',
+      '+ b e MOD 2',
+      'Q8 c b e MOD area=0.5',
+      'C1 t 0 22p',
+      'V1 in 0 DC -1.5 AC 0.5 180',
+      'V2 in2 0 2.5',
+      '.model MOD NPN (IS=1e-15)',
+      '.end',
+    ].join('\n');
+    expect(parseNetlistElements(text)).toEqual([
+      { kind: 'R', name: 'R1', nodes: ['a', 'b'], valueOhm: 4700 },
+      { kind: 'Q', name: 'Q7', collector: 'c', base: 'b', emitter: 'e', model: 'MOD', area: 2 },
+      { kind: 'Q', name: 'Q8', collector: 'c', base: 'b', emitter: 'e', model: 'MOD', area: 0.5 },
+      { kind: 'C', name: 'C1', nodes: ['t', '0'], valueF: 22e-12 },
+      { kind: 'V', name: 'V1', nodes: ['in', '0'], dcV: -1.5, acMagnitude: 0.5, acPhaseDeg: 180 },
+      { kind: 'V', name: 'V2', nodes: ['in2', '0'], dcV: 2.5, acMagnitude: 0, acPhaseDeg: 0 },
+    ]);
+  });
+});
+
+describe('ngspice runs the netlists', () => {
+  beforeAll(startSpice, ENGINE_START_TIMEOUT_MS);
+
+  test.each(TOPOLOGIES)('%s: .op and every AC analysis run without errors', async (topology) => {
+    const design = designFor(topology, { pairEmitterResistanceOhm: 82, collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, tailCapacitanceF: 3.3e-12 });
+    const op = await spiceOperatingPoint(design);
+    const tailNodes = stageCircuit(design).elements.flatMap((e) => (e.kind === 'npn' ? [e.collector, e.base, e.emitter] : e.nodes));
+    for (const node of tailNodes) expect(Number.isFinite(op.nodeVoltagesV[node]), `v(${node})`).toBe(true);
+    const sweep = { startHz: 1, stopHz: 1e6, pointsPerDecade: 5 };
+    for (const options of [
+      { analysis: 'ac-differential', ...sweep },
+      { analysis: 'ac-common-mode', ...sweep },
+      { analysis: 'ac-tail', tailNodeV: op.nodeVoltagesV.t, ...sweep },
+    ] as const) {
+      const ac = await spiceAc(design, options);
+      expect(ac.frequenciesHz).toHaveLength(31);
+      expect(ac.frequenciesHz[0]).toBeCloseTo(1, 9);
+    }
+  });
+
+  // [SPICE] IS(T) = IS·(T/Tnom)^3·exp((EG/VT)·(T/Tnom − 1)): Q1's IS read back from the simulated bias
+  // (IC from the RC1 drop, IC = IS(T)·exp(VBE/VT)·(1 + VCB/VAF)) shows `.options temp/tnom` took effect.
+  test.each([-40, 27, 85])('temperature %s °C: ngspice uses IS(T) of device.ts', async (temperatureC) => {
+    const design = designFor('resistor', { temperatureC });
+    const { nodeVoltagesV: v } = await spiceOperatingPoint(design);
+    const icA = (9 - v.c1) / 6200;
+    const vbeV = v.in1 - v.t;
+    const vcbV = v.c1 - v.in1;
+    const isA = icA / (Math.exp(vbeV / thermalVoltageV(temperatureC)) * (1 + vcbV / 92));
+    expect(isA / saturationCurrentAtA(1.1e-14, temperatureC)).toBeCloseTo(1, 2);
+  });
+
+  test('area factor: with equal VBE and no Early effect, IC2/IC1 = 1 + δ', async () => {
+    const design = designFor('simple-mirror', { device: DEVICE_NO_EARLY, pairSaturationCurrentMismatch: 0.02 });
+    const { nodeVoltagesV: v } = await spiceOperatingPoint(design);
+    expect((9 - v.c2) / (9 - v.c1)).toBeCloseTo(1.02, 4);
+  });
+
+  test('power: −(VP·i(vp) + VN·i(vn)) equals VP·(IRC1 + IRC2) + |VN|·IRT for a resistor tail, and is positive', async () => {
+    const design = designFor('resistor');
+    const figures = await spiceFigures(design);
+    const { nodeVoltagesV: v } = await spiceOperatingPoint(design);
+    const byHandW = 9 * ((9 - v.c1) / 6200 + (9 - v.c2) / 6200) + 9 * ((v.t + 9) / 5100);
+    expect(figures.powerW).toBeGreaterThan(0);
+    expect(figures.powerW / byHandW).toBeCloseTo(1, 6);
+  });
+
+  test('ac-tail of a resistor tail reads back its resistance', async () => {
+    const figures = await spiceFigures(designFor('resistor'));
+    expect(figures.tailOutputResistanceOhm / 5100).toBeCloseTo(1, 6);
+  });
+
+  // [GM] simple mirror: Iout ≈ Iref/(1 + 2/β)·(1 + (VCE4 − VBE)/VA); in SPICE's form VCE4 − VBE = VCB4.
+  test('[GM] simple mirror: Iout ≈ Iref/(1 + 2/β)·(1 + VCB4/VA), within 1 %', async () => {
+    const design = designFor('simple-mirror');
+    const figures = await spiceFigures(design);
+    const vcb4V = figures.transistors.find((q) => q.name === 'Q4')!.vcbV;
+    expect(figures.tailCurrentA / ((figures.referenceCurrentA / (1 + 2 / 165)) * (1 + vcb4V / 92))).toBeCloseTo(1, 2);
+  });
+
+  test('[GM] simple mirror without Early effect: Iout ≈ Iref/(1 + 2/β), within 1 %', async () => {
+    const figures = await spiceFigures(designFor('simple-mirror', { device: DEVICE_NO_EARLY }));
+    expect(figures.tailCurrentA / (figures.referenceCurrentA / (1 + 2 / 165))).toBeCloseTo(1, 2);
+  });
+
+  test('[GM] Wilson without Early effect: Iout ≈ Iref·(1 − 2/(β² + 2β + 2)), within 1 %', async () => {
+    const figures = await spiceFigures(designFor('wilson', { device: DEVICE_NO_EARLY }));
+    const beta = 165;
+    expect(figures.tailCurrentA / (figures.referenceCurrentA * (1 - 2 / (beta * beta + 2 * beta + 2)))).toBeCloseTo(1, 2);
+  });
+
+  test('[GM] Widlar without Early effect: Iout·RE = VT·ln(Iref/Iout) (base currents neglected), within 2 %', async () => {
+    const figures = await spiceFigures(designFor('widlar', { device: DEVICE_NO_EARLY }));
+    const vtV = thermalVoltageV(27);
+    let ioutA = figures.referenceCurrentA / 10;
+    for (let i = 0; i < 200; i += 1) ioutA = (vtV * Math.log(figures.referenceCurrentA / ioutA)) / 270;
+    expect(Math.abs(figures.tailCurrentA / ioutA - 1)).toBeLessThan(0.02);
+  });
+
+  test.each(['resistor', 'simple-mirror', 'cascode'] as const)('[SS] %s without Early effect: |Ad| ≈ gm·RC and |Ase| ≈ gm·RC/2, within 5 %', async (topology) => {
+    const figures = await spiceFigures(designFor(topology, { device: DEVICE_NO_EARLY }));
+    const gmS = figures.collectorCurrentA / thermalVoltageV(27);
+    expect(Math.abs(Math.abs(figures.differentialGain) / (gmS * 6200) - 1)).toBeLessThan(0.05);
+    expect(Math.abs(Math.abs(figures.singleEndedGain) / ((gmS * 6200) / 2) - 1)).toBeLessThan(0.05);
+    expect(figures.differentialGain).toBeLessThan(0);
+  });
+
+  // [SS] with the pair's own ro in SPICE's form, ro = (VAF + VCB)/IC [SPICE]: about 5 % below gm·RC here.
+  test.each(['resistor', 'wilson'] as const)('[SS][SPICE] %s: |Ad| ≈ gm·(RC ∥ ro), within 2 %', async (topology) => {
+    const figures = await spiceFigures(designFor(topology));
+    const gmS = figures.collectorCurrentA / thermalVoltageV(27);
+    const roOhm = (92 + figures.transistors.find((q) => q.name === 'Q1')!.vcbV) / figures.collectorCurrentA;
+    expect(Math.abs(Math.abs(figures.differentialGain) / ((gmS * 6200 * roOhm) / (6200 + roOhm)) - 1)).toBeLessThan(0.02);
+  });
+
+  test('[SS] resistor tail: Acm ≈ −RC/(2·Rout), within 5 %', async () => {
+    const figures = await spiceFigures(designFor('resistor'));
+    expect(Math.abs(figures.commonModeGain / (-6200 / (2 * 5100)) - 1)).toBeLessThan(0.05);
+  });
+
+  test('[DOMAIN tail capacitance] resistor tail: the CMRR corner is near 1/(2π·Rout·Ct), within 10 %', async () => {
+    const figures = await spiceFigures(designFor('resistor', { tailCapacitanceF: 10e-12 }));
+    expect(Math.abs(figures.cmrrCornerHz! / (1 / (2 * Math.PI * 5100 * 10e-12)) - 1)).toBeLessThan(0.1);
+  });
+
+  test('a matched pair has no differential common-mode gain (differential CMRR null)', async () => {
+    const figures = await spiceFigures(designFor('wilson'));
+    expect(figures.differentialCommonModeGain).toBe(0);
+    expect(figures.cmrrDb.differential).toBeNull();
+    expect(figures.cmrrCornerHz).toBeNull();
+  });
+});

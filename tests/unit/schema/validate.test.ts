@@ -1,0 +1,378 @@
+import { describe, expect, test } from 'vitest';
+import { DEFAULT_VBE_ON_V, DEFAULT_VCE_SAT_V, NOMINAL_TEMPERATURE_C } from '../../../shared/engine/constants';
+import { formatIssue, validateDesign, validateSpec, type ValidationResult } from '../../../shared/validate';
+import { FULL_DESIGN, FULL_SPEC, MINIMAL_DESIGN, MINIMAL_SPEC, TAILS, withField } from './schema-fixtures';
+
+/** The issues of a failed validation as the CLI prints them ("/path: message"). */
+function printed(result: ValidationResult<unknown>): string[] {
+  return result.ok ? [] : result.errors.map(formatIssue);
+}
+
+function paths(result: ValidationResult<unknown>): string[] {
+  return result.ok ? [] : result.errors.map((e) => e.path);
+}
+
+function deepFreeze<T>(value: T): T {
+  if (value && typeof value === 'object') Object.values(value).forEach(deepFreeze);
+  return Object.freeze(value);
+}
+
+describe('validateSpec', () => {
+  test('a full spec validates and comes back unchanged', () => {
+    expect(validateSpec(FULL_SPEC)).toEqual({ ok: true, value: FULL_SPEC });
+  });
+
+  test('a minimal spec gets every default filled in', () => {
+    // Defaults are this project's choices; sources where they are more than a choice
+    expect(validateSpec(MINIMAL_SPEC)).toEqual({
+      ok: true,
+      value: {
+        ...MINIMAL_SPEC,
+        // VBE 0.65 V and VCE(sat) 0.2 V at 1 mA: common practice for small-signal silicon;
+        // beta 100, VAF 100 V, 1 mV mismatch: a typical small-signal NPN (common practice, from memory)
+        device: { family: 'npn', beta: 100, earlyVoltageV: 100, vbeOnV: 0.65, vceSatV: 0.2, vbeMismatchSigmaV: 0.001 },
+        gain: { target: 100, tolerancePercent: 10, output: 'differential' },
+        cmrr: { minDb: 80, atFrequencyHz: 0, marginDb: 6, minYieldPercent: 99 },
+        inputCommonMode: { minV: 0, maxV: 0 },
+        outputSwingVpp: 1,
+        powerBudgetW: 1,
+        temperatureC: { min: 0, max: 70 },
+        resistors: { series: 'E96', tolerance: 0.01 }, // E96 is the ±1 % series (common practice)
+        tailCapacitanceF: 0,
+        topologies: ['resistor', 'simple-mirror', 'degenerated-mirror', 'widlar', 'wilson', 'cascode'],
+        policy: 'simplest-sufficient',
+        hazards: { patientConnected: false, mainsReferenced: false },
+        monteCarlo: { samples: 2000, seed: 1 },
+      },
+    });
+  });
+
+  test.each(['/title', '/supply', '/gain', '/cmrr', '/supply/positiveV', '/supply/negativeV', '/gain/target', '/cmrr/minDb'])(
+    'without %s: "is required" at that path',
+    (pointer) => {
+      expect(printed(validateSpec(withField(MINIMAL_SPEC, pointer, undefined)))).toEqual([`${pointer}: is required`]);
+    },
+  );
+
+  // Ranges from the spec brief; `null` = valid, else the path of the one issue expected
+  test.each([
+    ['/device/beta', 10, null],
+    ['/device/beta', 9.9, '/device/beta'],
+    ['/device/beta', 2000, null],
+    ['/device/beta', 2000.5, '/device/beta'],
+    ['/device/earlyVoltageV', 0, null],
+    ['/device/earlyVoltageV', 0.5, '/device/earlyVoltageV'],
+    ['/device/earlyVoltageV', 1, null],
+    ['/device/earlyVoltageV', 1000, null],
+    ['/device/earlyVoltageV', 1001, '/device/earlyVoltageV'],
+    ['/device/earlyVoltageV', -1, '/device/earlyVoltageV'],
+    ['/device/saturationCurrentA', 1e-20, null],
+    ['/device/saturationCurrentA', 1e-21, '/device/saturationCurrentA'],
+    ['/device/saturationCurrentA', 1e-9, null],
+    ['/device/saturationCurrentA', 2e-9, '/device/saturationCurrentA'],
+    ['/device/vbeOnV', 0.4, null],
+    ['/device/vbeOnV', 0.39, '/device/vbeOnV'],
+    ['/device/vbeOnV', 0.9, null],
+    ['/device/vbeOnV', 0.91, '/device/vbeOnV'],
+    ['/device/vceSatV', 0.05, null],
+    ['/device/vceSatV', 0.04, '/device/vceSatV'],
+    ['/device/vceSatV', 1, null],
+    ['/device/vceSatV', 1.1, '/device/vceSatV'],
+    ['/device/vbeMismatchSigmaV', 0, null],
+    ['/device/vbeMismatchSigmaV', -0.001, '/device/vbeMismatchSigmaV'],
+    ['/device/vbeMismatchSigmaV', 0.02, null],
+    ['/device/vbeMismatchSigmaV', 0.021, '/device/vbeMismatchSigmaV'],
+    ['/device/family', 'pnp', '/device/family'],
+    ['/supply/positiveV', 100, null],
+    ['/supply/positiveV', 101, '/supply/positiveV'],
+    ['/supply/negativeV', -100, null],
+    ['/supply/negativeV', -101, '/supply/negativeV'],
+    ['/gain/target', 0, '/gain/target'],
+    ['/gain/target', 10000, null],
+    ['/gain/target', 10001, '/gain/target'],
+    ['/gain/tolerancePercent', 0.1, null],
+    ['/gain/tolerancePercent', 0.09, '/gain/tolerancePercent'],
+    ['/gain/tolerancePercent', 50, null],
+    ['/gain/tolerancePercent', 51, '/gain/tolerancePercent'],
+    ['/gain/output', 'differential', null],
+    ['/gain/output', 'both', '/gain/output'],
+    ['/cmrr/minDb', 0, null],
+    ['/cmrr/minDb', -1, '/cmrr/minDb'],
+    ['/cmrr/minDb', 200, null],
+    ['/cmrr/minDb', 201, '/cmrr/minDb'],
+    ['/cmrr/atFrequencyHz', 0, null],
+    ['/cmrr/atFrequencyHz', -1, '/cmrr/atFrequencyHz'],
+    ['/cmrr/atFrequencyHz', 1e9, null],
+    ['/cmrr/atFrequencyHz', 2e9, '/cmrr/atFrequencyHz'],
+    ['/cmrr/marginDb', 0, null],
+    ['/cmrr/marginDb', 40, null],
+    ['/cmrr/marginDb', 41, '/cmrr/marginDb'],
+    ['/cmrr/minYieldPercent', 0, null],
+    ['/cmrr/minYieldPercent', 100, null],
+    ['/cmrr/minYieldPercent', 101, '/cmrr/minYieldPercent'],
+    ['/outputSwingVpp', 0, null],
+    ['/outputSwingVpp', -1, '/outputSwingVpp'],
+    ['/powerBudgetW', 0, '/powerBudgetW'],
+    ['/powerBudgetW', 0.001, null],
+    ['/tailCurrentA', 1e-7, null],
+    ['/tailCurrentA', 1e-8, '/tailCurrentA'],
+    ['/tailCurrentA', 0.1, null],
+    ['/tailCurrentA', 0.2, '/tailCurrentA'],
+    ['/temperatureC/min', -55, null],
+    ['/temperatureC/min', -56, '/temperatureC/min'],
+    ['/temperatureC/max', 150, null],
+    ['/temperatureC/max', 151, '/temperatureC/max'],
+    ['/resistors/series', 'E24', null],
+    ['/resistors/series', 'E12', '/resistors/series'],
+    ['/resistors/tolerance', 0.0005, null],
+    ['/resistors/tolerance', 0.0004, '/resistors/tolerance'],
+    ['/resistors/tolerance', 0.2, null],
+    ['/resistors/tolerance', 0.3, '/resistors/tolerance'],
+    ['/tailCapacitanceF', 0, null],
+    ['/tailCapacitanceF', 1e-9, null],
+    ['/tailCapacitanceF', 2e-9, '/tailCapacitanceF'],
+    ['/tailCapacitanceF', -1e-12, '/tailCapacitanceF'],
+    ['/topologies', ['cascode'], null],
+    ['/topologies', [], '/topologies'],
+    ['/topologies', ['wilson', 'wilson'], '/topologies'],
+    ['/topologies', ['wilson', 'current-conveyor'], '/topologies/1'],
+    ['/policy', 'cheapest', '/policy'],
+    ['/hazards/patientConnected', false, null],
+    ['/monteCarlo/samples', 100, null],
+    ['/monteCarlo/samples', 99, '/monteCarlo/samples'],
+    ['/monteCarlo/samples', 100000, null],
+    ['/monteCarlo/samples', 100001, '/monteCarlo/samples'],
+    ['/monteCarlo/samples', 500.5, '/monteCarlo/samples'],
+    ['/monteCarlo/seed', 0, null],
+    ['/monteCarlo/seed', -1, '/monteCarlo/seed'],
+    ['/monteCarlo/seed', 1.5, '/monteCarlo/seed'],
+    ['/title', '', '/title'],
+  ])('%s = %j: issue at %s', (pointer, value, expectedPath) => {
+    const result = validateSpec(withField(FULL_SPEC, pointer, value));
+    expect(paths(result)).toEqual(expectedPath === null ? [] : [expectedPath]);
+  });
+
+  test.each([
+    ['/supply/positiveV', '12', '/supply/positiveV: must be a number, got "12"'],
+    ['/cmrr/minDb', null, '/cmrr/minDb: must be a number, got null'],
+    ['/cmrr/minDb', NaN, '/cmrr/minDb: must be a number, got NaN'],
+    ['/cmrr/minDb', Infinity, '/cmrr/minDb: must be a number, got Infinity'],
+    ['/gain/output', 3, '/gain/output: must be a string, got 3'],
+    ['/topologies', 'wilson', '/topologies: must be an array, got "wilson"'],
+    ['/hazards/mainsReferenced', 1, '/hazards/mainsReferenced: must be a boolean, got 1'],
+    ['/device', 'npn', '/device: must be an object, got "npn"'],
+    ['/monteCarlo/seed', 1.5, '/monteCarlo/seed: must be an integer, got 1.5'],
+    ['/vaf', 100, '/vaf: is not a known field here (remove it or check its spelling)'],
+    ['/device/vaf', 100, '/device/vaf: is not a known field here (remove it or check its spelling)'],
+  ])('%s = %j is reported as %j', (pointer, value, expected) => {
+    expect(printed(validateSpec(withField(FULL_SPEC, pointer, value)))).toEqual([expected]);
+  });
+
+  test.each([
+    ['/device/beta', 5, '/device/beta: must be >= 10 A/A, got 5 A/A'],
+    ['/device/earlyVoltageV', 0.5, '/device/earlyVoltageV: must not be strictly between 0 and 1 V, got 0.5 V'],
+    ['/powerBudgetW', 0, '/powerBudgetW: must be > 0 W, got 0 W'],
+    ['/resistors/tolerance', 0.3, '/resistors/tolerance: must be <= 0.2, got 0.3'],
+    ['/gain/output', 'both', '/gain/output: must be one of differential, single-ended, got "both"'],
+    ['/device/family', 'pnp', '/device/family: must be "npn", got "pnp"'],
+  ])('range message for %s = %j names the limit and unit', (pointer, value, expected) => {
+    expect(printed(validateSpec(withField(FULL_SPEC, pointer, value)))).toEqual([expected]);
+  });
+
+  test.each([
+    ['rails in the wrong order', { supply: { positiveV: 5, negativeV: 12 } }, ['/supply/negativeV: must be < supply.positiveV (5 V), got 12 V']],
+    ['equal rails', { supply: { positiveV: 5, negativeV: 5 } }, ['/supply/negativeV: must be < supply.positiveV (5 V), got 5 V']],
+    [
+      'common-mode range inverted',
+      { inputCommonMode: { minV: 3, maxV: 2 } },
+      ['/inputCommonMode/minV: must be at most inputCommonMode.maxV (2 V), got 3 V'],
+    ],
+    ['temperature range inverted', { temperatureC: { min: 80, max: 70 } }, ['/temperatureC/min: must be at most temperatureC.max (70 °C), got 80 °C']],
+    [
+      'common mode above the positive rail',
+      { inputCommonMode: { minV: 0, maxV: 14 } },
+      ['/inputCommonMode/maxV: must be below supply.positiveV (12 V), got 14 V'],
+    ],
+    [
+      'common mode on the positive rail (strictly inside)',
+      { inputCommonMode: { minV: 0, maxV: 12 } },
+      ['/inputCommonMode/maxV: must be below supply.positiveV (12 V), got 12 V'],
+    ],
+    [
+      'common mode below the negative rail',
+      { inputCommonMode: { minV: -13, maxV: 0 } },
+      ['/inputCommonMode/minV: must be above supply.negativeV (-12 V), got -13 V'],
+    ],
+    [
+      'single supply with the default common mode (0 V, on the rail)',
+      { supply: { positiveV: 5, negativeV: 0 } },
+      [
+        '/inputCommonMode/minV: must be above supply.negativeV (0 V), got 0 V',
+        '/inputCommonMode/maxV: must be above supply.negativeV (0 V), got 0 V',
+      ],
+    ],
+    [
+      'swing as large as the rail span',
+      { outputSwingVpp: 24 },
+      ['/outputSwingVpp: must be less than the rail span supply.positiveV - supply.negativeV (24 V), got 24 V'],
+    ],
+  ])('%s', (_name, patch, expected) => {
+    expect(printed(validateSpec({ ...MINIMAL_SPEC, ...patch }))).toEqual(expected);
+  });
+
+  test('collects every cross-field issue, not just the first', () => {
+    const result = validateSpec({
+      ...MINIMAL_SPEC,
+      inputCommonMode: { minV: 13, maxV: 12.5 },
+      temperatureC: { min: 100, max: 0 },
+      outputSwingVpp: 30,
+    });
+    expect(paths(result)).toEqual([
+      '/inputCommonMode/minV',
+      '/temperatureC/min',
+      '/inputCommonMode/minV',
+      '/inputCommonMode/maxV',
+      '/outputSwingVpp',
+    ]);
+  });
+
+  test('collects every schema issue, not just the first', () => {
+    const result = validateSpec({ supply: { positiveV: 'x' }, gain: { target: -1 }, cmrr: {}, policy: 'x' });
+    expect(paths(result)).toEqual(
+      expect.arrayContaining(['/title', '/supply/negativeV', '/supply/positiveV', '/gain/target', '/cmrr/minDb', '/policy']),
+    );
+  });
+
+  test('does not mutate the caller\u2019s object, and never shares defaults between calls', () => {
+    const input = deepFreeze(structuredClone(MINIMAL_SPEC));
+    const first = validateSpec(input);
+    expect(input).toEqual(MINIMAL_SPEC);
+    expect(first.ok && first.value).not.toBe(input);
+    if (first.ok) first.value.topologies.pop();
+    const second = validateSpec(input);
+    expect(second.ok && second.value.topologies).toHaveLength(6);
+  });
+
+  test.each([
+    [null, '/: must be an object, got null'],
+    [[], '/: must be an object, got an array'],
+    ['spec', '/: must be an object, got "spec"'],
+    [undefined, '/: must be an object, got undefined'],
+    [{ ...MINIMAL_SPEC, title: () => 'x' }, '/: must be plain JSON data'],
+  ])('%j is rejected at the root', (input, expected) => {
+    expect(printed(validateSpec(input))).toEqual([expected]);
+  });
+});
+
+describe('validateDesign', () => {
+  test.each(TAILS.map((tail) => [tail.topology, tail]))('a %s tail validates', (_topology, tail) => {
+    const design = { ...FULL_DESIGN, tail };
+    expect(validateDesign(design)).toEqual({ ok: true, value: design });
+  });
+
+  test('a minimal design gets the contract\u2019s defaults, the engine\u2019s own', () => {
+    expect(validateDesign(MINIMAL_DESIGN)).toEqual({
+      ok: true,
+      value: {
+        ...MINIMAL_DESIGN,
+        device: { family: 'npn', beta: 120, vbeOnV: DEFAULT_VBE_ON_V, vceSatV: DEFAULT_VCE_SAT_V },
+        collectorMismatch: 0,
+        pairEmitterResistanceOhm: 0,
+        pairSaturationCurrentMismatch: 0,
+        inputCommonModeV: 0,
+        temperatureC: NOMINAL_TEMPERATURE_C,
+        tailCapacitanceF: 0,
+      },
+    });
+  });
+
+  test('an unknown topology gives one clear message at /tail/topology', () => {
+    const result = validateDesign({ ...MINIMAL_DESIGN, tail: { topology: 'mirror', referenceResistanceOhm: 22000 } });
+    expect(printed(result)).toEqual([
+      '/tail/topology: must be one of resistor, simple-mirror, degenerated-mirror, widlar, wilson, cascode, got "mirror"',
+    ]);
+  });
+
+  test.each([
+    [{}, '/tail/topology: is required'],
+    [{ topology: 3 }, '/tail/topology: must be one of resistor, simple-mirror, degenerated-mirror, widlar, wilson, cascode, got 3'],
+    ['mirror', '/tail: must be an object, got "mirror"'],
+  ])('tail %j: %s', (tail, expected) => {
+    expect(printed(validateDesign({ ...MINIMAL_DESIGN, tail }))).toEqual([expected]);
+  });
+
+  test.each([
+    ['resistor', 'resistanceOhm'],
+    ['simple-mirror', 'referenceResistanceOhm'],
+    ['degenerated-mirror', 'referenceResistanceOhm'],
+    ['degenerated-mirror', 'emitterResistanceOhm'],
+    ['widlar', 'referenceResistanceOhm'],
+    ['widlar', 'emitterResistanceOhm'],
+    ['wilson', 'referenceResistanceOhm'],
+    ['cascode', 'referenceResistanceOhm'],
+  ])('a %s tail without %s: only that field is reported', (topology, field) => {
+    const tail = { ...TAILS.find((t) => t.topology === topology) } as Record<string, unknown>;
+    delete tail[field];
+    expect(printed(validateDesign({ ...MINIMAL_DESIGN, tail }))).toEqual([`/tail/${field}: is required`]);
+  });
+
+  test.each([
+    ['resistor', 'referenceResistanceOhm'],
+    ['simple-mirror', 'emitterResistanceOhm'],
+    ['wilson', 'resistanceOhm'],
+  ])('a %s tail with %s (another topology\u2019s field) is rejected there', (topology, field) => {
+    const tail = { ...TAILS.find((t) => t.topology === topology), [field]: 1000 };
+    expect(paths(validateDesign({ ...MINIMAL_DESIGN, tail }))).toEqual([`/tail/${field}`]);
+  });
+
+  test.each([
+    ['/collectorResistanceOhm', 0, '/collectorResistanceOhm'],
+    ['/collectorResistanceOhm', 1e9, null],
+    ['/collectorResistanceOhm', 1.1e9, '/collectorResistanceOhm'],
+    ['/tail/referenceResistanceOhm', 0, '/tail/referenceResistanceOhm'],
+    ['/tail/referenceResistanceOhm', -100, '/tail/referenceResistanceOhm'],
+    ['/tail/referenceResistanceOhm', 2e9, '/tail/referenceResistanceOhm'],
+    ['/pairEmitterResistanceOhm', 0, null],
+    ['/pairEmitterResistanceOhm', -1, '/pairEmitterResistanceOhm'],
+    ['/collectorMismatch', -0.5, null],
+    ['/collectorMismatch', 0.5, null],
+    ['/collectorMismatch', 0.6, '/collectorMismatch'],
+    ['/pairSaturationCurrentMismatch', -0.6, '/pairSaturationCurrentMismatch'],
+    ['/temperatureC', -55, null],
+    ['/temperatureC', 151, '/temperatureC'],
+    ['/tailCapacitanceF', -1e-12, '/tailCapacitanceF'],
+    ['/inputCommonModeV', -11.9, null],
+    ['/device/beta', undefined, '/device/beta'],
+    ['/device/earlyVoltageV', 0, null],
+    ['/device/earlyVoltageV', 0.9, '/device/earlyVoltageV'],
+    ['/supply', undefined, '/supply'],
+    ['/extra', 1, '/extra'],
+  ])('%s = %j: issue at %s', (pointer, value, expectedPath) => {
+    const result = validateDesign(withField(FULL_DESIGN, pointer, value));
+    expect(paths(result)).toEqual(expectedPath === null ? [] : [expectedPath]);
+  });
+
+  test.each([
+    [{ supply: { positiveV: 0, negativeV: 5 } }, ['/supply/negativeV: must be < supply.positiveV (0 V), got 5 V']],
+    [{ inputCommonModeV: 12 }, ['/inputCommonModeV: must be below supply.positiveV (12 V), got 12 V']],
+    [{ inputCommonModeV: -12 }, ['/inputCommonModeV: must be above supply.negativeV (-12 V), got -12 V']],
+    [{ supply: { positiveV: 5, negativeV: 0 } }, ['/inputCommonModeV: must be above supply.negativeV (0 V), got 0 V']],
+  ])('cross-field %j', (patch, expected) => {
+    expect(printed(validateDesign({ ...MINIMAL_DESIGN, ...patch }))).toEqual(expected);
+  });
+
+  test('does not mutate the caller\u2019s object', () => {
+    const input = deepFreeze(structuredClone(MINIMAL_DESIGN));
+    expect(validateDesign(input).ok).toBe(true);
+    expect(input).toEqual(MINIMAL_DESIGN);
+  });
+});
+
+describe('formatIssue', () => {
+  test.each([
+    [{ path: '/supply/negativeV', message: 'must be < supply.positiveV' }, '/supply/negativeV: must be < supply.positiveV'],
+    [{ path: '', message: 'must be an object' }, '/: must be an object'],
+  ])('%j prints as %j', (issue, expected) => {
+    expect(formatIssue(issue)).toBe(expected);
+  });
+});
