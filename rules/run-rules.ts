@@ -64,6 +64,8 @@ export function rulesetVersion(rules: readonly RuleFile[]): string {
 interface Prepared {
   sorted: readonly RuleFile[];
   engine: Engine;
+  /** Facts the conditions read; only these go to the engine (each fact it is given costs a hash). */
+  conditionFacts: readonly string[];
   /** Runs on one Engine are chained: Engine.run keeps a shared status flag, and overlapping runs can skip rules. */
   queue: Promise<unknown>;
 }
@@ -78,9 +80,24 @@ export function prepareRules(rules: readonly RuleFile[]): void {
   const sorted = [...rules].sort(byName);
   const duplicate = sorted.find((rule, i) => i > 0 && rule.name === sorted[i - 1].name);
   if (duplicate) throw new Error(`Duplicate rule name "${duplicate.name}"`);
-  // The engine gets its own copy: json-rules-engine may write into condition objects.
-  const engine = new Engine(structuredClone(sorted) as RuleProperties[], { allowUndefinedFacts: false });
-  preparedByList.set(rules, { sorted, engine, queue: Promise.resolve() });
+  // The engine gets its own copy of the conditions (json-rules-engine may write into them) and
+  // no params: reasons are chosen and filled here, and every params object would be cloned per run.
+  const engineRules: RuleProperties[] = sorted.map((rule) => ({
+    name: rule.name,
+    conditions: structuredClone(rule.conditions),
+    event: { type: rule.event.type },
+  }));
+  const engine = new Engine(engineRules, { allowUndefinedFacts: false });
+  const conditionFacts = [...new Set(sorted.flatMap((rule) => factsIn(rule.conditions)))].sort();
+  preparedByList.set(rules, { sorted, engine, conditionFacts, queue: Promise.resolve() });
+}
+
+/** Fact names a condition tree reads, in leaves and in `{ "fact": ... }` values. */
+function factsIn(node: unknown): string[] {
+  if (Array.isArray(node)) return node.flatMap(factsIn);
+  if (typeof node !== 'object' || node === null) return [];
+  const { fact, ...rest } = node as Record<string, unknown>;
+  return [...(typeof fact === 'string' ? [fact] : []), ...Object.values(rest).flatMap(factsIn)];
 }
 
 function toCheck(rule: RuleFile, passed: boolean | undefined, facts: Readonly<OptionFacts>): Check {
@@ -111,7 +128,10 @@ function toCheck(rule: RuleFile, passed: boolean | undefined, facts: Readonly<Op
 export async function runRules(rules: readonly RuleFile[], facts: Readonly<OptionFacts>): Promise<Check[]> {
   prepareRules(rules);
   const prepared = preparedByList.get(rules) as Prepared;
-  const run = prepared.queue.then(() => prepared.engine.run(facts as unknown as Record<string, unknown>));
+  // Absent facts stay absent, so allowUndefinedFacts: false still rejects them.
+  const given = facts as unknown as Record<string, unknown>;
+  const engineFacts = Object.fromEntries(prepared.conditionFacts.filter((f) => f in given).map((f) => [f, given[f]]));
+  const run = prepared.queue.then(() => prepared.engine.run(engineFacts));
   prepared.queue = run.catch(() => undefined);
   const { results, failureResults } = await run;
   const passedByName = new Map<string, boolean>();

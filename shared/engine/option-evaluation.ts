@@ -6,7 +6,7 @@
 import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
 import { solveStage, singleEndedCmrrDbAt, type StageSolution } from './analyze';
 import { mismatchSensitivity, mismatchStages, monteCarloCmrr, worstCaseMismatchCmrrDb, type MonteCarloResult } from './mismatch';
-import { designAt, outputGain } from './sizing';
+import { designAt, outputGain, swingPeakPerCollectorV } from './sizing';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
 
 /** Usual safe-to-touch limit for DC rails [IEC62368]. */
@@ -46,7 +46,7 @@ export interface OptionEvaluation {
 }
 
 function at(spec: Spec, design: Design, condition: Condition): StageSolution {
-  return solveStage(designAt(spec, condition, design.tail, design.collectorResistanceOhm));
+  return solveStage(designAt(spec, condition, { tail: design.tail, collectorResistanceOhm: design.collectorResistanceOhm, pairEmitterResistanceOhm: design.pairEmitterResistanceOhm ?? 0 }));
 }
 
 function frequencyGrid(): number[] {
@@ -103,8 +103,7 @@ export function evaluateOption(spec: Spec, design: Design): OptionEvaluation {
   const gainVsIcmPercent = (Math.abs(outputGain(spec, icmHigh) - outputGain(spec, icmLow)) / gainNominal) * 100;
   const gainErrorPercent = ((gainNominal - spec.gain.target) / spec.gain.target) * 100;
 
-  // Each collector swings the whole output swing for a single-ended output, half of it for a differential one.
-  const swingPeakV = spec.outputSwingVpp / (differentialOutput ? 4 : 2);
+  const swingPeakV = swingPeakPerCollectorV(spec);
   const lowCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.minV);
   const highCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.maxV);
   const upRoomV = spec.supply.positiveV - Math.max(predicted.collectorVoltageV, predicted.collector2VoltageV);

@@ -26,6 +26,8 @@ const COMPLIANCE_ROOM_V = 0.2;
 /** Refinement of a resistor against an exact solve: relative tolerance and iteration limit. */
 const TUNE_TOLERANCE = 1e-4;
 const TUNE_MAX_ITERATIONS = 8;
+/** Drop across RC kept for the collector's upward swing, as a multiple of its peak (design choice). */
+const SWING_DROP_FACTOR = 1.25;
 /** Smallest resistor the sizing writes, ohms (keeps a design solvable when the rails leave no room). */
 const MIN_RESISTANCE_OHM = 1;
 
@@ -48,13 +50,21 @@ export interface SizedOption {
 const ohms = (r: number) => formatQuantity(r, 'Ohm');
 const amps = (i: number) => formatQuantity(i, 'A');
 
-/** The design shell shared by every option at a condition (no tail, no RC yet). */
-export function designAt(spec: Spec, condition: Condition, tail: TailDesign, collectorResistanceOhm: number): Design {
+/** The sized values of an option: what sizing chooses and every condition reuses. */
+export interface SizedValues {
+  tail: TailDesign;
+  collectorResistanceOhm: number;
+  pairEmitterResistanceOhm: number;
+}
+
+/** The analyze input of sized values at one condition. */
+export function designAt(spec: Spec, condition: Condition, values: SizedValues): Design {
   return {
     device: spec.device,
     supply: spec.supply,
-    collectorResistanceOhm,
-    tail,
+    collectorResistanceOhm: values.collectorResistanceOhm,
+    pairEmitterResistanceOhm: values.pairEmitterResistanceOhm,
+    tail: values.tail,
     inputCommonModeV: condition.inputCommonModeV,
     temperatureC: condition.temperatureC,
     tailCapacitanceF: spec.tailCapacitanceF,
@@ -109,14 +119,14 @@ function degenerationDropV(spec: Spec, vbeV: number): number {
 }
 
 /** Sizes and snaps the tail element for a target current at the nominal condition. */
-function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: number, rcGuessOhm: number, notes: string[]): TailDesign {
+function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: number, pair: Omit<SizedValues, 'tail'>, notes: string[]): TailDesign {
   const series = spec.resistors.series;
   const snap = (r: number) => snapToSeries(Math.max(r, MIN_RESISTANCE_OHM), series);
   const model = deviceModel(spec.device, nominal.temperatureC);
   const vbeV = model.thermalVoltageV * Math.log(tailA / model.saturationCurrentA);
   const { positiveV: vp, negativeV: vn } = spec.supply;
   const tailCurrent = (r: AnalyzeResult) => r.tailCurrentA;
-  const withTail = (tail: TailDesign) => designAt(spec, nominal, tail, rcGuessOhm);
+  const withTail = (tail: TailDesign) => designAt(spec, nominal, { ...pair, tail });
   switch (topology) {
     case 'resistor': {
       const start = (nominal.inputCommonModeV - vbeV - vn) / tailA;
@@ -155,21 +165,47 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
 }
 
 /**
- * Sizes one topology for a spec: tail current, tail element, then RC for the gain target
- * (|Ad| = gm·RC = IC·RC/VT: the DC drop across RC sets the gain [SS]), all on the spec's series.
+ * The pair's first values: RC from the gain target (|Ad| = gm·RC = IC·RC/VT: the DC drop across
+ * RC sets the gain [SS]); when that drop is too small for the collector's upward swing, a larger
+ * drop with emitter degeneration RE in each pair emitter, Ad = RC/(RE + 1/gm) [SS].
+ */
+function pairStart(spec: Spec, tailA: number, thermalVoltageV: number, notes: string[]): Omit<SizedValues, 'tail'> {
+  const series = spec.resistors.series;
+  const perCollectorGain = spec.gain.output === 'differential' ? spec.gain.target : 2 * spec.gain.target;
+  const collectorA = tailA / 2;
+  const gainDropV = perCollectorGain * thermalVoltageV;
+  const neededDropV = SWING_DROP_FACTOR * swingPeakPerCollectorV(spec);
+  if (gainDropV >= neededDropV) {
+    return { collectorResistanceOhm: gainDropV / collectorA, pairEmitterResistanceOhm: 0 };
+  }
+  const rcOhm = neededDropV / collectorA;
+  const reOhm = snapToSeries(Math.max(rcOhm / perCollectorGain - thermalVoltageV / collectorA, MIN_RESISTANCE_OHM), series);
+  notes.push(
+    `The gain alone would drop only ${formatQuantity(gainDropV, 'V')} across RC, less than the ${formatQuantity(neededDropV, 'V')} the output swing needs (${SWING_DROP_FACTOR}× its peak per collector): pair emitter degeneration RE ≈ RC/|A| − 1/gm, snapped to ${ohms(reOhm)} (${series}).`,
+  );
+  return { collectorResistanceOhm: rcOhm, pairEmitterResistanceOhm: reOhm };
+}
+
+/** Peak swing on each collector: the whole swing for a single-ended output, half of it for a differential one, V. */
+export function swingPeakPerCollectorV(spec: Spec): number {
+  return spec.outputSwingVpp / (spec.gain.output === 'differential' ? 4 : 2);
+}
+
+/**
+ * Sizes one topology for a spec: tail current, the pair's first values, the tail element, then
+ * RC refined for the gain target with the sized tail, all on the spec's series.
  */
 export function sizeTopology(spec: Spec, topology: TopologyId, nominal: Condition): SizedOption {
   const notes: string[] = [];
   const { currentA: tailA, note } = targetTailCurrentA(spec, topology);
   notes.push(note);
   const model = deviceModel(spec.device, nominal.temperatureC);
-  const perCollectorGain = spec.gain.output === 'differential' ? spec.gain.target : 2 * spec.gain.target;
-  const rcStartOhm = (perCollectorGain * model.thermalVoltageV) / (tailA / 2);
-  const tail = sizeTail(spec, topology, nominal, tailA, rcStartOhm, notes);
-  const rcExact = tuneResistance((x) => designAt(spec, nominal, tail, x), rcStartOhm, (r) => outputGain(spec, r), spec.gain.target, 1);
+  const pair = pairStart(spec, tailA, model.thermalVoltageV, notes);
+  const tail = sizeTail(spec, topology, nominal, tailA, pair, notes);
+  const withRc = (rcOhm: number): SizedValues => ({ tail, collectorResistanceOhm: rcOhm, pairEmitterResistanceOhm: pair.pairEmitterResistanceOhm });
+  const rcExact = tuneResistance((x) => designAt(spec, nominal, withRc(x)), pair.collectorResistanceOhm, (r) => outputGain(spec, r), spec.gain.target, 1);
   const rc = snapToSeries(rcExact, spec.resistors.series);
-  notes.push(
-    `RC ≈ ${spec.gain.output === 'differential' ? '|Ad|' : '2·|Ase|'}·VT/IC (the drop across RC sets the gain), refined by solving the stage with the sized tail to ${ohms(rcExact)}, snapped to ${ohms(rc)} (${spec.resistors.series}).`,
-  );
-  return { design: designAt(spec, nominal, tail, rc), notes };
+  const formula = pair.pairEmitterResistanceOhm > 0 ? '|A|·(RE + 1/gm)' : spec.gain.output === 'differential' ? '|Ad|·VT/IC' : '2·|Ase|·VT/IC';
+  notes.push(`RC ≈ ${formula}, refined by solving the stage with the sized tail to ${ohms(rcExact)}, snapped to ${ohms(rc)} (${spec.resistors.series}).`);
+  return { design: designAt(spec, nominal, withRc(rc)), notes };
 }

@@ -17,7 +17,7 @@ import {
   type ParsedElement,
 } from '../../../shared/engine/netlist';
 import { TOPOLOGIES, type Design, type DeviceParams, type TailDesign, type TopologyId } from '../../../shared/engine/types';
-import { spiceAc, spiceFigures, spiceOperatingPoint, startSpice } from '../../helpers/spice';
+import { runSpice, spiceAc, spiceFigures, spiceOperatingPoint, startSpice } from '../../helpers/spice';
 
 /** ngspice's first start (WebAssembly instantiation) takes about a second; allow for a slow machine. */
 const ENGINE_START_TIMEOUT_MS = 120_000;
@@ -368,6 +368,23 @@ describe('ngspice runs the netlists', () => {
       expect(ac.frequenciesHz).toHaveLength(31);
       expect(ac.frequenciesHz[0]).toBeCloseTo(1, 9);
     }
+  });
+
+  test('concurrent runs are serialised: each caller gets its own circuit\'s result', async () => {
+    const designs = [5100, 6800, 8200, 10000].map((resistanceOhm) => designFor('resistor', { tail: { topology: 'resistor', resistanceOhm } }));
+    const together = await Promise.all(designs.map((design) => spiceOperatingPoint(design)));
+    for (const [index, design] of designs.entries()) {
+      const alone = await spiceOperatingPoint(design);
+      expect(together[index].nodeVoltagesV).toEqual(alone.nodeVoltagesV);
+    }
+    expect(new Set(together.map((op) => op.nodeVoltagesV.c1)).size).toBe(designs.length);
+  });
+
+  test('a failing netlist rejects with ngspice\'s message, and the next run still works', async () => {
+    const broken = ['broken', 'R1 a 0 1k', 'Q1 a b 0 NOSUCHMODEL', '.op', '.end'].join('\n');
+    await expect(runSpice(broken)).rejects.toThrow(/ngspice run failed/);
+    const op = await spiceOperatingPoint(designFor('resistor'));
+    expect(op.nodeVoltagesV.vp).toBe(9);
   });
 
   // [SPICE] IS(T) = IS·(T/Tnom)^3·exp((EG/VT)·(T/Tnom − 1)): Q1's IS read back from the simulated bias

@@ -1,8 +1,9 @@
 /**
- * Inputs for the schema tests. Typed as the engine's shapes, so the compiler checks that they
+ * Inputs and small helpers for the schema tests. Typed as the engine's shapes, so the compiler checks that they
  * carry every field of `Spec` / `Design` and nothing else (excess-property checks).
  */
 import type { Design, Spec, TailDesign } from '../../../shared/engine/types';
+import { formatIssue, type ValidationResult } from '../../../shared/validate';
 
 /** A spec with every field, optional ones included, all different from the defaults. */
 export const FULL_SPEC: Spec = {
@@ -92,4 +93,20 @@ export function withField(base: object, pointer: string, value: unknown): Record
   if (value === undefined) delete parent[last];
   else parent[last] = value;
   return copy;
+}
+
+/** The issues of a failed validation as the CLI prints them ("/path: message"). */
+export function printed(result: ValidationResult<unknown>): string[] {
+  return result.ok ? [] : result.errors.map(formatIssue);
+}
+
+/** The JSON paths of a failed validation's issues, in order. */
+export function paths(result: ValidationResult<unknown>): string[] {
+  return result.ok ? [] : result.errors.map((e) => e.path);
+}
+
+/** Freezes a value and everything in it, so any write to it throws. */
+export function deepFreeze<T>(value: T): T {
+  if (value && typeof value === 'object') Object.values(value).forEach(deepFreeze);
+  return Object.freeze(value);
 }
