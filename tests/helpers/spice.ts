@@ -8,7 +8,7 @@
  * current flowing into the source's + terminal (so a rail delivering current reads negative).
  */
 import { Simulation, type ResultType } from 'eecircuit-engine';
-import { RAIL_NODES, stageCircuit, type CircuitElement, type TransistorElement } from '../../shared/engine/circuit';
+import { RAIL_NODES, stageCircuit, type CircuitElement, type ResistorElement, type TransistorElement } from '../../shared/engine/circuit';
 import {
   INPUT_SOURCES,
   SUPPLY_SOURCES,
@@ -238,7 +238,7 @@ export async function spiceFigures(design: Design, options: { frequencyHz?: numb
   const collectorCurrentA = (positiveV - v.c1) / rc1Ohm;
   const collector2CurrentA = (positiveV - v.c2) / rc2Ohm;
   const tailCurrentA = collectorCurrentA + collector2CurrentA - i[vin1] - i[vin2];
-  const reference = circuit.elements.find((e) => e.kind === 'resistor' && e.name === 'RREF');
+  const reference = circuit.elements.find((e): e is ResistorElement => e.kind === 'resistor' && e.name === 'RREF');
   const referenceNode = reference?.nodes.find((node) => node !== RAIL_NODES.positive);
   const referenceCurrentA = referenceNode ? (positiveV - v[referenceNode]) / resistanceOf(circuit.elements, 'RREF') : 0;
   const powerW = -(positiveV * i[SUPPLY_SOURCES.positive.toLowerCase()] + negativeV * i[SUPPLY_SOURCES.negative.toLowerCase()]);

@@ -1,0 +1,103 @@
+/**
+ * `npm run bench`: speed of the engine beside a real SPICE engine, printed as medians and
+ * ratios (not a test: nothing here passes or fails). Targets on the 2-core machine (the issue):
+ * recommend ≤ 20 ms per spec, analyze ≤ 50 µs per call, closed-form Monte Carlo ≥ 1,000× the
+ * SPICE analyses per second.
+ */
+import { readFileSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { analyze, recommend, solveStage } from '../../shared/engine/index';
+import { mismatchSensitivity, mismatchStages, monteCarloCmrr } from '../../shared/engine/mismatch';
+import { spiceNetlist } from '../../shared/engine/netlist';
+import type { Design, Spec } from '../../shared/engine/types';
+import { validateSpec } from '../../shared/validate';
+import { loadRuleSet } from '../../rules/index';
+import { runSpice, startSpice } from '../helpers/spice';
+
+const BATCHES = 25;
+const ANALYZE_CALLS_PER_BATCH = 240;
+const SPICE_RUNS_PER_BATCH = 12;
+const RECOMMEND_RUNS = 25;
+const MONTE_CARLO_SAMPLES = 2000;
+
+function median(values: number[]): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  const mid = sorted.length >> 1;
+  return sorted.length % 2 ? sorted[mid] : (sorted[mid - 1] + sorted[mid]) / 2;
+}
+
+const specsDir = join(fileURLToPath(new URL('.', import.meta.url)), '..', '..', 'api', 'demo', 'specs');
+const specs: Spec[] = readdirSync(specsDir)
+  .filter((f) => f.endsWith('.json'))
+  .sort()
+  .map((f) => {
+    const checked = validateSpec(JSON.parse(readFileSync(join(specsDir, f), 'utf8')));
+    if (!checked.ok) throw new Error(`${f} is not a valid spec`);
+    return checked.value;
+  });
+const ruleSet = await loadRuleSet();
+
+// The six sized designs of the first demo spec: the analyses both engines are timed on.
+const designs: Design[] = (await recommend(specs[0], ruleSet)).options.map((o) => o.design!).filter(Boolean);
+
+function analyzeBatchUs(): number {
+  const start = performance.now();
+  for (let i = 0; i < ANALYZE_CALLS_PER_BATCH; i += 1) analyze(designs[i % designs.length]);
+  return ((performance.now() - start) * 1000) / ANALYZE_CALLS_PER_BATCH;
+}
+
+async function spiceBatchUs(): Promise<number> {
+  const start = performance.now();
+  for (let i = 0; i < SPICE_RUNS_PER_BATCH; i += 1) {
+    const design = designs[i % designs.length];
+    await runSpice(spiceNetlist(design, { analysis: 'op' }), 'Operating Point');
+    await runSpice(spiceNetlist(design, { analysis: 'ac-common-mode', startHz: 1, stopHz: 1e6, pointsPerDecade: 1 }), 'AC Analysis');
+  }
+  // One analysis = the operating point plus one AC sweep (analyze returns both and more).
+  return ((performance.now() - start) * 1000) / SPICE_RUNS_PER_BATCH;
+}
+
+for (let i = 0; i < 3; i += 1) analyzeBatchUs();
+const analyzeUs = median(Array.from({ length: BATCHES }, analyzeBatchUs));
+
+await startSpice();
+await spiceBatchUs();
+const spiceSamples: number[] = [];
+for (let i = 0; i < BATCHES; i += 1) spiceSamples.push(await spiceBatchUs());
+const spiceUs = median(spiceSamples);
+
+const recommendMs: Record<string, number> = {};
+for (const spec of specs) {
+  for (let i = 0; i < 3; i += 1) await recommend(spec, ruleSet);
+  const samples: number[] = [];
+  for (let i = 0; i < RECOMMEND_RUNS; i += 1) {
+    const start = performance.now();
+    await recommend(spec, ruleSet);
+    samples.push(performance.now() - start);
+  }
+  recommendMs[spec.title] = median(samples);
+}
+
+const sensitivity = mismatchSensitivity(mismatchStages(solveStage(designs[0]).design), specs[0].cmrr.atFrequencyHz);
+const monteCarloMs = median(
+  Array.from({ length: BATCHES }, (_, seed) => {
+    const start = performance.now();
+    monteCarloCmrr(sensitivity, 0.01, 0.001, 80, MONTE_CARLO_SAMPLES, seed + 1);
+    return performance.now() - start;
+  }),
+);
+const monteCarloPerS = (MONTE_CARLO_SAMPLES / monteCarloMs) * 1000;
+const spicePerS = 1e6 / spiceUs;
+
+const row = (name: string, value: string, target: string) => console.log(`${name.padEnd(58)} ${value.padStart(14)}   ${target}`);
+console.log(`Longtail engine benchmark — medians over ${BATCHES} batches, Node ${process.version}\n`);
+row('analyze, per call (six topologies in turn)', `${analyzeUs.toFixed(1)} µs`, 'target ≤ 50 µs');
+row('ngspice (eecircuit-engine), per analysis (.op + one .ac)', `${(spiceUs / 1000).toFixed(2)} ms`, '');
+row('  ratio: SPICE analysis / analyze call', `${(spiceUs / analyzeUs).toFixed(0)}×`, '');
+for (const [title, ms] of Object.entries(recommendMs)) row(`recommend: ${title.slice(0, 46)}`, `${ms.toFixed(2)} ms`, 'target ≤ 20 ms');
+row(`closed-form Monte Carlo (${MONTE_CARLO_SAMPLES} samples)`, `${monteCarloMs.toFixed(3)} ms`, '');
+row('  Monte Carlo samples per second', `${Math.round(monteCarloPerS).toLocaleString('en')}`, '');
+row('  SPICE analyses per second', `${spicePerS.toFixed(1)}`, '');
+row('  ratio: Monte Carlo samples / SPICE analyses per second', `${Math.round(monteCarloPerS / spicePerS).toLocaleString('en')}×`, 'target ≥ 1,000×');
+process.exit(0);
