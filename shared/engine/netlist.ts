@@ -83,7 +83,7 @@ function elementLine(element: CircuitElement): string {
 function modelCard(design: Design): string {
   const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(design.device.beta)}`];
   const vafV = earlyVoltageOrInfinityV(design.device);
-  if (Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV * 0.5)}`);
+  if (Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
   return `.model ${SPICE_MODEL_NAME} NPN (${parameters.join(' ')})`;
 }
 
