@@ -116,7 +116,7 @@ function expectWithinDb(what: string, predictedDb: number | null, referenceDb: n
 describe('analyze agrees with ngspice on the same circuit', () => {
   beforeAll(startSpice, ENGINE_START_TIMEOUT_MS);
 
-  describe.each(CASES)('$title', ({ design }) => {
+  describe.each(CASES.map(({ title, design }) => [title, design] as const))('%s', (_title, design) => {
     let reference: Promise<SpiceFigures> | undefined;
     const spice = (): Promise<SpiceFigures> => (reference ??= spiceFigures(design));
     let predictedResult: AnalyzeResult | undefined;
