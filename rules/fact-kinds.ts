@@ -59,9 +59,11 @@ export const FACT_KINDS: { readonly [K in keyof OptionFacts]-?: KindOf<OptionFac
   temperatureMinC: 'number',
   temperatureMaxC: 'number',
   gainVsCommonModePercent: 'number',
+  gainVsCommonModeLimitPercent: 'number',
   gainVsCommonModeMarginPercent: 'number',
   railSpanV: 'number',
   hazardousVoltageLimitV: 'number',
+  hazardousVoltageMarginV: 'number',
   patientConnected: 'boolean',
   mainsReferenced: 'boolean',
   operatingPointProblems: 'text-list',
@@ -75,4 +77,20 @@ export const FACT_KINDS: { readonly [K in keyof OptionFacts]-?: KindOf<OptionFac
 /** True when `name` is an OptionFacts field. */
 export function isFactName(name: string): name is keyof OptionFacts {
   return Object.prototype.hasOwnProperty.call(FACT_KINDS, name);
+}
+
+/** True when `value` has the shape `kind` promises; numbers must be finite (no NaN or Infinity). */
+export function fitsFactKind(kind: FactKind, value: unknown): boolean {
+  switch (kind) {
+    case 'number':
+      return typeof value === 'number' && Number.isFinite(value);
+    case 'number-or-null':
+      return value === null || (typeof value === 'number' && Number.isFinite(value));
+    case 'boolean':
+      return typeof value === 'boolean';
+    case 'text':
+      return typeof value === 'string';
+    case 'text-list':
+      return Array.isArray(value) && value.every((item) => typeof item === 'string');
+  }
 }

@@ -7,6 +7,7 @@ import { fileURLToPath } from 'node:url';
 // bundler interop (the engine factory).
 import { Engine, type RuleProperties } from 'json-rules-engine';
 import type { Check, OptionFacts } from '../shared/engine/types';
+import { FACT_KINDS, fitsFactKind } from './fact-kinds';
 import { formatReason } from './format-reason';
 import { validateRule, type RuleFile } from './validate-rule';
 
@@ -100,6 +101,19 @@ function factsIn(node: unknown): string[] {
   return [...(typeof fact === 'string' ? [fact] : []), ...Object.values(rest).flatMap(factsIn)];
 }
 
+/** The facts the conditions read, each checked against its kind: a missing or NaN fact throws, never decides. */
+function conditionFactValues(prepared: Prepared, facts: Readonly<OptionFacts>): Record<string, unknown> {
+  const given = facts as unknown as Record<string, unknown>;
+  const values: Record<string, unknown> = {};
+  for (const fact of prepared.conditionFacts) {
+    const kind = FACT_KINDS[fact as keyof OptionFacts];
+    if (!(fact in given)) throw new Error(`Missing fact "${fact}"`);
+    if (!fitsFactKind(kind, given[fact])) throw new Error(`Fact "${fact}" is ${String(given[fact])}, not ${kind}`);
+    values[fact] = given[fact];
+  }
+  return values;
+}
+
 function toCheck(rule: RuleFile, passed: boolean | undefined, facts: Readonly<OptionFacts>): Check {
   if (passed === undefined) throw new Error(`Rule ${rule.name}: the rules engine returned no result`);
   const params = rule.event.params;
@@ -115,7 +129,7 @@ function toCheck(rule: RuleFile, passed: boolean | undefined, facts: Readonly<Op
   if (value !== null && !(typeof value === 'number' && Number.isFinite(value))) {
     throw new Error(`Rule ${rule.name}: margin fact "${params.marginFact}" is ${String(value)}, not a finite number`);
   }
-  const check: Check = { rule: rule.name, passed, severity: params.severity, reason, margin: value };
+  const check: Check = { rule: rule.name, passed, severity: params.severity, reason, margin: value, applicable: !notApplicable };
   if (params.marginUnit !== null) check.marginUnit = params.marginUnit;
   return check;
 }
@@ -128,10 +142,7 @@ function toCheck(rule: RuleFile, passed: boolean | undefined, facts: Readonly<Op
 export async function runRules(rules: readonly RuleFile[], facts: Readonly<OptionFacts>): Promise<Check[]> {
   prepareRules(rules);
   const prepared = preparedByList.get(rules) as Prepared;
-  // Absent facts stay absent, so allowUndefinedFacts: false still rejects them.
-  const given = facts as unknown as Record<string, unknown>;
-  const engineFacts = Object.fromEntries(prepared.conditionFacts.filter((f) => f in given).map((f) => [f, given[f]]));
-  const run = prepared.queue.then(() => prepared.engine.run(engineFacts));
+  const run = prepared.queue.then(() => prepared.engine.run(conditionFactValues(prepared, facts)));
   prepared.queue = run.catch(() => undefined);
   const { results, failureResults } = await run;
   const passedByName = new Map<string, boolean>();

@@ -133,11 +133,14 @@ function vbeGuessV(design: Design, model: DeviceModel): number {
   return model.thermalVoltageV * Math.log(currentA / model.saturationCurrentA);
 }
 
-/** Solves a design and keeps the internals that sweeps and sensitivities reuse. */
-export function solveStage(design: Design): StageSolution {
+/**
+ * Solves a design and keeps the internals that sweeps and sensitivities reuse. `warmStart`: a
+ * solved stage of the same topology whose operating point seeds the Newton iteration.
+ */
+export function solveStage(design: Design, warmStart?: StageSolution): StageSolution {
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const model = deviceModel(design.device, temperatureC);
-  const op = solveOperatingPoint(stageCircuit(design, vbeGuessV(design, model)), model);
+  const op = solveOperatingPoint(stageCircuit(design, vbeGuessV(design, model)), model, warmStart?.op);
   const stage = smallSignalStage(op);
   const ic = op.circuit;
   const v = op.voltagesV;

@@ -1,32 +1,41 @@
 /**
  * Mismatch-limited rejection of the differential output. A perfectly matched pair rejects
  * common mode completely between its collectors; the load mismatch ε (RC2 = RC1·(1+ε)) and the
- * pair's IS mismatch δ (δ = exp(ΔVBE/VT) − 1) set the limit [SS]. The differential common-mode
- * gain is linear in small mismatches, so two exact solves (one per mismatch, each with every
- * operating-point shift, Early effect included) give its sensitivities, and the worst case and
- * the Monte Carlo follow without further solves:
- *   Adcm(ε, δ) = ε·Sε + δ·Sδ (complex, at the spec frequency),  CMRR = |Ad| / |Adcm|.
+ * pair's IS mismatch δ (δ = exp(ΔVBE/VT) − 1) set the limit [SS]. Exact solves of the stage at
+ * ±ε, ±δ and (ε, δ) (every operating-point shift included: the Early effect on the shifted
+ * collector voltages makes the response curve, DOMAIN.md) give a second-order model, and the
+ * worst case and the Monte Carlo follow without further solves:
+ *   Adcm(ε, δ) = Sε·ε + Sεε·ε² + Sδ·δ + Sδδ·δ² + Sεδ·ε·δ,  Ad(ε, δ) = Ad0 + Aε·ε + Aδ·δ
+ * (complex, at one frequency), CMRR = |Ad| / |Adcm|. tests/unit/engine/mismatch.test.ts holds
+ * the model against full solves.
  */
 import { solveStage, transfersAt, type StageSolution } from './analyze';
 import type { Complex } from './small-signal';
 import { gaussianSource } from './random';
-import type { Design } from './types';
 
-/** Mismatch used to measure the sensitivities (small enough to stay linear). */
-const SENSITIVITY_STEP = 1e-3;
-/** Histogram bins of the Monte Carlo rejection. */
+/** Steps the model is fitted at: about the 1σ–3σ mismatch of 1 % parts and a 0.5 mV VBE spread. */
+const LOAD_STEP = 0.01;
+const IS_STEP = 0.02;
+/** Histogram bins of the Monte Carlo rejection (the top bin also holds the top 1 %). */
 const HISTOGRAM_BINS = 30;
 /** The statistical reading of a tolerance: Gaussian with 3σ = tolerance (common practice). */
 const SIGMAS_PER_TOLERANCE = 3;
 
+/** The second-order mismatch model at one frequency. */
 export interface MismatchSensitivity {
   frequencyHz: number;
   thermalVoltageV: number;
-  /** Differential gain magnitude at the frequency, V/V. */
-  differentialGainMagnitude: number;
-  /** ∂Adcm/∂ε and ∂Adcm/∂δ at the frequency. */
+  /** Differential gain of the matched stage, and its first-order change with ε and δ. */
+  differentialGain: Complex;
+  differentialGainPerLoad: Complex;
+  differentialGainPerIs: Complex;
+  /** ∂Adcm/∂ε and ∂Adcm/∂δ (first order). */
   perLoadMismatch: Complex;
   perIsMismatch: Complex;
+  /** Second-order coefficients: ε², δ² and ε·δ. */
+  loadSquared: Complex;
+  isSquared: Complex;
+  loadTimesIs: Complex;
 }
 
 export interface MonteCarloResult {
@@ -38,55 +47,106 @@ export interface MonteCarloResult {
   histogram: { binEdgesDb: number[]; counts: number[] };
 }
 
-function scaled(z: Complex, k: number): Complex {
-  return { re: z.re * k, im: z.im * k };
-}
-
-/** The stage solved once with a small load mismatch and once with a small IS mismatch. */
+/** The stage solved matched and at the model's fitting points. */
 export interface MismatchStages {
-  load: StageSolution;
-  is: StageSolution;
+  matched: StageSolution;
+  loadPlus: StageSolution;
+  loadMinus: StageSolution;
+  isPlus: StageSolution;
+  isMinus: StageSolution;
+  both: StageSolution;
 }
 
-/** Solves the two mismatched stages the sensitivities are read from (frequency-independent). */
-export function mismatchStages(design: Design): MismatchStages {
+/** Solves the stages the model is fitted on (frequency-independent), warm-started from the matched solution. */
+export function mismatchStages(matched: StageSolution): MismatchStages {
+  const solve = (loadMismatch: number, isMismatch: number) =>
+    solveStage({ ...matched.design, collectorMismatch: loadMismatch, pairSaturationCurrentMismatch: isMismatch }, matched);
   return {
-    load: solveStage({ ...design, collectorMismatch: SENSITIVITY_STEP, pairSaturationCurrentMismatch: 0 }),
-    is: solveStage({ ...design, collectorMismatch: 0, pairSaturationCurrentMismatch: SENSITIVITY_STEP }),
+    matched,
+    loadPlus: solve(LOAD_STEP, 0),
+    loadMinus: solve(-LOAD_STEP, 0),
+    isPlus: solve(0, IS_STEP),
+    isMinus: solve(0, -IS_STEP),
+    both: solve(LOAD_STEP, IS_STEP),
   };
 }
 
-/** Sensitivities of the differential common-mode gain to the two mismatches at a frequency. */
-export function mismatchSensitivity({ load, is }: MismatchStages, frequencyHz: number): MismatchSensitivity {
-  const loadT = transfersAt(load, frequencyHz);
-  const isT = transfersAt(is, frequencyHz);
+/** a·x + b·y + c·z for complex x, y, z. */
+function combine(terms: [number, Complex][]): Complex {
+  let re = 0;
+  let im = 0;
+  for (const [k, z] of terms) {
+    re += k * z.re;
+    im += k * z.im;
+  }
+  return { re, im };
+}
+
+function abs(z: Complex): number {
+  return Math.sqrt(z.re * z.re + z.im * z.im);
+}
+
+/** The model's coefficients at a frequency (central differences; the cross term from the (ε, δ) point). */
+export function mismatchSensitivity(stages: MismatchStages, frequencyHz: number): MismatchSensitivity {
+  const at = (s: StageSolution) => transfersAt(s, frequencyHz);
+  const m = at(stages.matched);
+  const lp = at(stages.loadPlus);
+  const lm = at(stages.loadMinus);
+  const ip = at(stages.isPlus);
+  const im = at(stages.isMinus);
+  const both = at(stages.both);
+  const h = LOAD_STEP;
+  const k = IS_STEP;
+  const cm = (t: typeof m) => t.differentialCommonModeGain;
+  const perLoad = combine([[1 / (2 * h), cm(lp)], [-1 / (2 * h), cm(lm)]]);
+  const loadSquared = combine([[1 / (2 * h * h), cm(lp)], [1 / (2 * h * h), cm(lm)], [-1 / (h * h), cm(m)]]);
+  const perIs = combine([[1 / (2 * k), cm(ip)], [-1 / (2 * k), cm(im)]]);
+  const isSquared = combine([[1 / (2 * k * k), cm(ip)], [1 / (2 * k * k), cm(im)], [-1 / (k * k), cm(m)]]);
+  const loadTimesIs = combine([
+    [1 / (h * k), cm(both)],
+    [-1 / (h * k), cm(m)],
+    [-1 / k, perLoad],
+    [-h / k, loadSquared],
+    [-1 / h, perIs],
+    [-k / h, isSquared],
+  ]);
   return {
     frequencyHz,
-    thermalVoltageV: load.model.thermalVoltageV,
-    differentialGainMagnitude: Math.hypot(loadT.differentialGain.re, loadT.differentialGain.im),
-    perLoadMismatch: scaled(loadT.differentialCommonModeGain, 1 / SENSITIVITY_STEP),
-    perIsMismatch: scaled(isT.differentialCommonModeGain, 1 / SENSITIVITY_STEP),
+    thermalVoltageV: stages.matched.model.thermalVoltageV,
+    differentialGain: m.differentialGain,
+    differentialGainPerLoad: combine([[1 / (2 * h), lp.differentialGain], [-1 / (2 * h), lm.differentialGain]]),
+    differentialGainPerIs: combine([[1 / (2 * k), ip.differentialGain], [-1 / (2 * k), im.differentialGain]]),
+    perLoadMismatch: perLoad,
+    perIsMismatch: perIs,
+    loadSquared,
+    isSquared,
+    loadTimesIs,
   };
 }
 
-/** Differential CMRR (dB) for one pair of mismatches. */
+/** Differential CMRR (dB) for one pair of mismatches, from the model. */
 export function mismatchCmrrDb(s: MismatchSensitivity, loadMismatch: number, isMismatch: number): number {
-  const re = s.perLoadMismatch.re * loadMismatch + s.perIsMismatch.re * isMismatch;
-  const im = s.perLoadMismatch.im * loadMismatch + s.perIsMismatch.im * isMismatch;
-  // sqrt rather than Math.hypot: this runs once per Monte Carlo sample and hypot is several times slower
-  return 20 * Math.log10(s.differentialGainMagnitude / Math.sqrt(re * re + im * im));
+  const e = loadMismatch;
+  const d = isMismatch;
+  const cmRe = s.perLoadMismatch.re * e + s.loadSquared.re * e * e + s.perIsMismatch.re * d + s.isSquared.re * d * d + s.loadTimesIs.re * e * d;
+  const cmIm = s.perLoadMismatch.im * e + s.loadSquared.im * e * e + s.perIsMismatch.im * d + s.isSquared.im * d * d + s.loadTimesIs.im * e * d;
+  const adRe = s.differentialGain.re + s.differentialGainPerLoad.re * e + s.differentialGainPerIs.re * d;
+  const adIm = s.differentialGain.im + s.differentialGainPerLoad.im * e + s.differentialGainPerIs.im * d;
+  // squared magnitudes and one log: this runs once per Monte Carlo sample
+  return 10 * Math.log10((adRe * adRe + adIm * adIm) / (cmRe * cmRe + cmIm * cmIm));
 }
 
 /**
  * Worst case: both load resistors at opposite tolerance extremes, ε = (1+t)/(1−t) − 1, and the
- * VBE mismatch at 3σ, δ = exp(3σ/VT) − 1, with the two contributions adding in magnitude.
+ * VBE mismatch at 3σ, δ = exp(3σ/VT) − 1, every term of the model adding in magnitude and the
+ * differential gain at its lowest.
  */
 export function worstCaseMismatchCmrrDb(s: MismatchSensitivity, resistorTolerance: number, vbeSigmaV: number): number {
-  const loadWorst = (1 + resistorTolerance) / (1 - resistorTolerance) - 1;
-  const isWorst = Math.exp((SIGMAS_PER_TOLERANCE * vbeSigmaV) / s.thermalVoltageV) - 1;
-  const perLoad = Math.hypot(s.perLoadMismatch.re, s.perLoadMismatch.im);
-  const perIs = Math.hypot(s.perIsMismatch.re, s.perIsMismatch.im);
-  return 20 * Math.log10(s.differentialGainMagnitude / (perLoad * loadWorst + perIs * isWorst));
+  const e = (1 + resistorTolerance) / (1 - resistorTolerance) - 1;
+  const d = Math.exp((SIGMAS_PER_TOLERANCE * vbeSigmaV) / s.thermalVoltageV) - 1;
+  const adcm = abs(s.perLoadMismatch) * e + abs(s.loadSquared) * e * e + abs(s.perIsMismatch) * d + abs(s.isSquared) * d * d + abs(s.loadTimesIs) * e * d;
+  const ad = abs(s.differentialGain) - abs(s.differentialGainPerLoad) * e - abs(s.differentialGainPerIs) * d;
+  return 20 * Math.log10(ad / adcm);
 }
 
 function percentile(sorted: Float64Array, p: number): number {

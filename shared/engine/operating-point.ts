@@ -103,10 +103,15 @@ function scaledCircuit(ic: IndexedCircuit, fraction: number): IndexedCircuit {
   return { ...ic, fixedV: ic.fixedV.map((x) => x * fraction) };
 }
 
-/** Solves the DC operating point of a stage circuit with a device model. */
-export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel): OperatingPoint {
+/**
+ * Solves the DC operating point of a stage circuit with a device model. `warmStart`, the
+ * solution of a nearby circuit with the same nodes (another corner, a small mismatch), replaces
+ * the hand-analysis guess and saves most of the iterations.
+ */
+export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint): OperatingPoint {
   const ic = indexCircuit(circuit);
-  const guess = Float64Array.from(ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0));
+  const sameNodes = warmStart !== undefined && warmStart.circuit.freeNodes.join() === ic.freeNodes.join();
+  const guess = sameNodes ? Float64Array.from(warmStart.voltagesV) : Float64Array.from(ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0));
   let solved = newtonSolve(ic, model, guess);
   let iterations = solved?.iterations ?? MAX_ITERATIONS;
   if (!solved) {

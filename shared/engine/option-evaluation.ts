@@ -45,8 +45,9 @@ export interface OptionEvaluation {
   monteCarlo: MonteCarloResult | null;
 }
 
-function at(spec: Spec, design: Design, condition: Condition): StageSolution {
-  return solveStage(designAt(spec, condition, { tail: design.tail, collectorResistanceOhm: design.collectorResistanceOhm, pairEmitterResistanceOhm: design.pairEmitterResistanceOhm ?? 0 }));
+function at(spec: Spec, design: Design, condition: Condition, warmStart?: StageSolution): StageSolution {
+  const values = { tail: design.tail, collectorResistanceOhm: design.collectorResistanceOhm, pairEmitterResistanceOhm: design.pairEmitterResistanceOhm ?? 0 };
+  return solveStage(designAt(spec, condition, values), warmStart);
 }
 
 function frequencyGrid(): number[] {
@@ -65,8 +66,8 @@ export function evaluateOption(spec: Spec, design: Design): OptionEvaluation {
   const predicted = nominalSolution.result;
 
   const corners = cornerConditions(spec).map((condition) => {
-    const solution = at(spec, design, condition);
-    const sensitivity = differentialOutput ? mismatchSensitivity(mismatchStages(solution.design), f) : null;
+    const solution = at(spec, design, condition, nominalSolution);
+    const sensitivity = differentialOutput ? mismatchSensitivity(mismatchStages(solution), f) : null;
     const figures: ConditionFigures = {
       label: condition.label,
       inputCommonModeV: condition.inputCommonModeV,
@@ -94,11 +95,11 @@ export function evaluateOption(spec: Spec, design: Design): OptionEvaluation {
   }
 
   const sweepConditions = temperatureSweep(spec);
-  const sweep = sweepConditions.map((condition) => at(spec, design, condition).result);
+  const sweep = sweepConditions.map((condition) => at(spec, design, condition, nominalSolution).result);
   const sweepCurrents = sweep.map((r) => r.tailCurrentA);
   const driftPercent = ((Math.max(...sweepCurrents) - Math.min(...sweepCurrents)) / predicted.tailCurrentA) * 100;
-  const icmLow = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.minV, label: '' }).result;
-  const icmHigh = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.maxV, label: '' }).result;
+  const icmLow = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.minV }, nominalSolution).result;
+  const icmHigh = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.maxV }, nominalSolution).result;
   const gainNominal = outputGain(spec, predicted);
   const gainVsIcmPercent = (Math.abs(outputGain(spec, icmHigh) - outputGain(spec, icmLow)) / gainNominal) * 100;
   const gainErrorPercent = ((gainNominal - spec.gain.target) / spec.gain.target) * 100;
@@ -157,9 +158,11 @@ export function evaluateOption(spec: Spec, design: Design): OptionEvaluation {
     temperatureMinC: spec.temperatureC.min,
     temperatureMaxC: spec.temperatureC.max,
     gainVsCommonModePercent: gainVsIcmPercent,
+    gainVsCommonModeLimitPercent: spec.gain.tolerancePercent,
     gainVsCommonModeMarginPercent: spec.gain.tolerancePercent - gainVsIcmPercent,
     railSpanV: spec.supply.positiveV - spec.supply.negativeV,
     hazardousVoltageLimitV: HAZARDOUS_VOLTAGE_LIMIT_V,
+    hazardousVoltageMarginV: HAZARDOUS_VOLTAGE_LIMIT_V - (spec.supply.positiveV - spec.supply.negativeV),
     patientConnected: spec.hazards.patientConnected,
     mainsReferenced: spec.hazards.mainsReferenced,
     operatingPointProblems: problems,
@@ -170,7 +173,7 @@ export function evaluateOption(spec: Spec, design: Design): OptionEvaluation {
     tailOutputResistanceFormula: predicted.tailOutputResistanceClosedForm.formula,
   };
 
-  const nominalMismatch = differentialOutput ? mismatchStages(nominalSolution.design) : null;
+  const nominalMismatch = differentialOutput ? mismatchStages(nominalSolution) : null;
   const curves: OptionCurves = {
     cmrrVsFrequency: frequencyGrid().map((frequencyHz) => ({
       frequencyHz,

@@ -5,7 +5,7 @@
  */
 import { formatQuantity } from '../units/format-quantity';
 import { snapToSeries } from '../units/e-series';
-import { solveStage } from './analyze';
+import { solveStage, type StageSolution } from './analyze';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
 import type { AnalyzeResult, Design, Spec, TailDesign, TopologyId } from './types';
@@ -23,8 +23,8 @@ const DEGENERATION_DROP_MIN_V = 0.1;
 const DEGENERATION_DROP_MAX_V = 1.0;
 /** Room kept between the tail's compliance and the lowest tail-node voltage, V (design choice). */
 const COMPLIANCE_ROOM_V = 0.2;
-/** Refinement of a resistor against an exact solve: relative tolerance and iteration limit. */
-const TUNE_TOLERANCE = 1e-4;
+/** Refinement of a resistor against an exact solve: relative tolerance (a tenth of the finest series step) and iteration limit. */
+const TUNE_TOLERANCE = 1e-3;
 const TUNE_MAX_ITERATIONS = 8;
 /** Drop across RC kept for the collector's upward swing, as a multiple of its peak (design choice). */
 const SWING_DROP_FACTOR = 1.25;
@@ -97,8 +97,10 @@ function tuneResistance(
   exponent: 1 | -1,
 ): number {
   let rOhm = Math.max(startOhm, MIN_RESISTANCE_OHM);
+  let previous: StageSolution | undefined;
   for (let i = 0; i < TUNE_MAX_ITERATIONS; i += 1) {
-    const value = measure(solveStage(make(rOhm)).result);
+    previous = solveStage(make(rOhm), previous);
+    const value = measure(previous.result);
     if (!(value > 0)) return rOhm;
     const ratio = target / value;
     if (Math.abs(ratio - 1) < TUNE_TOLERANCE) break;

@@ -116,6 +116,8 @@ export interface Check {
   /** Added: the margin the rule compared, in the unit named by `marginUnit`. */
   margin?: number | null;
   marginUnit?: string;
+  /** Added: false when the check does not apply to this option (it then passes). */
+  applicable?: boolean;
 }
 
 export type ResistorSeries = 'E24' | 'E96' | 'E192';
@@ -200,10 +202,13 @@ export interface OptionFacts {
   temperatureMaxC: number;
   /** Gain change between the input common-mode extremes, per cent of nominal. */
   gainVsCommonModePercent: number;
+  gainVsCommonModeLimitPercent: number;
   gainVsCommonModeMarginPercent: number;
   /** Rail span |V+ − V−| and the usual safe-to-touch limit [IEC62368]. */
   railSpanV: number;
   hazardousVoltageLimitV: number;
+  /** hazardousVoltageLimitV − railSpanV. */
+  hazardousVoltageMarginV: number;
   patientConnected: boolean;
   mainsReferenced: boolean;
   /** Transistors saturated or cut off at any corner (names with corner), empty when none. */

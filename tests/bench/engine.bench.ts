@@ -79,7 +79,7 @@ for (const spec of specs) {
   recommendMs[spec.title] = median(samples);
 }
 
-const sensitivity = mismatchSensitivity(mismatchStages(solveStage(designs[0]).design), specs[0].cmrr.atFrequencyHz);
+const sensitivity = mismatchSensitivity(mismatchStages(solveStage(designs[0])), specs[0].cmrr.atFrequencyHz);
 const monteCarloMs = median(
   Array.from({ length: BATCHES }, (_, seed) => {
     const start = performance.now();

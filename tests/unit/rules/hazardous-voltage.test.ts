@@ -24,26 +24,26 @@ test.each<Row>([
     title: 'passes at 24 V',
     overrides: {},
     passed: true,
-    margin: null,
+    margin: 36,
     texts: ['24 V', '60 V DC'],
   },
   {
     title: 'passes at exactly the limit',
-    overrides: { railSpanV: 60 },
+    overrides: { railSpanV: 60, hazardousVoltageMarginV: 0 },
     passed: true,
-    margin: null,
+    margin: 0,
     texts: ['60 V, within'],
   },
   {
     title: 'cautions at 70 V',
-    overrides: { railSpanV: 70 },
+    overrides: { railSpanV: 70, hazardousVoltageMarginV: -10 },
     passed: false,
-    margin: null,
-    texts: ['Caution', 'rails span 70 V', 'above the 60 V DC', 'IEC 62368-1', 'applicable standard, local codes and licensed practice'],
+    margin: -10,
+    texts: ['Caution', 'rails span 70 V', '10 V above the 60 V DC', 'IEC 62368-1', 'applicable standard, local codes and licensed practice'],
   },
 ])('hazardous-voltage: $title', async ({ overrides, passed, margin, texts }) => {
   const result = await check(overrides);
   expect(result).toMatchObject({ rule: 'hazardous-voltage', passed, severity: 'advisory', margin });
-  expect(result.marginUnit).toBe(undefined);
+  expect(result.marginUnit).toBe('V');
   for (const text of texts) expect(result.reason).toContain(text);
 });

@@ -146,7 +146,7 @@ describe('runRules', () => {
   });
 
   test('when rules fail, then they are still reported, with the passing ones', async () => {
-    const checks = await runRules(realRules, makeOptionFacts({ railSpanV: 70, powerWorstW: 0.0612, powerMarginW: -0.0112 }));
+    const checks = await runRules(realRules, makeOptionFacts({ railSpanV: 70, hazardousVoltageMarginV: -10, powerWorstW: 0.0612, powerMarginW: -0.0112 }));
     expect(checks).toHaveLength(RULE_NAMES.length);
     expect(checks.filter((check) => !check.passed).map((check) => check.rule)).toEqual(['hazardous-voltage', 'power-budget']);
   });
@@ -169,6 +169,14 @@ describe('runRules', () => {
     const { cmrrMarginDb: _omitted, ...facts } = makeOptionFacts();
     await expect(runRules(realRules, facts as OptionFacts)).rejects.toThrow(/cmrrMarginDb/);
   });
+
+  test.each<Partial<OptionFacts>>([{ powerMarginW: Number.NaN }, { patientConnected: undefined }, { cmrrMarginDb: null as never }])(
+    'when a fact a condition reads is malformed (%o), then running throws naming it',
+    async (overrides) => {
+      const [fact] = Object.keys(overrides);
+      await expect(runRules(realRules, makeOptionFacts(overrides))).rejects.toThrow(new RegExp(`Fact "${fact}"`));
+    },
+  );
 
   test('when an applicable check meets a null figure, then running throws naming the rule', async () => {
     const facts = makeOptionFacts({ monteCarloYieldPercent: null, yieldMarginPercent: null });

@@ -1,0 +1,328 @@
+/**
+ * `recommend` (shared/engine/recommend.ts) with the project's rule set (rules/, loadRuleSet) on
+ * five requirement specs of an invented company, Quillfen Instruments, and its sensor front ends.
+ * Every assertion is an invariant of the output (ranking order, policy, check/figure
+ * consistency, series membership, reproducibility) or a first-principles bound (gain within
+ * the spec tolerance); no expected figure is copied from an engine run.
+ */
+import { beforeAll, describe, expect, test } from 'vitest';
+import { analyze, recommend, type RecommendOption, type RecommendResult } from '../../../shared/engine/index';
+import { TOPOLOGIES, type OptionFacts, type RuleSet, type Spec } from '../../../shared/engine/types';
+import { isOnSeries } from '../../../shared/units';
+import { validateDesign, validateSpec } from '../../../shared/validate';
+import { loadRuleSet } from '../../../rules/index';
+import { loadRuleFiles } from '../../../rules/run-rules';
+
+/** Invented specs (not textbook examples): Quillfen Instruments' sensor front ends. */
+const RAW_SPECS: Record<string, unknown> = {
+  'QF-7 strain bridge': {
+    title: 'Quillfen QF-7 strain-bridge front end',
+    device: { beta: 180, earlyVoltageV: 65, saturationCurrentA: 6e-15, vbeMismatchSigmaV: 0.0008 },
+    supply: { positiveV: 9, negativeV: -9 },
+    gain: { target: 60, tolerancePercent: 8, output: 'differential' },
+    cmrr: { minDb: 70, atFrequencyHz: 50, marginDb: 6, minYieldPercent: 95 },
+    inputCommonMode: { minV: -1, maxV: 1 },
+    outputSwingVpp: 2,
+    powerBudgetW: 0.04,
+    temperatureC: { min: -10, max: 60 },
+    resistors: { series: 'E96', tolerance: 0.01 },
+    tailCapacitanceF: 5e-12,
+    monteCarlo: { samples: 1000, seed: 11 },
+  },
+  'QT-3 thermocouple, single rail': {
+    title: 'Quillfen QT-3 thermocouple amplifier, single 15 V rail',
+    device: { beta: 240, earlyVoltageV: 110, vbeOnV: 0.63, vbeMismatchSigmaV: 0.0005 },
+    supply: { positiveV: 15, negativeV: 0 },
+    gain: { target: 35, tolerancePercent: 10, output: 'single-ended' },
+    cmrr: { minDb: 55, atFrequencyHz: 1000, marginDb: 3 },
+    inputCommonMode: { minV: 5, maxV: 7 },
+    outputSwingVpp: 3,
+    powerBudgetW: 0.03,
+    temperatureC: { min: 0, max: 70 },
+    resistors: { series: 'E24', tolerance: 0.05 },
+    tailCapacitanceF: 2e-11,
+    policy: 'highest-rejection',
+  },
+  'HV-40 piezo monitor, ±40 V': {
+    title: 'Quillfen HV-40 piezo monitor on ±40 V rails',
+    device: { beta: 90, earlyVoltageV: 150, saturationCurrentA: 2.5e-14, vceSatV: 0.3, vbeMismatchSigmaV: 0.002 },
+    supply: { positiveV: 40, negativeV: -40 },
+    gain: { target: 120, tolerancePercent: 5, output: 'differential' },
+    cmrr: { minDb: 60, atFrequencyHz: 100, marginDb: 6, minYieldPercent: 90 },
+    inputCommonMode: { minV: -10, maxV: 10 },
+    outputSwingVpp: 6,
+    powerBudgetW: 0.5,
+    tailCurrentA: 0.0015,
+    temperatureC: { min: -20, max: 85 },
+    resistors: { series: 'E192', tolerance: 0.005 },
+    monteCarlo: { samples: 500, seed: 4 },
+  },
+  'ECG-2 electrode input, patient-connected': {
+    title: 'Quillfen ECG-2 electrode input',
+    device: { beta: 300, earlyVoltageV: 45, saturationCurrentA: 3e-15, vbeMismatchSigmaV: 0.0012 },
+    supply: { positiveV: 5, negativeV: -5 },
+    gain: { target: 25, tolerancePercent: 10, output: 'differential' },
+    cmrr: { minDb: 80, atFrequencyHz: 60, marginDb: 6, minYieldPercent: 90 },
+    inputCommonMode: { minV: -0.5, maxV: 0.5 },
+    outputSwingVpp: 1,
+    powerBudgetW: 0.01,
+    temperatureC: { min: 10, max: 45 },
+    resistors: { series: 'E96', tolerance: 0.001 },
+    tailCapacitanceF: 1e-11,
+    topologies: ['simple-mirror', 'wilson', 'cascode'],
+    hazards: { patientConnected: true },
+    monteCarlo: { samples: 500, seed: 7 },
+  },
+  'LX-1 impossible rejection': {
+    title: 'Quillfen LX-1 with a rejection no tail can reach',
+    device: { beta: 130, earlyVoltageV: 70, saturationCurrentA: 9e-15 },
+    supply: { positiveV: 12, negativeV: -12 },
+    gain: { target: 50 },
+    cmrr: { minDb: 190 },
+    monteCarlo: { samples: 200 },
+  },
+};
+const SPEC_NAMES = Object.keys(RAW_SPECS);
+
+function specFrom(raw: unknown): Spec {
+  const result = validateSpec(raw);
+  if (!result.ok) throw new Error(`invalid test spec: ${JSON.stringify(result.errors)}`);
+  return result.value;
+}
+
+let ruleSet: RuleSet;
+let ruleNames: string[];
+const specs: Record<string, Spec> = {};
+const results: Record<string, RecommendResult> = {};
+
+beforeAll(async () => {
+  ruleSet = await loadRuleSet();
+  ruleNames = (await loadRuleFiles()).map((r) => r.name);
+  for (const name of SPEC_NAMES) {
+    specs[name] = specFrom(RAW_SPECS[name]);
+    results[name] = await recommend(specs[name], ruleSet);
+  }
+});
+
+/** Whether each known rule's verdict follows from the figures it is decided on (rule files in rules/). */
+const VERDICT_FROM_FIGURES: Record<string, (f: OptionFacts) => boolean> = {
+  'cmrr-target': (f) => f.cmrrMarginDb >= 0,
+  'power-budget': (f) => f.powerMarginW >= 0,
+  'gain-tolerance': (f) => f.gainMarginPercent >= 0,
+  'input-common-mode-low': (f) => f.icmLowMarginV >= 0,
+  'input-common-mode-high': (f) => f.icmHighMarginV >= 0,
+  'output-swing': (f) => f.swingMarginV >= 0,
+  'operating-point': (f) => f.operatingPointProblemCount === 0,
+  'cmrr-yield': (f) => !f.isDifferentialOutput || f.yieldMarginPercent! >= 0,
+  'gain-vs-common-mode': (f) => !f.isResistorTail || f.gainVsCommonModeMarginPercent >= 0,
+  'cmrr-differential-worst-case': (f) => !f.isDifferentialOutput || f.cmrrDifferentialWorstCaseMarginDb! >= 0,
+  'tail-current-drift': (f) => f.tailCurrentDriftMarginPercent >= 0,
+  'hazardous-voltage': (f) => f.railSpanV <= 60, // [IEC62368] 60 V DC usual safe-to-touch limit
+  'patient-connected': (f) => !f.patientConnected,
+  'mains-referenced': (f) => !f.mainsReferenced,
+};
+
+const outputGainOf = (spec: Spec, predicted: { differentialGain: number; singleEndedGain: number }) =>
+  Math.abs(spec.gain.output === 'differential' ? predicted.differentialGain : predicted.singleEndedGain);
+
+const solved = (o: RecommendOption) => o.design !== null && o.figures !== null && o.predicted !== null;
+
+describe.each(SPEC_NAMES)('%s', (name) => {
+  test('every topology the spec lists appears once, no other; ranks run 1..n in output order', () => {
+    const { options } = results[name];
+    expect(options.map((o) => o.topology).sort()).toEqual([...specs[name].topologies].sort());
+    expect(options.map((o) => o.rank)).toEqual(options.map((_, i) => i + 1));
+    expect(options.every(solved)).toBe(true);
+  });
+
+  test('ranking: passing options first, then tail impedance at the spec frequency from highest', () => {
+    const { options } = results[name];
+    for (let i = 1; i < options.length; i += 1) {
+      const [a, b] = [options[i - 1], options[i]];
+      expect(Number(a.passes)).toBeGreaterThanOrEqual(Number(b.passes));
+      if (a.passes === b.passes) expect(a.figures!.tailImpedanceAtFrequencyOhm).toBeGreaterThanOrEqual(b.figures!.tailImpedanceAtFrequencyOhm);
+    }
+  });
+
+  test('tail impedance at frequency is |Rout ∥ 1/(j·2πf·Ct)| of the predicted Rout [DOMAIN]', () => {
+    const spec = specs[name];
+    for (const o of results[name].options) {
+      const rOhm = o.predicted!.tailOutputResistanceOhm;
+      const omegaCtS = 2 * Math.PI * spec.cmrr.atFrequencyHz * spec.tailCapacitanceF;
+      expect(o.figures!.tailImpedanceAtFrequencyOhm / (rOhm / Math.hypot(1, omegaCtS * rOhm))).toBeCloseTo(1, 9);
+    }
+  });
+
+  test('the recommendation follows the policy', () => {
+    const { options, recommended, policy } = results[name];
+    expect(policy).toBe(specs[name].policy);
+    const passing = options.filter((o) => o.passes);
+    if (passing.length === 0) {
+      expect(recommended).toBeNull();
+    } else if (policy === 'simplest-sufficient') {
+      // the first passing option in the simplicity order resistor, simple-mirror, ... cascode
+      expect(recommended).toBe(TOPOLOGIES.find((t) => passing.some((o) => o.topology === t)));
+    } else {
+      const best = Math.max(...passing.map((o) => o.rejectionDb!));
+      expect(passing.find((o) => o.topology === recommended)!.rejectionDb).toBe(best);
+    }
+  });
+
+  test('an option passes exactly when every blocking check passes', () => {
+    for (const o of results[name].options) {
+      expect(o.passes, o.topology).toBe(o.checks.every((c) => c.passed || c.severity !== 'blocking'));
+    }
+  });
+
+  test('every option carries every rule of the rule set, each with a reason and a severity', () => {
+    for (const o of results[name].options) {
+      expect(o.checks.map((c) => c.rule).sort()).toEqual([...ruleNames].sort());
+      for (const c of o.checks) {
+        expect(c.reason.trim().length, `${o.topology} ${c.rule}`).toBeGreaterThan(10);
+        expect(['blocking', 'advisory']).toContain(c.severity);
+      }
+    }
+  });
+
+  test('each check\'s verdict is consistent with the figures it is decided on', () => {
+    for (const o of results[name].options) {
+      for (const c of o.checks) {
+        const verdict = VERDICT_FROM_FIGURES[c.rule];
+        if (verdict) expect(c.passed, `${o.topology} ${c.rule}: ${c.reason}`).toBe(verdict(o.figures!));
+      }
+    }
+  });
+
+  test('the figures\' margins follow from the spec and the predictions', () => {
+    const spec = specs[name];
+    for (const o of results[name].options) {
+      const f = o.figures!;
+      expect(f.cmrrMarginDb).toBeCloseTo(f.cmrrAtFrequencyDb - (spec.cmrr.minDb + spec.cmrr.marginDb), 9);
+      expect(f.powerMarginW).toBeCloseTo(spec.powerBudgetW - f.powerWorstW, 12);
+      expect(f.powerWorstW).toBeGreaterThanOrEqual(o.predicted!.powerW);
+      expect(f.gainPredicted).toBeCloseTo(outputGainOf(spec, o.predicted!), 9);
+      expect(f.gainErrorPercent).toBeCloseTo(((f.gainPredicted - spec.gain.target) / spec.gain.target) * 100, 9);
+      expect(f.gainMarginPercent).toBeCloseTo(spec.gain.tolerancePercent - Math.abs(f.gainErrorPercent), 9);
+      expect(f.railSpanV).toBe(spec.supply.positiveV - spec.supply.negativeV);
+      expect(o.rejectionDb).toBe(f.isDifferentialOutput ? f.cmrrDifferentialWorstCaseDb : f.cmrrAtFrequencyDb);
+    }
+  });
+
+  test('every sized resistor is on the spec series [IEC60063] and every design passes the design schema', () => {
+    const series = specs[name].resistors.series;
+    for (const o of results[name].options) {
+      const tail = o.design!.tail as Record<string, unknown>;
+      const values = [o.design!.collectorResistanceOhm, ...Object.keys(tail).filter((k) => k.endsWith('Ohm')).map((k) => tail[k] as number)];
+      for (const v of values) expect(isOnSeries(v, series), `${o.topology}: ${v} Ω on ${series}`).toBe(true);
+      expect(validateDesign(o.design).ok, o.topology).toBe(true);
+    }
+  });
+
+  test('each option\'s `predicted` is the analyze output of its `design`', () => {
+    for (const o of results[name].options) expect(JSON.stringify(analyze(o.design!))).toBe(JSON.stringify(o.predicted));
+  });
+
+  test('the re-analysed gain of the recommended option is within the spec tolerance of the target', () => {
+    const { recommended, options } = results[name];
+    if (recommended === null) {
+      expect(options.every((o) => !o.passes)).toBe(true);
+      return;
+    }
+    const spec = specs[name];
+    const gain = outputGainOf(spec, analyze(options.find((o) => o.topology === recommended)!.design!));
+    expect((Math.abs(gain - spec.gain.target) / spec.gain.target) * 100).toBeLessThanOrEqual(spec.gain.tolerancePercent);
+  });
+
+  test('Monte Carlo: differential output only; yield in [0, 100]; the histogram holds every sample', () => {
+    const spec = specs[name];
+    for (const o of results[name].options) {
+      if (spec.gain.output !== 'differential') {
+        expect(o.monteCarlo).toBeNull();
+        continue;
+      }
+      const mc = o.monteCarlo!;
+      expect(mc.samples).toBe(spec.monteCarlo.samples);
+      expect(mc.seed).toBe(spec.monteCarlo.seed);
+      expect(mc.yieldPercent).toBeGreaterThanOrEqual(0);
+      expect(mc.yieldPercent).toBeLessThanOrEqual(100);
+      expect(mc.histogram.counts.reduce((a, b) => a + b, 0)).toBe(spec.monteCarlo.samples);
+      expect(mc.percentilesDb.p1).toBeLessThanOrEqual(mc.percentilesDb.p50);
+      expect(mc.percentilesDb.p50).toBeLessThanOrEqual(mc.percentilesDb.p95);
+    }
+  });
+
+  test('versions, and the notice says the figures are estimates to confirm by simulation and bench measurement', () => {
+    const result = results[name];
+    expect(result.engineVersion).toMatch(/^\d+\.\d+\.\d+$/);
+    expect(result.rulesetVersion).toBe(ruleSet.version);
+    expect(result.notice).toMatch(/estimate/i);
+    expect(result.notice).toMatch(/simulat/i);
+    expect(result.notice).toMatch(/bench/i);
+  });
+
+  test('cautions are exactly the failed hazard checks\' reasons', () => {
+    const hazardRules = new Set(['hazardous-voltage', 'patient-connected', 'mains-referenced']);
+    const failedHazards = new Set(results[name].options.flatMap((o) => o.checks.filter((c) => hazardRules.has(c.rule) && !c.passed).map((c) => c.reason)));
+    expect(new Set(results[name].cautions)).toEqual(failedHazards);
+  });
+});
+
+describe('scenario-specific outcomes', () => {
+  test('±40 V rails (80 V span, above 60 V DC [IEC62368]): a caution that names the span and the limit', () => {
+    const { cautions } = results['HV-40 piezo monitor, ±40 V'];
+    expect(cautions.some((c) => /80\s?V/.test(c) && /60\s?V/.test(c))).toBe(true);
+  });
+
+  test('patient-connected input: a caution that defers to IEC 60601-1 [DOMAIN]', () => {
+    expect(results['ECG-2 electrode input, patient-connected'].cautions.some((c) => /60601/.test(c))).toBe(true);
+  });
+
+  test('18 V span, no hazard flags: no cautions', () => {
+    expect(results['QF-7 strain bridge'].cautions).toEqual([]);
+  });
+
+  test('the spec\'s topology subset is respected', () => {
+    expect(results['ECG-2 electrode input, patient-connected'].options.map((o) => o.topology).sort()).toEqual(['cascode', 'simple-mirror', 'wilson']);
+  });
+
+  test('190 dB of single-ended rejection is out of reach: every option fails cmrr-target and nothing is recommended', () => {
+    const result = results['LX-1 impossible rejection'];
+    expect(result.recommended).toBeNull();
+    for (const o of result.options) {
+      expect(o.passes).toBe(false);
+      expect(o.checks.find((c) => c.rule === 'cmrr-target')!.passed).toBe(false);
+    }
+  });
+
+  test('a recommendation exists for the four feasible specs (the consistency checks above are not vacuous)', () => {
+    for (const name of SPEC_NAMES.filter((n) => n !== 'LX-1 impossible rejection')) expect(results[name].recommended, name).not.toBeNull();
+  });
+});
+
+describe('Monte Carlo reproducibility and its response to tolerance', () => {
+  /** QF-7 reduced to its resistor tail, with a target near the median so the yield is in between. */
+  const resistorVariant = (tolerance: number, seed: number): Spec =>
+    specFrom({
+      ...(RAW_SPECS['QF-7 strain bridge'] as object),
+      cmrr: { minDb: 80, atFrequencyHz: 50, marginDb: 6, minYieldPercent: 95 },
+      resistors: { series: 'E96', tolerance },
+      topologies: ['resistor'],
+      monteCarlo: { samples: 2000, seed },
+    });
+  const mcOf = async (spec: Spec) => (await recommend(spec, ruleSet)).options[0].monteCarlo!;
+
+  test('the same seed gives the same Monte Carlo; another seed gives another', async () => {
+    const first = await mcOf(resistorVariant(0.01, 21));
+    expect(await mcOf(resistorVariant(0.01, 21))).toEqual(first);
+    const other = await mcOf(resistorVariant(0.01, 22));
+    expect(other.histogram.counts).not.toEqual(first.histogram.counts);
+  });
+
+  test('yield falls as the resistor tolerance grows (1 % → 5 % → 10 %)', async () => {
+    const yields = [];
+    for (const tolerance of [0.01, 0.05, 0.1]) yields.push((await mcOf(resistorVariant(tolerance, 21))).yieldPercent);
+    expect(yields[0]).toBeLessThan(100); // the target sits inside the distribution, so the comparison means something
+    expect(yields[1]).toBeLessThan(yields[0]);
+    expect(yields[2]).toBeLessThan(yields[1]);
+  });
+});
