@@ -1,4 +1,5 @@
 import type { OptionFacts } from '../shared/engine/types';
+import { formatQuantity } from '../shared/units/format-quantity';
 import { FACT_KINDS, isFactName, type FactKind } from './fact-kinds';
 
 /**
@@ -29,19 +30,9 @@ function fixed1(x: number): string {
   return withMinus(String(rounded));
 }
 
-/** Engineering prefixes, largest first; the micro sign is U+00B5 as in shared/units. */
-const SI_PREFIXES: ReadonlyArray<readonly [number, string]> = [
-  [12, 'T'], [9, 'G'], [6, 'M'], [3, 'k'], [0, ''], [-3, 'm'], [-6, '\u00b5'], [-9, 'n'], [-12, 'p'], [-15, 'f'],
-];
-
-/** Three significant digits with an engineering prefix: 0.0284, "W" -> "28.4 mW". */
+/** Three significant digits with an engineering prefix: 0.0284, "W" -> "28.4 mW" (shared/units). */
 function si(x: number, unit: string): string {
-  if (x === 0) return `0 ${unit}`;
-  const rounded = Number(x.toPrecision(3));
-  const [exponent, prefix] =
-    SI_PREFIXES.find(([e]) => Math.abs(rounded) >= 10 ** e) ?? SI_PREFIXES[SI_PREFIXES.length - 1];
-  const mantissa = Number((rounded / 10 ** exponent).toPrecision(3));
-  return `${withMinus(String(mantissa))} ${prefix}${unit}`;
+  return formatQuantity(x, unit);
 }
 
 const FORMATS: Readonly<Record<string, Format>> = {
