@@ -17,12 +17,16 @@ const CUT_OFF_CURRENT_A = 1e-10;
 /** A differential common-mode gain below this fraction of the common-mode gain is "zero" (matched pair). */
 const MATCHED_PAIR_RATIO = 1e-9;
 
-/** A solved stage: the operating point, the small-signal responses, and the contract's figures. */
-export interface StageSolution {
+/** A solved circuit: the operating point and the small-signal responses. */
+export interface SolvedCircuit {
   design: Design;
   model: DeviceModel;
   op: OperatingPoint;
   stage: SmallSignalStage;
+}
+
+/** A solved stage with the contract's figures. */
+export interface StageSolution extends SolvedCircuit {
   result: AnalyzeResult;
 }
 
@@ -137,11 +141,24 @@ function vbeGuessV(design: Design, model: DeviceModel): number {
  * Solves a design and keeps the internals that sweeps and sensitivities reuse. `warmStart`: a
  * solved stage of the same topology whose operating point seeds the Newton iteration.
  */
-export function solveStage(design: Design, warmStart?: StageSolution): StageSolution {
+export function solveStage(design: Design, warmStart?: SolvedCircuit): StageSolution {
+  const solved = solveCircuit(design, warmStart);
+  return { ...solved, result: stageFigures(solved) };
+}
+
+/**
+ * Solves the operating point and the small-signal stage only (no figures): for sensitivities,
+ * where only transfers are read. `warmStart` as in solveStage.
+ */
+export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedCircuit {
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const model = deviceModel(design.device, temperatureC);
   const op = solveOperatingPoint(stageCircuit(design, vbeGuessV(design, model)), model, warmStart?.op);
-  const stage = smallSignalStage(op);
+  return { design, model, op, stage: smallSignalStage(op) };
+}
+
+/** The contract's figures of a solved circuit. */
+function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResult {
   const ic = op.circuit;
   const v = op.voltagesV;
   const transistors = transistorOperatingPoints(ic, op, model.vceSatV);
@@ -157,7 +174,7 @@ export function solveStage(design: Design, warmStart?: StageSolution): StageSolu
   const cmrrSingleDb = 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re));
   const matched = Math.abs(low.differentialCommonModeGain.re) <= MATCHED_PAIR_RATIO * Math.abs(low.commonModeGain.re);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);
-  const result: AnalyzeResult = {
+  return {
     tailCurrentA: currentIntoElementsA(op, TAIL_NODE, true),
     collectorCurrentA: q1.collectorCurrentA,
     collectorVoltageV: nodeVoltage(ic, v, ic.nodeRef(COLLECTOR_NODES[0])),
@@ -186,7 +203,6 @@ export function solveStage(design: Design, warmStart?: StageSolution): StageSolu
         : Math.min(...outputTransistors.map((q) => q.vceV - model.vceSatV)),
     pairSaturationMarginV: Math.min(...pair.map((q) => q.vceV - model.vceSatV)),
   };
-  return { design, model, op, stage, result };
 }
 
 /**

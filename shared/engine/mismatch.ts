@@ -9,7 +9,7 @@
  * (complex, at one frequency), CMRR = |Ad| / |Adcm|. tests/unit/engine/mismatch.test.ts holds
  * the model against full solves.
  */
-import { solveStage, transfersAt, type StageSolution } from './analyze';
+import { solveCircuit, transfersAt, type SolvedCircuit } from './analyze';
 import type { Complex } from './small-signal';
 import { gaussianSource } from './random';
 
@@ -49,18 +49,18 @@ export interface MonteCarloResult {
 
 /** The stage solved matched and at the model's fitting points. */
 export interface MismatchStages {
-  matched: StageSolution;
-  loadPlus: StageSolution;
-  loadMinus: StageSolution;
-  isPlus: StageSolution;
-  isMinus: StageSolution;
-  both: StageSolution;
+  matched: SolvedCircuit;
+  loadPlus: SolvedCircuit;
+  loadMinus: SolvedCircuit;
+  isPlus: SolvedCircuit;
+  isMinus: SolvedCircuit;
+  both: SolvedCircuit;
 }
 
 /** Solves the stages the model is fitted on (frequency-independent), warm-started from the matched solution. */
-export function mismatchStages(matched: StageSolution): MismatchStages {
+export function mismatchStages(matched: SolvedCircuit): MismatchStages {
   const solve = (loadMismatch: number, isMismatch: number) =>
-    solveStage({ ...matched.design, collectorMismatch: loadMismatch, pairSaturationCurrentMismatch: isMismatch }, matched);
+    solveCircuit({ ...matched.design, collectorMismatch: loadMismatch, pairSaturationCurrentMismatch: isMismatch }, matched);
   return {
     matched,
     loadPlus: solve(LOAD_STEP, 0),
@@ -88,7 +88,7 @@ function abs(z: Complex): number {
 
 /** The model's coefficients at a frequency (central differences; the cross term from the (ε, δ) point). */
 export function mismatchSensitivity(stages: MismatchStages, frequencyHz: number): MismatchSensitivity {
-  const at = (s: StageSolution) => transfersAt(s, frequencyHz);
+  const at = (s: SolvedCircuit) => transfersAt(s, frequencyHz);
   const m = at(stages.matched);
   const lp = at(stages.loadPlus);
   const lm = at(stages.loadMinus);
@@ -154,26 +154,40 @@ function percentile(sorted: Float64Array, p: number): number {
   return sorted[i];
 }
 
+/** Standard-normal draws for a Monte Carlo, three per sample (load 1, load 2, ΔVBE), shared by every option. */
+export interface MonteCarloDraws {
+  samples: number;
+  seed: number;
+  normals: Float64Array;
+}
+
+/** Draws once per spec, so every option sees the same samples (common random numbers). */
+export function monteCarloDraws(samples: number, seed: number): MonteCarloDraws {
+  const gauss = gaussianSource(seed);
+  const normals = new Float64Array(3 * samples);
+  for (let i = 0; i < normals.length; i += 1) normals[i] = gauss.next();
+  return { samples, seed, normals };
+}
+
 /**
  * Seeded Monte Carlo of the differential CMRR: each load resistor Gaussian with 3σ = tolerance,
  * the pair's ΔVBE Gaussian with the spec's σ; yield = share of samples at or above `requiredDb`.
  */
 export function monteCarloCmrr(
   s: MismatchSensitivity,
+  draws: MonteCarloDraws,
   resistorTolerance: number,
   vbeSigmaV: number,
   requiredDb: number,
-  samples: number,
-  seed: number,
 ): MonteCarloResult {
-  const gauss = gaussianSource(seed);
+  const { samples, normals } = draws;
   const resistorSigma = resistorTolerance / SIGMAS_PER_TOLERANCE;
   const values = new Float64Array(samples);
   let passing = 0;
   for (let i = 0; i < samples; i += 1) {
-    const r1 = 1 + resistorSigma * gauss.next();
-    const r2 = 1 + resistorSigma * gauss.next();
-    const isMismatch = Math.exp((vbeSigmaV * gauss.next()) / s.thermalVoltageV) - 1;
+    const r1 = 1 + resistorSigma * normals[3 * i];
+    const r2 = 1 + resistorSigma * normals[3 * i + 1];
+    const isMismatch = Math.exp((vbeSigmaV * normals[3 * i + 2]) / s.thermalVoltageV) - 1;
     const db = mismatchCmrrDb(s, r2 / r1 - 1, isMismatch);
     values[i] = Number.isFinite(db) ? db : Number.MAX_VALUE;
     if (db >= requiredDb) passing += 1;
@@ -186,7 +200,7 @@ export function monteCarloCmrr(
   for (const v of values) counts[Math.min(HISTOGRAM_BINS - 1, Math.floor((v - lowDb) / widthDb))] += 1;
   return {
     samples,
-    seed,
+    seed: draws.seed,
     requiredDb,
     yieldPercent: (100 * passing) / samples,
     percentilesDb: { p1: percentile(values, 1), p5: percentile(values, 5), p50: percentile(values, 50), p95: percentile(values, 95) },

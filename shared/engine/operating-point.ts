@@ -105,8 +105,9 @@ function scaledCircuit(ic: IndexedCircuit, fraction: number): IndexedCircuit {
 
 /**
  * Solves the DC operating point of a stage circuit with a device model. `warmStart`, the
- * solution of a nearby circuit with the same nodes (another corner, a small mismatch), replaces
- * the hand-analysis guess and saves most of the iterations.
+ * solution of a nearby circuit with the same nodes, rails, inputs and temperature (a small
+ * mismatch, a resistor being tuned), replaces the hand-analysis guess and saves iterations; for
+ * another bias or temperature the hand guess converges faster.
  */
 export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint): OperatingPoint {
   const ic = indexCircuit(circuit);

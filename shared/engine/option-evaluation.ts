@@ -5,7 +5,7 @@
  */
 import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
 import { solveStage, singleEndedCmrrDbAt, type StageSolution } from './analyze';
-import { mismatchSensitivity, mismatchStages, monteCarloCmrr, worstCaseMismatchCmrrDb, type MonteCarloResult } from './mismatch';
+import { mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws, worstCaseMismatchCmrrDb, type MonteCarloDraws, type MonteCarloResult } from './mismatch';
 import { designAt, outputGain, swingPeakPerCollectorV } from './sizing';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
 
@@ -45,9 +45,10 @@ export interface OptionEvaluation {
   monteCarlo: MonteCarloResult | null;
 }
 
-function at(spec: Spec, design: Design, condition: Condition, warmStart?: StageSolution): StageSolution {
+/** The sized design at another condition (a cold start: another bias is too far for a warm one). */
+function at(spec: Spec, design: Design, condition: Condition): StageSolution {
   const values = { tail: design.tail, collectorResistanceOhm: design.collectorResistanceOhm, pairEmitterResistanceOhm: design.pairEmitterResistanceOhm ?? 0 };
-  return solveStage(designAt(spec, condition, values), warmStart);
+  return solveStage(designAt(spec, condition, values));
 }
 
 function frequencyGrid(): number[] {
@@ -55,8 +56,11 @@ function frequencyGrid(): number[] {
   return Array.from({ length: decades * CURVE_POINTS_PER_DECADE + 1 }, (_, i) => CURVE_START_HZ * 10 ** (i / CURVE_POINTS_PER_DECADE));
 }
 
-/** Evaluates a sized design against its spec. */
-export function evaluateOption(spec: Spec, design: Design): OptionEvaluation {
+/**
+ * Evaluates a sized design against its spec. `draws`: the spec's Monte Carlo draws, shared by
+ * every option of one recommendation (made here when absent).
+ */
+export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDraws): OptionEvaluation {
   const f = spec.cmrr.atFrequencyHz;
   const differentialOutput = spec.gain.output === 'differential';
   const tolerance = spec.resistors.tolerance;
@@ -66,7 +70,7 @@ export function evaluateOption(spec: Spec, design: Design): OptionEvaluation {
   const predicted = nominalSolution.result;
 
   const corners = cornerConditions(spec).map((condition) => {
-    const solution = at(spec, design, condition, nominalSolution);
+    const solution = at(spec, design, condition);
     const sensitivity = differentialOutput ? mismatchSensitivity(mismatchStages(solution), f) : null;
     const figures: ConditionFigures = {
       label: condition.label,
@@ -91,15 +95,16 @@ export function evaluateOption(spec: Spec, design: Design): OptionEvaluation {
   if (differentialOutput) {
     const worst = corners.reduce((a, b) => (b.figures.cmrrDifferentialWorstCaseDb! < a.figures.cmrrDifferentialWorstCaseDb! ? b : a));
     worstDifferential = worst.figures.cmrrDifferentialWorstCaseDb;
-    monteCarlo = monteCarloCmrr(worst.sensitivity!, tolerance, sigmaV, spec.cmrr.minDb, spec.monteCarlo.samples, spec.monteCarlo.seed);
+    const shared = draws ?? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
+    monteCarlo = monteCarloCmrr(worst.sensitivity!, shared, tolerance, sigmaV, spec.cmrr.minDb);
   }
 
   const sweepConditions = temperatureSweep(spec);
-  const sweep = sweepConditions.map((condition) => at(spec, design, condition, nominalSolution).result);
+  const sweep = sweepConditions.map((condition) => at(spec, design, condition).result);
   const sweepCurrents = sweep.map((r) => r.tailCurrentA);
   const driftPercent = ((Math.max(...sweepCurrents) - Math.min(...sweepCurrents)) / predicted.tailCurrentA) * 100;
-  const icmLow = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.minV }, nominalSolution).result;
-  const icmHigh = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.maxV }, nominalSolution).result;
+  const icmLow = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.minV }).result;
+  const icmHigh = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.maxV }).result;
   const gainNominal = outputGain(spec, predicted);
   const gainVsIcmPercent = (Math.abs(outputGain(spec, icmHigh) - outputGain(spec, icmLow)) / gainNominal) * 100;
   const gainErrorPercent = ((gainNominal - spec.gain.target) / spec.gain.target) * 100;

@@ -6,7 +6,7 @@
  */
 import { nominalCondition } from './conditions';
 import { evaluateOption, type ConditionFigures, type OptionCurves } from './option-evaluation';
-import type { MonteCarloResult } from './mismatch';
+import { monteCarloDraws, type MonteCarloDraws, type MonteCarloResult } from './mismatch';
 import { rankOptions, recommendedTopology } from './ranking';
 import { sizeTopology } from './sizing';
 import type { AnalyzeResult, Check, Design, OptionFacts, RuleSet, SelectionPolicy, Spec, TopologyId } from './types';
@@ -46,14 +46,14 @@ export interface RecommendResult {
 
 const CAUTION_RULES = new Set(['hazardous-voltage', 'patient-connected', 'mains-referenced']);
 
-async function optionFor(spec: Spec, topology: TopologyId, ruleSet: RuleSet): Promise<Omit<RecommendOption, 'rank'>> {
+async function optionFor(spec: Spec, topology: TopologyId, ruleSet: RuleSet, draws: MonteCarloDraws): Promise<Omit<RecommendOption, 'rank'>> {
   let design: Design | null = null;
   let notes: string[] = [];
   try {
     const sized = sizeTopology(spec, topology, nominalCondition(spec));
     design = sized.design;
     notes = sized.notes;
-    const evaluation = evaluateOption(spec, design);
+    const evaluation = evaluateOption(spec, design, draws);
     const checks = await ruleSet.evaluate(evaluation.facts);
     const facts = evaluation.facts;
     return {
@@ -99,8 +99,9 @@ function summaryFor(recommended: TopologyId | null, policy: SelectionPolicy, pas
  * the schema (defaults applied); `ruleSet` comes from rules/ (loadRuleSet).
  */
 export async function recommend(spec: Spec, ruleSet: RuleSet): Promise<RecommendResult> {
+  const draws = monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
   const evaluated = [];
-  for (const topology of spec.topologies) evaluated.push(await optionFor(spec, topology, ruleSet));
+  for (const topology of spec.topologies) evaluated.push(await optionFor(spec, topology, ruleSet, draws));
   const rankable = evaluated.map((o) => ({
     ...o,
     tailImpedanceAtFrequencyOhm: o.figures?.tailImpedanceAtFrequencyOhm ?? 0,

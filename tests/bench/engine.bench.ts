@@ -8,7 +8,7 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { analyze, recommend, solveStage } from '../../shared/engine/index';
-import { mismatchSensitivity, mismatchStages, monteCarloCmrr } from '../../shared/engine/mismatch';
+import { mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws } from '../../shared/engine/mismatch';
 import { spiceNetlist } from '../../shared/engine/netlist';
 import type { Design, Spec } from '../../shared/engine/types';
 import { validateSpec } from '../../shared/validate';
@@ -83,7 +83,7 @@ const sensitivity = mismatchSensitivity(mismatchStages(solveStage(designs[0])), 
 const monteCarloMs = median(
   Array.from({ length: BATCHES }, (_, seed) => {
     const start = performance.now();
-    monteCarloCmrr(sensitivity, 0.01, 0.001, 80, MONTE_CARLO_SAMPLES, seed + 1);
+    monteCarloCmrr(sensitivity, monteCarloDraws(MONTE_CARLO_SAMPLES, seed + 1), 0.01, 0.001, 80);
     return performance.now() - start;
   }),
 );

@@ -6,7 +6,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import { analyze, solveStage, transfersAt } from '../../../shared/engine/analyze';
-import { mismatchCmrrDb, mismatchSensitivity, mismatchStages, monteCarloCmrr, worstCaseMismatchCmrrDb } from '../../../shared/engine/mismatch';
+import { mismatchCmrrDb, mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws, worstCaseMismatchCmrrDb } from '../../../shared/engine/mismatch';
 import { gaussianSource } from '../../../shared/engine/random';
 import type { Design } from '../../../shared/engine/types';
 
@@ -66,7 +66,7 @@ describe.each(Object.entries(DESIGNS))('%s', (_name, design) => {
 
   test('the worst case lies below the Monte Carlo 5th percentile (3σ extremes add in magnitude)', () => {
     const s = mismatchSensitivity(stages, 1000);
-    const mc = monteCarloCmrr(s, 0.01, 0.001, 60, 2000, 5);
+    const mc = monteCarloCmrr(s, monteCarloDraws(2000, 5), 0.01, 0.001, 60);
     expect(worstCaseMismatchCmrrDb(s, 0.01, 0.001)).toBeLessThan(mc.percentilesDb.p5);
   });
 
@@ -76,10 +76,10 @@ describe.each(Object.entries(DESIGNS))('%s', (_name, design) => {
     const sigmaV = 0.0015;
     const samples = 300;
     const seed = 21;
-    const medianDb = monteCarloCmrr(s, tolerance, sigmaV, 0, samples, seed).percentilesDb.p50;
+    const medianDb = monteCarloCmrr(s, monteCarloDraws(samples, seed), tolerance, sigmaV, 0).percentilesDb.p50;
     const requiredDb = medianDb - 3; // a threshold that splits the population
-    const quick = monteCarloCmrr(s, tolerance, sigmaV, requiredDb, samples, seed);
-    // Same generator, same order of draws as monteCarloCmrr: r1, r2, ΔVBE per sample.
+    const quick = monteCarloCmrr(s, monteCarloDraws(samples, seed), tolerance, sigmaV, requiredDb);
+    // Same generator, same order of draws as monteCarloDraws: r1, r2, ΔVBE per sample.
     const gauss = gaussianSource(seed);
     let passing = 0;
     for (let i = 0; i < samples; i += 1) {
@@ -96,11 +96,11 @@ describe.each(Object.entries(DESIGNS))('%s', (_name, design) => {
 describe('Monte Carlo bookkeeping', () => {
   const s = mismatchSensitivity(mismatchStages(solveStage(DESIGNS['resistor tail, single 10 V supply'])), 0);
   test('same seed, same result; another seed, another sample', () => {
-    expect(monteCarloCmrr(s, 0.01, 0.001, 70, 500, 9)).toEqual(monteCarloCmrr(s, 0.01, 0.001, 70, 500, 9));
-    expect(monteCarloCmrr(s, 0.01, 0.001, 70, 500, 9).percentilesDb.p50).not.toEqual(monteCarloCmrr(s, 0.01, 0.001, 70, 500, 10).percentilesDb.p50);
+    expect(monteCarloCmrr(s, monteCarloDraws(500, 9), 0.01, 0.001, 70)).toEqual(monteCarloCmrr(s, monteCarloDraws(500, 9), 0.01, 0.001, 70));
+    expect(monteCarloCmrr(s, monteCarloDraws(500, 9), 0.01, 0.001, 70).percentilesDb.p50).not.toEqual(monteCarloCmrr(s, monteCarloDraws(500, 10), 0.01, 0.001, 70).percentilesDb.p50);
   });
   test('the histogram counts every sample', () => {
-    const mc = monteCarloCmrr(s, 0.01, 0.001, 70, 777, 2);
+    const mc = monteCarloCmrr(s, monteCarloDraws(777, 2), 0.01, 0.001, 70);
     expect(mc.histogram.counts.reduce((a, b) => a + b, 0)).toBe(777);
     expect(mc.histogram.binEdgesDb).toHaveLength(mc.histogram.counts.length + 1);
   });
