@@ -66,4 +66,10 @@ async function main(argv: string[]): Promise<number> {
   }
 }
 
+// A reader that stops early (`| head`) closes the pipe: that is not a fault.
+process.stdout.on('error', (error: NodeJS.ErrnoException) => {
+  if (error.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+  throw error;
+});
+
 process.exitCode = await main(process.argv.slice(2));

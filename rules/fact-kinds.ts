@@ -72,6 +72,7 @@ export const FACT_KINDS: { readonly [K in keyof OptionFacts]-?: KindOf<OptionFac
   tailOutputResistanceOhm: 'number',
   tailOutputResistanceClosedFormOhm: 'number-or-null',
   tailOutputResistanceFormula: 'text',
+  tailOutputResistanceNote: 'text',
 };
 
 /** True when `name` is an OptionFacts field. */

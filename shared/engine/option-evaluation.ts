@@ -6,6 +6,7 @@
 import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
 import { solveStage, singleEndedCmrrDbAt, type StageSolution } from './analyze';
 import { mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws, worstCaseMismatchCmrrDb, type MonteCarloDraws, type MonteCarloResult } from './mismatch';
+import { formatQuantity } from '../units/format-quantity';
 import { designAt, outputGain, swingPeakPerCollectorV } from './sizing';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
 
@@ -49,6 +50,12 @@ export interface OptionEvaluation {
 function at(spec: Spec, design: Design, condition: Condition): StageSolution {
   const values = { tail: design.tail, collectorResistanceOhm: design.collectorResistanceOhm, pairEmitterResistanceOhm: design.pairEmitterResistanceOhm ?? 0 };
   return solveStage(designAt(spec, condition, values));
+}
+
+/** The solved tail output resistance beside its textbook limit, as one phrase. */
+function routNote(routOhm: number, closedForm: { valueOhm: number | null; formula: string }): string {
+  const textbook = closedForm.valueOhm === null ? 'unbounded without an Early voltage' : `≈ ${formatQuantity(closedForm.valueOhm, 'Ohm')}`;
+  return `${formatQuantity(routOhm, 'Ohm')} by node analysis (textbook ${closedForm.formula} ${textbook})`;
 }
 
 function frequencyGrid(): number[] {
@@ -176,6 +183,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     tailOutputResistanceOhm: rout,
     tailOutputResistanceClosedFormOhm: predicted.tailOutputResistanceClosedForm.valueOhm,
     tailOutputResistanceFormula: predicted.tailOutputResistanceClosedForm.formula,
+    tailOutputResistanceNote: routNote(rout, predicted.tailOutputResistanceClosedForm),
   };
 
   const nominalMismatch = differentialOutput ? mismatchStages(nominalSolution) : null;

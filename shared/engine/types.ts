@@ -219,6 +219,8 @@ export interface OptionFacts {
   tailOutputResistanceOhm: number;
   tailOutputResistanceClosedFormOhm: number | null;
   tailOutputResistanceFormula: string;
+  /** One sentence: the solved Rout beside its textbook limit, e.g. "5.48 MΩ by node analysis (textbook β·ro/2 ≈ 5.29 MΩ)". */
+  tailOutputResistanceNote: string;
 }
 
 /** A rule set as the engine sees it: a version and an evaluator (rules/ provides it). */

@@ -57,6 +57,7 @@ export function makeOptionFacts(overrides: Partial<OptionFacts> = {}): OptionFac
     tailOutputResistanceOhm: 2.3e6,
     tailOutputResistanceClosedFormOhm: 2.0e6,
     tailOutputResistanceFormula: 'ro·(1 + gm·(RE ∥ rπ))',
+    tailOutputResistanceNote: '2.3 MΩ by node analysis (textbook ro·(1 + gm·(RE ∥ rπ)) ≈ 2.5 MΩ)',
     ...overrides,
   };
 }
