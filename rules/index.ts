@@ -7,7 +7,11 @@ import { loadRuleFiles, prepareRules, rulesetVersion, runRules, type RuleFile } 
  */
 export function createRuleSet(rules: readonly RuleFile[]): RuleSet {
   prepareRules(rules);
-  return { version: rulesetVersion(rules), evaluate: (facts) => runRules(rules, facts) };
+  return {
+    version: rulesetVersion(rules),
+    rules: [...rules].sort((a, b) => a.name.localeCompare(b.name)).map((r) => ({ rule: r.name, severity: r.event.params.severity })),
+    evaluate: (facts) => runRules(rules, facts),
+  };
 }
 
 /** Loads the rule files next to run-rules.ts (or in `dir`) into a RuleSet. */

@@ -116,17 +116,25 @@ function cmrrCornerHz(stage: SmallSignalStage, tailCapacitanceF: number): number
   return omegaCt / (2 * Math.PI * tailCapacitanceF);
 }
 
-function warningsFor(transistors: TransistorOperatingPoint[], vceSatV: number, referenceCurrentA: number, hasReference: boolean): string[] {
-  const warnings: string[] = [];
+/** Sentences for transistors out of the forward-active region and a dead reference branch. */
+function operatingPointProblems(transistors: TransistorOperatingPoint[], vceSatV: number, referenceCurrentA: number, hasReference: boolean): string[] {
+  const problems: string[] = [];
   for (const q of transistors) {
     if (q.region === 'saturated') {
-      warnings.push(`${q.name} is saturated: VCE = ${q.vceV.toFixed(3)} V, below VCE(sat) = ${vceSatV} V.`);
+      problems.push(`${q.name} is saturated: VCE = ${q.vceV.toFixed(3)} V, below VCE(sat) = ${vceSatV} V.`);
     } else if (q.region === 'cut-off') {
-      warnings.push(`${q.name} is cut off: its collector current is ${q.collectorCurrentA.toExponential(2)} A.`);
+      problems.push(`${q.name} is cut off: its collector current is ${q.collectorCurrentA.toExponential(2)} A.`);
     }
   }
-  if (hasReference && !(referenceCurrentA > 0)) warnings.push('The reference branch carries no current: the rails are too close for this tail.');
-  return warnings;
+  if (hasReference && !(referenceCurrentA > 0)) problems.push('The reference branch carries no current: the rails are too close for this tail.');
+  return problems;
+}
+
+/** Warnings about the inputs themselves (not the operating point). */
+function inputWarnings(earlyVoltageV: number): string[] {
+  return Number.isFinite(earlyVoltageV)
+    ? []
+    : ["No Early voltage (VAF) given: output resistances then rest only on SPICE's GMIN, so the rejection figures mean little; enter the device's VAF."];
 }
 
 /** Starting-guess VBE: the device's VBE at a rough tail-current estimate (rails over the largest resistor). */
@@ -174,6 +182,7 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResul
   const cmrrSingleDb = 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re));
   const matched = Math.abs(low.differentialCommonModeGain.re) <= MATCHED_PAIR_RATIO * Math.abs(low.commonModeGain.re);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);
+  const problems = operatingPointProblems(transistors, model.vceSatV, referenceCurrentA, design.tail.topology !== 'resistor');
   return {
     tailCurrentA: currentIntoElementsA(op, TAIL_NODE, true),
     collectorCurrentA: q1.collectorCurrentA,
@@ -192,7 +201,8 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResul
     cmrrCornerHz: cmrrCornerHz(stage, design.tailCapacitanceF ?? 0),
     // Power delivered by the rails: Σ V·I, I the current each rail sends into the circuit.
     powerW: design.supply.positiveV * positiveA + design.supply.negativeV * negativeA,
-    warnings: warningsFor(transistors, model.vceSatV, referenceCurrentA, design.tail.topology !== 'resistor'),
+    warnings: [...problems, ...inputWarnings(model.earlyVoltageV)],
+    operatingPointProblems: problems,
     tailOutputResistanceClosedForm: closedForm,
     transistors,
     collector2VoltageV: nodeVoltage(ic, v, ic.nodeRef(COLLECTOR_NODES[1])),

@@ -111,12 +111,19 @@ function scaledCircuit(ic: IndexedCircuit, fraction: number): IndexedCircuit {
  */
 export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint): OperatingPoint {
   const ic = indexCircuit(circuit);
+  const handGuess = Float64Array.from(ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0));
   const sameNodes = warmStart !== undefined && warmStart.circuit.freeNodes.join() === ic.freeNodes.join();
-  const guess = sameNodes ? Float64Array.from(warmStart.voltagesV) : Float64Array.from(ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0));
-  let solved = newtonSolve(ic, model, guess);
-  let iterations = solved?.iterations ?? MAX_ITERATIONS;
+  // A warm start that fails (its bias was too far away) falls back to the hand guess.
+  const starts = sameNodes ? [Float64Array.from(warmStart.voltagesV), handGuess] : [handGuess];
+  let solved: { v: Float64Array; iterations: number } | null = null;
+  let iterations = 0;
+  for (const start of starts) {
+    solved = newtonSolve(ic, model, start);
+    iterations += solved?.iterations ?? MAX_ITERATIONS;
+    if (solved) break;
+  }
   if (!solved) {
-    let v: Float64Array = guess.map((x) => x * SOURCE_STEPS[0]);
+    let v: Float64Array = handGuess.map((x) => x * SOURCE_STEPS[0]);
     for (const fraction of SOURCE_STEPS) {
       const step = newtonSolve(scaledCircuit(ic, fraction), model, v);
       if (!step) throw new ConvergenceError(`the operating point did not converge (source stepping stalled at ${Math.round(fraction * 100)} % of the rails)`);

@@ -29,6 +29,7 @@ export interface ConditionFigures {
   tailComplianceMarginV: number;
   pairSaturationMarginV: number;
   warnings: string[];
+  operatingPointProblems: string[];
 }
 
 export interface OptionCurves {
@@ -91,6 +92,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
       tailComplianceMarginV: solution.result.tailComplianceMarginV,
       pairSaturationMarginV: solution.result.pairSaturationMarginV,
       warnings: solution.result.warnings,
+      operatingPointProblems: solution.result.operatingPointProblems,
     };
     return { figures, sensitivity };
   });
@@ -123,8 +125,8 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const swingMarginV = Math.min(upRoomV - swingPeakV, predicted.pairSaturationMarginV - swingPeakV);
   const powerWorstW = Math.max(predicted.powerW, ...cornerFigures.map((c) => c.powerW));
   const problems = [
-    ...predicted.warnings.map((w) => `${nominal.label}: ${w}`),
-    ...cornerFigures.flatMap((c) => c.warnings.map((w) => `${c.label}: ${w}`)),
+    ...predicted.operatingPointProblems.map((w) => `${nominal.label}: ${w}`),
+    ...cornerFigures.flatMap((c) => c.operatingPointProblems.map((w) => `${c.label}: ${w}`)),
   ];
   const omegaCt = 2 * Math.PI * f * spec.tailCapacitanceF;
   const rout = predicted.tailOutputResistanceOhm;

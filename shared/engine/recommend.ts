@@ -46,6 +46,18 @@ export interface RecommendResult {
 
 const CAUTION_RULES = new Set(['hazardous-voltage', 'patient-connected', 'mains-referenced']);
 
+/** Every rule of the set, undecided, for an option whose stage could not be solved. */
+function unsolvedChecks(ruleSet: RuleSet, message: string): Check[] {
+  return ruleSet.rules.map(({ rule, severity }) => ({
+    rule,
+    passed: false,
+    severity,
+    reason: `Not decided: this option could not be solved at the spec's conditions (${message}).`,
+    margin: null,
+    evaluated: false,
+  }));
+}
+
 async function optionFor(spec: Spec, topology: TopologyId, ruleSet: RuleSet, draws: MonteCarloDraws): Promise<Omit<RecommendOption, 'rank'>> {
   let design: Design | null = null;
   let notes: string[] = [];
@@ -76,7 +88,7 @@ async function optionFor(spec: Spec, topology: TopologyId, ruleSet: RuleSet, dra
       passes: false,
       design,
       predicted: null,
-      checks: [{ rule: 'operating-point', passed: false, severity: 'blocking', reason: `This option could not be solved at the spec's conditions: ${message}.`, margin: null }],
+      checks: unsolvedChecks(ruleSet, message),
       rejectionDb: null,
       figures: null,
       corners: [],
@@ -111,7 +123,9 @@ export async function recommend(spec: Spec, ruleSet: RuleSet): Promise<Recommend
   const recommended = recommendedTopology(rankable, spec.policy);
   const byTopology = new Map(evaluated.map((o) => [o.topology, o]));
   const options = ranked.map((r, i) => ({ ...byTopology.get(r.topology)!, rank: i + 1 }));
-  const cautions = [...new Set(evaluated.flatMap((o) => o.checks.filter((c) => CAUTION_RULES.has(c.rule) && !c.passed).map((c) => c.reason)))];
+  const cautions = [
+    ...new Set(evaluated.flatMap((o) => o.checks.filter((c) => CAUTION_RULES.has(c.rule) && !c.passed && c.evaluated !== false).map((c) => c.reason))),
+  ];
   return {
     engineVersion: ENGINE_VERSION,
     rulesetVersion: ruleSet.version,

@@ -104,6 +104,8 @@ export interface AnalyzeResult {
   tailComplianceMarginV: number;
   /** Added: Q1/Q2 smallest VCE − VCE(sat), volts. */
   pairSaturationMarginV: number;
+  /** Added: the warnings that are about the operating point (a transistor saturated or cut off). */
+  operatingPointProblems: string[];
 }
 
 export type Severity = 'blocking' | 'advisory';
@@ -118,6 +120,8 @@ export interface Check {
   marginUnit?: string;
   /** Added: false when the check does not apply to this option (it then passes). */
   applicable?: boolean;
+  /** Added: false when the option could not be solved, so the rule could not be decided (it then fails). */
+  evaluated?: boolean;
 }
 
 export type ResistorSeries = 'E24' | 'E96' | 'E192';
@@ -223,8 +227,10 @@ export interface OptionFacts {
   tailOutputResistanceNote: string;
 }
 
-/** A rule set as the engine sees it: a version and an evaluator (rules/ provides it). */
+/** A rule set as the engine sees it: a version, its rules, and an evaluator (rules/ provides it). */
 export interface RuleSet {
   version: string;
+  /** Every rule's id and severity, sorted by id (what an unsolvable option reports as not evaluated). */
+  rules: { rule: string; severity: Severity }[];
   evaluate(facts: OptionFacts): Promise<Check[]>;
 }

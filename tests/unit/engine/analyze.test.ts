@@ -7,7 +7,7 @@
  * the formula, the comment says so: that row checks the small-signal solve, not the bias.
  */
 import { describe, expect, test } from 'vitest';
-import { analyze } from '../../../shared/engine/index';
+import { analyze, singleEndedCmrrDbAt, solveStage } from '../../../shared/engine/index';
 import { TOPOLOGIES, type AnalyzeResult, type Design, type DeviceParams, type TailDesign, type TopologyId } from '../../../shared/engine/types';
 
 /** An invented small-signal NPN (not a catalogue part). */
@@ -135,10 +135,12 @@ describe('bias: tail currents against the hand formulas', () => {
   });
 
   test.each([...TOPOLOGIES])('%s: power = (V+ − V−)·(Itail + Iref) within 1 % (the pair base currents come from the inputs)', (topology) => {
-    const result = analyze(designWith({ tail: TAILS[topology] }));
+    const d = designWith({ tail: TAILS[topology] });
+    const result = analyze(d);
     // Energy bookkeeping: the rails carry the tail and reference currents; the pair's base
     // currents (Itail/β) come from the input sources, hence 1 %.
-    expect(relativeError(result.powerW, 20 * (result.tailCurrentA + result.referenceCurrentA))).toBeLessThan(0.01);
+    const spanV = d.supply.positiveV - d.supply.negativeV;
+    expect(relativeError(result.powerW, spanV * (result.tailCurrentA + result.referenceCurrentA))).toBeLessThan(0.01);
   });
 });
 
@@ -155,6 +157,15 @@ describe('small-signal gains against the hand formulas', () => {
     const roOhm = (VAF_V + (result.collectorVoltageV - (d.inputCommonModeV ?? 0))) / result.collectorCurrentA;
     expect(relativeError(Math.abs(result.differentialGain), gmS * ((rcOhm * roOhm) / (rcOhm + roOhm)))).toBeLessThan(0.005);
     expect(result.differentialGain).toBeLessThan(0); // v(c1 − c2)/v(in1 − in2) inverts [SS]
+  });
+
+  test.each([100, 470, 2200])('pair emitter degeneration RE %s Ω: |Ad| ≈ RC/(RE + 1/gm) within 6 % [SS]', (reOhm) => {
+    const d = designWith({ tail: TAILS['simple-mirror'], pairEmitterResistanceOhm: reOhm });
+    const result = analyze(d);
+    // gm = IC/VT [GM] from the engine's own Q1 current (this row checks the small-signal solve);
+    // the limit neglects α (1/β) and the pair's ro (RC/ro ≈ 4 % here)
+    const gmS = result.collectorCurrentA / VT_V;
+    expect(relativeError(Math.abs(result.differentialGain), d.collectorResistanceOhm / (reOhm + 1 / gmS))).toBeLessThan(0.06);
   });
 
   test.each([...TOPOLOGIES])('%s, matched pair: Ase = Ad/2 (invariant)', (topology) => {
@@ -250,6 +261,12 @@ describe('tail capacitance: the CMRR corner', () => {
     const result = analyze(designWith({ tail: { topology: 'resistor', resistanceOhm: rOhm }, tailCapacitanceF: ctF }));
     expect(result.cmrrCornerHz).not.toBeNull();
     expect(relativeError(result.cmrrCornerHz!, 1 / (2 * Math.PI * rOhm * ctF))).toBeLessThan(0.3);
+  });
+
+  test.each([...TOPOLOGIES])('%s, Ct 10 pF: at cmrrCornerHz the single-ended CMRR is 3 dB below its low-frequency value [contract]', (topology) => {
+    const solution = solveStage(designWith({ tail: TAILS[topology], tailCapacitanceF: 1e-11 }));
+    const dropDb = singleEndedCmrrDbAt(solution, 0) - singleEndedCmrrDbAt(solution, solution.result.cmrrCornerHz!);
+    expect(dropDb).toBeCloseTo(10 * Math.log10(2), 3); // −3.01 dB: |H|² halved
   });
 
   test('no tail capacitance: cmrrCornerHz is null [contract]', () => {
@@ -353,5 +370,46 @@ describe('determinism and the output contract', () => {
     expect(nonFinitePaths(result)).toEqual([]);
     // JSON keeps every field: nothing undefined that would vanish on the command line
     expect(Object.keys(JSON.parse(JSON.stringify(result))).sort()).toEqual(Object.keys(result).sort());
+  });
+});
+
+describe('solveStage with a warm start (sizing and mismatch sensitivities reuse a nearby solution)', () => {
+  // A warm start only seeds the Newton iteration: the solution must be the cold one.
+  const HIGH_RAIL_TAILS: Record<TopologyId, (k: number) => TailDesign> = {
+    resistor: (k) => ({ topology: 'resistor', resistanceOhm: 40000 * k }),
+    'simple-mirror': (k) => ({ topology: 'simple-mirror', referenceResistanceOhm: 40000 * k }),
+    'degenerated-mirror': (k) => ({ topology: 'degenerated-mirror', referenceResistanceOhm: 40000 * k, emitterResistanceOhm: 500 }),
+    widlar: (k) => ({ topology: 'widlar', referenceResistanceOhm: 8000, emitterResistanceOhm: 50 * k }),
+    wilson: (k) => ({ topology: 'wilson', referenceResistanceOhm: 40000 * k }),
+    cascode: (k) => ({ topology: 'cascode', referenceResistanceOhm: 40000 * k }),
+  };
+  const highRail = (tail: TailDesign, overrides: Partial<Design> = {}): Design =>
+    designWith({ supply: { positiveV: 40, negativeV: -40 }, collectorResistanceOhm: 2000, tail, ...overrides });
+
+  function expectSameSolution(warm: AnalyzeResult, cold: AnalyzeResult): void {
+    expect(relativeError(warm.tailCurrentA, cold.tailCurrentA)).toBeLessThan(1e-9);
+    expect(relativeError(warm.collectorVoltageV, cold.collectorVoltageV)).toBeLessThan(1e-9);
+    expect(relativeError(warm.differentialGain, cold.differentialGain)).toBeLessThan(1e-9);
+  }
+
+  const tuningRows = TOPOLOGIES.flatMap((topology) => [0.2, 5].map((k) => ({ topology, k })));
+  test.each(tuningRows)('$topology, ±40 V: warm-started from the tail resistor ×$k (a resistor being tuned), the solve equals the cold one', ({ topology, k }) => {
+    const target = highRail(HIGH_RAIL_TAILS[topology](1));
+    expectSameSolution(solveStage(target, solveStage(highRail(HIGH_RAIL_TAILS[topology](k)))).result, solveStage(target).result);
+  });
+
+  test.each([...TOPOLOGIES])('%s, ±40 V: warm-started from RC ×20 and from the matched pair, the mismatched solve equals the cold one', (topology) => {
+    const target = highRail(HIGH_RAIL_TAILS[topology](1), { collectorMismatch: 1e-3 });
+    const cold = solveStage(target).result;
+    expectSameSolution(solveStage(target, solveStage({ ...target, collectorResistanceOhm: 40000 })).result, cold);
+    expectSameSolution(solveStage(target, solveStage({ ...target, collectorMismatch: 0 })).result, cold);
+  });
+
+  // Robustness: a warm start from another input common mode (the corners of a ±10 V input range)
+  // must not turn a solvable design into a ConvergenceError; the cold solve converges.
+  test('simple mirror, ±40 V: warm-started from VICM 0 V, the solve at VICM +10 V equals the cold solve (falls back rather than failing)', () => {
+    const nominal = highRail(HIGH_RAIL_TAILS['simple-mirror'](1));
+    const corner: Design = { ...nominal, inputCommonModeV: 10 };
+    expectSameSolution(solveStage(corner, solveStage(nominal)).result, solveStage(corner).result);
   });
 });

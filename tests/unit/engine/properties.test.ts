@@ -215,7 +215,8 @@ describe('recommend: sized values on the spec series [IEC60063]', () => {
           if (!option.design) continue;
           optionsChecked += 1;
           const tail = option.design.tail as Record<string, unknown>;
-          const values = [option.design.collectorResistanceOhm, ...Object.keys(tail).filter((k) => k.endsWith('Ohm')).map((k) => tail[k] as number)];
+          const pairReOhm = option.design.pairEmitterResistanceOhm ?? 0;
+          const values = [option.design.collectorResistanceOhm, ...(pairReOhm > 0 ? [pairReOhm] : []), ...Object.keys(tail).filter((k) => k.endsWith('Ohm')).map((k) => tail[k] as number)];
           for (const valueOhm of values) expect(isOnSeries(valueOhm, s.series), `${valueOhm} Ω on ${s.series}`).toBe(true);
         }
       }),
