@@ -47,27 +47,58 @@ export interface MonteCarloResult {
   histogram: { binEdgesDb: number[]; counts: number[] };
 }
 
-/** The stage solved matched and at the model's fitting points. */
-export interface MismatchStages {
+/** The stage solved matched and at +ε and +δ: enough for a first-order model (screening). */
+export interface ScreeningStages {
   matched: SolvedCircuit;
   loadPlus: SolvedCircuit;
-  loadMinus: SolvedCircuit;
   isPlus: SolvedCircuit;
+}
+
+/** The stage solved at every fitting point of the second-order model. */
+export interface MismatchStages extends ScreeningStages {
+  loadMinus: SolvedCircuit;
   isMinus: SolvedCircuit;
   both: SolvedCircuit;
 }
 
-/** Solves the stages the model is fitted on (frequency-independent), warm-started from the matched solution. */
-export function mismatchStages(matched: SolvedCircuit): MismatchStages {
-  const solve = (loadMismatch: number, isMismatch: number) =>
-    solveCircuit({ ...matched.design, collectorMismatch: loadMismatch, pairSaturationCurrentMismatch: isMismatch }, matched);
+function solveMismatched(matched: SolvedCircuit, loadMismatch: number, isMismatch: number): SolvedCircuit {
+  return solveCircuit({ ...matched.design, collectorMismatch: loadMismatch, pairSaturationCurrentMismatch: isMismatch }, matched);
+}
+
+/** The two solves of the first-order model (warm-started from the matched solution). */
+export function screeningStages(matched: SolvedCircuit): ScreeningStages {
+  return { matched, loadPlus: solveMismatched(matched, LOAD_STEP, 0), isPlus: solveMismatched(matched, 0, IS_STEP) };
+}
+
+/** Completes screening stages (or starts from a matched solution) to the second-order model's five solves. */
+export function mismatchStages(from: SolvedCircuit | ScreeningStages): MismatchStages {
+  const screening = 'loadPlus' in from ? from : screeningStages(from);
+  const { matched } = screening;
   return {
-    matched,
-    loadPlus: solve(LOAD_STEP, 0),
-    loadMinus: solve(-LOAD_STEP, 0),
-    isPlus: solve(0, IS_STEP),
-    isMinus: solve(0, -IS_STEP),
-    both: solve(LOAD_STEP, IS_STEP),
+    ...screening,
+    loadMinus: solveMismatched(matched, -LOAD_STEP, 0),
+    isMinus: solveMismatched(matched, 0, -IS_STEP),
+    both: solveMismatched(matched, LOAD_STEP, IS_STEP),
+  };
+}
+
+/** First-order model from screening stages (forward differences, no second-order terms): for ranking corners. */
+export function screeningSensitivity(stages: ScreeningStages, frequencyHz: number): MismatchSensitivity {
+  const m = transfersAt(stages.matched, frequencyHz);
+  const lp = transfersAt(stages.loadPlus, frequencyHz);
+  const ip = transfersAt(stages.isPlus, frequencyHz);
+  const zero = { re: 0, im: 0 };
+  return {
+    frequencyHz,
+    thermalVoltageV: stages.matched.model.thermalVoltageV,
+    differentialGain: m.differentialGain,
+    differentialGainPerLoad: combine([[1 / LOAD_STEP, lp.differentialGain], [-1 / LOAD_STEP, m.differentialGain]]),
+    differentialGainPerIs: combine([[1 / IS_STEP, ip.differentialGain], [-1 / IS_STEP, m.differentialGain]]),
+    perLoadMismatch: combine([[1 / LOAD_STEP, lp.differentialCommonModeGain], [-1 / LOAD_STEP, m.differentialCommonModeGain]]),
+    perIsMismatch: combine([[1 / IS_STEP, ip.differentialCommonModeGain], [-1 / IS_STEP, m.differentialCommonModeGain]]),
+    loadSquared: zero,
+    isSquared: zero,
+    loadTimesIs: zero,
   };
 }
 

@@ -5,6 +5,7 @@
  */
 import type { StageCircuit } from './circuit';
 import type { BjtEval, DeviceModel } from './device';
+import { zeros } from './linear-solve';
 
 /** A node reference: index ≥ 0 is a free node, index < 0 is fixed node −index − 1. */
 export type NodeRef = number;
@@ -29,7 +30,7 @@ export interface IndexedTransistor {
 export interface IndexedCircuit {
   freeNodes: string[];
   fixedNodes: string[];
-  fixedV: Float64Array;
+  fixedV: number[];
   resistors: IndexedResistor[];
   transistors: IndexedTransistor[];
   nodeRef(name: string): NodeRef;
@@ -38,7 +39,7 @@ export interface IndexedCircuit {
 /** Indexes the circuit's nodes: fixed ones from `fixedNodesV`, every other node is free. */
 export function indexCircuit(circuit: StageCircuit): IndexedCircuit {
   const fixedNodes = Object.keys(circuit.fixedNodesV);
-  const fixedV = Float64Array.from(fixedNodes.map((n) => circuit.fixedNodesV[n]));
+  const fixedV = fixedNodes.map((n) => circuit.fixedNodesV[n]);
   const freeNodes: string[] = [];
   const refs = new Map<string, NodeRef>();
   fixedNodes.forEach((n, i) => refs.set(n, -i - 1));
@@ -78,7 +79,7 @@ export function indexCircuit(circuit: StageCircuit): IndexedCircuit {
 }
 
 /** Voltage of a node given the free-node vector. */
-export function nodeVoltage(ic: IndexedCircuit, v: Float64Array, node: NodeRef): number {
+export function nodeVoltage(ic: IndexedCircuit, v: number[], node: NodeRef): number {
   return node >= 0 ? v[node] : ic.fixedV[-node - 1];
 }
 
@@ -90,16 +91,16 @@ export function nodeVoltage(ic: IndexedCircuit, v: Float64Array, node: NodeRef):
 export interface NodeStamp {
   n: number;
   nFixed: number;
-  matrix: Float64Array;
-  rhs: Float64Array;
-  fixedColumns: Float64Array;
-  fixedV: Float64Array;
+  matrix: number[];
+  rhs: number[];
+  fixedColumns: number[];
+  fixedV: number[];
 }
 
 export function createStamp(ic: IndexedCircuit): NodeStamp {
   const n = ic.freeNodes.length;
   const nFixed = ic.fixedNodes.length;
-  return { n, nFixed, matrix: new Float64Array(n * n), rhs: new Float64Array(n), fixedColumns: new Float64Array(n * nFixed), fixedV: ic.fixedV };
+  return { n, nFixed, matrix: zeros(n * n), rhs: zeros(n), fixedColumns: zeros(n * nFixed), fixedV: ic.fixedV };
 }
 
 export function resetStamp(stamp: NodeStamp): void {
@@ -156,13 +157,13 @@ export function stampTransistor(stamp: NodeStamp, q: IndexedTransistor, ev: BjtE
 }
 
 /** Junction voltages of a transistor at a node-voltage vector. */
-export function junctionVoltages(ic: IndexedCircuit, v: Float64Array, q: IndexedTransistor): { vbeV: number; vbcV: number } {
+export function junctionVoltages(ic: IndexedCircuit, v: number[], q: IndexedTransistor): { vbeV: number; vbcV: number } {
   const vb = nodeVoltage(ic, v, q.b);
   return { vbeV: vb - nodeVoltage(ic, v, q.e), vbcV: vb - nodeVoltage(ic, v, q.c) };
 }
 
 /** Evaluates every transistor at its junction voltages. */
-export function evaluateTransistors(ic: IndexedCircuit, model: DeviceModel, v: Float64Array): BjtEval[] {
+export function evaluateTransistors(ic: IndexedCircuit, model: DeviceModel, v: number[]): BjtEval[] {
   return ic.transistors.map((q) => {
     const { vbeV, vbcV } = junctionVoltages(ic, v, q);
     return model.evaluate(vbeV, vbcV, q.area);

@@ -5,7 +5,7 @@
  */
 import type { StageCircuit } from './circuit';
 import type { BjtEval, DeviceModel } from './device';
-import { luFactor, luSolve } from './linear-solve';
+import { luFactor, luSolve, zeros } from './linear-solve';
 import {
   createStamp,
   evaluateTransistors,
@@ -29,7 +29,7 @@ const SOURCE_STEPS = [0.1, 0.25, 0.4, 0.55, 0.7, 0.85, 1];
 export interface OperatingPoint {
   circuit: IndexedCircuit;
   /** Free-node voltages, V. */
-  voltagesV: Float64Array;
+  voltagesV: number[];
   /** Each transistor's evaluation at the solution (same order as circuit.transistors). */
   transistors: BjtEval[];
   iterations: number;
@@ -55,12 +55,12 @@ function limitJunctionV(newV: number, oldV: number, vtV: number, criticalV: numb
   return newV;
 }
 
-function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: Float64Array): { v: Float64Array; iterations: number } | null {
+function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[]): { v: number[]; iterations: number } | null {
   const n = ic.freeNodes.length;
-  let v: Float64Array = Float64Array.from(start);
+  let v: number[] = start.slice();
   const nq = ic.transistors.length;
-  const vbeOld = new Float64Array(nq);
-  const vbcOld = new Float64Array(nq);
+  const vbeOld = zeros(nq);
+  const vbcOld = zeros(nq);
   ic.transistors.forEach((q, i) => {
     const j = junctionVoltages(ic, v, q);
     vbeOld[i] = j.vbeV;
@@ -81,7 +81,7 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: Float64Array
       vbcOld[i] = vbcV;
       stampTransistor(stamp, q, model.evaluate(vbeV, vbcV, q.area), vbeV, vbcV);
     }
-    let next: Float64Array;
+    let next: number[];
     try {
       next = luSolve(luFactor(stamp.matrix, n, true), stamp.rhs);
     } catch {
@@ -111,11 +111,11 @@ function scaledCircuit(ic: IndexedCircuit, fraction: number): IndexedCircuit {
  */
 export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint): OperatingPoint {
   const ic = indexCircuit(circuit);
-  const handGuess = Float64Array.from(ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0));
+  const handGuess = ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0);
   const sameNodes = warmStart !== undefined && warmStart.circuit.freeNodes.join() === ic.freeNodes.join();
   // A warm start that fails (its bias was too far away) falls back to the hand guess.
-  const starts = sameNodes ? [Float64Array.from(warmStart.voltagesV), handGuess] : [handGuess];
-  let solved: { v: Float64Array; iterations: number } | null = null;
+  const starts = sameNodes ? [warmStart.voltagesV.slice(), handGuess] : [handGuess];
+  let solved: { v: number[]; iterations: number } | null = null;
   let iterations = 0;
   for (const start of starts) {
     solved = newtonSolve(ic, model, start);
@@ -123,7 +123,7 @@ export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, w
     if (solved) break;
   }
   if (!solved) {
-    let v: Float64Array = handGuess.map((x) => x * SOURCE_STEPS[0]);
+    let v: number[] = handGuess.map((x) => x * SOURCE_STEPS[0]);
     for (const fraction of SOURCE_STEPS) {
       const step = newtonSolve(scaledCircuit(ic, fraction), model, v);
       if (!step) throw new ConvergenceError(`the operating point did not converge (source stepping stalled at ${Math.round(fraction * 100)} % of the rails)`);

@@ -5,7 +5,18 @@
  */
 import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
 import { solveStage, singleEndedCmrrDbAt, type StageSolution } from './analyze';
-import { mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws, worstCaseMismatchCmrrDb, type MonteCarloDraws, type MonteCarloResult } from './mismatch';
+import {
+  mismatchSensitivity,
+  mismatchStages,
+  monteCarloCmrr,
+  monteCarloDraws,
+  screeningSensitivity,
+  screeningStages,
+  worstCaseMismatchCmrrDb,
+  type MonteCarloDraws,
+  type MonteCarloResult,
+  type ScreeningStages,
+} from './mismatch';
 import { formatQuantity } from '../units/format-quantity';
 import { designAt, outputGain, swingPeakPerCollectorV } from './sizing';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
@@ -24,6 +35,7 @@ export interface ConditionFigures {
   tailCurrentA: number;
   gain: number;
   cmrrAtFrequencyDb: number;
+  /** Differential output: mismatch worst case, second-order model at the governing corner, first-order screening elsewhere. */
   cmrrDifferentialWorstCaseDb: number | null;
   powerW: number;
   tailComplianceMarginV: number;
@@ -33,7 +45,10 @@ export interface ConditionFigures {
 }
 
 export interface OptionCurves {
-  /** Rejection against frequency at nominal conditions (single-ended; differential worst case when that output is used). */
+  /**
+   * Rejection against frequency: single-ended at nominal conditions; for a differential output
+   * also the mismatch worst case at the corner that governs it (the second-order model's corner).
+   */
   cmrrVsFrequency: { frequencyHz: number; singleEndedDb: number; differentialWorstCaseDb: number | null }[];
   /** Tail current and gain against temperature at the nominal input common mode. */
   temperatureSweep: { temperatureC: number; tailCurrentA: number; gain: number }[];
@@ -77,9 +92,12 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const nominalSolution = at(spec, design, nominal);
   const predicted = nominalSolution.result;
 
+  // Differential output: a first-order mismatch model at every corner finds the governing one,
+  // where the second-order model then gives the worst case, the Monte Carlo and the curve.
   const corners = cornerConditions(spec).map((condition) => {
     const solution = at(spec, design, condition);
-    const sensitivity = differentialOutput ? mismatchSensitivity(mismatchStages(solution), f) : null;
+    const screening = differentialOutput ? screeningStages(solution) : null;
+    const sensitivity = screening ? screeningSensitivity(screening, f) : null;
     const figures: ConditionFigures = {
       label: condition.label,
       inputCommonModeV: condition.inputCommonModeV,
@@ -94,18 +112,22 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
       warnings: solution.result.warnings,
       operatingPointProblems: solution.result.operatingPointProblems,
     };
-    return { figures, sensitivity };
+    return { figures, screening };
   });
   const cornerFigures = corners.map((c) => c.figures);
   const worstSingle = cornerFigures.reduce((a, b) => (b.cmrrAtFrequencyDb < a.cmrrAtFrequencyDb ? b : a));
 
   let monteCarlo: MonteCarloResult | null = null;
   let worstDifferential: number | null = null;
+  let governingMismatch: ReturnType<typeof mismatchStages> | null = null;
   if (differentialOutput) {
     const worst = corners.reduce((a, b) => (b.figures.cmrrDifferentialWorstCaseDb! < a.figures.cmrrDifferentialWorstCaseDb! ? b : a));
-    worstDifferential = worst.figures.cmrrDifferentialWorstCaseDb;
+    governingMismatch = mismatchStages(worst.screening as ScreeningStages);
+    const sensitivity = mismatchSensitivity(governingMismatch, f);
+    worstDifferential = worstCaseMismatchCmrrDb(sensitivity, tolerance, sigmaV);
+    worst.figures.cmrrDifferentialWorstCaseDb = worstDifferential;
     const shared = draws ?? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
-    monteCarlo = monteCarloCmrr(worst.sensitivity!, shared, tolerance, sigmaV, spec.cmrr.minDb);
+    monteCarlo = monteCarloCmrr(sensitivity, shared, tolerance, sigmaV, spec.cmrr.minDb);
   }
 
   const sweepConditions = temperatureSweep(spec);
@@ -188,12 +210,12 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     tailOutputResistanceNote: routNote(rout, predicted.tailOutputResistanceClosedForm),
   };
 
-  const nominalMismatch = differentialOutput ? mismatchStages(nominalSolution) : null;
+
   const curves: OptionCurves = {
     cmrrVsFrequency: frequencyGrid().map((frequencyHz) => ({
       frequencyHz,
       singleEndedDb: singleEndedCmrrDbAt(nominalSolution, frequencyHz),
-      differentialWorstCaseDb: nominalMismatch ? worstCaseMismatchCmrrDb(mismatchSensitivity(nominalMismatch, frequencyHz), tolerance, sigmaV) : null,
+      differentialWorstCaseDb: governingMismatch ? worstCaseMismatchCmrrDb(mismatchSensitivity(governingMismatch, frequencyHz), tolerance, sigmaV) : null,
     })),
     temperatureSweep: sweep.map((r, i) => ({ temperatureC: sweepConditions[i].temperatureC, tailCurrentA: r.tailCurrentA, gain: outputGain(spec, r) })),
   };

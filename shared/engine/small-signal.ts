@@ -7,7 +7,7 @@
  *   H(y) = H0 − y·x[t]·z[out] / (1 + y·z[t]),  z = G⁻¹·e_t,  y = j·2π·f·Ct.
  */
 import { COLLECTOR_NODES, INPUT_NODES, TAIL_NODE } from './circuit';
-import { luFactor, luSolve } from './linear-solve';
+import { luFactor, luSolve, zeros } from './linear-solve';
 import { createStamp, stampConductance, stampTransistor, type IndexedCircuit, type NodeStamp } from './node-system';
 import type { OperatingPoint } from './operating-point';
 
@@ -19,11 +19,11 @@ export interface Complex {
 /** Node responses to the two drives and to a unit current injected at the tail node. */
 export interface SmallSignalStage {
   /** Response to v(in1) = +½, v(in2) = −½ (differential drive of 1 V). */
-  differential: Float64Array;
+  differential: number[];
   /** Response to v(in1) = v(in2) = 1 (common-mode drive of 1 V). */
-  commonMode: Float64Array;
+  commonMode: number[];
   /** Response to 1 A injected into the tail node: z = G⁻¹·e_t. */
-  tailInjection: Float64Array;
+  tailInjection: number[];
   /** Index of the tail node and a lookup of free nodes. */
   tailIndex: number;
   index(node: string): number;
@@ -44,12 +44,12 @@ function stampJacobian(op: OperatingPoint, onlyTail: boolean): NodeStamp {
 }
 
 /** Response to AC amplitudes on the two inputs (volts): solves G·x = −G_fixed·drive. */
-function driveResponse(ic: IndexedCircuit, stamper: NodeStamp, factors: ReturnType<typeof luFactor>, in1V: number, in2V: number): Float64Array {
+function driveResponse(ic: IndexedCircuit, stamper: NodeStamp, factors: ReturnType<typeof luFactor>, in1V: number, in2V: number): number[] {
   const n = stamper.n;
   const nFixed = ic.fixedNodes.length;
   const k1 = -ic.nodeRef(INPUT_NODES[0]) - 1;
   const k2 = -ic.nodeRef(INPUT_NODES[1]) - 1;
-  const rhs = new Float64Array(n);
+  const rhs = zeros(n);
   for (let row = 0; row < n; row += 1) {
     rhs[row] = -stamper.fixedColumns[row * nFixed + k1] * in1V - stamper.fixedColumns[row * nFixed + k2] * in2V;
   }
@@ -66,7 +66,7 @@ function tailOutputResistanceOhm(op: OperatingPoint, tailIndex: number): number 
     for (let c = 0; c < n && empty; c += 1) if (stamper.matrix[k * n + c] !== 0) empty = false;
     if (empty) stamper.matrix[k * n + k] = 1;
   }
-  const e = new Float64Array(n);
+  const e = zeros(n);
   e[tailIndex] = 1;
   return luSolve(luFactor(stamper.matrix, n, true), e)[tailIndex];
 }
@@ -77,7 +77,7 @@ export function smallSignalStage(op: OperatingPoint): SmallSignalStage {
   const stamper = stampJacobian(op, false);
   const factors = luFactor(stamper.matrix, stamper.n);
   const tailIndex = ic.nodeRef(TAIL_NODE);
-  const unit = new Float64Array(stamper.n);
+  const unit = zeros(stamper.n);
   unit[tailIndex] = 1;
   const c1 = ic.nodeRef(COLLECTOR_NODES[0]);
   const c2 = ic.nodeRef(COLLECTOR_NODES[1]);
@@ -108,7 +108,7 @@ export function outputWeights(stage: SmallSignalStage, weights: Record<string, n
  * A transfer to an output from a drive response, at the tail admittance y = j·ω·Ct
  * (ωCt given as `omegaCtS`).
  */
-export function transferAt(stage: SmallSignalStage, response: Float64Array, output: OutputWeights, omegaCtS: number): Complex {
+export function transferAt(stage: SmallSignalStage, response: number[], output: OutputWeights, omegaCtS: number): Complex {
   let h0 = 0;
   let zOut = 0;
   for (let k = 0; k < output.nodes.length; k += 1) {
