@@ -12,6 +12,7 @@ import { fileURLToPath } from 'node:url';
 import { beforeAll, describe, expect, test } from 'vitest';
 import { analyze } from '../../../shared/engine/index';
 import { validateDesign } from '../../../shared/validate';
+import { CONTRACT_FIELDS } from '../../helpers/contract-fields';
 
 const REPO_ROOT = fileURLToPath(new URL('../../../', import.meta.url));
 const fixture = (name: string) => fileURLToPath(new URL(`./fixtures/${name}`, import.meta.url));
@@ -59,23 +60,6 @@ beforeAll(async () => {
   await Promise.all(Array.from({ length: Math.max(2, availableParallelism()) }, worker));
 }, 120_000);
 
-/** The analyze output fields ENGINE-CONTRACT.md requires. */
-const CONTRACT_FIELDS = [
-  'tailCurrentA',
-  'collectorCurrentA',
-  'collectorVoltageV',
-  'tailNodeVoltageV',
-  'transconductanceS',
-  'tailOutputResistanceOhm',
-  'differentialGain',
-  'singleEndedGain',
-  'commonModeGain',
-  'differentialCommonModeGain',
-  'cmrrDb',
-  'cmrrCornerHz',
-  'powerW',
-  'warnings',
-];
 
 describe('longtail on good input', () => {
   test('analyze FILE: exit 0, one JSON document with every contract field, nothing on stderr', () => {

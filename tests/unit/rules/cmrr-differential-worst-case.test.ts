@@ -1,25 +1,7 @@
-import { expect, test } from 'vitest';
-import { loadRuleFiles, runRules } from '../../../rules/run-rules';
-import type { OptionFacts } from '../../../shared/engine/types';
-import { makeOptionFacts } from '../../helpers/option-facts';
+import { testRuleCases } from '../../helpers/rule-cases';
 
 // Advisory, differential output only: mismatch-limited worst-case CMRR against the requirement.
-const rules = (await loadRuleFiles()).filter((rule) => rule.name === 'cmrr-differential-worst-case');
-
-async function check(overrides: Partial<OptionFacts>) {
-  const [result] = await runRules(rules, makeOptionFacts(overrides));
-  return result;
-}
-
-interface Row {
-  title: string;
-  overrides: Partial<OptionFacts>;
-  passed: boolean;
-  margin: number | null;
-  texts: string[];
-}
-
-test.each<Row>([
+testRuleCases('cmrr-differential-worst-case', { severity: 'advisory', marginUnit: 'dB' }, [
   {
     title: 'passes with 21.5 dB to spare',
     overrides: {},
@@ -48,9 +30,4 @@ test.each<Row>([
     margin: null,
     texts: ['Not applicable', 'single-ended'],
   },
-])('cmrr-differential-worst-case: $title', async ({ overrides, passed, margin, texts }) => {
-  const result = await check(overrides);
-  expect(result).toMatchObject({ rule: 'cmrr-differential-worst-case', passed, severity: 'advisory', margin });
-  expect(result.marginUnit).toBe('dB');
-  for (const text of texts) expect(result.reason).toContain(text);
-});
+]);

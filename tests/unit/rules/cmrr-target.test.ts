@@ -1,25 +1,7 @@
-import { expect, test } from 'vitest';
-import { loadRuleFiles, runRules } from '../../../rules/run-rules';
-import type { OptionFacts } from '../../../shared/engine/types';
-import { makeOptionFacts } from '../../helpers/option-facts';
+import { testRuleCases } from '../../helpers/rule-cases';
 
 // Blocking: single-ended (tail-limited) CMRR at the spec frequency, worst corner, against required + margin.
-const rules = (await loadRuleFiles()).filter((rule) => rule.name === 'cmrr-target');
-
-async function check(overrides: Partial<OptionFacts>) {
-  const [result] = await runRules(rules, makeOptionFacts(overrides));
-  return result;
-}
-
-interface Row {
-  title: string;
-  overrides: Partial<OptionFacts>;
-  passed: boolean;
-  margin: number | null;
-  texts: string[];
-}
-
-test.each<Row>([
+testRuleCases('cmrr-target', { severity: 'blocking', marginUnit: 'dB' }, [
   {
     title: 'passes with 8.2 dB to spare',
     overrides: {},
@@ -34,9 +16,4 @@ test.each<Row>([
     margin: -2.9,
     texts: ['83.1 dB', 'at DC', '2.9 dB short'],
   },
-])('cmrr-target: $title', async ({ overrides, passed, margin, texts }) => {
-  const result = await check(overrides);
-  expect(result).toMatchObject({ rule: 'cmrr-target', passed, severity: 'blocking', margin });
-  expect(result.marginUnit).toBe('dB');
-  for (const text of texts) expect(result.reason).toContain(text);
-});
+]);

@@ -1,25 +1,7 @@
-import { expect, test } from 'vitest';
-import { loadRuleFiles, runRules } from '../../../rules/run-rules';
-import type { OptionFacts } from '../../../shared/engine/types';
-import { makeOptionFacts } from '../../helpers/option-facts';
+import { testRuleCases } from '../../helpers/rule-cases';
 
 // Blocking, differential output only: Monte Carlo yield against the required yield.
-const rules = (await loadRuleFiles()).filter((rule) => rule.name === 'cmrr-yield');
-
-async function check(overrides: Partial<OptionFacts>) {
-  const [result] = await runRules(rules, makeOptionFacts(overrides));
-  return result;
-}
-
-interface Row {
-  title: string;
-  overrides: Partial<OptionFacts>;
-  passed: boolean;
-  margin: number | null;
-  texts: string[];
-}
-
-test.each<Row>([
+testRuleCases('cmrr-yield', { severity: 'blocking', marginUnit: '%' }, [
   {
     title: 'passes with 4.2 points to spare',
     overrides: {},
@@ -48,9 +30,4 @@ test.each<Row>([
     margin: null,
     texts: ['Not applicable', 'single-ended'],
   },
-])('cmrr-yield: $title', async ({ overrides, passed, margin, texts }) => {
-  const result = await check(overrides);
-  expect(result).toMatchObject({ rule: 'cmrr-yield', passed, severity: 'blocking', margin });
-  expect(result.marginUnit).toBe('%');
-  for (const text of texts) expect(result.reason).toContain(text);
-});
+]);

@@ -1,25 +1,7 @@
-import { expect, test } from 'vitest';
-import { loadRuleFiles, runRules } from '../../../rules/run-rules';
-import type { OptionFacts } from '../../../shared/engine/types';
-import { makeOptionFacts } from '../../helpers/option-facts';
+import { testRuleCases } from '../../helpers/rule-cases';
 
 // Blocking: nominal gain within the spec tolerance.
-const rules = (await loadRuleFiles()).filter((rule) => rule.name === 'gain-tolerance');
-
-async function check(overrides: Partial<OptionFacts>) {
-  const [result] = await runRules(rules, makeOptionFacts(overrides));
-  return result;
-}
-
-interface Row {
-  title: string;
-  overrides: Partial<OptionFacts>;
-  passed: boolean;
-  margin: number | null;
-  texts: string[];
-}
-
-test.each<Row>([
+testRuleCases('gain-tolerance', { severity: 'blocking', marginUnit: '%' }, [
   {
     title: 'passes 1.4 % off within ±5 %',
     overrides: {},
@@ -34,9 +16,4 @@ test.each<Row>([
     margin: -2.7,
     texts: ['92.3 V/V', '−7.7 %', 'outside ±5 % by 2.7 %'],
   },
-])('gain-tolerance: $title', async ({ overrides, passed, margin, texts }) => {
-  const result = await check(overrides);
-  expect(result).toMatchObject({ rule: 'gain-tolerance', passed, severity: 'blocking', margin });
-  expect(result.marginUnit).toBe('%');
-  for (const text of texts) expect(result.reason).toContain(text);
-});
+]);

@@ -1,25 +1,7 @@
-import { expect, test } from 'vitest';
-import { loadRuleFiles, runRules } from '../../../rules/run-rules';
-import type { OptionFacts } from '../../../shared/engine/types';
-import { makeOptionFacts } from '../../helpers/option-facts';
+import { testRuleCases } from '../../helpers/rule-cases';
 
 // Blocking, resistor tail only: gain change between the input common-mode extremes.
-const rules = (await loadRuleFiles()).filter((rule) => rule.name === 'gain-vs-common-mode');
-
-async function check(overrides: Partial<OptionFacts>) {
-  const [result] = await runRules(rules, makeOptionFacts(overrides));
-  return result;
-}
-
-interface Row {
-  title: string;
-  overrides: Partial<OptionFacts>;
-  passed: boolean;
-  margin: number | null;
-  texts: string[];
-}
-
-test.each<Row>([
+testRuleCases('gain-vs-common-mode', { severity: 'blocking', marginUnit: '%' }, [
   {
     title: 'passes a resistor tail with 1.7 points to spare',
     overrides: { topology: 'resistor', isResistorTail: true },
@@ -41,9 +23,4 @@ test.each<Row>([
     margin: null,
     texts: ['Not applicable', 'degenerated-mirror tail'],
   },
-])('gain-vs-common-mode: $title', async ({ overrides, passed, margin, texts }) => {
-  const result = await check(overrides);
-  expect(result).toMatchObject({ rule: 'gain-vs-common-mode', passed, severity: 'blocking', margin });
-  expect(result.marginUnit).toBe('%');
-  for (const text of texts) expect(result.reason).toContain(text);
-});
+]);

@@ -1,25 +1,7 @@
-import { expect, test } from 'vitest';
-import { loadRuleFiles, runRules } from '../../../rules/run-rules';
-import type { OptionFacts } from '../../../shared/engine/types';
-import { makeOptionFacts } from '../../helpers/option-facts';
+import { testRuleCases } from '../../helpers/rule-cases';
 
 // Advisory caution: rail span above the usual 60 V DC safe-to-touch limit [IEC 62368-1].
-const rules = (await loadRuleFiles()).filter((rule) => rule.name === 'hazardous-voltage');
-
-async function check(overrides: Partial<OptionFacts>) {
-  const [result] = await runRules(rules, makeOptionFacts(overrides));
-  return result;
-}
-
-interface Row {
-  title: string;
-  overrides: Partial<OptionFacts>;
-  passed: boolean;
-  margin: number | null;
-  texts: string[];
-}
-
-test.each<Row>([
+testRuleCases('hazardous-voltage', { severity: 'advisory', marginUnit: 'V' }, [
   {
     title: 'passes at 24 V',
     overrides: {},
@@ -41,9 +23,4 @@ test.each<Row>([
     margin: -10,
     texts: ['Caution', 'rails span 70 V', '10 V above the 60 V DC', 'IEC 62368-1', 'applicable standard, local codes and licensed practice'],
   },
-])('hazardous-voltage: $title', async ({ overrides, passed, margin, texts }) => {
-  const result = await check(overrides);
-  expect(result).toMatchObject({ rule: 'hazardous-voltage', passed, severity: 'advisory', margin });
-  expect(result.marginUnit).toBe('V');
-  for (const text of texts) expect(result.reason).toContain(text);
-});
+]);

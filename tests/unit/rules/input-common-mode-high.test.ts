@@ -1,25 +1,7 @@
-import { expect, test } from 'vitest';
-import { loadRuleFiles, runRules } from '../../../rules/run-rules';
-import type { OptionFacts } from '../../../shared/engine/types';
-import { makeOptionFacts } from '../../helpers/option-facts';
+import { testRuleCases } from '../../helpers/rule-cases';
 
 // Blocking: pair out of saturation at the highest input common mode with the swing.
-const rules = (await loadRuleFiles()).filter((rule) => rule.name === 'input-common-mode-high');
-
-async function check(overrides: Partial<OptionFacts>) {
-  const [result] = await runRules(rules, makeOptionFacts(overrides));
-  return result;
-}
-
-interface Row {
-  title: string;
-  overrides: Partial<OptionFacts>;
-  passed: boolean;
-  margin: number | null;
-  texts: string[];
-}
-
-test.each<Row>([
+testRuleCases('input-common-mode-high', { severity: 'blocking', marginUnit: 'V' }, [
   {
     title: 'passes with 1.35 V to spare',
     overrides: {},
@@ -34,9 +16,4 @@ test.each<Row>([
     margin: -0.45,
     texts: ['6 V', 'saturates', '450 mV short'],
   },
-])('input-common-mode-high: $title', async ({ overrides, passed, margin, texts }) => {
-  const result = await check(overrides);
-  expect(result).toMatchObject({ rule: 'input-common-mode-high', passed, severity: 'blocking', margin });
-  expect(result.marginUnit).toBe('V');
-  for (const text of texts) expect(result.reason).toContain(text);
-});
+]);

@@ -1,25 +1,7 @@
-import { expect, test } from 'vitest';
-import { loadRuleFiles, runRules } from '../../../rules/run-rules';
-import type { OptionFacts } from '../../../shared/engine/types';
-import { makeOptionFacts } from '../../helpers/option-facts';
+import { testRuleCases } from '../../helpers/rule-cases';
 
 // Blocking: the output swing fits at the nominal input common mode.
-const rules = (await loadRuleFiles()).filter((rule) => rule.name === 'output-swing');
-
-async function check(overrides: Partial<OptionFacts>) {
-  const [result] = await runRules(rules, makeOptionFacts(overrides));
-  return result;
-}
-
-interface Row {
-  title: string;
-  overrides: Partial<OptionFacts>;
-  passed: boolean;
-  margin: number | null;
-  texts: string[];
-}
-
-test.each<Row>([
+testRuleCases('output-swing', { severity: 'blocking', marginUnit: 'V' }, [
   {
     title: 'passes with 2.4 V to spare',
     overrides: {},
@@ -34,9 +16,4 @@ test.each<Row>([
     margin: -0.6,
     texts: ['16 Vpp', '4 V peak per collector', '600 mV short'],
   },
-])('output-swing: $title', async ({ overrides, passed, margin, texts }) => {
-  const result = await check(overrides);
-  expect(result).toMatchObject({ rule: 'output-swing', passed, severity: 'blocking', margin });
-  expect(result.marginUnit).toBe('V');
-  for (const text of texts) expect(result.reason).toContain(text);
-});
+]);

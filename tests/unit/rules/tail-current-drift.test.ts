@@ -1,25 +1,7 @@
-import { expect, test } from 'vitest';
-import { loadRuleFiles, runRules } from '../../../rules/run-rules';
-import type { OptionFacts } from '../../../shared/engine/types';
-import { makeOptionFacts } from '../../helpers/option-facts';
+import { testRuleCases } from '../../helpers/rule-cases';
 
 // Advisory: tail-current change over the spec temperature range against its limit.
-const rules = (await loadRuleFiles()).filter((rule) => rule.name === 'tail-current-drift');
-
-async function check(overrides: Partial<OptionFacts>) {
-  const [result] = await runRules(rules, makeOptionFacts(overrides));
-  return result;
-}
-
-interface Row {
-  title: string;
-  overrides: Partial<OptionFacts>;
-  passed: boolean;
-  margin: number | null;
-  texts: string[];
-}
-
-test.each<Row>([
+testRuleCases('tail-current-drift', { severity: 'advisory', marginUnit: '%' }, [
   {
     title: 'passes with 7.9 points to spare',
     overrides: {},
@@ -34,9 +16,4 @@ test.each<Row>([
     margin: -3.4,
     texts: ['13.4 %', '3.4 % beyond the 10 % limit'],
   },
-])('tail-current-drift: $title', async ({ overrides, passed, margin, texts }) => {
-  const result = await check(overrides);
-  expect(result).toMatchObject({ rule: 'tail-current-drift', passed, severity: 'advisory', margin });
-  expect(result.marginUnit).toBe('%');
-  for (const text of texts) expect(result.reason).toContain(text);
-});
+]);
