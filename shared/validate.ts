@@ -57,3 +57,12 @@ function validateWith<T>(
   const issues = crossFieldIssues(copy as T);
   return issues.length > 0 ? { ok: false, errors: issues } : { ok: true, value: copy as T };
 }
+
+/**
+ * Compiles another JSON Schema (a route body, say) with the same ajv instance and error
+ * messages. The returned check works on a copy with defaults applied, like validateSpec.
+ */
+export function compileValidator<T>(schema: object): (input: unknown) => ValidationResult<T> {
+  const check = ajv.compile(schema);
+  return (input) => validateWith<T>(input, check, () => []);
+}

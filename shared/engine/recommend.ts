@@ -58,13 +58,21 @@ function unsolvedChecks(ruleSet: RuleSet, message: string): Check[] {
   }));
 }
 
-async function optionFor(spec: Spec, topology: TopologyId, ruleSet: RuleSet, draws: MonteCarloDraws): Promise<Omit<RecommendOption, 'rank'>> {
+/**
+ * Evaluates and checks one sized design; a stage that cannot be solved becomes an option that
+ * fails with every rule undecided and the solver's message.
+ */
+async function checkedOption(
+  spec: Spec,
+  topology: TopologyId,
+  ruleSet: RuleSet,
+  draws: MonteCarloDraws,
+  size: () => { design: Design; notes: string[] },
+): Promise<Omit<RecommendOption, 'rank'>> {
   let design: Design | null = null;
   let notes: string[] = [];
   try {
-    const sized = sizeTopology(spec, topology, nominalCondition(spec));
-    design = sized.design;
-    notes = sized.notes;
+    ({ design, notes } = size());
     const evaluation = evaluateOption(spec, design, draws);
     const checks = await ruleSet.evaluate(evaluation.facts);
     const facts = evaluation.facts;
@@ -100,6 +108,22 @@ async function optionFor(spec: Spec, topology: TopologyId, ruleSet: RuleSet, dra
   }
 }
 
+/**
+ * A designer's own design (an override), analysed as thoroughly as a ranked option: over the
+ * spec's conditions with the design's own device, rails and tail capacitance, every rule checked.
+ */
+export async function evaluateDesign(spec: Spec, design: Design, ruleSet: RuleSet): Promise<RecommendOption> {
+  const specForDesign: Spec = {
+    ...spec,
+    device: { ...spec.device, ...design.device },
+    supply: design.supply,
+    tailCapacitanceF: design.tailCapacitanceF ?? spec.tailCapacitanceF,
+  };
+  const draws = monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
+  const option = await checkedOption(specForDesign, design.tail.topology, ruleSet, draws, () => ({ design, notes: ['Values given by the designer (override).'] }));
+  return { ...option, rank: 0 };
+}
+
 function summaryFor(recommended: TopologyId | null, policy: SelectionPolicy, passingCount: number, total: number): string {
   if (recommended === null) return `None of the ${total} options passes every blocking check; the ranking shows what each one lacks.`;
   const why = policy === 'simplest-sufficient' ? 'the simplest option that passes every blocking check' : 'the passing option with the highest rejection';
@@ -113,7 +137,9 @@ function summaryFor(recommended: TopologyId | null, policy: SelectionPolicy, pas
 export async function recommend(spec: Spec, ruleSet: RuleSet): Promise<RecommendResult> {
   const draws = monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
   const evaluated = [];
-  for (const topology of spec.topologies) evaluated.push(await optionFor(spec, topology, ruleSet, draws));
+  for (const topology of spec.topologies) {
+    evaluated.push(await checkedOption(spec, topology, ruleSet, draws, () => sizeTopology(spec, topology, nominalCondition(spec))));
+  }
   const rankable = evaluated.map((o) => ({
     ...o,
     tailImpedanceAtFrequencyOhm: o.figures?.tailImpedanceAtFrequencyOhm ?? 0,

@@ -1,0 +1,77 @@
+/**
+ * createApp(deps) -> the Express app. It never listens and never reads the environment:
+ * server.ts does, and tests import this with an in-memory database.
+ */
+import cookieParser from 'cookie-parser';
+import express, { type Express } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import type { DataSource } from 'typeorm';
+import type { RuleSet } from '../shared/engine/types';
+import { requireCsrfToken } from './auth/csrf';
+import { configurePassport } from './auth/passport';
+import { TypeormSessionStore } from './auth/session-store';
+import { errorHandler } from './error-handler';
+import { AppError } from './errors';
+import { authRoutes } from './routes/auth.routes';
+import { engineRoutes } from './routes/engine.routes';
+import { projectsRoutes } from './routes/projects.routes';
+import { proposalsRoutes } from './routes/proposals.routes';
+import { specsRoutes } from './routes/specs.routes';
+import { usersRoutes } from './routes/users.routes';
+
+/** Largest JSON body accepted (a spec or a design is a few kB). */
+export const BODY_LIMIT = '256kb';
+/** Idle sign-in lifetime, ms (a working day). */
+const SESSION_MAX_AGE_MS = 12 * 60 * 60 * 1000;
+export const SESSION_COOKIE = 'longtail.sid';
+
+export interface AppDeps {
+  dataSource: DataSource;
+  sessionSecret: string;
+  ruleSet: RuleSet;
+  /** Trust X-Forwarded-* from a proxy (HTTPS terminated in front); cookies are then Secure on HTTPS. */
+  trustProxy?: boolean;
+  /** Where server errors are logged (default console.error). */
+  log?: (message: string) => void;
+}
+
+export interface LongtailApp extends Express {
+  /** Stops background timers (session pruning). */
+  closeApp(): void;
+}
+
+export function createApp(deps: AppDeps): LongtailApp {
+  const app = express() as LongtailApp;
+  const store = new TypeormSessionStore(deps.dataSource);
+  const passport = configurePassport(deps.dataSource);
+  app.disable('x-powered-by');
+  if (deps.trustProxy) app.set('trust proxy', 1);
+  app.use(helmet());
+  app.use(express.json({ limit: BODY_LIMIT, strict: true, type: ['application/json', 'application/*+json'] }));
+  app.use(cookieParser());
+  app.use(
+    session({
+      name: SESSION_COOKIE,
+      secret: deps.sessionSecret,
+      store,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: SESSION_MAX_AGE_MS },
+    }),
+  );
+  app.use(passport.initialize());
+  app.use(passport.session());
+  app.use('/api', requireCsrfToken);
+  app.use('/api/auth', authRoutes(passport));
+  app.use('/api/users', usersRoutes(deps.dataSource));
+  app.use('/api/projects', projectsRoutes(deps.dataSource));
+  app.use('/api/specs', specsRoutes(deps.dataSource, deps.ruleSet));
+  app.use('/api/proposals', proposalsRoutes(deps.dataSource, deps.ruleSet));
+  app.use('/api', engineRoutes(deps.ruleSet));
+  app.use('/api', (_req, _res, next) => next(new AppError('route-not-found', 404, 'No such API route.')));
+  app.use(errorHandler(deps.log));
+  app.closeApp = () => store.close();
+  return app;
+}

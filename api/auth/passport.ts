@@ -1,0 +1,27 @@
+/**
+ * Passport's local strategy over the user table: e-mail and password, the same failure for an
+ * unknown account and a wrong password, with a dummy hash compared so both take the same time.
+ */
+import passport from 'passport';
+import { Strategy as LocalStrategy } from 'passport-local';
+import type { DataSource } from 'typeorm';
+import { findUserById, findUserForSignIn, publicUser } from '../services/users.service';
+import { DUMMY_HASH_PROMISE, verifyPassword } from './password';
+
+export function configurePassport(dataSource: DataSource): passport.PassportStatic {
+  const instance = new passport.Passport() as unknown as passport.PassportStatic;
+  instance.use(
+    new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
+      (async () => {
+        const user = await findUserForSignIn(dataSource, email);
+        const ok = await verifyPassword(password, user?.passwordHash ?? (await DUMMY_HASH_PROMISE));
+        return user && ok ? publicUser(user) : false;
+      })().then((user) => done(null, user), done);
+    }),
+  );
+  instance.serializeUser((user, done) => done(null, user.id));
+  instance.deserializeUser((id: number, done) => {
+    findUserById(dataSource, id).then((user) => done(null, user ?? false), done);
+  });
+  return instance;
+}

@@ -1,0 +1,74 @@
+/**
+ * express-session's store over the Session entity, in the app's own database (connect-typeorm
+ * does not install beside TypeORM 1.x). Expired rows are pruned on a timer and never returned.
+ */
+import session from 'express-session';
+import { LessThan, type DataSource } from 'typeorm';
+import { SessionEntity } from '../entities/session.entity';
+
+/** Session lifetime when the cookie has none, ms (one working day). */
+const DEFAULT_MAX_AGE_MS = 12 * 60 * 60 * 1000;
+/** How often expired sessions are deleted, ms. */
+const PRUNE_INTERVAL_MS = 15 * 60 * 1000;
+
+type Callback<T = void> = (error?: unknown, value?: T) => void;
+
+export class TypeormSessionStore extends session.Store {
+  private readonly dataSource: DataSource;
+  private readonly pruneTimer: NodeJS.Timeout;
+
+  constructor(dataSource: DataSource) {
+    super();
+    this.dataSource = dataSource;
+    this.pruneTimer = setInterval(() => void this.prune(), PRUNE_INTERVAL_MS);
+    this.pruneTimer.unref();
+  }
+
+  private get repository() {
+    return this.dataSource.getRepository(SessionEntity);
+  }
+
+  private expiry(data: session.SessionData): number {
+    const expires = data.cookie?.expires;
+    return expires ? new Date(expires).getTime() : Date.now() + DEFAULT_MAX_AGE_MS;
+  }
+
+  /** Deletes expired sessions. */
+  async prune(): Promise<void> {
+    if (!this.dataSource.isInitialized) return;
+    await this.repository.delete({ expiresAtMs: LessThan(Date.now()) });
+  }
+
+  override get(sid: string, callback: Callback<session.SessionData | null>): void {
+    this.repository
+      .findOneBy({ id: sid })
+      .then((row) => callback(undefined, row && row.expiresAtMs > Date.now() ? (JSON.parse(row.data) as session.SessionData) : null))
+      .catch((error) => callback(error));
+  }
+
+  override set(sid: string, data: session.SessionData, callback?: Callback): void {
+    this.repository
+      .save({ id: sid, expiresAtMs: this.expiry(data), data: JSON.stringify(data) })
+      .then(() => callback?.())
+      .catch((error) => callback?.(error));
+  }
+
+  override destroy(sid: string, callback?: Callback): void {
+    this.repository
+      .delete({ id: sid })
+      .then(() => callback?.())
+      .catch((error) => callback?.(error));
+  }
+
+  override touch(sid: string, data: session.SessionData, callback?: Callback): void {
+    this.repository
+      .update({ id: sid }, { expiresAtMs: this.expiry(data) })
+      .then(() => callback?.())
+      .catch((error) => callback?.(error));
+  }
+
+  /** Stops the prune timer (tests, shutdown). */
+  close(): void {
+    clearInterval(this.pruneTimer);
+  }
+}

@@ -1,0 +1,35 @@
+import { EntitySchema } from 'typeorm';
+import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+
+export type DecisionKind = 'accept' | 'choose' | 'override';
+
+/** A designer's decision on a proposal; an override carries its own design and its evaluation. */
+export interface Decision {
+  id: number;
+  proposalId: number;
+  kind: DecisionKind;
+  topology: string;
+  /** The chosen design (analyze input), JSON text. */
+  design: string;
+  /** For an override: its predictions, figures and checks, JSON text; else null. */
+  evaluation: string | null;
+  reason: string | null;
+  decidedById: number;
+  createdAt: string;
+}
+
+export const DecisionEntity = new EntitySchema<Decision>({
+  name: 'Decision',
+  tableName: 'decision',
+  columns: {
+    id: idColumn,
+    proposalId: foreignKeyColumn('proposal_id'),
+    kind: shortTextColumn(20),
+    topology: shortTextColumn(40),
+    design: textColumn(),
+    evaluation: textColumn(true),
+    reason: textColumn(true),
+    decidedById: foreignKeyColumn('decided_by_id'),
+    createdAt: timestampColumn('created_at'),
+  },
+});

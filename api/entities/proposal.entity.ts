@@ -1,0 +1,39 @@
+import { EntitySchema } from 'typeorm';
+import type { ProposalState } from '../../shared/workflow/proposal-states';
+import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+
+/** The engine's ranking of one spec version, with the versions that reproduce it. */
+export interface Proposal {
+  id: number;
+  projectId: number;
+  specId: number;
+  specVersionId: number;
+  engineVersion: string;
+  rulesetVersion: string;
+  /** The whole `recommend` output, JSON text. */
+  result: string;
+  recommendedTopology: string | null;
+  status: ProposalState;
+  createdById: number;
+  createdAt: string;
+  updatedAt: string;
+}
+
+export const ProposalEntity = new EntitySchema<Proposal>({
+  name: 'Proposal',
+  tableName: 'proposal',
+  columns: {
+    id: idColumn,
+    projectId: foreignKeyColumn('project_id'),
+    specId: foreignKeyColumn('spec_id'),
+    specVersionId: foreignKeyColumn('spec_version_id'),
+    engineVersion: { ...shortTextColumn(20), name: 'engine_version' },
+    rulesetVersion: { ...shortTextColumn(64), name: 'ruleset_version' },
+    result: textColumn(),
+    recommendedTopology: { ...shortTextColumn(40, true), name: 'recommended_topology' },
+    status: shortTextColumn(20),
+    createdById: foreignKeyColumn('created_by_id'),
+    createdAt: timestampColumn('created_at'),
+    updatedAt: timestampColumn('updated_at'),
+  },
+});

@@ -1,0 +1,28 @@
+import { EntitySchema } from 'typeorm';
+import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+
+export type Verdict = 'approve' | 'return';
+
+export interface Review {
+  id: number;
+  proposalId: number;
+  decisionId: number;
+  verdict: Verdict;
+  comment: string | null;
+  reviewerId: number;
+  createdAt: string;
+}
+
+export const ReviewEntity = new EntitySchema<Review>({
+  name: 'Review',
+  tableName: 'review',
+  columns: {
+    id: idColumn,
+    proposalId: foreignKeyColumn('proposal_id'),
+    decisionId: foreignKeyColumn('decision_id'),
+    verdict: shortTextColumn(20),
+    comment: textColumn(true),
+    reviewerId: foreignKeyColumn('reviewer_id'),
+    createdAt: timestampColumn('created_at'),
+  },
+});

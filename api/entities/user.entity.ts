@@ -1,0 +1,25 @@
+import { EntitySchema } from 'typeorm';
+import type { Role } from '../../shared/workflow/roles';
+import { idColumn, shortTextColumn, timestampColumn } from './columns';
+
+export interface User {
+  id: number;
+  email: string;
+  displayName: string;
+  role: Role;
+  passwordHash: string;
+  createdAt: string;
+}
+
+export const UserEntity = new EntitySchema<User>({
+  name: 'User',
+  tableName: 'user_account',
+  columns: {
+    id: idColumn,
+    email: { ...shortTextColumn(254), unique: true },
+    displayName: { ...shortTextColumn(120), name: 'display_name' },
+    role: shortTextColumn(20),
+    passwordHash: { ...shortTextColumn(200), name: 'password_hash', select: false },
+    createdAt: timestampColumn('created_at'),
+  },
+});

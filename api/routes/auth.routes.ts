@@ -1,0 +1,36 @@
+/** Sign-in, sign-out, who am I, and the CSRF token. */
+import { Router } from 'express';
+import type { PassportStatic } from 'passport';
+import { issueCsrfToken } from '../auth/csrf';
+import { signInRateLimits } from '../auth/rate-limit';
+import { requireSignIn } from '../auth/require';
+import { AppError } from '../errors';
+import { LOGIN_BODY } from '../validation/bodies';
+import { validateBody } from '../validation/validate-request';
+
+export function authRoutes(passport: PassportStatic): Router {
+  const router = Router();
+  router.get('/csrf', issueCsrfToken);
+  router.post('/login', validateBody(LOGIN_BODY), ...signInRateLimits(), (req, res, next) => {
+    passport.authenticate('local', (error: unknown, user: Express.User | false) => {
+      if (error) return next(error);
+      // One answer for an unknown account and a wrong password: no account enumeration.
+      if (!user) return next(new AppError('sign-in-failed', 401, 'Wrong e-mail address or password.'));
+      // passport ≥ 0.6 regenerates the session here: no session fixation.
+      req.login(user, (loginError) => (loginError ? next(loginError) : res.json({ user })));
+    })(req, res, next);
+  });
+  router.post('/logout', (req, res, next) => {
+    req.logout((error) => {
+      if (error) return next(error);
+      req.session.destroy(() => {
+        res.clearCookie('longtail.sid');
+        res.status(204).end();
+      });
+    });
+  });
+  router.get('/me', requireSignIn, (req, res) => {
+    res.json({ user: req.user });
+  });
+  return router;
+}

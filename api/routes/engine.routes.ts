@@ -1,0 +1,33 @@
+/** The stateless parts: what-if analysis, the spec schema for the form, the topology catalogue, health. */
+import { Router } from 'express';
+import { analyze, ConvergenceError, ENGINE_VERSION, ESTIMATE_NOTICE } from '../../shared/engine/index';
+import { TOPOLOGIES, type Design, type RuleSet } from '../../shared/engine/types';
+import { DESIGN_SCHEMA, SPEC_SCHEMA } from '../../shared/validate';
+import { requireSignIn } from '../auth/require';
+import { AppError } from '../errors';
+import { validateBody } from '../validation/validate-request';
+
+export function engineRoutes(ruleSet: RuleSet): Router {
+  const router = Router();
+  router.get('/health', (_req, res) => {
+    res.json({ status: 'ok', engineVersion: ENGINE_VERSION, rulesetVersion: ruleSet.version });
+  });
+  router.get('/schema/spec', (_req, res) => {
+    res.json(SPEC_SCHEMA);
+  });
+  router.get('/schema/design', (_req, res) => {
+    res.json(DESIGN_SCHEMA);
+  });
+  router.get('/topologies', (_req, res) => {
+    res.json({ items: TOPOLOGIES.map((id, i) => ({ id, simplicityRank: i + 1 })) });
+  });
+  router.post('/analyze', requireSignIn, validateBody(DESIGN_SCHEMA), (req, res) => {
+    try {
+      res.json({ ...analyze(req.body as Design), notice: ESTIMATE_NOTICE });
+    } catch (error) {
+      if (error instanceof ConvergenceError) throw new AppError('not-solvable', 422, `This design cannot be solved: ${error.message}.`);
+      throw error;
+    }
+  });
+  return router;
+}

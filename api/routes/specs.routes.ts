@@ -1,0 +1,31 @@
+/** One spec: read, new version, history, differences; asking for a proposal. */
+import { Router } from 'express';
+import type { DataSource } from 'typeorm';
+import type { RuleSet } from '../../shared/engine/types';
+import { currentUser, requirePermission, requireSignIn } from '../auth/require';
+import { createProposal } from '../services/proposals.service';
+import { diffVersions, getSpec, listVersions, updateSpec } from '../services/specs.service';
+import { DIFF_QUERY, SPEC_BODY } from '../validation/bodies';
+import { idParam, validateBody, validateQuery } from '../validation/validate-request';
+
+export function specsRoutes(dataSource: DataSource, ruleSet: RuleSet): Router {
+  const router = Router();
+  router.use(requireSignIn);
+  router.get('/:id', async (req, res) => {
+    res.json(await getSpec(dataSource, currentUser(req), idParam(req.params.id, 'spec')));
+  });
+  router.put('/:id', requirePermission('specs:write'), validateBody(SPEC_BODY), async (req, res) => {
+    res.json(await updateSpec(dataSource, currentUser(req), idParam(req.params.id, 'spec'), req.body));
+  });
+  router.get('/:id/versions', async (req, res) => {
+    res.json({ items: await listVersions(dataSource, currentUser(req), idParam(req.params.id, 'spec')) });
+  });
+  router.get('/:id/diff', validateQuery(DIFF_QUERY), async (req, res) => {
+    const { from, to } = res.locals.query as { from: number; to: number };
+    res.json(await diffVersions(dataSource, currentUser(req), idParam(req.params.id, 'spec'), from, to));
+  });
+  router.post('/:id/proposals', requirePermission('proposals:create'), async (req, res) => {
+    res.status(201).json(await createProposal(dataSource, currentUser(req), idParam(req.params.id, 'spec'), ruleSet));
+  });
+  return router;
+}

@@ -1,0 +1,78 @@
+/**
+ * The demo organisation, seeded on an empty database for the local run: Fernhollow Instruments
+ * (invented), four accounts, one per role, three projects with specs in different states and
+ * proposals through the workflow. Everything goes through the services, so the audit trail is real.
+ */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import type { DataSource } from 'typeorm';
+import type { RuleSet } from '../../shared/engine/types';
+import type { Role } from '../../shared/workflow/roles';
+import { UserEntity } from '../entities/user.entity';
+import { addMember, createProject } from '../services/projects.service';
+import { createProposal, decide, review } from '../services/proposals.service';
+import { createSpec, updateSpec } from '../services/specs.service';
+import { createUser, type PublicUser } from '../services/users.service';
+
+export const DEMO_DOMAIN = 'demo.longtail.test';
+
+const DEMO_PEOPLE: { role: Role; displayName: string }[] = [
+  { role: 'admin', displayName: 'Ines Okafor-Lind' },
+  { role: 'requirements', displayName: 'Tomasz Rehn' },
+  { role: 'designer', displayName: 'Priya Valcourt' },
+  { role: 'reviewer', displayName: 'Samir Edelstein' },
+];
+
+const specsDir = join(fileURLToPath(new URL('.', import.meta.url)), '..', 'demo', 'specs');
+const demoSpec = (file: string) => JSON.parse(readFileSync(join(specsDir, file), 'utf8')) as Record<string, unknown> & { title: string };
+
+/** Seeds the demo when the database has no account yet. Returns false when it had one. */
+export async function seedDemo(dataSource: DataSource, ruleSet: RuleSet, password: string): Promise<boolean> {
+  if ((await dataSource.getRepository(UserEntity).count()) > 0) return false;
+  const people = {} as Record<Role, PublicUser>;
+  for (const person of DEMO_PEOPLE) {
+    people[person.role] = await createUser(dataSource, null, { email: `${person.role}@${DEMO_DOMAIN}`, displayName: person.displayName, role: person.role, password });
+  }
+  const admin = people.admin;
+  const project = async (name: string, description: string) => {
+    const created = await createProject(dataSource, admin.id, { name, description });
+    for (const role of ['requirements', 'designer', 'reviewer'] as const) await addMember(dataSource, admin, created.id, people[role].id);
+    return created;
+  };
+
+  // 1. Load-cell amplifier: spec revised once, recommendation accepted and approved.
+  const loadCell = await project('Kestrel load-cell amplifier', 'Bridge receiver for the 350 Ω load-cell family; differential output into the 24-bit converter.');
+  const bridge = demoSpec('strain-bridge-receiver.json');
+  const bridgeSpec = await createSpec(dataSource, people.requirements, loadCell.id, { title: bridge.title.replace('rev B', 'rev A'), payload: { ...bridge, cmrr: { ...(bridge.cmrr as object), marginDb: 3 } } });
+  await updateSpec(dataSource, people.requirements, bridgeSpec.id, { title: bridge.title, payload: bridge });
+  const bridgeProposal = await createProposal(dataSource, people.designer, bridgeSpec.id, ruleSet);
+  await decide(dataSource, people.designer, bridgeProposal.id, { kind: 'accept' }, ruleSet);
+  await review(dataSource, people.reviewer, bridgeProposal.id, { verdict: 'approve', comment: 'Margins hold at the hot corner; matches the bench notes from the rev A board.' });
+
+  // 2. Studio interface: ranked, waiting for the designer.
+  const studio = await project('Larkspur studio interface', 'Balanced line receiver ahead of the monitor path.');
+  const line = demoSpec('studio-line-receiver.json');
+  const lineSpec = await createSpec(dataSource, people.requirements, studio.id, { title: line.title, payload: line });
+  await createProposal(dataSource, people.requirements, lineSpec.id, ruleSet);
+
+  // 3. Biosignal front end: an override, returned by the reviewer for another look.
+  const biosignal = await project('Marram biosignal front end', 'Electrode amplifier input pair for the bench prototype (not for patient use).');
+  const electrode = demoSpec('electrode-amplifier-input.json');
+  const electrodeSpec = await createSpec(dataSource, people.requirements, biosignal.id, { title: electrode.title, payload: electrode });
+  const electrodeProposal = await createProposal(dataSource, people.designer, electrodeSpec.id, ruleSet);
+  const degenerated = electrodeProposal.result.options.find((o) => o.topology === 'degenerated-mirror');
+  if (degenerated?.design && degenerated.design.tail.topology === 'degenerated-mirror') {
+    const design = { ...degenerated.design, tail: { ...degenerated.design.tail, emitterResistanceOhm: degenerated.design.tail.emitterResistanceOhm * 2 } };
+    await decide(dataSource, people.designer, electrodeProposal.id, { kind: 'override', design, reason: 'Stock on hand: doubling the emitter resistors of the degenerated mirror instead of adding the Wilson’s third transistor.' }, ruleSet);
+    await review(dataSource, people.reviewer, electrodeProposal.id, { verdict: 'return', comment: 'Check the rejection at the low end of the input range with the doubled emitter resistors before we commit.' });
+  }
+  return true;
+}
+
+/** Production: the first administrator from the environment, on an empty database. */
+export async function seedFirstAdmin(dataSource: DataSource, admin: { email: string; password: string }): Promise<boolean> {
+  if ((await dataSource.getRepository(UserEntity).count()) > 0) return false;
+  await createUser(dataSource, null, { email: admin.email, displayName: 'Administrator', role: 'admin', password: admin.password });
+  return true;
+}

@@ -1,0 +1,223 @@
+/**
+ * Proposals and their workflow: rank a spec version with the engine, let a designer decide
+ * (accept, choose another option, or override with an own design, analysed as thoroughly),
+ * let a reviewer approve or return. Every step checks the transition in shared/workflow, and
+ * writes the record and its audit event in one transaction.
+ */
+import type { DataSource, EntityManager } from 'typeorm';
+import { evaluateDesign, recommend, type RecommendResult } from '../../shared/engine/index';
+import type { Design, RuleSet, TopologyId } from '../../shared/engine/types';
+import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
+import { AuditEventEntity } from '../entities/audit-event.entity';
+import { DecisionEntity, type Decision, type DecisionKind } from '../entities/decision.entity';
+import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
+import { ReviewEntity, type Review, type Verdict } from '../entities/review.entity';
+import { SpecVersionEntity } from '../entities/spec-version.entity';
+import { AppError, invalid, notFound } from '../errors';
+import { auditView, recordEvent } from './audit.service';
+import { projectFor } from './projects.service';
+import { checkedSpecDocument, latestVersion, specFor } from './specs.service';
+import type { PublicUser } from './users.service';
+
+type Viewer = Pick<PublicUser, 'id' | 'role'>;
+
+/** Largest page of the proposal list. */
+export const MAX_PAGE_SIZE = 100;
+
+export interface DecisionInput {
+  kind: DecisionKind;
+  topology?: TopologyId;
+  design?: Design;
+  reason?: string;
+}
+
+export interface ReviewInput {
+  verdict: Verdict;
+  comment?: string;
+}
+
+/** The proposal if its project is visible to the viewer, else 404. */
+async function proposalFor(manager: EntityManager | DataSource, viewer: Viewer, proposalId: number): Promise<Proposal> {
+  const proposal = await manager.getRepository(ProposalEntity).findOneBy({ id: proposalId });
+  if (!proposal) throw notFound('proposal');
+  try {
+    await projectFor(manager, viewer, proposal.projectId);
+  } catch {
+    throw notFound('proposal');
+  }
+  return proposal;
+}
+
+/** The state after `event`, or a 409 saying what is allowed now. */
+function transition(proposal: Proposal, event: ProposalEvent): ProposalState {
+  const next = nextState(proposal.status, event);
+  if (next) return next;
+  const allowed = allowedEvents(proposal.status);
+  throw new AppError(
+    'invalid-transition',
+    409,
+    `Proposal ${proposal.id} is ${proposal.status}: it cannot ${event} now. ${allowed.length ? `Allowed now: ${allowed.join(', ')}.` : 'Nothing can change it now.'}`,
+  );
+}
+
+function decisionView(decision: Decision) {
+  return { ...decision, design: JSON.parse(decision.design) as Design, evaluation: decision.evaluation ? JSON.parse(decision.evaluation) : null };
+}
+
+/** The whole proposal: its record, the engine's output, the spec snapshot, decisions and reviews. */
+export async function getProposal(dataSource: DataSource, viewer: Viewer, proposalId: number) {
+  const proposal = await proposalFor(dataSource, viewer, proposalId);
+  const [version, decisions, reviews] = await Promise.all([
+    dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId }),
+    dataSource.getRepository(DecisionEntity).find({ where: { proposalId }, order: { id: 'ASC' } }),
+    dataSource.getRepository(ReviewEntity).find({ where: { proposalId }, order: { id: 'ASC' } }),
+  ]);
+  return {
+    ...proposal,
+    result: JSON.parse(proposal.result) as RecommendResult,
+    specVersion: { id: version.id, version: version.version, title: version.title, payload: JSON.parse(version.payload) },
+    decisions: decisions.map(decisionView),
+    reviews,
+    allowedEvents: allowedEvents(proposal.status),
+  };
+}
+
+/** Runs `recommend` on the spec's latest version and stores the proposal. */
+export async function createProposal(dataSource: DataSource, actor: Viewer, specId: number, ruleSet: RuleSet) {
+  const spec = await specFor(dataSource, actor, specId);
+  const version = await latestVersion(dataSource, spec);
+  const result = await recommend(checkedSpecDocument(JSON.parse(version.payload)), ruleSet);
+  const proposal = await dataSource.transaction(async (manager) => {
+    const now = new Date().toISOString();
+    const saved = await manager.getRepository(ProposalEntity).save({
+      projectId: spec.projectId,
+      specId,
+      specVersionId: version.id,
+      engineVersion: result.engineVersion,
+      rulesetVersion: result.rulesetVersion,
+      result: JSON.stringify(result),
+      recommendedTopology: result.recommended,
+      status: 'ranked' as ProposalState,
+      createdById: actor.id,
+      createdAt: now,
+      updatedAt: now,
+    });
+    await recordEvent(manager, {
+      actorId: actor.id,
+      action: 'proposal.ranked',
+      entityType: 'proposal',
+      entityId: saved.id,
+      projectId: spec.projectId,
+      proposalId: saved.id,
+      afterId: saved.id,
+      details: { specVersion: version.version, recommended: result.recommended, status: 'ranked' },
+    });
+    return saved;
+  });
+  return getProposal(dataSource, actor, proposal.id);
+}
+
+/** One page of a project's proposals, newest first, without the engine output. */
+export async function listProposals(dataSource: DataSource, viewer: Viewer, projectId: number, query: { status?: ProposalState; page: number; pageSize: number }) {
+  await projectFor(dataSource, viewer, projectId);
+  const where = { projectId, ...(query.status ? { status: query.status } : {}) };
+  const [items, total] = await dataSource.getRepository(ProposalEntity).findAndCount({
+    select: { id: true, projectId: true, specId: true, specVersionId: true, engineVersion: true, rulesetVersion: true, recommendedTopology: true, status: true, createdById: true, createdAt: true, updatedAt: true },
+    where,
+    order: { id: 'DESC' },
+    skip: (query.page - 1) * query.pageSize,
+    take: query.pageSize,
+  });
+  return { items, total, page: query.page, pageSize: query.pageSize };
+}
+
+/** What a decision settles on: the option's topology and design, and for an override its evaluation. */
+async function settledDesign(proposal: Proposal, input: DecisionInput, ruleSet: RuleSet, dataSource: DataSource) {
+  const result = JSON.parse(proposal.result) as RecommendResult;
+  if (input.kind === 'override') {
+    if (!input.design) throw invalid([{ path: '/design', message: 'is required for an override' }]);
+    const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
+    const evaluation = await evaluateDesign(checkedSpecDocument(JSON.parse(version.payload)), input.design, ruleSet);
+    return { topology: input.design.tail.topology, design: input.design, evaluation };
+  }
+  const topology = input.kind === 'accept' ? result.recommended : input.topology;
+  if (input.kind === 'accept' && !topology) throw new AppError('nothing-recommended', 409, 'No option passes, so there is no recommendation to accept: choose an option or override.');
+  if (!topology) throw invalid([{ path: '/topology', message: 'is required when choosing an option' }]);
+  const option = result.options.find((o) => o.topology === topology);
+  if (!option?.design) throw invalid([{ path: '/topology', message: `is not a ranked option of this proposal: ${topology}` }]);
+  return { topology, design: option.design, evaluation: null };
+}
+
+/** A designer's decision: moves a ranked or returned proposal to decided. */
+export async function decide(dataSource: DataSource, actor: Viewer, proposalId: number, input: DecisionInput, ruleSet: RuleSet) {
+  if (input.kind !== 'accept' && !(input.reason ?? '').trim()) throw invalid([{ path: '/reason', message: 'is required unless you accept the recommendation' }]);
+  // The engine works outside the transaction (it is CPU, not data); the state is checked again inside.
+  const before = await proposalFor(dataSource, actor, proposalId);
+  transition(before, 'decide');
+  const settled = await settledDesign(before, input, ruleSet, dataSource);
+  await dataSource.transaction(async (manager) => {
+    const proposal = await proposalFor(manager, actor, proposalId);
+    const status = transition(proposal, 'decide');
+    const decision = await manager.getRepository(DecisionEntity).save({
+      proposalId,
+      kind: input.kind,
+      topology: settled.topology,
+      design: JSON.stringify(settled.design),
+      evaluation: settled.evaluation ? JSON.stringify(settled.evaluation) : null,
+      reason: input.reason?.trim() || null,
+      decidedById: actor.id,
+      createdAt: new Date().toISOString(),
+    });
+    await manager.getRepository(ProposalEntity).update({ id: proposalId }, { status, updatedAt: decision.createdAt });
+    await recordEvent(manager, {
+      actorId: actor.id,
+      action: 'proposal.decided',
+      entityType: 'decision',
+      entityId: decision.id,
+      projectId: proposal.projectId,
+      proposalId,
+      afterId: decision.id,
+      details: { kind: input.kind, topology: settled.topology, from: proposal.status, to: status, passes: settled.evaluation?.passes },
+    });
+  });
+  return getProposal(dataSource, actor, proposalId);
+}
+
+/** A reviewer's verdict on the latest decision: approve, or return with a comment. */
+export async function review(dataSource: DataSource, actor: Viewer, proposalId: number, input: ReviewInput) {
+  if (input.verdict === 'return' && !(input.comment ?? '').trim()) throw invalid([{ path: '/comment', message: 'is required when returning a proposal' }]);
+  await dataSource.transaction(async (manager) => {
+    const proposal = await proposalFor(manager, actor, proposalId);
+    const status = transition(proposal, input.verdict);
+    const decision = await manager.getRepository(DecisionEntity).findOneOrFail({ where: { proposalId }, order: { id: 'DESC' } });
+    if (decision.decidedById === actor.id) throw new AppError('own-decision', 403, 'Nobody reviews their own decision.');
+    const saved: Review = await manager.getRepository(ReviewEntity).save({
+      proposalId,
+      decisionId: decision.id,
+      verdict: input.verdict,
+      comment: input.comment?.trim() || null,
+      reviewerId: actor.id,
+      createdAt: new Date().toISOString(),
+    });
+    await manager.getRepository(ProposalEntity).update({ id: proposalId }, { status, updatedAt: saved.createdAt });
+    await recordEvent(manager, {
+      actorId: actor.id,
+      action: input.verdict === 'approve' ? 'proposal.approved' : 'proposal.returned',
+      entityType: 'review',
+      entityId: saved.id,
+      projectId: proposal.projectId,
+      proposalId,
+      beforeId: decision.id,
+      afterId: saved.id,
+      details: { verdict: input.verdict, from: proposal.status, to: status },
+    });
+  });
+  return getProposal(dataSource, actor, proposalId);
+}
+
+/** The proposal's audit trail, oldest first. */
+export async function proposalAudit(dataSource: DataSource, viewer: Viewer, proposalId: number) {
+  await proposalFor(dataSource, viewer, proposalId);
+  const events = await dataSource.getRepository(AuditEventEntity).find({ where: { proposalId }, order: { id: 'ASC' } });
+  return events.map(auditView);
+}

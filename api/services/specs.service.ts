@@ -1,0 +1,110 @@
+/**
+ * Requirement specs: every edit is a new immutable version; versions can be listed and compared.
+ * The spec document is validated against the shared schema before anything is written.
+ */
+import type { DataSource, EntityManager } from 'typeorm';
+import type { Spec as SpecDocument } from '../../shared/engine/types';
+import { diffJson, type JsonChange } from '../../shared/json-diff';
+import { validateSpec } from '../../shared/validate';
+import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
+import { SpecEntity, type Spec } from '../entities/spec.entity';
+import { invalid, notFound } from '../errors';
+import { recordEvent } from './audit.service';
+import { projectFor } from './projects.service';
+import type { PublicUser } from './users.service';
+
+type Viewer = Pick<PublicUser, 'id' | 'role'>;
+
+export interface SpecInput {
+  title: string;
+  payload: unknown;
+}
+
+/** The spec document checked against the schema (defaults applied); errors located under /payload. */
+export function checkedSpecDocument(payload: unknown): SpecDocument {
+  const result = validateSpec(payload);
+  if (!result.ok) throw invalid(result.errors.map((e) => ({ path: `/payload${e.path}`, message: e.message })), 'The spec is not valid.');
+  return result.value;
+}
+
+export function specVersionView(version: SpecVersion) {
+  return { ...version, payload: JSON.parse(version.payload) as SpecDocument };
+}
+
+/** The spec if its project is visible to the viewer, else 404. */
+export async function specFor(manager: EntityManager | DataSource, viewer: Viewer, specId: number): Promise<Spec> {
+  const spec = await manager.getRepository(SpecEntity).findOneBy({ id: specId });
+  if (!spec) throw notFound('spec');
+  try {
+    await projectFor(manager, viewer, spec.projectId);
+  } catch {
+    throw notFound('spec');
+  }
+  return spec;
+}
+
+export async function latestVersion(manager: EntityManager | DataSource, spec: Spec): Promise<SpecVersion> {
+  const version = await manager.getRepository(SpecVersionEntity).findOneBy({ specId: spec.id, version: spec.latestVersion });
+  if (!version) throw notFound('spec-version');
+  return version;
+}
+
+export async function listSpecs(dataSource: DataSource, viewer: Viewer, projectId: number): Promise<Spec[]> {
+  await projectFor(dataSource, viewer, projectId);
+  return dataSource.getRepository(SpecEntity).find({ where: { projectId }, order: { id: 'ASC' } });
+}
+
+export async function getSpec(dataSource: DataSource, viewer: Viewer, specId: number) {
+  const spec = await specFor(dataSource, viewer, specId);
+  return { ...spec, latest: specVersionView(await latestVersion(dataSource, spec)) };
+}
+
+export async function createSpec(dataSource: DataSource, actor: Viewer, projectId: number, input: SpecInput) {
+  const document = checkedSpecDocument({ ...(input.payload as object), title: input.title });
+  return dataSource.transaction(async (manager) => {
+    await projectFor(manager, actor, projectId);
+    const now = new Date().toISOString();
+    const spec = await manager.getRepository(SpecEntity).save({ projectId, title: input.title.trim(), latestVersion: 1, createdById: actor.id, createdAt: now, updatedAt: now });
+    const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: 1, title: spec.title, payload: JSON.stringify(document), createdById: actor.id, createdAt: now });
+    await recordEvent(manager, { actorId: actor.id, action: 'spec.created', entityType: 'spec', entityId: spec.id, projectId, afterId: version.id, details: { title: spec.title, version: 1 } });
+    return { ...spec, latest: specVersionView(version) };
+  });
+}
+
+export async function updateSpec(dataSource: DataSource, actor: Viewer, specId: number, input: SpecInput) {
+  const document = checkedSpecDocument({ ...(input.payload as object), title: input.title });
+  return dataSource.transaction(async (manager) => {
+    const spec = await specFor(manager, actor, specId);
+    const previous = await latestVersion(manager, spec);
+    const now = new Date().toISOString();
+    const number = spec.latestVersion + 1;
+    const version = await manager.getRepository(SpecVersionEntity).save({ specId, version: number, title: input.title.trim(), payload: JSON.stringify(document), createdById: actor.id, createdAt: now });
+    await manager.getRepository(SpecEntity).update({ id: specId }, { latestVersion: number, title: version.title, updatedAt: now });
+    await recordEvent(manager, {
+      actorId: actor.id,
+      action: 'spec.version-created',
+      entityType: 'spec',
+      entityId: specId,
+      projectId: spec.projectId,
+      beforeId: previous.id,
+      afterId: version.id,
+      details: { version: number, changes: diffJson(JSON.parse(previous.payload), document).length },
+    });
+    return { ...spec, title: version.title, latestVersion: number, updatedAt: now, latest: specVersionView(version) };
+  });
+}
+
+export async function listVersions(dataSource: DataSource, viewer: Viewer, specId: number) {
+  await specFor(dataSource, viewer, specId);
+  const versions = await dataSource.getRepository(SpecVersionEntity).find({ where: { specId }, order: { version: 'ASC' } });
+  return versions.map(specVersionView);
+}
+
+/** Field-by-field differences between two versions of a spec. */
+export async function diffVersions(dataSource: DataSource, viewer: Viewer, specId: number, from: number, to: number): Promise<{ from: number; to: number; changes: JsonChange[] }> {
+  await specFor(dataSource, viewer, specId);
+  const repository = dataSource.getRepository(SpecVersionEntity);
+  const [a, b] = await Promise.all([repository.findOneBy({ specId, version: from }), repository.findOneBy({ specId, version: to })]);
+  if (!a || !b) throw notFound('spec-version');
+  return { from, to, changes: diffJson(JSON.parse(a.payload), JSON.parse(b.payload)) };
+}

@@ -1,0 +1,54 @@
+/**
+ * JSON Schemas of the request bodies and queries that are not spec or design documents (those
+ * have their own schemas in shared/schema). Unknown fields are refused everywhere.
+ */
+import { ROLES } from '../../shared/workflow/roles';
+import { PROPOSAL_STATES } from '../../shared/workflow/proposal-states';
+import { TOPOLOGIES } from '../../shared/engine/types';
+import { DESIGN_SCHEMA } from '../../shared/validate';
+import { MIN_PASSWORD_LENGTH } from '../auth/password';
+
+const email = { type: 'string', minLength: 3, maxLength: 254, pattern: '^[^@\\s]+@[^@\\s]+$' };
+const name = (maxLength: number) => ({ type: 'string', minLength: 1, maxLength, pattern: '\\S' });
+const strict = (properties: Record<string, object>, required: string[]) => ({ type: 'object', additionalProperties: false, properties, required });
+
+export const LOGIN_BODY = strict({ email: { type: 'string', minLength: 1, maxLength: 254 }, password: { type: 'string', minLength: 1, maxLength: 1024 } }, ['email', 'password']);
+
+export const NEW_USER_BODY = strict(
+  { email, displayName: name(120), role: { enum: [...ROLES] }, password: { type: 'string', minLength: MIN_PASSWORD_LENGTH, maxLength: 1024 } },
+  ['email', 'displayName', 'role', 'password'],
+);
+
+export const USER_CHANGES_BODY = { ...strict({ displayName: name(120), role: { enum: [...ROLES] } }, []), minProperties: 1 };
+
+export const NEW_PROJECT_BODY = strict({ name: name(160), description: { type: 'string', maxLength: 4000 } }, ['name']);
+
+export const MEMBERSHIP_BODY = strict({ userId: { type: 'integer', minimum: 1 } }, ['userId']);
+
+/** The spec document itself is checked against shared/schema/spec.schema.json by the service. */
+export const SPEC_BODY = strict({ title: name(200), payload: { type: 'object' } }, ['title', 'payload']);
+
+export const DECISION_BODY = {
+  ...strict(
+    {
+      kind: { enum: ['accept', 'choose', 'override'] },
+      topology: { enum: [...TOPOLOGIES] },
+      design: DESIGN_SCHEMA,
+      reason: { type: 'string', maxLength: 4000 },
+    },
+    ['kind'],
+  ),
+};
+
+export const REVIEW_BODY = strict({ verdict: { enum: ['approve', 'return'] }, comment: { type: 'string', maxLength: 4000 } }, ['verdict']);
+
+export const PROPOSAL_LIST_QUERY = strict(
+  {
+    status: { enum: [...PROPOSAL_STATES] },
+    page: { type: 'integer', minimum: 1, maximum: 1000000, default: 1 },
+    pageSize: { type: 'integer', minimum: 1, maximum: 100, default: 20 },
+  },
+  [],
+);
+
+export const DIFF_QUERY = strict({ from: { type: 'integer', minimum: 1 }, to: { type: 'integer', minimum: 1 } }, ['from', 'to']);

@@ -1,0 +1,42 @@
+/**
+ * Request validation middleware: the body (or query) checked against a JSON Schema with the
+ * shared ajv instance; a 400 with every problem's JSON path, or the validated copy put back.
+ */
+import type { RequestHandler } from 'express';
+import { compileValidator } from '../../shared/validate';
+import { invalid, notFound } from '../errors';
+
+/** Validates `req.body`; non-object bodies (wrong content type, bare values) are refused too. */
+export function validateBody(schema: object): RequestHandler {
+  const check = compileValidator<unknown>(schema);
+  return (req, _res, next) => {
+    if (!req.is('application/json')) return next(invalid([{ path: '', message: 'must be JSON (Content-Type: application/json)' }]));
+    const result = check(req.body);
+    if (!result.ok) return next(invalid(result.errors));
+    req.body = result.value;
+    next();
+  };
+}
+
+/** Query strings arrive as text: numeric-looking values are turned into numbers before the check. */
+function coerceQuery(query: Record<string, unknown>): Record<string, unknown> {
+  return Object.fromEntries(Object.entries(query).map(([k, v]) => [k, typeof v === 'string' && /^-?\d+(\.\d+)?$/.test(v) ? Number(v) : v]));
+}
+
+/** Validates the query string; the checked copy is left in `res.locals.query`. */
+export function validateQuery(schema: object): RequestHandler {
+  const check = compileValidator<unknown>(schema);
+  return (req, res, next) => {
+    const result = check(coerceQuery(req.query as Record<string, unknown>));
+    if (!result.ok) return next(invalid(result.errors.map((e) => ({ ...e, path: `?${e.path.replace(/^\//, '')}` }))));
+    res.locals.query = result.value;
+    next();
+  };
+}
+
+/** A positive integer route parameter, else 404 (a malformed id names no record). */
+export function idParam(value: string | string[] | undefined, what: string): number {
+  const id = Number(value);
+  if (typeof value !== 'string' || !Number.isInteger(id) || id < 1 || String(id) !== value) throw notFound(what);
+  return id;
+}

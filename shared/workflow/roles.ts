@@ -1,0 +1,41 @@
+/**
+ * Roles and what each may do: the one table both the server (requirePermission) and the
+ * browser (what to show) read. Pure data.
+ */
+export const ROLES = ['admin', 'requirements', 'designer', 'reviewer'] as const;
+export type Role = (typeof ROLES)[number];
+
+export const ROLE_TITLES: Record<Role, string> = {
+  admin: 'Administrator',
+  requirements: 'Systems engineer (requirements)',
+  designer: 'Circuit designer',
+  reviewer: 'Reviewer',
+};
+
+/** Every action a route may require. */
+export type Action =
+  | 'users:manage'
+  | 'projects:create'
+  | 'projects:read-all'
+  | 'members:manage'
+  | 'specs:write'
+  | 'proposals:create'
+  | 'proposals:decide'
+  | 'proposals:review';
+
+/** Which roles may take each action (anything not listed is refused). */
+export const PERMISSIONS: Record<Action, readonly Role[]> = {
+  'users:manage': ['admin'],
+  'projects:create': ['admin'],
+  'projects:read-all': ['admin'],
+  'members:manage': ['admin'],
+  'specs:write': ['requirements'],
+  'proposals:create': ['requirements', 'designer'],
+  'proposals:decide': ['designer'],
+  'proposals:review': ['reviewer'],
+};
+
+/** Whether a role may take an action. */
+export function may(role: Role, action: Action): boolean {
+  return PERMISSIONS[action].includes(role);
+}
