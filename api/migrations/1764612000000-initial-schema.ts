@@ -63,6 +63,7 @@ const TABLES: Table[] = [
       new TableIndex({ name: 'ix_proposal_project_status', columnNames: ['project_id', 'status', 'id'] }),
       new TableIndex({ name: 'ix_proposal_project', columnNames: ['project_id', 'id'] }),
       new TableIndex({ name: 'ix_proposal_spec', columnNames: ['spec_id'] }),
+      new TableIndex({ name: 'ix_proposal_spec_version', columnNames: ['spec_version_id', 'engine_version', 'ruleset_version'] }),
     ],
   }),
   new Table({

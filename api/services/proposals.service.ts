@@ -5,14 +5,14 @@
  * writes the record and its audit event in one transaction.
  */
 import type { DataSource, EntityManager } from 'typeorm';
-import { evaluateDesign, recommend, type RecommendResult } from '../../shared/engine/index';
+import { ENGINE_VERSION, evaluateDesign, recommend, type RecommendResult } from '../../shared/engine/index';
 import type { Design, RuleSet, TopologyId } from '../../shared/engine/types';
 import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
 import { AuditEventEntity } from '../entities/audit-event.entity';
 import { DecisionEntity, type Decision, type DecisionKind } from '../entities/decision.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { ReviewEntity, type Review, type Verdict } from '../entities/review.entity';
-import { SpecVersionEntity } from '../entities/spec-version.entity';
+import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
 import { AppError, invalid, notFound } from '../errors';
 import { auditView, recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
@@ -82,11 +82,26 @@ export async function getProposal(dataSource: DataSource, viewer: Viewer, propos
   };
 }
 
-/** Runs `recommend` on the spec's latest version and stores the proposal. */
+/**
+ * The engine's output for a spec version: reused from an earlier proposal of the same version,
+ * engine version and rule-set version (the engine is deterministic, so it would be byte for
+ * byte the same), else computed now.
+ */
+async function rankingFor(dataSource: DataSource, version: SpecVersion, ruleSet: RuleSet): Promise<RecommendResult> {
+  const earlier = await dataSource.getRepository(ProposalEntity).findOne({
+    select: { id: true, result: true },
+    where: { specVersionId: version.id, engineVersion: ENGINE_VERSION, rulesetVersion: ruleSet.version },
+    order: { id: 'ASC' },
+  });
+  if (earlier) return JSON.parse(earlier.result) as RecommendResult;
+  return recommend(checkedSpecDocument(JSON.parse(version.payload)), ruleSet);
+}
+
+/** Ranks the spec's latest version with the engine and stores the proposal. */
 export async function createProposal(dataSource: DataSource, actor: Viewer, specId: number, ruleSet: RuleSet) {
   const spec = await specFor(dataSource, actor, specId);
   const version = await latestVersion(dataSource, spec);
-  const result = await recommend(checkedSpecDocument(JSON.parse(version.payload)), ruleSet);
+  const result = await rankingFor(dataSource, version, ruleSet);
   const proposal = await dataSource.transaction(async (manager) => {
     const now = new Date().toISOString();
     const saved = await manager.getRepository(ProposalEntity).save({
