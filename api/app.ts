@@ -2,6 +2,7 @@
  * createApp(deps) -> the Express app. It never listens and never reads the environment:
  * server.ts does, and tests import this with an in-memory database.
  */
+import { join } from 'node:path';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import session from 'express-session';
@@ -34,6 +35,8 @@ export interface AppDeps {
   trustProxy?: boolean;
   /** Where server errors are logged (default console.error). */
   log?: (message: string) => void;
+  /** The built browser app (dist/web) to serve, with index.html for every non-API path. */
+  staticDir?: string;
 }
 
 export interface LongtailApp extends Express {
@@ -47,7 +50,25 @@ export function createApp(deps: AppDeps): LongtailApp {
   const passport = configurePassport(deps.dataSource);
   app.disable('x-powered-by');
   if (deps.trustProxy) app.set('trust proxy', 1);
-  app.use(helmet());
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'"],
+          imgSrc: ["'self'", 'data:'],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+        },
+      },
+    }),
+  );
   app.use(express.json({ limit: BODY_LIMIT, strict: true, type: ['application/json', 'application/*+json'] }));
   app.use(cookieParser());
   app.use(
@@ -71,6 +92,11 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.use('/api/proposals', proposalsRoutes(deps.dataSource, deps.ruleSet));
   app.use('/api', engineRoutes(deps.ruleSet));
   app.use('/api', (_req, _res, next) => next(new AppError('route-not-found', 404, 'No such API route.')));
+  if (deps.staticDir) {
+    const indexHtml = join(deps.staticDir, 'index.html');
+    app.use(express.static(deps.staticDir, { index: false, maxAge: '1h' }));
+    app.get(/^\/(?!api\/).*/, (_req, res) => res.sendFile(indexHtml));
+  }
   app.use(errorHandler(deps.log));
   app.closeApp = () => store.close();
   return app;

@@ -2,6 +2,8 @@
  * The server process: configuration, database (migrated on start), demo seed, listen, and a
  * graceful shutdown. The only file besides cli.ts that touches the process.
  */
+import { existsSync } from 'node:fs';
+import { join, resolve } from 'node:path';
 import { createApp } from './app';
 import { loadConfig } from './config';
 import { openDatabase } from './data-source';
@@ -16,7 +18,10 @@ if (config.seedDemo && (await seedDemo(dataSource, ruleSet, config.demoPassword)
 }
 if (config.firstAdmin && (await seedFirstAdmin(dataSource, config.firstAdmin))) console.log(`Created the first administrator, ${config.firstAdmin.email}`);
 
-const app = createApp({ dataSource, sessionSecret: config.sessionSecret, ruleSet, trustProxy: config.trustProxy });
+const webDir = resolve('dist/web');
+const staticDir = existsSync(join(webDir, 'index.html')) ? webDir : undefined;
+if (!staticDir) console.log('No built browser app in dist/web (npm run build): serving the API only.');
+const app = createApp({ dataSource, sessionSecret: config.sessionSecret, ruleSet, trustProxy: config.trustProxy, staticDir });
 const server = app.listen(config.port, () => {
   console.log(`Longtail listening on http://localhost:${config.port} (database ${config.databasePath})`);
 });

@@ -1,0 +1,150 @@
+/**
+ * A fresh Longtail app per test file: an in-memory database migrated by openDatabase, the rule
+ * set from rules/, six accounts (one per role, plus a second designer and a second reviewer),
+ * signed-in supertest clients that carry the CSRF token, and factories that arrange projects,
+ * specs and proposals through the services (so a test's Act is its only HTTP call that matters).
+ */
+import request from 'supertest';
+import type { DataSource } from 'typeorm';
+import { createApp, type LongtailApp } from '../../api/app';
+import { openDatabase } from '../../api/data-source';
+import { addMember, createProject } from '../../api/services/projects.service';
+import { createProposal } from '../../api/services/proposals.service';
+import { createSpec } from '../../api/services/specs.service';
+import { createUser, type PublicUser } from '../../api/services/users.service';
+import type { RuleSet } from '../../shared/engine/types';
+import type { Role } from '../../shared/workflow/roles';
+import { loadRuleSet } from '../../rules/index';
+
+/** The seeded accounts: one per role, and a second designer and reviewer for the four-eyes rules. */
+export const ACCOUNT_KEYS = ['admin', 'requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'] as const;
+export type AccountKey = (typeof ACCOUNT_KEYS)[number];
+
+const ACCOUNT_ROLES: Record<AccountKey, Role> = {
+  admin: 'admin',
+  requirements: 'requirements',
+  designer: 'designer',
+  reviewer: 'reviewer',
+  designer2: 'designer',
+  reviewer2: 'reviewer',
+};
+
+/** Every seeded account's password (invented; ≥ 12 characters). */
+export const TEST_PASSWORD = 'tern-lantern-0417-quay';
+export const TEST_DOMAIN = 'tests.longtail.test';
+export const emailOf = (key: AccountKey) => `${key}@${TEST_DOMAIN}`;
+
+/**
+ * An invented requirement spec (a thermopile sensor head that does not exist). Only some
+ * optional fields are given, so the server fills the rest with the schema's defaults. 300 Monte
+ * Carlo samples (the schema allows ≥ 100) keep one proposal near 50 ms; three of the six
+ * options pass and the recommendation is the degenerated mirror.
+ */
+export function specPayload(): Record<string, unknown> {
+  return {
+    title: 'Quillon sensor head — thermopile input pair',
+    device: { beta: 180, earlyVoltageV: 72, saturationCurrentA: 9e-15 },
+    supply: { positiveV: 9, negativeV: -9 },
+    gain: { target: 14, tolerancePercent: 8, output: 'differential' },
+    cmrr: { minDb: 74, atFrequencyHz: 400, marginDb: 3, minYieldPercent: 95 },
+    inputCommonMode: { minV: -2.2, maxV: 2.6 },
+    outputSwingVpp: 2.4,
+    powerBudgetW: 0.03,
+    monteCarlo: { samples: 300, seed: 17 },
+  };
+}
+
+/** A supertest client whose state-changing requests carry the X-CSRF-Token header. */
+export interface ApiClient {
+  agent: request.Agent;
+  csrfToken: string;
+  get(url: string): request.Test;
+  post(url: string): request.Test;
+  put(url: string): request.Test;
+  patch(url: string): request.Test;
+  delete(url: string): request.Test;
+}
+
+export interface TestApi {
+  app: LongtailApp;
+  dataSource: DataSource;
+  ruleSet: RuleSet;
+  users: Record<AccountKey, PublicUser>;
+  /** A new session: CSRF token fetched, signed in as the account. */
+  agentFor(key: AccountKey): Promise<ApiClient>;
+  /** A new session with a CSRF token and nobody signed in. */
+  anonymous(): Promise<ApiClient>;
+  /** A project (created by the admin) with the given accounts as members. */
+  createProject(members?: AccountKey[], name?: string): Promise<{ id: number; name: string }>;
+  /** A spec in a project, written by the requirements account (or `by`, who must see the project). */
+  createSpec(projectId: number, options?: { payload?: Record<string, unknown>; title?: string; by?: AccountKey }): Promise<{ id: number; projectId: number; latestVersion: number }>;
+  /** A ranked proposal on the spec's latest version (runs the engine). */
+  createProposal(specId: number, by?: AccountKey): Promise<Awaited<ReturnType<typeof createProposal>>>;
+  close(): Promise<void>;
+}
+
+function clientFor(agent: request.Agent, csrfToken: string): ApiClient {
+  return {
+    agent,
+    csrfToken,
+    get: (url) => agent.get(url),
+    post: (url) => agent.post(url).set('X-CSRF-Token', csrfToken),
+    put: (url) => agent.put(url).set('X-CSRF-Token', csrfToken),
+    patch: (url) => agent.patch(url).set('X-CSRF-Token', csrfToken),
+    delete: (url) => agent.delete(url).set('X-CSRF-Token', csrfToken),
+  };
+}
+
+/** A fresh agent with a CSRF token (the cookie is kept by the agent). */
+export async function csrfClient(app: LongtailApp): Promise<ApiClient> {
+  const agent = request.agent(app);
+  const response = await agent.get('/api/auth/csrf').expect(200);
+  return clientFor(agent, response.body.token as string);
+}
+
+export interface BuildOptions {
+  /** Where the app logs server errors (default: nowhere). */
+  log?: (message: string) => void;
+}
+
+/** Builds the app on a new in-memory database and seeds the accounts. */
+export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> {
+  const dataSource = await openDatabase(':memory:');
+  const ruleSet = await loadRuleSet();
+  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log: options.log ?? (() => {}) });
+  const entries = await Promise.all(
+    ACCOUNT_KEYS.map(async (key) => {
+      const user = await createUser(dataSource, null, { email: emailOf(key), displayName: `Test ${key}`, role: ACCOUNT_ROLES[key], password: TEST_PASSWORD });
+      return [key, user] as const;
+    }),
+  );
+  const users = Object.fromEntries(entries) as Record<AccountKey, PublicUser>;
+
+  return {
+    app,
+    dataSource,
+    ruleSet,
+    users,
+    async agentFor(key) {
+      const client = await csrfClient(app);
+      await client.post('/api/auth/login').send({ email: emailOf(key), password: TEST_PASSWORD }).expect(200);
+      return client;
+    },
+    anonymous: () => csrfClient(app),
+    async createProject(members = ['requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'], name = 'Quillon sensor head') {
+      const project = await createProject(dataSource, users.admin.id, { name, description: 'Invented project for the API tests.' });
+      for (const key of members) await addMember(dataSource, users.admin, project.id, users[key].id);
+      return project;
+    },
+    async createSpec(projectId, { payload = specPayload(), title = String(payload.title ?? 'Untitled spec'), by = 'requirements' } = {}) {
+      return createSpec(dataSource, users[by], projectId, { title, payload });
+    },
+    async createProposal(specId, by = 'designer') {
+      return createProposal(dataSource, users[by], specId, ruleSet);
+    },
+    async close() {
+      app.closeApp();
+      await dataSource.destroy();
+    },
+  };
+}

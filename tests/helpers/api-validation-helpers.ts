@@ -1,0 +1,28 @@
+/**
+ * Row counts and full dumps of every table, to prove a refused request changed nothing and
+ * that a reopened database file holds what was written. (The app builder, accounts and
+ * signed-in clients live in api-app.ts.)
+ */
+import type { DataSource } from 'typeorm';
+
+async function tableNames(dataSource: DataSource): Promise<string[]> {
+  const rows: { name: string }[] = await dataSource.query("SELECT name FROM sqlite_master WHERE type = 'table' ORDER BY name");
+  return rows.map((r) => r.name);
+}
+
+/** Row count of every table of the database, by table name. */
+export async function countRows(dataSource: DataSource): Promise<Record<string, number>> {
+  const counts: Record<string, number> = {};
+  for (const name of await tableNames(dataSource)) {
+    const [row] = await dataSource.query(`SELECT count(*) AS n FROM "${name}"`);
+    counts[name] = Number(row.n);
+  }
+  return counts;
+}
+
+/** Every row of every table, in insertion order, by table name. */
+export async function dumpTables(dataSource: DataSource): Promise<Record<string, unknown[]>> {
+  const dump: Record<string, unknown[]> = {};
+  for (const name of await tableNames(dataSource)) dump[name] = await dataSource.query(`SELECT * FROM "${name}" ORDER BY rowid`);
+  return dump;
+}

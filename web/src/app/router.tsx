@@ -1,0 +1,51 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { createBrowserRouter, redirect, type LoaderFunction, type RouteObject } from 'react-router-dom';
+import { AppShell } from '../components/layout/app-shell';
+import { paths } from '../config/paths';
+import { meQuery } from '../features/auth/api/auth-queries';
+import { RouteError } from './route-error';
+
+/** What a route module exports (bulletproof-react style): loader and action are bound to the one QueryClient. */
+interface RouteModule {
+  Component: React.ComponentType;
+  loader?: (queryClient: QueryClient) => LoaderFunction;
+  ErrorBoundary?: React.ComponentType;
+}
+
+/** Lazy-loads a route module and binds its loader to the QueryClient. */
+function lazyRoute(queryClient: QueryClient, load: () => Promise<RouteModule>): RouteObject['lazy'] {
+  return async () => {
+    const module = await load();
+    return { Component: module.Component, loader: module.loader?.(queryClient), ErrorBoundary: module.ErrorBoundary };
+  };
+}
+
+export function createRouter(queryClient: QueryClient) {
+  const requireUser: LoaderFunction = async ({ request }) => {
+    const user = await queryClient.ensureQueryData(meQuery());
+    if (!user) {
+      const url = new URL(request.url);
+      throw redirect(paths.signIn.href(url.pathname + url.search));
+    }
+    return null;
+  };
+  return createBrowserRouter([
+    { path: paths.signIn.path, lazy: lazyRoute(queryClient, () => import('../routes/sign-in')), errorElement: <RouteError /> },
+    {
+      path: '/',
+      element: <AppShell />,
+      loader: requireUser,
+      errorElement: <RouteError />,
+      children: [
+        { index: true, lazy: lazyRoute(queryClient, () => import('../routes/workbench')) },
+        { path: paths.project.path, lazy: lazyRoute(queryClient, () => import('../routes/project')) },
+        { path: paths.newSpec.path, lazy: lazyRoute(queryClient, () => import('../routes/spec-new')) },
+        { path: paths.spec.path, lazy: lazyRoute(queryClient, () => import('../routes/spec')) },
+        { path: paths.specHistory.path, lazy: lazyRoute(queryClient, () => import('../routes/spec-history')) },
+        { path: paths.proposal.path, lazy: lazyRoute(queryClient, () => import('../routes/proposal')) },
+        { path: paths.people.path, lazy: lazyRoute(queryClient, () => import('../routes/people')) },
+        { path: '*', element: <RouteError /> },
+      ],
+    },
+  ]);
+}

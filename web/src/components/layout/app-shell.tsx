@@ -1,0 +1,77 @@
+import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
+import { useState } from 'react';
+import { NavLink, Outlet, useNavigate } from 'react-router-dom';
+import { may } from '../../../../shared/workflow/roles';
+import { ROLE_TITLES } from '../../../../shared/workflow/roles';
+import { paths } from '../../config/paths';
+import { meQuery, signOut } from '../../features/auth/api/auth-queries';
+import { cn } from '../../lib/cn';
+import { applyTheme, storedTheme, type ThemeChoice } from '../../lib/theme';
+
+const navClass = ({ isActive }: { isActive: boolean }) =>
+  cn('rounded-md px-3 py-1.5 text-sm', isActive ? 'bg-fern-soft text-fern dark:bg-night dark:text-fern-soft' : 'text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink');
+
+const NEXT_THEME: Record<ThemeChoice, ThemeChoice> = { system: 'light', light: 'dark', dark: 'system' };
+const THEME_WORDS: Record<ThemeChoice, string> = { system: 'Theme: system', light: 'Theme: light', dark: 'Theme: dark' };
+
+/** The signed-in frame: wordmark, navigation the role may use, theme, the user and sign-out. */
+export function AppShell() {
+  const { data: user } = useSuspenseQuery(meQuery());
+  const queryClient = useQueryClient();
+  const navigate = useNavigate();
+  const [theme, setTheme] = useState<ThemeChoice>(storedTheme);
+  if (!user) return null;
+  const onSignOut = async () => {
+    await signOut().catch(() => undefined);
+    queryClient.clear();
+    navigate(paths.signIn.href());
+  };
+  const cycleTheme = () => {
+    const next = NEXT_THEME[theme];
+    applyTheme(next);
+    setTheme(next);
+  };
+  return (
+    <div className="min-h-screen">
+      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:rounded focus:bg-sheet focus:px-3 focus:py-2">
+        Skip to content
+      </a>
+      <header className="border-b border-rule bg-sheet/80 backdrop-blur dark:border-night-rule dark:bg-night-sheet/80">
+        <div className="mx-auto flex max-w-7xl items-center gap-6 px-4 py-2.5">
+          <NavLink to={paths.workbench.href()} className="flex items-center gap-2 text-lg font-medium tracking-tight text-fern dark:text-fern-soft">
+            <img src="/longtail.svg" alt="" className="h-6 w-6" />
+            longtail
+          </NavLink>
+          <nav aria-label="Main" className="flex items-center gap-1">
+            <NavLink to={paths.workbench.href()} end className={navClass}>
+              Workbench
+            </NavLink>
+            {may(user.role, 'users:manage') && (
+              <NavLink to={paths.people.href()} className={navClass}>
+                People
+              </NavLink>
+            )}
+          </nav>
+          <div className="ml-auto flex items-center gap-3 text-sm">
+            <button type="button" onClick={cycleTheme} className="rounded-md px-2 py-1 text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink">
+              {THEME_WORDS[theme]}
+            </button>
+            <span className="hidden text-right leading-tight sm:block">
+              <span className="block">{user.displayName}</span>
+              <span className="block text-xs text-ink-soft dark:text-night-ink-soft">{ROLE_TITLES[user.role]}</span>
+            </span>
+            <button type="button" onClick={onSignOut} className="rounded-md border border-rule px-2.5 py-1 hover:bg-paper dark:border-night-rule dark:hover:bg-night">
+              Sign out
+            </button>
+          </div>
+        </div>
+      </header>
+      <main id="main" className="mx-auto max-w-7xl px-4 py-6">
+        <Outlet />
+      </main>
+      <footer className="mx-auto max-w-7xl px-4 pb-8 text-xs text-ink-soft dark:text-night-ink-soft">
+        Figures are engineering estimates; confirm them by SPICE simulation and bench measurement before committing a design.
+      </footer>
+    </div>
+  );
+}

@@ -1,0 +1,17 @@
+import type { HTMLAttributes, ReactNode } from 'react';
+import { cn } from '../../lib/cn';
+
+/** A panel of content on the paper background. */
+export function Sheet({ title, actions, className, children, ...props }: HTMLAttributes<HTMLElement> & { title?: ReactNode; actions?: ReactNode }) {
+  return (
+    <section className={cn('rounded-lg border border-rule bg-sheet p-4 dark:border-night-rule dark:bg-night-sheet', className)} {...props}>
+      {(title || actions) && (
+        <header className="mb-3 flex items-center justify-between gap-3">
+          {title && <h2 className="text-base font-medium">{title}</h2>}
+          {actions && <div className="flex items-center gap-2">{actions}</div>}
+        </header>
+      )}
+      {children}
+    </section>
+  );
+}

@@ -1,0 +1,30 @@
+import { cn } from '../../lib/cn';
+
+export type VerdictKind = 'holds' | 'short' | 'note' | 'not-applicable' | 'undecided';
+
+const LOOK: Record<VerdictKind, { word: string; glyph: string; className: string }> = {
+  holds: { word: 'Holds', glyph: '✓', className: 'bg-holds-soft text-holds dark:bg-holds/25 dark:text-holds-soft' },
+  short: { word: 'Short', glyph: '✕', className: 'bg-short-soft text-short dark:bg-short/25 dark:text-short-soft' },
+  note: { word: 'Note', glyph: '!', className: 'bg-note-soft text-note dark:bg-note/25 dark:text-note-soft' },
+  'not-applicable': { word: 'N/A', glyph: '–', className: 'bg-paper text-ink-soft dark:bg-night dark:text-night-ink-soft' },
+  undecided: { word: 'Undecided', glyph: '?', className: 'bg-paper text-ink-soft dark:bg-night dark:text-night-ink-soft' },
+};
+
+/** The status language: a word and a glyph with the colour, never colour alone. */
+export function Verdict({ kind, label, className }: { kind: VerdictKind; label?: string; className?: string }) {
+  const look = LOOK[kind];
+  return (
+    <span className={cn('inline-flex items-center gap-1 rounded px-1.5 py-0.5 text-xs font-medium whitespace-nowrap', look.className, className)}>
+      <span aria-hidden="true">{look.glyph}</span>
+      {label ?? look.word}
+    </span>
+  );
+}
+
+/** The verdict of one check: blocking failures are "short", advisory failures a "note". */
+export function checkVerdict(check: { passed: boolean; severity: string; applicable?: boolean; evaluated?: boolean }): VerdictKind {
+  if (check.evaluated === false) return 'undecided';
+  if (check.applicable === false) return 'not-applicable';
+  if (check.passed) return 'holds';
+  return check.severity === 'blocking' ? 'short' : 'note';
+}

@@ -1,0 +1,36 @@
+import { keepPreviousData, queryOptions } from '@tanstack/react-query';
+import type { ProposalState } from '../../../../../shared/workflow/proposal-states';
+import { api } from '../../../config/paths';
+import { apiClient } from '../../../lib/api';
+import type { Items, Page, Project, ProposalSummary, Spec, User } from '../../../lib/api-types';
+
+export const projectKeys = {
+  all: ['projects'] as const,
+  list: () => ['projects', 'list'] as const,
+  detail: (id: number) => ['projects', 'detail', id] as const,
+  specs: (id: number) => ['projects', 'detail', id, 'specs'] as const,
+  members: (id: number) => ['projects', 'detail', id, 'members'] as const,
+  proposals: (id: number, status: ProposalState | 'all', page: number) => ['projects', 'detail', id, 'proposals', status, page] as const,
+};
+
+export const projectListQuery = () => queryOptions({ queryKey: projectKeys.list(), queryFn: () => apiClient.get<Items<Project>>(api.projects) });
+export const projectQuery = (id: number) => queryOptions({ queryKey: projectKeys.detail(id), queryFn: () => apiClient.get<Project>(api.project(id)) });
+export const projectSpecsQuery = (id: number) => queryOptions({ queryKey: projectKeys.specs(id), queryFn: () => apiClient.get<Items<Spec>>(api.projectSpecs(id)) });
+export const projectMembersQuery = (id: number) => queryOptions({ queryKey: projectKeys.members(id), queryFn: () => apiClient.get<Items<User>>(api.members(id)) });
+
+export const PROPOSAL_PAGE_SIZE = 20;
+
+export const projectProposalsQuery = (id: number, status: ProposalState | 'all', page: number) =>
+  queryOptions({
+    queryKey: projectKeys.proposals(id, status, page),
+    queryFn: () => {
+      const query = new URLSearchParams({ page: String(page), pageSize: String(PROPOSAL_PAGE_SIZE) });
+      if (status !== 'all') query.set('status', status);
+      return apiClient.get<Page<ProposalSummary>>(api.projectProposals(id, `?${query}`));
+    },
+    placeholderData: keepPreviousData,
+  });
+
+export function createProject(body: { name: string; description: string }): Promise<Project> {
+  return apiClient.post<Project>(api.projects, body);
+}

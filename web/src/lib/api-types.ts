@@ -1,0 +1,123 @@
+/** Shapes the API answers with (see api/services). Engine shapes come from shared/engine. */
+import type { Design, RecommendResult } from '../../../shared/engine/index';
+import type { Spec as SpecDocument } from '../../../shared/engine/types';
+import type { JsonChange } from '../../../shared/json-diff';
+import type { ProposalEvent, ProposalState } from '../../../shared/workflow/proposal-states';
+import type { Role } from '../../../shared/workflow/roles';
+
+export interface User {
+  id: number;
+  email: string;
+  displayName: string;
+  role: Role;
+  createdAt: string;
+}
+
+export interface Project {
+  id: number;
+  name: string;
+  description: string;
+  createdById: number;
+  createdAt: string;
+}
+
+export interface SpecVersion {
+  id: number;
+  specId: number;
+  version: number;
+  title: string;
+  payload: SpecDocument;
+  createdById: number;
+  createdAt: string;
+}
+
+export interface Spec {
+  id: number;
+  projectId: number;
+  title: string;
+  latestVersion: number;
+  createdById: number;
+  createdAt: string;
+  updatedAt: string;
+}
+
+export interface SpecWithLatest extends Spec {
+  latest: SpecVersion;
+}
+
+export interface SpecDiff {
+  from: number;
+  to: number;
+  changes: JsonChange[];
+}
+
+export interface ProposalSummary {
+  id: number;
+  projectId: number;
+  specId: number;
+  specVersionId: number;
+  engineVersion: string;
+  rulesetVersion: string;
+  recommendedTopology: string | null;
+  status: ProposalState;
+  createdById: number;
+  createdAt: string;
+  updatedAt: string;
+}
+
+export interface Page<T> {
+  items: T[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+export type OptionEvaluation = RecommendResult['options'][number];
+
+export interface Decision {
+  id: number;
+  proposalId: number;
+  kind: 'accept' | 'choose' | 'override';
+  topology: string;
+  design: Design;
+  evaluation: OptionEvaluation | null;
+  reason: string | null;
+  decidedById: number;
+  createdAt: string;
+}
+
+export interface Review {
+  id: number;
+  proposalId: number;
+  decisionId: number;
+  verdict: 'approve' | 'return';
+  comment: string | null;
+  reviewerId: number;
+  createdAt: string;
+}
+
+export interface Proposal extends ProposalSummary {
+  result: RecommendResult;
+  specVersion: { id: number; version: number; title: string; payload: SpecDocument };
+  decisions: Decision[];
+  reviews: Review[];
+  allowedEvents: ProposalEvent[];
+}
+
+export interface AuditEvent {
+  id: number;
+  at: string;
+  actorId: number | null;
+  action: string;
+  entityType: string;
+  entityId: number;
+  projectId: number | null;
+  proposalId: number | null;
+  beforeId: number | null;
+  afterId: number | null;
+  details: Record<string, unknown>;
+}
+
+export interface Items<T> {
+  items: T[];
+}

@@ -1,0 +1,50 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useSuspenseQuery } from '@tanstack/react-query';
+import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { StateBadge } from '../components/ui/state-badge';
+import { PageHeader } from '../components/ui/page-header';
+import { paths } from '../config/paths';
+import { meQuery } from '../features/auth/api/auth-queries';
+import { proposalQuery } from '../features/proposals/api/proposal-queries';
+import { AuditTimeline } from '../features/proposals/components/audit-timeline';
+import { DecisionPanel } from '../features/proposals/components/decision-panel';
+import { RankingView } from '../features/proposals/components/ranking-view';
+import { ReviewPanel } from '../features/proposals/components/review-panel';
+import { RouteError } from '../app/route-error';
+
+export const loader =
+  (queryClient: QueryClient) =>
+  async ({ params }: LoaderFunctionArgs) => {
+    await queryClient.ensureQueryData(proposalQuery(Number(params.proposalId)));
+    return null;
+  };
+
+export function Component() {
+  const proposalId = Number(useParams().proposalId);
+  const { data: proposal } = useSuspenseQuery(proposalQuery(proposalId));
+  const { data: user } = useSuspenseQuery(meQuery());
+  if (!user) return null;
+  return (
+    <>
+      <PageHeader
+        eyebrow={
+          <Link to={paths.spec.href(proposal.specId)} className="hover:underline">
+            {proposal.specVersion.title} · version {proposal.specVersion.version}
+          </Link>
+        }
+        title={`Ranking #${proposal.id}`}
+        actions={<StateBadge state={proposal.status} />}
+      >
+        Engine {proposal.engineVersion} · rule set {proposal.rulesetVersion.slice(0, 12)} · {new Date(proposal.createdAt).toLocaleString()}
+      </PageHeader>
+      <div className="space-y-6">
+        <RankingView proposal={proposal} />
+        <DecisionPanel proposal={proposal} user={user} />
+        <ReviewPanel proposal={proposal} user={user} />
+        <AuditTimeline proposalId={proposal.id} />
+      </div>
+    </>
+  );
+}
+
+export const ErrorBoundary = RouteError;

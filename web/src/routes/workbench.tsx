@@ -1,0 +1,62 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useSuspenseQuery } from '@tanstack/react-query';
+import { Link } from 'react-router-dom';
+import { ROLE_TITLES } from '../../../shared/workflow/roles';
+import { EmptyState } from '../components/ui/feedback';
+import { PageHeader } from '../components/ui/page-header';
+import { paths } from '../config/paths';
+import { meQuery } from '../features/auth/api/auth-queries';
+import { projectListQuery } from '../features/projects/api/project-queries';
+import { NewProjectForm } from '../features/projects/components/new-project-form';
+import { may } from '../../../shared/workflow/roles';
+
+export const loader = (queryClient: QueryClient) => async () => {
+  await queryClient.ensureQueryData(projectListQuery());
+  return null;
+};
+
+/** What each role comes here to do. */
+const ROLE_HINTS = {
+  admin: 'Create projects, add people to them, and manage accounts under People.',
+  requirements: 'Open a project to write or revise a spec, then ask the engine for a proposal.',
+  designer: 'Open a project to weigh ranked tail options and decide.',
+  reviewer: 'Open a project to check decided proposals against their reasons and approve or return them.',
+} as const;
+
+export function Component() {
+  const { data: user } = useSuspenseQuery(meQuery());
+  const { data } = useSuspenseQuery(projectListQuery());
+  if (!user) return null;
+  return (
+    <>
+      <PageHeader title="Workbench" eyebrow={ROLE_TITLES[user.role]}>
+        {ROLE_HINTS[user.role]}
+      </PageHeader>
+      <section aria-labelledby="projects-heading">
+        <h2 id="projects-heading" className="mb-3 text-sm font-medium tracking-wide text-ink-soft uppercase dark:text-night-ink-soft">
+          Your projects
+        </h2>
+        {data.items.length === 0 ? (
+          <EmptyState title="No projects yet">
+            {may(user.role, 'projects:create') ? 'Create the first one below.' : 'An administrator adds you to a project; it then appears here.'}
+          </EmptyState>
+        ) : (
+          <ul className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
+            {data.items.map((project) => (
+              <li key={project.id}>
+                <Link
+                  to={paths.project.href(project.id)}
+                  className="block h-full rounded-lg border border-rule bg-sheet p-4 hover:border-fern dark:border-night-rule dark:bg-night-sheet dark:hover:border-fern-soft"
+                >
+                  <span className="block font-medium">{project.name}</span>
+                  <span className="mt-1 block text-sm text-ink-soft dark:text-night-ink-soft">{project.description || 'No description.'}</span>
+                </Link>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+      {may(user.role, 'projects:create') && <NewProjectForm />}
+    </>
+  );
+}
