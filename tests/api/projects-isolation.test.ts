@@ -129,6 +129,21 @@ describe('when the admin asks for any project’s records, then every one answer
   });
 });
 
+describe('when the admin names a record that does not exist, then 404', () => {
+  test.each([
+    ['PATCH /api/users/:id', 'user-not-found', () => admin.patch(`/api/users/${MISSING_ID}`).send({ displayName: 'Ghost' })],
+    ['POST /api/projects/:id/members', 'project-not-found', () => admin.post(`/api/projects/${MISSING_ID}/members`).send({ userId: api.users.designer.id })],
+    ['DELETE /api/projects/:id/members/:userId (no such project)', 'project-not-found', () => admin.delete(`/api/projects/${MISSING_ID}/members/${api.users.designer.id}`)],
+    ['DELETE /api/projects/:id/members/:userId (not a member)', 'member-not-found', () => admin.delete(`/api/projects/${sallow.id}/members/${api.users.designer.id}`)],
+    ['GET /api/specs/:id/diff (no such version)', 'spec-version-not-found', () => admin.get(`/api/specs/${sallowSpec.id}/diff?from=1&to=9`)],
+  ])('when %s, then 404 %s', async (_title, code, send) => {
+    const response = await send();
+
+    expect(response.status).toBe(404);
+    expect(response.body.code).toBe(code);
+  });
+});
+
 describe('when a role steps outside its part of the workflow in its own project, then 403', () => {
   test('when a reviewer edits a spec, then 403 and the spec keeps its version', async () => {
     const spec = (await reviewer.get(`/api/projects/${quillon.id}/specs`)).body.items[0];

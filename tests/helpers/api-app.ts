@@ -69,8 +69,9 @@ export interface TestApi {
   app: LongtailApp;
   dataSource: DataSource;
   ruleSet: RuleSet;
+  /** The seeded accounts (only those asked for, when BuildOptions.accounts is given). */
   users: Record<AccountKey, PublicUser>;
-  /** A new session: CSRF token fetched, signed in as the account. */
+  /** A new session: CSRF token fetched, signed in as the account. Every sign-in counts toward the app's limit of 30 per address per 15 minutes (api/auth/rate-limit.ts). */
   agentFor(key: AccountKey): Promise<ApiClient>;
   /** A new session with a CSRF token and nobody signed in. */
   anonymous(): Promise<ApiClient>;
@@ -105,6 +106,8 @@ export async function csrfClient(app: LongtailApp): Promise<ApiClient> {
 export interface BuildOptions {
   /** Where the app logs server errors (default: nowhere). */
   log?: (message: string) => void;
+  /** The accounts to seed (default all six; each costs one scrypt hash). */
+  accounts?: readonly AccountKey[];
 }
 
 /** Builds the app on a new in-memory database and seeds the accounts. */
@@ -113,7 +116,7 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
   const ruleSet = await loadRuleSet();
   const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log: options.log ?? (() => {}) });
   const entries = await Promise.all(
-    ACCOUNT_KEYS.map(async (key) => {
+    (options.accounts ?? ACCOUNT_KEYS).map(async (key) => {
       const user = await createUser(dataSource, null, { email: emailOf(key), displayName: `Test ${key}`, role: ACCOUNT_ROLES[key], password: TEST_PASSWORD });
       return [key, user] as const;
     }),

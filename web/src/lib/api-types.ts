@@ -121,3 +121,20 @@ export interface AuditEvent {
 export interface Items<T> {
   items: T[];
 }
+
+/** POST /api/analyze: the engine's figures for one design at its own conditions, with the estimates notice. */
+export type AnalyzeResponse = import('../../../shared/engine/types').AnalyzeResult & { notice: string };
+
+/** POST /api/proposals/:id/decision body. */
+export interface DecisionInput {
+  kind: Decision['kind'];
+  topology?: import('../../../shared/engine/types').TopologyId;
+  design?: Design;
+  reason?: string;
+}
+
+/** POST /api/proposals/:id/review body. */
+export interface ReviewInput {
+  verdict: Review['verdict'];
+  comment?: string;
+}

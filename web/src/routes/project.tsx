@@ -1,5 +1,69 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
+import { data, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { may } from '../../../shared/workflow/roles';
+import { RouteError } from '../app/route-error';
 import { PageHeader } from '../components/ui/page-header';
+import { Sheet } from '../components/ui/sheet';
+import { meQuery } from '../features/auth/api/auth-queries';
+import { userListQuery } from '../features/people/api/user-queries';
+import { projectProposalsQuery, projectQuery, projectSpecsQuery } from '../features/projects/api/project-queries';
+import { NeedsYou } from '../features/projects/components/needs-you';
+import { ProjectMembers } from '../features/projects/components/project-members';
+import { ProposalsSection } from '../features/projects/components/proposals-section';
+import { SpecsSection } from '../features/projects/components/specs-section';
+import { useProposalView } from '../features/projects/hooks/use-proposal-view';
+import { readProposalView, type ProposalFilter } from '../features/projects/utils/proposal-filter';
+
+/** A project id from the URL; anything else names no project. */
+function projectIdFrom(value: string | undefined): number {
+  const id = Number(value);
+  if (!Number.isInteger(id) || id < 1) throw data('No such project', { status: 404 });
+  return id;
+}
+
+/** The project, its specs and the proposals page the URL asks for, fetched before the page shows. */
+export const loader =
+  (queryClient: QueryClient) =>
+  async ({ params, request }: LoaderFunctionArgs) => {
+    const projectId = projectIdFrom(params.projectId);
+    const view = readProposalView(new URL(request.url).searchParams);
+    await Promise.all([
+      queryClient.ensureQueryData(projectQuery(projectId)),
+      queryClient.ensureQueryData(projectSpecsQuery(projectId)),
+      queryClient.ensureQueryData(projectProposalsQuery(projectId, view.status, view.page)),
+    ]);
+    return null;
+  };
 
 export function Component() {
-  return <PageHeader title="Coming next" />;
+  const projectId = projectIdFrom(useParams().projectId);
+  const { data: user } = useSuspenseQuery(meQuery());
+  const { data: project } = useSuspenseQuery(projectQuery(projectId));
+  const { data: specs } = useSuspenseQuery(projectSpecsQuery(projectId));
+  const canManage = user !== null && may(user.role, 'members:manage');
+  const allUsers = useQuery({ ...userListQuery(), enabled: canManage });
+  const view = useProposalView();
+  if (!user) return null;
+  const showProposals = (status: ProposalFilter) => {
+    view.setStatus(status);
+    document.getElementById('proposals')?.scrollIntoView?.({ block: 'start', behavior: 'smooth' });
+  };
+  return (
+    <>
+      <PageHeader title={project.name} eyebrow="Project">
+        {project.description || 'No description.'}
+      </PageHeader>
+      <NeedsYou projectId={projectId} role={user.role} onShow={showProposals} />
+      <div className="mb-6 grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_18rem]">
+        <SpecsSection projectId={projectId} specs={specs.items} canWrite={may(user.role, 'specs:write')} />
+        <Sheet title="People on this project" aria-label="People on this project">
+          <ProjectMembers projectId={projectId} manage={canManage ? { allUsers: allUsers.data?.items, allUsersError: allUsers.error } : undefined} />
+        </Sheet>
+      </div>
+      <ProposalsSection projectId={projectId} specs={specs.items} />
+    </>
+  );
 }
+
+export const ErrorBoundary = RouteError;

@@ -1,5 +1,93 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { keepPreviousData, useQuery, useSuspenseQuery } from '@tanstack/react-query';
+import { useMemo } from 'react';
+import { Link, useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { RouteError } from '../app/route-error';
+import { EmptyState, ErrorPanel, Loading } from '../components/ui/feedback';
 import { PageHeader } from '../components/ui/page-header';
+import { Sheet } from '../components/ui/sheet';
+import { paths } from '../config/paths';
+import { meQuery } from '../features/auth/api/auth-queries';
+import { projectMembersQuery } from '../features/projects/api/project-queries';
+import { specDiffQuery, specQuery, specSchemaQuery, specVersionsQuery } from '../features/specs/api/spec-queries';
+import { ChangesTable } from '../features/specs/components/changes-table';
+import { VersionPicker } from '../features/specs/components/version-picker';
+import type { SchemaNode } from '../features/specs/lib/schema-nodes';
+import { readableChanges } from '../features/specs/lib/spec-changes';
+
+export const loader =
+  (queryClient: QueryClient) =>
+  async ({ params }: LoaderFunctionArgs) => {
+    const specId = Number(params.specId);
+    await Promise.all([queryClient.ensureQueryData(specQuery(specId)), queryClient.ensureQueryData(specVersionsQuery(specId)), queryClient.ensureQueryData(specSchemaQuery())]);
+    return null;
+  };
+
+/** A version number from the query string, if it names one of the versions. */
+function pickedVersion(text: string | null, known: ReadonlySet<number>, fallback: number): number {
+  const n = Number(text);
+  return text !== null && known.has(n) ? n : fallback;
+}
 
 export function Component() {
-  return <PageHeader title="Coming next" />;
+  const specId = Number(useParams().specId);
+  const { data: spec } = useSuspenseQuery(specQuery(specId));
+  const { data: versions } = useSuspenseQuery(specVersionsQuery(specId));
+  const { data: schema } = useSuspenseQuery(specSchemaQuery());
+  const { data: user } = useSuspenseQuery(meQuery());
+  const members = useQuery(projectMembersQuery(spec.projectId));
+  const [params, setParams] = useSearchParams();
+
+  const known = useMemo(() => new Set(versions.items.map((v) => v.version)), [versions]);
+  const latest = Math.max(...versions.items.map((v) => v.version));
+  const to = pickedVersion(params.get('to'), known, latest);
+  const from = pickedVersion(params.get('from'), known, Math.max(1, latest - 1));
+  const comparable = versions.items.length > 1 && from !== to;
+  const diff = useQuery({ ...specDiffQuery(specId, from, to), enabled: comparable, placeholderData: keepPreviousData });
+
+  const rows = useMemo(() => {
+    if (!diff.data) return [];
+    const payloadOf = (n: number) => versions.items.find((v) => v.version === n)?.payload;
+    return readableChanges(schema as SchemaNode, diff.data.changes, payloadOf(diff.data.from), payloadOf(diff.data.to));
+  }, [diff.data, versions, schema]);
+
+  const authorName = (id: number) => (id === user?.id ? `${user.displayName} (you)` : (members.data?.items.find((m) => m.id === id)?.displayName ?? `User #${id}`));
+  const onPick = (nextFrom: number, nextTo: number) => setParams({ from: String(nextFrom), to: String(nextTo) }, { replace: true });
+
+  return (
+    <>
+      <PageHeader
+        eyebrow={
+          <Link to={paths.spec.href(specId)} className="hover:underline">
+            {spec.title}
+          </Link>
+        }
+        title="Version history"
+      >
+        Every save is a new version; nothing is overwritten. Pick two versions to see what changed.
+      </PageHeader>
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+        <Sheet title="Versions">
+          <VersionPicker versions={versions.items} authorName={authorName} from={from} to={to} onPick={onPick} />
+        </Sheet>
+        <Sheet title={comparable ? `What changed from version ${from} to version ${to}` : 'What changed'} aria-busy={diff.isFetching || undefined}>
+          {versions.items.length < 2 ? (
+            <EmptyState title="Only one version so far">Save the spec again and the differences between versions show here.</EmptyState>
+          ) : from === to ? (
+            <EmptyState title="The same version is picked twice">Pick a different version under From or To.</EmptyState>
+          ) : diff.isPending ? (
+            <Loading what="Comparing the versions" />
+          ) : diff.isError ? (
+            <ErrorPanel error={diff.error} retry={() => void diff.refetch()} />
+          ) : rows.length === 0 ? (
+            <EmptyState title="No differences">Versions {from} and {to} hold the same values.</EmptyState>
+          ) : (
+            <ChangesTable rows={rows} from={diff.data.from} to={diff.data.to} />
+          )}
+        </Sheet>
+      </div>
+    </>
+  );
 }
+
+export const ErrorBoundary = RouteError;

@@ -1,5 +1,77 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useQuery, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Link, useLocation, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { may } from '../../../shared/workflow/roles';
+import { RouteError } from '../app/route-error';
 import { PageHeader } from '../components/ui/page-header';
+import { paths } from '../config/paths';
+import { meQuery } from '../features/auth/api/auth-queries';
+import { projectKeys, projectMembersQuery, projectQuery } from '../features/projects/api/project-queries';
+import { saveSpecVersion, specKeys, specQuery, specSchemaQuery } from '../features/specs/api/spec-queries';
+import { RankButton } from '../features/specs/components/rank-button';
+import { SpecForm, type SpecDraft } from '../features/specs/components/spec-form';
+import { When } from '../features/specs/components/when';
+import { specBody } from '../features/specs/lib/spec-body';
+
+export const loader =
+  (queryClient: QueryClient) =>
+  async ({ params }: LoaderFunctionArgs) => {
+    await Promise.all([queryClient.ensureQueryData(specQuery(Number(params.specId))), queryClient.ensureQueryData(specSchemaQuery())]);
+    return null;
+  };
+
+const LINK_BUTTON =
+  'inline-flex items-center rounded-md border border-rule bg-sheet px-3.5 py-2 text-sm font-medium hover:bg-paper dark:border-night-rule dark:bg-night-sheet dark:hover:bg-night';
 
 export function Component() {
-  return <PageHeader title="Coming next" />;
+  const specId = Number(useParams().specId);
+  const location = useLocation();
+  const { data: spec } = useSuspenseQuery(specQuery(specId));
+  const { data: user } = useSuspenseQuery(meQuery());
+  const project = useQuery(projectQuery(spec.projectId));
+  const members = useQuery(projectMembersQuery(spec.projectId));
+  const queryClient = useQueryClient();
+  const [dirty, setDirty] = useState(false);
+  const [savedVersion, setSavedVersion] = useState<number | null>((location.state as { savedVersion?: number } | null)?.savedVersion ?? null);
+  if (!user) return null;
+
+  const canWrite = may(user.role, 'specs:write');
+  const canRank = may(user.role, 'proposals:create');
+  const author = spec.latest.createdById === user.id ? 'you' : (members.data?.items.find((m) => m.id === spec.latest.createdById)?.displayName ?? `user #${spec.latest.createdById}`);
+
+  const onSave = async (draft: SpecDraft) => {
+    const saved = await saveSpecVersion(specId, specBody(draft));
+    queryClient.setQueryData(specKeys.detail(specId), saved);
+    await Promise.all([queryClient.invalidateQueries({ queryKey: specKeys.detail(specId) }), queryClient.invalidateQueries({ queryKey: projectKeys.specs(spec.projectId) })]);
+    setSavedVersion(saved.latestVersion);
+  };
+  const note = dirty ? 'Unsaved changes.' : savedVersion === spec.latestVersion ? `✓ Saved as version ${savedVersion}.` : null;
+
+  return (
+    <>
+      <PageHeader
+        eyebrow={
+          <Link to={paths.project.href(spec.projectId)} className="hover:underline">
+            {project.data?.name ?? 'Project'}
+          </Link>
+        }
+        title={spec.title}
+        actions={
+          <div className="flex items-start gap-2">
+            <Link to={paths.specHistory.href(specId)} className={LINK_BUTTON}>
+              History ({spec.latestVersion} {spec.latestVersion === 1 ? 'version' : 'versions'})
+            </Link>
+            {canRank && <RankButton specId={specId} version={spec.latestVersion} unsaved={dirty} />}
+          </div>
+        }
+      >
+        Version {spec.latestVersion} · saved <When at={spec.latest.createdAt} /> by {author}
+        {!canWrite && ' · read-only: specs are edited by systems engineers'}
+      </PageHeader>
+      <SpecForm key={specId} initial={spec.latest.payload as unknown as SpecDraft} onSave={canWrite ? onSave : undefined} saveLabel="Save as new version" note={note} onDirtyChange={setDirty} />
+    </>
+  );
 }
+
+export const ErrorBoundary = RouteError;

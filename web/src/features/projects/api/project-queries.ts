@@ -2,7 +2,7 @@ import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { ProposalState } from '../../../../../shared/workflow/proposal-states';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Items, Page, Project, ProposalSummary, Spec, User } from '../../../lib/api-types';
+import type { Items, Page, Project, ProposalSummary, Spec, SpecVersion, User } from '../../../lib/api-types';
 
 export const projectKeys = {
   all: ['projects'] as const,
@@ -11,6 +11,8 @@ export const projectKeys = {
   specs: (id: number) => ['projects', 'detail', id, 'specs'] as const,
   members: (id: number) => ['projects', 'detail', id, 'members'] as const,
   proposals: (id: number, status: ProposalState | 'all', page: number) => ['projects', 'detail', id, 'proposals', status, page] as const,
+  proposalCount: (id: number, status: ProposalState) => ['projects', 'detail', id, 'proposal-count', status] as const,
+  specVersions: (id: number, specId: number) => ['projects', 'detail', id, 'specs', specId, 'versions'] as const,
 };
 
 export const projectListQuery = () => queryOptions({ queryKey: projectKeys.list(), queryFn: () => apiClient.get<Items<Project>>(api.projects) });
@@ -33,4 +35,33 @@ export const projectProposalsQuery = (id: number, status: ProposalState | 'all',
 
 export function createProject(body: { name: string; description: string }): Promise<Project> {
   return apiClient.post<Project>(api.projects, body);
+}
+
+/** How many proposals of a project are in a state: one row asked for, `total` read (the "what needs you" hint). */
+export const projectProposalCountQuery = (id: number, status: ProposalState) =>
+  queryOptions({
+    queryKey: projectKeys.proposalCount(id, status),
+    queryFn: async () => {
+      const query = new URLSearchParams({ status, page: '1', pageSize: '1' });
+      return (await apiClient.get<Page<ProposalSummary>>(api.projectProposals(id, `?${query}`))).total;
+    },
+  });
+
+/**
+ * A spec's versions, for the version number of a proposal's `specVersionId` (the proposal list
+ * names the version by id only). Under the project's specs key, so a spec change refreshes it.
+ */
+export const projectSpecVersionsQuery = (projectId: number, specId: number) =>
+  queryOptions({
+    queryKey: projectKeys.specVersions(projectId, specId),
+    queryFn: () => apiClient.get<Items<SpecVersion>>(api.specVersions(specId)),
+    staleTime: 5 * 60_000,
+  });
+
+export function addMember(projectId: number, userId: number): Promise<unknown> {
+  return apiClient.post(api.members(projectId), { userId });
+}
+
+export function removeMember(projectId: number, userId: number): Promise<void> {
+  return apiClient.delete<void>(api.member(projectId, userId));
 }

@@ -1,6 +1,53 @@
+import { may } from '../../../../../shared/workflow/roles';
+import { Sheet } from '../../../components/ui/sheet';
 import type { Proposal, User } from '../../../lib/api-types';
+import { useReviewMutation } from '../api/decision-mutations';
+import { usePersonName } from './audit/use-person-name';
+import { decidedOption, latestDecision } from './decision/decided-option';
+import { DecisionSummary } from './decision/decision-summary';
+import { CheckList } from './review/check-list';
+import { PastReviews } from './review/past-reviews';
+import { ReviewForm } from './review/review-form';
 
 /** The reviewer's verdict on the latest decision: approve, or return with a comment. */
-export function ReviewPanel(_props: { proposal: Proposal; user: User }) {
-  return null;
+export function ReviewPanel({ proposal, user }: { proposal: Proposal; user: User }) {
+  const mutation = useReviewMutation(proposal.id);
+  const nameOf = usePersonName(proposal.projectId, user);
+  const decision = latestDecision(proposal);
+  const canReview = may(user.role, 'proposals:review') && (proposal.allowedEvents.includes('approve') || proposal.allowedEvents.includes('return'));
+
+  if (canReview && decision) {
+    const option = decidedOption(proposal, decision);
+    return (
+      <Sheet title="Review the decision" aria-label="Review the decision">
+        <div className="space-y-5">
+          <DecisionSummary proposal={proposal} decision={decision} nameOf={nameOf} showChecks={false} />
+          {option ? (
+            <CheckList checks={option.checks} caption={decision.kind === 'override' ? 'Every check of the designer’s values, as the server ran them' : 'Every check of the decided option, as ranked'} />
+          ) : (
+            <p className="text-sm text-ink-soft">No checks were kept with this decision.</p>
+          )}
+          <ReviewForm option={option} mutation={mutation} />
+          {proposal.reviews.length > 0 && (
+            <section aria-label="Earlier reviews">
+              <h3 className="mb-2 text-sm font-medium">Earlier reviews</h3>
+              <PastReviews proposal={proposal} nameOf={nameOf} />
+            </section>
+          )}
+        </div>
+      </Sheet>
+    );
+  }
+
+  if (proposal.reviews.length === 0 && !mutation.isSuccess) return null;
+  return (
+    <Sheet title="Reviews" aria-label="Reviews">
+      {mutation.isSuccess && (
+        <p role="status" className="mb-3 rounded-md bg-holds-soft p-2 text-sm text-holds dark:bg-holds/20 dark:text-holds-soft">
+          {mutation.data.status === 'approved' ? 'Approved: the record is closed.' : 'Returned to the designer with your comment.'}
+        </p>
+      )}
+      <PastReviews proposal={proposal} nameOf={nameOf} />
+    </Sheet>
+  );
 }

@@ -1,0 +1,89 @@
+// @vitest-environment jsdom
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { cleanup, configure, render, screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
+import { ProjectMembers } from '../../../web/src/features/projects/components/project-members';
+import type { User } from '../../../web/src/lib/api-types';
+
+configure({ asyncUtilTimeout: 5000 });
+
+const person = (id: number, displayName: string, role: User['role']): User => ({ id, email: `${id}@example.test`, displayName, role, createdAt: '2026-01-01T00:00:00Z' });
+const PRIYA = person(3, 'Priya Valcourt', 'designer');
+const SAMIR = person(4, 'Samir Edelstein', 'reviewer');
+
+let members: User[] = [];
+let sent: string[] = [];
+let unmocked: string[] = [];
+
+/** A tiny member store behind the project's member endpoints. */
+beforeEach(() => {
+  members = [PRIYA];
+  sent = [];
+  unmocked = [];
+  vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
+    const key = `${init?.method ?? 'GET'} ${String(input)}`;
+    sent.push(key);
+    const json = (status: number, body: unknown) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
+    if (key === 'GET /api/auth/csrf') return json(200, { token: 't' });
+    if (key === 'GET /api/projects/1/members') return json(200, { items: members });
+    if (key === 'POST /api/projects/1/members') {
+      const { userId } = JSON.parse(String(init?.body)) as { userId: number };
+      members = [...members, [PRIYA, SAMIR].find((u) => u.id === userId)!];
+      return json(201, { id: 1, projectId: 1, userId });
+    }
+    if (key === 'DELETE /api/projects/1/members/3') {
+      members = members.filter((m) => m.id !== 3);
+      return new Response(null, { status: 204 });
+    }
+    unmocked.push(key);
+    return json(599, { error: 'not mocked' });
+  });
+});
+
+afterEach(() => {
+  cleanup();
+  vi.unstubAllGlobals();
+  expect(unmocked, 'requests nobody mocked').toEqual([]);
+});
+
+function renderMembers(manage?: { allUsers: User[] }) {
+  const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+  render(
+    <QueryClientProvider client={queryClient}>
+      <ProjectMembers projectId={1} manage={manage} />
+    </QueryClientProvider>,
+  );
+}
+
+describe('people on a project', () => {
+  test('when anyone but an admin looks, then members show with role titles and nothing to change', async () => {
+    renderMembers();
+    expect(await screen.findByText('Priya Valcourt')).toBeTruthy();
+    expect(screen.getByText('Circuit designer')).toBeTruthy();
+    expect(screen.queryByRole('button', { name: /Remove/ })).toBeNull();
+    expect(screen.queryByLabelText('Add a person')).toBeNull();
+  });
+
+  test('when an admin adds someone, then only non-members are offered and the list is fetched again', async () => {
+    renderMembers({ allUsers: [PRIYA, SAMIR] });
+    const select = await screen.findByLabelText('Add a person');
+    expect(within(select).queryByRole('option', { name: /Priya/ })).toBeNull();
+    await userEvent.selectOptions(select, String(SAMIR.id));
+    await userEvent.click(screen.getByRole('button', { name: 'Add' }));
+
+    expect(await screen.findByText('Samir Edelstein')).toBeTruthy();
+    expect(sent.filter((k) => k === 'GET /api/projects/1/members')).toHaveLength(2);
+  });
+
+  test('when an admin removes someone, then it is confirmed first and the list is fetched again', async () => {
+    renderMembers({ allUsers: [PRIYA, SAMIR] });
+    await userEvent.click(await screen.findByRole('button', { name: 'Remove Priya Valcourt' }));
+    expect(sent).not.toContain('DELETE /api/projects/1/members/3');
+    const confirm = screen.getByRole('group', { name: 'Confirm removing Priya Valcourt' });
+    await userEvent.click(within(confirm).getByRole('button', { name: 'Remove' }));
+
+    expect(await screen.findByText('Nobody is on this project yet.')).toBeTruthy();
+    expect(sent).toContain('DELETE /api/projects/1/members/3');
+  });
+});

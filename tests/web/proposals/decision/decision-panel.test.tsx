@@ -1,0 +1,165 @@
+// @vitest-environment jsdom
+import { cleanup, screen, waitFor, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { afterEach, describe, expect, test, vi } from 'vitest';
+import { DecisionPanel } from '../../../../web/src/features/proposals/components/decision-panel';
+import { mockFetch, type Call } from './fixtures/fetch-mock';
+import { DESIGNER, proposalFixture, RANKING, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
+import { renderWithClient } from './fixtures/render';
+
+const MEMBERS = { 'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER] } }) };
+
+let fetchMock: ReturnType<typeof mockFetch>;
+
+afterEach(() => {
+  cleanup();
+  expect(fetchMock.unmocked).toEqual([]);
+  vi.unstubAllGlobals();
+});
+
+/** The analysis of a design: the ranked option's own figures, with the tail current marked so the test can find it. */
+function analyzeAnswer(call: Call) {
+  const design = call.body as { tail: { topology: string } };
+  const predicted = rankedOptionOf(design.tail.topology).predicted!;
+  return { body: { ...predicted, tailCurrentA: 1.234e-3, notice: RANKING.notice } };
+}
+
+describe('DecisionPanel', () => {
+  test('when choosing another option without a reason, then the reason is asked for inline and nothing is sent', async () => {
+    fetchMock = mockFetch({ ...MEMBERS });
+    const user = userEvent.setup();
+    renderWithClient(<DecisionPanel proposal={proposalFixture()} user={DESIGNER} />);
+
+    await user.click(screen.getByRole('radio', { name: 'Choose another ranked option' }));
+    await user.selectOptions(screen.getByRole('combobox', { name: 'Ranked option' }), 'wilson');
+    await user.click(screen.getByRole('button', { name: /Record decision/ }));
+
+    const reason = screen.getByRole('textbox', { name: /Reason/ });
+    expect(reason.getAttribute('aria-invalid')).toBe('true');
+    expect(screen.getByText(/Give a reason/)).toBeTruthy();
+    expect(document.activeElement).toBe(reason);
+    expect(fetchMock.to('POST', '/api/proposals/2/decision')).toHaveLength(0);
+  });
+
+  test('when using own values without a reason, then the reason is asked for inline and nothing is sent', async () => {
+    fetchMock = mockFetch({ ...MEMBERS, 'POST /api/analyze': analyzeAnswer });
+    const user = userEvent.setup();
+    renderWithClient(<DecisionPanel proposal={proposalFixture()} user={DESIGNER} />);
+
+    await user.click(screen.getByRole('radio', { name: 'Use my own values' }));
+    await user.click(screen.getByRole('button', { name: /Record decision/ }));
+
+    expect(screen.getByText(/Give a reason/)).toBeTruthy();
+    expect(fetchMock.to('POST', '/api/proposals/2/decision')).toHaveLength(0);
+  });
+
+  test('when accepting, then no reason is needed and the recommendation is sent', async () => {
+    fetchMock = mockFetch({ ...MEMBERS, 'POST /api/proposals/2/decision': () => ({ status: 201, body: proposalFixture({ status: 'decided', allowedEvents: ['approve', 'return'] }) }) });
+    const user = userEvent.setup();
+    renderWithClient(<DecisionPanel proposal={proposalFixture()} user={DESIGNER} />);
+
+    expect((screen.getByRole('radio', { name: 'Accept the recommendation' }) as HTMLInputElement).checked).toBe(true);
+    await user.click(screen.getByRole('button', { name: /Record decision: accept the degenerated mirror/ }));
+
+    await waitFor(() => expect(fetchMock.to('POST', '/api/proposals/2/decision')).toHaveLength(1));
+    expect(fetchMock.to('POST', '/api/proposals/2/decision')[0].body).toEqual({ kind: 'accept' });
+  });
+
+  test('when nothing is recommended, then accepting is disabled with the reason why', () => {
+    fetchMock = mockFetch({ ...MEMBERS });
+    renderWithClient(<DecisionPanel proposal={proposalFixture({ result: { ...RANKING, recommended: null } })} user={DESIGNER} />);
+
+    const accept = screen.getByRole('radio', { name: 'Accept the recommendation' }) as HTMLInputElement;
+    expect(accept.disabled).toBe(true);
+    expect(accept.getAttribute('aria-describedby')).toBeTruthy();
+    expect(document.getElementById(accept.getAttribute('aria-describedby')!)?.textContent).toMatch(/No option passes every blocking check/);
+  });
+
+  test('when a resistor is typed in engineering notation, then the parsed ohms go to the analysis once typing pauses and its figures are shown', async () => {
+    fetchMock = mockFetch({ ...MEMBERS, 'POST /api/analyze': analyzeAnswer });
+    const user = userEvent.setup();
+    renderWithClient(<DecisionPanel proposal={proposalFixture()} user={DESIGNER} />);
+
+    await user.click(screen.getByRole('radio', { name: 'Use my own values' }));
+    const collector = screen.getByRole('textbox', { name: 'Collector resistor' });
+    expect((collector as HTMLInputElement).value).toBe('2.32 kΩ');
+    await user.clear(collector);
+    await user.type(collector, '4k7');
+
+    expect(screen.getByText('= 4.7 kΩ')).toBeTruthy();
+    await waitFor(() => expect(fetchMock.to('POST', '/api/analyze').at(-1)?.body).toMatchObject({ collectorResistanceOhm: 4700 }));
+    const sent = fetchMock.to('POST', '/api/analyze').map((c) => (c.body as { collectorResistanceOhm: number }).collectorResistanceOhm);
+    // Debounced: the half-typed values (4 Ω, 4 kΩ) are never asked for.
+    expect(sent).not.toContain(4);
+    expect(sent).not.toContain(4000);
+    expect(fetchMock.to('POST', '/api/analyze').at(-1)?.body).toMatchObject({
+      tail: rankedOptionOf('degenerated-mirror').design!.tail,
+      inputCommonModeV: rankedOptionOf('degenerated-mirror').design!.inputCommonModeV,
+    });
+
+    const figures = screen.getByRole('table', { name: /Key figures/ });
+    const tailRow = within(figures).getByRole('row', { name: /Tail current/ });
+    await waitFor(() => expect(tailRow.textContent).toContain('1.23 mA'));
+    expect(tailRow.textContent).toContain('963 µA');
+  });
+
+  test('when a value cannot be read, then the field says why and no analysis is asked for it', async () => {
+    fetchMock = mockFetch({ ...MEMBERS, 'POST /api/analyze': analyzeAnswer });
+    const user = userEvent.setup();
+    renderWithClient(<DecisionPanel proposal={proposalFixture()} user={DESIGNER} />);
+
+    await user.click(screen.getByRole('radio', { name: 'Use my own values' }));
+    const reference = screen.getByRole('textbox', { name: 'Reference resistor' });
+    await user.clear(reference);
+    await user.type(reference, '12 V');
+
+    expect(reference.getAttribute('aria-invalid')).toBe('true');
+    expect(screen.getByText(/unexpected unit "V"/)).toBeTruthy();
+    await new Promise((resolve) => setTimeout(resolve, 500));
+    const asked = fetchMock.to('POST', '/api/analyze').map((c) => (c.body as { tail: { referenceResistanceOhm: number } }).tail.referenceResistanceOhm);
+    expect(asked).toEqual([13700]);
+    expect(screen.getByText('Waiting for readable values')).toBeTruthy();
+  });
+
+  test('when the server answers 409 on submit, then its message is shown and the reason is kept', async () => {
+    const message = 'Proposal 2 is decided: it cannot decide now. Allowed now: approve, return.';
+    fetchMock = mockFetch({ ...MEMBERS, 'POST /api/proposals/2/decision': () => ({ status: 409, body: { error: message, code: 'invalid-transition', details: [] } }) });
+    const user = userEvent.setup();
+    renderWithClient(<DecisionPanel proposal={proposalFixture()} user={DESIGNER} />);
+
+    await user.click(screen.getByRole('radio', { name: 'Choose another ranked option' }));
+    await user.selectOptions(screen.getByRole('combobox', { name: 'Ranked option' }), 'wilson');
+    await user.type(screen.getByRole('textbox', { name: /Reason/ }), 'Wilson parts are already on the BOM.');
+    await user.click(screen.getByRole('button', { name: /Record decision: choose the wilson mirror/ }));
+
+    const alert = await screen.findByRole('alert');
+    expect(alert.textContent).toContain(message);
+    expect((screen.getByRole('textbox', { name: /Reason/ }) as HTMLTextAreaElement).value).toBe('Wilson parts are already on the BOM.');
+    expect((screen.getByRole('combobox', { name: 'Ranked option' }) as HTMLSelectElement).value).toBe('wilson');
+    expect(fetchMock.to('POST', '/api/proposals/2/decision')[0].body).toEqual({ kind: 'choose', topology: 'wilson', reason: 'Wilson parts are already on the BOM.' });
+  });
+
+  test('when an override is recorded, then the edited design is sent with the reason', async () => {
+    fetchMock = mockFetch({
+      ...MEMBERS,
+      'POST /api/analyze': analyzeAnswer,
+      'POST /api/proposals/2/decision': () => ({ status: 201, body: proposalFixture({ status: 'decided', allowedEvents: ['approve', 'return'] }) }),
+      'GET /api/proposals/2': () => ({ body: proposalFixture({ status: 'decided', allowedEvents: ['approve', 'return'] }) }),
+    });
+    const user = userEvent.setup();
+    renderWithClient(<DecisionPanel proposal={proposalFixture()} user={DESIGNER} />);
+
+    await user.click(screen.getByRole('radio', { name: 'Use my own values' }));
+    const emitter = screen.getByRole('textbox', { name: 'Mirror emitter resistor' });
+    await user.clear(emitter);
+    await user.type(emitter, '2k2');
+    await user.type(screen.getByRole('textbox', { name: /Reason/ }), 'Twice the degeneration for drift.');
+    await user.click(screen.getByRole('button', { name: /Record decision: own values/ }));
+
+    await waitFor(() => expect(fetchMock.to('POST', '/api/proposals/2/decision')).toHaveLength(1));
+    const body = fetchMock.to('POST', '/api/proposals/2/decision')[0].body as { kind: string; reason: string; design: { tail: unknown } };
+    expect(body.kind).toBe('override');
+    expect(body.reason).toBe('Twice the degeneration for drift.');
+    expect(body.design.tail).toEqual({ topology: 'degenerated-mirror', referenceResistanceOhm: 13700, emitterResistanceOhm: 2200 });
+  });
+});

@@ -1,0 +1,86 @@
+// @vitest-environment jsdom
+import { cleanup, screen, waitFor, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { afterEach, describe, expect, test, vi } from 'vitest';
+import { ReviewPanel } from '../../../../web/src/features/proposals/components/review-panel';
+import { mockFetch } from './fixtures/fetch-mock';
+import { chooseDecision, decidedProposal, DESIGNER, proposalFixture, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
+import { renderWithClient } from './fixtures/render';
+
+const MEMBERS = { 'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER] } }) };
+
+let fetchMock: ReturnType<typeof mockFetch>;
+
+afterEach(() => {
+  cleanup();
+  expect(fetchMock.unmocked).toEqual([]);
+  vi.unstubAllGlobals();
+});
+
+describe('ReviewPanel', () => {
+  test('when returning without a comment, then the comment is asked for and nothing is sent; with one, the return is sent', async () => {
+    const returned = proposalFixture({ status: 'returned', allowedEvents: ['decide'], decisions: [chooseDecision('widlar')] });
+    fetchMock = mockFetch({ ...MEMBERS, 'POST /api/proposals/2/review': () => ({ status: 201, body: returned }) });
+    const user = userEvent.setup();
+    renderWithClient(<ReviewPanel proposal={decidedProposal(chooseDecision('widlar'))} user={REVIEWER} />);
+
+    await user.click(screen.getByRole('button', { name: 'Return to designer' }));
+    const comment = screen.getByRole('textbox', { name: /Comment/ });
+    expect(comment.getAttribute('aria-invalid')).toBe('true');
+    expect(screen.getByText(/a return needs a comment/)).toBeTruthy();
+    expect(document.activeElement).toBe(comment);
+    expect(fetchMock.to('POST', '/api/proposals/2/review')).toHaveLength(0);
+
+    await user.type(comment, 'The Widlar misses the rejection target by 13 dB.');
+    await user.click(screen.getByRole('button', { name: 'Return to designer' }));
+    await waitFor(() => expect(fetchMock.to('POST', '/api/proposals/2/review')).toHaveLength(1));
+    expect(fetchMock.to('POST', '/api/proposals/2/review')[0].body).toEqual({ verdict: 'return', comment: 'The Widlar misses the rejection target by 13 dB.' });
+  });
+
+  test('when approving, then no comment is needed', async () => {
+    fetchMock = mockFetch({ ...MEMBERS, 'POST /api/proposals/2/review': () => ({ status: 201, body: proposalFixture({ status: 'approved', allowedEvents: [] }) }) });
+    const user = userEvent.setup();
+    renderWithClient(<ReviewPanel proposal={decidedProposal(chooseDecision('wilson'))} user={REVIEWER} />);
+
+    await user.click(screen.getByRole('button', { name: 'Approve' }));
+    await waitFor(() => expect(fetchMock.to('POST', '/api/proposals/2/review')).toHaveLength(1));
+    expect(fetchMock.to('POST', '/api/proposals/2/review')[0].body).toEqual({ verdict: 'approve' });
+  });
+
+  test('when the decided option is shown, then every one of its checks is listed with verdict, reason and margin, failures first', async () => {
+    fetchMock = mockFetch({ ...MEMBERS });
+    renderWithClient(<ReviewPanel proposal={decidedProposal(chooseDecision('widlar'))} user={REVIEWER} />);
+
+    const table = screen.getByRole('table', { name: /Every check of the decided option/ });
+    const rows = within(table).getAllByRole('row').slice(1);
+    expect(rows).toHaveLength(rankedOptionOf('widlar').checks.length);
+    expect(rows[0].textContent).toMatch(/Short/);
+    expect(rows[0].textContent).toMatch(/CMRR target/);
+    expect(rows[0].textContent).toMatch(/13.2 dB short/);
+    expect(rows[0].textContent).toContain('−13.2 dB');
+    expect(await screen.findByText('Priya Valcourt')).toBeTruthy();
+  });
+
+  test('when the server refuses with own-decision, then its message is shown in place and the comment kept', async () => {
+    fetchMock = mockFetch({ ...MEMBERS, 'POST /api/proposals/2/review': () => ({ status: 403, body: { error: 'Nobody reviews their own decision.', code: 'own-decision', details: [] } }) });
+    const user = userEvent.setup();
+    renderWithClient(<ReviewPanel proposal={decidedProposal(chooseDecision('wilson'))} user={REVIEWER} />);
+
+    await user.type(screen.getByRole('textbox', { name: /Comment/ }), 'Fine by me.');
+    await user.click(screen.getByRole('button', { name: 'Approve' }));
+
+    const alert = await screen.findByRole('alert');
+    expect(alert.textContent).toContain('Nobody reviews their own decision.');
+    expect((screen.getByRole('textbox', { name: /Comment/ }) as HTMLTextAreaElement).value).toBe('Fine by me.');
+  });
+
+  test('when the viewer is a designer, then there is no review form, only the past reviews', async () => {
+    const review = { id: 5, proposalId: 2, decisionId: 11, verdict: 'return' as const, comment: 'Check the low end.', reviewerId: REVIEWER.id, createdAt: '2026-03-02T10:00:00.000Z' };
+    fetchMock = mockFetch({ ...MEMBERS });
+    renderWithClient(<ReviewPanel proposal={proposalFixture({ status: 'returned', decisions: [chooseDecision('wilson')], reviews: [review] })} user={DESIGNER} />);
+
+    expect(screen.queryByRole('button', { name: 'Approve' })).toBeNull();
+    expect(screen.getByText('Check the low end.')).toBeTruthy();
+    expect(await screen.findByText('Samir Edelstein')).toBeTruthy();
+  });
+});

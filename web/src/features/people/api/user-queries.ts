@@ -1,0 +1,28 @@
+import { queryOptions } from '@tanstack/react-query';
+import type { Role } from '../../../../../shared/workflow/roles';
+import { api } from '../../../config/paths';
+import { apiClient } from '../../../lib/api';
+import type { Items, User } from '../../../lib/api-types';
+
+export const userKeys = {
+  all: ['users'] as const,
+  list: () => ['users', 'list'] as const,
+};
+
+/** Every account (admins only: anyone else gets a 403). */
+export const userListQuery = () => queryOptions({ queryKey: userKeys.list(), queryFn: () => apiClient.get<Items<User>>(api.users) });
+
+export interface NewUser {
+  email: string;
+  displayName: string;
+  role: Role;
+  password: string;
+}
+
+export function createUser(body: NewUser): Promise<User> {
+  return apiClient.post<User>(api.users, body);
+}
+
+export function updateUser(id: number, changes: { displayName?: string; role?: Role }): Promise<User> {
+  return apiClient.patch<User>(api.user(id), changes);
+}

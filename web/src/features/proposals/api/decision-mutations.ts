@@ -1,0 +1,55 @@
+/**
+ * The workflow's writes (decide, review) and the what-if analysis behind the override editor.
+ * Mutations answer with the whole proposal: it goes into the cache, then every proposal query
+ * is invalidated and awaited so the page shows the new state before the mutation settles.
+ */
+import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Design } from '../../../../../shared/engine/types';
+import { api } from '../../../config/paths';
+import { apiClient } from '../../../lib/api';
+import type { AnalyzeResponse, DecisionInput, Proposal, ReviewInput } from '../../../lib/api-types';
+import { proposalKeys } from './proposal-queries';
+
+/** What-if keys hold the design itself (as JSON), so a changed value is a new query and a stale answer is never shown for it. */
+export const whatIfKeys = {
+  all: ['what-if'] as const,
+  design: (designJson: string) => ['what-if', 'design', designJson] as const,
+};
+
+/** The engine's nominal figures for a design; the engine is deterministic, so an answer never goes stale. */
+export const whatIfQuery = (designJson: string) =>
+  queryOptions({
+    queryKey: whatIfKeys.design(designJson),
+    queryFn: () => apiClient.post<AnalyzeResponse>(api.analyze, JSON.parse(designJson) as Design),
+    staleTime: Infinity,
+    gcTime: 60_000,
+    retry: false,
+    placeholderData: keepPreviousData,
+  });
+
+export function decideProposal(proposalId: number, body: DecisionInput): Promise<Proposal> {
+  return apiClient.post<Proposal>(api.decision(proposalId), body);
+}
+
+export function reviewProposal(proposalId: number, body: ReviewInput): Promise<Proposal> {
+  return apiClient.post<Proposal>(api.review(proposalId), body);
+}
+
+/** Puts the server's answer in the cache, then refreshes every proposal query (the audit trail included). */
+function useSettleProposal(proposalId: number) {
+  const queryClient = useQueryClient();
+  return async (proposal: Proposal) => {
+    queryClient.setQueryData(proposalKeys.detail(proposalId), proposal);
+    await queryClient.invalidateQueries({ queryKey: proposalKeys.all });
+  };
+}
+
+export function useDecideMutation(proposalId: number) {
+  const settle = useSettleProposal(proposalId);
+  return useMutation({ mutationFn: (body: DecisionInput) => decideProposal(proposalId, body), onSuccess: settle });
+}
+
+export function useReviewMutation(proposalId: number) {
+  const settle = useSettleProposal(proposalId);
+  return useMutation({ mutationFn: (body: ReviewInput) => reviewProposal(proposalId, body), onSuccess: settle });
+}

@@ -1,0 +1,60 @@
+/**
+ * An audit event in plain words. The event keeps ids and states; the words (the reason, the
+ * comment, the topology's name) come from the proposal's own decisions and reviews.
+ */
+import type { ProposalState } from '../../../../../../shared/workflow/proposal-states';
+import type { AuditEvent, Proposal } from '../../../../lib/api-types';
+import { topologyTitle } from '../decision/design-fields';
+
+export interface EventWords {
+  /** What happened, after the actor's name: "decided: own values (Degenerated mirror)". */
+  what: string;
+  /** The words kept with it, labelled: a reason or a comment. */
+  quote?: { label: string; text: string };
+  /** A fact worth a line of its own (the server's verdict on an override). */
+  note?: string;
+  from?: ProposalState;
+  to?: ProposalState;
+}
+
+const DECIDED_WORDS: Record<string, (topology: string) => string> = {
+  accept: (t) => `decided: accepted the recommendation (${t})`,
+  choose: (t) => `decided: chose another ranked option (${t})`,
+  override: (t) => `decided: own values (${t})`,
+};
+
+const asState = (value: unknown) => (typeof value === 'string' ? (value as ProposalState) : undefined);
+
+export function describeEvent(event: AuditEvent, proposal: Proposal | undefined): EventWords {
+  const details = event.details;
+  const transition = { from: asState(details.from), to: asState(details.to) };
+  switch (event.action) {
+    case 'proposal.ranked': {
+      const recommended = typeof details.recommended === 'string' ? topologyTitle(details.recommended) : null;
+      const version = details.specVersion !== undefined ? ` spec version ${String(details.specVersion)}` : ' the spec';
+      return {
+        what: `asked for a ranking of${version}: ranked by the engine; ${recommended ? `recommended: ${recommended}` : 'no option passes every blocking check, so nothing is recommended'}`,
+        to: asState(details.status) ?? 'ranked',
+      };
+    }
+    case 'proposal.decided': {
+      const decision = proposal?.decisions.find((d) => d.id === event.entityId);
+      const kind = typeof details.kind === 'string' ? details.kind : (decision?.kind ?? '');
+      const topology = topologyTitle(typeof details.topology === 'string' ? details.topology : decision?.topology);
+      const words = DECIDED_WORDS[kind]?.(topology) ?? `decided (${topology})`;
+      const note = kind === 'override' && typeof details.passes === 'boolean' ? (details.passes ? 'The server’s checks: passes every blocking check.' : 'The server’s checks: short on at least one blocking check.') : undefined;
+      return { what: words, quote: decision?.reason ? { label: 'Reason', text: decision.reason } : undefined, note, ...transition };
+    }
+    case 'proposal.returned':
+    case 'proposal.approved': {
+      const review = proposal?.reviews.find((r) => r.id === event.entityId);
+      return {
+        what: event.action === 'proposal.approved' ? 'approved the decision' : 'returned the decision to the designer',
+        quote: review?.comment ? { label: 'Comment', text: review.comment } : undefined,
+        ...transition,
+      };
+    }
+    default:
+      return { what: event.action.replace(/[.-]/g, ' '), ...transition };
+  }
+}

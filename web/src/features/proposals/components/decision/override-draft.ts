@@ -1,0 +1,93 @@
+/**
+ * The override editor's state as typed text, and the design it reads as. Pure: the text is kept
+ * exactly as typed (nothing is lost on a failed request); the design exists only when every
+ * field reads as a value the schema allows.
+ */
+import type { Design, TailDesign, TopologyId } from '../../../../../../shared/engine/types';
+import { formatQuantity, parseQuantity } from '../../../../../../shared/units/index';
+import { fieldValue, fieldsFor, type FieldInfo, type FieldKey } from './design-fields';
+
+export interface OverrideDraft {
+  /** The design the draft started from: device, rails, common mode, temperature and tail capacitance come from it. */
+  base: Design;
+  topology: TopologyId;
+  text: Partial<Record<FieldKey, string>>;
+}
+
+export type FieldReading = { ok: true; valueOhm: number } | { ok: false; message: string };
+
+/** Enough digits that a value read back from its text is the value itself (E192 needs three). */
+const TEXT_DIGITS = 6;
+
+/** A value as the editor shows it to start with: "13.7 kΩ". */
+export function valueText(valueOhm: number, unit: string): string {
+  return formatQuantity(valueOhm, unit, TEXT_DIGITS);
+}
+
+/** The typed text read as ohms and checked against the schema's limits, or why it cannot be used. */
+export function readField(info: FieldInfo, text: string | undefined): FieldReading {
+  const parsed = parseQuantity(text ?? '', info.unit);
+  if (!parsed.ok) return { ok: false, message: parsed.message.startsWith('"') ? parsed.message : `This value ${parsed.message}` };
+  const value = parsed.value;
+  const limit = valueText(info.min, info.unit);
+  if (info.minAllowed ? value < info.min : value <= info.min) return { ok: false, message: `Must be ${info.minAllowed ? 'at least' : 'more than'} ${limit}` };
+  if (value > info.maxOhm) return { ok: false, message: `Must be at most ${valueText(info.maxOhm, info.unit)}` };
+  return { ok: true, valueOhm: value };
+}
+
+/** The text of every field of a design's topology. */
+function textsOf(design: Design, topology: TopologyId): Partial<Record<FieldKey, string>> {
+  const text: Partial<Record<FieldKey, string>> = {};
+  for (const info of fieldsFor(topology)) {
+    const value = fieldValue(design, info.key);
+    text[info.key] = value === undefined ? '' : valueText(value, info.unit);
+  }
+  return text;
+}
+
+/** A draft holding a design's values. */
+export function draftFromDesign(design: Design): OverrideDraft {
+  return { base: design, topology: design.tail.topology, text: textsOf(design, design.tail.topology) };
+}
+
+/**
+ * The draft with another topology: the pair's values stay as typed; the tail's come from the
+ * ranked option of that topology, or stay as typed when it has none.
+ */
+export function withTopology(draft: OverrideDraft, topology: TopologyId, rankedDesign: Design | null): OverrideDraft {
+  const tailText = rankedDesign ? textsOf(rankedDesign, topology) : {};
+  const text: Partial<Record<FieldKey, string>> = {};
+  for (const info of fieldsFor(topology)) {
+    text[info.key] = info.key.startsWith('tail/') ? (tailText[info.key] ?? draft.text[info.key] ?? '') : (draft.text[info.key] ?? '');
+  }
+  return { ...draft, topology, text };
+}
+
+/** Every field's reading for the draft's topology. */
+export function readDraft(draft: OverrideDraft): Map<FieldKey, FieldReading> {
+  return new Map(fieldsFor(draft.topology).map((info) => [info.key, readField(info, draft.text[info.key])]));
+}
+
+/** The design the draft stands for, or null while any field cannot be read. */
+export function designFromDraft(draft: OverrideDraft): Design | null {
+  const values: Partial<Record<FieldKey, number>> = {};
+  for (const [key, reading] of readDraft(draft)) {
+    if (!reading.ok) return null;
+    values[key] = reading.valueOhm;
+  }
+  const tail = { topology: draft.topology } as Record<string, unknown>;
+  for (const [key, value] of Object.entries(values)) if (key.startsWith('tail/')) tail[key.slice('tail/'.length)] = value;
+  return {
+    ...draft.base,
+    collectorResistanceOhm: values.collectorResistanceOhm!,
+    pairEmitterResistanceOhm: values.pairEmitterResistanceOhm!,
+    tail: tail as unknown as TailDesign,
+  };
+}
+
+/** Server paths ("/design/tail/emitterResistanceOhm", "/tail/emitterResistanceOhm") as field keys, when they name one. */
+export function fieldKeyOfPath(path: string): FieldKey | null {
+  const key = path.replace(/^\/design\//, '').replace(/^\//, '');
+  const known: FieldKey[] = ['collectorResistanceOhm', 'pairEmitterResistanceOhm', 'tail/resistanceOhm', 'tail/referenceResistanceOhm', 'tail/emitterResistanceOhm'];
+  return known.find((k) => key === k) ?? null;
+}

@@ -1,0 +1,54 @@
+import type { Check } from '../../../../../../shared/engine/types';
+import { checkVerdict, Verdict, type VerdictKind } from '../../../../components/ui/verdict';
+import { formatMargin } from '../../lib/figure-format';
+import { ruleName } from '../../lib/rule-names';
+
+/** Failures first, then undecided, advisory notes, holds, and the checks that do not apply. */
+const ORDER: Record<VerdictKind, number> = { short: 0, undecided: 1, note: 2, holds: 3, 'not-applicable': 4 };
+
+/** Every check of the option with its verdict, reason and signed margin. */
+export function ChecksTable({ checks }: { checks: Check[] }) {
+  const ordered = checks.map((check) => ({ check, kind: checkVerdict(check) })).sort((a, b) => ORDER[a.kind] - ORDER[b.kind]);
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full text-sm">
+        <caption className="sr-only">Checks of this option, failures first</caption>
+        <thead className="text-xs text-ink-soft dark:text-night-ink-soft">
+          <tr className="border-b border-rule dark:border-night-rule">
+            <th scope="col" className="py-1 pr-3 text-left font-normal">
+              Verdict
+            </th>
+            <th scope="col" className="py-1 pr-3 text-left font-normal">
+              Check
+            </th>
+            <th scope="col" className="py-1 pr-3 text-left font-normal">
+              Reason
+            </th>
+            <th scope="col" className="py-1 text-right font-normal">
+              Margin
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {ordered.map(({ check, kind }) => (
+            <tr key={check.rule} className="border-b border-rule/60 align-top last:border-0 dark:border-night-rule/60">
+              <td className="py-1.5 pr-3">
+                <Verdict kind={kind} />
+              </td>
+              <th scope="row" className="py-1.5 pr-3 text-left font-normal">
+                <span className="block font-medium whitespace-nowrap">{ruleName(check.rule)}</span>
+                <span className="block text-xs text-ink-soft dark:text-night-ink-soft">
+                  {check.severity} · <code className="font-mono whitespace-nowrap">{check.rule}</code>
+                </span>
+              </th>
+              <td className="py-1.5 pr-3">{check.reason}</td>
+              <td className="py-1.5 text-right whitespace-nowrap tabular-nums">
+                {check.margin === null || check.margin === undefined ? <span className="text-ink-soft dark:text-night-ink-soft">—</span> : formatMargin(check.margin, check.marginUnit)}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}

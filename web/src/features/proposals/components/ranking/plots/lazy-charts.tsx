@@ -1,0 +1,22 @@
+/**
+ * The charts, lazy: uPlot and its stylesheet load only when a plot is first shown, in their own
+ * chunk. A failed load leaves a sentence in place of the plot, not a broken page.
+ */
+import { lazy, type ComponentType } from 'react';
+
+const charts = () => import('./charts');
+
+function lazyChart<P extends object>(pick: (module: Awaited<ReturnType<typeof charts>>) => ComponentType<P>) {
+  return lazy(async () => {
+    try {
+      return { default: pick(await charts()) };
+    } catch {
+      const Unavailable = () => <p className="py-6 text-sm text-ink-soft dark:text-night-ink-soft">The plot could not be loaded; reload the page to try again.</p>;
+      return { default: Unavailable as ComponentType<P> };
+    }
+  });
+}
+
+export const RejectionChart = lazyChart((m) => m.RejectionChart);
+export const HistogramChart = lazyChart((m) => m.HistogramChart);
+export const TemperatureChart = lazyChart((m) => m.TemperatureChart);

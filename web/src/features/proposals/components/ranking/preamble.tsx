@@ -1,0 +1,62 @@
+import type { RecommendResult } from '../../../../../../shared/engine/recommend';
+import { Verdict } from '../../../../components/ui/verdict';
+import { topologyName } from '../../lib/topology-names';
+
+/** The engine writes cautions as "Caution: …"; the block's heading already says so. */
+function withoutCautionWord(text: string): string {
+  return text.replace(/^caution:\s*/i, '');
+}
+
+/** Hazard cautions in a block nobody can miss: an alert, a glyph and words, not colour alone. */
+export function CautionsBlock({ cautions }: { cautions: string[] }) {
+  if (cautions.length === 0) return null;
+  return (
+    <div role="alert" className="rounded-lg border-2 border-note bg-note-soft px-4 py-3 text-ink dark:bg-note/20 dark:text-night-ink">
+      <p className="flex items-center gap-2 text-base font-semibold text-note dark:text-note-soft">
+        <span aria-hidden="true" className="text-lg leading-none">
+          ⚠
+        </span>
+        {cautions.length === 1 ? 'Caution' : `${cautions.length} cautions`} — read before using any option
+      </p>
+      <ul className="mt-1.5 space-y-1 text-sm">
+        {cautions.map((caution) => (
+          <li key={caution}>{withoutCautionWord(caution)}</li>
+        ))}
+      </ul>
+    </div>
+  );
+}
+
+/** The engine's summary starts with the topology id ("cascode: the …"); say it with the readable name. */
+function summaryReason(result: RecommendResult): string {
+  const prefix = `${result.recommended}: `;
+  return result.recommended && result.summary.startsWith(prefix) ? result.summary.slice(prefix.length) : result.summary;
+}
+
+/** Why the recommendation is what it is, and the estimates notice. */
+export function RecommendationSummary({ result }: { result: RecommendResult }) {
+  return (
+    <div className="rounded-lg border border-rule bg-sheet px-4 py-3 dark:border-night-rule dark:bg-night-sheet">
+      <p className="flex flex-wrap items-baseline gap-x-2 gap-y-1">
+        {result.recommended ? (
+          <>
+            <span className="text-sm text-ink-soft dark:text-night-ink-soft">Recommended</span>
+            <span className="text-lg font-medium text-fern dark:text-fern-soft">{topologyName(result.recommended)}</span>
+            <span className="text-sm">— {summaryReason(result)}</span>
+          </>
+        ) : (
+          <>
+            <Verdict kind="short" label="No recommendation" />
+            <span className="text-sm">{result.summary}</span>
+          </>
+        )}
+      </p>
+      <p className="mt-1.5 flex items-start gap-1.5 text-xs text-ink-soft dark:text-night-ink-soft">
+        <span aria-hidden="true" className="mt-px inline-flex h-3.5 w-3.5 shrink-0 items-center justify-center rounded-full border border-current text-[0.6rem] leading-none font-semibold">
+          i
+        </span>
+        <span>{result.notice}</span>
+      </p>
+    </div>
+  );
+}

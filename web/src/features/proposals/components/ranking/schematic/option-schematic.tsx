@@ -1,0 +1,46 @@
+import type { Design, TailDesign } from '../../../../../../../shared/engine/types';
+import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
+import { schematicDescription } from '../../../lib/schematic-description';
+import { CascodeTail } from './cascode-tail';
+import { DegeneratedMirrorTail } from './degenerated-mirror-tail';
+import { RAIL_BOTTOM_Y, RAIL_LEFT_X, RAIL_RIGHT_X, RAIL_TOP_Y, VIEW } from './layout';
+import { PairDrawing } from './pair-drawing';
+import { Rail } from './parts';
+import { ResistorTail } from './resistor-tail';
+import { SimpleMirrorTail } from './simple-mirror-tail';
+import { WidlarTail } from './widlar-tail';
+import { WilsonTail } from './wilson-tail';
+
+function TailDrawing({ tail }: { tail: TailDesign }) {
+  switch (tail.topology) {
+    case 'resistor':
+      return <ResistorTail resistanceOhm={tail.resistanceOhm} />;
+    case 'simple-mirror':
+      return <SimpleMirrorTail referenceResistanceOhm={tail.referenceResistanceOhm} />;
+    case 'degenerated-mirror':
+      return <DegeneratedMirrorTail {...tail} />;
+    case 'widlar':
+      return <WidlarTail {...tail} />;
+    case 'wilson':
+      return <WilsonTail referenceResistanceOhm={tail.referenceResistanceOhm} />;
+    case 'cascode':
+      return <CascodeTail referenceResistanceOhm={tail.referenceResistanceOhm} />;
+  }
+}
+
+/** The option's stage drawn by the app: the pair in soft ink, the tail element (what differs between options) in the accent colour. */
+export function OptionSchematic({ design, className }: { design: Design; className?: string }) {
+  const negativeV = design.supply.negativeV;
+  return (
+    <svg viewBox={`0 0 ${VIEW.width} ${VIEW.height}`} role="img" aria-label={schematicDescription(design)} className={className}>
+      <g className="text-ink-soft dark:text-night-ink-soft">
+        <Rail y={RAIL_TOP_Y} x1={RAIL_LEFT_X} x2={RAIL_RIGHT_X} name="V+" volts={formatQuantity(design.supply.positiveV, 'V')} />
+        <Rail y={RAIL_BOTTOM_Y} x1={RAIL_LEFT_X} x2={RAIL_RIGHT_X} name="V−" volts={negativeV === 0 ? '0 V (ground)' : formatQuantity(negativeV, 'V')} below />
+        <PairDrawing design={design} />
+      </g>
+      <g className="text-fern dark:text-fern-soft">
+        <TailDrawing tail={design.tail} />
+      </g>
+    </svg>
+  );
+}

@@ -1,0 +1,107 @@
+/**
+ * Drawing parts for the app's own schematics: wires, junctions, rails, resistors (a plain box)
+ * and NPN transistors (bar, collector, emitter with its arrow, a light envelope). Coordinates are
+ * viewBox units; strokes follow currentColor so the theme colours them.
+ */
+import type { ReactNode } from 'react';
+
+export type Point = readonly [number, number];
+
+export function Wire({ points }: { points: Point[] }) {
+  return <polyline points={points.map(([x, y]) => `${x},${y}`).join(' ')} fill="none" stroke="currentColor" strokeWidth={1.4} strokeLinejoin="round" />;
+}
+
+export function Dot({ at: [x, y] }: { at: Point }) {
+  return <circle cx={x} cy={y} r={2.6} fill="currentColor" />;
+}
+
+/** A text label; `anchor` as SVG's text-anchor. */
+export function Label({ at: [x, y], anchor = 'start', strong, soft, children }: { at: Point; anchor?: 'start' | 'middle' | 'end'; strong?: boolean; soft?: boolean; children: ReactNode }) {
+  return (
+    <text x={x} y={y} textAnchor={anchor} fontSize={11} fill="currentColor" stroke="none" fontWeight={strong ? 600 : 400} opacity={soft ? 0.75 : 1}>
+      {children}
+    </text>
+  );
+}
+
+const BODY_HALF_HEIGHT = 17;
+const BODY_HALF_WIDTH = 6;
+
+/** A vertical resistor from y1 to y2 at x, its name and value beside it. */
+export function Resistor({ x, y1, y2, name, value, side = 'right' }: { x: number; y1: number; y2: number; name: string; value: string; side?: 'left' | 'right' }) {
+  const mid = (y1 + y2) / 2;
+  const dx = side === 'right' ? 12 : -12;
+  const anchor = side === 'right' ? 'start' : 'end';
+  return (
+    <g data-part={name}>
+      <Wire points={[[x, y1], [x, mid - BODY_HALF_HEIGHT]]} />
+      <rect x={x - BODY_HALF_WIDTH} y={mid - BODY_HALF_HEIGHT} width={BODY_HALF_WIDTH * 2} height={BODY_HALF_HEIGHT * 2} fill="none" stroke="currentColor" strokeWidth={1.4} />
+      <Wire points={[[x, mid + BODY_HALF_HEIGHT], [x, y2]]} />
+      <Label at={[x + dx, mid - 2]} anchor={anchor} strong>
+        {name}
+      </Label>
+      <Label at={[x + dx, mid + 12]} anchor={anchor}>
+        {value}
+      </Label>
+    </g>
+  );
+}
+
+/** Terminal points of a transistor drawn with its collector/emitter column at cx. */
+export function transistorPins(cx: number, cy: number, base: 'left' | 'right') {
+  const dx = base === 'left' ? 1 : -1;
+  return { collector: [cx, cy - 30] as Point, emitter: [cx, cy + 30] as Point, base: [cx - 30 * dx, cy] as Point };
+}
+
+/** An NPN transistor: base lead on `base` side, collector up, emitter down with its arrow pointing out. */
+export function Npn({ cx, cy, base, name }: { cx: number; cy: number; base: 'left' | 'right'; name: string }) {
+  const dx = base === 'left' ? 1 : -1;
+  const barX = cx - 14 * dx;
+  const pins = transistorPins(cx, cy, base);
+  // Arrow on the emitter leg, 80 % of the way from the bar, pointing away from the bar (NPN).
+  const [ux, uy] = unit(cx - barX, 9);
+  const tip: Point = [barX + 0.8 * (cx - barX), cy + 7 + 0.8 * 9];
+  const head = [tip, [tip[0] - 6 * ux - 3.2 * uy, tip[1] - 6 * uy + 3.2 * ux], [tip[0] - 6 * ux + 3.2 * uy, tip[1] - 6 * uy - 3.2 * ux]];
+  return (
+    <g data-device={name}>
+      <circle cx={cx - 6 * dx} cy={cy} r={20} fill="none" stroke="currentColor" strokeWidth={0.8} opacity={0.45} />
+      <line x1={barX} y1={cy - 11} x2={barX} y2={cy + 11} stroke="currentColor" strokeWidth={2.4} />
+      <Wire points={[pins.base, [barX, cy]]} />
+      <Wire points={[[barX, cy - 6], [cx, cy - 15], pins.collector]} />
+      <Wire points={[[barX, cy + 6], [cx, cy + 15], pins.emitter]} />
+      <polygon points={head.map(([x, y]) => `${x},${y}`).join(' ')} fill="currentColor" />
+      <Label at={[cx + 18 * dx, cy + 4]} anchor={dx > 0 ? 'start' : 'end'} strong>
+        {name}
+      </Label>
+    </g>
+  );
+}
+
+function unit(x: number, y: number): [number, number] {
+  const length = Math.hypot(x, y);
+  return [x / length, y / length];
+}
+
+/** A supply rail across the drawing, its name and voltage at the right end. */
+export function Rail({ y, x1, x2, name, volts, below }: { y: number; x1: number; x2: number; name: string; volts: string; below?: boolean }) {
+  return (
+    <g data-part={name}>
+      <line x1={x1} y1={y} x2={x2} y2={y} stroke="currentColor" strokeWidth={2} />
+      <Label at={[x2, below ? y + 15 : y - 7]} anchor="end" strong>
+        {name} <tspan fontWeight={400}>{volts}</tspan>
+      </Label>
+    </g>
+  );
+}
+
+/** An input terminal: an open circle with its net name. */
+export function Terminal({ at, name, side }: { at: Point; name: string; side: 'left' | 'right' }) {
+  return (
+    <g>
+      <circle cx={at[0]} cy={at[1]} r={3.2} fill="none" stroke="currentColor" strokeWidth={1.4} />
+      <Label at={[at[0] + (side === 'left' ? -7 : 7), at[1] + 4]} anchor={side === 'left' ? 'end' : 'start'}>
+        {name}
+      </Label>
+    </g>
+  );
+}

@@ -1,0 +1,69 @@
+import type { Check } from '../../../../../../shared/engine/types';
+import { formatQuantity } from '../../../../../../shared/units/index';
+import { checkVerdict, Verdict, type VerdictKind } from '../../../../components/ui/verdict';
+
+/** Failures first, so what stops an option is read before what holds; the rule order otherwise. */
+const ORDER: Record<VerdictKind, number> = { short: 0, undecided: 1, note: 2, holds: 3, 'not-applicable': 4 };
+
+const ACRONYMS: Record<string, string> = { cmrr: 'CMRR' };
+
+/** "cmrr-target" -> "CMRR target". */
+export function ruleTitle(rule: string): string {
+  const words = rule.split('-').map((w) => ACRONYMS[w] ?? w);
+  const first = words[0] ?? '';
+  return [first === first.toUpperCase() ? first : first.charAt(0).toUpperCase() + first.slice(1), ...words.slice(1)].join(' ');
+}
+
+/** "+17.8 dB", "−13.2 dB"; an em dash when the rule has no margin to report. */
+export function marginText(check: Check): string {
+  if (check.margin === null || check.margin === undefined || !Number.isFinite(check.margin)) return '—';
+  return `${check.margin > 0 ? '+' : ''}${formatQuantity(check.margin, check.marginUnit ?? '1', 3)}`;
+}
+
+/** How many checks came out each way, in words: "11 hold, 1 short, 2 notes". */
+export function checkTally(checks: Check[]): string {
+  const count = (kind: VerdictKind) => checks.filter((c) => checkVerdict(c) === kind).length;
+  const parts = [
+    [count('holds'), 'hold'],
+    [count('short'), 'short (blocking)'],
+    [count('note'), count('note') === 1 ? 'note' : 'notes'],
+    [count('undecided'), 'undecided'],
+    [count('not-applicable'), 'not applicable'],
+  ] as const;
+  return parts.filter(([n]) => n > 0).map(([n, word]) => `${n} ${word}`).join(', ');
+}
+
+/** Every check of an option with its verdict, the rule's reason and the margin it compared. */
+export function CheckList({ checks, caption }: { checks: Check[]; caption: string }) {
+  const sorted = [...checks].sort((a, b) => ORDER[checkVerdict(a)] - ORDER[checkVerdict(b)]);
+  return (
+    <table className="w-full text-sm">
+      <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">
+        {caption} — {checkTally(checks)}. Margin is how far on the good side; negative when short.
+      </caption>
+      <thead className="text-left text-xs text-ink-soft dark:text-night-ink-soft">
+        <tr>
+          <th scope="col" className="py-1 pr-3 font-normal">Verdict</th>
+          <th scope="col" className="py-1 pr-3 font-normal">Check</th>
+          <th scope="col" className="py-1 pr-3 font-normal">Why</th>
+          <th scope="col" className="py-1 text-right font-normal">Margin</th>
+        </tr>
+      </thead>
+      <tbody>
+        {sorted.map((check) => (
+          <tr key={check.rule} className="border-t border-rule/60 align-top dark:border-night-rule/60">
+            <td className="py-1.5 pr-3">
+              <Verdict kind={checkVerdict(check)} />
+            </td>
+            <th scope="row" className="py-1.5 pr-3 text-left font-medium whitespace-nowrap">
+              {ruleTitle(check.rule)}
+              <span className="block text-xs font-normal text-ink-soft dark:text-night-ink-soft">{check.severity}</span>
+            </th>
+            <td className="py-1.5 pr-3">{check.reason}</td>
+            <td className="py-1.5 text-right tabular-nums whitespace-nowrap">{marginText(check)}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}

@@ -1,0 +1,56 @@
+/**
+ * The resistors of a sized design, named as the schematic names them: RC1/RC2 (collector loads),
+ * RE1/RE2 (pair degeneration), RT (resistor tail), RREF (mirror reference), RE3/RE4 (mirror
+ * emitters). Pure: the detail panel and the schematic both read it.
+ */
+import type { Design, ResistorSeries } from '../../../../../shared/engine/types';
+import { isOnSeries } from '../../../../../shared/units/e-series';
+
+export interface SizedResistor {
+  /** Reference designators sharing the value, e.g. ["RC1", "RC2"]. */
+  names: string[];
+  valueOhm: number;
+  role: string;
+}
+
+/** Every resistor of the design with its value in ohms; equal pairs share a row. */
+export function sizedResistors(design: Design): SizedResistor[] {
+  const rc1Ohm = design.collectorResistanceOhm;
+  const rc2Ohm = rc1Ohm * (1 + (design.collectorMismatch ?? 0));
+  const rows: SizedResistor[] =
+    rc2Ohm === rc1Ohm
+      ? [{ names: ['RC1', 'RC2'], valueOhm: rc1Ohm, role: 'Collector loads to V+' }]
+      : [
+          { names: ['RC1'], valueOhm: rc1Ohm, role: 'Collector load of Q1' },
+          { names: ['RC2'], valueOhm: rc2Ohm, role: 'Collector load of Q2 (mismatched)' },
+        ];
+  const reOhm = design.pairEmitterResistanceOhm ?? 0;
+  if (reOhm > 0) rows.push({ names: ['RE1', 'RE2'], valueOhm: reOhm, role: 'Pair emitter degeneration' });
+  const tail = design.tail;
+  switch (tail.topology) {
+    case 'resistor':
+      rows.push({ names: ['RT'], valueOhm: tail.resistanceOhm, role: 'Tail resistor, t to V−' });
+      break;
+    case 'degenerated-mirror':
+      rows.push({ names: ['RREF'], valueOhm: tail.referenceResistanceOhm, role: 'Reference, V+ to Q3' });
+      rows.push({ names: ['RE3', 'RE4'], valueOhm: tail.emitterResistanceOhm, role: 'Mirror emitter resistors' });
+      break;
+    case 'widlar':
+      rows.push({ names: ['RREF'], valueOhm: tail.referenceResistanceOhm, role: 'Reference, V+ to Q3' });
+      rows.push({ names: ['RE4'], valueOhm: tail.emitterResistanceOhm, role: 'Widlar emitter resistor of Q4' });
+      break;
+    default:
+      rows.push({ names: ['RREF'], valueOhm: tail.referenceResistanceOhm, role: 'Reference, V+ to Q3' });
+  }
+  return rows;
+}
+
+/** The value of one named resistor of the design (e.g. "RREF"), or null when it has none. */
+export function resistorValueOhm(design: Design, name: string): number | null {
+  return sizedResistors(design).find((r) => r.names.includes(name))?.valueOhm ?? null;
+}
+
+/** Whether a value sits on the preferred-number series the spec names. */
+export function onSeries(valueOhm: number, series: ResistorSeries): boolean {
+  return isOnSeries(valueOhm, series, 1e-6);
+}

@@ -1,0 +1,63 @@
+/** The readable differences between two versions: field, what happened (in words), before, after. */
+import { cn } from '../../../lib/cn';
+import type { ReadableChange } from '../lib/spec-changes';
+
+const KIND: Record<ReadableChange['kind'], { word: string; glyph: string; className: string }> = {
+  changed: { word: 'Changed', glyph: '~', className: 'bg-note-soft text-note dark:bg-note/25 dark:text-note-soft' },
+  added: { word: 'Added', glyph: '+', className: 'bg-holds-soft text-holds dark:bg-holds/25 dark:text-holds-soft' },
+  removed: { word: 'Removed', glyph: '−', className: 'bg-short-soft text-short dark:bg-short/25 dark:text-short-soft' },
+};
+
+export function ChangesTable({ rows, from, to }: { rows: readonly ReadableChange[]; from: number; to: number }) {
+  return (
+    <table className="w-full text-sm">
+      <caption className="mb-2 text-left text-sm text-ink-soft dark:text-night-ink-soft">
+        {rows.length === 1 ? '1 field differs' : `${rows.length} fields differ`} between version {from} and version {to}.
+      </caption>
+      <thead>
+        <tr className="border-b border-rule text-left text-xs tracking-wide text-ink-soft uppercase dark:border-night-rule dark:text-night-ink-soft">
+          <th scope="col" className="py-1.5 pr-3 font-medium">
+            Field
+          </th>
+          <th scope="col" className="py-1.5 pr-3 font-medium">
+            Change
+          </th>
+          <th scope="col" className="py-1.5 pr-3 font-medium">
+            Version {from}
+          </th>
+          <th scope="col" className="py-1.5 font-medium">
+            Version {to}
+          </th>
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map((row) => {
+          const kind = KIND[row.kind];
+          return (
+            <tr key={row.path} className="border-b border-rule/60 align-top dark:border-night-rule/60">
+              <th scope="row" className="py-2 pr-3 text-left font-medium">
+                {row.label}
+              </th>
+              <td className="py-2 pr-3">
+                <span className={cn('inline-flex items-center gap-1 rounded px-1.5 py-0.5 text-xs font-medium whitespace-nowrap', kind.className)}>
+                  <span aria-hidden="true">{kind.glyph}</span>
+                  {kind.word}
+                </span>
+              </td>
+              <td className={cn('py-2 pr-3 text-ink-soft tabular-nums dark:text-night-ink-soft', row.kind === 'added' && 'italic')}>{row.before}</td>
+              <td className="py-2 tabular-nums">
+                <span className={cn(row.kind === 'removed' ? 'text-ink-soft italic dark:text-night-ink-soft' : 'font-medium')}>
+                  <span aria-hidden="true" className="mr-1 text-ink-soft dark:text-night-ink-soft">
+                    →
+                  </span>
+                  {row.after}
+                </span>
+                {row.detail && <span className="mt-0.5 block text-xs text-ink-soft dark:text-night-ink-soft">{row.detail}</span>}
+              </td>
+            </tr>
+          );
+        })}
+      </tbody>
+    </table>
+  );
+}

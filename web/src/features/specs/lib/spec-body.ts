@@ -1,0 +1,7 @@
+import type { SpecBody } from '../api/spec-queries';
+import type { SpecDraft } from '../components/spec-form';
+
+/** The request body for a form's document: the title (also inside the document) and the document. */
+export function specBody(draft: SpecDraft): SpecBody {
+  return { title: typeof draft.title === 'string' ? draft.title : '', payload: draft };
+}

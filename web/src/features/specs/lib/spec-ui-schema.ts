@@ -1,0 +1,75 @@
+/**
+ * How the spec form looks: the title across the top, then cards of related fields, words for
+ * enum values, and the engineering-notation widget on every field with a unit. The schema
+ * (served by the API) stays the single source of fields, titles, defaults and limits.
+ */
+import type { UiSchema } from '@rjsf/utils';
+import type { FormLayout } from '../../../components/forms/object-field-template';
+import type { SchemaNode } from './schema-nodes';
+
+export const SPEC_LAYOUT: FormLayout = {
+  lead: ['title'],
+  cards: [
+    { title: 'Supply', fields: ['supply'] },
+    { title: 'Gain', fields: ['gain'] },
+    { title: 'Rejection', fields: ['cmrr', 'tailCapacitanceF'] },
+    { title: 'Input common mode', fields: ['inputCommonMode'], note: 'DC range on both bases, strictly between the rails.' },
+    { title: 'Output & power', fields: ['outputSwingVpp', 'powerBudgetW', 'tailCurrentA'] },
+    { title: 'Temperature', fields: ['temperatureC'] },
+    { title: 'Options', fields: ['topologies', 'policy'] },
+    { title: 'Device', fields: ['device'], note: 'One NPN model for every transistor of the stage.' },
+    { title: 'Resistors', fields: ['resistors'] },
+    { title: 'Monte Carlo', fields: ['monteCarlo'], note: 'Yield of the differential CMRR under tolerance and mismatch.' },
+    { title: 'Hazards', fields: ['hazards'], note: 'Conditions that add safety cautions to the report.' },
+  ],
+};
+
+export const TOPOLOGY_WORDS: Record<string, string> = {
+  resistor: 'Resistor',
+  'simple-mirror': 'Simple mirror',
+  'degenerated-mirror': 'Degenerated mirror',
+  widlar: 'Widlar',
+  wilson: 'Wilson',
+  cascode: 'Cascode',
+};
+
+/** Words for enum values, by property name; also used to print values in the version history. */
+export const ENUM_WORDS: Record<string, Record<string, string>> = {
+  topologies: TOPOLOGY_WORDS,
+  policy: { 'simplest-sufficient': 'Simplest sufficient', 'highest-rejection': 'Highest rejection' },
+  output: { differential: 'Differential', 'single-ended': 'Single-ended' },
+  family: { npn: 'NPN' },
+};
+
+export const SPEC_UI_SCHEMA: UiSchema = {
+  'ui:options': { layout: SPEC_LAYOUT },
+  title: { 'ui:placeholder': 'e.g. Bridge amplifier input stage', 'ui:options': { large: true, wide: true } },
+  device: {
+    family: { 'ui:widget': 'fixed', 'ui:options': { display: 'NPN bipolar' } },
+    saturationCurrentA: { 'ui:placeholder': 'from VBE at 1 mA' },
+  },
+  gain: { output: { 'ui:widget': 'radio', 'ui:enumNames': ENUM_WORDS.output, 'ui:options': { wide: true } } },
+  resistors: { series: { 'ui:widget': 'radio' } },
+  inputCommonMode: { minV: { 'ui:title': 'Lowest' }, maxV: { 'ui:title': 'Highest' } },
+  temperatureC: { min: { 'ui:title': 'Lowest' }, max: { 'ui:title': 'Highest' } },
+  tailCurrentA: { 'ui:placeholder': 'Longtail chooses' },
+  topologies: { 'ui:widget': 'checkboxes', 'ui:enumNames': TOPOLOGY_WORDS, 'ui:options': { wide: true } },
+  policy: { 'ui:widget': 'radio', 'ui:enumNames': ENUM_WORDS.policy, 'ui:options': { wide: true } },
+};
+
+/** Whether a schema node is a number with a unit worth reading as a quantity ("1" is a plain count). */
+function isQuantity(node: SchemaNode): boolean {
+  return (node.type === 'number' || node.type === 'integer') && typeof node['x-unit'] === 'string' && node['x-unit'] !== '1';
+}
+
+/** `ui` with the quantity widget set on every field of `schema` that has a unit (other settings kept). */
+export function withQuantityWidgets(schema: SchemaNode, ui: UiSchema = {}): UiSchema {
+  const properties = (schema.properties ?? {}) as Record<string, SchemaNode>;
+  const result: UiSchema = { ...ui };
+  for (const [name, node] of Object.entries(properties)) {
+    const own = (ui[name] ?? {}) as UiSchema;
+    if (node.type === 'object') result[name] = withQuantityWidgets(node, own);
+    else if (isQuantity(node) && own['ui:widget'] === undefined) result[name] = { ...own, 'ui:widget': 'quantity' };
+  }
+  return result;
+}
