@@ -42,17 +42,36 @@ export function validateDesign(input: unknown): ValidationResult<Design> {
   return validateWith<Design>(input, validateDesignSchema, designCrossFieldIssues);
 }
 
+/** Nesting kept when copying input; anything deeper is cut (no schema here nests past a few levels). */
+const MAX_COPY_DEPTH = 64;
+const NOT_JSON = Symbol('not JSON');
+
+/**
+ * A copy of JSON data, subtrees deeper than MAX_COPY_DEPTH replaced by null: a hostile body of
+ * thousands of nested arrays cannot exhaust the stack, and the schema still reports it at the
+ * field where it starts. NOT_JSON for values no JSON document holds (functions, symbols, class instances).
+ */
+function jsonCopy(value: unknown, depth: number): unknown {
+  // Numbers pass as they are (the schema names NaN and Infinity at their field), so does undefined.
+  if (value === null || value === undefined || typeof value === 'string' || typeof value === 'boolean' || typeof value === 'number') return value;
+  if (typeof value !== 'object') return NOT_JSON;
+  if (depth >= MAX_COPY_DEPTH) return null;
+  if (Array.isArray(value)) {
+    const items = value.map((item) => jsonCopy(item, depth + 1));
+    return items.includes(NOT_JSON) ? NOT_JSON : items;
+  }
+  if (Object.getPrototypeOf(value) !== Object.prototype && Object.getPrototypeOf(value) !== null) return NOT_JSON;
+  const entries = Object.entries(value).map(([key, item]) => [key, jsonCopy(item, depth + 1)] as const);
+  return entries.some(([, item]) => item === NOT_JSON) ? NOT_JSON : Object.fromEntries(entries);
+}
+
 function validateWith<T>(
   input: unknown,
   schemaCheck: ValidateFunction,
   crossFieldIssues: (value: T) => ValidationIssue[],
 ): ValidationResult<T> {
-  let copy: unknown;
-  try {
-    copy = structuredClone(input); // defaults are written into the copy, never the caller's object
-  } catch {
-    return { ok: false, errors: [{ path: '', message: 'must be plain JSON data' }] };
-  }
+  const copy = jsonCopy(input, 0); // defaults are written into the copy, never the caller's object
+  if (copy === NOT_JSON) return { ok: false, errors: [{ path: '', message: 'must be plain JSON data' }] };
   if (!schemaCheck(copy)) return { ok: false, errors: issuesFromAjvErrors(schemaCheck.errors ?? []) };
   const issues = crossFieldIssues(copy as T);
   return issues.length > 0 ? { ok: false, errors: issues } : { ok: true, value: copy as T };

@@ -1,6 +1,7 @@
 /**
- * Sign-in attempts are limited per address and per account, so neither spraying one password
- * over many accounts nor hammering one account goes far. Counted in memory per app instance.
+ * Failed sign-in attempts are limited per address and per account, so neither spraying one
+ * password over many accounts nor hammering one account goes far; successful sign-ins do not
+ * count. Counted in memory per app instance.
  */
 import { rateLimit, ipKeyGenerator } from 'express-rate-limit';
 import type { RequestHandler } from 'express';
@@ -14,10 +15,11 @@ const tooMany = { error: 'Too many sign-in attempts: wait a few minutes and try 
 
 export function signInRateLimits(): RequestHandler[] {
   return [
-    rateLimit({ windowMs: WINDOW_MS, limit: PER_ADDRESS, standardHeaders: 'draft-7', legacyHeaders: false, message: tooMany, keyGenerator: (req) => ipKeyGenerator(req.ip ?? '') }),
+    rateLimit({ windowMs: WINDOW_MS, limit: PER_ADDRESS, skipSuccessfulRequests: true, standardHeaders: 'draft-7', legacyHeaders: false, message: tooMany, keyGenerator: (req) => ipKeyGenerator(req.ip ?? '') }),
     rateLimit({
       windowMs: WINDOW_MS,
       limit: PER_ACCOUNT,
+      skipSuccessfulRequests: true,
       standardHeaders: 'draft-7',
       legacyHeaders: false,
       message: tooMany,

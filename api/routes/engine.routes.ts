@@ -2,7 +2,7 @@
 import { Router } from 'express';
 import { analyze, ConvergenceError, ENGINE_VERSION, ESTIMATE_NOTICE } from '../../shared/engine/index';
 import { TOPOLOGIES, type Design, type RuleSet } from '../../shared/engine/types';
-import { DESIGN_SCHEMA, SPEC_SCHEMA } from '../../shared/validate';
+import { DESIGN_SCHEMA, SPEC_SCHEMA, validateDesign } from '../../shared/validate';
 import { requireSignIn } from '../auth/require';
 import { AppError } from '../errors';
 import { validateBody } from '../validation/validate-request';
@@ -21,7 +21,7 @@ export function engineRoutes(ruleSet: RuleSet): Router {
   router.get('/topologies', (_req, res) => {
     res.json({ items: TOPOLOGIES.map((id, i) => ({ id, simplicityRank: i + 1 })) });
   });
-  router.post('/analyze', requireSignIn, validateBody(DESIGN_SCHEMA), (req, res) => {
+  router.post('/analyze', requireSignIn, validateBody(validateDesign), (req, res) => {
     try {
       res.json({ ...analyze(req.body as Design), notice: ESTIMATE_NOTICE });
     } catch (error) {

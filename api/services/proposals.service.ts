@@ -13,6 +13,7 @@ import { DecisionEntity, type Decision, type DecisionKind } from '../entities/de
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { ReviewEntity, type Review, type Verdict } from '../entities/review.entity';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
+import { validateDesign } from '../../shared/validate';
 import { AppError, invalid, notFound } from '../errors';
 import { auditView, recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
@@ -163,9 +164,22 @@ async function settledDesign(proposal: Proposal, input: DecisionInput, ruleSet: 
   return { topology, design: option.design, evaluation: null };
 }
 
+/** Fields that do not belong to the decision's kind are refused, and an override's design is checked whole. */
+function checkDecisionFields(input: DecisionInput): void {
+  const issues = [];
+  if (input.kind !== 'accept' && !(input.reason ?? '').trim()) issues.push({ path: '/reason', message: 'is required unless you accept the recommendation' });
+  if (input.topology !== undefined && input.kind !== 'choose') issues.push({ path: '/topology', message: `belongs to a "choose" decision, not "${input.kind}"` });
+  if (input.design !== undefined && input.kind !== 'override') issues.push({ path: '/design', message: `belongs to an "override" decision, not "${input.kind}"` });
+  if (input.kind === 'override' && input.design !== undefined) {
+    const checked = validateDesign(input.design);
+    if (!checked.ok) issues.push(...checked.errors.map((e) => ({ path: `/design${e.path}`, message: e.message })));
+  }
+  if (issues.length > 0) throw invalid(issues);
+}
+
 /** A designer's decision: moves a ranked or returned proposal to decided. */
 export async function decide(dataSource: DataSource, actor: Viewer, proposalId: number, input: DecisionInput, ruleSet: RuleSet) {
-  if (input.kind !== 'accept' && !(input.reason ?? '').trim()) throw invalid([{ path: '/reason', message: 'is required unless you accept the recommendation' }]);
+  checkDecisionFields(input);
   // The engine works outside the transaction (it is CPU, not data); the state is checked again inside.
   const before = await proposalFor(dataSource, actor, proposalId);
   transition(before, 'decide');
@@ -173,6 +187,7 @@ export async function decide(dataSource: DataSource, actor: Viewer, proposalId: 
   await dataSource.transaction(async (manager) => {
     const proposal = await proposalFor(manager, actor, proposalId);
     const status = transition(proposal, 'decide');
+    const previous = await manager.getRepository(DecisionEntity).findOne({ where: { proposalId }, order: { id: 'DESC' } });
     const decision = await manager.getRepository(DecisionEntity).save({
       proposalId,
       kind: input.kind,
@@ -191,6 +206,7 @@ export async function decide(dataSource: DataSource, actor: Viewer, proposalId: 
       entityId: decision.id,
       projectId: proposal.projectId,
       proposalId,
+      beforeId: previous?.id ?? null,
       afterId: decision.id,
       details: { kind: input.kind, topology: settled.topology, from: proposal.status, to: status, passes: settled.evaluation?.passes },
     });

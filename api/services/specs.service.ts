@@ -60,7 +60,7 @@ export async function getSpec(dataSource: DataSource, viewer: Viewer, specId: nu
 }
 
 export async function createSpec(dataSource: DataSource, actor: Viewer, projectId: number, input: SpecInput) {
-  const document = checkedSpecDocument({ ...(input.payload as object), title: input.title });
+  const document = checkedSpecDocument({ ...(input.payload as object), title: input.title.trim() });
   return dataSource.transaction(async (manager) => {
     await projectFor(manager, actor, projectId);
     const now = new Date().toISOString();
@@ -72,7 +72,7 @@ export async function createSpec(dataSource: DataSource, actor: Viewer, projectI
 }
 
 export async function updateSpec(dataSource: DataSource, actor: Viewer, specId: number, input: SpecInput) {
-  const document = checkedSpecDocument({ ...(input.payload as object), title: input.title });
+  const document = checkedSpecDocument({ ...(input.payload as object), title: input.title.trim() });
   return dataSource.transaction(async (manager) => {
     const spec = await specFor(manager, actor, specId);
     const previous = await latestVersion(manager, spec);

@@ -3,12 +3,15 @@
  * shared ajv instance; a 400 with every problem's JSON path, or the validated copy put back.
  */
 import type { RequestHandler } from 'express';
-import { compileValidator } from '../../shared/validate';
+import { compileValidator, type ValidationResult } from '../../shared/validate';
 import { invalid, notFound } from '../errors';
 
-/** Validates `req.body`; non-object bodies (wrong content type, bare values) are refused too. */
-export function validateBody(schema: object): RequestHandler {
-  const check = compileValidator<unknown>(schema);
+/**
+ * Validates `req.body` against a JSON Schema, or with a ready validator (validateDesign, which
+ * adds the cross-field rules); non-JSON bodies (wrong content type, bare values) are refused too.
+ */
+export function validateBody(schema: object | ((input: unknown) => ValidationResult<unknown>)): RequestHandler {
+  const check = typeof schema === 'function' ? schema : compileValidator<unknown>(schema);
   return (req, _res, next) => {
     if (!req.is('application/json')) return next(invalid([{ path: '', message: 'must be JSON (Content-Type: application/json)' }]));
     const result = check(req.body);

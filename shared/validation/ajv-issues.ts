@@ -29,6 +29,7 @@ const BUILDERS: Record<string, IssueBuilder> = {
   uniqueItems: (e) => at(e, `must not repeat an item (items ${e.params.j} and ${e.params.i} are the same)`),
   minLength: (e) => at(e, e.params.limit === 1 ? 'must not be empty' : `must be at least ${e.params.limit} characters`),
   maxLength: (e) => at(e, `must be at most ${e.params.limit} characters`),
+  pattern: (e) => at(e, e.params.pattern === '\\S' ? 'must not be blank' : 'is not in the expected format'),
   discriminator: discriminatorIssue,
   // Summaries of branch errors already reported one by one
   oneOf: () => undefined,

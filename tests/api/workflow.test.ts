@@ -253,9 +253,9 @@ describe('when the proposal goes through decisions and reviews', () => {
       { action: 'proposal.ranked', actorId: d.id, beforeId: null, afterId: proposalId, proposalId },
       { action: 'proposal.decided', actorId: d.id, beforeId: null, afterId: d1, proposalId },
       { action: 'proposal.returned', actorId: r.id, beforeId: d1, afterId: v1, proposalId },
-      { action: 'proposal.decided', actorId: d.id, beforeId: null, afterId: d2, proposalId },
+      { action: 'proposal.decided', actorId: d.id, beforeId: d1, afterId: d2, proposalId },
       { action: 'proposal.returned', actorId: r2.id, beforeId: d2, afterId: v2, proposalId },
-      { action: 'proposal.decided', actorId: d.id, beforeId: null, afterId: d3, proposalId },
+      { action: 'proposal.decided', actorId: d.id, beforeId: d2, afterId: d3, proposalId },
       { action: 'proposal.approved', actorId: r.id, beforeId: d3, afterId: v3, proposalId },
     ]);
     const times = response.body.items.map((e: { at: string }) => e.at);

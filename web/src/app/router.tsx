@@ -1,6 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { createBrowserRouter, redirect, type LoaderFunction, type RouteObject } from 'react-router-dom';
 import { AppShell } from '../components/layout/app-shell';
+import { Loading } from '../components/ui/feedback';
 import { paths } from '../config/paths';
 import { meQuery } from '../features/auth/api/auth-queries';
 import { RouteError } from './route-error';
@@ -30,11 +31,12 @@ export function createRouter(queryClient: QueryClient) {
     return null;
   };
   return createBrowserRouter([
-    { path: paths.signIn.path, lazy: lazyRoute(queryClient, () => import('../routes/sign-in')), errorElement: <RouteError /> },
+    { path: paths.signIn.path, lazy: lazyRoute(queryClient, () => import('../routes/sign-in')), errorElement: <RouteError />, hydrateFallbackElement: <Loading what="Opening Longtail" /> },
     {
       path: '/',
       element: <AppShell />,
       loader: requireUser,
+      hydrateFallbackElement: <Loading what="Opening Longtail" />,
       errorElement: <RouteError />,
       children: [
         { index: true, lazy: lazyRoute(queryClient, () => import('../routes/workbench')) },

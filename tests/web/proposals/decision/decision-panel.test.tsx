@@ -162,4 +162,23 @@ describe('DecisionPanel', () => {
     expect(body.reason).toBe('Twice the degeneration for drift.');
     expect(body.design.tail).toEqual({ topology: 'degenerated-mirror', referenceResistanceOhm: 13700, emitterResistanceOhm: 2200 });
   });
+
+  test('when the analysis refuses a value (400 with a path) or cannot solve the design (422), then each shows in place', async () => {
+    let answer: { status: number; body: unknown } = { status: 400, body: { error: 'The request is not valid.', code: 'invalid-request', details: [{ path: '/tail/referenceResistanceOhm', message: 'must be <= 1000000000' }] } };
+    fetchMock = mockFetch({ ...MEMBERS, 'POST /api/analyze': () => answer });
+    const user = userEvent.setup();
+    renderWithClient(<DecisionPanel proposal={proposalFixture()} user={DESIGNER} />);
+
+    await user.click(screen.getByRole('radio', { name: 'Use my own values' }));
+    const reference = screen.getByRole('textbox', { name: 'Reference resistor' });
+    await waitFor(() => expect(reference.getAttribute('aria-invalid')).toBe('true'));
+    expect(screen.getByText(/The server says: must be <= 1000000000/)).toBeTruthy();
+    expect(screen.getByRole('alert').textContent).toMatch(/The server refused these values/);
+
+    answer = { status: 422, body: { error: 'This design cannot be solved: no operating point.', code: 'not-solvable' } };
+    await user.clear(reference);
+    await user.type(reference, '12k');
+    await waitFor(() => expect(screen.getByRole('alert').textContent).toMatch(/The engine cannot solve these values/));
+    expect(screen.getByRole('alert').textContent).toContain('This design cannot be solved: no operating point.');
+  });
 });

@@ -38,6 +38,10 @@ export function ProjectMembers({ projectId, manage }: { projectId: number; manag
 function MemberRow({ projectId, member, canRemove }: { projectId: number; member: User; canRemove: boolean }) {
   const [confirming, setConfirming] = useState(false);
   const remove = useRemoveMember(projectId);
+  const keep = () => {
+    remove.reset();
+    setConfirming(false);
+  };
   return (
     <li className="py-1.5 text-sm">
       <div className="flex items-center justify-between gap-2">
@@ -53,15 +57,14 @@ function MemberRow({ projectId, member, canRemove }: { projectId: number; member
       </div>
       {confirming && (
         <div role="group" aria-label={`Confirm removing ${member.displayName}`} className="mt-1.5 rounded-md bg-short-soft p-2 text-xs text-short dark:bg-short/20 dark:text-short-soft">
-          <p>Take {member.displayName} off this project? They will no longer see it.</p>
+          <p>
+            Take {member.displayName} off this project?{member.role === 'admin' ? '' : ' They will no longer see it.'}
+          </p>
           <div className="mt-1.5 flex gap-2">
             <Button variant="danger" className="px-2 py-1 text-xs" disabled={remove.isPending} onClick={() => remove.mutate(member.id, { onSuccess: () => setConfirming(false) })}>
               {remove.isPending ? 'Removing…' : 'Remove'}
             </Button>
-            <Button variant="secondary" className="px-2 py-1 text-xs" autoFocus onClick={() => {
-                remove.reset();
-                setConfirming(false);
-              }}>
+            <Button variant="secondary" className="px-2 py-1 text-xs" autoFocus onClick={keep}>
               Keep
             </Button>
           </div>

@@ -52,3 +52,10 @@ export function formatDeviationPercent(valuePercent: number): string {
   if (Number(text) === 0) return '0.0 %';
   return `${valuePercent > 0 ? '+' : MINUS}${text} %`;
 }
+
+/** A plain number with `digits` significant digits, zeros kept ("23.0", "6.29", "177"); engineering form past 1000. */
+export function formatSignificant(value: number, digits = 3): string {
+  if (Math.abs(value) >= 10 ** digits) return formatQuantity(value, '1', digits);
+  const text = value.toPrecision(digits);
+  return text.startsWith('-') ? `${MINUS}${text.slice(1)}` : text;
+}

@@ -109,9 +109,7 @@ function ChooseOption({ options, chosen, onChange, error }: { options: OptionEva
         {error && <p className="text-short dark:text-short-soft">✕ {error}</p>}
         {option && (
           <div className="space-y-1">
-            <p className="text-ink-soft dark:text-night-ink-soft">
-              Rejection at the spec frequency, worst case, <Quantity value={option.rejectionDb} unit="dB" />; tail current <Quantity value={option.predicted?.tailCurrentA} unit="A" />.
-            </p>
+            <OptionFigures option={option} />
             {failing.length > 0 && (
               <ul className="space-y-1">
                 {failing.map((c) => (
@@ -126,5 +124,22 @@ function ChooseOption({ options, chosen, onChange, error }: { options: OptionEva
         )}
       </div>
     </div>
+  );
+}
+
+/** The option's rejection at the spec frequency in both senses (they differ by tens of dB), and its tail current. */
+function OptionFigures({ option }: { option: OptionEvaluation }) {
+  const figures = option.figures;
+  if (!figures) return <p className="text-ink-soft dark:text-night-ink-soft">{option.error ?? 'No figures: this option could not be solved.'}</p>;
+  return (
+    <p className="text-ink-soft dark:text-night-ink-soft">
+      At <Quantity value={figures.cmrrFrequencyHz} unit="Hz" />, worst case: CMRR <Quantity value={figures.cmrrAtFrequencyDb} unit="dB" /> single-ended (tail-limited)
+      {figures.cmrrDifferentialWorstCaseDb !== null && (
+        <>
+          , <Quantity value={figures.cmrrDifferentialWorstCaseDb} unit="dB" /> differential (mismatch-limited)
+        </>
+      )}
+      ; tail current <Quantity value={option.predicted?.tailCurrentA} unit="A" /> nominal.
+    </p>
   );
 }

@@ -50,7 +50,8 @@ export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutat
   const changeDraft = (next: OverrideDraft) => {
     setDraft(next);
     setDraftTouched(true);
-    setServerErrors((errors) => Object.fromEntries(Object.entries(errors).filter(([key]) => !key.includes('Ohm'))));
+    // The values changed, so the server's word on the old ones no longer applies; the reason's and topology's still do.
+    setServerErrors(({ reason, topology }) => ({ ...(reason ? { reason } : {}), ...(topology ? { topology } : {}) }));
   };
 
   const onSubmit = (event: FormEvent) => {

@@ -21,13 +21,15 @@ export function WhatIfPanel({ proposal, whatIf, ranked }: { proposal: Proposal; 
   const edited = query.data;
   const updating = hasDesign && (settling || query.isFetching);
   const error = hasDesign && !settling && query.error ? query.error : null;
+  // Figures of an earlier design stay on screen while the next is analysed, in the soft ink, never faded below legibility.
+  const stale = Boolean(edited) && (updating || !hasDesign);
   const rankedLabel = ranked ? `Ranked ${topologyTitle(ranked.topology).toLowerCase()}` : 'Ranked option';
   return (
     <section aria-labelledby="what-if-title" className="rounded-md border border-rule p-3 dark:border-night-rule">
       <header className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
-        <h4 id="what-if-title" className="text-sm font-medium">
+        <h3 id="what-if-title" className="text-sm font-medium">
           What if: your values at nominal conditions
-        </h4>
+        </h3>
         <p role="status" aria-live="polite" className="text-xs text-ink-soft dark:text-night-ink-soft">
           {!hasDesign ? 'Waiting for readable values' : updating ? 'Analysing…' : edited ? 'Up to date' : ''}
         </p>
@@ -35,13 +37,13 @@ export function WhatIfPanel({ proposal, whatIf, ranked }: { proposal: Proposal; 
       {error ? (
         <WhatIfError error={error} />
       ) : (
-        <table className={cn('w-full text-sm', (updating || !hasDesign) && edited && 'opacity-60')}>
+        <table className="w-full text-sm" aria-busy={updating || undefined}>
           <caption className="sr-only">Key figures of the ranked option and of your values, with the change</caption>
           <thead className="text-left text-xs text-ink-soft dark:text-night-ink-soft">
             <tr>
               <th scope="col" className="py-1 pr-3 font-normal">Figure</th>
               <th scope="col" className="py-1 pr-3 text-right font-normal">{rankedLabel}</th>
-              <th scope="col" className="py-1 pr-3 text-right font-normal">Your values</th>
+              <th scope="col" className="py-1 pr-3 text-right font-normal">{stale ? 'Your values (not yet updated)' : 'Your values'}</th>
               <th scope="col" className="py-1 text-right font-normal">Change</th>
             </tr>
           </thead>
@@ -61,7 +63,7 @@ export function WhatIfPanel({ proposal, whatIf, ranked }: { proposal: Proposal; 
                   <td className="py-1.5 pr-3 text-right">
                     <Quantity value={before} unit={figure.unit} />
                   </td>
-                  <td className="py-1.5 pr-3 text-right font-medium">{edited ? <Quantity value={after} unit={figure.unit} /> : <span className="text-ink-soft">…</span>}</td>
+                  <td className={cn('py-1.5 pr-3 text-right', stale ? 'text-ink-soft dark:text-night-ink-soft' : 'font-medium')}>{edited ? <Quantity value={after} unit={figure.unit} /> : <span className="text-ink-soft">…</span>}</td>
                   <td className="py-1.5 text-right text-ink-soft tabular-nums dark:text-night-ink-soft">{changeText(figure, before, after) ?? '—'}</td>
                 </tr>
               );

@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import type { RecommendOption } from '../../../../../../shared/engine/recommend';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
-import { formatDb, formatMargin } from '../../lib/figure-format';
+import { formatDb, formatMargin, formatSignificant } from '../../lib/figure-format';
 
 function Head({ children, left }: { children: ReactNode; left?: boolean }) {
   return (
@@ -45,7 +45,7 @@ export function CornersTable({ option }: { option: RecommendOption }) {
                 {c.operatingPointProblems.length > 0 && <span className="block text-xs text-short dark:text-short-soft">✕ {c.operatingPointProblems.join('; ')}</span>}
               </th>
               <Num>{formatQuantity(c.tailCurrentA, 'A')}</Num>
-              <Num>{formatQuantity(Math.abs(c.gain), 'V/V')}</Num>
+              <Num>{formatSignificant(Math.abs(c.gain))} V/V</Num>
               <Num>{formatDb(c.cmrrAtFrequencyDb)}</Num>
               {differential && <Num>{c.cmrrDifferentialWorstCaseDb === null ? '—' : formatDb(c.cmrrDifferentialWorstCaseDb)}</Num>}
               <Num>{formatQuantity(c.powerW, 'W')}</Num>

@@ -6,7 +6,7 @@
 import { createColumnHelper, type ColumnDef, type RowData } from '@tanstack/react-table';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
 import { Verdict } from '../../../../components/ui/verdict';
-import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatTargetDb } from '../../lib/figure-format';
+import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant, formatTargetDb } from '../../lib/figure-format';
 import { matchesTopologyText, type OptionRow, type RuledFigure, type SpecTargets } from '../../lib/option-rows';
 import { ColumnTitle } from './column-title';
 import { FigureCell } from './figure-cell';
@@ -89,7 +89,7 @@ export function optionColumns(targets: SpecTargets | null): AnyColumn[] {
       cell: ({ row }) => {
         const { gain, gainErrorPercent, standing } = row.original;
         const error = gainErrorPercent === null ? null : <span className="ml-1 text-[0.75rem] opacity-70">({formatDeviationPercent(gainErrorPercent)})</span>;
-        return <FigureCell text={gain === null ? null : formatQuantity(gain, '1')} standing={standing.gain} extra={error} />;
+        return <FigureCell text={gain === null ? null : formatSignificant(gain)} standing={standing.gain} extra={error} />;
       },
     }),
     figureColumn('tailCurrentA', quantity('A'), 'Tail current', 'nominal'),

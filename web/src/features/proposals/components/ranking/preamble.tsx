@@ -4,7 +4,8 @@ import { topologyName } from '../../lib/topology-names';
 
 /** The engine writes cautions as "Caution: …"; the block's heading already says so. */
 function withoutCautionWord(text: string): string {
-  return text.replace(/^caution:\s*/i, '');
+  const rest = text.replace(/^caution:\s*/i, '');
+  return rest.charAt(0).toUpperCase() + rest.slice(1);
 }
 
 /** Hazard cautions in a block nobody can miss: an alert, a glyph and words, not colour alone. */

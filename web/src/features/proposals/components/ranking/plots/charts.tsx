@@ -29,6 +29,11 @@ function axis(theme: ChartTheme, label: string, values: uPlot.Axis['values'], ex
   };
 }
 
+/** Decimals that show an axis step of `increment` without trailing noise (a step of 0.02 -> 2). */
+function decimalsFor(increment: number): number {
+  return Math.max(0, Math.min(6, -Math.floor(Math.log10(increment) + 1e-9)));
+}
+
 const NO_ZOOM: uPlot.Cursor = { drag: { x: false, y: false } };
 const valueAt = (values: (number | null)[], index: number | null, format: (v: number) => string) => {
   const v = index === null ? null : values[index];
@@ -145,7 +150,7 @@ export function TemperatureChart({ plot }: { plot: TemperaturePlot }) {
       axes: [
         axis(theme, 'Temperature (°C)', (_u, splits) => splits.map((v) => formatQuantity(v, '°C'))),
         axis(theme, 'Tail current (A)', (_u, splits) => splits.map((v) => formatQuantity(v, 'A', 4)), { scale: 'A', size: 68 }),
-        axis(theme, 'Gain (V/V)', (_u, splits) => splits.map((v) => formatQuantity(v, '1', 3)), { scale: 'gain', side: 1, size: 48, grid: { show: false } }),
+        axis(theme, 'Gain (V/V)', (_u, splits, _axis, _space, increment) => splits.map((v) => v.toFixed(decimalsFor(increment))), { scale: 'gain', side: 1, size: 48, grid: { show: false } }),
       ],
       hooks: { setCursor: [onCursor] },
     }),
