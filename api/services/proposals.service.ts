@@ -4,7 +4,7 @@
  * let a reviewer approve or return. Every step checks the transition in shared/workflow, and
  * writes the record and its audit event in one transaction.
  */
-import type { DataSource, EntityManager } from 'typeorm';
+import { In, type DataSource, type EntityManager } from 'typeorm';
 import { ENGINE_VERSION, evaluateDesign, recommend, type RecommendResult } from '../../shared/engine/index';
 import type { Design, RuleSet, TopologyId } from '../../shared/engine/types';
 import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
@@ -133,17 +133,23 @@ export async function createProposal(dataSource: DataSource, actor: Viewer, spec
   return getProposal(dataSource, actor, proposal.id);
 }
 
-/** One page of a project's proposals, newest first, without the engine output. */
+/** One page of a project's proposals, newest first, without the engine output, with each one's spec title and version number. */
 export async function listProposals(dataSource: DataSource, viewer: Viewer, projectId: number, query: { status?: ProposalState; page: number; pageSize: number }) {
   await projectFor(dataSource, viewer, projectId);
   const where = { projectId, ...(query.status ? { status: query.status } : {}) };
-  const [items, total] = await dataSource.getRepository(ProposalEntity).findAndCount({
+  const [rows, total] = await dataSource.getRepository(ProposalEntity).findAndCount({
     select: { id: true, projectId: true, specId: true, specVersionId: true, engineVersion: true, rulesetVersion: true, recommendedTopology: true, status: true, createdById: true, createdAt: true, updatedAt: true },
     where,
     order: { id: 'DESC' },
     skip: (query.page - 1) * query.pageSize,
     take: query.pageSize,
   });
+  const versionIds = [...new Set(rows.map((r) => r.specVersionId))];
+  const versions = versionIds.length
+    ? await dataSource.getRepository(SpecVersionEntity).find({ select: { id: true, version: true, title: true }, where: { id: In(versionIds) } })
+    : [];
+  const byId = new Map(versions.map((v) => [v.id, v]));
+  const items = rows.map((r) => ({ ...r, specVersionNumber: byId.get(r.specVersionId)?.version ?? null, specTitle: byId.get(r.specVersionId)?.title ?? null }));
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
 

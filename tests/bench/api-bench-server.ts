@@ -1,10 +1,13 @@
 /**
  * The server half of the API benchmark, forked by api.bench.ts so that the load generator does
- * not share the server's thread: a fresh SQLite file in a temp dir; a listed project holding
- * 10,000 stored proposals (the engine run once through the service, then 9,999 copies of its
- * row in one INSERT); a second project whose spec takes the new proposals, so the listed one
- * keeps exactly 10,000; the real app on 127.0.0.1 on an ephemeral port. Says `ready` over IPC;
- * `stop` answers `stopped` with the count of server errors logged, closes everything and
+ * not share the server's thread: a fresh SQLite file in a temp dir holding
+ * - a listed project with 10,000 stored proposals (the engine run once through the service,
+ *   then 9,999 copies of its row in one INSERT), which keeps exactly that many;
+ * - a second project with one spec (asked again and again: its ranking is reused after the
+ *   first) and 2,000 copies of it, each a spec version never ranked (asked once each: the
+ *   engine runs for every request);
+ * and the real app on 127.0.0.1 on an ephemeral port. Says `ready` over IPC; `stop` answers
+ * `stopped` (server errors logged, proposals made and engine runs), closes everything and
  * removes the temp dir.
  */
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
@@ -21,6 +24,8 @@ import { createSpec } from '../../api/services/specs.service';
 import { createUser } from '../../api/services/users.service';
 
 const STORED_PROPOSALS = 10_000;
+/** More never-ranked spec versions than the engine-bound runs can use up (about 100 per second at best). */
+const FRESH_SPECS = 2_000;
 /** The demo spec every benchmarked proposal ranks (six topologies, 2,000 Monte Carlo draws). */
 const BENCH_SPEC_FILE = 'studio-line-receiver.json';
 const PASSWORD = 'bench-password-0815';
@@ -30,8 +35,10 @@ export interface BenchServerReady {
   port: number;
   /** The project holding the stored proposals (listed). */
   listedProjectId: number;
-  /** The spec new proposals are asked for (in another project). */
-  specId: number;
+  /** A spec asked repeatedly (its ranking is reused after the first proposal). */
+  reusedSpecId: number;
+  /** Specs whose latest version was never ranked: each asked once, the engine runs. */
+  freshSpecIds: number[];
   specTitle: string;
   designerEmail: string;
   password: string;
@@ -42,9 +49,13 @@ export interface BenchServerReady {
 export interface BenchServerStopped {
   type: 'stopped';
   serverErrors: number;
+  /** Proposals made during the run, and how many distinct spec versions they rank (engine runs). */
+  proposalsMade: number;
+  engineRuns: number;
 }
 
 const PROPOSAL_COLUMNS = 'project_id, spec_id, spec_version_id, engine_version, ruleset_version, result, recommended_topology, status, created_by_id, created_at, updated_at';
+const COPIES = 'WITH RECURSIVE copy(n) AS (SELECT 1 UNION ALL SELECT n + 1 FROM copy WHERE n < ?)';
 
 const dir = mkdtempSync(join(tmpdir(), 'longtail-api-bench-'));
 const dataSource = await openDatabase(join(dir, 'bench.sqlite'));
@@ -71,17 +82,25 @@ const asked = await projectWithSpec('API benchmark: new proposals');
 
 const seedStart = performance.now();
 const first = await createProposal(dataSource, designer, listed.spec.id, ruleSet);
-await dataSource.transaction((manager) =>
-  manager.query(
-    `WITH RECURSIVE copy(n) AS (SELECT 1 UNION ALL SELECT n + 1 FROM copy WHERE n < ?)
-     INSERT INTO proposal (${PROPOSAL_COLUMNS}) SELECT ${PROPOSAL_COLUMNS} FROM proposal, copy WHERE proposal.id = ?`,
-    [STORED_PROPOSALS - 1, first.id],
-  ),
-);
+await dataSource.transaction(async (manager) => {
+  await manager.query(`${COPIES} INSERT INTO proposal (${PROPOSAL_COLUMNS}) SELECT ${PROPOSAL_COLUMNS} FROM proposal, copy WHERE proposal.id = ?`, [STORED_PROPOSALS - 1, first.id]);
+  // Copies of the asked spec, each with a version 1 of the same document
+  await manager.query(
+    `${COPIES} INSERT INTO spec (project_id, title, latest_version, created_by_id, created_at, updated_at)
+     SELECT project_id, title, latest_version, created_by_id, created_at, updated_at FROM spec, copy WHERE spec.id = ?`,
+    [FRESH_SPECS, asked.spec.id],
+  );
+  await manager.query(
+    `INSERT INTO spec_version (spec_id, version, title, payload, created_by_id, created_at)
+     SELECT s.id, 1, v.title, v.payload, v.created_by_id, v.created_at FROM spec s, spec_version v WHERE s.project_id = ? AND s.id > ? AND v.spec_id = ?`,
+    [asked.project.id, asked.spec.id, asked.spec.id],
+  );
+});
 // Start from a checkpointed file, as a server that has been running a while would
 await dataSource.query('PRAGMA wal_checkpoint(TRUNCATE)');
 const seedMs = performance.now() - seedStart;
 const [{ n: storedProposals }] = await dataSource.query('SELECT count(*) AS n FROM proposal WHERE project_id = ?', [listed.project.id]);
+const freshSpecs: { id: number }[] = await dataSource.query('SELECT id FROM spec WHERE project_id = ? AND id > ? ORDER BY id', [asked.project.id, asked.spec.id]);
 
 let serverErrors = 0;
 const app = createApp({ dataSource, sessionSecret: 'bench-session-secret-0123456789abcdef', ruleSet, log: () => (serverErrors += 1) });
@@ -92,7 +111,8 @@ server.listen(0, '127.0.0.1', () => {
     type: 'ready',
     port: address.port,
     listedProjectId: listed.project.id,
-    specId: asked.spec.id,
+    reusedSpecId: asked.spec.id,
+    freshSpecIds: freshSpecs.map((s) => s.id),
     specTitle: asked.spec.title,
     designerEmail: designer.email,
     password: PASSWORD,
@@ -106,7 +126,8 @@ let stopping = false;
 async function stop(): Promise<void> {
   if (stopping) return;
   stopping = true;
-  const stopped: BenchServerStopped = { type: 'stopped', serverErrors };
+  const [made] = await dataSource.query('SELECT count(*) AS proposals, count(DISTINCT spec_version_id) AS versions FROM proposal WHERE project_id = ?', [asked.project.id]);
+  const stopped: BenchServerStopped = { type: 'stopped', serverErrors, proposalsMade: Number(made.proposals), engineRuns: Number(made.versions) };
   await new Promise((resolve) => process.send?.(stopped, undefined, undefined, resolve));
   server.closeAllConnections();
   await new Promise((resolve) => server.close(resolve));

@@ -53,6 +53,9 @@ export interface SpecDiff {
 
 export interface ProposalSummary {
   id: number;
+  /** In list answers: the spec version's number and title (absent on a single proposal). */
+  specVersionNumber?: number | null;
+  specTitle?: string | null;
   projectId: number;
   specId: number;
   specVersionId: number;

@@ -2,7 +2,7 @@ import type { HTMLAttributes, ReactNode } from 'react';
 import { cn } from '../../lib/cn';
 
 /** A panel of content on the paper background. */
-export function Sheet({ title, actions, className, children, ...props }: HTMLAttributes<HTMLElement> & { title?: ReactNode; actions?: ReactNode }) {
+export function Sheet({ title, actions, className, children, ...props }: Omit<HTMLAttributes<HTMLElement>, 'title'> & { title?: ReactNode; actions?: ReactNode }) {
   return (
     <section className={cn('rounded-lg border border-rule bg-sheet p-4 dark:border-night-rule dark:bg-night-sheet', className)} {...props}>
       {(title || actions) && (

@@ -31,7 +31,7 @@ export function OverrideEditor({
   const ranked = options.find((o) => o.topology === draft.topology) ?? null;
   const readings = readDraft(draft);
   const whatIf = useWhatIf(designFromDraft(draft));
-  const whatIfFieldErrors = fieldErrorsOf(whatIf.query.error);
+  const whatIfFieldErrors = fieldErrorsOf(whatIf.settling ? null : whatIf.query.error);
   const series = proposal.specVersion.payload.resistors.series;
   const setText = (key: FieldKey, text: string) => onDraftChange({ ...draft, text: { ...draft.text, [key]: text } });
   const pairDiffers = ranked?.design ? PAIR_FIELDS.some((f) => readingOf(readings.get(f.key)) !== fieldValue(ranked.design!, f.key)) : false;

@@ -1,0 +1,86 @@
+import { describe, expect, test } from 'vitest';
+import { blockingShortCount, matchesTopologyText, optionRows, specTargets } from '../../../../web/src/features/proposals/lib/option-rows';
+import { TOPOLOGY_NAMES, topologyName } from '../../../../web/src/features/proposals/lib/topology-names';
+import { strainBridge, studioLine } from './fixtures';
+
+describe('optionRows', () => {
+  const result = strainBridge();
+  const rows = optionRows(result);
+  const row = (topology: string) => rows.find((r) => r.topology === topology)!;
+
+  test('one row per option in ranking order, with readable names', () => {
+    expect(rows.map((r) => r.rank)).toEqual([1, 2, 3, 4, 5, 6]);
+    expect(rows.map((r) => r.name)).toEqual(['Cascode mirror', 'Wilson mirror', 'Degenerated mirror', 'Widlar source', 'Simple mirror', 'Resistor']);
+  });
+
+  test('the recommendation is marked on its row only', () => {
+    expect(rows.filter((r) => r.recommended).map((r) => r.topology)).toEqual([result.recommended]);
+  });
+
+  test('figures are read from predicted and figures', () => {
+    const option = result.options[0];
+    expect(row('cascode')).toMatchObject({
+      tailImpedanceAtFrequencyOhm: option.figures!.tailImpedanceAtFrequencyOhm,
+      cmrrDcDb: option.predicted!.cmrrDb.singleEnded,
+      cmrrAtFrequencyDb: option.figures!.cmrrAtFrequencyDb,
+      mismatchWorstCaseDb: option.figures!.cmrrDifferentialWorstCaseDb,
+      yieldPercent: option.figures!.monteCarloYieldPercent,
+      tailCurrentA: option.predicted!.tailCurrentA,
+      powerWorstW: option.figures!.powerWorstW,
+      swingMarginV: option.figures!.swingMarginV,
+    });
+  });
+
+  test('a failing blocking check marks its figure short; an advisory one a note', () => {
+    expect(row('resistor').standing).toMatchObject({ cmrrAtFrequencyDb: 'short', yieldPercent: 'short', mismatchWorstCaseDb: 'note', powerWorstW: 'short' });
+    expect(row('cascode').standing).toEqual({});
+  });
+
+  test('the count of blocking checks short', () => {
+    expect(rows.map((r) => [r.topology, r.blockingShortCount])).toEqual([
+      ['cascode', 0],
+      ['wilson', 0],
+      ['degenerated-mirror', 0],
+      ['widlar', 1],
+      ['simple-mirror', 1],
+      ['resistor', 4],
+    ]);
+    expect(blockingShortCount(result.options[5])).toBe(4);
+  });
+
+  test('an unsolved option keeps its row with empty figures', () => {
+    const broken = { ...result.options[0], predicted: null, figures: null, passes: false };
+    const [only] = optionRows({ ...result, options: [broken] });
+    expect(only.unsolved).toBe(true);
+    expect(only.cmrrDcDb).toBeNull();
+    expect(only.tailCurrentA).toBeNull();
+  });
+});
+
+describe('matchesTopologyText', () => {
+  test.each([
+    ['', 'resistor', true],
+    ['mirror', 'simple-mirror', true],
+    ['MIRROR', 'cascode', true],
+    ['mirror', 'widlar', false],
+    ['widlar', 'widlar', true],
+    ['degenerated-m', 'degenerated-mirror', true],
+    ['  wilson ', 'wilson', true],
+  ] as const)('"%s" against %s: %s', (text, topology, expected) => {
+    expect(matchesTopologyText({ topology, name: topologyName(topology) }, text)).toBe(expected);
+  });
+});
+
+describe('specTargets', () => {
+  test('differential spec: frequency, requirement and margin, yield', () => {
+    expect(specTargets(strainBridge())).toMatchObject({ frequencyHz: 2500, requiredDb: 78, marginDb: 6, requiredYieldPercent: 99, differential: true, gainTarget: 42 });
+  });
+  test('single-ended spec', () => {
+    expect(specTargets(studioLine())?.differential).toBe(false);
+  });
+});
+
+test('every topology has a readable name', () => {
+  expect(Object.values(TOPOLOGY_NAMES)).toEqual(['Resistor', 'Simple mirror', 'Degenerated mirror', 'Widlar source', 'Wilson mirror', 'Cascode mirror']);
+  expect(topologyName('something-new')).toBe('something-new');
+});
