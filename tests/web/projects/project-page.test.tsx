@@ -17,7 +17,7 @@ const STATES = ['ranked', 'decided', 'returned', 'approved'] as const;
 
 function proposal(id: number): ProposalSummary {
   return {
-    id, projectId: 1, specId: 7, specVersionId: 70 + (id % 2), engineVersion: '1.0.0', rulesetVersion: 'abc',
+    id, projectId: 1, specId: 7, specVersionId: 70 + (id % 2), specVersionNumber: 1 + (id % 2), specTitle: 'Strain bridge receiver', engineVersion: '1.0.0', rulesetVersion: 'abc',
     recommendedTopology: id % 3 === 0 ? null : 'degenerated-mirror', status: STATES[id % 4], createdById: 3,
     createdAt: '2026-11-01T10:00:00.000Z', updatedAt: '2026-11-02T10:00:00.000Z',
   };
@@ -29,8 +29,6 @@ function answer(url: URL): unknown {
   if (url.pathname === '/api/projects/1/specs')
     return { items: [{ id: 7, projectId: 1, title: 'Strain bridge receiver', latestVersion: 2, createdById: 2, createdAt: '2026-11-01T00:00:00Z', updatedAt: '2026-11-03T00:00:00Z' }] };
   if (url.pathname === '/api/projects/1/members') return { items: [] };
-  if (url.pathname === '/api/specs/7/versions')
-    return { items: [70, 71].map((id, i) => ({ id, specId: 7, version: i + 1, title: 'Strain bridge receiver', payload: {}, createdById: 2, createdAt: '2026-11-01T00:00:00Z' })) };
   if (url.pathname === '/api/projects/1/proposals') {
     const page = Number(url.searchParams.get('page'));
     const pageSize = Number(url.searchParams.get('pageSize'));

@@ -12,7 +12,6 @@ export const projectKeys = {
   members: (id: number) => ['projects', 'detail', id, 'members'] as const,
   proposals: (id: number, status: ProposalState | 'all', page: number) => ['projects', 'detail', id, 'proposals', status, page] as const,
   proposalCount: (id: number, status: ProposalState) => ['projects', 'detail', id, 'proposal-count', status] as const,
-  specVersions: (id: number, specId: number) => ['projects', 'detail', id, 'specs', specId, 'versions'] as const,
 };
 
 export const projectListQuery = () => queryOptions({ queryKey: projectKeys.list(), queryFn: () => apiClient.get<Items<Project>>(api.projects) });
@@ -45,17 +44,6 @@ export const projectProposalCountQuery = (id: number, status: ProposalState) =>
       const query = new URLSearchParams({ status, page: '1', pageSize: '1' });
       return (await apiClient.get<Page<ProposalSummary>>(api.projectProposals(id, `?${query}`))).total;
     },
-  });
-
-/**
- * A spec's versions, for the version number of a proposal's `specVersionId` (the proposal list
- * names the version by id only). Under the project's specs key, so a spec change refreshes it.
- */
-export const projectSpecVersionsQuery = (projectId: number, specId: number) =>
-  queryOptions({
-    queryKey: projectKeys.specVersions(projectId, specId),
-    queryFn: () => apiClient.get<Items<SpecVersion>>(api.specVersions(specId)),
-    staleTime: 5 * 60_000,
   });
 
 export function addMember(projectId: number, userId: number): Promise<unknown> {

@@ -1,27 +1,15 @@
-import { useQueries } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { StateBadge } from '../../../components/ui/state-badge';
 import { paths } from '../../../config/paths';
 import type { ProposalSummary, Spec } from '../../../lib/api-types';
-import { projectSpecVersionsQuery } from '../api/project-queries';
 import { topologyWords } from '../utils/topology-words';
 import { DenseTable, rowLink, Td, Th, Tr } from './dense-table';
 import { When } from './when';
 
-/** Version numbers by spec-version id, for the specs that appear on this page. */
-function useVersionNumbers(projectId: number, proposals: readonly ProposalSummary[]): Map<number, number> {
-  const specIds = [...new Set(proposals.map((p) => p.specId))];
-  return useQueries({
-    queries: specIds.map((specId) => projectSpecVersionsQuery(projectId, specId)),
-    combine: (results) => new Map(results.flatMap((r) => r.data?.items.map((v) => [v.id, v.version] as const) ?? [])),
-  });
-}
-
 const soft = 'text-ink-soft dark:text-night-ink-soft';
 
-export function ProposalsTable({ projectId, proposals, specs }: { projectId: number; proposals: readonly ProposalSummary[]; specs: readonly Spec[] }) {
+export function ProposalsTable({ proposals, specs }: { projectId: number; proposals: readonly ProposalSummary[]; specs: readonly Spec[] }) {
   const titles = new Map(specs.map((s) => [s.id, s.title]));
-  const versions = useVersionNumbers(projectId, proposals);
   return (
     <DenseTable caption="Proposals of this project">
       <thead>
@@ -37,7 +25,7 @@ export function ProposalsTable({ projectId, proposals, specs }: { projectId: num
       </thead>
       <tbody>
         {proposals.map((proposal) => {
-          const version = versions.get(proposal.specVersionId);
+          const version = proposal.specVersionNumber;
           return (
             <Tr key={proposal.id}>
               <Td className="tabular-nums">
@@ -45,17 +33,11 @@ export function ProposalsTable({ projectId, proposals, specs }: { projectId: num
                   #{proposal.id}
                 </Link>
               </Td>
-              <Td className="max-w-[22rem] truncate" title={titles.get(proposal.specId)}>
-                {titles.get(proposal.specId) ?? <span className={soft}>Spec #{proposal.specId}</span>}
+              <Td className="max-w-[22rem] truncate" title={proposal.specTitle ?? titles.get(proposal.specId)}>
+                {proposal.specTitle ?? titles.get(proposal.specId) ?? <span className={soft}>Spec #{proposal.specId}</span>}
               </Td>
               <Td className="text-right tabular-nums">
-                {version === undefined ? (
-                  <span className={soft} aria-label="version loading">
-                    …
-                  </span>
-                ) : (
-                  `v${version}`
-                )}
+                {version == null ? <span className={soft}>—</span> : `v${version}`}
               </Td>
               <Td className="whitespace-nowrap">
                 {proposal.recommendedTopology ? topologyWords(proposal.recommendedTopology) : <span className={soft}>None passes</span>}

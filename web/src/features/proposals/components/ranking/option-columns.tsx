@@ -75,6 +75,8 @@ export function optionColumns(targets: SpecTargets | null): AnyColumn[] {
     }),
     column.accessor((row) => (row.passes ? 0 : row.unsolved ? 100 : row.blockingShortCount), {
       id: 'verdict',
+      // Passing first on the first click; figures sort largest first (TanStack's default for numbers).
+      sortDescFirst: false,
       header: () => <ColumnTitle title="Verdict" sub="blocking short" />,
       filterFn: (row, _id, passingOnly: boolean) => !passingOnly || row.original.passes,
       cell: ({ row }) => verdictOf(row.original),

@@ -4,9 +4,16 @@
  */
 import { lazy, type ComponentType } from 'react';
 
-const charts = () => import('./charts');
+type ChartsModule = typeof import('./charts');
+/** One import shared by the three charts; forgotten after a failure so a later render can retry. */
+let loading: Promise<ChartsModule> | null = null;
+const charts = (): Promise<ChartsModule> =>
+  (loading ??= import('./charts').catch((error: unknown) => {
+    loading = null;
+    throw error;
+  }));
 
-function lazyChart<P extends object>(pick: (module: Awaited<ReturnType<typeof charts>>) => ComponentType<P>) {
+function lazyChart<P extends object>(pick: (module: ChartsModule) => ComponentType<P>) {
   return lazy(async () => {
     try {
       return { default: pick(await charts()) };

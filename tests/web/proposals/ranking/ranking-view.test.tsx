@@ -1,0 +1,107 @@
+// @vitest-environment jsdom
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { cleanup, render, screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { afterEach, describe, expect, test, vi } from 'vitest';
+import { RankingView } from '../../../../web/src/features/proposals/components/ranking-view';
+import type { Proposal } from '../../../../web/src/lib/api-types';
+import { proposalOf, strainBridge, studioLine } from './fixtures';
+
+// uPlot needs a canvas; jsdom has none. The lazy chart module is replaced by stand-ins.
+vi.mock('../../../../web/src/features/proposals/components/ranking/plots/charts', () => ({
+  RejectionChart: ({ selected }: { selected: string }) => <div data-testid="rejection-chart">{selected}</div>,
+  HistogramChart: () => <div data-testid="histogram-chart" />,
+  TemperatureChart: () => <div data-testid="temperature-chart" />,
+}));
+
+afterEach(cleanup);
+
+function renderView(proposal: Proposal) {
+  const client = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+  render(
+    <QueryClientProvider client={client}>
+      <RankingView proposal={proposal} />
+    </QueryClientProvider>,
+  );
+  return userEvent.setup();
+}
+
+const detail = () => document.getElementById('option-detail')!;
+
+describe('RankingView', () => {
+  test('summary with the readable name, and the estimates notice; no caution block without cautions', () => {
+    renderView(proposalOf(strainBridge()));
+    expect(screen.queryByRole('alert')).toBeNull();
+    expect(screen.getByText('Degenerated mirror', { selector: 'span' })).toBeTruthy();
+    expect(screen.getByText(/the simplest option that passes every blocking check \(3 of 6 options pass\)/)).toBeTruthy();
+    expect(screen.getByText(/confirm them by SPICE simulation and bench measurement/)).toBeTruthy();
+  });
+
+  test('cautions show in an alert, with a glyph and words', () => {
+    const result = strainBridge();
+    result.cautions = ['Caution: the input is patient-connected. Medical electrical equipment falls under IEC 60601-1.'];
+    renderView(proposalOf(result));
+    const alert = screen.getByRole('alert');
+    expect(alert.textContent).toContain('⚠');
+    expect(alert.textContent).toContain('Caution');
+    expect(within(alert).getByText(/^The input is patient-connected\. Medical electrical equipment falls under IEC 60601-1\.$/)).toBeTruthy();
+  });
+
+  test('no recommendation is said plainly', () => {
+    const result = { ...strainBridge(), recommended: null, summary: 'None of the 6 options passes every blocking check; the ranking shows what each one lacks.' };
+    renderView(proposalOf(result));
+    expect(screen.getByText('No recommendation')).toBeTruthy();
+    // The detail then opens on the first-ranked option.
+    expect(within(detail()).getByRole('heading', { level: 2 }).textContent).toBe('Cascode mirror');
+  });
+
+  test('the detail opens on the recommendation: schematic, sized values, checks, corners, notes', () => {
+    renderView(proposalOf(strainBridge()));
+    const panel = within(detail());
+    expect(panel.getByRole('heading', { level: 2 }).textContent).toBe('Degenerated mirror');
+    expect(panel.getByRole('img').getAttribute('aria-label')).toContain('degenerated mirror tail');
+    expect(panel.getByRole('rowheader', { name: 'RE3, RE4' })).toBeTruthy();
+    expect(panel.getAllByText('1.05 kΩ').length).toBeGreaterThan(0);
+    expect(panel.getAllByText(/E96, ±1 %/).length).toBe(3);
+    expect(panel.getByRole('rowheader', { name: /Monte Carlo yield/ })).toBeTruthy();
+    expect(panel.getByText('+7.7 dB')).toBeTruthy();
+    expect(panel.getByText('governs rejection')).toBeTruthy();
+    expect(panel.getByText(/RE for about 1 V across each emitter resistor/)).toBeTruthy();
+  });
+
+  test('selecting another row changes the detail and the highlighted curve', async () => {
+    const user = renderView(proposalOf(strainBridge()));
+    await user.click(screen.getByRole('button', { name: 'Wilson mirror' }));
+    const panel = within(detail());
+    expect(panel.getByRole('heading', { level: 2 }).textContent).toBe('Wilson mirror');
+    expect([...detail().querySelectorAll('[data-device]')].map((g) => g.getAttribute('data-device')).sort()).toEqual(['Q1', 'Q2', 'Q3', 'Q4', 'Q5']);
+    expect((await screen.findByTestId('rejection-chart')).textContent).toBe('wilson');
+  });
+
+  test('failing checks come first, each with its verdict and reason', async () => {
+    const user = renderView(proposalOf(strainBridge()));
+    await user.click(screen.getByRole('button', { name: 'Resistor' }));
+    const rows = within(detail()).getAllByRole('row');
+    const checkRows = rows.filter((r) => r.closest('table')?.querySelector('caption')?.textContent?.startsWith('Checks'));
+    expect(checkRows[1].textContent).toMatch(/^✕Short/);
+    expect(within(detail()).getByText(/Falls short on 4 blocking checks/)).toBeTruthy();
+  });
+
+  test('plots load lazily, each with a summary caption', async () => {
+    renderView(proposalOf(strainBridge()));
+    expect(await screen.findByTestId('rejection-chart')).toBeTruthy();
+    expect(await screen.findByTestId('histogram-chart')).toBeTruthy();
+    expect(await screen.findByTestId('temperature-chart')).toBeTruthy();
+    const figure = screen.getByRole('figure', { name: 'Rejection against frequency, every option' });
+    expect(figure.getAttribute('aria-describedby')).toBeTruthy();
+    expect(document.getElementById(figure.getAttribute('aria-describedby')!)!.textContent).toMatch(/^Cascode mirror keeps 101\.8 dB at 2\.5 kHz/);
+  });
+
+  test('a single-ended spec says why there is no Monte Carlo histogram', async () => {
+    renderView(proposalOf(studioLine(), 'studio'));
+    expect(await screen.findByTestId('temperature-chart')).toBeTruthy();
+    expect(screen.queryByTestId('histogram-chart')).toBeNull();
+    expect(screen.getByText(/single-ended output, so rejection is set by the tail/)).toBeTruthy();
+    expect(within(detail()).getByRole('rowheader', { name: 'RE1, RE2' })).toBeTruthy();
+  });
+});
