@@ -8,6 +8,8 @@ import { SessionEntity } from '../entities/session.entity';
 
 /** Session lifetime when the cookie has none, ms (one working day). */
 const DEFAULT_MAX_AGE_MS = 12 * 60 * 60 * 1000;
+/** A session's expiry is moved forward at most this often, ms: one write a minute, not one per request. */
+const TOUCH_INTERVAL_MS = 60 * 1000;
 /** How often expired sessions are deleted, ms. */
 const PRUNE_INTERVAL_MS = 15 * 60 * 1000;
 
@@ -16,6 +18,7 @@ type Callback<T = void> = (error?: unknown, value?: T) => void;
 export class TypeormSessionStore extends session.Store {
   private readonly dataSource: DataSource;
   private readonly pruneTimer: NodeJS.Timeout;
+  private readonly lastTouchMs = new Map<string, number>();
 
   constructor(dataSource: DataSource) {
     super();
@@ -37,6 +40,8 @@ export class TypeormSessionStore extends session.Store {
   async prune(): Promise<void> {
     if (!this.dataSource.isInitialized) return;
     await this.repository.delete({ expiresAtMs: LessThan(Date.now()) });
+    const staleMs = Date.now() - DEFAULT_MAX_AGE_MS;
+    for (const [sid, at] of this.lastTouchMs) if (at < staleMs) this.lastTouchMs.delete(sid);
   }
 
   override get(sid: string, callback: Callback<session.SessionData | null>): void {
@@ -54,6 +59,7 @@ export class TypeormSessionStore extends session.Store {
   }
 
   override destroy(sid: string, callback?: Callback): void {
+    this.lastTouchMs.delete(sid);
     this.repository
       .delete({ id: sid })
       .then(() => callback?.())
@@ -61,6 +67,12 @@ export class TypeormSessionStore extends session.Store {
   }
 
   override touch(sid: string, data: session.SessionData, callback?: Callback): void {
+    const now = Date.now();
+    if (now - (this.lastTouchMs.get(sid) ?? 0) < TOUCH_INTERVAL_MS) {
+      callback?.();
+      return;
+    }
+    this.lastTouchMs.set(sid, now);
     this.repository
       .update({ id: sid }, { expiresAtMs: this.expiry(data) })
       .then(() => callback?.())

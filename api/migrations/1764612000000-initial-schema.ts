@@ -51,12 +51,13 @@ const TABLES: Table[] = [
       ref('spec_version_id'),
       short('engine_version', 20),
       short('ruleset_version', 64),
-      text('result'),
       short('recommended_topology', 40, true),
       short('status', 20),
       ref('created_by_id'),
       stamp('created_at'),
       stamp('updated_at'),
+      // Last: the engine output is tens of kB, and SQLite reads a row's columns in order.
+      text('result'),
     ],
     foreignKeys: [fk('project_id', 'project'), fk('spec_id', 'spec'), fk('spec_version_id', 'spec_version'), fk('created_by_id', 'user_account')],
     indices: [

@@ -3,7 +3,7 @@ import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import type { RuleSet } from '../../shared/engine/types';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
-import { createProposal } from '../services/proposals.service';
+import { createProposalJson } from '../services/proposals.service';
 import { diffVersions, getSpec, listVersions, updateSpec } from '../services/specs.service';
 import { DIFF_QUERY, SPEC_BODY } from '../validation/bodies';
 import { idParam, validateBody, validateQuery } from '../validation/validate-request';
@@ -25,7 +25,7 @@ export function specsRoutes(dataSource: DataSource, ruleSet: RuleSet): Router {
     res.json(await diffVersions(dataSource, currentUser(req), idParam(req.params.id, 'spec'), from, to));
   });
   router.post('/:id/proposals', requirePermission('proposals:create'), async (req, res) => {
-    res.status(201).json(await createProposal(dataSource, currentUser(req), idParam(req.params.id, 'spec'), ruleSet));
+    res.status(201).type('application/json').send(await createProposalJson(dataSource, currentUser(req), idParam(req.params.id, 'spec'), ruleSet));
   });
   return router;
 }

@@ -9,7 +9,7 @@ import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
 import { countRows } from '../helpers/api-validation-helpers';
 
 type Body = { json: unknown } | { raw: string; type: string } | { multipart: Record<string, string> };
-type ProposalKey = 'ranked' | 'spareA' | 'spareB';
+type ProposalKey = 'ranked' | 'spareA' | 'spareB' | 'spareC' | 'spareD';
 
 interface BadRequest {
   /** Method and route pattern; `:id` is filled with the record made in beforeAll. */
@@ -18,7 +18,7 @@ interface BadRequest {
   as: Role | 'anonymous';
   body?: Body;
   query?: string;
-  /** Which proposal `:id` names (the spares take cases that, if wrongly accepted, would move their state). */
+  /** Which proposal `:id` names: a spare for a case that, wrongly accepted, would decide its proposal. */
   proposal?: ProposalKey;
   status: 400 | 413;
   path: string;
@@ -144,6 +144,8 @@ const BAD_REQUESTS: BadRequest[] = [
   { route: 'POST /api/proposals/:id/decision', when: 'overriding without a design', as: 'designer', body: json({ kind: 'override', reason: 'Own values' }), status: 400, path: '/design' },
   { route: 'POST /api/proposals/:id/decision', when: 'overriding with tail topology "mirror"', as: 'designer', body: json({ kind: 'override', reason: 'Own values', design: design((d) => (d.tail.topology = 'mirror')) }), status: 400, path: '/design/tail/topology' },
   { route: 'POST /api/proposals/:id/decision', when: 'the override tail has an unknown field', as: 'designer', body: json({ kind: 'override', reason: 'Own values', design: design((d) => (d.tail.gainDb = 3)) }), status: 400, path: '/design/tail/gainDb' },
+  { route: 'POST /api/proposals/:id/decision', when: 'accepting with a topology', as: 'designer', proposal: 'spareC', body: json({ kind: 'accept', topology: 'resistor' }), status: 400, path: '/topology' },
+  { route: 'POST /api/proposals/:id/decision', when: 'choosing with a design', as: 'designer', proposal: 'spareD', body: json({ kind: 'choose', topology: 'resistor', reason: 'Cheaper', design: DESIGN }), status: 400, path: '/design' },
   { route: 'POST /api/proposals/:id/decision', when: 'the reason is 4,001 characters', as: 'designer', body: json({ kind: 'choose', topology: 'resistor', reason: 'r'.repeat(4001) }), status: 400, path: '/reason' },
   { route: 'POST /api/proposals/:id/decision', when: 'the override puts the negative rail above the positive one', as: 'designer', proposal: 'spareA', body: json({ kind: 'override', reason: 'Own values', design: design((d) => (d.supply = { positiveV: -5, negativeV: 5 })) }), status: 400, path: '/design/supply/negativeV' },
   { route: 'POST /api/proposals/:id/decision', when: 'the override biases the inputs outside the rails', as: 'designer', proposal: 'spareB', body: json({ kind: 'override', reason: 'Own values', design: design((d) => (d.inputCommonModeV = 50)) }), status: 400, path: '/design/inputCommonModeV' },
@@ -193,7 +195,7 @@ describe('bad requests to the write routes', () => {
     }
     const spec = await clients.requirements.post(`/api/projects/${ids.projectId}/specs`).send({ title: 'Line receiver', payload: SPEC_PAYLOAD }).expect(201);
     ids.specId = spec.body.id;
-    for (const key of ['ranked', 'spareA', 'spareB'] as const) {
+    for (const key of ['ranked', 'spareA', 'spareB', 'spareC', 'spareD'] as const) {
       const proposal = await clients.designer.post(`/api/specs/${ids.specId}/proposals`).expect(201);
       ids.proposals[key] = proposal.body.id;
     }

@@ -55,7 +55,7 @@ describe('ReviewPanel', () => {
     const rows = within(table).getAllByRole('row').slice(1);
     expect(rows).toHaveLength(rankedOptionOf('widlar').checks.length);
     expect(rows[0].textContent).toMatch(/Short/);
-    expect(rows[0].textContent).toMatch(/CMRR target/);
+    expect(rows[0].textContent).toMatch(/Rejection, tail-limited/);
     expect(rows[0].textContent).toMatch(/13.2 dB short/);
     expect(rows[0].textContent).toContain('−13.2 dB');
     expect(await screen.findByText('Priya Valcourt')).toBeTruthy();

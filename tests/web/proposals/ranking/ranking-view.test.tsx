@@ -62,7 +62,7 @@ describe('RankingView', () => {
     expect(panel.getByRole('img').getAttribute('aria-label')).toContain('degenerated mirror tail');
     expect(panel.getByRole('rowheader', { name: 'RE3, RE4' })).toBeTruthy();
     expect(panel.getAllByText('1.05 kΩ').length).toBeGreaterThan(0);
-    expect(panel.getAllByText(/E96, ±1 %/).length).toBe(3);
+    expect(panel.getAllByText(/E96, ±1\s%/).length).toBe(3);
     expect(panel.getByRole('rowheader', { name: /Monte Carlo yield/ })).toBeTruthy();
     expect(panel.getByText('+7.7 dB')).toBeTruthy();
     expect(panel.getByText('governs rejection')).toBeTruthy();

@@ -8,13 +8,13 @@ const STANDING: Record<FigureStanding, { glyph: string; words: string; className
 };
 
 /** Splits "2.32 kΩ" into number and unit so the unit can be set softer. */
-function NumberAndUnit({ text }: { text: string }) {
+function NumberAndUnit({ text, soften }: { text: string; soften: boolean }) {
   const space = text.lastIndexOf(' ');
   if (space < 0) return <>{text}</>;
   return (
     <>
       {text.slice(0, space)}
-      <span className="ml-0.5 text-[0.85em] opacity-70">{text.slice(space + 1)}</span>
+      <span className={cn('ml-0.5 text-[0.85em]', soften && 'opacity-70')}>{text.slice(space + 1)}</span>
     </>
   );
 }
@@ -30,7 +30,7 @@ export function FigureCell({ text, standing, extra }: { text: string | null; sta
           {look.glyph}
         </span>
       )}
-      <NumberAndUnit text={text} />
+      <NumberAndUnit text={text} soften={!look} />
       {look && <span className="sr-only"> ({look.words})</span>}
       {extra}
     </span>

@@ -20,15 +20,17 @@ const SORT_GLYPH = { asc: '▲', desc: '▼' } as const;
 function HeaderCell({ header }: { header: Header<OptionRow, unknown> }) {
   const numeric = header.column.columnDef.meta?.numeric;
   const sorted = header.column.getIsSorted();
-  const content = header.isPlaceholder ? null : flexRender(header.column.columnDef.header, header.getContext());
+  // The top row only heads groups; above an ungrouped column it holds an empty cell, not a header.
+  if (header.isPlaceholder) return <td colSpan={header.colSpan} />;
+  const content = flexRender(header.column.columnDef.header, header.getContext());
   return (
     <th
       colSpan={header.colSpan}
       scope="col"
-      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : header.column.getCanSort() && !header.isPlaceholder ? 'none' : undefined}
+      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : header.column.getCanSort() && header.subHeaders.length === 0 ? 'none' : undefined}
       className={cn('px-1.5 py-1.5 align-bottom font-normal', numeric ? 'text-right' : 'text-left')}
     >
-      {header.column.getCanSort() && !header.isPlaceholder && header.subHeaders.length === 0 ? (
+      {header.column.getCanSort() && header.subHeaders.length === 0 ? (
         <button
           type="button"
           onClick={header.column.getToggleSortingHandler()}

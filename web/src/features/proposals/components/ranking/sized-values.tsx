@@ -46,7 +46,7 @@ export function SizedValues({
 }) {
   const d = design.device;
   const seriesNote = (valueOhm: number) =>
-    series === null ? undefined : onSeries(valueOhm, series) ? `${series}${tolerance ? `, ±${formatPercent(tolerance * 100)}` : ''}` : `not on ${series}`;
+    series === null ? undefined : onSeries(valueOhm, series) ? `${series}${tolerance ? `, ±${formatPercent(tolerance * 100).replace(' ', '\u00a0')}` : ''}` : `not on ${series}`;
   return (
     <table className="w-full text-sm">
       <caption className="sr-only">Sized values of this option</caption>

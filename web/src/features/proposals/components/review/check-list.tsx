@@ -1,23 +1,15 @@
 import type { Check } from '../../../../../../shared/engine/types';
-import { formatQuantity } from '../../../../../../shared/units/index';
 import { checkVerdict, Verdict, type VerdictKind } from '../../../../components/ui/verdict';
+import { formatMargin } from '../../lib/figure-format';
+import { ruleName } from '../../lib/rule-names';
 
 /** Failures first, so what stops an option is read before what holds; the rule order otherwise. */
 const ORDER: Record<VerdictKind, number> = { short: 0, undecided: 1, note: 2, holds: 3, 'not-applicable': 4 };
 
-const ACRONYMS: Record<string, string> = { cmrr: 'CMRR' };
-
-/** "cmrr-target" -> "CMRR target". */
-export function ruleTitle(rule: string): string {
-  const words = rule.split('-').map((w) => ACRONYMS[w] ?? w);
-  const first = words[0] ?? '';
-  return [first === first.toUpperCase() ? first : first.charAt(0).toUpperCase() + first.slice(1), ...words.slice(1)].join(' ');
-}
-
-/** "+17.8 dB", "−13.2 dB"; an em dash when the rule has no margin to report. */
+/** The signed margin in the ranking's own format ("+17.8 dB", "−13.2 dB"); an em dash when the rule reports none. */
 export function marginText(check: Check): string {
   if (check.margin === null || check.margin === undefined || !Number.isFinite(check.margin)) return '—';
-  return `${check.margin > 0 ? '+' : ''}${formatQuantity(check.margin, check.marginUnit ?? '1', 3)}`;
+  return formatMargin(check.margin, check.marginUnit);
 }
 
 /** How many checks came out each way, in words: "11 hold, 1 short, 2 notes". */
@@ -33,7 +25,7 @@ export function checkTally(checks: Check[]): string {
   return parts.filter(([n]) => n > 0).map(([n, word]) => `${n} ${word}`).join(', ');
 }
 
-/** Every check of an option with its verdict, the rule's reason and the margin it compared. */
+/** Every check of an option with its verdict, the rule's reason and the margin it compared (names and margins as the ranking shows them). */
 export function CheckList({ checks, caption }: { checks: Check[]; caption: string }) {
   const sorted = [...checks].sort((a, b) => ORDER[checkVerdict(a)] - ORDER[checkVerdict(b)]);
   return (
@@ -56,8 +48,10 @@ export function CheckList({ checks, caption }: { checks: Check[]; caption: strin
               <Verdict kind={checkVerdict(check)} />
             </td>
             <th scope="row" className="py-1.5 pr-3 text-left font-medium whitespace-nowrap">
-              {ruleTitle(check.rule)}
-              <span className="block text-xs font-normal text-ink-soft dark:text-night-ink-soft">{check.severity}</span>
+              {ruleName(check.rule)}
+              <span className="block text-xs font-normal text-ink-soft dark:text-night-ink-soft">
+                {check.severity} · <code className="font-mono">{check.rule}</code>
+              </span>
             </th>
             <td className="py-1.5 pr-3">{check.reason}</td>
             <td className="py-1.5 text-right tabular-nums whitespace-nowrap">{marginText(check)}</td>

@@ -34,7 +34,8 @@ function decimalsFor(increment: number): number {
   return Math.max(0, Math.min(6, -Math.floor(Math.log10(increment) + 1e-9)));
 }
 
-const NO_ZOOM: uPlot.Cursor = { drag: { x: false, y: false } };
+/** No drag-zoom (the figures are read, not explored) and no horizontal hair: the legend reads the values. */
+const NO_ZOOM: uPlot.Cursor = { drag: { x: false, y: false }, y: false };
 const valueAt = (values: (number | null)[], index: number | null, format: (v: number) => string) => {
   const v = index === null ? null : values[index];
   return v === null || v === undefined ? null : format(v);
