@@ -1,10 +1,12 @@
-/** One proposal: read it, decide, review, and its audit trail. */
+/** One proposal: read it, check own values, decide, review, and its audit trail. */
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import type { RuleSet } from '../../shared/engine/types';
+import { validateDesign } from '../../shared/validate';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
-import { decide, getProposal, proposalAudit, review } from '../services/proposals.service';
-import { DECISION_BODY, REVIEW_BODY } from '../validation/bodies';
+import { invalid } from '../errors';
+import { decide, evaluateOverride, getProposal, proposalAudit, review } from '../services/proposals.service';
+import { DECISION_BODY, EVALUATION_BODY, REVIEW_BODY } from '../validation/bodies';
 import { idParam, validateBody } from '../validation/validate-request';
 
 export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet): Router {
@@ -15,6 +17,11 @@ export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet): Route
   });
   router.post('/:id/decision', requirePermission('proposals:decide'), validateBody(DECISION_BODY), async (req, res) => {
     res.status(201).json(await decide(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), req.body, ruleSet));
+  });
+  router.post('/:id/evaluation', requirePermission('proposals:decide'), validateBody(EVALUATION_BODY), async (req, res) => {
+    const checked = validateDesign(req.body.design);
+    if (!checked.ok) throw invalid(checked.errors.map((e) => ({ path: `/design${e.path}`, message: e.message })));
+    res.json(await evaluateOverride(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), checked.value, ruleSet));
   });
   router.post('/:id/review', requirePermission('proposals:review'), validateBody(REVIEW_BODY), async (req, res) => {
     res.status(201).json(await review(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), req.body));

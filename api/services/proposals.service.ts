@@ -233,6 +233,16 @@ function checkDecisionFields(input: DecisionInput): void {
   if (issues.length > 0) throw invalid(issues);
 }
 
+/**
+ * A designer's own values checked as an override would be (every condition and rule, with the
+ * spec of the proposal) without recording anything: the full check before deciding.
+ */
+export async function evaluateOverride(dataSource: DataSource, actor: Viewer, proposalId: number, design: Design, ruleSet: RuleSet) {
+  const proposal = await proposalFor(dataSource, actor, proposalId);
+  const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
+  return evaluateDesign(checkedSpecDocument(JSON.parse(version.payload)), design, ruleSet);
+}
+
 /** A designer's decision: moves a ranked or returned proposal to decided. */
 export async function decide(dataSource: DataSource, actor: Viewer, proposalId: number, input: DecisionInput, ruleSet: RuleSet) {
   checkDecisionFields(input);

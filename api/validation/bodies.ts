@@ -52,3 +52,5 @@ export const PROPOSAL_LIST_QUERY = strict(
 );
 
 export const DIFF_QUERY = strict({ from: { type: 'integer', minimum: 1 }, to: { type: 'integer', minimum: 1 } }, ['from', 'to']);
+
+export const EVALUATION_BODY = strict({ design: DESIGN_SCHEMA }, ['design']);

@@ -44,6 +44,7 @@ export interface MonteCarloResult {
   requiredDb: number;
   yieldPercent: number;
   percentilesDb: { p1: number; p5: number; p50: number; p95: number };
+  /** Equal bins from the lowest sample to the 99th percentile; the top bin also counts every sample above it. */
   histogram: { binEdgesDb: number[]; counts: number[] };
 }
 

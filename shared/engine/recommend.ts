@@ -36,7 +36,7 @@ export interface RecommendResult {
   rulesetVersion: string;
   policy: SelectionPolicy;
   recommended: TopologyId | null;
-  /** One sentence on why the recommendation is what it is. */
+  /** One sentence on why the recommendation is what it is (the topology itself is `recommended`). */
   summary: string;
   /** Failed advisory checks that are cautions (hazards), repeated here so nobody misses them. */
   cautions: string[];
@@ -126,8 +126,8 @@ export async function evaluateDesign(spec: Spec, design: Design, ruleSet: RuleSe
 
 function summaryFor(recommended: TopologyId | null, policy: SelectionPolicy, passingCount: number, total: number): string {
   if (recommended === null) return `None of the ${total} options passes every blocking check; the ranking shows what each one lacks.`;
-  const why = policy === 'simplest-sufficient' ? 'the simplest option that passes every blocking check' : 'the passing option with the highest rejection';
-  return `${recommended}: ${why} (${passingCount} of ${total} options pass).`;
+  const why = policy === 'simplest-sufficient' ? 'The simplest option that passes every blocking check' : 'The passing option with the highest rejection';
+  return `${why} (${passingCount} of ${total} options pass).`;
 }
 
 /**

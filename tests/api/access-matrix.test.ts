@@ -13,6 +13,14 @@ import { updateSpec } from '../../api/services/specs.service';
 import { may, PERMISSIONS, type Action, type Role } from '../../shared/workflow/roles';
 import { buildApiApp, emailOf, specPayload, TEST_PASSWORD, type AccountKey, type ApiClient, type TestApi } from '../helpers/api-app';
 
+/** A designer's own values for the evaluation rows (invented; a simple mirror on ±9 V). */
+const EVALUATED_DESIGN = {
+  device: { family: 'npn', beta: 140, earlyVoltageV: 70, saturationCurrentA: 9e-15 },
+  supply: { positiveV: 9, negativeV: -9 },
+  collectorResistanceOhm: 5110,
+  tail: { topology: 'simple-mirror', referenceResistanceOhm: 15800 },
+};
+
 const CALLERS = ['anonymous', 'admin', 'requirements', 'designer', 'reviewer'] as const;
 type Caller = (typeof CALLERS)[number];
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
@@ -131,6 +139,8 @@ const MATRIX: Row[] = [
     expected: [401, 403, 403, 409, 403],
     note: 'state: approved',
   },
+  { route: 'POST /api/proposals/:id/evaluation', url: '/api/proposals/{ranked}/evaluation', rule: 'proposals:decide', body: () => ({ design: EVALUATED_DESIGN }), expected: [401, 403, 403, 200, 403] },
+  { route: 'POST /api/proposals/:id/evaluation', url: '/api/proposals/{otherProposal}/evaluation', rule: 'proposals:decide', body: () => ({ design: EVALUATED_DESIGN }), expected: [401, 403, 403, 404, 403] },
   { route: 'POST /api/proposals/:id/review', url: '/api/proposals/{decided}/review', rule: 'proposals:review', body: () => ({ verdict: 'approve' }), expected: [401, 403, 403, 403, 201] },
   { route: 'POST /api/proposals/:id/review', url: '/api/proposals/{otherProposal}/review', rule: 'proposals:review', body: () => ({ verdict: 'approve' }), expected: [401, 403, 403, 403, 404] },
   {

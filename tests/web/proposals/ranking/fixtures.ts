@@ -1,7 +1,7 @@
 /**
  * Fixtures made by the real engine; regenerate them after an engine change:
- *   npm run --silent longtail -- recommend api/demo/specs/strain-bridge-receiver.json > fixtures/strain-bridge.json
- *   npm run --silent longtail -- recommend api/demo/specs/studio-line-receiver.json  > fixtures/studio-line.json
+ *   npm run --silent longtail -- recommend api/demo/specs/strain-bridge-receiver.json > tests/web/proposals/ranking/fixtures/strain-bridge.json
+ *   npm run --silent longtail -- recommend api/demo/specs/studio-line-receiver.json > tests/web/proposals/ranking/fixtures/studio-line.json
  * Strain bridge: differential output, Monte Carlo; studio line: single-ended, pair degeneration.
  */
 import { readFileSync } from 'node:fs';

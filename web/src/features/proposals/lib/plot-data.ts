@@ -130,9 +130,3 @@ export function decadeTicksHz(minHz: number, maxHz: number): number[] {
   for (let d = Math.ceil(Math.log10(minHz) - 1e-9); d <= Math.floor(Math.log10(maxHz) + 1e-9); d++) ticks.push(Number(`1e${d}`));
   return ticks;
 }
-
-/** Whether a frequency is an exact decade (1, 10, 100 ... Hz), within floating-point noise. */
-export function isDecade(frequencyHz: number): boolean {
-  const exponent = Math.log10(frequencyHz);
-  return Math.abs(exponent - Math.round(exponent)) < 1e-9;
-}

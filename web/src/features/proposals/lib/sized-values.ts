@@ -45,11 +45,6 @@ export function sizedResistors(design: Design): SizedResistor[] {
   return rows;
 }
 
-/** The value of one named resistor of the design (e.g. "RREF"), or null when it has none. */
-export function resistorValueOhm(design: Design, name: string): number | null {
-  return sizedResistors(design).find((r) => r.names.includes(name))?.valueOhm ?? null;
-}
-
 /** Whether a value sits on the preferred-number series the spec names. */
 export function onSeries(valueOhm: number, series: ResistorSeries): boolean {
   return isOnSeries(valueOhm, series, 1e-6);

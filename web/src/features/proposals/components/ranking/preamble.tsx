@@ -28,12 +28,6 @@ export function CautionsBlock({ cautions }: { cautions: string[] }) {
   );
 }
 
-/** The engine's summary starts with the topology id ("cascode: the …"); say it with the readable name. */
-function summaryReason(result: RecommendResult): string {
-  const prefix = `${result.recommended}: `;
-  return result.recommended && result.summary.startsWith(prefix) ? result.summary.slice(prefix.length) : result.summary;
-}
-
 /** Why the recommendation is what it is, and the estimates notice. */
 export function RecommendationSummary({ result }: { result: RecommendResult }) {
   return (
@@ -43,7 +37,7 @@ export function RecommendationSummary({ result }: { result: RecommendResult }) {
           <>
             <span className="text-sm text-ink-soft dark:text-night-ink-soft">Recommended</span>
             <span className="text-lg font-medium text-fern dark:text-fern-soft">{topologyName(result.recommended)}</span>
-            <span className="text-sm">— {summaryReason(result)}</span>
+            <span className="text-sm">— {result.summary}</span>
           </>
         ) : (
           <>
