@@ -26,7 +26,8 @@ export const HAZARDOUS_VOLTAGE_LIMIT_V = 60;
 /** Points per decade and range of the rejection-versus-frequency curve. */
 const CURVE_POINTS_PER_DECADE = 4;
 const CURVE_START_HZ = 1;
-const CURVE_STOP_HZ = 1e9;
+// Stops at 10 MHz: device capacitances (CJE, CJC, TF) are not modelled, so higher figures would be fiction.
+const CURVE_STOP_HZ = 1e7;
 
 export interface ConditionFigures {
   label: string;

@@ -30,6 +30,8 @@ export const api = {
   specProposals: (id: number) => `/api/specs/${id}/proposals`,
   proposal: (id: number) => `/api/proposals/${id}`,
   decision: (id: number) => `/api/proposals/${id}/decision`,
+  /** The full evaluation an override would get, recorded nowhere. */
+  evaluation: (id: number) => `/api/proposals/${id}/evaluation`,
   review: (id: number) => `/api/proposals/${id}/review`,
   audit: (id: number) => `/api/proposals/${id}/audit`,
   analyze: '/api/analyze',

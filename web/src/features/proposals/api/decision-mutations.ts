@@ -1,13 +1,14 @@
 /**
- * The workflow's writes (decide, review) and the what-if analysis behind the override editor.
- * Mutations answer with the whole proposal: it goes into the cache, then every proposal query
- * is invalidated and awaited so the page shows the new state before the mutation settles.
+ * The workflow's writes (decide, review), the what-if analysis behind the override editor and the
+ * full check of own values. Decide and review answer with the whole proposal: it goes into the
+ * cache, then every proposal query is invalidated and awaited so the page shows the new state
+ * before the mutation settles. The full check records nothing, so it touches no cache.
  */
 import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Design } from '../../../../../shared/engine/types';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { AnalyzeResponse, DecisionInput, Proposal, ReviewInput } from '../../../lib/api-types';
+import type { AnalyzeResponse, DecisionInput, OptionEvaluation, Proposal, ReviewInput } from '../../../lib/api-types';
 import { proposalKeys } from './proposal-queries';
 
 /** What-if keys hold the design itself (as JSON), so a changed value is a new query and a stale answer is never shown for it. */
@@ -31,6 +32,11 @@ export function decideProposal(proposalId: number, body: DecisionInput): Promise
   return apiClient.post<Proposal>(api.decision(proposalId), body);
 }
 
+/** Every rule over the spec's corners, Monte Carlo included, for own values: what an override of this design would be recorded with. */
+export function evaluateOverride(proposalId: number, design: Design): Promise<OptionEvaluation> {
+  return apiClient.post<OptionEvaluation>(api.evaluation(proposalId), { design });
+}
+
 export function reviewProposal(proposalId: number, body: ReviewInput): Promise<Proposal> {
   return apiClient.post<Proposal>(api.review(proposalId), body);
 }
@@ -52,4 +58,9 @@ export function useDecideMutation(proposalId: number) {
 export function useReviewMutation(proposalId: number) {
   const settle = useSettleProposal(proposalId);
   return useMutation({ mutationFn: (body: ReviewInput) => reviewProposal(proposalId, body), onSuccess: settle });
+}
+
+/** The full check of own values; a POST because the engine works for seconds, not because anything is written. */
+export function useOverrideCheckMutation(proposalId: number) {
+  return useMutation({ mutationFn: (design: Design) => evaluateOverride(proposalId, design) });
 }

@@ -5,6 +5,7 @@
  */
 import type { Design, TailDesign, TopologyId } from '../../../../../../shared/engine/types';
 import { formatQuantity, parseQuantity } from '../../../../../../shared/units/index';
+import { ApiError } from '../../../../lib/api';
 import { fieldValue, fieldsFor, type FieldInfo, type FieldKey } from './design-fields';
 
 export interface OverrideDraft {
@@ -90,4 +91,15 @@ export function fieldKeyOfPath(path: string): FieldKey | null {
   const key = path.replace(/^\/design\//, '').replace(/^\//, '');
   const known: FieldKey[] = ['collectorResistanceOhm', 'pairEmitterResistanceOhm', 'tail/resistanceOhm', 'tail/referenceResistanceOhm', 'tail/emitterResistanceOhm'];
   return known.find((k) => key === k) ?? null;
+}
+
+/** A 400's details as messages by field (paths that name no editable field are left to the caller); nothing for other errors. */
+export function fieldErrorsOf(error: unknown): Partial<Record<FieldKey, string>> {
+  if (!(error instanceof ApiError) || error.status !== 400) return {};
+  const errors: Partial<Record<FieldKey, string>> = {};
+  for (const detail of error.details) {
+    const key = fieldKeyOfPath(detail.path);
+    if (key) errors[key] = `The server says: ${detail.message}`;
+  }
+  return errors;
 }

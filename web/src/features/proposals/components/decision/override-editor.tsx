@@ -129,17 +129,6 @@ function PairHint({ ranked, onUse }: { ranked: OptionEvaluation & { design: Desi
   );
 }
 
-/** A 400 from the analysis, as messages by field (paths that name no editable field stay in the panel). */
-function fieldErrorsOf(error: unknown): Partial<Record<FieldKey, string>> {
-  if (!(error instanceof ApiError) || error.status !== 400) return {};
-  const errors: Partial<Record<FieldKey, string>> = {};
-  for (const detail of error.details) {
-    const key = fieldKeyOfPath(detail.path);
-    if (key) errors[key] = `The server says: ${detail.message}`;
-  }
-  return errors;
-}
-
 /** What the override keeps from the design it started from (the spec's device, rails and conditions). */
 function HeldConditions({ design }: { design: Design }) {
   const parts = [
