@@ -44,3 +44,28 @@ export function watchPage(page: Page, label: string): PageProblems {
   });
   return problems;
 }
+
+/**
+ * Waits until the page has had no request in flight for `idleMs` (a single-page app's
+ * navigations never reach a new load state, so Playwright's 'networkidle' does not apply to
+ * them), then until no loading placeholder (role=status ending in "…") is visible.
+ */
+export function networkQuiet(page: Page): (idleMs?: number, timeoutMs?: number) => Promise<void> {
+  let inFlight = 0;
+  let lastChange = performance.now();
+  const change = (delta: number) => {
+    inFlight = Math.max(0, inFlight + delta);
+    lastChange = performance.now();
+  };
+  page.on('request', () => change(1));
+  page.on('requestfinished', () => change(-1));
+  page.on('requestfailed', () => change(-1));
+  return async (idleMs = 300, timeoutMs = 30_000) => {
+    const deadline = performance.now() + timeoutMs;
+    while (inFlight > 0 || performance.now() - lastChange < idleMs) {
+      if (performance.now() > deadline) throw new Error(`The page (${page.url()}) kept ${inFlight} request(s) in flight for ${timeoutMs} ms`);
+      await new Promise((resolve) => setTimeout(resolve, 50));
+    }
+    await page.getByRole('status').filter({ hasText: /…\s*$/ }).first().waitFor({ state: 'hidden', timeout: Math.max(1000, deadline - performance.now()) });
+  };
+}

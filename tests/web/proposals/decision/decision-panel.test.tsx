@@ -139,7 +139,7 @@ describe('DecisionPanel', () => {
     expect(fetchMock.to('POST', '/api/proposals/2/decision')[0].body).toEqual({ kind: 'choose', topology: 'wilson', reason: 'Wilson parts are already on the BOM.' });
   });
 
-  test('when an override is recorded, then the edited design is sent with the reason', async () => {
+  test('when an unchecked override is recorded anyway, then the edited design is sent with the reason', async () => {
     fetchMock = mockFetch({
       ...MEMBERS,
       'POST /api/analyze': analyzeAnswer,
@@ -155,6 +155,9 @@ describe('DecisionPanel', () => {
     await user.type(emitter, '2k2');
     await user.type(screen.getByRole('textbox', { name: /Reason/ }), 'Twice the degeneration for drift.');
     await user.click(screen.getByRole('button', { name: /Record decision: own values/ }));
+    // Not through the full check: a second thought first, then it goes through.
+    expect(fetchMock.to('POST', '/api/proposals/2/decision')).toHaveLength(0);
+    await user.click(within(screen.getByRole('alertdialog')).getByRole('button', { name: 'Record it anyway' }));
 
     await waitFor(() => expect(fetchMock.to('POST', '/api/proposals/2/decision')).toHaveLength(1));
     const body = fetchMock.to('POST', '/api/proposals/2/decision')[0].body as { kind: string; reason: string; design: { tail: unknown } };

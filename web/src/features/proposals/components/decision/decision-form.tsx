@@ -1,23 +1,22 @@
-import { useQueryClient } from '@tanstack/react-query';
 import { useId, useRef, useState, type FormEvent } from 'react';
 import type { TopologyId } from '../../../../../../shared/engine/types';
 import { Button } from '../../../../components/ui/button';
-import { ApiError } from '../../../../lib/api';
 import type { DecisionInput, Proposal } from '../../../../lib/api-types';
 import { cn } from '../../../../lib/cn';
 import type { useDecideMutation } from '../../api/decision-mutations';
-import { proposalKeys } from '../../api/proposal-queries';
 import { ChoiceOptions } from './choice-options';
 import { decisionStart, startingDesign, type DecisionKind } from './decision-draft';
-import { topologyTitle, type FieldKey } from './design-fields';
-import { designFromDraft, draftFromDesign, fieldKeyOfPath, type OverrideDraft } from './override-draft';
+import { topologyTitle } from './design-fields';
+import { designFromDraft, draftFromDesign, type OverrideDraft } from './override-draft';
+import { OverrideConfirmation } from './override-confirmation';
 import { OverrideEditor } from './override-editor';
-
-type ServerErrors = Partial<Record<FieldKey | 'reason' | 'topology', string>>;
+import { serverErrorsOf, SubmitError, type ServerErrors } from './submit-error';
+import { shortfallOf, useFullCheck } from './use-full-check';
 
 /**
  * The designer's decision. Everything typed stays in this form's state until the server
  * accepts it: a refused or failed request leaves the choice, the values and the reason as they were.
+ * Own values that are unchecked, or short on a blocking rule, are recorded after a second thought.
  */
 export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutation: ReturnType<typeof useDecideMutation> }) {
   const start = useState(() => decisionStart(proposal))[0];
@@ -28,6 +27,8 @@ export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutat
   const [reason, setReason] = useState('');
   const [attempted, setAttempted] = useState(false);
   const [serverErrors, setServerErrors] = useState<ServerErrors>({});
+  /** The design (as JSON) the designer was asked to confirm; the question lapses once the values change. */
+  const [confirmFor, setConfirmFor] = useState<string | null>(null);
   const reasonRef = useRef<HTMLTextAreaElement>(null);
   const formRef = useRef<HTMLFormElement>(null);
   const reasonId = useId();
@@ -35,12 +36,16 @@ export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutat
   const reasonRequired = kind !== 'accept';
   const reasonMissing = reasonRequired && reason.trim() === '';
   const overrideDesign = kind === 'override' && draft ? designFromDraft(draft) : null;
+  const fullCheck = useFullCheck(proposal.id, overrideDesign);
+  const shortfall = kind === 'override' ? shortfallOf(fullCheck) : null;
+  const confirming = shortfall !== null && confirmFor !== null && confirmFor === fullCheck.designJson;
   const chosenMissing = kind === 'choose' && chosen === '';
   const reasonError = serverErrors.reason ?? (attempted && reasonMissing ? 'Give a reason: the reviewer reads it before approving anything but the recommendation.' : undefined);
   const generalError = mutation.error;
 
   const changeKind = (next: DecisionKind) => {
     setKind(next);
+    setConfirmFor(null);
     if (next === 'override' && !draftTouched) {
       const design = startingDesign(proposal, kind === 'choose' && chosen ? chosen : undefined);
       setDraft(design ? draftFromDesign(design) : null);
@@ -50,12 +55,12 @@ export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutat
   const changeDraft = (next: OverrideDraft) => {
     setDraft(next);
     setDraftTouched(true);
+    setConfirmFor(null);
     // The values changed, so the server's word on the old ones no longer applies; the reason's and topology's still do.
     setServerErrors(({ reason, topology }) => ({ ...(reason ? { reason } : {}), ...(topology ? { topology } : {}) }));
   };
 
-  const onSubmit = (event: FormEvent) => {
-    event.preventDefault();
+  const submit = (confirmed: boolean) => {
     setAttempted(true);
     if (reasonMissing) {
       reasonRef.current?.focus();
@@ -66,11 +71,35 @@ export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutat
       formRef.current?.querySelector<HTMLInputElement>('input[aria-invalid="true"]')?.focus();
       return;
     }
+    if (shortfall && !confirmed) {
+      setConfirmFor(fullCheck.designJson);
+      return;
+    }
+    setConfirmFor(null);
     const body: DecisionInput = { kind, ...(reason.trim() ? { reason: reason.trim() } : {}) };
     if (kind === 'choose') body.topology = chosen as TopologyId;
     if (kind === 'override') body.design = overrideDesign!;
     setServerErrors({});
     mutation.mutate(body, { onError: (error) => setServerErrors(serverErrorsOf(error)) });
+  };
+
+  const onSubmit = (event: FormEvent) => {
+    event.preventDefault();
+    submit(false);
+  };
+
+  /** Confirmed: recorded as it stands, focus kept on the record button rather than lost with the question. */
+  const recordAnyway = () => {
+    submit(true);
+    formRef.current?.querySelector<HTMLButtonElement>('button[type="submit"]')?.focus();
+  };
+
+  /** Back to the values: to the full check when it has not run on them, else to the record button. */
+  const keepEditing = () => {
+    setConfirmFor(null);
+    const form = formRef.current;
+    const checkButton = form?.querySelector<HTMLButtonElement>('button[data-full-check]:not(:disabled)');
+    (shortfall?.kind === 'unchecked' && checkButton ? checkButton : form?.querySelector<HTMLButtonElement>('button[type="submit"]'))?.focus();
   };
 
   const what =
@@ -96,7 +125,7 @@ export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutat
         chosenError={serverErrors.topology ?? (attempted && chosenMissing ? 'Pick the option you choose.' : undefined)}
         override={
           draft ? (
-            <OverrideEditor proposal={proposal} draft={draft} onDraftChange={changeDraft} serverErrors={serverErrors} />
+            <OverrideEditor proposal={proposal} draft={draft} onDraftChange={changeDraft} serverErrors={serverErrors} fullCheck={fullCheck} />
           ) : (
             <p className="text-sm">No ranked option has a sized design to start from.</p>
           )
@@ -129,6 +158,7 @@ export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutat
       </div>
 
       {generalError && <SubmitError error={generalError} proposalId={proposal.id} />}
+      {confirming && <OverrideConfirmation shortfall={shortfall} onConfirm={recordAnyway} onCancel={keepEditing} pending={mutation.isPending} />}
 
       <div className="flex flex-wrap items-center gap-3">
         <Button type="submit" disabled={mutation.isPending}>
@@ -138,48 +168,4 @@ export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutat
       </div>
     </form>
   );
-}
-
-/** Why the decision was not recorded, in place; for a 409, a way to see what changed meanwhile. */
-function SubmitError({ error, proposalId }: { error: Error; proposalId: number }) {
-  const queryClient = useQueryClient();
-  const status = error instanceof ApiError ? error.status : 0;
-  const unplaced = error instanceof ApiError && status === 400 ? error.details.filter((d) => d.path !== '/reason' && d.path !== '/topology' && !fieldKeyOfPath(d.path)) : [];
-  const title = status === 409 ? 'The proposal cannot take this decision now' : status === 400 ? 'The server refused the decision: see the marked fields' : 'The decision was not recorded';
-  return (
-    <div role="alert" className="rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-soft">
-      <p className="font-medium">{title}</p>
-      <p className="mt-1">{error.message}</p>
-      {unplaced.length > 0 && (
-        <ul className="mt-1 list-inside list-disc">
-          {unplaced.map((d) => (
-            <li key={`${d.path}${d.message}`}>
-              <code>{d.path || '(request)'}</code>: {d.message}
-            </li>
-          ))}
-        </ul>
-      )}
-      <p className="mt-1 text-xs">Your choice, values and reason are still here.</p>
-      {status === 409 && (
-        <button type="button" className="mt-1 text-xs font-medium underline" onClick={() => void queryClient.invalidateQueries({ queryKey: proposalKeys.detail(proposalId) })}>
-          Show the proposal as it is now (discards this unsent decision)
-        </button>
-      )}
-    </div>
-  );
-}
-
-/** A refused decision's field messages (400 with paths), by field; nothing for other errors. */
-function serverErrorsOf(error: unknown): ServerErrors {
-  if (!(error instanceof ApiError) || error.status !== 400) return {};
-  const errors: ServerErrors = {};
-  for (const { path, message } of error.details) {
-    if (path === '/reason') errors.reason = `The server says: ${message}`;
-    else if (path === '/topology') errors.topology = `The server says: ${message}`;
-    else {
-      const key = fieldKeyOfPath(path);
-      if (key) errors[key] = `The server says: ${message}`;
-    }
-  }
-  return errors;
 }

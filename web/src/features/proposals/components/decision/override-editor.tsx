@@ -2,29 +2,34 @@ import { useId } from 'react';
 import type { Design, TopologyId } from '../../../../../../shared/engine/types';
 import { formatQuantity } from '../../../../../../shared/units/index';
 import { Button } from '../../../../components/ui/button';
-import { ApiError } from '../../../../lib/api';
 import type { OptionEvaluation, Proposal } from '../../../../lib/api-types';
 import { fieldValue, PAIR_FIELDS, tailFields, topologyTitle, type FieldKey } from './design-fields';
-import { designFromDraft, draftFromDesign, fieldKeyOfPath, readDraft, withTopology, type FieldReading, type OverrideDraft } from './override-draft';
+import { FullCheckPanel } from './full-check-panel';
+import { designFromDraft, draftFromDesign, fieldErrorsOf, readDraft, withTopology, type FieldReading, type OverrideDraft } from './override-draft';
 import { QuantityField } from './quantity-field';
+import type { FullCheck } from './use-full-check';
 import { useWhatIf } from './use-what-if';
 import { WhatIfPanel } from './what-if-panel';
 
 /**
  * Own values: the pair's and the tail's resistors (and optionally another topology), typed in
- * engineering notation, with the server's what-if beside the ranked option of the same topology.
+ * engineering notation, with the server's what-if beside the ranked option of the same topology
+ * and, on request, its full check over every rule and corner.
  */
 export function OverrideEditor({
   proposal,
   draft,
   onDraftChange,
   serverErrors,
+  fullCheck,
 }: {
   proposal: Proposal;
   draft: OverrideDraft;
   onDraftChange: (draft: OverrideDraft) => void;
   /** Field messages from a refused decision, by field. */
   serverErrors: Partial<Record<FieldKey, string>>;
+  /** The full check of the values in the fields, held by the form (its verdict matters when recording). */
+  fullCheck: FullCheck;
 }) {
   const topologyId = useId();
   const options = proposal.result.options.filter((o) => o.design);
@@ -84,7 +89,7 @@ export function OverrideEditor({
             info={info}
             text={draft.text[info.key] ?? ''}
             reading={readings.get(info.key)!}
-            serverError={serverErrors[info.key] ?? whatIfFieldErrors[info.key]}
+            serverError={serverErrors[info.key] ?? fullCheck.fieldErrors[info.key] ?? whatIfFieldErrors[info.key]}
             series={series}
             rankedOhm={ranked?.design ? fieldValue(ranked.design, info.key) : undefined}
             onChange={(text) => setText(info.key, text)}
@@ -99,7 +104,7 @@ export function OverrideEditor({
             info={info}
             text={draft.text[info.key] ?? ''}
             reading={readings.get(info.key)!}
-            serverError={serverErrors[info.key] ?? whatIfFieldErrors[info.key]}
+            serverError={serverErrors[info.key] ?? fullCheck.fieldErrors[info.key] ?? whatIfFieldErrors[info.key]}
             series={series}
             rankedOhm={ranked?.design ? fieldValue(ranked.design, info.key) : undefined}
             onChange={(text) => setText(info.key, text)}
@@ -108,6 +113,7 @@ export function OverrideEditor({
       </fieldset>
       <HeldConditions design={draft.base} />
       <WhatIfPanel proposal={proposal} whatIf={whatIf} ranked={ranked} />
+      <FullCheckPanel check={fullCheck} ranked={ranked} />
     </div>
   );
 }

@@ -12,7 +12,8 @@ import { changeText, whatIfFigures } from './what-if-figures';
 /**
  * The edited design's nominal figures beside the ranked option's of the same topology, with the
  * change, asked of the server as the values change. The full check over the spec's corners,
- * Monte Carlo included, is the server's when the decision is recorded.
+ * Monte Carlo included, is the full-check panel's on request, and the server's again when the
+ * decision is recorded.
  */
 export function WhatIfPanel({ proposal, whatIf, ranked }: { proposal: Proposal; whatIf: WhatIf; ranked: { topology: string; predicted: AnalyzeResult | null } | null }) {
   const { query, settling, hasDesign } = whatIf;
@@ -73,7 +74,7 @@ export function WhatIfPanel({ proposal, whatIf, ranked }: { proposal: Proposal; 
       )}
       {edited && !error && <Warnings warnings={edited.warnings} />}
       <p className="mt-2 text-xs text-ink-soft dark:text-night-ink-soft">
-        Nominal conditions only. When you record the decision the server checks your values with every rule over the spec’s temperature and common-mode corners, Monte Carlo included.
+        Nominal conditions only. The full check below runs every rule over the spec’s temperature and common-mode corners, Monte Carlo included, as recording the decision does.
       </p>
     </section>
   );

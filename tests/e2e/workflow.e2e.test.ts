@@ -1,0 +1,401 @@
+/**
+ * The whole workflow in the browser, in headless Chromium against the real app (built into
+ * dist/web by the e2e globalSetup, served in-process on a fresh SQLite file with the demo
+ * organisation): every demo role signs in through the form; the systems engineer writes a spec
+ * in engineering notation and asks for a ranking; the designer overrides with own values and a
+ * reason; the reviewer returns it; the designer decides again; the reviewer approves; the
+ * record shows every step. Each role is refused what it may not do, on screen and by the
+ * server (a direct API call from the page answering 403). Every step is screenshotted into
+ * test-results/screenshots/, and every page visited passes axe-core with no serious or
+ * critical violation (light theme, plus the proposal page once in the dark theme).
+ *
+ * The steps depend on each other and run in order, in one describe; each role keeps its own
+ * browser context (its own session) for the whole run.
+ */
+import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { checkAccessibility } from './helpers/accessibility';
+import { launchBrowser, networkQuiet, newContext, watchPage, type PageProblems } from './helpers/browser';
+import { apiFromPage } from './helpers/page-api';
+import { screenshots, type Screenshots } from './helpers/screenshots';
+import { startServer, type RunningServer } from './helpers/server';
+import { DEMO_ROLES, signInAs, type DemoRole } from './helpers/sign-in';
+
+/** The demo project the new spec goes into (api/seed/demo-seed.ts), and its people. */
+const PROJECT = 'Kestrel load-cell amplifier';
+const PEOPLE: Record<DemoRole, string> = { admin: 'Ines Okafor-Lind', requirements: 'Tomasz Rehn', designer: 'Priya Valcourt', reviewer: 'Samir Edelstein' };
+
+const SPEC_TITLE = 'Kestrel rev C — ±7.5 V bridge input pair (browser test)';
+const OVERRIDE_REASON = 'Stock on hand: 4k75 collector resistors and 1k emitter resistors from the rev B kit; 12k1 reference keeps the tail near 1.1 mA.';
+const RETURN_COMMENT = 'The 1 kΩ emitter resistors move the tail current off 1.1 mA: take the ranked values unless stock really forces this.';
+const APPROVE_COMMENT = 'Recommended degenerated mirror with its ranked values; margins hold at both temperature corners.';
+
+interface Actor {
+  role: DemoRole;
+  context: BrowserContext;
+  page: Page;
+  quiet: (idleMs?: number, timeoutMs?: number) => Promise<void>;
+  problems: PageProblems;
+}
+
+let server: RunningServer;
+let browser: Browser;
+let shots: Screenshots;
+const actors = {} as Record<DemoRole, Actor>;
+/** Set as the steps go. */
+let projectId = 0;
+let specId = 0;
+let proposalId = 0;
+
+async function visible(locator: Locator, timeout = 20_000): Promise<Locator> {
+  await locator.first().waitFor({ state: 'visible', timeout });
+  return locator;
+}
+
+/** Waits for the page to settle, takes the step's screenshot and runs axe on it. */
+async function record(actor: Actor, step: string): Promise<void> {
+  await actor.quiet();
+  await shots.take(actor.page, step);
+  await checkAccessibility(actor.page, `${step} (${actor.role})`);
+}
+
+async function openActor(role: DemoRole): Promise<Actor> {
+  const context = await newContext(browser, server.baseUrl);
+  const page = await context.newPage();
+  page.setDefaultTimeout(20_000);
+  return { role, context, page, quiet: networkQuiet(page), problems: watchPage(page, role) };
+}
+
+async function openProposal(actor: Actor): Promise<void> {
+  await actor.page.goto(`/proposals/${proposalId}`);
+  await visible(actor.page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
+  await visible(actor.page.getByRole('table', { name: /Tail options, ranked/ }));
+}
+
+/** Buttons and controls only a reviewer with a decision to review gets. */
+const reviewButtons = (page: Page) => page.getByRole('button', { name: /^(Approve|Return to designer)$/ });
+/** Controls only a designer deciding gets. */
+const decisionControls = (page: Page) => page.getByRole('button', { name: /^Record decision/ }).or(page.getByRole('radio', { name: /Use my own values|Accept the recommendation|Choose another ranked option/ }));
+
+describe('Longtail in the browser: spec to approved proposal', () => {
+  beforeAll(async () => {
+    shots = screenshots();
+    [server, browser] = await Promise.all([startServer(), launchBrowser()]);
+    for (const role of DEMO_ROLES) actors[role] = await openActor(role);
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await server?.close();
+    if (shots) console.log(`Screenshots (${shots.taken.length}):\n${shots.taken.map((s) => `  ${s}`).join('\n')}`);
+  });
+
+  it('shows the sign-in page to someone not signed in', async () => {
+    const { page } = actors.admin;
+    await page.goto('/');
+    await page.waitForURL(/\/sign-in/);
+    await visible(page.getByRole('heading', { level: 1, name: 'Sign in' }));
+    await record(actors.admin, 'sign-in');
+  });
+
+  it('signs in each demo role through the form and shows its workbench', async () => {
+    for (const role of DEMO_ROLES) {
+      const actor = actors[role];
+      await signInAs(actor.page, role);
+      await visible(actor.page.getByText(PEOPLE[role], { exact: true }));
+      await visible(actor.page.getByRole('link', { name: new RegExp(PROJECT) }));
+      // Only an administrator is offered People in the navigation
+      const nav = actor.page.getByRole('navigation', { name: 'Main' });
+      expect(await nav.getByRole('link', { name: 'People' }).count()).toBe(role === 'admin' ? 1 : 0);
+      await record(actor, `workbench-${role}`);
+    }
+  });
+
+  it('lets the administrator manage people', async () => {
+    const { page } = actors.admin;
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'People' }).click();
+    await visible(page.getByRole('heading', { level: 1, name: 'People' }));
+    await visible(page.getByRole('region', { name: 'Accounts' }).getByText('designer@demo.longtail.test'));
+    await record(actors.admin, 'people-admin');
+  });
+
+  it('the systems engineer opens a project and writes a new spec in engineering notation', async () => {
+    const actor = actors.requirements;
+    const { page } = actor;
+    await page.getByRole('link', { name: new RegExp(PROJECT) }).click();
+    await visible(page.getByRole('heading', { level: 1, name: PROJECT }));
+    projectId = Number(/\/projects\/(\d+)/.exec(page.url())?.[1]);
+    expect(projectId).toBeGreaterThan(0);
+    await record(actor, 'project-requirements');
+
+    await page.getByRole('link', { name: 'New spec' }).click();
+    await visible(page.getByRole('heading', { level: 1, name: 'New spec' }));
+    await visible(page.getByRole('button', { name: 'Create spec' }));
+    await record(actor, 'new-spec-empty');
+
+    await page.getByRole('textbox', { name: /^Title/ }).fill(SPEC_TITLE);
+    const supply = page.getByRole('group', { name: 'Supply rails' });
+    await supply.getByRole('textbox', { name: /Positive rail/ }).fill('7.5 V');
+    await supply.getByRole('textbox', { name: /Negative rail/ }).fill('-7.5 V');
+    await page.getByRole('textbox', { name: /Gain target/ }).fill('100');
+    await page.getByRole('textbox', { name: /Minimum CMRR/ }).fill('80 dB');
+    await page.getByRole('textbox', { name: /At frequency/ }).fill('1k');
+    const commonMode = page.getByRole('group', { name: 'Input common-mode range' });
+    await commonMode.getByRole('textbox', { name: /Lowest/ }).fill('-1');
+    await commonMode.getByRole('textbox', { name: /Highest/ }).fill('1.5');
+    await page.getByRole('textbox', { name: /Power budget/ }).fill('50m');
+    await page.getByRole('textbox', { name: /Tail capacitance/ }).fill('3.3 pF');
+
+    // Text that is no quantity is refused beside its field, then corrected
+    const tailCurrent = page.getByRole('textbox', { name: /Tail current/ });
+    await tailCurrent.fill('1.1 mm');
+    await visible(page.getByText(/cannot read '1\.1 mm'/));
+    expect(await tailCurrent.getAttribute('aria-invalid')).toBe('true');
+    await tailCurrent.fill('1.1m');
+
+    // Each entry shows the SI value it was read as
+    for (const reading of ['= 7.5 V', '= −7.5 V', '= 1 kHz', '= 50 mW', '= 3.3 pF', '= 1.1 mA']) {
+      await visible(page.getByText(reading, { exact: true }));
+    }
+    expect(await page.getByText(/cannot read/).count()).toBe(0);
+    await record(actor, 'new-spec-filled');
+
+    await page.getByRole('button', { name: 'Create spec' }).click();
+    await page.waitForURL(/\/specs\/\d+$/);
+    specId = Number(/\/specs\/(\d+)$/.exec(page.url())?.[1]);
+    await visible(page.getByRole('heading', { level: 1, name: SPEC_TITLE }));
+    await visible(page.getByText('Saved as version 1.'));
+    // The saved spec holds the values as read, shown back with prefixes
+    expect(await page.getByRole('textbox', { name: /Tail current/ }).inputValue()).toBe('1.1m');
+    expect(await page.getByRole('textbox', { name: /Tail capacitance/ }).inputValue()).toBe('3.3p');
+    await record(actor, 'spec-saved');
+  });
+
+  it('the systems engineer asks for a ranking and lands on the ranking page', async () => {
+    const actor = actors.requirements;
+    const { page } = actor;
+    await page.getByRole('button', { name: 'Rank tail options' }).click();
+    await page.waitForURL(/\/proposals\/\d+$/, { timeout: 60_000 });
+    proposalId = Number(/\/proposals\/(\d+)$/.exec(page.url())?.[1]);
+    await visible(page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
+    const options = await visible(page.getByRole('table', { name: /Tail options, ranked/ }));
+    // Six topologies were asked for: one row each
+    expect(await options.locator('tbody').getByRole('row').count()).toBe(6);
+    await visible(page.getByText('Awaiting decision').first());
+    await record(actor, 'ranking-requirements');
+  });
+
+  it('the systems engineer gets no decision or review controls, and the server refuses both', async () => {
+    const { page } = actors.requirements;
+    expect(await reviewButtons(page).count()).toBe(0);
+    expect(await decisionControls(page).count()).toBe(0);
+    await visible(page.getByRole('region', { name: 'Decision' }).getByText('No decision yet'));
+    const review = await apiFromPage(page, 'POST', `/api/proposals/${proposalId}/review`, { verdict: 'approve' });
+    expect(review).toEqual({ status: 403, code: 'forbidden' });
+    const decision = await apiFromPage(page, 'POST', `/api/proposals/${proposalId}/decision`, { kind: 'accept' });
+    expect(decision).toEqual({ status: 403, code: 'forbidden' });
+  });
+
+  it('the spec history page opens for the new spec', async () => {
+    const actor = actors.requirements;
+    await actor.page.goto(`/specs/${specId}/history`);
+    await visible(actor.page.getByRole('heading', { level: 1, name: 'Version history' }));
+    await visible(actor.page.getByText('Only one version so far'));
+    await record(actor, 'spec-history');
+  });
+
+  it('a designer opening People is not allowed, and the server refuses the accounts list', async () => {
+    const actor = actors.designer;
+    await actor.page.goto('/people');
+    await visible(actor.page.getByRole('alert').getByRole('heading', { name: 'Not allowed' }));
+    expect(await actor.page.getByRole('region', { name: 'Accounts' }).count()).toBe(0);
+    await record(actor, 'people-designer-not-allowed');
+    expect(await apiFromPage(actor.page, 'GET', '/api/users')).toEqual({ status: 403, code: 'forbidden' });
+  });
+
+  it('the designer finds the new ranking waiting in the project', async () => {
+    const actor = actors.designer;
+    const { page } = actor;
+    await page.goto(`/projects/${projectId}`);
+    await visible(page.getByRole('heading', { level: 1, name: PROJECT }));
+    await visible(page.getByRole('region', { name: 'What needs you' }).getByRole('button', { name: /1 ranking waits for your decision/ }));
+    const table = await visible(page.getByRole('table', { name: 'Proposals of this project' }));
+    const row = table.getByRole('row').filter({ has: page.getByRole('link', { name: `Ranking #${proposalId}` }) });
+    await visible(row.getByText('Awaiting decision'));
+    await record(actor, 'project-designer');
+    await row.getByRole('link', { name: `Ranking #${proposalId}` }).click();
+    await visible(page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
+  });
+
+  it('the designer overrides with own values in engineering notation and a reason', async () => {
+    const actor = actors.designer;
+    const { page } = actor;
+    const decision = page.getByRole('region', { name: 'Your decision' });
+    await visible(decision);
+    expect(await reviewButtons(page).count()).toBe(0);
+    await record(actor, 'ranking-designer');
+
+    await decision.getByRole('radio', { name: 'Use my own values' }).check();
+    await decision.getByRole('combobox', { name: 'Tail topology' }).selectOption({ label: 'Degenerated mirror' });
+    await decision.getByRole('textbox', { name: 'Collector resistor', exact: true }).fill('4k75');
+    await decision.getByRole('textbox', { name: 'Reference resistor', exact: true }).fill('12k1');
+    await decision.getByRole('textbox', { name: 'Mirror emitter resistor', exact: true }).fill('1k');
+    for (const reading of ['= 4.75 kΩ', '= 12.1 kΩ', '= 1 kΩ']) await visible(decision.getByText(new RegExp(`^${reading}`)));
+    // The live what-if answers for the typed values
+    await visible(decision.getByRole('status').filter({ hasText: 'Up to date' }));
+    await decision.getByRole('textbox', { name: /^Reason/ }).fill(OVERRIDE_REASON);
+
+    // The full check, where the form offers one, before recording
+    const fullCheck = decision.getByRole('button', { name: /Check every rule at every corner/ });
+    if ((await fullCheck.count()) > 0) {
+      await fullCheck.click();
+      await visible(decision.getByText('Up to date with the values in the fields.'), 60_000);
+    }
+    await record(actor, 'override-filled');
+
+    await decision.getByRole('button', { name: /^Record decision: own values/ }).click();
+    // Values short on a blocking rule are recorded after a second thought
+    const confirm = page.getByRole('alertdialog');
+    const recorded = page.getByRole('status').filter({ hasText: 'Decision recorded' });
+    await visible(confirm.or(recorded), 60_000);
+    if (await confirm.isVisible()) {
+      await shots.take(page, 'override-confirm');
+      await confirm.getByRole('button', { name: 'Record it anyway' }).click();
+    }
+    await visible(recorded, 60_000);
+    await visible(page.getByText('Awaiting review').first());
+    await record(actor, 'override-recorded');
+  });
+
+  it('the designer cannot review the decision: no review controls, and the server refuses', async () => {
+    const { page } = actors.designer;
+    expect(await reviewButtons(page).count()).toBe(0);
+    expect(await apiFromPage(page, 'POST', `/api/proposals/${proposalId}/review`, { verdict: 'approve' })).toEqual({ status: 403, code: 'forbidden' });
+  });
+
+  it('the reviewer sees the decision waiting and returns it with a comment', async () => {
+    const actor = actors.reviewer;
+    const { page } = actor;
+    await page.goto(`/projects/${projectId}`);
+    await visible(page.getByRole('region', { name: 'What needs you' }).getByRole('button', { name: /1 decision waits for your review/ }));
+    await record(actor, 'project-reviewer');
+
+    await openProposal(actor);
+    const review = await visible(page.getByRole('region', { name: 'Review the decision' }));
+    await visible(review.getByText(OVERRIDE_REASON));
+    expect(await decisionControls(page).count()).toBe(0);
+    await record(actor, 'review-override');
+
+    // A return needs a comment: asked for beside the field
+    await review.getByRole('button', { name: 'Return to designer' }).click();
+    await visible(review.getByText(/a return needs a comment/));
+    await review.getByRole('textbox', { name: /^Comment/ }).fill(RETURN_COMMENT);
+    await review.getByRole('button', { name: 'Return to designer' }).click();
+    await visible(page.getByRole('status').filter({ hasText: 'Returned to the designer with your comment.' }));
+    await visible(page.getByText('Returned to designer').first());
+    await record(actor, 'returned');
+  });
+
+  it('the reviewer gets no decision controls and no editable spec, and the server refuses both', async () => {
+    const actor = actors.reviewer;
+    const { page } = actor;
+    expect(await decisionControls(page).count()).toBe(0);
+    expect(await apiFromPage(page, 'POST', `/api/proposals/${proposalId}/decision`, { kind: 'accept' })).toEqual({ status: 403, code: 'forbidden' });
+
+    await page.goto(`/specs/${specId}`);
+    await visible(page.getByRole('heading', { level: 1, name: SPEC_TITLE }));
+    await visible(page.getByText(/read-only: specs are edited by systems engineers/));
+    const tailCurrent = await visible(page.getByRole('textbox', { name: /Tail current/ }));
+    expect(await tailCurrent.isEditable()).toBe(false);
+    expect(await page.getByRole('button', { name: /Save as new version|Rank tail options/ }).count()).toBe(0);
+    await record(actor, 'spec-reviewer-read-only');
+    const payload = { title: SPEC_TITLE, supply: { positiveV: 9, negativeV: -9 }, gain: { target: 100 }, cmrr: { minDb: 80 } };
+    expect(await apiFromPage(page, 'PUT', `/api/specs/${specId}`, { title: SPEC_TITLE, payload: { ...payload } })).toEqual({ status: 403, code: 'forbidden' });
+    expect(await apiFromPage(page, 'POST', `/api/specs/${specId}/proposals`)).toEqual({ status: 403, code: 'forbidden' });
+  });
+
+  it('the designer reads the comment and decides again: accepts the recommendation', async () => {
+    const actor = actors.designer;
+    const { page } = actor;
+    await page.goto(`/projects/${projectId}`);
+    await visible(page.getByRole('region', { name: 'What needs you' }).getByRole('button', { name: /1 returned by a reviewer/ }));
+    await openProposal(actor);
+    const decision = await visible(page.getByRole('region', { name: 'Your decision' }));
+    await visible(decision.getByRole('heading', { name: 'Decide again' }));
+    await visible(decision.getByText(RETURN_COMMENT));
+    await record(actor, 'decide-again');
+
+    await decision.getByRole('radio', { name: 'Accept the recommendation' }).check();
+    await decision.getByRole('button', { name: /^Record decision: accept the degenerated mirror/ }).click();
+    await visible(page.getByRole('status').filter({ hasText: 'Decision recorded' }), 60_000);
+    await visible(page.getByText('Awaiting review').first());
+    await record(actor, 'accepted');
+  });
+
+  it('the reviewer approves; the systems engineer sees no review controls on the approved record', async () => {
+    const actor = actors.reviewer;
+    const { page } = actor;
+    await openProposal(actor);
+    const review = await visible(page.getByRole('region', { name: 'Review the decision' }));
+    await visible(review.getByRole('heading', { name: 'Earlier reviews' }));
+    await review.getByRole('textbox', { name: /^Comment/ }).fill(APPROVE_COMMENT);
+    await review.getByRole('button', { name: 'Approve' }).click();
+    await visible(page.getByRole('status').filter({ hasText: 'Approved: the record is closed.' }));
+    await visible(page.getByRole('main').getByText(/^\W*Approved$/));
+    expect(await reviewButtons(page).count()).toBe(0);
+    await record(actor, 'approved');
+
+    const author = actors.requirements;
+    await openProposal(author);
+    expect(await reviewButtons(author.page).count()).toBe(0);
+    expect(await decisionControls(author.page).count()).toBe(0);
+  });
+
+  it('the record shows every step, in order, with who did it', async () => {
+    const actor = actors.requirements;
+    const record_ = await visible(actor.page.getByRole('region', { name: 'Record of this proposal' }));
+    const events = record_.getByRole('list', { name: 'Events, oldest first' }).getByRole('listitem');
+    await visible(events.nth(4));
+    const texts = await events.allInnerTexts();
+    expect(texts).toHaveLength(5);
+    const expected: [string, RegExp][] = [
+      [PEOPLE.requirements, /asked for a ranking of spec version 1: ranked by the engine; recommended: Degenerated mirror/],
+      [PEOPLE.designer, /decided: own values \(Degenerated mirror\)[\s\S]*Reason: .?Stock on hand/],
+      [PEOPLE.reviewer, /returned the decision to the designer[\s\S]*Comment: .?The 1 kΩ emitter resistors/],
+      [PEOPLE.designer, /decided: accepted the recommendation \(Degenerated mirror\)/],
+      [PEOPLE.reviewer, /approved the decision[\s\S]*Comment: .?Recommended degenerated mirror/],
+    ];
+    expected.forEach(([who, what], i) => {
+      expect(texts[i]).toContain(who);
+      expect(texts[i]).toMatch(what);
+    });
+    await record_.scrollIntoViewIfNeeded();
+    await record(actor, 'record-timeline');
+  });
+
+  it('the proposal page passes axe in the dark theme too', async () => {
+    const actor = actors.reviewer;
+    const { page } = actor;
+    await page.evaluate(() => localStorage.setItem('longtail.theme', 'dark'));
+    await openProposal(actor);
+    expect(await page.evaluate(() => document.documentElement.classList.contains('dark'))).toBe(true);
+    await visible(page.getByRole('button', { name: 'Theme: dark' }));
+    await record(actor, 'approved-dark');
+    await page.evaluate(() => localStorage.removeItem('longtail.theme'));
+  });
+
+  it('signs out', async () => {
+    const { page } = actors.admin;
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL(/\/sign-in/);
+    await page.goto('/people');
+    await page.waitForURL(/\/sign-in\?next=%2Fpeople/);
+    expect(await apiFromPage(page, 'GET', '/api/users')).toEqual({ status: 401, code: 'not-signed-in' });
+  });
+
+  it('saw no uncaught error, CSP refusal or server error along the way', () => {
+    const problems = DEMO_ROLES.flatMap((role) => actors[role].problems.list);
+    expect(problems).toEqual([]);
+    expect(server.serverErrors).toEqual([]);
+  });
+});
