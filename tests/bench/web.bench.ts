@@ -1,0 +1,210 @@
+/**
+ * `npm run bench` (last): the browser app.
+ * (a) Production build (`npx vite build`, timed): the JavaScript the first route needs, gzipped —
+ *     index.html's entry chunk and its modulepreload links (its static imports), parsed from
+ *     dist/web/index.html — against the issue's target of ≤ 200 kB; then the same plus the lazy
+ *     route module of the sign-in page and of the workbench (read from the entry's
+ *     `__vite__mapDeps` table); then every lazy chunk with its gzip size, and whether the chart
+ *     library (uPlot) is among them and out of the first route.
+ * (b) Headless Chromium (Debian's, via playwright-core) against the real app on 127.0.0.1 (in
+ *     this process, a fresh SQLite file, the demo organisation) with 10,000 stored proposals in
+ *     one project (one ranked through the service, then 9,999 copies of its row in one INSERT):
+ *     signed in as the designer, the time from page.goto(project page) to the proposals table's
+ *     first row visible, and from page.goto(proposal page) to the ranking's options table's first
+ *     row visible. Each load is a new browser context (cold HTTP cache, the session cookie
+ *     carried over); one warm-up load of each, then the median of 7.
+ * Not a test: the target is printed beside the figure. Sizes in kB = 1000 bytes, as Vite prints them.
+ */
+import { spawnSync } from 'node:child_process';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { gzipSync } from 'node:zlib';
+import type { Browser, BrowserContextOptions } from 'playwright-core';
+import { addMember, createProject } from '../../api/services/projects.service';
+import { createProposal } from '../../api/services/proposals.service';
+import { createSpec } from '../../api/services/specs.service';
+import { findUserForSignIn, publicUser } from '../../api/services/users.service';
+import { launchBrowser, newContext } from '../e2e/helpers/browser';
+import { repoRoot, webDist } from '../e2e/helpers/paths';
+import { startServer } from '../e2e/helpers/server';
+import { demoEmail, signInAs } from '../e2e/helpers/sign-in';
+
+const FIRST_ROUTE_TARGET_KB = 200;
+const STORED_PROPOSALS = 10_000;
+const LOADS = 7;
+const BENCH_SPEC_FILE = 'studio-line-receiver.json';
+const PROPOSAL_COLUMNS = 'project_id, spec_id, spec_version_id, engine_version, ruleset_version, result, recommended_topology, status, created_by_id, created_at, updated_at';
+
+const kB = (bytes: number) => `${(bytes / 1000).toFixed(1)} kB`;
+const gzipBytes = (file: string) => gzipSync(readFileSync(file), { level: 9 }).length;
+const median = (values: number[]) => {
+  const sorted = [...values].sort((a, b) => a - b);
+  const mid = sorted.length >> 1;
+  return sorted.length % 2 ? sorted[mid] : (sorted[mid - 1] + sorted[mid]) / 2;
+};
+const row = (name: string, value: string, target = '') => console.log(`${name.padEnd(62)} ${value.padStart(16)}   ${target}`);
+
+// ---------------------------------------------------------------------------------------------
+// (a) The production build
+
+const buildStart = performance.now();
+const build = spawnSync('npx', ['vite', 'build'], { cwd: repoRoot, encoding: 'utf8', env: { ...process.env, NODE_ENV: 'production' } });
+if (build.status !== 0) {
+  console.error(build.stdout, build.stderr);
+  throw new Error('`npx vite build` failed');
+}
+const buildMs = performance.now() - buildStart;
+
+const indexHtml = readFileSync(join(webDist, 'index.html'), 'utf8');
+const attr = (tag: string, name: string) => new RegExp(`\\s${name}="([^"]*)"`).exec(tag)?.[1];
+const tags = indexHtml.match(/<(script|link)\b[^>]*>/g) ?? [];
+const entryScripts = tags.filter((t) => t.startsWith('<script') && attr(t, 'type') === 'module' && attr(t, 'src')).map((t) => attr(t, 'src')!);
+const preloads = tags.filter((t) => t.startsWith('<link') && attr(t, 'rel') === 'modulepreload').map((t) => attr(t, 'href')!);
+const stylesheets = tags.filter((t) => t.startsWith('<link') && attr(t, 'rel') === 'stylesheet').map((t) => attr(t, 'href')!);
+if (entryScripts.length === 0) throw new Error('dist/web/index.html names no module script');
+
+/** "/assets/x.js" or "assets/x.js" -> the file in dist/web. */
+const fileOf = (url: string) => join(webDist, url.replace(/^\//, ''));
+const asset = (url: string) => url.replace(/^\/?assets\//, '');
+const initial = [...new Set([...entryScripts, ...preloads].map(asset))];
+const initialGzip = initial.reduce((sum, name) => sum + gzipBytes(join(webDist, 'assets', name)), 0);
+const initialRaw = initial.reduce((sum, name) => sum + statSync(join(webDist, 'assets', name)).size, 0);
+
+// The lazy route modules: import(`./sign-in-x.js`),__vite__mapDeps([0,1,2,3]) in the entry chunk,
+// where the numbers index the table `m.f=["assets/sign-in-x.js", ...]`.
+const entrySource = readFileSync(fileOf(entryScripts[0]), 'utf8');
+const depTable = /m\.f\|\|\(m\.f=\[([^\]]*)\]/.exec(entrySource)?.[1]?.match(/"([^"]+)"/g)?.map((s) => asset(s.slice(1, -1))) ?? [];
+const routeDeps = new Map<string, string[]>();
+for (const match of entrySource.matchAll(/import\(`\.\/([^`]+\.js)`\)(?:\.then\([^)]*\))?,__vite__mapDeps\(\[([\d,]*)\]\)/g)) {
+  const deps = match[2].split(',').filter(Boolean).map((i) => depTable[Number(i)]).filter(Boolean);
+  routeDeps.set(match[1], [...new Set([match[1], ...deps])]);
+}
+const routeChunk = (prefix: string) => [...routeDeps.keys()].find((name) => name.startsWith(`${prefix}-`));
+const withRoute = (prefix: string) => {
+  const chunk = routeChunk(prefix);
+  const files = [...new Set([...initial, ...(chunk ? routeDeps.get(chunk)! : [])])];
+  return { chunk, files, gzip: files.reduce((sum, name) => sum + gzipBytes(join(webDist, 'assets', name)), 0) };
+};
+const signInRoute = withRoute('sign-in');
+const workbenchRoute = withRoute('workbench');
+
+const allJs = readdirSync(join(webDist, 'assets')).filter((f) => f.endsWith('.js'));
+const lazy = allJs
+  .filter((f) => !initial.includes(f))
+  .map((f) => {
+    const source = readFileSync(join(webDist, 'assets', f), 'utf8');
+    return { name: f, raw: source.length, gzip: gzipBytes(join(webDist, 'assets', f)), chartLibrary: /\bu-over\b|\bu-legend\b|uplot/i.test(source) };
+  })
+  .sort((a, b) => b.gzip - a.gzip);
+const chartChunks = lazy.filter((c) => c.chartLibrary).map((c) => c.name);
+const chartInInitial = initial.some((f) => /\bu-over\b|\bu-legend\b/.test(readFileSync(join(webDist, 'assets', f), 'utf8')));
+const chartInFirstScreens = [signInRoute, workbenchRoute].some((r) => r.files.some((f) => chartChunks.includes(f)));
+
+// ---------------------------------------------------------------------------------------------
+// (b) Navigation to rendered tables, 10,000 stored proposals
+
+let benchProjectId = 0;
+let firstProposalId = 0;
+let seedMs = 0;
+const server = await startServer({
+  async prepare(dataSource, ruleSet) {
+    const start = performance.now();
+    const [admin, author, designer] = await Promise.all(['admin', 'requirements', 'designer'].map((role) => findUserForSignIn(dataSource, demoEmail(role as 'admin'))));
+    const project = await createProject(dataSource, admin!.id, { name: 'Web benchmark: 10,000 stored proposals', description: 'Seeded by tests/bench/web.bench.ts.' });
+    for (const member of [author!, designer!]) await addMember(dataSource, publicUser(admin!), project.id, member.id);
+    const specPath = join(fileURLToPath(new URL('.', import.meta.url)), '..', '..', 'api', 'demo', 'specs', BENCH_SPEC_FILE);
+    const payload = JSON.parse(readFileSync(specPath, 'utf8')) as { title: string };
+    const spec = await createSpec(dataSource, publicUser(author!), project.id, { title: payload.title, payload });
+    const first = await createProposal(dataSource, publicUser(designer!), spec.id, ruleSet);
+    await dataSource.transaction(async (manager) => {
+      await manager.query(
+        `WITH RECURSIVE copy(n) AS (SELECT 1 UNION ALL SELECT n + 1 FROM copy WHERE n < ?)
+         INSERT INTO proposal (${PROPOSAL_COLUMNS}) SELECT ${PROPOSAL_COLUMNS} FROM proposal, copy WHERE proposal.id = ?`,
+        [STORED_PROPOSALS - 1, first.id],
+      );
+    });
+    await dataSource.query('PRAGMA wal_checkpoint(TRUNCATE)');
+    const [{ n }] = await dataSource.query('SELECT count(*) AS n FROM proposal WHERE project_id = ?', [project.id]);
+    if (Number(n) !== STORED_PROPOSALS) throw new Error(`expected ${STORED_PROPOSALS} proposals in the benchmark project, found ${n}`);
+    benchProjectId = project.id;
+    firstProposalId = first.id;
+    seedMs = performance.now() - start;
+  },
+});
+
+let browser: Browser | undefined;
+interface Loads {
+  samples: number[];
+  jsFiles: number;
+  jsRaw: number;
+  jsGzip: number;
+}
+try {
+  browser = await launchBrowser();
+  // Sign in once through the form; every measured load starts a new context with this session cookie.
+  const signInContext = await newContext(browser, server.baseUrl);
+  const signInPage = await signInContext.newPage();
+  await signInAs(signInPage, 'designer');
+  const storageState = await signInContext.storageState();
+  await signInContext.close();
+
+  const measure = async (url: string, firstRow: (page: import('playwright-core').Page) => import('playwright-core').Locator): Promise<Loads> => {
+    const samples: number[] = [];
+    let js = { files: 0, raw: 0, gzip: 0 };
+    for (let i = 0; i <= LOADS; i += 1) {
+      const context = await newContext(browser!, server.baseUrl, { storageState } as BrowserContextOptions);
+      const page = await context.newPage();
+      const scripts: string[] = [];
+      page.on('response', (response) => {
+        if (response.request().resourceType() === 'script') scripts.push(new URL(response.url()).pathname);
+      });
+      const start = performance.now();
+      await page.goto(url);
+      await firstRow(page).waitFor({ state: 'visible', timeout: 60_000 });
+      const elapsed = performance.now() - start;
+      if (i > 0) samples.push(elapsed); // the first load warms the server up
+      const files = [...new Set(scripts)].filter((p) => p.startsWith('/assets/'));
+      js = { files: files.length, raw: files.reduce((s, p) => s + statSync(fileOf(p)).size, 0), gzip: files.reduce((s, p) => s + gzipBytes(fileOf(p)), 0) };
+      await context.close();
+    }
+    return { samples, jsFiles: js.files, jsRaw: js.raw, jsGzip: js.gzip };
+  };
+
+  const projectLoads = await measure(`/projects/${benchProjectId}`, (page) => page.getByRole('table', { name: 'Proposals of this project' }).locator('tbody').getByRole('row').first());
+  const proposalLoads = await measure(`/proposals/${firstProposalId}`, (page) => page.getByRole('table', { name: /Tail options, ranked/ }).locator('tbody').getByRole('row').first());
+
+  // Whether the server compresses what it sends (the gzip figures assume it, or a proxy, does).
+  const probe = await fetch(`${server.baseUrl}/assets/${asset(entryScripts[0])}`, { headers: { 'Accept-Encoding': 'gzip, br' } });
+  const encoding = probe.headers.get('content-encoding') ?? 'none';
+  await probe.arrayBuffer();
+
+  // ---------------------------------------------------------------------------------------------
+  console.log(`Longtail web benchmark — Node ${process.version}, Chromium ${browser.version()}\n`);
+  console.log('(a) Production build');
+  row('vite build', `${(buildMs / 1000).toFixed(1)} s`);
+  row(`first route JS, gzip: entry + ${preloads.length} modulepreload (index.html)`, kB(initialGzip), `target ≤ ${FIRST_ROUTE_TARGET_KB} kB ${initialGzip <= FIRST_ROUTE_TARGET_KB * 1000 ? '(met)' : '(MISSED)'}`);
+  for (const name of initial) row(`  ${name}`, kB(gzipBytes(join(webDist, 'assets', name))), `raw ${kB(statSync(join(webDist, 'assets', name)).size)}`);
+  row('  raw (uncompressed) total', kB(initialRaw));
+  row(`  + sign-in route (${signInRoute.chunk ?? 'not found'} and its imports)`, kB(signInRoute.gzip), `${signInRoute.files.length} files`);
+  row(`  + workbench route (${workbenchRoute.chunk ?? 'not found'} and its imports)`, kB(workbenchRoute.gzip), `${workbenchRoute.files.length} files`);
+  for (const css of stylesheets) row(`  stylesheet ${asset(css)} (not JS)`, kB(gzipBytes(fileOf(css))), '');
+  console.log(`\nLazy chunks (${lazy.length}), gzip, largest first:`);
+  for (const chunk of lazy) row(`  ${chunk.name}${chunk.chartLibrary ? '   ← chart library (uPlot)' : ''}`, kB(chunk.gzip), `raw ${kB(chunk.raw)}`);
+  row('chart library lazy (not in the entry, its preloads or the first screens)', chartChunks.length > 0 && !chartInInitial && !chartInFirstScreens ? 'yes' : 'NO');
+  row('server Content-Encoding for JS (Accept-Encoding: gzip, br)', encoding);
+
+  console.log(`\n(b) Navigation in headless Chromium, signed in as the designer; ${STORED_PROPOSALS.toLocaleString('en')} stored proposals (seeded in ${(seedMs / 1000).toFixed(1)} s)`);
+  console.log(`    median of ${LOADS} loads, each in a new context (cold HTTP cache), after one warm-up load\n`);
+  const show = (name: string, loads: Loads) => {
+    row(name, `${median(loads.samples).toFixed(0)} ms`, `min ${Math.min(...loads.samples).toFixed(0)} · max ${Math.max(...loads.samples).toFixed(0)} ms`);
+    row('  JS the page loaded (gzip / raw)', `${kB(loads.jsGzip)}`, `${kB(loads.jsRaw)} raw, ${loads.jsFiles} files`);
+  };
+  show('page.goto(project page) → proposals table first row visible', projectLoads);
+  show('page.goto(proposal page) → options table first row visible', proposalLoads);
+  if (server.serverErrors.length > 0) throw new Error(`${server.serverErrors.length} server error(s) during the benchmark`);
+} finally {
+  await browser?.close();
+  await server.close();
+}
+process.exit(0);
