@@ -140,6 +140,8 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const gainNominal = outputGain(spec, predicted);
   const gainVsIcmPercent = (Math.abs(outputGain(spec, icmHigh) - outputGain(spec, icmLow)) / gainNominal) * 100;
   const gainErrorPercent = ((gainNominal - spec.gain.target) / spec.gain.target) * 100;
+  const cornerGainErrors = cornerFigures.map((c) => ({ label: c.label, errorPercent: ((c.gain - spec.gain.target) / spec.gain.target) * 100 }));
+  const worstGain = cornerGainErrors.reduce((a, b) => (Math.abs(b.errorPercent) > Math.abs(a.errorPercent) ? b : a));
 
   const swingPeakV = swingPeakPerCollectorV(spec);
   const lowCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.minV);
@@ -179,6 +181,9 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     gainErrorPercent,
     gainTolerancePercent: spec.gain.tolerancePercent,
     gainMarginPercent: spec.gain.tolerancePercent - Math.abs(gainErrorPercent),
+    gainWorstCornerErrorPercent: worstGain.errorPercent,
+    gainWorstCorner: worstGain.label,
+    gainOverConditionsMarginPercent: spec.gain.tolerancePercent - Math.abs(worstGain.errorPercent),
     icmLowMarginV: Math.min(...lowCorners.map((c) => c.tailComplianceMarginV)),
     icmLowV: spec.inputCommonMode.minV,
     icmHighMarginV: Math.min(...highCorners.map((c) => c.pairSaturationMarginV)) - swingPeakV,

@@ -184,6 +184,11 @@ export interface OptionFacts {
   gainTolerancePercent: number;
   /** gainTolerancePercent − |gainErrorPercent|. */
   gainMarginPercent: number;
+  /** Largest gain error over the four corners, per cent of the target (signed), and where. */
+  gainWorstCornerErrorPercent: number;
+  gainWorstCorner: string;
+  /** gainTolerancePercent − |gainWorstCornerErrorPercent|. */
+  gainOverConditionsMarginPercent: number;
   /** Tail compliance at the lowest input common-mode voltage (worst temperature), V. */
   icmLowMarginV: number;
   icmLowV: number;

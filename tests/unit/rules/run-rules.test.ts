@@ -11,6 +11,7 @@ const RULE_NAMES = [
   'cmrr-differential-worst-case',
   'cmrr-target',
   'cmrr-yield',
+  'gain-over-conditions',
   'gain-tolerance',
   'gain-vs-common-mode',
   'hazardous-voltage',

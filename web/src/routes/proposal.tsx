@@ -10,6 +10,7 @@ import { AuditTimeline } from '../features/proposals/components/audit-timeline';
 import { DecisionPanel } from '../features/proposals/components/decision-panel';
 import { RankingView } from '../features/proposals/components/ranking-view';
 import { ReviewPanel } from '../features/proposals/components/review-panel';
+import { NextStep } from '../features/proposals/components/next-step';
 import { RouteError } from '../app/route-error';
 
 export const loader =
@@ -37,10 +38,15 @@ export function Component() {
       >
         Engine {proposal.engineVersion} · rule set {proposal.rulesetVersion.slice(0, 12)} · {new Date(proposal.createdAt).toLocaleString()}
       </PageHeader>
+      <NextStep proposal={proposal} user={user} />
       <div className="space-y-6">
         <RankingView proposal={proposal} />
-        <DecisionPanel proposal={proposal} user={user} />
-        <ReviewPanel proposal={proposal} user={user} />
+        <div id="decision" className="scroll-mt-4">
+          <DecisionPanel proposal={proposal} user={user} />
+        </div>
+        <div id="review" className="scroll-mt-4">
+          <ReviewPanel proposal={proposal} user={user} />
+        </div>
         <AuditTimeline proposalId={proposal.id} />
       </div>
     </>

@@ -48,7 +48,7 @@ export function Component() {
             <input type="password" autoComplete="current-password" required value={password} onChange={(e) => setPassword(e.target.value)} className="w-full rounded-md border border-rule bg-sheet px-3 py-2 dark:border-night-rule dark:bg-night" />
           </label>
           {error && (
-            <p role="alert" className="text-sm text-short dark:text-short-soft">
+            <p role="alert" className="text-sm text-short dark:text-short-bright">
               {error}
             </p>
           )}

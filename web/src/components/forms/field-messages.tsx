@@ -9,7 +9,7 @@ export function FieldErrorTemplate({ errors = [], fieldPathId, uiSchema }: Field
   const shown = errors.filter((e) => !(ownReading && typeof e === 'string' && e.startsWith(UNREADABLE_PREFIX)));
   if (shown.length === 0) return null;
   return (
-    <ul id={errorId(fieldPathId)} className="mt-1 space-y-0.5 text-xs text-short dark:text-short-soft">
+    <ul id={errorId(fieldPathId)} className="mt-1 space-y-0.5 text-xs text-short dark:text-short-bright">
       {shown.map((error, i) => (
         <li key={i}>
           <span aria-hidden="true">✕ </span>

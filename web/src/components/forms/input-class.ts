@@ -7,6 +7,6 @@ export function inputClass({ invalid = false, readonly = false, large = false }:
     large ? 'py-2 text-base' : 'py-1.5 text-sm',
     readonly
       ? 'border-transparent bg-transparent px-0'
-      : ['bg-sheet px-2.5 dark:bg-night', invalid ? 'border-short dark:border-short-soft' : 'border-rule dark:border-night-rule'],
+      : ['bg-sheet px-2.5 dark:bg-night', invalid ? 'border-short dark:border-short-bright' : 'border-rule dark:border-night-rule'],
   );
 }

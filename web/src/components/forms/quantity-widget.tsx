@@ -82,7 +82,7 @@ export function QuantityWidget(props: WidgetProps) {
           </span>
         )}
       </div>
-      <p id={readingId} className={cn('mt-0.5 min-h-4 text-xs tabular-nums', unreadable ? 'text-short dark:text-short-soft' : 'text-ink-soft dark:text-night-ink-soft')}>
+      <p id={readingId} className={cn('mt-0.5 min-h-4 text-xs tabular-nums', unreadable ? 'text-short dark:text-short-bright' : 'text-ink-soft dark:text-night-ink-soft')}>
         {reading.kind === 'value' && readingText(reading.value, unit)}
         {unreadable && (
           <>

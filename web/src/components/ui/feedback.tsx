@@ -15,7 +15,7 @@ export function Loading({ what = 'Loading' }: { what?: string }) {
 export function ErrorPanel({ error, retry }: { error: unknown; retry?: () => void }) {
   const message = error instanceof ApiError || error instanceof Error ? error.message : 'Something went wrong.';
   return (
-    <div role="alert" className="rounded-lg border border-short/40 bg-short-soft p-4 text-sm text-short dark:bg-short/20 dark:text-short-soft">
+    <div role="alert" className="rounded-lg border border-short/40 bg-short-soft p-4 text-sm text-short dark:bg-short/20 dark:text-short-bright">
       <p className="font-medium">This could not be shown.</p>
       <p className="mt-1">{message}</p>
       {retry && (

@@ -20,12 +20,12 @@ export function Field({ label, error, hint, ...input }: InputHTMLAttributes<HTML
         aria-describedby={cn(error && errorId, hint && hintId) || undefined}
         className={cn(
           'w-full rounded-md border bg-sheet px-3 py-1.5 dark:bg-night',
-          error ? 'border-short dark:border-short-soft' : 'border-rule dark:border-night-rule',
+          error ? 'border-short dark:border-short-bright' : 'border-rule dark:border-night-rule',
         )}
         {...input}
       />
       {error && (
-        <p id={errorId} className="mt-1 text-xs text-short dark:text-short-soft">
+        <p id={errorId} className="mt-1 text-xs text-short dark:text-short-bright">
           <span aria-hidden="true">✕ </span>
           {sentence(error)}
         </p>

@@ -82,7 +82,7 @@ export function NewUserForm() {
               </option>
             ))}
           </select>
-          {errors.role && <p className="mt-1 text-xs text-short dark:text-short-soft">{errors.role}</p>}
+          {errors.role && <p className="mt-1 text-xs text-short dark:text-short-bright">{errors.role}</p>}
         </div>
         <Field
           label="First password"
@@ -94,14 +94,14 @@ export function NewUserForm() {
           hint={<PasswordHint password={user.password} />}
         />
         {errors.form && (
-          <p role="alert" className="text-sm text-short dark:text-short-soft">
+          <p role="alert" className="text-sm text-short dark:text-short-bright">
             {errors.form}
           </p>
         )}
         <Button type="submit" disabled={create.isPending}>
           {create.isPending ? 'Creating…' : 'Create account'}
         </Button>
-        <p role="status" className="text-sm text-holds dark:text-holds-soft">
+        <p role="status" className="text-sm text-holds dark:text-holds-bright">
           {created && (
             <>
               <span aria-hidden="true">✓ </span>

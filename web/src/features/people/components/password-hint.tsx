@@ -2,7 +2,7 @@ import { cn } from '../../../lib/cn';
 import { passwordStrength } from '../utils/password-strength';
 
 const BAR = ['bg-short', 'bg-note', 'bg-fern', 'bg-holds'];
-const TEXT = ['text-short dark:text-short-soft', 'text-note dark:text-note-soft', 'text-fern dark:text-fern-soft', 'text-holds dark:text-holds-soft'];
+const TEXT = ['text-short dark:text-short-bright', 'text-note dark:text-note-bright', 'text-fern dark:text-fern-soft', 'text-holds dark:text-holds-bright'];
 
 /** The password's strength in words, with a three-step bar that only repeats what the words say. */
 export function PasswordHint({ password }: { password: string }) {

@@ -69,7 +69,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
             </span>
           )}
           {renaming && (nameError.displayName || nameError.form) && (
-            <p role="alert" className="mt-1 text-xs text-short dark:text-short-soft">
+            <p role="alert" className="mt-1 text-xs text-short dark:text-short-bright">
               {nameError.displayName ? `The name ${nameError.displayName}` : nameError.form}
             </p>
           )}
@@ -123,7 +123,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
       {refusal && (
         <tr>
           <td colSpan={5} className="border-b border-rule/70 bg-short-soft/60 px-2.5 py-2 dark:border-night-rule/70 dark:bg-short/15">
-            <div role="alert" className="flex flex-wrap items-center gap-3 text-sm text-short dark:text-short-soft">
+            <div role="alert" className="flex flex-wrap items-center gap-3 text-sm text-short dark:text-short-bright">
               <p>
                 <span aria-hidden="true">✕ </span>
                 The role of {isYou ? 'your account' : user.displayName} was not changed: {refusal}

@@ -42,7 +42,7 @@ export function NeedsYou({ projectId, role, onShow }: { projectId: number; role:
     <section aria-label="What needs you" aria-busy={loading} className={frame}>
       {heading}
       {failed ? (
-        <p role="alert" className="text-short dark:text-short-soft">
+        <p role="alert" className="text-short dark:text-short-bright">
           The counts could not be fetched: {failed.error?.message}{' '}
           <button type="button" className="underline" onClick={() => counts.forEach((c) => c.isError && c.refetch())}>
             Try again

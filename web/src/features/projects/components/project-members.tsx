@@ -56,7 +56,7 @@ function MemberRow({ projectId, member, canRemove }: { projectId: number; member
         )}
       </div>
       {confirming && (
-        <div role="group" aria-label={`Confirm removing ${member.displayName}`} className="mt-1.5 rounded-md bg-short-soft p-2 text-xs text-short dark:bg-short/20 dark:text-short-soft">
+        <div role="group" aria-label={`Confirm removing ${member.displayName}`} className="mt-1.5 rounded-md bg-short-soft p-2 text-xs text-short dark:bg-short/20 dark:text-short-bright">
           <p>
             Take {member.displayName} off this project?{member.role === 'admin' ? '' : ' They will no longer see it.'}
           </p>
@@ -115,7 +115,7 @@ function AddMember({ projectId, members, manage }: { projectId: number; members:
         </Button>
       </div>
       {add.error && (
-        <p role="alert" className="mt-1.5 text-xs text-short dark:text-short-soft">
+        <p role="alert" className="mt-1.5 text-xs text-short dark:text-short-bright">
           {add.error.message}
         </p>
       )}

@@ -30,7 +30,7 @@ export function DecisionPanel({ proposal, user }: { proposal: Proposal; user: Us
   return (
     <Sheet title="Decision" aria-label="Decision">
       {mutation.isSuccess && (
-        <p role="status" className="mb-3 rounded-md bg-holds-soft p-2 text-sm text-holds dark:bg-holds/20 dark:text-holds-soft">
+        <p role="status" className="mb-3 rounded-md bg-holds-soft p-2 text-sm text-holds dark:bg-holds/20 dark:text-holds-bright">
           Decision recorded. The proposal now waits for a reviewer.
         </p>
       )}
@@ -54,7 +54,7 @@ function ReturnedNote({ proposal, nameOf }: { proposal: Proposal; nameOf: (id: n
   return (
     <div className="mb-4 space-y-2">
       {review && (
-        <div className="rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-soft">
+        <div className="rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-bright">
           <p className="font-medium">
             Returned by {nameOf(review.reviewerId)} on <When iso={review.createdAt} />
           </p>

@@ -43,7 +43,7 @@ export function ReviewPanel({ proposal, user }: { proposal: Proposal; user: User
   return (
     <Sheet title="Reviews" aria-label="Reviews">
       {mutation.isSuccess && (
-        <p role="status" className="mb-3 rounded-md bg-holds-soft p-2 text-sm text-holds dark:bg-holds/20 dark:text-holds-soft">
+        <p role="status" className="mb-3 rounded-md bg-holds-soft p-2 text-sm text-holds dark:bg-holds/20 dark:text-holds-bright">
           {mutation.data.status === 'approved' ? 'Approved: the record is closed.' : 'Returned to the designer with your comment.'}
         </p>
       )}

@@ -3,9 +3,9 @@ import { cn } from '../../../lib/cn';
 import type { ReadableChange } from '../lib/spec-changes';
 
 const KIND: Record<ReadableChange['kind'], { word: string; glyph: string; className: string }> = {
-  changed: { word: 'Changed', glyph: '~', className: 'bg-note-soft text-note dark:bg-note/25 dark:text-note-soft' },
-  added: { word: 'Added', glyph: '+', className: 'bg-holds-soft text-holds dark:bg-holds/25 dark:text-holds-soft' },
-  removed: { word: 'Removed', glyph: '−', className: 'bg-short-soft text-short dark:bg-short/25 dark:text-short-soft' },
+  changed: { word: 'Changed', glyph: '~', className: 'bg-note-soft text-note dark:bg-note/25 dark:text-note-bright' },
+  added: { word: 'Added', glyph: '+', className: 'bg-holds-soft text-holds dark:bg-holds/25 dark:text-holds-bright' },
+  removed: { word: 'Removed', glyph: '−', className: 'bg-short-soft text-short dark:bg-short/25 dark:text-short-bright' },
 };
 
 export function ChangesTable({ rows, from, to }: { rows: readonly ReadableChange[]; from: number; to: number }) {

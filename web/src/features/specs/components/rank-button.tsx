@@ -32,7 +32,7 @@ export function RankButton({ specId, version, unsaved }: { specId: number; versi
             : `Ranks version ${version}.`}
       </p>
       {rank.isError && (
-        <p role="alert" className="max-w-72 text-right text-xs text-short dark:text-short-soft">
+        <p role="alert" className="max-w-72 text-right text-xs text-short dark:text-short-bright">
           <span aria-hidden="true">✕ </span>
           {rank.error instanceof ApiError ? rank.error.message : 'The ranking could not be made.'}
         </p>

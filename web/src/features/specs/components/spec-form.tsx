@@ -98,7 +98,7 @@ function SpecFormBody({ schema, validator, initial, onSave, saveLabel = 'Save', 
   const submitNote: ReactNode = saving ? (
     savingLabel
   ) : problem ? (
-    <span className="text-short dark:text-short-soft">
+    <span className="text-short dark:text-short-bright">
       <span aria-hidden="true">✕ </span>
       {problem.text}
     </span>

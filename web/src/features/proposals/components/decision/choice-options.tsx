@@ -106,7 +106,7 @@ function ChooseOption({ options, chosen, onChange, error }: { options: OptionEva
         ))}
       </select>
       <div id={`${id}-about`}>
-        {error && <p className="text-short dark:text-short-soft">✕ {error}</p>}
+        {error && <p className="text-short dark:text-short-bright">✕ {error}</p>}
         {option && (
           <div className="space-y-1">
             <OptionFigures option={option} />

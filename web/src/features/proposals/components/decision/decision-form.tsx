@@ -150,9 +150,9 @@ export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutat
           aria-invalid={reasonError ? true : undefined}
           aria-describedby={`${reasonId}-hint`}
           placeholder={reasonRequired ? 'What the ranking does not weigh: parts on hand, layout, bench experience…' : undefined}
-          className={cn('w-full rounded-md border bg-sheet px-3 py-2 dark:bg-night', reasonError ? 'border-short dark:border-short-soft' : 'border-rule dark:border-night-rule')}
+          className={cn('w-full rounded-md border bg-sheet px-3 py-2 dark:bg-night', reasonError ? 'border-short dark:border-short-bright' : 'border-rule dark:border-night-rule')}
         />
-        <p id={`${reasonId}-hint`} className={cn('mt-1 text-xs', reasonError ? 'text-short dark:text-short-soft' : 'text-ink-soft dark:text-night-ink-soft')}>
+        <p id={`${reasonId}-hint`} className={cn('mt-1 text-xs', reasonError ? 'text-short dark:text-short-bright' : 'text-ink-soft dark:text-night-ink-soft')}>
           {reasonError ? `✕ ${reasonError}` : 'Kept with the decision in the audit trail.'}
         </p>
       </div>

@@ -79,7 +79,7 @@ function CheckError({ error }: { error: Error }) {
   const title =
     status === 400 ? 'The server refused these values' : status === 403 ? 'Only designers can check own values' : status === 404 ? 'This proposal is not in your projects' : 'The full check could not be run';
   return (
-    <div role="alert" className="mt-3 rounded-md bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-soft">
+    <div role="alert" className="mt-3 rounded-md bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-bright">
       <p className="font-medium">{title}</p>
       <p className="mt-1">{error.message}</p>
       {status === 400 && unplaced.length < (apiError?.details.length ?? 0) && <p className="mt-1">The values it names are marked in the fields above.</p>}

@@ -126,7 +126,7 @@ function readingOf(reading: FieldReading | undefined): number | undefined {
 function PairHint({ ranked, onUse }: { ranked: OptionEvaluation & { design: Design }; onUse: () => void }) {
   const values = PAIR_FIELDS.map((f) => `${f.title.toLowerCase()} ${formatQuantity(fieldValue(ranked.design, f.key) ?? 0, f.unit, 4)}`).join(' and ');
   return (
-    <p className="rounded-md bg-note-soft p-2 text-xs text-note dark:bg-note/20 dark:text-note-soft">
+    <p className="rounded-md bg-note-soft p-2 text-xs text-note dark:bg-note/20 dark:text-note-bright">
       The ranked {topologyTitle(ranked.topology).toLowerCase()} was sized with {values}; your pair values differ.{' '}
       <button type="button" className="font-medium underline" onClick={onUse}>
         Use its pair values

@@ -47,10 +47,10 @@ export function QuantityField({
         aria-describedby={`${id}-reading`}
         className={cn(
           'w-full rounded-md border bg-sheet px-3 py-2 font-mono tabular-nums dark:bg-night',
-          problem ? 'border-short dark:border-short-soft' : 'border-rule dark:border-night-rule',
+          problem ? 'border-short dark:border-short-bright' : 'border-rule dark:border-night-rule',
         )}
       />
-      <p id={`${id}-reading`} className={cn('mt-1 min-h-5 text-xs', problem ? 'text-short dark:text-short-soft' : 'text-ink-soft dark:text-night-ink-soft')}>
+      <p id={`${id}-reading`} className={cn('mt-1 min-h-5 text-xs', problem ? 'text-short dark:text-short-bright' : 'text-ink-soft dark:text-night-ink-soft')}>
         {problem ? (
           <>
             <span aria-hidden="true">✕ </span>
@@ -70,7 +70,7 @@ function Understood({ valueOhm, unit, series, rankedOhm }: { valueOhm: number; u
     <>
       <span className="tabular-nums">= {formatQuantity(valueOhm, unit, 4)}</span>
       {offSeries && (
-        <span className="text-note dark:text-note-soft">
+        <span className="text-note dark:text-note-bright">
           {' '}
           · not an {series} value (nearest {formatQuantity(snapToSeries(valueOhm, series), unit, 3)})
         </span>

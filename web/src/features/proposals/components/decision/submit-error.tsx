@@ -13,7 +13,7 @@ export function SubmitError({ error, proposalId }: { error: Error; proposalId: n
   const unplaced = error instanceof ApiError && status === 400 ? error.details.filter((d) => d.path !== '/reason' && d.path !== '/topology' && !fieldKeyOfPath(d.path)) : [];
   const title = status === 409 ? 'The proposal cannot take this decision now' : status === 400 ? 'The server refused the decision: see the marked fields' : 'The decision was not recorded';
   return (
-    <div role="alert" className="rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-soft">
+    <div role="alert" className="rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-bright">
       <p className="font-medium">{title}</p>
       <p className="mt-1">{error.message}</p>
       {unplaced.length > 0 && (

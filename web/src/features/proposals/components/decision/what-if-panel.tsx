@@ -110,7 +110,7 @@ function WhatIfError({ error }: { error: Error }) {
   const apiError = error instanceof ApiError ? error : null;
   const title = apiError?.status === 422 ? 'The engine cannot solve these values' : apiError?.status === 400 ? 'The server refused these values' : 'The what-if could not be computed';
   return (
-    <div role="alert" className="rounded-md bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-soft">
+    <div role="alert" className="rounded-md bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-bright">
       <p className="font-medium">{title}</p>
       <p className="mt-1">{error.message}</p>
       {apiError && apiError.details.length > 0 && (

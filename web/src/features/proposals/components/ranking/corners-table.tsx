@@ -42,7 +42,7 @@ export function CornersTable({ option }: { option: RecommendOption }) {
               <th scope="row" className="py-1 pr-3 text-left font-normal whitespace-nowrap">
                 {c.label}
                 {c.label === worst && <span className="ml-2 rounded bg-paper px-1 text-xs text-ink-soft dark:bg-night dark:text-night-ink-soft">governs rejection</span>}
-                {c.operatingPointProblems.length > 0 && <span className="block text-xs text-short dark:text-short-soft">✕ {c.operatingPointProblems.join('; ')}</span>}
+                {c.operatingPointProblems.length > 0 && <span className="block text-xs text-short dark:text-short-bright">✕ {c.operatingPointProblems.join('; ')}</span>}
               </th>
               <Num>{formatQuantity(c.tailCurrentA, 'A')}</Num>
               <Num>{formatSignificant(Math.abs(c.gain))} V/V</Num>

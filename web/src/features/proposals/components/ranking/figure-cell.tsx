@@ -3,8 +3,8 @@ import { cn } from '../../../../lib/cn';
 import type { FigureStanding } from '../../lib/option-rows';
 
 const STANDING: Record<FigureStanding, { glyph: string; words: string; className: string }> = {
-  short: { glyph: '✕', words: 'short of its check', className: 'text-short dark:text-short-soft font-medium' },
-  note: { glyph: '!', words: 'advisory check not met', className: 'text-note dark:text-note-soft' },
+  short: { glyph: '✕', words: 'short of its check', className: 'text-short dark:text-short-bright font-medium' },
+  note: { glyph: '!', words: 'advisory check not met', className: 'text-note dark:text-note-bright' },
 };
 
 /** Splits "2.32 kΩ" into number and unit so the unit can be set softer. */

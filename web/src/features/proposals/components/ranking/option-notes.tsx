@@ -30,7 +30,7 @@ export function OptionNotes({ option }: { option: RecommendOption }) {
         ) : (
           <ul className="space-y-1 text-sm">
             {warnings.map((w) => (
-              <li key={w} className="flex gap-1.5 text-note dark:text-note-soft">
+              <li key={w} className="flex gap-1.5 text-note dark:text-note-bright">
                 <span aria-hidden="true">!</span>
                 <span>{w}</span>
               </li>

@@ -158,7 +158,7 @@ export function OptionsTable({ rows, targets, selected, onSelect }: { rows: Opti
         </table>
       </div>
       <p className="mt-2 text-xs text-ink-soft dark:text-night-ink-soft">
-        ◆ recommended · <span className="text-short dark:text-short-soft">✕</span> figure short of a blocking check · <span className="text-note dark:text-note-soft">!</span> advisory
+        ◆ recommended · <span className="text-short dark:text-short-bright">✕</span> figure short of a blocking check · <span className="text-note dark:text-note-bright">!</span> advisory
         check not met · margins are + on the safe side · select a row (or use ↑ ↓ on a name) to see the option below
       </p>
     </div>

@@ -13,7 +13,7 @@ export function CautionsBlock({ cautions }: { cautions: string[] }) {
   if (cautions.length === 0) return null;
   return (
     <div role="alert" className="rounded-lg border-2 border-note bg-note-soft px-4 py-3 text-ink dark:bg-note/20 dark:text-night-ink">
-      <p className="flex items-center gap-2 text-base font-semibold text-note dark:text-note-soft">
+      <p className="flex items-center gap-2 text-base font-semibold text-note dark:text-note-bright">
         <span aria-hidden="true" className="text-lg leading-none">
           ⚠
         </span>

@@ -45,14 +45,14 @@ export function ReviewForm({ option, mutation }: { option: OptionEvaluation | nu
           maxLength={4000}
           aria-invalid={commentError ? true : undefined}
           aria-describedby={`${id}-hint`}
-          className={cn('w-full rounded-md border bg-sheet px-3 py-2 dark:bg-night', commentError ? 'border-short dark:border-short-soft' : 'border-rule dark:border-night-rule')}
+          className={cn('w-full rounded-md border bg-sheet px-3 py-2 dark:bg-night', commentError ? 'border-short dark:border-short-bright' : 'border-rule dark:border-night-rule')}
         />
-        <p id={`${id}-hint`} className={cn('mt-1 text-xs', commentError ? 'text-short dark:text-short-soft' : 'text-ink-soft dark:text-night-ink-soft')}>
+        <p id={`${id}-hint`} className={cn('mt-1 text-xs', commentError ? 'text-short dark:text-short-bright' : 'text-ink-soft dark:text-night-ink-soft')}>
           {commentError ? `✕ ${commentError}` : 'The designer sees it with the proposal; it stays in the audit trail.'}
         </p>
       </div>
       {failures > 0 && (
-        <p className="rounded-md bg-note-soft p-2 text-xs text-note dark:bg-note/20 dark:text-note-soft">
+        <p className="rounded-md bg-note-soft p-2 text-xs text-note dark:bg-note/20 dark:text-note-bright">
           The decided option is short on {failures} blocking check{failures === 1 ? '' : 's'}. Approving records that you accept it anyway; say why in the comment.
         </p>
       )}
@@ -74,7 +74,7 @@ function ReviewError({ error }: { error: Error }) {
   const status = error instanceof ApiError ? error.status : 0;
   const title = code === 'own-decision' ? 'You cannot review this decision' : status === 409 ? 'The proposal cannot take this verdict now' : 'The review was not recorded';
   return (
-    <div role="alert" className="rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-soft">
+    <div role="alert" className="rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-bright">
       <p className="font-medium">{title}</p>
       <p className="mt-1">{error.message}</p>
       <p className="mt-1 text-xs">Your comment is still here.</p>
