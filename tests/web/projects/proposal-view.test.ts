@@ -1,7 +1,7 @@
 import { describe, expect, test } from 'vitest';
 import { formatWhen } from '../../../web/src/features/projects/utils/format-when';
 import { readProposalView, writeProposalView } from '../../../web/src/features/projects/utils/proposal-filter';
-import { topologyWords } from '../../../web/src/features/projects/utils/topology-words';
+import { topologyName as topologyWords } from '../../../web/src/lib/topology-names';
 
 describe('the proposals view in the URL', () => {
   test.each([

@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { blockingShortCount, matchesTopologyText, optionRows, specTargets } from '../../../../web/src/features/proposals/lib/option-rows';
-import { TOPOLOGY_NAMES, topologyName } from '../../../../web/src/features/proposals/lib/topology-names';
+import { TOPOLOGY_NAMES, topologyName } from '../../../../web/src/lib/topology-names';
 import { strainBridge, studioLine } from './fixtures';
 
 describe('optionRows', () => {
@@ -82,5 +82,5 @@ describe('specTargets', () => {
 
 test('every topology has a readable name', () => {
   expect(Object.values(TOPOLOGY_NAMES)).toEqual(['Resistor', 'Simple mirror', 'Degenerated mirror', 'Widlar source', 'Wilson mirror', 'Cascode mirror']);
-  expect(topologyName('something-new')).toBe('something-new');
+  expect(topologyName('something-new')).toBe('something new');
 });

@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import { StateBadge } from '../../../components/ui/state-badge';
 import { paths } from '../../../config/paths';
 import type { ProposalSummary, Spec } from '../../../lib/api-types';
-import { topologyWords } from '../utils/topology-words';
+import { topologyName } from '../../../lib/topology-names';
 import { DenseTable, rowLink, Td, Th, Tr } from './dense-table';
 import { When } from './when';
 
@@ -40,7 +40,7 @@ export function ProposalsTable({ proposals, specs }: { projectId: number; propos
                 {version == null ? <span className={soft}>—</span> : `v${version}`}
               </Td>
               <Td className="whitespace-nowrap">
-                {proposal.recommendedTopology ? topologyWords(proposal.recommendedTopology) : <span className={soft}>None passes</span>}
+                {proposal.recommendedTopology ? topologyName(proposal.recommendedTopology) : <span className={soft}>None passes</span>}
               </Td>
               <Td>
                 <StateBadge state={proposal.status} />

@@ -4,7 +4,7 @@
  */
 import type { RecommendOption, RecommendResult } from '../../../../../shared/engine/recommend';
 import type { Check, TopologyId } from '../../../../../shared/engine/types';
-import { topologyName } from './topology-names';
+import { topologyName } from '../../../lib/topology-names';
 
 /** Figures of the table that one rule decides, so a failing check can mark its cell. */
 export const FIGURE_RULES = {

@@ -4,7 +4,7 @@
  */
 import type { RecommendOption, RecommendResult } from '../../../../../shared/engine/recommend';
 import type { TopologyId } from '../../../../../shared/engine/types';
-import { topologyName } from './topology-names';
+import { topologyName } from '../../../lib/topology-names';
 
 export type Aligned = [number[], ...(number | null)[][]];
 

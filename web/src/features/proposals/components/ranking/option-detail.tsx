@@ -4,7 +4,7 @@ import type { ResistorSeries } from '../../../../../../shared/engine/types';
 import { EmptyState } from '../../../../components/ui/feedback';
 import { Verdict } from '../../../../components/ui/verdict';
 import { blockingShortCount } from '../../lib/option-rows';
-import { topologyName } from '../../lib/topology-names';
+import { topologyName } from '../../../../lib/topology-names';
 import { ChecksTable } from './checks-table';
 import { CornersTable } from './corners-table';
 import { OptionNotes } from './option-notes';

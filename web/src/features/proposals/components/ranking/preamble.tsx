@@ -1,6 +1,6 @@
 import type { RecommendResult } from '../../../../../../shared/engine/recommend';
 import { Verdict } from '../../../../components/ui/verdict';
-import { topologyName } from '../../lib/topology-names';
+import { topologyName } from '../../../../lib/topology-names';
 
 /** The engine writes cautions as "Caution: …"; the block's heading already says so. */
 function withoutCautionWord(text: string): string {

@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import type { RecommendOption } from '../../../../../../../shared/engine/recommend';
 import { histogramPlot, temperaturePlot } from '../../../lib/plot-data';
 import { histogramSummary, temperatureSummary } from '../../../lib/plot-summaries';
-import { topologyName } from '../../../lib/topology-names';
+import { topologyName } from '../../../../../lib/topology-names';
 import { HistogramChart, TemperatureChart } from './lazy-charts';
 import { PlotFigure } from './plot-figure';
 

@@ -1,4 +1,4 @@
-import type { TopologyId } from '../../../../../shared/engine/types';
+import type { TopologyId } from '../../../shared/engine/types';
 
 /** Readable names of the tail topologies, as the app writes them. */
 export const TOPOLOGY_NAMES: Readonly<Record<TopologyId, string>> = {
@@ -10,7 +10,7 @@ export const TOPOLOGY_NAMES: Readonly<Record<TopologyId, string>> = {
   cascode: 'Cascode mirror',
 };
 
-/** The readable name of a topology id; an unknown id is shown as it is. */
+/** The readable name of a topology id; an unknown id is shown as itself, de-hyphenated, rather than hidden. */
 export function topologyName(id: string): string {
-  return (TOPOLOGY_NAMES as Record<string, string>)[id] ?? id;
+  return (TOPOLOGY_NAMES as Record<string, string>)[id] ?? id.replaceAll('-', ' ');
 }
