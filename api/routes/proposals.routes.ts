@@ -1,7 +1,9 @@
-/** One proposal: read it, check own values, decide, review, and its audit trail. */
+/** One proposal: read it, check own values, decide, review, its audit trail, and its exports (CSV, JSON). */
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import type { RuleSet } from '../../shared/engine/types';
+import { ESTIMATE_NOTICE } from '../../shared/engine/index';
+import { rankingCsv } from '../../shared/export/ranking-csv';
 import { validateDesign } from '../../shared/validate';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
@@ -25,6 +27,16 @@ export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet): Route
   });
   router.post('/:id/review', requirePermission('proposals:review'), validateBody(REVIEW_BODY), async (req, res) => {
     res.status(201).json(await review(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), req.body));
+  });
+  router.get('/:id/ranking.csv', async (req, res) => {
+    const proposal = await getProposal(dataSource, currentUser(req), idParam(req.params.id, 'proposal'));
+    res.type('text/csv; charset=utf-8').attachment(`longtail-ranking-${proposal.id}.csv`).send(rankingCsv(proposal.result));
+  });
+  router.get('/:id/export.json', async (req, res) => {
+    const viewer = currentUser(req);
+    const id = idParam(req.params.id, 'proposal');
+    const [proposal, audit] = await Promise.all([getProposal(dataSource, viewer, id), proposalAudit(dataSource, viewer, id)]);
+    res.attachment(`longtail-proposal-${proposal.id}.json`).json({ exportedAt: new Date().toISOString(), notice: ESTIMATE_NOTICE, proposal, audit });
   });
   router.get('/:id/audit', async (req, res) => {
     res.json({ items: await proposalAudit(dataSource, currentUser(req), idParam(req.params.id, 'proposal')) });

@@ -34,6 +34,8 @@ export const api = {
   evaluation: (id: number) => `/api/proposals/${id}/evaluation`,
   review: (id: number) => `/api/proposals/${id}/review`,
   audit: (id: number) => `/api/proposals/${id}/audit`,
+  rankingCsv: (id: number) => `/api/proposals/${id}/ranking.csv`,
+  exportJson: (id: number) => `/api/proposals/${id}/export.json`,
   analyze: '/api/analyze',
   specSchema: '/api/schema/spec',
   topologies: '/api/topologies',

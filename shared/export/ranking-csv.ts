@@ -1,0 +1,55 @@
+/**
+ * The ranking table as CSV (RFC 4180: comma-separated, CRLF line ends, fields with commas,
+ * quotes or line breaks quoted), SI units named in each header, for a reviewer's spreadsheet.
+ */
+import type { RecommendResult } from '../engine/recommend';
+
+type Option = RecommendResult['options'][number];
+
+const COLUMNS: [header: string, value: (o: Option) => string | number | boolean | null | undefined][] = [
+  ['rank', (o) => o.rank],
+  ['topology', (o) => o.topology],
+  ['passes', (o) => o.passes],
+  ['recommended', () => null],
+  ['tail_impedance_at_spec_frequency_ohm', (o) => o.figures?.tailImpedanceAtFrequencyOhm],
+  ['tail_output_resistance_ohm', (o) => o.predicted?.tailOutputResistanceOhm],
+  ['cmrr_single_ended_dc_db', (o) => o.predicted?.cmrrDb.singleEnded],
+  ['cmrr_single_ended_at_spec_frequency_worst_corner_db', (o) => o.figures?.cmrrAtFrequencyDb],
+  ['cmrr_differential_worst_case_db', (o) => o.figures?.cmrrDifferentialWorstCaseDb],
+  ['monte_carlo_yield_percent', (o) => o.figures?.monteCarloYieldPercent],
+  ['gain_v_per_v', (o) => o.figures?.gainPredicted],
+  ['gain_target_v_per_v', (o) => o.figures?.gainTarget],
+  ['tail_current_a', (o) => o.predicted?.tailCurrentA],
+  ['power_worst_w', (o) => o.figures?.powerWorstW],
+  ['icm_low_margin_v', (o) => o.figures?.icmLowMarginV],
+  ['icm_high_margin_v', (o) => o.figures?.icmHighMarginV],
+  ['swing_margin_v', (o) => o.figures?.swingMarginV],
+  ['collector_resistance_ohm', (o) => o.design?.collectorResistanceOhm],
+  ['pair_emitter_resistance_ohm', (o) => o.design?.pairEmitterResistanceOhm ?? 0],
+  ['tail_values', (o) => (o.design ? tailValues(o.design.tail as unknown as Record<string, unknown>) : null)],
+  ['blocking_checks_short', (o) => o.checks.filter((c) => !c.passed && c.severity === 'blocking').map((c) => c.rule).join(' ')],
+  ['advisory_checks_not_met', (o) => o.checks.filter((c) => !c.passed && c.severity === 'advisory').map((c) => c.rule).join(' ')],
+];
+
+function tailValues(tail: Record<string, unknown>): string {
+  return Object.entries(tail)
+    .filter(([key]) => key !== 'topology')
+    .map(([key, value]) => `${key}=${String(value)}`)
+    .join(' ');
+}
+
+/** One CSV field: numbers as JavaScript writes them (full precision), text quoted when it must be. */
+export function csvField(value: string | number | boolean | null | undefined): string {
+  if (value === null || value === undefined) return '';
+  const text = String(value);
+  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+/** The ranked options, one row each, in rank order, with a header row. */
+export function rankingCsv(result: RecommendResult): string {
+  const rows = [COLUMNS.map(([header]) => header)];
+  for (const option of result.options) {
+    rows.push(COLUMNS.map(([header, value]) => (header === 'recommended' ? String(option.topology === result.recommended) : csvField(value(option)))));
+  }
+  return `${rows.map((row) => row.join(',')).join('\r\n')}\r\n`;
+}
