@@ -1,4 +1,4 @@
-/** One proposal: read it, check own values, decide, review, its audit trail, and its exports (CSV, JSON). */
+/** One proposal: read it, check own values, decide, review, its audit trail, and its exports (CSV, JSON, SPICE netlist). */
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import type { RuleSet } from '../../shared/engine/types';
@@ -7,9 +7,9 @@ import { rankingCsv } from '../../shared/export/ranking-csv';
 import { validateDesign } from '../../shared/validate';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
-import { decide, evaluateOverride, getProposal, proposalAudit, review } from '../services/proposals.service';
-import { DECISION_BODY, EVALUATION_BODY, REVIEW_BODY } from '../validation/bodies';
-import { idParam, validateBody } from '../validation/validate-request';
+import { decide, evaluateOverride, getProposal, proposalAudit, proposalNetlist, review } from '../services/proposals.service';
+import { DECISION_BODY, EVALUATION_BODY, NETLIST_QUERY, REVIEW_BODY } from '../validation/bodies';
+import { idParam, validateBody, validateQuery } from '../validation/validate-request';
 
 export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet): Router {
   const router = Router();
@@ -30,7 +30,11 @@ export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet): Route
   });
   router.get('/:id/ranking.csv', async (req, res) => {
     const proposal = await getProposal(dataSource, currentUser(req), idParam(req.params.id, 'proposal'));
-    res.type('text/csv; charset=utf-8').attachment(`longtail-ranking-${proposal.id}.csv`).send(rankingCsv(proposal.result));
+    res.attachment(`longtail-ranking-${proposal.id}.csv`).type('text/csv; charset=utf-8').send(rankingCsv(proposal.result));
+  });
+  router.get('/:id/netlist.cir', validateQuery(NETLIST_QUERY), async (req, res) => {
+    const { fileName, text } = await proposalNetlist(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), res.locals.query);
+    res.attachment(fileName).type('text/plain; charset=utf-8').send(text);
   });
   router.get('/:id/export.json', async (req, res) => {
     const viewer = currentUser(req);

@@ -5,7 +5,8 @@
  * writes the record and its audit event in one transaction.
  */
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { ENGINE_VERSION, evaluateDesign, recommend, type RecommendResult } from '../../shared/engine/index';
+import { ENGINE_VERSION, ESTIMATE_NOTICE, evaluateDesign, recommend, type RecommendResult } from '../../shared/engine/index';
+import { spiceNetlist } from '../../shared/engine/netlist';
 import type { Design, RuleSet, TopologyId } from '../../shared/engine/types';
 import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
 import { AuditEventEntity } from '../entities/audit-event.entity';
@@ -311,6 +312,40 @@ export async function review(dataSource: DataSource, actor: Viewer, proposalId: 
   });
   return getProposal(dataSource, actor, proposalId);
 }
+
+/**
+ * A SPICE netlist (ngspice-ready .cir) of one ranked option, or of the latest decision's design
+ * (an override included), with the differential or common-mode AC drive, from the product's one
+ * netlist writer. The header says where it comes from and that the figures are estimates.
+ */
+export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, proposalId: number, query: { topology?: TopologyId; source: 'option' | 'decision'; drive: 'differential' | 'common-mode' }) {
+  const proposal = await getProposal(dataSource, viewer, proposalId);
+  let design: Design | null | undefined;
+  let label: string;
+  if (query.source === 'decision') {
+    const decision = proposal.decisions.at(-1);
+    if (!decision) throw invalid([{ path: '?source', message: 'this proposal has no decision yet' }]);
+    design = decision.design;
+    label = `decision #${decision.id} (${decision.kind}, ${decision.topology})`;
+  } else {
+    const topology = query.topology ?? proposal.result.recommended ?? proposal.result.options[0]?.topology;
+    design = proposal.result.options.find((o) => o.topology === topology)?.design;
+    if (!design) throw invalid([{ path: '?topology', message: `is not a sized option of this proposal: ${String(topology)}` }]);
+    label = `ranked option ${topology}`;
+  }
+  const netlist = spiceNetlist(design, { analysis: query.drive === 'differential' ? 'ac-differential' : 'ac-common-mode', ...NETLIST_SWEEP });
+  const [title, ...rest] = netlist.split('\n');
+  const header = [
+    `* Exported by Longtail: proposal #${proposal.id}, ${label}`,
+    `* spec "${proposal.specVersion.title}" version ${proposal.specVersion.version}, engine ${proposal.engineVersion}, rule set ${proposal.rulesetVersion.slice(0, 12)}`,
+    `* at ${design.temperatureC ?? 27} °C, input common mode ${design.inputCommonModeV ?? 0} V (nominal conditions)`,
+    `* ${ESTIMATE_NOTICE}`,
+  ];
+  return { fileName: `longtail-${proposal.id}-${design.tail.topology}-${query.drive}.cir`, text: [title, ...header, ...rest].join('\n') };
+}
+
+/** The AC sweep written into exported netlists: 1 Hz to 10 MHz, 20 points a decade. */
+const NETLIST_SWEEP = { startHz: 1, stopHz: 1e7, pointsPerDecade: 20 };
 
 /** The proposal's audit trail, oldest first. */
 export async function proposalAudit(dataSource: DataSource, viewer: Viewer, proposalId: number) {

@@ -54,3 +54,12 @@ export const PROPOSAL_LIST_QUERY = strict(
 export const DIFF_QUERY = strict({ from: { type: 'integer', minimum: 1 }, to: { type: 'integer', minimum: 1 } }, ['from', 'to']);
 
 export const EVALUATION_BODY = strict({ design: DESIGN_SCHEMA }, ['design']);
+
+export const NETLIST_QUERY = strict(
+  {
+    topology: { enum: [...TOPOLOGIES] },
+    source: { enum: ['option', 'decision'], default: 'option' },
+    drive: { enum: ['differential', 'common-mode'], default: 'differential' },
+  },
+  [],
+);

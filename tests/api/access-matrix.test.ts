@@ -154,6 +154,8 @@ const MATRIX: Row[] = [
   { route: 'GET /api/proposals/:id/audit', url: '/api/proposals/{ranked}/audit', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/proposals/:id/ranking.csv', url: '/api/proposals/{ranked}/ranking.csv', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/proposals/:id/ranking.csv', url: '/api/proposals/{otherProposal}/ranking.csv', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/proposals/:id/netlist.cir', url: '/api/proposals/{ranked}/netlist.cir', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/proposals/:id/netlist.cir', url: '/api/proposals/{otherProposal}/netlist.cir', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
   { route: 'GET /api/proposals/:id/export.json', url: '/api/proposals/{ranked}/export.json', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/proposals/:id/export.json', url: '/api/proposals/{otherProposal}/export.json', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
   { route: 'GET /api/proposals/:id/audit', url: '/api/proposals/{otherProposal}/audit', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },

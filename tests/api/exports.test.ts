@@ -2,7 +2,9 @@
  * Exports of a proposal: the ranking as CSV (RFC 4180) and the whole record as JSON.
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { parseNetlistElements } from '../../shared/engine/netlist';
 import { csvField } from '../../shared/export/ranking-csv';
+import { runSpice } from '../helpers/spice';
 import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
 
 let api: TestApi;
@@ -60,6 +62,29 @@ describe('GET /api/proposals/:id/ranking.csv', () => {
     ['two\r\nlines', '"two\r\nlines"'],
   ])('a field %j is written %j (RFC 4180)', (value, written) => {
     expect(csvField(value)).toBe(written);
+  });
+});
+
+describe('GET /api/proposals/:id/netlist.cir', () => {
+  test('when the recommended option is downloaded, then the netlist names its origin, holds the pair and runs in ngspice', async () => {
+    const response = await designer.get(`/api/proposals/${proposalId}/netlist.cir`).expect(200).expect('content-disposition', /\.cir/);
+    const text = response.text;
+    expect(text).toContain(`* Exported by Longtail: proposal #${proposalId}`);
+    expect(text).toMatch(/simulation and bench measurement/);
+    const names = parseNetlistElements(text).map((e) => e.name);
+    expect(names).toEqual(expect.arrayContaining(['Q1', 'Q2', 'RC1', 'RC2', 'VIN1', 'VIN2']));
+    const result = await runSpice(text, 'AC Analysis');
+    expect(result.numPoints).toBeGreaterThan(100);
+  });
+
+  test('when a decision is asked for before any decision, then 400 names ?source', async () => {
+    const response = await designer.get(`/api/proposals/${proposalId}/netlist.cir?source=decision`).expect(400);
+    expect(response.body.details.map((d: { path: string }) => d.path)).toContain('?source');
+  });
+
+  test('when the drive is not known, then 400 names ?drive', async () => {
+    const response = await designer.get(`/api/proposals/${proposalId}/netlist.cir?drive=sideways`).expect(400);
+    expect(response.body.details.map((d: { path: string }) => d.path)).toContain('?drive');
   });
 });
 

@@ -36,6 +36,8 @@ export const api = {
   audit: (id: number) => `/api/proposals/${id}/audit`,
   rankingCsv: (id: number) => `/api/proposals/${id}/ranking.csv`,
   exportJson: (id: number) => `/api/proposals/${id}/export.json`,
+  netlist: (id: number, topology: string, drive: 'differential' | 'common-mode' = 'differential') =>
+    `/api/proposals/${id}/netlist.cir?topology=${encodeURIComponent(topology)}&drive=${drive}`,
   analyze: '/api/analyze',
   specSchema: '/api/schema/spec',
   topologies: '/api/topologies',

@@ -36,6 +36,11 @@ export function RankingView({ proposal }: { proposal: Proposal }) {
             <a href={api.exportJson(proposal.id)} download className={downloadLink}>
               Whole record as JSON
             </a>
+            {selected && (
+              <a href={api.netlist(proposal.id, selected)} download className={downloadLink}>
+                Selected option as SPICE netlist
+              </a>
+            )}
           </>
         }
       >
