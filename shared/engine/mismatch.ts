@@ -10,7 +10,7 @@
  * the model against full solves.
  */
 import { solveCircuit, transfersAt, type SolvedCircuit } from './analyze';
-import type { Complex } from './small-signal';
+import { magnitude, type Complex } from './small-signal';
 import { gaussianSource } from './random';
 
 /** Steps the model is fitted at: about the 1σ–3σ mismatch of 1 % parts and a 0.5 mV VBE spread. */
@@ -114,10 +114,6 @@ function combine(terms: [number, Complex][]): Complex {
   return { re, im };
 }
 
-function abs(z: Complex): number {
-  return Math.sqrt(z.re * z.re + z.im * z.im);
-}
-
 /** The model's coefficients at a frequency (central differences; the cross term from the (ε, δ) point). */
 export function mismatchSensitivity(stages: MismatchStages, frequencyHz: number): MismatchSensitivity {
   const at = (s: SolvedCircuit) => transfersAt(s, frequencyHz);
@@ -176,8 +172,8 @@ export function mismatchCmrrDb(s: MismatchSensitivity, loadMismatch: number, isM
 export function worstCaseMismatchCmrrDb(s: MismatchSensitivity, resistorTolerance: number, vbeSigmaV: number): number {
   const e = (1 + resistorTolerance) / (1 - resistorTolerance) - 1;
   const d = Math.exp((SIGMAS_PER_TOLERANCE * vbeSigmaV) / s.thermalVoltageV) - 1;
-  const adcm = abs(s.perLoadMismatch) * e + abs(s.loadSquared) * e * e + abs(s.perIsMismatch) * d + abs(s.isSquared) * d * d + abs(s.loadTimesIs) * e * d;
-  const ad = abs(s.differentialGain) - abs(s.differentialGainPerLoad) * e - abs(s.differentialGainPerIs) * d;
+  const adcm = magnitude(s.perLoadMismatch) * e + magnitude(s.loadSquared) * e * e + magnitude(s.perIsMismatch) * d + magnitude(s.isSquared) * d * d + magnitude(s.loadTimesIs) * e * d;
+  const ad = magnitude(s.differentialGain) - magnitude(s.differentialGainPerLoad) * e - magnitude(s.differentialGainPerIs) * d;
   return 20 * Math.log10(ad / adcm);
 }
 

@@ -2,7 +2,7 @@ import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { ProposalState } from '../../../../../shared/workflow/proposal-states';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Items, Page, Project, ProposalSummary, Spec, SpecVersion, User } from '../../../lib/api-types';
+import type { Items, Page, Project, ProposalSummary, Spec, User } from '../../../lib/api-types';
 
 export const projectKeys = {
   all: ['projects'] as const,
