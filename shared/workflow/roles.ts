@@ -21,7 +21,8 @@ export type Action =
   | 'specs:write'
   | 'proposals:create'
   | 'proposals:decide'
-  | 'proposals:review';
+  | 'proposals:review'
+  | 'proposals:verify';
 
 /** Which roles may take each action (anything not listed is refused). */
 export const PERMISSIONS: Record<Action, readonly Role[]> = {
@@ -33,6 +34,8 @@ export const PERMISSIONS: Record<Action, readonly Role[]> = {
   'proposals:create': ['requirements', 'designer'],
   'proposals:decide': ['designer'],
   'proposals:review': ['reviewer'],
+  /** Ask for a SPICE verification or Monte Carlo run (reading results needs only project access). */
+  'proposals:verify': ['designer', 'reviewer'],
 };
 
 /** Whether a role may take an action. */

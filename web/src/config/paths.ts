@@ -7,6 +7,7 @@ export const paths = {
   spec: { path: '/specs/:specId', href: (specId: number) => `/specs/${specId}` },
   specHistory: { path: '/specs/:specId/history', href: (specId: number) => `/specs/${specId}/history` },
   proposal: { path: '/proposals/:proposalId', href: (proposalId: number) => `/proposals/${proposalId}` },
+  report: { path: '/proposals/:proposalId/report', href: (proposalId: number) => `/proposals/${proposalId}/report` },
   people: { path: '/people', href: () => '/people' },
 } as const;
 
@@ -38,6 +39,10 @@ export const api = {
   exportJson: (id: number) => `/api/proposals/${id}/export.json`,
   netlist: (id: number, topology: string, drive: 'differential' | 'common-mode' = 'differential') =>
     `/api/proposals/${id}/netlist.cir?topology=${encodeURIComponent(topology)}&drive=${drive}`,
+  /** GET: latest verification and Monte Carlo jobs; POST: ask for a verification of every option. */
+  verification: (id: number) => `/api/proposals/${id}/verification`,
+  /** POST { topology, runs? }: SPICE Monte Carlo of one option. */
+  monteCarlo: (id: number) => `/api/proposals/${id}/verification/monte-carlo`,
   analyze: '/api/analyze',
   specSchema: '/api/schema/spec',
   topologies: '/api/topologies',

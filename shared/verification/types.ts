@@ -1,0 +1,163 @@
+/**
+ * SPICE verification of a proposal: what the server stores and the app shows. Pure types and the
+ * documented tolerances; the runner lives in `api/verification/`.
+ *
+ * A verification job re-simulates every option of a proposal (and a designer's override, when the
+ * latest decision is one) in ngspice with the netlist the product exports, and sets each simulated
+ * figure beside the engine's prediction. A Monte Carlo job simulates one option N times with the
+ * spec's tolerances.
+ */
+
+/** Job kinds: the whole proposal, or SPICE Monte Carlo on one option. */
+export type VerificationKind = 'proposal' | 'monte-carlo';
+
+/**
+ * Job states. `waiting`: queued behind other jobs; `simulating`: being run now; `finished`: every
+ * option was attempted (an option may still carry its own error); `stopped`: the server stopped
+ * while the job ran (it can be asked for again); `failed`: the job itself could not run.
+ */
+export const VERIFICATION_STATES = ['waiting', 'simulating', 'finished', 'stopped', 'failed'] as const;
+export type VerificationState = (typeof VERIFICATION_STATES)[number];
+
+/** States after which a job never changes again. */
+export const SETTLED_VERIFICATION_STATES: readonly VerificationState[] = ['finished', 'stopped', 'failed'];
+
+/** How a figure's difference is expressed: relative (% of the simulated value) or absolute dB. */
+export type DeltaKind = 'percent' | 'db';
+
+/**
+ * Agreement tolerances between the engine and ngspice (the engine's issue; DEVELOPERS.md,
+ * "Agreement with SPICE"). Percent figures are relative to the simulated value.
+ */
+export const VERIFICATION_TOLERANCES = {
+  currentPercent: 3,
+  gainPercent: 5,
+  singleEndedCmrrDb: 1.5,
+  differentialCmrrDb: 2,
+  tailOutputResistancePercent: 20,
+  cornerFrequencyPercent: 20,
+  powerPercent: 5,
+  /** Node voltages (collector, tail node): absolute, in volts. */
+  voltageV: 0.05,
+} as const;
+
+/** One figure, predicted and simulated. */
+export interface VerifiedFigure {
+  /** Stable key, e.g. `tailCurrentA`, `cmrrSingleEndedDb`. */
+  key: string;
+  /** Readable name, e.g. "Tail current". */
+  label: string;
+  /** SI unit symbol for formatting (`A`, `V`, `Ohm`, `Hz`, `W`, `dB`, `` for ratios). */
+  unit: string;
+  predicted: number | null;
+  simulated: number | null;
+  /** predicted − simulated, as a percentage of |simulated| (`percent`) or in dB/V (`db` / volts). */
+  delta: number | null;
+  deltaKind: DeltaKind | 'volts';
+  /** The tolerance the delta is held to, in the delta's own unit. */
+  tolerance: number;
+  /** null when either side is missing (e.g. no corner below the sweep's end). */
+  agrees: boolean | null;
+}
+
+/** Figures at one operating condition (nominal, or a corner of input common mode × temperature). */
+export interface VerifiedCondition {
+  label: string;
+  inputCommonModeV: number;
+  temperatureC: number;
+  figures: VerifiedFigure[];
+}
+
+/** One point of the rejection-against-frequency comparison (single-ended CMRR at nominal). */
+export interface RejectionPoint {
+  frequencyHz: number;
+  simulatedDb: number;
+  /** The engine's curve at the same frequency when it has one (its curve stops at 10 MHz). */
+  predictedDb: number | null;
+}
+
+/** The verification of one option or of an override. */
+export interface OptionVerification {
+  topology: string;
+  /** `option`: a ranked option; `decision`: the latest decision's own design (an override). */
+  source: 'option' | 'decision';
+  /** `verified`: simulated (figures may or may not agree); `error`: simulation failed, see `error`. */
+  outcome: 'verified' | 'error';
+  /** Why the simulation failed, in words (non-convergence, time limit, ngspice's message). */
+  error: string | null;
+  nominal: VerifiedCondition | null;
+  corners: VerifiedCondition[];
+  rejectionCurve: RejectionPoint[];
+  /** Every figure with a verdict agrees. */
+  agrees: boolean;
+  /** Count of figures outside tolerance. */
+  disagreements: number;
+  elapsedMs: number;
+}
+
+export interface ProposalVerificationResult {
+  /** ngspice's banner version, e.g. "ngspice-45". */
+  simulator: string;
+  tolerances: typeof VERIFICATION_TOLERANCES;
+  options: OptionVerification[];
+  /** Time spent starting the simulator for this job (0 when it was already running), ms. */
+  simulatorStartMs: number;
+  elapsedMs: number;
+}
+
+/** SPICE Monte Carlo of one option's rejection. */
+export interface MonteCarloVerificationResult {
+  simulator: string;
+  topology: string;
+  /** Which rejection is drawn: the differential output's CMRR (mismatch-limited). */
+  figure: 'cmrr-differential';
+  runs: number;
+  seed: number;
+  requiredDb: number;
+  /** Runs that did not converge or failed (left out of the statistics). */
+  failedRuns: number;
+  /** Simulated rejection of each successful run at the spec frequency, dB (sorted ascending). */
+  simulatedDb: number[];
+  simulated: { yieldPercent: number; percentilesDb: { p1: number; p5: number; p50: number; p95: number } };
+  /** The engine's closed-form Monte Carlo on the same draws. */
+  predictedDb: number[];
+  predicted: { yieldPercent: number; percentilesDb: { p1: number; p5: number; p50: number; p95: number } };
+  /** Shared bin edges for overlaying both histograms, dB; counts per bin for each. */
+  histogram: { binEdgesDb: number[]; simulatedCounts: number[]; predictedCounts: number[] };
+  elapsedMs: number;
+}
+
+/** A job as the API returns it. */
+export interface VerificationJobView {
+  id: number;
+  proposalId: number;
+  kind: VerificationKind;
+  /** Monte Carlo: the option's topology; else null. */
+  topology: string | null;
+  /** Monte Carlo: the number of runs asked for; else null. */
+  runs: number | null;
+  state: VerificationState;
+  done: number;
+  total: number;
+  /** What is being simulated now, e.g. "Wilson mirror: corner ICM −2 V, 85 °C". */
+  step: string | null;
+  /** Job-level failure or interruption, in words. */
+  message: string | null;
+  requestedBy: { id: number; displayName: string };
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  /** Present once finished. */
+  result: ProposalVerificationResult | MonteCarloVerificationResult | null;
+}
+
+/** `GET /api/proposals/:id/verification`. */
+export interface VerificationStatus {
+  /** The latest whole-proposal job, or null if none was asked for. */
+  verification: VerificationJobView | null;
+  /** The latest Monte Carlo job for each option that had one, newest first. */
+  monteCarlo: VerificationJobView[];
+}
+
+/** Monte Carlo runs: default and limits. */
+export const MONTE_CARLO_RUNS = { default: 200, min: 10, max: 2000 } as const;
