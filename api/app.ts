@@ -14,10 +14,14 @@ import { configurePassport } from './auth/passport';
 import { TypeormSessionStore } from './auth/session-store';
 import { errorHandler } from './error-handler';
 import { AppError } from './errors';
+import { adminRoutes } from './routes/admin.routes';
 import { authRoutes } from './routes/auth.routes';
+import { batchRoutes } from './routes/batch.routes';
+import { devicesRoutes } from './routes/devices.routes';
 import { engineRoutes } from './routes/engine.routes';
 import { projectsRoutes } from './routes/projects.routes';
 import { proposalsRoutes } from './routes/proposals.routes';
+import { VerificationQueue } from './verification/verification-queue';
 import { specsRoutes } from './routes/specs.routes';
 import { usersRoutes } from './routes/users.routes';
 
@@ -37,11 +41,15 @@ export interface AppDeps {
   log?: (message: string) => void;
   /** The built browser app (dist/web) to serve, with index.html for every non-API path. */
   staticDir?: string;
+  /** The SPICE verification queue (default: one on this database, its engine started on the first job). */
+  verification?: VerificationQueue;
 }
 
 export interface LongtailApp extends Express {
   /** Stops background timers (session pruning). */
   closeApp(): void;
+  /** The verification queue the routes feed (tests wait on it and close it). */
+  verification: VerificationQueue;
 }
 
 export function createApp(deps: AppDeps): LongtailApp {
@@ -85,11 +93,17 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.use(passport.initialize());
   app.use(passport.session());
   app.use('/api', requireCsrfToken);
-  app.use('/api/auth', authRoutes(passport));
+  app.use('/api/auth', authRoutes(passport, deps.dataSource));
   app.use('/api/users', usersRoutes(deps.dataSource));
   app.use('/api/projects', projectsRoutes(deps.dataSource));
+  app.use('/api/projects/:projectId/devices', devicesRoutes(deps.dataSource));
+  app.use('/api/projects', batchRoutes(deps.dataSource));
   app.use('/api/specs', specsRoutes(deps.dataSource, deps.ruleSet));
-  app.use('/api/proposals', proposalsRoutes(deps.dataSource, deps.ruleSet));
+  const verification =
+    deps.verification ?? new VerificationQueue(deps.dataSource, { log: deps.log, singleInstance: deps.dataSource.options.type === 'better-sqlite3' });
+  app.verification = verification;
+  app.use('/api/proposals', proposalsRoutes(deps.dataSource, deps.ruleSet, verification));
+  app.use('/api/admin', adminRoutes(deps.dataSource));
   app.use('/api', engineRoutes(deps.ruleSet));
   app.use('/api', (_req, _res, next) => next(new AppError('route-not-found', 404, 'No such API route.')));
   if (deps.staticDir) {
@@ -98,6 +112,9 @@ export function createApp(deps: AppDeps): LongtailApp {
     app.get(/^\/(?!api\/).*/, (_req, res) => res.sendFile(indexHtml));
   }
   app.use(errorHandler(deps.log));
-  app.closeApp = () => store.close();
+  app.closeApp = () => {
+    store.close();
+    void verification.close();
+  };
   return app;
 }

@@ -1,5 +1,6 @@
 /**
- * The server process: configuration, database (migrated on start), demo seed, listen, and a
+ * The server process: configuration, database (migrated on start), mail (the outbox worker, and
+ * the built-in local mail server unless a real one is configured), demo seed, listen, and a
  * graceful shutdown. The only file besides cli.ts that touches the process.
  */
 import { existsSync } from 'node:fs';
@@ -7,12 +8,36 @@ import { join, resolve } from 'node:path';
 import { createApp } from './app';
 import { loadConfig } from './config';
 import { openDatabase } from './data-source';
+import { startLocalSmtp, type LocalSmtp } from './mail/local-smtp';
+import { startOutboxWorker, type OutboxWorker } from './mail/outbox-worker';
+import { createMailTransport, describeMailTarget, type MailTarget } from './mail/transport';
+import { configureNotifications } from './services/notifications.service';
 import { loadRuleSet } from '../rules/index';
 import { DEMO_DOMAIN, seedDemo, seedFirstAdmin } from './seed/demo-seed';
 
 const config = loadConfig();
 const dataSource = await openDatabase(config.databasePath);
 const ruleSet = await loadRuleSet();
+
+configureNotifications({ baseUrl: config.baseUrl });
+let localSmtp: LocalSmtp | null = null;
+let mailTarget: MailTarget | null = config.mail.smtp;
+if (!mailTarget) {
+  try {
+    localSmtp = await startLocalSmtp({ dataSource, port: config.mail.localSmtpPort, log: console.error });
+    mailTarget = { localPort: localSmtp.port };
+  } catch (error) {
+    console.error(
+      `The local mail server could not listen on 127.0.0.1:${config.mail.localSmtpPort} (${error instanceof Error ? error.message : String(error)}): ` +
+        'notifications wait in the outbox until a restart can send them (set LONGTAIL_LOCAL_SMTP_PORT, or LONGTAIL_SMTP_URL for a real server).',
+    );
+  }
+}
+let outbox: OutboxWorker | null = null;
+if (mailTarget) {
+  outbox = startOutboxWorker({ dataSource, transport: createMailTransport(mailTarget), from: config.mail.from, log: console.error });
+  console.log(`Notifications go to ${describeMailTarget(mailTarget)}${localSmtp ? ' (admins read them on the Mail page)' : ''}`);
+}
 if (config.seedDemo && (await seedDemo(dataSource, ruleSet, config.demoPassword))) {
   console.log(`Seeded the demo organisation: sign in as admin|requirements|designer|reviewer@${DEMO_DOMAIN}`);
 }
@@ -33,7 +58,10 @@ function shutdown(signal: string): void {
   console.log(`${signal}: closing`);
   server.close(() => {
     app.closeApp();
-    dataSource.destroy().finally(() => process.exit(0));
+    Promise.all([outbox?.stop(), localSmtp?.close(), app.verification.close()])
+      .catch(() => undefined)
+      .then(() => dataSource.destroy())
+      .finally(() => process.exit(0));
   });
   setTimeout(() => process.exit(1), 10_000).unref();
 }

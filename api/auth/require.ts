@@ -17,6 +17,7 @@ declare global {
       email: string;
       displayName: string;
       role: import('../../shared/workflow/roles').Role;
+      notify: boolean;
       createdAt: string;
     }
   }

@@ -1,6 +1,9 @@
 /** Every entity the data source knows. */
 import { AuditEventEntity } from './audit-event.entity';
 import { DecisionEntity } from './decision.entity';
+import { DeviceModelEntity } from './device-model.entity';
+import { MailMessageEntity } from './mail-message.entity';
+import { MailOutboxEntity } from './mail-outbox.entity';
 import { ProjectMemberEntity } from './project-member.entity';
 import { ProjectEntity } from './project.entity';
 import { ProposalEntity } from './proposal.entity';
@@ -9,6 +12,7 @@ import { SessionEntity } from './session.entity';
 import { SpecVersionEntity } from './spec-version.entity';
 import { SpecEntity } from './spec.entity';
 import { UserEntity } from './user.entity';
+import { VerificationJobEntity } from './verification-job.entity';
 
 export const ENTITIES = [
   UserEntity,
@@ -21,4 +25,8 @@ export const ENTITIES = [
   ReviewEntity,
   AuditEventEntity,
   SessionEntity,
+  DeviceModelEntity,
+  VerificationJobEntity,
+  MailOutboxEntity,
+  MailMessageEntity,
 ];

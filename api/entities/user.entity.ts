@@ -8,6 +8,8 @@ export interface User {
   displayName: string;
   role: Role;
   passwordHash: string;
+  /** E-mail notifications about the workflow (on unless the person turns them off). */
+  notify: boolean;
   createdAt: string;
 }
 
@@ -21,5 +23,6 @@ export const UserEntity = new EntitySchema<User>({
     role: shortTextColumn(20),
     passwordHash: { ...shortTextColumn(200), name: 'password_hash', select: false },
     createdAt: timestampColumn('created_at'),
+    notify: { type: 'boolean', default: true },
   },
 });

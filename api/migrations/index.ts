@@ -1,4 +1,7 @@
 /** Every migration, oldest first (run on start by server.ts and by tests). */
 import { InitialSchema1764612000000 } from './1764612000000-initial-schema';
+import { VerificationJobs1764700000000 } from './1764700000000-verification-jobs';
+import { MailOutbox1764700100000 } from './1764700100000-mail-outbox';
+import { DeviceModels1764700200000 } from './1764700200000-device-models';
 
-export const MIGRATIONS = [InitialSchema1764612000000];
+export const MIGRATIONS = [InitialSchema1764612000000, VerificationJobs1764700000000, MailOutbox1764700100000, DeviceModels1764700200000];

@@ -1,14 +1,16 @@
-/** Sign-in, sign-out, who am I, and the CSRF token. */
+/** Sign-in, sign-out, who am I (and my own preferences), and the CSRF token. */
 import { Router } from 'express';
 import type { PassportStatic } from 'passport';
+import type { DataSource } from 'typeorm';
 import { issueCsrfToken } from '../auth/csrf';
 import { signInRateLimits } from '../auth/rate-limit';
-import { requireSignIn } from '../auth/require';
+import { currentUser, requireSignIn } from '../auth/require';
 import { AppError } from '../errors';
-import { LOGIN_BODY } from '../validation/bodies';
+import { updatePreferences } from '../services/users.service';
+import { LOGIN_BODY, PREFERENCES_BODY } from '../validation/bodies';
 import { validateBody } from '../validation/validate-request';
 
-export function authRoutes(passport: PassportStatic): Router {
+export function authRoutes(passport: PassportStatic, dataSource: DataSource): Router {
   const router = Router();
   router.get('/csrf', issueCsrfToken);
   router.post('/login', validateBody(LOGIN_BODY), ...signInRateLimits(), (req, res, next) => {
@@ -31,6 +33,9 @@ export function authRoutes(passport: PassportStatic): Router {
   });
   router.get('/me', requireSignIn, (req, res) => {
     res.json({ user: req.user });
+  });
+  router.patch('/me', requireSignIn, validateBody(PREFERENCES_BODY), async (req, res) => {
+    res.json({ user: await updatePreferences(dataSource, currentUser(req).id, req.body) });
   });
   return router;
 }

@@ -1,7 +1,8 @@
-/** The stateless parts: what-if analysis, the spec schema for the form, the topology catalogue, health. */
+/** The stateless parts: what-if analysis, the spec schema for the form (and as a CSV template), the topology catalogue, health. */
 import { Router } from 'express';
 import { analyze, ConvergenceError, ENGINE_VERSION, ESTIMATE_NOTICE } from '../../shared/engine/index';
 import { TOPOLOGIES, type Design, type RuleSet } from '../../shared/engine/types';
+import { specCsvTemplate } from '../../shared/import/spec-columns';
 import { DESIGN_SCHEMA, SPEC_SCHEMA, validateDesign } from '../../shared/validate';
 import { requireSignIn } from '../auth/require';
 import { AppError } from '../errors';
@@ -14,6 +15,9 @@ export function engineRoutes(ruleSet: RuleSet): Router {
   });
   router.get('/schema/spec', (_req, res) => {
     res.json(SPEC_SCHEMA);
+  });
+  router.get('/schema/spec.csv', (_req, res) => {
+    res.attachment('longtail-spec-template.csv').type('text/csv; charset=utf-8').send(specCsvTemplate());
   });
   router.get('/schema/design', (_req, res) => {
     res.json(DESIGN_SCHEMA);

@@ -8,10 +8,12 @@ import { validateDesign } from '../../shared/validate';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
 import { decide, evaluateOverride, getProposal, proposalAudit, proposalNetlist, review } from '../services/proposals.service';
-import { DECISION_BODY, EVALUATION_BODY, NETLIST_QUERY, REVIEW_BODY } from '../validation/bodies';
+import { DECISION_BODY, EVALUATION_BODY, MONTE_CARLO_BODY, NETLIST_QUERY, REVIEW_BODY } from '../validation/bodies';
+import { requestMonteCarlo, requestVerification, verificationStatus } from '../services/verification.service';
+import type { VerificationQueue } from '../verification/verification-queue';
 import { idParam, validateBody, validateQuery } from '../validation/validate-request';
 
-export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet): Router {
+export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet, verification: VerificationQueue): Router {
   const router = Router();
   router.use(requireSignIn);
   router.get('/:id', async (req, res) => {
@@ -39,8 +41,22 @@ export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet): Route
   router.get('/:id/export.json', async (req, res) => {
     const viewer = currentUser(req);
     const id = idParam(req.params.id, 'proposal');
-    const [proposal, audit] = await Promise.all([getProposal(dataSource, viewer, id), proposalAudit(dataSource, viewer, id)]);
-    res.attachment(`longtail-proposal-${proposal.id}.json`).json({ exportedAt: new Date().toISOString(), notice: ESTIMATE_NOTICE, proposal, audit });
+    const [proposal, audit, verification] = await Promise.all([getProposal(dataSource, viewer, id), proposalAudit(dataSource, viewer, id), verificationStatus(dataSource, viewer, id)]);
+    res.attachment(`longtail-proposal-${proposal.id}.json`).json({ exportedAt: new Date().toISOString(), notice: ESTIMATE_NOTICE, proposal, verification, audit });
+  });
+  router.get('/:id/verification', async (req, res) => {
+    res.json(await verificationStatus(dataSource, currentUser(req), idParam(req.params.id, 'proposal')));
+  });
+  router.post('/:id/verification', requirePermission('proposals:verify'), async (req, res) => {
+    // 202 either way: a new job, or the equal one already waiting or simulating (never two at once).
+    const { job } = await requestVerification(dataSource, currentUser(req), idParam(req.params.id, 'proposal'));
+    verification.kick();
+    res.status(202).json(job);
+  });
+  router.post('/:id/verification/monte-carlo', requirePermission('proposals:verify'), validateBody(MONTE_CARLO_BODY), async (req, res) => {
+    const { job } = await requestMonteCarlo(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), req.body);
+    verification.kick();
+    res.status(202).json(job);
   });
   router.get('/:id/audit', async (req, res) => {
     res.json({ items: await proposalAudit(dataSource, currentUser(req), idParam(req.params.id, 'proposal')) });

@@ -17,6 +17,8 @@ import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.en
 import { validateDesign } from '../../shared/validate';
 import { AppError, invalid, notFound } from '../errors';
 import { auditView, recordEvent } from './audit.service';
+import { libraryCardNetlistComment } from './devices.service';
+import { queueNotification } from './notifications.service';
 import { projectFor } from './projects.service';
 import { checkedSpecDocument, latestVersion, specFor } from './specs.service';
 import type { PublicUser } from './users.service';
@@ -54,7 +56,7 @@ export interface ReviewInput {
 }
 
 /** The proposal if its project is visible to the viewer, else 404. */
-async function proposalFor(manager: EntityManager | DataSource, viewer: Viewer, proposalId: number): Promise<Proposal> {
+export async function proposalFor(manager: EntityManager | DataSource, viewer: Viewer, proposalId: number): Promise<Proposal> {
   const proposal = await manager.getRepository(ProposalEntity).findOneBy({ id: proposalId });
   if (!proposal) throw notFound('proposal');
   try {
@@ -156,6 +158,7 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
       afterId: saved.id,
       details: { specVersion: version.version, recommended, status: 'ranked' },
     });
+    await queueNotification(manager, { kind: 'proposal.ready', proposalId: saved.id, actorId: actor.id });
     return saved;
   });
   const { result: _stored, ...summary } = proposal;
@@ -277,6 +280,7 @@ export async function decide(dataSource: DataSource, actor: Viewer, proposalId: 
       afterId: decision.id,
       details: { kind: input.kind, topology: settled.topology, from: proposal.status, to: status, passes: settled.evaluation?.passes },
     });
+    await queueNotification(manager, { kind: 'proposal.decided', proposalId, decisionId: decision.id, actorId: actor.id });
   });
   return getProposal(dataSource, actor, proposalId);
 }
@@ -309,6 +313,7 @@ export async function review(dataSource: DataSource, actor: Viewer, proposalId: 
       afterId: saved.id,
       details: { verdict: input.verdict, from: proposal.status, to: status },
     });
+    await queueNotification(manager, { kind: input.verdict === 'approve' ? 'proposal.approved' : 'proposal.returned', proposalId, reviewId: saved.id, actorId: actor.id });
   });
   return getProposal(dataSource, actor, proposalId);
 }
@@ -335,11 +340,13 @@ export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, pr
   }
   const netlist = spiceNetlist(design, { analysis: query.drive === 'differential' ? 'ac-differential' : 'ac-common-mode', ...NETLIST_SWEEP });
   const [title, ...rest] = netlist.split('\n');
+  const libraryCard = await libraryCardNetlistComment(dataSource, proposal.projectId, proposal.specVersion.payload, design.device);
   const header = [
     `* Exported by Longtail: proposal #${proposal.id}, ${label}`,
     `* spec "${proposal.specVersion.title}" version ${proposal.specVersion.version}, engine ${proposal.engineVersion}, rule set ${proposal.rulesetVersion.slice(0, 12)}`,
     `* at ${design.temperatureC ?? 27} °C, input common mode ${design.inputCommonModeV ?? 0} V (nominal conditions)`,
     `* ${ESTIMATE_NOTICE}`,
+    ...libraryCard,
   ];
   return { fileName: `longtail-${proposal.id}-${design.tail.topology}-${query.drive}.cir`, text: [title, ...header, ...rest].join('\n') };
 }

@@ -63,12 +63,43 @@ export async function createSpec(dataSource: DataSource, actor: Viewer, projectI
   const document = checkedSpecDocument({ ...(input.payload as object), title: input.title.trim() });
   return dataSource.transaction(async (manager) => {
     await projectFor(manager, actor, projectId);
-    const now = new Date().toISOString();
-    const spec = await manager.getRepository(SpecEntity).save({ projectId, title: input.title.trim(), latestVersion: 1, createdById: actor.id, createdAt: now, updatedAt: now });
-    const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: 1, title: spec.title, payload: JSON.stringify(document), createdById: actor.id, createdAt: now });
-    await recordEvent(manager, { actorId: actor.id, action: 'spec.created', entityType: 'spec', entityId: spec.id, projectId, afterId: version.id, details: { title: spec.title, version: 1 } });
+    const { spec, version } = await insertSpec(manager, actor, projectId, input.title.trim(), document);
     return { ...spec, latest: specVersionView(version) };
   });
+}
+
+/**
+ * Inside the caller's transaction: a new spec with its first version and its `spec.created`
+ * event (`details` adds to the event's details, e.g. the import row it came from).
+ */
+export async function insertSpec(manager: EntityManager, actor: Viewer, projectId: number, title: string, document: SpecDocument, details: Record<string, unknown> = {}) {
+  const now = new Date().toISOString();
+  const spec = await manager.getRepository(SpecEntity).save({ projectId, title, latestVersion: 1, createdById: actor.id, createdAt: now, updatedAt: now });
+  const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: 1, title: spec.title, payload: JSON.stringify(document), createdById: actor.id, createdAt: now });
+  await recordEvent(manager, { actorId: actor.id, action: 'spec.created', entityType: 'spec', entityId: spec.id, projectId, afterId: version.id, details: { title: spec.title, version: 1, ...details } });
+  return { spec, version };
+}
+
+/**
+ * Inside the caller's transaction: the spec's next version (after `previous`, its latest), the
+ * spec moved to it, and the `spec.version-created` event with the number of changed fields.
+ */
+export async function insertSpecVersion(manager: EntityManager, actor: Viewer, spec: Spec, previous: SpecVersion, title: string, document: SpecDocument, details: Record<string, unknown> = {}) {
+  const now = new Date().toISOString();
+  const number = spec.latestVersion + 1;
+  const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: number, title, payload: JSON.stringify(document), createdById: actor.id, createdAt: now });
+  await manager.getRepository(SpecEntity).update({ id: spec.id }, { latestVersion: number, title: version.title, updatedAt: now });
+  await recordEvent(manager, {
+    actorId: actor.id,
+    action: 'spec.version-created',
+    entityType: 'spec',
+    entityId: spec.id,
+    projectId: spec.projectId,
+    beforeId: previous.id,
+    afterId: version.id,
+    details: { version: number, changes: diffJson(JSON.parse(previous.payload), document).length, ...details },
+  });
+  return { spec: { ...spec, title: version.title, latestVersion: number, updatedAt: now }, version };
 }
 
 export async function updateSpec(dataSource: DataSource, actor: Viewer, specId: number, input: SpecInput) {
@@ -76,21 +107,8 @@ export async function updateSpec(dataSource: DataSource, actor: Viewer, specId: 
   return dataSource.transaction(async (manager) => {
     const spec = await specFor(manager, actor, specId);
     const previous = await latestVersion(manager, spec);
-    const now = new Date().toISOString();
-    const number = spec.latestVersion + 1;
-    const version = await manager.getRepository(SpecVersionEntity).save({ specId, version: number, title: input.title.trim(), payload: JSON.stringify(document), createdById: actor.id, createdAt: now });
-    await manager.getRepository(SpecEntity).update({ id: specId }, { latestVersion: number, title: version.title, updatedAt: now });
-    await recordEvent(manager, {
-      actorId: actor.id,
-      action: 'spec.version-created',
-      entityType: 'spec',
-      entityId: specId,
-      projectId: spec.projectId,
-      beforeId: previous.id,
-      afterId: version.id,
-      details: { version: number, changes: diffJson(JSON.parse(previous.payload), document).length },
-    });
-    return { ...spec, title: version.title, latestVersion: number, updatedAt: now, latest: specVersionView(version) };
+    const written = await insertSpecVersion(manager, actor, spec, previous, input.title.trim(), document);
+    return { ...written.spec, latest: specVersionView(written.version) };
   });
 }
 

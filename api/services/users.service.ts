@@ -9,8 +9,8 @@ import { recordEvent } from './audit.service';
 export type PublicUser = Omit<User, 'passwordHash'>;
 
 export function publicUser(user: User | PublicUser): PublicUser {
-  const { id, email, displayName, role, createdAt } = user;
-  return { id, email, displayName, role, createdAt };
+  const { id, email, displayName, role, notify, createdAt } = user;
+  return { id, email, displayName, role, notify, createdAt };
 }
 
 export async function listUsers(dataSource: DataSource): Promise<PublicUser[]> {
@@ -63,5 +63,19 @@ export async function updateUser(dataSource: DataSource, actorId: number, id: nu
     await repository.update({ id }, { displayName: updated.displayName, role: updated.role });
     await recordEvent(manager, { actorId, action: 'user.updated', entityType: 'user', entityId: id, beforeId: id, afterId: id, details: { before: { displayName: user.displayName, role: user.role }, after: { displayName: updated.displayName, role: updated.role } } });
     return publicUser(updated);
+  });
+}
+
+/** A person's own preferences (today: e-mail notifications on or off); returns the account. */
+export async function updatePreferences(dataSource: DataSource, userId: number, changes: { notify: boolean }): Promise<PublicUser> {
+  return dataSource.transaction(async (manager) => {
+    const repository = manager.getRepository(UserEntity);
+    const user = await repository.findOneBy({ id: userId });
+    if (!user) throw notFound('user');
+    if (user.notify !== changes.notify) {
+      await repository.update({ id: userId }, { notify: changes.notify });
+      await recordEvent(manager, { actorId: userId, action: 'user.preferences-changed', entityType: 'user', entityId: userId, beforeId: userId, afterId: userId, details: { notify: changes.notify } });
+    }
+    return publicUser({ ...user, notify: changes.notify });
   });
 }

@@ -6,6 +6,7 @@ import { ROLES } from '../../shared/workflow/roles';
 import { PROPOSAL_STATES } from '../../shared/workflow/proposal-states';
 import { TOPOLOGIES } from '../../shared/engine/types';
 import { DESIGN_SCHEMA } from '../../shared/validate';
+import { MONTE_CARLO_RUNS } from '../../shared/verification/types';
 import { MIN_PASSWORD_LENGTH } from '../auth/password';
 
 const email = { type: 'string', minLength: 3, maxLength: 254, pattern: '^[^@\\s]+@[^@\\s]+$' };
@@ -20,6 +21,9 @@ export const NEW_USER_BODY = strict(
 );
 
 export const USER_CHANGES_BODY = { ...strict({ displayName: name(120), role: { enum: [...ROLES] } }, []), minProperties: 1 };
+
+/** PATCH /api/auth/me: the signed-in person's own preferences. */
+export const PREFERENCES_BODY = strict({ notify: { type: 'boolean' } }, ['notify']);
 
 export const NEW_PROJECT_BODY = strict({ name: name(160), description: { type: 'string', maxLength: 4000 } }, ['name']);
 
@@ -55,6 +59,15 @@ export const DIFF_QUERY = strict({ from: { type: 'integer', minimum: 1 }, to: { 
 
 export const EVALUATION_BODY = strict({ design: DESIGN_SCHEMA }, ['design']);
 
+/** POST /api/proposals/:id/verification/monte-carlo. */
+export const MONTE_CARLO_BODY = strict(
+  {
+    topology: { enum: [...TOPOLOGIES] },
+    runs: { type: 'integer', minimum: MONTE_CARLO_RUNS.min, maximum: MONTE_CARLO_RUNS.max, default: MONTE_CARLO_RUNS.default },
+  },
+  ['topology'],
+);
+
 export const NETLIST_QUERY = strict(
   {
     topology: { enum: [...TOPOLOGIES] },
@@ -63,3 +76,9 @@ export const NETLIST_QUERY = strict(
   },
   [],
 );
+
+/** POST /api/projects/:id/specs/import: `?dryRun=true` reports each row and saves nothing. */
+export const IMPORT_QUERY = strict({ dryRun: { enum: ['true', 'false'], default: 'false' } }, []);
+
+/** GET /api/projects/:id/proposals.csv?ids=12,13,14: the ids' form is checked by the route (a lone id arrives as a number). */
+export const BATCH_CSV_QUERY = strict({ ids: {} }, ['ids']);

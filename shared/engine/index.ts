@@ -8,4 +8,5 @@ export { InputError } from './errors';
 export { ConvergenceError } from './operating-point';
 export { ENGINE_VERSION, ESTIMATE_NOTICE } from './version';
 export { thermalVoltageV } from './constants';
+export { ENGINE_SOURCES, engineSource, type EngineSource } from './sources';
 export * from './types';

@@ -177,7 +177,8 @@ export function worstCaseMismatchCmrrDb(s: MismatchSensitivity, resistorToleranc
   return 20 * Math.log10(ad / adcm);
 }
 
-function percentile(sorted: Float64Array, p: number): number {
+/** The p-th percentile of ascending values (nearest rank). */
+export function percentile(sorted: ArrayLike<number>, p: number): number {
   const i = Math.min(sorted.length - 1, Math.max(0, Math.round((p / 100) * (sorted.length - 1))));
   return sorted[i];
 }
@@ -197,6 +198,27 @@ export function monteCarloDraws(samples: number, seed: number): MonteCarloDraws 
   return { samples, seed, normals };
 }
 
+/** One Monte Carlo sample's parts: each load resistor's scale (1 = nominal), their ratio mismatch ε and the pair's IS mismatch δ. */
+export interface MonteCarloSample {
+  load1Scale: number;
+  load2Scale: number;
+  /** ε = R2/R1 − 1. */
+  loadMismatch: number;
+  /** δ = exp(ΔVBE/VT) − 1. */
+  isMismatch: number;
+}
+
+/**
+ * Sample `i` of `draws`: loads Gaussian with 3σ = tolerance, ΔVBE Gaussian with σ = `vbeSigmaV`.
+ * The closed-form Monte Carlo and the SPICE one read the same samples from here.
+ */
+export function monteCarloSample(draws: MonteCarloDraws, i: number, resistorTolerance: number, vbeSigmaV: number, thermalVoltageV: number): MonteCarloSample {
+  const resistorSigma = resistorTolerance / SIGMAS_PER_TOLERANCE;
+  const load1Scale = 1 + resistorSigma * draws.normals[3 * i];
+  const load2Scale = 1 + resistorSigma * draws.normals[3 * i + 1];
+  return { load1Scale, load2Scale, loadMismatch: load2Scale / load1Scale - 1, isMismatch: Math.exp((vbeSigmaV * draws.normals[3 * i + 2]) / thermalVoltageV) - 1 };
+}
+
 /**
  * Seeded Monte Carlo of the differential CMRR: each load resistor Gaussian with 3σ = tolerance,
  * the pair's ΔVBE Gaussian with the spec's σ; yield = share of samples at or above `requiredDb`.
@@ -208,15 +230,12 @@ export function monteCarloCmrr(
   vbeSigmaV: number,
   requiredDb: number,
 ): MonteCarloResult {
-  const { samples, normals } = draws;
-  const resistorSigma = resistorTolerance / SIGMAS_PER_TOLERANCE;
+  const { samples } = draws;
   const values = new Float64Array(samples);
   let passing = 0;
   for (let i = 0; i < samples; i += 1) {
-    const r1 = 1 + resistorSigma * normals[3 * i];
-    const r2 = 1 + resistorSigma * normals[3 * i + 1];
-    const isMismatch = Math.exp((vbeSigmaV * normals[3 * i + 2]) / s.thermalVoltageV) - 1;
-    const db = mismatchCmrrDb(s, r2 / r1 - 1, isMismatch);
+    const draw = monteCarloSample(draws, i, resistorTolerance, vbeSigmaV, s.thermalVoltageV);
+    const db = mismatchCmrrDb(s, draw.loadMismatch, draw.isMismatch);
     values[i] = Number.isFinite(db) ? db : Number.MAX_VALUE;
     if (db >= requiredDb) passing += 1;
   }

@@ -132,6 +132,8 @@ export type SelectionPolicy = 'simplest-sufficient' | 'highest-rejection';
 export interface Spec {
   title: string;
   device: DeviceParams & { vceSatV: number; vbeMismatchSigmaV: number };
+  /** The device-library card `device` was filled from (shared/devices/model-card.ts); a record only, the engine reads `device`. */
+  deviceModel?: { name: string; checksum: string };
   supply: Supply;
   gain: { target: number; tolerancePercent: number; output: OutputKind };
   cmrr: { minDb: number; atFrequencyHz: number; marginDb: number; minYieldPercent: number };

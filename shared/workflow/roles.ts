@@ -22,7 +22,9 @@ export type Action =
   | 'proposals:create'
   | 'proposals:decide'
   | 'proposals:review'
-  | 'proposals:verify';
+  | 'proposals:verify'
+  | 'devices:write'
+  | 'mail:read';
 
 /** Which roles may take each action (anything not listed is refused). */
 export const PERMISSIONS: Record<Action, readonly Role[]> = {
@@ -36,6 +38,10 @@ export const PERMISSIONS: Record<Action, readonly Role[]> = {
   'proposals:review': ['reviewer'],
   /** Ask for a SPICE verification or Monte Carlo run (reading results needs only project access). */
   'proposals:verify': ['designer', 'reviewer'],
+  /** Upload SPICE .model cards to a project's device library (reading it needs only project access). */
+  'devices:write': ['requirements', 'designer'],
+  /** Read the messages the built-in local mail server received (the demo mailbox). */
+  'mail:read': ['admin'],
 };
 
 /** Whether a role may take an action. */

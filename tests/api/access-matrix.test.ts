@@ -7,6 +7,7 @@
  * access decision; the two "state" rows show the role check still comes before the 409.
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { DeviceModelEntity } from '../../api/entities/device-model.entity';
 import { addMember } from '../../api/services/projects.service';
 import { decide, review } from '../../api/services/proposals.service';
 import { updateSpec } from '../../api/services/specs.service';
@@ -55,6 +56,8 @@ interface Row {
   /** Expected status for anonymous, admin, requirements, designer, reviewer. */
   expected: [number, number, number, number, number];
   body?: (ids: Ids, caller: Caller) => object;
+  /** A file sent as multipart/form-data in the field `file` instead of a JSON body. */
+  file?: { name: string; content: string };
   /** Runs before the cell (idempotent). */
   arrange?: (api: TestApi, ids: Ids) => Promise<void>;
   /** The cell gets a session of its own (sign-in and sign-out change the session). */
@@ -63,6 +66,13 @@ interface Row {
 }
 
 const newSpec = () => ({ title: 'Quillon sensor head — matrix spec', payload: specPayload() });
+/** One invented spec as an import file (the same each time, so a repeated import changes nothing). */
+const IMPORT_FILE = { name: 'matrix.csv', content: 'title,supply.positiveV,supply.negativeV,gain.target,cmrr.minDb\r\nQuillon sensor head — imported,9,-9,14,70\r\n' };
+/** One invented .model card; each cell first removes it, so every allowed upload is a first one. */
+const DEVICE_FILE = { name: 'matrix.lib', content: '.model FH-MATRIX NPN (IS=6f BF=140 VAF=70)\n' };
+const removeMatrixDevice = async (api: TestApi) => {
+  await api.dataSource.getRepository(DeviceModelEntity).delete({ nameKey: 'fh-matrix' });
+};
 const ensureReviewer2Member = (key: 'project' | 'otherProject') => async (api: TestApi, ids: Ids) => {
   await addMember(api.dataSource, api.users.admin, ids[key], ids.reviewer2);
 };
@@ -72,6 +82,7 @@ const MATRIX: Row[] = [
   { route: 'GET /api/health', url: '/api/health', rule: 'public', expected: [200, 200, 200, 200, 200] },
   { route: 'GET /api/schema/spec', url: '/api/schema/spec', rule: 'public', expected: [200, 200, 200, 200, 200] },
   { route: 'GET /api/schema/design', url: '/api/schema/design', rule: 'public', expected: [200, 200, 200, 200, 200] },
+  { route: 'GET /api/schema/spec.csv', url: '/api/schema/spec.csv', rule: 'public', expected: [200, 200, 200, 200, 200] },
   { route: 'GET /api/topologies', url: '/api/topologies', rule: 'public', expected: [200, 200, 200, 200, 200] },
   { route: 'GET /api/auth/csrf', url: '/api/auth/csrf', rule: 'public', expected: [200, 200, 200, 200, 200] },
   {
@@ -84,6 +95,7 @@ const MATRIX: Row[] = [
   },
   { route: 'POST /api/auth/logout', url: '/api/auth/logout', rule: 'public', fresh: true, expected: [204, 204, 204, 204, 204], note: 'signing out without a session is harmless' },
   { route: 'GET /api/auth/me', url: '/api/auth/me', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'PATCH /api/auth/me', url: '/api/auth/me', rule: 'signed-in', body: () => ({ notify: true }), expected: [401, 200, 200, 200, 200], note: 'own e-mail preference' },
 
   // Accounts: the admin only.
   { route: 'GET /api/users', url: '/api/users', rule: 'users:manage', expected: [401, 200, 403, 403, 403] },
@@ -95,6 +107,9 @@ const MATRIX: Row[] = [
     expected: [401, 201, 403, 403, 403],
   },
   { route: 'PATCH /api/users/:id', url: '/api/users/{reviewer2}', rule: 'users:manage', body: () => ({ displayName: 'Second reviewer (renamed)' }), expected: [401, 200, 403, 403, 403] },
+
+  // Administration: the local mail server's messages.
+  { route: 'GET /api/admin/mail', url: '/api/admin/mail', rule: 'mail:read', expected: [401, 200, 403, 403, 403] },
 
   // Projects.
   { route: 'GET /api/projects', url: '/api/projects', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
@@ -113,6 +128,14 @@ const MATRIX: Row[] = [
   { route: 'POST /api/projects/:id/specs', url: '/api/projects/{otherProject}/specs', rule: 'specs:write', body: newSpec, expected: [401, 403, 404, 403, 403] },
   { route: 'GET /api/projects/:id/proposals', url: '/api/projects/{project}/proposals', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/projects/:id/proposals', url: '/api/projects/{otherProject}/proposals', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/projects/:projectId/devices', url: '/api/projects/{project}/devices', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:projectId/devices', url: '/api/projects/{otherProject}/devices', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'POST /api/projects/:projectId/devices', url: '/api/projects/{project}/devices', rule: 'devices:write', file: DEVICE_FILE, arrange: removeMatrixDevice, expected: [401, 403, 201, 201, 403] },
+  { route: 'POST /api/projects/:projectId/devices', url: '/api/projects/{otherProject}/devices', rule: 'devices:write', file: DEVICE_FILE, arrange: removeMatrixDevice, expected: [401, 403, 404, 404, 403] },
+  { route: 'POST /api/projects/:id/specs/import', url: '/api/projects/{project}/specs/import', rule: 'specs:write', file: IMPORT_FILE, expected: [401, 403, 200, 403, 403] },
+  { route: 'POST /api/projects/:id/specs/import', url: '/api/projects/{otherProject}/specs/import', rule: 'specs:write', file: IMPORT_FILE, expected: [401, 403, 404, 403, 403] },
+  { route: 'GET /api/projects/:id/proposals.csv', url: '/api/projects/{project}/proposals.csv?ids={ranked}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:id/proposals.csv', url: '/api/projects/{otherProject}/proposals.csv?ids={otherProposal}', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
 
   // Specs.
   { route: 'GET /api/specs/:id', url: '/api/specs/{spec}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
@@ -158,6 +181,24 @@ const MATRIX: Row[] = [
   { route: 'GET /api/proposals/:id/netlist.cir', url: '/api/proposals/{otherProposal}/netlist.cir', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
   { route: 'GET /api/proposals/:id/export.json', url: '/api/proposals/{ranked}/export.json', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/proposals/:id/export.json', url: '/api/proposals/{otherProposal}/export.json', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/proposals/:id/verification', url: '/api/proposals/{ranked}/verification', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/proposals/:id/verification', url: '/api/proposals/{otherProposal}/verification', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'POST /api/proposals/:id/verification', url: '/api/proposals/{ranked}/verification', rule: 'proposals:verify', expected: [401, 403, 403, 202, 202] },
+  { route: 'POST /api/proposals/:id/verification', url: '/api/proposals/{otherProposal}/verification', rule: 'proposals:verify', expected: [401, 403, 403, 404, 404] },
+  {
+    route: 'POST /api/proposals/:id/verification/monte-carlo',
+    url: '/api/proposals/{ranked}/verification/monte-carlo',
+    rule: 'proposals:verify',
+    body: () => ({ topology: 'wilson', runs: 10 }),
+    expected: [401, 403, 403, 202, 202],
+  },
+  {
+    route: 'POST /api/proposals/:id/verification/monte-carlo',
+    url: '/api/proposals/{otherProposal}/verification/monte-carlo',
+    rule: 'proposals:verify',
+    body: () => ({ topology: 'wilson', runs: 10 }),
+    expected: [401, 403, 403, 404, 404],
+  },
   { route: 'GET /api/proposals/:id/audit', url: '/api/proposals/{otherProposal}/audit', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
 
   // Stateless what-if.
@@ -267,7 +308,11 @@ describe('when each caller calls each route, then the answer is the one the perm
 
     // Act
     const pending = client[method](fill(row.url));
-    const response = row.body ? await pending.send(row.body(ids, caller)) : await pending;
+    const response = row.file
+      ? await pending.attach('file', Buffer.from(row.file.content, 'utf8'), row.file.name)
+      : row.body
+        ? await pending.send(row.body(ids, caller))
+        : await pending;
 
     // Assert
     expect(response.status, JSON.stringify(response.body)).toBe(status);

@@ -15,6 +15,7 @@ import { createUser, type PublicUser } from '../../api/services/users.service';
 import type { RuleSet } from '../../shared/engine/types';
 import type { Role } from '../../shared/workflow/roles';
 import { loadRuleSet } from '../../rules/index';
+import { VerificationQueue, type VerificationQueueOptions } from '../../api/verification/verification-queue';
 
 /** The seeded accounts: one per role, and a second designer and reviewer for the four-eyes rules. */
 export const ACCOUNT_KEYS = ['admin', 'requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'] as const;
@@ -108,13 +109,19 @@ export interface BuildOptions {
   log?: (message: string) => void;
   /** The accounts to seed (default all six; each costs one scrypt hash). */
   accounts?: readonly AccountKey[];
+  /** Options for the app's verification queue (netlist hooks, engine with another time limit). */
+  verification?: VerificationQueueOptions;
+  /** A database file instead of memory (restart tests open it twice). */
+  databasePath?: string;
 }
 
 /** Builds the app on a new in-memory database and seeds the accounts. */
 export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> {
-  const dataSource = await openDatabase(':memory:');
+  const dataSource = await openDatabase(options.databasePath ?? ':memory:');
   const ruleSet = await loadRuleSet();
-  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log: options.log ?? (() => {}) });
+  const log = options.log ?? (() => {});
+  const verification = new VerificationQueue(dataSource, { log, ...options.verification });
+  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log, verification });
   const entries = await Promise.all(
     (options.accounts ?? ACCOUNT_KEYS).map(async (key) => {
       const user = await createUser(dataSource, null, { email: emailOf(key), displayName: `Test ${key}`, role: ACCOUNT_ROLES[key], password: TEST_PASSWORD });
@@ -147,6 +154,7 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
     },
     async close() {
       app.closeApp();
+      await app.verification.close();
       await dataSource.destroy();
     },
   };

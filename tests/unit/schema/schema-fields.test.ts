@@ -95,7 +95,7 @@ describe('spec schema against the Spec type', () => {
     expect(SPEC_SCHEMA.required).toEqual(['title', 'supply', 'gain', 'cmrr']);
   });
 
-  test('every field has a default except what the user must state and the two optional overrides', () => {
+  test('every field has a default except what the user must state, the two optional overrides and the library record', () => {
     const withoutDefault = properties(SPEC_SCHEMA as Node)
       .filter(([, node]) => node.default === undefined)
       .map(([pointer]) => pointer);
@@ -111,6 +111,9 @@ describe('spec schema against the Spec type', () => {
         '/cmrr/minDb',
         '/device/saturationCurrentA', // absent means "derive IS from vbeOnV"
         '/tailCurrentA', // absent means "let the sizing choose"
+        '/deviceModel', // absent means "the device values were typed in"
+        '/deviceModel/name',
+        '/deviceModel/checksum',
       ].sort(),
     );
   });

@@ -17,6 +17,7 @@ export const FULL_SPEC: Spec = {
     vceSatV: 0.25,
     vbeMismatchSigmaV: 0.0005,
   },
+  deviceModel: { name: 'QX-150', checksum: 'a'.repeat(64) },
   supply: { positiveV: 15, negativeV: -15 },
   gain: { target: 50, tolerancePercent: 5, output: 'single-ended' },
   cmrr: { minDb: 90, atFrequencyHz: 50, marginDb: 3, minYieldPercent: 95 },

@@ -4,11 +4,16 @@ export const paths = {
   workbench: { path: '/', href: () => '/' },
   project: { path: '/projects/:projectId', href: (projectId: number) => `/projects/${projectId}` },
   newSpec: { path: '/projects/:projectId/specs/new', href: (projectId: number) => `/projects/${projectId}/specs/new` },
+  specImport: { path: '/projects/:projectId/specs/import', href: (projectId: number) => `/projects/${projectId}/specs/import` },
   spec: { path: '/specs/:specId', href: (specId: number) => `/specs/${specId}` },
   specHistory: { path: '/specs/:specId/history', href: (specId: number) => `/specs/${specId}/history` },
   proposal: { path: '/proposals/:proposalId', href: (proposalId: number) => `/proposals/${proposalId}` },
   report: { path: '/proposals/:proposalId/report', href: (proposalId: number) => `/proposals/${proposalId}/report` },
   people: { path: '/people', href: () => '/people' },
+  /** Your own account and e-mail preference (linked from e-mails, so keep it stable). */
+  profile: { path: '/profile', href: () => '/profile' },
+  /** The local mail server's messages (admins). */
+  mail: { path: '/admin/mail', href: () => '/admin/mail' },
 } as const;
 
 /** API endpoints, once. */
@@ -16,7 +21,10 @@ export const api = {
   csrf: '/api/auth/csrf',
   login: '/api/auth/login',
   logout: '/api/auth/logout',
+  /** GET: the signed-in user; PATCH { notify }: their own e-mail preference. */
   me: '/api/auth/me',
+  /** Messages the built-in local mail server received, newest first (admins). */
+  adminMail: '/api/admin/mail',
   users: '/api/users',
   user: (id: number) => `/api/users/${id}`,
   projects: '/api/projects',
@@ -25,6 +33,12 @@ export const api = {
   member: (projectId: number, userId: number) => `/api/projects/${projectId}/members/${userId}`,
   projectSpecs: (projectId: number) => `/api/projects/${projectId}/specs`,
   projectProposals: (projectId: number, query: string) => `/api/projects/${projectId}/proposals${query}`,
+  /** POST multipart (field `file`): many specs from one CSV or JSON file; `dryRun` reports without saving. */
+  specImport: (projectId: number, dryRun: boolean) => `/api/projects/${projectId}/specs/import${dryRun ? '?dryRun=true' : ''}`,
+  /** The results of a batch's proposals as one CSV. */
+  batchResultsCsv: (projectId: number, proposalIds: readonly number[]) => `/api/projects/${projectId}/proposals.csv?ids=${proposalIds.join(',')}`,
+  /** GET: the project's device library; POST (multipart, field `file`): upload .model cards. */
+  projectDevices: (projectId: number) => `/api/projects/${projectId}/devices`,
   spec: (id: number) => `/api/specs/${id}`,
   specVersions: (id: number) => `/api/specs/${id}/versions`,
   specDiff: (id: number, from: number, to: number) => `/api/specs/${id}/diff?from=${from}&to=${to}`,
@@ -45,5 +59,7 @@ export const api = {
   monteCarlo: (id: number) => `/api/proposals/${id}/verification/monte-carlo`,
   analyze: '/api/analyze',
   specSchema: '/api/schema/spec',
+  /** The spec CSV template: every column, and one example row. */
+  specCsvTemplate: '/api/schema/spec.csv',
   topologies: '/api/topologies',
 } as const;

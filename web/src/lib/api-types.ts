@@ -10,7 +10,28 @@ export interface User {
   email: string;
   displayName: string;
   role: Role;
+  /** E-mail notifications on (the server always answers it; absent counts as on). */
+  notify?: boolean;
   createdAt: string;
+}
+
+/** One message the built-in local mail server received (GET /api/admin/mail). */
+export interface ReceivedMail {
+  id: number;
+  at: string;
+  from: string | null;
+  to: string[];
+  subject: string;
+  text: string;
+  outboxId: number | null;
+}
+
+export interface Mailbox {
+  items: ReceivedMail[];
+  /** Messages stored in all (the list holds the newest 200). */
+  total: number;
+  /** Rows of the outbox by state: waiting to be sent, sent, given up. */
+  outbox: { pending: number; sent: number; failed: number };
 }
 
 export interface Project {

@@ -8,6 +8,8 @@ import { api } from '../config/paths';
 export interface ErrorDetail {
   path: string;
   message: string;
+  /** Line of an uploaded file the problem is on (device library uploads). */
+  line?: number;
 }
 
 export class ApiError extends Error {
@@ -39,11 +41,13 @@ function fetchCsrfToken(): Promise<string> {
 
 async function send<T>(method: string, url: string, body?: unknown, retried = false): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' };
-  if (body !== undefined) headers['Content-Type'] = 'application/json';
+  // A FormData body is sent as is: the browser writes its multipart Content-Type with the boundary.
+  const form = typeof FormData !== 'undefined' && body instanceof FormData;
+  if (body !== undefined && !form) headers['Content-Type'] = 'application/json';
   if (method !== 'GET') headers['X-CSRF-Token'] = await fetchCsrfToken();
   let response: Response;
   try {
-    response = await fetch(url, { method, headers, credentials: 'same-origin', body: body === undefined ? undefined : JSON.stringify(body) });
+    response = await fetch(url, { method, headers, credentials: 'same-origin', body: body === undefined ? undefined : form ? (body as FormData) : JSON.stringify(body) });
   } catch {
     throw new ApiError(0, 'network', 'The server cannot be reached. Check that Longtail is running, then try again.');
   }
@@ -65,6 +69,8 @@ export const apiClient = {
   put: <T>(url: string, body: unknown) => send<T>('PUT', url, body),
   patch: <T>(url: string, body: unknown) => send<T>('PATCH', url, body),
   delete: <T>(url: string) => send<T>('DELETE', url),
+  /** POST multipart/form-data (a file upload), with the CSRF token like every other write. */
+  upload: <T>(url: string, form: FormData) => send<T>('POST', url, form),
   /** After sign-in or sign-out the session changes: fetch a fresh token next time. */
   resetCsrf: () => {
     csrfToken = null;

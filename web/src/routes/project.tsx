@@ -6,6 +6,7 @@ import { RouteError } from '../app/route-error';
 import { PageHeader } from '../components/ui/page-header';
 import { Sheet } from '../components/ui/sheet';
 import { meQuery } from '../features/auth/api/auth-queries';
+import { DeviceLibrary } from '../features/devices/components/device-library';
 import { userListQuery } from '../features/people/api/user-queries';
 import { projectProposalsQuery, projectQuery, projectSpecsQuery } from '../features/projects/api/project-queries';
 import { NeedsYou } from '../features/projects/components/needs-you';
@@ -61,6 +62,7 @@ export function Component() {
           <ProjectMembers projectId={projectId} manage={canManage ? { allUsers: allUsers.data?.items, allUsersError: allUsers.error } : undefined} />
         </Sheet>
       </div>
+      <DeviceLibrary projectId={projectId} canUpload={may(user.role, 'devices:write')} />
       <ProposalsSection projectId={projectId} specs={specs.items} />
     </>
   );

@@ -10,6 +10,7 @@ import { AuditTimeline } from '../features/proposals/components/audit-timeline';
 import { DecisionPanel } from '../features/proposals/components/decision-panel';
 import { RankingView } from '../features/proposals/components/ranking-view';
 import { ReviewPanel } from '../features/proposals/components/review-panel';
+import { VerificationPanel } from '../features/proposals/components/verification-panel';
 import { NextStep } from '../features/proposals/components/next-step';
 import { RouteError } from '../app/route-error';
 
@@ -34,13 +35,23 @@ export function Component() {
           </Link>
         }
         title={`Ranking #${proposal.id}`}
-        actions={<StateBadge state={proposal.status} />}
+        actions={
+          <>
+            <StateBadge state={proposal.status} />
+            <Link to={paths.report.href(proposal.id)} className="rounded-md border border-rule px-2.5 py-1 text-sm hover:bg-paper dark:border-night-rule dark:hover:bg-night">
+              Review report
+            </Link>
+          </>
+        }
       >
         Engine {proposal.engineVersion} · rule set {proposal.rulesetVersion.slice(0, 12)} · {new Date(proposal.createdAt).toLocaleString()}
       </PageHeader>
       <NextStep proposal={proposal} user={user} />
       <div className="space-y-6">
         <RankingView proposal={proposal} />
+        <div id="verification" className="scroll-mt-4">
+          <VerificationPanel proposal={proposal} user={user} />
+        </div>
         <div id="decision" className="scroll-mt-4">
           <DecisionPanel proposal={proposal} user={user} />
         </div>

@@ -61,7 +61,7 @@ export function Component() {
       <PageHeader eyebrow={eyebrow} title="New spec">
         Starts from the defaults with an example for the required figures. Type quantities as you would write them: 4k7, 10u, 2 pF, −12 V.
       </PageHeader>
-      <SpecForm initial={initial} onSave={onSave} saveLabel="Create spec" savingLabel="Creating…" />
+      <SpecForm initial={initial} onSave={onSave} saveLabel="Create spec" savingLabel="Creating…" projectId={projectId} />
     </>
   );
 }

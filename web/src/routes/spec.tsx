@@ -69,7 +69,15 @@ export function Component() {
         Version {spec.latestVersion} · saved <When at={spec.latest.createdAt} /> by {author}
         {!canWrite && ' · read-only: specs are edited by systems engineers'}
       </PageHeader>
-      <SpecForm key={specId} initial={spec.latest.payload as unknown as SpecDraft} onSave={canWrite ? onSave : undefined} saveLabel="Save as new version" note={note} onDirtyChange={setDirty} />
+      <SpecForm
+        key={specId}
+        initial={spec.latest.payload as unknown as SpecDraft}
+        onSave={canWrite ? onSave : undefined}
+        saveLabel="Save as new version"
+        note={note}
+        onDirtyChange={setDirty}
+        projectId={canWrite ? spec.projectId : undefined}
+      />
     </>
   );
 }

@@ -36,7 +36,7 @@ export function AppShell() {
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:rounded focus:bg-sheet focus:px-3 focus:py-2">
         Skip to content
       </a>
-      <header className="border-b border-rule bg-sheet/80 backdrop-blur dark:border-night-rule dark:bg-night-sheet/80">
+      <header data-app-frame className="border-b border-rule bg-sheet/80 backdrop-blur dark:border-night-rule dark:bg-night-sheet/80">
         <div className="mx-auto flex max-w-7xl items-center gap-6 px-4 py-2.5">
           <NavLink to={paths.workbench.href()} className="flex items-center gap-2 text-lg font-medium tracking-tight text-fern dark:text-fern-soft">
             <img src="/longtail.svg" alt="" className="h-6 w-6" />
@@ -51,15 +51,22 @@ export function AppShell() {
                 People
               </NavLink>
             )}
+            {may(user.role, 'mail:read') && (
+              <NavLink to={paths.mail.href()} className={navClass}>
+                Mail
+              </NavLink>
+            )}
           </nav>
           <div className="ml-auto flex items-center gap-3 text-sm">
             <button type="button" onClick={cycleTheme} className="rounded-md px-2 py-1 text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink">
               {THEME_WORDS[theme]}
             </button>
-            <span className="hidden text-right leading-tight sm:block">
-              <span className="block">{user.displayName}</span>
-              <span className="block text-xs text-ink-soft dark:text-night-ink-soft">{ROLE_TITLES[user.role]}</span>
-            </span>
+            <NavLink to={paths.profile.href()} title="Your profile and e-mail setting" className="text-right leading-tight hover:underline">
+              <span className="sr-only">Your profile: </span>
+              <span className="hidden sm:block">{user.displayName}</span>
+              <span className="hidden text-xs text-ink-soft sm:block dark:text-night-ink-soft">{ROLE_TITLES[user.role]}</span>
+              <span className="sm:hidden">Profile</span>
+            </NavLink>
             <button type="button" onClick={onSignOut} className="rounded-md border border-rule px-2.5 py-1 hover:bg-paper dark:border-night-rule dark:hover:bg-night">
               Sign out
             </button>
@@ -69,7 +76,7 @@ export function AppShell() {
       <main id="main" className="mx-auto max-w-7xl px-4 py-6">
         <Outlet />
       </main>
-      <footer className="mx-auto max-w-7xl px-4 pb-8 text-xs text-ink-soft dark:text-night-ink-soft">
+      <footer data-app-frame className="mx-auto max-w-7xl px-4 pb-8 text-xs text-ink-soft dark:text-night-ink-soft">
         Figures are engineering estimates; confirm them by SPICE simulation and bench measurement before committing a design.
       </footer>
     </div>

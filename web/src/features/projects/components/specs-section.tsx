@@ -15,12 +15,20 @@ export function SpecsSection({ projectId, specs, canWrite }: { projectId: number
       aria-label="Specs"
       actions={
         canWrite && (
-          <Link
-            to={paths.newSpec.href(projectId)}
-            className="rounded-md bg-fern px-3 py-1.5 text-sm font-medium text-sheet hover:bg-fern/90"
-          >
-            New spec
-          </Link>
+          <>
+            <Link
+              to={paths.specImport.href(projectId)}
+              className="rounded-md border border-rule px-3 py-1.5 text-sm font-medium hover:bg-paper dark:border-night-rule dark:hover:bg-night"
+            >
+              Import specs
+            </Link>
+            <Link
+              to={paths.newSpec.href(projectId)}
+              className="rounded-md bg-fern px-3 py-1.5 text-sm font-medium text-sheet hover:bg-fern/90"
+            >
+              New spec
+            </Link>
+          </>
         )
       }
     >

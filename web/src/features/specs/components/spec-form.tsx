@@ -5,7 +5,7 @@
  * everything typed. Without `onSave` it shows the spec read-only.
  */
 import Form, { type IChangeEvent } from '@rjsf/core';
-import type { ErrorSchema, RJSFSchema, RJSFValidationError, UiSchema, ValidatorType } from '@rjsf/utils';
+import type { ErrorSchema, RegistryFieldsType, RJSFSchema, RJSFValidationError, UiSchema, ValidatorType } from '@rjsf/utils';
 import { getDefaultFormState } from '@rjsf/utils';
 import { useQuery } from '@tanstack/react-query';
 import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
@@ -13,7 +13,9 @@ import type { FormContext } from '../../../components/forms/form-context';
 import { FORM_TEMPLATES, FORM_WIDGETS } from '../../../components/forms/form-theme';
 import { ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { ApiError } from '../../../lib/api';
+import { projectDevicesQuery } from '../../devices/api/device-queries';
 import { specSchemaQuery } from '../api/spec-queries';
+import { withDeviceChoice, type DeviceChoiceContext, type DeviceLibraryState } from '../lib/device-choice';
 import { errorCount, withoutEditedFieldErrors } from '../lib/edited-errors';
 import type { SchemaNode } from '../lib/schema-nodes';
 import { serverErrorsToErrorSchema } from '../lib/server-errors';
@@ -21,6 +23,7 @@ import { specChecks, withoutUnreadableFieldErrors } from '../lib/spec-checks';
 import { SPEC_UI_SCHEMA, withQuantityWidgets } from '../lib/spec-ui-schema';
 import { specValidator } from '../lib/spec-validator';
 import { stableJson } from '../lib/stable-json';
+import { DeviceModelField } from './device-model-field';
 
 export type SpecDraft = Record<string, unknown>;
 
@@ -35,10 +38,20 @@ export interface SpecFormProps {
   note?: ReactNode;
   /** Told whenever the form starts or stops differing from `initial`. */
   onDirtyChange?: (dirty: boolean) => void;
+  /** The project whose device library the Device card offers to fill the transistor model from (absent: no picker). */
+  projectId?: number;
 }
+
+/** Fields of our own: the device-library picker (`deviceModel`). */
+const SPEC_FIELDS: RegistryFieldsType = { deviceModel: DeviceModelField };
 
 export function SpecForm(props: SpecFormProps) {
   const schemaQuery = useQuery(specSchemaQuery());
+  const devices = useQuery({ ...projectDevicesQuery(props.projectId ?? 0), enabled: props.projectId !== undefined });
+  const deviceLibrary = useMemo<DeviceLibraryState | undefined>(
+    () => (props.projectId === undefined ? undefined : { items: devices.data?.items, loading: devices.isPending, error: devices.error }),
+    [props.projectId, devices.data, devices.isPending, devices.error],
+  );
   const validator = useMemo(() => {
     if (!schemaQuery.data) return undefined;
     try {
@@ -50,12 +63,22 @@ export function SpecForm(props: SpecFormProps) {
   if (schemaQuery.isPending) return <Loading what="Loading the spec form" />;
   if (schemaQuery.isError) return <ErrorPanel error={schemaQuery.error} retry={() => void schemaQuery.refetch()} />;
   if (!validator || validator instanceof Error) return <ErrorPanel error={validator} />;
-  return <SpecFormBody {...props} schema={schemaQuery.data} validator={validator} />;
+  return <SpecFormBody {...props} schema={schemaQuery.data} validator={validator} deviceLibrary={deviceLibrary} />;
 }
 
 const withDefaults = (validator: ValidatorType, schema: RJSFSchema, data: SpecDraft) => stableJson(getDefaultFormState(validator, schema, data));
 
-function SpecFormBody({ schema, validator, initial, onSave, saveLabel = 'Save', savingLabel = 'Saving…', note, onDirtyChange }: SpecFormProps & { schema: RJSFSchema; validator: ValidatorType }) {
+function SpecFormBody({
+  schema,
+  validator,
+  initial,
+  onSave,
+  saveLabel = 'Save',
+  savingLabel = 'Saving…',
+  note,
+  onDirtyChange,
+  deviceLibrary,
+}: SpecFormProps & { schema: RJSFSchema; validator: ValidatorType; deviceLibrary: DeviceLibraryState | undefined }) {
   const [formData, setFormData] = useState<SpecDraft>(initial);
   const [serverErrors, setServerErrors] = useState<ErrorSchema>({});
   // What went wrong with the last save: the browser's checks, the server's field errors, or anything else
@@ -105,10 +128,11 @@ function SpecFormBody({ schema, validator, initial, onSave, saveLabel = 'Save', 
   ) : (
     note
   );
-  const formContext = useMemo<FormContext>(() => ({ reportUnreadable, submitNote }), [reportUnreadable, submitNote]);
+  const formContext = useMemo<FormContext & DeviceChoiceContext>(() => ({ reportUnreadable, submitNote, deviceLibrary }), [reportUnreadable, submitNote, deviceLibrary]);
 
   const onChange = (event: IChangeEvent<SpecDraft>) => {
-    const next = event.formData ?? {};
+    // A card chosen from the device library fills the device; editing its values drops the choice
+    const next = withDeviceChoice(latest.current, event.formData ?? {}, deviceLibrary?.items);
     const remaining = withoutEditedFieldErrors(serverErrors, latest.current, next);
     setServerErrors(remaining);
     if (problem?.kind === 'client' || (problem?.kind === 'server' && errorCount(remaining) === 0)) setProblem(null);
@@ -153,6 +177,7 @@ function SpecFormBody({ schema, validator, initial, onSave, saveLabel = 'Save', 
         formContext={formContext}
         templates={FORM_TEMPLATES}
         widgets={FORM_WIDGETS}
+        fields={SPEC_FIELDS}
         extraErrors={serverErrors}
         customValidate={customValidate}
         transformErrors={transformErrors}

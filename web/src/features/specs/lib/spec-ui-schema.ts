@@ -17,7 +17,7 @@ export const SPEC_LAYOUT: FormLayout = {
     { title: 'Output & power', fields: ['outputSwingVpp', 'powerBudgetW', 'tailCurrentA'] },
     { title: 'Temperature', fields: ['temperatureC'] },
     { title: 'Options', fields: ['topologies', 'policy'] },
-    { title: 'Device', fields: ['device'], note: 'One NPN model for every transistor of the stage.' },
+    { title: 'Device', fields: ['deviceModel', 'device'], note: 'One NPN model for every transistor of the stage.' },
     { title: 'Resistors', fields: ['resistors'] },
     { title: 'Monte Carlo', fields: ['monteCarlo'], note: 'Yield of the differential CMRR under tolerance and mismatch.' },
     { title: 'Hazards', fields: ['hazards'], note: 'Conditions that add safety cautions to the report.' },
@@ -44,6 +44,7 @@ export const ENUM_WORDS: Record<string, Record<string, string>> = {
 export const SPEC_UI_SCHEMA: UiSchema = {
   'ui:options': { layout: SPEC_LAYOUT },
   title: { 'ui:placeholder': 'e.g. Bridge amplifier input stage', 'ui:options': { large: true, wide: true } },
+  deviceModel: { 'ui:field': 'deviceModel' },
   device: {
     family: { 'ui:widget': 'fixed', 'ui:options': { display: 'NPN bipolar' } },
     saturationCurrentA: { 'ui:placeholder': 'from VBE at 1 mA' },

@@ -16,7 +16,7 @@ import type { ChartTheme } from './chart-theme';
 import { diamond, horizontalMark, pointLabel, verticalMark } from './draw-marks';
 import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from './uplot-box';
 
-function axis(theme: ChartTheme, label: string, values: uPlot.Axis['values'], extra: Partial<uPlot.Axis> = {}): uPlot.Axis {
+export function axis(theme: ChartTheme, label: string, values: uPlot.Axis['values'], extra: Partial<uPlot.Axis> = {}): uPlot.Axis {
   return {
     label,
     values,
@@ -35,8 +35,8 @@ function decimalsFor(increment: number): number {
 }
 
 /** No drag-zoom (the figures are read, not explored) and no horizontal hair: the legend reads the values. */
-const NO_ZOOM: uPlot.Cursor = { drag: { x: false, y: false }, y: false };
-const valueAt = (values: (number | null)[], index: number | null, format: (v: number) => string) => {
+export const NO_ZOOM: uPlot.Cursor = { drag: { x: false, y: false }, y: false };
+export const valueAt = (values: (number | null)[], index: number | null, format: (v: number) => string) => {
   const v = index === null ? null : values[index];
   return v === null || v === undefined ? null : format(v);
 };

@@ -1,0 +1,44 @@
+import { EntitySchema } from 'typeorm';
+import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+
+/**
+ * One NPN `.model` card of a project's device library, as uploaded (shared/devices/model-card.ts
+ * reads it). Cards are never edited or replaced: a name is taken once per project.
+ */
+export interface DeviceModel {
+  id: number;
+  projectId: number;
+  /** The model name as written in the card. */
+  name: string;
+  /** The name lower-cased (SPICE names are case-insensitive): unique per project. */
+  nameKey: string;
+  /** Every parameter of the card as JSON text: upper-case name → number (SI units). */
+  parameters: string;
+  /** The card's own lines as written in the file. */
+  cardText: string;
+  /** Line of the `.model` keyword in the uploaded file. */
+  sourceLine: number;
+  /** The uploaded file's name (base name only) and the sha256 of its bytes, hex. */
+  fileName: string;
+  checksum: string;
+  uploadedById: number;
+  uploadedAt: string;
+}
+
+export const DeviceModelEntity = new EntitySchema<DeviceModel>({
+  name: 'DeviceModel',
+  tableName: 'device_model',
+  columns: {
+    id: idColumn,
+    projectId: foreignKeyColumn('project_id'),
+    name: shortTextColumn(64),
+    nameKey: { ...shortTextColumn(64), name: 'name_key' },
+    parameters: textColumn(),
+    cardText: { ...textColumn(), name: 'card_text' },
+    sourceLine: { type: 'integer', name: 'source_line' },
+    fileName: { ...shortTextColumn(255), name: 'file_name' },
+    checksum: shortTextColumn(64),
+    uploadedById: foreignKeyColumn('uploaded_by_id'),
+    uploadedAt: timestampColumn('uploaded_at'),
+  },
+});

@@ -1,0 +1,137 @@
+/**
+ * The text of every notification, in one place: plain text, our own words. Each message names
+ * the proposal, the spec title and version, the project, who did what and their reason or
+ * comment, links to the proposal, and ends with the estimates notice. Pure: no I/O.
+ */
+import { ESTIMATE_NOTICE } from '../../shared/engine/version';
+import type { DecisionKind } from '../entities/decision.entity';
+
+export type NotificationKind = 'proposal.ready' | 'proposal.decided' | 'proposal.approved' | 'proposal.returned';
+
+/** What every message says about the proposal. */
+export interface ProposalFacts {
+  proposalId: number;
+  projectName: string;
+  specTitle: string;
+  specVersion: number;
+  /** The proposal's page. */
+  link: string;
+  /** The profile page, where a person turns notifications off. */
+  profileLink: string;
+}
+
+export interface DecisionFacts {
+  kind: DecisionKind;
+  topology: string;
+  /** The engine's recommendation (null when no option passed). */
+  recommended: string | null;
+  reason: string | null;
+  /** For an override: whether the own design holds every blocking check. */
+  passes?: boolean;
+  decidedBy: string;
+}
+
+export type MessageFacts =
+  | (ProposalFacts & { kind: 'proposal.ready'; rankedBy: string; recommended: string | null })
+  | (ProposalFacts & { kind: 'proposal.decided'; decision: DecisionFacts; decisionNumber: number })
+  | (ProposalFacts & { kind: 'proposal.approved' | 'proposal.returned'; reviewedBy: string; comment: string | null; decision: DecisionFacts });
+
+export interface ComposedMessage {
+  subject: string;
+  text: string;
+}
+
+/** "degenerated-mirror" -> "degenerated mirror tail". */
+const tail = (topology: string) => `${topology.replaceAll('-', ' ')} tail`;
+
+/** One line saying what the designer settled on. */
+export function decisionSentence(decision: DecisionFacts): string {
+  switch (decision.kind) {
+    case 'accept':
+      return `accepted the recommended ${tail(decision.topology)}`;
+    case 'choose':
+      return decision.recommended
+        ? `chose the ${tail(decision.topology)} instead of the recommended ${tail(decision.recommended)}`
+        : `chose the ${tail(decision.topology)} (no option passed every blocking check)`;
+    case 'override': {
+      const check = decision.passes === undefined ? '' : decision.passes ? '; its full check holds every blocking check' : '; its full check falls short of a blocking check';
+      return `overrode the ranking with own values on a ${tail(decision.topology)}${check}`;
+    }
+  }
+}
+
+const specLine = (facts: ProposalFacts) => `Spec: "${facts.specTitle}", version ${facts.specVersion}`;
+const projectLine = (facts: ProposalFacts) => `Project: ${facts.projectName}`;
+const quoted = (label: string, text: string | null) => (text ? [`${label}:`, ...text.split(/\r?\n/).map((line) => `  ${line}`)] : []);
+
+/** Subject and text of one message to one person; `because` says why they get it. */
+export function composeMessage(facts: MessageFacts, recipientName: string, because: string): ComposedMessage {
+  const name = `proposal #${facts.proposalId}`;
+  const spec = `${facts.specTitle} (version ${facts.specVersion})`;
+  let subject: string;
+  let body: string[];
+  switch (facts.kind) {
+    case 'proposal.ready':
+      subject = `Proposal #${facts.proposalId} waits for a decision: ${spec}`;
+      body = [
+        `${facts.rankedBy} had the tail options ranked, and ${name} now waits for a designer's decision.`,
+        '',
+        projectLine(facts),
+        specLine(facts),
+        facts.recommended ? `Recommended: the ${tail(facts.recommended)}` : 'Recommended: nothing (no option passes every blocking check); choose an option with a reason, or override.',
+        '',
+        `Accept, choose or override: ${facts.link}`,
+      ];
+      break;
+    case 'proposal.decided':
+      subject = `Proposal #${facts.proposalId} decided, waiting for review: ${spec}`;
+      body = [
+        `${facts.decision.decidedBy} decided ${name}: ${decisionSentence(facts.decision)}.`,
+        ...(facts.decisionNumber > 1 ? [`This is decision ${facts.decisionNumber} on it, after it was returned.`] : []),
+        '',
+        projectLine(facts),
+        specLine(facts),
+        ...quoted('Reason', facts.decision.reason),
+        '',
+        `Approve it, or return it with a comment: ${facts.link}`,
+      ];
+      break;
+    case 'proposal.approved':
+      subject = `Proposal #${facts.proposalId} approved: ${spec}`;
+      body = [
+        `${facts.reviewedBy} approved ${name}.`,
+        `The approved decision: ${facts.decision.decidedBy} ${decisionSentence(facts.decision)}.`,
+        '',
+        projectLine(facts),
+        specLine(facts),
+        ...quoted('Review comment', facts.comment),
+        '',
+        `The approved design and its figures: ${facts.link}`,
+      ];
+      break;
+    case 'proposal.returned':
+      subject = `Proposal #${facts.proposalId} returned to the designer: ${spec}`;
+      body = [
+        `${facts.reviewedBy} returned ${name} to the designer; it waits for a new decision.`,
+        `The returned decision: ${facts.decision.decidedBy} ${decisionSentence(facts.decision)}.`,
+        '',
+        projectLine(facts),
+        specLine(facts),
+        ...quoted('Review comment', facts.comment),
+        '',
+        `The review and the proposal: ${facts.link}`,
+      ];
+      break;
+  }
+  const text = [
+    `Hello ${recipientName},`,
+    '',
+    ...body,
+    '',
+    `You get this e-mail because ${because}. Turn these e-mails off on your profile: ${facts.profileLink}`,
+    '',
+    ESTIMATE_NOTICE,
+    '',
+  ].join('\n');
+  return { subject: subject.length > 300 ? `${subject.slice(0, 299)}…` : subject, text };
+}

@@ -1,0 +1,166 @@
+/**
+ * The outbox worker: sends the pending rows of `mail_outbox` through an SMTP transport, one
+ * message per row, oldest due first. A failed attempt records the error, counts the attempt and
+ * schedules the next one with exponential backoff; after `maxAttempts` the row is marked failed
+ * (and stays in the table). A sent row is marked sent with the time. Each row is claimed with a
+ * conditional update (a lease on `next_attempt_at`) before sending, so two workers, or a tick and
+ * an explicit run, never send the same row twice.
+ *
+ * Started by server.ts (never by createApp); tests start it explicitly.
+ */
+import { LessThanOrEqual, type DataSource } from 'typeorm';
+import type { SendMailOptions } from 'nodemailer';
+import { MailOutboxEntity, type MailOutbox } from '../entities/mail-outbox.entity';
+
+/** What the worker needs of a nodemailer transport. */
+export interface MailSender {
+  sendMail(message: SendMailOptions): Promise<unknown>;
+  close?(): void;
+}
+
+export interface OutboxWorkerOptions {
+  dataSource: DataSource;
+  transport: MailSender;
+  /** The From header of every message. */
+  from: string;
+  /** Pause between runs, ms. */
+  pollMs?: number;
+  /** Rows per run. */
+  batchSize?: number;
+  /** Delay after the first failure, ms; doubled after each further one ... */
+  retryBaseMs?: number;
+  /** ... up to this, ms. */
+  retryMaxMs?: number;
+  /** Attempts before a row is marked failed. */
+  maxAttempts?: number;
+  /** How long a claimed row is left alone while its attempt runs, ms (longer than the transport's timeouts). */
+  leaseMs?: number;
+  log?: (message: string) => void;
+}
+
+export interface OutboxRun {
+  sent: number;
+  failed: number;
+}
+
+export interface OutboxWorker {
+  /** Sends every row due now (one batch); a call during a run waits for that run and starts another. */
+  runOnce(): Promise<OutboxRun>;
+  /** Starts polling (runs at once, then every pollMs). */
+  start(): void;
+  /** Stops polling, waits for a run under way, closes the transport. */
+  stop(): Promise<void>;
+}
+
+export const OUTBOX_DEFAULTS = {
+  pollMs: 3000,
+  batchSize: 20,
+  retryBaseMs: 30_000,
+  retryMaxMs: 60 * 60 * 1000,
+  maxAttempts: 20,
+  leaseMs: 5 * 60 * 1000,
+} as const;
+
+/** Delay before attempt `attempts + 1`, after `attempts` failures. */
+export function retryDelayMs(attempts: number, baseMs: number, maxMs: number): number {
+  return Math.min(maxMs, baseMs * 2 ** Math.max(0, attempts - 1));
+}
+
+const iso = (ms: number) => new Date(ms).toISOString();
+const errorText = (error: unknown) => (error instanceof Error ? error.message : String(error)).slice(0, 1000);
+
+export function createOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
+  const settings = { ...OUTBOX_DEFAULTS, ...Object.fromEntries(Object.entries(options).filter(([, v]) => v !== undefined)) } as Required<OutboxWorkerOptions>;
+  const { dataSource, transport, from } = options;
+  const log = options.log ?? (() => {});
+  const domain = /@([^>\s]+)/.exec(from)?.[1] ?? 'longtail.local';
+  const repository = () => dataSource.getRepository(MailOutboxEntity);
+  let running: Promise<OutboxRun> | null = null;
+  let timer: NodeJS.Timeout | null = null;
+  let stopped = false;
+
+  /** Claims the row (if nobody else did) and sends it. */
+  async function attempt(row: MailOutbox): Promise<'sent' | 'failed' | 'skipped'> {
+    const claimed = await repository().update({ id: row.id, status: 'pending', nextAttemptAt: row.nextAttemptAt }, { nextAttemptAt: iso(Date.now() + settings.leaseMs) });
+    if (!claimed.affected) return 'skipped';
+    try {
+      await transport.sendMail({
+        from,
+        to: { name: row.toName, address: row.toAddress },
+        subject: row.subject,
+        text: row.body,
+        // The same id on every attempt: a receiver can drop a repeat after an unclear failure.
+        messageId: `<outbox-${row.id}.${Date.parse(row.createdAt)}@${domain}>`,
+        headers: { 'X-Longtail-Outbox-Id': String(row.id) },
+      });
+    } catch (error) {
+      const attempts = row.attempts + 1;
+      const gaveUp = attempts >= settings.maxAttempts;
+      await repository().update(
+        { id: row.id },
+        { attempts, lastError: errorText(error), status: gaveUp ? 'failed' : 'pending', nextAttemptAt: iso(Date.now() + retryDelayMs(attempts, settings.retryBaseMs, settings.retryMaxMs)) },
+      );
+      log(`Mail to ${row.toAddress} (outbox #${row.id}) not sent, attempt ${attempts}${gaveUp ? ', giving up' : ''}: ${errorText(error)}`);
+      return 'failed';
+    }
+    await repository().update({ id: row.id }, { status: 'sent', sentAt: iso(Date.now()), attempts: row.attempts + 1, lastError: null });
+    return 'sent';
+  }
+
+  async function run(): Promise<OutboxRun> {
+    const due = await repository().find({
+      where: { status: 'pending', nextAttemptAt: LessThanOrEqual(iso(Date.now())) },
+      order: { nextAttemptAt: 'ASC', id: 'ASC' },
+      take: settings.batchSize,
+    });
+    const counts: OutboxRun = { sent: 0, failed: 0 };
+    for (const row of due) {
+      if (stopped) break;
+      const outcome = await attempt(row);
+      if (outcome !== 'skipped') counts[outcome] += 1;
+    }
+    return counts;
+  }
+
+  function runOnce(): Promise<OutboxRun> {
+    const next = (running ?? Promise.resolve()).catch(() => undefined).then(run);
+    const current = next.finally(() => {
+      if (running === current) running = null;
+    });
+    running = current;
+    return current;
+  }
+
+  function schedule(delayMs: number): void {
+    if (stopped) return;
+    timer = setTimeout(() => {
+      timer = null;
+      runOnce()
+        .catch((error: unknown) => log(`Outbox run failed: ${errorText(error)}`))
+        .finally(() => schedule(settings.pollMs));
+    }, delayMs);
+    timer.unref();
+  }
+
+  return {
+    runOnce,
+    start() {
+      stopped = false;
+      if (!timer) schedule(0);
+    },
+    async stop() {
+      stopped = true;
+      if (timer) clearTimeout(timer);
+      timer = null;
+      await running?.catch(() => undefined);
+      transport.close?.();
+    },
+  };
+}
+
+/** Creates the worker and starts polling. */
+export function startOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
+  const worker = createOutboxWorker(options);
+  worker.start();
+  return worker;
+}

@@ -1,0 +1,176 @@
+/**
+ * E-mail notifications about the workflow. `queueNotification` is called inside the workflow
+ * change's own transaction (beside `recordEvent`): it works out who is told, writes each
+ * message into the outbox, and is committed or rolled back with the change. Nothing is sent
+ * here; the outbox worker (api/mail/outbox-worker.ts) sends later, with retries, so a slow or
+ * failing mail server never holds up or undoes a decision.
+ *
+ * Who is told (current project members only, never the person who acted, never anyone who
+ * turned notifications off):
+ * - a proposal ranked: the project's designers ("ready for decision");
+ * - a decision recorded: the project's reviewers ("decided");
+ * - a review: the spec's author (and the author of the ranked version, when another person)
+ *   and the designer whose decision was reviewed ("approved" / "returned").
+ */
+import { In, type DataSource, type EntityManager } from 'typeorm';
+import { DecisionEntity, type Decision } from '../entities/decision.entity';
+import { MailMessageEntity } from '../entities/mail-message.entity';
+import { MailOutboxEntity, type MailOutbox, type OutboxStatus } from '../entities/mail-outbox.entity';
+import { ProjectMemberEntity } from '../entities/project-member.entity';
+import { ProjectEntity } from '../entities/project.entity';
+import { ProposalEntity } from '../entities/proposal.entity';
+import { ReviewEntity } from '../entities/review.entity';
+import { SpecVersionEntity } from '../entities/spec-version.entity';
+import { SpecEntity } from '../entities/spec.entity';
+import { UserEntity, type User } from '../entities/user.entity';
+import { composeMessage, type DecisionFacts, type MessageFacts, type NotificationKind, type ProposalFacts } from '../mail/compose';
+
+export type NotificationEvent =
+  | { kind: 'proposal.ready'; proposalId: number; actorId: number }
+  | { kind: 'proposal.decided'; proposalId: number; decisionId: number; actorId: number }
+  | { kind: 'proposal.approved' | 'proposal.returned'; proposalId: number; reviewId: number; actorId: number };
+
+export interface NotificationSettings {
+  /** Where links in messages point (the app's public address, no trailing slash). */
+  baseUrl: string;
+}
+
+let settings: NotificationSettings = { baseUrl: 'http://localhost:3000' };
+
+/** Sets the public address for links (server.ts, from LONGTAIL_BASE_URL / PORT). */
+export function configureNotifications(next: NotificationSettings): void {
+  settings = { baseUrl: next.baseUrl.replace(/\/+$/, '') };
+}
+
+export function notificationSettings(): NotificationSettings {
+  return settings;
+}
+
+type Member = Pick<User, 'id' | 'email' | 'displayName' | 'role' | 'notify'>;
+
+/** Largest decision or review text quoted in a message (the rest is on the proposal's page). */
+const MAX_QUOTE = 2000;
+const quote = (text: string | null) => (text && text.length > MAX_QUOTE ? `${text.slice(0, MAX_QUOTE)}…` : text);
+
+function decisionFacts(decision: Decision, recommended: string | null, decidedBy: string): DecisionFacts {
+  let passes: boolean | undefined;
+  if (decision.kind === 'override' && decision.evaluation) passes = (JSON.parse(decision.evaluation) as { passes?: boolean }).passes;
+  return { kind: decision.kind, topology: decision.topology, recommended, reason: quote(decision.reason), passes, decidedBy };
+}
+
+/**
+ * Writes the messages an event calls for into the outbox, in the caller's transaction.
+ * Returns the rows written (none when nobody is to be told).
+ */
+export async function queueNotification(manager: EntityManager, event: NotificationEvent): Promise<MailOutbox[]> {
+  const proposal = await manager.getRepository(ProposalEntity).findOneOrFail({
+    select: { id: true, projectId: true, specId: true, specVersionId: true, recommendedTopology: true },
+    where: { id: event.proposalId },
+  });
+  const [project, spec, version, memberships] = await Promise.all([
+    manager.getRepository(ProjectEntity).findOneByOrFail({ id: proposal.projectId }),
+    manager.getRepository(SpecEntity).findOneByOrFail({ id: proposal.specId }),
+    manager.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true, title: true, createdById: true }, where: { id: proposal.specVersionId } }),
+    manager.getRepository(ProjectMemberEntity).findBy({ projectId: proposal.projectId }),
+  ]);
+  const people = await manager.getRepository(UserEntity).find({
+    select: { id: true, email: true, displayName: true, role: true, notify: true },
+    where: { id: In([...new Set([...memberships.map((m) => m.userId), event.actorId])]) },
+  });
+  const byId = new Map<number, Member>(people.map((p) => [p.id, p]));
+  const memberIds = new Set(memberships.map((m) => m.userId));
+  const nameOf = (id: number) => byId.get(id)?.displayName ?? `account #${id}`;
+  const members = people.filter((p) => memberIds.has(p.id));
+
+  const { baseUrl } = settings;
+  const base: ProposalFacts = {
+    proposalId: proposal.id,
+    projectName: project.name,
+    specTitle: version.title,
+    specVersion: version.version,
+    link: `${baseUrl}/proposals/${proposal.id}`,
+    profileLink: `${baseUrl}/profile`,
+  };
+  /** Recipients with the reason each is told, in order, without repeats. */
+  const told = new Map<number, string[]>();
+  const tell = (userId: number, because: string) => told.set(userId, [...(told.get(userId) ?? []), because]);
+  let facts: MessageFacts;
+  const inProject = `the project "${project.name}"`;
+
+  if (event.kind === 'proposal.ready') {
+    facts = { ...base, kind: event.kind, rankedBy: nameOf(event.actorId), recommended: proposal.recommendedTopology };
+    for (const member of members) if (member.role === 'designer') tell(member.id, `you design in ${inProject}`);
+  } else if (event.kind === 'proposal.decided') {
+    const decision = await manager.getRepository(DecisionEntity).findOneByOrFail({ id: event.decisionId });
+    const decisionNumber = await manager.getRepository(DecisionEntity).countBy({ proposalId: proposal.id });
+    facts = { ...base, kind: event.kind, decision: decisionFacts(decision, proposal.recommendedTopology, nameOf(decision.decidedById)), decisionNumber };
+    for (const member of members) if (member.role === 'reviewer') tell(member.id, `you review in ${inProject}`);
+  } else {
+    const review = await manager.getRepository(ReviewEntity).findOneByOrFail({ id: event.reviewId });
+    const decision = await manager.getRepository(DecisionEntity).findOneByOrFail({ id: review.decisionId });
+    facts = {
+      ...base,
+      kind: event.kind,
+      reviewedBy: nameOf(review.reviewerId),
+      comment: quote(review.comment),
+      decision: decisionFacts(decision, proposal.recommendedTopology, nameOf(decision.decidedById)),
+    };
+    tell(spec.createdById, `you wrote the spec "${spec.title}"`);
+    if (version.createdById !== spec.createdById) tell(version.createdById, `you wrote version ${version.version} of the spec`);
+    tell(decision.decidedById, 'you made the decision under review');
+  }
+
+  const now = new Date().toISOString();
+  const rows: Omit<MailOutbox, 'id'>[] = [];
+  for (const [userId, reasons] of told) {
+    const person = byId.get(userId);
+    if (!person || !memberIds.has(userId) || userId === event.actorId || !person.notify) continue;
+    const { subject, text } = composeMessage(facts, person.displayName, reasons.join(' and '));
+    rows.push({
+      createdAt: now,
+      kind: event.kind satisfies NotificationKind,
+      projectId: proposal.projectId,
+      proposalId: proposal.id,
+      userId,
+      toAddress: person.email,
+      toName: person.displayName,
+      subject,
+      body: text,
+      status: 'pending',
+      attempts: 0,
+      nextAttemptAt: now,
+      lastError: null,
+      sentAt: null,
+    });
+  }
+  if (rows.length === 0) return [];
+  return manager.getRepository(MailOutboxEntity).save(rows as MailOutbox[]);
+}
+
+/** Largest number of received messages the admin page lists. */
+export const MAILBOX_PAGE = 200;
+
+/** The local mail server's messages, newest first, and how the outbox stands. */
+export async function listReceivedMail(dataSource: DataSource) {
+  const repository = dataSource.getRepository(MailMessageEntity);
+  const outbox = dataSource.getRepository(MailOutboxEntity);
+  const statuses: OutboxStatus[] = ['pending', 'sent', 'failed'];
+  const [messages, total, ...counts] = await Promise.all([
+    repository.find({ order: { id: 'DESC' }, take: MAILBOX_PAGE }),
+    repository.count(),
+    ...statuses.map((status) => outbox.countBy({ status })),
+  ]);
+  return {
+    items: messages.map((m) => ({
+      id: m.id,
+      at: m.receivedAt,
+      from: m.mailFrom,
+      to: JSON.parse(m.recipients) as string[],
+      subject: m.subject,
+      text: m.textBody,
+      outboxId: m.outboxId,
+    })),
+    total,
+    outbox: Object.fromEntries(statuses.map((status, i) => [status, counts[i]])) as Record<OutboxStatus, number>,
+  };
+}

@@ -1,0 +1,121 @@
+/**
+ * Asking for SPICE verification and reading its progress and results. The jobs themselves run in
+ * `api/verification/verification-queue.ts`; this file only records requests (with their audit
+ * event, in one transaction) and shows jobs.
+ */
+import { In, type DataSource } from 'typeorm';
+import { UserEntity } from '../entities/user.entity';
+import { VerificationJobEntity, type VerificationJob } from '../entities/verification-job.entity';
+import { SpecVersionEntity } from '../entities/spec-version.entity';
+import { conflict } from '../errors';
+import type { RecommendResult } from '../../shared/engine/recommend';
+import { MONTE_CARLO_RUNS, type VerificationJobView, type VerificationKind, type VerificationStatus } from '../../shared/verification/types';
+import { checkedSpecDocument } from './specs.service';
+import { proposalFor } from './proposals.service';
+import { recordEvent } from './audit.service';
+import { monteCarloRefusal } from '../verification/monte-carlo';
+import type { PublicUser } from './users.service';
+
+type Viewer = Pick<PublicUser, 'id' | 'role'>;
+
+const ACTIVE_STATES = ['waiting', 'simulating'] as const;
+
+async function jobViews(dataSource: DataSource, jobs: VerificationJob[]): Promise<VerificationJobView[]> {
+  const ids = [...new Set(jobs.map((j) => j.requestedById))];
+  const people = ids.length ? await dataSource.getRepository(UserEntity).find({ select: { id: true, displayName: true }, where: { id: In(ids) } }) : [];
+  const names = new Map(people.map((p) => [p.id, p.displayName]));
+  return jobs.map((job) => ({
+    id: job.id,
+    proposalId: job.proposalId,
+    kind: job.kind,
+    topology: job.topology,
+    runs: job.runs,
+    state: job.state,
+    done: job.done,
+    total: job.total,
+    step: job.step,
+    message: job.message,
+    requestedBy: { id: job.requestedById, displayName: names.get(job.requestedById) ?? 'Unknown' },
+    createdAt: job.createdAt,
+    startedAt: job.startedAt,
+    finishedAt: job.finishedAt,
+    result: job.result ? JSON.parse(job.result) : null,
+  }));
+}
+
+/** Records a job unless an equal one is still waiting or simulating; returns it and whether it is new. */
+async function requestJob(
+  dataSource: DataSource,
+  actor: Viewer,
+  proposalId: number,
+  kind: VerificationKind,
+  topology: string | null,
+  runs: number | null,
+): Promise<{ job: VerificationJobView; created: boolean }> {
+  const { job, created } = await dataSource.transaction(async (manager) => {
+    const proposal = await proposalFor(manager, actor, proposalId);
+    const repository = manager.getRepository(VerificationJobEntity);
+    const active = await repository.findOne({
+      where: { proposalId, kind, ...(topology === null ? {} : { topology }), state: In([...ACTIVE_STATES]) },
+      order: { id: 'DESC' },
+    });
+    if (active) return { job: active, created: false };
+    const saved = await repository.save({
+      proposalId,
+      kind,
+      topology,
+      runs,
+      state: 'waiting',
+      done: 0,
+      total: kind === 'monte-carlo' ? (runs ?? 0) : 0,
+      step: null,
+      message: null,
+      result: null,
+      requestedById: actor.id,
+      claimToken: null,
+      heartbeatAt: null,
+      createdAt: new Date().toISOString(),
+      startedAt: null,
+      finishedAt: null,
+    });
+    await recordEvent(manager, {
+      actorId: actor.id,
+      action: kind === 'proposal' ? 'proposal.verification-requested' : 'proposal.monte-carlo-requested',
+      entityType: 'verification-job',
+      entityId: saved.id,
+      projectId: proposal.projectId,
+      proposalId,
+      afterId: saved.id,
+      details: kind === 'proposal' ? {} : { topology, runs },
+    });
+    return { job: saved, created: true };
+  });
+  return { job: (await jobViews(dataSource, [job]))[0], created };
+}
+
+/** A verification of every option (and of an override). */
+export function requestVerification(dataSource: DataSource, actor: Viewer, proposalId: number) {
+  return requestJob(dataSource, actor, proposalId, 'proposal', null, null);
+}
+
+/** A SPICE Monte Carlo of one option; 409 with the reason when the option cannot have one. */
+export async function requestMonteCarlo(dataSource: DataSource, actor: Viewer, proposalId: number, input: { topology: string; runs?: number }) {
+  const proposal = await proposalFor(dataSource, actor, proposalId);
+  const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
+  const spec = checkedSpecDocument(JSON.parse(version.payload));
+  const result = JSON.parse(proposal.result) as RecommendResult;
+  const refusal = monteCarloRefusal(spec, result.options.find((o) => o.topology === input.topology));
+  if (refusal) throw conflict('monte-carlo-not-applicable', refusal);
+  return requestJob(dataSource, actor, proposalId, 'monte-carlo', input.topology, input.runs ?? MONTE_CARLO_RUNS.default);
+}
+
+/** The latest whole-proposal job and the latest Monte Carlo job of each option. */
+export async function verificationStatus(dataSource: DataSource, viewer: Viewer, proposalId: number): Promise<VerificationStatus> {
+  await proposalFor(dataSource, viewer, proposalId);
+  const repository = dataSource.getRepository(VerificationJobEntity);
+  const latest = await repository.findOne({ where: { proposalId, kind: 'proposal' }, order: { id: 'DESC' } });
+  const monteCarlo = await repository.find({ where: { proposalId, kind: 'monte-carlo' }, order: { id: 'DESC' } });
+  const latestPerOption = monteCarlo.filter((job, i) => monteCarlo.findIndex((j) => j.topology === job.topology) === i);
+  const [verification, ...perOption] = await jobViews(dataSource, [...(latest ? [latest] : []), ...latestPerOption]);
+  return latest ? { verification, monteCarlo: perOption } : { verification: null, monteCarlo: verification ? [verification, ...perOption] : [] };
+}

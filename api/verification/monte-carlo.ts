@@ -1,0 +1,117 @@
+/**
+ * SPICE Monte Carlo of one option's differential rejection: N circuits with the spec's tolerances
+ * (load resistors Gaussian, 3σ = tolerance; the pair's ΔVBE Gaussian with the spec's σ), each
+ * simulated in ngspice at the spec frequency, at the corner that governs the option's mismatch
+ * worst case. The engine's closed-form model is evaluated on the very same samples (the first N
+ * of the spec's seeded draws, which the ranking's own Monte Carlo also used), so the two
+ * distributions differ only by the model, never by the luck of the draw.
+ *
+ * The simulated circuit scales RC1 and RC2 by their own draws (the closed form sees only their
+ * ratio); the difference that makes is part of what this run shows.
+ */
+import { solveStage } from '../../shared/engine/analyze';
+import { mismatchCmrrDb, mismatchSensitivity, mismatchStages, monteCarloDraws, monteCarloSample, percentile } from '../../shared/engine/mismatch';
+import type { RecommendOption } from '../../shared/engine/recommend';
+import type { Design, Spec } from '../../shared/engine/types';
+import type { MonteCarloVerificationResult } from '../../shared/verification/types';
+import type { SpiceRunner } from './spice-analyses';
+import { acAt } from './verify-option';
+
+const HISTOGRAM_BINS = 30;
+
+/** Why an option cannot have a SPICE Monte Carlo, or null when it can. */
+export function monteCarloRefusal(spec: Spec, option: RecommendOption | undefined): string | null {
+  if (!option) return 'The proposal has no such option.';
+  if (spec.gain.output !== 'differential') {
+    return 'The spec asks for a single-ended output, whose rejection is set by the tail, not by pair mismatch: the Monte Carlo of mismatch applies to differential outputs.';
+  }
+  if (!option.design || option.corners.length === 0) return 'The engine could not size or solve this option, so there is nothing to simulate.';
+  return null;
+}
+
+function statistics(sortedDb: number[], requiredDb: number) {
+  const passing = sortedDb.filter((v) => v >= requiredDb).length;
+  return {
+    yieldPercent: sortedDb.length > 0 ? (100 * passing) / sortedDb.length : 0,
+    percentilesDb: {
+      p1: percentile(sortedDb, 1),
+      p5: percentile(sortedDb, 5),
+      p50: percentile(sortedDb, 50),
+      p95: percentile(sortedDb, 95),
+    },
+  };
+}
+
+function histogram(simulated: number[], predicted: number[]) {
+  const all = [...simulated, ...predicted].filter(Number.isFinite).sort((a, b) => a - b);
+  const low = all[0] ?? 0;
+  const high = percentile(all, 99);
+  const width = Math.max(high - low, 1e-9) / HISTOGRAM_BINS;
+  const count = (values: number[]) => {
+    const counts = new Array<number>(HISTOGRAM_BINS).fill(0);
+    for (const v of values) if (Number.isFinite(v)) counts[Math.min(HISTOGRAM_BINS - 1, Math.max(0, Math.floor((v - low) / width)))] += 1;
+    return counts;
+  };
+  return { binEdgesDb: Array.from({ length: HISTOGRAM_BINS + 1 }, (_, i) => low + i * width), simulatedCounts: count(simulated), predictedCounts: count(predicted) };
+}
+
+export async function runMonteCarlo(
+  run: SpiceRunner,
+  spec: Spec,
+  option: RecommendOption,
+  runs: number,
+  simulator: string,
+  onProgress: (done: number, step: string) => Promise<void> | void,
+): Promise<MonteCarloVerificationResult> {
+  const t0 = performance.now();
+  const design = option.design as Design;
+  const f = spec.cmrr.atFrequencyHz;
+  const governing = option.corners.reduce((a, b) => ((b.cmrrDifferentialWorstCaseDb ?? Infinity) < (a.cmrrDifferentialWorstCaseDb ?? Infinity) ? b : a));
+  const cornerDesign: Design = { ...design, inputCommonModeV: governing.inputCommonModeV, temperatureC: governing.temperatureC };
+  const sensitivity = mismatchSensitivity(mismatchStages(solveStage(cornerDesign)), f);
+  const draws = monteCarloDraws(runs, spec.monteCarlo.seed);
+  const simulatedDb: number[] = [];
+  const predictedDb: number[] = [];
+  let failedRuns = 0;
+  for (let i = 0; i < runs; i += 1) {
+    const sample = monteCarloSample(draws, i, spec.resistors.tolerance, spec.device.vbeMismatchSigmaV, sensitivity.thermalVoltageV);
+    predictedDb.push(mismatchCmrrDb(sensitivity, sample.loadMismatch, sample.isMismatch));
+    await onProgress(i, `Run ${i + 1} of ${runs} at ${governing.label}`);
+    try {
+      const ac = await acAt(
+        run,
+        {
+          ...cornerDesign,
+          collectorResistanceOhm: design.collectorResistanceOhm * sample.load1Scale,
+          collectorMismatch: sample.loadMismatch,
+          pairSaturationCurrentMismatch: sample.isMismatch,
+        },
+        { startHz: f, stopHz: f, pointsPerDecade: 1 },
+      );
+      const db = ac.figuresAt(0).cmrrDifferentialDb;
+      if (db === null || !Number.isFinite(db)) failedRuns += 1;
+      else simulatedDb.push(db);
+    } catch {
+      failedRuns += 1;
+    }
+  }
+  await onProgress(runs, 'Statistics');
+  simulatedDb.sort((a, b) => a - b);
+  predictedDb.sort((a, b) => a - b);
+  const requiredDb = spec.cmrr.minDb;
+  return {
+    simulator,
+    topology: option.topology,
+    figure: 'cmrr-differential',
+    runs,
+    seed: spec.monteCarlo.seed,
+    requiredDb,
+    failedRuns,
+    simulatedDb,
+    simulated: statistics(simulatedDb, requiredDb),
+    predictedDb,
+    predicted: statistics(predictedDb, requiredDb),
+    histogram: histogram(simulatedDb, predictedDb),
+    elapsedMs: performance.now() - t0,
+  };
+}

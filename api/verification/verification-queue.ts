@@ -1,0 +1,263 @@
+/**
+ * Verification jobs: asked for through the API, run in the background one at a time on the one
+ * long-lived SPICE engine, progress written to the job row as it goes.
+ *
+ * - A job is claimed by a conditional update (`waiting` → `simulating` with this instance's claim
+ *   token); every later write checks the token, so a job taken over or marked stopped is never
+ *   overwritten by an instance that lost it.
+ * - While simulating, the claimant refreshes `heartbeat_at`. On start, jobs left `simulating` by a
+ *   stopped server are marked `stopped` (SQLite: there is only one server, so every one of them;
+ *   otherwise those whose heartbeat is older than `staleAfterMs`), and the same sweep runs before
+ *   each claim. They can be asked for again; none stays "simulating" forever.
+ * - A failing or non-converging simulation becomes that option's error; the job still finishes.
+ */
+import { randomUUID } from 'node:crypto';
+import type { DataSource, EntityManager } from 'typeorm';
+import { checkedSpecDocument } from '../services/specs.service';
+import { DecisionEntity } from '../entities/decision.entity';
+import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
+import { SpecVersionEntity } from '../entities/spec-version.entity';
+import { VerificationJobEntity, type VerificationJob } from '../entities/verification-job.entity';
+import type { RecommendOption, RecommendResult } from '../../shared/engine/recommend';
+import type { Spec } from '../../shared/engine/types';
+import { topologyName } from '../../shared/engine/topology-names';
+import {
+  VERIFICATION_TOLERANCES,
+  type MonteCarloVerificationResult,
+  type OptionVerification,
+  type ProposalVerificationResult,
+} from '../../shared/verification/types';
+import { SpiceEngine } from './spice-engine';
+import { analysesPerOption, verifyOption, type OptionToVerify } from './verify-option';
+import { runMonteCarlo } from './monte-carlo';
+
+export interface VerificationQueueOptions {
+  /** The engine to run on (default: a new one, started on the first job). */
+  engine?: SpiceEngine;
+  /** A `simulating` job whose heartbeat is older than this was left by a stopped server, ms. */
+  staleAfterMs?: number;
+  /** Mark every `simulating` job stopped on start (true for SQLite: one server per database). */
+  singleInstance?: boolean;
+  /** Changes a netlist before it runs, by topology (tests break one on purpose). */
+  netlistHook?: (topology: string, netlist: string) => string;
+  log?: (message: string) => void;
+}
+
+/** Heartbeat and progress writes at most this often, ms (the last step always gets written). */
+const PROGRESS_WRITE_INTERVAL_MS = 200;
+const DEFAULT_STALE_AFTER_MS = 60_000;
+export const STOPPED_MESSAGE = 'The server stopped while this job was simulating; ask for it again to re-run it.';
+
+const now = () => new Date().toISOString();
+
+/** Thrown inside a job when the queue is closing. */
+class ServerStopping extends Error {}
+
+export class VerificationQueue {
+  readonly engine: SpiceEngine;
+  readonly claimToken = randomUUID();
+  private readonly staleAfterMs: number;
+  private draining: Promise<void> | null = null;
+  private closed = false;
+  /** Resolves once the start-up sweep has marked jobs left by a stopped server. */
+  readonly ready: Promise<void>;
+
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly options: VerificationQueueOptions = {},
+  ) {
+    this.engine = options.engine ?? new SpiceEngine();
+    this.staleAfterMs = options.staleAfterMs ?? DEFAULT_STALE_AFTER_MS;
+    this.ready = this.markStopped(options.singleInstance ?? true).then(() => this.kick());
+  }
+
+  private log(message: string): void {
+    (this.options.log ?? console.error)(message);
+  }
+
+  /** Marks jobs left simulating by a stopped server as `stopped`. */
+  private async markStopped(all: boolean): Promise<void> {
+    const query = this.dataSource
+      .createQueryBuilder()
+      .update(VerificationJobEntity)
+      .set({ state: 'stopped', message: STOPPED_MESSAGE, finishedAt: now(), claimToken: null, step: null })
+      .where('state = :state', { state: 'simulating' });
+    if (!all) query.andWhere('(heartbeat_at IS NULL OR heartbeat_at < :limit)', { limit: new Date(Date.now() - this.staleAfterMs).toISOString() });
+    await query.execute();
+  }
+
+  /** Starts working through waiting jobs unless already doing so. */
+  kick(): void {
+    if (this.closed || this.draining) return;
+    this.draining = this.drain()
+      .catch((error: unknown) => this.log(`verification queue: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}`))
+      .finally(() => {
+        this.draining = null;
+      });
+  }
+
+  /** Resolves when no job is being worked on (tests). */
+  async idle(): Promise<void> {
+    await this.ready;
+    while (this.draining) await this.draining;
+  }
+
+  /**
+   * Stops taking jobs and ends the simulator at once; a job it was running is marked `stopped`
+   * (it can be asked for again). Safe to call more than once.
+   */
+  async close(): Promise<void> {
+    this.closed = true;
+    await this.engine.stop();
+    await this.draining;
+  }
+
+  private async drain(): Promise<void> {
+    while (!this.closed) {
+      await this.markStopped(false);
+      const job = await this.claimNext();
+      if (!job) return;
+      await this.runJob(job);
+    }
+  }
+
+  /** The oldest waiting job, claimed by this instance; null when there is none. */
+  private async claimNext(): Promise<VerificationJob | null> {
+    const repository = this.dataSource.getRepository(VerificationJobEntity);
+    for (;;) {
+      const next = await repository.findOne({ where: { state: 'waiting' }, order: { id: 'ASC' } });
+      if (!next) return null;
+      const at = now();
+      const claimed = await repository.update(
+        { id: next.id, state: 'waiting' },
+        { state: 'simulating', claimToken: this.claimToken, startedAt: at, heartbeatAt: at, step: 'Starting the simulator' },
+      );
+      if (claimed.affected === 1) return { ...next, state: 'simulating', claimToken: this.claimToken, startedAt: at, heartbeatAt: at };
+    }
+  }
+
+  /** Writes to the job only while this instance still holds it; false when it no longer does. */
+  private async write(jobId: number, changes: Partial<VerificationJob>): Promise<boolean> {
+    const result = await this.dataSource
+      .getRepository(VerificationJobEntity)
+      .update({ id: jobId, claimToken: this.claimToken, state: 'simulating' }, { ...changes, heartbeatAt: now() });
+    return result.affected === 1;
+  }
+
+  private progressWriter(jobId: number) {
+    let last = 0;
+    return async (done: number, step: string, force = false) => {
+      const t = performance.now();
+      if (!force && t - last < PROGRESS_WRITE_INTERVAL_MS) return;
+      last = t;
+      await this.write(jobId, { done, step });
+    };
+  }
+
+  private async runJob(job: VerificationJob): Promise<void> {
+    try {
+      const { proposal, spec, result } = await loadProposal(this.dataSource, job.proposalId);
+      const simulatorStartMs = await this.engine.start();
+      const simulator = await this.engine.version();
+      if (job.kind === 'monte-carlo') {
+        const option = result.options.find((o) => o.topology === job.topology);
+        if (!option) throw new Error('The proposal has no such option.');
+        const progress = this.progressWriter(job.id);
+        const outcome: MonteCarloVerificationResult = await runMonteCarlo(this.engine.runner, spec, option, job.runs ?? 0, simulator, (done, step) =>
+          progress(done, `${topologyName(option.topology)}: ${step}`),
+        );
+        await this.finish(job, outcome, job.runs ?? 0);
+        return;
+      }
+      const targets = await verificationTargets(this.dataSource, proposal, spec, result, this.options.netlistHook);
+      const sizes = targets.map((t) => analysesPerOption(t.option.corners.length));
+      const offsets = sizes.map((_, i) => sizes.slice(0, i).reduce((a, b) => a + b, 0));
+      const total = sizes.reduce((a, b) => a + b, 0);
+      await this.write(job.id, { total, done: 0 });
+      const progress = this.progressWriter(job.id);
+      const t0 = performance.now();
+      const options: OptionVerification[] = [];
+      for (const [index, target] of targets.entries()) {
+        let analyses = 0;
+        const counted = (netlist: string, plot?: string) => {
+          analyses += 1;
+          return this.engine.run(netlist, plot);
+        };
+        if (this.closed) throw new ServerStopping();
+        options.push(
+          await verifyOption(counted, target, (step) => progress(offsets[index] + Math.min(analyses, sizes[index] - 1), step)),
+        );
+        await progress(offsets[index] + sizes[index], `${target.name}: done`, true);
+      }
+      const outcome: ProposalVerificationResult = {
+        simulator,
+        tolerances: VERIFICATION_TOLERANCES,
+        options,
+        simulatorStartMs,
+        elapsedMs: performance.now() - t0,
+      };
+      await this.finish(job, outcome, total);
+    } catch (error) {
+      if (this.closed) {
+        await this.dataSource
+          .getRepository(VerificationJobEntity)
+          .update({ id: job.id, claimToken: this.claimToken, state: 'simulating' }, { state: 'stopped', message: STOPPED_MESSAGE, finishedAt: now(), step: null, claimToken: null })
+          .catch(() => undefined);
+        return;
+      }
+      const message = error instanceof Error ? error.message : String(error);
+      this.log(`verification job ${job.id} failed: ${message}`);
+      await this.dataSource
+        .getRepository(VerificationJobEntity)
+        .update({ id: job.id, claimToken: this.claimToken, state: 'simulating' }, { state: 'failed', message: `The job could not run: ${message}`, finishedAt: now(), step: null });
+    }
+  }
+
+  private async finish(job: VerificationJob, result: ProposalVerificationResult | MonteCarloVerificationResult, total: number): Promise<void> {
+    if (this.closed) throw new ServerStopping();
+    await this.dataSource
+      .getRepository(VerificationJobEntity)
+      .update(
+        { id: job.id, claimToken: this.claimToken, state: 'simulating' },
+        { state: 'finished', done: total, total, step: null, result: JSON.stringify(result), finishedAt: now(), heartbeatAt: now() },
+      );
+  }
+}
+
+async function loadProposal(manager: DataSource | EntityManager, proposalId: number): Promise<{ proposal: Proposal; spec: Spec; result: RecommendResult }> {
+  const proposal = await manager.getRepository(ProposalEntity).findOneByOrFail({ id: proposalId });
+  const version = await manager.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
+  return { proposal, spec: checkedSpecDocument(JSON.parse(version.payload)), result: JSON.parse(proposal.result) as RecommendResult };
+}
+
+/** Every ranked option, then the latest decision's own design when it is an override. */
+async function verificationTargets(
+  dataSource: DataSource,
+  proposal: Proposal,
+  spec: Spec,
+  result: RecommendResult,
+  hook: VerificationQueueOptions['netlistHook'],
+): Promise<OptionToVerify[]> {
+  const common = { differentialOutput: spec.gain.output === 'differential', frequencyHz: spec.cmrr.atFrequencyHz };
+  const targets: OptionToVerify[] = result.options.map((option) => ({
+    ...common,
+    topology: option.topology,
+    source: 'option',
+    name: topologyName(option.topology),
+    option,
+    netlistHook: hook ? (netlist: string) => hook(option.topology, netlist) : undefined,
+  }));
+  const decision = await dataSource.getRepository(DecisionEntity).findOne({ where: { proposalId: proposal.id }, order: { id: 'DESC' } });
+  if (decision?.kind === 'override' && decision.evaluation) {
+    const option = JSON.parse(decision.evaluation) as RecommendOption;
+    targets.push({
+      ...common,
+      topology: decision.topology,
+      source: 'decision',
+      name: `Override (${topologyName(decision.topology)})`,
+      option,
+      netlistHook: hook ? (netlist: string) => hook(`override:${decision.topology}`, netlist) : undefined,
+    });
+  }
+  return targets;
+}

@@ -1,0 +1,671 @@
+/**
+ * SPICE `.model` cards for NPN transistors, read from an uploaded library file by a small parser
+ * of our own: pure, no I/O, nothing in a file ever evaluated, every step a single left-to-right
+ * scan (no regular expressions over file text), so reading is linear in the file's size.
+ *
+ * Grammar accepted (SPICE3 / ngspice conventions [SPICE], see DEVELOPERS.md "Device models"):
+ * - a text file (UTF-8 or ASCII) of `.model NAME NPN [(] NAME=VALUE … [)]` cards, any number
+ *   of them (at most MODEL_FILE_MAX_CARDS), optionally ending with `.end`;
+ * - `*` comment lines; end-of-line comments after `;`, `$ ` (dollar and a blank) or `//`;
+ *   blank lines; `+` continuation lines; keywords, names and suffixes case-insensitive;
+ * - fields separated by blanks, tabs or commas; `=` may have blanks around it; the parameter
+ *   list may sit in one pair of parentheses (possibly over several lines) or in none;
+ * - numbers: integer, decimal or exponent form with SPICE3's scale factors T G MEG K M MIL U N
+ *   P F, letters after the number or factor ignored as SPICE does ("10pF", "1.2MEGohm");
+ *   forms SPICE3 does not read ("4k7", "2m5", expressions) are refused, never guessed.
+ * Anything else (.subckt, .include, .lib, .param, braces, quotes, element lines, PNP or other
+ * device types, other dot-cards) is a problem with its line number; one problem refuses the file.
+ *
+ * What the engine reads from a card: IS, BF, VAF (VA is VAF's other name in SPICE). They are
+ * required, even though SPICE has defaults for them (IS = 1e-16 A, BF = 100, VAF infinite): a
+ * library card that leaves them out would size the stage on values nobody chose. Write VAF=0
+ * for no Early effect (SPICE reads 0 as infinite). Their limits are the spec schema's.
+ * Every other parameter is kept (name → number) with the card's text, for reference and for the
+ * exported netlist's comment; the engine models BR = 1 and nothing else of the card.
+ */
+import specSchema from '../schema/spec.schema.json';
+
+/** Largest library file, bytes (256 KiB). */
+export const MODEL_FILE_MAX_BYTES = 256 * 1024;
+/** Most `.model` cards in one file. */
+export const MODEL_FILE_MAX_CARDS = 200;
+/** Longest model name, characters. */
+export const MODEL_NAME_MAX_LENGTH = 64;
+/** Most parameters on one card (a full Gummel-Poon card has about 40). */
+export const CARD_MAX_PARAMETERS = 150;
+/** Longest word (name or value), characters. */
+const MAX_WORD_LENGTH = 200;
+/** Problems listed before the rest are summarised. */
+const MAX_PROBLEMS = 50;
+/** Above this share of control characters a file counts as binary. */
+const BINARY_CONTROL_SHARE = 0.01;
+
+/** A problem with an uploaded file; `line` is 1-based, absent for the whole file. */
+export interface CardProblem {
+  line?: number;
+  message: string;
+}
+
+/** One `.model` card as read. */
+export interface ModelCard {
+  /** The model name as written. */
+  name: string;
+  /** Line of the `.model` keyword, and the card's last line (its last `+` line). */
+  line: number;
+  lastLine: number;
+  /** Every parameter, upper-case name → value in SI units, in card order (VA read as VAF). */
+  parameters: Record<string, number>;
+  /** The card's own lines as written (the `.model` line and its `+` lines). */
+  text: string;
+}
+
+/** The device fields of the spec (`shared/schema/spec.schema.json`, `device`) a card fills. */
+export interface CardDevice {
+  family: 'npn';
+  beta: number;
+  saturationCurrentA: number;
+  /** 0 means infinite (no Early effect), as SPICE reads VAF = 0. */
+  earlyVoltageV: number;
+}
+
+export type ModelFileResult = { ok: true; cards: ModelCard[] } | { ok: false; problems: CardProblem[] };
+
+// ---------------------------------------------------------------------------------------------
+// Numbers
+
+/** SPICE3 scale factors as powers of ten (ngspice manual, "Some naming conventions", Table 2.2). */
+const SCALE_EXPONENTS: Record<string, number> = { t: 12, g: 9, k: 3, m: -3, u: -6, n: -9, p: -12, f: -15 };
+/** MIL: a thousandth of an inch, 25.4e-6 (same table). */
+const MIL = 25.4e-6;
+
+const isDigit = (c: string) => c >= '0' && c <= '9';
+const isLetter = (c: string) => (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z');
+
+/**
+ * A SPICE number: `[+-]digits[.digits][e[+-]digits]` then an optional scale factor and any
+ * letters (ignored, as SPICE ignores units). Null when the text is not one or is not finite.
+ */
+export function parseSpiceValue(text: string): number | null {
+  let i = 0;
+  if (text[i] === '+' || text[i] === '-') i += 1;
+  let digits = 0;
+  while (i < text.length && isDigit(text[i])) {
+    i += 1;
+    digits += 1;
+  }
+  if (text[i] === '.') {
+    i += 1;
+    while (i < text.length && isDigit(text[i])) {
+      i += 1;
+      digits += 1;
+    }
+  }
+  if (digits === 0) return null;
+  const mantissa = text.slice(0, i);
+  let exponent = 0;
+  if (text[i] === 'e' || text[i] === 'E') {
+    let j = i + 1;
+    if (text[j] === '+' || text[j] === '-') j += 1;
+    if (isDigit(text[j] ?? '')) {
+      while (j < text.length && isDigit(text[j])) j += 1;
+      exponent = Number(text.slice(i + 1, j));
+      i = j;
+    }
+  }
+  const lettersStart = i;
+  while (i < text.length && isLetter(text[i])) i += 1;
+  if (i !== text.length) return null; // "4k7", "2m5", "1.2.3", "1e-3*2": not SPICE3 numbers
+  const letters = text.slice(lettersStart).toLowerCase();
+  let value: number;
+  if (letters.startsWith('meg')) value = Number(`${mantissa}e${exponent + 6}`);
+  else if (letters.startsWith('mil')) value = Number(`${mantissa}e${exponent}`) * MIL;
+  else {
+    // Adding exponents (not multiplying by 1e-15) keeps "1.2f" exactly 1.2e-15.
+    const scale = letters.length > 0 ? (SCALE_EXPONENTS[letters[0]] ?? 0) : 0;
+    value = Number(`${mantissa}e${exponent + scale}`);
+  }
+  return Number.isFinite(value) ? value : null;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Bytes to text
+
+/** Index of the first byte that breaks UTF-8 (RFC 3629: no overlongs, no surrogates), or -1. */
+function firstInvalidUtf8(bytes: Uint8Array): number {
+  let i = 0;
+  while (i < bytes.length) {
+    const b = bytes[i];
+    if (b < 0x80) {
+      i += 1;
+      continue;
+    }
+    let need: number;
+    let low = 0x80;
+    let high = 0xbf;
+    if (b >= 0xc2 && b <= 0xdf) need = 1;
+    else if (b >= 0xe0 && b <= 0xef) {
+      need = 2;
+      if (b === 0xe0) low = 0xa0;
+      if (b === 0xed) high = 0x9f;
+    } else if (b >= 0xf0 && b <= 0xf4) {
+      need = 3;
+      if (b === 0xf0) low = 0x90;
+      if (b === 0xf4) high = 0x8f;
+    } else return i;
+    for (let k = 1; k <= need; k += 1) {
+      const c = bytes[i + k];
+      if (c === undefined) return i;
+      if (k === 1 ? c < low || c > high : c < 0x80 || c > 0xbf) return i;
+    }
+    i += need + 1;
+  }
+  return -1;
+}
+
+function lineOfByte(bytes: Uint8Array, index: number): number {
+  let line = 1;
+  for (let i = 0; i < index; i += 1) if (bytes[i] === 0x0a) line += 1;
+  return line;
+}
+
+/** A control character that has no place in a card (tab, form feed and line breaks do). */
+function isStrayControl(code: number): boolean {
+  if (code === 0x09 || code === 0x0a || code === 0x0b || code === 0x0c || code === 0x0d) return false;
+  return code < 0x20 || (code >= 0x7f && code <= 0x9f);
+}
+
+/**
+ * The file's text, checked by content (never by its name): not over the size limit, no NUL
+ * byte, valid UTF-8, and no more than 1 % control characters (else it is binary). A UTF-8 byte
+ * order mark is dropped.
+ */
+export function decodeModelFile(bytes: Uint8Array): { ok: true; text: string } | { ok: false; problems: CardProblem[] } {
+  if (bytes.length > MODEL_FILE_MAX_BYTES) return fail(`The file is ${bytes.length} bytes; a library file may hold at most ${MODEL_FILE_MAX_BYTES / 1024} KB.`);
+  const nul = bytes.indexOf(0);
+  if (nul >= 0) {
+    return fail('The file holds NUL bytes: it is binary (or UTF-16) rather than a text file of .model cards; save it as plain UTF-8 or ASCII text.', lineOfByte(bytes, nul));
+  }
+  const invalid = firstInvalidUtf8(bytes);
+  if (invalid >= 0) return fail('The file is not valid UTF-8 text here; save it as UTF-8 or plain ASCII.', lineOfByte(bytes, invalid));
+  let text = new TextDecoder('utf-8').decode(bytes);
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  let controls = 0;
+  let firstControl = -1;
+  for (let i = 0; i < text.length; i += 1) {
+    if (isStrayControl(text.charCodeAt(i))) {
+      controls += 1;
+      if (firstControl < 0) firstControl = i;
+    }
+  }
+  if (controls > 0 && controls > text.length * BINARY_CONTROL_SHARE) {
+    return fail(`${controls} of the file's ${text.length} characters are control characters: it looks binary, not a text file of .model cards.`, lineOfIndex(text, firstControl));
+  }
+  return { ok: true, text };
+}
+
+function lineOfIndex(text: string, index: number): number {
+  let line = 1;
+  for (let i = 0; i < index; i += 1) if (text.charCodeAt(i) === 0x0a || (text.charCodeAt(i) === 0x0d && text.charCodeAt(i + 1) !== 0x0a)) line += 1;
+  return line;
+}
+
+function fail(message: string, line?: number): { ok: false; problems: CardProblem[] } {
+  return { ok: false, problems: [line === undefined ? { message } : { line, message }] };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Lines and words
+
+interface Token {
+  kind: 'word' | '(' | ')' | '=';
+  text: string;
+  line: number;
+}
+
+/** A dot-card with its continuation lines. */
+interface Statement {
+  line: number;
+  lastLine: number;
+  tokens: Token[];
+  lines: string[];
+  /** A line of it had a problem already: no further checks, so one mistake is reported once. */
+  broken: boolean;
+}
+
+/** Physical lines, split at CR LF, LF or CR. */
+function splitLines(text: string): string[] {
+  const lines: string[] = [];
+  let start = 0;
+  for (let i = 0; i < text.length; i += 1) {
+    const c = text.charCodeAt(i);
+    if (c === 0x0a || c === 0x0d) {
+      lines.push(text.slice(start, i));
+      if (c === 0x0d && text.charCodeAt(i + 1) === 0x0a) i += 1;
+      start = i + 1;
+    }
+  }
+  if (start < text.length) lines.push(text.slice(start));
+  return lines;
+}
+
+const isBlank = (c: string) => c === ' ' || c === '\t' || c === '\f' || c === '\v';
+
+/** The line without its end-of-line comment (`;`, `$ ` or `//`, as ngspice reads them). */
+function withoutComment(line: string): string {
+  for (let i = 0; i < line.length; i += 1) {
+    const c = line[i];
+    if (c === ';') return line.slice(0, i);
+    if (c === '$' && (i + 1 === line.length || isBlank(line[i + 1]))) return line.slice(0, i);
+    if (c === '/' && line[i + 1] === '/') return line.slice(0, i);
+  }
+  return line;
+}
+
+/** Short, printable form of a word for a message. */
+function shown(text: string): string {
+  return text.length > 40 ? `${text.slice(0, 37)}…` : text;
+}
+
+class Problems {
+  readonly list: CardProblem[] = [];
+  private dropped = 0;
+
+  add(line: number | undefined, message: string): void {
+    if (this.list.length >= MAX_PROBLEMS) {
+      this.dropped += 1;
+      return;
+    }
+    this.list.push(line === undefined ? { message } : { line, message });
+  }
+
+  get count(): number {
+    return this.list.length + this.dropped;
+  }
+
+  result(): CardProblem[] {
+    const sorted = [...this.list].sort((a, b) => (a.line ?? 0) - (b.line ?? 0));
+    if (this.dropped > 0) sorted.push({ message: `…and ${this.dropped} more problems not listed.` });
+    return sorted;
+  }
+}
+
+/** Words and punctuation of one line's content; false when the line has a problem. */
+function tokenize(content: string, line: number, into: Token[], problems: Problems): boolean {
+  let word = '';
+  const flush = (): boolean => {
+    if (word === '') return true;
+    if (word.length > MAX_WORD_LENGTH) {
+      problems.add(line, `A word of ${word.length} characters ("${shown(word)}"): names and values are at most ${MAX_WORD_LENGTH}.`);
+      word = '';
+      return false;
+    }
+    into.push({ kind: 'word', text: word, line });
+    word = '';
+    return true;
+  };
+  for (let i = 0; i < content.length; i += 1) {
+    const c = content[i];
+    if (isBlank(c) || c === ',') {
+      if (!flush()) return false;
+    } else if (c === '(' || c === ')' || c === '=') {
+      if (!flush()) return false;
+      into.push({ kind: c, text: c, line });
+    } else if (c === '{' || c === '}') {
+      problems.add(line, 'Expressions in braces {…} are not supported: give every parameter as a plain number.');
+      return false;
+    } else if (c === "'" || c === '"') {
+      problems.add(line, 'Quoted text or expressions are not supported: give every parameter as a plain number.');
+      return false;
+    } else if (isStrayControl(c.charCodeAt(0))) {
+      problems.add(line, `A control character (U+${c.charCodeAt(0).toString(16).toUpperCase().padStart(4, '0')}) is not allowed in a card.`);
+      return false;
+    } else {
+      word += c;
+    }
+  }
+  return flush();
+}
+
+/** Why a dot-card other than `.model` and `.end` is refused. */
+function unsupportedCard(keyword: string): string {
+  switch (keyword) {
+    case '.subckt':
+    case '.ends':
+      return 'Subcircuits (.subckt … .ends) are not supported: upload the plain .model cards.';
+    case '.include':
+    case '.inc':
+    case '.lib':
+    case '.endl':
+      return `${keyword} is not supported: nothing is read from other files; upload the .model cards themselves.`;
+    case '.param':
+    case '.params':
+    case '.parameters':
+    case '.func':
+    case '.csparam':
+      return `${keyword} is not supported: give every parameter as a plain number in the card.`;
+    case '.control':
+    case '.endc':
+      return 'Control blocks (.control … .endc) are not supported: a library file holds .model cards only.';
+    default:
+      return `Unknown card "${shown(keyword)}": a library file holds .model cards and comments only.`;
+  }
+}
+
+/** Lines that skip everything up to their closing keyword, so one refused block is reported once. */
+const BLOCK_ENDS: Record<string, string> = { '.subckt': '.ends', '.control': '.endc' };
+
+// ---------------------------------------------------------------------------------------------
+// Cards
+
+interface Limit {
+  minimum: number;
+  maximum: number;
+}
+
+const DEVICE_FIELDS = specSchema.properties.device.properties;
+const limitOf = (node: { minimum: number; maximum: number }): Limit => ({ minimum: node.minimum, maximum: node.maximum });
+/** The spec schema's limits of the fields a card fills (one source of truth). */
+const LIMITS = {
+  IS: limitOf(DEVICE_FIELDS.saturationCurrentA),
+  BF: limitOf(DEVICE_FIELDS.beta),
+  VAF: limitOf(DEVICE_FIELDS.earlyVoltageV),
+  /** VAF between 0 and this is refused (0 means infinite). */
+  VAF_GAP: DEVICE_FIELDS.earlyVoltageV.not.exclusiveMaximum,
+};
+
+/** SPICE's other names of parameters the engine reads (ngspice BJT model table: VA for VAF). */
+const ALIASES: Record<string, string> = { VA: 'VAF' };
+
+const REQUIRED: ReadonlyArray<[string, string]> = [
+  ['IS', 'the saturation current'],
+  ['BF', 'the forward current gain'],
+  ['VAF', 'the forward Early voltage; write VAF=0 for none'],
+];
+
+function isParameterName(text: string): boolean {
+  if (!isLetter(text[0] ?? '')) return false;
+  for (let i = 1; i < text.length; i += 1) if (!(isLetter(text[i]) || isDigit(text[i]) || text[i] === '_')) return false;
+  return true;
+}
+
+function isModelName(text: string): boolean {
+  if (text.length === 0 || text.length > MODEL_NAME_MAX_LENGTH) return false;
+  const c0 = text[0];
+  if (!(isLetter(c0) || isDigit(c0) || c0 === '_')) return false;
+  for (let i = 1; i < text.length; i += 1) {
+    const c = text[i];
+    if (!(isLetter(c) || isDigit(c) || c === '_' || c === '.' || c === '-' || c === '+')) return false;
+  }
+  return true;
+}
+
+const formatNumber = (value: number) => String(value);
+
+/** Reads one `.model` statement; null when it has a problem (reported). */
+function readModel(statement: Statement, problems: Problems): ModelCard | null {
+  const [, nameToken, typeToken, ...rest] = statement.tokens;
+  const at = statement.line;
+  if (!nameToken || nameToken.kind !== 'word') {
+    problems.add(at, 'The .model card has no model name: write .model NAME NPN (IS=… BF=… VAF=…).');
+    return null;
+  }
+  if (!isModelName(nameToken.text)) {
+    problems.add(nameToken.line, `Model name "${shown(nameToken.text)}": use up to ${MODEL_NAME_MAX_LENGTH} letters, digits and _ . - + (starting with a letter, digit or _).`);
+    return null;
+  }
+  const name = nameToken.text;
+  if (!typeToken || typeToken.kind !== 'word') {
+    problems.add(at, `${name}: the card names no device type: write .model ${name} NPN (…).`);
+    return null;
+  }
+  const type = typeToken.text.toUpperCase();
+  if (type === 'PNP') {
+    problems.add(typeToken.line, `${name}: PNP models are not supported; the library holds NPN transistor models only.`);
+    return null;
+  }
+  if (type !== 'NPN') {
+    problems.add(typeToken.line, `${name}: "${shown(typeToken.text)}" models are not supported; the library holds NPN transistor models only.`);
+    return null;
+  }
+
+  const parameters: Record<string, number> = {};
+  const firstLine = new Map<string, number>();
+  const lineOf = new Map<string, number>();
+  let open: Token | null = null;
+  let closed = false;
+  let bad = false;
+  let i = 0;
+  while (i < rest.length) {
+    const token = rest[i];
+    if (closed) {
+      problems.add(token.line, `${name}: "${shown(token.text)}" after the closing parenthesis; the parameters go inside it.`);
+      return null;
+    }
+    if (token.kind === '(') {
+      if (open || Object.keys(parameters).length > 0 || bad) {
+        problems.add(token.line, `${name}: unbalanced parentheses: a "(" inside the parameter list (only one pair around all parameters).`);
+        return null;
+      }
+      open = token;
+      i += 1;
+      continue;
+    }
+    if (token.kind === ')') {
+      if (!open) {
+        problems.add(token.line, `${name}: unbalanced parentheses: ")" without a "(" before it.`);
+        return null;
+      }
+      closed = true;
+      i += 1;
+      continue;
+    }
+    if (token.kind === '=') {
+      problems.add(token.line, `${name}: "=" without a parameter name before it.`);
+      return null;
+    }
+    const written = token.text;
+    const equals = rest[i + 1];
+    const valueToken = rest[i + 2];
+    if (!isParameterName(written)) {
+      problems.add(token.line, `${name}: "${shown(written)}" is not a parameter name (a letter, then letters, digits or _).`);
+      return null;
+    }
+    if (!equals || equals.kind !== '=') {
+      problems.add(token.line, `${name}: ${written} has no value: write ${written}=value.`);
+      return null;
+    }
+    if (!valueToken || valueToken.kind !== 'word') {
+      problems.add(equals.line, `${name}: ${written}= has no value after it.`);
+      return null;
+    }
+    i += 3;
+    const key = ALIASES[written.toUpperCase()] ?? written.toUpperCase();
+    const value = parseSpiceValue(valueToken.text);
+    if (value === null) {
+      problems.add(valueToken.line, `${name}: ${written}=${shown(valueToken.text)} is not a SPICE number (digits, an optional exponent, then a scale factor T G MEG K M MIL U N P F).`);
+      bad = true;
+      continue;
+    }
+    const earlier = firstLine.get(key);
+    if (earlier !== undefined) {
+      problems.add(token.line, `${name}: ${key} is given twice (first on line ${earlier}).`);
+      bad = true;
+      continue;
+    }
+    firstLine.set(key, token.line);
+    lineOf.set(key, valueToken.line);
+    parameters[key] = value;
+    if (firstLine.size > CARD_MAX_PARAMETERS) {
+      problems.add(token.line, `${name}: more than ${CARD_MAX_PARAMETERS} parameters on one card.`);
+      return null;
+    }
+  }
+  if (open && !closed) {
+    problems.add(open.line, `${name}: unbalanced parentheses: the "(" on line ${open.line} is never closed (the card ends on line ${statement.lastLine}).`);
+    return null;
+  }
+  if (bad) return null;
+
+  const before = problems.count;
+  const level = parameters.LEVEL;
+  if (level !== undefined && level !== 1) {
+    problems.add(lineOf.get('LEVEL'), `${name}: LEVEL=${formatNumber(level)} selects another transistor model; only SPICE's Gummel-Poon model (LEVEL=1, the default) is supported.`);
+  }
+  for (const [key, what] of REQUIRED) {
+    if (parameters[key] === undefined) problems.add(at, `${name}: ${key} is missing (${what}); the engine needs IS, BF and VAF.`);
+  }
+  const check = (key: 'IS' | 'BF', unit: string) => {
+    const value = parameters[key];
+    const { minimum, maximum } = LIMITS[key];
+    if (value !== undefined && !(value >= minimum && value <= maximum)) {
+      problems.add(lineOf.get(key), `${name}: ${key}=${formatNumber(value)}${unit} is outside what a spec accepts (${formatNumber(minimum)}${unit} to ${formatNumber(maximum)}${unit}).`);
+    }
+  };
+  check('IS', ' A');
+  check('BF', '');
+  const vaf = parameters.VAF;
+  if (vaf !== undefined && vaf !== 0 && !(vaf >= LIMITS.VAF_GAP && vaf <= LIMITS.VAF.maximum)) {
+    problems.add(lineOf.get('VAF'), `${name}: VAF=${formatNumber(vaf)} V is outside what a spec accepts (0 for none, or ${LIMITS.VAF_GAP} V to ${LIMITS.VAF.maximum} V).`);
+  }
+  if (problems.count > before) return null;
+  return { name, line: at, lastLine: statement.lastLine, parameters, text: statement.lines.join('\n') };
+}
+
+/**
+ * Reads the `.model` cards of a library file's text. All or nothing: any problem and the
+ * result is the problems (sorted by line, at most 50 listed), never a partial list of cards.
+ */
+export function parseModelCards(text: string): ModelFileResult {
+  const problems = new Problems();
+  const statements: Statement[] = [];
+  let current: Statement | null = null;
+  let endLine: number | null = null;
+  let skipUntil: string | null = null;
+  const lines = splitLines(text);
+
+  for (let index = 0; index < lines.length; index += 1) {
+    const number = index + 1;
+    const raw = lines[index];
+    let start = 0;
+    while (start < raw.length && isBlank(raw[start])) start += 1;
+    if (start === raw.length || raw[start] === '*') continue;
+    const content = withoutComment(raw.slice(start));
+    if (content.trim() === '') continue;
+    const first = content[0];
+
+    if (skipUntil !== null) {
+      if (first === '.' && content.slice(0, skipUntil.length).toLowerCase() === skipUntil) skipUntil = null;
+      continue;
+    }
+    if (endLine !== null) {
+      problems.add(number, `Nothing may follow .end (line ${endLine}) but comments.`);
+      continue;
+    }
+    if (first === '+') {
+      if (!current) {
+        problems.add(number, 'A continuation line (+) with no .model card before it.');
+        continue;
+      }
+      current.lastLine = number;
+      current.lines.push(raw.trimEnd());
+      if (!current.broken && !tokenize(content.slice(1), number, current.tokens, problems)) current.broken = true;
+      continue;
+    }
+    current = null;
+    if (first !== '.') {
+      problems.add(number, `Only .model cards and comments are accepted; "${shown(content.trim().split(' ')[0])}" looks like a circuit element line.`);
+      continue;
+    }
+    const statement: Statement = { line: number, lastLine: number, tokens: [], lines: [raw.trimEnd()], broken: false };
+    if (!tokenize(content, number, statement.tokens, problems)) statement.broken = true;
+    const keyword = (statement.tokens[0]?.text ?? content.trim()).toLowerCase();
+    if (keyword === '.model') {
+      statements.push(statement);
+      current = statement;
+    } else if (keyword === '.end') {
+      endLine = number;
+    } else {
+      if (!statement.broken) problems.add(number, unsupportedCard(keyword));
+      skipUntil = BLOCK_ENDS[keyword] ?? null;
+      // A refused card's + lines belong to it: they are not reported again.
+      current = { ...statement, broken: true };
+    }
+  }
+
+  const cards: ModelCard[] = [];
+  const seen = new Map<string, number>();
+  for (const statement of statements) {
+    if (statement.broken) continue;
+    const card = readModel(statement, problems);
+    if (!card) continue;
+    const key = card.name.toLowerCase();
+    const earlier = seen.get(key);
+    if (earlier !== undefined) {
+      problems.add(card.line, `${card.name}: a second card of this name (the first is on line ${earlier}); names are case-insensitive in SPICE.`);
+      continue;
+    }
+    seen.set(key, card.line);
+    cards.push(card);
+  }
+  if (statements.length > MODEL_FILE_MAX_CARDS) {
+    problems.add(statements[MODEL_FILE_MAX_CARDS].line, `More than ${MODEL_FILE_MAX_CARDS} .model cards in one file: split it.`);
+  }
+  if (problems.count === 0 && cards.length === 0) problems.add(undefined, 'The file holds no .model card.');
+  return problems.count > 0 ? { ok: false, problems: problems.result() } : { ok: true, cards };
+}
+
+/** Checks the bytes (`decodeModelFile`), then reads the cards (`parseModelCards`). */
+export function readModelFile(bytes: Uint8Array): ModelFileResult {
+  const decoded = decodeModelFile(bytes);
+  return decoded.ok ? parseModelCards(decoded.text) : decoded;
+}
+
+// ---------------------------------------------------------------------------------------------
+// What the product does with a card
+
+/** The spec's device fields a card fills (IS, BF, VAF; a parsed card always has them). */
+export function cardDevice(parameters: Readonly<Record<string, number>>): CardDevice {
+  return { family: 'npn', beta: parameters.BF, saturationCurrentA: parameters.IS, earlyVoltageV: parameters.VAF };
+}
+
+/** The parameters the engine reads or whose SPICE default it matches. */
+const MODELLED = new Set(['IS', 'BF', 'VAF', 'LEVEL']);
+
+/** What a reader should know about how the engine uses a card. */
+export function cardNotes(parameters: Readonly<Record<string, number>>): string[] {
+  const notes: string[] = [];
+  const others = Object.keys(parameters).filter((key) => !MODELLED.has(key));
+  if (others.length > 0) {
+    const listed = others.length > 8 ? `${others.slice(0, 8).join(', ')}, …` : others.join(', ');
+    notes.push(
+      `The engine models IS, BF and VAF with BR = 1; the card's ${others.length} other parameter${others.length === 1 ? '' : 's'} (${listed}) ${others.length === 1 ? 'is' : 'are'} kept with the card but not used, so a simulation with the full card will differ from the estimates.`,
+    );
+  }
+  const br = parameters.BR;
+  if (br !== undefined && br !== 1) notes.push(`BR = ${formatNumber(br)} in the card; the engine uses BR = 1 (the reverse gain matters only in saturation).`);
+  const tnom = parameters.TNOM;
+  if (tnom !== undefined && tnom !== 27) notes.push(`TNOM = ${formatNumber(tnom)} °C in the card; the engine reads IS as its value at 27 °C.`);
+  return notes;
+}
+
+/** Where a stored card came from, for the exported netlist's comment. */
+export interface CardOrigin {
+  name: string;
+  fileName: string;
+  checksum: string;
+  text: string;
+}
+
+/**
+ * Comment lines for an exported netlist: the library card the device came from, every line
+ * behind `* ` so SPICE never reads it. The netlist keeps the engine's own `.model` card (IS, BF,
+ * VAF), so the simulation agrees with the estimates; the original card is there to swap in by hand.
+ */
+export function cardCommentLines(origin: CardOrigin): string[] {
+  return [
+    `* Device from the project's library: ${origin.name} (file ${origin.fileName}, sha256 ${origin.checksum.slice(0, 16)}…).`,
+    '* The .model card below keeps the engine\'s IS, BF and VAF only, so SPICE solves what the engine estimated.',
+    '* The original card, for a simulation with every parameter (results will then differ from the estimates):',
+    ...splitLines(origin.text).map((line) => `*   ${line}`),
+  ];
+}

@@ -1,0 +1,67 @@
+/**
+ * A batch's results as CSV (RFC 4180, through the ranking table's field writer): one row per
+ * proposal (one per spec of an import), with the figures of the recommended option, or of the
+ * first-ranked option when none passes. SI units in the headers; figures are estimates to
+ * confirm by simulation and bench measurement.
+ */
+import type { RecommendResult } from '../engine/recommend';
+import { csvField } from './ranking-csv';
+
+/** What the table needs of one proposal. */
+export interface BatchResultInput {
+  specTitle: string;
+  specVersion: number;
+  proposalId: number;
+  status: string;
+  result: RecommendResult;
+}
+
+export const BATCH_CSV_HEADER = [
+  'spec_title',
+  'spec_version',
+  'proposal_id',
+  'state',
+  'recommended_topology',
+  'figures_of_topology',
+  'passes',
+  'rejection_db',
+  'tail_current_a',
+  'gain_v_per_v',
+  'power_worst_w',
+] as const;
+
+/**
+ * Text that a spreadsheet would run as a formula (it starts with =, +, -, @ or a tab or carriage
+ * return) gets a leading apostrophe, as OWASP's CSV-injection advice has it; other text is unchanged.
+ */
+export function spreadsheetSafe(text: string): string {
+  return /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
+}
+
+/** The option whose figures a row shows: the recommended one, else the first ranked. */
+function shownOption(result: RecommendResult) {
+  return result.options.find((o) => o.topology === result.recommended) ?? result.options.find((o) => o.rank === 1) ?? result.options[0];
+}
+
+/** One row per proposal, in the order given, with the header row. */
+export function batchResultsCsv(items: readonly BatchResultInput[]): string {
+  const rows: string[] = [BATCH_CSV_HEADER.join(',')];
+  for (const item of items) {
+    const option = shownOption(item.result);
+    const values = [
+      spreadsheetSafe(item.specTitle),
+      item.specVersion,
+      item.proposalId,
+      item.status,
+      item.result.recommended ?? '',
+      option?.topology,
+      option?.passes,
+      option?.rejectionDb,
+      option?.predicted?.tailCurrentA,
+      option?.figures?.gainPredicted,
+      option?.figures?.powerWorstW,
+    ];
+    rows.push(values.map(csvField).join(','));
+  }
+  return `${rows.join('\r\n')}\r\n`;
+}

@@ -1,0 +1,267 @@
+/**
+ * SPICE verification jobs through the API: every option of several proposals of the demo
+ * scenario simulated in ngspice (eecircuit-engine) and held to the agreement tolerances of the
+ * engine's issue (currents 3 %, gains 5 %, single-ended CMRR 1.5 dB, differential CMRR 2 dB,
+ * tail output resistance 20 %, corner frequency 20 %, power 5 %; node voltages 50 mV, common
+ * practice for a DC bias check); a deliberately broken netlist, a run past its time limit, a
+ * server restart mid-job, SPICE Monte Carlo, and the request rules.
+ */
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { SpiceEngine } from '../../api/verification/spice-engine';
+import type {
+  MonteCarloVerificationResult,
+  ProposalVerificationResult,
+  VerificationJobView,
+  VerificationStatus,
+  VerifiedFigure,
+} from '../../shared/verification/types';
+import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
+
+/** The tolerances as the engine's issue states them (not read from the product's constant). */
+const ISSUE_TOLERANCE: Record<string, { percent?: number; absolute?: number }> = {
+  tailCurrentA: { percent: 3 },
+  collectorCurrentA: { percent: 3 },
+  differentialGain: { percent: 5 },
+  singleEndedGain: { percent: 5 },
+  commonModeGain: { percent: 5 },
+  gain: { percent: 5 },
+  cmrrSingleEndedDb: { absolute: 1.5 },
+  cmrrAtFrequencyDb: { absolute: 1.5 },
+  tailOutputResistanceOhm: { percent: 20 },
+  cmrrCornerHz: { percent: 20 },
+  powerW: { percent: 5 },
+  collectorVoltageV: { absolute: 0.05 },
+  tailNodeVoltageV: { absolute: 0.05 },
+};
+
+const demoSpec = (file: string) => JSON.parse(readFileSync(new URL(`../../api/demo/specs/${file}`, import.meta.url), 'utf8')) as Record<string, unknown>;
+
+/** Checks a figure against the issue's tolerance, computing the difference here from the stored values. */
+function expectWithinIssueTolerance(figure: VerifiedFigure, where: string): void {
+  const tolerance = ISSUE_TOLERANCE[figure.key];
+  expect(tolerance, `${where}: ${figure.key} has a tolerance in the issue`).toBeDefined();
+  if (figure.predicted === null || figure.simulated === null) {
+    expect(figure.agrees, `${where}: ${figure.key} without both sides has no verdict`).toBeNull();
+    return;
+  }
+  const difference = figure.predicted - figure.simulated;
+  if (tolerance.percent !== undefined) {
+    expect(Math.abs(difference / figure.simulated) * 100, `${where}: ${figure.label}`).toBeLessThanOrEqual(tolerance.percent);
+  } else {
+    expect(Math.abs(difference), `${where}: ${figure.label}`).toBeLessThanOrEqual(tolerance.absolute!);
+  }
+  expect(figure.agrees, `${where}: ${figure.label} marked as agreeing`).toBe(true);
+}
+
+async function settled(client: ApiClient, proposalId: number, pick: (s: VerificationStatus) => VerificationJobView | null | undefined, timeoutMs = 90_000) {
+  const t0 = Date.now();
+  const seen: VerificationJobView[] = [];
+  for (;;) {
+    const status = (await client.get(`/api/proposals/${proposalId}/verification`).expect(200)).body as VerificationStatus;
+    const job = pick(status);
+    if (job) seen.push(job);
+    if (job && ['finished', 'stopped', 'failed'].includes(job.state)) return { job, seen };
+    if (Date.now() - t0 > timeoutMs) throw new Error(`job not settled: ${JSON.stringify(job)}`);
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}
+
+describe('verification of every option of the demo proposals', () => {
+  let api: TestApi;
+  let reviewer: ApiClient;
+  const proposals: { file: string; id: number; optionCount: number }[] = [];
+
+  beforeAll(async () => {
+    api = await buildApiApp();
+    reviewer = await api.agentFor('reviewer');
+    const project = await api.createProject();
+    for (const file of ['strain-bridge-receiver.json', 'studio-line-receiver.json', 'electrode-amplifier-input.json']) {
+      const payload = demoSpec(file);
+      const spec = await api.createSpec(project.id, { payload, title: String(payload.title) });
+      const proposal = await api.createProposal(spec.id);
+      proposals.push({ file, id: proposal.id, optionCount: proposal.result.options.length });
+    }
+  }, 60_000);
+  afterAll(() => api.close());
+
+  it('completes for each proposal with every option simulated and agreeing within the tolerances', async () => {
+    for (const proposal of proposals) {
+      const asked = await reviewer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
+      expect(asked.body).toMatchObject({ kind: 'proposal', state: 'waiting', requestedBy: { id: api.users.reviewer.id } });
+      const { job, seen } = await settled(reviewer, proposal.id, (s) => s.verification);
+      expect(job.state, proposal.file).toBe('finished');
+      expect(job.done).toBe(job.total);
+      expect(job.total).toBeGreaterThan(0);
+      expect(seen.some((j) => j.state === 'simulating' && j.step !== null), 'progress with a step was reported').toBe(true);
+      const result = job.result as ProposalVerificationResult;
+      expect(result.simulator).toMatch(/^ngspice-\d+/);
+      expect(result.options).toHaveLength(proposal.optionCount);
+      for (const option of result.options) {
+        const where = `${proposal.file} ${option.topology}`;
+        expect(option.outcome, `${where}: ${option.error}`).toBe('verified');
+        expect(option.nominal!.figures.length).toBeGreaterThanOrEqual(10);
+        expect(option.corners).toHaveLength(4);
+        for (const condition of [option.nominal!, ...option.corners]) {
+          for (const figure of condition.figures) expectWithinIssueTolerance(figure, `${where} ${condition.label}`);
+        }
+        expect(option.agrees).toBe(true);
+        // The simulated curve starts at 1 Hz and runs past 10 MHz, where the engine's curve stops.
+        expect(option.rejectionCurve[0].frequencyHz).toBeCloseTo(1, 6);
+        expect(option.rejectionCurve.at(-1)!.frequencyHz).toBeGreaterThanOrEqual(1e9 * 0.999);
+        const overlaid = option.rejectionCurve.filter((p) => p.predictedDb !== null);
+        expect(overlaid.length).toBeGreaterThanOrEqual(25);
+        for (const point of overlaid) expect(Math.abs(point.predictedDb! - point.simulatedDb), `${where} at ${point.frequencyHz} Hz`).toBeLessThanOrEqual(1.5);
+      }
+    }
+  }, 180_000);
+
+  it('stores the verification with the proposal export', async () => {
+    const exported = await reviewer.get(`/api/proposals/${proposals[0].id}/export.json`).expect(200);
+    const body = JSON.parse(exported.text);
+    expect(body.verification.verification.state).toBe('finished');
+    expect(body.verification.verification.result.options).toHaveLength(proposals[0].optionCount);
+  });
+
+  it('gives back the job already waiting or simulating instead of a second one', async () => {
+    const designer = await api.agentFor('designer');
+    const [first, second] = await Promise.all([
+      designer.post(`/api/proposals/${proposals[1].id}/verification`),
+      reviewer.post(`/api/proposals/${proposals[1].id}/verification`),
+    ]);
+    expect([first.status, second.status]).toEqual([202, 202]);
+    expect(first.body.id).toBe(second.body.id);
+    await settled(reviewer, proposals[1].id, (s) => s.verification);
+  }, 60_000);
+
+  it('runs a SPICE Monte Carlo of one option next to the closed-form one on the same draws', async () => {
+    const bridge = proposals[0];
+    const asked = await reviewer.post(`/api/proposals/${bridge.id}/verification/monte-carlo`).send({ topology: 'wilson', runs: 40 }).expect(202);
+    expect(asked.body).toMatchObject({ kind: 'monte-carlo', topology: 'wilson', runs: 40, total: 40 });
+    const { job } = await settled(reviewer, bridge.id, (s) => s.monteCarlo.find((j) => j.topology === 'wilson'));
+    expect(job.state).toBe('finished');
+    const result = job.result as MonteCarloVerificationResult;
+    expect(result.failedRuns).toBe(0);
+    expect(result.simulatedDb).toHaveLength(40);
+    expect(result.predictedDb).toHaveLength(40);
+    // Same draws: the medians agree within the issue's 2 dB for differential CMRR.
+    expect(Math.abs(result.simulated.percentilesDb.p50 - result.predicted.percentilesDb.p50)).toBeLessThanOrEqual(2);
+    const histogramTotal = (counts: number[]) => counts.reduce((a, b) => a + b, 0);
+    expect(histogramTotal(result.histogram.simulatedCounts)).toBe(40);
+    expect(histogramTotal(result.histogram.predictedCounts)).toBe(40);
+    expect(result.histogram.binEdgesDb).toHaveLength(result.histogram.simulatedCounts.length + 1);
+  }, 90_000);
+
+  it('refuses a Monte Carlo for a single-ended output with the reason', async () => {
+    const line = proposals[1];
+    const refused = await reviewer.post(`/api/proposals/${line.id}/verification/monte-carlo`).send({ topology: 'wilson' }).expect(409);
+    expect(refused.body.error).toMatch(/single-ended/);
+  });
+
+  it('refuses Monte Carlo requests outside the limits', async () => {
+    await reviewer.post(`/api/proposals/${proposals[0].id}/verification/monte-carlo`).send({ topology: 'wilson', runs: 5 }).expect(400);
+    await reviewer.post(`/api/proposals/${proposals[0].id}/verification/monte-carlo`).send({ topology: 'tube', runs: 50 }).expect(400);
+    await reviewer.post(`/api/proposals/${proposals[0].id}/verification/monte-carlo`).send({}).expect(400);
+  });
+
+  it('lets the requirements author read results but not ask for a run', async () => {
+    const author = await api.agentFor('requirements');
+    await author.post(`/api/proposals/${proposals[0].id}/verification`).expect(403);
+    const status = await author.get(`/api/proposals/${proposals[0].id}/verification`).expect(200);
+    expect(status.body.verification.state).toBe('finished');
+  });
+});
+
+describe('a failing simulation', () => {
+  let api: TestApi;
+  afterAll(() => api?.close());
+
+  it('becomes an error on that option and the job still finishes', async () => {
+    // The Wilson option's transistors refer to a model that does not exist: ngspice cannot run it.
+    api = await buildApiApp({
+      accounts: ['admin', 'requirements', 'designer', 'reviewer'],
+      verification: { netlistHook: (topology, netlist) => (topology === 'wilson' ? netlist.replace(/^(Q\S* \S+ \S+ \S+ )QNPN\b/gm, '$1QMISSING') : netlist) },
+    });
+    const project = await api.createProject(['requirements', 'designer', 'reviewer']);
+    const spec = await api.createSpec(project.id, { payload: demoSpec('electrode-amplifier-input.json'), title: 'Electrode input' });
+    const proposal = await api.createProposal(spec.id);
+    const designer = await api.agentFor('designer');
+    await designer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
+    const { job } = await settled(designer, proposal.id, (s) => s.verification);
+    expect(job.state).toBe('finished');
+    const options = (job.result as ProposalVerificationResult).options;
+    const wilson = options.find((o) => o.topology === 'wilson')!;
+    expect(wilson.outcome).toBe('error');
+    expect(wilson.error).toMatch(/ngspice/i);
+    expect(wilson.error).toMatch(/qmissing/i);
+    expect(wilson.nominal).toBeNull();
+    for (const other of options.filter((o) => o.topology !== 'wilson')) expect(other.outcome, other.topology).toBe('verified');
+  }, 90_000);
+});
+
+describe('the time limit per analysis', () => {
+  let api: TestApi;
+  afterAll(() => api?.close());
+
+  it('stops an analysis past it and reports it on the option', async () => {
+    api = await buildApiApp({ accounts: ['admin', 'requirements', 'designer', 'reviewer'], verification: { engine: new SpiceEngine(0) } });
+    const project = await api.createProject(['requirements', 'designer', 'reviewer']);
+    const payload = { ...demoSpec('studio-line-receiver.json'), topologies: ['resistor', 'simple-mirror'] };
+    const spec = await api.createSpec(project.id, { payload, title: 'Line receiver, two options' });
+    const proposal = await api.createProposal(spec.id);
+    const reviewer = await api.agentFor('reviewer');
+    await reviewer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
+    const { job } = await settled(reviewer, proposal.id, (s) => s.verification);
+    expect(job.state).toBe('finished');
+    for (const option of (job.result as ProposalVerificationResult).options) {
+      expect(option.outcome).toBe('error');
+      expect(option.error).toMatch(/time limit/);
+    }
+  }, 90_000);
+});
+
+describe('a server restart while a job simulates', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'longtail-verification-'));
+  const databasePath = join(dir, 'longtail.sqlite');
+  let first: TestApi;
+  let second: TestApi;
+  afterAll(async () => {
+    await first?.close();
+    await second?.close();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('marks the job stopped, keeps it so, and lets it be asked for again', async () => {
+    first = await buildApiApp({ databasePath, accounts: ['admin', 'requirements', 'designer', 'reviewer'] });
+    const project = await first.createProject(['requirements', 'designer', 'reviewer']);
+    const spec = await first.createSpec(project.id, { payload: demoSpec('strain-bridge-receiver.json'), title: 'Bridge' });
+    const proposal = await first.createProposal(spec.id);
+    const reviewer = await first.agentFor('reviewer');
+    await reviewer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
+    // Wait until it is simulating, then start a second server on the same database file.
+    for (let i = 0; ; i += 1) {
+      const status = (await reviewer.get(`/api/proposals/${proposal.id}/verification`).expect(200)).body as VerificationStatus;
+      if (status.verification?.state === 'simulating') break;
+      if (i > 400) throw new Error('never simulating');
+      await new Promise((r) => setTimeout(r, 10));
+    }
+    second = await buildApiApp({ databasePath, accounts: [] });
+    await second.app.verification.ready;
+    const reviewerAgain = await second.agentFor('reviewer');
+    const after = (await reviewerAgain.get(`/api/proposals/${proposal.id}/verification`).expect(200)).body as VerificationStatus;
+    expect(after.verification!.state).toBe('stopped');
+    expect(after.verification!.message).toMatch(/server stopped/i);
+    // The first server, still running its copy, must not overwrite the stopped job.
+    await first.app.verification.idle();
+    const still = (await reviewerAgain.get(`/api/proposals/${proposal.id}/verification`).expect(200)).body as VerificationStatus;
+    expect(still.verification!.state).toBe('stopped');
+    expect(still.verification!.result).toBeNull();
+    // Asked again, it runs to the end on the second server.
+    const again = await reviewerAgain.post(`/api/proposals/${proposal.id}/verification`).expect(202);
+    expect(again.body.id).not.toBe(after.verification!.id);
+    const { job } = await settled(reviewerAgain, proposal.id, (s) => s.verification);
+    expect(job.state).toBe('finished');
+  }, 120_000);
+});

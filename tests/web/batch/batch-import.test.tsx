@@ -1,0 +1,212 @@
+// @vitest-environment jsdom
+/**
+ * The batch import page's client side: the check report as a table (row numbers, valid rows
+ * marked, one line per problem with its column), then save, rank one spec after another with a
+ * progress bar, and the batch CSV link. The server is a fetch stub answering invented reports.
+ */
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { cleanup, configure, render, screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { MemoryRouter } from 'react-router-dom';
+import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
+import type { ImportReport } from '../../../web/src/features/batch/api/batch-api';
+import { BatchImport } from '../../../web/src/features/batch/components/batch-import';
+import { ImportReportTable } from '../../../web/src/features/batch/components/import-report-table';
+import { rankInTurn } from '../../../web/src/features/batch/lib/rank-in-turn';
+
+configure({ asyncUtilTimeout: 5000 });
+
+/** An invented check of a four-row file: rows 2 and 5 valid, 3 with two problems, 4 with one. */
+function report(dryRun: boolean): ImportReport {
+  return {
+    fileName: 'tarn-batch.csv',
+    format: 'csv',
+    dryRun,
+    total: 4,
+    valid: 2,
+    counts: { created: 1, 'new-version': 1, unchanged: 0, skipped: 2 },
+    headerErrors: [{ row: 1, field: 'colour', message: 'is not a known column (column F); check its spelling against the template' }],
+    rows: [
+      { row: 2, title: 'Tarn probe — channel A', ok: true, errors: [], action: 'created', specId: dryRun ? null : 21, version: dryRun ? null : 1 },
+      {
+        row: 3,
+        title: 'Tarn probe — channel B',
+        ok: false,
+        errors: [
+          { row: 3, field: 'supply.positiveV', message: '"12 A" has an unexpected unit "A": expected V' },
+          { row: 3, field: 'cmrr.minDb', message: 'must be >= 0 dB, got -3 dB' },
+        ],
+        action: 'skipped',
+        specId: null,
+        version: null,
+      },
+      { row: 4, title: null, ok: false, errors: [{ row: 4, field: 'title', message: 'is required' }], action: 'skipped', specId: null, version: null },
+      { row: 5, title: 'Tarn probe — reference', ok: true, errors: [], action: 'new-version', specId: 22, version: 3 },
+    ],
+  };
+}
+
+const json = (status: number, body: unknown) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
+
+let sent: string[];
+let unmocked: string[];
+let uploads: { url: string; fileName: string; text: string }[];
+let rankAnswers: Map<number, { resolve: () => void; promise: Promise<Response> }>;
+
+function deferredRanking(specId: number, proposalId: number, recommendedTopology: string | null) {
+  let resolve!: () => void;
+  const promise = new Promise<Response>((done) => {
+    resolve = () => done(json(201, { id: proposalId, specId, recommendedTopology, status: 'ranked' }));
+  });
+  rankAnswers.set(specId, { resolve, promise });
+}
+
+beforeEach(() => {
+  sent = [];
+  unmocked = [];
+  uploads = [];
+  rankAnswers = new Map();
+  vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
+    const url = String(input);
+    const key = `${init?.method ?? 'GET'} ${url}`;
+    sent.push(key);
+    if (key === 'GET /api/auth/csrf') return json(200, { token: 't' });
+    if (key.startsWith('POST /api/projects/1/specs/import')) {
+      const file = (init?.body as FormData).get('file') as File;
+      uploads.push({ url, fileName: file.name, text: await file.text() });
+      return json(200, report(url.endsWith('?dryRun=true') === true));
+    }
+    const rank = /^POST \/api\/specs\/(\d+)\/proposals$/.exec(key);
+    if (rank && rankAnswers.has(Number(rank[1]))) return rankAnswers.get(Number(rank[1]))!.promise;
+    unmocked.push(key);
+    return json(599, { error: 'not mocked' });
+  });
+});
+
+afterEach(() => {
+  cleanup();
+  vi.unstubAllGlobals();
+  expect(unmocked, 'requests nobody mocked').toEqual([]);
+});
+
+function renderWithProviders(ui: React.ReactNode) {
+  const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false }, mutations: { retry: false } } });
+  render(
+    <QueryClientProvider client={queryClient}>
+      <MemoryRouter>{ui}</MemoryRouter>
+    </QueryClientProvider>,
+  );
+}
+
+/** Each body row's visible cells, as text. */
+function bodyRows(table: HTMLElement): string[][] {
+  return within(table)
+    .getAllByRole('row')
+    .slice(1)
+    .map((tr) => within(tr).getAllByRole('cell').map((td) => td.textContent ?? ''));
+}
+
+describe('the check report table', () => {
+  test('when a dry run is shown, then each row has its number and status, valid rows say what saving does, and each problem has its own line', () => {
+    renderWithProviders(<ImportReportTable report={report(true)} />);
+
+    const table = screen.getByRole('table', { name: 'Check of tarn-batch.csv: 2 of 4 specs valid' });
+    expect(bodyRows(table)).toEqual([
+      ['2', 'Tarn probe — channel A', '✓Valid', '', 'New spec'],
+      ['3', 'Tarn probe — channel B', '✕2 problems', 'supply.positiveV', '"12 A" has an unexpected unit "A": expected V'],
+      ['cmrr.minDb', 'must be >= 0 dB, got -3 dB'],
+      ['4', 'no title', '✕1 problem', 'title', 'is required'],
+      ['5', 'Tarn probe — reference', '✓Valid', '', 'New version (v3)'],
+    ]);
+    expect(within(screen.getByRole('note', { name: 'Header problems' })).getByText(/is not a known column \(column F\)/)).toBeTruthy();
+  });
+
+  test('when only problems are asked for, then the valid rows are left out', () => {
+    renderWithProviders(<ImportReportTable report={report(true)} showOnlyProblems />);
+    expect(bodyRows(screen.getByRole('table')).map((cells) => cells[0])).toEqual(['3', 'cmrr.minDb', '4']);
+  });
+
+  test('when the saved report is shown, then saved specs link to their pages', () => {
+    renderWithProviders(<ImportReportTable report={report(false)} />);
+    expect(screen.getByRole('link', { name: 'Tarn probe — reference' }).getAttribute('href')).toBe('/specs/22');
+    expect(bodyRows(screen.getByRole('table'))[0][4]).toBe('Created (v1)');
+  });
+});
+
+describe('the batch flow', () => {
+  test('when a file is chosen, saved and ranked, then the check comes first, specs are ranked one at a time with progress, and the CSV link names the proposals', async () => {
+    const user = userEvent.setup();
+    renderWithProviders(<BatchImport projectId={1} canRank />);
+
+    await user.upload(screen.getByLabelText('Spec file (CSV or JSON, up to 1 MB)'), new File(['title,gain.target\r\nTarn probe,20\r\n'], 'tarn-batch.csv', { type: 'text/csv' }));
+
+    expect(await screen.findByRole('table', { name: /Check of tarn-batch.csv/ })).toBeTruthy();
+    expect(uploads).toEqual([{ url: '/api/projects/1/specs/import?dryRun=true', fileName: 'tarn-batch.csv', text: 'title,gain.target\r\nTarn probe,20\r\n' }]);
+
+    await user.click(screen.getByRole('button', { name: 'Save 2 valid specs' }));
+    expect(await screen.findByText(/Saved in one go: 1 new spec, 1 new version; 0 unchanged, 2 skipped/)).toBeTruthy();
+    expect(uploads.map((u) => u.url)).toEqual(['/api/projects/1/specs/import?dryRun=true', '/api/projects/1/specs/import']);
+
+    deferredRanking(21, 31, 'wilson');
+    deferredRanking(22, 32, null);
+    await user.click(screen.getByRole('button', { name: 'Rank all 2 imported specs' }));
+
+    expect(await screen.findByText('Tarn probe — channel A', { selector: 'span' })).toBeTruthy();
+    const bar = screen.getByRole('progressbar', { name: 'Ranking progress' }) as HTMLProgressElement;
+    expect([bar.value, bar.max]).toEqual([0, 2]);
+    expect(sent.filter((k) => k.includes('/proposals'))).toEqual(['POST /api/specs/21/proposals']); // one at a time
+    rankAnswers.get(21)!.resolve();
+
+    expect(await screen.findByText('Tarn probe — reference', { selector: 'span' })).toBeTruthy();
+    expect(bar.value).toBe(1);
+    rankAnswers.get(22)!.resolve();
+
+    const link = await screen.findByRole('link', { name: 'Download the batch results (CSV)' });
+    expect(link.getAttribute('href')).toBe('/api/projects/1/proposals.csv?ids=31,32');
+    expect(screen.getByText(/^Ranked 2 of 2\.$/)).toBeTruthy();
+    expect(bodyRows(screen.getByRole('table', { name: 'Rankings of the imported specs' }))).toEqual([
+      ['Tarn probe — channel A', '#31', 'Wilson mirror'],
+      ['Tarn probe — reference', '#32', 'No option passes'],
+    ]);
+    expect(screen.getByText(/estimates; confirm them by SPICE simulation and bench measurement/)).toBeTruthy();
+  });
+
+  test('when a file over 1 MB is chosen, then it is refused in the browser and nothing is sent', async () => {
+    const user = userEvent.setup();
+    renderWithProviders(<BatchImport projectId={1} canRank />);
+
+    await user.upload(screen.getByLabelText('Spec file (CSV or JSON, up to 1 MB)'), new File([new Uint8Array(1024 * 1024 + 10)], 'huge.csv', { type: 'text/csv' }));
+
+    expect((await screen.findByRole('alert')).textContent).toMatch(/huge.csv is 1.0 MB; a file may be at most 1 MB/);
+    expect(uploads).toEqual([]);
+  });
+});
+
+describe('rankInTurn', () => {
+  test('when one ranking fails, then the next still runs, and a stop request ends the run between specs', async () => {
+    const calls: number[] = [];
+    let stopAfter = Infinity;
+    const outcomes = await rankInTurn(
+      [
+        { specId: 1, title: 'A' },
+        { specId: 2, title: 'B' },
+        { specId: 3, title: 'C' },
+        { specId: 4, title: 'D' },
+      ],
+      async (specId) => {
+        calls.push(specId);
+        if (specId === 2) throw new Error('engine busy');
+        if (specId === 3) stopAfter = 3;
+        return { id: specId * 10 };
+      },
+      { shouldStop: () => calls.length >= stopAfter },
+    );
+
+    expect(calls).toEqual([1, 2, 3]);
+    expect(outcomes.map((o) => [o.item.title, o.proposal?.id ?? null, o.error ?? null])).toEqual([
+      ['A', 10, null],
+      ['B', null, 'engine busy'],
+      ['C', 30, null],
+    ]);
+  });
+});

@@ -1,0 +1,134 @@
+// @vitest-environment jsdom
+/**
+ * The project page's device library: the cards listed with their figures in engineering
+ * notation, the upload control only for the roles that may upload, the file sent as multipart
+ * with the CSRF token, and a refused file's problems shown with their line numbers.
+ * Cards and files are invented.
+ */
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { cleanup, render, screen, waitFor, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { afterEach, describe, expect, test, vi } from 'vitest';
+import type { LibraryDevice } from '../../../web/src/features/devices/api/device-queries';
+import { DeviceLibrary } from '../../../web/src/features/devices/components/device-library';
+
+const N150: LibraryDevice = {
+  id: 1,
+  projectId: 1,
+  name: 'FH-N150',
+  device: { family: 'npn', beta: 150, saturationCurrentA: 1.2e-15, earlyVoltageV: 86 },
+  parameters: { IS: 1.2e-15, BF: 150, VAF: 86, BR: 3.5 },
+  notes: ['BR = 3.5 in the card; the engine uses BR = 1 (the reverse gain matters only in saturation).'],
+  card: '.model FH-N150 NPN (IS=1.2f BF=150 VAF=86 BR=3.5)',
+  line: 2,
+  fileName: 'parts-bin.lib',
+  checksum: 'c'.repeat(64),
+  uploadedBy: { id: 3, displayName: 'Iris Vale' },
+  uploadedAt: '2026-11-02T09:30:00.000Z',
+};
+
+interface Sent {
+  method: string;
+  url: string;
+  headers: Record<string, string>;
+  body: unknown;
+}
+
+let sent: Sent[] = [];
+
+/** The library answers `items`; a POST answers `upload` (status and body). */
+function stubServer(items: LibraryDevice[], upload?: { status: number; body: unknown }) {
+  sent = [];
+  vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
+    const url = String(input);
+    const method = init?.method ?? 'GET';
+    sent.push({ method, url, headers: (init?.headers ?? {}) as Record<string, string>, body: init?.body });
+    const json = (status: number, body: unknown) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
+    if (url === '/api/auth/csrf') return json(200, { token: 'tok-1' });
+    if (method === 'GET' && url === '/api/projects/1/devices') return json(200, { items });
+    if (method === 'POST' && url === '/api/projects/1/devices' && upload) return json(upload.status, upload.body);
+    return json(599, { error: `not mocked: ${method} ${url}` });
+  });
+}
+
+function renderLibrary(canUpload: boolean) {
+  const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+  render(
+    <QueryClientProvider client={queryClient}>
+      <DeviceLibrary projectId={1} canUpload={canUpload} />
+    </QueryClientProvider>,
+  );
+}
+
+afterEach(() => {
+  cleanup();
+  vi.unstubAllGlobals();
+});
+
+describe('DeviceLibrary', () => {
+  test('when the library holds a card, then its row shows the name, IS, BF, VAF in engineering notation, the file and the uploader', async () => {
+    stubServer([N150]);
+    renderLibrary(false);
+    const table = await screen.findByRole('table', { name: 'Device models of this project' });
+    const row = within(table).getAllByRole('row')[1];
+    const cells = within(row).getAllByRole('cell').map((cell) => cell.textContent);
+    expect(cells[0]).toContain('FH-N150');
+    expect(cells[1]).toBe('1.2 fA');
+    expect(cells[2]).toBe('150');
+    expect(cells[3]).toBe('86 V');
+    expect(cells[4]).toContain('parts-bin.lib');
+    expect(cells[5]).toContain('Iris Vale');
+    expect(screen.getByText(/estimates to confirm by simulation and bench measurement/)).toBeTruthy();
+  });
+
+  test('when the role may not upload, then there is no upload control', async () => {
+    stubServer([N150]);
+    renderLibrary(false);
+    await screen.findByRole('table');
+    expect(screen.queryByLabelText('Upload .model cards')).toBeNull();
+  });
+
+  test('when a file is chosen, then it goes as multipart in the field "file" with the CSRF token, and the added cards are named', async () => {
+    stubServer([], { status: 201, body: { items: [N150] } });
+    renderLibrary(true);
+    const input = await screen.findByLabelText('Upload .model cards');
+    const file = new File(['.model FH-N150 NPN (IS=1.2f BF=150 VAF=86 BR=3.5)\n'], 'parts-bin.lib', { type: 'text/plain' });
+
+    await userEvent.upload(input, file);
+
+    expect(await screen.findByText(/Added FH-N150 from parts-bin\.lib\./)).toBeTruthy();
+    const post = sent.find((s) => s.method === 'POST');
+    expect(post?.headers['X-CSRF-Token']).toBe('tok-1');
+    expect(post?.headers['Content-Type']).toBeUndefined(); // the browser writes the multipart boundary
+    expect(post?.body).toBeInstanceOf(FormData);
+    expect(((post?.body as FormData).get('file') as File).name).toBe('parts-bin.lib');
+    // The library is fetched again after the upload
+    await waitFor(() => expect(sent.filter((s) => s.method === 'GET' && s.url === '/api/projects/1/devices')).toHaveLength(2));
+  });
+
+  test('when the server refuses the file, then each problem shows with its line number', async () => {
+    stubServer([], {
+      status: 400,
+      body: {
+        error: 'bad-parts.lib was not saved: 2 problems to fix first.',
+        code: 'invalid-request',
+        details: [
+          { path: '/file', line: 3, message: 'FH-P150: PNP models are not supported; the library holds NPN transistor models only.' },
+          { path: '/file', line: 7, message: 'FH-X: VAF is missing (the forward Early voltage; write VAF=0 for none); the engine needs IS, BF and VAF.' },
+        ],
+      },
+    });
+    renderLibrary(true);
+    const input = await screen.findByLabelText('Upload .model cards');
+
+    await userEvent.upload(input, new File(['.model FH-P150 PNP\n'], 'bad-parts.lib', { type: 'text/plain' }));
+
+    const alert = await screen.findByRole('alert');
+    expect(alert.textContent).toContain('bad-parts.lib was not saved: 2 problems to fix first.');
+    const items = within(alert).getAllByRole('listitem').map((li) => li.textContent);
+    expect(items).toEqual([
+      'Line 3: FH-P150: PNP models are not supported; the library holds NPN transistor models only.',
+      'Line 7: FH-X: VAF is missing (the forward Early voltage; write VAF=0 for none); the engine needs IS, BF and VAF.',
+    ]);
+  });
+});

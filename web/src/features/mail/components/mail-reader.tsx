@@ -1,0 +1,62 @@
+import { useState } from 'react';
+import { EmptyState } from '../../../components/ui/feedback';
+import { Sheet } from '../../../components/ui/sheet';
+import { cn } from '../../../lib/cn';
+import type { ReceivedMail } from '../../../lib/api-types';
+import { When } from '../../projects/components/when';
+
+const soft = 'text-ink-soft dark:text-night-ink-soft';
+
+/** The messages on the left, newest first; the one picked (the newest at first) read on the right. */
+export function MailReader({ messages }: { messages: ReceivedMail[] }) {
+  const [pickedId, setPickedId] = useState<number | null>(null);
+  if (messages.length === 0) {
+    return (
+      <EmptyState title="No messages yet">
+        Workflow e-mails land here once a proposal is ranked, decided or reviewed. When Longtail sends through a real mail server (LONGTAIL_SMTP_URL), they go
+        there instead and do not show here.
+      </EmptyState>
+    );
+  }
+  const open = messages.find((m) => m.id === pickedId) ?? messages[0];
+  return (
+    <div className="grid items-start gap-6 lg:grid-cols-[24rem_minmax(0,1fr)]">
+      <nav aria-label="Messages">
+        <ul className="divide-y divide-rule overflow-hidden rounded-lg border border-rule bg-sheet dark:divide-night-rule dark:border-night-rule dark:bg-night-sheet">
+          {messages.map((message) => {
+            const current = message.id === open.id;
+            return (
+              <li key={message.id}>
+                <button
+                  type="button"
+                  aria-current={current ? 'true' : undefined}
+                  onClick={() => setPickedId(message.id)}
+                  className={cn('block w-full px-3 py-2 text-left text-sm hover:bg-paper dark:hover:bg-night', current && 'bg-fern-soft dark:bg-night')}
+                >
+                  <span className="block truncate font-medium">{message.subject || '(no subject)'}</span>
+                  <span className={cn('flex justify-between gap-2 text-xs', soft)}>
+                    <span className="truncate">To {message.to.join(', ')}</span>
+                    <When iso={message.at} />
+                  </span>
+                </button>
+              </li>
+            );
+          })}
+        </ul>
+      </nav>
+      <Sheet aria-label="Message" title={open.subject || '(no subject)'}>
+        <dl className="mb-4 grid grid-cols-[5rem_minmax(0,1fr)] gap-y-1 text-sm">
+          <dt className={soft}>To</dt>
+          <dd>{open.to.join(', ')}</dd>
+          <dt className={soft}>From</dt>
+          <dd>{open.from ?? '—'}</dd>
+          <dt className={soft}>Received</dt>
+          <dd>
+            <time dateTime={open.at}>{new Date(open.at).toLocaleString()}</time>
+          </dd>
+        </dl>
+        <pre className="font-sans text-sm leading-relaxed break-words whitespace-pre-wrap">{open.text}</pre>
+      </Sheet>
+    </div>
+  );
+}

@@ -1,0 +1,51 @@
+import type { Role } from '../../../../../shared/workflow/roles';
+import type { User } from '../../../lib/api-types';
+import { useUpdatePreferences } from '../api/preferences';
+
+/** Which workflow e-mails each role gets (the server's rules, api/services/notifications.service.ts, in words). */
+const WHAT_YOU_GET: Record<Role, string[]> = {
+  designer: ['A proposal in one of your projects is ranked and waits for a decision.', 'A reviewer approves or returns your decision.'],
+  reviewer: ['A designer records a decision in one of your projects, so it waits for review.'],
+  requirements: ['A reviewer approves or returns a proposal of a spec you wrote.'],
+  admin: ['None for the administrator role: workflow e-mail goes to the designers, reviewers and spec authors of each project.'],
+};
+
+/** The e-mail switch: saved at once; the box shows what the server holds. */
+export function NotificationSwitch({ user }: { user: User }) {
+  const update = useUpdatePreferences();
+  const on = update.isPending ? (update.variables?.notify ?? user.notify !== false) : user.notify !== false;
+  return (
+    <div>
+      <label className="flex items-start gap-3">
+        <input
+          type="checkbox"
+          checked={on}
+          disabled={update.isPending}
+          onChange={(event) => update.mutate({ notify: event.target.checked })}
+          aria-describedby="notify-help"
+          className="mt-1 h-4 w-4 accent-fern"
+        />
+        <span>
+          <span className="block font-medium">E-mail me about the workflow</span>
+          <span id="notify-help" className="block text-sm text-ink-soft dark:text-night-ink-soft">
+            Sent to {user.email}. Nobody gets an e-mail about what they did themselves.
+          </span>
+        </span>
+      </label>
+      <p className="mt-3 text-sm">When this is on, you get an e-mail when:</p>
+      <ul className="mt-1 list-disc pl-5 text-sm text-ink-soft dark:text-night-ink-soft">
+        {WHAT_YOU_GET[user.role].map((line) => (
+          <li key={line}>{line}</li>
+        ))}
+      </ul>
+      <p role="status" aria-live="polite" className="mt-3 min-h-5 text-sm">
+        {update.isPending ? 'Saving…' : update.isSuccess ? (on ? 'Saved: e-mail is on.' : 'Saved: e-mail is off.') : null}
+      </p>
+      {update.error && (
+        <p role="alert" className="text-sm text-short dark:text-short-bright">
+          Not saved: {update.error.message}
+        </p>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,95 @@
+import { useQuery } from '@tanstack/react-query';
+import type { ProposalVerificationResult, VerificationJobView } from '../../../../../shared/verification/types';
+import { may } from '../../../../../shared/workflow/roles';
+import { Button } from '../../../components/ui/button';
+import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';
+import { Sheet } from '../../../components/ui/sheet';
+import type { Proposal, User } from '../../../lib/api-types';
+import { useVerifyMutation } from '../api/verification-mutations';
+import { isSettled, verificationQuery } from '../api/verification-queries';
+import { latestDecision } from './decision/decided-option';
+import { JobProblem } from './verification/job-problem';
+import { JobProgress } from './verification/job-progress';
+import { MonteCarloSection } from './verification/monte-carlo-section';
+import { MutationError } from './verification/mutation-error';
+import { VerificationResult } from './verification/verification-result';
+
+function isProposalResult(result: VerificationJobView['result']): result is ProposalVerificationResult {
+  return result !== null && 'options' in result;
+}
+
+/**
+ * The SPICE check of a proposal: every ranked option (and a designer's own values) simulated in
+ * ngspice on the netlists this page exports, each figure set beside the engine's with its
+ * tolerance; and, for a differential output, a Monte Carlo of mismatch in SPICE. Designers and
+ * reviewers may ask for either; everyone who sees the proposal reads the results. The status is
+ * polled once a second only while a job is waiting or simulating.
+ */
+export function VerificationPanel({ proposal, user }: { proposal: Proposal; user: User }) {
+  const status = useQuery(verificationQuery(proposal.id));
+  const mutation = useVerifyMutation(proposal.id);
+  const canVerify = may(user.role, 'proposals:verify');
+  const job = status.data?.verification ?? null;
+  const running = job !== null && !isSettled(job);
+  const troubled = job !== null && (job.state === 'stopped' || job.state === 'failed');
+  const label = mutation.isPending
+    ? 'Asking…'
+    : running
+      ? 'Simulating…'
+      : troubled
+        ? 'Run the SPICE check again'
+        : job
+          ? 'Run every option through SPICE again'
+          : 'Run every option through SPICE';
+  const action = canVerify ? (
+    <Button variant={job && !troubled ? 'secondary' : 'primary'} onClick={() => mutation.mutate()} disabled={running || mutation.isPending || status.isPending}>
+      {label}
+    </Button>
+  ) : undefined;
+
+  return (
+    <Sheet title="SPICE check" aria-label="SPICE check" actions={troubled ? undefined : action}>
+      <div className="space-y-4">
+        <p className="text-sm text-ink-soft dark:text-night-ink-soft">
+          Each option’s exported netlist simulated in ngspice, nominal and at every corner, set beside the engine’s figures with the tolerance each is held to. Agreement shows the
+          engine solved the model it describes; both remain estimates to confirm by bench measurement.
+        </p>
+        {mutation.isError && <MutationError error={mutation.error} what="The SPICE check was not started" />}
+        {status.isPending ? (
+          <Loading what="Loading the SPICE check" />
+        ) : status.isError ? (
+          <ErrorPanel error={status.error} retry={() => void status.refetch()} />
+        ) : !job ? (
+          <EmptyState title="Not simulated yet">
+            {canVerify ? 'Run every option through SPICE to compare the engine’s figures with ngspice’s.' : 'A designer or reviewer can ask for a SPICE check of every option.'}
+          </EmptyState>
+        ) : running ? (
+          <JobProgress job={job} label="Every option" />
+        ) : job.state !== 'finished' ? (
+          <JobProblem job={job} what="The SPICE check" action={action} />
+        ) : isProposalResult(job.result) ? (
+          <>
+            <StaleNote proposal={proposal} job={job} result={job.result} />
+            <VerificationResult job={job} result={job.result} proposal={proposal} />
+          </>
+        ) : (
+          <p className="text-sm text-ink-soft dark:text-night-ink-soft">This check finished without a result.</p>
+        )}
+        {!status.isPending && !status.isError && <MonteCarloSection proposal={proposal} status={status.data} canVerify={canVerify} />}
+      </div>
+    </Sheet>
+  );
+}
+
+/** When the designer decided own values after this check, it does not hold them yet: say so. */
+function StaleNote({ proposal, job, result }: { proposal: Proposal; job: VerificationJobView; result: ProposalVerificationResult }) {
+  const decision = latestDecision(proposal);
+  const missing = decision?.kind === 'override' && decision.createdAt > job.createdAt && !result.options.some((o) => o.source === 'decision');
+  if (!missing) return null;
+  return (
+    <p className="rounded-md border border-note/40 bg-note-soft p-2 text-sm text-note dark:bg-note/20 dark:text-note-bright">
+      <span aria-hidden="true">! </span>
+      The designer’s own values were decided after this check, so they are not in it. Run the check again to simulate them.
+    </p>
+  );
+}

@@ -1,0 +1,138 @@
+import { useId, useState, type FormEvent } from 'react';
+import { MONTE_CARLO_RUNS, type MonteCarloVerificationResult, type VerificationJobView, type VerificationStatus } from '../../../../../../shared/verification/types';
+import { Button } from '../../../../components/ui/button';
+import type { Proposal } from '../../../../lib/api-types';
+import { topologyName } from '../../../../lib/topology-names';
+import { useMonteCarloMutation } from '../../api/verification-mutations';
+import { isSettled } from '../../api/verification-queries';
+import { MutationError } from './mutation-error';
+import { JobProblem } from './job-problem';
+import { JobProgress } from './job-progress';
+import { MonteCarloResult } from './monte-carlo-result';
+
+const inputClass =
+  'rounded-md border border-rule bg-sheet px-2.5 py-1.5 text-sm dark:border-night-rule dark:bg-night-sheet aria-[invalid=true]:border-short dark:aria-[invalid=true]:border-short-bright';
+
+/** Why the runs field cannot be sent, or null. */
+function runsProblem(text: string): string | null {
+  const runs = Number(text);
+  if (text.trim() === '' || !Number.isInteger(runs)) return 'Give a whole number of runs.';
+  if (runs < MONTE_CARLO_RUNS.min || runs > MONTE_CARLO_RUNS.max) return `Between ${MONTE_CARLO_RUNS.min} and ${MONTE_CARLO_RUNS.max} runs.`;
+  return null;
+}
+
+function isMonteCarloResult(result: VerificationJobView['result']): result is MonteCarloVerificationResult {
+  return result !== null && 'histogram' in result;
+}
+
+/**
+ * SPICE Monte Carlo of mismatch for one option: only for a differential output, where pair and
+ * load mismatch set the rejection. Pick an option and a number of runs, start, follow the progress,
+ * then read ngspice's distribution over the engine's closed form on the same draws.
+ */
+export function MonteCarloSection({ proposal, status, canVerify }: { proposal: Proposal; status: VerificationStatus | undefined; canVerify: boolean }) {
+  const id = useId();
+  const differential = proposal.specVersion.payload?.gain?.output === 'differential';
+  const options = proposal.result.options.filter((o) => o.design);
+  const jobs = status?.monteCarlo ?? [];
+  const [chosen, setChosen] = useState<string | null>(null);
+  const [runsText, setRunsText] = useState(String(MONTE_CARLO_RUNS.default));
+  const [tried, setTried] = useState(false);
+  const mutation = useMonteCarloMutation(proposal.id);
+  const topology = chosen ?? jobs[0]?.topology ?? proposal.result.recommended ?? options[0]?.topology ?? null;
+  const job = jobs.find((j) => j.topology === topology) ?? null;
+  const running = job !== null && !isSettled(job);
+  const problem = runsProblem(runsText);
+
+  const start = (event: FormEvent) => {
+    event.preventDefault();
+    setTried(true);
+    if (problem || !topology || running) return;
+    mutation.mutate({ topology, runs: Number(runsText) });
+  };
+
+  return (
+    <section aria-labelledby={`${id}-title`} className="space-y-3 border-t border-rule pt-4 dark:border-night-rule">
+      <header>
+        <h3 id={`${id}-title`} className="text-base font-medium">
+          Mismatch Monte Carlo in SPICE
+        </h3>
+        <p className="text-sm text-ink-soft dark:text-night-ink-soft">
+          One option simulated many times with its pair and load resistors and VBE drawn from the spec’s tolerances, beside the engine’s closed form on the same draws.
+        </p>
+      </header>
+      {!differential ? (
+        <p className="rounded-md border border-dashed border-rule p-3 text-sm text-ink-soft dark:border-night-rule dark:text-night-ink-soft">
+          Not offered for this proposal: the spec asks for a single-ended output, so the rejection is set by the tail, not by mismatch between the two halves. The comparison above already covers it.
+        </p>
+      ) : options.length === 0 ? (
+        <p className="text-sm text-ink-soft dark:text-night-ink-soft">No option was sized, so there is nothing to simulate.</p>
+      ) : (
+        <>
+          <form onSubmit={start} noValidate className="flex flex-wrap items-end gap-3">
+            <label className="flex flex-col gap-1 text-sm">
+              <span>Option</span>
+              <select
+                className={inputClass}
+                value={topology ?? ''}
+                onChange={(event) => {
+                  setChosen(event.target.value);
+                  mutation.reset();
+                }}
+              >
+                {options.map((o) => {
+                  const existing = jobs.find((j) => j.topology === o.topology);
+                  return (
+                    <option key={o.topology} value={o.topology}>
+                      {topologyName(o.topology)}
+                      {existing ? ` — ${existing.state === 'finished' ? `simulated, ${existing.runs ?? '?'} runs` : existing.state}` : ''}
+                    </option>
+                  );
+                })}
+              </select>
+            </label>
+            {canVerify && (
+              <>
+                <label className="flex flex-col gap-1 text-sm">
+                  <span>Runs</span>
+                  <input
+                    type="number"
+                    inputMode="numeric"
+                    min={MONTE_CARLO_RUNS.min}
+                    max={MONTE_CARLO_RUNS.max}
+                    step={1}
+                    value={runsText}
+                    onChange={(event) => setRunsText(event.target.value)}
+                    aria-invalid={tried && problem !== null}
+                    aria-describedby={`${id}-runs-help`}
+                    className={`${inputClass} w-28 tabular-nums`}
+                  />
+                </label>
+                <Button type="submit" disabled={running || mutation.isPending}>
+                  {mutation.isPending ? 'Asking…' : running ? 'Simulating…' : job ? 'Run it again' : 'Start the Monte Carlo'}
+                </Button>
+                <p id={`${id}-runs-help`} className={tried && problem ? 'basis-full text-xs text-short dark:text-short-bright' : 'basis-full text-xs text-ink-soft dark:text-night-ink-soft'}>
+                  {tried && problem ? problem : `${MONTE_CARLO_RUNS.min} to ${MONTE_CARLO_RUNS.max} runs; each takes a few milliseconds in the simulator.`}
+                </p>
+              </>
+            )}
+          </form>
+          {mutation.isError && <MutationError error={mutation.error} what="The Monte Carlo was not started" />}
+          {!job ? (
+            <p className="text-sm text-ink-soft dark:text-night-ink-soft">
+              No SPICE Monte Carlo of the {topology ? topologyName(topology) : 'option'} yet{canVerify ? '.' : '; a designer or reviewer can ask for one.'}
+            </p>
+          ) : running ? (
+            <JobProgress job={job} label={`Monte Carlo of the ${topologyName(job.topology ?? '')}, ${job.runs ?? '?'} runs`} />
+          ) : job.state !== 'finished' ? (
+            <JobProblem job={job} what="The Monte Carlo" />
+          ) : isMonteCarloResult(job.result) ? (
+            <MonteCarloResult job={job} result={job.result} requiredYieldPercent={proposal.specVersion.payload?.cmrr?.minYieldPercent ?? null} frequencyHz={proposal.specVersion.payload?.cmrr?.atFrequencyHz ?? null} />
+          ) : (
+            <p className="text-sm text-ink-soft">This Monte Carlo finished without a result.</p>
+          )}
+        </>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,96 @@
+/**
+ * Words and numbers for the SPICE check: figures in engineering notation (shared/units through
+ * figure-format), signed differences in the figure's own delta unit, tolerances, and the verdict
+ * of a figure or an option in the app's status language.
+ */
+import { formatQuantity } from '../../../../../shared/units/format-quantity';
+import type { OptionVerification, VerifiedFigure } from '../../../../../shared/verification/types';
+import type { VerdictKind } from '../../../components/ui/verdict';
+import { topologyName } from '../../../lib/topology-names';
+import { formatFigure, formatFixed } from './figure-format';
+
+const MINUS = '\u2212';
+
+/** A stored unit as the formatter knows it: "" (a ratio) prints as a plain number. */
+function unitOf(unit: string): string {
+  return unit === '' ? '1' : unit;
+}
+
+/** A predicted or simulated figure: "960 µA", "101.8 dB", "2.32 kΩ"; an em dash when missing. */
+export function figureText(value: number | null, unit: string): string {
+  if (value === null || !Number.isFinite(value)) return '—';
+  return formatFigure(value, unitOf(unit));
+}
+
+/** A magnitude text with its sign; no sign when it rounds to zero. */
+function signed(value: number, magnitudeText: string, zero: boolean): string {
+  if (zero) return magnitudeText;
+  return `${value > 0 ? '+' : MINUS}${magnitudeText}`;
+}
+
+/** The engine minus ngspice: "+0.9 %", "−0.4 dB", "+12 mV"; an em dash when either side is missing. */
+export function deltaText(figure: Pick<VerifiedFigure, 'delta' | 'deltaKind'>): string {
+  const { delta, deltaKind } = figure;
+  if (delta === null || !Number.isFinite(delta)) return '—';
+  if (deltaKind === 'volts') {
+    const text = formatQuantity(Math.abs(delta), 'V');
+    return signed(delta, text, Number(Math.abs(delta).toPrecision(3)) === 0);
+  }
+  const text = formatFixed(Math.abs(delta), 1);
+  const unit = deltaKind === 'percent' ? '%' : 'dB';
+  return signed(delta, `${text} ${unit}`, Number(text) === 0);
+}
+
+/** The tolerance a difference is held to: "±3 %", "±1.5 dB", "±50 mV". */
+export function toleranceText(figure: Pick<VerifiedFigure, 'tolerance' | 'deltaKind'>): string {
+  if (figure.deltaKind === 'volts') return `±${formatQuantity(figure.tolerance, 'V')}`;
+  return `±${figure.tolerance} ${figure.deltaKind === 'percent' ? '%' : 'dB'}`;
+}
+
+export interface VerdictLook {
+  kind: VerdictKind;
+  label: string;
+}
+
+/** One figure: within tolerance, outside it, or not compared (a side is missing). */
+export function figureVerdict(agrees: boolean | null): VerdictLook {
+  if (agrees === null) return { kind: 'not-applicable', label: 'Not compared' };
+  return agrees ? { kind: 'holds', label: 'Agrees' } : { kind: 'short', label: 'Disagrees' };
+}
+
+/** One option: every figure agrees, some do not (how many), or ngspice could not simulate it. */
+export function optionVerdict(option: Pick<OptionVerification, 'outcome' | 'agrees' | 'disagreements'>): VerdictLook {
+  if (option.outcome === 'error') return { kind: 'note', label: 'Not simulated' };
+  if (option.agrees && option.disagreements === 0) return { kind: 'holds', label: 'Agrees' };
+  const n = Math.max(option.disagreements, 1);
+  return { kind: 'short', label: `${n} figure${n === 1 ? '' : 's'} outside tolerance` };
+}
+
+/** The option's name as the check lists it; the override is named as the designer's own values. */
+export function verifiedOptionName(option: Pick<OptionVerification, 'topology' | 'source'>): string {
+  const name = topologyName(option.topology);
+  return option.source === 'decision' ? `Designer’s own values (${name})` : name;
+}
+
+/** A stable key for an option of a verification (a topology can appear as a ranked option and as the override). */
+export function verifiedOptionKey(option: Pick<OptionVerification, 'topology' | 'source'>): string {
+  return `${option.source}:${option.topology}`;
+}
+
+/** A duration: "4.2 s", "350 ms", "2.1 min" past two minutes. */
+export function durationText(ms: number): string {
+  if (ms >= 120_000) return `${formatFixed(ms / 60_000, 1)} min`;
+  return formatQuantity(ms / 1000, 's', 2);
+}
+
+/** "5 of 6 agree with the engine within tolerance; 1 has figures outside it; 1 could not be simulated." */
+export function verificationTally(options: Pick<OptionVerification, 'outcome' | 'agrees' | 'disagreements'>[]): string {
+  const kinds = options.map((o) => optionVerdict(o).kind);
+  const agree = kinds.filter((k) => k === 'holds').length;
+  const differ = kinds.filter((k) => k === 'short').length;
+  const errors = kinds.filter((k) => k === 'note').length;
+  const parts = [`${agree} of ${options.length} agree with the engine within tolerance`];
+  if (differ > 0) parts.push(`${differ} ${differ === 1 ? 'has' : 'have'} figures outside it`);
+  if (errors > 0) parts.push(`${errors} could not be simulated`);
+  return `${parts.join('; ')}.`;
+}

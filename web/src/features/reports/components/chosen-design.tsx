@@ -1,0 +1,76 @@
+import { Verdict } from '../../../components/ui/verdict';
+import type { Proposal } from '../../../lib/api-types';
+import { topologyName } from '../../../lib/topology-names';
+import { blockingFailures, DECISION_KIND_WORDS } from '../../proposals/components/decision/decided-option';
+import { OptionSchematic } from '../../proposals/components/ranking/schematic/option-schematic';
+import { SizedValues } from '../../proposals/components/ranking/sized-values';
+import { fullTimestamp } from '../lib/report-format';
+import type { ReportSubject } from '../lib/report-subject';
+
+const BASIS_WORDS = {
+  recommendation: 'No decision yet. Shown below: the recommendation, as the engine sized it.',
+  'top-ranked': 'No decision yet, and no option passes every blocking check. Shown below: the top-ranked option, as the engine sized it.',
+  none: 'No decision yet, and the ranking holds no option.',
+} as const;
+
+/** The design the report is about: who decided what, when and why, the reviews of it, its schematic and sized values. */
+export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal; subject: ReportSubject; nameOf: (id: number | null) => string }) {
+  const { decision, option, design } = subject;
+  const payload = proposal.specVersion.payload;
+  const reviews = decision ? proposal.reviews.filter((r) => r.decisionId === decision.id) : [];
+  const failures = option ? blockingFailures(option) : 0;
+  return (
+    <div className="space-y-4">
+      {decision ? (
+        <div className="space-y-2 text-sm">
+          <p>
+            <span className="font-medium">{nameOf(decision.decidedById)}</span> {DECISION_KIND_WORDS[decision.kind]}: <span className="font-medium">{topologyName(decision.topology)}</span>
+            {' '}· {fullTimestamp(decision.createdAt)}
+            {proposal.decisions.length > 1 && ` · decision ${proposal.decisions.length} of ${proposal.decisions.length}`}
+          </p>
+          <div>
+            <p className="text-xs text-ink-soft dark:text-night-ink-soft">Reason</p>
+            {decision.reason ? (
+              <blockquote className="mt-0.5 border-l-2 border-fern pl-3 whitespace-pre-line">{decision.reason}</blockquote>
+            ) : (
+              <p className="text-ink-soft dark:text-night-ink-soft">None given (accepting the recommendation needs none).</p>
+            )}
+          </div>
+          {reviews.map((review) => (
+            <div key={review.id}>
+              <p>
+                <span className="font-medium">{nameOf(review.reviewerId)}</span> {review.verdict === 'approve' ? 'approved this decision' : 'returned this decision to the designer'} · {fullTimestamp(review.createdAt)}
+              </p>
+              {review.comment && <blockquote className="mt-0.5 border-l-2 border-rule pl-3 whitespace-pre-line dark:border-night-rule">{review.comment}</blockquote>}
+            </div>
+          ))}
+        </div>
+      ) : (
+        <p className="text-sm font-medium">{BASIS_WORDS[subject.basis as keyof typeof BASIS_WORDS]}</p>
+      )}
+      {option && (
+        <p className="flex flex-wrap items-center gap-2 text-sm">
+          {option.passes ? <Verdict kind="holds" label="Passes every blocking check" /> : <Verdict kind="short" label={`Fails ${failures} blocking check${failures === 1 ? '' : 's'}`} />}
+          <span className="text-ink-soft dark:text-night-ink-soft">
+            {decision?.kind === 'override' ? 'as the server checked the designer’s values with every rule' : `as ranked by the engine (rank ${option.rank} of ${proposal.result.options.length})`}
+          </span>
+        </p>
+      )}
+      {decision?.kind === 'override' && !option && <p className="text-sm text-ink-soft dark:text-night-ink-soft">The server kept no evaluation with this decision.</p>}
+      {design ? (
+        // Printed, the drawing sits above the values: side by side, a drawing that may not break would push both to the next page.
+        <div className="grid gap-6 md:grid-cols-2 print:grid-cols-1 print:gap-3">
+          <figure className="report-keep min-w-0">
+            <OptionSchematic design={design} className="mx-auto w-full max-w-[480px] print:max-w-[95mm]" />
+            <figcaption className="mt-1 text-center text-xs text-ink-soft dark:text-night-ink-soft">
+              The stage with the {topologyName(design.tail.topology).toLowerCase()} tail, as sized (on screen, the tail element is in the accent colour).
+            </figcaption>
+          </figure>
+          <SizedValues design={design} series={payload?.resistors?.series ?? null} tolerance={payload?.resistors?.tolerance ?? null} facts={option?.figures ?? null} predicted={option?.predicted ?? null} />
+        </div>
+      ) : (
+        subject.option && <p className="text-sm">This option could not be sized{subject.option.error ? `: ${subject.option.error}` : '.'}</p>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,73 @@
+/**
+ * The spec form's device picker as data: which library card a spec's `deviceModel` names, and
+ * what a change of the form means for it. Choosing a card fills `device` with the card's IS, BF
+ * and VAF (the rest of `device` is kept); editing one of those three afterwards drops
+ * `deviceModel`, since the card no longer describes the values.
+ */
+import type { LibraryDevice } from '../../devices/api/device-queries';
+
+/** What the spec records of a library card (spec schema `deviceModel`). */
+export interface DeviceModelRef {
+  name: string;
+  checksum: string;
+}
+
+/** The project's device library as the form sees it. */
+export interface DeviceLibraryState {
+  items: readonly LibraryDevice[] | undefined;
+  loading: boolean;
+  error: unknown;
+}
+
+/** What the device picker field reads from the form context. */
+export interface DeviceChoiceContext {
+  deviceLibrary?: DeviceLibraryState;
+}
+
+type Draft = Record<string, unknown>;
+
+/** The card fields of `device` a library card fills. */
+const CARD_FIELDS = ['beta', 'saturationCurrentA', 'earlyVoltageV'] as const;
+
+function refOf(value: unknown): DeviceModelRef | undefined {
+  if (!value || typeof value !== 'object') return undefined;
+  const { name, checksum } = value as Partial<DeviceModelRef>;
+  return typeof name === 'string' && typeof checksum === 'string' ? { name, checksum } : undefined;
+}
+
+const sameRef = (a: DeviceModelRef | undefined, b: DeviceModelRef | undefined) =>
+  a !== undefined && b !== undefined && a.name.toLowerCase() === b.name.toLowerCase() && a.checksum === b.checksum;
+
+/** The library card a reference names (same name, case-insensitive, from the same file). */
+export function libraryDeviceFor(reference: unknown, library: readonly LibraryDevice[] | undefined): LibraryDevice | undefined {
+  const ref = refOf(reference);
+  return ref ? library?.find((device) => sameRef(ref, { name: device.name, checksum: device.checksum })) : undefined;
+}
+
+/** The reference a library card is recorded as. */
+export const refFor = (device: LibraryDevice): DeviceModelRef => ({ name: device.name, checksum: device.checksum });
+
+/**
+ * The form's next data after a change from `previous` to `next`: a newly chosen card fills the
+ * device fields; a change of IS, BF or VAF under a kept choice drops the choice.
+ */
+export function withDeviceChoice(previous: Draft, next: Draft, library: readonly LibraryDevice[] | undefined): Draft {
+  const chosen = refOf(next.deviceModel);
+  const before = refOf(previous.deviceModel);
+  if (chosen && !sameRef(chosen, before)) {
+    const card = libraryDeviceFor(chosen, library);
+    if (!card) return next;
+    const device = { ...((next.device as Draft | undefined) ?? {}) };
+    for (const field of CARD_FIELDS) device[field] = card.device[field];
+    return { ...next, device };
+  }
+  if (chosen && sameRef(chosen, before)) {
+    const was = (previous.device as Draft | undefined) ?? {};
+    const now = (next.device as Draft | undefined) ?? {};
+    if (CARD_FIELDS.some((field) => was[field] !== now[field])) {
+      const { deviceModel: _dropped, ...rest } = next;
+      return rest;
+    }
+  }
+  return next;
+}

@@ -1,0 +1,43 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useSuspenseQuery } from '@tanstack/react-query';
+import { ROLE_TITLES } from '../../../shared/workflow/roles';
+import { RouteError } from '../app/route-error';
+import { PageHeader } from '../components/ui/page-header';
+import { Sheet } from '../components/ui/sheet';
+import { meQuery } from '../features/auth/api/auth-queries';
+import { NotificationSwitch } from '../features/profile/components/notification-switch';
+
+export const loader = (queryClient: QueryClient) => async () => {
+  await queryClient.ensureQueryData(meQuery());
+  return null;
+};
+
+/** Your own account: who you are here, and whether Longtail e-mails you. */
+export function Component() {
+  const { data: user } = useSuspenseQuery(meQuery());
+  if (!user) return null;
+  return (
+    <>
+      <PageHeader title="Your profile" eyebrow="Account">
+        Your name and role are set by an administrator; the e-mail switch is yours.
+      </PageHeader>
+      <div className="grid max-w-3xl gap-6">
+        <Sheet title="Account" aria-label="Account">
+          <dl className="grid grid-cols-[8rem_minmax(0,1fr)] gap-y-1.5 text-sm">
+            <dt className="text-ink-soft dark:text-night-ink-soft">Name</dt>
+            <dd>{user.displayName}</dd>
+            <dt className="text-ink-soft dark:text-night-ink-soft">E-mail</dt>
+            <dd>{user.email}</dd>
+            <dt className="text-ink-soft dark:text-night-ink-soft">Role</dt>
+            <dd>{ROLE_TITLES[user.role]}</dd>
+          </dl>
+        </Sheet>
+        <Sheet title="E-mail notifications" aria-label="E-mail notifications">
+          <NotificationSwitch user={user} />
+        </Sheet>
+      </div>
+    </>
+  );
+}
+
+export const ErrorBoundary = RouteError;

@@ -1,0 +1,116 @@
+/**
+ * The review report of one proposal: one page meant to be printed or saved as PDF (print styles
+ * in styles/app.css). Title block, cautions, the spec, the ranking, the chosen design, its
+ * checks, the SPICE verification, the audit trail and the sources, with the estimates notice.
+ */
+import type { QueryClient } from '@tanstack/react-query';
+import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { ESTIMATE_NOTICE } from '../../../shared/engine/version';
+import { RouteError } from '../app/route-error';
+import { Button } from '../components/ui/button';
+import { paths } from '../config/paths';
+import { projectQuery } from '../features/projects/api/project-queries';
+import { proposalAuditQuery, proposalPeopleQuery, proposalQuery } from '../features/proposals/api/proposal-queries';
+import { usePersonName } from '../features/proposals/components/audit/use-person-name';
+import { reportVerificationQuery } from '../features/reports/api/report-queries';
+import { ChosenDesign } from '../features/reports/components/chosen-design';
+import { RankedOptions } from '../features/reports/components/ranked-options';
+import { ReportAudit } from '../features/reports/components/report-audit';
+import { ReportCautions } from '../features/reports/components/report-cautions';
+import { ReportChecks } from '../features/reports/components/report-checks';
+import { ReportSection } from '../features/reports/components/report-section';
+import { ReportSources } from '../features/reports/components/report-sources';
+import { ReportTitle } from '../features/reports/components/report-title';
+import { ReportVerification } from '../features/reports/components/report-verification';
+import { SpecTable } from '../features/reports/components/spec-table';
+import { reportSubject } from '../features/reports/lib/report-subject';
+
+export const loader =
+  (queryClient: QueryClient) =>
+  async ({ params }: LoaderFunctionArgs) => {
+    const proposalId = Number(params.proposalId);
+    const proposal = await queryClient.ensureQueryData(proposalQuery(proposalId));
+    // The rest is fetched before the page shows, so a print straight away has it all; a failure
+    // shows in its own section rather than stopping the report.
+    await Promise.all([
+      queryClient.prefetchQuery(proposalAuditQuery(proposalId)),
+      queryClient.prefetchQuery(reportVerificationQuery(proposalId)),
+      queryClient.prefetchQuery(projectQuery(proposal.projectId)),
+      queryClient.prefetchQuery(proposalPeopleQuery(proposal.projectId)),
+    ]);
+    return null;
+  };
+
+const LINK_BUTTON =
+  'inline-flex items-center rounded-md border border-rule bg-sheet px-3.5 py-2 text-sm font-medium hover:bg-paper dark:border-night-rule dark:bg-night-sheet dark:hover:bg-night';
+
+export function Component() {
+  const proposalId = Number(useParams().proposalId);
+  const { data: proposal } = useSuspenseQuery(proposalQuery(proposalId));
+  const audit = useQuery(proposalAuditQuery(proposalId));
+  const verification = useQuery(reportVerificationQuery(proposalId));
+  const project = useQuery(projectQuery(proposal.projectId));
+  const nameOf = usePersonName(proposal.projectId);
+  const [generatedAt] = useState(() => new Date());
+  const subject = reportSubject(proposal);
+  const onlineHref = new URL(paths.proposal.href(proposal.id), window.location.origin).href;
+  let section = 0;
+  const next = () => ++section;
+
+  return (
+    <article aria-labelledby="report-heading" className="report-page mx-auto max-w-4xl space-y-6 rounded-lg border border-rule bg-sheet p-6 sm:p-8 dark:border-night-rule dark:bg-night-sheet">
+      <ReportTitle
+        proposal={proposal}
+        projectName={project.data?.name ?? null}
+        generatedAt={generatedAt}
+        notice={proposal.result.notice || ESTIMATE_NOTICE}
+        onlineHref={onlineHref}
+        actions={
+          <>
+            <Button onClick={() => window.print()}>Print or save as PDF</Button>
+            <Link to={paths.proposal.href(proposal.id)} className={LINK_BUTTON}>
+              Back to the ranking
+            </Link>
+          </>
+        }
+      />
+      <ReportSection id="report-cautions" number={next()} title="Cautions">
+        <ReportCautions cautions={proposal.result.cautions} />
+      </ReportSection>
+      <ReportSection id="report-spec" number={next()} title="Requirement spec">
+        <SpecTable payload={proposal.specVersion.payload} title={proposal.specVersion.title} version={proposal.specVersion.version} />
+      </ReportSection>
+      <ReportSection id="report-ranking" number={next()} title="Ranked options">
+        <RankedOptions proposal={proposal} decided={subject.decision ? { topology: subject.decision.topology, ownValues: subject.decision.kind === 'override' } : null} />
+      </ReportSection>
+      <ReportSection id="report-design" number={next()} title="Chosen design">
+        <ChosenDesign proposal={proposal} subject={subject} nameOf={nameOf} />
+      </ReportSection>
+      <ReportSection id="report-checks" number={next()} title="Checks">
+        <ReportChecks proposal={proposal} subject={subject} />
+      </ReportSection>
+      <ReportSection id="report-verification" number={next()} title="SPICE verification">
+        <ReportVerification proposal={proposal} status={verification.data} error={verification.error} />
+      </ReportSection>
+      <ReportSection id="report-audit" number={next()} title="Audit trail">
+        <ReportAudit proposal={proposal} events={audit.data?.items} error={audit.error} nameOf={nameOf} />
+      </ReportSection>
+      <ReportSection id="report-sources" number={next()} title="Sources of the formulas">
+        <ReportSources />
+      </ReportSection>
+      <footer className="report-footer border-t border-rule pt-3 text-xs dark:border-night-rule">
+        <p>
+          <span className="font-medium">Estimates. </span>
+          {ESTIMATE_NOTICE}
+        </p>
+        <p className="mt-1 text-ink-soft dark:text-night-ink-soft">
+          Longtail review report of ranking #{proposal.id}, {proposal.specVersion.title} version {proposal.specVersion.version}.
+        </p>
+      </footer>
+    </article>
+  );
+}
+
+export const ErrorBoundary = RouteError;
