@@ -82,7 +82,10 @@ export class SpiceEngine {
       pending.clear();
     };
     const promise: Promise<Started> = new Promise<Started>((resolve, reject) => {
-      const worker = new Worker(new URL('./spice-worker.mjs', import.meta.url));
+      // ngspice prints its messages too; they come back with each run, so the thread's own output is dropped.
+      const worker = new Worker(new URL('./spice-worker.mjs', import.meta.url), { stdout: true, stderr: true });
+      worker.stdout.resume();
+      worker.stderr.resume();
       worker.unref();
       const onReady = (reply: WorkerReply) => {
         if (reply.id !== 0) return;

@@ -1,0 +1,54 @@
+/**
+ * The server's SPICE engine (ngspice in a worker thread): runs are serialised and each caller gets
+ * its own circuit's answer; a run past its time limit is stopped and the next one runs on a fresh
+ * thread; ngspice's errors come back as messages. Expected values are Ohm's law and the voltage
+ * divider, not the product's output.
+ */
+import { afterAll, describe, expect, test } from 'vitest';
+import type { ResultType } from 'eecircuit-engine';
+import { SpiceEngine, SpiceRunError } from '../../../api/verification/spice-engine';
+
+const divider = (topOhm: number, bottomOhm: number) => `divider\nV1 in 0 10\nR1 in out ${topOhm}\nR2 out 0 ${bottomOhm}\n.op\n.end\n`;
+
+function voltage(result: ResultType, node: string): number {
+  if (result.dataType !== 'real') throw new Error('expected real data');
+  const vector = result.data.find((d) => d.name.toLowerCase() === `v(${node})`);
+  if (!vector) throw new Error(`no v(${node})`);
+  return vector.values[0];
+}
+
+describe('SpiceEngine', () => {
+  const engine = new SpiceEngine(10_000);
+  afterAll(() => engine.stop());
+
+  test('serialises concurrent runs and answers each with its own circuit', async () => {
+    const ratios = [[1000, 1000], [3000, 1000], [1000, 4000], [9000, 1000]] as const;
+    const results = await Promise.all(ratios.map(([top, bottom]) => engine.run(divider(top, bottom), 'Operating Point')));
+    results.forEach((result, i) => {
+      const [top, bottom] = ratios[i];
+      expect(voltage(result, 'out')).toBeCloseTo((10 * bottom) / (top + bottom), 9);
+    });
+    expect(await engine.version()).toMatch(/^ngspice-\d+/);
+  }, 60_000);
+
+  test('turns an ngspice error into a message and keeps working', async () => {
+    const broken = 'broken\nV1 in 0 1\nQ1 in in 0 NOSUCHMODEL\n.op\n.end\n';
+    await expect(engine.run(broken, 'Operating Point')).rejects.toThrow(/nosuchmodel/i);
+    expect(voltage(await engine.run(divider(2000, 2000), 'Operating Point'), 'out')).toBeCloseTo(5, 9);
+  }, 60_000);
+
+  test('stops a run past its time limit and starts a fresh simulator for the next', async () => {
+    const startsBefore = engine.starts;
+    const stopped = engine.run(divider(1000, 1000), 'Operating Point', 0);
+    await expect(stopped).rejects.toBeInstanceOf(SpiceRunError);
+    await expect(stopped).rejects.toThrow(/time limit/);
+    expect(voltage(await engine.run(divider(1000, 3000), 'Operating Point'), 'out')).toBeCloseTo(7.5, 9);
+    expect(engine.starts).toBe(startsBefore + 1);
+  }, 60_000);
+
+  test('refuses runs once shut down', async () => {
+    const other = new SpiceEngine();
+    await other.stop();
+    await expect(other.run(divider(1, 1))).rejects.toThrow(/shut down/);
+  });
+});
