@@ -49,6 +49,8 @@ if (!staticDir) console.log('No built browser app in dist/web (npm run build): s
 const app = createApp({ dataSource, sessionSecret: config.sessionSecret, ruleSet, trustProxy: config.trustProxy, staticDir });
 const server = app.listen(config.port, () => {
   console.log(`Longtail listening on http://localhost:${config.port} (database ${config.databasePath})`);
+  // Start the SPICE engine now, in its own thread, so the first verification does not wait for it.
+  app.verification.engine.start().catch((error: unknown) => console.error(`The SPICE engine did not start: ${error instanceof Error ? error.message : String(error)}`));
 });
 
 let stopping = false;

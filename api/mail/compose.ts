@@ -3,6 +3,7 @@
  * the proposal, the spec title and version, the project, who did what and their reason or
  * comment, links to the proposal, and ends with the estimates notice. Pure: no I/O.
  */
+import { topologyName } from '../../shared/engine/topology-names';
 import { ESTIMATE_NOTICE } from '../../shared/engine/version';
 import type { DecisionKind } from '../entities/decision.entity';
 
@@ -41,21 +42,21 @@ export interface ComposedMessage {
   text: string;
 }
 
-/** "degenerated-mirror" -> "degenerated mirror tail". */
-const tail = (topology: string) => `${topology.replaceAll('-', ' ')} tail`;
+/** A topology as the app names it ("Degenerated mirror"). */
+const tail = (topology: string) => topologyName(topology);
 
 /** One line saying what the designer settled on. */
 export function decisionSentence(decision: DecisionFacts): string {
   switch (decision.kind) {
     case 'accept':
-      return `accepted the recommended ${tail(decision.topology)}`;
+      return `accepted the recommended tail, ${tail(decision.topology)}`;
     case 'choose':
       return decision.recommended
-        ? `chose the ${tail(decision.topology)} instead of the recommended ${tail(decision.recommended)}`
-        : `chose the ${tail(decision.topology)} (no option passed every blocking check)`;
+        ? `chose ${tail(decision.topology)} instead of the recommended ${tail(decision.recommended)}`
+        : `chose ${tail(decision.topology)} (no option passed every blocking check)`;
     case 'override': {
       const check = decision.passes === undefined ? '' : decision.passes ? '; its full check holds every blocking check' : '; its full check falls short of a blocking check';
-      return `overrode the ranking with own values on a ${tail(decision.topology)}${check}`;
+      return `overrode the ranking with own values (${tail(decision.topology)})${check}`;
     }
   }
 }
@@ -78,7 +79,7 @@ export function composeMessage(facts: MessageFacts, recipientName: string, becau
         '',
         projectLine(facts),
         specLine(facts),
-        facts.recommended ? `Recommended: the ${tail(facts.recommended)}` : 'Recommended: nothing (no option passes every blocking check); choose an option with a reason, or override.',
+        facts.recommended ? `Recommended tail: ${tail(facts.recommended)}` : 'Recommended: nothing (no option passes every blocking check); choose an option with a reason, or override.',
         '',
         `Accept, choose or override: ${facts.link}`,
       ];

@@ -4,7 +4,7 @@
  * 'devices:write'). The file is held in memory (at most MODEL_FILE_MAX_BYTES) and read as text
  * by shared/devices/model-card.ts; the CSRF header applies as to every state-changing request.
  */
-import { Router, type RequestHandler } from 'express';
+import { Router, type Request, type RequestHandler } from 'express';
 import multer from 'multer';
 import type { DataSource } from 'typeorm';
 import { MODEL_FILE_MAX_BYTES } from '../../shared/devices/model-card';
@@ -44,14 +44,17 @@ const receiveModelFile: RequestHandler = (req, res, next) => {
   upload(req, res, (error?: unknown) => next(error ? uploadError(error) : undefined));
 };
 
+/** The project id of the mount path (`/api/projects/:projectId/devices`), else 404. */
+const projectIdOf = (req: Request) => idParam((req.params as Record<string, string | undefined>).projectId, 'project');
+
 export function devicesRoutes(dataSource: DataSource): Router {
   const router = Router({ mergeParams: true });
   router.use(requireSignIn);
   router.get('/', async (req, res) => {
-    res.json({ items: await listDeviceModels(dataSource, currentUser(req), idParam(req.params.projectId, 'project')) });
+    res.json({ items: await listDeviceModels(dataSource, currentUser(req), projectIdOf(req)) });
   });
   router.post('/', requirePermission('devices:write'), receiveModelFile, async (req, res) => {
-    const projectId = idParam(req.params.projectId, 'project');
+    const projectId = projectIdOf(req);
     if (!req.file) {
       throw invalid([{ path: `/${MODEL_FILE_FIELD}`, message: `attach a text file of .model cards in the form field "${MODEL_FILE_FIELD}" (multipart/form-data)` }], 'No file was uploaded.');
     }

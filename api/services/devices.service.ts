@@ -101,10 +101,9 @@ export async function uploadDeviceModels(dataSource: DataSource, actor: Viewer, 
   const fileName = safeFileName(file.originalName);
   const result = readModelFile(file.bytes);
   if (!result.ok) {
-    const count = result.problems.length;
     throw invalid(
       result.problems.map((problem) => ({ path: '/file', message: problem.message, ...(problem.line !== undefined ? { line: problem.line } : {}) })),
-      `${fileName} was not saved: ${count === 1 ? 'one problem' : `${count} problems`} to fix first.`,
+      `${fileName} was not saved: fix ${result.problems.length === 1 ? 'the problem' : 'the problems'} listed, then upload it again.`,
     );
   }
   const checksum = createHash('sha256').update(file.bytes).digest('hex');

@@ -157,6 +157,11 @@ export class VerificationQueue {
   private async runJob(job: VerificationJob): Promise<void> {
     try {
       const { proposal, spec, result } = await loadProposal(this.dataSource, job.proposalId);
+      const targets = job.kind === 'proposal' ? await verificationTargets(this.dataSource, proposal, spec, result, this.options.netlistHook) : [];
+      const sizes = targets.map((t) => analysesPerOption(t.option.corners.length));
+      const offsets = sizes.map((_, i) => sizes.slice(0, i).reduce((a, b) => a + b, 0));
+      const total = job.kind === 'proposal' ? sizes.reduce((a, b) => a + b, 0) : (job.runs ?? 0);
+      await this.write(job.id, { total, done: 0, step: 'Starting the simulator' });
       const simulatorStartMs = await this.engine.start();
       const simulator = await this.engine.version();
       if (job.kind === 'monte-carlo') {
@@ -169,11 +174,6 @@ export class VerificationQueue {
         await this.finish(job, outcome, job.runs ?? 0);
         return;
       }
-      const targets = await verificationTargets(this.dataSource, proposal, spec, result, this.options.netlistHook);
-      const sizes = targets.map((t) => analysesPerOption(t.option.corners.length));
-      const offsets = sizes.map((_, i) => sizes.slice(0, i).reduce((a, b) => a + b, 0));
-      const total = sizes.reduce((a, b) => a + b, 0);
-      await this.write(job.id, { total, done: 0 });
       const progress = this.progressWriter(job.id);
       const t0 = performance.now();
       const options: OptionVerification[] = [];

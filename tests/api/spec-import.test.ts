@@ -9,6 +9,7 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { AuditEventEntity } from '../../api/entities/audit-event.entity';
 import { SpecVersionEntity } from '../../api/entities/spec-version.entity';
 import { SpecEntity } from '../../api/entities/spec.entity';
+import type { Proposal } from '../../web/src/lib/api-types';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
 
 let api: TestApi;
@@ -301,7 +302,7 @@ describe('GET /api/projects/:id/proposals.csv', () => {
     const fresh = (await api.createProject(['requirements', 'designer'], 'Tarn level probe — batch export')).id;
     const report = (await upload(requirements, importUrl(fresh), mixedCsv()).expect(200)).body;
     const specIds = (report.rows as ReportRow[]).filter((r) => r.ok).map((r) => r.specId!);
-    const proposals = [];
+    const proposals: Proposal[] = [];
     for (const specId of specIds) proposals.push((await requirements.post(`/api/specs/${specId}/proposals`).expect(201)).body);
     const ids = proposals.map((p) => p.id);
 
@@ -313,7 +314,7 @@ describe('GET /api/projects/:id/proposals.csv', () => {
     expect(parsed.data.map((r) => r.spec_title)).toEqual(VALID_TITLES);
     parsed.data.forEach((row, i) => {
       const proposal = proposals[i];
-      const option = proposal.result.options.find((o: { topology: string }) => o.topology === (proposal.result.recommended ?? proposal.result.options[0].topology));
+      const option = proposal.result.options.find((o) => o.topology === (proposal.result.recommended ?? proposal.result.options[0].topology))!;
       expect(row).toEqual({
         spec_title: proposal.specVersion.title,
         spec_version: '1',
@@ -323,9 +324,9 @@ describe('GET /api/projects/:id/proposals.csv', () => {
         figures_of_topology: option.topology,
         passes: String(option.passes),
         rejection_db: String(option.rejectionDb),
-        tail_current_a: String(option.predicted.tailCurrentA),
-        gain_v_per_v: String(option.figures.gainPredicted),
-        power_worst_w: String(option.figures.powerWorstW),
+        tail_current_a: String(option.predicted!.tailCurrentA),
+        gain_v_per_v: String(option.figures!.gainPredicted),
+        power_worst_w: String(option.figures!.powerWorstW),
       });
     });
   });

@@ -46,6 +46,12 @@ describe('the column set', () => {
     expect(readFileSync(COLUMNS_DOC_PATH, 'utf8')).toBe(specCsvColumnsMarkdown());
   });
 
+  test('when DEVELOPERS.md lists today’s columns under "Batch import", then it names every column of the schema', () => {
+    const guide = readFileSync(new URL('../../../DEVELOPERS.md', import.meta.url), 'utf8');
+    const section = guide.slice(guide.indexOf('## Batch import'), guide.indexOf('\n## ', guide.indexOf('## Batch import') + 1));
+    expect(SPEC_CSV_COLUMNS.map((c) => c.name).filter((name) => !section.includes(`\`${name}\``))).toEqual([]);
+  });
+
   test('when the table is written, then each column has one line with its unit and default', () => {
     const lines = specCsvColumnsMarkdown().split('\n');
     expect(lines.filter((l) => l.startsWith('| `'))).toHaveLength(SPEC_CSV_COLUMNS.length);

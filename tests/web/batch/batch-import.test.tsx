@@ -46,6 +46,15 @@ function report(dryRun: boolean): ImportReport {
   };
 }
 
+/** jsdom's File has no text(): read it as the browser's FileReader would. */
+const readText = (file: File) =>
+  new Promise<string>((resolve, reject) => {
+    const reader = new FileReader();
+    reader.onload = () => resolve(String(reader.result));
+    reader.onerror = () => reject(reader.error);
+    reader.readAsText(file);
+  });
+
 const json = (status: number, body: unknown) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 
 let sent: string[];
@@ -73,7 +82,7 @@ beforeEach(() => {
     if (key === 'GET /api/auth/csrf') return json(200, { token: 't' });
     if (key.startsWith('POST /api/projects/1/specs/import')) {
       const file = (init?.body as FormData).get('file') as File;
-      uploads.push({ url, fileName: file.name, text: await file.text() });
+      uploads.push({ url, fileName: file.name, text: await readText(file) });
       return json(200, report(url.endsWith('?dryRun=true') === true));
     }
     const rank = /^POST \/api\/specs\/(\d+)\/proposals$/.exec(key);

@@ -110,7 +110,7 @@ describe('DeviceLibrary', () => {
     stubServer([], {
       status: 400,
       body: {
-        error: 'bad-parts.lib was not saved: 2 problems to fix first.',
+        error: 'bad-parts.lib was not saved: fix the problems listed, then upload it again.',
         code: 'invalid-request',
         details: [
           { path: '/file', line: 3, message: 'FH-P150: PNP models are not supported; the library holds NPN transistor models only.' },
@@ -124,7 +124,7 @@ describe('DeviceLibrary', () => {
     await userEvent.upload(input, new File(['.model FH-P150 PNP\n'], 'bad-parts.lib', { type: 'text/plain' }));
 
     const alert = await screen.findByRole('alert');
-    expect(alert.textContent).toContain('bad-parts.lib was not saved: 2 problems to fix first.');
+    expect(alert.textContent).toContain('bad-parts.lib was not saved: fix the problems listed, then upload it again.');
     const items = within(alert).getAllByRole('listitem').map((li) => li.textContent);
     expect(items).toEqual([
       'Line 3: FH-P150: PNP models are not supported; the library holds NPN transistor models only.',
