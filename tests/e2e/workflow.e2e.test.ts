@@ -337,6 +337,26 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await record(actor, 'accepted');
   });
 
+  it('the reviewer runs every option through SPICE, watches it progress and reads engine and ngspice side by side', async () => {
+    const actor = actors.reviewer;
+    const { page } = actor;
+    await openProposal(actor);
+    const panel = await visible(page.getByRole('region', { name: 'SPICE check' }));
+    await panel.getByRole('button', { name: /Run every option through SPICE/ }).click();
+    const progress = await visible(panel.getByRole('progressbar'));
+    await progress.first().waitFor();
+    await shots.take(page, 'verification-progress');
+    const tally = await visible(panel.getByText(/(\d+) of \1 agree with the engine within tolerance/), 120_000);
+    expect(await tally.first().textContent()).toMatch(/\b6 of 6 agree/);
+    // Engine and ngspice figures, their difference, tolerance and verdict for the selected option.
+    const table = panel.getByRole('table').filter({ hasText: 'Tail current' }).first();
+    await visible(table.getByRole('columnheader', { name: 'Engine' }));
+    await visible(table.getByRole('columnheader', { name: 'ngspice' }));
+    await visible(table.getByRole('row').filter({ hasText: 'Tail output resistance' }).getByText(/Agrees/));
+    await visible(panel.getByText(/Rejection against frequency/));
+    await record(actor, 'verification-result');
+  });
+
   it('the reviewer approves; the systems engineer sees no review controls on the approved record', async () => {
     const actor = actors.reviewer;
     const { page } = actor;
@@ -356,18 +376,37 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     expect(await decisionControls(author.page).count()).toBe(0);
   });
 
+  it('the review report shows every section with the SPICE results and prints to PDF', async () => {
+    const actor = actors.reviewer;
+    const { page } = actor;
+    await openProposal(actor);
+    await page.getByRole('link', { name: 'Review report' }).click();
+    for (const title of ['Cautions', 'Requirement spec', 'Ranked options', 'Chosen design', 'Checks', 'SPICE verification', 'Audit trail', 'Sources of the formulas']) {
+      await visible(page.getByRole('heading', { level: 2, name: new RegExp(title) }));
+    }
+    await visible(page.getByText(/Every figure agrees within its tolerance/));
+    expect(await page.getByText('Not verified yet.').count()).toBe(0);
+    await record(actor, 'review-report');
+    await page.emulateMedia({ media: 'print' });
+    await shots.take(page, 'review-report-print');
+    const pdf = await page.pdf({ format: 'A4', printBackground: false });
+    expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
+    await page.emulateMedia({ media: 'screen' });
+  });
+
   it('the record shows every step, in order, with who did it', async () => {
     const actor = actors.requirements;
     const timeline = await visible(actor.page.getByRole('region', { name: 'Record of this proposal' }));
     const events = timeline.getByRole('list', { name: 'Events, oldest first' }).getByRole('listitem');
-    await visible(events.nth(4));
+    await visible(events.nth(5));
     const texts = await events.allInnerTexts();
-    expect(texts).toHaveLength(5);
+    expect(texts).toHaveLength(6);
     const expected: [string, RegExp][] = [
       [PEOPLE.requirements, new RegExp(`asked for a ranking of spec version 1: ranked by the engine; recommended: ${recommended}`, 'i')],
       [PEOPLE.designer, /decided: own values \(Degenerated mirror\)[\s\S]*Reason: .?Stock on hand/],
       [PEOPLE.reviewer, /returned the decision to the designer[\s\S]*Comment: .?The 1 kΩ emitter resistors/],
       [PEOPLE.designer, new RegExp(`decided: accepted the recommendation \\(${recommended}\\)`, 'i')],
+      [PEOPLE.reviewer, /asked for a SPICE check of every option/],
       [PEOPLE.reviewer, /approved the decision[\s\S]*Comment: .?Recommended degenerated mirror/],
     ];
     expected.forEach(([who, what], i) => {

@@ -54,6 +54,12 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
         ...transition,
       };
     }
+    case 'proposal.verification-requested':
+      return { what: 'asked for a SPICE check of every option' };
+    case 'proposal.monte-carlo-requested': {
+      const runs = typeof details.runs === 'number' ? `${details.runs} runs` : 'runs';
+      return { what: `asked for a SPICE Monte Carlo of the ${topologyTitle(typeof details.topology === 'string' ? details.topology : undefined)} (${runs})` };
+    }
     default:
       return { what: event.action.replace(/[.-]/g, ' '), ...transition };
   }
