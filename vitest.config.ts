@@ -4,6 +4,25 @@ import { configDefaults, defineConfig } from 'vitest/config';
 // Two projects: everything but the browser tests, and the browser tests (tests/e2e), whose
 // globalSetup builds dist/web first. A project's globalSetup runs only when one of its files is
 // queued, so `npx vitest run tests/unit` builds nothing.
+// A third, `api-postgres`, exists only when LONGTAIL_TEST_DATABASE_URL names a PostgreSQL server
+// (scripts/start-test-postgres.sh prints one; .ci/run sets it): the API suite again, each test
+// file on its own new database there (tests/helpers/test-database.ts). Without the variable,
+// `npm test` runs the API suite on SQLite alone.
+const postgresUrl = process.env.LONGTAIL_TEST_DATABASE_URL?.trim();
+const postgresProjects = postgresUrl
+  ? [
+      {
+        extends: true,
+        test: {
+          name: 'api-postgres',
+          include: ['tests/api/**/*.test.ts'],
+          env: { LONGTAIL_TEST_BACKEND: 'postgres', LONGTAIL_TEST_DATABASE_URL: postgresUrl },
+          globalSetup: ['tests/helpers/postgres-global-setup.ts'],
+        },
+      },
+    ]
+  : [];
+
 export default defineConfig({
   plugins: [react()],
   test: {
@@ -12,12 +31,13 @@ export default defineConfig({
     projects: [
       {
         extends: true,
-        test: { name: 'unit', include: ['tests/**/*.test.ts', 'tests/**/*.test.tsx'], exclude: [...configDefaults.exclude, 'tests/e2e/**'] },
+        test: { name: 'unit', include: ['tests/**/*.test.ts', 'tests/**/*.test.tsx'], exclude: [...configDefaults.exclude, 'tests/e2e/**'], env: { LONGTAIL_TEST_BACKEND: 'sqlite' } },
       },
       {
         extends: true,
         test: { name: 'e2e', include: ['tests/e2e/**/*.test.ts'], globalSetup: ['tests/e2e/global-setup.ts'], testTimeout: 240_000, hookTimeout: 120_000 },
       },
+      ...postgresProjects,
     ],
   },
 });

@@ -2,7 +2,9 @@
  * createApp(deps) -> the Express app. It never listens and never reads the environment:
  * server.ts does, and tests import this with an in-memory database.
  */
-import { join } from 'node:path';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import session from 'express-session';
@@ -19,6 +21,7 @@ import { authRoutes } from './routes/auth.routes';
 import { batchRoutes } from './routes/batch.routes';
 import { devicesRoutes } from './routes/devices.routes';
 import { engineRoutes } from './routes/engine.routes';
+import { measurementsRoutes } from './routes/measurements.routes';
 import { projectsRoutes } from './routes/projects.routes';
 import { proposalsRoutes } from './routes/proposals.routes';
 import { VerificationQueue } from './verification/verification-queue';
@@ -43,6 +46,11 @@ export interface AppDeps {
   staticDir?: string;
   /** The SPICE verification queue (default: one on this database, its engine started on the first job). */
   verification?: VerificationQueue;
+  /**
+   * Where uploaded files (bench measurements) are kept, named by their sha256. Default: `uploads`
+   * beside a SQLite file; for an in-memory database a temporary folder removed by closeApp.
+   */
+  uploadsDir?: string;
 }
 
 export interface LongtailApp extends Express {
@@ -50,6 +58,15 @@ export interface LongtailApp extends Express {
   closeApp(): void;
   /** The verification queue the routes feed (tests wait on it and close it). */
   verification: VerificationQueue;
+  /** Where uploaded files are kept (AppDeps.uploadsDir or its default). */
+  uploadsDir: string;
+}
+
+/** The default uploads folder: beside a SQLite file, else a temporary one (removed by closeApp). */
+function defaultUploadsDir(dataSource: DataSource): { dir: string; temporary: boolean } {
+  const database = dataSource.options.type === 'better-sqlite3' ? String(dataSource.options.database) : '';
+  if (database !== '' && database !== ':memory:') return { dir: join(dirname(resolve(database)), 'uploads'), temporary: false };
+  return { dir: mkdtempSync(join(tmpdir(), 'longtail-uploads-')), temporary: true };
 }
 
 export function createApp(deps: AppDeps): LongtailApp {
@@ -102,6 +119,9 @@ export function createApp(deps: AppDeps): LongtailApp {
   const verification =
     deps.verification ?? new VerificationQueue(deps.dataSource, { log: deps.log, singleInstance: deps.dataSource.options.type === 'better-sqlite3' });
   app.verification = verification;
+  const uploads = deps.uploadsDir ? { dir: resolve(deps.uploadsDir), temporary: false } : defaultUploadsDir(deps.dataSource);
+  app.uploadsDir = uploads.dir;
+  app.use('/api/proposals/:proposalId/measurements', measurementsRoutes(deps.dataSource, uploads.dir));
   app.use('/api/proposals', proposalsRoutes(deps.dataSource, deps.ruleSet, verification));
   app.use('/api/admin', adminRoutes(deps.dataSource));
   app.use('/api', engineRoutes(deps.ruleSet));
@@ -115,6 +135,7 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.closeApp = () => {
     store.close();
     void verification.close();
+    if (uploads.temporary) rmSync(uploads.dir, { recursive: true, force: true });
   };
   return app;
 }

@@ -1,27 +1,80 @@
 /**
- * The TypeORM data source: SQLite through better-sqlite3, WAL journal (acknowledged writes
- * survive a killed process), foreign keys on, a busy timeout; migrations, never synchronize.
+ * The TypeORM data source, on one of two back ends:
+ *
+ * - SQLite (the embedded default): a file path or ":memory:", through better-sqlite3; WAL journal
+ *   (acknowledged writes survive a killed process), foreign keys on, a busy timeout.
+ * - PostgreSQL: a `postgres://` (or `postgresql://`) URL, through node-postgres with a small pool;
+ *   64-bit integers (count(*), bigint columns) come back as numbers, as the code expects.
+ *
+ * The same migrations build both (TypeORM's portable Table API); never synchronize.
  */
 import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
-import { DataSource } from 'typeorm';
+import { DataSource, type EntityManager, type EntityTarget, type ObjectLiteral } from 'typeorm';
 import { ENTITIES } from './entities/index';
 import { MIGRATIONS } from './migrations/index';
 
 /** How long a writer waits for another connection's lock before failing, ms. */
 const BUSY_TIMEOUT_MS = 5000;
+/** PostgreSQL connections per app instance (LONGTAIL_DB_POOL_SIZE overrides it through the config). */
+export const DEFAULT_POOL_SIZE = 10;
+/** Key of the advisory lock that lets one instance at a time run migrations on PostgreSQL. */
+const MIGRATION_LOCK_KEY = 0x4c6f6e67; // "Long"
 
-/** A data source on a SQLite file, or ":memory:" for tests. Not yet initialised. */
-export function createDataSource(databasePath: string): DataSource {
-  if (databasePath !== ':memory:') mkdirSync(dirname(databasePath), { recursive: true });
+export interface DatabaseOptions {
+  /** PostgreSQL only: connections in the pool. */
+  poolSize?: number;
+}
+
+/** True for a PostgreSQL connection URL, false for a SQLite path. */
+export function isPostgresUrl(location: string): boolean {
+  return /^postgres(ql)?:\/\//i.test(location);
+}
+
+/** The location with any password replaced by "***", for logs. */
+export function describeDatabase(location: string): string {
+  if (!isPostgresUrl(location)) return location;
+  try {
+    const url = new URL(location);
+    if (url.password) url.password = '***';
+    return url.toString();
+  } catch {
+    return 'postgres://(unreadable URL)';
+  }
+}
+
+/** True when the data source runs on PostgreSQL (row locks, several instances). */
+export function isPostgres(dataSource: DataSource): boolean {
+  return dataSource.options.type === 'postgres';
+}
+
+/** A data source on a SQLite file, ":memory:", or a PostgreSQL URL. Not yet initialised. */
+export function createDataSource(location: string, options: DatabaseOptions = {}): DataSource {
+  if (isPostgresUrl(location)) {
+    return new DataSource({
+      type: 'postgres',
+      url: location,
+      entities: ENTITIES,
+      migrations: MIGRATIONS,
+      synchronize: false,
+      migrationsRun: false,
+      poolSize: options.poolSize ?? DEFAULT_POOL_SIZE,
+      // int8 (count(*), bigint columns) as JavaScript numbers: every such value here is a count
+      // or milliseconds since the epoch, far below 2^53. int4 (every id) is a number anyway.
+      parseInt8: true,
+      applicationName: 'longtail',
+      connectTimeoutMS: 10_000,
+    });
+  }
+  if (location !== ':memory:') mkdirSync(dirname(location), { recursive: true });
   return new DataSource({
     type: 'better-sqlite3',
-    database: databasePath,
+    database: location,
     entities: ENTITIES,
     migrations: MIGRATIONS,
     synchronize: false,
     migrationsRun: false,
-    enableWAL: databasePath !== ':memory:',
+    enableWAL: location !== ':memory:',
     prepareDatabase: (db: { pragma(statement: string): unknown }) => {
       db.pragma('foreign_keys = ON');
       db.pragma(`busy_timeout = ${BUSY_TIMEOUT_MS}`);
@@ -31,10 +84,46 @@ export function createDataSource(databasePath: string): DataSource {
   });
 }
 
+/**
+ * Runs pending migrations. On PostgreSQL several instances may start at once: a session-level
+ * advisory lock (TypeORM takes none) lets one of them migrate while the others wait, then find
+ * nothing left to do.
+ */
+export async function migrate(dataSource: DataSource): Promise<void> {
+  if (!isPostgres(dataSource)) {
+    await dataSource.runMigrations({ transaction: 'each' });
+    return;
+  }
+  const lock = dataSource.createQueryRunner();
+  try {
+    await lock.query('SELECT pg_advisory_lock($1)', [MIGRATION_LOCK_KEY]);
+    await dataSource.runMigrations({ transaction: 'each' });
+  } finally {
+    await lock.query('SELECT pg_advisory_unlock($1)', [MIGRATION_LOCK_KEY]).catch(() => undefined);
+    await lock.release();
+  }
+}
+
 /** Initialises a data source and runs pending migrations. */
-export async function openDatabase(databasePath: string): Promise<DataSource> {
-  const dataSource = createDataSource(databasePath);
+export async function openDatabase(location: string, options: DatabaseOptions = {}): Promise<DataSource> {
+  const dataSource = createDataSource(location, options);
   await dataSource.initialize();
-  await dataSource.runMigrations({ transaction: 'each' });
+  try {
+    await migrate(dataSource);
+  } catch (error) {
+    await dataSource.destroy().catch(() => undefined);
+    throw error;
+  }
   return dataSource;
+}
+
+/**
+ * Inside a transaction: on PostgreSQL, locks the row (`SELECT ... FOR UPDATE`) so concurrent
+ * transactions that check a state and then change it (a proposal's workflow step, a spec's next
+ * version number) run one after the other, as they do on SQLite, where one connection
+ * serialises every transaction. A no-op on SQLite.
+ */
+export async function lockRowForUpdate(manager: EntityManager, entity: EntityTarget<ObjectLiteral>, id: number): Promise<void> {
+  if (manager.connection.options.type !== 'postgres') return;
+  await manager.getRepository(entity).createQueryBuilder('row').select('row.id').where('row.id = :id', { id }).setLock('pessimistic_write').getRawOne();
 }

@@ -7,7 +7,7 @@ import { existsSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { createApp } from './app';
 import { loadConfig } from './config';
-import { openDatabase } from './data-source';
+import { describeDatabase, openDatabase } from './data-source';
 import { startLocalSmtp, type LocalSmtp } from './mail/local-smtp';
 import { startOutboxWorker, type OutboxWorker } from './mail/outbox-worker';
 import { createMailTransport, describeMailTarget, type MailTarget } from './mail/transport';
@@ -16,7 +16,7 @@ import { loadRuleSet } from '../rules/index';
 import { DEMO_DOMAIN, seedDemo, seedFirstAdmin } from './seed/demo-seed';
 
 const config = loadConfig();
-const dataSource = await openDatabase(config.databasePath);
+const dataSource = await openDatabase(config.database, { poolSize: config.databasePoolSize });
 const ruleSet = await loadRuleSet();
 
 configureNotifications({ baseUrl: config.baseUrl });
@@ -46,9 +46,9 @@ if (config.firstAdmin && (await seedFirstAdmin(dataSource, config.firstAdmin))) 
 const webDir = resolve('dist/web');
 const staticDir = existsSync(join(webDir, 'index.html')) ? webDir : undefined;
 if (!staticDir) console.log('No built browser app in dist/web (npm run build): serving the API only.');
-const app = createApp({ dataSource, sessionSecret: config.sessionSecret, ruleSet, trustProxy: config.trustProxy, staticDir });
+const app = createApp({ dataSource, sessionSecret: config.sessionSecret, ruleSet, trustProxy: config.trustProxy, staticDir, uploadsDir: config.uploadsDir });
 const server = app.listen(config.port, () => {
-  console.log(`Longtail listening on http://localhost:${config.port} (database ${config.databasePath})`);
+  console.log(`Longtail listening on http://localhost:${config.port} (database ${describeDatabase(config.database)})`);
   // Start the SPICE engine now, in its own thread, so the first verification does not wait for it.
   app.verification.engine.start().catch((error: unknown) => console.error(`The SPICE engine did not start: ${error instanceof Error ? error.message : String(error)}`));
 });

@@ -52,8 +52,10 @@ export class TypeormSessionStore extends session.Store {
   }
 
   override set(sid: string, data: session.SessionData, callback?: Callback): void {
+    // One statement (INSERT ... ON CONFLICT DO UPDATE), not a read then a write: two app
+    // instances, or two requests of one browser, may save the same session at the same time.
     this.repository
-      .save({ id: sid, expiresAtMs: this.expiry(data), data: JSON.stringify(data) })
+      .upsert({ id: sid, expiresAtMs: this.expiry(data), data: JSON.stringify(data) }, { conflictPaths: ['id'], skipUpdateIfNoValuesChanged: false })
       .then(() => callback?.())
       .catch((error) => callback?.(error));
   }

@@ -3,6 +3,7 @@ import { AuditEventEntity } from './audit-event.entity';
 import { DecisionEntity } from './decision.entity';
 import { DeviceModelEntity } from './device-model.entity';
 import { MailMessageEntity } from './mail-message.entity';
+import { MeasurementEntity } from './measurement.entity';
 import { MailOutboxEntity } from './mail-outbox.entity';
 import { ProjectMemberEntity } from './project-member.entity';
 import { ProjectEntity } from './project.entity';
@@ -29,4 +30,5 @@ export const ENTITIES = [
   VerificationJobEntity,
   MailOutboxEntity,
   MailMessageEntity,
+  MeasurementEntity,
 ];

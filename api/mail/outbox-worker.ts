@@ -2,14 +2,17 @@
  * The outbox worker: sends the pending rows of `mail_outbox` through an SMTP transport, one
  * message per row, oldest due first. A failed attempt records the error, counts the attempt and
  * schedules the next one with exponential backoff; after `maxAttempts` the row is marked failed
- * (and stays in the table). A sent row is marked sent with the time. Each row is claimed with a
- * conditional update (a lease on `next_attempt_at`) before sending, so two workers, or a tick and
- * an explicit run, never send the same row twice.
+ * (and stays in the table). A sent row is marked sent with the time. Each row is claimed before
+ * sending by moving `next_attempt_at` forward (a lease), so two workers, or a tick and an explicit
+ * run, never send the same row twice: on SQLite (one server) with a conditional update per row;
+ * on PostgreSQL (several app instances) the due rows are selected `FOR UPDATE SKIP LOCKED` and
+ * leased in one short transaction, so each instance takes rows no other instance holds.
  *
  * Started by server.ts (never by createApp); tests start it explicitly.
  */
-import { LessThanOrEqual, type DataSource } from 'typeorm';
+import { In, LessThanOrEqual, type DataSource } from 'typeorm';
 import type { SendMailOptions } from 'nodemailer';
+import { isPostgres } from '../data-source';
 import { MailOutboxEntity, type MailOutbox } from '../entities/mail-outbox.entity';
 
 /** What the worker needs of a nodemailer transport. */
@@ -79,10 +82,12 @@ export function createOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
   let timer: NodeJS.Timeout | null = null;
   let stopped = false;
 
-  /** Claims the row (if nobody else did) and sends it. */
-  async function attempt(row: MailOutbox): Promise<'sent' | 'failed' | 'skipped'> {
-    const claimed = await repository().update({ id: row.id, status: 'pending', nextAttemptAt: row.nextAttemptAt }, { nextAttemptAt: iso(Date.now() + settings.leaseMs) });
-    if (!claimed.affected) return 'skipped';
+  /** Claims the row (if nobody else did; unless already leased) and sends it. */
+  async function attempt(row: MailOutbox, leased: boolean): Promise<'sent' | 'failed' | 'skipped'> {
+    if (!leased) {
+      const claimed = await repository().update({ id: row.id, status: 'pending', nextAttemptAt: row.nextAttemptAt }, { nextAttemptAt: iso(Date.now() + settings.leaseMs) });
+      if (!claimed.affected) return 'skipped';
+    }
     try {
       await transport.sendMail({
         from,
@@ -107,16 +112,45 @@ export function createOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
     return 'sent';
   }
 
-  async function run(): Promise<OutboxRun> {
-    const due = await repository().find({
-      where: { status: 'pending', nextAttemptAt: LessThanOrEqual(iso(Date.now())) },
-      order: { nextAttemptAt: 'ASC', id: 'ASC' },
-      take: settings.batchSize,
+  /**
+   * PostgreSQL: the due rows no other transaction holds, locked, leased and committed at once;
+   * rows another instance is leasing are skipped rather than waited for.
+   */
+  function leaseDueRows(): Promise<MailOutbox[]> {
+    return dataSource.transaction(async (manager) => {
+      const rows = await manager
+        .getRepository(MailOutboxEntity)
+        .createQueryBuilder('row')
+        .where('row.status = :status', { status: 'pending' })
+        .andWhere('row.nextAttemptAt <= :now', { now: iso(Date.now()) })
+        .orderBy('row.nextAttemptAt', 'ASC')
+        .addOrderBy('row.id', 'ASC')
+        .limit(settings.batchSize)
+        .setLock('pessimistic_write')
+        .setOnLocked('skip_locked')
+        .getMany();
+      if (rows.length > 0) await manager.getRepository(MailOutboxEntity).update({ id: In(rows.map((r) => r.id)) }, { nextAttemptAt: iso(Date.now() + settings.leaseMs) });
+      return rows;
     });
+  }
+
+  async function run(): Promise<OutboxRun> {
+    const leased = isPostgres(dataSource);
+    const due = leased
+      ? await leaseDueRows()
+      : await repository().find({
+          where: { status: 'pending', nextAttemptAt: LessThanOrEqual(iso(Date.now())) },
+          order: { nextAttemptAt: 'ASC', id: 'ASC' },
+          take: settings.batchSize,
+        });
     const counts: OutboxRun = { sent: 0, failed: 0 };
-    for (const row of due) {
-      if (stopped) break;
-      const outcome = await attempt(row);
+    for (const [index, row] of due.entries()) {
+      if (stopped) {
+        // Leased rows not tried: give them back at once rather than after the lease.
+        if (leased) await repository().update({ id: In(due.slice(index).map((r) => r.id)), status: 'pending' }, { nextAttemptAt: iso(Date.now()) }).catch(() => undefined);
+        break;
+      }
+      const outcome = await attempt(row, leased);
       if (outcome !== 'skipped') counts[outcome] += 1;
     }
     return counts;

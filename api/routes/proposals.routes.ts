@@ -7,6 +7,7 @@ import { rankingCsv } from '../../shared/export/ranking-csv';
 import { validateDesign } from '../../shared/validate';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
+import { listMeasurements } from '../services/measurements.service';
 import { decide, evaluateOverride, getProposal, proposalAudit, proposalNetlist, review } from '../services/proposals.service';
 import { DECISION_BODY, EVALUATION_BODY, MONTE_CARLO_BODY, NETLIST_QUERY, REVIEW_BODY } from '../validation/bodies';
 import { requestMonteCarlo, requestVerification, verificationStatus } from '../services/verification.service';
@@ -41,8 +42,13 @@ export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet, verifi
   router.get('/:id/export.json', async (req, res) => {
     const viewer = currentUser(req);
     const id = idParam(req.params.id, 'proposal');
-    const [proposal, audit, verification] = await Promise.all([getProposal(dataSource, viewer, id), proposalAudit(dataSource, viewer, id), verificationStatus(dataSource, viewer, id)]);
-    res.attachment(`longtail-proposal-${proposal.id}.json`).json({ exportedAt: new Date().toISOString(), notice: ESTIMATE_NOTICE, proposal, verification, audit });
+    const [proposal, audit, verification, measurements] = await Promise.all([
+      getProposal(dataSource, viewer, id),
+      proposalAudit(dataSource, viewer, id),
+      verificationStatus(dataSource, viewer, id),
+      listMeasurements(dataSource, viewer, id),
+    ]);
+    res.attachment(`longtail-proposal-${proposal.id}.json`).json({ exportedAt: new Date().toISOString(), notice: ESTIMATE_NOTICE, proposal, verification, measurements, audit });
   });
   router.get('/:id/verification', async (req, res) => {
     res.json(await verificationStatus(dataSource, currentUser(req), idParam(req.params.id, 'proposal')));

@@ -1,7 +1,8 @@
 /**
  * The demo organisation, seeded on an empty database for the local run: Fernhollow Instruments
  * (invented), four accounts, one per role, three projects with specs in different states and
- * proposals through the workflow. Everything goes through the services, so the audit trail is real.
+ * proposals through the workflow, and a small device library (invented NPN .model cards) in the
+ * load-cell project. Everything goes through the services, so the audit trail is real.
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -10,6 +11,7 @@ import type { DataSource } from 'typeorm';
 import type { RuleSet } from '../../shared/engine/types';
 import type { Role } from '../../shared/workflow/roles';
 import { UserEntity } from '../entities/user.entity';
+import { uploadDeviceModels } from '../services/devices.service';
 import { addMember, createProject } from '../services/projects.service';
 import { createProposal, decide, review } from '../services/proposals.service';
 import { createSpec, updateSpec } from '../services/specs.service';
@@ -24,7 +26,10 @@ const DEMO_PEOPLE: { role: Role; displayName: string }[] = [
   { role: 'reviewer', displayName: 'Samir Edelstein' },
 ];
 
-const specsDir = join(fileURLToPath(new URL('.', import.meta.url)), '..', 'demo', 'specs');
+const demoDir = join(fileURLToPath(new URL('.', import.meta.url)), '..', 'demo');
+const specsDir = join(demoDir, 'specs');
+/** Invented NPN .model cards (FH2N22, FH2N24, FH2N26), uploaded into the load-cell project's library. */
+export const DEMO_DEVICE_FILE = 'fernhollow-npn.lib';
 const demoSpec = (file: string) => JSON.parse(readFileSync(join(specsDir, file), 'utf8')) as Record<string, unknown> & { title: string };
 
 /** Seeds the demo when the database has no account yet. Returns false when it had one. */
@@ -46,6 +51,8 @@ export async function seedDemo(dataSource: DataSource, ruleSet: RuleSet, passwor
   const bridge = demoSpec('strain-bridge-receiver.json');
   const bridgeSpec = await createSpec(dataSource, people.requirements, loadCell.id, { title: bridge.title.replace('rev B', 'rev A'), payload: { ...bridge, cmrr: { ...(bridge.cmrr as object), marginDb: 3 } } });
   await updateSpec(dataSource, people.requirements, bridgeSpec.id, { title: bridge.title, payload: bridge });
+  // Its device library, uploaded by the systems engineer as the upload route does (checksum, audit events)
+  await uploadDeviceModels(dataSource, people.requirements, loadCell.id, { originalName: DEMO_DEVICE_FILE, bytes: readFileSync(join(demoDir, 'devices', DEMO_DEVICE_FILE)) });
   const bridgeProposal = await createProposal(dataSource, people.designer, bridgeSpec.id, ruleSet);
   await decide(dataSource, people.designer, bridgeProposal.id, { kind: 'accept' }, ruleSet);
   await review(dataSource, people.reviewer, bridgeProposal.id, { verdict: 'approve', comment: 'Margins hold at the hot corner; matches the bench notes from the rev A board.' });

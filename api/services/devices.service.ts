@@ -13,6 +13,8 @@ import { cardCommentLines, cardDevice, cardNotes, readModelFile, type CardDevice
 import type { DeviceParams } from '../../shared/engine/types';
 import { DeviceModelEntity, type DeviceModel } from '../entities/device-model.entity';
 import { UserEntity } from '../entities/user.entity';
+import { lockRowForUpdate } from '../data-source';
+import { ProjectEntity } from '../entities/project.entity';
 import { AppError, invalid } from '../errors';
 import { recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
@@ -109,6 +111,8 @@ export async function uploadDeviceModels(dataSource: DataSource, actor: Viewer, 
   const checksum = createHash('sha256').update(file.bytes).digest('hex');
   const uploadedAt = new Date().toISOString();
   return dataSource.transaction(async (manager) => {
+    // PostgreSQL: uploads to one project's library one after the other, so a name taken meanwhile answers 409.
+    await lockRowForUpdate(manager, ProjectEntity, projectId);
     const repository = manager.getRepository(DeviceModelEntity);
     const taken = await repository.find({ where: { projectId, nameKey: In(result.cards.map((card) => card.name.toLowerCase())) } });
     if (taken.length > 0) {

@@ -67,12 +67,12 @@ export async function queueNotification(manager: EntityManager, event: Notificat
     select: { id: true, projectId: true, specId: true, specVersionId: true, recommendedTopology: true },
     where: { id: event.proposalId },
   });
-  const [project, spec, version, memberships] = await Promise.all([
-    manager.getRepository(ProjectEntity).findOneByOrFail({ id: proposal.projectId }),
-    manager.getRepository(SpecEntity).findOneByOrFail({ id: proposal.specId }),
-    manager.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true, title: true, createdById: true }, where: { id: proposal.specVersionId } }),
-    manager.getRepository(ProjectMemberEntity).findBy({ projectId: proposal.projectId }),
-  ]);
+  // One after another: inside a transaction every query shares one connection (PostgreSQL's
+  // client refuses overlapping queries on one connection from pg 9 on).
+  const project = await manager.getRepository(ProjectEntity).findOneByOrFail({ id: proposal.projectId });
+  const spec = await manager.getRepository(SpecEntity).findOneByOrFail({ id: proposal.specId });
+  const version = await manager.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true, title: true, createdById: true }, where: { id: proposal.specVersionId } });
+  const memberships = await manager.getRepository(ProjectMemberEntity).findBy({ projectId: proposal.projectId });
   const people = await manager.getRepository(UserEntity).find({
     select: { id: true, email: true, displayName: true, role: true, notify: true },
     where: { id: In([...new Set([...memberships.map((m) => m.userId), event.actorId])]) },

@@ -15,6 +15,7 @@ import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { ReviewEntity, type Review, type Verdict } from '../entities/review.entity';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
 import { validateDesign } from '../../shared/validate';
+import { lockRowForUpdate } from '../data-source';
 import { AppError, invalid, notFound } from '../errors';
 import { auditView, recordEvent } from './audit.service';
 import { libraryCardNetlistComment } from './devices.service';
@@ -255,6 +256,8 @@ export async function decide(dataSource: DataSource, actor: Viewer, proposalId: 
   transition(before, 'decide');
   const settled = await settledDesign(before, input, ruleSet, dataSource);
   await dataSource.transaction(async (manager) => {
+    // PostgreSQL: concurrent steps on one proposal wait here, then see the state the first one left.
+    await lockRowForUpdate(manager, ProposalEntity, proposalId);
     const proposal = await proposalFor(manager, actor, proposalId);
     const status = transition(proposal, 'decide');
     const previous = await manager.getRepository(DecisionEntity).findOne({ where: { proposalId }, order: { id: 'DESC' } });
@@ -289,6 +292,7 @@ export async function decide(dataSource: DataSource, actor: Viewer, proposalId: 
 export async function review(dataSource: DataSource, actor: Viewer, proposalId: number, input: ReviewInput) {
   if (input.verdict === 'return' && !(input.comment ?? '').trim()) throw invalid([{ path: '/comment', message: 'is required when returning a proposal' }]);
   await dataSource.transaction(async (manager) => {
+    await lockRowForUpdate(manager, ProposalEntity, proposalId);
     const proposal = await proposalFor(manager, actor, proposalId);
     const status = transition(proposal, input.verdict);
     const decision = await manager.getRepository(DecisionEntity).findOneOrFail({ where: { proposalId }, order: { id: 'DESC' } });

@@ -18,6 +18,7 @@ import { diffJson } from '../../shared/json-diff';
 import { ProposalEntity } from '../entities/proposal.entity';
 import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { SpecEntity, type Spec } from '../entities/spec.entity';
+import { lockRowForUpdate } from '../data-source';
 import { invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
@@ -131,6 +132,11 @@ async function landRow(manager: EntityManager, actor: Viewer, projectId: number,
     if (dryRun) return { ...base, action: 'created', specId: null, version: null };
     const { spec } = await insertSpec(manager, actor, projectId, document.title, document, source);
     return { ...base, action: 'created', specId: spec.id, version: 1 };
+  }
+  if (!dryRun) {
+    // PostgreSQL: an edit of the same spec under way commits first; read its latest version after it.
+    await lockRowForUpdate(manager, SpecEntity, match.id);
+    match = await manager.getRepository(SpecEntity).findOneByOrFail({ id: match.id });
   }
   const previous = await latestVersion(manager, match);
   if (diffJson(JSON.parse(previous.payload), document).length === 0) return { ...base, action: 'unchanged', specId: match.id, version: match.latestVersion };

@@ -8,6 +8,7 @@ import { diffJson, type JsonChange } from '../../shared/json-diff';
 import { validateSpec } from '../../shared/validate';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
 import { SpecEntity, type Spec } from '../entities/spec.entity';
+import { lockRowForUpdate } from '../data-source';
 import { invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
@@ -105,6 +106,8 @@ export async function insertSpecVersion(manager: EntityManager, actor: Viewer, s
 export async function updateSpec(dataSource: DataSource, actor: Viewer, specId: number, input: SpecInput) {
   const document = checkedSpecDocument({ ...(input.payload as object), title: input.title.trim() });
   return dataSource.transaction(async (manager) => {
+    // PostgreSQL: concurrent edits of one spec take version numbers one after the other.
+    await lockRowForUpdate(manager, SpecEntity, specId);
     const spec = await specFor(manager, actor, specId);
     const previous = await latestVersion(manager, spec);
     const written = await insertSpecVersion(manager, actor, spec, previous, input.title.trim(), document);

@@ -7,6 +7,8 @@ import { In, type DataSource } from 'typeorm';
 import { UserEntity } from '../entities/user.entity';
 import { VerificationJobEntity, type VerificationJob } from '../entities/verification-job.entity';
 import { SpecVersionEntity } from '../entities/spec-version.entity';
+import { lockRowForUpdate } from '../data-source';
+import { ProposalEntity } from '../entities/proposal.entity';
 import { conflict } from '../errors';
 import type { RecommendResult } from '../../shared/engine/recommend';
 import { MONTE_CARLO_RUNS, type VerificationJobView, type VerificationKind, type VerificationStatus } from '../../shared/verification/types';
@@ -53,6 +55,8 @@ async function requestJob(
   runs: number | null,
 ): Promise<{ job: VerificationJobView; created: boolean }> {
   const { job, created } = await dataSource.transaction(async (manager) => {
+    // PostgreSQL: two requests at once see each other's job (one job, not two).
+    await lockRowForUpdate(manager, ProposalEntity, proposalId);
     const proposal = await proposalFor(manager, actor, proposalId);
     const repository = manager.getRepository(VerificationJobEntity);
     const active = await repository.findOne({

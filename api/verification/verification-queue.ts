@@ -2,9 +2,12 @@
  * Verification jobs: asked for through the API, run in the background one at a time on the one
  * long-lived SPICE engine, progress written to the job row as it goes.
  *
- * - A job is claimed by a conditional update (`waiting` → `simulating` with this instance's claim
- *   token); every later write checks the token, so a job taken over or marked stopped is never
- *   overwritten by an instance that lost it.
+ * - A job is claimed by setting `waiting` → `simulating` with this instance's claim token: on
+ *   SQLite (one server) by a conditional update; on PostgreSQL (several app instances) the oldest
+ *   waiting job is selected `FOR UPDATE SKIP LOCKED` and updated in the same transaction, so two
+ *   instances never claim the same job and neither waits for the other's row. Every later write
+ *   checks the token, so a job taken over or marked stopped is never overwritten by an instance
+ *   that lost it.
  * - While simulating, the claimant refreshes `heartbeat_at`. On start, jobs left `simulating` by a
  *   stopped server are marked `stopped` (SQLite: there is only one server, so every one of them;
  *   otherwise those whose heartbeat is older than `staleAfterMs`), and the same sweep runs before
@@ -13,6 +16,7 @@
  */
 import { randomUUID } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
+import { isPostgres } from '../data-source';
 import { checkedSpecDocument } from '../services/specs.service';
 import { DecisionEntity } from '../entities/decision.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
@@ -123,6 +127,7 @@ export class VerificationQueue {
 
   /** The oldest waiting job, claimed by this instance; null when there is none. */
   private async claimNext(): Promise<VerificationJob | null> {
+    if (isPostgres(this.dataSource)) return this.claimNextLocked();
     const repository = this.dataSource.getRepository(VerificationJobEntity);
     for (;;) {
       const next = await repository.findOne({ where: { state: 'waiting' }, order: { id: 'ASC' } });
@@ -134,6 +139,29 @@ export class VerificationQueue {
       );
       if (claimed.affected === 1) return { ...next, state: 'simulating', claimToken: this.claimToken, startedAt: at, heartbeatAt: at };
     }
+  }
+
+  /** PostgreSQL: the oldest waiting job no other instance is claiming, row-locked and claimed in one transaction. */
+  private claimNextLocked(): Promise<VerificationJob | null> {
+    return this.dataSource.transaction(async (manager) => {
+      const repository = manager.getRepository(VerificationJobEntity);
+      const next = await repository
+        .createQueryBuilder('job')
+        .where('job.state = :state', { state: 'waiting' })
+        .orderBy('job.id', 'ASC')
+        .limit(1)
+        .setLock('pessimistic_write')
+        .setOnLocked('skip_locked')
+        .getOne();
+      if (!next) return null;
+      const at = now();
+      const claimed = await repository.update(
+        { id: next.id, state: 'waiting' },
+        { state: 'simulating', claimToken: this.claimToken, startedAt: at, heartbeatAt: at, step: 'Starting the simulator' },
+      );
+      if (claimed.affected !== 1) return null;
+      return { ...next, state: 'simulating' as const, claimToken: this.claimToken, startedAt: at, heartbeatAt: at };
+    });
   }
 
   /** Writes to the job only while this instance still holds it; false when it no longer does. */

@@ -24,6 +24,7 @@ export type Action =
   | 'proposals:review'
   | 'proposals:verify'
   | 'devices:write'
+  | 'measurements:write'
   | 'mail:read';
 
 /** Which roles may take each action (anything not listed is refused). */
@@ -40,6 +41,8 @@ export const PERMISSIONS: Record<Action, readonly Role[]> = {
   'proposals:verify': ['designer', 'reviewer'],
   /** Upload SPICE .model cards to a project's device library (reading it needs only project access). */
   'devices:write': ['requirements', 'designer'],
+  /** Upload bench measurements of a decided design (bench engineers are designers here; reading needs only project access). */
+  'measurements:write': ['designer', 'reviewer'],
   /** Read the messages the built-in local mail server received (the demo mailbox). */
   'mail:read': ['admin'],
 };

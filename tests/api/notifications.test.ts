@@ -7,12 +7,9 @@
  * Then the mail server is stopped: the workflow still answers 2xx, the rows wait with their
  * error, and once the server is back each is delivered exactly once.
  */
-import { rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { DataSource } from 'typeorm';
-import { openDatabase } from '../../api/data-source';
+import { DataSource, type DataSourceOptions } from 'typeorm';
+import { createDataSource, openDatabase } from '../../api/data-source';
 import { ENTITIES } from '../../api/entities/index';
 import { MailMessageEntity } from '../../api/entities/mail-message.entity';
 import { MailOutboxEntity } from '../../api/entities/mail-outbox.entity';
@@ -24,6 +21,7 @@ import { InitialSchema1764612000000 } from '../../api/migrations/1764612000000-i
 import { configureNotifications } from '../../api/services/notifications.service';
 import { createUser } from '../../api/services/users.service';
 import { buildApiApp, emailOf, TEST_PASSWORD, type ApiClient, type TestApi } from '../helpers/api-app';
+import { freshDatabase, TEST_BACKEND } from '../helpers/test-database';
 
 const BASE_URL = 'https://longtail.fernhollow.test';
 const PROJECT = 'Quillon sensor head';
@@ -325,7 +323,8 @@ describe('when the mail server is down, then the workflow goes on and the mail w
 
 describe('when attempts run out, or the backoff is read', () => {
   test('when every attempt fails, then after the last one the row is marked failed and kept, with the error', async () => {
-    const dataSource = await openDatabase(':memory:');
+    const database = await freshDatabase();
+    const dataSource = await openDatabase(database.location);
     try {
       const now = new Date().toISOString();
       const row = await dataSource.getRepository(MailOutboxEntity).save({
@@ -364,6 +363,53 @@ describe('when attempts run out, or the backoff is read', () => {
       expect(calls).toBe(3);
     } finally {
       await dataSource.destroy();
+      await database.drop();
+    }
+  });
+
+  test('when two app instances run their outbox workers on one database at once, then every row is sent exactly once', async () => {
+    // Two data sources on the same database stand for two app instances (SQLite: one file; PostgreSQL: one database, rows claimed FOR UPDATE SKIP LOCKED).
+    const database = await freshDatabase({ reopenable: true });
+    const first = await openDatabase(database.location);
+    const second = await openDatabase(database.location);
+    try {
+      const now = new Date().toISOString();
+      const rows = await first.getRepository(MailOutboxEntity).save(
+        Array.from({ length: 24 }, (_, i) => ({
+          createdAt: now,
+          kind: 'proposal.ready',
+          projectId: null,
+          proposalId: null,
+          userId: null,
+          toAddress: `reader${i}@tests.longtail.test`,
+          toName: `Reader ${i}`,
+          subject: `Message ${i}`,
+          body: 'Text.',
+          status: 'pending' as const,
+          attempts: 0,
+          nextAttemptAt: now,
+          lastError: null,
+          sentAt: null,
+        })),
+      );
+      const sent: string[] = [];
+      // A slow relay, so both workers are busy with their batches at the same time.
+      const transport = { sendMail: async (message: { headers?: unknown }) => {
+        sent.push(String((message.headers as Record<string, string>)['X-Longtail-Outbox-Id']));
+        await new Promise((resolve) => setTimeout(resolve, 5));
+      } };
+      const workers = [first, second].map((dataSource) => createOutboxWorker({ dataSource, from: 'longtail@tests.longtail.test', transport, batchSize: 8 }));
+
+      for (let round = 0; round < 4; round++) await Promise.all(workers.map((worker) => worker.runOnce()));
+
+      expect(sent).toHaveLength(rows.length);
+      expect(new Set(sent).size).toBe(rows.length);
+      const stored = await second.getRepository(MailOutboxEntity).find({ order: { id: 'ASC' } });
+      expect(stored.map((row) => [row.status, row.attempts])).toEqual(rows.map(() => ['sent', 1]));
+    } finally {
+      await first.destroy();
+      await second.destroy();
+      await database.drop();
     }
   });
 
@@ -375,9 +421,9 @@ describe('when attempts run out, or the backoff is read', () => {
 
 describe('when a database from before notifications is migrated', () => {
   test('when the new migration runs on a database with accounts and memberships, then they are kept and everybody gets e-mail by default', async () => {
-    const file = join(tmpdir(), `longtail-mail-migration-${process.pid}-${Date.now()}.sqlite`);
+    const database = await freshDatabase({ reopenable: true });
     try {
-      const old = new DataSource({ type: 'better-sqlite3', database: file, entities: [], migrations: [InitialSchema1764612000000] });
+      const old = new DataSource({ ...createDataSource(database.location).options, entities: [], migrations: [InitialSchema1764612000000] } as DataSourceOptions);
       await old.initialize();
       await old.runMigrations();
       await old.query(`INSERT INTO user_account (email, display_name, role, password_hash, created_at) VALUES ('early@tests.longtail.test', 'Early Person', 'designer', 'x', '2026-01-01T00:00:00.000Z')`);
@@ -385,21 +431,24 @@ describe('when a database from before notifications is migrated', () => {
       await old.query(`INSERT INTO project_member (project_id, user_id, created_at) VALUES (1, 1, '2026-01-01T00:00:00.000Z')`);
       await old.destroy();
 
-      const migrated = await openDatabase(file);
+      const migrated = await openDatabase(database.location);
       try {
         const person = await migrated.getRepository(UserEntity).findOneByOrFail({ email: 'early@tests.longtail.test' });
         expect(person).toMatchObject({ displayName: 'Early Person', notify: true });
         expect(await migrated.query('SELECT user_id FROM project_member')).toEqual([{ user_id: person.id }]);
-        expect(await migrated.query('PRAGMA foreign_key_check')).toEqual([]);
-        // The e-mail address stays unique after the table was rebuilt.
-        await expect(migrated.query(`INSERT INTO user_account (email, display_name, role, password_hash, created_at) VALUES ('early@tests.longtail.test', 'Twin', 'designer', 'x', '2026-01-02T00:00:00.000Z')`)).rejects.toThrow(/UNIQUE/);
+        // SQLite rebuilds the table to add the column: no row may have lost its reference.
+        if (TEST_BACKEND === 'sqlite') expect(await migrated.query('PRAGMA foreign_key_check')).toEqual([]);
+        // The memberships still point at the account through an enforced foreign key.
+        await expect(migrated.query(`INSERT INTO project_member (project_id, user_id, created_at) VALUES (1, 9999, '2026-01-02T00:00:00.000Z')`)).rejects.toThrow(/FOREIGN KEY|foreign key constraint/i);
+        // The e-mail address stays unique after the table was changed.
+        await expect(migrated.query(`INSERT INTO user_account (email, display_name, role, password_hash, created_at) VALUES ('early@tests.longtail.test', 'Twin', 'designer', 'x', '2026-01-02T00:00:00.000Z')`)).rejects.toThrow(/UNIQUE|unique constraint/i);
         expect(ENTITIES.map((e) => e.options.tableName)).toEqual(expect.arrayContaining(['mail_outbox', 'mail_message']));
         expect(await migrated.getRepository(MailOutboxEntity).count()).toBe(0);
       } finally {
         await migrated.destroy();
       }
     } finally {
-      for (const suffix of ['', '-wal', '-shm']) rmSync(`${file}${suffix}`, { force: true });
+      await database.drop();
     }
   });
 });

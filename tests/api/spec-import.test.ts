@@ -11,6 +11,23 @@ import { SpecVersionEntity } from '../../api/entities/spec-version.entity';
 import { SpecEntity } from '../../api/entities/spec.entity';
 import type { Proposal } from '../../web/src/lib/api-types';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
+import { TEST_BACKEND } from '../helpers/test-database';
+
+/** A trigger that makes the database refuse one spec title, in each back end's own dialect. */
+const FAILING_TITLE = 'Tarn level probe, spare channel';
+const FAILURE_TRIGGER = {
+  sqlite: {
+    create: [`CREATE TRIGGER import_test_failure BEFORE INSERT ON spec WHEN NEW.title = '${FAILING_TITLE}' BEGIN SELECT RAISE(ABORT, 'simulated write failure'); END`],
+    drop: ['DROP TRIGGER import_test_failure'],
+  },
+  postgres: {
+    create: [
+      `CREATE FUNCTION import_test_failure() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN IF NEW.title = '${FAILING_TITLE}' THEN RAISE EXCEPTION 'simulated write failure'; END IF; RETURN NEW; END $$`,
+      'CREATE TRIGGER import_test_failure BEFORE INSERT ON spec FOR EACH ROW EXECUTE FUNCTION import_test_failure()',
+    ],
+    drop: ['DROP TRIGGER import_test_failure ON spec', 'DROP FUNCTION import_test_failure()'],
+  },
+}[TEST_BACKEND];
 
 let api: TestApi;
 let requirements: ApiClient;
@@ -161,9 +178,7 @@ describe('POST /api/projects/:id/specs/import with a mixed CSV', () => {
 
   test('when the database fails on the third spec, then the whole save is rolled back and nothing partial is left', async () => {
     const fresh = (await api.createProject(['requirements'], 'Tarn level probe — rollback')).id;
-    await api.dataSource.query(
-      `CREATE TRIGGER import_test_failure BEFORE INSERT ON spec WHEN NEW.title = 'Tarn level probe, spare channel' BEGIN SELECT RAISE(ABORT, 'simulated write failure'); END`,
-    );
+    for (const statement of FAILURE_TRIGGER.create) await api.dataSource.query(statement);
     const before = await counts();
     try {
       const response = await upload(requirements, importUrl(fresh), mixedCsv());
@@ -173,7 +188,7 @@ describe('POST /api/projects/:id/specs/import with a mixed CSV', () => {
       expect(await counts()).toEqual(before);
       expect((await requirements.get(`/api/projects/${fresh}/specs`).expect(200)).body.items).toEqual([]);
     } finally {
-      await api.dataSource.query('DROP TRIGGER import_test_failure');
+      for (const statement of FAILURE_TRIGGER.drop) await api.dataSource.query(statement);
     }
   });
 

@@ -6,9 +6,7 @@
  * practice for a DC bias check); a deliberately broken netlist, a run past its time limit, a
  * server restart mid-job, SPICE Monte Carlo, and the request rules.
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SpiceEngine } from '../../api/verification/spice-engine';
 import type {
@@ -19,6 +17,7 @@ import type {
   VerifiedFigure,
 } from '../../shared/verification/types';
 import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
+import { freshDatabase, type TestDatabase } from '../helpers/test-database';
 
 /** The tolerances as the engine's issue states them (not read from the product's constant). */
 const ISSUE_TOLERANCE: Record<string, { percent?: number; absolute?: number }> = {
@@ -223,31 +222,32 @@ describe('the time limit per analysis', () => {
 });
 
 describe('a server restart while a job simulates', () => {
-  const dir = mkdtempSync(join(tmpdir(), 'longtail-verification-'));
-  const databasePath = join(dir, 'longtail.sqlite');
+  // One SQLite file, or one PostgreSQL database (the api-postgres project), opened by both servers.
+  let database: TestDatabase;
   let first: TestApi;
   let second: TestApi;
   afterAll(async () => {
     await first?.close();
     await second?.close();
-    rmSync(dir, { recursive: true, force: true });
+    await database?.drop();
   });
 
   it('marks the job stopped, keeps it so, and lets it be asked for again', async () => {
-    first = await buildApiApp({ databasePath, accounts: ['admin', 'requirements', 'designer', 'reviewer'] });
+    database = await freshDatabase({ reopenable: true });
+    first = await buildApiApp({ database, accounts: ['admin', 'requirements', 'designer', 'reviewer'] });
     const project = await first.createProject(['requirements', 'designer', 'reviewer']);
     const spec = await first.createSpec(project.id, { payload: demoSpec('strain-bridge-receiver.json'), title: 'Bridge' });
     const proposal = await first.createProposal(spec.id);
     const reviewer = await first.agentFor('reviewer');
     await reviewer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
-    // Wait until it is simulating, then start a second server on the same database file.
+    // Wait until it is simulating, then start a second server on the same database.
     for (let i = 0; ; i += 1) {
       const status = (await reviewer.get(`/api/proposals/${proposal.id}/verification`).expect(200)).body as VerificationStatus;
       if (status.verification?.state === 'simulating') break;
       if (i > 400) throw new Error('never simulating');
       await new Promise((r) => setTimeout(r, 10));
     }
-    second = await buildApiApp({ databasePath, accounts: [] });
+    second = await buildApiApp({ database, accounts: [] });
     await second.app.verification.ready;
     const reviewerAgain = await second.agentFor('reviewer');
     const after = (await reviewerAgain.get(`/api/proposals/${proposal.id}/verification`).expect(200)).body as VerificationStatus;

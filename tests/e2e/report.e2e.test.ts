@@ -22,7 +22,7 @@ import { signInAs } from './helpers/sign-in';
 
 /** The demo project whose proposal carries a caution (api/seed/demo-seed.ts, electrode-amplifier-input.json). */
 const PROJECT = 'Marram biosignal front end';
-const SECTIONS = ['Cautions', 'Requirement spec', 'Ranked options', 'Chosen design', 'Checks', 'SPICE verification', 'Audit trail', 'Sources of the formulas'];
+const SECTIONS = ['Cautions', 'Requirement spec', 'Ranked options', 'Chosen design', 'Checks', 'SPICE verification', 'Bench measurements', 'Audit trail', 'Sources of the formulas'];
 
 const shotDir = join(screenshotDir, 'report');
 const pdfPath = join(repoRoot, 'test-results', 'report.pdf');

@@ -1,5 +1,6 @@
 /**
- * A fresh Longtail app per test file: an in-memory database migrated by openDatabase, the rule
+ * A fresh Longtail app per test file: a new database migrated by openDatabase (SQLite in memory,
+ * or a new PostgreSQL database in the api-postgres project: tests/helpers/test-database.ts), the rule
  * set from rules/, six accounts (one per role, plus a second designer and a second reviewer),
  * signed-in supertest clients that carry the CSRF token, and factories that arrange projects,
  * specs and proposals through the services (so a test's Act is its only HTTP call that matters).
@@ -16,6 +17,7 @@ import type { RuleSet } from '../../shared/engine/types';
 import type { Role } from '../../shared/workflow/roles';
 import { loadRuleSet } from '../../rules/index';
 import { VerificationQueue, type VerificationQueueOptions } from '../../api/verification/verification-queue';
+import { freshDatabase, type TestDatabase } from './test-database';
 
 /** The seeded accounts: one per role, and a second designer and reviewer for the four-eyes rules. */
 export const ACCOUNT_KEYS = ['admin', 'requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'] as const;
@@ -111,17 +113,25 @@ export interface BuildOptions {
   accounts?: readonly AccountKey[];
   /** Options for the app's verification queue (netlist hooks, engine with another time limit). */
   verification?: VerificationQueueOptions;
-  /** A database file instead of memory (restart tests open it twice). */
-  databasePath?: string;
+  /**
+   * An existing database to open instead of a fresh one (restart tests open one twice: make it
+   * with `freshDatabase({ reopenable: true })`); the caller drops it. Accounts already there are
+   * not seeded again: pass `accounts: []` to the second app.
+   */
+  database?: TestDatabase;
+  /** Where uploaded files go (default: the app's own temporary folder, removed on close). */
+  uploadsDir?: string;
 }
 
-/** Builds the app on a new in-memory database and seeds the accounts. */
+/** Builds the app on a new database (or `options.database`) and seeds the accounts. */
 export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> {
-  const dataSource = await openDatabase(options.databasePath ?? ':memory:');
+  const owned = options.database ? null : await freshDatabase();
+  const database = options.database ?? owned!;
+  const dataSource = await openDatabase(database.location);
   const ruleSet = await loadRuleSet();
   const log = options.log ?? (() => {});
   const verification = new VerificationQueue(dataSource, { log, ...options.verification });
-  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log, verification });
+  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log, verification, uploadsDir: options.uploadsDir });
   const entries = await Promise.all(
     (options.accounts ?? ACCOUNT_KEYS).map(async (key) => {
       const user = await createUser(dataSource, null, { email: emailOf(key), displayName: `Test ${key}`, role: ACCOUNT_ROLES[key], password: TEST_PASSWORD });
@@ -155,7 +165,8 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
     async close() {
       app.closeApp();
       await app.verification.close();
-      await dataSource.destroy();
+      if (dataSource.isInitialized) await dataSource.destroy();
+      await owned?.drop();
     },
   };
 }

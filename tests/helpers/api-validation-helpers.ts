@@ -5,8 +5,12 @@
  */
 import type { DataSource } from 'typeorm';
 
+const onPostgres = (dataSource: DataSource) => dataSource.options.type === 'postgres';
+
 async function tableNames(dataSource: DataSource): Promise<string[]> {
-  const rows: { name: string }[] = await dataSource.query("SELECT name FROM sqlite_master WHERE type = 'table' ORDER BY name");
+  const rows: { name: string }[] = onPostgres(dataSource)
+    ? await dataSource.query("SELECT table_name AS name FROM information_schema.tables WHERE table_schema = current_schema() AND table_type = 'BASE TABLE' ORDER BY table_name")
+    : await dataSource.query("SELECT name FROM sqlite_master WHERE type = 'table' ORDER BY name");
   return rows.map((r) => r.name);
 }
 
@@ -20,9 +24,10 @@ export async function countRows(dataSource: DataSource): Promise<Record<string, 
   return counts;
 }
 
-/** Every row of every table, in insertion order, by table name. */
+/** Every row of every table, in insertion order (SQLite) or by primary key (PostgreSQL: every table's is `id`), by table name. */
 export async function dumpTables(dataSource: DataSource): Promise<Record<string, unknown[]>> {
   const dump: Record<string, unknown[]> = {};
-  for (const name of await tableNames(dataSource)) dump[name] = await dataSource.query(`SELECT * FROM "${name}" ORDER BY rowid`);
+  const order = onPostgres(dataSource) ? 'id' : 'rowid';
+  for (const name of await tableNames(dataSource)) dump[name] = await dataSource.query(`SELECT * FROM "${name}" ORDER BY ${order}`);
   return dump;
 }

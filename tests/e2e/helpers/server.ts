@@ -3,7 +3,9 @@
  * in a temp dir (migrated by openDatabase), the rule set from rules/, the demo organisation
  * (api/seed/demo-seed.ts, password DEMO_PASSWORD), and the built browser app from dist/web,
  * listening on 127.0.0.1 on an ephemeral port. It builds nothing: dist/web comes from the
- * e2e globalSetup (`npx vite build`) or `npm run build`.
+ * e2e globalSetup (`npx vite build`) or `npm run build`. With `mail: true` it also starts what
+ * api/server.ts starts for e-mail: the local mail server (on a free port) and the outbox worker
+ * (polling every 100 ms here), so workflow e-mails reach the admin Mail page.
  */
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import http from 'node:http';
@@ -13,7 +15,11 @@ import { join } from 'node:path';
 import type { DataSource } from 'typeorm';
 import { createApp, type LongtailApp } from '../../../api/app';
 import { openDatabase } from '../../../api/data-source';
+import { startLocalSmtp, type LocalSmtp } from '../../../api/mail/local-smtp';
+import { startOutboxWorker, type OutboxWorker } from '../../../api/mail/outbox-worker';
+import { createMailTransport } from '../../../api/mail/transport';
 import { seedDemo } from '../../../api/seed/demo-seed';
+import { configureNotifications } from '../../../api/services/notifications.service';
 import type { RuleSet } from '../../../shared/engine/types';
 import { loadRuleSet } from '../../../rules/index';
 import { webDist } from './paths';
@@ -34,6 +40,8 @@ export interface RunningServer {
 export interface StartOptions {
   /** Runs after the demo seed and before the server listens (the benchmark stores its proposals here). */
   prepare?: (dataSource: DataSource, ruleSet: RuleSet) => Promise<void>;
+  /** Starts the local mail server and the outbox worker, as api/server.ts does. */
+  mail?: boolean;
 }
 
 export async function startServer(options: StartOptions = {}): Promise<RunningServer> {
@@ -62,13 +70,24 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
     server.listen(0, '127.0.0.1', () => resolve());
   });
   const { port } = server.address() as AddressInfo;
+  const baseUrl = `http://127.0.0.1:${port}`;
+  let smtp: LocalSmtp | null = null;
+  let outbox: OutboxWorker | null = null;
+  if (options.mail) {
+    // Links in the e-mails point at this server (rows the seed queued keep the default base URL).
+    configureNotifications({ baseUrl });
+    smtp = await startLocalSmtp({ dataSource, port: 0, log: (message) => serverErrors.push(message) });
+    outbox = startOutboxWorker({ dataSource, transport: createMailTransport({ localPort: smtp.port }), from: 'Longtail <longtail@demo.longtail.test>', pollMs: 100, log: (message) => serverErrors.push(message) });
+  }
   return {
-    baseUrl: `http://127.0.0.1:${port}`,
+    baseUrl,
     dataSource,
     ruleSet,
     app,
     serverErrors,
     async close() {
+      await outbox?.stop();
+      await smtp?.close();
       server.closeAllConnections();
       await new Promise((resolve) => server.close(resolve));
       app.closeApp();

@@ -153,7 +153,7 @@ describe('the batch flow', () => {
     expect(uploads).toEqual([{ url: '/api/projects/1/specs/import?dryRun=true', fileName: 'tarn-batch.csv', text: 'title,gain.target\r\nTarn probe,20\r\n' }]);
 
     await user.click(screen.getByRole('button', { name: 'Save 2 valid specs' }));
-    expect(await screen.findByText(/Saved in one go: 1 new spec, 1 new version; 0 unchanged, 2 skipped/)).toBeTruthy();
+    expect(await screen.findByText(/Saved in one go: 1 new spec and 1 new version; 2 skipped \(rows with problems\)\./)).toBeTruthy();
     expect(uploads.map((u) => u.url)).toEqual(['/api/projects/1/specs/import?dryRun=true', '/api/projects/1/specs/import']);
 
     deferredRanking(21, 31, 'wilson');

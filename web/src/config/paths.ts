@@ -55,6 +55,10 @@ export const api = {
     `/api/proposals/${id}/netlist.cir?topology=${encodeURIComponent(topology)}&drive=${drive}`,
   /** GET: latest verification and Monte Carlo jobs; POST: ask for a verification of every option. */
   verification: (id: number) => `/api/proposals/${id}/verification`,
+  /** GET: the proposal's bench measurements; POST (multipart, field `file`, optional `note`): upload one CSV. */
+  measurements: (id: number) => `/api/proposals/${id}/measurements`,
+  /** The original uploaded CSV of one measurement (a download). */
+  measurementFile: (id: number, measurementId: number) => `/api/proposals/${id}/measurements/${measurementId}/file`,
   /** POST { topology, runs? }: SPICE Monte Carlo of one option. */
   monteCarlo: (id: number) => `/api/proposals/${id}/verification/monte-carlo`,
   analyze: '/api/analyze',

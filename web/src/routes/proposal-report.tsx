@@ -1,7 +1,8 @@
 /**
  * The review report of one proposal: one page meant to be printed or saved as PDF (print styles
  * in styles/app.css). Title block, cautions, the spec, the ranking, the chosen design, its
- * checks, the SPICE verification, the audit trail and the sources, with the estimates notice.
+ * checks, the SPICE verification, the bench measurements, the audit trail and the sources, with
+ * the estimates notice.
  */
 import type { QueryClient } from '@tanstack/react-query';
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
@@ -24,6 +25,8 @@ import { ReportSection } from '../features/reports/components/report-section';
 import { ReportSources } from '../features/reports/components/report-sources';
 import { ReportTitle } from '../features/reports/components/report-title';
 import { ReportVerification } from '../features/reports/components/report-verification';
+import { ReportMeasurements } from '../features/reports/components/report-measurements';
+import { measurementsQuery } from '../features/measurements/api/measurement-queries';
 import { SpecTable } from '../features/reports/components/spec-table';
 import { reportSubject } from '../features/reports/lib/report-subject';
 
@@ -37,6 +40,7 @@ export const loader =
     await Promise.all([
       queryClient.prefetchQuery(proposalAuditQuery(proposalId)),
       queryClient.prefetchQuery(reportVerificationQuery(proposalId)),
+      queryClient.prefetchQuery(measurementsQuery(proposalId)),
       queryClient.prefetchQuery(projectQuery(proposal.projectId)),
       queryClient.prefetchQuery(proposalPeopleQuery(proposal.projectId)),
     ]);
@@ -51,6 +55,7 @@ export function Component() {
   const { data: proposal } = useSuspenseQuery(proposalQuery(proposalId));
   const audit = useQuery(proposalAuditQuery(proposalId));
   const verification = useQuery(reportVerificationQuery(proposalId));
+  const measurements = useQuery(measurementsQuery(proposalId));
   const project = useQuery(projectQuery(proposal.projectId));
   const nameOf = usePersonName(proposal.projectId);
   const [generatedAt] = useState(() => new Date());
@@ -93,6 +98,9 @@ export function Component() {
       </ReportSection>
       <ReportSection id="report-verification" number={next()} title="SPICE verification">
         <ReportVerification proposal={proposal} status={verification.data} error={verification.error} />
+      </ReportSection>
+      <ReportSection id="report-measurements" number={next()} title="Bench measurements">
+        <ReportMeasurements items={measurements.data?.items} error={measurements.error} />
       </ReportSection>
       <ReportSection id="report-audit" number={next()} title="Audit trail">
         <ReportAudit proposal={proposal} events={audit.data?.items} error={audit.error} nameOf={nameOf} />

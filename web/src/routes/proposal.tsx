@@ -11,6 +11,7 @@ import { DecisionPanel } from '../features/proposals/components/decision-panel';
 import { RankingView } from '../features/proposals/components/ranking-view';
 import { ReviewPanel } from '../features/proposals/components/review-panel';
 import { VerificationPanel } from '../features/proposals/components/verification-panel';
+import { MeasurementsPanel } from '../features/measurements/components/measurements-panel';
 import { NextStep } from '../features/proposals/components/next-step';
 import { RouteError } from '../app/route-error';
 
@@ -51,6 +52,9 @@ export function Component() {
         <RankingView proposal={proposal} />
         <div id="verification" className="scroll-mt-4">
           <VerificationPanel proposal={proposal} user={user} />
+        </div>
+        <div id="measurements" className="scroll-mt-4">
+          <MeasurementsPanel proposal={proposal} user={user} />
         </div>
         <div id="decision" className="scroll-mt-4">
           <DecisionPanel proposal={proposal} user={user} />

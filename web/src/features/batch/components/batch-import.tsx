@@ -33,6 +33,12 @@ function plural(n: number, one: string, many = `${one}s`): string {
   return `${n} ${n === 1 ? one : many}`;
 }
 
+/** "2 new specs and 1 new version", leaving out a kind with none; "nothing" when both are none. */
+function writesText(counts: ImportReport['counts']): string {
+  const parts = [counts.created > 0 ? plural(counts.created, 'new spec') : '', counts['new-version'] > 0 ? plural(counts['new-version'], 'new version') : ''].filter(Boolean);
+  return parts.length > 0 ? parts.join(' and ') : 'nothing';
+}
+
 /** What saving the checked file would write: new specs and new versions (unchanged rows write nothing). */
 const toWrite = (report: ImportReport) => report.counts.created + report.counts['new-version'];
 
@@ -136,8 +142,7 @@ export function BatchImport({ projectId, canRank }: { projectId: number; canRank
           }
         >
           <p className="mb-3 text-sm" role="status">
-            {plural(checked.total, 'spec')} in {checked.fileName}: {checked.valid} valid, {checked.total - checked.valid} with problems. Saving writes {plural(checked.counts.created, 'new spec')} and{' '}
-            {plural(checked.counts['new-version'], 'new version')}
+            {plural(checked.total, 'spec')} in {checked.fileName}: {checked.valid} valid, {checked.total - checked.valid} with problems. Saving writes {writesText(checked.counts)}
             {checked.counts.unchanged > 0 ? `; ${plural(checked.counts.unchanged, 'spec')} ${checked.counts.unchanged === 1 ? 'is' : 'are'} unchanged` : ''}
             {checked.total > checked.valid ? '; rows with problems are skipped' : ''}.
           </p>
@@ -163,7 +168,9 @@ export function BatchImport({ projectId, canRank }: { projectId: number; canRank
         <>
           <Sheet title="2. Saved" aria-label="Saved">
             <p className="mb-3 text-sm" role="status">
-              Saved in one go: {plural(saved.counts.created, 'new spec')}, {plural(saved.counts['new-version'], 'new version')}; {saved.counts.unchanged} unchanged, {saved.counts.skipped} skipped.
+              Saved in one go: {writesText(saved.counts)}
+              {saved.counts.unchanged > 0 ? `; ${saved.counts.unchanged} unchanged` : ''}
+              {saved.counts.skipped > 0 ? `; ${saved.counts.skipped} skipped (rows with problems)` : ''}.
             </p>
             <ImportReportTable report={saved} />
             <div className="mt-4">
@@ -242,7 +249,13 @@ function RankBatch({ projectId, report, canRank }: { projectId: number; report: 
       </div>
       {progress && (
         <div className="mt-4 space-y-1">
-          <progress aria-label="Ranking progress" max={progress.total} value={progress.done} className="h-2 w-full accent-fern" />
+          <progress
+            aria-label="Ranking progress"
+            aria-valuetext={`${progress.done} of ${progress.total} ranked`}
+            max={progress.total}
+            value={progress.done}
+            className="block h-2 w-full appearance-none overflow-hidden rounded-full bg-paper dark:bg-night [&::-moz-progress-bar]:bg-fern [&::-webkit-progress-bar]:bg-paper [&::-webkit-progress-value]:bg-fern dark:[&::-moz-progress-bar]:bg-fern-soft dark:[&::-webkit-progress-bar]:bg-night dark:[&::-webkit-progress-value]:bg-fern-soft"
+          />
           <p role="status" aria-live="polite" className="text-sm">
             {progress.current ? (
               <>

@@ -33,7 +33,7 @@ export function MailReader({ messages }: { messages: ReceivedMail[] }) {
                   onClick={() => setPickedId(message.id)}
                   className={cn('block w-full px-3 py-2 text-left text-sm hover:bg-paper dark:hover:bg-night', current && 'bg-fern-soft dark:bg-night')}
                 >
-                  <span className="block truncate font-medium">{message.subject || '(no subject)'}</span>
+                  <span className="line-clamp-2 block font-medium break-words">{message.subject || '(no subject)'}</span>
                   <span className={cn('flex justify-between gap-2 text-xs', soft)}>
                     <span className="truncate">To {message.to.join(', ')}</span>
                     <When iso={message.at} />
@@ -52,7 +52,7 @@ export function MailReader({ messages }: { messages: ReceivedMail[] }) {
           <dd>{open.from ?? '—'}</dd>
           <dt className={soft}>Received</dt>
           <dd>
-            <time dateTime={open.at}>{new Date(open.at).toLocaleString()}</time>
+            <time dateTime={open.at}>{new Date(open.at).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'medium' })}</time>
           </dd>
         </dl>
         <pre className="font-sans text-sm leading-relaxed break-words whitespace-pre-wrap">{open.text}</pre>

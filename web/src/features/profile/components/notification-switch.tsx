@@ -32,7 +32,7 @@ export function NotificationSwitch({ user }: { user: User }) {
           </span>
         </span>
       </label>
-      <p className="mt-3 text-sm">When this is on, you get an e-mail when:</p>
+      <p className="mt-3 text-sm">{on ? 'You get an e-mail when:' : 'It is off: Longtail sends you no workflow e-mail; each project page still shows what needs you. Turned on, you would get one when:'}</p>
       <ul className="mt-1 list-disc pl-5 text-sm text-ink-soft dark:text-night-ink-soft">
         {WHAT_YOU_GET[user.role].map((line) => (
           <li key={line}>{line}</li>

@@ -13,7 +13,8 @@ const NOTE = 'mt-1 text-xs leading-snug text-ink-soft dark:text-night-ink-soft';
 
 function summary(device: LibraryDevice): string {
   const vaf = device.device.earlyVoltageV === 0 ? 'no VAF' : `VAF ${formatQuantity(device.device.earlyVoltageV, 'V')}`;
-  return `${device.name} — IS ${formatQuantity(device.device.saturationCurrentA, 'A')}, BF ${device.device.beta}, ${vaf} (${device.fileName})`;
+  // Names are unique in a project's library, so the file is left to the note below (the column is narrow).
+  return `${device.name} — IS ${formatQuantity(device.device.saturationCurrentA, 'A')}, BF ${device.device.beta}, ${vaf}`;
 }
 
 export function DeviceModelField({ fieldPathId, formData, onChange, readonly, disabled, registry }: FieldProps) {
@@ -67,12 +68,17 @@ export function DeviceModelField({ fieldPathId, formData, onChange, readonly, di
             <p className={NOTE}>
               IS, BF and VAF below come from card {chosen.name} of {chosen.fileName} (sha256 {chosen.checksum.slice(0, 12)}…); changing one of them drops the link to the card.
             </p>
-            {chosen.notes.map((note) => (
-              <p key={note} className={NOTE}>
-                <span aria-hidden="true">! </span>
-                {note}
-              </p>
-            ))}
+            {chosen.notes.length > 0 && (
+              <details className={NOTE}>
+                <summary className="cursor-pointer">What the estimates leave out of this card</summary>
+                {chosen.notes.map((note) => (
+                  <p key={note} className="mt-1">
+                    <span aria-hidden="true">! </span>
+                    {note}
+                  </p>
+                ))}
+              </details>
+            )}
           </>
         ) : !library.loading && items.length === 0 ? (
           <p className={NOTE}>This project’s device library is empty; .model cards are uploaded on the project page.</p>

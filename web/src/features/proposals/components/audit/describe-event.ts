@@ -4,6 +4,7 @@
  */
 import type { ProposalState } from '../../../../../../shared/workflow/proposal-states';
 import type { AuditEvent, Proposal } from '../../../../lib/api-types';
+import { formatQuantity } from '../../../../../../shared/units/format-quantity';
 import { topologyTitle } from '../decision/design-fields';
 
 export interface EventWords {
@@ -59,6 +60,18 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
     case 'proposal.monte-carlo-requested': {
       const runs = typeof details.runs === 'number' ? `${details.runs} runs` : 'runs';
       return { what: `asked for a SPICE Monte Carlo of the ${topologyTitle(typeof details.topology === 'string' ? details.topology : undefined)} (${runs})` };
+    }
+    case 'measurement.uploaded': {
+      const quantity = details.kind === 'gain' ? 'gain' : 'rejection';
+      const points = typeof details.points === 'number' ? `${details.points} points` : 'points';
+      const file = typeof details.fileName === 'string' ? ` from ${details.fileName}` : '';
+      const difference = typeof details.differenceFromPredictedDb === 'number' ? details.differenceFromPredictedDb : null;
+      const at = typeof details.atFrequencyHz === 'number' ? ` at ${formatQuantity(details.atFrequencyHz, 'Hz')}` : '';
+      const note =
+        difference === null
+          ? undefined
+          : `Measured ${Math.abs(difference) < 0.05 ? 'level with' : `${Math.abs(difference).toFixed(1)} dB ${difference < 0 ? 'below' : 'above'}`} the prediction${at} (an estimate).`;
+      return { what: `uploaded a bench measurement of ${quantity} (${points}${file}) for the ${topologyTitle(typeof details.topology === 'string' ? details.topology : undefined)}`, note };
     }
     default:
       return { what: event.action.replace(/[.-]/g, ' '), ...transition };

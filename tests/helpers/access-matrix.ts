@@ -1,0 +1,305 @@
+/**
+ * The role × route matrix as data, shared by tests/api/access-matrix.test.ts and the reliability
+ * run (tests/reliability/access-control.ts): every route of app.ts called by nobody and by each
+ * role, the expected status written out per cell. The table is PERMISSIONS
+ * (shared/workflow/roles.ts) plus each route's documented rule: public, signed in, or one action;
+ * and for records, the project ("own": every non-admin role is a member; "other": none is, so
+ * 404 — the admin reads all). arrangeMatrix puts each proposal in the state where the allowed
+ * role succeeds, so a cell measures the access decision; the two "state" rows show the role
+ * check still comes before the 409.
+ */
+import { DeviceModelEntity } from '../../api/entities/device-model.entity';
+import { uploadMeasurement } from '../../api/services/measurements.service';
+import { addMember } from '../../api/services/projects.service';
+import { decide, review } from '../../api/services/proposals.service';
+import { updateSpec } from '../../api/services/specs.service';
+import type { PublicUser } from '../../api/services/users.service';
+import type { Action } from '../../shared/workflow/roles';
+import { emailOf, specPayload, TEST_PASSWORD, type TestApi } from './api-app';
+
+/** A designer's own values for the evaluation rows (invented; a simple mirror on ±9 V). */
+const EVALUATED_DESIGN = {
+  device: { family: 'npn', beta: 140, earlyVoltageV: 70, saturationCurrentA: 9e-15 },
+  supply: { positiveV: 9, negativeV: -9 },
+  collectorResistanceOhm: 5110,
+  tail: { topology: 'simple-mirror', referenceResistanceOhm: 15800 },
+};
+
+export const CALLERS = ['anonymous', 'admin', 'requirements', 'designer', 'reviewer'] as const;
+export type Caller = (typeof CALLERS)[number];
+export type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+
+/** Ids the URLs and bodies refer to, filled in by arrangeMatrix. */
+export interface Ids {
+  project: number;
+  otherProject: number;
+  spec: number;
+  otherSpec: number;
+  /** own project, status ranked: the designer's decision succeeds */
+  ranked: number;
+  /** own project, decided by the designer: the reviewer's review succeeds */
+  decided: number;
+  /** own project, approved: no decision or review is allowed */
+  approved: number;
+  /** own project, ranked: a review is not allowed yet */
+  rankedForReview: number;
+  /** other project, decided by the second designer */
+  otherProposal: number;
+  reviewer2: number;
+  designer2: number;
+  /** a bench measurement of the approved proposal, and one of the other project's proposal */
+  measurement: number;
+  otherMeasurement: number;
+}
+
+export interface Row {
+  /** The route as app.ts registers it (checked against the app's router below). */
+  route: `${Method} /api${string}`;
+  /** The URL called, `{name}` filled from Ids. */
+  url: string;
+  /** public | signed-in | an action of PERMISSIONS. */
+  rule: 'public' | 'signed-in' | Action;
+  /** Expected status for anonymous, admin, requirements, designer, reviewer. */
+  expected: [number, number, number, number, number];
+  body?: (ids: Ids, caller: Caller) => object;
+  /** A file sent as multipart/form-data in the field `file` instead of a JSON body. */
+  file?: { name: string; content: string };
+  /** Runs before the cell (idempotent). */
+  arrange?: (api: TestApi, ids: Ids) => Promise<void>;
+  /** The cell gets a session of its own (sign-in and sign-out change the session). */
+  fresh?: boolean;
+  note?: string;
+}
+
+const newSpec = () => ({ title: 'Quillon sensor head — matrix spec', payload: specPayload() });
+/** One invented spec as an import file (the same each time, so a repeated import changes nothing). */
+const IMPORT_FILE = { name: 'matrix.csv', content: 'title,supply.positiveV,supply.negativeV,gain.target,cmrr.minDb\r\nQuillon sensor head — imported,9,-9,14,70\r\n' };
+/** One invented .model card; each cell first removes it, so every allowed upload is a first one. */
+const DEVICE_FILE = { name: 'matrix.lib', content: '.model FH-MATRIX NPN (IS=6f BF=140 VAF=70)\n' };
+/** An invented bench measurement (rejection against frequency); the same bytes each time, so one stored file. */
+const MEASUREMENT_FILE = { name: 'matrix-bench.csv', content: 'frequency_hz,cmrr_db\n100,80\n1000,74\n' };
+const removeMatrixDevice = async (api: TestApi) => {
+  await api.dataSource.getRepository(DeviceModelEntity).delete({ nameKey: 'fh-matrix' });
+};
+const ensureReviewer2Member = (key: 'project' | 'otherProject') => async (api: TestApi, ids: Ids) => {
+  await addMember(api.dataSource, api.users.admin, ids[key], ids.reviewer2);
+};
+
+export const MATRIX: Row[] = [
+  // Public: no sign-in, every caller the same.
+  { route: 'GET /api/health', url: '/api/health', rule: 'public', expected: [200, 200, 200, 200, 200] },
+  { route: 'GET /api/schema/spec', url: '/api/schema/spec', rule: 'public', expected: [200, 200, 200, 200, 200] },
+  { route: 'GET /api/schema/design', url: '/api/schema/design', rule: 'public', expected: [200, 200, 200, 200, 200] },
+  { route: 'GET /api/schema/spec.csv', url: '/api/schema/spec.csv', rule: 'public', expected: [200, 200, 200, 200, 200] },
+  { route: 'GET /api/topologies', url: '/api/topologies', rule: 'public', expected: [200, 200, 200, 200, 200] },
+  { route: 'GET /api/auth/csrf', url: '/api/auth/csrf', rule: 'public', expected: [200, 200, 200, 200, 200] },
+  {
+    route: 'POST /api/auth/login',
+    url: '/api/auth/login',
+    rule: 'public',
+    fresh: true,
+    body: (_ids, caller) => ({ email: emailOf(caller === 'anonymous' ? 'reviewer2' : caller), password: TEST_PASSWORD }),
+    expected: [200, 200, 200, 200, 200],
+  },
+  { route: 'POST /api/auth/logout', url: '/api/auth/logout', rule: 'public', fresh: true, expected: [204, 204, 204, 204, 204], note: 'signing out without a session is harmless' },
+  { route: 'GET /api/auth/me', url: '/api/auth/me', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'PATCH /api/auth/me', url: '/api/auth/me', rule: 'signed-in', body: () => ({ notify: true }), expected: [401, 200, 200, 200, 200], note: 'own e-mail preference' },
+
+  // Accounts: the admin only.
+  { route: 'GET /api/users', url: '/api/users', rule: 'users:manage', expected: [401, 200, 403, 403, 403] },
+  {
+    route: 'POST /api/users',
+    url: '/api/users',
+    rule: 'users:manage',
+    body: (_ids, caller) => ({ email: `matrix-${caller}@tests.longtail.test`, displayName: 'Matrix account', role: 'designer', password: 'moss-granary-5521' }),
+    expected: [401, 201, 403, 403, 403],
+  },
+  { route: 'PATCH /api/users/:id', url: '/api/users/{reviewer2}', rule: 'users:manage', body: () => ({ displayName: 'Second reviewer (renamed)' }), expected: [401, 200, 403, 403, 403] },
+
+  // Administration: the local mail server's messages.
+  { route: 'GET /api/admin/mail', url: '/api/admin/mail', rule: 'mail:read', expected: [401, 200, 403, 403, 403] },
+
+  // Projects.
+  { route: 'GET /api/projects', url: '/api/projects', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'POST /api/projects', url: '/api/projects', rule: 'projects:create', body: () => ({ name: 'Matrix project' }), expected: [401, 201, 403, 403, 403] },
+  { route: 'GET /api/projects/:id', url: '/api/projects/{project}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:id', url: '/api/projects/{otherProject}', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/projects/:id/members', url: '/api/projects/{project}/members', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:id/members', url: '/api/projects/{otherProject}/members', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'POST /api/projects/:id/members', url: '/api/projects/{project}/members', rule: 'members:manage', body: (ids) => ({ userId: ids.reviewer2 }), expected: [401, 201, 403, 403, 403] },
+  { route: 'POST /api/projects/:id/members', url: '/api/projects/{otherProject}/members', rule: 'members:manage', body: (ids) => ({ userId: ids.reviewer2 }), expected: [401, 201, 403, 403, 403] },
+  { route: 'DELETE /api/projects/:id/members/:userId', url: '/api/projects/{project}/members/{reviewer2}', rule: 'members:manage', arrange: ensureReviewer2Member('project'), expected: [401, 204, 403, 403, 403] },
+  { route: 'DELETE /api/projects/:id/members/:userId', url: '/api/projects/{otherProject}/members/{reviewer2}', rule: 'members:manage', arrange: ensureReviewer2Member('otherProject'), expected: [401, 204, 403, 403, 403] },
+  { route: 'GET /api/projects/:id/specs', url: '/api/projects/{project}/specs', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:id/specs', url: '/api/projects/{otherProject}/specs', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'POST /api/projects/:id/specs', url: '/api/projects/{project}/specs', rule: 'specs:write', body: newSpec, expected: [401, 403, 201, 403, 403] },
+  { route: 'POST /api/projects/:id/specs', url: '/api/projects/{otherProject}/specs', rule: 'specs:write', body: newSpec, expected: [401, 403, 404, 403, 403] },
+  { route: 'GET /api/projects/:id/proposals', url: '/api/projects/{project}/proposals', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:id/proposals', url: '/api/projects/{otherProject}/proposals', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/projects/:projectId/devices', url: '/api/projects/{project}/devices', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:projectId/devices', url: '/api/projects/{otherProject}/devices', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'POST /api/projects/:projectId/devices', url: '/api/projects/{project}/devices', rule: 'devices:write', file: DEVICE_FILE, arrange: removeMatrixDevice, expected: [401, 403, 201, 201, 403] },
+  { route: 'POST /api/projects/:projectId/devices', url: '/api/projects/{otherProject}/devices', rule: 'devices:write', file: DEVICE_FILE, arrange: removeMatrixDevice, expected: [401, 403, 404, 404, 403] },
+  { route: 'POST /api/projects/:id/specs/import', url: '/api/projects/{project}/specs/import', rule: 'specs:write', file: IMPORT_FILE, expected: [401, 403, 200, 403, 403] },
+  { route: 'POST /api/projects/:id/specs/import', url: '/api/projects/{otherProject}/specs/import', rule: 'specs:write', file: IMPORT_FILE, expected: [401, 403, 404, 403, 403] },
+  { route: 'GET /api/projects/:id/proposals.csv', url: '/api/projects/{project}/proposals.csv?ids={ranked}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:id/proposals.csv', url: '/api/projects/{otherProject}/proposals.csv?ids={otherProposal}', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+
+  // Specs.
+  { route: 'GET /api/specs/:id', url: '/api/specs/{spec}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/specs/:id', url: '/api/specs/{otherSpec}', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'PUT /api/specs/:id', url: '/api/specs/{spec}', rule: 'specs:write', body: newSpec, expected: [401, 403, 200, 403, 403] },
+  { route: 'PUT /api/specs/:id', url: '/api/specs/{otherSpec}', rule: 'specs:write', body: newSpec, expected: [401, 403, 404, 403, 403] },
+  { route: 'GET /api/specs/:id/versions', url: '/api/specs/{spec}/versions', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/specs/:id/versions', url: '/api/specs/{otherSpec}/versions', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/specs/:id/diff', url: '/api/specs/{spec}/diff?from=1&to=2', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/specs/:id/diff', url: '/api/specs/{otherSpec}/diff?from=1&to=2', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'POST /api/specs/:id/proposals', url: '/api/specs/{spec}/proposals', rule: 'proposals:create', expected: [401, 403, 201, 201, 403] },
+  { route: 'POST /api/specs/:id/proposals', url: '/api/specs/{otherSpec}/proposals', rule: 'proposals:create', expected: [401, 403, 404, 404, 403] },
+
+  // Proposals.
+  { route: 'GET /api/proposals/:id', url: '/api/proposals/{ranked}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/proposals/:id', url: '/api/proposals/{otherProposal}', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'POST /api/proposals/:id/decision', url: '/api/proposals/{ranked}/decision', rule: 'proposals:decide', body: () => ({ kind: 'accept' }), expected: [401, 403, 403, 201, 403] },
+  { route: 'POST /api/proposals/:id/decision', url: '/api/proposals/{otherProposal}/decision', rule: 'proposals:decide', body: () => ({ kind: 'accept' }), expected: [401, 403, 403, 404, 403] },
+  {
+    route: 'POST /api/proposals/:id/decision',
+    url: '/api/proposals/{approved}/decision',
+    rule: 'proposals:decide',
+    body: () => ({ kind: 'accept' }),
+    expected: [401, 403, 403, 409, 403],
+    note: 'state: approved',
+  },
+  { route: 'POST /api/proposals/:id/evaluation', url: '/api/proposals/{ranked}/evaluation', rule: 'proposals:decide', body: () => ({ design: EVALUATED_DESIGN }), expected: [401, 403, 403, 200, 403] },
+  { route: 'POST /api/proposals/:id/evaluation', url: '/api/proposals/{otherProposal}/evaluation', rule: 'proposals:decide', body: () => ({ design: EVALUATED_DESIGN }), expected: [401, 403, 403, 404, 403] },
+  { route: 'POST /api/proposals/:id/review', url: '/api/proposals/{decided}/review', rule: 'proposals:review', body: () => ({ verdict: 'approve' }), expected: [401, 403, 403, 403, 201] },
+  { route: 'POST /api/proposals/:id/review', url: '/api/proposals/{otherProposal}/review', rule: 'proposals:review', body: () => ({ verdict: 'approve' }), expected: [401, 403, 403, 403, 404] },
+  {
+    route: 'POST /api/proposals/:id/review',
+    url: '/api/proposals/{rankedForReview}/review',
+    rule: 'proposals:review',
+    body: () => ({ verdict: 'approve' }),
+    expected: [401, 403, 403, 403, 409],
+    note: 'state: ranked',
+  },
+  { route: 'GET /api/proposals/:id/audit', url: '/api/proposals/{ranked}/audit', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/proposals/:id/ranking.csv', url: '/api/proposals/{ranked}/ranking.csv', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/proposals/:id/ranking.csv', url: '/api/proposals/{otherProposal}/ranking.csv', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/proposals/:id/netlist.cir', url: '/api/proposals/{ranked}/netlist.cir', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/proposals/:id/netlist.cir', url: '/api/proposals/{otherProposal}/netlist.cir', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/proposals/:id/export.json', url: '/api/proposals/{ranked}/export.json', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/proposals/:id/export.json', url: '/api/proposals/{otherProposal}/export.json', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/proposals/:proposalId/measurements', url: '/api/proposals/{approved}/measurements', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/proposals/:proposalId/measurements', url: '/api/proposals/{otherProposal}/measurements', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'POST /api/proposals/:proposalId/measurements', url: '/api/proposals/{approved}/measurements', rule: 'measurements:write', file: MEASUREMENT_FILE, expected: [401, 403, 403, 201, 201] },
+  { route: 'POST /api/proposals/:proposalId/measurements', url: '/api/proposals/{otherProposal}/measurements', rule: 'measurements:write', file: MEASUREMENT_FILE, expected: [401, 403, 403, 404, 404] },
+  {
+    route: 'GET /api/proposals/:proposalId/measurements/:measurementId/file',
+    url: '/api/proposals/{approved}/measurements/{measurement}/file',
+    rule: 'signed-in',
+    expected: [401, 200, 200, 200, 200],
+  },
+  {
+    route: 'GET /api/proposals/:proposalId/measurements/:measurementId/file',
+    url: '/api/proposals/{otherProposal}/measurements/{otherMeasurement}/file',
+    rule: 'signed-in',
+    expected: [401, 200, 404, 404, 404],
+  },
+  { route: 'GET /api/proposals/:id/verification', url: '/api/proposals/{ranked}/verification', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/proposals/:id/verification', url: '/api/proposals/{otherProposal}/verification', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'POST /api/proposals/:id/verification', url: '/api/proposals/{ranked}/verification', rule: 'proposals:verify', expected: [401, 403, 403, 202, 202] },
+  { route: 'POST /api/proposals/:id/verification', url: '/api/proposals/{otherProposal}/verification', rule: 'proposals:verify', expected: [401, 403, 403, 404, 404] },
+  {
+    route: 'POST /api/proposals/:id/verification/monte-carlo',
+    url: '/api/proposals/{ranked}/verification/monte-carlo',
+    rule: 'proposals:verify',
+    body: () => ({ topology: 'wilson', runs: 10 }),
+    expected: [401, 403, 403, 202, 202],
+  },
+  {
+    route: 'POST /api/proposals/:id/verification/monte-carlo',
+    url: '/api/proposals/{otherProposal}/verification/monte-carlo',
+    rule: 'proposals:verify',
+    body: () => ({ topology: 'wilson', runs: 10 }),
+    expected: [401, 403, 403, 404, 404],
+  },
+  { route: 'GET /api/proposals/:id/audit', url: '/api/proposals/{otherProposal}/audit', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+
+  // Stateless what-if.
+  { route: 'POST /api/analyze', url: '/api/analyze', rule: 'signed-in', body: () => ANALYZE_DESIGN, expected: [401, 200, 200, 200, 200] },
+];
+
+/** A small invented design for the what-if route (a Wilson tail on ±9 V rails). */
+const ANALYZE_DESIGN = {
+  device: { family: 'npn', beta: 180, earlyVoltageV: 72, saturationCurrentA: 9e-15 },
+  supply: { positiveV: 9, negativeV: -9 },
+  collectorResistanceOhm: 2260,
+  pairEmitterResistanceOhm: 82.5,
+  tail: { topology: 'wilson', referenceResistanceOhm: 26700 },
+};
+
+/**
+ * The records the matrix's URLs name, made through the services on a fresh app: a project with
+ * every non-admin account as a member and one with only the second designer and reviewer, a spec
+ * in each (two versions), and proposals in the states the rows need.
+ */
+export async function arrangeMatrix(api: TestApi): Promise<Ids> {
+  const { dataSource, users, ruleSet } = api;
+  const project = await api.createProject(['requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'], 'Quillon sensor head');
+  const otherProject = await api.createProject(['designer2', 'reviewer2'], 'Sallow tide gauge');
+  const spec = await api.createSpec(project.id);
+  const otherSpec = await api.createSpec(otherProject.id, { by: 'admin', title: 'Sallow tide gauge — pressure bridge pair' });
+  const revised = { ...specPayload(), powerBudgetW: 0.028 };
+  await updateSpec(dataSource, users.requirements, spec.id, { title: 'Quillon sensor head — thermopile input pair', payload: revised });
+  await updateSpec(dataSource, users.admin, otherSpec.id, { title: 'Sallow tide gauge — pressure bridge pair', payload: revised });
+
+  const ranked = await api.createProposal(spec.id);
+  const decided = await api.createProposal(spec.id);
+  await decide(dataSource, users.designer, decided.id, { kind: 'accept' }, ruleSet);
+  const approved = await api.createProposal(spec.id);
+  await decide(dataSource, users.designer, approved.id, { kind: 'accept' }, ruleSet);
+  await review(dataSource, users.reviewer, approved.id, { verdict: 'approve' });
+  const rankedForReview = await api.createProposal(spec.id);
+  const otherProposal = await api.createProposal(otherSpec.id, 'designer2');
+  await decide(dataSource, users.designer2, otherProposal.id, { kind: 'accept' }, ruleSet);
+  const measured = (proposalId: number, by: PublicUser) =>
+    uploadMeasurement(dataSource, api.app.uploadsDir, by, proposalId, { originalName: MEASUREMENT_FILE.name, bytes: Buffer.from(MEASUREMENT_FILE.content, 'utf8') }, null);
+  const measurement = await measured(approved.id, users.designer);
+  const otherMeasurement = await measured(otherProposal.id, users.designer2);
+
+  return {
+    project: project.id,
+    otherProject: otherProject.id,
+    spec: spec.id,
+    otherSpec: otherSpec.id,
+    ranked: ranked.id,
+    decided: decided.id,
+    approved: approved.id,
+    rankedForReview: rankedForReview.id,
+    otherProposal: otherProposal.id,
+    reviewer2: users.reviewer2.id,
+    designer2: users.designer2.id,
+    measurement: measurement.id,
+    otherMeasurement: otherMeasurement.id,
+  };
+}
+
+/** The row's URL with `{name}` filled from the ids. */
+export const fillUrl = (url: string, ids: Ids) => url.replace(/\{(\w+)\}/g, (_m, key: keyof Ids) => String(ids[key]));
+
+/** The (method, path) pairs the app registers, read from Express 5's router. */
+export function registeredRoutes(app: TestApi['app']): string[] {
+  type Layer = { rawPath?: string; route?: { path: string; methods: Record<string, boolean> }; handle: { stack?: Layer[] } };
+  const routes: string[] = [];
+  const walk = (stack: Layer[], prefix: string) => {
+    for (const layer of stack) {
+      if (layer.route) {
+        for (const method of Object.keys(layer.route.methods)) routes.push(`${method.toUpperCase()} ${prefix}${layer.route.path === '/' ? '' : layer.route.path}`);
+      } else if (layer.handle.stack) {
+        walk(layer.handle.stack, `${prefix}${layer.rawPath === '/' ? '' : (layer.rawPath ?? '')}`);
+      }
+    }
+  };
+  walk((app as unknown as { router: { stack: Layer[] } }).router.stack, '');
+  return [...new Set(routes)].sort();
+}

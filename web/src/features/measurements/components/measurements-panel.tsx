@@ -1,0 +1,234 @@
+/**
+ * Bench measurements of the decided design: for designers and reviewers an upload of a CSV of
+ * rejection (or gain) against frequency, refused files listing each problem with its line;
+ * every measurement listed; the chosen one plotted over the engine's predicted curve (and
+ * ngspice's, once a SPICE check finished) with the spec frequency marked, and the difference
+ * there stated in words and numbers. Both sides stay estimates against one bench measurement.
+ */
+import { useQuery } from '@tanstack/react-query';
+import { useId, useState, type ChangeEvent } from 'react';
+import { comparisonSentence, measurementReference } from '../../../../../shared/measurements/comparison';
+import type { MeasurementView } from '../../../../../shared/measurements/types';
+import type { ProposalVerificationResult } from '../../../../../shared/verification/types';
+import { may } from '../../../../../shared/workflow/roles';
+import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';
+import { Sheet } from '../../../components/ui/sheet';
+import { api } from '../../../config/paths';
+import { ApiError } from '../../../lib/api';
+import type { Proposal, User } from '../../../lib/api-types';
+import { topologyName } from '../../../lib/topology-names';
+import { DenseTable, Td, Th, Tr } from '../../projects/components/dense-table';
+import { When } from '../../projects/components/when';
+import { verificationQuery } from '../../proposals/api/verification-queries';
+import { PlotFigure } from '../../proposals/components/ranking/plots/plot-figure';
+import { measurementsQuery, useUploadMeasurement } from '../api/measurement-queries';
+import { measurementPlot } from '../lib/measurement-plot';
+import { MeasurementChart } from './plots/lazy-measurement-chart';
+
+/** File types offered by the picker; the server decides by content, not by name. */
+const ACCEPT = '.csv,.txt,.tsv,text/csv,text/plain';
+const MEASURABLE = ['decided', 'returned', 'approved'];
+
+export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user: User }) {
+  const measurements = useQuery(measurementsQuery(proposal.id));
+  const upload = useUploadMeasurement(proposal.id);
+  const decided = MEASURABLE.includes(proposal.status) && proposal.decisions.length > 0;
+  const canUpload = may(user.role, 'measurements:write') && decided;
+  const inputId = useId();
+  const noteId = useId();
+  const [note, setNote] = useState('');
+  const [chosenId, setChosenId] = useState<number | null>(null);
+
+  const onFile = (event: ChangeEvent<HTMLInputElement>) => {
+    const file = event.target.files?.[0];
+    event.target.value = '';
+    if (!file) return;
+    upload.mutate(
+      { file, note },
+      {
+        onSuccess: (stored) => {
+          setChosenId(stored.id);
+          setNote('');
+        },
+      },
+    );
+  };
+
+  const items = measurements.data?.items ?? [];
+  const chosen = items.find((m) => m.id === chosenId) ?? items.at(-1) ?? null;
+
+  return (
+    <Sheet title="Bench measurements" aria-label="Bench measurements">
+      <div className="space-y-4">
+        <p className="text-sm text-ink-soft dark:text-night-ink-soft">
+          Measured rejection or gain of the built design, set over the engine’s prediction{' '}
+          {proposal.specVersion.payload.gain?.output === 'differential' ? '(single-ended, one collector against ground, as the SPICE check compares it)' : ''} and, once a
+          SPICE check has finished, ngspice’s curve. The predicted and simulated figures are estimates; one board on one bench is one sample, not the design’s spread.
+        </p>
+        {!decided ? (
+          <EmptyState title="Nothing decided yet">Measurements belong to a decided design: they can be uploaded once a designer has decided on this proposal.</EmptyState>
+        ) : (
+          canUpload && (
+            <div className="flex flex-wrap items-end gap-3">
+              <div className="min-w-56 grow">
+                <label htmlFor={noteId} className="mb-1 block text-xs font-medium">
+                  Note for the next upload (optional)
+                </label>
+                <input
+                  id={noteId}
+                  type="text"
+                  maxLength={1000}
+                  value={note}
+                  onChange={(event) => setNote(event.target.value)}
+                  placeholder="Board, temperature, common-mode level…"
+                  className="w-full rounded-md border border-rule bg-sheet px-2 py-1.5 text-sm dark:border-night-rule dark:bg-night-sheet"
+                />
+              </div>
+              <div className="rounded-md has-[input:focus-visible]:ring-2 has-[input:focus-visible]:ring-fern">
+                <label
+                  htmlFor={inputId}
+                  className="inline-flex cursor-pointer items-center rounded-md border border-rule bg-sheet px-3 py-1.5 text-sm font-medium hover:bg-paper dark:border-night-rule dark:bg-night-sheet dark:hover:bg-night"
+                >
+                  {upload.isPending ? 'Reading the file…' : 'Upload a measurement (CSV)'}
+                </label>
+                <input id={inputId} type="file" accept={ACCEPT} className="sr-only" disabled={upload.isPending} onChange={onFile} />
+              </div>
+              <p className="basis-full text-xs text-ink-soft dark:text-night-ink-soft">
+                A header naming the quantity and unit (<code>frequency_hz,cmrr_db</code>, <code>frequency_hz,gain_db</code> or <code>frequency_hz,gain_v_per_v</code>), one point
+                per line with frequencies rising, <code>#</code> for comments; 1k or 2.5 kHz are read; at most 10,000 points and 256 KB.
+              </p>
+            </div>
+          )
+        )}
+        {upload.error && <UploadProblems error={upload.error} />}
+        {measurements.isPending ? (
+          <Loading what="Loading the measurements" />
+        ) : measurements.isError ? (
+          <ErrorPanel error={measurements.error} retry={() => void measurements.refetch()} />
+        ) : items.length === 0 ? (
+          decided && (
+            <EmptyState title="No measurements yet">
+              {canUpload ? 'Upload a CSV of measured rejection or gain against frequency.' : 'Designers and reviewers upload bench measurements here.'}
+            </EmptyState>
+          )
+        ) : (
+          <>
+            {chosen && <MeasurementDetail proposal={proposal} measurement={chosen} />}
+            <MeasurementTable proposal={proposal} items={items} chosenId={chosen?.id ?? null} onChoose={setChosenId} />
+          </>
+        )}
+      </div>
+    </Sheet>
+  );
+}
+
+function UploadProblems({ error }: { error: Error }) {
+  const details = error instanceof ApiError && error.code !== 'file-too-large' ? error.details : [];
+  return (
+    <div role="alert" className="rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-bright">
+      <p className="font-medium">
+        <span aria-hidden="true">✕ </span>
+        {error.message}
+      </p>
+      {details.length > 0 && (
+        <ul className="mt-1.5 list-none space-y-0.5">
+          {details.map((detail, index) => (
+            <li key={index}>
+              {detail.line !== undefined && <span className="font-medium tabular-nums">Line {detail.line}: </span>}
+              {detail.message}
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
+
+const isProposalResult = (result: unknown): result is ProposalVerificationResult => result !== null && typeof result === 'object' && 'options' in result;
+
+function MeasurementDetail({ proposal, measurement }: { proposal: Proposal; measurement: MeasurementView }) {
+  const status = useQuery(verificationQuery(proposal.id));
+  const job = status.data?.verification ?? null;
+  const verification = job?.state === 'finished' && isProposalResult(job.result) ? job.result : null;
+  const decision = proposal.decisions.find((d) => d.id === measurement.decisionId) ?? null;
+  const reference = measurementReference({
+    options: proposal.result.options,
+    decision: decision ? { kind: decision.kind, topology: decision.topology, evaluation: decision.evaluation } : null,
+    output: proposal.specVersion.payload.gain?.output === 'single-ended' ? 'single-ended' : 'differential',
+    verification,
+  });
+  const plot = measurementPlot(measurement, reference);
+  const comparison = measurement.comparison;
+  const sentence = comparisonSentence(comparison);
+  const design = `${topologyName(measurement.topology as never)}${measurement.designSource === 'decision' ? ', the designer’s own values' : ''}`;
+  return (
+    <div className="space-y-2">
+      <p className="text-base font-medium" data-testid="measurement-difference">
+        {sentence}
+      </p>
+      <p className="text-xs text-ink-soft dark:text-night-ink-soft">
+        {measurement.fileName}: {measurement.pointCount} points of {measurement.kind === 'cmrr' ? 'rejection' : 'gain'} measured on the {design}.
+        {measurement.note ? ` Note: ${measurement.note}` : ''} Predicted and simulated figures are estimates to weigh against this measurement, not to replace it.
+      </p>
+      <PlotFigure
+        title={measurement.kind === 'cmrr' ? 'Measured rejection over the estimates' : 'Measured gain over the prediction'}
+        summary={`${sentence} Log-frequency axis; the ${measurement.kind === 'cmrr' ? 'spec frequency' : 'compared frequency'} is marked.`}
+      >
+        <MeasurementChart plot={plot} atFrequencyHz={comparison.atFrequencyHz} measuredAtDb={comparison.measuredDb} />
+      </PlotFigure>
+    </div>
+  );
+}
+
+function MeasurementTable({ proposal, items, chosenId, onChoose }: { proposal: Proposal; items: MeasurementView[]; chosenId: number | null; onChoose: (id: number) => void }) {
+  return (
+    <DenseTable caption="Bench measurements of this proposal">
+      <thead>
+        <tr>
+          <Th>File</Th>
+          <Th>Quantity</Th>
+          <Th className="text-right">Points</Th>
+          <Th className="text-right">Measured − predicted</Th>
+          <Th>Uploaded</Th>
+          <Th>
+            <span className="sr-only">Actions</span>
+          </Th>
+        </tr>
+      </thead>
+      <tbody>
+        {[...items].reverse().map((m) => (
+          <Tr key={m.id}>
+            <Td className="align-top">
+              <span title={`sha256 ${m.sha256}`} className={m.id === chosenId ? 'font-medium' : undefined}>
+                {m.fileName}
+              </span>
+              {m.note && <span className="block max-w-xs truncate text-xs text-ink-soft dark:text-night-ink-soft">{m.note}</span>}
+            </Td>
+            <Td className="align-top">{m.kind === 'cmrr' ? 'Rejection (dB)' : `Gain (${m.unit})`}</Td>
+            <Td className="text-right align-top tabular-nums">{m.pointCount}</Td>
+            <Td className="text-right align-top tabular-nums">{differenceText(m)}</Td>
+            <Td className="align-top text-ink-soft dark:text-night-ink-soft">
+              {m.uploadedBy.displayName}, <When iso={m.uploadedAt} />
+            </Td>
+            <Td className="space-x-3 align-top whitespace-nowrap">
+              <button type="button" className="text-fern hover:underline disabled:text-ink-soft dark:text-fern-soft" disabled={m.id === chosenId} onClick={() => onChoose(m.id)}>
+                {m.id === chosenId ? 'Shown' : 'Show'}
+                <span className="sr-only"> {m.fileName}</span>
+              </button>
+              <a className="text-fern hover:underline dark:text-fern-soft" href={api.measurementFile(proposal.id, m.id)} download>
+                CSV<span className="sr-only"> of {m.fileName}</span>
+              </a>
+            </Td>
+          </Tr>
+        ))}
+      </tbody>
+    </DenseTable>
+  );
+}
+
+function differenceText(m: MeasurementView): string {
+  const d = m.comparison.differenceFromPredictedDb;
+  if (d === null) return '—';
+  const text = Math.abs(d).toFixed(1);
+  return `${d < 0 && Number(text) !== 0 ? '\u2212' : d > 0 && Number(text) !== 0 ? '+' : ''}${text} dB`;
+}
