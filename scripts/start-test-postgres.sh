@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # A local PostgreSQL 15 for the API tests (and for trying the app on PostgreSQL): installs
 # Debian's package when it is missing, starts the cluster, creates the role `longtail` (allowed to
-# create databases: the tests make one per test file) and the database `longtail`, and prints the
+# create databases: the tests make one per test file, and to end connections a test left open
+# when dropping one) and the database `longtail`, and prints the
 # connection URL on standard output (everything else goes to standard error). Safe to run again.
 #
 #   export LONGTAIL_TEST_DATABASE_URL="$(scripts/start-test-postgres.sh)"
@@ -51,6 +52,8 @@ if [ -z "$SUDO" ]; then psql_admin() { runuser -u postgres -- psql -X -q -v ON_E
 psql_admin -d postgres -v role="${ROLE}" -v password="${PASSWORD}" >&2 <<'SQL'
 SELECT format('CREATE ROLE %I LOGIN CREATEDB', :'role') WHERE NOT EXISTS (SELECT 1 FROM pg_roles WHERE rolname = :'role') \gexec
 SELECT format('ALTER ROLE %I WITH LOGIN CREATEDB PASSWORD %L', :'role', :'password') \gexec
+-- Lets the tests' DROP DATABASE ... WITH (FORCE) end a connection a test left open.
+SELECT format('GRANT pg_signal_backend TO %I', :'role') \gexec
 SQL
 psql_admin -d postgres -v role="${ROLE}" -v db="${DATABASE}" >&2 <<'SQL'
 SELECT format('CREATE DATABASE %I OWNER %I', :'db', :'role') WHERE NOT EXISTS (SELECT 1 FROM pg_database WHERE datname = :'db') \gexec

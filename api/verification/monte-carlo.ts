@@ -103,6 +103,7 @@ export async function runMonteCarlo(
     simulator,
     topology: option.topology,
     figure: 'cmrr-differential',
+    condition: governing.label,
     runs,
     seed: spec.monteCarlo.seed,
     requiredDb,

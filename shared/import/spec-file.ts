@@ -95,7 +95,10 @@ export function columnLetter(index: number): string {
 export type HeaderCell = { kind: 'column'; column: SpecColumn } | { kind: 'unknown'; text: string } | { kind: 'empty' };
 
 function readCsv(text: string): RawReading {
-  const parsed = Papa.parse<string[]>(text, { header: false, skipEmptyLines: false, delimitersToGuess: [',', ';', '\t'] });
+  // One line ending throughout: a file edited on two systems can mix CRLF and LF, and the parser
+  // guesses a single newline from the first line it sees.
+  const oneEnding = text.replace(/\r\n?/g, '\n');
+  const parsed = Papa.parse<string[]>(oneEnding, { header: false, newline: '\n', skipEmptyLines: false, delimitersToGuess: [',', ';', '\t'] });
   const records = parsed.data;
   if (records.length === 0 || records[0].every((cell) => cell.trim() === '')) {
     return { ok: false, message: 'must start with a header row naming the columns (row 1)' };

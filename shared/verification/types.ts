@@ -111,6 +111,8 @@ export interface MonteCarloVerificationResult {
   topology: string;
   /** Which rejection is drawn: the differential output's CMRR (mismatch-limited). */
   figure: 'cmrr-differential';
+  /** The condition simulated: the corner that governs the option's mismatch worst case, e.g. "ICM −1.5 V, 65 °C". */
+  condition: string;
   runs: number;
   seed: number;
   requiredDb: number;

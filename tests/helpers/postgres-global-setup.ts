@@ -5,6 +5,7 @@
  * (each file drops its own in `close()`).
  */
 import { DataSource } from 'typeorm';
+import { dropDatabase } from './test-database';
 
 async function withServer<T>(run: (server: DataSource) => Promise<T>): Promise<T> {
   const url = process.env.LONGTAIL_TEST_DATABASE_URL;
@@ -26,9 +27,7 @@ export async function setup(): Promise<() => Promise<void>> {
   const [row]: { server_version: string }[] = await withServer((server) => server.query('SHOW server_version'));
   console.log(`api-postgres: PostgreSQL ${row.server_version}`);
   return async () => {
-    await withServer(async (server) => {
-      const left: { datname: string }[] = await server.query("SELECT datname FROM pg_database WHERE datname LIKE 'longtail\\_test\\_%'");
-      for (const { datname } of left) await server.query(`DROP DATABASE IF EXISTS "${datname}" WITH (FORCE)`);
-    });
+    const left: { datname: string }[] = await withServer((server) => server.query("SELECT datname FROM pg_database WHERE datname LIKE 'longtail\\_test\\_%'"));
+    for (const { datname } of left) await dropDatabase(datname);
   };
 }

@@ -21,7 +21,7 @@ export interface TestDatabase {
   backend: TestBackend;
   /** What openDatabase takes: a SQLite path (or ":memory:") or a PostgreSQL URL. */
   location: string;
-  /** Removes the database (its file, or DROP DATABASE ... WITH (FORCE)). Safe to call twice. */
+  /** Removes the database (its file, or DROP DATABASE). Safe to call twice. */
   drop(): Promise<void>;
 }
 
@@ -39,6 +39,19 @@ async function onServer(statements: string[]): Promise<void> {
     for (const statement of statements) await maintenance.query(statement);
   } finally {
     await maintenance.destroy();
+  }
+}
+
+/**
+ * DROP DATABASE, which waits out an autovacuum worker by itself; when a connection is still open
+ * (a test that did not close one), WITH (FORCE) ends it (the role has pg_signal_backend, given by
+ * scripts/start-test-postgres.sh).
+ */
+export async function dropDatabase(name: string): Promise<void> {
+  try {
+    await onServer([`DROP DATABASE IF EXISTS "${name}"`]);
+  } catch {
+    await onServer([`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`]);
   }
 }
 
@@ -63,7 +76,7 @@ export async function freshDatabase(options: { reopenable?: boolean } = {}): Pro
     async drop() {
       if (dropped) return;
       dropped = true;
-      await onServer([`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`]);
+      await dropDatabase(name);
     },
   };
 }

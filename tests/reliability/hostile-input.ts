@@ -132,9 +132,12 @@ export async function hostileInput(options: RunOptions & { seed: number; browser
     const uncovered = registeredRoutes(api.app).filter((route) => !covered.has(route as Row['route']));
     const cells = MATRIX.flatMap((r) => CALLERS.map((caller) => ({ row: r, caller })));
     // The fuzz gets the part's budget less what the corpus and the browser check need
-    const fuzzDeadline = options.deadline - (options.browser ? 75_000 : 25_000);
+    const fuzzDeadline = options.deadline - (options.browser ? 90_000 : 30_000);
     let requests = 0;
     let fivexx = 0;
+    /** Requests the harness could not send (598), and requests without an answer within 30 s (599). */
+    let unsent = 0;
+    let hung = 0;
     const statuses = new Map<number, number>();
     const examples: string[] = [];
     let stoppedEarly = 0;
@@ -157,7 +160,8 @@ export async function hostileInput(options: RunOptions & { seed: number; browser
         const url = fillUrl(probe.url, ids) + queryString(probe.query);
         let pending: request.Test = client[method](url).timeout(30_000);
         const body = probe.body;
-        if (body.kind === 'json') pending = pending.send(body.value as object);
+        // JSON goes out as text, so primitives (true, 3, "x") are sent as they are
+        if (body.kind === 'json') pending = pending.set('content-type', 'application/json').send(JSON.stringify(body.value));
         else if (body.kind === 'raw') pending = pending.set('content-type', 'application/json').send(body.text);
         else if (body.kind === 'file') pending = pending.attach('file', Buffer.from(body.bytes), body.name || 'x');
         let status: number;
@@ -170,11 +174,13 @@ export async function hostileInput(options: RunOptions & { seed: number; browser
         } catch (error) {
           const e = error as { timeout?: number; code?: string; message?: string };
           status = e.timeout ? 599 : 598;
-          if (examples.length < 12) examples.push(`${caller} ${r.route.split(' ')[0]} ${url}: ${e.code ?? ''} ${e.message ?? ''}`.slice(0, 400));
+          if (examples.length < 12) examples.push(`${caller} ${r.route.split(' ')[0]} ${url}: no answer: ${e.code ?? ''} ${e.message ?? ''}`.slice(0, 400));
         }
         requests += 1;
         statuses.set(status, (statuses.get(status) ?? 0) + 1);
-        if (status >= 500) {
+        if (status === 598) unsent += 1;
+        else if (status === 599) hung += 1;
+        else if (status >= 500) {
           fivexx += 1;
           if (examples.length < 12) examples.push(`${caller} ${r.route.split(' ')[0]} ${url} → ${status}; body ${JSON.stringify(body.kind === 'file' ? { name: body.name, bytes: body.bytes.length } : body).slice(0, 400)}`);
         }
@@ -184,12 +190,14 @@ export async function hostileInput(options: RunOptions & { seed: number; browser
     }
     const byStatus = [...statuses].sort((a, b) => a[0] - b[0]).map(([s, n]) => `${s}×${n}`).join(' ');
     log(`fuzz: ${requests} requests over ${MATRIX.length} route rows × ${CALLERS.length} callers${stoppedEarly ? ` (${stoppedEarly} cells skipped: time budget)` : ''}; answers ${byStatus}`);
-    for (const example of examples) log(`  5xx: ${example}`);
+    for (const example of examples) log(`  ${example}`);
     for (const line of slow.slice(0, 8)) log(`  slow (> 5 s): ${line}`);
     for (const message of serverErrors.slice(0, 5)) log(`  server error logged: ${message.split('\n').slice(0, 4).join(' | ').slice(0, 500)}`);
     rows.push(
       row(PART, 'property-based requests (schemas + JSON)', requests, `all ${cells.length} route×role cells`, stoppedEarly === 0 && uncovered.length === 0),
       row(PART, '5xx answers', fivexx, '0', fivexx === 0),
+      row(PART, 'requests unanswered after 30 s', hung, '0', hung === 0),
+      row(PART, 'requests the harness could not send', unsent, '0', unsent === 0),
       row(PART, 'server errors logged', serverErrors.length, '0', serverErrors.length === 0),
     );
   } finally {

@@ -90,7 +90,7 @@ interface Field {
   name: string;
   max: number;
   /** Stores the value; answers the HTTP status and a function reading it back. */
-  store: (value: string, i: number) => Promise<{ status: number; read?: () => Promise<string | null> }>;
+  store: (value: string, i: number) => Promise<{ status: number; text?: string; read?: () => Promise<string | null> }>;
 }
 
 export async function injectionCorpus(options: RunOptions & { browser: boolean }): Promise<PartResult> {
@@ -192,7 +192,7 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
           const answer = await designer.request('POST', `/api/proposals/${proposal.id}/decision`, { kind: 'choose', topology: chosen, reason: value });
           if (answer.status === 201) state = 'decided';
           const id = (answer.json as { decisions?: { id: number }[] })?.decisions?.at(-1)?.id;
-          return { status: answer.status, read: async () => (await proposalRecord()).decisions.find((d) => d.id === id)?.reason ?? null };
+          return { status: answer.status, text: answer.text, read: async () => (await proposalRecord()).decisions.find((d) => d.id === id)?.reason ?? null };
         },
       },
       {
@@ -200,13 +200,13 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
         max: 4000,
         store: async (value) => {
           if (state !== 'decided') {
-            await designer.request('POST', `/api/proposals/${proposal.id}/decision`, { kind: 'accept' });
-            state = 'decided';
+            const decided = await designer.request('POST', `/api/proposals/${proposal.id}/decision`, { kind: 'choose', topology: chosen, reason: 'Decided again so the next corpus comment can be stored.' });
+            if (decided.status === 201) state = 'decided';
           }
           const answer = await reviewer.request('POST', `/api/proposals/${proposal.id}/review`, { verdict: 'return', comment: value });
           if (answer.status === 201) state = 'returned';
           const id = (answer.json as { reviews?: { id: number }[] })?.reviews?.at(-1)?.id;
-          return { status: answer.status, read: async () => (await proposalRecord()).reviews.find((r) => r.id === id)?.comment ?? null };
+          return { status: answer.status, text: answer.text, read: async () => (await proposalRecord()).reviews.find((r) => r.id === id)?.comment ?? null };
         },
       },
     ];
@@ -220,7 +220,7 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
     for (const field of fields) {
       const values = [...CORPUS.map((value) => ({ value, expect: 'stored' as const })), { value: '€'.repeat(field.max), expect: 'stored' as const }, { value: `${'€'.repeat(field.max)}x`, expect: 'refused' as const }];
       for (const [i, { value, expect }] of values.entries()) {
-        const { status, read } = await field.store(value, i);
+        const { status, read, text } = await field.store(value, i);
         if (expect === 'refused') {
           if (status !== 400) {
             overlongAccepted += 1;
@@ -230,7 +230,7 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
         }
         if (status < 200 || status >= 300) {
           unexpectedStatus += 1;
-          problems.push(`${field.name}: ${JSON.stringify(value).slice(0, 60)} answered ${status}`);
+          problems.push(`${field.name}: ${JSON.stringify(value).slice(0, 60)} answered ${status} ${text ?? ''}`.slice(0, 300));
           continue;
         }
         stored += 1;
@@ -274,7 +274,9 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
     }
     log(`corpus: ${CORPUS.length} strings (${MARKUP.length} markup, ${SQL.length} SQL, ${UNICODE.length} unicode) in ${fields.length} fields + at/over each limit; ${cardComments.length} device uploads under ${UPLOAD_NAMES.length} odd file names`);
     for (const problem of problems.slice(0, 15)) log(`  problem: ${problem}`);
-    const tablesOk = (await dataSource.query("SELECT count(*) AS n FROM sqlite_master WHERE type = 'table' AND name IN ('spec', 'proposal', 'user')"))[0].n === 3;
+    // The SQL strings named these tables: they are all still there, with their rows
+    const counts = (await dataSource.query('SELECT (SELECT count(*) FROM spec) AS specs, (SELECT count(*) FROM proposal) AS proposals, (SELECT count(*) FROM user_account) AS users')) as { specs: number; proposals: number; users: number }[];
+    const tablesOk = counts[0].specs > CORPUS.length && counts[0].proposals > 0 && counts[0].users > CORPUS.length;
     rows.push(
       row(PART, 'corpus values stored', stored, `> 0, all of them`, stored > 0 && unexpectedStatus === 0),
       row(PART, 'corpus values read back changed', changed, '0', changed === 0),

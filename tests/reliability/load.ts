@@ -47,7 +47,7 @@ async function measure(opts: autocannon.Options): Promise<Measured> {
 
 export async function loadPart(options: RunOptions): Promise<PartResult> {
   const { log, quick } = options;
-  const durationS = quick ? 5 : 10;
+  const durationS = quick ? 5 : 8;
   const temp = tempDir('longtail-reliability-load-');
   const port = await freePort();
   const server = spawnServer({ databasePath: join(temp.dir, 'longtail.sqlite'), port, seed: true });
@@ -91,7 +91,7 @@ export async function loadPart(options: RunOptions): Promise<PartResult> {
     }
 
     // Soak: every route in turn on each connection, for a bounded time
-    const soakS = Math.max(20, Math.min(quick ? 30 : 120, Math.floor((options.deadline - performance.now()) / 1000) - 15));
+    const soakS = Math.max(20, Math.min(quick ? 30 : 90, Math.floor((options.deadline - performance.now()) / 1000) - 15));
     const mix: autocannon.Request[] = [
       { method: 'GET', path: `/api/projects/${projectId}/proposals?page=1&pageSize=20`, headers: designer.headers() },
       { method: 'GET', path: `/api/proposals/${proposalId}`, headers: designer.headers() },

@@ -31,8 +31,8 @@ interface Part {
 
 const PARTS: Part[] = [
   { key: 'crash', title: 'Crash safety', budgetS: [270, 270], run: crashSafety },
-  { key: 'load', title: 'Load', budgetS: [210, 75], run: loadPart },
-  { key: 'hostile', title: 'Hostile input', budgetS: [150, 90], run: hostileInput },
+  { key: 'load', title: 'Load', budgetS: [180, 75], run: loadPart },
+  { key: 'hostile', title: 'Hostile input', budgetS: [240, 150], run: hostileInput },
   { key: 'access', title: 'Access control', budgetS: [75, 75], run: accessControl },
 ];
 

@@ -173,6 +173,15 @@ line",15,-15,20,60\r\nTarn C,15,-15,0,60\r\n`;
     expect(reading.rows[2].errors).toEqual([{ row: 5, field: 'gain.target', message: 'must be > 0 V/V, got 0 V/V' }]);
   });
 
+  test('when a file mixes CRLF and LF line endings (edited on two systems), then every line is its own row', () => {
+    const reading = readCsv(`${REQUIRED_HEADER}\r\nTarn A,15,-15,20,60\r\nTarn B,15,-15,20,60\nTarn C,15,-15,20,60\r\n`);
+    expect(reading.rows.map((r) => [r.row, r.title, r.errors.length])).toEqual([
+      [2, 'Tarn A', 0],
+      [3, 'Tarn B', 0],
+      [4, 'Tarn C', 0],
+    ]);
+  });
+
   test('when a title repeats in the file, then the later row is refused and names the first', () => {
     const reading = readCsv(`${REQUIRED_HEADER}\r\nTarn A,15,-15,20,60\r\nTarn B,15,-15,20,60\r\nTarn A ,15,-15,22,60\r\n`);
     expect(reading.rows.map((r) => r.document !== null)).toEqual([true, true, false]);

@@ -180,6 +180,7 @@ export function monteCarloResult(): MonteCarloVerificationResult {
     simulator: 'ngspice-45',
     topology: 'wilson',
     figure: 'cmrr-differential',
+    condition: 'ICM −1.2 V, 85 °C',
     runs: 200,
     seed: 20260302,
     requiredDb: 78,

@@ -228,7 +228,7 @@ describe('VerificationPanel: Monte Carlo in SPICE', () => {
     fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: status(job(), [monteCarloJob()]) }) });
     renderWithClient(<VerificationPanel proposal={differentialProposal()} user={DESIGNER} />);
 
-    const table = await screen.findByRole('table', { name: /Wilson mirror: differential rejection over 198 of 200 runs/ });
+    const table = await screen.findByRole('table', { name: /Wilson mirror: differential rejection at ICM −1.2 V, 85 °C \(the corner that governs its mismatch worst case\) over 198 of 200 runs/ });
     // The strain-bridge spec asks for 99 % of units at 78 dB or more.
     const yields = cellsOf(table, 'Yield at 78 dB');
     expect(yields[0]).toContain('98.5 %');

@@ -33,7 +33,7 @@ export function MailReader({ messages }: { messages: ReceivedMail[] }) {
                   onClick={() => setPickedId(message.id)}
                   className={cn('block w-full px-3 py-2 text-left text-sm hover:bg-paper dark:hover:bg-night', current && 'bg-fern-soft dark:bg-night')}
                 >
-                  <span className="line-clamp-2 block font-medium break-words">{message.subject || '(no subject)'}</span>
+                  <span className="line-clamp-2 font-medium break-words">{message.subject || '(no subject)'}</span>
                   <span className={cn('flex justify-between gap-2 text-xs', soft)}>
                     <span className="truncate">To {message.to.join(', ')}</span>
                     <When iso={message.at} />

@@ -168,7 +168,7 @@ function MeasurementDetail({ proposal, measurement }: { proposal: Proposal; meas
       </p>
       <p className="text-xs text-ink-soft dark:text-night-ink-soft">
         {measurement.fileName}: {measurement.pointCount} points of {measurement.kind === 'cmrr' ? 'rejection' : 'gain'} measured on the {design}.
-        {measurement.note ? ` Note: ${measurement.note}` : ''} Predicted and simulated figures are estimates to weigh against this measurement, not to replace it.
+        {measurement.note ? ` Note: ${measurement.note}${/[.!?]$/.test(measurement.note) ? '' : '.'}` : ''} Predicted and simulated figures are estimates to weigh against this measurement, not to replace it.
       </p>
       <PlotFigure
         title={measurement.kind === 'cmrr' ? 'Measured rejection over the estimates' : 'Measured gain over the prediction'}

@@ -54,7 +54,7 @@ export function MonteCarloResult({
       <div className="overflow-x-auto">
         <table className="w-full max-w-xl text-sm">
           <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">
-            {name}: differential rejection over {counted} of {result.runs} runs (seed {result.seed}); yield is the share at or above {required}
+            {name}: differential rejection at {result.condition} (the corner that governs its mismatch worst case) over {counted} of {result.runs} runs (seed {result.seed}); yield is the share at or above {required}
             {requiredYieldPercent !== null ? `, ${formatPercent(requiredYieldPercent)} required` : ''}.
           </caption>
           <thead className="text-xs text-ink-soft dark:text-night-ink-soft">
