@@ -1,31 +1,20 @@
 import { EntitySchema } from 'typeorm';
-import type { VerificationKind, VerificationState } from '../../shared/verification/types';
+import type { VerificationJobView } from '../../shared/verification/types';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 
 /**
  * A SPICE verification job: every option of a proposal, or a Monte Carlo of one option. Claimed
  * by one server instance (`claimToken`), which keeps `heartbeatAt` fresh while it simulates; a
- * job whose claimant stopped is marked `stopped`, never left simulating.
+ * job whose claimant stopped is marked `stopped`, never left simulating. Its fields are the API's
+ * view of a job (shared/verification/types.ts) but for the result, stored as JSON text, and the
+ * requester, stored by id.
  */
-export interface VerificationJob {
-  id: number;
-  proposalId: number;
-  kind: VerificationKind;
-  topology: string | null;
-  runs: number | null;
-  state: VerificationState;
-  done: number;
-  total: number;
-  step: string | null;
-  message: string | null;
+export interface VerificationJob extends Omit<VerificationJobView, 'requestedBy' | 'result'> {
   /** The result (ProposalVerificationResult or MonteCarloVerificationResult), JSON text. */
   result: string | null;
   requestedById: number;
   claimToken: string | null;
   heartbeatAt: string | null;
-  createdAt: string;
-  startedAt: string | null;
-  finishedAt: string | null;
 }
 
 const nullableTimestamp = (name: string) => ({ ...timestampColumn(name), nullable: true });

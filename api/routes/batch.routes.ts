@@ -32,7 +32,7 @@ const receiveFile: RequestHandler = (req, res, next) => {
       return next(invalid([{ path: '', message: `the upload was refused (${error.message.toLowerCase()})` }]));
     }
     const message = error instanceof Error ? error.message : '';
-    if (/multipart|unexpected end of form|boundary/i.test(message)) return next(invalid([{ path: '', message: 'is not a readable multipart/form-data upload' }]));
+    if (/multipart|unexpected end of form|boundary|malformed part header/i.test(message)) return next(invalid([{ path: '', message: 'is not a readable multipart/form-data upload' }]));
     next(error);
   });
 };

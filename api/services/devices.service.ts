@@ -10,6 +10,7 @@
 import { createHash } from 'node:crypto';
 import { In, type DataSource, type EntityManager } from 'typeorm';
 import { cardCommentLines, cardDevice, cardNotes, readModelFile, type CardDevice, type CardOrigin } from '../../shared/devices/model-card';
+import type { DeviceModelView } from '../../shared/devices/types';
 import type { DeviceParams } from '../../shared/engine/types';
 import { DeviceModelEntity, type DeviceModel } from '../entities/device-model.entity';
 import { UserEntity } from '../entities/user.entity';
@@ -22,27 +23,8 @@ import type { PublicUser } from './users.service';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
-/** A library card as the API shows it. */
-export interface DeviceModelView {
-  id: number;
-  projectId: number;
-  name: string;
-  /** The spec's device fields the card fills (IS, BF, VAF). */
-  device: CardDevice;
-  /** Every parameter of the card, upper-case name → number (SI units). */
-  parameters: Record<string, number>;
-  /** How the engine uses the card (parameters it leaves out, BR, TNOM). */
-  notes: string[];
-  /** The card's lines as written in the file. */
-  card: string;
-  /** Line of the card in its file. */
-  line: number;
-  fileName: string;
-  /** sha256 of the uploaded file, hex. */
-  checksum: string;
-  uploadedBy: { id: number; displayName: string };
-  uploadedAt: string;
-}
+/** A library card as the API shows it (shared/devices/types.ts). */
+export type { DeviceModelView };
 
 /** The uploaded file as the route received it. */
 export interface UploadedModelFile {

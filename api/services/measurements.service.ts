@@ -49,11 +49,10 @@ interface ProposalContext {
 }
 
 async function contextOf(manager: EntityManager | DataSource, proposal: Proposal): Promise<ProposalContext> {
-  const [version, decisions, job] = await Promise.all([
-    manager.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId }),
-    manager.getRepository(DecisionEntity).find({ where: { proposalId: proposal.id }, order: { id: 'ASC' } }),
-    manager.getRepository(VerificationJobEntity).findOne({ where: { proposalId: proposal.id, kind: 'proposal' }, order: { id: 'DESC' } }),
-  ]);
+  // One after another: inside a transaction these share one connection, which must not overlap queries.
+  const version = await manager.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
+  const decisions = await manager.getRepository(DecisionEntity).find({ where: { proposalId: proposal.id }, order: { id: 'ASC' } });
+  const job = await manager.getRepository(VerificationJobEntity).findOne({ where: { proposalId: proposal.id, kind: 'proposal' }, order: { id: 'DESC' } });
   const spec = JSON.parse(version.payload) as { gain?: { output?: string }; cmrr?: { atFrequencyHz?: number } };
   const verification = job?.state === 'finished' && job.result ? (JSON.parse(job.result) as ProposalVerificationResult) : null;
   return {

@@ -23,6 +23,7 @@ import { ReviewEntity } from '../entities/review.entity';
 import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { SpecEntity } from '../entities/spec.entity';
 import { UserEntity, type User } from '../entities/user.entity';
+import type { Mailbox } from '../../shared/mail/types';
 import { composeMessage, type DecisionFacts, type MessageFacts, type NotificationKind, type ProposalFacts } from '../mail/compose';
 
 export type NotificationEvent =
@@ -151,7 +152,7 @@ export async function queueNotification(manager: EntityManager, event: Notificat
 export const MAILBOX_PAGE = 200;
 
 /** The local mail server's messages, newest first, and how the outbox stands. */
-export async function listReceivedMail(dataSource: DataSource) {
+export async function listReceivedMail(dataSource: DataSource): Promise<Mailbox> {
   const repository = dataSource.getRepository(MailMessageEntity);
   const outbox = dataSource.getRepository(MailOutboxEntity);
   const statuses: OutboxStatus[] = ['pending', 'sent', 'failed'];

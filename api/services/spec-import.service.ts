@@ -13,6 +13,7 @@ import { In, type DataSource, type EntityManager } from 'typeorm';
 import type { RecommendResult } from '../../shared/engine/recommend';
 import type { Spec as SpecDocument } from '../../shared/engine/types';
 import { batchResultsCsv } from '../../shared/export/batch-csv';
+import type { ImportAction, ImportReport, ImportRowReport } from '../../shared/import/import-report';
 import { readSpecFile, type ImportIssue, type SpecFileFormat } from '../../shared/import/spec-file';
 import { diffJson } from '../../shared/json-diff';
 import { ProposalEntity } from '../entities/proposal.entity';
@@ -34,33 +35,8 @@ export interface ImportFile {
   mimeType: string;
 }
 
-/** What a row does (dry run: would do): a new spec, the next version of one, nothing (same document), or nothing (the row has problems). */
-export type ImportAction = 'created' | 'new-version' | 'unchanged' | 'skipped';
-
-export interface ImportRowReport {
-  row: number;
-  title: string | null;
-  ok: boolean;
-  errors: ImportIssue[];
-  action: ImportAction;
-  /** The spec the row lands in (null for a new spec in a dry run, and for skipped rows). */
-  specId: number | null;
-  /** The spec's version after the row (for "unchanged", its latest version; null where specId is). */
-  version: number | null;
-}
-
-export interface ImportReport {
-  fileName: string;
-  format: SpecFileFormat;
-  dryRun: boolean;
-  /** Spec rows in the file, valid ones, and how many rows each action took. */
-  total: number;
-  valid: number;
-  counts: Record<ImportAction, number>;
-  /** Problems of the CSV header (row 1); they are also reported on each row they touch. */
-  headerErrors: ImportIssue[];
-  rows: ImportRowReport[];
-}
+/** The report the route answers (shared/import/import-report.ts). */
+export type { ImportAction, ImportReport, ImportRowReport };
 
 /** UTF-8 text of the upload; a binary file or another encoding is refused. */
 function fileText(file: ImportFile): string {

@@ -19,6 +19,7 @@ import { createOutboxWorker, retryDelayMs, startOutboxWorker, type OutboxWorker 
 import { createMailTransport } from '../../api/mail/transport';
 import { InitialSchema1764612000000 } from '../../api/migrations/1764612000000-initial-schema';
 import { configureNotifications } from '../../api/services/notifications.service';
+import type { ReceivedMail } from '../../shared/mail/types';
 import { createUser } from '../../api/services/users.service';
 import { buildApiApp, emailOf, TEST_PASSWORD, type ApiClient, type TestApi } from '../helpers/api-app';
 import { freshDatabase, TEST_BACKEND } from '../helpers/test-database';
@@ -30,16 +31,6 @@ const SPEC_TITLE = 'Quillon sensor head — thermopile input pair';
 const OUTSIDER = 'designer3@tests.longtail.test';
 /** The closing line every message carries: figures are estimates to confirm by simulation and bench measurement. */
 const ESTIMATES_LINE = /^Figures are .*estimates.*confirm .*simulation and bench measurement/;
-
-interface ReceivedMail {
-  id: number;
-  at: string;
-  from: string | null;
-  to: string[];
-  subject: string;
-  text: string;
-  outboxId: number | null;
-}
 
 let api: TestApi;
 let smtp: LocalSmtp;

@@ -281,6 +281,15 @@ describe('POST /api/projects/:id/specs/import: who may, and files that cannot be
     expect(response.body.details).toEqual([{ path: 'file', message: 'is required: send the CSV or JSON file as multipart/form-data in the field "file"' }]);
   });
 
+  test('when the file name carries a control character, then the unreadable multipart header answers 400, not 500', async () => {
+    // Found by the reliability run's fuzz (npm run reliability): busboy's "Malformed part header" reached the error handler as a 500
+    const before = await counts();
+    const response = await upload(requirements, importUrl(projectId), 'title,gain.target\r\n', 'specs\u0005.csv');
+    expect(response.status).toBe(400);
+    expect(response.body.details).toEqual([{ path: '', message: 'is not a readable multipart/form-data upload' }]);
+    expect(await counts()).toEqual(before);
+  });
+
   test('when the file is over 1 MB, then 413 and nothing is saved', async () => {
     const before = await counts();
     const response = await upload(requirements, importUrl(projectId), Buffer.alloc(1024 * 1024 + 1, 'a'));

@@ -14,11 +14,12 @@
  */
 import { mkdirSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MeasurementEntity } from '../../api/entities/measurement.entity';
 import { checkAccessibility } from './helpers/accessibility';
-import { launchBrowser, networkQuiet, newContext, watchPage, type PageProblems } from './helpers/browser';
+import { openActor, openFirstProposal, visible } from './helpers/actors';
+import { launchBrowser, type PageProblems } from './helpers/browser';
 import { repoRoot, screenshotDir } from './helpers/paths';
 import { startServer, type RunningServer } from './helpers/server';
 import { signInAs } from './helpers/sign-in';
@@ -30,26 +31,16 @@ const shotDir = join(screenshotDir, 'measurements');
 
 let server: RunningServer;
 let browser: Browser;
-let context: BrowserContext;
 let page: Page;
 let problems: PageProblems;
 let quiet: (idleMs?: number, timeoutMs?: number) => Promise<void>;
-
-async function visible(locator: Locator, timeout = 20_000): Promise<Locator> {
-  await locator.first().waitFor({ state: 'visible', timeout });
-  return locator;
-}
 
 describe('bench measurements on the proposal page', () => {
   beforeAll(async () => {
     mkdirSync(shotDir, { recursive: true });
     rmSync(join(shotDir, 'measurements.png'), { force: true });
     [server, browser] = await Promise.all([startServer(), launchBrowser()]);
-    context = await newContext(browser, server.baseUrl);
-    page = await context.newPage();
-    page.setDefaultTimeout(20_000);
-    quiet = networkQuiet(page);
-    problems = watchPage(page, 'designer');
+    ({ page, quiet, problems } = await openActor(browser, server.baseUrl, 'designer'));
   });
 
   afterAll(async () => {
@@ -59,11 +50,7 @@ describe('bench measurements on the proposal page', () => {
 
   it('the designer opens the decided demo proposal and finds the panel', async () => {
     await signInAs(page, 'designer');
-    await page.getByRole('link', { name: new RegExp(PROJECT) }).click();
-    await visible(page.getByRole('heading', { level: 1, name: PROJECT }));
-    const proposals = await visible(page.getByRole('table', { name: 'Proposals of this project' }));
-    await proposals.getByRole('link', { name: /^Ranking #\d+$/ }).first().click();
-    await page.waitForURL(/\/proposals\/\d+$/);
+    await openFirstProposal(page, PROJECT);
     const panel = page.getByRole('region', { name: 'Bench measurements' });
     await visible(panel.getByText('No measurements yet'));
     await visible(panel.getByText(/estimates/));

@@ -12,10 +12,11 @@
  */
 import { mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkAccessibility } from './helpers/accessibility';
-import { launchBrowser, networkQuiet, newContext, watchPage, type PageProblems } from './helpers/browser';
+import { openActor, openFirstProposal, visible } from './helpers/actors';
+import { launchBrowser, type PageProblems } from './helpers/browser';
 import { repoRoot, screenshotDir } from './helpers/paths';
 import { startServer, type RunningServer } from './helpers/server';
 import { signInAs } from './helpers/sign-in';
@@ -29,16 +30,10 @@ const pdfPath = join(repoRoot, 'test-results', 'report.pdf');
 
 let server: RunningServer;
 let browser: Browser;
-let context: BrowserContext;
 let page: Page;
 let problems: PageProblems;
 let quiet: (idleMs?: number, timeoutMs?: number) => Promise<void>;
 let proposalId = 0;
-
-async function visible(locator: Locator, timeout = 20_000): Promise<Locator> {
-  await locator.first().waitFor({ state: 'visible', timeout });
-  return locator;
-}
 
 describe('the review report, printed', () => {
   beforeAll(async () => {
@@ -46,11 +41,7 @@ describe('the review report, printed', () => {
     for (const file of ['report-screen.png', 'report-print.png']) rmSync(join(shotDir, file), { force: true });
     rmSync(pdfPath, { force: true });
     [server, browser] = await Promise.all([startServer(), launchBrowser()]);
-    context = await newContext(browser, server.baseUrl);
-    page = await context.newPage();
-    page.setDefaultTimeout(20_000);
-    quiet = networkQuiet(page);
-    problems = watchPage(page, 'reviewer');
+    ({ page, quiet, problems } = await openActor(browser, server.baseUrl, 'reviewer'));
   });
 
   afterAll(async () => {
@@ -60,11 +51,7 @@ describe('the review report, printed', () => {
 
   it('the reviewer follows "Review report" from a demo proposal', async () => {
     await signInAs(page, 'reviewer');
-    await page.getByRole('link', { name: new RegExp(PROJECT) }).click();
-    await visible(page.getByRole('heading', { level: 1, name: PROJECT }));
-    const proposals = await visible(page.getByRole('table', { name: 'Proposals of this project' }));
-    await proposals.getByRole('link', { name: /^Ranking #\d+$/ }).first().click();
-    await page.waitForURL(/\/proposals\/\d+$/);
+    await openFirstProposal(page, PROJECT);
     proposalId = Number(/\/proposals\/(\d+)$/.exec(page.url())?.[1]);
     await visible(page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
 

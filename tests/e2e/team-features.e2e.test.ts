@@ -19,15 +19,15 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import Papa from 'papaparse';
-import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MailOutboxEntity } from '../../api/entities/mail-outbox.entity';
-import { checkAccessibility } from './helpers/accessibility';
-import { launchBrowser, networkQuiet, newContext, watchPage, type PageProblems } from './helpers/browser';
+import { openActor, record, visible, type Actor } from './helpers/actors';
+import { launchBrowser } from './helpers/browser';
 import { repoRoot, screenshotDir } from './helpers/paths';
 import { screenshots, type Screenshots } from './helpers/screenshots';
 import { startServer, type RunningServer } from './helpers/server';
-import { demoEmail, signInAs, type DemoRole } from './helpers/sign-in';
+import { demoEmail, signInAs } from './helpers/sign-in';
 
 /** The demo project holding the demo device library (api/seed/demo-seed.ts), and its designer. */
 const PROJECT = 'Kestrel load-cell amplifier';
@@ -44,14 +44,6 @@ const BATCH_FILE = fixture('fernhollow-batch-specs.csv');
 
 const SPEC_TITLE = 'Kestrel rev C — guard input on the FH3N40 (browser test)';
 
-interface Actor {
-  role: DemoRole;
-  context: BrowserContext;
-  page: Page;
-  quiet: (idleMs?: number, timeoutMs?: number) => Promise<void>;
-  problems: PageProblems;
-}
-
 let server: RunningServer;
 let browser: Browser;
 let shots: Screenshots;
@@ -59,25 +51,6 @@ const actors = {} as Record<'admin' | 'requirements' | 'designer', Actor>;
 let projectId = 0;
 /** The titles of the example batch file, read from the file itself. */
 let batchTitles: string[] = [];
-
-async function visible(locator: Locator, timeout = 20_000): Promise<Locator> {
-  await locator.first().waitFor({ state: 'visible', timeout });
-  return locator;
-}
-
-/** Waits for the page to settle, takes the step's screenshot and runs axe on it. */
-async function record(actor: Actor, step: string): Promise<void> {
-  await actor.quiet();
-  await shots.take(actor.page, step);
-  await checkAccessibility(actor.page, `${step} (${actor.role})`);
-}
-
-async function openActor(role: DemoRole): Promise<Actor> {
-  const context = await newContext(browser, server.baseUrl, { acceptDownloads: true });
-  const page = await context.newPage();
-  page.setDefaultTimeout(20_000);
-  return { role, context, page, quiet: networkQuiet(page), problems: watchPage(page, role) };
-}
 
 /** Polls until the outbox has nothing waiting (the worker polls every 100 ms here). */
 async function outboxDrained(timeoutMs = 20_000): Promise<void> {
@@ -94,7 +67,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     shots = screenshots(join(screenshotDir, 'team-features'));
     batchTitles = (Papa.parse<Record<string, string>>(readFileSync(BATCH_FILE, 'utf8'), { header: true, skipEmptyLines: true }).data).map((row) => row.title);
     [server, browser] = await Promise.all([startServer({ mail: true }), launchBrowser()]);
-    for (const role of ['admin', 'requirements', 'designer'] as const) actors[role] = await openActor(role);
+    for (const role of ['admin', 'requirements', 'designer'] as const) actors[role] = await openActor(browser, server.baseUrl, role, { acceptDownloads: true });
   });
 
   afterAll(async () => {
@@ -114,7 +87,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     const library = await visible(page.getByRole('region', { name: 'Device library' }));
     const table = await visible(library.getByRole('table', { name: 'Device models of this project' }));
     for (const name of DEMO_CARDS) await visible(table.getByText(name, { exact: true }));
-    await record(actor, 'library-demo');
+    await record(actor, shots, 'library-demo');
   });
 
   it('uploads a file of .model cards and sees them parsed', async () => {
@@ -133,7 +106,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     // The card's own text and notes open on demand
     await row.getByText('FH3N40', { exact: true }).click();
     await visible(row.getByText(/\.model FH3N40 NPN IS=11f/));
-    await record(actor, 'library-uploaded');
+    await record(actor, shots, 'library-uploaded');
   });
 
   it('uploads a broken file and sees each problem on its line, with nothing stored', async () => {
@@ -149,7 +122,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     await visible(alert.getByText(/4k7/));
     // The good card of the same file (line 3) was not stored either
     expect(await library.getByText('FH3N50').count()).toBe(0);
-    await record(actor, 'library-refused');
+    await record(actor, shots, 'library-refused');
   });
 
   it('writes a spec filled from a library card, and the saved spec names the card', async () => {
@@ -171,7 +144,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     // The card's BF fills the form, and the note says where it came from
     expect(await page.getByRole('textbox', { name: /^Current gain/ }).inputValue()).toMatch(/^260$/);
     await visible(page.getByText(/come from card FH3N40 of fernhollow-bench-npn\.lib/));
-    await record(actor, 'new-spec-from-library');
+    await record(actor, shots, 'new-spec-from-library');
 
     await page.getByRole('button', { name: 'Create spec' }).click();
     await page.waitForURL(/\/specs\/\d+$/);
@@ -182,7 +155,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     await visible(page.getByRole('heading', { level: 1, name: SPEC_TITLE }));
     await visible(page.getByText(/come from card FH3N40 of fernhollow-bench-npn\.lib/));
     expect(await page.getByLabel('Fill from the device library').locator('option:checked').textContent()).toMatch(/^FH3N40/);
-    await record(actor, 'spec-from-library-saved');
+    await record(actor, shots, 'spec-from-library-saved');
   });
 
   it('checks a batch file with a bad row: the problem on its row, nothing saved yet', async () => {
@@ -191,7 +164,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     await page.goto(`/projects/${projectId}`);
     await page.getByRole('link', { name: 'Import specs' }).click();
     await visible(page.getByRole('heading', { level: 1, name: 'Import specs' }));
-    await record(actor, 'import-start');
+    await record(actor, shots, 'import-start');
 
     // The example file with a sixth spec whose gain cell is no quantity: row 7 as a spreadsheet counts
     const text = readFileSync(BATCH_FILE, 'utf8').trimEnd();
@@ -204,7 +177,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     const badRow = check.locator('tr[data-row="7"]').first();
     await visible(badRow.getByText('gain.target'));
     await visible(check.getByRole('button', { name: 'Save 5 valid specs' }));
-    await record(actor, 'import-check-bad-row');
+    await record(actor, shots, 'import-check-bad-row');
     await check.getByRole('button', { name: 'Choose another file' }).click();
   });
 
@@ -215,13 +188,13 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     const check = await visible(page.getByRole('region', { name: 'Check' }));
     await visible(check.getByText(new RegExp(`${batchTitles.length} specs in fernhollow-batch-specs\\.csv: ${batchTitles.length} valid, 0 with problems`)));
     for (const title of batchTitles) await visible(check.getByRole('row').filter({ hasText: title }).getByText('New spec'));
-    await record(actor, 'import-check');
+    await record(actor, shots, 'import-check');
 
     await check.getByRole('button', { name: `Save ${batchTitles.length} valid specs` }).click();
     const saved = await visible(page.getByRole('region', { name: 'Saved' }));
     await visible(saved.getByText(new RegExp(`${batchTitles.length} new specs`)));
     for (const title of batchTitles) await visible(saved.getByRole('link', { name: title }));
-    await record(actor, 'import-saved');
+    await record(actor, shots, 'import-saved');
   });
 
   it('ranks every imported spec with a progress bar, then downloads the batch CSV with one row per spec', async () => {
@@ -236,7 +209,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     const results = rank.getByRole('table', { name: 'Rankings of the imported specs' });
     expect(await results.locator('tbody tr').count()).toBe(batchTitles.length);
     expect(await results.getByRole('alert').count()).toBe(0);
-    await record(actor, 'import-ranked');
+    await record(actor, shots, 'import-ranked');
 
     const [download] = await Promise.all([page.waitForEvent('download'), rank.getByRole('link', { name: /Download the batch results/ }).click()]);
     const csv = readFileSync(await download.path(), 'utf8');
@@ -252,10 +225,10 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     const { page } = actor;
     while ((await page.getByRole('button', { name: /^Theme: / }).textContent()) !== 'Theme: dark') await page.getByRole('button', { name: /^Theme: / }).click();
     expect(await page.evaluate(() => document.documentElement.classList.contains('dark'))).toBe(true);
-    await record(actor, 'import-ranked-dark');
+    await record(actor, shots, 'import-ranked-dark');
     await page.getByRole('link', { name: PROJECT, exact: true }).click();
     await visible(page.getByRole('region', { name: 'Device library' }).getByRole('table'));
-    await record(actor, 'library-dark');
+    await record(actor, shots, 'library-dark');
     await page.evaluate(() => localStorage.setItem('longtail.theme', 'light'));
   });
 
@@ -273,14 +246,14 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
       expect(await message.count()).toBe(1);
       await visible(message.getByText(`To ${demoEmail('designer')}`));
     }
-    await record(actor, 'mail-list');
+    await record(actor, shots, 'mail-list');
 
     await list.getByRole('button').filter({ hasText: batchTitles[0] }).click();
     const open = page.getByRole('region', { name: 'Message' });
     await visible(open.getByRole('heading', { name: new RegExp(`waits for a decision: ${batchTitles[0]}`) }));
     await visible(open.getByText(`Hello ${DESIGNER},`, { exact: false }));
     await visible(open.getByText(new RegExp(`${server.baseUrl.replace(/[.]/g, '\\.')}/proposals/\\d+`)));
-    await record(actor, 'mail-open');
+    await record(actor, shots, 'mail-open');
   });
 
   it('the designer turns e-mail off on the profile page, and the next ranking writes them none', async () => {
@@ -291,12 +264,12 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     await visible(page.getByRole('heading', { level: 1, name: 'Your profile' }));
     const toggle = page.getByRole('checkbox', { name: 'E-mail me about the workflow' });
     expect(await toggle.isChecked()).toBe(true);
-    await record(actor, 'profile-email-on');
+    await record(actor, shots, 'profile-email-on');
     await toggle.uncheck();
     await visible(page.getByRole('status').filter({ hasText: 'Saved: e-mail is off.' }));
     await page.reload();
     expect(await page.getByRole('checkbox', { name: 'E-mail me about the workflow' }).isChecked()).toBe(false);
-    await record(actor, 'profile-email-off');
+    await record(actor, shots, 'profile-email-off');
 
     // The systems engineer ranks the spec filled from the library: no e-mail is written to the designer
     const author = actors.requirements;

@@ -12,10 +12,10 @@
  * The steps depend on each other and run in order, in one describe; each role keeps its own
  * browser context (its own session) for the whole run.
  */
-import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { checkAccessibility } from './helpers/accessibility';
-import { launchBrowser, networkQuiet, newContext, watchPage, type PageProblems } from './helpers/browser';
+import { openActor, record, visible, type Actor } from './helpers/actors';
+import { launchBrowser } from './helpers/browser';
 import { apiFromPage } from './helpers/page-api';
 import { screenshots, type Screenshots } from './helpers/screenshots';
 import { startServer, type RunningServer } from './helpers/server';
@@ -30,14 +30,6 @@ const OVERRIDE_REASON = 'Stock on hand: 4k75 collector resistors and 1k emitter 
 const RETURN_COMMENT = 'The 1 kΩ emitter resistors move the tail current off 1.1 mA: take the ranked values unless stock really forces this.';
 const APPROVE_COMMENT = 'Recommended degenerated mirror with its ranked values; margins hold at both temperature corners.';
 
-interface Actor {
-  role: DemoRole;
-  context: BrowserContext;
-  page: Page;
-  quiet: (idleMs?: number, timeoutMs?: number) => Promise<void>;
-  problems: PageProblems;
-}
-
 let server: RunningServer;
 let browser: Browser;
 let shots: Screenshots;
@@ -48,25 +40,6 @@ let specId = 0;
 let proposalId = 0;
 /** The recommended tail's name as the ranking table shows it ("Degenerated mirror" for this spec today). */
 let recommended = '';
-
-async function visible(locator: Locator, timeout = 20_000): Promise<Locator> {
-  await locator.first().waitFor({ state: 'visible', timeout });
-  return locator;
-}
-
-/** Waits for the page to settle, takes the step's screenshot and runs axe on it. */
-async function record(actor: Actor, step: string): Promise<void> {
-  await actor.quiet();
-  await shots.take(actor.page, step);
-  await checkAccessibility(actor.page, `${step} (${actor.role})`);
-}
-
-async function openActor(role: DemoRole): Promise<Actor> {
-  const context = await newContext(browser, server.baseUrl);
-  const page = await context.newPage();
-  page.setDefaultTimeout(20_000);
-  return { role, context, page, quiet: networkQuiet(page), problems: watchPage(page, role) };
-}
 
 async function openProposal(actor: Actor): Promise<void> {
   await actor.page.goto(`/proposals/${proposalId}`);
@@ -83,7 +56,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
   beforeAll(async () => {
     shots = screenshots();
     [server, browser] = await Promise.all([startServer(), launchBrowser()]);
-    for (const role of DEMO_ROLES) actors[role] = await openActor(role);
+    for (const role of DEMO_ROLES) actors[role] = await openActor(browser, server.baseUrl, role);
   });
 
   afterAll(async () => {
@@ -97,7 +70,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await page.goto('/');
     await page.waitForURL(/\/sign-in/);
     await visible(page.getByRole('heading', { level: 1, name: 'Sign in' }));
-    await record(actors.admin, 'sign-in');
+    await record(actors.admin, shots, 'sign-in');
   });
 
   it('signs in each demo role through the form and shows its workbench', async () => {
@@ -109,7 +82,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
       // Only an administrator is offered People in the navigation
       const nav = actor.page.getByRole('navigation', { name: 'Main' });
       expect(await nav.getByRole('link', { name: 'People' }).count()).toBe(role === 'admin' ? 1 : 0);
-      await record(actor, `workbench-${role}`);
+      await record(actor, shots, `workbench-${role}`);
     }
   });
 
@@ -118,7 +91,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'People' }).click();
     await visible(page.getByRole('heading', { level: 1, name: 'People' }));
     await visible(page.getByRole('region', { name: 'Accounts' }).getByText('designer@demo.longtail.test'));
-    await record(actors.admin, 'people-admin');
+    await record(actors.admin, shots, 'people-admin');
   });
 
   it('the systems engineer opens a project and writes a new spec in engineering notation', async () => {
@@ -128,12 +101,12 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await visible(page.getByRole('heading', { level: 1, name: PROJECT }));
     projectId = Number(/\/projects\/(\d+)/.exec(page.url())?.[1]);
     expect(projectId).toBeGreaterThan(0);
-    await record(actor, 'project-requirements');
+    await record(actor, shots, 'project-requirements');
 
     await page.getByRole('link', { name: 'New spec' }).click();
     await visible(page.getByRole('heading', { level: 1, name: 'New spec' }));
     await visible(page.getByRole('button', { name: 'Create spec' }));
-    await record(actor, 'new-spec-empty');
+    await record(actor, shots, 'new-spec-empty');
 
     await page.getByRole('textbox', { name: /^Title/ }).fill(SPEC_TITLE);
     const supply = page.getByRole('group', { name: 'Supply rails' });
@@ -160,7 +133,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
       await visible(page.getByText(reading, { exact: true }));
     }
     expect(await page.getByText(/cannot read/).count()).toBe(0);
-    await record(actor, 'new-spec-filled');
+    await record(actor, shots, 'new-spec-filled');
 
     await page.getByRole('button', { name: 'Create spec' }).click();
     await page.waitForURL(/\/specs\/\d+$/);
@@ -170,7 +143,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     // The saved spec holds the values as read, shown back with prefixes
     expect(await page.getByRole('textbox', { name: /Tail current/ }).inputValue()).toBe('1.1m');
     expect(await page.getByRole('textbox', { name: /Tail capacitance/ }).inputValue()).toBe('3.3p');
-    await record(actor, 'spec-saved');
+    await record(actor, shots, 'spec-saved');
   });
 
   it('the systems engineer asks for a ranking and lands on the ranking page', async () => {
@@ -187,7 +160,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     recommended = (await options.getByRole('rowheader', { name: /\(recommended\)/ }).getByRole('button').textContent())?.trim() ?? '';
     expect(recommended).not.toBe('');
     await visible(page.getByText('Awaiting decision').first());
-    await record(actor, 'ranking-requirements');
+    await record(actor, shots, 'ranking-requirements');
   });
 
   it('the systems engineer gets no decision or review controls, and the server refuses both', async () => {
@@ -206,7 +179,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await actor.page.goto(`/specs/${specId}/history`);
     await visible(actor.page.getByRole('heading', { level: 1, name: 'Version history' }));
     await visible(actor.page.getByText('Only one version so far'));
-    await record(actor, 'spec-history');
+    await record(actor, shots, 'spec-history');
   });
 
   it('a designer opening People is not allowed, and the server refuses the accounts list', async () => {
@@ -214,7 +187,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await actor.page.goto('/people');
     await visible(actor.page.getByRole('alert').getByRole('heading', { name: 'Not allowed' }));
     expect(await actor.page.getByRole('region', { name: 'Accounts' }).count()).toBe(0);
-    await record(actor, 'people-designer-not-allowed');
+    await record(actor, shots, 'people-designer-not-allowed');
     expect(await apiFromPage(actor.page, 'GET', '/api/users')).toEqual({ status: 403, code: 'forbidden' });
   });
 
@@ -227,7 +200,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     const table = await visible(page.getByRole('table', { name: 'Proposals of this project' }));
     const row = table.getByRole('row').filter({ has: page.getByRole('link', { name: `Ranking #${proposalId}` }) });
     await visible(row.getByText('Awaiting decision'));
-    await record(actor, 'project-designer');
+    await record(actor, shots, 'project-designer');
     await row.getByRole('link', { name: `Ranking #${proposalId}` }).click();
     await visible(page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
   });
@@ -238,7 +211,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     const decision = page.getByRole('region', { name: 'Your decision' });
     await visible(decision);
     expect(await reviewButtons(page).count()).toBe(0);
-    await record(actor, 'ranking-designer');
+    await record(actor, shots, 'ranking-designer');
 
     await decision.getByRole('radio', { name: 'Use my own values' }).check();
     await decision.getByRole('combobox', { name: 'Tail topology' }).selectOption({ label: 'Degenerated mirror' });
@@ -256,7 +229,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
       await fullCheck.click();
       await visible(decision.getByText('Up to date with the values in the fields.'), 60_000);
     }
-    await record(actor, 'override-filled');
+    await record(actor, shots, 'override-filled');
 
     await decision.getByRole('button', { name: /^Record decision: own values/ }).click();
     // Values short on a blocking rule are recorded after a second thought
@@ -269,7 +242,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     }
     await visible(recorded, 60_000);
     await visible(page.getByText('Awaiting review').first());
-    await record(actor, 'override-recorded');
+    await record(actor, shots, 'override-recorded');
   });
 
   it('the designer cannot review the decision: no review controls, and the server refuses', async () => {
@@ -283,13 +256,13 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     const { page } = actor;
     await page.goto(`/projects/${projectId}`);
     await visible(page.getByRole('region', { name: 'What needs you' }).getByRole('button', { name: /1 decision waits for your review/ }));
-    await record(actor, 'project-reviewer');
+    await record(actor, shots, 'project-reviewer');
 
     await openProposal(actor);
     const review = await visible(page.getByRole('region', { name: 'Review the decision' }));
     await visible(review.getByText(OVERRIDE_REASON));
     expect(await decisionControls(page).count()).toBe(0);
-    await record(actor, 'review-override');
+    await record(actor, shots, 'review-override');
 
     // A return needs a comment: asked for beside the field
     await review.getByRole('button', { name: 'Return to designer' }).click();
@@ -298,7 +271,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await review.getByRole('button', { name: 'Return to designer' }).click();
     await visible(page.getByRole('status').filter({ hasText: 'Returned to the designer with your comment.' }));
     await visible(page.getByText('Returned to designer').first());
-    await record(actor, 'returned');
+    await record(actor, shots, 'returned');
   });
 
   it('the reviewer gets no decision controls and no editable spec, and the server refuses both', async () => {
@@ -313,7 +286,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     const tailCurrent = await visible(page.getByRole('textbox', { name: /Tail current/ }));
     expect(await tailCurrent.isEditable()).toBe(false);
     expect(await page.getByRole('button', { name: /Save as new version|Rank tail options/ }).count()).toBe(0);
-    await record(actor, 'spec-reviewer-read-only');
+    await record(actor, shots, 'spec-reviewer-read-only');
     const payload = { title: SPEC_TITLE, supply: { positiveV: 9, negativeV: -9 }, gain: { target: 100 }, cmrr: { minDb: 80 } };
     expect(await apiFromPage(page, 'PUT', `/api/specs/${specId}`, { title: SPEC_TITLE, payload })).toEqual({ status: 403, code: 'forbidden' });
     expect(await apiFromPage(page, 'POST', `/api/specs/${specId}/proposals`)).toEqual({ status: 403, code: 'forbidden' });
@@ -328,13 +301,13 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     const decision = await visible(page.getByRole('region', { name: 'Your decision' }));
     await visible(decision.getByRole('heading', { name: 'Decide again' }));
     await visible(decision.getByText(RETURN_COMMENT));
-    await record(actor, 'decide-again');
+    await record(actor, shots, 'decide-again');
 
     await decision.getByRole('radio', { name: 'Accept the recommendation' }).check();
     await decision.getByRole('button', { name: new RegExp(`^Record decision: accept the ${recommended}`, 'i') }).click();
     await visible(page.getByRole('status').filter({ hasText: 'Decision recorded' }), 60_000);
     await visible(page.getByText('Awaiting review').first());
-    await record(actor, 'accepted');
+    await record(actor, shots, 'accepted');
   });
 
   it('the reviewer runs every option through SPICE, watches it progress and reads engine and ngspice side by side', async () => {
@@ -354,7 +327,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await visible(table.getByRole('columnheader', { name: 'ngspice' }));
     await visible(table.getByRole('row').filter({ hasText: 'Tail output resistance' }).getByText(/Agrees/));
     await visible(panel.getByText(/Rejection against frequency/));
-    await record(actor, 'verification-result');
+    await record(actor, shots, 'verification-result');
   });
 
   it('the reviewer approves; the systems engineer sees no review controls on the approved record', async () => {
@@ -368,7 +341,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await visible(page.getByRole('status').filter({ hasText: 'Approved: the record is closed.' }));
     await visible(page.getByRole('main').getByText(/^\W*Approved$/));
     expect(await reviewButtons(page).count()).toBe(0);
-    await record(actor, 'approved');
+    await record(actor, shots, 'approved');
 
     const author = actors.requirements;
     await openProposal(author);
@@ -386,7 +359,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     }
     await visible(page.getByText(/Every figure agrees within its tolerance/));
     expect(await page.getByText('Not verified yet.').count()).toBe(0);
-    await record(actor, 'review-report');
+    await record(actor, shots, 'review-report');
     await page.emulateMedia({ media: 'print' });
     await shots.take(page, 'review-report-print');
     const pdf = await page.pdf({ format: 'A4', printBackground: false });
@@ -414,7 +387,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
       expect(texts[i]).toMatch(what);
     });
     await timeline.scrollIntoViewIfNeeded();
-    await record(actor, 'record-timeline');
+    await record(actor, shots, 'record-timeline');
   });
 
   it('the proposal page passes axe in the dark theme too', async () => {
@@ -424,7 +397,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await openProposal(actor);
     expect(await page.evaluate(() => document.documentElement.classList.contains('dark'))).toBe(true);
     await visible(page.getByRole('button', { name: 'Theme: dark' }));
-    await record(actor, 'approved-dark');
+    await record(actor, shots, 'approved-dark');
     await page.evaluate(() => localStorage.removeItem('longtail.theme'));
   });
 

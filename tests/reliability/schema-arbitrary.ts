@@ -2,9 +2,9 @@
  * fast-check arbitraries from the JSON Schemas (draft-07) the routes validate against
  * (api/validation/bodies.ts, shared/schema/*.json): the keywords those schemas use — type,
  * properties/required/additionalProperties, enum, const, oneOf/anyOf, $ref, min/max (and the
- * exclusive forms), minLength/maxLength, pattern, items/minItems/maxItems/uniqueItems. `not`
- * and `if` are ignored, so some values are invalid on purpose-free grounds (the server must
- * answer them with a 4xx, never a 5xx). Integer ranges are cut to 1000 above their minimum, so a
+ * exclusive forms), minLength/maxLength, pattern, items/minItems/maxItems/uniqueItems,
+ * minProperties, and `not` of a numeric range. Other `not` and `if` forms are ignored, so values
+ * may break them (the server must answer those with a 4xx, never a 5xx). Integer ranges are cut to 1000 above their minimum, so a
  * generated spec's Monte Carlo sample count keeps an engine run short.
  *
  * hostile(arb) mixes schema-valid values with mutated ones (a field dropped, replaced by any
@@ -51,7 +51,8 @@ export function arbitraryFromSchema(schema: Schema, root: Schema = schema, depth
       const required = (schema.required ?? []) as string[];
       const model: Record<string, fc.Arbitrary<unknown>> = {};
       for (const [key, sub] of Object.entries(properties)) model[key] = next(sub);
-      const record = fc.record(model, { requiredKeys: required.filter((k) => k in model) });
+      const minProperties = (schema.minProperties as number | undefined) ?? 0;
+      const record = fc.record(model, { requiredKeys: required.filter((k) => k in model) }).filter((value) => Object.keys(value).length >= minProperties);
       if (schema.additionalProperties === false || Object.keys(properties).length > 0) return record;
       return fc.dictionary(fc.string({ maxLength: 12 }), fc.jsonValue({ maxDepth: 2 }), { maxKeys: 4 });
     }
@@ -74,7 +75,16 @@ export function arbitraryFromSchema(schema: Schema, root: Schema = schema, depth
     case 'number': {
       const min = (schema.minimum as number | undefined) ?? (schema.exclusiveMinimum as number | undefined) ?? -1e9;
       const max = (schema.maximum as number | undefined) ?? (schema.exclusiveMaximum as number | undefined) ?? 1e9;
-      return fc.double({ min, max, noNaN: true, noDefaultInfinity: true, minExcluded: 'exclusiveMinimum' in schema, maxExcluded: 'exclusiveMaximum' in schema });
+      const numbers = fc.double({ min, max, noNaN: true, noDefaultInfinity: true, minExcluded: 'exclusiveMinimum' in schema, maxExcluded: 'exclusiveMaximum' in schema });
+      // A `not` of a numeric range (the Early voltage's gap between 0 and 1 V): keep out of it
+      const gap = schema.not as Schema | undefined;
+      if (!gap) return numbers;
+      const inGap = (v: number) =>
+        (gap.exclusiveMinimum === undefined || v > (gap.exclusiveMinimum as number)) &&
+        (gap.exclusiveMaximum === undefined || v < (gap.exclusiveMaximum as number)) &&
+        (gap.minimum === undefined || v >= (gap.minimum as number)) &&
+        (gap.maximum === undefined || v <= (gap.maximum as number));
+      return numbers.map((v) => (inGap(v) ? ((gap.exclusiveMaximum ?? gap.maximum ?? max) as number) : v));
     }
     case 'boolean':
       return fc.boolean();

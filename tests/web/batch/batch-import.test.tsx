@@ -4,15 +4,16 @@
  * marked, one line per problem with its column), then save, rank one spec after another with a
  * progress bar, and the batch CSV link. The server is a fetch stub answering invented reports.
  */
-import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { cleanup, configure, render, screen, within } from '@testing-library/react';
+import { configure, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { MemoryRouter } from 'react-router-dom';
-import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
+import { beforeEach, describe, expect, test } from 'vitest';
 import type { ImportReport } from '../../../web/src/features/batch/api/batch-api';
 import { BatchImport } from '../../../web/src/features/batch/components/batch-import';
 import { ImportReportTable } from '../../../web/src/features/batch/components/import-report-table';
 import { rankInTurn } from '../../../web/src/features/batch/lib/rank-in-turn';
+import { json, useFetchStub } from '../helpers/fetch-stub';
+import { renderWithClient } from '../helpers/render';
 
 configure({ asyncUtilTimeout: 5000 });
 
@@ -55,10 +56,6 @@ const readText = (file: File) =>
     reader.readAsText(file);
   });
 
-const json = (status: number, body: unknown) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
-
-let sent: string[];
-let unmocked: string[];
 let uploads: { url: string; fileName: string; text: string }[];
 let rankAnswers: Map<number, { resolve: () => void; promise: Promise<Response> }>;
 
@@ -71,40 +68,24 @@ function deferredRanking(specId: number, proposalId: number, recommendedTopology
 }
 
 beforeEach(() => {
-  sent = [];
-  unmocked = [];
   uploads = [];
   rankAnswers = new Map();
-  vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
-    const url = String(input);
-    const key = `${init?.method ?? 'GET'} ${url}`;
-    sent.push(key);
-    if (key === 'GET /api/auth/csrf') return json(200, { token: 't' });
-    if (key.startsWith('POST /api/projects/1/specs/import')) {
-      const file = (init?.body as FormData).get('file') as File;
-      uploads.push({ url, fileName: file.name, text: await readText(file) });
-      return json(200, report(url.endsWith('?dryRun=true') === true));
-    }
-    const rank = /^POST \/api\/specs\/(\d+)\/proposals$/.exec(key);
-    if (rank && rankAnswers.has(Number(rank[1]))) return rankAnswers.get(Number(rank[1]))!.promise;
-    unmocked.push(key);
-    return json(599, { error: 'not mocked' });
-  });
 });
 
-afterEach(() => {
-  cleanup();
-  vi.unstubAllGlobals();
-  expect(unmocked, 'requests nobody mocked').toEqual([]);
+const api = useFetchStub(async ({ key, path }, init) => {
+  if (key === 'GET /api/auth/csrf') return json(200, { token: 't' });
+  if (key.startsWith('POST /api/projects/1/specs/import')) {
+    const file = (init?.body as FormData).get('file') as File;
+    uploads.push({ url: path, fileName: file.name, text: await readText(file) });
+    return json(200, report(path.endsWith('?dryRun=true') === true));
+  }
+  const rank = /^POST \/api\/specs\/(\d+)\/proposals$/.exec(key);
+  if (rank && rankAnswers.has(Number(rank[1]))) return rankAnswers.get(Number(rank[1]))!.promise;
+  return undefined;
 });
 
 function renderWithProviders(ui: React.ReactNode) {
-  const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false }, mutations: { retry: false } } });
-  render(
-    <QueryClientProvider client={queryClient}>
-      <MemoryRouter>{ui}</MemoryRouter>
-    </QueryClientProvider>,
-  );
+  renderWithClient(<MemoryRouter>{ui}</MemoryRouter>);
 }
 
 /** Each body row's visible cells, as text. */
@@ -163,7 +144,7 @@ describe('the batch flow', () => {
     expect(await screen.findByText('Tarn probe — channel A', { selector: 'span' })).toBeTruthy();
     const bar = screen.getByRole('progressbar', { name: 'Ranking progress' }) as HTMLProgressElement;
     expect([bar.value, bar.max]).toEqual([0, 2]);
-    expect(sent.filter((k) => k.includes('/proposals'))).toEqual(['POST /api/specs/21/proposals']); // one at a time
+    expect(api.sent.map((r) => r.key).filter((k) => k.includes('/proposals'))).toEqual(['POST /api/specs/21/proposals']); // one at a time
     rankAnswers.get(21)!.resolve();
 
     expect(await screen.findByText('Tarn probe — reference', { selector: 'span' })).toBeTruthy();

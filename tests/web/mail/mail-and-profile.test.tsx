@@ -5,49 +5,20 @@
  * server's answer). fetch is mocked per test; the answers are invented.
  */
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { cleanup, configure, render, screen, within } from '@testing-library/react';
+import { configure, render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import type { ReactNode } from 'react';
 import { createRoutesStub } from 'react-router-dom';
-import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
+import { describe, expect, test } from 'vitest';
 import { authKeys } from '../../../web/src/features/auth/api/auth-queries';
 import type { Mailbox, User } from '../../../web/src/lib/api-types';
 import { Component as MailPage, loader as mailLoader } from '../../../web/src/routes/mail';
 import { Component as ProfilePage, loader as profileLoader } from '../../../web/src/routes/profile';
+import { useMockedApi } from '../helpers/fetch-stub';
 
 configure({ asyncUtilTimeout: 5000 });
 
-interface Mocked {
-  status: number;
-  body: unknown;
-}
-
-let routes: Record<string, Mocked> = {};
-let sent: { method: string; path: string; body: unknown; headers: Record<string, string> }[] = [];
-let unmocked: string[] = [];
-
-beforeEach(() => {
-  routes = { 'GET /api/auth/csrf': { status: 200, body: { token: 'csrf-token' } } };
-  sent = [];
-  unmocked = [];
-  vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
-    const method = init?.method ?? 'GET';
-    const path = String(input);
-    sent.push({ method, path, body: init?.body ? JSON.parse(String(init.body)) : undefined, headers: (init?.headers ?? {}) as Record<string, string> });
-    const mocked = routes[`${method} ${path}`];
-    if (!mocked) {
-      unmocked.push(`${method} ${path}`);
-      return new Response(JSON.stringify({ error: 'not mocked' }), { status: 599 });
-    }
-    return new Response(JSON.stringify(mocked.body), { status: mocked.status, headers: { 'Content-Type': 'application/json' } });
-  });
-});
-
-afterEach(() => {
-  cleanup();
-  vi.unstubAllGlobals();
-  expect(unmocked, 'requests nobody mocked').toEqual([]);
-});
+const api = useMockedApi();
 
 const ADMIN: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', notify: true, createdAt: '2026-01-01T00:00:00Z' };
 const DESIGNER: User = { id: 3, email: 'priya@example.test', displayName: 'Priya Example', role: 'designer', notify: true, createdAt: '2026-01-01T00:00:00Z' };
@@ -92,7 +63,7 @@ function renderRoute(path: string, Component: React.ComponentType, loader: (qc: 
 
 describe('mail page', () => {
   test('when an admin opens it, then the newest message is open and clicking another shows its text', async () => {
-    routes['GET /api/admin/mail'] = { status: 200, body: MAILBOX };
+    api.routes['GET /api/admin/mail'] = { status: 200, body: MAILBOX };
     renderRoute('/admin/mail', MailPage, mailLoader, ADMIN);
 
     const reading = await screen.findByRole('region', { name: 'Message' });
@@ -111,14 +82,14 @@ describe('mail page', () => {
     renderRoute('/admin/mail', MailPage, mailLoader, DESIGNER);
 
     expect(await screen.findByRole('heading', { name: 'Not allowed' })).toBeTruthy();
-    expect(sent).toEqual([]);
+    expect(api.sent).toEqual([]);
   });
 });
 
 describe('profile page', () => {
   test('when the designer unticks the e-mail box, then PATCH /api/auth/me carries notify false with the CSRF token and the box stays off', async () => {
-    routes['PATCH /api/auth/me'] = { status: 200, body: { user: { ...DESIGNER, notify: false } } };
-    routes['GET /api/auth/me'] = { status: 200, body: { user: { ...DESIGNER, notify: false } } };
+    api.routes['PATCH /api/auth/me'] = { status: 200, body: { user: { ...DESIGNER, notify: false } } };
+    api.routes['GET /api/auth/me'] = { status: 200, body: { user: { ...DESIGNER, notify: false } } };
     renderRoute('/profile', ProfilePage, profileLoader, DESIGNER);
     const box = (await screen.findByRole('checkbox', { name: /E-mail me about the workflow/ })) as HTMLInputElement;
     expect(box.checked).toBe(true);
@@ -127,13 +98,13 @@ describe('profile page', () => {
 
     expect(await screen.findByText('Saved: e-mail is off.')).toBeTruthy();
     expect(box.checked).toBe(false);
-    const patch = sent.find((r) => r.method === 'PATCH');
+    const patch = api.sent.find((r) => r.method === 'PATCH');
     expect(patch).toMatchObject({ path: '/api/auth/me', body: { notify: false } });
     expect(patch?.headers['X-CSRF-Token']).toBe('csrf-token');
   });
 
   test('when the server refuses the change, then its words show and the box keeps the stored setting', async () => {
-    routes['PATCH /api/auth/me'] = { status: 500, body: { error: 'The database is busy; try again.', code: 'internal', details: [] } };
+    api.routes['PATCH /api/auth/me'] = { status: 500, body: { error: 'The database is busy; try again.', code: 'internal', details: [] } };
     renderRoute('/profile', ProfilePage, profileLoader, DESIGNER);
     const box = (await screen.findByRole('checkbox', { name: /E-mail me about the workflow/ })) as HTMLInputElement;
 

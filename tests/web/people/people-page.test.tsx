@@ -1,54 +1,20 @@
 // @vitest-environment jsdom
-import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { cleanup, configure, render, screen, within } from '@testing-library/react';
+import { configure, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import type { ReactNode } from 'react';
 import { createRoutesStub } from 'react-router-dom';
-import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
+import { describe, expect, test } from 'vitest';
 import { authKeys } from '../../../web/src/features/auth/api/auth-queries';
 import { NewUserForm } from '../../../web/src/features/people/components/new-user-form';
 import { UsersTable } from '../../../web/src/features/people/components/users-table';
 import type { User } from '../../../web/src/lib/api-types';
 import { Component as PeoplePage, loader } from '../../../web/src/routes/people';
+import { useMockedApi } from '../helpers/fetch-stub';
+import { renderWithClient, testQueryClient } from '../helpers/render';
 
 configure({ asyncUtilTimeout: 5000 });
 
-interface Mocked {
-  status: number;
-  body: unknown;
-}
-
 /** Mocked answers by "METHOD /path"; anything else is recorded and fails the test. */
-let routes: Record<string, Mocked> = {};
-let sent: { method: string; path: string; body: unknown; headers: Record<string, string> }[] = [];
-let unmocked: string[] = [];
-
-beforeEach(() => {
-  routes = { 'GET /api/auth/csrf': { status: 200, body: { token: 'csrf-token' } } };
-  sent = [];
-  unmocked = [];
-  vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
-    const method = init?.method ?? 'GET';
-    const path = String(input);
-    sent.push({ method, path, body: init?.body ? JSON.parse(String(init.body)) : undefined, headers: (init?.headers ?? {}) as Record<string, string> });
-    const mocked = routes[`${method} ${path}`];
-    if (!mocked) {
-      unmocked.push(`${method} ${path}`);
-      return new Response(JSON.stringify({ error: 'not mocked' }), { status: 599 });
-    }
-    return new Response(JSON.stringify(mocked.body), { status: mocked.status, headers: { 'Content-Type': 'application/json' } });
-  });
-});
-
-afterEach(() => {
-  cleanup();
-  vi.unstubAllGlobals();
-  expect(unmocked, 'requests nobody mocked').toEqual([]);
-});
-
-function withQueryClient(children: ReactNode, queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } })) {
-  return render(<QueryClientProvider client={queryClient}>{children}</QueryClientProvider>);
-}
+const api = useMockedApi();
 
 async function fillNewUser(fields: { email?: string; name?: string; password?: string } = {}) {
   await userEvent.type(screen.getByLabelText('E-mail'), fields.email ?? 'new.person@example.test');
@@ -61,28 +27,28 @@ async function fillNewUser(fields: { email?: string; name?: string; password?: s
 
 describe('new account form', () => {
   test('when the server refuses a field (400), then its detail shows by that field and the field takes focus', async () => {
-    routes['POST /api/users'] = {
+    api.routes['POST /api/users'] = {
       status: 400,
       body: { error: 'The request is not valid.', code: 'invalid-request', details: [{ path: '/displayName', message: 'must NOT have more than 120 characters' }] },
     };
-    withQueryClient(<NewUserForm />);
+    renderWithClient(<NewUserForm />);
     await fillNewUser();
 
     const name = await screen.findByRole('textbox', { name: 'Display name', description: /Must NOT have more than 120 characters/ });
     expect(name.getAttribute('aria-invalid')).toBe('true');
     expect(document.activeElement).toBe(name);
     expect(screen.getByRole('textbox', { name: 'E-mail' }).getAttribute('aria-invalid')).toBeNull();
-    const post = sent.find((r) => r.method === 'POST');
+    const post = api.sent.find((r) => r.method === 'POST');
     expect(post?.body).toEqual({ email: 'new.person@example.test', displayName: 'New Person', role: 'reviewer', password: 'copper tail current' });
     expect(post?.headers['X-CSRF-Token']).toBe('csrf-token');
   });
 
   test('when the e-mail is taken (409), then the server’s sentence shows by the e-mail field', async () => {
-    routes['POST /api/users'] = {
+    api.routes['POST /api/users'] = {
       status: 409,
       body: { error: 'An account with this e-mail address exists already.', code: 'email-taken', details: [{ path: '/email', message: 'is taken' }] },
     };
-    withQueryClient(<NewUserForm />);
+    renderWithClient(<NewUserForm />);
     await fillNewUser({ email: 'designer@demo.longtail.test' });
 
     const email = await screen.findByRole('textbox', { name: 'E-mail', description: /An account with this e-mail address exists already/ });
@@ -91,19 +57,19 @@ describe('new account form', () => {
   });
 
   test('when the password is shorter than 12 characters, then nothing is sent and the field says how many are missing', async () => {
-    withQueryClient(<NewUserForm />);
+    renderWithClient(<NewUserForm />);
     await userEvent.type(screen.getByLabelText('First password'), 'short');
     expect(screen.getByText('Too short: 7 more characters needed')).toBeTruthy();
     await fillNewUser({ password: '' });
 
     expect(await screen.findByText('Must be at least 12 characters')).toBeTruthy();
-    expect(sent.filter((r) => r.method === 'POST')).toEqual([]);
+    expect(api.sent.filter((r) => r.method === 'POST')).toEqual([]);
   });
 
   test('when the account is created, then the form empties and says who can sign in', async () => {
     const created: User = { id: 9, email: 'new.person@example.test', displayName: 'New Person', role: 'reviewer', createdAt: '2026-12-01T00:00:00Z' };
-    routes['POST /api/users'] = { status: 201, body: created };
-    withQueryClient(<NewUserForm />);
+    api.routes['POST /api/users'] = { status: 201, body: created };
+    renderWithClient(<NewUserForm />);
     await fillNewUser();
 
     expect(await screen.findByText(/New Person \(Reviewer\) can now sign in as new.person@example.test/)).toBeTruthy();
@@ -115,8 +81,8 @@ describe('accounts table', () => {
   const me: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', createdAt: '2026-01-01T00:00:00Z' };
 
   test('when you confirm taking the admin role from yourself, then the server’s refusal (409) is shown', async () => {
-    routes['PATCH /api/users/1'] = { status: 409, body: { error: 'You cannot take the administrator role from yourself.', code: 'last-admin', details: [] } };
-    withQueryClient(<UsersTable users={[me]} currentUserId={1} />);
+    api.routes['PATCH /api/users/1'] = { status: 409, body: { error: 'You cannot take the administrator role from yourself.', code: 'last-admin', details: [] } };
+    renderWithClient(<UsersTable users={[me]} currentUserId={1} />);
     await userEvent.selectOptions(screen.getByLabelText('Role of Ines Admin'), 'designer');
     const confirm = screen.getByRole('group', { name: 'Confirm the role change of Ines Admin' });
     expect(within(confirm).getByText(/Change your own role from/)).toBeTruthy();
@@ -124,18 +90,18 @@ describe('accounts table', () => {
 
     expect((await screen.findByRole('alert')).textContent).toMatch('You cannot take the administrator role from yourself.');
     expect((screen.getByLabelText('Role of Ines Admin') as HTMLSelectElement).value).toBe('admin');
-    expect(sent.find((r) => r.method === 'PATCH')?.body).toEqual({ role: 'designer' });
+    expect(api.sent.find((r) => r.method === 'PATCH')?.body).toEqual({ role: 'designer' });
   });
 });
 
 describe('people page', () => {
   test('when someone other than an admin opens it, then it says so and asks the server for nothing', async () => {
-    const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
+    const queryClient = testQueryClient();
     queryClient.setQueryData(authKeys.me(), { id: 3, email: 'd@example.test', displayName: 'Dee', role: 'designer', createdAt: '2026-01-01T00:00:00Z' } satisfies User);
     const Stub = createRoutesStub([{ path: '/people', Component: PeoplePage, loader: loader(queryClient), HydrateFallback: () => null }]);
-    withQueryClient(<Stub initialEntries={['/people']} />, queryClient);
+    renderWithClient(<Stub initialEntries={['/people']} />, queryClient);
 
     expect(await screen.findByRole('heading', { name: 'Not allowed' })).toBeTruthy();
-    expect(sent).toEqual([]);
+    expect(api.sent).toEqual([]);
   });
 });

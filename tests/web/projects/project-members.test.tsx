@@ -1,10 +1,11 @@
 // @vitest-environment jsdom
-import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { cleanup, configure, render, screen, within } from '@testing-library/react';
+import { configure, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
-import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
+import { beforeEach, describe, expect, test } from 'vitest';
 import { ProjectMembers } from '../../../web/src/features/projects/components/project-members';
 import type { User } from '../../../web/src/lib/api-types';
+import { json, useFetchStub } from '../helpers/fetch-stub';
+import { renderWithClient } from '../helpers/render';
 
 configure({ asyncUtilTimeout: 5000 });
 
@@ -13,47 +14,30 @@ const PRIYA = person(3, 'Priya Valcourt', 'designer');
 const SAMIR = person(4, 'Samir Edelstein', 'reviewer');
 
 let members: User[] = [];
-let sent: string[] = [];
-let unmocked: string[] = [];
 
 /** A tiny member store behind the project's member endpoints. */
 beforeEach(() => {
   members = [PRIYA];
-  sent = [];
-  unmocked = [];
-  vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
-    const key = `${init?.method ?? 'GET'} ${String(input)}`;
-    sent.push(key);
-    const json = (status: number, body: unknown) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
-    if (key === 'GET /api/auth/csrf') return json(200, { token: 't' });
-    if (key === 'GET /api/projects/1/members') return json(200, { items: members });
-    if (key === 'POST /api/projects/1/members') {
-      const { userId } = JSON.parse(String(init?.body)) as { userId: number };
-      members = [...members, [PRIYA, SAMIR].find((u) => u.id === userId)!];
-      return json(201, { id: 1, projectId: 1, userId });
-    }
-    if (key === 'DELETE /api/projects/1/members/3') {
-      members = members.filter((m) => m.id !== 3);
-      return new Response(null, { status: 204 });
-    }
-    unmocked.push(key);
-    return json(599, { error: 'not mocked' });
-  });
 });
 
-afterEach(() => {
-  cleanup();
-  vi.unstubAllGlobals();
-  expect(unmocked, 'requests nobody mocked').toEqual([]);
+const api = useFetchStub(({ key }, init) => {
+  if (key === 'GET /api/auth/csrf') return json(200, { token: 't' });
+  if (key === 'GET /api/projects/1/members') return json(200, { items: members });
+  if (key === 'POST /api/projects/1/members') {
+    const { userId } = JSON.parse(String(init?.body)) as { userId: number };
+    members = [...members, [PRIYA, SAMIR].find((u) => u.id === userId)!];
+    return json(201, { id: 1, projectId: 1, userId });
+  }
+  if (key === 'DELETE /api/projects/1/members/3') {
+    members = members.filter((m) => m.id !== 3);
+    return new Response(null, { status: 204 });
+  }
+  return undefined;
 });
+const sentKeys = () => api.sent.map((r) => r.key);
 
 function renderMembers(manage?: { allUsers: User[] }) {
-  const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  render(
-    <QueryClientProvider client={queryClient}>
-      <ProjectMembers projectId={1} manage={manage} />
-    </QueryClientProvider>,
-  );
+  renderWithClient(<ProjectMembers projectId={1} manage={manage} />);
 }
 
 describe('people on a project', () => {
@@ -73,17 +57,17 @@ describe('people on a project', () => {
     await userEvent.click(screen.getByRole('button', { name: 'Add' }));
 
     expect(await screen.findByText('Samir Edelstein')).toBeTruthy();
-    expect(sent.filter((k) => k === 'GET /api/projects/1/members')).toHaveLength(2);
+    expect(sentKeys().filter((k) => k === 'GET /api/projects/1/members')).toHaveLength(2);
   });
 
   test('when an admin removes someone, then it is confirmed first and the list is fetched again', async () => {
     renderMembers({ allUsers: [PRIYA, SAMIR] });
     await userEvent.click(await screen.findByRole('button', { name: 'Remove Priya Valcourt' }));
-    expect(sent).not.toContain('DELETE /api/projects/1/members/3');
+    expect(sentKeys()).not.toContain('DELETE /api/projects/1/members/3');
     const confirm = screen.getByRole('group', { name: 'Confirm removing Priya Valcourt' });
     await userEvent.click(within(confirm).getByRole('button', { name: 'Remove' }));
 
     expect(await screen.findByText('Nobody is on this project yet.')).toBeTruthy();
-    expect(sent).toContain('DELETE /api/projects/1/members/3');
+    expect(sentKeys()).toContain('DELETE /api/projects/1/members/3');
   });
 });

@@ -10,11 +10,12 @@ import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { cleanup, configure, render, screen, within } from '@testing-library/react';
 import { createRoutesStub } from 'react-router-dom';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import type { VerificationJobView, VerificationStatus } from '../../../shared/verification/types';
-import type { AuditEvent, Decision, Proposal } from '../../../web/src/lib/api-types';
+import type { VerificationStatus } from '../../../shared/verification/types';
+import type { Decision, Proposal } from '../../../web/src/lib/api-types';
 import { Component, ErrorBoundary, loader } from '../../../web/src/routes/proposal-report';
 import { mockFetch } from './decision/fixtures/fetch-mock';
-import { DESIGNER, proposalFixture, RANKING, rankedOptionOf, REVIEWER } from './decision/fixtures/proposal-fixture';
+import { auditEvent, DESIGNER, proposalFixture, RANKING, rankedOptionOf, REVIEWER } from './decision/fixtures/proposal-fixture';
+import { job } from './verification/verification-fixtures';
 
 // Route modules load lazily on first use: give the first render of a file time.
 configure({ asyncUtilTimeout: 5000 });
@@ -52,43 +53,20 @@ function approvedWithCautions(): Proposal {
   };
 }
 
-const event = (id: number, at: string, action: string, actorId: number, entityId: number, details: Record<string, unknown>): AuditEvent => ({
-  id,
-  at,
-  actorId,
-  action,
-  entityType: 'proposal',
-  entityId,
-  projectId: 1,
-  proposalId: 2,
-  beforeId: null,
-  afterId: entityId,
-  details,
-});
-
 const AUDIT = {
   items: [
-    event(1, '2026-03-02T09:30:00.000Z', 'proposal.ranked', DESIGNER.id, 2, { specVersion: 1, recommended: 'degenerated-mirror', status: 'ranked' }),
-    event(2, '2026-03-02T10:15:42.000Z', 'proposal.decided', DESIGNER.id, 11, { kind: 'choose', topology: 'wilson', from: 'ranked', to: 'decided' }),
-    event(3, '2026-03-02T11:20:07.000Z', 'proposal.approved', REVIEWER.id, 21, { verdict: 'approve', from: 'decided', to: 'approved' }),
+    auditEvent(1, '2026-03-02T09:30:00.000Z', 'proposal.ranked', DESIGNER.id, 2, { specVersion: 1, recommended: 'degenerated-mirror', status: 'ranked' }),
+    auditEvent(2, '2026-03-02T10:15:42.000Z', 'proposal.decided', DESIGNER.id, 11, { kind: 'choose', topology: 'wilson', from: 'ranked', to: 'decided' }),
+    auditEvent(3, '2026-03-02T11:20:07.000Z', 'proposal.approved', REVIEWER.id, 21, { verdict: 'approve', from: 'decided', to: 'approved' }),
   ],
 };
 
 const ROUTE_NOT_FOUND = { status: 404, body: { error: 'No such API route.', code: 'route-not-found' } };
 
 function finishedVerification(): VerificationStatus {
-  const job: VerificationJobView = {
+  const verification = job({
     id: 5,
     proposalId: 2,
-    kind: 'proposal',
-    topology: null,
-    runs: null,
-    state: 'finished',
-    done: 6,
-    total: 6,
-    step: null,
-    message: null,
-    requestedBy: { id: REVIEWER.id, displayName: REVIEWER.displayName },
     createdAt: '2026-03-02T09:40:00.000Z',
     startedAt: '2026-03-02T09:40:01.000Z',
     finishedAt: '2026-03-02T09:40:09.000Z',
@@ -121,8 +99,8 @@ function finishedVerification(): VerificationStatus {
         },
       ],
     },
-  };
-  return { verification: job, monteCarlo: [] };
+  });
+  return { verification, monteCarlo: [] };
 }
 
 let fetchMock: ReturnType<typeof mockFetch>;

@@ -15,24 +15,8 @@ export interface User {
   createdAt: string;
 }
 
-/** One message the built-in local mail server received (GET /api/admin/mail). */
-export interface ReceivedMail {
-  id: number;
-  at: string;
-  from: string | null;
-  to: string[];
-  subject: string;
-  text: string;
-  outboxId: number | null;
-}
-
-export interface Mailbox {
-  items: ReceivedMail[];
-  /** Messages stored in all (the list holds the newest 200). */
-  total: number;
-  /** Rows of the outbox by state: waiting to be sent, sent, given up. */
-  outbox: { pending: number; sent: number; failed: number };
-}
+/** The admin mailbox (GET /api/admin/mail). */
+export type { Mailbox, ReceivedMail } from '../../../shared/mail/types';
 
 export interface Project {
   id: number;

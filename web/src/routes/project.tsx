@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
-import { data, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { may } from '../../../shared/workflow/roles';
 import { RouteError } from '../app/route-error';
 import { PageHeader } from '../components/ui/page-header';
@@ -14,14 +14,8 @@ import { ProjectMembers } from '../features/projects/components/project-members'
 import { ProposalsSection } from '../features/projects/components/proposals-section';
 import { SpecsSection } from '../features/projects/components/specs-section';
 import { useProposalView } from '../features/projects/hooks/use-proposal-view';
+import { projectIdFrom } from '../features/projects/utils/project-id';
 import { readProposalView, type ProposalFilter } from '../features/projects/utils/proposal-filter';
-
-/** A project id from the URL; anything else names no project. */
-function projectIdFrom(value: string | undefined): number {
-  const id = Number(value);
-  if (!Number.isInteger(id) || id < 1) throw data('No such project', { status: 404 });
-  return id;
-}
 
 /** The project, its specs and the proposals page the URL asks for, fetched before the page shows. */
 export const loader =

@@ -1,16 +1,14 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useMemo } from 'react';
-import { Link, useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { may, ROLE_TITLES } from '../../../shared/workflow/roles';
+import { useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { RouteError } from '../app/route-error';
-import { EmptyState } from '../components/ui/feedback';
-import { PageHeader } from '../components/ui/page-header';
 import { paths } from '../config/paths';
 import { meQuery } from '../features/auth/api/auth-queries';
 import { projectKeys, projectQuery } from '../features/projects/api/project-queries';
 import { createSpec, specKeys, specSchemaQuery } from '../features/specs/api/spec-queries';
 import { SpecForm, type SpecDraft } from '../features/specs/components/spec-form';
+import { ProjectPageHeader, SpecWritersOnly } from '../features/specs/components/spec-writers-only';
 import { specBody } from '../features/specs/lib/spec-body';
 import { exampleFromSchema } from '../features/specs/lib/spec-example';
 import type { SchemaNode } from '../features/specs/lib/schema-nodes';
@@ -33,22 +31,6 @@ export function Component() {
   const navigate = useNavigate();
   if (!user) return null;
 
-  const eyebrow = (
-    <Link to={paths.project.href(project.id)} className="hover:underline">
-      {project.name}
-    </Link>
-  );
-  if (!may(user.role, 'specs:write')) {
-    return (
-      <>
-        <PageHeader eyebrow={eyebrow} title="New spec" />
-        <EmptyState title="Specs are written by systems engineers">
-          You are signed in as {ROLE_TITLES[user.role].toLowerCase()}; you can read this project’s specs and, where your role allows, rank them.
-        </EmptyState>
-      </>
-    );
-  }
-
   const onSave = async (draft: SpecDraft) => {
     const spec = await createSpec(projectId, specBody(draft));
     queryClient.setQueryData(specKeys.detail(spec.id), spec);
@@ -57,12 +39,12 @@ export function Component() {
   };
 
   return (
-    <>
-      <PageHeader eyebrow={eyebrow} title="New spec">
+    <SpecWritersOnly user={user} project={project} title="New spec" refusal="Specs are written by systems engineers">
+      <ProjectPageHeader project={project} title="New spec">
         Starts from the defaults with an example for the required figures. Type quantities as you would write them: 4k7, 10u, 2 pF, −12 V.
-      </PageHeader>
+      </ProjectPageHeader>
       <SpecForm initial={initial} onSave={onSave} saveLabel="Create spec" savingLabel="Creating…" projectId={projectId} />
-    </>
+    </SpecWritersOnly>
   );
 }
 

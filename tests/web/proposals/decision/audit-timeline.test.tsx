@@ -2,10 +2,9 @@
 import { cleanup, screen, within } from '@testing-library/react';
 import { afterEach, describe, expect, test, vi } from 'vitest';
 import { AuditTimeline } from '../../../../web/src/features/proposals/components/audit-timeline';
-import type { AuditEvent } from '../../../../web/src/lib/api-types';
 import { mockFetch } from './fixtures/fetch-mock';
-import { DESIGNER, proposalFixture, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
-import { renderWithClient } from './fixtures/render';
+import { auditEvent, DESIGNER, proposalFixture, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
+import { renderWithClient } from '../../helpers/render';
 
 let fetchMock: ReturnType<typeof mockFetch>;
 
@@ -15,19 +14,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-const event = (id: number, action: string, actorId: number, entityId: number, details: Record<string, unknown>): AuditEvent => ({
-  id,
-  at: `2026-03-02T0${id}:00:00.000Z`,
-  actorId,
-  action,
-  entityType: 'proposal',
-  entityId,
-  projectId: 1,
-  proposalId: 2,
-  beforeId: null,
-  afterId: entityId,
-  details,
-});
+const event = (id: number, action: string, actorId: number, entityId: number, details: Record<string, unknown>) => auditEvent(id, `2026-03-02T0${id}:00:00.000Z`, action, actorId, entityId, details);
 
 describe('AuditTimeline', () => {
   test('when the trail loads, then each event reads in plain words with names, times and state changes', async () => {

@@ -5,7 +5,7 @@ import { afterEach, describe, expect, test, vi } from 'vitest';
 import { DecisionPanel } from '../../../../web/src/features/proposals/components/decision-panel';
 import { mockFetch, type Call } from './fixtures/fetch-mock';
 import { DESIGNER, proposalFixture, RANKING, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
-import { renderWithClient } from './fixtures/render';
+import { renderWithClient } from '../../helpers/render';
 
 const MEMBERS = { 'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER] } }) };
 

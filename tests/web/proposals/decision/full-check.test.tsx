@@ -7,7 +7,7 @@ import { DecisionPanel } from '../../../../web/src/features/proposals/components
 import type { OptionEvaluation } from '../../../../web/src/lib/api-types';
 import { mockFetch, type Call } from './fixtures/fetch-mock';
 import { DESIGNER, proposalFixture, RANKING, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
-import { renderWithClient } from './fixtures/render';
+import { renderWithClient } from '../../helpers/render';
 
 const MEMBERS = { 'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER] } }) };
 const EVALUATION = 'POST /api/proposals/2/evaluation';

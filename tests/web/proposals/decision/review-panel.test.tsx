@@ -5,7 +5,7 @@ import { afterEach, describe, expect, test, vi } from 'vitest';
 import { ReviewPanel } from '../../../../web/src/features/proposals/components/review-panel';
 import { mockFetch } from './fixtures/fetch-mock';
 import { chooseDecision, decidedProposal, DESIGNER, proposalFixture, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
-import { renderWithClient } from './fixtures/render';
+import { renderWithClient } from '../../helpers/render';
 
 const MEMBERS = { 'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER] } }) };
 

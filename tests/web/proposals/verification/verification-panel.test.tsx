@@ -5,7 +5,7 @@ import { afterEach, describe, expect, test, vi } from 'vitest';
 import { VerificationPanel } from '../../../../web/src/features/proposals/components/verification-panel';
 import type { Decision } from '../../../../web/src/lib/api-types';
 import { mockFetch } from '../decision/fixtures/fetch-mock';
-import { renderWithClient } from '../decision/fixtures/render';
+import { renderWithClient } from '../../helpers/render';
 import {
   DESIGNER,
   differentialProposal,

@@ -1,41 +1,15 @@
 /**
- * Batch specs: the import report the server answers (api/services/spec-import.service.ts), the
+ * Batch specs: the import report the server answers (shared/import/import-report.ts), the
  * upload itself (dry run or save), and ranking one spec of the batch.
  */
+import type { ImportAction, ImportReport, ImportRowReport } from '../../../../../shared/import/import-report';
+import type { ImportIssue } from '../../../../../shared/import/spec-file';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import type { Proposal } from '../../../lib/api-types';
 
-/** One problem: its row (the header is row 1 in a CSV), the column or field, and what is wrong. */
-export interface ImportIssue {
-  row: number;
-  field: string;
-  message: string;
-}
-
-/** What a row does (in a dry run: would do). */
-export type ImportAction = 'created' | 'new-version' | 'unchanged' | 'skipped';
-
-export interface ImportRowReport {
-  row: number;
-  title: string | null;
-  ok: boolean;
-  errors: ImportIssue[];
-  action: ImportAction;
-  specId: number | null;
-  version: number | null;
-}
-
-export interface ImportReport {
-  fileName: string;
-  format: 'csv' | 'json';
-  dryRun: boolean;
-  total: number;
-  valid: number;
-  counts: Record<ImportAction, number>;
-  headerErrors: ImportIssue[];
-  rows: ImportRowReport[];
-}
+/** The import report (and its rows and problems) as the server answers it. */
+export type { ImportAction, ImportIssue, ImportReport, ImportRowReport };
 
 /** Sends the file; with `dryRun` the server checks every row and saves nothing. */
 export function importSpecs(projectId: number, file: File, dryRun: boolean): Promise<ImportReport> {

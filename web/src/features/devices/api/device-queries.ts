@@ -1,3 +1,4 @@
+import type { DeviceModelView } from '../../../../../shared/devices/types';
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
@@ -5,25 +6,7 @@ import type { Items } from '../../../lib/api-types';
 import { projectKeys } from '../../projects/api/project-queries';
 
 /** One card of a project's device library (GET /api/projects/:id/devices). */
-export interface LibraryDevice {
-  id: number;
-  projectId: number;
-  name: string;
-  /** The spec's device fields the card fills. */
-  device: { family: 'npn'; beta: number; saturationCurrentA: number; earlyVoltageV: number };
-  /** Every parameter of the card, upper-case name → number (SI units). */
-  parameters: Record<string, number>;
-  /** How the engine uses the card (what it leaves out). */
-  notes: string[];
-  /** The card's lines as written. */
-  card: string;
-  line: number;
-  fileName: string;
-  /** sha256 of the uploaded file, hex. */
-  checksum: string;
-  uploadedBy: { id: number; displayName: string };
-  uploadedAt: string;
-}
+export type LibraryDevice = DeviceModelView;
 
 export const deviceKeys = {
   library: (projectId: number) => [...projectKeys.detail(projectId), 'devices'] as const,

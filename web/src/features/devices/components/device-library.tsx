@@ -5,11 +5,11 @@
  * was stored.
  */
 import { useQuery } from '@tanstack/react-query';
-import { useId, useState, type ChangeEvent } from 'react';
+import { useState } from 'react';
+import { FileUploadButton, UploadProblems } from '../../../components/forms/file-upload';
 import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { Quantity } from '../../../components/ui/quantity';
 import { Sheet } from '../../../components/ui/sheet';
-import { ApiError } from '../../../lib/api';
 import { DenseTable, Td, Th, Tr } from '../../projects/components/dense-table';
 import { When } from '../../projects/components/when';
 import { projectDevicesQuery, useUploadDevices, type LibraryDevice } from '../api/device-queries';
@@ -20,28 +20,14 @@ const ACCEPT = '.lib,.mod,.model,.cir,.sp,.txt,text/plain';
 export function DeviceLibrary({ projectId, canUpload }: { projectId: number; canUpload: boolean }) {
   const devices = useQuery(projectDevicesQuery(projectId));
   const upload = useUploadDevices(projectId);
-  const inputId = useId();
   const [added, setAdded] = useState<{ names: string[]; fileName: string } | null>(null);
 
-  const onFile = (event: ChangeEvent<HTMLInputElement>) => {
-    const file = event.target.files?.[0];
-    event.target.value = '';
-    if (!file) return;
+  const onFile = (file: File) => {
     setAdded(null);
     upload.mutate(file, { onSuccess: (result) => setAdded({ names: result.items.map((d) => d.name), fileName: file.name }) });
   };
 
-  const control = canUpload && (
-    <div className="has-[input:focus-visible]:ring-2 has-[input:focus-visible]:ring-fern rounded-md">
-      <label
-        htmlFor={inputId}
-        className="inline-flex cursor-pointer items-center rounded-md border border-rule bg-sheet px-3 py-1.5 text-sm font-medium hover:bg-paper dark:border-night-rule dark:bg-night-sheet dark:hover:bg-night"
-      >
-        {upload.isPending ? 'Reading the file…' : 'Upload .model cards'}
-      </label>
-      <input id={inputId} type="file" accept={ACCEPT} className="sr-only" disabled={upload.isPending} onChange={onFile} />
-    </div>
-  );
+  const control = canUpload && <FileUploadButton label="Upload .model cards" accept={ACCEPT} pending={upload.isPending} onFile={onFile} />;
 
   return (
     <Sheet title="Device library" aria-label="Device library" actions={control} className="mb-6">
@@ -49,7 +35,7 @@ export function DeviceLibrary({ projectId, canUpload }: { projectId: number; can
         NPN transistor models from SPICE .model cards. A spec can take a card’s IS, BF and VAF; the engine models nothing else of the card (BR = 1), so its figures are
         estimates to confirm by simulation and bench measurement.
       </p>
-      {upload.error && <UploadProblems error={upload.error} />}
+      {upload.error && <UploadProblems error={upload.error} className="mb-3" />}
       {added && (
         <p role="status" className="mb-3 text-sm text-fern dark:text-fern-soft">
           <span aria-hidden="true">✓ </span>
@@ -68,28 +54,6 @@ export function DeviceLibrary({ projectId, canUpload }: { projectId: number; can
         <DeviceTable devices={devices.data.items} />
       )}
     </Sheet>
-  );
-}
-
-function UploadProblems({ error }: { error: Error }) {
-  const details = error instanceof ApiError && error.code !== 'file-too-large' ? error.details : [];
-  return (
-    <div role="alert" className="mb-3 rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-bright">
-      <p className="font-medium">
-        <span aria-hidden="true">✕ </span>
-        {error.message}
-      </p>
-      {details.length > 0 && (
-        <ul className="mt-1.5 list-none space-y-0.5">
-          {details.map((detail, index) => (
-            <li key={index}>
-              {detail.line !== undefined && <span className="font-medium tabular-nums">Line {detail.line}: </span>}
-              {detail.message}
-            </li>
-          ))}
-        </ul>
-      )}
-    </div>
   );
 }
 

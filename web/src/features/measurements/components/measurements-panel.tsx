@@ -6,15 +6,15 @@
  * there stated in words and numbers. Both sides stay estimates against one bench measurement.
  */
 import { useQuery } from '@tanstack/react-query';
-import { useId, useState, type ChangeEvent } from 'react';
+import { useId, useState } from 'react';
 import { comparisonSentence, measurementReference } from '../../../../../shared/measurements/comparison';
 import type { MeasurementView } from '../../../../../shared/measurements/types';
 import type { ProposalVerificationResult } from '../../../../../shared/verification/types';
 import { may } from '../../../../../shared/workflow/roles';
+import { FileUploadButton, UploadProblems } from '../../../components/forms/file-upload';
 import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { api } from '../../../config/paths';
-import { ApiError } from '../../../lib/api';
 import type { Proposal, User } from '../../../lib/api-types';
 import { topologyName } from '../../../lib/topology-names';
 import { DenseTable, Td, Th, Tr } from '../../projects/components/dense-table';
@@ -34,15 +34,11 @@ export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user
   const upload = useUploadMeasurement(proposal.id);
   const decided = MEASURABLE.includes(proposal.status) && proposal.decisions.length > 0;
   const canUpload = may(user.role, 'measurements:write') && decided;
-  const inputId = useId();
   const noteId = useId();
   const [note, setNote] = useState('');
   const [chosenId, setChosenId] = useState<number | null>(null);
 
-  const onFile = (event: ChangeEvent<HTMLInputElement>) => {
-    const file = event.target.files?.[0];
-    event.target.value = '';
-    if (!file) return;
+  const onFile = (file: File) => {
     upload.mutate(
       { file, note },
       {
@@ -84,15 +80,7 @@ export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user
                   className="w-full rounded-md border border-rule bg-sheet px-2 py-1.5 text-sm dark:border-night-rule dark:bg-night-sheet"
                 />
               </div>
-              <div className="rounded-md has-[input:focus-visible]:ring-2 has-[input:focus-visible]:ring-fern">
-                <label
-                  htmlFor={inputId}
-                  className="inline-flex cursor-pointer items-center rounded-md border border-rule bg-sheet px-3 py-1.5 text-sm font-medium hover:bg-paper dark:border-night-rule dark:bg-night-sheet dark:hover:bg-night"
-                >
-                  {upload.isPending ? 'Reading the file…' : 'Upload a measurement (CSV)'}
-                </label>
-                <input id={inputId} type="file" accept={ACCEPT} className="sr-only" disabled={upload.isPending} onChange={onFile} />
-              </div>
+              <FileUploadButton label="Upload a measurement (CSV)" accept={ACCEPT} pending={upload.isPending} onFile={onFile} />
               <p className="basis-full text-xs text-ink-soft dark:text-night-ink-soft">
                 A header naming the quantity and unit (<code>frequency_hz,cmrr_db</code>, <code>frequency_hz,gain_db</code> or <code>frequency_hz,gain_v_per_v</code>), one point
                 per line with frequencies rising, <code>#</code> for comments; 1k or 2.5 kHz are read; at most 10,000 points and 256 KB.
@@ -119,28 +107,6 @@ export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user
         )}
       </div>
     </Sheet>
-  );
-}
-
-function UploadProblems({ error }: { error: Error }) {
-  const details = error instanceof ApiError && error.code !== 'file-too-large' ? error.details : [];
-  return (
-    <div role="alert" className="rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-bright">
-      <p className="font-medium">
-        <span aria-hidden="true">✕ </span>
-        {error.message}
-      </p>
-      {details.length > 0 && (
-        <ul className="mt-1.5 list-none space-y-0.5">
-          {details.map((detail, index) => (
-            <li key={index}>
-              {detail.line !== undefined && <span className="font-medium tabular-nums">Line {detail.line}: </span>}
-              {detail.message}
-            </li>
-          ))}
-        </ul>
-      )}
-    </div>
   );
 }
 

@@ -9,9 +9,8 @@ import { useMemo } from 'react';
 import type uPlot from 'uplot';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
 import { formatDb } from '../../../proposals/lib/figure-format';
-import { decadeTicksHz } from '../../../proposals/lib/plot-data';
 import { ChartLegend, type LegendItem } from '../../../proposals/components/ranking/plots/chart-legend';
-import { axis, NO_ZOOM, valueAt } from '../../../proposals/components/ranking/plots/charts';
+import { frequencyAxis, logFrequencyScale, NO_ZOOM, numberAxis, roomyDbRange, valueAt } from '../../../proposals/components/ranking/plots/charts';
 import { diamond, horizontalMark, verticalMark } from '../../../proposals/components/ranking/plots/draw-marks';
 import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../../proposals/components/ranking/plots/uplot-box';
 import type { MeasurementPlot } from '../../lib/measurement-plot';
@@ -33,12 +32,12 @@ export function MeasurementChart({ plot, atFrequencyHz, measuredAtDb }: { plot: 
       series,
       cursor: NO_ZOOM,
       scales: {
-        x: { time: false, distr: 3, log: 10 },
-        y: { range: () => [Math.floor((low - 5) / 10) * 10, Math.ceil((high + 5) / 10) * 10] },
+        x: logFrequencyScale(),
+        y: { range: () => roomyDbRange(low, high) },
       },
       axes: [
-        axis(theme, 'Frequency (Hz)', (_u, splits) => splits.map((v) => formatQuantity(v, 'Hz')), { splits: (u) => decadeTicksHz(u.scales.x.min!, u.scales.x.max!) }),
-        axis(theme, rejection ? 'Common-mode rejection (dB)' : 'Gain (dB)', (_u, splits) => splits.map((v) => String(v)), { size: 56 }),
+        frequencyAxis(theme),
+        numberAxis(theme, rejection ? 'Common-mode rejection (dB)' : 'Gain (dB)', { size: 56 }),
       ],
       hooks: {
         setCursor: [onCursor],

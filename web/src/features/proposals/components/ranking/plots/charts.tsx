@@ -29,6 +29,19 @@ export function axis(theme: ChartTheme, label: string, values: uPlot.Axis['value
   };
 }
 
+/** Log frequency along x, as every plot against frequency has it (a fresh object for each chart). */
+export const logFrequencyScale = (): uPlot.Scale => ({ time: false, distr: 3, log: 10 });
+
+/** The x axis of a plot against log frequency: hertz with SI prefixes, ticks at the decades. */
+export const frequencyAxis = (theme: ChartTheme): uPlot.Axis =>
+  axis(theme, 'Frequency (Hz)', (_u, splits) => splits.map((v) => formatQuantity(v, 'Hz')), { splits: (u) => decadeTicksHz(u.scales.x.min!, u.scales.x.max!) });
+
+/** An axis of plain numbers (dB, counts). */
+export const numberAxis = (theme: ChartTheme, label: string, extra: Partial<uPlot.Axis> = {}): uPlot.Axis => axis(theme, label, (_u, splits) => splits.map((v) => String(v)), extra);
+
+/** A y range on whole 10 dB steps leaving at least 5 dB of room below `low` and above `high`. */
+export const roomyDbRange = (low: number, high: number): [number, number] => [Math.floor((low - 5) / 10) * 10, Math.ceil((high + 5) / 10) * 10];
+
 /** Decimals that show an axis step of `increment` without trailing noise (a step of 0.02 -> 2). */
 function decimalsFor(increment: number): number {
   return Math.max(0, Math.min(6, -Math.floor(Math.log10(increment) + 1e-9)));
@@ -58,12 +71,12 @@ export function RejectionChart({ plot, selected }: { plot: RejectionPlot; select
       series,
       cursor: NO_ZOOM,
       scales: {
-        x: { time: false, distr: 3, log: 10 },
+        x: logFrequencyScale(),
         y: { range: (_u, _min, max) => [Math.floor((low - 5) / 20) * 20, Math.ceil((Math.max(max, plot.requiredWithMarginDb) + 5) / 20) * 20] },
       },
       axes: [
-        axis(theme, 'Frequency (Hz)', (_u, splits) => splits.map((v) => formatQuantity(v, 'Hz')), { splits: (u) => decadeTicksHz(u.scales.x.min!, u.scales.x.max!) }),
-        axis(theme, 'Common-mode rejection (dB)', (_u, splits) => splits.map((v) => String(v)), { size: 56 }),
+        frequencyAxis(theme),
+        numberAxis(theme, 'Common-mode rejection (dB)', { size: 56 }),
       ],
       hooks: {
         setCursor: [onCursor],
@@ -110,8 +123,8 @@ export function HistogramChart({ plot, frequencyHz }: { plot: HistogramPlot; fre
       cursor: NO_ZOOM,
       scales: { x: { time: false, range: plot.rangeDb }, y: { range: [0, Math.ceil(most * 1.2)] } },
       axes: [
-        axis(theme, `Rejection at ${formatQuantity(frequencyHz, 'Hz')} (dB)`, (_u, splits) => splits.map((v) => String(v))),
-        axis(theme, 'Samples per bin', (_u, splits) => splits.map((v) => String(v)), { size: 48 }),
+        numberAxis(theme, `Rejection at ${formatQuantity(frequencyHz, 'Hz')} (dB)`),
+        numberAxis(theme, 'Samples per bin', { size: 48 }),
       ],
       hooks: {
         setCursor: [onCursor],

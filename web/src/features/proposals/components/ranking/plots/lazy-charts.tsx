@@ -1,28 +1,12 @@
 /**
- * The charts, lazy: uPlot and its stylesheet load only when a plot is first shown, in their own
- * chunk. A failed load leaves a sentence in place of the plot, not a broken page.
+ * The charts, lazy (components/ui/lazy-chart.tsx): uPlot and its stylesheet load only when a plot
+ * is first shown, in their own chunk. A failed load leaves a sentence in place of the plot, not a
+ * broken page.
  */
-import { lazy, type ComponentType } from 'react';
+import { lazyChartModule } from '../../../../../components/ui/lazy-chart';
 
-type ChartsModule = typeof import('./charts');
-/** One import shared by the three charts; forgotten after a failure so a later render can retry. */
-let loading: Promise<ChartsModule> | null = null;
-const charts = (): Promise<ChartsModule> =>
-  (loading ??= import('./charts').catch((error: unknown) => {
-    loading = null;
-    throw error;
-  }));
-
-function lazyChart<P extends object>(pick: (module: ChartsModule) => ComponentType<P>) {
-  return lazy(async () => {
-    try {
-      return { default: pick(await charts()) };
-    } catch {
-      const Unavailable = () => <p className="py-6 text-sm text-ink-soft dark:text-night-ink-soft">The plot could not be loaded; reload the page to try again.</p>;
-      return { default: Unavailable as ComponentType<P> };
-    }
-  });
-}
+/** One import shared by the three charts. */
+const lazyChart = lazyChartModule(() => import('./charts'));
 
 export const RejectionChart = lazyChart((m) => m.RejectionChart);
 export const HistogramChart = lazyChart((m) => m.HistogramChart);

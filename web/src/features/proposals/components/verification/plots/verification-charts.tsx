@@ -9,9 +9,8 @@ import uPlot from 'uplot';
 import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
 import { mixHex } from '../../../lib/colour-mix';
 import { formatDb, formatTargetDb } from '../../../lib/figure-format';
-import { decadeTicksHz } from '../../../lib/plot-data';
 import type { MonteCarloPlot, RejectionComparisonPlot } from '../../../lib/verification-plots';
-import { axis, NO_ZOOM, valueAt } from '../../ranking/plots/charts';
+import { frequencyAxis, logFrequencyScale, NO_ZOOM, numberAxis, roomyDbRange, valueAt } from '../../ranking/plots/charts';
 import { ChartLegend, type LegendItem } from '../../ranking/plots/chart-legend';
 import { horizontalMark, verticalMark } from '../../ranking/plots/draw-marks';
 import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../ranking/plots/uplot-box';
@@ -29,12 +28,12 @@ export function RejectionComparisonChart({ plot, requiredDb, specFrequencyHz }: 
       series: [{}, { stroke: theme.note, dash: [8, 4], width: 2, points: { show: false } }, { stroke: theme.accent, width: 2, points: { show: false } }],
       cursor: NO_ZOOM,
       scales: {
-        x: { time: false, distr: 3, log: 10 },
-        y: { range: () => [Math.floor((low - 5) / 10) * 10, Math.ceil((high + 5) / 10) * 10] },
+        x: logFrequencyScale(),
+        y: { range: () => roomyDbRange(low, high) },
       },
       axes: [
-        axis(theme, 'Frequency (Hz)', (_u, splits) => splits.map((v) => formatQuantity(v, 'Hz')), { splits: (u) => decadeTicksHz(u.scales.x.min!, u.scales.x.max!) }),
-        axis(theme, 'Common-mode rejection (dB)', (_u, splits) => splits.map((v) => String(v)), { size: 56 }),
+        frequencyAxis(theme),
+        numberAxis(theme, 'Common-mode rejection (dB)', { size: 56 }),
       ],
       hooks: {
         setCursor: [onCursor],
@@ -76,8 +75,8 @@ export function MonteCarloComparisonChart({ plot, frequencyHz }: { plot: MonteCa
       cursor: NO_ZOOM,
       scales: { x: { time: false, range: plot.rangeDb }, y: { range: [0, Math.ceil(plot.mostCount * 1.2)] } },
       axes: [
-        axis(theme, frequencyHz === null ? 'Rejection (dB)' : `Rejection at ${formatQuantity(frequencyHz, 'Hz')} (dB)`, (_u, splits) => splits.map((v) => String(v))),
-        axis(theme, 'Runs per bin', (_u, splits) => splits.map((v) => String(v)), { size: 48 }),
+        numberAxis(theme, frequencyHz === null ? 'Rejection (dB)' : `Rejection at ${formatQuantity(frequencyHz, 'Hz')} (dB)`),
+        numberAxis(theme, 'Runs per bin', { size: 48 }),
       ],
       hooks: {
         setCursor: [onCursor],

@@ -1,0 +1,35 @@
+/** The header and role check the pages that write a project's specs share (a new spec, an import). */
+import type { ReactNode } from 'react';
+import { Link } from 'react-router-dom';
+import { may, ROLE_TITLES } from '../../../../../shared/workflow/roles';
+import { EmptyState } from '../../../components/ui/feedback';
+import { PageHeader } from '../../../components/ui/page-header';
+import { paths } from '../../../config/paths';
+import type { Project, User } from '../../../lib/api-types';
+
+/** The page's header under a link back to its project. */
+export function ProjectPageHeader({ project, title, children }: { project: Pick<Project, 'id' | 'name'>; title: string; children?: ReactNode }) {
+  const eyebrow = (
+    <Link to={paths.project.href(project.id)} className="hover:underline">
+      {project.name}
+    </Link>
+  );
+  return (
+    <PageHeader eyebrow={eyebrow} title={title}>
+      {children}
+    </PageHeader>
+  );
+}
+
+/** `children` for a role that may write specs; for any other the header and why there is nothing to do here. */
+export function SpecWritersOnly({ user, project, title, refusal, children }: { user: User; project: Pick<Project, 'id' | 'name'>; title: string; refusal: string; children: ReactNode }) {
+  if (may(user.role, 'specs:write')) return children;
+  return (
+    <>
+      <ProjectPageHeader project={project} title={title} />
+      <EmptyState title={refusal}>
+        You are signed in as {ROLE_TITLES[user.role].toLowerCase()}; you can read this project’s specs and, where your role allows, rank them.
+      </EmptyState>
+    </>
+  );
+}
