@@ -6,6 +6,7 @@
  * The rate limits count per app instance (30 sign-ins per address), so the limit tests and the
  * forced 500 get apps of their own.
  */
+import { readFileSync } from 'node:fs';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { createApp } from '../../api/app';
@@ -289,6 +290,28 @@ describe('when any response is sent, then helmet’s security headers are on it'
     expect(response.headers['referrer-policy']).toBe('no-referrer');
     expect(response.headers['cross-origin-opener-policy']).toBe('same-origin');
     expect(response.headers).not.toHaveProperty('x-powered-by');
+  });
+});
+
+describe('when the Content-Security-Policy is read, then no inline or evaluated script may run', () => {
+  test('when the policy is parsed, then scripts come from the app itself only, with neither unsafe-inline nor unsafe-eval', async () => {
+    const header = (await request(api.app).get('/api/health')).headers['content-security-policy'] as string;
+    const directives = new Map(header.split(';').map((d) => d.trim().split(/\s+/)).map(([name, ...values]) => [name, values] as const));
+    const scripts = directives.get('script-src') ?? directives.get('default-src');
+    expect(scripts).toEqual(["'self'"]);
+    expect(directives.get('script-src-attr') ?? ["'none'"]).toEqual(["'none'"]);
+    expect(directives.get('object-src')).toEqual(["'none'"]);
+  });
+
+  test('when the app page is read, then it carries no inline script, only the module loaded from a file', () => {
+    const html = readFileSync(new URL('../../web/index.html', import.meta.url), 'utf8');
+    const scripts = [...html.matchAll(/<script\b([^>]*)>([\s\S]*?)<\/script>/gi)];
+    expect(scripts.length).toBeGreaterThan(0);
+    for (const [, attributes, body] of scripts) {
+      expect(attributes).toMatch(/\bsrc=/);
+      expect(body.trim()).toBe('');
+    }
+    expect(html).not.toMatch(/\son[a-z]+\s*=/i);
   });
 });
 

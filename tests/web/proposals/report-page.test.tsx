@@ -20,7 +20,7 @@ import { job } from './verification/verification-fixtures';
 // Route modules load lazily on first use: give the first render of a file time.
 configure({ asyncUtilTimeout: 5000 });
 
-const SECTION_HEADINGS = ['Cautions', 'Requirement spec', 'Ranked options', 'Chosen design', 'Checks', 'SPICE verification', 'Audit trail', 'Sources of the formulas'];
+const SECTION_HEADINGS = ['Cautions', 'Requirement spec', 'Ranked options', 'Chosen design', 'Checks', 'SPICE verification', 'Bench measurements', 'Audit trail', 'Sources of the formulas'];
 
 const PATIENT_CAUTION = 'Caution: the input is patient-connected. Medical electrical equipment falls under IEC 60601-1, with its isolation and leakage-current limits.';
 const CHOOSE_REASON = 'The Wilson mirror keeps the tail current steadier over the 0–70 °C range on this board.';
@@ -116,6 +116,7 @@ function renderReport(proposal: Proposal, verification: { status?: number; body:
     'GET /api/proposals/2': () => ({ body: proposal }),
     'GET /api/proposals/2/audit': () => ({ body: AUDIT }),
     'GET /api/proposals/2/verification': () => verification,
+    'GET /api/proposals/2/measurements': () => ({ body: { items: [] } }),
     'GET /api/projects/1': () => ({ body: PROJECT }),
     'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER] } }),
   });

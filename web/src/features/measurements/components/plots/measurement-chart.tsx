@@ -10,7 +10,7 @@ import type uPlot from 'uplot';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
 import { formatDb } from '../../../proposals/lib/figure-format';
 import { ChartLegend, type LegendItem } from '../../../proposals/components/ranking/plots/chart-legend';
-import { frequencyAxis, logFrequencyScale, NO_ZOOM, numberAxis, roomyDbRange, valueAt } from '../../../proposals/components/ranking/plots/charts';
+import { frequencyPlotOptions, roomyDbRange, valueAt } from '../../../proposals/components/ranking/plots/charts';
 import { diamond, horizontalMark, verticalMark } from '../../../proposals/components/ranking/plots/draw-marks';
 import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../../proposals/components/ranking/plots/uplot-box';
 import type { MeasurementPlot } from '../../lib/measurement-plot';
@@ -28,28 +28,17 @@ export function MeasurementChart({ plot, atFrequencyHz, measuredAtDb }: { plot: 
     if (plot.predictedDb) series.push({ stroke: theme.note, dash: [8, 4], width: 2, spanGaps: true, points: { show: false } });
     if (plot.simulatedDb) series.push({ stroke: theme.accent, width: 1.5, spanGaps: true, points: { show: false } });
     series.push({ stroke: theme.ink, width: 2, spanGaps: true, points: { show: true, size: 5, fill: theme.ink, stroke: theme.ink } });
-    return {
-      series,
-      cursor: NO_ZOOM,
-      scales: {
-        x: logFrequencyScale(),
-        y: { range: () => roomyDbRange(low, high) },
+    return frequencyPlotOptions(theme, {
+      series: series,
+      yLabel: rejection ? 'Common-mode rejection (dB)' : 'Gain (dB)',
+      yRange: () => roomyDbRange(low, high),
+      onCursor,
+      draw: (u) => {
+        if (plot.predictedGainDb !== null) horizontalMark(u, plot.predictedGainDb, 'y', `predicted ${formatDb(plot.predictedGainDb)}`, { ...mark, colour: theme.note, dash: [8, 4] }, true);
+        if (atFrequencyHz !== null) verticalMark(u, atFrequencyHz, `${rejection ? 'spec' : 'compared at'} ${formatQuantity(atFrequencyHz, 'Hz')}`, { ...mark, colour: theme.inkSoft, dash: [2, 3] });
+        if (atFrequencyHz !== null && measuredAtDb !== null) diamond(u, atFrequencyHz, measuredAtDb, 'y', theme.ink);
       },
-      axes: [
-        frequencyAxis(theme),
-        numberAxis(theme, rejection ? 'Common-mode rejection (dB)' : 'Gain (dB)', { size: 56 }),
-      ],
-      hooks: {
-        setCursor: [onCursor],
-        draw: [
-          (u) => {
-            if (plot.predictedGainDb !== null) horizontalMark(u, plot.predictedGainDb, 'y', `predicted ${formatDb(plot.predictedGainDb)}`, { ...mark, colour: theme.note, dash: [8, 4] }, true);
-            if (atFrequencyHz !== null) verticalMark(u, atFrequencyHz, `${rejection ? 'spec' : 'compared at'} ${formatQuantity(atFrequencyHz, 'Hz')}`, { ...mark, colour: theme.inkSoft, dash: [2, 3] });
-            if (atFrequencyHz !== null && measuredAtDb !== null) diamond(u, atFrequencyHz, measuredAtDb, 'y', theme.ink);
-          },
-        ],
-      },
-    };
+    });
   }, [plot, atFrequencyHz, measuredAtDb, rejection, theme, onCursor]);
   const items: LegendItem[] = [
     ...(plot.predictedDb ? [{ label: 'Engine (predicted)', stroke: theme.note, dash: [8, 4], width: 2, value: valueAt(plot.predictedDb, index, formatDb) }] : []),

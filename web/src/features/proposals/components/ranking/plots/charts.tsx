@@ -30,10 +30,10 @@ export function axis(theme: ChartTheme, label: string, values: uPlot.Axis['value
 }
 
 /** Log frequency along x, as every plot against frequency has it (a fresh object for each chart). */
-export const logFrequencyScale = (): uPlot.Scale => ({ time: false, distr: 3, log: 10 });
+const logFrequencyScale = (): uPlot.Scale => ({ time: false, distr: 3, log: 10 });
 
 /** The x axis of a plot against log frequency: hertz with SI prefixes, ticks at the decades. */
-export const frequencyAxis = (theme: ChartTheme): uPlot.Axis =>
+const frequencyAxis = (theme: ChartTheme): uPlot.Axis =>
   axis(theme, 'Frequency (Hz)', (_u, splits) => splits.map((v) => formatQuantity(v, 'Hz')), { splits: (u) => decadeTicksHz(u.scales.x.min!, u.scales.x.max!) });
 
 /** An axis of plain numbers (dB, counts). */
@@ -41,6 +41,23 @@ export const numberAxis = (theme: ChartTheme, label: string, extra: Partial<uPlo
 
 /** A y range on whole 10 dB steps leaving at least 5 dB of room below `low` and above `high`. */
 export const roomyDbRange = (low: number, high: number): [number, number] => [Math.floor((low - 5) / 10) * 10, Math.ceil((high + 5) / 10) * 10];
+
+/**
+ * uPlot options of a plot against log frequency: no zoom, frequency ticks at the decades, a
+ * numeric y axis, the cursor reported to the legend and the marks drawn over the curves.
+ */
+export function frequencyPlotOptions(
+  theme: ChartTheme,
+  { series, yLabel, yRange, onCursor, draw }: { series: uPlot.Series[]; yLabel: string; yRange: uPlot.Scale['range']; onCursor: (u: uPlot) => void; draw: (u: uPlot) => void },
+): ChartOptions {
+  return {
+    series,
+    cursor: NO_ZOOM,
+    scales: { x: logFrequencyScale(), y: { range: yRange } },
+    axes: [frequencyAxis(theme), numberAxis(theme, yLabel, { size: 56 })],
+    hooks: { setCursor: [onCursor], draw: [draw] },
+  };
+}
 
 /** Decimals that show an axis step of `increment` without trailing noise (a step of 0.02 -> 2). */
 function decimalsFor(increment: number): number {
@@ -67,31 +84,20 @@ export function RejectionChart({ plot, selected }: { plot: RejectionPlot; select
     ];
     if (plot.mismatch) series.push({ stroke: style(plot.mismatch.topology).stroke, dash: [1, 3], width: 1.6, points: { show: false } });
     const low = Math.min(plot.requiredDb, ...plot.series.flatMap((s) => s.valuesDb.filter((v): v is number => v !== null)));
-    return {
-      series,
-      cursor: NO_ZOOM,
-      scales: {
-        x: logFrequencyScale(),
-        y: { range: (_u, _min, max) => [Math.floor((low - 5) / 20) * 20, Math.ceil((Math.max(max, plot.requiredWithMarginDb) + 5) / 20) * 20] },
+    return frequencyPlotOptions(theme, {
+      series: series,
+      yLabel: 'Common-mode rejection (dB)',
+      yRange: (_u, _min, max) => [Math.floor((low - 5) / 20) * 20, Math.ceil((Math.max(max, plot.requiredWithMarginDb) + 5) / 20) * 20],
+      onCursor,
+      draw: (u) => {
+        horizontalMark(u, plot.requiredWithMarginDb, 'y', `${formatTargetDb(plot.requiredWithMarginDb)} with margin`, { ...mark, colour: theme.ink, width: 1.2 });
+        horizontalMark(u, plot.requiredDb, 'y', `${formatTargetDb(plot.requiredDb)} required`, { ...mark, colour: theme.ink, dash: [6, 4] }, true);
+        verticalMark(u, plot.specFrequencyHz, `spec ${formatQuantity(plot.specFrequencyHz, 'Hz')}`, { ...mark, colour: theme.inkSoft, dash: [2, 3] });
+        for (const s of plot.series) {
+          if (s.worstAtFrequencyDb !== null) diamond(u, plot.specFrequencyHz, s.worstAtFrequencyDb, 'y', style(s.topology).stroke);
+        }
       },
-      axes: [
-        frequencyAxis(theme),
-        numberAxis(theme, 'Common-mode rejection (dB)', { size: 56 }),
-      ],
-      hooks: {
-        setCursor: [onCursor],
-        draw: [
-          (u) => {
-            horizontalMark(u, plot.requiredWithMarginDb, 'y', `${formatTargetDb(plot.requiredWithMarginDb)} with margin`, { ...mark, colour: theme.ink, width: 1.2 });
-            horizontalMark(u, plot.requiredDb, 'y', `${formatTargetDb(plot.requiredDb)} required`, { ...mark, colour: theme.ink, dash: [6, 4] }, true);
-            verticalMark(u, plot.specFrequencyHz, `spec ${formatQuantity(plot.specFrequencyHz, 'Hz')}`, { ...mark, colour: theme.inkSoft, dash: [2, 3] });
-            for (const s of plot.series) {
-              if (s.worstAtFrequencyDb !== null) diamond(u, plot.specFrequencyHz, s.worstAtFrequencyDb, 'y', style(s.topology).stroke);
-            }
-          },
-        ],
-      },
-    };
+    });
   }, [plot, selected, theme, onCursor]);
   const items: LegendItem[] = plot.series.map((s) => ({
     label: s.name,

@@ -10,7 +10,7 @@ import { formatQuantity } from '../../../../../../../shared/units/format-quantit
 import { mixHex } from '../../../lib/colour-mix';
 import { formatDb, formatTargetDb } from '../../../lib/figure-format';
 import type { MonteCarloPlot, RejectionComparisonPlot } from '../../../lib/verification-plots';
-import { frequencyAxis, logFrequencyScale, NO_ZOOM, numberAxis, roomyDbRange, valueAt } from '../../ranking/plots/charts';
+import { frequencyPlotOptions, NO_ZOOM, numberAxis, roomyDbRange, valueAt } from '../../ranking/plots/charts';
 import { ChartLegend, type LegendItem } from '../../ranking/plots/chart-legend';
 import { horizontalMark, verticalMark } from '../../ranking/plots/draw-marks';
 import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../ranking/plots/uplot-box';
@@ -24,27 +24,16 @@ export function RejectionComparisonChart({ plot, requiredDb, specFrequencyHz }: 
     const values = [...plot.simulatedDb, ...plot.predictedDb.filter((v): v is number => v !== null), ...(requiredDb === null ? [] : [requiredDb])];
     const low = Math.min(...values);
     const high = Math.max(...values);
-    return {
+    return frequencyPlotOptions(theme, {
       series: [{}, { stroke: theme.note, dash: [8, 4], width: 2, points: { show: false } }, { stroke: theme.accent, width: 2, points: { show: false } }],
-      cursor: NO_ZOOM,
-      scales: {
-        x: logFrequencyScale(),
-        y: { range: () => roomyDbRange(low, high) },
+      yLabel: 'Common-mode rejection (dB)',
+      yRange: () => roomyDbRange(low, high),
+      onCursor,
+      draw: (u) => {
+        if (requiredDb !== null) horizontalMark(u, requiredDb, 'y', `${formatTargetDb(requiredDb)} required`, { ...mark, colour: theme.ink, dash: [6, 4] }, true);
+        if (specFrequencyHz !== null) verticalMark(u, specFrequencyHz, `spec ${formatQuantity(specFrequencyHz, 'Hz')}`, { ...mark, colour: theme.inkSoft, dash: [2, 3] });
       },
-      axes: [
-        frequencyAxis(theme),
-        numberAxis(theme, 'Common-mode rejection (dB)', { size: 56 }),
-      ],
-      hooks: {
-        setCursor: [onCursor],
-        draw: [
-          (u) => {
-            if (requiredDb !== null) horizontalMark(u, requiredDb, 'y', `${formatTargetDb(requiredDb)} required`, { ...mark, colour: theme.ink, dash: [6, 4] }, true);
-            if (specFrequencyHz !== null) verticalMark(u, specFrequencyHz, `spec ${formatQuantity(specFrequencyHz, 'Hz')}`, { ...mark, colour: theme.inkSoft, dash: [2, 3] });
-          },
-        ],
-      },
-    };
+    });
   }, [plot, requiredDb, specFrequencyHz, theme, onCursor]);
   const items: LegendItem[] = [
     { label: 'Engine (predicted)', stroke: theme.note, dash: [8, 4], width: 2, value: valueAt(plot.predictedDb, index, formatDb) },
