@@ -50,6 +50,7 @@ export interface VerificationQueueOptions {
 /** Heartbeat and progress writes at most this often, ms (the last step always gets written). */
 const PROGRESS_WRITE_INTERVAL_MS = 200;
 const DEFAULT_STALE_AFTER_MS = 60_000;
+const SWEEP_INTERVAL_MS = 30_000;
 export const STOPPED_MESSAGE = 'The server stopped while this job was simulating; ask for it again to re-run it.';
 
 const now = () => new Date().toISOString();
@@ -62,6 +63,8 @@ export class VerificationQueue {
   readonly claimToken = randomUUID();
   private readonly staleAfterMs: number;
   private draining: Promise<void> | null = null;
+  private kickedWhileDraining = false;
+  private readonly sweeper: NodeJS.Timeout;
   private closed = false;
   /** Resolves once the start-up sweep has marked jobs left by a stopped server. */
   readonly ready: Promise<void>;
@@ -73,6 +76,9 @@ export class VerificationQueue {
     this.engine = options.engine ?? new SpiceEngine();
     this.staleAfterMs = options.staleAfterMs ?? DEFAULT_STALE_AFTER_MS;
     this.ready = this.markStopped(options.singleInstance ?? true).then(() => this.kick());
+    // Now and then, look again: jobs left by an instance that died, jobs asked for on another instance.
+    this.sweeper = setInterval(() => this.kick(), SWEEP_INTERVAL_MS);
+    this.sweeper.unref();
   }
 
   private log(message: string): void {
@@ -92,11 +98,18 @@ export class VerificationQueue {
 
   /** Starts working through waiting jobs unless already doing so. */
   kick(): void {
-    if (this.closed || this.draining) return;
+    if (this.closed) return;
+    if (this.draining) {
+      // A job asked for while the loop is finishing its last look would otherwise wait for the next kick.
+      this.kickedWhileDraining = true;
+      return;
+    }
+    this.kickedWhileDraining = false;
     this.draining = this.drain()
       .catch((error: unknown) => this.log(`verification queue: ${error instanceof Error ? (error.stack ?? error.message) : String(error)}`))
       .finally(() => {
         this.draining = null;
+        if (this.kickedWhileDraining) this.kick();
       });
   }
 
@@ -112,6 +125,7 @@ export class VerificationQueue {
    */
   async close(): Promise<void> {
     this.closed = true;
+    clearInterval(this.sweeper);
     await this.engine.stop();
     await this.draining;
   }
