@@ -205,7 +205,12 @@ describe('the time limit per analysis', () => {
   afterAll(() => api?.close());
 
   it('stops an analysis past it and reports it on the option', async () => {
-    api = await buildApiApp({ accounts: ['admin', 'requirements', 'designer', 'reviewer'], verification: { engine: new SpiceEngine(0) } });
+    // Every netlist also asks for a transient of a second in 1 ns steps, far past a 300 ms limit.
+    const endless = (netlist: string) => netlist.replace(/^\.end\s*$/m, '.tran 1n 1\n.end');
+    api = await buildApiApp({
+      accounts: ['admin', 'requirements', 'designer', 'reviewer'],
+      verification: { engine: new SpiceEngine(300), netlistHook: (_topology, netlist) => endless(netlist) },
+    });
     const project = await api.createProject(['requirements', 'designer', 'reviewer']);
     const payload = { ...demoSpec('studio-line-receiver.json'), topologies: ['resistor', 'simple-mirror'] };
     const spec = await api.createSpec(project.id, { payload, title: 'Line receiver, two options' });

@@ -38,8 +38,11 @@ describe('SpiceEngine', () => {
   }, 60_000);
 
   test('stops a run past its time limit and starts a fresh simulator for the next', async () => {
+    await engine.start();
     const startsBefore = engine.starts;
-    const stopped = engine.run(divider(1000, 1000), 'Operating Point', 0);
+    // A transient of a second in 1 ns steps: a billion time points, far past a 300 ms limit.
+    const endless = 'endless\nV1 in 0 PULSE(0 1 0 1n 1n 1u 2u)\nR1 in out 1k\nC1 out 0 1n\n.tran 1n 1\n.end\n';
+    const stopped = engine.run(endless, undefined, 300);
     await expect(stopped).rejects.toBeInstanceOf(SpiceRunError);
     await expect(stopped).rejects.toThrow(/time limit/);
     expect(voltage(await engine.run(divider(1000, 3000), 'Operating Point'), 'out')).toBeCloseTo(7.5, 9);
