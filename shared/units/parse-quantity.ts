@@ -37,11 +37,18 @@ export function parseQuantity(text: string, unit?: string): ParseQuantityResult 
     }
   }
   const plain = NUMBER_PATTERN.exec(normalized);
-  if (!plain) return { ok: false, message: `"${text}" is not a number (examples: 4.7k, 4k7, 2.2e-3, 10 µA)` };
+  if (!plain) return { ok: false, message: `"${text}" is not a number (examples: ${examplesFor(expected)})` };
   const [, sign, digits, exponentText, rest] = plain;
   const suffix = readSuffix(rest, expected, true);
   if (!suffix.ok) return suffix;
   return finish(`${sign}${digits}e${Number(exponentText ?? 0) + suffix.exponent}`, text);
+}
+
+/** Examples of what can be typed, in the field's own unit where it has one. */
+function examplesFor(expected: UnitSymbol | undefined): string {
+  if (!expected) return '4.7k, 4k7, 2.2e-3, 10 µA';
+  if (!expected.takesPrefix) return expected.printed ? `40, 2.5e1, 40 ${expected.printed}` : '40, 2.5e1, 0.04';
+  return `4.7k, 4k7, 2.2e-3, 10 µ${expected.printed}`;
 }
 
 /** The exponent a mark between digits stands for: a prefix ("4k7"), or "R" for ohms ("4R7"). */
