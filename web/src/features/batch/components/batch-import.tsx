@@ -228,7 +228,7 @@ function RankBatch({ projectId, report, canRank }: { projectId: number; report: 
         <p className="text-sm">Nothing new to rank{unchanged > 0 ? ' (every valid spec was unchanged)' : ''}.</p>
       ) : (
         <p className="text-sm">
-          Sizes every tail option of each spec, checks it against the rules and runs its Monte Carlo, one spec after another: a few seconds per spec.
+          Sizes every tail option of each spec, checks it against the rules and runs its Monte Carlo, one spec after another: usually well under a second per spec here, longer when the server is busy.
         </p>
       )}
       {unchanged > 0 && !running && (
