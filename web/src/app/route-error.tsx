@@ -20,7 +20,7 @@ export function RouteError() {
     <div role="alert" className="mx-auto max-w-xl py-16">
       <h1 className="text-2xl font-medium">{title}</h1>
       <p className="mt-2 text-ink-soft dark:text-night-ink-soft">{message}</p>
-      <Link to={paths.workbench.href()} className="mt-4 inline-block text-fern underline dark:text-fern-soft">
+      <Link to={paths.workbench.href()} className="mt-4 inline-block text-fern underline dark:text-fern-bright">
         Back to the workbench
       </Link>
     </div>

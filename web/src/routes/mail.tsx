@@ -29,7 +29,7 @@ function NotAllowed() {
     <div role="alert" className="mx-auto max-w-xl py-16">
       <h1 className="text-2xl font-medium">Not allowed</h1>
       <p className="mt-2 text-ink-soft dark:text-night-ink-soft">Only an administrator reads the local mail server’s messages. Your own e-mail setting is on your profile.</p>
-      <Link to={paths.profile.href()} className="mt-4 inline-block text-fern underline dark:text-fern-soft">
+      <Link to={paths.profile.href()} className="mt-4 inline-block text-fern underline dark:text-fern-bright">
         Your profile
       </Link>
     </div>

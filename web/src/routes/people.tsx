@@ -35,7 +35,7 @@ function NotAllowed() {
     <div role="alert" className="mx-auto max-w-xl py-16">
       <h1 className="text-2xl font-medium">Not allowed</h1>
       <p className="mt-2 text-ink-soft dark:text-night-ink-soft">Only an administrator manages accounts, roles and project memberships. Ask one if someone needs access.</p>
-      <Link to={paths.workbench.href()} className="mt-4 inline-block text-fern underline dark:text-fern-soft">
+      <Link to={paths.workbench.href()} className="mt-4 inline-block text-fern underline dark:text-fern-bright">
         Back to the workbench
       </Link>
     </div>
@@ -74,7 +74,7 @@ function PeopleAdmin({ currentUserId }: { currentUserId: number }) {
                     aria-label={project.name}
                     className="h-full"
                     actions={
-                      <Link to={paths.project.href(project.id)} className="text-sm whitespace-nowrap text-fern hover:underline dark:text-fern-soft">
+                      <Link to={paths.project.href(project.id)} className="text-sm whitespace-nowrap text-fern hover:underline dark:text-fern-bright">
                         Open
                       </Link>
                     }

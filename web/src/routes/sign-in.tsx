@@ -32,7 +32,7 @@ export function Component() {
   return (
     <main className="flex min-h-screen items-center justify-center px-4">
       <div className="w-full max-w-sm">
-        <div className="mb-6 flex items-center gap-2 text-2xl font-medium tracking-tight text-fern dark:text-fern-soft">
+        <div className="mb-6 flex items-center gap-2 text-2xl font-medium tracking-tight text-fern dark:text-fern-bright">
           <img src="/longtail.svg" alt="" className="h-8 w-8" />
           longtail
         </div>

@@ -9,7 +9,7 @@ import { cn } from '../../lib/cn';
 import { applyTheme, storedTheme, type ThemeChoice } from '../../lib/theme';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
-  cn('rounded-md px-3 py-1.5 text-sm', isActive ? 'bg-fern-soft text-fern dark:bg-night dark:text-fern-soft' : 'text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink');
+  cn('rounded-md px-3 py-1.5 text-sm', isActive ? 'bg-fern-soft text-fern dark:bg-night dark:text-fern-bright' : 'text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink');
 
 const NEXT_THEME: Record<ThemeChoice, ThemeChoice> = { system: 'light', light: 'dark', dark: 'system' };
 const THEME_WORDS: Record<ThemeChoice, string> = { system: 'Theme: system', light: 'Theme: light', dark: 'Theme: dark' };
@@ -38,7 +38,7 @@ export function AppShell() {
       </a>
       <header data-app-frame className="border-b border-rule bg-sheet/80 backdrop-blur dark:border-night-rule dark:bg-night-sheet/80">
         <div className="mx-auto flex max-w-7xl items-center gap-6 px-4 py-2.5">
-          <NavLink to={paths.workbench.href()} className="flex items-center gap-2 text-lg font-medium tracking-tight text-fern dark:text-fern-soft">
+          <NavLink to={paths.workbench.href()} className="flex items-center gap-2 text-lg font-medium tracking-tight text-fern dark:text-fern-bright">
             <img src="/longtail.svg" alt="" className="h-6 w-6" />
             longtail
           </NavLink>

@@ -6,7 +6,7 @@ type Variant = 'primary' | 'secondary' | 'quiet' | 'danger';
 const VARIANTS: Record<Variant, string> = {
   primary: 'bg-fern text-sheet hover:bg-fern/90 disabled:bg-fern/50',
   secondary: 'border border-rule bg-sheet text-ink hover:bg-paper disabled:text-ink-soft/60 disabled:hover:bg-sheet dark:border-night-rule dark:bg-night-sheet dark:text-night-ink dark:hover:bg-night dark:disabled:text-night-ink-soft/60',
-  quiet: 'text-fern hover:bg-fern-soft disabled:text-ink-soft/60 disabled:hover:bg-transparent dark:text-fern-soft dark:hover:bg-night-sheet',
+  quiet: 'text-fern hover:bg-fern-soft disabled:text-ink-soft/60 disabled:hover:bg-transparent dark:text-fern-bright dark:hover:bg-night-sheet',
   danger: 'bg-short text-sheet hover:bg-short/90 disabled:bg-short/50',
 };
 

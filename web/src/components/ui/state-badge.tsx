@@ -3,7 +3,7 @@ import { cn } from '../../lib/cn';
 
 /** Names the app uses for proposal states, with a glyph each. */
 export const STATE_LABELS: Record<ProposalState, { label: string; glyph: string; className: string }> = {
-  ranked: { label: 'Awaiting decision', glyph: '◔', className: 'border-fern/40 text-fern dark:text-fern-soft' },
+  ranked: { label: 'Awaiting decision', glyph: '◔', className: 'border-fern/40 text-fern dark:text-fern-bright' },
   decided: { label: 'Awaiting review', glyph: '◑', className: 'border-note/40 text-note dark:text-note-bright' },
   returned: { label: 'Returned to designer', glyph: '↺', className: 'border-short/40 text-short dark:text-short-bright' },
   approved: { label: 'Approved', glyph: '●', className: 'border-holds/40 text-holds dark:text-holds-bright' },

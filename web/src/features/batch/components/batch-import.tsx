@@ -89,7 +89,7 @@ export function BatchImport({ projectId, canRank }: { projectId: number; canRank
             A CSV with one spec per row under a header naming the columns, or JSON: an array of specs, or <code className="text-xs">{'{ "specs": [ … ] }'}</code>. Quantities in SI units, or as you write them: 4k7, 10u, −12 V, 2 pF. Empty cells take the defaults. Nothing is saved until you have seen the check.
           </p>
           <p>
-            <a href={api.specCsvTemplate} download className="font-medium text-fern hover:underline dark:text-fern-soft">
+            <a href={api.specCsvTemplate} download className="font-medium text-fern hover:underline dark:text-fern-bright">
               Download the CSV template
             </a>{' '}
             <span className="text-ink-soft dark:text-night-ink-soft">(every column, with one example row)</span>
@@ -283,7 +283,7 @@ function RankBatch({ projectId, report, canRank }: { projectId: number; report: 
                   <Td>{item.title}</Td>
                   <Td>
                     {proposal ? (
-                      <Link to={paths.proposal.href(proposal.id)} className="font-medium text-fern hover:underline dark:text-fern-soft">
+                      <Link to={paths.proposal.href(proposal.id)} className="font-medium text-fern hover:underline dark:text-fern-bright">
                         #{proposal.id}
                       </Link>
                     ) : (
@@ -300,7 +300,7 @@ function RankBatch({ projectId, report, canRank }: { projectId: number; report: 
           </DenseTable>
           {ranked.length > 0 && (
             <p className="text-sm">
-              <a href={api.batchResultsCsv(projectId, ranked.map((o) => o.proposal!.id))} download className="font-medium text-fern hover:underline dark:text-fern-soft">
+              <a href={api.batchResultsCsv(projectId, ranked.map((o) => o.proposal!.id))} download className="font-medium text-fern hover:underline dark:text-fern-bright">
                 Download the batch results (CSV)
               </a>{' '}
               <span className="text-ink-soft dark:text-night-ink-soft">

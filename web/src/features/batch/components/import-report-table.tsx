@@ -60,7 +60,7 @@ export function ImportReportTable({ report, showOnlyProblems = false }: { report
                     </Td>
                     <Td rowSpan={lines.length} className="align-top">
                       {row.specId && !report.dryRun ? (
-                        <Link to={paths.spec.href(row.specId)} className="font-medium text-fern hover:underline dark:text-fern-soft">
+                        <Link to={paths.spec.href(row.specId)} className="font-medium text-fern hover:underline dark:text-fern-bright">
                           {row.title}
                         </Link>
                       ) : (

@@ -37,7 +37,7 @@ export function DeviceLibrary({ projectId, canUpload }: { projectId: number; can
       </p>
       {upload.error && <UploadProblems error={upload.error} className="mb-3" />}
       {added && (
-        <p role="status" className="mb-3 text-sm text-fern dark:text-fern-soft">
+        <p role="status" className="mb-3 text-sm text-fern dark:text-fern-bright">
           <span aria-hidden="true">✓ </span>
           Added {added.names.join(', ')} from {added.fileName}.
         </p>

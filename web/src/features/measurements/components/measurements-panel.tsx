@@ -177,11 +177,11 @@ function MeasurementTable({ proposal, items, chosenId, onChoose }: { proposal: P
               {m.uploadedBy.displayName}, <When iso={m.uploadedAt} />
             </Td>
             <Td className="space-x-3 align-top whitespace-nowrap">
-              <button type="button" className="text-fern hover:underline disabled:text-ink-soft dark:text-fern-soft" disabled={m.id === chosenId} onClick={() => onChoose(m.id)}>
+              <button type="button" className="text-fern hover:underline disabled:text-ink-soft dark:text-fern-bright" disabled={m.id === chosenId} onClick={() => onChoose(m.id)}>
                 {m.id === chosenId ? 'Shown' : 'Show'}
                 <span className="sr-only"> {m.fileName}</span>
               </button>
-              <a className="text-fern hover:underline dark:text-fern-soft" href={api.measurementFile(proposal.id, m.id)} download>
+              <a className="text-fern hover:underline dark:text-fern-bright" href={api.measurementFile(proposal.id, m.id)} download>
                 CSV<span className="sr-only"> of {m.fileName}</span>
               </a>
             </Td>

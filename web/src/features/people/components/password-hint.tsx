@@ -2,7 +2,7 @@ import { cn } from '../../../lib/cn';
 import { passwordStrength } from '../utils/password-strength';
 
 const BAR = ['bg-short', 'bg-note', 'bg-fern', 'bg-holds'];
-const TEXT = ['text-short dark:text-short-bright', 'text-note dark:text-note-bright', 'text-fern dark:text-fern-soft', 'text-holds dark:text-holds-bright'];
+const TEXT = ['text-short dark:text-short-bright', 'text-note dark:text-note-bright', 'text-fern dark:text-fern-bright', 'text-holds dark:text-holds-bright'];
 
 /** The password's strength in words, with a three-step bar that only repeats what the words say. */
 export function PasswordHint({ password }: { password: string }) {

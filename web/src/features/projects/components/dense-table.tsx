@@ -33,4 +33,4 @@ export function Tr({ className, children }: { className?: string; children: Reac
 }
 
 /** Classes for the one link that stands for a whole row (its hit area stretches over the row). */
-export const rowLink = 'font-medium text-fern hover:underline dark:text-fern-soft after:absolute after:inset-0 after:content-[""]';
+export const rowLink = 'font-medium text-fern hover:underline dark:text-fern-bright after:absolute after:inset-0 after:content-[""]';

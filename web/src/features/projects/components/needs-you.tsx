@@ -27,7 +27,7 @@ export function NeedsYou({ projectId, role, onShow }: { projectId: number; role:
   const queue = WAITING[role] ?? [];
   const counts = useQueries({ queries: queue.map((q) => projectProposalCountQuery(projectId, q.status)) });
   const frame = 'mb-6 flex flex-wrap items-center gap-x-4 gap-y-2 rounded-lg border-l-4 border-fern bg-fern-soft/60 px-4 py-2.5 text-sm dark:bg-night-sheet';
-  const heading = <h2 className="font-medium text-fern dark:text-fern-soft">What needs you</h2>;
+  const heading = <h2 className="font-medium text-fern dark:text-fern-bright">What needs you</h2>;
   if (queue.length === 0)
     return (
       <section aria-label="What needs you" className={frame}>

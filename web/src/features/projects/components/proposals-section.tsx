@@ -26,7 +26,7 @@ export function ProposalsSection({ projectId, specs }: { projectId: number; spec
           </EmptyState>
         ) : data.items.length === 0 ? (
           <EmptyState title="This page is past the end">
-            <button type="button" className="text-fern underline dark:text-fern-soft" onClick={() => view.setPage(1)}>
+            <button type="button" className="text-fern underline dark:text-fern-bright" onClick={() => view.setPage(1)}>
               Go to the first page
             </button>
           </EmptyState>

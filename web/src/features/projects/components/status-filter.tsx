@@ -24,7 +24,7 @@ export function StatusFilter({ value, onChange }: { value: ProposalFilter; onCha
           className={cn(
             'relative cursor-pointer rounded px-2.5 py-1 text-sm whitespace-nowrap has-focus-visible:outline-2 has-focus-visible:outline-fern dark:has-focus-visible:outline-fern-soft',
             status === value
-              ? 'bg-sheet font-medium text-fern shadow-sm dark:bg-night-sheet dark:text-fern-soft'
+              ? 'bg-sheet font-medium text-fern shadow-sm dark:bg-night-sheet dark:text-fern-bright'
               : 'text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink',
           )}
         >

@@ -24,7 +24,7 @@ export function NextStep({ proposal, user }: { proposal: Proposal; user: User })
       {canDecide && (
         <p>
           {returned ? 'A new decision is needed.' : 'This ranking waits for your decision.'}{' '}
-          <a href="#decision" className="font-medium text-fern underline dark:text-fern-soft">
+          <a href="#decision" className="font-medium text-fern underline dark:text-fern-bright">
             Go to the decision
           </a>
         </p>
@@ -32,7 +32,7 @@ export function NextStep({ proposal, user }: { proposal: Proposal; user: User })
       {canReview && (
         <p>
           A designer has decided; this waits for your review.{' '}
-          <a href="#review" className="font-medium text-fern underline dark:text-fern-soft">
+          <a href="#review" className="font-medium text-fern underline dark:text-fern-bright">
             Go to the review
           </a>
         </p>

@@ -21,7 +21,7 @@ export function ReportTitle({ proposal, projectName, generatedAt, notice, online
     <header className="report-title space-y-4">
       <div className="flex flex-wrap items-start justify-between gap-4">
         <div className="min-w-0">
-          <p className="text-xs font-medium tracking-wide text-fern uppercase dark:text-fern-soft">Longtail · review report</p>
+          <p className="text-xs font-medium tracking-wide text-fern uppercase dark:text-fern-bright">Longtail · review report</p>
           <h1 id="report-heading" className="mt-1 text-2xl font-medium tracking-tight">
             Ranking #{proposal.id}: {proposal.specVersion.title}
           </h1>
@@ -33,7 +33,7 @@ export function ReportTitle({ proposal, projectName, generatedAt, notice, online
         <Item term="Project">{projectName ?? `project #${proposal.projectId}`}</Item>
         <Item term="Proposal">
           #{proposal.id}{' '}
-          <a href={onlineHref} data-print-url className="text-fern underline dark:text-fern-soft">
+          <a href={onlineHref} data-print-url className="text-fern underline dark:text-fern-bright">
             ranking page
           </a>
         </Item>

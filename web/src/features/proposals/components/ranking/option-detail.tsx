@@ -33,7 +33,7 @@ export function OptionDetail({ option, recommended, series, tolerance }: { optio
         </h2>
         <span className="text-sm text-ink-soft dark:text-night-ink-soft">rank {option.rank}</span>
         {option.passes ? <Verdict kind="holds" label="Passes every blocking check" /> : <Verdict kind="short" label={`Falls short on ${short} blocking check${short === 1 ? '' : 's'}`} />}
-        {recommended && <span className="text-sm text-fern dark:text-fern-soft">◆ the recommendation</span>}
+        {recommended && <span className="text-sm text-fern dark:text-fern-bright">◆ the recommendation</span>}
       </header>
       {option.design ? (
         <div className="grid gap-6 lg:grid-cols-[minmax(0,11fr)_minmax(0,9fr)]">

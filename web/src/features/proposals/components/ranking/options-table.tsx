@@ -132,7 +132,7 @@ export function OptionsTable({ rows, targets, selected, onSelect }: { rows: Opti
                           {option.name}
                         </button>
                         {option.recommended && (
-                          <span className="ml-1.5 text-fern dark:text-fern-soft" title="Recommended">
+                          <span className="ml-1.5 text-fern dark:text-fern-bright" title="Recommended">
                             <span aria-hidden="true">◆</span>
                             <span className="sr-only"> (recommended)</span>
                           </span>

@@ -36,7 +36,7 @@ export function RecommendationSummary({ result }: { result: RecommendResult }) {
         {result.recommended ? (
           <>
             <span className="text-sm text-ink-soft dark:text-night-ink-soft">Recommended</span>
-            <span className="text-lg font-medium text-fern dark:text-fern-soft">{topologyName(result.recommended)}</span>
+            <span className="text-lg font-medium text-fern dark:text-fern-bright">{topologyName(result.recommended)}</span>
             <span className="text-sm">— {result.summary}</span>
           </>
         ) : (

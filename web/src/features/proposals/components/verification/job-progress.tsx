@@ -15,7 +15,7 @@ export function JobProgress({ job, label }: { job: VerificationJobView; label: s
     <div className="space-y-2 rounded-md border border-rule p-3 dark:border-night-rule">
       <div className="flex flex-wrap items-baseline justify-between gap-2 text-sm">
         <p id={`${id}-label`} className="font-medium">
-          <span aria-hidden="true" className="mr-1.5 text-fern dark:text-fern-soft">
+          <span aria-hidden="true" className="mr-1.5 text-fern dark:text-fern-bright">
             {waiting ? '◔' : '◑'}
           </span>
           {label}: {waiting ? 'waiting for the simulator' : 'simulating'}

@@ -112,7 +112,7 @@ function OverviewTable({ options, selectedKey, onSelect }: { options: OptionVeri
                     className={cn('rounded text-left hover:text-fern hover:underline dark:hover:text-fern-soft', selected && 'font-medium')}
                   >
                     {selected && (
-                      <span aria-hidden="true" className="mr-1 text-fern dark:text-fern-soft">
+                      <span aria-hidden="true" className="mr-1 text-fern dark:text-fern-bright">
                         ▸
                       </span>
                     )}

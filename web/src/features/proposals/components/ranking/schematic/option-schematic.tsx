@@ -38,7 +38,7 @@ export function OptionSchematic({ design, className }: { design: Design; classNa
         <Rail y={RAIL_BOTTOM_Y} x1={RAIL_LEFT_X} x2={RAIL_RIGHT_X} name="V−" volts={negativeV === 0 ? '0 V (ground)' : formatQuantity(negativeV, 'V')} below />
         <PairDrawing design={design} />
       </g>
-      <g className="text-fern dark:text-fern-soft">
+      <g className="text-fern dark:text-fern-bright">
         <TailDrawing tail={design.tail} />
       </g>
     </svg>
