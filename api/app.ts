@@ -5,6 +5,7 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import session from 'express-session';
@@ -94,6 +95,8 @@ export function createApp(deps: AppDeps): LongtailApp {
       },
     }),
   );
+  // gzip for answers over 1 kB: the app's scripts and the stored rankings (tens of kB of JSON).
+  app.use(compression());
   app.use(express.json({ limit: BODY_LIMIT, strict: true, type: ['application/json', 'application/*+json'] }));
   app.use(cookieParser());
   app.use(
