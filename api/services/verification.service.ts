@@ -120,6 +120,6 @@ export async function verificationStatus(dataSource: DataSource, viewer: Viewer,
   const latest = await repository.findOne({ where: { proposalId, kind: 'proposal' }, order: { id: 'DESC' } });
   const monteCarlo = await repository.find({ where: { proposalId, kind: 'monte-carlo' }, order: { id: 'DESC' } });
   const latestPerOption = monteCarlo.filter((job, i) => monteCarlo.findIndex((j) => j.topology === job.topology) === i);
-  const [verification, ...perOption] = await jobViews(dataSource, [...(latest ? [latest] : []), ...latestPerOption]);
-  return latest ? { verification, monteCarlo: perOption } : { verification: null, monteCarlo: verification ? [verification, ...perOption] : [] };
+  const views = await jobViews(dataSource, latest ? [latest, ...latestPerOption] : latestPerOption);
+  return latest ? { verification: views[0], monteCarlo: views.slice(1) } : { verification: null, monteCarlo: views };
 }

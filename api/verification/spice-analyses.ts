@@ -181,6 +181,39 @@ export function dropFrequencyHz(frequenciesHz: number[], ratioDb: number[], drop
   return null;
 }
 
+/** The DC figures read from an operating point (see `spiceFigures` for how each is measured). */
+export interface SpiceDcFigures {
+  tailCurrentA: number;
+  collectorCurrentA: number;
+  collector2CurrentA: number;
+  referenceCurrentA: number;
+  powerW: number;
+}
+
+/**
+ * DC figures from a simulated operating point: collector currents from the load drops, the tail
+ * current by KCL at the pair (plus the base currents the input sources deliver), the reference
+ * branch through RREF, and the power the rails deliver.
+ */
+export function dcFigures(design: Design, op: SpiceOperatingPoint): SpiceDcFigures {
+  const circuit = stageCircuit(design);
+  const { positiveV, negativeV } = design.supply;
+  const v = op.nodeVoltagesV;
+  const i = op.sourceCurrentsA;
+  const [vin1, vin2] = INPUT_SOURCES.map((name) => name.toLowerCase());
+  const collectorCurrentA = (positiveV - v.c1) / resistanceOf(circuit.elements, 'RC1');
+  const collector2CurrentA = (positiveV - v.c2) / resistanceOf(circuit.elements, 'RC2');
+  const reference = circuit.elements.find((e): e is ResistorElement => e.kind === 'resistor' && e.name === 'RREF');
+  const referenceNode = reference?.nodes.find((node) => node !== RAIL_NODES.positive);
+  return {
+    tailCurrentA: collectorCurrentA + collector2CurrentA - i[vin1] - i[vin2],
+    collectorCurrentA,
+    collector2CurrentA,
+    referenceCurrentA: referenceNode ? (positiveV - v[referenceNode]) / resistanceOf(circuit.elements, 'RREF') : 0,
+    powerW: -(positiveV * i[SUPPLY_SOURCES.positive.toLowerCase()] + negativeV * i[SUPPLY_SOURCES.negative.toLowerCase()]),
+  };
+}
+
 /**
  * Measures the contract's figures by simulation: one `.op`, a differential and a common-mode
  * AC run (swept 1 Hz–10 GHz when the design has a tail capacitance, for the CMRR corner), and
@@ -193,21 +226,9 @@ export function dropFrequencyHz(frequenciesHz: number[], ratioDb: number[], drop
 export async function spiceFigures(run: SpiceRunner, design: Design, options: { frequencyHz?: number } = {}): Promise<SpiceFigures> {
   const frequencyHz = options.frequencyHz ?? LOW_FREQUENCY_HZ;
   const circuit = stageCircuit(design);
-  const { positiveV, negativeV } = design.supply;
   const op = await spiceOperatingPoint(run, design);
   const v = op.nodeVoltagesV;
-  const i = op.sourceCurrentsA;
-  const [vin1, vin2] = INPUT_SOURCES.map((name) => name.toLowerCase());
-
-  const rc1Ohm = resistanceOf(circuit.elements, 'RC1');
-  const rc2Ohm = resistanceOf(circuit.elements, 'RC2');
-  const collectorCurrentA = (positiveV - v.c1) / rc1Ohm;
-  const collector2CurrentA = (positiveV - v.c2) / rc2Ohm;
-  const tailCurrentA = collectorCurrentA + collector2CurrentA - i[vin1] - i[vin2];
-  const reference = circuit.elements.find((e): e is ResistorElement => e.kind === 'resistor' && e.name === 'RREF');
-  const referenceNode = reference?.nodes.find((node) => node !== RAIL_NODES.positive);
-  const referenceCurrentA = referenceNode ? (positiveV - v[referenceNode]) / resistanceOf(circuit.elements, 'RREF') : 0;
-  const powerW = -(positiveV * i[SUPPLY_SOURCES.positive.toLowerCase()] + negativeV * i[SUPPLY_SOURCES.negative.toLowerCase()]);
+  const { tailCurrentA, collectorCurrentA, referenceCurrentA, powerW } = dcFigures(design, op);
 
   const hasCapacitance = (design.tailCapacitanceF ?? 0) > 0;
   const sweep: AcSweep = hasCapacitance

@@ -17,13 +17,13 @@ import {
 import {
   REFERENCE_RELATIVE_TOLERANCE,
   complexMagnitude,
+  dcFigures,
   dropFrequencyHz,
   spiceAc,
   spiceOperatingPoint,
   type SpiceRunner,
 } from './spice-analyses';
-import { INPUT_SOURCES, SUPPLY_SOURCES, TAIL_TEST_SOURCE, type AcSweep } from '../../shared/engine/netlist';
-import { stageCircuit } from '../../shared/engine/circuit';
+import { TAIL_TEST_SOURCE, type AcSweep } from '../../shared/engine/netlist';
 import { singleEndedCmrrDbAt, solveStage } from '../../shared/engine/analyze';
 import { conditionLabel } from '../../shared/engine/conditions';
 import { NOMINAL_TEMPERATURE_C } from '../../shared/engine/constants';
@@ -110,28 +110,10 @@ export async function acAt(run: SpiceRunner, design: Design, sweep: AcSweep) {
   return { frequenciesHz: differential.frequenciesHz, figuresAt };
 }
 
-/** DC figures from an operating point: tail current by KCL at the pair, power from the rails. */
+/** DC figures at one condition, with the node voltages the comparison shows. */
 async function dcAt(run: SpiceRunner, design: Design) {
   const op = await spiceOperatingPoint(run, design, { relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
-  const v = op.nodeVoltagesV;
-  const i = op.sourceCurrentsA;
-  const circuit = stageCircuit(design);
-  const rc = (name: string) => {
-    const element = circuit.elements.find((e) => e.name === name);
-    if (!element || element.kind !== 'resistor') throw new Error(`no resistor ${name} in the stage circuit`);
-    return element.resistanceOhm;
-  };
-  const { positiveV, negativeV } = design.supply;
-  const collectorCurrentA = (positiveV - v.c1) / rc('RC1');
-  const collector2CurrentA = (positiveV - v.c2) / rc('RC2');
-  const [in1, in2] = INPUT_SOURCES.map((s) => s.toLowerCase());
-  return {
-    tailCurrentA: collectorCurrentA + collector2CurrentA - i[in1] - i[in2],
-    collectorCurrentA,
-    collectorVoltageV: v.c1,
-    tailNodeVoltageV: v.t,
-    powerW: -(positiveV * i[SUPPLY_SOURCES.positive.toLowerCase()] + negativeV * i[SUPPLY_SOURCES.negative.toLowerCase()]),
-  };
+  return { ...dcFigures(design, op), collectorVoltageV: op.nodeVoltagesV.c1, tailNodeVoltageV: op.nodeVoltagesV.t };
 }
 
 /** Runs every analysis of one option and compares; a failing simulation becomes the option's error. */

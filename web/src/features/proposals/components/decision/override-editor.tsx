@@ -3,7 +3,7 @@ import type { Design, TopologyId } from '../../../../../../shared/engine/types';
 import { formatQuantity } from '../../../../../../shared/units/index';
 import { Button } from '../../../../components/ui/button';
 import type { OptionEvaluation, Proposal } from '../../../../lib/api-types';
-import { fieldValue, PAIR_FIELDS, tailFields, topologyTitle, type FieldKey } from './design-fields';
+import { fieldValue, PAIR_FIELDS, tailFields, topologyTitle, type FieldInfo, type FieldKey } from './design-fields';
 import { FullCheckPanel } from './full-check-panel';
 import { designFromDraft, draftFromDesign, fieldErrorsOf, readDraft, withTopology, type FieldReading, type OverrideDraft } from './override-draft';
 import { QuantityField } from './quantity-field';
@@ -40,6 +40,18 @@ export function OverrideEditor({
   const series = proposal.specVersion.payload.resistors.series;
   const setText = (key: FieldKey, text: string) => onDraftChange({ ...draft, text: { ...draft.text, [key]: text } });
   const pairDiffers = ranked?.design ? PAIR_FIELDS.some((f) => readingOf(readings.get(f.key)) !== fieldValue(ranked.design!, f.key)) : false;
+  const fieldFor = (info: FieldInfo) => (
+    <QuantityField
+      key={info.key}
+      info={info}
+      text={draft.text[info.key] ?? ''}
+      reading={readings.get(info.key)!}
+      serverError={serverErrors[info.key] ?? fullCheck.fieldErrors[info.key] ?? whatIfFieldErrors[info.key]}
+      series={series}
+      rankedOhm={ranked?.design ? fieldValue(ranked.design, info.key) : undefined}
+      onChange={(text) => setText(info.key, text)}
+    />
+  );
 
   return (
     <div className="space-y-4">
@@ -83,33 +95,11 @@ export function OverrideEditor({
 
       <fieldset className="grid max-w-2xl gap-x-4 gap-y-2 sm:grid-cols-2">
         <legend className="mb-1 text-xs font-medium tracking-wide text-ink-soft uppercase dark:text-night-ink-soft">Pair</legend>
-        {PAIR_FIELDS.map((info) => (
-          <QuantityField
-            key={info.key}
-            info={info}
-            text={draft.text[info.key] ?? ''}
-            reading={readings.get(info.key)!}
-            serverError={serverErrors[info.key] ?? fullCheck.fieldErrors[info.key] ?? whatIfFieldErrors[info.key]}
-            series={series}
-            rankedOhm={ranked?.design ? fieldValue(ranked.design, info.key) : undefined}
-            onChange={(text) => setText(info.key, text)}
-          />
-        ))}
+        {PAIR_FIELDS.map(fieldFor)}
       </fieldset>
       <fieldset className="grid max-w-2xl gap-x-4 gap-y-2 sm:grid-cols-2">
         <legend className="mb-1 text-xs font-medium tracking-wide text-ink-soft uppercase dark:text-night-ink-soft">Tail: {topologyTitle(draft.topology)}</legend>
-        {tailFields(draft.topology).map((info) => (
-          <QuantityField
-            key={info.key}
-            info={info}
-            text={draft.text[info.key] ?? ''}
-            reading={readings.get(info.key)!}
-            serverError={serverErrors[info.key] ?? fullCheck.fieldErrors[info.key] ?? whatIfFieldErrors[info.key]}
-            series={series}
-            rankedOhm={ranked?.design ? fieldValue(ranked.design, info.key) : undefined}
-            onChange={(text) => setText(info.key, text)}
-          />
-        ))}
+        {tailFields(draft.topology).map(fieldFor)}
       </fieldset>
       <HeldConditions design={draft.base} />
       <WhatIfPanel proposal={proposal} whatIf={whatIf} ranked={ranked} />
