@@ -5,6 +5,7 @@
  */
 import { topologyName } from '../../shared/engine/topology-names';
 import { ESTIMATE_NOTICE } from '../../shared/engine/version';
+import { commentLines, singleLine } from '../../shared/text/plain-text';
 import type { DecisionKind } from '../entities/decision.entity';
 
 export type NotificationKind = 'proposal.ready' | 'proposal.decided' | 'proposal.approved' | 'proposal.returned';
@@ -63,10 +64,26 @@ export function decisionSentence(decision: DecisionFacts): string {
 
 const specLine = (facts: ProposalFacts) => `Spec: "${facts.specTitle}", version ${facts.specVersion}`;
 const projectLine = (facts: ProposalFacts) => `Project: ${facts.projectName}`;
-const quoted = (label: string, text: string | null) => (text ? [`${label}:`, ...text.split(/\r?\n/).map((line) => `  ${line}`)] : []);
+/** Multi-line user text (a reason, a comment): indented, one line each, control characters blanked. */
+const quoted = (label: string, text: string | null) => (text ? [`${label}:`, ...commentLines(text, '  ')] : []);
 
-/** Subject and text of one message to one person; `because` says why they get it. */
-export function composeMessage(facts: MessageFacts, recipientName: string, because: string): ComposedMessage {
+/** The facts with every one-line user text (titles, names) on one line, control characters and bidi controls blanked. */
+function plainFacts(facts: MessageFacts): MessageFacts {
+  const common = { ...facts, projectName: singleLine(facts.projectName), specTitle: singleLine(facts.specTitle) };
+  if (common.kind === 'proposal.ready') return { ...common, rankedBy: singleLine(common.rankedBy) };
+  const decision = { ...common.decision, decidedBy: singleLine(common.decision.decidedBy) };
+  if (common.kind === 'proposal.decided') return { ...common, decision };
+  return { ...common, decision, reviewedBy: singleLine(common.reviewedBy) };
+}
+
+/**
+ * Subject and text of one message to one person; `because` says why they get it. User text is
+ * data: titles and names stay on one line (the subject is a mail header), reasons and comments
+ * are indented line by line, every control character and bidi control blanked.
+ */
+export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: string, because: string): ComposedMessage {
+  const facts = plainFacts(unsafeFacts);
+  const recipientName = singleLine(unsafeRecipientName);
   const name = `proposal #${facts.proposalId}`;
   const spec = `${facts.specTitle} (version ${facts.specVersion})`;
   let subject: string;

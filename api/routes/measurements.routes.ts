@@ -10,6 +10,7 @@ import multer from 'multer';
 import type { DataSource } from 'typeorm';
 import { MEASUREMENT_FILE_MAX_BYTES } from '../../shared/measurements/measurement-csv';
 import { MEASUREMENT_NOTE_MAX_LENGTH } from '../../shared/measurements/types';
+import { unsafeTextMessage } from '../../shared/text/plain-text';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { AppError, invalid } from '../errors';
 import { listMeasurements, measurementFile, uploadMeasurement } from '../services/measurements.service';
@@ -56,6 +57,8 @@ function noteOf(req: Request): string | null {
   if (note === undefined) return null;
   if (typeof note !== 'string') throw invalid([{ path: '/note', message: 'must be text' }]);
   const trimmed = note.trim();
+  const unsafe = unsafeTextMessage(trimmed, true);
+  if (unsafe) throw invalid([{ path: '/note', message: unsafe }]);
   if ([...trimmed].length > MEASUREMENT_NOTE_MAX_LENGTH) throw invalid([{ path: '/note', message: `is longer than ${MEASUREMENT_NOTE_MAX_LENGTH} characters` }]);
   return trimmed === '' ? null : trimmed;
 }

@@ -139,7 +139,7 @@ export async function libraryCardFor(manager: EntityManager | DataSource, projec
 }
 
 /**
- * Comment lines for an exported netlist (decision: the netlist keeps the engine's own `.model`
+ * Texts of comment lines for an exported netlist, for `spiceNetlist`'s header comments (decision: the netlist keeps the engine's own `.model`
  * card, so SPICE solves what the engine estimated; the library card the spec was filled from
  * follows as comments, to swap in by hand). Nothing when the spec names no card; a one-line note
  * when the card is gone from the library or the design's IS, BF, VAF are no longer the card's.
@@ -148,8 +148,8 @@ export async function libraryCardNetlistComment(manager: EntityManager | DataSou
   const reference = (specPayload as { deviceModel?: { name?: unknown; checksum?: unknown } } | null)?.deviceModel;
   if (!reference || typeof reference.name !== 'string' || typeof reference.checksum !== 'string') return [];
   const card = await libraryCardFor(manager, projectId, { name: reference.name, checksum: reference.checksum });
-  if (!card) return [`* The spec names library card ${reference.name}, which this project's library no longer holds from that file.`];
+  if (!card) return [`The spec names library card ${reference.name}, which this project's library no longer holds from that file.`];
   const same = card.device.beta === device.beta && card.device.saturationCurrentA === device.saturationCurrentA && card.device.earlyVoltageV === (device.earlyVoltageV ?? 0);
-  if (!same) return [`* The spec was filled from library card ${card.name} (file ${card.fileName}), but this design's IS, BF or VAF differ from the card's; the card is not repeated here.`];
+  if (!same) return [`The spec was filled from library card ${card.name} (file ${card.fileName}), but this design's IS, BF or VAF differ from the card's; the card is not repeated here.`];
   return cardCommentLines(card);
 }

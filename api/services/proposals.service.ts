@@ -342,17 +342,17 @@ export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, pr
     if (!design) throw invalid([{ path: '?topology', message: `is not a sized option of this proposal: ${String(topology)}` }]);
     label = `ranked option ${topology}`;
   }
-  const netlist = spiceNetlist(design, { analysis: query.drive === 'differential' ? 'ac-differential' : 'ac-common-mode', ...NETLIST_SWEEP });
-  const [title, ...rest] = netlist.split('\n');
   const libraryCard = await libraryCardNetlistComment(dataSource, proposal.projectId, proposal.specVersion.payload, design.device);
+  // User text (the spec's title, the card's name and text) goes in as header comments only: the writer keeps each on comment lines.
   const header = [
-    `* Exported by Longtail: proposal #${proposal.id}, ${label}`,
-    `* spec "${proposal.specVersion.title}" version ${proposal.specVersion.version}, engine ${proposal.engineVersion}, rule set ${proposal.rulesetVersion.slice(0, 12)}`,
-    `* at ${design.temperatureC ?? 27} °C, input common mode ${design.inputCommonModeV ?? 0} V (nominal conditions)`,
-    `* ${ESTIMATE_NOTICE}`,
+    `Exported by Longtail: proposal #${proposal.id}, ${label}`,
+    `spec "${proposal.specVersion.title}" version ${proposal.specVersion.version}, engine ${proposal.engineVersion}, rule set ${proposal.rulesetVersion.slice(0, 12)}`,
+    `at ${design.temperatureC ?? 27} °C, input common mode ${design.inputCommonModeV ?? 0} V (nominal conditions)`,
+    ESTIMATE_NOTICE,
     ...libraryCard,
   ];
-  return { fileName: `longtail-${proposal.id}-${design.tail.topology}-${query.drive}.cir`, text: [title, ...header, ...rest].join('\n') };
+  const text = spiceNetlist(design, { analysis: query.drive === 'differential' ? 'ac-differential' : 'ac-common-mode', ...NETLIST_SWEEP }, header);
+  return { fileName: `longtail-${proposal.id}-${design.tail.topology}-${query.drive}.cir`, text };
 }
 
 /** The AC sweep written into exported netlists: 1 Hz to 10 MHz, 20 points a decade. */

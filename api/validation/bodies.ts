@@ -8,9 +8,13 @@ import { TOPOLOGIES } from '../../shared/engine/types';
 import { DESIGN_SCHEMA } from '../../shared/validate';
 import { MONTE_CARLO_RUNS } from '../../shared/verification/types';
 import { MIN_PASSWORD_LENGTH } from '../auth/password';
+import { PLAIN_LINES_PATTERN, PLAIN_LINE_PATTERN, PLAIN_NAME_PATTERN } from '../../shared/text/plain-text';
 
-const email = { type: 'string', minLength: 3, maxLength: 254, pattern: '^[^@\\s]+@[^@\\s]+$' };
-const name = (maxLength: number) => ({ type: 'string', minLength: 1, maxLength, pattern: '\\S' });
+const email = { type: 'string', minLength: 3, maxLength: 254, allOf: [{ pattern: '^[^@\\s]+@[^@\\s]+$' }, { pattern: PLAIN_LINE_PATTERN }] };
+/** A name or title: one line, not blank, no control characters or bidi overrides (shared/text/plain-text.ts). */
+const name = (maxLength: number) => ({ type: 'string', minLength: 1, maxLength, pattern: PLAIN_NAME_PATTERN });
+/** Multi-line text (a description, a reason, a comment): LF line ends, no other control characters or bidi overrides. */
+const text = (maxLength: number) => ({ type: 'string', maxLength, pattern: PLAIN_LINES_PATTERN });
 const strict = (properties: Record<string, object>, required: string[]) => ({ type: 'object', additionalProperties: false, properties, required });
 
 export const LOGIN_BODY = strict({ email: { type: 'string', minLength: 1, maxLength: 254 }, password: { type: 'string', minLength: 1, maxLength: 1024 } }, ['email', 'password']);
@@ -25,7 +29,7 @@ export const USER_CHANGES_BODY = { ...strict({ displayName: name(120), role: { e
 /** PATCH /api/auth/me: the signed-in person's own preferences. */
 export const PREFERENCES_BODY = strict({ notify: { type: 'boolean' } }, ['notify']);
 
-export const NEW_PROJECT_BODY = strict({ name: name(160), description: { type: 'string', maxLength: 4000 } }, ['name']);
+export const NEW_PROJECT_BODY = strict({ name: name(160), description: text(4000) }, ['name']);
 
 export const MEMBERSHIP_BODY = strict({ userId: { type: 'integer', minimum: 1 } }, ['userId']);
 
@@ -38,13 +42,13 @@ export const DECISION_BODY = {
       kind: { enum: ['accept', 'choose', 'override'] },
       topology: { enum: [...TOPOLOGIES] },
       design: DESIGN_SCHEMA,
-      reason: { type: 'string', maxLength: 4000 },
+      reason: text(4000),
     },
     ['kind'],
   ),
 };
 
-export const REVIEW_BODY = strict({ verdict: { enum: ['approve', 'return'] }, comment: { type: 'string', maxLength: 4000 } }, ['verdict']);
+export const REVIEW_BODY = strict({ verdict: { enum: ['approve', 'return'] }, comment: text(4000) }, ['verdict']);
 
 export const PROPOSAL_LIST_QUERY = strict(
   {

@@ -657,15 +657,15 @@ export interface CardOrigin {
 }
 
 /**
- * Comment lines for an exported netlist: the library card the device came from, every line
- * behind `* ` so SPICE never reads it. The netlist keeps the engine's own `.model` card (IS, BF,
+ * The texts of the comment lines for an exported netlist: the library card the device came
+ * from, for `spiceNetlist`'s header comments (which write each behind `* `, so SPICE never reads it). The netlist keeps the engine's own `.model` card (IS, BF,
  * VAF), so the simulation agrees with the estimates; the original card is there to swap in by hand.
  */
 export function cardCommentLines(origin: CardOrigin): string[] {
   return [
-    `* Device from the project's library: ${origin.name} (file ${origin.fileName}, sha256 ${origin.checksum.slice(0, 16)}…).`,
-    '* The .model card below keeps the engine\'s IS, BF and VAF only, so SPICE solves what the engine estimated.',
-    '* The original card, for a simulation with every parameter (results will then differ from the estimates):',
-    ...splitLines(origin.text).map((line) => `*   ${line}`),
+    `Device from the project's library: ${origin.name} (file ${origin.fileName}, sha256 ${origin.checksum.slice(0, 16)}…).`,
+    "The .model card below keeps the engine's IS, BF and VAF only, so SPICE solves what the engine estimated.",
+    'The original card, for a simulation with every parameter (results will then differ from the estimates):',
+    ...splitLines(origin.text).map((line) => `  ${line}`),
   ];
 }

@@ -10,6 +10,7 @@ import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circ
 import type { CircuitElement } from './circuit';
 import { earlyVoltageOrInfinityV, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
+import { commentLines } from '../text/plain-text';
 
 /** The `.model` name every transistor of the stage uses. */
 export const SPICE_MODEL_NAME = 'QNPN';
@@ -133,12 +134,22 @@ function inputDriveLines(options: NetlistOptions, commonModeV: number): string[]
   }
 }
 
+/** The comment prefix of every header line; never `*#` (ngspice reads `*#` lines as commands). */
+const COMMENT_PREFIX = '* ';
+
 /**
- * SPICE3 netlist of a design for one analysis. Sections: title, supplies (VP on vp, VN on vn),
- * input drive, pair and loads, tail element, one `.model` card, `.options temp tnom [reltol]`,
- * the analysis card, `.end`. Transistor area factors are written only when ≠ 1.
+ * SPICE3 netlist of a design for one analysis. Sections: title, the header `comments`, supplies
+ * (VP on vp, VN on vn), input drive, pair and loads, tail element, one `.model` card,
+ * `.options temp tnom [reltol]`, the analysis card, `.end`. Transistor area factors are written
+ * only when ≠ 1.
+ *
+ * The title line and every line but the comments are the writer's own. `comments` may hold user
+ * text (a spec title, a device name, a library card): each entry is written as comment lines
+ * only, one per line of its text, every control character, line or paragraph separator and
+ * bidi control replaced (`shared/text/plain-text.ts`), so no text can become a card
+ * (`.control`, `.include`, `shell`) of the file.
  */
-export function spiceNetlist(design: Design, options: NetlistOptions): string {
+export function spiceNetlist(design: Design, options: NetlistOptions, comments: readonly string[] = []): string {
   const circuit = stageCircuit(design);
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const includePair = options.analysis !== 'ac-tail';
@@ -146,6 +157,7 @@ export function spiceNetlist(design: Design, options: NetlistOptions): string {
   const tailLines = circuit.elements.filter((element) => element.part === 'tail').map(elementLine);
   const lines = [
     `Longtail differential pair, ${design.tail.topology} tail (${options.analysis})`,
+    ...comments.flatMap((text) => commentLines(text, COMMENT_PREFIX)),
     '* --- supplies ---',
     dcSource(SUPPLY_SOURCES.positive, RAIL_NODES.positive, circuit.fixedNodesV[RAIL_NODES.positive]),
     dcSource(SUPPLY_SOURCES.negative, RAIL_NODES.negative, circuit.fixedNodesV[RAIL_NODES.negative]),

@@ -1,5 +1,6 @@
 /**
- * A batch's results as CSV (RFC 4180, through the ranking table's field writer): one row per
+ * A batch's results as CSV (RFC 4180, through the ranking table's field writer, which keeps each
+ * title on one line and neutralises what a spreadsheet would run as a formula): one row per
  * proposal (one per spec of an import), with the figures of the recommended option, or of the
  * first-ranked option when none passes. SI units in the headers; figures are estimates to
  * confirm by simulation and bench measurement.
@@ -30,14 +31,6 @@ export const BATCH_CSV_HEADER = [
   'power_worst_w',
 ] as const;
 
-/**
- * Text that a spreadsheet would run as a formula (it starts with =, +, -, @ or a tab or carriage
- * return) gets a leading apostrophe, as OWASP's CSV-injection advice has it; other text is unchanged.
- */
-export function spreadsheetSafe(text: string): string {
-  return /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
-}
-
 /** The option whose figures a row shows: the recommended one, else the first ranked. */
 function shownOption(result: RecommendResult) {
   return result.options.find((o) => o.topology === result.recommended) ?? result.options.find((o) => o.rank === 1) ?? result.options[0];
@@ -49,7 +42,7 @@ export function batchResultsCsv(items: readonly BatchResultInput[]): string {
   for (const item of items) {
     const option = shownOption(item.result);
     const values = [
-      spreadsheetSafe(item.specTitle),
+      item.specTitle,
       item.specVersion,
       item.proposalId,
       item.status,

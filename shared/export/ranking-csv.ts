@@ -1,8 +1,9 @@
 /**
- * The ranking table as CSV (RFC 4180: comma-separated, CRLF line ends, fields with commas,
- * quotes or line breaks quoted), SI units named in each header, for a reviewer's spreadsheet.
+ * The ranking table as CSV (RFC 4180: comma-separated, CRLF line ends, fields with commas or
+ * quotes quoted; text never spans lines), SI units named in each header, for a reviewer's spreadsheet.
  */
 import type { RecommendResult } from '../engine/recommend';
+import { spreadsheetCell } from '../text/plain-text';
 
 type Option = RecommendResult['options'][number];
 
@@ -38,11 +39,15 @@ function tailValues(tail: Record<string, unknown>): string {
     .join(' ');
 }
 
-/** One CSV field: numbers as JavaScript writes them (full precision), text quoted when it must be. */
+/**
+ * One CSV field: numbers as JavaScript writes them (full precision); text as one line with every
+ * control character blanked and a leading apostrophe where a spreadsheet would run it as a
+ * formula (`spreadsheetCell`, shared/text/plain-text.ts), quoted when it must be.
+ */
 export function csvField(value: string | number | boolean | null | undefined): string {
   if (value === null || value === undefined) return '';
-  const text = String(value);
-  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+  const text = typeof value === 'string' ? spreadsheetCell(value) : String(value);
+  return /[",]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
 /** The ranked options, one row each, in rank order, with a header row. */

@@ -4,6 +4,7 @@
  * the tail's `oneOf` collapses into "must be one of resistor, simple-mirror, ...".
  */
 import type { ErrorObject } from 'ajv';
+import { PLAIN_LINES_PATTERN, PLAIN_LINE_PATTERN, PLAIN_NAME_PATTERN, unsafeTextMessage } from '../text/plain-text';
 import { unitSymbolFor } from '../units/unit-symbols';
 import { pointerSegment, type ValidationIssue } from './validation-issue';
 
@@ -29,7 +30,7 @@ const BUILDERS: Record<string, IssueBuilder> = {
   uniqueItems: (e) => at(e, `must not repeat an item (items ${e.params.j} and ${e.params.i} are the same)`),
   minLength: (e) => at(e, e.params.limit === 1 ? 'must not be empty' : `must be at least ${e.params.limit} characters`),
   maxLength: (e) => at(e, `must be at most ${e.params.limit} characters`),
-  pattern: (e) => at(e, e.params.pattern === '\\S' ? 'must not be blank' : 'is not in the expected format'),
+  pattern: (e) => at(e, patternMessage(e)),
   discriminator: discriminatorIssue,
   // Summaries of branch errors already reported one by one
   oneOf: () => undefined,
@@ -64,6 +65,18 @@ function discriminatorIssue(e: ErrorObject): ValidationIssue | undefined {
   const branches = ((e.parentSchema as SchemaNode | undefined)?.oneOf ?? []) as SchemaNode[];
   const values = branches.map((b) => ((b.properties as SchemaNode)[tag] as SchemaNode).const);
   return { path, message: `must be one of ${values.join(', ')}, got ${describeData(e.params.tagValue)}` };
+}
+
+/**
+ * A failed pattern: a refused character in text is named with its position (shared/text/plain-text.ts),
+ * a name of blanks is blank; anything else is not in the expected format.
+ */
+function patternMessage(e: ErrorObject): string {
+  const pattern = e.params.pattern as string;
+  const plain = pattern === PLAIN_LINE_PATTERN || pattern === PLAIN_LINES_PATTERN || pattern === PLAIN_NAME_PATTERN;
+  const unsafe = plain && typeof e.data === 'string' ? unsafeTextMessage(e.data, pattern === PLAIN_LINES_PATTERN) : null;
+  if (unsafe) return unsafe;
+  return pattern === '\\S' || pattern === PLAIN_NAME_PATTERN ? 'must not be blank' : 'is not in the expected format';
 }
 
 /** "must not be strictly between 0 and 1 V" for a `not` holding an open interval. */

@@ -59,8 +59,11 @@ describe('GET /api/proposals/:id/ranking.csv', () => {
     ['plain', 'plain'],
     ['a, b', '"a, b"'],
     ['say "hi"', '"say ""hi"""'],
-    ['two\r\nlines', '"two\r\nlines"'],
-  ])('a field %j is written %j (RFC 4180)', (value, written) => {
+    ['two\r\nlines', 'two  lines'],
+    ['=HYPERLINK("http://x.test")', `"'=HYPERLINK(""http://x.test"")"`],
+    ['-tail', "'-tail"],
+    [-3.5, '-3.5'],
+  ])('a field %j is written %j (RFC 4180, one line, never a formula)', (value, written) => {
     expect(csvField(value)).toBe(written);
   });
 });

@@ -8,6 +8,7 @@
  * never mega [SPICE]. The comment forms are ngspice's (`*` lines; `;`, `$ ` and `//` to the end
  * of a line; `+` continuations). The device names and values are invented.
  */
+import { commentLines } from '../../../shared/text/plain-text';
 import { describe, expect, test } from 'vitest';
 import {
   cardCommentLines,
@@ -294,8 +295,9 @@ describe('what a card means to the engine', () => {
   });
 
   test('when the card is written into a netlist, then every line of it is a comment', () => {
-    const lines = cardCommentLines({ name: 'FH-N2', fileName: 'bin.lib', checksum: 'ab'.repeat(32), text: '.model FH-N2 NPN (IS=1.2f\n+ BF=150 VAF=74.5)' });
-    expect(lines.every((line) => line.startsWith('*'))).toBe(true);
+    const texts = cardCommentLines({ name: 'FH-N2', fileName: 'bin.lib', checksum: 'ab'.repeat(32), text: '.model FH-N2 NPN (IS=1.2f\n+ BF=150 VAF=74.5)' });
+    const lines = texts.flatMap((text) => commentLines(text, '* '));
+    expect(lines.every((line) => line.startsWith('* '))).toBe(true);
     expect(lines).toContain('*   .model FH-N2 NPN (IS=1.2f');
     expect(lines).toContain('*   + BF=150 VAF=74.5)');
   });

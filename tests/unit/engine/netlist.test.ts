@@ -305,6 +305,16 @@ describe('spiceNetlist: structure', () => {
     expect(netlist).not.toMatch(/area=/i);
   });
 
+  test('header comments holding user text stay comment lines: the cards are the same as without them', () => {
+    const hostile = ['spec "Kestrel\n.control\nshell id\n.endc"', 'QX\r.include /etc/passwd', 'a\u2028.lib x.lib\u000c*#shell id'];
+    const withComments = spiceNetlist(designFor('wilson'), { analysis: 'op' }, hostile).split('\n');
+    const without = spiceNetlist(designFor('wilson'), { analysis: 'op' }).split('\n');
+    expect(withComments.filter((line) => !line.startsWith('* '))).toEqual(without.filter((line) => !line.startsWith('* ')));
+    expect(withComments.filter((line) => /^\s*(\.control|\.include|\.lib|shell|\*#)/i.test(line))).toEqual([]);
+    expect(withComments).toContain('* QX');
+    expect(withComments).toContain('* .include /etc/passwd');
+  });
+
   test('rejects an AC sweep that SPICE cannot run', () => {
     expect(() => spiceNetlist(designFor('resistor'), { analysis: 'ac-common-mode', startHz: 0, stopHz: 10, pointsPerDecade: 5 })).toThrow(RangeError);
     expect(() => spiceNetlist(designFor('resistor'), { analysis: 'ac-common-mode', startHz: 1, stopHz: 10, pointsPerDecade: 2.5 })).toThrow(RangeError);

@@ -16,10 +16,11 @@ function ucs2length(str) {
   }
   return length;
 }
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (plain text, no unit).","minLength":1,"maxLength":200},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A). Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","minimum":1e-20,"maximum":1e-9},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Collector-emitter voltage below which a transistor counts as saturated, in volts (V).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001}},"default":{}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A). Leave empty to let Longtail choose.","x-unit":"A","minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerance":{"type":"number","title":"Resistor tolerance","description":"Resistor tolerance as a fraction, dimensionless: 0.01 means plus or minus 1 %.","x-unit":"1","minimum":0.0005,"maximum":0.2,"default":0.01}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","minimum":0,"maximum":1e-9,"default":0},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A). Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","minimum":1e-20,"maximum":1e-9},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Collector-emitter voltage below which a transistor counts as saturated, in volts (V).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001}},"default":{}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A). Leave empty to let Longtail choose.","x-unit":"A","minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerance":{"type":"number","title":"Resistor tolerance","description":"Resistor tolerance as a fraction, dimensionless: 0.01 means plus or minus 1 %.","x-unit":"1","minimum":0.0005,"maximum":0.2,"default":0.01}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","minimum":0,"maximum":1e-9,"default":0},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
 const func2 = Object.prototype.hasOwnProperty;
 const func3 = ucs2length;
-const pattern0 = new RegExp("^[0-9a-f]{64}$", "u");
+const pattern0 = new RegExp("^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$", "u");
+const pattern2 = new RegExp("^[0-9a-f]{64}$", "u");
 
 function validate10(data, {instancePath="", parentData, parentDataProperty, rootData=data}={}){
 /*# sourceURL="https://longtail.example/schema/spec.schema.json" */;
@@ -101,9 +102,8 @@ vErrors.push(err6);
 }
 errors++;
 }
-}
-else {
-const err7 = {instancePath:instancePath+"/title",schemaPath:"#/properties/title/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.title.type,parentSchema:schema11.properties.title,data:data0};
+if(!pattern0.test(data0)){
+const err7 = {instancePath:instancePath+"/title",schemaPath:"#/properties/title/pattern",keyword:"pattern",params:{pattern: "^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},message:"must match pattern \""+"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"+"\"",schema:"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$",parentSchema:schema11.properties.title,data:data0};
 if(vErrors === null){
 vErrors = [err7];
 }
@@ -113,12 +113,8 @@ vErrors.push(err7);
 errors++;
 }
 }
-if(data.device !== undefined){
-let data1 = data.device;
-if(data1 && typeof data1 == "object" && !Array.isArray(data1)){
-for(const key1 in data1){
-if(!(((((((key1 === "family") || (key1 === "beta")) || (key1 === "earlyVoltageV")) || (key1 === "saturationCurrentA")) || (key1 === "vbeOnV")) || (key1 === "vceSatV")) || (key1 === "vbeMismatchSigmaV"))){
-const err8 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.device,data:data1};
+else {
+const err8 = {instancePath:instancePath+"/title",schemaPath:"#/properties/title/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.title.type,parentSchema:schema11.properties.title,data:data0};
 if(vErrors === null){
 vErrors = [err8];
 }
@@ -128,10 +124,12 @@ vErrors.push(err8);
 errors++;
 }
 }
-if(data1.family !== undefined){
-let data2 = data1.family;
-if(typeof data2 !== "string"){
-const err9 = {instancePath:instancePath+"/device/family",schemaPath:"#/properties/device/properties/family/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.device.properties.family.type,parentSchema:schema11.properties.device.properties.family,data:data2};
+if(data.device !== undefined){
+let data1 = data.device;
+if(data1 && typeof data1 == "object" && !Array.isArray(data1)){
+for(const key1 in data1){
+if(!(((((((key1 === "family") || (key1 === "beta")) || (key1 === "earlyVoltageV")) || (key1 === "saturationCurrentA")) || (key1 === "vbeOnV")) || (key1 === "vceSatV")) || (key1 === "vbeMismatchSigmaV"))){
+const err9 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.device,data:data1};
 if(vErrors === null){
 vErrors = [err9];
 }
@@ -140,8 +138,11 @@ vErrors.push(err9);
 }
 errors++;
 }
-if("npn" !== data2){
-const err10 = {instancePath:instancePath+"/device/family",schemaPath:"#/properties/device/properties/family/const",keyword:"const",params:{allowedValue: "npn"},message:"must be equal to constant",schema:"npn",parentSchema:schema11.properties.device.properties.family,data:data2};
+}
+if(data1.family !== undefined){
+let data2 = data1.family;
+if(typeof data2 !== "string"){
+const err10 = {instancePath:instancePath+"/device/family",schemaPath:"#/properties/device/properties/family/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.device.properties.family.type,parentSchema:schema11.properties.device.properties.family,data:data2};
 if(vErrors === null){
 vErrors = [err10];
 }
@@ -150,12 +151,8 @@ vErrors.push(err10);
 }
 errors++;
 }
-}
-if(data1.beta !== undefined){
-let data3 = data1.beta;
-if(typeof data3 == "number"){
-if(data3 > 2000 || isNaN(data3)){
-const err11 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2000},message:"must be <= 2000",schema:2000,parentSchema:schema11.properties.device.properties.beta,data:data3};
+if("npn" !== data2){
+const err11 = {instancePath:instancePath+"/device/family",schemaPath:"#/properties/device/properties/family/const",keyword:"const",params:{allowedValue: "npn"},message:"must be equal to constant",schema:"npn",parentSchema:schema11.properties.device.properties.family,data:data2};
 if(vErrors === null){
 vErrors = [err11];
 }
@@ -164,8 +161,12 @@ vErrors.push(err11);
 }
 errors++;
 }
-if(data3 < 10 || isNaN(data3)){
-const err12 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/minimum",keyword:"minimum",params:{comparison: ">=", limit: 10},message:"must be >= 10",schema:10,parentSchema:schema11.properties.device.properties.beta,data:data3};
+}
+if(data1.beta !== undefined){
+let data3 = data1.beta;
+if(typeof data3 == "number"){
+if(data3 > 2000 || isNaN(data3)){
+const err12 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2000},message:"must be <= 2000",schema:2000,parentSchema:schema11.properties.device.properties.beta,data:data3};
 if(vErrors === null){
 vErrors = [err12];
 }
@@ -174,14 +175,24 @@ vErrors.push(err12);
 }
 errors++;
 }
-}
-else {
-const err13 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.beta.type,parentSchema:schema11.properties.device.properties.beta,data:data3};
+if(data3 < 10 || isNaN(data3)){
+const err13 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/minimum",keyword:"minimum",params:{comparison: ">=", limit: 10},message:"must be >= 10",schema:10,parentSchema:schema11.properties.device.properties.beta,data:data3};
 if(vErrors === null){
 vErrors = [err13];
 }
 else {
 vErrors.push(err13);
+}
+errors++;
+}
+}
+else {
+const err14 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.beta.type,parentSchema:schema11.properties.device.properties.beta,data:data3};
+if(vErrors === null){
+vErrors = [err14];
+}
+else {
+vErrors.push(err14);
 }
 errors++;
 }
@@ -192,17 +203,6 @@ const _errs13 = errors;
 const _errs14 = errors;
 if(typeof data4 == "number"){
 if(data4 >= 1 || isNaN(data4)){
-const err14 = {};
-if(vErrors === null){
-vErrors = [err14];
-}
-else {
-vErrors.push(err14);
-}
-errors++;
-}
-else {
-if(data4 <= 0 || isNaN(data4)){
 const err15 = {};
 if(vErrors === null){
 vErrors = [err15];
@@ -212,16 +212,27 @@ vErrors.push(err15);
 }
 errors++;
 }
-}
-}
-var valid2 = _errs14 === errors;
-if(valid2){
-const err16 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.earlyVoltageV.not,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
+else {
+if(data4 <= 0 || isNaN(data4)){
+const err16 = {};
 if(vErrors === null){
 vErrors = [err16];
 }
 else {
 vErrors.push(err16);
+}
+errors++;
+}
+}
+}
+var valid2 = _errs14 === errors;
+if(valid2){
+const err17 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.earlyVoltageV.not,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
+if(vErrors === null){
+vErrors = [err17];
+}
+else {
+vErrors.push(err17);
 }
 errors++;
 }
@@ -238,17 +249,7 @@ vErrors = null;
 }
 if(typeof data4 == "number"){
 if(data4 > 1000 || isNaN(data4)){
-const err17 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
-if(vErrors === null){
-vErrors = [err17];
-}
-else {
-vErrors.push(err17);
-}
-errors++;
-}
-if(data4 < 0 || isNaN(data4)){
-const err18 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
+const err18 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
 if(vErrors === null){
 vErrors = [err18];
 }
@@ -257,9 +258,8 @@ vErrors.push(err18);
 }
 errors++;
 }
-}
-else {
-const err19 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.earlyVoltageV.type,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
+if(data4 < 0 || isNaN(data4)){
+const err19 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
 if(vErrors === null){
 vErrors = [err19];
 }
@@ -269,11 +269,8 @@ vErrors.push(err19);
 errors++;
 }
 }
-if(data1.saturationCurrentA !== undefined){
-let data5 = data1.saturationCurrentA;
-if(typeof data5 == "number"){
-if(data5 > 1e-9 || isNaN(data5)){
-const err20 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
+else {
+const err20 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.earlyVoltageV.type,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
 if(vErrors === null){
 vErrors = [err20];
 }
@@ -282,8 +279,12 @@ vErrors.push(err20);
 }
 errors++;
 }
-if(data5 < 1e-20 || isNaN(data5)){
-const err21 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-20},message:"must be >= 1e-20",schema:1e-20,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
+}
+if(data1.saturationCurrentA !== undefined){
+let data5 = data1.saturationCurrentA;
+if(typeof data5 == "number"){
+if(data5 > 1e-9 || isNaN(data5)){
+const err21 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
 if(vErrors === null){
 vErrors = [err21];
 }
@@ -292,9 +293,8 @@ vErrors.push(err21);
 }
 errors++;
 }
-}
-else {
-const err22 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.saturationCurrentA.type,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
+if(data5 < 1e-20 || isNaN(data5)){
+const err22 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-20},message:"must be >= 1e-20",schema:1e-20,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
 if(vErrors === null){
 vErrors = [err22];
 }
@@ -304,11 +304,8 @@ vErrors.push(err22);
 errors++;
 }
 }
-if(data1.vbeOnV !== undefined){
-let data6 = data1.vbeOnV;
-if(typeof data6 == "number"){
-if(data6 > 0.9 || isNaN(data6)){
-const err23 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.vbeOnV,data:data6};
+else {
+const err23 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.saturationCurrentA.type,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
 if(vErrors === null){
 vErrors = [err23];
 }
@@ -317,8 +314,12 @@ vErrors.push(err23);
 }
 errors++;
 }
-if(data6 < 0.4 || isNaN(data6)){
-const err24 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.4},message:"must be >= 0.4",schema:0.4,parentSchema:schema11.properties.device.properties.vbeOnV,data:data6};
+}
+if(data1.vbeOnV !== undefined){
+let data6 = data1.vbeOnV;
+if(typeof data6 == "number"){
+if(data6 > 0.9 || isNaN(data6)){
+const err24 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.vbeOnV,data:data6};
 if(vErrors === null){
 vErrors = [err24];
 }
@@ -327,9 +328,8 @@ vErrors.push(err24);
 }
 errors++;
 }
-}
-else {
-const err25 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vbeOnV.type,parentSchema:schema11.properties.device.properties.vbeOnV,data:data6};
+if(data6 < 0.4 || isNaN(data6)){
+const err25 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.4},message:"must be >= 0.4",schema:0.4,parentSchema:schema11.properties.device.properties.vbeOnV,data:data6};
 if(vErrors === null){
 vErrors = [err25];
 }
@@ -339,11 +339,8 @@ vErrors.push(err25);
 errors++;
 }
 }
-if(data1.vceSatV !== undefined){
-let data7 = data1.vceSatV;
-if(typeof data7 == "number"){
-if(data7 > 1 || isNaN(data7)){
-const err26 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.device.properties.vceSatV,data:data7};
+else {
+const err26 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vbeOnV.type,parentSchema:schema11.properties.device.properties.vbeOnV,data:data6};
 if(vErrors === null){
 vErrors = [err26];
 }
@@ -352,8 +349,12 @@ vErrors.push(err26);
 }
 errors++;
 }
-if(data7 < 0.05 || isNaN(data7)){
-const err27 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.device.properties.vceSatV,data:data7};
+}
+if(data1.vceSatV !== undefined){
+let data7 = data1.vceSatV;
+if(typeof data7 == "number"){
+if(data7 > 1 || isNaN(data7)){
+const err27 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.device.properties.vceSatV,data:data7};
 if(vErrors === null){
 vErrors = [err27];
 }
@@ -362,9 +363,8 @@ vErrors.push(err27);
 }
 errors++;
 }
-}
-else {
-const err28 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vceSatV.type,parentSchema:schema11.properties.device.properties.vceSatV,data:data7};
+if(data7 < 0.05 || isNaN(data7)){
+const err28 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.device.properties.vceSatV,data:data7};
 if(vErrors === null){
 vErrors = [err28];
 }
@@ -374,11 +374,8 @@ vErrors.push(err28);
 errors++;
 }
 }
-if(data1.vbeMismatchSigmaV !== undefined){
-let data8 = data1.vbeMismatchSigmaV;
-if(typeof data8 == "number"){
-if(data8 > 0.02 || isNaN(data8)){
-const err29 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.02},message:"must be <= 0.02",schema:0.02,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data8};
+else {
+const err29 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vceSatV.type,parentSchema:schema11.properties.device.properties.vceSatV,data:data7};
 if(vErrors === null){
 vErrors = [err29];
 }
@@ -387,8 +384,12 @@ vErrors.push(err29);
 }
 errors++;
 }
-if(data8 < 0 || isNaN(data8)){
-const err30 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data8};
+}
+if(data1.vbeMismatchSigmaV !== undefined){
+let data8 = data1.vbeMismatchSigmaV;
+if(typeof data8 == "number"){
+if(data8 > 0.02 || isNaN(data8)){
+const err30 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.02},message:"must be <= 0.02",schema:0.02,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data8};
 if(vErrors === null){
 vErrors = [err30];
 }
@@ -397,9 +398,8 @@ vErrors.push(err30);
 }
 errors++;
 }
-}
-else {
-const err31 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vbeMismatchSigmaV.type,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data8};
+if(data8 < 0 || isNaN(data8)){
+const err31 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data8};
 if(vErrors === null){
 vErrors = [err31];
 }
@@ -409,9 +409,8 @@ vErrors.push(err31);
 errors++;
 }
 }
-}
 else {
-const err32 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.type,parentSchema:schema11.properties.device,data:data1};
+const err32 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vbeMismatchSigmaV.type,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data8};
 if(vErrors === null){
 vErrors = [err32];
 }
@@ -421,11 +420,9 @@ vErrors.push(err32);
 errors++;
 }
 }
-if(data.deviceModel !== undefined){
-let data9 = data.deviceModel;
-if(data9 && typeof data9 == "object" && !Array.isArray(data9)){
-if(data9.name === undefined){
-const err33 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "name"},message:"must have required property '"+"name"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data9};
+}
+else {
+const err33 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.type,parentSchema:schema11.properties.device,data:data1};
 if(vErrors === null){
 vErrors = [err33];
 }
@@ -434,8 +431,12 @@ vErrors.push(err33);
 }
 errors++;
 }
-if(data9.checksum === undefined){
-const err34 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "checksum"},message:"must have required property '"+"checksum"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data9};
+}
+if(data.deviceModel !== undefined){
+let data9 = data.deviceModel;
+if(data9 && typeof data9 == "object" && !Array.isArray(data9)){
+if(data9.name === undefined){
+const err34 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "name"},message:"must have required property '"+"name"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data9};
 if(vErrors === null){
 vErrors = [err34];
 }
@@ -444,9 +445,8 @@ vErrors.push(err34);
 }
 errors++;
 }
-for(const key2 in data9){
-if(!((key2 === "name") || (key2 === "checksum"))){
-const err35 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.deviceModel,data:data9};
+if(data9.checksum === undefined){
+const err35 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "checksum"},message:"must have required property '"+"checksum"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data9};
 if(vErrors === null){
 vErrors = [err35];
 }
@@ -455,12 +455,9 @@ vErrors.push(err35);
 }
 errors++;
 }
-}
-if(data9.name !== undefined){
-let data10 = data9.name;
-if(typeof data10 === "string"){
-if(func3(data10) > 64){
-const err36 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
+for(const key2 in data9){
+if(!((key2 === "name") || (key2 === "checksum"))){
+const err36 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.deviceModel,data:data9};
 if(vErrors === null){
 vErrors = [err36];
 }
@@ -469,8 +466,12 @@ vErrors.push(err36);
 }
 errors++;
 }
-if(func3(data10) < 1){
-const err37 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
+}
+if(data9.name !== undefined){
+let data10 = data9.name;
+if(typeof data10 === "string"){
+if(func3(data10) > 64){
+const err37 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
 if(vErrors === null){
 vErrors = [err37];
 }
@@ -479,9 +480,8 @@ vErrors.push(err37);
 }
 errors++;
 }
-}
-else {
-const err38 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.name.type,parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
+if(func3(data10) < 1){
+const err38 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
 if(vErrors === null){
 vErrors = [err38];
 }
@@ -490,12 +490,8 @@ vErrors.push(err38);
 }
 errors++;
 }
-}
-if(data9.checksum !== undefined){
-let data11 = data9.checksum;
-if(typeof data11 === "string"){
-if(!pattern0.test(data11)){
-const err39 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/pattern",keyword:"pattern",params:{pattern: "^[0-9a-f]{64}$"},message:"must match pattern \""+"^[0-9a-f]{64}$"+"\"",schema:"^[0-9a-f]{64}$",parentSchema:schema11.properties.deviceModel.properties.checksum,data:data11};
+if(!pattern0.test(data10)){
+const err39 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/pattern",keyword:"pattern",params:{pattern: "^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},message:"must match pattern \""+"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"+"\"",schema:"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$",parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
 if(vErrors === null){
 vErrors = [err39];
 }
@@ -506,7 +502,7 @@ errors++;
 }
 }
 else {
-const err40 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.checksum.type,parentSchema:schema11.properties.deviceModel.properties.checksum,data:data11};
+const err40 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.name.type,parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
 if(vErrors === null){
 vErrors = [err40];
 }
@@ -516,9 +512,11 @@ vErrors.push(err40);
 errors++;
 }
 }
-}
-else {
-const err41 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.deviceModel.type,parentSchema:schema11.properties.deviceModel,data:data9};
+if(data9.checksum !== undefined){
+let data11 = data9.checksum;
+if(typeof data11 === "string"){
+if(!pattern2.test(data11)){
+const err41 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/pattern",keyword:"pattern",params:{pattern: "^[0-9a-f]{64}$"},message:"must match pattern \""+"^[0-9a-f]{64}$"+"\"",schema:"^[0-9a-f]{64}$",parentSchema:schema11.properties.deviceModel.properties.checksum,data:data11};
 if(vErrors === null){
 vErrors = [err41];
 }
@@ -528,11 +526,8 @@ vErrors.push(err41);
 errors++;
 }
 }
-if(data.supply !== undefined){
-let data12 = data.supply;
-if(data12 && typeof data12 == "object" && !Array.isArray(data12)){
-if(data12.positiveV === undefined){
-const err42 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "positiveV"},message:"must have required property '"+"positiveV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data12};
+else {
+const err42 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.checksum.type,parentSchema:schema11.properties.deviceModel.properties.checksum,data:data11};
 if(vErrors === null){
 vErrors = [err42];
 }
@@ -541,8 +536,10 @@ vErrors.push(err42);
 }
 errors++;
 }
-if(data12.negativeV === undefined){
-const err43 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "negativeV"},message:"must have required property '"+"negativeV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data12};
+}
+}
+else {
+const err43 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.deviceModel.type,parentSchema:schema11.properties.deviceModel,data:data9};
 if(vErrors === null){
 vErrors = [err43];
 }
@@ -551,9 +548,12 @@ vErrors.push(err43);
 }
 errors++;
 }
-for(const key3 in data12){
-if(!((key3 === "positiveV") || (key3 === "negativeV"))){
-const err44 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supply,data:data12};
+}
+if(data.supply !== undefined){
+let data12 = data.supply;
+if(data12 && typeof data12 == "object" && !Array.isArray(data12)){
+if(data12.positiveV === undefined){
+const err44 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "positiveV"},message:"must have required property '"+"positiveV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data12};
 if(vErrors === null){
 vErrors = [err44];
 }
@@ -562,12 +562,8 @@ vErrors.push(err44);
 }
 errors++;
 }
-}
-if(data12.positiveV !== undefined){
-let data13 = data12.positiveV;
-if(typeof data13 == "number"){
-if(data13 > 100 || isNaN(data13)){
-const err45 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.positiveV,data:data13};
+if(data12.negativeV === undefined){
+const err45 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "negativeV"},message:"must have required property '"+"negativeV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data12};
 if(vErrors === null){
 vErrors = [err45];
 }
@@ -576,8 +572,9 @@ vErrors.push(err45);
 }
 errors++;
 }
-if(data13 < -100 || isNaN(data13)){
-const err46 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.positiveV,data:data13};
+for(const key3 in data12){
+if(!((key3 === "positiveV") || (key3 === "negativeV"))){
+const err46 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supply,data:data12};
 if(vErrors === null){
 vErrors = [err46];
 }
@@ -587,8 +584,11 @@ vErrors.push(err46);
 errors++;
 }
 }
-else {
-const err47 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.positiveV.type,parentSchema:schema11.properties.supply.properties.positiveV,data:data13};
+if(data12.positiveV !== undefined){
+let data13 = data12.positiveV;
+if(typeof data13 == "number"){
+if(data13 > 100 || isNaN(data13)){
+const err47 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.positiveV,data:data13};
 if(vErrors === null){
 vErrors = [err47];
 }
@@ -597,12 +597,8 @@ vErrors.push(err47);
 }
 errors++;
 }
-}
-if(data12.negativeV !== undefined){
-let data14 = data12.negativeV;
-if(typeof data14 == "number"){
-if(data14 > 100 || isNaN(data14)){
-const err48 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.negativeV,data:data14};
+if(data13 < -100 || isNaN(data13)){
+const err48 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.positiveV,data:data13};
 if(vErrors === null){
 vErrors = [err48];
 }
@@ -611,8 +607,9 @@ vErrors.push(err48);
 }
 errors++;
 }
-if(data14 < -100 || isNaN(data14)){
-const err49 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.negativeV,data:data14};
+}
+else {
+const err49 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.positiveV.type,parentSchema:schema11.properties.supply.properties.positiveV,data:data13};
 if(vErrors === null){
 vErrors = [err49];
 }
@@ -622,8 +619,11 @@ vErrors.push(err49);
 errors++;
 }
 }
-else {
-const err50 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.negativeV.type,parentSchema:schema11.properties.supply.properties.negativeV,data:data14};
+if(data12.negativeV !== undefined){
+let data14 = data12.negativeV;
+if(typeof data14 == "number"){
+if(data14 > 100 || isNaN(data14)){
+const err50 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.negativeV,data:data14};
 if(vErrors === null){
 vErrors = [err50];
 }
@@ -632,10 +632,8 @@ vErrors.push(err50);
 }
 errors++;
 }
-}
-}
-else {
-const err51 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supply.type,parentSchema:schema11.properties.supply,data:data12};
+if(data14 < -100 || isNaN(data14)){
+const err51 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.negativeV,data:data14};
 if(vErrors === null){
 vErrors = [err51];
 }
@@ -645,11 +643,8 @@ vErrors.push(err51);
 errors++;
 }
 }
-if(data.gain !== undefined){
-let data15 = data.gain;
-if(data15 && typeof data15 == "object" && !Array.isArray(data15)){
-if(data15.target === undefined){
-const err52 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/required",keyword:"required",params:{missingProperty: "target"},message:"must have required property '"+"target"+"'",schema:schema11.properties.gain.required,parentSchema:schema11.properties.gain,data:data15};
+else {
+const err52 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.negativeV.type,parentSchema:schema11.properties.supply.properties.negativeV,data:data14};
 if(vErrors === null){
 vErrors = [err52];
 }
@@ -658,9 +653,10 @@ vErrors.push(err52);
 }
 errors++;
 }
-for(const key4 in data15){
-if(!(((key4 === "target") || (key4 === "tolerancePercent")) || (key4 === "output"))){
-const err53 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.gain,data:data15};
+}
+}
+else {
+const err53 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supply.type,parentSchema:schema11.properties.supply,data:data12};
 if(vErrors === null){
 vErrors = [err53];
 }
@@ -670,11 +666,11 @@ vErrors.push(err53);
 errors++;
 }
 }
-if(data15.target !== undefined){
-let data16 = data15.target;
-if(typeof data16 == "number"){
-if(data16 > 10000 || isNaN(data16)){
-const err54 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.gain.properties.target,data:data16};
+if(data.gain !== undefined){
+let data15 = data.gain;
+if(data15 && typeof data15 == "object" && !Array.isArray(data15)){
+if(data15.target === undefined){
+const err54 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/required",keyword:"required",params:{missingProperty: "target"},message:"must have required property '"+"target"+"'",schema:schema11.properties.gain.required,parentSchema:schema11.properties.gain,data:data15};
 if(vErrors === null){
 vErrors = [err54];
 }
@@ -683,8 +679,9 @@ vErrors.push(err54);
 }
 errors++;
 }
-if(data16 <= 0 || isNaN(data16)){
-const err55 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.gain.properties.target,data:data16};
+for(const key4 in data15){
+if(!(((key4 === "target") || (key4 === "tolerancePercent")) || (key4 === "output"))){
+const err55 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.gain,data:data15};
 if(vErrors === null){
 vErrors = [err55];
 }
@@ -694,8 +691,11 @@ vErrors.push(err55);
 errors++;
 }
 }
-else {
-const err56 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.target.type,parentSchema:schema11.properties.gain.properties.target,data:data16};
+if(data15.target !== undefined){
+let data16 = data15.target;
+if(typeof data16 == "number"){
+if(data16 > 10000 || isNaN(data16)){
+const err56 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.gain.properties.target,data:data16};
 if(vErrors === null){
 vErrors = [err56];
 }
@@ -704,12 +704,8 @@ vErrors.push(err56);
 }
 errors++;
 }
-}
-if(data15.tolerancePercent !== undefined){
-let data17 = data15.tolerancePercent;
-if(typeof data17 == "number"){
-if(data17 > 50 || isNaN(data17)){
-const err57 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data17};
+if(data16 <= 0 || isNaN(data16)){
+const err57 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.gain.properties.target,data:data16};
 if(vErrors === null){
 vErrors = [err57];
 }
@@ -718,8 +714,9 @@ vErrors.push(err57);
 }
 errors++;
 }
-if(data17 < 0.1 || isNaN(data17)){
-const err58 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data17};
+}
+else {
+const err58 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.target.type,parentSchema:schema11.properties.gain.properties.target,data:data16};
 if(vErrors === null){
 vErrors = [err58];
 }
@@ -729,8 +726,11 @@ vErrors.push(err58);
 errors++;
 }
 }
-else {
-const err59 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.tolerancePercent.type,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data17};
+if(data15.tolerancePercent !== undefined){
+let data17 = data15.tolerancePercent;
+if(typeof data17 == "number"){
+if(data17 > 50 || isNaN(data17)){
+const err59 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data17};
 if(vErrors === null){
 vErrors = [err59];
 }
@@ -739,11 +739,8 @@ vErrors.push(err59);
 }
 errors++;
 }
-}
-if(data15.output !== undefined){
-let data18 = data15.output;
-if(typeof data18 !== "string"){
-const err60 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.gain.properties.output.type,parentSchema:schema11.properties.gain.properties.output,data:data18};
+if(data17 < 0.1 || isNaN(data17)){
+const err60 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data17};
 if(vErrors === null){
 vErrors = [err60];
 }
@@ -752,8 +749,9 @@ vErrors.push(err60);
 }
 errors++;
 }
-if(!((data18 === "differential") || (data18 === "single-ended"))){
-const err61 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/enum",keyword:"enum",params:{allowedValues: schema11.properties.gain.properties.output.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.gain.properties.output.enum,parentSchema:schema11.properties.gain.properties.output,data:data18};
+}
+else {
+const err61 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.tolerancePercent.type,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data17};
 if(vErrors === null){
 vErrors = [err61];
 }
@@ -763,9 +761,10 @@ vErrors.push(err61);
 errors++;
 }
 }
-}
-else {
-const err62 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.gain.type,parentSchema:schema11.properties.gain,data:data15};
+if(data15.output !== undefined){
+let data18 = data15.output;
+if(typeof data18 !== "string"){
+const err62 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.gain.properties.output.type,parentSchema:schema11.properties.gain.properties.output,data:data18};
 if(vErrors === null){
 vErrors = [err62];
 }
@@ -774,12 +773,8 @@ vErrors.push(err62);
 }
 errors++;
 }
-}
-if(data.cmrr !== undefined){
-let data19 = data.cmrr;
-if(data19 && typeof data19 == "object" && !Array.isArray(data19)){
-if(data19.minDb === undefined){
-const err63 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/required",keyword:"required",params:{missingProperty: "minDb"},message:"must have required property '"+"minDb"+"'",schema:schema11.properties.cmrr.required,parentSchema:schema11.properties.cmrr,data:data19};
+if(!((data18 === "differential") || (data18 === "single-ended"))){
+const err63 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/enum",keyword:"enum",params:{allowedValues: schema11.properties.gain.properties.output.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.gain.properties.output.enum,parentSchema:schema11.properties.gain.properties.output,data:data18};
 if(vErrors === null){
 vErrors = [err63];
 }
@@ -788,9 +783,10 @@ vErrors.push(err63);
 }
 errors++;
 }
-for(const key5 in data19){
-if(!((((key5 === "minDb") || (key5 === "atFrequencyHz")) || (key5 === "marginDb")) || (key5 === "minYieldPercent"))){
-const err64 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.cmrr,data:data19};
+}
+}
+else {
+const err64 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.gain.type,parentSchema:schema11.properties.gain,data:data15};
 if(vErrors === null){
 vErrors = [err64];
 }
@@ -800,11 +796,11 @@ vErrors.push(err64);
 errors++;
 }
 }
-if(data19.minDb !== undefined){
-let data20 = data19.minDb;
-if(typeof data20 == "number"){
-if(data20 > 200 || isNaN(data20)){
-const err65 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.cmrr.properties.minDb,data:data20};
+if(data.cmrr !== undefined){
+let data19 = data.cmrr;
+if(data19 && typeof data19 == "object" && !Array.isArray(data19)){
+if(data19.minDb === undefined){
+const err65 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/required",keyword:"required",params:{missingProperty: "minDb"},message:"must have required property '"+"minDb"+"'",schema:schema11.properties.cmrr.required,parentSchema:schema11.properties.cmrr,data:data19};
 if(vErrors === null){
 vErrors = [err65];
 }
@@ -813,8 +809,9 @@ vErrors.push(err65);
 }
 errors++;
 }
-if(data20 < 0 || isNaN(data20)){
-const err66 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minDb,data:data20};
+for(const key5 in data19){
+if(!((((key5 === "minDb") || (key5 === "atFrequencyHz")) || (key5 === "marginDb")) || (key5 === "minYieldPercent"))){
+const err66 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.cmrr,data:data19};
 if(vErrors === null){
 vErrors = [err66];
 }
@@ -824,8 +821,11 @@ vErrors.push(err66);
 errors++;
 }
 }
-else {
-const err67 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minDb.type,parentSchema:schema11.properties.cmrr.properties.minDb,data:data20};
+if(data19.minDb !== undefined){
+let data20 = data19.minDb;
+if(typeof data20 == "number"){
+if(data20 > 200 || isNaN(data20)){
+const err67 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.cmrr.properties.minDb,data:data20};
 if(vErrors === null){
 vErrors = [err67];
 }
@@ -834,12 +834,8 @@ vErrors.push(err67);
 }
 errors++;
 }
-}
-if(data19.atFrequencyHz !== undefined){
-let data21 = data19.atFrequencyHz;
-if(typeof data21 == "number"){
-if(data21 > 1000000000 || isNaN(data21)){
-const err68 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data21};
+if(data20 < 0 || isNaN(data20)){
+const err68 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minDb,data:data20};
 if(vErrors === null){
 vErrors = [err68];
 }
@@ -848,8 +844,9 @@ vErrors.push(err68);
 }
 errors++;
 }
-if(data21 < 0 || isNaN(data21)){
-const err69 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data21};
+}
+else {
+const err69 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minDb.type,parentSchema:schema11.properties.cmrr.properties.minDb,data:data20};
 if(vErrors === null){
 vErrors = [err69];
 }
@@ -859,8 +856,11 @@ vErrors.push(err69);
 errors++;
 }
 }
-else {
-const err70 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.atFrequencyHz.type,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data21};
+if(data19.atFrequencyHz !== undefined){
+let data21 = data19.atFrequencyHz;
+if(typeof data21 == "number"){
+if(data21 > 1000000000 || isNaN(data21)){
+const err70 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data21};
 if(vErrors === null){
 vErrors = [err70];
 }
@@ -869,12 +869,8 @@ vErrors.push(err70);
 }
 errors++;
 }
-}
-if(data19.marginDb !== undefined){
-let data22 = data19.marginDb;
-if(typeof data22 == "number"){
-if(data22 > 40 || isNaN(data22)){
-const err71 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 40},message:"must be <= 40",schema:40,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data22};
+if(data21 < 0 || isNaN(data21)){
+const err71 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data21};
 if(vErrors === null){
 vErrors = [err71];
 }
@@ -883,8 +879,9 @@ vErrors.push(err71);
 }
 errors++;
 }
-if(data22 < 0 || isNaN(data22)){
-const err72 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data22};
+}
+else {
+const err72 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.atFrequencyHz.type,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data21};
 if(vErrors === null){
 vErrors = [err72];
 }
@@ -894,8 +891,11 @@ vErrors.push(err72);
 errors++;
 }
 }
-else {
-const err73 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.marginDb.type,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data22};
+if(data19.marginDb !== undefined){
+let data22 = data19.marginDb;
+if(typeof data22 == "number"){
+if(data22 > 40 || isNaN(data22)){
+const err73 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 40},message:"must be <= 40",schema:40,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data22};
 if(vErrors === null){
 vErrors = [err73];
 }
@@ -904,12 +904,8 @@ vErrors.push(err73);
 }
 errors++;
 }
-}
-if(data19.minYieldPercent !== undefined){
-let data23 = data19.minYieldPercent;
-if(typeof data23 == "number"){
-if(data23 > 100 || isNaN(data23)){
-const err74 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data23};
+if(data22 < 0 || isNaN(data22)){
+const err74 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data22};
 if(vErrors === null){
 vErrors = [err74];
 }
@@ -918,8 +914,9 @@ vErrors.push(err74);
 }
 errors++;
 }
-if(data23 < 0 || isNaN(data23)){
-const err75 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data23};
+}
+else {
+const err75 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.marginDb.type,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data22};
 if(vErrors === null){
 vErrors = [err75];
 }
@@ -929,8 +926,11 @@ vErrors.push(err75);
 errors++;
 }
 }
-else {
-const err76 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minYieldPercent.type,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data23};
+if(data19.minYieldPercent !== undefined){
+let data23 = data19.minYieldPercent;
+if(typeof data23 == "number"){
+if(data23 > 100 || isNaN(data23)){
+const err76 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data23};
 if(vErrors === null){
 vErrors = [err76];
 }
@@ -939,10 +939,8 @@ vErrors.push(err76);
 }
 errors++;
 }
-}
-}
-else {
-const err77 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.cmrr.type,parentSchema:schema11.properties.cmrr,data:data19};
+if(data23 < 0 || isNaN(data23)){
+const err77 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data23};
 if(vErrors === null){
 vErrors = [err77];
 }
@@ -952,12 +950,8 @@ vErrors.push(err77);
 errors++;
 }
 }
-if(data.inputCommonMode !== undefined){
-let data24 = data.inputCommonMode;
-if(data24 && typeof data24 == "object" && !Array.isArray(data24)){
-for(const key6 in data24){
-if(!((key6 === "minV") || (key6 === "maxV"))){
-const err78 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.inputCommonMode,data:data24};
+else {
+const err78 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minYieldPercent.type,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data23};
 if(vErrors === null){
 vErrors = [err78];
 }
@@ -967,11 +961,9 @@ vErrors.push(err78);
 errors++;
 }
 }
-if(data24.minV !== undefined){
-let data25 = data24.minV;
-if(typeof data25 == "number"){
-if(data25 > 100 || isNaN(data25)){
-const err79 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data25};
+}
+else {
+const err79 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.cmrr.type,parentSchema:schema11.properties.cmrr,data:data19};
 if(vErrors === null){
 vErrors = [err79];
 }
@@ -980,8 +972,13 @@ vErrors.push(err79);
 }
 errors++;
 }
-if(data25 < -100 || isNaN(data25)){
-const err80 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data25};
+}
+if(data.inputCommonMode !== undefined){
+let data24 = data.inputCommonMode;
+if(data24 && typeof data24 == "object" && !Array.isArray(data24)){
+for(const key6 in data24){
+if(!((key6 === "minV") || (key6 === "maxV"))){
+const err80 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.inputCommonMode,data:data24};
 if(vErrors === null){
 vErrors = [err80];
 }
@@ -991,8 +988,11 @@ vErrors.push(err80);
 errors++;
 }
 }
-else {
-const err81 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.minV.type,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data25};
+if(data24.minV !== undefined){
+let data25 = data24.minV;
+if(typeof data25 == "number"){
+if(data25 > 100 || isNaN(data25)){
+const err81 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data25};
 if(vErrors === null){
 vErrors = [err81];
 }
@@ -1001,12 +1001,8 @@ vErrors.push(err81);
 }
 errors++;
 }
-}
-if(data24.maxV !== undefined){
-let data26 = data24.maxV;
-if(typeof data26 == "number"){
-if(data26 > 100 || isNaN(data26)){
-const err82 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data26};
+if(data25 < -100 || isNaN(data25)){
+const err82 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data25};
 if(vErrors === null){
 vErrors = [err82];
 }
@@ -1015,8 +1011,9 @@ vErrors.push(err82);
 }
 errors++;
 }
-if(data26 < -100 || isNaN(data26)){
-const err83 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data26};
+}
+else {
+const err83 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.minV.type,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data25};
 if(vErrors === null){
 vErrors = [err83];
 }
@@ -1026,8 +1023,11 @@ vErrors.push(err83);
 errors++;
 }
 }
-else {
-const err84 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.maxV.type,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data26};
+if(data24.maxV !== undefined){
+let data26 = data24.maxV;
+if(typeof data26 == "number"){
+if(data26 > 100 || isNaN(data26)){
+const err84 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data26};
 if(vErrors === null){
 vErrors = [err84];
 }
@@ -1036,10 +1036,8 @@ vErrors.push(err84);
 }
 errors++;
 }
-}
-}
-else {
-const err85 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.inputCommonMode.type,parentSchema:schema11.properties.inputCommonMode,data:data24};
+if(data26 < -100 || isNaN(data26)){
+const err85 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data26};
 if(vErrors === null){
 vErrors = [err85];
 }
@@ -1049,11 +1047,8 @@ vErrors.push(err85);
 errors++;
 }
 }
-if(data.outputSwingVpp !== undefined){
-let data27 = data.outputSwingVpp;
-if(typeof data27 == "number"){
-if(data27 > 200 || isNaN(data27)){
-const err86 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.outputSwingVpp,data:data27};
+else {
+const err86 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.maxV.type,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data26};
 if(vErrors === null){
 vErrors = [err86];
 }
@@ -1062,8 +1057,10 @@ vErrors.push(err86);
 }
 errors++;
 }
-if(data27 < 0 || isNaN(data27)){
-const err87 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.outputSwingVpp,data:data27};
+}
+}
+else {
+const err87 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.inputCommonMode.type,parentSchema:schema11.properties.inputCommonMode,data:data24};
 if(vErrors === null){
 vErrors = [err87];
 }
@@ -1073,8 +1070,11 @@ vErrors.push(err87);
 errors++;
 }
 }
-else {
-const err88 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingVpp.type,parentSchema:schema11.properties.outputSwingVpp,data:data27};
+if(data.outputSwingVpp !== undefined){
+let data27 = data.outputSwingVpp;
+if(typeof data27 == "number"){
+if(data27 > 200 || isNaN(data27)){
+const err88 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.outputSwingVpp,data:data27};
 if(vErrors === null){
 vErrors = [err88];
 }
@@ -1083,12 +1083,8 @@ vErrors.push(err88);
 }
 errors++;
 }
-}
-if(data.powerBudgetW !== undefined){
-let data28 = data.powerBudgetW;
-if(typeof data28 == "number"){
-if(data28 <= 0 || isNaN(data28)){
-const err89 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.powerBudgetW,data:data28};
+if(data27 < 0 || isNaN(data27)){
+const err89 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.outputSwingVpp,data:data27};
 if(vErrors === null){
 vErrors = [err89];
 }
@@ -1099,7 +1095,7 @@ errors++;
 }
 }
 else {
-const err90 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.powerBudgetW.type,parentSchema:schema11.properties.powerBudgetW,data:data28};
+const err90 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingVpp.type,parentSchema:schema11.properties.outputSwingVpp,data:data27};
 if(vErrors === null){
 vErrors = [err90];
 }
@@ -1109,11 +1105,11 @@ vErrors.push(err90);
 errors++;
 }
 }
-if(data.tailCurrentA !== undefined){
-let data29 = data.tailCurrentA;
-if(typeof data29 == "number"){
-if(data29 > 0.1 || isNaN(data29)){
-const err91 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.tailCurrentA,data:data29};
+if(data.powerBudgetW !== undefined){
+let data28 = data.powerBudgetW;
+if(typeof data28 == "number"){
+if(data28 <= 0 || isNaN(data28)){
+const err91 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.powerBudgetW,data:data28};
 if(vErrors === null){
 vErrors = [err91];
 }
@@ -1122,8 +1118,9 @@ vErrors.push(err91);
 }
 errors++;
 }
-if(data29 < 1e-7 || isNaN(data29)){
-const err92 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-7},message:"must be >= 1e-7",schema:1e-7,parentSchema:schema11.properties.tailCurrentA,data:data29};
+}
+else {
+const err92 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.powerBudgetW.type,parentSchema:schema11.properties.powerBudgetW,data:data28};
 if(vErrors === null){
 vErrors = [err92];
 }
@@ -1133,8 +1130,11 @@ vErrors.push(err92);
 errors++;
 }
 }
-else {
-const err93 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCurrentA.type,parentSchema:schema11.properties.tailCurrentA,data:data29};
+if(data.tailCurrentA !== undefined){
+let data29 = data.tailCurrentA;
+if(typeof data29 == "number"){
+if(data29 > 0.1 || isNaN(data29)){
+const err93 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.tailCurrentA,data:data29};
 if(vErrors === null){
 vErrors = [err93];
 }
@@ -1143,13 +1143,8 @@ vErrors.push(err93);
 }
 errors++;
 }
-}
-if(data.temperatureC !== undefined){
-let data30 = data.temperatureC;
-if(data30 && typeof data30 == "object" && !Array.isArray(data30)){
-for(const key7 in data30){
-if(!((key7 === "min") || (key7 === "max"))){
-const err94 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.temperatureC,data:data30};
+if(data29 < 1e-7 || isNaN(data29)){
+const err94 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-7},message:"must be >= 1e-7",schema:1e-7,parentSchema:schema11.properties.tailCurrentA,data:data29};
 if(vErrors === null){
 vErrors = [err94];
 }
@@ -1159,11 +1154,8 @@ vErrors.push(err94);
 errors++;
 }
 }
-if(data30.min !== undefined){
-let data31 = data30.min;
-if(typeof data31 == "number"){
-if(data31 > 150 || isNaN(data31)){
-const err95 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.min,data:data31};
+else {
+const err95 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCurrentA.type,parentSchema:schema11.properties.tailCurrentA,data:data29};
 if(vErrors === null){
 vErrors = [err95];
 }
@@ -1172,8 +1164,13 @@ vErrors.push(err95);
 }
 errors++;
 }
-if(data31 < -55 || isNaN(data31)){
-const err96 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.min,data:data31};
+}
+if(data.temperatureC !== undefined){
+let data30 = data.temperatureC;
+if(data30 && typeof data30 == "object" && !Array.isArray(data30)){
+for(const key7 in data30){
+if(!((key7 === "min") || (key7 === "max"))){
+const err96 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.temperatureC,data:data30};
 if(vErrors === null){
 vErrors = [err96];
 }
@@ -1183,8 +1180,11 @@ vErrors.push(err96);
 errors++;
 }
 }
-else {
-const err97 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.min.type,parentSchema:schema11.properties.temperatureC.properties.min,data:data31};
+if(data30.min !== undefined){
+let data31 = data30.min;
+if(typeof data31 == "number"){
+if(data31 > 150 || isNaN(data31)){
+const err97 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.min,data:data31};
 if(vErrors === null){
 vErrors = [err97];
 }
@@ -1193,12 +1193,8 @@ vErrors.push(err97);
 }
 errors++;
 }
-}
-if(data30.max !== undefined){
-let data32 = data30.max;
-if(typeof data32 == "number"){
-if(data32 > 150 || isNaN(data32)){
-const err98 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.max,data:data32};
+if(data31 < -55 || isNaN(data31)){
+const err98 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.min,data:data31};
 if(vErrors === null){
 vErrors = [err98];
 }
@@ -1207,8 +1203,9 @@ vErrors.push(err98);
 }
 errors++;
 }
-if(data32 < -55 || isNaN(data32)){
-const err99 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.max,data:data32};
+}
+else {
+const err99 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.min.type,parentSchema:schema11.properties.temperatureC.properties.min,data:data31};
 if(vErrors === null){
 vErrors = [err99];
 }
@@ -1218,8 +1215,11 @@ vErrors.push(err99);
 errors++;
 }
 }
-else {
-const err100 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.max.type,parentSchema:schema11.properties.temperatureC.properties.max,data:data32};
+if(data30.max !== undefined){
+let data32 = data30.max;
+if(typeof data32 == "number"){
+if(data32 > 150 || isNaN(data32)){
+const err100 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.max,data:data32};
 if(vErrors === null){
 vErrors = [err100];
 }
@@ -1228,10 +1228,8 @@ vErrors.push(err100);
 }
 errors++;
 }
-}
-}
-else {
-const err101 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.temperatureC.type,parentSchema:schema11.properties.temperatureC,data:data30};
+if(data32 < -55 || isNaN(data32)){
+const err101 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.max,data:data32};
 if(vErrors === null){
 vErrors = [err101];
 }
@@ -1241,12 +1239,8 @@ vErrors.push(err101);
 errors++;
 }
 }
-if(data.resistors !== undefined){
-let data33 = data.resistors;
-if(data33 && typeof data33 == "object" && !Array.isArray(data33)){
-for(const key8 in data33){
-if(!((key8 === "series") || (key8 === "tolerance"))){
-const err102 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key8},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.resistors,data:data33};
+else {
+const err102 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.max.type,parentSchema:schema11.properties.temperatureC.properties.max,data:data32};
 if(vErrors === null){
 vErrors = [err102];
 }
@@ -1256,10 +1250,9 @@ vErrors.push(err102);
 errors++;
 }
 }
-if(data33.series !== undefined){
-let data34 = data33.series;
-if(typeof data34 !== "string"){
-const err103 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.resistors.properties.series.type,parentSchema:schema11.properties.resistors.properties.series,data:data34};
+}
+else {
+const err103 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.temperatureC.type,parentSchema:schema11.properties.temperatureC,data:data30};
 if(vErrors === null){
 vErrors = [err103];
 }
@@ -1268,8 +1261,13 @@ vErrors.push(err103);
 }
 errors++;
 }
-if(!(((data34 === "E24") || (data34 === "E96")) || (data34 === "E192"))){
-const err104 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/enum",keyword:"enum",params:{allowedValues: schema11.properties.resistors.properties.series.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.resistors.properties.series.enum,parentSchema:schema11.properties.resistors.properties.series,data:data34};
+}
+if(data.resistors !== undefined){
+let data33 = data.resistors;
+if(data33 && typeof data33 == "object" && !Array.isArray(data33)){
+for(const key8 in data33){
+if(!((key8 === "series") || (key8 === "tolerance"))){
+const err104 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key8},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.resistors,data:data33};
 if(vErrors === null){
 vErrors = [err104];
 }
@@ -1279,11 +1277,10 @@ vErrors.push(err104);
 errors++;
 }
 }
-if(data33.tolerance !== undefined){
-let data35 = data33.tolerance;
-if(typeof data35 == "number"){
-if(data35 > 0.2 || isNaN(data35)){
-const err105 = {instancePath:instancePath+"/resistors/tolerance",schemaPath:"#/properties/resistors/properties/tolerance/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.2},message:"must be <= 0.2",schema:0.2,parentSchema:schema11.properties.resistors.properties.tolerance,data:data35};
+if(data33.series !== undefined){
+let data34 = data33.series;
+if(typeof data34 !== "string"){
+const err105 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.resistors.properties.series.type,parentSchema:schema11.properties.resistors.properties.series,data:data34};
 if(vErrors === null){
 vErrors = [err105];
 }
@@ -1292,8 +1289,8 @@ vErrors.push(err105);
 }
 errors++;
 }
-if(data35 < 0.0005 || isNaN(data35)){
-const err106 = {instancePath:instancePath+"/resistors/tolerance",schemaPath:"#/properties/resistors/properties/tolerance/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.0005},message:"must be >= 0.0005",schema:0.0005,parentSchema:schema11.properties.resistors.properties.tolerance,data:data35};
+if(!(((data34 === "E24") || (data34 === "E96")) || (data34 === "E192"))){
+const err106 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/enum",keyword:"enum",params:{allowedValues: schema11.properties.resistors.properties.series.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.resistors.properties.series.enum,parentSchema:schema11.properties.resistors.properties.series,data:data34};
 if(vErrors === null){
 vErrors = [err106];
 }
@@ -1303,8 +1300,11 @@ vErrors.push(err106);
 errors++;
 }
 }
-else {
-const err107 = {instancePath:instancePath+"/resistors/tolerance",schemaPath:"#/properties/resistors/properties/tolerance/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tolerance.type,parentSchema:schema11.properties.resistors.properties.tolerance,data:data35};
+if(data33.tolerance !== undefined){
+let data35 = data33.tolerance;
+if(typeof data35 == "number"){
+if(data35 > 0.2 || isNaN(data35)){
+const err107 = {instancePath:instancePath+"/resistors/tolerance",schemaPath:"#/properties/resistors/properties/tolerance/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.2},message:"must be <= 0.2",schema:0.2,parentSchema:schema11.properties.resistors.properties.tolerance,data:data35};
 if(vErrors === null){
 vErrors = [err107];
 }
@@ -1313,10 +1313,8 @@ vErrors.push(err107);
 }
 errors++;
 }
-}
-}
-else {
-const err108 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.resistors.type,parentSchema:schema11.properties.resistors,data:data33};
+if(data35 < 0.0005 || isNaN(data35)){
+const err108 = {instancePath:instancePath+"/resistors/tolerance",schemaPath:"#/properties/resistors/properties/tolerance/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.0005},message:"must be >= 0.0005",schema:0.0005,parentSchema:schema11.properties.resistors.properties.tolerance,data:data35};
 if(vErrors === null){
 vErrors = [err108];
 }
@@ -1326,11 +1324,8 @@ vErrors.push(err108);
 errors++;
 }
 }
-if(data.tailCapacitanceF !== undefined){
-let data36 = data.tailCapacitanceF;
-if(typeof data36 == "number"){
-if(data36 > 1e-9 || isNaN(data36)){
-const err109 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.tailCapacitanceF,data:data36};
+else {
+const err109 = {instancePath:instancePath+"/resistors/tolerance",schemaPath:"#/properties/resistors/properties/tolerance/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tolerance.type,parentSchema:schema11.properties.resistors.properties.tolerance,data:data35};
 if(vErrors === null){
 vErrors = [err109];
 }
@@ -1339,8 +1334,10 @@ vErrors.push(err109);
 }
 errors++;
 }
-if(data36 < 0 || isNaN(data36)){
-const err110 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.tailCapacitanceF,data:data36};
+}
+}
+else {
+const err110 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.resistors.type,parentSchema:schema11.properties.resistors,data:data33};
 if(vErrors === null){
 vErrors = [err110];
 }
@@ -1350,8 +1347,11 @@ vErrors.push(err110);
 errors++;
 }
 }
-else {
-const err111 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCapacitanceF.type,parentSchema:schema11.properties.tailCapacitanceF,data:data36};
+if(data.tailCapacitanceF !== undefined){
+let data36 = data.tailCapacitanceF;
+if(typeof data36 == "number"){
+if(data36 > 1e-9 || isNaN(data36)){
+const err111 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.tailCapacitanceF,data:data36};
 if(vErrors === null){
 vErrors = [err111];
 }
@@ -1360,12 +1360,8 @@ vErrors.push(err111);
 }
 errors++;
 }
-}
-if(data.topologies !== undefined){
-let data37 = data.topologies;
-if(Array.isArray(data37)){
-if(data37.length < 1){
-const err112 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data37};
+if(data36 < 0 || isNaN(data36)){
+const err112 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.tailCapacitanceF,data:data36};
 if(vErrors === null){
 vErrors = [err112];
 }
@@ -1374,11 +1370,9 @@ vErrors.push(err112);
 }
 errors++;
 }
-const len0 = data37.length;
-for(let i0=0; i0<len0; i0++){
-let data38 = data37[i0];
-if(typeof data38 !== "string"){
-const err113 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data38};
+}
+else {
+const err113 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCapacitanceF.type,parentSchema:schema11.properties.tailCapacitanceF,data:data36};
 if(vErrors === null){
 vErrors = [err113];
 }
@@ -1387,13 +1381,40 @@ vErrors.push(err113);
 }
 errors++;
 }
-if(!((((((data38 === "resistor") || (data38 === "simple-mirror")) || (data38 === "degenerated-mirror")) || (data38 === "widlar")) || (data38 === "wilson")) || (data38 === "cascode"))){
-const err114 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data38};
+}
+if(data.topologies !== undefined){
+let data37 = data.topologies;
+if(Array.isArray(data37)){
+if(data37.length < 1){
+const err114 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data37};
 if(vErrors === null){
 vErrors = [err114];
 }
 else {
 vErrors.push(err114);
+}
+errors++;
+}
+const len0 = data37.length;
+for(let i0=0; i0<len0; i0++){
+let data38 = data37[i0];
+if(typeof data38 !== "string"){
+const err115 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data38};
+if(vErrors === null){
+vErrors = [err115];
+}
+else {
+vErrors.push(err115);
+}
+errors++;
+}
+if(!((((((data38 === "resistor") || (data38 === "simple-mirror")) || (data38 === "degenerated-mirror")) || (data38 === "widlar")) || (data38 === "wilson")) || (data38 === "cascode"))){
+const err116 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data38};
+if(vErrors === null){
+vErrors = [err116];
+}
+else {
+vErrors.push(err116);
 }
 errors++;
 }
@@ -1409,12 +1430,12 @@ continue;
 }
 if(typeof indices0[item0] == "number"){
 j0 = indices0[item0];
-const err115 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data37};
+const err117 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data37};
 if(vErrors === null){
-vErrors = [err115];
+vErrors = [err117];
 }
 else {
-vErrors.push(err115);
+vErrors.push(err117);
 }
 errors++;
 break;
@@ -1424,30 +1445,7 @@ indices0[item0] = i1;
 }
 }
 else {
-const err116 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data37};
-if(vErrors === null){
-vErrors = [err116];
-}
-else {
-vErrors.push(err116);
-}
-errors++;
-}
-}
-if(data.policy !== undefined){
-let data39 = data.policy;
-if(typeof data39 !== "string"){
-const err117 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data39};
-if(vErrors === null){
-vErrors = [err117];
-}
-else {
-vErrors.push(err117);
-}
-errors++;
-}
-if(!((data39 === "simplest-sufficient") || (data39 === "highest-rejection"))){
-const err118 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data39};
+const err118 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data37};
 if(vErrors === null){
 vErrors = [err118];
 }
@@ -1457,12 +1455,10 @@ vErrors.push(err118);
 errors++;
 }
 }
-if(data.hazards !== undefined){
-let data40 = data.hazards;
-if(data40 && typeof data40 == "object" && !Array.isArray(data40)){
-for(const key9 in data40){
-if(!((key9 === "patientConnected") || (key9 === "mainsReferenced"))){
-const err119 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data40};
+if(data.policy !== undefined){
+let data39 = data.policy;
+if(typeof data39 !== "string"){
+const err119 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data39};
 if(vErrors === null){
 vErrors = [err119];
 }
@@ -1471,11 +1467,8 @@ vErrors.push(err119);
 }
 errors++;
 }
-}
-if(data40.patientConnected !== undefined){
-let data41 = data40.patientConnected;
-if(typeof data41 !== "boolean"){
-const err120 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data41};
+if(!((data39 === "simplest-sufficient") || (data39 === "highest-rejection"))){
+const err120 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data39};
 if(vErrors === null){
 vErrors = [err120];
 }
@@ -1485,10 +1478,12 @@ vErrors.push(err120);
 errors++;
 }
 }
-if(data40.mainsReferenced !== undefined){
-let data42 = data40.mainsReferenced;
-if(typeof data42 !== "boolean"){
-const err121 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data42};
+if(data.hazards !== undefined){
+let data40 = data.hazards;
+if(data40 && typeof data40 == "object" && !Array.isArray(data40)){
+for(const key9 in data40){
+if(!((key9 === "patientConnected") || (key9 === "mainsReferenced"))){
+const err121 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data40};
 if(vErrors === null){
 vErrors = [err121];
 }
@@ -1498,9 +1493,10 @@ vErrors.push(err121);
 errors++;
 }
 }
-}
-else {
-const err122 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data40};
+if(data40.patientConnected !== undefined){
+let data41 = data40.patientConnected;
+if(typeof data41 !== "boolean"){
+const err122 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data41};
 if(vErrors === null){
 vErrors = [err122];
 }
@@ -1510,12 +1506,10 @@ vErrors.push(err122);
 errors++;
 }
 }
-if(data.monteCarlo !== undefined){
-let data43 = data.monteCarlo;
-if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
-for(const key10 in data43){
-if(!((key10 === "samples") || (key10 === "seed"))){
-const err123 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data43};
+if(data40.mainsReferenced !== undefined){
+let data42 = data40.mainsReferenced;
+if(typeof data42 !== "boolean"){
+const err123 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data42};
 if(vErrors === null){
 vErrors = [err123];
 }
@@ -1525,10 +1519,9 @@ vErrors.push(err123);
 errors++;
 }
 }
-if(data43.samples !== undefined){
-let data44 = data43.samples;
-if(!((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44)))){
-const err124 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
+}
+else {
+const err124 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data40};
 if(vErrors === null){
 vErrors = [err124];
 }
@@ -1537,9 +1530,13 @@ vErrors.push(err124);
 }
 errors++;
 }
-if(typeof data44 == "number"){
-if(data44 > 100000 || isNaN(data44)){
-const err125 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
+}
+if(data.monteCarlo !== undefined){
+let data43 = data.monteCarlo;
+if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
+for(const key10 in data43){
+if(!((key10 === "samples") || (key10 === "seed"))){
+const err125 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data43};
 if(vErrors === null){
 vErrors = [err125];
 }
@@ -1548,8 +1545,11 @@ vErrors.push(err125);
 }
 errors++;
 }
-if(data44 < 100 || isNaN(data44)){
-const err126 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
+}
+if(data43.samples !== undefined){
+let data44 = data43.samples;
+if(!((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44)))){
+const err126 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
 if(vErrors === null){
 vErrors = [err126];
 }
@@ -1558,12 +1558,9 @@ vErrors.push(err126);
 }
 errors++;
 }
-}
-}
-if(data43.seed !== undefined){
-let data45 = data43.seed;
-if(!((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45)))){
-const err127 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
+if(typeof data44 == "number"){
+if(data44 > 100000 || isNaN(data44)){
+const err127 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
 if(vErrors === null){
 vErrors = [err127];
 }
@@ -1572,9 +1569,8 @@ vErrors.push(err127);
 }
 errors++;
 }
-if(typeof data45 == "number"){
-if(data45 > 4294967295 || isNaN(data45)){
-const err128 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
+if(data44 < 100 || isNaN(data44)){
+const err128 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -1583,8 +1579,12 @@ vErrors.push(err128);
 }
 errors++;
 }
-if(data45 < 0 || isNaN(data45)){
-const err129 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
+}
+}
+if(data43.seed !== undefined){
+let data45 = data43.seed;
+if(!((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45)))){
+const err129 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
 if(vErrors === null){
 vErrors = [err129];
 }
@@ -1593,11 +1593,9 @@ vErrors.push(err129);
 }
 errors++;
 }
-}
-}
-}
-else {
-const err130 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data43};
+if(typeof data45 == "number"){
+if(data45 > 4294967295 || isNaN(data45)){
+const err130 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
 if(vErrors === null){
 vErrors = [err130];
 }
@@ -1606,10 +1604,8 @@ vErrors.push(err130);
 }
 errors++;
 }
-}
-}
-else {
-const err131 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(data45 < 0 || isNaN(data45)){
+const err131 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -1618,12 +1614,37 @@ vErrors.push(err131);
 }
 errors++;
 }
+}
+}
+}
+else {
+const err132 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data43};
+if(vErrors === null){
+vErrors = [err132];
+}
+else {
+vErrors.push(err132);
+}
+errors++;
+}
+}
+}
+else {
+const err133 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(vErrors === null){
+vErrors = [err133];
+}
+else {
+vErrors.push(err133);
+}
+errors++;
+}
 validate10.errors = vErrors;
 return errors === 0;
 }
 
 /** Hash (rjsf's hashForSchema) of the schema these validators were compiled from. */
-export const SPEC_SCHEMA_HASH = "-6a6c2a4";
+export const SPEC_SCHEMA_HASH = "cd919d1";
 
 /** rjsf precompiled validator functions, by schema $id. */
 export const SPEC_VALIDATORS = {
