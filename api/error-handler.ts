@@ -1,6 +1,7 @@
 /**
  * The one error middleware: an AppError answers with its status and details; a body too large
- * answers 413, malformed JSON 400; anything else is a generic 500, its stack logged only.
+ * answers 413, malformed JSON 400, a path parameter with a malformed percent-escape 400;
+ * anything else is a generic 500, its stack logged only.
  */
 import type { ErrorRequestHandler } from 'express';
 import { AppError } from './errors';
@@ -24,6 +25,11 @@ export function errorHandler(log: (message: string) => void = (m) => console.err
     }
     if (http.type === 'entity.parse.failed') {
       res.status(400).json({ error: 'The request body is not valid JSON.', code: 'malformed-json', details: [{ path: '', message: 'is not valid JSON' }] });
+      return;
+    }
+    // Express's router could not percent-decode a path parameter ("%E0%A4%A", "%zz"): the client's address is wrong
+    if (error instanceof URIError && http.status === 400) {
+      res.status(400).json({ error: 'The address has a malformed percent-escape.', code: 'malformed-url', details: [{ path: '', message: 'a "%" in the address must be followed by two hexadecimal digits that spell UTF-8' }] });
       return;
     }
     if (http.expose && typeof http.status === 'number' && http.status >= 400 && http.status < 500) {

@@ -3,14 +3,15 @@
  * (anyone who sees the project), `POST` uploads one CSV as multipart/form-data in the field
  * `file`, with an optional `note` field ('measurements:write': designers and reviewers), and
  * `GET /:measurementId/file` answers the original bytes, always as a text/csv attachment that the
- * browser may not sniff into anything else. The CSRF header applies as to every state-changing request.
+ * browser may not sniff into anything else, with any cell a spreadsheet would run as a formula
+ * given a leading apostrophe (`spreadsheetSafeDelimited`; the figures are numbers, unchanged). The CSRF header applies as to every state-changing request.
  */
 import { Router, type Request, type RequestHandler } from 'express';
 import multer from 'multer';
 import type { DataSource } from 'typeorm';
 import { MEASUREMENT_FILE_MAX_BYTES } from '../../shared/measurements/measurement-csv';
 import { MEASUREMENT_NOTE_MAX_LENGTH } from '../../shared/measurements/types';
-import { unsafeTextMessage } from '../../shared/text/plain-text';
+import { spreadsheetSafeDelimited, unsafeTextMessage } from '../../shared/text/plain-text';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { AppError, invalid } from '../errors';
 import { listMeasurements, measurementFile, uploadMeasurement } from '../services/measurements.service';
@@ -80,7 +81,9 @@ export function measurementsRoutes(dataSource: DataSource, uploadsDir: string): 
   });
   router.get('/:measurementId/file', async (req, res) => {
     const { bytes, downloadName } = await measurementFile(dataSource, uploadsDir, currentUser(req), proposalIdOf(req), idParam(req.params.measurementId, 'measurement'));
-    // Whatever was uploaded, it goes back as a CSV download: never rendered, never sniffed.
+    // Whatever was uploaded, it goes back as a CSV download: never rendered, never sniffed, and
+    // with every cell a spreadsheet would run as a formula neutralised (figures are numbers and stay as uploaded).
+    const safe = Buffer.from(spreadsheetSafeDelimited(bytes.toString('utf8')), 'utf8');
     res.set({
       'Content-Type': 'text/csv; charset=utf-8',
       'Content-Disposition': `attachment; filename="${downloadName}"`,
@@ -88,7 +91,7 @@ export function measurementsRoutes(dataSource: DataSource, uploadsDir: string): 
       'Content-Security-Policy': "default-src 'none'; sandbox",
       'Cache-Control': 'private, no-store',
     });
-    res.send(bytes);
+    res.send(safe);
   });
   return router;
 }

@@ -108,3 +108,19 @@ export function spreadsheetSafe(text: string): string {
 export function spreadsheetCell(text: string): string {
   return spreadsheetSafe(singleLine(text));
 }
+
+/** A number a spreadsheet reads as a number ("-3.5", "+2", "1e-3"): left as it is. */
+const PLAIN_NUMBER = /^\s*[+-]?(?:\d+\.?\d*|\.\d+)(?:e[+-]?\d+)?\s*$/i;
+/** Where a spreadsheet cell starts: line start (after a byte-order mark) or a delimiter (comma, semicolon, tab), then blanks and an optional quote. */
+const CELL_START = /(^\uFEFF?|[,;\t])([ ]*"?)([=+\-@][^,;\t\r\n"]*)/gm;
+
+/**
+ * Delimited text as stored (an uploaded CSV), made safe to open in a spreadsheet: every cell
+ * that starts with =, +, - or @ and is not a plain number gets a leading apostrophe (OWASP, "CSV
+ * Injection"); numbers, and files without such cells, come back byte for byte. Cells are found
+ * after each comma, semicolon and tab, with or without an opening quote, so a quoted cell that
+ * holds a delimiter may gain an apostrophe inside it too (harmless in text, never in a figure).
+ */
+export function spreadsheetSafeDelimited(text: string): string {
+  return text.replace(CELL_START, (whole, start: string, opening: string, cell: string) => (PLAIN_NUMBER.test(cell) ? whole : `${start}${opening}'${cell}`));
+}

@@ -6,7 +6,8 @@
  * project names and descriptions, display names, spec titles, decision reasons, review comments,
  * device-library card comments and file names. Each is read back through the API and must be
  * byte-identical (the server trims surrounding blanks, so no corpus string has any); a value
- * over its field's limit must be refused with 400; an uploaded file name must come back as a
+ * over its field's limit, or holding a control character or bidi override (LF is allowed in
+ * multi-line fields), must be refused with 400; an uploaded file name must come back as a
  * printable base name (no / or \, no control characters, at most 255 characters) and unchanged
  * when it already was one.
  *
@@ -26,6 +27,7 @@ import { createApp } from '../../api/app';
 import { openDatabase } from '../../api/data-source';
 import { seedDemo } from '../../api/seed/demo-seed';
 import { loadRuleSet } from '../../rules/index';
+import { firstUnsafeCharacter } from '../../shared/text/plain-text';
 import { specPayload } from '../helpers/api-app';
 import { launchBrowser, networkQuiet, newContext } from '../e2e/helpers/browser';
 import { DEMO_PASSWORD } from '../e2e/helpers/server';
@@ -89,6 +91,8 @@ const UPLOAD_NAMES = [
 interface Field {
   name: string;
   max: number;
+  /** Multi-line text: LF line breaks are stored; other control characters and bidi overrides are refused (400) in every field. */
+  multiline?: boolean;
   /** Stores the value; answers the HTTP status and a function reading it back. */
   store: (value: string, i: number) => Promise<{ status: number; text?: string; read?: () => Promise<string | null> }>;
 }
@@ -151,6 +155,7 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
       },
       {
         name: 'project description',
+        multiline: true,
         max: 4000,
         store: async (value, i) => {
           const answer = await admin.request('POST', '/api/projects', { name: `Corpus description ${i}`, description: value });
@@ -186,6 +191,7 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
       },
       {
         name: 'decision reason',
+        multiline: true,
         max: 4000,
         store: async (value) => {
           if (state === 'decided' && (await reviewer.request('POST', `/api/proposals/${proposal.id}/review`, { verdict: 'return', comment: 'Returned so the next corpus reason can be stored.' })).status === 201) state = 'returned';
@@ -197,6 +203,7 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
       },
       {
         name: 'review comment',
+        multiline: true,
         max: 4000,
         store: async (value) => {
           if (state !== 'decided') {
@@ -218,13 +225,18 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
     let unexpectedStatus = 0;
     const problems: string[] = [];
     for (const field of fields) {
-      const values = [...CORPUS.map((value) => ({ value, expect: 'stored' as const })), { value: '€'.repeat(field.max), expect: 'stored' as const }, { value: `${'€'.repeat(field.max)}x`, expect: 'refused' as const }];
+      const values = [
+        ...CORPUS.map((value) => ({ value, expect: firstUnsafeCharacter(value, field.multiline) ? ('refused' as const) : ('stored' as const) })),
+        ...(field.multiline ? [{ value: 'Line\nbreak\nkept', expect: 'stored' as const }] : []),
+        { value: '€'.repeat(field.max), expect: 'stored' as const },
+        { value: `${'€'.repeat(field.max)}x`, expect: 'refused' as const },
+      ];
       for (const [i, { value, expect }] of values.entries()) {
         const { status, read, text } = await field.store(value, i);
         if (expect === 'refused') {
           if (status !== 400) {
             overlongAccepted += 1;
-            problems.push(`${field.name}: ${field.max + 1} characters answered ${status}, not 400`);
+            problems.push(`${field.name}: ${JSON.stringify(value).slice(0, 60)} (${[...value].length} characters) answered ${status}, not 400`);
           }
           continue;
         }
@@ -287,7 +299,7 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
     rows.push(
       row(PART, 'corpus values stored', stored, `> 0, all of them`, stored > 0 && unexpectedStatus === 0),
       row(PART, 'corpus values read back changed', changed, '0', changed === 0),
-      row(PART, 'over-limit values accepted', overlongAccepted, '0', overlongAccepted === 0),
+      row(PART, 'over-limit or control-character values accepted', overlongAccepted, '0', overlongAccepted === 0),
       row(PART, 'upload names not a safe base name', badNames, '0', badNames === 0 && uploads > 0),
       row(PART, 'tables intact after SQL strings', tablesOk ? 'yes' : 'no', 'yes', tablesOk),
     );

@@ -15,6 +15,7 @@ import {
   firstUnsafeCharacter,
   singleLine,
   spreadsheetCell,
+  spreadsheetSafeDelimited,
 } from '../../../shared/text/plain-text';
 
 /** Every code point the refusal covers, listed from the standards rather than from the module. */
@@ -81,6 +82,19 @@ describe('spreadsheet cells (OWASP CSV injection)', () => {
     ['Tarn probe', 'Tarn probe'],
   ])('%j is written %j', (text, written) => {
     expect(spreadsheetCell(text)).toBe(written);
+  });
+});
+
+describe('delimited text opened in a spreadsheet', () => {
+  test.each([
+    ['frequency_hz,gain_db\n10,-3.5\n100,+2\n1k,-1e-1\n', 'frequency_hz,gain_db\n10,-3.5\n100,+2\n1k,-1e-1\n'],
+    ['# note,=1+1', "# note,'=1+1"],
+    ['# note;"=HYPERLINK(1)"', `# note;"'=HYPERLINK(1)"`],
+    ['# a\t @x', "# a\t '@x"],
+    ['\uFEFF=1+1,2', "\uFEFF'=1+1,2"],
+    ['-2+3,-2', "'-2+3,-2"],
+  ])('%j is written %j', (text, written) => {
+    expect(spreadsheetSafeDelimited(text)).toBe(written);
   });
 });
 
