@@ -1,29 +1,35 @@
 /**
  * Rules relating two fields, run after the schema has passed. Each issue sits at the field
- * that breaks the rule and names the other field and both numbers.
+ * that breaks the rule (its `path`) and names the other field by its label, with both numbers:
+ * "must be below the positive rail (12 V), got 14 V".
  */
 import type { Design, Spec, Supply } from '../engine/types';
+import { designFieldLabel, specFieldLabel } from './field-labels';
 import type { ValidationIssue } from './validation-issue';
+
+/** How the spec's and the design's rails are named (the same titles in both schemas). */
+type Label = (pointer: string) => string;
 
 /** Every cross-field problem of a schema-valid spec. */
 export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
-  const issues = railOrderIssues(spec.supply);
+  const label = specFieldLabel;
+  const issues = railOrderIssues(spec.supply, label);
   const { minV, maxV } = spec.inputCommonMode;
   if (minV > maxV) {
-    issues.push({ path: '/inputCommonMode/minV', message: `must be at most inputCommonMode.maxV (${volts(maxV)}), got ${volts(minV)}` });
+    issues.push({ path: '/inputCommonMode/minV', message: `must be at most ${label('/inputCommonMode/maxV')} (${volts(maxV)}), got ${volts(minV)}` });
   }
   const { min: minC, max: maxC } = spec.temperatureC;
   if (minC > maxC) {
-    issues.push({ path: '/temperatureC/min', message: `must be at most temperatureC.max (${maxC} °C), got ${minC} °C` });
+    issues.push({ path: '/temperatureC/min', message: `must be at most ${label('/temperatureC/max')} (${maxC} °C), got ${minC} °C` });
   }
   if (issues.some((i) => i.path === '/supply/negativeV')) return issues;
-  issues.push(...insideRailsIssues('/inputCommonMode/minV', minV, spec.supply));
-  issues.push(...insideRailsIssues('/inputCommonMode/maxV', maxV, spec.supply));
+  issues.push(...insideRailsIssues('/inputCommonMode/minV', minV, spec.supply, label));
+  issues.push(...insideRailsIssues('/inputCommonMode/maxV', maxV, spec.supply, label));
   const spanV = tidy(spec.supply.positiveV - spec.supply.negativeV);
   if (spec.outputSwingVpp >= spanV) {
     issues.push({
       path: '/outputSwingVpp',
-      message: `must be less than the rail span supply.positiveV - supply.negativeV (${volts(spanV)}), got ${volts(spec.outputSwingVpp)}`,
+      message: `must be less than the span from ${label('/supply/negativeV')} to ${label('/supply/positiveV')} (${volts(spanV)}), got ${volts(spec.outputSwingVpp)}`,
     });
   }
   return issues;
@@ -31,24 +37,24 @@ export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
 
 /** Every cross-field problem of a schema-valid design (defaults applied). */
 export function designCrossFieldIssues(design: Design): ValidationIssue[] {
-  const issues = railOrderIssues(design.supply);
+  const issues = railOrderIssues(design.supply, designFieldLabel);
   if (issues.length > 0 || design.inputCommonModeV === undefined) return issues;
-  return insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply);
+  return insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, designFieldLabel);
 }
 
 /** The negative rail must be below the positive one. */
-function railOrderIssues(supply: Supply): ValidationIssue[] {
+function railOrderIssues(supply: Supply, label: Label): ValidationIssue[] {
   if (supply.negativeV < supply.positiveV) return [];
-  return [{ path: '/supply/negativeV', message: `must be < supply.positiveV (${volts(supply.positiveV)}), got ${volts(supply.negativeV)}` }];
+  return [{ path: '/supply/negativeV', message: `must be below ${label('/supply/positiveV')} (${volts(supply.positiveV)}), got ${volts(supply.negativeV)}` }];
 }
 
 /** A DC voltage strictly between the rails (assumes the rails are in order). */
-function insideRailsIssues(path: string, valueV: number, supply: Supply): ValidationIssue[] {
+function insideRailsIssues(path: string, valueV: number, supply: Supply, label: Label): ValidationIssue[] {
   if (valueV >= supply.positiveV) {
-    return [{ path, message: `must be below supply.positiveV (${volts(supply.positiveV)}), got ${volts(valueV)}` }];
+    return [{ path, message: `must be below ${label('/supply/positiveV')} (${volts(supply.positiveV)}), got ${volts(valueV)}` }];
   }
   if (valueV <= supply.negativeV) {
-    return [{ path, message: `must be above supply.negativeV (${volts(supply.negativeV)}), got ${volts(valueV)}` }];
+    return [{ path, message: `must be above ${label('/supply/negativeV')} (${volts(supply.negativeV)}), got ${volts(valueV)}` }];
   }
   return [];
 }

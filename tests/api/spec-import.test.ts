@@ -62,7 +62,7 @@ const mixedCsv = (rows = MIXED_ROWS) => `${HEADER}\r\n${rows.join('\r\n')}\r\n`;
 const VALID_TITLES = ['Tarn level probe — input pair', 'Tarn level probe — reference', 'Tarn level probe, spare channel'];
 
 const EXPECTED_INVALID = [
-  { row: 4, title: 'Tarn level probe — rail swap', ok: false, errors: [{ row: 4, field: 'supply.negativeV', message: 'must be < supply.positiveV (9 V), got 14 V' }] },
+  { row: 4, title: 'Tarn level probe — rail swap', ok: false, errors: [{ row: 4, field: 'supply.negativeV', message: 'must be below the positive rail (9 V), got 14 V' }] },
   {
     row: 5,
     title: 'Tarn level probe — bad units',

@@ -92,10 +92,10 @@ describe('validateDesign', () => {
   });
 
   test.each([
-    [{ supply: { positiveV: 0, negativeV: 5 } }, ['/supply/negativeV: must be < supply.positiveV (0 V), got 5 V']],
-    [{ inputCommonModeV: 12 }, ['/inputCommonModeV: must be below supply.positiveV (12 V), got 12 V']],
-    [{ inputCommonModeV: -12 }, ['/inputCommonModeV: must be above supply.negativeV (-12 V), got -12 V']],
-    [{ supply: { positiveV: 5, negativeV: 0 } }, ['/inputCommonModeV: must be above supply.negativeV (0 V), got 0 V']],
+    [{ supply: { positiveV: 0, negativeV: 5 } }, ['/supply/negativeV: must be below the positive rail (0 V), got 5 V']],
+    [{ inputCommonModeV: 12 }, ['/inputCommonModeV: must be below the positive rail (12 V), got 12 V']],
+    [{ inputCommonModeV: -12 }, ['/inputCommonModeV: must be above the negative rail (-12 V), got -12 V']],
+    [{ supply: { positiveV: 5, negativeV: 0 } }, ['/inputCommonModeV: must be above the negative rail (0 V), got 0 V']],
   ])('cross-field %j', (patch, expected) => {
     expect(printed(validateDesign({ ...MINIMAL_DESIGN, ...patch }))).toEqual(expected);
   });

@@ -165,41 +165,41 @@ describe('validateSpec', () => {
   });
 
   test.each([
-    ['rails in the wrong order', { supply: { positiveV: 5, negativeV: 12 } }, ['/supply/negativeV: must be < supply.positiveV (5 V), got 12 V']],
-    ['equal rails', { supply: { positiveV: 5, negativeV: 5 } }, ['/supply/negativeV: must be < supply.positiveV (5 V), got 5 V']],
+    ['rails in the wrong order', { supply: { positiveV: 5, negativeV: 12 } }, ['/supply/negativeV: must be below the positive rail (5 V), got 12 V']],
+    ['equal rails', { supply: { positiveV: 5, negativeV: 5 } }, ['/supply/negativeV: must be below the positive rail (5 V), got 5 V']],
     [
       'common-mode range inverted',
       { inputCommonMode: { minV: 3, maxV: 2 } },
-      ['/inputCommonMode/minV: must be at most inputCommonMode.maxV (2 V), got 3 V'],
+      ['/inputCommonMode/minV: must be at most the highest input common mode (2 V), got 3 V'],
     ],
-    ['temperature range inverted', { temperatureC: { min: 80, max: 70 } }, ['/temperatureC/min: must be at most temperatureC.max (70 °C), got 80 °C']],
+    ['temperature range inverted', { temperatureC: { min: 80, max: 70 } }, ['/temperatureC/min: must be at most the highest temperature (70 °C), got 80 °C']],
     [
       'common mode above the positive rail',
       { inputCommonMode: { minV: 0, maxV: 14 } },
-      ['/inputCommonMode/maxV: must be below supply.positiveV (12 V), got 14 V'],
+      ['/inputCommonMode/maxV: must be below the positive rail (12 V), got 14 V'],
     ],
     [
       'common mode on the positive rail (strictly inside)',
       { inputCommonMode: { minV: 0, maxV: 12 } },
-      ['/inputCommonMode/maxV: must be below supply.positiveV (12 V), got 12 V'],
+      ['/inputCommonMode/maxV: must be below the positive rail (12 V), got 12 V'],
     ],
     [
       'common mode below the negative rail',
       { inputCommonMode: { minV: -13, maxV: 0 } },
-      ['/inputCommonMode/minV: must be above supply.negativeV (-12 V), got -13 V'],
+      ['/inputCommonMode/minV: must be above the negative rail (-12 V), got -13 V'],
     ],
     [
       'single supply with the default common mode (0 V, on the rail)',
       { supply: { positiveV: 5, negativeV: 0 } },
       [
-        '/inputCommonMode/minV: must be above supply.negativeV (0 V), got 0 V',
-        '/inputCommonMode/maxV: must be above supply.negativeV (0 V), got 0 V',
+        '/inputCommonMode/minV: must be above the negative rail (0 V), got 0 V',
+        '/inputCommonMode/maxV: must be above the negative rail (0 V), got 0 V',
       ],
     ],
     [
       'swing as large as the rail span',
       { outputSwingVpp: 24 },
-      ['/outputSwingVpp: must be less than the rail span supply.positiveV - supply.negativeV (24 V), got 24 V'],
+      ['/outputSwingVpp: must be less than the span from the negative rail to the positive rail (24 V), got 24 V'],
     ],
   ])('%s', (_name, patch, expected) => {
     expect(printed(validateSpec({ ...MINIMAL_SPEC, ...patch }))).toEqual(expected);
@@ -251,7 +251,7 @@ describe('validateSpec', () => {
 
 describe('formatIssue', () => {
   test.each([
-    [{ path: '/supply/negativeV', message: 'must be < supply.positiveV' }, '/supply/negativeV: must be < supply.positiveV'],
+    [{ path: '/supply/negativeV', message: 'must be below the positive rail' }, '/supply/negativeV: must be below the positive rail'],
     [{ path: '', message: 'must be an object' }, '/: must be an object'],
   ])('%j prints as %j', (issue, expected) => {
     expect(formatIssue(issue)).toBe(expected);

@@ -95,7 +95,7 @@ describe('SpecForm', () => {
     await userEvent.type(rail, '14');
     await userEvent.click(screen.getByRole('button', { name: 'Save as new version' }));
     await waitFor(() => expect(description(cmrr)).toContain('must be <= 200 dB, got 250 dB'));
-    expect(description(rail)).toContain('must be < supply.positiveV (12 V), got 14 V');
+    expect(description(rail)).toContain('must be below the positive rail (12 V), got 14 V');
     expect(puts()).toHaveLength(0);
   });
 
