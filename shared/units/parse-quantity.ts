@@ -1,9 +1,10 @@
 /**
  * Reads a quantity as engineers type it in a form ("4k7", "10µ", "2 pF", "-12 V", "1meg",
- * "2.2e-3", "68kΩ") into an SI number. Pure; the form shows the value understood before saving.
+ * "2.2e-3", "68kΩ", "4.7 pf", "60 mw") into an SI number. Pure; the form shows the value
+ * understood before saving, and warns when it is implausible for the field (`plausibility.ts`).
  */
-import { PREFIX_SPELLINGS } from './si-prefixes';
-import { spellsUnit, unitSymbolFor, type UnitSymbol } from './unit-symbols';
+import { PREFIX_SPELLINGS, startsWithSpelling } from './si-prefixes';
+import { spellsUnit, spellsUnitIgnoringCase, unitSymbolFor, type UnitSymbol } from './unit-symbols';
 
 /** The number read, in SI units, or why the text could not be read. */
 export type ParseQuantityResult = { ok: true; value: number } | { ok: false; message: string };
@@ -18,8 +19,11 @@ type SuffixReading = { ok: true; exponent: number } | { ok: false; message: stri
 
 /**
  * Parses `text` to a number in SI units. A unit at the end is accepted when it is `unit` (or one
- * of its spellings) or absent; another unit is an error. "M" is mega and "m" milli (forms),
- * "meg" mega in any case, "u" micro; dB, %, °C and ratios take no prefix.
+ * of its spellings) or absent; another unit is an error. "M" is mega and "m" milli (SI, as the
+ * forms have always read them), "meg" mega in any case (SPICE), "u" micro; dB, %, °C and ratios
+ * take no prefix. Prefix letters are case-sensitive; the unit's letters are not where that is
+ * unambiguous: after a prefix ("4.7 pf", "60 mw", "1 MOHM") or alone when they are no prefix
+ * ("12 v", "60 w"); a lone "f" or "m" is still femto or milli.
  */
 export function parseQuantity(text: string, unit?: string): ParseQuantityResult {
   const normalized = text.trim().replace(/\u2212/g, '-');
@@ -54,23 +58,25 @@ function examplesFor(expected: UnitSymbol | undefined): string {
 /** The exponent a mark between digits stands for: a prefix ("4k7"), or "R" for ohms ("4R7"). */
 function infixExponent(mark: string, expected: UnitSymbol | undefined): number | undefined {
   if (mark === 'R' && expected?.symbol === 'Ω') return 0;
-  return PREFIX_SPELLINGS.find((p) => p.spelling === mark)?.prefix.exponent;
+  return PREFIX_SPELLINGS.find((p) => startsWithSpelling(mark, p) && mark.length === p.spelling.length)?.prefix.exponent;
 }
 
 /** Reads what follows the number: nothing, the unit, or a prefix and then optionally the unit. */
 function readSuffix(rest: string, expected: UnitSymbol | undefined, prefixAllowed: boolean): SuffixReading {
   const trimmed = rest.trim();
   if (trimmed === '' || (expected && spellsUnit(trimmed, expected))) return { ok: true, exponent: 0 };
-  for (const { spelling, prefix } of PREFIX_SPELLINGS) {
-    if (!trimmed.startsWith(spelling)) continue;
-    const after = trimmed.slice(spelling.length).trim();
-    if (after !== '' && !(expected && spellsUnit(after, expected))) continue;
+  for (const entry of PREFIX_SPELLINGS) {
+    if (!startsWithSpelling(trimmed, entry)) continue;
+    const spelling = trimmed.slice(0, entry.spelling.length);
+    const after = trimmed.slice(entry.spelling.length).trim();
+    if (after !== '' && !(expected && spellsUnitIgnoringCase(after, expected))) continue;
     if (!prefixAllowed) return { ok: false, message: `has a second prefix "${spelling}"` };
     if (expected && !expected.takesPrefix) {
       return { ok: false, message: `${expected.symbol} takes no prefix: "${spelling}" is not allowed` };
     }
-    return { ok: true, exponent: prefix.exponent };
+    return { ok: true, exponent: entry.prefix.exponent };
   }
+  if (expected && spellsUnitIgnoringCase(trimmed, expected)) return { ok: true, exponent: 0 };
   const wanted = expected ? `expected ${expected.printed || 'a plain number'}` : 'expected a plain number';
   return { ok: false, message: `has an unexpected unit "${trimmed}": ${wanted}` };
 }

@@ -12,9 +12,11 @@ export interface SiPrefix {
   exponent: number;
   /**
    * Other spellings accepted in forms: "u" and Greek "μ" for micro (ASCII habit), "K" for kilo
-   * and "meg" (any case) for mega, as in SPICE (common practice).
+   * (common practice).
    */
   aliases: readonly string[];
+  /** Spellings accepted in any case: "meg" for mega, as SPICE writes it ("1meg", "1MEG", "1Meg"). */
+  anyCaseAliases?: readonly string[];
 }
 
 /** The prefixes from femto to tera, smallest first [SI]. */
@@ -25,7 +27,7 @@ export const SI_PREFIXES: readonly SiPrefix[] = [
   { symbol: 'µ', name: 'micro', exponent: -6, aliases: ['u', 'μ'] },
   { symbol: 'm', name: 'milli', exponent: -3, aliases: [] },
   { symbol: 'k', name: 'kilo', exponent: 3, aliases: ['K'] },
-  { symbol: 'M', name: 'mega', exponent: 6, aliases: ['meg', 'Meg', 'MEG'] },
+  { symbol: 'M', name: 'mega', exponent: 6, aliases: [], anyCaseAliases: ['meg'] },
   { symbol: 'G', name: 'giga', exponent: 9, aliases: [] },
   { symbol: 'T', name: 'tera', exponent: 12, aliases: [] },
 ];
@@ -35,7 +37,20 @@ export function prefixForExponent(exponent: number): SiPrefix | undefined {
   return SI_PREFIXES.find((prefix) => prefix.exponent === exponent);
 }
 
+/** One accepted spelling of a prefix; `anyCase` spellings match without regard to case. */
+export interface PrefixSpelling {
+  spelling: string;
+  prefix: SiPrefix;
+  anyCase: boolean;
+}
+
 /** Every accepted spelling with its prefix, longest first so "meg" wins over "m". */
-export const PREFIX_SPELLINGS: readonly { spelling: string; prefix: SiPrefix }[] = SI_PREFIXES.flatMap(
-  (prefix) => [prefix.symbol, ...prefix.aliases].map((spelling) => ({ spelling, prefix })),
-).sort((a, b) => b.spelling.length - a.spelling.length);
+export const PREFIX_SPELLINGS: readonly PrefixSpelling[] = SI_PREFIXES.flatMap((prefix) => [
+  ...[prefix.symbol, ...prefix.aliases].map((spelling) => ({ spelling, prefix, anyCase: false })),
+  ...(prefix.anyCaseAliases ?? []).map((spelling) => ({ spelling, prefix, anyCase: true })),
+]).sort((a, b) => b.spelling.length - a.spelling.length);
+
+/** Whether `text` starts with the spelling (in any case for "meg"; prefix letters themselves are case-sensitive: m is milli, M mega). */
+export function startsWithSpelling(text: string, { spelling, anyCase }: PrefixSpelling): boolean {
+  return anyCase ? text.slice(0, spelling.length).toLowerCase() === spelling : text.startsWith(spelling);
+}

@@ -42,3 +42,13 @@ export function unitSymbolFor(unit: string): UnitSymbol {
 export function spellsUnit(text: string, unit: UnitSymbol): boolean {
   return text === unit.symbol || text === unit.printed || unit.aliases.includes(text);
 }
+
+/**
+ * Whether typed text spells the unit in any letter case ("pf" for pF's F, "mw" for mW's W, "OHM"):
+ * used only where the case cannot change the meaning, that is after a prefix or when the text is
+ * no prefix on its own (a lone "f" in a farad field stays femto).
+ */
+export function spellsUnitIgnoringCase(text: string, unit: UnitSymbol): boolean {
+  const lower = text.toLowerCase();
+  return [unit.symbol, unit.printed, ...unit.aliases].some((spelling) => spelling !== '' && spelling.toLowerCase() === lower);
+}

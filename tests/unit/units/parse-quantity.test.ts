@@ -26,6 +26,22 @@ describe('parseQuantity: what engineers type', () => {
     ['1meg', undefined, 1e6],
     ['1MEG', 'Ω', 1e6],
     ['1megohm', 'Ω', 1e6],
+    ['1Meg', 'Ω', 1e6],
+    ['2.2mEg', 'Ω', 2.2e6],
+    ['1meg5', 'Ω', 1.5e6],
+    ['1 MEGOHM', 'Ω', 1e6],
+    // Unit letters in any case where that cannot change the meaning (prefix letters keep theirs)
+    ['4.7 pf', 'F', 4.7e-12],
+    ['60 mw', 'W', 60e-3],
+    ['60 MW', 'W', 60e6],
+    ['12 v', 'V', 12],
+    ['60 w', 'W', 60],
+    ['100 ma', 'A', 0.1],
+    ['10 KHZ', 'Hz', 1e4],
+    ['68 KOHM', 'Ω', 68e3],
+    ['86.3 DB', 'dB', 86.3],
+    ['2 f', 'F', 2e-15], // a lone f is femto, as before: F alone is the farad
+    ['2 F', 'F', 2],
     ['2.2e-3', undefined, 2.2e-3],
     ['2.2E3', undefined, 2200],
     ['1.5e3k', undefined, 1.5e6],
@@ -79,6 +95,8 @@ describe('parseQuantity: what engineers type', () => {
     ['3k', '%', '% takes no prefix'],
     ['1e400', undefined, 'out of range'],
     ['4R7', 'V', 'unexpected unit'],
+    ['4.7 Pf', 'F', 'unexpected unit "Pf"'], // P would be peta, which no field takes: not guessed
+    ['60 mw', 'V', 'unexpected unit "mw": expected V'],
   ])('"%s" (unit %s) is rejected: %s', (text, unit, fragment) => {
     const result = parseQuantity(text, unit);
     expect(result.ok).toBe(false);

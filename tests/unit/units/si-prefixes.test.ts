@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { PREFIX_SPELLINGS, SI_PREFIXES, prefixForExponent } from '../../../shared/units/si-prefixes';
+import { PREFIX_SPELLINGS, SI_PREFIXES, prefixForExponent, startsWithSpelling } from '../../../shared/units/si-prefixes';
 
 describe('SI_PREFIXES', () => {
   // [SI] SI Brochure 9th ed., table 7 (decimal prefixes)
@@ -26,8 +26,11 @@ describe('SI_PREFIXES', () => {
     ['K', 3],
     ['meg', 6],
     ['MEG', 6],
+    ['Meg', 6],
+    ['mEG', 6],
   ])('alias %s means 10^%i (common practice)', (spelling, exponent) => {
-    expect(PREFIX_SPELLINGS.find((s) => s.spelling === spelling)?.prefix.exponent).toBe(exponent);
+    const found = PREFIX_SPELLINGS.find((s) => startsWithSpelling(spelling, s) && s.spelling.length === spelling.length);
+    expect(found?.prefix.exponent).toBe(exponent);
   });
 
   test('exponents ascend in steps of 3, skipping 0', () => {
