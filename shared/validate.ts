@@ -28,6 +28,7 @@ const ajv = new Ajv({
   verbose: true, // errors carry the data and schema, for messages with units and values
 });
 ajv.addKeyword('x-unit');
+ajv.addKeyword('x-typical'); // the range a field's values usually fall in (shared/units/plausibility.ts); never refuses
 
 const validateSpecSchema: ValidateFunction = ajv.compile(SPEC_SCHEMA);
 const validateDesignSchema: ValidateFunction = ajv.compile(DESIGN_SCHEMA);

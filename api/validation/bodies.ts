@@ -8,9 +8,9 @@ import { TOPOLOGIES } from '../../shared/engine/types';
 import { DESIGN_SCHEMA } from '../../shared/validate';
 import { MONTE_CARLO_RUNS } from '../../shared/verification/types';
 import { MIN_PASSWORD_LENGTH } from '../auth/password';
-import { PLAIN_LINES_PATTERN, PLAIN_LINE_PATTERN, PLAIN_NAME_PATTERN } from '../../shared/text/plain-text';
+import { PLAIN_EMAIL_PATTERN, PLAIN_LINES_PATTERN, PLAIN_NAME_PATTERN } from '../../shared/text/plain-text';
 
-const email = { type: 'string', minLength: 3, maxLength: 254, allOf: [{ pattern: '^[^@\\s]+@[^@\\s]+$' }, { pattern: PLAIN_LINE_PATTERN }] };
+const email = { type: 'string', minLength: 3, maxLength: 254, pattern: PLAIN_EMAIL_PATTERN };
 /** A name or title: one line, not blank, no control characters or bidi overrides (shared/text/plain-text.ts). */
 const name = (maxLength: number) => ({ type: 'string', minLength: 1, maxLength, pattern: PLAIN_NAME_PATTERN });
 /** Multi-line text (a description, a reason, a comment): LF line ends, no other control characters or bidi overrides. */

@@ -22,8 +22,13 @@ const UNSAFE_MULTILINE_CLASS_BODY = '\\u0000-\\u0009\\u000b-\\u001f\\u007f-\\u00
 export const PLAIN_LINE_PATTERN = `^[^${UNSAFE_CLASS_BODY}]*$`;
 /** JSON Schema `pattern` for multi-line text: as PLAIN_LINE_PATTERN, but LF allowed (no CR: send LF line ends). */
 export const PLAIN_LINES_PATTERN = `^[^${UNSAFE_MULTILINE_CLASS_BODY}]*$`;
-/** JSON Schema `pattern` for a single-line name: plain, and not blank. */
-export const PLAIN_NAME_PATTERN = `^(?=.*\\S)[^${UNSAFE_CLASS_BODY}]*$`;
+/**
+ * JSON Schema `pattern` for a single-line name: plain, and not blank. Written without lookahead
+ * and with disjoint classes (blanks, then one non-blank, then the rest), so it runs in linear time.
+ */
+export const PLAIN_NAME_PATTERN = `^[^${UNSAFE_CLASS_BODY}\\S]*[^${UNSAFE_CLASS_BODY}\\s][^${UNSAFE_CLASS_BODY}]*$`;
+/** JSON Schema `pattern` for an e-mail address: something@something, no blanks, no refused character. */
+export const PLAIN_EMAIL_PATTERN = `^[^@\\s${UNSAFE_CLASS_BODY}]+@[^@\\s${UNSAFE_CLASS_BODY}]+$`;
 
 const UNSAFE_CHAR = new RegExp(`[${UNSAFE_CLASS_BODY}]`, 'u');
 const UNSAFE_CHARS = new RegExp(`[${UNSAFE_CLASS_BODY}]`, 'gu');

@@ -14,6 +14,7 @@ import { arbitraryFromSchema, hostile } from '../../reliability/schema-arbitrary
 const Ajv = (AjvImport as unknown as { default?: typeof AjvImport }).default ?? AjvImport;
 const ajv = new Ajv({ allErrors: true, discriminator: true });
 ajv.addKeyword('x-unit');
+ajv.addKeyword('x-typical');
 
 const SCHEMAS: [string, object][] = [
   ['LOGIN_BODY', LOGIN_BODY],

@@ -115,4 +115,21 @@ describe('SpecForm', () => {
     expect(body.payload.tailCapacitanceF).toBeCloseTo(2e-12, 24);
     expect(body.payload.topologies).toHaveLength(6);
   });
+
+  test('when a value is implausible for its field, then the form shows the value understood with a note, and still saves it', async () => {
+    const { puts } = renderForm({ status: 200, body: {} });
+    const budget = await screen.findByLabelText(/^Power budget/);
+    await userEvent.clear(budget);
+    await userEvent.type(budget, '60M');
+    // 60M is 60 MW in SI (M is mega); a stage's budget is watts at most, and 60 mW would be usual
+    expect(description(budget)).toMatch(/= 60 MW/);
+    expect(description(budget)).toMatch(/60 MW is far above the usual for this field \(up to 10 W\); M is mega: for 60 mW type m \(milli\)/);
+    await userEvent.clear(budget);
+    await userEvent.type(budget, '60 mw');
+    expect(description(budget)).toMatch(/= 60 mW/);
+    expect(description(budget)).not.toMatch(/far above/);
+    await userEvent.click(screen.getByRole('button', { name: 'Save as new version' }));
+    await waitFor(() => expect(puts()).toHaveLength(1));
+    expect((puts()[0].body as { payload: { powerBudgetW: number } }).payload.powerBudgetW).toBeCloseTo(0.06, 12);
+  });
 });

@@ -1,7 +1,9 @@
 /**
  * A numeric field with a unit (the schema's `x-unit`) that takes engineering notation as typed:
- * "4k7", "4.7k", "10u", "2 pF", "-12 V", "1M" (mega), "1m" (milli). The typed text stays as
- * typed; the value understood is shown under it ("= 4.7 kΩ"), or why it cannot be read.
+ * "4k7", "4.7k", "10u", "2 pF", "-12 V", "1M" (mega), "1m" (milli), "1meg", "4.7 pf". The typed
+ * text stays as typed; the value understood is shown under it ("= 4.7 kΩ"), or why it cannot be
+ * read, and a note when it lies outside the field's usual range (`x-typical`): "60M" in a power
+ * budget reads 60 MW, with the hint that M is mega.
  */
 import type { WidgetProps } from '@rjsf/utils';
 import { ariaDescribedByIds } from '@rjsf/utils';
@@ -11,6 +13,7 @@ import { formContextOf } from './form-context';
 import { inputClass } from './input-class';
 import { quantityText, readingText, readQuantity, unitLabel } from './quantity-text';
 import { formatQuantity } from '../../../../shared/units/format-quantity';
+import { plausibilityNote, typicalRangeOf } from '../../../../shared/units/plausibility';
 
 /** The unit a schema node declares, "1" (a plain number) when it declares none. */
 export function schemaUnit(schema: object): string {
@@ -28,6 +31,7 @@ export function QuantityWidget(props: WidgetProps) {
   if (!sameNumber(value, field.value)) setField({ text: quantityText(value, unit), value });
   const reading = readQuantity(field.text, unit);
   const unreadable = reading.kind === 'unreadable' ? reading.message : null;
+  const implausible = reading.kind === 'value' ? plausibilityNote(reading.value, unit, typicalRangeOf(schema)) : null;
   const { reportUnreadable } = formContextOf(registry);
 
   useEffect(() => {
@@ -84,6 +88,12 @@ export function QuantityWidget(props: WidgetProps) {
       </div>
       <p id={readingId} className={cn('mt-0.5 min-h-4 text-xs tabular-nums', unreadable ? 'text-short dark:text-short-bright' : 'text-ink-soft dark:text-night-ink-soft')}>
         {reading.kind === 'value' && readingText(reading.value, unit)}
+        {implausible && (
+          <span className="block text-note dark:text-note-bright">
+            <span aria-hidden="true">! </span>
+            {implausible}
+          </span>
+        )}
         {unreadable && (
           <>
             <span aria-hidden="true">✕ </span>

@@ -4,6 +4,7 @@
  */
 import designSchema from '../../../../../../shared/schema/design.schema.json';
 import { TOPOLOGIES, type Design, type TopologyId } from '../../../../../../shared/engine/types';
+import { typicalRangeOf, type TypicalRange } from '../../../../../../shared/units/plausibility';
 
 /** A field's key is its JSON path in the design without the leading slash ("tail/emitterResistanceOhm"). */
 export type FieldKey = 'collectorResistanceOhm' | 'pairEmitterResistanceOhm' | 'tail/resistanceOhm' | 'tail/referenceResistanceOhm' | 'tail/emitterResistanceOhm';
@@ -17,6 +18,8 @@ export interface FieldInfo {
   min: number;
   minAllowed: boolean;
   maxOhm: number;
+  /** The range the field's values usually fall in (`x-typical`); outside it the form shows a note. */
+  typical?: TypicalRange;
 }
 
 interface PropertySchema {
@@ -47,6 +50,7 @@ function fieldInfo(key: FieldKey, property: PropertySchema): FieldInfo {
     min: property.exclusiveMinimum ?? property.minimum ?? 0,
     minAllowed: property.exclusiveMinimum === undefined,
     maxOhm: property.maximum ?? Infinity,
+    typical: typicalRangeOf(property),
   };
 }
 

@@ -1,6 +1,7 @@
 import { useId } from 'react';
 import type { ResistorSeries } from '../../../../../../shared/engine/types';
 import { formatQuantity, isOnSeries, snapToSeries } from '../../../../../../shared/units/index';
+import { plausibilityNote } from '../../../../../../shared/units/plausibility';
 import { cn } from '../../../../lib/cn';
 import type { FieldInfo } from './design-fields';
 import type { FieldReading } from './override-draft';
@@ -57,14 +58,14 @@ export function QuantityField({
             {problem}
           </>
         ) : reading.ok ? (
-          <Understood valueOhm={reading.valueOhm} unit={info.unit} series={series} rankedOhm={rankedOhm} />
+          <Understood valueOhm={reading.valueOhm} unit={info.unit} series={series} rankedOhm={rankedOhm} note={plausibilityNote(reading.valueOhm, info.unit, info.typical)} />
         ) : null}
       </p>
     </div>
   );
 }
 
-function Understood({ valueOhm, unit, series, rankedOhm }: { valueOhm: number; unit: string; series: ResistorSeries; rankedOhm?: number }) {
+function Understood({ valueOhm, unit, series, rankedOhm, note }: { valueOhm: number; unit: string; series: ResistorSeries; rankedOhm?: number; note: string | null }) {
   const offSeries = valueOhm > 0 && !isOnSeries(valueOhm, series);
   return (
     <>
@@ -76,6 +77,12 @@ function Understood({ valueOhm, unit, series, rankedOhm }: { valueOhm: number; u
         </span>
       )}
       {rankedOhm !== undefined && rankedOhm !== valueOhm && <span> · ranked {formatQuantity(rankedOhm, unit, 4)}</span>}
+      {note && (
+        <span className="block text-note dark:text-note-bright">
+          <span aria-hidden="true">! </span>
+          {note}
+        </span>
+      )}
     </>
   );
 }
