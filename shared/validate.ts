@@ -1,7 +1,8 @@
 /**
  * Validation of the two public inputs, the requirement spec and the `analyze` design: one ajv
- * instance, each schema (shared/schema, the single source of truth) compiled once at load,
- * defaults applied to a copy, then the cross-field rules. Errors are "/json/path: message".
+ * instance, each schema (shared/schema, the single source of truth) compiled once at load;
+ * on a copy, older spec documents upgraded (spec-upgrade.ts), defaults applied, then the
+ * cross-field rules. Errors are "/json/path: message".
  */
 import AjvImport, { type SchemaObject, type ValidateFunction } from 'ajv';
 import type { Design, Spec } from './engine/types';
@@ -9,6 +10,7 @@ import designSchemaJson from './schema/design.schema.json';
 import specSchemaJson from './schema/spec.schema.json';
 import { issuesFromAjvErrors } from './validation/ajv-issues';
 import { designCrossFieldIssues, specCrossFieldIssues } from './validation/cross-field-rules';
+import { upgradeSpecDocument } from './validation/spec-upgrade';
 import type { ValidationIssue, ValidationResult } from './validation/validation-issue';
 
 export { formatIssue, type ValidationIssue, type ValidationResult } from './validation/validation-issue';
@@ -35,7 +37,7 @@ const validateDesignSchema: ValidateFunction = ajv.compile(DESIGN_SCHEMA);
 
 /** Validates a requirement spec; on success `value` is a copy with every default filled in. */
 export function validateSpec(input: unknown): ValidationResult<Spec> {
-  return validateWith<Spec>(input, validateSpecSchema, specCrossFieldIssues);
+  return validateWith<Spec>(input, validateSpecSchema, specCrossFieldIssues, upgradeSpecDocument);
 }
 
 /** Validates an `analyze` input; on success `value` is a copy with the documented defaults filled in. */
@@ -70,9 +72,12 @@ function validateWith<T>(
   input: unknown,
   schemaCheck: ValidateFunction,
   crossFieldIssues: (value: T) => ValidationIssue[],
+  upgrade: (copy: unknown) => ValidationIssue[] = () => [],
 ): ValidationResult<T> {
   const copy = jsonCopy(input, 0); // defaults are written into the copy, never the caller's object
   if (copy === NOT_JSON) return { ok: false, errors: [{ path: '', message: 'must be plain JSON data' }] };
+  const upgradeIssues = upgrade(copy); // older documents read as today's (renamed fields)
+  if (upgradeIssues.length > 0) return { ok: false, errors: upgradeIssues };
   if (!schemaCheck(copy)) return { ok: false, errors: issuesFromAjvErrors(schemaCheck.errors ?? []) };
   const issues = crossFieldIssues(copy as T);
   return issues.length > 0 ? { ok: false, errors: issues } : { ok: true, value: copy as T };

@@ -10,7 +10,7 @@
  * ratio); the difference that makes is part of what this run shows.
  */
 import { solveStage } from '../../shared/engine/analyze';
-import { mismatchCmrrDb, mismatchSensitivity, mismatchStages, monteCarloDraws, monteCarloSample, percentile } from '../../shared/engine/mismatch';
+import { mismatchCmrrDb, mismatchSensitivity, mismatchStages, monteCarloDraws, monteCarloSample, percentile, resistorToleranceFraction } from '../../shared/engine/mismatch';
 import type { RecommendOption } from '../../shared/engine/recommend';
 import type { Design, Spec } from '../../shared/engine/types';
 import type { MonteCarloVerificationResult } from '../../shared/verification/types';
@@ -74,7 +74,7 @@ export async function runMonteCarlo(
   const predictedDb: number[] = [];
   let failedRuns = 0;
   for (let i = 0; i < runs; i += 1) {
-    const sample = monteCarloSample(draws, i, spec.resistors.tolerance, spec.device.vbeMismatchSigmaV, sensitivity.thermalVoltageV);
+    const sample = monteCarloSample(draws, i, resistorToleranceFraction(spec), spec.device.vbeMismatchSigmaV, sensitivity.thermalVoltageV);
     predictedDb.push(mismatchCmrrDb(sensitivity, sample.loadMismatch, sample.isMismatch));
     await onProgress(i, `Run ${i + 1} of ${runs} at ${governing.label}`);
     try {

@@ -164,6 +164,11 @@ export function mismatchCmrrDb(s: MismatchSensitivity, loadMismatch: number, isM
   return 10 * Math.log10((adRe * adRe + adIm * adIm) / (cmRe * cmRe + cmIm * cmIm));
 }
 
+/** The spec's resistor tolerance as a fraction (1 % -> 0.01), as the mismatch formulas take it. */
+export function resistorToleranceFraction(spec: { resistors: { tolerancePercent: number } }): number {
+  return spec.resistors.tolerancePercent / 100;
+}
+
 /**
  * Worst case: both load resistors at opposite tolerance extremes, ε = (1+t)/(1−t) − 1, and the
  * VBE mismatch at 3σ, δ = exp(3σ/VT) − 1, every term of the model adding in magnitude and the

@@ -11,6 +11,7 @@ import {
   monteCarloCmrr,
   monteCarloDraws,
   screeningSensitivity,
+  resistorToleranceFraction,
   screeningStages,
   worstCaseMismatchCmrrDb,
   type MonteCarloDraws,
@@ -87,7 +88,7 @@ function frequencyGrid(): number[] {
 export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDraws): OptionEvaluation {
   const f = spec.cmrr.atFrequencyHz;
   const differentialOutput = spec.gain.output === 'differential';
-  const tolerance = spec.resistors.tolerance;
+  const tolerance = resistorToleranceFraction(spec);
   const sigmaV = spec.device.vbeMismatchSigmaV;
   const nominal = nominalCondition(spec);
   const nominalSolution = at(spec, design, nominal);

@@ -142,8 +142,8 @@ export interface Spec {
   powerBudgetW: number;
   tailCurrentA?: number;
   temperatureC: { min: number; max: number };
-  /** `tolerance` is a fraction: 0.01 means ±1 %. */
-  resistors: { series: ResistorSeries; tolerance: number };
+  /** `tolerancePercent` is in per cent: 1 means ±1 % (engine code takes `resistorToleranceFraction(spec)`). */
+  resistors: { series: ResistorSeries; tolerancePercent: number };
   tailCapacitanceF: number;
   topologies: TopologyId[];
   policy: SelectionPolicy;

@@ -37,8 +37,24 @@ export interface SpecColumn {
 /** Every leaf field of the spec schema, in schema order. */
 export const SPEC_CSV_COLUMNS: readonly SpecColumn[] = collectColumns(SPEC_SCHEMA as SchemaNode, [], true);
 
+/**
+ * Columns of older files, still read (not in the template or the column table): each fills the
+ * older field, which validateSpec converts (shared/validation/spec-upgrade.ts).
+ */
+export const LEGACY_CSV_COLUMNS: readonly SpecColumn[] = [
+  {
+    name: 'resistors.tolerance',
+    path: ['resistors', 'tolerance'],
+    kind: 'number',
+    title: 'Resistor tolerance (as a fraction)',
+    description: 'Older files: the resistor tolerance as a fraction, 0.01 for ±1 %; today the column is resistors.tolerancePercent, in per cent.',
+    unit: '1',
+    required: false,
+  },
+];
+
 /** Columns by lower-cased name: headers are matched without regard to case. */
-const BY_LOWER_NAME = new Map(SPEC_CSV_COLUMNS.map((column) => [column.name.toLowerCase(), column]));
+const BY_LOWER_NAME = new Map([...SPEC_CSV_COLUMNS, ...LEGACY_CSV_COLUMNS].map((column) => [column.name.toLowerCase(), column]));
 
 /** The column a header cell names (case-insensitive, surrounding blanks ignored), if any. */
 export function columnNamed(header: string): SpecColumn | undefined {

@@ -54,7 +54,7 @@ describe('when a requirements author writes and revises a spec', () => {
       ...specPayload(),
       device: { ...(specPayload().device as object), family: 'npn', vbeOnV: 0.65, vceSatV: 0.2, vbeMismatchSigmaV: 0.001 },
       temperatureC: { min: 0, max: 70 },
-      resistors: { series: 'E96', tolerance: 0.01 },
+      resistors: { series: 'E96', tolerancePercent: 1 },
       tailCapacitanceF: 0,
       topologies: ['resistor', 'simple-mirror', 'degenerated-mirror', 'widlar', 'wilson', 'cascode'],
       policy: 'simplest-sufficient',

@@ -25,7 +25,7 @@ const RAW_SPECS: Record<string, unknown> = {
     outputSwingVpp: 2,
     powerBudgetW: 0.04,
     temperatureC: { min: -10, max: 60 },
-    resistors: { series: 'E96', tolerance: 0.01 },
+    resistors: { series: 'E96', tolerancePercent: 1 },
     tailCapacitanceF: 5e-12,
     monteCarlo: { samples: 1000, seed: 11 },
   },
@@ -39,7 +39,7 @@ const RAW_SPECS: Record<string, unknown> = {
     outputSwingVpp: 3,
     powerBudgetW: 0.03,
     temperatureC: { min: 0, max: 70 },
-    resistors: { series: 'E24', tolerance: 0.05 },
+    resistors: { series: 'E24', tolerancePercent: 5 },
     tailCapacitanceF: 2e-11,
     policy: 'highest-rejection',
   },
@@ -54,7 +54,7 @@ const RAW_SPECS: Record<string, unknown> = {
     powerBudgetW: 0.5,
     tailCurrentA: 0.0015,
     temperatureC: { min: -20, max: 85 },
-    resistors: { series: 'E192', tolerance: 0.005 },
+    resistors: { series: 'E192', tolerancePercent: 0.5 },
     monteCarlo: { samples: 500, seed: 4 },
   },
   'ECG-2 electrode input, patient-connected': {
@@ -67,7 +67,7 @@ const RAW_SPECS: Record<string, unknown> = {
     outputSwingVpp: 1,
     powerBudgetW: 0.01,
     temperatureC: { min: 10, max: 45 },
-    resistors: { series: 'E96', tolerance: 0.001 },
+    resistors: { series: 'E96', tolerancePercent: 0.1 },
     tailCapacitanceF: 1e-11,
     topologies: ['simple-mirror', 'wilson', 'cascode'],
     hazards: { patientConnected: true },
@@ -316,26 +316,26 @@ describe('scenario-specific outcomes', () => {
 
 describe('Monte Carlo reproducibility and its response to tolerance', () => {
   /** QF-7 reduced to its resistor tail, with a target near the median so the yield is in between. */
-  const resistorVariant = (tolerance: number, seed: number): Spec =>
+  const resistorVariant = (tolerancePercent: number, seed: number): Spec =>
     specFrom({
       ...(RAW_SPECS['QF-7 strain bridge'] as object),
       cmrr: { minDb: 80, atFrequencyHz: 50, marginDb: 6, minYieldPercent: 95 },
-      resistors: { series: 'E96', tolerance },
+      resistors: { series: 'E96', tolerancePercent },
       topologies: ['resistor'],
       monteCarlo: { samples: 2000, seed },
     });
   const mcOf = async (spec: Spec) => (await recommend(spec, ruleSet)).options[0].monteCarlo!;
 
   test('the same seed gives the same Monte Carlo; another seed gives another', async () => {
-    const first = await mcOf(resistorVariant(0.01, 21));
-    expect(await mcOf(resistorVariant(0.01, 21))).toEqual(first);
-    const other = await mcOf(resistorVariant(0.01, 22));
+    const first = await mcOf(resistorVariant(1, 21));
+    expect(await mcOf(resistorVariant(1, 21))).toEqual(first);
+    const other = await mcOf(resistorVariant(1, 22));
     expect(other.histogram.counts).not.toEqual(first.histogram.counts);
   });
 
   test('yield falls as the resistor tolerance grows (1 % → 5 % → 10 %)', async () => {
     const yields = [];
-    for (const tolerance of [0.01, 0.05, 0.1]) yields.push((await mcOf(resistorVariant(tolerance, 21))).yieldPercent);
+    for (const tolerancePercent of [1, 5, 10]) yields.push((await mcOf(resistorVariant(tolerancePercent, 21))).yieldPercent);
     expect(yields[0]).toBeLessThan(100); // the target sits inside the distribution, so the comparison means something
     expect(yields[1]).toBeLessThan(yields[0]);
     expect(yields[2]).toBeLessThan(yields[1]);

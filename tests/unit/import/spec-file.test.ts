@@ -88,6 +88,17 @@ describe('cells in engineering notation, in the column’s unit', () => {
     expect(row.errors).toEqual([{ row: 2, field: 'resistors.tolerance', message: '"0,01": use a point as the decimal separator' }]);
   });
 
+  test('when an older file gives resistors.tolerance as a fraction, then it is read into the tolerance in per cent', () => {
+    const row = onlyRow(`${REQUIRED_HEADER},resistors.tolerance\r\nTarn probe,15,-15,20,60,0.05\r\n`);
+    expect(row.errors).toEqual([]);
+    expect((row.document as { resistors: unknown }).resistors).toEqual({ series: 'E96', tolerancePercent: 5 });
+  });
+
+  test('when the tolerance is given in per cent, "1 %" reads as 1 %', () => {
+    const row = onlyRow(`${REQUIRED_HEADER},resistors.tolerancePercent\r\nTarn probe,15,-15,20,60,0.5 %\r\n`);
+    expect((row.document as { resistors: unknown }).resistors).toEqual({ series: 'E96', tolerancePercent: 0.5 });
+  });
+
   test('when yes/no, lists and words are given, then they become booleans, arrays and strings', () => {
     const row = onlyRow(`${REQUIRED_HEADER},hazards.patientConnected,hazards.mainsReferenced,topologies,gain.output\r\nTarn probe,15,-15,20,60,Yes,0,"wilson; cascode, widlar",single-ended\r\n`);
     expect(row.errors).toEqual([]);

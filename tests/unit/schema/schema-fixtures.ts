@@ -26,7 +26,7 @@ export const FULL_SPEC: Spec = {
   powerBudgetW: 0.1,
   tailCurrentA: 0.001,
   temperatureC: { min: -20, max: 85 },
-  resistors: { series: 'E192', tolerance: 0.001 },
+  resistors: { series: 'E192', tolerancePercent: 0.1 },
   tailCapacitanceF: 1e-12,
   topologies: ['wilson', 'cascode'],
   policy: 'highest-rejection',

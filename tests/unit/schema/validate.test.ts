@@ -22,7 +22,7 @@ describe('validateSpec', () => {
         outputSwingVpp: 1,
         powerBudgetW: 1,
         temperatureC: { min: 0, max: 70 },
-        resistors: { series: 'E96', tolerance: 0.01 }, // E96 is the ±1 % series (common practice)
+        resistors: { series: 'E96', tolerancePercent: 1 }, // E96 is the ±1 % series (common practice)
         tailCapacitanceF: 0,
         topologies: ['resistor', 'simple-mirror', 'degenerated-mirror', 'widlar', 'wilson', 'cascode'],
         policy: 'simplest-sufficient',
@@ -109,10 +109,10 @@ describe('validateSpec', () => {
     ['/temperatureC/max', 151, '/temperatureC/max'],
     ['/resistors/series', 'E24', null],
     ['/resistors/series', 'E12', '/resistors/series'],
-    ['/resistors/tolerance', 0.0005, null],
-    ['/resistors/tolerance', 0.0004, '/resistors/tolerance'],
-    ['/resistors/tolerance', 0.2, null],
-    ['/resistors/tolerance', 0.3, '/resistors/tolerance'],
+    ['/resistors/tolerancePercent', 0.05, null],
+    ['/resistors/tolerancePercent', 0.04, '/resistors/tolerancePercent'],
+    ['/resistors/tolerancePercent', 20, null],
+    ['/resistors/tolerancePercent', 30, '/resistors/tolerancePercent'],
     ['/tailCapacitanceF', 0, null],
     ['/tailCapacitanceF', 1e-9, null],
     ['/tailCapacitanceF', 2e-9, '/tailCapacitanceF'],
@@ -157,7 +157,7 @@ describe('validateSpec', () => {
     ['/device/beta', 5, '/device/beta: must be >= 10 A/A, got 5 A/A'],
     ['/device/earlyVoltageV', 0.5, '/device/earlyVoltageV: must not be strictly between 0 and 1 V, got 0.5 V'],
     ['/powerBudgetW', 0, '/powerBudgetW: must be > 0 W, got 0 W'],
-    ['/resistors/tolerance', 0.3, '/resistors/tolerance: must be <= 0.2, got 0.3'],
+    ['/resistors/tolerancePercent', 30, '/resistors/tolerancePercent: must be <= 20 %, got 30 %'],
     ['/gain/output', 'both', '/gain/output: must be one of differential, single-ended, got "both"'],
     ['/device/family', 'pnp', '/device/family: must be "npn", got "pnp"'],
   ])('range message for %s = %j names the limit and unit', (pointer, value, expected) => {

@@ -51,7 +51,7 @@ export function RankingView({ proposal }: { proposal: Proposal }) {
           <RejectionFigure result={result} selected={selected} />
         </Sheet>
       )}
-      {option && <OptionDetail option={option} recommended={option.topology === result.recommended} series={resistors?.series ?? null} tolerance={resistors?.tolerance ?? null} />}
+      {option && <OptionDetail option={option} recommended={option.topology === result.recommended} series={resistors?.series ?? null} tolerancePercent={resistors?.tolerancePercent ?? null} />}
     </div>
   );
 }

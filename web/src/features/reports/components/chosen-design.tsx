@@ -66,7 +66,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
               The stage with the {topologyName(design.tail.topology).toLowerCase()} tail, as sized (on screen, the tail element is in the accent colour).
             </figcaption>
           </figure>
-          <SizedValues design={design} series={payload?.resistors?.series ?? null} tolerance={payload?.resistors?.tolerance ?? null} facts={option?.figures ?? null} predicted={option?.predicted ?? null} />
+          <SizedValues design={design} series={payload?.resistors?.series ?? null} tolerancePercent={payload?.resistors?.tolerancePercent ?? null} facts={option?.figures ?? null} predicted={option?.predicted ?? null} />
         </div>
       ) : (
         subject.option && <p className="text-sm">This option could not be sized{subject.option.error ? `: ${subject.option.error}` : '.'}</p>

@@ -22,7 +22,7 @@ function Part({ title, children }: { title: string; children: ReactNode }) {
 }
 
 /** Everything about the selected option: values, schematic, checks, plots, corners, notes. */
-export function OptionDetail({ option, recommended, series, tolerance }: { option: RecommendOption; recommended: boolean; series: ResistorSeries | null; tolerance: number | null }) {
+export function OptionDetail({ option, recommended, series, tolerancePercent }: { option: RecommendOption; recommended: boolean; series: ResistorSeries | null; tolerancePercent: number | null }) {
   const name = topologyName(option.topology);
   const short = blockingShortCount(option);
   return (
@@ -41,7 +41,7 @@ export function OptionDetail({ option, recommended, series, tolerance }: { optio
             <OptionSchematic design={option.design} className="mx-auto w-full max-w-[560px]" />
             <figcaption className="mt-1 text-center text-xs text-ink-soft dark:text-night-ink-soft">The stage as sized; the tail element in the accent colour.</figcaption>
           </figure>
-          <SizedValues design={option.design} series={series} tolerance={tolerance} facts={option.figures} predicted={option.predicted} />
+          <SizedValues design={option.design} series={series} tolerancePercent={tolerancePercent} facts={option.figures} predicted={option.predicted} />
         </div>
       ) : (
         <EmptyState title="This option could not be sized">{option.error}</EmptyState>

@@ -34,19 +34,20 @@ function Group({ title, children }: { title: string; children: ReactNode }) {
 export function SizedValues({
   design,
   series,
-  tolerance,
+  tolerancePercent,
   facts,
   predicted,
 }: {
   design: Design;
   series: ResistorSeries | null;
-  tolerance: number | null;
+  /** The spec's resistor tolerance in per cent (1 for ±1 %). */
+  tolerancePercent: number | null;
   facts: OptionFacts | null;
   predicted: AnalyzeResult | null;
 }) {
   const d = design.device;
   const seriesNote = (valueOhm: number) =>
-    series === null ? undefined : onSeries(valueOhm, series) ? `${series}${tolerance ? `, ±${formatPercent(tolerance * 100).replace(' ', '\u00a0')}` : ''}` : `not on ${series}`;
+    series === null ? undefined : onSeries(valueOhm, series) ? `${series}${tolerancePercent ? `, ±${formatPercent(tolerancePercent).replace(' ', '\u00a0')}` : ''}` : `not on ${series}`;
   return (
     <table className="w-full text-sm">
       <caption className="sr-only">Sized values of this option</caption>
