@@ -12,7 +12,7 @@
  * DEVICE_LIBRARY_QUOTA.cards cards and keeps at most DEVICE_LIBRARY_QUOTA.versions in all.
  */
 import { createHash } from 'node:crypto';
-import { In, IsNull, Not, type DataSource, type EntityManager } from 'typeorm';
+import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
 import { cardCommentLines, cardDevice, cardNotes, readModelFile, type CardDevice, type CardOrigin } from '../../shared/devices/model-card';
 import { DEVICE_LIBRARY_QUOTA, type DeviceModelState, type DeviceModelView, type RecordedDeviceModel } from '../../shared/devices/types';
 import type { DeviceParams } from '../../shared/engine/types';
