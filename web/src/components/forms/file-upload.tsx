@@ -8,7 +8,8 @@ import { useId, type ChangeEvent } from 'react';
 import { ApiError } from '../../lib/api';
 import { cn } from '../../lib/cn';
 
-export function FileUploadButton({ label, accept, pending, onFile }: { label: string; accept: string; pending: boolean; onFile: (file: File) => void }) {
+/** `srLabel`: the control's name for assistive technology when the visible label is short ("Replace…" in a row of cards). */
+export function FileUploadButton({ label, srLabel, accept, pending, onFile }: { label: string; srLabel?: string; accept: string; pending: boolean; onFile: (file: File) => void }) {
   const inputId = useId();
   const onChange = (event: ChangeEvent<HTMLInputElement>) => {
     const file = event.target.files?.[0];
@@ -21,7 +22,8 @@ export function FileUploadButton({ label, accept, pending, onFile }: { label: st
         htmlFor={inputId}
         className="inline-flex cursor-pointer items-center rounded-md border border-rule bg-sheet px-3 py-1.5 text-sm font-medium hover:bg-paper dark:border-night-rule dark:bg-night-sheet dark:hover:bg-night"
       >
-        {pending ? 'Reading the file…' : label}
+        {pending ? 'Reading the file…' : srLabel ? <span aria-hidden="true">{label}</span> : label}
+        {srLabel && !pending && <span className="sr-only">{srLabel}</span>}
       </label>
       <input id={inputId} type="file" accept={accept} className="sr-only" disabled={pending} onChange={onChange} />
     </div>
