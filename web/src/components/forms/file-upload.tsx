@@ -22,10 +22,9 @@ export function FileUploadButton({ label, srLabel, accept, pending, onFile }: { 
         htmlFor={inputId}
         className="inline-flex cursor-pointer items-center rounded-md border border-rule bg-sheet px-3 py-1.5 text-sm font-medium hover:bg-paper dark:border-night-rule dark:bg-night-sheet dark:hover:bg-night"
       >
-        {pending ? 'Reading the file…' : srLabel ? <span aria-hidden="true">{label}</span> : label}
-        {srLabel && !pending && <span className="sr-only">{srLabel}</span>}
+        {pending ? 'Reading the file…' : label}
       </label>
-      <input id={inputId} type="file" accept={accept} className="sr-only" disabled={pending} onChange={onChange} />
+      <input id={inputId} type="file" accept={accept} aria-label={srLabel} className="sr-only" disabled={pending} onChange={onChange} />
     </div>
   );
 }

@@ -5,21 +5,32 @@
  * in the library, replaced by a new text, or removed.
  */
 import { useQuery } from '@tanstack/react-query';
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { DEVICE_PICKER_PAGE_SIZE, projectDevicesQuery, recordedDeviceQuery } from '../../devices/api/device-queries';
-import type { DeviceLibraryState, DeviceModelRef } from '../lib/device-choice';
+import { libraryDeviceFor, type DeviceLibraryState, type DeviceModelRef } from '../lib/device-choice';
+
+const SEARCH_PAUSE_MS = 250;
 
 const isChecksum = (value: string) => /^[0-9a-fA-F]{64}$/.test(value);
 
 export function useDeviceLibrary(projectId: number | undefined, recordedRef: DeviceModelRef | undefined): DeviceLibraryState | undefined {
   const [filter, setFilter] = useState('');
+  // The library is asked once typing pauses, not at every key.
+  const [asked, setAsked] = useState('');
+  useEffect(() => {
+    const timer = setTimeout(() => setAsked(filter), SEARCH_PAUSE_MS);
+    return () => clearTimeout(timer);
+  }, [filter]);
   const enabled = projectId !== undefined;
-  const page = useQuery({ ...projectDevicesQuery(projectId ?? 0, { q: filter, pageSize: DEVICE_PICKER_PAGE_SIZE }), enabled });
-  const lookup = recordedRef && isChecksum(recordedRef.checksum) ? recordedRef : undefined;
+  const page = useQuery({ ...projectDevicesQuery(projectId ?? 0, { q: asked, pageSize: DEVICE_PICKER_PAGE_SIZE }), enabled });
+  // A card of the page the spec records needs no lookup: it is in the library as recorded.
+  const onPage = recordedRef ? libraryDeviceFor(recordedRef, page.data?.items) : undefined;
+  const lookup = recordedRef && isChecksum(recordedRef.checksum) && !onPage && !page.isPending ? recordedRef : undefined;
   const recorded = useQuery({ ...recordedDeviceQuery(projectId ?? 0, lookup?.name ?? '', lookup?.checksum ?? ''), enabled: enabled && lookup !== undefined });
   return useMemo<DeviceLibraryState | undefined>(() => {
     if (!enabled) return undefined;
     const items = page.data?.items;
+    if (onPage) return { items, total: page.data?.total ?? 0, loading: false, error: page.error, filter, setFilter, recorded: { recorded: onPage, current: onPage } };
     const own = recorded.data?.recorded;
     return {
       // The recorded card joins the page's cards when the filter leaves it out, so the form can still read it.
@@ -29,7 +40,7 @@ export function useDeviceLibrary(projectId: number | undefined, recordedRef: Dev
       error: page.error,
       filter,
       setFilter,
-      recorded: lookup ? (recorded.data ?? (recorded.isPending ? 'loading' : null)) : null,
+      recorded: lookup ? (recorded.data ?? (recorded.isPending ? 'loading' : null)) : recordedRef ? 'loading' : null,
     };
-  }, [enabled, page.data, page.isPending, page.error, recorded.data, recorded.isPending, filter, lookup]);
+  }, [enabled, page.data, page.isPending, page.error, recorded.data, recorded.isPending, filter, lookup, onPage, recordedRef]);
 }
