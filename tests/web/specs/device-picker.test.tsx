@@ -47,7 +47,7 @@ afterEach(() => {
 
 const FIRST_PAGE = 'GET /api/projects/1/devices?page=1&pageSize=100&state=library';
 
-function renderForm(projectId: number | undefined, initial: SpecDraft = SAVED, more: Record<string, MockAnswer> = {}) {
+function renderForm(projectId: number | undefined, initial: SpecDraft = SAVED, more: Record<string, MockAnswer> = {}, editable = true) {
   network = mockFetch({
     'GET /api/schema/spec': { status: 200, body: specSchema },
     [FIRST_PAGE]: { status: 200, body: { items: LIBRARY, total: LIBRARY.length, page: 1, pageSize: 100 } },
@@ -59,7 +59,7 @@ function renderForm(projectId: number | undefined, initial: SpecDraft = SAVED, m
   const onSave = vi.fn((draft: SpecDraft) => saveSpecVersion(7, { title: String(draft.title ?? ''), payload: draft }));
   render(
     <QueryClientProvider client={queryClient}>
-      <SpecForm initial={initial} onSave={onSave} saveLabel="Save as new version" projectId={projectId} />
+      <SpecForm initial={initial} onSave={editable ? onSave : undefined} saveLabel="Save as new version" projectId={projectId} />
     </QueryClientProvider>,
   );
   return { saved: () => network!.requests.filter((r) => r.key === 'PUT /api/specs/7').map((r) => (r.body as { payload: Record<string, any> }).payload) };
@@ -136,5 +136,15 @@ describe('the device picker of the spec form', () => {
     expect(screen.getByText('.model FH-K200 NPN (IS=4e-15 BF=200 VAF=90)')).toBeTruthy();
     // The spec keeps its values and its record until someone chooses otherwise
     expect((screen.getByLabelText(/^Current gain/) as HTMLInputElement).value).toBe('200');
+  });
+
+  test('when a read-only viewer opens a spec whose card was since removed, then only that card is looked up and the spec says it was removed, by whom and when', async () => {
+    const removed = { ...card(8, 'FH-K90', 90, 7e-15, 40), checksum: 'd'.repeat(64), state: 'removed' as const, retiredAt: '2026-11-21T10:00:00.000Z', retiredBy: { id: 2, displayName: 'Odile Marchetti' } };
+    const filled: SpecDraft = { ...SAVED, device: { beta: 90, saturationCurrentA: 7e-15, earlyVoltageV: 40 }, deviceModel: { name: 'FH-K90', checksum: 'd'.repeat(64) } };
+    renderForm(1, filled, { [`GET /api/projects/1/devices/recorded?name=FH-K90&checksum=${'d'.repeat(64)}`]: { status: 200, body: { recorded: removed, current: null } } }, false);
+
+    expect(await screen.findByText(/since removed from the library on 21 Nov 2026 by Odile Marchetti\./, {}, { timeout: 3000 })).toBeTruthy();
+    expect(screen.queryByLabelText('Fill from the device library')).toBeNull();
+    expect(network!.requests.map((r) => r.key).filter((key) => key.includes('/devices'))).toEqual([`GET /api/projects/1/devices/recorded?name=FH-K90&checksum=${'d'.repeat(64)}`]);
   });
 });

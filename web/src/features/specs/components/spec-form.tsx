@@ -38,7 +38,7 @@ export interface SpecFormProps {
   note?: ReactNode;
   /** Told whenever the form starts or stops differing from `initial`. */
   onDirtyChange?: (dirty: boolean) => void;
-  /** The project whose device library the Device card offers to fill the transistor model from (absent: no picker). */
+  /** The project whose device library the Device card offers to fill the transistor model from, and resolves a recorded card in (absent: neither). */
   projectId?: number;
 }
 
@@ -81,7 +81,7 @@ function SpecFormBody({
     () => (recordedName !== undefined && recordedChecksum !== undefined ? { name: recordedName, checksum: recordedChecksum } : undefined),
     [recordedName, recordedChecksum],
   );
-  const deviceLibrary = useDeviceLibrary(projectId, recordedRef);
+  const deviceLibrary = useDeviceLibrary(projectId, recordedRef, onSave !== undefined);
   const [serverErrors, setServerErrors] = useState<ErrorSchema>({});
   // What went wrong with the last save: the browser's checks, the server's field errors, or anything else
   const [problem, setProblem] = useState<{ kind: 'client' | 'server' | 'other'; text: string } | null>(null);

@@ -13,7 +13,8 @@ const SEARCH_PAUSE_MS = 250;
 
 const isChecksum = (value: string) => /^[0-9a-fA-F]{64}$/.test(value);
 
-export function useDeviceLibrary(projectId: number | undefined, recordedRef: DeviceModelRef | undefined): DeviceLibraryState | undefined {
+/** `browse`: the form can change the device, so the picker's page of cards is fetched; read-only, only the recorded card is looked up. */
+export function useDeviceLibrary(projectId: number | undefined, recordedRef: DeviceModelRef | undefined, browse = true): DeviceLibraryState | undefined {
   const [filter, setFilter] = useState('');
   // The library is asked once typing pauses, not at every key.
   const [asked, setAsked] = useState('');
@@ -22,10 +23,10 @@ export function useDeviceLibrary(projectId: number | undefined, recordedRef: Dev
     return () => clearTimeout(timer);
   }, [filter]);
   const enabled = projectId !== undefined;
-  const page = useQuery({ ...projectDevicesQuery(projectId ?? 0, { q: asked, pageSize: DEVICE_PICKER_PAGE_SIZE }), enabled });
+  const page = useQuery({ ...projectDevicesQuery(projectId ?? 0, { q: asked, pageSize: DEVICE_PICKER_PAGE_SIZE }), enabled: enabled && browse });
   // A card of the page the spec records needs no lookup: it is in the library as recorded.
   const onPage = recordedRef ? libraryDeviceFor(recordedRef, page.data?.items) : undefined;
-  const lookup = recordedRef && isChecksum(recordedRef.checksum) && !onPage && !page.isPending ? recordedRef : undefined;
+  const lookup = recordedRef && isChecksum(recordedRef.checksum) && !onPage && (!browse || !page.isPending) ? recordedRef : undefined;
   const recorded = useQuery({ ...recordedDeviceQuery(projectId ?? 0, lookup?.name ?? '', lookup?.checksum ?? ''), enabled: enabled && lookup !== undefined });
   return useMemo<DeviceLibraryState | undefined>(() => {
     if (!enabled) return undefined;
@@ -36,11 +37,11 @@ export function useDeviceLibrary(projectId: number | undefined, recordedRef: Dev
       // The recorded card joins the page's cards when the filter leaves it out, so the form can still read it.
       items: items && own && own.state === 'library' && !items.some((d) => d.id === own.id) ? [...items, own] : items,
       total: page.data?.total ?? 0,
-      loading: page.isPending,
+      loading: browse && page.isPending,
       error: page.error,
       filter,
       setFilter,
       recorded: lookup ? (recorded.data ?? (recorded.isPending ? 'loading' : null)) : recordedRef ? 'loading' : null,
     };
-  }, [enabled, page.data, page.isPending, page.error, recorded.data, recorded.isPending, filter, lookup, onPage, recordedRef]);
+  }, [enabled, browse, page.data, page.isPending, page.error, recorded.data, recorded.isPending, filter, lookup, onPage, recordedRef]);
 }
