@@ -171,7 +171,7 @@ function DeviceTable({
           <Tr key={d.id}>
             <Td className="align-top">
               <details>
-                <summary className="cursor-pointer font-medium">{d.name}</summary>
+                <summary className="cursor-pointer font-medium whitespace-nowrap">{d.name}</summary>
                 <pre className="mt-1 max-w-xl overflow-x-auto rounded bg-paper p-2 text-xs dark:bg-night">{d.card}</pre>
                 {d.notes.map((note) => (
                   <p key={note} className="mt-1 max-w-xl text-xs leading-snug text-ink-soft dark:text-night-ink-soft">
