@@ -91,5 +91,5 @@ export const NETLIST_QUERY = strict(
 /** POST /api/projects/:id/specs/import: `?dryRun=true` reports each row and saves nothing. */
 export const IMPORT_QUERY = strict({ dryRun: { enum: ['true', 'false'], default: 'false' } }, []);
 
-/** GET /api/projects/:id/proposals.csv?ids=12,13,14: the ids' form is checked by the route (a lone id arrives as a number). */
+/** GET /api/projects/:id/proposals.csv?ids=12,13,14: the ids' form is checked by the route (the value arrives as text). */
 export const BATCH_CSV_QUERY = strict({ ids: {} }, ['ids']);
