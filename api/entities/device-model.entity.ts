@@ -3,7 +3,8 @@ import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColum
 
 /**
  * One NPN `.model` card of a project's device library, as uploaded (shared/devices/model-card.ts
- * reads it). Cards are never edited or replaced: a name is taken once per project.
+ * reads it). A card's text is never edited: removing it or replacing it with a new text retires
+ * the row (it stays readable for the specs that recorded it) and frees its name.
  */
 export interface DeviceModel {
   id: number;
@@ -23,6 +24,12 @@ export interface DeviceModel {
   checksum: string;
   uploadedById: number;
   uploadedAt: string;
+  /** Set when the card left the library: when, by whom, and how (`removed` | `replaced`). */
+  retiredAt: string | null;
+  retiredById: number | null;
+  retirement: 'removed' | 'replaced' | null;
+  /** For a replaced card: the card that took its place. */
+  replacedById: number | null;
 }
 
 export const DeviceModelEntity = new EntitySchema<DeviceModel>({
@@ -40,5 +47,9 @@ export const DeviceModelEntity = new EntitySchema<DeviceModel>({
     checksum: shortTextColumn(64),
     uploadedById: foreignKeyColumn('uploaded_by_id'),
     uploadedAt: timestampColumn('uploaded_at'),
+    retiredAt: { type: 'varchar', length: 32, name: 'retired_at', nullable: true },
+    retiredById: foreignKeyColumn('retired_by_id', true),
+    retirement: { ...shortTextColumn(20, true), name: 'retirement' },
+    replacedById: foreignKeyColumn('replaced_by_id', true),
   },
 });

@@ -1,8 +1,11 @@
 /**
- * A project's device library: `GET` lists its NPN .model cards (anyone who sees the project),
- * `POST` uploads a text file of cards as multipart/form-data in the field `file` (the roles with
- * 'devices:write'). The file is held in memory (at most MODEL_FILE_MAX_BYTES) and read as text
- * by shared/devices/model-card.ts; the CSRF header applies as to every state-changing request.
+ * A project's device library: `GET` lists a page of its NPN .model cards (anyone who sees the
+ * project), `GET /recorded?name=&checksum=` resolves the card a spec recorded, `GET /:deviceId`
+ * answers one card (retired ones included); `POST` uploads a text file of cards as
+ * multipart/form-data in the field `file`, `PUT /:deviceId` replaces a card with the one card of
+ * such a file, `DELETE /:deviceId` removes it (the roles with 'devices:write'). The file is held
+ * in memory (at most MODEL_FILE_MAX_BYTES) and read as text by shared/devices/model-card.ts; the
+ * CSRF header applies as to every state-changing request.
  */
 import { Router, type Request, type RequestHandler } from 'express';
 import multer from 'multer';
@@ -10,8 +13,9 @@ import type { DataSource } from 'typeorm';
 import { MODEL_FILE_MAX_BYTES } from '../../shared/devices/model-card';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { AppError, invalid } from '../errors';
-import { listDeviceModels, uploadDeviceModels } from '../services/devices.service';
-import { idParam } from '../validation/validate-request';
+import { getDeviceModel, listDeviceModels, recordedDeviceModel, removeDeviceModel, replaceDeviceModel, uploadDeviceModels, type DeviceListQuery } from '../services/devices.service';
+import { DEVICE_LIST_QUERY, DEVICE_RECORDED_QUERY } from '../validation/bodies';
+import { idParam, validateQuery } from '../validation/validate-request';
 
 /** The multipart form field that carries the file. */
 export const MODEL_FILE_FIELD = 'file';
@@ -47,19 +51,41 @@ const receiveModelFile: RequestHandler = (req, res, next) => {
 /** The project id of the mount path (`/api/projects/:projectId/devices`), else 404. */
 const projectIdOf = (req: Request) => idParam((req.params as Record<string, string | undefined>).projectId, 'project');
 
+const deviceIdOf = (req: Request) => idParam((req.params as Record<string, string | undefined>).deviceId, 'device-model');
+
+/** The uploaded file, or 400 asking for it. */
+function fileOf(req: Request) {
+  if (!req.file) {
+    throw invalid([{ path: `/${MODEL_FILE_FIELD}`, message: `attach a text file of .model cards in the form field "${MODEL_FILE_FIELD}" (multipart/form-data)` }], 'No file was uploaded.');
+  }
+  return { originalName: req.file.originalname, bytes: req.file.buffer };
+}
+
 export function devicesRoutes(dataSource: DataSource): Router {
   const router = Router({ mergeParams: true });
   router.use(requireSignIn);
-  router.get('/', async (req, res) => {
-    res.json({ items: await listDeviceModels(dataSource, currentUser(req), projectIdOf(req)) });
+  router.get('/', validateQuery(DEVICE_LIST_QUERY), async (req, res) => {
+    res.json(await listDeviceModels(dataSource, currentUser(req), projectIdOf(req), res.locals.query as DeviceListQuery));
   });
   router.post('/', requirePermission('devices:write'), receiveModelFile, async (req, res) => {
     const projectId = projectIdOf(req);
-    if (!req.file) {
-      throw invalid([{ path: `/${MODEL_FILE_FIELD}`, message: `attach a text file of .model cards in the form field "${MODEL_FILE_FIELD}" (multipart/form-data)` }], 'No file was uploaded.');
-    }
-    const items = await uploadDeviceModels(dataSource, currentUser(req), projectId, { originalName: req.file.originalname, bytes: req.file.buffer });
+    const items = await uploadDeviceModels(dataSource, currentUser(req), projectId, fileOf(req));
     res.status(201).json({ items });
+  });
+  router.get('/recorded', validateQuery(DEVICE_RECORDED_QUERY), async (req, res) => {
+    res.json(await recordedDeviceModel(dataSource, currentUser(req), projectIdOf(req), res.locals.query as { name: string; checksum: string }));
+  });
+  router.get('/:deviceId', async (req, res) => {
+    res.json(await getDeviceModel(dataSource, currentUser(req), projectIdOf(req), deviceIdOf(req)));
+  });
+  router.put('/:deviceId', requirePermission('devices:write'), receiveModelFile, async (req, res) => {
+    const projectId = projectIdOf(req);
+    const deviceId = deviceIdOf(req);
+    res.json(await replaceDeviceModel(dataSource, currentUser(req), projectId, deviceId, fileOf(req)));
+  });
+  router.delete('/:deviceId', requirePermission('devices:write'), async (req, res) => {
+    await removeDeviceModel(dataSource, currentUser(req), projectIdOf(req), deviceIdOf(req));
+    res.status(204).end();
   });
   return router;
 }

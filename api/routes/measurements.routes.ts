@@ -1,6 +1,7 @@
 /**
- * Bench measurements of a proposal's decided design: `GET` lists them with their comparison
- * (anyone who sees the project), `POST` uploads one CSV as multipart/form-data in the field
+ * Bench measurements of a proposal's decided design: `GET` lists a page of them with their
+ * comparison but without their points (anyone who sees the project), `GET /:measurementId` answers
+ * one with its points, `POST` uploads one CSV as multipart/form-data in the field
  * `file`, with an optional `note` field ('measurements:write': designers and reviewers), and
  * `GET /:measurementId/file` answers the original bytes, always as a text/csv attachment that the
  * browser may not sniff into anything else, with any cell a spreadsheet would run as a formula
@@ -14,8 +15,9 @@ import { MEASUREMENT_NOTE_MAX_LENGTH } from '../../shared/measurements/types';
 import { spreadsheetSafeDelimited, unsafeTextMessage } from '../../shared/text/plain-text';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { AppError, invalid } from '../errors';
-import { listMeasurements, measurementFile, uploadMeasurement } from '../services/measurements.service';
-import { idParam } from '../validation/validate-request';
+import { getMeasurement, listMeasurements, measurementFile, uploadMeasurement, type MeasurementPageQuery } from '../services/measurements.service';
+import { MEASUREMENT_LIST_QUERY } from '../validation/bodies';
+import { idParam, validateQuery } from '../validation/validate-request';
 
 /** The multipart form fields: the file, and an optional note. */
 export const MEASUREMENT_FILE_FIELD = 'file';
@@ -67,8 +69,8 @@ function noteOf(req: Request): string | null {
 export function measurementsRoutes(dataSource: DataSource, uploadsDir: string): Router {
   const router = Router({ mergeParams: true });
   router.use(requireSignIn);
-  router.get('/', async (req, res) => {
-    res.json({ items: await listMeasurements(dataSource, currentUser(req), proposalIdOf(req)) });
+  router.get('/', validateQuery(MEASUREMENT_LIST_QUERY), async (req, res) => {
+    res.json(await listMeasurements(dataSource, currentUser(req), proposalIdOf(req), res.locals.query as MeasurementPageQuery));
   });
   router.post('/', requirePermission('measurements:write'), receiveFile, async (req, res) => {
     const proposalId = proposalIdOf(req);
@@ -78,6 +80,9 @@ export function measurementsRoutes(dataSource: DataSource, uploadsDir: string): 
     const note = noteOf(req);
     const measurement = await uploadMeasurement(dataSource, uploadsDir, currentUser(req), proposalId, { originalName: req.file.originalname, bytes: req.file.buffer }, note);
     res.status(201).json(measurement);
+  });
+  router.get('/:measurementId', async (req, res) => {
+    res.json(await getMeasurement(dataSource, currentUser(req), proposalIdOf(req), idParam(req.params.measurementId, 'measurement')));
   });
   router.get('/:measurementId/file', async (req, res) => {
     const { bytes, downloadName } = await measurementFile(dataSource, uploadsDir, currentUser(req), proposalIdOf(req), idParam(req.params.measurementId, 'measurement'));

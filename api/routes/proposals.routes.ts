@@ -7,7 +7,7 @@ import { rankingCsv } from '../../shared/export/ranking-csv';
 import { validateDesign } from '../../shared/validate';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
-import { listMeasurements } from '../services/measurements.service';
+import { allMeasurements } from '../services/measurements.service';
 import { decide, evaluateOverride, getProposal, proposalAudit, proposalNetlist, review } from '../services/proposals.service';
 import { DECISION_BODY, EVALUATION_BODY, MONTE_CARLO_BODY, NETLIST_QUERY, REVIEW_BODY } from '../validation/bodies';
 import { requestMonteCarlo, requestVerification, verificationStatus } from '../services/verification.service';
@@ -46,7 +46,7 @@ export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet, verifi
       getProposal(dataSource, viewer, id),
       proposalAudit(dataSource, viewer, id),
       verificationStatus(dataSource, viewer, id),
-      listMeasurements(dataSource, viewer, id),
+      allMeasurements(dataSource, viewer, id),
     ]);
     res.attachment(`longtail-proposal-${proposal.id}.json`).json({ exportedAt: new Date().toISOString(), notice: ESTIMATE_NOTICE, proposal, verification, measurements, audit });
   });

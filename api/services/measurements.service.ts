@@ -13,12 +13,14 @@ import { In, type DataSource, type EntityManager } from 'typeorm';
 import type { RecommendResult } from '../../shared/engine/recommend';
 import { compareMeasurement, measurementReference } from '../../shared/measurements/comparison';
 import { readMeasurementFile, type MeasuredPoint, type MeasurementKind, type MeasurementUnit } from '../../shared/measurements/measurement-csv';
-import type { MeasurementView } from '../../shared/measurements/types';
+import { MEASUREMENT_QUOTA, type MeasurementSummary, type MeasurementView } from '../../shared/measurements/types';
 import type { ProposalVerificationResult } from '../../shared/verification/types';
 import type { ProposalState } from '../../shared/workflow/proposal-states';
 import { DecisionEntity, type Decision } from '../entities/decision.entity';
 import { MeasurementEntity, type Measurement } from '../entities/measurement.entity';
-import type { Proposal } from '../entities/proposal.entity';
+import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
+import { ProjectEntity } from '../entities/project.entity';
+import { lockRowForUpdate } from '../data-source';
 import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { UserEntity } from '../entities/user.entity';
 import { VerificationJobEntity } from '../entities/verification-job.entity';
@@ -76,8 +78,7 @@ function referenceFor(context: ProposalContext, decisionId: number) {
   });
 }
 
-function view(row: Measurement, context: ProposalContext, names: Map<number, string>): MeasurementView {
-  const points = JSON.parse(row.points) as MeasuredPoint[];
+function summary(row: Measurement, points: MeasuredPoint[], context: ProposalContext, names: Map<number, string>): MeasurementSummary {
   const kind = row.kind as MeasurementKind;
   const unit = row.unit as MeasurementUnit;
   return {
@@ -92,7 +93,6 @@ function view(row: Measurement, context: ProposalContext, names: Map<number, str
     sha256: row.sha256,
     sizeBytes: row.sizeBytes,
     pointCount: row.pointCount,
-    points,
     note: row.note,
     uploadedBy: { id: row.uploadedById, displayName: names.get(row.uploadedById) ?? `user #${row.uploadedById}` },
     uploadedAt: row.uploadedAt,
@@ -100,18 +100,127 @@ function view(row: Measurement, context: ProposalContext, names: Map<number, str
   };
 }
 
-async function views(manager: EntityManager | DataSource, rows: Measurement[], context: ProposalContext): Promise<MeasurementView[]> {
+async function uploaderNames(manager: EntityManager | DataSource, rows: Measurement[]): Promise<Map<number, string>> {
   const ids = [...new Set(rows.map((row) => row.uploadedById))];
   const users = ids.length > 0 ? await manager.getRepository(UserEntity).find({ select: { id: true, displayName: true }, where: { id: In(ids) } }) : [];
-  const names = new Map(users.map((user) => [user.id, user.displayName]));
-  return rows.map((row) => view(row, context, names));
+  return new Map(users.map((user) => [user.id, user.displayName]));
 }
 
-/** The proposal's measurements, oldest first, each with its comparison. */
-export async function listMeasurements(dataSource: DataSource, viewer: Viewer, proposalId: number): Promise<MeasurementView[]> {
+/** Full views, the points included (one measurement, the upload's answer, export.json). */
+async function views(manager: EntityManager | DataSource, rows: Measurement[], context: ProposalContext): Promise<MeasurementView[]> {
+  const names = await uploaderNames(manager, rows);
+  return rows.map((row) => {
+    const points = JSON.parse(row.points) as MeasuredPoint[];
+    return { ...summary(row, points, context, names), points };
+  });
+}
+
+/** Query of the list: pages count from 1 (as the proposal list's). */
+export interface MeasurementPageQuery {
+  page: number;
+  pageSize: number;
+}
+
+/**
+ * One page of the proposal's measurements, newest first, each with its comparison but without
+ * its points (they are served one measurement at a time): `{ items, total, page, pageSize }`.
+ */
+export async function listMeasurements(dataSource: DataSource, viewer: Viewer, proposalId: number, query: MeasurementPageQuery) {
+  const proposal = await proposalFor(dataSource, viewer, proposalId);
+  const repository = dataSource.getRepository(MeasurementEntity);
+  const [total, rows] = await Promise.all([
+    repository.countBy({ proposalId }),
+    repository.find({ where: { proposalId }, order: { id: 'DESC' }, skip: (query.page - 1) * query.pageSize, take: query.pageSize }),
+  ]);
+  const context = await contextOf(dataSource, proposal);
+  const names = await uploaderNames(dataSource, rows);
+  // The points are read here only for the comparison; the quota bounds them (MEASUREMENT_QUOTA.proposal.points).
+  const items = rows.map((row) => summary(row, JSON.parse(row.points) as MeasuredPoint[], context, names));
+  return { items, total, page: query.page, pageSize: query.pageSize };
+}
+
+/** One measurement of a visible proposal with its points and comparison. */
+export async function getMeasurement(dataSource: DataSource, viewer: Viewer, proposalId: number, measurementId: number): Promise<MeasurementView> {
+  const proposal = await proposalFor(dataSource, viewer, proposalId);
+  const row = await dataSource.getRepository(MeasurementEntity).findOneBy({ id: measurementId, proposalId });
+  if (!row) throw notFound('measurement');
+  const [shown] = await views(dataSource, [row], await contextOf(dataSource, proposal));
+  return shown;
+}
+
+/** Every measurement of a visible proposal with its points, oldest first (export.json; bounded by the quota). */
+export async function allMeasurements(dataSource: DataSource, viewer: Viewer, proposalId: number): Promise<MeasurementView[]> {
   const proposal = await proposalFor(dataSource, viewer, proposalId);
   const rows = await dataSource.getRepository(MeasurementEntity).find({ where: { proposalId }, order: { id: 'ASC' } });
   return views(dataSource, rows, await contextOf(dataSource, proposal));
+}
+
+/** What a proposal (or a project) holds already: measurements, points and bytes. */
+interface Stored {
+  count: number;
+  points: number;
+  bytes: number;
+}
+
+async function storedIn(manager: EntityManager | DataSource, where: { proposalId: number } | { projectId: number }): Promise<Stored> {
+  const query = manager
+    .getRepository(MeasurementEntity)
+    .createQueryBuilder('m')
+    .select('COUNT(*)', 'count')
+    .addSelect('COALESCE(SUM(m.pointCount), 0)', 'points')
+    .addSelect('COALESCE(SUM(m.sizeBytes), 0)', 'bytes');
+  if ('proposalId' in where) query.where('m.proposalId = :proposalId', { proposalId: where.proposalId });
+  else query.innerJoin(ProposalEntity.options.name, 'p', 'p.id = m.proposalId').where('p.projectId = :projectId', { projectId: where.projectId });
+  const raw = (await query.getRawOne()) as { count: unknown; points: unknown; bytes: unknown } | undefined;
+  return { count: Number(raw?.count ?? 0), points: Number(raw?.points ?? 0), bytes: Number(raw?.bytes ?? 0) };
+}
+
+const thousands = (n: number) => n.toLocaleString('en-GB');
+/** Sizes in KB (rounded up) below 10 MB, so a total and the room left read in the same unit; whole MB as the limits are stated. */
+const sizeText = (bytes: number) => (bytes >= 10 * 1024 * 1024 || (bytes >= 1024 * 1024 && bytes % (1024 * 1024) === 0) ? `${thousands(Math.round((bytes / (1024 * 1024)) * 10) / 10)} MB` : `${thousands(Math.ceil(bytes / 1024))} KB`);
+
+/**
+ * The quotas (MEASUREMENT_QUOTA): 409 `measurement-quota-full` when the proposal or the project
+ * already holds as many measurements as it keeps; 413 `measurement-quota-exceeded` when this file
+ * would take its points or bytes past a total (a smaller file may still fit). The message names
+ * the limit and what to do.
+ */
+function checkQuota(scope: 'proposal' | 'project', stored: Stored, adding: { points: number; bytes: number }): void {
+  const quota = MEASUREMENT_QUOTA[scope];
+  const holder = scope === 'proposal' ? 'This proposal' : "This proposal's project";
+  const elsewhere =
+    scope === 'proposal'
+      ? 'Measurements stay with the proposal as part of its record; put further sweeps of this build into fewer, thinner files, or measure a revised build on a new proposal.'
+      : 'Measurements stay with their proposals as part of the record; thin new sweeps (a few hundred points cover a rejection curve), or ask an administrator to start a new project for further builds.';
+  if (stored.count >= quota.count) {
+    throw new AppError('measurement-quota-full', 409, `${holder} already holds ${thousands(stored.count)} bench measurements, the most it keeps (${thousands(quota.count)}). ${elsewhere}`, [
+      { path: '/file', message: `the ${scope}'s measurement quota is ${thousands(quota.count)} files` },
+    ]);
+  }
+  if (stored.points + adding.points > quota.points) {
+    const room = Math.max(0, quota.points - stored.points);
+    throw new AppError(
+      'measurement-quota-exceeded',
+      413,
+      `This file's ${thousands(adding.points)} points would take ${scope === 'proposal' ? 'this proposal' : "the proposal's project"} past its ${thousands(quota.points)} measured points (${thousands(stored.points)} stored, room for ${thousands(room)}). Upload a sweep of at most ${thousands(room)} points. ${elsewhere}`,
+      [{ path: '/file', message: `has ${thousands(adding.points)} points; the ${scope} has room for ${thousands(room)}` }],
+    );
+  }
+  if (stored.bytes + adding.bytes > quota.bytes) {
+    const room = Math.max(0, quota.bytes - stored.bytes);
+    throw new AppError(
+      'measurement-quota-exceeded',
+      413,
+      `This file (${sizeText(adding.bytes)}) would take ${scope === 'proposal' ? 'this proposal' : "the proposal's project"} past its ${sizeText(quota.bytes)} of measurement files (${sizeText(stored.bytes)} stored, room for ${sizeText(room)}). Upload a smaller file (drop comment lines or thin the sweep). ${elsewhere}`,
+      [{ path: '/file', message: `is ${sizeText(adding.bytes)}; the ${scope} has room for ${sizeText(room)}` }],
+    );
+  }
+}
+
+/** Both quotas, the proposal's first. */
+async function checkQuotas(manager: EntityManager | DataSource, proposal: Pick<Proposal, 'id' | 'projectId'>, adding: { points: number; bytes: number }): Promise<void> {
+  checkQuota('proposal', await storedIn(manager, { proposalId: proposal.id }), adding);
+  checkQuota('project', await storedIn(manager, { projectId: proposal.projectId }), adding);
 }
 
 /** The path of a stored file: the uploads directory and the content's sha256 (64 hex digits, nothing else). */
@@ -160,13 +269,19 @@ export async function uploadMeasurement(
       `${fileName} was not saved: fix ${read.problems.length === 1 ? 'the problem' : 'the problems'} listed, then upload it again.`,
     );
   }
+  const adding = { points: read.points.length, bytes: file.bytes.length };
+  // Checked before the bytes are written (a full proposal stores nothing), and again under the lock.
+  await checkQuotas(dataSource, proposal, adding);
   const sha256 = createHash('sha256').update(file.bytes).digest('hex');
   // The bytes first, then the row: a failed transaction leaves at most an unreferenced file,
   // named by its content, which the next upload of the same bytes reuses; never a row without its file.
   await storeBytes(uploadsDir, sha256, file.bytes);
   return dataSource.transaction(async (manager) => {
-    // Read again inside the transaction: the decision in force is the one measured.
+    // Read again inside the transaction: the decision in force is the one measured. PostgreSQL:
+    // uploads to one project one after the other, so two at once cannot both pass the quota.
+    await lockRowForUpdate(manager, ProjectEntity, proposal.projectId);
     const current = await proposalFor(manager, actor, proposalId);
+    await checkQuotas(manager, current, adding);
     const decision = await manager.getRepository(DecisionEntity).findOne({ where: { proposalId }, order: { id: 'DESC' } });
     if (!decision || !MEASURABLE_STATES.includes(current.status)) throw new AppError('not-decided', 409, `Proposal ${proposalId} has no decision in force: there is no design to measure.`);
     const row = await manager.getRepository(MeasurementEntity).save({

@@ -50,14 +50,25 @@ export const DECISION_BODY = {
 
 export const REVIEW_BODY = strict({ verdict: { enum: ['approve', 'return'] }, comment: text(4000) }, ['verdict']);
 
-export const PROPOSAL_LIST_QUERY = strict(
-  {
-    status: { enum: [...PROPOSAL_STATES] },
-    page: { type: 'integer', minimum: 1, maximum: 1000000, default: 1 },
-    pageSize: { type: 'integer', minimum: 1, maximum: 100, default: 20 },
-  },
-  [],
-);
+/** `?page=1&pageSize=20`: pages count from 1; at most 100 a page. Every paged list takes these two. */
+const PAGE_FIELDS = {
+  page: { type: 'integer', minimum: 1, maximum: 1000000, default: 1 },
+  pageSize: { type: 'integer', minimum: 1, maximum: 100, default: 20 },
+};
+
+export const PROPOSAL_LIST_QUERY = strict({ status: { enum: [...PROPOSAL_STATES] }, ...PAGE_FIELDS }, []);
+
+/** GET /api/proposals/:id/measurements: paged like the proposal list. */
+export const MEASUREMENT_LIST_QUERY = strict({ ...PAGE_FIELDS }, []);
+
+/**
+ * GET /api/projects/:id/devices: paged like the proposal list; `q` keeps the cards whose name
+ * contains it (case-insensitive); `state=former` lists the removed and replaced cards instead.
+ */
+export const DEVICE_LIST_QUERY = strict({ q: { type: 'string', maxLength: 64 }, state: { enum: ['library', 'former'], default: 'library' }, ...PAGE_FIELDS }, []);
+
+/** GET /api/projects/:id/devices/recorded: the card a spec's `deviceModel` names. */
+export const DEVICE_RECORDED_QUERY = strict({ name: { type: 'string', minLength: 1, maxLength: 64 }, checksum: { type: 'string', pattern: '^[0-9a-fA-F]{64}$' } }, ['name', 'checksum']);
 
 export const DIFF_QUERY = strict({ from: { type: 'integer', minimum: 1 }, to: { type: 'integer', minimum: 1 } }, ['from', 'to']);
 
@@ -84,5 +95,5 @@ export const NETLIST_QUERY = strict(
 /** POST /api/projects/:id/specs/import: `?dryRun=true` reports each row and saves nothing. */
 export const IMPORT_QUERY = strict({ dryRun: { enum: ['true', 'false'], default: 'false' } }, []);
 
-/** GET /api/projects/:id/proposals.csv?ids=12,13,14: the ids' form is checked by the route (a lone id arrives as a number). */
+/** GET /api/projects/:id/proposals.csv?ids=12,13,14: the ids' form is checked by the route (the value arrives as text). */
 export const BATCH_CSV_QUERY = strict({ ids: {} }, ['ids']);

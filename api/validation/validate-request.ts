@@ -21,16 +21,26 @@ export function validateBody(schema: object | ((input: unknown) => ValidationRes
   };
 }
 
-/** Query strings arrive as text: numeric-looking values are turned into numbers before the check. */
-function coerceQuery(query: Record<string, unknown>): Record<string, unknown> {
-  return Object.fromEntries(Object.entries(query).map(([k, v]) => [k, typeof v === 'string' && /^-?\d+(\.\d+)?$/.test(v) ? Number(v) : v]));
+/**
+ * Query strings arrive as text: numeric-looking values of the fields the schema types as numbers
+ * are turned into numbers before the check; text fields stay text ("0123", a name of digits).
+ */
+function coerceQuery(query: Record<string, unknown>, numeric: ReadonlySet<string>): Record<string, unknown> {
+  return Object.fromEntries(Object.entries(query).map(([k, v]) => [k, numeric.has(k) && typeof v === 'string' && /^-?\d+(\.\d+)?$/.test(v) ? Number(v) : v]));
+}
+
+/** The query schema's fields typed integer or number. */
+function numericFields(schema: object): Set<string> {
+  const properties = (schema as { properties?: Record<string, { type?: unknown }> }).properties ?? {};
+  return new Set(Object.entries(properties).filter(([, field]) => field.type === 'integer' || field.type === 'number').map(([key]) => key));
 }
 
 /** Validates the query string; the checked copy is left in `res.locals.query`. */
 export function validateQuery(schema: object): RequestHandler {
   const check = compileValidator<unknown>(schema);
+  const numeric = numericFields(schema);
   return (req, res, next) => {
-    const result = check(coerceQuery(req.query as Record<string, unknown>));
+    const result = check(coerceQuery(req.query as Record<string, unknown>, numeric));
     if (!result.ok) return next(invalid(result.errors.map((e) => ({ ...e, path: `?${e.path.replace(/^\//, '')}` }))));
     res.locals.query = result.value;
     next();

@@ -2,7 +2,8 @@
 import type { MeasurementComparison } from './comparison';
 import type { MeasuredPoint, MeasurementKind, MeasurementUnit } from './measurement-csv';
 
-export interface MeasurementView {
+/** One measurement in the list: its metadata and its comparison, without the points. */
+export interface MeasurementSummary {
   id: number;
   proposalId: number;
   /** The decision in force at upload, and the design it settled on. */
@@ -17,7 +18,6 @@ export interface MeasurementView {
   sha256: string;
   sizeBytes: number;
   pointCount: number;
-  points: MeasuredPoint[];
   note: string | null;
   uploadedBy: { id: number; displayName: string };
   uploadedAt: string;
@@ -25,5 +25,21 @@ export interface MeasurementView {
   comparison: MeasurementComparison;
 }
 
+/** One measurement with its points (`GET …/measurements/:measurementId`, the upload's answer, export.json). */
+export interface MeasurementView extends MeasurementSummary {
+  points: MeasuredPoint[];
+}
+
 /** Longest note kept with a measurement, characters. */
 export const MEASUREMENT_NOTE_MAX_LENGTH = 1000;
+
+/**
+ * How much bench data one proposal and one project keep (each file is also held to
+ * MEASUREMENT_FILE_MAX_BYTES and MEASUREMENT_MAX_POINTS). Bytes are the uploaded files' sizes as
+ * sent (a file uploaded twice counts twice). When full, an upload answers 409; when the file
+ * would pass a total, 413 (a smaller file may still fit).
+ */
+export const MEASUREMENT_QUOTA = {
+  proposal: { count: 20, points: 50_000, bytes: 2 * 1024 * 1024 },
+  project: { count: 200, points: 500_000, bytes: 20 * 1024 * 1024 },
+} as const;

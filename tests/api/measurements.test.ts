@@ -141,11 +141,26 @@ describe('POST /api/proposals/:id/measurements with a good file', () => {
     expect(response.body.comparison.predictedDb).not.toBeNull();
   });
 
-  test('when anyone of the project lists the measurements, then every one, oldest first, with its comparison', async () => {
+  test('when anyone of the project lists the measurements, then a page of them, newest first, each with its comparison and without its points', async () => {
     const response = await requirements.get(url(decidedId));
     expect(response.status).toBe(200);
-    expect(response.body.items.map((m: { fileName: string }) => m.fileName)).toEqual(['run 1.csv', 'copy.csv', 'bench.csv']);
-    expect(response.body.items[0].comparison.measuredDb).toBeCloseTo(73.979, 3);
+    expect(response.body).toMatchObject({ total: 3, page: 1, pageSize: 20 });
+    expect(response.body.items.map((m: { fileName: string }) => m.fileName)).toEqual(['bench.csv', 'copy.csv', 'run 1.csv']);
+    expect(response.body.items[2].comparison.measuredDb).toBeCloseTo(73.979, 3);
+    expect(response.body.items[2]).not.toHaveProperty('points');
+  });
+
+  test('when anyone of the project asks for one measurement, then it comes with its points', async () => {
+    const first = (await requirements.get(`${url(decidedId)}?page=3&pageSize=1`)).body.items[0];
+    const response = await requirements.get(`${url(decidedId)}/${first.id}`);
+    expect(response.status).toBe(200);
+    expect(response.body.fileName).toBe('run 1.csv');
+    expect(response.body.points).toEqual([
+      { frequencyHz: 10, value: 80.5 },
+      { frequencyHz: 100, value: 80 },
+      { frequencyHz: 1000, value: 70 },
+      { frequencyHz: 10000, value: 55 },
+    ]);
   });
 
   test('when the proposal is exported, then export.json carries the measurements', async () => {
@@ -176,6 +191,8 @@ describe('POST /api/proposals/:id/measurements refused', () => {
     expect((await outsider.get(url(decidedId))).status).toBe(404);
     const first = (await designer.get(url(decidedId))).body.items[0];
     expect((await outsider.get(`${url(decidedId)}/${first.id}/file`)).status).toBe(404);
+    expect((await outsider.get(`${url(decidedId)}/${first.id}`)).status).toBe(404);
+    expect((await designer.get(`${url(otherId)}/${first.id}`)).status).toBe(404);
     // and a measurement id of another proposal does not open through this one
     expect((await designer.get(`${url(otherId)}/${first.id}/file`)).status).toBe(404);
   });

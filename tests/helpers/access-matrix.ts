@@ -9,12 +9,14 @@
  * check still comes before the 409.
  */
 import { DeviceModelEntity } from '../../api/entities/device-model.entity';
+import { uploadDeviceModels } from '../../api/services/devices.service';
 import { uploadMeasurement } from '../../api/services/measurements.service';
 import { addMember } from '../../api/services/projects.service';
 import { decide, review } from '../../api/services/proposals.service';
 import { updateSpec } from '../../api/services/specs.service';
 import type { PublicUser } from '../../api/services/users.service';
 import type { Action } from '../../shared/workflow/roles';
+import { IsNull, Not } from 'typeorm';
 import { emailOf, specPayload, TEST_PASSWORD, type TestApi } from './api-app';
 
 /** A designer's own values for the evaluation rows (invented; a simple mirror on ±9 V). */
@@ -50,6 +52,11 @@ export interface Ids {
   /** a bench measurement of the approved proposal, and one of the other project's proposal */
   measurement: number;
   otherMeasurement: number;
+  /** a device card in each project (restored into the library before each cell that replaces or removes it) */
+  device: number;
+  otherDevice: number;
+  /** the sha256 of the file both cards came from (a spec's record of them) */
+  deviceChecksum: string;
 }
 
 export interface Row {
@@ -80,6 +87,16 @@ const DEVICE_FILE = { name: 'matrix.lib', content: '.model FH-MATRIX NPN (IS=6f 
 const MEASUREMENT_FILE = { name: 'matrix-bench.csv', content: 'frequency_hz,cmrr_db\n100,80\n1000,74\n' };
 const removeMatrixDevice = async (api: TestApi) => {
   await api.dataSource.getRepository(DeviceModelEntity).delete({ nameKey: 'fh-matrix' });
+};
+/** The card every replace and remove cell acts on, and the replacement text those cells send. */
+const LIBRARY_CARD = { name: 'matrix-card.lib', content: '.model FH-MATRIX-R NPN (IS=6f BF=140 VAF=70)\n' };
+const REPLACEMENT_CARD = { name: 'matrix-card-2.lib', content: '.model FH-MATRIX-R NPN (IS=6f BF=150 VAF=72)\n' };
+/** Puts the card `{key}` back into its library as uploaded (its replacements deleted), so each allowed cell succeeds once. */
+const restoreMatrixCard = (key: 'device' | 'otherDevice') => async (api: TestApi, ids: Ids) => {
+  const repository = api.dataSource.getRepository(DeviceModelEntity);
+  const card = await repository.findOneByOrFail({ id: ids[key] });
+  await repository.delete({ projectId: card.projectId, name: card.name, retirement: IsNull(), id: Not(card.id) });
+  await repository.update({ id: card.id }, { nameKey: card.name.toLowerCase(), retirement: null, retiredAt: null, retiredById: null, replacedById: null });
 };
 const ensureReviewer2Member = (key: 'project' | 'otherProject') => async (api: TestApi, ids: Ids) => {
   await addMember(api.dataSource, api.users.admin, ids[key], ids.reviewer2);
@@ -140,6 +157,34 @@ export const MATRIX: Row[] = [
   { route: 'GET /api/projects/:projectId/devices', url: '/api/projects/{otherProject}/devices', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
   { route: 'POST /api/projects/:projectId/devices', url: '/api/projects/{project}/devices', rule: 'devices:write', file: DEVICE_FILE, arrange: removeMatrixDevice, expected: [401, 403, 201, 201, 403] },
   { route: 'POST /api/projects/:projectId/devices', url: '/api/projects/{otherProject}/devices', rule: 'devices:write', file: DEVICE_FILE, arrange: removeMatrixDevice, expected: [401, 403, 404, 404, 403] },
+  { route: 'GET /api/projects/:projectId/devices/recorded', url: '/api/projects/{project}/devices/recorded?name=FH-MATRIX-R&checksum={deviceChecksum}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:projectId/devices/recorded', url: '/api/projects/{otherProject}/devices/recorded?name=FH-MATRIX-R&checksum={deviceChecksum}', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/projects/:projectId/devices/:deviceId', url: '/api/projects/{project}/devices/{device}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:projectId/devices/:deviceId', url: '/api/projects/{otherProject}/devices/{otherDevice}', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  {
+    route: 'PUT /api/projects/:projectId/devices/:deviceId',
+    url: '/api/projects/{project}/devices/{device}',
+    rule: 'devices:write',
+    file: REPLACEMENT_CARD,
+    arrange: restoreMatrixCard('device'),
+    expected: [401, 403, 200, 200, 403],
+  },
+  {
+    route: 'PUT /api/projects/:projectId/devices/:deviceId',
+    url: '/api/projects/{otherProject}/devices/{otherDevice}',
+    rule: 'devices:write',
+    file: REPLACEMENT_CARD,
+    arrange: restoreMatrixCard('otherDevice'),
+    expected: [401, 403, 404, 404, 403],
+  },
+  { route: 'DELETE /api/projects/:projectId/devices/:deviceId', url: '/api/projects/{project}/devices/{device}', rule: 'devices:write', arrange: restoreMatrixCard('device'), expected: [401, 403, 204, 204, 403] },
+  {
+    route: 'DELETE /api/projects/:projectId/devices/:deviceId',
+    url: '/api/projects/{otherProject}/devices/{otherDevice}',
+    rule: 'devices:write',
+    arrange: restoreMatrixCard('otherDevice'),
+    expected: [401, 403, 404, 404, 403],
+  },
   { route: 'POST /api/projects/:id/specs/import', url: '/api/projects/{project}/specs/import', rule: 'specs:write', file: IMPORT_FILE, expected: [401, 403, 200, 403, 403] },
   { route: 'POST /api/projects/:id/specs/import', url: '/api/projects/{otherProject}/specs/import', rule: 'specs:write', file: IMPORT_FILE, expected: [401, 403, 404, 403, 403] },
   { route: 'GET /api/projects/:id/proposals.csv', url: '/api/projects/{project}/proposals.csv?ids={ranked}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
@@ -193,6 +238,13 @@ export const MATRIX: Row[] = [
   { route: 'GET /api/proposals/:proposalId/measurements', url: '/api/proposals/{otherProposal}/measurements', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
   { route: 'POST /api/proposals/:proposalId/measurements', url: '/api/proposals/{approved}/measurements', rule: 'measurements:write', file: MEASUREMENT_FILE, expected: [401, 403, 403, 201, 201] },
   { route: 'POST /api/proposals/:proposalId/measurements', url: '/api/proposals/{otherProposal}/measurements', rule: 'measurements:write', file: MEASUREMENT_FILE, expected: [401, 403, 403, 404, 404] },
+  { route: 'GET /api/proposals/:proposalId/measurements/:measurementId', url: '/api/proposals/{approved}/measurements/{measurement}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  {
+    route: 'GET /api/proposals/:proposalId/measurements/:measurementId',
+    url: '/api/proposals/{otherProposal}/measurements/{otherMeasurement}',
+    rule: 'signed-in',
+    expected: [401, 200, 404, 404, 404],
+  },
   {
     route: 'GET /api/proposals/:proposalId/measurements/:measurementId/file',
     url: '/api/proposals/{approved}/measurements/{measurement}/file',
@@ -266,6 +318,10 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
     uploadMeasurement(dataSource, api.app.uploadsDir, by, proposalId, { originalName: MEASUREMENT_FILE.name, bytes: Buffer.from(MEASUREMENT_FILE.content, 'utf8') }, null);
   const measurement = await measured(approved.id, users.designer);
   const otherMeasurement = await measured(otherProposal.id, users.designer2);
+  const card = (projectId: number, by: PublicUser) =>
+    uploadDeviceModels(dataSource, by, projectId, { originalName: LIBRARY_CARD.name, bytes: Buffer.from(LIBRARY_CARD.content, 'utf8') }).then(([stored]) => stored);
+  const device = await card(project.id, users.designer);
+  const otherDevice = await card(otherProject.id, users.designer2);
 
   return {
     project: project.id,
@@ -281,6 +337,9 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
     designer2: users.designer2.id,
     measurement: measurement.id,
     otherMeasurement: otherMeasurement.id,
+    device: device.id,
+    otherDevice: otherDevice.id,
+    deviceChecksum: device.checksum,
   };
 }
 

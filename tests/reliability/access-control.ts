@@ -15,7 +15,7 @@ import { row, type PartResult, type RunOptions } from './lib';
 const PART = 'Access control';
 const MISSING_ID = 987654;
 /** Own-project placeholders and the other project's record of the same kind. */
-const CROSS: Record<string, keyof Ids> = { project: 'otherProject', spec: 'otherSpec', ranked: 'otherProposal', decided: 'otherProposal', approved: 'otherProposal', rankedForReview: 'otherProposal' };
+const CROSS: Record<string, keyof Ids> = { project: 'otherProject', device: 'otherDevice', spec: 'otherSpec', ranked: 'otherProposal', decided: 'otherProposal', approved: 'otherProposal', rankedForReview: 'otherProposal' };
 
 async function call(api: TestApi, client: ApiClient, r: Row, url: string, ids: Ids, caller: Caller): Promise<{ status: number; body: unknown }> {
   await r.arrange?.(api, ids);

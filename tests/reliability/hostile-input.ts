@@ -27,6 +27,9 @@ import {
   NEW_USER_BODY,
   PREFERENCES_BODY,
   PROPOSAL_LIST_QUERY,
+  MEASUREMENT_LIST_QUERY,
+  DEVICE_LIST_QUERY,
+  DEVICE_RECORDED_QUERY,
   REVIEW_BODY,
   USER_CHANGES_BODY,
 } from '../../api/validation/bodies';
@@ -62,6 +65,9 @@ const BODIES: Record<string, fc.Arbitrary<unknown>> = {
 /** Query arbitraries by route; values go out as text, as a browser sends them. */
 const QUERIES: Record<string, fc.Arbitrary<unknown>> = {
   'GET /api/projects/:id/proposals': arbitraryFromSchema(PROPOSAL_LIST_QUERY),
+  'GET /api/proposals/:proposalId/measurements': arbitraryFromSchema(MEASUREMENT_LIST_QUERY),
+  'GET /api/projects/:projectId/devices': arbitraryFromSchema(DEVICE_LIST_QUERY),
+  'GET /api/projects/:projectId/devices/recorded': arbitraryFromSchema(DEVICE_RECORDED_QUERY),
   'GET /api/specs/:id/diff': arbitraryFromSchema(DIFF_QUERY),
   'GET /api/proposals/:id/netlist.cir': arbitraryFromSchema(NETLIST_QUERY),
   'POST /api/projects/:id/specs/import': arbitraryFromSchema(IMPORT_QUERY),

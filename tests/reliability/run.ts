@@ -9,8 +9,10 @@
  *    schemas and arbitrary JSON on every route as every role; an injection corpus stored, read
  *    back and rendered in headless Chromium.
  * 4. Access control (access-control.ts): the role × route matrix and cross-project probes.
+ * 5. Quotas (quotas.ts): bench-measurement and device-library floods; what is stored, and the
+ *    size of the paged lists afterwards.
  *
- * Options: --quick (shorter load, soak and fuzzing: about 4 minutes), --only=crash,load,hostile,access
+ * Options: --quick (shorter load, soak and fuzzing: about 4 minutes), --only=crash,load,hostile,access,quotas
  * (a subset), --no-browser (skip the Chromium check), --seed=N (fast-check seed).
  * Exit code 1 when any requirement of the table fails (or a part could not run).
  */
@@ -19,10 +21,11 @@ import { accessControl } from './access-control';
 import { crashSafety } from './crash-safety';
 import { hostileInput } from './hostile-input';
 import { loadPart } from './load';
+import { quotasPart } from './quotas';
 import { row, type PartResult, type RunOptions, type SummaryRow } from './lib';
 
 interface Part {
-  key: 'crash' | 'load' | 'hostile' | 'access';
+  key: 'crash' | 'load' | 'hostile' | 'access' | 'quotas';
   title: string;
   /** Time budget, s (full run, quick run). */
   budgetS: [number, number];
@@ -34,6 +37,7 @@ const PARTS: Part[] = [
   { key: 'load', title: 'Load', budgetS: [180, 75], run: loadPart },
   { key: 'hostile', title: 'Hostile input', budgetS: [240, 150], run: hostileInput },
   { key: 'access', title: 'Access control', budgetS: [75, 75], run: accessControl },
+  { key: 'quotas', title: 'Quotas', budgetS: [60, 60], run: quotasPart },
 ];
 
 const args = process.argv.slice(2);
@@ -43,7 +47,7 @@ const only = args.find((a) => a.startsWith('--only='))?.slice('--only='.length).
 const seed = Number(args.find((a) => a.startsWith('--seed='))?.slice('--seed='.length) ?? 20260611);
 const unknown = args.filter((a) => !/^--(quick|no-browser|only=.*|seed=\d+)$/.test(a));
 if (unknown.length > 0) {
-  console.error(`Unknown option(s): ${unknown.join(' ')}\nUsage: npm run reliability [-- --quick] [--only=crash,load,hostile,access] [--no-browser] [--seed=N]`);
+  console.error(`Unknown option(s): ${unknown.join(' ')}\nUsage: npm run reliability [-- --quick] [--only=crash,load,hostile,access,quotas] [--no-browser] [--seed=N]`);
   process.exit(2);
 }
 

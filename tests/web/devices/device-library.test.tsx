@@ -1,8 +1,9 @@
 // @vitest-environment jsdom
 /**
- * The project page's device library: the cards listed with their figures in engineering
- * notation, the upload control only for the roles that may upload, the file sent as multipart
- * with the CSRF token, and a refused file's problems shown with their line numbers.
+ * The project page's device library: the cards listed a page at a time with their figures in
+ * engineering notation, the upload, replace and remove controls only for the roles that may, the
+ * file sent as multipart with the CSRF token (a replacement as PUT to the card), a removal asked
+ * once more before the DELETE, and a refused file's problems shown with their line numbers.
  * Cards and files are invented.
  */
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
@@ -25,6 +26,10 @@ const N150: LibraryDevice = {
   checksum: 'c'.repeat(64),
   uploadedBy: { id: 3, displayName: 'Iris Vale' },
   uploadedAt: '2026-11-02T09:30:00.000Z',
+  state: 'library',
+  retiredAt: null,
+  retiredBy: null,
+  replacedById: null,
 };
 
 interface Sent {
@@ -36,8 +41,8 @@ interface Sent {
 
 let sent: Sent[] = [];
 
-/** The library answers `items`; a POST answers `upload` (status and body). */
-function stubServer(items: LibraryDevice[], upload?: { status: number; body: unknown }) {
+/** The library answers `items` as one page (of `total`, default their count); a POST, PUT or DELETE answers `write` (status and body). */
+function stubServer(items: LibraryDevice[], upload?: { status: number; body: unknown }, total = items.length) {
   sent = [];
   vi.stubGlobal('fetch', async (input: RequestInfo | URL, init?: RequestInit) => {
     const url = String(input);
@@ -45,8 +50,14 @@ function stubServer(items: LibraryDevice[], upload?: { status: number; body: unk
     sent.push({ method, url, headers: (init?.headers ?? {}) as Record<string, string>, body: init?.body });
     const json = (status: number, body: unknown) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
     if (url === '/api/auth/csrf') return json(200, { token: 'tok-1' });
-    if (method === 'GET' && url === '/api/projects/1/devices') return json(200, { items });
+    const { pathname, searchParams } = new URL(url, 'http://localhost');
+    if (method === 'GET' && pathname === '/api/projects/1/devices') {
+      return json(200, { items, total, page: Number(searchParams.get('page')), pageSize: Number(searchParams.get('pageSize')) });
+    }
     if (method === 'POST' && url === '/api/projects/1/devices' && upload) return json(upload.status, upload.body);
+    if ((method === 'PUT' || method === 'DELETE') && pathname.startsWith('/api/projects/1/devices/') && upload) {
+      return upload.status === 204 ? new Response(null, { status: 204 }) : json(upload.status, upload.body);
+    }
     return json(599, { error: `not mocked: ${method} ${url}` });
   });
 }
@@ -103,7 +114,7 @@ describe('DeviceLibrary', () => {
     expect(post?.body).toBeInstanceOf(FormData);
     expect(((post?.body as FormData).get('file') as File).name).toBe('parts-bin.lib');
     // The library is fetched again after the upload
-    await waitFor(() => expect(sent.filter((s) => s.method === 'GET' && s.url === '/api/projects/1/devices')).toHaveLength(2));
+    await waitFor(() => expect(sent.filter((s) => s.method === 'GET' && s.url.startsWith('/api/projects/1/devices?'))).toHaveLength(2));
   });
 
   test('when the server refuses the file, then each problem shows with its line number', async () => {
@@ -130,5 +141,70 @@ describe('DeviceLibrary', () => {
       'Line 3: FH-P150: PNP models are not supported; the library holds NPN transistor models only.',
       'Line 7: FH-X: VAF is missing (the forward Early voltage; write VAF=0 for none); the engine needs IS, BF and VAF.',
     ]);
+  });
+
+  test('when the library holds more cards than a page, then the first page is asked for by its size and Next asks for page 2', async () => {
+    stubServer([N150], undefined, 45);
+    renderLibrary(false);
+    await screen.findByRole('table');
+    expect(sent.find((s) => s.method === 'GET')?.url).toBe('/api/projects/1/devices?page=1&pageSize=20&state=library');
+    expect(screen.getByText('1–20 of 45')).toBeTruthy();
+
+    await userEvent.click(screen.getByRole('button', { name: /Next/ }));
+
+    await waitFor(() => expect(sent.map((s) => s.url)).toContain('/api/projects/1/devices?page=2&pageSize=20&state=library'));
+  });
+
+  test('when a name is typed in the search field, then the library is asked for the cards containing it, from page 1', async () => {
+    stubServer([N150]);
+    renderLibrary(false);
+    await screen.findByRole('table');
+
+    await userEvent.type(screen.getByLabelText('Find a card by name'), 'n1');
+
+    await waitFor(() => expect(sent.map((s) => s.url)).toContain('/api/projects/1/devices?page=1&pageSize=20&state=library&q=n1'));
+  });
+
+  test('when a card is replaced, then its new file goes as PUT multipart to that card with the CSRF token, and the page says the old text stays with its specs', async () => {
+    stubServer([N150], { status: 200, body: { item: { ...N150, id: 9 }, replaced: { ...N150, state: 'replaced', replacedById: 9 } } });
+    renderLibrary(true);
+    const input = await screen.findByLabelText('Replace FH-N150 with a new card');
+
+    await userEvent.upload(input, new File(['.model FH-N150 NPN (IS=1.3f BF=155 VAF=88)\n'], 'n150-remeasured.lib', { type: 'text/plain' }));
+
+    expect(await screen.findByText(/Replaced FH-N150 with the card from n150-remeasured\.lib; specs filled from the old text keep it/)).toBeTruthy();
+    const put = sent.find((s) => s.method === 'PUT');
+    expect(put?.url).toBe('/api/projects/1/devices/1');
+    expect(put?.headers['X-CSRF-Token']).toBe('tok-1');
+    expect(((put?.body as FormData).get('file') as File).name).toBe('n150-remeasured.lib');
+  });
+
+  test('when Remove is clicked, then nothing is sent until it is confirmed; then DELETE goes to that card', async () => {
+    stubServer([N150], { status: 204, body: null });
+    renderLibrary(true);
+    await userEvent.click(await screen.findByRole('button', { name: 'Remove FH-N150' }));
+    expect(sent.some((s) => s.method === 'DELETE')).toBe(false);
+    const confirm = screen.getByRole('group', { name: 'Remove FH-N150?' });
+    expect(confirm.textContent).toContain('Specs filled from it keep its text.');
+
+    await userEvent.click(within(confirm).getByRole('button', { name: 'Remove' }));
+
+    expect(await screen.findByText(/Removed FH-N150 from the library/)).toBeTruthy();
+    const removal = sent.find((s) => s.method === 'DELETE');
+    expect(removal?.url).toBe('/api/projects/1/devices/1');
+    expect(removal?.headers['X-CSRF-Token']).toBe('tok-1');
+  });
+
+  test('when the removed and replaced cards are shown, then each says how and when it left the library, and offers no change', async () => {
+    stubServer([{ ...N150, state: 'removed', retiredAt: '2026-11-20T10:00:00.000Z', retiredBy: { id: 4, displayName: 'Tomas Reed' } }]);
+    renderLibrary(true);
+    await screen.findByRole('table');
+
+    await userEvent.click(screen.getByRole('button', { name: 'Removed and replaced' }));
+
+    await waitFor(() => expect(sent.map((s) => s.url)).toContain('/api/projects/1/devices?page=1&pageSize=20&state=former'));
+    const table = await screen.findByRole('table', { name: 'Removed and replaced device models of this project' });
+    expect(within(table).getAllByRole('row')[1].textContent).toContain('Removed, Tomas Reed');
+    expect(within(table).queryByRole('button', { name: /Remove FH-N150/ })).toBeNull();
   });
 });

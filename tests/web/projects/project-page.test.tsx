@@ -29,7 +29,7 @@ function answer(url: URL): unknown {
   if (url.pathname === '/api/projects/1/specs')
     return { items: [{ id: 7, projectId: 1, title: 'Strain bridge receiver', latestVersion: 2, createdById: 2, createdAt: '2026-11-01T00:00:00Z', updatedAt: '2026-11-03T00:00:00Z' }] };
   if (url.pathname === '/api/projects/1/members') return { items: [] };
-  if (url.pathname === '/api/projects/1/devices') return { items: [] };
+  if (url.pathname === '/api/projects/1/devices') return { items: [], total: 0, page: 1, pageSize: 20 };
   if (url.pathname === '/api/projects/1/proposals') {
     const page = Number(url.searchParams.get('page'));
     const pageSize = Number(url.searchParams.get('pageSize'));

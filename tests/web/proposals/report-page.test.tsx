@@ -116,7 +116,7 @@ function renderReport(proposal: Proposal, verification: { status?: number; body:
     'GET /api/proposals/2': () => ({ body: proposal }),
     'GET /api/proposals/2/audit': () => ({ body: AUDIT }),
     'GET /api/proposals/2/verification': () => verification,
-    'GET /api/proposals/2/measurements': () => ({ body: { items: [] } }),
+    'GET /api/proposals/2/measurements?page=1&pageSize=100': () => ({ body: { items: [], total: 0, page: 1, pageSize: 100 } }),
     'GET /api/projects/1': () => ({ body: PROJECT }),
     'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER] } }),
   });

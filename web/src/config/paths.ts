@@ -37,8 +37,13 @@ export const api = {
   specImport: (projectId: number, dryRun: boolean) => `/api/projects/${projectId}/specs/import${dryRun ? '?dryRun=true' : ''}`,
   /** The results of a batch's proposals as one CSV. */
   batchResultsCsv: (projectId: number, proposalIds: readonly number[]) => `/api/projects/${projectId}/proposals.csv?ids=${proposalIds.join(',')}`,
-  /** GET: the project's device library; POST (multipart, field `file`): upload .model cards. */
-  projectDevices: (projectId: number) => `/api/projects/${projectId}/devices`,
+  /** GET (`?page=&pageSize=&q=&state=`): a page of the project's device library; POST (multipart, field `file`): upload .model cards. */
+  projectDevices: (projectId: number, query = '') => `/api/projects/${projectId}/devices${query}`,
+  /** GET: one card (removed and replaced ones too); PUT (multipart, field `file`): replace its text; DELETE: remove it from the library. */
+  projectDevice: (projectId: number, deviceId: number) => `/api/projects/${projectId}/devices/${deviceId}`,
+  /** GET: the card a spec recorded (`deviceModel { name, checksum }`), and the library's card of that name today. */
+  recordedDevice: (projectId: number, name: string, checksum: string) =>
+    `/api/projects/${projectId}/devices/recorded?${new URLSearchParams({ name, checksum })}`,
   spec: (id: number) => `/api/specs/${id}`,
   specVersions: (id: number) => `/api/specs/${id}/versions`,
   specDiff: (id: number, from: number, to: number) => `/api/specs/${id}/diff?from=${from}&to=${to}`,
@@ -55,8 +60,10 @@ export const api = {
     `/api/proposals/${id}/netlist.cir?topology=${encodeURIComponent(topology)}&drive=${drive}`,
   /** GET: latest verification and Monte Carlo jobs; POST: ask for a verification of every option. */
   verification: (id: number) => `/api/proposals/${id}/verification`,
-  /** GET: the proposal's bench measurements; POST (multipart, field `file`, optional `note`): upload one CSV. */
-  measurements: (id: number) => `/api/proposals/${id}/measurements`,
+  /** GET (`?page=&pageSize=`): a page of the proposal's bench measurements, without points; POST (multipart, field `file`, optional `note`): upload one CSV. */
+  measurements: (id: number, query = '') => `/api/proposals/${id}/measurements${query}`,
+  /** GET: one measurement with its points. */
+  measurement: (id: number, measurementId: number) => `/api/proposals/${id}/measurements/${measurementId}`,
   /** The original uploaded CSV of one measurement (a download). */
   measurementFile: (id: number, measurementId: number) => `/api/proposals/${id}/measurements/${measurementId}/file`,
   /** POST { topology, runs? }: SPICE Monte Carlo of one option. */

@@ -69,8 +69,8 @@ export const apiClient = {
   put: <T>(url: string, body: unknown) => send<T>('PUT', url, body),
   patch: <T>(url: string, body: unknown) => send<T>('PATCH', url, body),
   delete: <T>(url: string) => send<T>('DELETE', url),
-  /** POST multipart/form-data (a file upload), with the CSRF token like every other write. */
-  upload: <T>(url: string, form: FormData) => send<T>('POST', url, form),
+  /** POST (or PUT, a replacement) multipart/form-data (a file upload), with the CSRF token like every other write. */
+  upload: <T>(url: string, form: FormData, method: 'POST' | 'PUT' = 'POST') => send<T>(method, url, form),
   /** After sign-in or sign-out the session changes: fetch a fresh token next time. */
   resetCsrf: () => {
     csrfToken = null;

@@ -26,7 +26,7 @@ import { ReportSources } from '../features/reports/components/report-sources';
 import { ReportTitle } from '../features/reports/components/report-title';
 import { ReportVerification } from '../features/reports/components/report-verification';
 import { ReportMeasurements } from '../features/reports/components/report-measurements';
-import { measurementsQuery } from '../features/measurements/api/measurement-queries';
+import { MEASUREMENT_MAX_PAGE_SIZE, measurementsQuery } from '../features/measurements/api/measurement-queries';
 import { SpecTable } from '../features/reports/components/spec-table';
 import { reportSubject } from '../features/reports/lib/report-subject';
 
@@ -40,7 +40,7 @@ export const loader =
     await Promise.all([
       queryClient.prefetchQuery(proposalAuditQuery(proposalId)),
       queryClient.prefetchQuery(reportVerificationQuery(proposalId)),
-      queryClient.prefetchQuery(measurementsQuery(proposalId)),
+      queryClient.prefetchQuery(measurementsQuery(proposalId, 1, MEASUREMENT_MAX_PAGE_SIZE)),
       queryClient.prefetchQuery(projectQuery(proposal.projectId)),
       queryClient.prefetchQuery(proposalPeopleQuery(proposal.projectId)),
     ]);
@@ -55,7 +55,7 @@ export function Component() {
   const { data: proposal } = useSuspenseQuery(proposalQuery(proposalId));
   const audit = useQuery(proposalAuditQuery(proposalId));
   const verification = useQuery(reportVerificationQuery(proposalId));
-  const measurements = useQuery(measurementsQuery(proposalId));
+  const measurements = useQuery(measurementsQuery(proposalId, 1, MEASUREMENT_MAX_PAGE_SIZE));
   const project = useQuery(projectQuery(proposal.projectId));
   const nameOf = usePersonName(proposal.projectId);
   const [generatedAt] = useState(() => new Date());
@@ -100,7 +100,7 @@ export function Component() {
         <ReportVerification proposal={proposal} status={verification.data} error={verification.error} />
       </ReportSection>
       <ReportSection id="report-measurements" number={next()} title="Bench measurements">
-        <ReportMeasurements items={measurements.data?.items} error={measurements.error} />
+        <ReportMeasurements items={measurements.data ? [...measurements.data.items].reverse() : undefined} error={measurements.error} />
       </ReportSection>
       <ReportSection id="report-audit" number={next()} title="Audit trail">
         <ReportAudit proposal={proposal} events={audit.data?.items} error={audit.error} nameOf={nameOf} />

@@ -76,7 +76,7 @@ export function Component() {
         saveLabel="Save as new version"
         note={note}
         onDirtyChange={setDirty}
-        projectId={canWrite ? spec.projectId : undefined}
+        projectId={spec.projectId}
       />
     </>
   );

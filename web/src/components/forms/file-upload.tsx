@@ -8,7 +8,8 @@ import { useId, type ChangeEvent } from 'react';
 import { ApiError } from '../../lib/api';
 import { cn } from '../../lib/cn';
 
-export function FileUploadButton({ label, accept, pending, onFile }: { label: string; accept: string; pending: boolean; onFile: (file: File) => void }) {
+/** `srLabel`: the control's name for assistive technology when the visible label is short ("Replace…" in a row of cards). */
+export function FileUploadButton({ label, srLabel, accept, pending, onFile }: { label: string; srLabel?: string; accept: string; pending: boolean; onFile: (file: File) => void }) {
   const inputId = useId();
   const onChange = (event: ChangeEvent<HTMLInputElement>) => {
     const file = event.target.files?.[0];
@@ -23,7 +24,7 @@ export function FileUploadButton({ label, accept, pending, onFile }: { label: st
       >
         {pending ? 'Reading the file…' : label}
       </label>
-      <input id={inputId} type="file" accept={accept} className="sr-only" disabled={pending} onChange={onChange} />
+      <input id={inputId} type="file" accept={accept} aria-label={srLabel} className="sr-only" disabled={pending} onChange={onChange} />
     </div>
   );
 }

@@ -1,14 +1,15 @@
 /**
  * Bench measurements of the decided design: for designers and reviewers an upload of a CSV of
- * rejection (or gain) against frequency, refused files listing each problem with its line;
- * every measurement listed; the chosen one plotted over the engine's predicted curve (and
+ * rejection (or gain) against frequency, refused files (and full quotas) listing each problem;
+ * the measurements listed a page at a time (metadata and comparison); the chosen one's points
+ * fetched on demand and plotted over the engine's predicted curve (and
  * ngspice's, once a SPICE check finished) with the spec frequency marked, and the difference
  * there stated in words and numbers. Both sides stay estimates against one bench measurement.
  */
 import { useQuery } from '@tanstack/react-query';
 import { useId, useState } from 'react';
 import { comparisonSentence, measurementReference } from '../../../../../shared/measurements/comparison';
-import type { MeasurementView } from '../../../../../shared/measurements/types';
+import { MEASUREMENT_QUOTA, type MeasurementSummary, type MeasurementView } from '../../../../../shared/measurements/types';
 import type { ProposalVerificationResult } from '../../../../../shared/verification/types';
 import { may } from '../../../../../shared/workflow/roles';
 import { FileUploadButton, UploadProblems } from '../../../components/forms/file-upload';
@@ -18,10 +19,11 @@ import { api } from '../../../config/paths';
 import type { Proposal, User } from '../../../lib/api-types';
 import { topologyName } from '../../../lib/topology-names';
 import { DenseTable, Td, Th, Tr } from '../../projects/components/dense-table';
+import { Pagination } from '../../projects/components/pagination';
 import { When } from '../../projects/components/when';
 import { verificationQuery } from '../../proposals/api/verification-queries';
 import { PlotFigure } from '../../proposals/components/ranking/plots/plot-figure';
-import { measurementsQuery, useUploadMeasurement } from '../api/measurement-queries';
+import { MEASUREMENT_PAGE_SIZE, measurementQuery, measurementsQuery, useUploadMeasurement } from '../api/measurement-queries';
 import { measurementPlot } from '../lib/measurement-plot';
 import { MeasurementChart } from './plots/lazy-measurement-chart';
 
@@ -29,8 +31,11 @@ import { MeasurementChart } from './plots/lazy-measurement-chart';
 const ACCEPT = '.csv,.txt,.tsv,text/csv,text/plain';
 const MEASURABLE = ['decided', 'returned', 'approved'];
 
+const QUOTA = MEASUREMENT_QUOTA.proposal;
+
 export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user: User }) {
-  const measurements = useQuery(measurementsQuery(proposal.id));
+  const [page, setPage] = useState(1);
+  const measurements = useQuery(measurementsQuery(proposal.id, page));
   const upload = useUploadMeasurement(proposal.id);
   const decided = MEASURABLE.includes(proposal.status) && proposal.decisions.length > 0;
   const canUpload = may(user.role, 'measurements:write') && decided;
@@ -44,6 +49,7 @@ export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user
       {
         onSuccess: (stored) => {
           setChosenId(stored.id);
+          setPage(1);
           setNote('');
         },
       },
@@ -51,7 +57,10 @@ export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user
   };
 
   const items = measurements.data?.items ?? [];
-  const chosen = items.find((m) => m.id === chosenId) ?? items.at(-1) ?? null;
+  const total = measurements.data?.total ?? 0;
+  // The chosen measurement, else the newest on the page (the list is newest first).
+  const chosen = items.find((m) => m.id === chosenId) ?? (chosenId === null ? (items[0] ?? null) : null);
+  const shownId = chosen?.id ?? chosenId;
 
   return (
     <Sheet title="Bench measurements" aria-label="Bench measurements">
@@ -83,7 +92,8 @@ export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user
               <FileUploadButton label="Upload a measurement (CSV)" accept={ACCEPT} pending={upload.isPending} onFile={onFile} />
               <p className="basis-full text-xs text-ink-soft dark:text-night-ink-soft">
                 A header naming the quantity and unit (<code>frequency_hz,cmrr_db</code>, <code>frequency_hz,gain_db</code> or <code>frequency_hz,gain_v_per_v</code>), one point
-                per line with frequencies rising, <code>#</code> for comments; 1k or 2.5 kHz are read; at most 10,000 points and 256 KB.
+                per line with frequencies rising, <code>#</code> for comments; 1k or 2.5 kHz are read; at most 10,000 points and 256 KB a file. A proposal keeps up to{' '}
+                {QUOTA.count} measurements ({QUOTA.points.toLocaleString('en-GB')} points, {QUOTA.bytes / (1024 * 1024)} MB in all){total > 0 ? `; ${total} stored` : ''}.
               </p>
             </div>
           )
@@ -93,7 +103,7 @@ export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user
           <Loading what="Loading the measurements" />
         ) : measurements.isError ? (
           <ErrorPanel error={measurements.error} retry={() => void measurements.refetch()} />
-        ) : items.length === 0 ? (
+        ) : total === 0 ? (
           decided && (
             <EmptyState title="No measurements yet">
               {canUpload ? 'Upload a CSV of measured rejection or gain against frequency.' : 'Designers and reviewers upload bench measurements here.'}
@@ -101,8 +111,9 @@ export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user
           )
         ) : (
           <>
-            {chosen && <MeasurementDetail proposal={proposal} measurement={chosen} />}
-            <MeasurementTable proposal={proposal} items={items} chosenId={chosen?.id ?? null} onChoose={setChosenId} />
+            {shownId !== null && <MeasurementDetail proposal={proposal} measurementId={shownId} />}
+            <MeasurementTable proposal={proposal} items={items} chosenId={shownId} onChoose={setChosenId} />
+            {total > MEASUREMENT_PAGE_SIZE && <Pagination page={page} pageSize={MEASUREMENT_PAGE_SIZE} total={total} onPage={setPage} label="Measurement pages" />}
           </>
         )}
       </div>
@@ -112,7 +123,15 @@ export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user
 
 const isProposalResult = (result: unknown): result is ProposalVerificationResult => result !== null && typeof result === 'object' && 'options' in result;
 
-function MeasurementDetail({ proposal, measurement }: { proposal: Proposal; measurement: MeasurementView }) {
+/** The chosen measurement: its points are fetched when it is first shown. */
+function MeasurementDetail({ proposal, measurementId }: { proposal: Proposal; measurementId: number }) {
+  const measurement = useQuery(measurementQuery(proposal.id, measurementId));
+  if (measurement.isPending) return <Loading what="Loading the measured points" />;
+  if (measurement.isError) return <ErrorPanel error={measurement.error} retry={() => void measurement.refetch()} />;
+  return <MeasurementPlotted proposal={proposal} measurement={measurement.data} />;
+}
+
+function MeasurementPlotted({ proposal, measurement }: { proposal: Proposal; measurement: MeasurementView }) {
   const status = useQuery(verificationQuery(proposal.id));
   const job = status.data?.verification ?? null;
   const verification = job?.state === 'finished' && isProposalResult(job.result) ? job.result : null;
@@ -146,7 +165,7 @@ function MeasurementDetail({ proposal, measurement }: { proposal: Proposal; meas
   );
 }
 
-function MeasurementTable({ proposal, items, chosenId, onChoose }: { proposal: Proposal; items: MeasurementView[]; chosenId: number | null; onChoose: (id: number) => void }) {
+function MeasurementTable({ proposal, items, chosenId, onChoose }: { proposal: Proposal; items: MeasurementSummary[]; chosenId: number | null; onChoose: (id: number) => void }) {
   return (
     <DenseTable caption="Bench measurements of this proposal">
       <thead>
@@ -162,7 +181,7 @@ function MeasurementTable({ proposal, items, chosenId, onChoose }: { proposal: P
         </tr>
       </thead>
       <tbody>
-        {[...items].reverse().map((m) => (
+        {items.map((m) => (
           <Tr key={m.id}>
             <Td className="align-top">
               <span title={`sha256 ${m.sha256}`} className={m.id === chosenId ? 'font-medium' : undefined}>
@@ -192,7 +211,7 @@ function MeasurementTable({ proposal, items, chosenId, onChoose }: { proposal: P
   );
 }
 
-function differenceText(m: MeasurementView): string {
+function differenceText(m: MeasurementSummary): string {
   const d = m.comparison.differenceFromPredictedDb;
   if (d === null) return '—';
   const text = Math.abs(d).toFixed(1);

@@ -4,13 +4,14 @@
  * that the predicted and simulated figures are estimates against a measurement of one board.
  */
 import { comparisonSentence } from '../../../../../shared/measurements/comparison';
-import type { MeasurementView } from '../../../../../shared/measurements/types';
+import type { MeasurementSummary } from '../../../../../shared/measurements/types';
 import { ErrorPanel } from '../../../components/ui/feedback';
 import { topologyName } from '../../../lib/topology-names';
 import { fullTimestamp } from '../lib/report-format';
 import { ReportNote } from './report-section';
 
-export function ReportMeasurements({ items, error }: { items: MeasurementView[] | undefined; error: unknown }) {
+/** `items` oldest first: every measurement of the proposal (a proposal keeps at most MEASUREMENT_QUOTA.proposal.count, one page). */
+export function ReportMeasurements({ items, error }: { items: readonly MeasurementSummary[] | undefined; error: unknown }) {
   if (error) return <ErrorPanel error={error} />;
   if (!items) return <p className="text-sm">Loading the measurements…</p>;
   if (items.length === 0) return <p className="text-sm">No bench measurement uploaded yet.</p>;

@@ -1,13 +1,16 @@
 /**
- * The spec form's `deviceModel` field: a choice of the project's device-library cards that
- * fills the transistor model (IS, BF, VAF) and records the card in the spec; read-only, the
- * recorded card in words. The form applies the choice (lib/device-choice.ts).
+ * The spec form's `deviceModel` field: a choice of the project's device-library cards (a page
+ * of them, found by part of a name) that fills the transistor model (IS, BF, VAF) and records
+ * the card in the spec; the recorded card in words, with its state when it has since been
+ * replaced by a new text or removed from the library (its text as recorded, on demand). The
+ * form applies the choice (lib/device-choice.ts).
  */
 import type { FieldProps } from '@rjsf/utils';
+import { useId } from 'react';
 import { formatQuantity } from '../../../../../shared/units/format-quantity';
 import { inputClass } from '../../../components/forms/input-class';
-import type { LibraryDevice } from '../../devices/api/device-queries';
-import { libraryDeviceFor, refFor, type DeviceChoiceContext, type DeviceModelRef } from '../lib/device-choice';
+import { DEVICE_PICKER_PAGE_SIZE, type LibraryDevice, type RecordedDeviceModel } from '../../devices/api/device-queries';
+import { libraryDeviceFor, refFor, type DeviceChoiceContext, type DeviceLibraryState, type DeviceModelRef } from '../lib/device-choice';
 
 const NOTE = 'mt-1 text-xs leading-snug text-ink-soft dark:text-night-ink-soft';
 
@@ -17,12 +20,40 @@ function summary(device: LibraryDevice): string {
   return `${device.name} — IS ${formatQuantity(device.device.saturationCurrentA, 'A')}, BF ${device.device.beta}, ${vaf}`;
 }
 
+const day = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' }) : 'an earlier date');
+
+/** What became of the recorded card, in words (null while it is in the library as recorded). */
+function recordedState(recorded: DeviceModelRef, resolved: DeviceLibraryState['recorded']): string | null {
+  if (resolved === null || resolved === 'loading') return null;
+  const card = resolved.recorded;
+  if (!card) return `Card ${recorded.name} is not in this project's library from that file (sha256 ${recorded.checksum.slice(0, 12)}…): the spec's values stand on their own.`;
+  if (card.state === 'library') return null;
+  const how = card.state === 'replaced' ? 'replaced by a new text' : 'removed from the library';
+  const now = resolved.current ? ` The library's ${resolved.current.name} today is from ${resolved.current.fileName}; choose it to fill IS, BF and VAF from the new text.` : '';
+  return `Filled from ${card.name} of ${card.fileName} (sha256 ${card.checksum.slice(0, 12)}…), since ${how} on ${day(card.retiredAt)}${card.retiredBy ? ` by ${card.retiredBy.displayName}` : ''}.${now}`;
+}
+
+/** The recorded card's text as the spec was filled from it, when it is no longer the library's. */
+function RecordedText({ resolved }: { resolved: RecordedDeviceModel }) {
+  const card = resolved.recorded;
+  if (!card || card.state === 'library') return null;
+  return (
+    <details className={NOTE}>
+      <summary className="cursor-pointer">The card as the spec was filled from it</summary>
+      <pre className="mt-1 overflow-x-auto rounded bg-paper p-2 dark:bg-night">{card.card}</pre>
+    </details>
+  );
+}
+
 export function DeviceModelField({ fieldPathId, formData, onChange, readonly, disabled, registry }: FieldProps) {
   const id = fieldPathId.$id;
+  const filterId = useId();
   const library = (registry.formContext as DeviceChoiceContext | undefined)?.deviceLibrary;
   const recorded = formData && typeof formData === 'object' && typeof (formData as DeviceModelRef).name === 'string' ? (formData as DeviceModelRef) : undefined;
-  const items = library?.items ?? [];
-  const chosen = libraryDeviceFor(recorded, library?.items);
+  const items = (library?.items ?? []).filter((d) => d.state === 'library');
+  const chosen = libraryDeviceFor(recorded, items);
+  const resolved = library?.recorded ?? null;
+  const stateNote = recorded ? recordedState(recorded, resolved) : null;
 
   if (readonly || !library) {
     if (!recorded) return null;
@@ -32,6 +63,8 @@ export function DeviceModelField({ fieldPathId, formData, onChange, readonly, di
         <p className="py-1.5 text-sm">
           Card {recorded.name} <span className="text-ink-soft dark:text-night-ink-soft">(file sha256 {recorded.checksum.slice(0, 12)}…)</span>
         </p>
+        {stateNote && <p className={NOTE}>{stateNote}</p>}
+        {resolved && resolved !== 'loading' && <RecordedText resolved={resolved} />}
       </div>
     );
   }
@@ -42,8 +75,20 @@ export function DeviceModelField({ fieldPathId, formData, onChange, readonly, di
     const device = items.find((d) => String(d.id) === selected);
     onChange(device ? refFor(device) : undefined, fieldPathId.path);
   };
+  const recordedGone = resolved !== null && resolved !== 'loading' ? (resolved.recorded?.state ?? 'missing') : 'library';
+  const filter = library.filter.trim();
+  const more = library.total > DEVICE_PICKER_PAGE_SIZE;
+  const searching = filter !== '' || more;
   return (
     <div>
+      {searching && (
+        <div className="mb-2">
+          <label htmlFor={filterId} className="mb-1 block text-xs font-medium">
+            Find a library card by name
+          </label>
+          <input id={filterId} type="search" maxLength={64} value={library.filter} onChange={(e) => library.setFilter(e.target.value)} className={inputClass()} placeholder="FH-N1…" />
+        </div>
+      )}
       <label htmlFor={id} className="mb-1 block text-sm font-medium">
         Fill from the device library
       </label>
@@ -51,7 +96,7 @@ export function DeviceModelField({ fieldPathId, formData, onChange, readonly, di
         <option value="">{library.loading ? 'Loading the library…' : 'None: values typed in below'}</option>
         {recorded && !chosen && (
           <option value="recorded" disabled>
-            {recorded.name} (no longer in the library)
+            {recorded.name} ({recordedGone === 'replaced' ? 'replaced in the library' : recordedGone === 'removed' ? 'removed from the library' : recordedGone === 'missing' ? 'not in the library' : 'recorded'})
           </option>
         )}
         {items.map((device) => (
@@ -80,11 +125,22 @@ export function DeviceModelField({ fieldPathId, formData, onChange, readonly, di
               </details>
             )}
           </>
-        ) : !library.loading && items.length === 0 ? (
+        ) : stateNote ? (
+          <>
+            <p className={NOTE}>{stateNote}</p>
+            {resolved && resolved !== 'loading' && <RecordedText resolved={resolved} />}
+          </>
+        ) : !library.loading && library.total === 0 && filter === '' ? (
           <p className={NOTE}>This project’s device library is empty; .model cards are uploaded on the project page.</p>
         ) : (
           <p className={NOTE}>Choosing a card fills IS, BF and VAF and records the card with the spec.</p>
         )}
+        {more && !library.loading && (
+          <p className={NOTE}>
+            The first {DEVICE_PICKER_PAGE_SIZE} of {library.total} cards{filter ? ` matching “${filter}”` : ''} by name; type part of a name above to find others.
+          </p>
+        )}
+        {filter !== '' && library.total === 0 && !library.loading && <p className={NOTE}>No library card has “{filter}” in its name.</p>}
       </div>
     </div>
   );

@@ -13,9 +13,9 @@ import type { FormContext } from '../../../components/forms/form-context';
 import { FORM_TEMPLATES, FORM_WIDGETS } from '../../../components/forms/form-theme';
 import { ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { ApiError } from '../../../lib/api';
-import { projectDevicesQuery } from '../../devices/api/device-queries';
 import { specSchemaQuery } from '../api/spec-queries';
-import { withDeviceChoice, type DeviceChoiceContext, type DeviceLibraryState } from '../lib/device-choice';
+import { useDeviceLibrary } from '../hooks/use-device-library';
+import { refOf, withDeviceChoice, type DeviceChoiceContext } from '../lib/device-choice';
 import { errorCount, withoutEditedFieldErrors } from '../lib/edited-errors';
 import type { SchemaNode } from '../lib/schema-nodes';
 import { serverErrorsToErrorSchema } from '../lib/server-errors';
@@ -38,7 +38,7 @@ export interface SpecFormProps {
   note?: ReactNode;
   /** Told whenever the form starts or stops differing from `initial`. */
   onDirtyChange?: (dirty: boolean) => void;
-  /** The project whose device library the Device card offers to fill the transistor model from (absent: no picker). */
+  /** The project whose device library the Device card offers to fill the transistor model from, and resolves a recorded card in (absent: neither). */
   projectId?: number;
 }
 
@@ -47,11 +47,6 @@ const SPEC_FIELDS: RegistryFieldsType = { deviceModel: DeviceModelField };
 
 export function SpecForm(props: SpecFormProps) {
   const schemaQuery = useQuery(specSchemaQuery());
-  const devices = useQuery({ ...projectDevicesQuery(props.projectId ?? 0), enabled: props.projectId !== undefined });
-  const deviceLibrary = useMemo<DeviceLibraryState | undefined>(
-    () => (props.projectId === undefined ? undefined : { items: devices.data?.items, loading: devices.isPending, error: devices.error }),
-    [props.projectId, devices.data, devices.isPending, devices.error],
-  );
   const validator = useMemo(() => {
     if (!schemaQuery.data) return undefined;
     try {
@@ -63,7 +58,7 @@ export function SpecForm(props: SpecFormProps) {
   if (schemaQuery.isPending) return <Loading what="Loading the spec form" />;
   if (schemaQuery.isError) return <ErrorPanel error={schemaQuery.error} retry={() => void schemaQuery.refetch()} />;
   if (!validator || validator instanceof Error) return <ErrorPanel error={validator} />;
-  return <SpecFormBody {...props} schema={schemaQuery.data} validator={validator} deviceLibrary={deviceLibrary} />;
+  return <SpecFormBody {...props} schema={schemaQuery.data} validator={validator} />;
 }
 
 const withDefaults = (validator: ValidatorType, schema: RJSFSchema, data: SpecDraft) => stableJson(getDefaultFormState(validator, schema, data));
@@ -77,9 +72,16 @@ function SpecFormBody({
   savingLabel = 'Saving…',
   note,
   onDirtyChange,
-  deviceLibrary,
-}: SpecFormProps & { schema: RJSFSchema; validator: ValidatorType; deviceLibrary: DeviceLibraryState | undefined }) {
+  projectId,
+}: SpecFormProps & { schema: RJSFSchema; validator: ValidatorType }) {
   const [formData, setFormData] = useState<SpecDraft>(initial);
+  const recordedName = refOf(formData.deviceModel)?.name;
+  const recordedChecksum = refOf(formData.deviceModel)?.checksum;
+  const recordedRef = useMemo(
+    () => (recordedName !== undefined && recordedChecksum !== undefined ? { name: recordedName, checksum: recordedChecksum } : undefined),
+    [recordedName, recordedChecksum],
+  );
+  const deviceLibrary = useDeviceLibrary(projectId, recordedRef, onSave !== undefined);
   const [serverErrors, setServerErrors] = useState<ErrorSchema>({});
   // What went wrong with the last save: the browser's checks, the server's field errors, or anything else
   const [problem, setProblem] = useState<{ kind: 'client' | 'server' | 'other'; text: string } | null>(null);

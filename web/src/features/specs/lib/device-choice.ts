@@ -4,7 +4,7 @@
  * and VAF (the rest of `device` is kept); editing one of those three afterwards drops
  * `deviceModel`, since the card no longer describes the values.
  */
-import type { LibraryDevice } from '../../devices/api/device-queries';
+import type { LibraryDevice, RecordedDeviceModel } from '../../devices/api/device-queries';
 
 /** What the spec records of a library card (spec schema `deviceModel`). */
 export interface DeviceModelRef {
@@ -12,11 +12,19 @@ export interface DeviceModelRef {
   checksum: string;
 }
 
-/** The project's device library as the form sees it. */
+/** The project's device library as the form sees it (hooks/use-device-library.ts). */
 export interface DeviceLibraryState {
+  /** The library's cards offered: the first page matching `filter` (and the recorded card when it is in the library). */
   items: readonly LibraryDevice[] | undefined;
+  /** How many library cards match `filter` in all. */
+  total: number;
   loading: boolean;
   error: unknown;
+  /** Part of a name: the picker offers the cards whose name contains it. */
+  filter: string;
+  setFilter: (filter: string) => void;
+  /** What the spec's recorded card resolves to; 'loading' while asked; null when the spec records none. */
+  recorded: RecordedDeviceModel | 'loading' | null;
 }
 
 /** What the device picker field reads from the form context. */
@@ -29,7 +37,8 @@ type Draft = Record<string, unknown>;
 /** The card fields of `device` a library card fills. */
 const CARD_FIELDS = ['beta', 'saturationCurrentA', 'earlyVoltageV'] as const;
 
-function refOf(value: unknown): DeviceModelRef | undefined {
+/** The `deviceModel` a form value records, if it is one. */
+export function refOf(value: unknown): DeviceModelRef | undefined {
   if (!value || typeof value !== 'object') return undefined;
   const { name, checksum } = value as Partial<DeviceModelRef>;
   return typeof name === 'string' && typeof checksum === 'string' ? { name, checksum } : undefined;
