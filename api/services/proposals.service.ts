@@ -21,7 +21,7 @@ import { AppError, invalid, notFound } from '../errors';
 import { auditView, recordEvent } from './audit.service';
 import { boundCurrentDesign, type BoundDecision } from '../verification/design-binding';
 import { designVerificationState } from './design-verification';
-import { currentDesignName } from '../../shared/workflow/current-design';
+import { currentDesignName, currentDesignSummary } from '../../shared/workflow/current-design';
 import { topologyName } from '../../shared/engine/topology-names';
 import { libraryCardNetlistComment } from './devices.service';
 import { queueNotification } from './notifications.service';
@@ -227,7 +227,20 @@ export async function listProposals(dataSource: DataSource, viewer: Viewer, proj
     ? await dataSource.getRepository(SpecVersionEntity).find({ select: { id: true, version: true, title: true }, where: { id: In(versionIds) } })
     : [];
   const byId = new Map(versions.map((v) => [v.id, v]));
-  const items = rows.map((r) => ({ ...r, specVersionNumber: byId.get(r.specVersionId)?.version ?? null, specTitle: byId.get(r.specVersionId)?.title ?? null }));
+  const decisions = rows.length
+    ? await dataSource.getRepository(DecisionEntity).find({
+        select: { id: true, proposalId: true, kind: true, topology: true, reason: true },
+        where: { proposalId: In(rows.map((r) => r.id)) },
+        order: { id: 'ASC' },
+      })
+    : [];
+  const latestDecision = new Map(decisions.map((d) => [d.proposalId, d]));
+  const items = rows.map((r) => ({
+    ...r,
+    specVersionNumber: byId.get(r.specVersionId)?.version ?? null,
+    specTitle: byId.get(r.specVersionId)?.title ?? null,
+    currentDesign: currentDesignSummary(r.recommendedTopology, latestDecision.get(r.id)),
+  }));
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
 
@@ -409,10 +422,12 @@ export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, pr
   let design: Design | null | undefined;
   let label: string;
   if (query.source === 'decision') {
-    const decision = proposal.decisions.at(-1);
-    if (!decision) throw invalid([{ path: '?source', message: 'this proposal has no decision yet' }]);
-    design = decision.design;
-    label = `decision #${decision.id} (${decision.kind}, ${decision.topology})`;
+    // The decided design exactly as verified and signed off (shared/workflow/current-design.ts).
+    const current = proposal.currentDesign;
+    if (!current || current.basis !== 'decision') throw invalid([{ path: '?source', message: 'this proposal has no decision yet' }]);
+    design = current.design;
+    if (!design) throw invalid([{ path: '?source', message: 'the decided design could not be sized' }]);
+    label = `${proposal.status === 'approved' ? 'signed-off' : 'decided'} design, ${currentDesignName(current)} (decision #${current.decisionId}, ${current.decisionKind})`;
   } else {
     const topology = query.topology ?? proposal.result.recommended ?? proposal.result.options[0]?.topology;
     design = proposal.result.options.find((o) => o.topology === topology)?.design;

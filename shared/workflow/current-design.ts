@@ -21,7 +21,8 @@ export interface DecisionLike {
   reason: string | null;
 }
 
-export interface CurrentDesign {
+/** Which design is current, without its values: what a list of proposals shows. */
+export interface CurrentDesignSummary {
   /** `decision`: the latest decision settles it; `recommendation`: nobody has decided yet. */
   basis: 'decision' | 'recommendation';
   topology: string;
@@ -29,10 +30,6 @@ export interface CurrentDesign {
   ownValues: boolean;
   decisionId: number | null;
   decisionKind: DecisionKind | null;
-  /** The values that are simulated, exported and approved (null when the engine could not size it). */
-  design: Design | null;
-  /** The design as checked: the ranked option, or the server's evaluation of the own values. */
-  option: RecommendOption | null;
   /** The engine's recommendation, for showing beside the design when they differ. */
   recommended: string | null;
   /** The current design is not the recommendation as ranked (another option, or own values). */
@@ -41,41 +38,43 @@ export interface CurrentDesign {
   reason: string | null;
 }
 
-/** The current design, or null when nobody decided and nothing is recommended (no option passes). */
-export function currentDesign(result: RecommendResult, decisions: readonly DecisionLike[]): CurrentDesign | null {
-  const decision = decisions.at(-1);
-  const recommended = result.recommended ?? null;
-  if (decision) {
-    const ownValues = decision.kind === 'override';
-    const option = ownValues ? decision.evaluation : (result.options.find((o) => o.topology === decision.topology) ?? null);
-    const differs = ownValues || decision.topology !== recommended;
+export interface CurrentDesign extends CurrentDesignSummary {
+  /** The values that are simulated, exported and approved (null when the engine could not size it). */
+  design: Design | null;
+  /** The design as checked: the ranked option, or the server's evaluation of the own values. */
+  option: RecommendOption | null;
+}
+
+/**
+ * Which design is current, from the recommendation and the latest decision (if any); null when
+ * nobody decided and nothing is recommended (no option passes every blocking check).
+ */
+export function currentDesignSummary(recommended: string | null, latest: Pick<DecisionLike, 'id' | 'kind' | 'topology' | 'reason'> | null | undefined): CurrentDesignSummary | null {
+  if (latest) {
+    const ownValues = latest.kind === 'override';
+    const differs = ownValues || latest.topology !== recommended;
     return {
       basis: 'decision',
-      topology: decision.topology,
+      topology: latest.topology,
       ownValues,
-      decisionId: decision.id,
-      decisionKind: decision.kind,
-      design: option?.design ?? decision.design,
-      option,
+      decisionId: latest.id,
+      decisionKind: latest.kind,
       recommended,
       differsFromRecommendation: differs,
-      reason: differs ? decision.reason : null,
+      reason: differs ? latest.reason : null,
     };
   }
   if (!recommended) return null;
-  const option = result.options.find((o) => o.topology === recommended) ?? null;
-  return {
-    basis: 'recommendation',
-    topology: recommended,
-    ownValues: false,
-    decisionId: null,
-    decisionKind: null,
-    design: option?.design ?? null,
-    option,
-    recommended,
-    differsFromRecommendation: false,
-    reason: null,
-  };
+  return { basis: 'recommendation', topology: recommended, ownValues: false, decisionId: null, decisionKind: null, recommended, differsFromRecommendation: false, reason: null };
+}
+
+/** The current design with its values and checks, or null when there is none (see currentDesignSummary). */
+export function currentDesign(result: RecommendResult, decisions: readonly DecisionLike[]): CurrentDesign | null {
+  const decision = decisions.at(-1);
+  const summary = currentDesignSummary(result.recommended ?? null, decision);
+  if (!summary) return null;
+  const option = summary.ownValues ? (decision?.evaluation ?? null) : (result.options.find((o) => o.topology === summary.topology) ?? null);
+  return { ...summary, option, design: option?.design ?? decision?.design ?? null };
 }
 
 /** The design's name: "Cascode mirror", or "Cascode mirror, own values". */
@@ -97,7 +96,7 @@ export function currentDesignWord(design: Pick<CurrentDesign, 'basis'>): 'decide
 }
 
 /** One sentence on the recommendation beside the design, when they differ (null when they do not). */
-export function besideRecommendation(design: CurrentDesign): string | null {
+export function besideRecommendation(design: CurrentDesignSummary): string | null {
   if (!design.differsFromRecommendation) return null;
   const rec = design.recommended ? `The engine recommended the ${topologyName(design.recommended)}` : 'The engine recommended nothing (no option passes every blocking check)';
   const what = design.ownValues ? 'the designer decided own values' : `the designer chose the ${topologyName(design.topology)}`;
