@@ -158,12 +158,12 @@ describe('Longtail in the browser: the decided design is what is verified and si
     const actor = actors.reviewer;
     const { page } = actor;
     await openProposal(actor);
-    const check = await visible(page.getByRole('region', { name: 'SPICE check' }));
+    const check = await visible(page.getByRole('region', { name: 'SPICE check', exact: true }));
     const note = await visible(check.locator('[data-design-check="stale"]'));
     expect(await note.innerText()).toContain('simulated RC 2.21 kΩ, decided 2.49 kΩ');
     expect(await note.innerText()).toContain('simulated pair RE 78.7 Ω, decided 100 Ω');
     const ownRow = check.getByRole('table', { name: /Every simulated option/ }).getByRole('row', { name: /Designer’s own values/ });
-    expect(await ownRow.innerText()).toMatch(/Stale[\s\S]*simulated RC 2\.21 kΩ, decided 2\.49 kΩ/);
+    expect(await ownRow.innerText()).toMatch(/stale[\s\S]*simulated RC 2\.21 kΩ, decided 2\.49 kΩ/i);
 
     const review = page.getByRole('region', { name: 'Review the decided design' });
     const signOff = review.getByRole('button', { name: 'Sign off' });
@@ -176,7 +176,7 @@ describe('Longtail in the browser: the decided design is what is verified and si
   it('the reviewer runs the fresh SPICE check the page offers, and it is of the decided design', async () => {
     const actor = actors.reviewer;
     const { page } = actor;
-    const check = page.getByRole('region', { name: 'SPICE check' });
+    const check = page.getByRole('region', { name: 'SPICE check', exact: true });
     await check.getByRole('button', { name: 'Run a fresh SPICE check of the decided design' }).click();
     const current = await visible(check.locator('[data-design-check="current"]'), 120_000);
     const text = await current.innerText();
