@@ -57,7 +57,7 @@ export function RankingView({ proposal }: { proposal: Proposal }) {
       >
         {current?.basis === 'decision' && current.ownValues && (
           <p className="mb-2 rounded-md border border-fern/40 bg-fern-soft/40 px-3 py-2 text-sm dark:border-fern-soft/30 dark:bg-night">
-            The {decidedWord} design is the designer’s own values ({topologyName(current.topology)}), not a ranked option: its figures and checks are in the decision below, and its netlist is
+            The {proposal.status === 'approved' ? 'signed-off' : 'decided'} design is the designer’s own values ({topologyName(current.topology)}), not a ranked option: its figures and checks are in the decision below, and its netlist is
             the “{proposal.status === 'approved' ? 'Signed-off' : 'Decided'} design” download.
           </p>
         )}
