@@ -296,7 +296,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     const actor = actors.designer;
     const { page } = actor;
     await page.goto(`/projects/${projectId}`);
-    await visible(page.getByRole('region', { name: 'What needs you' }).getByRole('button', { name: /1 returned by a reviewer/ }));
+    await visible(page.getByRole('region', { name: 'What needs you' }).getByRole('button', { name: /1 sent back for rework by a reviewer/ }));
     await openProposal(actor);
     const decision = await visible(page.getByRole('region', { name: 'Your decision' }));
     await visible(decision.getByRole('heading', { name: 'Decide again' }));
