@@ -16,6 +16,9 @@ export interface Decision {
   reason: string | null;
   decidedById: number;
   createdAt: string;
+  /** The engine and rule set that checked the decided design (null on decisions recorded before they were kept). */
+  engineVersion: string | null;
+  rulesetVersion: string | null;
 }
 
 export const DecisionEntity = new EntitySchema<Decision>({
@@ -31,5 +34,7 @@ export const DecisionEntity = new EntitySchema<Decision>({
     reason: textColumn(true),
     decidedById: foreignKeyColumn('decided_by_id'),
     createdAt: timestampColumn('created_at'),
+    engineVersion: { ...shortTextColumn(20, true), name: 'engine_version' },
+    rulesetVersion: { ...shortTextColumn(64, true), name: 'ruleset_version' },
   },
 });

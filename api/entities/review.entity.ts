@@ -11,6 +11,10 @@ export interface Review {
   comment: string | null;
   reviewerId: number;
   createdAt: string;
+  /** The finished verification job the review relied on (null: none about the decided design). */
+  verificationJobId: number | null;
+  /** The reviewer signed off although that job simulated another design (said so in the comment). */
+  staleVerificationAccepted: boolean;
 }
 
 export const ReviewEntity = new EntitySchema<Review>({
@@ -24,5 +28,7 @@ export const ReviewEntity = new EntitySchema<Review>({
     comment: textColumn(true),
     reviewerId: foreignKeyColumn('reviewer_id'),
     createdAt: timestampColumn('created_at'),
+    verificationJobId: foreignKeyColumn('verification_job_id', true),
+    staleVerificationAccepted: { type: 'boolean', name: 'stale_verification_accepted', default: false },
   },
 });

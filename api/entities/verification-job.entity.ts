@@ -28,6 +28,7 @@ export const VerificationJobEntity = new EntitySchema<VerificationJob>({
     kind: shortTextColumn(20),
     topology: shortTextColumn(40, true),
     runs: { type: 'integer', nullable: true },
+    source: { ...shortTextColumn(20), name: 'design_source', default: 'option' },
     state: shortTextColumn(20),
     done: { type: 'integer' },
     total: { type: 'integer' },

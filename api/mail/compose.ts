@@ -7,6 +7,7 @@ import { topologyName } from '../../shared/engine/topology-names';
 import { ESTIMATE_NOTICE } from '../../shared/engine/version';
 import { commentLines, singleLine } from '../../shared/text/plain-text';
 import type { DecisionKind } from '../entities/decision.entity';
+import { currentDesignName, currentDesignSummary } from '../../shared/workflow/current-design';
 
 export type NotificationKind = 'proposal.ready' | 'proposal.decided' | 'proposal.approved' | 'proposal.returned';
 
@@ -36,7 +37,14 @@ export interface DecisionFacts {
 export type MessageFacts =
   | (ProposalFacts & { kind: 'proposal.ready'; rankedBy: string; recommended: string | null })
   | (ProposalFacts & { kind: 'proposal.decided'; decision: DecisionFacts; decisionNumber: number })
-  | (ProposalFacts & { kind: 'proposal.approved' | 'proposal.returned'; reviewedBy: string; comment: string | null; decision: DecisionFacts });
+  | (ProposalFacts & {
+      kind: 'proposal.approved' | 'proposal.returned';
+      reviewedBy: string;
+      comment: string | null;
+      decision: DecisionFacts;
+      /** A sign-off: the SPICE verification job it relied on (null: none about the design), and whether that job simulated another design. */
+      verification?: { jobId: number | null; staleAccepted: boolean };
+    });
 
 export interface ComposedMessage {
   subject: string;
@@ -60,6 +68,21 @@ export function decisionSentence(decision: DecisionFacts): string {
       return `overrode the ranking with own values (${tail(decision.topology)})${check}`;
     }
   }
+}
+
+/** The design itself, named first: "Cascode mirror, own values" (shared/workflow/current-design.ts). */
+export function designLine(label: string, decision: DecisionFacts): string[] {
+  const summary = currentDesignSummary(decision.recommended, { id: 0, kind: decision.kind, topology: decision.topology, reason: decision.reason });
+  if (!summary) return [];
+  const beside = summary.differsFromRecommendation ? ` (the engine recommended ${decision.recommended ? `the ${tail(decision.recommended)}` : 'nothing'})` : '';
+  return [`${label}: ${currentDesignName(summary)}${beside}`];
+}
+
+function verificationLine(verification: { jobId: number | null; staleAccepted: boolean } | undefined): string[] {
+  if (!verification) return [];
+  if (verification.jobId === null) return ['SPICE verification relied on: none (nothing about this design was simulated).'];
+  if (verification.staleAccepted) return [`SPICE verification relied on: job #${verification.jobId}, which simulated another design; the reviewer accepted it and says why in the comment.`];
+  return [`SPICE verification relied on: job #${verification.jobId}, which simulated exactly this design.`];
 }
 
 const specLine = (facts: ProposalFacts) => `Spec: "${facts.specTitle}", version ${facts.specVersion}`;
@@ -105,33 +128,38 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
       subject = `Proposal #${facts.proposalId} decided, waiting for review: ${spec}`;
       body = [
         `${facts.decision.decidedBy} decided ${name}: ${decisionSentence(facts.decision)}.`,
-        ...(facts.decisionNumber > 1 ? [`This is decision ${facts.decisionNumber} on it, after it was returned.`] : []),
+        ...(facts.decisionNumber > 1 ? [`This is decision ${facts.decisionNumber} on it, after it was sent back for rework.`] : []),
         '',
+        ...designLine('Decided design', facts.decision),
         projectLine(facts),
         specLine(facts),
         ...quoted('Reason', facts.decision.reason),
         '',
-        `Approve it, or return it with a comment: ${facts.link}`,
+        `Sign it off, or send it back for rework with a comment: ${facts.link}`,
       ];
       break;
     case 'proposal.approved':
-      subject = `Proposal #${facts.proposalId} approved: ${spec}`;
+      subject = `Proposal #${facts.proposalId} signed off: ${spec}`;
       body = [
-        `${facts.reviewedBy} approved ${name}.`,
-        `The approved decision: ${facts.decision.decidedBy} ${decisionSentence(facts.decision)}.`,
+        `${facts.reviewedBy} signed off ${name}.`,
+        ...designLine('Signed-off design', facts.decision),
+        `The decision signed off: ${facts.decision.decidedBy} ${decisionSentence(facts.decision)}.`,
+        ...verificationLine(facts.verification),
         '',
         projectLine(facts),
         specLine(facts),
+        ...quoted('Designer’s reason', facts.decision.reason),
         ...quoted('Review comment', facts.comment),
         '',
-        `The approved design and its figures: ${facts.link}`,
+        `The signed-off design and its figures: ${facts.link}`,
       ];
       break;
     case 'proposal.returned':
-      subject = `Proposal #${facts.proposalId} returned to the designer: ${spec}`;
+      subject = `Proposal #${facts.proposalId} sent back for rework: ${spec}`;
       body = [
-        `${facts.reviewedBy} returned ${name} to the designer; it waits for a new decision.`,
-        `The returned decision: ${facts.decision.decidedBy} ${decisionSentence(facts.decision)}.`,
+        `${facts.reviewedBy} sent ${name} back for rework; it waits for a new decision.`,
+        ...designLine('Design sent back', facts.decision),
+        `The decision sent back: ${facts.decision.decidedBy} ${decisionSentence(facts.decision)}.`,
         '',
         projectLine(facts),
         specLine(facts),

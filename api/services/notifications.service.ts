@@ -115,6 +115,7 @@ export async function queueNotification(manager: EntityManager, event: Notificat
       reviewedBy: nameOf(review.reviewerId),
       comment: quote(review.comment),
       decision: decisionFacts(decision, proposal.recommendedTopology, nameOf(decision.decidedById)),
+      ...(review.verdict === 'approve' ? { verification: { jobId: review.verificationJobId ?? null, staleAccepted: Boolean(review.staleVerificationAccepted) } } : {}),
     };
     tell(spec.createdById, `you wrote the spec "${spec.title}"`);
     if (version.createdById !== spec.createdById) tell(version.createdById, `you wrote version ${version.version} of the spec`);

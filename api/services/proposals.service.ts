@@ -6,6 +6,7 @@
  */
 import { In, type DataSource, type EntityManager } from 'typeorm';
 import { ENGINE_VERSION, ESTIMATE_NOTICE, evaluateDesign, recommend, type RecommendResult } from '../../shared/engine/index';
+import type { RecommendOption } from '../../shared/engine/recommend';
 import { spiceNetlist } from '../../shared/engine/netlist';
 import type { Design, RuleSet, TopologyId } from '../../shared/engine/types';
 import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
@@ -18,6 +19,10 @@ import { validateDesign } from '../../shared/validate';
 import { lockRowForUpdate } from '../data-source';
 import { AppError, invalid, notFound } from '../errors';
 import { auditView, recordEvent } from './audit.service';
+import { boundCurrentDesign, type BoundDecision } from '../verification/design-binding';
+import { designVerificationState } from './design-verification';
+import { currentDesignName, currentDesignSummary } from '../../shared/workflow/current-design';
+import { topologyName } from '../../shared/engine/topology-names';
 import { libraryCardNetlistComment } from './devices.service';
 import { queueNotification } from './notifications.service';
 import { projectFor } from './projects.service';
@@ -54,6 +59,11 @@ export interface DecisionInput {
 export interface ReviewInput {
   verdict: Verdict;
   comment?: string;
+  /**
+   * Sign off although the only SPICE verification of the decided design simulated another design
+   * (or was stored before results recorded what they simulated); needs a comment saying why.
+   */
+  acceptStaleVerification?: boolean;
 }
 
 /** The proposal if its project is visible to the viewer, else 404. */
@@ -81,7 +91,17 @@ function transition(proposal: Proposal, event: ProposalEvent): ProposalState {
 }
 
 function decisionView(decision: Decision) {
-  return { ...decision, design: JSON.parse(decision.design) as Design, evaluation: decision.evaluation ? JSON.parse(decision.evaluation) : null };
+  return { ...decision, design: JSON.parse(decision.design) as Design, evaluation: decision.evaluation ? (JSON.parse(decision.evaluation) as RecommendOption) : null };
+}
+
+/** The proposal's current design with its binding, from its stored rows (shared/workflow/current-design.ts). */
+export function currentDesignOf(proposal: Proposal, specVersion: number, result: RecommendResult, decisions: readonly Decision[]) {
+  return boundCurrentDesign(proposal, specVersion, result, decisions.map(decisionView) as BoundDecision[]);
+}
+
+/** How many blocking checks a checked design fails. */
+function blockingShortfalls(option: RecommendOption | null): number {
+  return option ? option.checks.filter((c) => !c.passed && c.severity === 'blocking').length : 0;
 }
 
 /** The whole proposal: its record, the engine's output, the spec snapshot, decisions and reviews. */
@@ -92,13 +112,15 @@ export async function getProposal(dataSource: DataSource, viewer: Viewer, propos
     dataSource.getRepository(DecisionEntity).find({ where: { proposalId }, order: { id: 'ASC' } }),
     dataSource.getRepository(ReviewEntity).find({ where: { proposalId }, order: { id: 'ASC' } }),
   ]);
+  const result = JSON.parse(proposal.result) as RecommendResult;
   return {
     ...proposal,
-    result: JSON.parse(proposal.result) as RecommendResult,
+    result,
     specVersion: { id: version.id, version: version.version, title: version.title, payload: JSON.parse(version.payload) },
     decisions: decisions.map(decisionView),
     reviews,
     allowedEvents: allowedEvents(proposal.status),
+    currentDesign: currentDesignOf(proposal, version.version, result, decisions),
   };
 }
 
@@ -169,6 +191,7 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
     decisions: [],
     reviews: [],
     allowedEvents: allowedEvents('ranked'),
+    currentDesign: currentDesignOf(proposal, version.version, JSON.parse(resultText) as RecommendResult, []),
   };
   return { envelope, resultText };
 }
@@ -204,7 +227,20 @@ export async function listProposals(dataSource: DataSource, viewer: Viewer, proj
     ? await dataSource.getRepository(SpecVersionEntity).find({ select: { id: true, version: true, title: true }, where: { id: In(versionIds) } })
     : [];
   const byId = new Map(versions.map((v) => [v.id, v]));
-  const items = rows.map((r) => ({ ...r, specVersionNumber: byId.get(r.specVersionId)?.version ?? null, specTitle: byId.get(r.specVersionId)?.title ?? null }));
+  const decisions = rows.length
+    ? await dataSource.getRepository(DecisionEntity).find({
+        select: { id: true, proposalId: true, kind: true, topology: true, reason: true },
+        where: { proposalId: In(rows.map((r) => r.id)) },
+        order: { id: 'ASC' },
+      })
+    : [];
+  const latestDecision = new Map(decisions.map((d) => [d.proposalId, d]));
+  const items = rows.map((r) => ({
+    ...r,
+    specVersionNumber: byId.get(r.specVersionId)?.version ?? null,
+    specTitle: byId.get(r.specVersionId)?.title ?? null,
+    currentDesign: currentDesignSummary(r.recommendedTopology, latestDecision.get(r.id)),
+  }));
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
 
@@ -215,14 +251,14 @@ async function settledDesign(proposal: Proposal, input: DecisionInput, ruleSet: 
     if (!input.design) throw invalid([{ path: '/design', message: 'is required for an override' }]);
     const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
     const evaluation = await evaluateDesign(checkedSpecDocument(JSON.parse(version.payload)), input.design, ruleSet);
-    return { topology: input.design.tail.topology, design: input.design, evaluation };
+    return { topology: input.design.tail.topology, design: input.design, evaluation, engineVersion: ENGINE_VERSION, rulesetVersion: ruleSet.version };
   }
   const topology = input.kind === 'accept' ? result.recommended : input.topology;
   if (input.kind === 'accept' && !topology) throw new AppError('nothing-recommended', 409, 'No option passes, so there is no recommendation to accept: choose an option or override.');
   if (!topology) throw invalid([{ path: '/topology', message: 'is required when choosing an option' }]);
   const option = result.options.find((o) => o.topology === topology);
   if (!option?.design) throw invalid([{ path: '/topology', message: `is not a ranked option of this proposal: ${topology}` }]);
-  return { topology, design: option.design, evaluation: null };
+  return { topology, design: option.design, evaluation: null, engineVersion: proposal.engineVersion, rulesetVersion: proposal.rulesetVersion };
 }
 
 /** Fields that do not belong to the decision's kind are refused, and an override's design is checked whole. */
@@ -270,6 +306,8 @@ export async function decide(dataSource: DataSource, actor: Viewer, proposalId: 
       reason: input.reason?.trim() || null,
       decidedById: actor.id,
       createdAt: new Date().toISOString(),
+      engineVersion: settled.engineVersion,
+      rulesetVersion: settled.rulesetVersion,
     });
     await manager.getRepository(ProposalEntity).update({ id: proposalId }, { status, updatedAt: decision.createdAt });
     await recordEvent(manager, {
@@ -288,22 +326,67 @@ export async function decide(dataSource: DataSource, actor: Viewer, proposalId: 
   return getProposal(dataSource, actor, proposalId);
 }
 
-/** A reviewer's verdict on the latest decision: approve, or return with a comment. */
+/**
+ * A reviewer's verdict on the latest decision: sign off (`approve`), or send back for rework
+ * (`return`, with a comment). The rules of a sign-off, held here rather than in the browser:
+ * - a decided design short on a blocking check needs a comment (400 on `/comment`);
+ * - the review records the finished verification job that simulated exactly the decided design
+ *   (by fingerprint), or none when nothing about it was simulated;
+ * - when the only verification about it simulated another design (stale) or was stored before
+ *   fingerprints were recorded, the sign-off is refused (409 `verification-stale`, saying what
+ *   changed) unless `acceptStaleVerification: true` comes with a comment saying why (400 on
+ *   `/comment` without one); the review then records that job and the acceptance.
+ */
 export async function review(dataSource: DataSource, actor: Viewer, proposalId: number, input: ReviewInput) {
-  if (input.verdict === 'return' && !(input.comment ?? '').trim()) throw invalid([{ path: '/comment', message: 'is required when returning a proposal' }]);
+  const comment = input.comment?.trim() || null;
+  if (input.verdict === 'return' && !comment) throw invalid([{ path: '/comment', message: 'is required when sending a proposal back for rework' }]);
+  if (input.verdict === 'return' && input.acceptStaleVerification !== undefined) {
+    throw invalid([{ path: '/acceptStaleVerification', message: 'belongs to a sign-off (verdict "approve"), not to sending back' }]);
+  }
   await dataSource.transaction(async (manager) => {
     await lockRowForUpdate(manager, ProposalEntity, proposalId);
     const proposal = await proposalFor(manager, actor, proposalId);
     const status = transition(proposal, input.verdict);
-    const decision = await manager.getRepository(DecisionEntity).findOneOrFail({ where: { proposalId }, order: { id: 'DESC' } });
+    const decisions = await manager.getRepository(DecisionEntity).find({ where: { proposalId }, order: { id: 'ASC' } });
+    const decision = decisions.at(-1);
+    if (!decision) throw new AppError('invalid-transition', 409, `Proposal ${proposalId} has no decision to review.`);
     if (decision.decidedById === actor.id) throw new AppError('own-decision', 403, 'Nobody reviews their own decision.');
+    let verificationJobId: number | null = null;
+    let staleVerificationAccepted = false;
+    if (input.verdict === 'approve') {
+      const version = await manager.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true }, where: { id: proposal.specVersionId } });
+      const current = currentDesignOf(proposal, version.version, JSON.parse(proposal.result) as RecommendResult, decisions);
+      const shortfalls = blockingShortfalls(current?.option ?? null);
+      if (shortfalls > 0 && !comment) {
+        throw invalid([{ path: '/comment', message: `is required to sign off a design short on ${shortfalls} blocking check${shortfalls === 1 ? '' : 's'}: say why it is accepted anyway` }]);
+      }
+      const verification = await designVerificationState(manager, proposalId, current);
+      if (verification.state === 'stale' || verification.state === 'unbound') {
+        const what =
+          verification.state === 'stale'
+            ? `simulated another design (${verification.changes.join('; ')})`
+            : 'was stored before results recorded which design they simulated';
+        if (!input.acceptStaleVerification) {
+          throw new AppError(
+            'verification-stale',
+            409,
+            `The only SPICE verification of the decided design (${current ? currentDesignName(current) : topologyName(decision.topology)}), job #${verification.jobId}, ${what}. Run the SPICE check again, or sign off anyway with acceptStaleVerification: true and a comment saying why.`,
+          );
+        }
+        if (!comment) throw invalid([{ path: '/comment', message: 'is required to sign off on a verification that simulated another design: say why it is enough' }]);
+        staleVerificationAccepted = true;
+      }
+      verificationJobId = verification.jobId;
+    }
     const saved: Review = await manager.getRepository(ReviewEntity).save({
       proposalId,
       decisionId: decision.id,
       verdict: input.verdict,
-      comment: input.comment?.trim() || null,
+      comment,
       reviewerId: actor.id,
       createdAt: new Date().toISOString(),
+      verificationJobId,
+      staleVerificationAccepted,
     });
     await manager.getRepository(ProposalEntity).update({ id: proposalId }, { status, updatedAt: saved.createdAt });
     await recordEvent(manager, {
@@ -315,7 +398,14 @@ export async function review(dataSource: DataSource, actor: Viewer, proposalId: 
       proposalId,
       beforeId: decision.id,
       afterId: saved.id,
-      details: { verdict: input.verdict, from: proposal.status, to: status },
+      details: {
+        verdict: input.verdict,
+        from: proposal.status,
+        to: status,
+        topology: decision.topology,
+        ownValues: decision.kind === 'override',
+        ...(input.verdict === 'approve' ? { verificationJobId, staleVerificationAccepted } : {}),
+      },
     });
     await queueNotification(manager, { kind: input.verdict === 'approve' ? 'proposal.approved' : 'proposal.returned', proposalId, reviewId: saved.id, actorId: actor.id });
   });
@@ -332,10 +422,12 @@ export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, pr
   let design: Design | null | undefined;
   let label: string;
   if (query.source === 'decision') {
-    const decision = proposal.decisions.at(-1);
-    if (!decision) throw invalid([{ path: '?source', message: 'this proposal has no decision yet' }]);
-    design = decision.design;
-    label = `decision #${decision.id} (${decision.kind}, ${decision.topology})`;
+    // The decided design exactly as verified and signed off (shared/workflow/current-design.ts).
+    const current = proposal.currentDesign;
+    if (!current || current.basis !== 'decision') throw invalid([{ path: '?source', message: 'this proposal has no decision yet' }]);
+    design = current.design;
+    if (!design) throw invalid([{ path: '?source', message: 'the decided design could not be sized' }]);
+    label = `${proposal.status === 'approved' ? 'signed-off' : 'decided'} design, ${currentDesignName(current)} (decision #${current.decisionId}, ${current.decisionKind})`;
   } else {
     const topology = query.topology ?? proposal.result.recommended ?? proposal.result.options[0]?.topology;
     design = proposal.result.options.find((o) => o.topology === topology)?.design;

@@ -9,11 +9,13 @@ import { VerificationJobEntity, type VerificationJob } from '../entities/verific
 import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { lockRowForUpdate } from '../data-source';
 import { ProposalEntity } from '../entities/proposal.entity';
-import { conflict } from '../errors';
-import type { RecommendResult } from '../../shared/engine/recommend';
+import { conflict, invalid } from '../errors';
+import type { RecommendOption, RecommendResult } from '../../shared/engine/recommend';
 import { MONTE_CARLO_RUNS, type VerificationJobView, type VerificationKind, type VerificationStatus } from '../../shared/verification/types';
 import { checkedSpecDocument } from './specs.service';
-import { proposalFor } from './proposals.service';
+import { currentDesignOf, proposalFor } from './proposals.service';
+import { designVerificationState } from './design-verification';
+import { DecisionEntity } from '../entities/decision.entity';
 import { recordEvent } from './audit.service';
 import { monteCarloRefusal } from '../verification/monte-carlo';
 import type { PublicUser } from './users.service';
@@ -31,6 +33,7 @@ async function jobViews(dataSource: DataSource, jobs: VerificationJob[]): Promis
     proposalId: job.proposalId,
     kind: job.kind,
     topology: job.topology,
+    source: job.source ?? 'option',
     runs: job.runs,
     state: job.state,
     done: job.done,
@@ -53,6 +56,7 @@ async function requestJob(
   kind: VerificationKind,
   topology: string | null,
   runs: number | null,
+  source: 'option' | 'decision' = 'option',
 ): Promise<{ job: VerificationJobView; created: boolean }> {
   const { job, created } = await dataSource.transaction(async (manager) => {
     // PostgreSQL: two requests at once see each other's job (one job, not two).
@@ -60,7 +64,7 @@ async function requestJob(
     const proposal = await proposalFor(manager, actor, proposalId);
     const repository = manager.getRepository(VerificationJobEntity);
     const active = await repository.findOne({
-      where: { proposalId, kind, ...(topology === null ? {} : { topology }), state: In([...ACTIVE_STATES]) },
+      where: { proposalId, kind, source, ...(topology === null ? {} : { topology }), state: In([...ACTIVE_STATES]) },
       order: { id: 'DESC' },
     });
     if (active) return { job: active, created: false };
@@ -68,6 +72,7 @@ async function requestJob(
       proposalId,
       kind,
       topology,
+      source,
       runs,
       state: 'waiting',
       done: 0,
@@ -90,7 +95,7 @@ async function requestJob(
       projectId: proposal.projectId,
       proposalId,
       afterId: saved.id,
-      details: kind === 'proposal' ? {} : { topology, runs },
+      details: kind === 'proposal' ? {} : { topology, runs, source },
     });
     return { job: saved, created: true };
   });
@@ -102,24 +107,53 @@ export function requestVerification(dataSource: DataSource, actor: Viewer, propo
   return requestJob(dataSource, actor, proposalId, 'proposal', null, null);
 }
 
-/** A SPICE Monte Carlo of one option; 409 with the reason when the option cannot have one. */
-export async function requestMonteCarlo(dataSource: DataSource, actor: Viewer, proposalId: number, input: { topology: string; runs?: number }) {
+/**
+ * A SPICE Monte Carlo of one ranked option (`source: 'option'`, its topology) or of the latest
+ * decision's design (`source: 'decision'`, own values included; the topology, when given, must be
+ * the decision's); 409 with the reason when it cannot have one.
+ */
+export async function requestMonteCarlo(dataSource: DataSource, actor: Viewer, proposalId: number, input: { topology?: string; source?: 'option' | 'decision'; runs?: number }) {
   const proposal = await proposalFor(dataSource, actor, proposalId);
   const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
   const spec = checkedSpecDocument(JSON.parse(version.payload));
   const result = JSON.parse(proposal.result) as RecommendResult;
-  const refusal = monteCarloRefusal(spec, result.options.find((o) => o.topology === input.topology));
+  const source = input.source ?? 'option';
+  let option: RecommendOption | undefined;
+  let topology: string;
+  if (source === 'decision') {
+    const decision = await dataSource.getRepository(DecisionEntity).findOne({ where: { proposalId }, order: { id: 'DESC' } });
+    if (!decision) throw conflict('not-decided', 'Nothing is decided yet: ask for a Monte Carlo of a ranked option instead.');
+    if (input.topology !== undefined && input.topology !== decision.topology) {
+      throw invalid([{ path: '/topology', message: `is ${input.topology}, but the decided design is a ${decision.topology}; leave it out for the decided design` }]);
+    }
+    topology = decision.topology;
+    option = decision.kind === 'override' ? (decision.evaluation ? (JSON.parse(decision.evaluation) as RecommendOption) : undefined) : result.options.find((o) => o.topology === decision.topology);
+  } else {
+    if (input.topology === undefined) throw invalid([{ path: '/topology', message: 'is required for a ranked option' }]);
+    topology = input.topology;
+    option = result.options.find((o) => o.topology === topology);
+  }
+  const refusal = monteCarloRefusal(spec, option);
   if (refusal) throw conflict('monte-carlo-not-applicable', refusal);
-  return requestJob(dataSource, actor, proposalId, 'monte-carlo', input.topology, input.runs ?? MONTE_CARLO_RUNS.default);
+  return requestJob(dataSource, actor, proposalId, 'monte-carlo', topology, input.runs ?? MONTE_CARLO_RUNS.default, source);
 }
 
-/** The latest whole-proposal job and the latest Monte Carlo job of each option. */
+/**
+ * The latest whole-proposal job, the latest Monte Carlo job of each ranked option and of the
+ * decided design, and how the verification stands for the current design.
+ */
 export async function verificationStatus(dataSource: DataSource, viewer: Viewer, proposalId: number): Promise<VerificationStatus> {
-  await proposalFor(dataSource, viewer, proposalId);
+  const proposal = await proposalFor(dataSource, viewer, proposalId);
   const repository = dataSource.getRepository(VerificationJobEntity);
   const latest = await repository.findOne({ where: { proposalId, kind: 'proposal' }, order: { id: 'DESC' } });
   const monteCarlo = await repository.find({ where: { proposalId, kind: 'monte-carlo' }, order: { id: 'DESC' } });
-  const latestPerOption = monteCarlo.filter((job, i) => monteCarlo.findIndex((j) => j.topology === job.topology) === i);
+  const latestPerOption = monteCarlo.filter((job, i) => monteCarlo.findIndex((j) => j.topology === job.topology && j.source === job.source) === i);
   const views = await jobViews(dataSource, latest ? [latest, ...latestPerOption] : latestPerOption);
-  return latest ? { verification: views[0], monteCarlo: views.slice(1) } : { verification: null, monteCarlo: views };
+  const [version, decisions] = await Promise.all([
+    dataSource.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true }, where: { id: proposal.specVersionId } }),
+    dataSource.getRepository(DecisionEntity).find({ where: { proposalId }, order: { id: 'ASC' } }),
+  ]);
+  const current = currentDesignOf(proposal, version.version, JSON.parse(proposal.result) as RecommendResult, decisions);
+  const currentDesign = await designVerificationState(dataSource, proposalId, current);
+  return latest ? { verification: views[0], monteCarlo: views.slice(1), currentDesign } : { verification: null, monteCarlo: views, currentDesign };
 }

@@ -48,7 +48,8 @@ export const DECISION_BODY = {
   ),
 };
 
-export const REVIEW_BODY = strict({ verdict: { enum: ['approve', 'return'] }, comment: text(4000) }, ['verdict']);
+/** `acceptStaleVerification`: sign off on a verification that simulated another design (with a comment; see review() in proposals.service). */
+export const REVIEW_BODY = strict({ verdict: { enum: ['approve', 'return'] }, comment: text(4000), acceptStaleVerification: { type: 'boolean' } }, ['verdict']);
 
 /** `?page=1&pageSize=20`: pages count from 1; at most 100 a page. Every paged list takes these two. */
 const PAGE_FIELDS = {
@@ -78,9 +79,10 @@ export const EVALUATION_BODY = strict({ design: DESIGN_SCHEMA }, ['design']);
 export const MONTE_CARLO_BODY = strict(
   {
     topology: { enum: [...TOPOLOGIES] },
+    source: { enum: ['option', 'decision'], default: 'option' },
     runs: { type: 'integer', minimum: MONTE_CARLO_RUNS.min, maximum: MONTE_CARLO_RUNS.max, default: MONTE_CARLO_RUNS.default },
   },
-  ['topology'],
+  [],
 );
 
 export const NETLIST_QUERY = strict(

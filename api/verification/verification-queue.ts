@@ -23,7 +23,9 @@ import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { VerificationJobEntity, type VerificationJob } from '../entities/verification-job.entity';
 import type { RecommendOption, RecommendResult } from '../../shared/engine/recommend';
-import type { Spec } from '../../shared/engine/types';
+import type { Design, Spec } from '../../shared/engine/types';
+import type { DesignBinding } from '../../shared/verification/binding';
+import { designBinding } from './design-binding';
 import { topologyName } from '../../shared/engine/topology-names';
 import {
   VERIFICATION_TOLERANCES,
@@ -198,8 +200,8 @@ export class VerificationQueue {
 
   private async runJob(job: VerificationJob): Promise<void> {
     try {
-      const { proposal, spec, result } = await loadProposal(this.dataSource, job.proposalId);
-      const targets = job.kind === 'proposal' ? await verificationTargets(this.dataSource, proposal, spec, result, this.options.netlistHook) : [];
+      const { proposal, spec, result, specVersion } = await loadProposal(this.dataSource, job.proposalId);
+      const targets = job.kind === 'proposal' ? await verificationTargets(this.dataSource, proposal, spec, result, specVersion, this.options.netlistHook) : [];
       const sizes = targets.map((t) => analysesPerOption(t.option.corners.length));
       const offsets = sizes.map((_, i) => sizes.slice(0, i).reduce((a, b) => a + b, 0));
       const total = job.kind === 'proposal' ? sizes.reduce((a, b) => a + b, 0) : (job.runs ?? 0);
@@ -207,12 +209,14 @@ export class VerificationQueue {
       const simulatorStartMs = await this.engine.start();
       const simulator = await this.engine.version();
       if (job.kind === 'monte-carlo') {
-        const option = result.options.find((o) => o.topology === job.topology);
-        if (!option) throw new Error('The proposal has no such option.');
+        const target =
+          job.source === 'decision'
+            ? await decidedTarget(this.dataSource, proposal, result, specVersion)
+            : rankedTarget(proposal, result, specVersion, job.topology ?? '');
+        if (!target) throw new Error(job.source === 'decision' ? 'The proposal has no decided design to simulate.' : 'The proposal has no such option.');
         const progress = this.progressWriter(job.id);
-        const outcome: MonteCarloVerificationResult = await runMonteCarlo(this.engine.runner, spec, option, job.runs ?? 0, simulator, (done, step) =>
-          progress(done, `${topologyName(option.topology)}: ${step}`),
-        );
+        const simulated = await runMonteCarlo(this.engine.runner, spec, target.option, job.runs ?? 0, simulator, (done, step) => progress(done, `${target.name}: ${step}`));
+        const outcome: MonteCarloVerificationResult = { ...simulated, source: job.source, binding: target.binding };
         await this.finish(job, outcome, job.runs ?? 0);
         return;
       }
@@ -266,10 +270,48 @@ export class VerificationQueue {
   }
 }
 
-async function loadProposal(manager: DataSource | EntityManager, proposalId: number): Promise<{ proposal: Proposal; spec: Spec; result: RecommendResult }> {
+async function loadProposal(manager: DataSource | EntityManager, proposalId: number): Promise<{ proposal: Proposal; spec: Spec; result: RecommendResult; specVersion: number }> {
   const proposal = await manager.getRepository(ProposalEntity).findOneByOrFail({ id: proposalId });
   const version = await manager.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
-  return { proposal, spec: checkedSpecDocument(JSON.parse(version.payload)), result: JSON.parse(proposal.result) as RecommendResult };
+  return { proposal, spec: checkedSpecDocument(JSON.parse(version.payload)), result: JSON.parse(proposal.result) as RecommendResult, specVersion: version.version };
+}
+
+interface SimulationTarget {
+  option: RecommendOption;
+  name: string;
+  binding: DesignBinding | undefined;
+}
+
+/** A ranked option, bound to the ranking's engine and rule set. */
+function rankedTarget(proposal: Proposal, result: RecommendResult, specVersion: number, topology: string): SimulationTarget | null {
+  const option = result.options.find((o) => o.topology === topology);
+  if (!option) return null;
+  const binding = option.design
+    ? designBinding({ topology, design: option.design, specVersionId: proposal.specVersionId, specVersion, engineVersion: proposal.engineVersion, rulesetVersion: proposal.rulesetVersion })
+    : undefined;
+  return { option, name: topologyName(topology), binding };
+}
+
+/**
+ * The latest decision's design: the designer's own values as the server checked them (bound to
+ * the engine and rule set that checked them), or the ranked option accepted or chosen.
+ */
+async function decidedTarget(dataSource: DataSource, proposal: Proposal, result: RecommendResult, specVersion: number): Promise<SimulationTarget | null> {
+  const decision = await dataSource.getRepository(DecisionEntity).findOne({ where: { proposalId: proposal.id }, order: { id: 'DESC' } });
+  if (!decision) return null;
+  if (decision.kind !== 'override') return rankedTarget(proposal, result, specVersion, decision.topology);
+  if (!decision.evaluation) return null;
+  const option = JSON.parse(decision.evaluation) as RecommendOption;
+  const design = option.design ?? (JSON.parse(decision.design) as Design);
+  const binding = designBinding({
+    topology: decision.topology,
+    design,
+    specVersionId: proposal.specVersionId,
+    specVersion,
+    engineVersion: decision.engineVersion ?? proposal.engineVersion,
+    rulesetVersion: decision.rulesetVersion ?? proposal.rulesetVersion,
+  });
+  return { option, name: `Own values (${topologyName(decision.topology)})`, binding };
 }
 
 /** Every ranked option, then the latest decision's own design when it is an override. */
@@ -278,6 +320,7 @@ async function verificationTargets(
   proposal: Proposal,
   spec: Spec,
   result: RecommendResult,
+  specVersion: number,
   hook: VerificationQueueOptions['netlistHook'],
 ): Promise<OptionToVerify[]> {
   const common = { differentialOutput: spec.gain.output === 'differential', frequencyHz: spec.cmrr.atFrequencyHz };
@@ -287,19 +330,23 @@ async function verificationTargets(
     source: 'option',
     name: topologyName(option.topology),
     option,
+    binding: rankedTarget(proposal, result, specVersion, option.topology)?.binding,
     netlistHook: hook ? (netlist: string) => hook(option.topology, netlist) : undefined,
   }));
   const decision = await dataSource.getRepository(DecisionEntity).findOne({ where: { proposalId: proposal.id }, order: { id: 'DESC' } });
   if (decision?.kind === 'override' && decision.evaluation) {
-    const option = JSON.parse(decision.evaluation) as RecommendOption;
-    targets.push({
-      ...common,
-      topology: decision.topology,
-      source: 'decision',
-      name: `Override (${topologyName(decision.topology)})`,
-      option,
-      netlistHook: hook ? (netlist: string) => hook(`override:${decision.topology}`, netlist) : undefined,
-    });
+    const decided = await decidedTarget(dataSource, proposal, result, specVersion);
+    if (decided) {
+      targets.push({
+        ...common,
+        topology: decision.topology,
+        source: 'decision',
+        name: `Override (${topologyName(decision.topology)})`,
+        option: decided.option,
+        binding: decided.binding,
+        netlistHook: hook ? (netlist: string) => hook(`override:${decision.topology}`, netlist) : undefined,
+      });
+    }
   }
   return targets;
 }

@@ -7,6 +7,7 @@
  */
 import type { RecommendOption } from '../../shared/engine/recommend';
 import type { Design } from '../../shared/engine/types';
+import type { DesignBinding } from '../../shared/verification/binding';
 import {
   VERIFICATION_TOLERANCES as TOL,
   type OptionVerification,
@@ -57,6 +58,8 @@ export interface OptionToVerify {
   frequencyHz: number;
   /** Changes the netlist before it runs (tests use it to break one on purpose). */
   netlistHook?: (netlist: string) => string;
+  /** What is simulated, recorded with the result (shared/verification/binding.ts). */
+  binding?: DesignBinding;
 }
 
 function percentFigure(key: string, label: string, unit: string, predicted: number | null, simulated: number | null, tolerance: number): VerifiedFigure {
@@ -124,6 +127,7 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
   const base: Omit<OptionVerification, 'outcome' | 'error' | 'agrees' | 'disagreements' | 'elapsedMs'> = {
     topology: target.topology,
     source: target.source,
+    ...(target.binding ? { binding: target.binding } : {}),
     nominal: null,
     corners: [],
     rejectionCurve: [],

@@ -8,6 +8,8 @@
  * spec's tolerances.
  */
 
+import type { DesignBinding } from './binding';
+
 /** Job kinds: the whole proposal, or SPICE Monte Carlo on one option. */
 export type VerificationKind = 'proposal' | 'monte-carlo';
 
@@ -93,6 +95,11 @@ export interface OptionVerification {
   /** Count of figures outside tolerance. */
   disagreements: number;
   elapsedMs: number;
+  /**
+   * What was simulated: the design's values, spec version, engine and rule set, and their
+   * fingerprint (`binding.ts`). Absent on results stored before fingerprints were recorded.
+   */
+  binding?: DesignBinding;
 }
 
 export interface ProposalVerificationResult {
@@ -109,6 +116,10 @@ export interface ProposalVerificationResult {
 export interface MonteCarloVerificationResult {
   simulator: string;
   topology: string;
+  /** `option`: a ranked option; `decision`: the latest decision's design (own values included). Absent on older results (a ranked option). */
+  source?: 'option' | 'decision';
+  /** What was simulated (see OptionVerification.binding); absent on older results. */
+  binding?: DesignBinding;
   /** Which rejection is drawn: the differential output's CMRR (mismatch-limited). */
   figure: 'cmrr-differential';
   /** The condition simulated: the corner that governs the option's mismatch worst case, e.g. "ICM −1.5 V, 65 °C". */
@@ -136,6 +147,8 @@ export interface VerificationJobView {
   kind: VerificationKind;
   /** Monte Carlo: the option's topology; else null. */
   topology: string | null;
+  /** Monte Carlo: a ranked option, or the latest decision's design (own values included). */
+  source: 'option' | 'decision';
   /** Monte Carlo: the number of runs asked for; else null. */
   runs: number | null;
   state: VerificationState;
@@ -153,8 +166,23 @@ export interface VerificationJobView {
   result: ProposalVerificationResult | MonteCarloVerificationResult | null;
 }
 
+/**
+ * How the verification stands for the current design: `current` when a finished job simulated
+ * exactly it (`jobId`), `stale` when the only results about it simulated something else
+ * (`changes` says what), `unbound` when they were stored before fingerprints were recorded,
+ * `none` when nothing about it was simulated.
+ */
+export interface DesignVerificationState {
+  state: 'current' | 'stale' | 'unbound' | 'none';
+  /** The job whose result is about the current design (current, stale or unbound); null for `none`. */
+  jobId: number | null;
+  changes: string[];
+}
+
 /** `GET /api/proposals/:id/verification`. */
 export interface VerificationStatus {
+  /** The verification of the proposal's current design (absent only when it has none). */
+  currentDesign?: DesignVerificationState;
   /** The latest whole-proposal job, or null if none was asked for. */
   verification: VerificationJobView | null;
   /** The latest Monte Carlo job for each option that had one, newest first. */

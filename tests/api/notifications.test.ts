@@ -132,7 +132,7 @@ describe('when a person sets their own notification preference', () => {
 });
 
 /** What the story's steps hand on. */
-const story = { proposalId: 0, recommended: '' };
+const story = { proposalId: 0, recommended: '', chosen: '' };
 
 describe('when a proposal goes through the workflow over HTTP, then each step mails the right people', () => {
   test('when the systems engineer ranks the spec, then the designers who take e-mail get "ready for decision" (not the one who opted out, not an outsider)', async () => {
@@ -174,7 +174,7 @@ describe('when a proposal goes through the workflow over HTTP, then each step ma
     }
   });
 
-  test('when a reviewer returns it with a comment, then the spec author and the deciding designer get "returned" with the comment', async () => {
+  test('when a reviewer sends it back with a comment, then the spec author and the deciding designer get "sent back for rework" with the comment', async () => {
     const mark = await lastMailId();
     const comment = 'Check the hot corner again: the headroom margin looks thin at 70 °C.';
 
@@ -184,8 +184,8 @@ describe('when a proposal goes through the workflow over HTTP, then each step ma
     const messages = await deliveredSince(mark);
     expect(recipients(messages)).toEqual([emailOf('designer'), emailOf('requirements')].sort());
     for (const message of messages) {
-      expect(message.subject).toMatch(/returned/i);
-      expect(message.text).toContain('Test reviewer returned');
+      expect(message.subject).toMatch(/sent back for rework/i);
+      expect(message.text).toContain('Test reviewer sent');
       expect(message.text).toContain(comment);
       expect(message.text).toContain(`"${SPEC_TITLE}", version 1`);
       expect(lastLine(message.text)).toMatch(ESTIMATES_LINE);
@@ -196,6 +196,7 @@ describe('when a proposal goes through the workflow over HTTP, then each step ma
     const mark = await lastMailId();
     const options = (await designer.get(`/api/proposals/${story.proposalId}`)).body.result.options as { topology: string; passes: boolean; design?: unknown }[];
     const other = options.find((o) => o.topology !== story.recommended && o.design)!;
+    story.chosen = other.topology;
     const reason = 'The bench rig already stocks this part; the margin is enough for the first build.';
 
     const response = await designer.post(`/api/proposals/${story.proposalId}/decision`).send({ kind: 'choose', topology: other.topology, reason });
@@ -209,7 +210,7 @@ describe('when a proposal goes through the workflow over HTTP, then each step ma
     }
   });
 
-  test('when the second reviewer approves, then the spec author and the deciding designer get "approved"; the reviewer who acted gets nothing', async () => {
+  test('when the second reviewer signs off, then the spec author and the deciding designer get "signed off" naming the design first; the reviewer who acted gets nothing', async () => {
     const mark = await lastMailId();
 
     const response = await reviewer2.post(`/api/proposals/${story.proposalId}/review`).send({ verdict: 'approve', comment: 'Figures agree with the SPICE run.' });
@@ -218,8 +219,12 @@ describe('when a proposal goes through the workflow over HTTP, then each step ma
     const messages = await deliveredSince(mark);
     expect(recipients(messages)).toEqual([emailOf('designer'), emailOf('requirements')].sort());
     for (const message of messages) {
-      expect(message.subject).toMatch(/approved/i);
-      expect(message.text).toContain('Test reviewer2 approved');
+      expect(message.subject).toMatch(/signed off/i);
+      expect(message.text).toContain('Test reviewer2 signed off');
+      // The design is named before anything else about the decision, with the recommendation beside it.
+      const words = (topology: string) => topology.replaceAll('-', ' ');
+      expect(message.text).toMatch(new RegExp(`Signed-off design: ${words(story.chosen)}[^\\n]*\\(the engine recommended the ${words(story.recommended)}`, 'i'));
+      expect(message.text).toContain('SPICE verification relied on: none');
       expect(message.text).toContain('Figures agree with the SPICE run.');
     }
   });

@@ -48,7 +48,7 @@ async function openProposal(actor: Actor): Promise<void> {
 }
 
 /** Buttons and controls only a reviewer with a decision to review gets. */
-const reviewButtons = (page: Page) => page.getByRole('button', { name: /^(Approve|Return to designer)$/ });
+const reviewButtons = (page: Page) => page.getByRole('button', { name: /^(Sign off|Send back for rework)$/ });
 /** Controls only a designer deciding gets. */
 const decisionControls = (page: Page) => page.getByRole('button', { name: /^Record decision/ }).or(page.getByRole('radio', { name: /Use my own values|Accept the recommendation|Choose another ranked option/ }));
 
@@ -259,17 +259,17 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await record(actor, shots, 'project-reviewer');
 
     await openProposal(actor);
-    const review = await visible(page.getByRole('region', { name: 'Review the decision' }));
+    const review = await visible(page.getByRole('region', { name: 'Review the decided design' }));
     await visible(review.getByText(OVERRIDE_REASON));
     expect(await decisionControls(page).count()).toBe(0);
     await record(actor, shots, 'review-override');
 
-    // A return needs a comment: asked for beside the field
-    await review.getByRole('button', { name: 'Return to designer' }).click();
-    await visible(review.getByText(/a return needs a comment/));
+    // Sending back needs a comment: asked for beside the field
+    await review.getByRole('button', { name: 'Send back for rework' }).click();
+    await visible(review.getByText(/sending back needs a comment/));
     await review.getByRole('textbox', { name: /^Comment/ }).fill(RETURN_COMMENT);
-    await review.getByRole('button', { name: 'Return to designer' }).click();
-    await visible(page.getByRole('status').filter({ hasText: 'Returned to the designer with your comment.' }));
+    await review.getByRole('button', { name: 'Send back for rework' }).click();
+    await visible(page.getByRole('status').filter({ hasText: 'Sent back for rework with your comment.' }));
     await visible(page.getByText('Returned to designer').first());
     await record(actor, shots, 'returned');
   });
@@ -296,7 +296,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     const actor = actors.designer;
     const { page } = actor;
     await page.goto(`/projects/${projectId}`);
-    await visible(page.getByRole('region', { name: 'What needs you' }).getByRole('button', { name: /1 returned by a reviewer/ }));
+    await visible(page.getByRole('region', { name: 'What needs you' }).getByRole('button', { name: /1 sent back for rework by a reviewer/ }));
     await openProposal(actor);
     const decision = await visible(page.getByRole('region', { name: 'Your decision' }));
     await visible(decision.getByRole('heading', { name: 'Decide again' }));
@@ -334,11 +334,11 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     const actor = actors.reviewer;
     const { page } = actor;
     await openProposal(actor);
-    const review = await visible(page.getByRole('region', { name: 'Review the decision' }));
+    const review = await visible(page.getByRole('region', { name: 'Review the decided design' }));
     await visible(review.getByRole('heading', { name: 'Earlier reviews' }));
     await review.getByRole('textbox', { name: /^Comment/ }).fill(APPROVE_COMMENT);
-    await review.getByRole('button', { name: 'Approve' }).click();
-    await visible(page.getByRole('status').filter({ hasText: 'Approved: the record is closed.' }));
+    await review.getByRole('button', { name: 'Sign off' }).click();
+    await visible(page.getByRole('status').filter({ hasText: 'Signed off: the record is closed.' }));
     await visible(page.getByRole('main').getByText(/^\W*Approved$/));
     expect(await reviewButtons(page).count()).toBe(0);
     await record(actor, shots, 'approved');
@@ -377,10 +377,10 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     const expected: [string, RegExp][] = [
       [PEOPLE.requirements, new RegExp(`asked for a ranking of spec version 1: ranked by the engine; recommended: ${recommended}`, 'i')],
       [PEOPLE.designer, /decided: own values \(Degenerated mirror\)[\s\S]*Reason: .?Stock on hand/],
-      [PEOPLE.reviewer, /returned the decision to the designer[\s\S]*Comment: .?The 1 kΩ emitter resistors/],
+      [PEOPLE.reviewer, /sent the decided design \(Degenerated mirror, own values\) back for rework[\s\S]*Comment: .?The 1 kΩ emitter resistors/],
       [PEOPLE.designer, new RegExp(`decided: accepted the recommendation \\(${recommended}\\)`, 'i')],
       [PEOPLE.reviewer, /asked for a SPICE check of every option/],
-      [PEOPLE.reviewer, /approved the decision[\s\S]*Comment: .?Recommended degenerated mirror/],
+      [PEOPLE.reviewer, /signed off the decided design \(Degenerated mirror\)[\s\S]*Comment: .?Recommended degenerated mirror/],
     ];
     expected.forEach(([who, what], i) => {
       expect(texts[i]).toContain(who);

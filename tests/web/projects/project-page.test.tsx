@@ -8,6 +8,7 @@ import type { Role } from '../../../shared/workflow/roles';
 import { authKeys } from '../../../web/src/features/auth/api/auth-queries';
 import type { ProposalSummary, User } from '../../../web/src/lib/api-types';
 import { Component, ErrorBoundary, loader } from '../../../web/src/routes/project';
+import { CurrentDesignCell } from '../../../web/src/features/projects/components/proposals-table';
 
 // Route modules load lazily on first use: give the first render of a file time.
 configure({ asyncUtilTimeout: 5000 });
@@ -181,3 +182,41 @@ function withUsers(inner: typeof fetch): typeof fetch {
     return inner(input, init);
   };
 }
+
+describe('the project list names each proposal’s current design', () => {
+  const summary = (overrides: Partial<ProposalSummary>): ProposalSummary => ({
+    id: 140,
+    projectId: 1,
+    specId: 2,
+    specVersionId: 3,
+    engineVersion: '1.0.0',
+    rulesetVersion: 'r'.repeat(64),
+    recommendedTopology: 'degenerated-mirror',
+    status: 'approved',
+    createdById: 1,
+    createdAt: '2026-03-01T00:00:00.000Z',
+    updatedAt: '2026-03-02T00:00:00.000Z',
+    ...overrides,
+  });
+
+  test('when a chosen cascode is signed off, then the cascode is named, with the recommendation and the reason beside it', () => {
+    render(
+      <CurrentDesignCell
+        proposal={summary({
+          currentDesign: { basis: 'decision', topology: 'cascode', ownValues: false, decisionId: 9, decisionKind: 'choose', recommended: 'degenerated-mirror', differsFromRecommendation: true, reason: 'Long cable run.' },
+        })}
+      />,
+    );
+    expect(screen.getByText('Cascode mirror')).toBeTruthy();
+    expect(screen.getByText('(signed off)')).toBeTruthy();
+    expect(screen.getByText(/recommended: Degenerated mirror · why: Long cable run\./)).toBeTruthy();
+  });
+
+  test('when nothing is decided, then the recommendation is the design, marked as such', () => {
+    render(<CurrentDesignCell proposal={summary({ status: 'ranked', currentDesign: { basis: 'recommendation', topology: 'degenerated-mirror', ownValues: false, decisionId: null, decisionKind: null, recommended: 'degenerated-mirror', differsFromRecommendation: false, reason: null } })} />);
+    expect(screen.getByText('Degenerated mirror')).toBeTruthy();
+    expect(screen.getByText('(recommended)')).toBeTruthy();
+    expect(screen.queryByText(/why:/)).toBeNull();
+  });
+});
+

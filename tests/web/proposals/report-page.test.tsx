@@ -168,7 +168,10 @@ describe('review report page', () => {
     const design = section('Chosen design');
     expect(design.textContent).toContain('Priya Valcourt');
     expect(design.textContent).toContain(CHOOSE_REASON);
-    expect(design.textContent).toContain('Samir Edelstein approved this decision');
+    expect(design.textContent).toContain('Samir Edelstein signed off this decision');
+    // The design itself is named first, with the recommendation and the designer's reason beside it.
+    expect(within(design).getByTestId('report-design').textContent).toMatch(/^Signed-off design: Wilson mirror/);
+    expect(within(design).getByTestId('report-design').textContent).toContain(CHOOSE_REASON);
     expect(design.textContent).toContain(APPROVE_COMMENT);
     expect(within(design).getByRole('img').getAttribute('aria-label')).toBeTruthy();
 

@@ -58,6 +58,8 @@ export const api = {
   exportJson: (id: number) => `/api/proposals/${id}/export.json`,
   netlist: (id: number, topology: string, drive: 'differential' | 'common-mode' = 'differential') =>
     `/api/proposals/${id}/netlist.cir?topology=${encodeURIComponent(topology)}&drive=${drive}`,
+  /** The latest decision's design, own values included, exactly as verified and signed off. */
+  decidedNetlist: (id: number, drive: 'differential' | 'common-mode' = 'differential') => `/api/proposals/${id}/netlist.cir?source=decision&drive=${drive}`,
   /** GET: latest verification and Monte Carlo jobs; POST: ask for a verification of every option. */
   verification: (id: number) => `/api/proposals/${id}/verification`,
   /** GET (`?page=&pageSize=`): a page of the proposal's bench measurements, without points; POST (multipart, field `file`, optional `note`): upload one CSV. */

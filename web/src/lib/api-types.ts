@@ -1,4 +1,6 @@
 /** Shapes the API answers with (see api/services). Engine shapes come from shared/engine. */
+import type { CurrentDesign, CurrentDesignSummary } from '../../../shared/workflow/current-design';
+import type { DesignBinding } from '../../../shared/verification/binding';
 import type { Design, RecommendResult } from '../../../shared/engine/index';
 import type { Spec as SpecDocument } from '../../../shared/engine/types';
 import type { JsonChange } from '../../../shared/json-diff';
@@ -71,6 +73,8 @@ export interface ProposalSummary {
   createdById: number;
   createdAt: string;
   updatedAt: string;
+  /** In list answers: which design is current (shared/workflow/current-design.ts); null when none. */
+  currentDesign?: CurrentDesignSummary | null;
 }
 
 export interface Page<T> {
@@ -102,6 +106,10 @@ export interface Review {
   comment: string | null;
   reviewerId: number;
   createdAt: string;
+  /** A sign-off: the finished SPICE job it relied on (null: none about the design; absent on older reviews). */
+  verificationJobId?: number | null;
+  /** The reviewer signed off although that job simulated another design. */
+  staleVerificationAccepted?: boolean;
 }
 
 export interface Proposal extends ProposalSummary {
@@ -110,6 +118,8 @@ export interface Proposal extends ProposalSummary {
   decisions: Decision[];
   reviews: Review[];
   allowedEvents: ProposalEvent[];
+  /** The current design with its binding (what a verification of exactly it would record); null when none. */
+  currentDesign?: (CurrentDesign & { binding: DesignBinding | null }) | null;
 }
 
 export interface AuditEvent {
@@ -145,4 +155,6 @@ export interface DecisionInput {
 export interface ReviewInput {
   verdict: Review['verdict'];
   comment?: string;
+  /** Sign off although the only verification of the design simulated another one (needs a comment). */
+  acceptStaleVerification?: boolean;
 }

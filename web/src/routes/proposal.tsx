@@ -14,6 +14,8 @@ import { VerificationPanel } from '../features/proposals/components/verification
 import { MeasurementsPanel } from '../features/measurements/components/measurements-panel';
 import { NextStep } from '../features/proposals/components/next-step';
 import { RouteError } from '../app/route-error';
+import { proposalCurrentDesign } from '../features/proposals/lib/current-design';
+import { currentDesignName, currentDesignRole } from '../../../shared/workflow/current-design';
 
 export const loader =
   (queryClient: QueryClient) =>
@@ -27,6 +29,7 @@ export function Component() {
   const { data: proposal } = useSuspenseQuery(proposalQuery(proposalId));
   const { data: user } = useSuspenseQuery(meQuery());
   if (!user) return null;
+  const current = proposalCurrentDesign(proposal);
   return (
     <>
       <PageHeader
@@ -45,6 +48,11 @@ export function Component() {
           </>
         }
       >
+        {current && (
+          <span data-testid="header-design">
+            {currentDesignRole(current, proposal.status)}: <span className="font-medium text-ink dark:text-night-ink">{currentDesignName(current)}</span> ·{' '}
+          </span>
+        )}
         Engine {proposal.engineVersion} · rule set {proposal.rulesetVersion.slice(0, 12)} · {new Date(proposal.createdAt).toLocaleString()}
       </PageHeader>
       <NextStep proposal={proposal} user={user} />

@@ -49,7 +49,7 @@ describe('AuditTimeline', () => {
     expect(items[1].textContent).toMatch(/decided: own values \(Degenerated mirror\)/);
     expect(items[1].textContent).toMatch(/Reason: .*Parts on hand\./);
     expect(items[1].textContent).toMatch(/Awaiting decision.*to.*Awaiting review/);
-    expect(items[2].textContent).toMatch(/Samir Edelstein returned the decision to the designer/);
+    expect(items[2].textContent).toMatch(/Samir Edelstein sent the decided design back for rework/);
     expect(items[2].textContent).toMatch(/Check the low end\./);
     expect(items[3].textContent).toMatch(/user #99 decided: accepted the recommendation/);
     const time = items[0].querySelector('time')!;

@@ -105,3 +105,40 @@ describe('RankingView', () => {
     expect(within(detail()).getByRole('rowheader', { name: 'RE1, RE2' })).toBeTruthy();
   });
 });
+
+describe('RankingView: the current design first', () => {
+  const decided = (kind: 'choose' | 'override', status: Proposal['status'] = 'approved'): Proposal => {
+    const proposal = proposalOf(strainBridge());
+    const cascode = proposal.result.options.find((o) => o.topology === 'cascode')!;
+    const design = kind === 'override' ? { ...cascode.design!, collectorResistanceOhm: 12_000 } : cascode.design!;
+    return {
+      ...proposal,
+      status,
+      decisions: [
+        { id: 21, proposalId: 7, kind, topology: 'cascode', design, evaluation: kind === 'override' ? { ...cascode, design } : null, reason: 'Highest rejection margin for the long cable.', decidedById: 3, createdAt: '2026-01-02T00:00:00.000Z' },
+      ],
+    };
+  };
+
+  test('when a chosen cascode is signed off, then the summary, the highlighted row and the netlist download name it, with the recommendation and the reason beside it', () => {
+    renderView(decided('choose'));
+    const summary = document.querySelector('[data-current-design]')!;
+    expect(summary.getAttribute('data-current-design')).toBe('cascode');
+    expect(summary.textContent).toMatch(/^Signed-off designCascode mirror/);
+    expect(summary.textContent).toContain('The engine recommended the Degenerated mirror; the designer chose the Cascode mirror because: Highest rejection margin for the long cable.');
+    const row = document.querySelector('tr[data-current]')!;
+    expect(within(row as HTMLElement).getByRole('button', { name: 'Cascode mirror' })).toBeTruthy();
+    expect(row.getAttribute('data-selected')).toBe('true');
+    expect(within(detail()).getByRole('heading', { level: 2 }).textContent).toBe('Cascode mirror');
+    const netlist = screen.getByRole('link', { name: 'Signed-off design as SPICE netlist' });
+    expect(netlist.getAttribute('href')).toBe('/api/proposals/7/netlist.cir?source=decision&drive=differential');
+  });
+
+  test('when own values are decided, then no ranked row is marked as the design, the table says where it is, and the download is of the own values', () => {
+    renderView(decided('override', 'decided'));
+    expect(document.querySelector('[data-current-design]')!.textContent).toMatch(/^Decided designCascode mirror, own values/);
+    expect(document.querySelector('tr[data-current]')).toBeNull();
+    expect(screen.getByText(/The decided design is the designer’s own values \(Cascode mirror\), not a ranked option/)).toBeTruthy();
+    expect(screen.getByRole('link', { name: 'Decided design as SPICE netlist (own values)' }).getAttribute('href')).toBe('/api/proposals/7/netlist.cir?source=decision&drive=differential');
+  });
+});

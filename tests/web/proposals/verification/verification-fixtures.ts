@@ -151,6 +151,7 @@ export function job(overrides: Partial<VerificationJobView> = {}): VerificationJ
     proposalId: PROPOSAL_ID,
     kind: 'proposal',
     topology: null,
+    source: 'option',
     runs: null,
     state: 'finished',
     done: 6,

@@ -4,6 +4,7 @@ import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
 import { VerificationPanel } from '../../../../web/src/features/proposals/components/verification-panel';
 import type { Decision } from '../../../../web/src/lib/api-types';
+import type { Design } from '../../../../shared/engine/types';
 import { mockFetch } from '../decision/fixtures/fetch-mock';
 import { renderWithClient } from '../../helpers/render';
 import {
@@ -187,7 +188,7 @@ describe('VerificationPanel: a finished check', () => {
     expect(screen.getByText(/From 100 MHz up only ngspice’s curve is drawn/)).toBeTruthy();
   });
 
-  test('when the latest decision used own values, then the check opens on them; a check older than that decision says it lacks them', async () => {
+  test('when the latest decision used own values, then the check opens on them; with none of them simulated, the panel says so and offers a fresh run', async () => {
     const proposal = differentialProposal();
     const wilson = proposal.result.options.find((o) => o.topology === 'wilson')!;
     const decision: Decision = { id: 11, proposalId: 7, kind: 'override', topology: 'wilson', design: wilson.design!, evaluation: null, reason: 'Stock values.', decidedById: DESIGNER.id, createdAt: '2026-03-02T11:00:00.000Z' };
@@ -196,12 +197,78 @@ describe('VerificationPanel: a finished check', () => {
     fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: status(job({ result: proposalResult([...sixOptions(), overrideVerification()]) })) }) });
     renderWithClient(<VerificationPanel proposal={decided} user={REVIEWER} />);
     expect(await screen.findByRole('region', { name: 'SPICE check of Designer’s own values (Wilson mirror)' })).toBeTruthy();
-    expect(screen.queryByText(/decided after this check/)).toBeNull();
     cleanup();
 
-    fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: status(job()) }) });
+    fetchMock = mockFetch({
+      [`GET ${STATUS_URL}`]: () => ({ body: { ...status(job()), currentDesign: { state: 'none', jobId: null, changes: [] } } }),
+      [`POST ${STATUS_URL}`]: () => ({ status: 202, body: job({ id: 42, state: 'waiting', done: 0, total: 6, step: null, startedAt: null, finishedAt: null, result: null }) }),
+    });
+    const user = userEvent.setup();
     renderWithClient(<VerificationPanel proposal={decided} user={REVIEWER} />);
-    expect(await screen.findByText(/The designer’s own values were decided after this check/)).toBeTruthy();
+    expect(await screen.findByText(/The decided design \(Wilson mirror, own values\) is in no SPICE check yet\./)).toBeTruthy();
+    await user.click(screen.getByRole('button', { name: 'Run a fresh SPICE check of the decided design' }));
+    await waitFor(() => expect(fetchMock.to('POST', STATUS_URL)).toHaveLength(1));
+  });
+});
+
+describe('VerificationPanel: results bound to the design they simulated', () => {
+  /** A binding as the server records it; the fingerprints are stand-ins (only equality matters to the page). */
+  const binding = (fingerprint: string, design: Design) => ({
+    fingerprint,
+    inputs: { topology: 'wilson', design, specVersionId: 1, specVersion: 1, engineVersion: '1.0.0', rulesetVersion: 'r'.repeat(64) },
+  });
+
+  function decidedOwnValues(rcOhm: number) {
+    const proposal = differentialProposal();
+    const wilson = proposal.result.options.find((o) => o.topology === 'wilson')!;
+    const design = { ...wilson.design!, collectorResistanceOhm: rcOhm };
+    const decision: Decision = { id: 12, proposalId: 7, kind: 'override', topology: 'wilson', design, evaluation: null, reason: 'New reel.', decidedById: DESIGNER.id, createdAt: '2026-03-02T12:00:00.000Z' };
+    return { proposal: { ...proposal, status: 'decided' as const, decisions: [decision], currentDesign: null }, design };
+  }
+
+  test('when the own values were decided again with another RC after the check, then their result is labelled stale with what changed, and a fresh run is offered', async () => {
+    const { proposal, design } = decidedOwnValues(12_000);
+    const current = { ...proposal, currentDesign: { ...(proposal.currentDesign ?? {}), binding: binding('b'.repeat(64), design) } } as unknown as typeof proposal;
+    const old = { ...overrideVerification(), binding: binding('a'.repeat(64), { ...design, collectorResistanceOhm: 10_000 }) };
+    fetchMock = mockFetch({
+      [`GET ${STATUS_URL}`]: () => ({ body: { ...status(job({ result: proposalResult([...sixOptions(), old]) })), currentDesign: { state: 'stale', jobId: 41, changes: ['simulated RC 10 kΩ, decided 12 kΩ'] } } }),
+    });
+    renderWithClient(<VerificationPanel proposal={current} user={REVIEWER} />);
+
+    const detail = await screen.findByRole('region', { name: 'SPICE check of Designer’s own values (Wilson mirror)' });
+    // The label is worked out in the page from the two bindings, not copied from the server's note.
+    expect(within(detail).getByText(/simulated RC 10 kΩ, decided 12 kΩ/).textContent).toMatch(/^Stale/);
+    const overview = screen.getByRole('table', { name: /Every simulated option/ });
+    expect(within(overview).getByRole('row', { name: /Designer’s own values/ }).textContent).toMatch(/Stale.*simulated RC 10 kΩ, decided 12 kΩ/);
+    // Ranked options are simulated as ranked: no label on them.
+    expect(within(overview).getByRole('row', { name: /^Cascode mirror/ }).textContent).not.toMatch(/Stale/);
+    const note = screen.getByText(/Stale for the decided design \(Wilson mirror, own values\): job #41 simulated RC 10 kΩ, decided 12 kΩ\./);
+    expect(note).toBeTruthy();
+    expect(screen.getByRole('button', { name: 'Run a fresh SPICE check of the decided design' })).toBeTruthy();
+  });
+
+  test('when the result simulated exactly the decided values, then it says so and no fresh run is pressed on the reviewer', async () => {
+    const { proposal, design } = decidedOwnValues(12_000);
+    const current = { ...proposal, currentDesign: { binding: binding('b'.repeat(64), design) } } as unknown as typeof proposal;
+    const fresh = { ...overrideVerification(), binding: binding('b'.repeat(64), design) };
+    fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: { ...status(job({ id: 43, result: proposalResult([...sixOptions(), fresh]) })), currentDesign: { state: 'current', jobId: 43, changes: [] } } }) });
+    renderWithClient(<VerificationPanel proposal={current} user={REVIEWER} />);
+
+    const detail = await screen.findByRole('region', { name: 'SPICE check of Designer’s own values (Wilson mirror)' });
+    expect(within(detail).getByText(/of the current design/)).toBeTruthy();
+    expect(screen.getByText(/SPICE job #43 simulated exactly the decided design \(Wilson mirror, own values\)\./)).toBeTruthy();
+    expect(screen.queryByRole('button', { name: /Run a fresh SPICE check/ })).toBeNull();
+  });
+
+  test('when the result was stored before fingerprints were recorded, then it stays readable and says it is not bound to a design', async () => {
+    const { proposal, design } = decidedOwnValues(12_000);
+    const current = { ...proposal, currentDesign: { binding: binding('b'.repeat(64), design) } } as unknown as typeof proposal;
+    fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: { ...status(job({ result: proposalResult([...sixOptions(), overrideVerification()]) })), currentDesign: { state: 'unbound', jobId: 41, changes: [] } } }) });
+    renderWithClient(<VerificationPanel proposal={current} user={REVIEWER} />);
+
+    const detail = await screen.findByRole('region', { name: 'SPICE check of Designer’s own values (Wilson mirror)' });
+    expect(within(detail).getByText('Not bound to a design: simulated before fingerprints were recorded.')).toBeTruthy();
+    expect(within(detail).getByRole('table', { name: /at nominal conditions/ })).toBeTruthy();
   });
 });
 
@@ -239,7 +306,7 @@ describe('VerificationPanel: Monte Carlo in SPICE', () => {
     expect(cellsOf(table, '1st percentile')).toEqual(['77.4 dB', '78.6 dB']);
     expect(screen.getByText(/2 of 200 runs did not converge/)).toBeTruthy();
     expect((await screen.findByTestId('monte-carlo-chart')).textContent).toBe('75 80 85 90 95 100 105 110 115 120 125');
-    expect((screen.getByRole('combobox', { name: 'Option' }) as HTMLSelectElement).value).toBe('wilson');
+    expect((screen.getByRole('combobox', { name: 'Option' }) as HTMLSelectElement).value).toBe('option:wilson');
   });
 
   test('when a Monte Carlo is simulating, then its progress bar shows runs done of runs asked', async () => {
@@ -262,7 +329,7 @@ describe('VerificationPanel: Monte Carlo in SPICE', () => {
     const user = userEvent.setup();
     renderWithClient(<VerificationPanel proposal={differentialProposal()} user={DESIGNER} />);
 
-    await user.selectOptions(await screen.findByRole('combobox', { name: 'Option' }), 'cascode');
+    await user.selectOptions(await screen.findByRole('combobox', { name: 'Option' }), 'option:cascode');
     const runs = screen.getByRole('spinbutton', { name: 'Runs' }) as HTMLInputElement;
     expect(runs.value).toBe('200');
     await user.clear(runs);

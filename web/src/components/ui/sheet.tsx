@@ -6,9 +6,9 @@ export function Sheet({ title, actions, className, children, ...props }: Omit<HT
   return (
     <section className={cn('rounded-lg border border-rule bg-sheet p-4 dark:border-night-rule dark:bg-night-sheet', className)} {...props}>
       {(title || actions) && (
-        <header className="mb-3 flex items-center justify-between gap-3">
+        <header className="mb-3 flex flex-wrap items-center justify-between gap-3">
           {title && <h2 className="text-base font-medium">{title}</h2>}
-          {actions && <div className="flex items-center gap-2">{actions}</div>}
+          {actions && <div className="flex flex-wrap items-center gap-2">{actions}</div>}
         </header>
       )}
       {children}

@@ -5,8 +5,31 @@ import type { ProposalSummary, Spec } from '../../../lib/api-types';
 import { topologyName } from '../../../lib/topology-names';
 import { DenseTable, rowLink, Td, Th, Tr } from './dense-table';
 import { When } from './when';
+import { currentDesignName, currentDesignSummary } from '../../../../../shared/workflow/current-design';
 
 const soft = 'text-ink-soft dark:text-night-ink-soft';
+
+/**
+ * The proposal's current design (shared/workflow/current-design.ts): the decided design once
+ * someone decided, the recommendation until then; the recommendation and the designer's reason
+ * beside it when they differ.
+ */
+export function CurrentDesignCell({ proposal }: { proposal: ProposalSummary }) {
+  const current = proposal.currentDesign ?? currentDesignSummary(proposal.recommendedTopology, null);
+  if (!current) return <span className={soft}>None passes</span>;
+  const word = current.basis === 'recommendation' ? 'recommended' : proposal.status === 'approved' ? 'signed off' : 'decided';
+  return (
+    <div data-current-design={current.topology}>
+      <span className="whitespace-nowrap">{currentDesignName(current)}</span> <span className={`text-xs ${soft}`}>({word})</span>
+      {current.differsFromRecommendation && (
+        <span className={`block max-w-[22rem] truncate text-xs ${soft}`} title={current.reason ?? undefined}>
+          recommended: {current.recommended ? topologyName(current.recommended) : 'none'}
+          {current.reason ? ` · why: ${current.reason}` : ''}
+        </span>
+      )}
+    </div>
+  );
+}
 
 export function ProposalsTable({ proposals, specs }: { projectId: number; proposals: readonly ProposalSummary[]; specs: readonly Spec[] }) {
   const titles = new Map(specs.map((s) => [s.id, s.title]));
@@ -17,7 +40,7 @@ export function ProposalsTable({ proposals, specs }: { projectId: number; propos
           <Th>Ranking</Th>
           <Th>Spec</Th>
           <Th className="text-right">Version</Th>
-          <Th>Recommended tail</Th>
+          <Th>Design</Th>
           <Th>State</Th>
           <Th>Created</Th>
           <Th>Updated</Th>
@@ -39,8 +62,8 @@ export function ProposalsTable({ proposals, specs }: { projectId: number; propos
               <Td className="text-right tabular-nums">
                 {version == null ? <span className={soft}>—</span> : `v${version}`}
               </Td>
-              <Td className="whitespace-nowrap">
-                {proposal.recommendedTopology ? topologyName(proposal.recommendedTopology) : <span className={soft}>None passes</span>}
+              <Td className="min-w-[10rem]">
+                <CurrentDesignCell proposal={proposal} />
               </Td>
               <Td>
                 <StateBadge state={proposal.status} />

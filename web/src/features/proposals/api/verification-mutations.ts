@@ -10,8 +10,10 @@ import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import { verificationKeys } from './verification-queries';
 
+/** A ranked option by its topology, or the decided design (`source: 'decision'`, own values included). */
 export interface MonteCarloInput {
-  topology: string;
+  topology?: string;
+  source?: 'option' | 'decision';
   runs: number;
 }
 
@@ -27,7 +29,7 @@ export function requestMonteCarlo(proposalId: number, body: MonteCarloInput): Pr
 export function withJob(status: VerificationStatus | undefined, job: VerificationJobView): VerificationStatus {
   const current: VerificationStatus = status ?? { verification: null, monteCarlo: [] };
   if (job.kind === 'proposal') return { ...current, verification: job };
-  return { ...current, monteCarlo: [job, ...current.monteCarlo.filter((j) => j.topology !== job.topology)] };
+  return { ...current, monteCarlo: [job, ...current.monteCarlo.filter((j) => j.topology !== job.topology || (j.source ?? 'option') !== (job.source ?? 'option'))] };
 }
 
 function useSettleJob(proposalId: number) {

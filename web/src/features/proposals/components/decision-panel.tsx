@@ -56,7 +56,7 @@ function ReturnedNote({ proposal, nameOf }: { proposal: Proposal; nameOf: (id: n
       {review && (
         <div className="rounded-md border border-short/40 bg-short-soft p-3 text-sm text-short dark:bg-short/20 dark:text-short-bright">
           <p className="font-medium">
-            Returned by {nameOf(review.reviewerId)} on <When iso={review.createdAt} />
+            Sent back for rework by {nameOf(review.reviewerId)} on <When iso={review.createdAt} />
           </p>
           <blockquote className="mt-1 whitespace-pre-line text-ink dark:text-night-ink">{review.comment}</blockquote>
         </div>

@@ -18,7 +18,7 @@ export function NextStep({ proposal, user }: { proposal: Proposal; user: User })
     >
       {returned && lastReview && (
         <p className="mb-1">
-          <span className="font-medium">Returned by the reviewer:</span> “{lastReview.comment}”
+          <span className="font-medium">Sent back for rework by the reviewer:</span> “{lastReview.comment}”
         </p>
       )}
       {canDecide && (

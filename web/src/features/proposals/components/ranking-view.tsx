@@ -9,6 +9,8 @@ import { OptionDetail } from './ranking/option-detail';
 import { OptionsTable } from './ranking/options-table';
 import { RejectionFigure } from './ranking/plots/rejection-figure';
 import { CautionsBlock, RecommendationSummary } from './ranking/preamble';
+import { proposalCurrentDesign } from '../lib/current-design';
+import { topologyName } from '../../../lib/topology-names';
 
 const downloadLink = 'rounded-md border border-rule px-2.5 py-1 text-sm hover:bg-paper dark:border-night-rule dark:hover:bg-night';
 
@@ -17,14 +19,18 @@ export function RankingView({ proposal }: { proposal: Proposal }) {
   const result = proposal.result;
   const rows = useMemo(() => optionRows(result), [result]);
   const targets = useMemo(() => specTargets(result), [result]);
+  const current = useMemo(() => proposalCurrentDesign(proposal), [proposal]);
+  const rankedCurrent = current && !current.ownValues ? (current.topology as TopologyId) : null;
   const [chosen, setChosen] = useState<TopologyId | null>(null);
-  const selected = chosen ?? result.recommended ?? result.options[0]?.topology ?? null;
+  // The table opens on the current design (the decided or recommended option), so nobody reads another one by mistake.
+  const selected = chosen ?? rankedCurrent ?? result.recommended ?? result.options[0]?.topology ?? null;
+  const decidedWord = proposal.status === 'approved' ? 'signed off' : 'decided';
   const option = result.options.find((o) => o.topology === selected) ?? null;
   const resistors = proposal.specVersion.payload?.resistors;
   return (
     <div className="space-y-4">
       <CautionsBlock cautions={result.cautions} />
-      <RecommendationSummary result={result} />
+      <RecommendationSummary result={result} status={proposal.status} current={current} />
       <Sheet
         title="Tail options"
         aria-label="Tail options"
@@ -36,15 +42,30 @@ export function RankingView({ proposal }: { proposal: Proposal }) {
             <a href={api.exportJson(proposal.id)} download className={downloadLink}>
               Whole record as JSON
             </a>
-            {selected && (
-              <a href={api.netlist(proposal.id, selected)} download className={downloadLink}>
-                Selected option as SPICE netlist
+            {current?.basis === 'decision' && (
+              <a href={api.decidedNetlist(proposal.id)} download className={downloadLink} data-netlist="decided">
+                {proposal.status === 'approved' ? 'Signed-off' : 'Decided'} design as SPICE netlist{current.ownValues ? ' (own values)' : ''}
+              </a>
+            )}
+            {selected && (current?.basis !== 'decision' || current.ownValues || selected !== current.topology) && (
+              <a href={api.netlist(proposal.id, selected)} download className={downloadLink} data-netlist="selected">
+                {current?.basis === 'decision' ? `Selected option (${topologyName(selected)}) as SPICE netlist` : 'Selected option as SPICE netlist'}
               </a>
             )}
           </>
         }
       >
-        {rows.length === 0 ? <EmptyState title="No options">The spec lists no tail topologies.</EmptyState> : <OptionsTable rows={rows} targets={targets} selected={selected} onSelect={setChosen} />}
+        {current?.basis === 'decision' && current.ownValues && (
+          <p className="mb-2 rounded-md border border-fern/40 bg-fern-soft/40 px-3 py-2 text-sm dark:border-fern-soft/30 dark:bg-night">
+            The {proposal.status === 'approved' ? 'signed-off' : 'decided'} design is the designer’s own values ({topologyName(current.topology)}), not a ranked option: its figures and checks are in the decision below, and its netlist is
+            the “{proposal.status === 'approved' ? 'Signed-off' : 'Decided'} design” download.
+          </p>
+        )}
+        {rows.length === 0 ? (
+          <EmptyState title="No options">The spec lists no tail topologies.</EmptyState>
+        ) : (
+          <OptionsTable rows={rows} targets={targets} selected={selected} onSelect={setChosen} current={rankedCurrent && current?.basis === 'decision' ? { topology: rankedCurrent, word: decidedWord } : null} />
+        )}
       </Sheet>
       {rows.length > 0 && (
         <Sheet>

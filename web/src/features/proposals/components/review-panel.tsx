@@ -1,4 +1,6 @@
+import { useQuery } from '@tanstack/react-query';
 import { may } from '../../../../../shared/workflow/roles';
+import { verificationQuery } from '../api/verification-queries';
 import { Sheet } from '../../../components/ui/sheet';
 import type { Proposal, User } from '../../../lib/api-types';
 import { useReviewMutation } from '../api/decision-mutations';
@@ -9,9 +11,10 @@ import { CheckList } from './review/check-list';
 import { PastReviews } from './review/past-reviews';
 import { ReviewForm } from './review/review-form';
 
-/** The reviewer's verdict on the latest decision: approve, or return with a comment. */
+/** The reviewer's verdict on the latest decision: sign off, or send back for rework with a comment. */
 export function ReviewPanel({ proposal, user }: { proposal: Proposal; user: User }) {
   const mutation = useReviewMutation(proposal.id);
+  const verification = useQuery({ ...verificationQuery(proposal.id), enabled: may(user.role, 'proposals:review') && proposal.allowedEvents.includes('approve') });
   const nameOf = usePersonName(proposal.projectId, user);
   const decision = latestDecision(proposal);
   const canReview = may(user.role, 'proposals:review') && (proposal.allowedEvents.includes('approve') || proposal.allowedEvents.includes('return'));
@@ -19,7 +22,7 @@ export function ReviewPanel({ proposal, user }: { proposal: Proposal; user: User
   if (canReview && decision) {
     const option = decidedOption(proposal, decision);
     return (
-      <Sheet title="Review the decision" aria-label="Review the decision">
+      <Sheet title="Review the decided design" aria-label="Review the decided design">
         <div className="space-y-5">
           <DecisionSummary proposal={proposal} decision={decision} nameOf={nameOf} showChecks={false} />
           {option ? (
@@ -27,7 +30,7 @@ export function ReviewPanel({ proposal, user }: { proposal: Proposal; user: User
           ) : (
             <p className="text-sm text-ink-soft">No checks were kept with this decision.</p>
           )}
-          <ReviewForm option={option} mutation={mutation} />
+          <ReviewForm option={option} mutation={mutation} verification={verification.data?.currentDesign ?? null} />
           {proposal.reviews.length > 0 && (
             <section aria-label="Earlier reviews">
               <h3 className="mb-2 text-sm font-medium">Earlier reviews</h3>
@@ -44,7 +47,7 @@ export function ReviewPanel({ proposal, user }: { proposal: Proposal; user: User
     <Sheet title="Reviews" aria-label="Reviews">
       {mutation.isSuccess && (
         <p role="status" className="mb-3 rounded-md bg-holds-soft p-2 text-sm text-holds dark:bg-holds/20 dark:text-holds-bright">
-          {mutation.data.status === 'approved' ? 'Approved: the record is closed.' : 'Returned to the designer with your comment.'}
+          {mutation.data.status === 'approved' ? 'Signed off: the record is closed.' : 'Sent back for rework with your comment.'}
         </p>
       )}
       <PastReviews proposal={proposal} nameOf={nameOf} />

@@ -7,7 +7,9 @@ import { Sheet } from '../../../components/ui/sheet';
 import type { Proposal, User } from '../../../lib/api-types';
 import { useVerifyMutation } from '../api/verification-mutations';
 import { isSettled, verificationQuery } from '../api/verification-queries';
-import { latestDecision } from './decision/decided-option';
+import { proposalCurrentDesign } from '../lib/current-design';
+import { currentDesignName, currentDesignWord } from '../../../../../shared/workflow/current-design';
+import { DesignCheckNote } from './verification/freshness-label';
 import { JobProblem } from './verification/job-problem';
 import { JobProgress } from './verification/job-progress';
 import { MonteCarloSection } from './verification/monte-carlo-section';
@@ -29,6 +31,7 @@ export function VerificationPanel({ proposal, user }: { proposal: Proposal; user
   const status = useQuery(verificationQuery(proposal.id));
   const mutation = useVerifyMutation(proposal.id);
   const canVerify = may(user.role, 'proposals:verify');
+  const current = proposalCurrentDesign(proposal);
   const job = status.data?.verification ?? null;
   const running = job !== null && !isSettled(job);
   const troubled = job !== null && (job.state === 'stopped' || job.state === 'failed');
@@ -55,6 +58,16 @@ export function VerificationPanel({ proposal, user }: { proposal: Proposal; user
           engine solved the model it describes; both remain estimates to confirm by bench measurement.
         </p>
         {mutation.isError && <MutationError error={mutation.error} what="The SPICE check was not started" />}
+        {current && status.data?.currentDesign && !running && (
+          <DesignCheckNote
+            state={status.data.currentDesign}
+            designName={currentDesignName(current)}
+            word={currentDesignWord(current)}
+            onRun={() => mutation.mutate()}
+            running={running || mutation.isPending}
+            canVerify={canVerify}
+          />
+        )}
         {status.isPending ? (
           <Loading what="Loading the SPICE check" />
         ) : status.isError ? (
@@ -68,28 +81,12 @@ export function VerificationPanel({ proposal, user }: { proposal: Proposal; user
         ) : job.state !== 'finished' ? (
           <JobProblem job={job} what="The SPICE check" action={action} />
         ) : isProposalResult(job.result) ? (
-          <>
-            <StaleNote proposal={proposal} job={job} result={job.result} />
-            <VerificationResult job={job} result={job.result} proposal={proposal} />
-          </>
+          <VerificationResult job={job} result={job.result} proposal={proposal} />
         ) : (
           <p className="text-sm text-ink-soft dark:text-night-ink-soft">This check finished without a result.</p>
         )}
         {!status.isPending && !status.isError && <MonteCarloSection proposal={proposal} status={status.data} canVerify={canVerify} />}
       </div>
     </Sheet>
-  );
-}
-
-/** When the designer decided own values after this check, it does not hold them yet: say so. */
-function StaleNote({ proposal, job, result }: { proposal: Proposal; job: VerificationJobView; result: ProposalVerificationResult }) {
-  const decision = latestDecision(proposal);
-  const missing = decision?.kind === 'override' && decision.createdAt > job.createdAt && !result.options.some((o) => o.source === 'decision');
-  if (!missing) return null;
-  return (
-    <p className="rounded-md border border-note/40 bg-note-soft p-2 text-sm text-note dark:bg-note/20 dark:text-note-bright">
-      <span aria-hidden="true">! </span>
-      The designer’s own values were decided after this check, so they are not in it. Run the check again to simulate them.
-    </p>
   );
 }

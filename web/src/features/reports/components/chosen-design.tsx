@@ -6,6 +6,7 @@ import { OptionSchematic } from '../../proposals/components/ranking/schematic/op
 import { SizedValues } from '../../proposals/components/ranking/sized-values';
 import { fullTimestamp } from '../lib/report-format';
 import type { ReportSubject } from '../lib/report-subject';
+import { besideRecommendation, currentDesign, currentDesignName, currentDesignRole } from '../../../../../shared/workflow/current-design';
 
 const BASIS_WORDS = {
   recommendation: 'No decision yet. Shown below: the recommendation, as the engine sized it.',
@@ -19,8 +20,19 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
   const payload = proposal.specVersion.payload;
   const reviews = decision ? proposal.reviews.filter((r) => r.decisionId === decision.id) : [];
   const failures = option ? blockingFailures(option) : 0;
+  const current = currentDesign(proposal.result, proposal.decisions);
+  const beside = current ? besideRecommendation(current) : null;
   return (
     <div className="space-y-4">
+      {current && (
+        <div className="text-sm" data-testid="report-design">
+          <p>
+            <span className="text-ink-soft dark:text-night-ink-soft">{currentDesignRole(current, proposal.status)}: </span>
+            <span className="text-base font-medium">{currentDesignName(current)}</span>
+          </p>
+          {beside && <p className="mt-0.5">{beside}</p>}
+        </div>
+      )}
       {decision ? (
         <div className="space-y-2 text-sm">
           <p>
@@ -39,8 +51,17 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
           {reviews.map((review) => (
             <div key={review.id}>
               <p>
-                <span className="font-medium">{nameOf(review.reviewerId)}</span> {review.verdict === 'approve' ? 'approved this decision' : 'returned this decision to the designer'} · {fullTimestamp(review.createdAt)}
+                <span className="font-medium">{nameOf(review.reviewerId)}</span> {review.verdict === 'approve' ? 'signed off this decision' : 'sent this decision back for rework'} · {fullTimestamp(review.createdAt)}
               </p>
+              {review.verdict === 'approve' && review.verificationJobId !== undefined && (
+                <p className="text-xs text-ink-soft dark:text-night-ink-soft">
+                  {review.verificationJobId === null
+                    ? 'Relied on no SPICE verification of this design.'
+                    : review.staleVerificationAccepted
+                      ? `Relied on SPICE job #${review.verificationJobId}, which simulated another design (accepted in the comment).`
+                      : `Relied on SPICE job #${review.verificationJobId}, which simulated exactly this design.`}
+                </p>
+              )}
               {review.comment && <blockquote className="mt-0.5 border-l-2 border-rule pl-3 whitespace-pre-line dark:border-night-rule">{review.comment}</blockquote>}
             </div>
           ))}

@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import { StateBadge } from '../../../components/ui/state-badge';
 import type { Proposal } from '../../../lib/api-types';
 import { fullTimestamp } from '../lib/report-format';
+import { currentDesign, currentDesignName, currentDesignRole } from '../../../../../shared/workflow/current-design';
 
 function Item({ term, children }: { term: string; children: ReactNode }) {
   return (
@@ -17,6 +18,7 @@ function Item({ term, children }: { term: string; children: ReactNode }) {
  * and rule-set versions, when it was ranked and when this report was generated, and the notice.
  */
 export function ReportTitle({ proposal, projectName, generatedAt, notice, onlineHref, actions }: { proposal: Proposal; projectName: string | null; generatedAt: Date; notice: string; onlineHref: string; actions?: ReactNode }) {
+  const current = currentDesign(proposal.result, proposal.decisions);
   return (
     <header className="report-title space-y-4">
       <div className="flex flex-wrap items-start justify-between gap-4">
@@ -42,6 +44,15 @@ export function ReportTitle({ proposal, projectName, generatedAt, notice, online
         </Item>
         <Item term="State">
           <StateBadge state={proposal.status} />
+        </Item>
+        <Item term="Design">
+          {current ? (
+            <>
+              {currentDesignName(current)} <span className="text-ink-soft dark:text-night-ink-soft">({currentDesignRole(current, proposal.status).toLowerCase()})</span>
+            </>
+          ) : (
+            'none (no option passes every blocking check, nothing decided)'
+          )}
         </Item>
         <Item term="Ranked">{fullTimestamp(proposal.createdAt)}</Item>
         <Item term="Engine">version {proposal.engineVersion}</Item>

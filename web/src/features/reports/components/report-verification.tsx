@@ -5,6 +5,10 @@ import { topologyName } from '../../../lib/topology-names';
 import { formatPercent } from '../../proposals/lib/figure-format';
 import { deltaText, fullTimestamp, toleranceText, verifiedValue } from '../lib/report-format';
 import { ReportNote, ReportSubheading } from './report-section';
+import { freshness, freshnessText, UNBOUND_WORDS, type Freshness } from '../../../../../shared/verification/binding';
+import type { DesignVerificationState } from '../../../../../shared/verification/types';
+import { currentDesignName, currentDesignWord } from '../../../../../shared/workflow/current-design';
+import { proposalCurrentDesign, resultFreshness, type ShownDesign } from '../../proposals/lib/current-design';
 
 const isProposalResult = (result: VerificationJobView['result']): result is ProposalVerificationResult => result !== null && 'options' in result;
 const isMonteCarloResult = (result: VerificationJobView['result']): result is MonteCarloVerificationResult => result !== null && 'histogram' in result;
@@ -69,6 +73,33 @@ function FiguresTable({ condition, caption }: { condition: VerifiedCondition; ca
   );
 }
 
+/** Whether a result is of the current design, in words that print (not colour alone). */
+function FreshnessLine({ state }: { state: Freshness }) {
+  if (state.state === 'current') return <p className="mb-1 text-xs" data-freshness="current">✓ Simulated exactly the current design.</p>;
+  return (
+    <p className="mb-1 text-sm font-medium text-short dark:text-short-bright" data-freshness={state.state}>
+      {state.state === 'stale' ? `Stale: ${state.changes.join('; ')}. These figures are not of the current design.` : UNBOUND_WORDS}
+    </p>
+  );
+}
+
+/** How the verification stands for the current design, as the server judged it. */
+function DesignCheckLine({ state, name, word }: { state: DesignVerificationState; name: string; word: string }) {
+  const text =
+    state.state === 'current'
+      ? `SPICE job #${state.jobId} simulated exactly the ${word} design (${name}).`
+      : state.state === 'stale'
+        ? `Stale for the ${word} design (${name}): job #${state.jobId} ${state.changes.join('; ')}. A fresh run is needed for figures of this design.`
+        : state.state === 'unbound'
+          ? `The only verification of the ${word} design (${name}), job #${state.jobId}, is not bound to a design: simulated before fingerprints were recorded.`
+          : `The ${word} design (${name}) has not been simulated.`;
+  return (
+    <p className={state.state === 'current' ? 'text-sm' : 'text-sm font-medium'} data-design-check={state.state}>
+      {text}
+    </p>
+  );
+}
+
 /** One line per corner: how many figures were compared and which fell outside. */
 function CornerLines({ corners }: { corners: VerifiedCondition[] }) {
   if (corners.length === 0) return null;
@@ -87,7 +118,7 @@ function CornerLines({ corners }: { corners: VerifiedCondition[] }) {
   );
 }
 
-function OptionBlock({ option, rank }: { option: OptionVerification; rank: number | null }) {
+function OptionBlock({ option, rank, freshness }: { option: OptionVerification; rank: number | null; freshness: Freshness | null }) {
   const name = `${rank !== null && option.source === 'option' ? `#${rank} ` : ''}${topologyName(option.topology)}${option.source === 'decision' ? ', the designer’s own values' : ''}`;
   return (
     <div className="report-keep mt-5">
@@ -103,6 +134,7 @@ function OptionBlock({ option, rank }: { option: OptionVerification; rank: numbe
           )}
         </span>
       </ReportSubheading>
+      {freshness && <FreshnessLine state={freshness} />}
       {option.outcome === 'error' ? (
         <p className="text-sm">The simulation failed: {option.error ?? 'no message'}.</p>
       ) : (
@@ -115,7 +147,7 @@ function OptionBlock({ option, rank }: { option: OptionVerification; rank: numbe
   );
 }
 
-function MonteCarloTable({ jobs }: { jobs: VerificationJobView[] }) {
+function MonteCarloTable({ jobs, current }: { jobs: VerificationJobView[]; current: ShownDesign | null }) {
   const finished = jobs.filter((j) => j.state === 'finished' && isMonteCarloResult(j.result));
   if (finished.length === 0) return null;
   return (
@@ -136,9 +168,15 @@ function MonteCarloTable({ jobs }: { jobs: VerificationJobView[] }) {
         <tbody>
           {finished.map((job) => {
             const r = job.result as MonteCarloVerificationResult;
+            const aboutCurrent = current && (r.source === 'decision' || (!current.ownValues && r.topology === current.topology));
+            const state = aboutCurrent ? freshness(r.binding, current.binding, currentDesignWord(current)) : null;
             return (
               <tr key={job.id} className="border-b border-rule/60 dark:border-night-rule/60">
-                <th scope="row" className="py-1 pr-2 text-left font-normal">{topologyName(r.topology)}</th>
+                <th scope="row" className="py-1 pr-2 text-left font-normal">
+                  {topologyName(r.topology)}
+                  {r.source === 'decision' ? ', decided design' : ''}
+                  {state && state.state !== 'current' && <span className="block text-xs font-medium text-short dark:text-short-bright">{freshnessText(state)}</span>}
+                </th>
                 <td className="px-1.5 py-1 text-right tabular-nums">
                   {r.runs}
                   {r.failedRuns > 0 && ` (${r.failedRuns} failed)`}
@@ -165,8 +203,10 @@ export function ReportVerification({ proposal, status, error }: { proposal: Prop
   const job = status.verification;
   const result = job?.state === 'finished' && isProposalResult(job.result) ? job.result : null;
   const rankOf = (topology: string) => proposal.result.options.find((o) => o.topology === topology)?.rank ?? null;
+  const current = proposalCurrentDesign(proposal);
   return (
     <div>
+      {current && status.currentDesign && <DesignCheckLine state={status.currentDesign} name={currentDesignName(current)} word={currentDesignWord(current)} />}
       {result && job ? (
         <>
           <p className="text-sm">
@@ -176,7 +216,7 @@ export function ReportVerification({ proposal, status, error }: { proposal: Prop
           {[...result.options]
             .sort((a, b) => (a.source === b.source ? (rankOf(a.topology) ?? 99) - (rankOf(b.topology) ?? 99) : a.source === 'decision' ? -1 : 1))
             .map((option) => (
-              <OptionBlock key={`${option.source}-${option.topology}`} option={option} rank={rankOf(option.topology)} />
+              <OptionBlock key={`${option.source}-${option.topology}`} option={option} rank={rankOf(option.topology)} freshness={resultFreshness(option, result.options, current)} />
             ))}
           <ReportNote>
             Difference is predicted − simulated: per cent of the simulated value for currents, gains, resistances, frequencies and power; dB for rejection; volts for node voltages.
@@ -189,7 +229,7 @@ export function ReportVerification({ proposal, status, error }: { proposal: Prop
           <p className="text-sm">{notVerifiedWhy(job)} Until a verification finishes, every figure in this report is the engine&rsquo;s estimate alone.</p>
         </>
       )}
-      <MonteCarloTable jobs={status.monteCarlo} />
+      <MonteCarloTable jobs={status.monteCarlo} current={current} />
     </div>
   );
 }

@@ -4,7 +4,7 @@
  */
 import type { Design } from '../../../../../shared/engine/types';
 import type { Decision, OptionEvaluation, Proposal } from '../../../lib/api-types';
-import { decidedOption, latestDecision } from '../../proposals/components/decision/decided-option';
+import { currentDesign } from '../../../../../shared/workflow/current-design';
 
 export type SubjectBasis = 'decision' | 'recommendation' | 'top-ranked' | 'none';
 
@@ -17,17 +17,16 @@ export interface ReportSubject {
   design: Design | null;
 }
 
+/** The proposal's current design (shared/workflow/current-design.ts); with none, the top-ranked option is shown for reference. */
 export function reportSubject(proposal: Proposal): ReportSubject {
-  const decision = latestDecision(proposal);
-  if (decision) {
-    const option = decidedOption(proposal, decision);
-    return { basis: 'decision', decision, topology: decision.topology, option, design: decision.design };
+  const current = currentDesign(proposal.result, proposal.decisions);
+  if (current) {
+    const decision = current.decisionId === null ? null : (proposal.decisions.find((d) => d.id === current.decisionId) ?? null);
+    return { basis: current.basis, decision, topology: current.topology, option: current.option, design: current.design };
   }
-  const result = proposal.result;
-  const recommended = result.recommended ? (result.options.find((o) => o.topology === result.recommended) ?? null) : null;
-  const option = recommended ?? result.options[0] ?? null;
+  const option = proposal.result.options[0] ?? null;
   if (!option) return { basis: 'none', decision: null, topology: null, option: null, design: null };
-  return { basis: recommended ? 'recommendation' : 'top-ranked', decision: null, topology: option.topology, option, design: option.design };
+  return { basis: 'top-ranked', decision: null, topology: option.topology, option, design: option.design };
 }
 
 /** The ranked options other than the subject (an override's own values are not a ranked option, so every ranked option is "other" then). */

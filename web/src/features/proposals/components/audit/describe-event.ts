@@ -49,9 +49,21 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
     case 'proposal.returned':
     case 'proposal.approved': {
       const review = proposal?.reviews.find((r) => r.id === event.entityId);
+      const approved = event.action === 'proposal.approved';
+      const topology = typeof details.topology === 'string' ? ` (${topologyTitle(details.topology)}${details.ownValues === true ? ', own values' : ''})` : '';
+      const jobId = typeof details.verificationJobId === 'number' ? details.verificationJobId : null;
+      const note = !approved
+        ? undefined
+        : jobId === null
+          ? 'Relied on no SPICE verification of this design.'
+          : details.staleVerificationAccepted === true
+            ? `Relied on SPICE job #${jobId}, which simulated another design; accepted in the comment.`
+            : `Relied on SPICE job #${jobId}, which simulated exactly this design.`;
       return {
-        what: event.action === 'proposal.approved' ? 'approved the decision' : 'returned the decision to the designer',
+        what: approved ? `signed off the decided design${topology}` : `sent the decided design${topology} back for rework`,
         quote: review?.comment ? { label: 'Comment', text: review.comment } : undefined,
+        // Reviews recorded before sign-offs kept their verification say nothing about it.
+        note: approved && 'verificationJobId' in details ? note : undefined,
         ...transition,
       };
     }
@@ -59,7 +71,8 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
       return { what: 'asked for a SPICE check of every option' };
     case 'proposal.monte-carlo-requested': {
       const runs = typeof details.runs === 'number' ? `${details.runs} runs` : 'runs';
-      return { what: `asked for a SPICE Monte Carlo of the ${topologyTitle(typeof details.topology === 'string' ? details.topology : undefined)} (${runs})` };
+      const own = details.source === 'decision' ? ' decided design, ' : ' ';
+      return { what: `asked for a SPICE Monte Carlo of the${own}${topologyTitle(typeof details.topology === 'string' ? details.topology : undefined)} (${runs})` };
     }
     case 'measurement.uploaded': {
       const quantity = details.kind === 'gain' ? 'gain' : 'rejection';

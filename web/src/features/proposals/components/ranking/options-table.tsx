@@ -53,7 +53,20 @@ function HeaderCell({ header }: { header: Header<OptionRow, unknown> }) {
  * "passing only"; a row (or its name, from the keyboard) selects the option for the detail below.
  * Arrow keys move the selection between rows.
  */
-export function OptionsTable({ rows, targets, selected, onSelect }: { rows: OptionRow[]; targets: SpecTargets | null; selected: TopologyId | null; onSelect: (topology: TopologyId) => void }) {
+export function OptionsTable({
+  rows,
+  targets,
+  selected,
+  onSelect,
+  current = null,
+}: {
+  rows: OptionRow[];
+  targets: SpecTargets | null;
+  selected: TopologyId | null;
+  onSelect: (topology: TopologyId) => void;
+  /** The ranked option that is the proposal's current design, and its word ("decided", "signed off"); null while it is own values or none. */
+  current?: { topology: string; word: string } | null;
+}) {
   const columns = useMemo(() => optionColumns(targets), [targets]);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'rank', desc: false }]);
   const [columnFilters, setColumnFilters] = useState<ColumnFiltersState>([]);
@@ -103,15 +116,17 @@ export function OptionsTable({ rows, targets, selected, onSelect }: { rows: Opti
             {shown.map((row, index) => {
               const option = row.original;
               const isSelected = option.topology === selected;
+              const isCurrent = current?.topology === option.topology;
               return (
                 <tr
                   key={row.id}
                   onClick={() => onSelect(option.topology)}
                   data-selected={isSelected || undefined}
+                  data-current={isCurrent || undefined}
                   className={cn(
                     'cursor-pointer border-b border-rule/70 dark:border-night-rule/70',
                     isSelected ? 'bg-fern-soft/70 dark:bg-fern/25' : 'hover:bg-paper dark:hover:bg-night',
-                    option.recommended && 'shadow-[inset_3px_0_0_var(--color-fern)]',
+                    (current ? isCurrent : option.recommended) && 'shadow-[inset_3px_0_0_var(--color-fern)]',
                   )}
                 >
                   {row.getVisibleCells().map((cell) =>
@@ -137,6 +152,11 @@ export function OptionsTable({ rows, targets, selected, onSelect }: { rows: Opti
                             <span className="sr-only"> (recommended)</span>
                           </span>
                         )}
+                        {isCurrent && current && (
+                          <span className="ml-1.5 rounded-sm border border-fern px-1 text-[0.65rem] font-medium tracking-wide text-fern uppercase dark:border-fern-bright dark:text-fern-bright">
+                            {current.word}
+                          </span>
+                        )}
                       </th>
                     ) : (
                       <td key={cell.id} className={cn('px-1.5 py-1.5', cell.column.columnDef.meta?.numeric ? 'text-right' : 'text-left')}>
@@ -158,7 +178,7 @@ export function OptionsTable({ rows, targets, selected, onSelect }: { rows: Opti
         </table>
       </div>
       <p className="mt-2 text-xs text-ink-soft dark:text-night-ink-soft">
-        ◆ recommended · <span className="text-short dark:text-short-bright">✕</span> figure short of a blocking check · <span className="text-note dark:text-note-bright">!</span> advisory
+        ◆ recommended · {current ? `${current.word}: the proposal’s current design (marked at the left edge) · ` : ''}<span className="text-short dark:text-short-bright">✕</span> figure short of a blocking check · <span className="text-note dark:text-note-bright">!</span> advisory
         check not met · margins are + on the safe side · select a row (or use ↑ ↓ on a name) to see the option below
       </p>
     </div>

@@ -1,6 +1,8 @@
 import type { RecommendResult } from '../../../../../../shared/engine/recommend';
 import { Verdict } from '../../../../components/ui/verdict';
-import { topologyName } from '../../../../lib/topology-names';
+import { besideRecommendation, currentDesignName, currentDesignRole } from '../../../../../../shared/workflow/current-design';
+import type { ProposalState } from '../../../../../../shared/workflow/proposal-states';
+import type { ShownDesign } from '../../lib/current-design';
 
 /** The engine writes cautions as "Caution: …"; the block's heading already says so. */
 function withoutCautionWord(text: string): string {
@@ -28,16 +30,21 @@ export function CautionsBlock({ cautions }: { cautions: string[] }) {
   );
 }
 
-/** Why the recommendation is what it is, and the estimates notice. */
-export function RecommendationSummary({ result }: { result: RecommendResult }) {
+/**
+ * The proposal's one current design first (signed off, decided, or recommended while nobody has
+ * decided), the recommendation beside it when they differ with the designer's reason, why the
+ * recommendation is what it is, and the estimates notice.
+ */
+export function RecommendationSummary({ result, status, current }: { result: RecommendResult; status: ProposalState; current: ShownDesign | null }) {
+  const beside = current ? besideRecommendation(current) : null;
   return (
-    <div className="rounded-lg border border-rule bg-sheet px-4 py-3 dark:border-night-rule dark:bg-night-sheet">
+    <div className="rounded-lg border border-rule bg-sheet px-4 py-3 dark:border-night-rule dark:bg-night-sheet" data-current-design={current ? current.topology : undefined}>
       <p className="flex flex-wrap items-baseline gap-x-2 gap-y-1">
-        {result.recommended ? (
+        {current ? (
           <>
-            <span className="text-sm text-ink-soft dark:text-night-ink-soft">Recommended</span>
-            <span className="text-lg font-medium text-fern dark:text-fern-bright">{topologyName(result.recommended)}</span>
-            <span className="text-sm">— {result.summary}</span>
+            <span className="text-sm text-ink-soft dark:text-night-ink-soft">{currentDesignRole(current, status)}</span>
+            <span className="text-lg font-medium text-fern dark:text-fern-bright">{currentDesignName(current)}</span>
+            {current.basis === 'recommendation' && <span className="text-sm">— {result.summary}</span>}
           </>
         ) : (
           <>
@@ -46,6 +53,12 @@ export function RecommendationSummary({ result }: { result: RecommendResult }) {
           </>
         )}
       </p>
+      {current && current.basis === 'decision' && (
+        <p className="mt-1 text-sm">
+          {beside ?? `The recommendation, accepted as ranked. ${result.summary}`}
+          {beside && result.recommended && <span className="text-ink-soft dark:text-night-ink-soft"> ({result.summary})</span>}
+        </p>
+      )}
       <p className="mt-1.5 flex items-start gap-1.5 text-xs text-ink-soft dark:text-night-ink-soft">
         <span aria-hidden="true" className="mt-px inline-flex h-3.5 w-3.5 shrink-0 items-center justify-center rounded-full border border-current text-[0.6rem] leading-none font-semibold">
           i

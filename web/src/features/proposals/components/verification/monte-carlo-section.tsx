@@ -9,6 +9,10 @@ import { MutationError } from './mutation-error';
 import { JobProblem } from './job-problem';
 import { JobProgress } from './job-progress';
 import { MonteCarloResult } from './monte-carlo-result';
+import { FreshnessLabel } from './freshness-label';
+import { proposalCurrentDesign } from '../../lib/current-design';
+import { freshness } from '../../../../../../shared/verification/binding';
+import { currentDesignWord } from '../../../../../../shared/workflow/current-design';
 
 const inputClass =
   'rounded-md border border-rule bg-sheet px-2.5 py-1.5 text-sm dark:border-night-rule dark:bg-night-sheet aria-[invalid=true]:border-short dark:aria-[invalid=true]:border-short-bright';
@@ -20,6 +24,10 @@ function runsProblem(text: string): string | null {
   if (runs < MONTE_CARLO_RUNS.min || runs > MONTE_CARLO_RUNS.max) return `Between ${MONTE_CARLO_RUNS.min} and ${MONTE_CARLO_RUNS.max} runs.`;
   return null;
 }
+
+/** The select's value for the decided design (own values); ranked options are `option:<topology>`. */
+const DECIDED_KEY = 'decision';
+const keyOf = (job: VerificationJobView) => (job.source === 'decision' ? DECIDED_KEY : `option:${job.topology ?? ''}`);
 
 function isMonteCarloResult(result: VerificationJobView['result']): result is MonteCarloVerificationResult {
   return result !== null && 'histogram' in result;
@@ -35,20 +43,29 @@ export function MonteCarloSection({ proposal, status, canVerify }: { proposal: P
   const differential = proposal.specVersion.payload?.gain?.output === 'differential';
   const options = proposal.result.options.filter((o) => o.design);
   const jobs = status?.monteCarlo ?? [];
+  const current = proposalCurrentDesign(proposal);
+  // The designer's own values are not a ranked option: they get their own entry, first.
+  const ownValues = current?.basis === 'decision' && current.ownValues && current.design ? current : null;
   const [chosen, setChosen] = useState<string | null>(null);
   const [runsText, setRunsText] = useState(String(MONTE_CARLO_RUNS.default));
   const [tried, setTried] = useState(false);
   const mutation = useMonteCarloMutation(proposal.id);
-  const topology = chosen ?? jobs[0]?.topology ?? proposal.result.recommended ?? options[0]?.topology ?? null;
-  const job = jobs.find((j) => j.topology === topology) ?? null;
+  const firstJob = jobs[0] ? keyOf(jobs[0]) : null;
+  const key = chosen ?? (ownValues ? DECIDED_KEY : null) ?? firstJob ?? (current ? `option:${current.topology}` : null) ?? (options[0] ? `option:${options[0].topology}` : null);
+  const job = jobs.find((j) => keyOf(j) === key) ?? null;
+  const topology = key === DECIDED_KEY ? (ownValues?.topology ?? null) : (key?.slice('option:'.length) ?? null);
   const running = job !== null && !isSettled(job);
   const problem = runsProblem(runsText);
+  const name = key === DECIDED_KEY ? `decided design (${topologyName(topology ?? '')}, own values)` : topologyName(topology ?? '');
+  const freshnessState = job && isMonteCarloResult(job.result) && current && (key === DECIDED_KEY || (!current.ownValues && topology === current.topology))
+    ? freshness(job.result.binding, current.binding, currentDesignWord(current))
+    : null;
 
   const start = (event: FormEvent) => {
     event.preventDefault();
     setTried(true);
-    if (problem || !topology || running) return;
-    mutation.mutate({ topology, runs: Number(runsText) });
+    if (problem || !key || running) return;
+    mutation.mutate(key === DECIDED_KEY ? { source: 'decision', runs: Number(runsText) } : { topology: topology ?? undefined, runs: Number(runsText) });
   };
 
   return (
@@ -74,16 +91,25 @@ export function MonteCarloSection({ proposal, status, canVerify }: { proposal: P
               <span>Option</span>
               <select
                 className={inputClass}
-                value={topology ?? ''}
+                value={key ?? ''}
                 onChange={(event) => {
                   setChosen(event.target.value);
                   mutation.reset();
                 }}
               >
+                {ownValues && (
+                  <option value={DECIDED_KEY}>
+                    Decided design: own values ({topologyName(ownValues.topology)})
+                    {(() => {
+                      const existing = jobs.find((j) => keyOf(j) === DECIDED_KEY);
+                      return existing ? ` — ${existing.state === 'finished' ? `simulated, ${existing.runs ?? '?'} runs` : existing.state}` : '';
+                    })()}
+                  </option>
+                )}
                 {options.map((o) => {
-                  const existing = jobs.find((j) => j.topology === o.topology);
+                  const existing = jobs.find((j) => keyOf(j) === `option:${o.topology}`);
                   return (
-                    <option key={o.topology} value={o.topology}>
+                    <option key={o.topology} value={`option:${o.topology}`}>
                       {topologyName(o.topology)}
                       {existing ? ` — ${existing.state === 'finished' ? `simulated, ${existing.runs ?? '?'} runs` : existing.state}` : ''}
                     </option>
@@ -120,14 +146,17 @@ export function MonteCarloSection({ proposal, status, canVerify }: { proposal: P
           {mutation.isError && <MutationError error={mutation.error} what="The Monte Carlo was not started" />}
           {!job ? (
             <p className="text-sm text-ink-soft dark:text-night-ink-soft">
-              No SPICE Monte Carlo of the {topology ? topologyName(topology) : 'option'} yet{canVerify ? '.' : '; a designer or reviewer can ask for one.'}
+              No SPICE Monte Carlo of the {topology ? name : 'option'} yet{canVerify ? '.' : '; a designer or reviewer can ask for one.'}
             </p>
           ) : running ? (
-            <JobProgress job={job} label={`Monte Carlo of the ${topologyName(job.topology ?? '')}, ${job.runs ?? '?'} runs`} />
+            <JobProgress job={job} label={`Monte Carlo of the ${name}, ${job.runs ?? '?'} runs`} />
           ) : job.state !== 'finished' ? (
             <JobProblem job={job} what="The Monte Carlo" />
           ) : isMonteCarloResult(job.result) ? (
-            <MonteCarloResult job={job} result={job.result} requiredYieldPercent={proposal.specVersion.payload?.cmrr?.minYieldPercent ?? null} frequencyHz={proposal.specVersion.payload?.cmrr?.atFrequencyHz ?? null} />
+            <>
+              {freshnessState && freshnessState.state !== 'current' && <FreshnessLabel state={freshnessState} />}
+              <MonteCarloResult job={job} result={job.result} requiredYieldPercent={proposal.specVersion.payload?.cmrr?.minYieldPercent ?? null} frequencyHz={proposal.specVersion.payload?.cmrr?.atFrequencyHz ?? null} />
+            </>
           ) : (
             <p className="text-sm text-ink-soft">This Monte Carlo finished without a result.</p>
           )}

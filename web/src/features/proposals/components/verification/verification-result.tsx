@@ -11,24 +11,29 @@ import { When } from '../audit/when';
 import { PlotFigure } from '../ranking/plots/plot-figure';
 import { FiguresTable, VerifiedCornersTable } from './figures-table';
 import { RejectionComparisonChart } from './plots/lazy-verification-charts';
+import { FreshnessLabel } from './freshness-label';
+import { proposalCurrentDesign, resultFreshness, type ShownDesign } from '../../lib/current-design';
+import { resultForDesign, type Freshness } from '../../../../../../shared/verification/binding';
 
-/** Which option the detail opens on: the decided design, else the recommendation, else the first one listed. */
-function firstShown(options: OptionVerification[], proposal: Proposal): string | null {
-  const pick = options.find((o) => o.source === 'decision') ?? options.find((o) => o.topology === proposal.result.recommended) ?? options[0];
+/** Which option the detail opens on: the result about the current design, else the first one listed. */
+function firstShown(options: OptionVerification[], current: ShownDesign | null): string | null {
+  const pick = (current ? resultForDesign(options, current) : null) ?? options[0];
   return pick ? verifiedOptionKey(pick) : null;
 }
 
 /** A finished verification: who asked and with what, an overview of every option, and the selected option's figures, corners and rejection curve. */
 export function VerificationResult({ job, result, proposal }: { job: VerificationJobView; result: ProposalVerificationResult; proposal: Proposal }) {
   const [chosen, setChosen] = useState<string | null>(null);
-  const selectedKey = chosen ?? firstShown(result.options, proposal);
+  const current = useMemo(() => proposalCurrentDesign(proposal), [proposal]);
+  const selectedKey = chosen ?? firstShown(result.options, current);
   const selected = result.options.find((o) => verifiedOptionKey(o) === selectedKey) ?? null;
+  const freshnessOf = (option: OptionVerification) => resultFreshness(option, result.options, current);
   return (
     <div className="space-y-4">
       <JobFacts job={job} result={result} />
       <p className="text-sm">{verificationTally(result.options)}</p>
-      <OverviewTable options={result.options} selectedKey={selectedKey} onSelect={setChosen} />
-      {selected && <OptionVerificationDetail key={verifiedOptionKey(selected)} option={selected} proposal={proposal} />}
+      <OverviewTable options={result.options} selectedKey={selectedKey} onSelect={setChosen} freshnessOf={freshnessOf} />
+      {selected && <OptionVerificationDetail key={verifiedOptionKey(selected)} option={selected} proposal={proposal} freshness={freshnessOf(selected)} />}
     </div>
   );
 }
@@ -69,7 +74,17 @@ export function JobFacts({ job, result }: { job: VerificationJobView; result: { 
 }
 
 /** One row per simulated option (and the override): its verdict; the name selects it for the detail. Arrow keys move the selection. */
-function OverviewTable({ options, selectedKey, onSelect }: { options: OptionVerification[]; selectedKey: string | null; onSelect: (key: string) => void }) {
+function OverviewTable({
+  options,
+  selectedKey,
+  onSelect,
+  freshnessOf,
+}: {
+  options: OptionVerification[];
+  selectedKey: string | null;
+  onSelect: (key: string) => void;
+  freshnessOf: (option: OptionVerification) => Freshness | null;
+}) {
   const move = (event: KeyboardEvent<HTMLButtonElement>, index: number) => {
     const step = event.key === 'ArrowDown' ? 1 : event.key === 'ArrowUp' ? -1 : 0;
     const next = options[index + step];
@@ -118,6 +133,7 @@ function OverviewTable({ options, selectedKey, onSelect }: { options: OptionVeri
                     )}
                     {verifiedOptionName(option)}
                   </button>
+                  {freshnessOf(option) && <FreshnessLabel state={freshnessOf(option)!} className="mt-0.5" />}
                 </th>
                 <td className="py-1.5 pr-3">
                   <Verdict kind={verdict.kind} label={verdict.label} />
@@ -134,7 +150,7 @@ function OverviewTable({ options, selectedKey, onSelect }: { options: OptionVeri
 }
 
 /** The selected option: ngspice's error, or its nominal figures, corners and rejection curve beside the engine's. */
-function OptionVerificationDetail({ option, proposal }: { option: OptionVerification; proposal: Proposal }) {
+function OptionVerificationDetail({ option, proposal, freshness }: { option: OptionVerification; proposal: Proposal; freshness: Freshness | null }) {
   const name = verifiedOptionName(option);
   const verdict = optionVerdict(option);
   return (
@@ -142,6 +158,7 @@ function OptionVerificationDetail({ option, proposal }: { option: OptionVerifica
       <header className="flex flex-wrap items-center gap-x-3 gap-y-1">
         <h3 className="text-base font-medium">{name}</h3>
         <Verdict kind={verdict.kind} label={verdict.label} />
+        {freshness && <FreshnessLabel state={freshness} className="basis-full" />}
       </header>
       {option.outcome === 'error' ? (
         <div role="alert" className="rounded-md border border-note/40 bg-note-soft p-3 text-sm text-note dark:bg-note/20 dark:text-note-bright">
