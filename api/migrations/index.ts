@@ -5,5 +5,6 @@ import { MailOutbox1764700100000 } from './1764700100000-mail-outbox';
 import { DeviceModels1764700200000 } from './1764700200000-device-models';
 import { Measurements1764700300000 } from './1764700300000-measurements';
 import { SpecTextAndTolerance1764800000000 } from './1764800000000-spec-text-and-tolerance';
+import { ProjectMemberRoles1764800400000 } from './1764800400000-project-member-roles';
 
-export const MIGRATIONS = [InitialSchema1764612000000, VerificationJobs1764700000000, MailOutbox1764700100000, DeviceModels1764700200000, Measurements1764700300000, SpecTextAndTolerance1764800000000];
+export const MIGRATIONS = [InitialSchema1764612000000, VerificationJobs1764700000000, MailOutbox1764700100000, DeviceModels1764700200000, Measurements1764700300000, SpecTextAndTolerance1764800000000, ProjectMemberRoles1764800400000];

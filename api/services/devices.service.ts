@@ -81,7 +81,7 @@ export function safeFileName(original: string): string {
  * 409 when a card's name is taken in the project. Answers the stored cards.
  */
 export async function uploadDeviceModels(dataSource: DataSource, actor: Viewer, projectId: number, file: UploadedModelFile): Promise<DeviceModelView[]> {
-  await projectFor(dataSource, actor, projectId);
+  await projectFor(dataSource, actor, projectId, 'devices:write');
   const fileName = safeFileName(file.originalName);
   const result = readModelFile(file.bytes);
   if (!result.ok) {

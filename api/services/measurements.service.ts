@@ -144,7 +144,7 @@ export async function uploadMeasurement(
   file: UploadedMeasurementFile,
   note: string | null,
 ): Promise<MeasurementView> {
-  const proposal = await proposalFor(dataSource, actor, proposalId);
+  const proposal = await proposalFor(dataSource, actor, proposalId, 'measurements:write');
   if (!MEASURABLE_STATES.includes(proposal.status)) {
     throw new AppError(
       'not-decided',
@@ -166,7 +166,7 @@ export async function uploadMeasurement(
   await storeBytes(uploadsDir, sha256, file.bytes);
   return dataSource.transaction(async (manager) => {
     // Read again inside the transaction: the decision in force is the one measured.
-    const current = await proposalFor(manager, actor, proposalId);
+    const current = await proposalFor(manager, actor, proposalId, 'measurements:write');
     const decision = await manager.getRepository(DecisionEntity).findOne({ where: { proposalId }, order: { id: 'DESC' } });
     if (!decision || !MEASURABLE_STATES.includes(current.status)) throw new AppError('not-decided', 409, `Proposal ${proposalId} has no decision in force: there is no design to measure.`);
     const row = await manager.getRepository(MeasurementEntity).save({

@@ -47,7 +47,7 @@ export function notificationSettings(): NotificationSettings {
   return settings;
 }
 
-type Member = Pick<User, 'id' | 'email' | 'displayName' | 'role' | 'notify'>;
+type Member = Pick<User, 'id' | 'email' | 'displayName' | 'notify'>;
 
 /** Largest decision or review text quoted in a message (the rest is on the proposal's page). */
 const MAX_QUOTE = 2000;
@@ -75,11 +75,13 @@ export async function queueNotification(manager: EntityManager, event: Notificat
   const version = await manager.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true, title: true, createdById: true }, where: { id: proposal.specVersionId } });
   const memberships = await manager.getRepository(ProjectMemberEntity).findBy({ projectId: proposal.projectId });
   const people = await manager.getRepository(UserEntity).find({
-    select: { id: true, email: true, displayName: true, role: true, notify: true },
+    select: { id: true, email: true, displayName: true, notify: true },
     where: { id: In([...new Set([...memberships.map((m) => m.userId), event.actorId])]) },
   });
   const byId = new Map<number, Member>(people.map((p) => [p.id, p]));
   const memberIds = new Set(memberships.map((m) => m.userId));
+  /** The role each member holds in this project: recipients are chosen by it. */
+  const projectRoleOf = new Map(memberships.map((m) => [m.userId, m.role]));
   const nameOf = (id: number) => byId.get(id)?.displayName ?? `account #${id}`;
   const members = people.filter((p) => memberIds.has(p.id));
 
@@ -100,12 +102,12 @@ export async function queueNotification(manager: EntityManager, event: Notificat
 
   if (event.kind === 'proposal.ready') {
     facts = { ...base, kind: event.kind, rankedBy: nameOf(event.actorId), recommended: proposal.recommendedTopology };
-    for (const member of members) if (member.role === 'designer') tell(member.id, `you design in ${inProject}`);
+    for (const member of members) if (projectRoleOf.get(member.id) === 'designer') tell(member.id, `you design in ${inProject}`);
   } else if (event.kind === 'proposal.decided') {
     const decision = await manager.getRepository(DecisionEntity).findOneByOrFail({ id: event.decisionId });
     const decisionNumber = await manager.getRepository(DecisionEntity).countBy({ proposalId: proposal.id });
     facts = { ...base, kind: event.kind, decision: decisionFacts(decision, proposal.recommendedTopology, nameOf(decision.decidedById)), decisionNumber };
-    for (const member of members) if (member.role === 'reviewer') tell(member.id, `you review in ${inProject}`);
+    for (const member of members) if (projectRoleOf.get(member.id) === 'reviewer') tell(member.id, `you review in ${inProject}`);
   } else {
     const review = await manager.getRepository(ReviewEntity).findOneByOrFail({ id: event.reviewId });
     const decision = await manager.getRepository(DecisionEntity).findOneByOrFail({ id: review.decisionId });

@@ -76,7 +76,7 @@ const lastLine = (text: string) => text.trim().split('\n').at(-1) ?? '';
 beforeAll(async () => {
   configureNotifications({ baseUrl: BASE_URL });
   api = await buildApiApp();
-  await createUser(api.dataSource, null, { email: OUTSIDER, displayName: 'Test designer3', role: 'designer', password: TEST_PASSWORD });
+  await createUser(api.dataSource, null, { email: OUTSIDER, displayName: 'Test designer3', role: 'member', password: TEST_PASSWORD });
   const project = await api.createProject(['requirements', 'designer', 'designer2', 'reviewer', 'reviewer2'], PROJECT);
   specId = (await api.createSpec(project.id, { title: SPEC_TITLE })).id;
   smtp = await startLocalSmtp({ dataSource: api.dataSource, port: 0 });

@@ -62,7 +62,7 @@ const dataSource = await openDatabase(join(dir, 'bench.sqlite'));
 const ruleSet = await loadRuleSet();
 
 const account = (role: 'admin' | 'requirements' | 'designer') =>
-  createUser(dataSource, null, { email: `${role}@bench.longtail.test`, displayName: `Bench ${role}`, role, password: PASSWORD });
+  createUser(dataSource, null, { email: `${role}@bench.longtail.test`, displayName: `Bench ${role}`, role: role === 'admin' ? 'admin' : 'member', password: PASSWORD });
 const admin = await account('admin');
 const author = await account('requirements');
 const designer = await account('designer');
@@ -72,8 +72,8 @@ const payload = JSON.parse(readFileSync(specPath, 'utf8')) as { title: string };
 /** A project with the author and the designer as members, and the demo spec in it. */
 async function projectWithSpec(name: string) {
   const project = await createProject(dataSource, admin.id, { name });
-  await addMember(dataSource, admin, project.id, author.id);
-  await addMember(dataSource, admin, project.id, designer.id);
+  await addMember(dataSource, admin, project.id, author.id, 'requirements');
+  await addMember(dataSource, admin, project.id, designer.id, 'designer');
   const spec = await createSpec(dataSource, author, project.id, { title: payload.title, payload });
   return { project, spec };
 }
