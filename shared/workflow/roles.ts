@@ -99,3 +99,30 @@ export function mayAnywhere(accountRole: AccountRole, projectRoles: readonly Pro
 export function projectRoleOf(projectRoles: readonly ProjectRoleOf[] | undefined, projectId: number): ProjectRole | null {
   return projectRoles?.find((m) => m.projectId === projectId)?.role ?? null;
 }
+
+/** A signed-in person as the server answers `GET /api/auth/me`: the account's role and the role held in each project. */
+export interface PersonRoles {
+  role: AccountRole;
+  projectRoles?: readonly ProjectRoleOf[];
+}
+
+/**
+ * Whether the person may take the action in a project (the role held there, or the
+ * administrator's), or, with `projectId` null, as the account alone (the administrator's actions).
+ * What the browser shows; the server decides the same way.
+ */
+export function mayAs(person: PersonRoles, projectId: number | null, action: Action): boolean {
+  return mayIn(person.role, projectId === null ? null : projectRoleOf(person.projectRoles, projectId), action);
+}
+
+/** The roles a person holds anywhere (the administrator's, and each project's), without repeats, in the table's order. */
+export function heldRoles(person: PersonRoles): Role[] {
+  const held = new Set<Role>(rolesIn(person.role, null));
+  for (const membership of person.projectRoles ?? []) if (membership.role) held.add(membership.role);
+  return ROLES.filter((role) => held.has(role));
+}
+
+/** Their titles (e.g. for a header). */
+export function heldRoleTitles(person: PersonRoles): string[] {
+  return heldRoles(person).map((role) => ROLE_TITLES[role]);
+}

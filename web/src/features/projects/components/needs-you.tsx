@@ -22,12 +22,13 @@ const NO_QUEUE: Record<Role, string> = {
   reviewer: '',
 };
 
-/** "What needs you": the counts of proposals waiting for this role, each a shortcut to the filter. */
-export function NeedsYou({ projectId, role, onShow }: { projectId: number; role: Role; onShow: (status: ProposalFilter) => void }) {
-  const queue = WAITING[role] ?? [];
+/** "What needs you": the counts of proposals waiting for the role held in this project, each a shortcut to the filter (nothing without a role here). */
+export function NeedsYou({ projectId, role, onShow }: { projectId: number; role: Role | null; onShow: (status: ProposalFilter) => void }) {
+  const queue = (role && WAITING[role]) ?? [];
   const counts = useQueries({ queries: queue.map((q) => projectProposalCountQuery(projectId, q.status)) });
   const frame = 'mb-6 flex flex-wrap items-center gap-x-4 gap-y-2 rounded-lg border-l-4 border-fern bg-fern-soft/60 px-4 py-2.5 text-sm dark:bg-night-sheet';
   const heading = <h2 className="font-medium text-fern dark:text-fern-bright">What needs you</h2>;
+  if (role === null) return null;
   if (queue.length === 0)
     return (
       <section aria-label="What needs you" className={frame}>

@@ -1,4 +1,4 @@
-import { may } from '../../../../../shared/workflow/roles';
+import { mayAs } from '../../../../../shared/workflow/roles';
 import { Sheet } from '../../../components/ui/sheet';
 import type { Proposal, User } from '../../../lib/api-types';
 import { useReviewMutation } from '../api/decision-mutations';
@@ -14,7 +14,7 @@ export function ReviewPanel({ proposal, user }: { proposal: Proposal; user: User
   const mutation = useReviewMutation(proposal.id);
   const nameOf = usePersonName(proposal.projectId, user);
   const decision = latestDecision(proposal);
-  const canReview = may(user.role, 'proposals:review') && (proposal.allowedEvents.includes('approve') || proposal.allowedEvents.includes('return'));
+  const canReview = mayAs(user, proposal.projectId, 'proposals:review') && (proposal.allowedEvents.includes('approve') || proposal.allowedEvents.includes('return'));
 
   if (canReview && decision) {
     const option = decidedOption(proposal, decision);
