@@ -67,7 +67,6 @@ describe('DecisionPanel', () => {
 
   test('when the person designs in another project and reviews in this one, then the form is not offered here', async () => {
     fetchMock = mockFetch(MEMBERS);
-    vi.stubGlobal('fetch', fetchMock.fetch);
     const designsElsewhere = { ...DESIGNER, projectRoles: [{ projectId: 1, role: 'reviewer' as const }, { projectId: 2, role: 'designer' as const }] };
     renderWithClient(<DecisionPanel proposal={proposalFixture()} user={designsElsewhere} />);
 
@@ -78,8 +77,7 @@ describe('DecisionPanel', () => {
   });
 
   test('when the same person opens a proposal of the project where they design, then the form is offered', () => {
-    fetchMock = mockFetch(MEMBERS);
-    vi.stubGlobal('fetch', fetchMock.fetch);
+    fetchMock = mockFetch({ 'GET /api/projects/2/members': () => ({ body: { items: [DESIGNER] } }) });
     const designsElsewhere = { ...DESIGNER, projectRoles: [{ projectId: 1, role: 'reviewer' as const }, { projectId: 2, role: 'designer' as const }] };
     renderWithClient(<DecisionPanel proposal={proposalFixture({ projectId: 2 })} user={designsElsewhere} />);
 
