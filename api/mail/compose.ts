@@ -1,7 +1,9 @@
 /**
  * The text of every notification, in one place: plain text, our own words. Each message names
  * the proposal, the spec title and version, the project, who did what and their reason or
- * comment, links to the proposal, and ends with the estimates notice. Pure: no I/O.
+ * comment, links to the proposal, and ends with the estimates notice. Subjects carry only our
+ * words and numbers: user text (titles, names, comments) stays in the body, never in a header.
+ * A digest puts several messages to one person into one. Pure: no I/O.
  */
 import { topologyName } from '../../shared/engine/topology-names';
 import { ESTIMATE_NOTICE } from '../../shared/engine/version';
@@ -85,12 +87,12 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
   const facts = plainFacts(unsafeFacts);
   const recipientName = singleLine(unsafeRecipientName);
   const name = `proposal #${facts.proposalId}`;
-  const spec = `${facts.specTitle} (version ${facts.specVersion})`;
+  const spec = `spec version ${facts.specVersion}`;
   let subject: string;
   let body: string[];
   switch (facts.kind) {
     case 'proposal.ready':
-      subject = `Proposal #${facts.proposalId} waits for a decision: ${spec}`;
+      subject = `Proposal #${facts.proposalId} waits for a decision (${spec})`;
       body = [
         `${facts.rankedBy} had the tail options ranked, and ${name} now waits for a designer's decision.`,
         '',
@@ -102,7 +104,7 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
       ];
       break;
     case 'proposal.decided':
-      subject = `Proposal #${facts.proposalId} decided, waiting for review: ${spec}`;
+      subject = `Proposal #${facts.proposalId} decided, waiting for review (${spec})`;
       body = [
         `${facts.decision.decidedBy} decided ${name}: ${decisionSentence(facts.decision)}.`,
         ...(facts.decisionNumber > 1 ? [`This is decision ${facts.decisionNumber} on it, after it was returned.`] : []),
@@ -115,7 +117,7 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
       ];
       break;
     case 'proposal.approved':
-      subject = `Proposal #${facts.proposalId} approved: ${spec}`;
+      subject = `Proposal #${facts.proposalId} approved (${spec})`;
       body = [
         `${facts.reviewedBy} approved ${name}.`,
         `The approved decision: ${facts.decision.decidedBy} ${decisionSentence(facts.decision)}.`,
@@ -128,7 +130,7 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
       ];
       break;
     case 'proposal.returned':
-      subject = `Proposal #${facts.proposalId} returned to the designer: ${spec}`;
+      subject = `Proposal #${facts.proposalId} returned to the designer (${spec})`;
       body = [
         `${facts.reviewedBy} returned ${name} to the designer; it waits for a new decision.`,
         `The returned decision: ${facts.decision.decidedBy} ${decisionSentence(facts.decision)}.`,
@@ -152,4 +154,45 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
     '',
   ].join('\n');
   return { subject: subject.length > 300 ? `${subject.slice(0, 299)}…` : subject, text };
+}
+
+/**
+ * Messages to one person beyond this many within DIGEST_WINDOW_MS are held and go out together
+ * as one digest at the end of the window: nobody gets a burst of e-mails from one busy minute.
+ */
+export const DIGEST_AFTER = 3;
+export const DIGEST_WINDOW_MS = 60_000;
+
+/** One held message as the digest lists it: what happened (the message's subject line and opening line) and its page. */
+export interface DigestEntry {
+  subject: string;
+  /** The message's first sentence after the greeting (who did what). */
+  summary: string;
+  link: string | null;
+}
+
+/** Control characters, line and paragraph separators: a listed line stays one line. */
+const oneLine = (text: string) => text.replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029]+/g, ' ').trim();
+
+/** The sentence that says what happened: the body's first line after the greeting. */
+export function summaryOf(body: string): string {
+  const lines = body.split('\n');
+  return oneLine(lines.find((line, i) => i > 0 && line.trim() !== '') ?? '');
+}
+
+/** One e-mail for several held messages to one person, each with its link; the subject is ours alone. */
+export function composeDigest(entries: readonly DigestEntry[], recipientName: string, profileLink: string): ComposedMessage {
+  const items = entries.flatMap((entry, i) => [`${i + 1}. ${oneLine(entry.subject)}`, ...(entry.summary ? [`   ${entry.summary}`] : []), ...(entry.link ? [`   ${oneLine(entry.link)}`] : []), '']);
+  const text = [
+    `Hello ${oneLine(recipientName)},`,
+    '',
+    `${entries.length} workflow updates came for you within about a minute, so here they are in one e-mail:`,
+    '',
+    ...items,
+    `You get these e-mails because you work on these projects. Turn them off on your profile: ${profileLink}`,
+    '',
+    ESTIMATE_NOTICE,
+    '',
+  ].join('\n');
+  return { subject: `Longtail: ${entries.length} workflow updates`, text };
 }

@@ -12,7 +12,7 @@
  * - a review: the spec's author (and the author of the ranked version, when another person)
  *   and the designer whose decision was reviewed ("approved" / "returned").
  */
-import { In, type DataSource, type EntityManager } from 'typeorm';
+import { In, MoreThan, type DataSource, type EntityManager } from 'typeorm';
 import { DecisionEntity, type Decision } from '../entities/decision.entity';
 import { MailMessageEntity } from '../entities/mail-message.entity';
 import { MailOutboxEntity, type MailOutbox, type OutboxStatus } from '../entities/mail-outbox.entity';
@@ -24,7 +24,7 @@ import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { SpecEntity } from '../entities/spec.entity';
 import { UserEntity, type User } from '../entities/user.entity';
 import type { Mailbox } from '../../shared/mail/types';
-import { composeMessage, type DecisionFacts, type MessageFacts, type NotificationKind, type ProposalFacts } from '../mail/compose';
+import { composeMessage, DIGEST_AFTER, DIGEST_WINDOW_MS, type DecisionFacts, type MessageFacts, type NotificationKind, type ProposalFacts } from '../mail/compose';
 
 export type NotificationEvent =
   | { kind: 'proposal.ready'; proposalId: number; actorId: number }
@@ -34,13 +34,15 @@ export type NotificationEvent =
 export interface NotificationSettings {
   /** Where links in messages point (the app's public address, no trailing slash). */
   baseUrl: string;
+  /** Messages to one person within the digest window sent one by one before the rest wait for a digest (default DIGEST_AFTER). */
+  digestAfter?: number;
 }
 
-let settings: NotificationSettings = { baseUrl: 'http://localhost:3000' };
+let settings: Required<NotificationSettings> = { baseUrl: 'http://localhost:3000', digestAfter: DIGEST_AFTER };
 
-/** Sets the public address for links (server.ts, from LONGTAIL_BASE_URL / PORT). */
+/** Sets the public address for links (server.ts, from LONGTAIL_BASE_URL / PORT), and the digest threshold (tests). */
 export function configureNotifications(next: NotificationSettings): void {
-  settings = { baseUrl: next.baseUrl.replace(/\/+$/, '') };
+  settings = { baseUrl: next.baseUrl.replace(/\/+$/, ''), digestAfter: next.digestAfter ?? DIGEST_AFTER };
 }
 
 export function notificationSettings(): NotificationSettings {
@@ -57,6 +59,27 @@ function decisionFacts(decision: Decision, recommended: string | null, decidedBy
   let passes: boolean | undefined;
   if (decision.kind === 'override' && decision.evaluation) passes = (JSON.parse(decision.evaluation) as { passes?: boolean }).passes;
   return { kind: decision.kind, topology: decision.topology, recommended, reason: quote(decision.reason), passes, decidedBy };
+}
+
+/**
+ * For each recipient who had DIGEST_AFTER or more messages within DIGEST_WINDOW_MS: when the new
+ * message goes out with their digest (the time of the digest already waiting, else the end of the
+ * window from now). Others are missing from the map and are sent at once.
+ */
+async function digestTimes(manager: EntityManager, userIds: number[], nowMs: number): Promise<Map<number, string>> {
+  if (userIds.length === 0) return new Map();
+  const recent = await manager.getRepository(MailOutboxEntity).find({
+    select: { id: true, userId: true, digest: true, status: true, nextAttemptAt: true, attempts: true },
+    where: { userId: In(userIds), createdAt: MoreThan(new Date(nowMs - DIGEST_WINDOW_MS).toISOString()) },
+  });
+  const times = new Map<number, string>();
+  for (const userId of userIds) {
+    const mine = recent.filter((row) => row.userId === userId);
+    if (mine.length < settings.digestAfter) continue;
+    const waiting = mine.filter((row) => row.digest && row.status === 'pending' && row.attempts === 0).map((row) => row.nextAttemptAt).sort()[0];
+    times.set(userId, waiting ?? new Date(nowMs + DIGEST_WINDOW_MS).toISOString());
+  }
+  return times;
 }
 
 /**
@@ -123,12 +146,20 @@ export async function queueNotification(manager: EntityManager, event: Notificat
     tell(decision.decidedById, 'you made the decision under review');
   }
 
-  const now = new Date().toISOString();
-  const rows: Omit<MailOutbox, 'id'>[] = [];
-  for (const [userId, reasons] of told) {
+  const nowMs = Date.now();
+  const now = new Date(nowMs).toISOString();
+  const recipients = [...told.keys()].filter((userId) => {
     const person = byId.get(userId);
-    if (!person || !memberIds.has(userId) || userId === event.actorId || !person.notify) continue;
+    return person && memberIds.has(userId) && userId !== event.actorId && person.notify;
+  });
+  const held = await digestTimes(manager, recipients, nowMs);
+  const rows: Omit<MailOutbox, 'id'>[] = [];
+  for (const userId of recipients) {
+    const person = byId.get(userId)!;
+    const reasons = told.get(userId)!;
     const { subject, text } = composeMessage(facts, person.displayName, reasons.join(' and '));
+    // Beyond DIGEST_AFTER messages within the window, the row waits for the person's digest.
+    const digestAt = held.get(userId) ?? null;
     rows.push({
       createdAt: now,
       kind: event.kind satisfies NotificationKind,
@@ -141,9 +172,11 @@ export async function queueNotification(manager: EntityManager, event: Notificat
       body: text,
       status: 'pending',
       attempts: 0,
-      nextAttemptAt: now,
+      nextAttemptAt: digestAt ?? now,
       lastError: null,
       sentAt: null,
+      digest: digestAt !== null,
+      link: base.link,
     });
   }
   if (rows.length === 0) return [];
