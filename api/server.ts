@@ -39,7 +39,7 @@ if (mailTarget) {
   console.log(`Notifications go to ${describeMailTarget(mailTarget)}${localSmtp ? ' (admins read them on the Mail page)' : ''}`);
 }
 if (config.seedDemo && (await seedDemo(dataSource, ruleSet, config.demoPassword))) {
-  console.log(`Seeded the demo organisation: sign in as admin|requirements|designer|reviewer@${DEMO_DOMAIN}`);
+  console.log(`Seeded the demo organisation: sign in as admin|requirements|designer|reviewer|lead@${DEMO_DOMAIN}`);
 }
 if (config.firstAdmin && (await seedFirstAdmin(dataSource, config.firstAdmin))) console.log(`Created the first administrator, ${config.firstAdmin.email}`);
 
