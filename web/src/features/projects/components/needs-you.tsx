@@ -16,7 +16,7 @@ const WAITING: Partial<Record<Role, { status: ProposalState; say: (n: number) =>
 };
 
 const NO_QUEUE: Record<Role, string> = {
-  admin: 'You manage who works on this project: add or remove people under “People on this project”.',
+  admin: 'You manage who works on this project and the role each holds here: under “People on this project”.',
   requirements: 'Write or revise the specs; from a spec’s page, ask the engine for a proposal.',
   designer: '',
   reviewer: '',

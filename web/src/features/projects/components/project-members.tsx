@@ -50,33 +50,31 @@ function MemberRow({ projectId, member, canManage }: { projectId: number; member
   return (
     <li className="py-1.5 text-sm">
       <div className="flex items-center justify-between gap-2">
-        <span className="min-w-0">
-          <span className="block truncate font-medium">{member.displayName}</span>
-          {canManage ? (
-            <select
-              aria-label={`Role of ${member.displayName} in this project`}
-              value={member.projectRole ?? ''}
-              disabled={setRole.isPending}
-              onChange={(e) => e.target.value && setRole.mutate({ userId: member.id, role: e.target.value as ProjectRole })}
-              className="mt-0.5 rounded-md border border-rule bg-sheet px-1.5 py-0.5 text-xs dark:border-night-rule dark:bg-night"
-            >
-              {member.projectRole === null && <option value="">{roleWords(member)}</option>}
-              {PROJECT_ROLES.map((role) => (
-                <option key={role} value={role}>
-                  {ROLE_TITLES[role]}
-                </option>
-              ))}
-            </select>
-          ) : (
-            <span className="block text-xs text-ink-soft dark:text-night-ink-soft">{roleWords(member)}</span>
-          )}
-        </span>
+        <span className="min-w-0 truncate font-medium">{member.displayName}</span>
         {canRemove && !confirming && (
-          <Button variant="quiet" className="px-2 py-1 text-xs" onClick={() => setConfirming(true)} aria-label={`Remove ${member.displayName}`}>
+          <Button variant="quiet" className="shrink-0 px-2 py-1 text-xs" onClick={() => setConfirming(true)} aria-label={`Remove ${member.displayName}`}>
             Remove
           </Button>
         )}
       </div>
+      {canManage ? (
+        <select
+          aria-label={`Role of ${member.displayName} in this project`}
+          value={member.projectRole ?? ''}
+          disabled={setRole.isPending}
+          onChange={(e) => e.target.value && setRole.mutate({ userId: member.id, role: e.target.value as ProjectRole })}
+          className="mt-0.5 w-full rounded-md border border-rule bg-sheet px-1.5 py-0.5 text-xs dark:border-night-rule dark:bg-night"
+        >
+          {member.projectRole === null && <option value="">{roleWords(member)}</option>}
+          {PROJECT_ROLES.map((role) => (
+            <option key={role} value={role}>
+              {ROLE_TITLES[role]}
+            </option>
+          ))}
+        </select>
+      ) : (
+        <span className="block text-xs text-ink-soft dark:text-night-ink-soft">{roleWords(member)}</span>
+      )}
       {setRole.error && (
         <p role="alert" className="mt-1 text-xs text-short dark:text-short-bright">
           The role was not changed: {setRole.error.message}
