@@ -36,13 +36,15 @@ export interface NotificationSettings {
   baseUrl: string;
   /** Messages to one person within the digest window sent one by one before the rest wait for a digest (default DIGEST_AFTER). */
   digestAfter?: number;
+  /** The digest window, ms (default DIGEST_WINDOW_MS). */
+  digestWindowMs?: number;
 }
 
-let settings: Required<NotificationSettings> = { baseUrl: 'http://localhost:3000', digestAfter: DIGEST_AFTER };
+let settings: Required<NotificationSettings> = { baseUrl: 'http://localhost:3000', digestAfter: DIGEST_AFTER, digestWindowMs: DIGEST_WINDOW_MS };
 
-/** Sets the public address for links (server.ts, from LONGTAIL_BASE_URL / PORT), and the digest threshold (tests). */
+/** Sets the public address for links (server.ts, from LONGTAIL_BASE_URL / PORT), and the digest threshold and window (tests). */
 export function configureNotifications(next: NotificationSettings): void {
-  settings = { baseUrl: next.baseUrl.replace(/\/+$/, ''), digestAfter: next.digestAfter ?? DIGEST_AFTER };
+  settings = { baseUrl: next.baseUrl.replace(/\/+$/, ''), digestAfter: next.digestAfter ?? DIGEST_AFTER, digestWindowMs: next.digestWindowMs ?? DIGEST_WINDOW_MS };
 }
 
 export function notificationSettings(): NotificationSettings {
@@ -70,14 +72,14 @@ async function digestTimes(manager: EntityManager, userIds: number[], nowMs: num
   if (userIds.length === 0) return new Map();
   const recent = await manager.getRepository(MailOutboxEntity).find({
     select: { id: true, userId: true, digest: true, status: true, nextAttemptAt: true, attempts: true },
-    where: { userId: In(userIds), createdAt: MoreThan(new Date(nowMs - DIGEST_WINDOW_MS).toISOString()) },
+    where: { userId: In(userIds), createdAt: MoreThan(new Date(nowMs - settings.digestWindowMs).toISOString()) },
   });
   const times = new Map<number, string>();
   for (const userId of userIds) {
     const mine = recent.filter((row) => row.userId === userId);
     if (mine.length < settings.digestAfter) continue;
     const waiting = mine.filter((row) => row.digest && row.status === 'pending' && row.attempts === 0).map((row) => row.nextAttemptAt).sort()[0];
-    times.set(userId, waiting ?? new Date(nowMs + DIGEST_WINDOW_MS).toISOString());
+    times.set(userId, waiting ?? new Date(nowMs + settings.digestWindowMs).toISOString());
   }
   return times;
 }
