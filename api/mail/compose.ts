@@ -80,7 +80,7 @@ function plainFacts(facts: MessageFacts): MessageFacts {
 
 /**
  * Subject and text of one message to one person; `because` says why they get it. User text is
- * data: titles and names stay on one line (the subject is a mail header), reasons and comments
+ * data: titles and names stay on one line and out of the subject (a mail header), reasons and comments
  * are indented line by line, every control character and bidi control blanked.
  */
 export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: string, because: string): ComposedMessage {
@@ -171,8 +171,8 @@ export interface DigestEntry {
   link: string | null;
 }
 
-/** Control characters, line and paragraph separators: a listed line stays one line. */
-const oneLine = (text: string) => text.replace(/[\u0000-\u001f\u007f-\u009f\u2028\u2029]+/g, ' ').trim();
+/** A listed line stays one line: control characters, separators and bidi controls blanked. */
+const oneLine = (text: string) => singleLine(text).trim();
 
 /** The sentence that says what happened: the body's first line after the greeting. */
 export function summaryOf(body: string): string {
