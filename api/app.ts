@@ -52,6 +52,8 @@ export interface AppDeps {
    * beside a SQLite file; for an in-memory database a temporary folder removed by closeApp.
    */
   uploadsDir?: string;
+  /** Proposals one person may ask for per minute (default PROPOSALS_PER_MINUTE; LONGTAIL_PROPOSALS_PER_MINUTE in server.ts). */
+  proposalsPerMinute?: number;
 }
 
 export interface LongtailApp extends Express {
@@ -118,7 +120,7 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.use('/api/projects', projectsRoutes(deps.dataSource));
   app.use('/api/projects/:projectId/devices', devicesRoutes(deps.dataSource));
   app.use('/api/projects', batchRoutes(deps.dataSource));
-  app.use('/api/specs', specsRoutes(deps.dataSource, deps.ruleSet));
+  app.use('/api/specs', specsRoutes(deps.dataSource, deps.ruleSet, deps.proposalsPerMinute));
   const verification =
     deps.verification ?? new VerificationQueue(deps.dataSource, { log: deps.log, singleInstance: deps.dataSource.options.type === 'better-sqlite3' });
   app.verification = verification;

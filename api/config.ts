@@ -6,6 +6,7 @@ import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { DEFAULT_POOL_SIZE } from './data-source';
+import { PROPOSALS_PER_MINUTE } from './services/proposal-rate';
 
 export interface Config {
   port: number;
@@ -23,6 +24,8 @@ export interface Config {
   production: boolean;
   /** Seed the demo organisation on an empty database (default: on unless production). */
   seedDemo: boolean;
+  /** LONGTAIL_PROPOSALS_PER_MINUTE: proposals one person may ask for per minute (default PROPOSALS_PER_MINUTE). */
+  proposalsPerMinute: number;
   demoPassword: string;
   /** Production: the first admin, created on an empty database. */
   firstAdmin: { email: string; password: string } | null;
@@ -104,6 +107,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const smtp = smtpSettings(env, problems);
   const localSmtpPort = Number(env.LONGTAIL_LOCAL_SMTP_PORT ?? DEFAULT_LOCAL_SMTP_PORT);
   if (!Number.isInteger(localSmtpPort) || localSmtpPort < 0 || localSmtpPort > 65535) problems.push(`LONGTAIL_LOCAL_SMTP_PORT must be a port number or 0, got "${env.LONGTAIL_LOCAL_SMTP_PORT}"`);
+  const proposalsPerMinute = Number(env.LONGTAIL_PROPOSALS_PER_MINUTE ?? PROPOSALS_PER_MINUTE);
+  if (!Number.isInteger(proposalsPerMinute) || proposalsPerMinute < 1) problems.push(`LONGTAIL_PROPOSALS_PER_MINUTE must be a whole number of at least 1, got "${env.LONGTAIL_PROPOSALS_PER_MINUTE}"`);
   const baseUrl = (env.LONGTAIL_BASE_URL ?? `http://localhost:${port}`).replace(/\/+$/, '');
   if (!/^https?:\/\/[^/\s]+/.test(baseUrl)) problems.push(`LONGTAIL_BASE_URL must be an http(s) address, got "${env.LONGTAIL_BASE_URL}"`);
   if (problems.length > 0) throw new Error(`Configuration problems:\n- ${problems.join('\n- ')}`);
@@ -117,6 +122,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     sessionSecret,
     uploadsDir: resolve(env.LONGTAIL_UPLOADS_DIR?.trim() || join(dirname(databasePath), 'uploads')),
     production,
+    proposalsPerMinute,
     seedDemo: env.LONGTAIL_SEED !== undefined ? env.LONGTAIL_SEED === 'true' : !production,
     demoPassword,
     firstAdmin: adminEmail && adminPassword ? { email: adminEmail, password: adminPassword } : null,

@@ -15,6 +15,7 @@ interface HttpishError {
 export function errorHandler(log: (message: string) => void = (m) => console.error(m)): ErrorRequestHandler {
   return (error, _req, res, _next) => {
     if (error instanceof AppError) {
+      res.set(error.headers);
       res.status(error.status).json({ error: error.message, code: error.code, details: error.details });
       return;
     }

@@ -13,6 +13,8 @@ export class AppError extends Error {
   readonly code: string;
   readonly status: number;
   readonly details: ErrorDetail[];
+  /** Response headers the answer carries (e.g. Retry-After on a 429). */
+  headers: Record<string, string> = {};
 
   constructor(code: string, status: number, message: string, details: ErrorDetail[] = []) {
     super(message);

@@ -39,14 +39,14 @@ if (mailTarget) {
   console.log(`Notifications go to ${describeMailTarget(mailTarget)}${localSmtp ? ' (admins read them on the Mail page)' : ''}`);
 }
 if (config.seedDemo && (await seedDemo(dataSource, ruleSet, config.demoPassword))) {
-  console.log(`Seeded the demo organisation: sign in as admin|requirements|designer|reviewer@${DEMO_DOMAIN}`);
+  console.log(`Seeded the demo organisation: sign in as admin|requirements|designer|reviewer|lead@${DEMO_DOMAIN}`);
 }
 if (config.firstAdmin && (await seedFirstAdmin(dataSource, config.firstAdmin))) console.log(`Created the first administrator, ${config.firstAdmin.email}`);
 
 const webDir = resolve('dist/web');
 const staticDir = existsSync(join(webDir, 'index.html')) ? webDir : undefined;
 if (!staticDir) console.log('No built browser app in dist/web (npm run build): serving the API only.');
-const app = createApp({ dataSource, sessionSecret: config.sessionSecret, ruleSet, trustProxy: config.trustProxy, staticDir, uploadsDir: config.uploadsDir });
+const app = createApp({ dataSource, sessionSecret: config.sessionSecret, ruleSet, trustProxy: config.trustProxy, staticDir, uploadsDir: config.uploadsDir, proposalsPerMinute: config.proposalsPerMinute });
 const server = app.listen(config.port, () => {
   console.log(`Longtail listening on http://localhost:${config.port} (database ${describeDatabase(config.database)})`);
   // Start the SPICE engine now, in its own thread, so the first verification does not wait for it.

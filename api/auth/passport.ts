@@ -5,7 +5,7 @@
 import passport from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { DataSource } from 'typeorm';
-import { findUserById, findUserForSignIn, publicUser } from '../services/users.service';
+import { findSessionUser, findUserForSignIn, publicUser, sessionUser } from '../services/users.service';
 import { DUMMY_HASH_PROMISE, verifyPassword } from './password';
 
 export function configurePassport(dataSource: DataSource): passport.PassportStatic {
@@ -15,13 +15,13 @@ export function configurePassport(dataSource: DataSource): passport.PassportStat
       (async () => {
         const user = await findUserForSignIn(dataSource, email);
         const ok = await verifyPassword(password, user?.passwordHash ?? (await DUMMY_HASH_PROMISE));
-        return user && ok ? publicUser(user) : false;
+        return user && ok ? sessionUser(dataSource, publicUser(user)) : false;
       })().then((user) => done(null, user), done);
     }),
   );
   instance.serializeUser((user, done) => done(null, user.id));
   instance.deserializeUser((id: number, done) => {
-    findUserById(dataSource, id).then((user) => done(null, user ?? false), done);
+    findSessionUser(dataSource, id).then((user) => done(null, user ?? false), done);
   });
   return instance;
 }

@@ -1,10 +1,13 @@
 /**
- * Access checks in one place: signed in (401), and the role's permission (403) from the shared
- * permission table. Project visibility (404 outside your projects) lives in the services.
+ * Access checks at the route: signed in (401), and the permission (403) from the shared table.
+ * An administrator's action needs the administrator role; an action on a project's records needs
+ * a role that may take it in at least one of the person's projects, and the service then checks
+ * the role held in the project the record belongs to (`projectFor` with the action: 404 outside
+ * your projects, 403 when your role there may not).
  */
 import type { RequestHandler } from 'express';
 import type {} from 'passport';
-import { may, type Action } from '../../shared/workflow/roles';
+import { mayAnywhere, type Action } from '../../shared/workflow/roles';
 import type { User } from '../entities/user.entity';
 import { AppError, forbidden } from '../errors';
 
@@ -16,9 +19,11 @@ declare global {
       id: number;
       email: string;
       displayName: string;
-      role: import('../../shared/workflow/roles').Role;
+      role: import('../../shared/workflow/roles').AccountRole;
       notify: boolean;
       createdAt: string;
+      /** The role held in each project the person belongs to (loaded with the session). */
+      projectRoles: import('../../shared/workflow/roles').ProjectRoleOf[];
     }
   }
 }
@@ -28,11 +33,11 @@ export const requireSignIn: RequestHandler = (req, _res, next) => {
   next();
 };
 
-/** Signed in, and the role may take `action`. */
+/** Signed in, and a role the person holds may take `action` (the project's own role is checked by the service). */
 export function requirePermission(action: Action): RequestHandler {
   return (req, _res, next) => {
     if (!req.user) return next(new AppError('not-signed-in', 401, 'Sign in first.'));
-    if (!may(req.user.role, action)) return next(forbidden(`The ${req.user.role} role cannot do this (${action}).`));
+    if (!mayAnywhere(req.user.role, req.user.projectRoles ?? [], action)) return next(forbidden(`None of your roles can do this (${action}).`));
     next();
   };
 }

@@ -27,6 +27,10 @@ export interface MailOutbox {
   nextAttemptAt: string;
   lastError: string | null;
   sentAt: string | null;
+  /** Held to go out in one digest with the person's other held rows (more than a few within a minute). */
+  digest: boolean;
+  /** The page the message points to (the proposal), listed by a digest. */
+  link: string | null;
 }
 
 export const MailOutboxEntity = new EntitySchema<MailOutbox>({
@@ -48,5 +52,7 @@ export const MailOutboxEntity = new EntitySchema<MailOutbox>({
     nextAttemptAt: timestampColumn('next_attempt_at'),
     lastError: { ...textColumn(true), name: 'last_error' },
     sentAt: { ...timestampColumn('sent_at'), nullable: true },
+    digest: { type: 'boolean', default: false },
+    link: shortTextColumn(500, true),
   },
 });

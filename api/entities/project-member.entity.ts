@@ -1,10 +1,13 @@
 import { EntitySchema } from 'typeorm';
-import { foreignKeyColumn, idColumn, timestampColumn } from './columns';
+import type { ProjectRole } from '../../shared/workflow/roles';
+import { foreignKeyColumn, idColumn, shortTextColumn, timestampColumn } from './columns';
 
 export interface ProjectMember {
   id: number;
   projectId: number;
   userId: number;
+  /** The role the person holds in this project; null for an administrator's membership from before roles per project. */
+  role: ProjectRole | null;
   createdAt: string;
 }
 
@@ -15,6 +18,7 @@ export const ProjectMemberEntity = new EntitySchema<ProjectMember>({
     id: idColumn,
     projectId: foreignKeyColumn('project_id'),
     userId: foreignKeyColumn('user_id'),
+    role: shortTextColumn(20, true),
     createdAt: timestampColumn('created_at'),
   },
   uniques: [{ name: 'uq_project_member', columns: ['projectId', 'userId'] }],

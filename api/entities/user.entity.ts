@@ -1,12 +1,13 @@
 import { EntitySchema } from 'typeorm';
-import type { Role } from '../../shared/workflow/roles';
+import type { AccountRole } from '../../shared/workflow/roles';
 import { idColumn, shortTextColumn, timestampColumn } from './columns';
 
 export interface User {
   id: number;
   email: string;
   displayName: string;
-  role: Role;
+  /** Global: administrator or member; what a member may do in a project is the membership's role. */
+  role: AccountRole;
   passwordHash: string;
   /** E-mail notifications about the workflow (on unless the person turns them off). */
   notify: boolean;

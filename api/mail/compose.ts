@@ -1,7 +1,9 @@
 /**
  * The text of every notification, in one place: plain text, our own words. Each message names
  * the proposal, the spec title and version, the project, who did what and their reason or
- * comment, links to the proposal, and ends with the estimates notice. Pure: no I/O.
+ * comment, links to the proposal, and ends with the estimates notice. Subjects carry only our
+ * words and numbers: user text (titles, names, comments) stays in the body, never in a header.
+ * A digest puts several messages to one person into one. Pure: no I/O.
  */
 import { topologyName } from '../../shared/engine/topology-names';
 import { ESTIMATE_NOTICE } from '../../shared/engine/version';
@@ -101,19 +103,19 @@ function plainFacts(facts: MessageFacts): MessageFacts {
 
 /**
  * Subject and text of one message to one person; `because` says why they get it. User text is
- * data: titles and names stay on one line (the subject is a mail header), reasons and comments
+ * data: titles and names stay on one line and out of the subject (a mail header), reasons and comments
  * are indented line by line, every control character and bidi control blanked.
  */
 export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: string, because: string): ComposedMessage {
   const facts = plainFacts(unsafeFacts);
   const recipientName = singleLine(unsafeRecipientName);
   const name = `proposal #${facts.proposalId}`;
-  const spec = `${facts.specTitle} (version ${facts.specVersion})`;
+  const spec = `spec version ${facts.specVersion}`;
   let subject: string;
   let body: string[];
   switch (facts.kind) {
     case 'proposal.ready':
-      subject = `Proposal #${facts.proposalId} waits for a decision: ${spec}`;
+      subject = `Proposal #${facts.proposalId} waits for a decision (${spec})`;
       body = [
         `${facts.rankedBy} had the tail options ranked, and ${name} now waits for a designer's decision.`,
         '',
@@ -125,7 +127,7 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
       ];
       break;
     case 'proposal.decided':
-      subject = `Proposal #${facts.proposalId} decided, waiting for review: ${spec}`;
+      subject = `Proposal #${facts.proposalId} decided, waiting for review (${spec})`;
       body = [
         `${facts.decision.decidedBy} decided ${name}: ${decisionSentence(facts.decision)}.`,
         ...(facts.decisionNumber > 1 ? [`This is decision ${facts.decisionNumber} on it, after it was sent back for rework.`] : []),
@@ -139,7 +141,7 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
       ];
       break;
     case 'proposal.approved':
-      subject = `Proposal #${facts.proposalId} signed off: ${spec}`;
+      subject = `Proposal #${facts.proposalId} signed off (${spec})`;
       body = [
         `${facts.reviewedBy} signed off ${name}.`,
         ...designLine('Signed-off design', facts.decision),
@@ -155,7 +157,7 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
       ];
       break;
     case 'proposal.returned':
-      subject = `Proposal #${facts.proposalId} sent back for rework: ${spec}`;
+      subject = `Proposal #${facts.proposalId} sent back for rework (${spec})`;
       body = [
         `${facts.reviewedBy} sent ${name} back for rework; it waits for a new decision.`,
         ...designLine('Design sent back', facts.decision),
@@ -180,4 +182,45 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
     '',
   ].join('\n');
   return { subject: subject.length > 300 ? `${subject.slice(0, 299)}…` : subject, text };
+}
+
+/**
+ * Messages to one person beyond this many within DIGEST_WINDOW_MS are held and go out together
+ * as one digest at the end of the window: nobody gets a burst of e-mails from one busy minute.
+ */
+export const DIGEST_AFTER = 3;
+export const DIGEST_WINDOW_MS = 60_000;
+
+/** One held message as the digest lists it: what happened (the message's subject line and opening line) and its page. */
+export interface DigestEntry {
+  subject: string;
+  /** The message's first sentence after the greeting (who did what). */
+  summary: string;
+  link: string | null;
+}
+
+/** A listed line stays one line: control characters, separators and bidi controls blanked. */
+const oneLine = (text: string) => singleLine(text).trim();
+
+/** The sentence that says what happened: the body's first line after the greeting. */
+export function summaryOf(body: string): string {
+  const lines = body.split('\n');
+  return oneLine(lines.find((line, i) => i > 0 && line.trim() !== '') ?? '');
+}
+
+/** One e-mail for several held messages to one person, each with its link; the subject is ours alone. */
+export function composeDigest(entries: readonly DigestEntry[], recipientName: string, profileLink: string): ComposedMessage {
+  const items = entries.flatMap((entry, i) => [`${i + 1}. ${oneLine(entry.subject)}`, ...(entry.summary ? [`   ${entry.summary}`] : []), ...(entry.link ? [`   ${oneLine(entry.link)}`] : []), '']);
+  const text = [
+    `Hello ${oneLine(recipientName)},`,
+    '',
+    `${entries.length} workflow updates came for you within about a minute, so here they are in one e-mail:`,
+    '',
+    ...items,
+    `You get these e-mails because you work on these projects. Turn them off on your profile: ${profileLink}`,
+    '',
+    ESTIMATE_NOTICE,
+    '',
+  ].join('\n');
+  return { subject: `Longtail: ${entries.length} workflow updates`, text };
 }

@@ -8,12 +8,18 @@
  * on PostgreSQL (several app instances) the due rows are selected `FOR UPDATE SKIP LOCKED` and
  * leased in one short transaction, so each instance takes rows no other instance holds.
  *
+ * Rows held for a digest (api/mail/compose.ts: more than DIGEST_AFTER messages to one person within
+ * DIGEST_WINDOW_MS) go out together: one e-mail per person listing each held message with its
+ * link, claimed, sent and marked as one. Headers carry only our words, numbers and the address:
+ * names, titles and comments stay in the body.
+ *
  * Started by server.ts (never by createApp); tests start it explicitly.
  */
 import { In, LessThanOrEqual, type DataSource } from 'typeorm';
 import type { SendMailOptions } from 'nodemailer';
 import { isPostgres } from '../data-source';
 import { MailOutboxEntity, type MailOutbox } from '../entities/mail-outbox.entity';
+import { composeDigest, summaryOf } from './compose';
 
 /** What the worker needs of a nodemailer transport. */
 export interface MailSender {
@@ -70,6 +76,14 @@ export function retryDelayMs(attempts: number, baseMs: number, maxMs: number): n
 }
 
 const iso = (ms: number) => new Date(ms).toISOString();
+/** The profile page beside a message's link (same site): where a person turns these e-mails off. */
+const profileLinkOf = (link: string | null) => {
+  try {
+    return link ? `${new URL(link).origin}/profile` : '/profile';
+  } catch {
+    return '/profile';
+  }
+};
 const errorText = (error: unknown) => (error instanceof Error ? error.message : String(error)).slice(0, 1000);
 
 export function createOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
@@ -91,7 +105,7 @@ export function createOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
     try {
       await transport.sendMail({
         from,
-        to: { name: row.toName, address: row.toAddress },
+        to: row.toAddress,
         subject: row.subject,
         text: row.body,
         // The same id on every attempt: a receiver can drop a repeat after an unclear failure.
@@ -110,6 +124,44 @@ export function createOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
     }
     await repository().update({ id: row.id }, { status: 'sent', sentAt: iso(Date.now()), attempts: row.attempts + 1, lastError: null });
     return 'sent';
+  }
+
+  /** Claims the held rows (those nobody else took; all of them when already leased) and sends them as one digest. */
+  async function attemptDigest(rows: MailOutbox[], leased: boolean): Promise<{ sent: number; failed: number }> {
+    const mine: MailOutbox[] = [];
+    for (const row of rows) {
+      if (leased) mine.push(row);
+      else if ((await repository().update({ id: row.id, status: 'pending', nextAttemptAt: row.nextAttemptAt }, { nextAttemptAt: iso(Date.now() + settings.leaseMs) })).affected) mine.push(row);
+    }
+    if (mine.length === 0) return { sent: 0, failed: 0 };
+    const ids = mine.map((row) => row.id);
+    const first = mine[0];
+    const { subject, text } = composeDigest(
+      mine.map((row) => ({ subject: row.subject, summary: summaryOf(row.body), link: row.link })),
+      first.toName,
+      profileLinkOf(mine.find((row) => row.link)?.link ?? null),
+    );
+    const attempts = Math.max(...mine.map((row) => row.attempts)) + 1;
+    try {
+      await transport.sendMail({
+        from,
+        to: first.toAddress,
+        subject,
+        text,
+        messageId: `<outbox-digest-${ids.join('-')}.${Date.parse(first.createdAt)}@${domain}>`,
+        headers: { 'X-Longtail-Outbox-Id': String(first.id), 'X-Longtail-Digest-Of': ids.join(',') },
+      });
+    } catch (error) {
+      const gaveUp = attempts >= settings.maxAttempts;
+      await repository().update(
+        { id: In(ids) },
+        { attempts, lastError: errorText(error), status: gaveUp ? 'failed' : 'pending', nextAttemptAt: iso(Date.now() + retryDelayMs(attempts, settings.retryBaseMs, settings.retryMaxMs)) },
+      );
+      log(`Digest to ${first.toAddress} (outbox #${ids.join(', #')}) not sent, attempt ${attempts}${gaveUp ? ', giving up' : ''}: ${errorText(error)}`);
+      return { sent: 0, failed: mine.length };
+    }
+    await repository().update({ id: In(ids) }, { status: 'sent', sentAt: iso(Date.now()), attempts, lastError: null });
+    return { sent: mine.length, failed: 0 };
   }
 
   /**
@@ -144,13 +196,30 @@ export function createOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
           take: settings.batchSize,
         });
     const counts: OutboxRun = { sent: 0, failed: 0 };
-    for (const [index, row] of due.entries()) {
+    // One unit per single message, one per person's held rows (their digest), oldest first.
+    const units: MailOutbox[][] = [];
+    const digests = new Map<string, MailOutbox[]>();
+    for (const row of due) {
+      if (!row.digest) units.push([row]);
+      else {
+        const key = row.userId === null ? `address:${row.toAddress}` : `user:${row.userId}`;
+        if (!digests.has(key)) units.push(digests.set(key, []).get(key)!);
+        digests.get(key)!.push(row);
+      }
+    }
+    for (const [index, unit] of units.entries()) {
       if (stopped) {
         // Leased rows not tried: give them back at once rather than after the lease.
-        if (leased) await repository().update({ id: In(due.slice(index).map((r) => r.id)), status: 'pending' }, { nextAttemptAt: iso(Date.now()) }).catch(() => undefined);
+        if (leased) await repository().update({ id: In(units.slice(index).flat().map((r) => r.id)), status: 'pending' }, { nextAttemptAt: iso(Date.now()) }).catch(() => undefined);
         break;
       }
-      const outcome = await attempt(row, leased);
+      if (unit[0].digest) {
+        const outcome = await attemptDigest(unit, leased);
+        counts.sent += outcome.sent;
+        counts.failed += outcome.failed;
+        continue;
+      }
+      const outcome = await attempt(unit[0], leased);
       if (outcome !== 'skipped') counts[outcome] += 1;
     }
     return counts;

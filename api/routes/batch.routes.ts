@@ -37,10 +37,10 @@ const receiveFile: RequestHandler = (req, res, next) => {
   });
 };
 
-/** 404 before the upload is read when the project is not the caller's. */
+/** 404 before the upload is read when the project is not the caller's, 403 when the caller's role there may not write specs. */
 function visibleProject(dataSource: DataSource): RequestHandler {
   return async (req, _res, next) => {
-    await projectFor(dataSource, currentUser(req), idParam(req.params.id, 'project'));
+    await projectFor(dataSource, currentUser(req), idParam(req.params.id, 'project'), 'specs:write');
     next();
   };
 }

@@ -24,7 +24,7 @@ export function projectsRoutes(dataSource: DataSource): Router {
     res.json({ items: await listMembers(dataSource, currentUser(req), idParam(req.params.id, 'project')) });
   });
   router.post('/:id/members', requirePermission('members:manage'), validateBody(MEMBERSHIP_BODY), async (req, res) => {
-    res.status(201).json(await addMember(dataSource, currentUser(req), idParam(req.params.id, 'project'), req.body.userId));
+    res.status(201).json(await addMember(dataSource, currentUser(req), idParam(req.params.id, 'project'), req.body.userId, req.body.role));
   });
   router.delete('/:id/members/:userId', requirePermission('members:manage'), async (req, res) => {
     await removeMember(dataSource, currentUser(req), idParam(req.params.id, 'project'), idParam(req.params.userId, 'member'));

@@ -1,6 +1,7 @@
 /**
  * The demo organisation, seeded on an empty database for the local run: Fernhollow Instruments
- * (invented), four accounts, one per role, three projects with specs in different states and
+ * (invented), five accounts (an administrator, a systems engineer, a designer, a reviewer, and a
+ * lead who designs in one project and reviews in another), three projects with specs in different states and
  * proposals through the workflow, and a small device library (invented NPN .model cards) in the
  * load-cell project. Everything goes through the services, so the audit trail is real.
  */
@@ -9,7 +10,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { DataSource } from 'typeorm';
 import type { RuleSet } from '../../shared/engine/types';
-import type { Role } from '../../shared/workflow/roles';
+import type { AccountRole, ProjectRole } from '../../shared/workflow/roles';
 import { UserEntity } from '../entities/user.entity';
 import { uploadDeviceModels } from '../services/devices.service';
 import { addMember, createProject } from '../services/projects.service';
@@ -19,11 +20,15 @@ import { createUser, type PublicUser } from '../services/users.service';
 
 export const DEMO_DOMAIN = 'demo.longtail.test';
 
-const DEMO_PEOPLE: { role: Role; displayName: string }[] = [
-  { role: 'admin', displayName: 'Ines Okafor-Lind' },
-  { role: 'requirements', displayName: 'Tomasz Rehn' },
-  { role: 'designer', displayName: 'Priya Valcourt' },
-  { role: 'reviewer', displayName: 'Samir Edelstein' },
+type DemoKey = 'admin' | ProjectRole | 'lead';
+
+/** The demo accounts: e-mail `<key>@demo.longtail.test`, the account's own role, and who they are. */
+const DEMO_PEOPLE: { key: DemoKey; role: AccountRole; displayName: string }[] = [
+  { key: 'admin', role: 'admin', displayName: 'Ines Okafor-Lind' },
+  { key: 'requirements', role: 'member', displayName: 'Tomasz Rehn' },
+  { key: 'designer', role: 'member', displayName: 'Priya Valcourt' },
+  { key: 'reviewer', role: 'member', displayName: 'Samir Edelstein' },
+  { key: 'lead', role: 'member', displayName: 'Wren Halloway-Ito' },
 ];
 
 const demoDir = join(fileURLToPath(new URL('.', import.meta.url)), '..', 'demo');
@@ -35,14 +40,16 @@ const demoSpec = (file: string) => JSON.parse(readFileSync(join(specsDir, file),
 /** Seeds the demo when the database has no account yet. Returns false when it had one. */
 export async function seedDemo(dataSource: DataSource, ruleSet: RuleSet, password: string): Promise<boolean> {
   if ((await dataSource.getRepository(UserEntity).count()) > 0) return false;
-  const people = {} as Record<Role, PublicUser>;
+  const people = {} as Record<DemoKey, PublicUser>;
   for (const person of DEMO_PEOPLE) {
-    people[person.role] = await createUser(dataSource, null, { email: `${person.role}@${DEMO_DOMAIN}`, displayName: person.displayName, role: person.role, password });
+    people[person.key] = await createUser(dataSource, null, { email: `${person.key}@${DEMO_DOMAIN}`, displayName: person.displayName, role: person.role, password });
   }
   const admin = people.admin;
-  const project = async (name: string, description: string) => {
+  /** A project with the systems engineer, the designer and the reviewer in their usual roles, and any others with the role they hold there. */
+  const project = async (name: string, description: string, others: [DemoKey, ProjectRole][] = []) => {
     const created = await createProject(dataSource, admin.id, { name, description });
-    for (const role of ['requirements', 'designer', 'reviewer'] as const) await addMember(dataSource, admin, created.id, people[role].id);
+    for (const role of ['requirements', 'designer', 'reviewer'] as const) await addMember(dataSource, admin, created.id, people[role].id, role);
+    for (const [key, role] of others) await addMember(dataSource, admin, created.id, people[key].id, role);
     return created;
   };
 
@@ -58,13 +65,14 @@ export async function seedDemo(dataSource: DataSource, ruleSet: RuleSet, passwor
   await review(dataSource, people.reviewer, bridgeProposal.id, { verdict: 'approve', comment: 'Margins hold at the hot corner; matches the bench notes from the rev A board.' });
 
   // 2. Studio interface: ranked, waiting for the designer.
-  const studio = await project('Larkspur studio interface', 'Balanced line receiver ahead of the monitor path.');
+  // Wren designs here and reviews on the biosignal front end: roles are per project.
+  const studio = await project('Larkspur studio interface', 'Balanced line receiver ahead of the monitor path.', [['lead', 'designer']]);
   const line = demoSpec('studio-line-receiver.json');
   const lineSpec = await createSpec(dataSource, people.requirements, studio.id, { title: line.title, payload: line });
   await createProposal(dataSource, people.requirements, lineSpec.id, ruleSet);
 
   // 3. Biosignal front end: an override, returned by the reviewer for another look.
-  const biosignal = await project('Marram biosignal front end', 'Electrode amplifier input pair for the bench prototype (not for patient use).');
+  const biosignal = await project('Marram biosignal front end', 'Electrode amplifier input pair for the bench prototype (not for patient use).', [['lead', 'reviewer']]);
   const electrode = demoSpec('electrode-amplifier-input.json');
   const electrodeSpec = await createSpec(dataSource, people.requirements, biosignal.id, { title: electrode.title, payload: electrode });
   const electrodeProposal = await createProposal(dataSource, people.designer, electrodeSpec.id, ruleSet);

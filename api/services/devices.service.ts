@@ -142,7 +142,7 @@ export function safeFileName(original: string): string {
  * 409 when a card's name is taken in the project. Answers the stored cards.
  */
 export async function uploadDeviceModels(dataSource: DataSource, actor: Viewer, projectId: number, file: UploadedModelFile): Promise<DeviceModelView[]> {
-  await projectFor(dataSource, actor, projectId);
+  await projectFor(dataSource, actor, projectId, 'devices:write');
   const fileName = safeFileName(file.originalName);
   const result = readModelFile(file.bytes);
   if (!result.ok) {
@@ -254,7 +254,7 @@ async function retire(manager: EntityManager, row: DeviceModel, actor: Viewer, r
  * the viewer's projects, 409 when it has already left the library.
  */
 export async function removeDeviceModel(dataSource: DataSource, actor: Viewer, projectId: number, deviceId: number): Promise<void> {
-  await projectFor(dataSource, actor, projectId);
+  await projectFor(dataSource, actor, projectId, 'devices:write');
   await dataSource.transaction(async (manager) => {
     const row = await libraryCardRow(manager, projectId, deviceId, 'removed');
     await retire(manager, row, actor, 'removed', new Date().toISOString());
@@ -278,7 +278,7 @@ export async function removeDeviceModel(dataSource: DataSource, actor: Viewer, p
  * library; the quota of stored texts applies. Answers the new card and the replaced one.
  */
 export async function replaceDeviceModel(dataSource: DataSource, actor: Viewer, projectId: number, deviceId: number, file: UploadedModelFile): Promise<{ item: DeviceModelView; replaced: DeviceModelView }> {
-  await projectFor(dataSource, actor, projectId);
+  await projectFor(dataSource, actor, projectId, 'devices:write');
   const fileName = safeFileName(file.originalName);
   const result = readModelFile(file.bytes);
   if (!result.ok) {

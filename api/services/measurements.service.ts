@@ -253,7 +253,7 @@ export async function uploadMeasurement(
   file: UploadedMeasurementFile,
   note: string | null,
 ): Promise<MeasurementView> {
-  const proposal = await proposalFor(dataSource, actor, proposalId);
+  const proposal = await proposalFor(dataSource, actor, proposalId, 'measurements:write');
   if (!MEASURABLE_STATES.includes(proposal.status)) {
     throw new AppError(
       'not-decided',
@@ -280,7 +280,7 @@ export async function uploadMeasurement(
     // Read again inside the transaction: the decision in force is the one measured. PostgreSQL:
     // uploads to one project one after the other, so two at once cannot both pass the quota.
     await lockRowForUpdate(manager, ProjectEntity, proposal.projectId);
-    const current = await proposalFor(manager, actor, proposalId);
+    const current = await proposalFor(manager, actor, proposalId, 'measurements:write');
     await checkQuotas(manager, current, adding);
     const decision = await manager.getRepository(DecisionEntity).findOne({ where: { proposalId }, order: { id: 'DESC' } });
     if (!decision || !MEASURABLE_STATES.includes(current.status)) throw new AppError('not-decided', 409, `Proposal ${proposalId} has no decision in force: there is no design to measure.`);

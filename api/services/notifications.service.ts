@@ -12,7 +12,7 @@
  * - a review: the spec's author (and the author of the ranked version, when another person)
  *   and the designer whose decision was reviewed ("approved" / "returned").
  */
-import { In, type DataSource, type EntityManager } from 'typeorm';
+import { In, MoreThan, type DataSource, type EntityManager } from 'typeorm';
 import { DecisionEntity, type Decision } from '../entities/decision.entity';
 import { MailMessageEntity } from '../entities/mail-message.entity';
 import { MailOutboxEntity, type MailOutbox, type OutboxStatus } from '../entities/mail-outbox.entity';
@@ -24,7 +24,7 @@ import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { SpecEntity } from '../entities/spec.entity';
 import { UserEntity, type User } from '../entities/user.entity';
 import type { Mailbox } from '../../shared/mail/types';
-import { composeMessage, type DecisionFacts, type MessageFacts, type NotificationKind, type ProposalFacts } from '../mail/compose';
+import { composeMessage, DIGEST_AFTER, DIGEST_WINDOW_MS, type DecisionFacts, type MessageFacts, type NotificationKind, type ProposalFacts } from '../mail/compose';
 
 export type NotificationEvent =
   | { kind: 'proposal.ready'; proposalId: number; actorId: number }
@@ -34,20 +34,24 @@ export type NotificationEvent =
 export interface NotificationSettings {
   /** Where links in messages point (the app's public address, no trailing slash). */
   baseUrl: string;
+  /** Messages to one person within the digest window sent one by one before the rest wait for a digest (default DIGEST_AFTER). */
+  digestAfter?: number;
+  /** The digest window, ms (default DIGEST_WINDOW_MS). */
+  digestWindowMs?: number;
 }
 
-let settings: NotificationSettings = { baseUrl: 'http://localhost:3000' };
+let settings: Required<NotificationSettings> = { baseUrl: 'http://localhost:3000', digestAfter: DIGEST_AFTER, digestWindowMs: DIGEST_WINDOW_MS };
 
-/** Sets the public address for links (server.ts, from LONGTAIL_BASE_URL / PORT). */
+/** Sets the public address for links (server.ts, from LONGTAIL_BASE_URL / PORT), and the digest threshold and window (tests). */
 export function configureNotifications(next: NotificationSettings): void {
-  settings = { baseUrl: next.baseUrl.replace(/\/+$/, '') };
+  settings = { baseUrl: next.baseUrl.replace(/\/+$/, ''), digestAfter: next.digestAfter ?? DIGEST_AFTER, digestWindowMs: next.digestWindowMs ?? DIGEST_WINDOW_MS };
 }
 
 export function notificationSettings(): NotificationSettings {
   return settings;
 }
 
-type Member = Pick<User, 'id' | 'email' | 'displayName' | 'role' | 'notify'>;
+type Member = Pick<User, 'id' | 'email' | 'displayName' | 'notify'>;
 
 /** Largest decision or review text quoted in a message (the rest is on the proposal's page). */
 const MAX_QUOTE = 2000;
@@ -57,6 +61,27 @@ function decisionFacts(decision: Decision, recommended: string | null, decidedBy
   let passes: boolean | undefined;
   if (decision.kind === 'override' && decision.evaluation) passes = (JSON.parse(decision.evaluation) as { passes?: boolean }).passes;
   return { kind: decision.kind, topology: decision.topology, recommended, reason: quote(decision.reason), passes, decidedBy };
+}
+
+/**
+ * For each recipient who had DIGEST_AFTER or more messages within DIGEST_WINDOW_MS: when the new
+ * message goes out with their digest (the time of the digest already waiting, else the end of the
+ * window from now). Others are missing from the map and are sent at once.
+ */
+async function digestTimes(manager: EntityManager, userIds: number[], nowMs: number): Promise<Map<number, string>> {
+  if (userIds.length === 0) return new Map();
+  const recent = await manager.getRepository(MailOutboxEntity).find({
+    select: { id: true, userId: true, digest: true, status: true, nextAttemptAt: true, attempts: true },
+    where: { userId: In(userIds), createdAt: MoreThan(new Date(nowMs - settings.digestWindowMs).toISOString()) },
+  });
+  const times = new Map<number, string>();
+  for (const userId of userIds) {
+    const mine = recent.filter((row) => row.userId === userId);
+    if (mine.length < settings.digestAfter) continue;
+    const waiting = mine.filter((row) => row.digest && row.status === 'pending' && row.attempts === 0).map((row) => row.nextAttemptAt).sort()[0];
+    times.set(userId, waiting ?? new Date(nowMs + settings.digestWindowMs).toISOString());
+  }
+  return times;
 }
 
 /**
@@ -75,11 +100,13 @@ export async function queueNotification(manager: EntityManager, event: Notificat
   const version = await manager.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true, title: true, createdById: true }, where: { id: proposal.specVersionId } });
   const memberships = await manager.getRepository(ProjectMemberEntity).findBy({ projectId: proposal.projectId });
   const people = await manager.getRepository(UserEntity).find({
-    select: { id: true, email: true, displayName: true, role: true, notify: true },
+    select: { id: true, email: true, displayName: true, notify: true },
     where: { id: In([...new Set([...memberships.map((m) => m.userId), event.actorId])]) },
   });
   const byId = new Map<number, Member>(people.map((p) => [p.id, p]));
   const memberIds = new Set(memberships.map((m) => m.userId));
+  /** The role each member holds in this project: recipients are chosen by it. */
+  const projectRoleOf = new Map(memberships.map((m) => [m.userId, m.role]));
   const nameOf = (id: number) => byId.get(id)?.displayName ?? `account #${id}`;
   const members = people.filter((p) => memberIds.has(p.id));
 
@@ -100,12 +127,12 @@ export async function queueNotification(manager: EntityManager, event: Notificat
 
   if (event.kind === 'proposal.ready') {
     facts = { ...base, kind: event.kind, rankedBy: nameOf(event.actorId), recommended: proposal.recommendedTopology };
-    for (const member of members) if (member.role === 'designer') tell(member.id, `you design in ${inProject}`);
+    for (const member of members) if (projectRoleOf.get(member.id) === 'designer') tell(member.id, `you design in ${inProject}`);
   } else if (event.kind === 'proposal.decided') {
     const decision = await manager.getRepository(DecisionEntity).findOneByOrFail({ id: event.decisionId });
     const decisionNumber = await manager.getRepository(DecisionEntity).countBy({ proposalId: proposal.id });
     facts = { ...base, kind: event.kind, decision: decisionFacts(decision, proposal.recommendedTopology, nameOf(decision.decidedById)), decisionNumber };
-    for (const member of members) if (member.role === 'reviewer') tell(member.id, `you review in ${inProject}`);
+    for (const member of members) if (projectRoleOf.get(member.id) === 'reviewer') tell(member.id, `you review in ${inProject}`);
   } else {
     const review = await manager.getRepository(ReviewEntity).findOneByOrFail({ id: event.reviewId });
     const decision = await manager.getRepository(DecisionEntity).findOneByOrFail({ id: review.decisionId });
@@ -122,12 +149,20 @@ export async function queueNotification(manager: EntityManager, event: Notificat
     tell(decision.decidedById, 'you made the decision under review');
   }
 
-  const now = new Date().toISOString();
-  const rows: Omit<MailOutbox, 'id'>[] = [];
-  for (const [userId, reasons] of told) {
+  const nowMs = Date.now();
+  const now = new Date(nowMs).toISOString();
+  const recipients = [...told.keys()].filter((userId) => {
     const person = byId.get(userId);
-    if (!person || !memberIds.has(userId) || userId === event.actorId || !person.notify) continue;
+    return person && memberIds.has(userId) && userId !== event.actorId && person.notify;
+  });
+  const held = await digestTimes(manager, recipients, nowMs);
+  const rows: Omit<MailOutbox, 'id'>[] = [];
+  for (const userId of recipients) {
+    const person = byId.get(userId)!;
+    const reasons = told.get(userId)!;
     const { subject, text } = composeMessage(facts, person.displayName, reasons.join(' and '));
+    // Beyond DIGEST_AFTER messages within the window, the row waits for the person's digest.
+    const digestAt = held.get(userId) ?? null;
     rows.push({
       createdAt: now,
       kind: event.kind satisfies NotificationKind,
@@ -140,9 +175,11 @@ export async function queueNotification(manager: EntityManager, event: Notificat
       body: text,
       status: 'pending',
       attempts: 0,
-      nextAttemptAt: now,
+      nextAttemptAt: digestAt ?? now,
       lastError: null,
       sentAt: null,
+      digest: digestAt !== null,
+      link: base.link,
     });
   }
   if (rows.length === 0) return [];

@@ -1,31 +1,41 @@
 /**
  * Projects and memberships. Everybody sees only the projects they belong to (an admin sees
- * all); any other project answers 404, so its existence is never revealed.
+ * all); any other project answers 404, so its existence is never revealed. Each membership
+ * carries the role the person holds in that project, and `projectFor` with an action is where
+ * every write checks it.
  */
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { may } from '../../shared/workflow/roles';
-import { ProjectMemberEntity } from '../entities/project-member.entity';
+import { mayIn, ROLE_TITLES, type Action, type ProjectRole } from '../../shared/workflow/roles';
+import { ProjectMemberEntity, type ProjectMember } from '../entities/project-member.entity';
 import { ProjectEntity, type Project } from '../entities/project.entity';
 import { UserEntity } from '../entities/user.entity';
-import { AppError, notFound } from '../errors';
+import { AppError, forbidden, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { publicUser, type PublicUser } from './users.service';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
-/** The project if the viewer may see it, else a 404. */
-export async function projectFor(manager: EntityManager | DataSource, viewer: Viewer, projectId: number): Promise<Project> {
+/** The refusal when the role held in the record's project may not take the action. */
+function forbiddenInProject(role: ProjectRole | null, action: Action) {
+  return forbidden(role ? `Your role in this project (${ROLE_TITLES[role]}) cannot do this (${action}).` : `You hold no role in this project that can do this (${action}).`);
+}
+
+/**
+ * The project if the viewer may see it, else a 404; with an action, also a 403 unless the role
+ * the viewer holds in this project (or the administrator role) may take it.
+ */
+export async function projectFor(manager: EntityManager | DataSource, viewer: Viewer, projectId: number, action?: Action): Promise<Project> {
   const project = await manager.getRepository(ProjectEntity).findOneBy({ id: projectId });
   if (!project) throw notFound('project');
-  if (may(viewer.role, 'projects:read-all')) return project;
-  const member = await manager.getRepository(ProjectMemberEntity).existsBy({ projectId, userId: viewer.id });
-  if (!member) throw notFound('project');
+  const membership = await manager.getRepository(ProjectMemberEntity).findOneBy({ projectId, userId: viewer.id });
+  if (!membership && !mayIn(viewer.role, null, 'projects:read-all')) throw notFound('project');
+  if (action && !mayIn(viewer.role, membership?.role, action)) throw forbiddenInProject(membership?.role ?? null, action);
   return project;
 }
 
 export async function listProjects(dataSource: DataSource, viewer: Viewer): Promise<Project[]> {
   const repository = dataSource.getRepository(ProjectEntity);
-  if (may(viewer.role, 'projects:read-all')) return repository.find({ order: { id: 'ASC' } });
+  if (mayIn(viewer.role, null, 'projects:read-all')) return repository.find({ order: { id: 'ASC' } });
   const memberships = await dataSource.getRepository(ProjectMemberEntity).findBy({ userId: viewer.id });
   return repository.find({ where: { id: In(memberships.map((m) => m.projectId)) }, order: { id: 'ASC' } });
 }
@@ -43,33 +53,43 @@ export async function createProject(dataSource: DataSource, actorId: number, inp
   });
 }
 
-export async function listMembers(dataSource: DataSource, viewer: Viewer, projectId: number): Promise<PublicUser[]> {
+/** A member of a project: the account, and the role held in this project. */
+export type ProjectMemberView = PublicUser & { projectRole: ProjectRole | null };
+
+export async function listMembers(dataSource: DataSource, viewer: Viewer, projectId: number): Promise<ProjectMemberView[]> {
   await projectFor(dataSource, viewer, projectId);
   const memberships = await dataSource.getRepository(ProjectMemberEntity).findBy({ projectId });
-  const users = await dataSource.getRepository(UserEntity).find({ where: { id: In(memberships.map((m) => m.userId)) }, order: { id: 'ASC' } });
-  return users.map(publicUser);
+  const roleOf = new Map(memberships.map((m) => [m.userId, m.role]));
+  const users = await dataSource.getRepository(UserEntity).find({ where: { id: In([...roleOf.keys()]) }, order: { id: 'ASC' } });
+  return users.map((user) => ({ ...publicUser(user), projectRole: roleOf.get(user.id) ?? null }));
 }
 
-export async function addMember(dataSource: DataSource, actor: Viewer, projectId: number, userId: number): Promise<{ projectId: number; userId: number; id: number }> {
+/** Adds the person to the project with the role they hold in it, or changes that role when they are a member already. */
+export async function addMember(dataSource: DataSource, actor: Viewer, projectId: number, userId: number, role: ProjectRole): Promise<ProjectMember> {
   return dataSource.transaction(async (manager) => {
-    await projectFor(manager, actor, projectId);
+    await projectFor(manager, actor, projectId, 'members:manage');
     if (!(await manager.getRepository(UserEntity).existsBy({ id: userId }))) throw new AppError('user-not-found', 400, 'No such user.', [{ path: '/userId', message: 'names no account' }]);
     const repository = manager.getRepository(ProjectMemberEntity);
     const existing = await repository.findOneBy({ projectId, userId });
-    if (existing) return existing;
-    const member = await repository.save({ projectId, userId, createdAt: new Date().toISOString() });
-    await recordEvent(manager, { actorId: actor.id, action: 'project.member-added', entityType: 'project-member', entityId: member.id, projectId, afterId: member.id, details: { userId } });
+    if (existing) {
+      if (existing.role === role) return existing;
+      await repository.update({ id: existing.id }, { role });
+      await recordEvent(manager, { actorId: actor.id, action: 'project.member-role-changed', entityType: 'project-member', entityId: existing.id, projectId, beforeId: existing.id, afterId: existing.id, details: { userId, before: existing.role, after: role } });
+      return { ...existing, role };
+    }
+    const member = await repository.save({ projectId, userId, role, createdAt: new Date().toISOString() });
+    await recordEvent(manager, { actorId: actor.id, action: 'project.member-added', entityType: 'project-member', entityId: member.id, projectId, afterId: member.id, details: { userId, role } });
     return member;
   });
 }
 
 export async function removeMember(dataSource: DataSource, actor: Viewer, projectId: number, userId: number): Promise<void> {
   await dataSource.transaction(async (manager) => {
-    await projectFor(manager, actor, projectId);
+    await projectFor(manager, actor, projectId, 'members:manage');
     const repository = manager.getRepository(ProjectMemberEntity);
     const member = await repository.findOneBy({ projectId, userId });
     if (!member) throw notFound('member');
     await repository.delete({ id: member.id });
-    await recordEvent(manager, { actorId: actor.id, action: 'project.member-removed', entityType: 'project-member', entityId: member.id, projectId, beforeId: member.id, details: { userId } });
+    await recordEvent(manager, { actorId: actor.id, action: 'project.member-removed', entityType: 'project-member', entityId: member.id, projectId, beforeId: member.id, details: { userId, role: member.role } });
   });
 }

@@ -10,6 +10,7 @@ import type { RecommendOption } from '../../shared/engine/recommend';
 import { spiceNetlist } from '../../shared/engine/netlist';
 import type { Design, RuleSet, TopologyId } from '../../shared/engine/types';
 import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
+import type { Action } from '../../shared/workflow/roles';
 import { AuditEventEntity } from '../entities/audit-event.entity';
 import { DecisionEntity, type Decision, type DecisionKind } from '../entities/decision.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
@@ -66,13 +67,17 @@ export interface ReviewInput {
   acceptStaleVerification?: boolean;
 }
 
-/** The proposal if its project is visible to the viewer, else 404. */
-export async function proposalFor(manager: EntityManager | DataSource, viewer: Viewer, proposalId: number): Promise<Proposal> {
+/**
+ * The proposal if its project is visible to the viewer, else 404; with an action, also a 403
+ * unless the role the viewer holds in the proposal's project may take it.
+ */
+export async function proposalFor(manager: EntityManager | DataSource, viewer: Viewer, proposalId: number, action?: Action): Promise<Proposal> {
   const proposal = await manager.getRepository(ProposalEntity).findOneBy({ id: proposalId });
   if (!proposal) throw notFound('proposal');
   try {
-    await projectFor(manager, viewer, proposal.projectId);
-  } catch {
+    await projectFor(manager, viewer, proposal.projectId, action);
+  } catch (error) {
+    if (error instanceof AppError && error.status === 403) throw error;
     throw notFound('proposal');
   }
   return proposal;
@@ -152,7 +157,7 @@ async function rankingTextFor(dataSource: DataSource, version: SpecVersion, rule
 
 /** Ranks the spec's latest version (or reuses its ranking) and stores the proposal with its audit event. */
 async function storeProposal(dataSource: DataSource, actor: Viewer, specId: number, ruleSet: RuleSet) {
-  const spec = await specFor(dataSource, actor, specId);
+  const spec = await specFor(dataSource, actor, specId, 'proposals:create');
   const version = await latestVersion(dataSource, spec);
   const resultText = await rankingTextFor(dataSource, version, ruleSet);
   const recommended = (JSON.parse(resultText) as RecommendResult).recommended;
@@ -279,7 +284,7 @@ function checkDecisionFields(input: DecisionInput): void {
  * spec of the proposal) without recording anything: the full check before deciding.
  */
 export async function evaluateOverride(dataSource: DataSource, actor: Viewer, proposalId: number, design: Design, ruleSet: RuleSet) {
-  const proposal = await proposalFor(dataSource, actor, proposalId);
+  const proposal = await proposalFor(dataSource, actor, proposalId, 'proposals:decide');
   const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
   return evaluateDesign(checkedSpecDocument(JSON.parse(version.payload)), design, ruleSet);
 }
@@ -288,13 +293,13 @@ export async function evaluateOverride(dataSource: DataSource, actor: Viewer, pr
 export async function decide(dataSource: DataSource, actor: Viewer, proposalId: number, input: DecisionInput, ruleSet: RuleSet) {
   checkDecisionFields(input);
   // The engine works outside the transaction (it is CPU, not data); the state is checked again inside.
-  const before = await proposalFor(dataSource, actor, proposalId);
+  const before = await proposalFor(dataSource, actor, proposalId, 'proposals:decide');
   transition(before, 'decide');
   const settled = await settledDesign(before, input, ruleSet, dataSource);
   await dataSource.transaction(async (manager) => {
     // PostgreSQL: concurrent steps on one proposal wait here, then see the state the first one left.
     await lockRowForUpdate(manager, ProposalEntity, proposalId);
-    const proposal = await proposalFor(manager, actor, proposalId);
+    const proposal = await proposalFor(manager, actor, proposalId, 'proposals:decide');
     const status = transition(proposal, 'decide');
     const previous = await manager.getRepository(DecisionEntity).findOne({ where: { proposalId }, order: { id: 'DESC' } });
     const decision = await manager.getRepository(DecisionEntity).save({
@@ -345,7 +350,7 @@ export async function review(dataSource: DataSource, actor: Viewer, proposalId: 
   }
   await dataSource.transaction(async (manager) => {
     await lockRowForUpdate(manager, ProposalEntity, proposalId);
-    const proposal = await proposalFor(manager, actor, proposalId);
+    const proposal = await proposalFor(manager, actor, proposalId, 'proposals:review');
     const status = transition(proposal, input.verdict);
     const decisions = await manager.getRepository(DecisionEntity).find({ where: { proposalId }, order: { id: 'ASC' } });
     const decision = decisions.at(-1);

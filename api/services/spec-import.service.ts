@@ -55,12 +55,12 @@ function fileText(file: ImportFile): string {
  * each new spec or version with its own audit event, and one `specs.imported` event for the file.
  */
 export async function importSpecs(dataSource: DataSource, actor: Viewer, projectId: number, file: ImportFile, options: { dryRun: boolean }): Promise<ImportReport> {
-  await projectFor(dataSource, actor, projectId);
+  await projectFor(dataSource, actor, projectId, 'specs:write');
   const reading = readSpecFile({ text: fileText(file), fileName: file.originalName, mimeType: file.mimeType });
   if (!reading.ok) throw invalid([{ path: 'file', message: reading.message }], 'The file cannot be read.');
   const fileName = file.originalName.slice(0, 200);
   const run = async (manager: EntityManager): Promise<ImportReport> => {
-    if (!options.dryRun) await projectFor(manager, actor, projectId);
+    if (!options.dryRun) await projectFor(manager, actor, projectId, 'specs:write');
     const existing = await specsByTitle(manager, projectId);
     const rows: ImportRowReport[] = [];
     for (const parsed of reading.rows) {

@@ -6,10 +6,11 @@ import type { DataSource, EntityManager } from 'typeorm';
 import type { Spec as SpecDocument } from '../../shared/engine/types';
 import { diffJson, type JsonChange } from '../../shared/json-diff';
 import { validateSpec } from '../../shared/validate';
+import type { Action } from '../../shared/workflow/roles';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
 import { SpecEntity, type Spec } from '../entities/spec.entity';
 import { lockRowForUpdate } from '../data-source';
-import { invalid, notFound } from '../errors';
+import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
 import type { PublicUser } from './users.service';
@@ -32,13 +33,17 @@ export function specVersionView(version: SpecVersion) {
   return { ...version, payload: JSON.parse(version.payload) as SpecDocument };
 }
 
-/** The spec if its project is visible to the viewer, else 404. */
-export async function specFor(manager: EntityManager | DataSource, viewer: Viewer, specId: number): Promise<Spec> {
+/**
+ * The spec if its project is visible to the viewer, else 404; with an action, also a 403 unless
+ * the role the viewer holds in the spec's project may take it.
+ */
+export async function specFor(manager: EntityManager | DataSource, viewer: Viewer, specId: number, action?: Action): Promise<Spec> {
   const spec = await manager.getRepository(SpecEntity).findOneBy({ id: specId });
   if (!spec) throw notFound('spec');
   try {
-    await projectFor(manager, viewer, spec.projectId);
-  } catch {
+    await projectFor(manager, viewer, spec.projectId, action);
+  } catch (error) {
+    if (error instanceof AppError && error.status === 403) throw error;
     throw notFound('spec');
   }
   return spec;
@@ -63,7 +68,7 @@ export async function getSpec(dataSource: DataSource, viewer: Viewer, specId: nu
 export async function createSpec(dataSource: DataSource, actor: Viewer, projectId: number, input: SpecInput) {
   const document = checkedSpecDocument({ ...(input.payload as object), title: input.title.trim() });
   return dataSource.transaction(async (manager) => {
-    await projectFor(manager, actor, projectId);
+    await projectFor(manager, actor, projectId, 'specs:write');
     const { spec, version } = await insertSpec(manager, actor, projectId, input.title.trim(), document);
     return { ...spec, latest: specVersionView(version) };
   });
@@ -108,7 +113,7 @@ export async function updateSpec(dataSource: DataSource, actor: Viewer, specId: 
   return dataSource.transaction(async (manager) => {
     // PostgreSQL: concurrent edits of one spec take version numbers one after the other.
     await lockRowForUpdate(manager, SpecEntity, specId);
-    const spec = await specFor(manager, actor, specId);
+    const spec = await specFor(manager, actor, specId, 'specs:write');
     const previous = await latestVersion(manager, spec);
     const written = await insertSpecVersion(manager, actor, spec, previous, input.title.trim(), document);
     return { ...written.spec, latest: specVersionView(written.version) };

@@ -1,7 +1,8 @@
 /** Accounts: created and changed by admins, looked up for sign-in. */
 import type { DataSource } from 'typeorm';
-import type { Role } from '../../shared/workflow/roles';
+import type { AccountRole, ProjectRoleOf } from '../../shared/workflow/roles';
 import { hashPassword } from '../auth/password';
+import { ProjectMemberEntity } from '../entities/project-member.entity';
 import { UserEntity, type User } from '../entities/user.entity';
 import { AppError, notFound } from '../errors';
 import { recordEvent } from './audit.service';
@@ -22,6 +23,19 @@ export async function findUserById(dataSource: DataSource, id: number): Promise<
   return user ? publicUser(user) : null;
 }
 
+/** The signed-in person: the account and the role held in each project (read on every request, so a change applies at once). */
+export type SessionUser = PublicUser & { projectRoles: ProjectRoleOf[] };
+
+export async function sessionUser(dataSource: DataSource, user: PublicUser): Promise<SessionUser> {
+  const memberships = await dataSource.getRepository(ProjectMemberEntity).find({ where: { userId: user.id }, order: { projectId: 'ASC' } });
+  return { ...publicUser(user), projectRoles: memberships.map((m) => ({ projectId: m.projectId, role: m.role })) };
+}
+
+export async function findSessionUser(dataSource: DataSource, id: number): Promise<SessionUser | null> {
+  const user = await findUserById(dataSource, id);
+  return user ? sessionUser(dataSource, user) : null;
+}
+
 /** The account with its password hash, for sign-in only. */
 export async function findUserForSignIn(dataSource: DataSource, email: string): Promise<User | null> {
   return dataSource
@@ -35,7 +49,7 @@ export async function findUserForSignIn(dataSource: DataSource, email: string): 
 export interface NewUser {
   email: string;
   displayName: string;
-  role: Role;
+  role: AccountRole;
   password: string;
 }
 
@@ -51,7 +65,7 @@ export async function createUser(dataSource: DataSource, actorId: number | null,
   });
 }
 
-export async function updateUser(dataSource: DataSource, actorId: number, id: number, changes: { displayName?: string; role?: Role }): Promise<PublicUser> {
+export async function updateUser(dataSource: DataSource, actorId: number, id: number, changes: { displayName?: string; role?: AccountRole }): Promise<PublicUser> {
   return dataSource.transaction(async (manager) => {
     const repository = manager.getRepository(UserEntity);
     const user = await repository.findOneBy({ id });

@@ -61,7 +61,7 @@ async function requestJob(
   const { job, created } = await dataSource.transaction(async (manager) => {
     // PostgreSQL: two requests at once see each other's job (one job, not two).
     await lockRowForUpdate(manager, ProposalEntity, proposalId);
-    const proposal = await proposalFor(manager, actor, proposalId);
+    const proposal = await proposalFor(manager, actor, proposalId, 'proposals:verify');
     const repository = manager.getRepository(VerificationJobEntity);
     const active = await repository.findOne({
       where: { proposalId, kind, source, ...(topology === null ? {} : { topology }), state: In([...ACTIVE_STATES]) },
@@ -113,7 +113,7 @@ export function requestVerification(dataSource: DataSource, actor: Viewer, propo
  * the decision's); 409 with the reason when it cannot have one.
  */
 export async function requestMonteCarlo(dataSource: DataSource, actor: Viewer, proposalId: number, input: { topology?: string; source?: 'option' | 'decision'; runs?: number }) {
-  const proposal = await proposalFor(dataSource, actor, proposalId);
+  const proposal = await proposalFor(dataSource, actor, proposalId, 'proposals:verify');
   const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
   const spec = checkedSpecDocument(JSON.parse(version.payload));
   const result = JSON.parse(proposal.result) as RecommendResult;

@@ -2,7 +2,7 @@
  * JSON Schemas of the request bodies and queries that are not spec or design documents (those
  * have their own schemas in shared/schema). Unknown fields are refused everywhere.
  */
-import { ROLES } from '../../shared/workflow/roles';
+import { ACCOUNT_ROLES, PROJECT_ROLES } from '../../shared/workflow/roles';
 import { PROPOSAL_STATES } from '../../shared/workflow/proposal-states';
 import { TOPOLOGIES } from '../../shared/engine/types';
 import { DESIGN_SCHEMA } from '../../shared/validate';
@@ -20,18 +20,19 @@ const strict = (properties: Record<string, object>, required: string[]) => ({ ty
 export const LOGIN_BODY = strict({ email: { type: 'string', minLength: 1, maxLength: 254 }, password: { type: 'string', minLength: 1, maxLength: 1024 } }, ['email', 'password']);
 
 export const NEW_USER_BODY = strict(
-  { email, displayName: name(120), role: { enum: [...ROLES] }, password: { type: 'string', minLength: MIN_PASSWORD_LENGTH, maxLength: 1024 } },
+  { email, displayName: name(120), role: { enum: [...ACCOUNT_ROLES] }, password: { type: 'string', minLength: MIN_PASSWORD_LENGTH, maxLength: 1024 } },
   ['email', 'displayName', 'role', 'password'],
 );
 
-export const USER_CHANGES_BODY = { ...strict({ displayName: name(120), role: { enum: [...ROLES] } }, []), minProperties: 1 };
+export const USER_CHANGES_BODY = { ...strict({ displayName: name(120), role: { enum: [...ACCOUNT_ROLES] } }, []), minProperties: 1 };
 
 /** PATCH /api/auth/me: the signed-in person's own preferences. */
 export const PREFERENCES_BODY = strict({ notify: { type: 'boolean' } }, ['notify']);
 
 export const NEW_PROJECT_BODY = strict({ name: name(160), description: text(4000) }, ['name']);
 
-export const MEMBERSHIP_BODY = strict({ userId: { type: 'integer', minimum: 1 } }, ['userId']);
+/** POST /api/projects/:id/members: add the person with the role they hold in this project (or change it). */
+export const MEMBERSHIP_BODY = strict({ userId: { type: 'integer', minimum: 1 }, role: { enum: [...PROJECT_ROLES] } }, ['userId', 'role']);
 
 /** The spec document itself is checked against shared/schema/spec.schema.json by the service. */
 export const SPEC_BODY = strict({ title: name(200), payload: { type: 'object' } }, ['title', 'payload']);

@@ -193,7 +193,7 @@ describe('when a state-changing request lacks the CSRF token or carries a wrong 
   test('when every refused request has been sent, then the data and sessions are as before', async () => {
     expect((await admin.get('/api/projects')).body.items.map((p: { name: string }) => p.name)).not.toContain('Forged project');
     expect((await requirements.get(`/api/specs/${spec.id}`)).body.latestVersion).toBe(1);
-    expect((await admin.get('/api/users')).body.items.find((u: { id: number }) => u.id === api.users.designer2.id).role).toBe('designer');
+    expect((await admin.get('/api/users')).body.items.find((u: { id: number }) => u.id === api.users.designer2.id).role).toBe('member');
     expect((await admin.get(`/api/projects/${project.id}/members`)).body.items.map((u: { id: number }) => u.id)).toContain(api.users.reviewer.id);
     expect((await designer.get('/api/auth/me')).status).toBe(200);
     expect((await anonymous.get('/api/auth/me')).status).toBe(401);
@@ -356,7 +356,7 @@ describe('when a request fails, then the error body carries no stack trace or SQ
     ['an unknown route', 404, () => admin.get('/api/no-such-route')],
     ['a record that does not exist', 404, () => admin.get('/api/specs/424242')],
     ['a malformed id', 404, () => admin.get("/api/specs/1'%20OR%201=1")],
-    ['an account e-mail taken', 409, () => admin.post('/api/users').send({ email: emailOf('designer'), displayName: 'Twin', role: 'designer', password: 'another-long-passphrase' })],
+    ['an account e-mail taken', 409, () => admin.post('/api/users').send({ email: emailOf('designer'), displayName: 'Twin', role: 'member', password: 'another-long-passphrase' })],
     ['no sign-in', 401, () => request(api.app).get('/api/projects')],
     ['a wrong CSRF token', 403, () => admin.agent.post('/api/projects').set('X-CSRF-Token', 'nope').send({ name: 'x' })],
   ] as const)('when the request has %s, then %i with a plain error body', async (_title, status, send) => {
@@ -407,7 +407,7 @@ describe('when an admin creates an account', () => {
   test('when the password has 11 characters, then 400 at /password and no account is made', async () => {
     const before = (await admin.get('/api/users')).body.items.length;
 
-    const response = await admin.post('/api/users').send({ email: 'short@tests.longtail.test', displayName: 'Short', role: 'reviewer', password: 'elevenchars' });
+    const response = await admin.post('/api/users').send({ email: 'short@tests.longtail.test', displayName: 'Short', role: 'member', password: 'elevenchars' });
 
     expect('elevenchars').toHaveLength(11);
     expect(response.status).toBe(400);
@@ -416,7 +416,7 @@ describe('when an admin creates an account', () => {
   });
 
   test('when the password has 12 characters, then 201 and the account can sign in', async () => {
-    const response = await admin.post('/api/users').send({ email: 'twelve@tests.longtail.test', displayName: 'Twelve', role: 'reviewer', password: 'twelve-chars' });
+    const response = await admin.post('/api/users').send({ email: 'twelve@tests.longtail.test', displayName: 'Twelve', role: 'member', password: 'twelve-chars' });
 
     expect(response.status).toBe(201);
     expect(response.body).not.toHaveProperty('passwordHash');

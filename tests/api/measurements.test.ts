@@ -17,6 +17,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { AuditEventEntity } from '../../api/entities/audit-event.entity';
 import { MeasurementEntity } from '../../api/entities/measurement.entity';
+import { addMember } from '../../api/services/projects.service';
 import { decide } from '../../api/services/proposals.service';
 import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
 
@@ -48,9 +49,11 @@ beforeAll(async () => {
   uploadsDir = mkdtempSync(join(tmpdir(), 'longtail-measurements-test-'));
   api = await buildApiApp({ uploadsDir, accounts: ['admin', 'requirements', 'designer', 'reviewer', 'designer2'] });
   const project = await api.createProject(['requirements', 'designer', 'reviewer']);
-  const other = await api.createProject(['designer2'], 'Sallow tide gauge');
+  // The second designer writes the other project's spec as its systems engineer, then designs in it.
+  const other = await api.createProject(['designer2'], 'Sallow tide gauge', { designer2: 'requirements' });
   const spec = await api.createSpec(project.id);
-  const otherSpec = await api.createSpec(other.id, { by: 'admin' });
+  const otherSpec = await api.createSpec(other.id, { by: 'designer2' });
+  await addMember(api.dataSource, api.users.admin, other.id, api.users.designer2.id, 'designer');
   const decided = await api.createProposal(spec.id);
   await decide(api.dataSource, api.users.designer, decided.id, { kind: 'accept' }, api.ruleSet);
   decidedId = decided.id;

@@ -74,9 +74,10 @@ const recipients = (messages: ReceivedMail[]) => messages.flatMap((m) => m.to).s
 const lastLine = (text: string) => text.trim().split('\n').at(-1) ?? '';
 
 beforeAll(async () => {
-  configureNotifications({ baseUrl: BASE_URL });
+  // One message per event all through this story (tests/api/mail-digest.test.ts covers the digest).
+  configureNotifications({ baseUrl: BASE_URL, digestAfter: 1000 });
   api = await buildApiApp();
-  await createUser(api.dataSource, null, { email: OUTSIDER, displayName: 'Test designer3', role: 'designer', password: TEST_PASSWORD });
+  await createUser(api.dataSource, null, { email: OUTSIDER, displayName: 'Test designer3', role: 'member', password: TEST_PASSWORD });
   const project = await api.createProject(['requirements', 'designer', 'designer2', 'reviewer', 'reviewer2'], PROJECT);
   specId = (await api.createSpec(project.id, { title: SPEC_TITLE })).id;
   smtp = await startLocalSmtp({ dataSource: api.dataSource, port: 0 });
@@ -120,7 +121,7 @@ describe('when a person sets their own notification preference', () => {
     expect(response.status).toBe(400);
     expect(response.body.code).toBe('invalid-request');
     const stored = await api.dataSource.getRepository(UserEntity).findOneByOrFail({ email: emailOf('designer2') });
-    expect({ role: stored.role, notify: stored.notify }).toEqual({ role: 'designer', notify: false });
+    expect({ role: stored.role, notify: stored.notify }).toEqual({ role: 'member', notify: false });
   });
 
   test('when the change comes without the CSRF header, then 403', async () => {

@@ -49,11 +49,11 @@ describe('a database reopened by another data source', () => {
     const ruleSet = await loadRuleSet();
     const first = await openDatabase(database.location);
     const admin = await createUser(first, null, { email: 'admin@persist.test', displayName: 'Ada Admin', role: 'admin', password: TEST_PASSWORD });
-    const author = await createUser(first, admin.id, { email: 'req@persist.test', displayName: 'Rex Requirements', role: 'requirements', password: TEST_PASSWORD });
-    designer = await createUser(first, admin.id, { email: 'design@persist.test', displayName: 'Dee Designer', role: 'designer', password: TEST_PASSWORD });
+    const author = await createUser(first, admin.id, { email: 'req@persist.test', displayName: 'Rex Requirements', role: 'member', password: TEST_PASSWORD });
+    designer = await createUser(first, admin.id, { email: 'design@persist.test', displayName: 'Dee Designer', role: 'member', password: TEST_PASSWORD });
     const project = await createProject(first, admin.id, { name: 'Persistence', description: 'Reopened from disk' });
-    await addMember(first, admin, project.id, author.id);
-    await addMember(first, admin, project.id, designer.id);
+    await addMember(first, admin, project.id, author.id, 'requirements');
+    await addMember(first, admin, project.id, designer.id, 'designer');
     const spec = await createSpec(first, author, project.id, { title: 'Line receiver', payload: SPEC_PAYLOAD });
     const created = await createProposal(first, designer, spec.id, ruleSet);
     await decide(first, designer, created.id, { kind: 'accept' }, ruleSet);

@@ -1,9 +1,10 @@
 /**
  * Projects keep to themselves: a record of another project answers exactly what a record that
  * does not exist answers (404, same body), the admin reads everything, roles bound the writes,
- * and nobody reviews their own decision, even after an admin gives them the reviewer role.
+ * and nobody reviews their own decision, even after an admin makes them the project's reviewer.
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { addMember } from '../../api/services/projects.service';
 import { decide } from '../../api/services/proposals.service';
 import { updateSpec } from '../../api/services/specs.service';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
@@ -28,10 +29,12 @@ let reviewer2: ApiClient;
 beforeAll(async () => {
   api = await buildApiApp();
   quillon = await api.createProject(['requirements', 'designer', 'reviewer'], 'Quillon sensor head');
-  sallow = await api.createProject(['designer2', 'reviewer2'], 'Sallow tide gauge');
+  // The second reviewer writes Sallow's spec as its systems engineer, then becomes its reviewer.
+  sallow = await api.createProject(['designer2', 'reviewer2'], 'Sallow tide gauge', { reviewer2: 'requirements' });
   const quillonSpec = await api.createSpec(quillon.id);
-  sallowSpec = await api.createSpec(sallow.id, { by: 'admin', title: 'Sallow tide gauge — pressure bridge pair' });
-  await updateSpec(api.dataSource, api.users.admin, sallowSpec.id, { title: 'Sallow tide gauge — pressure bridge pair', payload: { ...specPayload(), powerBudgetW: 0.028 } });
+  sallowSpec = await api.createSpec(sallow.id, { by: 'reviewer2', title: 'Sallow tide gauge — pressure bridge pair' });
+  await updateSpec(api.dataSource, api.users.reviewer2, sallowSpec.id, { title: 'Sallow tide gauge — pressure bridge pair', payload: { ...specPayload(), powerBudgetW: 0.028 } });
+  await addMember(api.dataSource, api.users.admin, sallow.id, api.users.reviewer2.id, 'reviewer');
   [quillonProposal, sallowProposal] = await Promise.all([api.createProposal(quillonSpec.id, 'designer'), api.createProposal(sallowSpec.id, 'designer2')]);
   [admin, requirements, designer, reviewer, designer2, reviewer2] = await Promise.all(
     (['admin', 'requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'] as const).map((key) => api.agentFor(key)),
@@ -132,7 +135,7 @@ describe('when the admin asks for any project’s records, then every one answer
 describe('when the admin names a record that does not exist, then 404', () => {
   test.each([
     ['PATCH /api/users/:id', 'user-not-found', () => admin.patch(`/api/users/${MISSING_ID}`).send({ displayName: 'Ghost' })],
-    ['POST /api/projects/:id/members', 'project-not-found', () => admin.post(`/api/projects/${MISSING_ID}/members`).send({ userId: api.users.designer.id })],
+    ['POST /api/projects/:id/members', 'project-not-found', () => admin.post(`/api/projects/${MISSING_ID}/members`).send({ userId: api.users.designer.id, role: 'designer' })],
     ['DELETE /api/projects/:id/members/:userId (no such project)', 'project-not-found', () => admin.delete(`/api/projects/${MISSING_ID}/members/${api.users.designer.id}`)],
     ['DELETE /api/projects/:id/members/:userId (not a member)', 'member-not-found', () => admin.delete(`/api/projects/${sallow.id}/members/${api.users.designer.id}`)],
     ['GET /api/specs/:id/diff (no such version)', 'spec-version-not-found', () => admin.get(`/api/specs/${sallowSpec.id}/diff?from=1&to=9`)],
@@ -179,10 +182,10 @@ describe('when a role steps outside its part of the workflow in its own project,
 
 describe('when a designer who decided is made a reviewer and reviews that decision', () => {
   test('when they approve their own decision, then 403 own-decision and another reviewer can still approve', async () => {
-    // Arrange: the second designer decides, then the admin turns them into a reviewer.
+    // Arrange: the second designer decides, then the admin makes them the project's reviewer.
     await decide(api.dataSource, api.users.designer2, sallowProposal.id, { kind: 'accept' }, api.ruleSet);
-    const patched = await admin.patch(`/api/users/${api.users.designer2.id}`).send({ role: 'reviewer' });
-    expect(patched.status).toBe(200);
+    const patched = await admin.post(`/api/projects/${sallow.id}/members`).send({ userId: api.users.designer2.id, role: 'reviewer' });
+    expect(patched.status).toBe(201);
     expect(patched.body.role).toBe('reviewer');
     const auditBefore = (await admin.get(`/api/proposals/${sallowProposal.id}/audit`)).body.items;
 

@@ -9,6 +9,7 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { AuditEventEntity } from '../../api/entities/audit-event.entity';
 import { SpecVersionEntity } from '../../api/entities/spec-version.entity';
 import { SpecEntity } from '../../api/entities/spec.entity';
+import { addMember } from '../../api/services/projects.service';
 import type { Proposal } from '../../web/src/lib/api-types';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
 import { TEST_BACKEND } from '../helpers/test-database';
@@ -356,7 +357,10 @@ describe('GET /api/projects/:id/proposals.csv', () => {
   });
 
   test('when an id is not a proposal of this project, then 404', async () => {
-    const other = await api.createSpec(otherProjectId, { by: 'admin', title: 'Brindle tide logger — pressure pair' });
+    // The second designer writes it as the other project's systems engineer, then designs in it again.
+    await addMember(api.dataSource, api.users.admin, otherProjectId, api.users.designer2.id, 'requirements');
+    const other = await api.createSpec(otherProjectId, { by: 'designer2', title: 'Brindle tide logger — pressure pair' });
+    await addMember(api.dataSource, api.users.admin, otherProjectId, api.users.designer2.id, 'designer');
     const foreign = await api.createProposal(other.id, 'designer2');
     const response = await requirements.get(`/api/projects/${projectId}/proposals.csv?ids=${foreign.id}`);
     expect(response.status).toBe(404);

@@ -58,7 +58,7 @@ const raw = (text: string, type = 'application/json'): Body => ({ raw: text, typ
 const spec = (change: (payload: Json) => void, title = 'Line receiver'): Body => json({ title, payload: changed(SPEC_PAYLOAD, change) });
 const design = (change: (design: Json) => void): Json => changed(DESIGN, change);
 const login = { email: 'someone@validation.test', password: 'long-enough-password' };
-const newUser = { email: 'new.person@validation.test', displayName: 'New Person', role: 'designer', password: 'long-enough-password' };
+const newUser = { email: 'new.person@validation.test', displayName: 'New Person', role: 'member', password: 'long-enough-password' };
 
 const BAD_REQUESTS: BadRequest[] = [
   // POST /api/auth/login (no role: a visitor holding a CSRF token)
@@ -84,7 +84,7 @@ const BAD_REQUESTS: BadRequest[] = [
   { route: 'POST /api/users', when: 'the role is missing', as: 'admin', body: json({ ...newUser, role: undefined }), status: 400, path: '/role' },
   { route: 'POST /api/users', when: 'an unknown field isAdmin is sent', as: 'admin', body: json({ ...newUser, isAdmin: true }), status: 400, path: '/isAdmin' },
   { route: 'POST /api/users', when: 'a __proto__ field is sent', as: 'admin', body: raw(JSON.stringify(newUser).replace(/}$/, ',"__proto__":{"role":"admin"}}')), status: 400, path: '/__proto__' },
-  { route: 'POST /api/users', when: 'the body is multipart form data', as: 'admin', body: { multipart: { email: newUser.email, displayName: newUser.displayName, role: 'designer', password: newUser.password } }, status: 400, path: '' },
+  { route: 'POST /api/users', when: 'the body is multipart form data', as: 'admin', body: { multipart: { email: newUser.email, displayName: newUser.displayName, role: 'member', password: newUser.password } }, status: 400, path: '' },
 
   // PATCH /api/users/:id (admin)
   { route: 'PATCH /api/users/:id', when: 'the body is an empty object', as: 'admin', body: json({}), status: 400, path: '' },
@@ -104,11 +104,14 @@ const BAD_REQUESTS: BadRequest[] = [
   { route: 'POST /api/projects', when: 'the body is plain text', as: 'admin', body: raw('{"name":"P"}', 'text/plain'), status: 400, path: '' },
 
   // POST /api/projects/:id/members (admin)
-  { route: 'POST /api/projects/:id/members', when: 'the user id is a string', as: 'admin', body: json({ userId: '2' }), status: 400, path: '/userId' },
-  { route: 'POST /api/projects/:id/members', when: 'the user id is 0', as: 'admin', body: json({ userId: 0 }), status: 400, path: '/userId' },
-  { route: 'POST /api/projects/:id/members', when: 'the user id is 1.5', as: 'admin', body: json({ userId: 1.5 }), status: 400, path: '/userId' },
-  { route: 'POST /api/projects/:id/members', when: 'the user id names no account', as: 'admin', body: json({ userId: 999_999 }), status: 400, path: '/userId' },
+  { route: 'POST /api/projects/:id/members', when: 'the user id is a string', as: 'admin', body: json({ userId: '2', role: 'designer' }), status: 400, path: '/userId' },
+  { route: 'POST /api/projects/:id/members', when: 'the user id is 0', as: 'admin', body: json({ userId: 0, role: 'designer' }), status: 400, path: '/userId' },
+  { route: 'POST /api/projects/:id/members', when: 'the user id is 1.5', as: 'admin', body: json({ userId: 1.5, role: 'designer' }), status: 400, path: '/userId' },
+  { route: 'POST /api/projects/:id/members', when: 'the user id names no account', as: 'admin', body: json({ userId: 999_999, role: 'designer' }), status: 400, path: '/userId' },
   { route: 'POST /api/projects/:id/members', when: 'the user id is missing and a role is sent', as: 'admin', body: json({ role: 'designer' }), status: 400, path: '/userId' },
+  { route: 'POST /api/projects/:id/members', when: 'the role in the project is missing', as: 'admin', body: json({ userId: 2 }), status: 400, path: '/role' },
+  { route: 'POST /api/projects/:id/members', when: 'the role in the project is the administrator role', as: 'admin', body: json({ userId: 2, role: 'admin' }), status: 400, path: '/role' },
+  { route: 'POST /api/users', when: 'the role is a project role (roles are given per project)', as: 'admin', body: json({ ...newUser, role: 'designer' }), status: 400, path: '/role' },
 
   // POST /api/projects/:id/specs (requirements)
   { route: 'POST /api/projects/:id/specs', when: 'the negative rail is above the positive one', as: 'requirements', body: spec((p) => (p.supply.negativeV = 20)), status: 400, path: '/payload/supply/negativeV' },
@@ -191,7 +194,7 @@ describe('bad requests to the write routes', () => {
     const project = await clients.admin.post('/api/projects').send({ name: 'Validation' }).expect(201);
     ids.projectId = project.body.id;
     for (const role of ['requirements', 'designer', 'reviewer'] as const) {
-      await clients.admin.post(`/api/projects/${ids.projectId}/members`).send({ userId: api.users[role].id }).expect(201);
+      await clients.admin.post(`/api/projects/${ids.projectId}/members`).send({ userId: api.users[role].id, role }).expect(201);
     }
     const spec = await clients.requirements.post(`/api/projects/${ids.projectId}/specs`).send({ title: 'Line receiver', payload: SPEC_PAYLOAD }).expect(201);
     ids.specId = spec.body.id;

@@ -62,7 +62,7 @@ const dataSource = await openDatabase(join(dir, 'bench.sqlite'));
 const ruleSet = await loadRuleSet();
 
 const account = (role: 'admin' | 'requirements' | 'designer') =>
-  createUser(dataSource, null, { email: `${role}@bench.longtail.test`, displayName: `Bench ${role}`, role, password: PASSWORD });
+  createUser(dataSource, null, { email: `${role}@bench.longtail.test`, displayName: `Bench ${role}`, role: role === 'admin' ? 'admin' : 'member', password: PASSWORD });
 const admin = await account('admin');
 const author = await account('requirements');
 const designer = await account('designer');
@@ -72,8 +72,8 @@ const payload = JSON.parse(readFileSync(specPath, 'utf8')) as { title: string };
 /** A project with the author and the designer as members, and the demo spec in it. */
 async function projectWithSpec(name: string) {
   const project = await createProject(dataSource, admin.id, { name });
-  await addMember(dataSource, admin, project.id, author.id);
-  await addMember(dataSource, admin, project.id, designer.id);
+  await addMember(dataSource, admin, project.id, author.id, 'requirements');
+  await addMember(dataSource, admin, project.id, designer.id, 'designer');
   const spec = await createSpec(dataSource, author, project.id, { title: payload.title, payload });
   return { project, spec };
 }
@@ -103,7 +103,7 @@ const [{ n: storedProposals }] = await dataSource.query('SELECT count(*) AS n FR
 const freshSpecs: { id: number }[] = await dataSource.query('SELECT id FROM spec WHERE project_id = ? AND id > ? ORDER BY id', [asked.project.id, asked.spec.id]);
 
 let serverErrors = 0;
-const app = createApp({ dataSource, sessionSecret: 'bench-session-secret-0123456789abcdef', ruleSet, log: () => (serverErrors += 1) });
+const app = createApp({ dataSource, sessionSecret: 'bench-session-secret-0123456789abcdef', ruleSet, log: () => (serverErrors += 1), proposalsPerMinute: 1_000_000 }); // throughput, not the per-person limit
 const server = http.createServer(app);
 server.listen(0, '127.0.0.1', () => {
   const address = server.address() as { port: number };

@@ -112,7 +112,8 @@ const server = await startServer({
     const start = performance.now();
     const [admin, author, designer] = await Promise.all(['admin', 'requirements', 'designer'].map((role) => findUserForSignIn(dataSource, demoEmail(role as 'admin'))));
     const project = await createProject(dataSource, admin!.id, { name: 'Web benchmark: 10,000 stored proposals', description: 'Seeded by tests/bench/web.bench.ts.' });
-    for (const member of [author!, designer!]) await addMember(dataSource, publicUser(admin!), project.id, member.id);
+    await addMember(dataSource, publicUser(admin!), project.id, author!.id, 'requirements');
+    await addMember(dataSource, publicUser(admin!), project.id, designer!.id, 'designer');
     const specPath = join(fileURLToPath(new URL('.', import.meta.url)), '..', '..', 'api', 'demo', 'specs', BENCH_SPEC_FILE);
     const payload = JSON.parse(readFileSync(specPath, 'utf8')) as { title: string };
     const spec = await createSpec(dataSource, publicUser(author!), project.id, { title: payload.title, payload });

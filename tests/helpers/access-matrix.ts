@@ -99,7 +99,7 @@ const restoreMatrixCard = (key: 'device' | 'otherDevice') => async (api: TestApi
   await repository.update({ id: card.id }, { nameKey: card.name.toLowerCase(), retirement: null, retiredAt: null, retiredById: null, replacedById: null });
 };
 const ensureReviewer2Member = (key: 'project' | 'otherProject') => async (api: TestApi, ids: Ids) => {
-  await addMember(api.dataSource, api.users.admin, ids[key], ids.reviewer2);
+  await addMember(api.dataSource, api.users.admin, ids[key], ids.reviewer2, 'reviewer');
 };
 
 export const MATRIX: Row[] = [
@@ -128,7 +128,7 @@ export const MATRIX: Row[] = [
     route: 'POST /api/users',
     url: '/api/users',
     rule: 'users:manage',
-    body: (_ids, caller) => ({ email: `matrix-${caller}@tests.longtail.test`, displayName: 'Matrix account', role: 'designer', password: 'moss-granary-5521' }),
+    body: (_ids, caller) => ({ email: `matrix-${caller}@tests.longtail.test`, displayName: 'Matrix account', role: 'member', password: 'moss-granary-5521' }),
     expected: [401, 201, 403, 403, 403],
   },
   { route: 'PATCH /api/users/:id', url: '/api/users/{reviewer2}', rule: 'users:manage', body: () => ({ displayName: 'Second reviewer (renamed)' }), expected: [401, 200, 403, 403, 403] },
@@ -143,8 +143,8 @@ export const MATRIX: Row[] = [
   { route: 'GET /api/projects/:id', url: '/api/projects/{otherProject}', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
   { route: 'GET /api/projects/:id/members', url: '/api/projects/{project}/members', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/projects/:id/members', url: '/api/projects/{otherProject}/members', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
-  { route: 'POST /api/projects/:id/members', url: '/api/projects/{project}/members', rule: 'members:manage', body: (ids) => ({ userId: ids.reviewer2 }), expected: [401, 201, 403, 403, 403] },
-  { route: 'POST /api/projects/:id/members', url: '/api/projects/{otherProject}/members', rule: 'members:manage', body: (ids) => ({ userId: ids.reviewer2 }), expected: [401, 201, 403, 403, 403] },
+  { route: 'POST /api/projects/:id/members', url: '/api/projects/{project}/members', rule: 'members:manage', body: (ids) => ({ userId: ids.reviewer2, role: 'reviewer' }), expected: [401, 201, 403, 403, 403] },
+  { route: 'POST /api/projects/:id/members', url: '/api/projects/{otherProject}/members', rule: 'members:manage', body: (ids) => ({ userId: ids.reviewer2, role: 'reviewer' }), expected: [401, 201, 403, 403, 403] },
   { route: 'DELETE /api/projects/:id/members/:userId', url: '/api/projects/{project}/members/{reviewer2}', rule: 'members:manage', arrange: ensureReviewer2Member('project'), expected: [401, 204, 403, 403, 403] },
   { route: 'DELETE /api/projects/:id/members/:userId', url: '/api/projects/{otherProject}/members/{reviewer2}', rule: 'members:manage', arrange: ensureReviewer2Member('otherProject'), expected: [401, 204, 403, 403, 403] },
   { route: 'GET /api/projects/:id/specs', url: '/api/projects/{project}/specs', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
@@ -292,18 +292,21 @@ const ANALYZE_DESIGN = {
 
 /**
  * The records the matrix's URLs name, made through the services on a fresh app: a project with
- * every non-admin account as a member and one with only the second designer and reviewer, a spec
- * in each (two versions), and proposals in the states the rows need.
+ * every non-admin account as a member in its usual role, and one with only the second designer
+ * and reviewer, a spec in each (two versions), and proposals in the states the rows need. The
+ * other project's spec is written by the second reviewer as that project's systems engineer,
+ * who then becomes its reviewer (roles are per project; the services check them too).
  */
 export async function arrangeMatrix(api: TestApi): Promise<Ids> {
   const { dataSource, users, ruleSet } = api;
   const project = await api.createProject(['requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'], 'Quillon sensor head');
-  const otherProject = await api.createProject(['designer2', 'reviewer2'], 'Sallow tide gauge');
+  const otherProject = await api.createProject(['designer2', 'reviewer2'], 'Sallow tide gauge', { reviewer2: 'requirements' });
   const spec = await api.createSpec(project.id);
-  const otherSpec = await api.createSpec(otherProject.id, { by: 'admin', title: 'Sallow tide gauge — pressure bridge pair' });
+  const otherSpec = await api.createSpec(otherProject.id, { by: 'reviewer2', title: 'Sallow tide gauge — pressure bridge pair' });
   const revised = { ...specPayload(), powerBudgetW: 0.028 };
   await updateSpec(dataSource, users.requirements, spec.id, { title: 'Quillon sensor head — thermopile input pair', payload: revised });
-  await updateSpec(dataSource, users.admin, otherSpec.id, { title: 'Sallow tide gauge — pressure bridge pair', payload: revised });
+  await updateSpec(dataSource, users.reviewer2, otherSpec.id, { title: 'Sallow tide gauge — pressure bridge pair', payload: revised });
+  await addMember(dataSource, users.admin, otherProject.id, users.reviewer2.id, 'reviewer');
 
   const ranked = await api.createProposal(spec.id);
   const decided = await api.createProposal(spec.id);

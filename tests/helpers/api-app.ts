@@ -1,7 +1,8 @@
 /**
  * A fresh Longtail app per test file: a new database migrated by openDatabase (SQLite in memory,
  * or a new PostgreSQL database in the api-postgres project: tests/helpers/test-database.ts), the rule
- * set from rules/, six accounts (one per role, plus a second designer and a second reviewer),
+ * set from rules/, six accounts (one per role, plus a second designer and a second reviewer; each
+ * holds its role in every project it joins unless a test gives another),
  * signed-in supertest clients that carry the CSRF token, and factories that arrange projects,
  * specs and proposals through the services (so a test's Act is its only HTTP call that matters).
  */
@@ -14,7 +15,7 @@ import { createProposal } from '../../api/services/proposals.service';
 import { createSpec } from '../../api/services/specs.service';
 import { createUser, type PublicUser } from '../../api/services/users.service';
 import type { RuleSet } from '../../shared/engine/types';
-import type { Role } from '../../shared/workflow/roles';
+import type { AccountRole, ProjectRole } from '../../shared/workflow/roles';
 import { loadRuleSet } from '../../rules/index';
 import { VerificationQueue, type VerificationQueueOptions } from '../../api/verification/verification-queue';
 import { freshDatabase, type TestDatabase } from './test-database';
@@ -23,14 +24,15 @@ import { freshDatabase, type TestDatabase } from './test-database';
 export const ACCOUNT_KEYS = ['admin', 'requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'] as const;
 export type AccountKey = (typeof ACCOUNT_KEYS)[number];
 
-const ACCOUNT_ROLES: Record<AccountKey, Role> = {
-  admin: 'admin',
+/** The role each account holds in a project it joins (the admin: none but the administrator's own). */
+export const USUAL_PROJECT_ROLES: Record<Exclude<AccountKey, 'admin'>, ProjectRole> = {
   requirements: 'requirements',
   designer: 'designer',
   reviewer: 'reviewer',
   designer2: 'designer',
   reviewer2: 'reviewer',
 };
+const accountRoleOf = (key: AccountKey): AccountRole => (key === 'admin' ? 'admin' : 'member');
 
 /** Every seeded account's password (invented; ≥ 12 characters). */
 export const TEST_PASSWORD = 'tern-lantern-0417-quay';
@@ -78,8 +80,8 @@ export interface TestApi {
   agentFor(key: AccountKey): Promise<ApiClient>;
   /** A new session with a CSRF token and nobody signed in. */
   anonymous(): Promise<ApiClient>;
-  /** A project (created by the admin) with the given accounts as members. */
-  createProject(members?: AccountKey[], name?: string): Promise<{ id: number; name: string }>;
+  /** A project (created by the admin) with the given accounts as members, each in its usual role unless `roles` gives another. */
+  createProject(members?: Exclude<AccountKey, 'admin'>[], name?: string, roles?: Partial<Record<AccountKey, ProjectRole>>): Promise<{ id: number; name: string }>;
   /** A spec in a project, written by the requirements account (or `by`, who must see the project). */
   createSpec(projectId: number, options?: { payload?: Record<string, unknown>; title?: string; by?: AccountKey }): Promise<{ id: number; projectId: number; latestVersion: number }>;
   /** A ranked proposal on the spec's latest version (runs the engine). */
@@ -134,7 +136,7 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
   const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log, verification, uploadsDir: options.uploadsDir });
   const entries = await Promise.all(
     (options.accounts ?? ACCOUNT_KEYS).map(async (key) => {
-      const user = await createUser(dataSource, null, { email: emailOf(key), displayName: `Test ${key}`, role: ACCOUNT_ROLES[key], password: TEST_PASSWORD });
+      const user = await createUser(dataSource, null, { email: emailOf(key), displayName: `Test ${key}`, role: accountRoleOf(key), password: TEST_PASSWORD });
       return [key, user] as const;
     }),
   );
@@ -151,9 +153,9 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
       return client;
     },
     anonymous: () => csrfClient(app),
-    async createProject(members = ['requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'], name = 'Quillon sensor head') {
+    async createProject(members = ['requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'], name = 'Quillon sensor head', roles = {}) {
       const project = await createProject(dataSource, users.admin.id, { name, description: 'Invented project for the API tests.' });
-      for (const key of members) await addMember(dataSource, users.admin, project.id, users[key].id);
+      for (const key of members) await addMember(dataSource, users.admin, project.id, users[key].id, roles[key] ?? USUAL_PROJECT_ROLES[key]);
       return project;
     },
     async createSpec(projectId, { payload = specPayload(), title = String(payload.title ?? 'Untitled spec'), by = 'requirements' } = {}) {

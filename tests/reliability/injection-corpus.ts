@@ -134,7 +134,7 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
     const demoUsers = ((await admin.request('GET', '/api/users')).json as { items: { id: number; email: string }[] }).items;
     const project = (await admin.request('POST', '/api/projects', { name: 'Corpus project — hostile values', description: 'Where the reliability run stores its injection corpus.' })).json as { id: number };
     for (const role of ['requirements', 'designer', 'reviewer'] as const) {
-      await admin.request('POST', `/api/projects/${project.id}/members`, { userId: demoUsers.find((u) => u.email === demoEmail(role))!.id });
+      await admin.request('POST', `/api/projects/${project.id}/members`, { userId: demoUsers.find((u) => u.email === demoEmail(role))!.id, role });
     }
     // One proposal collects every reason and comment: decide, return, decide again, …
     const spec = (await author.request('POST', `/api/projects/${project.id}/specs`, { title: 'Corpus spec — plain title', payload: specPayload() })).json as { id: number };
@@ -167,9 +167,9 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
         name: 'display name',
         max: 120,
         store: async (value, i) => {
-          const answer = await admin.request('POST', '/api/users', { email: `corpus-${i}-${value.length}@corpus.longtail.test`, displayName: value, role: 'designer', password: 'corpus-password-0423' });
+          const answer = await admin.request('POST', '/api/users', { email: `corpus-${i}-${value.length}@corpus.longtail.test`, displayName: value, role: 'member', password: 'corpus-password-0423' });
           const id = (answer.json as { id?: number })?.id;
-          if (id) await admin.request('POST', `/api/projects/${project.id}/members`, { userId: id });
+          if (id) await admin.request('POST', `/api/projects/${project.id}/members`, { userId: id, role: 'designer' });
           return { status: answer.status, read: async () => ((await admin.request('GET', '/api/users')).json as { items: { id: number; displayName: string }[] }).items.find((u) => u.id === id)?.displayName ?? null };
         },
       },

@@ -162,6 +162,8 @@ export function spawnServer(settings: ServerSettings): ServerProcess {
       LONGTAIL_LOCAL_SMTP_PORT: '0',
       LONGTAIL_SESSION_SECRET: 'reliability-session-secret-0123456789abcdef',
       LONGTAIL_BASE_URL: `http://127.0.0.1:${settings.port}`,
+      // The load and crash parts measure throughput and durability, not the per-person proposal limit.
+      LONGTAIL_PROPOSALS_PER_MINUTE: '1000000',
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   });

@@ -75,7 +75,8 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   let outbox: OutboxWorker | null = null;
   if (options.mail) {
     // Links in the e-mails point at this server (rows the seed queued keep the default base URL).
-    configureNotifications({ baseUrl });
+    // A 5 s digest window, so a burst's digest goes out while the test waits for the outbox.
+    configureNotifications({ baseUrl, digestWindowMs: 5_000 });
     smtp = await startLocalSmtp({ dataSource, port: 0, log: (message) => serverErrors.push(message) });
     outbox = startOutboxWorker({ dataSource, transport: createMailTransport({ localPort: smtp.port }), from: 'Longtail <longtail@demo.longtail.test>', pollMs: 100, log: (message) => serverErrors.push(message) });
   }

@@ -129,7 +129,9 @@ describe('e-mail texts', () => {
   test('the subject is one line and the body has no control characters besides LF', () => {
     const message = composeMessage(facts, 'Ann\rAsh', 'you wrote the spec');
     expect(message.subject).not.toMatch(/[\u0000-\u001f\u007f-\u009f\u2028\u2029\u202a-\u202e\u2066-\u2069]/u);
-    expect(message.subject).toContain('Kestrel rev C .control');
+    // User text never reaches a header: the subject names the proposal and the version only; the title is in the body, on one line.
+    expect(message.subject).toBe('Proposal #7 sent back for rework (spec version 2)');
+    expect(message.text.split('\n')).toContain('Spec: "Kestrel rev C .control", version 2');
     expect(message.text).not.toMatch(/[\u0000-\u0009\u000b-\u001f\u007f-\u009f\u2028\u2029\u202a-\u202e\u2066-\u2069]/u);
     expect(message.text.split('\n')).toEqual(expect.arrayContaining(['Hello Ann Ash,', 'Project: Kestrel  Bcc: someone@example.test', '  first', '  second', '  third']));
     expect(message.text.split('\n').some((line) => line.startsWith('Bcc:'))).toBe(false);

@@ -199,4 +199,31 @@ describe('rankInTurn', () => {
       ['C', 30, null],
     ]);
   });
+
+  test('when the server says too many (its per-person proposal limit), then the run waits and asks for the same spec again, saying so', async () => {
+    const calls: number[] = [];
+    const waits: number[] = [];
+    const progress: (number | undefined)[] = [];
+    const tooMany = new Error('You asked for 60 proposals in the last minute');
+    const outcomes = await rankInTurn(
+      [
+        { specId: 1, title: 'A' },
+        { specId: 2, title: 'B' },
+      ],
+      async (specId) => {
+        calls.push(specId);
+        if (specId === 2 && calls.filter((c) => c === 2).length < 3) throw tooMany;
+        return { id: specId * 10 };
+      },
+      { waitBefore: (error) => (error === tooMany ? 10_000 : null), sleep: async (ms) => void waits.push(ms), onProgress: (p) => progress.push(p.waitingS) },
+    );
+
+    expect(calls).toEqual([1, 2, 2, 2]);
+    expect(waits).toEqual([10_000, 10_000]);
+    expect(progress.filter((s) => s !== undefined)).toEqual([10, 10]);
+    expect(outcomes.map((o) => [o.item.title, o.proposal?.id ?? null, o.error ?? null])).toEqual([
+      ['A', 10, null],
+      ['B', 20, null],
+    ]);
+  });
 });

@@ -21,7 +21,7 @@ configure({ asyncUtilTimeout: 5000 });
 const api = useMockedApi();
 
 const ADMIN: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', notify: true, createdAt: '2026-01-01T00:00:00Z' };
-const DESIGNER: User = { id: 3, email: 'priya@example.test', displayName: 'Priya Example', role: 'designer', notify: true, createdAt: '2026-01-01T00:00:00Z' };
+const DESIGNER: User = { id: 3, email: 'priya@example.test', displayName: 'Priya Example', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], notify: true, createdAt: '2026-01-01T00:00:00Z' };
 
 const MAILBOX: Mailbox = {
   items: [

@@ -19,7 +19,7 @@ const api = useMockedApi();
 async function fillNewUser(fields: { email?: string; name?: string; password?: string } = {}) {
   await userEvent.type(screen.getByLabelText('E-mail'), fields.email ?? 'new.person@example.test');
   await userEvent.type(screen.getByLabelText('Display name'), fields.name ?? 'New Person');
-  await userEvent.selectOptions(screen.getByLabelText('Role'), 'reviewer');
+  await userEvent.selectOptions(screen.getByLabelText('Account'), 'member');
   const password = fields.password ?? 'copper tail current';
   if (password) await userEvent.type(screen.getByLabelText('First password'), password);
   await userEvent.click(screen.getByRole('button', { name: 'Create account' }));
@@ -39,7 +39,7 @@ describe('new account form', () => {
     expect(document.activeElement).toBe(name);
     expect(screen.getByRole('textbox', { name: 'E-mail' }).getAttribute('aria-invalid')).toBeNull();
     const post = api.sent.find((r) => r.method === 'POST');
-    expect(post?.body).toEqual({ email: 'new.person@example.test', displayName: 'New Person', role: 'reviewer', password: 'copper tail current' });
+    expect(post?.body).toEqual({ email: 'new.person@example.test', displayName: 'New Person', role: 'member', password: 'copper tail current' });
     expect(post?.headers['X-CSRF-Token']).toBe('csrf-token');
   });
 
@@ -67,12 +67,12 @@ describe('new account form', () => {
   });
 
   test('when the account is created, then the form empties and says who can sign in', async () => {
-    const created: User = { id: 9, email: 'new.person@example.test', displayName: 'New Person', role: 'reviewer', createdAt: '2026-12-01T00:00:00Z' };
+    const created: User = { id: 9, email: 'new.person@example.test', displayName: 'New Person', role: 'member', createdAt: '2026-12-01T00:00:00Z' };
     api.routes['POST /api/users'] = { status: 201, body: created };
     renderWithClient(<NewUserForm />);
     await fillNewUser();
 
-    expect(await screen.findByText(/New Person \(Reviewer\) can now sign in as new.person@example.test/)).toBeTruthy();
+    expect(await screen.findByText(/New Person \(Member\) can now sign in as new.person@example.test/)).toBeTruthy();
     expect((screen.getByLabelText('E-mail') as HTMLInputElement).value).toBe('');
   });
 });
@@ -83,21 +83,21 @@ describe('accounts table', () => {
   test('when you confirm taking the admin role from yourself, then the server’s refusal (409) is shown', async () => {
     api.routes['PATCH /api/users/1'] = { status: 409, body: { error: 'You cannot take the administrator role from yourself.', code: 'last-admin', details: [] } };
     renderWithClient(<UsersTable users={[me]} currentUserId={1} />);
-    await userEvent.selectOptions(screen.getByLabelText('Role of Ines Admin'), 'designer');
+    await userEvent.selectOptions(screen.getByLabelText('Role of Ines Admin'), 'member');
     const confirm = screen.getByRole('group', { name: 'Confirm the role change of Ines Admin' });
     expect(within(confirm).getByText(/Change your own role from/)).toBeTruthy();
     await userEvent.click(within(confirm).getByRole('button', { name: 'Change role' }));
 
     expect((await screen.findByRole('alert')).textContent).toMatch('You cannot take the administrator role from yourself.');
     expect((screen.getByLabelText('Role of Ines Admin') as HTMLSelectElement).value).toBe('admin');
-    expect(api.sent.find((r) => r.method === 'PATCH')?.body).toEqual({ role: 'designer' });
+    expect(api.sent.find((r) => r.method === 'PATCH')?.body).toEqual({ role: 'member' });
   });
 });
 
 describe('people page', () => {
   test('when someone other than an admin opens it, then it says so and asks the server for nothing', async () => {
     const queryClient = testQueryClient();
-    queryClient.setQueryData(authKeys.me(), { id: 3, email: 'd@example.test', displayName: 'Dee', role: 'designer', createdAt: '2026-01-01T00:00:00Z' } satisfies User);
+    queryClient.setQueryData(authKeys.me(), { id: 3, email: 'd@example.test', displayName: 'Dee', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: '2026-01-01T00:00:00Z' } satisfies User);
     const Stub = createRoutesStub([{ path: '/people', Component: PeoplePage, loader: loader(queryClient), HydrateFallback: () => null }]);
     renderWithClient(<Stub initialEntries={['/people']} />, queryClient);
 

@@ -5,17 +5,23 @@ import type { Design, RecommendResult } from '../../../shared/engine/index';
 import type { Spec as SpecDocument } from '../../../shared/engine/types';
 import type { JsonChange } from '../../../shared/json-diff';
 import type { ProposalEvent, ProposalState } from '../../../shared/workflow/proposal-states';
-import type { Role } from '../../../shared/workflow/roles';
+import type { AccountRole, ProjectRole, ProjectRoleOf } from '../../../shared/workflow/roles';
 
 export interface User {
   id: number;
   email: string;
   displayName: string;
-  role: Role;
+  /** The account's own role: administrator or member (what a member may do is per project). */
+  role: AccountRole;
+  /** The role held in each project (the signed-in person, from /api/auth/me and sign-in). */
+  projectRoles?: ProjectRoleOf[];
   /** E-mail notifications on (the server always answers it; absent counts as on). */
   notify?: boolean;
   createdAt: string;
 }
+
+/** A project's member (GET /api/projects/:id/members): the account and the role held in that project. */
+export type ProjectMember = User & { projectRole: ProjectRole | null };
 
 /** The admin mailbox (GET /api/admin/mail). */
 export type { Mailbox, ReceivedMail } from '../../../shared/mail/types';

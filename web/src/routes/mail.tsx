@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
-import { may } from '../../../shared/workflow/roles';
+import { mayAs } from '../../../shared/workflow/roles';
 import { RouteError } from '../app/route-error';
 import { Button } from '../components/ui/button';
 import { PageHeader } from '../components/ui/page-header';
@@ -13,14 +13,14 @@ import { MailReader } from '../features/mail/components/mail-reader';
 /** The mailbox for an admin; nobody else is asked for it (the server would refuse). */
 export const loader = (queryClient: QueryClient) => async () => {
   const user = await queryClient.ensureQueryData(meQuery());
-  if (user && may(user.role, 'mail:read')) await queryClient.ensureQueryData(mailboxQuery());
+  if (user && mayAs(user, null, 'mail:read')) await queryClient.ensureQueryData(mailboxQuery());
   return null;
 };
 
 export function Component() {
   const { data: user } = useSuspenseQuery(meQuery());
   if (!user) return null;
-  if (!may(user.role, 'mail:read')) return <NotAllowed />;
+  if (!mayAs(user, null, 'mail:read')) return <NotAllowed />;
   return <Mail />;
 }
 

@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
-import { may } from '../../../shared/workflow/roles';
+import { mayAs } from '../../../shared/workflow/roles';
 import { RouteError } from '../app/route-error';
 import { EmptyState } from '../components/ui/feedback';
 import { PageHeader } from '../components/ui/page-header';
@@ -17,7 +17,7 @@ import { ProjectMembers } from '../features/projects/components/project-members'
 /** Accounts and projects for an admin; nobody else is asked for them (the server would refuse). */
 export const loader = (queryClient: QueryClient) => async () => {
   const user = await queryClient.ensureQueryData(meQuery());
-  if (user && may(user.role, 'users:manage')) {
+  if (user && mayAs(user, null, 'users:manage')) {
     await Promise.all([queryClient.ensureQueryData(userListQuery()), queryClient.ensureQueryData(projectListQuery())]);
   }
   return null;
@@ -26,7 +26,7 @@ export const loader = (queryClient: QueryClient) => async () => {
 export function Component() {
   const { data: user } = useSuspenseQuery(meQuery());
   if (!user) return null;
-  if (!may(user.role, 'users:manage')) return <NotAllowed />;
+  if (!mayAs(user, null, 'users:manage')) return <NotAllowed />;
   return <PeopleAdmin currentUserId={user.id} />;
 }
 

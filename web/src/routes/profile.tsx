@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useSuspenseQuery } from '@tanstack/react-query';
-import { ROLE_TITLES } from '../../../shared/workflow/roles';
+import { heldRoleTitles } from '../../../shared/workflow/roles';
 import { RouteError } from '../app/route-error';
 import { PageHeader } from '../components/ui/page-header';
 import { Sheet } from '../components/ui/sheet';
@@ -19,7 +19,7 @@ export function Component() {
   return (
     <>
       <PageHeader title="Your profile" eyebrow="Account">
-        Your name and role are set by an administrator; the e-mail switch is yours.
+        Your name and your role in each project are set by an administrator; the e-mail switch is yours.
       </PageHeader>
       <div className="grid max-w-3xl gap-6">
         <Sheet title="Account" aria-label="Account">
@@ -28,8 +28,8 @@ export function Component() {
             <dd>{user.displayName}</dd>
             <dt className="text-ink-soft dark:text-night-ink-soft">E-mail</dt>
             <dd>{user.email}</dd>
-            <dt className="text-ink-soft dark:text-night-ink-soft">Role</dt>
-            <dd>{ROLE_TITLES[user.role]}</dd>
+            <dt className="text-ink-soft dark:text-night-ink-soft">Roles</dt>
+            <dd>{heldRoleTitles(user).join(', ') || 'None yet: an administrator adds you to a project with a role.'}</dd>
           </dl>
         </Sheet>
         <Sheet title="E-mail notifications" aria-label="E-mail notifications">

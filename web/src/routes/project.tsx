@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { may } from '../../../shared/workflow/roles';
+import { mayAs, projectRoleOf } from '../../../shared/workflow/roles';
 import { RouteError } from '../app/route-error';
 import { PageHeader } from '../components/ui/page-header';
 import { Sheet } from '../components/ui/sheet';
@@ -36,7 +36,7 @@ export function Component() {
   const { data: user } = useSuspenseQuery(meQuery());
   const { data: project } = useSuspenseQuery(projectQuery(projectId));
   const { data: specs } = useSuspenseQuery(projectSpecsQuery(projectId));
-  const canManage = user !== null && may(user.role, 'members:manage');
+  const canManage = user !== null && mayAs(user, null, 'members:manage');
   const allUsers = useQuery({ ...userListQuery(), enabled: canManage });
   const view = useProposalView();
   if (!user) return null;
@@ -49,14 +49,14 @@ export function Component() {
       <PageHeader title={project.name} eyebrow="Project">
         {project.description || 'No description.'}
       </PageHeader>
-      <NeedsYou projectId={projectId} role={user.role} onShow={showProposals} />
+      <NeedsYou projectId={projectId} role={projectRoleOf(user.projectRoles, projectId) ?? (user.role === 'admin' ? 'admin' : null)} onShow={showProposals} />
       <div className="mb-6 grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_18rem]">
-        <SpecsSection projectId={projectId} specs={specs.items} canWrite={may(user.role, 'specs:write')} />
+        <SpecsSection projectId={projectId} specs={specs.items} canWrite={mayAs(user, projectId, 'specs:write')} />
         <Sheet title="People on this project" aria-label="People on this project">
           <ProjectMembers projectId={projectId} manage={canManage ? { allUsers: allUsers.data?.items, allUsersError: allUsers.error } : undefined} />
         </Sheet>
       </div>
-      <DeviceLibrary projectId={projectId} canUpload={may(user.role, 'devices:write')} />
+      <DeviceLibrary projectId={projectId} canUpload={mayAs(user, projectId, 'devices:write')} />
       <ProposalsSection projectId={projectId} specs={specs.items} />
     </>
   );

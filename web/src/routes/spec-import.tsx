@@ -2,7 +2,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { may } from '../../../shared/workflow/roles';
+import { mayAs } from '../../../shared/workflow/roles';
 import { RouteError } from '../app/route-error';
 import { meQuery } from '../features/auth/api/auth-queries';
 import { BatchImport } from '../features/batch/components/batch-import';
@@ -27,7 +27,7 @@ export function Component() {
       <ProjectPageHeader project={project} title="Import specs">
         Many requirement specs from one file: check every row, save the valid ones, rank them all, download the results.
       </ProjectPageHeader>
-      <BatchImport projectId={projectId} canRank={may(user.role, 'proposals:create')} />
+      <BatchImport projectId={projectId} canRank={mayAs(user, projectId, 'proposals:create')} />
     </SpecWritersOnly>
   );
 }

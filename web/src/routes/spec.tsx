@@ -2,7 +2,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { useQuery, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, useLocation, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { may } from '../../../shared/workflow/roles';
+import { mayAs } from '../../../shared/workflow/roles';
 import { RouteError } from '../app/route-error';
 import { PageHeader } from '../components/ui/page-header';
 import { paths } from '../config/paths';
@@ -36,8 +36,8 @@ export function Component() {
   const [savedVersion, setSavedVersion] = useState<number | null>((location.state as { savedVersion?: number } | null)?.savedVersion ?? null);
   if (!user) return null;
 
-  const canWrite = may(user.role, 'specs:write');
-  const canRank = may(user.role, 'proposals:create');
+  const canWrite = mayAs(user, spec.projectId, 'specs:write');
+  const canRank = mayAs(user, spec.projectId, 'proposals:create');
   const author = spec.latest.createdById === user.id ? 'you' : (members.data?.items.find((m) => m.id === spec.latest.createdById)?.displayName ?? `user #${spec.latest.createdById}`);
 
   const onSave = async (draft: SpecDraft) => {

@@ -1,14 +1,13 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
-import { ROLE_TITLES } from '../../../shared/workflow/roles';
 import { EmptyState } from '../components/ui/feedback';
 import { PageHeader } from '../components/ui/page-header';
 import { paths } from '../config/paths';
 import { meQuery } from '../features/auth/api/auth-queries';
 import { projectListQuery } from '../features/projects/api/project-queries';
 import { NewProjectForm } from '../features/projects/components/new-project-form';
-import { may } from '../../../shared/workflow/roles';
+import { heldRoles, heldRoleTitles, mayAs, projectRoleOf, ROLE_TITLES } from '../../../shared/workflow/roles';
 
 export const loader = (queryClient: QueryClient) => async () => {
   await queryClient.ensureQueryData(projectListQuery());
@@ -29,8 +28,8 @@ export function Component() {
   if (!user) return null;
   return (
     <>
-      <PageHeader title="Workbench" eyebrow={ROLE_TITLES[user.role]}>
-        {ROLE_HINTS[user.role]}
+      <PageHeader title="Workbench" eyebrow={heldRoleTitles(user).join(' · ') || 'Member'}>
+        {heldRoles(user).map((role) => ROLE_HINTS[role]).join(' ') || 'An administrator adds you to a project with your role in it; it then appears here.'}
       </PageHeader>
       <section aria-labelledby="projects-heading">
         <h2 id="projects-heading" className="mb-3 text-sm font-medium tracking-wide text-ink-soft uppercase dark:text-night-ink-soft">
@@ -38,7 +37,7 @@ export function Component() {
         </h2>
         {data.items.length === 0 ? (
           <EmptyState title="No projects yet">
-            {may(user.role, 'projects:create') ? 'Create the first one below.' : 'An administrator adds you to a project; it then appears here.'}
+            {mayAs(user, null, 'projects:create') ? 'Create the first one below.' : 'An administrator adds you to a project; it then appears here.'}
           </EmptyState>
         ) : (
           <ul className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
@@ -49,6 +48,9 @@ export function Component() {
                   className="block h-full rounded-lg border border-rule bg-sheet p-4 hover:border-fern dark:border-night-rule dark:bg-night-sheet dark:hover:border-fern-soft"
                 >
                   <span className="block font-medium">{project.name}</span>
+                  {projectRoleOf(user.projectRoles, project.id) && (
+                    <span className="mt-0.5 block text-xs text-fern dark:text-fern-bright">You: {ROLE_TITLES[projectRoleOf(user.projectRoles, project.id)!].toLowerCase()}</span>
+                  )}
                   <span className="mt-1 block text-sm text-ink-soft dark:text-night-ink-soft">{project.description || 'No description.'}</span>
                 </Link>
               </li>
@@ -56,7 +58,7 @@ export function Component() {
           </ul>
         )}
       </section>
-      {may(user.role, 'projects:create') && <NewProjectForm />}
+      {mayAs(user, null, 'projects:create') && <NewProjectForm />}
     </>
   );
 }

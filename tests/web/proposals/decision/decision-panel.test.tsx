@@ -65,6 +65,25 @@ describe('DecisionPanel', () => {
     expect(fetchMock.to('POST', '/api/proposals/2/decision')[0].body).toEqual({ kind: 'accept' });
   });
 
+  test('when the person designs in another project and reviews in this one, then the form is not offered here', async () => {
+    fetchMock = mockFetch(MEMBERS);
+    const designsElsewhere = { ...DESIGNER, projectRoles: [{ projectId: 1, role: 'reviewer' as const }, { projectId: 2, role: 'designer' as const }] };
+    renderWithClient(<DecisionPanel proposal={proposalFixture()} user={designsElsewhere} />);
+
+    expect(screen.getByRole('region', { name: 'Decision' })).toBeTruthy();
+    expect(screen.queryByRole('region', { name: 'Your decision' })).toBeNull();
+    expect(screen.queryByRole('button', { name: /Accept/ })).toBeNull();
+    expect(await screen.findByText(/waits for a designer/)).toBeTruthy();
+  });
+
+  test('when the same person opens a proposal of the project where they design, then the form is offered', () => {
+    fetchMock = mockFetch({ 'GET /api/projects/2/members': () => ({ body: { items: [DESIGNER] } }) });
+    const designsElsewhere = { ...DESIGNER, projectRoles: [{ projectId: 1, role: 'reviewer' as const }, { projectId: 2, role: 'designer' as const }] };
+    renderWithClient(<DecisionPanel proposal={proposalFixture({ projectId: 2 })} user={designsElsewhere} />);
+
+    expect(screen.getByRole('region', { name: 'Your decision' })).toBeTruthy();
+  });
+
   test('when nothing is recommended, then accepting is disabled with the reason why', () => {
     fetchMock = mockFetch({ ...MEMBERS });
     renderWithClient(<DecisionPanel proposal={proposalFixture({ result: { ...RANKING, recommended: null } })} user={DESIGNER} />);

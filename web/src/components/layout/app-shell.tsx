@@ -1,8 +1,7 @@
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { NavLink, Outlet, useNavigate } from 'react-router-dom';
-import { may } from '../../../../shared/workflow/roles';
-import { ROLE_TITLES } from '../../../../shared/workflow/roles';
+import { heldRoleTitles, mayAs } from '../../../../shared/workflow/roles';
 import { paths } from '../../config/paths';
 import { meQuery, signOut } from '../../features/auth/api/auth-queries';
 import { cn } from '../../lib/cn';
@@ -46,12 +45,12 @@ export function AppShell() {
             <NavLink to={paths.workbench.href()} end className={navClass}>
               Workbench
             </NavLink>
-            {may(user.role, 'users:manage') && (
+            {mayAs(user, null, 'users:manage') && (
               <NavLink to={paths.people.href()} className={navClass}>
                 People
               </NavLink>
             )}
-            {may(user.role, 'mail:read') && (
+            {mayAs(user, null, 'mail:read') && (
               <NavLink to={paths.mail.href()} className={navClass}>
                 Mail
               </NavLink>
@@ -64,7 +63,7 @@ export function AppShell() {
             <NavLink to={paths.profile.href()} title="Your profile and e-mail setting" className="text-right leading-tight hover:underline">
               <span className="sr-only">Your profile: </span>
               <span className="hidden sm:block">{user.displayName}</span>
-              <span className="hidden text-xs text-ink-soft sm:block dark:text-night-ink-soft">{ROLE_TITLES[user.role]}</span>
+              <span className="hidden text-xs text-ink-soft sm:block dark:text-night-ink-soft">{heldRoleTitles(user).join(' · ') || 'Member'}</span>
               <span className="sm:hidden">Profile</span>
             </NavLink>
             <button type="button" onClick={onSignOut} className="rounded-md border border-rule px-2.5 py-1 hover:bg-paper dark:border-night-rule dark:hover:bg-night">

@@ -42,6 +42,10 @@ function writesText(counts: ImportReport['counts']): string {
 /** What saving the checked file would write: new specs and new versions (unchanged rows write nothing). */
 const toWrite = (report: ImportReport) => report.counts.created + report.counts['new-version'];
 
+/** After the server's per-person proposal limit (429), ask again in 10 s; anything else is a failure of that spec. */
+const TOO_MANY_WAIT_MS = 10_000;
+const waitWhenTooMany = (error: unknown) => (error instanceof ApiError && error.status === 429 ? TOO_MANY_WAIT_MS : null);
+
 export function BatchImport({ projectId, canRank }: { projectId: number; canRank: boolean }) {
   const queryClient = useQueryClient();
   const fileInput = useRef<HTMLInputElement>(null);
@@ -205,7 +209,7 @@ function RankBatch({ projectId, report, canRank }: { projectId: number; report: 
 
   const start = async (list: RankItem[]) => {
     stop.current = false;
-    const results = await rankInTurn(list, rankImportedSpec, { onProgress: setProgress, shouldStop: () => stop.current });
+    const results = await rankInTurn(list, rankImportedSpec, { onProgress: setProgress, shouldStop: () => stop.current, waitBefore: waitWhenTooMany });
     setOutcomes((before) => {
       const kept = (before ?? []).filter((o) => !results.some((r) => r.item.specId === o.item.specId));
       return [...kept, ...results];
@@ -260,6 +264,7 @@ function RankBatch({ projectId, report, canRank }: { projectId: number; report: 
             {progress.current ? (
               <>
                 Ranking {progress.done + 1} of {progress.total}: <span className="font-medium">{progress.current.title}</span>
+                {progress.waitingS !== undefined && ` — waiting ${progress.waitingS} s: the server takes at most a set number of proposals a minute from one person`}
               </>
             ) : (
               `Ranked ${ranked.length} of ${progress.total}${progress.done < progress.total ? ' (stopped)' : ''}.`

@@ -11,7 +11,7 @@ import { useId, useState } from 'react';
 import { comparisonSentence, measurementReference } from '../../../../../shared/measurements/comparison';
 import { MEASUREMENT_QUOTA, type MeasurementSummary, type MeasurementView } from '../../../../../shared/measurements/types';
 import type { ProposalVerificationResult } from '../../../../../shared/verification/types';
-import { may } from '../../../../../shared/workflow/roles';
+import { mayAs } from '../../../../../shared/workflow/roles';
 import { FileUploadButton, UploadProblems } from '../../../components/forms/file-upload';
 import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
@@ -38,7 +38,7 @@ export function MeasurementsPanel({ proposal, user }: { proposal: Proposal; user
   const measurements = useQuery(measurementsQuery(proposal.id, page));
   const upload = useUploadMeasurement(proposal.id);
   const decided = MEASURABLE.includes(proposal.status) && proposal.decisions.length > 0;
-  const canUpload = may(user.role, 'measurements:write') && decided;
+  const canUpload = mayAs(user, proposal.projectId, 'measurements:write') && decided;
   const noteId = useId();
   const [note, setNote] = useState('');
   const [chosenId, setChosenId] = useState<number | null>(null);

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Role } from '../../../../../shared/workflow/roles';
+import type { AccountRole } from '../../../../../shared/workflow/roles';
 import { createUser, updateUser, userKeys, type NewUser } from './user-queries';
 
 /**
@@ -17,7 +17,7 @@ export function useCreateUser() {
 export function useUpdateUser(alsoRefresh?: () => Promise<unknown>) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, changes }: { id: number; changes: { displayName?: string; role?: Role } }) => updateUser(id, changes),
+    mutationFn: ({ id, changes }: { id: number; changes: { displayName?: string; role?: AccountRole } }) => updateUser(id, changes),
     onSuccess: () => Promise.all([queryClient.invalidateQueries({ queryKey: userKeys.all }), alsoRefresh?.()]),
   });
 }

@@ -1,5 +1,5 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { Role } from '../../../../../shared/workflow/roles';
+import type { AccountRole } from '../../../../../shared/workflow/roles';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import type { Items, User } from '../../../lib/api-types';
@@ -15,7 +15,7 @@ export const userListQuery = () => queryOptions({ queryKey: userKeys.list(), que
 export interface NewUser {
   email: string;
   displayName: string;
-  role: Role;
+  role: AccountRole;
   password: string;
 }
 
@@ -23,6 +23,6 @@ export function createUser(body: NewUser): Promise<User> {
   return apiClient.post<User>(api.users, body);
 }
 
-export function updateUser(id: number, changes: { displayName?: string; role?: Role }): Promise<User> {
+export function updateUser(id: number, changes: { displayName?: string; role?: AccountRole }): Promise<User> {
   return apiClient.patch<User>(api.user(id), changes);
 }

@@ -1,5 +1,5 @@
 import { useEffect, useId, useRef, useState, type FormEvent } from 'react';
-import { ROLES, ROLE_TITLES, type Role } from '../../../../../shared/workflow/roles';
+import { ACCOUNT_ROLES, ACCOUNT_ROLE_TITLES, type AccountRole } from '../../../../../shared/workflow/roles';
 import { Button } from '../../../components/ui/button';
 import { Sheet } from '../../../components/ui/sheet';
 import { useCreateUser } from '../api/user-mutations';
@@ -12,7 +12,7 @@ import { PasswordHint } from './password-hint';
 const FIELDS = ['email', 'displayName', 'role', 'password'] as const;
 type FieldName = (typeof FIELDS)[number];
 
-const EMPTY: NewUser = { email: '', displayName: '', role: 'designer', password: '' };
+const EMPTY: NewUser = { email: '', displayName: '', role: 'member', password: '' };
 
 /** The checks people expect before anything is sent; the server checks again and has the last word. */
 function localErrors(user: NewUser): FieldErrors<FieldName> {
@@ -55,7 +55,7 @@ export function NewUserForm() {
       {
         onSuccess: (account) => {
           setUser(EMPTY);
-          setCreated(`${account.displayName} (${ROLE_TITLES[account.role]}) can now sign in as ${account.email}.`);
+          setCreated(`${account.displayName} (${ACCOUNT_ROLE_TITLES[account.role]}) can now sign in as ${account.email}.`);
         },
         onError: (error) => refuse(fieldErrors(error, FIELDS)),
       },
@@ -68,20 +68,21 @@ export function NewUserForm() {
         <Field label="Display name" autoComplete="off" value={user.displayName} maxLength={120} onChange={(e) => set('displayName', e.target.value)} error={errors.displayName} />
         <div className="text-sm">
           <label htmlFor={roleId} className="mb-1 block font-medium">
-            Role
+            Account
           </label>
           <select
             id={roleId}
             value={user.role}
-            onChange={(e) => set('role', e.target.value as Role)}
+            onChange={(e) => set('role', e.target.value as AccountRole)}
             className="w-full rounded-md border border-rule bg-sheet px-2 py-1.5 dark:border-night-rule dark:bg-night"
           >
-            {ROLES.map((role) => (
+            {ACCOUNT_ROLES.map((role) => (
               <option key={role} value={role}>
-                {ROLE_TITLES[role]}
+                {ACCOUNT_ROLE_TITLES[role]}
               </option>
             ))}
           </select>
+          <p className="mt-1 text-xs text-ink-soft dark:text-night-ink-soft">What a member does (systems engineer, designer, reviewer) is set per project, when you add them to one.</p>
           {errors.role && <p className="mt-1 text-xs text-short dark:text-short-bright">{errors.role}</p>}
         </div>
         <Field

@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { ROLES, ROLE_TITLES, type Role } from '../../../../../shared/workflow/roles';
+import { ACCOUNT_ROLES, ACCOUNT_ROLE_TITLES, type AccountRole } from '../../../../../shared/workflow/roles';
 import { Button } from '../../../components/ui/button';
 import type { User } from '../../../lib/api-types';
 import { useUpdateUser } from '../api/user-mutations';
@@ -13,7 +13,7 @@ const dateOnly = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'sh
 export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean; onChanged?: () => Promise<unknown> }) {
   const [renaming, setRenaming] = useState(false);
   const [name, setName] = useState(user.displayName);
-  const [newRole, setNewRole] = useState<Role | null>(null);
+  const [newRole, setNewRole] = useState<AccountRole | null>(null);
   const update = useUpdateUser(onChanged);
   const nameError = renaming ? fieldErrors(update.error, ['displayName'] as const) : {};
   const startRename = () => {
@@ -31,7 +31,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
     if (name.trim() === user.displayName) return setRenaming(false);
     update.mutate({ id: user.id, changes: { displayName: name.trim() } }, { onSuccess: () => setRenaming(false) });
   };
-  const chooseRole = (role: Role) => {
+  const chooseRole = (role: AccountRole) => {
     update.reset();
     setRenaming(false);
     setNewRole(role === user.role ? null : role);
@@ -79,12 +79,12 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
           <select
             aria-label={`Role of ${user.displayName}`}
             value={newRole ?? user.role}
-            onChange={(e) => chooseRole(e.target.value as Role)}
+            onChange={(e) => chooseRole(e.target.value as AccountRole)}
             className="rounded-md border border-rule bg-sheet px-1.5 py-1 text-sm dark:border-night-rule dark:bg-night"
           >
-            {ROLES.map((role) => (
+            {ACCOUNT_ROLES.map((role) => (
               <option key={role} value={role}>
-                {ROLE_TITLES[role]}
+                {ACCOUNT_ROLE_TITLES[role]}
               </option>
             ))}
           </select>
@@ -105,8 +105,8 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
           <td colSpan={5} className="border-b border-rule/70 bg-note-soft/60 px-2.5 py-2 dark:border-night-rule/70 dark:bg-note/15">
             <div role="group" aria-label={`Confirm the role change of ${user.displayName}`} className="flex flex-wrap items-center gap-3 text-sm">
               <p>
-                Change {isYou ? 'your own role' : `${user.displayName}’s role`} from <strong className="font-medium">{ROLE_TITLES[user.role]}</strong> to{' '}
-                <strong className="font-medium">{ROLE_TITLES[newRole]}</strong>? What {isYou ? 'you' : 'they'} may do changes at once.
+                Change {isYou ? 'your own role' : `${user.displayName}’s role`} from <strong className="font-medium">{ACCOUNT_ROLE_TITLES[user.role]}</strong> to{' '}
+                <strong className="font-medium">{ACCOUNT_ROLE_TITLES[newRole]}</strong>? What {isYou ? 'you' : 'they'} may do changes at once.
               </p>
               <div className="flex gap-2">
                 <Button className="px-2.5 py-1 text-xs" disabled={update.isPending} onClick={confirmRole}>

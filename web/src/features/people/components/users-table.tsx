@@ -18,7 +18,7 @@ export function UsersTable({ users, currentUserId, onUserChanged }: { users: rea
               E-mail
             </th>
             <th scope="col" className={th}>
-              Role
+              Account
             </th>
             <th scope="col" className={th}>
               Created

@@ -1,17 +1,18 @@
-import type { Role } from '../../../../../shared/workflow/roles';
+import { heldRoles, type Role } from '../../../../../shared/workflow/roles';
 import type { User } from '../../../lib/api-types';
 import { useUpdatePreferences } from '../api/preferences';
 
-/** Which workflow e-mails each role gets (the server's rules, api/services/notifications.service.ts, in words). */
+/** Which workflow e-mails each role gets in the projects where one holds it (the server's rules, api/services/notifications.service.ts, in words). */
 const WHAT_YOU_GET: Record<Role, string[]> = {
-  designer: ['A proposal in one of your projects is ranked and waits for a decision.', 'A reviewer approves or returns your decision.'],
-  reviewer: ['A designer records a decision in one of your projects, so it waits for review.'],
+  designer: ['A proposal in a project where you design is ranked and waits for a decision.', 'A reviewer approves or returns your decision.'],
+  reviewer: ['A designer records a decision in a project where you review, so it waits for review.'],
   requirements: ['A reviewer approves or returns a proposal of a spec you wrote.'],
   admin: ['None for the administrator role: workflow e-mail goes to the designers, reviewers and spec authors of each project.'],
 };
 
 /** The e-mail switch: saved at once; the box shows what the server holds. */
 export function NotificationSwitch({ user }: { user: User }) {
+  const lines = heldRoles(user).flatMap((role) => WHAT_YOU_GET[role]);
   const update = useUpdatePreferences();
   const on = update.isPending ? (update.variables?.notify ?? user.notify !== false) : user.notify !== false;
   return (
@@ -34,7 +35,7 @@ export function NotificationSwitch({ user }: { user: User }) {
       </label>
       <p className="mt-3 text-sm">{on ? 'You get an e-mail when:' : 'It is off: Longtail sends you no workflow e-mail; each project page still shows what needs you. Turned on, you would get one when:'}</p>
       <ul className="mt-1 list-disc pl-5 text-sm text-ink-soft dark:text-night-ink-soft">
-        {WHAT_YOU_GET[user.role].map((line) => (
+        {(lines.length > 0 ? lines : ['Nothing yet: you hold no role in a project.']).map((line) => (
           <li key={line}>{line}</li>
         ))}
       </ul>

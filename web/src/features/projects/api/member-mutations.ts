@@ -1,12 +1,14 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ProjectRole } from '../../../../../shared/workflow/roles';
+import { authKeys } from '../../auth/api/auth-queries';
 import { addMember, projectKeys, removeMember } from './project-queries';
 
-/** Adds a person to a project; resolves once the member list is fetched again. */
+/** Adds a person to a project with their role there, or changes that role; resolves once the member list (and your own roles) are fetched again. */
 export function useAddMember(projectId: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (userId: number) => addMember(projectId, userId),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: projectKeys.members(projectId) }),
+    mutationFn: ({ userId, role }: { userId: number; role: ProjectRole }) => addMember(projectId, userId, role),
+    onSuccess: () => Promise.all([queryClient.invalidateQueries({ queryKey: projectKeys.members(projectId) }), queryClient.invalidateQueries({ queryKey: authKeys.me() })]),
   });
 }
 

@@ -2,7 +2,8 @@ import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { ProposalState } from '../../../../../shared/workflow/proposal-states';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Items, Page, Project, ProposalSummary, Spec, User } from '../../../lib/api-types';
+import type { ProjectRole } from '../../../../../shared/workflow/roles';
+import type { Items, Page, Project, ProjectMember, ProposalSummary, Spec } from '../../../lib/api-types';
 
 export const projectKeys = {
   all: ['projects'] as const,
@@ -17,7 +18,7 @@ export const projectKeys = {
 export const projectListQuery = () => queryOptions({ queryKey: projectKeys.list(), queryFn: () => apiClient.get<Items<Project>>(api.projects) });
 export const projectQuery = (id: number) => queryOptions({ queryKey: projectKeys.detail(id), queryFn: () => apiClient.get<Project>(api.project(id)) });
 export const projectSpecsQuery = (id: number) => queryOptions({ queryKey: projectKeys.specs(id), queryFn: () => apiClient.get<Items<Spec>>(api.projectSpecs(id)) });
-export const projectMembersQuery = (id: number) => queryOptions({ queryKey: projectKeys.members(id), queryFn: () => apiClient.get<Items<User>>(api.members(id)) });
+export const projectMembersQuery = (id: number) => queryOptions({ queryKey: projectKeys.members(id), queryFn: () => apiClient.get<Items<ProjectMember>>(api.members(id)) });
 
 export const PROPOSAL_PAGE_SIZE = 20;
 
@@ -46,8 +47,9 @@ export const projectProposalCountQuery = (id: number, status: ProposalState) =>
     },
   });
 
-export function addMember(projectId: number, userId: number): Promise<unknown> {
-  return apiClient.post(api.members(projectId), { userId });
+/** Adds the person with the role they hold in this project, or changes that role when they are a member already. */
+export function addMember(projectId: number, userId: number, role: ProjectRole): Promise<unknown> {
+  return apiClient.post(api.members(projectId), { userId, role });
 }
 
 export function removeMember(projectId: number, userId: number): Promise<void> {

@@ -16,18 +16,19 @@ const WAITING: Partial<Record<Role, { status: ProposalState; say: (n: number) =>
 };
 
 const NO_QUEUE: Record<Role, string> = {
-  admin: 'You manage who works on this project: add or remove people under “People on this project”.',
+  admin: 'You manage who works on this project and the role each holds here: under “People on this project”.',
   requirements: 'Write or revise the specs; from a spec’s page, ask the engine for a proposal.',
   designer: '',
   reviewer: '',
 };
 
-/** "What needs you": the counts of proposals waiting for this role, each a shortcut to the filter. */
-export function NeedsYou({ projectId, role, onShow }: { projectId: number; role: Role; onShow: (status: ProposalFilter) => void }) {
-  const queue = WAITING[role] ?? [];
+/** "What needs you": the counts of proposals waiting for the role held in this project, each a shortcut to the filter (nothing without a role here). */
+export function NeedsYou({ projectId, role, onShow }: { projectId: number; role: Role | null; onShow: (status: ProposalFilter) => void }) {
+  const queue = (role && WAITING[role]) ?? [];
   const counts = useQueries({ queries: queue.map((q) => projectProposalCountQuery(projectId, q.status)) });
   const frame = 'mb-6 flex flex-wrap items-center gap-x-4 gap-y-2 rounded-lg border-l-4 border-fern bg-fern-soft/60 px-4 py-2.5 text-sm dark:bg-night-sheet';
   const heading = <h2 className="font-medium text-fern dark:text-fern-bright">What needs you</h2>;
+  if (role === null) return null;
   if (queue.length === 0)
     return (
       <section aria-label="What needs you" className={frame}>

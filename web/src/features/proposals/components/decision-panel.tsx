@@ -1,4 +1,4 @@
-import { may } from '../../../../../shared/workflow/roles';
+import { mayAs } from '../../../../../shared/workflow/roles';
 import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import type { Proposal, User } from '../../../lib/api-types';
@@ -15,8 +15,8 @@ export function DecisionPanel({ proposal, user }: { proposal: Proposal; user: Us
   const mutation = useDecideMutation(proposal.id);
   const nameOf = usePersonName(proposal.projectId, user);
   const decision = latestDecision(proposal);
-  const canDecide = may(user.role, 'proposals:decide') && proposal.allowedEvents.includes('decide');
-  const reviewsNow = may(user.role, 'proposals:review') && proposal.allowedEvents.includes('approve');
+  const canDecide = mayAs(user, proposal.projectId, 'proposals:decide') && proposal.allowedEvents.includes('decide');
+  const reviewsNow = mayAs(user, proposal.projectId, 'proposals:review') && proposal.allowedEvents.includes('approve');
 
   if (canDecide) {
     return (

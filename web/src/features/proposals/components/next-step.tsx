@@ -1,4 +1,4 @@
-import { may } from '../../../../../shared/workflow/roles';
+import { mayAs } from '../../../../../shared/workflow/roles';
 import type { Proposal, User } from '../../../lib/api-types';
 
 /**
@@ -7,8 +7,8 @@ import type { Proposal, User } from '../../../lib/api-types';
  */
 export function NextStep({ proposal, user }: { proposal: Proposal; user: User }) {
   const lastReview = proposal.reviews.at(-1);
-  const canDecide = may(user.role, 'proposals:decide') && proposal.allowedEvents.includes('decide');
-  const canReview = may(user.role, 'proposals:review') && proposal.allowedEvents.includes('approve');
+  const canDecide = mayAs(user, proposal.projectId, 'proposals:decide') && proposal.allowedEvents.includes('decide');
+  const canReview = mayAs(user, proposal.projectId, 'proposals:review') && proposal.allowedEvents.includes('approve');
   const returned = proposal.status === 'returned' && lastReview?.verdict === 'return';
   if (!returned && !canDecide && !canReview) return null;
   return (

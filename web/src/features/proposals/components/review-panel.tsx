@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import { may } from '../../../../../shared/workflow/roles';
+import { mayAs } from '../../../../../shared/workflow/roles';
 import { verificationQuery } from '../api/verification-queries';
 import { Sheet } from '../../../components/ui/sheet';
 import type { Proposal, User } from '../../../lib/api-types';
@@ -14,10 +14,10 @@ import { ReviewForm } from './review/review-form';
 /** The reviewer's verdict on the latest decision: sign off, or send back for rework with a comment. */
 export function ReviewPanel({ proposal, user }: { proposal: Proposal; user: User }) {
   const mutation = useReviewMutation(proposal.id);
-  const verification = useQuery({ ...verificationQuery(proposal.id), enabled: may(user.role, 'proposals:review') && proposal.allowedEvents.includes('approve') });
+  const verification = useQuery({ ...verificationQuery(proposal.id), enabled: mayAs(user, proposal.projectId, 'proposals:review') && proposal.allowedEvents.includes('approve') });
   const nameOf = usePersonName(proposal.projectId, user);
   const decision = latestDecision(proposal);
-  const canReview = may(user.role, 'proposals:review') && (proposal.allowedEvents.includes('approve') || proposal.allowedEvents.includes('return'));
+  const canReview = mayAs(user, proposal.projectId, 'proposals:review') && (proposal.allowedEvents.includes('approve') || proposal.allowedEvents.includes('return'));
 
   if (canReview && decision) {
     const option = decidedOption(proposal, decision);

@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import type { ProposalVerificationResult, VerificationJobView } from '../../../../../shared/verification/types';
-import { may } from '../../../../../shared/workflow/roles';
+import { mayAs } from '../../../../../shared/workflow/roles';
 import { Button } from '../../../components/ui/button';
 import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
@@ -30,7 +30,7 @@ function isProposalResult(result: VerificationJobView['result']): result is Prop
 export function VerificationPanel({ proposal, user }: { proposal: Proposal; user: User }) {
   const status = useQuery(verificationQuery(proposal.id));
   const mutation = useVerifyMutation(proposal.id);
-  const canVerify = may(user.role, 'proposals:verify');
+  const canVerify = mayAs(user, proposal.projectId, 'proposals:verify');
   const current = proposalCurrentDesign(proposal);
   const job = status.data?.verification ?? null;
   const running = job !== null && !isSettled(job);

@@ -1,7 +1,7 @@
 /** The header and role check the pages that write a project's specs share (a new spec, an import). */
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
-import { may, ROLE_TITLES } from '../../../../../shared/workflow/roles';
+import { mayAs, projectRoleOf, ROLE_TITLES } from '../../../../../shared/workflow/roles';
 import { EmptyState } from '../../../components/ui/feedback';
 import { PageHeader } from '../../../components/ui/page-header';
 import { paths } from '../../../config/paths';
@@ -21,14 +21,15 @@ export function ProjectPageHeader({ project, title, children }: { project: Pick<
   );
 }
 
-/** `children` for a role that may write specs; for any other the header and why there is nothing to do here. */
+/** `children` for someone whose role in the project may write specs; for anyone else the header and why there is nothing to do here. */
 export function SpecWritersOnly({ user, project, title, refusal, children }: { user: User; project: Pick<Project, 'id' | 'name'>; title: string; refusal: string; children: ReactNode }) {
-  if (may(user.role, 'specs:write')) return children;
+  if (mayAs(user, project.id, 'specs:write')) return children;
+  const roleHere = projectRoleOf(user.projectRoles, project.id);
   return (
     <>
       <ProjectPageHeader project={project} title={title} />
       <EmptyState title={refusal}>
-        You are signed in as {ROLE_TITLES[user.role].toLowerCase()}; you can read this project’s specs and, where your role allows, rank them.
+        {roleHere ? `Your role in this project is ${ROLE_TITLES[roleHere].toLowerCase()}` : 'You hold no role in this project'}; you can read its specs and, where your role allows, rank them.
       </EmptyState>
     </>
   );
