@@ -14,6 +14,7 @@ import type { DataSource } from 'typeorm';
 import type { RuleSet } from '../shared/engine/types';
 import { requireCsrfToken } from './auth/csrf';
 import { configurePassport } from './auth/passport';
+import { SignInThrottle } from './auth/sign-in-throttle';
 import { TypeormSessionStore } from './auth/session-store';
 import { errorHandler } from './error-handler';
 import { AppError } from './errors';
@@ -52,6 +53,8 @@ export interface AppDeps {
    * beside a SQLite file; for an in-memory database a temporary folder removed by closeApp.
    */
   uploadsDir?: string;
+  /** The clock of the sign-in delays, ms since the epoch (default Date.now; tests move it on). */
+  clock?: () => number;
 }
 
 export interface LongtailApp extends Express {
@@ -113,7 +116,7 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.use(passport.initialize());
   app.use(passport.session());
   app.use('/api', requireCsrfToken);
-  app.use('/api/auth', authRoutes(passport, deps.dataSource));
+  app.use('/api/auth', authRoutes(passport, deps.dataSource, new SignInThrottle(deps.clock)));
   app.use('/api/users', usersRoutes(deps.dataSource));
   app.use('/api/projects', projectsRoutes(deps.dataSource));
   app.use('/api/projects/:projectId/devices', devicesRoutes(deps.dataSource));

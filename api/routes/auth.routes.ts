@@ -3,21 +3,29 @@ import { Router } from 'express';
 import type { PassportStatic } from 'passport';
 import type { DataSource } from 'typeorm';
 import { issueCsrfToken } from '../auth/csrf';
-import { signInRateLimits } from '../auth/rate-limit';
+import { signInAddressLimit, signInDelay } from '../auth/rate-limit';
+import { accountKey, addressKey, type SignInThrottle } from '../auth/sign-in-throttle';
 import { currentUser, requireSignIn } from '../auth/require';
 import { AppError } from '../errors';
 import { updatePreferences } from '../services/users.service';
 import { LOGIN_BODY, PREFERENCES_BODY } from '../validation/bodies';
 import { validateBody } from '../validation/validate-request';
 
-export function authRoutes(passport: PassportStatic, dataSource: DataSource): Router {
+export function authRoutes(passport: PassportStatic, dataSource: DataSource, throttle: SignInThrottle): Router {
   const router = Router();
   router.get('/csrf', issueCsrfToken);
-  router.post('/login', validateBody(LOGIN_BODY), ...signInRateLimits(), (req, res, next) => {
+  const emailOf = (req: { body?: { email?: unknown } }) => req.body?.email;
+  router.post('/login', validateBody(LOGIN_BODY), signInAddressLimit(), signInDelay(throttle, emailOf), (req, res, next) => {
+    const account = accountKey(emailOf(req));
+    const address = addressKey(req.ip);
     passport.authenticate('local', (error: unknown, user: Express.User | false) => {
       if (error) return next(error);
       // One answer for an unknown account and a wrong password: no account enumeration.
-      if (!user) return next(new AppError('sign-in-failed', 401, 'Wrong e-mail address or password.'));
+      if (!user) {
+        throttle.recordFailure(account, address);
+        return next(new AppError('sign-in-failed', 401, 'Wrong e-mail address or password.'));
+      }
+      throttle.recordSuccess(account, address);
       // passport ≥ 0.6 regenerates the session here: no session fixation.
       req.login(user, (loginError) => (loginError ? next(loginError) : res.json({ user })));
     })(req, res, next);

@@ -121,6 +121,10 @@ export interface BuildOptions {
   database?: TestDatabase;
   /** Where uploaded files go (default: the app's own temporary folder, removed on close). */
   uploadsDir?: string;
+  /** Trust X-Forwarded-For and -Proto (so a test can speak from several addresses, or as HTTPS). */
+  trustProxy?: boolean;
+  /** The clock of the sign-in delays (default Date.now). */
+  clock?: () => number;
 }
 
 /** Builds the app on a new database (or `options.database`) and seeds the accounts. */
@@ -131,7 +135,7 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
   const ruleSet = await loadRuleSet();
   const log = options.log ?? (() => {});
   const verification = new VerificationQueue(dataSource, { log, ...options.verification });
-  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log, verification, uploadsDir: options.uploadsDir });
+  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log, verification, uploadsDir: options.uploadsDir, trustProxy: options.trustProxy, clock: options.clock });
   const entries = await Promise.all(
     (options.accounts ?? ACCOUNT_KEYS).map(async (key) => {
       const user = await createUser(dataSource, null, { email: emailOf(key), displayName: `Test ${key}`, role: ACCOUNT_ROLES[key], password: TEST_PASSWORD });
