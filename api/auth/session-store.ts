@@ -17,14 +17,17 @@ type Callback<T = void> = (error?: unknown, value?: T) => void;
 
 export class TypeormSessionStore extends session.Store {
   private readonly dataSource: DataSource;
-  private readonly pruneTimer: NodeJS.Timeout;
+  private readonly pruneTimer: NodeJS.Timeout | undefined;
   private readonly lastTouchMs = new Map<string, number>();
 
-  constructor(dataSource: DataSource) {
+  /** `prune: false` for a second store over the same table (one timer is enough). */
+  constructor(dataSource: DataSource, options: { prune?: boolean } = {}) {
     super();
     this.dataSource = dataSource;
-    this.pruneTimer = setInterval(() => void this.prune(), PRUNE_INTERVAL_MS);
-    this.pruneTimer.unref();
+    if (options.prune !== false) {
+      this.pruneTimer = setInterval(() => void this.prune(), PRUNE_INTERVAL_MS);
+      this.pruneTimer.unref();
+    }
   }
 
   private get repository() {

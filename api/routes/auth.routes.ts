@@ -2,18 +2,19 @@
 import { Router } from 'express';
 import type { PassportStatic } from 'passport';
 import type { DataSource } from 'typeorm';
-import { issueCsrfToken } from '../auth/csrf';
+import type { CsrfProtection } from '../auth/csrf';
 import { signInAddressLimit, signInDelay } from '../auth/rate-limit';
 import { accountKey, addressKey, type SignInThrottle } from '../auth/sign-in-throttle';
 import { currentUser, requireSignIn } from '../auth/require';
+import { sessionCookieName } from '../auth/session-cookie';
 import { AppError } from '../errors';
 import { updatePreferences } from '../services/users.service';
 import { LOGIN_BODY, PREFERENCES_BODY } from '../validation/bodies';
 import { validateBody } from '../validation/validate-request';
 
-export function authRoutes(passport: PassportStatic, dataSource: DataSource, throttle: SignInThrottle): Router {
+export function authRoutes(passport: PassportStatic, dataSource: DataSource, throttle: SignInThrottle, csrf: CsrfProtection): Router {
   const router = Router();
-  router.get('/csrf', issueCsrfToken);
+  router.get('/csrf', csrf.issue);
   const emailOf = (req: { body?: { email?: unknown } }) => req.body?.email;
   router.post('/login', validateBody(LOGIN_BODY), signInAddressLimit(), signInDelay(throttle, emailOf), (req, res, next) => {
     const account = accountKey(emailOf(req));
@@ -26,15 +27,15 @@ export function authRoutes(passport: PassportStatic, dataSource: DataSource, thr
         return next(new AppError('sign-in-failed', 401, 'Wrong e-mail address or password.'));
       }
       throttle.recordSuccess(account, address);
-      // passport ≥ 0.6 regenerates the session here: no session fixation.
-      req.login(user, (loginError) => (loginError ? next(loginError) : res.json({ user })));
+      // passport ≥ 0.6 regenerates the session here: no session fixation, and a new CSRF token.
+      req.login(user, (loginError) => (loginError ? next(loginError) : res.json({ user, csrfToken: csrf.tokenOf(req) })));
     })(req, res, next);
   });
   router.post('/logout', (req, res, next) => {
     req.logout((error) => {
       if (error) return next(error);
       req.session.destroy(() => {
-        res.clearCookie('longtail.sid');
+        res.clearCookie(sessionCookieName(req), { httpOnly: true, sameSite: 'lax', secure: req.secure, path: '/' });
         res.status(204).end();
       });
     });

@@ -88,15 +88,27 @@ export interface TestApi {
 }
 
 function clientFor(agent: request.Agent, csrfToken: string): ApiClient {
-  return {
+  // The token is read at each call: it changes when the session does (signInAs sets the new one).
+  const client: ApiClient = {
     agent,
     csrfToken,
     get: (url) => agent.get(url),
-    post: (url) => agent.post(url).set('X-CSRF-Token', csrfToken),
-    put: (url) => agent.put(url).set('X-CSRF-Token', csrfToken),
-    patch: (url) => agent.patch(url).set('X-CSRF-Token', csrfToken),
-    delete: (url) => agent.delete(url).set('X-CSRF-Token', csrfToken),
+    post: (url) => agent.post(url).set('X-CSRF-Token', client.csrfToken),
+    put: (url) => agent.put(url).set('X-CSRF-Token', client.csrfToken),
+    patch: (url) => agent.patch(url).set('X-CSRF-Token', client.csrfToken),
+    delete: (url) => agent.delete(url).set('X-CSRF-Token', client.csrfToken),
   };
+  return client;
+}
+
+/**
+ * Signs the client in (POST /api/auth/login) and takes the new session's CSRF token from the
+ * answer, as the browser app does; the answer is returned whatever its status.
+ */
+export async function signInAs(client: ApiClient, email: string, password: string): Promise<request.Response> {
+  const response = await client.post('/api/auth/login').send({ email, password });
+  if (response.status === 200 && typeof response.body.csrfToken === 'string') client.csrfToken = response.body.csrfToken;
+  return response;
 }
 
 /** A fresh agent with a CSRF token (the cookie is kept by the agent). */
@@ -151,7 +163,8 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
     users,
     async agentFor(key) {
       const client = await csrfClient(app);
-      await client.post('/api/auth/login').send({ email: emailOf(key), password: TEST_PASSWORD }).expect(200);
+      const response = await signInAs(client, emailOf(key), TEST_PASSWORD);
+      if (response.status !== 200) throw new Error(`sign-in as ${key} answered ${response.status}: ${JSON.stringify(response.body)}`);
       return client;
     },
     anonymous: () => csrfClient(app),
