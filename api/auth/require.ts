@@ -19,6 +19,8 @@ declare global {
       role: import('../../shared/workflow/roles').Role;
       notify: boolean;
       createdAt: string;
+      /** Set when an administrator disabled the account (such a session is not restored). */
+      disabledAt: string | null;
     }
   }
 }

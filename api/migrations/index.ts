@@ -6,5 +6,15 @@ import { DeviceModels1764700200000 } from './1764700200000-device-models';
 import { Measurements1764700300000 } from './1764700300000-measurements';
 import { SpecTextAndTolerance1764800000000 } from './1764800000000-spec-text-and-tolerance';
 import { DeviceModelRetirement1764800200000 } from './1764800200000-device-model-retirement';
+import { AccountControls1764800300000 } from './1764800300000-account-controls';
 
-export const MIGRATIONS = [InitialSchema1764612000000, VerificationJobs1764700000000, MailOutbox1764700100000, DeviceModels1764700200000, Measurements1764700300000, SpecTextAndTolerance1764800000000, DeviceModelRetirement1764800200000];
+export const MIGRATIONS = [
+  InitialSchema1764612000000,
+  VerificationJobs1764700000000,
+  MailOutbox1764700100000,
+  DeviceModels1764700200000,
+  Measurements1764700300000,
+  SpecTextAndTolerance1764800000000,
+  DeviceModelRetirement1764800200000,
+  AccountControls1764800300000,
+];
