@@ -13,6 +13,8 @@ export interface User {
   /** E-mail notifications on (the server always answers it; absent counts as on). */
   notify?: boolean;
   createdAt: string;
+  /** When an administrator disabled the account (it cannot sign in), or null. */
+  disabledAt?: string | null;
 }
 
 /** The admin mailbox (GET /api/admin/mail). */
