@@ -3,7 +3,8 @@
  * names its account (`session.user_id`, filled from the stored session data for sessions already
  * there) so a person's sessions can be ended, and one-time password-reset links
  * (`password_reset`: the token's SHA-256 only, its expiry, when it was used). TypeORM's portable
- * Table API and query builder only, so the same migration runs on SQLite and PostgreSQL.
+ * Table API, and for the data step two plain statements with each driver's quoting and
+ * placeholders, so the same migration runs on SQLite and PostgreSQL.
  */
 import { Table, TableColumn, TableForeignKey, TableIndex, type MigrationInterface, type QueryRunner, type TableColumnOptions } from 'typeorm';
 
@@ -39,8 +40,12 @@ export class AccountControls1764800300000 implements MigrationInterface {
     await queryRunner.addColumn('session', SESSION_USER);
     await queryRunner.createIndex('session', SESSION_USER_INDEX);
     await queryRunner.createTable(PASSWORD_RESET, false, true, true);
-    // Sessions signed in before this migration: their account is in the stored data.
-    const rows = (await queryRunner.manager.createQueryBuilder().select(['s.id AS id', 's.data AS data']).from('session', 's').getRawMany()) as { id: string; data: string }[];
+    // Sessions signed in before this migration: their account is in the stored data. Plain SQL
+    // (the entity metadata describes today's schema, not this step's), each driver's placeholder.
+    const driver = queryRunner.connection.driver;
+    const table = driver.escape('session');
+    const placeholders = driver.options.type === 'postgres' ? ['$1', '$2'] : ['?', '?'];
+    const rows = (await queryRunner.query(`SELECT ${driver.escape('id')} AS id, ${driver.escape('data')} AS data FROM ${table}`)) as { id: string; data: string }[];
     for (const row of rows) {
       let userId: unknown;
       try {
@@ -49,7 +54,7 @@ export class AccountControls1764800300000 implements MigrationInterface {
         continue;
       }
       if (typeof userId !== 'number' || !Number.isInteger(userId)) continue;
-      await queryRunner.manager.createQueryBuilder().update('session').set({ user_id: userId }).where('id = :id', { id: row.id }).execute();
+      await queryRunner.query(`UPDATE ${table} SET ${driver.escape('user_id')} = ${placeholders[0]} WHERE ${driver.escape('id')} = ${placeholders[1]}`, [userId, row.id]);
     }
   }
 

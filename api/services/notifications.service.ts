@@ -6,7 +6,7 @@
  * failing mail server never holds up or undoes a decision.
  *
  * Who is told (current project members only, never the person who acted, never anyone who
- * turned notifications off):
+ * turned notifications off, never a disabled account):
  * - a proposal ranked: the project's designers ("ready for decision");
  * - a decision recorded: the project's reviewers ("decided");
  * - a review: the spec's author (and the author of the ranked version, when another person)
@@ -47,7 +47,7 @@ export function notificationSettings(): NotificationSettings {
   return settings;
 }
 
-type Member = Pick<User, 'id' | 'email' | 'displayName' | 'role' | 'notify'>;
+type Member = Pick<User, 'id' | 'email' | 'displayName' | 'role' | 'notify' | 'disabledAt'>;
 
 /** Largest decision or review text quoted in a message (the rest is on the proposal's page). */
 const MAX_QUOTE = 2000;
@@ -75,7 +75,7 @@ export async function queueNotification(manager: EntityManager, event: Notificat
   const version = await manager.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true, title: true, createdById: true }, where: { id: proposal.specVersionId } });
   const memberships = await manager.getRepository(ProjectMemberEntity).findBy({ projectId: proposal.projectId });
   const people = await manager.getRepository(UserEntity).find({
-    select: { id: true, email: true, displayName: true, role: true, notify: true },
+    select: { id: true, email: true, displayName: true, role: true, notify: true, disabledAt: true },
     where: { id: In([...new Set([...memberships.map((m) => m.userId), event.actorId])]) },
   });
   const byId = new Map<number, Member>(people.map((p) => [p.id, p]));
@@ -125,7 +125,8 @@ export async function queueNotification(manager: EntityManager, event: Notificat
   const rows: Omit<MailOutbox, 'id'>[] = [];
   for (const [userId, reasons] of told) {
     const person = byId.get(userId);
-    if (!person || !memberIds.has(userId) || userId === event.actorId || !person.notify) continue;
+    // A disabled account gets no workflow mail.
+    if (!person || !memberIds.has(userId) || userId === event.actorId || !person.notify || person.disabledAt) continue;
     const { subject, text } = composeMessage(facts, person.displayName, reasons.join(' and '));
     rows.push({
       createdAt: now,

@@ -13,6 +13,7 @@ import { AuditEventEntity } from '../../api/entities/audit-event.entity';
 import { MailOutboxEntity } from '../../api/entities/mail-outbox.entity';
 import { PasswordResetEntity } from '../../api/entities/password-reset.entity';
 import { createOutboxWorker } from '../../api/mail/outbox-worker';
+import { addMember } from '../../api/services/projects.service';
 import { buildApiApp, csrfClient, emailOf, signInAs, TEST_PASSWORD, type AccountKey, type ApiClient, type TestApi } from '../helpers/api-app';
 
 let api: TestApi;
@@ -263,6 +264,20 @@ describe('when an administrator disables and enables an account', () => {
     expect(again.status).toBe(200);
     expect(await auditActions(person.id)).toEqual(expect.arrayContaining(['user.disabled', 'user.enabled']));
     expect((await admin.get('/api/users')).body.items.find((u: { id: number }) => u.id === person.id).disabledAt).toBeNull();
+  });
+
+  test('when a disabled designer is a project member, then a new proposal mails the other designers but not them', async () => {
+    const person = await freshAccount();
+    const project = await api.createProject(['requirements', 'designer']);
+    await addMember(api.dataSource, api.users.admin, project.id, person.id);
+    await admin.patch(`/api/users/${person.id}`).send({ disabled: true }).expect(200);
+    const spec = await api.createSpec(project.id);
+
+    const proposal = await api.createProposal(spec.id, 'requirements');
+
+    const recipients = (await api.dataSource.getRepository(MailOutboxEntity).find({ where: { proposalId: proposal.id } })).map((r) => r.toAddress);
+    expect(recipients).toContain(emailOf('designer'));
+    expect(recipients).not.toContain(person.email);
   });
 
   test('when an administrator tries to disable their own account, then 409 and nothing changes', async () => {
