@@ -5,9 +5,8 @@ import { paths } from '../config/paths';
 import { Field } from '../features/people/components/field';
 import { PasswordHint } from '../features/people/components/password-hint';
 import { fieldErrors } from '../features/people/utils/field-errors';
-import { MIN_PASSWORD_LENGTH } from '../features/people/utils/password-strength';
+import { MIN_PASSWORD_LENGTH, PASSWORD_RULE } from '../features/people/utils/password-strength';
 import { completePasswordReset } from '../features/profile/api/password';
-import { PASSWORD_RULE } from '../features/profile/components/password-change-form';
 import { ApiError } from '../lib/api';
 
 /**

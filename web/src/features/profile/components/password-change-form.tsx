@@ -3,11 +3,8 @@ import { Button } from '../../../components/ui/button';
 import { Field } from '../../people/components/field';
 import { PasswordHint } from '../../people/components/password-hint';
 import { fieldErrors } from '../../people/utils/field-errors';
-import { MIN_PASSWORD_LENGTH } from '../../people/utils/password-strength';
+import { MIN_PASSWORD_LENGTH, PASSWORD_RULE } from '../../people/utils/password-strength';
 import { useChangeOwnPassword } from '../api/password';
-
-/** What the server refuses, in one sentence for the form (api/auth/password-policy.ts). */
-export const PASSWORD_RULE = `At least ${MIN_PASSWORD_LENGTH} characters; not spaces only, not one character repeated, not your e-mail address or the name in it, and not a common password.`;
 
 /**
  * Your own password: the current one, the new one twice. Saving signs you out everywhere else
