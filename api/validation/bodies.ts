@@ -33,7 +33,7 @@ const newPassword = { type: 'string', minLength: MIN_PASSWORD_LENGTH, maxLength:
 export const PASSWORD_CHANGE_BODY = strict({ currentPassword: { type: 'string', minLength: 1, maxLength: 1024 }, newPassword }, ['currentPassword', 'newPassword']);
 
 /** POST /api/auth/password-reset: a new password through a one-time link's token. */
-export const PASSWORD_RESET_BODY = strict({ token: { type: 'string', minLength: 16, maxLength: 200, pattern: '^[A-Za-z0-9_-]+$' }, newPassword }, ['token', 'newPassword']);
+export const PASSWORD_RESET_BODY = strict({ token: { type: 'string', minLength: 16, maxLength: 200, pattern: '^[A-Za-z0-9_-]{16,200}$' }, newPassword }, ['token', 'newPassword']);
 
 /** PATCH /api/auth/me: the signed-in person's own preferences. */
 export const PREFERENCES_BODY = strict({ notify: { type: 'boolean' } }, ['notify']);
