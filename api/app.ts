@@ -12,8 +12,10 @@ import session from 'express-session';
 import helmet from 'helmet';
 import type { DataSource } from 'typeorm';
 import type { RuleSet } from '../shared/engine/types';
-import { requireCsrfToken } from './auth/csrf';
+import { csrfProtection } from './auth/csrf';
 import { configurePassport } from './auth/passport';
+import { SignInThrottle } from './auth/sign-in-throttle';
+import { SECURE_SESSION_COOKIE, SESSION_COOKIE } from './auth/session-cookie';
 import { TypeormSessionStore } from './auth/session-store';
 import { errorHandler } from './error-handler';
 import { AppError } from './errors';
@@ -33,7 +35,7 @@ import { usersRoutes } from './routes/users.routes';
 export const BODY_LIMIT = '256kb';
 /** Idle sign-in lifetime, ms (a working day). */
 const SESSION_MAX_AGE_MS = 12 * 60 * 60 * 1000;
-export const SESSION_COOKIE = 'longtail.sid';
+export { SESSION_COOKIE, SECURE_SESSION_COOKIE } from './auth/session-cookie';
 
 export interface AppDeps {
   dataSource: DataSource;
@@ -54,6 +56,8 @@ export interface AppDeps {
   uploadsDir?: string;
   /** Proposals one person may ask for per minute (default PROPOSALS_PER_MINUTE; LONGTAIL_PROPOSALS_PER_MINUTE in server.ts). */
   proposalsPerMinute?: number;
+  /** The clock of the sign-in delays, ms since the epoch (default Date.now; tests move it on). */
+  clock?: () => number;
 }
 
 export interface LongtailApp extends Express {
@@ -101,21 +105,28 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.use(compression());
   app.use(express.json({ limit: BODY_LIMIT, strict: true, type: ['application/json', 'application/*+json'] }));
   app.use(cookieParser());
-  app.use(
+  // One session middleware per scheme: `__Host-longtail.sid` (Secure) over HTTPS, `longtail.sid`
+  // over plain HTTP (a local run), decided per request. Each needs a store object of its own
+  // (express-session writes its cookie settings onto the store); both keep the one session table.
+  const secureStore = new TypeormSessionStore(deps.dataSource, { prune: false });
+  const sessionFor = (name: string, secure: boolean) =>
     session({
-      name: SESSION_COOKIE,
+      name,
       secret: deps.sessionSecret,
-      store,
+      store: secure ? secureStore : store,
       resave: false,
       saveUninitialized: false,
       rolling: true,
-      cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: SESSION_MAX_AGE_MS },
-    }),
-  );
+      cookie: { httpOnly: true, sameSite: 'lax', secure, path: '/', maxAge: SESSION_MAX_AGE_MS },
+    });
+  const plainSession = sessionFor(SESSION_COOKIE, false);
+  const secureSession = sessionFor(SECURE_SESSION_COOKIE, true);
+  app.use((req, res, next) => (req.secure ? secureSession : plainSession)(req, res, next));
   app.use(passport.initialize());
   app.use(passport.session());
-  app.use('/api', requireCsrfToken);
-  app.use('/api/auth', authRoutes(passport, deps.dataSource));
+  const csrf = csrfProtection(deps.sessionSecret);
+  app.use('/api', csrf.require);
+  app.use('/api/auth', authRoutes(passport, deps.dataSource, new SignInThrottle(deps.clock), csrf));
   app.use('/api/users', usersRoutes(deps.dataSource));
   app.use('/api/projects', projectsRoutes(deps.dataSource));
   app.use('/api/projects/:projectId/devices', devicesRoutes(deps.dataSource));

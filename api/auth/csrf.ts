@@ -1,23 +1,32 @@
 /**
- * Cross-site request forgery protection by double submit: `GET /api/auth/csrf` answers a random
- * token and sets it in a cookie; every state-changing request must echo it in `X-CSRF-Token`.
- * A page on another site can make the browser send the cookie but cannot read it to set the header.
+ * Cross-site request forgery protection by a token bound to the session: the token is an HMAC
+ * (SHA-256) of the session id with the session secret. `GET /api/auth/csrf` answers it (and
+ * starts a short session for a visitor who has none, so the sign-in form has one to be bound
+ * to); every state-changing request must echo it in `X-CSRF-Token`. Sign-in gives a new session
+ * id, so a new token (in the sign-in answer, and from `GET /api/auth/csrf`); sign-out ends it.
+ * A page on another site can make the browser send the session cookie but cannot read the token,
+ * and cannot compute one without the secret.
  */
-import { randomBytes, timingSafeEqual } from 'node:crypto';
-import type { RequestHandler } from 'express';
+import { createHmac, timingSafeEqual } from 'node:crypto';
+import type { Request, RequestHandler } from 'express';
 import { AppError } from '../errors';
 
-export const CSRF_COOKIE = 'longtail.csrf';
 export const CSRF_HEADER = 'x-csrf-token';
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+/** How long a visitor's session (before sign-in) lasts, ms; signing in starts a full one. */
+export const VISITOR_SESSION_MAX_AGE_MS = 60 * 60 * 1000;
 
-/** `GET /api/auth/csrf`: a token in the body and the cookie. */
-export const issueCsrfToken: RequestHandler = (req, res) => {
-  const existing = req.cookies?.[CSRF_COOKIE];
-  const token = typeof existing === 'string' && existing.length === 64 ? existing : randomBytes(32).toString('hex');
-  res.cookie(CSRF_COOKIE, token, { httpOnly: true, sameSite: 'lax', secure: req.secure, path: '/' });
-  res.json({ token });
-};
+declare module 'express-session' {
+  interface SessionData {
+    /** When GET /api/auth/csrf started this session for a visitor (ms since the epoch). */
+    visitorSince?: number;
+  }
+}
+
+/** The CSRF token of a session: base64url HMAC-SHA256 of its id with the session secret. */
+export function csrfTokenFor(secret: string, sessionId: string): string {
+  return createHmac('sha256', secret).update(`longtail-csrf\n${sessionId}`).digest('base64url');
+}
 
 function sameToken(a: string, b: string): boolean {
   const left = Buffer.from(a);
@@ -25,13 +34,35 @@ function sameToken(a: string, b: string): boolean {
   return left.length === right.length && timingSafeEqual(left, right);
 }
 
-/** Refuses a state-changing request whose header does not match its cookie (403). */
-export const requireCsrfToken: RequestHandler = (req, _res, next) => {
-  if (SAFE_METHODS.has(req.method)) return next();
-  const cookie = req.cookies?.[CSRF_COOKIE];
-  const header = req.get(CSRF_HEADER);
-  if (typeof cookie !== 'string' || typeof header !== 'string' || !sameToken(cookie, header)) {
-    return next(new AppError('csrf-failed', 403, 'Missing or wrong X-CSRF-Token header: fetch one from GET /api/auth/csrf.'));
-  }
-  next();
-};
+export interface CsrfProtection {
+  /** `GET /api/auth/csrf`: the session's token (a visitor without a session gets a short one). */
+  issue: RequestHandler;
+  /** Refuses a state-changing request whose header is not its session's token (403 csrf-failed). */
+  require: RequestHandler;
+  /** The token of the request's current session (after sign-in: the new one). */
+  tokenOf(req: Request): string;
+}
+
+export function csrfProtection(secret: string): CsrfProtection {
+  const tokenOf = (req: Request) => csrfTokenFor(secret, req.sessionID);
+  return {
+    tokenOf,
+    issue: (req, res) => {
+      // A session nobody has stored yet: mark it, so express-session saves it and sets the cookie.
+      if (!req.user && req.session.visitorSince === undefined) {
+        req.session.visitorSince = Date.now();
+        req.session.cookie.maxAge = VISITOR_SESSION_MAX_AGE_MS;
+      }
+      res.set('Cache-Control', 'no-store');
+      res.json({ token: tokenOf(req) });
+    },
+    require: (req, _res, next) => {
+      if (SAFE_METHODS.has(req.method)) return next();
+      const header = req.get(CSRF_HEADER);
+      if (typeof header !== 'string' || !req.sessionID || !sameToken(header, tokenOf(req))) {
+        return next(new AppError('csrf-failed', 403, 'Missing or wrong X-CSRF-Token header: fetch one from GET /api/auth/csrf (it changes when you sign in).'));
+      }
+      next();
+    },
+  };
+}

@@ -21,7 +21,9 @@ export function configurePassport(dataSource: DataSource): passport.PassportStat
   );
   instance.serializeUser((user, done) => done(null, user.id));
   instance.deserializeUser((id: number, done) => {
-    findSessionUser(dataSource, id).then((user) => done(null, user ?? false), done);
+    // A disabled account's sessions are ended when it is disabled; refusing here as well closes
+    // the gap of a request already under way.
+    findSessionUser(dataSource, id).then((user) => done(null, user && user.disabledAt === null ? user : false), done);
   });
   return instance;
 }

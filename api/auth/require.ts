@@ -24,6 +24,8 @@ declare global {
       createdAt: string;
       /** The role held in each project the person belongs to (loaded with the session). */
       projectRoles: import('../../shared/workflow/roles').ProjectRoleOf[];
+      /** Set when an administrator disabled the account (such a session is not restored). */
+      disabledAt: string | null;
     }
   }
 }

@@ -3,7 +3,7 @@
  * does not install beside TypeORM 1.x). Expired rows are pruned on a timer and never returned.
  */
 import session from 'express-session';
-import { LessThan, type DataSource } from 'typeorm';
+import { LessThan, type DataSource, type EntityManager } from 'typeorm';
 import { SessionEntity } from '../entities/session.entity';
 
 /** Session lifetime when the cookie has none, ms (one working day). */
@@ -15,16 +15,35 @@ const PRUNE_INTERVAL_MS = 15 * 60 * 1000;
 
 type Callback<T = void> = (error?: unknown, value?: T) => void;
 
+/** The account a session is signed in as (passport keeps its id in the session data), or null. */
+function signedInUser(data: session.SessionData): number | null {
+  const user = (data as { passport?: { user?: unknown } }).passport?.user;
+  return typeof user === 'number' && Number.isInteger(user) ? user : null;
+}
+
+/**
+ * Ends sessions of one account (all, or all but `exceptSessionId`): the next request of each is
+ * anonymous. Runs in the caller's transaction when given its manager.
+ */
+export async function endSessionsOf(manager: EntityManager, userId: number, exceptSessionId?: string): Promise<number> {
+  const query = manager.createQueryBuilder().delete().from(SessionEntity).where('user_id = :userId', { userId });
+  if (exceptSessionId) query.andWhere('id <> :keep', { keep: exceptSessionId });
+  return (await query.execute()).affected ?? 0;
+}
+
 export class TypeormSessionStore extends session.Store {
   private readonly dataSource: DataSource;
-  private readonly pruneTimer: NodeJS.Timeout;
+  private readonly pruneTimer: NodeJS.Timeout | undefined;
   private readonly lastTouchMs = new Map<string, number>();
 
-  constructor(dataSource: DataSource) {
+  /** `prune: false` for a second store over the same table (one timer is enough). */
+  constructor(dataSource: DataSource, options: { prune?: boolean } = {}) {
     super();
     this.dataSource = dataSource;
-    this.pruneTimer = setInterval(() => void this.prune(), PRUNE_INTERVAL_MS);
-    this.pruneTimer.unref();
+    if (options.prune !== false) {
+      this.pruneTimer = setInterval(() => void this.prune(), PRUNE_INTERVAL_MS);
+      this.pruneTimer.unref();
+    }
   }
 
   private get repository() {
@@ -55,7 +74,7 @@ export class TypeormSessionStore extends session.Store {
     // One statement (INSERT ... ON CONFLICT DO UPDATE), not a read then a write: two app
     // instances, or two requests of one browser, may save the same session at the same time.
     this.repository
-      .upsert({ id: sid, expiresAtMs: this.expiry(data), data: JSON.stringify(data) }, { conflictPaths: ['id'], skipUpdateIfNoValuesChanged: false })
+      .upsert({ id: sid, expiresAtMs: this.expiry(data), data: JSON.stringify(data), userId: signedInUser(data) }, { conflictPaths: ['id'], skipUpdateIfNoValuesChanged: false })
       .then(() => callback?.())
       .catch((error) => callback?.(error));
   }

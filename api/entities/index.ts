@@ -4,6 +4,7 @@ import { DecisionEntity } from './decision.entity';
 import { DeviceModelEntity } from './device-model.entity';
 import { MailMessageEntity } from './mail-message.entity';
 import { MeasurementEntity } from './measurement.entity';
+import { PasswordResetEntity } from './password-reset.entity';
 import { MailOutboxEntity } from './mail-outbox.entity';
 import { ProjectMemberEntity } from './project-member.entity';
 import { ProjectEntity } from './project.entity';
@@ -31,4 +32,5 @@ export const ENTITIES = [
   MailOutboxEntity,
   MailMessageEntity,
   MeasurementEntity,
+  PasswordResetEntity,
 ];

@@ -7,6 +7,8 @@ export interface SessionRecord {
   /** Expiry, milliseconds since the epoch. */
   expiresAtMs: number;
   data: string;
+  /** The signed-in account, or null for a visitor (so a person's sessions can be ended). */
+  userId: number | null;
 }
 
 export const SessionEntity = new EntitySchema<SessionRecord>({
@@ -16,5 +18,6 @@ export const SessionEntity = new EntitySchema<SessionRecord>({
     id: { ...shortTextColumn(128), primary: true },
     expiresAtMs: { type: 'bigint', name: 'expires_at_ms', transformer: { to: (v: number) => v, from: (v: string | number) => Number(v) } },
     data: textColumn(),
+    userId: { type: 'integer', name: 'user_id', nullable: true },
   },
 });

@@ -12,6 +12,8 @@ export interface User {
   /** E-mail notifications about the workflow (on unless the person turns them off). */
   notify: boolean;
   createdAt: string;
+  /** When an administrator disabled the account (it cannot sign in), or null. */
+  disabledAt: string | null;
 }
 
 export const UserEntity = new EntitySchema<User>({
@@ -25,5 +27,6 @@ export const UserEntity = new EntitySchema<User>({
     passwordHash: { ...shortTextColumn(200), name: 'password_hash', select: false },
     createdAt: timestampColumn('created_at'),
     notify: { type: 'boolean', default: true },
+    disabledAt: { ...timestampColumn('disabled_at'), nullable: true },
   },
 });

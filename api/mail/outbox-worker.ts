@@ -20,6 +20,7 @@ import type { SendMailOptions } from 'nodemailer';
 import { isPostgres } from '../data-source';
 import { MailOutboxEntity, type MailOutbox } from '../entities/mail-outbox.entity';
 import { composeDigest, summaryOf } from './compose';
+import { PASSWORD_RESET_MAIL } from '../entities/password-reset.entity';
 
 /** What the worker needs of a nodemailer transport. */
 export interface MailSender {
@@ -122,7 +123,9 @@ export function createOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
       log(`Mail to ${row.toAddress} (outbox #${row.id}) not sent, attempt ${attempts}${gaveUp ? ', giving up' : ''}: ${errorText(error)}`);
       return 'failed';
     }
-    await repository().update({ id: row.id }, { status: 'sent', sentAt: iso(Date.now()), attempts: row.attempts + 1, lastError: null });
+    // A sent reset message's link is not kept in the outbox (the person has it in their mail).
+    const body = row.kind === PASSWORD_RESET_MAIL ? { body: '(one-time password link: removed once sent)' } : {};
+    await repository().update({ id: row.id }, { status: 'sent', sentAt: iso(Date.now()), attempts: row.attempts + 1, lastError: null, ...body });
     return 'sent';
   }
 

@@ -6,6 +6,7 @@ import { DeviceModels1764700200000 } from './1764700200000-device-models';
 import { Measurements1764700300000 } from './1764700300000-measurements';
 import { SpecTextAndTolerance1764800000000 } from './1764800000000-spec-text-and-tolerance';
 import { DeviceModelRetirement1764800200000 } from './1764800200000-device-model-retirement';
+import { AccountControls1764800300000 } from './1764800300000-account-controls';
 import { ProjectMemberRoles1764800400000 } from './1764800400000-project-member-roles';
 import { MailDigest1764800400100 } from './1764800400100-mail-digest';
 import { DesignBinding1764800500000 } from './1764800500000-design-binding';
@@ -18,6 +19,7 @@ export const MIGRATIONS = [
   Measurements1764700300000,
   SpecTextAndTolerance1764800000000,
   DeviceModelRetirement1764800200000,
+  AccountControls1764800300000,
   ProjectMemberRoles1764800400000,
   MailDigest1764800400100,
   DesignBinding1764800500000,

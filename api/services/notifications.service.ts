@@ -6,7 +6,7 @@
  * failing mail server never holds up or undoes a decision.
  *
  * Who is told (current project members only, never the person who acted, never anyone who
- * turned notifications off):
+ * turned notifications off, never a disabled account):
  * - a proposal ranked: the project's designers ("ready for decision");
  * - a decision recorded: the project's reviewers ("decided");
  * - a review: the spec's author (and the author of the ranked version, when another person)
@@ -51,7 +51,7 @@ export function notificationSettings(): NotificationSettings {
   return settings;
 }
 
-type Member = Pick<User, 'id' | 'email' | 'displayName' | 'notify'>;
+type Member = Pick<User, 'id' | 'email' | 'displayName' | 'notify' | 'disabledAt'>;
 
 /** Largest decision or review text quoted in a message (the rest is on the proposal's page). */
 const MAX_QUOTE = 2000;
@@ -100,7 +100,7 @@ export async function queueNotification(manager: EntityManager, event: Notificat
   const version = await manager.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true, title: true, createdById: true }, where: { id: proposal.specVersionId } });
   const memberships = await manager.getRepository(ProjectMemberEntity).findBy({ projectId: proposal.projectId });
   const people = await manager.getRepository(UserEntity).find({
-    select: { id: true, email: true, displayName: true, notify: true },
+    select: { id: true, email: true, displayName: true, notify: true, disabledAt: true },
     where: { id: In([...new Set([...memberships.map((m) => m.userId), event.actorId])]) },
   });
   const byId = new Map<number, Member>(people.map((p) => [p.id, p]));
@@ -153,7 +153,7 @@ export async function queueNotification(manager: EntityManager, event: Notificat
   const now = new Date(nowMs).toISOString();
   const recipients = [...told.keys()].filter((userId) => {
     const person = byId.get(userId);
-    return person && memberIds.has(userId) && userId !== event.actorId && person.notify;
+    return person && memberIds.has(userId) && userId !== event.actorId && person.notify && !person.disabledAt; // a disabled account gets no workflow mail
   });
   const held = await digestTimes(manager, recipients, nowMs);
   const rows: Omit<MailOutbox, 'id'>[] = [];

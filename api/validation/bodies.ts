@@ -24,7 +24,16 @@ export const NEW_USER_BODY = strict(
   ['email', 'displayName', 'role', 'password'],
 );
 
-export const USER_CHANGES_BODY = { ...strict({ displayName: name(120), role: { enum: [...ACCOUNT_ROLES] } }, []), minProperties: 1 };
+/** PATCH /api/users/:id: rename, another account role, or `disabled` true/false (admins). */
+export const USER_CHANGES_BODY = { ...strict({ displayName: name(120), role: { enum: [...ACCOUNT_ROLES] }, disabled: { type: 'boolean' } }, []), minProperties: 1 };
+
+const newPassword = { type: 'string', minLength: MIN_PASSWORD_LENGTH, maxLength: 1024 };
+
+/** POST /api/auth/password: the signed-in person's own password change. */
+export const PASSWORD_CHANGE_BODY = strict({ currentPassword: { type: 'string', minLength: 1, maxLength: 1024 }, newPassword }, ['currentPassword', 'newPassword']);
+
+/** POST /api/auth/password-reset: a new password through a one-time link's token. */
+export const PASSWORD_RESET_BODY = strict({ token: { type: 'string', minLength: 16, maxLength: 200, pattern: '^[A-Za-z0-9_-]{16,200}$' }, newPassword }, ['token', 'newPassword']);
 
 /** PATCH /api/auth/me: the signed-in person's own preferences. */
 export const PREFERENCES_BODY = strict({ notify: { type: 'boolean' } }, ['notify']);

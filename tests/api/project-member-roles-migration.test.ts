@@ -115,8 +115,9 @@ describe(`when a database with memberships from before roles per project is open
       const signIn = async (email: string) => {
         const agent = request.agent(app);
         const token = (await agent.get('/api/auth/csrf').expect(200)).body.token as string;
-        await agent.post('/api/auth/login').set('X-CSRF-Token', token).send({ email, password: PASSWORD }).expect(200);
-        return { agent, token };
+        const login = await agent.post('/api/auth/login').set('X-CSRF-Token', token).send({ email, password: PASSWORD }).expect(200);
+        // The token changes at sign-in: the answer carries the new session's.
+        return { agent, token: login.body.csrfToken as string };
       };
       const spec = { title: 'Northgate rev A — bridge input pair', payload: { supply: { positiveV: 9, negativeV: -9 }, gain: { target: 20 }, cmrr: { minDb: 70 } } };
       const author = await signIn('rex@upgrade.test');

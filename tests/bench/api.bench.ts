@@ -62,7 +62,9 @@ async function signIn(base: string, email: string, password: string): Promise<Re
     body: JSON.stringify({ email, password }),
   });
   if (!login.ok) throw new Error(`sign-in failed: ${login.status} ${await login.text()}`);
-  return { cookie: [...csrfCookies, ...cookiePairs(login)].join('; '), 'x-csrf-token': token };
+  // Sign-in starts a new session: its cookie and its CSRF token replace the visitor's.
+  const { csrfToken } = (await login.json()) as { csrfToken: string };
+  return { cookie: cookiePairs(login).join('; '), 'x-csrf-token': csrfToken };
 }
 
 async function warmUp(path: () => string, init: RequestInit): Promise<void> {

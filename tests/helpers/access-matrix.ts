@@ -121,6 +121,22 @@ export const MATRIX: Row[] = [
   { route: 'POST /api/auth/logout', url: '/api/auth/logout', rule: 'public', fresh: true, expected: [204, 204, 204, 204, 204], note: 'signing out without a session is harmless' },
   { route: 'GET /api/auth/me', url: '/api/auth/me', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'PATCH /api/auth/me', url: '/api/auth/me', rule: 'signed-in', body: () => ({ notify: true }), expected: [401, 200, 200, 200, 200], note: 'own e-mail preference' },
+  {
+    route: 'POST /api/auth/password',
+    url: '/api/auth/password',
+    rule: 'signed-in',
+    body: () => ({ currentPassword: 'not-the-current-password', newPassword: 'moss-granary-5521-tide' }),
+    expected: [401, 400, 400, 400, 400],
+    note: 'own password; a wrong current password, so the passwords stay: 400 means the access check let it through',
+  },
+  {
+    route: 'POST /api/auth/password-reset',
+    url: '/api/auth/password-reset',
+    rule: 'public',
+    body: () => ({ token: 'no-such-reset-link-token-0000', newPassword: 'moss-granary-5521-tide' }),
+    expected: [400, 400, 400, 400, 400],
+    note: 'anyone holding a link; an unknown token answers 400 reset-link-invalid',
+  },
 
   // Accounts: the admin only.
   { route: 'GET /api/users', url: '/api/users', rule: 'users:manage', expected: [401, 200, 403, 403, 403] },
@@ -132,6 +148,8 @@ export const MATRIX: Row[] = [
     expected: [401, 201, 403, 403, 403],
   },
   { route: 'PATCH /api/users/:id', url: '/api/users/{reviewer2}', rule: 'users:manage', body: () => ({ displayName: 'Second reviewer (renamed)' }), expected: [401, 200, 403, 403, 403] },
+  { route: 'PATCH /api/users/:id', url: '/api/users/{reviewer2}', rule: 'users:manage', body: () => ({ disabled: false }), expected: [401, 200, 403, 403, 403], note: 'enable (already enabled: nothing changes)' },
+  { route: 'POST /api/users/:id/password-reset', url: '/api/users/{reviewer2}/password-reset', rule: 'users:manage', expected: [401, 202, 403, 403, 403], note: 'a one-time link mailed through the outbox' },
 
   // Administration: the local mail server's messages.
   { route: 'GET /api/admin/mail', url: '/api/admin/mail', rule: 'mail:read', expected: [401, 200, 403, 403, 403] },

@@ -90,15 +90,27 @@ export interface TestApi {
 }
 
 function clientFor(agent: request.Agent, csrfToken: string): ApiClient {
-  return {
+  // The token is read at each call: it changes when the session does (signInAs sets the new one).
+  const client: ApiClient = {
     agent,
     csrfToken,
     get: (url) => agent.get(url),
-    post: (url) => agent.post(url).set('X-CSRF-Token', csrfToken),
-    put: (url) => agent.put(url).set('X-CSRF-Token', csrfToken),
-    patch: (url) => agent.patch(url).set('X-CSRF-Token', csrfToken),
-    delete: (url) => agent.delete(url).set('X-CSRF-Token', csrfToken),
+    post: (url) => agent.post(url).set('X-CSRF-Token', client.csrfToken),
+    put: (url) => agent.put(url).set('X-CSRF-Token', client.csrfToken),
+    patch: (url) => agent.patch(url).set('X-CSRF-Token', client.csrfToken),
+    delete: (url) => agent.delete(url).set('X-CSRF-Token', client.csrfToken),
   };
+  return client;
+}
+
+/**
+ * Signs the client in (POST /api/auth/login) and takes the new session's CSRF token from the
+ * answer, as the browser app does; the answer is returned whatever its status.
+ */
+export async function signInAs(client: ApiClient, email: string, password: string): Promise<request.Response> {
+  const response = await client.post('/api/auth/login').send({ email, password });
+  if (response.status === 200 && typeof response.body.csrfToken === 'string') client.csrfToken = response.body.csrfToken;
+  return response;
 }
 
 /** A fresh agent with a CSRF token (the cookie is kept by the agent). */
@@ -123,6 +135,10 @@ export interface BuildOptions {
   database?: TestDatabase;
   /** Where uploaded files go (default: the app's own temporary folder, removed on close). */
   uploadsDir?: string;
+  /** Trust X-Forwarded-For and -Proto (so a test can speak from several addresses, or as HTTPS). */
+  trustProxy?: boolean;
+  /** The clock of the sign-in delays (default Date.now). */
+  clock?: () => number;
 }
 
 /** Builds the app on a new database (or `options.database`) and seeds the accounts. */
@@ -133,7 +149,7 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
   const ruleSet = await loadRuleSet();
   const log = options.log ?? (() => {});
   const verification = new VerificationQueue(dataSource, { log, ...options.verification });
-  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log, verification, uploadsDir: options.uploadsDir });
+  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log, verification, uploadsDir: options.uploadsDir, trustProxy: options.trustProxy, clock: options.clock });
   const entries = await Promise.all(
     (options.accounts ?? ACCOUNT_KEYS).map(async (key) => {
       const user = await createUser(dataSource, null, { email: emailOf(key), displayName: `Test ${key}`, role: accountRoleOf(key), password: TEST_PASSWORD });
@@ -149,7 +165,8 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
     users,
     async agentFor(key) {
       const client = await csrfClient(app);
-      await client.post('/api/auth/login').send({ email: emailOf(key), password: TEST_PASSWORD }).expect(200);
+      const response = await signInAs(client, emailOf(key), TEST_PASSWORD);
+      if (response.status !== 200) throw new Error(`sign-in as ${key} answered ${response.status}: ${JSON.stringify(response.body)}`);
       return client;
     },
     anonymous: () => csrfClient(app),

@@ -25,6 +25,8 @@ import {
   NETLIST_QUERY,
   NEW_PROJECT_BODY,
   NEW_USER_BODY,
+  PASSWORD_CHANGE_BODY,
+  PASSWORD_RESET_BODY,
   PREFERENCES_BODY,
   PROPOSAL_LIST_QUERY,
   MEASUREMENT_LIST_QUERY,
@@ -49,6 +51,8 @@ const specBody = fc.record({ title: arbitraryFromSchema({ type: 'string', minLen
 const BODIES: Record<string, fc.Arbitrary<unknown>> = {
   'POST /api/auth/login': arbitraryFromSchema(LOGIN_BODY),
   'PATCH /api/auth/me': arbitraryFromSchema(PREFERENCES_BODY),
+  'POST /api/auth/password': arbitraryFromSchema(PASSWORD_CHANGE_BODY),
+  'POST /api/auth/password-reset': arbitraryFromSchema(PASSWORD_RESET_BODY),
   'POST /api/users': arbitraryFromSchema(NEW_USER_BODY),
   'PATCH /api/users/:id': arbitraryFromSchema(USER_CHANGES_BODY),
   'POST /api/projects': arbitraryFromSchema(NEW_PROJECT_BODY),

@@ -130,6 +130,8 @@ export class HttpClient {
     await this.csrf();
     const answer = await this.request('POST', '/api/auth/login', { email, password });
     if (answer.status !== 200) throw new Error(`sign-in as ${email} answered ${answer.status}: ${answer.text}`);
+    // Sign-in starts a new session, with a new CSRF token.
+    this.csrfToken = (answer.json as { csrfToken: string }).csrfToken;
   }
 }
 

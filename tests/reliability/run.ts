@@ -11,13 +11,15 @@
  * 4. Access control (access-control.ts): the role × route matrix and cross-project probes.
  * 5. Quotas (quotas.ts): bench-measurement and device-library floods; what is stored, and the
  *    size of the paged lists afterwards.
+ * 6. Accounts (accounts.ts): the owner signs in from another address during a wrong-password flood.
  *
- * Options: --quick (shorter load, soak and fuzzing: about 4 minutes), --only=crash,load,hostile,access,quotas
+ * Options: --quick (shorter load, soak and fuzzing: about 4 minutes), --only=crash,load,hostile,access,quotas,accounts
  * (a subset), --no-browser (skip the Chromium check), --seed=N (fast-check seed).
  * Exit code 1 when any requirement of the table fails (or a part could not run).
  */
 import { availableParallelism, loadavg } from 'node:os';
 import { accessControl } from './access-control';
+import { accountsPart } from './accounts';
 import { crashSafety } from './crash-safety';
 import { hostileInput } from './hostile-input';
 import { loadPart } from './load';
@@ -25,7 +27,7 @@ import { quotasPart } from './quotas';
 import { row, type PartResult, type RunOptions, type SummaryRow } from './lib';
 
 interface Part {
-  key: 'crash' | 'load' | 'hostile' | 'access' | 'quotas';
+  key: 'crash' | 'load' | 'hostile' | 'access' | 'quotas' | 'accounts';
   title: string;
   /** Time budget, s (full run, quick run). */
   budgetS: [number, number];
@@ -38,6 +40,7 @@ const PARTS: Part[] = [
   { key: 'hostile', title: 'Hostile input', budgetS: [240, 150], run: hostileInput },
   { key: 'access', title: 'Access control', budgetS: [75, 75], run: accessControl },
   { key: 'quotas', title: 'Quotas', budgetS: [60, 60], run: quotasPart },
+  { key: 'accounts', title: 'Accounts', budgetS: [45, 30], run: accountsPart },
 ];
 
 const args = process.argv.slice(2);
@@ -47,7 +50,7 @@ const only = args.find((a) => a.startsWith('--only='))?.slice('--only='.length).
 const seed = Number(args.find((a) => a.startsWith('--seed='))?.slice('--seed='.length) ?? 20260611);
 const unknown = args.filter((a) => !/^--(quick|no-browser|only=.*|seed=\d+)$/.test(a));
 if (unknown.length > 0) {
-  console.error(`Unknown option(s): ${unknown.join(' ')}\nUsage: npm run reliability [-- --quick] [--only=crash,load,hostile,access,quotas] [--no-browser] [--seed=N]`);
+  console.error(`Unknown option(s): ${unknown.join(' ')}\nUsage: npm run reliability [-- --quick] [--only=crash,load,hostile,access,quotas,accounts] [--no-browser] [--seed=N]`);
   process.exit(2);
 }
 

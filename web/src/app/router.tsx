@@ -32,6 +32,7 @@ export function createRouter(queryClient: QueryClient) {
   };
   return createBrowserRouter([
     { path: paths.signIn.path, lazy: lazyRoute(queryClient, () => import('../routes/sign-in')), errorElement: <RouteError />, hydrateFallbackElement: <Loading what="Opening Longtail" /> },
+    { path: paths.passwordReset.path, lazy: lazyRoute(queryClient, () => import('../routes/password-reset')), errorElement: <RouteError />, hydrateFallbackElement: <Loading what="Opening Longtail" /> },
     {
       path: '/',
       element: <AppShell />,

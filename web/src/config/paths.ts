@@ -14,6 +14,8 @@ export const paths = {
   profile: { path: '/profile', href: () => '/profile' },
   /** The local mail server's messages (admins). */
   mail: { path: '/admin/mail', href: () => '/admin/mail' },
+  /** Setting a new password from a one-time link; the token is the fragment (`#…`), never sent in a request line. Linked from e-mails: keep it stable. */
+  passwordReset: { path: '/password-reset', href: () => '/password-reset' },
 } as const;
 
 /** API endpoints, once. */
@@ -23,10 +25,16 @@ export const api = {
   logout: '/api/auth/logout',
   /** GET: the signed-in user; PATCH { notify }: their own e-mail preference. */
   me: '/api/auth/me',
+  /** POST { currentPassword, newPassword }: the signed-in person's own password. */
+  ownPassword: '/api/auth/password',
+  /** POST { token, newPassword }: a new password through a one-time reset link. */
+  passwordReset: '/api/auth/password-reset',
   /** Messages the built-in local mail server received, newest first (admins). */
   adminMail: '/api/admin/mail',
   users: '/api/users',
   user: (id: number) => `/api/users/${id}`,
+  /** POST: mail the person a one-time link to set a new password (admins). */
+  userPasswordReset: (id: number) => `/api/users/${id}/password-reset`,
   projects: '/api/projects',
   project: (id: number) => `/api/projects/${id}`,
   members: (projectId: number) => `/api/projects/${projectId}/members`,

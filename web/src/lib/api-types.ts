@@ -18,6 +18,8 @@ export interface User {
   /** E-mail notifications on (the server always answers it; absent counts as on). */
   notify?: boolean;
   createdAt: string;
+  /** When an administrator disabled the account (it cannot sign in), or null. */
+  disabledAt?: string | null;
 }
 
 /** A project's member (GET /api/projects/:id/members): the account and the role held in that project. */

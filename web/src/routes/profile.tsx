@@ -6,20 +6,21 @@ import { PageHeader } from '../components/ui/page-header';
 import { Sheet } from '../components/ui/sheet';
 import { meQuery } from '../features/auth/api/auth-queries';
 import { NotificationSwitch } from '../features/profile/components/notification-switch';
+import { PasswordChangeForm } from '../features/profile/components/password-change-form';
 
 export const loader = (queryClient: QueryClient) => async () => {
   await queryClient.ensureQueryData(meQuery());
   return null;
 };
 
-/** Your own account: who you are here, and whether Longtail e-mails you. */
+/** Your own account: who you are here, your password, and whether Longtail e-mails you. */
 export function Component() {
   const { data: user } = useSuspenseQuery(meQuery());
   if (!user) return null;
   return (
     <>
       <PageHeader title="Your profile" eyebrow="Account">
-        Your name and your role in each project are set by an administrator; the e-mail switch is yours.
+        Your name and your role in each project are set by an administrator; your password and the e-mail switch are yours.
       </PageHeader>
       <div className="grid max-w-3xl gap-6">
         <Sheet title="Account" aria-label="Account">
@@ -31,6 +32,10 @@ export function Component() {
             <dt className="text-ink-soft dark:text-night-ink-soft">Roles</dt>
             <dd>{heldRoleTitles(user).join(', ') || 'None yet: an administrator adds you to a project with a role.'}</dd>
           </dl>
+        </Sheet>
+        <Sheet title="Password" aria-label="Password">
+          <p className="mb-3 text-sm text-ink-soft dark:text-night-ink-soft">Changing it signs you out everywhere else; this browser stays signed in.</p>
+          <PasswordChangeForm />
         </Sheet>
         <Sheet title="E-mail notifications" aria-label="E-mail notifications">
           <NotificationSwitch user={user} />

@@ -56,7 +56,8 @@ export function Component() {
             {busy ? 'Signing in…' : 'Sign in'}
           </Button>
         </form>
-        <p className="mt-4 text-xs text-ink-soft dark:text-night-ink-soft">
+        <p className="mt-4 text-xs text-ink-soft dark:text-night-ink-soft">Forgot your password? An administrator can mail you a one-time link to set a new one.</p>
+        <p className="mt-2 text-xs text-ink-soft dark:text-night-ink-soft">
           Demo accounts: admin@, requirements@, designer@ or reviewer@demo.longtail.test with the demo password from the README.
         </p>
       </div>

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AccountRole } from '../../../../../shared/workflow/roles';
-import { createUser, updateUser, userKeys, type NewUser } from './user-queries';
+import { createUser, sendPasswordReset, updateUser, userKeys, type NewUser } from './user-queries';
 
 /**
  * Account changes. Each resolves once the user list is fetched again; `alsoRefresh` lets the
@@ -17,7 +17,12 @@ export function useCreateUser() {
 export function useUpdateUser(alsoRefresh?: () => Promise<unknown>) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, changes }: { id: number; changes: { displayName?: string; role?: AccountRole } }) => updateUser(id, changes),
+    mutationFn: ({ id, changes }: { id: number; changes: { displayName?: string; role?: AccountRole; disabled?: boolean } }) => updateUser(id, changes),
     onSuccess: () => Promise.all([queryClient.invalidateQueries({ queryKey: userKeys.all }), alsoRefresh?.()]),
   });
+}
+
+/** An administrator mails someone a one-time password link (nothing on the page changes). */
+export function useSendPasswordReset() {
+  return useMutation({ mutationFn: (id: number) => sendPasswordReset(id) });
 }

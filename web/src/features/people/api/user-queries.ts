@@ -23,6 +23,11 @@ export function createUser(body: NewUser): Promise<User> {
   return apiClient.post<User>(api.users, body);
 }
 
-export function updateUser(id: number, changes: { displayName?: string; role?: AccountRole }): Promise<User> {
+export function updateUser(id: number, changes: { displayName?: string; role?: AccountRole; disabled?: boolean }): Promise<User> {
   return apiClient.patch<User>(api.user(id), changes);
+}
+
+/** Mails the person a one-time link to set a new password; answers when it stops working. */
+export function sendPasswordReset(id: number): Promise<{ expiresAt: string }> {
+  return apiClient.post<{ expiresAt: string }>(api.userPasswordReset(id));
 }

@@ -5,7 +5,7 @@ import { Sheet } from '../../../components/ui/sheet';
 import { useCreateUser } from '../api/user-mutations';
 import type { NewUser } from '../api/user-queries';
 import { fieldErrors, type FieldErrors } from '../utils/field-errors';
-import { MIN_PASSWORD_LENGTH } from '../utils/password-strength';
+import { MIN_PASSWORD_LENGTH, PASSWORD_RULE } from '../utils/password-strength';
 import { Field } from './field';
 import { PasswordHint } from './password-hint';
 
@@ -92,7 +92,12 @@ export function NewUserForm() {
           value={user.password}
           onChange={(e) => set('password', e.target.value)}
           error={errors.password}
-          hint={<PasswordHint password={user.password} />}
+          hint={
+            <>
+              <PasswordHint password={user.password} />
+              <span className="mt-1 block">{PASSWORD_RULE}</span>
+            </>
+          }
         />
         {errors.form && (
           <p role="alert" className="text-sm text-short dark:text-short-bright">

@@ -6,7 +6,7 @@ const TEXT = ['text-short dark:text-short-bright', 'text-note dark:text-note-bri
 
 /** The password's strength in words, with a three-step bar that only repeats what the words say. */
 export function PasswordHint({ password }: { password: string }) {
-  if (password === '') return <>At least 12 characters. A few unrelated words make a good one.</>;
+  if (password === '') return <>A few unrelated words make a good one.</>;
   const strength = passwordStrength(password);
   return (
     <span className="flex items-center gap-2" aria-live="polite">

@@ -2,19 +2,30 @@ import { useState, type FormEvent } from 'react';
 import { ACCOUNT_ROLES, ACCOUNT_ROLE_TITLES, type AccountRole } from '../../../../../shared/workflow/roles';
 import { Button } from '../../../components/ui/button';
 import type { User } from '../../../lib/api-types';
-import { useUpdateUser } from '../api/user-mutations';
+import { useSendPasswordReset, useUpdateUser } from '../api/user-mutations';
 import { fieldErrors } from '../utils/field-errors';
 
 const td = 'border-b border-rule/70 px-2.5 py-1.5 align-middle dark:border-night-rule/70';
 const soft = 'text-ink-soft dark:text-night-ink-soft';
 const dateOnly = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
+const dateTime = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
+const noteRow = 'border-b border-rule/70 px-2.5 py-2 dark:border-night-rule/70';
 
-/** One account: rename in place; a role change is confirmed first, and the server may still refuse it. */
+/**
+ * One account: rename in place; a role change is confirmed first, and the server may still
+ * refuse it. Account controls: mail a one-time password link; disable (confirmed first: the
+ * person is signed out at once and cannot sign in) or enable again.
+ */
 export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean; onChanged?: () => Promise<unknown> }) {
   const [renaming, setRenaming] = useState(false);
   const [name, setName] = useState(user.displayName);
   const [newRole, setNewRole] = useState<AccountRole | null>(null);
   const update = useUpdateUser(onChanged);
+  const access = useUpdateUser(onChanged);
+  const resetLink = useSendPasswordReset();
+  const [confirmDisable, setConfirmDisable] = useState(false);
+  const disabled = Boolean(user.disabledAt);
+  const setDisabled = (value: boolean) => access.mutate({ id: user.id, changes: { disabled: value } }, { onSettled: () => setConfirmDisable(false) });
   const nameError = renaming ? fieldErrors(update.error, ['displayName'] as const) : {};
   const startRename = () => {
     update.reset();
@@ -66,6 +77,11 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
             <span className="font-medium whitespace-nowrap">
               {user.displayName}
               {isYou && <span className={`ml-1.5 text-xs font-normal ${soft}`}>(you)</span>}
+              {disabled && (
+                <span className="ml-1.5 rounded-full border border-short/50 px-1.5 py-px text-xs font-normal text-short dark:border-short-bright/50 dark:text-short-bright">
+                  <span aria-hidden="true">⊘ </span>Disabled
+                </span>
+              )}
             </span>
           )}
           {renaming && (nameError.displayName || nameError.form) && (
@@ -93,11 +109,26 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
           <time dateTime={user.createdAt}>{dateOnly.format(new Date(user.createdAt))}</time>
         </td>
         <td className={`${td} text-right`}>
-          {!renaming && (
-            <Button variant="quiet" className="px-2 py-1 text-xs" onClick={startRename} aria-label={`Rename ${user.displayName}`}>
-              Rename
+          <div className="flex flex-wrap justify-end gap-1">
+            {!renaming && (
+              <Button variant="quiet" className="px-2 py-1 text-xs" onClick={startRename} aria-label={`Rename ${user.displayName}`}>
+                Rename
+              </Button>
+            )}
+            <Button variant="quiet" className="px-2 py-1 text-xs whitespace-nowrap" disabled={resetLink.isPending} onClick={() => resetLink.mutate(user.id)} aria-label={`Mail ${user.displayName} a password link`}>
+              {resetLink.isPending ? 'Sending…' : 'Password link'}
             </Button>
-          )}
+            {!isYou &&
+              (disabled ? (
+                <Button variant="quiet" className="px-2 py-1 text-xs" disabled={access.isPending} onClick={() => setDisabled(false)} aria-label={`Enable ${user.displayName}`}>
+                  {access.isPending ? 'Enabling…' : 'Enable'}
+                </Button>
+              ) : (
+                <Button variant="quiet" className="px-2 py-1 text-xs" onClick={() => setConfirmDisable(true)} aria-label={`Disable ${user.displayName}`}>
+                  Disable
+                </Button>
+              ))}
+          </div>
         </td>
       </tr>
       {newRole && (
@@ -116,6 +147,62 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
                   Cancel
                 </Button>
               </div>
+            </div>
+          </td>
+        </tr>
+      )}
+      {confirmDisable && (
+        <tr>
+          <td colSpan={5} className={`${noteRow} bg-note-soft/60 dark:bg-note/15`}>
+            <div role="group" aria-label={`Confirm disabling ${user.displayName}`} className="flex flex-wrap items-center gap-3 text-sm">
+              <p>
+                Disable {user.displayName}? They are signed out at once and cannot sign in until an administrator enables the account again. Their specs, decisions and reviews stay.
+              </p>
+              <div className="flex gap-2">
+                <Button className="px-2.5 py-1 text-xs" disabled={access.isPending} onClick={() => setDisabled(true)}>
+                  {access.isPending ? 'Disabling…' : 'Disable account'}
+                </Button>
+                <Button variant="secondary" className="px-2.5 py-1 text-xs" onClick={() => setConfirmDisable(false)}>
+                  Cancel
+                </Button>
+              </div>
+            </div>
+          </td>
+        </tr>
+      )}
+      {resetLink.isSuccess && (
+        <tr>
+          <td colSpan={5} className={noteRow}>
+            <div role="status" className="flex flex-wrap items-center gap-3 text-sm">
+              <p>
+                <span aria-hidden="true">✓ </span>A one-time link to set a new password is on its way to {user.email}. It works once, until{' '}
+                <time dateTime={resetLink.data.expiresAt}>{dateTime.format(new Date(resetLink.data.expiresAt))}</time>; a newer link replaces it. The current password works until the link is used.
+              </p>
+              <Button variant="secondary" className="px-2 py-1 text-xs" onClick={() => resetLink.reset()}>
+                Dismiss
+              </Button>
+            </div>
+          </td>
+        </tr>
+      )}
+      {(resetLink.error || access.error) && (
+        <tr>
+          <td colSpan={5} className={`${noteRow} bg-short-soft/60 dark:bg-short/15`}>
+            <div role="alert" className="flex flex-wrap items-center gap-3 text-sm text-short dark:text-short-bright">
+              <p>
+                <span aria-hidden="true">✕ </span>
+                {resetLink.error ? `No link was sent: ${resetLink.error.message}` : `The account was not changed: ${access.error?.message}`}
+              </p>
+              <Button
+                variant="secondary"
+                className="px-2 py-1 text-xs"
+                onClick={() => {
+                  resetLink.reset();
+                  access.reset();
+                }}
+              >
+                Dismiss
+              </Button>
             </div>
           </td>
         </tr>

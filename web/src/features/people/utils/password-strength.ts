@@ -1,8 +1,12 @@
 /**
- * A hint, not a rule: the server's only rule is the length (MIN_PASSWORD_LENGTH in
- * api/auth/password.ts, 12 characters). Longer and more varied passwords rate higher.
+ * A hint, not a rule: the server holds the rule (api/auth/password-policy.ts: the length,
+ * MIN_PASSWORD_LENGTH, and the refusals PASSWORD_RULE names) and answers which part a password
+ * breaks. Longer and more varied passwords rate higher here.
  */
 export const MIN_PASSWORD_LENGTH = 12;
+
+/** The server's password rule in one sentence, shown under every new-password field. */
+export const PASSWORD_RULE = `At least ${MIN_PASSWORD_LENGTH} characters; not spaces only, not one character repeated, not the e-mail address or the name in it, and not a common password.`;
 
 export type Strength = { level: 0 | 1 | 2 | 3; words: string };
 
