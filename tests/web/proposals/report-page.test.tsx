@@ -162,7 +162,8 @@ describe('review report page', () => {
     expect(within(spec).getByRole('rowheader', { name: 'Patient-connected input' }).closest('tr')!.textContent).toContain('Yes');
 
     const ranking = section('Ranked options');
-    expect(within(ranking).getAllByRole('row')).toHaveLength(RANKING.options.length + 1);
+    // A row of group headings, a row of column headings, then one row per option.
+    expect(within(ranking).getAllByRole('row')).toHaveLength(RANKING.options.length + 2);
     expect(within(ranking).getByRole('rowheader', { name: /Wilson mirror/ }).textContent).toContain('decided');
 
     const design = section('Chosen design');

@@ -28,3 +28,28 @@ export function checkVerdict(check: { passed: boolean; severity: string; applica
   if (check.passed) return 'holds';
   return check.severity === 'blocking' ? 'short' : 'note';
 }
+
+/** What an option's verdict is read from: whether it passes, how many blocking checks it is short on, whether it could be solved. */
+export interface OptionStanding {
+  passes: boolean;
+  blockingShortCount: number;
+  unsolved?: boolean;
+}
+
+/**
+ * The one wording of an option's verdict, on the page, in panels and in the report: "Passes" /
+ * "Short · 2 blocking" in tables, "Passes every blocking check" / "Short on 2 blocking checks"
+ * in sentences, "Not solved" when the stage could not be solved.
+ */
+export function optionVerdictWords(option: OptionStanding, form: 'table' | 'sentence' = 'table'): { kind: VerdictKind; label: string } {
+  if (option.unsolved) return { kind: 'undecided', label: 'Not solved' };
+  if (option.passes) return { kind: 'holds', label: form === 'table' ? 'Passes' : 'Passes every blocking check' };
+  const n = option.blockingShortCount;
+  return { kind: 'short', label: form === 'table' ? `Short · ${n} blocking` : `Short on ${n} blocking check${n === 1 ? '' : 's'}` };
+}
+
+/** An option's verdict in the status language (optionVerdictWords). */
+export function OptionVerdict({ option, form = 'table', className }: { option: OptionStanding; form?: 'table' | 'sentence'; className?: string }) {
+  const { kind, label } = optionVerdictWords(option, form);
+  return <Verdict kind={kind} label={label} className={className} />;
+}

@@ -1,4 +1,4 @@
-import { Verdict } from '../../../components/ui/verdict';
+import { OptionVerdict } from '../../../components/ui/verdict';
 import type { Proposal } from '../../../lib/api-types';
 import { topologyName } from '../../../lib/topology-names';
 import { blockingFailures, DECISION_KIND_WORDS } from '../../proposals/components/decision/decided-option';
@@ -71,7 +71,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
       )}
       {option && (
         <p className="flex flex-wrap items-center gap-2 text-sm">
-          {option.passes ? <Verdict kind="holds" label="Passes every blocking check" /> : <Verdict kind="short" label={`Fails ${failures} blocking check${failures === 1 ? '' : 's'}`} />}
+          <OptionVerdict option={{ passes: option.passes, blockingShortCount: failures }} form="sentence" />
           <span className="text-ink-soft dark:text-night-ink-soft">
             {decision?.kind === 'override' ? 'as the server checked the designer’s values with every rule' : `as ranked by the engine (rank ${option.rank} of ${proposal.result.options.length})`}
           </span>
