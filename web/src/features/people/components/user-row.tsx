@@ -4,10 +4,10 @@ import { Button } from '../../../components/ui/button';
 import type { User } from '../../../lib/api-types';
 import { useUpdateUser } from '../api/user-mutations';
 import { fieldErrors } from '../utils/field-errors';
+import { formatDate } from '../../../lib/dates';
 
 const td = 'border-b border-rule/70 px-2.5 py-1.5 align-middle dark:border-night-rule/70';
 const soft = 'text-ink-soft dark:text-night-ink-soft';
-const dateOnly = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
 
 /** One account: rename in place; a role change is confirmed first, and the server may still refuse it. */
 export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean; onChanged?: () => Promise<unknown> }) {
@@ -90,7 +90,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
           </select>
         </td>
         <td className={`${td} ${soft} whitespace-nowrap`}>
-          <time dateTime={user.createdAt}>{dateOnly.format(new Date(user.createdAt))}</time>
+          <time dateTime={user.createdAt}>{formatDate(user.createdAt)}</time>
         </td>
         <td className={`${td} text-right`}>
           {!renaming && (

@@ -4,9 +4,9 @@ import { topologyName } from '../../../lib/topology-names';
 import { blockingFailures, DECISION_KIND_WORDS } from '../../proposals/components/decision/decided-option';
 import { OptionSchematic } from '../../proposals/components/ranking/schematic/option-schematic';
 import { SizedValues } from '../../proposals/components/ranking/sized-values';
-import { fullTimestamp } from '../lib/report-format';
 import type { ReportSubject } from '../lib/report-subject';
 import { besideRecommendation, currentDesign, currentDesignName, currentDesignRole } from '../../../../../shared/workflow/current-design';
+import { formatDateTime } from '../../../lib/dates';
 
 const BASIS_WORDS = {
   recommendation: 'No decision yet. Shown below: the recommendation, as the engine sized it.',
@@ -37,7 +37,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
         <div className="space-y-2 text-sm">
           <p>
             <span className="font-medium">{nameOf(decision.decidedById)}</span> {DECISION_KIND_WORDS[decision.kind]}: <span className="font-medium">{topologyName(decision.topology)}</span>
-            {' '}· {fullTimestamp(decision.createdAt)}
+            {' '}· {formatDateTime(decision.createdAt, { seconds: true })}
             {proposal.decisions.length > 1 && ` · decision ${proposal.decisions.length} of ${proposal.decisions.length}`}
           </p>
           <div>
@@ -51,7 +51,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
           {reviews.map((review) => (
             <div key={review.id}>
               <p>
-                <span className="font-medium">{nameOf(review.reviewerId)}</span> {review.verdict === 'approve' ? 'signed off this decision' : 'sent this decision back for rework'} · {fullTimestamp(review.createdAt)}
+                <span className="font-medium">{nameOf(review.reviewerId)}</span> {review.verdict === 'approve' ? 'signed off this decision' : 'sent this decision back for rework'} · {formatDateTime(review.createdAt, { seconds: true })}
               </p>
               {review.verdict === 'approve' && review.verificationJobId !== undefined && (
                 <p className="text-xs text-ink-soft dark:text-night-ink-soft">
