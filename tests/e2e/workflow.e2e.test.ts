@@ -73,7 +73,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await record(actors.admin, shots, 'sign-in');
   });
 
-  it('signs in each demo role through the form and shows its workbench', async () => {
+  it('signs in each demo role through the form and shows its Projects page', async () => {
     for (const role of DEMO_ROLES) {
       const actor = actors[role];
       await signInAs(actor.page, role);
@@ -82,7 +82,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
       // Only an administrator is offered People in the navigation
       const nav = actor.page.getByRole('navigation', { name: 'Main' });
       expect(await nav.getByRole('link', { name: 'People' }).count()).toBe(role === 'admin' ? 1 : 0);
-      await record(actor, shots, `workbench-${role}`);
+      await record(actor, shots, `projects-${role}`);
     }
   });
 

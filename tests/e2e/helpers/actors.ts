@@ -38,7 +38,7 @@ export async function record(actor: Actor, shots: Screenshots, step: string): Pr
   await checkAccessibility(actor.page, `${step} (${actor.role})`);
 }
 
-/** From the signed-in workbench: the demo project by name, then its first proposal in the list. */
+/** From the signed-in Projects page: the demo project by name, then its first proposal in the list. */
 export async function openFirstProposal(page: Page, project: string): Promise<void> {
   await page.getByRole('link', { name: new RegExp(project) }).click();
   await visible(page.getByRole('heading', { level: 1, name: project }));

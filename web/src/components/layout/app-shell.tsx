@@ -37,13 +37,13 @@ export function AppShell() {
       </a>
       <header data-app-frame className="border-b border-rule bg-sheet/80 backdrop-blur dark:border-night-rule dark:bg-night-sheet/80">
         <div className="mx-auto flex max-w-7xl items-center gap-6 px-4 py-2.5">
-          <NavLink to={paths.workbench.href()} className="flex items-center gap-2 text-lg font-medium tracking-tight text-fern dark:text-fern-bright">
+          <NavLink to={paths.home.href()} className="flex items-center gap-2 text-lg font-medium tracking-tight text-fern dark:text-fern-bright">
             <img src="/longtail.svg" alt="" className="h-6 w-6" />
             longtail
           </NavLink>
           <nav aria-label="Main" className="flex items-center gap-1">
-            <NavLink to={paths.workbench.href()} end className={navClass}>
-              Workbench
+            <NavLink to={paths.home.href()} end className={navClass}>
+              Projects
             </NavLink>
             {mayAs(user, null, 'users:manage') && (
               <NavLink to={paths.people.href()} className={navClass}>

@@ -84,7 +84,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
           <figure className="report-keep min-w-0">
             <OptionSchematic design={design} className="mx-auto w-full max-w-[480px] print:max-w-[95mm]" />
             <figcaption className="mt-1 text-center text-xs text-ink-soft dark:text-night-ink-soft">
-              The stage with the {topologyName(design.tail.topology).toLowerCase()} tail, as sized (on screen, the tail element is in the accent colour).
+              The stage with the {topologyName(design.tail.topology).toLowerCase()} tail, as sized; the tail element in the accent colour.
             </figcaption>
           </figure>
           <SizedValues design={design} series={payload?.resistors?.series ?? null} tolerancePercent={payload?.resistors?.tolerancePercent ?? null} facts={option?.figures ?? null} predicted={option?.predicted ?? null} />
