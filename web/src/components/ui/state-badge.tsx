@@ -6,7 +6,7 @@
  * hidden from assistive technology, which reads the word.
  */
 import type { ReactNode } from 'react';
-import type { ProposalState } from '../../../../shared/workflow/proposal-states';
+import { STATE_WORDS, type ProposalState } from '../../../../shared/workflow/proposal-states';
 import { cn } from '../../lib/cn';
 
 /** Marks drawn for states (12 × 12 units, in currentColor). */
@@ -70,10 +70,10 @@ const look = (label: string, glyph: StateLook['glyph'], tone: StateTone): StateL
 
 /** Names the app uses for proposal states, with a mark and a tone each. */
 export const STATE_LABELS: Record<ProposalState, StateLook> = {
-  ranked: look('Awaiting decision', 'fork', 'accent'),
-  decided: look('Awaiting review', 'beam', 'note'),
-  returned: look('Returned to designer', 'hook', 'short'),
-  approved: look('Approved', 'stamp', 'holds'),
+  ranked: look(STATE_WORDS.ranked, 'fork', 'accent'),
+  decided: look(STATE_WORDS.decided, 'beam', 'note'),
+  returned: look(STATE_WORDS.returned, 'hook', 'short'),
+  approved: look(STATE_WORDS.approved, 'stamp', 'holds'),
 };
 
 /** A state's mark alone (hidden from assistive technology: the word goes beside it). */
