@@ -24,7 +24,7 @@ function renderBoth(result: RecommendResult, spec: 'strain' | 'studio') {
 }
 
 /** The column headings as text, in order, without sort arrows. */
-const headings = (table: HTMLTableElement) => [...table.querySelectorAll('thead tr:last-child th')].map((th) => (th.textContent ?? '').replace(/[▲▼↕]/g, '').trim());
+const headings = (table: HTMLTableElement) => [...table.querySelectorAll('thead tr:last-child th')].map((th) => (th.textContent ?? '').replace(/[▲▼↕]/g, '').replace(/\u00a0/g, ' ').trim());
 
 /** Each body row's cell texts, keyed by the tail's name. */
 function cells(table: HTMLTableElement): Map<string, string[]> {

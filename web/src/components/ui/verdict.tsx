@@ -6,7 +6,7 @@ const LOOK: Record<VerdictKind, { word: string; glyph: string; className: string
   holds: { word: 'Holds', glyph: '✓', className: 'bg-holds-soft text-holds dark:bg-holds/25 dark:text-holds-bright' },
   short: { word: 'Short', glyph: '✕', className: 'bg-short-soft text-short dark:bg-short/25 dark:text-short-bright' },
   note: { word: 'Note', glyph: '!', className: 'bg-note-soft text-note dark:bg-note/25 dark:text-note-bright' },
-  'not-applicable': { word: 'N/A', glyph: '–', className: 'bg-paper text-ink-soft dark:bg-night dark:text-night-ink-soft' },
+  'not-applicable': { word: 'n/a', glyph: '–', className: 'bg-paper text-ink-soft dark:bg-night dark:text-night-ink-soft' },
   undecided: { word: 'Undecided', glyph: '?', className: 'bg-paper text-ink-soft dark:bg-night dark:text-night-ink-soft' },
 };
 

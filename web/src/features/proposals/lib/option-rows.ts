@@ -158,7 +158,7 @@ export function rejectionColumns(targets: SpecTargets | null): RejectionColumn[]
     {
       field: 'cmrrAtFrequencyDb',
       title: f,
-      sub: singleEndedTarget === null ? 'worst corner' : `worst, ≥ ${bare(formatTargetDb(singleEndedTarget))}`,
+      sub: singleEndedTarget === null ? 'worst corner' : `worst, ≥\u00a0${bare(formatTargetDb(singleEndedTarget))}`,
       unit: 'dB',
       forOutput: targets?.output.field === 'cmrrAtFrequencyDb',
       kind: 'single-ended',
@@ -166,8 +166,8 @@ export function rejectionColumns(targets: SpecTargets | null): RejectionColumn[]
   ];
   if (targets?.differential) {
     columns.push(
-      { field: 'mismatchWorstCaseDb', title: 'Mismatch', sub: `worst, ≥ ${bare(formatTargetDb(targets.requiredDb))}`, unit: 'dB', forOutput: targets.output.field === 'mismatchWorstCaseDb', kind: 'differential' },
-      { field: 'yieldPercent', title: 'Yield %', sub: `MC, ≥ ${bare(formatPercent(targets.requiredYieldPercent))}`, unit: '%', forOutput: false, kind: 'differential' },
+      { field: 'mismatchWorstCaseDb', title: 'Mismatch', sub: `worst, ≥\u00a0${bare(formatTargetDb(targets.requiredDb))}`, unit: 'dB', forOutput: targets.output.field === 'mismatchWorstCaseDb', kind: 'differential' },
+      { field: 'yieldPercent', title: 'Yield %', sub: `MC, ≥\u00a0${bare(formatPercent(targets.requiredYieldPercent))}`, unit: '%', forOutput: false, kind: 'differential' },
     );
   }
   return columns;

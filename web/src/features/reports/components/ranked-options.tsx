@@ -9,14 +9,14 @@ import { optionRows, outputRejectionNote, rejectionColumns, specTargets } from '
 
 function Head({ children, left }: { children: ReactNode; left?: boolean }) {
   return (
-    <th scope="col" className={left ? 'py-1 pr-2 text-left align-bottom font-medium' : 'px-1.5 py-1 text-right align-bottom font-medium'}>
+    <th scope="col" className={left ? 'py-1 pr-1.5 text-left align-bottom font-medium' : 'px-1 py-1 text-right align-bottom font-medium [&_.whitespace-nowrap]:whitespace-normal'}>
       {children}
     </th>
   );
 }
 
 function Num({ children }: { children: ReactNode }) {
-  return <td className="px-1.5 py-1.5 text-right whitespace-nowrap tabular-nums">{children}</td>;
+  return <td className="px-1 py-1.5 text-right whitespace-nowrap tabular-nums">{children}</td>;
 }
 
 const text = (value: number | null, format: (v: number) => string) => (value === null ? null : format(value));
@@ -41,7 +41,7 @@ export function RankedOptions({ proposal, decided }: { proposal: Proposal; decid
   return (
     <>
       <p className="mb-2 text-sm">{result.summary}</p>
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table className="report-ranking w-full text-xs">
           <caption className="sr-only">Tail options in the engine&rsquo;s ranking order</caption>
           <thead className="text-ink-soft dark:text-night-ink-soft">
@@ -85,12 +85,12 @@ export function RankedOptions({ proposal, decided }: { proposal: Proposal; decid
               return (
                 <tr key={option.topology} className="border-b border-rule/60 align-top dark:border-night-rule/60">
                   <td className="py-1.5 pr-2 tabular-nums">{option.rank}</td>
-                  <th scope="row" className="py-1.5 pr-2 text-left font-medium">
-                    <span className="whitespace-nowrap">{row.name}</span>
+                  <th scope="row" className="py-1.5 pr-1.5 text-left font-medium">
+                    <span>{row.name}</span>
                     {notes && <span className="block text-xs font-normal text-ink-soft dark:text-night-ink-soft">{notes}</span>}
                   </th>
-                  <td className="py-1.5 pr-2">
-                    <OptionVerdict option={row} />
+                  <td className="py-1.5 pr-1.5">
+                    <OptionVerdict option={row} className="whitespace-normal" />
                   </td>
                   {rejections.map((c) => {
                     const value = row[c.field];

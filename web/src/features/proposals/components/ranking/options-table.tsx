@@ -100,7 +100,7 @@ export function OptionsTable({
         shown={shown.length}
         total={rows.length}
       />
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table className="w-full border-collapse text-sm">
           <caption className="sr-only">Tail options, ranked. Select an option to see its detail below.</caption>
           <thead className="text-xs text-ink dark:text-night-ink">

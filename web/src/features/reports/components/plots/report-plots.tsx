@@ -25,7 +25,7 @@ const DASHES = ['', '7 3', '2 3', '9 3 2 3', '4 4', '12 3 2 3 2 3'];
 
 function Figure({ title, summary, children, legend }: { title: string; summary: string; children: ReactNode; legend?: ReactNode }) {
   return (
-    <figure className="report-keep min-w-0">
+    <figure className="report-keep min-w-0 max-w-2xl">
       <figcaption className="mb-1">
         <span className="block text-sm font-medium">{title}</span>
         <span className="block text-xs text-ink-soft dark:text-night-ink-soft">{summary}</span>

@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 import type { Scale } from '../../lib/svg-scale';
 
 /** The plot area inside the view box (user units; the SVG scales to its container). */
-export const FRAME = { width: 520, height: 250, left: 52, right: 14, top: 12, bottom: 42 } as const;
+export const FRAME = { width: 520, height: 250, left: 52, right: 30, top: 12, bottom: 42 } as const;
 export const PLOT_X: [number, number] = [FRAME.left, FRAME.width - FRAME.right];
 export const PLOT_Y: [number, number] = [FRAME.height - FRAME.bottom, FRAME.top];
 

@@ -37,7 +37,7 @@ export function OptionSchematic({ design, className }: { design: Design; classNa
   const negativeV = design.supply.negativeV;
   return (
     <svg viewBox={`0 0 ${VIEW.width} ${VIEW.height}`} role="img" aria-label={schematicDescription(design)} className={className}>
-      <g data-accent="none" className="text-ink-soft dark:text-night-ink-soft">
+      <g data-accent="none" className="text-ink-soft opacity-60 dark:text-night-ink-soft">
         <Rail y={RAIL_TOP_Y} x1={RAIL_LEFT_X} x2={RAIL_RIGHT_X} name="V+" volts={formatQuantity(design.supply.positiveV, 'V')} />
         <Rail y={RAIL_BOTTOM_Y} x1={RAIL_LEFT_X} x2={RAIL_RIGHT_X} name="V−" volts={negativeV === 0 ? '0 V (ground)' : formatQuantity(negativeV, 'V')} below />
         <PairDrawing design={design} />
