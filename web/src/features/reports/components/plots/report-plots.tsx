@@ -30,7 +30,10 @@ function Figure({ title, summary, children, legend }: { title: string; summary: 
         <span className="block text-sm font-medium">{title}</span>
         <span className="block text-xs text-ink-soft dark:text-night-ink-soft">{summary}</span>
       </figcaption>
-      {children}
+      {/* Never narrower than 440 px, so its labels stay readable: a phone scrolls the plot sideways. */}
+      <div className="relative overflow-x-auto">
+        <div className="min-w-[440px]">{children}</div>
+      </div>
       {legend}
     </figure>
   );

@@ -50,7 +50,7 @@ export function SvgFrame({
       {xTicks.map((t) => (
         <g key={`x${t}`}>
           <line x1={sx(t)} x2={sx(t)} y1={y0} y2={y1} stroke="currentColor" strokeOpacity="0.12" />
-          <text x={sx(t)} y={y0 + 15} textAnchor="middle" fill="currentColor">
+          <text x={sx(t)} y={y0 + 17} textAnchor="middle" fill="currentColor">
             {xFormat(t)}
           </text>
         </g>
