@@ -53,11 +53,11 @@ describe('the review report, printed', () => {
     await signInAs(page, 'reviewer');
     await openFirstProposal(page, PROJECT);
     proposalId = Number(/\/proposals\/(\d+)$/.exec(page.url())?.[1]);
-    await visible(page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
+    await visible(page.getByRole('heading', { level: 1, name: `Proposal #${proposalId}` }));
 
     await page.getByRole('link', { name: 'Review report' }).click();
     await page.waitForURL(new RegExp(`/proposals/${proposalId}/report$`));
-    await visible(page.getByRole('heading', { level: 1, name: new RegExp(`Ranking #${proposalId}`) }));
+    await visible(page.getByRole('heading', { level: 1, name: new RegExp(`Proposal #${proposalId}`) }));
     await quiet();
   });
 

@@ -43,6 +43,6 @@ export async function openFirstProposal(page: Page, project: string): Promise<vo
   await page.getByRole('link', { name: new RegExp(project) }).click();
   await visible(page.getByRole('heading', { level: 1, name: project }));
   const proposals = await visible(page.getByRole('table', { name: 'Proposals of this project' }));
-  await proposals.getByRole('link', { name: /^Ranking #\d+$/ }).first().click();
+  await proposals.getByRole('link', { name: /^Proposal #\d+$/ }).first().click();
   await page.waitForURL(/\/proposals\/\d+$/);
 }

@@ -139,7 +139,7 @@ describe('review report page', () => {
     renderReport(approvedWithCautions(), ROUTE_NOT_FOUND);
 
     const title = await screen.findByRole('heading', { level: 1 });
-    expect(title.textContent).toContain('Ranking #2');
+    expect(title.textContent).toContain('Proposal #2');
     const headings = screen.getAllByRole('heading', { level: 2 }).map((h) => h.textContent ?? '');
     expect(headings.map((h) => h.replace(/^\d+\s*/, ''))).toEqual(SECTION_HEADINGS);
 
@@ -202,7 +202,7 @@ describe('review report page', () => {
     expect(sources.textContent).toContain('Sedra, Smith, Microelectronic Circuits');
     expect(sources.textContent).toContain('IEC 60063:2015');
 
-    const footer = screen.getByText(/Longtail review report of ranking #2/).closest('footer')!;
+    const footer = screen.getByText(/Longtail review report of proposal #2/).closest('footer')!;
     expect(footer.textContent).toMatch(/confirm them by SPICE simulation and bench measurement/);
   });
 

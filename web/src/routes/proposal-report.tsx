@@ -77,7 +77,7 @@ export function Component() {
           <>
             <Button onClick={() => window.print()}>Print or save as PDF</Button>
             <Link to={paths.proposal.href(proposal.id)} className={LINK_BUTTON}>
-              Back to the ranking
+              Back to the proposal
             </Link>
           </>
         }
@@ -119,7 +119,7 @@ export function Component() {
           {ESTIMATE_NOTICE}
         </p>
         <p className="mt-1 text-ink-soft dark:text-night-ink-soft">
-          Longtail review report of ranking #{proposal.id}, {proposal.specVersion.title} version {proposal.specVersion.version}.
+          Longtail review report of proposal #{proposal.id}, {proposal.specVersion.title} version {proposal.specVersion.version}.
         </p>
       </footer>
     </article>

@@ -39,7 +39,7 @@ export function Component() {
             {proposal.specVersion.title} · version {proposal.specVersion.version}
           </Link>
         }
-        title={`Ranking #${proposal.id}`}
+        title={`Proposal #${proposal.id}`}
         actions={
           <>
             <StateBadge state={proposal.status} />

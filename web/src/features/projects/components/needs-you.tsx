@@ -9,7 +9,7 @@ import type { ProposalFilter } from '../utils/proposal-filter';
 /** The states each role acts on, and how to say a count of them. */
 const WAITING: Partial<Record<Role, { status: ProposalState; say: (n: number) => string }[]>> = {
   designer: [
-    { status: 'ranked', say: (n) => `${n} ${n === 1 ? 'ranking waits' : 'rankings wait'} for your decision` },
+    { status: 'ranked', say: (n) => `${n} ${n === 1 ? 'proposal waits' : 'proposals wait'} for your decision` },
     { status: 'returned', say: (n) => `${n} sent back for rework by a reviewer, to decide again` },
   ],
   reviewer: [{ status: 'decided', say: (n) => `${n} ${n === 1 ? 'decision waits' : 'decisions wait'} for your review` }],

@@ -25,7 +25,7 @@ export function ReportTitle({ proposal, projectName, generatedAt, notice, online
         <div className="min-w-0">
           <p className="text-xs font-medium tracking-wide text-fern uppercase dark:text-fern-bright">Longtail · review report</p>
           <h1 id="report-heading" className="mt-1 text-2xl font-medium tracking-tight">
-            Ranking #{proposal.id}: {proposal.specVersion.title}
+            Proposal #{proposal.id}: {proposal.specVersion.title}
           </h1>
         </div>
         {actions && <div className="flex flex-wrap items-center gap-2 print:hidden">{actions}</div>}
@@ -36,7 +36,7 @@ export function ReportTitle({ proposal, projectName, generatedAt, notice, online
         <Item term="Proposal">
           #{proposal.id}{' '}
           <a href={onlineHref} data-print-url className="text-fern underline dark:text-fern-bright">
-            ranking page
+            proposal page
           </a>
         </Item>
         <Item term="Spec">
