@@ -9,6 +9,7 @@ export function ReportAudit({ proposal, events, error, nameOf }: { proposal: Pro
   if (!events) return <p className="text-sm">Reading the audit trail…</p>;
   if (events.length === 0) return <p className="text-sm">Nothing recorded yet.</p>;
   return (
+    <div className="relative overflow-x-auto">
     <table className="w-full text-sm">
       <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">Events, oldest first; times in your time zone, {timeZoneWords()}, to the second.</caption>
       <thead className="text-xs text-ink-soft dark:text-night-ink-soft">
@@ -24,7 +25,7 @@ export function ReportAudit({ proposal, events, error, nameOf }: { proposal: Pro
           const words = describeEvent(event, proposal);
           return (
             <tr key={event.id} className="border-b border-rule/60 align-top dark:border-night-rule/60">
-              <td className="py-1.5 pr-3 whitespace-nowrap tabular-nums">
+              <td className="py-1.5 pr-3 tabular-nums sm:whitespace-nowrap">
                 <time dateTime={event.at}>{formatDateTime(event.at, { seconds: true })}</time>
               </td>
               <td className="py-1.5 pr-3">{nameOf(event.actorId)}</td>
@@ -53,5 +54,6 @@ export function ReportAudit({ proposal, events, error, nameOf }: { proposal: Pro
         })}
       </tbody>
     </table>
+    </div>
   );
 }
