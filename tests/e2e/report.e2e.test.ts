@@ -78,7 +78,13 @@ describe('the review report, printed', () => {
     const design = page.getByRole('region', { name: /Chosen design/ });
     await visible(design.getByText(/used own values/));
     await visible(design.getByText(/returned this decision to the designer/));
-    expect(await design.getByRole('img').count()).toBe(1);
+    expect(await design.getByRole('img', { name: /^Schematic, degenerated mirror tail/ }).count()).toBe(1);
+    // The design's Monte Carlo and the ranking's rejection against frequency, drawn as SVG (they print).
+    await visible(design.getByRole('img', { name: /Monte Carlo samples/ }));
+    const rejection = page.getByRole('region', { name: /Ranked options/ }).getByRole('img', { name: /Rejection against frequency/ });
+    await visible(rejection);
+    expect(await rejection.evaluate((el) => el.tagName.toLowerCase())).toBe('svg');
+    expect(await page.locator('.report-page canvas').count()).toBe(0);
 
     const checks = page.getByRole('region', { name: /^\d+\s*Checks$/ });
     await visible(checks.getByRole('heading', { level: 3, name: /Every check of Degenerated mirror, the decided design/ }));
@@ -106,6 +112,8 @@ describe('the review report, printed', () => {
     // Printed: no app frame and no buttons
     expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(false);
     expect(await page.getByRole('button', { name: 'Print or save as PDF' }).isVisible()).toBe(false);
+    // Printed, the plots are still there.
+    await visible(page.getByRole('img', { name: /Rejection against frequency/ }));
     await page.screenshot({ path: join(shotDir, 'report-print.png'), fullPage: true, animations: 'disabled' });
 
     await page.pdf({ path: pdfPath, format: 'A4', preferCSSPageSize: true });

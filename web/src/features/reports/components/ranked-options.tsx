@@ -41,7 +41,7 @@ export function RankedOptions({ proposal, decided }: { proposal: Proposal; decid
   return (
     <>
       <p className="mb-2 text-sm">{result.summary}</p>
-      <div className="relative overflow-x-auto">
+      <div className="relative overflow-x-auto" tabIndex={0} role="group" aria-label="Ranked options table (scrolls sideways on a narrow screen)">
         <table className="report-ranking w-full text-xs">
           <caption className="sr-only">Tail options in the engine&rsquo;s ranking order</caption>
           <thead className="text-ink-soft dark:text-night-ink-soft">

@@ -9,7 +9,7 @@ export function ReportAudit({ proposal, events, error, nameOf }: { proposal: Pro
   if (!events) return <p className="text-sm">Reading the audit trail…</p>;
   if (events.length === 0) return <p className="text-sm">Nothing recorded yet.</p>;
   return (
-    <div className="relative overflow-x-auto">
+    <div className="relative overflow-x-auto" tabIndex={0} role="group" aria-label="Audit trail table (scrolls sideways on a narrow screen)">
       <table className="w-full text-sm">
         <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">Events, oldest first; times in your time zone, {timeZoneWords()}, to the second.</caption>
         <thead className="text-xs text-ink-soft dark:text-night-ink-soft">

@@ -30,9 +30,9 @@ function Figure({ title, summary, children, legend }: { title: string; summary: 
         <span className="block text-sm font-medium">{title}</span>
         <span className="block text-xs text-ink-soft dark:text-night-ink-soft">{summary}</span>
       </figcaption>
-      {/* Never narrower than 440 px, so its labels stay readable: a phone scrolls the plot sideways. */}
-      <div className="relative overflow-x-auto">
-        <div className="min-w-[440px]">{children}</div>
+      {/* On a phone never narrower than 440 px, so its labels stay readable: the plot scrolls sideways (by keyboard too). */}
+      <div className="relative max-sm:overflow-x-auto" tabIndex={0} aria-label={`${title}, scrolls sideways on a narrow screen`} role="group">
+        <div className="max-sm:min-w-[440px]">{children}</div>
       </div>
       {legend}
     </figure>
