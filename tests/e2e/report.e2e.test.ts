@@ -3,7 +3,7 @@
  * dist/web by the e2e globalSetup, served in-process on a fresh SQLite file with the demo
  * organisation): the demo reviewer opens the biosignal project's proposal (an override the
  * reviewer returned; the spec marks the input patient-connected), follows "Review report" from
- * the ranking page, and finds every section with the caution; the page passes axe-core; it is
+ * the proposal page, and finds every section with the caution; the page passes axe-core; it is
  * screenshotted on screen and with print media, and printed to PDF.
  *
  * Output (ignored by git): test-results/screenshots/report/report-screen.png and
