@@ -77,7 +77,7 @@ describe('the review report, printed', () => {
     // The override and the reviewer's return, with the drawn stage
     const design = page.getByRole('region', { name: /Chosen design/ });
     await visible(design.getByText(/used own values/));
-    await visible(design.getByText(/returned this decision to the designer/));
+    await visible(design.getByText(/sent this decision back for rework/));
     expect(await design.getByRole('img', { name: /^Schematic, degenerated mirror tail/ }).count()).toBe(1);
     // The design's Monte Carlo and the ranking's rejection against frequency, drawn as SVG (they print).
     await visible(design.getByRole('img', { name: /Monte Carlo samples/ }));
