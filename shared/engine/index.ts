@@ -10,3 +10,4 @@ export { ENGINE_VERSION, ESTIMATE_NOTICE } from './version';
 export { thermalVoltageV } from './constants';
 export { ENGINE_SOURCES, engineSource, type EngineSource } from './sources';
 export * from './types';
+export { outputRejection, REJECTION_KIND_WORDS, type OutputRejection, type RejectionKind } from './output-rejection';

@@ -7,6 +7,7 @@
 import { nominalCondition } from './conditions';
 import { evaluateOption, type ConditionFigures, type OptionCurves } from './option-evaluation';
 import { monteCarloDraws, type MonteCarloDraws, type MonteCarloResult } from './mismatch';
+import { outputRejection } from './output-rejection';
 import { rankOptions, recommendedTopology } from './ranking';
 import { sizeTopology } from './sizing';
 import type { AnalyzeResult, Check, Design, OptionFacts, RuleSet, SelectionPolicy, Spec, TopologyId } from './types';
@@ -82,7 +83,7 @@ async function checkedOption(
       design,
       predicted: evaluation.predicted,
       checks,
-      rejectionDb: facts.isDifferentialOutput ? facts.cmrrDifferentialWorstCaseDb : facts.cmrrAtFrequencyDb,
+      rejectionDb: outputRejection(facts).valueDb,
       figures: facts,
       corners: evaluation.corners,
       curves: evaluation.curves,

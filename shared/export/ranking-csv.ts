@@ -1,30 +1,48 @@
 /**
  * The ranking table as CSV (RFC 4180: comma-separated, CRLF line ends, fields with commas or
  * quotes quoted; text never spans lines), SI units named in each header, for a reviewer's spreadsheet.
+ * Figures carry the precision the ranking page shows: decibels and per cent to one decimal,
+ * everything else to three significant digits (what formatQuantity prints); the engine's full
+ * precision is in export.json.
  */
 import type { RecommendResult } from '../engine/recommend';
 import { spreadsheetCell } from '../text/plain-text';
 
 type Option = RecommendResult['options'][number];
 
+/** A figure to `decimals` places, as the page shows dB and % ("101.8"); missing stays missing. */
+export function toDecimals(value: number | null | undefined, decimals = 1): number | null | undefined {
+  if (value === null || value === undefined || !Number.isFinite(value)) return value;
+  return Number(value.toFixed(decimals)) || 0;
+}
+
+/** A figure to `digits` significant digits, as the page shows quantities ("2.32 kΩ" is 2320). */
+export function toSignificant(value: number | null | undefined, digits = 3): number | null | undefined {
+  if (value === null || value === undefined || !Number.isFinite(value)) return value;
+  return Number(value.toPrecision(digits)) || 0;
+}
+
+const db = (value: number | null | undefined) => toDecimals(value, 1);
+const sig = (value: number | null | undefined) => toSignificant(value, 3);
+
 const COLUMNS: [header: string, value: (o: Option) => string | number | boolean | null | undefined][] = [
   ['rank', (o) => o.rank],
   ['topology', (o) => o.topology],
   ['passes', (o) => o.passes],
   ['recommended', () => null],
-  ['tail_impedance_at_spec_frequency_ohm', (o) => o.figures?.tailImpedanceAtFrequencyOhm],
-  ['tail_output_resistance_ohm', (o) => o.predicted?.tailOutputResistanceOhm],
-  ['cmrr_single_ended_dc_db', (o) => o.predicted?.cmrrDb.singleEnded],
-  ['cmrr_single_ended_at_spec_frequency_worst_corner_db', (o) => o.figures?.cmrrAtFrequencyDb],
-  ['cmrr_differential_worst_case_db', (o) => o.figures?.cmrrDifferentialWorstCaseDb],
-  ['monte_carlo_yield_percent', (o) => o.figures?.monteCarloYieldPercent],
-  ['gain_v_per_v', (o) => o.figures?.gainPredicted],
+  ['tail_impedance_at_spec_frequency_ohm', (o) => sig(o.figures?.tailImpedanceAtFrequencyOhm)],
+  ['tail_output_resistance_ohm', (o) => sig(o.predicted?.tailOutputResistanceOhm)],
+  ['cmrr_single_ended_dc_db', (o) => db(o.predicted?.cmrrDb.singleEnded)],
+  ['cmrr_single_ended_at_spec_frequency_worst_corner_db', (o) => db(o.figures?.cmrrAtFrequencyDb)],
+  ['cmrr_differential_worst_case_db', (o) => db(o.figures?.cmrrDifferentialWorstCaseDb)],
+  ['monte_carlo_yield_percent', (o) => db(o.figures?.monteCarloYieldPercent)],
+  ['gain_v_per_v', (o) => sig(o.figures?.gainPredicted)],
   ['gain_target_v_per_v', (o) => o.figures?.gainTarget],
-  ['tail_current_a', (o) => o.predicted?.tailCurrentA],
-  ['power_worst_w', (o) => o.figures?.powerWorstW],
-  ['icm_low_margin_v', (o) => o.figures?.icmLowMarginV],
-  ['icm_high_margin_v', (o) => o.figures?.icmHighMarginV],
-  ['swing_margin_v', (o) => o.figures?.swingMarginV],
+  ['tail_current_a', (o) => sig(o.predicted?.tailCurrentA)],
+  ['power_worst_w', (o) => sig(o.figures?.powerWorstW)],
+  ['icm_low_margin_v', (o) => sig(o.figures?.icmLowMarginV)],
+  ['icm_high_margin_v', (o) => sig(o.figures?.icmHighMarginV)],
+  ['swing_margin_v', (o) => sig(o.figures?.swingMarginV)],
   ['collector_resistance_ohm', (o) => o.design?.collectorResistanceOhm],
   ['pair_emitter_resistance_ohm', (o) => o.design?.pairEmitterResistanceOhm ?? 0],
   ['tail_values', (o) => (o.design ? tailValues(o.design.tail as unknown as Record<string, unknown>) : null)],

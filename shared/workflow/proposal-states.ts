@@ -15,6 +15,14 @@ const TRANSITIONS: Record<ProposalState, Partial<Record<ProposalEvent, ProposalS
   approved: {},
 };
 
+/** Each state's name as the app, the e-mails and the exported files write it (one vocabulary). */
+export const STATE_WORDS: Record<ProposalState, string> = {
+  ranked: 'Awaiting decision',
+  decided: 'Awaiting review',
+  returned: 'Returned to designer',
+  approved: 'Approved',
+};
+
 /** Plain words for what each state waits for. */
 export const STATE_DESCRIPTIONS: Record<ProposalState, string> = {
   ranked: 'ranked by the engine, waiting for a designer’s decision',

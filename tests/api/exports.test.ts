@@ -51,7 +51,9 @@ describe('GET /api/proposals/:id/ranking.csv', () => {
     const column = (name: string) => header.indexOf(name);
     expect(rows.map((r) => r[column('topology')])).toEqual(proposal.result.options.map((o: { topology: string }) => o.topology));
     const first = proposal.result.options[0];
-    expect(Number(rows[0][column('tail_current_a')])).toBe(first.predicted.tailCurrentA);
+    // At the page's precision: three significant digits for a current, one decimal for dB.
+    expect(Number(rows[0][column('tail_current_a')])).toBe(Number(first.predicted.tailCurrentA.toPrecision(3)));
+    for (const row of rows) for (const name of header.filter((h) => h.endsWith('_db'))) expect(row[column(name)]).toMatch(/^(|-?\d+(\.\d)?)$/);
     expect(rows.filter((r) => r[column('recommended')] === 'true').map((r) => r[column('topology')])).toEqual(proposal.result.recommended ? [proposal.result.recommended] : []);
   });
 

@@ -335,7 +335,7 @@ describe('GET /api/projects/:id/proposals.csv', () => {
 
     const parsed = Papa.parse<Record<string, string>>(response.text, { header: true, skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
-    expect(parsed.meta.fields).toEqual(['spec_title', 'spec_version', 'proposal_id', 'state', 'recommended_topology', 'figures_of_topology', 'passes', 'rejection_db', 'tail_current_a', 'gain_v_per_v', 'power_worst_w']);
+    expect(parsed.meta.fields).toEqual(['spec_title', 'spec_version', 'proposal_id', 'state', 'recommended_topology', 'figures_of_topology', 'passes', 'rejection_db', 'rejection_kind', 'tail_current_a', 'gain_v_per_v', 'power_worst_w']);
     expect(parsed.data.map((r) => r.spec_title)).toEqual(VALID_TITLES);
     parsed.data.forEach((row, i) => {
       const proposal = proposals[i];
@@ -344,14 +344,16 @@ describe('GET /api/projects/:id/proposals.csv', () => {
         spec_title: proposal.specVersion.title,
         spec_version: '1',
         proposal_id: String(proposal.id),
-        state: 'ranked',
+        // The state as the app names it; figures at the page's precision (dB to one decimal, the rest to three significant digits).
+        state: 'Awaiting decision',
         recommended_topology: proposal.result.recommended ?? '',
         figures_of_topology: option.topology,
         passes: String(option.passes),
-        rejection_db: String(option.rejectionDb),
-        tail_current_a: String(option.predicted!.tailCurrentA),
-        gain_v_per_v: String(option.figures!.gainPredicted),
-        power_worst_w: String(option.figures!.powerWorstW),
+        rejection_db: String(Number(option.rejectionDb!.toFixed(1))),
+        rejection_kind: proposal.specVersion.payload.gain.output === 'differential' ? 'differential' : 'single-ended',
+        tail_current_a: String(Number(option.predicted!.tailCurrentA.toPrecision(3))),
+        gain_v_per_v: String(Number(option.figures!.gainPredicted.toPrecision(3))),
+        power_worst_w: String(Number(option.figures!.powerWorstW.toPrecision(3))),
       });
     });
   });

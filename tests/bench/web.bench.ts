@@ -3,7 +3,7 @@
  * (a) Production build (`npx vite build`, timed): the JavaScript the first route needs, gzipped —
  *     index.html's entry chunk and its modulepreload links (its static imports), parsed from
  *     dist/web/index.html — against the issue's target of ≤ 200 kB; then the same plus the lazy
- *     route module of the sign-in page and of the workbench (read from the entry's
+ *     route module of the sign-in page and of the home page (read from the entry's
  *     `__vite__mapDeps` table); then every lazy chunk with its gzip size, and whether the chart
  *     library (uPlot) is among them and out of the first route.
  * (b) Headless Chromium (Debian's, via playwright-core) against the real app on 127.0.0.1 (in
@@ -87,7 +87,7 @@ const withRoute = (prefix: string) => {
   return { chunk, files, gzip: files.reduce((sum, name) => sum + gzipBytes(join(webDist, 'assets', name)), 0) };
 };
 const signInRoute = withRoute('sign-in');
-const workbenchRoute = withRoute('workbench');
+const homeRoute = withRoute('home');
 
 const allJs = readdirSync(join(webDist, 'assets')).filter((f) => f.endsWith('.js'));
 const lazy = allJs
@@ -99,7 +99,7 @@ const lazy = allJs
   .sort((a, b) => b.gzip - a.gzip);
 const chartChunks = lazy.filter((c) => c.chartLibrary).map((c) => c.name);
 const chartInInitial = initial.some((f) => /\bu-over\b|\bu-legend\b/.test(readFileSync(join(webDist, 'assets', f), 'utf8')));
-const chartInFirstScreens = [signInRoute, workbenchRoute].some((r) => r.files.some((f) => chartChunks.includes(f)));
+const chartInFirstScreens = [signInRoute, homeRoute].some((r) => r.files.some((f) => chartChunks.includes(f)));
 
 // ---------------------------------------------------------------------------------------------
 // (b) Navigation to rendered tables, 10,000 stored proposals
@@ -188,7 +188,7 @@ try {
   for (const name of initial) row(`  ${name}`, kB(gzipBytes(join(webDist, 'assets', name))), `raw ${kB(statSync(join(webDist, 'assets', name)).size)}`);
   row('  raw (uncompressed) total', kB(initialRaw));
   row(`  + sign-in route (${signInRoute.chunk ?? 'not found'} and its imports)`, kB(signInRoute.gzip), `${signInRoute.files.length} files`);
-  row(`  + workbench route (${workbenchRoute.chunk ?? 'not found'} and its imports)`, kB(workbenchRoute.gzip), `${workbenchRoute.files.length} files`);
+  row(`  + home route (${homeRoute.chunk ?? 'not found'} and its imports)`, kB(homeRoute.gzip), `${homeRoute.files.length} files`);
   for (const css of stylesheets) row(`  stylesheet ${asset(css)} (not JS)`, kB(gzipBytes(fileOf(css))), '');
   console.log(`\nLazy chunks (${lazy.length}), gzip, largest first:`);
   for (const chunk of lazy) row(`  ${chunk.name}${chunk.chartLibrary ? '   ← chart library (uPlot)' : ''}`, kB(chunk.gzip), `raw ${kB(chunk.raw)}`);

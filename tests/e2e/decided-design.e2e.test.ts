@@ -70,7 +70,7 @@ async function textFromPage(page: Page, url: string): Promise<string> {
 
 async function openProposal(actor: Actor): Promise<void> {
   await actor.page.goto(`/proposals/${proposalId}`);
-  await visible(actor.page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
+  await visible(actor.page.getByRole('heading', { level: 1, name: `Proposal #${proposalId}` }));
   await visible(actor.page.getByRole('table', { name: /Tail options, ranked/ }));
 }
 
@@ -223,7 +223,7 @@ describe('Longtail in the browser: the decided design is what is verified and si
     const { page } = actor;
     await page.goto(`/projects/${projectId}`);
     const table = await visible(page.getByRole('table', { name: 'Proposals of this project' }));
-    const row = table.getByRole('row').filter({ has: page.getByRole('link', { name: `Ranking #${proposalId}` }) });
+    const row = table.getByRole('row').filter({ has: page.getByRole('link', { name: `Proposal #${proposalId}` }) });
     const text = await row.innerText();
     expect(text).toContain('Degenerated mirror, own values');
     expect(text).toContain('(signed off)');
@@ -235,7 +235,7 @@ describe('Longtail in the browser: the decided design is what is verified and si
     const actor = actors.requirements;
     const { page } = actor;
     await page.goto(`/proposals/${proposalId}/report`);
-    await visible(page.getByRole('heading', { level: 1, name: new RegExp(`Ranking #${proposalId}`) }));
+    await visible(page.getByRole('heading', { level: 1, name: new RegExp(`Proposal #${proposalId}`) }));
     await visible(page.getByTestId('report-design').filter({ hasText: 'Signed-off design: Degenerated mirror, own values' }));
     const verification = page.locator('#report-verification');
     await visible(verification.locator('[data-design-check="current"]'));

@@ -3,7 +3,7 @@
  * dist/web by the e2e globalSetup, served in-process on a fresh SQLite file with the demo
  * organisation): the demo reviewer opens the biosignal project's proposal (an override the
  * reviewer returned; the spec marks the input patient-connected), follows "Review report" from
- * the ranking page, and finds every section with the caution; the page passes axe-core; it is
+ * the proposal page, and finds every section with the caution; the page passes axe-core; it is
  * screenshotted on screen and with print media, and printed to PDF.
  *
  * Output (ignored by git): test-results/screenshots/report/report-screen.png and
@@ -53,11 +53,11 @@ describe('the review report, printed', () => {
     await signInAs(page, 'reviewer');
     await openFirstProposal(page, PROJECT);
     proposalId = Number(/\/proposals\/(\d+)$/.exec(page.url())?.[1]);
-    await visible(page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
+    await visible(page.getByRole('heading', { level: 1, name: `Proposal #${proposalId}` }));
 
     await page.getByRole('link', { name: 'Review report' }).click();
     await page.waitForURL(new RegExp(`/proposals/${proposalId}/report$`));
-    await visible(page.getByRole('heading', { level: 1, name: new RegExp(`Ranking #${proposalId}`) }));
+    await visible(page.getByRole('heading', { level: 1, name: new RegExp(`Proposal #${proposalId}`) }));
     await quiet();
   });
 
@@ -77,8 +77,14 @@ describe('the review report, printed', () => {
     // The override and the reviewer's return, with the drawn stage
     const design = page.getByRole('region', { name: /Chosen design/ });
     await visible(design.getByText(/used own values/));
-    await visible(design.getByText(/returned this decision to the designer/));
-    expect(await design.getByRole('img').count()).toBe(1);
+    await visible(design.getByText(/sent this decision back for rework/));
+    expect(await design.getByRole('img', { name: /^Schematic, degenerated mirror tail/ }).count()).toBe(1);
+    // The design's Monte Carlo and the ranking's rejection against frequency, drawn as SVG (they print).
+    await visible(design.getByRole('img', { name: /Monte Carlo samples/ }));
+    const rejection = page.getByRole('region', { name: /Ranked options/ }).getByRole('img', { name: /Rejection against frequency/ });
+    await visible(rejection);
+    expect(await rejection.evaluate((el) => el.tagName.toLowerCase())).toBe('svg');
+    expect(await page.locator('.report-page canvas').count()).toBe(0);
 
     const checks = page.getByRole('region', { name: /^\d+\s*Checks$/ });
     await visible(checks.getByRole('heading', { level: 3, name: /Every check of Degenerated mirror, the decided design/ }));
@@ -106,6 +112,8 @@ describe('the review report, printed', () => {
     // Printed: no app frame and no buttons
     expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(false);
     expect(await page.getByRole('button', { name: 'Print or save as PDF' }).isVisible()).toBe(false);
+    // Printed, the plots are still there.
+    await visible(page.getByRole('img', { name: /Rejection against frequency/ }));
     await page.screenshot({ path: join(shotDir, 'report-print.png'), fullPage: true, animations: 'disabled' });
 
     await page.pdf({ path: pdfPath, format: 'A4', preferCSSPageSize: true });

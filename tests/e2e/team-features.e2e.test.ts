@@ -207,7 +207,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     await shots.take(page, 'import-ranking-progress');
     await visible(rank.getByText(`Ranked ${batchTitles.length} of ${batchTitles.length}.`), 180_000);
     expect(await progress.getAttribute('value')).toBe(String(batchTitles.length));
-    const results = rank.getByRole('table', { name: 'Rankings of the imported specs' });
+    const results = rank.getByRole('table', { name: 'Proposals of the imported specs' });
     expect(await results.locator('tbody tr').count()).toBe(batchTitles.length);
     expect(await results.getByRole('alert').count()).toBe(0);
     await record(actor, shots, 'import-ranked');

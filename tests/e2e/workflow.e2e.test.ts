@@ -43,7 +43,7 @@ let recommended = '';
 
 async function openProposal(actor: Actor): Promise<void> {
   await actor.page.goto(`/proposals/${proposalId}`);
-  await visible(actor.page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
+  await visible(actor.page.getByRole('heading', { level: 1, name: `Proposal #${proposalId}` }));
   await visible(actor.page.getByRole('table', { name: /Tail options, ranked/ }));
 }
 
@@ -73,7 +73,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await record(actors.admin, shots, 'sign-in');
   });
 
-  it('signs in each demo role through the form and shows its workbench', async () => {
+  it('signs in each demo role through the form and shows its Projects page', async () => {
     for (const role of DEMO_ROLES) {
       const actor = actors[role];
       await signInAs(actor.page, role);
@@ -82,7 +82,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
       // Only an administrator is offered People in the navigation
       const nav = actor.page.getByRole('navigation', { name: 'Main' });
       expect(await nav.getByRole('link', { name: 'People' }).count()).toBe(role === 'admin' ? 1 : 0);
-      await record(actor, shots, `workbench-${role}`);
+      await record(actor, shots, `projects-${role}`);
     }
   });
 
@@ -146,13 +146,13 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await record(actor, shots, 'spec-saved');
   });
 
-  it('the systems engineer asks for a ranking and lands on the ranking page', async () => {
+  it('the systems engineer asks for a proposal and lands on its page', async () => {
     const actor = actors.requirements;
     const { page } = actor;
     await page.getByRole('button', { name: 'Rank tail options' }).click();
     await page.waitForURL(/\/proposals\/\d+$/, { timeout: 60_000 });
     proposalId = Number(/\/proposals\/(\d+)$/.exec(page.url())?.[1]);
-    await visible(page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
+    await visible(page.getByRole('heading', { level: 1, name: `Proposal #${proposalId}` }));
     const options = await visible(page.getByRole('table', { name: /Tail options, ranked/ }));
     // Six topologies were asked for: one row each
     expect(await options.locator('tbody').getByRole('row').count()).toBe(6);
@@ -191,18 +191,18 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     expect(await apiFromPage(actor.page, 'GET', '/api/users')).toEqual({ status: 403, code: 'forbidden' });
   });
 
-  it('the designer finds the new ranking waiting in the project', async () => {
+  it('the designer finds the new proposal waiting in the project', async () => {
     const actor = actors.designer;
     const { page } = actor;
     await page.goto(`/projects/${projectId}`);
     await visible(page.getByRole('heading', { level: 1, name: PROJECT }));
-    await visible(page.getByRole('region', { name: 'What needs you' }).getByRole('button', { name: /1 ranking waits for your decision/ }));
+    await visible(page.getByRole('region', { name: 'What needs you' }).getByRole('button', { name: /1 proposal waits for your decision/ }));
     const table = await visible(page.getByRole('table', { name: 'Proposals of this project' }));
-    const row = table.getByRole('row').filter({ has: page.getByRole('link', { name: `Ranking #${proposalId}` }) });
+    const row = table.getByRole('row').filter({ has: page.getByRole('link', { name: `Proposal #${proposalId}` }) });
     await visible(row.getByText('Awaiting decision'));
     await record(actor, shots, 'project-designer');
-    await row.getByRole('link', { name: `Ranking #${proposalId}` }).click();
-    await visible(page.getByRole('heading', { level: 1, name: `Ranking #${proposalId}` }));
+    await row.getByRole('link', { name: `Proposal #${proposalId}` }).click();
+    await visible(page.getByRole('heading', { level: 1, name: `Proposal #${proposalId}` }));
   });
 
   it('the designer overrides with own values in engineering notation and a reason', async () => {
@@ -375,7 +375,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     const texts = await events.allInnerTexts();
     expect(texts).toHaveLength(6);
     const expected: [string, RegExp][] = [
-      [PEOPLE.requirements, new RegExp(`asked for a ranking of spec version 1: ranked by the engine; recommended: ${recommended}`, 'i')],
+      [PEOPLE.requirements, new RegExp(`asked for a proposal of spec version 1: ranked by the engine; recommended: ${recommended}`, 'i')],
       [PEOPLE.designer, /decided: own values \(Degenerated mirror\)[\s\S]*Reason: .?Stock on hand/],
       [PEOPLE.reviewer, /sent the decided design \(Degenerated mirror, own values\) back for rework[\s\S]*Comment: .?The 1 kΩ emitter resistors/],
       [PEOPLE.designer, new RegExp(`decided: accepted the recommendation \\(${recommended}\\)`, 'i')],

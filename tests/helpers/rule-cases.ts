@@ -14,14 +14,17 @@ export interface RuleCase {
   margin: number | null;
   /** Texts the reason must contain (numbers as formatted). */
   texts: string[];
+  /** When given: whether the check applies to the option (false: shown as not applicable). */
+  applicable?: boolean;
 }
 
 /** Registers one test per row for the rule `ruleName`. */
 export function testRuleCases(ruleName: string, expected: { severity: Severity; marginUnit?: string }, rows: RuleCase[]): void {
   const rules = loadRuleFiles().then((all) => all.filter((rule) => rule.name === ruleName));
-  test.each(rows)(`${ruleName}: $title`, async ({ overrides, passed, margin, texts }) => {
+  test.each(rows)(`${ruleName}: $title`, async ({ overrides, passed, margin, texts, applicable }) => {
     const [result] = await runRules(await rules, makeOptionFacts(overrides));
     expect(result).toMatchObject({ rule: ruleName, passed, severity: expected.severity, margin });
+    if (applicable !== undefined) expect(result.applicable).toBe(applicable);
     expect(result.marginUnit).toBe(expected.marginUnit);
     for (const text of texts) expect(result.reason).toContain(text);
   });

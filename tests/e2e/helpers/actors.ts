@@ -38,11 +38,11 @@ export async function record(actor: Actor, shots: Screenshots, step: string): Pr
   await checkAccessibility(actor.page, `${step} (${actor.role})`);
 }
 
-/** From the signed-in workbench: the demo project by name, then its first proposal in the list. */
+/** From the signed-in Projects page: the demo project by name, then its first proposal in the list. */
 export async function openFirstProposal(page: Page, project: string): Promise<void> {
   await page.getByRole('link', { name: new RegExp(project) }).click();
   await visible(page.getByRole('heading', { level: 1, name: project }));
   const proposals = await visible(page.getByRole('table', { name: 'Proposals of this project' }));
-  await proposals.getByRole('link', { name: /^Ranking #\d+$/ }).first().click();
+  await proposals.getByRole('link', { name: /^Proposal #\d+$/ }).first().click();
   await page.waitForURL(/\/proposals\/\d+$/);
 }

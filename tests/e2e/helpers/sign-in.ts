@@ -7,11 +7,11 @@ export type DemoRole = (typeof DEMO_ROLES)[number];
 
 export const demoEmail = (role: DemoRole) => `${role}@demo.longtail.test`;
 
-/** Opens /sign-in (or stays on it), types the demo account's e-mail and password, and waits for the workbench. */
+/** Opens /sign-in (or stays on it), types the demo account's e-mail and password, and waits for the Projects page. */
 export async function signInAs(page: Page, role: DemoRole): Promise<void> {
   if (!page.url().includes('/sign-in')) await page.goto('/sign-in');
   await page.getByLabel('E-mail address').fill(demoEmail(role));
   await page.getByLabel('Password').fill(DEMO_PASSWORD);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('heading', { level: 1, name: 'Workbench' }).waitFor();
+  await page.getByRole('heading', { level: 1, name: 'Projects' }).waitFor();
 }

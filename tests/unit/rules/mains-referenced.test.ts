@@ -3,17 +3,19 @@ import { testRuleCases } from '../../helpers/rule-cases';
 // Advisory caution for mains-referenced inputs (isolation, creepage).
 testRuleCases('mains-referenced', { severity: 'advisory' }, [
   {
-    title: 'passes when not mains-referenced',
+    title: 'does not apply (n/a, never "holds") when not mains-referenced',
     overrides: {},
     passed: true,
     margin: null,
-    texts: ['not mark the input as mains-referenced'],
+    texts: ['Not applicable', 'not mark the input as mains-referenced'],
+    applicable: false,
   },
   {
     title: 'cautions when mains-referenced',
     overrides: { mainsReferenced: true },
     passed: false,
     margin: null,
+    applicable: true,
     texts: ['Caution', 'isolation, creepage', 'applicable standard, local codes and licensed practice'],
   },
 ]);

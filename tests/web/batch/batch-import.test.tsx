@@ -154,7 +154,7 @@ describe('the batch flow', () => {
     const link = await screen.findByRole('link', { name: 'Download the batch results (CSV)' });
     expect(link.getAttribute('href')).toBe('/api/projects/1/proposals.csv?ids=31,32');
     expect(screen.getByText(/^Ranked 2 of 2\.$/)).toBeTruthy();
-    expect(bodyRows(screen.getByRole('table', { name: 'Rankings of the imported specs' }))).toEqual([
+    expect(bodyRows(screen.getByRole('table', { name: 'Proposals of the imported specs' }))).toEqual([
       ['Tarn probe — channel A', '#31', 'Wilson mirror'],
       ['Tarn probe — reference', '#32', 'No option passes'],
     ]);

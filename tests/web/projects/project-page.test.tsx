@@ -143,7 +143,7 @@ describe('project page', () => {
 
   test('when the proposals are listed, then each row joins the spec title, version and topology in words', async () => {
     renderProjectPage('designer');
-    const row = (await screen.findByRole('link', { name: 'Ranking #134' })).closest('tr')!;
+    const row = (await screen.findByRole('link', { name: 'Proposal #134' })).closest('tr')!;
     expect(within(row).getByText('Strain bridge receiver')).toBeTruthy();
     expect(within(row).getByText('Degenerated mirror')).toBeTruthy();
     expect(await within(row).findByText('v1')).toBeTruthy();
@@ -170,7 +170,7 @@ describe('project page', () => {
   test('when a designer opens the project, then what waits for them is counted from one-row pages', async () => {
     renderProjectPage('designer');
     const hint = await screen.findByRole('region', { name: 'What needs you' });
-    expect(await within(hint).findByText(/134 rankings wait for your decision/)).toBeTruthy();
+    expect(await within(hint).findByText(/134 proposals wait for your decision/)).toBeTruthy();
     const counts = requests.filter((u) => u.searchParams.get('pageSize') === '1').map((u) => u.searchParams.get('status'));
     expect(counts.sort()).toEqual(['ranked', 'returned']);
   });

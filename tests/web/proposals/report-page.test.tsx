@@ -20,6 +20,9 @@ import { job } from './verification/verification-fixtures';
 // Route modules load lazily on first use: give the first render of a file time.
 configure({ asyncUtilTimeout: 5000 });
 
+// The reader of these reports sits in Berlin (UTC+1 in March, CET, by the IANA time zone database).
+process.env.TZ = 'Europe/Berlin';
+
 const SECTION_HEADINGS = ['Cautions', 'Requirement spec', 'Ranked options', 'Chosen design', 'Checks', 'SPICE verification', 'Bench measurements', 'Audit trail', 'Sources of the formulas'];
 
 const PATIENT_CAUTION = 'Caution: the input is patient-connected. Medical electrical equipment falls under IEC 60601-1, with its isolation and leakage-current limits.';
@@ -136,7 +139,7 @@ describe('review report page', () => {
     renderReport(approvedWithCautions(), ROUTE_NOT_FOUND);
 
     const title = await screen.findByRole('heading', { level: 1 });
-    expect(title.textContent).toContain('Ranking #2');
+    expect(title.textContent).toContain('Proposal #2');
     const headings = screen.getAllByRole('heading', { level: 2 }).map((h) => h.textContent ?? '');
     expect(headings.map((h) => h.replace(/^\d+\s*/, ''))).toEqual(SECTION_HEADINGS);
 
@@ -162,7 +165,8 @@ describe('review report page', () => {
     expect(within(spec).getByRole('rowheader', { name: 'Patient-connected input' }).closest('tr')!.textContent).toContain('Yes');
 
     const ranking = section('Ranked options');
-    expect(within(ranking).getAllByRole('row')).toHaveLength(RANKING.options.length + 1);
+    // A row of group headings, a row of column headings, then one row per option.
+    expect(within(ranking).getAllByRole('row')).toHaveLength(RANKING.options.length + 2);
     expect(within(ranking).getByRole('rowheader', { name: /Wilson mirror/ }).textContent).toContain('decided');
 
     const design = section('Chosen design');
@@ -173,7 +177,8 @@ describe('review report page', () => {
     expect(within(design).getByTestId('report-design').textContent).toMatch(/^Signed-off design: Wilson mirror/);
     expect(within(design).getByTestId('report-design').textContent).toContain(CHOOSE_REASON);
     expect(design.textContent).toContain(APPROVE_COMMENT);
-    expect(within(design).getByRole('img').getAttribute('aria-label')).toBeTruthy();
+    // The schematic first, then the Monte Carlo plot.
+    expect(within(design).getAllByRole('img')[0].getAttribute('aria-label')).toMatch(/Wilson/i);
 
     const checks = section('Checks');
     expect(within(checks).getByRole('heading', { level: 3, name: /Every check of Wilson mirror, the decided design/ })).toBeTruthy();
@@ -197,7 +202,7 @@ describe('review report page', () => {
     expect(sources.textContent).toContain('Sedra, Smith, Microelectronic Circuits');
     expect(sources.textContent).toContain('IEC 60063:2015');
 
-    const footer = screen.getByText(/Longtail review report of ranking #2/).closest('footer')!;
+    const footer = screen.getByText(/Longtail review report of proposal #2/).closest('footer')!;
     expect(footer.textContent).toMatch(/confirm them by SPICE simulation and bench measurement/);
   });
 
@@ -235,5 +240,70 @@ describe('review report page', () => {
     expect(cells(current)).toEqual(['1 mA', '990 µA', '+1.0 %', '±3 %', 'Agrees']);
     const cmrr = within(verification).getByRole('rowheader', { name: 'Single-ended CMRR' }).closest('tr')!;
     expect(cells(cmrr)).toEqual(['101.2 dB', '98.9 dB', '+2.30 dB', '±1.5 dB', 'Outside']);
+  });
+
+  test('the audit trail prints times in the reader’s time zone and names it', async () => {
+    renderReport(approvedWithCautions(), ROUTE_NOT_FOUND);
+
+    await screen.findByRole('heading', { level: 1 });
+    const audit = section('Audit trail');
+    expect(within(audit).getByRole('table').querySelector('caption')!.textContent).toContain('Europe/Berlin (CET)');
+    const rows = within(audit).getAllByRole('row').slice(1);
+    // 11:20:07 UTC is 12:20:07 in Berlin in March.
+    expect(rows[2].querySelector('time')!.textContent).toBe('2 Mar 2026, 12:20:07 CET');
+  });
+
+  test('the plots are static SVG: rejection against frequency for every solved option, and the design’s Monte Carlo beside a finished SPICE one', async () => {
+    const status = finishedVerification();
+    // A finished SPICE Monte Carlo of the decided Wilson mirror (hand-made counts on four shared bins).
+    const monteCarlo = job({
+      id: 6,
+      proposalId: 2,
+      kind: 'monte-carlo',
+      topology: 'wilson',
+      runs: 10,
+      finishedAt: '2026-03-02T09:50:00.000Z',
+      result: {
+        simulator: 'ngspice-45',
+        topology: 'wilson',
+        figure: 'cmrr-differential',
+        condition: 'ICM −1.5 V, 65 °C',
+        runs: 10,
+        seed: 1,
+        requiredDb: 78,
+        failedRuns: 0,
+        simulatedDb: [80, 85, 90, 95, 100, 100, 105, 110, 115, 118],
+        simulated: { yieldPercent: 100, percentilesDb: { p1: 80, p5: 80, p50: 100, p95: 118 } },
+        predictedDb: [81, 86, 91, 95, 99, 101, 104, 111, 114, 119],
+        predicted: { yieldPercent: 100, percentilesDb: { p1: 81, p5: 81, p50: 100, p95: 119 } },
+        histogram: { binEdgesDb: [80, 90, 100, 110, 120], simulatedCounts: [2, 2, 3, 3], predictedCounts: [2, 2, 3, 3] },
+        elapsedMs: 900,
+      },
+    });
+    renderReport(approvedWithCautions(), { body: { ...status, monteCarlo: [monteCarlo] } });
+
+    await screen.findByRole('heading', { level: 1 });
+    expect(document.querySelector('canvas')).toBeNull();
+
+    const ranking = section('Ranked options');
+    const rejection = within(ranking).getByRole('img', { name: /Rejection against frequency/ });
+    expect(rejection.tagName.toLowerCase()).toBe('svg');
+    const solved = RANKING.options.filter((o) => o.curves).map((o) => o.topology);
+    const drawn = [...rejection.querySelectorAll('path[data-series]')].map((p) => p.getAttribute('data-series'));
+    for (const topology of solved) expect(drawn).toContain(topology);
+    // The strain bridge's output is differential: the decided option's mismatch worst case is drawn too.
+    expect(drawn).toContain('mismatch');
+    for (const path of rejection.querySelectorAll('path[data-series]')) expect(path.getAttribute('d')).toMatch(/^M[\d.]+,[\d.]+L/);
+    // Axis labels in words and units.
+    expect(rejection.textContent).toContain('Frequency');
+    expect(rejection.textContent).toContain('Rejection, dB');
+
+    const design = section('Chosen design');
+    const histograms = within(design).getAllByRole('img', { name: /Monte Carlo/ });
+    expect(histograms.map((h) => h.tagName.toLowerCase())).toEqual(['svg', 'svg']);
+    // The engine's histogram has one bar per bin of its Monte Carlo result.
+    expect(histograms[0].querySelectorAll('g[data-series="engine"] rect')).toHaveLength(rankedOptionOf('wilson').monteCarlo!.histogram.counts.length);
+    expect(histograms[1].querySelectorAll('g[data-series="simulated"] rect')).toHaveLength(4);
+    expect(histograms[1].querySelector('path[data-series="predicted"]')).toBeTruthy();
   });
 });

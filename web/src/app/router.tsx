@@ -4,7 +4,7 @@ import { AppShell } from '../components/layout/app-shell';
 import { Loading } from '../components/ui/feedback';
 import { paths } from '../config/paths';
 import { meQuery } from '../features/auth/api/auth-queries';
-import { RouteError } from './route-error';
+import { NotFound, RouteError } from './route-error';
 
 /** What a route module exports (bulletproof-react style): loader and action are bound to the one QueryClient. */
 interface RouteModule {
@@ -21,7 +21,8 @@ function lazyRoute(queryClient: QueryClient, load: () => Promise<RouteModule>): 
   };
 }
 
-export function createRouter(queryClient: QueryClient) {
+/** The app's routes (exported so a test can mount them in a memory router). */
+export function appRoutes(queryClient: QueryClient): RouteObject[] {
   const requireUser: LoaderFunction = async ({ request }) => {
     const user = await queryClient.ensureQueryData(meQuery());
     if (!user) {
@@ -30,7 +31,7 @@ export function createRouter(queryClient: QueryClient) {
     }
     return null;
   };
-  return createBrowserRouter([
+  return [
     { path: paths.signIn.path, lazy: lazyRoute(queryClient, () => import('../routes/sign-in')), errorElement: <RouteError />, hydrateFallbackElement: <Loading what="Opening Longtail" /> },
     { path: paths.passwordReset.path, lazy: lazyRoute(queryClient, () => import('../routes/password-reset')), errorElement: <RouteError />, hydrateFallbackElement: <Loading what="Opening Longtail" /> },
     {
@@ -40,7 +41,7 @@ export function createRouter(queryClient: QueryClient) {
       hydrateFallbackElement: <Loading what="Opening Longtail" />,
       errorElement: <RouteError />,
       children: [
-        { index: true, lazy: lazyRoute(queryClient, () => import('../routes/workbench')) },
+        { index: true, lazy: lazyRoute(queryClient, () => import('../routes/home')) },
         { path: paths.project.path, lazy: lazyRoute(queryClient, () => import('../routes/project')) },
         { path: paths.newSpec.path, lazy: lazyRoute(queryClient, () => import('../routes/spec-new')) },
         { path: paths.specImport.path, lazy: lazyRoute(queryClient, () => import('../routes/spec-import')) },
@@ -51,8 +52,13 @@ export function createRouter(queryClient: QueryClient) {
         { path: paths.people.path, lazy: lazyRoute(queryClient, () => import('../routes/people')) },
         { path: paths.profile.path, lazy: lazyRoute(queryClient, () => import('../routes/profile')) },
         { path: paths.mail.path, lazy: lazyRoute(queryClient, () => import('../routes/mail')) },
-        { path: '*', element: <RouteError /> },
+        // Any other address: a page of its own that says so (not the error page).
+        { path: '*', element: <NotFound /> },
       ],
     },
-  ]);
+  ];
+}
+
+export function createRouter(queryClient: QueryClient) {
+  return createBrowserRouter(appRoutes(queryClient));
 }

@@ -1,7 +1,8 @@
 /** Every URL of the app, once, with builders. No URL strings elsewhere. */
 export const paths = {
   signIn: { path: '/sign-in', href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in') },
-  workbench: { path: '/', href: () => '/' },
+  /** The home page: your projects (the app's first page after signing in). */
+  home: { path: '/', href: () => '/' },
   project: { path: '/projects/:projectId', href: (projectId: number) => `/projects/${projectId}` },
   newSpec: { path: '/projects/:projectId/specs/new', href: (projectId: number) => `/projects/${projectId}/specs/new` },
   specImport: { path: '/projects/:projectId/specs/import', href: (projectId: number) => `/projects/${projectId}/specs/import` },

@@ -35,8 +35,8 @@ function NotAllowed() {
     <div role="alert" className="mx-auto max-w-xl py-16">
       <h1 className="text-2xl font-medium">Not allowed</h1>
       <p className="mt-2 text-ink-soft dark:text-night-ink-soft">Only an administrator manages accounts, roles and project memberships. Ask one if someone needs access.</p>
-      <Link to={paths.workbench.href()} className="mt-4 inline-block text-fern underline dark:text-fern-bright">
-        Back to the workbench
+      <Link to={paths.home.href()} className="mt-4 inline-block text-fern underline dark:text-fern-bright">
+        Back to your projects
       </Link>
     </div>
   );
@@ -64,7 +64,7 @@ function PeopleAdmin({ currentUserId }: { currentUserId: number }) {
             Project memberships
           </h2>
           {projects.items.length === 0 ? (
-            <EmptyState title="No projects yet">Create a project on the workbench; its people are managed here.</EmptyState>
+            <EmptyState title="No projects yet">Create a project on the Projects page; its people are managed here.</EmptyState>
           ) : (
             <ul className="grid gap-4 md:grid-cols-2">
               {projects.items.map((project) => (

@@ -1,7 +1,7 @@
 /**
  * The review report of one proposal: one page meant to be printed or saved as PDF (print styles
  * in styles/app.css). Title block, cautions, the spec, the ranking, the chosen design, its
- * checks, the SPICE verification, the bench measurements, the audit trail and the sources, with
+ * checks, the plots (static SVG, so they print), the SPICE verification, the bench measurements, the audit trail and the sources, with
  * the estimates notice.
  */
 import type { QueryClient } from '@tanstack/react-query';
@@ -21,6 +21,7 @@ import { RankedOptions } from '../features/reports/components/ranked-options';
 import { ReportAudit } from '../features/reports/components/report-audit';
 import { ReportCautions } from '../features/reports/components/report-cautions';
 import { ReportChecks } from '../features/reports/components/report-checks';
+import { DesignMonteCarlo, RankingPlot } from '../features/reports/components/report-plots';
 import { ReportSection } from '../features/reports/components/report-section';
 import { ReportSources } from '../features/reports/components/report-sources';
 import { ReportTitle } from '../features/reports/components/report-title';
@@ -76,7 +77,7 @@ export function Component() {
           <>
             <Button onClick={() => window.print()}>Print or save as PDF</Button>
             <Link to={paths.proposal.href(proposal.id)} className={LINK_BUTTON}>
-              Back to the ranking
+              Back to the proposal
             </Link>
           </>
         }
@@ -89,9 +90,13 @@ export function Component() {
       </ReportSection>
       <ReportSection id="report-ranking" number={next()} title="Ranked options">
         <RankedOptions proposal={proposal} decided={subject.decision ? { topology: subject.decision.topology, ownValues: subject.decision.kind === 'override' } : null} />
+        <RankingPlot proposal={proposal} subject={subject} />
       </ReportSection>
       <ReportSection id="report-design" number={next()} title="Chosen design">
         <ChosenDesign proposal={proposal} subject={subject} nameOf={nameOf} />
+        <div className="mt-5">
+          <DesignMonteCarlo subject={subject} monteCarlo={verification.data?.monteCarlo} />
+        </div>
       </ReportSection>
       <ReportSection id="report-checks" number={next()} title="Checks">
         <ReportChecks proposal={proposal} subject={subject} />
@@ -114,7 +119,7 @@ export function Component() {
           {ESTIMATE_NOTICE}
         </p>
         <p className="mt-1 text-ink-soft dark:text-night-ink-soft">
-          Longtail review report of ranking #{proposal.id}, {proposal.specVersion.title} version {proposal.specVersion.version}.
+          Longtail review report of proposal #{proposal.id}, {proposal.specVersion.title} version {proposal.specVersion.version}.
         </p>
       </footer>
     </article>

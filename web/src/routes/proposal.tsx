@@ -16,6 +16,7 @@ import { NextStep } from '../features/proposals/components/next-step';
 import { RouteError } from '../app/route-error';
 import { proposalCurrentDesign } from '../features/proposals/lib/current-design';
 import { currentDesignName, currentDesignRole } from '../../../shared/workflow/current-design';
+import { formatDateTime } from '../lib/dates';
 
 export const loader =
   (queryClient: QueryClient) =>
@@ -38,7 +39,7 @@ export function Component() {
             {proposal.specVersion.title} · version {proposal.specVersion.version}
           </Link>
         }
-        title={`Ranking #${proposal.id}`}
+        title={`Proposal #${proposal.id}`}
         actions={
           <>
             <StateBadge state={proposal.status} />
@@ -53,7 +54,7 @@ export function Component() {
             {currentDesignRole(current, proposal.status)}: <span className="font-medium text-ink dark:text-night-ink">{currentDesignName(current)}</span> ·{' '}
           </span>
         )}
-        Engine {proposal.engineVersion} · rule set {proposal.rulesetVersion.slice(0, 12)} · {new Date(proposal.createdAt).toLocaleString()}
+        Engine {proposal.engineVersion} · rule set {proposal.rulesetVersion.slice(0, 12)} · {formatDateTime(proposal.createdAt)}
       </PageHeader>
       <NextStep proposal={proposal} user={user} />
       <div className="space-y-6">

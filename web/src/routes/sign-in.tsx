@@ -22,7 +22,7 @@ export function Component() {
       const user = await signIn(email, password);
       queryClient.setQueryData(authKeys.me(), user);
       const next = params.get('next');
-      navigate(next && next.startsWith('/') && !next.startsWith('//') ? next : paths.workbench.href(), { replace: true });
+      navigate(next && next.startsWith('/') && !next.startsWith('//') ? next : paths.home.href(), { replace: true });
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'Sign-in failed.');
     } finally {

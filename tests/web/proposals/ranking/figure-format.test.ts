@@ -23,7 +23,9 @@ describe('figure text', () => {
     [17.78, 'dB', '+17.8 dB'],
     [-0.302, 'V', '−302 mV'],
     [0.00677, 'W', '+6.77 mW'],
-    [1, '%', '+1 %'],
+    // A margin between percentages is in percentage points.
+    [1, '%', '+1 pp'],
+    [-10.94, '%', '−10.9 pp'],
     [0, 'V', '0 V'],
   ])('formatMargin(%d, %s) is %s', (v, unit, text) => expect(formatMargin(v, unit)).toBe(text));
 

@@ -1,5 +1,6 @@
 import { describe, expect, test } from 'vitest';
-import { decadeTicksHz, histogramPlot, rejectionPlot, temperaturePlot } from '../../../../web/src/features/proposals/lib/plot-data';
+import { formatQuantity } from '../../../../shared/units/format-quantity';
+import { decadeTicksHz, histogramPlot, rejectionPlot, temperaturePlot, tickLabels } from '../../../../web/src/features/proposals/lib/plot-data';
 import { histogramSummary, rejectionSummary, temperatureSummary } from '../../../../web/src/features/proposals/lib/plot-summaries';
 import { strainBridge, studioLine } from './fixtures';
 
@@ -116,5 +117,12 @@ describe('log-axis helpers', () => {
     const ticks = decadeTicksHz(min, max);
     expect(ticks).toHaveLength(count);
     for (const t of ticks) expect(Number(t.toExponential(0))).toBe(t);
+  });
+});
+
+describe('tickLabels', () => {
+  test('a tick left out for room (null, as uPlot passes it on a narrow log axis) gets no label, never "−∞ Hz"', () => {
+    const labels = tickLabels([1, null, 100, null, 10_000], (v) => formatQuantity(v, 'Hz'));
+    expect(labels).toEqual(['1 Hz', '', '100 Hz', '', '10 kHz']);
   });
 });

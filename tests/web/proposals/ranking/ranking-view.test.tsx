@@ -84,7 +84,7 @@ describe('RankingView', () => {
     const rows = within(detail()).getAllByRole('row');
     const checkRows = rows.filter((r) => r.closest('table')?.querySelector('caption')?.textContent?.startsWith('Checks'));
     expect(checkRows[1].textContent).toMatch(/^✕Short/);
-    expect(within(detail()).getByText(/Falls short on 4 blocking checks/)).toBeTruthy();
+    expect(within(detail()).getByText(/Short on 4 blocking checks/)).toBeTruthy();
   });
 
   test('plots load lazily, each with a summary caption', async () => {

@@ -63,3 +63,25 @@ describe('OptionSchematic', () => {
     expect(container.textContent).toContain('0 V (ground)');
   });
 });
+
+describe('OptionSchematic colours', () => {
+  /** The colour an element draws in: its own stroke or fill, or currentColor from its group. */
+  const paints = (el: Element) => [el.getAttribute('stroke'), el.getAttribute('fill')].filter((p) => p !== null && p !== 'none');
+
+  test.each<TopologyId>(['resistor', 'simple-mirror', 'degenerated-mirror', 'widlar', 'wilson', 'cascode'])('%s: the whole tail is drawn in the accent group and only there, every stroke in currentColor', (topology) => {
+    const { container } = render(<OptionSchematic design={designs.get(topology)!} />);
+    const accent = container.querySelector('g[data-accent="tail"]')!;
+    expect(accent.getAttribute('class')).toMatch(/\btext-fern\b/);
+    expect(accent.getAttribute('class')).toMatch(/\bschematic-tail\b/);
+    const tails = container.querySelectorAll('[data-part="tail"]');
+    expect(tails).toHaveLength(1);
+    expect(accent.contains(tails[0])).toBe(true);
+    // The tail's transistors beyond the pair (Q3…) are all inside it; the pair's are not.
+    const tailDevices = [...accent.querySelectorAll('[data-device]')].map((d) => d.getAttribute('data-device'));
+    expect(tailDevices).not.toContain('Q1');
+    expect(tailDevices).not.toContain('Q2');
+    expect(container.querySelectorAll('[data-device]').length - tailDevices.length).toBe(2);
+    // No part of the tail sets a colour of its own: the group's accent is what shows.
+    for (const el of accent.querySelectorAll('*')) for (const paint of paints(el)) expect(paint).toBe('currentColor');
+  });
+});

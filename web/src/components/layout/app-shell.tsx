@@ -11,7 +11,7 @@ const navClass = ({ isActive }: { isActive: boolean }) =>
   cn('rounded-md px-3 py-1.5 text-sm', isActive ? 'bg-fern-soft text-fern dark:bg-night dark:text-fern-bright' : 'text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink');
 
 const NEXT_THEME: Record<ThemeChoice, ThemeChoice> = { system: 'light', light: 'dark', dark: 'system' };
-const THEME_WORDS: Record<ThemeChoice, string> = { system: 'Theme: system', light: 'Theme: light', dark: 'Theme: dark' };
+const THEME_WORDS: Record<ThemeChoice, string> = { system: 'system', light: 'light', dark: 'dark' };
 
 /** The signed-in frame: wordmark, navigation the role may use, theme, the user and sign-out. */
 export function AppShell() {
@@ -36,14 +36,14 @@ export function AppShell() {
         Skip to content
       </a>
       <header data-app-frame className="border-b border-rule bg-sheet/80 backdrop-blur dark:border-night-rule dark:bg-night-sheet/80">
-        <div className="mx-auto flex max-w-7xl items-center gap-6 px-4 py-2.5">
-          <NavLink to={paths.workbench.href()} className="flex items-center gap-2 text-lg font-medium tracking-tight text-fern dark:text-fern-bright">
+        <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-3 gap-y-1 px-4 py-2.5 sm:gap-x-6">
+          <NavLink to={paths.home.href()} className="flex items-center gap-2 text-lg font-medium tracking-tight text-fern dark:text-fern-bright">
             <img src="/longtail.svg" alt="" className="h-6 w-6" />
             longtail
           </NavLink>
           <nav aria-label="Main" className="flex items-center gap-1">
-            <NavLink to={paths.workbench.href()} end className={navClass}>
-              Workbench
+            <NavLink to={paths.home.href()} end className={navClass}>
+              Projects
             </NavLink>
             {mayAs(user, null, 'users:manage') && (
               <NavLink to={paths.people.href()} className={navClass}>
@@ -56,9 +56,10 @@ export function AppShell() {
               </NavLink>
             )}
           </nav>
-          <div className="ml-auto flex items-center gap-3 text-sm">
+          <div className="ml-auto flex items-center gap-2 text-sm sm:gap-3">
             <button type="button" onClick={cycleTheme} className="rounded-md px-2 py-1 text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink">
-              {THEME_WORDS[theme]}
+              <span className="max-sm:sr-only">Theme: </span>
+              <span className="max-sm:capitalize">{THEME_WORDS[theme]}</span>
             </button>
             <NavLink to={paths.profile.href()} title="Your profile and e-mail setting" className="text-right leading-tight hover:underline">
               <span className="sr-only">Your profile: </span>

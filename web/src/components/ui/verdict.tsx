@@ -6,7 +6,7 @@ const LOOK: Record<VerdictKind, { word: string; glyph: string; className: string
   holds: { word: 'Holds', glyph: '✓', className: 'bg-holds-soft text-holds dark:bg-holds/25 dark:text-holds-bright' },
   short: { word: 'Short', glyph: '✕', className: 'bg-short-soft text-short dark:bg-short/25 dark:text-short-bright' },
   note: { word: 'Note', glyph: '!', className: 'bg-note-soft text-note dark:bg-note/25 dark:text-note-bright' },
-  'not-applicable': { word: 'N/A', glyph: '–', className: 'bg-paper text-ink-soft dark:bg-night dark:text-night-ink-soft' },
+  'not-applicable': { word: 'n/a', glyph: '–', className: 'bg-paper text-ink-soft dark:bg-night dark:text-night-ink-soft' },
   undecided: { word: 'Undecided', glyph: '?', className: 'bg-paper text-ink-soft dark:bg-night dark:text-night-ink-soft' },
 };
 
@@ -27,4 +27,29 @@ export function checkVerdict(check: { passed: boolean; severity: string; applica
   if (check.applicable === false) return 'not-applicable';
   if (check.passed) return 'holds';
   return check.severity === 'blocking' ? 'short' : 'note';
+}
+
+/** What an option's verdict is read from: whether it passes, how many blocking checks it is short on, whether it could be solved. */
+export interface OptionStanding {
+  passes: boolean;
+  blockingShortCount: number;
+  unsolved?: boolean;
+}
+
+/**
+ * The one wording of an option's verdict, on the page, in panels and in the report: "Passes" /
+ * "Short · 2 blocking" in tables, "Passes every blocking check" / "Short on 2 blocking checks"
+ * in sentences, "Not solved" when the stage could not be solved.
+ */
+export function optionVerdictWords(option: OptionStanding, form: 'table' | 'sentence' = 'table'): { kind: VerdictKind; label: string } {
+  if (option.unsolved) return { kind: 'undecided', label: 'Not solved' };
+  if (option.passes) return { kind: 'holds', label: form === 'table' ? 'Passes' : 'Passes every blocking check' };
+  const n = option.blockingShortCount;
+  return { kind: 'short', label: form === 'table' ? `Short · ${n} blocking` : `Short on ${n} blocking check${n === 1 ? '' : 's'}` };
+}
+
+/** An option's verdict in the status language (optionVerdictWords). */
+export function OptionVerdict({ option, form = 'table', className }: { option: OptionStanding; form?: 'table' | 'sentence'; className?: string }) {
+  const { kind, label } = optionVerdictWords(option, form);
+  return <Verdict kind={kind} label={label} className={className} />;
 }

@@ -220,7 +220,7 @@ function RankBatch({ projectId, report, canRank }: { projectId: number; report: 
   if (!canRank) {
     return (
       <Sheet title="3. Rank" aria-label="Rank">
-        <p className="text-sm">Your role does not ask for rankings; a systems engineer or a designer can rank these specs from their pages.</p>
+        <p className="text-sm">Your role does not ask for proposals; a systems engineer or a designer can rank these specs from their pages.</p>
       </Sheet>
     );
   }
@@ -274,7 +274,7 @@ function RankBatch({ projectId, report, canRank }: { projectId: number; report: 
       )}
       {outcomes && (
         <div className="mt-4 space-y-3">
-          <DenseTable caption="Rankings of the imported specs">
+          <DenseTable caption="Proposals of the imported specs">
             <thead>
               <tr>
                 <Th>Spec</Th>

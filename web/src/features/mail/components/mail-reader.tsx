@@ -4,6 +4,7 @@ import { Sheet } from '../../../components/ui/sheet';
 import { cn } from '../../../lib/cn';
 import type { ReceivedMail } from '../../../lib/api-types';
 import { When } from '../../projects/components/when';
+import { formatDateTime } from '../../../lib/dates';
 
 const soft = 'text-ink-soft dark:text-night-ink-soft';
 
@@ -52,7 +53,7 @@ export function MailReader({ messages }: { messages: ReceivedMail[] }) {
           <dd>{open.from ?? '—'}</dd>
           <dt className={soft}>Received</dt>
           <dd>
-            <time dateTime={open.at}>{new Date(open.at).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'medium' })}</time>
+            <time dateTime={open.at}>{formatDateTime(open.at, { seconds: true })}</time>
           </dd>
         </dl>
         <pre className="font-sans text-sm leading-relaxed break-words whitespace-pre-wrap">{open.text}</pre>

@@ -4,11 +4,10 @@ import { Button } from '../../../components/ui/button';
 import type { User } from '../../../lib/api-types';
 import { useSendPasswordReset, useUpdateUser } from '../api/user-mutations';
 import { fieldErrors } from '../utils/field-errors';
+import { formatDate, formatDateTime } from '../../../lib/dates';
 
 const td = 'border-b border-rule/70 px-2.5 py-1.5 align-middle dark:border-night-rule/70';
 const soft = 'text-ink-soft dark:text-night-ink-soft';
-const dateOnly = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
-const dateTime = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
 const noteRow = 'border-b border-rule/70 px-2.5 py-2 dark:border-night-rule/70';
 
 /**
@@ -106,7 +105,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
           </select>
         </td>
         <td className={`${td} ${soft} whitespace-nowrap`}>
-          <time dateTime={user.createdAt}>{dateOnly.format(new Date(user.createdAt))}</time>
+          <time dateTime={user.createdAt}>{formatDate(user.createdAt)}</time>
         </td>
         <td className={`${td} text-right`}>
           <div className="flex flex-wrap justify-end gap-1">
@@ -176,7 +175,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
             <div role="status" className="flex flex-wrap items-center gap-3 text-sm">
               <p>
                 <span aria-hidden="true">✓ </span>A one-time link to set a new password is on its way to {user.email}. It works once, until{' '}
-                <time dateTime={resetLink.data.expiresAt}>{dateTime.format(new Date(resetLink.data.expiresAt))}</time>; a newer link replaces it. The current password works until the link is used.
+                <time dateTime={resetLink.data.expiresAt}>{formatDateTime(resetLink.data.expiresAt)}</time>; a newer link replaces it. The current password works until the link is used.
               </p>
               <Button variant="secondary" className="px-2 py-1 text-xs" onClick={() => resetLink.reset()}>
                 Dismiss

@@ -6,7 +6,7 @@ const th = 'border-b border-rule px-2.5 py-1.5 text-left text-xs font-medium tra
 /** Every account; each row renames its person or changes their role. */
 export function UsersTable({ users, currentUserId, onUserChanged }: { users: readonly User[]; currentUserId: number; onUserChanged?: () => Promise<unknown> }) {
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full border-collapse text-sm">
         <caption className="sr-only">Accounts</caption>
         <thead>

@@ -4,7 +4,7 @@ import { cn } from '../../../lib/cn';
 /** A dense, ruled table for lists of records; scrolls sideways on narrow screens. */
 export function DenseTable({ caption, className, children, ...props }: HTMLAttributes<HTMLTableElement> & { caption: string }) {
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className={cn('w-full border-collapse text-sm', className)} {...props}>
         <caption className="sr-only">{caption}</caption>
         {children}

@@ -1,7 +1,7 @@
 import { useQueries } from '@tanstack/react-query';
 import type { ProposalState } from '../../../../../shared/workflow/proposal-states';
 import type { Role } from '../../../../../shared/workflow/roles';
-import { STATE_LABELS } from '../../../components/ui/state-badge';
+import { STATE_LABELS, StateGlyph } from '../../../components/ui/state-badge';
 import { cn } from '../../../lib/cn';
 import { projectProposalCountQuery } from '../api/project-queries';
 import type { ProposalFilter } from '../utils/proposal-filter';
@@ -9,7 +9,7 @@ import type { ProposalFilter } from '../utils/proposal-filter';
 /** The states each role acts on, and how to say a count of them. */
 const WAITING: Partial<Record<Role, { status: ProposalState; say: (n: number) => string }[]>> = {
   designer: [
-    { status: 'ranked', say: (n) => `${n} ${n === 1 ? 'ranking waits' : 'rankings wait'} for your decision` },
+    { status: 'ranked', say: (n) => `${n} ${n === 1 ? 'proposal waits' : 'proposals wait'} for your decision` },
     { status: 'returned', say: (n) => `${n} sent back for rework by a reviewer, to decide again` },
   ],
   reviewer: [{ status: 'decided', say: (n) => `${n} ${n === 1 ? 'decision waits' : 'decisions wait'} for your review` }],
@@ -65,9 +65,9 @@ export function NeedsYou({ projectId, role, onShow }: { projectId: number; role:
               <button
                 type="button"
                 onClick={() => onShow(q.status)}
-                className={cn('inline-flex items-center gap-1.5 rounded-full border bg-sheet px-3 py-1 hover:underline dark:bg-night', STATE_LABELS[q.status].className)}
+                className={cn('inline-flex items-center gap-1.5 rounded-sm border border-l-[3px] border-rule bg-sheet px-3 py-1 hover:underline dark:border-night-rule dark:bg-night', STATE_LABELS[q.status].className)}
               >
-                <span aria-hidden="true">{STATE_LABELS[q.status].glyph}</span>
+                <StateGlyph glyph={STATE_LABELS[q.status].glyph} />
                 <span className="font-medium tabular-nums">{q.say(q.count)}</span>
               </button>
             </li>

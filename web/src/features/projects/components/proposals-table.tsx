@@ -37,7 +37,7 @@ export function ProposalsTable({ proposals, specs }: { projectId: number; propos
     <DenseTable caption="Proposals of this project">
       <thead>
         <tr>
-          <Th>Ranking</Th>
+          <Th>Proposal</Th>
           <Th>Spec</Th>
           <Th className="text-right">Version</Th>
           <Th>Design</Th>
@@ -52,7 +52,7 @@ export function ProposalsTable({ proposals, specs }: { projectId: number; propos
           return (
             <Tr key={proposal.id}>
               <Td className="tabular-nums">
-                <Link to={paths.proposal.href(proposal.id)} className={rowLink} aria-label={`Ranking #${proposal.id}`}>
+                <Link to={paths.proposal.href(proposal.id)} className={rowLink} aria-label={`Proposal #${proposal.id}`}>
                   #{proposal.id}
                 </Link>
               </Td>

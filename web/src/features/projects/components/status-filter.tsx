@@ -1,4 +1,4 @@
-import { STATE_LABELS } from '../../../components/ui/state-badge';
+import { STATE_LABELS, StateGlyph } from '../../../components/ui/state-badge';
 import { cn } from '../../../lib/cn';
 import { PROPOSAL_FILTERS, type ProposalFilter } from '../utils/proposal-filter';
 
@@ -30,9 +30,7 @@ export function StatusFilter({ value, onChange }: { value: ProposalFilter; onCha
         >
           <input type="radio" name="proposal-status" value={status} checked={status === value} onChange={() => onChange(status)} className="sr-only" />
           {status !== 'all' && (
-            <span aria-hidden="true" className="mr-1">
-              {STATE_LABELS[status].glyph}
-            </span>
+            <StateGlyph glyph={STATE_LABELS[status].glyph} className="mr-1 inline-block align-[-0.1em]" />
           )}
           {FILTER_WORDS[status]}
         </label>

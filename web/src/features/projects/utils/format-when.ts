@@ -1,3 +1,5 @@
+import { formatDate } from '../../../lib/dates';
+
 /** "3 minutes ago", "yesterday", or a date once it is more than a week old. */
 const UNITS: [Intl.RelativeTimeFormatUnit, number][] = [
   ['day', 86_400_000],
@@ -6,12 +8,11 @@ const UNITS: [Intl.RelativeTimeFormatUnit, number][] = [
 ];
 const WEEK_MS = 7 * 86_400_000;
 const relative = new Intl.RelativeTimeFormat('en', { numeric: 'auto' });
-const dateOnly = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
 
 export function formatWhen(iso: string, nowMs: number = Date.now()): string {
   const ageMs = nowMs - Date.parse(iso);
   if (Number.isNaN(ageMs)) return '—';
-  if (ageMs >= WEEK_MS || ageMs < -60_000) return dateOnly.format(new Date(iso));
+  if (ageMs >= WEEK_MS || ageMs < -60_000) return formatDate(iso);
   for (const [unit, sizeMs] of UNITS) {
     if (ageMs >= sizeMs) return relative.format(-Math.floor(ageMs / sizeMs), unit);
   }

@@ -35,7 +35,7 @@ export function DecisionPanel({ proposal, user }: { proposal: Proposal; user: Us
         </p>
       )}
       {!decision ? (
-        <EmptyState title="No decision yet">The ranking waits for a designer to accept the recommendation, choose another option or use own values.</EmptyState>
+        <EmptyState title="No decision yet">The proposal waits for a designer to accept the recommendation, choose another option or use own values.</EmptyState>
       ) : reviewsNow ? (
         <p className="text-sm">
           {nameOf(decision.decidedById)} {DECISION_KIND_WORDS[decision.kind]} ({topologyTitle(decision.topology)}) on <When iso={decision.createdAt} />. It is yours to review below.

@@ -23,7 +23,7 @@ export function NextStep({ proposal, user }: { proposal: Proposal; user: User })
       )}
       {canDecide && (
         <p>
-          {returned ? 'A new decision is needed.' : 'This ranking waits for your decision.'}{' '}
+          {returned ? 'A new decision is needed.' : 'This proposal waits for your decision.'}{' '}
           <a href="#decision" className="font-medium text-fern underline dark:text-fern-bright">
             Go to the decision
           </a>

@@ -34,9 +34,14 @@ export function formatFigure(value: number, unit: string, digits = 3): string {
   return formatQuantity(value, unit, digits);
 }
 
-/** A margin with its sign ("+17.8 dB", "−302 mV"): how far on the good side, negative when short. */
+/**
+ * A margin with its sign ("+17.8 dB", "−302 mV", "+7.1 pp"): how far on the good side, negative
+ * when short. A margin between two percentages (a yield against its requirement, an error against
+ * its tolerance) is a difference of percentage points: "pp", never "%" (which would read as a
+ * share of the figure).
+ */
 export function formatMargin(value: number, unit: string | undefined): string {
-  const text = formatFigure(Math.abs(value), unit ?? '1');
+  const text = unit === '%' ? `${fixed(Math.abs(value), 1).replace(/\.0$/, '')} pp` : formatFigure(Math.abs(value), unit ?? '1');
   if (value === 0) return text;
   return `${value > 0 ? '+' : MINUS}${text}`;
 }

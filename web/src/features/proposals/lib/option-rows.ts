@@ -3,8 +3,11 @@
  * null when the option could not be solved), and which figures a failing check points at.
  */
 import type { RecommendOption, RecommendResult } from '../../../../../shared/engine/recommend';
+import { outputRejection, REJECTION_KIND_WORDS, type RejectionKind } from '../../../../../shared/engine/output-rejection';
 import type { Check, TopologyId } from '../../../../../shared/engine/types';
+import { formatQuantity } from '../../../../../shared/units/format-quantity';
 import { topologyName } from '../../../lib/topology-names';
+import { formatPercent, formatTargetDb } from './figure-format';
 
 /** Figures of the table that one rule decides, so a failing check can mark its cell. */
 export const FIGURE_RULES = {
@@ -104,6 +107,7 @@ export function matchesTopologyText(row: Pick<OptionRow, 'topology' | 'name'>, t
 export function specTargets(result: RecommendResult) {
   const f = result.options.find((o) => o.figures)?.figures ?? null;
   if (!f) return null;
+  const output = outputRejection(f);
   return {
     frequencyHz: f.cmrrFrequencyHz,
     requiredDb: f.cmrrRequiredDb,
@@ -115,7 +119,64 @@ export function specTargets(result: RecommendResult) {
     differential: f.isDifferentialOutput,
     temperatureMinC: f.temperatureMinC,
     temperatureMaxC: f.temperatureMaxC,
+    /** The rejection for the spec's output and its target (shared/engine/output-rejection). */
+    output: { kind: output.kind, requiredDb: output.requiredDb, field: (output.kind === 'differential' ? 'mismatchWorstCaseDb' : 'cmrrAtFrequencyDb') as RejectionField },
   };
 }
 
 export type SpecTargets = NonNullable<ReturnType<typeof specTargets>>;
+
+export type RejectionField = 'cmrrDcDb' | 'cmrrAtFrequencyDb' | 'mismatchWorstCaseDb' | 'yieldPercent';
+
+/** One rejection column of the ranking table, as the page and the report both draw it. */
+export interface RejectionColumn {
+  field: RejectionField;
+  title: string;
+  /** What the figure is and what it is held to, e.g. "worst, ≥ 84.5". */
+  sub: string;
+  /** The unit of the column's figures. */
+  unit: 'dB' | '%';
+  /** The figure that matters for the spec's output (the one the recommendation weighs). */
+  forOutput: boolean;
+  kind: RejectionKind | null;
+}
+
+const bare = (text: string) => text.replace(/ (dB|%)$/, '');
+
+/**
+ * The rejection columns of the ranking table: DC (nominal), the single-ended figure at the spec
+ * frequency against the required figure plus margin, and for differential outputs the
+ * mismatch-limited worst case against the required figure and the Monte Carlo yield. The
+ * targets come from outputRejection, so the page and the report print the same figures against
+ * the same targets.
+ */
+export function rejectionColumns(targets: SpecTargets | null): RejectionColumn[] {
+  const f = targets ? formatQuantity(targets.frequencyHz, 'Hz') : 'spec f';
+  const singleEndedTarget = targets ? targets.requiredDb + targets.marginDb : null;
+  const columns: RejectionColumn[] = [
+    { field: 'cmrrDcDb', title: 'DC', sub: 'nominal', unit: 'dB', forOutput: false, kind: null },
+    {
+      field: 'cmrrAtFrequencyDb',
+      title: f,
+      sub: singleEndedTarget === null ? 'worst corner' : `worst, ≥\u00a0${bare(formatTargetDb(singleEndedTarget))}`,
+      unit: 'dB',
+      forOutput: targets?.output.field === 'cmrrAtFrequencyDb',
+      kind: 'single-ended',
+    },
+  ];
+  if (targets?.differential) {
+    columns.push(
+      { field: 'mismatchWorstCaseDb', title: 'Mismatch', sub: `worst, ≥\u00a0${bare(formatTargetDb(targets.requiredDb))}`, unit: 'dB', forOutput: targets.output.field === 'mismatchWorstCaseDb', kind: 'differential' },
+      { field: 'yieldPercent', title: 'Yield %', sub: `MC, ≥\u00a0${bare(formatPercent(targets.requiredYieldPercent))}`, unit: '%', forOutput: false, kind: 'differential' },
+    );
+  }
+  return columns;
+}
+
+/** The sentence under a ranking table that says which rejection figure serves the spec's output. */
+export function outputRejectionNote(targets: SpecTargets | null): string | null {
+  if (!targets) return null;
+  const f = formatQuantity(targets.frequencyHz, 'Hz');
+  const output = targets.output.kind === 'differential' ? 'a differential output' : 'a single-ended output';
+  return `The spec asks for ${output}: the rejection that matters is the ${REJECTION_KIND_WORDS[targets.output.kind]} figure at ${f}, held to ≥ ${formatTargetDb(targets.output.requiredDb)} (marked ●).`;
+}

@@ -124,6 +124,14 @@ export function temperaturePlot(option: RecommendOption): TemperaturePlot | null
   return { temperatureC, tailCurrentA, gain, tailCurrentSpanPercent: spanPercent, data: [temperatureC, tailCurrentA, gain] };
 }
 
+/**
+ * Labels for the ticks of an axis: on a narrow chart the chart library leaves some ticks out
+ * for room and hands them over as null, which get no label (never "−∞ Hz").
+ */
+export function tickLabels(splits: readonly (number | null)[], format: (value: number) => string): string[] {
+  return splits.map((v) => (v === null || !Number.isFinite(v) ? '' : format(v)));
+}
+
 /** Frequencies of a log axis worth a label: exact decades within the range. */
 export function decadeTicksHz(minHz: number, maxHz: number): number[] {
   const ticks: number[] = [];

@@ -1,12 +1,12 @@
-import { Verdict } from '../../../components/ui/verdict';
+import { OptionVerdict } from '../../../components/ui/verdict';
 import type { Proposal } from '../../../lib/api-types';
 import { topologyName } from '../../../lib/topology-names';
 import { blockingFailures, DECISION_KIND_WORDS } from '../../proposals/components/decision/decided-option';
 import { OptionSchematic } from '../../proposals/components/ranking/schematic/option-schematic';
 import { SizedValues } from '../../proposals/components/ranking/sized-values';
-import { fullTimestamp } from '../lib/report-format';
 import type { ReportSubject } from '../lib/report-subject';
 import { besideRecommendation, currentDesign, currentDesignName, currentDesignRole } from '../../../../../shared/workflow/current-design';
+import { formatDateTime } from '../../../lib/dates';
 
 const BASIS_WORDS = {
   recommendation: 'No decision yet. Shown below: the recommendation, as the engine sized it.',
@@ -37,7 +37,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
         <div className="space-y-2 text-sm">
           <p>
             <span className="font-medium">{nameOf(decision.decidedById)}</span> {DECISION_KIND_WORDS[decision.kind]}: <span className="font-medium">{topologyName(decision.topology)}</span>
-            {' '}· {fullTimestamp(decision.createdAt)}
+            {' '}· {formatDateTime(decision.createdAt, { seconds: true })}
             {proposal.decisions.length > 1 && ` · decision ${proposal.decisions.length} of ${proposal.decisions.length}`}
           </p>
           <div>
@@ -51,7 +51,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
           {reviews.map((review) => (
             <div key={review.id}>
               <p>
-                <span className="font-medium">{nameOf(review.reviewerId)}</span> {review.verdict === 'approve' ? 'signed off this decision' : 'sent this decision back for rework'} · {fullTimestamp(review.createdAt)}
+                <span className="font-medium">{nameOf(review.reviewerId)}</span> {review.verdict === 'approve' ? 'signed off this decision' : 'sent this decision back for rework'} · {formatDateTime(review.createdAt, { seconds: true })}
               </p>
               {review.verdict === 'approve' && review.verificationJobId !== undefined && (
                 <p className="text-xs text-ink-soft dark:text-night-ink-soft">
@@ -71,7 +71,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
       )}
       {option && (
         <p className="flex flex-wrap items-center gap-2 text-sm">
-          {option.passes ? <Verdict kind="holds" label="Passes every blocking check" /> : <Verdict kind="short" label={`Fails ${failures} blocking check${failures === 1 ? '' : 's'}`} />}
+          <OptionVerdict option={{ passes: option.passes, blockingShortCount: failures }} form="sentence" />
           <span className="text-ink-soft dark:text-night-ink-soft">
             {decision?.kind === 'override' ? 'as the server checked the designer’s values with every rule' : `as ranked by the engine (rank ${option.rank} of ${proposal.result.options.length})`}
           </span>
@@ -84,7 +84,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
           <figure className="report-keep min-w-0">
             <OptionSchematic design={design} className="mx-auto w-full max-w-[480px] print:max-w-[95mm]" />
             <figcaption className="mt-1 text-center text-xs text-ink-soft dark:text-night-ink-soft">
-              The stage with the {topologyName(design.tail.topology).toLowerCase()} tail, as sized (on screen, the tail element is in the accent colour).
+              The stage with the {topologyName(design.tail.topology).toLowerCase()} tail, as sized; the tail element in the accent colour.
             </figcaption>
           </figure>
           <SizedValues design={design} series={payload?.resistors?.series ?? null} tolerancePercent={payload?.resistors?.tolerancePercent ?? null} facts={option?.figures ?? null} predicted={option?.predicted ?? null} />

@@ -7,8 +7,8 @@ import { comparisonSentence } from '../../../../../shared/measurements/compariso
 import type { MeasurementSummary } from '../../../../../shared/measurements/types';
 import { ErrorPanel } from '../../../components/ui/feedback';
 import { topologyName } from '../../../lib/topology-names';
-import { fullTimestamp } from '../lib/report-format';
 import { ReportNote } from './report-section';
+import { formatDateTime } from '../../../lib/dates';
 
 /** `items` oldest first: every measurement of the proposal (a proposal keeps at most MEASUREMENT_QUOTA.proposal.count, one page). */
 export function ReportMeasurements({ items, error }: { items: readonly MeasurementSummary[] | undefined; error: unknown }) {
@@ -23,7 +23,7 @@ export function ReportMeasurements({ items, error }: { items: readonly Measureme
             <p className="font-medium">{comparisonSentence(m.comparison)}</p>
             <p className="text-xs text-ink-soft dark:text-night-ink-soft">
               {m.fileName} ({m.kind === 'cmrr' ? 'rejection' : 'gain'}, {m.pointCount} points, {m.designSource === 'decision' ? 'own values of the ' : ''}
-              {topologyName(m.topology as never)}), uploaded by {m.uploadedBy.displayName} on {fullTimestamp(m.uploadedAt)}; sha256 {m.sha256.slice(0, 12)}…
+              {topologyName(m.topology as never)}), uploaded by {m.uploadedBy.displayName} on {formatDateTime(m.uploadedAt, { seconds: true })}; sha256 {m.sha256.slice(0, 12)}…
               {m.note ? ` Note: ${m.note}` : ''}
             </p>
           </li>

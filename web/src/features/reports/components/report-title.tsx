@@ -1,8 +1,8 @@
 import type { ReactNode } from 'react';
 import { StateBadge } from '../../../components/ui/state-badge';
 import type { Proposal } from '../../../lib/api-types';
-import { fullTimestamp } from '../lib/report-format';
 import { currentDesign, currentDesignName, currentDesignRole } from '../../../../../shared/workflow/current-design';
+import { formatDateTime } from '../../../lib/dates';
 
 function Item({ term, children }: { term: string; children: ReactNode }) {
   return (
@@ -25,7 +25,7 @@ export function ReportTitle({ proposal, projectName, generatedAt, notice, online
         <div className="min-w-0">
           <p className="text-xs font-medium tracking-wide text-fern uppercase dark:text-fern-bright">Longtail · review report</p>
           <h1 id="report-heading" className="mt-1 text-2xl font-medium tracking-tight">
-            Ranking #{proposal.id}: {proposal.specVersion.title}
+            Proposal #{proposal.id}: {proposal.specVersion.title}
           </h1>
         </div>
         {actions && <div className="flex flex-wrap items-center gap-2 print:hidden">{actions}</div>}
@@ -36,7 +36,7 @@ export function ReportTitle({ proposal, projectName, generatedAt, notice, online
         <Item term="Proposal">
           #{proposal.id}{' '}
           <a href={onlineHref} data-print-url className="text-fern underline dark:text-fern-bright">
-            ranking page
+            proposal page
           </a>
         </Item>
         <Item term="Spec">
@@ -54,12 +54,12 @@ export function ReportTitle({ proposal, projectName, generatedAt, notice, online
             'none (no option passes every blocking check, nothing decided)'
           )}
         </Item>
-        <Item term="Ranked">{fullTimestamp(proposal.createdAt)}</Item>
+        <Item term="Ranked">{formatDateTime(proposal.createdAt, { seconds: true })}</Item>
         <Item term="Engine">version {proposal.engineVersion}</Item>
         <Item term="Rule set">
           <code className="font-mono text-xs break-all">{proposal.rulesetVersion}</code>
         </Item>
-        <Item term="Generated">{fullTimestamp(generatedAt.toISOString())}</Item>
+        <Item term="Generated">{formatDateTime(generatedAt.toISOString(), { seconds: true })}</Item>
       </dl>
       <p className="report-notice flex items-start gap-2 rounded-md border border-rule bg-paper px-3 py-2 text-sm dark:border-night-rule dark:bg-night">
         <span aria-hidden="true" className="font-semibold">

@@ -3,12 +3,13 @@ import { Verdict } from '../../../components/ui/verdict';
 import type { Proposal } from '../../../lib/api-types';
 import { topologyName } from '../../../lib/topology-names';
 import { formatPercent } from '../../proposals/lib/figure-format';
-import { deltaText, fullTimestamp, toleranceText, verifiedValue } from '../lib/report-format';
+import { deltaText, toleranceText, verifiedValue } from '../lib/report-format';
 import { ReportNote, ReportSubheading } from './report-section';
 import { freshness, freshnessText, UNBOUND_WORDS, type Freshness } from '../../../../../shared/verification/binding';
 import type { DesignVerificationState } from '../../../../../shared/verification/types';
 import { currentDesignName, currentDesignWord } from '../../../../../shared/workflow/current-design';
 import { proposalCurrentDesign, resultFreshness, type ShownDesign } from '../../proposals/lib/current-design';
+import { formatDateTime } from '../../../lib/dates';
 
 const isProposalResult = (result: VerificationJobView['result']): result is ProposalVerificationResult => result !== null && 'options' in result;
 const isMonteCarloResult = (result: VerificationJobView['result']): result is MonteCarloVerificationResult => result !== null && 'histogram' in result;
@@ -16,7 +17,7 @@ const isMonteCarloResult = (result: VerificationJobView['result']): result is Mo
 /** Why there is nothing to show: no job, or one that has not finished (or could not). */
 function notVerifiedWhy(job: VerificationJobView | null): string {
   if (!job) return 'Nobody has asked for a SPICE verification of this proposal.';
-  const who = `asked for by ${job.requestedBy.displayName} on ${fullTimestamp(job.createdAt)}`;
+  const who = `asked for by ${job.requestedBy.displayName} on ${formatDateTime(job.createdAt, { seconds: true })}`;
   switch (job.state) {
     case 'waiting':
       return `A verification was ${who} and is waiting to run.`;
@@ -210,7 +211,7 @@ export function ReportVerification({ proposal, status, error }: { proposal: Prop
       {result && job ? (
         <>
           <p className="text-sm">
-            Simulated with {result.simulator} on the netlists Longtail exports; asked for by {job.requestedBy.displayName}, finished {job.finishedAt ? fullTimestamp(job.finishedAt) : ''}.{' '}
+            Simulated with {result.simulator} on the netlists Longtail exports; asked for by {job.requestedBy.displayName}, finished {job.finishedAt ? formatDateTime(job.finishedAt, { seconds: true }) : ''}.{' '}
             {result.options.every((o) => o.outcome === 'verified' && o.agrees) ? 'Every figure agrees within its tolerance.' : 'Some figures fall outside their tolerance or could not be simulated: see below.'}
           </p>
           {[...result.options]

@@ -1,16 +1,9 @@
-/** Text for the report: full timestamps, and the SPICE comparison's differences and tolerances. Pure. */
+/** Text for the report: the SPICE comparison's differences and tolerances. Pure. */
 import type { VerifiedFigure } from '../../../../../shared/verification/types';
 import { formatQuantity } from '../../../../../shared/units/format-quantity';
 import { formatFigure } from '../../proposals/lib/figure-format';
 
 const MINUS = '\u2212';
-
-/** A moment with date, hours, minutes and seconds in local time and the zone: "2 Mar 2026, 09:30:05 GMT". */
-export function fullTimestamp(iso: string): string {
-  const date = new Date(iso);
-  if (Number.isNaN(date.getTime())) return iso;
-  return date.toLocaleString(undefined, { year: 'numeric', month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23', timeZoneName: 'short' });
-}
 
 /** The unit a verified figure's value prints with ("" means a plain ratio). */
 const unitOf = (figure: Pick<VerifiedFigure, 'unit'>) => (figure.unit === '' ? '1' : figure.unit);

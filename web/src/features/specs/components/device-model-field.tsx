@@ -8,6 +8,7 @@
 import type { FieldProps } from '@rjsf/utils';
 import { useId } from 'react';
 import { formatQuantity } from '../../../../../shared/units/format-quantity';
+import { formatDate } from '../../../lib/dates';
 import { inputClass } from '../../../components/forms/input-class';
 import { DEVICE_PICKER_PAGE_SIZE, type LibraryDevice, type RecordedDeviceModel } from '../../devices/api/device-queries';
 import { libraryDeviceFor, refFor, type DeviceChoiceContext, type DeviceLibraryState, type DeviceModelRef } from '../lib/device-choice';
@@ -20,7 +21,7 @@ function summary(device: LibraryDevice): string {
   return `${device.name} — IS ${formatQuantity(device.device.saturationCurrentA, 'A')}, BF ${device.device.beta}, ${vaf}`;
 }
 
-const day = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' }) : 'an earlier date');
+const day = (iso: string | null) => (iso ? formatDate(iso) : 'an earlier date');
 
 /** What became of the recorded card, in words (null while it is in the library as recorded). */
 function recordedState(recorded: DeviceModelRef, resolved: DeviceLibraryState['recorded']): string | null {

@@ -34,7 +34,7 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
       const recommended = typeof details.recommended === 'string' ? topologyTitle(details.recommended) : null;
       const version = details.specVersion !== undefined ? ` spec version ${String(details.specVersion)}` : ' the spec';
       return {
-        what: `asked for a ranking of${version}: ranked by the engine; ${recommended ? `recommended: ${recommended}` : 'no option passes every blocking check, so nothing is recommended'}`,
+        what: `asked for a proposal of${version}: ranked by the engine; ${recommended ? `recommended: ${recommended}` : 'no option passes every blocking check, so nothing is recommended'}`,
         to: asState(details.status) ?? 'ranked',
       };
     }

@@ -1,4 +1,4 @@
-import { Verdict } from '../../../../components/ui/verdict';
+import { OptionVerdict } from '../../../../components/ui/verdict';
 import type { Decision, Proposal } from '../../../../lib/api-types';
 import { CheckList } from '../review/check-list';
 import { When } from '../audit/when';
@@ -33,7 +33,7 @@ export function DecisionSummary({ proposal, decision, nameOf, showChecks = true 
       </p>
       {option && (
         <p className="flex flex-wrap items-center gap-2 text-sm">
-          {option.passes ? <Verdict kind="holds" label="Passes every blocking check" /> : <Verdict kind="short" label={`Short on ${failures} blocking check${failures === 1 ? '' : 's'}`} />}
+          <OptionVerdict option={{ passes: option.passes, blockingShortCount: failures }} form="sentence" />
           <span className="text-ink-soft dark:text-night-ink-soft">{decision.kind === 'override' ? 'as checked by the server with every rule' : 'as ranked by the engine'}</span>
         </p>
       )}

@@ -1,6 +1,6 @@
 import { useId } from 'react';
 import { Button } from '../../../../components/ui/button';
-import { Verdict } from '../../../../components/ui/verdict';
+import { OptionVerdict, Verdict } from '../../../../components/ui/verdict';
 import { ApiError } from '../../../../lib/api';
 import type { OptionEvaluation } from '../../../../lib/api-types';
 import { cn } from '../../../../lib/cn';
@@ -55,13 +55,7 @@ function CheckResult({ option, ranked, current }: { option: OptionEvaluation; ra
   return (
     <div className={cn('mt-3 space-y-3', !current && 'text-ink-soft dark:text-night-ink-soft')} aria-label={current ? 'Full check result' : 'Full check result, out of date'} role="group">
       <p className="flex flex-wrap items-center gap-2 text-sm">
-        {!option.figures ? (
-          <Verdict kind="undecided" label="Could not be solved" />
-        ) : option.passes ? (
-          <Verdict kind="holds" label="Passes every blocking check" />
-        ) : (
-          <Verdict kind="short" label={`Short on ${failures} blocking check${failures === 1 ? '' : 's'}`} />
-        )}
+        <OptionVerdict option={{ passes: option.passes, blockingShortCount: failures, unsolved: !option.figures }} form="sentence" />
         <span>{current ? 'as the server would record this override' : 'for the values as they were when checked'}</span>
       </p>
       {option.error && <p className="text-sm">{option.error}</p>}

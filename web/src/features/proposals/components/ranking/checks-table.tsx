@@ -2,6 +2,7 @@ import type { Check } from '../../../../../../shared/engine/types';
 import { checkVerdict, Verdict, type VerdictKind } from '../../../../components/ui/verdict';
 import { formatMargin } from '../../lib/figure-format';
 import { ruleName } from '../../lib/rule-names';
+import { CHECK_ROW_STACK } from '../review/check-list';
 
 /** Failures first, then undecided, advisory notes, holds, and the checks that do not apply. */
 const ORDER: Record<VerdictKind, number> = { short: 0, undecided: 1, note: 2, holds: 3, 'not-applicable': 4 };
@@ -10,39 +11,41 @@ const ORDER: Record<VerdictKind, number> = { short: 0, undecided: 1, note: 2, ho
 export function ChecksTable({ checks }: { checks: Check[] }) {
   const ordered = checks.map((check) => ({ check, kind: checkVerdict(check) })).sort((a, b) => ORDER[a.kind] - ORDER[b.kind]);
   return (
-    <div className="overflow-x-auto">
-      <table className="w-full text-sm">
+    <div className="relative overflow-x-auto">
+      <table role="table" className="w-full text-sm">
         <caption className="sr-only">Checks of this option, failures first</caption>
-        <thead className="text-xs text-ink-soft dark:text-night-ink-soft">
-          <tr className="border-b border-rule dark:border-night-rule">
-            <th scope="col" className="py-1 pr-3 text-left font-normal">
+        <thead role="rowgroup" className={`text-xs text-ink-soft dark:text-night-ink-soft ${CHECK_ROW_STACK.head}`}>
+          <tr role="row" className="border-b border-rule dark:border-night-rule">
+            <th role="columnheader" scope="col" className="py-1 pr-3 text-left font-normal">
               Verdict
             </th>
-            <th scope="col" className="py-1 pr-3 text-left font-normal">
+            <th role="columnheader" scope="col" className="py-1 pr-3 text-left font-normal">
               Check
             </th>
-            <th scope="col" className="py-1 pr-3 text-left font-normal">
-              Reason
+            <th role="columnheader" scope="col" className="py-1 pr-3 text-left font-normal">
+              Why
             </th>
-            <th scope="col" className="py-1 text-right font-normal">
+            <th role="columnheader" scope="col" className="py-1 text-right font-normal">
               Margin
             </th>
           </tr>
         </thead>
-        <tbody>
+        <tbody role="rowgroup">
           {ordered.map(({ check, kind }) => (
-            <tr key={check.rule} className="border-b border-rule/60 align-top last:border-0 dark:border-night-rule/60">
-              <td className="py-1.5 pr-3">
+            <tr key={check.rule} role="row" className={`border-b border-rule/60 align-top last:border-0 dark:border-night-rule/60 ${CHECK_ROW_STACK.row}`}>
+              <td role="cell" className="py-1.5 pr-3">
                 <Verdict kind={kind} />
               </td>
-              <th scope="row" className="py-1.5 pr-3 text-left font-normal">
-                <span className="block font-medium whitespace-nowrap">{ruleName(check.rule)}</span>
+              <th role="rowheader" scope="row" className="py-1.5 pr-3 text-left font-normal">
+                <span className={`block font-medium ${CHECK_ROW_STACK.name}`}>{ruleName(check.rule)}</span>
                 <span className="block text-xs text-ink-soft dark:text-night-ink-soft">
                   {check.severity} · <code className="font-mono whitespace-nowrap">{check.rule}</code>
                 </span>
               </th>
-              <td className="py-1.5 pr-3">{check.reason}</td>
-              <td className="py-1.5 text-right whitespace-nowrap tabular-nums">
+              <td role="cell" className={`py-1.5 pr-3 ${CHECK_ROW_STACK.reason}`}>
+                {check.reason}
+              </td>
+              <td role="cell" className="py-1.5 text-right whitespace-nowrap tabular-nums">
                 {check.margin === null || check.margin === undefined ? <span className="text-ink-soft dark:text-night-ink-soft">—</span> : formatMargin(check.margin, check.marginUnit)}
               </td>
             </tr>

@@ -21,7 +21,7 @@ export function CornersTable({ option }: { option: RecommendOption }) {
   const worst = option.figures?.worstCmrrCorner;
   const f = option.figures ? formatQuantity(option.figures.cmrrFrequencyHz, 'Hz') : 'f';
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full text-sm">
         <caption className="sr-only">Figures at each corner of the spec</caption>
         <thead className="text-xs text-ink-soft dark:text-night-ink-soft">

@@ -5,9 +5,9 @@
  */
 import { createColumnHelper, type ColumnDef, type RowData } from '@tanstack/react-table';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
-import { Verdict } from '../../../../components/ui/verdict';
-import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant, formatTargetDb } from '../../lib/figure-format';
-import { matchesTopologyText, type OptionRow, type RuledFigure, type SpecTargets } from '../../lib/option-rows';
+import { OptionVerdict } from '../../../../components/ui/verdict';
+import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../lib/figure-format';
+import { matchesTopologyText, rejectionColumns, type OptionRow, type RuledFigure, type SpecTargets } from '../../lib/option-rows';
 import { ColumnTitle } from './column-title';
 import { FigureCell } from './figure-cell';
 
@@ -30,12 +30,12 @@ const percentText = (v: number) => formatFixed(v, 1).replace(/\.0$/, '');
 const quantity = (unit: string) => (v: number) => formatQuantity(v, unit);
 const margin = (v: number) => formatMargin(v, 'V');
 
-function figureColumn(id: NumericField, format: (v: number) => string, title: string, sub?: string) {
+function figureColumn(id: NumericField, format: (v: number) => string, title: string, sub?: string, forOutput = false) {
   return column.accessor((row) => toSortable(row[id]), {
     id,
     sortUndefined: 'last',
     meta: { numeric: true },
-    header: () => <ColumnTitle title={title} sub={sub} />,
+    header: () => <ColumnTitle title={title} sub={sub} forOutput={forOutput} />,
     cell: ({ row }) => {
       const value = row.original[id];
       return <FigureCell text={value === null ? null : format(value)} standing={row.original.standing[id as RuledFigure]} />;
@@ -43,11 +43,6 @@ function figureColumn(id: NumericField, format: (v: number) => string, title: st
   });
 }
 
-function verdictOf(row: OptionRow) {
-  if (row.unsolved) return <Verdict kind="undecided" label="Not solved" />;
-  if (row.passes) return <Verdict kind="holds" label="Passes" />;
-  return <Verdict kind="short" label={`Short · ${row.blockingShortCount}`} />;
-}
 
 // TanStack's ColumnDef is invariant in its value type; the array mixes number and string columns.
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
@@ -56,14 +51,7 @@ type AnyColumn = ColumnDef<OptionRow, any>;
 /** The table's columns for a spec (the mismatch and yield figures only for differential outputs). */
 export function optionColumns(targets: SpecTargets | null): AnyColumn[] {
   const f = targets ? formatQuantity(targets.frequencyHz, 'Hz') : 'spec f';
-  const rejection: AnyColumn[] = [
-    figureColumn('cmrrDcDb', dbText, 'DC', 'nominal'),
-    figureColumn('cmrrAtFrequencyDb', dbText, f, targets ? `worst, ≥ ${formatTargetDb(targets.requiredDb + targets.marginDb).replace(' dB', '')}` : 'worst corner'),
-  ];
-  if (targets?.differential) {
-    rejection.push(figureColumn('mismatchWorstCaseDb', dbText, 'Mismatch', `worst, ≥ ${formatTargetDb(targets.requiredDb).replace(' dB', '')}`));
-    rejection.push(figureColumn('yieldPercent', percentText, 'Yield %', `MC, ≥ ${formatPercent(targets.requiredYieldPercent).replace(' %', '')}`));
-  }
+  const rejection: AnyColumn[] = rejectionColumns(targets).map((c) => figureColumn(c.field, c.unit === '%' ? percentText : dbText, c.title, c.sub, c.forOutput));
   return [
     column.accessor('rank', { header: () => <ColumnTitle title="#" />, meta: { numeric: true }, cell: ({ getValue }) => <span className="tabular-nums">{getValue()}</span> }),
     column.accessor('name', {
@@ -79,7 +67,7 @@ export function optionColumns(targets: SpecTargets | null): AnyColumn[] {
       sortDescFirst: false,
       header: () => <ColumnTitle title="Verdict" sub="blocking short" />,
       filterFn: (row, _id, passingOnly: boolean) => !passingOnly || row.original.passes,
-      cell: ({ row }) => verdictOf(row.original),
+      cell: ({ row }) => <OptionVerdict option={row.original} />,
     }),
     figureColumn('tailImpedanceAtFrequencyOhm', quantity('Ohm'), 'Tail |Z|', `at ${f}`),
     column.group({ id: 'rejection', header: () => <ColumnTitle title="CM rejection, dB" group />, columns: rejection }),

@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 import type { RecommendOption } from '../../../../../../shared/engine/recommend';
 import type { ResistorSeries } from '../../../../../../shared/engine/types';
 import { EmptyState } from '../../../../components/ui/feedback';
-import { Verdict } from '../../../../components/ui/verdict';
+import { OptionVerdict } from '../../../../components/ui/verdict';
 import { blockingShortCount } from '../../lib/option-rows';
 import { topologyName } from '../../../../lib/topology-names';
 import { ChecksTable } from './checks-table';
@@ -32,7 +32,7 @@ export function OptionDetail({ option, recommended, series, tolerancePercent }: 
           {name}
         </h2>
         <span className="text-sm text-ink-soft dark:text-night-ink-soft">rank {option.rank}</span>
-        {option.passes ? <Verdict kind="holds" label="Passes every blocking check" /> : <Verdict kind="short" label={`Falls short on ${short} blocking check${short === 1 ? '' : 's'}`} />}
+        <OptionVerdict option={{ passes: option.passes, blockingShortCount: short }} form="sentence" />
         {recommended && <span className="text-sm text-fern dark:text-fern-bright">◆ the recommendation</span>}
       </header>
       {option.design ? (

@@ -11,7 +11,7 @@ import {
 import { useMemo, useState, type KeyboardEvent } from 'react';
 import type { TopologyId } from '../../../../../../shared/engine/types';
 import { cn } from '../../../../lib/cn';
-import type { OptionRow, SpecTargets } from '../../lib/option-rows';
+import { outputRejectionNote, type OptionRow, type SpecTargets } from '../../lib/option-rows';
 import { optionColumns } from './option-columns';
 import { TableFilters } from './table-filters';
 
@@ -100,7 +100,7 @@ export function OptionsTable({
         shown={shown.length}
         total={rows.length}
       />
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table className="w-full border-collapse text-sm">
           <caption className="sr-only">Tail options, ranked. Select an option to see its detail below.</caption>
           <thead className="text-xs text-ink dark:text-night-ink">
@@ -181,6 +181,7 @@ export function OptionsTable({
         ◆ recommended · {current ? `${current.word}: the proposal’s current design (marked at the left edge) · ` : ''}<span className="text-short dark:text-short-bright">✕</span> figure short of a blocking check · <span className="text-note dark:text-note-bright">!</span> advisory
         check not met · margins are + on the safe side · select a row (or use ↑ ↓ on a name) to see the option below
       </p>
+      {targets && <p className="mt-1 text-xs text-ink-soft dark:text-night-ink-soft">{outputRejectionNote(targets)}</p>}
     </div>
   );
 }

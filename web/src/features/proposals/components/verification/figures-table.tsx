@@ -25,7 +25,7 @@ export function conditionText(condition: Pick<VerifiedCondition, 'inputCommonMod
 /** Every figure at one condition: the engine's, ngspice's, the difference, the tolerance it is held to, and the verdict. */
 export function FiguresTable({ condition, caption }: { condition: VerifiedCondition; caption: string }) {
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full text-sm">
         <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">
           {caption} ({conditionText(condition)}). Difference: engine minus ngspice, relative to ngspice for percentages.
@@ -78,7 +78,7 @@ export function VerifiedCornersTable({ corners }: { corners: VerifiedCondition[]
   const columns: Pick<VerifiedFigure, 'key' | 'label'>[] = [];
   for (const corner of corners) for (const f of corner.figures) if (!columns.some((c) => c.key === f.key)) columns.push({ key: f.key, label: f.label });
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full text-sm">
         <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">
           At each corner of the spec: ngspice’s figure, and under it the engine’s difference (✓ within tolerance, ✕ outside).

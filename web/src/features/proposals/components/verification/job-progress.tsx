@@ -16,7 +16,7 @@ export function JobProgress({ job, label }: { job: VerificationJobView; label: s
       <div className="flex flex-wrap items-baseline justify-between gap-2 text-sm">
         <p id={`${id}-label`} className="font-medium">
           <span aria-hidden="true" className="mr-1.5 text-fern dark:text-fern-bright">
-            {waiting ? '◔' : '◑'}
+            {waiting ? '⧗' : '⟳'}
           </span>
           {label}: {waiting ? 'waiting for the simulator' : 'simulating'}
         </p>

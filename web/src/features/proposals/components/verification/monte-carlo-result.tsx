@@ -51,7 +51,7 @@ export function MonteCarloResult({
   return (
     <div className="space-y-4">
       <JobFacts job={job} result={result} />
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table className="w-full max-w-xl text-sm">
           <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">
             {name}: differential rejection at {result.condition} (the corner that governs its mismatch worst case) over {counted} of {result.runs} runs (seed {result.seed}); yield is the share at or above {required}

@@ -94,7 +94,7 @@ function OverviewTable({
     event.currentTarget.closest('tbody')?.querySelectorAll<HTMLButtonElement>('button[data-verified-option]')[index + step]?.focus();
   };
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full text-sm">
         <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">Every simulated option; choose one to see its figures.</caption>
         <thead className="text-xs text-ink-soft dark:text-night-ink-soft">

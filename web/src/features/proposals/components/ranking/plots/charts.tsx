@@ -10,7 +10,7 @@ import type { TopologyId } from '../../../../../../../shared/engine/types';
 import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
 import { mixHex } from '../../../lib/colour-mix';
 import { formatDb, formatTargetDb } from '../../../lib/figure-format';
-import { decadeTicksHz, type HistogramPlot, type RejectionPlot, type TemperaturePlot } from '../../../lib/plot-data';
+import { decadeTicksHz, tickLabels, type HistogramPlot, type RejectionPlot, type TemperaturePlot } from '../../../lib/plot-data';
 import { ChartLegend, type LegendItem } from './chart-legend';
 import type { ChartTheme } from './chart-theme';
 import { diamond, horizontalMark, pointLabel, verticalMark } from './draw-marks';
@@ -34,10 +34,10 @@ const logFrequencyScale = (): uPlot.Scale => ({ time: false, distr: 3, log: 10 }
 
 /** The x axis of a plot against log frequency: hertz with SI prefixes, ticks at the decades. */
 const frequencyAxis = (theme: ChartTheme): uPlot.Axis =>
-  axis(theme, 'Frequency (Hz)', (_u, splits) => splits.map((v) => formatQuantity(v, 'Hz')), { splits: (u) => decadeTicksHz(u.scales.x.min!, u.scales.x.max!) });
+  axis(theme, 'Frequency (Hz)', (_u, splits) => tickLabels(splits, (v) => formatQuantity(v, 'Hz')), { splits: (u) => decadeTicksHz(u.scales.x.min!, u.scales.x.max!) });
 
 /** An axis of plain numbers (dB, counts). */
-export const numberAxis = (theme: ChartTheme, label: string, extra: Partial<uPlot.Axis> = {}): uPlot.Axis => axis(theme, label, (_u, splits) => splits.map((v) => String(v)), extra);
+export const numberAxis = (theme: ChartTheme, label: string, extra: Partial<uPlot.Axis> = {}): uPlot.Axis => axis(theme, label, (_u, splits) => tickLabels(splits, String), extra);
 
 /** A y range on whole 10 dB steps leaving at least 5 dB of room below `low` and above `high`. */
 export const roomyDbRange = (low: number, high: number): [number, number] => [Math.floor((low - 5) / 10) * 10, Math.ceil((high + 5) / 10) * 10];
@@ -168,9 +168,9 @@ export function TemperatureChart({ plot }: { plot: TemperaturePlot }) {
       cursor: NO_ZOOM,
       scales: { x: { time: false }, A: {}, gain: {} },
       axes: [
-        axis(theme, 'Temperature (°C)', (_u, splits) => splits.map((v) => formatQuantity(v, '°C'))),
-        axis(theme, 'Tail current (A)', (_u, splits) => splits.map((v) => formatQuantity(v, 'A', 4)), { scale: 'A', size: 68 }),
-        axis(theme, 'Gain (V/V)', (_u, splits, _axis, _space, increment) => splits.map((v) => v.toFixed(decimalsFor(increment))), { scale: 'gain', side: 1, size: 48, grid: { show: false } }),
+        axis(theme, 'Temperature (°C)', (_u, splits) => tickLabels(splits, (v) => formatQuantity(v, '°C'))),
+        axis(theme, 'Tail current (A)', (_u, splits) => tickLabels(splits, (v) => formatQuantity(v, 'A', 4)), { scale: 'A', size: 68 }),
+        axis(theme, 'Gain (V/V)', (_u, splits, _axis, _space, increment) => tickLabels(splits, (v) => v.toFixed(decimalsFor(increment))), { scale: 'gain', side: 1, size: 48, grid: { show: false } }),
       ],
       hooks: { setCursor: [onCursor] },
     }),

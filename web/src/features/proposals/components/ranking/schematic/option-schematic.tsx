@@ -28,17 +28,21 @@ function TailDrawing({ tail }: { tail: TailDesign }) {
   }
 }
 
-/** The option's stage drawn by the app: the pair in soft ink, the tail element (what differs between options) in the accent colour. */
+/**
+ * The option's stage drawn by the app: the pair in soft ink, the tail element (what differs
+ * between options) in the accent colour, on screen and on paper (styles/app.css keeps it when
+ * printing). Every part draws in currentColor, so its group decides its colour.
+ */
 export function OptionSchematic({ design, className }: { design: Design; className?: string }) {
   const negativeV = design.supply.negativeV;
   return (
     <svg viewBox={`0 0 ${VIEW.width} ${VIEW.height}`} role="img" aria-label={schematicDescription(design)} className={className}>
-      <g className="text-ink-soft dark:text-night-ink-soft">
+      <g data-accent="none" className="text-ink-soft opacity-60 dark:text-night-ink-soft">
         <Rail y={RAIL_TOP_Y} x1={RAIL_LEFT_X} x2={RAIL_RIGHT_X} name="V+" volts={formatQuantity(design.supply.positiveV, 'V')} />
         <Rail y={RAIL_BOTTOM_Y} x1={RAIL_LEFT_X} x2={RAIL_RIGHT_X} name="V−" volts={negativeV === 0 ? '0 V (ground)' : formatQuantity(negativeV, 'V')} below />
         <PairDrawing design={design} />
       </g>
-      <g className="text-fern dark:text-fern-bright">
+      <g data-accent="tail" className="schematic-tail text-fern dark:text-fern-bright">
         <TailDrawing tail={design.tail} />
       </g>
     </svg>

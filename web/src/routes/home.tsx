@@ -28,7 +28,7 @@ export function Component() {
   if (!user) return null;
   return (
     <>
-      <PageHeader title="Workbench" eyebrow={heldRoleTitles(user).join(' · ') || 'Member'}>
+      <PageHeader title="Projects" eyebrow={heldRoleTitles(user).join(' · ') || 'Member'}>
         {heldRoles(user).map((role) => ROLE_HINTS[role]).join(' ') || 'An administrator adds you to a project with your role in it; it then appears here.'}
       </PageHeader>
       <section aria-labelledby="projects-heading">

@@ -1,0 +1,55 @@
+/**
+ * The ranking CSV at the precision the ranking page shows: rejection and yield to one decimal
+ * (the page prints "101.8"), currents, powers, impedances, margins and gains to three significant
+ * digits (the page prints "961 µA", "12.3 mW", "49.9"). Hand-made figures, not engine output.
+ */
+import Papa from 'papaparse';
+import { describe, expect, test } from 'vitest';
+import type { RecommendResult } from '../../../shared/engine/recommend';
+import { rankingCsv } from '../../../shared/export/ranking-csv';
+
+function result(): RecommendResult {
+  const option = {
+    topology: 'wilson',
+    rank: 1,
+    passes: true,
+    checks: [],
+    design: { collectorResistanceOhm: 4870, pairEmitterResistanceOhm: 0, tail: { topology: 'wilson', referenceResistanceOhm: 11500 } },
+    predicted: { tailOutputResistanceOhm: 12_345_678, tailCurrentA: 0.000961234, cmrrDb: { singleEnded: 101.8349 } },
+    figures: {
+      tailImpedanceAtFrequencyOhm: 2_345_678,
+      cmrrAtFrequencyDb: 84.4567,
+      cmrrDifferentialWorstCaseDb: 79.04,
+      monteCarloYieldPercent: 99.4567,
+      gainPredicted: 49.8765,
+      gainTarget: 50,
+      powerWorstW: 0.0123456,
+      icmLowMarginV: 1.23456,
+      icmHighMarginV: -0.302345,
+      swingMarginV: 0.0456789,
+    },
+  };
+  return { recommended: 'wilson', options: [option] } as unknown as RecommendResult;
+}
+
+describe('rankingCsv', () => {
+  test('figures are rounded to the precision shown on screen', () => {
+    const [row] = Papa.parse<Record<string, string>>(rankingCsv(result()).trimEnd(), { header: true, newline: '\r\n' }).data;
+    expect(row).toMatchObject({
+      tail_impedance_at_spec_frequency_ohm: '2350000',
+      tail_output_resistance_ohm: '12300000',
+      cmrr_single_ended_dc_db: '101.8',
+      cmrr_single_ended_at_spec_frequency_worst_corner_db: '84.5',
+      cmrr_differential_worst_case_db: '79',
+      monte_carlo_yield_percent: '99.5',
+      gain_v_per_v: '49.9',
+      gain_target_v_per_v: '50',
+      tail_current_a: '0.000961',
+      power_worst_w: '0.0123',
+      icm_low_margin_v: '1.23',
+      icm_high_margin_v: '-0.302',
+      swing_margin_v: '0.0457',
+      collector_resistance_ohm: '4870',
+    });
+  });
+});
