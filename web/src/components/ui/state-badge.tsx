@@ -7,6 +7,8 @@ export const STATE_LABELS: Record<ProposalState, { label: string; glyph: string;
   decided: { label: 'Awaiting review', glyph: '◑', className: 'border-note/40 text-note dark:text-note-bright' },
   returned: { label: 'Returned to designer', glyph: '↺', className: 'border-short/40 text-short dark:text-short-bright' },
   approved: { label: 'Approved', glyph: '●', className: 'border-holds/40 text-holds dark:text-holds-bright' },
+  superseded: { label: 'Closed: spec moved on', glyph: '⤳', className: 'border-rule text-ink-soft dark:border-night-rule dark:text-night-ink-soft' },
+  withdrawn: { label: 'Withdrawn', glyph: '–', className: 'border-rule text-ink-soft dark:border-night-rule dark:text-night-ink-soft' },
 };
 
 export function StateBadge({ state }: { state: ProposalState }) {
