@@ -14,14 +14,17 @@ export interface RuleCase {
   margin: number | null;
   /** Texts the reason must contain (numbers as formatted). */
   texts: string[];
+  /** When given: whether the check carries the thin-margin flag. */
+  thinMargin?: boolean;
 }
 
 /** Registers one test per row for the rule `ruleName`. */
 export function testRuleCases(ruleName: string, expected: { severity: Severity; marginUnit?: string }, rows: RuleCase[]): void {
   const rules = loadRuleFiles().then((all) => all.filter((rule) => rule.name === ruleName));
-  test.each(rows)(`${ruleName}: $title`, async ({ overrides, passed, margin, texts }) => {
+  test.each(rows)(`${ruleName}: $title`, async ({ overrides, passed, margin, texts, thinMargin }) => {
     const [result] = await runRules(await rules, makeOptionFacts(overrides));
     expect(result).toMatchObject({ rule: ruleName, passed, severity: expected.severity, margin });
+    if (thinMargin !== undefined) expect(result.thinMargin ?? false).toBe(thinMargin);
     expect(result.marginUnit).toBe(expected.marginUnit);
     for (const text of texts) expect(result.reason).toContain(text);
   });
