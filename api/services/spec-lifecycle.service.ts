@@ -62,11 +62,13 @@ export interface SpecMovedOn {
   changes: JsonChange[];
   /** The latest version's change note, when its author wrote one. */
   latestNote: string | null;
+  /** The latest version's document (lists in the differences are shown whole). */
+  latestPayload: unknown;
 }
 
 export async function specMovedOn(dataSource: DataSource | EntityManager, proposal: Pick<Proposal, 'specId'>, version: SpecVersion): Promise<SpecMovedOn | null> {
   const spec = await dataSource.getRepository(SpecEntity).findOneOrFail({ select: { id: true, latestVersion: true }, where: { id: proposal.specId } });
   if (spec.latestVersion <= version.version) return null;
   const latest = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ specId: spec.id, version: spec.latestVersion });
-  return { latestVersion: latest.version, latestTitle: latest.title, changes: diffJson(JSON.parse(version.payload), JSON.parse(latest.payload)), latestNote: latest.note };
+  return { latestVersion: latest.version, latestTitle: latest.title, changes: diffJson(JSON.parse(version.payload), JSON.parse(latest.payload)), latestNote: latest.note, latestPayload: JSON.parse(latest.payload) };
 }

@@ -133,7 +133,7 @@ export interface Proposal extends ProposalSummary {
   result: RecommendResult;
   specVersion: { id: number; version: number; title: string; note: string | null; payload: SpecDocument };
   /** Set when the spec has newer versions than the one ranked: the latest and the differences to it. */
-  specMovedOn: { latestVersion: number; latestTitle: string; latestNote: string | null; changes: JsonChange[] } | null;
+  specMovedOn: { latestVersion: number; latestTitle: string; latestNote: string | null; latestPayload: SpecDocument; changes: JsonChange[] } | null;
   decisions: Decision[];
   reviews: Review[];
   allowedEvents: ProposalEvent[];
