@@ -68,7 +68,7 @@ export function Component() {
       >
         Every change saved is a new version; nothing is overwritten. Choose two versions to see what changed between them.
       </PageHeader>
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
         <Sheet title="Versions" className="lg:order-1">
           <VersionPicker versions={versions.items} authorName={authorName} from={from} to={to} onPick={onPick} />
         </Sheet>
