@@ -200,6 +200,7 @@ describe('PUT /api/specs/:id with nothing changed, and change notes', () => {
     ['blank', '   '],
     ['over 1000 characters', 'x'.repeat(1001)],
     ['not text', 42],
+    ['on two lines (a note is one line, like a title)', 'Enclosure rated to 55 °C.\nSee the thermal report.'],
   ])('when the note is %s, then 400 at /note and no version is written', async (_title, note) => {
     const specId = await newSpec();
     const response = await requirements.put(`/api/specs/${specId}`).send({ title: TITLE, payload: revised(), note });

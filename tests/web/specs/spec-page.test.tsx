@@ -36,7 +36,7 @@ function renderSpecPage(saveAnswer: (body: unknown) => MockAnswer) {
     'GET /api/schema/spec': { status: 200, body: specSchema },
     'GET /api/projects/1': { status: 200, body: { id: 1, name: 'Tarn', description: '', createdById: 1, createdAt: at } },
     'GET /api/projects/1/members': { status: 200, body: { items: [WRITER] } },
-    'GET /api/projects/1/devices': { status: 200, body: { items: [] } },
+    'GET /api/projects/1/devices?page=1&pageSize=100&state=library': { status: 200, body: { items: [], total: 0, page: 1, pageSize: 100 } },
     'GET /api/auth/csrf': { status: 200, body: { token: 't' } },
     'PUT /api/specs/7': saveAnswer,
   });

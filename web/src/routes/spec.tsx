@@ -85,17 +85,17 @@ export function Component() {
           <label htmlFor={noteId} className="block font-medium">
             Change note <span className="font-normal text-ink-soft dark:text-night-ink-soft">(optional, kept with the next version)</span>
           </label>
-          <textarea
+          <input
             id={noteId}
+            type="text"
             value={changeNote}
             onChange={(e) => setChangeNote(e.target.value)}
-            rows={2}
             maxLength={1000}
             aria-describedby={`${noteId}-hint`}
             className="mt-1 w-full rounded-md border border-rule bg-sheet px-3 py-2 dark:border-night-rule dark:bg-night"
           />
           <p id={`${noteId}-hint`} className="mt-1 text-xs text-ink-soft dark:text-night-ink-soft">
-            What changed and why, in a sentence or two; shown in the history and beside rankings of older versions. At most 1000 characters.
+            What changed and why, in one line; shown in the history and beside rankings of older versions. At most 1000 characters.
           </p>
         </div>
       )}
