@@ -174,7 +174,7 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
       break;
     case 'proposal.superseded': {
       const many = facts.closed.length > 1;
-      subject = `${many ? `${facts.closed.length} proposals` : `Proposal #${facts.closed[0]?.proposalId}`} closed: ${facts.specTitle} moved on to version ${facts.specVersion}`;
+      subject = `${many ? `${facts.closed.length} proposals` : `Proposal #${facts.closed[0]?.proposalId}`} closed: the spec moved on to version ${facts.specVersion}`;
       body = [
         `${facts.rankedBy} had version ${facts.specVersion} of the spec ranked (${name}). ${many ? 'These proposals of older versions were' : 'This proposal of an older version was'} still waiting for a decision and ${many ? 'are' : 'is'} now closed as superseded:`,
         '',

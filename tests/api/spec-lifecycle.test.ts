@@ -95,7 +95,7 @@ describe('when a newer version of a spec is ranked', () => {
     // designer2 designs in the project; requirements asked for one of them; the designer ranked the newer one.
     expect(to).toEqual([`designer2@tests.longtail.test`, `requirements@tests.longtail.test`]);
     for (const row of rows) {
-      expect(row.subject).toBe(`2 proposals closed: ${TITLE} moved on to version 2`);
+      expect(row.subject).toBe('2 proposals closed: the spec moved on to version 2');
       expect(row.body).toContain(`#${ids.ranked} (spec version 1)`);
       expect(row.body).toContain(`#${ids.returned} (spec version 1)`);
     }

@@ -68,7 +68,7 @@ afterEach(() => {
 
 function renderHistory() {
   const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  const user: User = { id: 3, email: 'd@example.test', displayName: 'Pat Example', role: 'designer', createdAt: at };
+  const user: User = { id: 3, email: 'd@example.test', displayName: 'Pat Example', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: at };
   queryClient.setQueryData(authKeys.me(), user);
   const Stub = createRoutesStub([{ path: '/specs/:specId/history', Component, loader: loader(queryClient), ErrorBoundary, HydrateFallback: () => <p>Loading…</p> }]);
   render(

@@ -5,7 +5,7 @@
  */
 import { useId, useState } from 'react';
 import { Link } from 'react-router-dom';
-import { may } from '../../../../../shared/workflow/roles';
+import { mayAs } from '../../../../../shared/workflow/roles';
 import { Button } from '../../../components/ui/button';
 import { paths } from '../../../config/paths';
 import { ApiError } from '../../../lib/api';
@@ -55,7 +55,7 @@ export function LifecyclePanel({ proposal, user }: { proposal: Proposal; user: U
         {proposal.closedReason && <p className="mt-1 break-words whitespace-pre-line">“{proposal.closedReason}”</p>}
       </aside>
     );
-  const mayWithdraw = proposal.allowedEvents.includes('withdraw') && may(user.role, 'proposals:withdraw') && (may(user.role, 'proposals:decide') || proposal.createdById === user.id);
+  const mayWithdraw = proposal.allowedEvents.includes('withdraw') && mayAs(user, proposal.projectId, 'proposals:withdraw') && (mayAs(user, proposal.projectId, 'proposals:decide') || proposal.createdById === user.id);
   return mayWithdraw ? <WithdrawForm proposalId={proposal.id} /> : null;
 }
 
