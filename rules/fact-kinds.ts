@@ -46,6 +46,8 @@ export const FACT_KINDS: { readonly [K in keyof OptionFacts]-?: KindOf<OptionFac
   gainWorstCornerErrorPercent: 'number',
   gainWorstCorner: 'text',
   gainOverConditionsMarginPercent: 'number',
+  gainOverConditionsCause: 'text',
+  gainOverConditionsRemedy: 'text',
   icmLowMarginV: 'number',
   icmLowV: 'number',
   icmHighMarginV: 'number',

@@ -131,6 +131,7 @@ function toCheck(rule: RuleFile, passed: boolean | undefined, facts: Readonly<Op
   }
   const check: Check = { rule: rule.name, passed, severity: params.severity, reason, margin: value, applicable: !notApplicable };
   if (params.marginUnit !== null) check.marginUnit = params.marginUnit;
+  if (passed && params.thinMarginBelow !== undefined && typeof value === 'number' && value < params.thinMarginBelow) check.thinMargin = true;
   return check;
 }
 

@@ -15,6 +15,8 @@ export interface CheckParams {
   /** Boolean fact; when it is false the check passes as not applicable, with notApplicableReason. */
   appliesWhen?: keyof OptionFacts;
   notApplicableReason?: string;
+  /** A passing check whose margin is below this (in marginUnit) is flagged as a thin margin. */
+  thinMarginBelow?: number;
 }
 
 /** One `rules/<name>.json`: a json-rules-engine rule whose name is its file name. */
@@ -32,7 +34,7 @@ const OPERATORS = [
   'in', 'notIn', 'contains', 'doesNotContain',
 ];
 const PARAM_KEYS = [
-  'severity', 'marginFact', 'marginUnit', 'passReason', 'failReason', 'appliesWhen', 'notApplicableReason',
+  'severity', 'marginFact', 'marginUnit', 'passReason', 'failReason', 'appliesWhen', 'notApplicableReason', 'thinMarginBelow',
 ];
 
 type Json = Record<string, unknown>;
@@ -74,6 +76,11 @@ function paramsProblems(p: Json, conditions: unknown): string[] {
       problems.push(`/event/params/marginFact: must be a numeric fact or null, got ${JSON.stringify(p.marginFact)}`);
     if (typeof p.marginUnit !== 'string' || p.marginUnit === '')
       problems.push('/event/params/marginUnit: must be a unit string');
+  }
+  if (p.thinMarginBelow !== undefined) {
+    if (typeof p.thinMarginBelow !== 'number' || !Number.isFinite(p.thinMarginBelow) || p.thinMarginBelow <= 0)
+      problems.push('/event/params/thinMarginBelow: must be a positive number');
+    if (p.marginFact === null) problems.push('/event/params/thinMarginBelow: needs a marginFact');
   }
   const templates = ['passReason', 'failReason', ...(p.appliesWhen === undefined ? [] : ['notApplicableReason'])];
   for (const key of templates) {

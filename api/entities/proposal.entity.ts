@@ -14,6 +14,13 @@ export interface Proposal {
   result: string;
   recommendedTopology: string | null;
   status: ProposalState;
+  /** Superseded: the newer proposal that closed this one. */
+  supersededById: number | null;
+  /** Withdrawn: the reason given. */
+  closedReason: string | null;
+  /** Who closed it (null when the server did, on superseding). */
+  closedById: number | null;
+  closedAt: string | null;
   createdById: number;
   createdAt: string;
   updatedAt: string;
@@ -32,6 +39,10 @@ export const ProposalEntity = new EntitySchema<Proposal>({
     result: textColumn(),
     recommendedTopology: { ...shortTextColumn(40, true), name: 'recommended_topology' },
     status: shortTextColumn(20),
+    supersededById: foreignKeyColumn('superseded_by_id', true),
+    closedReason: { ...textColumn(true), name: 'closed_reason' },
+    closedById: foreignKeyColumn('closed_by_id', true),
+    closedAt: { ...timestampColumn('closed_at'), nullable: true },
     createdById: foreignKeyColumn('created_by_id'),
     createdAt: timestampColumn('created_at'),
     updatedAt: timestampColumn('updated_at'),

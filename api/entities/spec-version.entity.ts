@@ -8,6 +8,8 @@ export interface SpecVersion {
   version: number;
   title: string;
   payload: string;
+  /** What changed and why, in the author's words (optional). */
+  note: string | null;
   createdById: number;
   createdAt: string;
 }
@@ -21,6 +23,7 @@ export const SpecVersionEntity = new EntitySchema<SpecVersion>({
     version: { type: 'integer' },
     title: shortTextColumn(200),
     payload: textColumn(),
+    note: textColumn(true),
     createdById: foreignKeyColumn('created_by_id'),
     createdAt: timestampColumn('created_at'),
   },

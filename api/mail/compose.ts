@@ -11,7 +11,7 @@ import { commentLines, singleLine } from '../../shared/text/plain-text';
 import type { DecisionKind } from '../entities/decision.entity';
 import { currentDesignName, currentDesignSummary } from '../../shared/workflow/current-design';
 
-export type NotificationKind = 'proposal.ready' | 'proposal.decided' | 'proposal.approved' | 'proposal.returned';
+export type NotificationKind = 'proposal.ready' | 'proposal.decided' | 'proposal.approved' | 'proposal.returned' | 'proposal.superseded';
 
 /** What every message says about the proposal. */
 export interface ProposalFacts {
@@ -46,7 +46,9 @@ export type MessageFacts =
       decision: DecisionFacts;
       /** A sign-off: the SPICE verification job it relied on (null: none about the design), and whether that job simulated another design. */
       verification?: { jobId: number | null; staleAccepted: boolean };
-    });
+    })
+  /** The facts of the newer proposal, and the older ones it closed. */
+  | (ProposalFacts & { kind: 'proposal.superseded'; rankedBy: string; closed: { proposalId: number; specVersion: number; link: string }[] });
 
 export interface ComposedMessage {
   subject: string;
@@ -95,7 +97,7 @@ const quoted = (label: string, text: string | null) => (text ? [`${label}:`, ...
 /** The facts with every one-line user text (titles, names) on one line, control characters and bidi controls blanked. */
 function plainFacts(facts: MessageFacts): MessageFacts {
   const common = { ...facts, projectName: singleLine(facts.projectName), specTitle: singleLine(facts.specTitle) };
-  if (common.kind === 'proposal.ready') return { ...common, rankedBy: singleLine(common.rankedBy) };
+  if (common.kind === 'proposal.ready' || common.kind === 'proposal.superseded') return { ...common, rankedBy: singleLine(common.rankedBy) };
   const decision = { ...common.decision, decidedBy: singleLine(common.decision.decidedBy) };
   if (common.kind === 'proposal.decided') return { ...common, decision };
   return { ...common, decision, reviewedBy: singleLine(common.reviewedBy) };
@@ -170,6 +172,21 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
         `The review and the proposal: ${facts.link}`,
       ];
       break;
+    case 'proposal.superseded': {
+      const many = facts.closed.length > 1;
+      subject = `${many ? `${facts.closed.length} proposals` : `Proposal #${facts.closed[0]?.proposalId}`} closed: the spec moved on to version ${facts.specVersion}`;
+      body = [
+        `${facts.rankedBy} had version ${facts.specVersion} of the spec ranked (${name}). ${many ? 'These proposals of older versions were' : 'This proposal of an older version was'} still waiting for a decision and ${many ? 'are' : 'is'} now closed as superseded:`,
+        '',
+        ...facts.closed.map((c) => `  #${c.proposalId} (spec version ${c.specVersion}): ${c.link}`),
+        '',
+        projectLine(facts),
+        specLine(facts),
+        '',
+        `Decide on the newer version instead: ${facts.link}`,
+      ];
+      break;
+    }
   }
   const text = [
     `Hello ${recipientName},`,

@@ -10,6 +10,7 @@ import { AccountControls1764800300000 } from './1764800300000-account-controls';
 import { ProjectMemberRoles1764800400000 } from './1764800400000-project-member-roles';
 import { MailDigest1764800400100 } from './1764800400100-mail-digest';
 import { DesignBinding1764800500000 } from './1764800500000-design-binding';
+import { SpecLifecycle1764800600000 } from './1764800600000-spec-lifecycle';
 
 export const MIGRATIONS = [
   InitialSchema1764612000000,
@@ -23,4 +24,5 @@ export const MIGRATIONS = [
   ProjectMemberRoles1764800400000,
   MailDigest1764800400100,
   DesignBinding1764800500000,
+  SpecLifecycle1764800600000,
 ];

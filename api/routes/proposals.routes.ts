@@ -1,4 +1,4 @@
-/** One proposal: read it, check own values, decide, review, its audit trail, and its exports (CSV, JSON, SPICE netlist). */
+/** One proposal: read it, check own values, decide, review, withdraw, its audit trail, and its exports (CSV, JSON, SPICE netlist). */
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import type { RuleSet } from '../../shared/engine/types';
@@ -8,8 +8,8 @@ import { validateDesign } from '../../shared/validate';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
 import { allMeasurements } from '../services/measurements.service';
-import { decide, evaluateOverride, getProposal, proposalAudit, proposalNetlist, review } from '../services/proposals.service';
-import { DECISION_BODY, EVALUATION_BODY, MONTE_CARLO_BODY, NETLIST_QUERY, REVIEW_BODY } from '../validation/bodies';
+import { decide, evaluateOverride, getProposal, proposalAudit, proposalNetlist, review, withdraw } from '../services/proposals.service';
+import { DECISION_BODY, EVALUATION_BODY, MONTE_CARLO_BODY, NETLIST_QUERY, REVIEW_BODY, WITHDRAWAL_BODY } from '../validation/bodies';
 import { requestMonteCarlo, requestVerification, verificationStatus } from '../services/verification.service';
 import type { VerificationQueue } from '../verification/verification-queue';
 import { idParam, validateBody, validateQuery } from '../validation/validate-request';
@@ -30,6 +30,9 @@ export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet, verifi
   });
   router.post('/:id/review', requirePermission('proposals:review'), validateBody(REVIEW_BODY), async (req, res) => {
     res.status(201).json(await review(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), req.body));
+  });
+  router.post('/:id/withdrawal', requirePermission('proposals:withdraw'), validateBody(WITHDRAWAL_BODY), async (req, res) => {
+    res.status(201).json(await withdraw(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), req.body));
   });
   router.get('/:id/ranking.csv', async (req, res) => {
     const proposal = await getProposal(dataSource, currentUser(req), idParam(req.params.id, 'proposal'));

@@ -53,16 +53,28 @@ export async function seedDemo(dataSource: DataSource, ruleSet: RuleSet, passwor
     return created;
   };
 
-  // 1. Load-cell amplifier: spec revised once, recommendation accepted and approved.
+  // 1. Load-cell amplifier: rev A ranked, the spec revised (rev B, with its change note), rev B ranked
+  // (closing the rev A ranking as superseded), decided and approved.
   const loadCell = await project('Kestrel load-cell amplifier', 'Bridge receiver for the 350 Ω load-cell family; differential output into the 24-bit converter.');
   const bridge = demoSpec('strain-bridge-receiver.json');
   const bridgeSpec = await createSpec(dataSource, people.requirements, loadCell.id, { title: bridge.title.replace('rev B', 'rev A'), payload: { ...bridge, cmrr: { ...(bridge.cmrr as object), marginDb: 3 } } });
-  await updateSpec(dataSource, people.requirements, bridgeSpec.id, { title: bridge.title, payload: bridge });
+  await createProposal(dataSource, people.requirements, bridgeSpec.id, ruleSet);
+  await updateSpec(dataSource, people.requirements, bridgeSpec.id, { title: bridge.title, payload: bridge, note: 'Rejection margin raised from 3 dB to 6 dB after the rev A board picked up hum from the scale’s motor drive.' });
   // Its device library, uploaded by the systems engineer as the upload route does (checksum, audit events)
   await uploadDeviceModels(dataSource, people.requirements, loadCell.id, { originalName: DEMO_DEVICE_FILE, bytes: readFileSync(join(demoDir, 'devices', DEMO_DEVICE_FILE)) });
   const bridgeProposal = await createProposal(dataSource, people.designer, bridgeSpec.id, ruleSet);
-  await decide(dataSource, people.designer, bridgeProposal.id, { kind: 'accept' }, ruleSet);
-  await review(dataSource, people.reviewer, bridgeProposal.id, { verdict: 'approve', comment: 'Margins hold at the hot corner; matches the bench notes from the rev A board.' });
+  // Ranking rev B closed the rev A ranking as superseded. No option of rev B holds 42 V/V ±8 % from
+  // −20 to 65 °C with a tail current flat in temperature, so the designer chooses with a reason.
+  if (bridgeProposal.result.recommended) await decide(dataSource, people.designer, bridgeProposal.id, { kind: 'accept' }, ruleSet);
+  else
+    await decide(
+      dataSource,
+      people.designer,
+      bridgeProposal.id,
+      { kind: 'choose', topology: 'degenerated-mirror', reason: 'No option holds the gain over the full temperature range with this tail; the converter’s span calibration against the excitation takes the drift out, and the degenerated mirror keeps the rejection with room to spare.' },
+      ruleSet,
+    );
+  await review(dataSource, people.reviewer, bridgeProposal.id, { verdict: 'approve', comment: 'Rejection margins hold at the hot corner; gain drift over temperature accepted on the strength of the span calibration (rev A bench notes).' });
 
   // 2. Studio interface: ranked, waiting for the designer.
   // Wren designs here and reviews on the biosignal front end: roles are per project.

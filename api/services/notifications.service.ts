@@ -10,7 +10,9 @@
  * - a proposal ranked: the project's designers ("ready for decision");
  * - a decision recorded: the project's reviewers ("decided");
  * - a review: the spec's author (and the author of the ranked version, when another person)
- *   and the designer whose decision was reviewed ("approved" / "returned").
+ *   and the designer whose decision was reviewed ("approved" / "returned");
+ * - older rankings closed as superseded by a newer one: the project's designers, whoever asked
+ *   for a closed ranking and the designer of a closed one's last decision, in one digest each.
  */
 import { In, MoreThan, type DataSource, type EntityManager } from 'typeorm';
 import { DecisionEntity, type Decision } from '../entities/decision.entity';
@@ -29,7 +31,9 @@ import { composeMessage, DIGEST_AFTER, DIGEST_WINDOW_MS, type DecisionFacts, typ
 export type NotificationEvent =
   | { kind: 'proposal.ready'; proposalId: number; actorId: number }
   | { kind: 'proposal.decided'; proposalId: number; decisionId: number; actorId: number }
-  | { kind: 'proposal.approved' | 'proposal.returned'; proposalId: number; reviewId: number; actorId: number };
+  | { kind: 'proposal.approved' | 'proposal.returned'; proposalId: number; reviewId: number; actorId: number }
+  /** `proposalId` is the newer proposal; `closedIds` the older ones it superseded. */
+  | { kind: 'proposal.superseded'; proposalId: number; closedIds: number[]; actorId: number };
 
 export interface NotificationSettings {
   /** Where links in messages point (the app's public address, no trailing slash). */
@@ -133,6 +137,15 @@ export async function queueNotification(manager: EntityManager, event: Notificat
     const decisionNumber = await manager.getRepository(DecisionEntity).countBy({ proposalId: proposal.id });
     facts = { ...base, kind: event.kind, decision: decisionFacts(decision, proposal.recommendedTopology, nameOf(decision.decidedById)), decisionNumber };
     for (const member of members) if (projectRoleOf.get(member.id) === 'reviewer') tell(member.id, `you review in ${inProject}`);
+  } else if (event.kind === 'proposal.superseded') {
+    const closed = await manager.getRepository(ProposalEntity).find({ select: { id: true, specVersionId: true, createdById: true }, where: { id: In(event.closedIds) }, order: { id: 'ASC' } });
+    const versions = await manager.getRepository(SpecVersionEntity).find({ select: { id: true, version: true }, where: { id: In([...new Set(closed.map((c) => c.specVersionId))]) } });
+    const numberOf = new Map(versions.map((v) => [v.id, v.version]));
+    facts = { ...base, kind: event.kind, rankedBy: nameOf(event.actorId), closed: closed.map((c) => ({ proposalId: c.id, specVersion: numberOf.get(c.specVersionId) ?? 0, link: `${baseUrl}/proposals/${c.id}` })) };
+    for (const member of members) if (projectRoleOf.get(member.id) === 'designer') tell(member.id, `you design in ${inProject}`);
+    for (const c of closed) tell(c.createdById, `you asked for proposal #${c.id}`);
+    const decisions = await manager.getRepository(DecisionEntity).find({ select: { id: true, proposalId: true, decidedById: true }, where: { proposalId: In(event.closedIds) }, order: { id: 'ASC' } });
+    for (const d of decisions) tell(d.decidedById, `you decided proposal #${d.proposalId}`);
   } else {
     const review = await manager.getRepository(ReviewEntity).findOneByOrFail({ id: event.reviewId });
     const decision = await manager.getRepository(DecisionEntity).findOneByOrFail({ id: review.decisionId });
@@ -160,7 +173,7 @@ export async function queueNotification(manager: EntityManager, event: Notificat
   for (const userId of recipients) {
     const person = byId.get(userId)!;
     const reasons = told.get(userId)!;
-    const { subject, text } = composeMessage(facts, person.displayName, reasons.join(' and '));
+    const { subject, text } = composeMessage(facts, person.displayName, [...new Set(reasons)].join(' and '));
     // Beyond DIGEST_AFTER messages within the window, the row waits for the person's digest.
     const digestAt = held.get(userId) ?? null;
     rows.push({

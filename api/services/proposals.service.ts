@@ -10,9 +10,10 @@ import type { RecommendOption } from '../../shared/engine/recommend';
 import { spiceNetlist } from '../../shared/engine/netlist';
 import type { Design, RuleSet, TopologyId } from '../../shared/engine/types';
 import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
-import type { Action } from '../../shared/workflow/roles';
+import { mayIn, type Action } from '../../shared/workflow/roles';
 import { AuditEventEntity } from '../entities/audit-event.entity';
 import { DecisionEntity, type Decision, type DecisionKind } from '../entities/decision.entity';
+import { ProjectMemberEntity } from '../entities/project-member.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { ReviewEntity, type Review, type Verdict } from '../entities/review.entity';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
@@ -27,6 +28,7 @@ import { topologyName } from '../../shared/engine/topology-names';
 import { libraryCardNetlistComment } from './devices.service';
 import { queueNotification } from './notifications.service';
 import { projectFor } from './projects.service';
+import { specMovedOn, supersedeOlderRankings } from './spec-lifecycle.service';
 import { checkedSpecDocument, latestVersion, specFor } from './specs.service';
 import type { PublicUser } from './users.service';
 
@@ -42,6 +44,10 @@ const SUMMARY_COLUMNS = {
   rulesetVersion: true,
   recommendedTopology: true,
   status: true,
+  supersededById: true,
+  closedReason: true,
+  closedById: true,
+  closedAt: true,
   createdById: true,
   createdAt: true,
   updatedAt: true,
@@ -121,7 +127,8 @@ export async function getProposal(dataSource: DataSource, viewer: Viewer, propos
   return {
     ...proposal,
     result,
-    specVersion: { id: version.id, version: version.version, title: version.title, payload: JSON.parse(version.payload) },
+    specVersion: { id: version.id, version: version.version, title: version.title, note: version.note, payload: JSON.parse(version.payload) },
+    specMovedOn: await specMovedOn(dataSource, proposal, version),
     decisions: decisions.map(decisionView),
     reviews,
     allowedEvents: allowedEvents(proposal.status),
@@ -172,6 +179,10 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
       result: resultText,
       recommendedTopology: recommended,
       status: 'ranked' as ProposalState,
+      supersededById: null,
+      closedReason: null,
+      closedById: null,
+      closedAt: null,
       createdById: actor.id,
       createdAt: now,
       updatedAt: now,
@@ -187,12 +198,14 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
       details: { specVersion: version.version, recommended, status: 'ranked' },
     });
     await queueNotification(manager, { kind: 'proposal.ready', proposalId: saved.id, actorId: actor.id });
+    await supersedeOlderRankings(manager, actor.id, saved, version);
     return saved;
   });
   const { result: _stored, ...summary } = proposal;
   const envelope = {
     ...summary,
-    specVersion: { id: version.id, version: version.version, title: version.title, payload: JSON.parse(version.payload) as unknown },
+    specVersion: { id: version.id, version: version.version, title: version.title, note: version.note, payload: JSON.parse(version.payload) as unknown },
+    specMovedOn: null,
     decisions: [],
     reviews: [],
     allowedEvents: allowedEvents('ranked'),
@@ -413,6 +426,38 @@ export async function review(dataSource: DataSource, actor: Viewer, proposalId: 
       },
     });
     await queueNotification(manager, { kind: input.verdict === 'approve' ? 'proposal.approved' : 'proposal.returned', proposalId, reviewId: saved.id, actorId: actor.id });
+  });
+  return getProposal(dataSource, actor, proposalId);
+}
+
+/**
+ * Withdraws an open proposal with a reason: its author, or a designer of the project. The
+ * record stays (decisions, reviews, audit), closed for good.
+ */
+export async function withdraw(dataSource: DataSource, actor: Viewer, proposalId: number, input: { reason: string }) {
+  const reason = input.reason.trim();
+  if (!reason) throw invalid([{ path: '/reason', message: 'is required: say why the proposal is withdrawn' }]);
+  await dataSource.transaction(async (manager) => {
+    await lockRowForUpdate(manager, ProposalEntity, proposalId);
+    const proposal = await proposalFor(manager, actor, proposalId, 'proposals:withdraw');
+    // A designer of this project, or whoever asked for the proposal.
+    const membership = await manager.getRepository(ProjectMemberEntity).findOneBy({ projectId: proposal.projectId, userId: actor.id });
+    if (proposal.createdById !== actor.id && !mayIn(actor.role, membership?.role, 'proposals:decide'))
+      throw new AppError('not-yours', 403, 'Only the person who asked for this proposal, or a designer, can withdraw it.');
+    const status = transition(proposal, 'withdraw');
+    const now = new Date().toISOString();
+    await manager.getRepository(ProposalEntity).update({ id: proposalId }, { status, closedReason: reason, closedById: actor.id, closedAt: now, updatedAt: now });
+    await recordEvent(manager, {
+      actorId: actor.id,
+      action: 'proposal.withdrawn',
+      entityType: 'proposal',
+      entityId: proposalId,
+      projectId: proposal.projectId,
+      proposalId,
+      beforeId: proposalId,
+      afterId: proposalId,
+      details: { from: proposal.status, to: status, reason },
+    });
   });
   return getProposal(dataSource, actor, proposalId);
 }

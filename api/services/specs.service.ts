@@ -20,7 +20,12 @@ type Viewer = Pick<PublicUser, 'id' | 'role'>;
 export interface SpecInput {
   title: string;
   payload: unknown;
+  /** What changed and why (optional; stored with the version). */
+  note?: string;
 }
+
+/** The note as stored: trimmed, null when absent or blank. */
+const noteOf = (input: Pick<SpecInput, 'note'>) => input.note?.trim() || null;
 
 /** The spec document checked against the schema (defaults applied); errors located under /payload. */
 export function checkedSpecDocument(payload: unknown): SpecDocument {
@@ -69,7 +74,7 @@ export async function createSpec(dataSource: DataSource, actor: Viewer, projectI
   const document = checkedSpecDocument({ ...(input.payload as object), title: input.title.trim() });
   return dataSource.transaction(async (manager) => {
     await projectFor(manager, actor, projectId, 'specs:write');
-    const { spec, version } = await insertSpec(manager, actor, projectId, input.title.trim(), document);
+    const { spec, version } = await insertSpec(manager, actor, projectId, input.title.trim(), document, {}, noteOf(input));
     return { ...spec, latest: specVersionView(version) };
   });
 }
@@ -78,10 +83,10 @@ export async function createSpec(dataSource: DataSource, actor: Viewer, projectI
  * Inside the caller's transaction: a new spec with its first version and its `spec.created`
  * event (`details` adds to the event's details, e.g. the import row it came from).
  */
-export async function insertSpec(manager: EntityManager, actor: Viewer, projectId: number, title: string, document: SpecDocument, details: Record<string, unknown> = {}) {
+export async function insertSpec(manager: EntityManager, actor: Viewer, projectId: number, title: string, document: SpecDocument, details: Record<string, unknown> = {}, note: string | null = null) {
   const now = new Date().toISOString();
   const spec = await manager.getRepository(SpecEntity).save({ projectId, title, latestVersion: 1, createdById: actor.id, createdAt: now, updatedAt: now });
-  const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: 1, title: spec.title, payload: JSON.stringify(document), createdById: actor.id, createdAt: now });
+  const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: 1, title: spec.title, payload: JSON.stringify(document), note, createdById: actor.id, createdAt: now });
   await recordEvent(manager, { actorId: actor.id, action: 'spec.created', entityType: 'spec', entityId: spec.id, projectId, afterId: version.id, details: { title: spec.title, version: 1, ...details } });
   return { spec, version };
 }
@@ -90,10 +95,10 @@ export async function insertSpec(manager: EntityManager, actor: Viewer, projectI
  * Inside the caller's transaction: the spec's next version (after `previous`, its latest), the
  * spec moved to it, and the `spec.version-created` event with the number of changed fields.
  */
-export async function insertSpecVersion(manager: EntityManager, actor: Viewer, spec: Spec, previous: SpecVersion, title: string, document: SpecDocument, details: Record<string, unknown> = {}) {
+export async function insertSpecVersion(manager: EntityManager, actor: Viewer, spec: Spec, previous: SpecVersion, title: string, document: SpecDocument, details: Record<string, unknown> = {}, note: string | null = null) {
   const now = new Date().toISOString();
   const number = spec.latestVersion + 1;
-  const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: number, title, payload: JSON.stringify(document), createdById: actor.id, createdAt: now });
+  const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: number, title, payload: JSON.stringify(document), note, createdById: actor.id, createdAt: now });
   await manager.getRepository(SpecEntity).update({ id: spec.id }, { latestVersion: number, title: version.title, updatedAt: now });
   await recordEvent(manager, {
     actorId: actor.id,
@@ -103,7 +108,7 @@ export async function insertSpecVersion(manager: EntityManager, actor: Viewer, s
     projectId: spec.projectId,
     beforeId: previous.id,
     afterId: version.id,
-    details: { version: number, changes: diffJson(JSON.parse(previous.payload), document).length, ...details },
+    details: { version: number, changes: diffJson(JSON.parse(previous.payload), document).length, ...(note ? { note } : {}), ...details },
   });
   return { spec: { ...spec, title: version.title, latestVersion: number, updatedAt: now }, version };
 }
@@ -115,9 +120,16 @@ export async function updateSpec(dataSource: DataSource, actor: Viewer, specId: 
     await lockRowForUpdate(manager, SpecEntity, specId);
     const spec = await specFor(manager, actor, specId, 'specs:write');
     const previous = await latestVersion(manager, spec);
-    const written = await insertSpecVersion(manager, actor, spec, previous, input.title.trim(), document);
-    return { ...written.spec, latest: specVersionView(written.version) };
+    // Nothing to record when the document (defaults applied, title included) is what the latest version holds.
+    if (sameDocument(JSON.parse(previous.payload), document)) return { ...spec, latest: specVersionView(previous), unchanged: true };
+    const written = await insertSpecVersion(manager, actor, spec, previous, input.title.trim(), document, {}, noteOf(input));
+    return { ...written.spec, latest: specVersionView(written.version), unchanged: false };
   });
+}
+
+/** Two spec documents hold the same values (key order aside). */
+export function sameDocument(a: unknown, b: unknown): boolean {
+  return diffJson(a, b).length === 0;
 }
 
 export async function listVersions(dataSource: DataSource, viewer: Viewer, specId: number) {

@@ -43,8 +43,8 @@ export const NEW_PROJECT_BODY = strict({ name: name(160), description: text(4000
 /** POST /api/projects/:id/members: add the person with the role they hold in this project (or change it). */
 export const MEMBERSHIP_BODY = strict({ userId: { type: 'integer', minimum: 1 }, role: { enum: [...PROJECT_ROLES] } }, ['userId', 'role']);
 
-/** The spec document itself is checked against shared/schema/spec.schema.json by the service. */
-export const SPEC_BODY = strict({ title: name(200), payload: { type: 'object' } }, ['title', 'payload']);
+/** `note`: what changed and why, optional, text like a title. The spec document itself is checked against shared/schema/spec.schema.json by the service. */
+export const SPEC_BODY = strict({ title: name(200), payload: { type: 'object' }, note: name(1000) }, ['title', 'payload']);
 
 export const DECISION_BODY = {
   ...strict(
@@ -60,6 +60,9 @@ export const DECISION_BODY = {
 
 /** `acceptStaleVerification`: sign off on a verification that simulated another design (with a comment; see review() in proposals.service). */
 export const REVIEW_BODY = strict({ verdict: { enum: ['approve', 'return'] }, comment: text(4000), acceptStaleVerification: { type: 'boolean' } }, ['verdict']);
+
+/** POST /api/proposals/:id/withdrawal: why the proposal is withdrawn (multi-line text like a decision's reason; blank is refused by the service). */
+export const WITHDRAWAL_BODY = strict({ reason: { ...text(4000), minLength: 1 } }, ['reason']);
 
 /** `?page=1&pageSize=20`: pages count from 1; at most 100 a page. Every paged list takes these two. */
 const PAGE_FIELDS = {

@@ -76,6 +76,34 @@ function routNote(routOhm: number, closedForm: { valueOhm: number | null; formul
   return `${formatQuantity(routOhm, 'Ohm')} by node analysis (textbook ${closedForm.formula} ${textbook})`;
 }
 
+/**
+ * Whether temperature or input common mode moves the gain more at the governing corner: the
+ * gain change to the corner with the other temperature (same common mode) against the change to
+ * the corner with the other common mode (same temperature).
+ */
+function gainSpreadCause(corners: readonly ConditionFigures[], worstLabel: string): 'temperature' | 'input common mode' {
+  const worst = corners.find((c) => c.label === worstLabel) as ConditionFigures;
+  const otherTemperature = corners.find((c) => c.inputCommonModeV === worst.inputCommonModeV && c.temperatureC !== worst.temperatureC);
+  const otherCommonMode = corners.find((c) => c.temperatureC === worst.temperatureC && c.inputCommonModeV !== worst.inputCommonModeV);
+  const byTemperature = otherTemperature ? Math.abs(worst.gain - otherTemperature.gain) : 0;
+  const byCommonMode = otherCommonMode ? Math.abs(worst.gain - otherCommonMode.gain) : 0;
+  return byCommonMode > byTemperature ? 'input common mode' : 'temperature';
+}
+
+/**
+ * What would hold the gain over the spec's range. Temperature: |Ad| = IC·RC/VT falls as VT rises
+ * unless IC rises with T (a PTAT tail, e.g. a ΔVBE cell [GM]), or pair emitter degeneration makes
+ * the gain lean on RC/RE rather than on gm. Common mode: the tail current follows the input through
+ * a resistor tail, and through a current source's finite output resistance.
+ */
+function gainRemedy(cause: 'temperature' | 'input common mode', resistorTail: boolean): string {
+  if (cause === 'temperature')
+    return 'pair emitter degeneration (the gain then rests on RC/RE more than on IC/VT) or a tail current that rises with temperature (proportional to absolute temperature, as from a ΔVBE cell)';
+  return resistorTail
+    ? 'a current-source tail instead of the resistor (the tail current then stops following the input common mode)'
+    : 'a tail with a higher output resistance (its current then moves less with the input common mode)';
+}
+
 function frequencyGrid(): number[] {
   const decades = Math.log10(CURVE_STOP_HZ / CURVE_START_HZ);
   return Array.from({ length: decades * CURVE_POINTS_PER_DECADE + 1 }, (_, i) => CURVE_START_HZ * 10 ** (i / CURVE_POINTS_PER_DECADE));
@@ -143,6 +171,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const gainErrorPercent = ((gainNominal - spec.gain.target) / spec.gain.target) * 100;
   const cornerGainErrors = cornerFigures.map((c) => ({ label: c.label, errorPercent: ((c.gain - spec.gain.target) / spec.gain.target) * 100 }));
   const worstGain = cornerGainErrors.reduce((a, b) => (Math.abs(b.errorPercent) > Math.abs(a.errorPercent) ? b : a));
+  const gainCause = gainSpreadCause(cornerFigures, worstGain.label);
 
   const swingPeakV = swingPeakPerCollectorV(spec);
   const lowCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.minV);
@@ -185,6 +214,8 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     gainWorstCornerErrorPercent: worstGain.errorPercent,
     gainWorstCorner: worstGain.label,
     gainOverConditionsMarginPercent: spec.gain.tolerancePercent - Math.abs(worstGain.errorPercent),
+    gainOverConditionsCause: gainCause,
+    gainOverConditionsRemedy: gainRemedy(gainCause, design.tail.topology === 'resistor'),
     icmLowMarginV: Math.min(...lowCorners.map((c) => c.tailComplianceMarginV)),
     icmLowV: spec.inputCommonMode.minV,
     icmHighMarginV: Math.min(...highCorners.map((c) => c.pairSaturationMarginV)) - swingPeakV,

@@ -122,6 +122,8 @@ export interface Check {
   applicable?: boolean;
   /** Added: false when the option could not be solved, so the rule could not be decided (it then fails). */
   evaluated?: boolean;
+  /** Added: the check passes by less than its rule's `thinMarginBelow` (e.g. a rejection under 1 dB above target). */
+  thinMargin?: boolean;
 }
 
 export type ResistorSeries = 'E24' | 'E96' | 'E192';
@@ -191,6 +193,10 @@ export interface OptionFacts {
   gainWorstCorner: string;
   /** gainTolerancePercent − |gainWorstCornerErrorPercent|. */
   gainOverConditionsMarginPercent: number;
+  /** What moves the gain most at the governing corner: "temperature" or "input common mode". */
+  gainOverConditionsCause: string;
+  /** Plain words for what would hold the gain over the range, for that cause and tail. */
+  gainOverConditionsRemedy: string;
   /** Tail compliance at the lowest input common-mode voltage (worst temperature), V. */
   icmLowMarginV: number;
   icmLowV: number;

@@ -40,6 +40,7 @@ export type Action =
   | 'proposals:decide'
   | 'proposals:review'
   | 'proposals:verify'
+  | 'proposals:withdraw'
   | 'devices:write'
   | 'measurements:write'
   | 'mail:read';
@@ -56,6 +57,8 @@ export const PERMISSIONS: Record<Action, readonly Role[]> = {
   'proposals:review': ['reviewer'],
   /** Ask for a SPICE verification or Monte Carlo run (reading results needs only project access). */
   'proposals:verify': ['designer', 'reviewer'],
+  /** Withdraw an open proposal with a reason: a designer, or the person who asked for it (the service checks authorship). */
+  'proposals:withdraw': ['requirements', 'designer'],
   /** Upload SPICE .model cards to a project's device library (reading it needs only project access). */
   'devices:write': ['requirements', 'designer'],
   /** Upload bench measurements of a decided design (bench engineers are designers here; reading needs only project access). */

@@ -110,7 +110,7 @@ describe('when a designer asks for a proposal on the spec', () => {
 
     expect(response.status).toBe(201);
     const proposal = response.body;
-    expect(proposal).toMatchObject({ status: 'ranked', specId: story.specId, projectId, engineVersion: ENGINE_VERSION, rulesetVersion: api.ruleSet.version, allowedEvents: ['decide'] });
+    expect(proposal).toMatchObject({ status: 'ranked', specId: story.specId, projectId, engineVersion: ENGINE_VERSION, rulesetVersion: api.ruleSet.version, allowedEvents: ['decide', 'withdraw'] });
     expect(proposal.specVersion).toMatchObject({ version: 2, title: REVISED_TITLE });
     expect(proposal.specVersion.payload.powerBudgetW).toBe(0.028);
     expect(proposal.result.recommended).toEqual(expect.any(String));
@@ -132,7 +132,7 @@ describe('when the proposal goes through decisions and reviews', () => {
 
     expect(response.status).toBe(201);
     expect(response.body.status).toBe('decided');
-    expect(response.body.allowedEvents).toEqual(['approve', 'return']);
+    expect(response.body.allowedEvents).toEqual(['approve', 'return', 'withdraw']);
     expect(response.body.decisions).toHaveLength(1);
     const [decision] = response.body.decisions;
     const option = response.body.result.options.find((o: { topology: string }) => o.topology === story.recommended);
@@ -156,7 +156,7 @@ describe('when the proposal goes through decisions and reviews', () => {
 
     expect(response.status).toBe(201);
     expect(response.body.status).toBe('returned');
-    expect(response.body.allowedEvents).toEqual(['decide']);
+    expect(response.body.allowedEvents).toEqual(['decide', 'withdraw']);
     expect(response.body.reviews).toHaveLength(1);
     expect(response.body.reviews[0]).toMatchObject({ verdict: 'return', comment, reviewerId: api.users.reviewer.id, decisionId: story.decisionIds[0] });
     story.reviewIds.push(response.body.reviews[0].id);
@@ -278,9 +278,9 @@ describe('when a step is not allowed in the proposal’s state, then 409 says wh
   const trailOf = async (id: number) => (await designer.get(`/api/proposals/${id}/audit`)).body.items.length;
 
   test.each([
-    ['a decision on a decided proposal', () => designer.post(`/api/proposals/${extra.decided}/decision`).send({ kind: 'accept' }), () => extra.decided, /is decided.*Allowed now: approve, return\./],
-    ['an approval of a ranked proposal', () => reviewer.post(`/api/proposals/${extra.ranked}/review`).send({ verdict: 'approve' }), () => extra.ranked, /is ranked.*Allowed now: decide\./],
-    ['a return of a ranked proposal', () => reviewer.post(`/api/proposals/${extra.ranked}/review`).send({ verdict: 'return', comment: 'Too early.' }), () => extra.ranked, /is ranked.*Allowed now: decide\./],
+    ['a decision on a decided proposal', () => designer.post(`/api/proposals/${extra.decided}/decision`).send({ kind: 'accept' }), () => extra.decided, /is decided.*Allowed now: approve, return, withdraw\./],
+    ['an approval of a ranked proposal', () => reviewer.post(`/api/proposals/${extra.ranked}/review`).send({ verdict: 'approve' }), () => extra.ranked, /is ranked.*Allowed now: decide, withdraw\./],
+    ['a return of a ranked proposal', () => reviewer.post(`/api/proposals/${extra.ranked}/review`).send({ verdict: 'return', comment: 'Too early.' }), () => extra.ranked, /is ranked.*Allowed now: decide, withdraw\./],
     ['a decision on an approved proposal', () => designer.post(proposalUrl('/decision')).send({ kind: 'accept' }), () => story.proposalId, /is approved.*Nothing can change it now\./],
     ['a choice of another option on an approved proposal', () => designer.post(proposalUrl('/decision')).send({ kind: 'choose', topology: 'cascode', reason: 'Late change.' }), () => story.proposalId, /is approved.*Nothing can change it now\./],
     ['an override on an approved proposal', () => designer.post(proposalUrl('/decision')).send({ kind: 'override', design: story.overrideDesign, reason: 'Late change.' }), () => story.proposalId, /is approved.*Nothing can change it now\./],
@@ -315,7 +315,7 @@ describe('when a step is not allowed in the proposal’s state, then 409 says wh
     // Assert
     for (const response of [again, repeat]) {
       expect(response.status).toBe(409);
-      expect(response.body.error).toMatch(/is returned.*Allowed now: decide\./);
+      expect(response.body.error).toMatch(/is returned.*Allowed now: decide, withdraw\./);
     }
     expect((await reviewer.get(`/api/proposals/${extra.decided}`)).body.reviews).toHaveLength(1);
   });

@@ -10,6 +10,7 @@
  */
 import { DeviceModelEntity } from '../../api/entities/device-model.entity';
 import { uploadDeviceModels } from '../../api/services/devices.service';
+import { ProposalEntity } from '../../api/entities/proposal.entity';
 import { uploadMeasurement } from '../../api/services/measurements.service';
 import { addMember } from '../../api/services/projects.service';
 import { decide, review } from '../../api/services/proposals.service';
@@ -37,6 +38,8 @@ export interface Ids {
   otherProject: number;
   spec: number;
   otherSpec: number;
+  /** own project: the spec the edit and ranking rows write to (a newer ranked version would supersede the proposals of {spec}) */
+  editableSpec: number;
   /** own project, status ranked: the designer's decision succeeds */
   ranked: number;
   /** own project, decided by the designer: the reviewer's review succeeds */
@@ -45,6 +48,8 @@ export interface Ids {
   approved: number;
   /** own project, ranked: a review is not allowed yet */
   rankedForReview: number;
+  /** own project, ranked, asked for by the requirements account: withdrawn by its author or a designer (put back to ranked before each cell) */
+  withdrawable: number;
   /** other project, decided by the second designer */
   otherProposal: number;
   reviewer2: number;
@@ -97,6 +102,10 @@ const restoreMatrixCard = (key: 'device' | 'otherDevice') => async (api: TestApi
   const card = await repository.findOneByOrFail({ id: ids[key] });
   await repository.delete({ projectId: card.projectId, name: card.name, retirement: IsNull(), id: Not(card.id) });
   await repository.update({ id: card.id }, { nameKey: card.name.toLowerCase(), retirement: null, retiredAt: null, retiredById: null, replacedById: null });
+};
+/** The withdrawal cells each find the proposal open again (idempotent). */
+const reopenWithdrawable = async (api: TestApi, ids: Ids) => {
+  await api.dataSource.getRepository(ProposalEntity).update({ id: ids.withdrawable }, { status: 'ranked', closedReason: null, closedById: null, closedAt: null });
 };
 const ensureReviewer2Member = (key: 'project' | 'otherProject') => async (api: TestApi, ids: Ids) => {
   await addMember(api.dataSource, api.users.admin, ids[key], ids.reviewer2, 'reviewer');
@@ -211,13 +220,13 @@ export const MATRIX: Row[] = [
   // Specs.
   { route: 'GET /api/specs/:id', url: '/api/specs/{spec}', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/specs/:id', url: '/api/specs/{otherSpec}', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
-  { route: 'PUT /api/specs/:id', url: '/api/specs/{spec}', rule: 'specs:write', body: newSpec, expected: [401, 403, 200, 403, 403] },
+  { route: 'PUT /api/specs/:id', url: '/api/specs/{editableSpec}', rule: 'specs:write', body: newSpec, expected: [401, 403, 200, 403, 403] },
   { route: 'PUT /api/specs/:id', url: '/api/specs/{otherSpec}', rule: 'specs:write', body: newSpec, expected: [401, 403, 404, 403, 403] },
   { route: 'GET /api/specs/:id/versions', url: '/api/specs/{spec}/versions', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/specs/:id/versions', url: '/api/specs/{otherSpec}/versions', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
   { route: 'GET /api/specs/:id/diff', url: '/api/specs/{spec}/diff?from=1&to=2', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/specs/:id/diff', url: '/api/specs/{otherSpec}/diff?from=1&to=2', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
-  { route: 'POST /api/specs/:id/proposals', url: '/api/specs/{spec}/proposals', rule: 'proposals:create', expected: [401, 403, 201, 201, 403] },
+  { route: 'POST /api/specs/:id/proposals', url: '/api/specs/{editableSpec}/proposals', rule: 'proposals:create', expected: [401, 403, 201, 201, 403] },
   { route: 'POST /api/specs/:id/proposals', url: '/api/specs/{otherSpec}/proposals', rule: 'proposals:create', expected: [401, 403, 404, 404, 403] },
 
   // Proposals.
@@ -244,6 +253,22 @@ export const MATRIX: Row[] = [
     body: () => ({ verdict: 'approve' }),
     expected: [401, 403, 403, 403, 409],
     note: 'state: ranked',
+  },
+  {
+    route: 'POST /api/proposals/:id/withdrawal',
+    url: '/api/proposals/{withdrawable}/withdrawal',
+    rule: 'proposals:withdraw',
+    body: () => ({ reason: 'Ranked on the wrong spec.' }),
+    arrange: reopenWithdrawable,
+    expected: [401, 403, 201, 201, 403],
+    note: 'asked for by the requirements account, so its author may withdraw it (a non-author: tests/api/spec-lifecycle.test.ts)',
+  },
+  {
+    route: 'POST /api/proposals/:id/withdrawal',
+    url: '/api/proposals/{otherProposal}/withdrawal',
+    rule: 'proposals:withdraw',
+    body: () => ({ reason: 'Ranked on the wrong spec.' }),
+    expected: [401, 403, 404, 404, 403],
   },
   { route: 'GET /api/proposals/:id/audit', url: '/api/proposals/{ranked}/audit', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/proposals/:id/ranking.csv', url: '/api/proposals/{ranked}/ranking.csv', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
@@ -320,6 +345,7 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
   const project = await api.createProject(['requirements', 'designer', 'reviewer', 'designer2', 'reviewer2'], 'Quillon sensor head');
   const otherProject = await api.createProject(['designer2', 'reviewer2'], 'Sallow tide gauge', { reviewer2: 'requirements' });
   const spec = await api.createSpec(project.id);
+  const editableSpec = await api.createSpec(project.id, { title: 'Quillon sensor head — spare channel' });
   const otherSpec = await api.createSpec(otherProject.id, { by: 'reviewer2', title: 'Sallow tide gauge — pressure bridge pair' });
   const revised = { ...specPayload(), powerBudgetW: 0.028 };
   await updateSpec(dataSource, users.requirements, spec.id, { title: 'Quillon sensor head — thermopile input pair', payload: revised });
@@ -333,6 +359,7 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
   await decide(dataSource, users.designer, approved.id, { kind: 'accept' }, ruleSet);
   await review(dataSource, users.reviewer, approved.id, { verdict: 'approve' });
   const rankedForReview = await api.createProposal(spec.id);
+  const withdrawable = await api.createProposal(spec.id, 'requirements');
   const otherProposal = await api.createProposal(otherSpec.id, 'designer2');
   await decide(dataSource, users.designer2, otherProposal.id, { kind: 'accept' }, ruleSet);
   const measured = (proposalId: number, by: PublicUser) =>
@@ -349,10 +376,12 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
     otherProject: otherProject.id,
     spec: spec.id,
     otherSpec: otherSpec.id,
+    editableSpec: editableSpec.id,
     ranked: ranked.id,
     decided: decided.id,
     approved: approved.id,
     rankedForReview: rankedForReview.id,
+    withdrawable: withdrawable.id,
     otherProposal: otherProposal.id,
     reviewer2: users.reviewer2.id,
     designer2: users.designer2.id,

@@ -31,6 +31,8 @@ export function makeOptionFacts(overrides: Partial<OptionFacts> = {}): OptionFac
     gainWorstCornerErrorPercent: -6.2,
     gainWorstCorner: 'ICM 2 V, 85 °C',
     gainOverConditionsMarginPercent: 3.8,
+    gainOverConditionsCause: 'temperature',
+    gainOverConditionsRemedy: 'pair emitter degeneration (the gain then rests on RC/RE more than on IC/VT) or a tail current that rises with temperature (proportional to absolute temperature, as from a ΔVBE cell)',
     icmLowMarginV: 0.85,
     icmLowV: -2,
     icmHighMarginV: 1.35,

@@ -33,6 +33,7 @@ import {
   DEVICE_LIST_QUERY,
   DEVICE_RECORDED_QUERY,
   REVIEW_BODY,
+  WITHDRAWAL_BODY,
   USER_CHANGES_BODY,
 } from '../../api/validation/bodies';
 import { arrangeMatrix, CALLERS, fillUrl, MATRIX, registeredRoutes, type Caller, type Ids, type Row } from '../helpers/access-matrix';
@@ -62,6 +63,7 @@ const BODIES: Record<string, fc.Arbitrary<unknown>> = {
   'POST /api/proposals/:id/decision': arbitraryFromSchema(DECISION_BODY as Schema),
   'POST /api/proposals/:id/evaluation': arbitraryFromSchema(EVALUATION_BODY as Schema),
   'POST /api/proposals/:id/review': arbitraryFromSchema(REVIEW_BODY),
+  'POST /api/proposals/:id/withdrawal': arbitraryFromSchema(WITHDRAWAL_BODY),
   'POST /api/proposals/:id/verification/monte-carlo': arbitraryFromSchema(MONTE_CARLO_BODY),
   'POST /api/analyze': arbitraryFromSchema(DESIGN_SCHEMA as Schema),
 };

@@ -4,6 +4,7 @@
  * traversal and odd names in uploads) stored through the HTTP API of the real app (listening on
  * 127.0.0.1, a fresh SQLite file, the demo organisation) in every text field a person types:
  * project names and descriptions, display names, spec titles, decision reasons, review comments,
+ * spec change notes, withdrawal reasons,
  * device-library card comments and file names. Each is read back through the API and must be
  * byte-identical (the server trims surrounding blanks, so no corpus string has any); a value
  * over its field's limit, or holding a control character or bidi override (LF is allowed in
@@ -141,6 +142,9 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
     const proposal = (await designer.request('POST', `/api/specs/${spec.id}/proposals`)).json as { id: number; result?: { recommended: string | null; options: { topology: string; design?: unknown }[] } };
     const chosen = proposal.result?.recommended ?? proposal.result?.options.find((o) => o.design)?.topology ?? 'wilson';
     let state: 'ranked' | 'decided' | 'returned' = 'ranked';
+    // Specs of their own for change notes (each save a new version) and withdrawals (each a fresh ranking).
+    const notedSpec = (await author.request('POST', `/api/projects/${project.id}/specs`, { title: 'Corpus spec — change notes', payload: specPayload() })).json as { id: number };
+    const withdrawnSpec = (await author.request('POST', `/api/projects/${project.id}/specs`, { title: 'Corpus spec — withdrawals', payload: specPayload() })).json as { id: number };
     const proposalRecord = async () => (await admin.request('GET', `/api/proposals/${proposal.id}`)).json as { decisions: { id: number; reason: string | null }[]; reviews: { id: number; comment: string | null }[] };
 
     const fields: Field[] = [
@@ -214,6 +218,29 @@ export async function injectionCorpus(options: RunOptions & { browser: boolean }
           if (answer.status === 201) state = 'returned';
           const id = (answer.json as { reviews?: { id: number }[] })?.reviews?.at(-1)?.id;
           return { status: answer.status, text: answer.text, read: async () => (await proposalRecord()).reviews.find((r) => r.id === id)?.comment ?? null };
+        },
+      },
+      {
+        name: 'spec change note',
+        max: 1000,
+        store: async (value, i) => {
+          // Other figures each time, so each save is a new version carrying its note.
+          const answer = await author.request('PUT', `/api/specs/${notedSpec.id}`, { title: 'Corpus spec — change notes', payload: { ...specPayload(), powerBudgetW: 0.03 + (i + 1) * 1e-5 }, note: value });
+          const version = (answer.json as { latest?: { version: number } })?.latest?.version;
+          return {
+            status: answer.status,
+            text: answer.text,
+            read: async () => ((await author.request('GET', `/api/specs/${notedSpec.id}/versions`)).json as { items: { version: number; note: string | null }[] }).items.find((v) => v.version === version)?.note ?? null,
+          };
+        },
+      },
+      {
+        name: 'withdrawal reason',
+        max: 4000,
+        store: async (value) => {
+          const ranked = (await designer.request('POST', `/api/specs/${withdrawnSpec.id}/proposals`)).json as { id: number };
+          const answer = await designer.request('POST', `/api/proposals/${ranked.id}/withdrawal`, { reason: value });
+          return { status: answer.status, text: answer.text, read: async () => ((await admin.request('GET', `/api/proposals/${ranked.id}`)).json as { closedReason: string | null }).closedReason };
         },
       },
     ];

@@ -117,6 +117,7 @@ const VERDICT_FROM_FIGURES: Record<string, (f: OptionFacts) => boolean> = {
   'gain-vs-common-mode': (f) => !f.isResistorTail || f.gainVsCommonModeMarginPercent >= 0,
   'cmrr-differential-worst-case': (f) => !f.isDifferentialOutput || f.cmrrDifferentialWorstCaseMarginDb! >= 0,
   'tail-current-drift': (f) => f.tailCurrentDriftMarginPercent >= 0,
+  'gain-over-conditions': (f) => f.gainOverConditionsMarginPercent >= 0,
   'hazardous-voltage': (f) => f.railSpanV <= 60, // [IEC62368] 60 V DC usual safe-to-touch limit
   'patient-connected': (f) => !f.patientConnected,
   'mains-referenced': (f) => !f.mainsReferenced,
@@ -309,8 +310,45 @@ describe('scenario-specific outcomes', () => {
     }
   });
 
-  test('a recommendation exists for the four feasible specs (the consistency checks above are not vacuous)', () => {
-    for (const name of SPEC_NAMES.filter((n) => n !== 'LX-1 impossible rejection')) expect(results[name].recommended, name).not.toBeNull();
+  /** The specs whose gain tolerance no option holds over their whole temperature range (see the next test). */
+  const GAIN_OVER_TEMPERATURE_OUT_OF_REACH = { 'QF-7 strain bridge': /(−10|60) °C/, 'HV-40 piezo monitor, ±40 V': /(−20|85) °C/ } as const;
+
+  test('a recommendation exists for the feasible specs (the consistency checks above are not vacuous)', () => {
+    const infeasible = ['LX-1 impossible rejection', ...Object.keys(GAIN_OVER_TEMPERATURE_OUT_OF_REACH)];
+    const feasible = SPEC_NAMES.filter((n) => !infeasible.includes(n));
+    expect(feasible.length).toBeGreaterThanOrEqual(2);
+    for (const name of feasible) expect(results[name].recommended, name).not.toBeNull();
+  });
+
+  test.each(Object.entries(GAIN_OVER_TEMPERATURE_OUT_OF_REACH))(
+    '%s has no recommendation: its gain tolerance over its temperature range is out of reach of a pair whose gain goes as IC/VT, and the check says so at a temperature corner',
+    (name, corner) => {
+      // gm = IC/VT [GM]: with IC flat in temperature the gain at −10 °C is 300.15/263.15 ≈ 1.14 times the
+      // gain at 27 °C (QF-7 allows ±8 %), at −20 °C 1.19 times (HV-40 allows ±5 %); the spec states its
+      // tolerance over its temperature range.
+      expect(results[name].recommended).toBeNull();
+      const held = results[name].options.filter((o) => o.checks.find((c) => c.rule === 'gain-over-conditions')?.passed === false);
+      expect(held.map((o) => o.topology)).toEqual(expect.arrayContaining(['cascode', 'wilson']));
+      for (const option of held.filter((o) => o.topology !== 'resistor')) {
+        const check = option.checks.find((c) => c.rule === 'gain-over-conditions')!;
+        expect(check.severity).toBe('blocking');
+        expect(check.reason).toMatch(corner);
+        expect(check.reason).toContain('a tail current that rises with temperature');
+      }
+    },
+  );
+
+  test('a resistor tail that leaves its gain tolerance is governed by the input common mode, and the reason asks for a current-source tail', () => {
+    // Itail = (VICM − VBE − VN)/R (../shared/DOMAIN.md, resistor tail): across QF-7's −1…1 V on
+    // −9 V the tail current moves by 2/(9 − 0.65 − 1) ≈ 27 % of its low-end value. Over −10…60 °C
+    // 1/VT alone moves about as much (333/263 ≈ 1.27), but VBE falling about 2 mV/K (common
+    // practice) raises a resistor tail's current and takes a few per cent off that, so the input
+    // common mode governs.
+    const resistor = results['QF-7 strain bridge'].options.find((o) => o.topology === 'resistor')!;
+    const check = resistor.checks.find((c) => c.rule === 'gain-over-conditions')!;
+    expect(check.passed).toBe(false);
+    expect(check.reason).toContain('the input common mode moves the gain most');
+    expect(check.reason).toContain('a current-source tail instead of the resistor');
   });
 });
 

@@ -15,6 +15,15 @@ testRuleCases('cmrr-differential-worst-case', { severity: 'advisory', marginUnit
     passed: false,
     margin: -3.6,
     texts: ['76.4 dB', '3.6 dB short'],
+    thinMargin: false,
+  },
+  {
+    title: 'passes 0.4 dB above the requirement, flagged as a thin margin',
+    overrides: { cmrrDifferentialWorstCaseDb: 80.4, cmrrDifferentialWorstCaseMarginDb: 0.4 },
+    passed: true,
+    margin: 0.4,
+    texts: ['80.4 dB', '0.4 dB to spare'],
+    thinMargin: true,
   },
   {
     title: 'is not applicable to a single-ended output',
@@ -29,5 +38,6 @@ testRuleCases('cmrr-differential-worst-case', { severity: 'advisory', marginUnit
     passed: true,
     margin: null,
     texts: ['Not applicable', 'single-ended'],
+    thinMargin: false,
   },
 ]);

@@ -56,6 +56,24 @@ const readText = (file: File) =>
     reader.readAsText(file);
   });
 
+/** The same file checked again after it was saved: both valid rows unchanged, nothing to write. */
+function reimported(): ImportReport {
+  return {
+    fileName: 'tarn-batch.csv',
+    format: 'csv',
+    dryRun: true,
+    total: 2,
+    valid: 2,
+    counts: { created: 0, 'new-version': 0, unchanged: 2, skipped: 0 },
+    headerErrors: [],
+    rows: [
+      { row: 2, title: 'Tarn probe — channel A', ok: true, errors: [], action: 'unchanged', specId: 21, version: 1 },
+      { row: 3, title: 'Tarn probe — reference', ok: true, errors: [], action: 'unchanged', specId: 22, version: 3 },
+    ],
+  };
+}
+let answerReimported = false;
+
 let uploads: { url: string; fileName: string; text: string }[];
 let rankAnswers: Map<number, { resolve: () => void; promise: Promise<Response> }>;
 
@@ -68,6 +86,7 @@ function deferredRanking(specId: number, proposalId: number, recommendedTopology
 }
 
 beforeEach(() => {
+  answerReimported = false;
   uploads = [];
   rankAnswers = new Map();
 });
@@ -77,7 +96,7 @@ const api = useFetchStub(async ({ key, path }, init) => {
   if (key.startsWith('POST /api/projects/1/specs/import')) {
     const file = (init?.body as FormData).get('file') as File;
     uploads.push({ url: path, fileName: file.name, text: await readText(file) });
-    return json(200, report(path.endsWith('?dryRun=true') === true));
+    return json(200, answerReimported ? reimported() : report(path.endsWith('?dryRun=true') === true));
   }
   const rank = /^POST \/api\/specs\/(\d+)\/proposals$/.exec(key);
   if (rank && rankAnswers.has(Number(rank[1]))) return rankAnswers.get(Number(rank[1]))!.promise;
@@ -159,6 +178,26 @@ describe('the batch flow', () => {
       ['Tarn probe — reference', '#32', 'No option passes'],
     ]);
     expect(screen.getByText(/estimates; confirm them by SPICE simulation and bench measurement/)).toBeTruthy();
+  });
+
+  test('when a file imported before is chosen again, then the page says so and offers to rank its specs as they stand', async () => {
+    answerReimported = true;
+    const user = userEvent.setup();
+    renderWithProviders(<BatchImport projectId={1} canRank />);
+
+    await user.upload(screen.getByLabelText('Spec file (CSV or JSON, up to 1 MB)'), new File(['title\r\nTarn probe\r\n'], 'tarn-batch.csv', { type: 'text/csv' }));
+
+    expect((await screen.findByRole('note', { name: '' })).textContent).toMatch(/imported before: all 2 valid specs are already in the project with the same figures/);
+    expect((screen.getByRole('button', { name: 'Nothing to save' }) as HTMLButtonElement).disabled).toBe(true);
+    deferredRanking(21, 41, 'cascode');
+    deferredRanking(22, 42, 'wilson');
+    await user.click(screen.getByRole('button', { name: 'Rank all 2 imported specs' }));
+    rankAnswers.get(21)!.resolve();
+    await screen.findByText('Tarn probe — reference', { selector: 'span' });
+    rankAnswers.get(22)!.resolve();
+
+    expect((await screen.findByRole('link', { name: 'Download the batch results (CSV)' })).getAttribute('href')).toBe('/api/projects/1/proposals.csv?ids=41,42');
+    expect(uploads.map((u) => u.url)).toEqual(['/api/projects/1/specs/import?dryRun=true']);
   });
 
   test('when a file over 1 MB is chosen, then it is refused in the browser and nothing is sent', async () => {

@@ -19,7 +19,7 @@ const STATES = ['ranked', 'decided', 'returned', 'approved'] as const;
 function proposal(id: number): ProposalSummary {
   return {
     id, projectId: 1, specId: 7, specVersionId: 70 + (id % 2), specVersionNumber: 1 + (id % 2), specTitle: 'Strain bridge receiver', engineVersion: '1.0.0', rulesetVersion: 'abc',
-    recommendedTopology: id % 3 === 0 ? null : 'degenerated-mirror', status: STATES[id % 4], createdById: 3,
+    recommendedTopology: id % 3 === 0 ? null : 'degenerated-mirror', status: STATES[id % 4], supersededById: null, closedReason: null, closedById: null, closedAt: null, createdById: 3,
     createdAt: '2026-11-01T10:00:00.000Z', updatedAt: '2026-11-02T10:00:00.000Z',
   };
 }
@@ -194,6 +194,10 @@ describe('the project list names each proposal’s current design', () => {
     rulesetVersion: 'r'.repeat(64),
     recommendedTopology: 'degenerated-mirror',
     status: 'approved',
+    supersededById: null,
+    closedReason: null,
+    closedById: null,
+    closedAt: null,
     createdById: 1,
     createdAt: '2026-03-01T00:00:00.000Z',
     updatedAt: '2026-03-02T00:00:00.000Z',

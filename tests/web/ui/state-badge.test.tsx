@@ -6,7 +6,7 @@
  */
 import { cleanup, render } from '@testing-library/react';
 import { afterEach, describe, expect, test } from 'vitest';
-import { PROPOSAL_STATES } from '../../../shared/workflow/proposal-states';
+import { CLOSED_STATES, PROPOSAL_STATES } from '../../../shared/workflow/proposal-states';
 import { STATE_LABELS, StateBadge } from '../../../web/src/components/ui/state-badge';
 
 afterEach(cleanup);
@@ -23,11 +23,13 @@ describe('StateBadge', () => {
     expect(mark.querySelectorAll('path').length).toBeGreaterThan(0);
   });
 
-  test('each state has its own word, mark and tone, and no mark is a part-filled circle', () => {
+  test('each state has its own word and mark, each open state its own tone (closed ones share the quiet tone), and no mark is a part-filled circle', () => {
     const looks = PROPOSAL_STATES.map((s) => STATE_LABELS[s]);
+    const open = PROPOSAL_STATES.filter((s) => !CLOSED_STATES.includes(s) || s === 'approved').map((s) => STATE_LABELS[s]);
     expect(new Set(looks.map((l) => l.label)).size).toBe(looks.length);
     expect(new Set(looks.map((l) => l.glyph)).size).toBe(looks.length);
-    expect(new Set(looks.map((l) => l.tone)).size).toBe(looks.length);
+    expect(new Set(open.map((l) => l.tone)).size).toBe(open.length);
+    for (const state of CLOSED_STATES.filter((s) => s !== 'approved')) expect(STATE_LABELS[state].tone).toBe('quiet');
     for (const look of looks) expect(PIE_GLYPHS).not.toContain(look.glyph);
     const { container } = render(
       <>

@@ -62,6 +62,7 @@ export const api = {
   /** The full evaluation an override would get, recorded nowhere. */
   evaluation: (id: number) => `/api/proposals/${id}/evaluation`,
   review: (id: number) => `/api/proposals/${id}/review`,
+  withdrawal: (id: number) => `/api/proposals/${id}/withdrawal`,
   audit: (id: number) => `/api/proposals/${id}/audit`,
   rankingCsv: (id: number) => `/api/proposals/${id}/ranking.csv`,
   exportJson: (id: number) => `/api/proposals/${id}/export.json`,

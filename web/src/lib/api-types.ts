@@ -42,6 +42,8 @@ export interface SpecVersion {
   version: number;
   title: string;
   payload: SpecDocument;
+  /** What changed and why, in the author's words (null when none was written). */
+  note: string | null;
   createdById: number;
   createdAt: string;
 }
@@ -58,6 +60,8 @@ export interface Spec {
 
 export interface SpecWithLatest extends Spec {
   latest: SpecVersion;
+  /** PUT answers: true when the document was the latest version's, so no version was written. */
+  unchanged?: boolean;
 }
 
 export interface SpecDiff {
@@ -78,6 +82,13 @@ export interface ProposalSummary {
   rulesetVersion: string;
   recommendedTopology: string | null;
   status: ProposalState;
+  /** Superseded: the newer proposal that closed this one. */
+  supersededById: number | null;
+  /** Withdrawn: the reason given. */
+  closedReason: string | null;
+  /** Who withdrew it (null when the server closed it as superseded). */
+  closedById: number | null;
+  closedAt: string | null;
   createdById: number;
   createdAt: string;
   updatedAt: string;
@@ -122,7 +133,9 @@ export interface Review {
 
 export interface Proposal extends ProposalSummary {
   result: RecommendResult;
-  specVersion: { id: number; version: number; title: string; payload: SpecDocument };
+  specVersion: { id: number; version: number; title: string; note: string | null; payload: SpecDocument };
+  /** Set when the spec has newer versions than the one ranked: the latest and the differences to it. */
+  specMovedOn: { latestVersion: number; latestTitle: string; latestNote: string | null; latestPayload: SpecDocument; changes: JsonChange[] } | null;
   decisions: Decision[];
   reviews: Review[];
   allowedEvents: ProposalEvent[];

@@ -13,6 +13,11 @@ import { ReviewPanel } from '../features/proposals/components/review-panel';
 import { VerificationPanel } from '../features/proposals/components/verification-panel';
 import { MeasurementsPanel } from '../features/measurements/components/measurements-panel';
 import { NextStep } from '../features/proposals/components/next-step';
+import { LifecyclePanel } from '../features/proposals/components/lifecycle-panel';
+import { specSchemaQuery } from '../features/specs/api/spec-queries';
+import { SpecMovedOn } from '../features/specs/components/spec-moved-on';
+import type { SchemaNode } from '../features/specs/lib/schema-nodes';
+import type { Proposal } from '../lib/api-types';
 import { RouteError } from '../app/route-error';
 import { proposalCurrentDesign } from '../features/proposals/lib/current-design';
 import { currentDesignName, currentDesignRole } from '../../../shared/workflow/current-design';
@@ -21,7 +26,7 @@ import { formatDateTime } from '../lib/dates';
 export const loader =
   (queryClient: QueryClient) =>
   async ({ params }: LoaderFunctionArgs) => {
-    await queryClient.ensureQueryData(proposalQuery(Number(params.proposalId)));
+    await Promise.all([queryClient.ensureQueryData(proposalQuery(Number(params.proposalId))), queryClient.ensureQueryData(specSchemaQuery())]);
     return null;
   };
 
@@ -29,6 +34,7 @@ export function Component() {
   const proposalId = Number(useParams().proposalId);
   const { data: proposal } = useSuspenseQuery(proposalQuery(proposalId));
   const { data: user } = useSuspenseQuery(meQuery());
+  const { data: schema } = useSuspenseQuery(specSchemaQuery());
   if (!user) return null;
   const current = proposalCurrentDesign(proposal);
   return (
@@ -56,6 +62,19 @@ export function Component() {
         )}
         Engine {proposal.engineVersion} · rule set {proposal.rulesetVersion.slice(0, 12)} · {formatDateTime(proposal.createdAt)}
       </PageHeader>
+      <div className="mb-6 space-y-3 empty:hidden">
+        <LifecyclePanel proposal={proposal} user={user} />
+        {proposal.specMovedOn && (
+          <SpecMovedOn
+            specId={proposal.specId}
+            rankedVersion={proposal.specVersion.version}
+            rankedPayload={proposal.specVersion.payload}
+            movedOn={proposal.specMovedOn}
+            schema={schema as SchemaNode}
+            advice={movedOnAdvice(proposal)}
+          />
+        )}
+      </div>
       <NextStep proposal={proposal} user={user} />
       <div className="space-y-6">
         <RankingView proposal={proposal} />
@@ -75,6 +94,14 @@ export function Component() {
       </div>
     </>
   );
+}
+
+/** What the reader can do about a newer spec version, by the proposal's state. */
+function movedOnAdvice(proposal: Proposal): string {
+  if (proposal.status === 'approved') return 'The approval stands for the version ranked here; rank the latest version to check the design against it.';
+  if (proposal.status === 'decided') return 'Check whether the decision still holds against the latest version before approving it.';
+  if (proposal.status === 'superseded' && proposal.supersededById) return `Ranking #${proposal.supersededById} is of a later version.`;
+  return 'Rank the latest version to see the options against it.';
 }
 
 export const ErrorBoundary = RouteError;

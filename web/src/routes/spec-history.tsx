@@ -11,7 +11,7 @@ import { meQuery } from '../features/auth/api/auth-queries';
 import { projectMembersQuery } from '../features/projects/api/project-queries';
 import { specDiffQuery, specQuery, specSchemaQuery, specVersionsQuery } from '../features/specs/api/spec-queries';
 import { ChangesTable } from '../features/specs/components/changes-table';
-import { VersionPicker } from '../features/specs/components/version-picker';
+import { CompareSentence, VersionPicker } from '../features/specs/components/version-picker';
 import type { SchemaNode } from '../features/specs/lib/schema-nodes';
 import { readableChanges } from '../features/specs/lib/spec-changes';
 
@@ -51,6 +51,8 @@ export function Component() {
     return readableChanges(schema as SchemaNode, diff.data.changes, payloadOf(diff.data.from), payloadOf(diff.data.to));
   }, [diff.data, versions, schema]);
 
+  // The notes of the versions the comparison spans (after the older side, up to the newer one).
+  const notes = versions.items.filter((v) => v.note && v.version > Math.min(from, to) && v.version <= Math.max(from, to)).sort((a, b) => a.version - b.version);
   const authorName = (id: number) => (id === user?.id ? `${user.displayName} (you)` : (members.data?.items.find((m) => m.id === id)?.displayName ?? `User #${id}`));
   const onPick = (nextFrom: number, nextTo: number) => setParams({ from: String(nextFrom), to: String(nextTo) }, { replace: true });
 
@@ -64,17 +66,22 @@ export function Component() {
         }
         title="Version history"
       >
-        Every save is a new version; nothing is overwritten. Pick two versions to see what changed.
+        Every change saved is a new version; nothing is overwritten. Choose two versions to see what changed between them.
       </PageHeader>
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
-        <Sheet title="Versions">
+      <div className="grid grid-cols-[minmax(0,1fr)] gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+        <Sheet title="Versions" className="lg:order-1">
           <VersionPicker versions={versions.items} authorName={authorName} from={from} to={to} onPick={onPick} />
         </Sheet>
-        <Sheet title={comparable ? `What changed from version ${from} to version ${to}` : 'What changed'} aria-busy={diff.isFetching || undefined}>
+        <Sheet title="What changed" aria-busy={diff.isFetching || undefined} className="lg:order-2">
+          {versions.items.length > 1 && (
+            <div className="mb-4">
+              <CompareSentence versions={versions.items} from={from} to={to} onPick={onPick} />
+            </div>
+          )}
           {versions.items.length < 2 ? (
             <EmptyState title="Only one version so far">Save the spec again and the differences between versions show here.</EmptyState>
           ) : from === to ? (
-            <EmptyState title="The same version is picked twice">Pick a different version under From or To.</EmptyState>
+            <EmptyState title="The same version on both sides">Choose another version in one of the two lists.</EmptyState>
           ) : diff.isPending ? (
             <Loading what="Comparing the versions" />
           ) : diff.isError ? (
@@ -82,7 +89,18 @@ export function Component() {
           ) : rows.length === 0 ? (
             <EmptyState title="No differences">Versions {from} and {to} hold the same values.</EmptyState>
           ) : (
-            <ChangesTable rows={rows} from={diff.data.from} to={diff.data.to} />
+            <>
+              {notes.length > 0 && (
+                <ul aria-label="Change notes" className="mb-3 space-y-1 rounded-md bg-paper px-3 py-2 text-sm dark:bg-night">
+                  {notes.map((v) => (
+                    <li key={v.id} className="break-words">
+                      <span className="text-ink-soft dark:text-night-ink-soft">Version {v.version}:</span> “{v.note}”
+                    </li>
+                  ))}
+                </ul>
+              )}
+              <ChangesTable rows={rows} from={diff.data.from} to={diff.data.to} />
+            </>
           )}
         </Sheet>
       </div>

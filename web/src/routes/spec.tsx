@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQuery, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
-import { useState } from 'react';
+import { useId, useState } from 'react';
 import { Link, useLocation, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { mayAs } from '../../../shared/workflow/roles';
 import { RouteError } from '../app/route-error';
@@ -34,6 +34,9 @@ export function Component() {
   const queryClient = useQueryClient();
   const [dirty, setDirty] = useState(false);
   const [savedVersion, setSavedVersion] = useState<number | null>((location.state as { savedVersion?: number } | null)?.savedVersion ?? null);
+  const [unchanged, setUnchanged] = useState(false);
+  const [changeNote, setChangeNote] = useState('');
+  const noteId = useId();
   if (!user) return null;
 
   const canWrite = mayAs(user, spec.projectId, 'specs:write');
@@ -41,12 +44,20 @@ export function Component() {
   const author = spec.latest.createdById === user.id ? 'you' : (members.data?.items.find((m) => m.id === spec.latest.createdById)?.displayName ?? `user #${spec.latest.createdById}`);
 
   const onSave = async (draft: SpecDraft) => {
-    const saved = await saveSpecVersion(specId, specBody(draft));
+    const saved = await saveSpecVersion(specId, { ...specBody(draft), ...(changeNote.trim() ? { note: changeNote.trim() } : {}) });
     queryClient.setQueryData(specKeys.detail(specId), saved);
     await Promise.all([queryClient.invalidateQueries({ queryKey: specKeys.detail(specId) }), queryClient.invalidateQueries({ queryKey: projectKeys.specs(spec.projectId) })]);
     setSavedVersion(saved.latestVersion);
+    setUnchanged(saved.unchanged === true);
+    if (!saved.unchanged) setChangeNote('');
   };
-  const note = dirty ? 'Unsaved changes.' : savedVersion === spec.latestVersion ? `✓ Saved as version ${savedVersion}.` : null;
+  const note = dirty
+    ? 'Unsaved changes.'
+    : unchanged
+      ? `Nothing differs from version ${spec.latestVersion}, so no new version was saved.`
+      : savedVersion === spec.latestVersion
+        ? `✓ Saved as version ${savedVersion}.`
+        : null;
 
   return (
     <>
@@ -69,6 +80,25 @@ export function Component() {
         Version {spec.latestVersion} · saved <When at={spec.latest.createdAt} /> by {author}
         {!canWrite && ' · read-only: specs are edited by systems engineers'}
       </PageHeader>
+      {canWrite && (
+        <div className="mb-4 rounded-lg border border-rule bg-sheet p-4 text-sm dark:border-night-rule dark:bg-night-sheet">
+          <label htmlFor={noteId} className="block font-medium">
+            Change note <span className="font-normal text-ink-soft dark:text-night-ink-soft">(optional, kept with the next version)</span>
+          </label>
+          <input
+            id={noteId}
+            type="text"
+            value={changeNote}
+            onChange={(e) => setChangeNote(e.target.value)}
+            maxLength={1000}
+            aria-describedby={`${noteId}-hint`}
+            className="mt-1 w-full rounded-md border border-rule bg-sheet px-3 py-2 dark:border-night-rule dark:bg-night"
+          />
+          <p id={`${noteId}-hint`} className="mt-1 text-xs text-ink-soft dark:text-night-ink-soft">
+            What changed and why, in one line; shown in the history and beside rankings of older versions. At most 1000 characters.
+          </p>
+        </div>
+      )}
       <SpecForm
         key={specId}
         initial={spec.latest.payload as unknown as SpecDraft}

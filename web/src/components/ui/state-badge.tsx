@@ -41,6 +41,20 @@ export const STATE_MARKS = {
       <path d="M3.6 6.1l1.7 1.7 3.2-3.4" stroke="var(--badge-knockout)" strokeWidth="1.5" />
     </>
   ),
+  /** Closed because the spec moved on: a line stepping up to a newer level. */
+  onward: (
+    <>
+      <path d="M1.5 9.5h3.5v-6h5.5" />
+      <path d="M8.5 1.5l2 2-2 2" />
+    </>
+  ),
+  /** Withdrawn: a ring with a bar across, taken out of the flow. */
+  lifted: (
+    <>
+      <circle cx="6" cy="6" r="4.5" />
+      <path d="M3.5 6h5" />
+    </>
+  ),
 } satisfies Record<string, ReactNode>;
 
 export type StateMark = keyof typeof STATE_MARKS;
@@ -74,6 +88,8 @@ export const STATE_LABELS: Record<ProposalState, StateLook> = {
   decided: look(STATE_WORDS.decided, 'beam', 'note'),
   returned: look(STATE_WORDS.returned, 'hook', 'short'),
   approved: look(STATE_WORDS.approved, 'stamp', 'holds'),
+  superseded: look(STATE_WORDS.superseded, 'onward', 'quiet'),
+  withdrawn: look(STATE_WORDS.withdrawn, 'lifted', 'quiet'),
 };
 
 /** A state's mark alone (hidden from assistive technology: the word goes beside it). */

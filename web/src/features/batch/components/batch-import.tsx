@@ -168,6 +168,16 @@ export function BatchImport({ projectId, canRank }: { projectId: number; canRank
         </Sheet>
       )}
 
+      {checked && !saved && file && toWrite(checked) === 0 && checked.counts.unchanged > 0 && (
+        <>
+          <p className="rounded-md border border-rule bg-paper px-4 py-3 text-sm dark:border-night-rule dark:bg-night" role="note">
+            This file was imported before: {checked.counts.unchanged === 1 ? 'its valid spec is' : `all ${checked.counts.unchanged} valid specs are`} already in the project with the same figures, so
+            there is nothing to save. Rank {checked.counts.unchanged === 1 ? 'it' : 'them'} as {checked.counts.unchanged === 1 ? 'it stands' : 'they stand'} below.
+          </p>
+          <RankBatch projectId={projectId} report={checked} canRank={canRank} alreadyImported />
+        </>
+      )}
+
       {saved && (
         <>
           <Sheet title="2. Saved" aria-label="Saved">
@@ -191,9 +201,10 @@ export function BatchImport({ projectId, canRank }: { projectId: number; canRank
 }
 
 /** "Rank all imported specs", one after another with a progress bar, then the batch CSV. */
-function RankBatch({ projectId, report, canRank }: { projectId: number; report: ImportReport; canRank: boolean }) {
+function RankBatch({ projectId, report, canRank, alreadyImported = false }: { projectId: number; report: ImportReport; canRank: boolean; alreadyImported?: boolean }) {
   const queryClient = useQueryClient();
-  const [includeUnchanged, setIncludeUnchanged] = useState(false);
+  // A file imported before holds only unchanged specs: those are the ones to rank.
+  const [includeUnchanged, setIncludeUnchanged] = useState(alreadyImported);
   const [progress, setProgress] = useState<RankProgress | null>(null);
   const [outcomes, setOutcomes] = useState<RankOutcome<Proposal>[] | null>(null);
   const stop = useRef(false);
@@ -235,7 +246,7 @@ function RankBatch({ projectId, report, canRank }: { projectId: number; report: 
           Sizes every tail option of each spec, checks it against the rules and runs its Monte Carlo, one spec after another: usually well under a second per spec here, longer when the server is busy.
         </p>
       )}
-      {unchanged > 0 && !running && (
+      {unchanged > 0 && !running && !alreadyImported && (
         <label className="mt-2 flex items-center gap-2 text-sm">
           <input type="checkbox" checked={includeUnchanged} onChange={(e) => setIncludeUnchanged(e.target.checked)} />
           Also rank the {plural(unchanged, 'unchanged spec')}

@@ -8,6 +8,8 @@ const FILTER_WORDS: Record<ProposalFilter, string> = {
   decided: STATE_LABELS.decided.label,
   returned: STATE_LABELS.returned.label,
   approved: STATE_LABELS.approved.label,
+  superseded: STATE_LABELS.superseded.label,
+  withdrawn: STATE_LABELS.withdrawn.label,
 };
 
 /**

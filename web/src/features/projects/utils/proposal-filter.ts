@@ -7,7 +7,7 @@ import { PROPOSAL_STATES, type ProposalState } from '../../../../../shared/workf
 export type ProposalFilter = ProposalState | 'all';
 
 /** The segments of the status filter, in the order a proposal lives through them. */
-export const PROPOSAL_FILTERS: readonly ProposalFilter[] = ['all', 'ranked', 'decided', 'returned', 'approved'];
+export const PROPOSAL_FILTERS: readonly ProposalFilter[] = ['all', 'ranked', 'decided', 'returned', 'approved', 'superseded', 'withdrawn'];
 
 export interface ProposalView {
   status: ProposalFilter;

@@ -1,5 +1,5 @@
 /**
- * The workflow's writes (decide, review), the what-if analysis behind the override editor and the
+ * The workflow's writes (decide, review, withdraw), the what-if analysis behind the override editor and the
  * full check of own values. Decide and review answer with the whole proposal: it goes into the
  * cache, then every proposal query is invalidated and awaited so the page shows the new state
  * before the mutation settles. The full check records nothing, so it touches no cache.
@@ -41,6 +41,10 @@ export function reviewProposal(proposalId: number, body: ReviewInput): Promise<P
   return apiClient.post<Proposal>(api.review(proposalId), body);
 }
 
+export function withdrawProposal(proposalId: number, reason: string): Promise<Proposal> {
+  return apiClient.post<Proposal>(api.withdrawal(proposalId), { reason });
+}
+
 /** Puts the server's answer in the cache, then refreshes every proposal query (the audit trail included). */
 function useSettleProposal(proposalId: number) {
   const queryClient = useQueryClient();
@@ -58,6 +62,11 @@ export function useDecideMutation(proposalId: number) {
 export function useReviewMutation(proposalId: number) {
   const settle = useSettleProposal(proposalId);
   return useMutation({ mutationFn: (body: ReviewInput) => reviewProposal(proposalId, body), onSuccess: settle });
+}
+
+export function useWithdrawMutation(proposalId: number) {
+  const settle = useSettleProposal(proposalId);
+  return useMutation({ mutationFn: (reason: string) => withdrawProposal(proposalId, reason), onSuccess: settle });
 }
 
 /** The full check of own values; a POST because the engine works for seconds, not because anything is written. */

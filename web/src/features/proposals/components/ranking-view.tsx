@@ -5,6 +5,7 @@ import { Sheet } from '../../../components/ui/sheet';
 import { api } from '../../../config/paths';
 import type { Proposal } from '../../../lib/api-types';
 import { optionRows, specTargets } from '../lib/option-rows';
+import { rankingExplanation } from '../lib/ranking-explanation';
 import { OptionDetail } from './ranking/option-detail';
 import { OptionsTable } from './ranking/options-table';
 import { RejectionFigure } from './ranking/plots/rejection-figure';
@@ -27,6 +28,7 @@ export function RankingView({ proposal }: { proposal: Proposal }) {
   const decidedWord = proposal.status === 'approved' ? 'signed off' : 'decided';
   const option = result.options.find((o) => o.topology === selected) ?? null;
   const resistors = proposal.specVersion.payload?.resistors;
+  const explanation = useMemo(() => rankingExplanation(result), [result]);
   return (
     <div className="space-y-4">
       <CautionsBlock cautions={result.cautions} />
@@ -66,6 +68,7 @@ export function RankingView({ proposal }: { proposal: Proposal }) {
         ) : (
           <OptionsTable rows={rows} targets={targets} selected={selected} onSelect={setChosen} current={rankedCurrent && current?.basis === 'decision' ? { topology: rankedCurrent, word: decidedWord } : null} />
         )}
+        {explanation && <p className="mt-3 border-t border-rule/60 pt-2 text-sm text-ink-soft dark:border-night-rule/60 dark:text-night-ink-soft">{explanation}</p>}
       </Sheet>
       {rows.length > 0 && (
         <Sheet>

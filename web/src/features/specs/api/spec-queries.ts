@@ -29,13 +29,15 @@ export const specDiffQuery = (id: number, from: number, to: number) =>
 export interface SpecBody {
   title: string;
   payload: Partial<SpecDocument>;
+  /** What changed and why (optional; never blank). */
+  note?: string;
 }
 
 export function createSpec(projectId: number, body: SpecBody): Promise<SpecWithLatest> {
   return apiClient.post<SpecWithLatest>(api.projectSpecs(projectId), body);
 }
 
-/** Saves the document as the spec's next version. */
+/** Saves the document as the spec's next version; an unchanged document answers `unchanged: true` and writes nothing. */
 export function saveSpecVersion(specId: number, body: SpecBody): Promise<SpecWithLatest> {
   return apiClient.put<SpecWithLatest>(api.spec(specId), body);
 }

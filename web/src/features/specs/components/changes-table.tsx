@@ -10,11 +10,12 @@ const KIND: Record<ReadableChange['kind'], { word: string; glyph: string; classN
 
 export function ChangesTable({ rows, from, to }: { rows: readonly ReadableChange[]; from: number; to: number }) {
   return (
-    <table className="w-full text-sm">
-      <caption className="mb-2 text-left text-sm text-ink-soft dark:text-night-ink-soft">
+    // Below 640 px each change stacks into a block of its own (field, change, then the two values).
+    <table className="block w-full text-sm sm:table">
+      <caption className="mb-2 block text-left text-sm text-ink-soft sm:table-caption dark:text-night-ink-soft">
         {rows.length === 1 ? '1 field differs' : `${rows.length} fields differ`} between version {from} and version {to}.
       </caption>
-      <thead>
+      <thead className="sr-only sm:not-sr-only sm:table-header-group">
         <tr className="border-b border-rule text-left text-xs tracking-wide text-ink-soft uppercase dark:border-night-rule dark:text-night-ink-soft">
           <th scope="col" className="py-1.5 pr-3 font-medium">
             Field
@@ -30,22 +31,25 @@ export function ChangesTable({ rows, from, to }: { rows: readonly ReadableChange
           </th>
         </tr>
       </thead>
-      <tbody>
+      <tbody className="block sm:table-row-group">
         {rows.map((row) => {
           const kind = KIND[row.kind];
           return (
-            <tr key={row.path} className="border-b border-rule/60 align-top dark:border-night-rule/60">
-              <th scope="row" className="py-2 pr-3 text-left font-medium">
+            <tr key={row.path} className="grid grid-cols-[auto_1fr] gap-x-3 border-b border-rule/60 py-2 align-top sm:table-row sm:py-0 dark:border-night-rule/60">
+              <th scope="row" className="col-span-2 text-left font-medium sm:py-2 sm:pr-3">
                 {row.label}
               </th>
-              <td className="py-2 pr-3">
+              <td className="col-span-2 pt-1 sm:py-2 sm:pr-3">
                 <span className={cn('inline-flex items-center gap-1 rounded px-1.5 py-0.5 text-xs font-medium whitespace-nowrap', kind.className)}>
                   <span aria-hidden="true">{kind.glyph}</span>
                   {kind.word}
                 </span>
               </td>
-              <td className={cn('py-2 pr-3 text-ink-soft tabular-nums dark:text-night-ink-soft', row.kind === 'added' && 'italic')}>{row.before}</td>
-              <td className="py-2 tabular-nums">
+              <td className={cn('pt-1 text-ink-soft tabular-nums sm:py-2 sm:pr-3 dark:text-night-ink-soft', row.kind === 'added' && 'italic')}>
+                <span className="mr-1 text-xs sm:hidden">v{from}</span>
+                {row.before}
+              </td>
+              <td className="pt-1 tabular-nums sm:py-2">
                 <span className={cn(row.kind === 'removed' ? 'text-ink-soft italic dark:text-night-ink-soft' : 'font-medium')}>
                   <span aria-hidden="true" className="mr-1 text-ink-soft dark:text-night-ink-soft">
                     →

@@ -67,6 +67,13 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
         ...transition,
       };
     }
+    case 'proposal.superseded': {
+      const by = typeof details.byProposal === 'number' ? ` by ranking #${details.byProposal}` : '';
+      const versions = typeof details.newerSpecVersion === 'number' ? ` of spec version ${String(details.newerSpecVersion)}` : '';
+      return { what: `closed this ranking: the spec moved on and was ranked again${by}${versions}`, ...transition };
+    }
+    case 'proposal.withdrawn':
+      return { what: 'withdrew this ranking', quote: typeof details.reason === 'string' ? { label: 'Reason', text: details.reason } : undefined, ...transition };
     case 'proposal.verification-requested':
       return { what: 'asked for a SPICE check of every option' };
     case 'proposal.monte-carlo-requested': {

@@ -47,6 +47,11 @@ export function ChecksTable({ checks }: { checks: Check[] }) {
               </td>
               <td role="cell" className="py-1.5 text-right whitespace-nowrap tabular-nums">
                 {check.margin === null || check.margin === undefined ? <span className="text-ink-soft dark:text-night-ink-soft">—</span> : formatMargin(check.margin, check.marginUnit)}
+                {check.thinMargin && (
+                  <span className="mt-0.5 block text-xs font-medium text-note dark:text-note-bright" title="Passes by less than 1 dB at the governing corner: a resistor drift or a slightly different transistor could tip it.">
+                    <span aria-hidden="true">▵ </span>thin margin
+                  </span>
+                )}
               </td>
             </tr>
           ))}
