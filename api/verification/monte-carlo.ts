@@ -55,6 +55,19 @@ function histogram(simulated: number[], predicted: number[]) {
   return { binEdgesDb: Array.from({ length: HISTOGRAM_BINS + 1 }, (_, i) => low + i * width), simulatedCounts: count(simulated), predictedCounts: count(predicted) };
 }
 
+export interface MonteCarloSlicing {
+  /** Runs per slice. */
+  sliceRuns: number;
+  /** Called after every full slice but the last (the queue runs other people's short jobs there); a throw ends the run. */
+  betweenSlices: () => Promise<void>;
+}
+
+/**
+ * Runs the Monte Carlo. Memory stays small whatever N: each run keeps two numbers (the simulated
+ * and the predicted rejection); ngspice's vectors are read and dropped per run. `onProgress` is
+ * awaited before each run, and a throw from it (a withdrawn job, a closing server) ends the run
+ * between two analyses.
+ */
 export async function runMonteCarlo(
   run: SpiceRunner,
   spec: Spec,
@@ -62,6 +75,7 @@ export async function runMonteCarlo(
   runs: number,
   simulator: string,
   onProgress: (done: number, step: string) => Promise<void> | void,
+  slicing?: MonteCarloSlicing,
 ): Promise<MonteCarloVerificationResult> {
   const t0 = performance.now();
   const design = option.design as Design;
@@ -74,6 +88,7 @@ export async function runMonteCarlo(
   const predictedDb: number[] = [];
   let failedRuns = 0;
   for (let i = 0; i < runs; i += 1) {
+    if (slicing && i > 0 && i % slicing.sliceRuns === 0) await slicing.betweenSlices();
     const sample = monteCarloSample(draws, i, resistorToleranceFraction(spec), spec.device.vbeMismatchSigmaV, sensitivity.thermalVoltageV);
     predictedDb.push(mismatchCmrrDb(sensitivity, sample.loadMismatch, sample.isMismatch));
     await onProgress(i, `Run ${i + 1} of ${runs} at ${governing.label}`);
