@@ -34,7 +34,7 @@ export function WithdrawJob({ proposalId, job, user, what }: { proposalId: numbe
   const running = job.state === 'simulating';
   const someoneElse = job.requestedBy.id !== user.id;
   return (
-    <div role="group" aria-label={`Confirm withdrawing ${what}`} className="space-y-2 rounded-md bg-short-soft p-2 text-xs text-short dark:bg-short/20 dark:text-short-bright">
+    <div role="group" aria-label={`Confirm withdrawing ${what}`} className="w-full space-y-2 rounded-md bg-short-soft p-2 text-xs text-short dark:bg-short/20 dark:text-short-bright">
       <p>
         Withdraw {what}?{' '}
         {running ? `It stops after the analysis under way, and the ${job.done} of ${job.total} done so far are not kept.` : 'It leaves the queue before it starts.'}
