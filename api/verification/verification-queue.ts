@@ -72,6 +72,8 @@ export interface VerificationQueueOptions {
 /** Heartbeat and progress writes at most this often, ms (the last step always gets written). */
 const PROGRESS_WRITE_INTERVAL_MS = 200;
 const DEFAULT_STALE_AFTER_MS = 60_000;
+/** How often a Monte Carlo paused for another job gets its heartbeat refreshed, ms (well inside the stale limit). */
+const PAUSED_HEARTBEAT_MS = 10_000;
 const SWEEP_INTERVAL_MS = 30_000;
 export const STOPPED_MESSAGE = 'The server stopped while this job was simulating; ask for it again to re-run it.';
 
@@ -264,7 +266,13 @@ export class VerificationQueue {
       await this.markStopped(false);
       const job = await this.claimNext({ kind: 'proposal' });
       if (!job) return;
-      await this.runJob(job);
+      // A verification on a loaded machine can take a while: keep the paused job's heartbeat fresh meanwhile.
+      const heartbeat = setInterval(() => void this.write(paused.id, {}).catch(() => undefined), PAUSED_HEARTBEAT_MS);
+      try {
+        await this.runJob(job);
+      } finally {
+        clearInterval(heartbeat);
+      }
     }
     if (!(await this.write(paused.id, {}))) throw new JobEnded();
   }
