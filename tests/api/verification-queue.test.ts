@@ -2,8 +2,8 @@
  * Sharing the one SPICE simulator fairly: the order jobs are claimed in (round-robin over the
  * people who asked, a proposal's verification before Monte Carlo), a short verification finishing
  * while another person's long Monte Carlo is still running, the cap on one person's active jobs
- * (429), withdrawing a waiting or running job (who may, what is recorded), and the simulator
- * thread replaced after a number of runs or past a heap size.
+ * (429), withdrawing a waiting or running job (who may, what is recorded), and a whole
+ * verification across simulator threads replaced after a number of runs.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { VerificationJobEntity, type VerificationJob } from '../../api/entities/verification-job.entity';
@@ -231,38 +231,7 @@ describe('withdrawing a job', () => {
   }, 60_000);
 });
 
-describe('the simulator thread replaced as it ages', () => {
-  /** A resistor divider: 1 V over 1 kΩ + 1 kΩ gives 0.5 V and 0.5 mA (Ohm's law). */
-  const divider = '* divider\nV1 in 0 DC 1\nR1 in out 1k\nR2 out 0 1k\n.op\n.end\n';
-
-  it('starts a fresh thread after the set number of runs, and every run still answers', async () => {
-    const engine = new SpiceEngine(undefined, { recycleAfterRuns: 2 });
-    try {
-      for (let i = 0; i < 5; i += 1) {
-        const result = await engine.run(divider);
-        const out = result.data.find((d) => d.name === 'v(out)')!;
-        expect(out.values[0] as number).toBeCloseTo(0.5, 9);
-      }
-      // Runs 1–2 on the first thread, 3–4 on the second, 5 on the third.
-      expect(engine.starts).toBe(3);
-      expect(engine.recycles).toBe(2);
-    } finally {
-      await engine.stop();
-    }
-  }, 60_000);
-
-  it('starts a fresh thread once the WebAssembly heap passes the bound', async () => {
-    const engine = new SpiceEngine(undefined, { recycleAboveHeapBytes: 1024 });
-    try {
-      for (let i = 0; i < 2; i += 1) await engine.run(divider);
-      // ngspice's heap is megabytes from its first run, so every run is past a 1 kB bound.
-      expect(engine.heapBytes).toBeGreaterThan(2 ** 20);
-      expect(engine.starts).toBe(2);
-    } finally {
-      await engine.stop();
-    }
-  }, 60_000);
-
+describe('the simulator thread replaced as it ages (the engine alone: tests/unit/verification/spice-engine.test.ts)', () => {
   it('runs a whole verification across recycled threads with every option verified', async () => {
     const engine = new SpiceEngine(undefined, { recycleAfterRuns: 40 });
     const api = await buildApiApp({ accounts: ['admin', 'requirements', 'designer', 'reviewer'], verification: { engine } });
