@@ -9,10 +9,12 @@
  *   asked first.
  * - Monte Carlo runs in slices of `MONTE_CARLO_SLICE_RUNS`; after each slice the instance runs
  *   the whole-proposal verifications waiting (in the same fair order, at most
- *   `INTERLEAVED_JOBS_PER_SLICE`), refreshing the paused Monte Carlo's heartbeat between them, then
- *   goes on. A verification of one proposal therefore waits for one slice (well under a second on
- *   an idle machine), not for another person's 2,000 runs. The paused job stays claimed by this
- *   instance, so the claim-token rules below hold unchanged.
+ *   `INTERLEAVED_JOBS_PER_SLICE`), and when none is left a waiting Monte Carlo of someone with
+ *   nothing simulating, keeping the paused job's heartbeat fresh, then goes on. A verification of
+ *   one proposal therefore waits for one slice (well under a second on an idle machine), not for
+ *   another person's 2,000 runs, and a second person's Monte Carlo does not wait for the first
+ *   person's to end. The paused job stays claimed by this instance, so the claim-token rules below
+ *   hold unchanged.
  * - A job is claimed by setting `waiting` → `simulating` with this instance's claim token: on
  *   SQLite (one server) by a conditional update; on PostgreSQL (several app instances) the first
  *   waiting job in the fair order is selected `FOR UPDATE SKIP LOCKED` and updated in the same
@@ -85,8 +87,11 @@ class ServerStopping extends Error {}
 /** Thrown inside a job whose row this instance may no longer write: withdrawn, or marked stopped by another instance. */
 class JobEnded extends Error {}
 
-/** Which waiting jobs a claim may take. */
-type ClaimFilter = { kind?: VerificationJob['kind'] };
+/**
+ * Which waiting jobs a claim may take: of one kind; and, with `requesterIdle`, only those of people
+ * who have no job simulating now (so a paused Monte Carlo's owner does not jump in with another).
+ */
+type ClaimFilter = { kind?: VerificationJob['kind']; requesterIdle?: boolean };
 
 /**
  * The fair order of waiting jobs: the requester served least recently first (their latest start;
@@ -216,6 +221,9 @@ export class VerificationQueue {
   private nextWaiting(query: SelectQueryBuilder<VerificationJob>, filter: ClaimFilter): SelectQueryBuilder<VerificationJob> {
     query.where('job.state = :state', { state: 'waiting' });
     if (filter.kind) query.andWhere('job.kind = :kind', { kind: filter.kind });
+    if (filter.requesterIdle) {
+      query.andWhere("NOT EXISTS (SELECT 1 FROM verification_job busy WHERE busy.requested_by_id = job.requested_by_id AND busy.state = 'simulating')");
+    }
     return fairOrder(query).limit(1);
   }
 
@@ -257,37 +265,42 @@ export class VerificationQueue {
 
   /**
    * Between two slices of a Monte Carlo: the waiting whole-proposal verifications, in the fair
-   * order, each run to its end, with the paused job's heartbeat refreshed before and after each.
+   * order, each run to its end; when none is left, one waiting Monte Carlo of a person who has
+   * nothing simulating (only between the slices of a Monte Carlo that is not itself running in
+   * such a pause, so pauses never nest deeper than one). The paused job's heartbeat is refreshed
+   * before, during and after each.
    */
-  private async interleave(paused: VerificationJob): Promise<void> {
+  private async interleave(paused: VerificationJob, nested: boolean): Promise<void> {
     for (let n = 0; n < INTERLEAVED_JOBS_PER_SLICE; n += 1) {
       this.checkStillWanted(paused.id);
       if (!(await this.write(paused.id, {}))) throw new JobEnded();
       await this.markStopped(false);
-      const job = await this.claimNext({ kind: 'proposal' });
-      if (!job) return;
-      // A verification on a loaded machine can take a while: keep the paused job's heartbeat fresh meanwhile.
+      const job = (await this.claimNext({ kind: 'proposal' })) ?? (nested ? null : await this.claimNext({ kind: 'monte-carlo', requesterIdle: true }));
+      if (!job) break;
+      // A job on a loaded machine can take a while: keep the paused job's heartbeat fresh meanwhile.
       const heartbeat = setInterval(() => void this.write(paused.id, {}).catch(() => undefined), PAUSED_HEARTBEAT_MS);
       try {
-        await this.runJob(job);
+        await this.runJob(job, true);
       } finally {
         clearInterval(heartbeat);
       }
     }
+    this.checkStillWanted(paused.id);
     if (!(await this.write(paused.id, {}))) throw new JobEnded();
   }
 
-  private async runJob(job: VerificationJob): Promise<void> {
+  /** Runs a claimed job; `nested` when it runs in another Monte Carlo's pause. */
+  private async runJob(job: VerificationJob, nested = false): Promise<void> {
     this.runningHere.add(job.id);
     try {
-      await this.runClaimed(job);
+      await this.runClaimed(job, nested);
     } finally {
       this.runningHere.delete(job.id);
       this.withdrawnHere.delete(job.id);
     }
   }
 
-  private async runClaimed(job: VerificationJob): Promise<void> {
+  private async runClaimed(job: VerificationJob, nested: boolean): Promise<void> {
     try {
       const { proposal, spec, result, specVersion } = await loadProposal(this.dataSource, job.proposalId);
       const targets = job.kind === 'proposal' ? await verificationTargets(this.dataSource, proposal, spec, result, specVersion, this.options.netlistHook) : [];
@@ -311,7 +324,7 @@ export class VerificationQueue {
           job.runs ?? 0,
           simulator,
           (done, step) => progress(done, `${target.name}: ${step}`),
-          { sliceRuns: MONTE_CARLO_SLICE_RUNS, betweenSlices: () => this.interleave(job) },
+          { sliceRuns: MONTE_CARLO_SLICE_RUNS, betweenSlices: () => this.interleave(job, nested) },
         );
         const outcome: MonteCarloVerificationResult = { ...simulated, source: job.source, binding: target.binding };
         await this.finish(job, outcome, job.runs ?? 0);

@@ -74,11 +74,11 @@ describe('the order waiting jobs are claimed in', () => {
   }, 120_000);
 });
 
-describe('a short verification while another person floods the queue with Monte Carlo', () => {
+describe('short work while another person floods the queue with Monte Carlo', () => {
   let api: TestApi;
   afterAll(() => api?.close());
 
-  it('finishes while the first Monte Carlo is still running and the others still wait', async () => {
+  it('a verification, then a short Monte Carlo of a second person, each finish while the first Monte Carlo is still running and the others still wait', async () => {
     api = await buildApiApp({ accounts: ['admin', 'requirements', 'designer', 'reviewer'] });
     const project = await api.createProject(['requirements', 'designer', 'reviewer']);
     const spec = await api.createSpec(project.id);
@@ -104,6 +104,15 @@ describe('a short verification while another person floods the queue with Monte 
     const result = JSON.parse(mine.result!) as ProposalVerificationResult;
     expect(result.options.length).toBe(other.result.options.length);
     for (const option of result.options) expect(option.outcome, option.topology).toBe('verified');
+
+    // A second person's (short) Monte Carlo does not wait for the first person's to end either.
+    const theirs = await reviewer.post(`/api/proposals/${other.id}/verification/monte-carlo`).send({ topology: 'wilson', runs: 60 }).expect(202);
+    const finishedMonteCarlo = await until(api, theirs.body.id, (job) => settledStates.includes(job.state));
+    expect(finishedMonteCarlo.state).toBe('finished');
+    const firstAgain = await api.dataSource.getRepository(VerificationJobEntity).findOneByOrFail({ id: flood[0] });
+    expect(firstAgain.state, 'the first Monte Carlo is still paused').toBe('simulating');
+    expect(firstAgain.done).toBeLessThan(2000);
+    for (const id of flood.slice(1)) expect((await api.dataSource.getRepository(VerificationJobEntity).findOneByOrFail({ id })).state, 'the flood’s own jobs do not jump in').toBe('waiting');
 
     // The flood is called off so the file ends quickly (and withdrawing a running job stops it).
     for (const id of flood) await designer.delete(`/api/proposals/${flooded.id}/verification/${id}`).expect(200);
