@@ -6,7 +6,8 @@
  * requests must answer 429), and the reviewer's verification is timed again while the flood runs
  * (median of three). Requirement: ≤ 3× the idle time. The flood then runs on for a while with
  * the server's resident memory sampled (the simulator thread is recycled, so memory must stay
- * bounded), and is withdrawn: the simulator must be free again within seconds.
+ * bounded), and is withdrawn: a verification asked for then must be done within 3× its idle time
+ * plus one cold start (the withdrawal may land while the simulator thread is being replaced).
  */
 import { join } from 'node:path';
 import { specPayload } from '../helpers/api-app';
@@ -137,7 +138,8 @@ export async function fairnessPart(runOptions: RunOptions): Promise<PartResult> 
         row(PART, 'same, while another user floods Monte Carlo', `${(floodedMs / 1000).toFixed(2)} s (${ratio.toFixed(2)}×)`, `≤ ${MAX_RATIO}× idle`, ratio <= MAX_RATIO),
         row(PART, 'flood requests past the per-person cap refused', `${refused} of ${FLOOD_REQUESTS - 6}`, '429 each', refused === FLOOD_REQUESTS - 6 && other.length === 0),
         row(PART, 'server memory growth during the flood (peak)', mb(peak - rssBefore), `≤ ${mb(MAX_GROWTH_BYTES)}`, peak - rssBefore <= MAX_GROWTH_BYTES),
-        row(PART, 'flood withdrawn, then a verification done', `${(freedMs / 1000).toFixed(2)} s`, `≤ ${MAX_RATIO}× idle + 5 s`, freedMs <= MAX_RATIO * idleMs + 5000),
+        // The withdrawal may land just as the simulator thread is being replaced: allow one start (the cold run's time).
+        row(PART, 'flood withdrawn, then a verification done', `${(freedMs / 1000).toFixed(2)} s`, `≤ ${MAX_RATIO}× idle + a cold start (${((MAX_RATIO * idleMs + cold) / 1000).toFixed(1)} s)`, freedMs <= MAX_RATIO * idleMs + cold),
       ],
     };
   } finally {
