@@ -124,7 +124,9 @@ export async function fairnessPart(runOptions: RunOptions): Promise<PartResult> 
 
     // Withdraw the flood; the simulator must be free again promptly
     const t0 = performance.now();
-    for (const job of progress.filter((j) => ['waiting', 'simulating'].includes(j.state))) {
+    // The waiting ones first: withdrawing the running one first would let the queue start the next of the flood meanwhile
+    const active = [...progress.filter((j) => j.state === 'waiting'), ...progress.filter((j) => j.state === 'simulating')];
+    for (const job of active) {
       const answer = await designer.request('DELETE', `/api/proposals/${proposalOf.get(job.id)}/verification/${job.id}`);
       if (answer.status !== 200) log(`withdrawing job ${job.id} answered ${answer.status}: ${answer.text.slice(0, 200)}`);
     }
