@@ -19,7 +19,8 @@ import {
   type VerificationKind,
   type VerificationStatus,
 } from '../../shared/verification/types';
-import { may } from '../../shared/workflow/roles';
+import { mayIn, type ProjectRole } from '../../shared/workflow/roles';
+import { ProjectMemberEntity } from '../entities/project-member.entity';
 import { checkedSpecDocument } from './specs.service';
 import { currentDesignOf, proposalFor } from './proposals.service';
 import { designVerificationState } from './design-verification';
@@ -176,11 +177,11 @@ export async function verificationStatus(dataSource: DataSource, viewer: Viewer,
 }
 
 /**
- * Whether a person may withdraw a job: the person who asked for it, a reviewer of the project (the
- * project is already visible to them), or an administrator.
+ * Whether a person may withdraw a job: the person who asked for it, whoever reviews in the job's
+ * project (by the role held there), or an administrator.
  */
-function mayWithdraw(actor: Viewer, job: VerificationJob): boolean {
-  return job.requestedById === actor.id || actor.role === 'admin' || may(actor.role, 'proposals:review');
+function mayWithdraw(actor: Viewer, projectRole: ProjectRole | null | undefined, job: VerificationJob): boolean {
+  return job.requestedById === actor.id || actor.role === 'admin' || mayIn(actor.role, projectRole, 'proposals:review');
 }
 
 /**
@@ -196,7 +197,8 @@ export async function withdrawJob(dataSource: DataSource, actor: Viewer, proposa
     const repository = manager.getRepository(VerificationJobEntity);
     const found = await repository.findOneBy({ id: jobId, proposalId });
     if (!found) throw notFound('verification-job');
-    if (!mayWithdraw(actor, found)) throw forbidden('Only the person who asked for this SPICE job, a reviewer or an administrator may withdraw it.');
+    const membership = await manager.getRepository(ProjectMemberEntity).findOneBy({ projectId: proposal.projectId, userId: actor.id });
+    if (!mayWithdraw(actor, membership?.role, found)) throw forbidden('Only the person who asked for this SPICE job, a reviewer or an administrator may withdraw it.');
     if (!(ACTIVE_STATES as readonly string[]).includes(found.state)) {
       throw conflict('verification-job-settled', `This SPICE job has already ${found.state === 'withdrawn' ? 'been withdrawn' : `ended (${found.state})`}; there is nothing to withdraw.`);
     }

@@ -224,6 +224,17 @@ describe('withdrawing a job', () => {
     await api.app.verification.idle();
   }, 120_000);
 
+  it('goes by the role held in the job’s project: a reviewer elsewhere who designs here is refused, a designer elsewhere who reviews here may', async () => {
+    const swapped = await api.createProject(['requirements', 'designer', 'designer2', 'reviewer2'], 'Sallow tide gauge', { designer2: 'reviewer', reviewer2: 'designer' });
+    const spec = await api.createSpec(swapped.id);
+    const proposal = await api.createProposal(spec.id);
+    const job = (await clients.designer.post(`/api/proposals/${proposal.id}/verification/monte-carlo`).send({ topology: 'wilson', runs: 2000 }).expect(202)).body as VerificationJobView;
+    const refused = await clients.reviewer2.delete(`/api/proposals/${proposal.id}/verification/${job.id}`).expect(403);
+    expect(refused.body.code).toBe('forbidden');
+    await clients.designer2.delete(`/api/proposals/${proposal.id}/verification/${job.id}`).expect(200);
+    await api.app.verification.idle();
+  }, 60_000);
+
   it('answers 404 outside the project, for another proposal’s job and for no job; 409 once settled', async () => {
     const job = await askMonteCarlo();
     const outsider = await clients.reviewer2.delete(`/api/proposals/${proposalId}/verification/${job.id}`).expect(404);

@@ -78,7 +78,7 @@ export function VerificationPanel({ proposal, user }: { proposal: Proposal; user
             {canVerify ? 'Run every option through SPICE to compare the engine’s figures with ngspice’s.' : 'A designer or reviewer can ask for a SPICE check of every option.'}
           </EmptyState>
         ) : running ? (
-          <JobProgress job={job} label="Every option" withdraw={<WithdrawJob proposalId={proposal.id} job={job} user={user} what="the SPICE check of every option" />} />
+          <JobProgress job={job} label="Every option" withdraw={<WithdrawJob proposalId={proposal.id} projectId={proposal.projectId} job={job} user={user} what="the SPICE check of every option" />} />
         ) : job.state !== 'finished' ? (
           <JobProblem job={job} what="The SPICE check" action={action} />
         ) : isProposalResult(job.result) ? (

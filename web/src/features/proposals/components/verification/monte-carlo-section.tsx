@@ -153,7 +153,7 @@ export function MonteCarloSection({ proposal, status, canVerify, user }: { propo
             <JobProgress
               job={job}
               label={`Monte Carlo of the ${name}, ${job.runs ?? '?'} runs`}
-              withdraw={<WithdrawJob proposalId={proposal.id} job={job} user={user} what={`the Monte Carlo of the ${name}`} />}
+              withdraw={<WithdrawJob proposalId={proposal.id} projectId={proposal.projectId} job={job} user={user} what={`the Monte Carlo of the ${name}`} />}
             />
           ) : job.state !== 'finished' ? (
             <JobProblem job={job} what="The Monte Carlo" />

@@ -1,14 +1,14 @@
 import { useState } from 'react';
 import type { VerificationJobView } from '../../../../../../shared/verification/types';
-import { may } from '../../../../../../shared/workflow/roles';
+import { mayAs } from '../../../../../../shared/workflow/roles';
 import { Button } from '../../../../components/ui/button';
 import type { User } from '../../../../lib/api-types';
 import { useWithdrawMutation } from '../../api/verification-mutations';
 import { MutationError } from './mutation-error';
 
-/** Whether a person may withdraw a job: the one who asked for it, a reviewer, or an administrator (the server decides the same way). */
-export function mayWithdraw(user: Pick<User, 'id' | 'role'>, job: Pick<VerificationJobView, 'requestedBy'>): boolean {
-  return job.requestedBy.id === user.id || user.role === 'admin' || may(user.role, 'proposals:review');
+/** Whether a person may withdraw a job: the one who asked for it, a reviewer of the project, or an administrator (the server decides the same way). */
+export function mayWithdraw(user: User, projectId: number, job: Pick<VerificationJobView, 'requestedBy'>): boolean {
+  return job.requestedBy.id === user.id || user.role === 'admin' || mayAs(user, projectId, 'proposals:review');
 }
 
 /**
@@ -16,10 +16,10 @@ export function mayWithdraw(user: Pick<User, 'id' | 'role'>, job: Pick<Verificat
  * what is lost. A simulating job stops between two analyses and keeps no result; the same work
  * can be asked for again.
  */
-export function WithdrawJob({ proposalId, job, user, what }: { proposalId: number; job: VerificationJobView; user: User; what: string }) {
+export function WithdrawJob({ proposalId, projectId, job, user, what }: { proposalId: number; projectId: number; job: VerificationJobView; user: User; what: string }) {
   const [confirming, setConfirming] = useState(false);
   const withdraw = useWithdrawMutation(proposalId);
-  if (!mayWithdraw(user, job)) return null;
+  if (!mayWithdraw(user, projectId, job)) return null;
   const keep = () => {
     withdraw.reset();
     setConfirming(false);
