@@ -28,6 +28,7 @@ import { measurementsRoutes } from './routes/measurements.routes';
 import { projectsRoutes } from './routes/projects.routes';
 import { proposalsRoutes } from './routes/proposals.routes';
 import { VerificationQueue } from './verification/verification-queue';
+import { SpiceEngine, type SpiceEngineOptions } from './verification/spice-engine';
 import { specsRoutes } from './routes/specs.routes';
 import { usersRoutes } from './routes/users.routes';
 
@@ -49,6 +50,8 @@ export interface AppDeps {
   staticDir?: string;
   /** The SPICE verification queue (default: one on this database, its engine started on the first job). */
   verification?: VerificationQueue;
+  /** When to replace the default queue's simulator thread (runs, heap size); defaults in spice-engine.ts. */
+  simulator?: SpiceEngineOptions;
   /**
    * Where uploaded files (bench measurements) are kept, named by their sha256. Default: `uploads`
    * beside a SQLite file; for an in-memory database a temporary folder removed by closeApp.
@@ -133,7 +136,8 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.use('/api/projects', batchRoutes(deps.dataSource));
   app.use('/api/specs', specsRoutes(deps.dataSource, deps.ruleSet, deps.proposalsPerMinute));
   const verification =
-    deps.verification ?? new VerificationQueue(deps.dataSource, { log: deps.log, singleInstance: deps.dataSource.options.type === 'better-sqlite3' });
+    deps.verification ??
+    new VerificationQueue(deps.dataSource, { log: deps.log, singleInstance: deps.dataSource.options.type === 'better-sqlite3', engine: new SpiceEngine(undefined, deps.simulator) });
   app.verification = verification;
   const uploads = deps.uploadsDir ? { dir: resolve(deps.uploadsDir), temporary: false } : defaultUploadsDir(deps.dataSource);
   app.uploadsDir = uploads.dir;

@@ -7,6 +7,7 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { DEFAULT_POOL_SIZE } from './data-source';
 import { PROPOSALS_PER_MINUTE } from './services/proposal-rate';
+import { DEFAULT_RECYCLE_ABOVE_HEAP_BYTES, DEFAULT_RECYCLE_AFTER_RUNS } from './verification/spice-engine';
 
 export interface Config {
   port: number;
@@ -34,6 +35,8 @@ export interface Config {
   /** Where links in e-mails point (LONGTAIL_BASE_URL; default http://localhost:PORT). */
   baseUrl: string;
   mail: MailConfig;
+  /** When the SPICE simulator thread is replaced (LONGTAIL_SPICE_RECYCLE_RUNS, LONGTAIL_SPICE_RECYCLE_HEAP_MB). */
+  simulator: { recycleAfterRuns: number; recycleAboveHeapBytes: number };
 }
 
 /** A real SMTP server: a connection URL, or host and port with optional credentials. */
@@ -111,6 +114,10 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   if (!Number.isInteger(proposalsPerMinute) || proposalsPerMinute < 1) problems.push(`LONGTAIL_PROPOSALS_PER_MINUTE must be a whole number of at least 1, got "${env.LONGTAIL_PROPOSALS_PER_MINUTE}"`);
   const baseUrl = (env.LONGTAIL_BASE_URL ?? `http://localhost:${port}`).replace(/\/+$/, '');
   if (!/^https?:\/\/[^/\s]+/.test(baseUrl)) problems.push(`LONGTAIL_BASE_URL must be an http(s) address, got "${env.LONGTAIL_BASE_URL}"`);
+  const recycleAfterRuns = Number(env.LONGTAIL_SPICE_RECYCLE_RUNS ?? DEFAULT_RECYCLE_AFTER_RUNS);
+  if (!Number.isInteger(recycleAfterRuns) || recycleAfterRuns < 100 || recycleAfterRuns > 1_000_000) problems.push(`LONGTAIL_SPICE_RECYCLE_RUNS must be a whole number from 100 to 1000000, got "${env.LONGTAIL_SPICE_RECYCLE_RUNS}"`);
+  const recycleHeapMb = Number(env.LONGTAIL_SPICE_RECYCLE_HEAP_MB ?? DEFAULT_RECYCLE_ABOVE_HEAP_BYTES / 2 ** 20);
+  if (!Number.isInteger(recycleHeapMb) || recycleHeapMb < 32 || recycleHeapMb > 4096) problems.push(`LONGTAIL_SPICE_RECYCLE_HEAP_MB must be a whole number of MB from 32 to 4096, got "${env.LONGTAIL_SPICE_RECYCLE_HEAP_MB}"`);
   if (problems.length > 0) throw new Error(`Configuration problems:\n- ${problems.join('\n- ')}`);
   if (sessionSecret === '') sessionSecret = localSessionSecret(databasePath);
   return {
@@ -129,5 +136,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     trustProxy: env.LONGTAIL_TRUST_PROXY === 'true',
     baseUrl,
     mail: { from: env.LONGTAIL_MAIL_FROM ?? DEFAULT_MAIL_FROM, smtp, localSmtpPort },
+    simulator: { recycleAfterRuns, recycleAboveHeapBytes: recycleHeapMb * 2 ** 20 },
   };
 }

@@ -46,7 +46,16 @@ if (config.firstAdmin && (await seedFirstAdmin(dataSource, config.firstAdmin))) 
 const webDir = resolve('dist/web');
 const staticDir = existsSync(join(webDir, 'index.html')) ? webDir : undefined;
 if (!staticDir) console.log('No built browser app in dist/web (npm run build): serving the API only.');
-const app = createApp({ dataSource, sessionSecret: config.sessionSecret, ruleSet, trustProxy: config.trustProxy, staticDir, uploadsDir: config.uploadsDir, proposalsPerMinute: config.proposalsPerMinute });
+const app = createApp({
+  dataSource,
+  sessionSecret: config.sessionSecret,
+  ruleSet,
+  trustProxy: config.trustProxy,
+  staticDir,
+  uploadsDir: config.uploadsDir,
+  proposalsPerMinute: config.proposalsPerMinute,
+  simulator: config.simulator,
+});
 const server = app.listen(config.port, () => {
   console.log(`Longtail listening on http://localhost:${config.port} (database ${describeDatabase(config.database)})`);
   // Start the SPICE engine now, in its own thread, so the first verification does not wait for it.

@@ -10,7 +10,7 @@ import { invalid } from '../errors';
 import { allMeasurements } from '../services/measurements.service';
 import { decide, evaluateOverride, getProposal, proposalAudit, proposalNetlist, review, withdraw } from '../services/proposals.service';
 import { DECISION_BODY, EVALUATION_BODY, MONTE_CARLO_BODY, NETLIST_QUERY, REVIEW_BODY, WITHDRAWAL_BODY } from '../validation/bodies';
-import { requestMonteCarlo, requestVerification, verificationStatus } from '../services/verification.service';
+import { requestMonteCarlo, requestVerification, verificationStatus, withdrawJob } from '../services/verification.service';
 import type { VerificationQueue } from '../verification/verification-queue';
 import { idParam, validateBody, validateQuery } from '../validation/validate-request';
 
@@ -66,6 +66,12 @@ export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet, verifi
     const { job } = await requestMonteCarlo(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), req.body);
     verification.kick();
     res.status(202).json(job);
+  });
+  router.delete('/:id/verification/:jobId', async (req, res) => {
+    // The requester, a reviewer or an administrator (decided per job in the service, so no role guard here).
+    const job = await withdrawJob(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), idParam(req.params.jobId, 'verification-job'));
+    verification.withdrawn(job.id);
+    res.json(job);
   });
   router.get('/:id/audit', async (req, res) => {
     res.json({ items: await proposalAudit(dataSource, currentUser(req), idParam(req.params.id, 'proposal')) });

@@ -1,7 +1,7 @@
 /**
- * Asking for SPICE verification and reading its progress and results. The jobs themselves run in
- * `api/verification/verification-queue.ts`; this file only records requests (with their audit
- * event, in one transaction) and shows jobs.
+ * Asking for SPICE verification, withdrawing it, and reading its progress and results. The jobs
+ * themselves run in `api/verification/verification-queue.ts`; this file only records requests
+ * and withdrawals (each with its audit event, in one transaction) and shows jobs.
  */
 import { In, type DataSource } from 'typeorm';
 import { UserEntity } from '../entities/user.entity';
@@ -9,9 +9,18 @@ import { VerificationJobEntity, type VerificationJob } from '../entities/verific
 import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { lockRowForUpdate } from '../data-source';
 import { ProposalEntity } from '../entities/proposal.entity';
-import { conflict, invalid } from '../errors';
+import { AppError, conflict, forbidden, invalid, notFound } from '../errors';
 import type { RecommendOption, RecommendResult } from '../../shared/engine/recommend';
-import { MONTE_CARLO_RUNS, type VerificationJobView, type VerificationKind, type VerificationStatus } from '../../shared/verification/types';
+import {
+  ACTIVE_VERIFICATION_STATES,
+  MAX_ACTIVE_JOBS_PER_PERSON,
+  MONTE_CARLO_RUNS,
+  type VerificationJobView,
+  type VerificationKind,
+  type VerificationStatus,
+} from '../../shared/verification/types';
+import { mayIn, type ProjectRole } from '../../shared/workflow/roles';
+import { ProjectMemberEntity } from '../entities/project-member.entity';
 import { checkedSpecDocument } from './specs.service';
 import { currentDesignOf, proposalFor } from './proposals.service';
 import { designVerificationState } from './design-verification';
@@ -22,7 +31,7 @@ import type { PublicUser } from './users.service';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
-const ACTIVE_STATES = ['waiting', 'simulating'] as const;
+const ACTIVE_STATES = ACTIVE_VERIFICATION_STATES;
 
 async function jobViews(dataSource: DataSource, jobs: VerificationJob[]): Promise<VerificationJobView[]> {
   const ids = [...new Set(jobs.map((j) => j.requestedById))];
@@ -68,6 +77,15 @@ async function requestJob(
       order: { id: 'DESC' },
     });
     if (active) return { job: active, created: false };
+    // One person may hold only so much of the shared simulator (every project counts).
+    const held = await repository.count({ where: { requestedById: actor.id, state: In([...ACTIVE_STATES]) } });
+    if (held >= MAX_ACTIVE_JOBS_PER_PERSON) {
+      throw new AppError(
+        'too-many-verification-jobs',
+        429,
+        `You already have ${held} SPICE jobs waiting or simulating, the most one person may have at once (${MAX_ACTIVE_JOBS_PER_PERSON}). Withdraw one or wait until one finishes, then ask again.`,
+      );
+    }
     const saved = await repository.save({
       proposalId,
       kind,
@@ -156,4 +174,50 @@ export async function verificationStatus(dataSource: DataSource, viewer: Viewer,
   const current = currentDesignOf(proposal, version.version, JSON.parse(proposal.result) as RecommendResult, decisions);
   const currentDesign = await designVerificationState(dataSource, proposalId, current);
   return latest ? { verification: views[0], monteCarlo: views.slice(1), currentDesign } : { verification: null, monteCarlo: views, currentDesign };
+}
+
+/**
+ * Whether a person may withdraw a job: the person who asked for it, whoever reviews in the job's
+ * project (by the role held there), or an administrator.
+ */
+function mayWithdraw(actor: Viewer, projectRole: ProjectRole | null | undefined, job: VerificationJob): boolean {
+  return job.requestedById === actor.id || actor.role === 'admin' || mayIn(actor.role, projectRole, 'proposals:review');
+}
+
+/**
+ * Withdraws a waiting or simulating job (state `withdrawn`, with who did it in the message, and
+ * its audit event in the same transaction). 404 when the proposal is not visible or the job is
+ * not one of its own; 403 for anyone else than the requester, a reviewer or an administrator; 409
+ * once the job has settled. A simulating job's claimant notices at its next write and stops.
+ */
+export async function withdrawJob(dataSource: DataSource, actor: Viewer, proposalId: number, jobId: number): Promise<VerificationJobView> {
+  const job = await dataSource.transaction(async (manager) => {
+    const proposal = await proposalFor(manager, actor, proposalId);
+    await lockRowForUpdate(manager, VerificationJobEntity, jobId);
+    const repository = manager.getRepository(VerificationJobEntity);
+    const found = await repository.findOneBy({ id: jobId, proposalId });
+    if (!found) throw notFound('verification-job');
+    const membership = await manager.getRepository(ProjectMemberEntity).findOneBy({ projectId: proposal.projectId, userId: actor.id });
+    if (!mayWithdraw(actor, membership?.role, found)) throw forbidden('Only the person who asked for this SPICE job, a reviewer or an administrator may withdraw it.');
+    if (!(ACTIVE_STATES as readonly string[]).includes(found.state)) {
+      throw conflict('verification-job-settled', `This SPICE job has already ${found.state === 'withdrawn' ? 'been withdrawn' : `ended (${found.state})`}; there is nothing to withdraw.`);
+    }
+    const person = await manager.getRepository(UserEntity).findOneByOrFail({ id: actor.id });
+    const at = new Date().toISOString();
+    const changes = { state: 'withdrawn' as const, message: `Withdrawn by ${person.displayName}.`, finishedAt: at, step: null, claimToken: null };
+    const updated = await repository.update({ id: jobId, state: found.state }, changes);
+    if (updated.affected !== 1) throw conflict('verification-job-settled', 'This SPICE job ended while it was being withdrawn; there is nothing to withdraw.');
+    await recordEvent(manager, {
+      actorId: actor.id,
+      action: 'proposal.verification-withdrawn',
+      entityType: 'verification-job',
+      entityId: jobId,
+      projectId: proposal.projectId,
+      proposalId,
+      afterId: jobId,
+      details: { kind: found.kind, topology: found.topology, runs: found.runs, was: found.state, requestedById: found.requestedById },
+    });
+    return { ...found, ...changes };
+  });
+  return (await jobViews(dataSource, [job]))[0];
 }

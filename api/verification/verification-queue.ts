@@ -2,12 +2,29 @@
  * Verification jobs: asked for through the API, run in the background one at a time on the one
  * long-lived SPICE engine, progress written to the job row as it goes.
  *
+ * - Fair order: the next job claimed is the waiting job of the person served least recently (the
+ *   latest `started_at` among their jobs; someone never served goes first), a whole-proposal
+ *   verification before that person's Monte Carlo, then the oldest. So one person's queue of
+ *   Monte Carlo jobs takes turns with everyone else's instead of going first because it was
+ *   asked first.
+ * - Monte Carlo runs in slices of `MONTE_CARLO_SLICE_RUNS`; after each slice the instance runs
+ *   the whole-proposal verifications waiting (in the same fair order, at most
+ *   `INTERLEAVED_JOBS_PER_SLICE`), and when none is left a waiting Monte Carlo of someone with
+ *   nothing simulating, keeping the paused job's heartbeat fresh, then goes on. A verification of
+ *   one proposal therefore waits for one slice (well under a second on an idle machine), not for
+ *   another person's 2,000 runs, and a second person's Monte Carlo does not wait for the first
+ *   person's to end. The paused job stays claimed by this instance, so the claim-token rules below
+ *   hold unchanged.
  * - A job is claimed by setting `waiting` → `simulating` with this instance's claim token: on
- *   SQLite (one server) by a conditional update; on PostgreSQL (several app instances) the oldest
- *   waiting job is selected `FOR UPDATE SKIP LOCKED` and updated in the same transaction, so two
- *   instances never claim the same job and neither waits for the other's row. Every later write
- *   checks the token, so a job taken over or marked stopped is never overwritten by an instance
- *   that lost it.
+ *   SQLite (one server) by a conditional update; on PostgreSQL (several app instances) the first
+ *   waiting job in the fair order is selected `FOR UPDATE SKIP LOCKED` and updated in the same
+ *   transaction, so two instances never claim the same job and neither waits for the other's row.
+ *   Every later write checks the token and the state, so a job taken over, marked stopped or
+ *   withdrawn is never overwritten by an instance that lost it; a refused write ends the job's run
+ *   at once (between two analyses).
+ * - Withdrawing (`verification.service.ts`) writes `withdrawn` to the row from any instance; the
+ *   claimant notices at its next progress write (at most `PROGRESS_WRITE_INTERVAL_MS` later), or
+ *   before its next analysis when the withdrawal came through this instance (`withdrawn(jobId)`).
  * - While simulating, the claimant refreshes `heartbeat_at`. On start, jobs left `simulating` by a
  *   stopped server are marked `stopped` (SQLite: there is only one server, so every one of them;
  *   otherwise those whose heartbeat is older than `staleAfterMs`), and the same sweep runs before
@@ -15,7 +32,7 @@
  * - A failing or non-converging simulation becomes that option's error; the job still finishes.
  */
 import { randomUUID } from 'node:crypto';
-import type { DataSource, EntityManager } from 'typeorm';
+import type { DataSource, EntityManager, Repository, SelectQueryBuilder } from 'typeorm';
 import { isPostgres } from '../data-source';
 import { checkedSpecDocument } from '../services/specs.service';
 import { DecisionEntity } from '../entities/decision.entity';
@@ -37,6 +54,11 @@ import { SpiceEngine } from './spice-engine';
 import { analysesPerOption, verifyOption, type OptionToVerify } from './verify-option';
 import { runMonteCarlo } from './monte-carlo';
 
+/** Monte Carlo runs between two looks for waiting verifications (100 analyses; ≈ 0.3 s idle). */
+export const MONTE_CARLO_SLICE_RUNS = 50;
+/** Whole-proposal verifications run between two Monte Carlo slices at most (so a stream of them cannot starve a Monte Carlo). */
+export const INTERLEAVED_JOBS_PER_SLICE = 4;
+
 export interface VerificationQueueOptions {
   /** The engine to run on (default: a new one, started on the first job). */
   engine?: SpiceEngine;
@@ -52,6 +74,8 @@ export interface VerificationQueueOptions {
 /** Heartbeat and progress writes at most this often, ms (the last step always gets written). */
 const PROGRESS_WRITE_INTERVAL_MS = 200;
 const DEFAULT_STALE_AFTER_MS = 60_000;
+/** How often a Monte Carlo paused for another job gets its heartbeat refreshed, ms (well inside the stale limit). */
+const PAUSED_HEARTBEAT_MS = 10_000;
 const SWEEP_INTERVAL_MS = 30_000;
 export const STOPPED_MESSAGE = 'The server stopped while this job was simulating; ask for it again to re-run it.';
 
@@ -59,6 +83,28 @@ const now = () => new Date().toISOString();
 
 /** Thrown inside a job when the queue is closing. */
 class ServerStopping extends Error {}
+
+/** Thrown inside a job whose row this instance may no longer write: withdrawn, or marked stopped by another instance. */
+class JobEnded extends Error {}
+
+/**
+ * Which waiting jobs a claim may take: of one kind; and, with `requesterIdle`, only those of people
+ * who have no job simulating now (so a paused Monte Carlo's owner does not jump in with another).
+ */
+type ClaimFilter = { kind?: VerificationJob['kind']; requesterIdle?: boolean };
+
+/**
+ * The fair order of waiting jobs: the requester served least recently first (their latest start;
+ * '' when never), whole-proposal verifications before Monte Carlo, then the oldest.
+ */
+function fairOrder(query: SelectQueryBuilder<VerificationJob>): SelectQueryBuilder<VerificationJob> {
+  return query
+    .addSelect('COALESCE((SELECT MAX(served.started_at) FROM verification_job served WHERE served.requested_by_id = job.requested_by_id), \'\')', 'last_served')
+    .addSelect("CASE WHEN job.kind = 'proposal' THEN 0 ELSE 1 END", 'kind_rank')
+    .orderBy('last_served', 'ASC')
+    .addOrderBy('kind_rank', 'ASC')
+    .addOrderBy('job.id', 'ASC');
+}
 
 export class VerificationQueue {
   readonly engine: SpiceEngine;
@@ -68,6 +114,10 @@ export class VerificationQueue {
   private kickedWhileDraining = false;
   private readonly sweeper: NodeJS.Timeout;
   private closed = false;
+  /** Jobs this instance is running now (a Monte Carlo and a verification between its slices). */
+  private readonly runningHere = new Set<number>();
+  /** Of those, the ones withdrawn through this instance: their run stops before its next analysis. */
+  private readonly withdrawnHere = new Set<number>();
   /** Resolves once the start-up sweep has marked jobs left by a stopped server. */
   readonly ready: Promise<void>;
 
@@ -115,6 +165,12 @@ export class VerificationQueue {
       });
   }
 
+  /** A job was withdrawn (through this instance): if it runs here, stop it before its next analysis, then look for more work. */
+  withdrawn(jobId: number): void {
+    if (this.runningHere.has(jobId)) this.withdrawnHere.add(jobId);
+    this.kick();
+  }
+
   /** Resolves when no job is being worked on (tests). */
   async idle(): Promise<void> {
     await this.ready;
@@ -141,43 +197,44 @@ export class VerificationQueue {
     }
   }
 
-  /** The oldest waiting job, claimed by this instance; null when there is none. */
-  private async claimNext(): Promise<VerificationJob | null> {
-    if (isPostgres(this.dataSource)) return this.claimNextLocked();
+  /** The next waiting job in the fair order, claimed by this instance; null when there is none. */
+  private async claimNext(filter: ClaimFilter = {}): Promise<VerificationJob | null> {
+    if (isPostgres(this.dataSource)) return this.claimNextLocked(filter);
     const repository = this.dataSource.getRepository(VerificationJobEntity);
     for (;;) {
-      const next = await repository.findOne({ where: { state: 'waiting' }, order: { id: 'ASC' } });
+      const next = await this.nextWaiting(repository.createQueryBuilder('job'), filter).getOne();
       if (!next) return null;
-      const at = now();
-      const claimed = await repository.update(
-        { id: next.id, state: 'waiting' },
-        { state: 'simulating', claimToken: this.claimToken, startedAt: at, heartbeatAt: at, step: 'Starting the simulator' },
-      );
-      if (claimed.affected === 1) return { ...next, state: 'simulating', claimToken: this.claimToken, startedAt: at, heartbeatAt: at };
+      const claimed = await this.claim(repository, next);
+      if (claimed) return claimed;
     }
   }
 
-  /** PostgreSQL: the oldest waiting job no other instance is claiming, row-locked and claimed in one transaction. */
-  private claimNextLocked(): Promise<VerificationJob | null> {
+  /** PostgreSQL: the next waiting job no other instance is claiming, row-locked and claimed in one transaction. */
+  private claimNextLocked(filter: ClaimFilter): Promise<VerificationJob | null> {
     return this.dataSource.transaction(async (manager) => {
       const repository = manager.getRepository(VerificationJobEntity);
-      const next = await repository
-        .createQueryBuilder('job')
-        .where('job.state = :state', { state: 'waiting' })
-        .orderBy('job.id', 'ASC')
-        .limit(1)
-        .setLock('pessimistic_write')
-        .setOnLocked('skip_locked')
-        .getOne();
-      if (!next) return null;
-      const at = now();
-      const claimed = await repository.update(
-        { id: next.id, state: 'waiting' },
-        { state: 'simulating', claimToken: this.claimToken, startedAt: at, heartbeatAt: at, step: 'Starting the simulator' },
-      );
-      if (claimed.affected !== 1) return null;
-      return { ...next, state: 'simulating' as const, claimToken: this.claimToken, startedAt: at, heartbeatAt: at };
+      const next = await this.nextWaiting(repository.createQueryBuilder('job'), filter).setLock('pessimistic_write').setOnLocked('skip_locked').getOne();
+      return next ? this.claim(repository, next) : null;
     });
+  }
+
+  private nextWaiting(query: SelectQueryBuilder<VerificationJob>, filter: ClaimFilter): SelectQueryBuilder<VerificationJob> {
+    query.where('job.state = :state', { state: 'waiting' });
+    if (filter.kind) query.andWhere('job.kind = :kind', { kind: filter.kind });
+    if (filter.requesterIdle) {
+      query.andWhere("NOT EXISTS (SELECT 1 FROM verification_job busy WHERE busy.requested_by_id = job.requested_by_id AND busy.state = 'simulating')");
+    }
+    return fairOrder(query).limit(1);
+  }
+
+  private async claim(repository: Repository<VerificationJob>, next: VerificationJob): Promise<VerificationJob | null> {
+    const at = now();
+    const claimed = await repository.update(
+      { id: next.id, state: 'waiting' },
+      { state: 'simulating', claimToken: this.claimToken, startedAt: at, heartbeatAt: at, step: 'Starting the simulator' },
+    );
+    if (claimed.affected !== 1) return null;
+    return { ...next, state: 'simulating' as const, claimToken: this.claimToken, startedAt: at, heartbeatAt: at };
   }
 
   /** Writes to the job only while this instance still holds it; false when it no longer does. */
@@ -188,17 +245,62 @@ export class VerificationQueue {
     return result.affected === 1;
   }
 
+  /** Throws `JobEnded` when the job was withdrawn through this instance, `ServerStopping` when closing. */
+  private checkStillWanted(jobId: number): void {
+    if (this.closed) throw new ServerStopping();
+    if (this.withdrawnHere.has(jobId)) throw new JobEnded();
+  }
+
+  /** Writes progress at most every `PROGRESS_WRITE_INTERVAL_MS` (or when forced); a refused write ends the job's run. */
   private progressWriter(jobId: number) {
     let last = 0;
     return async (done: number, step: string, force = false) => {
+      this.checkStillWanted(jobId);
       const t = performance.now();
       if (!force && t - last < PROGRESS_WRITE_INTERVAL_MS) return;
       last = t;
-      await this.write(jobId, { done, step });
+      if (!(await this.write(jobId, { done, step }))) throw new JobEnded();
     };
   }
 
-  private async runJob(job: VerificationJob): Promise<void> {
+  /**
+   * Between two slices of a Monte Carlo: the waiting whole-proposal verifications, in the fair
+   * order, each run to its end; when none is left, one waiting Monte Carlo of a person who has
+   * nothing simulating (only between the slices of a Monte Carlo that is not itself running in
+   * such a pause, so pauses never nest deeper than one). The paused job's heartbeat is refreshed
+   * before, during and after each.
+   */
+  private async interleave(paused: VerificationJob, nested: boolean): Promise<void> {
+    for (let n = 0; n < INTERLEAVED_JOBS_PER_SLICE; n += 1) {
+      this.checkStillWanted(paused.id);
+      if (!(await this.write(paused.id, {}))) throw new JobEnded();
+      await this.markStopped(false);
+      const job = (await this.claimNext({ kind: 'proposal' })) ?? (nested ? null : await this.claimNext({ kind: 'monte-carlo', requesterIdle: true }));
+      if (!job) break;
+      // A job on a loaded machine can take a while: keep the paused job's heartbeat fresh meanwhile.
+      const heartbeat = setInterval(() => void this.write(paused.id, {}).catch(() => undefined), PAUSED_HEARTBEAT_MS);
+      try {
+        await this.runJob(job, true);
+      } finally {
+        clearInterval(heartbeat);
+      }
+    }
+    this.checkStillWanted(paused.id);
+    if (!(await this.write(paused.id, {}))) throw new JobEnded();
+  }
+
+  /** Runs a claimed job; `nested` when it runs in another Monte Carlo's pause. */
+  private async runJob(job: VerificationJob, nested = false): Promise<void> {
+    this.runningHere.add(job.id);
+    try {
+      await this.runClaimed(job, nested);
+    } finally {
+      this.runningHere.delete(job.id);
+      this.withdrawnHere.delete(job.id);
+    }
+  }
+
+  private async runClaimed(job: VerificationJob, nested: boolean): Promise<void> {
     try {
       const { proposal, spec, result, specVersion } = await loadProposal(this.dataSource, job.proposalId);
       const targets = job.kind === 'proposal' ? await verificationTargets(this.dataSource, proposal, spec, result, specVersion, this.options.netlistHook) : [];
@@ -215,7 +317,15 @@ export class VerificationQueue {
             : rankedTarget(proposal, result, specVersion, job.topology ?? '');
         if (!target) throw new Error(job.source === 'decision' ? 'The proposal has no decided design to simulate.' : 'The proposal has no such option.');
         const progress = this.progressWriter(job.id);
-        const simulated = await runMonteCarlo(this.engine.runner, spec, target.option, job.runs ?? 0, simulator, (done, step) => progress(done, `${target.name}: ${step}`));
+        const simulated = await runMonteCarlo(
+          this.engine.runner,
+          spec,
+          target.option,
+          job.runs ?? 0,
+          simulator,
+          (done, step) => progress(done, `${target.name}: ${step}`),
+          { sliceRuns: MONTE_CARLO_SLICE_RUNS, betweenSlices: () => this.interleave(job, nested) },
+        );
         const outcome: MonteCarloVerificationResult = { ...simulated, source: job.source, binding: target.binding };
         await this.finish(job, outcome, job.runs ?? 0);
         return;
@@ -226,10 +336,11 @@ export class VerificationQueue {
       for (const [index, target] of targets.entries()) {
         let analyses = 0;
         const counted = (netlist: string, plot?: string) => {
+          this.checkStillWanted(job.id);
           analyses += 1;
           return this.engine.run(netlist, plot);
         };
-        if (this.closed) throw new ServerStopping();
+        this.checkStillWanted(job.id);
         options.push(
           await verifyOption(counted, target, (step) => progress(offsets[index] + Math.min(analyses, sizes[index] - 1), step)),
         );
@@ -244,6 +355,11 @@ export class VerificationQueue {
       };
       await this.finish(job, outcome, total);
     } catch (error) {
+      if (error instanceof JobEnded) {
+        // Withdrawn, or taken from this instance: the row already says so; nothing more to write.
+        this.log(`verification job ${job.id} ended: withdrawn or no longer held by this instance`);
+        return;
+      }
       if (this.closed) {
         await this.dataSource
           .getRepository(VerificationJobEntity)
@@ -260,7 +376,7 @@ export class VerificationQueue {
   }
 
   private async finish(job: VerificationJob, result: ProposalVerificationResult | MonteCarloVerificationResult, total: number): Promise<void> {
-    if (this.closed) throw new ServerStopping();
+    this.checkStillWanted(job.id);
     await this.dataSource
       .getRepository(VerificationJobEntity)
       .update(

@@ -16,13 +16,26 @@ export type VerificationKind = 'proposal' | 'monte-carlo';
 /**
  * Job states. `waiting`: queued behind other jobs; `simulating`: being run now; `finished`: every
  * option was attempted (an option may still carry its own error); `stopped`: the server stopped
- * while the job ran (it can be asked for again); `failed`: the job itself could not run.
+ * while the job ran (it can be asked for again); `failed`: the job itself could not run;
+ * `withdrawn`: a person called it off while it waited or ran (its requester, a reviewer or an
+ * administrator; it can be asked for again).
  */
-export const VERIFICATION_STATES = ['waiting', 'simulating', 'finished', 'stopped', 'failed'] as const;
+export const VERIFICATION_STATES = ['waiting', 'simulating', 'finished', 'stopped', 'failed', 'withdrawn'] as const;
 export type VerificationState = (typeof VERIFICATION_STATES)[number];
 
 /** States after which a job never changes again. */
-export const SETTLED_VERIFICATION_STATES: readonly VerificationState[] = ['finished', 'stopped', 'failed'];
+export const SETTLED_VERIFICATION_STATES: readonly VerificationState[] = ['finished', 'stopped', 'failed', 'withdrawn'];
+
+/** States of a job that still takes (or will take) the simulator. */
+export const ACTIVE_VERIFICATION_STATES = ['waiting', 'simulating'] as const;
+
+/**
+ * How much of the shared simulator one person may hold: jobs waiting or simulating at once, over
+ * every project. Asking for more answers 429 until one settles or is withdrawn. Six covers a
+ * Monte Carlo of each option of a proposal; the queue's round-robin keeps everyone else's work
+ * moving either way.
+ */
+export const MAX_ACTIVE_JOBS_PER_PERSON = 6;
 
 /** How a figure's difference is expressed: relative (% of the simulated value) or absolute dB. */
 export type DeltaKind = 'percent' | 'db';
@@ -156,7 +169,7 @@ export interface VerificationJobView {
   total: number;
   /** What is being simulated now, e.g. "Wilson mirror: corner ICM −2 V, 85 °C". */
   step: string | null;
-  /** Job-level failure or interruption, in words. */
+  /** Job-level failure, interruption or withdrawal (who called it off), in words. */
   message: string | null;
   requestedBy: { id: number; displayName: string };
   createdAt: string;

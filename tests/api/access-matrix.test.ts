@@ -81,7 +81,7 @@ describe('when the matrix is read against the app and PERMISSIONS, then it is co
 
   const titled = (rows: Row[]) => rows.map((row) => [`${row.route} (${row.url})`, row] as const);
 
-  test.each(titled(MATRIX.filter((row) => row.rule !== 'public' && row.rule !== 'signed-in')))(
+  test.each(titled(MATRIX.filter((row) => row.rule !== 'public' && row.rule !== 'signed-in' && row.rule !== 'per-record')))(
     'when %s needs its permission, then its 403s are exactly the roles PERMISSIONS leaves out',
     (_title, { rule, expected }) => {
       const roles: Role[] = ['admin', 'requirements', 'designer', 'reviewer'];
@@ -94,6 +94,11 @@ describe('when the matrix is read against the app and PERMISSIONS, then it is co
   test.each(titled(MATRIX.filter((row) => row.rule === 'signed-in')))('when %s needs a sign-in only, then only the anonymous caller is refused', (_title, { expected }) => {
     expect(expected[0]).toBe(401);
     expect(expected.slice(1)).not.toContain(403);
+  });
+
+  test.each(titled(MATRIX.filter((row) => row.rule === 'per-record')))('when %s is decided by the record, then it says by whom and refuses the anonymous caller', (_title, { expected, note, url }) => {
+    expect(expected[0]).toBe(401);
+    if (!url.includes('{other')) expect(note).toBeTruthy();
   });
 
   test('when PERMISSIONS names an action, then some route of the matrix requires it', () => {

@@ -11,13 +11,14 @@
 import { DeviceModelEntity } from '../../api/entities/device-model.entity';
 import { uploadDeviceModels } from '../../api/services/devices.service';
 import { ProposalEntity } from '../../api/entities/proposal.entity';
+import { VerificationJobEntity } from '../../api/entities/verification-job.entity';
 import { uploadMeasurement } from '../../api/services/measurements.service';
 import { addMember } from '../../api/services/projects.service';
 import { decide, review } from '../../api/services/proposals.service';
 import { updateSpec } from '../../api/services/specs.service';
 import type { PublicUser } from '../../api/services/users.service';
 import type { Action } from '../../shared/workflow/roles';
-import { IsNull, Not } from 'typeorm';
+import { In, IsNull, Not } from 'typeorm';
 import { emailOf, specPayload, TEST_PASSWORD, type TestApi } from './api-app';
 
 /** A designer's own values for the evaluation rows (invented; a simple mirror on ±9 V). */
@@ -62,6 +63,9 @@ export interface Ids {
   otherDevice: number;
   /** the sha256 of the file both cards came from (a spec's record of them) */
   deviceChecksum: string;
+  /** a Monte Carlo job asked for by the second designer on {ranked}, and one on {otherProposal}: each withdraw cell finds it waiting or simulating */
+  withdrawableJob: number;
+  otherWithdrawableJob: number;
 }
 
 export interface Row {
@@ -69,8 +73,8 @@ export interface Row {
   route: `${Method} /api${string}`;
   /** The URL called, `{name}` filled from Ids. */
   url: string;
-  /** public | signed-in | an action of PERMISSIONS. */
-  rule: 'public' | 'signed-in' | Action;
+  /** public | signed-in | an action of PERMISSIONS | per-record (the record's own people decide: see the row's note). */
+  rule: 'public' | 'signed-in' | 'per-record' | Action;
   /** Expected status for anonymous, admin, requirements, designer, reviewer. */
   expected: [number, number, number, number, number];
   body?: (ids: Ids, caller: Caller) => object;
@@ -106,6 +110,32 @@ const restoreMatrixCard = (key: 'device' | 'otherDevice') => async (api: TestApi
 /** The withdrawal cells each find the proposal open again (idempotent). */
 const reopenWithdrawable = async (api: TestApi, ids: Ids) => {
   await api.dataSource.getRepository(ProposalEntity).update({ id: ids.withdrawable }, { status: 'ranked', closedReason: null, closedById: null, closedAt: null });
+};
+/** A Monte Carlo job of 2,000 runs by the second designer (long enough to be still running when the cell calls). */
+const withdrawableJob = (api: TestApi, proposalId: number) =>
+  api.dataSource.getRepository(VerificationJobEntity).save({
+    proposalId,
+    kind: 'monte-carlo' as const,
+    topology: 'wilson',
+    runs: 2000,
+    state: 'waiting' as const,
+    done: 0,
+    total: 2000,
+    step: null,
+    message: null,
+    result: null,
+    requestedById: api.users.designer2.id,
+    claimToken: null,
+    heartbeatAt: null,
+    createdAt: new Date().toISOString(),
+    startedAt: null,
+    finishedAt: null,
+  });
+/** Puts a withdrawn job back to waiting (same id), so every cell finds one to withdraw. */
+const rearmJob = (key: 'withdrawableJob' | 'otherWithdrawableJob') => async (api: TestApi, ids: Ids) => {
+  await api.dataSource
+    .getRepository(VerificationJobEntity)
+    .update({ id: ids[key], state: In(['withdrawn', 'finished', 'stopped', 'failed']) }, { state: 'waiting', message: null, finishedAt: null, claimToken: null, step: null });
 };
 const ensureReviewer2Member = (key: 'project' | 'otherProject') => async (api: TestApi, ids: Ids) => {
   await addMember(api.dataSource, api.users.admin, ids[key], ids.reviewer2, 'reviewer');
@@ -318,6 +348,21 @@ export const MATRIX: Row[] = [
     body: () => ({ topology: 'wilson', runs: 10 }),
     expected: [401, 403, 403, 404, 404],
   },
+  {
+    route: 'DELETE /api/proposals/:id/verification/:jobId',
+    url: '/api/proposals/{ranked}/verification/{withdrawableJob}',
+    rule: 'per-record',
+    arrange: rearmJob('withdrawableJob'),
+    expected: [401, 200, 403, 403, 200],
+    note: 'withdrawing a job: its requester (here the second designer), a reviewer or an administrator',
+  },
+  {
+    route: 'DELETE /api/proposals/:id/verification/:jobId',
+    url: '/api/proposals/{otherProposal}/verification/{otherWithdrawableJob}',
+    rule: 'per-record',
+    arrange: rearmJob('otherWithdrawableJob'),
+    expected: [401, 200, 404, 404, 404],
+  },
   { route: 'GET /api/proposals/:id/audit', url: '/api/proposals/{otherProposal}/audit', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
 
   // Stateless what-if.
@@ -370,6 +415,8 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
     uploadDeviceModels(dataSource, by, projectId, { originalName: LIBRARY_CARD.name, bytes: Buffer.from(LIBRARY_CARD.content, 'utf8') }).then(([stored]) => stored);
   const device = await card(project.id, users.designer);
   const otherDevice = await card(otherProject.id, users.designer2);
+  const job = await withdrawableJob(api, ranked.id);
+  const otherJob = await withdrawableJob(api, otherProposal.id);
 
   return {
     project: project.id,
@@ -390,6 +437,8 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
     device: device.id,
     otherDevice: otherDevice.id,
     deviceChecksum: device.checksum,
+    withdrawableJob: job.id,
+    otherWithdrawableJob: otherJob.id,
   };
 }
 

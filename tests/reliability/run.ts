@@ -12,8 +12,10 @@
  * 5. Quotas (quotas.ts): bench-measurement and device-library floods; what is stored, and the
  *    size of the paged lists afterwards.
  * 6. Accounts (accounts.ts): the owner signs in from another address during a wrong-password flood.
+ * 7. Fairness (fairness.ts): one person's verification while another floods the SPICE queue with
+ *    Monte Carlo jobs (≤ 3× its idle time), the per-person cap, memory, withdrawing the flood.
  *
- * Options: --quick (shorter load, soak and fuzzing: about 4 minutes), --only=crash,load,hostile,access,quotas,accounts
+ * Options: --quick (shorter load, soak and fuzzing: about 4 minutes), --only=crash,load,hostile,access,quotas,accounts,fairness
  * (a subset), --no-browser (skip the Chromium check), --seed=N (fast-check seed).
  * Exit code 1 when any requirement of the table fails (or a part could not run).
  */
@@ -21,13 +23,14 @@ import { availableParallelism, loadavg } from 'node:os';
 import { accessControl } from './access-control';
 import { accountsPart } from './accounts';
 import { crashSafety } from './crash-safety';
+import { fairnessPart } from './fairness';
 import { hostileInput } from './hostile-input';
 import { loadPart } from './load';
 import { quotasPart } from './quotas';
 import { row, type PartResult, type RunOptions, type SummaryRow } from './lib';
 
 interface Part {
-  key: 'crash' | 'load' | 'hostile' | 'access' | 'quotas' | 'accounts';
+  key: 'crash' | 'load' | 'hostile' | 'access' | 'quotas' | 'accounts' | 'fairness';
   title: string;
   /** Time budget, s (full run, quick run). */
   budgetS: [number, number];
@@ -41,6 +44,7 @@ const PARTS: Part[] = [
   { key: 'access', title: 'Access control', budgetS: [75, 75], run: accessControl },
   { key: 'quotas', title: 'Quotas', budgetS: [60, 60], run: quotasPart },
   { key: 'accounts', title: 'Accounts', budgetS: [45, 30], run: accountsPart },
+  { key: 'fairness', title: 'Fairness', budgetS: [150, 90], run: fairnessPart },
 ];
 
 const args = process.argv.slice(2);
@@ -50,7 +54,7 @@ const only = args.find((a) => a.startsWith('--only='))?.slice('--only='.length).
 const seed = Number(args.find((a) => a.startsWith('--seed='))?.slice('--seed='.length) ?? 20260611);
 const unknown = args.filter((a) => !/^--(quick|no-browser|only=.*|seed=\d+)$/.test(a));
 if (unknown.length > 0) {
-  console.error(`Unknown option(s): ${unknown.join(' ')}\nUsage: npm run reliability [-- --quick] [--only=crash,load,hostile,access,quotas,accounts] [--no-browser] [--seed=N]`);
+  console.error(`Unknown option(s): ${unknown.join(' ')}\nUsage: npm run reliability [-- --quick] [--only=crash,load,hostile,access,quotas,accounts,fairness] [--no-browser] [--seed=N]`);
   process.exit(2);
 }
 

@@ -1,7 +1,8 @@
 /**
  * The server's SPICE engine (ngspice in a worker thread): runs are serialised and each caller gets
  * its own circuit's answer; a run past its time limit is stopped and the next one runs on a fresh
- * thread; ngspice's errors come back as messages. Expected values are Ohm's law and the voltage
+ * thread; ngspice's errors come back as messages; the thread is replaced after a number of runs
+ * or once its WebAssembly heap passes a bound, and every run still answers. Expected values are Ohm's law and the voltage
  * divider, not the product's output.
  */
 import { afterAll, describe, expect, test } from 'vitest';
@@ -54,4 +55,43 @@ describe('SpiceEngine', () => {
     await other.stop();
     await expect(other.run(divider(1, 1))).rejects.toThrow(/shut down/);
   });
+});
+
+describe('SpiceEngine recycling', () => {
+  test('starts a fresh thread after the set number of runs, and runs queued across the change still answer their own circuit', async () => {
+    const engine = new SpiceEngine(10_000, { recycleAfterRuns: 2 });
+    try {
+      const bottoms = [1000, 3000, 9000, 4000, 1000];
+      const results = await Promise.all(bottoms.map((bottom) => engine.run(divider(1000, bottom), 'Operating Point')));
+      results.forEach((result, i) => expect(voltage(result, 'out')).toBeCloseTo((10 * bottoms[i]) / (1000 + bottoms[i]), 9));
+      // Runs 1–2 on the first thread, 3–4 on the second, 5 on the third.
+      expect(engine.starts).toBe(3);
+      expect(engine.recycles).toBe(2);
+    } finally {
+      await engine.stop();
+    }
+  }, 60_000);
+
+  test('starts a fresh thread once the WebAssembly heap passes the bound', async () => {
+    const engine = new SpiceEngine(10_000, { recycleAboveHeapBytes: 1024 });
+    try {
+      for (let i = 0; i < 2; i += 1) expect(voltage(await engine.run(divider(1000, 1000), 'Operating Point'), 'out')).toBeCloseTo(5, 9);
+      // ngspice's heap is megabytes from its first run, so every run is past a 1 kB bound.
+      expect(engine.heapBytes).toBeGreaterThan(2 ** 20);
+      expect(engine.starts).toBe(2);
+    } finally {
+      await engine.stop();
+    }
+  }, 60_000);
+
+  test('keeps one thread under the default bounds for a few hundred runs', async () => {
+    const engine = new SpiceEngine(10_000);
+    try {
+      for (let i = 0; i < 200; i += 1) await engine.run(divider(1000, 1000 + i), 'Operating Point');
+      expect(engine.starts).toBe(1);
+      expect(engine.recycles).toBe(0);
+    } finally {
+      await engine.stop();
+    }
+  }, 120_000);
 });

@@ -80,6 +80,8 @@ export const api = {
   measurementFile: (id: number, measurementId: number) => `/api/proposals/${id}/measurements/${measurementId}/file`,
   /** POST { topology, runs? }: SPICE Monte Carlo of one option. */
   monteCarlo: (id: number) => `/api/proposals/${id}/verification/monte-carlo`,
+  /** DELETE: withdraw a waiting or simulating SPICE job (its requester, a reviewer or an administrator). */
+  verificationJob: (id: number, jobId: number) => `/api/proposals/${id}/verification/${jobId}`,
   analyze: '/api/analyze',
   specSchema: '/api/schema/spec',
   /** The spec CSV template: every column, and one example row. */

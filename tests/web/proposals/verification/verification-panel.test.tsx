@@ -112,6 +112,54 @@ describe('VerificationPanel: a job in progress', () => {
   });
 });
 
+describe('VerificationPanel: withdrawing a job', () => {
+  const JOB_URL = `${STATUS_URL}/41`;
+
+  test('when the requester confirms, then the job is withdrawn with a DELETE carrying the CSRF token, and shown withdrawn with a way to run it again', async () => {
+    const withdrawn = job({ state: 'withdrawn', done: 2, message: 'Withdrawn by Samir Edelstein.', result: null });
+    fetchMock = mockFetch({
+      [`GET ${STATUS_URL}`]: () => ({ body: status(fetchMock.to('DELETE', JOB_URL).length === 0 ? simulating(2) : withdrawn) }),
+      [`DELETE ${JOB_URL}`]: () => ({ body: withdrawn }),
+    });
+    const user = userEvent.setup();
+    renderWithClient(<VerificationPanel proposal={differentialProposal()} user={REVIEWER} />);
+
+    await user.click(await screen.findByRole('button', { name: 'Withdraw…' }));
+    const confirm = screen.getByRole('group', { name: 'Confirm withdrawing the SPICE check of every option' });
+    expect(confirm.textContent).toContain('the 2 of 6 done so far are not kept');
+    await user.click(within(confirm).getByRole('button', { name: 'Withdraw' }));
+
+    await waitFor(() => expect(fetchMock.to('DELETE', JOB_URL)).toHaveLength(1));
+    const del = vi.mocked(fetch).mock.calls.find(([url, init]) => url === JOB_URL && init?.method === 'DELETE')!;
+    expect((del[1]!.headers as Record<string, string>)['X-CSRF-Token']).toBe('test-token');
+    const note = await screen.findByText('The SPICE check was withdrawn before it finished');
+    expect(note.closest('[role="status"]')!.textContent).toContain('Withdrawn by Samir Edelstein.');
+    expect(screen.getByRole('button', { name: 'Run the SPICE check again' })).toBeTruthy();
+  });
+
+  test('when the person keeps the job, then nothing is sent', async () => {
+    fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: status(simulating(2)) }) });
+    const user = userEvent.setup();
+    renderWithClient(<VerificationPanel proposal={differentialProposal()} user={REVIEWER} />);
+
+    await user.click(await screen.findByRole('button', { name: 'Withdraw…' }));
+    await user.click(screen.getByRole('button', { name: 'Keep it' }));
+    expect(screen.queryByRole('group', { name: /Confirm withdrawing/ })).toBeNull();
+    expect(fetchMock.to('DELETE', JOB_URL)).toHaveLength(0);
+  });
+
+  test('when another designer or the requirements author looks, then no withdraw is offered (a reviewer asked for it)', async () => {
+    fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: status(simulating(2)) }) });
+    renderWithClient(<VerificationPanel proposal={differentialProposal()} user={DESIGNER} />);
+    await screen.findByRole('progressbar');
+    expect(screen.queryByRole('button', { name: 'Withdraw…' })).toBeNull();
+    cleanup();
+    renderWithClient(<VerificationPanel proposal={differentialProposal()} user={SYSTEMS} />);
+    await screen.findByRole('progressbar');
+    expect(screen.queryByRole('button', { name: 'Withdraw…' })).toBeNull();
+  });
+});
+
 describe('VerificationPanel: a finished check', () => {
   test('when an option is chosen, then its figures table shows the engine, ngspice, the difference, the tolerance and the verdict', async () => {
     fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: status(job()) }) });

@@ -2,7 +2,8 @@
  * Asking for SPICE work: a verification of every option, or a Monte Carlo run of one option. The
  * server answers 202 with the job (a new one, or the one already queued for the same work); it
  * goes into the cached status at once, so the progress shows and polling starts without waiting
- * for the next read, then the status is refreshed.
+ * for the next read, then the status is refreshed. Withdrawing a job answers it `withdrawn`, put
+ * in place the same way.
  */
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { VerificationJobView, VerificationStatus } from '../../../../../shared/verification/types';
@@ -49,4 +50,13 @@ export function useVerifyMutation(proposalId: number) {
 export function useMonteCarloMutation(proposalId: number) {
   const settle = useSettleJob(proposalId);
   return useMutation({ mutationFn: (body: MonteCarloInput) => requestMonteCarlo(proposalId, body), onSuccess: settle });
+}
+
+export function withdrawJob(proposalId: number, jobId: number): Promise<VerificationJobView> {
+  return apiClient.delete<VerificationJobView>(api.verificationJob(proposalId, jobId));
+}
+
+export function useWithdrawMutation(proposalId: number) {
+  const settle = useSettleJob(proposalId);
+  return useMutation({ mutationFn: (jobId: number) => withdrawJob(proposalId, jobId), onSuccess: settle });
 }

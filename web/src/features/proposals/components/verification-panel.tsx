@@ -15,6 +15,7 @@ import { JobProgress } from './verification/job-progress';
 import { MonteCarloSection } from './verification/monte-carlo-section';
 import { MutationError } from './verification/mutation-error';
 import { VerificationResult } from './verification/verification-result';
+import { WithdrawJob } from './verification/withdraw-job';
 
 function isProposalResult(result: VerificationJobView['result']): result is ProposalVerificationResult {
   return result !== null && 'options' in result;
@@ -34,7 +35,7 @@ export function VerificationPanel({ proposal, user }: { proposal: Proposal; user
   const current = proposalCurrentDesign(proposal);
   const job = status.data?.verification ?? null;
   const running = job !== null && !isSettled(job);
-  const troubled = job !== null && (job.state === 'stopped' || job.state === 'failed');
+  const troubled = job !== null && (job.state === 'stopped' || job.state === 'failed' || job.state === 'withdrawn');
   const label = mutation.isPending
     ? 'Asking…'
     : running
@@ -77,7 +78,7 @@ export function VerificationPanel({ proposal, user }: { proposal: Proposal; user
             {canVerify ? 'Run every option through SPICE to compare the engine’s figures with ngspice’s.' : 'A designer or reviewer can ask for a SPICE check of every option.'}
           </EmptyState>
         ) : running ? (
-          <JobProgress job={job} label="Every option" />
+          <JobProgress job={job} label="Every option" withdraw={<WithdrawJob proposalId={proposal.id} projectId={proposal.projectId} job={job} user={user} what="the SPICE check of every option" />} />
         ) : job.state !== 'finished' ? (
           <JobProblem job={job} what="The SPICE check" action={action} />
         ) : isProposalResult(job.result) ? (
@@ -85,7 +86,7 @@ export function VerificationPanel({ proposal, user }: { proposal: Proposal; user
         ) : (
           <p className="text-sm text-ink-soft dark:text-night-ink-soft">This check finished without a result.</p>
         )}
-        {!status.isPending && !status.isError && <MonteCarloSection proposal={proposal} status={status.data} canVerify={canVerify} />}
+        {!status.isPending && !status.isError && <MonteCarloSection proposal={proposal} status={status.data} canVerify={canVerify} user={user} />}
       </div>
     </Sheet>
   );

@@ -27,6 +27,8 @@ function notVerifiedWhy(job: VerificationJobView | null): string {
       return `A verification was ${who} but stopped before it finished${job.message ? `: ${job.message}` : '.'}`;
     case 'failed':
       return `A verification was ${who} but could not run${job.message ? `: ${job.message}` : '.'}`;
+    case 'withdrawn':
+      return `A verification was ${who} but withdrawn before it finished${job.message ? `: ${job.message}` : '.'}`;
     default:
       return `A verification was ${who} but has no result.`;
   }

@@ -76,6 +76,13 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
       return { what: 'withdrew this ranking', quote: typeof details.reason === 'string' ? { label: 'Reason', text: details.reason } : undefined, ...transition };
     case 'proposal.verification-requested':
       return { what: 'asked for a SPICE check of every option' };
+    case 'proposal.verification-withdrawn': {
+      const which =
+        details.kind === 'monte-carlo'
+          ? `the SPICE Monte Carlo of the ${topologyTitle(typeof details.topology === 'string' ? details.topology : undefined)}`
+          : 'the SPICE check of every option';
+      return { what: `withdrew ${which} while it was ${details.was === 'simulating' ? 'simulating' : 'waiting'}` };
+    }
     case 'proposal.monte-carlo-requested': {
       const runs = typeof details.runs === 'number' ? `${details.runs} runs` : 'runs';
       const own = details.source === 'decision' ? ' decided design, ' : ' ';

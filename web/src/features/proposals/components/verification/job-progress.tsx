@@ -1,12 +1,13 @@
-import { useId } from 'react';
+import { useId, type ReactNode } from 'react';
 import type { VerificationJobView } from '../../../../../../shared/verification/types';
 import { When } from '../audit/when';
 
 /**
- * A job that has not settled: a progress bar (done of total), what is being simulated now, and
- * who asked. A native <progress>, so assistive technology reads its value; the step is announced politely.
+ * A job that has not settled: a progress bar (done of total), what is being simulated now, who
+ * asked, and (`withdraw`) the way to call it off. A native <progress>, so assistive technology
+ * reads its value; the step is announced politely.
  */
-export function JobProgress({ job, label }: { job: VerificationJobView; label: string }) {
+export function JobProgress({ job, label, withdraw }: { job: VerificationJobView; label: string; withdraw?: ReactNode }) {
   const id = useId();
   const total = Math.max(0, job.total);
   const done = Math.min(Math.max(0, job.done), total);
@@ -32,11 +33,14 @@ export function JobProgress({ job, label }: { job: VerificationJobView; label: s
         className="block h-2 w-full appearance-none overflow-hidden rounded-full bg-paper dark:bg-night [&::-moz-progress-bar]:bg-fern [&::-webkit-progress-bar]:bg-paper [&::-webkit-progress-value]:bg-fern dark:[&::-moz-progress-bar]:bg-fern-soft dark:[&::-webkit-progress-bar]:bg-night dark:[&::-webkit-progress-value]:bg-fern-soft"
       />
       <p role="status" aria-live="polite" className="text-sm text-ink-soft dark:text-night-ink-soft">
-        {job.step ?? (waiting ? 'Queued behind other simulations; it starts by itself.' : 'Starting the simulator…')}
+        {job.step ?? (waiting ? 'Queued: the simulator takes turns between people, so it starts soon by itself.' : 'Starting the simulator…')}
       </p>
-      <p className="text-xs text-ink-soft dark:text-night-ink-soft">
-        Asked by {job.requestedBy.displayName} on <When iso={job.createdAt} />. This page follows it by itself.
-      </p>
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <p className="text-xs text-ink-soft dark:text-night-ink-soft">
+          Asked by {job.requestedBy.displayName} on <When iso={job.createdAt} />. This page follows it by itself.
+        </p>
+        {withdraw}
+      </div>
     </div>
   );
 }

@@ -1,7 +1,7 @@
 import { useId, useState, type FormEvent } from 'react';
 import { MONTE_CARLO_RUNS, type MonteCarloVerificationResult, type VerificationJobView, type VerificationStatus } from '../../../../../../shared/verification/types';
 import { Button } from '../../../../components/ui/button';
-import type { Proposal } from '../../../../lib/api-types';
+import type { Proposal, User } from '../../../../lib/api-types';
 import { topologyName } from '../../../../lib/topology-names';
 import { useMonteCarloMutation } from '../../api/verification-mutations';
 import { isSettled } from '../../api/verification-queries';
@@ -13,6 +13,7 @@ import { FreshnessLabel } from './freshness-label';
 import { proposalCurrentDesign } from '../../lib/current-design';
 import { freshness } from '../../../../../../shared/verification/binding';
 import { currentDesignWord } from '../../../../../../shared/workflow/current-design';
+import { WithdrawJob } from './withdraw-job';
 
 const inputClass =
   'rounded-md border border-rule bg-sheet px-2.5 py-1.5 text-sm dark:border-night-rule dark:bg-night-sheet aria-[invalid=true]:border-short dark:aria-[invalid=true]:border-short-bright';
@@ -38,7 +39,7 @@ function isMonteCarloResult(result: VerificationJobView['result']): result is Mo
  * load mismatch set the rejection. Pick an option and a number of runs, start, follow the progress,
  * then read ngspice's distribution over the engine's closed form on the same draws.
  */
-export function MonteCarloSection({ proposal, status, canVerify }: { proposal: Proposal; status: VerificationStatus | undefined; canVerify: boolean }) {
+export function MonteCarloSection({ proposal, status, canVerify, user }: { proposal: Proposal; status: VerificationStatus | undefined; canVerify: boolean; user: User }) {
   const id = useId();
   const differential = proposal.specVersion.payload?.gain?.output === 'differential';
   const options = proposal.result.options.filter((o) => o.design);
@@ -149,7 +150,11 @@ export function MonteCarloSection({ proposal, status, canVerify }: { proposal: P
               No SPICE Monte Carlo of the {topology ? name : 'option'} yet{canVerify ? '.' : '; a designer or reviewer can ask for one.'}
             </p>
           ) : running ? (
-            <JobProgress job={job} label={`Monte Carlo of the ${name}, ${job.runs ?? '?'} runs`} />
+            <JobProgress
+              job={job}
+              label={`Monte Carlo of the ${name}, ${job.runs ?? '?'} runs`}
+              withdraw={<WithdrawJob proposalId={proposal.id} projectId={proposal.projectId} job={job} user={user} what={`the Monte Carlo of the ${name}`} />}
+            />
           ) : job.state !== 'finished' ? (
             <JobProblem job={job} what="The Monte Carlo" />
           ) : isMonteCarloResult(job.result) ? (
