@@ -11,7 +11,7 @@ import { accountKey, addressKey, type SignInThrottle } from '../auth/sign-in-thr
 import { currentUser, requireSignIn } from '../auth/require';
 import { sessionCookieName } from '../auth/session-cookie';
 import { AppError } from '../errors';
-import { changeOwnPassword, completePasswordReset, updatePreferences } from '../services/users.service';
+import { changeOwnPassword, completePasswordReset, sessionUser, updatePreferences } from '../services/users.service';
 import { LOGIN_BODY, PASSWORD_CHANGE_BODY, PASSWORD_RESET_BODY, PREFERENCES_BODY } from '../validation/bodies';
 import { validateBody } from '../validation/validate-request';
 
@@ -49,7 +49,8 @@ export function authRoutes(passport: PassportStatic, dataSource: DataSource, thr
     res.json({ user: req.user });
   });
   router.patch('/me', requireSignIn, validateBody(PREFERENCES_BODY), async (req, res) => {
-    res.json({ user: await updatePreferences(dataSource, currentUser(req).id, req.body) });
+    // The whole signed-in person, project roles included: the browser replaces its copy with it.
+    res.json({ user: await sessionUser(dataSource, await updatePreferences(dataSource, currentUser(req).id, req.body)) });
   });
   // A wrong current password counts like a failed sign-in (a borrowed session cannot guess it fast).
   const ownEmail = (req: { user?: Express.User }) => req.user?.email;

@@ -108,6 +108,16 @@ describe('when one person designs in one project and reviews in another', () => 
     ]);
   });
 
+  test('when they change a preference, then the answer is the whole person with the role held in each project (the browser replaces its copy with it)', async () => {
+    const changed = await lead.patch('/api/auth/me').send({ notify: true });
+
+    expect(changed.status).toBe(200);
+    expect(changed.body.user.projectRoles).toEqual([
+      { projectId: quillon.id, role: 'designer' },
+      { projectId: sallow.id, role: 'reviewer' },
+    ]);
+  });
+
   test('when a proposal of the project where they review is ranked and then decided, then the e-mails follow their role there', async () => {
     const outbox = api.dataSource.getRepository(MailOutboxEntity);
     const proposal = await api.createProposal(sallowSpec.id, 'requirements');
