@@ -138,11 +138,10 @@ export function safeFileName(original: string): string {
 }
 
 /**
- * Reads a library file and stores every card in it, or none: 400 with each problem's line,
- * 409 when a card's name is taken in the project. Answers the stored cards.
+ * An uploaded library file read whole: its printable base name, its cards and the sha256 of its
+ * bytes; 400 with every problem on its line when any card cannot be read (nothing is stored).
  */
-export async function uploadDeviceModels(dataSource: DataSource, actor: Viewer, projectId: number, file: UploadedModelFile): Promise<DeviceModelView[]> {
-  await projectFor(dataSource, actor, projectId, 'devices:write');
+function readUploadedLibrary(file: UploadedModelFile) {
   const fileName = safeFileName(file.originalName);
   const result = readModelFile(file.bytes);
   if (!result.ok) {
@@ -151,16 +150,25 @@ export async function uploadDeviceModels(dataSource: DataSource, actor: Viewer, 
       `${fileName} was not saved: fix ${result.problems.length === 1 ? 'the problem' : 'the problems'} listed, then upload it again.`,
     );
   }
-  const checksum = createHash('sha256').update(file.bytes).digest('hex');
+  return { fileName, cards: result.cards, checksum: createHash('sha256').update(file.bytes).digest('hex') };
+}
+
+/**
+ * Reads a library file and stores every card in it, or none: 400 with each problem's line,
+ * 409 when a card's name is taken in the project. Answers the stored cards.
+ */
+export async function uploadDeviceModels(dataSource: DataSource, actor: Viewer, projectId: number, file: UploadedModelFile): Promise<DeviceModelView[]> {
+  await projectFor(dataSource, actor, projectId, 'devices:write');
+  const { fileName, cards, checksum } = readUploadedLibrary(file);
   const uploadedAt = new Date().toISOString();
   return dataSource.transaction(async (manager) => {
     // PostgreSQL: uploads to one project's library one after the other, so a name taken meanwhile answers 409.
     await lockRowForUpdate(manager, ProjectEntity, projectId);
     const repository = manager.getRepository(DeviceModelEntity);
-    const taken = await repository.find({ where: { projectId, nameKey: In(result.cards.map((card) => card.name.toLowerCase())) } });
+    const taken = await repository.find({ where: { projectId, nameKey: In(cards.map((card) => card.name.toLowerCase())) } });
     if (taken.length > 0) {
       const byKey = new Map(taken.map((row) => [row.nameKey, row]));
-      const details = result.cards
+      const details = cards
         .filter((card) => byKey.has(card.name.toLowerCase()))
         .map((card) => {
           const row = byKey.get(card.name.toLowerCase()) as DeviceModel;
@@ -172,9 +180,9 @@ export async function uploadDeviceModels(dataSource: DataSource, actor: Viewer, 
         });
       throw new AppError('device-model-exists', 409, `${fileName} was not saved: ${details.length === 1 ? 'a model name is' : `${details.length} model names are`} already in the library.`, details);
     }
-    await checkLibraryQuota(manager, projectId, result.cards.length, fileName);
+    await checkLibraryQuota(manager, projectId, cards.length, fileName);
     const saved: DeviceModel[] = [];
-    for (const card of result.cards) {
+    for (const card of cards) {
       const row = await repository.save({
         projectId,
         name: card.name,
@@ -279,24 +287,16 @@ export async function removeDeviceModel(dataSource: DataSource, actor: Viewer, p
  */
 export async function replaceDeviceModel(dataSource: DataSource, actor: Viewer, projectId: number, deviceId: number, file: UploadedModelFile): Promise<{ item: DeviceModelView; replaced: DeviceModelView }> {
   await projectFor(dataSource, actor, projectId, 'devices:write');
-  const fileName = safeFileName(file.originalName);
-  const result = readModelFile(file.bytes);
-  if (!result.ok) {
-    throw invalid(
-      result.problems.map((problem) => ({ path: '/file', message: problem.message, ...(problem.line !== undefined ? { line: problem.line } : {}) })),
-      `${fileName} was not saved: fix ${result.problems.length === 1 ? 'the problem' : 'the problems'} listed, then upload it again.`,
-    );
-  }
-  const checksum = createHash('sha256').update(file.bytes).digest('hex');
+  const { fileName, cards, checksum } = readUploadedLibrary(file);
   return dataSource.transaction(async (manager) => {
     const old = await libraryCardRow(manager, projectId, deviceId, 'replaced');
-    if (result.cards.length !== 1) {
+    if (cards.length !== 1) {
       throw invalid(
-        [{ path: '/file', message: `holds ${result.cards.length} cards; a replacement file holds one card, named ${old.name}` }],
+        [{ path: '/file', message: `holds ${cards.length} cards; a replacement file holds one card, named ${old.name}` }],
         `${fileName} was not saved: a replacement is one card.`,
       );
     }
-    const [card] = result.cards;
+    const [card] = cards;
     if (card.name.toLowerCase() !== old.nameKey) {
       throw invalid(
         [{ path: '/file', line: card.line, message: `the card is named ${card.name}; a replacement keeps the name ${old.name} (upload a card of another name to add it instead)` }],

@@ -2,10 +2,9 @@ import { useState, type FormEvent } from 'react';
 import { Link, useLocation } from 'react-router-dom';
 import { Button } from '../components/ui/button';
 import { paths } from '../config/paths';
-import { Field } from '../features/people/components/field';
-import { PasswordHint } from '../features/people/components/password-hint';
+import { NewPasswordFields } from '../features/people/components/new-password-fields';
 import { fieldErrors } from '../features/people/utils/field-errors';
-import { MIN_PASSWORD_LENGTH, PASSWORD_RULE } from '../features/people/utils/password-strength';
+import { MIN_PASSWORD_LENGTH } from '../features/people/utils/password-strength';
 import { completePasswordReset } from '../features/profile/api/password';
 import { ApiError } from '../lib/api';
 
@@ -64,30 +63,16 @@ export function Component() {
           <>
             <p className="mb-4 text-sm text-ink-soft dark:text-night-ink-soft">The link works once. Setting the password signs the account out everywhere.</p>
             <form onSubmit={onSubmit} noValidate className="space-y-3 rounded-lg border border-rule bg-sheet p-4 dark:border-night-rule dark:bg-night-sheet">
-              <Field
-                label="New password"
-                type="password"
-                autoComplete="new-password"
-                value={next}
-                onChange={(e) => setNext(e.target.value)}
-                error={errors.newPassword}
-                hint={
-                  <>
-                    <PasswordHint password={next} />
-                    <span className="mt-1 block">{PASSWORD_RULE}</span>
-                  </>
-                }
-              />
-              <Field
-                label="New password again"
-                type="password"
-                autoComplete="new-password"
-                value={repeat}
-                onChange={(e) => {
-                  setRepeat(e.target.value);
+              <NewPasswordFields
+                next={next}
+                onNext={setNext}
+                repeat={repeat}
+                onRepeat={(value) => {
+                  setRepeat(value);
                   setMismatch(false);
                 }}
-                error={mismatch ? 'does not match the new password' : undefined}
+                mismatch={mismatch}
+                error={errors.newPassword}
               />
               {(linkDead || errors.form) && (
                 <p role="alert" className="text-sm text-short dark:text-short-bright">

@@ -1,9 +1,9 @@
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Field } from '../../people/components/field';
-import { PasswordHint } from '../../people/components/password-hint';
+import { NewPasswordFields } from '../../people/components/new-password-fields';
 import { fieldErrors } from '../../people/utils/field-errors';
-import { MIN_PASSWORD_LENGTH, PASSWORD_RULE } from '../../people/utils/password-strength';
+import { MIN_PASSWORD_LENGTH } from '../../people/utils/password-strength';
 import { useChangeOwnPassword } from '../api/password';
 
 /**
@@ -36,30 +36,16 @@ export function PasswordChangeForm() {
   return (
     <form onSubmit={onSubmit} noValidate className="grid max-w-md gap-3" aria-label="Change your password">
       <Field label="Current password" type="password" autoComplete="current-password" value={current} onChange={(e) => setCurrent(e.target.value)} error={errors.currentPassword} />
-      <Field
-        label="New password"
-        type="password"
-        autoComplete="new-password"
-        value={next}
-        onChange={(e) => setNext(e.target.value)}
-        error={errors.newPassword}
-        hint={
-          <>
-            <PasswordHint password={next} />
-            <span className="mt-1 block">{PASSWORD_RULE}</span>
-          </>
-        }
-      />
-      <Field
-        label="New password again"
-        type="password"
-        autoComplete="new-password"
-        value={repeat}
-        onChange={(e) => {
-          setRepeat(e.target.value);
+      <NewPasswordFields
+        next={next}
+        onNext={setNext}
+        repeat={repeat}
+        onRepeat={(value) => {
+          setRepeat(value);
           setMismatch(false);
         }}
-        error={mismatch ? 'does not match the new password' : undefined}
+        mismatch={mismatch}
+        error={errors.newPassword}
       />
       {errors.form && (
         <p role="alert" className="text-sm text-short dark:text-short-bright">
