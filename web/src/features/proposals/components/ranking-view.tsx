@@ -51,7 +51,7 @@ export function RankingView({ proposal }: { proposal: Proposal }) {
             )}
             {selected && (current?.basis !== 'decision' || current.ownValues || selected !== current.topology) && (
               <a href={api.netlist(proposal.id, selected)} download className={downloadLink} data-netlist="selected">
-                {current?.basis === 'decision' ? `Selected option (${topologyName(selected)}) as SPICE netlist` : 'Selected option as SPICE netlist'}
+                {topologyName(selected)} as SPICE netlist
               </a>
             )}
           </>

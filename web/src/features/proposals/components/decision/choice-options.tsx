@@ -39,7 +39,7 @@ export function ChoiceOptions({
   const recommendedOption = proposal.result.options.find((o) => o.topology === recommended) ?? null;
   const choosable = choosableOptions(proposal);
   return (
-    <fieldset className="space-y-2">
+    <fieldset className="min-w-0 space-y-2">
       <legend className="mb-2 text-sm font-medium">How do you decide?</legend>
       <Choice name={name} value="accept" kind={kind} onKindChange={onKindChange} disabled={!recommended} title="Accept the recommendation">
         {recommendedOption ? (
@@ -57,7 +57,7 @@ export function ChoiceOptions({
       <Choice name={name} value="override" kind={kind} onKindChange={onKindChange} title="Use my own values">
         Start from a ranked option and change its resistors (or its topology); the server checks your values with every rule. A reason is required.
       </Choice>
-      {kind === 'override' && <div className="ml-7 rounded-md border border-rule p-3 dark:border-night-rule">{override}</div>}
+      {kind === 'override' && <div className="ml-7 min-w-0 rounded-md border border-rule p-3 dark:border-night-rule">{override}</div>}
     </fieldset>
   );
 }
@@ -67,7 +67,7 @@ function Choice({ name, value, kind, onKindChange, disabled, title, children }: 
   return (
     <div className={cn('flex items-start gap-3 rounded-md border p-3', kind === value ? 'border-fern bg-fern-soft/40 dark:border-fern-soft dark:bg-night' : 'border-rule dark:border-night-rule', disabled && 'opacity-70')}>
       <input id={id} type="radio" name={name} value={value} checked={kind === value} disabled={disabled} onChange={() => onKindChange(value)} aria-describedby={`${id}-more`} className="mt-1 accent-fern" />
-      <div className="text-sm">
+      <div className="min-w-0 text-sm">
         <label htmlFor={id} className="font-medium">
           {title}
         </label>
@@ -84,7 +84,7 @@ function ChooseOption({ options, chosen, onChange, error }: { options: OptionEva
   const option = options.find((o) => o.topology === chosen) ?? null;
   const failing = option ? option.checks.filter((c) => !c.passed && c.severity === 'blocking') : [];
   return (
-    <div className="ml-7 space-y-2 rounded-md border border-rule p-3 text-sm dark:border-night-rule">
+    <div className="ml-7 min-w-0 space-y-2 rounded-md border border-rule p-3 text-sm dark:border-night-rule">
       <label htmlFor={id} className="block font-medium">
         Ranked option
       </label>

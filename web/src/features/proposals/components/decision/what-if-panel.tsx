@@ -38,39 +38,41 @@ export function WhatIfPanel({ proposal, whatIf, ranked }: { proposal: Proposal; 
       {error ? (
         <WhatIfError error={error} />
       ) : (
-        <table className="w-full text-sm" aria-busy={updating || undefined}>
-          <caption className="sr-only">Key figures of the ranked option and of your values, with the change</caption>
-          <thead className="text-left text-xs text-ink-soft dark:text-night-ink-soft">
-            <tr>
-              <th scope="col" className="py-1 pr-3 font-normal">Figure</th>
-              <th scope="col" className="py-1 pr-3 text-right font-normal">{rankedLabel}</th>
-              <th scope="col" className="py-1 pr-3 text-right font-normal">{stale ? 'Your values (not yet updated)' : 'Your values'}</th>
-              <th scope="col" className="py-1 text-right font-normal">Change</th>
-            </tr>
-          </thead>
-          <tbody>
-            {figures.map((figure) => {
-              const before = ranked?.predicted ? figure.read(ranked.predicted) : null;
-              const after = edited ? figure.read(edited) : null;
-              return (
-                <tr key={figure.id} className="border-t border-rule/60 dark:border-night-rule/60">
-                  <th scope="row" className="py-1.5 pr-3 text-left font-normal">
-                    {figure.label}
-                    {figure.id === 'gain' && <GainTarget gain={after} target={spec.gain.target} tolerancePercent={spec.gain.tolerancePercent} />}
-                    {figure.id === 'power' && (
-                      <span className="block text-xs text-ink-soft dark:text-night-ink-soft">budget {formatQuantity(spec.powerBudgetW, 'W')} at the worst corner</span>
-                    )}
-                  </th>
-                  <td className="py-1.5 pr-3 text-right">
-                    <Quantity value={before} unit={figure.unit} />
-                  </td>
-                  <td className={cn('py-1.5 pr-3 text-right', stale ? 'text-ink-soft dark:text-night-ink-soft' : 'font-medium')}>{edited ? <Quantity value={after} unit={figure.unit} /> : <span className="text-ink-soft">…</span>}</td>
-                  <td className="py-1.5 text-right text-ink-soft tabular-nums dark:text-night-ink-soft">{changeText(figure, before, after) ?? '—'}</td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
+        <div className="relative overflow-x-auto">
+          <table className="w-full text-sm" aria-busy={updating || undefined}>
+            <caption className="sr-only">Key figures of the ranked option and of your values, with the change</caption>
+            <thead className="text-left text-xs text-ink-soft dark:text-night-ink-soft">
+              <tr>
+                <th scope="col" className="py-1 pr-3 font-normal">Figure</th>
+                <th scope="col" className="py-1 pr-3 text-right font-normal">{rankedLabel}</th>
+                <th scope="col" className="py-1 pr-3 text-right font-normal">{stale ? 'Your values (not yet updated)' : 'Your values'}</th>
+                <th scope="col" className="py-1 text-right font-normal">Change</th>
+              </tr>
+            </thead>
+            <tbody>
+              {figures.map((figure) => {
+                const before = ranked?.predicted ? figure.read(ranked.predicted) : null;
+                const after = edited ? figure.read(edited) : null;
+                return (
+                  <tr key={figure.id} className="border-t border-rule/60 dark:border-night-rule/60">
+                    <th scope="row" className="py-1.5 pr-3 text-left font-normal">
+                      {figure.label}
+                      {figure.id === 'gain' && <GainTarget gain={after} target={spec.gain.target} tolerancePercent={spec.gain.tolerancePercent} />}
+                      {figure.id === 'power' && (
+                        <span className="block text-xs text-ink-soft dark:text-night-ink-soft">budget {formatQuantity(spec.powerBudgetW, 'W')} at the worst corner</span>
+                      )}
+                    </th>
+                    <td className="py-1.5 pr-3 text-right">
+                      <Quantity value={before} unit={figure.unit} />
+                    </td>
+                    <td className={cn('py-1.5 pr-3 text-right', stale ? 'text-ink-soft dark:text-night-ink-soft' : 'font-medium')}>{edited ? <Quantity value={after} unit={figure.unit} /> : <span className="text-ink-soft">…</span>}</td>
+                    <td className="py-1.5 text-right text-ink-soft tabular-nums dark:text-night-ink-soft">{changeText(figure, before, after) ?? '—'}</td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
       )}
       {edited && !error && <Warnings warnings={edited.warnings} />}
       <p className="mt-2 text-xs text-ink-soft dark:text-night-ink-soft">

@@ -88,10 +88,10 @@ export function MonteCarloSection({ proposal, status, canVerify, user }: { propo
       ) : (
         <>
           <form onSubmit={start} noValidate className="flex flex-wrap items-end gap-3">
-            <label className="flex flex-col gap-1 text-sm">
+            <label className="flex min-w-0 max-w-full flex-col gap-1 text-sm">
               <span>Option</span>
               <select
-                className={inputClass}
+                className={`${inputClass} max-w-full`}
                 value={key ?? ''}
                 onChange={(event) => {
                   setChosen(event.target.value);
