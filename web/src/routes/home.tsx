@@ -8,19 +8,12 @@ import { meQuery } from '../features/auth/api/auth-queries';
 import { projectListQuery } from '../features/projects/api/project-queries';
 import { NewProjectForm } from '../features/projects/components/new-project-form';
 import { heldRoles, heldRoleTitles, mayAs, projectRoleOf, ROLE_TITLES } from '../../../shared/workflow/roles';
+import { roleHint } from '../features/projects/utils/role-hint';
 
 export const loader = (queryClient: QueryClient) => async () => {
   await queryClient.ensureQueryData(projectListQuery());
   return null;
 };
-
-/** What each role comes here to do. */
-const ROLE_HINTS = {
-  admin: 'Create projects, add people to them, and manage accounts under People.',
-  requirements: 'Open a project to write or revise a spec, then ask the engine for a proposal.',
-  designer: 'Open a project to weigh ranked tail options and decide.',
-  reviewer: 'Open a project to check decided proposals against their reasons and approve or return them.',
-} as const;
 
 export function Component() {
   const { data: user } = useSuspenseQuery(meQuery());
@@ -29,7 +22,7 @@ export function Component() {
   return (
     <>
       <PageHeader title="Projects" eyebrow={heldRoleTitles(user).join(' · ') || 'Member'}>
-        {heldRoles(user).map((role) => ROLE_HINTS[role]).join(' ') || 'An administrator adds you to a project with your role in it; it then appears here.'}
+        {roleHint(heldRoles(user)) || 'An administrator adds you to a project with your role in it; it then appears here.'}
       </PageHeader>
       <section aria-labelledby="projects-heading">
         <h2 id="projects-heading" className="mb-3 text-sm font-medium tracking-wide text-ink-soft uppercase dark:text-night-ink-soft">

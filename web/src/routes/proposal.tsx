@@ -98,9 +98,9 @@ export function Component() {
 
 /** What the reader can do about a newer spec version, by the proposal's state. */
 function movedOnAdvice(proposal: Proposal): string {
-  if (proposal.status === 'approved') return 'The approval stands for the version ranked here; rank the latest version to check the design against it.';
-  if (proposal.status === 'decided') return 'Check whether the decision still holds against the latest version before approving it.';
-  if (proposal.status === 'superseded' && proposal.supersededById) return `Ranking #${proposal.supersededById} is of a later version.`;
+  if (proposal.status === 'approved') return 'The sign-off stands for the version ranked here; rank the latest version to check the design against it.';
+  if (proposal.status === 'decided') return 'Check whether the decision still holds against the latest version before signing it off.';
+  if (proposal.status === 'superseded' && proposal.supersededById) return `Proposal #${proposal.supersededById} ranks a later version.`;
   return 'Rank the latest version to see the options against it.';
 }
 

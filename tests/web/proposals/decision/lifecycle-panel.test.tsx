@@ -34,7 +34,7 @@ describe('LifecyclePanel', () => {
     show(<LifecyclePanel proposal={proposalFixture({ status: 'superseded', supersededById: 9, closedAt: '2026-12-04T19:29:00.000Z', allowedEvents: [] })} user={DESIGNER} />);
 
     expect(screen.getByRole('complementary', { name: 'Closed' }).textContent).toMatch(/Closed: the spec moved on\./);
-    expect(screen.getByRole('link', { name: 'Open ranking #9' }).getAttribute('href')).toBe('/proposals/9');
+    expect(screen.getByRole('link', { name: 'Open proposal #9' }).getAttribute('href')).toBe('/proposals/9');
     expect(screen.queryByRole('button', { name: /Withdraw/ })).toBeNull();
   });
 
@@ -52,7 +52,7 @@ describe('LifecyclePanel', () => {
     const user = userEvent.setup();
     show(<LifecyclePanel proposal={open()} user={DESIGNER} />);
 
-    await user.click(screen.getByRole('button', { name: 'Withdraw this ranking…' }));
+    await user.click(screen.getByRole('button', { name: 'Withdraw this proposal…' }));
     await user.click(screen.getByRole('button', { name: 'Withdraw with this reason' }));
     expect(screen.getByText(/a withdrawal needs a reason/)).toBeTruthy();
     expect(fetchMock.to('POST', '/api/proposals/2/withdrawal')).toHaveLength(0);
@@ -71,6 +71,6 @@ describe('LifecyclePanel', () => {
   ] as const)('when %s looks at it, then withdrawing is offered: %s', (_who, user, proposal, offered) => {
     fetchMock = mockFetch({ ...MEMBERS });
     show(<LifecyclePanel proposal={proposal} user={user} />);
-    expect(screen.queryByRole('button', { name: 'Withdraw this ranking…' }) !== null).toBe(offered);
+    expect(screen.queryByRole('button', { name: 'Withdraw this proposal…' }) !== null).toBe(offered);
   });
 });

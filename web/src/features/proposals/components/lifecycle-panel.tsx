@@ -34,7 +34,7 @@ export function LifecyclePanel({ proposal, user }: { proposal: Proposal; user: U
           .{' '}
           {proposal.supersededById && (
             <Link to={paths.proposal.href(proposal.supersededById)} className="font-medium text-fern underline dark:text-fern-bright">
-              Open ranking #{proposal.supersededById}
+              Open proposal #{proposal.supersededById}
             </Link>
           )}
         </p>
@@ -72,13 +72,13 @@ function WithdrawForm({ proposalId }: { proposalId: number }) {
     return (
       <div className="text-right">
         <Button variant="quiet" onClick={() => setOpen(true)} aria-expanded={false}>
-          Withdraw this ranking…
+          Withdraw this proposal…
         </Button>
       </div>
     );
   return (
     <form
-      aria-label="Withdraw this ranking"
+      aria-label="Withdraw this proposal"
       noValidate
       className="space-y-2 rounded-lg border border-rule bg-sheet p-4 text-sm dark:border-night-rule dark:bg-night-sheet"
       onSubmit={(e) => {
@@ -87,7 +87,7 @@ function WithdrawForm({ proposalId }: { proposalId: number }) {
         mutation.mutate(reason.trim());
       }}
     >
-      <p className="font-medium">Withdraw this ranking</p>
+      <p className="font-medium">Withdraw this proposal</p>
       <p className="text-ink-soft dark:text-night-ink-soft">The record stays readable, with its decisions and reviews; nobody can decide or review it afterwards.</p>
       <label htmlFor={id} className="block font-medium">
         Reason <span className="font-normal text-ink-soft dark:text-night-ink-soft">(required)</span>

@@ -26,7 +26,7 @@ export function SpecMovedOn({ specId, rankedVersion, rankedPayload, movedOn, sch
   return (
     <aside aria-label="The spec has moved on" className="rounded-lg border border-note/50 bg-note-soft/60 px-4 py-3 text-sm dark:border-note/40 dark:bg-note/15">
       <p>
-        <span className="font-medium">The spec has moved on to version {movedOn.latestVersion}.</span> This ranking is of version {rankedVersion}. {advice}
+        <span className="font-medium">The spec has moved on to version {movedOn.latestVersion}.</span> This proposal ranks version {rankedVersion}. {advice}
       </p>
       {movedOn.latestNote && (
         <p className="mt-1 break-words">
