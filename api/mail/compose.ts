@@ -231,7 +231,7 @@ export function composeDigest(entries: readonly DigestEntry[], recipientName: st
   const text = [
     `Hello ${oneLine(recipientName)},`,
     '',
-    `${entries.length} workflow updates came for you within about a minute, so here they are in one e-mail:`,
+    entries.length === 1 ? 'One more workflow update came for you within the same minute as the ones before it:' : `${entries.length} workflow updates came for you within about a minute, so here they are in one e-mail:`,
     '',
     ...items,
     `You get these e-mails because you work on these projects. Turn them off on your profile: ${profileLink}`,
@@ -239,5 +239,5 @@ export function composeDigest(entries: readonly DigestEntry[], recipientName: st
     ESTIMATE_NOTICE,
     '',
   ].join('\n');
-  return { subject: `Longtail: ${entries.length} workflow updates`, text };
+  return { subject: `Longtail: ${entries.length} workflow update${entries.length === 1 ? '' : 's'}`, text };
 }

@@ -6,6 +6,7 @@
  */
 import { createHash, randomBytes } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
+import { formatDateTime } from '../../shared/text/dates';
 import type { AccountRole, ProjectRoleOf } from '../../shared/workflow/roles';
 import { hashPassword, verifyPassword } from '../auth/password';
 import { checkPassword } from '../auth/password-policy';
@@ -146,7 +147,7 @@ function resetMessage(displayName: string, link: string, expiresAt: string, admi
       '',
       link,
       '',
-      `The link works once, until ${expiresAt} (UTC). Setting the new password signs you out everywhere.`,
+      `The link works once, until ${formatDateTime(expiresAt, { timeZone: 'UTC' })}. Setting the new password signs you out everywhere.`,
       'If you did not expect this, tell your administrator; your current password keeps working until the link is used.',
     ].join('\n'),
   };

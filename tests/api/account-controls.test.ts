@@ -150,8 +150,14 @@ describe('when an administrator has a reset link sent', () => {
     const hours = (Date.parse(response.body.expiresAt) - Date.now()) / 3_600_000;
     expect(hours).toBeGreaterThan(23.9);
     expect(hours).toBeLessThanOrEqual(24);
-    const { token, subject } = await mailedToken(person.email);
+    const { token, subject, body } = await mailedToken(person.email);
     expect(subject).toMatch(/new password/i);
+    // The expiry in the app's date format, in UTC with the zone named (never an ISO stamp).
+    const expiry = new Date(response.body.expiresAt);
+    const month = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'][expiry.getUTCMonth()];
+    const clock = `${String(expiry.getUTCHours()).padStart(2, '0')}:${String(expiry.getUTCMinutes()).padStart(2, '0')}`;
+    expect(body).toContain(`until ${expiry.getUTCDate()} ${month} ${expiry.getUTCFullYear()}, ${clock} UTC.`);
+    expect(body).not.toContain(response.body.expiresAt);
     const stored = await api.dataSource.getRepository(PasswordResetEntity).find({ where: { userId: person.id } });
     expect(stored).toEqual([expect.objectContaining({ tokenHash: createHash('sha256').update(token).digest('hex'), usedAt: null, createdById: api.users.admin.id })]);
     expect(JSON.stringify(stored)).not.toContain(token);
