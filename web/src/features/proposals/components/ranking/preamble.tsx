@@ -3,6 +3,7 @@ import { Verdict } from '../../../../components/ui/verdict';
 import { besideRecommendation, currentDesignName, currentDesignRole } from '../../../../../../shared/workflow/current-design';
 import type { ProposalState } from '../../../../../../shared/workflow/proposal-states';
 import type { ShownDesign } from '../../lib/current-design';
+import { noPassingExplanation } from '../../lib/ranking-explanation';
 
 /** The engine writes cautions as "Caution: …"; the block's heading already says so. */
 function withoutCautionWord(text: string): string {
@@ -53,6 +54,7 @@ export function RecommendationSummary({ result, status, current }: { result: Rec
           </>
         )}
       </p>
+      {!current && noPassingExplanation(result) && <p className="mt-1 text-sm">{noPassingExplanation(result)}</p>}
       {current && current.basis === 'decision' && (
         <p className="mt-1 text-sm">
           {beside ?? `The recommendation, accepted as ranked. ${result.summary}`}
