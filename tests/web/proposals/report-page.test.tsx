@@ -167,7 +167,8 @@ describe('review report page', () => {
     const ranking = section('Ranked options');
     // A row of group headings, a row of column headings, then one row per option.
     expect(within(ranking).getAllByRole('row')).toHaveLength(RANKING.options.length + 2);
-    expect(within(ranking).getByRole('rowheader', { name: /Wilson mirror/ }).textContent).toContain('decided');
+    // An approved proposal's design is 'signed off' in the report's table, as on the page.
+    expect(within(ranking).getByRole('rowheader', { name: /Wilson mirror/ }).textContent).toContain('signed off');
 
     const design = section('Chosen design');
     expect(design.textContent).toContain('Priya Valcourt');

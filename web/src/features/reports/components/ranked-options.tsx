@@ -38,6 +38,8 @@ export function RankedOptions({ proposal, decided }: { proposal: Proposal; decid
     const margins = [row.icmLowMarginV, row.icmHighMarginV, row.swingMarginV].filter((m): m is number => m !== null);
     return margins.length === 0 ? null : Math.min(...margins);
   };
+  // The page's word for the current design: signed off once approved, decided before.
+  const decidedWord = proposal.status === 'approved' ? 'signed off' : 'decided';
   return (
     <>
       <p className="mb-2 text-sm">{result.summary}</p>
@@ -81,7 +83,7 @@ export function RankedOptions({ proposal, decided }: { proposal: Proposal; decid
           <tbody>
             {result.options.map((option, i) => {
               const row = rows[i];
-              const notes = [row.recommended && 'recommended', option.topology === decided?.topology && (decided.ownValues ? 'decided with own values' : 'decided')].filter(Boolean).join(', ');
+              const notes = [row.recommended && 'recommended', option.topology === decided?.topology && (decided.ownValues ? `${decidedWord} with own values` : decidedWord)].filter(Boolean).join(', ');
               return (
                 <tr key={option.topology} className="border-b border-rule/60 align-top dark:border-night-rule/60">
                   <td className="py-1.5 pr-2 tabular-nums">{option.rank}</td>
