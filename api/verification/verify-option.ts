@@ -28,6 +28,7 @@ import { TAIL_TEST_SOURCE, type AcSweep } from '../../shared/engine/netlist';
 import { singleEndedCmrrDbAt, solveStage } from '../../shared/engine/analyze';
 import { conditionLabel } from '../../shared/engine/conditions';
 import { NOMINAL_TEMPERATURE_C } from '../../shared/engine/constants';
+import { formatQuantity } from '../../shared/units/format-quantity';
 
 /** Points per decade of the nominal sweeps; every fifth point lands on the engine's 4-per-decade curve. */
 const SWEEP_POINTS_PER_DECADE = 20;
@@ -197,7 +198,7 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
         absoluteFigure('cmrrSingleEndedDb', 'CMRR, single-ended, low frequency', 'dB', predicted.cmrrDb.singleEnded, low.cmrrSingleEndedDb, TOL.singleEndedCmrrDb, 'db'),
         absoluteFigure(
           'cmrrAtFrequencyDb',
-          `CMRR, single-ended, at ${target.frequencyHz} Hz`,
+          `CMRR, single-ended, at ${formatQuantity(target.frequencyHz, 'Hz')}`,
           'dB',
           predictedAtSpecDb,
           atSpec.figuresAt(0).cmrrSingleEndedDb,
@@ -224,7 +225,7 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
         figures: [
           percentFigure('tailCurrentA', 'Tail current', 'A', corner.tailCurrentA, cornerDc.tailCurrentA, TOL.currentPercent),
           percentFigure('gain', gainLabel, '', corner.gain, ac[gainKey], TOL.gainPercent),
-          absoluteFigure('cmrrAtFrequencyDb', `CMRR, single-ended, at ${target.frequencyHz} Hz`, 'dB', corner.cmrrAtFrequencyDb, ac.cmrrSingleEndedDb, TOL.singleEndedCmrrDb, 'db'),
+          absoluteFigure('cmrrAtFrequencyDb', `CMRR, single-ended, at ${formatQuantity(target.frequencyHz, 'Hz')}`, 'dB', corner.cmrrAtFrequencyDb, ac.cmrrSingleEndedDb, TOL.singleEndedCmrrDb, 'db'),
           percentFigure('powerW', 'Power', 'W', corner.powerW, cornerDc.powerW, TOL.powerPercent),
         ],
       });

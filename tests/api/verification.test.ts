@@ -105,6 +105,8 @@ describe('verification of every option of the demo proposals', () => {
         expect(option.corners).toHaveLength(4);
         for (const condition of [option.nominal!, ...option.corners]) {
           for (const figure of condition.figures) expectWithinIssueTolerance(figure, `${where} ${condition.label}`);
+          // Figure names carry their frequency in engineering notation ("at 15 kHz"), never "at 15000 Hz".
+          for (const figure of condition.figures) expect(figure.label, where).not.toMatch(/\d{4,} Hz/);
         }
         expect(option.agrees).toBe(true);
         // The simulated curve starts at 1 Hz and runs past 10 MHz, where the engine's curve stops.
