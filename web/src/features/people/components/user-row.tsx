@@ -9,6 +9,8 @@ import { formatDate, formatDateTime } from '../../../lib/dates';
 const td = 'border-b border-rule/70 px-2.5 py-1.5 align-middle dark:border-night-rule/70';
 const soft = 'text-ink-soft dark:text-night-ink-soft';
 const noteRow = 'border-b border-rule/70 px-2.5 py-2 dark:border-night-rule/70';
+/** A note row's content stays in the visible part of the table when a phone scrolls it sideways. */
+const pinned = 'sticky left-2.5 max-w-[calc(100vw-5rem)]';
 
 /**
  * One account: rename in place; a role change is confirmed first, and the server may still
@@ -133,7 +135,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
       {newRole && (
         <tr>
           <td colSpan={5} className="border-b border-rule/70 bg-note-soft/60 px-2.5 py-2 dark:border-night-rule/70 dark:bg-note/15">
-            <div role="group" aria-label={`Confirm the role change of ${user.displayName}`} className="flex flex-wrap items-center gap-3 text-sm">
+            <div role="group" aria-label={`Confirm the role change of ${user.displayName}`} className={`${pinned} flex flex-wrap items-center gap-3 text-sm`}>
               <p>
                 Change {isYou ? 'your own role' : `${user.displayName}’s role`} from <strong className="font-medium">{ACCOUNT_ROLE_TITLES[user.role]}</strong> to{' '}
                 <strong className="font-medium">{ACCOUNT_ROLE_TITLES[newRole]}</strong>? What {isYou ? 'you' : 'they'} may do changes at once.
@@ -153,7 +155,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
       {confirmDisable && (
         <tr>
           <td colSpan={5} className={`${noteRow} bg-note-soft/60 dark:bg-note/15`}>
-            <div role="group" aria-label={`Confirm disabling ${user.displayName}`} className="flex flex-wrap items-center gap-3 text-sm">
+            <div role="group" aria-label={`Confirm disabling ${user.displayName}`} className={`${pinned} flex flex-wrap items-center gap-3 text-sm`}>
               <p>
                 Disable {user.displayName}? They are signed out at once and cannot sign in until an administrator enables the account again. Their specs, decisions and reviews stay.
               </p>
@@ -172,7 +174,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
       {resetLink.isSuccess && (
         <tr>
           <td colSpan={5} className={noteRow}>
-            <div role="status" className="flex flex-wrap items-center gap-3 text-sm">
+            <div role="status" className={`${pinned} flex flex-wrap items-center gap-3 text-sm`}>
               <p>
                 <span aria-hidden="true">✓ </span>A one-time link to set a new password is on its way to {user.email}. It works once, until{' '}
                 <time dateTime={resetLink.data.expiresAt}>{formatDateTime(resetLink.data.expiresAt)}</time>; a newer link replaces it. The current password works until the link is used.
@@ -187,7 +189,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
       {(resetLink.error || access.error) && (
         <tr>
           <td colSpan={5} className={`${noteRow} bg-short-soft/60 dark:bg-short/15`}>
-            <div role="alert" className="flex flex-wrap items-center gap-3 text-sm text-short dark:text-short-bright">
+            <div role="alert" className={`${pinned} flex flex-wrap items-center gap-3 text-sm text-short dark:text-short-bright`}>
               <p>
                 <span aria-hidden="true">✕ </span>
                 {resetLink.error ? `No link was sent: ${resetLink.error.message}` : `The account was not changed: ${access.error?.message}`}
@@ -209,7 +211,7 @@ export function UserRow({ user, isYou, onChanged }: { user: User; isYou: boolean
       {refusal && (
         <tr>
           <td colSpan={5} className="border-b border-rule/70 bg-short-soft/60 px-2.5 py-2 dark:border-night-rule/70 dark:bg-short/15">
-            <div role="alert" className="flex flex-wrap items-center gap-3 text-sm text-short dark:text-short-bright">
+            <div role="alert" className={`${pinned} flex flex-wrap items-center gap-3 text-sm text-short dark:text-short-bright`}>
               <p>
                 <span aria-hidden="true">✕ </span>
                 The role of {isYou ? 'your account' : user.displayName} was not changed: {refusal}
