@@ -84,7 +84,7 @@ export async function seedDemo(dataSource: DataSource, ruleSet: RuleSet, passwor
   await createProposal(dataSource, people.requirements, lineSpec.id, ruleSet);
 
   // 3. Biosignal front end: an override, returned by the reviewer for another look.
-  const biosignal = await project('Marram biosignal front end', 'Electrode amplifier input pair for the bench prototype (not for patient use).', [['lead', 'reviewer']]);
+  const biosignal = await project('Marram biosignal front end', 'Electrode amplifier input pair of a patient-connected instrument; the bench prototype is never connected to a person, and its spec keeps the patient caution for the design that will be.', [['lead', 'reviewer']]);
   const electrode = demoSpec('electrode-amplifier-input.json');
   const electrodeSpec = await createSpec(dataSource, people.requirements, biosignal.id, { title: electrode.title, payload: electrode });
   const electrodeProposal = await createProposal(dataSource, people.designer, electrodeSpec.id, ruleSet);
