@@ -5,7 +5,7 @@ import type { Proposal, User } from '../../../lib/api-types';
 import { useDecideMutation } from '../api/decision-mutations';
 import { usePersonName } from './audit/use-person-name';
 import { When } from './audit/when';
-import { DECISION_KIND_WORDS, latestDecision } from './decision/decided-option';
+import { decisionKindWords, latestDecision } from './decision/decided-option';
 import { DecisionForm } from './decision/decision-form';
 import { DecisionSummary } from './decision/decision-summary';
 import { topologyTitle } from './decision/design-fields';
@@ -38,7 +38,7 @@ export function DecisionPanel({ proposal, user }: { proposal: Proposal; user: Us
         <EmptyState title="No decision yet">The proposal waits for a designer to accept the recommendation, choose another option or use own values.</EmptyState>
       ) : reviewsNow ? (
         <p className="text-sm">
-          {nameOf(decision.decidedById)} {DECISION_KIND_WORDS[decision.kind]} ({topologyTitle(decision.topology)}) on <When iso={decision.createdAt} />. It is yours to review below.
+          {nameOf(decision.decidedById)} {decisionKindWords(decision.kind, proposal)} ({topologyTitle(decision.topology)}) on <When iso={decision.createdAt} />. It is yours to review below.
         </p>
       ) : (
         <DecisionSummary proposal={proposal} decision={decision} nameOf={nameOf} />

@@ -1,7 +1,7 @@
 import { OptionVerdict } from '../../../components/ui/verdict';
 import type { Proposal } from '../../../lib/api-types';
 import { topologyName } from '../../../lib/topology-names';
-import { blockingFailures, DECISION_KIND_WORDS } from '../../proposals/components/decision/decided-option';
+import { blockingFailures, decisionKindWords } from '../../proposals/components/decision/decided-option';
 import { OptionSchematic } from '../../proposals/components/ranking/schematic/option-schematic';
 import { SizedValues } from '../../proposals/components/ranking/sized-values';
 import type { ReportSubject } from '../lib/report-subject';
@@ -36,7 +36,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
       {decision ? (
         <div className="space-y-2 text-sm">
           <p>
-            <span className="font-medium">{nameOf(decision.decidedById)}</span> {DECISION_KIND_WORDS[decision.kind]}: <span className="font-medium">{topologyName(decision.topology)}</span>
+            <span className="font-medium">{nameOf(decision.decidedById)}</span> {decisionKindWords(decision.kind, proposal)}: <span className="font-medium">{topologyName(decision.topology)}</span>
             {' '}· {formatDateTime(decision.createdAt, { seconds: true })}
             {proposal.decisions.length > 1 && ` · decision ${proposal.decisions.length} of ${proposal.decisions.length}`}
           </p>

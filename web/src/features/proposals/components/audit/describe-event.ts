@@ -42,7 +42,7 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
       const decision = proposal?.decisions.find((d) => d.id === event.entityId);
       const kind = typeof details.kind === 'string' ? details.kind : (decision?.kind ?? '');
       const topology = topologyTitle(typeof details.topology === 'string' ? details.topology : decision?.topology);
-      const words = DECIDED_WORDS[kind]?.(topology) ?? `decided (${topology})`;
+      const words = kind === 'choose' && proposal && !proposal.result.recommended ? `decided: chose a ranked option, none being recommended (${topology})` : (DECIDED_WORDS[kind]?.(topology) ?? `decided (${topology})`);
       const note = kind === 'override' && typeof details.passes === 'boolean' ? (details.passes ? 'The server’s checks: passes every blocking check.' : 'The server’s checks: short on at least one blocking check.') : undefined;
       return { what: words, quote: decision?.reason ? { label: 'Reason', text: decision.reason } : undefined, note, ...transition };
     }

@@ -1,11 +1,17 @@
 import type { Decision, OptionEvaluation, Proposal } from '../../../../lib/api-types';
 
 /** Plain words for a decision's kind. */
-export const DECISION_KIND_WORDS: Record<Decision['kind'], string> = {
+const DECISION_KIND_WORDS: Record<Decision['kind'], string> = {
   accept: 'accepted the recommendation',
   choose: 'chose another ranked option',
   override: 'used own values',
 };
+
+/** A decision's kind in words for this proposal: choosing an option is "another" only beside a recommendation. */
+export function decisionKindWords(kind: Decision['kind'], proposal: Pick<Proposal, 'result'> | undefined): string {
+  if (kind === 'choose' && proposal && !proposal.result.recommended) return 'chose a ranked option (none was recommended)';
+  return DECISION_KIND_WORDS[kind];
+}
 
 export function latestDecision(proposal: Proposal): Decision | null {
   return proposal.decisions.at(-1) ?? null;

@@ -2,7 +2,7 @@ import { OptionVerdict } from '../../../../components/ui/verdict';
 import type { Decision, Proposal } from '../../../../lib/api-types';
 import { CheckList } from '../review/check-list';
 import { When } from '../audit/when';
-import { blockingFailures, decidedOption, DECISION_KIND_WORDS, rankedOption } from './decided-option';
+import { blockingFailures, decidedOption, decisionKindWords, rankedOption } from './decided-option';
 import { DesignValues } from './design-values';
 import { topologyTitle } from './design-fields';
 
@@ -18,7 +18,7 @@ export function DecisionSummary({ proposal, decision, nameOf, showChecks = true 
   return (
     <article className="space-y-3" aria-label={`Decision ${number}`}>
       <p className="text-sm">
-        <span className="font-medium">{nameOf(decision.decidedById)}</span> {DECISION_KIND_WORDS[decision.kind]}: <span className="font-medium">{topologyTitle(decision.topology)}</span>
+        <span className="font-medium">{nameOf(decision.decidedById)}</span> {decisionKindWords(decision.kind, proposal)}: <span className="font-medium">{topologyTitle(decision.topology)}</span>
         {decision.kind === 'choose' && ranked && (
           <span className="text-ink-soft dark:text-night-ink-soft">
             {' '}
