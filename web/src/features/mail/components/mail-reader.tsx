@@ -21,7 +21,7 @@ export function MailReader({ messages }: { messages: ReceivedMail[] }) {
   }
   const open = messages.find((m) => m.id === pickedId) ?? messages[0];
   return (
-    <div className="grid items-start gap-6 lg:grid-cols-[24rem_minmax(0,1fr)]">
+    <div className="grid grid-cols-[minmax(0,1fr)] items-start gap-6 lg:grid-cols-[24rem_minmax(0,1fr)]">
       <nav aria-label="Messages">
         <ul className="divide-y divide-rule overflow-hidden rounded-lg border border-rule bg-sheet dark:divide-night-rule dark:border-night-rule dark:bg-night-sheet">
           {messages.map((message) => {
@@ -56,7 +56,7 @@ export function MailReader({ messages }: { messages: ReceivedMail[] }) {
             <time dateTime={open.at}>{formatDateTime(open.at, { seconds: true })}</time>
           </dd>
         </dl>
-        <pre className="font-sans text-sm leading-relaxed break-words whitespace-pre-wrap">{open.text}</pre>
+        <pre className="font-sans text-sm leading-relaxed whitespace-pre-wrap [overflow-wrap:anywhere]">{open.text}</pre>
       </Sheet>
     </div>
   );
