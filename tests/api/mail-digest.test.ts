@@ -74,6 +74,13 @@ describe(`when ${EVENTS} workflow messages for one person arrive within a minute
       expect(text).toContain(`Proposal #${row.proposalId} waits for a decision`);
       expect(text).toContain(`${BASE_URL}/proposals/${row.proposalId}`);
     }
+    // Subjects carry no titles, so each entry says which project and spec it is about, as the single e-mail would
+    const entries = text.split(/^\d+\. /m).slice(1);
+    expect(entries).toHaveLength(held.length);
+    for (const entry of entries) {
+      expect(entry).toContain(`Spec: "${TITLE}", version 1`);
+      expect(entry).toContain('Project: Quillon sensor head');
+    }
     expect(text).toContain(`${BASE_URL}/profile`);
     expect(text).toMatch(/estimates/);
     const after = await outbox().findBy({ id: held[0].id });
