@@ -139,11 +139,15 @@ export function createOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
     if (mine.length === 0) return { sent: 0, failed: 0 };
     const ids = mine.map((row) => row.id);
     const first = mine[0];
-    const { subject, text } = composeDigest(
-      mine.map((row) => ({ subject: row.subject, summary: summaryOf(row.body), about: aboutOf(row.body), link: row.link })),
-      first.toName,
-      profileLinkOf(mine.find((row) => row.link)?.link ?? null),
-    );
+    // A digest of one held message is that message, as written ("1 workflow updates" would say less).
+    const { subject, text } =
+      mine.length === 1
+        ? { subject: first.subject, text: first.body }
+        : composeDigest(
+            mine.map((row) => ({ subject: row.subject, summary: summaryOf(row.body), about: aboutOf(row.body), link: row.link })),
+            first.toName,
+            profileLinkOf(mine.find((row) => row.link)?.link ?? null),
+          );
     const attempts = Math.max(...mine.map((row) => row.attempts)) + 1;
     try {
       await transport.sendMail({

@@ -22,12 +22,14 @@ let api: TestApi;
 let worker: OutboxWorker;
 const sent: SendMailOptions[] = [];
 const proposalIds: number[] = [];
+let specId = 0;
 
 beforeAll(async () => {
   configureNotifications({ baseUrl: BASE_URL });
   api = await buildApiApp({ accounts: ['admin', 'requirements', 'designer', 'reviewer'] });
   const project = await api.createProject(['requirements', 'designer', 'reviewer']);
   const spec = await api.createSpec(project.id, { title: TITLE });
+  specId = spec.id;
   // Ranked EVENTS times within a few seconds: each tells the designer (and nobody else).
   for (let i = 0; i < EVENTS; i += 1) proposalIds.push((await api.createProposal(spec.id, 'requirements')).id);
   worker = createOutboxWorker({ dataSource: api.dataSource, transport: { sendMail: async (message) => void sent.push(message) }, from: 'Longtail <longtail@fernhollow.test>', retryBaseMs: 10 });
@@ -96,5 +98,26 @@ describe(`when ${EVENTS} workflow messages for one person arrive within a minute
       expect(headers).not.toContain(api.users.designer.displayName);
       expect(headers).not.toContain(api.users.requirements.displayName);
     }
+  });
+});
+
+describe('when a single message is held for the end of a window', () => {
+  test('then it goes out as itself, with its own subject and text, not as a digest of one', async () => {
+    // The designer just had EVENTS messages: the next one is held on its own
+    const proposal = await api.createProposal(specId, 'requirements');
+    const [row] = await outbox().findBy({ proposalId: proposal.id, userId: api.users.designer.id });
+    expect(row.digest).toBe(true);
+    await outbox().update({ id: row.id }, { nextAttemptAt: new Date(Date.now() - 1).toISOString() });
+    const before = sent.length;
+
+    const run = await worker.runOnce();
+
+    expect(run).toEqual({ sent: 1, failed: 0 });
+    expect(sent.length - before).toBe(1);
+    const message = sent.at(-1)!;
+    expect(message.subject).toBe(`Proposal #${proposal.id} waits for a decision (spec version 1)`);
+    expect(String(message.text)).toContain(`Spec: "${TITLE}", version 1`);
+    expect(String(message.text)).toContain(`${BASE_URL}/proposals/${proposal.id}`);
+    expect(String(message.text)).not.toMatch(/workflow updates/);
   });
 });
