@@ -121,3 +121,20 @@ describe('when a single message is held for the end of a window', () => {
     expect(String(message.text)).not.toMatch(/workflow updates/);
   });
 });
+
+describe('when a digest is being sent (its rows leased by the worker) and another message comes', () => {
+  test('then the new message waits for the end of its own window, not for the end of the lease', async () => {
+    // A lease as the worker takes it: the held row stays pending, moved five minutes on while it is sent
+    const first = await api.createProposal(specId, 'requirements');
+    const [leased] = await outbox().findBy({ proposalId: first.id, userId: api.users.designer.id });
+    expect(leased.digest).toBe(true);
+    await outbox().update({ id: leased.id }, { nextAttemptAt: new Date(Date.now() + 5 * 60_000).toISOString() });
+
+    const asked = Date.now();
+    const next = await api.createProposal(specId, 'requirements');
+    const [row] = await outbox().findBy({ proposalId: next.id, userId: api.users.designer.id });
+
+    expect(row.digest).toBe(true);
+    expect(Date.parse(row.nextAttemptAt) - asked).toBeLessThanOrEqual(DIGEST_WINDOW_MS + 1_000);
+  });
+});
