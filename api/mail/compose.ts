@@ -89,8 +89,11 @@ function verificationLine(verification: { jobId: number | null; staleAccepted: b
   return [`SPICE verification relied on: job #${verification.jobId}, which simulated exactly this design.`];
 }
 
-const specLine = (facts: ProposalFacts) => `Spec: "${facts.specTitle}", version ${facts.specVersion}`;
-const projectLine = (facts: ProposalFacts) => `Project: ${facts.projectName}`;
+/** How a message's project and spec lines start (a digest lists them under each entry). */
+const PROJECT_LABEL = 'Project: ';
+const SPEC_LABEL = 'Spec: ';
+const specLine = (facts: ProposalFacts) => `${SPEC_LABEL}"${facts.specTitle}", version ${facts.specVersion}`;
+const projectLine = (facts: ProposalFacts) => `${PROJECT_LABEL}${facts.projectName}`;
 /** Multi-line user text (a reason, a comment): indented, one line each, control characters blanked. */
 const quoted = (label: string, text: string | null) => (text ? [`${label}:`, ...commentLines(text, '  ')] : []);
 
@@ -213,6 +216,8 @@ export interface DigestEntry {
   subject: string;
   /** The message's first sentence after the greeting (who did what). */
   summary: string;
+  /** The message's project and spec lines ("Project: …", "Spec: "…", version 2"): which work it is about. */
+  about?: readonly string[];
   link: string | null;
 }
 
@@ -225,9 +230,27 @@ export function summaryOf(body: string): string {
   return oneLine(lines.find((line, i) => i > 0 && line.trim() !== '') ?? '');
 }
 
-/** One e-mail for several held messages to one person, each with its link; the subject is ours alone. */
+/**
+ * The project and spec lines of a message, after its summary sentence (so a name that happens to
+ * start like one is not taken for it): what a digest entry needs besides the subject, which
+ * carries no titles.
+ */
+export function aboutOf(body: string): string[] {
+  const lines = body.split('\n');
+  const summaryAt = lines.findIndex((line, i) => i > 0 && line.trim() !== '');
+  const rest = summaryAt < 0 ? [] : lines.slice(summaryAt + 1);
+  return [rest.find((line) => line.startsWith(PROJECT_LABEL)), rest.find((line) => line.startsWith(SPEC_LABEL))].filter((line): line is string => line !== undefined).map(oneLine);
+}
+
+/** One e-mail for several held messages to one person, each with what it is about and its link; the subject is ours alone. */
 export function composeDigest(entries: readonly DigestEntry[], recipientName: string, profileLink: string): ComposedMessage {
-  const items = entries.flatMap((entry, i) => [`${i + 1}. ${oneLine(entry.subject)}`, ...(entry.summary ? [`   ${entry.summary}`] : []), ...(entry.link ? [`   ${oneLine(entry.link)}`] : []), '']);
+  const items = entries.flatMap((entry, i) => [
+    `${i + 1}. ${oneLine(entry.subject)}`,
+    ...(entry.summary ? [`   ${entry.summary}`] : []),
+    ...(entry.about ?? []).map((line) => `   ${oneLine(line)}`),
+    ...(entry.link ? [`   ${oneLine(entry.link)}`] : []),
+    '',
+  ]);
   const text = [
     `Hello ${oneLine(recipientName)},`,
     '',

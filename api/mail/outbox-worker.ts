@@ -10,7 +10,7 @@
  *
  * Rows held for a digest (api/mail/compose.ts: more than DIGEST_AFTER messages to one person within
  * DIGEST_WINDOW_MS) go out together: one e-mail per person listing each held message with its
- * link, claimed, sent and marked as one. Headers carry only our words, numbers and the address:
+ * project, spec and link, claimed, sent and marked as one. Headers carry only our words, numbers and the address:
  * names, titles and comments stay in the body.
  *
  * Started by server.ts (never by createApp); tests start it explicitly.
@@ -19,7 +19,7 @@ import { In, LessThanOrEqual, type DataSource } from 'typeorm';
 import type { SendMailOptions } from 'nodemailer';
 import { isPostgres } from '../data-source';
 import { MailOutboxEntity, type MailOutbox } from '../entities/mail-outbox.entity';
-import { composeDigest, summaryOf } from './compose';
+import { aboutOf, composeDigest, summaryOf } from './compose';
 import { PASSWORD_RESET_MAIL } from '../entities/password-reset.entity';
 
 /** What the worker needs of a nodemailer transport. */
@@ -139,11 +139,15 @@ export function createOutboxWorker(options: OutboxWorkerOptions): OutboxWorker {
     if (mine.length === 0) return { sent: 0, failed: 0 };
     const ids = mine.map((row) => row.id);
     const first = mine[0];
-    const { subject, text } = composeDigest(
-      mine.map((row) => ({ subject: row.subject, summary: summaryOf(row.body), link: row.link })),
-      first.toName,
-      profileLinkOf(mine.find((row) => row.link)?.link ?? null),
-    );
+    // A digest of one held message is that message, as written ("1 workflow updates" would say less).
+    const { subject, text } =
+      mine.length === 1
+        ? { subject: first.subject, text: first.body }
+        : composeDigest(
+            mine.map((row) => ({ subject: row.subject, summary: summaryOf(row.body), about: aboutOf(row.body), link: row.link })),
+            first.toName,
+            profileLinkOf(mine.find((row) => row.link)?.link ?? null),
+          );
     const attempts = Math.max(...mine.map((row) => row.attempts)) + 1;
     try {
       await transport.sendMail({

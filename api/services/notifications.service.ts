@@ -82,8 +82,11 @@ async function digestTimes(manager: EntityManager, userIds: number[], nowMs: num
   for (const userId of userIds) {
     const mine = recent.filter((row) => row.userId === userId);
     if (mine.length < settings.digestAfter) continue;
-    const waiting = mine.filter((row) => row.digest && row.status === 'pending' && row.attempts === 0).map((row) => row.nextAttemptAt).sort()[0];
-    times.set(userId, waiting ?? new Date(nowMs + settings.digestWindowMs).toISOString());
+    // A digest waiting for the end of its window, not one the worker has leased while it sends
+    // (its time is then the lease's end, minutes away): the new row would wait for that lease.
+    const windowEnd = new Date(nowMs + settings.digestWindowMs).toISOString();
+    const waiting = mine.filter((row) => row.digest && row.status === 'pending' && row.attempts === 0 && row.nextAttemptAt <= windowEnd).map((row) => row.nextAttemptAt).sort()[0];
+    times.set(userId, waiting ?? windowEnd);
   }
   return times;
 }

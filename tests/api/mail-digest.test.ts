@@ -22,12 +22,14 @@ let api: TestApi;
 let worker: OutboxWorker;
 const sent: SendMailOptions[] = [];
 const proposalIds: number[] = [];
+let specId = 0;
 
 beforeAll(async () => {
   configureNotifications({ baseUrl: BASE_URL });
   api = await buildApiApp({ accounts: ['admin', 'requirements', 'designer', 'reviewer'] });
   const project = await api.createProject(['requirements', 'designer', 'reviewer']);
   const spec = await api.createSpec(project.id, { title: TITLE });
+  specId = spec.id;
   // Ranked EVENTS times within a few seconds: each tells the designer (and nobody else).
   for (let i = 0; i < EVENTS; i += 1) proposalIds.push((await api.createProposal(spec.id, 'requirements')).id);
   worker = createOutboxWorker({ dataSource: api.dataSource, transport: { sendMail: async (message) => void sent.push(message) }, from: 'Longtail <longtail@fernhollow.test>', retryBaseMs: 10 });
@@ -74,6 +76,13 @@ describe(`when ${EVENTS} workflow messages for one person arrive within a minute
       expect(text).toContain(`Proposal #${row.proposalId} waits for a decision`);
       expect(text).toContain(`${BASE_URL}/proposals/${row.proposalId}`);
     }
+    // Subjects carry no titles, so each entry says which project and spec it is about, as the single e-mail would
+    const entries = text.split(/^\d+\. /m).slice(1);
+    expect(entries).toHaveLength(held.length);
+    for (const entry of entries) {
+      expect(entry).toContain(`Spec: "${TITLE}", version 1`);
+      expect(entry).toContain('Project: Quillon sensor head');
+    }
     expect(text).toContain(`${BASE_URL}/profile`);
     expect(text).toMatch(/estimates/);
     const after = await outbox().findBy({ id: held[0].id });
@@ -89,5 +98,43 @@ describe(`when ${EVENTS} workflow messages for one person arrive within a minute
       expect(headers).not.toContain(api.users.designer.displayName);
       expect(headers).not.toContain(api.users.requirements.displayName);
     }
+  });
+});
+
+describe('when a single message is held for the end of a window', () => {
+  test('then it goes out as itself, with its own subject and text, not as a digest of one', async () => {
+    // The designer just had EVENTS messages: the next one is held on its own
+    const proposal = await api.createProposal(specId, 'requirements');
+    const [row] = await outbox().findBy({ proposalId: proposal.id, userId: api.users.designer.id });
+    expect(row.digest).toBe(true);
+    await outbox().update({ id: row.id }, { nextAttemptAt: new Date(Date.now() - 1).toISOString() });
+    const before = sent.length;
+
+    const run = await worker.runOnce();
+
+    expect(run).toEqual({ sent: 1, failed: 0 });
+    expect(sent.length - before).toBe(1);
+    const message = sent.at(-1)!;
+    expect(message.subject).toBe(`Proposal #${proposal.id} waits for a decision (spec version 1)`);
+    expect(String(message.text)).toContain(`Spec: "${TITLE}", version 1`);
+    expect(String(message.text)).toContain(`${BASE_URL}/proposals/${proposal.id}`);
+    expect(String(message.text)).not.toMatch(/workflow updates/);
+  });
+});
+
+describe('when a digest is being sent (its rows leased by the worker) and another message comes', () => {
+  test('then the new message waits for the end of its own window, not for the end of the lease', async () => {
+    // A lease as the worker takes it: the held row stays pending, moved five minutes on while it is sent
+    const first = await api.createProposal(specId, 'requirements');
+    const [leased] = await outbox().findBy({ proposalId: first.id, userId: api.users.designer.id });
+    expect(leased.digest).toBe(true);
+    await outbox().update({ id: leased.id }, { nextAttemptAt: new Date(Date.now() + 5 * 60_000).toISOString() });
+
+    const asked = Date.now();
+    const next = await api.createProposal(specId, 'requirements');
+    const [row] = await outbox().findBy({ proposalId: next.id, userId: api.users.designer.id });
+
+    expect(row.digest).toBe(true);
+    expect(Date.parse(row.nextAttemptAt) - asked).toBeLessThanOrEqual(DIGEST_WINDOW_MS + 1_000);
   });
 });

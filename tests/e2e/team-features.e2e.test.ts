@@ -104,8 +104,8 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     await visible(row.getByText('95 V'));
     await visible(row.getByText(/line 5/));
     expect(await library.getByRole('table').getByRole('row').count()).toBe(1 + DEMO_CARDS.length + 2);
-    // The card's own text and notes open on demand
-    await row.getByText('FH3N40', { exact: true }).click();
+    // The card's own text and notes open on demand, from the card's name (not the row's Remove button, which names the card to screen readers too)
+    await row.locator('summary').filter({ hasText: /^FH3N40$/ }).click();
     await visible(row.getByText(/\.model FH3N40 NPN IS=11f/));
     await record(actor, shots, 'library-uploaded');
   });

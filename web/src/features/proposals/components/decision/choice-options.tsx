@@ -65,10 +65,12 @@ export function ChoiceOptions({
 function Choice({ name, value, kind, onKindChange, disabled, title, children }: { name: string; value: DecisionKind; kind: DecisionKind; onKindChange: (kind: DecisionKind) => void; disabled?: boolean; title: string; children: ReactNode }) {
   const id = `${name}-${value}`;
   return (
-    <div className={cn('flex items-start gap-3 rounded-md border p-3', kind === value ? 'border-fern bg-fern-soft/40 dark:border-fern-soft dark:bg-night' : 'border-rule dark:border-night-rule', disabled && 'opacity-70')}>
-      <input id={id} type="radio" name={name} value={value} checked={kind === value} disabled={disabled} onChange={() => onKindChange(value)} aria-describedby={`${id}-more`} className="mt-1 accent-fern" />
+    // A choice not open now says so by its dashed edge and muted title, never by fading the whole
+    // box: its text (why it is not open) must stay as readable as the rest of the page.
+    <div className={cn('flex items-start gap-3 rounded-md border p-3', kind === value ? 'border-fern bg-fern-soft/40 dark:border-fern-soft dark:bg-night' : 'border-rule dark:border-night-rule', disabled && 'border-dashed')}>
+      <input id={id} type="radio" name={name} value={value} checked={kind === value} disabled={disabled} onChange={() => onKindChange(value)} aria-describedby={`${id}-more`} className="mt-1 accent-fern disabled:cursor-not-allowed" />
       <div className="min-w-0 text-sm">
-        <label htmlFor={id} className="font-medium">
+        <label htmlFor={id} className={cn('font-medium', disabled && 'cursor-not-allowed text-ink-soft dark:text-night-ink-soft')}>
           {title}
         </label>
         <p id={`${id}-more`} className="text-ink-soft dark:text-night-ink-soft">
