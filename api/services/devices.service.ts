@@ -13,7 +13,7 @@
  */
 import { createHash } from 'node:crypto';
 import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
-import { cardCommentLines, cardDevice, cardNotes, readModelFile, type CardDevice, type CardOrigin } from '../../shared/devices/model-card';
+import { cardCommentLines, cardDevice, cardNotes, readModelFile, type CardDevice, type CardOrigin, type ModelCard } from '../../shared/devices/model-card';
 import { DEVICE_LIBRARY_QUOTA, type DeviceModelState, type DeviceModelView, type RecordedDeviceModel } from '../../shared/devices/types';
 import type { DeviceParams } from '../../shared/engine/types';
 import { DeviceModelEntity, type DeviceModel } from '../entities/device-model.entity';
@@ -137,6 +137,19 @@ export function safeFileName(original: string): string {
   return trimmed === '' ? 'unnamed file' : [...trimmed].slice(0, 255).join('');
 }
 
+/** The stored row of one card read from an uploaded file, in the project's library. */
+function libraryRow(projectId: number, card: ModelCard, origin: { fileName: string; checksum: string; uploadedById: number; uploadedAt: string }) {
+  return {
+    projectId,
+    name: card.name,
+    nameKey: card.name.toLowerCase(),
+    parameters: JSON.stringify(card.parameters),
+    cardText: card.text,
+    sourceLine: card.line,
+    ...origin,
+  };
+}
+
 /**
  * An uploaded library file read whole: its printable base name, its cards and the sha256 of its
  * bytes; 400 with every problem on its line when any card cannot be read (nothing is stored).
@@ -183,18 +196,7 @@ export async function uploadDeviceModels(dataSource: DataSource, actor: Viewer, 
     await checkLibraryQuota(manager, projectId, cards.length, fileName);
     const saved: DeviceModel[] = [];
     for (const card of cards) {
-      const row = await repository.save({
-        projectId,
-        name: card.name,
-        nameKey: card.name.toLowerCase(),
-        parameters: JSON.stringify(card.parameters),
-        cardText: card.text,
-        sourceLine: card.line,
-        fileName,
-        checksum,
-        uploadedById: actor.id,
-        uploadedAt,
-      });
+      const row = await repository.save(libraryRow(projectId, card, { fileName, checksum, uploadedById: actor.id, uploadedAt }));
       await recordEvent(manager, { actorId: actor.id, action: 'device-model.added', entityType: 'device-model', entityId: row.id, projectId, afterId: row.id, details: { name: card.name, fileName, checksum } });
       saved.push(row);
     }
@@ -313,16 +315,7 @@ export async function replaceDeviceModel(dataSource: DataSource, actor: Viewer, 
     const retired = await retire(manager, old, actor, 'replaced', at);
     const repository = manager.getRepository(DeviceModelEntity);
     const saved = await repository.save({
-      projectId,
-      name: card.name,
-      nameKey: card.name.toLowerCase(),
-      parameters: JSON.stringify(card.parameters),
-      cardText: card.text,
-      sourceLine: card.line,
-      fileName,
-      checksum,
-      uploadedById: actor.id,
-      uploadedAt: at,
+      ...libraryRow(projectId, card, { fileName, checksum, uploadedById: actor.id, uploadedAt: at }),
       retiredAt: null,
       retiredById: null,
       retirement: null,

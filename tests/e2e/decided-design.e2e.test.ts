@@ -15,6 +15,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openActor, record, visible, type Actor } from './helpers/actors';
 import { launchBrowser } from './helpers/browser';
+import { apiFromPage } from './helpers/page-api';
 import { screenshotDir } from './helpers/paths';
 import { screenshots, type Screenshots } from './helpers/screenshots';
 import { startServer, type RunningServer } from './helpers/server';
@@ -47,23 +48,6 @@ let projectId = 0;
 let proposalId = 0;
 let freshJobId = 0;
 
-/** A JSON call from inside the page with its session and CSRF token; answers the status and the body. */
-async function callFromPage<T = Record<string, unknown>>(page: Page, method: 'GET' | 'POST', url: string, body?: unknown): Promise<{ status: number; body: T }> {
-  return page.evaluate(
-    async ({ method, url, body }) => {
-      const headers: Record<string, string> = { Accept: 'application/json' };
-      if (method !== 'GET') {
-        const csrf = (await fetch('/api/auth/csrf', { credentials: 'same-origin' }).then((r) => r.json())) as { token: string };
-        headers['X-CSRF-Token'] = csrf.token;
-        headers['Content-Type'] = 'application/json';
-      }
-      const response = await fetch(url, { method, headers, credentials: 'same-origin', body: method === 'GET' ? undefined : JSON.stringify(body ?? {}) });
-      return { status: response.status, body: (await response.json().catch(() => ({}))) as T };
-    },
-    { method, url, body },
-  );
-}
-
 async function textFromPage(page: Page, url: string): Promise<string> {
   return page.evaluate(async (href) => (await fetch(href, { credentials: 'same-origin' })).text(), url);
 }
@@ -92,18 +76,18 @@ describe('Longtail in the browser: the decided design is what is verified and si
 
   it('sets the scene: a spec ranked, own values decided and simulated in SPICE', async () => {
     const { page } = actors.requirements;
-    const projects = await callFromPage<{ items: { id: number; name: string }[] }>(page, 'GET', '/api/projects');
+    const projects = await apiFromPage<{ items: { id: number; name: string }[] }>(page, 'GET', '/api/projects');
     projectId = projects.body.items.find((p) => p.name === PROJECT)!.id;
-    const spec = await callFromPage<{ id: number }>(page, 'POST', `/api/projects/${projectId}/specs`, { title: SPEC_TITLE, payload: SPEC });
+    const spec = await apiFromPage<{ id: number }>(page, 'POST', `/api/projects/${projectId}/specs`, { title: SPEC_TITLE, payload: SPEC });
     expect(spec.status).toBe(201);
 
     const designer = actors.designer.page;
-    const ranked = await callFromPage<{ id: number; result: { recommended: string; options: { topology: string; design: Record<string, unknown> }[] } }>(designer, 'POST', `/api/specs/${spec.body.id}/proposals`);
+    const ranked = await apiFromPage<{ id: number; result: { recommended: string; options: { topology: string; design: Record<string, unknown> }[] } }>(designer, 'POST', `/api/specs/${spec.body.id}/proposals`);
     expect(ranked.status).toBe(201);
     proposalId = ranked.body.id;
     expect(ranked.body.result.recommended).toBe('degenerated-mirror');
     const design = ranked.body.result.options.find((o) => o.topology === 'degenerated-mirror')!.design;
-    const decided = await callFromPage(designer, 'POST', `/api/proposals/${proposalId}/decision`, {
+    const decided = await apiFromPage(designer, 'POST', `/api/proposals/${proposalId}/decision`, {
       kind: 'override',
       design: { ...design, collectorResistanceOhm: FIRST.rc, pairEmitterResistanceOhm: FIRST.re },
       reason: 'Bench drawer stock: 2k21 collector and 78R7 emitter resistors.',
@@ -111,9 +95,9 @@ describe('Longtail in the browser: the decided design is what is verified and si
     expect(decided.status).toBe(201);
 
     const reviewer = actors.reviewer.page;
-    expect((await callFromPage(reviewer, 'POST', `/api/proposals/${proposalId}/verification`)).status).toBe(202);
+    expect((await apiFromPage(reviewer, 'POST', `/api/proposals/${proposalId}/verification`)).status).toBe(202);
     for (let i = 0; ; i += 1) {
-      const status = await callFromPage<{ verification: { state: string } | null; currentDesign: { state: string } }>(reviewer, 'GET', `/api/proposals/${proposalId}/verification`);
+      const status = await apiFromPage<{ verification: { state: string } | null; currentDesign: { state: string } }>(reviewer, 'GET', `/api/proposals/${proposalId}/verification`);
       if (status.body.verification?.state === 'finished') {
         expect(status.body.currentDesign.state).toBe('current');
         break;
@@ -194,7 +178,7 @@ describe('Longtail in the browser: the decided design is what is verified and si
     await signOff.click();
     await visible(page.getByRole('status').filter({ hasText: 'Signed off: the record is closed.' }));
     await visible(page.getByTestId('relied-on').filter({ hasText: `Relied on SPICE job #${freshJobId}, which simulated exactly this design.` }));
-    const proposal = await callFromPage<{ reviews: { verificationJobId: number; staleVerificationAccepted: boolean }[] }>(page, 'GET', `/api/proposals/${proposalId}`);
+    const proposal = await apiFromPage<{ reviews: { verificationJobId: number; staleVerificationAccepted: boolean }[] }>(page, 'GET', `/api/proposals/${proposalId}`);
     expect(proposal.body.reviews.at(-1)).toMatchObject({ verificationJobId: freshJobId, staleVerificationAccepted: false });
   });
 

@@ -5,13 +5,15 @@
  */
 import type { Page } from 'playwright-core';
 
-export interface PageApiAnswer {
+export interface PageApiAnswer<T = Record<string, unknown>> {
   status: number;
   code: string | null;
+  /** The answer's JSON body ({} when it has none). */
+  body: T;
 }
 
-export async function apiFromPage(page: Page, method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE', url: string, body?: unknown): Promise<PageApiAnswer> {
-  return page.evaluate(
+export async function apiFromPage<T = Record<string, unknown>>(page: Page, method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE', url: string, body?: unknown): Promise<PageApiAnswer<T>> {
+  const answer = await page.evaluate(
     async ({ method, url, body }) => {
       const headers: Record<string, string> = { Accept: 'application/json' };
       if (method !== 'GET') {
@@ -21,8 +23,10 @@ export async function apiFromPage(page: Page, method: 'GET' | 'POST' | 'PUT' | '
       }
       const response = await fetch(url, { method, headers, credentials: 'same-origin', body: method === 'GET' ? undefined : JSON.stringify(body ?? {}) });
       const payload = (await response.json().catch(() => ({}))) as { code?: string };
-      return { status: response.status, code: payload.code ?? null };
+      return { status: response.status, code: payload.code ?? null, body: payload };
     },
     { method, url, body },
   );
+  // The body is the page's parsed JSON: its shape is the caller's to name.
+  return answer as PageApiAnswer<T>;
 }
