@@ -15,7 +15,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openActor, record, visible, type Actor } from './helpers/actors';
 import { launchBrowser } from './helpers/browser';
-import { apiFromPage } from './helpers/page-api';
+import { jsonFromPage } from './helpers/page-api';
 import { screenshotDir } from './helpers/paths';
 import { screenshots, type Screenshots } from './helpers/screenshots';
 import { startServer, type RunningServer } from './helpers/server';
@@ -76,18 +76,18 @@ describe('Longtail in the browser: the decided design is what is verified and si
 
   it('sets the scene: a spec ranked, own values decided and simulated in SPICE', async () => {
     const { page } = actors.requirements;
-    const projects = await apiFromPage<{ items: { id: number; name: string }[] }>(page, 'GET', '/api/projects');
+    const projects = await jsonFromPage<{ items: { id: number; name: string }[] }>(page, 'GET', '/api/projects');
     projectId = projects.body.items.find((p) => p.name === PROJECT)!.id;
-    const spec = await apiFromPage<{ id: number }>(page, 'POST', `/api/projects/${projectId}/specs`, { title: SPEC_TITLE, payload: SPEC });
+    const spec = await jsonFromPage<{ id: number }>(page, 'POST', `/api/projects/${projectId}/specs`, { title: SPEC_TITLE, payload: SPEC });
     expect(spec.status).toBe(201);
 
     const designer = actors.designer.page;
-    const ranked = await apiFromPage<{ id: number; result: { recommended: string; options: { topology: string; design: Record<string, unknown> }[] } }>(designer, 'POST', `/api/specs/${spec.body.id}/proposals`);
+    const ranked = await jsonFromPage<{ id: number; result: { recommended: string; options: { topology: string; design: Record<string, unknown> }[] } }>(designer, 'POST', `/api/specs/${spec.body.id}/proposals`);
     expect(ranked.status).toBe(201);
     proposalId = ranked.body.id;
     expect(ranked.body.result.recommended).toBe('degenerated-mirror');
     const design = ranked.body.result.options.find((o) => o.topology === 'degenerated-mirror')!.design;
-    const decided = await apiFromPage(designer, 'POST', `/api/proposals/${proposalId}/decision`, {
+    const decided = await jsonFromPage(designer, 'POST', `/api/proposals/${proposalId}/decision`, {
       kind: 'override',
       design: { ...design, collectorResistanceOhm: FIRST.rc, pairEmitterResistanceOhm: FIRST.re },
       reason: 'Bench drawer stock: 2k21 collector and 78R7 emitter resistors.',
@@ -95,9 +95,9 @@ describe('Longtail in the browser: the decided design is what is verified and si
     expect(decided.status).toBe(201);
 
     const reviewer = actors.reviewer.page;
-    expect((await apiFromPage(reviewer, 'POST', `/api/proposals/${proposalId}/verification`)).status).toBe(202);
+    expect((await jsonFromPage(reviewer, 'POST', `/api/proposals/${proposalId}/verification`)).status).toBe(202);
     for (let i = 0; ; i += 1) {
-      const status = await apiFromPage<{ verification: { state: string } | null; currentDesign: { state: string } }>(reviewer, 'GET', `/api/proposals/${proposalId}/verification`);
+      const status = await jsonFromPage<{ verification: { state: string } | null; currentDesign: { state: string } }>(reviewer, 'GET', `/api/proposals/${proposalId}/verification`);
       if (status.body.verification?.state === 'finished') {
         expect(status.body.currentDesign.state).toBe('current');
         break;
@@ -178,7 +178,7 @@ describe('Longtail in the browser: the decided design is what is verified and si
     await signOff.click();
     await visible(page.getByRole('status').filter({ hasText: 'Signed off: the record is closed.' }));
     await visible(page.getByTestId('relied-on').filter({ hasText: `Relied on SPICE job #${freshJobId}, which simulated exactly this design.` }));
-    const proposal = await apiFromPage<{ reviews: { verificationJobId: number; staleVerificationAccepted: boolean }[] }>(page, 'GET', `/api/proposals/${proposalId}`);
+    const proposal = await jsonFromPage<{ reviews: { verificationJobId: number; staleVerificationAccepted: boolean }[] }>(page, 'GET', `/api/proposals/${proposalId}`);
     expect(proposal.body.reviews.at(-1)).toMatchObject({ verificationJobId: freshJobId, staleVerificationAccepted: false });
   });
 

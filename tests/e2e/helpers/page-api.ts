@@ -5,14 +5,15 @@
  */
 import type { Page } from 'playwright-core';
 
-export interface PageApiAnswer<T = Record<string, unknown>> {
+type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+
+export interface PageApiAnswer {
   status: number;
   code: string | null;
-  /** The answer's JSON body ({} when it has none). */
-  body: T;
 }
 
-export async function apiFromPage<T = Record<string, unknown>>(page: Page, method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE', url: string, body?: unknown): Promise<PageApiAnswer<T>> {
+/** The status and the JSON body ({} when there is none; its shape is the caller's to name). */
+export async function jsonFromPage<T = Record<string, unknown>>(page: Page, method: Method, url: string, body?: unknown): Promise<{ status: number; body: T }> {
   const answer = await page.evaluate(
     async ({ method, url, body }) => {
       const headers: Record<string, string> = { Accept: 'application/json' };
@@ -22,11 +23,15 @@ export async function apiFromPage<T = Record<string, unknown>>(page: Page, metho
         headers['Content-Type'] = 'application/json';
       }
       const response = await fetch(url, { method, headers, credentials: 'same-origin', body: method === 'GET' ? undefined : JSON.stringify(body ?? {}) });
-      const payload = (await response.json().catch(() => ({}))) as { code?: string };
-      return { status: response.status, code: payload.code ?? null, body: payload };
+      return { status: response.status, body: (await response.json().catch(() => ({}))) as unknown };
     },
     { method, url, body },
   );
-  // The body is the page's parsed JSON: its shape is the caller's to name.
-  return answer as PageApiAnswer<T>;
+  return answer as { status: number; body: T };
+}
+
+/** The status and the error code of the answer (null when it has none). */
+export async function apiFromPage(page: Page, method: Method, url: string, body?: unknown): Promise<PageApiAnswer> {
+  const answer = await jsonFromPage<{ code?: string }>(page, method, url, body);
+  return { status: answer.status, code: answer.body.code ?? null };
 }
