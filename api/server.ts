@@ -4,7 +4,8 @@
  * graceful shutdown. The only file besides cli.ts that touches the process.
  */
 import { existsSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { createApp } from './app';
 import { loadConfig } from './config';
 import { describeDatabase, openDatabase } from './data-source';
@@ -43,7 +44,9 @@ if (config.seedDemo && (await seedDemo(dataSource, ruleSet, config.demoPassword)
 }
 if (config.firstAdmin && (await seedFirstAdmin(dataSource, config.firstAdmin))) console.log(`Created the first administrator, ${config.firstAdmin.email}`);
 
-const webDir = resolve('dist/web');
+// The built browser app, found from this file (api/server.ts, or the compiled dist/server/server.js
+// whose bundler keeps this file's address), so the server starts from any working directory.
+const webDir = fileURLToPath(new URL('../dist/web', import.meta.url));
 const staticDir = existsSync(join(webDir, 'index.html')) ? webDir : undefined;
 if (!staticDir) console.log('No built browser app in dist/web (npm run build): serving the API only.');
 const app = createApp({

@@ -2,7 +2,7 @@
  * Headless Chromium through playwright-core: Debian's /usr/bin/chromium (`apt-get install -y
  * chromium`; .ci/run installs it when missing), never a downloaded browser. Plain `launch` gives
  * every run a fresh temporary profile (user-data dir). The flags keep it quiet on a closed
- * network and runnable as root in a container (../shared/STACK.md).
+ * network and runnable as root in a container (DEVELOPERS.md, pitfalls).
  */
 import { existsSync } from 'node:fs';
 import { chromium, type Browser, type BrowserContext, type BrowserContextOptions, type Page } from 'playwright-core';

@@ -339,7 +339,7 @@ describe('scenario-specific outcomes', () => {
   );
 
   test('a resistor tail that leaves its gain tolerance is governed by the input common mode, and the reason asks for a current-source tail', () => {
-    // Itail = (VICM − VBE − VN)/R (../shared/DOMAIN.md, resistor tail): across QF-7's −1…1 V on
+    // Itail = (VICM − VBE − VN)/R (docs/device-and-formulas.md, resistor tail; [GM]): across QF-7's −1…1 V on
     // −9 V the tail current moves by 2/(9 − 0.65 − 1) ≈ 27 % of its low-end value. Over −10…60 °C
     // 1/VT alone moves about as much (333/263 ≈ 1.27), but VBE falling about 2 mV/K (common
     // practice) raises a resistor tail's current and takes a few per cent off that, so the input

@@ -3,12 +3,12 @@ import { describe, expect, test } from 'vitest';
 import type { RJSFSchema } from '@rjsf/utils';
 import specSchemaJson from '../../../shared/schema/spec.schema.json';
 import { specValidator, SchemaMismatchError } from '../../../web/src/features/specs/lib/spec-validator';
-import { GENERATED_PATH, specValidatorsModule } from './compile-spec-validators';
+import { GENERATED_PATH, specValidatorsModule } from '../../../scripts/compile-spec-validators';
 
 const specSchema = specSchemaJson as RJSFSchema;
 
 describe('precompiled spec validators', () => {
-  test('the generated module matches shared/schema/spec.schema.json (else run: npx tsx tests/web/specs/compile-spec-validators.ts)', () => {
+  test('the generated module matches shared/schema/spec.schema.json (else run: npx tsx scripts/compile-spec-validators.ts)', () => {
     expect(readFileSync(GENERATED_PATH, 'utf8')).toBe(specValidatorsModule());
   });
 

@@ -5,9 +5,9 @@
  */
 import { writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { specCsvColumnsMarkdown } from '../../../shared/import/spec-columns';
+import { specCsvColumnsMarkdown } from '../shared/import/spec-columns';
 
-export const COLUMNS_DOC_PATH = fileURLToPath(new URL('../../../docs/spec-csv-columns.md', import.meta.url));
+export const COLUMNS_DOC_PATH = fileURLToPath(new URL('../docs/spec-csv-columns.md', import.meta.url));
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
   writeFileSync(COLUMNS_DOC_PATH, specCsvColumnsMarkdown());
