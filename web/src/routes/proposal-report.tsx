@@ -9,7 +9,7 @@ import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { ESTIMATE_NOTICE } from '../../../shared/engine/version';
-import { RouteError } from '../app/route-error';
+import { RouteError } from '../components/layout/route-error';
 import { Button } from '../components/ui/button';
 import { paths } from '../config/paths';
 import { projectQuery } from '../features/projects/api/project-queries';

@@ -7,7 +7,7 @@ import { queryOptions } from '@tanstack/react-query';
 import { SETTLED_VERIFICATION_STATES, type VerificationJobView, type VerificationStatus } from '../../../../../shared/verification/types';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import { proposalKeys } from './proposal-queries';
+import { proposalKeys } from '../../../lib/query-keys';
 
 /** How often a running job is asked about, ms. */
 export const VERIFICATION_POLL_MS = 1000;

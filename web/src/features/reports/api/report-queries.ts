@@ -2,7 +2,7 @@ import { queryOptions } from '@tanstack/react-query';
 import { SETTLED_VERIFICATION_STATES, type VerificationStatus } from '../../../../../shared/verification/types';
 import { api } from '../../../config/paths';
 import { ApiError, apiClient } from '../../../lib/api';
-import { proposalKeys } from '../../proposals/api/proposal-queries';
+import { proposalKeys } from '../../../lib/query-keys';
 
 /** Nothing verified: what a server without the verification route amounts to. */
 export const NO_VERIFICATION: VerificationStatus = { verification: null, monteCarlo: [] };

@@ -4,7 +4,7 @@ import { OptionVerdict } from '../../../components/ui/verdict';
 import type { Proposal } from '../../../lib/api-types';
 import { ColumnTitle } from '../../proposals/components/ranking/column-title';
 import { FigureCell } from '../../proposals/components/ranking/figure-cell';
-import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../proposals/lib/figure-format';
+import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../../lib/figure-format';
 import { optionRows, outputRejectionNote, rejectionColumns, specTargets } from '../../proposals/lib/option-rows';
 
 function Head({ children, left }: { children: ReactNode; left?: boolean }) {

@@ -2,7 +2,7 @@ import type { MonteCarloVerificationResult, OptionVerification, ProposalVerifica
 import { Verdict } from '../../../components/ui/verdict';
 import type { Proposal } from '../../../lib/api-types';
 import { topologyName } from '../../../lib/topology-names';
-import { formatPercent } from '../../proposals/lib/figure-format';
+import { formatPercent } from '../../../lib/figure-format';
 import { deltaText, toleranceText, verifiedValue } from '../lib/report-format';
 import { ReportNote, ReportSubheading } from './report-section';
 import { freshness, freshnessText, UNBOUND_WORDS, type Freshness } from '../../../../../shared/verification/binding';

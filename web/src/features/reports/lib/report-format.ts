@@ -1,7 +1,7 @@
 /** Text for the report: the SPICE comparison's differences and tolerances. Pure. */
 import type { VerifiedFigure } from '../../../../../shared/verification/types';
 import { formatQuantity } from '../../../../../shared/units/format-quantity';
-import { formatFigure } from '../../proposals/lib/figure-format';
+import { formatFigure } from '../../../lib/figure-format';
 
 const MINUS = '\u2212';
 

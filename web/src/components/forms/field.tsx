@@ -1,5 +1,5 @@
 import { useId, type InputHTMLAttributes, type ReactNode } from 'react';
-import { cn } from '../../../lib/cn';
+import { cn } from '../../lib/cn';
 
 /** First letter up: the server says "must be …", the field shows "Must be …". */
 const sentence = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);

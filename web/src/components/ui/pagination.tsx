@@ -1,4 +1,4 @@
-import { Button } from '../../../components/ui/button';
+import { Button } from './button';
 
 /** "21–40 of 134" with previous and next; pages count from 1. `label` names the list for assistive technology. */
 export function Pagination({ page, pageSize, total, onPage, label = 'Proposal pages' }: { page: number; pageSize: number; total: number; onPage: (page: number) => void; label?: string }) {

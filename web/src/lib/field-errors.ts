@@ -1,5 +1,5 @@
 /** The server's 400/409 details, by form field: "/email" -> messages for the e-mail field. */
-import { ApiError } from '../../../lib/api';
+import { ApiError } from './api';
 
 export type FieldErrors<F extends string> = Partial<Record<F | 'form', string>>;
 

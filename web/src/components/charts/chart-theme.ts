@@ -4,8 +4,8 @@
  * topology has its own dash so lines stay apart without colour. Dark theme: the
  * night tokens, and the accent hues lifted toward the night ink so they read on the dark sheet.
  */
-import type { TopologyId } from '../../../../../../../shared/engine/types';
-import { mixHex } from '../../../lib/colour-mix';
+import type { TopologyId } from '../../../../shared/engine/types';
+import { mixHex } from '../../lib/colour-mix';
 
 /** Fallbacks equal to app.css, used when a token cannot be read. */
 const FALLBACK: Record<string, string> = {

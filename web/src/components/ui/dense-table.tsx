@@ -1,5 +1,5 @@
 import type { HTMLAttributes, ReactNode, TdHTMLAttributes, ThHTMLAttributes } from 'react';
-import { cn } from '../../../lib/cn';
+import { cn } from '../../lib/cn';
 
 /** A dense, ruled table for lists of records; scrolls sideways on narrow screens. */
 export function DenseTable({ caption, className, children, ...props }: HTMLAttributes<HTMLTableElement> & { caption: string }) {

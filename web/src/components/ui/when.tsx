@@ -1,5 +1,5 @@
-import { formatWhen } from '../utils/format-when';
-import { formatDateTime } from '../../../lib/dates';
+import { formatWhen } from '../../lib/format-when';
+import { formatDateTime } from '../../lib/dates';
 
 /** A moment, said briefly, with the full date and time on hover and for machines. */
 export function When({ iso }: { iso: string }) {

@@ -2,7 +2,7 @@
  * Text for the figures the ranking shows: decibels and percentages with one decimal, margins
  * with their sign, everything else in engineering notation through shared/units.
  */
-import { formatQuantity } from '../../../../../shared/units/format-quantity';
+import { formatQuantity } from '../../../shared/units/format-quantity';
 
 /** Typeset minus sign, as formatQuantity writes it. */
 const MINUS = '\u2212';

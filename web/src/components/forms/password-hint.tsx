@@ -1,5 +1,5 @@
-import { cn } from '../../../lib/cn';
-import { passwordStrength } from '../utils/password-strength';
+import { cn } from '../../lib/cn';
+import { passwordStrength } from '../../lib/password-strength';
 
 const BAR = ['bg-short', 'bg-note', 'bg-fern', 'bg-holds'];
 const TEXT = ['text-short dark:text-short-bright', 'text-note dark:text-note-bright', 'text-fern dark:text-fern-bright', 'text-holds dark:text-holds-bright'];

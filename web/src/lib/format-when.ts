@@ -1,4 +1,4 @@
-import { formatDate } from '../../../lib/dates';
+import { formatDate } from './dates';
 
 /** "3 minutes ago", "yesterday", or a date once it is more than a week old. */
 const UNITS: [Intl.RelativeTimeFormatUnit, number][] = [

@@ -1,5 +1,5 @@
 import { Suspense, useId, type ReactNode } from 'react';
-import { Loading } from '../../../../../components/ui/feedback';
+import { Loading } from '../ui/feedback';
 
 /** A plot with its title and a one-sentence summary (what a screen reader hears instead of the canvas). */
 export function PlotFigure({ title, summary, children }: { title: string; summary: string; children: ReactNode }) {

@@ -1,7 +1,7 @@
 import { queryOptions } from '@tanstack/react-query';
-import { api } from '../../../config/paths';
-import { ApiError, apiClient } from '../../../lib/api';
-import type { User } from '../../../lib/api-types';
+import { api } from '../config/paths';
+import { ApiError, apiClient } from './api';
+import type { User } from './api-types';
 
 export const authKeys = { all: ['auth'] as const, me: () => ['auth', 'me'] as const };
 

@@ -1,6 +1,6 @@
 import { Field } from './field';
 import { PasswordHint } from './password-hint';
-import { PASSWORD_RULE } from '../utils/password-strength';
+import { PASSWORD_RULE } from '../../lib/password-strength';
 
 /**
  * A new password typed twice, with the live strength hint and the rule under the first field and

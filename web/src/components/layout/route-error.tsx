@@ -1,6 +1,6 @@
 import { isRouteErrorResponse, Link, useLocation, useRouteError } from 'react-router-dom';
-import { paths } from '../config/paths';
-import { ApiError } from '../lib/api';
+import { paths } from '../../config/paths';
+import { ApiError } from '../../lib/api';
 
 function Message({ title, children }: { title: string; children: React.ReactNode }) {
   return (
