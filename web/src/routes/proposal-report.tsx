@@ -15,21 +15,21 @@ import { paths } from '../config/paths';
 import { projectQuery } from '../features/projects/api/project-queries';
 import { proposalAuditQuery, proposalPeopleQuery, proposalQuery } from '../features/proposals/api/proposal-queries';
 import { usePersonName } from '../features/proposals/components/audit/use-person-name';
-import { reportVerificationQuery } from '../features/reports/api/report-queries';
-import { ChosenDesign } from '../features/reports/components/chosen-design';
-import { RankedOptions } from '../features/reports/components/ranked-options';
-import { ReportAudit } from '../features/reports/components/report-audit';
-import { ReportCautions } from '../features/reports/components/report-cautions';
-import { ReportChecks } from '../features/reports/components/report-checks';
-import { DesignMonteCarlo, RankingPlot } from '../features/reports/components/report-plots';
-import { ReportSection } from '../features/reports/components/report-section';
-import { ReportSources } from '../features/reports/components/report-sources';
-import { ReportTitle } from '../features/reports/components/report-title';
-import { ReportVerification } from '../features/reports/components/report-verification';
-import { ReportMeasurements } from '../features/reports/components/report-measurements';
+import { reportVerificationQuery } from '../features/proposals/api/report-queries';
+import { ChosenDesign } from '../features/proposals/components/report/chosen-design';
+import { RankedOptions } from '../features/proposals/components/report/ranked-options';
+import { ReportAudit } from '../features/proposals/components/report/report-audit';
+import { ReportCautions } from '../features/proposals/components/report/report-cautions';
+import { ReportChecks } from '../features/proposals/components/report/report-checks';
+import { DesignMonteCarlo, RankingPlot } from '../features/proposals/components/report/report-plots';
+import { ReportSection } from '../features/proposals/components/report/report-section';
+import { ReportSources } from '../features/proposals/components/report/report-sources';
+import { ReportTitle } from '../features/proposals/components/report/report-title';
+import { ReportVerification } from '../features/proposals/components/report/report-verification';
+import { ReportMeasurements } from '../features/proposals/components/report/report-measurements';
 import { MEASUREMENT_MAX_PAGE_SIZE, measurementsQuery } from '../features/measurements/api/measurement-queries';
-import { SpecTable } from '../features/reports/components/spec-table';
-import { reportSubject } from '../features/reports/lib/report-subject';
+import { SpecTable } from '../features/specs/components/spec-table';
+import { reportSubject } from '../features/proposals/lib/report-subject';
 
 export const loader =
   (queryClient: QueryClient) =>

@@ -52,11 +52,6 @@ export function frequencyPlotOptions(
   };
 }
 
-/** Decimals that show an axis step of `increment` without trailing noise (a step of 0.02 -> 2). */
-function decimalsFor(increment: number): number {
-  return Math.max(0, Math.min(6, -Math.floor(Math.log10(increment) + 1e-9)));
-}
-
 /** No drag-zoom (the figures are read, not explored) and no horizontal hair: the legend reads the values. */
 export const NO_ZOOM: uPlot.Cursor = { drag: { x: false, y: false }, y: false };
 export const valueAt = (values: (number | null)[], index: number | null, format: (v: number) => string) => {

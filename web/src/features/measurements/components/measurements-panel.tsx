@@ -21,7 +21,7 @@ import { topologyName } from '../../../lib/topology-names';
 import { DenseTable, Td, Th, Tr } from '../../../components/ui/dense-table';
 import { Pagination } from '../../../components/ui/pagination';
 import { When } from '../../../components/ui/when';
-import { verificationQuery } from '../../proposals/api/verification-queries';
+import { verificationQuery } from '../../../lib/verification-queries';
 import { PlotFigure } from '../../../components/charts/plot-figure';
 import { MEASUREMENT_PAGE_SIZE, measurementQuery, measurementsQuery, useUploadMeasurement } from '../api/measurement-queries';
 import { measurementPlot } from '../lib/measurement-plot';

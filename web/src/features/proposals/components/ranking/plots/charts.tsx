@@ -12,11 +12,15 @@ import { mixHex } from '../../../../../lib/colour-mix';
 import { formatDb, formatTargetDb } from '../../../../../lib/figure-format';
 import type { HistogramPlot, RejectionPlot, TemperaturePlot } from '../../../lib/plot-data';
 import { tickLabels } from '../../../../../lib/plot-axes';
-import { axis, frequencyPlotOptions, NO_ZOOM, numberAxis, roomyDbRange, valueAt } from '../../../../../components/charts/axes';
+import { axis, frequencyPlotOptions, NO_ZOOM, numberAxis, valueAt } from '../../../../../components/charts/axes';
 import { ChartLegend, type LegendItem } from '../../../../../components/charts/chart-legend';
-import type { ChartTheme } from '../../../../../components/charts/chart-theme';
 import { diamond, horizontalMark, pointLabel, verticalMark } from '../../../../../components/charts/draw-marks';
 import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../../../../components/charts/uplot-box';
+
+/** Decimals that show an axis step of `increment` without trailing noise (a step of 0.02 -> 2). */
+function decimalsFor(increment: number): number {
+  return Math.max(0, Math.min(6, -Math.floor(Math.log10(increment) + 1e-9)));
+}
 
 /** Rejection against frequency for every option, log frequency, with the spec's target lines and frequency. */
 export function RejectionChart({ plot, selected }: { plot: RejectionPlot; selected: TopologyId | null }) {

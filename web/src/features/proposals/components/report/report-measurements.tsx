@@ -3,12 +3,12 @@
  * with its difference from the prediction (and the SPICE simulation) in words, and the reminder
  * that the predicted and simulated figures are estimates against a measurement of one board.
  */
-import { comparisonSentence } from '../../../../../shared/measurements/comparison';
-import type { MeasurementSummary } from '../../../../../shared/measurements/types';
-import { ErrorPanel } from '../../../components/ui/feedback';
-import { topologyName } from '../../../lib/topology-names';
+import { comparisonSentence } from '../../../../../../shared/measurements/comparison';
+import type { MeasurementSummary } from '../../../../../../shared/measurements/types';
+import { ErrorPanel } from '../../../../components/ui/feedback';
+import { topologyName } from '../../../../lib/topology-names';
 import { ReportNote } from './report-section';
-import { formatDateTime } from '../../../lib/dates';
+import { formatDateTime } from '../../../../lib/dates';
 
 /** `items` oldest first: every measurement of the proposal (a proposal keeps at most MEASUREMENT_QUOTA.proposal.count, one page). */
 export function ReportMeasurements({ items, error }: { items: readonly MeasurementSummary[] | undefined; error: unknown }) {

@@ -1,11 +1,11 @@
 import type { ReactNode } from 'react';
-import { formatQuantity } from '../../../../../shared/units/format-quantity';
-import { OptionVerdict } from '../../../components/ui/verdict';
-import type { Proposal } from '../../../lib/api-types';
-import { ColumnTitle } from '../../proposals/components/ranking/column-title';
-import { FigureCell } from '../../proposals/components/ranking/figure-cell';
-import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../../lib/figure-format';
-import { optionRows, outputRejectionNote, rejectionColumns, specTargets } from '../../proposals/lib/option-rows';
+import { formatQuantity } from '../../../../../../shared/units/format-quantity';
+import { OptionVerdict } from '../../../../components/ui/verdict';
+import type { Proposal } from '../../../../lib/api-types';
+import { ColumnTitle } from '../ranking/column-title';
+import { FigureCell } from '../ranking/figure-cell';
+import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../../../lib/figure-format';
+import { optionRows, outputRejectionNote, rejectionColumns, specTargets } from '../../lib/option-rows';
 
 function Head({ children, left }: { children: ReactNode; left?: boolean }) {
   return (

@@ -4,10 +4,10 @@
  * stops as soon as every job has settled (finished, stopped or failed).
  */
 import { queryOptions } from '@tanstack/react-query';
-import { SETTLED_VERIFICATION_STATES, type VerificationJobView, type VerificationStatus } from '../../../../../shared/verification/types';
-import { api } from '../../../config/paths';
-import { apiClient } from '../../../lib/api';
-import { proposalKeys } from '../../../lib/query-keys';
+import { SETTLED_VERIFICATION_STATES, type VerificationJobView, type VerificationStatus } from '../../../shared/verification/types';
+import { api } from '../config/paths';
+import { apiClient } from './api';
+import { proposalKeys } from './query-keys';
 
 /** How often a running job is asked about, ms. */
 export const VERIFICATION_POLL_MS = 1000;

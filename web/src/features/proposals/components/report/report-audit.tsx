@@ -1,7 +1,7 @@
-import { STATE_LABELS } from '../../../components/ui/state-badge';
-import type { AuditEvent, Proposal } from '../../../lib/api-types';
-import { describeEvent } from '../../proposals/components/audit/describe-event';
-import { formatDateTime, timeZoneWords } from '../../../lib/dates';
+import { STATE_LABELS } from '../../../../components/ui/state-badge';
+import type { AuditEvent, Proposal } from '../../../../lib/api-types';
+import { describeEvent } from '../audit/describe-event';
+import { formatDateTime, timeZoneWords } from '../../../../lib/dates';
 
 /** The audit trail as a table, oldest first, every time to the second. */
 export function ReportAudit({ proposal, events, error, nameOf }: { proposal: Proposal; events: AuditEvent[] | undefined; error: Error | null; nameOf: (id: number | null) => string }) {

@@ -1,12 +1,12 @@
-import { OptionVerdict } from '../../../components/ui/verdict';
-import type { Proposal } from '../../../lib/api-types';
-import { topologyName } from '../../../lib/topology-names';
-import { blockingFailures, decisionKindWords } from '../../proposals/components/decision/decided-option';
-import { OptionSchematic } from '../../proposals/components/ranking/schematic/option-schematic';
-import { SizedValues } from '../../proposals/components/ranking/sized-values';
-import type { ReportSubject } from '../lib/report-subject';
-import { besideRecommendation, currentDesign, currentDesignName, currentDesignRole } from '../../../../../shared/workflow/current-design';
-import { formatDateTime } from '../../../lib/dates';
+import { OptionVerdict } from '../../../../components/ui/verdict';
+import type { Proposal } from '../../../../lib/api-types';
+import { topologyName } from '../../../../lib/topology-names';
+import { blockingFailures, decisionKindWords } from '../decision/decided-option';
+import { OptionSchematic } from '../ranking/schematic/option-schematic';
+import { SizedValues } from '../ranking/sized-values';
+import type { ReportSubject } from '../../lib/report-subject';
+import { besideRecommendation, currentDesign, currentDesignName, currentDesignRole } from '../../../../../../shared/workflow/current-design';
+import { formatDateTime } from '../../../../lib/dates';
 
 const BASIS_WORDS = {
   recommendation: 'No decision yet. Shown below: the recommendation, as the engine sized it.',

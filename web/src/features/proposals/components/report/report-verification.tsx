@@ -1,15 +1,15 @@
-import type { MonteCarloVerificationResult, OptionVerification, ProposalVerificationResult, VerificationJobView, VerificationStatus, VerifiedCondition } from '../../../../../shared/verification/types';
-import { Verdict } from '../../../components/ui/verdict';
-import type { Proposal } from '../../../lib/api-types';
-import { topologyName } from '../../../lib/topology-names';
-import { formatPercent } from '../../../lib/figure-format';
-import { deltaText, toleranceText, verifiedValue } from '../lib/report-format';
+import type { MonteCarloVerificationResult, OptionVerification, ProposalVerificationResult, VerificationJobView, VerificationStatus, VerifiedCondition } from '../../../../../../shared/verification/types';
+import { Verdict } from '../../../../components/ui/verdict';
+import type { Proposal } from '../../../../lib/api-types';
+import { topologyName } from '../../../../lib/topology-names';
+import { formatPercent } from '../../../../lib/figure-format';
+import { deltaText, toleranceText, verifiedValue } from '../../lib/report-format';
 import { ReportNote, ReportSubheading } from './report-section';
-import { freshness, freshnessText, UNBOUND_WORDS, type Freshness } from '../../../../../shared/verification/binding';
-import type { DesignVerificationState } from '../../../../../shared/verification/types';
-import { currentDesignName, currentDesignWord } from '../../../../../shared/workflow/current-design';
-import { proposalCurrentDesign, resultFreshness, type ShownDesign } from '../../proposals/lib/current-design';
-import { formatDateTime } from '../../../lib/dates';
+import { freshness, freshnessText, UNBOUND_WORDS, type Freshness } from '../../../../../../shared/verification/binding';
+import type { DesignVerificationState } from '../../../../../../shared/verification/types';
+import { currentDesignName, currentDesignWord } from '../../../../../../shared/workflow/current-design';
+import { proposalCurrentDesign, resultFreshness, type ShownDesign } from '../../lib/current-design';
+import { formatDateTime } from '../../../../lib/dates';
 
 const isProposalResult = (result: VerificationJobView['result']): result is ProposalVerificationResult => result !== null && 'options' in result;
 const isMonteCarloResult = (result: VerificationJobView['result']): result is MonteCarloVerificationResult => result !== null && 'histogram' in result;

@@ -1,10 +1,10 @@
-import type { Check } from '../../../../../shared/engine/types';
-import { checkVerdict, Verdict } from '../../../components/ui/verdict';
-import type { Proposal } from '../../../lib/api-types';
-import { topologyName } from '../../../lib/topology-names';
-import { CheckList, marginText } from '../../proposals/components/review/check-list';
-import { ruleName } from '../../proposals/lib/rule-names';
-import { otherOptions, type ReportSubject } from '../lib/report-subject';
+import type { Check } from '../../../../../../shared/engine/types';
+import { checkVerdict, Verdict } from '../../../../components/ui/verdict';
+import type { Proposal } from '../../../../lib/api-types';
+import { topologyName } from '../../../../lib/topology-names';
+import { CheckList, marginText } from '../review/check-list';
+import { ruleName } from '../../lib/rule-names';
+import { otherOptions, type ReportSubject } from '../../lib/report-subject';
 import { ReportSubheading } from './report-section';
 
 const SUBJECT_WORDS = { decision: 'the decided design', recommendation: 'the recommendation (no decision yet)', 'top-ranked': 'the top-ranked option (no decision yet)', none: '' } as const;

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import type { Scale } from '../../lib/svg-scale';
+import type { Scale } from '../../../lib/svg-scale';
 
 /** The plot area inside the view box (user units; the SVG scales to its container). */
 export const FRAME = { width: 520, height: 250, left: 52, right: 30, top: 12, bottom: 42 } as const;

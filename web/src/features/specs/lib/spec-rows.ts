@@ -5,9 +5,9 @@
  */
 import specSchema from '../../../../../shared/schema/spec.schema.json';
 import type { Spec } from '../../../../../shared/engine/types';
-import { formatValue } from '../../specs/lib/spec-changes';
-import { propertySchema, type SchemaNode } from '../../specs/lib/schema-nodes';
-import { SPEC_LAYOUT } from '../../specs/lib/spec-ui-schema';
+import { formatValue } from './spec-changes';
+import { propertySchema, type SchemaNode } from './schema-nodes';
+import { SPEC_LAYOUT } from './spec-ui-schema';
 
 export interface SpecRow {
   /** JSON path, e.g. "/supply/negativeV". */

@@ -1,8 +1,8 @@
 import type { ReactNode } from 'react';
-import { StateBadge } from '../../../components/ui/state-badge';
-import type { Proposal } from '../../../lib/api-types';
-import { currentDesign, currentDesignName, currentDesignRole } from '../../../../../shared/workflow/current-design';
-import { formatDateTime } from '../../../lib/dates';
+import { StateBadge } from '../../../../components/ui/state-badge';
+import type { Proposal } from '../../../../lib/api-types';
+import { currentDesign, currentDesignName, currentDesignRole } from '../../../../../../shared/workflow/current-design';
+import { formatDateTime } from '../../../../lib/dates';
 
 function Item({ term, children }: { term: string; children: ReactNode }) {
   return (

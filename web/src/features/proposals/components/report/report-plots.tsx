@@ -2,11 +2,11 @@
  * Where the report's plots sit: rejection against frequency under the ranked table, the Monte
  * Carlo of the reported design (and its SPICE Monte Carlo, once finished) under the design.
  */
-import type { MonteCarloVerificationResult, VerificationJobView } from '../../../../../shared/verification/types';
-import type { Proposal } from '../../../lib/api-types';
-import { topologyName } from '../../../lib/topology-names';
-import { histogramPlot, rejectionPlot } from '../../proposals/lib/plot-data';
-import type { ReportSubject } from '../lib/report-subject';
+import type { MonteCarloVerificationResult, VerificationJobView } from '../../../../../../shared/verification/types';
+import type { Proposal } from '../../../../lib/api-types';
+import { topologyName } from '../../../../lib/topology-names';
+import { histogramPlot, rejectionPlot } from '../../lib/plot-data';
+import type { ReportSubject } from '../../lib/report-subject';
 import { EngineMonteCarloSvg, RejectionPlotSvg, SpiceMonteCarloSvg } from './plots/report-plots';
 
 const isMonteCarloResult = (result: VerificationJobView['result']): result is MonteCarloVerificationResult => result !== null && 'histogram' in result;
