@@ -20,7 +20,7 @@ const features = readdirSync(join(root, featuresDir), { withFileTypes: true })
   .map((entry) => entry.name);
 
 /** The allowed direction of every import between the layers, as import-x zones (target may not import from). */
-export const boundaryZones = [
+const boundaryZones = [
   { target: './shared', from: ['./rules', './api', './web'], message: 'shared/ is the bottom layer: it imports neither rules/, api/ nor web/.' },
   { target: './rules', from: ['./api', './web'], message: 'rules/ imports only shared/.' },
   { target: './api', from: ['./web'], message: 'api/ imports shared/ and rules/, never web/.' },
