@@ -14,7 +14,7 @@ import type { RecommendResult } from '../../shared/engine/recommend';
 import type { Spec as SpecDocument } from '../../shared/engine/types';
 import { batchResultsCsv } from '../../shared/export/batch-csv';
 import type { ImportAction, ImportReport, ImportRowReport } from '../../shared/import/import-report';
-import { readSpecFile, type ImportIssue, type SpecFileFormat } from '../../shared/import/spec-file';
+import { readSpecFile } from '../../shared/import/spec-file';
 import { diffJson } from '../../shared/json-diff';
 import { ProposalEntity } from '../entities/proposal.entity';
 import { SpecVersionEntity } from '../entities/spec-version.entity';

@@ -57,7 +57,7 @@ async function verifyAll(engine: SpiceEngine, spec: Spec, result: RecommendResul
 
 const engine = new SpiceEngine();
 const coldStart = performance.now();
-const first = await verifyAll(engine, cases[0].spec, cases[0].result);
+await verifyAll(engine, cases[0].spec, cases[0].result);
 const coldMs = performance.now() - coldStart;
 console.log('SPICE verification (ngspice in a worker thread)');
 console.log(`  engine start                      ${engine.lastStartMs.toFixed(0)} ms`);

@@ -10,7 +10,7 @@ import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { cleanup, render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import type { LibraryDevice } from '../../../web/src/features/devices/api/device-queries';
+import type { LibraryDevice } from '../../../web/src/lib/device-library';
 import { DeviceLibrary } from '../../../web/src/features/devices/components/device-library';
 
 const N150: LibraryDevice = {

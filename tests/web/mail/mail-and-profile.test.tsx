@@ -10,7 +10,7 @@ import userEvent from '@testing-library/user-event';
 import type { ReactNode } from 'react';
 import { createRoutesStub } from 'react-router-dom';
 import { describe, expect, test } from 'vitest';
-import { authKeys } from '../../../web/src/features/auth/api/auth-queries';
+import { authKeys } from '../../../web/src/lib/auth-queries';
 import type { Mailbox, User } from '../../../web/src/lib/api-types';
 import { Component as MailPage, loader as mailLoader } from '../../../web/src/routes/mail';
 import { Component as ProfilePage, loader as profileLoader } from '../../../web/src/routes/profile';

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { passwordStrength } from '../../../web/src/features/people/utils/password-strength';
+import { passwordStrength } from '../../../web/src/lib/password-strength';
 
 describe('password strength hint', () => {
   test.each([

@@ -3,7 +3,7 @@ import { configure, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { createRoutesStub } from 'react-router-dom';
 import { describe, expect, test } from 'vitest';
-import { authKeys } from '../../../web/src/features/auth/api/auth-queries';
+import { authKeys } from '../../../web/src/lib/auth-queries';
 import { NewUserForm } from '../../../web/src/features/people/components/new-user-form';
 import { UsersTable } from '../../../web/src/features/people/components/users-table';
 import type { User } from '../../../web/src/lib/api-types';

@@ -5,7 +5,7 @@ import userEvent from '@testing-library/user-event';
 import { createRoutesStub, useLocation } from 'react-router-dom';
 import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
 import type { Role } from '../../../shared/workflow/roles';
-import { authKeys } from '../../../web/src/features/auth/api/auth-queries';
+import { authKeys } from '../../../web/src/lib/auth-queries';
 import type { ProposalSummary, User } from '../../../web/src/lib/api-types';
 import { Component, ErrorBoundary, loader } from '../../../web/src/routes/project';
 import { CurrentDesignCell } from '../../../web/src/features/projects/components/proposals-table';

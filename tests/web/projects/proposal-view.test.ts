@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { formatWhen } from '../../../web/src/features/projects/utils/format-when';
+import { formatWhen } from '../../../web/src/lib/format-when';
 import { readProposalView, writeProposalView } from '../../../web/src/features/projects/utils/proposal-filter';
 import { topologyName as topologyWords } from '../../../web/src/lib/topology-names';
 

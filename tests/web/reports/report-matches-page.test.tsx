@@ -11,7 +11,7 @@ import studioSpec from '../../../api/demo/specs/studio-line-receiver.json';
 import type { RecommendResult } from '../../../shared/engine/recommend';
 import { OptionsTable } from '../../../web/src/features/proposals/components/ranking/options-table';
 import { optionRows, specTargets } from '../../../web/src/features/proposals/lib/option-rows';
-import { RankedOptions } from '../../../web/src/features/reports/components/ranked-options';
+import { RankedOptions } from '../../../web/src/features/proposals/components/report/ranked-options';
 import { proposalOf, strainBridge, studioLine } from '../proposals/ranking/fixtures';
 
 afterEach(cleanup);

@@ -4,7 +4,7 @@
  * missing value breaks the line instead of drawing it to zero.
  */
 import { describe, expect, test } from 'vitest';
-import { linearScale, linePath, logScale, niceDomain, niceTicks, stepPath } from '../../../web/src/features/reports/lib/svg-scale';
+import { linearScale, linePath, logScale, niceDomain, niceTicks, stepPath } from '../../../web/src/features/proposals/lib/svg-scale';
 
 describe('svg scales', () => {
   test('a log scale spaces decades equally', () => {

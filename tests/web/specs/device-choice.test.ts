@@ -3,7 +3,7 @@
  * Cards are invented.
  */
 import { describe, expect, test } from 'vitest';
-import type { LibraryDevice } from '../../../web/src/features/devices/api/device-queries';
+import type { LibraryDevice } from '../../../web/src/lib/device-library';
 import { libraryDeviceFor, withDeviceChoice } from '../../../web/src/features/specs/lib/device-choice';
 
 const N150 = {

@@ -11,7 +11,7 @@ import { cleanup, render, screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
 import specSchema from '../../../shared/schema/spec.schema.json';
-import type { LibraryDevice } from '../../../web/src/features/devices/api/device-queries';
+import type { LibraryDevice } from '../../../web/src/lib/device-library';
 import { saveSpecVersion } from '../../../web/src/features/specs/api/spec-queries';
 import { SpecForm, type SpecDraft } from '../../../web/src/features/specs/components/spec-form';
 import { mockFetch, type MockAnswer } from './fetch-mock';

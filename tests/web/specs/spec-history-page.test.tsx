@@ -11,7 +11,7 @@ import userEvent from '@testing-library/user-event';
 import { createRoutesStub } from 'react-router-dom';
 import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
 import schema from '../../../shared/schema/spec.schema.json';
-import { authKeys } from '../../../web/src/features/auth/api/auth-queries';
+import { authKeys } from '../../../web/src/lib/auth-queries';
 import type { SpecVersion, User } from '../../../web/src/lib/api-types';
 import { Component, ErrorBoundary, loader } from '../../../web/src/routes/spec-history';
 

@@ -3,8 +3,8 @@ import { createBrowserRouter, redirect, type LoaderFunction, type RouteObject } 
 import { AppShell } from '../components/layout/app-shell';
 import { Loading } from '../components/ui/feedback';
 import { paths } from '../config/paths';
-import { meQuery } from '../features/auth/api/auth-queries';
-import { NotFound, RouteError } from './route-error';
+import { meQuery } from '../lib/auth-queries';
+import { NotFound, RouteError } from '../components/layout/route-error';
 
 /** What a route module exports (bulletproof-react style): loader and action are bound to the one QueryClient. */
 interface RouteModule {

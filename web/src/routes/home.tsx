@@ -4,7 +4,7 @@ import { Link } from 'react-router-dom';
 import { EmptyState } from '../components/ui/feedback';
 import { PageHeader } from '../components/ui/page-header';
 import { paths } from '../config/paths';
-import { meQuery } from '../features/auth/api/auth-queries';
+import { meQuery } from '../lib/auth-queries';
 import { projectListQuery } from '../features/projects/api/project-queries';
 import { NewProjectForm } from '../features/projects/components/new-project-form';
 import { heldRoles, heldRoleTitles, mayAs, projectRoleOf, ROLE_TITLES } from '../../../shared/workflow/roles';

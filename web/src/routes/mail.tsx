@@ -2,11 +2,11 @@ import type { QueryClient } from '@tanstack/react-query';
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { mayAs } from '../../../shared/workflow/roles';
-import { RouteError } from '../app/route-error';
+import { RouteError } from '../components/layout/route-error';
 import { Button } from '../components/ui/button';
 import { PageHeader } from '../components/ui/page-header';
 import { paths } from '../config/paths';
-import { meQuery } from '../features/auth/api/auth-queries';
+import { meQuery } from '../lib/auth-queries';
 import { mailboxQuery, mailKeys } from '../features/mail/api/mail-queries';
 import { MailReader } from '../features/mail/components/mail-reader';
 

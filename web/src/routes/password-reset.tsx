@@ -2,9 +2,9 @@ import { useState, type FormEvent } from 'react';
 import { Link, useLocation } from 'react-router-dom';
 import { Button } from '../components/ui/button';
 import { paths } from '../config/paths';
-import { NewPasswordFields } from '../features/people/components/new-password-fields';
-import { fieldErrors } from '../features/people/utils/field-errors';
-import { MIN_PASSWORD_LENGTH } from '../features/people/utils/password-strength';
+import { NewPasswordFields } from '../components/forms/new-password-fields';
+import { fieldErrors } from '../lib/field-errors';
+import { MIN_PASSWORD_LENGTH } from '../lib/password-strength';
 import { completePasswordReset } from '../features/profile/api/password';
 import { ApiError } from '../lib/api';
 

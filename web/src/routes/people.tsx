@@ -2,17 +2,18 @@ import type { QueryClient } from '@tanstack/react-query';
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
 import { mayAs } from '../../../shared/workflow/roles';
-import { RouteError } from '../app/route-error';
+import { RouteError } from '../components/layout/route-error';
 import { EmptyState } from '../components/ui/feedback';
 import { PageHeader } from '../components/ui/page-header';
 import { Sheet } from '../components/ui/sheet';
 import { paths } from '../config/paths';
-import { authKeys, meQuery } from '../features/auth/api/auth-queries';
+import { authKeys, meQuery } from '../lib/auth-queries';
 import { userListQuery } from '../features/people/api/user-queries';
 import { NewUserForm } from '../features/people/components/new-user-form';
 import { UsersTable } from '../features/people/components/users-table';
-import { projectKeys, projectListQuery } from '../features/projects/api/project-queries';
+import { projectListQuery } from '../features/projects/api/project-queries';
 import { ProjectMembers } from '../features/projects/components/project-members';
+import { projectKeys } from '../lib/query-keys';
 
 /** Accounts and projects for an admin; nobody else is asked for them (the server would refuse). */
 export const loader = (queryClient: QueryClient) => async () => {

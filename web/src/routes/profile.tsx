@@ -1,10 +1,10 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { heldRoleTitles } from '../../../shared/workflow/roles';
-import { RouteError } from '../app/route-error';
+import { RouteError } from '../components/layout/route-error';
 import { PageHeader } from '../components/ui/page-header';
 import { Sheet } from '../components/ui/sheet';
-import { meQuery } from '../features/auth/api/auth-queries';
+import { meQuery } from '../lib/auth-queries';
 import { NotificationSwitch } from '../features/profile/components/notification-switch';
 import { PasswordChangeForm } from '../features/profile/components/password-change-form';
 

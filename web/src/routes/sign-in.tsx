@@ -3,7 +3,7 @@ import { useState, type FormEvent } from 'react';
 import { useNavigate, useSearchParams } from 'react-router-dom';
 import { Button } from '../components/ui/button';
 import { paths } from '../config/paths';
-import { authKeys, signIn } from '../features/auth/api/auth-queries';
+import { authKeys, signIn } from '../lib/auth-queries';
 import { ApiError } from '../lib/api';
 
 export function Component() {

@@ -2,16 +2,17 @@ import type { QueryClient } from '@tanstack/react-query';
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useMemo } from 'react';
 import { useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { RouteError } from '../app/route-error';
+import { RouteError } from '../components/layout/route-error';
 import { paths } from '../config/paths';
-import { meQuery } from '../features/auth/api/auth-queries';
-import { projectKeys, projectQuery } from '../features/projects/api/project-queries';
-import { createSpec, specKeys, specSchemaQuery } from '../features/specs/api/spec-queries';
+import { meQuery } from '../lib/auth-queries';
+import { projectQuery } from '../features/projects/api/project-queries';
+import { createSpec, specSchemaQuery } from '../features/specs/api/spec-queries';
 import { SpecForm, type SpecDraft } from '../features/specs/components/spec-form';
 import { ProjectPageHeader, SpecWritersOnly } from '../features/specs/components/spec-writers-only';
 import { specBody } from '../features/specs/lib/spec-body';
 import { exampleFromSchema } from '../features/specs/lib/spec-example';
 import type { SchemaNode } from '../features/specs/lib/schema-nodes';
+import { projectKeys, specKeys } from '../lib/query-keys';
 
 export const loader =
   (queryClient: QueryClient) =>

@@ -3,16 +3,17 @@ import { useQuery, useQueryClient, useSuspenseQuery } from '@tanstack/react-quer
 import { useId, useState } from 'react';
 import { Link, useLocation, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { mayAs } from '../../../shared/workflow/roles';
-import { RouteError } from '../app/route-error';
+import { RouteError } from '../components/layout/route-error';
 import { PageHeader } from '../components/ui/page-header';
 import { paths } from '../config/paths';
-import { meQuery } from '../features/auth/api/auth-queries';
-import { projectKeys, projectMembersQuery, projectQuery } from '../features/projects/api/project-queries';
-import { saveSpecVersion, specKeys, specQuery, specSchemaQuery } from '../features/specs/api/spec-queries';
+import { meQuery } from '../lib/auth-queries';
+import { projectMembersQuery, projectQuery } from '../features/projects/api/project-queries';
+import { saveSpecVersion, specQuery, specSchemaQuery } from '../features/specs/api/spec-queries';
 import { RankButton } from '../features/specs/components/rank-button';
 import { SpecForm, type SpecDraft } from '../features/specs/components/spec-form';
 import { When } from '../features/specs/components/when';
 import { specBody } from '../features/specs/lib/spec-body';
+import { projectKeys, specKeys } from '../lib/query-keys';
 
 export const loader =
   (queryClient: QueryClient) =>

@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
-import { mixHex } from '../../../../web/src/features/proposals/lib/colour-mix';
-import { formatDb, formatDeviationPercent, formatFigure, formatMargin, formatPercent, formatSignificant, formatTargetDb } from '../../../../web/src/features/proposals/lib/figure-format';
+import { mixHex } from '../../../../web/src/lib/colour-mix';
+import { formatDb, formatDeviationPercent, formatFigure, formatMargin, formatPercent, formatSignificant, formatTargetDb } from '../../../../web/src/lib/figure-format';
 
 describe('figure text', () => {
   test.each([

@@ -1,6 +1,7 @@
 import { describe, expect, test } from 'vitest';
 import { formatQuantity } from '../../../../shared/units/format-quantity';
-import { decadeTicksHz, histogramPlot, rejectionPlot, temperaturePlot, tickLabels } from '../../../../web/src/features/proposals/lib/plot-data';
+import { decadeTicksHz, tickLabels } from '../../../../web/src/lib/plot-axes';
+import { histogramPlot, rejectionPlot, temperaturePlot } from '../../../../web/src/features/proposals/lib/plot-data';
 import { histogramSummary, rejectionSummary, temperatureSummary } from '../../../../web/src/features/proposals/lib/plot-summaries';
 import { strainBridge, studioLine } from './fixtures';
 

@@ -3,7 +3,7 @@ import { useState } from 'react';
 import { NavLink, Outlet, useNavigate } from 'react-router-dom';
 import { heldRoleTitles, mayAs } from '../../../../shared/workflow/roles';
 import { paths } from '../../config/paths';
-import { meQuery, signOut } from '../../features/auth/api/auth-queries';
+import { meQuery, signOut } from '../../lib/auth-queries';
 import { cn } from '../../lib/cn';
 import { applyTheme, storedTheme, type ThemeChoice } from '../../lib/theme';
 

@@ -12,12 +12,11 @@ import { api, paths } from '../../../config/paths';
 import { ApiError } from '../../../lib/api';
 import type { Proposal } from '../../../lib/api-types';
 import { topologyName } from '../../../lib/topology-names';
-import { projectKeys } from '../../projects/api/project-queries';
-import { DenseTable, Td, Th } from '../../projects/components/dense-table';
-import { specKeys } from '../../specs/api/spec-queries';
+import { DenseTable, Td, Th } from '../../../components/ui/dense-table';
 import { importSpecs, rankImportedSpec, type ImportReport } from '../api/batch-api';
 import { rankInTurn, type RankItem, type RankOutcome, type RankProgress } from '../lib/rank-in-turn';
 import { ImportReportTable } from './import-report-table';
+import { projectKeys, specKeys } from '../../../lib/query-keys';
 
 const MAX_FILE_BYTES = 1024 * 1024;
 

@@ -6,7 +6,7 @@
 import { Link } from 'react-router-dom';
 import { Verdict } from '../../../components/ui/verdict';
 import { paths } from '../../../config/paths';
-import { DenseTable, Td, Th } from '../../projects/components/dense-table';
+import { DenseTable, Td, Th } from '../../../components/ui/dense-table';
 import type { ImportAction, ImportReport, ImportRowReport } from '../api/batch-api';
 
 /** What a valid row does, or (in a check) would do. */

@@ -14,10 +14,11 @@ import { Button } from '../../../components/ui/button';
 import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { Quantity } from '../../../components/ui/quantity';
 import { Sheet } from '../../../components/ui/sheet';
-import { DenseTable, Td, Th, Tr } from '../../projects/components/dense-table';
-import { Pagination } from '../../projects/components/pagination';
-import { When } from '../../projects/components/when';
-import { DEVICE_PAGE_SIZE, projectDevicesQuery, useRemoveDevice, useReplaceDevice, useUploadDevices, type LibraryDevice } from '../api/device-queries';
+import { DenseTable, Td, Th, Tr } from '../../../components/ui/dense-table';
+import { Pagination } from '../../../components/ui/pagination';
+import { When } from '../../../components/ui/when';
+import { DEVICE_PAGE_SIZE, projectDevicesQuery, type LibraryDevice } from '../../../lib/device-library';
+import { useRemoveDevice, useReplaceDevice, useUploadDevices } from '../api/device-mutations';
 
 /** File types offered by the picker; the server decides by content, not by name. */
 const ACCEPT = '.lib,.mod,.model,.cir,.sp,.txt,text/plain';

@@ -3,7 +3,7 @@ import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { cn } from '../../../lib/cn';
 import type { ReceivedMail } from '../../../lib/api-types';
-import { When } from '../../projects/components/when';
+import { When } from '../../../components/ui/when';
 import { formatDateTime } from '../../../lib/dates';
 
 const soft = 'text-ink-soft dark:text-night-ink-soft';

@@ -8,7 +8,7 @@ import type { MeasurementSummary, MeasurementView } from '../../../../../shared/
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import type { Page } from '../../../lib/api-types';
-import { proposalKeys } from '../../proposals/api/proposal-queries';
+import { proposalKeys } from '../../../lib/query-keys';
 
 /** Measurements a page of the panel shows. */
 export const MEASUREMENT_PAGE_SIZE = 10;

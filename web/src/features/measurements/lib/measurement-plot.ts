@@ -6,7 +6,7 @@
 import type { DbPoint, MeasurementReference } from '../../../../../shared/measurements/comparison';
 import { measuredDbCurve } from '../../../../../shared/measurements/comparison';
 import type { MeasurementView } from '../../../../../shared/measurements/types';
-import type { Aligned } from '../../proposals/lib/plot-data';
+import type { Aligned } from '../../../lib/plot-axes';
 
 export interface MeasurementPlot {
   kind: MeasurementView['kind'];

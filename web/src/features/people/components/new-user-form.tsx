@@ -4,10 +4,10 @@ import { Button } from '../../../components/ui/button';
 import { Sheet } from '../../../components/ui/sheet';
 import { useCreateUser } from '../api/user-mutations';
 import type { NewUser } from '../api/user-queries';
-import { fieldErrors, type FieldErrors } from '../utils/field-errors';
-import { MIN_PASSWORD_LENGTH, PASSWORD_RULE } from '../utils/password-strength';
-import { Field } from './field';
-import { PasswordHint } from './password-hint';
+import { fieldErrors, type FieldErrors } from '../../../lib/field-errors';
+import { MIN_PASSWORD_LENGTH, PASSWORD_RULE } from '../../../lib/password-strength';
+import { Field } from '../../../components/forms/field';
+import { PasswordHint } from '../../../components/forms/password-hint';
 
 const FIELDS = ['email', 'displayName', 'role', 'password'] as const;
 type FieldName = (typeof FIELDS)[number];

@@ -3,7 +3,7 @@ import { ACCOUNT_ROLES, ACCOUNT_ROLE_TITLES, type AccountRole } from '../../../.
 import { Button } from '../../../components/ui/button';
 import type { User } from '../../../lib/api-types';
 import { useSendPasswordReset, useUpdateUser } from '../api/user-mutations';
-import { fieldErrors } from '../utils/field-errors';
+import { fieldErrors } from '../../../lib/field-errors';
 import { formatDate, formatDateTime } from '../../../lib/dates';
 
 const td = 'border-b border-rule/70 px-2.5 py-1.5 align-middle dark:border-night-rule/70';

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import type { User } from '../../../lib/api-types';
-import { authKeys } from '../../auth/api/auth-queries';
+import { authKeys } from '../../../lib/auth-queries';
 
 export function updatePreferences(changes: { notify: boolean }): Promise<User> {
   return apiClient.patch<{ user: User }>(api.me, changes).then((answer) => answer.user);

@@ -1,9 +1,9 @@
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button';
-import { Field } from '../../people/components/field';
-import { NewPasswordFields } from '../../people/components/new-password-fields';
-import { fieldErrors } from '../../people/utils/field-errors';
-import { MIN_PASSWORD_LENGTH } from '../../people/utils/password-strength';
+import { Field } from '../../../components/forms/field';
+import { NewPasswordFields } from '../../../components/forms/new-password-fields';
+import { fieldErrors } from '../../../lib/field-errors';
+import { MIN_PASSWORD_LENGTH } from '../../../lib/password-strength';
 import { useChangeOwnPassword } from '../api/password';
 
 /**

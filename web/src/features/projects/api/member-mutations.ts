@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { ProjectRole } from '../../../../../shared/workflow/roles';
-import { authKeys } from '../../auth/api/auth-queries';
-import { addMember, projectKeys, removeMember } from './project-queries';
+import { authKeys } from '../../../lib/auth-queries';
+import { addMember, removeMember } from './project-queries';
+import { projectKeys } from '../../../lib/query-keys';
 
 /** Adds a person to a project with their role there, or changes that role; resolves once the member list (and your own roles) are fetched again. */
 export function useAddMember(projectId: number) {

@@ -4,16 +4,7 @@ import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import type { ProjectRole } from '../../../../../shared/workflow/roles';
 import type { Items, Page, Project, ProjectMember, ProposalSummary, Spec } from '../../../lib/api-types';
-
-export const projectKeys = {
-  all: ['projects'] as const,
-  list: () => ['projects', 'list'] as const,
-  detail: (id: number) => ['projects', 'detail', id] as const,
-  specs: (id: number) => ['projects', 'detail', id, 'specs'] as const,
-  members: (id: number) => ['projects', 'detail', id, 'members'] as const,
-  proposals: (id: number, status: ProposalState | 'all', page: number) => ['projects', 'detail', id, 'proposals', status, page] as const,
-  proposalCount: (id: number, status: ProposalState) => ['projects', 'detail', id, 'proposal-count', status] as const,
-};
+import { projectKeys } from '../../../lib/query-keys';
 
 export const projectListQuery = () => queryOptions({ queryKey: projectKeys.list(), queryFn: () => apiClient.get<Items<Project>>(api.projects) });
 export const projectQuery = (id: number) => queryOptions({ queryKey: projectKeys.detail(id), queryFn: () => apiClient.get<Project>(api.project(id)) });

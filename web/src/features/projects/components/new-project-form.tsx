@@ -3,7 +3,8 @@ import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button';
 import { Sheet } from '../../../components/ui/sheet';
 import { ApiError } from '../../../lib/api';
-import { createProject, projectKeys } from '../api/project-queries';
+import { createProject } from '../api/project-queries';
+import { projectKeys } from '../../../lib/query-keys';
 
 export function NewProjectForm() {
   const queryClient = useQueryClient();

@@ -6,7 +6,7 @@ import type { Spec } from '../../../lib/api-types';
 import { cn } from '../../../lib/cn';
 import { projectProposalsQuery } from '../api/project-queries';
 import { useProposalView } from '../hooks/use-proposal-view';
-import { Pagination } from './pagination';
+import { Pagination } from '../../../components/ui/pagination';
 import { ProposalsTable } from './proposals-table';
 import { StatusFilter } from './status-filter';
 

@@ -3,8 +3,8 @@ import { StateBadge } from '../../../components/ui/state-badge';
 import { paths } from '../../../config/paths';
 import type { ProposalSummary, Spec } from '../../../lib/api-types';
 import { topologyName } from '../../../lib/topology-names';
-import { DenseTable, rowLink, Td, Th, Tr } from './dense-table';
-import { When } from './when';
+import { DenseTable, rowLink, Td, Th, Tr } from '../../../components/ui/dense-table';
+import { When } from '../../../components/ui/when';
 import { currentDesignName, currentDesignSummary } from '../../../../../shared/workflow/current-design';
 
 const soft = 'text-ink-soft dark:text-night-ink-soft';

@@ -3,8 +3,8 @@ import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { paths } from '../../../config/paths';
 import type { Spec } from '../../../lib/api-types';
-import { DenseTable, rowLink, Td, Th, Tr } from './dense-table';
-import { When } from './when';
+import { DenseTable, rowLink, Td, Th, Tr } from '../../../components/ui/dense-table';
+import { When } from '../../../components/ui/when';
 
 /** The project's requirement specs, newest change first; "New spec" for those who write specs. */
 export function SpecsSection({ projectId, specs, canWrite }: { projectId: number; specs: readonly Spec[]; canWrite: boolean }) {

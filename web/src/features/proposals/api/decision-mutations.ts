@@ -9,7 +9,7 @@ import type { Design } from '../../../../../shared/engine/types';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import type { AnalyzeResponse, DecisionInput, OptionEvaluation, Proposal, ReviewInput } from '../../../lib/api-types';
-import { proposalKeys } from './proposal-queries';
+import { proposalKeys } from '../../../lib/query-keys';
 
 /** What-if keys hold the design itself (as JSON), so a changed value is a new query and a stale answer is never shown for it. */
 export const whatIfKeys = {

@@ -9,7 +9,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { VerificationJobView, VerificationStatus } from '../../../../../shared/verification/types';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import { verificationKeys } from './verification-queries';
+import { verificationKeys } from '../../../lib/verification-queries';
 
 /** A ranked option by its topology, or the decided design (`source: 'decision'`, own values included). */
 export interface MonteCarloInput {

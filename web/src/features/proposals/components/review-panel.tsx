@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
 import { mayAs } from '../../../../../shared/workflow/roles';
-import { verificationQuery } from '../api/verification-queries';
+import { verificationQuery } from '../../../lib/verification-queries';
 import { Sheet } from '../../../components/ui/sheet';
 import type { Proposal, User } from '../../../lib/api-types';
 import { useReviewMutation } from '../api/decision-mutations';

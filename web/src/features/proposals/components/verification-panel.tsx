@@ -6,7 +6,7 @@ import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback
 import { Sheet } from '../../../components/ui/sheet';
 import type { Proposal, User } from '../../../lib/api-types';
 import { useVerifyMutation } from '../api/verification-mutations';
-import { isSettled, verificationQuery } from '../api/verification-queries';
+import { isSettled, verificationQuery } from '../../../lib/verification-queries';
 import { proposalCurrentDesign } from '../lib/current-design';
 import { currentDesignName, currentDesignWord } from '../../../../../shared/workflow/current-design';
 import { DesignCheckNote } from './verification/freshness-label';

@@ -4,9 +4,8 @@
  */
 import type { RecommendOption, RecommendResult } from '../../../../../shared/engine/recommend';
 import type { TopologyId } from '../../../../../shared/engine/types';
+import type { Aligned } from '../../../lib/plot-axes';
 import { topologyName } from '../../../lib/topology-names';
-
-export type Aligned = [number[], ...(number | null)[][]];
 
 export interface RejectionSeries {
   topology: TopologyId;
@@ -122,19 +121,4 @@ export function temperaturePlot(option: RecommendOption): TemperaturePlot | null
   const midA = tailCurrentA[Math.floor(tailCurrentA.length / 2)];
   const spanPercent = ((Math.max(...tailCurrentA) - Math.min(...tailCurrentA)) / midA) * 100;
   return { temperatureC, tailCurrentA, gain, tailCurrentSpanPercent: spanPercent, data: [temperatureC, tailCurrentA, gain] };
-}
-
-/**
- * Labels for the ticks of an axis: on a narrow chart the chart library leaves some ticks out
- * for room and hands them over as null, which get no label (never "−∞ Hz").
- */
-export function tickLabels(splits: readonly (number | null)[], format: (value: number) => string): string[] {
-  return splits.map((v) => (v === null || !Number.isFinite(v) ? '' : format(v)));
-}
-
-/** Frequencies of a log axis worth a label: exact decades within the range. */
-export function decadeTicksHz(minHz: number, maxHz: number): number[] {
-  const ticks: number[] = [];
-  for (let d = Math.ceil(Math.log10(minHz) - 1e-9); d <= Math.floor(Math.log10(maxHz) + 1e-9); d++) ticks.push(Number(`1e${d}`));
-  return ticks;
 }

@@ -7,7 +7,7 @@ import { formatQuantity } from '../../../../../shared/units/format-quantity';
 import type { OptionVerification, VerifiedFigure } from '../../../../../shared/verification/types';
 import type { VerdictKind } from '../../../components/ui/verdict';
 import { topologyName } from '../../../lib/topology-names';
-import { formatFigure, formatFixed } from './figure-format';
+import { formatFigure, formatFixed } from '../../../lib/figure-format';
 
 const MINUS = '\u2212';
 

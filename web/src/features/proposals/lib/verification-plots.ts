@@ -4,7 +4,7 @@
  * Carlo histograms on their shared bins.
  */
 import type { MonteCarloVerificationResult, OptionVerification } from '../../../../../shared/verification/types';
-import type { Aligned } from './plot-data';
+import type { Aligned } from '../../../lib/plot-axes';
 
 export interface RejectionComparisonPlot {
   frequencyHz: number[];

@@ -4,14 +4,7 @@ import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import type { Items, Proposal, SpecDiff, SpecVersion, SpecWithLatest } from '../../../lib/api-types';
 import type { Spec as SpecDocument } from '../../../../../shared/engine/types';
-
-export const specKeys = {
-  all: ['specs'] as const,
-  schema: () => ['specs', 'schema'] as const,
-  detail: (id: number) => ['specs', 'detail', id] as const,
-  versions: (id: number) => ['specs', 'detail', id, 'versions'] as const,
-  diff: (id: number, from: number, to: number) => ['specs', 'detail', id, 'diff', from, to] as const,
-};
+import { specKeys } from '../../../lib/query-keys';
 
 /** The spec JSON Schema the server serves; it drives the form. It changes only with a release. */
 export const specSchemaQuery = () => queryOptions({ queryKey: specKeys.schema(), queryFn: () => apiClient.get<RJSFSchema>(api.specSchema), staleTime: Infinity });

@@ -10,7 +10,7 @@ import { useId } from 'react';
 import { formatQuantity } from '../../../../../shared/units/format-quantity';
 import { formatDate } from '../../../lib/dates';
 import { inputClass } from '../../../components/forms/input-class';
-import { DEVICE_PICKER_PAGE_SIZE, type LibraryDevice, type RecordedDeviceModel } from '../../devices/api/device-queries';
+import { DEVICE_PICKER_PAGE_SIZE, type LibraryDevice, type RecordedDeviceModel } from '../../../lib/device-library';
 import { libraryDeviceFor, refFor, type DeviceChoiceContext, type DeviceLibraryState, type DeviceModelRef } from '../lib/device-choice';
 
 const NOTE = 'mt-1 text-xs leading-snug text-ink-soft dark:text-night-ink-soft';

@@ -7,7 +7,8 @@ import { useNavigate } from 'react-router-dom';
 import { Button } from '../../../components/ui/button';
 import { paths } from '../../../config/paths';
 import { ApiError } from '../../../lib/api';
-import { rankSpec, specKeys } from '../api/spec-queries';
+import { rankSpec } from '../api/spec-queries';
+import { specKeys } from '../../../lib/query-keys';
 
 export function RankButton({ specId, version, unsaved }: { specId: number; version: number; unsaved: boolean }) {
   const navigate = useNavigate();

@@ -6,7 +6,7 @@
  */
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useState } from 'react';
-import { DEVICE_PICKER_PAGE_SIZE, projectDevicesQuery, recordedDeviceQuery } from '../../devices/api/device-queries';
+import { DEVICE_PICKER_PAGE_SIZE, projectDevicesQuery, recordedDeviceQuery } from '../../../lib/device-library';
 import { libraryDeviceFor, type DeviceLibraryState, type DeviceModelRef } from '../lib/device-choice';
 
 const SEARCH_PAUSE_MS = 250;

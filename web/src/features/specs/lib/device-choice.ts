@@ -4,7 +4,7 @@
  * and VAF (the rest of `device` is kept); editing one of those three afterwards drops
  * `deviceModel`, since the card no longer describes the values.
  */
-import type { LibraryDevice, RecordedDeviceModel } from '../../devices/api/device-queries';
+import type { LibraryDevice, RecordedDeviceModel } from '../../../lib/device-library';
 
 /** What the spec records of a library card (spec schema `deviceModel`). */
 export interface DeviceModelRef {

@@ -8,11 +8,11 @@ import 'uplot/dist/uPlot.min.css';
 import { useMemo } from 'react';
 import type uPlot from 'uplot';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
-import { formatDb } from '../../../proposals/lib/figure-format';
-import { ChartLegend, type LegendItem } from '../../../proposals/components/ranking/plots/chart-legend';
-import { frequencyPlotOptions, roomyDbRange, valueAt } from '../../../proposals/components/ranking/plots/charts';
-import { diamond, horizontalMark, verticalMark } from '../../../proposals/components/ranking/plots/draw-marks';
-import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../../proposals/components/ranking/plots/uplot-box';
+import { formatDb } from '../../../../lib/figure-format';
+import { ChartLegend, type LegendItem } from '../../../../components/charts/chart-legend';
+import { frequencyPlotOptions, roomyDbRange, valueAt } from '../../../../components/charts/axes';
+import { diamond, horizontalMark, verticalMark } from '../../../../components/charts/draw-marks';
+import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../../../components/charts/uplot-box';
 import type { MeasurementPlot } from '../../lib/measurement-plot';
 
 export function MeasurementChart({ plot, atFrequencyHz, measuredAtDb }: { plot: MeasurementPlot; atFrequencyHz: number | null; measuredAtDb: number | null }) {

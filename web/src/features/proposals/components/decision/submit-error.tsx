@@ -1,8 +1,8 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { ApiError } from '../../../../lib/api';
-import { proposalKeys } from '../../api/proposal-queries';
 import type { FieldKey } from './design-fields';
 import { fieldKeyOfPath } from './override-draft';
+import { proposalKeys } from '../../../../lib/query-keys';
 
 export type ServerErrors = Partial<Record<FieldKey | 'reason' | 'topology', string>>;
 

@@ -4,7 +4,7 @@ import { Button } from '../../../../components/ui/button';
 import type { Proposal, User } from '../../../../lib/api-types';
 import { topologyName } from '../../../../lib/topology-names';
 import { useMonteCarloMutation } from '../../api/verification-mutations';
-import { isSettled } from '../../api/verification-queries';
+import { isSettled } from '../../../../lib/verification-queries';
 import { MutationError } from './mutation-error';
 import { JobProblem } from './job-problem';
 import { JobProgress } from './job-progress';

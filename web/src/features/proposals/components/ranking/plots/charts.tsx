@@ -8,68 +8,19 @@ import { useMemo } from 'react';
 import uPlot from 'uplot';
 import type { TopologyId } from '../../../../../../../shared/engine/types';
 import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
-import { mixHex } from '../../../lib/colour-mix';
-import { formatDb, formatTargetDb } from '../../../lib/figure-format';
-import { decadeTicksHz, tickLabels, type HistogramPlot, type RejectionPlot, type TemperaturePlot } from '../../../lib/plot-data';
-import { ChartLegend, type LegendItem } from './chart-legend';
-import type { ChartTheme } from './chart-theme';
-import { diamond, horizontalMark, pointLabel, verticalMark } from './draw-marks';
-import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from './uplot-box';
-
-export function axis(theme: ChartTheme, label: string, values: uPlot.Axis['values'], extra: Partial<uPlot.Axis> = {}): uPlot.Axis {
-  return {
-    label,
-    values,
-    stroke: theme.inkSoft,
-    font: theme.font,
-    labelFont: theme.labelFont,
-    grid: { stroke: theme.rule, width: 1 },
-    ticks: { stroke: theme.rule, width: 1, size: 4 },
-    ...extra,
-  };
-}
-
-/** Log frequency along x, as every plot against frequency has it (a fresh object for each chart). */
-const logFrequencyScale = (): uPlot.Scale => ({ time: false, distr: 3, log: 10 });
-
-/** The x axis of a plot against log frequency: hertz with SI prefixes, ticks at the decades. */
-const frequencyAxis = (theme: ChartTheme): uPlot.Axis =>
-  axis(theme, 'Frequency (Hz)', (_u, splits) => tickLabels(splits, (v) => formatQuantity(v, 'Hz')), { splits: (u) => decadeTicksHz(u.scales.x.min!, u.scales.x.max!) });
-
-/** An axis of plain numbers (dB, counts). */
-export const numberAxis = (theme: ChartTheme, label: string, extra: Partial<uPlot.Axis> = {}): uPlot.Axis => axis(theme, label, (_u, splits) => tickLabels(splits, String), extra);
-
-/** A y range on whole 10 dB steps leaving at least 5 dB of room below `low` and above `high`. */
-export const roomyDbRange = (low: number, high: number): [number, number] => [Math.floor((low - 5) / 10) * 10, Math.ceil((high + 5) / 10) * 10];
-
-/**
- * uPlot options of a plot against log frequency: no zoom, frequency ticks at the decades, a
- * numeric y axis, the cursor reported to the legend and the marks drawn over the curves.
- */
-export function frequencyPlotOptions(
-  theme: ChartTheme,
-  { series, yLabel, yRange, onCursor, draw }: { series: uPlot.Series[]; yLabel: string; yRange: uPlot.Scale['range']; onCursor: (u: uPlot) => void; draw: (u: uPlot) => void },
-): ChartOptions {
-  return {
-    series,
-    cursor: NO_ZOOM,
-    scales: { x: logFrequencyScale(), y: { range: yRange } },
-    axes: [frequencyAxis(theme), numberAxis(theme, yLabel, { size: 56 })],
-    hooks: { setCursor: [onCursor], draw: [draw] },
-  };
-}
+import { mixHex } from '../../../../../lib/colour-mix';
+import { formatDb, formatTargetDb } from '../../../../../lib/figure-format';
+import type { HistogramPlot, RejectionPlot, TemperaturePlot } from '../../../lib/plot-data';
+import { tickLabels } from '../../../../../lib/plot-axes';
+import { axis, frequencyPlotOptions, NO_ZOOM, numberAxis, valueAt } from '../../../../../components/charts/axes';
+import { ChartLegend, type LegendItem } from '../../../../../components/charts/chart-legend';
+import { diamond, horizontalMark, pointLabel, verticalMark } from '../../../../../components/charts/draw-marks';
+import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../../../../components/charts/uplot-box';
 
 /** Decimals that show an axis step of `increment` without trailing noise (a step of 0.02 -> 2). */
 function decimalsFor(increment: number): number {
   return Math.max(0, Math.min(6, -Math.floor(Math.log10(increment) + 1e-9)));
 }
-
-/** No drag-zoom (the figures are read, not explored) and no horizontal hair: the legend reads the values. */
-export const NO_ZOOM: uPlot.Cursor = { drag: { x: false, y: false }, y: false };
-export const valueAt = (values: (number | null)[], index: number | null, format: (v: number) => string) => {
-  const v = index === null ? null : values[index];
-  return v === null || v === undefined ? null : format(v);
-};
 
 /** Rejection against frequency for every option, log frequency, with the spec's target lines and frequency. */
 export function RejectionChart({ plot, selected }: { plot: RejectionPlot; selected: TopologyId | null }) {

@@ -4,7 +4,7 @@ import { histogramPlot, temperaturePlot } from '../../../lib/plot-data';
 import { histogramSummary, temperatureSummary } from '../../../lib/plot-summaries';
 import { topologyName } from '../../../../../lib/topology-names';
 import { HistogramChart, TemperatureChart } from './lazy-charts';
-import { PlotFigure } from './plot-figure';
+import { PlotFigure } from '../../../../../components/charts/plot-figure';
 
 /** The selected option's Monte Carlo histogram (differential outputs) and its temperature sweep. */
 export function OptionPlots({ option }: { option: RecommendOption }) {

@@ -4,7 +4,7 @@ import type { TopologyId } from '../../../../../../../shared/engine/types';
 import { rejectionPlot } from '../../../lib/plot-data';
 import { rejectionSummary } from '../../../lib/plot-summaries';
 import { RejectionChart } from './lazy-charts';
-import { PlotFigure } from './plot-figure';
+import { PlotFigure } from '../../../../../components/charts/plot-figure';
 
 /** Every option's tail-limited rejection against frequency, the selected one drawn heavier. */
 export function RejectionFigure({ result, selected }: { result: RecommendResult; selected: TopologyId | null }) {

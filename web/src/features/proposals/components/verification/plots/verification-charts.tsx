@@ -7,13 +7,13 @@ import 'uplot/dist/uPlot.min.css';
 import { useMemo } from 'react';
 import uPlot from 'uplot';
 import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
-import { mixHex } from '../../../lib/colour-mix';
-import { formatDb, formatTargetDb } from '../../../lib/figure-format';
+import { mixHex } from '../../../../../lib/colour-mix';
+import { formatDb, formatTargetDb } from '../../../../../lib/figure-format';
 import type { MonteCarloPlot, RejectionComparisonPlot } from '../../../lib/verification-plots';
-import { frequencyPlotOptions, NO_ZOOM, numberAxis, roomyDbRange, valueAt } from '../../ranking/plots/charts';
-import { ChartLegend, type LegendItem } from '../../ranking/plots/chart-legend';
-import { horizontalMark, verticalMark } from '../../ranking/plots/draw-marks';
-import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../ranking/plots/uplot-box';
+import { frequencyPlotOptions, NO_ZOOM, numberAxis, roomyDbRange, valueAt } from '../../../../../components/charts/axes';
+import { ChartLegend, type LegendItem } from '../../../../../components/charts/chart-legend';
+import { horizontalMark, verticalMark } from '../../../../../components/charts/draw-marks';
+import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../../../../components/charts/uplot-box';
 
 /** The engine's nominal rejection (dashed) and ngspice's (solid) against log frequency, with the spec's target and frequency. */
 export function RejectionComparisonChart({ plot, requiredDb, specFrequencyHz }: { plot: RejectionComparisonPlot; requiredDb: number | null; specFrequencyHz: number | null }) {
