@@ -10,9 +10,9 @@
  *   blank lines; `+` continuation lines; keywords, names and suffixes case-insensitive;
  * - fields separated by blanks, tabs or commas; `=` may have blanks around it; the parameter
  *   list may sit in one pair of parentheses (possibly over several lines) or in none;
- * - numbers: integer, decimal or exponent form with SPICE3's scale factors T G MEG K M MIL U N
- *   P F, letters after the number or factor ignored as SPICE does ("10pF", "1.2MEGohm");
- *   forms SPICE3 does not read ("4k7", "2m5", expressions) are refused, never guessed.
+ * - numbers as SPICE3 reads them (`shared/units/spice-number.ts`: scale factors T G MEG K M MIL
+ *   U N P F, letters after them ignored); forms SPICE3 does not read ("4k7", "2m5",
+ *   expressions) are refused, never guessed.
  * Anything else (.subckt, .include, .lib, .param, braces, quotes, element lines, PNP or other
  * device types, other dot-cards) is a problem with its line number; one problem refuses the file.
  *
@@ -24,6 +24,7 @@
  * exported netlist's comment; the engine models BR = 1 and nothing else of the card.
  */
 import specSchema from '../schema/spec.schema.json';
+import { formatSpiceNumber, readSpiceNumber } from '../units/spice-number';
 
 /** Largest library file, bytes (256 KiB). */
 export const MODEL_FILE_MAX_BYTES = 256 * 1024;
@@ -71,61 +72,10 @@ export interface CardDevice {
 export type ModelFileResult = { ok: true; cards: ModelCard[] } | { ok: false; problems: CardProblem[] };
 
 // ---------------------------------------------------------------------------------------------
-// Numbers
-
-/** SPICE3 scale factors as powers of ten (ngspice manual, "Some naming conventions", Table 2.2). */
-const SCALE_EXPONENTS: Record<string, number> = { t: 12, g: 9, k: 3, m: -3, u: -6, n: -9, p: -12, f: -15 };
-/** MIL: a thousandth of an inch, 25.4e-6 (same table). */
-const MIL = 25.4e-6;
+// Characters
 
 const isDigit = (c: string) => c >= '0' && c <= '9';
 const isLetter = (c: string) => (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z');
-
-/**
- * A SPICE number: `[+-]digits[.digits][e[+-]digits]` then an optional scale factor and any
- * letters (ignored, as SPICE ignores units). Null when the text is not one or is not finite.
- */
-export function parseSpiceValue(text: string): number | null {
-  let i = 0;
-  if (text[i] === '+' || text[i] === '-') i += 1;
-  let digits = 0;
-  while (i < text.length && isDigit(text[i])) {
-    i += 1;
-    digits += 1;
-  }
-  if (text[i] === '.') {
-    i += 1;
-    while (i < text.length && isDigit(text[i])) {
-      i += 1;
-      digits += 1;
-    }
-  }
-  if (digits === 0) return null;
-  const mantissa = text.slice(0, i);
-  let exponent = 0;
-  if (text[i] === 'e' || text[i] === 'E') {
-    let j = i + 1;
-    if (text[j] === '+' || text[j] === '-') j += 1;
-    if (isDigit(text[j] ?? '')) {
-      while (j < text.length && isDigit(text[j])) j += 1;
-      exponent = Number(text.slice(i + 1, j));
-      i = j;
-    }
-  }
-  const lettersStart = i;
-  while (i < text.length && isLetter(text[i])) i += 1;
-  if (i !== text.length) return null; // "4k7", "2m5", "1.2.3", "1e-3*2": not SPICE3 numbers
-  const letters = text.slice(lettersStart).toLowerCase();
-  let value: number;
-  if (letters.startsWith('meg')) value = Number(`${mantissa}e${exponent + 6}`);
-  else if (letters.startsWith('mil')) value = Number(`${mantissa}e${exponent}`) * MIL;
-  else {
-    // Adding exponents (not multiplying by 1e-15) keeps "1.2f" exactly 1.2e-15.
-    const scale = letters.length > 0 ? (SCALE_EXPONENTS[letters[0]] ?? 0) : 0;
-    value = Number(`${mantissa}e${exponent + scale}`);
-  }
-  return Number.isFinite(value) ? value : null;
-}
 
 // ---------------------------------------------------------------------------------------------
 // Bytes to text
@@ -399,7 +349,8 @@ function isModelName(text: string): boolean {
   return true;
 }
 
-const formatNumber = (value: number) => String(value);
+/** A card's value in a message, as SPICE would read it back. */
+const formatNumber = formatSpiceNumber;
 
 /** Reads one `.model` statement; null when it has a problem (reported). */
 function readModel(statement: Statement, problems: Problems): ModelCard | null {
@@ -480,7 +431,7 @@ function readModel(statement: Statement, problems: Problems): ModelCard | null {
     }
     i += 3;
     const key = ALIASES[written.toUpperCase()] ?? written.toUpperCase();
-    const value = parseSpiceValue(valueToken.text);
+    const value = readSpiceNumber(valueToken.text);
     if (value === null) {
       problems.add(valueToken.line, `${name}: ${written}=${shown(valueToken.text)} is not a SPICE number (digits, an optional exponent, then a scale factor T G MEG K M MIL U N P F).`);
       bad = true;
