@@ -24,6 +24,7 @@
  * exported netlist's comment; the engine models BR = 1 and nothing else of the card.
  */
 import specSchema from '../schema/spec.schema.json';
+import { decodeUploadText, isStrayControl } from '../text/upload-text';
 import { formatSpiceNumber, readSpiceNumber } from '../units/spice-number';
 
 /** Largest library file, bytes (256 KiB). */
@@ -38,8 +39,6 @@ export const CARD_MAX_PARAMETERS = 150;
 const MAX_WORD_LENGTH = 200;
 /** Problems listed before the rest are summarised. */
 const MAX_PROBLEMS = 50;
-/** Above this share of control characters a file counts as binary. */
-const BINARY_CONTROL_SHARE = 0.01;
 
 /** A problem with an uploaded file; `line` is 1-based, absent for the whole file. */
 export interface CardProblem {
@@ -80,83 +79,25 @@ const isLetter = (c: string) => (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z')
 // ---------------------------------------------------------------------------------------------
 // Bytes to text
 
-/** Index of the first byte that breaks UTF-8 (RFC 3629: no overlongs, no surrogates), or -1. */
-function firstInvalidUtf8(bytes: Uint8Array): number {
-  let i = 0;
-  while (i < bytes.length) {
-    const b = bytes[i];
-    if (b < 0x80) {
-      i += 1;
-      continue;
-    }
-    let need: number;
-    let low = 0x80;
-    let high = 0xbf;
-    if (b >= 0xc2 && b <= 0xdf) need = 1;
-    else if (b >= 0xe0 && b <= 0xef) {
-      need = 2;
-      if (b === 0xe0) low = 0xa0;
-      if (b === 0xed) high = 0x9f;
-    } else if (b >= 0xf0 && b <= 0xf4) {
-      need = 3;
-      if (b === 0xf0) low = 0x90;
-      if (b === 0xf4) high = 0x8f;
-    } else return i;
-    for (let k = 1; k <= need; k += 1) {
-      const c = bytes[i + k];
-      if (c === undefined) return i;
-      if (k === 1 ? c < low || c > high : c < 0x80 || c > 0xbf) return i;
-    }
-    i += need + 1;
-  }
-  return -1;
-}
-
-function lineOfByte(bytes: Uint8Array, index: number): number {
-  let line = 1;
-  for (let i = 0; i < index; i += 1) if (bytes[i] === 0x0a) line += 1;
-  return line;
-}
-
-/** A control character that has no place in a card (tab, form feed and line breaks do). */
-function isStrayControl(code: number): boolean {
-  if (code === 0x09 || code === 0x0a || code === 0x0b || code === 0x0c || code === 0x0d) return false;
-  return code < 0x20 || (code >= 0x7f && code <= 0x9f);
-}
-
 /**
- * The file's text, checked by content (never by its name): not over the size limit, no NUL
- * byte, valid UTF-8, and no more than 1 % control characters (else it is binary). A UTF-8 byte
- * order mark is dropped.
+ * The file's text, checked by content (never by its name) with the one upload check
+ * (`shared/text/upload-text.ts`): not over the size limit, no NUL byte, valid UTF-8, and no more
+ * than 1 % control characters (else it is binary). A UTF-8 byte order mark is dropped.
  */
 export function decodeModelFile(bytes: Uint8Array): { ok: true; text: string } | { ok: false; problems: CardProblem[] } {
-  if (bytes.length > MODEL_FILE_MAX_BYTES) return fail(`The file is ${bytes.length} bytes; a library file may hold at most ${MODEL_FILE_MAX_BYTES / 1024} KB.`);
-  const nul = bytes.indexOf(0);
-  if (nul >= 0) {
-    return fail('The file holds NUL bytes: it is binary (or UTF-16) rather than a text file of .model cards; save it as plain UTF-8 or ASCII text.', lineOfByte(bytes, nul));
+  const decoded = decodeUploadText(bytes, { maxBytes: MODEL_FILE_MAX_BYTES, controls: 'refuse-binary' });
+  if (decoded.ok) return decoded;
+  const problem = decoded.problem;
+  switch (problem.kind) {
+    case 'too-large':
+      return fail(`The file is ${problem.bytes} bytes; a library file may hold at most ${MODEL_FILE_MAX_BYTES / 1024} KB.`);
+    case 'nul':
+      return fail('The file holds NUL bytes: it is binary (or UTF-16) rather than a text file of .model cards; save it as plain UTF-8 or ASCII text.', problem.line);
+    case 'not-utf8':
+      return fail('The file is not valid UTF-8 text here; save it as UTF-8 or plain ASCII.', problem.line);
+    case 'control':
+      return fail(`${problem.count} of the file's ${problem.length} characters are control characters: it looks binary, not a text file of .model cards.`, problem.line);
   }
-  const invalid = firstInvalidUtf8(bytes);
-  if (invalid >= 0) return fail('The file is not valid UTF-8 text here; save it as UTF-8 or plain ASCII.', lineOfByte(bytes, invalid));
-  let text = new TextDecoder('utf-8').decode(bytes);
-  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
-  let controls = 0;
-  let firstControl = -1;
-  for (let i = 0; i < text.length; i += 1) {
-    if (isStrayControl(text.charCodeAt(i))) {
-      controls += 1;
-      if (firstControl < 0) firstControl = i;
-    }
-  }
-  if (controls > 0 && controls > text.length * BINARY_CONTROL_SHARE) {
-    return fail(`${controls} of the file's ${text.length} characters are control characters: it looks binary, not a text file of .model cards.`, lineOfIndex(text, firstControl));
-  }
-  return { ok: true, text };
-}
-
-function lineOfIndex(text: string, index: number): number {
-  let line = 1;
-  for (let i = 0; i < index; i += 1) if (text.charCodeAt(i) === 0x0a || (text.charCodeAt(i) === 0x0d && text.charCodeAt(i + 1) !== 0x0a)) line += 1;
-  return line;
 }
 
 function fail(message: string, line?: number): { ok: false; problems: CardProblem[] } {

@@ -204,6 +204,8 @@ describe('decodeModelFile: text by content, not by name', () => {
     ['an encoded surrogate half', new Uint8Array([...bytes('* '), 0xed, 0xa0, 0x80]), 1, /not valid UTF-8/],
     ['a truncated three-byte character at the end', new Uint8Array([...bytes('* \u00e9 '), 0xe2, 0x82]), 1, /not valid UTF-8/],
     ['one character in ten a control character', bytes(`${CARD}\n${'*\u0002abcdefgh\n'.repeat(30)}`), 2, /control characters.*looks binary/],
+    // Lines end at CR too, as the card reader numbers them (a file saved with classic Mac line ends).
+    ['a NUL byte on line 3 of a file with CR line ends', new Uint8Array([...bytes(`${CARD}\r* x\r* y`), 0]), 3, /NUL bytes/],
   ] as const)('when the bytes hold %s, then refused at that line', (_what, input, line, message) => {
     const result = decodeModelFile(input);
     expect(result).toEqual({ ok: false, problems: [{ line, message: expect.stringMatching(message) }] });
