@@ -47,9 +47,9 @@ function fileText(file: ImportFile): string {
   const decoded = decodeUploadText(file.buffer, { controls: 'keep' });
   if (decoded.ok) return decoded.text;
   if (decoded.problem.kind === 'not-utf8') {
-    throw invalid([{ path: 'file', message: 'is not UTF-8 text: save the sheet as "CSV UTF-8" or the specs as JSON' }], 'The file cannot be read.');
+    throw invalid([{ path: '/file', message: 'is not UTF-8 text: save the sheet as "CSV UTF-8" or the specs as JSON' }], 'The file cannot be read.');
   }
-  throw invalid([{ path: 'file', message: 'is not a text file (CSV or JSON)' }], 'The file cannot be read.');
+  throw invalid([{ path: '/file', message: 'is not a text file (CSV or JSON)' }], 'The file cannot be read.');
 }
 
 /**
@@ -59,7 +59,7 @@ function fileText(file: ImportFile): string {
 export async function importSpecs(dataSource: DataSource, actor: Viewer, projectId: number, file: ImportFile, options: { dryRun: boolean }): Promise<ImportReport> {
   await projectFor(dataSource, actor, projectId, 'specs:write');
   const reading = readSpecFile({ text: fileText(file), fileName: file.originalName, mimeType: file.mimeType });
-  if (!reading.ok) throw invalid([{ path: 'file', message: reading.message }], 'The file cannot be read.');
+  if (!reading.ok) throw invalid([{ path: '/file', message: reading.message }], 'The file cannot be read.');
   const fileName = file.originalName.slice(0, 200);
   const run = async (manager: EntityManager): Promise<ImportReport> => {
     if (!options.dryRun) await projectFor(manager, actor, projectId, 'specs:write');
