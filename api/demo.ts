@@ -6,6 +6,7 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { recommend } from '../shared/engine/index';
+import { formatDb } from '../shared/units/figures';
 import { formatQuantity } from '../shared/units/index';
 import { formatIssue, validateSpec } from '../shared/validate';
 import { loadRuleSet } from '../rules/index';
@@ -28,7 +29,7 @@ for (const file of readdirSync(specsDir).filter((f) => f.endsWith('.json')).sort
   for (const o of result.options) {
     const failed = o.checks.filter((c) => !c.passed).map((c) => `${c.rule}${c.severity === 'advisory' ? ' (advisory)' : ''}`);
     console.log(
-      `  ${String(o.rank).padEnd(5)} ${o.topology.padEnd(20)} ${(o.passes ? 'yes' : 'no').padEnd(7)} ${formatQuantity(o.figures?.tailImpedanceAtFrequencyOhm ?? NaN, 'Ohm').padEnd(15)} ${(o.rejectionDb === null ? '—' : `${o.rejectionDb.toFixed(1)} dB`).padEnd(10)} ${(o.figures ? `${o.figures.gainPredicted.toFixed(2)}` : '—').padEnd(8)} ${formatQuantity(o.predicted?.tailCurrentA ?? NaN, 'A').padEnd(13)} ${formatQuantity(o.figures?.powerWorstW ?? NaN, 'W').padEnd(9)} ${failed.join(', ') || '—'}`,
+      `  ${String(o.rank).padEnd(5)} ${o.topology.padEnd(20)} ${(o.passes ? 'yes' : 'no').padEnd(7)} ${formatQuantity(o.figures?.tailImpedanceAtFrequencyOhm ?? NaN, 'Ohm').padEnd(15)} ${(o.rejectionDb === null ? '—' : formatDb(o.rejectionDb)).padEnd(10)} ${(o.figures ? `${o.figures.gainPredicted.toFixed(2)}` : '—').padEnd(8)} ${formatQuantity(o.predicted?.tailCurrentA ?? NaN, 'A').padEnd(13)} ${formatQuantity(o.figures?.powerWorstW ?? NaN, 'W').padEnd(9)} ${failed.join(', ') || '—'}`,
     );
   }
   console.log(`  ${result.notice}`);

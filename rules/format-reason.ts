@@ -1,4 +1,5 @@
 import type { OptionFacts } from '../shared/engine/types';
+import { formatFixed } from '../shared/units/figures';
 import { formatQuantity } from '../shared/units/format-quantity';
 import { FACT_KINDS, isFactName, type FactKind } from './fact-kinds';
 
@@ -23,11 +24,10 @@ function withMinus(text: string): string {
   return text.replace(/^-/, '\u2212');
 }
 
-/** At most one decimal, trailing zero dropped; a nonzero value that rounds to 0 keeps one significant digit. */
+/** At most one decimal, trailing zero dropped (shared/units/figures.ts); a nonzero value that rounds to 0 keeps one significant digit. */
 function fixed1(x: number): string {
-  const rounded = Math.round(x * 10) / 10;
-  if (rounded === 0) return x === 0 ? '0' : withMinus(String(Number(x.toPrecision(1))));
-  return withMinus(String(rounded));
+  const text = formatFixed(x, 1, { trimZeros: true });
+  return text === '0' && x !== 0 ? withMinus(String(Number(x.toPrecision(1)))) : text;
 }
 
 /** Three significant digits with an engineering prefix: 0.0284, "W" -> "28.4 mW" (shared/units). */

@@ -16,6 +16,7 @@ import { batchResultsCsv } from '../../shared/export/batch-csv';
 import type { ImportAction, ImportReport, ImportRowReport } from '../../shared/import/import-report';
 import { readSpecFile } from '../../shared/import/spec-file';
 import { diffJson } from '../../shared/json-diff';
+import { decodeUploadText } from '../../shared/text/upload-text';
 import { ProposalEntity } from '../entities/proposal.entity';
 import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { SpecEntity, type Spec } from '../entities/spec.entity';
@@ -38,16 +39,17 @@ export interface ImportFile {
 /** The report the route answers (shared/import/import-report.ts). */
 export type { ImportAction, ImportReport, ImportRowReport };
 
-/** UTF-8 text of the upload; a binary file or another encoding is refused. */
+/**
+ * UTF-8 text of the upload (the one upload check, `shared/text/upload-text.ts`); a binary file or
+ * another encoding is refused. Control characters are left to the row checks, which name the cell.
+ */
 function fileText(file: ImportFile): string {
-  let text: string;
-  try {
-    text = new TextDecoder('utf-8', { fatal: true }).decode(file.buffer);
-  } catch {
-    throw invalid([{ path: 'file', message: 'is not UTF-8 text: save the sheet as "CSV UTF-8" or the specs as JSON' }], 'The file cannot be read.');
+  const decoded = decodeUploadText(file.buffer, { controls: 'keep' });
+  if (decoded.ok) return decoded.text;
+  if (decoded.problem.kind === 'not-utf8') {
+    throw invalid([{ path: '/file', message: 'is not UTF-8 text: save the sheet as "CSV UTF-8" or the specs as JSON' }], 'The file cannot be read.');
   }
-  if (text.includes('\u0000')) throw invalid([{ path: 'file', message: 'is not a text file (CSV or JSON)' }], 'The file cannot be read.');
-  return text;
+  throw invalid([{ path: '/file', message: 'is not a text file (CSV or JSON)' }], 'The file cannot be read.');
 }
 
 /**
@@ -57,7 +59,7 @@ function fileText(file: ImportFile): string {
 export async function importSpecs(dataSource: DataSource, actor: Viewer, projectId: number, file: ImportFile, options: { dryRun: boolean }): Promise<ImportReport> {
   await projectFor(dataSource, actor, projectId, 'specs:write');
   const reading = readSpecFile({ text: fileText(file), fileName: file.originalName, mimeType: file.mimeType });
-  if (!reading.ok) throw invalid([{ path: 'file', message: reading.message }], 'The file cannot be read.');
+  if (!reading.ok) throw invalid([{ path: '/file', message: reading.message }], 'The file cannot be read.');
   const fileName = file.originalName.slice(0, 200);
   const run = async (manager: EntityManager): Promise<ImportReport> => {
     if (!options.dryRun) await projectFor(manager, actor, projectId, 'specs:write');

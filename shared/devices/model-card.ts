@@ -10,9 +10,9 @@
  *   blank lines; `+` continuation lines; keywords, names and suffixes case-insensitive;
  * - fields separated by blanks, tabs or commas; `=` may have blanks around it; the parameter
  *   list may sit in one pair of parentheses (possibly over several lines) or in none;
- * - numbers: integer, decimal or exponent form with SPICE3's scale factors T G MEG K M MIL U N
- *   P F, letters after the number or factor ignored as SPICE does ("10pF", "1.2MEGohm");
- *   forms SPICE3 does not read ("4k7", "2m5", expressions) are refused, never guessed.
+ * - numbers as SPICE3 reads them (`shared/units/spice-number.ts`: scale factors T G MEG K M MIL
+ *   U N P F, letters after them ignored); forms SPICE3 does not read ("4k7", "2m5",
+ *   expressions) are refused, never guessed.
  * Anything else (.subckt, .include, .lib, .param, braces, quotes, element lines, PNP or other
  * device types, other dot-cards) is a problem with its line number; one problem refuses the file.
  *
@@ -24,6 +24,8 @@
  * exported netlist's comment; the engine models BR = 1 and nothing else of the card.
  */
 import specSchema from '../schema/spec.schema.json';
+import { decodeUploadText, isStrayControl } from '../text/upload-text';
+import { formatSpiceNumber, readSpiceNumber } from '../units/spice-number';
 
 /** Largest library file, bytes (256 KiB). */
 export const MODEL_FILE_MAX_BYTES = 256 * 1024;
@@ -37,8 +39,6 @@ export const CARD_MAX_PARAMETERS = 150;
 const MAX_WORD_LENGTH = 200;
 /** Problems listed before the rest are summarised. */
 const MAX_PROBLEMS = 50;
-/** Above this share of control characters a file counts as binary. */
-const BINARY_CONTROL_SHARE = 0.01;
 
 /** A problem with an uploaded file; `line` is 1-based, absent for the whole file. */
 export interface CardProblem {
@@ -71,142 +71,33 @@ export interface CardDevice {
 export type ModelFileResult = { ok: true; cards: ModelCard[] } | { ok: false; problems: CardProblem[] };
 
 // ---------------------------------------------------------------------------------------------
-// Numbers
-
-/** SPICE3 scale factors as powers of ten (ngspice manual, "Some naming conventions", Table 2.2). */
-const SCALE_EXPONENTS: Record<string, number> = { t: 12, g: 9, k: 3, m: -3, u: -6, n: -9, p: -12, f: -15 };
-/** MIL: a thousandth of an inch, 25.4e-6 (same table). */
-const MIL = 25.4e-6;
+// Characters
 
 const isDigit = (c: string) => c >= '0' && c <= '9';
 const isLetter = (c: string) => (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z');
 
-/**
- * A SPICE number: `[+-]digits[.digits][e[+-]digits]` then an optional scale factor and any
- * letters (ignored, as SPICE ignores units). Null when the text is not one or is not finite.
- */
-export function parseSpiceValue(text: string): number | null {
-  let i = 0;
-  if (text[i] === '+' || text[i] === '-') i += 1;
-  let digits = 0;
-  while (i < text.length && isDigit(text[i])) {
-    i += 1;
-    digits += 1;
-  }
-  if (text[i] === '.') {
-    i += 1;
-    while (i < text.length && isDigit(text[i])) {
-      i += 1;
-      digits += 1;
-    }
-  }
-  if (digits === 0) return null;
-  const mantissa = text.slice(0, i);
-  let exponent = 0;
-  if (text[i] === 'e' || text[i] === 'E') {
-    let j = i + 1;
-    if (text[j] === '+' || text[j] === '-') j += 1;
-    if (isDigit(text[j] ?? '')) {
-      while (j < text.length && isDigit(text[j])) j += 1;
-      exponent = Number(text.slice(i + 1, j));
-      i = j;
-    }
-  }
-  const lettersStart = i;
-  while (i < text.length && isLetter(text[i])) i += 1;
-  if (i !== text.length) return null; // "4k7", "2m5", "1.2.3", "1e-3*2": not SPICE3 numbers
-  const letters = text.slice(lettersStart).toLowerCase();
-  let value: number;
-  if (letters.startsWith('meg')) value = Number(`${mantissa}e${exponent + 6}`);
-  else if (letters.startsWith('mil')) value = Number(`${mantissa}e${exponent}`) * MIL;
-  else {
-    // Adding exponents (not multiplying by 1e-15) keeps "1.2f" exactly 1.2e-15.
-    const scale = letters.length > 0 ? (SCALE_EXPONENTS[letters[0]] ?? 0) : 0;
-    value = Number(`${mantissa}e${exponent + scale}`);
-  }
-  return Number.isFinite(value) ? value : null;
-}
-
 // ---------------------------------------------------------------------------------------------
 // Bytes to text
 
-/** Index of the first byte that breaks UTF-8 (RFC 3629: no overlongs, no surrogates), or -1. */
-function firstInvalidUtf8(bytes: Uint8Array): number {
-  let i = 0;
-  while (i < bytes.length) {
-    const b = bytes[i];
-    if (b < 0x80) {
-      i += 1;
-      continue;
-    }
-    let need: number;
-    let low = 0x80;
-    let high = 0xbf;
-    if (b >= 0xc2 && b <= 0xdf) need = 1;
-    else if (b >= 0xe0 && b <= 0xef) {
-      need = 2;
-      if (b === 0xe0) low = 0xa0;
-      if (b === 0xed) high = 0x9f;
-    } else if (b >= 0xf0 && b <= 0xf4) {
-      need = 3;
-      if (b === 0xf0) low = 0x90;
-      if (b === 0xf4) high = 0x8f;
-    } else return i;
-    for (let k = 1; k <= need; k += 1) {
-      const c = bytes[i + k];
-      if (c === undefined) return i;
-      if (k === 1 ? c < low || c > high : c < 0x80 || c > 0xbf) return i;
-    }
-    i += need + 1;
-  }
-  return -1;
-}
-
-function lineOfByte(bytes: Uint8Array, index: number): number {
-  let line = 1;
-  for (let i = 0; i < index; i += 1) if (bytes[i] === 0x0a) line += 1;
-  return line;
-}
-
-/** A control character that has no place in a card (tab, form feed and line breaks do). */
-function isStrayControl(code: number): boolean {
-  if (code === 0x09 || code === 0x0a || code === 0x0b || code === 0x0c || code === 0x0d) return false;
-  return code < 0x20 || (code >= 0x7f && code <= 0x9f);
-}
-
 /**
- * The file's text, checked by content (never by its name): not over the size limit, no NUL
- * byte, valid UTF-8, and no more than 1 % control characters (else it is binary). A UTF-8 byte
- * order mark is dropped.
+ * The file's text, checked by content (never by its name) with the one upload check
+ * (`shared/text/upload-text.ts`): not over the size limit, no NUL byte, valid UTF-8, and no more
+ * than 1 % control characters (else it is binary). A UTF-8 byte order mark is dropped.
  */
 export function decodeModelFile(bytes: Uint8Array): { ok: true; text: string } | { ok: false; problems: CardProblem[] } {
-  if (bytes.length > MODEL_FILE_MAX_BYTES) return fail(`The file is ${bytes.length} bytes; a library file may hold at most ${MODEL_FILE_MAX_BYTES / 1024} KB.`);
-  const nul = bytes.indexOf(0);
-  if (nul >= 0) {
-    return fail('The file holds NUL bytes: it is binary (or UTF-16) rather than a text file of .model cards; save it as plain UTF-8 or ASCII text.', lineOfByte(bytes, nul));
+  const decoded = decodeUploadText(bytes, { maxBytes: MODEL_FILE_MAX_BYTES, controls: 'refuse-binary' });
+  if (decoded.ok) return decoded;
+  const problem = decoded.problem;
+  switch (problem.kind) {
+    case 'too-large':
+      return fail(`The file is ${problem.bytes} bytes; a library file may hold at most ${MODEL_FILE_MAX_BYTES / 1024} KB.`);
+    case 'nul':
+      return fail('The file holds NUL bytes: it is binary (or UTF-16) rather than a text file of .model cards; save it as plain UTF-8 or ASCII text.', problem.line);
+    case 'not-utf8':
+      return fail('The file is not valid UTF-8 text here; save it as UTF-8 or plain ASCII.', problem.line);
+    case 'control':
+      return fail(`${problem.count} of the file's ${problem.length} characters are control characters: it looks binary, not a text file of .model cards.`, problem.line);
   }
-  const invalid = firstInvalidUtf8(bytes);
-  if (invalid >= 0) return fail('The file is not valid UTF-8 text here; save it as UTF-8 or plain ASCII.', lineOfByte(bytes, invalid));
-  let text = new TextDecoder('utf-8').decode(bytes);
-  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
-  let controls = 0;
-  let firstControl = -1;
-  for (let i = 0; i < text.length; i += 1) {
-    if (isStrayControl(text.charCodeAt(i))) {
-      controls += 1;
-      if (firstControl < 0) firstControl = i;
-    }
-  }
-  if (controls > 0 && controls > text.length * BINARY_CONTROL_SHARE) {
-    return fail(`${controls} of the file's ${text.length} characters are control characters: it looks binary, not a text file of .model cards.`, lineOfIndex(text, firstControl));
-  }
-  return { ok: true, text };
-}
-
-function lineOfIndex(text: string, index: number): number {
-  let line = 1;
-  for (let i = 0; i < index; i += 1) if (text.charCodeAt(i) === 0x0a || (text.charCodeAt(i) === 0x0d && text.charCodeAt(i + 1) !== 0x0a)) line += 1;
-  return line;
 }
 
 function fail(message: string, line?: number): { ok: false; problems: CardProblem[] } {
@@ -399,7 +290,8 @@ function isModelName(text: string): boolean {
   return true;
 }
 
-const formatNumber = (value: number) => String(value);
+/** A card's value in a message, as SPICE would read it back. */
+const formatNumber = formatSpiceNumber;
 
 /** Reads one `.model` statement; null when it has a problem (reported). */
 function readModel(statement: Statement, problems: Problems): ModelCard | null {
@@ -480,7 +372,7 @@ function readModel(statement: Statement, problems: Problems): ModelCard | null {
     }
     i += 3;
     const key = ALIASES[written.toUpperCase()] ?? written.toUpperCase();
-    const value = parseSpiceValue(valueToken.text);
+    const value = readSpiceNumber(valueToken.text);
     if (value === null) {
       problems.add(valueToken.line, `${name}: ${written}=${shown(valueToken.text)} is not a SPICE number (digits, an optional exponent, then a scale factor T G MEG K M MIL U N P F).`);
       bad = true;

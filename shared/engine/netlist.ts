@@ -11,6 +11,7 @@ import type { CircuitElement } from './circuit';
 import { earlyVoltageOrInfinityV, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
+import { formatSpiceNumber as spiceNumber, parseSpiceNumber } from '../units/spice-number';
 
 /** The `.model` name every transistor of the stage uses. */
 export const SPICE_MODEL_NAME = 'QNPN';
@@ -55,12 +56,6 @@ export interface NetlistSolverSettings {
 }
 
 export type NetlistAnalysis = NetlistOptions['analysis'];
-
-/** Shortest text that reads back as the same double (JavaScript's round-trip form, e.g. 1e-14). */
-function spiceNumber(value: number): string {
-  if (!Number.isFinite(value)) throw new RangeError(`netlist value must be finite, got ${value}`);
-  return String(value);
-}
 
 /** An element's SPICE name: its circuit name, prefixed with the SPICE letter if it lacks it. */
 function elementName(letter: string, name: string): string {
@@ -183,33 +178,6 @@ export type ParsedElement =
   | { kind: 'C'; name: string; nodes: [string, string]; valueF: number }
   | { kind: 'V'; name: string; nodes: [string, string]; dcV: number; acMagnitude: number; acPhaseDeg: number }
   | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; model: string; area: number };
-
-/** SPICE scale suffixes as powers of ten, longest first; case-insensitive; `m` is milli, `meg` mega [SPICE]. */
-const SPICE_SUFFIX_EXPONENTS: ReadonlyArray<[string, number]> = [
-  ['meg', 6],
-  ['f', -15],
-  ['p', -12],
-  ['n', -9],
-  ['u', -6],
-  ['m', -3],
-  ['k', 3],
-  ['g', 9],
-  ['t', 12],
-];
-/** `mil`: a thousandth of an inch, in metres [SPICE]. */
-const MIL_M = 25.4e-6;
-
-/** A SPICE number with an optional scale suffix and ignored trailing letters ("10uF" → 1e-5). */
-export function parseSpiceNumber(text: string): number {
-  const match = /^([+-]?(?:\d+\.?\d*|\.\d+))(?:e([+-]?\d+))?([a-z]*)$/i.exec(text.trim());
-  if (!match) throw new SyntaxError(`not a SPICE number: "${text}"`);
-  const [, mantissa, exponent = '0', letters] = match;
-  const lower = letters.toLowerCase();
-  if (lower.startsWith('mil')) return Number(`${mantissa}e${exponent}`) * MIL_M;
-  const suffix = SPICE_SUFFIX_EXPONENTS.find(([name]) => lower.startsWith(name));
-  // Adding exponents (not multiplying by 1e-12) keeps "22p" exactly 2.2e-11.
-  return Number(`${mantissa}e${Number(exponent) + (suffix ? suffix[1] : 0)}`);
-}
 
 /** Logical lines: comments dropped (`*` lines, `;` inline), `+` continuations joined, title skipped. */
 function logicalLines(text: string): string[] {

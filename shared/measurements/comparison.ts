@@ -4,6 +4,7 @@
  * at the spec frequency, each curve read by linear interpolation in log-frequency (dB values), as
  * a Bode plot is read.
  */
+import { formatDb } from '../units/figures';
 import { formatQuantity } from '../units/format-quantity';
 import type { OptionVerification, ProposalVerificationResult } from '../verification/types';
 import { pointDb, type MeasuredPoint, type MeasurementKind, type MeasurementUnit } from './measurement-csv';
@@ -191,11 +192,8 @@ export function measurementReference(sources: ReferenceSources): MeasurementRefe
   };
 }
 
-/** "71.2 dB" with one decimal and a typeset minus. */
-function db(value: number): string {
-  const text = Math.abs(value).toFixed(1);
-  return `${value < 0 && Number(text) !== 0 ? '\u2212' : ''}${text} dB`;
-}
+/** "71.2 dB" with one decimal and a typeset minus (shared/units/figures.ts). */
+const db = (value: number): string => formatDb(value);
 
 /** How far above or below: "2.3 dB below the prediction (73.5 dB)", "level with the prediction". */
 function against(differenceDb: number, otherDb: number, what: string): string {

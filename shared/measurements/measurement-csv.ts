@@ -24,6 +24,7 @@
  * Every problem comes with its line (lines count from 1, comment and blank lines included).
  */
 import Papa from 'papaparse';
+import { decodeUploadText } from '../text/upload-text';
 import { parseQuantity } from '../units/parse-quantity';
 
 export const MEASUREMENT_FILE_MAX_BYTES = 256 * 1024;
@@ -116,41 +117,22 @@ function valueColumn(cell: string): ValueColumn | string {
   return `the second column must be the measured rejection or gain with its unit: "cmrr_db", "gain_db" or "gain_v_per_v" (or "CMRR (dB)", "Gain (dB)", "Gain (V/V)"); found "${cell.trim()}"`;
 }
 
-/** A control character that has no place in a text file (tab, form feed and line breaks do). */
-function isStrayControl(code: number): boolean {
-  if (code === 0x09 || code === 0x0a || code === 0x0c || code === 0x0d) return false;
-  return code < 0x20 || (code >= 0x7f && code <= 0x9f);
-}
-
-/** The file's text, checked by content: size, no NUL byte, valid UTF-8, no control characters. */
+/** The file's text, checked by content with the one upload check (`shared/text/upload-text.ts`): size, no NUL byte, valid UTF-8, no control characters. */
 export function decodeMeasurementFile(bytes: Uint8Array): { ok: true; text: string } | { ok: false; problems: MeasurementProblem[] } {
-  if (bytes.length > MEASUREMENT_FILE_MAX_BYTES) return fail(`The file is ${bytes.length} bytes; a measurement file may hold at most ${MEASUREMENT_FILE_MAX_BYTES / 1024} KB.`);
   if (bytes.length === 0) return fail('The file is empty: it needs a header row and at least two measured points.');
-  const nul = bytes.indexOf(0);
-  if (nul >= 0) return fail('The file holds NUL bytes: it is binary (or UTF-16) rather than a CSV text file; save it as UTF-8 or ASCII text.', lineOfByte(bytes, nul));
-  let text: string;
-  try {
-    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-  } catch {
-    const loose = new TextDecoder('utf-8').decode(bytes);
-    return fail('The file is not valid UTF-8 text; save it as UTF-8 or plain ASCII.', lineOfIndex(loose, loose.indexOf('\uFFFD')));
+  const decoded = decodeUploadText(bytes, { maxBytes: MEASUREMENT_FILE_MAX_BYTES, controls: 'refuse' });
+  if (decoded.ok) return decoded;
+  const problem = decoded.problem;
+  switch (problem.kind) {
+    case 'too-large':
+      return fail(`The file is ${problem.bytes} bytes; a measurement file may hold at most ${MEASUREMENT_FILE_MAX_BYTES / 1024} KB.`);
+    case 'nul':
+      return fail('The file holds NUL bytes: it is binary (or UTF-16) rather than a CSV text file; save it as UTF-8 or ASCII text.', problem.line);
+    case 'not-utf8':
+      return fail('The file is not valid UTF-8 text; save it as UTF-8 or plain ASCII.', problem.line);
+    case 'control':
+      return fail(`A control character (U+${problem.code.toString(16).toUpperCase().padStart(4, '0')}) is not allowed in a measurement file: is it a text file?`, problem.line);
   }
-  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
-  for (let i = 0; i < text.length; i += 1) {
-    const code = text.charCodeAt(i);
-    if (isStrayControl(code)) return fail(`A control character (U+${code.toString(16).toUpperCase().padStart(4, '0')}) is not allowed in a measurement file: is it a text file?`, lineOfIndex(text, i));
-  }
-  return { ok: true, text };
-}
-
-function lineOfByte(bytes: Uint8Array, index: number): number {
-  let line = 1;
-  for (let i = 0; i < index; i += 1) if (bytes[i] === 0x0a) line += 1;
-  return line;
-}
-
-function lineOfIndex(text: string, index: number): number {
-  return text.slice(0, Math.max(index, 0)).split(/\r\n|\n|\r/).length;
 }
 
 function fail(message: string, line?: number): { ok: false; problems: MeasurementProblem[] } {

@@ -279,7 +279,7 @@ describe('POST /api/projects/:id/specs/import: who may, and files that cannot be
   test('when no file is attached, then 400 names the file field', async () => {
     const response = await requirements.post(importUrl(projectId, true)).field('note', 'no file here');
     expect(response.status).toBe(400);
-    expect(response.body.details).toEqual([{ path: 'file', message: 'is required: send the CSV or JSON file as multipart/form-data in the field "file"' }]);
+    expect(response.body.details).toEqual([{ path: '/file', message: 'attach the CSV or JSON file of specs in the form field "file" (multipart/form-data)' }]);
   });
 
   test('when the file name carries a control character, then the unreadable multipart header answers 400, not 500', async () => {
@@ -307,7 +307,7 @@ describe('POST /api/projects/:id/specs/import: who may, and files that cannot be
   ])('when the file is %s, then 400 on the file', async (_what, content, name, message) => {
     const response = await upload(requirements, importUrl(projectId, true), content, name);
     expect(response.status).toBe(400);
-    expect(response.body.details[0].path).toBe('file');
+    expect(response.body.details[0].path).toBe('/file');
     expect(response.body.details[0].message).toMatch(message);
   });
 

@@ -17,65 +17,11 @@ import {
   decodeModelFile,
   MODEL_FILE_MAX_BYTES,
   parseModelCards,
-  parseSpiceValue,
   readModelFile,
   type ModelCard,
 } from '../../../shared/devices/model-card';
 
 const bytes = (text: string) => new TextEncoder().encode(text);
-
-/** Relative closeness for values whose decimal form is not exact in binary (25.4e-6 × 3). */
-function expectClose(actual: number | null | undefined, expected: number) {
-  expect(actual).not.toBeNull();
-  expect(Math.abs((actual as number) - expected) / Math.abs(expected)).toBeLessThan(1e-12);
-}
-
-describe('parseSpiceValue: SPICE3 numbers and scale factors', () => {
-  test.each([
-    ['150', 150],
-    ['-44', -44],
-    ['3.14159', 3.14159],
-    ['.5', 0.5],
-    ['5.', 5],
-    ['1e-14', 1e-14],
-    ['2.65e3', 2650],
-    ['1.2f', 1.2e-15],
-    ['1.2F', 1.2e-15],
-    ['22p', 22e-12],
-    ['4.7n', 4.7e-9],
-    ['10u', 10e-6],
-    ['10m', 10e-3], // milli
-    ['10M', 10e-3], // milli too: case does not make mega [SPICE]
-    ['10Meg', 10e6],
-    ['100meg', 100e6],
-    ['10MEG', 10e6],
-    ['2.5K', 2500],
-    ['2.5k', 2500],
-    ['1G', 1e9],
-    ['1t', 1e12],
-    ['1e3k', 1e6], // exponent and factor both apply
-    ['10V', 10], // unit letters ignored
-    ['10Volts', 10],
-    ['1kHz', 1000],
-    ['10pF', 10e-12],
-    ['1.2MEGohm', 1.2e6],
-    ['5MA', 5e-3], // "M, MA, MSec … all represent the same scale factor" [ngspice manual]
-  ])('%s reads as %d', (text, expected) => {
-    expect(parseSpiceValue(text)).toBe(expected);
-  });
-
-  test.each([
-    ['3mil', 3 * 25.4e-6],
-    ['1MIL', 25.4e-6],
-    ['0.5mils', 0.5 * 25.4e-6],
-  ])('%s reads as %d (MIL = 25.4e-6)', (text, expected) => {
-    expectClose(parseSpiceValue(text), expected);
-  });
-
-  test.each(['', 'abc', 'e3', '.', '-', '4k7', '2m5', '1.2.3', '1e-3*2', '1e999', '{bf}', '1,5', '1µ'])('%j is not a SPICE3 number', (text) => {
-    expect(parseSpiceValue(text)).toBeNull();
-  });
-});
 
 interface GoodCase {
   when: string;
@@ -258,6 +204,8 @@ describe('decodeModelFile: text by content, not by name', () => {
     ['an encoded surrogate half', new Uint8Array([...bytes('* '), 0xed, 0xa0, 0x80]), 1, /not valid UTF-8/],
     ['a truncated three-byte character at the end', new Uint8Array([...bytes('* \u00e9 '), 0xe2, 0x82]), 1, /not valid UTF-8/],
     ['one character in ten a control character', bytes(`${CARD}\n${'*\u0002abcdefgh\n'.repeat(30)}`), 2, /control characters.*looks binary/],
+    // Lines end at CR too, as the card reader numbers them (a file saved with classic Mac line ends).
+    ['a NUL byte on line 3 of a file with CR line ends', new Uint8Array([...bytes(`${CARD}\r* x\r* y`), 0]), 3, /NUL bytes/],
   ] as const)('when the bytes hold %s, then refused at that line', (_what, input, line, message) => {
     const result = decodeModelFile(input);
     expect(result).toEqual({ ok: false, problems: [{ line, message: expect.stringMatching(message) }] });

@@ -11,12 +11,12 @@ import {
   SPICE_MODEL_NAME,
   TAIL_TEST_SOURCE,
   parseNetlistElements,
-  parseSpiceNumber,
   spiceNetlist,
   type NetlistOptions,
   type ParsedElement,
 } from '../../../shared/engine/netlist';
 import { TOPOLOGIES, type Design, type DeviceParams, type TailDesign, type TopologyId } from '../../../shared/engine/types';
+import { parseSpiceNumber } from '../../../shared/units/spice-number';
 import { runSpice, spiceAc, spiceFigures, spiceOperatingPoint, startSpice } from '../../helpers/spice';
 
 /** ngspice's first start (WebAssembly instantiation) takes about a second; allow for a slow machine. */
@@ -321,20 +321,7 @@ describe('spiceNetlist: structure', () => {
   });
 });
 
-describe('parseNetlistElements and parseSpiceNumber', () => {
-  test.each([
-    ['4.7k', 4700],
-    ['10uF', 1e-5],
-    ['1MEG', 1e6],
-    ['1M', 1e-3],
-    ['2.2e3', 2200],
-    ['-9', -9],
-    ['.5p', 0.5e-12],
-    ['3mil', 3 * 25.4e-6],
-  ])('%s reads as %s', (text, expected) => {
-    expect(parseSpiceNumber(text)).toBeCloseTo(expected, 12);
-  });
-
+describe('parseNetlistElements', () => {
   test('comments, inline comments, continuation lines, suffixes and area forms', () => {
     const text = [
       'hand-written check netlist',

@@ -22,7 +22,8 @@ const MAX_FILE_BYTES = 1024 * 1024;
 
 function errorText(error: unknown): string {
   if (error instanceof ApiError) {
-    const detail = error.details.map((d) => `${d.path ? `${d.path} ` : ''}${d.message}`).join('; ');
+    // The form field a detail is about, without its pointer slash: "file is not UTF-8 text…".
+    const detail = error.details.map((d) => `${d.path ? `${d.path.replace(/^\//, '')} ` : ''}${d.message}`).join('; ');
     return detail ? `${error.message} ${detail}` : error.message;
   }
   return error instanceof Error ? error.message : 'Something went wrong.';

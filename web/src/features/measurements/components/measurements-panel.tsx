@@ -11,6 +11,7 @@ import { useId, useState } from 'react';
 import { comparisonSentence, measurementReference } from '../../../../../shared/measurements/comparison';
 import { MEASUREMENT_QUOTA, type MeasurementSummary, type MeasurementView } from '../../../../../shared/measurements/types';
 import type { ProposalVerificationResult } from '../../../../../shared/verification/types';
+import { formatDb } from '../../../../../shared/units/figures';
 import { mayAs } from '../../../../../shared/workflow/roles';
 import { FileUploadButton, UploadProblems } from '../../../components/forms/file-upload';
 import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';
@@ -214,6 +215,5 @@ function MeasurementTable({ proposal, items, chosenId, onChoose }: { proposal: P
 function differenceText(m: MeasurementSummary): string {
   const d = m.comparison.differenceFromPredictedDb;
   if (d === null) return '—';
-  const text = Math.abs(d).toFixed(1);
-  return `${d < 0 && Number(text) !== 0 ? '\u2212' : d > 0 && Number(text) !== 0 ? '+' : ''}${text} dB`;
+  return formatDb(d, { sign: 'exceptZero' });
 }

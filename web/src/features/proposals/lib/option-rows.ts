@@ -7,7 +7,7 @@ import { outputRejection, REJECTION_KIND_WORDS, type RejectionKind } from '../..
 import type { Check, TopologyId } from '../../../../../shared/engine/types';
 import { formatQuantity } from '../../../../../shared/units/format-quantity';
 import { topologyName } from '../../../lib/topology-names';
-import { formatPercent, formatTargetDb } from '../../../lib/figure-format';
+import { formatPercent, formatTargetDb } from '../../../../../shared/units/figures';
 
 /** Figures of the table that one rule decides, so a failing check can mark its cell. */
 export const FIGURE_RULES = {

@@ -1,20 +1,20 @@
 /**
- * Words and numbers for the SPICE check: figures in engineering notation (shared/units through
- * figure-format), signed differences in the figure's own delta unit, tolerances, and the verdict
- * of a figure or an option in the app's status language.
+ * Words and numbers for the SPICE check: figures, signed differences in the figure's own delta
+ * unit and tolerances (all through shared/units/figures.ts), and the verdict of a figure or an option in the app's status language.
  */
 import { formatQuantity } from '../../../../../shared/units/format-quantity';
 import type { OptionVerification, VerifiedFigure } from '../../../../../shared/verification/types';
 import type { VerdictKind } from '../../../components/ui/verdict';
 import { topologyName } from '../../../lib/topology-names';
-import { formatFigure, formatFixed } from '../../../lib/figure-format';
-
-const MINUS = '\u2212';
+import { formatDb, formatFigure, formatFixed, formatPercent, formatSignedQuantity, formatTolerance } from '../../../../../shared/units/figures';
 
 /** A stored unit as the formatter knows it: "" (a ratio) prints as a plain number. */
 function unitOf(unit: string): string {
   return unit === '' ? '1' : unit;
 }
+
+/** The unit each kind of difference is printed in. */
+const DELTA_UNITS: Record<VerifiedFigure['deltaKind'], string> = { percent: '%', db: 'dB', volts: 'V' };
 
 /** A predicted or simulated figure: "960 µA", "101.8 dB", "2.32 kΩ"; an em dash when missing. */
 export function figureText(value: number | null, unit: string): string {
@@ -22,29 +22,18 @@ export function figureText(value: number | null, unit: string): string {
   return formatFigure(value, unitOf(unit));
 }
 
-/** A magnitude text with its sign; no sign when it rounds to zero. */
-function signed(value: number, magnitudeText: string, zero: boolean): string {
-  if (zero) return magnitudeText;
-  return `${value > 0 ? '+' : MINUS}${magnitudeText}`;
-}
-
 /** The engine minus ngspice: "+0.9 %", "−0.4 dB", "+12 mV"; an em dash when either side is missing. */
 export function deltaText(figure: Pick<VerifiedFigure, 'delta' | 'deltaKind'>): string {
   const { delta, deltaKind } = figure;
   if (delta === null || !Number.isFinite(delta)) return '—';
-  if (deltaKind === 'volts') {
-    const text = formatQuantity(Math.abs(delta), 'V');
-    return signed(delta, text, Number(Math.abs(delta).toPrecision(3)) === 0);
-  }
-  const text = formatFixed(Math.abs(delta), 1);
-  const unit = deltaKind === 'percent' ? '%' : 'dB';
-  return signed(delta, `${text} ${unit}`, Number(text) === 0);
+  if (deltaKind === 'volts') return formatSignedQuantity(delta, 'V');
+  if (deltaKind === 'percent') return formatPercent(delta, { sign: 'exceptZero', trimZeros: false });
+  return formatDb(delta, { sign: 'exceptZero' });
 }
 
 /** The tolerance a difference is held to: "±3 %", "±1.5 dB", "±50 mV". */
 export function toleranceText(figure: Pick<VerifiedFigure, 'tolerance' | 'deltaKind'>): string {
-  if (figure.deltaKind === 'volts') return `±${formatQuantity(figure.tolerance, 'V')}`;
-  return `±${figure.tolerance} ${figure.deltaKind === 'percent' ? '%' : 'dB'}`;
+  return formatTolerance(figure.tolerance, DELTA_UNITS[figure.deltaKind]);
 }
 
 export interface VerdictLook {

@@ -5,6 +5,7 @@
  */
 import specSchema from '../../../../../shared/schema/spec.schema.json';
 import type { Spec } from '../../../../../shared/engine/types';
+import { formatTolerance } from '../../../../../shared/units/figures';
 import { formatValue } from './spec-changes';
 import { propertySchema, type SchemaNode } from './schema-nodes';
 import { SPEC_LAYOUT } from './spec-ui-schema';
@@ -27,7 +28,7 @@ const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'obj
 /** One value in words; a tolerance given as a fraction reads as "±1 %", a count or seed as a whole number. */
 function valueText(value: unknown, node: SchemaNode | undefined, name: string): string {
   if (typeof value === 'number' && node?.['x-unit'] === '1') {
-    if (name === 'tolerance') return `±${Number((value * 100).toPrecision(6))} %`;
+    if (name === 'tolerance') return formatTolerance(Number((value * 100).toPrecision(6)), '%');
     if (node.type === 'integer') return String(value);
   }
   return formatValue(value, node, name);

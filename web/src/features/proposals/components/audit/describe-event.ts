@@ -4,6 +4,7 @@
  */
 import type { ProposalState } from '../../../../../../shared/workflow/proposal-states';
 import type { AuditEvent, Proposal } from '../../../../lib/api-types';
+import { formatDb } from '../../../../../../shared/units/figures';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
 import { topologyTitle } from '../decision/design-fields';
 
@@ -97,7 +98,7 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
       const note =
         difference === null
           ? undefined
-          : `Measured ${Math.abs(difference) < 0.05 ? 'level with' : `${Math.abs(difference).toFixed(1)} dB ${difference < 0 ? 'below' : 'above'}`} the prediction${at} (an estimate).`;
+          : `Measured ${Math.abs(difference) < 0.05 ? 'level with' : `${formatDb(Math.abs(difference))} ${difference < 0 ? 'below' : 'above'}`} the prediction${at} (an estimate).`;
       return { what: `uploaded a bench measurement of ${quantity} (${points}${file}) for the ${topologyTitle(typeof details.topology === 'string' ? details.topology : undefined)}`, note };
     }
     default:

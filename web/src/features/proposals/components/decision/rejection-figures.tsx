@@ -1,6 +1,6 @@
 import { formatQuantity } from '../../../../../../shared/units/index';
 import type { OptionEvaluation } from '../../../../lib/api-types';
-import { formatDb, formatMargin, formatTargetDb } from '../../../../lib/figure-format';
+import { formatDb, formatMargin, formatTargetDb } from '../../../../../../shared/units/figures';
 
 /**
  * The checked option's rejection at the spec frequency at its worst corner: tail-limited, and for a

@@ -4,6 +4,7 @@
  * plain difference for dB and margins in volts).
  */
 import type { AnalyzeResult, OutputKind } from '../../../../../../shared/engine/types';
+import { formatSignedQuantity } from '../../../../../../shared/units/figures';
 import { formatQuantity } from '../../../../../../shared/units/index';
 
 export interface WhatIfFigure {
@@ -39,12 +40,9 @@ export function whatIfFigures(output: OutputKind): WhatIfFigure[] {
 export function changeText(figure: WhatIfFigure, ranked: number | null, edited: number | null): string | null {
   if (ranked === null || edited === null || !Number.isFinite(ranked) || !Number.isFinite(edited)) return null;
   if (formatQuantity(ranked, figure.unit) === formatQuantity(edited, figure.unit)) return 'no change';
-  const sign = (x: number) => (x > 0 ? '+' : '');
   if (figure.change === 'relative') {
     if (ranked === 0) return null;
-    const percent = ((edited - ranked) / Math.abs(ranked)) * 100;
-    return `${sign(percent)}${formatQuantity(percent, '%', 3)}`;
+    return formatSignedQuantity(((edited - ranked) / Math.abs(ranked)) * 100, '%');
   }
-  const difference = edited - ranked;
-  return `${sign(difference)}${formatQuantity(difference, figure.unit, 3)}`;
+  return formatSignedQuantity(edited - ranked, figure.unit);
 }

@@ -6,7 +6,7 @@
 import { createColumnHelper, type ColumnDef, type RowData } from '@tanstack/react-table';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
 import { OptionVerdict } from '../../../../components/ui/verdict';
-import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../../../lib/figure-format';
+import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../../../../../shared/units/figures';
 import { matchesTopologyText, rejectionColumns, type OptionRow, type RuledFigure, type SpecTargets } from '../../lib/option-rows';
 import { ColumnTitle } from './column-title';
 import { FigureCell } from './figure-cell';

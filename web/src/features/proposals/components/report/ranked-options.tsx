@@ -4,7 +4,7 @@ import { OptionVerdict } from '../../../../components/ui/verdict';
 import type { Proposal } from '../../../../lib/api-types';
 import { ColumnTitle } from '../ranking/column-title';
 import { FigureCell } from '../ranking/figure-cell';
-import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../../../lib/figure-format';
+import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../../../../../shared/units/figures';
 import { optionRows, outputRejectionNote, rejectionColumns, specTargets } from '../../lib/option-rows';
 
 function Head({ children, left }: { children: ReactNode; left?: boolean }) {

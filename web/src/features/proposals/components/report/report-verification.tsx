@@ -2,7 +2,7 @@ import type { MonteCarloVerificationResult, OptionVerification, ProposalVerifica
 import { Verdict } from '../../../../components/ui/verdict';
 import type { Proposal } from '../../../../lib/api-types';
 import { topologyName } from '../../../../lib/topology-names';
-import { formatPercent } from '../../../../lib/figure-format';
+import { formatDb, formatFixed, formatPercent, formatTargetDb } from '../../../../../../shared/units/figures';
 import { deltaText, toleranceText, verifiedValue } from '../../lib/report-format';
 import { ReportNote, ReportSubheading } from './report-section';
 import { freshness, freshnessText, UNBOUND_WORDS, type Freshness } from '../../../../../../shared/verification/binding';
@@ -184,11 +184,11 @@ function MonteCarloTable({ jobs, current }: { jobs: VerificationJobView[]; curre
                   {r.runs}
                   {r.failedRuns > 0 && ` (${r.failedRuns} failed)`}
                 </td>
-                <td className="px-1.5 py-1 text-right tabular-nums">≥ {r.requiredDb} dB</td>
+                <td className="px-1.5 py-1 text-right tabular-nums">≥ {formatTargetDb(r.requiredDb)}</td>
                 <td className="px-1.5 py-1 text-right tabular-nums">{formatPercent(r.simulated.yieldPercent)}</td>
                 <td className="px-1.5 py-1 text-right tabular-nums">{formatPercent(r.predicted.yieldPercent)}</td>
                 <td className="px-1.5 py-1 text-right tabular-nums">
-                  {r.simulated.percentilesDb.p1.toFixed(1)} / {r.predicted.percentilesDb.p1.toFixed(1)} dB
+                  {formatFixed(r.simulated.percentilesDb.p1, 1)} / {formatDb(r.predicted.percentilesDb.p1)}
                 </td>
               </tr>
             );

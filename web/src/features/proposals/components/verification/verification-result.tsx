@@ -4,7 +4,7 @@ import { formatQuantity } from '../../../../../../shared/units/format-quantity';
 import { Verdict } from '../../../../components/ui/verdict';
 import type { Proposal } from '../../../../lib/api-types';
 import { cn } from '../../../../lib/cn';
-import { formatDb } from '../../../../lib/figure-format';
+import { formatDb } from '../../../../../../shared/units/figures';
 import { durationText, optionVerdict, verificationTally, verifiedOptionKey, verifiedOptionName } from '../../lib/verification-format';
 import { rejectionComparisonPlot } from '../../lib/verification-plots';
 import { When } from '../audit/when';

@@ -10,7 +10,7 @@ import { formatQuantity } from '../../../../../../../shared/units/format-quantit
 import type { TopologyId } from '../../../../../../../shared/engine/types';
 import type { HistogramPlot, RejectionPlot } from '../../../lib/plot-data';
 import { decadeTicksHz } from '../../../../../lib/plot-axes';
-import { formatDb, formatPercent, formatTargetDb } from '../../../../../lib/figure-format';
+import { formatDb, formatPercent, formatTargetDb } from '../../../../../../../shared/units/figures';
 import { rejectionSummary } from '../../../lib/plot-summaries';
 import { monteCarloPlot } from '../../../lib/verification-plots';
 import { linearScale, linePath, logScale, niceDomain, niceTicks, stepPath } from '../../../lib/svg-scale';

@@ -8,7 +8,7 @@ import { useMemo } from 'react';
 import uPlot from 'uplot';
 import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
 import { mixHex } from '../../../../../lib/colour-mix';
-import { formatDb, formatTargetDb } from '../../../../../lib/figure-format';
+import { formatDb, formatTargetDb } from '../../../../../../../shared/units/figures';
 import type { MonteCarloPlot, RejectionComparisonPlot } from '../../../lib/verification-plots';
 import { frequencyPlotOptions, NO_ZOOM, numberAxis, roomyDbRange, valueAt } from '../../../../../components/charts/axes';
 import { ChartLegend, type LegendItem } from '../../../../../components/charts/chart-legend';
