@@ -17,8 +17,8 @@
  * terms, so it carries their rounding magnified); single-ended and differential CMRR 0.01 dB
  * (7.4e-5 dB); CMRR corner 1 % (0.26 %: ngspice's corner is interpolated between swept
  * frequencies, 50 per decade). The other bounds leave more than a hundredfold room above what
- * was measured, and every bound sits far below a model error of a percent or two (a thermal voltage 2 % off moves
- * every gain by about 2 %).
+ * was measured, and every bound sits far below a model error of a percent or two (a thermal
+ * voltage 2 % off moves every gain by about 2 %).
  */
 import { beforeAll, describe, expect, test } from 'vitest';
 import { analyze } from '../../shared/engine/analyze';
