@@ -45,8 +45,8 @@ const BOUNDARIES: Record<string, Boundary> = {
   'tail-current-drift': { kind: 'margin', fact: 'tailCurrentDriftMarginPercent', unit: '%' },
 };
 
-/** Margins tried on each side, in the rule's unit: a hundredth (the finest step a reason prints) and a millionth. */
-const STEPS = [0.01, 1e-6];
+/** Margins tried on each side, in the rule's unit: one unit, a hundredth (the finest step a reason prints) and a millionth. */
+const STEPS = [1, 0.01, 1e-6];
 
 const allRules = await loadRuleFiles();
 
