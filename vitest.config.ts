@@ -7,7 +7,8 @@ import { configDefaults, defineConfig } from 'vitest/config';
 // A third, `api-postgres`, exists only when LONGTAIL_TEST_DATABASE_URL names a PostgreSQL server
 // (scripts/start-test-postgres.sh prints one; .ci/run sets it): the API suite again, each test
 // file on its own new database there (tests/helpers/test-database.ts). Without the variable,
-// `npm test` runs the API suite on SQLite alone.
+// `npm test` runs the API suite on SQLite alone, and says so: a run that includes API test files
+// ends with one "PostgreSQL pass: on/off" line (tests/helpers/postgres-pass-reporter.ts).
 const postgresUrl = process.env.LONGTAIL_TEST_DATABASE_URL?.trim();
 const postgresProjects = postgresUrl
   ? [
@@ -28,6 +29,7 @@ export default defineConfig({
   test: {
     environment: 'node',
     testTimeout: 60000,
+    reporters: ['default', './tests/helpers/postgres-pass-reporter.ts'],
     projects: [
       {
         extends: true,

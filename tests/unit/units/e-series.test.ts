@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, test } from 'vitest';
 import type { ResistorSeries } from '../../../shared/engine/types';
 import { E_SERIES, isOnSeries, seriesTolerance, snapToSeries } from '../../../shared/units/e-series';
+import { logUniform } from '../../helpers/arbitraries';
 
 const SERIES: ResistorSeries[] = ['E24', 'E96', 'E192'];
 
@@ -111,12 +112,35 @@ describe('snapToSeries', () => {
     expect(() => snapToSeries(valueOhm, 'E24')).toThrow(RangeError);
   });
 
-  /** 10^x for x across 30 decades: log-uniform values, as resistances are spread. */
-  const logUniform = fc.double({ min: -9, max: 15, noNaN: true }).map((x) => 10 ** x);
+  // Between neighbours a and b the nearest in log distance changes at the geometric mean √(a·b),
+  // below the arithmetic mean (a + b)/2 (common practice for preferred numbers; members from
+  // [IEC60063]). Values between the two means snap upwards; each pair below sits on either side
+  // of √(a·b), computed by hand: √1.1 = 1.04881, √(9.1·10) = 9.53939, √(1.0·1.02) = 1.00995,
+  // √(9.76·10) = 9.87927, √(4.7·5.1) = 4.89592.
+  test.each([
+    [1048, 'E24', 1000],
+    [1049, 'E24', 1100], // above √1.1 kΩ = 1048.8 Ω, below the linear midpoint 1050 Ω
+    [1050, 'E24', 1100],
+    [9.539, 'E24', 9.1],
+    [9.54, 'E24', 10], // √(9.1·10) = 9.5394 < 9.54 < 9.55
+    [4.895e6, 'E24', 4.7e6],
+    [4.896e6, 'E24', 5.1e6], // √(4.7·5.1) MΩ = 4.8959 MΩ < 4.896 MΩ < 4.9 MΩ
+    [100.99, 'E96', 100],
+    [100.997, 'E96', 102], // √(1.00·1.02)·100 Ω = 100.995 Ω < 100.997 Ω < 101 Ω
+    [9879, 'E96', 9760],
+    [9879.5, 'E96', 10000], // √(9.76·10) kΩ = 9879.27 Ω < 9879.5 Ω < 9880 Ω
+    [0.0048959, 'E24', 0.0047],
+    [0.004896, 'E24', 0.0051],
+  ] as const)('%d Ω snaps to %s value %d Ω: the boundary is the geometric mean (common practice)', (valueOhm, series, expectedOhm) => {
+    expect(snapToSeries(valueOhm, series)).toBe(expectedOhm);
+  });
+
+  /** Log-uniform over 24 decades, drawn as a decade and a mantissa, as resistances are spread. */
+  const logUniformOhm = logUniform(-9, 15);
 
   test('the snapped value is on the series and no member is closer in log distance', () => {
     fc.assert(
-      fc.property(logUniform, fc.constantFrom(...SERIES), (valueOhm, series) => {
+      fc.property(logUniformOhm, fc.constantFrom(...SERIES), (valueOhm, series) => {
         const snappedOhm = snapToSeries(valueOhm, series);
         expect(isOnSeries(snappedOhm, series)).toBe(true);
         const bestDistance = Math.abs(Math.log(snappedOhm / valueOhm));
@@ -132,7 +156,7 @@ describe('snapToSeries', () => {
 
   test('snapping is idempotent', () => {
     fc.assert(
-      fc.property(logUniform, fc.constantFrom(...SERIES), (valueOhm, series) => {
+      fc.property(logUniformOhm, fc.constantFrom(...SERIES), (valueOhm, series) => {
         const snappedOhm = snapToSeries(valueOhm, series);
         expect(snapToSeries(snappedOhm, series)).toBe(snappedOhm);
       }),
