@@ -33,8 +33,8 @@ function parallelOhm(aOhm: number, bOhm: number): number {
   return (aOhm * bOhm) / (aOhm + bOhm);
 }
 
-/** How each textbook limit reads in a reason. */
-const FORMULAS: Record<RoutLimit['form'], string> = {
+/** How each textbook limit reads in a reason and in the docs. */
+export const ROUT_FORMULAS: Record<RoutLimit['form'], string> = {
   resistor: 'R',
   ro: 'ro',
   'degenerated-ro': 'ro·(1 + gm·(RE ∥ rπ))',
@@ -56,7 +56,7 @@ export function closedFormTailRout(
   };
   const finite = (x: number) => (Number.isFinite(x) ? x : null);
   const limit = TOPOLOGY_CATALOGUE[tail.topology].routLimit;
-  const formula = FORMULAS[limit.form];
+  const formula = ROUT_FORMULAS[limit.form];
   switch (limit.form) {
     case 'resistor':
       return { valueOhm: tailValueOhm(tail, limit.field), formula };

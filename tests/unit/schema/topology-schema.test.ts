@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, test } from 'vitest';
 import { TOPOLOGIES, TOPOLOGY_CATALOGUE } from '../../../shared/engine/topologies';
 import { designSchemaWithTopologies, specSchemaWithTopologies } from '../../../shared/schema/topology-schema';
-import { DESIGN_SCHEMA_PATH, SPEC_SCHEMA_PATH } from '../../../scripts/write-topology-schema';
+import { DESIGN_SCHEMA_PATH, SPEC_SCHEMA_PATH, TOPOLOGIES_DOC_PATH, tailTopologiesMarkdown } from '../../../scripts/write-topology-schema';
 
 type Node = Record<string, unknown> & { properties?: Record<string, Node>; oneOf?: Node[]; items?: Node };
 
@@ -33,5 +33,9 @@ describe('the schemas follow the topology catalogue', () => {
       expect(fields, id).toEqual([...new Set(TOPOLOGY_CATALOGUE[id].resistors.map((r) => r.field))]);
       expect(branch.required, id).toEqual(['topology', ...fields]);
     }
+  });
+
+  test('docs/tail-topologies.md is the catalogue as it stands', () => {
+    expect(readFileSync(TOPOLOGIES_DOC_PATH, 'utf8'), 'docs/tail-topologies.md drifted: run `npm run generate:topologies`').toBe(tailTopologiesMarkdown());
   });
 });
