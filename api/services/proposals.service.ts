@@ -24,7 +24,7 @@ import { auditView, recordEvent } from './audit.service';
 import { boundCurrentDesign, type BoundDecision } from '../verification/design-binding';
 import { designVerificationState } from './design-verification';
 import { currentDesignName, currentDesignSummary } from '../../shared/workflow/current-design';
-import { topologyName } from '../../shared/engine/topology-names';
+import { topologyName } from '../../shared/engine/topologies';
 import { libraryCardNetlistComment } from './devices.service';
 import { queueNotification } from './notifications.service';
 import { projectFor } from './projects.service';

@@ -43,7 +43,7 @@ import type { RecommendOption, RecommendResult } from '../../shared/engine/recom
 import type { Design, Spec } from '../../shared/engine/types';
 import type { DesignBinding } from '../../shared/verification/binding';
 import { designBinding } from './design-binding';
-import { topologyName } from '../../shared/engine/topology-names';
+import { topologyName } from '../../shared/engine/topologies';
 import {
   VERIFICATION_TOLERANCES,
   type MonteCarloVerificationResult,

@@ -1,9 +1,11 @@
 /**
  * Textbook limits of each tail's output resistance, kept beside the exact node solution for
- * explanations and sanity checks (DOMAIN.md, "Tail elements"). Each uses the output
+ * explanations and sanity checks (DOMAIN.md, "Tail elements"); which limit a topology has, and
+ * of which transistor, is in its catalogue entry (topologies.ts). Each uses the output
  * transistor's own operating point with SPICE's small-signal forms ro = (VAF + VCB)/IC,
  * rπ = BF·(1 + VCB/VAF)/gm [SPICE]; the formulas themselves are [GM].
  */
+import { TOPOLOGY_CATALOGUE, tailValueOhm, unhandledTopology, type RoutLimit } from './topologies';
 import type { TailDesign, TransistorOperatingPoint } from './types';
 
 export interface ClosedFormRout {
@@ -31,7 +33,15 @@ function parallelOhm(aOhm: number, bOhm: number): number {
   return (aOhm * bOhm) / (aOhm + bOhm);
 }
 
-/** The closed-form output resistance of a tail at its operating point. */
+/** How each textbook limit reads in a reason and in the docs. */
+export const ROUT_FORMULAS: Record<RoutLimit['form'], string> = {
+  resistor: 'R',
+  ro: 'ro',
+  'degenerated-ro': 'ro·(1 + gm·(RE ∥ rπ))',
+  'beta-ro-half': 'β·ro/2',
+};
+
+/** The closed-form output resistance of a tail at its operating point (the limit its catalogue entry names). */
 export function closedFormTailRout(
   tail: TailDesign,
   transistors: TransistorOperatingPoint[],
@@ -45,22 +55,20 @@ export function closedFormTailRout(
     return smallSignalOf(q, beta, earlyVoltageV, thermalVoltageV);
   };
   const finite = (x: number) => (Number.isFinite(x) ? x : null);
-  switch (tail.topology) {
+  const limit = TOPOLOGY_CATALOGUE[tail.topology].routLimit;
+  const formula = ROUT_FORMULAS[limit.form];
+  switch (limit.form) {
     case 'resistor':
-      return { valueOhm: tail.resistanceOhm, formula: 'R' };
-    case 'simple-mirror':
-      return { valueOhm: finite(byName('Q4').roOhm), formula: 'ro' };
-    case 'degenerated-mirror':
-    case 'widlar': {
-      const q4 = byName('Q4');
-      return {
-        valueOhm: finite(q4.roOhm * (1 + q4.gmS * parallelOhm(tail.emitterResistanceOhm, q4.rpiOhm))),
-        formula: 'ro·(1 + gm·(RE ∥ rπ))',
-      };
+      return { valueOhm: tailValueOhm(tail, limit.field), formula };
+    case 'ro':
+      return { valueOhm: finite(byName(limit.transistor).roOhm), formula };
+    case 'degenerated-ro': {
+      const q = byName(limit.transistor);
+      return { valueOhm: finite(q.roOhm * (1 + q.gmS * parallelOhm(tailValueOhm(tail, limit.emitterField), q.rpiOhm))), formula };
     }
-    case 'wilson':
-      return { valueOhm: finite((beta * byName('Q5').roOhm) / 2), formula: 'β·ro/2' };
-    case 'cascode':
-      return { valueOhm: finite((beta * byName('Q6').roOhm) / 2), formula: 'β·ro/2' };
+    case 'beta-ro-half':
+      return { valueOhm: finite((beta * byName(limit.transistor).roOhm) / 2), formula };
+    default:
+      return unhandledTopology(limit);
   }
 }

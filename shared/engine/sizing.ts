@@ -8,7 +8,8 @@ import { snapToSeries } from '../units/e-series';
 import { solveStage, type StageSolution } from './analyze';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
-import type { AnalyzeResult, Design, Spec, TailDesign, TopologyId } from './types';
+import { unhandledTopology, type TailDesign, type TopologyId } from './topologies';
+import type { AnalyzeResult, Design, Spec } from './types';
 
 /** Share of the power budget the sizing aims at, leaving room for corners and snapping (design choice). */
 export const POWER_USE_FRACTION = 0.8;
@@ -163,6 +164,8 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
       notes.push(`RE from Iout·RE = VT·ln(Iref/Iout), refined by solving the stage, snapped to ${ohms(re)} (${series}).`);
       return { topology, referenceResistanceOhm: rref, emitterResistanceOhm: re };
     }
+    default:
+      return unhandledTopology(topology);
   }
 }
 

@@ -1,10 +1,9 @@
 /**
- * The six tail elements of ENGINE-CONTRACT.md as circuit elements between the tail node `t`
- * and the negative rail, each with a hand-analysis starting guess for the solver.
- * To add a topology: add its id to TOPOLOGIES (types.ts), a builder here, a closed form in
- * closed-form.ts and a sizing entry in sizing.ts.
+ * The circuit stamp of each tail topology (the catalogue, topologies.ts): its elements between
+ * the tail node `t` and the negative rail, named as the catalogue names its parts, each with a
+ * hand-analysis starting guess for the solver.
  */
-import type { TailDesign } from './types';
+import { unhandledTopology, type TailDesign } from './topologies';
 import type { CircuitElement } from './circuit';
 
 const VP = 'vp';
@@ -120,5 +119,7 @@ export function tailElements(tail: TailDesign, ctx: TailGuessContext): TailEleme
         currentGuessA: refA,
       };
     }
+    default:
+      return unhandledTopology(tail);
   }
 }

@@ -4,16 +4,9 @@
  * fields may be added, never renamed. Every quantity is SI; names carry their unit.
  */
 
-/** Tail topologies in order of simplicity (the order "simplest-sufficient" walks). */
-export const TOPOLOGIES = [
-  'resistor',
-  'simple-mirror',
-  'degenerated-mirror',
-  'widlar',
-  'wilson',
-  'cascode',
-] as const;
-export type TopologyId = (typeof TOPOLOGIES)[number];
+/** Tail topologies (ids in order of simplicity, the tail's design type): the catalogue, topologies.ts. */
+export { TOPOLOGIES, type TailDesign, type TopologyId } from './topologies';
+import type { TailDesign, TopologyId } from './topologies';
 
 export interface DeviceParams {
   family: 'npn';
@@ -35,14 +28,6 @@ export interface Supply {
   positiveV: number;
   negativeV: number;
 }
-
-export type TailDesign =
-  | { topology: 'resistor'; resistanceOhm: number }
-  | { topology: 'simple-mirror'; referenceResistanceOhm: number }
-  | { topology: 'degenerated-mirror'; referenceResistanceOhm: number; emitterResistanceOhm: number }
-  | { topology: 'widlar'; referenceResistanceOhm: number; emitterResistanceOhm: number }
-  | { topology: 'wilson'; referenceResistanceOhm: number }
-  | { topology: 'cascode'; referenceResistanceOhm: number };
 
 /** `analyze` input: one fully sized emitter-coupled pair with its tail. */
 export interface Design {

@@ -7,7 +7,7 @@
  * in words. Pure: no I/O, no hashing (the browser compares the fingerprints the server sends).
  */
 import type { Design } from '../engine/types';
-import { topologyName } from '../engine/topology-names';
+import { topologyName } from '../engine/topologies';
 import { formatQuantity } from '../units/format-quantity';
 
 /** What a verification result is bound to. */

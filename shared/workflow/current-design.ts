@@ -6,7 +6,7 @@
  */
 import type { RecommendOption, RecommendResult } from '../engine/recommend';
 import type { Design } from '../engine/types';
-import { topologyName } from '../engine/topology-names';
+import { topologyName } from '../engine/topologies';
 import type { ProposalState } from './proposal-states';
 
 export type DecisionKind = 'accept' | 'choose' | 'override';

@@ -15,7 +15,7 @@ import { loadRuleSet } from '../../rules/index';
 import { SpiceEngine } from '../../api/verification/spice-engine';
 import { verifyOption } from '../../api/verification/verify-option';
 import { runMonteCarlo } from '../../api/verification/monte-carlo';
-import { topologyName } from '../../shared/engine/topology-names';
+import { topologyName } from '../../shared/engine/topologies';
 
 const WARM_RUNS = 5;
 const MONTE_CARLO_RUNS = 200;

@@ -33,9 +33,9 @@ describe('readableChanges', () => {
         path: '/topologies',
         label: 'Options › Tail options',
         kind: 'changed',
-        before: 'Resistor, Wilson, Cascode',
-        after: 'Resistor, Cascode',
-        detail: 'Wilson left out',
+        before: 'Resistor, Wilson mirror, Cascode mirror',
+        after: 'Resistor, Cascode mirror',
+        detail: 'Wilson mirror left out',
       },
     ]);
   });

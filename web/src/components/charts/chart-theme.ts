@@ -1,10 +1,11 @@
 /**
  * Plot colours from the app's palette (the CSS custom properties Tailwind emits for app.css's
  * @theme), never the status hues (holds/short) so a line's colour is not read as a verdict; each
- * topology has its own dash so lines stay apart without colour. Dark theme: the
- * night tokens, and the accent hues lifted toward the night ink so they read on the dark sheet.
+ * topology has its own dash so lines stay apart without colour (tone and dash per topology: the
+ * catalogue, shared/engine/topologies.ts). Dark theme: the night tokens, and the accent hues
+ * lifted toward the night ink so they read on the dark sheet.
  */
-import type { TopologyId } from '../../../../shared/engine/types';
+import { TOPOLOGIES, TOPOLOGY_CATALOGUE, type PlotTone, type TopologyId } from '../../../../shared/engine/topologies';
 import { mixHex } from '../../lib/colour-mix';
 
 /** Fallbacks equal to app.css, used when a token cannot be read. */
@@ -38,6 +39,16 @@ export interface ChartTheme {
   topology: Record<TopologyId, { stroke: string; dash: number[] }>;
 }
 
+/** Each topology's line: the catalogue's tone in this theme's colour, and its dash. */
+function topologyLines(tones: Record<PlotTone, string>): ChartTheme['topology'] {
+  return Object.fromEntries(
+    TOPOLOGIES.map((id) => {
+      const { tone, dash } = TOPOLOGY_CATALOGUE[id].plotLine;
+      return [id, { stroke: tones[tone], dash: [...dash] }];
+    }),
+  ) as ChartTheme['topology'];
+}
+
 export function chartTheme(dark: boolean): ChartTheme {
   const ink = token(dark ? 'night-ink' : 'ink');
   const lift = (hex: string, t: number) => (dark ? mixHex(hex, ink, t) : hex);
@@ -53,13 +64,6 @@ export function chartTheme(dark: boolean): ChartTheme {
     note,
     font: '11px Lexend, system-ui, sans-serif',
     labelFont: '12px Lexend, system-ui, sans-serif',
-    topology: {
-      resistor: { stroke: inkSoft, dash: [2, 3] },
-      'simple-mirror': { stroke: note, dash: [8, 4] },
-      'degenerated-mirror': { stroke: note, dash: [12, 4, 2, 4] },
-      widlar: { stroke: fern, dash: [5, 3] },
-      wilson: { stroke: ink, dash: [10, 3] },
-      cascode: { stroke: fern, dash: [] },
-    },
+    topology: topologyLines({ ink, 'ink-soft': inkSoft, note, accent: fern }),
   };
 }

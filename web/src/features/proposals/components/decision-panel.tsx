@@ -8,7 +8,7 @@ import { When } from './audit/when';
 import { decisionKindWords, latestDecision } from './decision/decided-option';
 import { DecisionForm } from './decision/decision-form';
 import { DecisionSummary } from './decision/decision-summary';
-import { topologyTitle } from './decision/design-fields';
+import { topologyName } from '../../../lib/topology-names';
 
 /** The designer's decision: accept, choose another option, or override with own values (with a live what-if). */
 export function DecisionPanel({ proposal, user }: { proposal: Proposal; user: User }) {
@@ -38,7 +38,7 @@ export function DecisionPanel({ proposal, user }: { proposal: Proposal; user: Us
         <EmptyState title="No decision yet">The proposal waits for a designer to accept the recommendation, choose another option or use own values.</EmptyState>
       ) : reviewsNow ? (
         <p className="text-sm">
-          {nameOf(decision.decidedById)} {decisionKindWords(decision.kind, proposal)} ({topologyTitle(decision.topology)}) on <When iso={decision.createdAt} />. It is yours to review below.
+          {nameOf(decision.decidedById)} {decisionKindWords(decision.kind, proposal)} ({topologyName(decision.topology)}) on <When iso={decision.createdAt} />. It is yours to review below.
         </p>
       ) : (
         <DecisionSummary proposal={proposal} decision={decision} nameOf={nameOf} />

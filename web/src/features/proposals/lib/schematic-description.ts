@@ -1,37 +1,13 @@
 /** The words behind the schematic (its aria-label): the circuit of ENGINE-CONTRACT.md, with values. */
 import type { Design, TailDesign } from '../../../../../shared/engine/types';
 import { formatQuantity } from '../../../../../shared/units/format-quantity';
-import { topologyName } from '../../../lib/topology-names';
+import { TOPOLOGY_CATALOGUE, tailValueOhm, topologyName, type TailField } from '../../../../../shared/engine/topologies';
 
 const ohm = (valueOhm: number) => formatQuantity(valueOhm, 'Ohm');
 
+/** The tail's circuit in the catalogue's words, each `{field}` filled with its value. */
 function tailWords(tail: TailDesign): string {
-  switch (tail.topology) {
-    case 'resistor':
-      return `resistor RT ${ohm(tail.resistanceOhm)} from t to V−`;
-    case 'simple-mirror':
-      return `Q3 diode-connected, fed from V+ through RREF ${ohm(tail.referenceResistanceOhm)}; Q4 shares Q3's base, collector at t; both emitters at V−`;
-    case 'degenerated-mirror':
-      return (
-        `Q3 diode-connected, fed from V+ through RREF ${ohm(tail.referenceResistanceOhm)}; Q4 shares Q3's base, collector at t; ` +
-        `emitter resistors RE3 and RE4 ${ohm(tail.emitterResistanceOhm)} each to V−`
-      );
-    case 'widlar':
-      return (
-        `Q3 diode-connected, fed from V+ through RREF ${ohm(tail.referenceResistanceOhm)}, emitter at V−; Q4 shares Q3's base, collector at t, ` +
-        `emitter through RE4 ${ohm(tail.emitterResistanceOhm)} to V−`
-      );
-    case 'wilson':
-      return (
-        `Q3 collector fed from V+ through RREF ${ohm(tail.referenceResistanceOhm)}, emitter at V−; Q5 collector at t, base at Q3's collector, emitter at node x; ` +
-        `Q4 diode-connected at x, emitter at V−; Q3's base tied to x`
-      );
-    case 'cascode':
-      return (
-        `mirror Q3 (diode-connected) and Q4 at the bottom, emitters at V−; Q5 diode-connected on Q3, fed from V+ through RREF ${ohm(tail.referenceResistanceOhm)}; ` +
-        `Q6 on Q4 with its base tied to Q5's base, collector at t`
-      );
-  }
+  return TOPOLOGY_CATALOGUE[tail.topology].circuitWords.replace(/\{(\w+)\}/g, (_, field: TailField) => ohm(tailValueOhm(tail, field)));
 }
 
 /** A sentence describing the whole stage with its sized values. */

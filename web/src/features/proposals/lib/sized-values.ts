@@ -1,9 +1,11 @@
 /**
  * The resistors of a sized design, named as the schematic names them: RC1/RC2 (collector loads),
  * RE1/RE2 (pair degeneration), RT (resistor tail), RREF (mirror reference), RE3/RE4 (mirror
- * emitters). Pure: the detail panel and the schematic both read it.
+ * emitters; the tail's names and roles are the catalogue's, shared/engine/topologies.ts). Pure:
+ * the detail panel and the schematic both read it.
  */
 import type { Design, ResistorSeries } from '../../../../../shared/engine/types';
+import { TOPOLOGY_CATALOGUE, tailValueOhm } from '../../../../../shared/engine/topologies';
 import { isOnSeries } from '../../../../../shared/units/e-series';
 
 export interface SizedResistor {
@@ -26,21 +28,8 @@ export function sizedResistors(design: Design): SizedResistor[] {
         ];
   const reOhm = design.pairEmitterResistanceOhm ?? 0;
   if (reOhm > 0) rows.push({ names: ['RE1', 'RE2'], valueOhm: reOhm, role: 'Pair emitter degeneration' });
-  const tail = design.tail;
-  switch (tail.topology) {
-    case 'resistor':
-      rows.push({ names: ['RT'], valueOhm: tail.resistanceOhm, role: 'Tail resistor, t to V−' });
-      break;
-    case 'degenerated-mirror':
-      rows.push({ names: ['RREF'], valueOhm: tail.referenceResistanceOhm, role: 'Reference, V+ to Q3' });
-      rows.push({ names: ['RE3', 'RE4'], valueOhm: tail.emitterResistanceOhm, role: 'Mirror emitter resistors' });
-      break;
-    case 'widlar':
-      rows.push({ names: ['RREF'], valueOhm: tail.referenceResistanceOhm, role: 'Reference, V+ to Q3' });
-      rows.push({ names: ['RE4'], valueOhm: tail.emitterResistanceOhm, role: 'Widlar emitter resistor of Q4' });
-      break;
-    default:
-      rows.push({ names: ['RREF'], valueOhm: tail.referenceResistanceOhm, role: 'Reference, V+ to Q3' });
+  for (const resistor of TOPOLOGY_CATALOGUE[design.tail.topology].resistors) {
+    rows.push({ names: [...resistor.names], valueOhm: tailValueOhm(design.tail, resistor.field), role: resistor.role });
   }
   return rows;
 }

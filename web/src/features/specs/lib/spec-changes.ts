@@ -72,7 +72,7 @@ function spread(change: JsonChange): JsonChange[] {
   );
 }
 
-/** "Wilson left out; Cascode added": the members a list lost and gained. */
+/** "Wilson mirror left out; Cascode mirror added": the members a list lost and gained. */
 function listDetail(before: unknown, after: unknown, node: SchemaNode | undefined, name: string): string | undefined {
   if (!Array.isArray(before) || !Array.isArray(after)) return undefined;
   const items = schemaOfItems(node);

@@ -6,6 +6,7 @@
 import type { UiSchema } from '@rjsf/utils';
 import type { FormLayout } from '../../../components/forms/object-field-template';
 import type { SchemaNode } from './schema-nodes';
+import { TOPOLOGIES, topologyName } from '../../../../../shared/engine/topologies';
 
 export const SPEC_LAYOUT: FormLayout = {
   lead: ['title'],
@@ -24,14 +25,8 @@ export const SPEC_LAYOUT: FormLayout = {
   ],
 };
 
-export const TOPOLOGY_WORDS: Record<string, string> = {
-  resistor: 'Resistor',
-  'simple-mirror': 'Simple mirror',
-  'degenerated-mirror': 'Degenerated mirror',
-  widlar: 'Widlar',
-  wilson: 'Wilson',
-  cascode: 'Cascode',
-};
+/** The tail options' names: the catalogue's, as on every other page. */
+export const TOPOLOGY_WORDS: Record<string, string> = Object.fromEntries(TOPOLOGIES.map((id) => [id, topologyName(id)]));
 
 /** Words for enum values, by property name; also used to print values in the version history. */
 export const ENUM_WORDS: Record<string, Record<string, string>> = {

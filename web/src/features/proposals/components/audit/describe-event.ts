@@ -6,7 +6,7 @@ import type { ProposalState } from '../../../../../../shared/workflow/proposal-s
 import type { AuditEvent, Proposal } from '../../../../lib/api-types';
 import { formatDb } from '../../../../../../shared/units/figures';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
-import { topologyTitle } from '../decision/design-fields';
+import { topologyName } from '../../../../lib/topology-names';
 
 export interface EventWords {
   /** What happened, after the actor's name: "decided: own values (Degenerated mirror)". */
@@ -32,7 +32,7 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
   const transition = { from: asState(details.from), to: asState(details.to) };
   switch (event.action) {
     case 'proposal.ranked': {
-      const recommended = typeof details.recommended === 'string' ? topologyTitle(details.recommended) : null;
+      const recommended = typeof details.recommended === 'string' ? topologyName(details.recommended) : null;
       const version = details.specVersion !== undefined ? ` spec version ${String(details.specVersion)}` : ' the spec';
       return {
         what: `asked for a proposal of${version}: ranked by the engine; ${recommended ? `recommended: ${recommended}` : 'no option passes every blocking check, so nothing is recommended'}`,
@@ -42,7 +42,7 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
     case 'proposal.decided': {
       const decision = proposal?.decisions.find((d) => d.id === event.entityId);
       const kind = typeof details.kind === 'string' ? details.kind : (decision?.kind ?? '');
-      const topology = topologyTitle(typeof details.topology === 'string' ? details.topology : decision?.topology);
+      const topology = topologyName(typeof details.topology === 'string' ? details.topology : decision?.topology);
       const words = kind === 'choose' && proposal && !proposal.result.recommended ? `decided: chose a ranked option, none being recommended (${topology})` : (DECIDED_WORDS[kind]?.(topology) ?? `decided (${topology})`);
       const note = kind === 'override' && typeof details.passes === 'boolean' ? (details.passes ? 'The server’s checks: passes every blocking check.' : 'The server’s checks: short on at least one blocking check.') : undefined;
       return { what: words, quote: decision?.reason ? { label: 'Reason', text: decision.reason } : undefined, note, ...transition };
@@ -51,7 +51,7 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
     case 'proposal.approved': {
       const review = proposal?.reviews.find((r) => r.id === event.entityId);
       const approved = event.action === 'proposal.approved';
-      const topology = typeof details.topology === 'string' ? ` (${topologyTitle(details.topology)}${details.ownValues === true ? ', own values' : ''})` : '';
+      const topology = typeof details.topology === 'string' ? ` (${topologyName(details.topology)}${details.ownValues === true ? ', own values' : ''})` : '';
       const jobId = typeof details.verificationJobId === 'number' ? details.verificationJobId : null;
       const note = !approved
         ? undefined
@@ -80,14 +80,14 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
     case 'proposal.verification-withdrawn': {
       const which =
         details.kind === 'monte-carlo'
-          ? `the SPICE Monte Carlo of the ${topologyTitle(typeof details.topology === 'string' ? details.topology : undefined)}`
+          ? `the SPICE Monte Carlo of the ${topologyName(typeof details.topology === 'string' ? details.topology : undefined)}`
           : 'the SPICE check of every option';
       return { what: `withdrew ${which} while it was ${details.was === 'simulating' ? 'simulating' : 'waiting'}` };
     }
     case 'proposal.monte-carlo-requested': {
       const runs = typeof details.runs === 'number' ? `${details.runs} runs` : 'runs';
       const own = details.source === 'decision' ? ' decided design, ' : ' ';
-      return { what: `asked for a SPICE Monte Carlo of the${own}${topologyTitle(typeof details.topology === 'string' ? details.topology : undefined)} (${runs})` };
+      return { what: `asked for a SPICE Monte Carlo of the${own}${topologyName(typeof details.topology === 'string' ? details.topology : undefined)} (${runs})` };
     }
     case 'measurement.uploaded': {
       const quantity = details.kind === 'gain' ? 'gain' : 'rejection';
@@ -99,7 +99,7 @@ export function describeEvent(event: AuditEvent, proposal: Proposal | undefined)
         difference === null
           ? undefined
           : `Measured ${Math.abs(difference) < 0.05 ? 'level with' : `${formatDb(Math.abs(difference))} ${difference < 0 ? 'below' : 'above'}`} the prediction${at} (an estimate).`;
-      return { what: `uploaded a bench measurement of ${quantity} (${points}${file}) for the ${topologyTitle(typeof details.topology === 'string' ? details.topology : undefined)}`, note };
+      return { what: `uploaded a bench measurement of ${quantity} (${points}${file}) for the ${topologyName(typeof details.topology === 'string' ? details.topology : undefined)}`, note };
     }
     default:
       return { what: event.action.replace(/[.-]/g, ' '), ...transition };

@@ -7,13 +7,13 @@ import { cn } from '../../../../lib/cn';
 import { blockingFailures } from './decided-option';
 import type { DecisionKind } from './decision-draft';
 import { choosableOptions } from './decision-draft';
-import { topologyTitle } from './design-fields';
+import { topologyName } from '../../../../lib/topology-names';
 
 /** One ranked option in words: "#2 Wilson mirror — passes" or "— short on 1 blocking check". */
 export function optionLabel(option: OptionEvaluation): string {
   const failures = blockingFailures(option);
   const outcome = !option.design ? 'could not be sized' : option.passes ? 'passes' : `short on ${failures} blocking check${failures === 1 ? '' : 's'}`;
-  return `#${option.rank} ${topologyTitle(option.topology)} — ${outcome}`;
+  return `#${option.rank} ${topologyName(option.topology)} — ${outcome}`;
 }
 
 /** The three ways to decide, as one radio group; the chosen way's own controls open beneath it. */
@@ -44,7 +44,7 @@ export function ChoiceOptions({
       <Choice name={name} value="accept" kind={kind} onKindChange={onKindChange} disabled={!recommended} title="Accept the recommendation">
         {recommendedOption ? (
           <>
-            {topologyTitle(recommended)}: {proposal.result.summary.replace(/^[a-z-]+: /, '')}
+            {topologyName(recommended)}: {proposal.result.summary.replace(/^[a-z-]+: /, '')}
           </>
         ) : (
           <>No option passes every blocking check, so there is nothing to accept: choose an option anyway (and say why) or use your own values.</>

@@ -4,7 +4,7 @@ import { CheckList } from '../review/check-list';
 import { When } from '../audit/when';
 import { blockingFailures, decidedOption, decisionKindWords, rankedOption } from './decided-option';
 import { DesignValues } from './design-values';
-import { topologyTitle } from './design-fields';
+import { topologyName } from '../../../../lib/topology-names';
 
 /**
  * One decision, read-only: who decided what and when, the reason, the values, and for an
@@ -18,7 +18,7 @@ export function DecisionSummary({ proposal, decision, nameOf, showChecks = true 
   return (
     <article className="space-y-3" aria-label={`Decision ${number}`}>
       <p className="text-sm">
-        <span className="font-medium">{nameOf(decision.decidedById)}</span> {decisionKindWords(decision.kind, proposal)}: <span className="font-medium">{topologyTitle(decision.topology)}</span>
+        <span className="font-medium">{nameOf(decision.decidedById)}</span> {decisionKindWords(decision.kind, proposal)}: <span className="font-medium">{topologyName(decision.topology)}</span>
         {decision.kind === 'choose' && ranked && (
           <span className="text-ink-soft dark:text-night-ink-soft">
             {' '}

@@ -3,7 +3,8 @@
  * truth): their titles, units and limits, and which tail fields each topology has.
  */
 import designSchema from '../../../../../../shared/schema/design.schema.json';
-import { TOPOLOGIES, type Design, type TopologyId } from '../../../../../../shared/engine/types';
+import type { Design } from '../../../../../../shared/engine/types';
+import type { TopologyId } from '../../../../../../shared/engine/topologies';
 import { typicalRangeOf, type TypicalRange } from '../../../../../../shared/units/plausibility';
 
 /** A field's key is its JSON path in the design without the leading slash ("tail/emitterResistanceOhm"). */
@@ -60,12 +61,6 @@ function branchOf(topology: TopologyId): BranchSchema {
   return branch;
 }
 
-/** Plain names of the tail topologies ("Wilson mirror"), in the engine's order of simplicity. */
-export const TOPOLOGY_TITLES = Object.fromEntries(TOPOLOGIES.map((t) => [t, branchOf(t).title])) as Record<TopologyId, string>;
-
-export function topologyTitle(topology: string | null | undefined): string {
-  return topology && topology in TOPOLOGY_TITLES ? TOPOLOGY_TITLES[topology as TopologyId] : (topology ?? '—');
-}
 
 /** The pair's fields, the same for every topology. */
 export const PAIR_FIELDS: FieldInfo[] = [

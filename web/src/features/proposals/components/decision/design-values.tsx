@@ -1,6 +1,7 @@
 import type { Design } from '../../../../../../shared/engine/types';
 import { Quantity } from '../../../../components/ui/quantity';
-import { fieldValue, fieldsFor, topologyTitle } from './design-fields';
+import { fieldValue, fieldsFor } from './design-fields';
+import { topologyName } from '../../../../lib/topology-names';
 
 /** A design's resistor values, each beside the ranked option's when they differ. */
 export function DesignValues({ design, compareWith }: { design: Design; compareWith?: Design | null }) {
@@ -8,7 +9,7 @@ export function DesignValues({ design, compareWith }: { design: Design; compareW
   return (
     <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
       <dt className="text-ink-soft dark:text-night-ink-soft">Tail topology</dt>
-      <dd>{topologyTitle(design.tail.topology)}</dd>
+      <dd>{topologyName(design.tail.topology)}</dd>
       {fields.map((info) => {
         const value = fieldValue(design, info.key);
         const ranked = compareWith && compareWith.tail.topology === design.tail.topology ? fieldValue(compareWith, info.key) : undefined;

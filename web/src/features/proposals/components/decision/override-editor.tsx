@@ -3,7 +3,8 @@ import type { Design, TopologyId } from '../../../../../../shared/engine/types';
 import { formatQuantity } from '../../../../../../shared/units/index';
 import { Button } from '../../../../components/ui/button';
 import type { OptionEvaluation, Proposal } from '../../../../lib/api-types';
-import { fieldValue, PAIR_FIELDS, tailFields, topologyTitle, type FieldInfo, type FieldKey } from './design-fields';
+import { fieldValue, PAIR_FIELDS, tailFields, type FieldInfo, type FieldKey } from './design-fields';
+import { topologyName } from '../../../../lib/topology-names';
 import { FullCheckPanel } from './full-check-panel';
 import { designFromDraft, draftFromDesign, fieldErrorsOf, readDraft, withTopology, type FieldReading, type OverrideDraft } from './override-draft';
 import { QuantityField } from './quantity-field';
@@ -71,14 +72,14 @@ export function OverrideEditor({
           >
             {options.map((o) => (
               <option key={o.topology} value={o.topology}>
-                {topologyTitle(o.topology)}
+                {topologyName(o.topology)}
               </option>
             ))}
           </select>
         </div>
         {ranked?.design && (
           <Button variant="secondary" onClick={() => onDraftChange(draftFromDesign(ranked.design!))}>
-            Reset every value to the ranked {topologyTitle(draft.topology).toLowerCase()}
+            Reset every value to the ranked {topologyName(draft.topology).toLowerCase()}
           </Button>
         )}
       </div>
@@ -98,7 +99,7 @@ export function OverrideEditor({
         {PAIR_FIELDS.map(fieldFor)}
       </fieldset>
       <fieldset className="grid max-w-2xl gap-x-4 gap-y-2 sm:grid-cols-2">
-        <legend className="mb-1 text-xs font-medium tracking-wide text-ink-soft uppercase dark:text-night-ink-soft">Tail: {topologyTitle(draft.topology)}</legend>
+        <legend className="mb-1 text-xs font-medium tracking-wide text-ink-soft uppercase dark:text-night-ink-soft">Tail: {topologyName(draft.topology)}</legend>
         {tailFields(draft.topology).map(fieldFor)}
       </fieldset>
       <HeldConditions design={draft.base} />
@@ -117,7 +118,7 @@ function PairHint({ ranked, onUse }: { ranked: OptionEvaluation & { design: Desi
   const values = PAIR_FIELDS.map((f) => `${f.title.toLowerCase()} ${formatQuantity(fieldValue(ranked.design, f.key) ?? 0, f.unit, 4)}`).join(' and ');
   return (
     <p className="rounded-md bg-note-soft p-2 text-xs text-note dark:bg-note/20 dark:text-note-bright">
-      The ranked {topologyTitle(ranked.topology).toLowerCase()} was sized with {values}; your pair values differ.{' '}
+      The ranked {topologyName(ranked.topology).toLowerCase()} was sized with {values}; your pair values differ.{' '}
       <button type="button" className="font-medium underline" onClick={onUse}>
         Use its pair values
       </button>

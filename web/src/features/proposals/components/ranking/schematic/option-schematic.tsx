@@ -1,4 +1,6 @@
-import type { Design, TailDesign } from '../../../../../../../shared/engine/types';
+import type { ComponentType } from 'react';
+import type { Design } from '../../../../../../../shared/engine/types';
+import type { TailDesign, TailOf, TopologyId } from '../../../../../../../shared/engine/topologies';
 import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
 import { schematicDescription } from '../../../lib/schematic-description';
 import { CascodeTail } from './cascode-tail';
@@ -11,21 +13,22 @@ import { SimpleMirrorTail } from './simple-mirror-tail';
 import { WidlarTail } from './widlar-tail';
 import { WilsonTail } from './wilson-tail';
 
+/**
+ * One drawing per tail topology, each given its own tail's values; typed over every topology id,
+ * so a topology of the catalogue without a drawing fails to compile.
+ */
+const TAIL_DRAWINGS: { [K in TopologyId]: ComponentType<TailOf<K>> } = {
+  resistor: ResistorTail,
+  'simple-mirror': SimpleMirrorTail,
+  'degenerated-mirror': DegeneratedMirrorTail,
+  widlar: WidlarTail,
+  wilson: WilsonTail,
+  cascode: CascodeTail,
+};
+
 function TailDrawing({ tail }: { tail: TailDesign }) {
-  switch (tail.topology) {
-    case 'resistor':
-      return <ResistorTail resistanceOhm={tail.resistanceOhm} />;
-    case 'simple-mirror':
-      return <SimpleMirrorTail referenceResistanceOhm={tail.referenceResistanceOhm} />;
-    case 'degenerated-mirror':
-      return <DegeneratedMirrorTail {...tail} />;
-    case 'widlar':
-      return <WidlarTail {...tail} />;
-    case 'wilson':
-      return <WilsonTail referenceResistanceOhm={tail.referenceResistanceOhm} />;
-    case 'cascode':
-      return <CascodeTail referenceResistanceOhm={tail.referenceResistanceOhm} />;
-  }
+  const Drawing = TAIL_DRAWINGS[tail.topology] as ComponentType<TailDesign>;
+  return <Drawing {...tail} />;
 }
 
 /**

@@ -1,0 +1,94 @@
+/**
+ * The topology parts of the two schemas, built from the tail-topology catalogue
+ * (shared/engine/topologies.ts): the design schema's tail branches (one per topology, titled with
+ * its name, with its resistor fields) and the spec schema's list of tail options (every id, in
+ * simplicity order, all chosen by default). `npm run generate:topologies` writes them into
+ * design.schema.json and spec.schema.json; topology-schema.test.ts fails when the files drift.
+ * Pure.
+ */
+import { TOPOLOGIES, TOPOLOGY_CATALOGUE, tailFieldsOf, type TailField, type TopologyId } from '../engine/topologies';
+
+type SchemaNode = Record<string, unknown>;
+
+/** The largest resistance any field allows, ohms (1 GΩ). */
+const MAX_RESISTANCE_OHM = 1e9;
+
+/** The `topology` property of every tail branch; its `const` is the branch's id. */
+const TOPOLOGY_PROPERTY = {
+  type: 'string',
+  title: 'Tail topology',
+  description: 'Which tail element sits between the tail node and the negative rail.',
+};
+
+/** Each tail resistor field as the design schema states it: title, description, unit, usual range, limits. */
+const TAIL_FIELD_SCHEMAS: Record<TailField, SchemaNode> = {
+  resistanceOhm: {
+    type: 'number',
+    title: 'Tail resistor',
+    description: 'Resistor from the tail node to the negative rail, in ohms (Ω); more than 0, up to 1 GΩ.',
+    'x-unit': 'Ω',
+    'x-typical': { min: 100, max: 1e7 },
+    exclusiveMinimum: 0,
+    maximum: MAX_RESISTANCE_OHM,
+  },
+  referenceResistanceOhm: {
+    type: 'number',
+    title: 'Reference resistor',
+    description: "Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); more than 0, up to 1 GΩ.",
+    'x-unit': 'Ω',
+    'x-typical': { min: 100, max: 1e7 },
+    exclusiveMinimum: 0,
+    maximum: MAX_RESISTANCE_OHM,
+  },
+  emitterResistanceOhm: {
+    type: 'number',
+    title: 'Mirror emitter resistor',
+    description:
+      'Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); more than 0, up to 1 GΩ.',
+    'x-unit': 'Ω',
+    'x-typical': { min: 1, max: 1e6 },
+    exclusiveMinimum: 0,
+    maximum: MAX_RESISTANCE_OHM,
+  },
+};
+
+/** One topology's branch of the design schema's `tail.oneOf`. */
+export function tailBranchSchema(id: TopologyId): SchemaNode {
+  const fields = tailFieldsOf(id);
+  return {
+    type: 'object',
+    title: TOPOLOGY_CATALOGUE[id].name,
+    additionalProperties: false,
+    required: ['topology', ...fields],
+    properties: {
+      topology: { type: TOPOLOGY_PROPERTY.type, const: id, title: TOPOLOGY_PROPERTY.title, description: TOPOLOGY_PROPERTY.description },
+      ...Object.fromEntries(fields.map((field) => [field, TAIL_FIELD_SCHEMAS[field]])),
+    },
+  };
+}
+
+/** The design schema's tail branches, in simplicity order. */
+export function tailBranchesSchema(): SchemaNode[] {
+  return TOPOLOGIES.map(tailBranchSchema);
+}
+
+/** The spec schema's `topologies` items and default: every id, in simplicity order. */
+export function specTopologyChoices(): { items: SchemaNode; default: string[] } {
+  return { items: { type: 'string', enum: [...TOPOLOGIES] }, default: [...TOPOLOGIES] };
+}
+
+function propertiesOf(schema: SchemaNode): Record<string, SchemaNode> {
+  return schema.properties as Record<string, SchemaNode>;
+}
+
+/** A copy of the design schema with its tail branches from the catalogue (everything else kept). */
+export function designSchemaWithTopologies(designSchema: SchemaNode): SchemaNode {
+  const properties = propertiesOf(designSchema);
+  return { ...designSchema, properties: { ...properties, tail: { ...properties.tail, oneOf: tailBranchesSchema() } } };
+}
+
+/** A copy of the spec schema with its tail options from the catalogue (everything else kept). */
+export function specSchemaWithTopologies(specSchema: SchemaNode): SchemaNode {
+  const properties = propertiesOf(specSchema);
+  return { ...specSchema, properties: { ...properties, topologies: { ...properties.topologies, ...specTopologyChoices() } } };
+}
