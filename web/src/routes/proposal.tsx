@@ -1,6 +1,5 @@
-import type { QueryClient } from '@tanstack/react-query';
 import { useSuspenseQuery } from '@tanstack/react-query';
-import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import { StateBadge } from '../components/ui/state-badge';
 import { PageHeader } from '../components/ui/page-header';
 import { AfterFirstPaint } from '../components/ui/deferred';
@@ -24,17 +23,7 @@ import { proposalCurrentDesign } from '../features/proposals/lib/current-design'
 import { currentDesignName, currentDesignRole } from '../../../shared/workflow/current-design';
 import { formatDateTime } from '../lib/dates';
 
-export const loader =
-  (queryClient: QueryClient) =>
-  async ({ params }: LoaderFunctionArgs) => {
-    // Both asked at once; the spec schema is waited for only when the page shows it (a newer spec version).
-    const schema = queryClient.ensureQueryData(specSchemaQuery());
-    const proposal = await queryClient.ensureQueryData(proposalQuery(Number(params.proposalId)));
-    if (proposal.specMovedOn) await schema;
-    else schema.catch(() => undefined);
-    return null;
-  };
-
+/** The ranking page; its loader is in ./proposal-loader.ts, which the router keeps in the entry chunk. */
 export function Component() {
   const proposalId = Number(useParams().proposalId);
   const { data: proposal } = useSuspenseQuery(proposalQuery(proposalId));
