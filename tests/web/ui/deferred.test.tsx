@@ -1,7 +1,7 @@
 // @vitest-environment jsdom
 /**
  * Deferred mounting on the proposal page: a part behind `AfterFirstPaint` mounts one frame after
- * its parent (the first paint has happened by then); a plot behind `WhenNearView` mounts when its
+ * its parent (the first paint has happened by then), or after a second in a background tab; a plot behind `WhenNearView` mounts when its
  * place comes near the viewport, when the browser is idle, or when the page is printed, whichever
  * is first, and a browser without IntersectionObserver shows it at once.
  */
@@ -35,6 +35,25 @@ describe('AfterFirstPaint', () => {
     expect(screen.queryByText('detail')).toBeNull();
     expect(await screen.findByText('detail')).toBeTruthy();
     expect(screen.queryByText('waiting')).toBeNull();
+  });
+
+  test('in a background tab (no frames) the children come after a second anyway', () => {
+    vi.useFakeTimers();
+    try {
+      vi.stubGlobal('requestAnimationFrame', () => 1);
+      vi.stubGlobal('cancelAnimationFrame', () => undefined);
+      render(
+        <AfterFirstPaint>
+          <p>detail</p>
+        </AfterFirstPaint>,
+      );
+      act(() => vi.advanceTimersByTime(900));
+      expect(screen.queryByText('detail')).toBeNull();
+      act(() => vi.advanceTimersByTime(200));
+      expect(screen.getByText('detail')).toBeTruthy();
+    } finally {
+      vi.useRealTimers();
+    }
   });
 
   test('skip shows the children at once', () => {

@@ -1,7 +1,7 @@
 /**
  * Deferred mounting, so the first screen paints before what it does not need at once.
  * `AfterFirstPaint` shows its children one frame after it mounts (the page's first paint has
- * happened by then); `WhenNearView` shows them once their place comes near the viewport, the
+ * happened by then; in a background tab, which gets no frames, after a second); `WhenNearView` shows them once their place comes near the viewport, the
  * browser is idle, or the page is printed — whichever is first — so they are always there a
  * moment after the page settles (for print, screenshots and anyone who does not scroll).
  * Where the browser lacks what they wait for (requestAnimationFrame, IntersectionObserver) the
@@ -12,6 +12,8 @@ import { flushSync } from 'react-dom';
 
 /** How far outside the viewport a deferred part starts mounting, so it is ready when scrolled to. */
 const NEAR_VIEW_MARGIN = '300px 0px';
+/** How long a deferred part waits for a frame that does not come (a background tab). */
+const BACKGROUND_FALLBACK_MS = 1000;
 /** The longest an idle wait lasts before a deferred part mounts anyway. */
 const IDLE_TIMEOUT_MS = 1500;
 
@@ -25,9 +27,12 @@ export function AfterFirstPaint({ children, placeholder = null, skip = false }: 
     const frame = requestAnimationFrame(() => {
       timer = setTimeout(() => setShown(true), 0);
     });
+    // A page opened in a background tab gets no frames until it is shown; the children come anyway.
+    const fallback = setTimeout(() => setShown(true), BACKGROUND_FALLBACK_MS);
     return () => {
       cancelAnimationFrame(frame);
       clearTimeout(timer);
+      clearTimeout(fallback);
     };
   }, [shown]);
   return shown ? children : placeholder;
