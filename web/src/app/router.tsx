@@ -4,6 +4,7 @@ import { AppShell } from '../components/layout/app-shell';
 import { Loading } from '../components/ui/feedback';
 import { paths } from '../config/paths';
 import { meQuery } from '../lib/auth-queries';
+import { loader as proposalLoader } from '../routes/proposal-loader';
 import { NotFound, RouteError } from '../components/layout/route-error';
 
 /** What a route module exports (bulletproof-react style): loader and action are bound to the one QueryClient. */
@@ -47,7 +48,8 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
         { path: paths.specImport.path, lazy: lazyRoute(queryClient, () => import('../routes/spec-import')) },
         { path: paths.spec.path, lazy: lazyRoute(queryClient, () => import('../routes/spec')) },
         { path: paths.specHistory.path, lazy: lazyRoute(queryClient, () => import('../routes/spec-history')) },
-        { path: paths.proposal.path, lazy: lazyRoute(queryClient, () => import('../routes/proposal')) },
+        // The ranking page's loader is in the entry, so its data is asked for while its module loads.
+        { path: paths.proposal.path, loader: proposalLoader(queryClient), lazy: lazyRoute(queryClient, () => import('../routes/proposal')) },
         { path: paths.report.path, lazy: lazyRoute(queryClient, () => import('../routes/proposal-report')) },
         { path: paths.people.path, lazy: lazyRoute(queryClient, () => import('../routes/people')) },
         { path: paths.profile.path, lazy: lazyRoute(queryClient, () => import('../routes/profile')) },

@@ -1,8 +1,8 @@
-import type { QueryClient } from '@tanstack/react-query';
 import { useSuspenseQuery } from '@tanstack/react-query';
-import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import { StateBadge } from '../components/ui/state-badge';
 import { PageHeader } from '../components/ui/page-header';
+import { AfterFirstPaint } from '../components/ui/deferred';
 import { paths } from '../config/paths';
 import { meQuery } from '../lib/auth-queries';
 import { proposalQuery } from '../features/proposals/api/proposal-queries';
@@ -23,18 +23,11 @@ import { proposalCurrentDesign } from '../features/proposals/lib/current-design'
 import { currentDesignName, currentDesignRole } from '../../../shared/workflow/current-design';
 import { formatDateTime } from '../lib/dates';
 
-export const loader =
-  (queryClient: QueryClient) =>
-  async ({ params }: LoaderFunctionArgs) => {
-    await Promise.all([queryClient.ensureQueryData(proposalQuery(Number(params.proposalId))), queryClient.ensureQueryData(specSchemaQuery())]);
-    return null;
-  };
-
+/** The ranking page; its loader is in ./proposal-loader.ts, which the router keeps in the entry chunk. */
 export function Component() {
   const proposalId = Number(useParams().proposalId);
   const { data: proposal } = useSuspenseQuery(proposalQuery(proposalId));
   const { data: user } = useSuspenseQuery(meQuery());
-  const { data: schema } = useSuspenseQuery(specSchemaQuery());
   if (!user) return null;
   const current = proposalCurrentDesign(proposal);
   return (
@@ -64,35 +57,44 @@ export function Component() {
       </PageHeader>
       <div className="mb-6 space-y-3 empty:hidden">
         <LifecyclePanel proposal={proposal} user={user} />
-        {proposal.specMovedOn && (
-          <SpecMovedOn
-            specId={proposal.specId}
-            rankedVersion={proposal.specVersion.version}
-            rankedPayload={proposal.specVersion.payload}
-            movedOn={proposal.specMovedOn}
-            schema={schema as SchemaNode}
-            advice={movedOnAdvice(proposal)}
-          />
-        )}
+        {proposal.specMovedOn && <ProposalSpecMovedOn proposal={proposal} movedOn={proposal.specMovedOn} />}
       </div>
       <NextStep proposal={proposal} user={user} />
       <div className="space-y-6">
-        <RankingView proposal={proposal} />
-        <div id="verification" className="scroll-mt-4">
-          <VerificationPanel proposal={proposal} user={user} />
-        </div>
-        <div id="measurements" className="scroll-mt-4">
-          <MeasurementsPanel proposal={proposal} user={user} />
-        </div>
-        <div id="decision" className="scroll-mt-4">
-          <DecisionPanel proposal={proposal} user={user} />
-        </div>
-        <div id="review" className="scroll-mt-4">
-          <ReviewPanel proposal={proposal} user={user} />
-        </div>
-        <AuditTimeline proposalId={proposal.id} />
+        <RankingView proposal={proposal} detailAfterFirstPaint />
+        {/* The ranking table paints first; the option's detail and the panels below follow a frame later. */}
+        <AfterFirstPaint>
+          <div id="verification" className="scroll-mt-4">
+            <VerificationPanel proposal={proposal} user={user} />
+          </div>
+          <div id="measurements" className="scroll-mt-4">
+            <MeasurementsPanel proposal={proposal} user={user} />
+          </div>
+          <div id="decision" className="scroll-mt-4">
+            <DecisionPanel proposal={proposal} user={user} />
+          </div>
+          <div id="review" className="scroll-mt-4">
+            <ReviewPanel proposal={proposal} user={user} />
+          </div>
+          <AuditTimeline proposalId={proposal.id} />
+        </AfterFirstPaint>
       </div>
     </>
+  );
+}
+
+/** The notice of a newer spec version, with the changes since the ranked one (the loader has fetched the spec schema). */
+function ProposalSpecMovedOn({ proposal, movedOn }: { proposal: Proposal; movedOn: NonNullable<Proposal['specMovedOn']> }) {
+  const { data: schema } = useSuspenseQuery(specSchemaQuery());
+  return (
+    <SpecMovedOn
+      specId={proposal.specId}
+      rankedVersion={proposal.specVersion.version}
+      rankedPayload={proposal.specVersion.payload}
+      movedOn={movedOn}
+      schema={schema as SchemaNode}
+      advice={movedOnAdvice(proposal)}
+    />
   );
 }
 

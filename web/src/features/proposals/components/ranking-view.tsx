@@ -1,5 +1,6 @@
 import { useMemo, useState } from 'react';
 import type { TopologyId } from '../../../../../shared/engine/types';
+import { AfterFirstPaint } from '../../../components/ui/deferred';
 import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { api } from '../../../config/paths';
@@ -15,8 +16,11 @@ import { topologyName } from '../../../lib/topology-names';
 
 const downloadLink = 'rounded-md border border-rule px-2.5 py-1 text-sm hover:bg-paper dark:border-night-rule dark:hover:bg-night';
 
-/** The ranked options: cautions and notice, the table (with its downloads), the selected option's detail, the plots. */
-export function RankingView({ proposal }: { proposal: Proposal }) {
+/**
+ * The ranked options: cautions and notice, the table (with its downloads), the selected option's detail, the plots.
+ * With `detailAfterFirstPaint` (the proposal page) the detail mounts a frame after the table, so the table paints first.
+ */
+export function RankingView({ proposal, detailAfterFirstPaint = false }: { proposal: Proposal; detailAfterFirstPaint?: boolean }) {
   const result = proposal.result;
   const rows = useMemo(() => optionRows(result), [result]);
   const targets = useMemo(() => specTargets(result), [result]);
@@ -75,7 +79,11 @@ export function RankingView({ proposal }: { proposal: Proposal }) {
           <RejectionFigure result={result} selected={selected} />
         </Sheet>
       )}
-      {option && <OptionDetail option={option} recommended={option.topology === result.recommended} series={resistors?.series ?? null} tolerancePercent={resistors?.tolerancePercent ?? null} />}
+      {option && (
+        <AfterFirstPaint skip={!detailAfterFirstPaint}>
+          <OptionDetail option={option} recommended={option.topology === result.recommended} series={resistors?.series ?? null} tolerancePercent={resistors?.tolerancePercent ?? null} />
+        </AfterFirstPaint>
+      )}
     </div>
   );
 }
