@@ -15,6 +15,7 @@
  *   (an internal error answer) and piscina starts another.
  * - A RuleSet not made by createRuleSet (rules/index.ts) cannot be rebuilt in a thread: it runs inline.
  */
+import { setImmediate as nextTurn } from 'node:timers/promises';
 import { fileURLToPath } from 'node:url';
 import { Piscina } from 'piscina';
 import { evaluateDesign } from '../../shared/engine/index';
@@ -97,7 +98,16 @@ function poolFor(ruleSet: RuleSet): { pool: Piscina<EngineTask, EngineAnswer>; r
   return rules ? { pool: shared.pool, rules } : null;
 }
 
-function answered<T>(answer: EngineAnswer, pick: (answer: Exclude<EngineAnswer, { ok: false }>) => T): T {
+/**
+ * A task's answer, taken up in a turn of the event loop of its own. Piscina can settle several
+ * tasks in one turn, and their callers would then go on interleaved; on SQLite (one connection)
+ * two callers' transactions would overlap ("cannot start a transaction within a transaction").
+ * Each caller going on in its own turn finishes its database work before the next starts, as
+ * when the engine runs inline.
+ */
+async function answered<T>(running: Promise<EngineAnswer>, pick: (answer: Exclude<EngineAnswer, { ok: false }>) => T): Promise<T> {
+  const answer = await running;
+  await nextTurn();
   if (!answer.ok) throw errorFrom(answer.error);
   return pick(answer);
 }
@@ -106,16 +116,14 @@ function answered<T>(answer: EngineAnswer, pick: (answer: Exclude<EngineAnswer, 
 export async function rankSpec(spec: Spec, ruleSet: RuleSet): Promise<string> {
   const target = poolFor(ruleSet);
   if (!target) return rankingJson(spec, ruleSet);
-  const answer = await target.pool.run({ kind: 'rank', spec, rules: target.rules });
-  return answered(answer, (a) => ('rankingJson' in a ? a.rankingJson : unexpected(a)));
+  return answered(target.pool.run({ kind: 'rank', spec, rules: target.rules }), (a) => ('rankingJson' in a ? a.rankingJson : unexpected(a)));
 }
 
 /** A designer's own design checked against a checked spec as thoroughly as a ranked option. */
 export async function evaluateSpecDesign(spec: Spec, design: Design, ruleSet: RuleSet): Promise<RecommendOption> {
   const target = poolFor(ruleSet);
   if (!target) return evaluateDesign(spec, design, ruleSet);
-  const answer = await target.pool.run({ kind: 'evaluate', spec, design, rules: target.rules });
-  return answered(answer, (a) => ('option' in a ? a.option : unexpected(a)));
+  return answered(target.pool.run({ kind: 'evaluate', spec, design, rules: target.rules }), (a) => ('option' in a ? a.option : unexpected(a)));
 }
 
 function unexpected(answer: unknown): never {

@@ -43,6 +43,14 @@ describe('the engine pool', () => {
     expect(response.body.result).toEqual(asJson(await recommend(spec, api.ruleSet)));
   });
 
+  test('when several proposals are asked for at once, then every one is stored (their transactions never overlap on one SQLite connection)', async () => {
+    const project = await api.createProject(['requirements', 'designer'], 'Concurrent rankings');
+    const specs = [];
+    for (let i = 0; i < 8; i += 1) specs.push(await api.createSpec(project.id, { payload: { ...specPayload(), title: `Concurrent ${i}` } }));
+    const responses = await Promise.all(specs.map((s) => designer.post(`/api/specs/${s.id}/proposals`)));
+    expect(responses.map((r) => r.status)).toEqual(specs.map(() => 201));
+  });
+
   test('when a designer has own values evaluated, then the thread answers what the engine gives on this thread', async () => {
     const proposal = await api.createProposal(specId);
     const design = proposal.result.options.find((o) => o.design)!.design!;

@@ -6,15 +6,24 @@
  * - a second project with one spec (asked again and again: its ranking is reused after the
  *   first) and 2,000 copies of it, each a spec version never ranked (asked once each: the
  *   engine runs for every request);
- * and the real app on 127.0.0.1 on an ephemeral port. Says `ready` over IPC; `stop` answers
- * `stopped` (server errors logged, proposals made and engine runs), closes everything and
- * removes the temp dir.
+ * and the real app on 127.0.0.1 on an ephemeral port. Arguments: `--engine-workers=N` (the
+ * app's engine pool; 0 = the engine on the request thread) and `--stored-proposals=N` (default
+ * 10,000; 1 when only proposal creation is measured). Says `ready` over IPC; then
+ * - `{ type: 'delay-start' }` resets and starts an event-loop delay histogram
+ *   (perf_hooks.monitorEventLoopDelay), `{ type: 'delay-stop' }` stops it and answers `delay`;
+ * - `{ type: 'profile-start' }` starts a CPU profile of the server's thread (node:inspector),
+ *   `{ type: 'profile-stop', file }` writes it (.cpuprofile, for Chrome DevTools) and answers `profiled`;
+ * - `stop` answers `stopped` (server errors logged, proposals made and engine runs), closes
+ *   everything and removes the temp dir.
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
+import { Session } from 'node:inspector/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { monitorEventLoopDelay } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
+import { parseArgs } from 'node:util';
 import { loadRuleSet } from '../../rules/index';
 import { createApp } from '../../api/app';
 import { openDatabase } from '../../api/data-source';
@@ -23,9 +32,11 @@ import { createProposal } from '../../api/services/proposals.service';
 import { createSpec } from '../../api/services/specs.service';
 import { createUser } from '../../api/services/users.service';
 
-const STORED_PROPOSALS = 10_000;
-/** More never-ranked spec versions than the engine-bound runs can use up (about 100 per second at best). */
-const FRESH_SPECS = 2_000;
+const { values: args } = parseArgs({ options: { 'engine-workers': { type: 'string', default: '0' }, 'stored-proposals': { type: 'string', default: '10000' } } });
+const ENGINE_WORKERS = Number(args['engine-workers']);
+const STORED_PROPOSALS = Math.max(1, Number(args['stored-proposals']));
+/** More never-ranked spec versions than the engine-bound runs can use up (a few hundred per second at best). */
+const FRESH_SPECS = 5_000;
 /** The demo spec every benchmarked proposal ranks (six topologies, 2,000 Monte Carlo draws). */
 const BENCH_SPEC_FILE = 'studio-line-receiver.json';
 const PASSWORD = 'bench-password-0815';
@@ -44,7 +55,19 @@ export interface BenchServerReady {
   password: string;
   storedProposals: number;
   seedMs: number;
+  /** Threads of the app's engine pool (0: the engine runs on the request thread). */
+  engineWorkers: number;
 }
+
+/** The server thread's event-loop delay over a measured stretch, ms. */
+export interface BenchServerDelay {
+  type: 'delay';
+  p50Ms: number;
+  p99Ms: number;
+  maxMs: number;
+}
+
+export type BenchServerMessage = { type: 'delay-start' } | { type: 'delay-stop' } | { type: 'profile-start' } | { type: 'profile-stop'; file: string } | 'stop';
 
 export interface BenchServerStopped {
   type: 'stopped';
@@ -83,7 +106,7 @@ const asked = await projectWithSpec('API benchmark: new proposals');
 const seedStart = performance.now();
 const first = await createProposal(dataSource, designer, listed.spec.id, ruleSet);
 await dataSource.transaction(async (manager) => {
-  await manager.query(`${COPIES} INSERT INTO proposal (${PROPOSAL_COLUMNS}) SELECT ${PROPOSAL_COLUMNS} FROM proposal, copy WHERE proposal.id = ?`, [STORED_PROPOSALS - 1, first.id]);
+  if (STORED_PROPOSALS > 1) await manager.query(`${COPIES} INSERT INTO proposal (${PROPOSAL_COLUMNS}) SELECT ${PROPOSAL_COLUMNS} FROM proposal, copy WHERE proposal.id = ?`, [STORED_PROPOSALS - 1, first.id]);
   // Copies of the asked spec, each with a version 1 of the same document
   await manager.query(
     `${COPIES} INSERT INTO spec (project_id, title, latest_version, created_by_id, created_at, updated_at)
@@ -103,7 +126,7 @@ const [{ n: storedProposals }] = await dataSource.query('SELECT count(*) AS n FR
 const freshSpecs: { id: number }[] = await dataSource.query('SELECT id FROM spec WHERE project_id = ? AND id > ? ORDER BY id', [asked.project.id, asked.spec.id]);
 
 let serverErrors = 0;
-const app = createApp({ dataSource, sessionSecret: 'bench-session-secret-0123456789abcdef', ruleSet, log: () => (serverErrors += 1), proposalsPerMinute: 1_000_000 }); // throughput, not the per-person limit
+const app = createApp({ dataSource, sessionSecret: 'bench-session-secret-0123456789abcdef', ruleSet, log: (m) => { serverErrors += 1; if (process.env.BENCH_DEBUG) console.error(m); }, proposalsPerMinute: 1_000_000, engineWorkers: ENGINE_WORKERS }); // throughput, not the per-person limit
 const server = http.createServer(app);
 server.listen(0, '127.0.0.1', () => {
   const address = server.address() as { port: number };
@@ -118,6 +141,7 @@ server.listen(0, '127.0.0.1', () => {
     password: PASSWORD,
     storedProposals: Number(storedProposals),
     seedMs,
+    engineWorkers: app.enginePool.workers,
   };
   process.send?.(ready);
 });
@@ -136,8 +160,30 @@ async function stop(): Promise<void> {
   rmSync(dir, { recursive: true, force: true });
   process.exit(0);
 }
-process.on('message', (message) => {
+const delay = monitorEventLoopDelay({ resolution: 5 });
+let profiler: Session | null = null;
+const reply = (message: object) => new Promise((resolve) => process.send?.(message, undefined, undefined, resolve));
+process.on('message', (message: BenchServerMessage) => {
   if (message === 'stop') void stop();
+  else if (message.type === 'delay-start') {
+    delay.reset();
+    delay.enable();
+  } else if (message.type === 'delay-stop') {
+    delay.disable();
+    const answer: BenchServerDelay = { type: 'delay', p50Ms: delay.percentile(50) / 1e6, p99Ms: delay.percentile(99) / 1e6, maxMs: delay.max / 1e6 };
+    void reply(answer);
+  } else if (message.type === 'profile-start') {
+    profiler = new Session();
+    profiler.connect();
+    void profiler.post('Profiler.enable').then(() => profiler!.post('Profiler.start'));
+  } else if (message.type === 'profile-stop' && profiler) {
+    void profiler.post('Profiler.stop').then(({ profile }) => {
+      writeFileSync(message.file, JSON.stringify(profile));
+      profiler!.disconnect();
+      profiler = null;
+      return reply({ type: 'profiled' });
+    });
+  }
 });
 // The parent went away without saying stop: clean up all the same
 process.on('disconnect', () => void stop());
