@@ -168,7 +168,8 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
   const spec = await specFor(dataSource, actor, specId, 'proposals:create');
   const version = await latestVersion(dataSource, spec);
   const resultText = await rankingTextFor(dataSource, version, ruleSet);
-  const recommended = (JSON.parse(resultText) as RecommendResult).recommended;
+  const result = JSON.parse(resultText) as RecommendResult;
+  const recommended = result.recommended;
   const proposal = await dataSource.transaction(async (manager) => {
     const now = new Date().toISOString();
     const saved = await manager.getRepository(ProposalEntity).save({
@@ -210,7 +211,7 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
     decisions: [],
     reviews: [],
     allowedEvents: allowedEvents('ranked'),
-    currentDesign: currentDesignOf(proposal, version.version, JSON.parse(resultText) as RecommendResult, []),
+    currentDesign: currentDesignOf(proposal, version.version, result, []),
   };
   return { envelope, resultText };
 }
