@@ -9,6 +9,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { formatDateTime } from '../../shared/text/dates';
 import type { AccountRole, ProjectRoleOf } from '../../shared/workflow/roles';
 import { hashPassword, verifyPassword } from '../auth/password';
+import { sqlParameter } from '../data-source';
 import { checkPassword } from '../auth/password-policy';
 import { endSessionsOf } from '../auth/session-store';
 import { MailOutboxEntity } from '../entities/mail-outbox.entity';
@@ -61,11 +62,10 @@ interface SessionUserRow {
  * (the same fields as findUserById + sessionUser, which took two).
  */
 export async function findSessionUser(dataSource: DataSource, id: number): Promise<SessionUser | null> {
-  const parameter = dataSource.options.type === 'postgres' ? '$1' : '?';
   const rows: SessionUserRow[] = await dataSource.query(
     `SELECT u.id, u.email, u.display_name, u.role, u.notify, u.created_at, u.disabled_at, m.project_id, m.role AS project_role
      FROM user_account u LEFT JOIN project_member m ON m.user_id = u.id
-     WHERE u.id = ${parameter} ORDER BY m.project_id`,
+     WHERE u.id = ${sqlParameter(dataSource, 1)} ORDER BY m.project_id`,
     [id],
   );
   if (rows.length === 0) return null;

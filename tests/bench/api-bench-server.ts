@@ -6,9 +6,10 @@
  * - a second project with one spec (asked again and again: its ranking is reused after the
  *   first) and 2,000 copies of it, each a spec version never ranked (asked once each: the
  *   engine runs for every request);
- * and the real app on 127.0.0.1 on an ephemeral port. Arguments: `--engine-workers=N` (the
- * app's engine pool; 0 = the engine on the request thread) and `--stored-proposals=N` (default
- * 10,000; 1 when only proposal creation is measured). Says `ready` over IPC; then
+ * and the real app on 127.0.0.1 on an ephemeral port, the engine on the request thread (the
+ * app's engine workers 0). Says `ready` over IPC; then
+ * - `{ type: 'engine', workers }` with workers > 0 starts the process's engine pool (which the
+ *   app's services then use, api/engine/engine-pool.ts), with 0 stops it; answers `engine`;
  * - `{ type: 'delay-start' }` resets and starts an event-loop delay histogram
  *   (perf_hooks.monitorEventLoopDelay), `{ type: 'delay-stop' }` stops it and answers `delay`;
  * - `{ type: 'profile-start' }` starts a CPU profile of the server's thread (node:inspector),
@@ -23,18 +24,16 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
-import { parseArgs } from 'node:util';
 import { loadRuleSet } from '../../rules/index';
 import { createApp } from '../../api/app';
+import { acquireEnginePool, type EnginePoolLease } from '../../api/engine/engine-pool';
 import { openDatabase } from '../../api/data-source';
 import { addMember, createProject } from '../../api/services/projects.service';
 import { createProposal } from '../../api/services/proposals.service';
 import { createSpec } from '../../api/services/specs.service';
 import { createUser } from '../../api/services/users.service';
 
-const { values: args } = parseArgs({ options: { 'engine-workers': { type: 'string', default: '0' }, 'stored-proposals': { type: 'string', default: '10000' } } });
-const ENGINE_WORKERS = Number(args['engine-workers']);
-const STORED_PROPOSALS = Math.max(1, Number(args['stored-proposals']));
+const STORED_PROPOSALS = 10_000;
 /** More never-ranked spec versions than the engine-bound runs can use up (a few hundred per second at best). */
 const FRESH_SPECS = 5_000;
 /** The demo spec every benchmarked proposal ranks (six topologies, 2,000 Monte Carlo draws). */
@@ -55,8 +54,12 @@ export interface BenchServerReady {
   password: string;
   storedProposals: number;
   seedMs: number;
-  /** Threads of the app's engine pool (0: the engine runs on the request thread). */
-  engineWorkers: number;
+}
+
+/** Where the engine runs now: threads of the process's pool (0: on the request thread). */
+export interface BenchServerEngine {
+  type: 'engine';
+  workers: number;
 }
 
 /** The server thread's event-loop delay over a measured stretch, ms. */
@@ -67,7 +70,9 @@ export interface BenchServerDelay {
   maxMs: number;
 }
 
-export type BenchServerMessage = { type: 'delay-start' } | { type: 'delay-stop' } | { type: 'profile-start' } | { type: 'profile-stop'; file: string } | 'stop';
+export type BenchServerMessage =
+  | { type: 'engine'; workers: number }
+  | { type: 'delay-start' } | { type: 'delay-stop' } | { type: 'profile-start' } | { type: 'profile-stop'; file: string } | 'stop';
 
 export interface BenchServerStopped {
   type: 'stopped';
@@ -106,7 +111,7 @@ const asked = await projectWithSpec('API benchmark: new proposals');
 const seedStart = performance.now();
 const first = await createProposal(dataSource, designer, listed.spec.id, ruleSet);
 await dataSource.transaction(async (manager) => {
-  if (STORED_PROPOSALS > 1) await manager.query(`${COPIES} INSERT INTO proposal (${PROPOSAL_COLUMNS}) SELECT ${PROPOSAL_COLUMNS} FROM proposal, copy WHERE proposal.id = ?`, [STORED_PROPOSALS - 1, first.id]);
+  await manager.query(`${COPIES} INSERT INTO proposal (${PROPOSAL_COLUMNS}) SELECT ${PROPOSAL_COLUMNS} FROM proposal, copy WHERE proposal.id = ?`, [STORED_PROPOSALS - 1, first.id]);
   // Copies of the asked spec, each with a version 1 of the same document
   await manager.query(
     `${COPIES} INSERT INTO spec (project_id, title, latest_version, created_by_id, created_at, updated_at)
@@ -126,7 +131,7 @@ const [{ n: storedProposals }] = await dataSource.query('SELECT count(*) AS n FR
 const freshSpecs: { id: number }[] = await dataSource.query('SELECT id FROM spec WHERE project_id = ? AND id > ? ORDER BY id', [asked.project.id, asked.spec.id]);
 
 let serverErrors = 0;
-const app = createApp({ dataSource, sessionSecret: 'bench-session-secret-0123456789abcdef', ruleSet, log: (m) => { serverErrors += 1; if (process.env.BENCH_DEBUG) console.error(m); }, proposalsPerMinute: 1_000_000, engineWorkers: ENGINE_WORKERS }); // throughput, not the per-person limit
+const app = createApp({ dataSource, sessionSecret: 'bench-session-secret-0123456789abcdef', ruleSet, log: (m) => { serverErrors += 1; if (process.env.BENCH_DEBUG) console.error(m); }, proposalsPerMinute: 1_000_000}); // throughput, not the per-person limit
 const server = http.createServer(app);
 server.listen(0, '127.0.0.1', () => {
   const address = server.address() as { port: number };
@@ -141,7 +146,6 @@ server.listen(0, '127.0.0.1', () => {
     password: PASSWORD,
     storedProposals: Number(storedProposals),
     seedMs,
-    engineWorkers: app.enginePool.workers,
   };
   process.send?.(ready);
 });
@@ -156,16 +160,25 @@ async function stop(): Promise<void> {
   server.closeAllConnections();
   await new Promise((resolve) => server.close(resolve));
   app.closeApp();
+  await pool?.release();
   await dataSource.destroy();
   rmSync(dir, { recursive: true, force: true });
   process.exit(0);
 }
 const delay = monitorEventLoopDelay({ resolution: 5 });
 let profiler: Session | null = null;
+let pool: EnginePoolLease | null = null;
 const reply = (message: object) => new Promise((resolve) => process.send?.(message, undefined, undefined, resolve));
 process.on('message', (message: BenchServerMessage) => {
   if (message === 'stop') void stop();
-  else if (message.type === 'delay-start') {
+  else if (message.type === 'engine') {
+    void (async () => {
+      await pool?.release();
+      pool = message.workers > 0 ? acquireEnginePool(message.workers) : null;
+      const answer: BenchServerEngine = { type: 'engine', workers: pool?.workers ?? 0 };
+      await reply(answer);
+    })();
+  } else if (message.type === 'delay-start') {
     delay.reset();
     delay.enable();
   } else if (message.type === 'delay-stop') {

@@ -1,15 +1,15 @@
 /**
  * `npm run bench` (after the engine bench): the API under load with autocannon, against the real
- * app on 127.0.0.1 (api-bench-server.ts, forked so the load generator does not share the
- * server's thread). Two servers, one after the other in the same run, so that their figures sit
- * side by side:
- * 1. the engine on the request thread (engine workers 0): POST /api/specs/:id/proposals where the
- *    engine runs (each request names a spec version never ranked), 32 connections;
- * 2. the engine in its worker pool (one thread per core, as a server starts by default), with
- *    10,000 stored proposals in the listed project: the same route with one connection (the time
- *    one request takes, nobody queued ahead) and with 32; the same route on one spec version
- *    asked again and again (the server reuses its ranking); GET /api/projects/:id/proposals,
- *    pages from first to last, with 32 connections and with one.
+ * app on 127.0.0.1 with 10,000 stored proposals in the listed project (api-bench-server.ts,
+ * forked so the load generator does not share the server's thread). One server, its engine first
+ * on the request thread and then in its worker pool (one thread per core, as a server starts by
+ * default), so that the two sit side by side on the same data in the same run:
+ * 1. engine inline: POST /api/specs/:id/proposals where the engine runs (each request names a
+ *    spec version never ranked), 32 connections;
+ * 2. engine in the pool: the same route with one connection (the time one request takes, nobody
+ *    queued ahead) and with 32; the same route on one spec version asked again and again (the
+ *    server reuses its ranking); GET /api/projects/:id/proposals, pages from first to last, with
+ *    32 connections and with one.
  * While rankings run, the server measures its event loop's delay (perf_hooks
  * monitorEventLoopDelay): how long any other request waits for the thread.
  * A designer signs in through the CSRF flow; each route runs for a bounded time, and exact
@@ -19,7 +19,7 @@
  * CPUs: the load average is printed, and the ratios (pool against inline) mean more than the
  * absolute figures when it is busy.
  * LONGTAIL_BENCH_PROFILE=<dir>: CPU profiles of the server's thread during the list and the
- * pooled creation runs are written there (.cpuprofile, open in Chrome DevTools).
+ * pooled proposal creation runs are written there (.cpuprofile, open in Chrome DevTools).
  * Targets: proposal list ≥ 1,500 req/s at 32 connections and p50 ≤ 1 ms at one; creation with the
  * engine running ≥ 1.8× the inline req/s at 32 connections; event-loop delay p99 ≤ 20 ms while
  * rankings run; proposal creation p95 ≤ 50 ms, list page p95 ≤ 20 ms.
@@ -30,7 +30,7 @@ import { once } from 'node:events';
 import { availableParallelism, loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { join } from 'node:path';
-import type { BenchServerDelay, BenchServerMessage, BenchServerReady, BenchServerStopped } from './api-bench-server';
+import type { BenchServerDelay, BenchServerEngine, BenchServerMessage, BenchServerReady, BenchServerStopped } from './api-bench-server';
 
 const CONNECTIONS = 32;
 const DURATION_S = 10;
@@ -133,8 +133,8 @@ interface BenchServer {
   stop(): Promise<BenchServerStopped>;
 }
 
-async function startServer(engineWorkers: number, storedProposals: number): Promise<BenchServer> {
-  const child = fork(fileURLToPath(new URL('./api-bench-server.ts', import.meta.url)), [`--engine-workers=${engineWorkers}`, `--stored-proposals=${storedProposals}`]);
+async function startServer(): Promise<BenchServer> {
+  const child = fork(fileURLToPath(new URL('./api-bench-server.ts', import.meta.url)));
   const [ready] = (await once(child, 'message')) as [BenchServerReady];
   const base = `http://127.0.0.1:${ready.port}`;
   const ask = async <T>(message: BenchServerMessage, answer: string) => {
@@ -190,26 +190,26 @@ async function profiled<T>(server: BenchServer, name: string, run: () => Promise
 
 const loadBefore = loadavg()[0];
 
+const bench = await startServer();
+const { ready, base, headers } = bench;
+const post = { method: 'POST', headers };
+
 // 1. The engine on the request thread
-const inline = await startServer(0, 1);
-const inlineRoute = engineRoute(inline);
-const post = (server: BenchServer) => ({ method: 'POST', headers: server.headers });
-await warmUp(inline.base, inlineRoute.path, post(inline), ENGINE_WARM_UP_LOOPS);
-const [inlineEngine, inlineDelay] = await loadWithDelay(inline, { url: inline.base, connections: CONNECTIONS, duration: DURATION_S, headers: inline.headers, requests: inlineRoute.requests });
-const inlineStopped = await inline.stop();
+const inlineRoute = engineRoute(bench);
+await warmUp(base, inlineRoute.path, post, ENGINE_WARM_UP_LOOPS);
+const [inlineEngine, inlineDelay] = await loadWithDelay(bench, { url: base, connections: CONNECTIONS, duration: DURATION_S, headers, requests: inlineRoute.requests });
 
 // 2. The engine in its pool, and the other routes
-const pooled = await startServer(ENGINE_WORKERS, 10_000);
-const { ready, base, headers } = pooled;
-const pooledRoute = engineRoute(pooled);
-await warmUp(base, pooledRoute.path, post(pooled), ENGINE_WARM_UP_LOOPS);
+const { workers } = await bench.ask<BenchServerEngine>({ type: 'engine', workers: ENGINE_WORKERS }, 'engine');
+const pooledRoute = inlineRoute;
+await warmUp(base, pooledRoute.path, post, ENGINE_WARM_UP_LOOPS);
 const engineOne = await load({ url: base, connections: 1, duration: ONE_CONNECTION_DURATION_S, headers, requests: pooledRoute.requests });
-const [engine, poolDelay] = await profiled(pooled, 'create-pool', () =>
-  loadWithDelay(pooled, { url: base, connections: CONNECTIONS, duration: DURATION_S, headers, requests: pooledRoute.requests }),
+const [engine, poolDelay] = await profiled(bench, 'create-pool', () =>
+  loadWithDelay(bench, { url: base, connections: CONNECTIONS, duration: DURATION_S, headers, requests: pooledRoute.requests }),
 );
 
 const reusedUrl = `${base}/api/specs/${ready.reusedSpecId}/proposals`;
-await warmUp(base, () => `/api/specs/${ready.reusedSpecId}/proposals`, post(pooled));
+await warmUp(base, () => `/api/specs/${ready.reusedSpecId}/proposals`, post);
 const reusedOne = await load({ url: reusedUrl, method: 'POST', connections: 1, duration: ONE_CONNECTION_DURATION_S, headers });
 const reused = await load({ url: reusedUrl, method: 'POST', connections: CONNECTIONS, duration: DURATION_S, headers });
 
@@ -217,9 +217,9 @@ const listPath = (page: number) => `/api/projects/${ready.listedProjectId}/propo
 const lastPage = (await (await fetch(`${base}${listPath(PAGES.at(-1)!)}`, { headers })).json()) as { items: unknown[]; total: number };
 await warmUp(base, () => listPath(1), { headers });
 const listRequests: autocannon.Request[] = PAGES.map((page) => ({ method: 'GET', path: listPath(page) }));
-const list = await profiled(pooled, 'list', () => load({ url: base, connections: CONNECTIONS, duration: DURATION_S, headers, requests: listRequests }));
+const list = await profiled(bench, 'list', () => load({ url: base, connections: CONNECTIONS, duration: DURATION_S, headers, requests: listRequests }));
 const listOne = await load({ url: base, connections: 1, duration: ONE_CONNECTION_DURATION_S, headers, requests: listRequests });
-const stopped = await pooled.stop();
+const stopped = await bench.stop();
 
 const ms = (value: number) => `${value.toFixed(1)} ms`;
 const met = (ok: boolean) => (ok ? 'met' : 'missed');
@@ -237,8 +237,8 @@ const delayRow = (d: BenchServerDelay) => `p50 ${d.p50Ms.toFixed(1)} / p99 ${d.p
 
 console.log(`Longtail API benchmark — autocannon on 127.0.0.1, ${CONNECTIONS} connections, ${DURATION_S} s per route, Node ${process.version}`);
 console.log(`${ready.storedProposals.toLocaleString('en')} stored proposals in the listed project (engine once + bulk copies in ${ready.seedMs.toFixed(0)} ms)`);
-console.log(`spec ranked: "${ready.specTitle}"; the engine ran ${(inlineStopped.engineRuns + stopped.engineRuns).toLocaleString('en')} times for ${(inlineStopped.proposalsMade + stopped.proposalsMade).toLocaleString('en')} proposals made`);
-console.log(`engine: on the request thread (workers 0) for the first server, in a pool of ${pooled.ready.engineWorkers} worker threads for the second`);
+console.log(`spec ranked: "${ready.specTitle}"; the engine ran ${stopped.engineRuns.toLocaleString('en')} times for ${stopped.proposalsMade.toLocaleString('en')} proposals made`);
+console.log(`engine: on the request thread first (engine workers 0), then in a pool of ${workers} worker threads`);
 console.log(`list: pages ${PAGES.join(', ')} in turn; the last holds ${lastPage.items.length} of ${lastPage.total.toLocaleString('en')}`);
 // Other work on the machine shares the CPUs with the server: say how busy it was
 console.log(`1-minute load average ${loadBefore.toFixed(1)} before, ${loadavg()[0].toFixed(1)} after, on ${availableParallelism()} CPUs${loadBefore > availableParallelism() ? ' (busy: absolute figures are low, compare the ratios)' : ''}`);
@@ -252,8 +252,8 @@ rows('POST /api/specs/:id/proposals, ranking reused, 1 connection', reusedOne);
 rows(`POST /api/specs/:id/proposals, ranking reused, ${CONNECTIONS} conn.`, reused, TARGET_P95_MS.create);
 rows(`GET /api/projects/:id/proposals?page=N&pageSize=${PAGE_SIZE}, ${CONNECTIONS} conn.`, list, TARGET_P95_MS.list);
 rows(`GET /api/projects/:id/proposals?page=N&pageSize=${PAGE_SIZE}, 1 connection`, listOne);
-row('server errors logged', String(inlineStopped.serverErrors + stopped.serverErrors), 'must be 0');
-const ranOut = inlineRoute.ranOut() + pooledRoute.ranOut();
+row('server errors logged', String(stopped.serverErrors), 'must be 0');
+const ranOut = pooledRoute.ranOut();
 if (ranOut > 0) row('  fresh spec versions ran out: some asks reused a ranking', String(ranOut));
 
 const speedUp = engine.requestsPerS / inlineEngine.requestsPerS;
@@ -270,7 +270,7 @@ if (PROFILE_DIR) console.log(`\nCPU profiles of the server's thread: ${PROFILE_D
 
 const failures = [inlineEngine, engineOne, engine, reusedOne, reused, list, listOne].reduce(
   (n, m) => n + m.errors + m.timeouts + m.non2xx,
-  inlineStopped.serverErrors + stopped.serverErrors,
+  stopped.serverErrors,
 );
 if (failures > 0) console.log(`\n${failures} failed request(s) or server error(s): the figures above do not describe a healthy server.`);
 process.exit(failures > 0 ? 1 : 0);
