@@ -17,6 +17,7 @@ import { configurePassport } from './auth/passport';
 import { SignInThrottle } from './auth/sign-in-throttle';
 import { SECURE_SESSION_COOKIE, SESSION_COOKIE } from './auth/session-cookie';
 import { TypeormSessionStore } from './auth/session-store';
+import { acquireEnginePool, type EnginePoolLease } from './engine/engine-pool';
 import { errorHandler } from './error-handler';
 import { AppError } from './errors';
 import { adminRoutes } from './routes/admin.routes';
@@ -61,11 +62,19 @@ export interface AppDeps {
   proposalsPerMinute?: number;
   /** The clock of the sign-in delays, ms since the epoch (default Date.now; tests move it on). */
   clock?: () => number;
+  /**
+   * Worker threads for the engine (rankings, override evaluations): the process's pool is started
+   * with this many, or joined when running (api/engine/engine-pool.ts). Default 0: the engine runs
+   * on the request thread. server.ts passes LONGTAIL_ENGINE_WORKERS.
+   */
+  engineWorkers?: number;
 }
 
 export interface LongtailApp extends Express {
-  /** Stops background timers (session pruning). */
+  /** Stops background timers (session pruning) and leaves the engine pool (its last user stops its threads). */
   closeApp(): void;
+  /** This app's hold on the process's engine pool (closeApp releases it; awaiting `release()` waits for the threads to stop). */
+  enginePool: EnginePoolLease;
   /** The verification queue the routes feed (tests wait on it and close it). */
   verification: VerificationQueue;
   /** Where uploaded files are kept (AppDeps.uploadsDir or its default). */
@@ -81,6 +90,7 @@ function defaultUploadsDir(dataSource: DataSource): { dir: string; temporary: bo
 
 export function createApp(deps: AppDeps): LongtailApp {
   const app = express() as LongtailApp;
+  app.enginePool = acquireEnginePool(deps.engineWorkers ?? 0);
   const store = new TypeormSessionStore(deps.dataSource);
   const passport = configurePassport(deps.dataSource);
   app.disable('x-powered-by');
@@ -155,6 +165,7 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.closeApp = () => {
     store.close();
     void verification.close();
+    void app.enginePool.release();
     if (uploads.temporary) rmSync(uploads.dir, { recursive: true, force: true });
   };
   return app;

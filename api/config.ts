@@ -4,6 +4,7 @@
  */
 import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { DEFAULT_POOL_SIZE } from './data-source';
 import { PROPOSALS_PER_MINUTE } from './services/proposal-rate';
@@ -37,6 +38,8 @@ export interface Config {
   mail: MailConfig;
   /** When the SPICE simulator thread is replaced (LONGTAIL_SPICE_RECYCLE_RUNS, LONGTAIL_SPICE_RECYCLE_HEAP_MB). */
   simulator: { recycleAfterRuns: number; recycleAboveHeapBytes: number };
+  /** Worker threads running the engine (LONGTAIL_ENGINE_WORKERS; default one per core; 0 = on the request thread). */
+  engineWorkers: number;
 }
 
 /** A real SMTP server: a connection URL, or host and port with optional credentials. */
@@ -118,6 +121,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   if (!Number.isInteger(recycleAfterRuns) || recycleAfterRuns < 100 || recycleAfterRuns > 1_000_000) problems.push(`LONGTAIL_SPICE_RECYCLE_RUNS must be a whole number from 100 to 1000000, got "${env.LONGTAIL_SPICE_RECYCLE_RUNS}"`);
   const recycleHeapMb = Number(env.LONGTAIL_SPICE_RECYCLE_HEAP_MB ?? DEFAULT_RECYCLE_ABOVE_HEAP_BYTES / 2 ** 20);
   if (!Number.isInteger(recycleHeapMb) || recycleHeapMb < 32 || recycleHeapMb > 4096) problems.push(`LONGTAIL_SPICE_RECYCLE_HEAP_MB must be a whole number of MB from 32 to 4096, got "${env.LONGTAIL_SPICE_RECYCLE_HEAP_MB}"`);
+  const engineWorkers = Number(env.LONGTAIL_ENGINE_WORKERS ?? availableParallelism());
+  if (!Number.isInteger(engineWorkers) || engineWorkers < 0 || engineWorkers > 64) problems.push(`LONGTAIL_ENGINE_WORKERS must be a whole number from 0 to 64, got "${env.LONGTAIL_ENGINE_WORKERS}"`);
   if (problems.length > 0) throw new Error(`Configuration problems:\n- ${problems.join('\n- ')}`);
   if (sessionSecret === '') sessionSecret = localSessionSecret(databasePath);
   return {
@@ -137,5 +142,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     baseUrl,
     mail: { from: env.LONGTAIL_MAIL_FROM ?? DEFAULT_MAIL_FROM, smtp, localSmtpPort },
     simulator: { recycleAfterRuns, recycleAboveHeapBytes: recycleHeapMb * 2 ** 20 },
+    engineWorkers,
   };
 }

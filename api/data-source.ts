@@ -117,6 +117,11 @@ export async function openDatabase(location: string, options: DatabaseOptions = 
   return dataSource;
 }
 
+/** The n-th (from 1) parameter of a hand-written statement: `$n` on PostgreSQL, `?` on SQLite. */
+export function sqlParameter(dataSource: DataSource, n: number): string {
+  return dataSource.options.type === 'postgres' ? `$${n}` : '?';
+}
+
 /**
  * Inside a transaction: on PostgreSQL, locks the row (`SELECT ... FOR UPDATE`) so concurrent
  * transactions that check a state and then change it (a proposal's workflow step, a spec's next

@@ -58,6 +58,7 @@ const app = createApp({
   uploadsDir: config.uploadsDir,
   proposalsPerMinute: config.proposalsPerMinute,
   simulator: config.simulator,
+  engineWorkers: config.engineWorkers,
 });
 const server = app.listen(config.port, () => {
   console.log(`Longtail listening on http://localhost:${config.port} (database ${describeDatabase(config.database)})`);

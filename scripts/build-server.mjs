@@ -34,7 +34,8 @@ const sourceAddresses = {
 const started = Date.now();
 await build({
   absWorkingDir: root,
-  entryPoints: { server: 'api/server.ts', longtail: 'api/cli.ts' },
+  // engine-tasks: what the engine's worker threads run (api/engine/engine-worker.mjs loads it from here when the sources are not there)
+  entryPoints: { server: 'api/server.ts', longtail: 'api/cli.ts', 'engine-tasks': 'api/engine/engine-tasks.ts' },
   outdir,
   bundle: true,
   platform: 'node',

@@ -4,6 +4,7 @@
  */
 import session from 'express-session';
 import { LessThan, type DataSource, type EntityManager } from 'typeorm';
+import { sqlParameter } from '../data-source';
 import { SessionEntity } from '../entities/session.entity';
 
 /** Session lifetime when the cookie has none, ms (one working day). */
@@ -64,9 +65,9 @@ export class TypeormSessionStore extends session.Store {
   }
 
   override get(sid: string, callback: Callback<session.SessionData | null>): void {
-    this.repository
-      .findOneBy({ id: sid })
-      .then((row) => callback(undefined, row && row.expiresAtMs > Date.now() ? (JSON.parse(row.data) as session.SessionData) : null))
+    // Read on every request: a plain statement, not a built query and a hydrated entity
+    (this.dataSource.query(`SELECT data, expires_at_ms FROM "session" WHERE id = ${sqlParameter(this.dataSource, 1)}`, [sid]) as Promise<{ data: string; expires_at_ms: string | number }[]>)
+      .then(([row]) => callback(undefined, row && Number(row.expires_at_ms) > Date.now() ? (JSON.parse(row.data) as session.SessionData) : null))
       .catch((error) => callback(error));
   }
 

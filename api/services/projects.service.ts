@@ -4,8 +4,8 @@
  * carries the role the person holds in that project, and `projectFor` with an action is where
  * every write checks it.
  */
-import { In, type DataSource, type EntityManager } from 'typeorm';
-import { mayIn, ROLE_TITLES, type Action, type ProjectRole } from '../../shared/workflow/roles';
+import { DataSource, In, type EntityManager } from 'typeorm';
+import { mayIn, ROLE_TITLES, type Action, type ProjectRole, type ProjectRoleOf } from '../../shared/workflow/roles';
 import { ProjectMemberEntity, type ProjectMember } from '../entities/project-member.entity';
 import { ProjectEntity, type Project } from '../entities/project.entity';
 import { UserEntity } from '../entities/user.entity';
@@ -13,7 +13,8 @@ import { AppError, forbidden, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { publicUser, type PublicUser } from './users.service';
 
-type Viewer = Pick<PublicUser, 'id' | 'role'>;
+/** Who asks; a signed-in request's user also carries the roles held in each project (read at the start of the request). */
+type Viewer = Pick<PublicUser, 'id' | 'role'> & { projectRoles?: readonly ProjectRoleOf[] };
 
 /** The refusal when the role held in the record's project may not take the action. */
 function forbiddenInProject(role: ProjectRole | null, action: Action) {
@@ -27,7 +28,12 @@ function forbiddenInProject(role: ProjectRole | null, action: Action) {
 export async function projectFor(manager: EntityManager | DataSource, viewer: Viewer, projectId: number, action?: Action): Promise<Project> {
   const project = await manager.getRepository(ProjectEntity).findOneBy({ id: projectId });
   if (!project) throw notFound('project');
-  const membership = await manager.getRepository(ProjectMemberEntity).findOneBy({ projectId, userId: viewer.id });
+  // The request's own reading of the viewer's memberships, when there is one and no transaction
+  // needs a reading of its own (inside one, the row is read again under its locks).
+  const membership =
+    viewer.projectRoles && manager instanceof DataSource
+      ? viewer.projectRoles.find((m) => m.projectId === projectId)
+      : await manager.getRepository(ProjectMemberEntity).findOneBy({ projectId, userId: viewer.id });
   if (!membership && !mayIn(viewer.role, null, 'projects:read-all')) throw notFound('project');
   if (action && !mayIn(viewer.role, membership?.role, action)) throw forbiddenInProject(membership?.role ?? null, action);
   return project;

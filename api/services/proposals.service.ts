@@ -5,7 +5,7 @@
  * writes the record and its audit event in one transaction.
  */
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { ENGINE_VERSION, ESTIMATE_NOTICE, evaluateDesign, recommend, type RecommendResult } from '../../shared/engine/index';
+import { ENGINE_VERSION, ESTIMATE_NOTICE, type RecommendResult } from '../../shared/engine/index';
 import type { RecommendOption } from '../../shared/engine/recommend';
 import { spiceNetlist } from '../../shared/engine/netlist';
 import type { Design, RuleSet, TopologyId } from '../../shared/engine/types';
@@ -19,6 +19,7 @@ import { ReviewEntity, type Review, type Verdict } from '../entities/review.enti
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
 import { validateDesign } from '../../shared/validate';
 import { lockRowForUpdate } from '../data-source';
+import { evaluateSpecDesign, rankSpec } from '../engine/engine-pool';
 import { AppError, invalid, notFound } from '../errors';
 import { auditView, recordEvent } from './audit.service';
 import { boundCurrentDesign, type BoundDecision } from '../verification/design-binding';
@@ -155,7 +156,7 @@ async function rankingTextFor(dataSource: DataSource, version: SpecVersion, rule
   if (!inFlight) rankingsInFlight.set(ruleSet, (inFlight = new Map()));
   let ranking = inFlight.get(version.id);
   if (!ranking) {
-    ranking = recommend(checkedSpecDocument(JSON.parse(version.payload)), ruleSet).then((result) => JSON.stringify(result));
+    ranking = rankSpec(checkedSpecDocument(JSON.parse(version.payload)), ruleSet);
     inFlight.set(version.id, ranking);
     void ranking.finally(() => inFlight.delete(version.id)).catch(() => undefined);
   }
@@ -167,7 +168,8 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
   const spec = await specFor(dataSource, actor, specId, 'proposals:create');
   const version = await latestVersion(dataSource, spec);
   const resultText = await rankingTextFor(dataSource, version, ruleSet);
-  const recommended = (JSON.parse(resultText) as RecommendResult).recommended;
+  const result = JSON.parse(resultText) as RecommendResult;
+  const recommended = result.recommended;
   const proposal = await dataSource.transaction(async (manager) => {
     const now = new Date().toISOString();
     const saved = await manager.getRepository(ProposalEntity).save({
@@ -209,7 +211,7 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
     decisions: [],
     reviews: [],
     allowedEvents: allowedEvents('ranked'),
-    currentDesign: currentDesignOf(proposal, version.version, JSON.parse(resultText) as RecommendResult, []),
+    currentDesign: currentDesignOf(proposal, version.version, result, []),
   };
   return { envelope, resultText };
 }
@@ -268,7 +270,7 @@ async function settledDesign(proposal: Proposal, input: DecisionInput, ruleSet: 
   if (input.kind === 'override') {
     if (!input.design) throw invalid([{ path: '/design', message: 'is required for an override' }]);
     const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
-    const evaluation = await evaluateDesign(checkedSpecDocument(JSON.parse(version.payload)), input.design, ruleSet);
+    const evaluation = await evaluateSpecDesign(checkedSpecDocument(JSON.parse(version.payload)), input.design, ruleSet);
     return { topology: input.design.tail.topology, design: input.design, evaluation, engineVersion: ENGINE_VERSION, rulesetVersion: ruleSet.version };
   }
   const topology = input.kind === 'accept' ? result.recommended : input.topology;
@@ -299,7 +301,7 @@ function checkDecisionFields(input: DecisionInput): void {
 export async function evaluateOverride(dataSource: DataSource, actor: Viewer, proposalId: number, design: Design, ruleSet: RuleSet) {
   const proposal = await proposalFor(dataSource, actor, proposalId, 'proposals:decide');
   const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
-  return evaluateDesign(checkedSpecDocument(JSON.parse(version.payload)), design, ruleSet);
+  return evaluateSpecDesign(checkedSpecDocument(JSON.parse(version.payload)), design, ruleSet);
 }
 
 /** A designer's decision: moves a ranked or returned proposal to decided. */

@@ -9,6 +9,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { formatDateTime } from '../../shared/text/dates';
 import type { AccountRole, ProjectRoleOf } from '../../shared/workflow/roles';
 import { hashPassword, verifyPassword } from '../auth/password';
+import { sqlParameter } from '../data-source';
 import { checkPassword } from '../auth/password-policy';
 import { endSessionsOf } from '../auth/session-store';
 import { MailOutboxEntity } from '../entities/mail-outbox.entity';
@@ -43,9 +44,44 @@ export async function sessionUser(dataSource: DataSource, user: PublicUser): Pro
   return { ...publicUser(user), projectRoles: memberships.map((m) => ({ projectId: m.projectId, role: m.role })) };
 }
 
+/** One row per membership (or one with no project when there is none), as findSessionUser reads them. */
+interface SessionUserRow {
+  id: number;
+  email: string;
+  display_name: string;
+  role: User['role'];
+  notify: boolean | number;
+  created_at: string;
+  disabled_at: string | null;
+  project_id: number | null;
+  project_role: ProjectRoleOf['role'];
+}
+
+/**
+ * The signed-in person, read on every request: the account and its memberships in one statement
+ * (the same fields as findUserById + sessionUser, which took two).
+ */
 export async function findSessionUser(dataSource: DataSource, id: number): Promise<SessionUser | null> {
-  const user = await findUserById(dataSource, id);
-  return user ? sessionUser(dataSource, user) : null;
+  const rows: SessionUserRow[] = await dataSource.query(
+    `SELECT u.id, u.email, u.display_name, u.role, u.notify, u.created_at, u.disabled_at, m.project_id, m.role AS project_role
+     FROM user_account u LEFT JOIN project_member m ON m.user_id = u.id
+     WHERE u.id = ${sqlParameter(dataSource, 1)} ORDER BY m.project_id`,
+    [id],
+  );
+  if (rows.length === 0) return null;
+  const [first] = rows;
+  return {
+    ...publicUser({
+      id: Number(first.id),
+      email: first.email,
+      displayName: first.display_name,
+      role: first.role,
+      notify: Boolean(first.notify),
+      createdAt: first.created_at,
+      disabledAt: first.disabled_at,
+    }),
+    projectRoles: rows.filter((r) => r.project_id !== null).map((r) => ({ projectId: Number(r.project_id), role: r.project_role })),
+  };
 }
 
 /** The account with its password hash, for sign-in only. */

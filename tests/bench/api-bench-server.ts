@@ -6,17 +6,27 @@
  * - a second project with one spec (asked again and again: its ranking is reused after the
  *   first) and 2,000 copies of it, each a spec version never ranked (asked once each: the
  *   engine runs for every request);
- * and the real app on 127.0.0.1 on an ephemeral port. Says `ready` over IPC; `stop` answers
- * `stopped` (server errors logged, proposals made and engine runs), closes everything and
- * removes the temp dir.
+ * and the real app on 127.0.0.1 on an ephemeral port, the engine on the request thread (the
+ * app's engine workers 0). Says `ready` over IPC; then
+ * - `{ type: 'engine', workers }` with workers > 0 starts the process's engine pool (which the
+ *   app's services then use, api/engine/engine-pool.ts), with 0 stops it; answers `engine`;
+ * - `{ type: 'delay-start' }` resets and starts an event-loop delay histogram
+ *   (perf_hooks.monitorEventLoopDelay), `{ type: 'delay-stop' }` stops it and answers `delay`;
+ * - `{ type: 'profile-start' }` starts a CPU profile of the server's thread (node:inspector),
+ *   `{ type: 'profile-stop', file }` writes it (.cpuprofile, for Chrome DevTools) and answers `profiled`;
+ * - `stop` answers `stopped` (server errors logged, proposals made and engine runs), closes
+ *   everything and removes the temp dir.
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
+import { Session } from 'node:inspector/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { monitorEventLoopDelay } from 'node:perf_hooks';
 import { fileURLToPath } from 'node:url';
 import { loadRuleSet } from '../../rules/index';
 import { createApp } from '../../api/app';
+import { acquireEnginePool, type EnginePoolLease } from '../../api/engine/engine-pool';
 import { openDatabase } from '../../api/data-source';
 import { addMember, createProject } from '../../api/services/projects.service';
 import { createProposal } from '../../api/services/proposals.service';
@@ -24,8 +34,8 @@ import { createSpec } from '../../api/services/specs.service';
 import { createUser } from '../../api/services/users.service';
 
 const STORED_PROPOSALS = 10_000;
-/** More never-ranked spec versions than the engine-bound runs can use up (about 100 per second at best). */
-const FRESH_SPECS = 2_000;
+/** More never-ranked spec versions than the engine-bound runs can use up (a few hundred per second at best). */
+const FRESH_SPECS = 5_000;
 /** The demo spec every benchmarked proposal ranks (six topologies, 2,000 Monte Carlo draws). */
 const BENCH_SPEC_FILE = 'studio-line-receiver.json';
 const PASSWORD = 'bench-password-0815';
@@ -45,6 +55,24 @@ export interface BenchServerReady {
   storedProposals: number;
   seedMs: number;
 }
+
+/** Where the engine runs now: threads of the process's pool (0: on the request thread). */
+export interface BenchServerEngine {
+  type: 'engine';
+  workers: number;
+}
+
+/** The server thread's event-loop delay over a measured stretch, ms. */
+export interface BenchServerDelay {
+  type: 'delay';
+  p50Ms: number;
+  p99Ms: number;
+  maxMs: number;
+}
+
+export type BenchServerMessage =
+  | { type: 'engine'; workers: number }
+  | { type: 'delay-start' } | { type: 'delay-stop' } | { type: 'profile-start' } | { type: 'profile-stop'; file: string } | 'stop';
 
 export interface BenchServerStopped {
   type: 'stopped';
@@ -103,7 +131,7 @@ const [{ n: storedProposals }] = await dataSource.query('SELECT count(*) AS n FR
 const freshSpecs: { id: number }[] = await dataSource.query('SELECT id FROM spec WHERE project_id = ? AND id > ? ORDER BY id', [asked.project.id, asked.spec.id]);
 
 let serverErrors = 0;
-const app = createApp({ dataSource, sessionSecret: 'bench-session-secret-0123456789abcdef', ruleSet, log: () => (serverErrors += 1), proposalsPerMinute: 1_000_000 }); // throughput, not the per-person limit
+const app = createApp({ dataSource, sessionSecret: 'bench-session-secret-0123456789abcdef', ruleSet, log: (m) => { serverErrors += 1; if (process.env.BENCH_DEBUG) console.error(m); }, proposalsPerMinute: 1_000_000}); // throughput, not the per-person limit
 const server = http.createServer(app);
 server.listen(0, '127.0.0.1', () => {
   const address = server.address() as { port: number };
@@ -132,12 +160,43 @@ async function stop(): Promise<void> {
   server.closeAllConnections();
   await new Promise((resolve) => server.close(resolve));
   app.closeApp();
+  await pool?.release();
   await dataSource.destroy();
   rmSync(dir, { recursive: true, force: true });
   process.exit(0);
 }
-process.on('message', (message) => {
+const delay = monitorEventLoopDelay({ resolution: 5 });
+let profiler: Session | null = null;
+let pool: EnginePoolLease | null = null;
+const reply = (message: object) => new Promise((resolve) => process.send?.(message, undefined, undefined, resolve));
+process.on('message', (message: BenchServerMessage) => {
   if (message === 'stop') void stop();
+  else if (message.type === 'engine') {
+    void (async () => {
+      await pool?.release();
+      pool = message.workers > 0 ? acquireEnginePool(message.workers) : null;
+      const answer: BenchServerEngine = { type: 'engine', workers: pool?.workers ?? 0 };
+      await reply(answer);
+    })();
+  } else if (message.type === 'delay-start') {
+    delay.reset();
+    delay.enable();
+  } else if (message.type === 'delay-stop') {
+    delay.disable();
+    const answer: BenchServerDelay = { type: 'delay', p50Ms: delay.percentile(50) / 1e6, p99Ms: delay.percentile(99) / 1e6, maxMs: delay.max / 1e6 };
+    void reply(answer);
+  } else if (message.type === 'profile-start') {
+    profiler = new Session();
+    profiler.connect();
+    void profiler.post('Profiler.enable').then(() => profiler!.post('Profiler.start'));
+  } else if (message.type === 'profile-stop' && profiler) {
+    void profiler.post('Profiler.stop').then(({ profile }) => {
+      writeFileSync(message.file, JSON.stringify(profile));
+      profiler!.disconnect();
+      profiler = null;
+      return reply({ type: 'profiled' });
+    });
+  }
 });
 // The parent went away without saying stop: clean up all the same
 process.on('disconnect', () => void stop());

@@ -139,6 +139,8 @@ export interface BuildOptions {
   trustProxy?: boolean;
   /** The clock of the sign-in delays (default Date.now). */
   clock?: () => number;
+  /** Worker threads for the engine (default 0: the engine runs on the request thread). */
+  engineWorkers?: number;
 }
 
 /** Builds the app on a new database (or `options.database`) and seeds the accounts. */
@@ -149,7 +151,7 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
   const ruleSet = await loadRuleSet();
   const log = options.log ?? (() => {});
   const verification = new VerificationQueue(dataSource, { log, ...options.verification });
-  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log, verification, uploadsDir: options.uploadsDir, trustProxy: options.trustProxy, clock: options.clock });
+  const app = createApp({ dataSource, sessionSecret: 'x'.repeat(40), ruleSet, log, verification, uploadsDir: options.uploadsDir, trustProxy: options.trustProxy, clock: options.clock, engineWorkers: options.engineWorkers });
   const entries = await Promise.all(
     (options.accounts ?? ACCOUNT_KEYS).map(async (key) => {
       const user = await createUser(dataSource, null, { email: emailOf(key), displayName: `Test ${key}`, role: accountRoleOf(key), password: TEST_PASSWORD });
@@ -184,6 +186,7 @@ export async function buildApiApp(options: BuildOptions = {}): Promise<TestApi> 
     async close() {
       app.closeApp();
       await app.verification.close();
+      await app.enginePool.release();
       if (dataSource.isInitialized) await dataSource.destroy();
       await owned?.drop();
     },
