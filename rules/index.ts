@@ -1,4 +1,4 @@
-import type { RuleSet } from '../shared/engine/types';
+import { severityOfKind, type RuleSet } from '../shared/engine/types';
 import { loadRuleFiles, prepareRules, rulesetVersion, runRules, type RuleFile } from './run-rules';
 
 /**
@@ -9,7 +9,7 @@ export function createRuleSet(rules: readonly RuleFile[]): RuleSet {
   prepareRules(rules);
   return {
     version: rulesetVersion(rules),
-    rules: [...rules].sort((a, b) => a.name.localeCompare(b.name)).map((r) => ({ rule: r.name, severity: r.event.params.severity })),
+    rules: [...rules].sort((a, b) => a.name.localeCompare(b.name)).map((r) => ({ rule: r.name, title: r.title, kind: r.kind, figure: r.figure, severity: severityOfKind(r.kind) })),
     evaluate: (facts) => runRules(rules, facts),
   };
 }

@@ -45,17 +45,18 @@ export interface RecommendResult {
   options: RecommendOption[];
 }
 
-const CAUTION_RULES = new Set(['hazardous-voltage', 'patient-connected', 'mains-referenced']);
-
 /** Every rule of the set, undecided, for an option whose stage could not be solved. */
 function unsolvedChecks(ruleSet: RuleSet, message: string): Check[] {
-  return ruleSet.rules.map(({ rule, severity }) => ({
+  return ruleSet.rules.map(({ rule, severity, title, kind, figure }) => ({
     rule,
     passed: false,
     severity,
     reason: `Not decided: this option could not be solved at the spec's conditions (${message}).`,
     margin: null,
     evaluated: false,
+    title,
+    kind,
+    figure,
   }));
 }
 
@@ -151,7 +152,7 @@ export async function recommend(spec: Spec, ruleSet: RuleSet): Promise<Recommend
   const byTopology = new Map(evaluated.map((o) => [o.topology, o]));
   const options = ranked.map((r, i) => ({ ...byTopology.get(r.topology)!, rank: i + 1 }));
   const cautions = [
-    ...new Set(evaluated.flatMap((o) => o.checks.filter((c) => CAUTION_RULES.has(c.rule) && !c.passed && c.evaluated !== false).map((c) => c.reason))),
+    ...new Set(evaluated.flatMap((o) => o.checks.filter((c) => c.kind === 'caution' && !c.passed && c.evaluated !== false).map((c) => c.reason))),
   ];
   return {
     engineVersion: ENGINE_VERSION,
