@@ -5,6 +5,7 @@
  * module only rounds, picks a prefix and words (`recommend` fills the command line's text
  * fields with it).
  */
+import type { InputWarning, OperatingPointProblem } from '../engine/analyze';
 import type { GainRemedy, MeasuredFacts } from '../engine/option-evaluation';
 import type { SizingStep } from '../engine/sizing';
 import type { OptionFacts, SelectionPolicy } from '../engine/types';
@@ -20,6 +21,36 @@ const COLLECTOR_FORMULAS: Record<Extract<SizingStep, { step: 'collector' }>['for
   differential: '|Ad|·VT/IC',
   'single-ended': '2·|Ase|·VT/IC',
 };
+
+/** One sentence on a transistor out of the forward-active region or a dead reference branch. */
+export function operatingPointProblemText(p: OperatingPointProblem): string {
+  switch (p.problem) {
+    case 'saturated':
+      return `${p.transistor} is saturated: VCE = ${p.vceV.toFixed(3)} V, below VCE(sat) = ${p.vceSatV} V.`;
+    case 'cut-off':
+      return `${p.transistor} is cut off: its collector current is ${p.collectorCurrentA.toExponential(2)} A.`;
+    case 'dead-reference':
+      return 'The reference branch carries no current: the rails are too close for this tail.';
+  }
+}
+
+const INPUT_WARNINGS: Readonly<Record<InputWarning, string>> = {
+  'no-early-voltage': "No Early voltage (VAF) given: output resistances then rest only on SPICE's GMIN, so the rejection figures mean little; enter the device's VAF.",
+};
+
+/** One sentence on a warning about the inputs themselves. */
+export function inputWarningText(warning: InputWarning): string {
+  return INPUT_WARNINGS[warning];
+}
+
+function signedFigure(x: number, unit: string): string {
+  return `${x < 0 ? '−' : ''}${Math.abs(Number(x.toPrecision(4)))} ${unit}`;
+}
+
+/** A readable label for a condition, e.g. "ICM −2 V, 85 °C" (it also names the condition in figures and facts). */
+export function conditionLabel(inputCommonModeV: number, temperatureC: number): string {
+  return `ICM ${signedFigure(inputCommonModeV, 'V')}, ${signedFigure(temperatureC, '°C')}`;
+}
 
 /** One sentence on how a value was chosen. */
 export function sizingNote(s: SizingStep): string {
