@@ -29,6 +29,8 @@ export interface SolvedCircuit {
 /** A solved stage with the contract's figures. */
 export interface StageSolution extends SolvedCircuit {
   result: AnalyzeResult;
+  /** The operating-point problems as figures (`result` holds them worded). */
+  problems: OperatingPointProblem[];
 }
 
 /** Small-signal transfers of a solved stage at a frequency (Hz). */
@@ -155,7 +157,7 @@ function vbeGuessV(design: Design, model: DeviceModel): number {
  */
 export function solveStage(design: Design, warmStart?: SolvedCircuit): StageSolution {
   const solved = solveCircuit(design, warmStart);
-  return { ...solved, result: stageFigures(solved) };
+  return { ...solved, ...stageFigures(solved) };
 }
 
 /**
@@ -169,8 +171,8 @@ export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedC
   return { design, model, op, stage: smallSignalStage(op) };
 }
 
-/** The contract's figures of a solved circuit. */
-function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResult {
+/** The contract's figures of a solved circuit, and its operating-point problems as figures. */
+function stageFigures({ design, model, op, stage }: SolvedCircuit): { result: AnalyzeResult; problems: OperatingPointProblem[] } {
   const ic = op.circuit;
   const v = op.voltagesV;
   const transistors = transistorOperatingPoints(ic, op, model.vceSatV);
@@ -186,8 +188,9 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResul
   const cmrrSingleDb = 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re));
   const matched = Math.abs(low.differentialCommonModeGain.re) <= MATCHED_PAIR_RATIO * Math.abs(low.commonModeGain.re);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);
-  const problems = operatingPointProblems(transistors, model.vceSatV, referenceCurrentA, design.tail.topology !== 'resistor').map(operatingPointProblemText);
-  return {
+  const problems = operatingPointProblems(transistors, model.vceSatV, referenceCurrentA, design.tail.topology !== 'resistor');
+  const problemTexts = problems.map(operatingPointProblemText);
+  const result: AnalyzeResult = {
     tailCurrentA: currentIntoElementsA(op, TAIL_NODE, true),
     collectorCurrentA: q1.collectorCurrentA,
     collectorVoltageV: nodeVoltage(ic, v, ic.nodeRef(COLLECTOR_NODES[0])),
@@ -205,8 +208,8 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResul
     cmrrCornerHz: cmrrCornerHz(stage, design.tailCapacitanceF ?? 0),
     // Power delivered by the rails: Σ V·I, I the current each rail sends into the circuit.
     powerW: design.supply.positiveV * positiveA + design.supply.negativeV * negativeA,
-    warnings: [...problems, ...inputWarnings(model.earlyVoltageV).map(inputWarningText)],
-    operatingPointProblems: problems,
+    warnings: [...problemTexts, ...inputWarnings(model.earlyVoltageV).map(inputWarningText)],
+    operatingPointProblems: problemTexts,
     tailOutputResistanceClosedForm: closedForm,
     transistors,
     collector2VoltageV: nodeVoltage(ic, v, ic.nodeRef(COLLECTOR_NODES[1])),
@@ -217,6 +220,7 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResul
         : Math.min(...outputTransistors.map((q) => q.vceV - model.vceSatV)),
     pairSaturationMarginV: Math.min(...pair.map((q) => q.vceV - model.vceSatV)),
   };
+  return { result, problems };
 }
 
 /**

@@ -4,7 +4,7 @@
  * checks are decided on (worst corner taken, margins computed; rules only compare).
  */
 import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
-import { solveStage, singleEndedCmrrDbAt, type StageSolution } from './analyze';
+import { solveStage, singleEndedCmrrDbAt, type OperatingPointProblem, type StageSolution } from './analyze';
 import {
   mismatchSensitivity,
   mismatchStages,
@@ -61,8 +61,17 @@ export type GainRemedy = 'degeneration-or-rising-tail-current' | 'current-source
 /** The facts whose value is a sentence: written at the edge from the figures beside them. */
 export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote';
 
-/** The facts as the engine computes them: figures and ids, the remedy as an id. */
-export type MeasuredFacts = Omit<OptionFacts, WordedFact> & { gainOverConditionsRemedyId: GainRemedy };
+/** An operating-point problem and the condition it appears at. */
+export interface ProblemAt {
+  conditionLabel: string;
+  problem: OperatingPointProblem;
+}
+
+/** The facts as the engine computes them: figures and ids, the remedy as an id, the problems as figures. */
+export type MeasuredFacts = Omit<OptionFacts, WordedFact | 'operatingPointProblems'> & {
+  gainOverConditionsRemedyId: GainRemedy;
+  operatingPointProblemsAt: ProblemAt[];
+};
 
 export interface OptionEvaluation {
   predicted: AnalyzeResult;
@@ -141,7 +150,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
       warnings: solution.result.warnings,
       operatingPointProblems: solution.result.operatingPointProblems,
     };
-    return { figures, screening };
+    return { figures, screening, problems: solution.problems };
   });
   const cornerFigures = corners.map((c) => c.figures);
   const worstSingle = cornerFigures.reduce((a, b) => (b.cmrrAtFrequencyDb < a.cmrrAtFrequencyDb ? b : a));
@@ -178,9 +187,9 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const upRoomV = spec.supply.positiveV - Math.max(predicted.collectorVoltageV, predicted.collector2VoltageV);
   const swingMarginV = Math.min(upRoomV - swingPeakV, predicted.pairSaturationMarginV - swingPeakV);
   const powerWorstW = Math.max(predicted.powerW, ...cornerFigures.map((c) => c.powerW));
-  const problems = [
-    ...predicted.operatingPointProblems.map((w) => `${nominal.label}: ${w}`),
-    ...cornerFigures.flatMap((c) => c.operatingPointProblems.map((w) => `${c.label}: ${w}`)),
+  const problems: ProblemAt[] = [
+    ...nominalSolution.problems.map((problem) => ({ conditionLabel: nominal.label, problem })),
+    ...corners.flatMap((c) => c.problems.map((problem) => ({ conditionLabel: c.figures.label, problem }))),
   ];
   const omegaCt = 2 * Math.PI * f * spec.tailCapacitanceF;
   const rout = predicted.tailOutputResistanceOhm;
@@ -238,7 +247,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     hazardousVoltageMarginV: HAZARDOUS_VOLTAGE_LIMIT_V - (spec.supply.positiveV - spec.supply.negativeV),
     patientConnected: spec.hazards.patientConnected,
     mainsReferenced: spec.hazards.mainsReferenced,
-    operatingPointProblems: problems,
+    operatingPointProblemsAt: problems,
     operatingPointProblemCount: problems.length,
     tailImpedanceAtFrequencyOhm: rout / Math.sqrt(1 + (omegaCt * rout) ** 2),
     tailOutputResistanceOhm: rout,

@@ -6,7 +6,7 @@
  * fields with it).
  */
 import type { InputWarning, OperatingPointProblem } from '../engine/analyze';
-import type { GainRemedy, MeasuredFacts } from '../engine/option-evaluation';
+import type { GainRemedy, MeasuredFacts, ProblemAt } from '../engine/option-evaluation';
 import type { SizingStep } from '../engine/sizing';
 import type { OptionFacts, SelectionPolicy } from '../engine/types';
 import { formatQuantity } from '../units/format-quantity';
@@ -32,6 +32,11 @@ export function operatingPointProblemText(p: OperatingPointProblem): string {
     case 'dead-reference':
       return 'The reference branch carries no current: the rails are too close for this tail.';
   }
+}
+
+/** An operating-point problem with the condition it appears at, e.g. "ICM 0 V, 27 °C: Q4 is saturated: …". */
+export function problemAtText({ conditionLabel, problem }: ProblemAt): string {
+  return `${conditionLabel}: ${operatingPointProblemText(problem)}`;
 }
 
 const INPUT_WARNINGS: Readonly<Record<InputWarning, string>> = {
@@ -99,12 +104,14 @@ export const GAIN_REMEDY_WORDS: Readonly<Record<GainRemedy, string>> = {
 
 /**
  * An option's facts with their worded ones written from the figures beside them: the remedy's
- * words for its id, the tail output resistance beside its textbook limit. Keys keep their order.
+ * words for its id, each operating-point problem with its condition, the tail output resistance
+ * beside its textbook limit. Keys keep their order.
  */
 export function wordedFacts(measured: MeasuredFacts): OptionFacts {
   const facts: Record<string, unknown> = {};
   for (const [key, value] of Object.entries(measured)) {
     if (key === 'gainOverConditionsRemedyId') facts.gainOverConditionsRemedy = GAIN_REMEDY_WORDS[value as GainRemedy];
+    else if (key === 'operatingPointProblemsAt') facts.operatingPointProblems = (value as ProblemAt[]).map(problemAtText);
     else facts[key] = value;
   }
   const closedForm = { valueOhm: measured.tailOutputResistanceClosedFormOhm, formula: measured.tailOutputResistanceFormula };

@@ -49,11 +49,16 @@ describe('figures worded', () => {
     expect(tailOutputResistanceNote(5.48e6, { valueOhm: 5.29e6, formula: 'β·ro/2' })).toBe('5.48 MΩ by node analysis (textbook β·ro/2 ≈ 5.29 MΩ)');
   });
 
-  test('when an option\'s facts are worded, then the remedy id becomes its words in its place and the Rout note is written from the figures', () => {
-    const { gainOverConditionsRemedy: _words, tailOutputResistanceNote: _note, ...rest } = makeOptionFacts();
+  test('when an option\'s facts are worded, then the remedy id and the problems become words in their places and the Rout note is written from the figures', () => {
+    const { gainOverConditionsRemedy: _words, tailOutputResistanceNote: _note, operatingPointProblems: _problems, ...rest } = makeOptionFacts();
     const measured: MeasuredFacts = {
       ...rest,
       gainOverConditionsRemedyId: 'current-source-tail',
+      operatingPointProblemsAt: [
+        { conditionLabel: 'ICM 3.5 V, 5 °C', problem: { problem: 'saturated', transistor: 'Q2', vceV: 0.0204, vceSatV: 0.15 } },
+        { conditionLabel: 'ICM \u22123.2 V, 5 °C', problem: { problem: 'dead-reference' } },
+      ],
+      operatingPointProblemCount: 2,
       tailOutputResistanceOhm: 2.3e6,
       tailOutputResistanceClosedFormOhm: 2.5e6,
       tailOutputResistanceFormula: 'ro·(1 + gm·(RE ∥ rπ))',
@@ -61,8 +66,13 @@ describe('figures worded', () => {
     const facts = wordedFacts(measured);
     expect(facts.gainOverConditionsRemedy).toBe('a current-source tail instead of the resistor (the tail current then stops following the input common mode)');
     expect(facts.tailOutputResistanceNote).toBe('2.3 MΩ by node analysis (textbook ro·(1 + gm·(RE ∥ rπ)) ≈ 2.5 MΩ)');
+    expect(facts.operatingPointProblems).toEqual([
+      'ICM 3.5 V, 5 °C: Q2 is saturated: VCE = 0.020 V, below VCE(sat) = 0.15 V.',
+      'ICM \u22123.2 V, 5 °C: The reference branch carries no current: the rails are too close for this tail.',
+    ]);
     expect('gainOverConditionsRemedyId' in facts).toBe(false);
-    const measuredKeys = Object.keys(measured).map((key) => (key === 'gainOverConditionsRemedyId' ? 'gainOverConditionsRemedy' : key));
+    const worded: Record<string, string> = { gainOverConditionsRemedyId: 'gainOverConditionsRemedy', operatingPointProblemsAt: 'operatingPointProblems' };
+    const measuredKeys = Object.keys(measured).map((key) => worded[key] ?? key);
     expect(Object.keys(facts)).toEqual([...measuredKeys, 'tailOutputResistanceNote']);
   });
 });
