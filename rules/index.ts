@@ -1,4 +1,4 @@
-import type { RuleSet } from '../shared/engine/types';
+import { severityOfKind, type RuleSet } from '../shared/engine/types';
 import { loadRuleFiles, prepareRules, rulesetVersion, runRules, type RuleFile } from './run-rules';
 
 /** The rule list each RuleSet made here was built from (another thread builds the same RuleSet from it). */
@@ -12,7 +12,7 @@ export function createRuleSet(rules: readonly RuleFile[]): RuleSet {
   prepareRules(rules);
   const ruleSet: RuleSet = {
     version: rulesetVersion(rules),
-    rules: [...rules].sort((a, b) => a.name.localeCompare(b.name)).map((r) => ({ rule: r.name, severity: r.event.params.severity })),
+    rules: [...rules].sort((a, b) => a.name.localeCompare(b.name)).map((r) => ({ rule: r.name, title: r.title, kind: r.kind, figure: r.figure, severity: severityOfKind(r.kind) })),
     evaluate: (facts) => runRules(rules, facts),
   };
   ruleFilesBySet.set(ruleSet, rules);

@@ -6,7 +6,7 @@ import { fileURLToPath } from 'node:url';
 // as a named export, whereas the default export differs between Node (module.exports) and
 // bundler interop (the engine factory).
 import { Engine, type RuleProperties } from 'json-rules-engine';
-import type { Check, OptionFacts } from '../shared/engine/types';
+import { severityOfKind, type Check, type OptionFacts } from '../shared/engine/types';
 import { FACT_KINDS, fitsFactKind } from './fact-kinds';
 import { formatReason } from './format-reason';
 import { validateRule, type RuleFile } from './validate-rule';
@@ -129,7 +129,17 @@ function toCheck(rule: RuleFile, passed: boolean | undefined, facts: Readonly<Op
   if (value !== null && !(typeof value === 'number' && Number.isFinite(value))) {
     throw new Error(`Rule ${rule.name}: margin fact "${params.marginFact}" is ${String(value)}, not a finite number`);
   }
-  const check: Check = { rule: rule.name, passed, severity: params.severity, reason, margin: value, applicable: !notApplicable };
+  const check: Check = {
+    rule: rule.name,
+    passed,
+    severity: severityOfKind(rule.kind),
+    reason,
+    margin: value,
+    applicable: !notApplicable,
+    title: rule.title,
+    kind: rule.kind,
+    figure: rule.figure,
+  };
   if (params.marginUnit !== null) check.marginUnit = params.marginUnit;
   if (passed && params.thinMarginBelow !== undefined && typeof value === 'number' && value < params.thinMarginBelow) check.thinMargin = true;
   return check;

@@ -1,11 +1,10 @@
 import type { TopLevelCondition } from 'json-rules-engine';
-import type { OptionFacts, Severity } from '../shared/engine/types';
+import type { OptionFacts, RuleKind } from '../shared/engine/types';
 import { FACT_KINDS, isFactName } from './fact-kinds';
 import { templateProblems } from './format-reason';
 
 /** `event.params` of a rule file: how its check is reported. */
 export interface CheckParams {
-  severity: Severity;
   /** Fact holding "how far on the good side" (negative when failing); null when the rule has none. */
   marginFact: keyof OptionFacts | null;
   /** Unit of the margin fact ("dB", "V", "W", "%"); null exactly when marginFact is null. */
@@ -19,22 +18,33 @@ export interface CheckParams {
   thinMarginBelow?: number;
 }
 
-/** One `rules/<name>.json`: a json-rules-engine rule whose name is its file name. */
+/**
+ * One `rules/<name>.json`: a json-rules-engine rule whose name is its file name, with what its
+ * check is called and how it counts (the one home of each rule's metadata, carried on every check).
+ */
 export interface RuleFile {
   name: string;
+  /** Short readable name of the check, e.g. "Power budget" (tables, the report). */
+  title: string;
+  /** blocking: an option failing it does not pass; advisory: reported only; caution: advisory, a hazard repeated for every option. */
+  kind: RuleKind;
+  /** The fact holding the figure the rule judges (the cell a failing check marks); null when the rule judges a spec flag. */
+  figure: keyof OptionFacts | null;
   conditions: TopLevelCondition;
   event: { type: string; params: CheckParams };
 }
 
 const KEBAB_CASE = /^[a-z0-9]+(-[a-z0-9]+)*$/;
-const SEVERITIES: readonly string[] = ['blocking', 'advisory'] satisfies Severity[];
+const KINDS: readonly string[] = ['blocking', 'advisory', 'caution'] satisfies RuleKind[];
+/** Longest title: it names a check in a table cell. */
+const TITLE_MAX_LENGTH = 60;
 /** json-rules-engine 7's built-in operators that compare (no custom operators are registered). */
 const OPERATORS = [
   'equal', 'notEqual', 'lessThan', 'lessThanInclusive', 'greaterThan', 'greaterThanInclusive',
   'in', 'notIn', 'contains', 'doesNotContain',
 ];
 const PARAM_KEYS = [
-  'severity', 'marginFact', 'marginUnit', 'passReason', 'failReason', 'appliesWhen', 'notApplicableReason', 'thinMarginBelow',
+  'marginFact', 'marginUnit', 'passReason', 'failReason', 'appliesWhen', 'notApplicableReason', 'thinMarginBelow',
 ];
 
 type Json = Record<string, unknown>;
@@ -66,8 +76,6 @@ function conditionProblems(node: unknown, path: string): string[] {
 /** Problems in `event.params`, including the not-applicable branch the conditions must carry. */
 function paramsProblems(p: Json, conditions: unknown): string[] {
   const problems = extraKeys(p, PARAM_KEYS).map((k) => `/event/params: unexpected key "${k}"`);
-  if (!SEVERITIES.includes(p.severity as string))
-    problems.push(`/event/params/severity: must be "blocking" or "advisory", got ${JSON.stringify(p.severity)}`);
   if (p.marginFact === null) {
     if (p.marginUnit !== null) problems.push('/event/params/marginUnit: must be null when marginFact is null');
   } else {
@@ -107,14 +115,31 @@ function paramsProblems(p: Json, conditions: unknown): string[] {
   return problems;
 }
 
+/** Problems in the rule's metadata: its title, kind and the figure it judges. */
+function metadataProblems(rule: Json): string[] {
+  const problems: string[] = [];
+  const { title, kind, figure } = rule;
+  if (typeof title !== 'string' || title.trim() === '' || title !== title.trim() || title.length > TITLE_MAX_LENGTH || /[\p{Cc}{}]/u.test(title))
+    problems.push(`/title: must be a one-line name of 1-${TITLE_MAX_LENGTH} characters without braces, got ${JSON.stringify(title)}`);
+  if (!KINDS.includes(kind as string))
+    problems.push(`/kind: must be "blocking", "advisory" or "caution", got ${JSON.stringify(kind)}`);
+  if (figure !== null) {
+    const factKind = typeof figure === 'string' && isFactName(figure) ? FACT_KINDS[figure] : undefined;
+    if (factKind !== 'number' && factKind !== 'number-or-null')
+      problems.push(`/figure: must be a numeric fact or null, got ${JSON.stringify(figure)}`);
+  }
+  return problems;
+}
+
 /** Every problem in a parsed rule file, each as "/json/path: message"; empty when valid. */
 export function ruleProblems(rule: unknown, expectedName?: string): string[] {
   if (!isObject(rule)) return ['/: must be an object'];
-  const problems = extraKeys(rule, ['name', 'conditions', 'event']).map((k) => `/: unexpected key "${k}"`);
+  const problems = extraKeys(rule, ['name', 'title', 'kind', 'figure', 'conditions', 'event']).map((k) => `/: unexpected key "${k}"`);
   if (typeof rule.name !== 'string' || !KEBAB_CASE.test(rule.name))
     problems.push(`/name: must be kebab-case, got ${JSON.stringify(rule.name)}`);
   else if (expectedName !== undefined && rule.name !== expectedName)
     problems.push(`/name: "${rule.name}" differs from the file name "${expectedName}"`);
+  problems.push(...metadataProblems(rule));
   if (!isObject(rule.conditions) || !['all', 'any', 'not'].some((k) => k in (rule.conditions as Json)))
     problems.push('/conditions: must hold "all", "any" or "not"');
   else problems.push(...conditionProblems(rule.conditions, '/conditions'));

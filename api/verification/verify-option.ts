@@ -26,7 +26,7 @@ import {
 } from './spice-analyses';
 import { TAIL_TEST_SOURCE, type AcSweep } from '../../shared/engine/netlist';
 import { singleEndedCmrrDbAt, solveStage } from '../../shared/engine/analyze';
-import { conditionLabel } from '../../shared/engine/conditions';
+import { conditionLabel } from '../../shared/text/engine-notes';
 import { NOMINAL_TEMPERATURE_C } from '../../shared/engine/constants';
 import { formatQuantity } from '../../shared/units/format-quantity';
 

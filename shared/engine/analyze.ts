@@ -11,6 +11,7 @@ import { nodeVoltage, type IndexedCircuit } from './node-system';
 import { solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { magnitude, smallSignalStage, transferAt, type Complex, type SmallSignalStage } from './small-signal';
 import type { AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
+import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
 
 /** Collector current below which a transistor counts as cut off, A (well under any useful bias). */
 const CUT_OFF_CURRENT_A = 1e-10;
@@ -28,6 +29,8 @@ export interface SolvedCircuit {
 /** A solved stage with the contract's figures. */
 export interface StageSolution extends SolvedCircuit {
   result: AnalyzeResult;
+  /** The operating-point problems as figures (`result` holds them worded). */
+  problems: OperatingPointProblem[];
 }
 
 /** Small-signal transfers of a solved stage at a frequency (Hz). */
@@ -116,25 +119,28 @@ function cmrrCornerHz(stage: SmallSignalStage, tailCapacitanceF: number): number
   return omegaCt / (2 * Math.PI * tailCapacitanceF);
 }
 
-/** Sentences for transistors out of the forward-active region and a dead reference branch. */
-function operatingPointProblems(transistors: TransistorOperatingPoint[], vceSatV: number, referenceCurrentA: number, hasReference: boolean): string[] {
-  const problems: string[] = [];
+/** A transistor out of the forward-active region, or a reference branch carrying no current (worded at the edge). */
+export type OperatingPointProblem =
+  | { problem: 'saturated'; transistor: string; vceV: number; vceSatV: number }
+  | { problem: 'cut-off'; transistor: string; collectorCurrentA: number }
+  | { problem: 'dead-reference' };
+
+/** A warning about the inputs themselves (not the operating point). */
+export type InputWarning = 'no-early-voltage';
+
+/** Transistors out of the forward-active region and a dead reference branch. */
+function operatingPointProblems(transistors: TransistorOperatingPoint[], vceSatV: number, referenceCurrentA: number, hasReference: boolean): OperatingPointProblem[] {
+  const problems: OperatingPointProblem[] = [];
   for (const q of transistors) {
-    if (q.region === 'saturated') {
-      problems.push(`${q.name} is saturated: VCE = ${q.vceV.toFixed(3)} V, below VCE(sat) = ${vceSatV} V.`);
-    } else if (q.region === 'cut-off') {
-      problems.push(`${q.name} is cut off: its collector current is ${q.collectorCurrentA.toExponential(2)} A.`);
-    }
+    if (q.region === 'saturated') problems.push({ problem: 'saturated', transistor: q.name, vceV: q.vceV, vceSatV });
+    else if (q.region === 'cut-off') problems.push({ problem: 'cut-off', transistor: q.name, collectorCurrentA: q.collectorCurrentA });
   }
-  if (hasReference && !(referenceCurrentA > 0)) problems.push('The reference branch carries no current: the rails are too close for this tail.');
+  if (hasReference && !(referenceCurrentA > 0)) problems.push({ problem: 'dead-reference' });
   return problems;
 }
 
-/** Warnings about the inputs themselves (not the operating point). */
-function inputWarnings(earlyVoltageV: number): string[] {
-  return Number.isFinite(earlyVoltageV)
-    ? []
-    : ["No Early voltage (VAF) given: output resistances then rest only on SPICE's GMIN, so the rejection figures mean little; enter the device's VAF."];
+function inputWarnings(earlyVoltageV: number): InputWarning[] {
+  return Number.isFinite(earlyVoltageV) ? [] : ['no-early-voltage'];
 }
 
 /** Starting-guess VBE: the device's VBE at a rough tail-current estimate (rails over the largest resistor). */
@@ -151,7 +157,7 @@ function vbeGuessV(design: Design, model: DeviceModel): number {
  */
 export function solveStage(design: Design, warmStart?: SolvedCircuit): StageSolution {
   const solved = solveCircuit(design, warmStart);
-  return { ...solved, result: stageFigures(solved) };
+  return { ...solved, ...stageFigures(solved) };
 }
 
 /**
@@ -165,8 +171,8 @@ export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedC
   return { design, model, op, stage: smallSignalStage(op) };
 }
 
-/** The contract's figures of a solved circuit. */
-function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResult {
+/** The contract's figures of a solved circuit, and its operating-point problems as figures. */
+function stageFigures({ design, model, op, stage }: SolvedCircuit): { result: AnalyzeResult; problems: OperatingPointProblem[] } {
   const ic = op.circuit;
   const v = op.voltagesV;
   const transistors = transistorOperatingPoints(ic, op, model.vceSatV);
@@ -183,7 +189,8 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResul
   const matched = Math.abs(low.differentialCommonModeGain.re) <= MATCHED_PAIR_RATIO * Math.abs(low.commonModeGain.re);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);
   const problems = operatingPointProblems(transistors, model.vceSatV, referenceCurrentA, design.tail.topology !== 'resistor');
-  return {
+  const problemTexts = problems.map(operatingPointProblemText);
+  const result: AnalyzeResult = {
     tailCurrentA: currentIntoElementsA(op, TAIL_NODE, true),
     collectorCurrentA: q1.collectorCurrentA,
     collectorVoltageV: nodeVoltage(ic, v, ic.nodeRef(COLLECTOR_NODES[0])),
@@ -201,8 +208,8 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResul
     cmrrCornerHz: cmrrCornerHz(stage, design.tailCapacitanceF ?? 0),
     // Power delivered by the rails: Σ V·I, I the current each rail sends into the circuit.
     powerW: design.supply.positiveV * positiveA + design.supply.negativeV * negativeA,
-    warnings: [...problems, ...inputWarnings(model.earlyVoltageV)],
-    operatingPointProblems: problems,
+    warnings: [...problemTexts, ...inputWarnings(model.earlyVoltageV).map(inputWarningText)],
+    operatingPointProblems: problemTexts,
     tailOutputResistanceClosedForm: closedForm,
     transistors,
     collector2VoltageV: nodeVoltage(ic, v, ic.nodeRef(COLLECTOR_NODES[1])),
@@ -213,6 +220,7 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): AnalyzeResul
         : Math.min(...outputTransistors.map((q) => q.vceV - model.vceSatV)),
     pairSaturationMarginV: Math.min(...pair.map((q) => q.vceV - model.vceSatV)),
   };
+  return { result, problems };
 }
 
 /**

@@ -4,6 +4,7 @@
  */
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import type { Spec } from './types';
+import { conditionLabel } from '../text/engine-notes';
 
 export interface Condition {
   label: string;
@@ -13,19 +14,6 @@ export interface Condition {
 
 /** Points in the temperature sweep (endpoints included). */
 export const TEMPERATURE_SWEEP_POINTS = 7;
-
-function formatVolts(v: number): string {
-  return `${v < 0 ? '−' : ''}${Math.abs(Number(v.toPrecision(4)))} V`;
-}
-
-function formatCelsius(t: number): string {
-  return `${t < 0 ? '−' : ''}${Math.abs(Number(t.toPrecision(4)))} °C`;
-}
-
-/** A readable label for a condition, e.g. "ICM −2 V, 85 °C". */
-export function conditionLabel(inputCommonModeV: number, temperatureC: number): string {
-  return `ICM ${formatVolts(inputCommonModeV)}, ${formatCelsius(temperatureC)}`;
-}
 
 function condition(inputCommonModeV: number, temperatureC: number): Condition {
   return { label: conditionLabel(inputCommonModeV, temperatureC), inputCommonModeV, temperatureC };

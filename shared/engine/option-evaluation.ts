@@ -4,7 +4,7 @@
  * checks are decided on (worst corner taken, margins computed; rules only compare).
  */
 import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
-import { solveStage, singleEndedCmrrDbAt, type StageSolution } from './analyze';
+import { solveStage, singleEndedCmrrDbAt, type OperatingPointProblem, type StageSolution } from './analyze';
 import {
   mismatchSensitivity,
   mismatchStages,
@@ -18,7 +18,6 @@ import {
   type MonteCarloResult,
   type ScreeningStages,
 } from './mismatch';
-import { formatQuantity } from '../units/format-quantity';
 import { designAt, outputGain, swingPeakPerCollectorV } from './sizing';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
 
@@ -56,9 +55,27 @@ export interface OptionCurves {
   temperatureSweep: { temperatureC: number; tailCurrentA: number; gain: number }[];
 }
 
+/** What would hold the gain over the spec's range (worded at the edge, shared/text/engine-notes.ts). */
+export type GainRemedy = 'degeneration-or-rising-tail-current' | 'current-source-tail' | 'higher-resistance-tail';
+
+/** The facts whose value is a sentence: written at the edge from the figures beside them. */
+export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote';
+
+/** An operating-point problem and the condition it appears at. */
+export interface ProblemAt {
+  conditionLabel: string;
+  problem: OperatingPointProblem;
+}
+
+/** The facts as the engine computes them: figures and ids, the remedy as an id, the problems as figures. */
+export type MeasuredFacts = Omit<OptionFacts, WordedFact | 'operatingPointProblems'> & {
+  gainOverConditionsRemedyId: GainRemedy;
+  operatingPointProblemsAt: ProblemAt[];
+};
+
 export interface OptionEvaluation {
   predicted: AnalyzeResult;
-  facts: OptionFacts;
+  facts: MeasuredFacts;
   corners: ConditionFigures[];
   curves: OptionCurves;
   monteCarlo: MonteCarloResult | null;
@@ -68,12 +85,6 @@ export interface OptionEvaluation {
 function at(spec: Spec, design: Design, condition: Condition): StageSolution {
   const values = { tail: design.tail, collectorResistanceOhm: design.collectorResistanceOhm, pairEmitterResistanceOhm: design.pairEmitterResistanceOhm ?? 0 };
   return solveStage(designAt(spec, condition, values));
-}
-
-/** The solved tail output resistance beside its textbook limit, as one phrase. */
-function routNote(routOhm: number, closedForm: { valueOhm: number | null; formula: string }): string {
-  const textbook = closedForm.valueOhm === null ? 'unbounded without an Early voltage' : `≈ ${formatQuantity(closedForm.valueOhm, 'Ohm')}`;
-  return `${formatQuantity(routOhm, 'Ohm')} by node analysis (textbook ${closedForm.formula} ${textbook})`;
 }
 
 /**
@@ -96,12 +107,9 @@ function gainSpreadCause(corners: readonly ConditionFigures[], worstLabel: strin
  * the gain lean on RC/RE rather than on gm. Common mode: the tail current follows the input through
  * a resistor tail, and through a current source's finite output resistance.
  */
-function gainRemedy(cause: 'temperature' | 'input common mode', resistorTail: boolean): string {
-  if (cause === 'temperature')
-    return 'pair emitter degeneration (the gain then rests on RC/RE more than on IC/VT) or a tail current that rises with temperature (proportional to absolute temperature, as from a ΔVBE cell)';
-  return resistorTail
-    ? 'a current-source tail instead of the resistor (the tail current then stops following the input common mode)'
-    : 'a tail with a higher output resistance (its current then moves less with the input common mode)';
+function gainRemedy(cause: 'temperature' | 'input common mode', resistorTail: boolean): GainRemedy {
+  if (cause === 'temperature') return 'degeneration-or-rising-tail-current';
+  return resistorTail ? 'current-source-tail' : 'higher-resistance-tail';
 }
 
 function frequencyGrid(): number[] {
@@ -142,7 +150,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
       warnings: solution.result.warnings,
       operatingPointProblems: solution.result.operatingPointProblems,
     };
-    return { figures, screening };
+    return { figures, screening, problems: solution.problems };
   });
   const cornerFigures = corners.map((c) => c.figures);
   const worstSingle = cornerFigures.reduce((a, b) => (b.cmrrAtFrequencyDb < a.cmrrAtFrequencyDb ? b : a));
@@ -179,9 +187,9 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const upRoomV = spec.supply.positiveV - Math.max(predicted.collectorVoltageV, predicted.collector2VoltageV);
   const swingMarginV = Math.min(upRoomV - swingPeakV, predicted.pairSaturationMarginV - swingPeakV);
   const powerWorstW = Math.max(predicted.powerW, ...cornerFigures.map((c) => c.powerW));
-  const problems = [
-    ...predicted.operatingPointProblems.map((w) => `${nominal.label}: ${w}`),
-    ...cornerFigures.flatMap((c) => c.operatingPointProblems.map((w) => `${c.label}: ${w}`)),
+  const problems: ProblemAt[] = [
+    ...nominalSolution.problems.map((problem) => ({ conditionLabel: nominal.label, problem })),
+    ...corners.flatMap((c) => c.problems.map((problem) => ({ conditionLabel: c.figures.label, problem }))),
   ];
   const omegaCt = 2 * Math.PI * f * spec.tailCapacitanceF;
   const rout = predicted.tailOutputResistanceOhm;
@@ -189,7 +197,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const cmrrRequired = spec.cmrr.minDb;
   const yieldPercent = monteCarlo ? monteCarlo.yieldPercent : null;
 
-  const facts: OptionFacts = {
+  const facts: MeasuredFacts = {
     topology: design.tail.topology,
     output: spec.gain.output,
     isDifferentialOutput: differentialOutput,
@@ -215,7 +223,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     gainWorstCorner: worstGain.label,
     gainOverConditionsMarginPercent: spec.gain.tolerancePercent - Math.abs(worstGain.errorPercent),
     gainOverConditionsCause: gainCause,
-    gainOverConditionsRemedy: gainRemedy(gainCause, design.tail.topology === 'resistor'),
+    gainOverConditionsRemedyId: gainRemedy(gainCause, design.tail.topology === 'resistor'),
     icmLowMarginV: Math.min(...lowCorners.map((c) => c.tailComplianceMarginV)),
     icmLowV: spec.inputCommonMode.minV,
     icmHighMarginV: Math.min(...highCorners.map((c) => c.pairSaturationMarginV)) - swingPeakV,
@@ -239,13 +247,12 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     hazardousVoltageMarginV: HAZARDOUS_VOLTAGE_LIMIT_V - (spec.supply.positiveV - spec.supply.negativeV),
     patientConnected: spec.hazards.patientConnected,
     mainsReferenced: spec.hazards.mainsReferenced,
-    operatingPointProblems: problems,
+    operatingPointProblemsAt: problems,
     operatingPointProblemCount: problems.length,
     tailImpedanceAtFrequencyOhm: rout / Math.sqrt(1 + (omegaCt * rout) ** 2),
     tailOutputResistanceOhm: rout,
     tailOutputResistanceClosedFormOhm: predicted.tailOutputResistanceClosedForm.valueOhm,
     tailOutputResistanceFormula: predicted.tailOutputResistanceClosedForm.formula,
-    tailOutputResistanceNote: routNote(rout, predicted.tailOutputResistanceClosedForm),
   };
 
 

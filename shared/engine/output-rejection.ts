@@ -1,8 +1,8 @@
 /**
  * The rejection that matters for the spec's output, and the target it is held to: for a
  * single-ended output, the tail-limited CMRR at the spec frequency (worst corner) against the
- * required figure plus its margin (rule cmrr-target); for a differential output, the
- * mismatch-limited worst case against the required figure (rule cmrr-differential-worst-case).
+ * required figure plus its margin; for a differential output, the mismatch-limited worst case
+ * against the required figure (each decided by its own rule).
  * The one reading of "the option's rejection" for the ranking, the page, the report and the
  * CSV files, so none of them can set one figure against another's target. Pure.
  */
@@ -16,8 +16,6 @@ export interface OutputRejection {
   valueDb: number | null;
   /** The target the figure is held to, dB. */
   requiredDb: number;
-  /** The rule that decides the figure. */
-  rule: 'cmrr-target' | 'cmrr-differential-worst-case';
 }
 
 /** Words for each kind, as the ranking, the report and the CSV files write them. */
@@ -30,7 +28,7 @@ type RejectionFacts = Pick<OptionFacts, 'isDifferentialOutput' | 'cmrrAtFrequenc
 
 export function outputRejection(facts: RejectionFacts): OutputRejection {
   if (facts.isDifferentialOutput) {
-    return { kind: 'differential', valueDb: facts.cmrrDifferentialWorstCaseDb, requiredDb: facts.cmrrRequiredDb, rule: 'cmrr-differential-worst-case' };
+    return { kind: 'differential', valueDb: facts.cmrrDifferentialWorstCaseDb, requiredDb: facts.cmrrRequiredDb };
   }
-  return { kind: 'single-ended', valueDb: facts.cmrrAtFrequencyDb, requiredDb: facts.cmrrRequiredDb + facts.cmrrMarginRequiredDb, rule: 'cmrr-target' };
+  return { kind: 'single-ended', valueDb: facts.cmrrAtFrequencyDb, requiredDb: facts.cmrrRequiredDb + facts.cmrrMarginRequiredDb };
 }

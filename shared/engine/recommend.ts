@@ -9,9 +9,10 @@ import { evaluateOption, type ConditionFigures, type OptionCurves } from './opti
 import { monteCarloDraws, type MonteCarloDraws, type MonteCarloResult } from './mismatch';
 import { outputRejection } from './output-rejection';
 import { rankOptions, recommendedTopology } from './ranking';
-import { sizeTopology } from './sizing';
+import { sizeTopology, type SizingStep } from './sizing';
 import type { AnalyzeResult, Check, Design, OptionFacts, RuleSet, SelectionPolicy, Spec, TopologyId } from './types';
 import { ENGINE_VERSION, ESTIMATE_NOTICE } from './version';
+import { recommendationSummary, sizingNote, undecidedReason, wordedFacts } from '../text/engine-notes';
 
 export interface RecommendOption {
   topology: TopologyId;
@@ -45,17 +46,18 @@ export interface RecommendResult {
   options: RecommendOption[];
 }
 
-const CAUTION_RULES = new Set(['hazardous-voltage', 'patient-connected', 'mains-referenced']);
-
 /** Every rule of the set, undecided, for an option whose stage could not be solved. */
 function unsolvedChecks(ruleSet: RuleSet, message: string): Check[] {
-  return ruleSet.rules.map(({ rule, severity }) => ({
+  return ruleSet.rules.map(({ rule, severity, title, kind, figure }) => ({
     rule,
     passed: false,
     severity,
-    reason: `Not decided: this option could not be solved at the spec's conditions (${message}).`,
+    reason: undecidedReason(message),
     margin: null,
     evaluated: false,
+    title,
+    kind,
+    figure,
   }));
 }
 
@@ -68,15 +70,17 @@ async function checkedOption(
   topology: TopologyId,
   ruleSet: RuleSet,
   draws: MonteCarloDraws,
-  size: () => { design: Design; notes: string[] },
+  size: () => { design: Design; steps: SizingStep[] },
 ): Promise<Omit<RecommendOption, 'rank'>> {
   let design: Design | null = null;
   let notes: string[] = [];
   try {
-    ({ design, notes } = size());
+    const sized = size();
+    design = sized.design;
+    notes = sized.steps.map(sizingNote);
     const evaluation = evaluateOption(spec, design, draws);
-    const checks = await ruleSet.evaluate(evaluation.facts);
-    const facts = evaluation.facts;
+    const facts = wordedFacts(evaluation.facts);
+    const checks = await ruleSet.evaluate(facts);
     return {
       topology,
       passes: checks.every((c) => c.passed || c.severity !== 'blocking'),
@@ -121,15 +125,10 @@ export async function evaluateDesign(spec: Spec, design: Design, ruleSet: RuleSe
     tailCapacitanceF: design.tailCapacitanceF ?? spec.tailCapacitanceF,
   };
   const draws = monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
-  const option = await checkedOption(specForDesign, design.tail.topology, ruleSet, draws, () => ({ design, notes: ['Values given by the designer (override).'] }));
+  const option = await checkedOption(specForDesign, design.tail.topology, ruleSet, draws, () => ({ design, steps: [{ step: 'designer-values' }] }));
   return { ...option, rank: 0 };
 }
 
-function summaryFor(recommended: TopologyId | null, policy: SelectionPolicy, passingCount: number, total: number): string {
-  if (recommended === null) return `None of the ${total} options passes every blocking check; the ranking shows what each one lacks.`;
-  const why = policy === 'simplest-sufficient' ? 'The simplest option that passes every blocking check' : 'The passing option with the highest rejection';
-  return `${why} (${passingCount} of ${total} options pass).`;
-}
 
 /**
  * Sizes, evaluates, checks and ranks every topology the spec lists. `spec` must have passed
@@ -151,14 +150,14 @@ export async function recommend(spec: Spec, ruleSet: RuleSet): Promise<Recommend
   const byTopology = new Map(evaluated.map((o) => [o.topology, o]));
   const options = ranked.map((r, i) => ({ ...byTopology.get(r.topology)!, rank: i + 1 }));
   const cautions = [
-    ...new Set(evaluated.flatMap((o) => o.checks.filter((c) => CAUTION_RULES.has(c.rule) && !c.passed && c.evaluated !== false).map((c) => c.reason))),
+    ...new Set(evaluated.flatMap((o) => o.checks.filter((c) => c.kind === 'caution' && !c.passed && c.evaluated !== false).map((c) => c.reason))),
   ];
   return {
     engineVersion: ENGINE_VERSION,
     rulesetVersion: ruleSet.version,
     policy: spec.policy,
     recommended,
-    summary: summaryFor(recommended, spec.policy, evaluated.filter((o) => o.passes).length, evaluated.length),
+    summary: recommendationSummary(recommended !== null, spec.policy, evaluated.filter((o) => o.passes).length, evaluated.length),
     cautions,
     notice: ESTIMATE_NOTICE,
     options,

@@ -3,13 +3,12 @@
  * exact solves of the stage (analyze) refine them, and every resistor is snapped to the spec's
  * E-series before the final predictions are made from the snapped values.
  */
-import { formatQuantity } from '../units/format-quantity';
 import { snapToSeries } from '../units/e-series';
 import { solveStage, type StageSolution } from './analyze';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
 import { unhandledTopology, type TailDesign, type TopologyId } from './topologies';
-import type { AnalyzeResult, Design, Spec } from './types';
+import type { AnalyzeResult, Design, ResistorSeries, Spec } from './types';
 
 /** Share of the power budget the sizing aims at, leaving room for corners and snapping (design choice). */
 export const POWER_USE_FRACTION = 0.8;
@@ -42,14 +41,39 @@ export const REFERENCE_RATIO: Record<TopologyId, number> = {
   cascode: 1,
 };
 
+/**
+ * How one value was chosen, as figures (SI, names carry the unit); the sentences are written at
+ * the edge (shared/text/engine-notes.ts).
+ */
+export type SizingStep =
+  | { step: 'designer-values' }
+  | { step: 'tail-current-fixed'; currentA: number }
+  | {
+      step: 'tail-current-from-budget';
+      currentA: number;
+      /** The budget allowed more than the cap, so the cap set the current. */
+      capped: boolean;
+      capA: number;
+      powerUseFraction: number;
+      powerBudgetW: number;
+      railSpanV: number;
+      /** Reference-branch current per ampere of tail current (0: no reference branch). */
+      referenceRatio: number;
+    }
+  | { step: 'resistor-tail'; resistanceOhm: number; series: ResistorSeries }
+  | { step: 'mirror-reference'; stackedVbe: 1 | 2; resistanceOhm: number; series: ResistorSeries }
+  | { step: 'degeneration-emitters'; dropV: number; resistanceOhm: number }
+  | { step: 'degenerated-reference'; resistanceOhm: number; series: ResistorSeries }
+  | { step: 'widlar-reference'; referenceRatio: number; resistanceOhm: number }
+  | { step: 'widlar-emitter'; resistanceOhm: number; series: ResistorSeries }
+  | { step: 'pair-degeneration'; gainDropV: number; neededDropV: number; swingDropFactor: number; resistanceOhm: number; series: ResistorSeries }
+  | { step: 'collector'; formula: 'degenerated' | 'differential' | 'single-ended'; exactOhm: number; resistanceOhm: number; series: ResistorSeries };
+
 export interface SizedOption {
   design: Design;
-  /** How each value was chosen, one sentence each. */
-  notes: string[];
+  /** How each value was chosen, in order. */
+  steps: SizingStep[];
 }
-
-const ohms = (r: number) => formatQuantity(r, 'Ohm');
-const amps = (i: number) => formatQuantity(i, 'A');
 
 /** The sized values of an option: what sizing chooses and every condition reuses. */
 export interface SizedValues {
@@ -73,17 +97,22 @@ export function designAt(spec: Spec, condition: Condition, values: SizedValues):
 }
 
 /** Tail current to size for: the spec's, or the largest the power budget allows after reference branches. */
-export function targetTailCurrentA(spec: Spec, topology: TopologyId): { currentA: number; note: string } {
-  if (spec.tailCurrentA !== undefined) {
-    return { currentA: spec.tailCurrentA, note: `Tail current ${amps(spec.tailCurrentA)}, fixed by the spec.` };
-  }
+export function targetTailCurrentA(spec: Spec, topology: TopologyId): Extract<SizingStep, { currentA: number }> {
+  if (spec.tailCurrentA !== undefined) return { step: 'tail-current-fixed', currentA: spec.tailCurrentA };
   const spanV = spec.supply.positiveV - spec.supply.negativeV;
   const ratio = REFERENCE_RATIO[topology];
   const budgetA = (POWER_USE_FRACTION * spec.powerBudgetW) / (spanV * (1 + ratio));
   const currentA = Math.min(budgetA, MAX_TAIL_CURRENT_A);
-  const why = currentA < budgetA ? `capped at ${amps(MAX_TAIL_CURRENT_A)}` : `${POWER_USE_FRACTION * 100} % of the ${formatQuantity(spec.powerBudgetW, 'W')} budget across ${formatQuantity(spanV, 'V')}`;
-  const split = ratio > 0 ? `, shared with a reference branch of ${ratio}× the tail current` : '';
-  return { currentA, note: `Tail current ${amps(currentA)}: ${why}${split}.` };
+  return {
+    step: 'tail-current-from-budget',
+    currentA,
+    capped: currentA < budgetA,
+    capA: MAX_TAIL_CURRENT_A,
+    powerUseFraction: POWER_USE_FRACTION,
+    powerBudgetW: spec.powerBudgetW,
+    railSpanV: spanV,
+    referenceRatio: ratio,
+  };
 }
 
 /**
@@ -122,7 +151,7 @@ function degenerationDropV(spec: Spec, vbeV: number): number {
 }
 
 /** Sizes and snaps the tail element for a target current at the nominal condition. */
-function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: number, pair: Omit<SizedValues, 'tail'>, notes: string[]): TailDesign {
+function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: number, pair: Omit<SizedValues, 'tail'>, steps: SizingStep[]): TailDesign {
   const series = spec.resistors.series;
   const snap = (r: number) => snapToSeries(Math.max(r, MIN_RESISTANCE_OHM), series);
   const model = deviceModel(spec.device, nominal.temperatureC);
@@ -134,7 +163,7 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
     case 'resistor': {
       const start = (nominal.inputCommonModeV - vbeV - vn) / tailA;
       const r = snap(tuneResistance((x) => withTail({ topology, resistanceOhm: x }), start, tailCurrent, tailA, -1));
-      notes.push(`RT ≈ (VICM − VBE − V−)/Itail at the mid input common mode, refined by solving the stage, snapped to ${ohms(r)} (${series}).`);
+      steps.push({ step: 'resistor-tail', resistanceOhm: r, series });
       return { topology, resistanceOhm: r };
     }
     case 'simple-mirror':
@@ -143,7 +172,7 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
       const stackedVbe = topology === 'simple-mirror' ? 1 : 2;
       const start = (vp - vn - stackedVbe * vbeV) / tailA;
       const r = snap(tuneResistance((x) => withTail({ topology, referenceResistanceOhm: x }), start, tailCurrent, tailA, -1));
-      notes.push(`RREF ≈ (V+ − V− − ${stackedVbe === 1 ? 'VBE' : '2·VBE'})/Itail, refined by solving the stage (base currents, Early effect), snapped to ${ohms(r)} (${series}).`);
+      steps.push({ step: 'mirror-reference', stackedVbe, resistanceOhm: r, series });
       return { topology, referenceResistanceOhm: r };
     }
     case 'degenerated-mirror': {
@@ -151,8 +180,7 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
       const re = snap(dropV / tailA);
       const start = (vp - vn - vbeV - dropV) / tailA;
       const r = snap(tuneResistance((x) => withTail({ topology, referenceResistanceOhm: x, emitterResistanceOhm: re }), start, tailCurrent, tailA, -1));
-      notes.push(`RE for about ${formatQuantity(dropV, 'V')} across each emitter resistor (half the room above compliance at the lowest input common mode, kept within 0.1–1 V), snapped to ${ohms(re)}.`);
-      notes.push(`RREF ≈ (V+ − V− − VBE − Itail·RE)/Itail, refined by solving the stage, snapped to ${ohms(r)} (${series}).`);
+      steps.push({ step: 'degeneration-emitters', dropV, resistanceOhm: re }, { step: 'degenerated-reference', resistanceOhm: r, series });
       return { topology, referenceResistanceOhm: r, emitterResistanceOhm: re };
     }
     case 'widlar': {
@@ -160,8 +188,7 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
       const rref = snap((vp - vn - vbeV) / refA);
       const start = (model.thermalVoltageV * Math.log(WIDLAR_REFERENCE_RATIO)) / tailA;
       const re = snap(tuneResistance((x) => withTail({ topology, referenceResistanceOhm: rref, emitterResistanceOhm: x }), start, tailCurrent, tailA, -1));
-      notes.push(`RREF for a reference current of ${WIDLAR_REFERENCE_RATIO}× the tail current, (V+ − V− − VBE)/Iref, snapped to ${ohms(rref)}.`);
-      notes.push(`RE from Iout·RE = VT·ln(Iref/Iout), refined by solving the stage, snapped to ${ohms(re)} (${series}).`);
+      steps.push({ step: 'widlar-reference', referenceRatio: WIDLAR_REFERENCE_RATIO, resistanceOhm: rref }, { step: 'widlar-emitter', resistanceOhm: re, series });
       return { topology, referenceResistanceOhm: rref, emitterResistanceOhm: re };
     }
     default:
@@ -174,7 +201,7 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
  * RC sets the gain [SS]); when that drop is too small for the collector's upward swing, a larger
  * drop with emitter degeneration RE in each pair emitter, Ad = RC/(RE + 1/gm) [SS].
  */
-function pairStart(spec: Spec, tailA: number, thermalVoltageV: number, notes: string[]): Omit<SizedValues, 'tail'> {
+function pairStart(spec: Spec, tailA: number, thermalVoltageV: number, steps: SizingStep[]): Omit<SizedValues, 'tail'> {
   const series = spec.resistors.series;
   const perCollectorGain = spec.gain.output === 'differential' ? spec.gain.target : 2 * spec.gain.target;
   const collectorA = tailA / 2;
@@ -185,9 +212,7 @@ function pairStart(spec: Spec, tailA: number, thermalVoltageV: number, notes: st
   }
   const rcOhm = neededDropV / collectorA;
   const reOhm = snapToSeries(Math.max(rcOhm / perCollectorGain - thermalVoltageV / collectorA, MIN_RESISTANCE_OHM), series);
-  notes.push(
-    `The gain alone would drop only ${formatQuantity(gainDropV, 'V')} across RC, less than the ${formatQuantity(neededDropV, 'V')} the output swing needs (${SWING_DROP_FACTOR}× its peak per collector): pair emitter degeneration RE ≈ RC/|A| − 1/gm, snapped to ${ohms(reOhm)} (${series}).`,
-  );
+  steps.push({ step: 'pair-degeneration', gainDropV, neededDropV, swingDropFactor: SWING_DROP_FACTOR, resistanceOhm: reOhm, series });
   return { collectorResistanceOhm: rcOhm, pairEmitterResistanceOhm: reOhm };
 }
 
@@ -201,16 +226,16 @@ export function swingPeakPerCollectorV(spec: Spec): number {
  * RC refined for the gain target with the sized tail, all on the spec's series.
  */
 export function sizeTopology(spec: Spec, topology: TopologyId, nominal: Condition): SizedOption {
-  const notes: string[] = [];
-  const { currentA: tailA, note } = targetTailCurrentA(spec, topology);
-  notes.push(note);
+  const current = targetTailCurrentA(spec, topology);
+  const tailA = current.currentA;
+  const steps: SizingStep[] = [current];
   const model = deviceModel(spec.device, nominal.temperatureC);
-  const pair = pairStart(spec, tailA, model.thermalVoltageV, notes);
-  const tail = sizeTail(spec, topology, nominal, tailA, pair, notes);
+  const pair = pairStart(spec, tailA, model.thermalVoltageV, steps);
+  const tail = sizeTail(spec, topology, nominal, tailA, pair, steps);
   const withRc = (rcOhm: number): SizedValues => ({ tail, collectorResistanceOhm: rcOhm, pairEmitterResistanceOhm: pair.pairEmitterResistanceOhm });
   const rcExact = tuneResistance((x) => designAt(spec, nominal, withRc(x)), pair.collectorResistanceOhm, (r) => outputGain(spec, r), spec.gain.target, 1);
   const rc = snapToSeries(rcExact, spec.resistors.series);
-  const formula = pair.pairEmitterResistanceOhm > 0 ? '|A|·(RE + 1/gm)' : spec.gain.output === 'differential' ? '|Ad|·VT/IC' : '2·|Ase|·VT/IC';
-  notes.push(`RC ≈ ${formula}, refined by solving the stage with the sized tail to ${ohms(rcExact)}, snapped to ${ohms(rc)} (${spec.resistors.series}).`);
-  return { design: designAt(spec, nominal, withRc(rc)), notes };
+  const formula = pair.pairEmitterResistanceOhm > 0 ? 'degenerated' : spec.gain.output;
+  steps.push({ step: 'collector', formula, exactOhm: rcExact, resistanceOhm: rc, series: spec.resistors.series });
+  return { design: designAt(spec, nominal, withRc(rc)), steps };
 }

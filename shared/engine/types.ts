@@ -94,12 +94,35 @@ export interface AnalyzeResult {
 }
 
 export type Severity = 'blocking' | 'advisory';
+/** How a rule counts: blocking and advisory as their severity; a caution is advisory, a hazard repeated for every option. */
+export type RuleKind = Severity | 'caution';
+
+/** The severity a rule of this kind gives its checks. */
+export function severityOfKind(kind: RuleKind): Severity {
+  return kind === 'blocking' ? 'blocking' : 'advisory';
+}
+
+/** What a rule file says about its check besides the decision (rules/<rule-id>.json), carried on each check. */
+export interface RuleMeta {
+  rule: string;
+  /** Short readable name, e.g. "Power budget". */
+  title: string;
+  kind: RuleKind;
+  /** The fact holding the figure the rule judges; null when it judges a spec flag. */
+  figure: keyof OptionFacts | null;
+}
 
 export interface Check {
   rule: string;
   passed: boolean;
   severity: Severity;
   reason: string;
+  /** Added: the rule's readable name (absent on checks stored before rule files carried it). */
+  title?: string;
+  /** Added: the rule's kind (absent on checks stored before rule files carried it). */
+  kind?: RuleKind;
+  /** Added: the fact holding the figure the rule judges, or null (absent on checks stored before rule files carried it). */
+  figure?: keyof OptionFacts | null;
   /** Added: the margin the rule compared, in the unit named by `marginUnit`. */
   margin?: number | null;
   marginUnit?: string;
@@ -228,7 +251,7 @@ export interface OptionFacts {
 /** A rule set as the engine sees it: a version, its rules, and an evaluator (rules/ provides it). */
 export interface RuleSet {
   version: string;
-  /** Every rule's id and severity, sorted by id (what an unsolvable option reports as not evaluated). */
-  rules: { rule: string; severity: Severity }[];
+  /** Every rule's id, severity and metadata, sorted by id (what an unsolvable option reports as not evaluated). */
+  rules: (RuleMeta & { severity: Severity })[];
   evaluate(facts: OptionFacts): Promise<Check[]>;
 }

@@ -69,10 +69,64 @@ describe('loadRuleFiles', () => {
       message: /cmrr-goal\.json: \/name: "cmrr-target" differs from the file name "cmrr-goal"/,
     },
     {
-      title: 'a bad severity',
+      title: 'a bad kind',
       file: 'cmrr-target.json',
-      text: editedCmrrTarget((rule) => Object.assign(rule.event.params, { severity: 'warning' })),
-      message: /cmrr-target\.json: \/event\/params\/severity: must be "blocking" or "advisory", got "warning"/,
+      text: editedCmrrTarget((rule) => Object.assign(rule, { kind: 'warning' })),
+      message: /cmrr-target\.json: \/kind: must be "blocking", "advisory" or "caution", got "warning"/,
+    },
+    {
+      title: 'no kind',
+      file: 'cmrr-target.json',
+      text: editedCmrrTarget((rule) => delete (rule as Partial<RuleFile>).kind),
+      message: /cmrr-target\.json: \/kind: must be "blocking", "advisory" or "caution", got undefined/,
+    },
+    {
+      title: 'a severity beside its kind',
+      file: 'cmrr-target.json',
+      text: editedCmrrTarget((rule) => Object.assign(rule.event.params, { severity: 'blocking' })),
+      message: /cmrr-target\.json: \/event\/params: unexpected key "severity"/,
+    },
+    {
+      title: 'no title',
+      file: 'cmrr-target.json',
+      text: editedCmrrTarget((rule) => delete (rule as Partial<RuleFile>).title),
+      message: /cmrr-target\.json: \/title: must be a one-line name of 1-60 characters without braces, got undefined/,
+    },
+    {
+      title: 'an empty title',
+      file: 'cmrr-target.json',
+      text: editedCmrrTarget((rule) => (rule.title = ' ')),
+      message: /cmrr-target\.json: \/title: must be a one-line name/,
+    },
+    {
+      title: 'a title over two lines',
+      file: 'cmrr-target.json',
+      text: editedCmrrTarget((rule) => (rule.title = 'Rejection,\ntail-limited')),
+      message: /cmrr-target\.json: \/title: must be a one-line name/,
+    },
+    {
+      title: 'a title longer than a table cell takes',
+      file: 'cmrr-target.json',
+      text: editedCmrrTarget((rule) => (rule.title = 'R'.repeat(61))),
+      message: /cmrr-target\.json: \/title: must be a one-line name of 1-60 characters/,
+    },
+    {
+      title: 'no figure',
+      file: 'cmrr-target.json',
+      text: editedCmrrTarget((rule) => delete (rule as Partial<RuleFile>).figure),
+      message: /cmrr-target\.json: \/figure: must be a numeric fact or null, got undefined/,
+    },
+    {
+      title: 'a figure that is no fact',
+      file: 'cmrr-target.json',
+      text: editedCmrrTarget((rule) => Object.assign(rule, { figure: 'cmrrDb' })),
+      message: /cmrr-target\.json: \/figure: must be a numeric fact or null, got "cmrrDb"/,
+    },
+    {
+      title: 'a figure that is a text fact',
+      file: 'cmrr-target.json',
+      text: editedCmrrTarget((rule) => Object.assign(rule, { figure: 'worstCmrrCorner' })),
+      message: /cmrr-target\.json: \/figure: must be a numeric fact or null, got "worstCmrrCorner"/,
     },
     {
       title: 'text that is not JSON',
@@ -121,7 +175,7 @@ describe('rulesetVersion', () => {
   test('when a file is only reformatted or its keys reordered, then the version stays', async () => {
     const reordered = editedCmrrTarget(() => undefined).replace(/\n\s*/g, '');
     const parsed = JSON.parse(reordered) as RuleFile;
-    const keysReversed = JSON.stringify({ event: parsed.event, conditions: parsed.conditions, name: parsed.name });
+    const keysReversed = JSON.stringify(Object.fromEntries(Object.entries(parsed).reverse()));
     const a = await loadRuleFiles(await ruleDir({ 'cmrr-target.json': cmrrTargetText }));
     const b = await loadRuleFiles(await ruleDir({ 'cmrr-target.json': keysReversed }));
     expect(rulesetVersion(b)).toBe(rulesetVersion(a));
@@ -144,6 +198,16 @@ describe('runRules', () => {
     const checks = await runRules([...realRules].reverse(), makeOptionFacts());
     expect(checks.map((check) => check.rule)).toEqual(RULE_NAMES);
     expect(checks.every((check) => check.passed && check.reason.length > 0)).toBe(true);
+  });
+
+  test('when checks are made, then each carries its rule file\'s title, kind and figure, a caution counting as advisory', async () => {
+    const checks = await runRules(realRules, makeOptionFacts());
+    for (const check of checks) {
+      const file = JSON.parse(await readFile(join(RULES_DIR, `${check.rule}.json`), 'utf8')) as RuleFile;
+      expect(check).toMatchObject({ title: file.title, kind: file.kind, figure: file.figure });
+      expect(check.severity).toBe(file.kind === 'blocking' ? 'blocking' : 'advisory');
+    }
+    expect(checks.filter((check) => check.kind === 'caution').map((check) => check.rule)).toEqual(['hazardous-voltage', 'mains-referenced', 'patient-connected']);
   });
 
   test('when rules fail, then they are still reported, with the passing ones', async () => {
@@ -201,6 +265,15 @@ describe('createRuleSet', () => {
     const ruleSet = createRuleSet(realRules);
     expect(ruleSet.version).toBe(rulesetVersion(realRules));
     expect(await ruleSet.evaluate(makeOptionFacts())).toEqual(await runRules(realRules, makeOptionFacts()));
+  });
+
+  test('when built, then it lists every rule with its title, kind, figure and severity, for checks an unsolved option cannot decide', () => {
+    const ruleSet = createRuleSet(realRules);
+    expect(ruleSet.rules.map((r) => r.rule)).toEqual(RULE_NAMES);
+    const power = ruleSet.rules.find((r) => r.rule === 'power-budget');
+    expect(power).toEqual({ rule: 'power-budget', title: 'Power budget', kind: 'blocking', figure: 'powerWorstW', severity: 'blocking' });
+    const patient = ruleSet.rules.find((r) => r.rule === 'patient-connected');
+    expect(patient).toMatchObject({ kind: 'caution', severity: 'advisory', figure: null });
   });
 
   test('when two rules share a name, then it throws', () => {

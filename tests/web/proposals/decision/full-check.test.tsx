@@ -35,8 +35,12 @@ function passingEvaluation(): OptionEvaluation {
 /** The same with the tail-limited rejection short at its worst corner. */
 function failingEvaluation(): OptionEvaluation {
   const option = passingEvaluation();
+  const { title, kind, figure } = option.checks.find((c) => c.rule === 'cmrr-target')!;
   const short: Check = {
     rule: 'cmrr-target',
+    title,
+    kind,
+    figure,
     passed: false,
     severity: 'blocking',
     reason: 'Single-ended (tail-limited) CMRR 79.4 dB predicted at 2.5 kHz (worst corner: ICM −1.5 V, 65 °C) against 78 dB required + 6 dB margin (4.6 dB short).',

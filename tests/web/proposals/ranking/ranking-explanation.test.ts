@@ -3,8 +3,11 @@
  * orders by tail impedance, the policy picks the recommendation).
  */
 import { describe, expect, test } from 'vitest';
+import { loadRuleFiles } from '../../../../rules/run-rules';
 import { noPassingExplanation, rankingExplanation } from '../../../../web/src/features/proposals/lib/ranking-explanation';
 
+/** Each rule's title, from the rule files (checks carry it). */
+const titles = new Map((await loadRuleFiles()).map((r) => [r.name, r.title]));
 const options = (...topologies: string[]) => topologies.map((topology) => ({ topology })) as never;
 
 describe('rankingExplanation', () => {
@@ -23,7 +26,7 @@ describe('rankingExplanation', () => {
 });
 
 describe('noPassingExplanation', () => {
-  const check = (rule: string, passed: boolean, severity: 'blocking' | 'advisory' = 'blocking') => ({ rule, passed, severity, reason: '' });
+  const check = (rule: string, passed: boolean, severity: 'blocking' | 'advisory' = 'blocking') => ({ rule, passed, severity, reason: '', title: titles.get(rule) });
   const option = (topology: string, checks: ReturnType<typeof check>[], solved = true) => ({ topology, checks, figures: solved ? {} : null, design: solved ? {} : null });
 
   test('when every solved option falls short on the gain over temperature check, then the sentence names that check and the ways on', () => {

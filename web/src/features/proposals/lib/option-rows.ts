@@ -4,24 +4,27 @@
  */
 import type { RecommendOption, RecommendResult } from '../../../../../shared/engine/recommend';
 import { outputRejection, REJECTION_KIND_WORDS, type RejectionKind } from '../../../../../shared/engine/output-rejection';
-import type { Check, TopologyId } from '../../../../../shared/engine/types';
+import type { Check, OptionFacts, TopologyId } from '../../../../../shared/engine/types';
 import { formatQuantity } from '../../../../../shared/units/format-quantity';
 import { topologyName } from '../../../lib/topology-names';
 import { formatPercent, formatTargetDb } from '../../../../../shared/units/figures';
 
-/** Figures of the table that one rule decides, so a failing check can mark its cell. */
-export const FIGURE_RULES = {
-  cmrrAtFrequencyDb: 'cmrr-target',
-  mismatchWorstCaseDb: 'cmrr-differential-worst-case',
-  yieldPercent: 'cmrr-yield',
-  gain: 'gain-tolerance',
-  powerWorstW: 'power-budget',
-  icmLowMarginV: 'input-common-mode-low',
-  icmHighMarginV: 'input-common-mode-high',
-  swingMarginV: 'output-swing',
-} as const;
+/**
+ * Figures of the table read from the option's facts, each by the fact it shows; a failing check
+ * marks the cell of the figure its rule judges (the check's `figure`, from the rule file).
+ */
+const FACT_FIGURES = {
+  cmrrAtFrequencyDb: 'cmrrAtFrequencyDb',
+  mismatchWorstCaseDb: 'cmrrDifferentialWorstCaseDb',
+  yieldPercent: 'monteCarloYieldPercent',
+  gain: 'gainPredicted',
+  powerWorstW: 'powerWorstW',
+  icmLowMarginV: 'icmLowMarginV',
+  icmHighMarginV: 'icmHighMarginV',
+  swingMarginV: 'swingMarginV',
+} as const satisfies Record<string, keyof OptionFacts>;
 
-export type RuledFigure = keyof typeof FIGURE_RULES;
+export type RuledFigure = keyof typeof FACT_FIGURES;
 /** How a figure stands against its rule: a blocking failure is "short", an advisory one a "note". */
 export type FigureStanding = 'short' | 'note';
 
@@ -60,11 +63,20 @@ export function blockingShortCount(option: RecommendOption): number {
 
 function standingOf(checks: Check[]): OptionRow['standing'] {
   const standing: OptionRow['standing'] = {};
-  for (const [figure, rule] of Object.entries(FIGURE_RULES) as [RuledFigure, string][]) {
-    const check = checks.find((c) => c.rule === rule);
-    if (check && failing(check)) standing[figure] = check.severity === 'blocking' ? 'short' : 'note';
+  for (const [field, fact] of Object.entries(FACT_FIGURES) as [RuledFigure, keyof OptionFacts][]) {
+    const check = checks.find((c) => c.figure === fact);
+    if (check && failing(check)) standing[field] = check.severity === 'blocking' ? 'short' : 'note';
   }
   return standing;
+}
+
+/** The table's figures read from the facts (null for an unsolved option). */
+function factFigures(facts: OptionFacts | null): Record<RuledFigure, number | null> {
+  const figures = {} as Record<RuledFigure, number | null>;
+  for (const [field, fact] of Object.entries(FACT_FIGURES) as [RuledFigure, keyof OptionFacts][]) {
+    figures[field] = facts ? (facts[fact] as number | null) : null;
+  }
+  return figures;
 }
 
 /** One row per option, in the engine's ranking order. */
@@ -81,16 +93,9 @@ export function optionRows(result: RecommendResult): OptionRow[] {
       blockingShortCount: blockingShortCount(option),
       tailImpedanceAtFrequencyOhm: f?.tailImpedanceAtFrequencyOhm ?? null,
       cmrrDcDb: option.predicted?.cmrrDb.singleEnded ?? null,
-      cmrrAtFrequencyDb: f?.cmrrAtFrequencyDb ?? null,
-      mismatchWorstCaseDb: f?.cmrrDifferentialWorstCaseDb ?? null,
-      yieldPercent: f?.monteCarloYieldPercent ?? null,
-      gain: f?.gainPredicted ?? null,
+      ...factFigures(f),
       gainErrorPercent: f?.gainErrorPercent ?? null,
       tailCurrentA: option.predicted?.tailCurrentA ?? null,
-      powerWorstW: f?.powerWorstW ?? null,
-      icmLowMarginV: f?.icmLowMarginV ?? null,
-      icmHighMarginV: f?.icmHighMarginV ?? null,
-      swingMarginV: f?.swingMarginV ?? null,
       standing: standingOf(option.checks),
     };
   });

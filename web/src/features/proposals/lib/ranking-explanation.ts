@@ -5,7 +5,7 @@
 import type { RecommendResult } from '../../../../../shared/engine/recommend';
 import type { SelectionPolicy } from '../../../../../shared/engine/types';
 import { topologyName } from '../../../lib/topology-names';
-import { ruleName } from './rule-names';
+import { checkTitle } from '../../../lib/checks';
 
 /** What each policy picks, in our words. */
 const POLICY_WORDS: Record<SelectionPolicy, { name: string; picks: string }> = {
@@ -32,16 +32,20 @@ export function noPassingExplanation(result: Pick<RecommendResult, 'recommended'
   const solved = result.options.filter((option) => option.figures);
   if (solved.length === 0) return null;
   const shortCount = new Map<string, number>();
+  const titles = new Map<string, string>();
   for (const option of solved) {
-    for (const rule of new Set(option.checks.filter((check) => check.severity === 'blocking' && !check.passed).map((check) => check.rule))) shortCount.set(rule, (shortCount.get(rule) ?? 0) + 1);
+    const short = option.checks.filter((check) => check.severity === 'blocking' && !check.passed);
+    for (const check of short) titles.set(check.rule, checkTitle(check));
+    for (const rule of new Set(short.map((check) => check.rule))) shortCount.set(rule, (shortCount.get(rule) ?? 0) + 1);
   }
+  const titleOf = (rule: string) => titles.get(rule) as string;
   const ranked = [...shortCount.entries()].sort((a, b) => b[1] - a[1]);
   const ways = 'To go on, revise that requirement in the spec, or decide on an option anyway and say why (a sign-off of a design short on a blocking check needs a comment too).';
-  const common = ranked.filter(([, count]) => count === solved.length).map(([rule]) => `“${ruleName(rule)}”`);
+  const common = ranked.filter(([, count]) => count === solved.length).map(([rule]) => `“${titleOf(rule)}”`);
   if (common.length > 0) {
     const listed = common.length === 1 ? common[0] : `${common.slice(0, -1).join(', ')} and ${common.at(-1)}`;
     return `Every option falls short on ${common.length === 1 ? 'the same blocking check' : 'the same blocking checks'}: ${listed}; each option’s checks say by how much and why. ${common.length === 1 ? ways : ways.replace('that requirement', 'those requirements')}`;
   }
-  const listed = ranked.slice(0, 3).map(([rule, count]) => `“${ruleName(rule)}” (${count} of ${solved.length})`);
+  const listed = ranked.slice(0, 3).map(([rule, count]) => `“${titleOf(rule)}” (${count} of ${solved.length})`);
   return `No one blocking check holds every option back; most often short: ${listed.join(', ')}. Each option’s checks say by how much and why. ${ways.replace('that requirement', 'those requirements')}`;
 }

@@ -8,7 +8,7 @@ import { useState } from 'react';
 import type { Design } from '../../../../../../shared/engine/types';
 import type { OptionEvaluation } from '../../../../lib/api-types';
 import { useOverrideCheckMutation } from '../../api/decision-mutations';
-import { ruleName } from '../../lib/rule-names';
+import { checkTitle } from '../../../../lib/checks';
 import { fieldErrorsOf } from './override-draft';
 
 export type CheckOutcome = { designJson: string; result: OptionEvaluation; error?: undefined } | { designJson: string; result?: undefined; error: Error };
@@ -57,5 +57,5 @@ export function shortfallOf(check: FullCheck): Shortfall | null {
   const option = check.outcome.result;
   if (option.passes) return null;
   const failing = option.checks.filter((c) => c.severity === 'blocking' && !c.passed);
-  return { kind: 'short', rules: failing.length > 0 ? failing.map((c) => ruleName(c.rule)) : [option.error ?? 'a blocking check'] };
+  return { kind: 'short', rules: failing.length > 0 ? failing.map(checkTitle) : [option.error ?? 'a blocking check'] };
 }

@@ -1,7 +1,7 @@
 import type { Check } from '../../../../../../shared/engine/types';
 import { checkVerdict, Verdict, type VerdictKind } from '../../../../components/ui/verdict';
 import { formatMargin } from '../../../../../../shared/units/figures';
-import { ruleName } from '../../lib/rule-names';
+import { checkTitle } from '../../../../lib/checks';
 import { CHECK_ROW_STACK } from '../review/check-list';
 
 /** Failures first, then undecided, advisory notes, holds, and the checks that do not apply. */
@@ -37,7 +37,7 @@ export function ChecksTable({ checks }: { checks: Check[] }) {
                 <Verdict kind={kind} />
               </td>
               <th role="rowheader" scope="row" className="py-1.5 pr-3 text-left font-normal">
-                <span className={`block font-medium ${CHECK_ROW_STACK.name}`}>{ruleName(check.rule)}</span>
+                <span className={`block font-medium ${CHECK_ROW_STACK.name}`}>{checkTitle(check)}</span>
                 <span className="block text-xs text-ink-soft dark:text-night-ink-soft">
                   {check.severity} · <code className="font-mono whitespace-nowrap">{check.rule}</code>
                 </span>

@@ -3,17 +3,14 @@ import { checkVerdict, Verdict } from '../../../../components/ui/verdict';
 import type { Proposal } from '../../../../lib/api-types';
 import { topologyName } from '../../../../lib/topology-names';
 import { CheckList, marginText } from '../review/check-list';
-import { ruleName } from '../../lib/rule-names';
+import { checkTitle, isCaution } from '../../../../lib/checks';
 import { otherOptions, type ReportSubject } from '../../lib/report-subject';
 import { ReportSubheading } from './report-section';
 
 const SUBJECT_WORDS = { decision: 'the decided design', recommendation: 'the recommendation (no decision yet)', 'top-ranked': 'the top-ranked option (no decision yet)', none: '' } as const;
 
-/** Hazard cautions: the same for every option and printed once, under Cautions. */
-const CAUTION_RULES = new Set(['hazardous-voltage', 'patient-connected', 'mains-referenced']);
-
 /** A check that came out against the option (blocking or advisory, undecided included), cautions aside. */
-const failed = (check: Check) => !check.passed && check.applicable !== false && !CAUTION_RULES.has(check.rule);
+const failed = (check: Check) => !check.passed && check.applicable !== false && !isCaution(check);
 
 /** Every check of the subject, then the failed checks of each other ranked option, compactly. */
 export function ReportChecks({ proposal, subject }: { proposal: Proposal; subject: ReportSubject }) {
@@ -53,7 +50,7 @@ export function ReportChecks({ proposal, subject }: { proposal: Proposal; subjec
                       {failures.map((check) => (
                         <li key={check.rule} className="flex flex-wrap items-baseline gap-x-2">
                           <Verdict kind={checkVerdict(check)} />
-                          <span>{ruleName(check.rule)}</span>
+                          <span>{checkTitle(check)}</span>
                           <span className="text-ink-soft tabular-nums dark:text-night-ink-soft">{marginText(check)}</span>
                         </li>
                       ))}

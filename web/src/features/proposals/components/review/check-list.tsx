@@ -1,7 +1,7 @@
 import type { Check } from '../../../../../../shared/engine/types';
 import { checkVerdict, Verdict, type VerdictKind } from '../../../../components/ui/verdict';
 import { formatMargin } from '../../../../../../shared/units/figures';
-import { ruleName } from '../../lib/rule-names';
+import { checkTitle } from '../../../../lib/checks';
 
 /** Failures first, so what stops an option is read before what holds; the rule order otherwise. */
 const ORDER: Record<VerdictKind, number> = { short: 0, undecided: 1, note: 2, holds: 3, 'not-applicable': 4 };
@@ -60,7 +60,7 @@ export function CheckList({ checks, caption }: { checks: Check[]; caption: strin
               <Verdict kind={checkVerdict(check)} />
             </td>
             <th role="rowheader" scope="row" className={`py-1.5 pr-3 text-left font-medium ${CHECK_ROW_STACK.name}`}>
-              {ruleName(check.rule)}
+              {checkTitle(check)}
               <span className="block text-xs font-normal text-ink-soft dark:text-night-ink-soft">
                 {check.severity} · <code className="font-mono">{check.rule}</code>
               </span>

@@ -1,0 +1,132 @@
+/**
+ * The engine's sentences, written from the figures it returns: how each value was sized, the
+ * tail's output resistance beside its textbook limit, what would hold the gain over the range,
+ * the recommendation's summary and an undecided check's reason. The engine computes; this
+ * module only rounds, picks a prefix and words (`recommend` fills the command line's text
+ * fields with it).
+ */
+import type { InputWarning, OperatingPointProblem } from '../engine/analyze';
+import type { GainRemedy, MeasuredFacts, ProblemAt } from '../engine/option-evaluation';
+import type { SizingStep } from '../engine/sizing';
+import type { OptionFacts, SelectionPolicy } from '../engine/types';
+import { formatQuantity } from '../units/format-quantity';
+
+const ohms = (r: number) => formatQuantity(r, 'Ohm');
+const amps = (i: number) => formatQuantity(i, 'A');
+const volts = (v: number) => formatQuantity(v, 'V');
+
+/** The textbook formula of RC for each way the pair is sized. */
+const COLLECTOR_FORMULAS: Record<Extract<SizingStep, { step: 'collector' }>['formula'], string> = {
+  degenerated: '|A|·(RE + 1/gm)',
+  differential: '|Ad|·VT/IC',
+  'single-ended': '2·|Ase|·VT/IC',
+};
+
+/** One sentence on a transistor out of the forward-active region or a dead reference branch. */
+export function operatingPointProblemText(p: OperatingPointProblem): string {
+  switch (p.problem) {
+    case 'saturated':
+      return `${p.transistor} is saturated: VCE = ${p.vceV.toFixed(3)} V, below VCE(sat) = ${p.vceSatV} V.`;
+    case 'cut-off':
+      return `${p.transistor} is cut off: its collector current is ${p.collectorCurrentA.toExponential(2)} A.`;
+    case 'dead-reference':
+      return 'The reference branch carries no current: the rails are too close for this tail.';
+  }
+}
+
+/** An operating-point problem with the condition it appears at, e.g. "ICM 0 V, 27 °C: Q4 is saturated: …". */
+export function problemAtText({ conditionLabel, problem }: ProblemAt): string {
+  return `${conditionLabel}: ${operatingPointProblemText(problem)}`;
+}
+
+const INPUT_WARNINGS: Readonly<Record<InputWarning, string>> = {
+  'no-early-voltage': "No Early voltage (VAF) given: output resistances then rest only on SPICE's GMIN, so the rejection figures mean little; enter the device's VAF.",
+};
+
+/** One sentence on a warning about the inputs themselves. */
+export function inputWarningText(warning: InputWarning): string {
+  return INPUT_WARNINGS[warning];
+}
+
+function signedFigure(x: number, unit: string): string {
+  return `${x < 0 ? '−' : ''}${Math.abs(Number(x.toPrecision(4)))} ${unit}`;
+}
+
+/** A readable label for a condition, e.g. "ICM −2 V, 85 °C" (it also names the condition in figures and facts). */
+export function conditionLabel(inputCommonModeV: number, temperatureC: number): string {
+  return `ICM ${signedFigure(inputCommonModeV, 'V')}, ${signedFigure(temperatureC, '°C')}`;
+}
+
+/** One sentence on how a value was chosen. */
+export function sizingNote(s: SizingStep): string {
+  switch (s.step) {
+    case 'designer-values':
+      return 'Values given by the designer (override).';
+    case 'tail-current-fixed':
+      return `Tail current ${amps(s.currentA)}, fixed by the spec.`;
+    case 'tail-current-from-budget': {
+      const why = s.capped ? `capped at ${amps(s.capA)}` : `${s.powerUseFraction * 100} % of the ${formatQuantity(s.powerBudgetW, 'W')} budget across ${volts(s.railSpanV)}`;
+      const split = s.referenceRatio > 0 ? `, shared with a reference branch of ${s.referenceRatio}× the tail current` : '';
+      return `Tail current ${amps(s.currentA)}: ${why}${split}.`;
+    }
+    case 'resistor-tail':
+      return `RT ≈ (VICM − VBE − V−)/Itail at the mid input common mode, refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+    case 'mirror-reference':
+      return `RREF ≈ (V+ − V− − ${s.stackedVbe === 1 ? 'VBE' : '2·VBE'})/Itail, refined by solving the stage (base currents, Early effect), snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+    case 'degeneration-emitters':
+      return `RE for about ${volts(s.dropV)} across each emitter resistor (half the room above compliance at the lowest input common mode, kept within 0.1–1 V), snapped to ${ohms(s.resistanceOhm)}.`;
+    case 'degenerated-reference':
+      return `RREF ≈ (V+ − V− − VBE − Itail·RE)/Itail, refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+    case 'widlar-reference':
+      return `RREF for a reference current of ${s.referenceRatio}× the tail current, (V+ − V− − VBE)/Iref, snapped to ${ohms(s.resistanceOhm)}.`;
+    case 'widlar-emitter':
+      return `RE from Iout·RE = VT·ln(Iref/Iout), refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+    case 'pair-degeneration':
+      return `The gain alone would drop only ${volts(s.gainDropV)} across RC, less than the ${volts(s.neededDropV)} the output swing needs (${s.swingDropFactor}× its peak per collector): pair emitter degeneration RE ≈ RC/|A| − 1/gm, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+    case 'collector':
+      return `RC ≈ ${COLLECTOR_FORMULAS[s.formula]}, refined by solving the stage with the sized tail to ${ohms(s.exactOhm)}, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+  }
+}
+
+/** The solved tail output resistance beside its textbook limit, as one phrase. */
+export function tailOutputResistanceNote(routOhm: number, closedForm: { valueOhm: number | null; formula: string }): string {
+  const textbook = closedForm.valueOhm === null ? 'unbounded without an Early voltage' : `≈ ${ohms(closedForm.valueOhm)}`;
+  return `${ohms(routOhm)} by node analysis (textbook ${closedForm.formula} ${textbook})`;
+}
+
+/** What would hold the gain over the spec's range, in plain words (why each: option-evaluation.ts). */
+export const GAIN_REMEDY_WORDS: Readonly<Record<GainRemedy, string>> = {
+  'degeneration-or-rising-tail-current':
+    'pair emitter degeneration (the gain then rests on RC/RE more than on IC/VT) or a tail current that rises with temperature (proportional to absolute temperature, as from a ΔVBE cell)',
+  'current-source-tail': 'a current-source tail instead of the resistor (the tail current then stops following the input common mode)',
+  'higher-resistance-tail': 'a tail with a higher output resistance (its current then moves less with the input common mode)',
+};
+
+/**
+ * An option's facts with their worded ones written from the figures beside them: the remedy's
+ * words for its id, each operating-point problem with its condition, the tail output resistance
+ * beside its textbook limit. Keys keep their order.
+ */
+export function wordedFacts(measured: MeasuredFacts): OptionFacts {
+  const facts: Record<string, unknown> = {};
+  for (const [key, value] of Object.entries(measured)) {
+    if (key === 'gainOverConditionsRemedyId') facts.gainOverConditionsRemedy = GAIN_REMEDY_WORDS[value as GainRemedy];
+    else if (key === 'operatingPointProblemsAt') facts.operatingPointProblems = (value as ProblemAt[]).map(problemAtText);
+    else facts[key] = value;
+  }
+  const closedForm = { valueOhm: measured.tailOutputResistanceClosedFormOhm, formula: measured.tailOutputResistanceFormula };
+  facts.tailOutputResistanceNote = tailOutputResistanceNote(measured.tailOutputResistanceOhm, closedForm);
+  return facts as unknown as OptionFacts;
+}
+
+/** One sentence on why the recommendation is what it is. */
+export function recommendationSummary(recommended: boolean, policy: SelectionPolicy, passingCount: number, total: number): string {
+  if (!recommended) return `None of the ${total} options passes every blocking check; the ranking shows what each one lacks.`;
+  const why = policy === 'simplest-sufficient' ? 'The simplest option that passes every blocking check' : 'The passing option with the highest rejection';
+  return `${why} (${passingCount} of ${total} options pass).`;
+}
+
+/** The reason of a check an unsolved option cannot decide. */
+export function undecidedReason(solverMessage: string): string {
+  return `Not decided: this option could not be solved at the spec's conditions (${solverMessage}).`;
+}

@@ -1,0 +1,78 @@
+/**
+ * The engine's sentences are written from the figures it returns: engineering notation with SI
+ * prefixes (BIPM SI Brochure, 9th ed.), the typographic minus (U+2212) for negative figures, and
+ * the textbook formulas each value starts from (Sedra & Smith, Gray & Meyer).
+ */
+import { describe, expect, test } from 'vitest';
+import type { MeasuredFacts } from '../../../shared/engine/option-evaluation';
+import { conditionLabel, operatingPointProblemText, sizingNote, tailOutputResistanceNote, wordedFacts } from '../../../shared/text/engine-notes';
+import { makeOptionFacts } from '../../helpers/option-facts';
+
+describe('sizing notes', () => {
+  test('when the budget sets the tail current, then the note gives the share, the budget, the rail span and the reference branch', () => {
+    const note = sizingNote({
+      step: 'tail-current-from-budget',
+      currentA: 0.00096,
+      capped: false,
+      capA: 0.002,
+      powerUseFraction: 0.8,
+      powerBudgetW: 0.036,
+      railSpanV: 15,
+      referenceRatio: 1,
+    });
+    expect(note).toBe('Tail current 960 µA: 80 % of the 36 mW budget across 15 V, shared with a reference branch of 1× the tail current.');
+  });
+
+  test('when the cap sets the tail current of a resistor tail, then the note says so and names no reference branch', () => {
+    const note = sizingNote({ step: 'tail-current-from-budget', currentA: 0.002, capped: true, capA: 0.002, powerUseFraction: 0.8, powerBudgetW: 1, railSpanV: 24, referenceRatio: 0 });
+    expect(note).toBe('Tail current 2 mA: capped at 2 mA.');
+  });
+
+  test('when RC is sized for a single-ended output, then the note names 2·|Ase|·VT/IC and both values in ohms', () => {
+    const note = sizingNote({ step: 'collector', formula: 'single-ended', exactOhm: 8312, resistanceOhm: 8250, series: 'E96' });
+    expect(note).toBe('RC ≈ 2·|Ase|·VT/IC, refined by solving the stage with the sized tail to 8.31 kΩ, snapped to 8.25 kΩ (E96).');
+  });
+});
+
+describe('figures worded', () => {
+  test('when a condition sits below zero, then its label carries the typographic minus', () => {
+    expect(conditionLabel(-2, -20)).toBe('ICM \u22122 V, \u221220 °C');
+    expect(conditionLabel(1.5, 85)).toBe('ICM 1.5 V, 85 °C');
+  });
+
+  test('when a transistor saturates, then the sentence gives VCE to the millivolt beside VCE(sat)', () => {
+    expect(operatingPointProblemText({ problem: 'saturated', transistor: 'Q4', vceV: 0.0234, vceSatV: 0.15 })).toBe('Q4 is saturated: VCE = 0.023 V, below VCE(sat) = 0.15 V.');
+  });
+
+  test('when the device has no Early voltage, then the tail Rout note says the textbook limit is unbounded', () => {
+    expect(tailOutputResistanceNote(5.48e6, { valueOhm: null, formula: 'β·ro/2' })).toBe('5.48 MΩ by node analysis (textbook β·ro/2 unbounded without an Early voltage)');
+    expect(tailOutputResistanceNote(5.48e6, { valueOhm: 5.29e6, formula: 'β·ro/2' })).toBe('5.48 MΩ by node analysis (textbook β·ro/2 ≈ 5.29 MΩ)');
+  });
+
+  test('when an option\'s facts are worded, then the remedy id and the problems become words in their places and the Rout note is written from the figures', () => {
+    const { gainOverConditionsRemedy: _words, tailOutputResistanceNote: _note, operatingPointProblems: _problems, ...rest } = makeOptionFacts();
+    const measured: MeasuredFacts = {
+      ...rest,
+      gainOverConditionsRemedyId: 'current-source-tail',
+      operatingPointProblemsAt: [
+        { conditionLabel: 'ICM 3.5 V, 5 °C', problem: { problem: 'saturated', transistor: 'Q2', vceV: 0.0204, vceSatV: 0.15 } },
+        { conditionLabel: 'ICM \u22123.2 V, 5 °C', problem: { problem: 'dead-reference' } },
+      ],
+      operatingPointProblemCount: 2,
+      tailOutputResistanceOhm: 2.3e6,
+      tailOutputResistanceClosedFormOhm: 2.5e6,
+      tailOutputResistanceFormula: 'ro·(1 + gm·(RE ∥ rπ))',
+    };
+    const facts = wordedFacts(measured);
+    expect(facts.gainOverConditionsRemedy).toBe('a current-source tail instead of the resistor (the tail current then stops following the input common mode)');
+    expect(facts.tailOutputResistanceNote).toBe('2.3 MΩ by node analysis (textbook ro·(1 + gm·(RE ∥ rπ)) ≈ 2.5 MΩ)');
+    expect(facts.operatingPointProblems).toEqual([
+      'ICM 3.5 V, 5 °C: Q2 is saturated: VCE = 0.020 V, below VCE(sat) = 0.15 V.',
+      'ICM \u22123.2 V, 5 °C: The reference branch carries no current: the rails are too close for this tail.',
+    ]);
+    expect('gainOverConditionsRemedyId' in facts).toBe(false);
+    const worded: Record<string, string> = { gainOverConditionsRemedyId: 'gainOverConditionsRemedy', operatingPointProblemsAt: 'operatingPointProblems' };
+    const measuredKeys = Object.keys(measured).map((key) => worded[key] ?? key);
+    expect(Object.keys(facts)).toEqual([...measuredKeys, 'tailOutputResistanceNote']);
+  });
+});
