@@ -33,10 +33,14 @@ export interface SpecWithLatest extends Spec {
   unchanged?: boolean;
 }
 
-/** POST /api/projects/:id/specs and PUT /api/specs/:id: the title and the document (checked against the spec schema by the service). */
+/**
+ * POST /api/projects/:id/specs and PUT /api/specs/:id: the title and the spec document. The route
+ * takes any JSON object as the document; the service puts the title in and checks it against the
+ * spec schema (a 400 naming each field under /payload), filling in the defaults.
+ */
 export interface SpecInput {
   title: string;
-  payload: Partial<SpecDocument>;
+  payload: Record<string, unknown>;
   /** What changed and why (optional; stored with the version; never blank). */
   note?: string;
 }

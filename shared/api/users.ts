@@ -66,3 +66,24 @@ export interface PasswordResetInput {
 export interface PreferencesInput {
   notify: boolean;
 }
+
+/** The answer of sign-in: the person and the session's CSRF token (the session rotates it). */
+export interface SignedIn {
+  user: SessionUser;
+  csrfToken: string;
+}
+
+/** GET and PATCH /api/auth/me: the signed-in person. */
+export interface Me {
+  user: SessionUser;
+}
+
+/** POST /api/auth/password answers how many of the person's other sessions it ended. */
+export interface PasswordChanged {
+  endedSessions: number;
+}
+
+/** POST /api/auth/password-reset answers the account's e-mail (the page signs in with it). */
+export interface PasswordResetDone {
+  email: string;
+}
