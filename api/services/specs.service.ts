@@ -4,7 +4,7 @@
  */
 import type { DataSource, EntityManager } from 'typeorm';
 import type { Spec as SpecDocument } from '../../shared/engine/types';
-import { diffJson, type JsonChange } from '../../shared/json-diff';
+import { diffJson } from '../../shared/json-diff';
 import { validateSpec } from '../../shared/validate';
 import type { Action } from '../../shared/workflow/roles';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
