@@ -7,7 +7,7 @@ import type { Spec } from '../schema/spec.generated';
 
 /** Tail topologies (ids in order of simplicity, the tail's design type): the catalogue, topologies.ts. */
 export { TOPOLOGIES, type TailDesign, type TopologyId } from './topologies';
-import type { TailDesign, TopologyId } from './topologies';
+import type { TopologyId } from './topologies';
 
 /**
  * `Design` (the `analyze` input: one fully sized emitter-coupled pair with its tail; its tail is a
