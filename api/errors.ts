@@ -2,12 +2,9 @@
  * The one error type of the server. Throw it anywhere; the error middleware answers
  * `{ error, code, details: [{ path, message, line? }] }` with its status. Anything else is a generic 500.
  */
-export interface ErrorDetail {
-  path: string;
-  message: string;
-  /** 1-based line of an uploaded text file the problem is on (device library uploads). */
-  line?: number;
-}
+import type { ErrorDetail } from '../shared/api/errors';
+
+export type { ErrorDetail };
 
 export class AppError extends Error {
   readonly code: string;

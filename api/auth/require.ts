@@ -9,24 +9,16 @@ import type { RequestHandler } from 'express';
 import type {} from 'passport';
 import { mayAnywhere, type Action } from '../../shared/workflow/roles';
 import type { User } from '../entities/user.entity';
+import type { SessionUser } from '../../shared/api/users';
 import { AppError, forbidden } from '../errors';
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
-    // Passport's user is our account record.
-    interface User {
-      id: number;
-      email: string;
-      displayName: string;
-      role: import('../../shared/workflow/roles').AccountRole;
-      notify: boolean;
-      createdAt: string;
-      /** The role held in each project the person belongs to (loaded with the session). */
-      projectRoles: import('../../shared/workflow/roles').ProjectRoleOf[];
-      /** Set when an administrator disabled the account (such a session is not restored). */
-      disabledAt: string | null;
-    }
+    // Passport's user is the signed-in person as the API shows it: the account and the role held
+    // in each project (loaded with the session; a disabled account's session is not restored).
+    // eslint-disable-next-line @typescript-eslint/no-empty-object-type
+    interface User extends SessionUser {}
   }
 }
 

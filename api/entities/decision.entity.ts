@@ -1,7 +1,8 @@
 import { EntitySchema } from 'typeorm';
+import type { DecisionKind } from '../../shared/workflow/current-design';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 
-export type DecisionKind = 'accept' | 'choose' | 'override';
+export type { DecisionKind };
 
 /** A designer's decision on a proposal; an override carries its own design and its evaluation. */
 export interface Decision {

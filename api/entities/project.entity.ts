@@ -1,13 +1,9 @@
 import { EntitySchema } from 'typeorm';
+import type { Project } from '../../shared/api/projects';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 
-export interface Project {
-  id: number;
-  name: string;
-  description: string;
-  createdById: number;
-  createdAt: string;
-}
+/** A project row is what the API shows (shared/api/projects.ts). */
+export type { Project };
 
 export const ProjectEntity = new EntitySchema<Project>({
   name: 'Project',

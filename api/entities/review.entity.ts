@@ -1,7 +1,8 @@
 import { EntitySchema } from 'typeorm';
+import type { Verdict } from '../../shared/api/proposals';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 
-export type Verdict = 'approve' | 'return';
+export type { Verdict };
 
 export interface Review {
   id: number;

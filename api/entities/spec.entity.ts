@@ -1,16 +1,9 @@
 import { EntitySchema } from 'typeorm';
+import type { Spec } from '../../shared/api/specs';
 import { foreignKeyColumn, idColumn, shortTextColumn, timestampColumn } from './columns';
 
-/** A requirement spec: its versions hold the content; `latestVersion` is the newest number. */
-export interface Spec {
-  id: number;
-  projectId: number;
-  title: string;
-  latestVersion: number;
-  createdById: number;
-  createdAt: string;
-  updatedAt: string;
-}
+/** A requirement spec row is what the API shows (shared/api/specs.ts): its versions hold the content; `latestVersion` is the newest number. */
+export type { Spec };
 
 export const SpecEntity = new EntitySchema<Spec>({
   name: 'Spec',

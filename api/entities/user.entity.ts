@@ -1,19 +1,10 @@
 import { EntitySchema } from 'typeorm';
-import type { AccountRole } from '../../shared/workflow/roles';
+import type { User as Account } from '../../shared/api/users';
 import { idColumn, shortTextColumn, timestampColumn } from './columns';
 
-export interface User {
-  id: number;
-  email: string;
-  displayName: string;
-  /** Global: administrator or member; what a member may do in a project is the membership's role. */
-  role: AccountRole;
+/** An account row: what the API shows of it (shared/api/users.ts) and the password hash, read only for sign-in. */
+export interface User extends Account {
   passwordHash: string;
-  /** E-mail notifications about the workflow (on unless the person turns them off). */
-  notify: boolean;
-  createdAt: string;
-  /** When an administrator disabled the account (it cannot sign in), or null. */
-  disabledAt: string | null;
 }
 
 export const UserEntity = new EntitySchema<User>({

@@ -14,7 +14,8 @@ import { MEASUREMENT_NOTE_MAX_LENGTH } from '../../shared/measurements/types';
 import { spreadsheetSafeDelimited, unsafeTextMessage } from '../../shared/text/plain-text';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
-import { getMeasurement, listMeasurements, measurementFile, uploadMeasurement, type MeasurementPageQuery } from '../services/measurements.service';
+import { getMeasurement, listMeasurements, measurementFile, uploadMeasurement } from '../services/measurements.service';
+import type { MeasurementListQuery } from '../../shared/api/measurements';
 import { MEASUREMENT_LIST_QUERY } from '../validation/bodies';
 import { fileUpload } from '../uploads';
 import { idParam, validateQuery } from '../validation/validate-request';
@@ -52,7 +53,7 @@ export function measurementsRoutes(dataSource: DataSource, uploadsDir: string): 
   const router = Router({ mergeParams: true });
   router.use(requireSignIn);
   router.get('/', validateQuery(MEASUREMENT_LIST_QUERY), async (req, res) => {
-    res.json(await listMeasurements(dataSource, currentUser(req), proposalIdOf(req), res.locals.query as MeasurementPageQuery));
+    res.json(await listMeasurements(dataSource, currentUser(req), proposalIdOf(req), res.locals.query as MeasurementListQuery));
   });
   router.post('/', requirePermission('measurements:write'), measurementUpload.receive, async (req, res) => {
     const proposalId = proposalIdOf(req);

@@ -1,5 +1,6 @@
 /** The append-only audit trail: one event per change, written in the change's own transaction. */
 import type { EntityManager } from 'typeorm';
+import type { AuditEvent as AuditEventView } from '../../shared/api/admin';
 import { AuditEventEntity, type AuditEvent } from '../entities/audit-event.entity';
 
 export interface AuditInput {
@@ -30,6 +31,6 @@ export async function recordEvent(manager: EntityManager, input: AuditInput): Pr
 }
 
 /** An event as the API shows it (details parsed). */
-export function auditView(event: AuditEvent) {
+export function auditView(event: AuditEvent): AuditEventView {
   return { ...event, details: JSON.parse(event.details) as Record<string, unknown> };
 }

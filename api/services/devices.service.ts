@@ -24,6 +24,8 @@ import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
 import type { PublicUser } from './users.service';
+import type { DeviceListQuery } from '../../shared/api/devices';
+import type { Page } from '../../shared/api/lists';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
@@ -68,13 +70,7 @@ async function views(manager: EntityManager | DataSource, rows: DeviceModel[]): 
   return rows.map((row) => view(row, names));
 }
 
-/** The list's query: a page of the library (or of its former cards), optionally names containing `q`. */
-export interface DeviceListQuery {
-  q?: string;
-  state: 'library' | 'former';
-  page: number;
-  pageSize: number;
-}
+export type { DeviceListQuery };
 
 /** `q` as a LIKE pattern that matches it literally anywhere (`%`, `_` and `\` escaped). */
 const containsPattern = (q: string) => `%${q.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
@@ -83,7 +79,7 @@ const containsPattern = (q: string) => `%${q.toLowerCase().replace(/[\\%_]/g, (c
  * One page of the project's library by name (`state: 'library'`), or of its removed and replaced
  * cards, newest retirement first (`state: 'former'`): `{ items, total, page, pageSize }`.
  */
-export async function listDeviceModels(dataSource: DataSource, viewer: Viewer, projectId: number, query: DeviceListQuery) {
+export async function listDeviceModels(dataSource: DataSource, viewer: Viewer, projectId: number, query: DeviceListQuery): Promise<Page<DeviceModelView>> {
   await projectFor(dataSource, viewer, projectId);
   const builder = dataSource.getRepository(DeviceModelEntity).createQueryBuilder('d').where('d.projectId = :projectId', { projectId });
   if (query.state === 'library') builder.andWhere('d.retirement IS NULL').orderBy('d.nameKey', 'ASC');

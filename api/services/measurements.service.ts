@@ -29,6 +29,8 @@ import { recordEvent } from './audit.service';
 import { safeFileName } from './devices.service';
 import { proposalFor } from './proposals.service';
 import type { PublicUser } from './users.service';
+import type { Page } from '../../shared/api/lists';
+import type { MeasurementListQuery } from '../../shared/api/measurements';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
@@ -115,17 +117,11 @@ async function views(manager: EntityManager | DataSource, rows: Measurement[], c
   });
 }
 
-/** Query of the list: pages count from 1 (as the proposal list's). */
-export interface MeasurementPageQuery {
-  page: number;
-  pageSize: number;
-}
-
 /**
  * One page of the proposal's measurements, newest first, each with its comparison but without
  * its points (they are served one measurement at a time): `{ items, total, page, pageSize }`.
  */
-export async function listMeasurements(dataSource: DataSource, viewer: Viewer, proposalId: number, query: MeasurementPageQuery) {
+export async function listMeasurements(dataSource: DataSource, viewer: Viewer, proposalId: number, query: MeasurementListQuery): Promise<Page<MeasurementSummary>> {
   const proposal = await proposalFor(dataSource, viewer, proposalId);
   const repository = dataSource.getRepository(MeasurementEntity);
   const [total, rows] = await Promise.all([

@@ -12,6 +12,7 @@ import { UserEntity } from '../entities/user.entity';
 import { AppError, forbidden, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { publicUser, type PublicUser } from './users.service';
+import type { NewProject, ProjectMember as ProjectMemberView } from '../../shared/api/projects';
 
 /** Who asks; a signed-in request's user also carries the roles held in each project (read at the start of the request). */
 type Viewer = Pick<PublicUser, 'id' | 'role'> & { projectRoles?: readonly ProjectRoleOf[] };
@@ -46,7 +47,7 @@ export async function listProjects(dataSource: DataSource, viewer: Viewer): Prom
   return repository.find({ where: { id: In(memberships.map((m) => m.projectId)) }, order: { id: 'ASC' } });
 }
 
-export async function createProject(dataSource: DataSource, actorId: number, input: { name: string; description?: string }): Promise<Project> {
+export async function createProject(dataSource: DataSource, actorId: number, input: NewProject): Promise<Project> {
   return dataSource.transaction(async (manager) => {
     const project = await manager.getRepository(ProjectEntity).save({
       name: input.name.trim(),
@@ -59,8 +60,8 @@ export async function createProject(dataSource: DataSource, actorId: number, inp
   });
 }
 
-/** A member of a project: the account, and the role held in this project. */
-export type ProjectMemberView = PublicUser & { projectRole: ProjectRole | null };
+/** A member of a project: the account, and the role held in this project (shared/api/projects.ts). */
+export type { ProjectMemberView };
 
 export async function listMembers(dataSource: DataSource, viewer: Viewer, projectId: number): Promise<ProjectMemberView[]> {
   await projectFor(dataSource, viewer, projectId);

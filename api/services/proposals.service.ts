@@ -8,14 +8,14 @@ import { In, type DataSource, type EntityManager } from 'typeorm';
 import { ENGINE_VERSION, ESTIMATE_NOTICE, type RecommendResult } from '../../shared/engine/index';
 import type { RecommendOption } from '../../shared/engine/recommend';
 import { spiceNetlist } from '../../shared/engine/netlist';
-import type { Design, RuleSet, TopologyId } from '../../shared/engine/types';
+import type { Design, RuleSet } from '../../shared/engine/types';
 import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
 import { mayIn, type Action } from '../../shared/workflow/roles';
 import { AuditEventEntity } from '../entities/audit-event.entity';
-import { DecisionEntity, type Decision, type DecisionKind } from '../entities/decision.entity';
+import { DecisionEntity, type Decision } from '../entities/decision.entity';
 import { ProjectMemberEntity } from '../entities/project-member.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
-import { ReviewEntity, type Review, type Verdict } from '../entities/review.entity';
+import { ReviewEntity, type Review } from '../entities/review.entity';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
 import { validateDesign } from '../../shared/validate';
 import { lockRowForUpdate } from '../data-source';
@@ -32,6 +32,10 @@ import { projectFor } from './projects.service';
 import { specMovedOn, supersedeOlderRankings } from './spec-lifecycle.service';
 import { checkedSpecDocument, latestVersion, specFor } from './specs.service';
 import type { PublicUser } from './users.service';
+import type { AuditEvent } from '../../shared/api/admin';
+import type { Page } from '../../shared/api/lists';
+import type * as Wire from '../../shared/api/proposals';
+import type { DecisionInput, NetlistQuery, ReviewInput, WithdrawalInput } from '../../shared/api/proposals';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
@@ -57,22 +61,7 @@ const SUMMARY_COLUMNS = {
 /** Largest page of the proposal list. */
 export const MAX_PAGE_SIZE = 100;
 
-export interface DecisionInput {
-  kind: DecisionKind;
-  topology?: TopologyId;
-  design?: Design;
-  reason?: string;
-}
-
-export interface ReviewInput {
-  verdict: Verdict;
-  comment?: string;
-  /**
-   * Sign off although the only SPICE verification of the decided design simulated another design
-   * (or was stored before results recorded what they simulated); needs a comment saying why.
-   */
-  acceptStaleVerification?: boolean;
-}
+export type { DecisionInput, ReviewInput };
 
 /**
  * The proposal if its project is visible to the viewer, else 404; with an action, also a 403
@@ -102,7 +91,7 @@ function transition(proposal: Proposal, event: ProposalEvent): ProposalState {
   );
 }
 
-function decisionView(decision: Decision) {
+function decisionView(decision: Decision): Wire.Decision {
   return { ...decision, design: JSON.parse(decision.design) as Design, evaluation: decision.evaluation ? (JSON.parse(decision.evaluation) as RecommendOption) : null };
 }
 
@@ -117,7 +106,7 @@ function blockingShortfalls(option: RecommendOption | null): number {
 }
 
 /** The whole proposal: its record, the engine's output, the spec snapshot, decisions and reviews. */
-export async function getProposal(dataSource: DataSource, viewer: Viewer, proposalId: number) {
+export async function getProposal(dataSource: DataSource, viewer: Viewer, proposalId: number): Promise<Wire.Proposal> {
   const proposal = await proposalFor(dataSource, viewer, proposalId);
   const [version, decisions, reviews] = await Promise.all([
     dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId }),
@@ -206,7 +195,7 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
   const { result: _stored, ...summary } = proposal;
   const envelope = {
     ...summary,
-    specVersion: { id: version.id, version: version.version, title: version.title, note: version.note, payload: JSON.parse(version.payload) as unknown },
+    specVersion: { id: version.id, version: version.version, title: version.title, note: version.note, payload: JSON.parse(version.payload) as Wire.RankedSpecVersion['payload'] },
     specMovedOn: null,
     decisions: [],
     reviews: [],
@@ -217,7 +206,7 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
 }
 
 /** Ranks the spec's latest version with the engine and stores the proposal; returns it whole. */
-export async function createProposal(dataSource: DataSource, actor: Viewer, specId: number, ruleSet: RuleSet) {
+export async function createProposal(dataSource: DataSource, actor: Viewer, specId: number, ruleSet: RuleSet): Promise<Wire.Proposal> {
   const { envelope, resultText } = await storeProposal(dataSource, actor, specId, ruleSet);
   return { ...envelope, result: JSON.parse(resultText) as RecommendResult };
 }
@@ -232,7 +221,7 @@ export async function createProposalJson(dataSource: DataSource, actor: Viewer, 
 }
 
 /** One page of a project's proposals, newest first, without the engine output, with each one's spec title and version number. */
-export async function listProposals(dataSource: DataSource, viewer: Viewer, projectId: number, query: { status?: ProposalState; page: number; pageSize: number }) {
+export async function listProposals(dataSource: DataSource, viewer: Viewer, projectId: number, query: Wire.ProposalListQuery): Promise<Page<Wire.ProposalSummary>> {
   await projectFor(dataSource, viewer, projectId);
   const where = { projectId, ...(query.status ? { status: query.status } : {}) };
   const repository = dataSource.getRepository(ProposalEntity);
@@ -298,14 +287,14 @@ function checkDecisionFields(input: DecisionInput): void {
  * A designer's own values checked as an override would be (every condition and rule, with the
  * spec of the proposal) without recording anything: the full check before deciding.
  */
-export async function evaluateOverride(dataSource: DataSource, actor: Viewer, proposalId: number, design: Design, ruleSet: RuleSet) {
+export async function evaluateOverride(dataSource: DataSource, actor: Viewer, proposalId: number, design: Design, ruleSet: RuleSet): Promise<Wire.OptionEvaluation> {
   const proposal = await proposalFor(dataSource, actor, proposalId, 'proposals:decide');
   const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
   return evaluateSpecDesign(checkedSpecDocument(JSON.parse(version.payload)), design, ruleSet);
 }
 
 /** A designer's decision: moves a ranked or returned proposal to decided. */
-export async function decide(dataSource: DataSource, actor: Viewer, proposalId: number, input: DecisionInput, ruleSet: RuleSet) {
+export async function decide(dataSource: DataSource, actor: Viewer, proposalId: number, input: DecisionInput, ruleSet: RuleSet): Promise<Wire.Proposal> {
   checkDecisionFields(input);
   // The engine works outside the transaction (it is CPU, not data); the state is checked again inside.
   const before = await proposalFor(dataSource, actor, proposalId, 'proposals:decide');
@@ -357,7 +346,7 @@ export async function decide(dataSource: DataSource, actor: Viewer, proposalId: 
  *   changed) unless `acceptStaleVerification: true` comes with a comment saying why (400 on
  *   `/comment` without one); the review then records that job and the acceptance.
  */
-export async function review(dataSource: DataSource, actor: Viewer, proposalId: number, input: ReviewInput) {
+export async function review(dataSource: DataSource, actor: Viewer, proposalId: number, input: ReviewInput): Promise<Wire.Proposal> {
   const comment = input.comment?.trim() || null;
   if (input.verdict === 'return' && !comment) throw invalid([{ path: '/comment', message: 'is required when sending a proposal back for rework' }]);
   if (input.verdict === 'return' && input.acceptStaleVerification !== undefined) {
@@ -436,7 +425,7 @@ export async function review(dataSource: DataSource, actor: Viewer, proposalId: 
  * Withdraws an open proposal with a reason: its author, or a designer of the project. The
  * record stays (decisions, reviews, audit), closed for good.
  */
-export async function withdraw(dataSource: DataSource, actor: Viewer, proposalId: number, input: { reason: string }) {
+export async function withdraw(dataSource: DataSource, actor: Viewer, proposalId: number, input: WithdrawalInput): Promise<Wire.Proposal> {
   const reason = input.reason.trim();
   if (!reason) throw invalid([{ path: '/reason', message: 'is required: say why the proposal is withdrawn' }]);
   await dataSource.transaction(async (manager) => {
@@ -469,7 +458,7 @@ export async function withdraw(dataSource: DataSource, actor: Viewer, proposalId
  * (an override included), with the differential or common-mode AC drive, from the product's one
  * netlist writer. The header says where it comes from and that the figures are estimates.
  */
-export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, proposalId: number, query: { topology?: TopologyId; source: 'option' | 'decision'; drive: 'differential' | 'common-mode' }) {
+export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, proposalId: number, query: NetlistQuery) {
   const proposal = await getProposal(dataSource, viewer, proposalId);
   let design: Design | null | undefined;
   let label: string;
@@ -503,7 +492,7 @@ export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, pr
 const NETLIST_SWEEP = { startHz: 1, stopHz: 1e7, pointsPerDecade: 20 };
 
 /** The proposal's audit trail, oldest first. */
-export async function proposalAudit(dataSource: DataSource, viewer: Viewer, proposalId: number) {
+export async function proposalAudit(dataSource: DataSource, viewer: Viewer, proposalId: number): Promise<AuditEvent[]> {
   await proposalFor(dataSource, viewer, proposalId);
   const events = await dataSource.getRepository(AuditEventEntity).find({ where: { proposalId }, order: { id: 'ASC' } });
   return events.map(auditView);

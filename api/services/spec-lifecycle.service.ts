@@ -5,7 +5,8 @@
  * spec has moved on, with the field-by-field differences.
  */
 import { In, LessThan, type DataSource, type EntityManager } from 'typeorm';
-import { diffJson, type JsonChange } from '../../shared/json-diff';
+import type { SpecMovedOn } from '../../shared/api/proposals';
+import { diffJson } from '../../shared/json-diff';
 import { nextState, SUPERSEDABLE_STATES } from '../../shared/workflow/proposal-states';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
@@ -54,17 +55,7 @@ export async function supersedeOlderRankings(manager: EntityManager, actorId: nu
   return closed;
 }
 
-/** How far the spec has moved on since the proposal's version: null while it is the latest. */
-export interface SpecMovedOn {
-  latestVersion: number;
-  latestTitle: string;
-  /** Differences from the proposal's version to the latest, field by field. */
-  changes: JsonChange[];
-  /** The latest version's change note, when its author wrote one. */
-  latestNote: string | null;
-  /** The latest version's document (lists in the differences are shown whole). */
-  latestPayload: unknown;
-}
+export type { SpecMovedOn };
 
 export async function specMovedOn(dataSource: DataSource | EntityManager, proposal: Pick<Proposal, 'specId'>, version: SpecVersion): Promise<SpecMovedOn | null> {
   const spec = await dataSource.getRepository(SpecEntity).findOneOrFail({ select: { id: true, latestVersion: true }, where: { id: proposal.specId } });

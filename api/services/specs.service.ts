@@ -4,7 +4,7 @@
  */
 import type { DataSource, EntityManager } from 'typeorm';
 import type { Spec as SpecDocument } from '../../shared/engine/types';
-import { diffJson, type JsonChange } from '../../shared/json-diff';
+import { diffJson } from '../../shared/json-diff';
 import { validateSpec } from '../../shared/validate';
 import type { Action } from '../../shared/workflow/roles';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
@@ -14,15 +14,11 @@ import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
 import type { PublicUser } from './users.service';
+import type { SpecDiff, SpecInput, SpecVersion as SpecVersionView, SpecWithLatest } from '../../shared/api/specs';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
-export interface SpecInput {
-  title: string;
-  payload: unknown;
-  /** What changed and why (optional; stored with the version). */
-  note?: string;
-}
+export type { SpecInput };
 
 /** The note as stored: trimmed, null when absent or blank. */
 const noteOf = (input: Pick<SpecInput, 'note'>) => input.note?.trim() || null;
@@ -34,7 +30,7 @@ export function checkedSpecDocument(payload: unknown): SpecDocument {
   return result.value;
 }
 
-export function specVersionView(version: SpecVersion) {
+export function specVersionView(version: SpecVersion): SpecVersionView {
   return { ...version, payload: JSON.parse(version.payload) as SpecDocument };
 }
 
@@ -65,12 +61,12 @@ export async function listSpecs(dataSource: DataSource, viewer: Viewer, projectI
   return dataSource.getRepository(SpecEntity).find({ where: { projectId }, order: { id: 'ASC' } });
 }
 
-export async function getSpec(dataSource: DataSource, viewer: Viewer, specId: number) {
+export async function getSpec(dataSource: DataSource, viewer: Viewer, specId: number): Promise<SpecWithLatest> {
   const spec = await specFor(dataSource, viewer, specId);
   return { ...spec, latest: specVersionView(await latestVersion(dataSource, spec)) };
 }
 
-export async function createSpec(dataSource: DataSource, actor: Viewer, projectId: number, input: SpecInput) {
+export async function createSpec(dataSource: DataSource, actor: Viewer, projectId: number, input: SpecInput): Promise<SpecWithLatest> {
   const document = checkedSpecDocument({ ...(input.payload as object), title: input.title.trim() });
   return dataSource.transaction(async (manager) => {
     await projectFor(manager, actor, projectId, 'specs:write');
@@ -113,7 +109,7 @@ export async function insertSpecVersion(manager: EntityManager, actor: Viewer, s
   return { spec: { ...spec, title: version.title, latestVersion: number, updatedAt: now }, version };
 }
 
-export async function updateSpec(dataSource: DataSource, actor: Viewer, specId: number, input: SpecInput) {
+export async function updateSpec(dataSource: DataSource, actor: Viewer, specId: number, input: SpecInput): Promise<SpecWithLatest> {
   const document = checkedSpecDocument({ ...(input.payload as object), title: input.title.trim() });
   return dataSource.transaction(async (manager) => {
     // PostgreSQL: concurrent edits of one spec take version numbers one after the other.
@@ -132,14 +128,14 @@ export function sameDocument(a: unknown, b: unknown): boolean {
   return diffJson(a, b).length === 0;
 }
 
-export async function listVersions(dataSource: DataSource, viewer: Viewer, specId: number) {
+export async function listVersions(dataSource: DataSource, viewer: Viewer, specId: number): Promise<SpecVersionView[]> {
   await specFor(dataSource, viewer, specId);
   const versions = await dataSource.getRepository(SpecVersionEntity).find({ where: { specId }, order: { version: 'ASC' } });
   return versions.map(specVersionView);
 }
 
 /** Field-by-field differences between two versions of a spec. */
-export async function diffVersions(dataSource: DataSource, viewer: Viewer, specId: number, from: number, to: number): Promise<{ from: number; to: number; changes: JsonChange[] }> {
+export async function diffVersions(dataSource: DataSource, viewer: Viewer, specId: number, from: number, to: number): Promise<SpecDiff> {
   await specFor(dataSource, viewer, specId);
   const repository = dataSource.getRepository(SpecVersionEntity);
   const [a, b] = await Promise.all([repository.findOneBy({ specId, version: from }), repository.findOneBy({ specId, version: to })]);

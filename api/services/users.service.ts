@@ -7,7 +7,8 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
 import { formatDateTime } from '../../shared/text/dates';
-import type { AccountRole, ProjectRoleOf } from '../../shared/workflow/roles';
+import type { NewUser, PasswordChanged, PasswordChangeInput, PasswordResetDone, PasswordResetInput, PasswordResetIssued, PreferencesInput, SessionUser, User as PublicUser, UserChanges } from '../../shared/api/users';
+import type { ProjectRoleOf } from '../../shared/workflow/roles';
 import { hashPassword, verifyPassword } from '../auth/password';
 import { sqlParameter } from '../data-source';
 import { checkPassword } from '../auth/password-policy';
@@ -20,7 +21,8 @@ import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { notificationSettings } from './notifications.service';
 
-export type PublicUser = Omit<User, 'passwordHash'>;
+/** An account as the API shows it (shared/api/users.ts): never its password hash. */
+export type { PublicUser, SessionUser };
 
 export function publicUser(user: User | PublicUser): PublicUser {
   const { id, email, displayName, role, notify, createdAt } = user;
@@ -37,8 +39,6 @@ export async function findUserById(dataSource: DataSource, id: number): Promise<
 }
 
 /** The signed-in person: the account and the role held in each project (read on every request, so a change applies at once). */
-export type SessionUser = PublicUser & { projectRoles: ProjectRoleOf[] };
-
 export async function sessionUser(dataSource: DataSource, user: PublicUser): Promise<SessionUser> {
   const memberships = await dataSource.getRepository(ProjectMemberEntity).find({ where: { userId: user.id }, order: { projectId: 'ASC' } });
   return { ...publicUser(user), projectRoles: memberships.map((m) => ({ projectId: m.projectId, role: m.role })) };
@@ -94,13 +94,6 @@ export async function findUserForSignIn(dataSource: DataSource, email: string): 
     .getOne();
 }
 
-export interface NewUser {
-  email: string;
-  displayName: string;
-  role: AccountRole;
-  password: string;
-}
-
 export async function createUser(dataSource: DataSource, actorId: number | null, input: NewUser): Promise<PublicUser> {
   const email = input.email.trim().toLowerCase();
   checkPassword(input.password, email);
@@ -114,7 +107,7 @@ export async function createUser(dataSource: DataSource, actorId: number | null,
   });
 }
 
-export async function updateUser(dataSource: DataSource, actorId: number, id: number, changes: { displayName?: string; role?: AccountRole }): Promise<PublicUser> {
+export async function updateUser(dataSource: DataSource, actorId: number, id: number, changes: Omit<UserChanges, 'disabled'>): Promise<PublicUser> {
   return dataSource.transaction(async (manager) => {
     const repository = manager.getRepository(UserEntity);
     const user = await repository.findOneBy({ id });
@@ -130,7 +123,7 @@ export async function updateUser(dataSource: DataSource, actorId: number, id: nu
 }
 
 /** A person's own preferences (today: e-mail notifications on or off); returns the account. */
-export async function updatePreferences(dataSource: DataSource, userId: number, changes: { notify: boolean }): Promise<PublicUser> {
+export async function updatePreferences(dataSource: DataSource, userId: number, changes: PreferencesInput): Promise<PublicUser> {
   return dataSource.transaction(async (manager) => {
     const repository = manager.getRepository(UserEntity);
     const user = await repository.findOneBy({ id: userId });
@@ -153,7 +146,7 @@ function withHash(manager: EntityManager, id: number): Promise<User | null> {
  * otherwise), the new one must keep the rule (400 at /newPassword). Every other session of the
  * person ends; `keepSessionId` (the one asking) stays signed in.
  */
-export async function changeOwnPassword(dataSource: DataSource, userId: number, keepSessionId: string, input: { currentPassword: string; newPassword: string }): Promise<{ endedSessions: number }> {
+export async function changeOwnPassword(dataSource: DataSource, userId: number, keepSessionId: string, input: PasswordChangeInput): Promise<PasswordChanged> {
   const user = await withHash(dataSource.manager, userId);
   if (!user) throw notFound('user');
   if (!(await verifyPassword(input.currentPassword, user.passwordHash))) throw invalid([{ path: '/currentPassword', message: 'is not your current password' }], 'The current password is not right.');
@@ -193,7 +186,7 @@ function resetMessage(displayName: string, link: string, expiresAt: string, admi
  * An administrator has a one-time reset link mailed to a person (through the outbox). Only the
  * token's SHA-256 is stored; a newer link closes the older open ones. Answers the link's expiry.
  */
-export async function issuePasswordReset(dataSource: DataSource, actorId: number, userId: number): Promise<{ expiresAt: string }> {
+export async function issuePasswordReset(dataSource: DataSource, actorId: number, userId: number): Promise<PasswordResetIssued> {
   const token = randomBytes(32).toString('base64url');
   const now = new Date();
   const expiresAt = new Date(now.getTime() + RESET_LINK_LIFETIME_MS).toISOString();
@@ -235,7 +228,7 @@ const linkRefused = () => new AppError('reset-link-invalid', 400, 'This password
  * replaced, not expired); it is used up, the password replaced, and every session of the person
  * ends. Answers the account's e-mail (the page signs in with it).
  */
-export async function completePasswordReset(dataSource: DataSource, input: { token: string; newPassword: string }): Promise<{ email: string }> {
+export async function completePasswordReset(dataSource: DataSource, input: PasswordResetInput): Promise<PasswordResetDone> {
   const hash = tokenHash(input.token);
   const open = await dataSource.getRepository(PasswordResetEntity).findOneBy({ tokenHash: hash });
   if (!open || open.usedAt !== null || Date.parse(open.expiresAt) <= Date.now()) throw linkRefused();

@@ -28,6 +28,7 @@ import { DecisionEntity } from '../entities/decision.entity';
 import { recordEvent } from './audit.service';
 import { monteCarloRefusal } from '../verification/monte-carlo';
 import type { PublicUser } from './users.service';
+import type { MonteCarloInput } from '../../shared/api/verification';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
@@ -130,7 +131,7 @@ export function requestVerification(dataSource: DataSource, actor: Viewer, propo
  * decision's design (`source: 'decision'`, own values included; the topology, when given, must be
  * the decision's); 409 with the reason when it cannot have one.
  */
-export async function requestMonteCarlo(dataSource: DataSource, actor: Viewer, proposalId: number, input: { topology?: string; source?: 'option' | 'decision'; runs?: number }) {
+export async function requestMonteCarlo(dataSource: DataSource, actor: Viewer, proposalId: number, input: MonteCarloInput) {
   const proposal = await proposalFor(dataSource, actor, proposalId, 'proposals:verify');
   const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
   const spec = checkedSpecDocument(JSON.parse(version.payload));

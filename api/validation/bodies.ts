@@ -1,6 +1,11 @@
 /**
  * JSON Schemas of the request bodies and queries that are not spec or design documents (those
  * have their own schemas in shared/schema). Unknown fields are refused everywhere.
+ *
+ * Each schema is written against its wire shape in shared/api (`wire<LoginInput>()(...)`): the
+ * compiler refuses a schema whose fields are not exactly the shape's, whose `required` list is
+ * not exactly the shape's required fields, or whose field schema does not fit the field's type
+ * (an enum's values, string, number, boolean). Change both together.
  */
 import { ACCOUNT_ROLES, PROJECT_ROLES } from '../../shared/workflow/roles';
 import { PROPOSAL_STATES } from '../../shared/workflow/proposal-states';
@@ -9,87 +14,103 @@ import { DESIGN_SCHEMA } from '../../shared/validate';
 import { MONTE_CARLO_RUNS } from '../../shared/verification/types';
 import { MIN_PASSWORD_LENGTH } from '../auth/password';
 import { PLAIN_EMAIL_PATTERN, PLAIN_LINES_PATTERN, PLAIN_NAME_PATTERN } from '../../shared/text/plain-text';
+import type { DeviceListQuery, RecordedDeviceQuery } from '../../shared/api/devices';
+import type { PageQuery } from '../../shared/api/lists';
+import type { MeasurementListQuery } from '../../shared/api/measurements';
+import type { MembershipInput, NewProject } from '../../shared/api/projects';
+import type { DecisionInput, EvaluationInput, NetlistQuery, ProposalListQuery, ReviewInput, WithdrawalInput } from '../../shared/api/proposals';
+import type { DiffQuery, SpecInput } from '../../shared/api/specs';
+import type { ImportQuery } from '../../shared/api/batch';
+import type { LoginInput, NewUser, PasswordChangeInput, PasswordResetInput, PreferencesInput, UserChanges } from '../../shared/api/users';
+import type { MonteCarloInput } from '../../shared/api/verification';
+import { wire, type Defaulted } from './wire-schema';
 
-const email = { type: 'string', minLength: 3, maxLength: 254, pattern: PLAIN_EMAIL_PATTERN };
+const email = { type: 'string', minLength: 3, maxLength: 254, pattern: PLAIN_EMAIL_PATTERN } as const;
 /** A name or title: one line, not blank, no control characters or bidi overrides (shared/text/plain-text.ts). */
-const name = (maxLength: number) => ({ type: 'string', minLength: 1, maxLength, pattern: PLAIN_NAME_PATTERN });
+const name = (maxLength: number) => ({ type: 'string', minLength: 1, maxLength, pattern: PLAIN_NAME_PATTERN }) as const;
 /** Multi-line text (a description, a reason, a comment): LF line ends, no other control characters or bidi overrides. */
-const text = (maxLength: number) => ({ type: 'string', maxLength, pattern: PLAIN_LINES_PATTERN });
-const strict = (properties: Record<string, object>, required: string[]) => ({ type: 'object', additionalProperties: false, properties, required });
+const text = (maxLength: number) => ({ type: 'string', maxLength, pattern: PLAIN_LINES_PATTERN }) as const;
 
-export const LOGIN_BODY = strict({ email: { type: 'string', minLength: 1, maxLength: 254 }, password: { type: 'string', minLength: 1, maxLength: 1024 } }, ['email', 'password']);
+export const LOGIN_BODY = wire<LoginInput>()({ email: { type: 'string', minLength: 1, maxLength: 254 }, password: { type: 'string', minLength: 1, maxLength: 1024 } }, ['email', 'password']);
 
-export const NEW_USER_BODY = strict(
+export const NEW_USER_BODY = wire<NewUser>()(
   { email, displayName: name(120), role: { enum: [...ACCOUNT_ROLES] }, password: { type: 'string', minLength: MIN_PASSWORD_LENGTH, maxLength: 1024 } },
   ['email', 'displayName', 'role', 'password'],
 );
 
 /** PATCH /api/users/:id: rename, another account role, or `disabled` true/false (admins). */
-export const USER_CHANGES_BODY = { ...strict({ displayName: name(120), role: { enum: [...ACCOUNT_ROLES] }, disabled: { type: 'boolean' } }, []), minProperties: 1 };
+export const USER_CHANGES_BODY = { ...wire<UserChanges>()({ displayName: name(120), role: { enum: [...ACCOUNT_ROLES] }, disabled: { type: 'boolean' } }, []), minProperties: 1 };
 
-const newPassword = { type: 'string', minLength: MIN_PASSWORD_LENGTH, maxLength: 1024 };
+const newPassword = { type: 'string', minLength: MIN_PASSWORD_LENGTH, maxLength: 1024 } as const;
 
 /** POST /api/auth/password: the signed-in person's own password change. */
-export const PASSWORD_CHANGE_BODY = strict({ currentPassword: { type: 'string', minLength: 1, maxLength: 1024 }, newPassword }, ['currentPassword', 'newPassword']);
+export const PASSWORD_CHANGE_BODY = wire<PasswordChangeInput>()({ currentPassword: { type: 'string', minLength: 1, maxLength: 1024 }, newPassword }, ['currentPassword', 'newPassword']);
 
 /** POST /api/auth/password-reset: a new password through a one-time link's token. */
-export const PASSWORD_RESET_BODY = strict({ token: { type: 'string', minLength: 16, maxLength: 200, pattern: '^[A-Za-z0-9_-]{16,200}$' }, newPassword }, ['token', 'newPassword']);
+export const PASSWORD_RESET_BODY = wire<PasswordResetInput>()({ token: { type: 'string', minLength: 16, maxLength: 200, pattern: '^[A-Za-z0-9_-]{16,200}$' }, newPassword }, ['token', 'newPassword']);
 
 /** PATCH /api/auth/me: the signed-in person's own preferences. */
-export const PREFERENCES_BODY = strict({ notify: { type: 'boolean' } }, ['notify']);
+export const PREFERENCES_BODY = wire<PreferencesInput>()({ notify: { type: 'boolean' } }, ['notify']);
 
-export const NEW_PROJECT_BODY = strict({ name: name(160), description: text(4000) }, ['name']);
+export const NEW_PROJECT_BODY = wire<NewProject>()({ name: name(160), description: text(4000) }, ['name']);
 
 /** POST /api/projects/:id/members: add the person with the role they hold in this project (or change it). */
-export const MEMBERSHIP_BODY = strict({ userId: { type: 'integer', minimum: 1 }, role: { enum: [...PROJECT_ROLES] } }, ['userId', 'role']);
+export const MEMBERSHIP_BODY = wire<MembershipInput>()({ userId: { type: 'integer', minimum: 1 }, role: { enum: [...PROJECT_ROLES] } }, ['userId', 'role']);
 
 /** `note`: what changed and why, optional, text like a title. The spec document itself is checked against shared/schema/spec.schema.json by the service. */
-export const SPEC_BODY = strict({ title: name(200), payload: { type: 'object' }, note: name(1000) }, ['title', 'payload']);
+export const SPEC_BODY = wire<SpecInput>()({ title: name(200), payload: { type: 'object' }, note: name(1000) }, ['title', 'payload']);
 
-export const DECISION_BODY = {
-  ...strict(
-    {
-      kind: { enum: ['accept', 'choose', 'override'] },
-      topology: { enum: [...TOPOLOGIES] },
-      design: DESIGN_SCHEMA,
-      reason: text(4000),
-    },
-    ['kind'],
-  ),
-};
+export const DECISION_BODY = wire<DecisionInput>()(
+  {
+    kind: { enum: ['accept', 'choose', 'override'] },
+    topology: { enum: [...TOPOLOGIES] },
+    design: DESIGN_SCHEMA,
+    reason: text(4000),
+  },
+  ['kind'],
+);
 
 /** `acceptStaleVerification`: sign off on a verification that simulated another design (with a comment; see review() in proposals.service). */
-export const REVIEW_BODY = strict({ verdict: { enum: ['approve', 'return'] }, comment: text(4000), acceptStaleVerification: { type: 'boolean' } }, ['verdict']);
+export const REVIEW_BODY = wire<ReviewInput>()({ verdict: { enum: ['approve', 'return'] }, comment: text(4000), acceptStaleVerification: { type: 'boolean' } }, ['verdict']);
 
 /** POST /api/proposals/:id/withdrawal: why the proposal is withdrawn (multi-line text like a decision's reason; blank is refused by the service). */
-export const WITHDRAWAL_BODY = strict({ reason: { ...text(4000), minLength: 1 } }, ['reason']);
+export const WITHDRAWAL_BODY = wire<WithdrawalInput>()({ reason: { ...text(4000), minLength: 1 } }, ['reason']);
 
 /** `?page=1&pageSize=20`: pages count from 1; at most 100 a page. Every paged list takes these two. */
 const PAGE_FIELDS = {
   page: { type: 'integer', minimum: 1, maximum: 1000000, default: 1 },
   pageSize: { type: 'integer', minimum: 1, maximum: 100, default: 20 },
-};
+} as const;
 
-export const PROPOSAL_LIST_QUERY = strict({ status: { enum: [...PROPOSAL_STATES] }, ...PAGE_FIELDS }, []);
+/*
+ * Query fields with a default are required in their wire shape (the checked query always has
+ * them) but not in the schema (the query string may leave them out): the queries below are checked
+ * against their shapes with the defaulted fields made optional (Defaulted).
+ */
+
+export const PROPOSAL_LIST_QUERY = wire<Defaulted<ProposalListQuery, keyof PageQuery>>()({ status: { enum: [...PROPOSAL_STATES] }, ...PAGE_FIELDS }, []);
 
 /** GET /api/proposals/:id/measurements: paged like the proposal list. */
-export const MEASUREMENT_LIST_QUERY = strict({ ...PAGE_FIELDS }, []);
+export const MEASUREMENT_LIST_QUERY = wire<Partial<MeasurementListQuery>>()({ ...PAGE_FIELDS }, []);
 
 /**
  * GET /api/projects/:id/devices: paged like the proposal list; `q` keeps the cards whose name
  * contains it (case-insensitive); `state=former` lists the removed and replaced cards instead.
  */
-export const DEVICE_LIST_QUERY = strict({ q: { type: 'string', maxLength: 64 }, state: { enum: ['library', 'former'], default: 'library' }, ...PAGE_FIELDS }, []);
+export const DEVICE_LIST_QUERY = wire<Defaulted<DeviceListQuery, 'state' | keyof PageQuery>>()(
+  { q: { type: 'string', maxLength: 64 }, state: { enum: ['library', 'former'], default: 'library' }, ...PAGE_FIELDS },
+  [],
+);
 
 /** GET /api/projects/:id/devices/recorded: the card a spec's `deviceModel` names. */
-export const DEVICE_RECORDED_QUERY = strict({ name: { type: 'string', minLength: 1, maxLength: 64 }, checksum: { type: 'string', pattern: '^[0-9a-fA-F]{64}$' } }, ['name', 'checksum']);
+export const DEVICE_RECORDED_QUERY = wire<RecordedDeviceQuery>()({ name: { type: 'string', minLength: 1, maxLength: 64 }, checksum: { type: 'string', pattern: '^[0-9a-fA-F]{64}$' } }, ['name', 'checksum']);
 
-export const DIFF_QUERY = strict({ from: { type: 'integer', minimum: 1 }, to: { type: 'integer', minimum: 1 } }, ['from', 'to']);
+export const DIFF_QUERY = wire<DiffQuery>()({ from: { type: 'integer', minimum: 1 }, to: { type: 'integer', minimum: 1 } }, ['from', 'to']);
 
-export const EVALUATION_BODY = strict({ design: DESIGN_SCHEMA }, ['design']);
+export const EVALUATION_BODY = wire<EvaluationInput>()({ design: DESIGN_SCHEMA }, ['design']);
 
 /** POST /api/proposals/:id/verification/monte-carlo. */
-export const MONTE_CARLO_BODY = strict(
+export const MONTE_CARLO_BODY = wire<MonteCarloInput>()(
   {
     topology: { enum: [...TOPOLOGIES] },
     source: { enum: ['option', 'decision'], default: 'option' },
@@ -98,7 +119,7 @@ export const MONTE_CARLO_BODY = strict(
   [],
 );
 
-export const NETLIST_QUERY = strict(
+export const NETLIST_QUERY = wire<Defaulted<NetlistQuery, 'source' | 'drive'>>()(
   {
     topology: { enum: [...TOPOLOGIES] },
     source: { enum: ['option', 'decision'], default: 'option' },
@@ -108,7 +129,7 @@ export const NETLIST_QUERY = strict(
 );
 
 /** POST /api/projects/:id/specs/import: `?dryRun=true` reports each row and saves nothing. */
-export const IMPORT_QUERY = strict({ dryRun: { enum: ['true', 'false'], default: 'false' } }, []);
+export const IMPORT_QUERY = wire<Partial<ImportQuery>>()({ dryRun: { enum: ['true', 'false'], default: 'false' } }, []);
 
 /** GET /api/projects/:id/proposals.csv?ids=12,13,14: the ids' form is checked by the route (the value arrives as text). */
-export const BATCH_CSV_QUERY = strict({ ids: {} }, ['ids']);
+export const BATCH_CSV_QUERY = wire<{ ids: unknown }>()({ ids: {} }, ['ids']);

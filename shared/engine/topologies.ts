@@ -15,7 +15,7 @@ export const TOPOLOGIES = ['resistor', 'simple-mirror', 'degenerated-mirror', 'w
 export type TopologyId = (typeof TOPOLOGIES)[number];
 
 /** The device family a topology is built for (the pair's and the tail's transistors); bipolar NPN only today. */
-export type DeviceFamily = DeviceParams['family'];
+export type DeviceFamily = NonNullable<DeviceParams['family']>;
 
 /** The design fields (ohms) a tail's resistors take their values from. */
 export type TailField = 'resistanceOhm' | 'referenceResistanceOhm' | 'emitterResistanceOhm';

@@ -3,51 +3,21 @@
  * `recommend` output. These are the command line's public interface (ENGINE-CONTRACT.md):
  * fields may be added, never renamed. Every quantity is SI; names carry their unit.
  */
+import type { Spec } from '../schema/spec.generated';
 
 /** Tail topologies (ids in order of simplicity, the tail's design type): the catalogue, topologies.ts. */
 export { TOPOLOGIES, type TailDesign, type TopologyId } from './topologies';
-import type { TailDesign, TopologyId } from './topologies';
+import type { TopologyId } from './topologies';
 
-export interface DeviceParams {
-  family: 'npn';
-  /** Forward current gain BF (SPICE), V/V. */
-  beta: number;
-  /** Forward Early voltage VAF in volts; omitted or 0 means infinite. */
-  earlyVoltageV?: number;
-  /** Saturation current IS at 27 °C in amperes. When absent, derived from vbeOnV. */
-  saturationCurrentA?: number;
-  /** Hand-calculation VBE used to derive IS when IS is absent (VBE at 1 mA, 27 °C). */
-  vbeOnV?: number;
-  /** Collector-emitter voltage below which a transistor counts as saturated, volts. */
-  vceSatV?: number;
-  /** 1-sigma VBE difference between the two pair transistors at equal currents, volts. */
-  vbeMismatchSigmaV?: number;
-}
-
-export interface Supply {
-  positiveV: number;
-  negativeV: number;
-}
-
-/** `analyze` input: one fully sized emitter-coupled pair with its tail. */
-export interface Design {
-  device: DeviceParams;
-  supply: Supply;
-  collectorResistanceOhm: number;
-  /** ε: RC2 = RC1·(1 + ε). Default 0. */
-  collectorMismatch?: number;
-  /** Equal degeneration resistors in each pair emitter, ohms. Default 0. */
-  pairEmitterResistanceOhm?: number;
-  /** δ: IS of Q2 = IS·(1 + δ) (pair VBE mismatch, δ ≈ ΔVBE/VT). Default 0. Added field. */
-  pairSaturationCurrentMismatch?: number;
-  tail: TailDesign;
-  /** DC voltage on both bases, volts. Default 0. */
-  inputCommonModeV?: number;
-  /** Circuit temperature in °C. Default 27 (SPICE's TNOM). */
-  temperatureC?: number;
-  /** Parasitic capacitance from the tail node to AC ground, farads. Default 0. */
-  tailCapacitanceF?: number;
-}
+/**
+ * `Design` (the `analyze` input: one fully sized emitter-coupled pair with its tail; its tail is a
+ * TailDesign of the catalogue, whose branches the design schema is written from) and its parts
+ * are generated from shared/schema/design.schema.json (scripts/generate-types.ts): every quantity
+ * SI, the documented defaults (collectorMismatch, pairEmitterResistanceOhm,
+ * pairSaturationCurrentMismatch, inputCommonModeV 0, temperatureC 27, tailCapacitanceF 0) applied
+ * by the engine where a field is absent.
+ */
+export type { Design, DeviceParams, Supply } from '../schema/design.generated';
 
 export type Region = 'forward-active' | 'saturated' | 'cut-off';
 
@@ -134,32 +104,16 @@ export interface Check {
   thinMargin?: boolean;
 }
 
-export type ResistorSeries = 'E24' | 'E96' | 'E192';
-export type OutputKind = 'differential' | 'single-ended';
-export type SelectionPolicy = 'simplest-sufficient' | 'highest-rejection';
+export type ResistorSeries = Spec['resistors']['series'];
+export type OutputKind = Spec['gain']['output'];
+export type SelectionPolicy = Spec['policy'];
 
-/** A requirement spec after schema validation (defaults applied). Schema: shared/schema/spec.schema.json. */
-export interface Spec {
-  title: string;
-  device: DeviceParams & { vceSatV: number; vbeMismatchSigmaV: number };
-  /** The device-library card `device` was filled from (shared/devices/model-card.ts); a record only, the engine reads `device`. */
-  deviceModel?: { name: string; checksum: string };
-  supply: Supply;
-  gain: { target: number; tolerancePercent: number; output: OutputKind };
-  cmrr: { minDb: number; atFrequencyHz: number; marginDb: number; minYieldPercent: number };
-  inputCommonMode: { minV: number; maxV: number };
-  outputSwingVpp: number;
-  powerBudgetW: number;
-  tailCurrentA?: number;
-  temperatureC: { min: number; max: number };
-  /** `tolerancePercent` is in per cent: 1 means ±1 % (engine code takes `resistorToleranceFraction(spec)`). */
-  resistors: { series: ResistorSeries; tolerancePercent: number };
-  tailCapacitanceF: number;
-  topologies: TopologyId[];
-  policy: SelectionPolicy;
-  hazards: { patientConnected: boolean; mainsReferenced: boolean };
-  monteCarlo: { samples: number; seed: number };
-}
+/**
+ * A requirement spec after schema validation (defaults applied, so every defaulted field is
+ * present), generated from shared/schema/spec.schema.json (scripts/generate-types.ts).
+ * `resistors.tolerancePercent` is in per cent: 1 means ±1 % (engine code takes `resistorToleranceFraction(spec)`).
+ */
+export type { Spec } from '../schema/spec.generated';
 
 /**
  * The facts one option's checks are decided on: the engine's figures, worst corner already

@@ -11,7 +11,8 @@ import type { ReactNode } from 'react';
 import { createRoutesStub } from 'react-router-dom';
 import { describe, expect, test } from 'vitest';
 import { authKeys } from '../../../web/src/lib/auth-queries';
-import type { Mailbox, User } from '../../../web/src/lib/api-types';
+import type { Mailbox } from '../../../shared/api/admin';
+import type { SessionUser, User } from '../../../shared/api/users';
 import { Component as MailPage, loader as mailLoader } from '../../../web/src/routes/mail';
 import { Component as ProfilePage, loader as profileLoader } from '../../../web/src/routes/profile';
 import { useMockedApi } from '../helpers/fetch-stub';
@@ -20,8 +21,8 @@ configure({ asyncUtilTimeout: 5000 });
 
 const api = useMockedApi();
 
-const ADMIN: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', notify: true, createdAt: '2026-01-01T00:00:00Z' };
-const DESIGNER: User = { id: 3, email: 'priya@example.test', displayName: 'Priya Example', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], notify: true, createdAt: '2026-01-01T00:00:00Z' };
+const ADMIN: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', notify: true, createdAt: '2026-01-01T00:00:00Z', disabledAt: null };
+const DESIGNER: SessionUser = { id: 3, email: 'priya@example.test', displayName: 'Priya Example', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], notify: true, createdAt: '2026-01-01T00:00:00Z', disabledAt: null };
 
 const MAILBOX: Mailbox = {
   items: [

@@ -10,7 +10,7 @@ import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
 import type { MeasurementSummary, MeasurementView } from '../../../shared/measurements/types';
 import { MeasurementsPanel } from '../../../web/src/features/measurements/components/measurements-panel';
-import type { Decision, Proposal } from '../../../web/src/lib/api-types';
+import type { Decision, Proposal } from '../../../shared/api/proposals';
 import { mockFetch } from '../proposals/decision/fixtures/fetch-mock';
 import { DESIGNER, differentialProposal, PROPOSAL_ID, STATUS_URL } from '../proposals/verification/verification-fixtures';
 import { renderWithClient } from '../helpers/render';

@@ -9,7 +9,7 @@ import { createRoutesStub } from 'react-router-dom';
 import { describe, expect, test } from 'vitest';
 import { UsersTable } from '../../../web/src/features/people/components/users-table';
 import { PasswordChangeForm } from '../../../web/src/features/profile/components/password-change-form';
-import type { User } from '../../../web/src/lib/api-types';
+import type { User } from '../../../shared/api/users';
 import { Component as PasswordResetPage } from '../../../web/src/routes/password-reset';
 import { useMockedApi } from '../helpers/fetch-stub';
 import { renderWithClient } from '../helpers/render';
@@ -95,8 +95,8 @@ describe('the page a password link opens', () => {
 });
 
 describe('account controls on the people page', () => {
-  const me: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', createdAt: '2026-01-01T00:00:00Z', disabledAt: null };
-  const dee: User = { id: 3, email: 'dee@example.test', displayName: 'Dee Ormond', role: 'member', createdAt: '2026-01-02T00:00:00Z', disabledAt: null };
+  const me: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null };
+  const dee: User = { id: 3, email: 'dee@example.test', displayName: 'Dee Ormond', role: 'member', createdAt: '2026-01-02T00:00:00Z', notify: true, disabledAt: null };
 
   test('when Disable is confirmed, then PATCH { disabled: true } is sent; your own row offers no Disable', async () => {
     api.routes['PATCH /api/users/3'] = { status: 200, body: { ...dee, disabledAt: '2026-03-02T09:00:00Z' } };

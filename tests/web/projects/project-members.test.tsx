@@ -3,14 +3,15 @@ import { configure, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { beforeEach, describe, expect, test } from 'vitest';
 import { ProjectMembers } from '../../../web/src/features/projects/components/project-members';
-import type { ProjectMember, User } from '../../../web/src/lib/api-types';
+import type { ProjectMember } from '../../../shared/api/projects';
+import type { User } from '../../../shared/api/users';
 import type { ProjectRole } from '../../../shared/workflow/roles';
 import { json, useFetchStub } from '../helpers/fetch-stub';
 import { renderWithClient } from '../helpers/render';
 
 configure({ asyncUtilTimeout: 5000 });
 
-const person = (id: number, displayName: string): User => ({ id, email: `${id}@example.test`, displayName, role: 'member', createdAt: '2026-01-01T00:00:00Z' });
+const person = (id: number, displayName: string): User => ({ id, email: `${id}@example.test`, displayName, role: 'member', createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null });
 const PRIYA = person(3, 'Priya Valcourt');
 const SAMIR = person(4, 'Samir Edelstein');
 

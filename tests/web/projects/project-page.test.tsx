@@ -6,7 +6,8 @@ import { createRoutesStub, useLocation } from 'react-router-dom';
 import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
 import type { Role } from '../../../shared/workflow/roles';
 import { authKeys } from '../../../web/src/lib/auth-queries';
-import type { ProposalSummary, User } from '../../../web/src/lib/api-types';
+import type { ProposalSummary } from '../../../shared/api/proposals';
+import type { SessionUser } from '../../../shared/api/users';
 import { Component, ErrorBoundary, loader } from '../../../web/src/routes/project';
 import { CurrentDesignCell } from '../../../web/src/features/projects/components/proposals-table';
 
@@ -77,7 +78,7 @@ function LocationProbe() {
 function renderProjectPage(role: Role, entry = '/projects/1') {
   const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
   // The role is held in this project (id 1); the administrator holds none here.
-  const user: User = role === 'admin' ? { id: 3, email: 'admin@example.test', displayName: 'Pat Example', role: 'admin', projectRoles: [], createdAt: '2026-01-01T00:00:00Z' } : { id: 3, email: `${role}@example.test`, displayName: 'Pat Example', role: 'member', projectRoles: [{ projectId: 1, role }], createdAt: '2026-01-01T00:00:00Z' };
+  const user: SessionUser = role === 'admin' ? { id: 3, email: 'admin@example.test', displayName: 'Pat Example', role: 'admin', projectRoles: [], createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null } : { id: 3, email: `${role}@example.test`, displayName: 'Pat Example', role: 'member', projectRoles: [{ projectId: 1, role }], createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null };
   queryClient.setQueryData(authKeys.me(), user);
   const Stub = createRoutesStub([
     {

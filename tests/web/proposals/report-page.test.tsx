@@ -11,7 +11,7 @@ import { cleanup, configure, render, screen, within } from '@testing-library/rea
 import { createRoutesStub } from 'react-router-dom';
 import { afterEach, describe, expect, test, vi } from 'vitest';
 import type { VerificationStatus } from '../../../shared/verification/types';
-import type { Decision, Proposal } from '../../../web/src/lib/api-types';
+import type { Decision, Proposal } from '../../../shared/api/proposals';
 import { Component, ErrorBoundary, loader } from '../../../web/src/routes/proposal-report';
 import { mockFetch } from './decision/fixtures/fetch-mock';
 import { auditEvent, DESIGNER, proposalFixture, RANKING, rankedOptionOf, REVIEWER } from './decision/fixtures/proposal-fixture';

@@ -12,7 +12,8 @@ import { createRoutesStub } from 'react-router-dom';
 import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
 import schema from '../../../shared/schema/spec.schema.json';
 import { authKeys } from '../../../web/src/lib/auth-queries';
-import type { SpecVersion, User } from '../../../web/src/lib/api-types';
+import type { SpecVersion } from '../../../shared/api/specs';
+import type { SessionUser } from '../../../shared/api/users';
 import { Component, ErrorBoundary, loader } from '../../../web/src/routes/spec-history';
 
 configure({ asyncUtilTimeout: 5000 });
@@ -37,7 +38,7 @@ function answer(url: URL): unknown {
   if (url.pathname === '/api/specs/7') return { id: 7, projectId: 1, title: 'Tarn probe', latestVersion: 3, createdById: 2, createdAt: at, updatedAt: at, latest: VERSIONS[2] };
   if (url.pathname === '/api/specs/7/versions') return { items: VERSIONS };
   if (url.pathname === '/api/schema/spec') return schema;
-  if (url.pathname === '/api/projects/1/members') return { items: [{ id: 2, email: 'r@example.test', displayName: 'Tomasz Rehn', role: 'requirements', createdAt: at }] };
+  if (url.pathname === '/api/projects/1/members') return { items: [{ id: 2, email: 'r@example.test', displayName: 'Tomasz Rehn', role: 'requirements', createdAt: at, notify: true, disabledAt: null }] };
   if (url.pathname === '/api/specs/7/diff') {
     const key = `${url.searchParams.get('from')}-${url.searchParams.get('to')}`;
     diffs.push(key);
@@ -68,7 +69,7 @@ afterEach(() => {
 
 function renderHistory() {
   const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  const user: User = { id: 3, email: 'd@example.test', displayName: 'Pat Example', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: at };
+  const user: SessionUser = { id: 3, email: 'd@example.test', displayName: 'Pat Example', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: at, notify: true, disabledAt: null };
   queryClient.setQueryData(authKeys.me(), user);
   const Stub = createRoutesStub([{ path: '/specs/:specId/history', Component, loader: loader(queryClient), ErrorBoundary, HydrateFallback: () => <p>Loading…</p> }]);
   render(

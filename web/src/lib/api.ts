@@ -4,13 +4,9 @@
  * non-2xx answer with the server's message, code and field details.
  */
 import { api } from '../config/paths';
+import type { ErrorDetail } from '../../../shared/api/errors';
 
-export interface ErrorDetail {
-  path: string;
-  message: string;
-  /** Line of an uploaded file the problem is on (device library uploads). */
-  line?: number;
-}
+export type { ErrorDetail };
 
 export class ApiError extends Error {
   readonly status: number;

@@ -1,7 +1,7 @@
 import { queryOptions } from '@tanstack/react-query';
 import { api } from '../config/paths';
 import { ApiError, apiClient } from './api';
-import type { User } from './api-types';
+import type { Me, SessionUser, SignedIn } from '../../../shared/api/users';
 
 export const authKeys = { all: ['auth'] as const, me: () => ['auth', 'me'] as const };
 
@@ -9,9 +9,9 @@ export const authKeys = { all: ['auth'] as const, me: () => ['auth', 'me'] as co
 export const meQuery = () =>
   queryOptions({
     queryKey: authKeys.me(),
-    queryFn: async (): Promise<User | null> => {
+    queryFn: async (): Promise<SessionUser | null> => {
       try {
-        return (await apiClient.get<{ user: User }>(api.me)).user;
+        return (await apiClient.get<Me>(api.me)).user;
       } catch (error) {
         if (error instanceof ApiError && error.status === 401) return null;
         throw error;
@@ -20,9 +20,9 @@ export const meQuery = () =>
     staleTime: 60_000,
   });
 
-export async function signIn(email: string, password: string): Promise<User> {
+export async function signIn(email: string, password: string): Promise<SessionUser> {
   apiClient.resetCsrf();
-  const { user } = await apiClient.post<{ user: User }>(api.login, { email, password });
+  const { user } = await apiClient.post<SignedIn>(api.login, { email, password });
   apiClient.resetCsrf();
   return user;
 }

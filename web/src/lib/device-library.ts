@@ -8,7 +8,8 @@ import type { DeviceModelView, RecordedDeviceModel } from '../../../shared/devic
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { api } from '../config/paths';
 import { apiClient } from './api';
-import type { Page } from './api-types';
+import type { DeviceListQuery } from '../../../shared/api/devices';
+import type { Page } from '../../../shared/api/lists';
 import { projectKeys } from './query-keys';
 
 /** One card of a project's device library (GET /api/projects/:id/devices). */
@@ -20,14 +21,8 @@ export const DEVICE_PAGE_SIZE = 20;
 /** The largest page the server gives: the spec form's picker lists this many matches of its filter. */
 export const DEVICE_PICKER_PAGE_SIZE = 100;
 
-export interface DeviceListParams {
-  page: number;
-  pageSize: number;
-  /** Names containing this (case-insensitive); empty: every card. */
-  q: string;
-  /** `library`: the cards specs can be filled from; `former`: removed and replaced ones. */
-  state: 'library' | 'former';
-}
+/** The list's query as the panel keeps it: every field set (`q` empty for every card). */
+export type DeviceListParams = Required<DeviceListQuery>;
 
 export const deviceKeys = {
   all: (projectId: number) => [...projectKeys.detail(projectId), 'devices'] as const,

@@ -17,7 +17,7 @@ import { LifecyclePanel } from '../features/proposals/components/lifecycle-panel
 import { specSchemaQuery } from '../features/specs/api/spec-queries';
 import { SpecMovedOn } from '../features/specs/components/spec-moved-on';
 import type { SchemaNode } from '../features/specs/lib/schema-nodes';
-import type { Proposal } from '../lib/api-types';
+import type { Proposal } from '../../../shared/api/proposals';
 import { RouteError } from '../components/layout/route-error';
 import { proposalCurrentDesign } from '../features/proposals/lib/current-design';
 import { currentDesignName, currentDesignRole } from '../../../shared/workflow/current-design';

@@ -4,7 +4,7 @@ import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
 import type { Check } from '../../../../shared/engine/types';
 import { DecisionPanel } from '../../../../web/src/features/proposals/components/decision-panel';
-import type { OptionEvaluation } from '../../../../web/src/lib/api-types';
+import type { OptionEvaluation } from '../../../../shared/api/proposals';
 import { mockFetch, type Call } from './fixtures/fetch-mock';
 import { DESIGNER, proposalFixture, RANKING, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
 import { renderWithClient } from '../../helpers/render';

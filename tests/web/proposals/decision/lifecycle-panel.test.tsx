@@ -8,13 +8,13 @@ import { cleanup, screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { MemoryRouter } from 'react-router-dom';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import type { User } from '../../../../web/src/lib/api-types';
+import type { SessionUser } from '../../../../shared/api/users';
 import { LifecyclePanel } from '../../../../web/src/features/proposals/components/lifecycle-panel';
 import { renderWithClient } from '../../helpers/render';
 import { mockFetch } from './fixtures/fetch-mock';
 import { DESIGNER, proposalFixture, REVIEWER } from './fixtures/proposal-fixture';
 
-const REQUIREMENTS: User = { id: 5, email: 'requirements@demo.longtail.test', displayName: 'Tomasz Rehn', role: 'member', projectRoles: [{ projectId: 1, role: 'requirements' }], createdAt: '2026-12-01T09:00:00.000Z' };
+const REQUIREMENTS: SessionUser = { id: 5, email: 'requirements@demo.longtail.test', displayName: 'Tomasz Rehn', role: 'member', projectRoles: [{ projectId: 1, role: 'requirements' }], createdAt: '2026-12-01T09:00:00.000Z', notify: true, disabledAt: null };
 const MEMBERS = { 'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER, REQUIREMENTS] } }) };
 const open = () => proposalFixture({ allowedEvents: ['decide', 'withdraw'] });
 

@@ -7,7 +7,7 @@
 import { readFileSync } from 'node:fs';
 import type { RecommendResult } from '../../../../shared/engine/recommend';
 import type { Spec } from '../../../../shared/engine/types';
-import type { Proposal } from '../../../../web/src/lib/api-types';
+import type { Proposal } from '../../../../shared/api/proposals';
 
 function json<T>(relative: string): T {
   return JSON.parse(readFileSync(new URL(relative, import.meta.url), 'utf8')) as T;

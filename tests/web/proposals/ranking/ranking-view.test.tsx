@@ -4,7 +4,7 @@ import { cleanup, render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
 import { RankingView } from '../../../../web/src/features/proposals/components/ranking-view';
-import type { Proposal } from '../../../../web/src/lib/api-types';
+import type { Proposal } from '../../../../shared/api/proposals';
 import { proposalOf, strainBridge, studioLine } from './fixtures';
 
 // uPlot needs a canvas; jsdom has none. The lazy chart module is replaced by stand-ins.

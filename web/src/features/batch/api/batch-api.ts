@@ -6,7 +6,7 @@ import type { ImportAction, ImportReport, ImportRowReport } from '../../../../..
 import type { ImportIssue } from '../../../../../shared/import/spec-file';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Proposal } from '../../../lib/api-types';
+import type { Proposal } from '../../../../../shared/api/proposals';
 
 /** The import report (and its rows and problems) as the server answers it. */
 export type { ImportAction, ImportIssue, ImportReport, ImportRowReport };

@@ -7,7 +7,7 @@ import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@ta
 import type { MeasurementSummary, MeasurementView } from '../../../../../shared/measurements/types';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Page } from '../../../lib/api-types';
+import type { Page } from '../../../../../shared/api/lists';
 import { proposalKeys } from '../../../lib/query-keys';
 
 /** Measurements a page of the panel shows. */

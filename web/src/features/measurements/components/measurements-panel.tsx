@@ -17,7 +17,8 @@ import { FileUploadButton, UploadProblems } from '../../../components/forms/file
 import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { api } from '../../../config/paths';
-import type { Proposal, User } from '../../../lib/api-types';
+import type { Proposal } from '../../../../../shared/api/proposals';
+import type { User } from '../../../../../shared/api/users';
 import { topologyName } from '../../../lib/topology-names';
 import { DenseTable, Td, Th, Tr } from '../../../components/ui/dense-table';
 import { Pagination } from '../../../components/ui/pagination';

@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { User } from '../../../lib/api-types';
+import type { Me, PreferencesInput, SessionUser } from '../../../../../shared/api/users';
 import { authKeys } from '../../../lib/auth-queries';
 
-export function updatePreferences(changes: { notify: boolean }): Promise<User> {
-  return apiClient.patch<{ user: User }>(api.me, changes).then((answer) => answer.user);
+export function updatePreferences(changes: PreferencesInput): Promise<SessionUser> {
+  return apiClient.patch<Me>(api.me, changes).then((answer) => answer.user);
 }
 
 /** Changes the signed-in person's own preferences; resolves once the signed-in user is fetched again. */

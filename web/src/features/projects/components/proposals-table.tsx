@@ -1,7 +1,8 @@
 import { Link } from 'react-router-dom';
 import { StateBadge } from '../../../components/ui/state-badge';
 import { paths } from '../../../config/paths';
-import type { ProposalSummary, Spec } from '../../../lib/api-types';
+import type { ProposalSummary } from '../../../../../shared/api/proposals';
+import type { Spec } from '../../../../../shared/api/specs';
 import { topologyName } from '../../../lib/topology-names';
 import { DenseTable, rowLink, Td, Th, Tr } from '../../../components/ui/dense-table';
 import { When } from '../../../components/ui/when';

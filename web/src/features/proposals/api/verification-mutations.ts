@@ -10,13 +10,9 @@ import type { VerificationJobView, VerificationStatus } from '../../../../../sha
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import { verificationKeys } from '../../../lib/verification-queries';
+import type { MonteCarloInput } from '../../../../../shared/api/verification';
 
-/** A ranked option by its topology, or the decided design (`source: 'decision'`, own values included). */
-export interface MonteCarloInput {
-  topology?: string;
-  source?: 'option' | 'decision';
-  runs: number;
-}
+export type { MonteCarloInput };
 
 export function requestVerification(proposalId: number): Promise<VerificationJobView> {
   return apiClient.post<VerificationJobView>(api.verification(proposalId));

@@ -4,7 +4,7 @@ import { AfterFirstPaint } from '../../../components/ui/deferred';
 import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { api } from '../../../config/paths';
-import type { Proposal } from '../../../lib/api-types';
+import type { Proposal } from '../../../../../shared/api/proposals';
 import { optionRows, specTargets } from '../lib/option-rows';
 import { rankingExplanation } from '../lib/ranking-explanation';
 import { OptionDetail } from './ranking/option-detail';

@@ -6,7 +6,7 @@
 import { currentDesign, type CurrentDesign } from '../../../../../shared/workflow/current-design';
 import { freshness, resultForDesign, type DesignBinding, type Freshness } from '../../../../../shared/verification/binding';
 import type { OptionVerification } from '../../../../../shared/verification/types';
-import type { Proposal } from '../../../lib/api-types';
+import type { Proposal } from '../../../../../shared/api/proposals';
 
 export type ShownDesign = CurrentDesign & { binding: DesignBinding | null };
 

@@ -3,7 +3,7 @@
  * values), or while undecided the recommendation, or with neither the top-ranked option. Pure.
  */
 import type { Design } from '../../../../../shared/engine/types';
-import type { Decision, OptionEvaluation, Proposal } from '../../../lib/api-types';
+import type { Decision, OptionEvaluation, Proposal } from '../../../../../shared/api/proposals';
 import { currentDesign } from '../../../../../shared/workflow/current-design';
 
 export type SubjectBasis = 'decision' | 'recommendation' | 'top-ranked' | 'none';

@@ -2,8 +2,9 @@ import { queryOptions } from '@tanstack/react-query';
 import type { RJSFSchema } from '@rjsf/utils';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Items, Proposal, SpecDiff, SpecVersion, SpecWithLatest } from '../../../lib/api-types';
-import type { Spec as SpecDocument } from '../../../../../shared/engine/types';
+import type { Items } from '../../../../../shared/api/lists';
+import type { Proposal } from '../../../../../shared/api/proposals';
+import type { SpecDiff, SpecInput, SpecVersion, SpecWithLatest } from '../../../../../shared/api/specs';
 import { specKeys } from '../../../lib/query-keys';
 
 /** The spec JSON Schema the server serves; it drives the form. It changes only with a release. */
@@ -18,20 +19,13 @@ export const specVersionsQuery = (id: number) =>
 export const specDiffQuery = (id: number, from: number, to: number) =>
   queryOptions({ queryKey: specKeys.diff(id, from, to), queryFn: () => apiClient.get<SpecDiff>(api.specDiff(id, from, to)), staleTime: Infinity });
 
-/** The body the server takes for a spec: its title and the document (the title again inside). */
-export interface SpecBody {
-  title: string;
-  payload: Partial<SpecDocument>;
-  /** What changed and why (optional; never blank). */
-  note?: string;
-}
 
-export function createSpec(projectId: number, body: SpecBody): Promise<SpecWithLatest> {
+export function createSpec(projectId: number, body: SpecInput): Promise<SpecWithLatest> {
   return apiClient.post<SpecWithLatest>(api.projectSpecs(projectId), body);
 }
 
 /** Saves the document as the spec's next version; an unchanged document answers `unchanged: true` and writes nothing. */
-export function saveSpecVersion(specId: number, body: SpecBody): Promise<SpecWithLatest> {
+export function saveSpecVersion(specId: number, body: SpecInput): Promise<SpecWithLatest> {
   return apiClient.put<SpecWithLatest>(api.spec(specId), body);
 }
 

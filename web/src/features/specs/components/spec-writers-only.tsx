@@ -5,7 +5,8 @@ import { mayAs, projectRoleOf, ROLE_TITLES } from '../../../../../shared/workflo
 import { EmptyState } from '../../../components/ui/feedback';
 import { PageHeader } from '../../../components/ui/page-header';
 import { paths } from '../../../config/paths';
-import type { Project, User } from '../../../lib/api-types';
+import type { Project } from '../../../../../shared/api/projects';
+import type { SessionUser } from '../../../../../shared/api/users';
 
 /** The page's header under a link back to its project. */
 export function ProjectPageHeader({ project, title, children }: { project: Pick<Project, 'id' | 'name'>; title: string; children?: ReactNode }) {
@@ -22,7 +23,7 @@ export function ProjectPageHeader({ project, title, children }: { project: Pick<
 }
 
 /** `children` for someone whose role in the project may write specs; for anyone else the header and why there is nothing to do here. */
-export function SpecWritersOnly({ user, project, title, refusal, children }: { user: User; project: Pick<Project, 'id' | 'name'>; title: string; refusal: string; children: ReactNode }) {
+export function SpecWritersOnly({ user, project, title, refusal, children }: { user: SessionUser; project: Pick<Project, 'id' | 'name'>; title: string; refusal: string; children: ReactNode }) {
   if (mayAs(user, project.id, 'specs:write')) return children;
   const roleHere = projectRoleOf(user.projectRoles, project.id);
   return (

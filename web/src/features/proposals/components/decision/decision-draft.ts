@@ -4,7 +4,7 @@
  * than retypes.
  */
 import type { Design, TopologyId } from '../../../../../../shared/engine/types';
-import type { Decision, OptionEvaluation, Proposal } from '../../../../lib/api-types';
+import type { Decision, OptionEvaluation, Proposal } from '../../../../../../shared/api/proposals';
 import { latestDecision } from './decided-option';
 import { draftFromDesign, type OverrideDraft } from './override-draft';
 

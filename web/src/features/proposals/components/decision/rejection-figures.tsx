@@ -1,5 +1,5 @@
 import { formatQuantity } from '../../../../../../shared/units/index';
-import type { OptionEvaluation } from '../../../../lib/api-types';
+import type { OptionEvaluation } from '../../../../../../shared/api/proposals';
 import { formatDb, formatMargin, formatTargetDb } from '../../../../../../shared/units/figures';
 
 /**

@@ -6,7 +6,7 @@
  */
 import { useState } from 'react';
 import type { Design } from '../../../../../../shared/engine/types';
-import type { OptionEvaluation } from '../../../../lib/api-types';
+import type { OptionEvaluation } from '../../../../../../shared/api/proposals';
 import { useOverrideCheckMutation } from '../../api/decision-mutations';
 import { checkTitle } from '../../../../lib/checks';
 import { fieldErrorsOf } from './override-draft';

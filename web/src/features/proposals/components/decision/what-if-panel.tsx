@@ -3,7 +3,7 @@ import { formatQuantity } from '../../../../../../shared/units/index';
 import { Quantity } from '../../../../components/ui/quantity';
 import { Verdict } from '../../../../components/ui/verdict';
 import { ApiError } from '../../../../lib/api';
-import type { Proposal } from '../../../../lib/api-types';
+import type { Proposal } from '../../../../../../shared/api/proposals';
 import { cn } from '../../../../lib/cn';
 import { topologyName } from '../../../../lib/topology-names';
 import type { WhatIf } from './use-what-if';

@@ -71,7 +71,7 @@ export function SizedValues({
           {facts && <Row name="Tail Rout" value={formatQuantity(facts.tailOutputResistanceOhm, 'Ohm')} note={facts.tailOutputResistanceNote} />}
         </Group>
       )}
-      <Group title={`Transistors (${d.family.toUpperCase()}, all alike)`}>
+      <Group title={`Transistors (${(d.family ?? 'npn').toUpperCase()}, all alike)`}>
         <Row name="β (BF)" value={formatQuantity(d.beta, '1')} />
         <Row name="VAF" value={d.earlyVoltageV ? formatQuantity(d.earlyVoltageV, 'V') : '∞'} note="Early voltage" />
         {d.saturationCurrentA !== undefined && <Row name="IS" value={formatQuantity(d.saturationCurrentA, 'A')} note="at 27 °C" />}

@@ -1,5 +1,5 @@
 import { OptionVerdict } from '../../../../components/ui/verdict';
-import type { Proposal } from '../../../../lib/api-types';
+import type { Proposal } from '../../../../../../shared/api/proposals';
 import { topologyName } from '../../../../lib/topology-names';
 import { blockingFailures, decisionKindWords } from '../decision/decided-option';
 import { OptionSchematic } from '../ranking/schematic/option-schematic';

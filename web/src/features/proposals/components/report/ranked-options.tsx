@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
 import { OptionVerdict } from '../../../../components/ui/verdict';
-import type { Proposal } from '../../../../lib/api-types';
+import type { Proposal } from '../../../../../../shared/api/proposals';
 import { ColumnTitle } from '../ranking/column-title';
 import { FigureCell } from '../ranking/figure-cell';
 import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../../../../../shared/units/figures';

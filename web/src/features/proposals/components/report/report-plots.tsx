@@ -3,7 +3,7 @@
  * Carlo of the reported design (and its SPICE Monte Carlo, once finished) under the design.
  */
 import type { MonteCarloVerificationResult, VerificationJobView } from '../../../../../../shared/verification/types';
-import type { Proposal } from '../../../../lib/api-types';
+import type { Proposal } from '../../../../../../shared/api/proposals';
 import { topologyName } from '../../../../lib/topology-names';
 import { histogramPlot, rejectionPlot } from '../../lib/plot-data';
 import type { ReportSubject } from '../../lib/report-subject';

@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import { StateBadge } from '../../../../components/ui/state-badge';
-import type { Proposal } from '../../../../lib/api-types';
+import type { Proposal } from '../../../../../../shared/api/proposals';
 import { currentDesign, currentDesignName, currentDesignRole } from '../../../../../../shared/workflow/current-design';
 import { formatDateTime } from '../../../../lib/dates';
 

@@ -1,6 +1,6 @@
 import type { MonteCarloVerificationResult, OptionVerification, ProposalVerificationResult, VerificationJobView, VerificationStatus, VerifiedCondition } from '../../../../../../shared/verification/types';
 import { Verdict } from '../../../../components/ui/verdict';
-import type { Proposal } from '../../../../lib/api-types';
+import type { Proposal } from '../../../../../../shared/api/proposals';
 import { topologyName } from '../../../../lib/topology-names';
 import { formatDb, formatFixed, formatPercent, formatTargetDb } from '../../../../../../shared/units/figures';
 import { deltaText, toleranceText, verifiedValue } from '../../lib/report-format';

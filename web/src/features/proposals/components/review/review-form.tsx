@@ -1,7 +1,7 @@
 import { useId, useRef, useState } from 'react';
 import { Button } from '../../../../components/ui/button';
 import { ApiError } from '../../../../lib/api';
-import type { OptionEvaluation, ReviewInput } from '../../../../lib/api-types';
+import type { OptionEvaluation, ReviewInput } from '../../../../../../shared/api/proposals';
 import { cn } from '../../../../lib/cn';
 import type { useReviewMutation } from '../../api/decision-mutations';
 import { blockingFailures } from '../decision/decided-option';

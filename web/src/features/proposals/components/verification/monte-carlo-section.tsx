@@ -1,7 +1,8 @@
 import { useId, useState, type FormEvent } from 'react';
 import { MONTE_CARLO_RUNS, type MonteCarloVerificationResult, type VerificationJobView, type VerificationStatus } from '../../../../../../shared/verification/types';
 import { Button } from '../../../../components/ui/button';
-import type { Proposal, User } from '../../../../lib/api-types';
+import type { Proposal } from '../../../../../../shared/api/proposals';
+import type { User } from '../../../../../../shared/api/users';
 import { topologyName } from '../../../../lib/topology-names';
 import { useMonteCarloMutation } from '../../api/verification-mutations';
 import { isSettled } from '../../../../lib/verification-queries';
@@ -14,6 +15,7 @@ import { proposalCurrentDesign } from '../../lib/current-design';
 import { freshness } from '../../../../../../shared/verification/binding';
 import { currentDesignWord } from '../../../../../../shared/workflow/current-design';
 import { WithdrawJob } from './withdraw-job';
+import type { TopologyId } from '../../../../../../shared/engine/types';
 
 const inputClass =
   'rounded-md border border-rule bg-sheet px-2.5 py-1.5 text-sm dark:border-night-rule dark:bg-night-sheet aria-[invalid=true]:border-short dark:aria-[invalid=true]:border-short-bright';
@@ -66,7 +68,8 @@ export function MonteCarloSection({ proposal, status, canVerify, user }: { propo
     event.preventDefault();
     setTried(true);
     if (problem || !key || running) return;
-    mutation.mutate(key === DECIDED_KEY ? { source: 'decision', runs: Number(runsText) } : { topology: topology ?? undefined, runs: Number(runsText) });
+    // An `option:` key names a ranked option's topology (the server refuses any other).
+    mutation.mutate(key === DECIDED_KEY ? { source: 'decision', runs: Number(runsText) } : { topology: (topology ?? undefined) as TopologyId | undefined, runs: Number(runsText) });
   };
 
   return (

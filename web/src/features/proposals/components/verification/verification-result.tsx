@@ -2,7 +2,7 @@ import { useMemo, useState, type KeyboardEvent } from 'react';
 import type { OptionVerification, ProposalVerificationResult, VerificationJobView } from '../../../../../../shared/verification/types';
 import { formatQuantity } from '../../../../../../shared/units/format-quantity';
 import { Verdict } from '../../../../components/ui/verdict';
-import type { Proposal } from '../../../../lib/api-types';
+import type { Proposal } from '../../../../../../shared/api/proposals';
 import { cn } from '../../../../lib/cn';
 import { formatDb } from '../../../../../../shared/units/figures';
 import { durationText, optionVerdict, verificationTally, verifiedOptionKey, verifiedOptionName } from '../../lib/verification-format';

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import type { VerificationJobView } from '../../../../../../shared/verification/types';
 import { mayAs } from '../../../../../../shared/workflow/roles';
 import { Button } from '../../../../components/ui/button';
-import type { User } from '../../../../lib/api-types';
+import type { User } from '../../../../../../shared/api/users';
 import { useWithdrawMutation } from '../../api/verification-mutations';
 import { MutationError } from './mutation-error';
 

@@ -1,0 +1,89 @@
+/**
+ * Accounts on the wire: /api/auth (sign-in, the signed-in person, own password and preferences)
+ * and /api/users (administrators). Bodies are checked by the schemas in api/validation/bodies.ts,
+ * which the compiler holds to these shapes.
+ */
+import type { AccountRole, ProjectRoleOf } from '../workflow/roles';
+
+/** An account as the API shows it (never its password hash). */
+export interface User {
+  id: number;
+  email: string;
+  displayName: string;
+  /** The account's own role: administrator or member (what a member may do is per project). */
+  role: AccountRole;
+  /** E-mail notifications about the workflow (on unless the person turns them off). */
+  notify: boolean;
+  createdAt: string;
+  /** When an administrator disabled the account (it cannot sign in), or null. */
+  disabledAt: string | null;
+}
+
+/** The signed-in person (sign-in and GET /api/auth/me): the account and the role held in each project. */
+export interface SessionUser extends User {
+  projectRoles: ProjectRoleOf[];
+}
+
+/** POST /api/auth/login. */
+export interface LoginInput {
+  email: string;
+  password: string;
+}
+
+/** POST /api/users (administrators). */
+export interface NewUser {
+  email: string;
+  displayName: string;
+  role: AccountRole;
+  password: string;
+}
+
+/** PATCH /api/users/:id: rename, another account role, or disable / enable (at least one field). */
+export interface UserChanges {
+  displayName?: string;
+  role?: AccountRole;
+  disabled?: boolean;
+}
+
+/** POST /api/users/:id/password-reset answers when the mailed one-time link stops working. */
+export interface PasswordResetIssued {
+  expiresAt: string;
+}
+
+/** POST /api/auth/password: the signed-in person's own password change. */
+export interface PasswordChangeInput {
+  currentPassword: string;
+  newPassword: string;
+}
+
+/** POST /api/auth/password-reset: a new password through a one-time link's token. */
+export interface PasswordResetInput {
+  token: string;
+  newPassword: string;
+}
+
+/** PATCH /api/auth/me: the signed-in person's own preferences. */
+export interface PreferencesInput {
+  notify: boolean;
+}
+
+/** The answer of sign-in: the person and the session's CSRF token (the session rotates it). */
+export interface SignedIn {
+  user: SessionUser;
+  csrfToken: string;
+}
+
+/** GET and PATCH /api/auth/me: the signed-in person. */
+export interface Me {
+  user: SessionUser;
+}
+
+/** POST /api/auth/password answers how many of the person's other sessions it ended. */
+export interface PasswordChanged {
+  endedSessions: number;
+}
+
+/** POST /api/auth/password-reset answers the account's e-mail (the page signs in with it). */
+export interface PasswordResetDone {
+  email: string;
+}
