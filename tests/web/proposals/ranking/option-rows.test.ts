@@ -1,7 +1,8 @@
 import { describe, expect, test } from 'vitest';
 import { blockingShortCount, matchesTopologyText, optionRows, specTargets } from '../../../../web/src/features/proposals/lib/option-rows';
 import { topologyName } from '../../../../web/src/lib/topology-names';
-import { strainBridge, studioLine } from './fixtures';
+import type { Check } from '../../../../shared/engine/types';
+import { specOf, strainBridge, studioLine } from './fixtures';
 
 describe('optionRows', () => {
   const result = strainBridge();
@@ -36,16 +37,16 @@ describe('optionRows', () => {
     expect(row('cascode').standing).toEqual({});
   });
 
-  test('the count of blocking checks short', () => {
-    expect(rows.map((r) => [r.topology, r.blockingShortCount])).toEqual([
-      ['cascode', 0],
-      ['wilson', 0],
-      ['degenerated-mirror', 0],
-      ['widlar', 1],
-      ['simple-mirror', 1],
-      ['resistor', 4],
-    ]);
-    expect(blockingShortCount(result.options[5])).toBe(4);
+  test('the count of blocking checks short: failing blocking checks only, not advisory or passing ones', () => {
+    const check = (rule: string, severity: Check['severity'], passed: boolean): Check => ({ rule, severity, passed, reason: '', margin: passed ? 1 : -1 });
+    const checks = [check('a', 'blocking', false), check('b', 'blocking', false), check('c', 'advisory', false), check('d', 'blocking', true)];
+    expect(blockingShortCount({ ...result.options[0], checks })).toBe(2);
+  });
+
+  test("each row carries its option's count; passing options none", () => {
+    expect(rows.map((r) => r.blockingShortCount)).toEqual(result.options.map(blockingShortCount));
+    for (const r of rows.filter((r) => r.passes)) expect(r.blockingShortCount).toBe(0);
+    expect(rows.some((r) => r.blockingShortCount > 0)).toBe(true);
   });
 
   test('an unsolved option keeps its row with empty figures', () => {
@@ -73,7 +74,8 @@ describe('matchesTopologyText', () => {
 
 describe('specTargets', () => {
   test('differential spec: frequency, requirement and margin, yield', () => {
-    expect(specTargets(strainBridge())).toMatchObject({ frequencyHz: 2500, requiredDb: 78, marginDb: 6, requiredYieldPercent: 99, differential: true, gainTarget: 42 });
+    const { cmrr, gain } = specOf('strain');
+    expect(specTargets(strainBridge())).toMatchObject({ frequencyHz: cmrr.atFrequencyHz, requiredDb: cmrr.minDb, marginDb: cmrr.marginDb, requiredYieldPercent: cmrr.minYieldPercent, differential: true, gainTarget: gain.target });
   });
   test('single-ended spec', () => {
     expect(specTargets(studioLine())?.differential).toBe(false);
