@@ -11,7 +11,9 @@ describe('optionRows', () => {
 
   test('one row per option in ranking order, with readable names', () => {
     expect(rows.map((r) => r.rank)).toEqual([1, 2, 3, 4, 5, 6]);
-    expect(rows.map((r) => r.name)).toEqual(['Cascode mirror', 'Wilson mirror', 'Degenerated mirror', 'Widlar source', 'Simple mirror', 'Resistor']);
+    const ranked = [...result.options].sort((a, b) => a.rank - b.rank);
+    expect(rows.map((r) => r.topology)).toEqual(ranked.map((o) => o.topology));
+    expect(rows.map((r) => r.name)).toEqual(ranked.map((o) => topologyName(o.topology)));
   });
 
   test('the recommendation is marked on its row only', () => {
@@ -32,9 +34,16 @@ describe('optionRows', () => {
     });
   });
 
-  test('a failing blocking check marks its figure short; an advisory one a note', () => {
-    expect(row('resistor').standing).toMatchObject({ cmrrAtFrequencyDb: 'short', yieldPercent: 'short', mismatchWorstCaseDb: 'note', powerWorstW: 'short' });
-    expect(row('cascode').standing).toEqual({});
+  test('a failing blocking check marks its figure short; an advisory one a note; passing checks nothing', () => {
+    const base = result.options.find((o) => o.topology === 'cascode')!;
+    // Hand-set verdicts on the engine's checks: the rejection target and the power budget fail
+    // (blocking), the mismatch worst case fails (advisory), every other check passes.
+    const failing: Record<string, Check['severity']> = { 'cmrr-target': 'blocking', 'power-budget': 'blocking', 'cmrr-differential-worst-case': 'advisory' };
+    const checks = base.checks.map((c) => (c.rule in failing ? { ...c, passed: false, severity: failing[c.rule] } : { ...c, passed: true }));
+    const [marked] = optionRows({ ...result, options: [{ ...base, checks, passes: false }] });
+    expect(marked.standing).toEqual({ cmrrAtFrequencyDb: 'short', powerWorstW: 'short', mismatchWorstCaseDb: 'note' });
+    const [clean] = optionRows({ ...result, options: [{ ...base, checks: base.checks.map((c) => ({ ...c, passed: true })) }] });
+    expect(clean.standing).toEqual({});
   });
 
   test('the count of blocking checks short: failing blocking checks only, not advisory or passing ones', () => {
