@@ -1,7 +1,7 @@
 // @vitest-environment jsdom
 /**
  * The printable review report (/proposals/:id/report) on a hand-built proposal around the real
- * engine's ranking of the demo strain-bridge spec: every section heading a reviewer expects,
+ * engine's ranking of an invented bridge-receiver spec (tests/web/fixtures): every section heading a reviewer expects,
  * the cautions when the ranking has any, "not verified yet" without a verification (before the
  * verification route exists and after), the SPICE comparison once one has finished, and the audit
  * trail to the second.

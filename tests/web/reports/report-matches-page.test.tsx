@@ -1,13 +1,13 @@
 // @vitest-environment jsdom
 /**
  * The report's ranked table is the page's ranking table, printed: the same rejection figures
- * against the same targets (the spec's own numbers, read from the demo spec files), the figure
+ * against the same targets (the spec's own numbers, read from the fixture spec files), the figure
  * for the spec's output marked in both, and the same verdict words on every row.
  */
 import { cleanup, render, within } from '@testing-library/react';
 import { afterEach, describe, expect, test } from 'vitest';
-import strainSpec from '../../../api/demo/specs/strain-bridge-receiver.json';
-import studioSpec from '../../../api/demo/specs/studio-line-receiver.json';
+import strainSpec from '../fixtures/specs/bridge-receiver.json';
+import studioSpec from '../fixtures/specs/line-receiver.json';
 import type { RecommendResult } from '../../../shared/engine/recommend';
 import { OptionsTable } from '../../../web/src/features/proposals/components/ranking/options-table';
 import { optionRows, specTargets } from '../../../web/src/features/proposals/lib/option-rows';

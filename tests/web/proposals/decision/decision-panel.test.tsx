@@ -2,12 +2,17 @@
 import { cleanup, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
+import { formatQuantity } from '../../../../shared/units/format-quantity';
 import { DecisionPanel } from '../../../../web/src/features/proposals/components/decision-panel';
+import { valueText } from '../../../../web/src/features/proposals/components/decision/override-draft';
 import { mockFetch, type Call } from './fixtures/fetch-mock';
 import { DESIGNER, proposalFixture, RANKING, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
 import { renderWithClient } from '../../helpers/render';
 
 const MEMBERS = { 'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER] } }) };
+/** The recommendation the own-values editor starts from. */
+const RANKED = rankedOptionOf('degenerated-mirror');
+const RANKED_TAIL = RANKED.design!.tail as { topology: 'degenerated-mirror'; referenceResistanceOhm: number; emitterResistanceOhm: number };
 
 let fetchMock: ReturnType<typeof mockFetch>;
 
@@ -101,7 +106,7 @@ describe('DecisionPanel', () => {
 
     await user.click(screen.getByRole('radio', { name: 'Use my own values' }));
     const collector = screen.getByRole('textbox', { name: 'Collector resistor' });
-    expect((collector as HTMLInputElement).value).toBe('2.32 kΩ');
+    expect((collector as HTMLInputElement).value).toBe(valueText(RANKED.design!.collectorResistanceOhm, 'Ohm'));
     await user.clear(collector);
     await user.type(collector, '4k7');
 
@@ -119,7 +124,8 @@ describe('DecisionPanel', () => {
     const figures = screen.getByRole('table', { name: /Key figures/ });
     const tailRow = within(figures).getByRole('row', { name: /Tail current/ });
     await waitFor(() => expect(tailRow.textContent).toContain('1.23 mA'));
-    expect(tailRow.textContent).toContain('963 µA');
+    // Beside it, the ranked option's own tail current.
+    expect(tailRow.textContent).toContain(formatQuantity(RANKED.predicted!.tailCurrentA, 'A'));
   });
 
   test('when a value cannot be read, then the field says why and no analysis is asked for it', async () => {
@@ -136,7 +142,7 @@ describe('DecisionPanel', () => {
     expect(screen.getByText(/unexpected unit "V"/)).toBeTruthy();
     await new Promise((resolve) => setTimeout(resolve, 500));
     const asked = fetchMock.to('POST', '/api/analyze').map((c) => (c.body as { tail: { referenceResistanceOhm: number } }).tail.referenceResistanceOhm);
-    expect(asked).toEqual([13700]);
+    expect(asked).toEqual([RANKED_TAIL.referenceResistanceOhm]);
     expect(screen.getByText('Waiting for readable values')).toBeTruthy();
   });
 
@@ -182,7 +188,7 @@ describe('DecisionPanel', () => {
     const body = fetchMock.to('POST', '/api/proposals/2/decision')[0].body as { kind: string; reason: string; design: { tail: unknown } };
     expect(body.kind).toBe('override');
     expect(body.reason).toBe('Twice the degeneration for drift.');
-    expect(body.design.tail).toEqual({ topology: 'degenerated-mirror', referenceResistanceOhm: 13700, emitterResistanceOhm: 2200 });
+    expect(body.design.tail).toEqual({ ...RANKED_TAIL, emitterResistanceOhm: 2200 });
   });
 
   test('when the analysis refuses a value (400 with a path) or cannot solve the design (422), then each shows in place', async () => {

@@ -3,6 +3,8 @@ import { cleanup, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
 import type { Check } from '../../../../shared/engine/types';
+import { formatDb, formatMargin, formatTargetDb } from '../../../../shared/units/figures';
+import { formatQuantity } from '../../../../shared/units/format-quantity';
 import { DecisionPanel } from '../../../../web/src/features/proposals/components/decision-panel';
 import type { OptionEvaluation } from '../../../../shared/api/proposals';
 import { mockFetch, type Call } from './fixtures/fetch-mock';
@@ -12,6 +14,10 @@ import { renderWithClient } from '../../helpers/render';
 const MEMBERS = { 'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER] } }) };
 const EVALUATION = 'POST /api/proposals/2/evaluation';
 const DECIDED = proposalFixture({ status: 'decided', allowedEvents: ['approve', 'return'] });
+const RANKED = rankedOptionOf('degenerated-mirror');
+const RANKED_TAIL = RANKED.design!.tail as { topology: 'degenerated-mirror'; referenceResistanceOhm: number; emitterResistanceOhm: number };
+/** What a 2k2 mirror emitter resistor makes of the ranked design. */
+const EDITED_TAIL = { ...RANKED_TAIL, emitterResistanceOhm: 2200 };
 
 let fetchMock: ReturnType<typeof mockFetch>;
 
@@ -73,18 +79,24 @@ describe('Full check of own values', () => {
 
     await waitFor(() => expect(fetchMock.to('POST', '/api/proposals/2/evaluation')).toHaveLength(1));
     const { design } = fetchMock.to('POST', '/api/proposals/2/evaluation')[0].body as { design: Record<string, unknown> };
-    expect(design).toEqual({ ...rankedOptionOf('degenerated-mirror').design, tail: { topology: 'degenerated-mirror', referenceResistanceOhm: 13700, emitterResistanceOhm: 2200 } });
+    expect(design).toEqual({ ...RANKED.design, tail: EDITED_TAIL });
 
     const result = await screen.findByRole('group', { name: 'Full check result' });
     expect(within(result).getByText('Passes every blocking check')).toBeTruthy();
-    const rejection = within(result).getByText(/Rejection at 2.5 kHz, tail-limited/).nextElementSibling!;
-    expect(rejection.textContent).toBe('91.7 dB against 78 dB + 6 dB margin (+7.7 dB) · ranked option 91.7 dB');
-    expect(within(result).getByText('ICM −1.5 V, 65 °C')).toBeTruthy();
+    // The evaluation answered is the ranked option's, so the figure and the ranked one are the same number.
+    const f = RANKED.figures!;
+    const rejection = within(result).getByText(`Rejection at ${formatQuantity(f.cmrrFrequencyHz, 'Hz')}, tail-limited`).nextElementSibling!;
+    expect(rejection.textContent).toBe(
+      `${formatDb(f.cmrrAtFrequencyDb)} against ${formatTargetDb(f.cmrrRequiredDb)} + ${formatTargetDb(f.cmrrMarginRequiredDb)} margin (${formatMargin(f.cmrrMarginDb, 'dB')}) · ranked option ${formatDb(f.cmrrAtFrequencyDb)}`,
+    );
+    expect(within(result).getByText(f.worstCmrrCorner)).toBeTruthy();
     const checks = within(result).getByRole('table', { name: /Every check of your values/ });
     const row = within(checks).getByRole('row', { name: /Rejection, tail-limited/ });
     expect(row.textContent).toContain('Holds');
-    expect(row.textContent).toContain('+7.7 dB');
-    expect(row.textContent).toContain(rankedOptionOf('degenerated-mirror').checks.find((c) => c.rule === 'cmrr-target')!.reason);
+    const target = RANKED.checks.find((c) => c.rule === 'cmrr-target')!;
+    expect(target.margin).toBeGreaterThan(0);
+    expect(row.textContent).toContain(formatMargin(target.margin!, 'dB'));
+    expect(row.textContent).toContain(target.reason);
     expect(within(checks).getAllByRole('row')).toHaveLength(passingEvaluation().checks.length + 1);
     expect(screen.getByText('Up to date with the values in the fields.')).toBeTruthy();
   });
@@ -139,7 +151,7 @@ describe('Full check of own values', () => {
     await waitFor(() => expect(fetchMock.to('POST', '/api/proposals/2/decision')).toHaveLength(1));
     const body = fetchMock.to('POST', '/api/proposals/2/decision')[0].body as { kind: string; reason: string; design: { tail: unknown } };
     expect(body).toMatchObject({ kind: 'override', reason: 'The bench build shows 6 dB more than the model.' });
-    expect(body.design.tail).toEqual({ topology: 'degenerated-mirror', referenceResistanceOhm: 13700, emitterResistanceOhm: 2200 });
+    expect(body.design.tail).toEqual(EDITED_TAIL);
   });
 
   test('when an unchecked override is recorded, then Escape keeps editing, sends nothing and leads to the full check', async () => {

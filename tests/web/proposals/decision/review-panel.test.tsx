@@ -2,6 +2,7 @@
 import { cleanup, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
+import { formatMargin } from '../../../../shared/units/figures';
 import { ReviewPanel } from '../../../../web/src/features/proposals/components/review-panel';
 import { mockFetch } from './fixtures/fetch-mock';
 import { chooseDecision, decidedProposal, DESIGNER, proposalFixture, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
@@ -110,8 +111,10 @@ describe('ReviewPanel', () => {
     expect(rows).toHaveLength(rankedOptionOf('widlar').checks.length);
     expect(rows[0].textContent).toMatch(/Short/);
     expect(rows[0].textContent).toMatch(/Rejection, tail-limited/);
-    expect(rows[0].textContent).toMatch(/13.2 dB short/);
-    expect(rows[0].textContent).toContain('−13.2 dB');
+    const short = rankedOptionOf('widlar').checks.find((c) => c.rule === 'cmrr-target')!;
+    expect(short.passed).toBe(false);
+    expect(rows[0].textContent).toContain(short.reason);
+    expect(rows[0].textContent).toContain(formatMargin(short.margin!, short.marginUnit));
     expect(await screen.findByText('Priya Valcourt')).toBeTruthy();
   });
 

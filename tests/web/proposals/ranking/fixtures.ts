@@ -1,8 +1,9 @@
 /**
- * Fixtures made by the real engine; regenerate them after an engine change:
- *   npm run --silent longtail -- recommend api/demo/specs/strain-bridge-receiver.json > tests/web/proposals/ranking/fixtures/strain-bridge.json
- *   npm run --silent longtail -- recommend api/demo/specs/studio-line-receiver.json > tests/web/proposals/ranking/fixtures/studio-line.json
- * Strain bridge: differential output, Monte Carlo; studio line: single-ended, pair degeneration.
+ * Rankings made by the real engine from invented specs (tests/web/fixtures/specs/), written by
+ * `npm run generate:web-fixtures` and checked for drift by tests/web/fixtures/web-fixtures.test.ts.
+ * Tests read the figures they expect from these objects; they never copy one into an assertion.
+ * Strain bridge: differential output, Monte Carlo, simplest-sufficient; studio line: single-ended,
+ * pair degeneration, highest-rejection.
  */
 import { readFileSync } from 'node:fs';
 import type { RecommendResult } from '../../../../shared/engine/recommend';
@@ -13,14 +14,17 @@ function json<T>(relative: string): T {
   return JSON.parse(readFileSync(new URL(relative, import.meta.url), 'utf8')) as T;
 }
 
-export const strainBridge = (): RecommendResult => json('./fixtures/strain-bridge.json');
-export const studioLine = (): RecommendResult => json('./fixtures/studio-line.json');
+export const strainBridge = (): RecommendResult => json('../../fixtures/bridge-receiver.generated.json');
+export const studioLine = (): RecommendResult => json('../../fixtures/line-receiver.generated.json');
 
-const SPEC_FILES = { strain: '../../../../api/demo/specs/strain-bridge-receiver.json', studio: '../../../../api/demo/specs/studio-line-receiver.json' } as const;
+const SPEC_FILES = { strain: '../../fixtures/specs/bridge-receiver.json', studio: '../../fixtures/specs/line-receiver.json' } as const;
+
+/** The spec a fixture was ranked from. */
+export const specOf = (spec: keyof typeof SPEC_FILES = 'strain'): Spec => json<Spec>(SPEC_FILES[spec]);
 
 /** A stored proposal around a recommend result, as GET /api/proposals/:id answers. */
 export function proposalOf(result: RecommendResult, spec: keyof typeof SPEC_FILES = 'strain'): Proposal {
-  const payload = json<Spec>(SPEC_FILES[spec]);
+  const payload = specOf(spec);
   return {
     id: 7,
     projectId: 1,

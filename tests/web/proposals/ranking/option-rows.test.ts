@@ -1,7 +1,8 @@
 import { describe, expect, test } from 'vitest';
 import { blockingShortCount, matchesTopologyText, optionRows, specTargets } from '../../../../web/src/features/proposals/lib/option-rows';
 import { topologyName } from '../../../../web/src/lib/topology-names';
-import { strainBridge, studioLine } from './fixtures';
+import type { Check } from '../../../../shared/engine/types';
+import { specOf, strainBridge, studioLine } from './fixtures';
 
 describe('optionRows', () => {
   const result = strainBridge();
@@ -10,7 +11,9 @@ describe('optionRows', () => {
 
   test('one row per option in ranking order, with readable names', () => {
     expect(rows.map((r) => r.rank)).toEqual([1, 2, 3, 4, 5, 6]);
-    expect(rows.map((r) => r.name)).toEqual(['Cascode mirror', 'Wilson mirror', 'Degenerated mirror', 'Widlar source', 'Simple mirror', 'Resistor']);
+    const ranked = [...result.options].sort((a, b) => a.rank - b.rank);
+    expect(rows.map((r) => r.topology)).toEqual(ranked.map((o) => o.topology));
+    expect(rows.map((r) => r.name)).toEqual(ranked.map((o) => topologyName(o.topology)));
   });
 
   test('the recommendation is marked on its row only', () => {
@@ -31,21 +34,28 @@ describe('optionRows', () => {
     });
   });
 
-  test('a failing blocking check marks its figure short; an advisory one a note', () => {
-    expect(row('resistor').standing).toMatchObject({ cmrrAtFrequencyDb: 'short', yieldPercent: 'short', mismatchWorstCaseDb: 'note', powerWorstW: 'short' });
-    expect(row('cascode').standing).toEqual({});
+  test('a failing blocking check marks its figure short; an advisory one a note; passing checks nothing', () => {
+    const base = result.options.find((o) => o.topology === 'cascode')!;
+    // Hand-set verdicts on the engine's checks: the rejection target and the power budget fail
+    // (blocking), the mismatch worst case fails (advisory), every other check passes.
+    const failing: Record<string, Check['severity']> = { 'cmrr-target': 'blocking', 'power-budget': 'blocking', 'cmrr-differential-worst-case': 'advisory' };
+    const checks = base.checks.map((c) => (c.rule in failing ? { ...c, passed: false, severity: failing[c.rule] } : { ...c, passed: true }));
+    const [marked] = optionRows({ ...result, options: [{ ...base, checks, passes: false }] });
+    expect(marked.standing).toEqual({ cmrrAtFrequencyDb: 'short', powerWorstW: 'short', mismatchWorstCaseDb: 'note' });
+    const [clean] = optionRows({ ...result, options: [{ ...base, checks: base.checks.map((c) => ({ ...c, passed: true })) }] });
+    expect(clean.standing).toEqual({});
   });
 
-  test('the count of blocking checks short', () => {
-    expect(rows.map((r) => [r.topology, r.blockingShortCount])).toEqual([
-      ['cascode', 0],
-      ['wilson', 0],
-      ['degenerated-mirror', 0],
-      ['widlar', 1],
-      ['simple-mirror', 1],
-      ['resistor', 4],
-    ]);
-    expect(blockingShortCount(result.options[5])).toBe(4);
+  test('the count of blocking checks short: failing blocking checks only, not advisory or passing ones', () => {
+    const check = (rule: string, severity: Check['severity'], passed: boolean): Check => ({ rule, severity, passed, reason: '', margin: passed ? 1 : -1 });
+    const checks = [check('a', 'blocking', false), check('b', 'blocking', false), check('c', 'advisory', false), check('d', 'blocking', true)];
+    expect(blockingShortCount({ ...result.options[0], checks })).toBe(2);
+  });
+
+  test("each row carries its option's count; passing options none", () => {
+    expect(rows.map((r) => r.blockingShortCount)).toEqual(result.options.map(blockingShortCount));
+    for (const r of rows.filter((r) => r.passes)) expect(r.blockingShortCount).toBe(0);
+    expect(rows.some((r) => r.blockingShortCount > 0)).toBe(true);
   });
 
   test('an unsolved option keeps its row with empty figures', () => {
@@ -73,7 +83,8 @@ describe('matchesTopologyText', () => {
 
 describe('specTargets', () => {
   test('differential spec: frequency, requirement and margin, yield', () => {
-    expect(specTargets(strainBridge())).toMatchObject({ frequencyHz: 2500, requiredDb: 78, marginDb: 6, requiredYieldPercent: 99, differential: true, gainTarget: 42 });
+    const { cmrr, gain } = specOf('strain');
+    expect(specTargets(strainBridge())).toMatchObject({ frequencyHz: cmrr.atFrequencyHz, requiredDb: cmrr.minDb, marginDb: cmrr.marginDb, requiredYieldPercent: cmrr.minYieldPercent, differential: true, gainTarget: gain.target });
   });
   test('single-ended spec', () => {
     expect(specTargets(studioLine())?.differential).toBe(false);

@@ -36,7 +36,9 @@ describe('OptionSchematic', () => {
   });
 
   test('resistor values are labelled from the design in engineering notation', () => {
-    const { container } = drawn(designs.get('degenerated-mirror')!);
+    // Hand-set values on the engine's sized design, so the labels are known text.
+    const design: Design = { ...designs.get('degenerated-mirror')!, collectorResistanceOhm: 2320, tail: { topology: 'degenerated-mirror', referenceResistanceOhm: 13_700, emitterResistanceOhm: 1050 } };
+    const { container } = drawn(design);
     const labels = [...container.querySelectorAll('text')].map((t) => t.textContent);
     expect(labels).toEqual(expect.arrayContaining(['RREF', '13.7 kΩ', 'RE3', 'RE4', '1.05 kΩ', 'RC1', '2.32 kΩ', 'in1', 'in2', 't']));
   });
@@ -47,7 +49,8 @@ describe('OptionSchematic', () => {
   });
 
   test('it is an image with a description of the circuit and its values', () => {
-    render(<OptionSchematic design={designs.get('cascode')!} />);
+    const design: Design = { ...designs.get('cascode')!, collectorResistanceOhm: 2320, supply: { positiveV: 7.5, negativeV: -7.5 }, tail: { topology: 'cascode', referenceResistanceOhm: 14_000 } };
+    render(<OptionSchematic design={design} />);
     const image = screen.getByRole('img');
     const words = image.getAttribute('aria-label')!;
     expect(words).toContain('Emitter-coupled pair Q1 and Q2');

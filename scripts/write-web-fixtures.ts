@@ -1,0 +1,39 @@
+/**
+ * Writes the web component tests' engine fixtures, tests/web/fixtures/<name>.generated.json:
+ * each invented spec of tests/web/fixtures/specs/ run through the real `recommend` with the
+ * real rule set (`npm run generate:web-fixtures` after an engine or rule change);
+ * tests/web/fixtures/web-fixtures.test.ts fails until you do. The output is deterministic:
+ * the specs fix the Monte Carlo seed and the result holds no time.
+ */
+import { readFileSync, writeFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { recommend, type RecommendResult } from '../shared/engine/index';
+import { validateSpec } from '../shared/validate';
+import { loadRuleSet } from '../rules/index';
+
+/** Differential output, Monte Carlo, simplest-sufficient; single-ended, highest-rejection. */
+export const WEB_FIXTURES = ['bridge-receiver', 'line-receiver'] as const;
+export type WebFixtureName = (typeof WEB_FIXTURES)[number];
+
+const FIXTURES_DIR = new URL('../tests/web/fixtures/', import.meta.url);
+export const webFixtureSpecPath = (name: WebFixtureName) => fileURLToPath(new URL(`specs/${name}.json`, FIXTURES_DIR));
+export const webFixturePath = (name: WebFixtureName) => fileURLToPath(new URL(`${name}.generated.json`, FIXTURES_DIR));
+
+/** The engine's answer for one fixture spec. */
+export async function webFixtureResult(name: WebFixtureName): Promise<RecommendResult> {
+  const checked = validateSpec(JSON.parse(readFileSync(webFixtureSpecPath(name), 'utf8')));
+  if (!checked.ok) throw new Error(`write-web-fixtures: ${name} does not validate: ${JSON.stringify(checked.errors)}`);
+  return recommend(checked.value, await loadRuleSet());
+}
+
+/** The file text for one fixture. */
+export async function webFixtureText(name: WebFixtureName): Promise<string> {
+  return `${JSON.stringify(await webFixtureResult(name), null, 1)}\n`;
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  for (const name of WEB_FIXTURES) {
+    writeFileSync(webFixturePath(name), await webFixtureText(name));
+    console.log(`Wrote ${webFixturePath(name)}`);
+  }
+}
