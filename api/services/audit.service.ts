@@ -26,11 +26,7 @@ export async function recordEvent(manager: EntityManager, input: AuditInput): Pr
     proposalId: input.proposalId ?? null,
     beforeId: input.beforeId ?? null,
     afterId: input.afterId ?? null,
-    details: JSON.stringify(input.details ?? {}),
+    details: input.details ?? {},
   });
 }
 
-/** An event as the API shows it (details parsed). */
-export function auditView(event: AuditEvent): AuditEventView {
-  return { ...event, details: JSON.parse(event.details) as Record<string, unknown> };
-}
