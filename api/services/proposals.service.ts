@@ -254,7 +254,9 @@ export async function listProposals(dataSource: DataSource, viewer: Viewer, proj
   if (query.status) page.andWhere('p.status = :status', { status: query.status });
   if (query.cursor) {
     const [at, id] = query.cursor.split('~');
-    page.andWhere('(p.createdAt < :at OR (p.createdAt = :at AND p.id < :id))', { at, id: Number(id) });
+    // A row-value comparison (SQLite and PostgreSQL alike): a range of the list's index, where the
+    // equivalent OR of two comparisons walks every entry after the first.
+    page.andWhere('(p.createdAt, p.id) < (:at, :id)', { at, id: Number(id) });
   } else page.offset((query.page - 1) * query.pageSize);
   // A plain count: findAndCount with a column selection counts DISTINCT over the selected columns.
   const [total, ids] = await Promise.all([repository.countBy(where), page.getRawMany<{ id: number }>().then((r) => r.map((row) => Number(row.id)))]);
