@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+import { foreignKeyColumn, idColumn, shortTextColumn, timestampColumn } from './columns';
 import { jsonColumn } from './json-column';
 
 /** Append-only record of every change: who, what, when, and the records before and after. */

@@ -1,6 +1,5 @@
 /** The append-only audit trail: one event per change, written in the change's own transaction. */
 import type { EntityManager } from 'typeorm';
-import type { AuditEvent as AuditEventView } from '../../shared/api/admin';
 import { AuditEventEntity, type AuditEvent } from '../entities/audit-event.entity';
 
 export interface AuditInput {

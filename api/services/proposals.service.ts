@@ -5,9 +5,8 @@
  * writes the record and its audit event in one transaction.
  */
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { ENGINE_VERSION, ESTIMATE_NOTICE, type RecommendResult } from '../../shared/engine/index';
+import { ENGINE_VERSION, type RecommendResult } from '../../shared/engine/index';
 import type { RecommendOption } from '../../shared/engine/recommend';
-import { spiceNetlist } from '../../shared/engine/netlist';
 import type { Design, RuleSet } from '../../shared/engine/types';
 import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
 import { mayIn, type Action } from '../../shared/workflow/roles';
@@ -22,11 +21,10 @@ import { lockRowForUpdate } from '../data-source';
 import { evaluateSpecDesign, rankSpec } from '../engine/engine-pool';
 import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
-import { boundCurrentDesign, type BoundDecision } from '../verification/design-binding';
+import { boundCurrentDesign } from '../verification/design-binding';
 import { designVerificationState } from './design-verification';
 import { currentDesignName, currentDesignSummary } from '../../shared/workflow/current-design';
 import { topologyName } from '../../shared/engine/topologies';
-import { libraryCardNetlistComment } from './devices.service';
 import { queueNotification } from './notifications.service';
 import { projectFor } from './projects.service';
 import { specMovedOn, supersedeOlderRankings } from './spec-lifecycle.service';
@@ -34,9 +32,8 @@ import { latestVersion, specFor, specVersionDocument, storedSpecDocument } from 
 import { rankingOf, rankingText, storeRanking } from './rankings.service';
 import type { PublicUser } from './users.service';
 import type { AuditEvent } from '../../shared/api/admin';
-import type { Page } from '../../shared/api/lists';
 import type * as Wire from '../../shared/api/proposals';
-import type { DecisionInput, NetlistQuery, ReviewInput, WithdrawalInput } from '../../shared/api/proposals';
+import type { DecisionInput, ReviewInput, WithdrawalInput } from '../../shared/api/proposals';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
@@ -485,44 +482,6 @@ export async function withdraw(dataSource: DataSource, actor: Viewer, proposalId
   });
   return getProposal(dataSource, actor, proposalId);
 }
-
-/**
- * A SPICE netlist (ngspice-ready .cir) of one ranked option, or of the latest decision's design
- * (an override included), with the differential or common-mode AC drive, from the product's one
- * netlist writer. The header says where it comes from and that the figures are estimates.
- */
-export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, proposalId: number, query: NetlistQuery) {
-  const proposal = await getProposal(dataSource, viewer, proposalId);
-  let design: Design | null | undefined;
-  let label: string;
-  if (query.source === 'decision') {
-    // The decided design exactly as verified and signed off (shared/workflow/current-design.ts).
-    const current = proposal.currentDesign;
-    if (!current || current.basis !== 'decision') throw invalid([{ path: '?source', message: 'this proposal has no decision yet' }]);
-    design = current.design;
-    if (!design) throw invalid([{ path: '?source', message: 'the decided design could not be sized' }]);
-    label = `${proposal.status === 'approved' ? 'signed-off' : 'decided'} design, ${currentDesignName(current)} (decision #${current.decisionId}, ${current.decisionKind})`;
-  } else {
-    const topology = query.topology ?? proposal.result.recommended ?? proposal.result.options[0]?.topology;
-    design = proposal.result.options.find((o) => o.topology === topology)?.design;
-    if (!design) throw invalid([{ path: '?topology', message: `is not a sized option of this proposal: ${String(topology)}` }]);
-    label = `ranked option ${topology}`;
-  }
-  const libraryCard = await libraryCardNetlistComment(dataSource, proposal.projectId, proposal.specVersion.payload, design.device);
-  // User text (the spec's title, the card's name and text) goes in as header comments only: the writer keeps each on comment lines.
-  const header = [
-    `Exported by Longtail: proposal #${proposal.id}, ${label}`,
-    `spec "${proposal.specVersion.title}" version ${proposal.specVersion.version}, engine ${proposal.engineVersion}, rule set ${proposal.rulesetVersion.slice(0, 12)}`,
-    `at ${design.temperatureC ?? 27} °C, input common mode ${design.inputCommonModeV ?? 0} V (nominal conditions)`,
-    ESTIMATE_NOTICE,
-    ...libraryCard,
-  ];
-  const text = spiceNetlist(design, { analysis: query.drive === 'differential' ? 'ac-differential' : 'ac-common-mode', ...NETLIST_SWEEP }, header);
-  return { fileName: `longtail-${proposal.id}-${design.tail.topology}-${query.drive}.cir`, text };
-}
-
-/** The AC sweep written into exported netlists: 1 Hz to 10 MHz, 20 points a decade. */
-const NETLIST_SWEEP = { startHz: 1, stopHz: 1e7, pointsPerDecade: 20 };
 
 /** The proposal's audit trail, oldest first. */
 export async function proposalAudit(dataSource: DataSource, viewer: Viewer, proposalId: number): Promise<AuditEvent[]> {

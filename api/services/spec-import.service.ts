@@ -10,7 +10,6 @@
  * that row (which of them was meant is not for the server to guess).
  */
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import type { RecommendResult } from '../../shared/engine/recommend';
 import type { Spec as SpecDocument } from '../../shared/engine/types';
 import { batchResultsCsv } from '../../shared/export/batch-csv';
 import type { ImportAction, ImportReport, ImportRowReport } from '../../shared/import/import-report';

@@ -10,7 +10,7 @@ import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { lockRowForUpdate } from '../data-source';
 import { ProposalEntity } from '../entities/proposal.entity';
 import { AppError, conflict, forbidden, invalid, notFound } from '../errors';
-import type { RecommendOption, RecommendResult } from '../../shared/engine/recommend';
+import type { RecommendOption } from '../../shared/engine/recommend';
 import {
   ACTIVE_VERIFICATION_STATES,
   MAX_ACTIVE_JOBS_PER_PERSON,

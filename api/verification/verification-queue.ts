@@ -40,7 +40,7 @@ import { DecisionEntity } from '../entities/decision.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { VerificationJobEntity, type VerificationJob } from '../entities/verification-job.entity';
 import type { RecommendOption, RecommendResult } from '../../shared/engine/recommend';
-import type { Design, Spec } from '../../shared/engine/types';
+import type { Spec } from '../../shared/engine/types';
 import type { DesignBinding } from '../../shared/verification/binding';
 import { designBinding } from './design-binding';
 import { topologyName } from '../../shared/engine/topologies';
