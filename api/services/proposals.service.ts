@@ -209,13 +209,13 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
     allowedEvents: allowedEvents('ranked'),
     currentDesign: currentDesignOf(proposal, version.version, parsed, []),
   };
-  return { envelope, resultText };
+  return { envelope, resultText, result: parsed };
 }
 
 /** Ranks the spec's latest version with the engine and stores the proposal; returns it whole. */
 export async function createProposal(dataSource: DataSource, actor: Viewer, specId: number, ruleSet: RuleSet): Promise<Wire.Proposal> {
-  const { envelope, resultText } = await storeProposal(dataSource, actor, specId, ruleSet);
-  return { ...envelope, result: JSON.parse(resultText) as RecommendResult };
+  const { envelope, result } = await storeProposal(dataSource, actor, specId, ruleSet);
+  return { ...envelope, result };
 }
 
 /**
