@@ -1,5 +1,6 @@
 import { EntitySchema } from 'typeorm';
-import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+import { foreignKeyColumn, idColumn, shortTextColumn, timestampColumn } from './columns';
+import { jsonColumn } from './json-column';
 
 /** Append-only record of every change: who, what, when, and the records before and after. */
 export interface AuditEvent {
@@ -14,8 +15,8 @@ export interface AuditEvent {
   proposalId: number | null;
   beforeId: number | null;
   afterId: number | null;
-  /** Small JSON text with what a reader needs (new status, reason excerpt...). */
-  details: string;
+  /** Small JSON document (stored as text) with what a reader needs (new status, reason excerpt...). */
+  details: Record<string, unknown>;
 }
 
 export const AuditEventEntity = new EntitySchema<AuditEvent>({
@@ -32,6 +33,6 @@ export const AuditEventEntity = new EntitySchema<AuditEvent>({
     proposalId: foreignKeyColumn('proposal_id', true),
     beforeId: { type: 'integer', name: 'before_id', nullable: true },
     afterId: { type: 'integer', name: 'after_id', nullable: true },
-    details: textColumn(),
+    details: jsonColumn(),
   },
 });

@@ -1,6 +1,9 @@
 import { EntitySchema } from 'typeorm';
 import type { DecisionKind } from '../../shared/workflow/current-design';
+import type { RecommendOption } from '../../shared/engine/recommend';
+import type { Design } from '../../shared/engine/types';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+import { jsonColumn } from './json-column';
 
 export type { DecisionKind };
 
@@ -10,10 +13,10 @@ export interface Decision {
   proposalId: number;
   kind: DecisionKind;
   topology: string;
-  /** The chosen design (analyze input), JSON text. */
-  design: string;
-  /** For an override: its predictions, figures and checks, JSON text; else null. */
-  evaluation: string | null;
+  /** The chosen design (analyze input; JSON text in the row). */
+  design: Design;
+  /** For an override: its predictions, figures and checks (JSON text in the row); else null. */
+  evaluation: RecommendOption | null;
   reason: string | null;
   decidedById: number;
   createdAt: string;
@@ -30,8 +33,8 @@ export const DecisionEntity = new EntitySchema<Decision>({
     proposalId: foreignKeyColumn('proposal_id'),
     kind: shortTextColumn(20),
     topology: shortTextColumn(40),
-    design: textColumn(),
-    evaluation: textColumn(true),
+    design: jsonColumn(),
+    evaluation: jsonColumn(true),
     reason: textColumn(true),
     decidedById: foreignKeyColumn('decided_by_id'),
     createdAt: timestampColumn('created_at'),

@@ -1,5 +1,6 @@
 import { EntitySchema } from 'typeorm';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+import { jsonColumn } from './json-column';
 
 /**
  * One NPN `.model` card of a project's device library, as uploaded (shared/devices/model-card.ts
@@ -13,8 +14,8 @@ export interface DeviceModel {
   name: string;
   /** The name lower-cased (SPICE names are case-insensitive): unique per project. */
   nameKey: string;
-  /** Every parameter of the card as JSON text: upper-case name → number (SI units). */
-  parameters: string;
+  /** Every parameter of the card (JSON text in the row): upper-case name → number (SI units). */
+  parameters: Record<string, number>;
   /** The card's own lines as written in the file. */
   cardText: string;
   /** Line of the `.model` keyword in the uploaded file. */
@@ -40,7 +41,7 @@ export const DeviceModelEntity = new EntitySchema<DeviceModel>({
     projectId: foreignKeyColumn('project_id'),
     name: shortTextColumn(64),
     nameKey: { ...shortTextColumn(64), name: 'name_key' },
-    parameters: textColumn(),
+    parameters: jsonColumn(),
     cardText: { ...textColumn(), name: 'card_text' },
     sourceLine: { type: 'integer', name: 'source_line' },
     fileName: { ...shortTextColumn(255), name: 'file_name' },

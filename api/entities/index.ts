@@ -9,6 +9,7 @@ import { MailOutboxEntity } from './mail-outbox.entity';
 import { ProjectMemberEntity } from './project-member.entity';
 import { ProjectEntity } from './project.entity';
 import { ProposalEntity } from './proposal.entity';
+import { RankingEntity } from './ranking.entity';
 import { ReviewEntity } from './review.entity';
 import { SessionEntity } from './session.entity';
 import { SpecVersionEntity } from './spec-version.entity';
@@ -22,6 +23,7 @@ export const ENTITIES = [
   ProjectMemberEntity,
   SpecEntity,
   SpecVersionEntity,
+  RankingEntity,
   ProposalEntity,
   DecisionEntity,
   ReviewEntity,

@@ -1,5 +1,6 @@
 import { EntitySchema } from 'typeorm';
 import { idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+import { jsonColumn } from './json-column';
 
 /** A message the built-in local mail server (api/mail/local-smtp.ts) received: the demo mailbox. */
 export interface MailMessage {
@@ -7,8 +8,8 @@ export interface MailMessage {
   receivedAt: string;
   /** The envelope sender. */
   mailFrom: string | null;
-  /** The envelope recipients, JSON text (an array of addresses). */
-  recipients: string;
+  /** The envelope recipients (JSON text in the row: an array of addresses). */
+  recipients: string[];
   subject: string;
   textBody: string;
   messageId: string | null;
@@ -23,7 +24,7 @@ export const MailMessageEntity = new EntitySchema<MailMessage>({
     id: idColumn,
     receivedAt: timestampColumn('received_at'),
     mailFrom: { ...shortTextColumn(254, true), name: 'mail_from' },
-    recipients: textColumn(),
+    recipients: jsonColumn(),
     subject: textColumn(),
     textBody: { ...textColumn(), name: 'text_body' },
     messageId: { ...shortTextColumn(300, true), name: 'message_id' },

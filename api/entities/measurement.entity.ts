@@ -1,5 +1,7 @@
 import { EntitySchema } from 'typeorm';
+import type { MeasuredPoint } from '../../shared/measurements/measurement-csv';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+import { jsonColumn } from './json-column';
 
 /**
  * A bench measurement of a decided proposal's design: the uploaded CSV's bytes live in the
@@ -23,8 +25,8 @@ export interface Measurement {
   sha256: string;
   sizeBytes: number;
   pointCount: number;
-  /** The measured points as JSON text: [{ frequencyHz, value }] in `unit`. */
-  points: string;
+  /** The measured points (JSON text in the row): [{ frequencyHz, value }] in `unit`. */
+  points: MeasuredPoint[];
   note: string | null;
   uploadedById: number;
   uploadedAt: string;
@@ -45,7 +47,7 @@ export const MeasurementEntity = new EntitySchema<Measurement>({
     sha256: shortTextColumn(64),
     sizeBytes: { type: 'integer', name: 'size_bytes' },
     pointCount: { type: 'integer', name: 'point_count' },
-    points: textColumn(),
+    points: jsonColumn(),
     note: textColumn(true),
     uploadedById: foreignKeyColumn('uploaded_by_id'),
     uploadedAt: timestampColumn('uploaded_at'),

@@ -2,7 +2,11 @@ import { EntitySchema } from 'typeorm';
 import type { ProposalState } from '../../shared/workflow/proposal-states';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 
-/** The engine's ranking of one spec version, with the versions that reproduce it. */
+/**
+ * The engine's ranking of one spec version, with the versions that reproduce it. The ranking
+ * itself (tens of kB: every option's curves and Monte Carlo figures) is a `ranking` row shared by
+ * the proposals that carry the same output, so this row stays small for the lists.
+ */
 export interface Proposal {
   id: number;
   projectId: number;
@@ -10,8 +14,8 @@ export interface Proposal {
   specVersionId: number;
   engineVersion: string;
   rulesetVersion: string;
-  /** The whole `recommend` output, JSON text. */
-  result: string;
+  /** The engine output (`recommend`) this proposal ranks with: a row shared by every proposal with the same output. */
+  rankingId: number;
   recommendedTopology: string | null;
   status: ProposalState;
   /** Superseded: the newer proposal that closed this one. */
@@ -36,7 +40,7 @@ export const ProposalEntity = new EntitySchema<Proposal>({
     specVersionId: foreignKeyColumn('spec_version_id'),
     engineVersion: { ...shortTextColumn(20), name: 'engine_version' },
     rulesetVersion: { ...shortTextColumn(64), name: 'ruleset_version' },
-    result: textColumn(),
+    rankingId: foreignKeyColumn('ranking_id'),
     recommendedTopology: { ...shortTextColumn(40, true), name: 'recommended_topology' },
     status: shortTextColumn(20),
     supersededById: foreignKeyColumn('superseded_by_id', true),

@@ -1,13 +1,15 @@
 import { EntitySchema } from 'typeorm';
+import type { Spec as SpecDocument } from '../../shared/engine/types';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
+import { jsonColumn } from './json-column';
 
-/** One immutable version of a spec: the spec document as JSON text. */
+/** One immutable version of a spec: the spec document (JSON text in the row) as validated when written. */
 export interface SpecVersion {
   id: number;
   specId: number;
   version: number;
   title: string;
-  payload: string;
+  payload: SpecDocument;
   /** What changed and why, in the author's words (optional). */
   note: string | null;
   createdById: number;
@@ -22,7 +24,7 @@ export const SpecVersionEntity = new EntitySchema<SpecVersion>({
     specId: foreignKeyColumn('spec_id'),
     version: { type: 'integer' },
     title: shortTextColumn(200),
-    payload: textColumn(),
+    payload: jsonColumn(),
     note: textColumn(true),
     createdById: foreignKeyColumn('created_by_id'),
     createdAt: timestampColumn('created_at'),

@@ -47,7 +47,7 @@ export async function startLocalSmtp(options: LocalSmtpOptions): Promise<LocalSm
           await dataSource.getRepository(MailMessageEntity).save({
             receivedAt: new Date().toISOString(),
             mailFrom: session.envelope.mailFrom ? session.envelope.mailFrom.address : null,
-            recipients: JSON.stringify(session.envelope.rcptTo.map((r) => r.address)),
+            recipients: session.envelope.rcptTo.map((r) => r.address),
             subject: parsed.subject ?? '',
             textBody: parsed.text ?? '',
             messageId: parsed.messageId?.slice(0, 300) ?? null,

@@ -52,12 +52,13 @@ async function rewrite(queryRunner: QueryRunner, change: (payload: Payload) => P
     const payload = change(JSON.parse(row.payload) as Payload);
     const title = titles ? clean(row.title) : row.title;
     if (!payload && title === row.title) continue;
-    await manager
-      .createQueryBuilder()
-      .update('spec_version')
-      .set({ title, ...(payload ? { payload: JSON.stringify(payload) } : {}) })
-      .where('id = :id', { id: row.id })
-      .execute();
+    // Plain SQL, not an update through the query builder: that would find the entity of the
+    // table (loaded beside the migrations) and pass the text through its JSON column transformer.
+    const [sql, values] = queryRunner.connection.driver.escapeQueryWithParameters(
+      `UPDATE spec_version SET title = :title, payload = :payload WHERE id = :id`,
+      { title, payload: payload ? JSON.stringify(payload) : row.payload, id: row.id },
+    );
+    await queryRunner.query(sql, values);
   }
   if (!titles) return;
   const specs: { id: number; title: string }[] = await manager.createQueryBuilder().select(['s.id AS id', 's.title AS title']).from('spec', 's').getRawMany();

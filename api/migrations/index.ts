@@ -11,6 +11,7 @@ import { ProjectMemberRoles1764800400000 } from './1764800400000-project-member-
 import { MailDigest1764800400100 } from './1764800400100-mail-digest';
 import { DesignBinding1764800500000 } from './1764800500000-design-binding';
 import { SpecLifecycle1764800600000 } from './1764800600000-spec-lifecycle';
+import { DistinctRankings1764900000000 } from './1764900000000-distinct-rankings';
 
 export const MIGRATIONS = [
   InitialSchema1764612000000,
@@ -25,4 +26,5 @@ export const MIGRATIONS = [
   MailDigest1764800400100,
   DesignBinding1764800500000,
   SpecLifecycle1764800600000,
+  DistinctRankings1764900000000,
 ];

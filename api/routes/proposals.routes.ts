@@ -2,13 +2,11 @@
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import type { RuleSet } from '../../shared/engine/types';
-import { ESTIMATE_NOTICE } from '../../shared/engine/index';
-import { rankingCsv } from '../../shared/export/ranking-csv';
 import { validateDesign } from '../../shared/validate';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
-import { allMeasurements } from '../services/measurements.service';
-import { decide, evaluateOverride, getProposal, proposalAudit, proposalNetlist, review, withdraw } from '../services/proposals.service';
+import { decide, evaluateOverride, getProposal, proposalAudit, review, withdraw } from '../services/proposals.service';
+import { proposalExport, proposalNetlist, proposalRankingCsv } from '../services/proposal-exports.service';
 import { DECISION_BODY, EVALUATION_BODY, MONTE_CARLO_BODY, NETLIST_QUERY, REVIEW_BODY, WITHDRAWAL_BODY } from '../validation/bodies';
 import { requestMonteCarlo, requestVerification, verificationStatus, withdrawJob } from '../services/verification.service';
 import type { VerificationQueue } from '../verification/verification-queue';
@@ -35,23 +33,16 @@ export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet, verifi
     res.status(201).json(await withdraw(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), req.body));
   });
   router.get('/:id/ranking.csv', async (req, res) => {
-    const proposal = await getProposal(dataSource, currentUser(req), idParam(req.params.id, 'proposal'));
-    res.attachment(`longtail-ranking-${proposal.id}.csv`).type('text/csv; charset=utf-8').send(rankingCsv(proposal.result));
+    const { fileName, text } = await proposalRankingCsv(dataSource, currentUser(req), idParam(req.params.id, 'proposal'));
+    res.attachment(fileName).type('text/csv; charset=utf-8').send(text);
   });
   router.get('/:id/netlist.cir', validateQuery(NETLIST_QUERY), async (req, res) => {
     const { fileName, text } = await proposalNetlist(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), res.locals.query);
     res.attachment(fileName).type('text/plain; charset=utf-8').send(text);
   });
   router.get('/:id/export.json', async (req, res) => {
-    const viewer = currentUser(req);
-    const id = idParam(req.params.id, 'proposal');
-    const [proposal, audit, verification, measurements] = await Promise.all([
-      getProposal(dataSource, viewer, id),
-      proposalAudit(dataSource, viewer, id),
-      verificationStatus(dataSource, viewer, id),
-      allMeasurements(dataSource, viewer, id),
-    ]);
-    res.attachment(`longtail-proposal-${proposal.id}.json`).json({ exportedAt: new Date().toISOString(), notice: ESTIMATE_NOTICE, proposal, verification, measurements, audit });
+    const { fileName, document } = await proposalExport(dataSource, currentUser(req), idParam(req.params.id, 'proposal'));
+    res.attachment(fileName).json(document);
   });
   router.get('/:id/verification', async (req, res) => {
     res.json(await verificationStatus(dataSource, currentUser(req), idParam(req.params.id, 'proposal')));

@@ -1,6 +1,5 @@
 /** The append-only audit trail: one event per change, written in the change's own transaction. */
 import type { EntityManager } from 'typeorm';
-import type { AuditEvent as AuditEventView } from '../../shared/api/admin';
 import { AuditEventEntity, type AuditEvent } from '../entities/audit-event.entity';
 
 export interface AuditInput {
@@ -26,11 +25,7 @@ export async function recordEvent(manager: EntityManager, input: AuditInput): Pr
     proposalId: input.proposalId ?? null,
     beforeId: input.beforeId ?? null,
     afterId: input.afterId ?? null,
-    details: JSON.stringify(input.details ?? {}),
+    details: input.details ?? {},
   });
 }
 
-/** An event as the API shows it (details parsed). */
-export function auditView(event: AuditEvent): AuditEventView {
-  return { ...event, details: JSON.parse(event.details) as Record<string, unknown> };
-}

@@ -27,7 +27,7 @@ export async function designVerificationState(
   let nearest: DesignVerificationState | null = null;
   for (const job of jobs) {
     if (!job.result) continue;
-    const result = JSON.parse(job.result) as ProposalVerificationResult;
+    const result = job.result as ProposalVerificationResult;
     const entry = resultForDesign(result.options ?? [], design);
     if (!entry) continue;
     const state = freshness(entry.binding as DesignBinding | undefined, design.binding, design.basis === 'decision' ? 'decided' : 'recommended');

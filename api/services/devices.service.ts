@@ -41,7 +41,7 @@ export interface UploadedModelFile {
 const stateOf = (row: DeviceModel): DeviceModelState => row.retirement ?? 'library';
 
 function view(row: DeviceModel, names: Map<number, string>): DeviceModelView {
-  const parameters = JSON.parse(row.parameters) as Record<string, number>;
+  const parameters = row.parameters;
   const person = (id: number) => ({ id, displayName: names.get(id) ?? `user #${id}` });
   return {
     id: row.id,
@@ -139,7 +139,7 @@ function libraryRow(projectId: number, card: ModelCard, origin: { fileName: stri
     projectId,
     name: card.name,
     nameKey: card.name.toLowerCase(),
-    parameters: JSON.stringify(card.parameters),
+    parameters: card.parameters,
     cardText: card.text,
     sourceLine: card.line,
     ...origin,
@@ -345,7 +345,7 @@ export async function libraryCardFor(
 ): Promise<(CardOrigin & { device: CardDevice; state: DeviceModelState }) | null> {
   const row = await recordedRow(manager, projectId, reference);
   if (!row) return null;
-  return { name: row.name, fileName: row.fileName, checksum: row.checksum, text: row.cardText, device: cardDevice(JSON.parse(row.parameters) as Record<string, number>), state: stateOf(row) };
+  return { name: row.name, fileName: row.fileName, checksum: row.checksum, text: row.cardText, device: cardDevice(row.parameters), state: stateOf(row) };
 }
 
 /**

@@ -28,6 +28,7 @@ import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { safeFileName } from './devices.service';
 import { proposalFor } from './proposals.service';
+import { rankingOf } from './rankings.service';
 import type { PublicUser } from './users.service';
 import type { Page } from '../../shared/api/lists';
 import type { MeasurementListQuery } from '../../shared/api/measurements';
@@ -57,11 +58,11 @@ async function contextOf(manager: EntityManager | DataSource, proposal: Proposal
   const version = await manager.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
   const decisions = await manager.getRepository(DecisionEntity).find({ where: { proposalId: proposal.id }, order: { id: 'ASC' } });
   const job = await manager.getRepository(VerificationJobEntity).findOne({ where: { proposalId: proposal.id, kind: 'proposal' }, order: { id: 'DESC' } });
-  const spec = JSON.parse(version.payload) as { gain?: { output?: string }; cmrr?: { atFrequencyHz?: number } };
-  const verification = job?.state === 'finished' && job.result ? (JSON.parse(job.result) as ProposalVerificationResult) : null;
+  const spec = version.payload as { gain?: { output?: string }; cmrr?: { atFrequencyHz?: number } };
+  const verification = job?.state === 'finished' && job.result ? (job.result as ProposalVerificationResult) : null;
   return {
     proposal,
-    result: JSON.parse(proposal.result) as RecommendResult,
+    result: await rankingOf(manager, proposal),
     decisions,
     output: spec.gain?.output === 'single-ended' ? 'single-ended' : 'differential',
     specFrequencyHz: spec.cmrr?.atFrequencyHz ?? 0,
@@ -74,7 +75,7 @@ function referenceFor(context: ProposalContext, decisionId: number) {
   if (!decision) return null;
   return measurementReference({
     options: context.result.options,
-    decision: { kind: decision.kind, topology: decision.topology, evaluation: decision.evaluation ? JSON.parse(decision.evaluation) : null },
+    decision: { kind: decision.kind, topology: decision.topology, evaluation: decision.evaluation },
     output: context.output,
     verification: context.verification,
   });
@@ -112,8 +113,7 @@ async function uploaderNames(manager: EntityManager | DataSource, rows: Measurem
 async function views(manager: EntityManager | DataSource, rows: Measurement[], context: ProposalContext): Promise<MeasurementView[]> {
   const names = await uploaderNames(manager, rows);
   return rows.map((row) => {
-    const points = JSON.parse(row.points) as MeasuredPoint[];
-    return { ...summary(row, points, context, names), points };
+    return { ...summary(row, row.points, context, names), points: row.points };
   });
 }
 
@@ -131,7 +131,7 @@ export async function listMeasurements(dataSource: DataSource, viewer: Viewer, p
   const context = await contextOf(dataSource, proposal);
   const names = await uploaderNames(dataSource, rows);
   // The points are read here only for the comparison; the quota bounds them (MEASUREMENT_QUOTA.proposal.points).
-  const items = rows.map((row) => summary(row, JSON.parse(row.points) as MeasuredPoint[], context, names));
+  const items = rows.map((row) => summary(row, row.points, context, names));
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
 
@@ -291,7 +291,7 @@ export async function uploadMeasurement(
       sha256,
       sizeBytes: file.bytes.length,
       pointCount: read.points.length,
-      points: JSON.stringify(read.points),
+      points: read.points,
       note,
       uploadedById: actor.id,
       uploadedAt: new Date().toISOString(),

@@ -63,7 +63,7 @@ const quote = (text: string | null) => (text && text.length > MAX_QUOTE ? `${tex
 
 function decisionFacts(decision: Decision, recommended: string | null, decidedBy: string): DecisionFacts {
   let passes: boolean | undefined;
-  if (decision.kind === 'override' && decision.evaluation) passes = (JSON.parse(decision.evaluation) as { passes?: boolean }).passes;
+  if (decision.kind === 'override' && decision.evaluation) passes = decision.evaluation.passes;
   return { kind: decision.kind, topology: decision.topology, recommended, reason: quote(decision.reason), passes, decidedBy };
 }
 
@@ -220,7 +220,7 @@ export async function listReceivedMail(dataSource: DataSource): Promise<Mailbox>
       id: m.id,
       at: m.receivedAt,
       from: m.mailFrom,
-      to: JSON.parse(m.recipients) as string[],
+      to: m.recipients,
       subject: m.subject,
       text: m.textBody,
       outboxId: m.outboxId,

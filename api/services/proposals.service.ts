@@ -5,9 +5,8 @@
  * writes the record and its audit event in one transaction.
  */
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { ENGINE_VERSION, ESTIMATE_NOTICE, type RecommendResult } from '../../shared/engine/index';
+import { ENGINE_VERSION, type RecommendResult } from '../../shared/engine/index';
 import type { RecommendOption } from '../../shared/engine/recommend';
-import { spiceNetlist } from '../../shared/engine/netlist';
 import type { Design, RuleSet } from '../../shared/engine/types';
 import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
 import { mayIn, type Action } from '../../shared/workflow/roles';
@@ -21,21 +20,20 @@ import { validateDesign } from '../../shared/validate';
 import { lockRowForUpdate } from '../data-source';
 import { evaluateSpecDesign, rankSpec } from '../engine/engine-pool';
 import { AppError, invalid, notFound } from '../errors';
-import { auditView, recordEvent } from './audit.service';
-import { boundCurrentDesign, type BoundDecision } from '../verification/design-binding';
+import { recordEvent } from './audit.service';
+import { boundCurrentDesign } from '../verification/design-binding';
 import { designVerificationState } from './design-verification';
 import { currentDesignName, currentDesignSummary } from '../../shared/workflow/current-design';
 import { topologyName } from '../../shared/engine/topologies';
-import { libraryCardNetlistComment } from './devices.service';
 import { queueNotification } from './notifications.service';
 import { projectFor } from './projects.service';
 import { specMovedOn, supersedeOlderRankings } from './spec-lifecycle.service';
-import { checkedSpecDocument, latestVersion, specFor } from './specs.service';
+import { latestVersion, specFor, specVersionDocument, storedSpecDocument } from './specs.service';
+import { rankingOf, rankingText, storeRanking } from './rankings.service';
 import type { PublicUser } from './users.service';
 import type { AuditEvent } from '../../shared/api/admin';
-import type { Page } from '../../shared/api/lists';
 import type * as Wire from '../../shared/api/proposals';
-import type { DecisionInput, NetlistQuery, ReviewInput, WithdrawalInput } from '../../shared/api/proposals';
+import type { DecisionInput, ReviewInput, WithdrawalInput } from '../../shared/api/proposals';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
@@ -57,6 +55,12 @@ const SUMMARY_COLUMNS = {
   createdAt: true,
   updatedAt: true,
 } as const;
+
+/** A proposal as the API shows it: every column but the reference to its stored ranking (answered whole as `result`). */
+export function proposalRecord(proposal: Proposal): Omit<Proposal, 'rankingId'> {
+  const { rankingId: _ranking, ...record } = proposal;
+  return record;
+}
 
 /** Largest page of the proposal list. */
 export const MAX_PAGE_SIZE = 100;
@@ -91,13 +95,9 @@ function transition(proposal: Proposal, event: ProposalEvent): ProposalState {
   );
 }
 
-function decisionView(decision: Decision): Wire.Decision {
-  return { ...decision, design: JSON.parse(decision.design) as Design, evaluation: decision.evaluation ? (JSON.parse(decision.evaluation) as RecommendOption) : null };
-}
-
 /** The proposal's current design with its binding, from its stored rows (shared/workflow/current-design.ts). */
 export function currentDesignOf(proposal: Proposal, specVersion: number, result: RecommendResult, decisions: readonly Decision[]) {
-  return boundCurrentDesign(proposal, specVersion, result, decisions.map(decisionView) as BoundDecision[]);
+  return boundCurrentDesign(proposal, specVersion, result, decisions);
 }
 
 /** How many blocking checks a checked design fails. */
@@ -113,39 +113,46 @@ export async function getProposal(dataSource: DataSource, viewer: Viewer, propos
     dataSource.getRepository(DecisionEntity).find({ where: { proposalId }, order: { id: 'ASC' } }),
     dataSource.getRepository(ReviewEntity).find({ where: { proposalId }, order: { id: 'ASC' } }),
   ]);
-  const result = JSON.parse(proposal.result) as RecommendResult;
+  const result = await rankingOf(dataSource, proposal);
   return {
-    ...proposal,
+    ...proposalRecord(proposal),
     result,
-    specVersion: { id: version.id, version: version.version, title: version.title, note: version.note, payload: JSON.parse(version.payload) },
+    specVersion: { id: version.id, version: version.version, title: version.title, note: version.note, payload: version.payload },
     specMovedOn: await specMovedOn(dataSource, proposal, version),
-    decisions: decisions.map(decisionView),
+    decisions,
     reviews,
     allowedEvents: allowedEvents(proposal.status),
     currentDesign: currentDesignOf(proposal, version.version, result, decisions),
   };
 }
 
+/** A stored ranking: its row id and its JSON text. */
+interface StoredRanking {
+  id: number;
+  text: string;
+}
+
 /** Rankings being computed, by rule set and spec version: concurrent requests share one engine run. */
-const rankingsInFlight = new WeakMap<RuleSet, Map<number, Promise<string>>>();
+const rankingsInFlight = new WeakMap<RuleSet, Map<number, Promise<StoredRanking>>>();
 
 /**
- * The engine's output for a spec version, as stored JSON text: reused from an earlier proposal
- * of the same version, engine version and rule-set version (the engine is deterministic, so it
- * would be byte for byte the same), else computed now (once, however many ask at the same time).
+ * The engine's output for a spec version, stored once: reused from an earlier proposal of the
+ * same version, engine version and rule-set version (the engine is deterministic, so it would be
+ * byte for byte the same), else computed now (once, however many ask at the same time) and
+ * stored by its content (rankings.service.ts).
  */
-async function rankingTextFor(dataSource: DataSource, version: SpecVersion, ruleSet: RuleSet): Promise<string> {
+async function rankingFor(dataSource: DataSource, version: SpecVersion, ruleSet: RuleSet): Promise<StoredRanking> {
   const earlier = await dataSource.getRepository(ProposalEntity).findOne({
-    select: { id: true, result: true },
+    select: { id: true, rankingId: true },
     where: { specVersionId: version.id, engineVersion: ENGINE_VERSION, rulesetVersion: ruleSet.version },
     order: { id: 'ASC' },
   });
-  if (earlier) return earlier.result;
+  if (earlier) return { id: earlier.rankingId, text: await rankingText(dataSource, earlier.rankingId) };
   let inFlight = rankingsInFlight.get(ruleSet);
   if (!inFlight) rankingsInFlight.set(ruleSet, (inFlight = new Map()));
   let ranking = inFlight.get(version.id);
   if (!ranking) {
-    ranking = rankSpec(checkedSpecDocument(JSON.parse(version.payload)), ruleSet);
+    ranking = rankSpec(storedSpecDocument(version), ruleSet).then(async (text) => ({ id: await storeRanking(dataSource, text), text }));
     inFlight.set(version.id, ranking);
     void ranking.finally(() => inFlight.delete(version.id)).catch(() => undefined);
   }
@@ -156,9 +163,10 @@ async function rankingTextFor(dataSource: DataSource, version: SpecVersion, rule
 async function storeProposal(dataSource: DataSource, actor: Viewer, specId: number, ruleSet: RuleSet) {
   const spec = await specFor(dataSource, actor, specId, 'proposals:create');
   const version = await latestVersion(dataSource, spec);
-  const resultText = await rankingTextFor(dataSource, version, ruleSet);
-  const result = JSON.parse(resultText) as RecommendResult;
-  const recommended = result.recommended;
+  const ranking = await rankingFor(dataSource, version, ruleSet);
+  const resultText = ranking.text;
+  const parsed = JSON.parse(resultText) as RecommendResult;
+  const recommended = parsed.recommended;
   const proposal = await dataSource.transaction(async (manager) => {
     const now = new Date().toISOString();
     const saved = await manager.getRepository(ProposalEntity).save({
@@ -167,7 +175,7 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
       specVersionId: version.id,
       engineVersion: ENGINE_VERSION,
       rulesetVersion: ruleSet.version,
-      result: resultText,
+      rankingId: ranking.id,
       recommendedTopology: recommended,
       status: 'ranked' as ProposalState,
       supersededById: null,
@@ -192,23 +200,22 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
     await supersedeOlderRankings(manager, actor.id, saved, version);
     return saved;
   });
-  const { result: _stored, ...summary } = proposal;
   const envelope = {
-    ...summary,
-    specVersion: { id: version.id, version: version.version, title: version.title, note: version.note, payload: JSON.parse(version.payload) as Wire.RankedSpecVersion['payload'] },
+    ...proposalRecord(proposal),
+    specVersion: { id: version.id, version: version.version, title: version.title, note: version.note, payload: version.payload },
     specMovedOn: null,
     decisions: [],
     reviews: [],
     allowedEvents: allowedEvents('ranked'),
-    currentDesign: currentDesignOf(proposal, version.version, result, []),
+    currentDesign: currentDesignOf(proposal, version.version, parsed, []),
   };
-  return { envelope, resultText };
+  return { envelope, resultText, result: parsed };
 }
 
 /** Ranks the spec's latest version with the engine and stores the proposal; returns it whole. */
 export async function createProposal(dataSource: DataSource, actor: Viewer, specId: number, ruleSet: RuleSet): Promise<Wire.Proposal> {
-  const { envelope, resultText } = await storeProposal(dataSource, actor, specId, ruleSet);
-  return { ...envelope, result: JSON.parse(resultText) as RecommendResult };
+  const { envelope, result } = await storeProposal(dataSource, actor, specId, ruleSet);
+  return { ...envelope, result };
 }
 
 /**
@@ -220,17 +227,39 @@ export async function createProposalJson(dataSource: DataSource, actor: Viewer, 
   return `${JSON.stringify(envelope).slice(0, -1)},"result":${resultText}}`;
 }
 
-/** One page of a project's proposals, newest first, without the engine output, with each one's spec title and version number. */
-export async function listProposals(dataSource: DataSource, viewer: Viewer, projectId: number, query: Wire.ProposalListQuery): Promise<Page<Wire.ProposalSummary>> {
+/** The cursor after a listed row: its created-at and id, the list's order. */
+const cursorAfter = (row: Pick<Proposal, 'createdAt' | 'id'>) => `${row.createdAt}~${row.id}`;
+
+/**
+ * One page of a project's proposals, newest first (created-at, then id), without the engine
+ * output, with each one's spec title and version number, the total and the cursor of the next
+ * page (null when the page is not full). The page's ids are read from the list's index alone
+ * (keyset after a cursor; by number, the skipped entries are index entries, never rows), then
+ * its rows.
+ */
+export async function listProposals(dataSource: DataSource, viewer: Viewer, projectId: number, query: Wire.ProposalListQuery): Promise<Wire.ProposalPage> {
   await projectFor(dataSource, viewer, projectId);
   const where = { projectId, ...(query.status ? { status: query.status } : {}) };
   const repository = dataSource.getRepository(ProposalEntity);
-  // A plain count and a plain page: findAndCount with a column selection counts DISTINCT over the
-  // selected columns, which walks every stored result (about a second at 10,000 proposals).
-  const [total, rows] = await Promise.all([
-    repository.countBy(where),
-    repository.find({ select: SUMMARY_COLUMNS, where, order: { id: 'DESC' }, skip: (query.page - 1) * query.pageSize, take: query.pageSize }),
-  ]);
+  const page = repository
+    .createQueryBuilder('p')
+    .select('p.id', 'id')
+    .where('p.projectId = :projectId', { projectId })
+    .orderBy('p.createdAt', 'DESC')
+    .addOrderBy('p.id', 'DESC')
+    .limit(query.pageSize);
+  if (query.status) page.andWhere('p.status = :status', { status: query.status });
+  if (query.cursor) {
+    const [at, id] = query.cursor.split('~');
+    // A row-value comparison (SQLite and PostgreSQL alike): a range of the list's index, where the
+    // equivalent OR of two comparisons walks every entry after the first.
+    page.andWhere('(p.createdAt, p.id) < (:at, :id)', { at, id: Number(id) });
+  } else page.offset((query.page - 1) * query.pageSize);
+  // A plain count: findAndCount with a column selection counts DISTINCT over the selected columns.
+  const [total, ids] = await Promise.all([repository.countBy(where), page.getRawMany<{ id: number }>().then((r) => r.map((row) => Number(row.id)))]);
+  const found = ids.length ? await repository.find({ select: SUMMARY_COLUMNS, where: { id: In(ids) } }) : [];
+  const byRowId = new Map(found.map((r) => [r.id, r]));
+  const rows = ids.map((id) => byRowId.get(id)!);
   const versionIds = [...new Set(rows.map((r) => r.specVersionId))];
   const versions = versionIds.length
     ? await dataSource.getRepository(SpecVersionEntity).find({ select: { id: true, version: true, title: true }, where: { id: In(versionIds) } })
@@ -250,18 +279,19 @@ export async function listProposals(dataSource: DataSource, viewer: Viewer, proj
     specTitle: byId.get(r.specVersionId)?.title ?? null,
     currentDesign: currentDesignSummary(r.recommendedTopology, latestDecision.get(r.id)),
   }));
-  return { items, total, page: query.page, pageSize: query.pageSize };
+  const last = rows.at(-1);
+  return { items, total, page: query.cursor ? null : query.page, pageSize: query.pageSize, nextCursor: last && rows.length === query.pageSize ? cursorAfter(last) : null };
 }
 
 /** What a decision settles on: the option's topology and design, and for an override its evaluation. */
 async function settledDesign(proposal: Proposal, input: DecisionInput, ruleSet: RuleSet, dataSource: DataSource) {
-  const result = JSON.parse(proposal.result) as RecommendResult;
   if (input.kind === 'override') {
     if (!input.design) throw invalid([{ path: '/design', message: 'is required for an override' }]);
-    const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
-    const evaluation = await evaluateSpecDesign(checkedSpecDocument(JSON.parse(version.payload)), input.design, ruleSet);
+    const { spec } = await specVersionDocument(dataSource, proposal.specVersionId);
+    const evaluation = await evaluateSpecDesign(spec, input.design, ruleSet);
     return { topology: input.design.tail.topology, design: input.design, evaluation, engineVersion: ENGINE_VERSION, rulesetVersion: ruleSet.version };
   }
+  const result = await rankingOf(dataSource, proposal);
   const topology = input.kind === 'accept' ? result.recommended : input.topology;
   if (input.kind === 'accept' && !topology) throw new AppError('nothing-recommended', 409, 'No option passes, so there is no recommendation to accept: choose an option or override.');
   if (!topology) throw invalid([{ path: '/topology', message: 'is required when choosing an option' }]);
@@ -289,8 +319,8 @@ function checkDecisionFields(input: DecisionInput): void {
  */
 export async function evaluateOverride(dataSource: DataSource, actor: Viewer, proposalId: number, design: Design, ruleSet: RuleSet): Promise<Wire.OptionEvaluation> {
   const proposal = await proposalFor(dataSource, actor, proposalId, 'proposals:decide');
-  const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
-  return evaluateSpecDesign(checkedSpecDocument(JSON.parse(version.payload)), design, ruleSet);
+  const { spec } = await specVersionDocument(dataSource, proposal.specVersionId);
+  return evaluateSpecDesign(spec, design, ruleSet);
 }
 
 /** A designer's decision: moves a ranked or returned proposal to decided. */
@@ -310,8 +340,8 @@ export async function decide(dataSource: DataSource, actor: Viewer, proposalId: 
       proposalId,
       kind: input.kind,
       topology: settled.topology,
-      design: JSON.stringify(settled.design),
-      evaluation: settled.evaluation ? JSON.stringify(settled.evaluation) : null,
+      design: settled.design,
+      evaluation: settled.evaluation,
       reason: input.reason?.trim() || null,
       decidedById: actor.id,
       createdAt: new Date().toISOString(),
@@ -364,7 +394,7 @@ export async function review(dataSource: DataSource, actor: Viewer, proposalId: 
     let staleVerificationAccepted = false;
     if (input.verdict === 'approve') {
       const version = await manager.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true }, where: { id: proposal.specVersionId } });
-      const current = currentDesignOf(proposal, version.version, JSON.parse(proposal.result) as RecommendResult, decisions);
+      const current = currentDesignOf(proposal, version.version, await rankingOf(manager, proposal), decisions);
       const shortfalls = blockingShortfalls(current?.option ?? null);
       if (shortfalls > 0 && !comment) {
         throw invalid([{ path: '/comment', message: `is required to sign off a design short on ${shortfalls} blocking check${shortfalls === 1 ? '' : 's'}: say why it is accepted anyway` }]);
@@ -453,47 +483,8 @@ export async function withdraw(dataSource: DataSource, actor: Viewer, proposalId
   return getProposal(dataSource, actor, proposalId);
 }
 
-/**
- * A SPICE netlist (ngspice-ready .cir) of one ranked option, or of the latest decision's design
- * (an override included), with the differential or common-mode AC drive, from the product's one
- * netlist writer. The header says where it comes from and that the figures are estimates.
- */
-export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, proposalId: number, query: NetlistQuery) {
-  const proposal = await getProposal(dataSource, viewer, proposalId);
-  let design: Design | null | undefined;
-  let label: string;
-  if (query.source === 'decision') {
-    // The decided design exactly as verified and signed off (shared/workflow/current-design.ts).
-    const current = proposal.currentDesign;
-    if (!current || current.basis !== 'decision') throw invalid([{ path: '?source', message: 'this proposal has no decision yet' }]);
-    design = current.design;
-    if (!design) throw invalid([{ path: '?source', message: 'the decided design could not be sized' }]);
-    label = `${proposal.status === 'approved' ? 'signed-off' : 'decided'} design, ${currentDesignName(current)} (decision #${current.decisionId}, ${current.decisionKind})`;
-  } else {
-    const topology = query.topology ?? proposal.result.recommended ?? proposal.result.options[0]?.topology;
-    design = proposal.result.options.find((o) => o.topology === topology)?.design;
-    if (!design) throw invalid([{ path: '?topology', message: `is not a sized option of this proposal: ${String(topology)}` }]);
-    label = `ranked option ${topology}`;
-  }
-  const libraryCard = await libraryCardNetlistComment(dataSource, proposal.projectId, proposal.specVersion.payload, design.device);
-  // User text (the spec's title, the card's name and text) goes in as header comments only: the writer keeps each on comment lines.
-  const header = [
-    `Exported by Longtail: proposal #${proposal.id}, ${label}`,
-    `spec "${proposal.specVersion.title}" version ${proposal.specVersion.version}, engine ${proposal.engineVersion}, rule set ${proposal.rulesetVersion.slice(0, 12)}`,
-    `at ${design.temperatureC ?? 27} °C, input common mode ${design.inputCommonModeV ?? 0} V (nominal conditions)`,
-    ESTIMATE_NOTICE,
-    ...libraryCard,
-  ];
-  const text = spiceNetlist(design, { analysis: query.drive === 'differential' ? 'ac-differential' : 'ac-common-mode', ...NETLIST_SWEEP }, header);
-  return { fileName: `longtail-${proposal.id}-${design.tail.topology}-${query.drive}.cir`, text };
-}
-
-/** The AC sweep written into exported netlists: 1 Hz to 10 MHz, 20 points a decade. */
-const NETLIST_SWEEP = { startHz: 1, stopHz: 1e7, pointsPerDecade: 20 };
-
 /** The proposal's audit trail, oldest first. */
 export async function proposalAudit(dataSource: DataSource, viewer: Viewer, proposalId: number): Promise<AuditEvent[]> {
   await proposalFor(dataSource, viewer, proposalId);
-  const events = await dataSource.getRepository(AuditEventEntity).find({ where: { proposalId }, order: { id: 'ASC' } });
-  return events.map(auditView);
+  return dataSource.getRepository(AuditEventEntity).find({ where: { proposalId }, order: { id: 'ASC' } });
 }

@@ -10,7 +10,6 @@
  * that row (which of them was meant is not for the server to guess).
  */
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import type { RecommendResult } from '../../shared/engine/recommend';
 import type { Spec as SpecDocument } from '../../shared/engine/types';
 import { batchResultsCsv } from '../../shared/export/batch-csv';
 import type { ImportAction, ImportReport, ImportRowReport } from '../../shared/import/import-report';
@@ -25,6 +24,7 @@ import { invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
 import { insertSpec, insertSpecVersion, latestVersion } from './specs.service';
+import { rankingsOf } from './rankings.service';
 import type { PublicUser } from './users.service';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
@@ -117,7 +117,7 @@ async function landRow(manager: EntityManager, actor: Viewer, projectId: number,
     match = await manager.getRepository(SpecEntity).findOneByOrFail({ id: match.id });
   }
   const previous = await latestVersion(manager, match);
-  if (diffJson(JSON.parse(previous.payload), document).length === 0) return { ...base, action: 'unchanged', specId: match.id, version: match.latestVersion };
+  if (diffJson(previous.payload, document).length === 0) return { ...base, action: 'unchanged', specId: match.id, version: match.latestVersion };
   if (dryRun) return { ...base, action: 'new-version', specId: match.id, version: match.latestVersion + 1 };
   const { spec } = await insertSpecVersion(manager, actor, match, previous, document.title, document, source);
   return { ...base, action: 'new-version', specId: match.id, version: spec.latestVersion };
@@ -134,7 +134,7 @@ export async function batchProposalsCsv(dataSource: DataSource, viewer: Viewer, 
   await projectFor(dataSource, viewer, projectId);
   const unique = [...new Set(ids)];
   const proposals = await dataSource.getRepository(ProposalEntity).find({
-    select: { id: true, specVersionId: true, status: true, result: true, projectId: true },
+    select: { id: true, specVersionId: true, status: true, rankingId: true, projectId: true },
     where: { id: In(unique), projectId },
   });
   if (proposals.length !== unique.length) throw notFound('proposal');
@@ -144,11 +144,12 @@ export async function batchProposalsCsv(dataSource: DataSource, viewer: Viewer, 
   });
   const versionById = new Map(versions.map((v) => [v.id, v]));
   const proposalById = new Map(proposals.map((p) => [p.id, p]));
+  const results = await rankingsOf(dataSource, proposals);
   return batchResultsCsv(
     unique.map((id) => {
       const proposal = proposalById.get(id)!;
       const version = versionById.get(proposal.specVersionId)!;
-      return { specTitle: version.title, specVersion: version.version, proposalId: id, status: proposal.status, result: JSON.parse(proposal.result) as RecommendResult };
+      return { specTitle: version.title, specVersion: version.version, proposalId: id, status: proposal.status, result: results.get(proposal.rankingId)! };
     }),
   );
 }

@@ -61,5 +61,5 @@ export async function specMovedOn(dataSource: DataSource | EntityManager, propos
   const spec = await dataSource.getRepository(SpecEntity).findOneOrFail({ select: { id: true, latestVersion: true }, where: { id: proposal.specId } });
   if (spec.latestVersion <= version.version) return null;
   const latest = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ specId: spec.id, version: spec.latestVersion });
-  return { latestVersion: latest.version, latestTitle: latest.title, changes: diffJson(JSON.parse(version.payload), JSON.parse(latest.payload)), latestNote: latest.note, latestPayload: JSON.parse(latest.payload) };
+  return { latestVersion: latest.version, latestTitle: latest.title, changes: diffJson(version.payload, latest.payload), latestNote: latest.note, latestPayload: latest.payload };
 }

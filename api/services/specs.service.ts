@@ -30,8 +30,19 @@ export function checkedSpecDocument(payload: unknown): SpecDocument {
   return result.value;
 }
 
-export function specVersionView(version: SpecVersion): SpecVersionView {
-  return { ...version, payload: JSON.parse(version.payload) as SpecDocument };
+/**
+ * The spec document of a stored version, ready for the engine: the one read of a stored payload
+ * for analysis, checked against the current schema (defaults applied), so a version written
+ * under an older schema is refused with the schema's own errors rather than mis-analysed.
+ */
+export function storedSpecDocument(version: Pick<SpecVersion, 'payload'>): SpecDocument {
+  return checkedSpecDocument(version.payload);
+}
+
+/** A stored spec version with its document ready for the engine (storedSpecDocument). */
+export async function specVersionDocument(manager: EntityManager | DataSource, specVersionId: number): Promise<{ version: SpecVersion; spec: SpecDocument }> {
+  const version = await manager.getRepository(SpecVersionEntity).findOneByOrFail({ id: specVersionId });
+  return { version, spec: storedSpecDocument(version) };
 }
 
 /**
@@ -63,7 +74,7 @@ export async function listSpecs(dataSource: DataSource, viewer: Viewer, projectI
 
 export async function getSpec(dataSource: DataSource, viewer: Viewer, specId: number): Promise<SpecWithLatest> {
   const spec = await specFor(dataSource, viewer, specId);
-  return { ...spec, latest: specVersionView(await latestVersion(dataSource, spec)) };
+  return { ...spec, latest: await latestVersion(dataSource, spec) };
 }
 
 export async function createSpec(dataSource: DataSource, actor: Viewer, projectId: number, input: SpecInput): Promise<SpecWithLatest> {
@@ -71,7 +82,7 @@ export async function createSpec(dataSource: DataSource, actor: Viewer, projectI
   return dataSource.transaction(async (manager) => {
     await projectFor(manager, actor, projectId, 'specs:write');
     const { spec, version } = await insertSpec(manager, actor, projectId, input.title.trim(), document, {}, noteOf(input));
-    return { ...spec, latest: specVersionView(version) };
+    return { ...spec, latest: version };
   });
 }
 
@@ -82,7 +93,7 @@ export async function createSpec(dataSource: DataSource, actor: Viewer, projectI
 export async function insertSpec(manager: EntityManager, actor: Viewer, projectId: number, title: string, document: SpecDocument, details: Record<string, unknown> = {}, note: string | null = null) {
   const now = new Date().toISOString();
   const spec = await manager.getRepository(SpecEntity).save({ projectId, title, latestVersion: 1, createdById: actor.id, createdAt: now, updatedAt: now });
-  const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: 1, title: spec.title, payload: JSON.stringify(document), note, createdById: actor.id, createdAt: now });
+  const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: 1, title: spec.title, payload: document, note, createdById: actor.id, createdAt: now });
   await recordEvent(manager, { actorId: actor.id, action: 'spec.created', entityType: 'spec', entityId: spec.id, projectId, afterId: version.id, details: { title: spec.title, version: 1, ...details } });
   return { spec, version };
 }
@@ -94,7 +105,7 @@ export async function insertSpec(manager: EntityManager, actor: Viewer, projectI
 export async function insertSpecVersion(manager: EntityManager, actor: Viewer, spec: Spec, previous: SpecVersion, title: string, document: SpecDocument, details: Record<string, unknown> = {}, note: string | null = null) {
   const now = new Date().toISOString();
   const number = spec.latestVersion + 1;
-  const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: number, title, payload: JSON.stringify(document), note, createdById: actor.id, createdAt: now });
+  const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: number, title, payload: document, note, createdById: actor.id, createdAt: now });
   await manager.getRepository(SpecEntity).update({ id: spec.id }, { latestVersion: number, title: version.title, updatedAt: now });
   await recordEvent(manager, {
     actorId: actor.id,
@@ -104,7 +115,7 @@ export async function insertSpecVersion(manager: EntityManager, actor: Viewer, s
     projectId: spec.projectId,
     beforeId: previous.id,
     afterId: version.id,
-    details: { version: number, changes: diffJson(JSON.parse(previous.payload), document).length, ...(note ? { note } : {}), ...details },
+    details: { version: number, changes: diffJson(previous.payload, document).length, ...(note ? { note } : {}), ...details },
   });
   return { spec: { ...spec, title: version.title, latestVersion: number, updatedAt: now }, version };
 }
@@ -117,9 +128,9 @@ export async function updateSpec(dataSource: DataSource, actor: Viewer, specId: 
     const spec = await specFor(manager, actor, specId, 'specs:write');
     const previous = await latestVersion(manager, spec);
     // Nothing to record when the document (defaults applied, title included) is what the latest version holds.
-    if (sameDocument(JSON.parse(previous.payload), document)) return { ...spec, latest: specVersionView(previous), unchanged: true };
+    if (sameDocument(previous.payload, document)) return { ...spec, latest: previous, unchanged: true };
     const written = await insertSpecVersion(manager, actor, spec, previous, input.title.trim(), document, {}, noteOf(input));
-    return { ...written.spec, latest: specVersionView(written.version), unchanged: false };
+    return { ...written.spec, latest: written.version, unchanged: false };
   });
 }
 
@@ -131,7 +142,7 @@ export function sameDocument(a: unknown, b: unknown): boolean {
 export async function listVersions(dataSource: DataSource, viewer: Viewer, specId: number): Promise<SpecVersionView[]> {
   await specFor(dataSource, viewer, specId);
   const versions = await dataSource.getRepository(SpecVersionEntity).find({ where: { specId }, order: { version: 'ASC' } });
-  return versions.map(specVersionView);
+  return versions;
 }
 
 /** Field-by-field differences between two versions of a spec. */
@@ -140,5 +151,5 @@ export async function diffVersions(dataSource: DataSource, viewer: Viewer, specI
   const repository = dataSource.getRepository(SpecVersionEntity);
   const [a, b] = await Promise.all([repository.findOneBy({ specId, version: from }), repository.findOneBy({ specId, version: to })]);
   if (!a || !b) throw notFound('spec-version');
-  return { from, to, changes: diffJson(JSON.parse(a.payload), JSON.parse(b.payload)) };
+  return { from, to, changes: diffJson(a.payload, b.payload) };
 }

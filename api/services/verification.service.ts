@@ -10,7 +10,7 @@ import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { lockRowForUpdate } from '../data-source';
 import { ProposalEntity } from '../entities/proposal.entity';
 import { AppError, conflict, forbidden, invalid, notFound } from '../errors';
-import type { RecommendOption, RecommendResult } from '../../shared/engine/recommend';
+import type { RecommendOption } from '../../shared/engine/recommend';
 import {
   ACTIVE_VERIFICATION_STATES,
   MAX_ACTIVE_JOBS_PER_PERSON,
@@ -21,7 +21,8 @@ import {
 } from '../../shared/verification/types';
 import { mayIn, type ProjectRole } from '../../shared/workflow/roles';
 import { ProjectMemberEntity } from '../entities/project-member.entity';
-import { checkedSpecDocument } from './specs.service';
+import { specVersionDocument } from './specs.service';
+import { rankingOf } from './rankings.service';
 import { currentDesignOf, proposalFor } from './proposals.service';
 import { designVerificationState } from './design-verification';
 import { DecisionEntity } from '../entities/decision.entity';
@@ -54,7 +55,7 @@ async function jobViews(dataSource: DataSource, jobs: VerificationJob[]): Promis
     createdAt: job.createdAt,
     startedAt: job.startedAt,
     finishedAt: job.finishedAt,
-    result: job.result ? JSON.parse(job.result) : null,
+    result: job.result,
   }));
 }
 
@@ -133,9 +134,8 @@ export function requestVerification(dataSource: DataSource, actor: Viewer, propo
  */
 export async function requestMonteCarlo(dataSource: DataSource, actor: Viewer, proposalId: number, input: MonteCarloInput) {
   const proposal = await proposalFor(dataSource, actor, proposalId, 'proposals:verify');
-  const version = await dataSource.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
-  const spec = checkedSpecDocument(JSON.parse(version.payload));
-  const result = JSON.parse(proposal.result) as RecommendResult;
+  const { spec } = await specVersionDocument(dataSource, proposal.specVersionId);
+  const result = await rankingOf(dataSource, proposal);
   const source = input.source ?? 'option';
   let option: RecommendOption | undefined;
   let topology: string;
@@ -146,7 +146,7 @@ export async function requestMonteCarlo(dataSource: DataSource, actor: Viewer, p
       throw invalid([{ path: '/topology', message: `is ${input.topology}, but the decided design is a ${decision.topology}; leave it out for the decided design` }]);
     }
     topology = decision.topology;
-    option = decision.kind === 'override' ? (decision.evaluation ? (JSON.parse(decision.evaluation) as RecommendOption) : undefined) : result.options.find((o) => o.topology === decision.topology);
+    option = decision.kind === 'override' ? (decision.evaluation ?? undefined) : result.options.find((o) => o.topology === decision.topology);
   } else {
     if (input.topology === undefined) throw invalid([{ path: '/topology', message: 'is required for a ranked option' }]);
     topology = input.topology;
@@ -165,14 +165,16 @@ export async function verificationStatus(dataSource: DataSource, viewer: Viewer,
   const proposal = await proposalFor(dataSource, viewer, proposalId);
   const repository = dataSource.getRepository(VerificationJobEntity);
   const latest = await repository.findOne({ where: { proposalId, kind: 'proposal' }, order: { id: 'DESC' } });
-  const monteCarlo = await repository.find({ where: { proposalId, kind: 'monte-carlo' }, order: { id: 'DESC' } });
-  const latestPerOption = monteCarlo.filter((job, i) => monteCarlo.findIndex((j) => j.topology === job.topology && j.source === job.source) === i);
+  // Every Monte Carlo job's key, then only the latest of each option read whole (results hold histograms).
+  const keys = await repository.find({ select: { id: true, topology: true, source: true }, where: { proposalId, kind: 'monte-carlo' }, order: { id: 'DESC' } });
+  const latestIds = keys.filter((job, i) => keys.findIndex((j) => j.topology === job.topology && j.source === job.source) === i).map((job) => job.id);
+  const latestPerOption = latestIds.length ? await repository.find({ where: { id: In(latestIds) }, order: { id: 'DESC' } }) : [];
   const views = await jobViews(dataSource, latest ? [latest, ...latestPerOption] : latestPerOption);
   const [version, decisions] = await Promise.all([
     dataSource.getRepository(SpecVersionEntity).findOneOrFail({ select: { id: true, version: true }, where: { id: proposal.specVersionId } }),
     dataSource.getRepository(DecisionEntity).find({ where: { proposalId }, order: { id: 'ASC' } }),
   ]);
-  const current = currentDesignOf(proposal, version.version, JSON.parse(proposal.result) as RecommendResult, decisions);
+  const current = currentDesignOf(proposal, version.version, await rankingOf(dataSource, proposal), decisions);
   const currentDesign = await designVerificationState(dataSource, proposalId, current);
   return latest ? { verification: views[0], monteCarlo: views.slice(1), currentDesign } : { verification: null, monteCarlo: views, currentDesign };
 }

@@ -88,7 +88,15 @@ const PAGE_FIELDS = {
  * against their shapes with the defaulted fields made optional (Defaulted).
  */
 
-export const PROPOSAL_LIST_QUERY = wire<Defaulted<ProposalListQuery, keyof PageQuery>>()({ status: { enum: [...PROPOSAL_STATES] }, ...PAGE_FIELDS }, []);
+/**
+ * GET /api/projects/:id/proposals: paged by number, or from `cursor` (the `nextCursor` of the page
+ * before: the last row's created-at and id, `2026-12-04T09:00:00.000Z~123`), which reads no row
+ * before it however deep the page; with a cursor the page number is not used (answered as null).
+ */
+export const PROPOSAL_LIST_QUERY = wire<Defaulted<ProposalListQuery, keyof PageQuery>>()(
+  { status: { enum: [...PROPOSAL_STATES] }, ...PAGE_FIELDS, cursor: { type: 'string', maxLength: 48, pattern: '^\\d{4}-\\d{2}-\\d{2}T\\d{2}:\\d{2}:\\d{2}\\.\\d{3}Z~[1-9]\\d{0,14}$' } },
+  [],
+);
 
 /** GET /api/proposals/:id/measurements: paged like the proposal list. */
 export const MEASUREMENT_LIST_QUERY = wire<Partial<MeasurementListQuery>>()({ ...PAGE_FIELDS }, []);

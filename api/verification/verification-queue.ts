@@ -34,13 +34,13 @@
 import { randomUUID } from 'node:crypto';
 import type { DataSource, EntityManager, Repository, SelectQueryBuilder } from 'typeorm';
 import { isPostgres } from '../data-source';
-import { checkedSpecDocument } from '../services/specs.service';
+import { specVersionDocument } from '../services/specs.service';
+import { rankingOf } from '../services/rankings.service';
 import { DecisionEntity } from '../entities/decision.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
-import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { VerificationJobEntity, type VerificationJob } from '../entities/verification-job.entity';
 import type { RecommendOption, RecommendResult } from '../../shared/engine/recommend';
-import type { Design, Spec } from '../../shared/engine/types';
+import type { Spec } from '../../shared/engine/types';
 import type { DesignBinding } from '../../shared/verification/binding';
 import { designBinding } from './design-binding';
 import { topologyName } from '../../shared/engine/topologies';
@@ -381,15 +381,15 @@ export class VerificationQueue {
       .getRepository(VerificationJobEntity)
       .update(
         { id: job.id, claimToken: this.claimToken, state: 'simulating' },
-        { state: 'finished', done: total, total, step: null, result: JSON.stringify(result), finishedAt: now(), heartbeatAt: now() },
+        { state: 'finished', done: total, total, step: null, result, finishedAt: now(), heartbeatAt: now() },
       );
   }
 }
 
 async function loadProposal(manager: DataSource | EntityManager, proposalId: number): Promise<{ proposal: Proposal; spec: Spec; result: RecommendResult; specVersion: number }> {
   const proposal = await manager.getRepository(ProposalEntity).findOneByOrFail({ id: proposalId });
-  const version = await manager.getRepository(SpecVersionEntity).findOneByOrFail({ id: proposal.specVersionId });
-  return { proposal, spec: checkedSpecDocument(JSON.parse(version.payload)), result: JSON.parse(proposal.result) as RecommendResult, specVersion: version.version };
+  const { version, spec } = await specVersionDocument(manager, proposal.specVersionId);
+  return { proposal, spec, result: await rankingOf(manager, proposal), specVersion: version.version };
 }
 
 interface SimulationTarget {
@@ -417,8 +417,8 @@ async function decidedTarget(dataSource: DataSource, proposal: Proposal, result:
   if (!decision) return null;
   if (decision.kind !== 'override') return rankedTarget(proposal, result, specVersion, decision.topology);
   if (!decision.evaluation) return null;
-  const option = JSON.parse(decision.evaluation) as RecommendOption;
-  const design = option.design ?? (JSON.parse(decision.design) as Design);
+  const option = decision.evaluation;
+  const design = option.design ?? decision.design;
   const binding = designBinding({
     topology: decision.topology,
     design,

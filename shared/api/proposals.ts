@@ -8,7 +8,7 @@ import type { JsonChange } from '../json-diff';
 import type { DesignBinding } from '../verification/binding';
 import type { CurrentDesign, CurrentDesignSummary, DecisionKind } from '../workflow/current-design';
 import type { ProposalEvent, ProposalState } from '../workflow/proposal-states';
-import type { PageQuery } from './lists';
+import type { Page, PageQuery } from './lists';
 
 export type { DecisionKind };
 export type Verdict = 'approve' | 'return';
@@ -110,9 +110,18 @@ export interface Proposal extends ProposalSummary {
   currentDesign?: BoundCurrentDesign | null;
 }
 
-/** GET /api/projects/:id/proposals?status=&page=&pageSize=. */
+/** GET /api/projects/:id/proposals?status=&page=&pageSize= or ?status=&cursor=&pageSize=. */
 export interface ProposalListQuery extends PageQuery {
   status?: ProposalState;
+  /** `<createdAt>~<id>`: the `nextCursor` of the page before; the page number is then not used. */
+  cursor?: string;
+}
+
+/** A page of the proposal list: numbered, or after a cursor (`page` null). */
+export interface ProposalPage extends Omit<Page<ProposalSummary>, 'page'> {
+  page: number | null;
+  /** The cursor of the next page; null when this page is not full. */
+  nextCursor: string | null;
 }
 
 /** POST /api/proposals/:id/decision. */

@@ -250,7 +250,7 @@ describe('when the only verification was stored before results recorded what the
       total: 1,
       step: null,
       message: null,
-      result: JSON.stringify(old),
+      result: old as ProposalVerificationResult,
       requestedById: api.users.reviewer.id,
       claimToken: null,
       heartbeatAt: null,

@@ -67,7 +67,7 @@ describe('PUT /api/projects/:id/devices/:deviceId replaces a card', () => {
     expect(after.audit_event - before.audit_event).toBe(1);
     const event = await api.dataSource.getRepository(AuditEventEntity).findOneByOrFail({ action: 'device-model.replaced' });
     expect(event).toMatchObject({ actorId: api.users.designer.id, projectId, beforeId: k200.id, afterId: item.id });
-    expect(JSON.parse(event.details)).toMatchObject({ name: 'FH-K200', previousChecksum: sha256(FIRST_FILE), checksum: sha256(REPLACEMENT_FILE) });
+    expect(event.details).toMatchObject({ name: 'FH-K200', previousChecksum: sha256(FIRST_FILE), checksum: sha256(REPLACEMENT_FILE) });
 
     const listed = await reviewer.get(url(projectId)).expect(200);
     expect(listed.body.items.map((d: { name: string; id: number }) => [d.name, d.id])).toEqual([

@@ -192,7 +192,7 @@ describe('the totals of one project', () => {
       .where('p.projectId = :projectId', { projectId })
       .getCount();
     const { id: _id, ...fields } = template;
-    for (let i = existing; i < 200; i += 1) await repository.insert({ ...fields, proposalId: crowded, pointCount: 2, points: '[{"frequencyHz":1,"value":80},{"frequencyHz":2,"value":80}]', sizeBytes: 40 });
+    for (let i = existing; i < 200; i += 1) await repository.insert({ ...fields, proposalId: crowded, pointCount: 2, points: [{ frequencyHz: 1, value: 80 }, { frequencyHz: 2, value: 80 }], sizeBytes: 40 });
     const fresh = await decidedProposal();
 
     // Act

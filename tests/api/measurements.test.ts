@@ -119,11 +119,11 @@ describe('POST /api/proposals/:id/measurements with a good file', () => {
     expect(readFileSync(join(uploadsDir, sha256(GOOD_FILE)), 'utf8')).toBe(GOOD_FILE);
     expect(await counts()).toEqual({ measurements: before.measurements + 1, events: before.events + 1, files: before.files + 1 });
     const row = await api.dataSource.getRepository(MeasurementEntity).findOneByOrFail({ id: body.id });
-    expect(JSON.parse(row.points)).toEqual(body.points);
+    expect(row.points).toEqual(body.points);
     const event = await api.dataSource.getRepository(AuditEventEntity).findOneByOrFail({ action: 'measurement.uploaded', entityId: body.id });
     expect(event.proposalId).toBe(decidedId);
     expect(event.actorId).toBe(api.users.designer.id);
-    expect(JSON.parse(event.details)).toMatchObject({ kind: 'cmrr', fileName: 'run 1.csv', sha256: sha256(GOOD_FILE), points: 4 });
+    expect(event.details).toMatchObject({ kind: 'cmrr', fileName: 'run 1.csv', sha256: sha256(GOOD_FILE), points: 4 });
   });
 
   test('when the same content is uploaded again (by the reviewer), then a second measurement and still one stored file', async () => {

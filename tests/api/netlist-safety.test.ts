@@ -64,8 +64,8 @@ afterAll(() => api.close());
 async function storeRaw(title: string, deviceName?: string) {
   const repository = api.dataSource.getRepository(SpecVersionEntity);
   const version = await repository.findOneByOrFail({ id: specVersionId });
-  const payload = { ...JSON.parse(version.payload), title, ...(deviceName === undefined ? {} : { deviceModel: { name: deviceName, checksum: 'ab'.repeat(32) } }) };
-  await repository.update({ id: specVersionId }, { title, payload: JSON.stringify(payload) });
+  const payload = { ...version.payload, title, ...(deviceName === undefined ? {} : { deviceModel: { name: deviceName, checksum: 'ab'.repeat(32) } }) };
+  await repository.update({ id: specVersionId }, { title, payload });
   await api.dataSource.getRepository(SpecEntity).update({ id: specId }, { title });
 }
 

@@ -28,7 +28,7 @@ const SPEC_PAYLOAD = {
 };
 
 const rawResult = async (dataSource: DataSource, proposalId: number): Promise<string> =>
-  (await dataSource.createQueryBuilder().select('p.result', 'result').from('proposal', 'p').where('p.id = :id', { id: proposalId }).getRawOne()).result;
+  (await dataSource.createQueryBuilder().select('r.result', 'result').from('proposal', 'p').innerJoin('ranking', 'r', 'r.id = p.ranking_id').where('p.id = :id', { id: proposalId }).getRawOne()).result;
 
 describe('a database reopened by another data source', () => {
   let database: TestDatabase;

@@ -139,13 +139,13 @@ describe('POST /api/projects/:id/specs/import with a mixed CSV', () => {
     // "25m" W, "1k" Hz: engineering notation read in the column's unit; the empty cells took the schema's defaults.
     expect(reference.latest.payload).toMatchObject({ powerBudgetW: 0.025, cmrr: { atFrequencyHz: 1000, minDb: 60, marginDb: 6 }, gain: { output: 'single-ended', tolerancePercent: 10 }, resistors: { series: 'E96' } });
     const events = await api.dataSource.getRepository(AuditEventEntity).find({ where: { projectId }, order: { id: 'ASC' } });
-    const imported = events.filter((e) => e.action === 'spec.created' && JSON.parse(e.details).import);
-    expect(imported.map((e) => JSON.parse(e.details).import)).toEqual([
+    const imported = events.filter((e) => e.action === 'spec.created' && e.details.import);
+    expect(imported.map((e) => e.details.import)).toEqual([
       { fileName: 'specs.csv', row: 2 },
       { fileName: 'specs.csv', row: 7 },
       { fileName: 'specs.csv', row: 9 },
     ]);
-    expect(JSON.parse(events.at(-1)!.details)).toEqual({ fileName: 'specs.csv', format: 'csv', rows: 7, created: 3, 'new-version': 0, unchanged: 0, skipped: 4 });
+    expect(events.at(-1)!.details).toEqual({ fileName: 'specs.csv', format: 'csv', rows: 7, created: 3, 'new-version': 0, unchanged: 0, skipped: 4 });
     expect(events.at(-1)!.action).toBe('specs.imported');
   });
 

@@ -214,7 +214,7 @@ describe('when a database from before the spec lifecycle is migrated', () => {
   test('when older versions have rankings still waiting, then those are closed as superseded by the first newer ranking, with an event each, and the rest is kept', async () => {
     const database = await freshDatabase({ reopenable: true });
     try {
-      const old = new DataSource({ ...createDataSource(database.location).options, entities: [], migrations: MIGRATIONS.filter((m) => m !== SpecLifecycle1764800600000) } as DataSourceOptions);
+      const old = new DataSource({ ...createDataSource(database.location).options, entities: [], migrations: MIGRATIONS.slice(0, MIGRATIONS.indexOf(SpecLifecycle1764800600000)) } as DataSourceOptions);
       await old.initialize();
       await old.runMigrations();
       const at = "'2026-01-01T00:00:00.000Z'";
@@ -238,7 +238,7 @@ describe('when a database from before the spec lifecycle is migrated', () => {
           { id: 5, status: 'ranked', supersededById: null },
         ]);
         const events = await migrated.getRepository(AuditEventEntity).find({ order: { id: 'ASC' } });
-        expect(events.map((e) => [e.action, e.proposalId, e.afterId, JSON.parse(e.details).from])).toEqual([
+        expect(events.map((e) => [e.action, e.proposalId, e.afterId, e.details.from])).toEqual([
           ['proposal.superseded', 1, 4, 'ranked'],
           ['proposal.superseded', 2, 4, 'returned'],
         ]);

@@ -58,15 +58,15 @@ describe('the migration of stored spec versions', () => {
     const spec = await api.createSpec(projectId, { payload: withResistors('Tern probe G', { tolerancePercent: 1 }) });
     const versions = api.dataSource.getRepository(SpecVersionEntity);
     const stored = await versions.findOneByOrFail({ specId: spec.id, version: 1 });
-    const older = { ...JSON.parse(stored.payload), title: 'Tern probe G\n.control', deviceModel: { name: 'QX\r.lib x', checksum: 'ab'.repeat(32) }, resistors: { series: 'E24', tolerance: 0.07 } };
-    await versions.update({ id: stored.id }, { title: 'Tern probe G\n.control', payload: JSON.stringify(older) });
+    const older = { ...stored.payload, title: 'Tern probe G\n.control', deviceModel: { name: 'QX\r.lib x', checksum: 'ab'.repeat(32) }, resistors: { series: 'E24', tolerance: 0.07 } };
+    await versions.update({ id: stored.id }, { title: 'Tern probe G\n.control', payload: older as unknown as typeof stored.payload });
     await api.dataSource.getRepository(SpecEntity).update({ id: spec.id }, { title: 'Tern probe G\n.control' });
 
     const queryRunner = api.dataSource.createQueryRunner();
     try {
       await new SpecTextAndTolerance1764800000000().up(queryRunner);
       const after = await versions.findOneByOrFail({ id: stored.id });
-      const payload = JSON.parse(after.payload);
+      const payload = after.payload as unknown as { resistors: unknown; title: string; deviceModel: { name: string } };
       expect(payload.resistors).toEqual({ series: 'E24', tolerancePercent: 7 });
       expect(payload.title).toBe('Tern probe G .control');
       expect(payload.deviceModel.name).toBe('QX .lib x');
@@ -76,7 +76,7 @@ describe('the migration of stored spec versions', () => {
       await api.createProposal(spec.id);
 
       await new SpecTextAndTolerance1764800000000().down(queryRunner);
-      expect(JSON.parse((await versions.findOneByOrFail({ id: stored.id })).payload).resistors).toEqual({ series: 'E24', tolerance: 0.07 });
+      expect((await versions.findOneByOrFail({ id: stored.id })).payload.resistors).toEqual({ series: 'E24', tolerance: 0.07 });
       await new SpecTextAndTolerance1764800000000().up(queryRunner);
     } finally {
       await queryRunner.release();

@@ -101,7 +101,7 @@ describe('short work while another person floods the queue with Monte Carlo', ()
     expect(first.state, 'the first Monte Carlo is paused, not finished').toBe('simulating');
     expect(first.done).toBeLessThan(2000);
     for (const id of flood.slice(1)) expect((await api.dataSource.getRepository(VerificationJobEntity).findOneByOrFail({ id })).state).toBe('waiting');
-    const result = JSON.parse(mine.result!) as ProposalVerificationResult;
+    const result = mine.result as ProposalVerificationResult;
     expect(result.options.length).toBe(other.result.options.length);
     for (const option of result.options) expect(option.outcome, option.topology).toBe('verified');
 
@@ -263,7 +263,7 @@ describe('the simulator thread replaced as it ages (the engine alone: tests/unit
       const asked = await reviewer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
       const job = await until(api, asked.body.id, (j) => settledStates.includes(j.state));
       expect(job.state).toBe('finished');
-      const result = JSON.parse(job.result!) as ProposalVerificationResult;
+      const result = job.result as ProposalVerificationResult;
       for (const option of result.options) expect(option.outcome, option.topology).toBe('verified');
       // Six options of 16 analyses each on threads of 40 runs.
       expect(engine.recycles).toBeGreaterThanOrEqual(2);

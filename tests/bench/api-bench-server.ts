@@ -82,7 +82,7 @@ export interface BenchServerStopped {
   engineRuns: number;
 }
 
-const PROPOSAL_COLUMNS = 'project_id, spec_id, spec_version_id, engine_version, ruleset_version, result, recommended_topology, status, created_by_id, created_at, updated_at';
+const PROPOSAL_COLUMNS = 'project_id, spec_id, spec_version_id, engine_version, ruleset_version, ranking_id, recommended_topology, status, created_by_id, created_at, updated_at';
 const COPIES = 'WITH RECURSIVE copy(n) AS (SELECT 1 UNION ALL SELECT n + 1 FROM copy WHERE n < ?)';
 
 const dir = mkdtempSync(join(tmpdir(), 'longtail-api-bench-'));

@@ -48,7 +48,7 @@ const WARM_LOADS = 11;
 const STORED_PROPOSALS = 10_000;
 const LOADS = 7;
 const BENCH_SPEC_FILE = 'studio-line-receiver.json';
-const PROPOSAL_COLUMNS = 'project_id, spec_id, spec_version_id, engine_version, ruleset_version, result, recommended_topology, status, created_by_id, created_at, updated_at';
+const PROPOSAL_COLUMNS = 'project_id, spec_id, spec_version_id, engine_version, ruleset_version, ranking_id, recommended_topology, status, created_by_id, created_at, updated_at';
 
 const kB = (bytes: number) => `${(bytes / 1000).toFixed(1)} kB`;
 const gzipBytes = (file: string) => gzipSync(readFileSync(file), { level: 9 }).length;
