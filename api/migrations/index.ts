@@ -12,6 +12,7 @@ import { MailDigest1764800400100 } from './1764800400100-mail-digest';
 import { DesignBinding1764800500000 } from './1764800500000-design-binding';
 import { SpecLifecycle1764800600000 } from './1764800600000-spec-lifecycle';
 import { DistinctRankings1764900000000 } from './1764900000000-distinct-rankings';
+import { CheckMetadata1764900100000 } from './1764900100000-check-metadata';
 
 export const MIGRATIONS = [
   InitialSchema1764612000000,
@@ -27,4 +28,5 @@ export const MIGRATIONS = [
   DesignBinding1764800500000,
   SpecLifecycle1764800600000,
   DistinctRankings1764900000000,
+  CheckMetadata1764900100000,
 ];
