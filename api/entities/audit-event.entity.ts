@@ -1,23 +1,10 @@
 import { EntitySchema } from 'typeorm';
 import { foreignKeyColumn, idColumn, shortTextColumn, timestampColumn } from './columns';
 import { jsonColumn } from './json-column';
+import type { AuditEvent } from '../../shared/api/admin';
 
-/** Append-only record of every change: who, what, when, and the records before and after. */
-export interface AuditEvent {
-  id: number;
-  at: string;
-  actorId: number | null;
-  /** e.g. "spec.version-created", "proposal.decided". */
-  action: string;
-  entityType: string;
-  entityId: number;
-  projectId: number | null;
-  proposalId: number | null;
-  beforeId: number | null;
-  afterId: number | null;
-  /** Small JSON document (stored as text) with what a reader needs (new status, reason excerpt...). */
-  details: Record<string, unknown>;
-}
+/** Append-only record of every change: the wire shape itself (`details` is JSON text in the row). */
+export type { AuditEvent };
 
 export const AuditEventEntity = new EntitySchema<AuditEvent>({
   name: 'AuditEvent',

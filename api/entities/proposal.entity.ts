@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { ProposalState } from '../../shared/workflow/proposal-states';
+import type { ProposalSummary } from '../../shared/api/proposals';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 
 /**
@@ -7,28 +7,10 @@ import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColum
  * itself (tens of kB: every option's curves and Monte Carlo figures) is a `ranking` row shared by
  * the proposals that carry the same output, so this row stays small for the lists.
  */
-export interface Proposal {
-  id: number;
-  projectId: number;
-  specId: number;
-  specVersionId: number;
-  engineVersion: string;
-  rulesetVersion: string;
+export type Proposal = Omit<ProposalSummary, 'specVersionNumber' | 'specTitle' | 'currentDesign'> & {
   /** The engine output (`recommend`) this proposal ranks with: a row shared by every proposal with the same output. */
   rankingId: number;
-  recommendedTopology: string | null;
-  status: ProposalState;
-  /** Superseded: the newer proposal that closed this one. */
-  supersededById: number | null;
-  /** Withdrawn: the reason given. */
-  closedReason: string | null;
-  /** Who closed it (null when the server did, on superseding). */
-  closedById: number | null;
-  closedAt: string | null;
-  createdById: number;
-  createdAt: string;
-  updatedAt: string;
-}
+};
 
 export const ProposalEntity = new EntitySchema<Proposal>({
   name: 'Proposal',

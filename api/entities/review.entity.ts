@@ -1,22 +1,11 @@
 import { EntitySchema } from 'typeorm';
-import type { Verdict } from '../../shared/api/proposals';
+import type { Review as WireReview, Verdict } from '../../shared/api/proposals';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 
 export type { Verdict };
 
-export interface Review {
-  id: number;
-  proposalId: number;
-  decisionId: number;
-  verdict: Verdict;
-  comment: string | null;
-  reviewerId: number;
-  createdAt: string;
-  /** The finished verification job the review relied on (null: none about the decided design). */
-  verificationJobId: number | null;
-  /** The reviewer signed off although that job simulated another design (said so in the comment). */
-  staleVerificationAccepted: boolean;
-}
+/** A review as stored: the wire shape, with the fields older answers may lack always present in the row. */
+export type Review = Required<WireReview>;
 
 export const ReviewEntity = new EntitySchema<Review>({
   name: 'Review',

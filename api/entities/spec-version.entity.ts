@@ -1,20 +1,10 @@
 import { EntitySchema } from 'typeorm';
-import type { Spec as SpecDocument } from '../../shared/engine/types';
+import type { SpecVersion } from '../../shared/api/specs';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 import { jsonColumn } from './json-column';
 
-/** One immutable version of a spec: the spec document (JSON text in the row) as validated when written. */
-export interface SpecVersion {
-  id: number;
-  specId: number;
-  version: number;
-  title: string;
-  payload: SpecDocument;
-  /** What changed and why, in the author's words (optional). */
-  note: string | null;
-  createdById: number;
-  createdAt: string;
-}
+/** One immutable version of a spec: the wire shape itself (the document is JSON text in the row, as validated when written). */
+export type { SpecVersion };
 
 export const SpecVersionEntity = new EntitySchema<SpecVersion>({
   name: 'SpecVersion',
