@@ -21,7 +21,7 @@ export default {
   htmlReporter: { fileName: `${out}/index.html` },
   jsonReporter: { fileName: `${out}/mutation.json` },
   clearTextReporter: { allowColor: false, logTests: false },
-  tempDirName: 'tmp/stryker',
+  tempDirName: `tmp/stryker-${slug}`,
   cleanTempDir: true,
   ignorePatterns: ['dist', 'reports', 'coverage', 'data', 'tmp', 'test-results', 'screenshots', '*.sqlite'],
   thresholds: { high: 85, low: 75, break: null },

