@@ -20,5 +20,7 @@ export default defineConfig({
       'tests/reference/**/*.test.ts',
     ],
     env: { LONGTAIL_TEST_BACKEND: 'sqlite' },
+    // A test file that cannot load counts as a failed test (see the reporter's note)
+    reporters: ['default', './tests/helpers/load-failure-reporter.ts'],
   },
 });
