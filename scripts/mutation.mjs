@@ -3,7 +3,7 @@
 // report under reports/mutation/, out of git), then the score per folder from every report there.
 // `npm run mutation -- shared/units` or `LONGTAIL_MUTATION_TARGETS=shared/units,rules` runs a
 // part; `npm run mutation -- shared/engine/sizing.ts` one file; `npm run mutation -- --summary`
-// only prints the scores of the reports already written.
+// only prints the scores of the reports already written; `--force` ignores the incremental files.
 import { spawnSync } from 'node:child_process';
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import path from 'node:path';
@@ -27,6 +27,10 @@ function folderOf(file) {
 
 const args = process.argv.slice(2);
 const summaryOnly = args.includes('--summary');
+// --force: every mutant again. Incremental mode keeps a static mutant's result (one evaluated when
+// a module loads, as a table entry) until its own code changes, even after a test that would now
+// kill it is added.
+const force = args.includes('--force');
 const named = args.filter((a) => !a.startsWith('--'));
 const fromEnvironment = (process.env.LONGTAIL_MUTATION_TARGETS ?? '').split(',').filter(Boolean);
 const targets = named.length ? named : fromEnvironment.length ? fromEnvironment : FOLDERS.map((f) => f.folder);
@@ -42,7 +46,7 @@ if (!summaryOnly) {
     const slug = target.replace(/\.ts$/, '').replace(/[^a-z0-9]+/gi, '-');
     console.log(`\n== mutating ${target} (tests: ${owner.tests.join(', ')})`);
     const started = Date.now();
-    const run = spawnSync('npx', ['stryker', 'run', 'stryker.config.mjs'], {
+    const run = spawnSync('npx', ['stryker', 'run', 'stryker.config.mjs', ...(force ? ['--force'] : [])], {
       stdio: 'inherit',
       env: {
         ...process.env,

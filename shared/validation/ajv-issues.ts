@@ -62,6 +62,7 @@ function discriminatorIssue(e: ErrorObject): ValidationIssue | undefined {
   const tag = e.params.tag as string;
   const path = childPath(e, tag);
   // A missing tag is already reported by `required`
+  // Stryker disable next-line ConditionalExpression: equivalent, ajv gives an undefined tagValue only with error "tag"
   if (e.params.error === 'tag' && e.params.tagValue === undefined) return undefined;
   const branches = ((e.parentSchema as SchemaNode | undefined)?.oneOf ?? []) as SchemaNode[];
   const values = branches.map((b) => ((b.properties as SchemaNode)[tag] as SchemaNode).const);
@@ -112,6 +113,7 @@ function withArticle(type: string): string {
 
 /** What was received, briefly: numbers and booleans as written, strings quoted, else the kind. */
 function describeData(data: unknown): string {
+  // Stryker disable next-line ConditionalExpression: equivalent, undefined falls through to the same String(data)
   if (data === null || data === undefined) return String(data);
   if (Array.isArray(data)) return 'an array';
   if (typeof data === 'string') return JSON.stringify(data.length > 40 ? `${data.slice(0, 40)}…` : data);
