@@ -70,6 +70,7 @@ export function closedFormTailRout(
     }
     case 'beta-ro-half':
       return { valueOhm: finite((beta * byName(limit.transistor).roOhm) / 2), formula };
+    // Stryker disable next-line ConditionalExpression: the exhaustive switch's guard, unreachable for a well-typed limit
     default:
       return unhandledTopology(limit);
   }
