@@ -1,5 +1,6 @@
 import { describe, expect, test } from 'vitest';
-import { conditionLabel, cornerConditions, nominalCondition, TEMPERATURE_SWEEP_POINTS, temperatureSweep } from '../../../shared/engine/conditions';
+import { cornerConditions, nominalCondition, TEMPERATURE_SWEEP_POINTS, temperatureSweep } from '../../../shared/engine/conditions';
+import { conditionLabel } from '../../../shared/text/engine-notes';
 import type { Spec } from '../../../shared/engine/types';
 
 // Operating conditions: nominal at mid common mode and SPICE's nominal temperature TNOM = 27 °C

@@ -11,7 +11,7 @@ import { makeOptionFacts } from '../../helpers/option-facts';
 // not-applicable branch.
 
 const files = (await readdir(RULES_DIR)).filter((f) => f.endsWith('.json')).sort();
-const onDisk = await Promise.all(files.map(async (f) => JSON.parse(await readFile(join(RULES_DIR, f), 'utf8')) as { name: string; event: { params: { severity: string } } }));
+const onDisk = await Promise.all(files.map(async (f) => JSON.parse(await readFile(join(RULES_DIR, f), 'utf8')) as { name: string; title: string; kind: string; figure: string | null }));
 const rules = await loadRuleFiles();
 
 let scratch: string | undefined;
@@ -21,8 +21,10 @@ afterEach(async () => {
 });
 
 describe('loadRuleFiles and createRuleSet', () => {
-  test('the set lists every rule file by name with its severity, sorted by name', () => {
-    const expected = onDisk.map((r) => ({ rule: r.name, severity: r.event.params.severity })).sort((a, b) => (a.rule < b.rule ? -1 : 1));
+  test('the set lists every rule file by name with its title, kind and figure, sorted by name; only "blocking" blocks', () => {
+    const expected = onDisk
+      .map((r) => ({ rule: r.name, title: r.title, kind: r.kind, figure: r.figure, severity: r.kind === 'blocking' ? 'blocking' : 'advisory' }))
+      .sort((a, b) => (a.rule < b.rule ? -1 : 1));
     expect(createRuleSet(rules).rules).toEqual(expected);
     expect(createRuleSet([...rules].reverse()).rules).toEqual(expected);
     expect(rules.map((r) => r.name)).toEqual(expected.map((r) => r.rule));

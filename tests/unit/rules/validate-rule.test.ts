@@ -28,6 +28,7 @@ describe('ruleProblems', () => {
 
   test.each([
     ['an unknown top-level key', (r: Json) => (r.extra = 1), ['/: unexpected key "extra"']],
+    ['an unknown kind', (r: Json) => (r.kind = 'fatal'), ['/kind: must be "blocking", "advisory" or "caution", got "fatal"']],
     ['a name not in kebab case', (r: Json) => (r.name = 'CMRR_Target'), ['/name: must be kebab-case, got "CMRR_Target"']],
     ['a name with a doubled hyphen', (r: Json) => (r.name = 'cmrr--target'), ['/name: must be kebab-case, got "cmrr--target"']],
     ['a name with a leading mark', (r: Json) => (r.name = '!cmrr'), ['/name: must be kebab-case, got "!cmrr"']],
@@ -73,7 +74,7 @@ describe('ruleProblems: event params', () => {
   const P = '/event/params';
   test.each([
     ['an unknown key', (p: Json) => (p.colour = 'red'), [`${P}: unexpected key "colour"`]],
-    ['an unknown severity', (p: Json) => (p.severity = 'fatal'), [`${P}/severity: must be "blocking" or "advisory", got "fatal"`]],
+    ['a severity in the params (it is the rule\u2019s kind)', (p: Json) => (p.severity = 'blocking'), [`${P}: unexpected key "severity"`]],
     ['a unit without a margin fact', (p: Json) => ((p.marginFact = null), delete p.thinMarginBelow), [`${P}/marginUnit: must be null when marginFact is null`]],
     ['a text fact as the margin', (p: Json) => (p.marginFact = 'topology'), [`${P}/marginFact: must be a numeric fact or null, got "topology"`]],
     ['an unknown margin fact', (p: Json) => (p.marginFact = 'nope'), [`${P}/marginFact: must be a numeric fact or null, got "nope"`]],
@@ -118,9 +119,9 @@ describe('ruleProblems: event params', () => {
 
 describe('validateRule', () => {
   test('throws one error naming the source and every problem', () => {
-    const broken = changed(plainRule, (r) => ((r.name = 'Bad'), (r.event.params.severity = 'fatal')));
+    const broken = changed(plainRule, (r) => ((r.name = 'Bad'), (r.event.params.colour = 'red')));
     expect(() => validateRule(broken, 'rules/bad.json')).toThrow(
-      'Invalid rule rules/bad.json: /name: must be kebab-case, got "Bad"; /event/params/severity: must be "blocking" or "advisory", got "fatal"',
+      'Invalid rule rules/bad.json: /name: must be kebab-case, got "Bad"; /event/params: unexpected key "colour"',
     );
   });
 
