@@ -17,7 +17,19 @@ const FOLDERS = [
     tests: ['tests/unit/schema/**/*.test.ts', 'tests/unit/import/spec-file.test.ts'],
     target: 75,
   },
-  { folder: 'rules', tests: ['tests/unit/rules/**/*.test.ts'], target: 85 },
+  // The rule code's own tests; the per-rule and boundary tests pin the JSON thresholds, which are
+  // not mutated, and would make every static mutant run the engine for each rule.
+  {
+    folder: 'rules',
+    tests: [
+      'tests/unit/rules/validate-rule.test.ts',
+      'tests/unit/rules/run-rules.test.ts',
+      'tests/unit/rules/rule-set.test.ts',
+      'tests/unit/rules/format-reason.test.ts',
+      'tests/unit/rules/fact-kinds.test.ts',
+    ],
+    target: 85,
+  },
 ];
 
 function folderOf(file) {
