@@ -21,8 +21,10 @@ interface SmallSignalParams {
 
 function smallSignalOf(q: TransistorOperatingPoint, beta: number, earlyVoltageV: number, thermalVoltageV: number): SmallSignalParams {
   const gmS = q.collectorCurrentA / thermalVoltageV;
+  // Stryker disable next-line ConditionalExpression: equivalent, with VAF infinite 1 + VCB/VAF is 1 and (VAF + VCB)/IC infinite all the same
   const earlyFactor = Number.isFinite(earlyVoltageV) ? 1 + q.vcbV / earlyVoltageV : 1;
   return {
+    // Stryker disable next-line ConditionalExpression: equivalent, as above
     roOhm: Number.isFinite(earlyVoltageV) ? (earlyVoltageV + q.vcbV) / q.collectorCurrentA : Infinity,
     gmS,
     rpiOhm: (beta * earlyFactor) / gmS,
@@ -68,6 +70,7 @@ export function closedFormTailRout(
     }
     case 'beta-ro-half':
       return { valueOhm: finite((beta * byName(limit.transistor).roOhm) / 2), formula };
+    // Stryker disable next-line ConditionalExpression: the exhaustive switch's guard, unreachable for a well-typed limit
     default:
       return unhandledTopology(limit);
   }

@@ -34,6 +34,7 @@ export function recommendedTopology(options: Rankable[], policy: SelectionPolicy
   const passing = options.filter((o) => o.passes);
   if (passing.length === 0) return null;
   if (policy === 'simplest-sufficient') {
+    // Stryker disable next-line EqualityOperator: equivalent, equal simplicity means the same topology, so either is the answer
     return passing.reduce((a, b) => (simplicity(b.topology) < simplicity(a.topology) ? b : a)).topology;
   }
   return passing.reduce((a, b) => (b.rejectionDb > a.rejectionDb ? b : a)).topology;

@@ -69,6 +69,7 @@ export function snapToSeries(valueOhm: number, series: ResistorSeries): number {
   let hi = mantissas.length;
   while (lo < hi) {
     const mid = (lo + hi) >> 1;
+    // Stryker disable next-line EqualityOperator: equivalent, a mantissa equal to a member is then "above", at distance 0, and chosen the same
     if (mantissas[mid] <= target) lo = mid + 1;
     else hi = mid;
   }
@@ -88,7 +89,11 @@ export function isOnSeries(valueOhm: number, series: ResistorSeries, relTol = 1e
 /** The power of ten d with 10^d <= value < 10^(d+1), robust to log10 rounding. */
 function decadeOf(value: number): number {
   let decade = Math.floor(Math.log10(value));
+  // Stryker disable all: equivalent for snapping, which is this function's one use: one decade off
+  // (possible only next to a power of ten) leaves a mantissa at 1 or 10, which snaps to that power
+  // of ten all the same; and each correction undoes the other's mutants.
   if (Number(`1e${decade}`) > value) decade -= 1;
   if (Number(`1e${decade + 1}`) <= value) decade += 1;
+  // Stryker restore all
   return decade;
 }

@@ -31,13 +31,15 @@ export function readSpiceNumber(text: string): number | null {
   let i = 0;
   if (text[i] === '+' || text[i] === '-') i += 1;
   let digits = 0;
+  // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent, text[text.length] is undefined, never a digit
   while (i < text.length && isDigit(text[i])) {
     i += 1;
     digits += 1;
   }
   if (text[i] === '.') {
     i += 1;
-    while (i < text.length && isDigit(text[i])) {
+    // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent, text[text.length] is undefined, never a digit
+  while (i < text.length && isDigit(text[i])) {
       i += 1;
       digits += 1;
     }
@@ -49,12 +51,14 @@ export function readSpiceNumber(text: string): number | null {
     let j = i + 1;
     if (text[j] === '+' || text[j] === '-') j += 1;
     if (isDigit(text[j] ?? '')) {
+      // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent, text[text.length] is undefined, never a digit
       while (j < text.length && isDigit(text[j])) j += 1;
       exponent = Number(text.slice(i + 1, j));
       i = j;
     }
   }
   const lettersStart = i;
+  // Stryker disable next-line ConditionalExpression,EqualityOperator: equivalent, text[text.length] is undefined, never a letter
   while (i < text.length && isLetter(text[i])) i += 1;
   if (i !== text.length) return null; // "4k7", "2m5", "1.2.3", "1e-3*2": not SPICE3 numbers
   const letters = text.slice(lettersStart).toLowerCase();

@@ -15,11 +15,15 @@ export interface UnitSymbol {
   takesPrefix: boolean;
 }
 
-/** Units of the Longtail forms and reports [SI]; "1" is SI's unit of a dimensionless number. */
+/**
+ * Units of the Longtail forms and reports [SI]; "1" is SI's unit of a dimensionless number. The
+ * ohm is U+03A9 GREEK CAPITAL LETTER OMEGA, as Unicode recommends; U+2126 OHM SIGN (its canonical
+ * equivalent, still produced by some keyboards and character maps) is accepted as an alias.
+ */
 export const UNIT_SYMBOLS: readonly UnitSymbol[] = [
   { symbol: 'V', printed: 'V', aliases: [], takesPrefix: true },
   { symbol: 'A', printed: 'A', aliases: [], takesPrefix: true },
-  { symbol: 'Ω', printed: 'Ω', aliases: ['Ω', 'ohm', 'ohms', 'Ohm', 'Ohms'], takesPrefix: true },
+  { symbol: 'Ω', printed: 'Ω', aliases: ['\u2126', 'ohm', 'ohms', 'Ohm', 'Ohms'], takesPrefix: true },
   { symbol: 'W', printed: 'W', aliases: [], takesPrefix: true },
   { symbol: 'Hz', printed: 'Hz', aliases: ['hz'], takesPrefix: true },
   { symbol: 'F', printed: 'F', aliases: [], takesPrefix: true },

