@@ -11,7 +11,7 @@ import express, { type Express } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
 import type { DataSource } from 'typeorm';
-import type { RuleSet } from '../shared/engine/types';
+import type { RuleSet } from '#shared/engine/types';
 import { csrfProtection } from './auth/csrf';
 import { configurePassport } from './auth/passport';
 import { SignInThrottle } from './auth/sign-in-throttle';

@@ -5,9 +5,9 @@
  * fault. Never a stack trace for a user error (set LONGTAIL_DEBUG=1 to see one for a fault).
  */
 import { readFileSync } from 'node:fs';
-import { analyze, recommend, ConvergenceError, InputError } from '../shared/engine/index';
-import { firstNonFinitePath } from '../shared/engine/finite';
-import { formatIssue, validateDesign, validateSpec, type ValidationResult } from '../shared/validate';
+import { analyze, recommend, ConvergenceError, InputError } from '#shared/engine/index';
+import { firstNonFinitePath } from '#shared/engine/finite';
+import { formatIssue, validateDesign, validateSpec, type ValidationResult } from '#shared/validate';
 import { loadRuleSet } from '../rules/index';
 
 const USAGE = 'usage: longtail analyze FILE | longtail recommend FILE   (FILE may be "-" for standard input)';

@@ -5,10 +5,10 @@
 import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { recommend } from '../shared/engine/index';
-import { formatDb } from '../shared/units/figures';
-import { formatQuantity } from '../shared/units/index';
-import { formatIssue, validateSpec } from '../shared/validate';
+import { recommend } from '#shared/engine/index';
+import { formatDb } from '#shared/units/figures';
+import { formatQuantity } from '#shared/units/index';
+import { formatIssue, validateSpec } from '#shared/validate';
 import { loadRuleSet } from '../rules/index';
 
 const specsDir = join(fileURLToPath(new URL('.', import.meta.url)), 'demo', 'specs');

@@ -2,7 +2,7 @@
  * The one error type of the server. Throw it anywhere; the error middleware answers
  * `{ error, code, details: [{ path, message, line? }] }` with its status. Anything else is a generic 500.
  */
-import type { ErrorDetail } from '../shared/api/errors';
+import type { ErrorDetail } from '#shared/api/errors';
 
 export type { ErrorDetail };
 

@@ -1,4 +1,4 @@
-import type { OptionFacts } from '../shared/engine/types';
+import type { OptionFacts } from '#shared/engine/types';
 
 /** The value shape of a fact, as far as rule conditions and reason templates care. */
 export type FactKind = 'number' | 'number-or-null' | 'boolean' | 'text' | 'text-list';

@@ -1,6 +1,6 @@
-import type { OptionFacts } from '../shared/engine/types';
-import { formatFixed } from '../shared/units/figures';
-import { formatQuantity } from '../shared/units/format-quantity';
+import type { OptionFacts } from '#shared/engine/types';
+import { formatFixed } from '#shared/units/figures';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { FACT_KINDS, isFactName, type FactKind } from './fact-kinds';
 
 /**

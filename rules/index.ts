@@ -1,4 +1,4 @@
-import { severityOfKind, type RuleSet } from '../shared/engine/types';
+import { severityOfKind, type RuleSet } from '#shared/engine/types';
 import { loadRuleFiles, prepareRules, rulesetVersion, runRules, type RuleFile } from './run-rules';
 
 /** The rule list each RuleSet made here was built from (another thread builds the same RuleSet from it). */

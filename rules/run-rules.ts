@@ -6,7 +6,7 @@ import { fileURLToPath } from 'node:url';
 // as a named export, whereas the default export differs between Node (module.exports) and
 // bundler interop (the engine factory).
 import { Engine, type RuleProperties } from 'json-rules-engine';
-import { severityOfKind, type Check, type OptionFacts } from '../shared/engine/types';
+import { severityOfKind, type Check, type OptionFacts } from '#shared/engine/types';
 import { FACT_KINDS, fitsFactKind } from './fact-kinds';
 import { formatReason } from './format-reason';
 import { validateRule, type RuleFile } from './validate-rule';

@@ -1,5 +1,5 @@
 import type { TopLevelCondition } from 'json-rules-engine';
-import type { OptionFacts, RuleKind } from '../shared/engine/types';
+import type { OptionFacts, RuleKind } from '#shared/engine/types';
 import { FACT_KINDS, isFactName } from './fact-kinds';
 import { templateProblems } from './format-reason';
 

@@ -7,7 +7,7 @@ import { hashForSchema, type RJSFSchema } from '@rjsf/utils';
 import { compileSchemaValidatorsCode } from '@rjsf/validator-ajv8/compileSchemaValidators';
 import { writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import specSchema from '../shared/schema/spec.schema.json';
+import specSchema from '#shared/schema/spec.schema.json';
 import { SPEC_VALIDATOR_OPTIONS } from '../web/src/features/specs/lib/spec-validator-options';
 
 export const GENERATED_PATH = fileURLToPath(new URL('../web/src/features/specs/lib/spec-validators.generated.ts', import.meta.url));

@@ -19,8 +19,8 @@
 import { compile, type JSONSchema } from 'json-schema-to-typescript';
 import { writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import designSchema from '../shared/schema/design.schema.json';
-import specSchema from '../shared/schema/spec.schema.json';
+import designSchema from '#shared/schema/design.schema.json';
+import specSchema from '#shared/schema/spec.schema.json';
 
 type Node = Record<string, unknown>;
 

@@ -5,7 +5,7 @@
  */
 import { writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { specCsvColumnsMarkdown } from '../shared/import/spec-columns';
+import { specCsvColumnsMarkdown } from '#shared/import/spec-columns';
 
 export const COLUMNS_DOC_PATH = fileURLToPath(new URL('../docs/spec-csv-columns.md', import.meta.url));
 

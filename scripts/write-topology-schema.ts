@@ -8,9 +8,9 @@
  */
 import { readFileSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { ROUT_FORMULAS } from '../shared/engine/closed-form';
-import { TOPOLOGIES, TOPOLOGY_CATALOGUE, type DeviceFamily, type RoutLimit } from '../shared/engine/topologies';
-import { designSchemaWithTopologies, specSchemaWithTopologies } from '../shared/schema/topology-schema';
+import { ROUT_FORMULAS } from '#shared/engine/closed-form';
+import { TOPOLOGIES, TOPOLOGY_CATALOGUE, type DeviceFamily, type RoutLimit } from '#shared/engine/topologies';
+import { designSchemaWithTopologies, specSchemaWithTopologies } from '#shared/schema/topology-schema';
 
 export const DESIGN_SCHEMA_PATH = fileURLToPath(new URL('../shared/schema/design.schema.json', import.meta.url));
 export const SPEC_SCHEMA_PATH = fileURLToPath(new URL('../shared/schema/spec.schema.json', import.meta.url));

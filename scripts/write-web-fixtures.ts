@@ -7,8 +7,8 @@
  */
 import { readFileSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { recommend, type RecommendResult } from '../shared/engine/index';
-import { validateSpec } from '../shared/validate';
+import { recommend, type RecommendResult } from '#shared/engine/index';
+import { validateSpec } from '#shared/validate';
 import { loadRuleSet } from '../rules/index';
 
 /** Differential output, Monte Carlo, simplest-sufficient; single-ended, highest-rejection. */

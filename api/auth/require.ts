@@ -7,9 +7,9 @@
  */
 import type { RequestHandler } from 'express';
 import type {} from 'passport';
-import { mayAnywhere, type Action } from '../../shared/workflow/roles';
+import { mayAnywhere, type Action } from '#shared/workflow/roles';
 import type { User } from '../entities/user.entity';
-import type { SessionUser } from '../../shared/api/users';
+import type { SessionUser } from '#shared/api/users';
 import { AppError, forbidden } from '../errors';
 
 declare global {

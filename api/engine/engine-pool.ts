@@ -18,9 +18,9 @@
 import { setImmediate as nextTurn } from 'node:timers/promises';
 import { fileURLToPath } from 'node:url';
 import { Piscina } from 'piscina';
-import { evaluateDesign } from '../../shared/engine/index';
-import type { RecommendOption } from '../../shared/engine/recommend';
-import type { Design, RuleSet, Spec } from '../../shared/engine/types';
+import { evaluateDesign } from '#shared/engine/index';
+import type { RecommendOption } from '#shared/engine/recommend';
+import type { Design, RuleSet, Spec } from '#shared/engine/types';
 import { ruleFilesOf } from '../../rules/index';
 import { errorFrom, rankingJson, type EngineAnswer, type EngineTask, type RulesInTask } from './engine-tasks';
 

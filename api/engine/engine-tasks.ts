@@ -6,11 +6,11 @@
  * across the thread boundary, where its class would be lost): engine-pool.ts throws it again as
  * the same class with the same message.
  */
-import { recommend, evaluateDesign } from '../../shared/engine/index';
-import { ConvergenceError } from '../../shared/engine/operating-point';
-import { InputError } from '../../shared/engine/errors';
-import type { RecommendOption } from '../../shared/engine/recommend';
-import type { Design, RuleSet, Spec } from '../../shared/engine/types';
+import { recommend, evaluateDesign } from '#shared/engine/index';
+import { ConvergenceError } from '#shared/engine/operating-point';
+import { InputError } from '#shared/engine/errors';
+import type { RecommendOption } from '#shared/engine/recommend';
+import type { Design, RuleSet, Spec } from '#shared/engine/types';
 import { createRuleSet } from '../../rules/index';
 import type { RuleFile } from '../../rules/run-rules';
 

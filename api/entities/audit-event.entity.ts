@@ -1,7 +1,7 @@
 import { EntitySchema } from 'typeorm';
 import { foreignKeyColumn, idColumn, shortTextColumn, timestampColumn } from './columns';
 import { jsonColumn } from './json-column';
-import type { AuditEvent } from '../../shared/api/admin';
+import type { AuditEvent } from '#shared/api/admin';
 
 /** Append-only record of every change: the wire shape itself (`details` is JSON text in the row). */
 export type { AuditEvent };

@@ -1,6 +1,6 @@
 import { EntitySchema } from 'typeorm';
-import type { DecisionKind } from '../../shared/workflow/current-design';
-import type { Decision as WireDecision } from '../../shared/api/proposals';
+import type { DecisionKind } from '#shared/workflow/current-design';
+import type { Decision as WireDecision } from '#shared/api/proposals';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 import { jsonColumn } from './json-column';
 

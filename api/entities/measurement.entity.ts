@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { MeasuredPoint } from '../../shared/measurements/measurement-csv';
+import type { MeasuredPoint } from '#shared/measurements/measurement-csv';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 import { jsonColumn } from './json-column';
 

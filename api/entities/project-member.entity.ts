@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { ProjectRole } from '../../shared/workflow/roles';
+import type { ProjectRole } from '#shared/workflow/roles';
 import { foreignKeyColumn, idColumn, shortTextColumn, timestampColumn } from './columns';
 
 export interface ProjectMember {

@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { Project } from '../../shared/api/projects';
+import type { Project } from '#shared/api/projects';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 
 /** A project row is what the API shows (shared/api/projects.ts). */

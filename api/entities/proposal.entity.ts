@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { ProposalSummary } from '../../shared/api/proposals';
+import type { ProposalSummary } from '#shared/api/proposals';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 
 /**

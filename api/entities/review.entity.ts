@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { Review as WireReview, Verdict } from '../../shared/api/proposals';
+import type { Review as WireReview, Verdict } from '#shared/api/proposals';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 
 export type { Verdict };

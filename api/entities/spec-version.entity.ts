@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { SpecVersion } from '../../shared/api/specs';
+import type { SpecVersion } from '#shared/api/specs';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 import { jsonColumn } from './json-column';
 

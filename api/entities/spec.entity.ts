@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { Spec } from '../../shared/api/specs';
+import type { Spec } from '#shared/api/specs';
 import { foreignKeyColumn, idColumn, shortTextColumn, timestampColumn } from './columns';
 
 /** A requirement spec row is what the API shows (shared/api/specs.ts): its versions hold the content; `latestVersion` is the newest number. */

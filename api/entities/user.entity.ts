@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { User as Account } from '../../shared/api/users';
+import type { User as Account } from '#shared/api/users';
 import { idColumn, shortTextColumn, timestampColumn } from './columns';
 
 /** An account row: what the API shows of it (shared/api/users.ts) and the password hash, read only for sign-in. */

@@ -1,5 +1,5 @@
 import { EntitySchema } from 'typeorm';
-import type { VerificationJobView } from '../../shared/verification/types';
+import type { VerificationJobView } from '#shared/verification/types';
 import { foreignKeyColumn, idColumn, shortTextColumn, textColumn, timestampColumn } from './columns';
 import { jsonColumn } from './json-column';
 

@@ -5,11 +5,11 @@
  * words and numbers: user text (titles, names, comments) stays in the body, never in a header.
  * A digest puts several messages to one person into one. Pure: no I/O.
  */
-import { topologyName } from '../../shared/engine/topologies';
-import { ESTIMATE_NOTICE } from '../../shared/engine/version';
-import { commentLines, singleLine } from '../../shared/text/plain-text';
+import { topologyName } from '#shared/engine/topologies';
+import { ESTIMATE_NOTICE } from '#shared/engine/version';
+import { commentLines, singleLine } from '#shared/text/plain-text';
 import type { DecisionKind } from '../entities/decision.entity';
-import { currentDesignName, currentDesignSummary } from '../../shared/workflow/current-design';
+import { currentDesignName, currentDesignSummary } from '#shared/workflow/current-design';
 
 export type NotificationKind = 'proposal.ready' | 'proposal.decided' | 'proposal.approved' | 'proposal.returned' | 'proposal.superseded';
 

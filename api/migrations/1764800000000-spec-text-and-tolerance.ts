@@ -8,8 +8,8 @@
  * PostgreSQL run the same code. `down` writes the fraction back (titles stay cleaned).
  */
 import type { MigrationInterface, QueryRunner } from 'typeorm';
-import { singleLine } from '../../shared/text/plain-text';
-import { fractionToPercent } from '../../shared/validation/spec-upgrade';
+import { singleLine } from '#shared/text/plain-text';
+import { fractionToPercent } from '#shared/validation/spec-upgrade';
 
 type Row = { id: number; title: string; payload: string };
 type Payload = { title?: unknown; deviceModel?: { name?: unknown }; resistors?: Record<string, unknown> };

@@ -9,7 +9,7 @@
  */
 import { Router, type Request } from 'express';
 import type { DataSource } from 'typeorm';
-import { MODEL_FILE_MAX_BYTES } from '../../shared/devices/model-card';
+import { MODEL_FILE_MAX_BYTES } from '#shared/devices/model-card';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { getDeviceModel, listDeviceModels, recordedDeviceModel, removeDeviceModel, replaceDeviceModel, uploadDeviceModels, type DeviceListQuery } from '../services/devices.service';
 import { DEVICE_LIST_QUERY, DEVICE_RECORDED_QUERY } from '../validation/bodies';

@@ -1,9 +1,9 @@
 /** The stateless parts: what-if analysis, the spec schema for the form (and as a CSV template), the topology catalogue, health. */
 import { Router } from 'express';
-import { analyze, ConvergenceError, ENGINE_VERSION, ESTIMATE_NOTICE } from '../../shared/engine/index';
-import { TOPOLOGIES, type Design, type RuleSet } from '../../shared/engine/types';
-import { specCsvTemplate } from '../../shared/import/spec-columns';
-import { DESIGN_SCHEMA, SPEC_SCHEMA, validateDesign } from '../../shared/validate';
+import { analyze, ConvergenceError, ENGINE_VERSION, ESTIMATE_NOTICE } from '#shared/engine/index';
+import { TOPOLOGIES, type Design, type RuleSet } from '#shared/engine/types';
+import { specCsvTemplate } from '#shared/import/spec-columns';
+import { DESIGN_SCHEMA, SPEC_SCHEMA, validateDesign } from '#shared/validate';
 import { requireSignIn } from '../auth/require';
 import { AppError } from '../errors';
 import { validateBody } from '../validation/validate-request';

@@ -9,13 +9,13 @@
  */
 import { Router, type Request } from 'express';
 import type { DataSource } from 'typeorm';
-import { MEASUREMENT_FILE_MAX_BYTES } from '../../shared/measurements/measurement-csv';
-import { MEASUREMENT_NOTE_MAX_LENGTH } from '../../shared/measurements/types';
-import { spreadsheetSafeDelimited, unsafeTextMessage } from '../../shared/text/plain-text';
+import { MEASUREMENT_FILE_MAX_BYTES } from '#shared/measurements/measurement-csv';
+import { MEASUREMENT_NOTE_MAX_LENGTH } from '#shared/measurements/types';
+import { spreadsheetSafeDelimited, unsafeTextMessage } from '#shared/text/plain-text';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
 import { getMeasurement, listMeasurements, measurementFile, uploadMeasurement } from '../services/measurements.service';
-import type { MeasurementListQuery } from '../../shared/api/measurements';
+import type { MeasurementListQuery } from '#shared/api/measurements';
 import { MEASUREMENT_LIST_QUERY } from '../validation/bodies';
 import { fileUpload } from '../uploads';
 import { idParam, validateQuery } from '../validation/validate-request';

@@ -1,8 +1,8 @@
 /** One proposal: read it, check own values, decide, review, withdraw, its audit trail, and its exports (CSV, JSON, SPICE netlist). */
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
-import type { RuleSet } from '../../shared/engine/types';
-import { validateDesign } from '../../shared/validate';
+import type { RuleSet } from '#shared/engine/types';
+import { validateDesign } from '#shared/validate';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
 import { decide, evaluateOverride, getProposal, proposalAudit, review, withdraw } from '../services/proposals.service';

@@ -1,7 +1,7 @@
 /** One spec: read, new version, history, differences; asking for a proposal. */
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
-import type { RuleSet } from '../../shared/engine/types';
+import type { RuleSet } from '#shared/engine/types';
 import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { checkProposalRate, PROPOSALS_PER_MINUTE } from '../services/proposal-rate';
 import { createProposalJson } from '../services/proposals.service';

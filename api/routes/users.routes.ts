@@ -1,7 +1,7 @@
 /** Accounts (admin only): list, create, change (name, role, disabled), send a reset link. */
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
-import type { AccountRole } from '../../shared/workflow/roles';
+import type { AccountRole } from '#shared/workflow/roles';
 import { currentUser, requirePermission } from '../auth/require';
 import { createUser, issuePasswordReset, listUsers, setAccountDisabled, updateUser } from '../services/users.service';
 import { NEW_USER_BODY, USER_CHANGES_BODY } from '../validation/bodies';

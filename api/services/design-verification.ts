@@ -6,8 +6,8 @@
  */
 import type { DataSource, EntityManager } from 'typeorm';
 import { VerificationJobEntity } from '../entities/verification-job.entity';
-import { freshness, resultForDesign, type DesignBinding, type DesignToMatch } from '../../shared/verification/binding';
-import type { DesignVerificationState, ProposalVerificationResult } from '../../shared/verification/types';
+import { freshness, resultForDesign, type DesignBinding, type DesignToMatch } from '#shared/verification/binding';
+import type { DesignVerificationState, ProposalVerificationResult } from '#shared/verification/types';
 
 /** How many finished jobs are searched (newest first) for one that simulated the current design. */
 const JOBS_SEARCHED = 50;

@@ -13,9 +13,9 @@
  */
 import { createHash } from 'node:crypto';
 import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
-import { cardCommentLines, cardDevice, cardNotes, readModelFile, type CardDevice, type CardOrigin, type ModelCard } from '../../shared/devices/model-card';
-import { DEVICE_LIBRARY_QUOTA, type DeviceModelState, type DeviceModelView, type RecordedDeviceModel } from '../../shared/devices/types';
-import type { DeviceParams } from '../../shared/engine/types';
+import { cardCommentLines, cardDevice, cardNotes, readModelFile, type CardDevice, type CardOrigin, type ModelCard } from '#shared/devices/model-card';
+import { DEVICE_LIBRARY_QUOTA, type DeviceModelState, type DeviceModelView, type RecordedDeviceModel } from '#shared/devices/types';
+import type { DeviceParams } from '#shared/engine/types';
 import { DeviceModelEntity, type DeviceModel } from '../entities/device-model.entity';
 import { UserEntity } from '../entities/user.entity';
 import { lockRowForUpdate } from '../data-source';
@@ -24,8 +24,8 @@ import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
 import type { PublicUser } from './users.service';
-import type { DeviceListQuery } from '../../shared/api/devices';
-import type { Page } from '../../shared/api/lists';
+import type { DeviceListQuery } from '#shared/api/devices';
+import type { Page } from '#shared/api/lists';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 

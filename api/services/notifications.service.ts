@@ -25,7 +25,7 @@ import { ReviewEntity } from '../entities/review.entity';
 import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { SpecEntity } from '../entities/spec.entity';
 import { UserEntity, type User } from '../entities/user.entity';
-import type { Mailbox } from '../../shared/mail/types';
+import type { Mailbox } from '#shared/mail/types';
 import { composeMessage, DIGEST_AFTER, DIGEST_WINDOW_MS, type DecisionFacts, type MessageFacts, type NotificationKind, type ProposalFacts } from '../mail/compose';
 
 export type NotificationEvent =

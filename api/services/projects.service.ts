@@ -5,14 +5,14 @@
  * every write checks it.
  */
 import { DataSource, In, type EntityManager } from 'typeorm';
-import { mayIn, ROLE_TITLES, type Action, type ProjectRole, type ProjectRoleOf } from '../../shared/workflow/roles';
+import { mayIn, ROLE_TITLES, type Action, type ProjectRole, type ProjectRoleOf } from '#shared/workflow/roles';
 import { ProjectMemberEntity, type ProjectMember } from '../entities/project-member.entity';
 import { ProjectEntity, type Project } from '../entities/project.entity';
 import { UserEntity } from '../entities/user.entity';
 import { AppError, forbidden, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { publicUser, type PublicUser } from './users.service';
-import type { NewProject, ProjectMember as ProjectMemberView } from '../../shared/api/projects';
+import type { NewProject, ProjectMember as ProjectMemberView } from '#shared/api/projects';
 
 /** Who asks; a signed-in request's user also carries the roles held in each project (read at the start of the request). */
 type Viewer = Pick<PublicUser, 'id' | 'role'> & { projectRoles?: readonly ProjectRoleOf[] };

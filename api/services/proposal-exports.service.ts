@@ -4,12 +4,12 @@
  * audit trail). Composed here from the services that own each part; the routes only send them.
  */
 import type { DataSource } from 'typeorm';
-import { ESTIMATE_NOTICE } from '../../shared/engine/index';
-import { spiceNetlist } from '../../shared/engine/netlist';
-import type { Design } from '../../shared/engine/types';
-import type { NetlistQuery } from '../../shared/api/proposals';
-import { rankingCsv } from '../../shared/export/ranking-csv';
-import { currentDesignName } from '../../shared/workflow/current-design';
+import { ESTIMATE_NOTICE } from '#shared/engine/index';
+import { spiceNetlist } from '#shared/engine/netlist';
+import type { Design } from '#shared/engine/types';
+import type { NetlistQuery } from '#shared/api/proposals';
+import { rankingCsv } from '#shared/export/ranking-csv';
+import { currentDesignName } from '#shared/workflow/current-design';
 import { invalid } from '../errors';
 import { libraryCardNetlistComment } from './devices.service';
 import { allMeasurements } from './measurements.service';

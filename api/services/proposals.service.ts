@@ -5,35 +5,35 @@
  * writes the record and its audit event in one transaction.
  */
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { ENGINE_VERSION, type RecommendResult } from '../../shared/engine/index';
-import type { RecommendOption } from '../../shared/engine/recommend';
-import type { Design, RuleSet } from '../../shared/engine/types';
-import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '../../shared/workflow/proposal-states';
-import { mayIn, type Action } from '../../shared/workflow/roles';
+import { ENGINE_VERSION, type RecommendResult } from '#shared/engine/index';
+import type { RecommendOption } from '#shared/engine/recommend';
+import type { Design, RuleSet } from '#shared/engine/types';
+import { allowedEvents, nextState, type ProposalEvent, type ProposalState } from '#shared/workflow/proposal-states';
+import { mayIn, type Action } from '#shared/workflow/roles';
 import { AuditEventEntity } from '../entities/audit-event.entity';
 import { DecisionEntity, type Decision } from '../entities/decision.entity';
 import { ProjectMemberEntity } from '../entities/project-member.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { ReviewEntity, type Review } from '../entities/review.entity';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
-import { validateDesign } from '../../shared/validate';
+import { validateDesign } from '#shared/validate';
 import { lockRowForUpdate } from '../data-source';
 import { evaluateSpecDesign, rankSpec } from '../engine/engine-pool';
 import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { boundCurrentDesign } from '../verification/design-binding';
 import { designVerificationState } from './design-verification';
-import { currentDesignName, currentDesignSummary } from '../../shared/workflow/current-design';
-import { topologyName } from '../../shared/engine/topologies';
+import { currentDesignName, currentDesignSummary } from '#shared/workflow/current-design';
+import { topologyName } from '#shared/engine/topologies';
 import { queueNotification } from './notifications.service';
 import { projectFor } from './projects.service';
 import { specMovedOn, supersedeOlderRankings } from './spec-lifecycle.service';
 import { latestVersion, specFor, specVersionDocument, storedSpecDocument } from './specs.service';
 import { rankingOf, rankingText, storeRanking } from './rankings.service';
 import type { PublicUser } from './users.service';
-import type { AuditEvent } from '../../shared/api/admin';
-import type * as Wire from '../../shared/api/proposals';
-import type { DecisionInput, ReviewInput, WithdrawalInput } from '../../shared/api/proposals';
+import type { AuditEvent } from '#shared/api/admin';
+import type * as Wire from '#shared/api/proposals';
+import type { DecisionInput, ReviewInput, WithdrawalInput } from '#shared/api/proposals';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 

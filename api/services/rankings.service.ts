@@ -4,7 +4,7 @@
  */
 import { createHash } from 'node:crypto';
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import type { RecommendResult } from '../../shared/engine/recommend';
+import type { RecommendResult } from '#shared/engine/recommend';
 import { RankingEntity } from '../entities/ranking.entity';
 
 type Manager = DataSource | EntityManager;

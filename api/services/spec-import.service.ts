@@ -10,12 +10,12 @@
  * that row (which of them was meant is not for the server to guess).
  */
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import type { Spec as SpecDocument } from '../../shared/engine/types';
-import { batchResultsCsv } from '../../shared/export/batch-csv';
-import type { ImportAction, ImportReport, ImportRowReport } from '../../shared/import/import-report';
-import { readSpecFile } from '../../shared/import/spec-file';
-import { diffJson } from '../../shared/json-diff';
-import { decodeUploadText } from '../../shared/text/upload-text';
+import type { Spec as SpecDocument } from '#shared/engine/types';
+import { batchResultsCsv } from '#shared/export/batch-csv';
+import type { ImportAction, ImportReport, ImportRowReport } from '#shared/import/import-report';
+import { readSpecFile } from '#shared/import/spec-file';
+import { diffJson } from '#shared/json-diff';
+import { decodeUploadText } from '#shared/text/upload-text';
 import { ProposalEntity } from '../entities/proposal.entity';
 import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { SpecEntity, type Spec } from '../entities/spec.entity';

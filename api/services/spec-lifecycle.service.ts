@@ -5,9 +5,9 @@
  * spec has moved on, with the field-by-field differences.
  */
 import { In, LessThan, type DataSource, type EntityManager } from 'typeorm';
-import type { SpecMovedOn } from '../../shared/api/proposals';
-import { diffJson } from '../../shared/json-diff';
-import { nextState, SUPERSEDABLE_STATES } from '../../shared/workflow/proposal-states';
+import type { SpecMovedOn } from '#shared/api/proposals';
+import { diffJson } from '#shared/json-diff';
+import { nextState, SUPERSEDABLE_STATES } from '#shared/workflow/proposal-states';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
 import { SpecEntity } from '../entities/spec.entity';

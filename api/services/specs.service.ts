@@ -3,10 +3,10 @@
  * The spec document is validated against the shared schema before anything is written.
  */
 import type { DataSource, EntityManager } from 'typeorm';
-import type { Spec as SpecDocument } from '../../shared/engine/types';
-import { diffJson } from '../../shared/json-diff';
-import { validateSpec } from '../../shared/validate';
-import type { Action } from '../../shared/workflow/roles';
+import type { Spec as SpecDocument } from '#shared/engine/types';
+import { diffJson } from '#shared/json-diff';
+import { validateSpec } from '#shared/validate';
+import type { Action } from '#shared/workflow/roles';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
 import { SpecEntity, type Spec } from '../entities/spec.entity';
 import { lockRowForUpdate } from '../data-source';
@@ -14,7 +14,7 @@ import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
 import type { PublicUser } from './users.service';
-import type { SpecDiff, SpecInput, SpecVersion as SpecVersionView, SpecWithLatest } from '../../shared/api/specs';
+import type { SpecDiff, SpecInput, SpecVersion as SpecVersionView, SpecWithLatest } from '#shared/api/specs';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 

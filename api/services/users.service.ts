@@ -6,9 +6,9 @@
  */
 import { createHash, randomBytes } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
-import { formatDateTime } from '../../shared/text/dates';
-import type { NewUser, PasswordChanged, PasswordChangeInput, PasswordResetDone, PasswordResetInput, PasswordResetIssued, PreferencesInput, SessionUser, User as PublicUser, UserChanges } from '../../shared/api/users';
-import type { ProjectRoleOf } from '../../shared/workflow/roles';
+import { formatDateTime } from '#shared/text/dates';
+import type { NewUser, PasswordChanged, PasswordChangeInput, PasswordResetDone, PasswordResetInput, PasswordResetIssued, PreferencesInput, SessionUser, User as PublicUser, UserChanges } from '#shared/api/users';
+import type { ProjectRoleOf } from '#shared/workflow/roles';
 import { hashPassword, verifyPassword } from '../auth/password';
 import { sqlParameter } from '../data-source';
 import { checkPassword } from '../auth/password-policy';

@@ -10,7 +10,7 @@ import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { lockRowForUpdate } from '../data-source';
 import { ProposalEntity } from '../entities/proposal.entity';
 import { AppError, conflict, forbidden, invalid, notFound } from '../errors';
-import type { RecommendOption } from '../../shared/engine/recommend';
+import type { RecommendOption } from '#shared/engine/recommend';
 import {
   ACTIVE_VERIFICATION_STATES,
   MAX_ACTIVE_JOBS_PER_PERSON,
@@ -18,8 +18,8 @@ import {
   type VerificationJobView,
   type VerificationKind,
   type VerificationStatus,
-} from '../../shared/verification/types';
-import { mayIn, type ProjectRole } from '../../shared/workflow/roles';
+} from '#shared/verification/types';
+import { mayIn, type ProjectRole } from '#shared/workflow/roles';
 import { ProjectMemberEntity } from '../entities/project-member.entity';
 import { specVersionDocument } from './specs.service';
 import { rankingOf } from './rankings.service';
@@ -29,7 +29,7 @@ import { DecisionEntity } from '../entities/decision.entity';
 import { recordEvent } from './audit.service';
 import { monteCarloRefusal } from '../verification/monte-carlo';
 import type { PublicUser } from './users.service';
-import type { MonteCarloInput } from '../../shared/api/verification';
+import type { MonteCarloInput } from '#shared/api/verification';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 

@@ -7,22 +7,22 @@
  * not exactly the shape's required fields, or whose field schema does not fit the field's type
  * (an enum's values, string, number, boolean). Change both together.
  */
-import { ACCOUNT_ROLES, PROJECT_ROLES } from '../../shared/workflow/roles';
-import { PROPOSAL_STATES } from '../../shared/workflow/proposal-states';
-import { TOPOLOGIES } from '../../shared/engine/types';
-import { DESIGN_SCHEMA } from '../../shared/validate';
-import { MONTE_CARLO_RUNS } from '../../shared/verification/types';
+import { ACCOUNT_ROLES, PROJECT_ROLES } from '#shared/workflow/roles';
+import { PROPOSAL_STATES } from '#shared/workflow/proposal-states';
+import { TOPOLOGIES } from '#shared/engine/types';
+import { DESIGN_SCHEMA } from '#shared/validate';
+import { MONTE_CARLO_RUNS } from '#shared/verification/types';
 import { MIN_PASSWORD_LENGTH } from '../auth/password';
-import { PLAIN_EMAIL_PATTERN, PLAIN_LINES_PATTERN, PLAIN_NAME_PATTERN } from '../../shared/text/plain-text';
-import type { DeviceListQuery, RecordedDeviceQuery } from '../../shared/api/devices';
-import type { PageQuery } from '../../shared/api/lists';
-import type { MeasurementListQuery } from '../../shared/api/measurements';
-import type { MembershipInput, NewProject } from '../../shared/api/projects';
-import type { DecisionInput, EvaluationInput, NetlistQuery, ProposalListQuery, ReviewInput, WithdrawalInput } from '../../shared/api/proposals';
-import type { DiffQuery, SpecInput } from '../../shared/api/specs';
-import type { ImportQuery } from '../../shared/api/batch';
-import type { LoginInput, NewUser, PasswordChangeInput, PasswordResetInput, PreferencesInput, UserChanges } from '../../shared/api/users';
-import type { MonteCarloInput } from '../../shared/api/verification';
+import { PLAIN_EMAIL_PATTERN, PLAIN_LINES_PATTERN, PLAIN_NAME_PATTERN } from '#shared/text/plain-text';
+import type { DeviceListQuery, RecordedDeviceQuery } from '#shared/api/devices';
+import type { PageQuery } from '#shared/api/lists';
+import type { MeasurementListQuery } from '#shared/api/measurements';
+import type { MembershipInput, NewProject } from '#shared/api/projects';
+import type { DecisionInput, EvaluationInput, NetlistQuery, ProposalListQuery, ReviewInput, WithdrawalInput } from '#shared/api/proposals';
+import type { DiffQuery, SpecInput } from '#shared/api/specs';
+import type { ImportQuery } from '#shared/api/batch';
+import type { LoginInput, NewUser, PasswordChangeInput, PasswordResetInput, PreferencesInput, UserChanges } from '#shared/api/users';
+import type { MonteCarloInput } from '#shared/api/verification';
 import { wire, type Defaulted } from './wire-schema';
 
 const email = { type: 'string', minLength: 3, maxLength: 254, pattern: PLAIN_EMAIL_PATTERN } as const;

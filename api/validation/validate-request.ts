@@ -3,7 +3,7 @@
  * shared ajv instance; a 400 with every problem's JSON path, or the validated copy put back.
  */
 import type { RequestHandler } from 'express';
-import { compileValidator, type ValidationResult } from '../../shared/validate';
+import { compileValidator, type ValidationResult } from '#shared/validate';
 import { invalid, notFound } from '../errors';
 
 /**

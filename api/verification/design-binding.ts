@@ -3,10 +3,10 @@
  * canonical JSON of the design's values, the spec version, the engine and rule-set versions.
  */
 import { createHash } from 'node:crypto';
-import { bindingInputs, canonicalJson, type BindingInputs, type DesignBinding } from '../../shared/verification/binding';
-import type { Design } from '../../shared/engine/types';
-import type { RecommendResult } from '../../shared/engine/recommend';
-import { currentDesign, type CurrentDesign, type DecisionLike } from '../../shared/workflow/current-design';
+import { bindingInputs, canonicalJson, type BindingInputs, type DesignBinding } from '#shared/verification/binding';
+import type { Design } from '#shared/engine/types';
+import type { RecommendResult } from '#shared/engine/recommend';
+import { currentDesign, type CurrentDesign, type DecisionLike } from '#shared/workflow/current-design';
 
 export function fingerprint(inputs: BindingInputs): string {
   return createHash('sha256').update(canonicalJson(inputs)).digest('hex');

@@ -9,11 +9,11 @@
  * The simulated circuit scales RC1 and RC2 by their own draws (the closed form sees only their
  * ratio); the difference that makes is part of what this run shows.
  */
-import { solveStage } from '../../shared/engine/analyze';
-import { mismatchCmrrDb, mismatchSensitivity, mismatchStages, monteCarloDraws, monteCarloSample, percentile, resistorToleranceFraction } from '../../shared/engine/mismatch';
-import type { RecommendOption } from '../../shared/engine/recommend';
-import type { Design, Spec } from '../../shared/engine/types';
-import type { MonteCarloVerificationResult } from '../../shared/verification/types';
+import { solveStage } from '#shared/engine/analyze';
+import { mismatchCmrrDb, mismatchSensitivity, mismatchStages, monteCarloDraws, monteCarloSample, percentile, resistorToleranceFraction } from '#shared/engine/mismatch';
+import type { RecommendOption } from '#shared/engine/recommend';
+import type { Design, Spec } from '#shared/engine/types';
+import type { MonteCarloVerificationResult } from '#shared/verification/types';
 import type { SpiceRunner } from './spice-analyses';
 import { acAt } from './verify-option';
 

@@ -8,7 +8,7 @@
  * current flowing into the source's + terminal (so a rail delivering current reads negative).
  */
 import type { ResultType } from 'eecircuit-engine';
-import { RAIL_NODES, stageCircuit, type CircuitElement, type ResistorElement, type TransistorElement } from '../../shared/engine/circuit';
+import { RAIL_NODES, stageCircuit, type CircuitElement, type ResistorElement, type TransistorElement } from '#shared/engine/circuit';
 import {
   INPUT_SOURCES,
   SUPPLY_SOURCES,
@@ -17,8 +17,8 @@ import {
   type AcSweep,
   type NetlistOptions,
   type NetlistSolverSettings,
-} from '../../shared/engine/netlist';
-import type { Design } from '../../shared/engine/types';
+} from '#shared/engine/netlist';
+import type { Design } from '#shared/engine/types';
 
 /** Runs one netlist and returns ngspice's raw result; throws with ngspice's message when the run fails or returns another plot than `expectedPlot`. */
 export type SpiceRunner = (netlist: string, expectedPlot?: string) => Promise<ResultType>;

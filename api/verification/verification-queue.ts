@@ -39,17 +39,17 @@ import { rankingOf } from '../services/rankings.service';
 import { DecisionEntity } from '../entities/decision.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { VerificationJobEntity, type VerificationJob } from '../entities/verification-job.entity';
-import type { RecommendOption, RecommendResult } from '../../shared/engine/recommend';
-import type { Spec } from '../../shared/engine/types';
-import type { DesignBinding } from '../../shared/verification/binding';
+import type { RecommendOption, RecommendResult } from '#shared/engine/recommend';
+import type { Spec } from '#shared/engine/types';
+import type { DesignBinding } from '#shared/verification/binding';
 import { designBinding } from './design-binding';
-import { topologyName } from '../../shared/engine/topologies';
+import { topologyName } from '#shared/engine/topologies';
 import {
   VERIFICATION_TOLERANCES,
   type MonteCarloVerificationResult,
   type OptionVerification,
   type ProposalVerificationResult,
-} from '../../shared/verification/types';
+} from '#shared/verification/types';
 import { SpiceEngine } from './spice-engine';
 import { analysesPerOption, verifyOption, type OptionToVerify } from './verify-option';
 import { runMonteCarlo } from './monte-carlo';

@@ -5,16 +5,16 @@
  * of input common mode × temperature. Every simulated figure is set beside the engine's stored
  * prediction with its delta and the documented tolerance (`VERIFICATION_TOLERANCES`).
  */
-import type { RecommendOption } from '../../shared/engine/recommend';
-import type { Design } from '../../shared/engine/types';
-import type { DesignBinding } from '../../shared/verification/binding';
+import type { RecommendOption } from '#shared/engine/recommend';
+import type { Design } from '#shared/engine/types';
+import type { DesignBinding } from '#shared/verification/binding';
 import {
   VERIFICATION_TOLERANCES as TOL,
   type OptionVerification,
   type RejectionPoint,
   type VerifiedCondition,
   type VerifiedFigure,
-} from '../../shared/verification/types';
+} from '#shared/verification/types';
 import {
   REFERENCE_RELATIVE_TOLERANCE,
   complexMagnitude,
@@ -24,11 +24,11 @@ import {
   spiceOperatingPoint,
   type SpiceRunner,
 } from './spice-analyses';
-import { TAIL_TEST_SOURCE, type AcSweep } from '../../shared/engine/netlist';
-import { singleEndedCmrrDbAt, solveStage } from '../../shared/engine/analyze';
-import { conditionLabel } from '../../shared/text/engine-notes';
-import { NOMINAL_TEMPERATURE_C } from '../../shared/engine/constants';
-import { formatQuantity } from '../../shared/units/format-quantity';
+import { TAIL_TEST_SOURCE, type AcSweep } from '#shared/engine/netlist';
+import { singleEndedCmrrDbAt, solveStage } from '#shared/engine/analyze';
+import { conditionLabel } from '#shared/text/engine-notes';
+import { NOMINAL_TEMPERATURE_C } from '#shared/engine/constants';
+import { formatQuantity } from '#shared/units/format-quantity';
 
 /** Points per decade of the nominal sweeps; every fifth point lands on the engine's 4-per-decade curve. */
 const SWEEP_POINTS_PER_DECADE = 20;

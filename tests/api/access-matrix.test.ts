@@ -7,7 +7,7 @@
  * access decision; the two "state" rows show the role check still comes before the 409.
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { may, PERMISSIONS, type Action, type Role } from '../../shared/workflow/roles';
+import { may, PERMISSIONS, type Action, type Role } from '#shared/workflow/roles';
 import { buildApiApp, type AccountKey, type ApiClient, type TestApi } from '../helpers/api-app';
 import { arrangeMatrix, CALLERS, fillUrl, MATRIX, registeredRoutes, type Caller, type Ids, type Row } from '../helpers/access-matrix';
 

@@ -17,7 +17,7 @@ import { MIGRATIONS } from '../../api/migrations/index';
 import { CheckMetadata1764900100000 } from '../../api/migrations/1764900100000-check-metadata';
 import { getProposal } from '../../api/services/proposals.service';
 import { checkedSpecDocument } from '../../api/services/specs.service';
-import { ENGINE_VERSION, evaluateDesign, recommend } from '../../shared/engine/index';
+import { ENGINE_VERSION, evaluateDesign, recommend } from '#shared/engine/index';
 import { loadRuleSet } from '../../rules/index';
 import { RULES_DIR } from '../../rules/run-rules';
 import { freshDatabase, type TestDatabase } from '../helpers/test-database';

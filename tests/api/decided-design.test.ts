@@ -11,9 +11,9 @@
  * RE 82.5 Ω); the stale wording is written here as a designer would read it.
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import type { Design } from '../../shared/engine/types';
+import type { Design } from '#shared/engine/types';
 import { VerificationJobEntity } from '../../api/entities/verification-job.entity';
-import type { OptionVerification, ProposalVerificationResult, VerificationJobView, VerificationStatus } from '../../shared/verification/types';
+import type { OptionVerification, ProposalVerificationResult, VerificationJobView, VerificationStatus } from '#shared/verification/types';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
 
 let api: TestApi;

@@ -15,7 +15,7 @@ import { MIGRATIONS } from '../../api/migrations/index';
 import { DistinctRankings1764900000000 } from '../../api/migrations/1764900000000-distinct-rankings';
 import { createProposal, getProposal, listProposals } from '../../api/services/proposals.service';
 import { checkedSpecDocument } from '../../api/services/specs.service';
-import { ENGINE_VERSION, recommend } from '../../shared/engine/index';
+import { ENGINE_VERSION, recommend } from '#shared/engine/index';
 import { loadRuleSet } from '../../rules/index';
 import { freshDatabase, type TestDatabase } from '../helpers/test-database';
 

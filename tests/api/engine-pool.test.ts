@@ -5,13 +5,13 @@
  * process's pool is shared by the apps in it and its threads stop with the last one closed.
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { evaluateDesign, recommend } from '../../shared/engine/index';
-import { ConvergenceError } from '../../shared/engine/operating-point';
-import { InputError } from '../../shared/engine/errors';
-import type { Design, Spec } from '../../shared/engine/types';
+import { evaluateDesign, recommend } from '#shared/engine/index';
+import { ConvergenceError } from '#shared/engine/operating-point';
+import { InputError } from '#shared/engine/errors';
+import type { Design, Spec } from '#shared/engine/types';
 import { enginePoolState, rankSpec } from '../../api/engine/engine-pool';
 import { describeError, errorFrom } from '../../api/engine/engine-tasks';
-import { validateDesign } from '../../shared/validate';
+import { validateDesign } from '#shared/validate';
 import { checkedSpecDocument } from '../../api/services/specs.service';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
 

@@ -3,7 +3,7 @@
  * with nothing recorded.
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import type { Design } from '../../shared/engine/types';
+import type { Design } from '#shared/engine/types';
 import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
 import { countRows } from '../helpers/api-validation-helpers';
 

@@ -2,8 +2,8 @@
  * Exports of a proposal: the ranking as CSV (RFC 4180) and the whole record as JSON.
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { parseNetlistElements } from '../../shared/engine/netlist';
-import { csvField } from '../../shared/export/ranking-csv';
+import { parseNetlistElements } from '#shared/engine/netlist';
+import { csvField } from '#shared/export/ranking-csv';
 import { runSpice } from '../helpers/spice';
 import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
 

@@ -8,8 +8,8 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { SpecVersionEntity } from '../../api/entities/spec-version.entity';
 import { SpecEntity } from '../../api/entities/spec.entity';
-import { spiceNetlist } from '../../shared/engine/netlist';
-import type { Design } from '../../shared/engine/types';
+import { spiceNetlist } from '#shared/engine/netlist';
+import type { Design } from '#shared/engine/types';
 import { runSpice } from '../helpers/spice';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
 

@@ -19,7 +19,7 @@ import { createOutboxWorker, retryDelayMs, startOutboxWorker, type OutboxWorker 
 import { createMailTransport } from '../../api/mail/transport';
 import { InitialSchema1764612000000 } from '../../api/migrations/1764612000000-initial-schema';
 import { configureNotifications } from '../../api/services/notifications.service';
-import type { ReceivedMail } from '../../shared/mail/types';
+import type { ReceivedMail } from '#shared/mail/types';
 import { createUser } from '../../api/services/users.service';
 import { buildApiApp, emailOf, TEST_PASSWORD, type ApiClient, type TestApi } from '../helpers/api-app';
 import { freshDatabase, TEST_BACKEND } from '../helpers/test-database';

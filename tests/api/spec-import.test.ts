@@ -10,7 +10,7 @@ import { AuditEventEntity } from '../../api/entities/audit-event.entity';
 import { SpecVersionEntity } from '../../api/entities/spec-version.entity';
 import { SpecEntity } from '../../api/entities/spec.entity';
 import { addMember } from '../../api/services/projects.service';
-import type { Proposal } from '../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
 import { TEST_BACKEND } from '../helpers/test-database';
 

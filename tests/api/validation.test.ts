@@ -4,7 +4,7 @@
  * with the offending JSON path in `details`, no server error, and not one row changed.
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import type { Role } from '../../shared/workflow/roles';
+import type { Role } from '#shared/workflow/roles';
 import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
 import { countRows } from '../helpers/api-validation-helpers';
 

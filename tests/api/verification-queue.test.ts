@@ -8,7 +8,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { VerificationJobEntity, type VerificationJob } from '../../api/entities/verification-job.entity';
 import { SpiceEngine } from '../../api/verification/spice-engine';
-import type { ProposalVerificationResult, VerificationJobView, VerificationStatus } from '../../shared/verification/types';
+import type { ProposalVerificationResult, VerificationJobView, VerificationStatus } from '#shared/verification/types';
 import { buildApiApp, type AccountKey, type ApiClient, type TestApi } from '../helpers/api-app';
 
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));

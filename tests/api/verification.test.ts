@@ -15,7 +15,7 @@ import type {
   VerificationJobView,
   VerificationStatus,
   VerifiedFigure,
-} from '../../shared/verification/types';
+} from '#shared/verification/types';
 import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
 import { freshDatabase, type TestDatabase } from '../helpers/test-database';
 

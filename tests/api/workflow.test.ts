@@ -5,8 +5,8 @@
  * with what is allowed now; the audit trail tells the story; the list pages and filters.
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { ENGINE_VERSION } from '../../shared/engine/index';
-import type { Design } from '../../shared/engine/types';
+import { ENGINE_VERSION } from '#shared/engine/index';
+import type { Design } from '#shared/engine/types';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
 
 let api: TestApi;

@@ -7,11 +7,11 @@
 import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { analyze, recommend, solveStage } from '../../shared/engine/index';
-import { mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws } from '../../shared/engine/mismatch';
-import { spiceNetlist } from '../../shared/engine/netlist';
-import type { Design, Spec } from '../../shared/engine/types';
-import { validateSpec } from '../../shared/validate';
+import { analyze, recommend, solveStage } from '#shared/engine/index';
+import { mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws } from '#shared/engine/mismatch';
+import { spiceNetlist } from '#shared/engine/netlist';
+import type { Design, Spec } from '#shared/engine/types';
+import { validateSpec } from '#shared/validate';
 import { loadRuleSet } from '../../rules/index';
 
 const BATCHES = 25;

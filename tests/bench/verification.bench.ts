@@ -8,14 +8,14 @@
 import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { recommend, type RecommendResult } from '../../shared/engine/index';
-import type { Spec } from '../../shared/engine/types';
-import { validateSpec } from '../../shared/validate';
+import { recommend, type RecommendResult } from '#shared/engine/index';
+import type { Spec } from '#shared/engine/types';
+import { validateSpec } from '#shared/validate';
 import { loadRuleSet } from '../../rules/index';
 import { SpiceEngine } from '../../api/verification/spice-engine';
 import { verifyOption } from '../../api/verification/verify-option';
 import { runMonteCarlo } from '../../api/verification/monte-carlo';
-import { topologyName } from '../../shared/engine/topologies';
+import { topologyName } from '#shared/engine/topologies';
 
 const WARM_RUNS = 5;
 const MONTE_CARLO_RUNS = 200;

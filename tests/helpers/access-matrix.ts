@@ -17,7 +17,7 @@ import { addMember } from '../../api/services/projects.service';
 import { decide, review } from '../../api/services/proposals.service';
 import { updateSpec } from '../../api/services/specs.service';
 import type { PublicUser } from '../../api/services/users.service';
-import type { Action } from '../../shared/workflow/roles';
+import type { Action } from '#shared/workflow/roles';
 import { In, IsNull, Not } from 'typeorm';
 import { emailOf, specPayload, TEST_PASSWORD, type TestApi } from './api-app';
 

@@ -1,4 +1,4 @@
-import type { OptionFacts } from '../../shared/engine/types';
+import type { OptionFacts } from '#shared/engine/types';
 
 /**
  * A complete, self-consistent OptionFacts with invented demo numbers (not from any circuit):

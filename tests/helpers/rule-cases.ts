@@ -4,7 +4,7 @@
  */
 import { expect, test } from 'vitest';
 import { loadRuleFiles, runRules } from '../../rules/run-rules';
-import type { OptionFacts, Severity } from '../../shared/engine/types';
+import type { OptionFacts, Severity } from '#shared/engine/types';
 import { makeOptionFacts } from './option-facts';
 
 export interface RuleCase {

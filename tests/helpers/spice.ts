@@ -6,8 +6,8 @@
  * ngspice the same way; every netlist comes from the product's writer, `spiceNetlist`.
  */
 import { Simulation, type ResultType } from 'eecircuit-engine';
-import type { NetlistSolverSettings } from '../../shared/engine/netlist';
-import type { Design } from '../../shared/engine/types';
+import type { NetlistSolverSettings } from '#shared/engine/netlist';
+import type { Design } from '#shared/engine/types';
 import {
   plotName,
   spiceAc as spiceAcWith,

@@ -21,8 +21,8 @@
  * voltage 2 % off moves every gain by about 2 %).
  */
 import { beforeAll, describe, expect, test } from 'vitest';
-import { analyze } from '../../shared/engine/analyze';
-import type { AnalyzeResult, Design, DeviceParams } from '../../shared/engine/types';
+import { analyze } from '#shared/engine/analyze';
+import type { AnalyzeResult, Design, DeviceParams } from '#shared/engine/types';
 import { spiceFigures, startSpice, type SpiceFigures } from '../helpers/spice';
 
 // tolerances from the issue; the reference is ngspice (eecircuit-engine) on the same netlist

@@ -13,7 +13,7 @@
  */
 import fc from 'fast-check';
 import type request from 'supertest';
-import { DESIGN_SCHEMA, SPEC_SCHEMA } from '../../shared/validate';
+import { DESIGN_SCHEMA, SPEC_SCHEMA } from '#shared/validate';
 import {
   DECISION_BODY,
   DIFF_QUERY,

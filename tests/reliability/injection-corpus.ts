@@ -28,7 +28,7 @@ import { createApp } from '../../api/app';
 import { openDatabase } from '../../api/data-source';
 import { seedDemo } from '../../api/seed/demo-seed';
 import { loadRuleSet } from '../../rules/index';
-import { firstUnsafeCharacter } from '../../shared/text/plain-text';
+import { firstUnsafeCharacter } from '#shared/text/plain-text';
 import { specPayload } from '../helpers/api-app';
 import { launchBrowser, networkQuiet, newContext } from '../e2e/helpers/browser';
 import { DEMO_PASSWORD } from '../e2e/helpers/server';

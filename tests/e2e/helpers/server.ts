@@ -20,7 +20,7 @@ import { startOutboxWorker, type OutboxWorker } from '../../../api/mail/outbox-w
 import { createMailTransport } from '../../../api/mail/transport';
 import { seedDemo } from '../../../api/seed/demo-seed';
 import { configureNotifications, notificationSettings } from '../../../api/services/notifications.service';
-import type { RuleSet } from '../../../shared/engine/types';
+import type { RuleSet } from '#shared/engine/types';
 import { loadRuleSet } from '../../../rules/index';
 import { webDist } from './paths';
 

@@ -10,8 +10,8 @@ import { readFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { beforeAll, describe, expect, test } from 'vitest';
-import { analyze } from '../../../shared/engine/index';
-import { validateDesign } from '../../../shared/validate';
+import { analyze } from '#shared/engine/index';
+import { validateDesign } from '#shared/validate';
 import { CONTRACT_FIELDS } from '../../helpers/contract-fields';
 
 const REPO_ROOT = fileURLToPath(new URL('../../../', import.meta.url));

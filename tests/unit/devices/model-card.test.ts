@@ -8,7 +8,7 @@
  * never mega [SPICE]. The comment forms are ngspice's (`*` lines; `;`, `$ ` and `//` to the end
  * of a line; `+` continuations). The device names and values are invented.
  */
-import { commentLines } from '../../../shared/text/plain-text';
+import { commentLines } from '#shared/text/plain-text';
 import { describe, expect, test } from 'vitest';
 import {
   cardCommentLines,
@@ -19,7 +19,7 @@ import {
   parseModelCards,
   readModelFile,
   type ModelCard,
-} from '../../../shared/devices/model-card';
+} from '#shared/devices/model-card';
 
 const bytes = (text: string) => new TextEncoder().encode(text);
 

@@ -7,10 +7,10 @@
  * the formula, the comment says so: that row checks the small-signal solve, not the bias.
  */
 import { describe, expect, test } from 'vitest';
-import { analyze, singleEndedCmrrDbAt, solveStage } from '../../../shared/engine/index';
-import { TOPOLOGIES, type AnalyzeResult, type Design, type DeviceParams, type TailDesign, type TopologyId } from '../../../shared/engine/types';
+import { analyze, singleEndedCmrrDbAt, solveStage } from '#shared/engine/index';
+import { TOPOLOGIES, type AnalyzeResult, type Design, type DeviceParams, type TailDesign, type TopologyId } from '#shared/engine/types';
 import { CONTRACT_NUMBER_FIELDS } from '../../helpers/contract-fields';
-import { firstNonFinitePath } from '../../../shared/engine/finite';
+import { firstNonFinitePath } from '#shared/engine/finite';
 
 /** An invented small-signal NPN (not a catalogue part). */
 const DEVICE: DeviceParams = { family: 'npn', beta: 150, earlyVoltageV: 90, saturationCurrentA: 4e-15 };

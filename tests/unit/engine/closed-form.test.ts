@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
-import { closedFormTailRout, ROUT_FORMULAS } from '../../../shared/engine/closed-form';
-import type { TailDesign, TransistorOperatingPoint } from '../../../shared/engine/types';
+import { closedFormTailRout, ROUT_FORMULAS } from '#shared/engine/closed-form';
+import type { TailDesign, TransistorOperatingPoint } from '#shared/engine/types';
 
 // The textbook limits of a tail's output resistance [GM: Gray, Hurst, Lewis, Meyer, "Analysis and
 // Design of Analog Integrated Circuits", 5th ed., 4.2 (simple mirror ro), 4.3.2 (emitter

@@ -1,7 +1,7 @@
 import { describe, expect, test } from 'vitest';
-import { cornerConditions, nominalCondition, TEMPERATURE_SWEEP_POINTS, temperatureSweep } from '../../../shared/engine/conditions';
-import { conditionLabel } from '../../../shared/text/engine-notes';
-import type { Spec } from '../../../shared/engine/types';
+import { cornerConditions, nominalCondition, TEMPERATURE_SWEEP_POINTS, temperatureSweep } from '#shared/engine/conditions';
+import { conditionLabel } from '#shared/text/engine-notes';
+import type { Spec } from '#shared/engine/types';
 
 // Operating conditions: nominal at mid common mode and SPICE's nominal temperature TNOM = 27 °C
 // (ngspice manual, ".options TNOM", default 27 °C) clamped into the spec's range; the four corners

@@ -13,8 +13,8 @@ import {
   NOMINAL_TEMPERATURE_C,
   ZERO_CELSIUS_K,
   thermalVoltageV,
-} from '../../../shared/engine/constants';
-import { npnModel, saturationCurrentAtA } from '../../../shared/engine/device';
+} from '#shared/engine/constants';
+import { npnModel, saturationCurrentAtA } from '#shared/engine/device';
 
 describe('SI constants', () => {
   test('k is exactly 1.380649e-23 J/K [SI]', () => {

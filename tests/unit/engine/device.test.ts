@@ -7,9 +7,9 @@
  * 1e-6 of the currents, and the comparison is relative 1e-6.
  */
 import { describe, expect, test } from 'vitest';
-import { thermalVoltageV } from '../../../shared/engine/constants';
-import { earlyVoltageOrInfinityV, nominalSaturationCurrentA, npnModel, saturationCurrentAtA } from '../../../shared/engine/device';
-import type { DeviceParams } from '../../../shared/engine/types';
+import { thermalVoltageV } from '#shared/engine/constants';
+import { earlyVoltageOrInfinityV, nominalSaturationCurrentA, npnModel, saturationCurrentAtA } from '#shared/engine/device';
+import type { DeviceParams } from '#shared/engine/types';
 
 const RELATIVE_TOLERANCE = 1e-6;
 

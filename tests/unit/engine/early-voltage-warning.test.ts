@@ -4,8 +4,8 @@
  * rejection as meaningful; that warning is about the input, not the operating point.
  */
 import { expect, test } from 'vitest';
-import { analyze } from '../../../shared/engine/analyze';
-import type { Design } from '../../../shared/engine/types';
+import { analyze } from '#shared/engine/analyze';
+import type { Design } from '#shared/engine/types';
 
 // Invented demo design.
 const design: Design = {

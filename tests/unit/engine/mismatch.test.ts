@@ -5,10 +5,10 @@
  * tests/reference checks against ngspice), so the linearisation is what is under test.
  */
 import { describe, expect, test } from 'vitest';
-import { analyze, solveStage, transfersAt } from '../../../shared/engine/analyze';
-import { mismatchCmrrDb, mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws, worstCaseMismatchCmrrDb } from '../../../shared/engine/mismatch';
-import { gaussianSource } from '../../../shared/engine/random';
-import type { Design } from '../../../shared/engine/types';
+import { analyze, solveStage, transfersAt } from '#shared/engine/analyze';
+import { mismatchCmrrDb, mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws, worstCaseMismatchCmrrDb } from '#shared/engine/mismatch';
+import { gaussianSource } from '#shared/engine/random';
+import type { Design } from '#shared/engine/types';
 
 // Invented demo designs (not from a textbook).
 const DESIGNS: Record<string, Design> = {

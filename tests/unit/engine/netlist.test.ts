@@ -4,9 +4,9 @@
  * ngspice runs of every topology with sanity checks against hand formulas (DOMAIN.md).
  */
 import { beforeAll, describe, expect, test, vi } from 'vitest';
-import { stageCircuit } from '../../../shared/engine/circuit';
-import { thermalVoltageV } from '../../../shared/engine/constants';
-import { nominalSaturationCurrentA, saturationCurrentAtA } from '../../../shared/engine/device';
+import { stageCircuit } from '#shared/engine/circuit';
+import { thermalVoltageV } from '#shared/engine/constants';
+import { nominalSaturationCurrentA, saturationCurrentAtA } from '#shared/engine/device';
 import {
   SPICE_MODEL_NAME,
   TAIL_TEST_SOURCE,
@@ -14,9 +14,9 @@ import {
   spiceNetlist,
   type NetlistOptions,
   type ParsedElement,
-} from '../../../shared/engine/netlist';
-import { TOPOLOGIES, type Design, type DeviceParams, type TailDesign, type TopologyId } from '../../../shared/engine/types';
-import { parseSpiceNumber } from '../../../shared/units/spice-number';
+} from '#shared/engine/netlist';
+import { TOPOLOGIES, type Design, type DeviceParams, type TailDesign, type TopologyId } from '#shared/engine/types';
+import { parseSpiceNumber } from '#shared/units/spice-number';
 import { runSpice, spiceAc, spiceFigures, spiceOperatingPoint, startSpice } from '../../helpers/spice';
 
 /** ngspice's first start (WebAssembly instantiation) takes about a second; allow for a slow machine. */

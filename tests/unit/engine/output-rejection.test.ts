@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { outputRejection, REJECTION_KIND_WORDS } from '../../../shared/engine/output-rejection';
+import { outputRejection, REJECTION_KIND_WORDS } from '#shared/engine/output-rejection';
 import { makeOptionFacts } from '../../helpers/option-facts';
 
 // Which rejection figure an option is judged by, as the two rule files say (rules/cmrr-target.json:

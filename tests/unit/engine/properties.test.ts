@@ -10,10 +10,10 @@
  */
 import fc from 'fast-check';
 import { describe, expect, test } from 'vitest';
-import { analyze, recommend } from '../../../shared/engine/index';
-import type { Design, DeviceParams, TailDesign } from '../../../shared/engine/types';
-import { isOnSeries } from '../../../shared/units';
-import { validateSpec } from '../../../shared/validate';
+import { analyze, recommend } from '#shared/engine/index';
+import type { Design, DeviceParams, TailDesign } from '#shared/engine/types';
+import { isOnSeries } from '#shared/units/index';
+import { validateSpec } from '#shared/validate';
 import { loadRuleSet } from '../../../rules/index';
 import { uniformBetween } from '../../helpers/arbitraries';
 

@@ -9,8 +9,8 @@
  * (1144304738 / 2^32).
  */
 import { describe, expect, test } from 'vitest';
-import { monteCarloDraws } from '../../../shared/engine/mismatch';
-import { gaussianSource, MAX_SEED, mulberry32 } from '../../../shared/engine/random';
+import { monteCarloDraws } from '#shared/engine/mismatch';
+import { gaussianSource, MAX_SEED, mulberry32 } from '#shared/engine/random';
 
 /** seed → first four 32-bit outputs and the first four standard-normal draws made from them. */
 const REFERENCE: [seed: number, raw: number[], normals: number[]][] = [

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { rankOptions, recommendedTopology, type Rankable } from '../../../shared/engine/ranking';
+import { rankOptions, recommendedTopology, type Rankable } from '#shared/engine/ranking';
 
 // The ranking and the two selection policies as the user documentation states them
 // (docs/command-line.md "policy", DEVELOPERS.md "How the engine computes"): passing options

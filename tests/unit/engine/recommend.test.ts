@@ -6,10 +6,10 @@
  * the spec tolerance); no expected figure is copied from an engine run.
  */
 import { beforeAll, describe, expect, test } from 'vitest';
-import { analyze, recommend, type RecommendOption, type RecommendResult } from '../../../shared/engine/index';
-import { TOPOLOGIES, type OptionFacts, type RuleSet, type Spec } from '../../../shared/engine/types';
-import { isOnSeries } from '../../../shared/units';
-import { validateDesign, validateSpec } from '../../../shared/validate';
+import { analyze, recommend, type RecommendOption, type RecommendResult } from '#shared/engine/index';
+import { TOPOLOGIES, type OptionFacts, type RuleSet, type Spec } from '#shared/engine/types';
+import { isOnSeries } from '#shared/units/index';
+import { validateDesign, validateSpec } from '#shared/validate';
 import { loadRuleSet } from '../../../rules/index';
 import { loadRuleFiles } from '../../../rules/run-rules';
 

@@ -9,10 +9,10 @@
  * uses (its stated design choice), and its reference resistor is snapped before RE is refined.
  */
 import { describe, expect, test } from 'vitest';
-import { recommend } from '../../../shared/engine/index';
-import { TOPOLOGIES } from '../../../shared/engine/topologies';
-import { E_SERIES } from '../../../shared/units/e-series';
-import { validateSpec } from '../../../shared/validate';
+import { recommend } from '#shared/engine/index';
+import { TOPOLOGIES } from '#shared/engine/topologies';
+import { E_SERIES } from '#shared/units/e-series';
+import { validateSpec } from '#shared/validate';
 import { loadRuleSet } from '../../../rules/index';
 
 const ruleSet = await loadRuleSet();

@@ -7,7 +7,7 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, test } from 'vitest';
-import { ENGINE_SOURCES, engineSource } from '../../../shared/engine/sources';
+import { ENGINE_SOURCES, engineSource } from '#shared/engine/sources';
 
 const root = join(import.meta.dirname, '..', '..', '..');
 

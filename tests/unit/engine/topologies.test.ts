@@ -6,10 +6,10 @@
  * resistance is the one seen looking into that collector).
  */
 import { describe, expect, test } from 'vitest';
-import type { CircuitElement } from '../../../shared/engine/circuit';
-import { tailElements } from '../../../shared/engine/tail-elements';
-import { TOPOLOGIES, TOPOLOGY_CATALOGUE, tailValueOhm, topologyName, unhandledTopology } from '../../../shared/engine/topologies';
-import { SPEC_SCHEMA } from '../../../shared/validate';
+import type { CircuitElement } from '#shared/engine/circuit';
+import { tailElements } from '#shared/engine/tail-elements';
+import { TOPOLOGIES, TOPOLOGY_CATALOGUE, tailValueOhm, topologyName, unhandledTopology } from '#shared/engine/topologies';
+import { SPEC_SCHEMA } from '#shared/validate';
 import { TAILS } from '../schema/schema-fixtures';
 
 const GUESS = { positiveV: 12, negativeV: -12, tailNodeGuessV: -0.65, vbeGuessV: 0.65 };

@@ -5,8 +5,8 @@
  */
 import Papa from 'papaparse';
 import { describe, expect, test } from 'vitest';
-import type { RecommendResult } from '../../../shared/engine/recommend';
-import { rankingCsv } from '../../../shared/export/ranking-csv';
+import type { RecommendResult } from '#shared/engine/recommend';
+import { rankingCsv } from '#shared/export/ranking-csv';
 
 function result(): RecommendResult {
   const option = {

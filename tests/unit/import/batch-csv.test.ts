@@ -5,9 +5,9 @@
  */
 import Papa from 'papaparse';
 import { describe, expect, test } from 'vitest';
-import type { RecommendResult } from '../../../shared/engine/recommend';
-import { BATCH_CSV_HEADER, batchResultsCsv } from '../../../shared/export/batch-csv';
-import { spreadsheetSafe } from '../../../shared/text/plain-text';
+import type { RecommendResult } from '#shared/engine/recommend';
+import { BATCH_CSV_HEADER, batchResultsCsv } from '#shared/export/batch-csv';
+import { spreadsheetSafe } from '#shared/text/plain-text';
 
 /** A made-up ranking of two options with round figures (not engine output): only what the table reads. */
 function ranking(recommended: string | null, differential = false): RecommendResult {

@@ -6,8 +6,8 @@
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import { describe, expect, test } from 'vitest';
-import { columnNamed, SPEC_CSV_COLUMNS, specCsvColumnsMarkdown, specCsvTemplate, TEMPLATE_EXAMPLE_TITLE } from '../../../shared/import/spec-columns';
-import { readSpecFile } from '../../../shared/import/spec-file';
+import { columnNamed, SPEC_CSV_COLUMNS, specCsvColumnsMarkdown, specCsvTemplate, TEMPLATE_EXAMPLE_TITLE } from '#shared/import/spec-columns';
+import { readSpecFile } from '#shared/import/spec-file';
 import { COLUMNS_DOC_PATH } from '../../../scripts/write-spec-csv-columns';
 
 /** Dotted paths of every leaf value of a JSON object (arrays are leaves: one cell holds a list). */

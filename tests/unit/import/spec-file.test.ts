@@ -7,9 +7,9 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, test } from 'vitest';
-import { cellText, SPEC_CSV_COLUMNS } from '../../../shared/import/spec-columns';
-import { detectFormat, readSpecFile, type SpecFileRow } from '../../../shared/import/spec-file';
-import { validateSpec } from '../../../shared/validate';
+import { cellText, SPEC_CSV_COLUMNS } from '#shared/import/spec-columns';
+import { detectFormat, readSpecFile, type SpecFileRow } from '#shared/import/spec-file';
+import { validateSpec } from '#shared/validate';
 
 const REQUIRED_HEADER = 'title,supply.positiveV,supply.negativeV,gain.target,cmrr.minDb';
 

@@ -6,7 +6,7 @@
  * log10 2 = 0.30103 and log10 2.5 = 0.39794 (four-figure tables), and 20·log10 for a gain ratio.
  */
 import { describe, expect, test } from 'vitest';
-import { comparisonSentence, compareMeasurement, interpolateLogFrequency, measurementReference, type MeasurementReference } from '../../../shared/measurements/comparison';
+import { comparisonSentence, compareMeasurement, interpolateLogFrequency, measurementReference, type MeasurementReference } from '#shared/measurements/comparison';
 
 const curve = (...pairs: [number, number][]) => pairs.map(([frequencyHz, db]) => ({ frequencyHz, db }));
 

@@ -8,7 +8,7 @@
  * frequency unit. The files are invented.
  */
 import { describe, expect, test } from 'vitest';
-import { MEASUREMENT_FILE_MAX_BYTES, parseMeasurementCsv, pointDb, readMeasurementFile } from '../../../shared/measurements/measurement-csv';
+import { MEASUREMENT_FILE_MAX_BYTES, parseMeasurementCsv, pointDb, readMeasurementFile } from '#shared/measurements/measurement-csv';
 
 const bytes = (text: string) => new TextEncoder().encode(text);
 

@@ -8,7 +8,7 @@ import AjvImport from 'ajv';
 import fc from 'fast-check';
 import { describe, expect, test } from 'vitest';
 import { DIFF_QUERY, LOGIN_BODY, MEMBERSHIP_BODY, MONTE_CARLO_BODY, NETLIST_QUERY, NEW_PROJECT_BODY, NEW_USER_BODY, PREFERENCES_BODY, PROPOSAL_LIST_QUERY, REVIEW_BODY, USER_CHANGES_BODY } from '../../../api/validation/bodies';
-import { DESIGN_SCHEMA } from '../../../shared/validate';
+import { DESIGN_SCHEMA } from '#shared/validate';
 import { arbitraryFromSchema, hostile } from '../../reliability/schema-arbitrary';
 
 const Ajv = (AjvImport as unknown as { default?: typeof AjvImport }).default ?? AjvImport;

@@ -8,7 +8,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import { loadRuleFiles, runRules, type RuleFile } from '../../../rules/run-rules';
-import type { Check, OptionFacts } from '../../../shared/engine/types';
+import type { Check, OptionFacts } from '#shared/engine/types';
 import { makeOptionFacts } from '../../helpers/option-facts';
 
 type NumericFact = { [K in keyof OptionFacts]: OptionFacts[K] extends number ? K : OptionFacts[K] extends number | null ? K : never }[keyof OptionFacts];

@@ -1,11 +1,11 @@
 import { describe, expect, test } from 'vitest';
 import electrode from '../../../api/demo/specs/electrode-amplifier-input.json';
 import studio from '../../../api/demo/specs/studio-line-receiver.json';
-import { recommend } from '../../../shared/engine/recommend';
-import { validateSpec } from '../../../shared/validate';
+import { recommend } from '#shared/engine/recommend';
+import { validateSpec } from '#shared/validate';
 import { FACT_KINDS, fitsFactKind, isFactName } from '../../../rules/fact-kinds';
 import { loadRuleSet } from '../../../rules';
-import type { OptionFacts } from '../../../shared/engine/types';
+import type { OptionFacts } from '#shared/engine/types';
 
 // The kinds the rule loader holds facts to, against the facts the engine really produces: every
 // fact of every option of two demo specs (one single-ended, one differential) has a kind, and its

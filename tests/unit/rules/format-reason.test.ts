@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { formatReason, templateProblems } from '../../../rules/format-reason';
-import type { OptionFacts } from '../../../shared/engine/types';
+import type { OptionFacts } from '#shared/engine/types';
 import { makeOptionFacts } from '../../helpers/option-facts';
 
 describe('formatReason', () => {

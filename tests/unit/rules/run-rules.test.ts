@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { afterEach, describe, expect, test } from 'vitest';
 import { createRuleSet } from '../../../rules/index';
 import { loadRuleFiles, RULES_DIR, rulesetVersion, runRules, type RuleFile } from '../../../rules/run-rules';
-import type { OptionFacts } from '../../../shared/engine/types';
+import type { OptionFacts } from '#shared/engine/types';
 import { makeOptionFacts } from '../../helpers/option-facts';
 
 const RULE_NAMES = [

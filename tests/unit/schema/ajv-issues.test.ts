@@ -1,8 +1,8 @@
 import AjvImport, { type SchemaObject } from 'ajv';
 import { describe, expect, test } from 'vitest';
-import { PLAIN_LINES_PATTERN, PLAIN_LINE_PATTERN, PLAIN_NAME_PATTERN } from '../../../shared/text/plain-text';
-import { issuesFromAjvErrors } from '../../../shared/validation/ajv-issues';
-import { formatIssue, pointerSegment } from '../../../shared/validation/validation-issue';
+import { PLAIN_LINES_PATTERN, PLAIN_LINE_PATTERN, PLAIN_NAME_PATTERN } from '#shared/text/plain-text';
+import { issuesFromAjvErrors } from '#shared/validation/ajv-issues';
+import { formatIssue, pointerSegment } from '#shared/validation/validation-issue';
 
 // ajv's own errors on small schemas, turned into issues: what a person reads for each keyword.
 // The errors come from ajv itself (the validator the server uses, same options), not from fixtures.

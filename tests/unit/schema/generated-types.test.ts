@@ -2,8 +2,8 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, test } from 'vitest';
 import { generatedTypes, TARGETS } from '../../../scripts/generate-types';
-import specSchema from '../../../shared/schema/spec.schema.json';
-import { validateSpec } from '../../../shared/validate';
+import specSchema from '#shared/schema/spec.schema.json';
+import { validateSpec } from '#shared/validate';
 
 describe('types generated from the JSON Schemas', () => {
   test.each(TARGETS.map((target) => [target.path, target] as const))('%s matches its schema (else run: npm run generate:types)', async (_, target) => {

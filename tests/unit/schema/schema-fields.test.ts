@@ -1,7 +1,7 @@
 import { describe, expect, test } from 'vitest';
-import { TOPOLOGIES } from '../../../shared/engine/types';
-import { UNIT_SYMBOLS } from '../../../shared/units/unit-symbols';
-import { DESIGN_SCHEMA, SPEC_SCHEMA } from '../../../shared/validate';
+import { TOPOLOGIES } from '#shared/engine/types';
+import { UNIT_SYMBOLS } from '#shared/units/unit-symbols';
+import { DESIGN_SCHEMA, SPEC_SCHEMA } from '#shared/validate';
 import { FULL_DESIGN, FULL_SPEC, TAILS } from './schema-fixtures';
 
 type Node = Record<string, unknown> & {

@@ -2,8 +2,8 @@
  * Inputs and small helpers for the schema tests. Typed as the engine's shapes, so the compiler checks that they
  * carry every field of `Spec` / `Design` and nothing else (excess-property checks).
  */
-import type { Design, Spec, TailDesign } from '../../../shared/engine/types';
-import { formatIssue, type ValidationResult } from '../../../shared/validate';
+import type { Design, Spec, TailDesign } from '#shared/engine/types';
+import { formatIssue, type ValidationResult } from '#shared/validate';
 
 /** A spec with every field, optional ones included, all different from the defaults. */
 export const FULL_SPEC: Spec = {

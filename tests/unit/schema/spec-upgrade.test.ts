@@ -1,7 +1,7 @@
 import { describe, expect, test } from 'vitest';
-import { validateSpec } from '../../../shared/validate';
-import { designFieldLabel, fieldTitle, specFieldLabel } from '../../../shared/validation/field-labels';
-import { fractionToPercent, upgradeSpecDocument } from '../../../shared/validation/spec-upgrade';
+import { validateSpec } from '#shared/validate';
+import { designFieldLabel, fieldTitle, specFieldLabel } from '#shared/validation/field-labels';
+import { fractionToPercent, upgradeSpecDocument } from '#shared/validation/spec-upgrade';
 import { MINIMAL_SPEC, printed } from './schema-fixtures';
 
 // A resistor tolerance written the older way, as a fraction: 0.01 is ±1 %. In IEEE 754 doubles

@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, test } from 'vitest';
-import { TOPOLOGIES, TOPOLOGY_CATALOGUE } from '../../../shared/engine/topologies';
-import { designSchemaWithTopologies, specSchemaWithTopologies } from '../../../shared/schema/topology-schema';
+import { TOPOLOGIES, TOPOLOGY_CATALOGUE } from '#shared/engine/topologies';
+import { designSchemaWithTopologies, specSchemaWithTopologies } from '#shared/schema/topology-schema';
 import { DESIGN_SCHEMA_PATH, SPEC_SCHEMA_PATH, TOPOLOGIES_DOC_PATH, tailTopologiesMarkdown } from '../../../scripts/write-topology-schema';
 
 type Node = Record<string, unknown> & { properties?: Record<string, Node>; oneOf?: Node[]; items?: Node };

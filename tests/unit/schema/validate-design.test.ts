@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
-import { DEFAULT_VBE_ON_V, DEFAULT_VCE_SAT_V, NOMINAL_TEMPERATURE_C } from '../../../shared/engine/constants';
-import { validateDesign } from '../../../shared/validate';
+import { DEFAULT_VBE_ON_V, DEFAULT_VCE_SAT_V, NOMINAL_TEMPERATURE_C } from '#shared/engine/constants';
+import { validateDesign } from '#shared/validate';
 import { deepFreeze, FULL_DESIGN, MINIMAL_DESIGN, paths, printed, TAILS, withField } from './schema-fixtures';
 
 describe('validateDesign', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { formatIssue, validateSpec } from '../../../shared/validate';
+import { formatIssue, validateSpec } from '#shared/validate';
 import { deepFreeze, FULL_SPEC, MINIMAL_SPEC, paths, printed, withField } from './schema-fixtures';
 
 describe('validateSpec', () => {

@@ -5,7 +5,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import { wire } from '../../../api/validation/wire-schema';
-import { compileValidator } from '../../../shared/validate';
+import { compileValidator } from '#shared/validate';
 
 interface Shape {
   kind: 'first' | 'second';

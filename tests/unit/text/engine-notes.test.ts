@@ -4,8 +4,8 @@
  * the textbook formulas each value starts from (Sedra & Smith, Gray & Meyer).
  */
 import { describe, expect, test } from 'vitest';
-import type { MeasuredFacts } from '../../../shared/engine/option-evaluation';
-import { conditionLabel, operatingPointProblemText, sizingNote, tailOutputResistanceNote, wordedFacts } from '../../../shared/text/engine-notes';
+import type { MeasuredFacts } from '#shared/engine/option-evaluation';
+import { conditionLabel, operatingPointProblemText, sizingNote, tailOutputResistanceNote, wordedFacts } from '#shared/text/engine-notes';
 import { makeOptionFacts } from '../../helpers/option-facts';
 
 describe('sizing notes', () => {

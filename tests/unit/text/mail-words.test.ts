@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import { composeDigest } from '../../../api/mail/compose';
-import { formatDateTime } from '../../../shared/text/dates';
+import { formatDateTime } from '#shared/text/dates';
 
 const entry = (n: number) => ({ subject: `Proposal #${n} waits for a decision (spec version 1)`, summary: 'Someone asked for a proposal.', link: `https://longtail.example/proposals/${n}` });
 

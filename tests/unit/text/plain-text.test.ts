@@ -6,7 +6,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import { composeMessage } from '../../../api/mail/compose';
-import { SPEC_SCHEMA, validateSpec } from '../../../shared/validate';
+import { SPEC_SCHEMA, validateSpec } from '#shared/validate';
 import {
   PLAIN_LINES_PATTERN,
   PLAIN_LINE_PATTERN,
@@ -16,7 +16,7 @@ import {
   singleLine,
   spreadsheetCell,
   spreadsheetSafeDelimited,
-} from '../../../shared/text/plain-text';
+} from '#shared/text/plain-text';
 
 /** Every code point the refusal covers, listed from the standards rather than from the module. */
 const C0 = Array.from({ length: 0x20 }, (_, i) => i);

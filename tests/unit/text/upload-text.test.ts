@@ -10,7 +10,7 @@
  * line feed, form feed and carriage return.
  */
 import { describe, expect, test } from 'vitest';
-import { BINARY_CONTROL_SHARE, decodeUploadText, isStrayControl } from '../../../shared/text/upload-text';
+import { BINARY_CONTROL_SHARE, decodeUploadText, isStrayControl } from '#shared/text/upload-text';
 
 const bytes = (text: string) => new TextEncoder().encode(text);
 const fatalDecoderRefuses = (input: Uint8Array) => {

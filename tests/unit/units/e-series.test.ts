@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, test } from 'vitest';
-import type { ResistorSeries } from '../../../shared/engine/types';
-import { E_SERIES, isOnSeries, seriesTolerance, snapToSeries } from '../../../shared/units/e-series';
+import type { ResistorSeries } from '#shared/engine/types';
+import { E_SERIES, isOnSeries, seriesTolerance, snapToSeries } from '#shared/units/e-series';
 import { logUniform } from '../../helpers/arbitraries';
 
 const SERIES: ResistorSeries[] = ['E24', 'E96', 'E192'];

@@ -1,12 +1,12 @@
 import { describe, expect, test } from 'vitest';
-import { isOnSeries, snapToSeries } from '../../../shared/units/e-series';
-import { formatFigure, formatFixed, formatSignedQuantity, formatSignificant, formatTolerance, MINUS } from '../../../shared/units/figures';
-import { formatQuantity } from '../../../shared/units/format-quantity';
-import { parseQuantity } from '../../../shared/units/parse-quantity';
-import { plausibilityNote, typicalRangeOf } from '../../../shared/units/plausibility';
-import { PREFIX_SPELLINGS, SI_PREFIXES } from '../../../shared/units/si-prefixes';
-import { readSpiceNumber } from '../../../shared/units/spice-number';
-import { UNIT_SYMBOLS, unitSymbolFor } from '../../../shared/units/unit-symbols';
+import { isOnSeries, snapToSeries } from '#shared/units/e-series';
+import { formatFigure, formatFixed, formatSignedQuantity, formatSignificant, formatTolerance, MINUS } from '#shared/units/figures';
+import { formatQuantity } from '#shared/units/format-quantity';
+import { parseQuantity } from '#shared/units/parse-quantity';
+import { plausibilityNote, typicalRangeOf } from '#shared/units/plausibility';
+import { PREFIX_SPELLINGS, SI_PREFIXES } from '#shared/units/si-prefixes';
+import { readSpiceNumber } from '#shared/units/spice-number';
+import { UNIT_SYMBOLS, unitSymbolFor } from '#shared/units/unit-symbols';
 
 // Edges of the units helpers: ties, thresholds, the exact spellings accepted. Sources beside
 // each check; where the product chose (the spellings a form accepts), the check says so.

@@ -22,7 +22,7 @@ import {
   formatTargetDb,
   formatTolerance,
   MINUS,
-} from '../../../shared/units/figures';
+} from '#shared/units/figures';
 
 describe('figure text', () => {
   test.each([

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { formatQuantity } from '../../../shared/units/format-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
 
 describe('formatQuantity: engineering notation', () => {
   // Prefixes [SI]; 3 significant digits and trailing zeros trimmed are this project's choice

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { parseQuantity } from '../../../shared/units/parse-quantity';
+import { parseQuantity } from '#shared/units/parse-quantity';
 
 /** Relative tolerance for parsed values: they are built from decimal text, so exact to rounding. */
 const REL_TOL = 1e-12;

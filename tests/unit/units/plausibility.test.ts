@@ -4,10 +4,10 @@
  * confusion between SI (M mega, m milli) and SPICE habit (M milli, MEG mega), SPICE3 manual §2.1.
  */
 import { describe, expect, test } from 'vitest';
-import designSchema from '../../../shared/schema/design.schema.json';
-import specSchema from '../../../shared/schema/spec.schema.json';
-import { parseQuantity } from '../../../shared/units/parse-quantity';
-import { plausibilityNote, typicalRangeOf } from '../../../shared/units/plausibility';
+import designSchema from '#shared/schema/design.schema.json';
+import specSchema from '#shared/schema/spec.schema.json';
+import { parseQuantity } from '#shared/units/parse-quantity';
+import { plausibilityNote, typicalRangeOf } from '#shared/units/plausibility';
 
 const read = (text: string, unit: string) => {
   const parsed = parseQuantity(text, unit);

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, test } from 'vitest';
-import { formatQuantity } from '../../../shared/units/format-quantity';
-import { parseQuantity } from '../../../shared/units/parse-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
+import { parseQuantity } from '#shared/units/parse-quantity';
 import { logUniform } from '../../helpers/arbitraries';
 
 const UNITS = ['V', 'A', 'Ω', 'W', 'Hz', 'F', 'S', 'dB', '%', '°C', 'V/V', '1'];

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { PREFIX_SPELLINGS, SI_PREFIXES, prefixForExponent, startsWithSpelling } from '../../../shared/units/si-prefixes';
+import { PREFIX_SPELLINGS, SI_PREFIXES, prefixForExponent, startsWithSpelling } from '#shared/units/si-prefixes';
 
 describe('SI_PREFIXES', () => {
   // [SI] SI Brochure 9th ed., table 7 (decimal prefixes)

@@ -10,7 +10,7 @@
  * factor). Case does not matter: M is milli in any case.
  */
 import { describe, expect, test } from 'vitest';
-import { formatSpiceNumber, parseSpiceNumber, readSpiceNumber } from '../../../shared/units/spice-number';
+import { formatSpiceNumber, parseSpiceNumber, readSpiceNumber } from '#shared/units/spice-number';
 
 /** Relative closeness for values whose decimal form is not exact in binary (25.4e-6 × 3). */
 function expectClose(actual: number | null | undefined, expected: number) {

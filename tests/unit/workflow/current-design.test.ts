@@ -7,10 +7,10 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, test } from 'vitest';
 import { fingerprint, designBinding } from '../../../api/verification/design-binding';
-import type { RecommendResult } from '../../../shared/engine/recommend';
-import type { Design } from '../../../shared/engine/types';
-import { bindingChanges, canonicalJson, freshness, resultForDesign } from '../../../shared/verification/binding';
-import { currentDesign, currentDesignSummary } from '../../../shared/workflow/current-design';
+import type { RecommendResult } from '#shared/engine/recommend';
+import type { Design } from '#shared/engine/types';
+import { bindingChanges, canonicalJson, freshness, resultForDesign } from '#shared/verification/binding';
+import { currentDesign, currentDesignSummary } from '#shared/workflow/current-design';
 
 const design = (rc: number, re = 82.5): Design => ({
   device: { family: 'npn', beta: 180, earlyVoltageV: 72, saturationCurrentA: 9e-15 },

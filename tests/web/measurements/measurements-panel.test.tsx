@@ -8,9 +8,9 @@
 import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import type { MeasurementSummary, MeasurementView } from '../../../shared/measurements/types';
+import type { MeasurementSummary, MeasurementView } from '#shared/measurements/types';
 import { MeasurementsPanel } from '../../../web/src/features/measurements/components/measurements-panel';
-import type { Decision, Proposal } from '../../../shared/api/proposals';
+import type { Decision, Proposal } from '#shared/api/proposals';
 import { mockFetch } from '../proposals/decision/fixtures/fetch-mock';
 import { DESIGNER, differentialProposal, PROPOSAL_ID, STATUS_URL } from '../proposals/verification/verification-fixtures';
 import { renderWithClient } from '../helpers/render';

@@ -6,7 +6,7 @@ import { describe, expect, test } from 'vitest';
 import { authKeys } from '../../../web/src/lib/auth-queries';
 import { NewUserForm } from '../../../web/src/features/people/components/new-user-form';
 import { UsersTable } from '../../../web/src/features/people/components/users-table';
-import type { SessionUser, User } from '../../../shared/api/users';
+import type { SessionUser, User } from '#shared/api/users';
 import { Component as PeoplePage, loader } from '../../../web/src/routes/people';
 import { useMockedApi } from '../helpers/fetch-stub';
 import { renderWithClient, testQueryClient } from '../helpers/render';

@@ -9,7 +9,7 @@ import { createRoutesStub } from 'react-router-dom';
 import { describe, expect, test } from 'vitest';
 import { UsersTable } from '../../../web/src/features/people/components/users-table';
 import { PasswordChangeForm } from '../../../web/src/features/profile/components/password-change-form';
-import type { User } from '../../../shared/api/users';
+import type { User } from '#shared/api/users';
 import { Component as PasswordResetPage } from '../../../web/src/routes/password-reset';
 import { useMockedApi } from '../helpers/fetch-stub';
 import { renderWithClient } from '../helpers/render';

@@ -3,9 +3,9 @@ import { configure, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { beforeEach, describe, expect, test } from 'vitest';
 import { ProjectMembers } from '../../../web/src/features/projects/components/project-members';
-import type { ProjectMember } from '../../../shared/api/projects';
-import type { User } from '../../../shared/api/users';
-import type { ProjectRole } from '../../../shared/workflow/roles';
+import type { ProjectMember } from '#shared/api/projects';
+import type { User } from '#shared/api/users';
+import type { ProjectRole } from '#shared/workflow/roles';
 import { json, useFetchStub } from '../helpers/fetch-stub';
 import { renderWithClient } from '../helpers/render';
 

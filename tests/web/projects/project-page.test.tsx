@@ -4,10 +4,10 @@ import { cleanup, configure, render, screen, within } from '@testing-library/rea
 import userEvent from '@testing-library/user-event';
 import { createRoutesStub, useLocation } from 'react-router-dom';
 import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
-import type { Role } from '../../../shared/workflow/roles';
+import type { Role } from '#shared/workflow/roles';
 import { authKeys } from '../../../web/src/lib/auth-queries';
-import type { ProposalSummary } from '../../../shared/api/proposals';
-import type { SessionUser } from '../../../shared/api/users';
+import type { ProposalSummary } from '#shared/api/proposals';
+import type { SessionUser } from '#shared/api/users';
 import { Component, ErrorBoundary, loader } from '../../../web/src/routes/project';
 import { CurrentDesignCell } from '../../../web/src/features/projects/components/proposals-table';
 

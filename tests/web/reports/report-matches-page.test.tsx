@@ -8,7 +8,7 @@ import { cleanup, render, within } from '@testing-library/react';
 import { afterEach, describe, expect, test } from 'vitest';
 import strainSpec from '../fixtures/specs/bridge-receiver.json';
 import studioSpec from '../fixtures/specs/line-receiver.json';
-import type { RecommendResult } from '../../../shared/engine/recommend';
+import type { RecommendResult } from '#shared/engine/recommend';
 import { OptionsTable } from '../../../web/src/features/proposals/components/ranking/options-table';
 import { optionRows, specTargets } from '../../../web/src/features/proposals/lib/option-rows';
 import { RankedOptions } from '../../../web/src/features/proposals/components/report/ranked-options';

@@ -10,7 +10,7 @@ import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { cleanup, render, screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import specSchema from '../../../shared/schema/spec.schema.json';
+import specSchema from '#shared/schema/spec.schema.json';
 import type { LibraryDevice } from '../../../web/src/lib/device-library';
 import { saveSpecVersion } from '../../../web/src/features/specs/api/spec-queries';
 import { SpecForm, type SpecDraft } from '../../../web/src/features/specs/components/spec-form';

@@ -1,6 +1,6 @@
 import type { ErrorSchema } from '@rjsf/utils';
 import { describe, expect, test } from 'vitest';
-import specSchema from '../../../shared/schema/spec.schema.json';
+import specSchema from '#shared/schema/spec.schema.json';
 import { errorCount, withoutEditedFieldErrors } from '../../../web/src/features/specs/lib/edited-errors';
 import { serverErrorsToErrorSchema } from '../../../web/src/features/specs/lib/server-errors';
 

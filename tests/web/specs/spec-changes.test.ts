@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
-import specSchema from '../../../shared/schema/spec.schema.json';
-import { diffJson } from '../../../shared/json-diff';
+import specSchema from '#shared/schema/spec.schema.json';
+import { diffJson } from '#shared/json-diff';
 import { pathLabel, readableChanges } from '../../../web/src/features/specs/lib/spec-changes';
 
 describe('pathLabel', () => {

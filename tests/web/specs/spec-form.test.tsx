@@ -3,7 +3,7 @@ import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { cleanup, render, screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import specSchema from '../../../shared/schema/spec.schema.json';
+import specSchema from '#shared/schema/spec.schema.json';
 import { saveSpecVersion } from '../../../web/src/features/specs/api/spec-queries';
 import { SpecForm, type SpecDraft } from '../../../web/src/features/specs/components/spec-form';
 import { mockFetch, type MockAnswer } from './fetch-mock';

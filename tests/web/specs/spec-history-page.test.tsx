@@ -10,10 +10,10 @@ import { cleanup, configure, render, screen, waitFor, within } from '@testing-li
 import userEvent from '@testing-library/user-event';
 import { createRoutesStub } from 'react-router-dom';
 import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
-import schema from '../../../shared/schema/spec.schema.json';
+import schema from '#shared/schema/spec.schema.json';
 import { authKeys } from '../../../web/src/lib/auth-queries';
-import type { SpecVersion } from '../../../shared/api/specs';
-import type { SessionUser } from '../../../shared/api/users';
+import type { SpecVersion } from '#shared/api/specs';
+import type { SessionUser } from '#shared/api/users';
 import { Component, ErrorBoundary, loader } from '../../../web/src/routes/spec-history';
 
 configure({ asyncUtilTimeout: 5000 });

@@ -9,10 +9,10 @@ import { cleanup, configure, render, screen, waitFor } from '@testing-library/re
 import userEvent from '@testing-library/user-event';
 import { createRoutesStub } from 'react-router-dom';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import specSchema from '../../../shared/schema/spec.schema.json';
+import specSchema from '#shared/schema/spec.schema.json';
 import { authKeys } from '../../../web/src/lib/auth-queries';
-import type { SpecVersion } from '../../../shared/api/specs';
-import type { SessionUser } from '../../../shared/api/users';
+import type { SpecVersion } from '#shared/api/specs';
+import type { SessionUser } from '#shared/api/users';
 import { Component, ErrorBoundary, loader } from '../../../web/src/routes/spec';
 import { mockFetch, type MockAnswer } from './fetch-mock';
 

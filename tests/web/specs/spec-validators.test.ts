@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, test } from 'vitest';
 import type { RJSFSchema } from '@rjsf/utils';
-import specSchemaJson from '../../../shared/schema/spec.schema.json';
+import specSchemaJson from '#shared/schema/spec.schema.json';
 import { specValidator, SchemaMismatchError } from '../../../web/src/features/specs/lib/spec-validator';
 import { GENERATED_PATH, specValidatorsModule } from '../../../scripts/compile-spec-validators';
 

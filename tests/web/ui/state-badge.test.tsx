@@ -6,7 +6,7 @@
  */
 import { cleanup, render } from '@testing-library/react';
 import { afterEach, describe, expect, test } from 'vitest';
-import { CLOSED_STATES, PROPOSAL_STATES } from '../../../shared/workflow/proposal-states';
+import { CLOSED_STATES, PROPOSAL_STATES } from '#shared/workflow/proposal-states';
 import { STATE_LABELS, StateBadge } from '../../../web/src/components/ui/state-badge';
 
 afterEach(cleanup);

@@ -4,7 +4,7 @@
  * non-2xx answer with the server's message, code and field details.
  */
 import { api } from '../config/paths';
-import type { ErrorDetail } from '../../../shared/api/errors';
+import type { ErrorDetail } from '#shared/api/errors';
 
 export type { ErrorDetail };
 

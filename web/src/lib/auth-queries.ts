@@ -1,7 +1,7 @@
 import { queryOptions } from '@tanstack/react-query';
 import { api } from '../config/paths';
 import { ApiError, apiClient } from './api';
-import type { Me, SessionUser, SignedIn } from '../../../shared/api/users';
+import type { Me, SessionUser, SignedIn } from '#shared/api/users';
 
 export const authKeys = { all: ['auth'] as const, me: () => ['auth', 'me'] as const };
 

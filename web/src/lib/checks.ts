@@ -3,7 +3,7 @@
  * Checks stored before the rule files carried it have none: they show the rule id and count by
  * their severity alone.
  */
-import type { Check } from '../../../shared/engine/types';
+import type { Check } from '#shared/engine/types';
 
 /** The check's readable name ("Power budget"), or its rule id when the check carries none. */
 export function checkTitle(check: Pick<Check, 'rule' | 'title'>): string {

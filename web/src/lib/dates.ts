@@ -11,7 +11,7 @@ export function readerTimeZone(): string {
   return Intl.DateTimeFormat().resolvedOptions().timeZone || 'UTC';
 }
 
-export { formatDate, formatDateTime } from '../../../shared/text/dates';
+export { formatDate, formatDateTime } from '#shared/text/dates';
 
 /** The zone in words for a caption: "Europe/Berlin (CET)", or "UTC". */
 export function timeZoneWords(at: Date = new Date(), timeZone: string = readerTimeZone()): string {

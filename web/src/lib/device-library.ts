@@ -4,12 +4,12 @@
  * cards) and what a spec's recorded card resolves to. The writes live with the library panel
  * (features/devices).
  */
-import type { DeviceModelView, RecordedDeviceModel } from '../../../shared/devices/types';
+import type { DeviceModelView, RecordedDeviceModel } from '#shared/devices/types';
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import { api } from '../config/paths';
 import { apiClient } from './api';
-import type { DeviceListQuery } from '../../../shared/api/devices';
-import type { Page } from '../../../shared/api/lists';
+import type { DeviceListQuery } from '#shared/api/devices';
+import type { Page } from '#shared/api/lists';
 import { projectKeys } from './query-keys';
 
 /** One card of a project's device library (GET /api/projects/:id/devices). */

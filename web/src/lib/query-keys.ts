@@ -4,7 +4,7 @@
  * measurements and report live under the proposal's key and a project's device library under the
  * project's. Each feature's own keys stay with its queries.
  */
-import type { ProposalState } from '../../../shared/workflow/proposal-states';
+import type { ProposalState } from '#shared/workflow/proposal-states';
 
 export const projectKeys = {
   all: ['projects'] as const,

@@ -1,2 +1,2 @@
 /** Readable topology names: the catalogue's, one list for the server and the app (shared/engine/topologies.ts). */
-export { topologyName } from '../../../shared/engine/topologies';
+export { topologyName } from '#shared/engine/topologies';

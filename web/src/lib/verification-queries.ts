@@ -4,7 +4,7 @@
  * stops as soon as every job has settled (finished, stopped or failed).
  */
 import { queryOptions } from '@tanstack/react-query';
-import { SETTLED_VERIFICATION_STATES, type VerificationJobView, type VerificationStatus } from '../../../shared/verification/types';
+import { SETTLED_VERIFICATION_STATES, type VerificationJobView, type VerificationStatus } from '#shared/verification/types';
 import { api } from '../config/paths';
 import { apiClient } from './api';
 import { proposalKeys } from './query-keys';

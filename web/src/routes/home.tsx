@@ -7,7 +7,7 @@ import { paths } from '../config/paths';
 import { meQuery } from '../lib/auth-queries';
 import { projectListQuery } from '../features/projects/api/project-queries';
 import { NewProjectForm } from '../features/projects/components/new-project-form';
-import { heldRoles, heldRoleTitles, mayAs, projectRoleOf, ROLE_TITLES } from '../../../shared/workflow/roles';
+import { heldRoles, heldRoleTitles, mayAs, projectRoleOf, ROLE_TITLES } from '#shared/workflow/roles';
 import { roleHint } from '../features/projects/utils/role-hint';
 
 export const loader = (queryClient: QueryClient) => async () => {

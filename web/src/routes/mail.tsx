@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { Link } from 'react-router-dom';
-import { mayAs } from '../../../shared/workflow/roles';
+import { mayAs } from '#shared/workflow/roles';
 import { RouteError } from '../components/layout/route-error';
 import { Button } from '../components/ui/button';
 import { PageHeader } from '../components/ui/page-header';

@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useSuspenseQuery } from '@tanstack/react-query';
-import { heldRoleTitles } from '../../../shared/workflow/roles';
+import { heldRoleTitles } from '#shared/workflow/roles';
 import { RouteError } from '../components/layout/route-error';
 import { PageHeader } from '../components/ui/page-header';
 import { Sheet } from '../components/ui/sheet';

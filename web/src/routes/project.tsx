@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { mayAs, projectRoleOf } from '../../../shared/workflow/roles';
+import { mayAs, projectRoleOf } from '#shared/workflow/roles';
 import { RouteError } from '../components/layout/route-error';
 import { PageHeader } from '../components/ui/page-header';
 import { Sheet } from '../components/ui/sheet';

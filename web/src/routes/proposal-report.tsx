@@ -8,7 +8,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { ESTIMATE_NOTICE } from '../../../shared/engine/version';
+import { ESTIMATE_NOTICE } from '#shared/engine/version';
 import { RouteError } from '../components/layout/route-error';
 import { Button } from '../components/ui/button';
 import { paths } from '../config/paths';

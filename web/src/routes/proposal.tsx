@@ -17,10 +17,10 @@ import { LifecyclePanel } from '../features/proposals/components/lifecycle-panel
 import { specSchemaQuery } from '../features/specs/api/spec-queries';
 import { SpecMovedOn } from '../features/specs/components/spec-moved-on';
 import type { SchemaNode } from '../features/specs/lib/schema-nodes';
-import type { Proposal } from '../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { RouteError } from '../components/layout/route-error';
 import { proposalCurrentDesign } from '../features/proposals/lib/current-design';
-import { currentDesignName, currentDesignRole } from '../../../shared/workflow/current-design';
+import { currentDesignName, currentDesignRole } from '#shared/workflow/current-design';
 import { formatDateTime } from '../lib/dates';
 
 /** The ranking page; its loader is in ./proposal-loader.ts, which the router keeps in the entry chunk. */

@@ -2,7 +2,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { mayAs } from '../../../shared/workflow/roles';
+import { mayAs } from '#shared/workflow/roles';
 import { RouteError } from '../components/layout/route-error';
 import { meQuery } from '../lib/auth-queries';
 import { BatchImport } from '../features/batch/components/batch-import';

@@ -2,7 +2,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { useQuery, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useId, useState } from 'react';
 import { Link, useLocation, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { mayAs } from '../../../shared/workflow/roles';
+import { mayAs } from '#shared/workflow/roles';
 import { RouteError } from '../components/layout/route-error';
 import { PageHeader } from '../components/ui/page-header';
 import { paths } from '../config/paths';

@@ -2,7 +2,7 @@
 import { cleanup, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import { formatQuantity } from '../../../../shared/units/format-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { DecisionPanel } from '../../../../web/src/features/proposals/components/decision-panel';
 import { valueText } from '../../../../web/src/features/proposals/components/decision/override-draft';
 import { mockFetch, type Call } from './fixtures/fetch-mock';

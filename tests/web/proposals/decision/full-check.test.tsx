@@ -2,11 +2,11 @@
 import { cleanup, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import type { Check } from '../../../../shared/engine/types';
-import { formatDb, formatMargin, formatTargetDb } from '../../../../shared/units/figures';
-import { formatQuantity } from '../../../../shared/units/format-quantity';
+import type { Check } from '#shared/engine/types';
+import { formatDb, formatMargin, formatTargetDb } from '#shared/units/figures';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { DecisionPanel } from '../../../../web/src/features/proposals/components/decision-panel';
-import type { OptionEvaluation } from '../../../../shared/api/proposals';
+import type { OptionEvaluation } from '#shared/api/proposals';
 import { mockFetch, type Call } from './fixtures/fetch-mock';
 import { DESIGNER, proposalFixture, RANKING, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';
 import { renderWithClient } from '../../helpers/render';

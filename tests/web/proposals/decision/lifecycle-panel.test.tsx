@@ -8,7 +8,7 @@ import { cleanup, screen, waitFor } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { MemoryRouter } from 'react-router-dom';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import type { SessionUser } from '../../../../shared/api/users';
+import type { SessionUser } from '#shared/api/users';
 import { LifecyclePanel } from '../../../../web/src/features/proposals/components/lifecycle-panel';
 import { renderWithClient } from '../../helpers/render';
 import { mockFetch } from './fixtures/fetch-mock';

@@ -2,7 +2,7 @@
 import { cleanup, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import { formatMargin } from '../../../../shared/units/figures';
+import { formatMargin } from '#shared/units/figures';
 import { ReviewPanel } from '../../../../web/src/features/proposals/components/review-panel';
 import { mockFetch } from './fixtures/fetch-mock';
 import { chooseDecision, decidedProposal, DESIGNER, proposalFixture, rankedOptionOf, REVIEWER } from './fixtures/proposal-fixture';

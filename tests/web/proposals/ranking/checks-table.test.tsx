@@ -2,7 +2,7 @@
 /** The checks table marks a rejection check that passes by under 1 dB as a thin margin. */
 import { cleanup, render, screen, within } from '@testing-library/react';
 import { afterEach, expect, test } from 'vitest';
-import type { Check } from '../../../../shared/engine/types';
+import type { Check } from '#shared/engine/types';
 import { ChecksTable } from '../../../../web/src/features/proposals/components/ranking/checks-table';
 
 afterEach(cleanup);

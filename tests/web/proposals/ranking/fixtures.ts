@@ -6,9 +6,9 @@
  * pair degeneration, highest-rejection.
  */
 import { readFileSync } from 'node:fs';
-import type { RecommendResult } from '../../../../shared/engine/recommend';
-import type { Spec } from '../../../../shared/engine/types';
-import type { Proposal } from '../../../../shared/api/proposals';
+import type { RecommendResult } from '#shared/engine/recommend';
+import type { Spec } from '#shared/engine/types';
+import type { Proposal } from '#shared/api/proposals';
 
 function json<T>(relative: string): T {
   return JSON.parse(readFileSync(new URL(relative, import.meta.url), 'utf8')) as T;

@@ -1,7 +1,7 @@
 import { describe, expect, test } from 'vitest';
 import { blockingShortCount, matchesTopologyText, optionRows, specTargets } from '../../../../web/src/features/proposals/lib/option-rows';
 import { topologyName } from '../../../../web/src/lib/topology-names';
-import type { Check } from '../../../../shared/engine/types';
+import type { Check } from '#shared/engine/types';
 import { specOf, strainBridge, studioLine } from './fixtures';
 
 describe('optionRows', () => {

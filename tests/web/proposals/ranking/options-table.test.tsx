@@ -2,10 +2,10 @@
 import { cleanup, render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
-import type { TopologyId } from '../../../../shared/engine/types';
+import type { TopologyId } from '#shared/engine/types';
 import { OptionsTable } from '../../../../web/src/features/proposals/components/ranking/options-table';
-import { formatQuantity } from '../../../../shared/units/format-quantity';
-import type { RecommendOption } from '../../../../shared/engine/recommend';
+import { formatQuantity } from '#shared/units/format-quantity';
+import type { RecommendOption } from '#shared/engine/recommend';
 import { blockingShortCount, optionRows, specTargets } from '../../../../web/src/features/proposals/lib/option-rows';
 import { topologyName } from '../../../../web/src/lib/topology-names';
 import { specOf, strainBridge, studioLine } from './fixtures';

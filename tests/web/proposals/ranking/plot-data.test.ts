@@ -1,6 +1,6 @@
 import { describe, expect, test } from 'vitest';
-import { formatQuantity } from '../../../../shared/units/format-quantity';
-import { formatDb, formatPercent, formatTargetDb } from '../../../../shared/units/figures';
+import { formatQuantity } from '#shared/units/format-quantity';
+import { formatDb, formatPercent, formatTargetDb } from '#shared/units/figures';
 import { decadeTicksHz, tickLabels } from '../../../../web/src/lib/plot-axes';
 import { histogramPlot, rejectionPlot, temperaturePlot } from '../../../../web/src/features/proposals/lib/plot-data';
 import { histogramSummary, rejectionSummary, temperatureSummary } from '../../../../web/src/features/proposals/lib/plot-summaries';

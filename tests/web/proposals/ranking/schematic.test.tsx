@@ -1,7 +1,7 @@
 // @vitest-environment jsdom
 import { cleanup, render, screen } from '@testing-library/react';
 import { afterEach, describe, expect, test } from 'vitest';
-import type { Design, TopologyId } from '../../../../shared/engine/types';
+import type { Design, TopologyId } from '#shared/engine/types';
 import { OptionSchematic } from '../../../../web/src/features/proposals/components/ranking/schematic/option-schematic';
 import { strainBridge, studioLine } from './fixtures';
 

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import type { VerificationJobView } from '../../../../shared/verification/types';
+import type { VerificationJobView } from '#shared/verification/types';
 import { withJob } from '../../../../web/src/features/proposals/api/verification-mutations';
 import { hasRunningJob } from '../../../../web/src/lib/verification-queries';
 import { deltaText, durationText, optionVerdict, toleranceText, verificationTally } from '../../../../web/src/features/proposals/lib/verification-format';

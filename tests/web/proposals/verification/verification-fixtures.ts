@@ -14,9 +14,9 @@ import type {
   VerificationStatus,
   VerifiedCondition,
   VerifiedFigure,
-} from '../../../../shared/verification/types';
-import { VERIFICATION_TOLERANCES } from '../../../../shared/verification/types';
-import type { SessionUser } from '../../../../shared/api/users';
+} from '#shared/verification/types';
+import { VERIFICATION_TOLERANCES } from '#shared/verification/types';
+import type { SessionUser } from '#shared/api/users';
 import { proposalOf, strainBridge, studioLine } from '../ranking/fixtures';
 
 export const PROPOSAL_ID = 7;

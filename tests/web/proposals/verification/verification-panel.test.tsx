@@ -3,8 +3,8 @@ import { cleanup, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
 import { VerificationPanel } from '../../../../web/src/features/proposals/components/verification-panel';
-import type { Decision } from '../../../../shared/api/proposals';
-import type { Design } from '../../../../shared/engine/types';
+import type { Decision } from '#shared/api/proposals';
+import type { Design } from '#shared/engine/types';
 import { mockFetch } from '../decision/fixtures/fetch-mock';
 import { renderWithClient } from '../../helpers/render';
 import {

@@ -4,7 +4,7 @@
  * by the lazily loaded chart modules, so uPlot stays out of the first route's JavaScript.
  */
 import type uPlot from 'uplot';
-import { formatQuantity } from '../../../../shared/units/format-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { decadeTicksHz, tickLabels } from '../../lib/plot-axes';
 import type { ChartTheme } from './chart-theme';
 import type { ChartOptions } from './uplot-box';

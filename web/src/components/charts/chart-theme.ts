@@ -5,7 +5,7 @@
  * catalogue, shared/engine/topologies.ts). Dark theme: the night tokens, and the accent hues
  * lifted toward the night ink so they read on the dark sheet.
  */
-import { TOPOLOGIES, TOPOLOGY_CATALOGUE, type PlotTone, type TopologyId } from '../../../../shared/engine/topologies';
+import { TOPOLOGIES, TOPOLOGY_CATALOGUE, type PlotTone, type TopologyId } from '#shared/engine/topologies';
 import { mixHex } from '../../lib/colour-mix';
 
 /** Fallbacks equal to app.css, used when a token cannot be read. */

@@ -2,9 +2,9 @@
  * Quantities as people type them in a form field: reading typed text ("4k7", "10u", "-12 V")
  * into an SI number with shared/units, and writing a stored SI number back as short text.
  */
-import { formatQuantity } from '../../../../shared/units/format-quantity';
-import { parseQuantity } from '../../../../shared/units/parse-quantity';
-import { unitSymbolFor } from '../../../../shared/units/unit-symbols';
+import { formatQuantity } from '#shared/units/format-quantity';
+import { parseQuantity } from '#shared/units/parse-quantity';
+import { unitSymbolFor } from '#shared/units/unit-symbols';
 
 /** Every message about unreadable text starts so; the field's own widget shows it (see FieldErrors). */
 export const UNREADABLE_PREFIX = 'cannot read ';

@@ -12,8 +12,8 @@ import { cn } from '../../lib/cn';
 import { formContextOf } from './form-context';
 import { inputClass } from './input-class';
 import { quantityText, readingText, readQuantity, unitLabel } from './quantity-text';
-import { formatQuantity } from '../../../../shared/units/format-quantity';
-import { plausibilityNote, typicalRangeOf } from '../../../../shared/units/plausibility';
+import { formatQuantity } from '#shared/units/format-quantity';
+import { plausibilityNote, typicalRangeOf } from '#shared/units/plausibility';
 
 /** The unit a schema node declares, "1" (a plain number) when it declares none. */
 export function schemaUnit(schema: object): string {

@@ -1,7 +1,7 @@
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { NavLink, Outlet, useNavigate } from 'react-router-dom';
-import { heldRoleTitles, mayAs } from '../../../../shared/workflow/roles';
+import { heldRoleTitles, mayAs } from '#shared/workflow/roles';
 import { paths } from '../../config/paths';
 import { meQuery, signOut } from '../../lib/auth-queries';
 import { cn } from '../../lib/cn';

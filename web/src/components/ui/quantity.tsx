@@ -1,4 +1,4 @@
-import { formatQuantity } from '../../../../shared/units/format-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
 
 /** A figure with its unit in engineering notation ("4.7 kΩ", "120 µA"); an em dash when absent. */
 export function Quantity({ value, unit, digits = 3 }: { value: number | null | undefined; unit: string; digits?: number }) {

@@ -6,7 +6,7 @@
  * hidden from assistive technology, which reads the word.
  */
 import type { ReactNode } from 'react';
-import { STATE_WORDS, type ProposalState } from '../../../../shared/workflow/proposal-states';
+import { STATE_WORDS, type ProposalState } from '#shared/workflow/proposal-states';
 import { cn } from '../../lib/cn';
 
 /** Marks drawn for states (12 × 12 units, in currentColor). */

@@ -2,11 +2,11 @@
  * Batch specs: the import report the server answers (shared/import/import-report.ts), the
  * upload itself (dry run or save), and ranking one spec of the batch.
  */
-import type { ImportAction, ImportReport, ImportRowReport } from '../../../../../shared/import/import-report';
-import type { ImportIssue } from '../../../../../shared/import/spec-file';
+import type { ImportAction, ImportReport, ImportRowReport } from '#shared/import/import-report';
+import type { ImportIssue } from '#shared/import/spec-file';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Proposal } from '../../../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 
 /** The import report (and its rows and problems) as the server answers it. */
 export type { ImportAction, ImportIssue, ImportReport, ImportRowReport };

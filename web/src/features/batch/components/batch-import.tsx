@@ -10,7 +10,7 @@ import { Button } from '../../../components/ui/button';
 import { Sheet } from '../../../components/ui/sheet';
 import { api, paths } from '../../../config/paths';
 import { ApiError } from '../../../lib/api';
-import type { Proposal } from '../../../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { topologyName } from '../../../lib/topology-names';
 import { DenseTable, Td, Th } from '../../../components/ui/dense-table';
 import { importSpecs, rankImportedSpec, type ImportReport } from '../api/batch-api';

@@ -5,7 +5,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Items } from '../../../../../shared/api/lists';
+import type { Items } from '#shared/api/lists';
 import { deviceKeys, type LibraryDevice } from '../../../lib/device-library';
 
 /** Uploads a text file of .model cards (multipart, field `file`); all of it is stored or none. */

@@ -8,7 +8,7 @@
  */
 import { useQuery } from '@tanstack/react-query';
 import { useId, useState } from 'react';
-import { DEVICE_LIBRARY_QUOTA } from '../../../../../shared/devices/types';
+import { DEVICE_LIBRARY_QUOTA } from '#shared/devices/types';
 import { FileUploadButton, UploadProblems } from '../../../components/forms/file-upload';
 import { Button } from '../../../components/ui/button';
 import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';

@@ -1,7 +1,7 @@
 import { queryOptions } from '@tanstack/react-query';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Mailbox } from '../../../../../shared/api/admin';
+import type { Mailbox } from '#shared/api/admin';
 
 export const mailKeys = { all: ['mail'] as const, inbox: () => ['mail', 'inbox'] as const };
 

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { cn } from '../../../lib/cn';
-import type { ReceivedMail } from '../../../../../shared/api/admin';
+import type { ReceivedMail } from '#shared/api/admin';
 import { When } from '../../../components/ui/when';
 import { formatDateTime } from '../../../lib/dates';
 

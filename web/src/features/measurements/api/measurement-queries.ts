@@ -4,10 +4,10 @@
  * CSV in `file`, an optional `note`); the list is fetched again after an upload.
  */
 import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
-import type { MeasurementSummary, MeasurementView } from '../../../../../shared/measurements/types';
+import type { MeasurementSummary, MeasurementView } from '#shared/measurements/types';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Page } from '../../../../../shared/api/lists';
+import type { Page } from '#shared/api/lists';
 import { proposalKeys } from '../../../lib/query-keys';
 
 /** Measurements a page of the panel shows. */

@@ -8,17 +8,17 @@
  */
 import { useQuery } from '@tanstack/react-query';
 import { useId, useState } from 'react';
-import { comparisonSentence, measurementReference } from '../../../../../shared/measurements/comparison';
-import { MEASUREMENT_QUOTA, type MeasurementSummary, type MeasurementView } from '../../../../../shared/measurements/types';
-import type { ProposalVerificationResult } from '../../../../../shared/verification/types';
-import { formatDb } from '../../../../../shared/units/figures';
-import { mayAs } from '../../../../../shared/workflow/roles';
+import { comparisonSentence, measurementReference } from '#shared/measurements/comparison';
+import { MEASUREMENT_QUOTA, type MeasurementSummary, type MeasurementView } from '#shared/measurements/types';
+import type { ProposalVerificationResult } from '#shared/verification/types';
+import { formatDb } from '#shared/units/figures';
+import { mayAs } from '#shared/workflow/roles';
 import { FileUploadButton, UploadProblems } from '../../../components/forms/file-upload';
 import { EmptyState, ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { api } from '../../../config/paths';
-import type { Proposal } from '../../../../../shared/api/proposals';
-import type { User } from '../../../../../shared/api/users';
+import type { Proposal } from '#shared/api/proposals';
+import type { User } from '#shared/api/users';
 import { topologyName } from '../../../lib/topology-names';
 import { DenseTable, Td, Th, Tr } from '../../../components/ui/dense-table';
 import { Pagination } from '../../../components/ui/pagination';

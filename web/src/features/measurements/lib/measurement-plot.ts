@@ -3,9 +3,9 @@
  * the measured curve over the decided design's predicted (and simulated) rejection on one
  * frequency grid (the union of theirs), null where a curve has no point; uPlot spans the gaps.
  */
-import type { DbPoint, MeasurementReference } from '../../../../../shared/measurements/comparison';
-import { measuredDbCurve } from '../../../../../shared/measurements/comparison';
-import type { MeasurementView } from '../../../../../shared/measurements/types';
+import type { DbPoint, MeasurementReference } from '#shared/measurements/comparison';
+import { measuredDbCurve } from '#shared/measurements/comparison';
+import type { MeasurementView } from '#shared/measurements/types';
 import type { Aligned } from '../../../lib/plot-axes';
 
 export interface MeasurementPlot {

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { AccountRole } from '../../../../../shared/workflow/roles';
+import type { AccountRole } from '#shared/workflow/roles';
 import { createUser, sendPasswordReset, updateUser, userKeys, type NewUser } from './user-queries';
 
 /**

@@ -1,8 +1,8 @@
 import { queryOptions } from '@tanstack/react-query';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Items } from '../../../../../shared/api/lists';
-import type { NewUser, PasswordResetIssued, User, UserChanges } from '../../../../../shared/api/users';
+import type { Items } from '#shared/api/lists';
+import type { NewUser, PasswordResetIssued, User, UserChanges } from '#shared/api/users';
 
 export type { NewUser };
 

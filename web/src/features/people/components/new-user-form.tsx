@@ -1,5 +1,5 @@
 import { useEffect, useId, useRef, useState, type FormEvent } from 'react';
-import { ACCOUNT_ROLES, ACCOUNT_ROLE_TITLES, type AccountRole } from '../../../../../shared/workflow/roles';
+import { ACCOUNT_ROLES, ACCOUNT_ROLE_TITLES, type AccountRole } from '#shared/workflow/roles';
 import { Button } from '../../../components/ui/button';
 import { Sheet } from '../../../components/ui/sheet';
 import { useCreateUser } from '../api/user-mutations';

@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
-import { ACCOUNT_ROLES, ACCOUNT_ROLE_TITLES, type AccountRole } from '../../../../../shared/workflow/roles';
+import { ACCOUNT_ROLES, ACCOUNT_ROLE_TITLES, type AccountRole } from '#shared/workflow/roles';
 import { Button } from '../../../components/ui/button';
-import type { User } from '../../../../../shared/api/users';
+import type { User } from '#shared/api/users';
 import { useSendPasswordReset, useUpdateUser } from '../api/user-mutations';
 import { fieldErrors } from '../../../lib/field-errors';
 import { formatDate, formatDateTime } from '../../../lib/dates';

@@ -1,4 +1,4 @@
-import type { User } from '../../../../../shared/api/users';
+import type { User } from '#shared/api/users';
 import { UserRow } from './user-row';
 
 const th = 'border-b border-rule px-2.5 py-1.5 text-left text-xs font-medium tracking-wide whitespace-nowrap text-ink-soft uppercase dark:border-night-rule dark:text-night-ink-soft';

@@ -1,7 +1,7 @@
 import { useMutation } from '@tanstack/react-query';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { PasswordChanged, PasswordChangeInput, PasswordResetDone, PasswordResetInput } from '../../../../../shared/api/users';
+import type { PasswordChanged, PasswordChangeInput, PasswordResetDone, PasswordResetInput } from '#shared/api/users';
 
 /** The signed-in person's own password change; answers how many of their other sessions ended. */
 export function changeOwnPassword(body: PasswordChangeInput): Promise<PasswordChanged> {

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Me, PreferencesInput, SessionUser } from '../../../../../shared/api/users';
+import type { Me, PreferencesInput, SessionUser } from '#shared/api/users';
 import { authKeys } from '../../../lib/auth-queries';
 
 export function updatePreferences(changes: PreferencesInput): Promise<SessionUser> {

@@ -1,5 +1,5 @@
-import { heldRoles, type Role } from '../../../../../shared/workflow/roles';
-import type { User } from '../../../../../shared/api/users';
+import { heldRoles, type Role } from '#shared/workflow/roles';
+import type { User } from '#shared/api/users';
 import { useUpdatePreferences } from '../api/preferences';
 
 /** Which workflow e-mails each role gets in the projects where one holds it (the server's rules, api/services/notifications.service.ts, in words). */

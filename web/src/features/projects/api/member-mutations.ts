@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ProjectRole } from '../../../../../shared/workflow/roles';
+import type { ProjectRole } from '#shared/workflow/roles';
 import { authKeys } from '../../../lib/auth-queries';
 import { addMember, removeMember } from './project-queries';
 import { projectKeys } from '../../../lib/query-keys';

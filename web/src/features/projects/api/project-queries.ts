@@ -1,12 +1,12 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
-import type { ProposalState } from '../../../../../shared/workflow/proposal-states';
+import type { ProposalState } from '#shared/workflow/proposal-states';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { ProjectRole } from '../../../../../shared/workflow/roles';
-import type { Items, Page } from '../../../../../shared/api/lists';
-import type { Project, ProjectMember } from '../../../../../shared/api/projects';
-import type { ProposalSummary } from '../../../../../shared/api/proposals';
-import type { Spec } from '../../../../../shared/api/specs';
+import type { ProjectRole } from '#shared/workflow/roles';
+import type { Items, Page } from '#shared/api/lists';
+import type { Project, ProjectMember } from '#shared/api/projects';
+import type { ProposalSummary } from '#shared/api/proposals';
+import type { Spec } from '#shared/api/specs';
 import { projectKeys } from '../../../lib/query-keys';
 
 export const projectListQuery = () => queryOptions({ queryKey: projectKeys.list(), queryFn: () => apiClient.get<Items<Project>>(api.projects) });

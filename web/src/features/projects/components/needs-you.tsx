@@ -1,6 +1,6 @@
 import { useQueries } from '@tanstack/react-query';
-import type { ProposalState } from '../../../../../shared/workflow/proposal-states';
-import type { Role } from '../../../../../shared/workflow/roles';
+import type { ProposalState } from '#shared/workflow/proposal-states';
+import type { Role } from '#shared/workflow/roles';
 import { STATE_LABELS, StateGlyph } from '../../../components/ui/state-badge';
 import { cn } from '../../../lib/cn';
 import { projectProposalCountQuery } from '../api/project-queries';

@@ -1,10 +1,10 @@
 import { useQuery } from '@tanstack/react-query';
 import { useId, useState, type FormEvent } from 'react';
-import { ACCOUNT_ROLE_TITLES, PROJECT_ROLES, ROLE_TITLES, type ProjectRole } from '../../../../../shared/workflow/roles';
+import { ACCOUNT_ROLE_TITLES, PROJECT_ROLES, ROLE_TITLES, type ProjectRole } from '#shared/workflow/roles';
 import { Button } from '../../../components/ui/button';
 import { ErrorPanel, Loading } from '../../../components/ui/feedback';
-import type { ProjectMember } from '../../../../../shared/api/projects';
-import type { User } from '../../../../../shared/api/users';
+import type { ProjectMember } from '#shared/api/projects';
+import type { User } from '#shared/api/users';
 import { useAddMember, useRemoveMember } from '../api/member-mutations';
 import { projectMembersQuery } from '../api/project-queries';
 

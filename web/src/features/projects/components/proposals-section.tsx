@@ -2,7 +2,7 @@ import { useSuspenseQuery } from '@tanstack/react-query';
 import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { STATE_LABELS } from '../../../components/ui/state-badge';
-import type { Spec } from '../../../../../shared/api/specs';
+import type { Spec } from '#shared/api/specs';
 import { cn } from '../../../lib/cn';
 import { projectProposalsQuery } from '../api/project-queries';
 import { useProposalView } from '../hooks/use-proposal-view';

@@ -1,12 +1,12 @@
 import { Link } from 'react-router-dom';
 import { StateBadge } from '../../../components/ui/state-badge';
 import { paths } from '../../../config/paths';
-import type { ProposalSummary } from '../../../../../shared/api/proposals';
-import type { Spec } from '../../../../../shared/api/specs';
+import type { ProposalSummary } from '#shared/api/proposals';
+import type { Spec } from '#shared/api/specs';
 import { topologyName } from '../../../lib/topology-names';
 import { DenseTable, rowLink, Td, Th, Tr } from '../../../components/ui/dense-table';
 import { When } from '../../../components/ui/when';
-import { currentDesignName, currentDesignSummary } from '../../../../../shared/workflow/current-design';
+import { currentDesignName, currentDesignSummary } from '#shared/workflow/current-design';
 
 const soft = 'text-ink-soft dark:text-night-ink-soft';
 

@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { paths } from '../../../config/paths';
-import type { Spec } from '../../../../../shared/api/specs';
+import type { Spec } from '#shared/api/specs';
 import { DenseTable, rowLink, Td, Th, Tr } from '../../../components/ui/dense-table';
 import { When } from '../../../components/ui/when';
 

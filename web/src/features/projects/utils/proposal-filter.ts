@@ -2,7 +2,7 @@
  * The proposals table's filter and page as they live in the URL (`?status=decided&page=3`):
  * read leniently (anything unknown means "all" and page 1), written minimally (defaults omitted).
  */
-import { PROPOSAL_STATES, type ProposalState } from '../../../../../shared/workflow/proposal-states';
+import { PROPOSAL_STATES, type ProposalState } from '#shared/workflow/proposal-states';
 
 export type ProposalFilter = ProposalState | 'all';
 

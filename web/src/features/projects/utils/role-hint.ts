@@ -1,4 +1,4 @@
-import { ROLE_TITLES, type Role } from '../../../../../shared/workflow/roles';
+import { ROLE_TITLES, type Role } from '#shared/workflow/roles';
 
 /** What each role comes here to do, as the end of "Open a project to …". */
 const ROLE_TASKS = {

@@ -5,11 +5,11 @@
  * before the mutation settles. The full check records nothing, so it touches no cache.
  */
 import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Design } from '../../../../../shared/engine/types';
+import type { Design } from '#shared/engine/types';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { AnalyzeResponse } from '../../../../../shared/api/engine';
-import type { DecisionInput, OptionEvaluation, Proposal, ReviewInput } from '../../../../../shared/api/proposals';
+import type { AnalyzeResponse } from '#shared/api/engine';
+import type { DecisionInput, OptionEvaluation, Proposal, ReviewInput } from '#shared/api/proposals';
 import { proposalKeys } from '../../../lib/query-keys';
 
 /** What-if keys hold the design itself (as JSON), so a changed value is a new query and a stale answer is never shown for it. */

@@ -1,10 +1,10 @@
 import { queryOptions } from '@tanstack/react-query';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { AuditEvent } from '../../../../../shared/api/admin';
-import type { Items } from '../../../../../shared/api/lists';
-import type { Proposal } from '../../../../../shared/api/proposals';
-import type { User } from '../../../../../shared/api/users';
+import type { AuditEvent } from '#shared/api/admin';
+import type { Items } from '#shared/api/lists';
+import type { Proposal } from '#shared/api/proposals';
+import type { User } from '#shared/api/users';
 import { proposalKeys } from '../../../lib/query-keys';
 
 export const proposalQuery = (id: number) => queryOptions({ queryKey: proposalKeys.detail(id), queryFn: () => apiClient.get<Proposal>(api.proposal(id)) });

@@ -1,5 +1,5 @@
 import { queryOptions } from '@tanstack/react-query';
-import { SETTLED_VERIFICATION_STATES, type VerificationStatus } from '../../../../../shared/verification/types';
+import { SETTLED_VERIFICATION_STATES, type VerificationStatus } from '#shared/verification/types';
 import { api } from '../../../config/paths';
 import { ApiError, apiClient } from '../../../lib/api';
 import { proposalKeys } from '../../../lib/query-keys';

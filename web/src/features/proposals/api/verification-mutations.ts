@@ -6,11 +6,11 @@
  * in place the same way.
  */
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { VerificationJobView, VerificationStatus } from '../../../../../shared/verification/types';
+import type { VerificationJobView, VerificationStatus } from '#shared/verification/types';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import { verificationKeys } from '../../../lib/verification-queries';
-import type { MonteCarloInput } from '../../../../../shared/api/verification';
+import type { MonteCarloInput } from '#shared/api/verification';
 
 export type { MonteCarloInput };
 

@@ -1,8 +1,8 @@
-import { mayAs } from '../../../../../shared/workflow/roles';
+import { mayAs } from '#shared/workflow/roles';
 import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
-import type { Proposal } from '../../../../../shared/api/proposals';
-import type { User } from '../../../../../shared/api/users';
+import type { Proposal } from '#shared/api/proposals';
+import type { User } from '#shared/api/users';
 import { useDecideMutation } from '../api/decision-mutations';
 import { usePersonName } from './audit/use-person-name';
 import { When } from './audit/when';

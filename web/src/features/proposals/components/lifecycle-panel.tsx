@@ -5,12 +5,12 @@
  */
 import { useId, useState } from 'react';
 import { Link } from 'react-router-dom';
-import { mayAs } from '../../../../../shared/workflow/roles';
+import { mayAs } from '#shared/workflow/roles';
 import { Button } from '../../../components/ui/button';
 import { paths } from '../../../config/paths';
 import { ApiError } from '../../../lib/api';
-import type { Proposal } from '../../../../../shared/api/proposals';
-import type { User } from '../../../../../shared/api/users';
+import type { Proposal } from '#shared/api/proposals';
+import type { User } from '#shared/api/users';
 import { cn } from '../../../lib/cn';
 import { useWithdrawMutation } from '../api/decision-mutations';
 import { usePersonName } from './audit/use-person-name';

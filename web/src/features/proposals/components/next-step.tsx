@@ -1,6 +1,6 @@
-import { mayAs } from '../../../../../shared/workflow/roles';
-import type { Proposal } from '../../../../../shared/api/proposals';
-import type { User } from '../../../../../shared/api/users';
+import { mayAs } from '#shared/workflow/roles';
+import type { Proposal } from '#shared/api/proposals';
+import type { User } from '#shared/api/users';
 
 /**
  * What this proposal waits for, at the top of the page: a returned proposal's comment, and a

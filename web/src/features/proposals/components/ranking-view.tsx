@@ -1,10 +1,10 @@
 import { useMemo, useState } from 'react';
-import type { TopologyId } from '../../../../../shared/engine/types';
+import type { TopologyId } from '#shared/engine/types';
 import { AfterFirstPaint } from '../../../components/ui/deferred';
 import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { api } from '../../../config/paths';
-import type { Proposal } from '../../../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { optionRows, specTargets } from '../lib/option-rows';
 import { rankingExplanation } from '../lib/ranking-explanation';
 import { OptionDetail } from './ranking/option-detail';

@@ -1,9 +1,9 @@
 import { useQuery } from '@tanstack/react-query';
-import { mayAs } from '../../../../../shared/workflow/roles';
+import { mayAs } from '#shared/workflow/roles';
 import { verificationQuery } from '../../../lib/verification-queries';
 import { Sheet } from '../../../components/ui/sheet';
-import type { Proposal } from '../../../../../shared/api/proposals';
-import type { User } from '../../../../../shared/api/users';
+import type { Proposal } from '#shared/api/proposals';
+import type { User } from '#shared/api/users';
 import { useReviewMutation } from '../api/decision-mutations';
 import { usePersonName } from './audit/use-person-name';
 import { decidedOption, latestDecision } from './decision/decided-option';

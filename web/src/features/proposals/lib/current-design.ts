@@ -3,10 +3,10 @@
  * (shared/workflow/current-design.ts) on the proposal's ranking and decisions, with the binding
  * the server sent (what a verification of exactly this design records). Pure.
  */
-import { currentDesign, type CurrentDesign } from '../../../../../shared/workflow/current-design';
-import { freshness, resultForDesign, type DesignBinding, type Freshness } from '../../../../../shared/verification/binding';
-import type { OptionVerification } from '../../../../../shared/verification/types';
-import type { Proposal } from '../../../../../shared/api/proposals';
+import { currentDesign, type CurrentDesign } from '#shared/workflow/current-design';
+import { freshness, resultForDesign, type DesignBinding, type Freshness } from '#shared/verification/binding';
+import type { OptionVerification } from '#shared/verification/types';
+import type { Proposal } from '#shared/api/proposals';
 
 export type ShownDesign = CurrentDesign & { binding: DesignBinding | null };
 

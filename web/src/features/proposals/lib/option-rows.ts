@@ -2,12 +2,12 @@
  * The ranking table's rows: one flat record per tail option, every figure a plain number (or
  * null when the option could not be solved), and which figures a failing check points at.
  */
-import type { RecommendOption, RecommendResult } from '../../../../../shared/engine/recommend';
-import { outputRejection, REJECTION_KIND_WORDS, type RejectionKind } from '../../../../../shared/engine/output-rejection';
-import type { Check, OptionFacts, TopologyId } from '../../../../../shared/engine/types';
-import { formatQuantity } from '../../../../../shared/units/format-quantity';
+import type { RecommendOption, RecommendResult } from '#shared/engine/recommend';
+import { outputRejection, REJECTION_KIND_WORDS, type RejectionKind } from '#shared/engine/output-rejection';
+import type { Check, OptionFacts, TopologyId } from '#shared/engine/types';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { topologyName } from '../../../lib/topology-names';
-import { formatPercent, formatTargetDb } from '../../../../../shared/units/figures';
+import { formatPercent, formatTargetDb } from '#shared/units/figures';
 
 /**
  * Figures of the table read from the option's facts, each by the fact it shows; a failing check

@@ -2,8 +2,8 @@
  * Data for the ranking's plots, prepared without the chart library so it can be tested: uPlot
  * takes aligned arrays (x first, then one array per series, null where a series has no point).
  */
-import type { RecommendOption, RecommendResult } from '../../../../../shared/engine/recommend';
-import type { TopologyId } from '../../../../../shared/engine/types';
+import type { RecommendOption, RecommendResult } from '#shared/engine/recommend';
+import type { TopologyId } from '#shared/engine/types';
 import type { Aligned } from '../../../lib/plot-axes';
 import { topologyName } from '../../../lib/topology-names';
 

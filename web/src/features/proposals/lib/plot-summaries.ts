@@ -1,6 +1,6 @@
 /** One or two sentences per plot, for the caption and for screen readers. */
-import { formatQuantity } from '../../../../../shared/units/format-quantity';
-import { formatDb, formatPercent, formatTargetDb } from '../../../../../shared/units/figures';
+import { formatQuantity } from '#shared/units/format-quantity';
+import { formatDb, formatPercent, formatTargetDb } from '#shared/units/figures';
 import type { HistogramPlot, RejectionPlot, TemperaturePlot } from './plot-data';
 
 /** "Cascode mirror keeps 101.8 dB at 2.5 kHz (worst corner); Resistor 62.1 dB. 4 of 6 options reach 84 dB (78 dB + 6 dB margin)." */

@@ -2,8 +2,8 @@
  * One sentence under the ranking table when its first row is not the recommendation: the table
  * orders by one measure, the recommendation follows the spec's policy. Pure.
  */
-import type { RecommendResult } from '../../../../../shared/engine/recommend';
-import type { SelectionPolicy } from '../../../../../shared/engine/types';
+import type { RecommendResult } from '#shared/engine/recommend';
+import type { SelectionPolicy } from '#shared/engine/types';
 import { topologyName } from '../../../lib/topology-names';
 import { checkTitle } from '../../../lib/checks';
 

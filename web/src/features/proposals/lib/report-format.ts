@@ -1,6 +1,6 @@
 /** Text for the report: the SPICE comparison's differences and tolerances. Pure. */
-import type { VerifiedFigure } from '../../../../../shared/verification/types';
-import { formatDb, formatFigure, formatPercent, formatSignedQuantity, formatTolerance } from '../../../../../shared/units/figures';
+import type { VerifiedFigure } from '#shared/verification/types';
+import { formatDb, formatFigure, formatPercent, formatSignedQuantity, formatTolerance } from '#shared/units/figures';
 
 /** The unit a verified figure's value prints with ("" means a plain ratio). */
 const unitOf = (figure: Pick<VerifiedFigure, 'unit'>) => (figure.unit === '' ? '1' : figure.unit);

@@ -2,9 +2,9 @@
  * Which design the report is about: the latest decision's (accepted, chosen or the designer's own
  * values), or while undecided the recommendation, or with neither the top-ranked option. Pure.
  */
-import type { Design } from '../../../../../shared/engine/types';
-import type { Decision, OptionEvaluation, Proposal } from '../../../../../shared/api/proposals';
-import { currentDesign } from '../../../../../shared/workflow/current-design';
+import type { Design } from '#shared/engine/types';
+import type { Decision, OptionEvaluation, Proposal } from '#shared/api/proposals';
+import { currentDesign } from '#shared/workflow/current-design';
 
 export type SubjectBasis = 'decision' | 'recommendation' | 'top-ranked' | 'none';
 

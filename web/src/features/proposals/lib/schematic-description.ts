@@ -1,7 +1,7 @@
 /** The words behind the schematic (its aria-label): the circuit of ENGINE-CONTRACT.md, with values. */
-import type { Design, TailDesign } from '../../../../../shared/engine/types';
-import { formatQuantity } from '../../../../../shared/units/format-quantity';
-import { TOPOLOGY_CATALOGUE, tailValueOhm, topologyName, type TailField } from '../../../../../shared/engine/topologies';
+import type { Design, TailDesign } from '#shared/engine/types';
+import { formatQuantity } from '#shared/units/format-quantity';
+import { TOPOLOGY_CATALOGUE, tailValueOhm, topologyName, type TailField } from '#shared/engine/topologies';
 
 const ohm = (valueOhm: number) => formatQuantity(valueOhm, 'Ohm');
 

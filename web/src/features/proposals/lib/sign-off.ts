@@ -3,7 +3,7 @@
  * short on a blocking check needs a comment; a SPICE check of another design needs the reviewer to
  * accept it, with a comment saying why). Pure.
  */
-import type { DesignVerificationState } from '../../../../../shared/verification/types';
+import type { DesignVerificationState } from '#shared/verification/types';
 
 export interface SignOffFacts {
   /** Blocking checks the decided design falls short on. */

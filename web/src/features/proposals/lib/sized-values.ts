@@ -4,9 +4,9 @@
  * emitters; the tail's names and roles are the catalogue's, shared/engine/topologies.ts). Pure:
  * the detail panel and the schematic both read it.
  */
-import type { Design, ResistorSeries } from '../../../../../shared/engine/types';
-import { TOPOLOGY_CATALOGUE, tailValueOhm } from '../../../../../shared/engine/topologies';
-import { isOnSeries } from '../../../../../shared/units/e-series';
+import type { Design, ResistorSeries } from '#shared/engine/types';
+import { TOPOLOGY_CATALOGUE, tailValueOhm } from '#shared/engine/topologies';
+import { isOnSeries } from '#shared/units/e-series';
 
 export interface SizedResistor {
   /** Reference designators sharing the value, e.g. ["RC1", "RC2"]. */

@@ -2,11 +2,11 @@
  * Words and numbers for the SPICE check: figures, signed differences in the figure's own delta
  * unit and tolerances (all through shared/units/figures.ts), and the verdict of a figure or an option in the app's status language.
  */
-import { formatQuantity } from '../../../../../shared/units/format-quantity';
-import type { OptionVerification, VerifiedFigure } from '../../../../../shared/verification/types';
+import { formatQuantity } from '#shared/units/format-quantity';
+import type { OptionVerification, VerifiedFigure } from '#shared/verification/types';
 import type { VerdictKind } from '../../../components/ui/verdict';
 import { topologyName } from '../../../lib/topology-names';
-import { formatDb, formatFigure, formatFixed, formatPercent, formatSignedQuantity, formatTolerance } from '../../../../../shared/units/figures';
+import { formatDb, formatFigure, formatFixed, formatPercent, formatSignedQuantity, formatTolerance } from '#shared/units/figures';
 
 /** A stored unit as the formatter knows it: "" (a ratio) prints as a plain number. */
 function unitOf(unit: string): string {

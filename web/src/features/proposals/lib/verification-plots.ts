@@ -3,7 +3,7 @@
  * the simulated rejection curve over the predicted one, and the simulated and closed-form Monte
  * Carlo histograms on their shared bins.
  */
-import type { MonteCarloVerificationResult, OptionVerification } from '../../../../../shared/verification/types';
+import type { MonteCarloVerificationResult, OptionVerification } from '#shared/verification/types';
 import type { Aligned } from '../../../lib/plot-axes';
 
 export interface RejectionComparisonPlot {

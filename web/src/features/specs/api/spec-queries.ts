@@ -2,9 +2,9 @@ import { queryOptions } from '@tanstack/react-query';
 import type { RJSFSchema } from '@rjsf/utils';
 import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
-import type { Items } from '../../../../../shared/api/lists';
-import type { Proposal } from '../../../../../shared/api/proposals';
-import type { SpecDiff, SpecInput, SpecVersion, SpecWithLatest } from '../../../../../shared/api/specs';
+import type { Items } from '#shared/api/lists';
+import type { Proposal } from '#shared/api/proposals';
+import type { SpecDiff, SpecInput, SpecVersion, SpecWithLatest } from '#shared/api/specs';
 import { specKeys } from '../../../lib/query-keys';
 
 /** The spec JSON Schema the server serves; it drives the form. It changes only with a release. */

@@ -7,7 +7,7 @@
  */
 import type { FieldProps } from '@rjsf/utils';
 import { useId } from 'react';
-import { formatQuantity } from '../../../../../shared/units/format-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { formatDate } from '../../../lib/dates';
 import { inputClass } from '../../../components/forms/input-class';
 import { DEVICE_PICKER_PAGE_SIZE, type LibraryDevice, type RecordedDeviceModel } from '../../../lib/device-library';

@@ -4,7 +4,7 @@
  */
 import { useMemo } from 'react';
 import { Link } from 'react-router-dom';
-import type { JsonChange } from '../../../../../shared/json-diff';
+import type { JsonChange } from '#shared/json-diff';
 import { paths } from '../../../config/paths';
 import type { SchemaNode } from '../lib/schema-nodes';
 import { readableChanges } from '../lib/spec-changes';

@@ -1,4 +1,4 @@
-import type { Spec } from '../../../../../shared/engine/types';
+import type { Spec } from '#shared/engine/types';
 import { specGroups } from '../lib/spec-rows';
 
 /**

@@ -1,12 +1,12 @@
 /** The header and role check the pages that write a project's specs share (a new spec, an import). */
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
-import { mayAs, projectRoleOf, ROLE_TITLES } from '../../../../../shared/workflow/roles';
+import { mayAs, projectRoleOf, ROLE_TITLES } from '#shared/workflow/roles';
 import { EmptyState } from '../../../components/ui/feedback';
 import { PageHeader } from '../../../components/ui/page-header';
 import { paths } from '../../../config/paths';
-import type { Project } from '../../../../../shared/api/projects';
-import type { SessionUser } from '../../../../../shared/api/users';
+import type { Project } from '#shared/api/projects';
+import type { SessionUser } from '#shared/api/users';
 
 /** The page's header under a link back to its project. */
 export function ProjectPageHeader({ project, title, children }: { project: Pick<Project, 'id' | 'name'>; title: string; children?: ReactNode }) {

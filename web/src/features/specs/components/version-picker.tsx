@@ -4,7 +4,7 @@
  * 2"), and each version offers its own changes since the one before it in one press.
  */
 import { useId } from 'react';
-import type { SpecVersion } from '../../../../../shared/api/specs';
+import type { SpecVersion } from '#shared/api/specs';
 import { cn } from '../../../lib/cn';
 import { When } from './when';
 

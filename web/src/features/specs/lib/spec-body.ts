@@ -1,4 +1,4 @@
-import type { SpecInput } from '../../../../../shared/api/specs';
+import type { SpecInput } from '#shared/api/specs';
 import type { SpecDraft } from '../components/spec-form';
 
 /** The request body for a form's document: the title (also inside the document) and the document. */

@@ -3,8 +3,8 @@
  * labelled with the form's words ("Supply › Negative rail"), values formatted with their units,
  * whole lists (the tail options) compared as one row, whole objects spread into their fields.
  */
-import type { JsonChange } from '../../../../../shared/json-diff';
-import { formatQuantity } from '../../../../../shared/units/format-quantity';
+import type { JsonChange } from '#shared/json-diff';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { pointerSegments, schemaAt, type SchemaNode } from './schema-nodes';
 import { ENUM_WORDS, SPEC_LAYOUT } from './spec-ui-schema';
 

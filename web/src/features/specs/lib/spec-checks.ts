@@ -4,8 +4,8 @@
  * placed on the same fields as the server places them.
  */
 import type { FormValidation, RJSFValidationError } from '@rjsf/utils';
-import type { Spec as SpecDocument } from '../../../../../shared/engine/types';
-import { specCrossFieldIssues } from '../../../../../shared/validation/cross-field-rules';
+import type { Spec as SpecDocument } from '#shared/engine/types';
+import { specCrossFieldIssues } from '#shared/validation/cross-field-rules';
 import { pointerSegments } from './schema-nodes';
 
 /** rjsf's field id ("root_supply_negativeV") as a property path; the spec's names have no "_". */

@@ -3,9 +3,9 @@
  * the schema's title and its value in engineering notation with the unit (the same words and
  * formatting as the version history). Pure.
  */
-import specSchema from '../../../../../shared/schema/spec.schema.json';
-import type { Spec } from '../../../../../shared/engine/types';
-import { formatTolerance } from '../../../../../shared/units/figures';
+import specSchema from '#shared/schema/spec.schema.json';
+import type { Spec } from '#shared/engine/types';
+import { formatTolerance } from '#shared/units/figures';
 import { formatValue } from './spec-changes';
 import { propertySchema, type SchemaNode } from './schema-nodes';
 import { SPEC_LAYOUT } from './spec-ui-schema';

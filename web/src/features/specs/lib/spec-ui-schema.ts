@@ -6,7 +6,7 @@
 import type { UiSchema } from '@rjsf/utils';
 import type { FormLayout } from '../../../components/forms/object-field-template';
 import type { SchemaNode } from './schema-nodes';
-import { TOPOLOGIES, topologyName } from '../../../../../shared/engine/topologies';
+import { TOPOLOGIES, topologyName } from '#shared/engine/topologies';
 
 export const SPEC_LAYOUT: FormLayout = {
   lead: ['title'],

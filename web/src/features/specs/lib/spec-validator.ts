@@ -8,7 +8,7 @@ import type { RJSFSchema, ValidatorType } from '@rjsf/utils';
 import { hashForSchema } from '@rjsf/utils';
 // The module itself, not the package index: the index would bundle ajv's compiler for nothing
 import createPrecompiledValidator from '@rjsf/validator-ajv8/lib/createPrecompiledValidator.js';
-import { issuesFromAjvErrors } from '../../../../../shared/validation/ajv-issues';
+import { issuesFromAjvErrors } from '#shared/validation/ajv-issues';
 import { SPEC_SCHEMA_HASH, SPEC_VALIDATORS } from './spec-validators.generated';
 
 /** The served schema is not the one this build was compiled for (a release happened meanwhile). */

@@ -7,8 +7,8 @@
 import 'uplot/dist/uPlot.min.css';
 import { useMemo } from 'react';
 import type uPlot from 'uplot';
-import { formatQuantity } from '../../../../../../shared/units/format-quantity';
-import { formatDb } from '../../../../../../shared/units/figures';
+import { formatQuantity } from '#shared/units/format-quantity';
+import { formatDb } from '#shared/units/figures';
 import { ChartLegend, type LegendItem } from '../../../../components/charts/chart-legend';
 import { frequencyPlotOptions, roomyDbRange, valueAt } from '../../../../components/charts/axes';
 import { diamond, horizontalMark, verticalMark } from '../../../../components/charts/draw-marks';

@@ -2,11 +2,11 @@
  * An audit event in plain words. The event keeps ids and states; the words (the reason, the
  * comment, the topology's name) come from the proposal's own decisions and reviews.
  */
-import type { ProposalState } from '../../../../../../shared/workflow/proposal-states';
-import type { AuditEvent } from '../../../../../../shared/api/admin';
-import type { Proposal } from '../../../../../../shared/api/proposals';
-import { formatDb } from '../../../../../../shared/units/figures';
-import { formatQuantity } from '../../../../../../shared/units/format-quantity';
+import type { ProposalState } from '#shared/workflow/proposal-states';
+import type { AuditEvent } from '#shared/api/admin';
+import type { Proposal } from '#shared/api/proposals';
+import { formatDb } from '#shared/units/figures';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { topologyName } from '../../../../lib/topology-names';
 
 export interface EventWords {

@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import type { User } from '../../../../../../shared/api/users';
+import type { User } from '#shared/api/users';
 import { proposalPeopleQuery } from '../../api/proposal-queries';
 
 /**

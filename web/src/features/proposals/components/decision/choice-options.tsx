@@ -1,8 +1,8 @@
 import { useId, type ReactNode } from 'react';
-import type { TopologyId } from '../../../../../../shared/engine/types';
+import type { TopologyId } from '#shared/engine/types';
 import { Quantity } from '../../../../components/ui/quantity';
 import { Verdict } from '../../../../components/ui/verdict';
-import type { OptionEvaluation, Proposal } from '../../../../../../shared/api/proposals';
+import type { OptionEvaluation, Proposal } from '#shared/api/proposals';
 import { cn } from '../../../../lib/cn';
 import { blockingFailures } from './decided-option';
 import type { DecisionKind } from './decision-draft';

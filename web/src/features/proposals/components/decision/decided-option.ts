@@ -1,4 +1,4 @@
-import type { Decision, OptionEvaluation, Proposal } from '../../../../../../shared/api/proposals';
+import type { Decision, OptionEvaluation, Proposal } from '#shared/api/proposals';
 
 /** Plain words for a decision's kind. */
 const DECISION_KIND_WORDS: Record<Decision['kind'], string> = {

@@ -3,8 +3,8 @@
  * proposal starts from the decision the reviewer sent back, so the designer revises rather
  * than retypes.
  */
-import type { Design, TopologyId } from '../../../../../../shared/engine/types';
-import type { Decision, OptionEvaluation, Proposal } from '../../../../../../shared/api/proposals';
+import type { Design, TopologyId } from '#shared/engine/types';
+import type { Decision, OptionEvaluation, Proposal } from '#shared/api/proposals';
 import { latestDecision } from './decided-option';
 import { draftFromDesign, type OverrideDraft } from './override-draft';
 

@@ -1,7 +1,7 @@
 import { useId, useRef, useState, type FormEvent } from 'react';
-import type { TopologyId } from '../../../../../../shared/engine/types';
+import type { TopologyId } from '#shared/engine/types';
 import { Button } from '../../../../components/ui/button';
-import type { DecisionInput, Proposal } from '../../../../../../shared/api/proposals';
+import type { DecisionInput, Proposal } from '#shared/api/proposals';
 import { cn } from '../../../../lib/cn';
 import type { useDecideMutation } from '../../api/decision-mutations';
 import { ChoiceOptions } from './choice-options';

@@ -1,5 +1,5 @@
 import { OptionVerdict } from '../../../../components/ui/verdict';
-import type { Decision, Proposal } from '../../../../../../shared/api/proposals';
+import type { Decision, Proposal } from '#shared/api/proposals';
 import { CheckList } from '../review/check-list';
 import { When } from '../audit/when';
 import { blockingFailures, decidedOption, decisionKindWords, rankedOption } from './decided-option';

@@ -2,10 +2,10 @@
  * The resistor fields a designer may override, read from the design schema (the single source of
  * truth): their titles, units and limits, and which tail fields each topology has.
  */
-import designSchema from '../../../../../../shared/schema/design.schema.json';
-import type { Design } from '../../../../../../shared/engine/types';
-import type { TopologyId } from '../../../../../../shared/engine/topologies';
-import { typicalRangeOf, type TypicalRange } from '../../../../../../shared/units/plausibility';
+import designSchema from '#shared/schema/design.schema.json';
+import type { Design } from '#shared/engine/types';
+import type { TopologyId } from '#shared/engine/topologies';
+import { typicalRangeOf, type TypicalRange } from '#shared/units/plausibility';
 
 /** A field's key is its JSON path in the design without the leading slash ("tail/emitterResistanceOhm"). */
 export type FieldKey = 'collectorResistanceOhm' | 'pairEmitterResistanceOhm' | 'tail/resistanceOhm' | 'tail/referenceResistanceOhm' | 'tail/emitterResistanceOhm';

@@ -1,4 +1,4 @@
-import type { Design } from '../../../../../../shared/engine/types';
+import type { Design } from '#shared/engine/types';
 import { Quantity } from '../../../../components/ui/quantity';
 import { fieldValue, fieldsFor } from './design-fields';
 import { topologyName } from '../../../../lib/topology-names';

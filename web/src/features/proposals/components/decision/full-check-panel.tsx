@@ -2,7 +2,7 @@ import { useId } from 'react';
 import { Button } from '../../../../components/ui/button';
 import { OptionVerdict, Verdict } from '../../../../components/ui/verdict';
 import { ApiError } from '../../../../lib/api';
-import type { OptionEvaluation } from '../../../../../../shared/api/proposals';
+import type { OptionEvaluation } from '#shared/api/proposals';
 import { cn } from '../../../../lib/cn';
 import { CheckList } from '../review/check-list';
 import { blockingFailures } from './decided-option';

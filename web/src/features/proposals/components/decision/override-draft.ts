@@ -3,8 +3,8 @@
  * exactly as typed (nothing is lost on a failed request); the design exists only when every
  * field reads as a value the schema allows.
  */
-import type { Design, TailDesign, TopologyId } from '../../../../../../shared/engine/types';
-import { formatQuantity, parseQuantity } from '../../../../../../shared/units/index';
+import type { Design, TailDesign, TopologyId } from '#shared/engine/types';
+import { formatQuantity, parseQuantity } from '#shared/units/index';
 import { ApiError } from '../../../../lib/api';
 import { fieldValue, fieldsFor, type FieldInfo, type FieldKey } from './design-fields';
 

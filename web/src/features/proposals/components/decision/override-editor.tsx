@@ -1,8 +1,8 @@
 import { useId } from 'react';
-import type { Design, TopologyId } from '../../../../../../shared/engine/types';
-import { formatQuantity } from '../../../../../../shared/units/index';
+import type { Design, TopologyId } from '#shared/engine/types';
+import { formatQuantity } from '#shared/units/index';
 import { Button } from '../../../../components/ui/button';
-import type { OptionEvaluation, Proposal } from '../../../../../../shared/api/proposals';
+import type { OptionEvaluation, Proposal } from '#shared/api/proposals';
 import { fieldValue, PAIR_FIELDS, tailFields, type FieldInfo, type FieldKey } from './design-fields';
 import { topologyName } from '../../../../lib/topology-names';
 import { FullCheckPanel } from './full-check-panel';

@@ -1,7 +1,7 @@
 import { useId } from 'react';
-import type { ResistorSeries } from '../../../../../../shared/engine/types';
-import { formatQuantity, isOnSeries, snapToSeries } from '../../../../../../shared/units/index';
-import { plausibilityNote } from '../../../../../../shared/units/plausibility';
+import type { ResistorSeries } from '#shared/engine/types';
+import { formatQuantity, isOnSeries, snapToSeries } from '#shared/units/index';
+import { plausibilityNote } from '#shared/units/plausibility';
 import { cn } from '../../../../lib/cn';
 import type { FieldInfo } from './design-fields';
 import type { FieldReading } from './override-draft';

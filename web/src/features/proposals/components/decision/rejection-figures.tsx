@@ -1,6 +1,6 @@
-import { formatQuantity } from '../../../../../../shared/units/index';
-import type { OptionEvaluation } from '../../../../../../shared/api/proposals';
-import { formatDb, formatMargin, formatTargetDb } from '../../../../../../shared/units/figures';
+import { formatQuantity } from '#shared/units/index';
+import type { OptionEvaluation } from '#shared/api/proposals';
+import { formatDb, formatMargin, formatTargetDb } from '#shared/units/figures';
 
 /**
  * The checked option's rejection at the spec frequency at its worst corner: tail-limited, and for a

@@ -5,8 +5,8 @@
  * verdict on the values now in the fields.
  */
 import { useState } from 'react';
-import type { Design } from '../../../../../../shared/engine/types';
-import type { OptionEvaluation } from '../../../../../../shared/api/proposals';
+import type { Design } from '#shared/engine/types';
+import type { OptionEvaluation } from '#shared/api/proposals';
 import { useOverrideCheckMutation } from '../../api/decision-mutations';
 import { checkTitle } from '../../../../lib/checks';
 import { fieldErrorsOf } from './override-draft';

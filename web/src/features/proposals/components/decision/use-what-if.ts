@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
-import type { Design } from '../../../../../../shared/engine/types';
+import type { Design } from '#shared/engine/types';
 import { whatIfQuery } from '../../api/decision-mutations';
 import { useDebouncedValue } from './use-debounced-value';
 

@@ -3,9 +3,9 @@
  * analysis, its unit, and how its change is best stated (per cent for ratios of magnitudes,
  * plain difference for dB and margins in volts).
  */
-import type { AnalyzeResult, OutputKind } from '../../../../../../shared/engine/types';
-import { formatSignedQuantity } from '../../../../../../shared/units/figures';
-import { formatQuantity } from '../../../../../../shared/units/index';
+import type { AnalyzeResult, OutputKind } from '#shared/engine/types';
+import { formatSignedQuantity } from '#shared/units/figures';
+import { formatQuantity } from '#shared/units/index';
 
 export interface WhatIfFigure {
   id: string;

@@ -1,9 +1,9 @@
-import type { AnalyzeResult } from '../../../../../../shared/engine/types';
-import { formatQuantity } from '../../../../../../shared/units/index';
+import type { AnalyzeResult } from '#shared/engine/types';
+import { formatQuantity } from '#shared/units/index';
 import { Quantity } from '../../../../components/ui/quantity';
 import { Verdict } from '../../../../components/ui/verdict';
 import { ApiError } from '../../../../lib/api';
-import type { Proposal } from '../../../../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { cn } from '../../../../lib/cn';
 import { topologyName } from '../../../../lib/topology-names';
 import type { WhatIf } from './use-what-if';

@@ -1,6 +1,6 @@
-import type { Check } from '../../../../../../shared/engine/types';
+import type { Check } from '#shared/engine/types';
 import { checkVerdict, Verdict, type VerdictKind } from '../../../../components/ui/verdict';
-import { formatMargin } from '../../../../../../shared/units/figures';
+import { formatMargin } from '#shared/units/figures';
 import { checkTitle } from '../../../../lib/checks';
 import { CHECK_ROW_STACK } from '../review/check-list';
 

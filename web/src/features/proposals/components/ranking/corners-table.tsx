@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
-import type { RecommendOption } from '../../../../../../shared/engine/recommend';
-import { formatQuantity } from '../../../../../../shared/units/format-quantity';
-import { formatDb, formatMargin, formatSignificant } from '../../../../../../shared/units/figures';
+import type { RecommendOption } from '#shared/engine/recommend';
+import { formatQuantity } from '#shared/units/format-quantity';
+import { formatDb, formatMargin, formatSignificant } from '#shared/units/figures';
 
 function Head({ children, left }: { children: ReactNode; left?: boolean }) {
   return (

@@ -4,9 +4,9 @@
  * cell; dB, % and V/V columns say their unit once, in the heading.
  */
 import { createColumnHelper, type ColumnDef, type RowData } from '@tanstack/react-table';
-import { formatQuantity } from '../../../../../../shared/units/format-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { OptionVerdict } from '../../../../components/ui/verdict';
-import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../../../../../shared/units/figures';
+import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '#shared/units/figures';
 import { matchesTopologyText, rejectionColumns, type OptionRow, type RuledFigure, type SpecTargets } from '../../lib/option-rows';
 import { ColumnTitle } from './column-title';
 import { FigureCell } from './figure-cell';

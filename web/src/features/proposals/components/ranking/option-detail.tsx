@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
-import type { RecommendOption } from '../../../../../../shared/engine/recommend';
-import type { ResistorSeries } from '../../../../../../shared/engine/types';
+import type { RecommendOption } from '#shared/engine/recommend';
+import type { ResistorSeries } from '#shared/engine/types';
 import { EmptyState } from '../../../../components/ui/feedback';
 import { OptionVerdict } from '../../../../components/ui/verdict';
 import { blockingShortCount } from '../../lib/option-rows';

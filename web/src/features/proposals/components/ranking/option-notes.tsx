@@ -1,4 +1,4 @@
-import type { RecommendOption } from '../../../../../../shared/engine/recommend';
+import type { RecommendOption } from '#shared/engine/recommend';
 
 /** How the engine sized the option, and what it warns about (solver errors included). */
 export function OptionNotes({ option }: { option: RecommendOption }) {

@@ -9,7 +9,7 @@ import {
   type SortingState,
 } from '@tanstack/react-table';
 import { useMemo, useState, type KeyboardEvent } from 'react';
-import type { TopologyId } from '../../../../../../shared/engine/types';
+import type { TopologyId } from '#shared/engine/types';
 import { cn } from '../../../../lib/cn';
 import { outputRejectionNote, type OptionRow, type SpecTargets } from '../../lib/option-rows';
 import { optionColumns } from './option-columns';

@@ -1,7 +1,7 @@
-import type { RecommendResult } from '../../../../../../shared/engine/recommend';
+import type { RecommendResult } from '#shared/engine/recommend';
 import { Verdict } from '../../../../components/ui/verdict';
-import { besideRecommendation, currentDesignName, currentDesignRole } from '../../../../../../shared/workflow/current-design';
-import type { ProposalState } from '../../../../../../shared/workflow/proposal-states';
+import { besideRecommendation, currentDesignName, currentDesignRole } from '#shared/workflow/current-design';
+import type { ProposalState } from '#shared/workflow/proposal-states';
 import type { ShownDesign } from '../../lib/current-design';
 import { noPassingExplanation } from '../../lib/ranking-explanation';
 

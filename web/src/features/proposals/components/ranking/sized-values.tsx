@@ -1,8 +1,8 @@
 import type { ReactNode } from 'react';
-import type { Design, ResistorSeries } from '../../../../../../shared/engine/types';
-import { formatQuantity } from '../../../../../../shared/units/format-quantity';
-import type { AnalyzeResult, OptionFacts } from '../../../../../../shared/engine/types';
-import { formatPercent } from '../../../../../../shared/units/figures';
+import type { Design, ResistorSeries } from '#shared/engine/types';
+import { formatQuantity } from '#shared/units/format-quantity';
+import type { AnalyzeResult, OptionFacts } from '#shared/engine/types';
+import { formatPercent } from '#shared/units/figures';
 import { onSeries, sizedResistors } from '../../lib/sized-values';
 
 function Row({ name, value, note }: { name: string; value: string; note?: string }) {

@@ -1,11 +1,11 @@
 import { OptionVerdict } from '../../../../components/ui/verdict';
-import type { Proposal } from '../../../../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { topologyName } from '../../../../lib/topology-names';
 import { blockingFailures, decisionKindWords } from '../decision/decided-option';
 import { OptionSchematic } from '../ranking/schematic/option-schematic';
 import { SizedValues } from '../ranking/sized-values';
 import type { ReportSubject } from '../../lib/report-subject';
-import { besideRecommendation, currentDesign, currentDesignName, currentDesignRole } from '../../../../../../shared/workflow/current-design';
+import { besideRecommendation, currentDesign, currentDesignName, currentDesignRole } from '#shared/workflow/current-design';
 import { formatDateTime } from '../../../../lib/dates';
 
 const BASIS_WORDS = {

@@ -1,10 +1,10 @@
 import type { ReactNode } from 'react';
-import { formatQuantity } from '../../../../../../shared/units/format-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { OptionVerdict } from '../../../../components/ui/verdict';
-import type { Proposal } from '../../../../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { ColumnTitle } from '../ranking/column-title';
 import { FigureCell } from '../ranking/figure-cell';
-import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '../../../../../../shared/units/figures';
+import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '#shared/units/figures';
 import { optionRows, outputRejectionNote, rejectionColumns, specTargets } from '../../lib/option-rows';
 
 function Head({ children, left }: { children: ReactNode; left?: boolean }) {

@@ -1,6 +1,6 @@
 import { STATE_LABELS } from '../../../../components/ui/state-badge';
-import type { AuditEvent } from '../../../../../../shared/api/admin';
-import type { Proposal } from '../../../../../../shared/api/proposals';
+import type { AuditEvent } from '#shared/api/admin';
+import type { Proposal } from '#shared/api/proposals';
 import { describeEvent } from '../audit/describe-event';
 import { formatDateTime, timeZoneWords } from '../../../../lib/dates';
 

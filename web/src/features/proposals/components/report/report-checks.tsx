@@ -1,6 +1,6 @@
-import type { Check } from '../../../../../../shared/engine/types';
+import type { Check } from '#shared/engine/types';
 import { checkVerdict, Verdict } from '../../../../components/ui/verdict';
-import type { Proposal } from '../../../../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { topologyName } from '../../../../lib/topology-names';
 import { CheckList, marginText } from '../review/check-list';
 import { checkTitle, isCaution } from '../../../../lib/checks';

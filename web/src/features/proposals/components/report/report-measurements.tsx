@@ -3,8 +3,8 @@
  * with its difference from the prediction (and the SPICE simulation) in words, and the reminder
  * that the predicted and simulated figures are estimates against a measurement of one board.
  */
-import { comparisonSentence } from '../../../../../../shared/measurements/comparison';
-import type { MeasurementSummary } from '../../../../../../shared/measurements/types';
+import { comparisonSentence } from '#shared/measurements/comparison';
+import type { MeasurementSummary } from '#shared/measurements/types';
 import { ErrorPanel } from '../../../../components/ui/feedback';
 import { topologyName } from '../../../../lib/topology-names';
 import { ReportNote } from './report-section';

@@ -2,8 +2,8 @@
  * Where the report's plots sit: rejection against frequency under the ranked table, the Monte
  * Carlo of the reported design (and its SPICE Monte Carlo, once finished) under the design.
  */
-import type { MonteCarloVerificationResult, VerificationJobView } from '../../../../../../shared/verification/types';
-import type { Proposal } from '../../../../../../shared/api/proposals';
+import type { MonteCarloVerificationResult, VerificationJobView } from '#shared/verification/types';
+import type { Proposal } from '#shared/api/proposals';
 import { topologyName } from '../../../../lib/topology-names';
 import { histogramPlot, rejectionPlot } from '../../lib/plot-data';
 import type { ReportSubject } from '../../lib/report-subject';

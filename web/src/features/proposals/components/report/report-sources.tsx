@@ -1,4 +1,4 @@
-import { ENGINE_SOURCES } from '../../../../../../shared/engine/sources';
+import { ENGINE_SOURCES } from '#shared/engine/sources';
 
 /** The published methods behind the engine's formulas, each with its key as the code cites it. */
 export function ReportSources() {

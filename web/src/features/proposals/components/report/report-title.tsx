@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { StateBadge } from '../../../../components/ui/state-badge';
-import type { Proposal } from '../../../../../../shared/api/proposals';
-import { currentDesign, currentDesignName, currentDesignRole } from '../../../../../../shared/workflow/current-design';
+import type { Proposal } from '#shared/api/proposals';
+import { currentDesign, currentDesignName, currentDesignRole } from '#shared/workflow/current-design';
 import { formatDateTime } from '../../../../lib/dates';
 
 function Item({ term, children }: { term: string; children: ReactNode }) {

@@ -1,13 +1,13 @@
-import type { MonteCarloVerificationResult, OptionVerification, ProposalVerificationResult, VerificationJobView, VerificationStatus, VerifiedCondition } from '../../../../../../shared/verification/types';
+import type { MonteCarloVerificationResult, OptionVerification, ProposalVerificationResult, VerificationJobView, VerificationStatus, VerifiedCondition } from '#shared/verification/types';
 import { Verdict } from '../../../../components/ui/verdict';
-import type { Proposal } from '../../../../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { topologyName } from '../../../../lib/topology-names';
-import { formatDb, formatFixed, formatPercent, formatTargetDb } from '../../../../../../shared/units/figures';
+import { formatDb, formatFixed, formatPercent, formatTargetDb } from '#shared/units/figures';
 import { deltaText, toleranceText, verifiedValue } from '../../lib/report-format';
 import { ReportNote, ReportSubheading } from './report-section';
-import { freshness, freshnessText, UNBOUND_WORDS, type Freshness } from '../../../../../../shared/verification/binding';
-import type { DesignVerificationState } from '../../../../../../shared/verification/types';
-import { currentDesignName, currentDesignWord } from '../../../../../../shared/workflow/current-design';
+import { freshness, freshnessText, UNBOUND_WORDS, type Freshness } from '#shared/verification/binding';
+import type { DesignVerificationState } from '#shared/verification/types';
+import { currentDesignName, currentDesignWord } from '#shared/workflow/current-design';
 import { proposalCurrentDesign, resultFreshness, type ShownDesign } from '../../lib/current-design';
 import { formatDateTime } from '../../../../lib/dates';
 

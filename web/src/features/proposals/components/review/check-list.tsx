@@ -1,6 +1,6 @@
-import type { Check } from '../../../../../../shared/engine/types';
+import type { Check } from '#shared/engine/types';
 import { checkVerdict, Verdict, type VerdictKind } from '../../../../components/ui/verdict';
-import { formatMargin } from '../../../../../../shared/units/figures';
+import { formatMargin } from '#shared/units/figures';
 import { checkTitle } from '../../../../lib/checks';
 
 /** Failures first, so what stops an option is read before what holds; the rule order otherwise. */

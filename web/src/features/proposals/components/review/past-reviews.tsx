@@ -1,5 +1,5 @@
 import { Verdict } from '../../../../components/ui/verdict';
-import type { Proposal } from '../../../../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { When } from '../audit/when';
 
 /** Every review so far, newest first: verdict, reviewer, when, comment, and which decision it judged. */

@@ -1,12 +1,12 @@
 import { useId, useRef, useState } from 'react';
 import { Button } from '../../../../components/ui/button';
 import { ApiError } from '../../../../lib/api';
-import type { OptionEvaluation, ReviewInput } from '../../../../../../shared/api/proposals';
+import type { OptionEvaluation, ReviewInput } from '#shared/api/proposals';
 import { cn } from '../../../../lib/cn';
 import type { useReviewMutation } from '../../api/decision-mutations';
 import { blockingFailures } from '../decision/decided-option';
 import { signOffHold } from '../../lib/sign-off';
-import type { DesignVerificationState } from '../../../../../../shared/verification/types';
+import type { DesignVerificationState } from '#shared/verification/types';
 
 /**
  * The reviewer's verdict: a comment, then sign off or send back for rework. The sign-off button

@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
-import type { VerifiedCondition, VerifiedFigure } from '../../../../../../shared/verification/types';
-import { formatQuantity } from '../../../../../../shared/units/format-quantity';
+import type { VerifiedCondition, VerifiedFigure } from '#shared/verification/types';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { Verdict } from '../../../../components/ui/verdict';
 import { cn } from '../../../../lib/cn';
 import { deltaText, figureText, figureVerdict, toleranceText } from '../../lib/verification-format';

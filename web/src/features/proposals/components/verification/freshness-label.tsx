@@ -1,6 +1,6 @@
-import type { Freshness } from '../../../../../../shared/verification/binding';
-import { UNBOUND_WORDS } from '../../../../../../shared/verification/binding';
-import type { DesignVerificationState } from '../../../../../../shared/verification/types';
+import type { Freshness } from '#shared/verification/binding';
+import { UNBOUND_WORDS } from '#shared/verification/binding';
+import type { DesignVerificationState } from '#shared/verification/types';
 import { Button } from '../../../../components/ui/button';
 import { cn } from '../../../../lib/cn';
 

@@ -1,5 +1,5 @@
 import { useId, type ReactNode } from 'react';
-import type { VerificationJobView } from '../../../../../../shared/verification/types';
+import type { VerificationJobView } from '#shared/verification/types';
 import { When } from '../audit/when';
 
 /**

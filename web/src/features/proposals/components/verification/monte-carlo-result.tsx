@@ -1,8 +1,8 @@
 import { useMemo, type ReactNode } from 'react';
-import type { MonteCarloVerificationResult, VerificationJobView } from '../../../../../../shared/verification/types';
+import type { MonteCarloVerificationResult, VerificationJobView } from '#shared/verification/types';
 import { Verdict } from '../../../../components/ui/verdict';
 import { topologyName } from '../../../../lib/topology-names';
-import { formatDb, formatPercent, formatTargetDb } from '../../../../../../shared/units/figures';
+import { formatDb, formatPercent, formatTargetDb } from '#shared/units/figures';
 import { monteCarloPlot } from '../../lib/verification-plots';
 import { PlotFigure } from '../../../../components/charts/plot-figure';
 import { JobFacts } from './verification-result';

@@ -1,8 +1,8 @@
 import { useId, useState, type FormEvent } from 'react';
-import { MONTE_CARLO_RUNS, type MonteCarloVerificationResult, type VerificationJobView, type VerificationStatus } from '../../../../../../shared/verification/types';
+import { MONTE_CARLO_RUNS, type MonteCarloVerificationResult, type VerificationJobView, type VerificationStatus } from '#shared/verification/types';
 import { Button } from '../../../../components/ui/button';
-import type { Proposal } from '../../../../../../shared/api/proposals';
-import type { User } from '../../../../../../shared/api/users';
+import type { Proposal } from '#shared/api/proposals';
+import type { User } from '#shared/api/users';
 import { topologyName } from '../../../../lib/topology-names';
 import { useMonteCarloMutation } from '../../api/verification-mutations';
 import { isSettled } from '../../../../lib/verification-queries';
@@ -12,10 +12,10 @@ import { JobProgress } from './job-progress';
 import { MonteCarloResult } from './monte-carlo-result';
 import { FreshnessLabel } from './freshness-label';
 import { proposalCurrentDesign } from '../../lib/current-design';
-import { freshness } from '../../../../../../shared/verification/binding';
-import { currentDesignWord } from '../../../../../../shared/workflow/current-design';
+import { freshness } from '#shared/verification/binding';
+import { currentDesignWord } from '#shared/workflow/current-design';
 import { WithdrawJob } from './withdraw-job';
-import type { TopologyId } from '../../../../../../shared/engine/types';
+import type { TopologyId } from '#shared/engine/types';
 
 const inputClass =
   'rounded-md border border-rule bg-sheet px-2.5 py-1.5 text-sm dark:border-night-rule dark:bg-night-sheet aria-[invalid=true]:border-short dark:aria-[invalid=true]:border-short-bright';

@@ -1,10 +1,10 @@
 import { useMemo, useState, type KeyboardEvent } from 'react';
-import type { OptionVerification, ProposalVerificationResult, VerificationJobView } from '../../../../../../shared/verification/types';
-import { formatQuantity } from '../../../../../../shared/units/format-quantity';
+import type { OptionVerification, ProposalVerificationResult, VerificationJobView } from '#shared/verification/types';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { Verdict } from '../../../../components/ui/verdict';
-import type { Proposal } from '../../../../../../shared/api/proposals';
+import type { Proposal } from '#shared/api/proposals';
 import { cn } from '../../../../lib/cn';
-import { formatDb } from '../../../../../../shared/units/figures';
+import { formatDb } from '#shared/units/figures';
 import { durationText, optionVerdict, verificationTally, verifiedOptionKey, verifiedOptionName } from '../../lib/verification-format';
 import { rejectionComparisonPlot } from '../../lib/verification-plots';
 import { When } from '../audit/when';
@@ -13,7 +13,7 @@ import { FiguresTable, VerifiedCornersTable } from './figures-table';
 import { RejectionComparisonChart } from './plots/lazy-verification-charts';
 import { FreshnessLabel } from './freshness-label';
 import { proposalCurrentDesign, resultFreshness, type ShownDesign } from '../../lib/current-design';
-import { resultForDesign, type Freshness } from '../../../../../../shared/verification/binding';
+import { resultForDesign, type Freshness } from '#shared/verification/binding';
 
 /** Which option the detail opens on: the result about the current design, else the first one listed. */
 function firstShown(options: OptionVerification[], current: ShownDesign | null): string | null {

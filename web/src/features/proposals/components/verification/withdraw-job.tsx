@@ -1,8 +1,8 @@
 import { useState } from 'react';
-import type { VerificationJobView } from '../../../../../../shared/verification/types';
-import { mayAs } from '../../../../../../shared/workflow/roles';
+import type { VerificationJobView } from '#shared/verification/types';
+import { mayAs } from '#shared/workflow/roles';
 import { Button } from '../../../../components/ui/button';
-import type { User } from '../../../../../../shared/api/users';
+import type { User } from '#shared/api/users';
 import { useWithdrawMutation } from '../../api/verification-mutations';
 import { MutationError } from './mutation-error';
 

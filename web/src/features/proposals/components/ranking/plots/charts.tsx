@@ -6,10 +6,10 @@
 import 'uplot/dist/uPlot.min.css';
 import { useMemo } from 'react';
 import uPlot from 'uplot';
-import type { TopologyId } from '../../../../../../../shared/engine/types';
-import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
+import type { TopologyId } from '#shared/engine/types';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { mixHex } from '../../../../../lib/colour-mix';
-import { formatDb, formatTargetDb } from '../../../../../../../shared/units/figures';
+import { formatDb, formatTargetDb } from '#shared/units/figures';
 import type { HistogramPlot, RejectionPlot, TemperaturePlot } from '../../../lib/plot-data';
 import { tickLabels } from '../../../../../lib/plot-axes';
 import { axis, frequencyPlotOptions, NO_ZOOM, numberAxis, valueAt } from '../../../../../components/charts/axes';

@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import type { RecommendOption } from '../../../../../../../shared/engine/recommend';
+import type { RecommendOption } from '#shared/engine/recommend';
 import { histogramPlot, temperaturePlot } from '../../../lib/plot-data';
 import { histogramSummary, temperatureSummary } from '../../../lib/plot-summaries';
 import { topologyName } from '../../../../../lib/topology-names';

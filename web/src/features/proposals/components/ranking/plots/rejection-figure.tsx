@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
-import type { RecommendResult } from '../../../../../../../shared/engine/recommend';
-import type { TopologyId } from '../../../../../../../shared/engine/types';
+import type { RecommendResult } from '#shared/engine/recommend';
+import type { TopologyId } from '#shared/engine/types';
 import { rejectionPlot } from '../../../lib/plot-data';
 import { rejectionSummary } from '../../../lib/plot-summaries';
 import { RejectionChart } from './lazy-charts';

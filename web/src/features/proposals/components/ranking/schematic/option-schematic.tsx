@@ -1,7 +1,7 @@
 import type { ComponentType } from 'react';
-import type { Design } from '../../../../../../../shared/engine/types';
-import type { TailDesign, TailOf, TopologyId } from '../../../../../../../shared/engine/topologies';
-import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
+import type { Design } from '#shared/engine/types';
+import type { TailDesign, TailOf, TopologyId } from '#shared/engine/topologies';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { schematicDescription } from '../../../lib/schematic-description';
 import { CascodeTail } from './cascode-tail';
 import { DegeneratedMirrorTail } from './degenerated-mirror-tail';

@@ -1,5 +1,5 @@
-import type { Design } from '../../../../../../../shared/engine/types';
-import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
+import type { Design } from '#shared/engine/types';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { Dot, Label, Npn, Resistor, Terminal, transistorPins, Wire } from './parts';
 import { RAIL_TOP_Y, TAIL_NODE } from './layout';
 

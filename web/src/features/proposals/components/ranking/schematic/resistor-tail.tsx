@@ -1,4 +1,4 @@
-import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { RAIL_BOTTOM_Y, TAIL_NODE } from './layout';
 import { Dot, Resistor } from './parts';
 

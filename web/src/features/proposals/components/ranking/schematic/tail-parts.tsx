@@ -1,5 +1,5 @@
 /** Pieces every mirror tail repeats: the reference feed from V+, diode ties, base lines, the way down to V−. */
-import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { DIODE_TIE_X, OUTPUT_X, RAIL_BOTTOM_Y, RAIL_TOP_Y, REFERENCE_X } from './layout';
 import { Dot, Resistor, Wire, type Point } from './parts';
 

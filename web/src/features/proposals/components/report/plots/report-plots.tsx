@@ -5,12 +5,12 @@
  * (lib/plot-data, lib/verification-plots), drawn without the chart library.
  */
 import type { ReactNode } from 'react';
-import type { MonteCarloVerificationResult } from '../../../../../../../shared/verification/types';
-import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
-import type { TopologyId } from '../../../../../../../shared/engine/types';
+import type { MonteCarloVerificationResult } from '#shared/verification/types';
+import { formatQuantity } from '#shared/units/format-quantity';
+import type { TopologyId } from '#shared/engine/types';
 import type { HistogramPlot, RejectionPlot } from '../../../lib/plot-data';
 import { decadeTicksHz } from '../../../../../lib/plot-axes';
-import { formatDb, formatPercent, formatTargetDb } from '../../../../../../../shared/units/figures';
+import { formatDb, formatPercent, formatTargetDb } from '#shared/units/figures';
 import { rejectionSummary } from '../../../lib/plot-summaries';
 import { monteCarloPlot } from '../../../lib/verification-plots';
 import { linearScale, linePath, logScale, niceDomain, niceTicks, stepPath } from '../../../lib/svg-scale';

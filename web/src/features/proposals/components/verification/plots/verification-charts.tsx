@@ -6,9 +6,9 @@
 import 'uplot/dist/uPlot.min.css';
 import { useMemo } from 'react';
 import uPlot from 'uplot';
-import { formatQuantity } from '../../../../../../../shared/units/format-quantity';
+import { formatQuantity } from '#shared/units/format-quantity';
 import { mixHex } from '../../../../../lib/colour-mix';
-import { formatDb, formatTargetDb } from '../../../../../../../shared/units/figures';
+import { formatDb, formatTargetDb } from '#shared/units/figures';
 import type { MonteCarloPlot, RejectionComparisonPlot } from '../../../lib/verification-plots';
 import { frequencyPlotOptions, NO_ZOOM, numberAxis, roomyDbRange, valueAt } from '../../../../../components/charts/axes';
 import { ChartLegend, type LegendItem } from '../../../../../components/charts/chart-legend';
