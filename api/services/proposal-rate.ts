@@ -19,15 +19,18 @@ export const PROPOSAL_RATE_WINDOW_MS = 60_000;
 export async function checkProposalRate(dataSource: DataSource, actorId: number, perMinute: number): Promise<void> {
   const now = Date.now();
   const since = new Date(now - PROPOSAL_RATE_WINDOW_MS).toISOString();
-  const recent = await dataSource.getRepository(ProposalEntity).find({
+  // Only the person's perMinute-th newest proposal in the window matters: when there is one, the
+  // limit is reached. One row is read, however high the limit is set.
+  const [limiting] = await dataSource.getRepository(ProposalEntity).find({
     select: { id: true, createdAt: true },
     where: { createdById: actorId, createdAt: MoreThan(since) },
-    order: { createdAt: 'DESC' },
-    take: perMinute,
+    order: { createdAt: 'DESC', id: 'DESC' },
+    skip: perMinute - 1,
+    take: 1,
   });
-  if (recent.length < perMinute) return;
+  if (!limiting) return;
   // The moment the oldest of the last `perMinute` leaves the window, one more is allowed.
-  const retryAfterS = Math.max(1, Math.ceil((Date.parse(recent[perMinute - 1].createdAt) + PROPOSAL_RATE_WINDOW_MS - now) / 1000));
+  const retryAfterS = Math.max(1, Math.ceil((Date.parse(limiting.createdAt) + PROPOSAL_RATE_WINDOW_MS - now) / 1000));
   const error = new AppError(
     'too-many-proposals',
     429,
