@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import { heldRoles, type Role } from '#shared/workflow/roles';
 import type { User } from '#shared/api/users';
 import { useUpdatePreferences } from '../api/preferences';
@@ -14,7 +15,10 @@ const WHAT_YOU_GET: Record<Role, string[]> = {
 export function NotificationSwitch({ user }: { user: User }) {
   const lines = heldRoles(user).flatMap((role) => WHAT_YOU_GET[role]);
   const update = useUpdatePreferences();
-  const on = update.isPending ? (update.variables?.notify ?? user.notify !== false) : user.notify !== false;
+  // The box follows the click at once (a controlled box would otherwise spring back until the
+  // request's state arrives) and returns to what the server holds once the save settles.
+  const [asked, setAsked] = useState<boolean | null>(null);
+  const on = asked ?? user.notify !== false;
   return (
     <div>
       <label className="flex items-start gap-3">
@@ -22,7 +26,11 @@ export function NotificationSwitch({ user }: { user: User }) {
           type="checkbox"
           checked={on}
           disabled={update.isPending}
-          onChange={(event) => update.mutate({ notify: event.target.checked })}
+          onChange={(event) => {
+            const notify = event.target.checked;
+            setAsked(notify);
+            update.mutate({ notify }, { onSettled: () => setAsked(null) });
+          }}
           aria-describedby="notify-help"
           className="mt-1 h-4 w-4 accent-fern"
         />
