@@ -1,6 +1,6 @@
 /**
  * The Monte Carlo's generator pinned to the published algorithm. Expected values come from an
- * independent transcription of mulberry32 as Tommy Ettinger published it in C (public domain,
+ * independent reimplementation of mulberry32 as Tommy Ettinger published it in C (public domain,
  * 2017; quoted from memory: z = (state += 0x6D2B79F5); z = (z ^ z >> 15) * (z | 1);
  * z ^= z + (z ^ z >> 7) * (z | 61); return z ^ z >> 14), run by hand in Python 3 with
  * arbitrary-precision integers masked to 32 bits, and Box–Muller on u1 = 1 − x/2^32,
