@@ -93,14 +93,12 @@ function specFrom(raw: unknown): Spec {
 let ruleSet: RuleSet;
 let ruleNames: string[];
 const specs: Record<string, Spec> = {};
-const results: Record<string, RecommendResult> = {};
 
 beforeAll(async () => {
   ruleSet = await loadRuleSet();
   ruleNames = (await loadRuleFiles()).map((r) => r.name);
   for (const name of SPEC_NAMES) {
     specs[name] = specFrom(RAW_SPECS[name]);
-    results[name] = await recommend(specs[name], ruleSet);
   }
 });
 
@@ -128,22 +126,27 @@ const outputGainOf = (spec: Spec, predicted: { differentialGain: number; singleE
 
 const solved = (o: RecommendOption) => o.design !== null && o.figures !== null && o.predicted !== null;
 /** The options that were sized and solved; the test below asserts that this is all of them. */
-const solvedOptions = (name: string) => results[name].options.filter(solved);
+/**
+ * A fresh recommendation in every test (never one computed in a hook and shared): a mutation run
+ * then sees which tests exercise which engine code, and runs only those for each mutant.
+ */
+const resultOf = (name: string): Promise<RecommendResult> => recommend(specs[name], ruleSet);
+const solvedOptions = async (name: string) => (await resultOf(name)).options.filter(solved);
 
 describe.each(SPEC_NAMES)('%s', (name) => {
-  test('every topology the spec lists appears once, no other; ranks run 1..n in output order', () => {
-    const { options } = results[name];
+  test('every topology the spec lists appears once, no other; ranks run 1..n in output order', async () => {
+    const { options } = await resultOf(name);
     expect(options.map((o) => o.topology).sort()).toEqual([...specs[name].topologies].sort());
     expect(options.map((o) => o.rank)).toEqual(options.map((_, i) => i + 1));
   });
 
-  test('every option is sized and solved at every condition of the spec (no convergence failure)', () => {
-    const failures = results[name].options.filter((o) => !solved(o) || o.error).map((o) => `${o.topology}: ${o.error}`);
+  test('every option is sized and solved at every condition of the spec (no convergence failure)', async () => {
+    const failures = (await resultOf(name)).options.filter((o) => !solved(o) || o.error).map((o) => `${o.topology}: ${o.error}`);
     expect(failures).toEqual([]);
   });
 
-  test('ranking: passing options first, then tail impedance at the spec frequency from highest', () => {
-    const { options } = results[name];
+  test('ranking: passing options first, then tail impedance at the spec frequency from highest', async () => {
+    const { options } = await resultOf(name);
     for (let i = 1; i < options.length; i += 1) {
       const [a, b] = [options[i - 1], options[i]];
       expect(Number(a.passes)).toBeGreaterThanOrEqual(Number(b.passes));
@@ -153,17 +156,17 @@ describe.each(SPEC_NAMES)('%s', (name) => {
     }
   });
 
-  test('tail impedance at frequency is |Rout ∥ 1/(j·2πf·Ct)| of the predicted Rout [DOMAIN]', () => {
+  test('tail impedance at frequency is |Rout ∥ 1/(j·2πf·Ct)| of the predicted Rout [DOMAIN]', async () => {
     const spec = specs[name];
-    for (const o of solvedOptions(name)) {
+    for (const o of await solvedOptions(name)) {
       const rOhm = o.predicted!.tailOutputResistanceOhm;
       const omegaCtS = 2 * Math.PI * spec.cmrr.atFrequencyHz * spec.tailCapacitanceF;
       expect(o.figures!.tailImpedanceAtFrequencyOhm / (rOhm / Math.hypot(1, omegaCtS * rOhm))).toBeCloseTo(1, 9);
     }
   });
 
-  test('the recommendation follows the policy', () => {
-    const { options, recommended, policy } = results[name];
+  test('the recommendation follows the policy', async () => {
+    const { options, recommended, policy } = await resultOf(name);
     expect(policy).toBe(specs[name].policy);
     const passing = options.filter((o) => o.passes);
     if (passing.length === 0) {
@@ -177,14 +180,14 @@ describe.each(SPEC_NAMES)('%s', (name) => {
     }
   });
 
-  test('an option passes exactly when every blocking check passes', () => {
-    for (const o of results[name].options) {
+  test('an option passes exactly when every blocking check passes', async () => {
+    for (const o of (await resultOf(name)).options) {
       expect(o.passes, o.topology).toBe(o.checks.every((c) => c.passed || c.severity !== 'blocking'));
     }
   });
 
-  test('every option carries every rule of the rule set, each with a reason and a severity', () => {
-    for (const o of solvedOptions(name)) {
+  test('every option carries every rule of the rule set, each with a reason and a severity', async () => {
+    for (const o of await solvedOptions(name)) {
       expect(o.checks.map((c) => c.rule).sort()).toEqual([...ruleNames].sort());
       for (const c of o.checks) {
         expect(c.reason.trim().length, `${o.topology} ${c.rule}`).toBeGreaterThan(10);
@@ -193,8 +196,8 @@ describe.each(SPEC_NAMES)('%s', (name) => {
     }
   });
 
-  test('each check\'s verdict is consistent with the figures it is decided on', () => {
-    for (const o of solvedOptions(name)) {
+  test('each check\'s verdict is consistent with the figures it is decided on', async () => {
+    for (const o of await solvedOptions(name)) {
       for (const c of o.checks) {
         const verdict = VERDICT_FROM_FIGURES[c.rule];
         if (verdict) expect(c.passed, `${o.topology} ${c.rule}: ${c.reason}`).toBe(verdict(o.figures!));
@@ -202,9 +205,9 @@ describe.each(SPEC_NAMES)('%s', (name) => {
     }
   });
 
-  test('the figures\' margins follow from the spec and the predictions', () => {
+  test('the figures\' margins follow from the spec and the predictions', async () => {
     const spec = specs[name];
-    for (const o of solvedOptions(name)) {
+    for (const o of await solvedOptions(name)) {
       const f = o.figures!;
       expect(f.cmrrMarginDb).toBeCloseTo(f.cmrrAtFrequencyDb - (spec.cmrr.minDb + spec.cmrr.marginDb), 9);
       expect(f.powerMarginW).toBeCloseTo(spec.powerBudgetW - f.powerWorstW, 12);
@@ -217,9 +220,9 @@ describe.each(SPEC_NAMES)('%s', (name) => {
     }
   });
 
-  test('every sized resistor is on the spec series [IEC60063] and every design passes the design schema', () => {
+  test('every sized resistor is on the spec series [IEC60063] and every design passes the design schema', async () => {
     const series = specs[name].resistors.series;
-    for (const o of solvedOptions(name)) {
+    for (const o of await solvedOptions(name)) {
       const tail = o.design!.tail as Record<string, unknown>;
       const pairReOhm = o.design!.pairEmitterResistanceOhm ?? 0;
       const values = [o.design!.collectorResistanceOhm, ...(pairReOhm > 0 ? [pairReOhm] : []), ...Object.keys(tail).filter((k) => k.endsWith('Ohm')).map((k) => tail[k] as number)];
@@ -228,12 +231,12 @@ describe.each(SPEC_NAMES)('%s', (name) => {
     }
   });
 
-  test('each option\'s `predicted` is the analyze output of its `design`', () => {
-    for (const o of solvedOptions(name)) expect(JSON.stringify(analyze(o.design!))).toBe(JSON.stringify(o.predicted));
+  test('each option\'s `predicted` is the analyze output of its `design`', async () => {
+    for (const o of await solvedOptions(name)) expect(JSON.stringify(analyze(o.design!))).toBe(JSON.stringify(o.predicted));
   });
 
-  test('the re-analysed gain of the recommended option is within the spec tolerance of the target', () => {
-    const { recommended, options } = results[name];
+  test('the re-analysed gain of the recommended option is within the spec tolerance of the target', async () => {
+    const { recommended, options } = await resultOf(name);
     if (recommended === null) {
       expect(options.every((o) => !o.passes)).toBe(true);
       return;
@@ -243,9 +246,9 @@ describe.each(SPEC_NAMES)('%s', (name) => {
     expect((Math.abs(gain - spec.gain.target) / spec.gain.target) * 100).toBeLessThanOrEqual(spec.gain.tolerancePercent);
   });
 
-  test('Monte Carlo: differential output only; yield in [0, 100]; the histogram holds every sample', () => {
+  test('Monte Carlo: differential output only; yield in [0, 100]; the histogram holds every sample', async () => {
     const spec = specs[name];
-    for (const o of solvedOptions(name)) {
+    for (const o of await solvedOptions(name)) {
       if (spec.gain.output !== 'differential') {
         expect(o.monteCarlo).toBeNull();
         continue;
@@ -261,8 +264,8 @@ describe.each(SPEC_NAMES)('%s', (name) => {
     }
   });
 
-  test('versions, and the notice says the figures are estimates to confirm by simulation and bench measurement', () => {
-    const result = results[name];
+  test('versions, and the notice says the figures are estimates to confirm by simulation and bench measurement', async () => {
+    const result = await resultOf(name);
     expect(result.engineVersion).toMatch(/^\d+\.\d+\.\d+$/);
     expect(result.rulesetVersion).toBe(ruleSet.version);
     expect(result.notice).toMatch(/estimate/i);
@@ -270,39 +273,39 @@ describe.each(SPEC_NAMES)('%s', (name) => {
     expect(result.notice).toMatch(/bench/i);
   });
 
-  test('cautions are exactly the failed hazard checks\' reasons', () => {
+  test('cautions are exactly the failed hazard checks\' reasons', async () => {
     const hazardRules = new Set(['hazardous-voltage', 'patient-connected', 'mains-referenced']);
-    const failedHazards = new Set(results[name].options.flatMap((o) => o.checks.filter((c) => hazardRules.has(c.rule) && !c.passed).map((c) => c.reason)));
-    expect(new Set(results[name].cautions)).toEqual(failedHazards);
+    const failedHazards = new Set((await resultOf(name)).options.flatMap((o) => o.checks.filter((c) => hazardRules.has(c.rule) && !c.passed).map((c) => c.reason)));
+    expect(new Set((await resultOf(name)).cautions)).toEqual(failedHazards);
   });
 });
 
 describe('scenario-specific outcomes', () => {
-  test('±40 V rails (80 V span, above 60 V DC [IEC62368]): a caution that names the span and the limit', () => {
-    const { cautions } = results['HV-40 piezo monitor, ±40 V'];
+  test('±40 V rails (80 V span, above 60 V DC [IEC62368]): a caution that names the span and the limit', async () => {
+    const { cautions } = await resultOf('HV-40 piezo monitor, ±40 V');
     expect(cautions.some((c) => /80\s?V/.test(c) && /60\s?V/.test(c))).toBe(true);
   });
 
-  test('a tail current fixed by the spec is met by every option to within the E192 snapping (half a step ≈ 0.6 %, 1.5 % allowed) [IEC60063]', () => {
+  test('a tail current fixed by the spec is met by every option to within the E192 snapping (half a step ≈ 0.6 %, 1.5 % allowed) [IEC60063]', async () => {
     const name = 'HV-40 piezo monitor, ±40 V';
     const fixedA = specs[name].tailCurrentA!;
-    for (const o of solvedOptions(name)) expect(Math.abs(o.predicted!.tailCurrentA - fixedA) / fixedA, o.topology).toBeLessThan(0.015);
+    for (const o of await solvedOptions(name)) expect(Math.abs(o.predicted!.tailCurrentA - fixedA) / fixedA, o.topology).toBeLessThan(0.015);
   });
 
-  test('patient-connected input: a caution that defers to IEC 60601-1 [DOMAIN]', () => {
-    expect(results['ECG-2 electrode input, patient-connected'].cautions.some((c) => /60601/.test(c))).toBe(true);
+  test('patient-connected input: a caution that defers to IEC 60601-1 [DOMAIN]', async () => {
+    expect((await resultOf('ECG-2 electrode input, patient-connected')).cautions.some((c) => /60601/.test(c))).toBe(true);
   });
 
-  test('18 V span, no hazard flags: no cautions', () => {
-    expect(results['QF-7 strain bridge'].cautions).toEqual([]);
+  test('18 V span, no hazard flags: no cautions', async () => {
+    expect((await resultOf('QF-7 strain bridge')).cautions).toEqual([]);
   });
 
-  test('the spec\'s topology subset is respected', () => {
-    expect(results['ECG-2 electrode input, patient-connected'].options.map((o) => o.topology).sort()).toEqual(['cascode', 'simple-mirror', 'wilson']);
+  test('the spec\'s topology subset is respected', async () => {
+    expect((await resultOf('ECG-2 electrode input, patient-connected')).options.map((o) => o.topology).sort()).toEqual(['cascode', 'simple-mirror', 'wilson']);
   });
 
-  test('190 dB of single-ended rejection is out of reach: every option fails cmrr-target and nothing is recommended', () => {
-    const result = results['LX-1 impossible rejection'];
+  test('190 dB of single-ended rejection is out of reach: every option fails cmrr-target and nothing is recommended', async () => {
+    const result = await resultOf('LX-1 impossible rejection');
     expect(result.recommended).toBeNull();
     for (const o of result.options) {
       expect(o.passes).toBe(false);
@@ -313,21 +316,21 @@ describe('scenario-specific outcomes', () => {
   /** The specs whose gain tolerance no option holds over their whole temperature range (see the next test). */
   const GAIN_OVER_TEMPERATURE_OUT_OF_REACH = { 'QF-7 strain bridge': /(−10|60) °C/, 'HV-40 piezo monitor, ±40 V': /(−20|85) °C/ } as const;
 
-  test('a recommendation exists for the feasible specs (the consistency checks above are not vacuous)', () => {
+  test('a recommendation exists for the feasible specs (the consistency checks above are not vacuous)', async () => {
     const infeasible = ['LX-1 impossible rejection', ...Object.keys(GAIN_OVER_TEMPERATURE_OUT_OF_REACH)];
     const feasible = SPEC_NAMES.filter((n) => !infeasible.includes(n));
     expect(feasible.length).toBeGreaterThanOrEqual(2);
-    for (const name of feasible) expect(results[name].recommended, name).not.toBeNull();
+    for (const name of feasible) expect((await resultOf(name)).recommended, name).not.toBeNull();
   });
 
   test.each(Object.entries(GAIN_OVER_TEMPERATURE_OUT_OF_REACH))(
     '%s has no recommendation: its gain tolerance over its temperature range is out of reach of a pair whose gain goes as IC/VT, and the check says so at a temperature corner',
-    (name, corner) => {
+    async (name, corner) => {
       // gm = IC/VT [GM]: with IC flat in temperature the gain at −10 °C is 300.15/263.15 ≈ 1.14 times the
       // gain at 27 °C (QF-7 allows ±8 %), at −20 °C 1.19 times (HV-40 allows ±5 %); the spec states its
       // tolerance over its temperature range.
-      expect(results[name].recommended).toBeNull();
-      const held = results[name].options.filter((o) => o.checks.find((c) => c.rule === 'gain-over-conditions')?.passed === false);
+      expect((await resultOf(name)).recommended).toBeNull();
+      const held = (await resultOf(name)).options.filter((o) => o.checks.find((c) => c.rule === 'gain-over-conditions')?.passed === false);
       expect(held.map((o) => o.topology)).toEqual(expect.arrayContaining(['cascode', 'wilson']));
       for (const option of held.filter((o) => o.topology !== 'resistor')) {
         const check = option.checks.find((c) => c.rule === 'gain-over-conditions')!;
@@ -338,13 +341,13 @@ describe('scenario-specific outcomes', () => {
     },
   );
 
-  test('a resistor tail that leaves its gain tolerance is governed by the input common mode, and the reason asks for a current-source tail', () => {
+  test('a resistor tail that leaves its gain tolerance is governed by the input common mode, and the reason asks for a current-source tail', async () => {
     // Itail = (VICM − VBE − VN)/R (docs/device-and-formulas.md, resistor tail; [GM]): across QF-7's −1…1 V on
     // −9 V the tail current moves by 2/(9 − 0.65 − 1) ≈ 27 % of its low-end value. Over −10…60 °C
     // 1/VT alone moves about as much (333/263 ≈ 1.27), but VBE falling about 2 mV/K (common
     // practice) raises a resistor tail's current and takes a few per cent off that, so the input
     // common mode governs.
-    const resistor = results['QF-7 strain bridge'].options.find((o) => o.topology === 'resistor')!;
+    const resistor = (await resultOf('QF-7 strain bridge')).options.find((o) => o.topology === 'resistor')!;
     const check = resistor.checks.find((c) => c.rule === 'gain-over-conditions')!;
     expect(check.passed).toBe(false);
     expect(check.reason).toContain('the input common mode moves the gain most');
