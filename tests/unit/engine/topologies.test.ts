@@ -16,12 +16,13 @@ const GUESS = { positiveV: 12, negativeV: -12, tailNodeGuessV: -0.65, vbeGuessV:
 
 describe.each(TAILS.map((tail) => [tail.topology, tail] as const))('%s', (id, tail) => {
   const entry = TOPOLOGY_CATALOGUE[id];
-  const elements = tailElements(tail, GUESS).elements;
-  const named = (name: string) => elements.find((e) => e.name === name) as CircuitElement;
+  // stamped afresh in each test, so a mutation run knows which tests exercise the stamp
+  const elementsOf = () => tailElements(tail, GUESS).elements;
+  const named = (name: string) => elementsOf().find((e) => e.name === name) as CircuitElement;
 
   test("the circuit stamp's parts are the catalogue's, resistors and transistors", () => {
-    const resistors = elements.filter((e) => e.kind === 'resistor').map((e) => e.name);
-    const transistors = elements.filter((e) => e.kind === 'npn').map((e) => e.name);
+    const resistors = elementsOf().filter((e) => e.kind === 'resistor').map((e) => e.name);
+    const transistors = elementsOf().filter((e) => e.kind === 'npn').map((e) => e.name);
     expect(resistors.sort()).toEqual(entry.resistors.flatMap((r) => r.names).sort());
     expect(transistors.sort()).toEqual(entry.transistors.map((q) => q.name).sort());
   });
@@ -38,10 +39,10 @@ describe.each(TAILS.map((tail) => [tail.topology, tail] as const))('%s', (id, ta
   test('the Rout limit is taken at the transistor whose collector is the tail node (or at the tail resistor itself)', () => {
     const limit = entry.routLimit;
     if (limit.form === 'resistor') {
-      const element = elements.find((e) => e.kind === 'resistor' && e.nodes.includes('t'));
+      const element = elementsOf().find((e) => e.kind === 'resistor' && e.nodes.includes('t'));
       expect(element?.kind === 'resistor' && element.resistanceOhm).toBe(tailValueOhm(tail, limit.field));
     } else {
-      const output = elements.find((e) => e.kind === 'npn' && e.collector === 't');
+      const output = elementsOf().find((e) => e.kind === 'npn' && e.collector === 't');
       expect(output?.name).toBe(limit.transistor);
     }
   });
