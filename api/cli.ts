@@ -25,7 +25,8 @@ function readInput(file: string): string {
 
 function parseJson(text: string): unknown {
   try {
-    return JSON.parse(text);
+    // A UTF-8 byte-order mark (editors on some systems write one) is not part of the document
+    return JSON.parse(text.replace(/^\uFEFF/, ''));
   } catch (error) {
     throw new UsageError(`/: malformed JSON (${(error as Error).message})`);
   }

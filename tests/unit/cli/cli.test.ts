@@ -40,6 +40,9 @@ const CASES = {
   analyzeFile: () => runCli(['analyze', fixture('design-simple-mirror.json')]),
   recommendFile: () => runCli(['recommend', fixture('spec-quillfen-bridge.json')]),
   analyzeStdin: () => runCli(['analyze', '-'], readFileSync(fixture('design-simple-mirror.json'), 'utf8')),
+  // The same design saved with a UTF-8 byte-order mark (EF BB BF) in front, as some editors write it
+  analyzeByteOrderMark: () => runCli(['analyze', fixture('design-byte-order-mark.json')]),
+  analyzeByteOrderMarkStdin: () => runCli(['analyze', '-'], `\uFEFF${readFileSync(fixture('design-simple-mirror.json'), 'utf8')}`),
   malformed: () => runCli(['analyze', fixture('malformed.json')]),
   wrongType: () => runCli(['analyze', fixture('wrong-type.json')]),
   outOfRange: () => runCli(['analyze', fixture('out-of-range.json')]),
@@ -82,6 +85,15 @@ describe('longtail on good input', () => {
     expect(runs.analyzeStdin.code, runs.analyzeStdin.stderr).toBe(0);
     expect(runs.analyzeStdin.stderr).toBe('');
     expect(runs.analyzeStdin.stdout).toBe(runs.analyzeFile.stdout);
+  });
+
+  test('a UTF-8 byte-order mark before the JSON (file or standard input) is not part of the document: same output', () => {
+    expect(readFileSync(fixture('design-byte-order-mark.json')).subarray(0, 3)).toEqual(Buffer.from([0xef, 0xbb, 0xbf]));
+    for (const run of [runs.analyzeByteOrderMark, runs.analyzeByteOrderMarkStdin]) {
+      expect(run.stderr).toBe('');
+      expect(run.code).toBe(0);
+      expect(run.stdout).toBe(runs.analyzeFile.stdout);
+    }
   });
 
   test('recommend FILE: exit 0, versions, the notice, one option per listed topology', () => {
