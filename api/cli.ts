@@ -58,7 +58,7 @@ async function main(argv: string[]): Promise<number> {
       return 2;
     }
     if (error instanceof ConvergenceError) {
-      process.stderr.write(`longtail: /: this design cannot be solved: ${error.message}\n`);
+      process.stderr.write(`longtail: ${error.fields[0] ?? '/'}: this design cannot be solved: ${error.message}\n`);
       return 2;
     }
     process.stderr.write(`longtail: internal fault: ${(error as Error).message ?? String(error)}\n`);

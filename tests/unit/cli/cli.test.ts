@@ -48,6 +48,7 @@ const CASES = {
   outOfRange: () => runCli(['analyze', fixture('out-of-range.json')]),
   unknownTopology: () => runCli(['analyze', fixture('unknown-topology.json')]),
   railsReversed: () => runCli(['analyze', fixture('rails-reversed.json')]),
+  hardToSolve: () => runCli(['analyze', fixture('hard-to-solve.json')]),
   missingFile: () => runCli(['analyze', fixture('no-such-file.json')]),
   noArguments: () => runCli([]),
 };
@@ -121,6 +122,7 @@ describe('longtail on bad input: exit 2, one line on stderr, no stack trace', ()
     ['outOfRange', /^longtail: \/collectorResistanceOhm\b/],
     ['unknownTopology', /^longtail: \/tail\/topology\b/],
     ['railsReversed', /^longtail: \/supply\/negativeV\b/],
+    ['hardToSolve', /^longtail: \/collectorResistanceOhm: this design cannot be solved: .*the fields that make it hard: \/collectorResistanceOhm, \/tail\/resistanceOhm/],
     ['missingFile', /^longtail: .*no-such-file\.json/],
     ['noArguments', /^longtail: usage: /],
   ])('%s: stderr matches %s', (name, pattern) => {

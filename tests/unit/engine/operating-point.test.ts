@@ -8,7 +8,9 @@ import { describe, expect, test } from 'vitest';
 import { stageCircuit } from '#shared/engine/circuit';
 import { deviceModel } from '#shared/engine/device';
 import { indexCircuit } from '#shared/engine/node-system';
-import { gminStepping, solveOperatingPoint, sourceStepping } from '#shared/engine/operating-point';
+import { analyze } from '#shared/engine/analyze';
+import { hardFields } from '#shared/engine/convergence-hints';
+import { ConvergenceError, gminStepping, solveOperatingPoint, sourceStepping } from '#shared/engine/operating-point';
 import type { Design } from '#shared/engine/types';
 
 /** Node voltages agree to this, V: both converge to the engine's 0.1 nV step tolerance. */
@@ -47,5 +49,39 @@ describe.each(TAILS.map((tail) => [tail.topology, tail] as const))('continuation
     const stepped = sourceStepping(ic, model);
     expect('v' in stepped).toBe(true);
     if ('v' in stepped) stepped.v.forEach((v, k) => expect(Math.abs(v - direct.voltagesV[k]), ic.freeNodes[k]).toBeLessThan(SAME_SOLUTION_V));
+  });
+});
+
+describe('when the operating point cannot be found, the error names the fields that make it hard', () => {
+  // 1 GΩ collector and tail resistors around a 1 Ω pair emitter resistor: nanoamps through
+  // gigaohms beside an ohm, terms nine decades apart in the node equations
+  const hard: Design = {
+    device: DEVICE,
+    supply: { positiveV: 15, negativeV: -15 },
+    collectorResistanceOhm: 1e9,
+    pairEmitterResistanceOhm: 1,
+    tail: { topology: 'resistor', resistanceOhm: 1e9 },
+    inputCommonModeV: 0,
+  };
+
+  test('analyze gives up with a ConvergenceError naming the resistances outside the usual range, furthest out first', () => {
+    let caught: unknown;
+    try {
+      analyze(hard);
+    } catch (error) {
+      caught = error;
+    }
+    expect(caught).toBeInstanceOf(ConvergenceError);
+    const error = caught as ConvergenceError;
+    // 1 GΩ is three decades above 1 MΩ, 1 Ω one decade below 10 Ω
+    expect(error.fields).toEqual(['/collectorResistanceOhm', '/tail/resistanceOhm', '/pairEmitterResistanceOhm']);
+    expect(error.message).toContain('/collectorResistanceOhm, /tail/resistanceOhm, /pairEmitterResistanceOhm');
+    expect(error.message).toContain('gmin stepping');
+  });
+
+  test('with every resistance in the usual range, the largest is named (it sets the smallest current)', () => {
+    expect(hardFields({ ...hard, collectorResistanceOhm: 4700, pairEmitterResistanceOhm: 0, tail: { topology: 'simple-mirror', referenceResistanceOhm: 220000 } })).toEqual([
+      '/tail/referenceResistanceOhm',
+    ]);
   });
 });
