@@ -25,7 +25,8 @@ function readInput(file: string): string {
 
 function parseJson(text: string): unknown {
   try {
-    return JSON.parse(text);
+    // A UTF-8 byte-order mark (editors on some systems write one) is not part of the document
+    return JSON.parse(text.replace(/^\uFEFF/, ''));
   } catch (error) {
     throw new UsageError(`/: malformed JSON (${(error as Error).message})`);
   }
@@ -57,7 +58,7 @@ async function main(argv: string[]): Promise<number> {
       return 2;
     }
     if (error instanceof ConvergenceError) {
-      process.stderr.write(`longtail: /: this design cannot be solved: ${error.message}\n`);
+      process.stderr.write(`longtail: ${error.fields[0] ?? '/'}: this design cannot be solved: ${error.message}\n`);
       return 2;
     }
     process.stderr.write(`longtail: internal fault: ${(error as Error).message ?? String(error)}\n`);

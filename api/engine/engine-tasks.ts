@@ -28,6 +28,8 @@ export interface EngineErrorDescription {
   message: string;
   /** InputError's JSON path. */
   path?: string;
+  /** ConvergenceError's hard fields (JSON paths). */
+  fields?: string[];
   stack?: string;
 }
 
@@ -40,7 +42,7 @@ export async function rankingJson(spec: Spec, ruleSet: RuleSet): Promise<string>
 
 export function describeError(error: unknown): EngineErrorDescription {
   if (!(error instanceof Error)) return { name: 'Error', message: String(error) };
-  return { name: error.name, message: error.message, stack: error.stack, ...(error instanceof InputError ? { path: error.path } : {}) };
+  return { name: error.name, message: error.message, stack: error.stack, ...(error instanceof InputError ? { path: error.path } : {}), ...(error instanceof ConvergenceError ? { fields: error.fields } : {}) };
 }
 
 /** The error a description stands for: InputError and ConvergenceError keep their class, anything else is an Error with the same name. */
@@ -50,7 +52,7 @@ export function errorFrom(description: EngineErrorDescription): Error {
     error = new InputError(description.path, '');
     error.message = description.message;
   } else if (description.name === 'ConvergenceError') {
-    error = new ConvergenceError(description.message);
+    error = new ConvergenceError(description.message, description.fields);
   } else {
     error = new Error(description.message);
     error.name = description.name;

@@ -29,7 +29,10 @@ export function engineRoutes(ruleSet: RuleSet): Router {
     try {
       res.json({ ...analyze(req.body as Design), notice: ESTIMATE_NOTICE });
     } catch (error) {
-      if (error instanceof ConvergenceError) throw new AppError('not-solvable', 422, `This design cannot be solved: ${error.message}.`);
+      if (error instanceof ConvergenceError) {
+        const details = error.fields.map((path) => ({ path, message: 'makes the operating point hard to solve' }));
+        throw new AppError('not-solvable', 422, `This design cannot be solved: ${error.message}.`, details);
+      }
       throw error;
     }
   });

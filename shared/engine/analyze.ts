@@ -8,7 +8,8 @@ import { closedFormTailRout } from './closed-form';
 import { deviceModel, type DeviceModel } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { nodeVoltage, type IndexedCircuit } from './node-system';
-import { solveOperatingPoint, type OperatingPoint } from './operating-point';
+import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
+import { withHardFields } from './convergence-hints';
 import { magnitude, smallSignalStage, transferAt, type Complex, type SmallSignalStage } from './small-signal';
 import type { AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
@@ -167,7 +168,12 @@ export function solveStage(design: Design, warmStart?: SolvedCircuit): StageSolu
 export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedCircuit {
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const model = deviceModel(design.device, temperatureC);
-  const op = solveOperatingPoint(stageCircuit(design, vbeGuessV(design, model)), model, warmStart?.op);
+  let op: OperatingPoint;
+  try {
+    op = solveOperatingPoint(stageCircuit(design, vbeGuessV(design, model)), model, warmStart?.op);
+  } catch (error) {
+    throw error instanceof ConvergenceError ? withHardFields(error, design) : error;
+  }
   return { design, model, op, stage: smallSignalStage(op) };
 }
 

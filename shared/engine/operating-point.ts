@@ -1,7 +1,10 @@
 /**
  * DC operating point of a stage: Newton-Raphson on the node equations with SPICE's junction
  * voltage limiting (pnjlim) [SPICE], from a hand-analysis starting guess; when that does not
- * converge, source stepping (rails and inputs ramped from 10 % to 100 %).
+ * converge, continuation as SPICE does it [SPICE] (ngspice cktop.c): gmin stepping (a
+ * conductance from every node to ground, lowered a decade at a time to none), then source
+ * stepping (rails and inputs ramped up from zero, the step widened after each success and
+ * narrowed after each failure).
  */
 import type { StageCircuit } from './circuit';
 import type { BjtEval, DeviceModel } from './device';
@@ -23,8 +26,16 @@ const VOLTAGE_TOLERANCE_V = 1e-10;
 const RELATIVE_TOLERANCE = 1e-11;
 /** Newton iterations before giving up on one attempt. */
 const MAX_ITERATIONS = 150;
-/** Source-stepping fractions tried when the direct attempt fails. */
-const SOURCE_STEPS = [0.1, 0.25, 0.4, 0.55, 0.7, 0.85, 1];
+/** Gmin stepping: the first shunt conductance from each node to ground, S, and the factor it falls by per step [SPICE]. */
+const GMIN_START_S = 1e-2;
+const GMIN_FACTOR = 10;
+/** Gmin stepping stops at this shunt, then solves with none, S (ngspice's default GMIN). */
+const GMIN_END_S = 1e-12;
+/** Source stepping: first step (a share of the rails), its growth after a success and cut after a failure, smallest step before giving up. */
+const SOURCE_FIRST_STEP = 0.05;
+const SOURCE_STEP_GROWTH = 2;
+const SOURCE_STEP_CUT = 4;
+const SOURCE_MIN_STEP = 1e-4;
 
 export interface OperatingPoint {
   circuit: IndexedCircuit;
@@ -35,11 +46,15 @@ export interface OperatingPoint {
   iterations: number;
 }
 
-/** Raised when the Newton iteration does not converge even with source stepping. */
+/** Raised when the Newton iteration does not converge even with gmin and source stepping. */
 export class ConvergenceError extends Error {
-  constructor(message: string) {
+  /** JSON paths of the design fields that make the design hard to solve (empty when not known). */
+  readonly fields: string[];
+
+  constructor(message: string, fields: string[] = []) {
     super(message);
     this.name = 'ConvergenceError';
+    this.fields = fields;
   }
 }
 
@@ -55,7 +70,12 @@ function limitJunctionV(newV: number, oldV: number, vtV: number, criticalV: numb
   return newV;
 }
 
-function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[]): { v: number[]; iterations: number } | null {
+/**
+ * Newton from `start`; `shuntS` is a conductance from every free node to ground (gmin stepping).
+ * A junction starts no further forward than the critical voltage, so a far-off guess is limited
+ * from there rather than evaluated where exp() overflows.
+ */
+function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], shuntS = 0): { v: number[]; iterations: number } | null {
   const n = ic.freeNodes.length;
   let v: number[] = start.slice();
   const nq = ic.transistors.length;
@@ -63,13 +83,14 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[]): {
   const vbcOld = zeros(nq);
   ic.transistors.forEach((q, i) => {
     const j = junctionVoltages(ic, v, q);
-    vbeOld[i] = j.vbeV;
-    vbcOld[i] = j.vbcV;
+    vbeOld[i] = Math.min(j.vbeV, model.criticalVoltageV);
+    vbcOld[i] = Math.min(j.vbcV, model.criticalVoltageV);
   });
   const stamp = createStamp(ic);
   for (let iter = 1; iter <= MAX_ITERATIONS; iter += 1) {
     resetStamp(stamp);
     for (const r of ic.resistors) stampConductance(stamp, r.a, r.b, r.conductanceS);
+    if (shuntS > 0) for (let k = 0; k < n; k += 1) stamp.matrix[k * n + k] += shuntS;
     let limited = false;
     for (let i = 0; i < nq; i += 1) {
       const q = ic.transistors[i];
@@ -103,6 +124,56 @@ function scaledCircuit(ic: IndexedCircuit, fraction: number): IndexedCircuit {
   return { ...ic, fixedV: ic.fixedV.map((x) => x * fraction) };
 }
 
+/** A converged solution: free-node voltages, V, and the Newton iterations spent. */
+export type Solved = { v: number[]; iterations: number };
+
+/** Gmin stepping [SPICE]: solve with a large shunt, then lower it a decade at a time from the last solution, then without. */
+export function gminStepping(ic: IndexedCircuit, model: DeviceModel, start: number[]): Solved | null {
+  let v = start;
+  let iterations = 0;
+  for (let shuntS = GMIN_START_S; shuntS >= GMIN_END_S; shuntS /= GMIN_FACTOR) {
+    const step = newtonSolve(ic, model, v, shuntS);
+    if (!step) return null;
+    v = step.v;
+    iterations += step.iterations;
+  }
+  const last = newtonSolve(ic, model, v);
+  return last && { v: last.v, iterations: iterations + last.iterations };
+}
+
+/**
+ * Source stepping [SPICE]: every fixed voltage from zero (all nodes at 0 V) up to its value; the
+ * step doubles after a solved point and is cut to a quarter after a failed one. Returns the
+ * solution, or the share of the rails reached when the step became too small.
+ */
+export function sourceStepping(ic: IndexedCircuit, model: DeviceModel): Solved | { stalledAt: number } {
+  let v = zeros(ic.freeNodes.length);
+  let iterations = 0;
+  let fraction = 0;
+  let step = SOURCE_FIRST_STEP;
+  while (fraction < 1) {
+    const next = Math.min(1, fraction + step);
+    const solved = newtonSolve(scaledCircuit(ic, next), model, v);
+    if (solved) {
+      v = solved.v;
+      iterations += solved.iterations;
+      fraction = next;
+      step *= SOURCE_STEP_GROWTH;
+    } else {
+      step /= SOURCE_STEP_CUT;
+      if (step < SOURCE_MIN_STEP) return { stalledAt: fraction };
+    }
+  }
+  return { v, iterations };
+}
+
+/** Every node voltage of a stage lies between its lowest and highest fixed voltage: a guess outside is brought inside. */
+function guessWithinRails(ic: IndexedCircuit, guess: number[]): number[] {
+  const low = Math.min(...ic.fixedV);
+  const high = Math.max(...ic.fixedV);
+  return guess.map((x) => Math.min(Math.max(x, low), high));
+}
+
 /**
  * Solves the DC operating point of a stage circuit with a device model. `warmStart`, the
  * solution of a nearby circuit with the same nodes, rails, inputs and temperature (a small
@@ -111,11 +182,11 @@ function scaledCircuit(ic: IndexedCircuit, fraction: number): IndexedCircuit {
  */
 export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint): OperatingPoint {
   const ic = indexCircuit(circuit);
-  const handGuess = ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0);
+  const handGuess = guessWithinRails(ic, ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0));
   const sameNodes = warmStart !== undefined && warmStart.circuit.freeNodes.join() === ic.freeNodes.join();
   // A warm start that fails (its bias was too far away) falls back to the hand guess.
   const starts = sameNodes ? [warmStart.voltagesV.slice(), handGuess] : [handGuess];
-  let solved: { v: number[]; iterations: number } | null = null;
+  let solved: Solved | null = null;
   let iterations = 0;
   for (const start of starts) {
     solved = newtonSolve(ic, model, start);
@@ -123,14 +194,14 @@ export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, w
     if (solved) break;
   }
   if (!solved) {
-    let v: number[] = handGuess.map((x) => x * SOURCE_STEPS[0]);
-    for (const fraction of SOURCE_STEPS) {
-      const step = newtonSolve(scaledCircuit(ic, fraction), model, v);
-      if (!step) throw new ConvergenceError(`the operating point did not converge (source stepping stalled at ${Math.round(fraction * 100)} % of the rails)`);
-      v = step.v;
-      iterations += step.iterations;
+    const continued = gminStepping(ic, model, handGuess) ?? sourceStepping(ic, model);
+    if ('stalledAt' in continued) {
+      throw new ConvergenceError(
+        `the operating point did not converge (gmin stepping failed, source stepping stalled at ${(continued.stalledAt * 100).toPrecision(3)} % of the rails)`,
+      );
     }
-    solved = { v, iterations };
+    iterations += continued.iterations;
+    solved = { v: continued.v, iterations };
   }
   return { circuit: ic, voltagesV: solved.v, transistors: evaluateTransistors(ic, model, solved.v), iterations };
 }

@@ -5,6 +5,7 @@
  * loads it), so this module stays free of I/O.
  */
 import { nominalCondition } from './conditions';
+import { firstNonFinitePath } from './finite';
 import { evaluateOption, type ConditionFigures, type OptionCurves } from './option-evaluation';
 import { monteCarloDraws, type MonteCarloDraws, type MonteCarloResult } from './mismatch';
 import { outputRejection } from './output-rejection';
@@ -79,6 +80,10 @@ async function checkedOption(
     design = sized.design;
     notes = sized.steps.map(sizingNote);
     const evaluation = evaluateOption(spec, design, draws);
+    // A figure the option cannot reach (a rejection with no common-mode gain left to divide by)
+    // fails the option with its name; it never reaches the answer as NaN or Infinity
+    const unreachable = firstNonFinitePath({ figures: evaluation.facts, predicted: evaluation.predicted, corners: evaluation.corners, curves: evaluation.curves, monteCarlo: evaluation.monteCarlo });
+    if (unreachable) throw new Error(`the figure at ${unreachable} could not be computed for this design (not a finite number)`);
     const facts = wordedFacts(evaluation.facts);
     const checks = await ruleSet.evaluate(facts);
     return {

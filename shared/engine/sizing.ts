@@ -4,6 +4,7 @@
  * E-series before the final predictions are made from the snapped values.
  */
 import { snapToSeries } from '../units/e-series';
+import { formatQuantity } from '../units/format-quantity';
 import { solveStage, type StageSolution } from './analyze';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
@@ -30,6 +31,18 @@ const TUNE_MAX_ITERATIONS = 8;
 const SWING_DROP_FACTOR = 1.25;
 /** Smallest resistor the sizing writes, ohms (keeps a design solvable when the rails leave no room). */
 const MIN_RESISTANCE_OHM = 1;
+/** Largest resistor the sizing writes, ohms: the design schema's upper bound (1 GΩ), so analyze accepts every sized design. */
+export const MAX_RESISTANCE_OHM = 1e9;
+/** Smallest tail current the sizing works at, A: the spec schema's lower bound for a fixed tail current. */
+export const MIN_TAIL_CURRENT_A = 1e-7;
+
+/** Raised when an option cannot be sized within the schema's bounds; the message says why. */
+export class SizingError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'SizingError';
+  }
+}
 
 /** Reference-branch current per ampere of tail current, for the power split. */
 export const REFERENCE_RATIO: Record<TopologyId, number> = {
@@ -67,7 +80,15 @@ export type SizingStep =
   | { step: 'widlar-reference'; referenceRatio: number; resistanceOhm: number }
   | { step: 'widlar-emitter'; resistanceOhm: number; series: ResistorSeries }
   | { step: 'pair-degeneration'; gainDropV: number; neededDropV: number; swingDropFactor: number; resistanceOhm: number; series: ResistorSeries }
-  | { step: 'collector'; formula: 'degenerated' | 'differential' | 'single-ended'; exactOhm: number; resistanceOhm: number; series: ResistorSeries };
+  | { step: 'collector'; formula: 'degenerated' | 'differential' | 'single-ended'; exactOhm: number; resistanceOhm: number; series: ResistorSeries }
+  | {
+      step: 'collector-short';
+      /** Why the gain target is out of reach: RC at the largest value accepted, or the gain peaked (the pair nears saturation) as RC grew. */
+      limit: 'largest-resistance' | 'gain-peak';
+      targetGain: number;
+      reachedGain: number;
+      resistanceOhm: number;
+    };
 
 export interface SizedOption {
   design: Design;
@@ -103,6 +124,13 @@ export function targetTailCurrentA(spec: Spec, topology: TopologyId): Extract<Si
   const ratio = REFERENCE_RATIO[topology];
   const budgetA = (POWER_USE_FRACTION * spec.powerBudgetW) / (spanV * (1 + ratio));
   const currentA = Math.min(budgetA, MAX_TAIL_CURRENT_A);
+  if (!(currentA >= MIN_TAIL_CURRENT_A)) {
+    throw new SizingError(
+      `cannot be sized: ${POWER_USE_FRACTION * 100} % of the ${formatQuantity(spec.powerBudgetW, 'W')} power budget across ${formatQuantity(spanV, 'V')}` +
+        `${ratio > 0 ? `, shared with a reference branch of ${ratio}× the tail current,` : ''} leaves ${formatQuantity(currentA, 'A')} of tail current,` +
+        ` below the ${formatQuantity(MIN_TAIL_CURRENT_A, 'A')} the sizing works at (the smallest tail current a spec may fix); raise the power budget`,
+    );
+  }
   return {
     step: 'tail-current-from-budget',
     currentA,
@@ -115,9 +143,21 @@ export function targetTailCurrentA(spec: Spec, topology: TopologyId): Extract<Si
   };
 }
 
+/** A tuned resistance, and whether the measured figure reached its target. */
+interface Tuned {
+  rOhm: number;
+  reached: boolean;
+  /** The figure at `rOhm`. */
+  value: number;
+  /** Why it stopped short: the resistance bound, or the figure turned away from the target as the resistance moved. */
+  limit?: 'largest-resistance' | 'gain-peak';
+}
+
 /**
  * Adjusts one resistance until `measure(result)` meets `target`, assuming the measured figure
- * varies as resistance^exponent (exponent −1 for a current set by the resistor, +1 for a gain).
+ * varies as resistance^exponent (exponent −1 for a current set by the resistor, +1 for a gain),
+ * within [MIN_RESISTANCE_OHM, MAX_RESISTANCE_OHM]. When the figure cannot reach the target
+ * (the bound is hit, or a step moves it further away), the closest value seen is kept.
  */
 function tuneResistance(
   make: (resistanceOhm: number) => Design,
@@ -125,18 +165,30 @@ function tuneResistance(
   measure: (result: AnalyzeResult) => number,
   target: number,
   exponent: 1 | -1,
-): number {
-  let rOhm = Math.max(startOhm, MIN_RESISTANCE_OHM);
+): Tuned {
+  const bounded = (r: number) => Math.min(Math.max(r, MIN_RESISTANCE_OHM), MAX_RESISTANCE_OHM);
+  let rOhm = bounded(startOhm);
   let previous: StageSolution | undefined;
+  let best: Tuned | undefined;
+  let last: Tuned | undefined;
+  const distance = (t: Tuned) => Math.abs(Math.log(t.value / target));
   for (let i = 0; i < TUNE_MAX_ITERATIONS; i += 1) {
     previous = solveStage(make(rOhm), previous);
     const value = measure(previous.result);
-    if (!(value > 0)) return rOhm;
+    if (!(value > 0)) return best ?? { rOhm, reached: false, value };
     const ratio = target / value;
-    if (Math.abs(ratio - 1) < TUNE_TOLERANCE) break;
-    rOhm = Math.max(rOhm * ratio ** exponent, MIN_RESISTANCE_OHM);
+    const here: Tuned = { rOhm, reached: Math.abs(ratio - 1) < TUNE_TOLERANCE, value };
+    // The figure moved against the assumed power law (a gain falling as RC grows: the pair nears saturation)
+    const turned = last !== undefined && (here.value - last.value) * (here.rOhm - last.rOhm) * exponent < 0;
+    if (turned && best) return { ...best, limit: 'gain-peak' };
+    if (!best || distance(here) < distance(best)) best = here;
+    last = here;
+    if (here.reached) return here;
+    const next = bounded(rOhm * ratio ** exponent);
+    if (next === rOhm) return { ...here, limit: 'largest-resistance' };
+    rOhm = next;
   }
-  return rOhm;
+  return best as Tuned;
 }
 
 /** Gain magnitude of the spec's output kind. */
@@ -153,7 +205,7 @@ function degenerationDropV(spec: Spec, vbeV: number): number {
 /** Sizes and snaps the tail element for a target current at the nominal condition. */
 function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: number, pair: Omit<SizedValues, 'tail'>, steps: SizingStep[]): TailDesign {
   const series = spec.resistors.series;
-  const snap = (r: number) => snapToSeries(Math.max(r, MIN_RESISTANCE_OHM), series);
+  const snap = (r: number | Tuned) => snapWithin(typeof r === 'number' ? r : r.rOhm, series);
   const model = deviceModel(spec.device, nominal.temperatureC);
   const vbeV = model.thermalVoltageV * Math.log(tailA / model.saturationCurrentA);
   const { positiveV: vp, negativeV: vn } = spec.supply;
@@ -211,9 +263,14 @@ function pairStart(spec: Spec, tailA: number, thermalVoltageV: number, steps: Si
     return { collectorResistanceOhm: gainDropV / collectorA, pairEmitterResistanceOhm: 0 };
   }
   const rcOhm = neededDropV / collectorA;
-  const reOhm = snapToSeries(Math.max(rcOhm / perCollectorGain - thermalVoltageV / collectorA, MIN_RESISTANCE_OHM), series);
+  const reOhm = snapWithin(rcOhm / perCollectorGain - thermalVoltageV / collectorA, series);
   steps.push({ step: 'pair-degeneration', gainDropV, neededDropV, swingDropFactor: SWING_DROP_FACTOR, resistanceOhm: reOhm, series });
   return { collectorResistanceOhm: rcOhm, pairEmitterResistanceOhm: reOhm };
+}
+
+/** The series member nearest a resistance, kept within [MIN_RESISTANCE_OHM, MAX_RESISTANCE_OHM] (both on every series). */
+function snapWithin(valueOhm: number, series: ResistorSeries): number {
+  return snapToSeries(Math.min(Math.max(valueOhm, MIN_RESISTANCE_OHM), MAX_RESISTANCE_OHM), series);
 }
 
 /** Peak swing on each collector: the whole swing for a single-ended output, half of it for a differential one, V. */
@@ -233,9 +290,12 @@ export function sizeTopology(spec: Spec, topology: TopologyId, nominal: Conditio
   const pair = pairStart(spec, tailA, model.thermalVoltageV, steps);
   const tail = sizeTail(spec, topology, nominal, tailA, pair, steps);
   const withRc = (rcOhm: number): SizedValues => ({ tail, collectorResistanceOhm: rcOhm, pairEmitterResistanceOhm: pair.pairEmitterResistanceOhm });
-  const rcExact = tuneResistance((x) => designAt(spec, nominal, withRc(x)), pair.collectorResistanceOhm, (r) => outputGain(spec, r), spec.gain.target, 1);
-  const rc = snapToSeries(rcExact, spec.resistors.series);
+  const tuned = tuneResistance((x) => designAt(spec, nominal, withRc(x)), pair.collectorResistanceOhm, (r) => outputGain(spec, r), spec.gain.target, 1);
+  const rc = snapWithin(tuned.rOhm, spec.resistors.series);
   const formula = pair.pairEmitterResistanceOhm > 0 ? 'degenerated' : spec.gain.output;
-  steps.push({ step: 'collector', formula, exactOhm: rcExact, resistanceOhm: rc, series: spec.resistors.series });
+  steps.push({ step: 'collector', formula, exactOhm: tuned.rOhm, resistanceOhm: rc, series: spec.resistors.series });
+  if (!tuned.reached) {
+    steps.push({ step: 'collector-short', limit: tuned.limit ?? 'gain-peak', targetGain: spec.gain.target, reachedGain: tuned.value, resistanceOhm: tuned.rOhm });
+  }
   return { design: designAt(spec, nominal, withRc(rc)), steps };
 }

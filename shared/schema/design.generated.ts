@@ -9,7 +9,7 @@ export interface Design {
   device: DeviceParams;
   supply: Supply;
   /**
-   * Load resistor RC1 from each collector to the positive rail, in ohms (Ω); more than 0, up to 1 GΩ.
+   * Load resistor RC1 from each collector to the positive rail, in ohms (Ω); from 1 mΩ to 1 GΩ.
    */
   collectorResistanceOhm: number;
   /**
@@ -17,7 +17,7 @@ export interface Design {
    */
   collectorMismatch?: number;
   /**
-   * Equal degeneration resistor in each pair emitter, in ohms (Ω); 0 for none.
+   * Equal degeneration resistor in each pair emitter, in ohms (Ω); 0 for none, else from 1 mΩ to 1 GΩ.
    */
   pairEmitterResistanceOhm?: number;
   /**
@@ -34,7 +34,7 @@ export interface Design {
          */
         topology: 'resistor';
         /**
-         * Resistor from the tail node to the negative rail, in ohms (Ω); more than 0, up to 1 GΩ.
+         * Resistor from the tail node to the negative rail, in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         resistanceOhm: number;
       }
@@ -44,7 +44,7 @@ export interface Design {
          */
         topology: 'simple-mirror';
         /**
-         * Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); more than 0, up to 1 GΩ.
+         * Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         referenceResistanceOhm: number;
       }
@@ -54,11 +54,11 @@ export interface Design {
          */
         topology: 'degenerated-mirror';
         /**
-         * Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); more than 0, up to 1 GΩ.
+         * Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         referenceResistanceOhm: number;
         /**
-         * Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); more than 0, up to 1 GΩ.
+         * Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         emitterResistanceOhm: number;
       }
@@ -68,11 +68,11 @@ export interface Design {
          */
         topology: 'widlar';
         /**
-         * Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); more than 0, up to 1 GΩ.
+         * Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         referenceResistanceOhm: number;
         /**
-         * Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); more than 0, up to 1 GΩ.
+         * Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         emitterResistanceOhm: number;
       }
@@ -82,7 +82,7 @@ export interface Design {
          */
         topology: 'wilson';
         /**
-         * Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); more than 0, up to 1 GΩ.
+         * Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         referenceResistanceOhm: number;
       }
@@ -92,7 +92,7 @@ export interface Design {
          */
         topology: 'cascode';
         /**
-         * Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); more than 0, up to 1 GΩ.
+         * Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         referenceResistanceOhm: number;
       };
@@ -126,7 +126,7 @@ export interface DeviceParams {
    */
   earlyVoltageV?: number;
   /**
-   * Transport saturation current IS at 27 °C, in amperes (A). Leave empty to derive it from the VBE at 1 mA.
+   * Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.
    */
   saturationCurrentA?: number;
   /**

@@ -27,7 +27,7 @@ export interface Spec {
      */
     earlyVoltageV: number;
     /**
-     * Transport saturation current IS at 27 °C, in amperes (A). Leave empty to derive it from the VBE at 1 mA.
+     * Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.
      */
     saturationCurrentA?: number;
     /**
@@ -129,7 +129,7 @@ export interface Spec {
    */
   powerBudgetW: number;
   /**
-   * Fixes the tail current instead of letting the sizing choose it, in amperes (A). Leave empty to let Longtail choose.
+   * Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.
    */
   tailCurrentA?: number;
   /**

@@ -12,6 +12,8 @@ type SchemaNode = Record<string, unknown>;
 
 /** The largest resistance any field allows, ohms (1 GΩ). */
 const MAX_RESISTANCE_OHM = 1e9;
+/** The smallest resistance any resistor field allows, ohms (1 mΩ, about a short copper trace: below it the part is a wire). */
+const MIN_RESISTANCE_OHM = 1e-3;
 
 /** The `topology` property of every tail branch; its `const` is the branch's id. */
 const TOPOLOGY_PROPERTY = {
@@ -25,29 +27,29 @@ const TAIL_FIELD_SCHEMAS: Record<TailField, SchemaNode> = {
   resistanceOhm: {
     type: 'number',
     title: 'Tail resistor',
-    description: 'Resistor from the tail node to the negative rail, in ohms (Ω); more than 0, up to 1 GΩ.',
+    description: 'Resistor from the tail node to the negative rail, in ohms (Ω); from 1 mΩ to 1 GΩ.',
     'x-unit': 'Ω',
     'x-typical': { min: 100, max: 1e7 },
-    exclusiveMinimum: 0,
+    minimum: MIN_RESISTANCE_OHM,
     maximum: MAX_RESISTANCE_OHM,
   },
   referenceResistanceOhm: {
     type: 'number',
     title: 'Reference resistor',
-    description: "Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); more than 0, up to 1 GΩ.",
+    description: "Resistor from the positive rail into the mirror's reference transistor; sets the reference current, in ohms (Ω); from 1 mΩ to 1 GΩ.",
     'x-unit': 'Ω',
     'x-typical': { min: 100, max: 1e7 },
-    exclusiveMinimum: 0,
+    minimum: MIN_RESISTANCE_OHM,
     maximum: MAX_RESISTANCE_OHM,
   },
   emitterResistanceOhm: {
     type: 'number',
     title: 'Mirror emitter resistor',
     description:
-      'Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); more than 0, up to 1 GΩ.',
+      'Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); from 1 mΩ to 1 GΩ.',
     'x-unit': 'Ω',
     'x-typical': { min: 1, max: 1e6 },
-    exclusiveMinimum: 0,
+    minimum: MIN_RESISTANCE_OHM,
     maximum: MAX_RESISTANCE_OHM,
   },
 };

@@ -85,6 +85,13 @@ export function sizingNote(s: SizingStep): string {
       return `The gain alone would drop only ${volts(s.gainDropV)} across RC, less than the ${volts(s.neededDropV)} the output swing needs (${s.swingDropFactor}× its peak per collector): pair emitter degeneration RE ≈ RC/|A| − 1/gm, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
     case 'collector':
       return `RC ≈ ${COLLECTOR_FORMULAS[s.formula]}, refined by solving the stage with the sized tail to ${ohms(s.exactOhm)}, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+    case 'collector-short': {
+      const [why, remedy] =
+        s.limit === 'largest-resistance'
+          ? [`RC stops at ${ohms(s.resistanceOhm)}, the largest resistance a design may have, at this tail current`, 'raise the power budget (or the tail current) or lower the target']
+          : [`the gain peaks at RC ≈ ${ohms(s.resistanceOhm)}: a larger RC pulls the collectors down towards saturation (and the Early effect caps gm·RC)`, 'lower the target or widen the rails'];
+      return `The gain target ${Number(s.targetGain.toPrecision(4))} V/V is out of reach for this option: ${why}, giving ${Number(s.reachedGain.toPrecision(4))} V/V; ${remedy}.`;
+    }
   }
 }
 

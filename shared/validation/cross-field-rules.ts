@@ -37,10 +37,19 @@ export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
 
 /** Every cross-field problem of a schema-valid design (defaults applied). */
 export function designCrossFieldIssues(design: Design): ValidationIssue[] {
-  const issues = railOrderIssues(design.supply, designFieldLabel);
+  const issues = [...pairEmitterResistanceIssues(design.pairEmitterResistanceOhm), ...railOrderIssues(design.supply, designFieldLabel)];
   // Stryker disable next-line ConditionalExpression: equivalent, an undefined voltage compares false with both rails and gives no issue
   if (issues.length > 0 || design.inputCommonModeV === undefined) return issues;
   return insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, designFieldLabel);
+}
+
+/** The smallest resistance a resistor field allows, ohms (1 mΩ, as the schema's resistor fields). */
+const MIN_RESISTANCE_OHM = 1e-3;
+
+/** The pair emitter resistor is 0 (none) or a resistor of at least 1 mΩ, like every other resistor field. */
+function pairEmitterResistanceIssues(valueOhm: number | undefined): ValidationIssue[] {
+  if (valueOhm === undefined || valueOhm === 0 || valueOhm >= MIN_RESISTANCE_OHM) return [];
+  return [{ path: '/pairEmitterResistanceOhm', message: `must be 0 (none) or at least 1 mΩ, got ${valueOhm} Ω` }];
 }
 
 /** The negative rail must be below the positive one. */

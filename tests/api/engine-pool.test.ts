@@ -85,9 +85,10 @@ describe('the engine pool', () => {
     expect(input).toBeInstanceOf(InputError);
     expect(input.message).toBe('/supply/negativeV: must be below the positive rail');
     expect((input as InputError).path).toBe('/supply/negativeV');
-    const convergence = errorFrom(describeError(new ConvergenceError('the operating point did not converge')));
+    const convergence = errorFrom(describeError(new ConvergenceError('the operating point did not converge', ['/tail/resistanceOhm'])));
     expect(convergence).toBeInstanceOf(ConvergenceError);
     expect(convergence.message).toBe('the operating point did not converge');
+    expect((convergence as ConvergenceError).fields).toEqual(['/tail/resistanceOhm']);
   });
 
   test('when a second app joins the pool, then both share its threads, which stop when the last one closes', async () => {

@@ -166,6 +166,7 @@ const BAD_REQUESTS: BadRequest[] = [
   { route: 'POST /api/analyze', when: 'the collector resistance is "15k"', as: 'designer', body: json(design((d) => (d.collectorResistanceOhm = '15k'))), status: 400, path: '/collectorResistanceOhm' },
   { route: 'POST /api/analyze', when: 'the negative rail is above the positive one', as: 'designer', body: json(design((d) => (d.supply = { positiveV: -5, negativeV: 5 }))), status: 400, path: '/supply/negativeV' },
   { route: 'POST /api/analyze', when: 'the input common mode is outside the rails', as: 'designer', body: json(design((d) => (d.inputCommonModeV = 50))), status: 400, path: '/inputCommonModeV' },
+  { route: 'POST /api/analyze', when: 'the collector resistance is 1e-300 Ω', as: 'designer', body: json(design((d) => (d.collectorResistanceOhm = 1e-300))), status: 400, path: '/collectorResistanceOhm' },
   { route: 'POST /api/analyze', when: 'the body is plain text', as: 'designer', body: raw(JSON.stringify(DESIGN), 'text/plain'), status: 400, path: '' },
 
   // GET /api/projects/:id/proposals?query (any member)

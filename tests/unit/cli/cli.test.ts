@@ -40,11 +40,15 @@ const CASES = {
   analyzeFile: () => runCli(['analyze', fixture('design-simple-mirror.json')]),
   recommendFile: () => runCli(['recommend', fixture('spec-quillfen-bridge.json')]),
   analyzeStdin: () => runCli(['analyze', '-'], readFileSync(fixture('design-simple-mirror.json'), 'utf8')),
+  // The same design saved with a UTF-8 byte-order mark (EF BB BF) in front, as some editors write it
+  analyzeByteOrderMark: () => runCli(['analyze', fixture('design-byte-order-mark.json')]),
+  analyzeByteOrderMarkStdin: () => runCli(['analyze', '-'], `\uFEFF${readFileSync(fixture('design-simple-mirror.json'), 'utf8')}`),
   malformed: () => runCli(['analyze', fixture('malformed.json')]),
   wrongType: () => runCli(['analyze', fixture('wrong-type.json')]),
   outOfRange: () => runCli(['analyze', fixture('out-of-range.json')]),
   unknownTopology: () => runCli(['analyze', fixture('unknown-topology.json')]),
   railsReversed: () => runCli(['analyze', fixture('rails-reversed.json')]),
+  hardToSolve: () => runCli(['analyze', fixture('hard-to-solve.json')]),
   missingFile: () => runCli(['analyze', fixture('no-such-file.json')]),
   noArguments: () => runCli([]),
 };
@@ -84,6 +88,15 @@ describe('longtail on good input', () => {
     expect(runs.analyzeStdin.stdout).toBe(runs.analyzeFile.stdout);
   });
 
+  test('a UTF-8 byte-order mark before the JSON (file or standard input) is not part of the document: same output', () => {
+    expect(readFileSync(fixture('design-byte-order-mark.json')).subarray(0, 3)).toEqual(Buffer.from([0xef, 0xbb, 0xbf]));
+    for (const run of [runs.analyzeByteOrderMark, runs.analyzeByteOrderMarkStdin]) {
+      expect(run.stderr).toBe('');
+      expect(run.code).toBe(0);
+      expect(run.stdout).toBe(runs.analyzeFile.stdout);
+    }
+  });
+
   test('recommend FILE: exit 0, versions, the notice, one option per listed topology', () => {
     const run = runs.recommendFile;
     expect(run.stderr).toBe('');
@@ -109,6 +122,7 @@ describe('longtail on bad input: exit 2, one line on stderr, no stack trace', ()
     ['outOfRange', /^longtail: \/collectorResistanceOhm\b/],
     ['unknownTopology', /^longtail: \/tail\/topology\b/],
     ['railsReversed', /^longtail: \/supply\/negativeV\b/],
+    ['hardToSolve', /^longtail: \/collectorResistanceOhm: this design cannot be solved: .*the fields that make it hard: \/collectorResistanceOhm, \/tail\/resistanceOhm/],
     ['missingFile', /^longtail: .*no-such-file\.json/],
     ['noArguments', /^longtail: usage: /],
   ])('%s: stderr matches %s', (name, pattern) => {
