@@ -10,10 +10,12 @@ import {
   mismatchStages,
   monteCarloCmrr,
   monteCarloDraws,
+  mismatchSigmas,
   screeningSensitivity,
-  resistorToleranceFraction,
   screeningStages,
   worstCaseMismatchCmrrDb,
+  worstCaseMismatchShares,
+  type MismatchShares,
   type MonteCarloDraws,
   type MonteCarloResult,
   type ScreeningStages,
@@ -124,8 +126,7 @@ function frequencyGrid(): number[] {
 export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDraws): OptionEvaluation {
   const f = spec.cmrr.atFrequencyHz;
   const differentialOutput = spec.gain.output === 'differential';
-  const tolerance = resistorToleranceFraction(spec);
-  const sigmaV = spec.device.vbeMismatchSigmaV;
+  const sigmas = mismatchSigmas(spec);
   const nominal = nominalCondition(spec);
   const nominalSolution = at(spec, design, nominal);
   const predicted = nominalSolution.result;
@@ -143,7 +144,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
       tailCurrentA: solution.result.tailCurrentA,
       gain: outputGain(spec, solution.result),
       cmrrAtFrequencyDb: singleEndedCmrrDbAt(solution, f),
-      cmrrDifferentialWorstCaseDb: sensitivity ? worstCaseMismatchCmrrDb(sensitivity, tolerance, sigmaV) : null,
+      cmrrDifferentialWorstCaseDb: sensitivity ? worstCaseMismatchCmrrDb(sensitivity, sigmas) : null,
       powerW: solution.result.powerW,
       tailComplianceMarginV: solution.result.tailComplianceMarginV,
       pairSaturationMarginV: solution.result.pairSaturationMarginV,
@@ -158,14 +159,16 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   let monteCarlo: MonteCarloResult | null = null;
   let worstDifferential: number | null = null;
   let governingMismatch: ReturnType<typeof mismatchStages> | null = null;
+  let shares: MismatchShares | null = null;
   if (differentialOutput) {
     const worst = corners.reduce((a, b) => (b.figures.cmrrDifferentialWorstCaseDb! < a.figures.cmrrDifferentialWorstCaseDb! ? b : a));
     governingMismatch = mismatchStages(worst.screening as ScreeningStages);
     const sensitivity = mismatchSensitivity(governingMismatch, f);
-    worstDifferential = worstCaseMismatchCmrrDb(sensitivity, tolerance, sigmaV);
+    worstDifferential = worstCaseMismatchCmrrDb(sensitivity, sigmas);
+    shares = worstCaseMismatchShares(sensitivity, sigmas);
     worst.figures.cmrrDifferentialWorstCaseDb = worstDifferential;
     const shared = draws ?? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
-    monteCarlo = monteCarloCmrr(sensitivity, shared, tolerance, sigmaV, spec.cmrr.minDb);
+    monteCarlo = monteCarloCmrr(sensitivity, shared, sigmas, spec.cmrr.minDb);
   }
 
   const sweepConditions = temperatureSweep(spec);
@@ -260,7 +263,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     cmrrVsFrequency: frequencyGrid().map((frequencyHz) => ({
       frequencyHz,
       singleEndedDb: singleEndedCmrrDbAt(nominalSolution, frequencyHz),
-      differentialWorstCaseDb: governingMismatch ? worstCaseMismatchCmrrDb(mismatchSensitivity(governingMismatch, frequencyHz), tolerance, sigmaV) : null,
+      differentialWorstCaseDb: governingMismatch ? worstCaseMismatchCmrrDb(mismatchSensitivity(governingMismatch, frequencyHz), sigmas) : null,
     })),
     temperatureSweep: sweep.map((r, i) => ({ temperatureC: sweepConditions[i].temperatureC, tailCurrentA: r.tailCurrentA, gain: outputGain(spec, r) })),
   };
