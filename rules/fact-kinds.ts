@@ -34,6 +34,7 @@ export const FACT_KINDS: { readonly [K in keyof OptionFacts]-?: KindOf<OptionFac
   worstCmrrCorner: 'text',
   cmrrDifferentialWorstCaseDb: 'number-or-null',
   cmrrDifferentialWorstCaseMarginDb: 'number-or-null',
+  cmrrDifferentialLimitNote: 'text',
   monteCarloYieldPercent: 'number-or-null',
   monteCarloSamples: 'number',
   requiredYieldPercent: 'number',

@@ -61,7 +61,7 @@ export interface OptionCurves {
 export type GainRemedy = 'degeneration-or-rising-tail-current' | 'current-source-tail' | 'higher-resistance-tail';
 
 /** The facts whose value is a sentence: written at the edge from the figures beside them. */
-export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote';
+export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote' | 'cmrrDifferentialLimitNote';
 
 /** An operating-point problem and the condition it appears at. */
 export interface ProblemAt {
@@ -73,6 +73,8 @@ export interface ProblemAt {
 export type MeasuredFacts = Omit<OptionFacts, WordedFact | 'operatingPointProblems'> & {
   gainOverConditionsRemedyId: GainRemedy;
   operatingPointProblemsAt: ProblemAt[];
+  /** Each mismatch's share of the differential worst case's common-mode gain, per cent (null when single-ended). */
+  cmrrDifferentialSharesPercent: MismatchShares | null;
 };
 
 export interface OptionEvaluation {
@@ -213,6 +215,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     worstCmrrCorner: worstSingle.label,
     cmrrDifferentialWorstCaseDb: worstDifferential,
     cmrrDifferentialWorstCaseMarginDb: worstDifferential === null ? null : worstDifferential - cmrrRequired,
+    cmrrDifferentialSharesPercent: shares,
     monteCarloYieldPercent: yieldPercent,
     monteCarloSamples: spec.monteCarlo.samples,
     requiredYieldPercent: spec.cmrr.minYieldPercent,

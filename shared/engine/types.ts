@@ -137,6 +137,11 @@ export interface OptionFacts {
   cmrrDifferentialWorstCaseDb: number | null;
   /** cmrrDifferentialWorstCaseDb − cmrrRequiredDb (null when single-ended). */
   cmrrDifferentialWorstCaseMarginDb: number | null;
+  /**
+   * What sets the differential worst case (each mismatch's share), and, above 120 dB, that the
+   * figure is limited only by the model; empty when single-ended.
+   */
+  cmrrDifferentialLimitNote: string;
   /** Monte Carlo yield against cmrrRequiredDb, per cent (null when single-ended). */
   monteCarloYieldPercent: number | null;
   monteCarloSamples: number;
