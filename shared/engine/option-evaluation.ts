@@ -21,6 +21,7 @@ import {
   type ScreeningStages,
 } from './mismatch';
 import { designAt, outputGain, swingPeakPerCollectorV } from './sizing';
+import { swingCompression } from './large-signal';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
 
 /** Usual safe-to-touch limit for DC rails [IEC62368]. */
@@ -191,6 +192,9 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const highCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.maxV);
   const upRoomV = spec.supply.positiveV - Math.max(predicted.collectorVoltageV, predicted.collector2VoltageV);
   const swingMarginV = Math.min(upRoomV - swingPeakV, predicted.pairSaturationMarginV - swingPeakV);
+  // the swing's peak on the output the spec names, against the pair's large-signal transfer at nominal
+  const compression = swingCompression(nominalSolution, spec.gain.output, spec.outputSwingVpp / 2, outputGain(spec, predicted));
+  const compressionLimit = spec.outputSwingMaxCompressionPercent;
   const powerWorstW = Math.max(predicted.powerW, ...cornerFigures.map((c) => c.powerW));
   const problems: ProblemAt[] = [
     ...nominalSolution.problems.map((problem) => ({ conditionLabel: nominal.label, problem })),
@@ -237,6 +241,11 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     swingMarginV,
     swingPeakPerCollectorV: swingPeakV,
     outputSwingVpp: spec.outputSwingVpp,
+    swingCompressionPercent: compression.compressionPercent,
+    swingCompressionLimitPercent: compressionLimit,
+    swingCompressionMarginPercent: compressionLimit - compression.compressionPercent,
+    swingPeakInputV: compression.peakInputV,
+    swingLinearInputV: compression.linearInputV,
     powerWorstW,
     powerBudgetW: spec.powerBudgetW,
     powerMarginW: spec.powerBudgetW - powerWorstW,
