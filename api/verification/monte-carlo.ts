@@ -1,6 +1,7 @@
 /**
  * SPICE Monte Carlo of one option's differential rejection: N circuits with the spec's tolerances
- * (load resistors Gaussian, 3σ = tolerance; the pair's ΔVBE Gaussian with the spec's σ), each
+ * (load resistors Gaussian, 3σ = tolerance; the pair's ΔVBE, BF and VAF differences Gaussian
+ * with the spec's σ: Q2 gets its own `.model` card), each
  * simulated in ngspice at the spec frequency, at the corner that governs the option's mismatch
  * worst case. The engine's closed-form model is evaluated on the very same samples (the first N
  * of the spec's seeded draws, which the ranking's own Monte Carlo also used), so the two
@@ -10,7 +11,7 @@
  * ratio); the difference that makes is part of what this run shows.
  */
 import { solveStage } from '#shared/engine/analyze';
-import { mismatchCmrrDb, mismatchSensitivity, mismatchStages, monteCarloDraws, monteCarloSample, percentile, resistorToleranceFraction } from '#shared/engine/mismatch';
+import { mismatchCmrrDb, mismatchSensitivity, mismatchSigmas, mismatchStages, mismatchedDesign, monteCarloDraws, monteCarloSample, percentile } from '#shared/engine/mismatch';
 import type { RecommendOption } from '#shared/engine/recommend';
 import type { Design, Spec } from '#shared/engine/types';
 import type { MonteCarloVerificationResult } from '#shared/verification/types';
@@ -96,18 +97,13 @@ export async function runMonteCarlo(
   let failedRuns = 0;
   for (let i = 0; i < runs; i += 1) {
     if (slicing && i > 0 && i % slicing.sliceRuns === 0) await slicing.betweenSlices();
-    const sample = monteCarloSample(draws, i, resistorToleranceFraction(spec), spec.device.vbeMismatchSigmaV, sensitivity.thermalVoltageV);
-    predictedDb.push(mismatchCmrrDb(sensitivity, sample.loadMismatch, sample.isMismatch));
+    const sample = monteCarloSample(draws, i, mismatchSigmas(spec), sensitivity.thermalVoltageV);
+    predictedDb.push(mismatchCmrrDb(sensitivity, sample.mismatches));
     await onProgress(i, `Run ${i + 1} of ${runs} at ${governing.label}`);
     try {
       const ac = await acAt(
         run,
-        {
-          ...cornerDesign,
-          collectorResistanceOhm: design.collectorResistanceOhm * sample.load1Scale,
-          collectorMismatch: sample.loadMismatch,
-          pairSaturationCurrentMismatch: sample.isMismatch,
-        },
+        { ...mismatchedDesign(cornerDesign, sample.mismatches), collectorResistanceOhm: design.collectorResistanceOhm * sample.load1Scale },
         { startHz: f, stopHz: f, pointsPerDecade: 1 },
       );
       const db = ac.figuresAt(0).cmrrDifferentialDb;

@@ -3,7 +3,7 @@
  * solved self-consistently and the small-signal stage as a whole (operating-point.ts,
  * small-signal.ts); this file turns the solution into the contract's figures.
  */
-import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
+import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE, stageCircuit, type StageCircuit } from './circuit';
 import { closedFormTailRout } from './closed-form';
 import { deviceModel, type DeviceModel } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
@@ -152,6 +152,25 @@ function vbeGuessV(design: Design, model: DeviceModel): number {
   return model.thermalVoltageV * Math.log(currentA / model.saturationCurrentA);
 }
 
+/** The device of a transistor whose BF or VAF is scaled (a mismatched pair transistor): BF and VAF times their scales. */
+export function scaledDevice(device: Design['device'], betaScale = 1, earlyVoltageScale = 1): Design['device'] {
+  const scaled = { ...device, beta: device.beta * betaScale };
+  // VAF = 0 reads as infinite (no Early effect): a mismatch of it changes nothing
+  if (device.earlyVoltageV !== undefined && device.earlyVoltageV > 0) scaled.earlyVoltageV = device.earlyVoltageV * earlyVoltageScale;
+  return scaled;
+}
+
+/** Models of the transistors whose BF or VAF differ from the stage's device, by name. */
+function ownTransistorModels(circuit: StageCircuit, device: Design['device'], temperatureC: number): Record<string, DeviceModel> {
+  const models: Record<string, DeviceModel> = {};
+  for (const el of circuit.elements) {
+    if (el.kind === 'npn' && (el.betaScale !== undefined || el.earlyVoltageScale !== undefined)) {
+      models[el.name] = deviceModel(scaledDevice(device, el.betaScale, el.earlyVoltageScale), temperatureC);
+    }
+  }
+  return models;
+}
+
 /**
  * Solves a design and keeps the internals that sweeps and sensitivities reuse. `warmStart`: a
  * solved stage of the same topology whose operating point seeds the Newton iteration.
@@ -168,9 +187,10 @@ export function solveStage(design: Design, warmStart?: SolvedCircuit): StageSolu
 export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedCircuit {
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const model = deviceModel(design.device, temperatureC);
+  const circuit = stageCircuit(design, vbeGuessV(design, model));
   let op: OperatingPoint;
   try {
-    op = solveOperatingPoint(stageCircuit(design, vbeGuessV(design, model)), model, warmStart?.op);
+    op = solveOperatingPoint(circuit, model, warmStart?.op, ownTransistorModels(circuit, design.device, temperatureC));
   } catch (error) {
     throw error instanceof ConvergenceError ? withHardFields(error, design) : error;
   }

@@ -25,6 +25,9 @@ export interface TransistorElement {
   emitter: string;
   /** Area factor: scales IS (used for the pair's VBE mismatch). */
   area: number;
+  /** This transistor's BF and VAF over the stage's device (the pair's beta and Early-voltage mismatch); absent = 1. */
+  betaScale?: number;
+  earlyVoltageScale?: number;
   part: CircuitPart;
 }
 
@@ -71,6 +74,9 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
   const mismatch = design.collectorMismatch ?? 0;
   const reOhm = design.pairEmitterResistanceOhm ?? 0;
   const pairArea2 = 1 + (design.pairSaturationCurrentMismatch ?? 0);
+  const betaScale2 = 1 + (design.pairBetaMismatch ?? 0);
+  const earlyVoltageScale2 = 1 + (design.pairEarlyVoltageMismatch ?? 0);
+  const pair2Scales = { ...(betaScale2 !== 1 ? { betaScale: betaScale2 } : {}), ...(earlyVoltageScale2 !== 1 ? { earlyVoltageScale: earlyVoltageScale2 } : {}) };
   const tailNodeGuessV = vicmV - vbeGuessV;
   const emitterNodes = reOhm > 0 ? ['e1', 'e2'] : [TAIL_NODE, TAIL_NODE];
 
@@ -78,7 +84,7 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
     { kind: 'resistor', name: 'RC1', nodes: [RAIL_NODES.positive, 'c1'], resistanceOhm: rcOhm, part: 'pair' },
     { kind: 'resistor', name: 'RC2', nodes: [RAIL_NODES.positive, 'c2'], resistanceOhm: rcOhm * (1 + mismatch), part: 'pair' },
     { kind: 'npn', name: 'Q1', collector: 'c1', base: 'in1', emitter: emitterNodes[0], area: 1, part: 'pair' },
-    { kind: 'npn', name: 'Q2', collector: 'c2', base: 'in2', emitter: emitterNodes[1], area: pairArea2, part: 'pair' },
+    { kind: 'npn', name: 'Q2', collector: 'c2', base: 'in2', emitter: emitterNodes[1], area: pairArea2, ...pair2Scales, part: 'pair' },
   ];
   if (reOhm > 0) {
     elements.push(

@@ -1,41 +1,79 @@
 /**
  * Mismatch-limited rejection of the differential output. A perfectly matched pair rejects
- * common mode completely between its collectors; the load mismatch ε (RC2 = RC1·(1+ε)) and the
- * pair's IS mismatch δ (δ = exp(ΔVBE/VT) − 1) set the limit [SS]. Exact solves of the stage at
- * ±ε, ±δ and (ε, δ) (every operating-point shift included: the Early effect on the shifted
- * collector voltages makes the response curve, DOMAIN.md) give a second-order model, and the
- * worst case and the Monte Carlo follow without further solves:
- *   Adcm(ε, δ) = Sε·ε + Sεε·ε² + Sδ·δ + Sδδ·δ² + Sεδ·ε·δ,  Ad(ε, δ) = Ad0 + Aε·ε + Aδ·δ
+ * common mode completely between its collectors; four mismatches set the limit [SS]: the load
+ * mismatch ε (RC2 = RC1·(1+ε)), the pair's IS mismatch δ (δ = exp(ΔVBE/VT) − 1), its beta
+ * mismatch b (BF2 = BF·(1+b)) and its Early-voltage mismatch a (VAF2 = VAF·(1+a)). Exact solves
+ * of the stage at ±step of each and at each pair of them (every operating-point shift included:
+ * the Early effect on the shifted collector voltages makes the response curve, DOMAIN.md) give a
+ * second-order model, and the worst case and the Monte Carlo follow without further solves:
+ *   Adcm(x) = Σ Sᵢ·xᵢ + Σ Sᵢᵢ·xᵢ² + Σ_{i<j} Sᵢⱼ·xᵢ·xⱼ,  Ad(x) = Ad0 + Σ Aᵢ·xᵢ
  * (complex, at one frequency), CMRR = |Ad| / |Adcm|. tests/unit/engine/mismatch.test.ts holds
  * the model against full solves.
+ *
+ * What the model leaves out (thermal gradients across the pair, leakage, source-impedance
+ * imbalance, layout) usually limits a real stage somewhere above 100–120 dB (common practice,
+ * from memory), so a figure above MODEL_LIMITED_ABOVE_DB is reported as limited only by the model.
  */
 import { solveCircuit, transfersAt, type SolvedCircuit } from './analyze';
 import { magnitude, type Complex } from './small-signal';
 import { gaussianSource } from './random';
+import type { Design } from './types';
 
-/** Steps the model is fitted at: about the 1σ–3σ mismatch of 1 % parts and a 0.5 mV VBE spread. */
-const LOAD_STEP = 0.01;
-const IS_STEP = 0.02;
+/** The four mismatches, in the order every array of this module uses. */
+export const MISMATCH_KINDS = ['load', 'is', 'beta', 'early'] as const;
+export type MismatchKind = (typeof MISMATCH_KINDS)[number];
+const COUNT = MISMATCH_KINDS.length;
+/**
+ * Steps the model is fitted at: about the 1σ–3σ mismatch of 1 % parts, a 0.5 mV VBE spread, and a
+ * few per cent of BF and VAF.
+ */
+const STEPS: readonly number[] = [0.01, 0.02, 0.05, 0.05];
+/** Index pairs of the cross terms, in the order of `MismatchSensitivity.cross`. */
+const PAIRS: readonly (readonly [number, number])[] = [
+  [0, 1],
+  [0, 2],
+  [0, 3],
+  [1, 2],
+  [1, 3],
+  [2, 3],
+];
 /** Histogram bins of the Monte Carlo rejection (the top bin also holds the top 1 %). */
 const HISTOGRAM_BINS = 30;
 /** The statistical reading of a tolerance: Gaussian with 3σ = tolerance (common practice). */
 const SIGMAS_PER_TOLERANCE = 3;
+/**
+ * Above this differential rejection the figure rests only on the mismatches the model includes;
+ * effects it leaves out usually set the real figure lower (common practice, from memory), dB.
+ */
+export const MODEL_LIMITED_ABOVE_DB = 120;
 
-/** The second-order mismatch model at one frequency. */
+/** One set of mismatches: ε (loads), δ (IS), b (BF), a (VAF), each relative (0 = matched). */
+export type MismatchVector = readonly [load: number, is: number, beta: number, early: number];
+
+/** The spread of each mismatch, as the spec gives it. */
+export interface MismatchSigmas {
+  /** Resistor tolerance as a fraction (1 % -> 0.01): Gaussian with 3σ = tolerance. */
+  resistorTolerance: number;
+  /** σ of the pair's ΔVBE, V. */
+  vbeSigmaV: number;
+  /** σ of the pair's relative BF difference. */
+  betaSigma: number;
+  /** σ of the pair's relative VAF difference. */
+  earlyVoltageSigma: number;
+}
+
+/** The second-order mismatch model at one frequency; arrays in MISMATCH_KINDS order. */
 export interface MismatchSensitivity {
   frequencyHz: number;
   thermalVoltageV: number;
-  /** Differential gain of the matched stage, and its first-order change with ε and δ. */
+  /** Differential gain of the matched stage, and its first-order change with each mismatch. */
   differentialGain: Complex;
-  differentialGainPerLoad: Complex;
-  differentialGainPerIs: Complex;
-  /** ∂Adcm/∂ε and ∂Adcm/∂δ (first order). */
-  perLoadMismatch: Complex;
-  perIsMismatch: Complex;
-  /** Second-order coefficients: ε², δ² and ε·δ. */
-  loadSquared: Complex;
-  isSquared: Complex;
-  loadTimesIs: Complex;
+  differentialGainPer: Complex[];
+  /** ∂Adcm/∂xᵢ (first order). */
+  linear: Complex[];
+  /** Second-order coefficients: xᵢ², and xᵢ·xⱼ for i < j (load·is, load·beta, load·early, is·beta, is·early, beta·early). */
+  squared: Complex[];
+  cross: Complex[];
 }
 
 export interface MonteCarloResult {
@@ -48,58 +86,64 @@ export interface MonteCarloResult {
   histogram: { binEdgesDb: number[]; counts: number[] };
 }
 
-/** The stage solved matched and at +ε and +δ: enough for a first-order model (screening). */
+/** The stage solved matched and at +step of each mismatch: enough for a first-order model (screening). */
 export interface ScreeningStages {
   matched: SolvedCircuit;
-  loadPlus: SolvedCircuit;
-  isPlus: SolvedCircuit;
+  plus: SolvedCircuit[];
 }
 
 /** The stage solved at every fitting point of the second-order model. */
 export interface MismatchStages extends ScreeningStages {
-  loadMinus: SolvedCircuit;
-  isMinus: SolvedCircuit;
-  both: SolvedCircuit;
+  minus: SolvedCircuit[];
+  /** At +step of both mismatches of each pair, in PAIRS order. */
+  pairs: SolvedCircuit[];
 }
 
-function solveMismatched(matched: SolvedCircuit, loadMismatch: number, isMismatch: number): SolvedCircuit {
-  return solveCircuit({ ...matched.design, collectorMismatch: loadMismatch, pairSaturationCurrentMismatch: isMismatch }, matched);
+/** The design with the given mismatches (the four mismatch fields set, others kept). */
+export function mismatchedDesign(design: Design, x: MismatchVector): Design {
+  return { ...design, collectorMismatch: x[0], pairSaturationCurrentMismatch: x[1], pairBetaMismatch: x[2], pairEarlyVoltageMismatch: x[3] };
 }
 
-/** The two solves of the first-order model (warm-started from the matched solution). */
+/** The fitting point: `scale` steps of mismatch i (and one step of j when given), the others 0. */
+function unitStep(i: number, scale: number, j = -1): MismatchVector {
+  const at = (k: number) => (k === i ? scale * STEPS[k] : k === j ? STEPS[k] : 0);
+  return [at(0), at(1), at(2), at(3)];
+}
+
+function solveMismatched(matched: SolvedCircuit, x: MismatchVector): SolvedCircuit {
+  return solveCircuit(mismatchedDesign(matched.design, x), matched);
+}
+
+/** The solves of the first-order model, one per mismatch (warm-started from the matched solution). */
 export function screeningStages(matched: SolvedCircuit): ScreeningStages {
-  return { matched, loadPlus: solveMismatched(matched, LOAD_STEP, 0), isPlus: solveMismatched(matched, 0, IS_STEP) };
+  return { matched, plus: MISMATCH_KINDS.map((_, i) => solveMismatched(matched, unitStep(i, 1))) };
 }
 
-/** Completes screening stages (or starts from a matched solution) to the second-order model's five solves. */
+/** Completes screening stages (or starts from a matched solution) to the second-order model's solves. */
 export function mismatchStages(from: SolvedCircuit | ScreeningStages): MismatchStages {
-  const screening = 'loadPlus' in from ? from : screeningStages(from);
+  const screening = 'plus' in from ? from : screeningStages(from);
   const { matched } = screening;
   return {
     ...screening,
-    loadMinus: solveMismatched(matched, -LOAD_STEP, 0),
-    isMinus: solveMismatched(matched, 0, -IS_STEP),
-    both: solveMismatched(matched, LOAD_STEP, IS_STEP),
+    minus: MISMATCH_KINDS.map((_, i) => solveMismatched(matched, unitStep(i, -1))),
+    pairs: PAIRS.map(([i, j]) => solveMismatched(matched, unitStep(i, 1, j))),
   };
 }
+
+const ZERO: Complex = { re: 0, im: 0 };
 
 /** First-order model from screening stages (forward differences, no second-order terms): for ranking corners. */
 export function screeningSensitivity(stages: ScreeningStages, frequencyHz: number): MismatchSensitivity {
   const m = transfersAt(stages.matched, frequencyHz);
-  const lp = transfersAt(stages.loadPlus, frequencyHz);
-  const ip = transfersAt(stages.isPlus, frequencyHz);
-  const zero = { re: 0, im: 0 };
+  const plus = stages.plus.map((s) => transfersAt(s, frequencyHz));
   return {
     frequencyHz,
     thermalVoltageV: stages.matched.model.thermalVoltageV,
     differentialGain: m.differentialGain,
-    differentialGainPerLoad: combine([[1 / LOAD_STEP, lp.differentialGain], [-1 / LOAD_STEP, m.differentialGain]]),
-    differentialGainPerIs: combine([[1 / IS_STEP, ip.differentialGain], [-1 / IS_STEP, m.differentialGain]]),
-    perLoadMismatch: combine([[1 / LOAD_STEP, lp.differentialCommonModeGain], [-1 / LOAD_STEP, m.differentialCommonModeGain]]),
-    perIsMismatch: combine([[1 / IS_STEP, ip.differentialCommonModeGain], [-1 / IS_STEP, m.differentialCommonModeGain]]),
-    loadSquared: zero,
-    isSquared: zero,
-    loadTimesIs: zero,
+    differentialGainPer: plus.map((p, i) => combine([[1 / STEPS[i], p.differentialGain], [-1 / STEPS[i], m.differentialGain]])),
+    linear: plus.map((p, i) => combine([[1 / STEPS[i], p.differentialCommonModeGain], [-1 / STEPS[i], m.differentialCommonModeGain]])),
+    squared: MISMATCH_KINDS.map(() => ZERO),
+    cross: PAIRS.map(() => ZERO),
   };
 }
 
@@ -114,52 +158,60 @@ function combine(terms: [number, Complex][]): Complex {
   return { re, im };
 }
 
-/** The model's coefficients at a frequency (central differences; the cross term from the (ε, δ) point). */
+/** The model's coefficients at a frequency (central differences; each cross term from its (xᵢ, xⱼ) point). */
 export function mismatchSensitivity(stages: MismatchStages, frequencyHz: number): MismatchSensitivity {
   const at = (s: SolvedCircuit) => transfersAt(s, frequencyHz);
   const m = at(stages.matched);
-  const lp = at(stages.loadPlus);
-  const lm = at(stages.loadMinus);
-  const ip = at(stages.isPlus);
-  const im = at(stages.isMinus);
-  const both = at(stages.both);
-  const h = LOAD_STEP;
-  const k = IS_STEP;
-  const cm = (t: typeof m) => t.differentialCommonModeGain;
-  const perLoad = combine([[1 / (2 * h), cm(lp)], [-1 / (2 * h), cm(lm)]]);
-  const loadSquared = combine([[1 / (2 * h * h), cm(lp)], [1 / (2 * h * h), cm(lm)], [-1 / (h * h), cm(m)]]);
-  const perIs = combine([[1 / (2 * k), cm(ip)], [-1 / (2 * k), cm(im)]]);
-  const isSquared = combine([[1 / (2 * k * k), cm(ip)], [1 / (2 * k * k), cm(im)], [-1 / (k * k), cm(m)]]);
-  const loadTimesIs = combine([
-    [1 / (h * k), cm(both)],
-    [-1 / (h * k), cm(m)],
-    [-1 / k, perLoad],
-    [-h / k, loadSquared],
-    [-1 / h, perIs],
-    [-k / h, isSquared],
-  ]);
+  const plus = stages.plus.map(at);
+  const minus = stages.minus.map(at);
+  const both = stages.pairs.map(at);
+  const cm0 = m.differentialCommonModeGain;
+  const linear = MISMATCH_KINDS.map((_, i) => combine([[1 / (2 * STEPS[i]), plus[i].differentialCommonModeGain], [-1 / (2 * STEPS[i]), minus[i].differentialCommonModeGain]]));
+  const squared = MISMATCH_KINDS.map((_, i) => {
+    const h2 = STEPS[i] * STEPS[i];
+    return combine([[1 / (2 * h2), plus[i].differentialCommonModeGain], [1 / (2 * h2), minus[i].differentialCommonModeGain], [-1 / h2, cm0]]);
+  });
+  const cross = PAIRS.map(([i, j], p) => {
+    const h = STEPS[i];
+    const k = STEPS[j];
+    return combine([
+      [1 / (h * k), both[p].differentialCommonModeGain],
+      [-1 / (h * k), cm0],
+      [-1 / k, linear[i]],
+      [-h / k, squared[i]],
+      [-1 / h, linear[j]],
+      [-k / h, squared[j]],
+    ]);
+  });
   return {
     frequencyHz,
     thermalVoltageV: stages.matched.model.thermalVoltageV,
     differentialGain: m.differentialGain,
-    differentialGainPerLoad: combine([[1 / (2 * h), lp.differentialGain], [-1 / (2 * h), lm.differentialGain]]),
-    differentialGainPerIs: combine([[1 / (2 * k), ip.differentialGain], [-1 / (2 * k), im.differentialGain]]),
-    perLoadMismatch: perLoad,
-    perIsMismatch: perIs,
-    loadSquared,
-    isSquared,
-    loadTimesIs,
+    differentialGainPer: MISMATCH_KINDS.map((_, i) => combine([[1 / (2 * STEPS[i]), plus[i].differentialGain], [-1 / (2 * STEPS[i]), minus[i].differentialGain]])),
+    linear,
+    squared,
+    cross,
   };
 }
 
-/** Differential CMRR (dB) for one pair of mismatches, from the model. */
-export function mismatchCmrrDb(s: MismatchSensitivity, loadMismatch: number, isMismatch: number): number {
-  const e = loadMismatch;
-  const d = isMismatch;
-  const cmRe = s.perLoadMismatch.re * e + s.loadSquared.re * e * e + s.perIsMismatch.re * d + s.isSquared.re * d * d + s.loadTimesIs.re * e * d;
-  const cmIm = s.perLoadMismatch.im * e + s.loadSquared.im * e * e + s.perIsMismatch.im * d + s.isSquared.im * d * d + s.loadTimesIs.im * e * d;
-  const adRe = s.differentialGain.re + s.differentialGainPerLoad.re * e + s.differentialGainPerIs.re * d;
-  const adIm = s.differentialGain.im + s.differentialGainPerLoad.im * e + s.differentialGainPerIs.im * d;
+/** Differential CMRR (dB) for one set of mismatches, from the model. */
+export function mismatchCmrrDb(s: MismatchSensitivity, x: MismatchVector): number {
+  let cmRe = 0;
+  let cmIm = 0;
+  let adRe = s.differentialGain.re;
+  let adIm = s.differentialGain.im;
+  for (let i = 0; i < COUNT; i += 1) {
+    const xi = x[i];
+    cmRe += (s.linear[i].re + s.squared[i].re * xi) * xi;
+    cmIm += (s.linear[i].im + s.squared[i].im * xi) * xi;
+    adRe += s.differentialGainPer[i].re * xi;
+    adIm += s.differentialGainPer[i].im * xi;
+  }
+  for (let p = 0; p < PAIRS.length; p += 1) {
+    const xx = x[PAIRS[p][0]] * x[PAIRS[p][1]];
+    cmRe += s.cross[p].re * xx;
+    cmIm += s.cross[p].im * xx;
+  }
   // squared magnitudes and one log: this runs once per Monte Carlo sample
   return 10 * Math.log10((adRe * adRe + adIm * adIm) / (cmRe * cmRe + cmIm * cmIm));
 }
@@ -169,17 +221,55 @@ export function resistorToleranceFraction(spec: { resistors: { tolerancePercent:
   return spec.resistors.tolerancePercent / 100;
 }
 
+/** The spec's mismatch spreads. */
+export function mismatchSigmas(spec: { resistors: { tolerancePercent: number }; device: { vbeMismatchSigmaV: number; betaMismatchSigma: number; earlyVoltageMismatchSigma: number } }): MismatchSigmas {
+  return {
+    resistorTolerance: resistorToleranceFraction(spec),
+    vbeSigmaV: spec.device.vbeMismatchSigmaV,
+    betaSigma: spec.device.betaMismatchSigma,
+    earlyVoltageSigma: spec.device.earlyVoltageMismatchSigma,
+  };
+}
+
 /**
- * Worst case: both load resistors at opposite tolerance extremes, ε = (1+t)/(1−t) − 1, and the
- * VBE mismatch at 3σ, δ = exp(3σ/VT) − 1, every term of the model adding in magnitude and the
- * differential gain at its lowest.
+ * The worst-case mismatches: both load resistors at opposite tolerance extremes,
+ * ε = (1+t)/(1−t) − 1, the VBE mismatch at 3σ, δ = exp(3σ/VT) − 1, and BF and VAF at 3σ.
  */
-export function worstCaseMismatchCmrrDb(s: MismatchSensitivity, resistorTolerance: number, vbeSigmaV: number): number {
-  const e = (1 + resistorTolerance) / (1 - resistorTolerance) - 1;
-  const d = Math.exp((SIGMAS_PER_TOLERANCE * vbeSigmaV) / s.thermalVoltageV) - 1;
-  const adcm = magnitude(s.perLoadMismatch) * e + magnitude(s.loadSquared) * e * e + magnitude(s.perIsMismatch) * d + magnitude(s.isSquared) * d * d + magnitude(s.loadTimesIs) * e * d;
-  const ad = magnitude(s.differentialGain) - magnitude(s.differentialGainPerLoad) * e - magnitude(s.differentialGainPerIs) * d;
+export function worstCaseMismatches(sigmas: MismatchSigmas, thermalVoltageV: number): MismatchVector {
+  const t = sigmas.resistorTolerance;
+  return [(1 + t) / (1 - t) - 1, Math.exp((SIGMAS_PER_TOLERANCE * sigmas.vbeSigmaV) / thermalVoltageV) - 1, SIGMAS_PER_TOLERANCE * sigmas.betaSigma, SIGMAS_PER_TOLERANCE * sigmas.earlyVoltageSigma];
+}
+
+/** Each term of the worst-case |Adcm| (every term in magnitude), per mismatch; a cross term is split evenly between its two. */
+function worstCaseTerms(s: MismatchSensitivity, x: MismatchVector): number[] {
+  const terms = MISMATCH_KINDS.map((_, i) => magnitude(s.linear[i]) * x[i] + magnitude(s.squared[i]) * x[i] * x[i]);
+  PAIRS.forEach(([i, j], p) => {
+    const half = (magnitude(s.cross[p]) * x[i] * x[j]) / 2;
+    terms[i] += half;
+    terms[j] += half;
+  });
+  return terms;
+}
+
+/**
+ * Worst case: every mismatch at its worst-case extreme (worstCaseMismatches), every term of the
+ * model adding in magnitude and the differential gain at its lowest.
+ */
+export function worstCaseMismatchCmrrDb(s: MismatchSensitivity, sigmas: MismatchSigmas): number {
+  const x = worstCaseMismatches(sigmas, s.thermalVoltageV);
+  const adcm = worstCaseTerms(s, x).reduce((a, b) => a + b, 0);
+  const ad = magnitude(s.differentialGain) - MISMATCH_KINDS.reduce((sum, _, i) => sum + magnitude(s.differentialGainPer[i]) * x[i], 0);
   return 20 * Math.log10(ad / adcm);
+}
+
+/** Each mismatch's share of the worst-case differential common-mode gain, per cent (they add to 100). */
+export type MismatchShares = Record<MismatchKind, number>;
+
+export function worstCaseMismatchShares(s: MismatchSensitivity, sigmas: MismatchSigmas): MismatchShares {
+  const terms = worstCaseTerms(s, worstCaseMismatches(sigmas, s.thermalVoltageV));
+  const total = terms.reduce((a, b) => a + b, 0);
+  const share = (i: number) => (total > 0 ? (100 * terms[i]) / total : 0);
+  return { load: share(0), is: share(1), beta: share(2), early: share(3) };
 }
 
 /** The p-th percentile of ascending values (nearest rank). */
@@ -188,11 +278,16 @@ export function percentile(sorted: ArrayLike<number>, p: number): number {
   return sorted[i];
 }
 
-/** Standard-normal draws for a Monte Carlo, three per sample (load 1, load 2, ΔVBE), shared by every option. */
+/**
+ * Standard-normal draws for a Monte Carlo, shared by every option: three per sample (load 1,
+ * load 2, ΔVBE), then, after all of those, two per sample (BF, VAF), so the first three of a
+ * sample do not move when the device's draws were added.
+ */
 export interface MonteCarloDraws {
   samples: number;
   seed: number;
   normals: Float64Array;
+  deviceNormals: Float64Array;
 }
 
 /** Draws once per spec, so every option sees the same samples (common random numbers). */
@@ -200,47 +295,51 @@ export function monteCarloDraws(samples: number, seed: number): MonteCarloDraws 
   const gauss = gaussianSource(seed);
   const normals = new Float64Array(3 * samples);
   for (let i = 0; i < normals.length; i += 1) normals[i] = gauss.next();
-  return { samples, seed, normals };
+  const deviceNormals = new Float64Array(2 * samples);
+  for (let i = 0; i < deviceNormals.length; i += 1) deviceNormals[i] = gauss.next();
+  return { samples, seed, normals, deviceNormals };
 }
 
-/** One Monte Carlo sample's parts: each load resistor's scale (1 = nominal), their ratio mismatch ε and the pair's IS mismatch δ. */
+/** One Monte Carlo sample's parts: each load resistor's scale (1 = nominal) and the four mismatches. */
 export interface MonteCarloSample {
   load1Scale: number;
   load2Scale: number;
-  /** ε = R2/R1 − 1. */
-  loadMismatch: number;
-  /** δ = exp(ΔVBE/VT) − 1. */
-  isMismatch: number;
+  /** [ε = R2/R1 − 1, δ = exp(ΔVBE/VT) − 1, b = BF2/BF − 1, a = VAF2/VAF − 1]. */
+  mismatches: MismatchVector;
 }
 
 /**
- * Sample `i` of `draws`: loads Gaussian with 3σ = tolerance, ΔVBE Gaussian with σ = `vbeSigmaV`.
- * The closed-form Monte Carlo and the SPICE one read the same samples from here.
+ * Sample `i` of `draws`: loads Gaussian with 3σ = tolerance, ΔVBE Gaussian with σ = `vbeSigmaV`,
+ * the relative BF and VAF differences Gaussian with their σ. The closed-form Monte Carlo and
+ * the SPICE one read the same samples from here.
  */
-export function monteCarloSample(draws: MonteCarloDraws, i: number, resistorTolerance: number, vbeSigmaV: number, thermalVoltageV: number): MonteCarloSample {
-  const resistorSigma = resistorTolerance / SIGMAS_PER_TOLERANCE;
+export function monteCarloSample(draws: MonteCarloDraws, i: number, sigmas: MismatchSigmas, thermalVoltageV: number): MonteCarloSample {
+  const resistorSigma = sigmas.resistorTolerance / SIGMAS_PER_TOLERANCE;
   const load1Scale = 1 + resistorSigma * draws.normals[3 * i];
   const load2Scale = 1 + resistorSigma * draws.normals[3 * i + 1];
-  return { load1Scale, load2Scale, loadMismatch: load2Scale / load1Scale - 1, isMismatch: Math.exp((vbeSigmaV * draws.normals[3 * i + 2]) / thermalVoltageV) - 1 };
+  return {
+    load1Scale,
+    load2Scale,
+    mismatches: [
+      load2Scale / load1Scale - 1,
+      Math.exp((sigmas.vbeSigmaV * draws.normals[3 * i + 2]) / thermalVoltageV) - 1,
+      sigmas.betaSigma * draws.deviceNormals[2 * i],
+      sigmas.earlyVoltageSigma * draws.deviceNormals[2 * i + 1],
+    ],
+  };
 }
 
 /**
  * Seeded Monte Carlo of the differential CMRR: each load resistor Gaussian with 3σ = tolerance,
- * the pair's ΔVBE Gaussian with the spec's σ; yield = share of samples at or above `requiredDb`.
+ * the pair's ΔVBE, BF and VAF differences Gaussian with the spec's σ; yield = share of samples
+ * at or above `requiredDb`.
  */
-export function monteCarloCmrr(
-  s: MismatchSensitivity,
-  draws: MonteCarloDraws,
-  resistorTolerance: number,
-  vbeSigmaV: number,
-  requiredDb: number,
-): MonteCarloResult {
+export function monteCarloCmrr(s: MismatchSensitivity, draws: MonteCarloDraws, sigmas: MismatchSigmas, requiredDb: number): MonteCarloResult {
   const { samples } = draws;
   const values = new Float64Array(samples);
   let passing = 0;
   for (let i = 0; i < samples; i += 1) {
-    const draw = monteCarloSample(draws, i, resistorTolerance, vbeSigmaV, s.thermalVoltageV);
-    const db = mismatchCmrrDb(s, draw.loadMismatch, draw.isMismatch);
+    const db = mismatchCmrrDb(s, monteCarloSample(draws, i, sigmas, s.thermalVoltageV).mismatches);
     values[i] = Number.isFinite(db) ? db : Number.MAX_VALUE;
     if (db >= requiredDb) passing += 1;
   }

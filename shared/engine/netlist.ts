@@ -7,7 +7,8 @@
  */
 import type { Design } from './types';
 import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
-import type { CircuitElement } from './circuit';
+import type { CircuitElement, TransistorElement } from './circuit';
+import { scaledDevice } from './analyze';
 import { earlyVoltageOrInfinityV, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
@@ -70,17 +71,33 @@ function elementLine(element: CircuitElement): string {
       return `${elementName('C', element.name)} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.capacitanceF)}`;
     case 'npn': {
       const area = element.area !== 1 ? ` area=${spiceNumber(element.area)}` : '';
-      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${SPICE_MODEL_NAME}${area}`;
+      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${transistorModelName(element)}${area}`;
     }
   }
 }
 
+/** Whether a transistor has its own BF or VAF (a mismatched pair transistor), and so its own `.model` card. */
+function hasOwnModel(element: TransistorElement): boolean {
+  return element.betaScale !== undefined || element.earlyVoltageScale !== undefined;
+}
+
+/** The `.model` a transistor uses: the stage's, or its own (`QNPN_Q2`) when its BF or VAF differ. */
+function transistorModelName(element: TransistorElement): string {
+  return hasOwnModel(element) ? `${SPICE_MODEL_NAME}_${element.name.toUpperCase()}` : SPICE_MODEL_NAME;
+}
+
 /** `.model` card: IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE]. */
-function modelCard(design: Design): string {
-  const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(design.device.beta)}`];
-  const vafV = earlyVoltageOrInfinityV(design.device);
+function modelCard(device: Design['device'], name = SPICE_MODEL_NAME): string {
+  const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(device))}`, `BF=${spiceNumber(device.beta)}`];
+  const vafV = earlyVoltageOrInfinityV(device);
   if (Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
-  return `.model ${SPICE_MODEL_NAME} NPN (${parameters.join(' ')})`;
+  return `.model ${name} NPN (${parameters.join(' ')})`;
+}
+
+/** The stage's `.model` card and one per transistor with its own BF or VAF. */
+function modelCards(design: Design, elements: readonly CircuitElement[]): string[] {
+  const own = elements.filter((element): element is TransistorElement => element.kind === 'npn' && hasOwnModel(element));
+  return [modelCard(design.device), ...own.map((element) => modelCard(scaledDevice(design.device, element.betaScale, element.earlyVoltageScale), transistorModelName(element)))];
 }
 
 function dcSource(name: string, node: string, dcV: number, ac = ''): string {
@@ -163,7 +180,7 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
     `* --- tail element (${design.tail.topology}) ---`,
     ...tailLines,
     '* --- device model and conditions ---',
-    modelCard(design),
+    ...modelCards(design, circuit.elements),
     optionsCard(temperatureC, options),
     '* --- analysis ---',
     analysisCard(options),

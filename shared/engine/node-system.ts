@@ -25,6 +25,8 @@ export interface IndexedTransistor {
   e: NodeRef;
   area: number;
   tail: boolean;
+  /** The transistor's own model where it differs from the stage's (a mismatched BF or VAF). */
+  model?: DeviceModel;
 }
 
 export interface IndexedCircuit {
@@ -36,8 +38,11 @@ export interface IndexedCircuit {
   nodeRef(name: string): NodeRef;
 }
 
-/** Indexes the circuit's nodes: fixed ones from `fixedNodesV`, every other node is free. */
-export function indexCircuit(circuit: StageCircuit): IndexedCircuit {
+/**
+ * Indexes the circuit's nodes: fixed ones from `fixedNodesV`, every other node is free.
+ * `ownModels`: models of transistors that differ from the stage's, by name.
+ */
+export function indexCircuit(circuit: StageCircuit, ownModels: Readonly<Record<string, DeviceModel>> = {}): IndexedCircuit {
   const fixedNodes = Object.keys(circuit.fixedNodesV);
   const fixedV = fixedNodes.map((n) => circuit.fixedNodesV[n]);
   const freeNodes: string[] = [];
@@ -58,7 +63,8 @@ export function indexCircuit(circuit: StageCircuit): IndexedCircuit {
     if (el.kind === 'resistor') {
       resistors.push({ name: el.name, a: ref(el.nodes[0]), b: ref(el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
     } else if (el.kind === 'npn') {
-      transistors.push({ name: el.name, c: ref(el.collector), b: ref(el.base), e: ref(el.emitter), area: el.area, tail: el.part === 'tail' });
+      const own = ownModels[el.name];
+      transistors.push({ name: el.name, c: ref(el.collector), b: ref(el.base), e: ref(el.emitter), area: el.area, tail: el.part === 'tail', ...(own ? { model: own } : {}) });
     } else {
       ref(el.nodes[0]);
       ref(el.nodes[1]);
@@ -166,6 +172,6 @@ export function junctionVoltages(ic: IndexedCircuit, v: number[], q: IndexedTran
 export function evaluateTransistors(ic: IndexedCircuit, model: DeviceModel, v: number[]): BjtEval[] {
   return ic.transistors.map((q) => {
     const { vbeV, vbcV } = junctionVoltages(ic, v, q);
-    return model.evaluate(vbeV, vbcV, q.area);
+    return (q.model ?? model).evaluate(vbeV, vbcV, q.area);
   });
 }

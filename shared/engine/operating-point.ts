@@ -100,7 +100,7 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], sh
       if (vbeV !== j.vbeV || vbcV !== j.vbcV) limited = true;
       vbeOld[i] = vbeV;
       vbcOld[i] = vbcV;
-      stampTransistor(stamp, q, model.evaluate(vbeV, vbcV, q.area), vbeV, vbcV);
+      stampTransistor(stamp, q, (q.model ?? model).evaluate(vbeV, vbcV, q.area), vbeV, vbcV);
     }
     let next: number[];
     try {
@@ -178,10 +178,11 @@ function guessWithinRails(ic: IndexedCircuit, guess: number[]): number[] {
  * Solves the DC operating point of a stage circuit with a device model. `warmStart`, the
  * solution of a nearby circuit with the same nodes, rails, inputs and temperature (a small
  * mismatch, a resistor being tuned), replaces the hand-analysis guess and saves iterations; for
- * another bias or temperature the hand guess converges faster.
+ * another bias or temperature the hand guess converges faster. `ownModels`: the models of
+ * transistors that differ from the stage's (a pair transistor with its own BF or VAF), by name.
  */
-export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint): OperatingPoint {
-  const ic = indexCircuit(circuit);
+export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint, ownModels?: Readonly<Record<string, DeviceModel>>): OperatingPoint {
+  const ic = indexCircuit(circuit, ownModels);
   const handGuess = guessWithinRails(ic, ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0));
   const sameNodes = warmStart !== undefined && warmStart.circuit.freeNodes.join() === ic.freeNodes.join();
   // A warm start that fails (its bias was too far away) falls back to the hand guess.

@@ -10,15 +10,18 @@ import {
   mismatchStages,
   monteCarloCmrr,
   monteCarloDraws,
+  mismatchSigmas,
   screeningSensitivity,
-  resistorToleranceFraction,
   screeningStages,
   worstCaseMismatchCmrrDb,
+  worstCaseMismatchShares,
+  type MismatchShares,
   type MonteCarloDraws,
   type MonteCarloResult,
   type ScreeningStages,
 } from './mismatch';
 import { designAt, outputGain, swingPeakPerCollectorV } from './sizing';
+import { swingCompression } from './large-signal';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
 
 /** Usual safe-to-touch limit for DC rails [IEC62368]. */
@@ -59,7 +62,7 @@ export interface OptionCurves {
 export type GainRemedy = 'degeneration-or-rising-tail-current' | 'current-source-tail' | 'higher-resistance-tail';
 
 /** The facts whose value is a sentence: written at the edge from the figures beside them. */
-export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote';
+export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote' | 'cmrrDifferentialLimitNote';
 
 /** An operating-point problem and the condition it appears at. */
 export interface ProblemAt {
@@ -71,6 +74,8 @@ export interface ProblemAt {
 export type MeasuredFacts = Omit<OptionFacts, WordedFact | 'operatingPointProblems'> & {
   gainOverConditionsRemedyId: GainRemedy;
   operatingPointProblemsAt: ProblemAt[];
+  /** Each mismatch's share of the differential worst case's common-mode gain, per cent (null when single-ended). */
+  cmrrDifferentialSharesPercent: MismatchShares | null;
 };
 
 export interface OptionEvaluation {
@@ -124,8 +129,7 @@ function frequencyGrid(): number[] {
 export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDraws): OptionEvaluation {
   const f = spec.cmrr.atFrequencyHz;
   const differentialOutput = spec.gain.output === 'differential';
-  const tolerance = resistorToleranceFraction(spec);
-  const sigmaV = spec.device.vbeMismatchSigmaV;
+  const sigmas = mismatchSigmas(spec);
   const nominal = nominalCondition(spec);
   const nominalSolution = at(spec, design, nominal);
   const predicted = nominalSolution.result;
@@ -143,7 +147,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
       tailCurrentA: solution.result.tailCurrentA,
       gain: outputGain(spec, solution.result),
       cmrrAtFrequencyDb: singleEndedCmrrDbAt(solution, f),
-      cmrrDifferentialWorstCaseDb: sensitivity ? worstCaseMismatchCmrrDb(sensitivity, tolerance, sigmaV) : null,
+      cmrrDifferentialWorstCaseDb: sensitivity ? worstCaseMismatchCmrrDb(sensitivity, sigmas) : null,
       powerW: solution.result.powerW,
       tailComplianceMarginV: solution.result.tailComplianceMarginV,
       pairSaturationMarginV: solution.result.pairSaturationMarginV,
@@ -158,14 +162,16 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   let monteCarlo: MonteCarloResult | null = null;
   let worstDifferential: number | null = null;
   let governingMismatch: ReturnType<typeof mismatchStages> | null = null;
+  let shares: MismatchShares | null = null;
   if (differentialOutput) {
     const worst = corners.reduce((a, b) => (b.figures.cmrrDifferentialWorstCaseDb! < a.figures.cmrrDifferentialWorstCaseDb! ? b : a));
     governingMismatch = mismatchStages(worst.screening as ScreeningStages);
     const sensitivity = mismatchSensitivity(governingMismatch, f);
-    worstDifferential = worstCaseMismatchCmrrDb(sensitivity, tolerance, sigmaV);
+    worstDifferential = worstCaseMismatchCmrrDb(sensitivity, sigmas);
+    shares = worstCaseMismatchShares(sensitivity, sigmas);
     worst.figures.cmrrDifferentialWorstCaseDb = worstDifferential;
     const shared = draws ?? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
-    monteCarlo = monteCarloCmrr(sensitivity, shared, tolerance, sigmaV, spec.cmrr.minDb);
+    monteCarlo = monteCarloCmrr(sensitivity, shared, sigmas, spec.cmrr.minDb);
   }
 
   const sweepConditions = temperatureSweep(spec);
@@ -186,6 +192,9 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const highCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.maxV);
   const upRoomV = spec.supply.positiveV - Math.max(predicted.collectorVoltageV, predicted.collector2VoltageV);
   const swingMarginV = Math.min(upRoomV - swingPeakV, predicted.pairSaturationMarginV - swingPeakV);
+  // the swing's peak on the output the spec names, against the pair's large-signal transfer at nominal
+  const compression = swingCompression(nominalSolution, spec.gain.output, spec.outputSwingVpp / 2, outputGain(spec, predicted));
+  const compressionLimit = spec.outputSwingMaxCompressionPercent;
   const powerWorstW = Math.max(predicted.powerW, ...cornerFigures.map((c) => c.powerW));
   const problems: ProblemAt[] = [
     ...nominalSolution.problems.map((problem) => ({ conditionLabel: nominal.label, problem })),
@@ -210,6 +219,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     worstCmrrCorner: worstSingle.label,
     cmrrDifferentialWorstCaseDb: worstDifferential,
     cmrrDifferentialWorstCaseMarginDb: worstDifferential === null ? null : worstDifferential - cmrrRequired,
+    cmrrDifferentialSharesPercent: shares,
     monteCarloYieldPercent: yieldPercent,
     monteCarloSamples: spec.monteCarlo.samples,
     requiredYieldPercent: spec.cmrr.minYieldPercent,
@@ -231,6 +241,11 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     swingMarginV,
     swingPeakPerCollectorV: swingPeakV,
     outputSwingVpp: spec.outputSwingVpp,
+    swingCompressionPercent: compression.compressionPercent,
+    swingCompressionLimitPercent: compressionLimit,
+    swingCompressionMarginPercent: compressionLimit - compression.compressionPercent,
+    swingPeakInputV: compression.peakInputV,
+    swingLinearInputV: compression.linearInputV,
     powerWorstW,
     powerBudgetW: spec.powerBudgetW,
     powerMarginW: spec.powerBudgetW - powerWorstW,
@@ -260,7 +275,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     cmrrVsFrequency: frequencyGrid().map((frequencyHz) => ({
       frequencyHz,
       singleEndedDb: singleEndedCmrrDbAt(nominalSolution, frequencyHz),
-      differentialWorstCaseDb: governingMismatch ? worstCaseMismatchCmrrDb(mismatchSensitivity(governingMismatch, frequencyHz), tolerance, sigmaV) : null,
+      differentialWorstCaseDb: governingMismatch ? worstCaseMismatchCmrrDb(mismatchSensitivity(governingMismatch, frequencyHz), sigmas) : null,
     })),
     temperatureSweep: sweep.map((r, i) => ({ temperatureC: sweepConditions[i].temperatureC, tailCurrentA: r.tailCurrentA, gain: outputGain(spec, r) })),
   };

@@ -137,6 +137,11 @@ export interface OptionFacts {
   cmrrDifferentialWorstCaseDb: number | null;
   /** cmrrDifferentialWorstCaseDb − cmrrRequiredDb (null when single-ended). */
   cmrrDifferentialWorstCaseMarginDb: number | null;
+  /**
+   * What sets the differential worst case (each mismatch's share), and, above 120 dB, that the
+   * figure is limited only by the model; empty when single-ended.
+   */
+  cmrrDifferentialLimitNote: string;
   /** Monte Carlo yield against cmrrRequiredDb, per cent (null when single-ended). */
   monteCarloYieldPercent: number | null;
   monteCarloSamples: number;
@@ -169,6 +174,18 @@ export interface OptionFacts {
   swingMarginV: number;
   swingPeakPerCollectorV: number;
   outputSwingVpp: number;
+  /**
+   * The swing's peak (half of outputSwingVpp, on the spec's output) on the pair's large-signal
+   * transfer at nominal: gain compression there, 1 − peak/(|A|·input), per cent (100 when the
+   * output cannot reach the peak), its limit and the margin, limit − compression.
+   */
+  swingCompressionPercent: number;
+  swingCompressionLimitPercent: number;
+  swingCompressionMarginPercent: number;
+  /** Differential input that reaches the peak, V (null when none does), and what the small-signal gain predicts. */
+  swingPeakInputV: number | null;
+  swingLinearInputV: number;
+
   /** Highest supply power over the corners, W. */
   powerWorstW: number;
   powerBudgetW: number;

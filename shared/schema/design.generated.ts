@@ -25,6 +25,14 @@ export interface Design {
    */
   pairSaturationCurrentMismatch?: number;
   /**
+   * Relative current-gain mismatch of the pair, dimensionless: BF of Q2 = BF times (1 + this).
+   */
+  pairBetaMismatch?: number;
+  /**
+   * Relative Early-voltage mismatch of the pair, dimensionless: VAF of Q2 = VAF times (1 + this); no effect when the Early voltage is 0 (infinite).
+   */
+  pairEarlyVoltageMismatch?: number;
+  /**
    * The tail element from the tail node to the negative rail; its fields depend on the topology.
    */
   tail:
@@ -141,6 +149,14 @@ export interface DeviceParams {
    * Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.
    */
   vbeMismatchSigmaV?: number;
+  /**
+   * Standard deviation of the relative current-gain (BF) difference between the two pair transistors, dimensionless: 0.02 is 2 %. Carried from the spec; analyze does not use it.
+   */
+  betaMismatchSigma?: number;
+  /**
+   * Standard deviation of the relative Early-voltage (VAF) difference between the two pair transistors, dimensionless: 0.05 is 5 %. Carried from the spec; analyze does not use it.
+   */
+  earlyVoltageMismatchSigma?: number;
 }
 /**
  * The two DC rails; the negative rail may be 0 V for a single supply.

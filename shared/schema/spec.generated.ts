@@ -42,6 +42,14 @@ export interface Spec {
      * Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.
      */
     vbeMismatchSigmaV: number;
+    /**
+     * Standard deviation of the relative current-gain (BF) difference between the two pair transistors, dimensionless: 0.02 is 2 %. A few per cent is usual for a matched pair (common practice, from memory).
+     */
+    betaMismatchSigma: number;
+    /**
+     * Standard deviation of the relative Early-voltage (VAF) difference between the two pair transistors, dimensionless: 0.05 is 5 %. A few per cent for a matched pair, more for separate parts (common practice, from memory).
+     */
+    earlyVoltageMismatchSigma: number;
   };
   /**
    * The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.
@@ -124,6 +132,10 @@ export interface Spec {
    * Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.
    */
   outputSwingVpp: number;
+  /**
+   * Largest gain compression allowed at the peak of the output swing, in per cent (%): how far the pair's large-signal output falls below the small-signal gain times the input there. 4 % at the peak is about 1 % third-harmonic distortion of a sine (common practice).
+   */
+  outputSwingMaxCompressionPercent: number;
   /**
    * Highest DC power the stage may draw from both rails, reference branches included, in watts (W).
    */

@@ -8,6 +8,7 @@
 import type { InputWarning, OperatingPointProblem } from '../engine/analyze';
 import type { GainRemedy, MeasuredFacts, ProblemAt } from '../engine/option-evaluation';
 import type { SizingStep } from '../engine/sizing';
+import { MODEL_LIMITED_ABOVE_DB, type MismatchKind, type MismatchShares } from '../engine/mismatch';
 import type { OptionFacts, SelectionPolicy } from '../engine/types';
 import { formatQuantity } from '../units/format-quantity';
 
@@ -101,6 +102,23 @@ export function tailOutputResistanceNote(routOhm: number, closedForm: { valueOhm
   return `${ohms(routOhm)} by node analysis (textbook ${closedForm.formula} ${textbook})`;
 }
 
+/** Each mismatch of the model, as the note names it. */
+const MISMATCH_WORDS: Readonly<Record<MismatchKind, string>> = { load: 'load resistors', is: 'VBE', beta: 'beta', early: 'Early voltage' };
+
+/**
+ * What sets the differential worst case: each mismatch's share of its common-mode gain, largest
+ * first; above MODEL_LIMITED_ABOVE_DB, plainly that the figure is limited only by the model.
+ * Empty for a single-ended output.
+ */
+export function cmrrDifferentialLimitNote(worstCaseDb: number | null, shares: MismatchShares | null): string {
+  if (worstCaseDb === null || shares === null) return '';
+  const ranked = (Object.keys(shares) as MismatchKind[]).sort((a, b) => shares[b] - shares[a]);
+  const parts = ranked.map((kind) => `${MISMATCH_WORDS[kind]} ${Math.round(shares[kind])} %`).join(', ');
+  const setBy = `Shares of the worst-case common-mode gain by mismatch: ${parts}.`;
+  if (!(worstCaseDb > MODEL_LIMITED_ABOVE_DB)) return setBy;
+  return `${setBy} Limited only by the model: above ${MODEL_LIMITED_ABOVE_DB} dB, effects it leaves out (thermal gradients across the pair, leakage, source-impedance imbalance, layout) usually set the real figure, so read it as an upper bound to confirm on the bench.`;
+}
+
 /** What would hold the gain over the spec's range, in plain words (why each: option-evaluation.ts). */
 export const GAIN_REMEDY_WORDS: Readonly<Record<GainRemedy, string>> = {
   'degeneration-or-rising-tail-current':
@@ -119,6 +137,7 @@ export function wordedFacts(measured: MeasuredFacts): OptionFacts {
   for (const [key, value] of Object.entries(measured)) {
     if (key === 'gainOverConditionsRemedyId') facts.gainOverConditionsRemedy = GAIN_REMEDY_WORDS[value as GainRemedy];
     else if (key === 'operatingPointProblemsAt') facts.operatingPointProblems = (value as ProblemAt[]).map(problemAtText);
+    else if (key === 'cmrrDifferentialSharesPercent') facts.cmrrDifferentialLimitNote = cmrrDifferentialLimitNote(measured.cmrrDifferentialWorstCaseDb, value as MismatchShares | null);
     else facts[key] = value;
   }
   const closedForm = { valueOhm: measured.tailOutputResistanceClosedFormOhm, formula: measured.tailOutputResistanceFormula };

@@ -77,7 +77,7 @@ const sensitivity = mismatchSensitivity(mismatchStages(solveStage(designs[0])), 
 const monteCarloMs = median(
   Array.from({ length: BATCHES }, (_, seed) => {
     const start = performance.now();
-    monteCarloCmrr(sensitivity, monteCarloDraws(MONTE_CARLO_SAMPLES, seed + 1), 0.01, 0.001, 80);
+    monteCarloCmrr(sensitivity, monteCarloDraws(MONTE_CARLO_SAMPLES, seed + 1), { resistorTolerance: 0.01, vbeSigmaV: 0.001, betaSigma: 0.02, earlyVoltageSigma: 0.05 }, 80);
     return performance.now() - start;
   }),
 );

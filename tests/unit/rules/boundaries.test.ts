@@ -40,6 +40,7 @@ const BOUNDARIES: Record<string, Boundary> = {
   'mains-referenced': { kind: 'flag', fact: 'mainsReferenced' },
   'operating-point': { kind: 'count', fact: 'operatingPointProblemCount' },
   'output-swing': { kind: 'margin', fact: 'swingMarginV', unit: 'V' },
+  'output-swing-compression': { kind: 'margin', fact: 'swingCompressionMarginPercent', unit: '%' },
   'patient-connected': { kind: 'flag', fact: 'patientConnected' },
   'power-budget': { kind: 'margin', fact: 'powerMarginW', unit: 'W' },
   'tail-current-drift': { kind: 'margin', fact: 'tailCurrentDriftMarginPercent', unit: '%' },

@@ -20,6 +20,7 @@ const RULE_NAMES = [
   'mains-referenced',
   'operating-point',
   'output-swing',
+  'output-swing-compression',
   'patient-connected',
   'power-budget',
   'tail-current-drift',

@@ -18,6 +18,8 @@ describe('validateDesign', () => {
         collectorMismatch: 0,
         pairEmitterResistanceOhm: 0,
         pairSaturationCurrentMismatch: 0,
+        pairBetaMismatch: 0,
+        pairEarlyVoltageMismatch: 0,
         inputCommonModeV: 0,
         temperatureC: NOMINAL_TEMPERATURE_C,
         tailCapacitanceF: 0,

@@ -14,12 +14,15 @@ describe('validateSpec', () => {
       value: {
         ...MINIMAL_SPEC,
         // VBE 0.65 V and VCE(sat) 0.2 V at 1 mA: common practice for small-signal silicon;
-        // beta 100, VAF 100 V, 1 mV mismatch: a typical small-signal NPN (common practice, from memory)
-        device: { family: 'npn', beta: 100, earlyVoltageV: 100, vbeOnV: 0.65, vceSatV: 0.2, vbeMismatchSigmaV: 0.001 },
+        // beta 100, VAF 100 V, 1 mV mismatch: a typical small-signal NPN (common practice, from memory);
+        // a matched pair's BF and VAF a few per cent apart at 1σ (common practice, from memory)
+        device: { family: 'npn', beta: 100, earlyVoltageV: 100, vbeOnV: 0.65, vceSatV: 0.2, vbeMismatchSigmaV: 0.001, betaMismatchSigma: 0.02, earlyVoltageMismatchSigma: 0.05 },
         gain: { target: 100, tolerancePercent: 10, output: 'differential' },
         cmrr: { minDb: 80, atFrequencyHz: 0, marginDb: 6, minYieldPercent: 99 },
         inputCommonMode: { minV: 0, maxV: 0 },
         outputSwingVpp: 1,
+        // 4 % compression at the peak ≈ 1 % third harmonic (a cubic: HD3 = compression/4)
+        outputSwingMaxCompressionPercent: 4,
         powerBudgetW: 1,
         temperatureC: { min: 0, max: 70 },
         resistors: { series: 'E96', tolerancePercent: 1 }, // E96 is the ±1 % series (common practice)

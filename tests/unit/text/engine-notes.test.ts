@@ -5,7 +5,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import type { MeasuredFacts } from '#shared/engine/option-evaluation';
-import { conditionLabel, operatingPointProblemText, sizingNote, tailOutputResistanceNote, wordedFacts } from '#shared/text/engine-notes';
+import { cmrrDifferentialLimitNote, conditionLabel, operatingPointProblemText, sizingNote, tailOutputResistanceNote, wordedFacts } from '#shared/text/engine-notes';
 import { makeOptionFacts } from '../../helpers/option-facts';
 
 describe('sizing notes', () => {
@@ -44,13 +44,20 @@ describe('figures worded', () => {
     expect(operatingPointProblemText({ problem: 'saturated', transistor: 'Q4', vceV: 0.0234, vceSatV: 0.15 })).toBe('Q4 is saturated: VCE = 0.023 V, below VCE(sat) = 0.15 V.');
   });
 
+  test('when the differential worst case is above 120 dB, then the note says plainly that only the model limits it', () => {
+    const shares = { load: 0, is: 0, beta: 0, early: 100 };
+    expect(cmrrDifferentialLimitNote(134.2, shares)).toContain('Limited only by the model: above 120 dB');
+    expect(cmrrDifferentialLimitNote(104.2, shares)).not.toContain('Limited only by the model');
+    expect(cmrrDifferentialLimitNote(null, null)).toBe('');
+  });
+
   test('when the device has no Early voltage, then the tail Rout note says the textbook limit is unbounded', () => {
     expect(tailOutputResistanceNote(5.48e6, { valueOhm: null, formula: 'β·ro/2' })).toBe('5.48 MΩ by node analysis (textbook β·ro/2 unbounded without an Early voltage)');
     expect(tailOutputResistanceNote(5.48e6, { valueOhm: 5.29e6, formula: 'β·ro/2' })).toBe('5.48 MΩ by node analysis (textbook β·ro/2 ≈ 5.29 MΩ)');
   });
 
   test('when an option\'s facts are worded, then the remedy id and the problems become words in their places and the Rout note is written from the figures', () => {
-    const { gainOverConditionsRemedy: _words, tailOutputResistanceNote: _note, operatingPointProblems: _problems, ...rest } = makeOptionFacts();
+    const { gainOverConditionsRemedy: _words, tailOutputResistanceNote: _note, operatingPointProblems: _problems, cmrrDifferentialLimitNote: _limit, ...rest } = makeOptionFacts();
     const measured: MeasuredFacts = {
       ...rest,
       gainOverConditionsRemedyId: 'current-source-tail',
@@ -62,8 +69,10 @@ describe('figures worded', () => {
       tailOutputResistanceOhm: 2.3e6,
       tailOutputResistanceClosedFormOhm: 2.5e6,
       tailOutputResistanceFormula: 'ro·(1 + gm·(RE ∥ rπ))',
+      cmrrDifferentialSharesPercent: { load: 12.4, is: 6.1, beta: 0.6, early: 80.9 },
     };
     const facts = wordedFacts(measured);
+    expect(facts.cmrrDifferentialLimitNote).toBe('Shares of the worst-case common-mode gain by mismatch: Early voltage 81 %, load resistors 12 %, VBE 6 %, beta 1 %.');
     expect(facts.gainOverConditionsRemedy).toBe('a current-source tail instead of the resistor (the tail current then stops following the input common mode)');
     expect(facts.tailOutputResistanceNote).toBe('2.3 MΩ by node analysis (textbook ro·(1 + gm·(RE ∥ rπ)) ≈ 2.5 MΩ)');
     expect(facts.operatingPointProblems).toEqual([
@@ -71,7 +80,11 @@ describe('figures worded', () => {
       'ICM \u22123.2 V, 5 °C: The reference branch carries no current: the rails are too close for this tail.',
     ]);
     expect('gainOverConditionsRemedyId' in facts).toBe(false);
-    const worded: Record<string, string> = { gainOverConditionsRemedyId: 'gainOverConditionsRemedy', operatingPointProblemsAt: 'operatingPointProblems' };
+    const worded: Record<string, string> = {
+      gainOverConditionsRemedyId: 'gainOverConditionsRemedy',
+      operatingPointProblemsAt: 'operatingPointProblems',
+      cmrrDifferentialSharesPercent: 'cmrrDifferentialLimitNote',
+    };
     const measuredKeys = Object.keys(measured).map((key) => worded[key] ?? key);
     expect(Object.keys(facts)).toEqual([...measuredKeys, 'tailOutputResistanceNote']);
   });

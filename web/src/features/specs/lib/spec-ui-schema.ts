@@ -15,7 +15,7 @@ export const SPEC_LAYOUT: FormLayout = {
     { title: 'Gain', fields: ['gain'] },
     { title: 'Rejection', fields: ['cmrr', 'tailCapacitanceF'] },
     { title: 'Input common mode', fields: ['inputCommonMode'], note: 'DC range on both bases, strictly between the rails.' },
-    { title: 'Output & power', fields: ['outputSwingVpp', 'powerBudgetW', 'tailCurrentA'] },
+    { title: 'Output & power', fields: ['outputSwingVpp', 'outputSwingMaxCompressionPercent', 'powerBudgetW', 'tailCurrentA'] },
     { title: 'Temperature', fields: ['temperatureC'] },
     { title: 'Options', fields: ['topologies', 'policy'] },
     { title: 'Device', fields: ['deviceModel', 'device'], note: 'One NPN model for every transistor of the stage.' },

@@ -16,7 +16,7 @@ function ucs2length(str) {
   }
   return length;
 }
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Collector-emitter voltage below which a transistor counts as saturated, in volts (V).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001}},"default":{}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Collector-emitter voltage below which a transistor counts as saturated, in volts (V).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001},"betaMismatchSigma":{"type":"number","title":"Beta mismatch (1 sigma)","description":"Standard deviation of the relative current-gain (BF) difference between the two pair transistors, dimensionless: 0.02 is 2 %. A few per cent is usual for a matched pair (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.02},"earlyVoltageMismatchSigma":{"type":"number","title":"Early-voltage mismatch (1 sigma)","description":"Standard deviation of the relative Early-voltage (VAF) difference between the two pair transistors, dimensionless: 0.05 is 5 %. A few per cent for a matched pair, more for separate parts (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.05}},"default":{}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"outputSwingMaxCompressionPercent":{"type":"number","title":"Compression at the swing's peak","description":"Largest gain compression allowed at the peak of the output swing, in per cent (%): how far the pair's large-signal output falls below the small-signal gain times the input there. 4 % at the peak is about 1 % third-harmonic distortion of a sine (common practice).","x-unit":"%","minimum":0.1,"maximum":50,"default":4},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
 const func2 = Object.prototype.hasOwnProperty;
 const func3 = ucs2length;
 const pattern0 = new RegExp("^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$", "u");
@@ -128,7 +128,7 @@ if(data.device !== undefined){
 let data1 = data.device;
 if(data1 && typeof data1 == "object" && !Array.isArray(data1)){
 for(const key1 in data1){
-if(!(((((((key1 === "family") || (key1 === "beta")) || (key1 === "earlyVoltageV")) || (key1 === "saturationCurrentA")) || (key1 === "vbeOnV")) || (key1 === "vceSatV")) || (key1 === "vbeMismatchSigmaV"))){
+if(!(func2.call(schema11.properties.device.properties, key1))){
 const err9 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.device,data:data1};
 if(vErrors === null){
 vErrors = [err9];
@@ -420,9 +420,11 @@ vErrors.push(err32);
 errors++;
 }
 }
-}
-else {
-const err33 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.type,parentSchema:schema11.properties.device,data:data1};
+if(data1.betaMismatchSigma !== undefined){
+let data9 = data1.betaMismatchSigma;
+if(typeof data9 == "number"){
+if(data9 > 0.3 || isNaN(data9)){
+const err33 = {instancePath:instancePath+"/device/betaMismatchSigma",schemaPath:"#/properties/device/properties/betaMismatchSigma/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.3},message:"must be <= 0.3",schema:0.3,parentSchema:schema11.properties.device.properties.betaMismatchSigma,data:data9};
 if(vErrors === null){
 vErrors = [err33];
 }
@@ -431,12 +433,8 @@ vErrors.push(err33);
 }
 errors++;
 }
-}
-if(data.deviceModel !== undefined){
-let data9 = data.deviceModel;
-if(data9 && typeof data9 == "object" && !Array.isArray(data9)){
-if(data9.name === undefined){
-const err34 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "name"},message:"must have required property '"+"name"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data9};
+if(data9 < 0 || isNaN(data9)){
+const err34 = {instancePath:instancePath+"/device/betaMismatchSigma",schemaPath:"#/properties/device/properties/betaMismatchSigma/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.betaMismatchSigma,data:data9};
 if(vErrors === null){
 vErrors = [err34];
 }
@@ -445,8 +443,9 @@ vErrors.push(err34);
 }
 errors++;
 }
-if(data9.checksum === undefined){
-const err35 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "checksum"},message:"must have required property '"+"checksum"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data9};
+}
+else {
+const err35 = {instancePath:instancePath+"/device/betaMismatchSigma",schemaPath:"#/properties/device/properties/betaMismatchSigma/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.betaMismatchSigma.type,parentSchema:schema11.properties.device.properties.betaMismatchSigma,data:data9};
 if(vErrors === null){
 vErrors = [err35];
 }
@@ -455,9 +454,12 @@ vErrors.push(err35);
 }
 errors++;
 }
-for(const key2 in data9){
-if(!((key2 === "name") || (key2 === "checksum"))){
-const err36 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.deviceModel,data:data9};
+}
+if(data1.earlyVoltageMismatchSigma !== undefined){
+let data10 = data1.earlyVoltageMismatchSigma;
+if(typeof data10 == "number"){
+if(data10 > 0.3 || isNaN(data10)){
+const err36 = {instancePath:instancePath+"/device/earlyVoltageMismatchSigma",schemaPath:"#/properties/device/properties/earlyVoltageMismatchSigma/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.3},message:"must be <= 0.3",schema:0.3,parentSchema:schema11.properties.device.properties.earlyVoltageMismatchSigma,data:data10};
 if(vErrors === null){
 vErrors = [err36];
 }
@@ -466,12 +468,8 @@ vErrors.push(err36);
 }
 errors++;
 }
-}
-if(data9.name !== undefined){
-let data10 = data9.name;
-if(typeof data10 === "string"){
-if(func3(data10) > 64){
-const err37 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
+if(data10 < 0 || isNaN(data10)){
+const err37 = {instancePath:instancePath+"/device/earlyVoltageMismatchSigma",schemaPath:"#/properties/device/properties/earlyVoltageMismatchSigma/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.earlyVoltageMismatchSigma,data:data10};
 if(vErrors === null){
 vErrors = [err37];
 }
@@ -480,8 +478,9 @@ vErrors.push(err37);
 }
 errors++;
 }
-if(func3(data10) < 1){
-const err38 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
+}
+else {
+const err38 = {instancePath:instancePath+"/device/earlyVoltageMismatchSigma",schemaPath:"#/properties/device/properties/earlyVoltageMismatchSigma/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.earlyVoltageMismatchSigma.type,parentSchema:schema11.properties.device.properties.earlyVoltageMismatchSigma,data:data10};
 if(vErrors === null){
 vErrors = [err38];
 }
@@ -490,8 +489,10 @@ vErrors.push(err38);
 }
 errors++;
 }
-if(!pattern0.test(data10)){
-const err39 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/pattern",keyword:"pattern",params:{pattern: "^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},message:"must match pattern \""+"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"+"\"",schema:"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$",parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
+}
+}
+else {
+const err39 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.type,parentSchema:schema11.properties.device,data:data1};
 if(vErrors === null){
 vErrors = [err39];
 }
@@ -501,8 +502,11 @@ vErrors.push(err39);
 errors++;
 }
 }
-else {
-const err40 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.name.type,parentSchema:schema11.properties.deviceModel.properties.name,data:data10};
+if(data.deviceModel !== undefined){
+let data11 = data.deviceModel;
+if(data11 && typeof data11 == "object" && !Array.isArray(data11)){
+if(data11.name === undefined){
+const err40 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "name"},message:"must have required property '"+"name"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data11};
 if(vErrors === null){
 vErrors = [err40];
 }
@@ -511,12 +515,8 @@ vErrors.push(err40);
 }
 errors++;
 }
-}
-if(data9.checksum !== undefined){
-let data11 = data9.checksum;
-if(typeof data11 === "string"){
-if(!pattern2.test(data11)){
-const err41 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/pattern",keyword:"pattern",params:{pattern: "^[0-9a-f]{64}$"},message:"must match pattern \""+"^[0-9a-f]{64}$"+"\"",schema:"^[0-9a-f]{64}$",parentSchema:schema11.properties.deviceModel.properties.checksum,data:data11};
+if(data11.checksum === undefined){
+const err41 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "checksum"},message:"must have required property '"+"checksum"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data11};
 if(vErrors === null){
 vErrors = [err41];
 }
@@ -525,9 +525,9 @@ vErrors.push(err41);
 }
 errors++;
 }
-}
-else {
-const err42 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.checksum.type,parentSchema:schema11.properties.deviceModel.properties.checksum,data:data11};
+for(const key2 in data11){
+if(!((key2 === "name") || (key2 === "checksum"))){
+const err42 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.deviceModel,data:data11};
 if(vErrors === null){
 vErrors = [err42];
 }
@@ -537,9 +537,11 @@ vErrors.push(err42);
 errors++;
 }
 }
-}
-else {
-const err43 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.deviceModel.type,parentSchema:schema11.properties.deviceModel,data:data9};
+if(data11.name !== undefined){
+let data12 = data11.name;
+if(typeof data12 === "string"){
+if(func3(data12) > 64){
+const err43 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.deviceModel.properties.name,data:data12};
 if(vErrors === null){
 vErrors = [err43];
 }
@@ -548,12 +550,8 @@ vErrors.push(err43);
 }
 errors++;
 }
-}
-if(data.supply !== undefined){
-let data12 = data.supply;
-if(data12 && typeof data12 == "object" && !Array.isArray(data12)){
-if(data12.positiveV === undefined){
-const err44 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "positiveV"},message:"must have required property '"+"positiveV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data12};
+if(func3(data12) < 1){
+const err44 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.deviceModel.properties.name,data:data12};
 if(vErrors === null){
 vErrors = [err44];
 }
@@ -562,8 +560,8 @@ vErrors.push(err44);
 }
 errors++;
 }
-if(data12.negativeV === undefined){
-const err45 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "negativeV"},message:"must have required property '"+"negativeV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data12};
+if(!pattern0.test(data12)){
+const err45 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/pattern",keyword:"pattern",params:{pattern: "^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},message:"must match pattern \""+"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"+"\"",schema:"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$",parentSchema:schema11.properties.deviceModel.properties.name,data:data12};
 if(vErrors === null){
 vErrors = [err45];
 }
@@ -572,9 +570,9 @@ vErrors.push(err45);
 }
 errors++;
 }
-for(const key3 in data12){
-if(!((key3 === "positiveV") || (key3 === "negativeV"))){
-const err46 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supply,data:data12};
+}
+else {
+const err46 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.name.type,parentSchema:schema11.properties.deviceModel.properties.name,data:data12};
 if(vErrors === null){
 vErrors = [err46];
 }
@@ -584,11 +582,11 @@ vErrors.push(err46);
 errors++;
 }
 }
-if(data12.positiveV !== undefined){
-let data13 = data12.positiveV;
-if(typeof data13 == "number"){
-if(data13 > 100 || isNaN(data13)){
-const err47 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.positiveV,data:data13};
+if(data11.checksum !== undefined){
+let data13 = data11.checksum;
+if(typeof data13 === "string"){
+if(!pattern2.test(data13)){
+const err47 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/pattern",keyword:"pattern",params:{pattern: "^[0-9a-f]{64}$"},message:"must match pattern \""+"^[0-9a-f]{64}$"+"\"",schema:"^[0-9a-f]{64}$",parentSchema:schema11.properties.deviceModel.properties.checksum,data:data13};
 if(vErrors === null){
 vErrors = [err47];
 }
@@ -597,8 +595,9 @@ vErrors.push(err47);
 }
 errors++;
 }
-if(data13 < -100 || isNaN(data13)){
-const err48 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.positiveV,data:data13};
+}
+else {
+const err48 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.checksum.type,parentSchema:schema11.properties.deviceModel.properties.checksum,data:data13};
 if(vErrors === null){
 vErrors = [err48];
 }
@@ -608,8 +607,9 @@ vErrors.push(err48);
 errors++;
 }
 }
+}
 else {
-const err49 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.positiveV.type,parentSchema:schema11.properties.supply.properties.positiveV,data:data13};
+const err49 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.deviceModel.type,parentSchema:schema11.properties.deviceModel,data:data11};
 if(vErrors === null){
 vErrors = [err49];
 }
@@ -619,11 +619,11 @@ vErrors.push(err49);
 errors++;
 }
 }
-if(data12.negativeV !== undefined){
-let data14 = data12.negativeV;
-if(typeof data14 == "number"){
-if(data14 > 100 || isNaN(data14)){
-const err50 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.negativeV,data:data14};
+if(data.supply !== undefined){
+let data14 = data.supply;
+if(data14 && typeof data14 == "object" && !Array.isArray(data14)){
+if(data14.positiveV === undefined){
+const err50 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "positiveV"},message:"must have required property '"+"positiveV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data14};
 if(vErrors === null){
 vErrors = [err50];
 }
@@ -632,8 +632,8 @@ vErrors.push(err50);
 }
 errors++;
 }
-if(data14 < -100 || isNaN(data14)){
-const err51 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.negativeV,data:data14};
+if(data14.negativeV === undefined){
+const err51 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "negativeV"},message:"must have required property '"+"negativeV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data14};
 if(vErrors === null){
 vErrors = [err51];
 }
@@ -642,9 +642,9 @@ vErrors.push(err51);
 }
 errors++;
 }
-}
-else {
-const err52 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.negativeV.type,parentSchema:schema11.properties.supply.properties.negativeV,data:data14};
+for(const key3 in data14){
+if(!((key3 === "positiveV") || (key3 === "negativeV"))){
+const err52 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supply,data:data14};
 if(vErrors === null){
 vErrors = [err52];
 }
@@ -654,9 +654,11 @@ vErrors.push(err52);
 errors++;
 }
 }
-}
-else {
-const err53 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supply.type,parentSchema:schema11.properties.supply,data:data12};
+if(data14.positiveV !== undefined){
+let data15 = data14.positiveV;
+if(typeof data15 == "number"){
+if(data15 > 100 || isNaN(data15)){
+const err53 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.positiveV,data:data15};
 if(vErrors === null){
 vErrors = [err53];
 }
@@ -665,12 +667,8 @@ vErrors.push(err53);
 }
 errors++;
 }
-}
-if(data.gain !== undefined){
-let data15 = data.gain;
-if(data15 && typeof data15 == "object" && !Array.isArray(data15)){
-if(data15.target === undefined){
-const err54 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/required",keyword:"required",params:{missingProperty: "target"},message:"must have required property '"+"target"+"'",schema:schema11.properties.gain.required,parentSchema:schema11.properties.gain,data:data15};
+if(data15 < -100 || isNaN(data15)){
+const err54 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.positiveV,data:data15};
 if(vErrors === null){
 vErrors = [err54];
 }
@@ -679,9 +677,9 @@ vErrors.push(err54);
 }
 errors++;
 }
-for(const key4 in data15){
-if(!(((key4 === "target") || (key4 === "tolerancePercent")) || (key4 === "output"))){
-const err55 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.gain,data:data15};
+}
+else {
+const err55 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.positiveV.type,parentSchema:schema11.properties.supply.properties.positiveV,data:data15};
 if(vErrors === null){
 vErrors = [err55];
 }
@@ -691,11 +689,11 @@ vErrors.push(err55);
 errors++;
 }
 }
-if(data15.target !== undefined){
-let data16 = data15.target;
+if(data14.negativeV !== undefined){
+let data16 = data14.negativeV;
 if(typeof data16 == "number"){
-if(data16 > 10000 || isNaN(data16)){
-const err56 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.gain.properties.target,data:data16};
+if(data16 > 100 || isNaN(data16)){
+const err56 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.negativeV,data:data16};
 if(vErrors === null){
 vErrors = [err56];
 }
@@ -704,8 +702,8 @@ vErrors.push(err56);
 }
 errors++;
 }
-if(data16 <= 0 || isNaN(data16)){
-const err57 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.gain.properties.target,data:data16};
+if(data16 < -100 || isNaN(data16)){
+const err57 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.negativeV,data:data16};
 if(vErrors === null){
 vErrors = [err57];
 }
@@ -716,7 +714,7 @@ errors++;
 }
 }
 else {
-const err58 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.target.type,parentSchema:schema11.properties.gain.properties.target,data:data16};
+const err58 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.negativeV.type,parentSchema:schema11.properties.supply.properties.negativeV,data:data16};
 if(vErrors === null){
 vErrors = [err58];
 }
@@ -726,11 +724,9 @@ vErrors.push(err58);
 errors++;
 }
 }
-if(data15.tolerancePercent !== undefined){
-let data17 = data15.tolerancePercent;
-if(typeof data17 == "number"){
-if(data17 > 50 || isNaN(data17)){
-const err59 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data17};
+}
+else {
+const err59 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supply.type,parentSchema:schema11.properties.supply,data:data14};
 if(vErrors === null){
 vErrors = [err59];
 }
@@ -739,8 +735,12 @@ vErrors.push(err59);
 }
 errors++;
 }
-if(data17 < 0.1 || isNaN(data17)){
-const err60 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data17};
+}
+if(data.gain !== undefined){
+let data17 = data.gain;
+if(data17 && typeof data17 == "object" && !Array.isArray(data17)){
+if(data17.target === undefined){
+const err60 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/required",keyword:"required",params:{missingProperty: "target"},message:"must have required property '"+"target"+"'",schema:schema11.properties.gain.required,parentSchema:schema11.properties.gain,data:data17};
 if(vErrors === null){
 vErrors = [err60];
 }
@@ -749,9 +749,9 @@ vErrors.push(err60);
 }
 errors++;
 }
-}
-else {
-const err61 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.tolerancePercent.type,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data17};
+for(const key4 in data17){
+if(!(((key4 === "target") || (key4 === "tolerancePercent")) || (key4 === "output"))){
+const err61 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.gain,data:data17};
 if(vErrors === null){
 vErrors = [err61];
 }
@@ -761,10 +761,11 @@ vErrors.push(err61);
 errors++;
 }
 }
-if(data15.output !== undefined){
-let data18 = data15.output;
-if(typeof data18 !== "string"){
-const err62 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.gain.properties.output.type,parentSchema:schema11.properties.gain.properties.output,data:data18};
+if(data17.target !== undefined){
+let data18 = data17.target;
+if(typeof data18 == "number"){
+if(data18 > 10000 || isNaN(data18)){
+const err62 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.gain.properties.target,data:data18};
 if(vErrors === null){
 vErrors = [err62];
 }
@@ -773,8 +774,8 @@ vErrors.push(err62);
 }
 errors++;
 }
-if(!((data18 === "differential") || (data18 === "single-ended"))){
-const err63 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/enum",keyword:"enum",params:{allowedValues: schema11.properties.gain.properties.output.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.gain.properties.output.enum,parentSchema:schema11.properties.gain.properties.output,data:data18};
+if(data18 <= 0 || isNaN(data18)){
+const err63 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.gain.properties.target,data:data18};
 if(vErrors === null){
 vErrors = [err63];
 }
@@ -784,9 +785,8 @@ vErrors.push(err63);
 errors++;
 }
 }
-}
 else {
-const err64 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.gain.type,parentSchema:schema11.properties.gain,data:data15};
+const err64 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.target.type,parentSchema:schema11.properties.gain.properties.target,data:data18};
 if(vErrors === null){
 vErrors = [err64];
 }
@@ -796,11 +796,11 @@ vErrors.push(err64);
 errors++;
 }
 }
-if(data.cmrr !== undefined){
-let data19 = data.cmrr;
-if(data19 && typeof data19 == "object" && !Array.isArray(data19)){
-if(data19.minDb === undefined){
-const err65 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/required",keyword:"required",params:{missingProperty: "minDb"},message:"must have required property '"+"minDb"+"'",schema:schema11.properties.cmrr.required,parentSchema:schema11.properties.cmrr,data:data19};
+if(data17.tolerancePercent !== undefined){
+let data19 = data17.tolerancePercent;
+if(typeof data19 == "number"){
+if(data19 > 50 || isNaN(data19)){
+const err65 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data19};
 if(vErrors === null){
 vErrors = [err65];
 }
@@ -809,9 +809,8 @@ vErrors.push(err65);
 }
 errors++;
 }
-for(const key5 in data19){
-if(!((((key5 === "minDb") || (key5 === "atFrequencyHz")) || (key5 === "marginDb")) || (key5 === "minYieldPercent"))){
-const err66 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.cmrr,data:data19};
+if(data19 < 0.1 || isNaN(data19)){
+const err66 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data19};
 if(vErrors === null){
 vErrors = [err66];
 }
@@ -821,11 +820,8 @@ vErrors.push(err66);
 errors++;
 }
 }
-if(data19.minDb !== undefined){
-let data20 = data19.minDb;
-if(typeof data20 == "number"){
-if(data20 > 200 || isNaN(data20)){
-const err67 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.cmrr.properties.minDb,data:data20};
+else {
+const err67 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.tolerancePercent.type,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data19};
 if(vErrors === null){
 vErrors = [err67];
 }
@@ -834,8 +830,11 @@ vErrors.push(err67);
 }
 errors++;
 }
-if(data20 < 0 || isNaN(data20)){
-const err68 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minDb,data:data20};
+}
+if(data17.output !== undefined){
+let data20 = data17.output;
+if(typeof data20 !== "string"){
+const err68 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.gain.properties.output.type,parentSchema:schema11.properties.gain.properties.output,data:data20};
 if(vErrors === null){
 vErrors = [err68];
 }
@@ -844,9 +843,8 @@ vErrors.push(err68);
 }
 errors++;
 }
-}
-else {
-const err69 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minDb.type,parentSchema:schema11.properties.cmrr.properties.minDb,data:data20};
+if(!((data20 === "differential") || (data20 === "single-ended"))){
+const err69 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/enum",keyword:"enum",params:{allowedValues: schema11.properties.gain.properties.output.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.gain.properties.output.enum,parentSchema:schema11.properties.gain.properties.output,data:data20};
 if(vErrors === null){
 vErrors = [err69];
 }
@@ -856,11 +854,9 @@ vErrors.push(err69);
 errors++;
 }
 }
-if(data19.atFrequencyHz !== undefined){
-let data21 = data19.atFrequencyHz;
-if(typeof data21 == "number"){
-if(data21 > 1000000000 || isNaN(data21)){
-const err70 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data21};
+}
+else {
+const err70 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.gain.type,parentSchema:schema11.properties.gain,data:data17};
 if(vErrors === null){
 vErrors = [err70];
 }
@@ -869,8 +865,12 @@ vErrors.push(err70);
 }
 errors++;
 }
-if(data21 < 0 || isNaN(data21)){
-const err71 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data21};
+}
+if(data.cmrr !== undefined){
+let data21 = data.cmrr;
+if(data21 && typeof data21 == "object" && !Array.isArray(data21)){
+if(data21.minDb === undefined){
+const err71 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/required",keyword:"required",params:{missingProperty: "minDb"},message:"must have required property '"+"minDb"+"'",schema:schema11.properties.cmrr.required,parentSchema:schema11.properties.cmrr,data:data21};
 if(vErrors === null){
 vErrors = [err71];
 }
@@ -879,9 +879,9 @@ vErrors.push(err71);
 }
 errors++;
 }
-}
-else {
-const err72 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.atFrequencyHz.type,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data21};
+for(const key5 in data21){
+if(!((((key5 === "minDb") || (key5 === "atFrequencyHz")) || (key5 === "marginDb")) || (key5 === "minYieldPercent"))){
+const err72 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.cmrr,data:data21};
 if(vErrors === null){
 vErrors = [err72];
 }
@@ -891,11 +891,11 @@ vErrors.push(err72);
 errors++;
 }
 }
-if(data19.marginDb !== undefined){
-let data22 = data19.marginDb;
+if(data21.minDb !== undefined){
+let data22 = data21.minDb;
 if(typeof data22 == "number"){
-if(data22 > 40 || isNaN(data22)){
-const err73 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 40},message:"must be <= 40",schema:40,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data22};
+if(data22 > 200 || isNaN(data22)){
+const err73 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.cmrr.properties.minDb,data:data22};
 if(vErrors === null){
 vErrors = [err73];
 }
@@ -905,7 +905,7 @@ vErrors.push(err73);
 errors++;
 }
 if(data22 < 0 || isNaN(data22)){
-const err74 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data22};
+const err74 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minDb,data:data22};
 if(vErrors === null){
 vErrors = [err74];
 }
@@ -916,7 +916,7 @@ errors++;
 }
 }
 else {
-const err75 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.marginDb.type,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data22};
+const err75 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minDb.type,parentSchema:schema11.properties.cmrr.properties.minDb,data:data22};
 if(vErrors === null){
 vErrors = [err75];
 }
@@ -926,11 +926,11 @@ vErrors.push(err75);
 errors++;
 }
 }
-if(data19.minYieldPercent !== undefined){
-let data23 = data19.minYieldPercent;
+if(data21.atFrequencyHz !== undefined){
+let data23 = data21.atFrequencyHz;
 if(typeof data23 == "number"){
-if(data23 > 100 || isNaN(data23)){
-const err76 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data23};
+if(data23 > 1000000000 || isNaN(data23)){
+const err76 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data23};
 if(vErrors === null){
 vErrors = [err76];
 }
@@ -940,7 +940,7 @@ vErrors.push(err76);
 errors++;
 }
 if(data23 < 0 || isNaN(data23)){
-const err77 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data23};
+const err77 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data23};
 if(vErrors === null){
 vErrors = [err77];
 }
@@ -951,7 +951,7 @@ errors++;
 }
 }
 else {
-const err78 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minYieldPercent.type,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data23};
+const err78 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.atFrequencyHz.type,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data23};
 if(vErrors === null){
 vErrors = [err78];
 }
@@ -961,9 +961,11 @@ vErrors.push(err78);
 errors++;
 }
 }
-}
-else {
-const err79 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.cmrr.type,parentSchema:schema11.properties.cmrr,data:data19};
+if(data21.marginDb !== undefined){
+let data24 = data21.marginDb;
+if(typeof data24 == "number"){
+if(data24 > 40 || isNaN(data24)){
+const err79 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 40},message:"must be <= 40",schema:40,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data24};
 if(vErrors === null){
 vErrors = [err79];
 }
@@ -972,13 +974,8 @@ vErrors.push(err79);
 }
 errors++;
 }
-}
-if(data.inputCommonMode !== undefined){
-let data24 = data.inputCommonMode;
-if(data24 && typeof data24 == "object" && !Array.isArray(data24)){
-for(const key6 in data24){
-if(!((key6 === "minV") || (key6 === "maxV"))){
-const err80 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.inputCommonMode,data:data24};
+if(data24 < 0 || isNaN(data24)){
+const err80 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data24};
 if(vErrors === null){
 vErrors = [err80];
 }
@@ -988,11 +985,8 @@ vErrors.push(err80);
 errors++;
 }
 }
-if(data24.minV !== undefined){
-let data25 = data24.minV;
-if(typeof data25 == "number"){
-if(data25 > 100 || isNaN(data25)){
-const err81 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data25};
+else {
+const err81 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.marginDb.type,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data24};
 if(vErrors === null){
 vErrors = [err81];
 }
@@ -1001,8 +995,12 @@ vErrors.push(err81);
 }
 errors++;
 }
-if(data25 < -100 || isNaN(data25)){
-const err82 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data25};
+}
+if(data21.minYieldPercent !== undefined){
+let data25 = data21.minYieldPercent;
+if(typeof data25 == "number"){
+if(data25 > 100 || isNaN(data25)){
+const err82 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data25};
 if(vErrors === null){
 vErrors = [err82];
 }
@@ -1011,9 +1009,8 @@ vErrors.push(err82);
 }
 errors++;
 }
-}
-else {
-const err83 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.minV.type,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data25};
+if(data25 < 0 || isNaN(data25)){
+const err83 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data25};
 if(vErrors === null){
 vErrors = [err83];
 }
@@ -1023,11 +1020,8 @@ vErrors.push(err83);
 errors++;
 }
 }
-if(data24.maxV !== undefined){
-let data26 = data24.maxV;
-if(typeof data26 == "number"){
-if(data26 > 100 || isNaN(data26)){
-const err84 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data26};
+else {
+const err84 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minYieldPercent.type,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data25};
 if(vErrors === null){
 vErrors = [err84];
 }
@@ -1036,8 +1030,10 @@ vErrors.push(err84);
 }
 errors++;
 }
-if(data26 < -100 || isNaN(data26)){
-const err85 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data26};
+}
+}
+else {
+const err85 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.cmrr.type,parentSchema:schema11.properties.cmrr,data:data21};
 if(vErrors === null){
 vErrors = [err85];
 }
@@ -1047,8 +1043,12 @@ vErrors.push(err85);
 errors++;
 }
 }
-else {
-const err86 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.maxV.type,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data26};
+if(data.inputCommonMode !== undefined){
+let data26 = data.inputCommonMode;
+if(data26 && typeof data26 == "object" && !Array.isArray(data26)){
+for(const key6 in data26){
+if(!((key6 === "minV") || (key6 === "maxV"))){
+const err86 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.inputCommonMode,data:data26};
 if(vErrors === null){
 vErrors = [err86];
 }
@@ -1058,9 +1058,11 @@ vErrors.push(err86);
 errors++;
 }
 }
-}
-else {
-const err87 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.inputCommonMode.type,parentSchema:schema11.properties.inputCommonMode,data:data24};
+if(data26.minV !== undefined){
+let data27 = data26.minV;
+if(typeof data27 == "number"){
+if(data27 > 100 || isNaN(data27)){
+const err87 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data27};
 if(vErrors === null){
 vErrors = [err87];
 }
@@ -1069,12 +1071,8 @@ vErrors.push(err87);
 }
 errors++;
 }
-}
-if(data.outputSwingVpp !== undefined){
-let data27 = data.outputSwingVpp;
-if(typeof data27 == "number"){
-if(data27 > 200 || isNaN(data27)){
-const err88 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.outputSwingVpp,data:data27};
+if(data27 < -100 || isNaN(data27)){
+const err88 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data27};
 if(vErrors === null){
 vErrors = [err88];
 }
@@ -1083,8 +1081,9 @@ vErrors.push(err88);
 }
 errors++;
 }
-if(data27 < 0 || isNaN(data27)){
-const err89 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.outputSwingVpp,data:data27};
+}
+else {
+const err89 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.minV.type,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data27};
 if(vErrors === null){
 vErrors = [err89];
 }
@@ -1094,8 +1093,11 @@ vErrors.push(err89);
 errors++;
 }
 }
-else {
-const err90 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingVpp.type,parentSchema:schema11.properties.outputSwingVpp,data:data27};
+if(data26.maxV !== undefined){
+let data28 = data26.maxV;
+if(typeof data28 == "number"){
+if(data28 > 100 || isNaN(data28)){
+const err90 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data28};
 if(vErrors === null){
 vErrors = [err90];
 }
@@ -1104,12 +1106,8 @@ vErrors.push(err90);
 }
 errors++;
 }
-}
-if(data.powerBudgetW !== undefined){
-let data28 = data.powerBudgetW;
-if(typeof data28 == "number"){
-if(data28 <= 0 || isNaN(data28)){
-const err91 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.powerBudgetW,data:data28};
+if(data28 < -100 || isNaN(data28)){
+const err91 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data28};
 if(vErrors === null){
 vErrors = [err91];
 }
@@ -1120,7 +1118,7 @@ errors++;
 }
 }
 else {
-const err92 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.powerBudgetW.type,parentSchema:schema11.properties.powerBudgetW,data:data28};
+const err92 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.maxV.type,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data28};
 if(vErrors === null){
 vErrors = [err92];
 }
@@ -1130,11 +1128,9 @@ vErrors.push(err92);
 errors++;
 }
 }
-if(data.tailCurrentA !== undefined){
-let data29 = data.tailCurrentA;
-if(typeof data29 == "number"){
-if(data29 > 0.1 || isNaN(data29)){
-const err93 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.tailCurrentA,data:data29};
+}
+else {
+const err93 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.inputCommonMode.type,parentSchema:schema11.properties.inputCommonMode,data:data26};
 if(vErrors === null){
 vErrors = [err93];
 }
@@ -1143,8 +1139,12 @@ vErrors.push(err93);
 }
 errors++;
 }
-if(data29 < 1e-7 || isNaN(data29)){
-const err94 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-7},message:"must be >= 1e-7",schema:1e-7,parentSchema:schema11.properties.tailCurrentA,data:data29};
+}
+if(data.outputSwingVpp !== undefined){
+let data29 = data.outputSwingVpp;
+if(typeof data29 == "number"){
+if(data29 > 200 || isNaN(data29)){
+const err94 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.outputSwingVpp,data:data29};
 if(vErrors === null){
 vErrors = [err94];
 }
@@ -1153,9 +1153,8 @@ vErrors.push(err94);
 }
 errors++;
 }
-}
-else {
-const err95 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCurrentA.type,parentSchema:schema11.properties.tailCurrentA,data:data29};
+if(data29 < 0 || isNaN(data29)){
+const err95 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.outputSwingVpp,data:data29};
 if(vErrors === null){
 vErrors = [err95];
 }
@@ -1165,12 +1164,8 @@ vErrors.push(err95);
 errors++;
 }
 }
-if(data.temperatureC !== undefined){
-let data30 = data.temperatureC;
-if(data30 && typeof data30 == "object" && !Array.isArray(data30)){
-for(const key7 in data30){
-if(!((key7 === "min") || (key7 === "max"))){
-const err96 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.temperatureC,data:data30};
+else {
+const err96 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingVpp.type,parentSchema:schema11.properties.outputSwingVpp,data:data29};
 if(vErrors === null){
 vErrors = [err96];
 }
@@ -1180,11 +1175,11 @@ vErrors.push(err96);
 errors++;
 }
 }
-if(data30.min !== undefined){
-let data31 = data30.min;
-if(typeof data31 == "number"){
-if(data31 > 150 || isNaN(data31)){
-const err97 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.min,data:data31};
+if(data.outputSwingMaxCompressionPercent !== undefined){
+let data30 = data.outputSwingMaxCompressionPercent;
+if(typeof data30 == "number"){
+if(data30 > 50 || isNaN(data30)){
+const err97 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data30};
 if(vErrors === null){
 vErrors = [err97];
 }
@@ -1193,8 +1188,8 @@ vErrors.push(err97);
 }
 errors++;
 }
-if(data31 < -55 || isNaN(data31)){
-const err98 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.min,data:data31};
+if(data30 < 0.1 || isNaN(data30)){
+const err98 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data30};
 if(vErrors === null){
 vErrors = [err98];
 }
@@ -1205,7 +1200,7 @@ errors++;
 }
 }
 else {
-const err99 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.min.type,parentSchema:schema11.properties.temperatureC.properties.min,data:data31};
+const err99 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingMaxCompressionPercent.type,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data30};
 if(vErrors === null){
 vErrors = [err99];
 }
@@ -1215,11 +1210,11 @@ vErrors.push(err99);
 errors++;
 }
 }
-if(data30.max !== undefined){
-let data32 = data30.max;
-if(typeof data32 == "number"){
-if(data32 > 150 || isNaN(data32)){
-const err100 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.max,data:data32};
+if(data.powerBudgetW !== undefined){
+let data31 = data.powerBudgetW;
+if(typeof data31 == "number"){
+if(data31 <= 0 || isNaN(data31)){
+const err100 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.powerBudgetW,data:data31};
 if(vErrors === null){
 vErrors = [err100];
 }
@@ -1228,8 +1223,9 @@ vErrors.push(err100);
 }
 errors++;
 }
-if(data32 < -55 || isNaN(data32)){
-const err101 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.max,data:data32};
+}
+else {
+const err101 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.powerBudgetW.type,parentSchema:schema11.properties.powerBudgetW,data:data31};
 if(vErrors === null){
 vErrors = [err101];
 }
@@ -1239,8 +1235,11 @@ vErrors.push(err101);
 errors++;
 }
 }
-else {
-const err102 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.max.type,parentSchema:schema11.properties.temperatureC.properties.max,data:data32};
+if(data.tailCurrentA !== undefined){
+let data32 = data.tailCurrentA;
+if(typeof data32 == "number"){
+if(data32 > 0.1 || isNaN(data32)){
+const err102 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.tailCurrentA,data:data32};
 if(vErrors === null){
 vErrors = [err102];
 }
@@ -1249,10 +1248,8 @@ vErrors.push(err102);
 }
 errors++;
 }
-}
-}
-else {
-const err103 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.temperatureC.type,parentSchema:schema11.properties.temperatureC,data:data30};
+if(data32 < 1e-7 || isNaN(data32)){
+const err103 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-7},message:"must be >= 1e-7",schema:1e-7,parentSchema:schema11.properties.tailCurrentA,data:data32};
 if(vErrors === null){
 vErrors = [err103];
 }
@@ -1262,12 +1259,8 @@ vErrors.push(err103);
 errors++;
 }
 }
-if(data.resistors !== undefined){
-let data33 = data.resistors;
-if(data33 && typeof data33 == "object" && !Array.isArray(data33)){
-for(const key8 in data33){
-if(!((key8 === "series") || (key8 === "tolerancePercent"))){
-const err104 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key8},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.resistors,data:data33};
+else {
+const err104 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCurrentA.type,parentSchema:schema11.properties.tailCurrentA,data:data32};
 if(vErrors === null){
 vErrors = [err104];
 }
@@ -1277,10 +1270,12 @@ vErrors.push(err104);
 errors++;
 }
 }
-if(data33.series !== undefined){
-let data34 = data33.series;
-if(typeof data34 !== "string"){
-const err105 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.resistors.properties.series.type,parentSchema:schema11.properties.resistors.properties.series,data:data34};
+if(data.temperatureC !== undefined){
+let data33 = data.temperatureC;
+if(data33 && typeof data33 == "object" && !Array.isArray(data33)){
+for(const key7 in data33){
+if(!((key7 === "min") || (key7 === "max"))){
+const err105 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.temperatureC,data:data33};
 if(vErrors === null){
 vErrors = [err105];
 }
@@ -1289,8 +1284,12 @@ vErrors.push(err105);
 }
 errors++;
 }
-if(!(((data34 === "E24") || (data34 === "E96")) || (data34 === "E192"))){
-const err106 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/enum",keyword:"enum",params:{allowedValues: schema11.properties.resistors.properties.series.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.resistors.properties.series.enum,parentSchema:schema11.properties.resistors.properties.series,data:data34};
+}
+if(data33.min !== undefined){
+let data34 = data33.min;
+if(typeof data34 == "number"){
+if(data34 > 150 || isNaN(data34)){
+const err106 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.min,data:data34};
 if(vErrors === null){
 vErrors = [err106];
 }
@@ -1299,12 +1298,8 @@ vErrors.push(err106);
 }
 errors++;
 }
-}
-if(data33.tolerancePercent !== undefined){
-let data35 = data33.tolerancePercent;
-if(typeof data35 == "number"){
-if(data35 > 20 || isNaN(data35)){
-const err107 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 20},message:"must be <= 20",schema:20,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data35};
+if(data34 < -55 || isNaN(data34)){
+const err107 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.min,data:data34};
 if(vErrors === null){
 vErrors = [err107];
 }
@@ -1313,8 +1308,9 @@ vErrors.push(err107);
 }
 errors++;
 }
-if(data35 < 0.05 || isNaN(data35)){
-const err108 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data35};
+}
+else {
+const err108 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.min.type,parentSchema:schema11.properties.temperatureC.properties.min,data:data34};
 if(vErrors === null){
 vErrors = [err108];
 }
@@ -1324,8 +1320,11 @@ vErrors.push(err108);
 errors++;
 }
 }
-else {
-const err109 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tolerancePercent.type,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data35};
+if(data33.max !== undefined){
+let data35 = data33.max;
+if(typeof data35 == "number"){
+if(data35 > 150 || isNaN(data35)){
+const err109 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.max,data:data35};
 if(vErrors === null){
 vErrors = [err109];
 }
@@ -1334,10 +1333,8 @@ vErrors.push(err109);
 }
 errors++;
 }
-}
-}
-else {
-const err110 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.resistors.type,parentSchema:schema11.properties.resistors,data:data33};
+if(data35 < -55 || isNaN(data35)){
+const err110 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.max,data:data35};
 if(vErrors === null){
 vErrors = [err110];
 }
@@ -1347,11 +1344,8 @@ vErrors.push(err110);
 errors++;
 }
 }
-if(data.tailCapacitanceF !== undefined){
-let data36 = data.tailCapacitanceF;
-if(typeof data36 == "number"){
-if(data36 > 1e-9 || isNaN(data36)){
-const err111 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.tailCapacitanceF,data:data36};
+else {
+const err111 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.max.type,parentSchema:schema11.properties.temperatureC.properties.max,data:data35};
 if(vErrors === null){
 vErrors = [err111];
 }
@@ -1360,8 +1354,10 @@ vErrors.push(err111);
 }
 errors++;
 }
-if(data36 < 0 || isNaN(data36)){
-const err112 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.tailCapacitanceF,data:data36};
+}
+}
+else {
+const err112 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.temperatureC.type,parentSchema:schema11.properties.temperatureC,data:data33};
 if(vErrors === null){
 vErrors = [err112];
 }
@@ -1371,8 +1367,12 @@ vErrors.push(err112);
 errors++;
 }
 }
-else {
-const err113 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCapacitanceF.type,parentSchema:schema11.properties.tailCapacitanceF,data:data36};
+if(data.resistors !== undefined){
+let data36 = data.resistors;
+if(data36 && typeof data36 == "object" && !Array.isArray(data36)){
+for(const key8 in data36){
+if(!((key8 === "series") || (key8 === "tolerancePercent"))){
+const err113 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key8},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.resistors,data:data36};
 if(vErrors === null){
 vErrors = [err113];
 }
@@ -1382,11 +1382,10 @@ vErrors.push(err113);
 errors++;
 }
 }
-if(data.topologies !== undefined){
-let data37 = data.topologies;
-if(Array.isArray(data37)){
-if(data37.length < 1){
-const err114 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data37};
+if(data36.series !== undefined){
+let data37 = data36.series;
+if(typeof data37 !== "string"){
+const err114 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.resistors.properties.series.type,parentSchema:schema11.properties.resistors.properties.series,data:data37};
 if(vErrors === null){
 vErrors = [err114];
 }
@@ -1395,11 +1394,8 @@ vErrors.push(err114);
 }
 errors++;
 }
-const len0 = data37.length;
-for(let i0=0; i0<len0; i0++){
-let data38 = data37[i0];
-if(typeof data38 !== "string"){
-const err115 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data38};
+if(!(((data37 === "E24") || (data37 === "E96")) || (data37 === "E192"))){
+const err115 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/enum",keyword:"enum",params:{allowedValues: schema11.properties.resistors.properties.series.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.resistors.properties.series.enum,parentSchema:schema11.properties.resistors.properties.series,data:data37};
 if(vErrors === null){
 vErrors = [err115];
 }
@@ -1408,8 +1404,12 @@ vErrors.push(err115);
 }
 errors++;
 }
-if(!((((((data38 === "resistor") || (data38 === "simple-mirror")) || (data38 === "degenerated-mirror")) || (data38 === "widlar")) || (data38 === "wilson")) || (data38 === "cascode"))){
-const err116 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data38};
+}
+if(data36.tolerancePercent !== undefined){
+let data38 = data36.tolerancePercent;
+if(typeof data38 == "number"){
+if(data38 > 20 || isNaN(data38)){
+const err116 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 20},message:"must be <= 20",schema:20,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data38};
 if(vErrors === null){
 vErrors = [err116];
 }
@@ -1418,19 +1418,8 @@ vErrors.push(err116);
 }
 errors++;
 }
-}
-let i1 = data37.length;
-let j0;
-if(i1 > 1){
-const indices0 = {};
-for(;i1--;){
-let item0 = data37[i1];
-if(typeof item0 !== "string"){
-continue;
-}
-if(typeof indices0[item0] == "number"){
-j0 = indices0[item0];
-const err117 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data37};
+if(data38 < 0.05 || isNaN(data38)){
+const err117 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data38};
 if(vErrors === null){
 vErrors = [err117];
 }
@@ -1438,14 +1427,10 @@ else {
 vErrors.push(err117);
 }
 errors++;
-break;
-}
-indices0[item0] = i1;
-}
 }
 }
 else {
-const err118 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data37};
+const err118 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tolerancePercent.type,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data38};
 if(vErrors === null){
 vErrors = [err118];
 }
@@ -1455,10 +1440,9 @@ vErrors.push(err118);
 errors++;
 }
 }
-if(data.policy !== undefined){
-let data39 = data.policy;
-if(typeof data39 !== "string"){
-const err119 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data39};
+}
+else {
+const err119 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.resistors.type,parentSchema:schema11.properties.resistors,data:data36};
 if(vErrors === null){
 vErrors = [err119];
 }
@@ -1467,8 +1451,12 @@ vErrors.push(err119);
 }
 errors++;
 }
-if(!((data39 === "simplest-sufficient") || (data39 === "highest-rejection"))){
-const err120 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data39};
+}
+if(data.tailCapacitanceF !== undefined){
+let data39 = data.tailCapacitanceF;
+if(typeof data39 == "number"){
+if(data39 > 1e-9 || isNaN(data39)){
+const err120 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.tailCapacitanceF,data:data39};
 if(vErrors === null){
 vErrors = [err120];
 }
@@ -1477,13 +1465,8 @@ vErrors.push(err120);
 }
 errors++;
 }
-}
-if(data.hazards !== undefined){
-let data40 = data.hazards;
-if(data40 && typeof data40 == "object" && !Array.isArray(data40)){
-for(const key9 in data40){
-if(!((key9 === "patientConnected") || (key9 === "mainsReferenced"))){
-const err121 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data40};
+if(data39 < 0 || isNaN(data39)){
+const err121 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.tailCapacitanceF,data:data39};
 if(vErrors === null){
 vErrors = [err121];
 }
@@ -1493,10 +1476,8 @@ vErrors.push(err121);
 errors++;
 }
 }
-if(data40.patientConnected !== undefined){
-let data41 = data40.patientConnected;
-if(typeof data41 !== "boolean"){
-const err122 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data41};
+else {
+const err122 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCapacitanceF.type,parentSchema:schema11.properties.tailCapacitanceF,data:data39};
 if(vErrors === null){
 vErrors = [err122];
 }
@@ -1506,10 +1487,11 @@ vErrors.push(err122);
 errors++;
 }
 }
-if(data40.mainsReferenced !== undefined){
-let data42 = data40.mainsReferenced;
-if(typeof data42 !== "boolean"){
-const err123 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data42};
+if(data.topologies !== undefined){
+let data40 = data.topologies;
+if(Array.isArray(data40)){
+if(data40.length < 1){
+const err123 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data40};
 if(vErrors === null){
 vErrors = [err123];
 }
@@ -1518,10 +1500,11 @@ vErrors.push(err123);
 }
 errors++;
 }
-}
-}
-else {
-const err124 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data40};
+const len0 = data40.length;
+for(let i0=0; i0<len0; i0++){
+let data41 = data40[i0];
+if(typeof data41 !== "string"){
+const err124 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data41};
 if(vErrors === null){
 vErrors = [err124];
 }
@@ -1530,13 +1513,8 @@ vErrors.push(err124);
 }
 errors++;
 }
-}
-if(data.monteCarlo !== undefined){
-let data43 = data.monteCarlo;
-if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
-for(const key10 in data43){
-if(!((key10 === "samples") || (key10 === "seed"))){
-const err125 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data43};
+if(!((((((data41 === "resistor") || (data41 === "simple-mirror")) || (data41 === "degenerated-mirror")) || (data41 === "widlar")) || (data41 === "wilson")) || (data41 === "cascode"))){
+const err125 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data41};
 if(vErrors === null){
 vErrors = [err125];
 }
@@ -1546,10 +1524,18 @@ vErrors.push(err125);
 errors++;
 }
 }
-if(data43.samples !== undefined){
-let data44 = data43.samples;
-if(!((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44)))){
-const err126 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
+let i1 = data40.length;
+let j0;
+if(i1 > 1){
+const indices0 = {};
+for(;i1--;){
+let item0 = data40[i1];
+if(typeof item0 !== "string"){
+continue;
+}
+if(typeof indices0[item0] == "number"){
+j0 = indices0[item0];
+const err126 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data40};
 if(vErrors === null){
 vErrors = [err126];
 }
@@ -1557,10 +1543,14 @@ else {
 vErrors.push(err126);
 }
 errors++;
+break;
 }
-if(typeof data44 == "number"){
-if(data44 > 100000 || isNaN(data44)){
-const err127 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
+indices0[item0] = i1;
+}
+}
+}
+else {
+const err127 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data40};
 if(vErrors === null){
 vErrors = [err127];
 }
@@ -1569,8 +1559,11 @@ vErrors.push(err127);
 }
 errors++;
 }
-if(data44 < 100 || isNaN(data44)){
-const err128 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
+}
+if(data.policy !== undefined){
+let data42 = data.policy;
+if(typeof data42 !== "string"){
+const err128 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data42};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -1579,12 +1572,8 @@ vErrors.push(err128);
 }
 errors++;
 }
-}
-}
-if(data43.seed !== undefined){
-let data45 = data43.seed;
-if(!((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45)))){
-const err129 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
+if(!((data42 === "simplest-sufficient") || (data42 === "highest-rejection"))){
+const err129 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data42};
 if(vErrors === null){
 vErrors = [err129];
 }
@@ -1593,9 +1582,13 @@ vErrors.push(err129);
 }
 errors++;
 }
-if(typeof data45 == "number"){
-if(data45 > 4294967295 || isNaN(data45)){
-const err130 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
+}
+if(data.hazards !== undefined){
+let data43 = data.hazards;
+if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
+for(const key9 in data43){
+if(!((key9 === "patientConnected") || (key9 === "mainsReferenced"))){
+const err130 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data43};
 if(vErrors === null){
 vErrors = [err130];
 }
@@ -1604,8 +1597,11 @@ vErrors.push(err130);
 }
 errors++;
 }
-if(data45 < 0 || isNaN(data45)){
-const err131 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
+}
+if(data43.patientConnected !== undefined){
+let data44 = data43.patientConnected;
+if(typeof data44 !== "boolean"){
+const err131 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data44};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -1615,10 +1611,10 @@ vErrors.push(err131);
 errors++;
 }
 }
-}
-}
-else {
-const err132 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data43};
+if(data43.mainsReferenced !== undefined){
+let data45 = data43.mainsReferenced;
+if(typeof data45 !== "boolean"){
+const err132 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data45};
 if(vErrors === null){
 vErrors = [err132];
 }
@@ -1630,7 +1626,7 @@ errors++;
 }
 }
 else {
-const err133 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+const err133 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data43};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -1639,12 +1635,121 @@ vErrors.push(err133);
 }
 errors++;
 }
+}
+if(data.monteCarlo !== undefined){
+let data46 = data.monteCarlo;
+if(data46 && typeof data46 == "object" && !Array.isArray(data46)){
+for(const key10 in data46){
+if(!((key10 === "samples") || (key10 === "seed"))){
+const err134 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data46};
+if(vErrors === null){
+vErrors = [err134];
+}
+else {
+vErrors.push(err134);
+}
+errors++;
+}
+}
+if(data46.samples !== undefined){
+let data47 = data46.samples;
+if(!((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47)))){
+const err135 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data47};
+if(vErrors === null){
+vErrors = [err135];
+}
+else {
+vErrors.push(err135);
+}
+errors++;
+}
+if(typeof data47 == "number"){
+if(data47 > 100000 || isNaN(data47)){
+const err136 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data47};
+if(vErrors === null){
+vErrors = [err136];
+}
+else {
+vErrors.push(err136);
+}
+errors++;
+}
+if(data47 < 100 || isNaN(data47)){
+const err137 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data47};
+if(vErrors === null){
+vErrors = [err137];
+}
+else {
+vErrors.push(err137);
+}
+errors++;
+}
+}
+}
+if(data46.seed !== undefined){
+let data48 = data46.seed;
+if(!((typeof data48 == "number") && (!(data48 % 1) && !isNaN(data48)))){
+const err138 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data48};
+if(vErrors === null){
+vErrors = [err138];
+}
+else {
+vErrors.push(err138);
+}
+errors++;
+}
+if(typeof data48 == "number"){
+if(data48 > 4294967295 || isNaN(data48)){
+const err139 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data48};
+if(vErrors === null){
+vErrors = [err139];
+}
+else {
+vErrors.push(err139);
+}
+errors++;
+}
+if(data48 < 0 || isNaN(data48)){
+const err140 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data48};
+if(vErrors === null){
+vErrors = [err140];
+}
+else {
+vErrors.push(err140);
+}
+errors++;
+}
+}
+}
+}
+else {
+const err141 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data46};
+if(vErrors === null){
+vErrors = [err141];
+}
+else {
+vErrors.push(err141);
+}
+errors++;
+}
+}
+}
+else {
+const err142 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(vErrors === null){
+vErrors = [err142];
+}
+else {
+vErrors.push(err142);
+}
+errors++;
+}
 validate10.errors = vErrors;
 return errors === 0;
 }
 
 /** Hash (rjsf's hashForSchema) of the schema these validators were compiled from. */
-export const SPEC_SCHEMA_HASH = "-5153476e";
+export const SPEC_SCHEMA_HASH = "33f1913f";
 
 /** rjsf precompiled validator functions, by schema $id. */
 export const SPEC_VALIDATORS = {

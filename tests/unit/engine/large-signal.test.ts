@@ -1,0 +1,102 @@
+/**
+ * The swing check on the pair's large-signal transfer, against the handbook law of an
+ * emitter-coupled pair with an ideal tail [GM]: the collector currents split as
+ * x = (IC1 − IC2)/(IC1 + IC2) = tanh(u), u = (VBE1 − VBE2)/(2VT), so with emitter resistors RE
+ * the input is vid = 2VT·atanh(x) + RE·Itail·x and the differential output α·Itail·RC·x; the
+ * small-signal gain is the slope at x = 0, α·Itail·RC/(2VT + RE·Itail). Compression at a peak
+ * Vo: 1 − Vo/(Ad·vid). A mirror tail with no Early effect (VAF = 0) is an ideal tail here.
+ */
+import { describe, expect, test } from 'vitest';
+import { solveStage } from '#shared/engine/analyze';
+import { thermalVoltageV } from '#shared/engine/constants';
+import { swingCompression } from '#shared/engine/large-signal';
+import { evaluateOption } from '#shared/engine/option-evaluation';
+import { validateSpec } from '#shared/validate';
+import type { Design, Spec } from '#shared/engine/types';
+
+// Invented designs (not from a textbook): ideal tails, so the handbook law holds exactly.
+const IDEAL_TAIL: Record<string, Design> = {
+  'undegenerated, 27 °C': {
+    device: { family: 'npn', beta: 180, earlyVoltageV: 0, saturationCurrentA: 8.1e-15 },
+    supply: { positiveV: 12, negativeV: -12 },
+    collectorResistanceOhm: 9090,
+    tail: { topology: 'simple-mirror', referenceResistanceOhm: 23200 },
+    inputCommonModeV: 0,
+    temperatureC: 27,
+  },
+  'RE 330 Ω, 85 °C': {
+    device: { family: 'npn', beta: 125, earlyVoltageV: 0, saturationCurrentA: 2.2e-14 },
+    supply: { positiveV: 15, negativeV: -15 },
+    collectorResistanceOhm: 6190,
+    pairEmitterResistanceOhm: 330,
+    tail: { topology: 'simple-mirror', referenceResistanceOhm: 14700 },
+    inputCommonModeV: 1.2,
+    temperatureC: 85,
+  },
+};
+
+/** The handbook compression at a differential output peak Vo (per cent), and the input it needs. */
+function handbook(design: Design, tailCurrentA: number, peakV: number) {
+  const vt = thermalVoltageV(design.temperatureC!);
+  const alpha = design.device.beta / (design.device.beta + 1);
+  const re = design.pairEmitterResistanceOhm ?? 0;
+  const full = alpha * tailCurrentA * design.collectorResistanceOhm;
+  const x = peakV / full;
+  const inputV = 2 * vt * Math.atanh(x) + re * tailCurrentA * x;
+  const gain = full / (2 * vt + re * tailCurrentA);
+  return { inputV, compressionPercent: 100 * (1 - peakV / (gain * inputV)) };
+}
+
+describe.each(Object.entries(IDEAL_TAIL))('%s', (_name, design) => {
+  test.each([0.2, 0.5, 0.8, 0.95])('a differential peak at %f of the fully switched output: input and compression as the tanh law', (fraction) => {
+    const solution = solveStage(design);
+    const { tailCurrentA, differentialGain } = solution.result;
+    const alpha = design.device.beta / (design.device.beta + 1);
+    const peakV = fraction * alpha * tailCurrentA * design.collectorResistanceOhm;
+    const expected = handbook(design, tailCurrentA, peakV);
+    const found = swingCompression(solution, 'differential', peakV, Math.abs(differentialGain));
+    expect(Math.abs(found.peakInputV! / expected.inputV - 1)).toBeLessThan(1e-4);
+    expect(Math.abs(found.compressionPercent - expected.compressionPercent)).toBeLessThan(0.02);
+  });
+
+  test('a peak beyond the fully switched output is out of reach: 100 % compression, no input', () => {
+    const solution = solveStage(design);
+    const full = (design.device.beta / (design.device.beta + 1)) * solution.result.tailCurrentA * design.collectorResistanceOhm;
+    const found = swingCompression(solution, 'differential', 1.05 * full, Math.abs(solution.result.differentialGain));
+    expect(found.peakInputV).toBeNull();
+    expect(found.compressionPercent).toBe(100);
+  });
+});
+
+describe('the swing check of an option', () => {
+  // An invented spec: 100 V/V differential from ±12 V with a 5 Vpp swing and 1 mA of tail current.
+  const spec = () => {
+    const result = validateSpec({
+      title: 'Swing compression check',
+      supply: { positiveV: 12, negativeV: -12 },
+      gain: { target: 100, output: 'differential' },
+      cmrr: { minDb: 60 },
+      outputSwingVpp: 5,
+      tailCurrentA: 0.001,
+      topologies: ['cascode'],
+    });
+    if (!result.ok) throw new Error(JSON.stringify(result.errors));
+    return result.value as Spec;
+  };
+  const design = (): Design => ({
+    device: { family: 'npn', beta: 100, earlyVoltageV: 100, vbeOnV: 0.65 },
+    supply: { positiveV: 12, negativeV: -12 },
+    collectorResistanceOhm: 5110,
+    tail: { topology: 'cascode', referenceResistanceOhm: 22600 },
+  });
+
+  test('a 5 Vpp differential swing from a 1 mA undegenerated pair at 100 V/V is compressed far beyond 4 % and fails; the tanh law says so too', () => {
+    const { facts } = evaluateOption(spec(), design());
+    // the peak, 2.5 V, against a fully switched output of about 1 mA·5.11 kΩ = 5.1 V: x ≈ 0.49, tanh law: 1 − x/atanh(x) ≈ 8 %
+    const x = 2.5 / (0.99 * 0.001 * 5110);
+    expect(facts.swingCompressionPercent).toBeGreaterThan(100 * (1 - x / Math.atanh(x)) - 1.5);
+    expect(facts.swingCompressionLimitPercent).toBe(4);
+    expect(facts.swingCompressionMarginPercent).toBeLessThan(0);
+    expect(facts.swingPeakInputV! / facts.swingLinearInputV).toBeGreaterThan(1.04);
+  });
+});
