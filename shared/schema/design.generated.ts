@@ -108,6 +108,24 @@ export interface Design {
    * Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.
    */
   tailCapacitanceF?: number;
+  /**
+   * Capacitance from each collector to AC ground (the next stage's input and wiring), in farads (F); it sets the differential bandwidth with the load resistors.
+   */
+  loadCapacitanceF?: number;
+  /**
+   * Resistance in series with each base, between the drive and the pair's input, in ohms (Ω); with the devices' capacitances it lowers the gain at high frequency.
+   */
+  sourceResistanceOhm?: number;
+  /**
+   * Relative forward current gain mismatch of the pair, dimensionless: BF of Q2 = BF times (1 + this).
+   */
+  pairBetaMismatch?: number;
+  /**
+   * Frequencies at which the gains and rejection are reported (the ac entries), in hertz (Hz); at most 64, each above 0.
+   *
+   * @maxItems 64
+   */
+  frequenciesHz?: number[];
 }
 /**
  * One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.

@@ -163,6 +163,14 @@ export interface Spec {
    */
   tailCapacitanceF: number;
   /**
+   * Capacitance from each collector to AC ground (the next stage's input and wiring), in farads (F); it sets the differential bandwidth with the load resistors.
+   */
+  loadCapacitanceF: number;
+  /**
+   * Resistance in series with each base, between the drive and the pair's input, in ohms (Ω); with the devices' capacitances it lowers the gain at high frequency.
+   */
+  sourceResistanceOhm: number;
+  /**
    * Tail current sources to size and compare; at least one.
    *
    * @minItems 1

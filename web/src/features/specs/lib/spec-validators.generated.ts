@@ -16,7 +16,7 @@ function ucs2length(str) {
   }
   return length;
 }
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A). Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Collector-emitter voltage below which a transistor counts as saturated, in volts (V).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001}},"default":{}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A). Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A). Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Collector-emitter voltage below which a transistor counts as saturated, in volts (V).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001}},"default":{}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A). Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"loadCapacitanceF":{"type":"number","title":"Load capacitance","description":"Capacitance from each collector to AC ground (the next stage's input and wiring), in farads (F); it sets the differential bandwidth with the load resistors.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-8,"default":0},"sourceResistanceOhm":{"type":"number","title":"Source resistance","description":"Resistance in series with each base, between the drive and the pair's input, in ohms (Ω); with the devices' capacitances it lowers the gain at high frequency.","x-unit":"Ω","x-typical":{"max":100000},"minimum":0,"maximum":10000000,"default":0},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
 const func2 = Object.prototype.hasOwnProperty;
 const func3 = ucs2length;
 const pattern0 = new RegExp("^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$", "u");
@@ -1382,11 +1382,11 @@ vErrors.push(err113);
 errors++;
 }
 }
-if(data.topologies !== undefined){
-let data37 = data.topologies;
-if(Array.isArray(data37)){
-if(data37.length < 1){
-const err114 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data37};
+if(data.loadCapacitanceF !== undefined){
+let data37 = data.loadCapacitanceF;
+if(typeof data37 == "number"){
+if(data37 > 1e-8 || isNaN(data37)){
+const err114 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.loadCapacitanceF,data:data37};
 if(vErrors === null){
 vErrors = [err114];
 }
@@ -1395,11 +1395,8 @@ vErrors.push(err114);
 }
 errors++;
 }
-const len0 = data37.length;
-for(let i0=0; i0<len0; i0++){
-let data38 = data37[i0];
-if(typeof data38 !== "string"){
-const err115 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data38};
+if(data37 < 0 || isNaN(data37)){
+const err115 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.loadCapacitanceF,data:data37};
 if(vErrors === null){
 vErrors = [err115];
 }
@@ -1408,8 +1405,9 @@ vErrors.push(err115);
 }
 errors++;
 }
-if(!((((((data38 === "resistor") || (data38 === "simple-mirror")) || (data38 === "degenerated-mirror")) || (data38 === "widlar")) || (data38 === "wilson")) || (data38 === "cascode"))){
-const err116 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data38};
+}
+else {
+const err116 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.loadCapacitanceF.type,parentSchema:schema11.properties.loadCapacitanceF,data:data37};
 if(vErrors === null){
 vErrors = [err116];
 }
@@ -1419,18 +1417,11 @@ vErrors.push(err116);
 errors++;
 }
 }
-let i1 = data37.length;
-let j0;
-if(i1 > 1){
-const indices0 = {};
-for(;i1--;){
-let item0 = data37[i1];
-if(typeof item0 !== "string"){
-continue;
-}
-if(typeof indices0[item0] == "number"){
-j0 = indices0[item0];
-const err117 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data37};
+if(data.sourceResistanceOhm !== undefined){
+let data38 = data.sourceResistanceOhm;
+if(typeof data38 == "number"){
+if(data38 > 10000000 || isNaN(data38)){
+const err117 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000000},message:"must be <= 10000000",schema:10000000,parentSchema:schema11.properties.sourceResistanceOhm,data:data38};
 if(vErrors === null){
 vErrors = [err117];
 }
@@ -1438,14 +1429,9 @@ else {
 vErrors.push(err117);
 }
 errors++;
-break;
 }
-indices0[item0] = i1;
-}
-}
-}
-else {
-const err118 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data37};
+if(data38 < 0 || isNaN(data38)){
+const err118 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.sourceResistanceOhm,data:data38};
 if(vErrors === null){
 vErrors = [err118];
 }
@@ -1455,10 +1441,8 @@ vErrors.push(err118);
 errors++;
 }
 }
-if(data.policy !== undefined){
-let data39 = data.policy;
-if(typeof data39 !== "string"){
-const err119 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data39};
+else {
+const err119 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.sourceResistanceOhm.type,parentSchema:schema11.properties.sourceResistanceOhm,data:data38};
 if(vErrors === null){
 vErrors = [err119];
 }
@@ -1467,8 +1451,12 @@ vErrors.push(err119);
 }
 errors++;
 }
-if(!((data39 === "simplest-sufficient") || (data39 === "highest-rejection"))){
-const err120 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data39};
+}
+if(data.topologies !== undefined){
+let data39 = data.topologies;
+if(Array.isArray(data39)){
+if(data39.length < 1){
+const err120 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data39};
 if(vErrors === null){
 vErrors = [err120];
 }
@@ -1477,13 +1465,11 @@ vErrors.push(err120);
 }
 errors++;
 }
-}
-if(data.hazards !== undefined){
-let data40 = data.hazards;
-if(data40 && typeof data40 == "object" && !Array.isArray(data40)){
-for(const key9 in data40){
-if(!((key9 === "patientConnected") || (key9 === "mainsReferenced"))){
-const err121 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data40};
+const len0 = data39.length;
+for(let i0=0; i0<len0; i0++){
+let data40 = data39[i0];
+if(typeof data40 !== "string"){
+const err121 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data40};
 if(vErrors === null){
 vErrors = [err121];
 }
@@ -1492,11 +1478,8 @@ vErrors.push(err121);
 }
 errors++;
 }
-}
-if(data40.patientConnected !== undefined){
-let data41 = data40.patientConnected;
-if(typeof data41 !== "boolean"){
-const err122 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data41};
+if(!((((((data40 === "resistor") || (data40 === "simple-mirror")) || (data40 === "degenerated-mirror")) || (data40 === "widlar")) || (data40 === "wilson")) || (data40 === "cascode"))){
+const err122 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data40};
 if(vErrors === null){
 vErrors = [err122];
 }
@@ -1506,10 +1489,18 @@ vErrors.push(err122);
 errors++;
 }
 }
-if(data40.mainsReferenced !== undefined){
-let data42 = data40.mainsReferenced;
-if(typeof data42 !== "boolean"){
-const err123 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data42};
+let i1 = data39.length;
+let j0;
+if(i1 > 1){
+const indices0 = {};
+for(;i1--;){
+let item0 = data39[i1];
+if(typeof item0 !== "string"){
+continue;
+}
+if(typeof indices0[item0] == "number"){
+j0 = indices0[item0];
+const err123 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data39};
 if(vErrors === null){
 vErrors = [err123];
 }
@@ -1517,11 +1508,14 @@ else {
 vErrors.push(err123);
 }
 errors++;
+break;
+}
+indices0[item0] = i1;
 }
 }
 }
 else {
-const err124 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data40};
+const err124 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data39};
 if(vErrors === null){
 vErrors = [err124];
 }
@@ -1531,12 +1525,10 @@ vErrors.push(err124);
 errors++;
 }
 }
-if(data.monteCarlo !== undefined){
-let data43 = data.monteCarlo;
-if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
-for(const key10 in data43){
-if(!((key10 === "samples") || (key10 === "seed"))){
-const err125 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data43};
+if(data.policy !== undefined){
+let data41 = data.policy;
+if(typeof data41 !== "string"){
+const err125 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data41};
 if(vErrors === null){
 vErrors = [err125];
 }
@@ -1545,11 +1537,8 @@ vErrors.push(err125);
 }
 errors++;
 }
-}
-if(data43.samples !== undefined){
-let data44 = data43.samples;
-if(!((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44)))){
-const err126 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
+if(!((data41 === "simplest-sufficient") || (data41 === "highest-rejection"))){
+const err126 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data41};
 if(vErrors === null){
 vErrors = [err126];
 }
@@ -1558,9 +1547,13 @@ vErrors.push(err126);
 }
 errors++;
 }
-if(typeof data44 == "number"){
-if(data44 > 100000 || isNaN(data44)){
-const err127 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
+}
+if(data.hazards !== undefined){
+let data42 = data.hazards;
+if(data42 && typeof data42 == "object" && !Array.isArray(data42)){
+for(const key9 in data42){
+if(!((key9 === "patientConnected") || (key9 === "mainsReferenced"))){
+const err127 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data42};
 if(vErrors === null){
 vErrors = [err127];
 }
@@ -1569,8 +1562,11 @@ vErrors.push(err127);
 }
 errors++;
 }
-if(data44 < 100 || isNaN(data44)){
-const err128 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data44};
+}
+if(data42.patientConnected !== undefined){
+let data43 = data42.patientConnected;
+if(typeof data43 !== "boolean"){
+const err128 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data43};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -1580,11 +1576,10 @@ vErrors.push(err128);
 errors++;
 }
 }
-}
-if(data43.seed !== undefined){
-let data45 = data43.seed;
-if(!((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45)))){
-const err129 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
+if(data42.mainsReferenced !== undefined){
+let data44 = data42.mainsReferenced;
+if(typeof data44 !== "boolean"){
+const err129 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data44};
 if(vErrors === null){
 vErrors = [err129];
 }
@@ -1593,9 +1588,10 @@ vErrors.push(err129);
 }
 errors++;
 }
-if(typeof data45 == "number"){
-if(data45 > 4294967295 || isNaN(data45)){
-const err130 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
+}
+}
+else {
+const err130 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data42};
 if(vErrors === null){
 vErrors = [err130];
 }
@@ -1604,8 +1600,13 @@ vErrors.push(err130);
 }
 errors++;
 }
-if(data45 < 0 || isNaN(data45)){
-const err131 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data45};
+}
+if(data.monteCarlo !== undefined){
+let data45 = data.monteCarlo;
+if(data45 && typeof data45 == "object" && !Array.isArray(data45)){
+for(const key10 in data45){
+if(!((key10 === "samples") || (key10 === "seed"))){
+const err131 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data45};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -1615,10 +1616,10 @@ vErrors.push(err131);
 errors++;
 }
 }
-}
-}
-else {
-const err132 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data43};
+if(data45.samples !== undefined){
+let data46 = data45.samples;
+if(!((typeof data46 == "number") && (!(data46 % 1) && !isNaN(data46)))){
+const err132 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data46};
 if(vErrors === null){
 vErrors = [err132];
 }
@@ -1627,10 +1628,9 @@ vErrors.push(err132);
 }
 errors++;
 }
-}
-}
-else {
-const err133 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(typeof data46 == "number"){
+if(data46 > 100000 || isNaN(data46)){
+const err133 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data46};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -1639,12 +1639,82 @@ vErrors.push(err133);
 }
 errors++;
 }
+if(data46 < 100 || isNaN(data46)){
+const err134 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data46};
+if(vErrors === null){
+vErrors = [err134];
+}
+else {
+vErrors.push(err134);
+}
+errors++;
+}
+}
+}
+if(data45.seed !== undefined){
+let data47 = data45.seed;
+if(!((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47)))){
+const err135 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data47};
+if(vErrors === null){
+vErrors = [err135];
+}
+else {
+vErrors.push(err135);
+}
+errors++;
+}
+if(typeof data47 == "number"){
+if(data47 > 4294967295 || isNaN(data47)){
+const err136 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data47};
+if(vErrors === null){
+vErrors = [err136];
+}
+else {
+vErrors.push(err136);
+}
+errors++;
+}
+if(data47 < 0 || isNaN(data47)){
+const err137 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data47};
+if(vErrors === null){
+vErrors = [err137];
+}
+else {
+vErrors.push(err137);
+}
+errors++;
+}
+}
+}
+}
+else {
+const err138 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data45};
+if(vErrors === null){
+vErrors = [err138];
+}
+else {
+vErrors.push(err138);
+}
+errors++;
+}
+}
+}
+else {
+const err139 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(vErrors === null){
+vErrors = [err139];
+}
+else {
+vErrors.push(err139);
+}
+errors++;
+}
 validate10.errors = vErrors;
 return errors === 0;
 }
 
 /** Hash (rjsf's hashForSchema) of the schema these validators were compiled from. */
-export const SPEC_SCHEMA_HASH = "116241f5";
+export const SPEC_SCHEMA_HASH = "-1cc54c06";
 
 /** rjsf precompiled validator functions, by schema $id. */
 export const SPEC_VALIDATORS = {
