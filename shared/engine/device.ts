@@ -41,8 +41,8 @@ export interface DeviceModel {
   vceSatV: number;
   /** Critical junction voltage for SPICE-style step limiting, V. */
   criticalVoltageV: number;
-  /** Currents and derivatives for junction voltages vbe, vbc and an area factor. */
-  evaluate(vbeV: number, vbcV: number, area: number): BjtEval;
+  /** Currents and derivatives for junction voltages vbe, vbc, an area factor and a factor on BF (default 1). */
+  evaluate(vbeV: number, vbcV: number, area: number, betaFactor?: number): BjtEval;
 }
 
 /** IS at 27 °C: the given one, or the one that puts VBE at vbeOnV for 1 mA. */
@@ -84,8 +84,9 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
     vceSatV: device.vceSatV ?? DEFAULT_VCE_SAT_V,
     // vcrit = VT·ln(VT/(√2·IS)) as in SPICE's junction limiting [SPICE]
     criticalVoltageV: vtV * Math.log(vtV / (Math.SQRT2 * isA)),
-    evaluate(vbeV, vbcV, area) {
+    evaluate(vbeV, vbcV, area, betaFactor = 1) {
       const scaledIsA = isA * area;
+      const transistorBf = bf * betaFactor;
       const expBe = Math.exp(vbeV / vtV);
       const expBc = Math.exp(vbcV / vtV);
       const forwardA = scaledIsA * (expBe - 1);
@@ -96,10 +97,10 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
       const earlyFactor = 1 - vbcV * inverseVafPerV;
       return {
         icA: (forwardA - reverseA) * earlyFactor - reverseA / br - gminS * vbcV,
-        ibA: forwardA / bf + gminS * vbeV + reverseA / br + gminS * vbcV,
+        ibA: forwardA / transistorBf + gminS * vbeV + reverseA / br + gminS * vbcV,
         dIcDVbeS: dForwardS * earlyFactor,
         dIcDVbcS: -dReverseS * earlyFactor - (forwardA - reverseA) * inverseVafPerV - dReverseS / br - gminS,
-        dIbDVbeS: dForwardS / bf + gminS,
+        dIbDVbeS: dForwardS / transistorBf + gminS,
         dIbDVbcS: dReverseS / br + gminS,
       };
     },

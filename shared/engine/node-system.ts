@@ -24,7 +24,22 @@ export interface IndexedTransistor {
   b: NodeRef;
   e: NodeRef;
   area: number;
+  /** BF over the device's BF (1 but for a pair with beta mismatch). */
+  betaFactor: number;
   tail: boolean;
+  /** Internal base, collector and emitter (behind RB, RC, RE) when the model has them; else the terminals. */
+  bi?: NodeRef;
+  ci?: NodeRef;
+  ei?: NodeRef;
+  /** Substrate terminal (the negative rail) when indexed. */
+  s?: NodeRef;
+}
+
+export interface IndexedCapacitor {
+  name: string;
+  a: NodeRef;
+  b: NodeRef;
+  capacitanceF: number;
 }
 
 export interface IndexedCircuit {
@@ -33,6 +48,8 @@ export interface IndexedCircuit {
   fixedV: number[];
   resistors: IndexedResistor[];
   transistors: IndexedTransistor[];
+  /** Capacitors of the circuit (tail, load): open at DC, part of the small-signal solve. */
+  capacitors: IndexedCapacitor[];
   nodeRef(name: string): NodeRef;
 }
 
@@ -54,14 +71,22 @@ export function indexCircuit(circuit: StageCircuit): IndexedCircuit {
   };
   const resistors: IndexedResistor[] = [];
   const transistors: IndexedTransistor[] = [];
+  const capacitors: IndexedCapacitor[] = [];
   for (const el of circuit.elements) {
     if (el.kind === 'resistor') {
       resistors.push({ name: el.name, a: ref(el.nodes[0]), b: ref(el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
     } else if (el.kind === 'npn') {
-      transistors.push({ name: el.name, c: ref(el.collector), b: ref(el.base), e: ref(el.emitter), area: el.area, tail: el.part === 'tail' });
+      transistors.push({
+        name: el.name,
+        c: ref(el.collector),
+        b: ref(el.base),
+        e: ref(el.emitter),
+        area: el.area,
+        betaFactor: el.betaFactor ?? 1,
+        tail: el.part === 'tail',
+      });
     } else {
-      ref(el.nodes[0]);
-      ref(el.nodes[1]);
+      capacitors.push({ name: el.name, a: ref(el.nodes[0]), b: ref(el.nodes[1]), capacitanceF: el.capacitanceF });
     }
   }
   return {
@@ -70,6 +95,7 @@ export function indexCircuit(circuit: StageCircuit): IndexedCircuit {
     fixedV,
     resistors,
     transistors,
+    capacitors,
     nodeRef(name) {
       const r = refs.get(name);
       if (r === undefined) throw new Error(`no node ${name}`);
@@ -120,6 +146,14 @@ function addCoefficient(stamp: NodeStamp, row: NodeRef, col: NodeRef, g: number)
   }
 }
 
+/** Adds a controlled current g·(v(plus) − v(minus)) leaving node `from` and entering node `to`. */
+export function stampControlled(stamp: NodeStamp, from: NodeRef, to: NodeRef, plus: NodeRef, minus: NodeRef, g: number): void {
+  addCoefficient(stamp, from, plus, g);
+  addCoefficient(stamp, from, minus, -g);
+  addCoefficient(stamp, to, plus, -g);
+  addCoefficient(stamp, to, minus, g);
+}
+
 /** Stamps a conductance between two nodes. */
 export function stampConductance(stamp: NodeStamp, a: NodeRef, b: NodeRef, g: number): void {
   addCoefficient(stamp, a, a, g);
@@ -166,6 +200,6 @@ export function junctionVoltages(ic: IndexedCircuit, v: number[], q: IndexedTran
 export function evaluateTransistors(ic: IndexedCircuit, model: DeviceModel, v: number[]): BjtEval[] {
   return ic.transistors.map((q) => {
     const { vbeV, vbcV } = junctionVoltages(ic, v, q);
-    return model.evaluate(vbeV, vbcV, q.area);
+    return model.evaluate(vbeV, vbcV, q.area, q.betaFactor);
   });
 }

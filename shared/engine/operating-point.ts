@@ -79,7 +79,7 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[]): {
       if (vbeV !== j.vbeV || vbcV !== j.vbcV) limited = true;
       vbeOld[i] = vbeV;
       vbcOld[i] = vbcV;
-      stampTransistor(stamp, q, model.evaluate(vbeV, vbcV, q.area), vbeV, vbcV);
+      stampTransistor(stamp, q, model.evaluate(vbeV, vbcV, q.area, q.betaFactor), vbeV, vbcV);
     }
     let next: number[];
     try {
