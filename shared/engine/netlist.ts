@@ -6,15 +6,17 @@
  * edit a netlist's text with string replaces (".options" contains ".op").
  */
 import type { Design } from './types';
-import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
+import { GROUND, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
 import type { CircuitElement } from './circuit';
-import { earlyVoltageOrInfinityV, nominalSaturationCurrentA } from './device';
+import { BJT_PARAMETERS, BJT_PARAMETER_NAMES, cardOf } from './bjt-parameters';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
 import { formatSpiceNumber as spiceNumber, parseSpiceNumber } from '../units/spice-number';
 
 /** The `.model` name every transistor of the stage uses. */
 export const SPICE_MODEL_NAME = 'QNPN';
+/** The `.model` name of a transistor whose BF differs (the pair's beta mismatch): QNPN_B<k> in order of appearance. */
+const BETA_MODEL_PREFIX = `${SPICE_MODEL_NAME}_B`;
 /** Supply sources: `i(vp)`, `i(vn)` in ngspice's output. */
 export const SUPPLY_SOURCES = { positive: 'VP', negative: 'VN' } as const;
 /** Input sources on in1 and in2: `i(vin1)`, `i(vin2)`. */
@@ -62,7 +64,7 @@ function elementName(letter: string, name: string): string {
   return name.toUpperCase().startsWith(letter) ? name : `${letter}${name}`;
 }
 
-function elementLine(element: CircuitElement): string {
+function elementLine(element: CircuitElement, modelNames: ReadonlyMap<number, string>, substrate: string): string {
   switch (element.kind) {
     case 'resistor':
       return `${elementName('R', element.name)} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.resistanceOhm)}`;
@@ -70,17 +72,39 @@ function elementLine(element: CircuitElement): string {
       return `${elementName('C', element.name)} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.capacitanceF)}`;
     case 'npn': {
       const area = element.area !== 1 ? ` area=${spiceNumber(element.area)}` : '';
-      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${SPICE_MODEL_NAME}${area}`;
+      const model = modelNames.get(element.betaFactor ?? 1) ?? SPICE_MODEL_NAME;
+      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${substrate} ${model}${area}`;
     }
   }
 }
 
-/** `.model` card: IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE]. */
-function modelCard(design: Design): string {
-  const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(design.device.beta)}`];
-  const vafV = earlyVoltageOrInfinityV(design.device);
-  if (Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
-  return `.model ${SPICE_MODEL_NAME} NPN (${parameters.join(' ')})`;
+/**
+ * A `.model` card: every parameter the device's card gives (IS at TNOM, the effective one, BF,
+ * VAF, and the full model's others), BF times `betaFactor`; a parameter SPICE reads 0 as
+ * infinite is left out when infinite [SPICE].
+ */
+function modelCard(design: Design, name: string, betaFactor: number): string {
+  const card = cardOf(design.device);
+  const parameters: string[] = [];
+  for (const parameter of BJT_PARAMETER_NAMES) {
+    let value = card[parameter];
+    if (value === undefined) continue;
+    if (BJT_PARAMETERS[parameter].zeroMeansInfinite && (value === 0 || !Number.isFinite(value))) continue;
+    if (parameter === 'BF') value *= betaFactor;
+    parameters.push(`${parameter}=${spiceNumber(value)}`);
+  }
+  return `.model ${name} NPN (${parameters.join(' ')})`;
+}
+
+/** The model name of each BF factor in the circuit (1 is the stage's model). */
+function betaModelNames(elements: readonly CircuitElement[]): Map<number, string> {
+  const names = new Map<number, string>([[1, SPICE_MODEL_NAME]]);
+  for (const element of elements) {
+    if (element.kind === 'npn' && element.betaFactor !== undefined && !names.has(element.betaFactor)) {
+      names.set(element.betaFactor, `${BETA_MODEL_PREFIX}${names.size}`);
+    }
+  }
+  return names;
 }
 
 function dcSource(name: string, node: string, dcV: number, ac = ''): string {
@@ -107,8 +131,8 @@ function analysisCard(options: NetlistOptions): string {
 }
 
 /** Input-drive lines for the analysis: in1/in2 at the common-mode DC voltage, or the tail test source. */
-function inputDriveLines(options: NetlistOptions, commonModeV: number): string[] {
-  const [in1, in2] = INPUT_NODES;
+function inputDriveLines(options: NetlistOptions, commonModeV: number, driveNodes: readonly [string, string]): string[] {
+  const [in1, in2] = driveNodes;
   const [vin1, vin2] = INPUT_SOURCES;
   switch (options.analysis) {
     case 'op':
@@ -148,8 +172,10 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
   const circuit = stageCircuit(design);
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const includePair = options.analysis !== 'ac-tail';
-  const pairLines = circuit.elements.filter((element) => element.part === 'pair').map(elementLine);
-  const tailLines = circuit.elements.filter((element) => element.part === 'tail').map(elementLine);
+  const modelNames = betaModelNames(circuit.elements);
+  const line = (element: CircuitElement): string => elementLine(element, modelNames, RAIL_NODES.negative);
+  const pairLines = circuit.elements.filter((element) => element.part === 'pair').map(line);
+  const tailLines = circuit.elements.filter((element) => element.part === 'tail').map(line);
   const lines = [
     `Longtail differential pair, ${design.tail.topology} tail (${options.analysis})`,
     ...comments.flatMap((text) => commentLines(text, COMMENT_PREFIX)),
@@ -157,13 +183,13 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
     dcSource(SUPPLY_SOURCES.positive, RAIL_NODES.positive, circuit.fixedNodesV[RAIL_NODES.positive]),
     dcSource(SUPPLY_SOURCES.negative, RAIL_NODES.negative, circuit.fixedNodesV[RAIL_NODES.negative]),
     '* --- input drive ---',
-    ...inputDriveLines(options, circuit.fixedNodesV[INPUT_NODES[0]]),
+    ...inputDriveLines(options, circuit.fixedNodesV[circuit.driveNodes[0]], circuit.driveNodes),
     '* --- pair and loads ---',
     ...(includePair ? pairLines : ['* (left out: the tail element is analysed alone)']),
     `* --- tail element (${design.tail.topology}) ---`,
     ...tailLines,
     '* --- device model and conditions ---',
-    modelCard(design),
+    ...[...modelNames].map(([factor, name]) => modelCard(design, name, factor)),
     optionsCard(temperatureC, options),
     '* --- analysis ---',
     analysisCard(options),
@@ -177,7 +203,7 @@ export type ParsedElement =
   | { kind: 'R'; name: string; nodes: [string, string]; valueOhm: number }
   | { kind: 'C'; name: string; nodes: [string, string]; valueF: number }
   | { kind: 'V'; name: string; nodes: [string, string]; dcV: number; acMagnitude: number; acPhaseDeg: number }
-  | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; model: string; area: number };
+  | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; substrate: string | null; model: string; area: number };
 
 /** Logical lines: comments dropped (`*` lines, `;` inline), `+` continuations joined, title skipped. */
 function logicalLines(text: string): string[] {
@@ -214,20 +240,25 @@ function parseVoltageSource(name: string, tokens: string[]): ParsedElement {
 }
 
 function parseTransistor(name: string, tokens: string[]): ParsedElement {
-  const [, collector, base, emitter, model, ...rest] = tokens;
+  // A fifth node before the model name is the substrate: `Q c b e s model`, else `Q c b e model`.
+  const fourTerminal = tokens.length > 5 && !NUMBER_START.test(tokens[5]) && !/=/.test(tokens[5]);
+  const [, collector, base, emitter] = tokens;
+  const substrate = fourTerminal ? tokens[4] : null;
+  const model = fourTerminal ? tokens[5] : tokens[4];
+  const rest = tokens.slice(fourTerminal ? 6 : 5);
   let area = 1;
   for (const token of rest) {
     const keyed = /^area=(.+)$/i.exec(token);
     if (keyed) area = parseSpiceNumber(keyed[1]);
     else if (NUMBER_START.test(token)) area = parseSpiceNumber(token);
   }
-  return { kind: 'Q', name, collector, base, emitter, model, area };
+  return { kind: 'Q', name, collector, base, emitter, substrate, model, area };
 }
 
 /**
  * Reads the R, C, V and Q element lines of a netlist (other lines and dot cards are skipped).
  * Handles comments, `;` inline comments, `+` continuations and scale suffixes. A Q line is read
- * as `Qname collector base emitter model [area | area=value]` (no substrate node).
+ * as `Qname collector base emitter [substrate] model [area | area=value]`.
  */
 export function parseNetlistElements(text: string): ParsedElement[] {
   const elements: ParsedElement[] = [];
