@@ -9,7 +9,7 @@
  * [SPICE] ngspice bjtacld.c. At f = 0, or when nothing stores charge, the real low-frequency
  * responses are the answer.
  */
-import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE } from './circuit';
+import { COLLECTOR_NODES, TAIL_NODE } from './circuit';
 import { solveComplex, type ComplexVector } from './complex-solve';
 import { chargeParameters, transistorCapacitances, transportBias, transportParameters } from './junction-charges';
 import type { BjtParameters } from './bjt-parameters';
@@ -21,7 +21,6 @@ import {
   stampControlled,
   stampTransistor,
   type IndexedCircuit,
-  type NodeRef,
   type NodeStamp,
 } from './node-system';
 import type { OperatingPoint } from './operating-point';
@@ -127,13 +126,10 @@ function capacitanceStamp(op: OperatingPoint, parameters: BjtParameters | null, 
   const charges = parameters ? chargeParameters(parameters, temperatureC) : null;
   if (parameters && charges && !charges.none) {
     const transport = transportParameters(parameters, temperatureC);
-    const substrateDefault = ic.nodeRef(RAIL_NODES.negative);
     const v = op.voltagesV;
     for (const q of ic.transistors) {
-      const b: NodeRef = q.bi ?? q.b;
-      const c: NodeRef = q.ci ?? q.c;
-      const e: NodeRef = q.ei ?? q.e;
-      const s: NodeRef = q.s ?? substrateDefault;
+      // the junctions sit on the internal nodes (behind RB, RC, RE), the substrate at the negative rail
+      const { bi: b, ci: c, ei: e, s } = q;
       const vb = nodeVoltage(ic, v, b);
       const vc = nodeVoltage(ic, v, c);
       const bias = transportBias(transport, vb - nodeVoltage(ic, v, e), vb - vc, nodeVoltage(ic, v, s) - vc, q.area);
