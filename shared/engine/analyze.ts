@@ -10,8 +10,9 @@ import { NOMINAL_TEMPERATURE_C } from './constants';
 import { nodeVoltage, type IndexedCircuit } from './node-system';
 import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { withHardFields } from './convergence-hints';
-import { magnitude, smallSignalStage, transferAt, type Complex, type SmallSignalStage } from './small-signal';
-import type { AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
+import { magnitude, responsesAt, smallSignalStage, transferOf, type Complex, type SmallSignalStage, type StageResponses } from './small-signal';
+import { BJT_PARAMETERS, cardOf, resolvedParameters } from './bjt-parameters';
+import type { AcEntry, AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
 
 /** Collector current below which a transistor counts as cut off, A (well under any useful bias). */
@@ -57,9 +58,9 @@ function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: bo
   ic.transistors.forEach((q, i) => {
     if (onlyTail && !q.tail) return;
     const ev = op.transistors[i];
-    if (q.c === node) totalA += ev.icA;
-    if (q.b === node) totalA += ev.ibA;
-    if (q.e === node) totalA -= ev.icA + ev.ibA;
+    if (q.ci === node) totalA += ev.icA;
+    if (q.bi === node) totalA += ev.ibA;
+    if (q.ei === node) totalA -= ev.icA + ev.ibA;
   });
   return totalA;
 }
@@ -67,9 +68,10 @@ function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: bo
 function transistorOperatingPoints(ic: IndexedCircuit, op: OperatingPoint, vceSatV: number): TransistorOperatingPoint[] {
   return ic.transistors.map((q, i) => {
     const v = op.voltagesV;
-    const vc = nodeVoltage(ic, v, q.c);
-    const vb = nodeVoltage(ic, v, q.b);
-    const ve = nodeVoltage(ic, v, q.e);
+    // At the junctions (internal nodes), as SPICE reports vbe, vbc and vce
+    const vc = nodeVoltage(ic, v, q.ci);
+    const vb = nodeVoltage(ic, v, q.bi);
+    const ve = nodeVoltage(ic, v, q.ei);
     const ev = op.transistors[i];
     const vceV = vc - ve;
     let region: Region = 'forward-active';
@@ -79,45 +81,126 @@ function transistorOperatingPoints(ic: IndexedCircuit, op: OperatingPoint, vceSa
   });
 }
 
-/** The four low-frequency transfers of the contract at a frequency, with the tail capacitance. */
-export function transfersAt(solution: Pick<StageSolution, 'stage' | 'design'>, frequencyHz: number): StageTransfers {
-  const { stage, design } = solution;
-  const omegaCtS = 2 * Math.PI * frequencyHz * (design.tailCapacitanceF ?? 0);
+/** The four transfers of a stage's responses at one frequency. */
+function transfersOf(stage: SmallSignalStage, responses: StageResponses): StageTransfers {
   const { collector1, betweenCollectors } = stage.outputs;
   return {
-    differentialGain: transferAt(stage, stage.differential, betweenCollectors, omegaCtS),
-    singleEndedGain: transferAt(stage, stage.differential, collector1, omegaCtS),
-    commonModeGain: transferAt(stage, stage.commonMode, collector1, omegaCtS),
-    differentialCommonModeGain: transferAt(stage, stage.commonMode, betweenCollectors, omegaCtS),
+    differentialGain: transferOf(responses.differential, betweenCollectors),
+    singleEndedGain: transferOf(responses.differential, collector1),
+    commonModeGain: transferOf(responses.commonMode, collector1),
+    differentialCommonModeGain: transferOf(responses.commonMode, betweenCollectors),
   };
 }
 
+/**
+ * The contract's four transfers at a frequency (Hz), from the whole circuit: the devices'
+ * junction and diffusion capacitances, the tail wiring capacitance and the loads.
+ */
+export function transfersAt(solution: Pick<StageSolution, 'stage'>, frequencyHz: number): StageTransfers {
+  return transfersOf(solution.stage, responsesAt(solution.stage, frequencyHz));
+}
+
 /** Single-ended CMRR in dB at a frequency: 20·log10|Ase/Acm|. */
-export function singleEndedCmrrDbAt(solution: Pick<StageSolution, 'stage' | 'design'>, frequencyHz: number): number {
+export function singleEndedCmrrDbAt(solution: Pick<StageSolution, 'stage'>, frequencyHz: number): number {
   const t = transfersAt(solution, frequencyHz);
   return 20 * Math.log10(magnitude(t.singleEndedGain) / magnitude(t.commonModeGain));
 }
 
+/** "3 dB": the half-power drop, 10·log10(2) dB (|H|² halved). */
+const HALF_POWER_DB = 10 * Math.log10(2);
+/** Highest frequency the corner searches look at, Hz: above it a corner is reported as null. */
+export const HIGHEST_CORNER_HZ = 1e10;
+/** Lowest frequency the corner searches start from, Hz (a cascode's Rout with 1 nF can put the rejection corner below 1 Hz). */
+const LOWEST_CORNER_HZ = 1e-4;
+/** Search grid density before the corner is refined, points per decade. */
+const CORNER_GRID_PER_DECADE = 1;
+/** Relative accuracy of a corner frequency. */
+const CORNER_RELATIVE_TOLERANCE = 1e-6;
+/** Refinement steps at most (regula falsi in log-frequency, Illinois variant). */
+const CORNER_MAX_STEPS = 60;
+
+/** 20·log10 of a figure read from the responses at a frequency. */
+type FigureDb = (transfers: StageTransfers) => number;
+
+const DIFFERENTIAL_GAIN_DB: FigureDb = (t) => 20 * Math.log10(magnitude(t.differentialGain));
+const SINGLE_ENDED_CMRR_DB: FigureDb = (t) => 20 * Math.log10(magnitude(t.singleEndedGain) / magnitude(t.commonModeGain));
+
 /**
- * Frequency where the single-ended CMRR has fallen 3 dB because of Ct, in closed form. Both
- * transfers share the denominator 1 + jωCt·u (u = z[t]), so
- * Ase/Acm = (h0 + jw·A)/(g0 + jw·B) with w = ωCt, A = h0·u − x_d[t]·z[c1], B = g0·u − x_c[t]·z[c1];
- * |Ase/Acm|² = |h0/g0|²/2 gives w² = g0²·h0²/(h0²·B² − 2·g0²·A²). Null when Ct = 0 or never reached.
+ * The lowest frequency where each figure has fallen 3 dB below its low-frequency value: a
+ * logarithmic grid up to HIGHEST_CORNER_HZ finds the first crossing (one solve per grid point
+ * serves every figure), then regula falsi in log-frequency refines it. Null where the figure
+ * never falls 3 dB there, and for every figure when nothing in the circuit stores charge.
  */
-function cmrrCornerHz(stage: SmallSignalStage, tailCapacitanceF: number): number | null {
-  if (!(tailCapacitanceF > 0)) return null;
-  const c1 = stage.index(COLLECTOR_NODES[0]);
-  const t = stage.tailIndex;
-  const u = stage.tailInjection[t];
-  const zOut = stage.tailInjection[c1];
-  const h0 = stage.differential[c1];
-  const g0 = stage.commonMode[c1];
-  const a = h0 * u - stage.differential[t] * zOut;
-  const b = g0 * u - stage.commonMode[t] * zOut;
-  const denominator = h0 * h0 * b * b - 2 * g0 * g0 * a * a;
-  if (!(denominator > 0)) return null;
-  const omegaCt = Math.sqrt((g0 * g0 * h0 * h0) / denominator);
-  return omegaCt / (2 * Math.PI * tailCapacitanceF);
+function cornersHz(stage: SmallSignalStage, figures: readonly FigureDb[]): (number | null)[] {
+  if (!stage.reactive) return figures.map(() => null);
+  const low = transfersOf(stage, responsesAt(stage, 0));
+  const targets = figures.map((figure) => figure(low) - HALF_POWER_DB);
+  const excess = (figure: FigureDb, k: number, logF: number): number => figure(transfersAt({ stage }, 10 ** logF)) - targets[k];
+  const found: (number | null)[] = figures.map(() => null);
+  const previous: { logF: number; values: number[] } = { logF: -Infinity, values: figures.map(() => 3) };
+  const steps = Math.round(Math.log10(HIGHEST_CORNER_HZ / LOWEST_CORNER_HZ) * CORNER_GRID_PER_DECADE);
+  for (let i = 0; i <= steps && found.some((f, k) => f === null && previous.values[k] > 0); i += 1) {
+    const logF = Math.log10(LOWEST_CORNER_HZ) + i / CORNER_GRID_PER_DECADE;
+    const t = transfersAt({ stage }, 10 ** logF);
+    const values = figures.map((figure, k) => figure(t) - targets[k]);
+    values.forEach((value, k) => {
+      if (found[k] !== null || previous.values[k] <= 0 || value > 0) return;
+      if (!Number.isFinite(previous.logF)) {
+        found[k] = 10 ** logF;
+        return;
+      }
+      found[k] = 10 ** refineCrossing((x) => excess(figures[k], k, x), previous.logF, previous.values[k], logF, value);
+    });
+    previous.logF = logF;
+    previous.values = values.map((value, k) => (found[k] !== null ? -1 : value));
+  }
+  return found;
+}
+
+/** The crossing of a decreasing function between a (value > 0) and b (value ≤ 0), Illinois regula falsi. */
+function refineCrossing(f: (x: number) => number, a: number, fa: number, b: number, fb: number): number {
+  let side = 0;
+  for (let step = 0; step < CORNER_MAX_STEPS && b - a > CORNER_RELATIVE_TOLERANCE / Math.LN10; step += 1) {
+    const x = (a * fb - b * fa) / (fb - fa);
+    const fx = f(x);
+    if (fx > 0) {
+      a = x;
+      fa = fx;
+      if (side === -1) fb /= 2;
+      side = -1;
+    } else {
+      b = x;
+      fb = fx;
+      if (side === 1) fa /= 2;
+      side = 1;
+    }
+    if (fx === 0) return x;
+  }
+  return (a * fb - b * fa) / (fb - fa);
+}
+
+/** The `ac` entries at the requested frequencies. */
+function acEntries(stage: SmallSignalStage, frequenciesHz: readonly number[]): AcEntry[] {
+  return frequenciesHz.map((frequencyHz) => {
+    const t = transfersAt({ stage }, frequencyHz);
+    const differentialGain = magnitude(t.differentialGain);
+    const singleEndedGain = magnitude(t.singleEndedGain);
+    const commonModeGain = magnitude(t.commonModeGain);
+    const differentialCommonModeGain = magnitude(t.differentialCommonModeGain);
+    const matched = differentialCommonModeGain <= MATCHED_PAIR_RATIO * commonModeGain;
+    return {
+      frequencyHz,
+      differentialGain,
+      singleEndedGain,
+      commonModeGain,
+      differentialCommonModeGain: matched ? 0 : differentialCommonModeGain,
+      cmrrDb: {
+        singleEnded: 20 * Math.log10(singleEndedGain / commonModeGain),
+        differential: matched ? null : 20 * Math.log10(differentialGain / differentialCommonModeGain),
+      },
+      inputNoiseVPerRtHz: null,
+    };
+  });
 }
 
 /** A transistor out of the forward-active region, or a reference branch carrying no current (worded at the edge). */
@@ -154,9 +237,22 @@ function vbeGuessV(design: Design, model: DeviceModel): number {
 
 /** The device of a transistor whose BF or VAF is scaled (a mismatched pair transistor): BF and VAF times their scales. */
 export function scaledDevice(device: Design['device'], betaScale = 1, earlyVoltageScale = 1): Design['device'] {
-  const scaled = { ...device, beta: device.beta * betaScale };
   // VAF = 0 reads as infinite (no Early effect): a mismatch of it changes nothing
-  if (device.earlyVoltageV !== undefined && device.earlyVoltageV > 0) scaled.earlyVoltageV = device.earlyVoltageV * earlyVoltageScale;
+  const scaledVaf = (vafV: number | undefined) => (vafV !== undefined && vafV > 0 && Number.isFinite(vafV) ? vafV * earlyVoltageScale : vafV);
+  if (device.model) {
+    const model = { ...device.model };
+    const bf = cardOf(device).BF;
+    if (bf !== undefined) model.BF = bf * betaScale;
+    else if (betaScale !== 1) model.BF = BJT_PARAMETERS.BF.default * betaScale;
+    if (model.VAF !== undefined) model.VAF = scaledVaf(model.VAF);
+    const scaled: Design['device'] = { ...device, model };
+    if (device.beta !== undefined) scaled.beta = model.BF ?? device.beta;
+    if (device.earlyVoltageV !== undefined) scaled.earlyVoltageV = model.VAF ?? device.earlyVoltageV;
+    return scaled;
+  }
+  const scaled = { ...device, beta: device.beta! * betaScale };
+  const vafV = scaledVaf(device.earlyVoltageV);
+  if (vafV !== undefined) scaled.earlyVoltageV = vafV;
   return scaled;
 }
 
@@ -194,7 +290,8 @@ export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedC
   } catch (error) {
     throw error instanceof ConvergenceError ? withHardFields(error, design) : error;
   }
-  return { design, model, op, stage: smallSignalStage(op) };
+  const parameters = resolvedParameters(cardOf(design.device));
+  return { design, model, op, stage: smallSignalStage(op, circuit.driveNodes, parameters, temperatureC) };
 }
 
 /** The contract's figures of a solved circuit, and its operating-point problems as figures. */
@@ -210,7 +307,8 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): { result: An
   const referenceCurrentA = currentIntoElementsA(op, RAIL_NODES.positive, true);
   const positiveA = currentIntoElementsA(op, RAIL_NODES.positive, false);
   const negativeA = currentIntoElementsA(op, RAIL_NODES.negative, false);
-  const low = transfersAt({ stage, design }, 0);
+  const low = transfersAt({ stage }, 0);
+  const [differentialBandwidthHz, cornerHz] = cornersHz(stage, [DIFFERENTIAL_GAIN_DB, SINGLE_ENDED_CMRR_DB]);
   const cmrrSingleDb = 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re));
   const matched = Math.abs(low.differentialCommonModeGain.re) <= MATCHED_PAIR_RATIO * Math.abs(low.commonModeGain.re);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);
@@ -231,7 +329,9 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): { result: An
       singleEnded: cmrrSingleDb,
       differential: matched ? null : 20 * Math.log10(Math.abs(low.differentialGain.re / low.differentialCommonModeGain.re)),
     },
-    cmrrCornerHz: cmrrCornerHz(stage, design.tailCapacitanceF ?? 0),
+    cmrrCornerHz: cornerHz,
+    differentialBandwidthHz,
+    ac: acEntries(stage, design.frequenciesHz ?? []),
     // Power delivered by the rails: Σ V·I, I the current each rail sends into the circuit.
     powerW: design.supply.positiveV * positiveA + design.supply.negativeV * negativeA,
     warnings: [...problemTexts, ...inputWarnings(model.earlyVoltageV).map(inputWarningText)],

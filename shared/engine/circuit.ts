@@ -47,6 +47,8 @@ export const GROUND = '0';
 /** Node names with a fixed DC voltage: rails and inputs. */
 export const RAIL_NODES = { positive: 'vp', negative: 'vn' } as const;
 export const INPUT_NODES = ['in1', 'in2'] as const;
+/** Where the drive is applied when the design has a source resistance (the far ends of RS1, RS2). */
+export const DRIVE_NODES_BEHIND_SOURCE = ['drv1', 'drv2'] as const;
 /** The tail node, where the tail element meets the pair. */
 export const TAIL_NODE = 't';
 /** The collectors (outputs). */
@@ -55,6 +57,8 @@ export const COLLECTOR_NODES = ['c1', 'c2'] as const;
 export interface StageCircuit {
   /** Nodes held at a fixed DC voltage by ideal sources (ground included). */
   fixedNodesV: Record<string, number>;
+  /** The two fixed nodes the input drive is applied to: in1, in2, or the far ends of the source resistors. */
+  driveNodes: readonly [string, string];
   elements: CircuitElement[];
   /** A starting guess for the free nodes' voltages (V), from hand analysis. */
   initialGuessV: Record<string, number>;
@@ -79,6 +83,8 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
   const pair2Scales = { ...(betaScale2 !== 1 ? { betaScale: betaScale2 } : {}), ...(earlyVoltageScale2 !== 1 ? { earlyVoltageScale: earlyVoltageScale2 } : {}) };
   const tailNodeGuessV = vicmV - vbeGuessV;
   const emitterNodes = reOhm > 0 ? ['e1', 'e2'] : [TAIL_NODE, TAIL_NODE];
+  const sourceOhm = design.sourceResistanceOhm ?? 0;
+  const driveNodes = sourceOhm > 0 ? DRIVE_NODES_BEHIND_SOURCE : INPUT_NODES;
 
   const elements: CircuitElement[] = [
     { kind: 'resistor', name: 'RC1', nodes: [RAIL_NODES.positive, 'c1'], resistanceOhm: rcOhm, part: 'pair' },
@@ -86,6 +92,12 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
     { kind: 'npn', name: 'Q1', collector: 'c1', base: 'in1', emitter: emitterNodes[0], area: 1, part: 'pair' },
     { kind: 'npn', name: 'Q2', collector: 'c2', base: 'in2', emitter: emitterNodes[1], area: pairArea2, ...pair2Scales, part: 'pair' },
   ];
+  if (sourceOhm > 0) {
+    elements.push(
+      { kind: 'resistor', name: 'RS1', nodes: [driveNodes[0], INPUT_NODES[0]], resistanceOhm: sourceOhm, part: 'pair' },
+      { kind: 'resistor', name: 'RS2', nodes: [driveNodes[1], INPUT_NODES[1]], resistanceOhm: sourceOhm, part: 'pair' },
+    );
+  }
   if (reOhm > 0) {
     elements.push(
       { kind: 'resistor', name: 'RE1', nodes: ['e1', TAIL_NODE], resistanceOhm: reOhm, part: 'pair' },
@@ -100,6 +112,14 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
     elements.push({ kind: 'capacitor', name: 'CT', nodes: [TAIL_NODE, GROUND], capacitanceF: tailCapacitanceF, part: 'tail' });
   }
 
+  const loadCapacitanceF = design.loadCapacitanceF ?? 0;
+  if (loadCapacitanceF > 0) {
+    elements.push(
+      { kind: 'capacitor', name: 'CL1', nodes: [COLLECTOR_NODES[0], GROUND], capacitanceF: loadCapacitanceF, part: 'pair' },
+      { kind: 'capacitor', name: 'CL2', nodes: [COLLECTOR_NODES[1], GROUND], capacitanceF: loadCapacitanceF, part: 'pair' },
+    );
+  }
+
   const tailCurrentGuessA = tail.currentGuessA;
   const collectorGuessV = Math.max(positiveV - (tailCurrentGuessA / 2) * rcOhm, tailNodeGuessV + 0.3);
   const initialGuessV: Record<string, number> = {
@@ -108,6 +128,10 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
     [TAIL_NODE]: tailNodeGuessV,
     ...tail.initialGuessV,
   };
+  if (sourceOhm > 0) {
+    initialGuessV[INPUT_NODES[0]] = vicmV;
+    initialGuessV[INPUT_NODES[1]] = vicmV;
+  }
   if (reOhm > 0) {
     initialGuessV.e1 = tailNodeGuessV;
     initialGuessV.e2 = tailNodeGuessV;
@@ -118,9 +142,10 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
       [GROUND]: 0,
       [RAIL_NODES.positive]: positiveV,
       [RAIL_NODES.negative]: negativeV,
-      in1: vicmV,
-      in2: vicmV,
+      [driveNodes[0]]: vicmV,
+      [driveNodes[1]]: vicmV,
     },
+    driveNodes,
     elements,
     initialGuessV,
   };

@@ -6,10 +6,10 @@
  * edit a netlist's text with string replaces (".options" contains ".op").
  */
 import type { Design } from './types';
-import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
+import { GROUND, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
 import type { CircuitElement, TransistorElement } from './circuit';
 import { scaledDevice } from './analyze';
-import { earlyVoltageOrInfinityV, nominalSaturationCurrentA } from './device';
+import { BJT_PARAMETERS, BJT_PARAMETER_NAMES, cardOf } from './bjt-parameters';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
 import { formatSpiceNumber as spiceNumber, parseSpiceNumber } from '../units/spice-number';
@@ -63,7 +63,7 @@ function elementName(letter: string, name: string): string {
   return name.toUpperCase().startsWith(letter) ? name : `${letter}${name}`;
 }
 
-function elementLine(element: CircuitElement): string {
+function elementLine(element: CircuitElement, substrate: string): string {
   switch (element.kind) {
     case 'resistor':
       return `${elementName('R', element.name)} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.resistanceOhm)}`;
@@ -71,7 +71,7 @@ function elementLine(element: CircuitElement): string {
       return `${elementName('C', element.name)} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.capacitanceF)}`;
     case 'npn': {
       const area = element.area !== 1 ? ` area=${spiceNumber(element.area)}` : '';
-      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${transistorModelName(element)}${area}`;
+      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${substrate} ${transistorModelName(element)}${area}`;
     }
   }
 }
@@ -86,11 +86,20 @@ function transistorModelName(element: TransistorElement): string {
   return hasOwnModel(element) ? `${SPICE_MODEL_NAME}_${element.name.toUpperCase()}` : SPICE_MODEL_NAME;
 }
 
-/** `.model` card: IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE]. */
+/**
+ * A `.model` card: every parameter the device's card gives (IS at TNOM, the effective one, BF,
+ * VAF, and the full model's others); a parameter SPICE reads 0 as infinite is left out when
+ * infinite [SPICE].
+ */
 function modelCard(device: Design['device'], name = SPICE_MODEL_NAME): string {
-  const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(device))}`, `BF=${spiceNumber(device.beta)}`];
-  const vafV = earlyVoltageOrInfinityV(device);
-  if (Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
+  const card = cardOf(device);
+  const parameters: string[] = [];
+  for (const parameter of BJT_PARAMETER_NAMES) {
+    const value = card[parameter];
+    if (value === undefined) continue;
+    if (BJT_PARAMETERS[parameter].zeroMeansInfinite && (value === 0 || !Number.isFinite(value))) continue;
+    parameters.push(`${parameter}=${spiceNumber(value)}`);
+  }
   return `.model ${name} NPN (${parameters.join(' ')})`;
 }
 
@@ -124,8 +133,8 @@ function analysisCard(options: NetlistOptions): string {
 }
 
 /** Input-drive lines for the analysis: in1/in2 at the common-mode DC voltage, or the tail test source. */
-function inputDriveLines(options: NetlistOptions, commonModeV: number): string[] {
-  const [in1, in2] = INPUT_NODES;
+function inputDriveLines(options: NetlistOptions, commonModeV: number, driveNodes: readonly [string, string]): string[] {
+  const [in1, in2] = driveNodes;
   const [vin1, vin2] = INPUT_SOURCES;
   switch (options.analysis) {
     case 'op':
@@ -165,8 +174,9 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
   const circuit = stageCircuit(design);
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const includePair = options.analysis !== 'ac-tail';
-  const pairLines = circuit.elements.filter((element) => element.part === 'pair').map(elementLine);
-  const tailLines = circuit.elements.filter((element) => element.part === 'tail').map(elementLine);
+  const line = (element: CircuitElement): string => elementLine(element, RAIL_NODES.negative);
+  const pairLines = circuit.elements.filter((element) => element.part === 'pair').map(line);
+  const tailLines = circuit.elements.filter((element) => element.part === 'tail').map(line);
   const lines = [
     `Longtail differential pair, ${design.tail.topology} tail (${options.analysis})`,
     ...comments.flatMap((text) => commentLines(text, COMMENT_PREFIX)),
@@ -174,7 +184,7 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
     dcSource(SUPPLY_SOURCES.positive, RAIL_NODES.positive, circuit.fixedNodesV[RAIL_NODES.positive]),
     dcSource(SUPPLY_SOURCES.negative, RAIL_NODES.negative, circuit.fixedNodesV[RAIL_NODES.negative]),
     '* --- input drive ---',
-    ...inputDriveLines(options, circuit.fixedNodesV[INPUT_NODES[0]]),
+    ...inputDriveLines(options, circuit.fixedNodesV[circuit.driveNodes[0]], circuit.driveNodes),
     '* --- pair and loads ---',
     ...(includePair ? pairLines : ['* (left out: the tail element is analysed alone)']),
     `* --- tail element (${design.tail.topology}) ---`,
@@ -194,7 +204,7 @@ export type ParsedElement =
   | { kind: 'R'; name: string; nodes: [string, string]; valueOhm: number }
   | { kind: 'C'; name: string; nodes: [string, string]; valueF: number }
   | { kind: 'V'; name: string; nodes: [string, string]; dcV: number; acMagnitude: number; acPhaseDeg: number }
-  | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; model: string; area: number };
+  | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; substrate: string | null; model: string; area: number };
 
 /** Logical lines: comments dropped (`*` lines, `;` inline), `+` continuations joined, title skipped. */
 function logicalLines(text: string): string[] {
@@ -231,20 +241,25 @@ function parseVoltageSource(name: string, tokens: string[]): ParsedElement {
 }
 
 function parseTransistor(name: string, tokens: string[]): ParsedElement {
-  const [, collector, base, emitter, model, ...rest] = tokens;
+  // A fifth node before the model name is the substrate: `Q c b e s model`, else `Q c b e model`.
+  const fourTerminal = tokens.length > 5 && !NUMBER_START.test(tokens[5]) && !/=/.test(tokens[5]);
+  const [, collector, base, emitter] = tokens;
+  const substrate = fourTerminal ? tokens[4] : null;
+  const model = fourTerminal ? tokens[5] : tokens[4];
+  const rest = tokens.slice(fourTerminal ? 6 : 5);
   let area = 1;
   for (const token of rest) {
     const keyed = /^area=(.+)$/i.exec(token);
     if (keyed) area = parseSpiceNumber(keyed[1]);
     else if (NUMBER_START.test(token)) area = parseSpiceNumber(token);
   }
-  return { kind: 'Q', name, collector, base, emitter, model, area };
+  return { kind: 'Q', name, collector, base, emitter, substrate, model, area };
 }
 
 /**
  * Reads the R, C, V and Q element lines of a netlist (other lines and dot cards are skipped).
  * Handles comments, `;` inline comments, `+` continuations and scale suffixes. A Q line is read
- * as `Qname collector base emitter model [area | area=value]` (no substrate node).
+ * as `Qname collector base emitter [substrate] model [area | area=value]`.
  */
 export function parseNetlistElements(text: string): ParsedElement[] {
   const elements: ParsedElement[] = [];

@@ -128,6 +128,8 @@ export async function evaluateDesign(spec: Spec, design: Design, ruleSet: RuleSe
     device: { ...spec.device, ...design.device },
     supply: design.supply,
     tailCapacitanceF: design.tailCapacitanceF ?? spec.tailCapacitanceF,
+    loadCapacitanceF: design.loadCapacitanceF ?? spec.loadCapacitanceF,
+    sourceResistanceOhm: design.sourceResistanceOhm ?? spec.sourceResistanceOhm,
   };
   const draws = monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
   const option = await checkedOption(specForDesign, design.tail.topology, ruleSet, draws, () => ({ design, steps: [{ step: 'designer-values' }] }));

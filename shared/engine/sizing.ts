@@ -114,6 +114,8 @@ export function designAt(spec: Spec, condition: Condition, values: SizedValues):
     inputCommonModeV: condition.inputCommonModeV,
     temperatureC: condition.temperatureC,
     tailCapacitanceF: spec.tailCapacitanceF,
+    ...(spec.loadCapacitanceF ? { loadCapacitanceF: spec.loadCapacitanceF } : {}),
+    ...(spec.sourceResistanceOhm ? { sourceResistanceOhm: spec.sourceResistanceOhm } : {}),
   };
 }
 

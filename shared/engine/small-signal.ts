@@ -1,14 +1,28 @@
 /**
  * Small-signal analysis of the whole stage at its operating point: the Jacobian of the node
- * equations is the conductance matrix, every transistor at its own bias (gm, rπ and ro in
- * SPICE's form, GMIN included). The only reactive element is the tail capacitance Ct from the
- * tail node to ground; adding an admittance y at one node changes any transfer bilinearly
- * (Sherman–Morrison), so one factorisation gives every transfer at every frequency:
- *   H(y) = H0 − y·x[t]·z[out] / (1 + y·z[t]),  z = G⁻¹·e_t,  y = j·2π·f·Ct.
+ * equations is the conductance matrix G, every transistor at its own bias (gm, rπ and ro in
+ * SPICE's form, GMIN included). The stored charge is the capacitance matrix C: each
+ * transistor's junction and diffusion capacitances at its bias (junction-charges.ts, on its
+ * internal nodes when the model has RB, RC, RE; the substrate at the negative rail), plus the
+ * circuit's capacitors (tail wiring, loads). At a frequency f the responses solve
+ * (G + j·2πf·C)·x = −(G_fixed + j·2πf·C_fixed)·drive, as SPICE's AC analysis does
+ * [SPICE] ngspice bjtacld.c. At f = 0, or when nothing stores charge, the real low-frequency
+ * responses are the answer.
  */
-import { COLLECTOR_NODES, INPUT_NODES, TAIL_NODE } from './circuit';
+import { COLLECTOR_NODES, TAIL_NODE } from './circuit';
+import { solveComplex, type ComplexVector } from './complex-solve';
+import { chargeParameters, transistorCapacitances, transportBias, transportParameters } from './junction-charges';
+import type { BjtParameters } from './bjt-parameters';
 import { luFactor, luSolve, zeros } from './linear-solve';
-import { createStamp, stampConductance, stampTransistor, type IndexedCircuit, type NodeStamp } from './node-system';
+import {
+  createStamp,
+  nodeVoltage,
+  stampConductance,
+  stampControlled,
+  stampTransistor,
+  type IndexedCircuit,
+  type NodeStamp,
+} from './node-system';
 import type { OperatingPoint } from './operating-point';
 
 export interface Complex {
@@ -16,14 +30,22 @@ export interface Complex {
   im: number;
 }
 
-/** Node responses to the two drives and to a unit current injected at the tail node. */
+/** The stage's reactive part: G and C with their drive columns (row-major n × n, columns of length n). */
+export interface ReactiveStage {
+  n: number;
+  conductance: number[];
+  capacitance: number[];
+  /** Coefficients of the two drive nodes in G and C (currents leaving each free node per volt of drive). */
+  conductanceDrive: [number[], number[]];
+  capacitanceDrive: [number[], number[]];
+}
+
+/** Node responses to the two drives at low frequency, and what the frequency solve needs. */
 export interface SmallSignalStage {
-  /** Response to v(in1) = +½, v(in2) = −½ (differential drive of 1 V). */
+  /** Response to v(drive1) = +½, v(drive2) = −½ (differential drive of 1 V), at low frequency. */
   differential: number[];
-  /** Response to v(in1) = v(in2) = 1 (common-mode drive of 1 V). */
+  /** Response to v(drive1) = v(drive2) = 1 (common-mode drive of 1 V), at low frequency. */
   commonMode: number[];
-  /** Response to 1 A injected into the tail node: z = G⁻¹·e_t. */
-  tailInjection: number[];
   /** Index of the tail node and a lookup of free nodes. */
   tailIndex: number;
   index(node: string): number;
@@ -31,6 +53,14 @@ export interface SmallSignalStage {
   tailOutputResistanceOhm: number;
   /** The outputs the contract names: c1 alone and c1 − c2. */
   outputs: { collector1: OutputWeights; betweenCollectors: OutputWeights };
+  /** G and C for the frequency solve; null when nothing in the circuit stores charge. */
+  reactive: ReactiveStage | null;
+}
+
+/** The drive responses at one frequency. */
+export interface StageResponses {
+  differential: ComplexVector;
+  commonMode: ComplexVector;
 }
 
 function stampJacobian(op: OperatingPoint, onlyTail: boolean): NodeStamp {
@@ -43,16 +73,23 @@ function stampJacobian(op: OperatingPoint, onlyTail: boolean): NodeStamp {
   return stamp;
 }
 
-/** Response to AC amplitudes on the two inputs (volts): solves G·x = −G_fixed·drive. */
-function driveResponse(ic: IndexedCircuit, stamper: NodeStamp, factors: ReturnType<typeof luFactor>, in1V: number, in2V: number): number[] {
-  const n = stamper.n;
+/** The drive nodes' columns of a stamp's fixed-node coefficients. */
+function driveColumns(ic: IndexedCircuit, stamp: NodeStamp, driveNodes: readonly [string, string]): [number[], number[]] {
+  const n = stamp.n;
   const nFixed = ic.fixedNodes.length;
-  const k1 = -ic.nodeRef(INPUT_NODES[0]) - 1;
-  const k2 = -ic.nodeRef(INPUT_NODES[1]) - 1;
+  return driveNodes.map((name) => {
+    const k = -ic.nodeRef(name) - 1;
+    const column = zeros(n);
+    for (let row = 0; row < n; row += 1) column[row] = stamp.fixedColumns[row * nFixed + k];
+    return column;
+  }) as [number[], number[]];
+}
+
+/** Response to AC amplitudes on the two drive nodes (volts): solves G·x = −G_drive·drive. */
+function driveResponse(columns: [number[], number[]], factors: ReturnType<typeof luFactor>, drive1V: number, drive2V: number): number[] {
+  const n = columns[0].length;
   const rhs = zeros(n);
-  for (let row = 0; row < n; row += 1) {
-    rhs[row] = -stamper.fixedColumns[row * nFixed + k1] * in1V - stamper.fixedColumns[row * nFixed + k2] * in2V;
-  }
+  for (let row = 0; row < n; row += 1) rhs[row] = -columns[0][row] * drive1V - columns[1][row] * drive2V;
   return luSolve(factors, rhs);
 }
 
@@ -71,24 +108,74 @@ function tailOutputResistanceOhm(op: OperatingPoint, tailIndex: number): number 
   return luSolve(luFactor(stamper.matrix, n, true), e)[tailIndex];
 }
 
-/** Builds the small-signal responses of a stage at its operating point. */
-export function smallSignalStage(op: OperatingPoint): SmallSignalStage {
+/**
+ * The capacitance matrix: every transistor's capacitances at its bias [SPICE] ngspice bjtacld.c
+ * (CBE between internal base and emitter, CBC between internal base and collector, the
+ * forward charge's vbc dependence as a transcapacitance from base to emitter, CCS from the
+ * internal collector to the substrate), and the circuit's capacitors. Null when all are zero.
+ */
+function capacitanceStamp(op: OperatingPoint, parameters: BjtParameters | null, temperatureC: number): NodeStamp | null {
+  const ic = op.circuit;
+  const stamp = createStamp(ic);
+  let any = false;
+  for (const cap of ic.capacitors) {
+    if (cap.capacitanceF === 0) continue;
+    stampConductance(stamp, cap.a, cap.b, cap.capacitanceF);
+    any = true;
+  }
+  const charges = parameters ? chargeParameters(parameters, temperatureC) : null;
+  if (parameters && charges && !charges.none) {
+    const transport = transportParameters(parameters, temperatureC);
+    const v = op.voltagesV;
+    for (const q of ic.transistors) {
+      // the junctions sit on the internal nodes (behind RB, RC, RE), the substrate at the negative rail
+      const { bi: b, ci: c, ei: e, s } = q;
+      const vb = nodeVoltage(ic, v, b);
+      const vc = nodeVoltage(ic, v, c);
+      const bias = transportBias(transport, vb - nodeVoltage(ic, v, e), vb - vc, nodeVoltage(ic, v, s) - vc, q.area);
+      const caps = transistorCapacitances(charges, bias, q.area);
+      if (caps.baseEmitterF !== 0) stampConductance(stamp, b, e, caps.baseEmitterF);
+      if (caps.baseCollectorF !== 0) stampConductance(stamp, b, c, caps.baseCollectorF);
+      if (caps.collectorSubstrateF !== 0) stampConductance(stamp, c, s, caps.collectorSubstrateF);
+      // d(qbe)/d(vbc): a current jω·C·vbc leaving the internal base into the internal emitter
+      if (caps.baseEmitterPerVbcF !== 0) stampControlled(stamp, b, e, b, c, caps.baseEmitterPerVbcF);
+      any = true;
+    }
+  }
+  return any ? stamp : null;
+}
+
+/**
+ * Builds the small-signal responses of a stage at its operating point. `parameters`: the
+ * device's full parameter set (resolvedParameters(cardOf(device))), for its stored charge;
+ * `driveNodes`: where the drive is applied (StageCircuit.driveNodes).
+ */
+export function smallSignalStage(
+  op: OperatingPoint,
+  driveNodes: readonly [string, string],
+  parameters: BjtParameters | null = null,
+  temperatureC = 27,
+): SmallSignalStage {
   const ic = op.circuit;
   const stamper = stampJacobian(op, false);
-  const factors = luFactor(stamper.matrix, stamper.n);
+  const n = stamper.n;
+  const gDrive = driveColumns(ic, stamper, driveNodes);
+  const cStamp = capacitanceStamp(op, parameters, temperatureC);
+  const reactive: ReactiveStage | null = cStamp
+    ? { n, conductance: stamper.matrix.slice(), capacitance: cStamp.matrix, conductanceDrive: gDrive, capacitanceDrive: driveColumns(ic, cStamp, driveNodes) }
+    : null;
+  const factors = luFactor(stamper.matrix, n, true);
   const tailIndex = ic.nodeRef(TAIL_NODE);
-  const unit = zeros(stamper.n);
-  unit[tailIndex] = 1;
   const c1 = ic.nodeRef(COLLECTOR_NODES[0]);
   const c2 = ic.nodeRef(COLLECTOR_NODES[1]);
   return {
     outputs: { collector1: { nodes: [c1], weights: [1] }, betweenCollectors: { nodes: [c1, c2], weights: [1, -1] } },
-    differential: driveResponse(ic, stamper, factors, 0.5, -0.5),
-    commonMode: driveResponse(ic, stamper, factors, 1, 1),
-    tailInjection: luSolve(factors, unit),
+    differential: driveResponse(gDrive, factors, 0.5, -0.5),
+    commonMode: driveResponse(gDrive, factors, 1, 1),
     tailIndex,
     index: (node) => ic.nodeRef(node),
     tailOutputResistanceOhm: tailOutputResistanceOhm(op, tailIndex),
+    reactive,
   };
 }
 
@@ -104,24 +191,40 @@ export function outputWeights(stage: SmallSignalStage, weights: Record<string, n
   return { nodes: names.map((n) => stage.index(n)), weights: names.map((n) => weights[n]) };
 }
 
-/**
- * A transfer to an output from a drive response, at the tail admittance y = j·ω·Ct
- * (ωCt given as `omegaCtS`).
- */
-export function transferAt(stage: SmallSignalStage, response: number[], output: OutputWeights, omegaCtS: number): Complex {
-  let h0 = 0;
-  let zOut = 0;
-  for (let k = 0; k < output.nodes.length; k += 1) {
-    const i = output.nodes[k];
-    h0 += output.weights[k] * response[i];
-    zOut += output.weights[k] * stage.tailInjection[i];
+/** The differential and common-mode responses at a frequency (Hz): one complex factorisation for both. */
+export function responsesAt(stage: SmallSignalStage, frequencyHz: number): StageResponses {
+  const reactive = stage.reactive;
+  if (!reactive || frequencyHz === 0) {
+    const n = stage.differential.length;
+    return { differential: { re: stage.differential, im: zeros(n) }, commonMode: { re: stage.commonMode, im: zeros(n) } };
   }
-  if (omegaCtS === 0) return { re: h0, im: 0 };
-  // H = h0 − jw·p/(1 + jw·u), p = x[t]·z[out], u = z[t]
-  const p = response[stage.tailIndex] * zOut;
-  const u = stage.tailInjection[stage.tailIndex];
-  const denom = 1 + omegaCtS * omegaCtS * u * u;
-  return { re: h0 - (omegaCtS * omegaCtS * p * u) / denom, im: -(omegaCtS * p) / denom };
+  const { n, conductance, capacitance, conductanceDrive: g, capacitanceDrive: c } = reactive;
+  const omega = 2 * Math.PI * frequencyHz;
+  const aRe = conductance.slice();
+  const aIm = new Array<number>(n * n);
+  for (let k = 0; k < n * n; k += 1) aIm[k] = omega * capacitance[k];
+  const drive = (d1: number, d2: number): ComplexVector => {
+    const re = zeros(n);
+    const im = zeros(n);
+    for (let row = 0; row < n; row += 1) {
+      re[row] = -(g[0][row] * d1 + g[1][row] * d2);
+      im[row] = -omega * (c[0][row] * d1 + c[1][row] * d2);
+    }
+    return { re, im };
+  };
+  const [differential, commonMode] = solveComplex(aRe, aIm, n, [drive(0.5, -0.5), drive(1, 1)]);
+  return { differential, commonMode };
+}
+
+/** A transfer to an output from a response. */
+export function transferOf(response: ComplexVector, output: OutputWeights): Complex {
+  let re = 0;
+  let im = 0;
+  for (let k = 0; k < output.nodes.length; k += 1) {
+    re += output.weights[k] * response.re[output.nodes[k]];
+    im += output.weights[k] * response.im[output.nodes[k]];
+  }
+  return { re, im };
 }
 
 /** Magnitude of a complex number. */

@@ -32,6 +32,18 @@ export interface TransistorOperatingPoint {
   region: Region;
 }
 
+/** One `ac` entry of the analyze output: gains as magnitudes at that frequency, definitions as at low frequency. */
+export interface AcEntry {
+  frequencyHz: number;
+  differentialGain: number;
+  singleEndedGain: number;
+  commonModeGain: number;
+  differentialCommonModeGain: number;
+  cmrrDb: { singleEnded: number; differential: number | null };
+  /** Input-referred noise density, V/√Hz; null until the noise analysis is part of the engine. */
+  inputNoiseVPerRtHz: number | null;
+}
+
 export interface AnalyzeResult {
   tailCurrentA: number;
   collectorCurrentA: number;
@@ -44,7 +56,12 @@ export interface AnalyzeResult {
   commonModeGain: number;
   differentialCommonModeGain: number;
   cmrrDb: { singleEnded: number; differential: number | null };
+  /** Frequency where the single-ended CMRR has fallen 3 dB, from the whole circuit; null when nothing limits it below 10 GHz. */
   cmrrCornerHz: number | null;
+  /** Lowest frequency where |differentialGain| is 3 dB below its low-frequency value; null above 10 GHz. */
+  differentialBandwidthHz: number | null;
+  /** One entry per `frequenciesHz` of the design. */
+  ac: AcEntry[];
   powerW: number;
   warnings: string[];
   /** Added: the textbook limit of the tail's output resistance and its formula. */

@@ -214,6 +214,7 @@ describe('spiceNetlist: structure', () => {
           collector: element.collector,
           base: element.base,
           emitter: element.emitter,
+          substrate: 'vn', // every substrate at the negative rail (contract, version 2)
           model: SPICE_MODEL_NAME,
           area: element.area,
         });
@@ -330,6 +331,7 @@ describe('parseNetlistElements', () => {
       'Q7 c',
       '+ b e MOD 2',
       'Q8 c b e MOD area=0.5',
+      'Q9 c b e sub MOD 1.5',
       'C1 t 0 22p',
       'V1 in 0 DC -1.5 AC 0.5 180',
       'V2 in2 0 2.5',
@@ -338,8 +340,9 @@ describe('parseNetlistElements', () => {
     ].join('\n');
     expect(parseNetlistElements(text)).toEqual([
       { kind: 'R', name: 'R1', nodes: ['a', 'b'], valueOhm: 4700 },
-      { kind: 'Q', name: 'Q7', collector: 'c', base: 'b', emitter: 'e', model: 'MOD', area: 2 },
-      { kind: 'Q', name: 'Q8', collector: 'c', base: 'b', emitter: 'e', model: 'MOD', area: 0.5 },
+      { kind: 'Q', name: 'Q7', collector: 'c', base: 'b', emitter: 'e', substrate: null, model: 'MOD', area: 2 },
+      { kind: 'Q', name: 'Q8', collector: 'c', base: 'b', emitter: 'e', substrate: null, model: 'MOD', area: 0.5 },
+      { kind: 'Q', name: 'Q9', collector: 'c', base: 'b', emitter: 'e', substrate: 'sub', model: 'MOD', area: 1.5 },
       { kind: 'C', name: 'C1', nodes: ['t', '0'], valueF: 22e-12 },
       { kind: 'V', name: 'V1', nodes: ['in', '0'], dcV: -1.5, acMagnitude: 0.5, acPhaseDeg: 180 },
       { kind: 'V', name: 'V2', nodes: ['in2', '0'], dcV: 2.5, acMagnitude: 0, acPhaseDeg: 0 },

@@ -31,6 +31,8 @@ export const FULL_SPEC: Spec = {
   temperatureC: { min: -20, max: 85 },
   resistors: { series: 'E192', tolerancePercent: 0.1 },
   tailCapacitanceF: 1e-12,
+  loadCapacitanceF: 10e-12,
+  sourceResistanceOhm: 600,
   topologies: ['wilson', 'cascode'],
   policy: 'highest-rejection',
   hazards: { patientConnected: true, mainsReferenced: true },
@@ -79,6 +81,9 @@ export const FULL_DESIGN: Design = {
   inputCommonModeV: 1,
   temperatureC: 50,
   tailCapacitanceF: 2e-12,
+  loadCapacitanceF: 5e-12,
+  sourceResistanceOhm: 1000,
+  frequenciesHz: [1000, 1e6],
 };
 
 /** The contract's required fields only. */

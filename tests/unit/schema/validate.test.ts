@@ -27,6 +27,8 @@ describe('validateSpec', () => {
         temperatureC: { min: 0, max: 70 },
         resistors: { series: 'E96', tolerancePercent: 1 }, // E96 is the ±1 % series (common practice)
         tailCapacitanceF: 0,
+        loadCapacitanceF: 0,
+        sourceResistanceOhm: 0,
         topologies: ['resistor', 'simple-mirror', 'degenerated-mirror', 'widlar', 'wilson', 'cascode'],
         policy: 'simplest-sufficient',
         hazards: { patientConnected: false, mainsReferenced: false },
@@ -120,6 +122,8 @@ describe('validateSpec', () => {
     ['/tailCapacitanceF', 1e-9, null],
     ['/tailCapacitanceF', 2e-9, '/tailCapacitanceF'],
     ['/tailCapacitanceF', -1e-12, '/tailCapacitanceF'],
+    ['/loadCapacitanceF', -1e-12, '/loadCapacitanceF'],
+    ['/sourceResistanceOhm', -1, '/sourceResistanceOhm'],
     ['/topologies', ['cascode'], null],
     ['/topologies', [], '/topologies'],
     ['/topologies', ['wilson', 'wilson'], '/topologies'],

@@ -14,6 +14,7 @@ export const SPEC_LAYOUT: FormLayout = {
     { title: 'Supply', fields: ['supply'] },
     { title: 'Gain', fields: ['gain'] },
     { title: 'Rejection', fields: ['cmrr', 'tailCapacitanceF'] },
+    { title: 'Source and load', fields: ['sourceResistanceOhm', 'loadCapacitanceF'], note: 'What drives the inputs and what the collectors drive: they set the bandwidth.' },
     { title: 'Input common mode', fields: ['inputCommonMode'], note: 'DC range on both bases, strictly between the rails.' },
     { title: 'Output & power', fields: ['outputSwingVpp', 'outputSwingMaxCompressionPercent', 'powerBudgetW', 'tailCurrentA'] },
     { title: 'Temperature', fields: ['temperatureC'] },
