@@ -29,7 +29,13 @@ export interface TransistorOperatingPoint {
   vbeV: number;
   vceV: number;
   vcbV: number;
+  /**
+   * Saturated when its current gain is more than 5 % below the forward-active value, cut off when
+   * its base–emitter junction drives under 0.1 nA (analyze.ts, docs/device-and-formulas.md).
+   */
   region: Region;
+  /** 1 − hfe/β0: how far the small-signal current gain has fallen below its forward-active value (a fraction). */
+  currentGainLossFraction: number;
 }
 
 export interface AnalyzeResult {
