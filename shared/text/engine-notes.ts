@@ -144,7 +144,15 @@ export function wordedFacts(measured: MeasuredFacts): OptionFacts {
   }
   const closedForm = { valueOhm: measured.tailOutputResistanceClosedFormOhm, formula: measured.tailOutputResistanceFormula };
   facts.tailOutputResistanceNote = tailOutputResistanceNote(measured.tailOutputResistanceOhm, closedForm);
+  facts.outputCmrrBasis = outputCmrrBasis(measured.isDifferentialOutput, measured.worstCmrrCorner);
   return facts as unknown as OptionFacts;
+}
+
+/** Which rejection figure judges the spec's output, in words, e.g. "single-ended, tail-limited, worst corner ICM −2 V, 85 °C". */
+export function outputCmrrBasis(differentialOutput: boolean, worstSingleEndedCorner: string): string {
+  return differentialOutput
+    ? 'differential, mismatch-limited worst case: resistors at opposite tolerance extremes and 3σ VBE mismatch, at the governing corner'
+    : `single-ended, tail-limited, worst corner ${worstSingleEndedCorner}`;
 }
 
 /** One sentence on why the recommendation is what it is. */
