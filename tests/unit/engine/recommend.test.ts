@@ -351,8 +351,22 @@ describe('scenario-specific outcomes', () => {
     expect(result.recommended).not.toBeNull();
   });
 
+  /** A differential output whose rejection target (required + margin) the mismatch worst case does not reach. */
+  const DIFFERENTIAL_TARGET_OUT_OF_REACH = 'ECG-2 electrode input, patient-connected';
+
+  test('ECG-2: its differential output is held to 80 + 6 dB on the mismatch worst case, and where that falls short the rejection target fails whatever the single-ended figure', async () => {
+    const result = await resultOf(DIFFERENTIAL_TARGET_OUT_OF_REACH);
+    for (const option of result.options) {
+      const f = option.figures!;
+      const target = option.checks.find((c) => c.rule === 'cmrr-target')!;
+      expect(target.passed).toBe(f.cmrrDifferentialWorstCaseDb! >= 86);
+      expect(target.reason).toContain('differential output');
+    }
+    expect(result.options.some((o) => o.figures!.cmrrAtFrequencyDb >= 86 && o.figures!.cmrrDifferentialWorstCaseDb! < 86)).toBe(true);
+  });
+
   test('a recommendation exists for the feasible specs (the consistency checks above are not vacuous)', async () => {
-    const infeasible: string[] = ['LX-1 impossible rejection', SWING_COMPRESSED, ...Object.keys(GAIN_OVER_TEMPERATURE_OUT_OF_REACH)];
+    const infeasible: string[] = ['LX-1 impossible rejection', SWING_COMPRESSED, DIFFERENTIAL_TARGET_OUT_OF_REACH, ...Object.keys(GAIN_OVER_TEMPERATURE_OUT_OF_REACH)];
     const feasible = SPEC_NAMES.filter((n) => !infeasible.includes(n));
     expect(feasible.length).toBeGreaterThanOrEqual(1);
     for (const name of feasible) expect((await resultOf(name)).recommended, name).not.toBeNull();
