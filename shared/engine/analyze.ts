@@ -5,7 +5,7 @@
  */
 import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE, stageCircuit, type StageCircuit } from './circuit';
 import { closedFormTailRout } from './closed-form';
-import { deviceModel, type DeviceModel } from './device';
+import { deviceModel, type BjtEval, type DeviceModel } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { nodeVoltage, type IndexedCircuit } from './node-system';
 import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
@@ -15,8 +15,18 @@ import { BJT_PARAMETERS, cardOf, resolvedParameters } from './bjt-parameters';
 import type { AcEntry, AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
 
-/** Collector current below which a transistor counts as cut off, A (well under any useful bias). */
+/**
+ * Forward transport current (the collector current the base–emitter junction's bias drives)
+ * below which a transistor counts as cut off, A (well under any useful bias).
+ */
 const CUT_OFF_CURRENT_A = 1e-10;
+/**
+ * A transistor counts as saturated when its small-signal current gain has fallen more than this
+ * fraction below its forward-active value (`currentGainLossFraction`). With this model that is
+ * VCE < VT·ln((1 + (1 + BF)/BR)·(1 − L)/L): about 0.20 V at 27 °C for BF = 120, 0.27 V at 125 °C,
+ * 0.15 V at −55 °C (VT scales it); the product's choice, stated in docs/device-and-formulas.md.
+ */
+export const SATURATION_GAIN_LOSS_LIMIT = 0.05;
 /** A differential common-mode gain below this fraction of the common-mode gain is "zero" (matched pair). */
 const MATCHED_PAIR_RATIO = 1e-9;
 
@@ -65,7 +75,43 @@ function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: bo
   return totalA;
 }
 
-function transistorOperatingPoints(ic: IndexedCircuit, op: OperatingPoint, vceSatV: number): TransistorOperatingPoint[] {
+/**
+ * How far a transistor's small-signal current gain has fallen below its forward-active value:
+ * 1 − hfe/β0, with hfe = ∂IC/∂IB at constant VCE (both junctions move with the base) and
+ * β0 = (∂IC/∂VBE)/(∂IB/∂VBE) at constant VBC (the gain the base–emitter junction alone gives).
+ * Forward-active they differ only by the Early effect, VT/(VAF + VCB); once the base–collector
+ * junction injects, its current (IS·exp(VBC/VT) over BR into the base) takes the gain away.
+ */
+export function currentGainLossFraction(ev: BjtEval): number {
+  const hfe = (ev.dIcDVbeS + ev.dIcDVbcS) / (ev.dIbDVbeS + ev.dIbDVbcS);
+  const forwardActiveBeta = ev.dIcDVbeS / ev.dIbDVbeS;
+  return 1 - hfe / forwardActiveBeta;
+}
+
+/**
+ * gm as SPICE reports it (@q[gm]): the hybrid-π transconductance, ∂/∂VBE at constant VCE of the
+ * collector current less the base–collector junction's own current (SPICE's gμ branch), i.e.
+ * ∂IC/∂VBE + ∂IC/∂VBC + ∂IB/∂VBC [SPICE] ngspice bjtload.c (gm = ∂IC/∂VBE|VBC − go, with
+ * go = −∂IC/∂VBC − gμ and gμ = ∂IB/∂VBC). Forward-active it is IC/VT − IC/(VAF + VCB).
+ */
+export function spiceTransconductanceS(ev: BjtEval): number {
+  return ev.dIcDVbeS + ev.dIcDVbcS + ev.dIbDVbcS;
+}
+
+/**
+ * Region of a transistor from its own operating point: cut off when its base–emitter junction
+ * drives under CUT_OFF_CURRENT_A (VT·∂IC/∂VBE, the forward transport current), else saturated
+ * when its current gain is more than SATURATION_GAIN_LOSS_LIMIT below the forward-active value,
+ * else forward-active. A saturated transistor may carry almost no collector current (its base
+ * drive returns through the collector junction): it is still saturated, not cut off.
+ */
+function regionOf(ev: BjtEval, thermalVoltageV: number, gainLossFraction: number): Region {
+  if (thermalVoltageV * ev.dIcDVbeS < CUT_OFF_CURRENT_A) return 'cut-off';
+  if (gainLossFraction > SATURATION_GAIN_LOSS_LIMIT) return 'saturated';
+  return 'forward-active';
+}
+
+function transistorOperatingPoints(ic: IndexedCircuit, op: OperatingPoint, thermalVoltageV: number): TransistorOperatingPoint[] {
   return ic.transistors.map((q, i) => {
     const v = op.voltagesV;
     // At the junctions (internal nodes), as SPICE reports vbe, vbc and vce
@@ -73,11 +119,17 @@ function transistorOperatingPoints(ic: IndexedCircuit, op: OperatingPoint, vceSa
     const vb = nodeVoltage(ic, v, q.bi);
     const ve = nodeVoltage(ic, v, q.ei);
     const ev = op.transistors[i];
-    const vceV = vc - ve;
-    let region: Region = 'forward-active';
-    if (ev.icA < CUT_OFF_CURRENT_A) region = 'cut-off';
-    else if (vceV < vceSatV) region = 'saturated';
-    return { name: q.name, collectorCurrentA: ev.icA, baseCurrentA: ev.ibA, vbeV: vb - ve, vceV, vcbV: vc - vb, region };
+    const gainLossFraction = currentGainLossFraction(ev);
+    return {
+      name: q.name,
+      collectorCurrentA: ev.icA,
+      baseCurrentA: ev.ibA,
+      vbeV: vb - ve,
+      vceV: vc - ve,
+      vcbV: vc - vb,
+      region: regionOf(ev, thermalVoltageV, gainLossFraction),
+      currentGainLossFraction: gainLossFraction,
+    };
   });
 }
 
@@ -205,7 +257,7 @@ function acEntries(stage: SmallSignalStage, frequenciesHz: readonly number[]): A
 
 /** A transistor out of the forward-active region, or a reference branch carrying no current (worded at the edge). */
 export type OperatingPointProblem =
-  | { problem: 'saturated'; transistor: string; vceV: number; vceSatV: number }
+  | { problem: 'saturated'; transistor: string; vceV: number; currentGainLossFraction: number; limitFraction: number }
   | { problem: 'cut-off'; transistor: string; collectorCurrentA: number }
   | { problem: 'dead-reference' };
 
@@ -213,10 +265,12 @@ export type OperatingPointProblem =
 export type InputWarning = 'no-early-voltage';
 
 /** Transistors out of the forward-active region and a dead reference branch. */
-function operatingPointProblems(transistors: TransistorOperatingPoint[], vceSatV: number, referenceCurrentA: number, hasReference: boolean): OperatingPointProblem[] {
+function operatingPointProblems(transistors: TransistorOperatingPoint[], referenceCurrentA: number, hasReference: boolean): OperatingPointProblem[] {
   const problems: OperatingPointProblem[] = [];
   for (const q of transistors) {
-    if (q.region === 'saturated') problems.push({ problem: 'saturated', transistor: q.name, vceV: q.vceV, vceSatV });
+    if (q.region === 'saturated') {
+      problems.push({ problem: 'saturated', transistor: q.name, vceV: q.vceV, currentGainLossFraction: q.currentGainLossFraction, limitFraction: SATURATION_GAIN_LOSS_LIMIT });
+    }
     else if (q.region === 'cut-off') problems.push({ problem: 'cut-off', transistor: q.name, collectorCurrentA: q.collectorCurrentA });
   }
   if (hasReference && !(referenceCurrentA > 0)) problems.push({ problem: 'dead-reference' });
@@ -298,7 +352,7 @@ export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedC
 function stageFigures({ design, model, op, stage }: SolvedCircuit): { result: AnalyzeResult; problems: OperatingPointProblem[] } {
   const ic = op.circuit;
   const v = op.voltagesV;
-  const transistors = transistorOperatingPoints(ic, op, model.vceSatV);
+  const transistors = transistorOperatingPoints(ic, op, model.thermalVoltageV);
   const q1 = transistors.find((q) => q.name === 'Q1')!;
   const pair = transistors.filter((q) => q.name === 'Q1' || q.name === 'Q2');
   const tailNodeRef = ic.nodeRef(TAIL_NODE);
@@ -312,14 +366,14 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): { result: An
   const cmrrSingleDb = 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re));
   const matched = Math.abs(low.differentialCommonModeGain.re) <= MATCHED_PAIR_RATIO * Math.abs(low.commonModeGain.re);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);
-  const problems = operatingPointProblems(transistors, model.vceSatV, referenceCurrentA, design.tail.topology !== 'resistor');
+  const problems = operatingPointProblems(transistors, referenceCurrentA, design.tail.topology !== 'resistor');
   const problemTexts = problems.map(operatingPointProblemText);
   const result: AnalyzeResult = {
     tailCurrentA: currentIntoElementsA(op, TAIL_NODE, true),
     collectorCurrentA: q1.collectorCurrentA,
     collectorVoltageV: nodeVoltage(ic, v, ic.nodeRef(COLLECTOR_NODES[0])),
     tailNodeVoltageV: tailNodeV,
-    transconductanceS: op.transistors[ic.transistors.findIndex((q) => q.name === 'Q1')].dIcDVbeS,
+    transconductanceS: spiceTransconductanceS(op.transistors[ic.transistors.findIndex((q) => q.name === 'Q1')]),
     tailOutputResistanceOhm: stage.tailOutputResistanceOhm,
     differentialGain: low.differentialGain.re,
     singleEndedGain: low.singleEndedGain.re,

@@ -33,14 +33,15 @@ export interface AcSweep {
 /**
  * Which single analysis the netlist runs (ngspice returns only the first plot of a batch run,
  * so a netlist carries exactly one analysis card):
- * - `op`: DC operating point.
+ * - `op`: DC operating point; `transistorVectors` adds ngspice's own figures of every transistor
+ *   to the result (`.save all @q1[gm] …`: node voltages and source currents stay in it).
  * - `ac-differential`: in1 AC 0.5 ∠0°, in2 AC 0.5 ∠180°, so v(in1 − in2) = 1 (contract drive).
  * - `ac-common-mode`: in1 and in2 both AC 1 ∠0°, so v_cm = 1.
  * - `ac-tail`: the tail element alone (part 'tail'), its node t held by an ideal source at DC
  *   `tailNodeV` (t's operating-point voltage) and AC 1, so Rout = 1/|i(vtail)|.
  */
 export type NetlistOptions = (
-  | { analysis: 'op' }
+  | { analysis: 'op'; transistorVectors?: readonly TransistorVector[] }
   | ({ analysis: 'ac-differential' } & AcSweep)
   | ({ analysis: 'ac-common-mode' } & AcSweep)
   | ({ analysis: 'ac-tail'; tailNodeV: number } & AcSweep)
@@ -57,6 +58,13 @@ export interface NetlistSolverSettings {
 }
 
 export type NetlistAnalysis = NetlistOptions['analysis'];
+
+/**
+ * Device figures ngspice reports per bipolar transistor at the operating point [SPICE]: `gm`
+ * (hybrid-π transconductance, VCE held), `go` (output conductance), `gpi`, `gmu` (base–emitter
+ * and base–collector input conductances), `ic` and `ib` (terminal currents, A).
+ */
+export type TransistorVector = 'gm' | 'go' | 'gpi' | 'gmu' | 'ic' | 'ib';
 
 /** An element's SPICE name: its circuit name, prefixed with the SPICE letter if it lacks it. */
 function elementName(letter: string, name: string): string {
@@ -121,6 +129,13 @@ function optionsCard(temperatureC: number, settings: NetlistSolverSettings): str
     words.push(`reltol=${spiceNumber(settings.relativeTolerance)}`);
   }
   return `.options ${words.join(' ')}`;
+}
+
+/** `.save all @q1[gm] …` for every transistor of the stage, before an `.op` card that asks for device figures. */
+function saveCard(options: NetlistOptions, transistorNames: readonly string[]): string[] {
+  if (options.analysis !== 'op' || !options.transistorVectors?.length) return [];
+  const vectors = transistorNames.flatMap((name) => options.transistorVectors!.map((vector) => `@${name.toLowerCase()}[${vector}]`));
+  return [`.save all ${vectors.join(' ')}`];
 }
 
 function analysisCard(options: NetlistOptions): string {
@@ -193,6 +208,10 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
     ...modelCards(design, circuit.elements),
     optionsCard(temperatureC, options),
     '* --- analysis ---',
+    ...saveCard(
+      options,
+      circuit.elements.filter((element) => element.kind === 'npn' && (includePair || element.part === 'tail')).map((element) => elementName('Q', element.name)),
+    ),
     analysisCard(options),
     '.end',
   ];

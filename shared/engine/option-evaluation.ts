@@ -4,7 +4,8 @@
  * checks are decided on (worst corner taken, margins computed; rules only compare).
  */
 import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
-import { solveStage, singleEndedCmrrDbAt, type OperatingPointProblem, type StageSolution } from './analyze';
+import { solveStage, singleEndedCmrrDbAt, transfersAt, type OperatingPointProblem, type StageSolution } from './analyze';
+import { magnitude } from './small-signal';
 import {
   mismatchSensitivity,
   mismatchStages,
@@ -62,7 +63,7 @@ export interface OptionCurves {
 export type GainRemedy = 'degeneration-or-rising-tail-current' | 'current-source-tail' | 'higher-resistance-tail';
 
 /** The facts whose value is a sentence: written at the edge from the figures beside them. */
-export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote' | 'cmrrDifferentialLimitNote';
+export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote' | 'cmrrDifferentialLimitNote' | 'outputCmrrBasis';
 
 /** An operating-point problem and the condition it appears at. */
 export interface ProblemAt {
@@ -154,9 +155,14 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
       warnings: solution.result.warnings,
       operatingPointProblems: solution.result.operatingPointProblems,
     };
-    return { figures, screening, problems: solution.problems };
+    // The common mode each collector keeps, against the differential signal (for the next stage)
+    const transfers = transfersAt(solution, f);
+    const commonModeGain = magnitude(transfers.commonModeGain);
+    const commonModeRejectionDb = 20 * Math.log10(magnitude(transfers.differentialGain) / commonModeGain);
+    return { figures, screening, problems: solution.problems, commonModeGain, commonModeRejectionDb };
   });
   const cornerFigures = corners.map((c) => c.figures);
+  const worstCommonMode = corners.reduce((a, b) => (b.commonModeRejectionDb < a.commonModeRejectionDb ? b : a));
   const worstSingle = cornerFigures.reduce((a, b) => (b.cmrrAtFrequencyDb < a.cmrrAtFrequencyDb ? b : a));
 
   let monteCarlo: MonteCarloResult | null = null;
@@ -205,6 +211,8 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const driftLimit = spec.gain.tolerancePercent;
   const cmrrRequired = spec.cmrr.minDb;
   const yieldPercent = monteCarlo ? monteCarlo.yieldPercent : null;
+  // The target applies to the output the spec names: the differential output's rejection is its mismatch-limited worst case
+  const outputCmrrDb = differentialOutput ? (worstDifferential as number) : worstSingle.cmrrAtFrequencyDb;
 
   const facts: MeasuredFacts = {
     topology: design.tail.topology,
@@ -217,6 +225,12 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     cmrrMarginRequiredDb: spec.cmrr.marginDb,
     cmrrMarginDb: worstSingle.cmrrAtFrequencyDb - (cmrrRequired + spec.cmrr.marginDb),
     worstCmrrCorner: worstSingle.label,
+    outputCmrrDb,
+    outputCmrrMarginDb: outputCmrrDb - (cmrrRequired + spec.cmrr.marginDb),
+    outputCommonModeGain: worstCommonMode.commonModeGain,
+    outputCommonModeRejectionDb: worstCommonMode.commonModeRejectionDb,
+    outputCommonModeMarginDb: worstCommonMode.commonModeRejectionDb - cmrrRequired,
+    outputCommonModeCorner: worstCommonMode.figures.label,
     cmrrDifferentialWorstCaseDb: worstDifferential,
     cmrrDifferentialWorstCaseMarginDb: worstDifferential === null ? null : worstDifferential - cmrrRequired,
     cmrrDifferentialSharesPercent: shares,

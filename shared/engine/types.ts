@@ -29,7 +29,13 @@ export interface TransistorOperatingPoint {
   vbeV: number;
   vceV: number;
   vcbV: number;
+  /**
+   * Saturated when its current gain is more than 5 % below the forward-active value, cut off when
+   * its base–emitter junction drives under 0.1 nA (analyze.ts, docs/device-and-formulas.md).
+   */
   region: Region;
+  /** 1 − hfe/β0: how far the small-signal current gain has fallen below its forward-active value (a fraction). */
+  currentGainLossFraction: number;
 }
 
 /** One `ac` entry of the analyze output: gains as magnitudes at that frequency, definitions as at low frequency. */
@@ -149,6 +155,27 @@ export interface OptionFacts {
   cmrrMarginRequiredDb: number;
   /** cmrrAtFrequencyDb − (cmrrRequiredDb + cmrrMarginRequiredDb). */
   cmrrMarginDb: number;
+  /**
+   * The rejection of the output the spec names, at the spec frequency: the single-ended
+   * (tail-limited) CMRR at the worst corner for a single-ended output, the mismatch-limited
+   * worst case for a differential one, dB (what the rejection target judges).
+   */
+  outputCmrrDb: number;
+  /** outputCmrrDb − (cmrrRequiredDb + cmrrMarginRequiredDb). */
+  outputCmrrMarginDb: number;
+  /** Which figure outputCmrrDb is and where it was taken, in words (written at the edge). */
+  outputCmrrBasis: string;
+  /**
+   * The common mode each collector still carries at the spec frequency, |commonModeGain| (V/V),
+   * at the corner where it is largest against the differential gain.
+   */
+  outputCommonModeGain: number;
+  /** 20·log10|differentialGain / commonModeGain| at the spec frequency, at that corner, dB. */
+  outputCommonModeRejectionDb: number;
+  /** outputCommonModeRejectionDb − cmrrRequiredDb. */
+  outputCommonModeMarginDb: number;
+  /** The corner of outputCommonModeGain. */
+  outputCommonModeCorner: string;
   worstCmrrCorner: string;
   /** Differential output only (null otherwise): mismatch-limited worst case at the spec frequency. */
   cmrrDifferentialWorstCaseDb: number | null;

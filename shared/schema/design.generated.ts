@@ -293,7 +293,7 @@ export interface DeviceParams {
    */
   vbeOnV?: number;
   /**
-   * Collector-emitter voltage below which a transistor counts as saturated, in volts (V).
+   * Headroom allowance: the collector-emitter voltage the compliance, input-range and swing checks keep above, in volts (V). Whether a transistor is saturated comes from its own operating point (its current gain more than 5 % below forward-active).
    */
   vceSatV?: number;
   /**

@@ -15,6 +15,8 @@ import { formatQuantity } from '../units/format-quantity';
 const ohms = (r: number) => formatQuantity(r, 'Ohm');
 const amps = (i: number) => formatQuantity(i, 'A');
 const volts = (v: number) => formatQuantity(v, 'V');
+/** A fraction as a percentage with one decimal, e.g. 0.2214 -> "22.1 %"; "over 99.9 %" for a gain all but gone. */
+const percentText = (fraction: number) => (fraction > 0.999 ? 'over 99.9 %' : `${(fraction * 100).toFixed(1)} %`);
 
 /** The textbook formula of RC for each way the pair is sized. */
 const COLLECTOR_FORMULAS: Record<Extract<SizingStep, { step: 'collector' }>['formula'], string> = {
@@ -27,7 +29,7 @@ const COLLECTOR_FORMULAS: Record<Extract<SizingStep, { step: 'collector' }>['for
 export function operatingPointProblemText(p: OperatingPointProblem): string {
   switch (p.problem) {
     case 'saturated':
-      return `${p.transistor} is saturated: VCE = ${p.vceV.toFixed(3)} V, below VCE(sat) = ${p.vceSatV} V.`;
+      return `${p.transistor} is saturated: VCE = ${p.vceV.toFixed(3)} V and its current gain is ${percentText(p.currentGainLossFraction)} below its forward-active value (saturated: more than ${percentText(p.limitFraction)} below).`;
     case 'cut-off':
       return `${p.transistor} is cut off: its collector current is ${p.collectorCurrentA.toExponential(2)} A.`;
     case 'dead-reference':
@@ -142,7 +144,15 @@ export function wordedFacts(measured: MeasuredFacts): OptionFacts {
   }
   const closedForm = { valueOhm: measured.tailOutputResistanceClosedFormOhm, formula: measured.tailOutputResistanceFormula };
   facts.tailOutputResistanceNote = tailOutputResistanceNote(measured.tailOutputResistanceOhm, closedForm);
+  facts.outputCmrrBasis = outputCmrrBasis(measured.isDifferentialOutput, measured.worstCmrrCorner);
   return facts as unknown as OptionFacts;
+}
+
+/** Which rejection figure judges the spec's output, in words, e.g. "single-ended, tail-limited, worst corner ICM −2 V, 85 °C". */
+export function outputCmrrBasis(differentialOutput: boolean, worstSingleEndedCorner: string): string {
+  return differentialOutput
+    ? 'differential, mismatch-limited worst case: resistors at opposite tolerance extremes and 3σ VBE mismatch, at the governing corner'
+    : `single-ended, tail-limited, worst corner ${worstSingleEndedCorner}`;
 }
 
 /** One sentence on why the recommendation is what it is. */

@@ -8,18 +8,15 @@
  * the SHA-256 of its new text.
  */
 import { createHash } from 'node:crypto';
-import { readdirSync, readFileSync } from 'node:fs';
-import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { DataSource } from 'typeorm';
 import { createDataSource, openDatabase } from '../../api/data-source';
 import { MIGRATIONS } from '../../api/migrations/index';
-import { CheckMetadata1764900100000 } from '../../api/migrations/1764900100000-check-metadata';
+import { CheckMetadata1764900100000, RULE_METADATA_AT_MIGRATION } from '../../api/migrations/1764900100000-check-metadata';
 import { getProposal } from '../../api/services/proposals.service';
 import { checkedSpecDocument } from '../../api/services/specs.service';
 import { ENGINE_VERSION, evaluateDesign, recommend } from '#shared/engine/index';
 import { loadRuleSet } from '../../rules/index';
-import { RULES_DIR } from '../../rules/run-rules';
 import { freshDatabase, type TestDatabase } from '../helpers/test-database';
 
 const AT = '2026-11-20T10:00:00.000Z';
@@ -44,22 +41,25 @@ let database: TestDatabase;
 let upgraded: DataSource;
 let oldRanking: Ranking;
 let oldEvaluation: { checks: Check[] };
-/** rules/<id>.json as they are now: the source the stored checks' metadata must agree with. */
-const ruleFiles = new Map(
-  readdirSync(RULES_DIR)
-    .filter((name) => name.endsWith('.json'))
-    .map((name) => {
-      const rule = JSON.parse(readFileSync(join(RULES_DIR, name), 'utf8')) as { title: string; kind: string; figure: string | null };
-      return [name.replace(/\.json$/, ''), rule] as const;
-    }),
-);
+/**
+ * The rules' metadata as the migration froze it (their files when it was written): a check stored
+ * before the migration was made by those rules, so it must gain exactly that, whatever the rule
+ * files say today (a rule retitled since keeps its old title on old records).
+ */
+const ruleFiles = new Map(Object.entries(RULE_METADATA_AT_MIGRATION));
+/** Only rules that existed before the migration can have made a stored check. */
+const keepRulesOfThen = (checks: Check[]) => checks.filter((check) => ruleFiles.has(check.rule));
 
 beforeAll(async () => {
   const ruleSet = await loadRuleSet();
   const document = checkedSpecDocument(PAYLOAD);
   oldRanking = JSON.parse(JSON.stringify(await recommend(document, ruleSet))) as Ranking;
-  oldRanking.options.forEach((option) => strip(option.checks));
+  oldRanking.options.forEach((option) => {
+    option.checks = keepRulesOfThen(option.checks);
+    strip(option.checks);
+  });
   oldEvaluation = JSON.parse(JSON.stringify(await evaluateDesign(document, (oldRanking.options[0] as unknown as { design: never }).design, ruleSet))) as { checks: Check[] };
+  oldEvaluation.checks = keepRulesOfThen(oldEvaluation.checks);
   strip(oldEvaluation.checks);
   const rankingText = JSON.stringify(oldRanking);
 

@@ -6,9 +6,11 @@
  * ngspice the same way; every netlist comes from the product's writer, `spiceNetlist`.
  */
 import { Simulation, type ResultType } from 'eecircuit-engine';
-import type { NetlistSolverSettings } from '#shared/engine/netlist';
+import { spiceNetlist, type NetlistSolverSettings, type TransistorVector } from '#shared/engine/netlist';
 import type { Design } from '#shared/engine/types';
 import {
+  PLOT_NAMES,
+  REFERENCE_RELATIVE_TOLERANCE,
   plotName,
   spiceAc as spiceAcWith,
   spiceFigures as spiceFiguresWith,
@@ -87,4 +89,24 @@ export function spiceAc(design: Design, options: AcOptions): Promise<SpiceAc> {
 /** The contract's figures measured by simulation (see the product module for how). */
 export function spiceFigures(design: Design, options: { frequencyHz?: number } = {}): Promise<SpiceFigures> {
   return spiceFiguresWith(runSpice, design, options);
+}
+
+/** ngspice's own figures of each transistor at the operating point, by transistor name (upper case) then vector. */
+export type SpiceTransistorVectors = Record<string, Partial<Record<TransistorVector, number>>>;
+
+/**
+ * Runs `.op` with `.save all @q…[vector]` for every transistor (reference RELTOL) and returns
+ * ngspice's device figures: `@q1[gm]` etc. as ngspice names them (`i(@q1[ic])` for currents).
+ */
+export async function spiceTransistorVectors(design: Design, vectors: readonly TransistorVector[]): Promise<SpiceTransistorVectors> {
+  const netlist = spiceNetlist(design, { analysis: 'op', transistorVectors: vectors, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
+  const result = await runSpice(netlist, PLOT_NAMES.op);
+  const figures: SpiceTransistorVectors = {};
+  for (const d of result.data) {
+    const match = /^(?:i\()?@(q[a-z0-9]*)\[([a-z]+)\]\)?$/i.exec(d.name);
+    if (!match) continue;
+    const name = match[1].toUpperCase();
+    figures[name] = { ...figures[name], [match[2].toLowerCase()]: (d.values as number[])[0] };
+  }
+  return figures;
 }

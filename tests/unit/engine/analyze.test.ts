@@ -152,7 +152,10 @@ describe('small-signal gains against the hand formulas', () => {
     const result = analyze(d);
     // gm = IC/VT [GM] from the engine's own Q1 current: this row checks the small-signal solve.
     const gmS = result.collectorCurrentA / VT_V;
-    expect(relativeError(result.transconductanceS, gmS)).toBeLessThan(1e-6);
+    // transconductanceS is gm as SPICE reports it, at constant VCE: with IC = IS·exp(VBE/VT)·(1 + VCB/VAF)
+    // a rise of VBE also lowers VCB, so gm = IC/VT − IC/(VAF + VCB) [SPICE]
+    const vcbV = result.collectorVoltageV - (d.inputCommonModeV ?? 0);
+    expect(relativeError(result.transconductanceS, gmS - result.collectorCurrentA / (VAF_V + vcbV))).toBeLessThan(1e-6);
     const rcOhm = d.collectorResistanceOhm;
     expect(relativeError(Math.abs(result.differentialGain), gmS * rcOhm)).toBeLessThan(0.05); // [SS] Ad = −gm·RC, pair ro neglected
     // The pair's own ro = (VAF + VCB)/IC [SPICE] loads each collector: |Ad| = gm·(RC ∥ ro)

@@ -15,7 +15,7 @@ const BETA = 100;
 const VT = 0.025; // V, a round thermal voltage so the hand figures are exact
 
 function q(name: string): TransistorOperatingPoint {
-  return { name, collectorCurrentA: IC, baseCurrentA: IC / BETA, vbeV: 0.65, vceV: VCB + 0.65, vcbV: VCB, region: 'forward-active' };
+  return { name, collectorCurrentA: IC, baseCurrentA: IC / BETA, vbeV: 0.65, vceV: VCB + 0.65, vcbV: VCB, region: 'forward-active', currentGainLossFraction: 0 };
 }
 const TRANSISTORS = ['Q3', 'Q4', 'Q5', 'Q6'].map(q);
 

@@ -107,7 +107,9 @@ beforeAll(async () => {
 
 /** Whether each known rule's verdict follows from the figures it is decided on (rule files in rules/). */
 const VERDICT_FROM_FIGURES: Record<string, (f: OptionFacts) => boolean> = {
-  'cmrr-target': (f) => f.cmrrMarginDb >= 0,
+  // The rejection of the output the spec names against required + margin: single-ended CMRR, or the differential worst case
+  'cmrr-target': (f) => (f.isDifferentialOutput ? f.cmrrDifferentialWorstCaseDb! : f.cmrrAtFrequencyDb) >= f.cmrrRequiredDb + f.cmrrMarginRequiredDb,
+  'output-common-mode': (f) => !f.isDifferentialOutput || f.outputCommonModeRejectionDb >= f.cmrrRequiredDb,
   'power-budget': (f) => f.powerMarginW >= 0,
   'gain-tolerance': (f) => f.gainMarginPercent >= 0,
   'input-common-mode-low': (f) => f.icmLowMarginV >= 0,
@@ -334,10 +336,37 @@ describe('scenario-specific outcomes', () => {
   });
 
   /** The specs whose gain tolerance no option holds over their whole temperature range (see the next test). */
-  const GAIN_OVER_TEMPERATURE_OUT_OF_REACH = { 'QF-7 strain bridge': /(−10|60) °C/, 'HV-40 piezo monitor, ±40 V': /(−20|85) °C/ } as const;
+  const GAIN_OVER_TEMPERATURE_OUT_OF_REACH = { 'HV-40 piezo monitor, ±40 V': /(−20|85) °C/ } as const;
+
+  test('QF-7 strain bridge: the flat-current tails leave the gain tolerance over temperature, the Widlar (a current rising with T) holds it and meets the differential rejection target', async () => {
+    // Widlar: I·RE = VT·ln(Iref/I) [GM], so I rises with T and gm = I/VT moves far less than with a
+    // flat tail current (gain ∝ 1/T: 1.14× at −10 °C against QF-7's ±8 %). Its output is
+    // differential, so its rejection target is the mismatch worst case, not the single-ended figure.
+    const result = await resultOf('QF-7 strain bridge');
+    const byTopology = (t: string) => result.options.find((o) => o.topology === t)!;
+    for (const t of ['cascode', 'wilson']) expect(byTopology(t).checks.find((c) => c.rule === 'gain-over-conditions')!.passed, t).toBe(false);
+    const widlar = byTopology('widlar');
+    expect(widlar.checks.find((c) => c.rule === 'gain-over-conditions')!.passed).toBe(true);
+    expect(widlar.checks.find((c) => c.rule === 'cmrr-target')!.passed).toBe(true);
+    expect(result.recommended).not.toBeNull();
+  });
+
+  /** A differential output whose rejection target (required + margin) the mismatch worst case does not reach. */
+  const DIFFERENTIAL_TARGET_OUT_OF_REACH = 'ECG-2 electrode input, patient-connected';
+
+  test('ECG-2: its differential output is held to 80 + 6 dB on the mismatch worst case, and where that falls short the rejection target fails whatever the single-ended figure', async () => {
+    const result = await resultOf(DIFFERENTIAL_TARGET_OUT_OF_REACH);
+    for (const option of result.options) {
+      const f = option.figures!;
+      const target = option.checks.find((c) => c.rule === 'cmrr-target')!;
+      expect(target.passed).toBe(f.cmrrDifferentialWorstCaseDb! >= 86);
+      expect(target.reason).toContain('differential output');
+    }
+    expect(result.options.some((o) => o.figures!.cmrrAtFrequencyDb >= 86 && o.figures!.cmrrDifferentialWorstCaseDb! < 86)).toBe(true);
+  });
 
   test('a recommendation exists for the feasible specs (the consistency checks above are not vacuous)', async () => {
-    const infeasible = ['LX-1 impossible rejection', SWING_COMPRESSED, ...Object.keys(GAIN_OVER_TEMPERATURE_OUT_OF_REACH)];
+    const infeasible: string[] = ['LX-1 impossible rejection', SWING_COMPRESSED, DIFFERENTIAL_TARGET_OUT_OF_REACH, ...Object.keys(GAIN_OVER_TEMPERATURE_OUT_OF_REACH)];
     const feasible = SPEC_NAMES.filter((n) => !infeasible.includes(n));
     expect(feasible.length).toBeGreaterThanOrEqual(1);
     for (const name of feasible) expect((await resultOf(name)).recommended, name).not.toBeNull();

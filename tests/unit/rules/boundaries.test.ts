@@ -29,7 +29,7 @@ const RESISTOR_TAIL: Partial<OptionFacts> = { topology: 'resistor', isResistorTa
 /** One row per rule file. `context` makes the rule apply (its not-applicable side passes whatever the margin). */
 const BOUNDARIES: Record<string, Boundary> = {
   'cmrr-differential-worst-case': { kind: 'margin', fact: 'cmrrDifferentialWorstCaseMarginDb', unit: 'dB', context: DIFFERENTIAL },
-  'cmrr-target': { kind: 'margin', fact: 'cmrrMarginDb', unit: 'dB' },
+  'cmrr-target': { kind: 'margin', fact: 'outputCmrrMarginDb', unit: 'dB' },
   'cmrr-yield': { kind: 'margin', fact: 'yieldMarginPercent', unit: '%', context: DIFFERENTIAL },
   'gain-over-conditions': { kind: 'margin', fact: 'gainOverConditionsMarginPercent', unit: '%' },
   'gain-tolerance': { kind: 'margin', fact: 'gainMarginPercent', unit: '%' },
@@ -39,6 +39,7 @@ const BOUNDARIES: Record<string, Boundary> = {
   'input-common-mode-low': { kind: 'margin', fact: 'icmLowMarginV', unit: 'V' },
   'mains-referenced': { kind: 'flag', fact: 'mainsReferenced' },
   'operating-point': { kind: 'count', fact: 'operatingPointProblemCount' },
+  'output-common-mode': { kind: 'margin', fact: 'outputCommonModeMarginDb', unit: 'dB', context: DIFFERENTIAL },
   'output-swing': { kind: 'margin', fact: 'swingMarginV', unit: 'V' },
   'output-swing-compression': { kind: 'margin', fact: 'swingCompressionMarginPercent', unit: '%' },
   'patient-connected': { kind: 'flag', fact: 'patientConnected' },

@@ -54,7 +54,7 @@ describe('loadRuleFiles and createRuleSet', () => {
 
 describe('checks from a rule file\u2019s params (rules/cmrr-target.json: thin margin below 1 dB)', () => {
   const cmrrTarget = async (marginDb: number) =>
-    (await runRules(rules, makeOptionFacts({ cmrrMarginDb: marginDb, cmrrAtFrequencyDb: 86 + marginDb }))).find((c) => c.rule === 'cmrr-target')!;
+    (await runRules(rules, makeOptionFacts({ outputCmrrMarginDb: marginDb, outputCmrrDb: 86 + marginDb }))).find((c) => c.rule === 'cmrr-target')!;
 
   test.each([
     [0.5, true, true],

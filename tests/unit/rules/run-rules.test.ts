@@ -19,6 +19,7 @@ const RULE_NAMES = [
   'input-common-mode-low',
   'mains-referenced',
   'operating-point',
+  'output-common-mode',
   'output-swing',
   'output-swing-compression',
   'patient-connected',
@@ -232,11 +233,11 @@ describe('runRules', () => {
   });
 
   test('when a fact is missing, then running throws instead of deciding', async () => {
-    const { cmrrMarginDb: _omitted, ...facts } = makeOptionFacts();
-    await expect(runRules(realRules, facts as OptionFacts)).rejects.toThrow(/cmrrMarginDb/);
+    const { outputCmrrMarginDb: _omitted, ...facts } = makeOptionFacts();
+    await expect(runRules(realRules, facts as OptionFacts)).rejects.toThrow(/outputCmrrMarginDb/);
   });
 
-  test.each<Partial<OptionFacts>>([{ powerMarginW: Number.NaN }, { patientConnected: undefined }, { cmrrMarginDb: null as never }])(
+  test.each<Partial<OptionFacts>>([{ powerMarginW: Number.NaN }, { patientConnected: undefined }, { outputCmrrMarginDb: null as never }])(
     'when a fact a condition reads is malformed (%o), then running throws naming it',
     async (overrides) => {
       const [fact] = Object.keys(overrides);

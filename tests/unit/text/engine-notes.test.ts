@@ -40,8 +40,13 @@ describe('figures worded', () => {
     expect(conditionLabel(1.5, 85)).toBe('ICM 1.5 V, 85 °C');
   });
 
-  test('when a transistor saturates, then the sentence gives VCE to the millivolt beside VCE(sat)', () => {
-    expect(operatingPointProblemText({ problem: 'saturated', transistor: 'Q4', vceV: 0.0234, vceSatV: 0.15 })).toBe('Q4 is saturated: VCE = 0.023 V, below VCE(sat) = 0.15 V.');
+  test('when a transistor saturates, then the sentence gives VCE to the millivolt and its current-gain loss beside the limit', () => {
+    expect(operatingPointProblemText({ problem: 'saturated', transistor: 'Q4', vceV: 0.2134, currentGainLossFraction: 0.2214, limitFraction: 0.05 })).toBe(
+      'Q4 is saturated: VCE = 0.213 V and its current gain is 22.1 % below its forward-active value (saturated: more than 5.0 % below).',
+    );
+    expect(operatingPointProblemText({ problem: 'saturated', transistor: 'Q4', vceV: 0.018, currentGainLossFraction: 0.99995, limitFraction: 0.05 })).toBe(
+      'Q4 is saturated: VCE = 0.018 V and its current gain is over 99.9 % below its forward-active value (saturated: more than 5.0 % below).',
+    );
   });
 
   test('when the differential worst case is above 120 dB, then the note says plainly that only the model limits it', () => {
@@ -62,7 +67,7 @@ describe('figures worded', () => {
       ...rest,
       gainOverConditionsRemedyId: 'current-source-tail',
       operatingPointProblemsAt: [
-        { conditionLabel: 'ICM 3.5 V, 5 °C', problem: { problem: 'saturated', transistor: 'Q2', vceV: 0.0204, vceSatV: 0.15 } },
+        { conditionLabel: 'ICM 3.5 V, 5 °C', problem: { problem: 'saturated', transistor: 'Q2', vceV: 0.0204, currentGainLossFraction: 0.9981, limitFraction: 0.05 } },
         { conditionLabel: 'ICM \u22123.2 V, 5 °C', problem: { problem: 'dead-reference' } },
       ],
       operatingPointProblemCount: 2,
@@ -76,7 +81,7 @@ describe('figures worded', () => {
     expect(facts.gainOverConditionsRemedy).toBe('a current-source tail instead of the resistor (the tail current then stops following the input common mode)');
     expect(facts.tailOutputResistanceNote).toBe('2.3 MΩ by node analysis (textbook ro·(1 + gm·(RE ∥ rπ)) ≈ 2.5 MΩ)');
     expect(facts.operatingPointProblems).toEqual([
-      'ICM 3.5 V, 5 °C: Q2 is saturated: VCE = 0.020 V, below VCE(sat) = 0.15 V.',
+      'ICM 3.5 V, 5 °C: Q2 is saturated: VCE = 0.020 V and its current gain is 99.8 % below its forward-active value (saturated: more than 5.0 % below).',
       'ICM \u22123.2 V, 5 °C: The reference branch carries no current: the rails are too close for this tail.',
     ]);
     expect('gainOverConditionsRemedyId' in facts).toBe(false);

@@ -38,7 +38,7 @@ function passingEvaluation(): OptionEvaluation {
   return { ...rankedOptionOf('degenerated-mirror'), rank: 0 };
 }
 
-/** The same with the tail-limited rejection short at its worst corner. */
+/** The same with the rejection at the spec's (differential) output short of its target. */
 function failingEvaluation(): OptionEvaluation {
   const option = passingEvaluation();
   const { title, kind, figure } = option.checks.find((c) => c.rule === 'cmrr-target')!;
@@ -49,7 +49,7 @@ function failingEvaluation(): OptionEvaluation {
     figure,
     passed: false,
     severity: 'blocking',
-    reason: 'Single-ended (tail-limited) CMRR 79.4 dB predicted at 2.5 kHz (worst corner: ICM −1.5 V, 65 °C) against 78 dB required + 6 dB margin (4.6 dB short).',
+    reason: "CMRR at the spec's differential output 93.4 dB predicted at 2.5 kHz (differential, mismatch-limited worst case) against 92 dB required + 6 dB margin: 4.6 dB short.",
     margin: -4.6,
     marginUnit: 'dB',
     applicable: true,
@@ -91,7 +91,7 @@ describe('Full check of own values', () => {
     );
     expect(within(result).getByText(f.worstCmrrCorner)).toBeTruthy();
     const checks = within(result).getByRole('table', { name: /Every check of your values/ });
-    const row = within(checks).getByRole('row', { name: /Rejection, tail-limited/ });
+    const row = within(checks).getByRole('row', { name: /Rejection at the spec's output/ });
     expect(row.textContent).toContain('Holds');
     const target = RANKED.checks.find((c) => c.rule === 'cmrr-target')!;
     expect(target.margin).toBeGreaterThan(0);
@@ -137,13 +137,13 @@ describe('Full check of own values', () => {
     await user.click(checkButton());
     const result = await screen.findByRole('group', { name: 'Full check result' });
     expect(within(result).getByText('Short on 1 blocking check')).toBeTruthy();
-    expect(within(result).getByRole('row', { name: /Rejection, tail-limited/ }).textContent).toContain('−4.6 dB');
+    expect(within(result).getByRole('row', { name: /Rejection at the spec's output/ }).textContent).toContain('−4.6 dB');
 
     await user.type(screen.getByRole('textbox', { name: /Reason/ }), 'The bench build shows 6 dB more than the model.');
     await user.click(screen.getByRole('button', { name: /Record decision: own values/ }));
 
     const confirm = screen.getByRole('alertdialog');
-    expect(confirm.textContent).toContain('This override falls short on: Rejection, tail-limited. Record it anyway?');
+    expect(confirm.textContent).toContain("This override falls short on: Rejection at the spec's output. Record it anyway?");
     expect(document.activeElement).toBe(confirm);
     expect(fetchMock.to('POST', '/api/proposals/2/decision')).toHaveLength(0);
 

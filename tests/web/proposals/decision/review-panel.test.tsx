@@ -110,7 +110,7 @@ describe('ReviewPanel', () => {
     const rows = within(table).getAllByRole('row').slice(1);
     expect(rows).toHaveLength(rankedOptionOf('widlar').checks.length);
     expect(rows[0].textContent).toMatch(/Short/);
-    expect(rows[0].textContent).toMatch(/Rejection, tail-limited/);
+    expect(rows[0].textContent).toMatch(/Rejection at the spec's output/);
     const short = rankedOptionOf('widlar').checks.find((c) => c.rule === 'cmrr-target')!;
     expect(short.passed).toBe(false);
     expect(rows[0].textContent).toContain(short.reason);

@@ -36,12 +36,20 @@ describe('optionRows', () => {
 
   test('a failing blocking check marks its figure short; an advisory one a note; passing checks nothing', () => {
     const base = result.options.find((o) => o.topology === 'cascode')!;
-    // Hand-set verdicts on the engine's checks: the rejection target and the power budget fail
-    // (blocking), the mismatch worst case fails (advisory), every other check passes.
-    const failing: Record<string, Check['severity']> = { 'cmrr-target': 'blocking', 'power-budget': 'blocking', 'cmrr-differential-worst-case': 'advisory' };
-    const checks = base.checks.map((c) => (c.rule in failing ? { ...c, passed: false, severity: failing[c.rule] } : { ...c, passed: true }));
-    const [marked] = optionRows({ ...result, options: [{ ...base, checks, passes: false }] });
-    expect(marked.standing).toEqual({ cmrrAtFrequencyDb: 'short', powerWorstW: 'short', mismatchWorstCaseDb: 'note' });
+    // Hand-set verdicts on the engine's checks: the power budget fails (blocking), the mismatch
+    // worst case fails (advisory), every other check passes: each marks its own figure.
+    const mark = (failing: Record<string, Check['severity']>) => {
+      const checks = base.checks.map((c) => (c.rule in failing ? { ...c, passed: false, severity: failing[c.rule] } : { ...c, passed: true }));
+      return optionRows({ ...result, options: [{ ...base, checks, passes: false }] })[0].standing;
+    };
+    expect(mark({ 'power-budget': 'blocking', 'cmrr-differential-worst-case': 'advisory' })).toEqual({ powerWorstW: 'short', mismatchWorstCaseDb: 'note' });
+    // The rejection target judges the spec's output: this spec's is differential, so a failing
+    // target marks the mismatch worst case short (a blocking failure outranks the advisory note).
+    expect(base.figures!.isDifferentialOutput).toBe(true);
+    expect(mark({ 'cmrr-target': 'blocking', 'cmrr-differential-worst-case': 'advisory' })).toEqual({ mismatchWorstCaseDb: 'short' });
+    const singleEnded = { ...base, figures: { ...base.figures!, isDifferentialOutput: false } };
+    const targetShort = singleEnded.checks.map((c) => (c.rule === 'cmrr-target' ? { ...c, passed: false } : { ...c, passed: true }));
+    expect(optionRows({ ...result, options: [{ ...singleEnded, checks: targetShort, passes: false }] })[0].standing).toEqual({ cmrrAtFrequencyDb: 'short' });
     const [clean] = optionRows({ ...result, options: [{ ...base, checks: base.checks.map((c) => ({ ...c, passed: true })) }] });
     expect(clean.standing).toEqual({});
   });

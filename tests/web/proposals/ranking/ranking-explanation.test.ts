@@ -59,7 +59,7 @@ describe('noPassingExplanation', () => {
 
     const text = noPassingExplanation(result as never);
 
-    expect(text).toMatch(/^No one blocking check holds every option back; most often short: “Gain over temperature and input range” \(2 of 3\), “Rejection, tail-limited” \(2 of 3\), “Power budget” \(1 of 3\)\./);
+    expect(text).toMatch(/^No one blocking check holds every option back; most often short: “Gain over temperature and input range” \(2 of 3\), “Rejection at the spec's output” \(2 of 3\), “Power budget” \(1 of 3\)\./);
     expect(text).toMatch(/revise those requirements in the spec/);
   });
 

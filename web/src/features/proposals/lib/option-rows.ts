@@ -61,11 +61,18 @@ export function blockingShortCount(option: RecommendOption): number {
   return option.checks.filter((c) => c.severity === 'blocking' && !c.passed).length;
 }
 
-function standingOf(checks: Check[]): OptionRow['standing'] {
+/** The figure a check judges, with the rejection of the spec's output read as the column that shows it. */
+function figureOf(check: Check, differentialOutput: boolean): string | null | undefined {
+  if (check.figure !== 'outputCmrrDb') return check.figure;
+  return differentialOutput ? FACT_FIGURES.mismatchWorstCaseDb : FACT_FIGURES.cmrrAtFrequencyDb;
+}
+
+function standingOf(checks: Check[], differentialOutput: boolean): OptionRow['standing'] {
   const standing: OptionRow['standing'] = {};
   for (const [field, fact] of Object.entries(FACT_FIGURES) as [RuledFigure, keyof OptionFacts][]) {
-    const check = checks.find((c) => c.figure === fact);
-    if (check && failing(check)) standing[field] = check.severity === 'blocking' ? 'short' : 'note';
+    for (const check of checks.filter((c) => figureOf(c, differentialOutput) === fact && failing(c))) {
+      if (standing[field] !== 'short') standing[field] = check.severity === 'blocking' ? 'short' : 'note';
+    }
   }
   return standing;
 }
@@ -96,7 +103,7 @@ export function optionRows(result: RecommendResult): OptionRow[] {
       ...factFigures(f),
       gainErrorPercent: f?.gainErrorPercent ?? null,
       tailCurrentA: option.predicted?.tailCurrentA ?? null,
-      standing: standingOf(option.checks),
+      standing: standingOf(option.checks, f?.isDifferentialOutput ?? false),
     };
   });
 }
@@ -151,7 +158,8 @@ const bare = (text: string) => text.replace(/ (dB|%)$/, '');
 /**
  * The rejection columns of the ranking table: DC (nominal), the single-ended figure at the spec
  * frequency against the required figure plus margin, and for differential outputs the
- * mismatch-limited worst case against the required figure and the Monte Carlo yield. The
+ * mismatch-limited worst case (against the required figure plus margin: the rejection target of
+ * a differential output) and the Monte Carlo yield. The
  * targets come from outputRejection, so the page and the report print the same figures against
  * the same targets.
  */
@@ -171,7 +179,7 @@ export function rejectionColumns(targets: SpecTargets | null): RejectionColumn[]
   ];
   if (targets?.differential) {
     columns.push(
-      { field: 'mismatchWorstCaseDb', title: 'Mismatch', sub: `worst, ≥\u00a0${bare(formatTargetDb(targets.requiredDb))}`, unit: 'dB', forOutput: targets.output.field === 'mismatchWorstCaseDb', kind: 'differential' },
+      { field: 'mismatchWorstCaseDb', title: 'Mismatch', sub: `worst, ≥\u00a0${bare(formatTargetDb(targets.output.kind === 'differential' ? targets.output.requiredDb : targets.requiredDb))}`, unit: 'dB', forOutput: targets.output.field === 'mismatchWorstCaseDb', kind: 'differential' },
       { field: 'yieldPercent', title: 'Yield %', sub: `MC, ≥\u00a0${bare(formatPercent(targets.requiredYieldPercent))}`, unit: '%', forOutput: false, kind: 'differential' },
     );
   }
