@@ -5,7 +5,8 @@
  */
 import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE, stageCircuit, type StageCircuit } from './circuit';
 import { closedFormTailRout } from './closed-form';
-import { deviceModel, type DeviceModel } from './device';
+import { resolvedParameters } from './bjt-parameters';
+import { deviceModel, forwardBeta, type DeviceModel } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { nodeVoltage, type IndexedCircuit } from './node-system';
 import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
@@ -154,7 +155,14 @@ function vbeGuessV(design: Design, model: DeviceModel): number {
 
 /** The device of a transistor whose BF or VAF is scaled (a mismatched pair transistor): BF and VAF times their scales. */
 export function scaledDevice(device: Design['device'], betaScale = 1, earlyVoltageScale = 1): Design['device'] {
-  const scaled = { ...device, beta: device.beta * betaScale };
+  if (device.model) {
+    // A card: its BF and VAF scaled (VAF infinite stays infinite), every other parameter kept
+    const { BF, VAF } = resolvedParameters(device.model);
+    const model = { ...device.model, BF: BF * betaScale };
+    if (Number.isFinite(VAF)) model.VAF = VAF * earlyVoltageScale;
+    return { ...device, model, beta: undefined, earlyVoltageV: undefined };
+  }
+  const scaled = { ...device, beta: forwardBeta(device) * betaScale };
   // VAF = 0 reads as infinite (no Early effect): a mismatch of it changes nothing
   if (device.earlyVoltageV !== undefined && device.earlyVoltageV > 0) scaled.earlyVoltageV = device.earlyVoltageV * earlyVoltageScale;
   return scaled;

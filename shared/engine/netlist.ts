@@ -9,7 +9,7 @@ import type { Design } from './types';
 import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
 import type { CircuitElement, TransistorElement } from './circuit';
 import { scaledDevice } from './analyze';
-import { earlyVoltageOrInfinityV, nominalSaturationCurrentA } from './device';
+import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
 import { formatSpiceNumber as spiceNumber, parseSpiceNumber } from '../units/spice-number';
@@ -88,7 +88,7 @@ function transistorModelName(element: TransistorElement): string {
 
 /** `.model` card: IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE]. */
 function modelCard(device: Design['device'], name = SPICE_MODEL_NAME): string {
-  const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(device))}`, `BF=${spiceNumber(device.beta)}`];
+  const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(device))}`, `BF=${spiceNumber(forwardBeta(device))}`];
   const vafV = earlyVoltageOrInfinityV(device);
   if (Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
   return `.model ${name} NPN (${parameters.join(' ')})`;

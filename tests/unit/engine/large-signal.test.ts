@@ -38,7 +38,7 @@ const IDEAL_TAIL: Record<string, Design> = {
 /** The handbook compression at a differential output peak Vo (per cent), and the input it needs. */
 function handbook(design: Design, tailCurrentA: number, peakV: number) {
   const vt = thermalVoltageV(design.temperatureC!);
-  const alpha = design.device.beta / (design.device.beta + 1);
+  const alpha = design.device.beta! / (design.device.beta! + 1);
   const re = design.pairEmitterResistanceOhm ?? 0;
   const full = alpha * tailCurrentA * design.collectorResistanceOhm;
   const x = peakV / full;
@@ -51,7 +51,7 @@ describe.each(Object.entries(IDEAL_TAIL))('%s', (_name, design) => {
   test.each([0.2, 0.5, 0.8, 0.95])('a differential peak at %f of the fully switched output: input and compression as the tanh law', (fraction) => {
     const solution = solveStage(design);
     const { tailCurrentA, differentialGain } = solution.result;
-    const alpha = design.device.beta / (design.device.beta + 1);
+    const alpha = design.device.beta! / (design.device.beta! + 1);
     const peakV = fraction * alpha * tailCurrentA * design.collectorResistanceOhm;
     const expected = handbook(design, tailCurrentA, peakV);
     const found = swingCompression(solution, 'differential', peakV, Math.abs(differentialGain));
@@ -61,7 +61,7 @@ describe.each(Object.entries(IDEAL_TAIL))('%s', (_name, design) => {
 
   test('a peak beyond the fully switched output is out of reach: 100 % compression, no input', () => {
     const solution = solveStage(design);
-    const full = (design.device.beta / (design.device.beta + 1)) * solution.result.tailCurrentA * design.collectorResistanceOhm;
+    const full = (design.device.beta! / (design.device.beta! + 1)) * solution.result.tailCurrentA * design.collectorResistanceOhm;
     const found = swingCompression(solution, 'differential', 1.05 * full, Math.abs(solution.result.differentialGain));
     expect(found.peakInputV).toBeNull();
     expect(found.compressionPercent).toBe(100);
