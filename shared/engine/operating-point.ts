@@ -182,7 +182,7 @@ function guessWithinRails(ic: IndexedCircuit, guess: number[]): number[] {
  * transistors that differ from the stage's (a pair transistor with its own BF or VAF), by name.
  */
 export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint, ownModels?: Readonly<Record<string, DeviceModel>>): OperatingPoint {
-  const ic = indexCircuit(circuit, ownModels);
+  const ic = indexCircuit(circuit, model.ohmic, ownModels);
   const handGuess = guessWithinRails(ic, ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0));
   const sameNodes = warmStart !== undefined && warmStart.circuit.freeNodes.join() === ic.freeNodes.join();
   // A warm start that fails (its bias was too far away) falls back to the hand guess.
