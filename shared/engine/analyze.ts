@@ -5,7 +5,7 @@
  */
 import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE, stageCircuit, type StageCircuit } from './circuit';
 import { closedFormTailRout } from './closed-form';
-import { resolvedParameters } from './bjt-parameters';
+import { hasModelCard, resolvedParameters } from './bjt-parameters';
 import { deviceModel, forwardBeta, type DeviceModel } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { nodeVoltage, type IndexedCircuit } from './node-system';
@@ -156,7 +156,7 @@ function vbeGuessV(design: Design, model: DeviceModel): number {
 
 /** The device of a transistor whose BF or VAF is scaled (a mismatched pair transistor): BF and VAF times their scales. */
 export function scaledDevice(device: Design['device'], betaScale = 1, earlyVoltageScale = 1): Design['device'] {
-  if (device.model) {
+  if (device.model && hasModelCard(device)) {
     // A card: its BF and VAF scaled (VAF infinite stays infinite), every other parameter kept
     const { BF, VAF } = resolvedParameters(device.model);
     const model = { ...device.model, BF: BF * betaScale };

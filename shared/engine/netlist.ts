@@ -9,7 +9,7 @@ import type { Design } from './types';
 import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
 import type { CircuitElement, TransistorElement } from './circuit';
 import { scaledDevice } from './analyze';
-import { BJT_PARAMETER_NAMES } from './bjt-parameters';
+import { BJT_PARAMETER_NAMES, hasModelCard } from './bjt-parameters';
 import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
@@ -93,7 +93,7 @@ function transistorModelName(element: TransistorElement): string {
  * one, IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE].
  */
 function modelCard(device: Design['device'], name = SPICE_MODEL_NAME): string {
-  const card = device.model;
+  const card = hasModelCard(device) ? device.model : undefined;
   const parameters = card
     ? BJT_PARAMETER_NAMES.filter((parameter) => card[parameter] !== undefined).map((parameter) => `${parameter}=${spiceNumber(card[parameter]!)}`)
     : [`IS=${spiceNumber(nominalSaturationCurrentA(device))}`, `BF=${spiceNumber(forwardBeta(device))}`];
