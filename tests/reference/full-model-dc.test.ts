@@ -53,14 +53,14 @@ interface Base {
   extra?: Partial<Design>;
 }
 
-/** One design per topology, with mismatches on some so the differential CMRR is finite. */
+/** One design per topology, with mismatches on some so the differential CMRR is finite (the cascode's pair also with beta and Early-voltage mismatch: Q2 on its own card). */
 const BASES: Base[] = [
   { card: FERNHOLLOW_FN2210, supply: { positiveV: 9, negativeV: -9 }, collectorResistanceOhm: 4700, tail: { topology: 'resistor', resistanceOhm: 3900 }, extra: { collectorMismatch: 0.01 } },
   { card: FERNHOLLOW_FN3904, supply: { positiveV: 12, negativeV: -12 }, collectorResistanceOhm: 8200, tail: { topology: 'simple-mirror', referenceResistanceOhm: 10000 }, extra: { pairSaturationCurrentMismatch: 0.02 } },
   { card: FERNHOLLOW_FN2210, supply: { positiveV: 15, negativeV: -15 }, collectorResistanceOhm: 5600, tail: { topology: 'degenerated-mirror', referenceResistanceOhm: 5600, emitterResistanceOhm: 220 }, extra: { pairEmitterResistanceOhm: 47, collectorMismatch: 0.01 } },
   { card: FERNHOLLOW_FN3904, supply: { positiveV: 10, negativeV: 0 }, collectorResistanceOhm: 22000, tail: { topology: 'widlar', referenceResistanceOhm: 8200, emitterResistanceOhm: 330 }, extra: { inputCommonModeV: 3, collectorMismatch: 0.01 } },
   { card: FERNHOLLOW_FN2210, supply: { positiveV: 12, negativeV: -12 }, collectorResistanceOhm: 3300, tail: { topology: 'wilson', referenceResistanceOhm: 3900 }, extra: { pairSaturationCurrentMismatch: -0.02 } },
-  { card: FERNHOLLOW_FN3904, supply: { positiveV: 15, negativeV: -15 }, collectorResistanceOhm: 6800, tail: { topology: 'cascode', referenceResistanceOhm: 12000 }, extra: { collectorMismatch: 0.01, inputCommonModeV: 1 } },
+  { card: FERNHOLLOW_FN3904, supply: { positiveV: 15, negativeV: -15 }, collectorResistanceOhm: 6800, tail: { topology: 'cascode', referenceResistanceOhm: 12000 }, extra: { collectorMismatch: 0.01, inputCommonModeV: 1, pairBetaMismatch: 0.05, pairEarlyVoltageMismatch: -0.1 } },
 ];
 
 function designOf(base: Base, temperatureC: number): Design {
