@@ -5,13 +5,13 @@
  */
 import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE, stageCircuit, type StageCircuit } from './circuit';
 import { closedFormTailRout } from './closed-form';
-import { deviceModel, type BjtEval, type DeviceModel } from './device';
+import { deviceModel, forwardBeta, type BjtEval, type DeviceModel } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { nodeVoltage, type IndexedCircuit } from './node-system';
 import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { withHardFields } from './convergence-hints';
 import { magnitude, responsesAt, smallSignalStage, transferOf, type Complex, type SmallSignalStage, type StageResponses } from './small-signal';
-import { BJT_PARAMETERS, cardOf, resolvedParameters } from './bjt-parameters';
+import { cardOf, hasModelCard, resolvedParameters } from './bjt-parameters';
 import type { AcEntry, AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
 
@@ -291,22 +291,16 @@ function vbeGuessV(design: Design, model: DeviceModel): number {
 
 /** The device of a transistor whose BF or VAF is scaled (a mismatched pair transistor): BF and VAF times their scales. */
 export function scaledDevice(device: Design['device'], betaScale = 1, earlyVoltageScale = 1): Design['device'] {
-  // VAF = 0 reads as infinite (no Early effect): a mismatch of it changes nothing
-  const scaledVaf = (vafV: number | undefined) => (vafV !== undefined && vafV > 0 && Number.isFinite(vafV) ? vafV * earlyVoltageScale : vafV);
-  if (device.model) {
-    const model = { ...device.model };
-    const bf = cardOf(device).BF;
-    if (bf !== undefined) model.BF = bf * betaScale;
-    else if (betaScale !== 1) model.BF = BJT_PARAMETERS.BF.default * betaScale;
-    if (model.VAF !== undefined) model.VAF = scaledVaf(model.VAF);
-    const scaled: Design['device'] = { ...device, model };
-    if (device.beta !== undefined) scaled.beta = model.BF ?? device.beta;
-    if (device.earlyVoltageV !== undefined) scaled.earlyVoltageV = model.VAF ?? device.earlyVoltageV;
-    return scaled;
+  if (device.model && hasModelCard(device)) {
+    // A card: its BF and VAF scaled (VAF infinite stays infinite), every other parameter kept
+    const { BF, VAF } = resolvedParameters(device.model);
+    const model = { ...device.model, BF: BF * betaScale };
+    if (Number.isFinite(VAF)) model.VAF = VAF * earlyVoltageScale;
+    return { ...device, model, beta: undefined, earlyVoltageV: undefined };
   }
-  const scaled = { ...device, beta: device.beta! * betaScale };
-  const vafV = scaledVaf(device.earlyVoltageV);
-  if (vafV !== undefined) scaled.earlyVoltageV = vafV;
+  const scaled = { ...device, beta: forwardBeta(device) * betaScale };
+  // VAF = 0 reads as infinite (no Early effect): a mismatch of it changes nothing
+  if (device.earlyVoltageV !== undefined && device.earlyVoltageV > 0) scaled.earlyVoltageV = device.earlyVoltageV * earlyVoltageScale;
   return scaled;
 }
 

@@ -137,7 +137,6 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
     criticalVoltageV: vtV * Math.log(vtV / (Math.SQRT2 * isA)),
     ohmic: { baseOhm: p.RB, emitterOhm: p.RE, collectorOhm: p.RC },
     evaluate(vbeV, vbcV, area) {
-      const transistorBf = bf;
       const be = junction(isA * area, vbeV, vtfV);
       const bc = junction(isA * area, vbcV, vtrV);
       let cbenA = gminS * vbeV;
@@ -175,10 +174,10 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
       const gmuS = bc.gS / br + gbcnS;
       return {
         icA: transportA / qb - bc.iA / br - cbcnA,
-        ibA: be.iA / transistorBf + cbenA + bc.iA / br + cbcnA,
+        ibA: be.iA / bf + cbenA + bc.iA / br + cbcnA,
         dIcDVbeS: gmS + goS,
         dIcDVbcS: -(goS + gmuS),
-        dIbDVbeS: be.gS / transistorBf + gbenS,
+        dIbDVbeS: be.gS / bf + gbenS,
         dIbDVbcS: gmuS,
       };
     },

@@ -9,7 +9,8 @@ import type { Design } from './types';
 import { GROUND, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
 import type { CircuitElement, TransistorElement } from './circuit';
 import { scaledDevice } from './analyze';
-import { BJT_PARAMETERS, BJT_PARAMETER_NAMES, cardOf } from './bjt-parameters';
+import { BJT_PARAMETER_NAMES, hasModelCard } from './bjt-parameters';
+import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
 import { formatSpiceNumber as spiceNumber, parseSpiceNumber } from '../units/spice-number';
@@ -71,7 +72,7 @@ function elementName(letter: string, name: string): string {
   return name.toUpperCase().startsWith(letter) ? name : `${letter}${name}`;
 }
 
-function elementLine(element: CircuitElement, substrate: string): string {
+function elementLine(element: CircuitElement): string {
   switch (element.kind) {
     case 'resistor':
       return `${elementName('R', element.name)} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.resistanceOhm)}`;
@@ -79,7 +80,7 @@ function elementLine(element: CircuitElement, substrate: string): string {
       return `${elementName('C', element.name)} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.capacitanceF)}`;
     case 'npn': {
       const area = element.area !== 1 ? ` area=${spiceNumber(element.area)}` : '';
-      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${substrate} ${transistorModelName(element)}${area}`;
+      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${element.substrate} ${transistorModelName(element)}${area}`;
     }
   }
 }
@@ -95,19 +96,17 @@ function transistorModelName(element: TransistorElement): string {
 }
 
 /**
- * A `.model` card: every parameter the device's card gives (IS at TNOM, the effective one, BF,
- * VAF, and the full model's others); a parameter SPICE reads 0 as infinite is left out when
- * infinite [SPICE].
+ * `.model` card: with `device.model`, every parameter the card gives, by its SPICE name in the
+ * list's order (a 0 for VAF, IKF, VAR or IKR stays 0, which SPICE reads as infinite); without
+ * one, IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE].
  */
 function modelCard(device: Design['device'], name = SPICE_MODEL_NAME): string {
-  const card = cardOf(device);
-  const parameters: string[] = [];
-  for (const parameter of BJT_PARAMETER_NAMES) {
-    const value = card[parameter];
-    if (value === undefined) continue;
-    if (BJT_PARAMETERS[parameter].zeroMeansInfinite && (value === 0 || !Number.isFinite(value))) continue;
-    parameters.push(`${parameter}=${spiceNumber(value)}`);
-  }
+  const card = hasModelCard(device) ? device.model : undefined;
+  const parameters = card
+    ? BJT_PARAMETER_NAMES.filter((parameter) => card[parameter] !== undefined).map((parameter) => `${parameter}=${spiceNumber(card[parameter]!)}`)
+    : [`IS=${spiceNumber(nominalSaturationCurrentA(device))}`, `BF=${spiceNumber(forwardBeta(device))}`];
+  const vafV = earlyVoltageOrInfinityV(device);
+  if (!card && Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
   return `.model ${name} NPN (${parameters.join(' ')})`;
 }
 
@@ -121,9 +120,9 @@ function dcSource(name: string, node: string, dcV: number, ac = ''): string {
   return `${name} ${node} ${GROUND} DC ${spiceNumber(dcV)}${ac}`;
 }
 
-/** `.options temp tnom [reltol]`: the circuit temperature, TNOM = 27 °C [SPICE], and solver settings. */
-function optionsCard(temperatureC: number, settings: NetlistSolverSettings): string {
-  const words = [`temp=${spiceNumber(temperatureC)}`, `tnom=${spiceNumber(NOMINAL_TEMPERATURE_C)}`];
+/** `.options tnom [reltol]`: TNOM = 27 °C, where the card's parameters hold [SPICE], and solver settings. */
+function optionsCard(settings: NetlistSolverSettings): string {
+  const words = [`tnom=${spiceNumber(NOMINAL_TEMPERATURE_C)}`];
   if (settings.relativeTolerance !== undefined) {
     if (!(settings.relativeTolerance > 0 && settings.relativeTolerance < 1)) throw new RangeError('relativeTolerance must be in (0, 1)');
     words.push(`reltol=${spiceNumber(settings.relativeTolerance)}`);
@@ -176,8 +175,9 @@ const COMMENT_PREFIX = '* ';
 /**
  * SPICE3 netlist of a design for one analysis. Sections: title, the header `comments`, supplies
  * (VP on vp, VN on vn), input drive, pair and loads, tail element, one `.model` card,
- * `.options temp tnom [reltol]`, the analysis card, `.end`. Transistor area factors are written
- * only when ≠ 1.
+ * `.options tnom [reltol]`, `.temp`, the analysis card, `.end`. Every transistor has four
+ * terminals, the substrate at the negative rail (`Qname c b e vn QNPN`); area factors are
+ * written only when ≠ 1.
  *
  * The title line and every line but the comments are the writer's own. `comments` may hold user
  * text (a spec title, a device name, a library card): each entry is written as comment lines
@@ -189,7 +189,7 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
   const circuit = stageCircuit(design);
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const includePair = options.analysis !== 'ac-tail';
-  const line = (element: CircuitElement): string => elementLine(element, RAIL_NODES.negative);
+  const line = (element: CircuitElement): string => elementLine(element);
   const pairLines = circuit.elements.filter((element) => element.part === 'pair').map(line);
   const tailLines = circuit.elements.filter((element) => element.part === 'tail').map(line);
   const lines = [
@@ -206,7 +206,8 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
     ...tailLines,
     '* --- device model and conditions ---',
     ...modelCards(design, circuit.elements),
-    optionsCard(temperatureC, options),
+    optionsCard(options),
+    `.temp ${spiceNumber(temperatureC)}`,
     '* --- analysis ---',
     ...saveCard(
       options,
@@ -223,7 +224,7 @@ export type ParsedElement =
   | { kind: 'R'; name: string; nodes: [string, string]; valueOhm: number }
   | { kind: 'C'; name: string; nodes: [string, string]; valueF: number }
   | { kind: 'V'; name: string; nodes: [string, string]; dcV: number; acMagnitude: number; acPhaseDeg: number }
-  | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; substrate: string | null; model: string; area: number };
+  | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; substrate?: string; model: string; area: number };
 
 /** Logical lines: comments dropped (`*` lines, `;` inline), `+` continuations joined, title skipped. */
 function logicalLines(text: string): string[] {
@@ -259,20 +260,24 @@ function parseVoltageSource(name: string, tokens: string[]): ParsedElement {
   return { kind: 'V', name, nodes, dcV, acMagnitude, acPhaseDeg };
 }
 
+/** A token after the model name: an area factor, bare or `area=`. */
+function isAreaToken(token: string): boolean {
+  return NUMBER_START.test(token) || /^area=/i.test(token);
+}
+
 function parseTransistor(name: string, tokens: string[]): ParsedElement {
-  // A fifth node before the model name is the substrate: `Q c b e s model`, else `Q c b e model`.
-  const fourTerminal = tokens.length > 5 && !NUMBER_START.test(tokens[5]) && !/=/.test(tokens[5]);
+  // Four terminals when a fifth node precedes the model name (the token after it is a word, not an area)
+  const fourTerminals = tokens.length >= 6 && !isAreaToken(tokens[5]);
   const [, collector, base, emitter] = tokens;
-  const substrate = fourTerminal ? tokens[4] : null;
-  const model = fourTerminal ? tokens[5] : tokens[4];
-  const rest = tokens.slice(fourTerminal ? 6 : 5);
+  const substrate = fourTerminals ? tokens[4] : undefined;
+  const [model, ...rest] = tokens.slice(fourTerminals ? 5 : 4);
   let area = 1;
   for (const token of rest) {
     const keyed = /^area=(.+)$/i.exec(token);
     if (keyed) area = parseSpiceNumber(keyed[1]);
     else if (NUMBER_START.test(token)) area = parseSpiceNumber(token);
   }
-  return { kind: 'Q', name, collector, base, emitter, substrate, model, area };
+  return substrate === undefined ? { kind: 'Q', name, collector, base, emitter, model, area } : { kind: 'Q', name, collector, base, emitter, substrate, model, area };
 }
 
 /**

@@ -3,7 +3,7 @@
  * (linearised at junction voltages) into the node conductance matrix. Shared by the DC
  * operating-point solve (Newton) and the small-signal solve (the Jacobian at the solution).
  */
-import { RAIL_NODES, type StageCircuit } from './circuit';
+import type { StageCircuit } from './circuit';
 import { GMIN_S } from './constants';
 import type { BjtEval, DeviceModel, OhmicResistances } from './device';
 import { zeros } from './linear-solve';
@@ -32,7 +32,7 @@ export interface IndexedTransistor {
   ci: NodeRef;
   bi: NodeRef;
   ei: NodeRef;
-  /** Substrate terminal: the negative rail. */
+  /** Substrate terminal (the negative rail in every stage). */
   s: NodeRef;
   area: number;
   tail: boolean;
@@ -55,6 +55,8 @@ export interface IndexedCircuit {
   transistors: IndexedTransistor[];
   /** Capacitors of the circuit (tail, load): open at DC, part of the small-signal solve. */
   capacitors: IndexedCapacitor[];
+  /** For each free node that is a transistor's internal node, its external terminal (else undefined). */
+  terminalOf: (NodeRef | undefined)[];
   nodeRef(name: string): NodeRef;
 }
 
@@ -66,7 +68,8 @@ const NO_OHMIC: OhmicResistances = { baseOhm: 0, emitterOhm: 0, collectorOhm: 0 
  * ohmic resistances each transistor gets internal nodes (`Q1:c'`, …) joined to its terminals by
  * RC/A, RB/A, RE/A (A its area), and, as ngspice's substrate junction with ISS = 0, GMIN from
  * its internal collector to the substrate at the negative rail [SPICE] ngspice bjtload.c.
- * `ownModels`: models of transistors that differ from the stage's (a mismatched BF or VAF), by name.
+ * `ownModels`: models of transistors that differ from the stage's, by name (the same ohmic
+ * resistances: only BF or VAF differ).
  */
 export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO_OHMIC, ownModels: Readonly<Record<string, DeviceModel>> = {}): IndexedCircuit {
   const fixedNodes = Object.keys(circuit.fixedNodesV);
@@ -86,6 +89,7 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
   const resistors: IndexedResistor[] = [];
   const transistors: IndexedTransistor[] = [];
   const capacitors: IndexedCapacitor[] = [];
+  const terminalOf: (NodeRef | undefined)[] = [];
   for (const el of circuit.elements) {
     if (el.kind === 'resistor') {
       resistors.push({ name: el.name, a: ref(el.nodes[0]), b: ref(el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
@@ -97,13 +101,14 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
       const internal = (terminal: NodeRef, suffix: string, resistanceOhm: number): NodeRef => {
         if (!(resistanceOhm > 0)) return terminal;
         const node = ref(`${el.name}:${suffix}'`);
+        terminalOf[node] = terminal;
         resistors.push({ name: `${el.name}.R${suffix.toUpperCase()}`, a: terminal, b: node, conductanceS: el.area / resistanceOhm, tail });
         return node;
       };
       const ci = internal(c, 'c', ohmic.collectorOhm);
       const bi = internal(b, 'b', ohmic.baseOhm);
       const ei = internal(e, 'e', ohmic.emitterOhm);
-      const s = ref(RAIL_NODES.negative);
+      const s = ref(el.substrate);
       resistors.push({ name: `${el.name}.GSUB`, a: ci, b: s, conductanceS: GMIN_S, tail });
       const own = ownModels[el.name];
       transistors.push({ name: el.name, c, b, e, ci, bi, ei, s, area: el.area, tail, ...(own ? { model: own } : {}) });
@@ -118,6 +123,7 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
     resistors,
     transistors,
     capacitors,
+    terminalOf: freeNodes.map((_, k) => terminalOf[k]),
     nodeRef(name) {
       const r = refs.get(name);
       if (r === undefined) throw new Error(`no node ${name}`);

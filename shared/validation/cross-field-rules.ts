@@ -3,7 +3,7 @@
  * that breaks the rule (its `path`) and names the other field by its label, with both numbers:
  * "must be below the positive rail (12 V), got 14 V".
  */
-import { BJT_PARAMETERS, resolvedParameters, type BjtModelCard, type BjtParameterName } from '../engine/bjt-parameters';
+import { BJT_PARAMETERS, hasModelCard, resolvedParameters, type BjtModelCard, type BjtParameterName } from '../engine/bjt-parameters';
 import type { Design, Spec, Supply } from '../engine/types';
 import { designFieldLabel, specFieldLabel } from './field-labels';
 import type { ValidationIssue } from './validation-issue';
@@ -38,10 +38,15 @@ export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
 
 /** Every cross-field problem of a schema-valid design (defaults applied). */
 export function designCrossFieldIssues(design: Design): ValidationIssue[] {
-  const issues = [...optionalResistanceIssues('/pairEmitterResistanceOhm', design.pairEmitterResistanceOhm), ...optionalResistanceIssues('/sourceResistanceOhm', design.sourceResistanceOhm), ...railOrderIssues(design.supply, designFieldLabel), ...deviceCardIssues(design.device)];
+  const issues = [
+    ...optionalResistanceIssues('/pairEmitterResistanceOhm', design.pairEmitterResistanceOhm),
+    ...optionalResistanceIssues('/sourceResistanceOhm', design.sourceResistanceOhm),
+    ...railOrderIssues(design.supply, designFieldLabel),
+  ];
+  const cardIssues = deviceCardIssues(design.device);
   // Stryker disable next-line ConditionalExpression: equivalent, an undefined voltage compares false with both rails and gives no issue
-  if (issues.some((i) => i.path === '/supply/negativeV') || design.inputCommonModeV === undefined) return issues;
-  return [...issues, ...insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, designFieldLabel)];
+  if (issues.length > 0 || design.inputCommonModeV === undefined) return [...issues, ...cardIssues];
+  return [...cardIssues, ...insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, designFieldLabel)];
 }
 
 /** The device fields a model card stands for, each with the card's parameter. */
@@ -58,7 +63,7 @@ function sameValue(a: number, b: number): boolean {
 
 /** With `device.model` given, `beta`, `earlyVoltageV` and `saturationCurrentA` may be left out, and where given equal BF, VAF and IS. */
 function deviceCardIssues(device: { model?: BjtModelCard; beta?: number; earlyVoltageV?: number; saturationCurrentA?: number } | undefined): ValidationIssue[] {
-  if (!device?.model) return [];
+  if (!device?.model || !hasModelCard(device)) return [];
   const card = resolvedParameters(device.model);
   const issues: ValidationIssue[] = [];
   for (const { field, parameter } of CARD_FIELDS) {

@@ -3,7 +3,8 @@
  * (api/validation/bodies.ts, shared/schema/*.json): the keywords those schemas use — type,
  * properties/required/additionalProperties, enum, const, oneOf/anyOf, $ref, min/max (and the
  * exclusive forms), minLength/maxLength, pattern, items/minItems/maxItems/uniqueItems,
- * minProperties, and `not` of a numeric range. Other `not` and `if` forms are ignored, so values
+ * minProperties, `not` of a numeric range, and an `if` whose `then` only adds required keys (those
+ * keys are then always generated, which satisfies the condition either way). Other `not` and `if` forms are ignored, so values
  * may break them (the server must answer those with a 4xx, never a 5xx). Integer ranges are cut to 1000 above their minimum, so a
  * generated spec's Monte Carlo sample count keeps an engine run short.
  *
@@ -48,7 +49,8 @@ export function arbitraryFromSchema(schema: Schema, root: Schema = schema, depth
   switch (type) {
     case 'object': {
       const properties = (schema.properties ?? {}) as Record<string, Schema>;
-      const required = (schema.required ?? []) as string[];
+      const thenRequired = schema.if && schema.then ? (((schema.then as Schema).required ?? []) as string[]) : [];
+      const required = [...((schema.required ?? []) as string[]), ...thenRequired];
       const model: Record<string, fc.Arbitrary<unknown>> = {};
       for (const [key, sub] of Object.entries(properties)) model[key] = next(sub);
       const minProperties = (schema.minProperties as number | undefined) ?? 0;
