@@ -1,7 +1,8 @@
 /**
  * Writes the topology parts of shared/schema/design.schema.json (the tail branches) and
  * spec.schema.json (the tail options), and docs/tail-topologies.md, from the catalogue,
- * shared/engine/topologies.ts (`npm run generate:topologies`, which then recompiles the spec
+ * shared/engine/topologies.ts, and both schemas' `device.model` part from the Gummel-Poon
+ * parameter list, shared/engine/bjt-parameters.ts (`npm run generate:topologies`, which then recompiles the spec
  * form's validators and rewrites the CSV column table); topology-schema.test.ts fails until you
  * do. Every other part of the two schema files is kept as it is (numbers are rewritten in
  * JSON.stringify's notation, same values).
@@ -10,6 +11,7 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { ROUT_FORMULAS } from '#shared/engine/closed-form';
 import { TOPOLOGIES, TOPOLOGY_CATALOGUE, type DeviceFamily, type RoutLimit } from '#shared/engine/topologies';
+import { designSchemaWithDeviceModel, specSchemaWithDeviceModel } from '#shared/schema/device-model-schema';
 import { designSchemaWithTopologies, specSchemaWithTopologies } from '#shared/schema/topology-schema';
 
 export const DESIGN_SCHEMA_PATH = fileURLToPath(new URL('../shared/schema/design.schema.json', import.meta.url));
@@ -56,8 +58,8 @@ function rewrite(path: string, build: (schema: Record<string, unknown>) => Recor
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
-  rewrite(DESIGN_SCHEMA_PATH, designSchemaWithTopologies);
-  rewrite(SPEC_SCHEMA_PATH, specSchemaWithTopologies);
+  rewrite(DESIGN_SCHEMA_PATH, (schema) => designSchemaWithDeviceModel(designSchemaWithTopologies(schema)));
+  rewrite(SPEC_SCHEMA_PATH, (schema) => specSchemaWithDeviceModel(specSchemaWithTopologies(schema)));
   writeFileSync(TOPOLOGIES_DOC_PATH, tailTopologiesMarkdown());
   console.log(`Wrote ${TOPOLOGIES_DOC_PATH}`);
 }

@@ -86,9 +86,8 @@ function nominalIsA(device: DeviceParams): number {
  * written as a card. Only the parameters given (nothing defaulted).
  */
 export function cardOf(device: DeviceParams): BjtModelCard {
-  const model = (device as { model?: BjtModelCard }).model;
-  if (model) return { ...model };
-  const card: BjtModelCard = { IS: nominalIsA(device), BF: device.beta };
+  if (device.model) return { ...device.model };
+  const card: BjtModelCard = { IS: nominalIsA(device), BF: device.beta ?? BJT_PARAMETERS.BF.default };
   if (device.earlyVoltageV !== undefined) card.VAF = device.earlyVoltageV;
   return card;
 }

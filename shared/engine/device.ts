@@ -4,16 +4,15 @@
  * junction as SPICE adds it [SPICE]. Callers use only `DeviceModel`, so another family (MOS)
  * can join behind the same interface.
  */
+import { cardOf, resolvedParameters } from './bjt-parameters';
 import type { DeviceParams } from './types';
 import {
-  DEFAULT_VBE_ON_V,
   DEFAULT_VCE_SAT_V,
   ENERGY_GAP_EV,
   GMIN_S,
   IS_TEMPERATURE_EXPONENT,
   NOMINAL_TEMPERATURE_C,
   REVERSE_BETA,
-  VBE_ON_REFERENCE_CURRENT_A,
   ZERO_CELSIUS_K,
   thermalVoltageV,
 } from './constants';
@@ -45,17 +44,19 @@ export interface DeviceModel {
   evaluate(vbeV: number, vbcV: number, area: number): BjtEval;
 }
 
-/** IS at 27 °C: the given one, or the one that puts VBE at vbeOnV for 1 mA. */
+/** IS at 27 °C: the card's, the given one, or the one that puts VBE at vbeOnV for 1 mA. */
 export function nominalSaturationCurrentA(device: DeviceParams): number {
-  if (device.saturationCurrentA !== undefined && device.saturationCurrentA > 0) return device.saturationCurrentA;
-  const vbeOnV = device.vbeOnV ?? DEFAULT_VBE_ON_V;
-  return VBE_ON_REFERENCE_CURRENT_A * Math.exp(-vbeOnV / thermalVoltageV(NOMINAL_TEMPERATURE_C));
+  return resolvedParameters(cardOf(device)).IS;
 }
 
-/** Infinite when the Early voltage is omitted or 0 (as SPICE reads VAF = 0). */
+/** The forward Early voltage, infinite when omitted or 0 (as SPICE reads VAF = 0). */
 export function earlyVoltageOrInfinityV(device: DeviceParams): number {
-  const vaf = device.earlyVoltageV;
-  return vaf === undefined || vaf === 0 ? Infinity : vaf;
+  return resolvedParameters(cardOf(device)).VAF;
+}
+
+/** The forward current gain BF: the card's, else `beta`. */
+export function forwardBeta(device: DeviceParams): number {
+  return resolvedParameters(cardOf(device)).BF;
 }
 
 /**
@@ -71,7 +72,7 @@ export function saturationCurrentAtA(isNominalA: number, temperatureC: number): 
 export function npnModel(device: DeviceParams, temperatureC: number): DeviceModel {
   const vtV = thermalVoltageV(temperatureC);
   const isA = saturationCurrentAtA(nominalSaturationCurrentA(device), temperatureC);
-  const bf = device.beta;
+  const bf = forwardBeta(device);
   const inverseVafPerV = 1 / earlyVoltageOrInfinityV(device);
   // Local copies: module bindings are read in the innermost loop of every solve.
   const gminS = GMIN_S;

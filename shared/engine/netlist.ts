@@ -8,7 +8,7 @@
 import type { Design } from './types';
 import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
 import type { CircuitElement } from './circuit';
-import { earlyVoltageOrInfinityV, nominalSaturationCurrentA } from './device';
+import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
 import { formatSpiceNumber as spiceNumber, parseSpiceNumber } from '../units/spice-number';
@@ -77,7 +77,7 @@ function elementLine(element: CircuitElement): string {
 
 /** `.model` card: IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE]. */
 function modelCard(design: Design): string {
-  const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(design.device.beta)}`];
+  const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(forwardBeta(design.device))}`];
   const vafV = earlyVoltageOrInfinityV(design.device);
   if (Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
   return `.model ${SPICE_MODEL_NAME} NPN (${parameters.join(' ')})`;

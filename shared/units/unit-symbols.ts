@@ -28,6 +28,8 @@ export const UNIT_SYMBOLS: readonly UnitSymbol[] = [
   { symbol: 'Hz', printed: 'Hz', aliases: ['hz'], takesPrefix: true },
   { symbol: 'F', printed: 'F', aliases: [], takesPrefix: true },
   { symbol: 'S', printed: 'S', aliases: [], takesPrefix: true },
+  { symbol: 's', printed: 's', aliases: [], takesPrefix: true },
+  { symbol: 'eV', printed: 'eV', aliases: [], takesPrefix: true },
   { symbol: 'dB', printed: 'dB', aliases: ['db'], takesPrefix: false },
   { symbol: '%', printed: '%', aliases: [], takesPrefix: false },
   { symbol: '°C', printed: '°C', aliases: ['℃', 'degC'], takesPrefix: false },

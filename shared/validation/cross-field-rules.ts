@@ -3,6 +3,7 @@
  * that breaks the rule (its `path`) and names the other field by its label, with both numbers:
  * "must be below the positive rail (12 V), got 14 V".
  */
+import { BJT_PARAMETERS, resolvedParameters, type BjtModelCard, type BjtParameterName } from '../engine/bjt-parameters';
 import type { Design, Spec, Supply } from '../engine/types';
 import { designFieldLabel, specFieldLabel } from './field-labels';
 import type { ValidationIssue } from './validation-issue';
@@ -13,7 +14,7 @@ type Label = (pointer: string) => string;
 /** Every cross-field problem of a schema-valid spec. */
 export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
   const label = specFieldLabel;
-  const issues = railOrderIssues(spec.supply, label);
+  const issues = [...railOrderIssues(spec.supply, label), ...deviceCardIssues(spec.device)];
   const { minV, maxV } = spec.inputCommonMode;
   if (minV > maxV) {
     issues.push({ path: '/inputCommonMode/minV', message: `must be at most ${label('/inputCommonMode/maxV')} (${volts(maxV)}), got ${volts(minV)}` });
@@ -38,9 +39,41 @@ export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
 /** Every cross-field problem of a schema-valid design (defaults applied). */
 export function designCrossFieldIssues(design: Design): ValidationIssue[] {
   const issues = [...pairEmitterResistanceIssues(design.pairEmitterResistanceOhm), ...railOrderIssues(design.supply, designFieldLabel)];
+  const cardIssues = deviceCardIssues(design.device);
   // Stryker disable next-line ConditionalExpression: equivalent, an undefined voltage compares false with both rails and gives no issue
-  if (issues.length > 0 || design.inputCommonModeV === undefined) return issues;
-  return insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, designFieldLabel);
+  if (issues.length > 0 || design.inputCommonModeV === undefined) return [...issues, ...cardIssues];
+  return [...cardIssues, ...insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, designFieldLabel)];
+}
+
+/** The device fields a model card stands for, each with the card's parameter. */
+const CARD_FIELDS: readonly { field: 'beta' | 'earlyVoltageV' | 'saturationCurrentA'; parameter: BjtParameterName }[] = [
+  { field: 'beta', parameter: 'BF' },
+  { field: 'earlyVoltageV', parameter: 'VAF' },
+  { field: 'saturationCurrentA', parameter: 'IS' },
+];
+
+/** Two values agree to the last few digits (a card read from text may round in the last place). */
+function sameValue(a: number, b: number): boolean {
+  return a === b || (Number.isFinite(a) && Number.isFinite(b) && Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b)));
+}
+
+/** With `device.model` given, `beta`, `earlyVoltageV` and `saturationCurrentA` may be left out, and where given equal BF, VAF and IS. */
+function deviceCardIssues(device: { model?: BjtModelCard; beta?: number; earlyVoltageV?: number; saturationCurrentA?: number } | undefined): ValidationIssue[] {
+  if (!device?.model) return [];
+  const card = resolvedParameters(device.model);
+  const issues: ValidationIssue[] = [];
+  for (const { field, parameter } of CARD_FIELDS) {
+    const given = device[field];
+    if (given === undefined) continue;
+    // An Early voltage of 0 is infinite, as the card's VAF left out or 0
+    const read = field === 'earlyVoltageV' && given === 0 ? Infinity : given;
+    if (sameValue(read, card[parameter])) continue;
+    const unit = BJT_PARAMETERS[parameter].unit;
+    const cardText = Number.isFinite(card[parameter]) ? `${card[parameter]} ${unit}` : 'infinite';
+    const origin = device.model[parameter] === undefined ? ", SPICE's default as the card leaves it out" : '';
+    issues.push({ path: `/device/${field}`, message: `must equal the model card's ${parameter} (${cardText}${origin}), got ${given} ${unit}` });
+  }
+  return issues;
 }
 
 /** The smallest resistance a resistor field allows, ohms (1 mΩ, as the schema's resistor fields). */

@@ -2,7 +2,11 @@ import { describe, expect, test } from 'vitest';
 import { TOPOLOGIES } from '#shared/engine/types';
 import { UNIT_SYMBOLS } from '#shared/units/unit-symbols';
 import { DESIGN_SCHEMA, SPEC_SCHEMA } from '#shared/validate';
+import { BJT_PARAMETER_NAMES } from '#shared/engine/bjt-parameters';
 import { FULL_DESIGN, FULL_SPEC, TAILS } from './schema-fixtures';
+
+/** Every model-card parameter given (the values do not matter to the field lists). */
+const FULL_CARD = Object.fromEntries(BJT_PARAMETER_NAMES.map((name) => [name, 1]));
 
 type Node = Record<string, unknown> & {
   type?: string;
@@ -88,7 +92,7 @@ describe.each(SCHEMAS)('%s schema', (_name, schema) => {
 
 describe('spec schema against the Spec type', () => {
   test('declares exactly the fields of Spec, level by level', () => {
-    expect(objectKeys(SPEC_SCHEMA as Node)).toEqual(valueKeys([FULL_SPEC]));
+    expect(objectKeys(SPEC_SCHEMA as Node)).toEqual(valueKeys([FULL_SPEC, { device: { model: FULL_CARD } }]));
   });
 
   test('requires title, supply, gain and cmrr', () => {
@@ -110,6 +114,10 @@ describe('spec schema against the Spec type', () => {
         '/cmrr',
         '/cmrr/minDb',
         '/device/saturationCurrentA', // absent means "derive IS from vbeOnV"
+        '/device/beta', // defaulted only without a model card (the card's BF otherwise)
+        '/device/earlyVoltageV', // defaulted only without a model card (the card's VAF otherwise)
+        '/device/model', // absent means "the three-parameter device"
+        ...BJT_PARAMETER_NAMES.map((name) => `/device/model/${name}`), // absent means SPICE's default
         '/tailCurrentA', // absent means "let the sizing choose"
         '/deviceModel', // absent means "the device values were typed in"
         '/deviceModel/name',
@@ -128,7 +136,7 @@ describe('spec schema against the Spec type', () => {
 describe('design schema against the Design type', () => {
   test('declares exactly the fields of Design and of each TailDesign, level by level', () => {
     const designs = TAILS.map((tail) => ({ ...FULL_DESIGN, tail }));
-    expect(objectKeys(DESIGN_SCHEMA as Node)).toEqual(valueKeys(designs));
+    expect(objectKeys(DESIGN_SCHEMA as Node)).toEqual(valueKeys([...designs, { device: { model: FULL_CARD } }]));
   });
 
   test('requires what the contract requires', () => {

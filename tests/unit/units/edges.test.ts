@@ -157,7 +157,7 @@ describe('the spellings the forms accept', () => {
     expect(SI_PREFIXES.every((p) => p.anyCaseAliases === undefined || p.symbol === 'M')).toBe(true);
   });
 
-  // [SI] unit symbols (SI Brochure 9th ed., tables 2 and 4; dB and % as IEC 60027-3 / common
+  // [SI] unit symbols (SI Brochure 9th ed., tables 2 and 4; the electronvolt table 8; dB and % as IEC 60027-3 / common
   // practice); other spellings are this product's choice.
   test('unit symbols: canonical, printed, aliases and whether a prefix is allowed', () => {
     expect(UNIT_SYMBOLS.map((u) => [u.symbol, u.printed, [...u.aliases], u.takesPrefix])).toEqual([
@@ -168,6 +168,8 @@ describe('the spellings the forms accept', () => {
       ['Hz', 'Hz', ['hz'], true],
       ['F', 'F', [], true],
       ['S', 'S', [], true],
+      ['s', 's', [], true],
+      ['eV', 'eV', [], true],
       ['dB', 'dB', ['db'], false],
       ['%', '%', [], false],
       ['°C', '°C', ['℃', 'degC'], false],

@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import { cardOf, resolvedParameters } from '#shared/engine/bjt-parameters';
 import type { Design, ResistorSeries } from '#shared/engine/types';
 import { formatQuantity } from '#shared/units/format-quantity';
 import type { AnalyzeResult, OptionFacts } from '#shared/engine/types';
@@ -72,7 +73,7 @@ export function SizedValues({
         </Group>
       )}
       <Group title={`Transistors (${(d.family ?? 'npn').toUpperCase()}, all alike)`}>
-        <Row name="β (BF)" value={formatQuantity(d.beta, '1')} />
+        <Row name="β (BF)" value={formatQuantity(resolvedParameters(cardOf(d)).BF, '1')} />
         <Row name="VAF" value={d.earlyVoltageV ? formatQuantity(d.earlyVoltageV, 'V') : '∞'} note="Early voltage" />
         {d.saturationCurrentA !== undefined && <Row name="IS" value={formatQuantity(d.saturationCurrentA, 'A')} note="at 27 °C" />}
         {d.vceSatV !== undefined && <Row name="VCE(sat)" value={formatQuantity(d.vceSatV, 'V')} />}
