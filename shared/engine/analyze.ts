@@ -57,9 +57,9 @@ function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: bo
   ic.transistors.forEach((q, i) => {
     if (onlyTail && !q.tail) return;
     const ev = op.transistors[i];
-    if (q.c === node) totalA += ev.icA;
-    if (q.b === node) totalA += ev.ibA;
-    if (q.e === node) totalA -= ev.icA + ev.ibA;
+    if (q.ci === node) totalA += ev.icA;
+    if (q.bi === node) totalA += ev.ibA;
+    if (q.ei === node) totalA -= ev.icA + ev.ibA;
   });
   return totalA;
 }
@@ -67,9 +67,10 @@ function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: bo
 function transistorOperatingPoints(ic: IndexedCircuit, op: OperatingPoint, vceSatV: number): TransistorOperatingPoint[] {
   return ic.transistors.map((q, i) => {
     const v = op.voltagesV;
-    const vc = nodeVoltage(ic, v, q.c);
-    const vb = nodeVoltage(ic, v, q.b);
-    const ve = nodeVoltage(ic, v, q.e);
+    // At the junctions (internal nodes), as SPICE reports vbe, vbc and vce
+    const vc = nodeVoltage(ic, v, q.ci);
+    const vb = nodeVoltage(ic, v, q.bi);
+    const ve = nodeVoltage(ic, v, q.ei);
     const ev = op.transistors[i];
     const vceV = vc - ve;
     let region: Region = 'forward-active';

@@ -1,8 +1,10 @@
 /**
- * The bipolar device model: SPICE's Gummel-Poon model reduced to IS, BF and VAF (NF = NR = 1,
- * BR = 1, VAR, IKF, IKR infinite, no leakage, no ohmic resistances), with GMIN across each
- * junction as SPICE adds it [SPICE]. Callers use only `DeviceModel`, so another family (MOS)
- * can join behind the same interface.
+ * The bipolar device model: SPICE's Gummel-Poon model at DC as ngspice's BJT level 1 computes it
+ * (bjtload.c, bjttemp.c) from the design's card (`device.model`, or IS, BF and VAF with every
+ * other parameter at SPICE's default), with GMIN across each junction as SPICE adds it [SPICE].
+ * The ohmic resistances RB, RE, RC are the node system's (internal nodes); the junction charges
+ * are the frequency analysis's. Callers use only `DeviceModel`, so another family (MOS) can join
+ * behind the same interface.
  */
 import { cardOf, resolvedParameters } from './bjt-parameters';
 import type { DeviceParams } from './types';
@@ -12,7 +14,6 @@ import {
   GMIN_S,
   IS_TEMPERATURE_EXPONENT,
   NOMINAL_TEMPERATURE_C,
-  REVERSE_BETA,
   ZERO_CELSIUS_K,
   thermalVoltageV,
 } from './constants';
@@ -30,17 +31,28 @@ export interface BjtEval {
   dIbDVbcS: number;
 }
 
+/** The ohmic resistances of one transistor of area 1, ohms (0: the terminal is the junction's node). */
+export interface OhmicResistances {
+  baseOhm: number;
+  emitterOhm: number;
+  collectorOhm: number;
+}
+
 /** A device model at one temperature: everything the solvers need. */
 export interface DeviceModel {
   thermalVoltageV: number;
+  /** IS at this temperature, A. */
   saturationCurrentA: number;
+  /** BF at this temperature. */
   beta: number;
   /** Forward Early voltage (Infinity when absent). */
   earlyVoltageV: number;
   vceSatV: number;
   /** Critical junction voltage for SPICE-style step limiting, V. */
   criticalVoltageV: number;
-  /** Currents and derivatives for junction voltages vbe, vbc and an area factor. */
+  /** RB, RE, RC of a transistor of area 1 (a transistor of area A has them divided by A) [SPICE]. */
+  ohmic: OhmicResistances;
+  /** Currents and derivatives for junction voltages vbe, vbc (internal nodes) and an area factor. */
   evaluate(vbeV: number, vbcV: number, area: number): BjtEval;
 }
 
@@ -60,48 +72,113 @@ export function forwardBeta(device: DeviceParams): number {
 }
 
 /**
- * IS(T) = IS·(T/Tnom)^XTI·exp((EG/VT(T))·(T/Tnom − 1)), XTI = 3, EG = 1.11 eV [SPICE].
+ * IS(T) = IS·(T/Tnom)^XTI·exp((EG/VT(T))·(T/Tnom − 1)), XTI = 3, EG = 1.11 eV by default [SPICE].
  */
-export function saturationCurrentAtA(isNominalA: number, temperatureC: number): number {
+export function saturationCurrentAtA(isNominalA: number, temperatureC: number, energyGapEV = ENERGY_GAP_EV, isExponent = IS_TEMPERATURE_EXPONENT): number {
   const ratio = (temperatureC + ZERO_CELSIUS_K) / (NOMINAL_TEMPERATURE_C + ZERO_CELSIUS_K);
-  const vtV = thermalVoltageV(temperatureC);
-  return isNominalA * ratio ** IS_TEMPERATURE_EXPONENT * Math.exp((ENERGY_GAP_EV / vtV) * (ratio - 1));
+  return isNominalA * Math.exp((ratio - 1) * (energyGapEV / thermalVoltageV(temperatureC)) + isExponent * Math.log(ratio));
 }
 
-/** Builds the NPN device model at a temperature (°C). */
+/**
+ * A diode current s·(exp(v/vtn) − 1) and its derivative, as ngspice bjtload.c writes it: below
+ * −3·vtn the exponential gives way to −s·(1 + (3·vtn/(v·e))³), which joins it smoothly [SPICE].
+ */
+function junction(saturationA: number, vV: number, vtnV: number): { iA: number; gS: number } {
+  if (vV >= -3 * vtnV) {
+    const ev = Math.exp(vV / vtnV);
+    return { iA: saturationA * (ev - 1), gS: (saturationA * ev) / vtnV };
+  }
+  let arg = (3 * vtnV) / (vV * Math.E);
+  arg = arg * arg * arg;
+  return { iA: -saturationA * (1 + arg), gS: (saturationA * 3 * arg) / vV };
+}
+
+/**
+ * Builds the NPN Gummel-Poon model at a temperature (°C) from the design's card (ngspice BJT
+ * level 1, DC part). Temperature [SPICE] ngspice bjttemp.c: IS·exp(factlog) with
+ * factlog = (T/Tnom − 1)·EG/VT + XTI·ln(T/Tnom); BF and BR times (T/Tnom)^XTB; ISE·exp(factlog/NE)
+ * and ISC·exp(factlog/NC), each over (T/Tnom)^XTB. Currents [SPICE] ngspice bjtload.c:
+ *   cbe = IS·(e^(vbe/(NF·VT)) − 1), cbc = IS·(e^(vbc/(NR·VT)) − 1),
+ *   cben = ISE·(e^(vbe/(NE·VT)) − 1) + GMIN·vbe, cbcn = ISC·(e^(vbc/(NC·VT)) − 1) + GMIN·vbc,
+ *   q1 = 1/(1 − vbc/VAF − vbe/VAR), q2 = cbe/IKF + cbc/IKR, qb = q1·(1 + √(1 + 4·q2))/2,
+ *   ic = (cbe − cbc)/qb − cbc/BR − cbcn,  ib = cbe/BF + cben + cbc/BR + cbcn.
+ * An area factor A scales IS, ISE, ISC, IKF and IKR (and divides RB, RE, RC) [SPICE].
+ */
 export function npnModel(device: DeviceParams, temperatureC: number): DeviceModel {
+  const p = resolvedParameters(cardOf(device));
   const vtV = thermalVoltageV(temperatureC);
-  const isA = saturationCurrentAtA(nominalSaturationCurrentA(device), temperatureC);
-  const bf = forwardBeta(device);
-  const inverseVafPerV = 1 / earlyVoltageOrInfinityV(device);
-  // Local copies: module bindings are read in the innermost loop of every solve.
+  const ratio = (temperatureC + ZERO_CELSIUS_K) / (NOMINAL_TEMPERATURE_C + ZERO_CELSIUS_K);
+  // ngspice bjttemp.c: factlog, bfactor [SPICE]
+  const factlog = (ratio - 1) * (p.EG / vtV) + p.XTI * Math.log(ratio);
+  const betaFactor = Math.exp(Math.log(ratio) * p.XTB);
+  const isA = p.IS * Math.exp(factlog);
+  const bf = p.BF * betaFactor;
+  const br = p.BR * betaFactor;
+  const iseA = (p.ISE * Math.exp(factlog / p.NE)) / betaFactor;
+  const iscA = (p.ISC * Math.exp(factlog / p.NC)) / betaFactor;
+  const vtfV = p.NF * vtV;
+  const vtrV = p.NR * vtV;
+  const vteV = p.NE * vtV;
+  const vtcV = p.NC * vtV;
+  const inverseVafPerV = 1 / p.VAF;
+  const inverseVarPerV = 1 / p.VAR;
+  const inverseIkfPerA = 1 / p.IKF;
+  const inverseIkrPerA = 1 / p.IKR;
+  const highInjection = inverseIkfPerA !== 0 || inverseIkrPerA !== 0;
+  // Local copy: module bindings are read in the innermost loop of every solve.
   const gminS = GMIN_S;
-  const br = REVERSE_BETA;
   return {
     thermalVoltageV: vtV,
     saturationCurrentA: isA,
     beta: bf,
-    earlyVoltageV: earlyVoltageOrInfinityV(device),
+    earlyVoltageV: p.VAF,
     vceSatV: device.vceSatV ?? DEFAULT_VCE_SAT_V,
     // vcrit = VT·ln(VT/(√2·IS)) as in SPICE's junction limiting [SPICE]
     criticalVoltageV: vtV * Math.log(vtV / (Math.SQRT2 * isA)),
+    ohmic: { baseOhm: p.RB, emitterOhm: p.RE, collectorOhm: p.RC },
     evaluate(vbeV, vbcV, area) {
-      const scaledIsA = isA * area;
-      const expBe = Math.exp(vbeV / vtV);
-      const expBc = Math.exp(vbcV / vtV);
-      const forwardA = scaledIsA * (expBe - 1);
-      const reverseA = scaledIsA * (expBc - 1);
-      const dForwardS = (scaledIsA * expBe) / vtV;
-      const dReverseS = (scaledIsA * expBc) / vtV;
-      // Base charge with VAR = IKF = ∞: 1/qb = 1 − vbc/VAF, so the Early factor is (1 + VCB/VAF)
-      const earlyFactor = 1 - vbcV * inverseVafPerV;
+      const be = junction(isA * area, vbeV, vtfV);
+      const bc = junction(isA * area, vbcV, vtrV);
+      let cbenA = gminS * vbeV;
+      let gbenS = gminS;
+      if (iseA !== 0) {
+        const leak = junction(iseA * area, vbeV, vteV);
+        cbenA += leak.iA;
+        gbenS += leak.gS;
+      }
+      let cbcnA = gminS * vbcV;
+      let gbcnS = gminS;
+      if (iscA !== 0) {
+        const leak = junction(iscA * area, vbcV, vtcV);
+        cbcnA += leak.iA;
+        gbcnS += leak.gS;
+      }
+      // Base charge qb and its derivatives (ngspice bjtload.c, "determine base charge terms") [SPICE]
+      const q1 = 1 / (1 - vbcV * inverseVafPerV - vbeV * inverseVarPerV);
+      let qb = q1;
+      let dqbDVbe = q1 * qb * inverseVarPerV;
+      let dqbDVbc = q1 * qb * inverseVafPerV;
+      if (highInjection) {
+        const oik = inverseIkfPerA / area;
+        const oikr = inverseIkrPerA / area;
+        const arg = Math.max(0, 1 + 4 * (oik * be.iA + oikr * bc.iA));
+        const sqarg = arg !== 0 ? Math.sqrt(arg) : 1;
+        qb = (q1 * (1 + sqarg)) / 2;
+        dqbDVbe = q1 * (qb * inverseVarPerV + (oik * be.gS) / sqarg);
+        dqbDVbc = q1 * (qb * inverseVafPerV + (oikr * bc.gS) / sqarg);
+      }
+      const transportA = be.iA - bc.iA;
+      // go, gm as ngspice defines them: ∂ic/∂vbe = gm + go, ∂ic/∂vbc = −(go + gmu) [SPICE]
+      const goS = (bc.gS + (transportA * dqbDVbc) / qb) / qb;
+      const gmS = (be.gS - (transportA * dqbDVbe) / qb) / qb - goS;
+      const gmuS = bc.gS / br + gbcnS;
       return {
-        icA: (forwardA - reverseA) * earlyFactor - reverseA / br - gminS * vbcV,
-        ibA: forwardA / bf + gminS * vbeV + reverseA / br + gminS * vbcV,
-        dIcDVbeS: dForwardS * earlyFactor,
-        dIcDVbcS: -dReverseS * earlyFactor - (forwardA - reverseA) * inverseVafPerV - dReverseS / br - gminS,
-        dIbDVbeS: dForwardS / bf + gminS,
-        dIbDVbcS: dReverseS / br + gminS,
+        icA: transportA / qb - bc.iA / br - cbcnA,
+        ibA: be.iA / bf + cbenA + bc.iA / br + cbcnA,
+        dIcDVbeS: gmS + goS,
+        dIcDVbcS: -(goS + gmuS),
+        dIbDVbeS: be.gS / bf + gbenS,
+        dIbDVbcS: gmuS,
       };
     },
   };

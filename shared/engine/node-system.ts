@@ -3,8 +3,9 @@
  * (linearised at junction voltages) into the node conductance matrix. Shared by the DC
  * operating-point solve (Newton) and the small-signal solve (the Jacobian at the solution).
  */
-import type { StageCircuit } from './circuit';
-import type { BjtEval, DeviceModel } from './device';
+import { RAIL_NODES, type StageCircuit } from './circuit';
+import { GMIN_S } from './constants';
+import type { BjtEval, DeviceModel, OhmicResistances } from './device';
 import { zeros } from './linear-solve';
 
 /** A node reference: index ≥ 0 is a free node, index < 0 is fixed node −index − 1. */
@@ -20,9 +21,19 @@ export interface IndexedResistor {
 
 export interface IndexedTransistor {
   name: string;
+  /** External terminals: the circuit's nodes. */
   c: NodeRef;
   b: NodeRef;
   e: NodeRef;
+  /**
+   * Internal nodes c', b', e' where the junctions sit, behind RC, RB, RE (ngspice's colPrime,
+   * basePrime, emitPrime); the external node itself when that resistance is 0 [SPICE].
+   */
+  ci: NodeRef;
+  bi: NodeRef;
+  ei: NodeRef;
+  /** Substrate terminal: the negative rail. */
+  s: NodeRef;
   area: number;
   tail: boolean;
 }
@@ -36,8 +47,16 @@ export interface IndexedCircuit {
   nodeRef(name: string): NodeRef;
 }
 
-/** Indexes the circuit's nodes: fixed ones from `fixedNodesV`, every other node is free. */
-export function indexCircuit(circuit: StageCircuit): IndexedCircuit {
+/** No ohmic resistances: every junction at its terminal. */
+const NO_OHMIC: OhmicResistances = { baseOhm: 0, emitterOhm: 0, collectorOhm: 0 };
+
+/**
+ * Indexes the circuit's nodes: fixed ones from `fixedNodesV`, every other node is free. With
+ * ohmic resistances each transistor gets internal nodes (`Q1:c'`, …) joined to its terminals by
+ * RC/A, RB/A, RE/A (A its area), and, as ngspice's substrate junction with ISS = 0, GMIN from
+ * its internal collector to the substrate at the negative rail [SPICE] ngspice bjtload.c.
+ */
+export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO_OHMIC): IndexedCircuit {
   const fixedNodes = Object.keys(circuit.fixedNodesV);
   const fixedV = fixedNodes.map((n) => circuit.fixedNodesV[n]);
   const freeNodes: string[] = [];
@@ -58,7 +77,22 @@ export function indexCircuit(circuit: StageCircuit): IndexedCircuit {
     if (el.kind === 'resistor') {
       resistors.push({ name: el.name, a: ref(el.nodes[0]), b: ref(el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
     } else if (el.kind === 'npn') {
-      transistors.push({ name: el.name, c: ref(el.collector), b: ref(el.base), e: ref(el.emitter), area: el.area, tail: el.part === 'tail' });
+      const tail = el.part === 'tail';
+      const c = ref(el.collector);
+      const b = ref(el.base);
+      const e = ref(el.emitter);
+      const internal = (terminal: NodeRef, suffix: string, resistanceOhm: number): NodeRef => {
+        if (!(resistanceOhm > 0)) return terminal;
+        const node = ref(`${el.name}:${suffix}'`);
+        resistors.push({ name: `${el.name}.R${suffix.toUpperCase()}`, a: terminal, b: node, conductanceS: el.area / resistanceOhm, tail });
+        return node;
+      };
+      const ci = internal(c, 'c', ohmic.collectorOhm);
+      const bi = internal(b, 'b', ohmic.baseOhm);
+      const ei = internal(e, 'e', ohmic.emitterOhm);
+      const s = ref(RAIL_NODES.negative);
+      resistors.push({ name: `${el.name}.GSUB`, a: ci, b: s, conductanceS: GMIN_S, tail });
+      transistors.push({ name: el.name, c, b, e, ci, bi, ei, s, area: el.area, tail });
     } else {
       ref(el.nodes[0]);
       ref(el.nodes[1]);
@@ -139,27 +173,30 @@ export function stampTransistor(stamp: NodeStamp, q: IndexedTransistor, ev: BjtE
   const d = ev.dIbDVbcS;
   const icEqA = ev.icA - a * vbe0V - b * vbc0V;
   const ibEqA = ev.ibA - c * vbe0V - d * vbc0V;
+  const qc = q.ci;
+  const qb = q.bi;
+  const qe = q.ei;
   // collector row: ic = A·(vb − ve) + B·(vb − vc) + icEq
-  addCoefficient(stamp, q.c, q.b, a + b);
-  addCoefficient(stamp, q.c, q.e, -a);
-  addCoefficient(stamp, q.c, q.c, -b);
-  if (q.c >= 0) stamp.rhs[q.c] -= icEqA;
+  addCoefficient(stamp, qc, qb, a + b);
+  addCoefficient(stamp, qc, qe, -a);
+  addCoefficient(stamp, qc, qc, -b);
+  if (qc >= 0) stamp.rhs[qc] -= icEqA;
   // base row
-  addCoefficient(stamp, q.b, q.b, c + d);
-  addCoefficient(stamp, q.b, q.e, -c);
-  addCoefficient(stamp, q.b, q.c, -d);
-  if (q.b >= 0) stamp.rhs[q.b] -= ibEqA;
+  addCoefficient(stamp, qb, qb, c + d);
+  addCoefficient(stamp, qb, qe, -c);
+  addCoefficient(stamp, qb, qc, -d);
+  if (qb >= 0) stamp.rhs[qb] -= ibEqA;
   // emitter row: ie = −(ic + ib)
-  addCoefficient(stamp, q.e, q.b, -(a + b + c + d));
-  addCoefficient(stamp, q.e, q.e, a + c);
-  addCoefficient(stamp, q.e, q.c, b + d);
-  if (q.e >= 0) stamp.rhs[q.e] += icEqA + ibEqA;
+  addCoefficient(stamp, qe, qb, -(a + b + c + d));
+  addCoefficient(stamp, qe, qe, a + c);
+  addCoefficient(stamp, qe, qc, b + d);
+  if (qe >= 0) stamp.rhs[qe] += icEqA + ibEqA;
 }
 
-/** Junction voltages of a transistor at a node-voltage vector. */
+/** Junction voltages of a transistor (at its internal nodes) at a node-voltage vector. */
 export function junctionVoltages(ic: IndexedCircuit, v: number[], q: IndexedTransistor): { vbeV: number; vbcV: number } {
-  const vb = nodeVoltage(ic, v, q.b);
-  return { vbeV: vb - nodeVoltage(ic, v, q.e), vbcV: vb - nodeVoltage(ic, v, q.c) };
+  const vb = nodeVoltage(ic, v, q.bi);
+  return { vbeV: vb - nodeVoltage(ic, v, q.ei), vbcV: vb - nodeVoltage(ic, v, q.ci) };
 }
 
 /** Evaluates every transistor at its junction voltages. */

@@ -181,7 +181,7 @@ function guessWithinRails(ic: IndexedCircuit, guess: number[]): number[] {
  * another bias or temperature the hand guess converges faster.
  */
 export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint): OperatingPoint {
-  const ic = indexCircuit(circuit);
+  const ic = indexCircuit(circuit, model.ohmic);
   const handGuess = guessWithinRails(ic, ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0));
   const sameNodes = warmStart !== undefined && warmStart.circuit.freeNodes.join() === ic.freeNodes.join();
   // A warm start that fails (its bias was too far away) falls back to the hand guess.
