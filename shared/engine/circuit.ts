@@ -23,6 +23,8 @@ export interface TransistorElement {
   collector: string;
   base: string;
   emitter: string;
+  /** Substrate terminal: the negative rail for every transistor of the stage. */
+  substrate: string;
   /** Area factor: scales IS (used for the pair's VBE mismatch). */
   area: number;
   part: CircuitPart;
@@ -77,8 +79,8 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
   const elements: CircuitElement[] = [
     { kind: 'resistor', name: 'RC1', nodes: [RAIL_NODES.positive, 'c1'], resistanceOhm: rcOhm, part: 'pair' },
     { kind: 'resistor', name: 'RC2', nodes: [RAIL_NODES.positive, 'c2'], resistanceOhm: rcOhm * (1 + mismatch), part: 'pair' },
-    { kind: 'npn', name: 'Q1', collector: 'c1', base: 'in1', emitter: emitterNodes[0], area: 1, part: 'pair' },
-    { kind: 'npn', name: 'Q2', collector: 'c2', base: 'in2', emitter: emitterNodes[1], area: pairArea2, part: 'pair' },
+    { kind: 'npn', name: 'Q1', collector: 'c1', base: 'in1', emitter: emitterNodes[0], substrate: RAIL_NODES.negative, area: 1, part: 'pair' },
+    { kind: 'npn', name: 'Q2', collector: 'c2', base: 'in2', emitter: emitterNodes[1], substrate: RAIL_NODES.negative, area: pairArea2, part: 'pair' },
   ];
   if (reOhm > 0) {
     elements.push(

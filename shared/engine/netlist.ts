@@ -8,6 +8,7 @@
 import type { Design } from './types';
 import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
 import type { CircuitElement } from './circuit';
+import { BJT_PARAMETER_NAMES } from './bjt-parameters';
 import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
@@ -70,16 +71,23 @@ function elementLine(element: CircuitElement): string {
       return `${elementName('C', element.name)} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.capacitanceF)}`;
     case 'npn': {
       const area = element.area !== 1 ? ` area=${spiceNumber(element.area)}` : '';
-      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${SPICE_MODEL_NAME}${area}`;
+      return `${elementName('Q', element.name)} ${element.collector} ${element.base} ${element.emitter} ${element.substrate} ${SPICE_MODEL_NAME}${area}`;
     }
   }
 }
 
-/** `.model` card: IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE]. */
+/**
+ * `.model` card: with `device.model`, every parameter the card gives, by its SPICE name in the
+ * list's order (a 0 for VAF, IKF, VAR or IKR stays 0, which SPICE reads as infinite); without
+ * one, IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE].
+ */
 function modelCard(design: Design): string {
-  const parameters = [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(forwardBeta(design.device))}`];
+  const card = design.device.model;
+  const parameters = card
+    ? BJT_PARAMETER_NAMES.filter((name) => card[name] !== undefined).map((name) => `${name}=${spiceNumber(card[name]!)}`)
+    : [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(forwardBeta(design.device))}`];
   const vafV = earlyVoltageOrInfinityV(design.device);
-  if (Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
+  if (!card && Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
   return `.model ${SPICE_MODEL_NAME} NPN (${parameters.join(' ')})`;
 }
 
@@ -87,9 +95,9 @@ function dcSource(name: string, node: string, dcV: number, ac = ''): string {
   return `${name} ${node} ${GROUND} DC ${spiceNumber(dcV)}${ac}`;
 }
 
-/** `.options temp tnom [reltol]`: the circuit temperature, TNOM = 27 °C [SPICE], and solver settings. */
-function optionsCard(temperatureC: number, settings: NetlistSolverSettings): string {
-  const words = [`temp=${spiceNumber(temperatureC)}`, `tnom=${spiceNumber(NOMINAL_TEMPERATURE_C)}`];
+/** `.options tnom [reltol]`: TNOM = 27 °C, where the card's parameters hold [SPICE], and solver settings. */
+function optionsCard(settings: NetlistSolverSettings): string {
+  const words = [`tnom=${spiceNumber(NOMINAL_TEMPERATURE_C)}`];
   if (settings.relativeTolerance !== undefined) {
     if (!(settings.relativeTolerance > 0 && settings.relativeTolerance < 1)) throw new RangeError('relativeTolerance must be in (0, 1)');
     words.push(`reltol=${spiceNumber(settings.relativeTolerance)}`);
@@ -135,8 +143,9 @@ const COMMENT_PREFIX = '* ';
 /**
  * SPICE3 netlist of a design for one analysis. Sections: title, the header `comments`, supplies
  * (VP on vp, VN on vn), input drive, pair and loads, tail element, one `.model` card,
- * `.options temp tnom [reltol]`, the analysis card, `.end`. Transistor area factors are written
- * only when ≠ 1.
+ * `.options tnom [reltol]`, `.temp`, the analysis card, `.end`. Every transistor has four
+ * terminals, the substrate at the negative rail (`Qname c b e vn QNPN`); area factors are
+ * written only when ≠ 1.
  *
  * The title line and every line but the comments are the writer's own. `comments` may hold user
  * text (a spec title, a device name, a library card): each entry is written as comment lines
@@ -164,7 +173,8 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
     ...tailLines,
     '* --- device model and conditions ---',
     modelCard(design),
-    optionsCard(temperatureC, options),
+    optionsCard(options),
+    `.temp ${spiceNumber(temperatureC)}`,
     '* --- analysis ---',
     analysisCard(options),
     '.end',
@@ -177,7 +187,7 @@ export type ParsedElement =
   | { kind: 'R'; name: string; nodes: [string, string]; valueOhm: number }
   | { kind: 'C'; name: string; nodes: [string, string]; valueF: number }
   | { kind: 'V'; name: string; nodes: [string, string]; dcV: number; acMagnitude: number; acPhaseDeg: number }
-  | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; model: string; area: number };
+  | { kind: 'Q'; name: string; collector: string; base: string; emitter: string; substrate?: string; model: string; area: number };
 
 /** Logical lines: comments dropped (`*` lines, `;` inline), `+` continuations joined, title skipped. */
 function logicalLines(text: string): string[] {
@@ -213,21 +223,30 @@ function parseVoltageSource(name: string, tokens: string[]): ParsedElement {
   return { kind: 'V', name, nodes, dcV, acMagnitude, acPhaseDeg };
 }
 
+/** A token after the model name: an area factor, bare or `area=`. */
+function isAreaToken(token: string): boolean {
+  return NUMBER_START.test(token) || /^area=/i.test(token);
+}
+
 function parseTransistor(name: string, tokens: string[]): ParsedElement {
-  const [, collector, base, emitter, model, ...rest] = tokens;
+  // Four terminals when a fifth node precedes the model name (the token after it is a word, not an area)
+  const fourTerminals = tokens.length >= 6 && !isAreaToken(tokens[5]);
+  const [, collector, base, emitter] = tokens;
+  const substrate = fourTerminals ? tokens[4] : undefined;
+  const [model, ...rest] = tokens.slice(fourTerminals ? 5 : 4);
   let area = 1;
   for (const token of rest) {
     const keyed = /^area=(.+)$/i.exec(token);
     if (keyed) area = parseSpiceNumber(keyed[1]);
     else if (NUMBER_START.test(token)) area = parseSpiceNumber(token);
   }
-  return { kind: 'Q', name, collector, base, emitter, model, area };
+  return substrate === undefined ? { kind: 'Q', name, collector, base, emitter, model, area } : { kind: 'Q', name, collector, base, emitter, substrate, model, area };
 }
 
 /**
  * Reads the R, C, V and Q element lines of a netlist (other lines and dot cards are skipped).
  * Handles comments, `;` inline comments, `+` continuations and scale suffixes. A Q line is read
- * as `Qname collector base emitter model [area | area=value]` (no substrate node).
+ * as `Qname collector base emitter [substrate] model [area | area=value]`.
  */
 export function parseNetlistElements(text: string): ParsedElement[] {
   const elements: ParsedElement[] = [];

@@ -3,7 +3,7 @@
  * (linearised at junction voltages) into the node conductance matrix. Shared by the DC
  * operating-point solve (Newton) and the small-signal solve (the Jacobian at the solution).
  */
-import { RAIL_NODES, type StageCircuit } from './circuit';
+import type { StageCircuit } from './circuit';
 import { GMIN_S } from './constants';
 import type { BjtEval, DeviceModel, OhmicResistances } from './device';
 import { zeros } from './linear-solve';
@@ -32,7 +32,7 @@ export interface IndexedTransistor {
   ci: NodeRef;
   bi: NodeRef;
   ei: NodeRef;
-  /** Substrate terminal: the negative rail. */
+  /** Substrate terminal (the negative rail in every stage). */
   s: NodeRef;
   area: number;
   tail: boolean;
@@ -90,7 +90,7 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
       const ci = internal(c, 'c', ohmic.collectorOhm);
       const bi = internal(b, 'b', ohmic.baseOhm);
       const ei = internal(e, 'e', ohmic.emitterOhm);
-      const s = ref(RAIL_NODES.negative);
+      const s = ref(el.substrate);
       resistors.push({ name: `${el.name}.GSUB`, a: ci, b: s, conductanceS: GMIN_S, tail });
       transistors.push({ name: el.name, c, b, e, ci, bi, ei, s, area: el.area, tail });
     } else {

@@ -31,7 +31,7 @@ function resistor(name: string, a: string, b: string, resistanceOhm: number): Ci
 }
 
 function npn(name: string, collector: string, base: string, emitter: string): CircuitElement {
-  return { kind: 'npn', name, collector, base, emitter, area: 1, part: 'tail' };
+  return { kind: 'npn', name, collector, base, emitter, substrate: VN, area: 1, part: 'tail' };
 }
 
 /** Output current of a Widlar source from I·RE = VT·ln(Iref/I), by fixed-point iteration. */

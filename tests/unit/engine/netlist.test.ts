@@ -214,6 +214,7 @@ describe('spiceNetlist: structure', () => {
           collector: element.collector,
           base: element.base,
           emitter: element.emitter,
+          substrate: 'vn',
           model: SPICE_MODEL_NAME,
           area: element.area,
         });
@@ -286,15 +287,34 @@ describe('spiceNetlist: structure', () => {
     expect(derived).toEqual({ IS: nominalSaturationCurrentA(fromVbe), BF: 240 });
   });
 
-  test.each([-40, 27, 85])('.options carries temp=%s and tnom=27 on its own line', (temperatureC) => {
+  test.each([-40, 27, 85])('.temp %s and .options tnom=27, each on its own line (contract, version 2)', (temperatureC) => {
     const netlist = spiceNetlist(designFor('widlar', { temperatureC }), { analysis: 'op' });
-    const options = netlist.split('\n').filter((line) => /^\.options\s/i.test(line));
-    expect(options).toEqual([`.options temp=${temperatureC} tnom=27`]);
+    const lines = netlist.split('\n');
+    expect(lines.filter((line) => /^\.options\s/i.test(line))).toEqual(['.options tnom=27']);
+    expect(lines.filter((line) => /^\.temp\s/i.test(line))).toEqual([`.temp ${temperatureC}`]);
+  });
+
+  test('a design with a model card writes every parameter the card gives, in the list\u2019s order, and nothing else', () => {
+    const model = { CJE: 8e-12, IS: 3e-15, BF: 210, VAF: 0, IKF: 0.06, ISE: 4e-15, NE: 1.7, RB: 90, RE: 0.8, RC: 12, XTB: 1.4 };
+    const parameters = modelParameters(spiceNetlist(designFor('resistor', { device: { family: 'npn', model } }), { analysis: 'op' }));
+    expect(parameters).toEqual(model);
+    const netlist = spiceNetlist(designFor('resistor', { device: { family: 'npn', model } }), { analysis: 'op' });
+    expect(/\((.*)\)/.exec(netlist.split('\n').find((line) => line.startsWith('.model'))!)![1].split(' ').map((pair) => pair.split('=')[0])).toEqual(
+      ['IS', 'BF', 'VAF', 'IKF', 'ISE', 'NE', 'RB', 'RE', 'RC', 'CJE', 'XTB'],
+    );
+  });
+
+  test.each(TOPOLOGIES)('%s: every transistor has four terminals, its substrate at the negative rail', (topology) => {
+    const design = designFor(topology, { supply: { positiveV: 9, negativeV: -6 } });
+    const transistors = parseNetlistElements(spiceNetlist(design, { analysis: 'op' })).filter((e) => e.kind === 'Q');
+    expect(transistors.length).toBeGreaterThan(1);
+    for (const q of transistors) expect(q.kind === 'Q' && q.substrate, q.name).toBe('vn');
+    expect(source(parseNetlistElements(spiceNetlist(design, { analysis: 'op' })), 'VN')).toMatchObject({ nodes: ['vn', '0'], dcV: -6 });
   });
 
   test('a solver RELTOL, when asked for, joins the same .options line', () => {
     const netlist = spiceNetlist(designFor('widlar'), { analysis: 'op', relativeTolerance: 1e-6 });
-    expect(netlist.split('\n').filter((line) => /^\.options\s/i.test(line))).toEqual(['.options temp=27 tnom=27 reltol=0.000001']);
+    expect(netlist.split('\n').filter((line) => /^\.options\s/i.test(line))).toEqual(['.options tnom=27 reltol=0.000001']);
     expect(() => spiceNetlist(designFor('widlar'), { analysis: 'op', relativeTolerance: 0 })).toThrow(RangeError);
   });
 
@@ -330,6 +350,8 @@ describe('parseNetlistElements', () => {
       'Q7 c',
       '+ b e MOD 2',
       'Q8 c b e MOD area=0.5',
+      'Q9 c b e vn MOD',
+      'Q10 c b e sub MOD 3',
       'C1 t 0 22p',
       'V1 in 0 DC -1.5 AC 0.5 180',
       'V2 in2 0 2.5',
@@ -340,6 +362,8 @@ describe('parseNetlistElements', () => {
       { kind: 'R', name: 'R1', nodes: ['a', 'b'], valueOhm: 4700 },
       { kind: 'Q', name: 'Q7', collector: 'c', base: 'b', emitter: 'e', model: 'MOD', area: 2 },
       { kind: 'Q', name: 'Q8', collector: 'c', base: 'b', emitter: 'e', model: 'MOD', area: 0.5 },
+      { kind: 'Q', name: 'Q9', collector: 'c', base: 'b', emitter: 'e', substrate: 'vn', model: 'MOD', area: 1 },
+      { kind: 'Q', name: 'Q10', collector: 'c', base: 'b', emitter: 'e', substrate: 'sub', model: 'MOD', area: 3 },
       { kind: 'C', name: 'C1', nodes: ['t', '0'], valueF: 22e-12 },
       { kind: 'V', name: 'V1', nodes: ['in', '0'], dcV: -1.5, acMagnitude: 0.5, acPhaseDeg: 180 },
       { kind: 'V', name: 'V2', nodes: ['in2', '0'], dcV: 2.5, acMagnitude: 0, acPhaseDeg: 0 },
