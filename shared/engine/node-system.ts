@@ -44,6 +44,8 @@ export interface IndexedCircuit {
   fixedV: number[];
   resistors: IndexedResistor[];
   transistors: IndexedTransistor[];
+  /** For each free node that is a transistor's internal node, its external terminal (else undefined). */
+  terminalOf: (NodeRef | undefined)[];
   nodeRef(name: string): NodeRef;
 }
 
@@ -73,6 +75,7 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
   };
   const resistors: IndexedResistor[] = [];
   const transistors: IndexedTransistor[] = [];
+  const terminalOf: (NodeRef | undefined)[] = [];
   for (const el of circuit.elements) {
     if (el.kind === 'resistor') {
       resistors.push({ name: el.name, a: ref(el.nodes[0]), b: ref(el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
@@ -84,6 +87,7 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
       const internal = (terminal: NodeRef, suffix: string, resistanceOhm: number): NodeRef => {
         if (!(resistanceOhm > 0)) return terminal;
         const node = ref(`${el.name}:${suffix}'`);
+        terminalOf[node] = terminal;
         resistors.push({ name: `${el.name}.R${suffix.toUpperCase()}`, a: terminal, b: node, conductanceS: el.area / resistanceOhm, tail });
         return node;
       };
@@ -104,6 +108,7 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
     fixedV,
     resistors,
     transistors,
+    terminalOf: freeNodes.map((_, k) => terminalOf[k]),
     nodeRef(name) {
       const r = refs.get(name);
       if (r === undefined) throw new Error(`no node ${name}`);

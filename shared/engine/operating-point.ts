@@ -182,7 +182,12 @@ function guessWithinRails(ic: IndexedCircuit, guess: number[]): number[] {
  */
 export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint): OperatingPoint {
   const ic = indexCircuit(circuit, model.ohmic);
-  const handGuess = guessWithinRails(ic, ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0));
+  const rawGuess = ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0);
+  // An internal node (behind RB, RE or RC) starts at its terminal's guess: the drop is small
+  ic.terminalOf.forEach((terminal, k) => {
+    if (terminal !== undefined) rawGuess[k] = terminal >= 0 ? rawGuess[terminal] : ic.fixedV[-terminal - 1];
+  });
+  const handGuess = guessWithinRails(ic, rawGuess);
   const sameNodes = warmStart !== undefined && warmStart.circuit.freeNodes.join() === ic.freeNodes.join();
   // A warm start that fails (its bias was too far away) falls back to the hand guess.
   const starts = sameNodes ? [warmStart.voltagesV.slice(), handGuess] : [handGuess];
