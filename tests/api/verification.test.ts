@@ -180,10 +180,10 @@ describe('a failing simulation', () => {
   afterAll(() => api?.close());
 
   it('becomes an error on that option and the job still finishes', async () => {
-    // The Wilson option's transistors refer to a model that does not exist: ngspice cannot run it.
+    // The Wilson option's transistors (four terminals: c b e substrate) refer to a model that does not exist: ngspice cannot run it.
     api = await buildApiApp({
       accounts: ['admin', 'requirements', 'designer', 'reviewer'],
-      verification: { netlistHook: (topology, netlist) => (topology === 'wilson' ? netlist.replace(/^(Q\S* \S+ \S+ \S+ )QNPN\b/gm, '$1QMISSING') : netlist) },
+      verification: { netlistHook: (topology, netlist) => (topology === 'wilson' ? netlist.replace(/^(Q\S* \S+ \S+ \S+ \S+ )QNPN\b/gm, '$1QMISSING') : netlist) },
     });
     const project = await api.createProject(['requirements', 'designer', 'reviewer']);
     const spec = await api.createSpec(project.id, { payload: demoSpec('electrode-amplifier-input.json'), title: 'Electrode input' });
