@@ -45,7 +45,18 @@ export type NetlistOptions = (
   | ({ analysis: 'ac-common-mode' } & AcSweep)
   | ({ analysis: 'ac-tail'; tailNodeV: number } & AcSweep)
 ) &
-  NetlistSolverSettings;
+  NetlistSolverSettings &
+  NetlistCardSettings;
+
+/**
+ * The rest of a library card: parameters SPICE reads that the design's device cannot carry
+ * (`SPICE_ONLY_PARAMETERS` of shared/devices/model-card.ts: TNOM, ITF, XTF, RBM, …), written into
+ * the `.model` card after the design's own so SPICE simulates the whole card. Names must be plain
+ * SPICE parameter names (letters, digits, `_`); anything else is refused.
+ */
+export interface NetlistCardSettings {
+  spiceOnlyParameters?: Readonly<Record<string, number>>;
+}
 
 /**
  * Solver settings written on the `.options` line. Omitted: ngspice's defaults (RELTOL = 1e-3),
@@ -79,16 +90,27 @@ function elementLine(element: CircuitElement): string {
 /**
  * `.model` card: with `device.model`, every parameter the card gives, by its SPICE name in the
  * list's order (a 0 for VAF, IKF, VAR or IKR stays 0, which SPICE reads as infinite); without
- * one, IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE].
+ * one, IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE]. Then the library
+ * card's SPICE-only parameters, when the netlist is given them.
  */
-function modelCard(design: Design): string {
+function modelCard(design: Design, extra: NetlistCardSettings): string {
   const card = design.device.model;
   const parameters = card
     ? BJT_PARAMETER_NAMES.filter((name) => card[name] !== undefined).map((name) => `${name}=${spiceNumber(card[name]!)}`)
     : [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(forwardBeta(design.device))}`];
   const vafV = earlyVoltageOrInfinityV(design.device);
   if (!card && Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
-  return `.model ${SPICE_MODEL_NAME} NPN (${parameters.join(' ')})`;
+  return `.model ${SPICE_MODEL_NAME} NPN (${[...parameters, ...spiceOnlyWords(extra)].join(' ')})`;
+}
+
+const PARAMETER_NAME = /^[A-Za-z][A-Za-z0-9_]*$/;
+
+/** `NAME=value` words of the card's SPICE-only parameters. */
+function spiceOnlyWords(extra: NetlistCardSettings): string[] {
+  return Object.entries(extra.spiceOnlyParameters ?? {}).map(([name, value]) => {
+    if (!PARAMETER_NAME.test(name) || !Number.isFinite(value)) throw new RangeError(`not a SPICE model parameter: ${JSON.stringify(name)}`);
+    return `${name.toUpperCase()}=${spiceNumber(value)}`;
+  });
 }
 
 function dcSource(name: string, node: string, dcV: number, ac = ''): string {
@@ -172,7 +194,7 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
     `* --- tail element (${design.tail.topology}) ---`,
     ...tailLines,
     '* --- device model and conditions ---',
-    modelCard(design),
+    modelCard(design, options),
     optionsCard(options),
     `.temp ${spiceNumber(temperatureC)}`,
     '* --- analysis ---',
