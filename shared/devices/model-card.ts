@@ -273,6 +273,32 @@ const LIMITS = {
   VAF_GAP: DEVICE_FIELDS.earlyVoltageV.not.exclusiveMaximum,
 };
 
+/** A number field of the schema's `device.model`: its bounds as written there. */
+interface ModelFieldBounds {
+  minimum?: number;
+  exclusiveMinimum?: number;
+  maximum?: number;
+  not?: { exclusiveMinimum: number; exclusiveMaximum: number };
+}
+
+/** The spec schema's `device.model` fields (one source of truth for each parameter's bounds). */
+const MODEL_FIELDS = DEVICE_FIELDS.model.properties as unknown as Record<string, ModelFieldBounds>;
+
+/** Whether a value lies within a `device.model` field's bounds. */
+function withinModelBounds(value: number, bounds: ModelFieldBounds): boolean {
+  if (bounds.minimum !== undefined && !(value >= bounds.minimum)) return false;
+  if (bounds.exclusiveMinimum !== undefined && !(value > bounds.exclusiveMinimum)) return false;
+  if (bounds.maximum !== undefined && !(value <= bounds.maximum)) return false;
+  if (bounds.not && value > bounds.not.exclusiveMinimum && value < bounds.not.exclusiveMaximum) return false;
+  return true;
+}
+
+function boundsText(bounds: ModelFieldBounds): string {
+  const low = bounds.exclusiveMinimum !== undefined ? `more than ${formatSpiceNumber(bounds.exclusiveMinimum)}` : `${formatSpiceNumber(bounds.minimum ?? -Infinity)}`;
+  const gap = bounds.not ? ` (0, or at least ${formatSpiceNumber(bounds.not.exclusiveMaximum)})` : '';
+  return `${low} to ${formatSpiceNumber(bounds.maximum ?? Infinity)}${gap}`;
+}
+
 /**
  * ngspice's other names of the parameters the engine reads (its BJT model table, bjt.c [SPICE]),
  * and TREF for TNOM: a card is stored under the one name.
@@ -446,6 +472,12 @@ function readModel(statement: Statement, problems: Problems): ModelCard | null {
   };
   check('IS', ' A');
   check('BF', '');
+  for (const key of BJT_PARAMETER_NAMES) {
+    const value = parameters[key];
+    const bounds = MODEL_FIELDS[key];
+    if (key === 'IS' || key === 'BF' || key === 'VAF' || value === undefined || !bounds) continue;
+    if (!withinModelBounds(value, bounds)) problems.add(lineOf.get(key), `${name}: ${key}=${formatNumber(value)} is outside what a spec's device model accepts (${boundsText(bounds)}).`);
+  }
   const vaf = parameters.VAF;
   if (vaf !== undefined && vaf !== 0 && !(vaf >= LIMITS.VAF_GAP && vaf <= LIMITS.VAF.maximum)) {
     problems.add(lineOf.get('VAF'), `${name}: VAF=${formatNumber(vaf)} V is outside what a spec accepts (0 for none, or ${LIMITS.VAF_GAP} V to ${LIMITS.VAF.maximum} V).`);

@@ -259,6 +259,17 @@ describe('what a card means to the engine', () => {
     expect(cardNotes({ IS: 1e-15, BF: 100, VAF: 50, BR: 4, NF: 1.01, CJE: 18e-12, CJC: 6e-12, CJS: 1e-12, RB: 25, TF: 0.4e-9 })).toEqual([]);
   });
 
+  test("when a Gummel-Poon parameter lies outside the spec schema's device.model bounds, then the card is refused naming it and its line", () => {
+    // MJE is a grading exponent: a junction's is between 1/3 (graded) and 1/2 (abrupt); 5 is a slip, as is a negative RB.
+    const result = parseModelCards(['.model FH-B1 NPN (IS=5f BF=120 VAF=70', '+ MJE=5 RB=-10)'].join('\n'));
+    expect(result.ok).toBe(false);
+    const problems = result.ok ? [] : result.problems;
+    expect(problems).toEqual([
+      { line: 2, message: expect.stringMatching(/^FH-B1: MJE=5 is outside what a spec's device model accepts/) },
+      { line: 2, message: expect.stringMatching(/^FH-B1: RB=-10 is outside/) },
+    ]);
+  });
+
   test('when a SPICE-only parameter changes only the charges, then it moves figures at a frequency and not the operating point', () => {
     // ngspice bjtload.c: XTF, VTF, ITF shape the transit time (charge only); TNOM and IBE enter the currents.
     expect(spiceOnlyParameterMoves('XTF', 'ac')).toBe(true);
