@@ -265,8 +265,8 @@ describe('what a card means to the engine', () => {
     expect(result.ok).toBe(false);
     const problems = result.ok ? [] : result.problems;
     expect(problems).toEqual([
-      { line: 2, message: expect.stringMatching(/^FH-B1: MJE=5 is outside what a spec's device model accepts/) },
-      { line: 2, message: expect.stringMatching(/^FH-B1: RB=-10 is outside/) },
+      { line: 2, message: expect.stringMatching(/^FH-B1: RB=-10 is outside what a spec's device model accepts/) },
+      { line: 2, message: expect.stringMatching(/^FH-B1: MJE=5 is outside/) },
     ]);
   });
 
