@@ -10,16 +10,19 @@ const N150 = {
   id: 1,
   name: 'FH-N150',
   checksum: 'a'.repeat(64),
-  device: { family: 'npn', beta: 150, saturationCurrentA: 1.2e-15, earlyVoltageV: 86 },
+  device: { family: 'npn', beta: 150, saturationCurrentA: 1.2e-15, earlyVoltageV: 86, model: { IS: 1.2e-15, BF: 150, VAF: 86, CJE: 18e-12, RB: 25 } },
 } as LibraryDevice;
 const LIBRARY = [N150];
 const REF = { name: 'FH-N150', checksum: 'a'.repeat(64) };
 
 describe('withDeviceChoice', () => {
-  test('when a card is chosen, then its IS, BF and VAF replace the device values and the other device fields stay', () => {
+  test('when a card is chosen, then its IS, BF, VAF and whole model replace the device values and the other device fields stay', () => {
     const previous = { device: { beta: 100, vceSatV: 0.3 } };
     const next = { device: { beta: 100, vceSatV: 0.3 }, deviceModel: REF };
-    expect(withDeviceChoice(previous, next, LIBRARY)).toEqual({ device: { beta: 150, saturationCurrentA: 1.2e-15, earlyVoltageV: 86, vceSatV: 0.3 }, deviceModel: REF });
+    expect(withDeviceChoice(previous, next, LIBRARY)).toEqual({
+      device: { beta: 150, saturationCurrentA: 1.2e-15, earlyVoltageV: 86, vceSatV: 0.3, model: { IS: 1.2e-15, BF: 150, VAF: 86, CJE: 18e-12, RB: 25 } },
+      deviceModel: REF,
+    });
   });
 
   test('when the chosen card is not in the loaded library, then nothing is filled', () => {
@@ -27,9 +30,10 @@ describe('withDeviceChoice', () => {
     expect(withDeviceChoice({ device: { beta: 100 } }, next, LIBRARY)).toBe(next);
   });
 
-  test('when VAF changes under a kept choice, then the choice is dropped and the typed value kept', () => {
-    const previous = { device: { beta: 150, saturationCurrentA: 1.2e-15, earlyVoltageV: 86 }, deviceModel: REF };
-    const next = { device: { beta: 150, saturationCurrentA: 1.2e-15, earlyVoltageV: 90 }, deviceModel: REF };
+  test("when VAF changes under a kept choice, then the choice and the card's model are dropped and the typed value kept", () => {
+    const model = { IS: 1.2e-15, BF: 150, VAF: 86, CJE: 18e-12, RB: 25 };
+    const previous = { device: { beta: 150, saturationCurrentA: 1.2e-15, earlyVoltageV: 86, model }, deviceModel: REF };
+    const next = { device: { beta: 150, saturationCurrentA: 1.2e-15, earlyVoltageV: 90, model }, deviceModel: REF };
     expect(withDeviceChoice(previous, next, LIBRARY)).toEqual({ device: { beta: 150, saturationCurrentA: 1.2e-15, earlyVoltageV: 90 } });
   });
 

@@ -24,6 +24,7 @@ import { SPEC_UI_SCHEMA, withQuantityWidgets } from '../lib/spec-ui-schema';
 import { specValidator } from '../lib/spec-validator';
 import { stableJson } from '../lib/stable-json';
 import { DeviceModelField } from './device-model-field';
+import { CardModelField } from './card-model-field';
 
 export type SpecDraft = Record<string, unknown>;
 
@@ -42,8 +43,8 @@ export interface SpecFormProps {
   projectId?: number;
 }
 
-/** Fields of our own: the device-library picker (`deviceModel`). */
-const SPEC_FIELDS: RegistryFieldsType = { deviceModel: DeviceModelField };
+/** Fields of our own: the device-library picker (`deviceModel`) and the card's model it fills (`device.model`, read-only). */
+const SPEC_FIELDS: RegistryFieldsType = { deviceModel: DeviceModelField, cardModel: CardModelField };
 
 export function SpecForm(props: SpecFormProps) {
   const schemaQuery = useQuery(specSchemaQuery());

@@ -1,8 +1,9 @@
 /**
  * The spec form's device picker as data: which library card a spec's `deviceModel` names, and
  * what a change of the form means for it. Choosing a card fills `device` with the card's IS, BF
- * and VAF (the rest of `device` is kept); editing one of those three afterwards drops
- * `deviceModel`, since the card no longer describes the values.
+ * and VAF and its `model` (every Gummel-Poon parameter of the card; the rest of `device` is
+ * kept); editing one of IS, BF or VAF afterwards drops `deviceModel` and `model`, since the card
+ * no longer describes the values.
  */
 import type { LibraryDevice, RecordedDeviceModel } from '../../../lib/device-library';
 
@@ -58,7 +59,8 @@ export const refFor = (device: LibraryDevice): DeviceModelRef => ({ name: device
 
 /**
  * The form's next data after a change from `previous` to `next`: a newly chosen card fills the
- * device fields; a change of IS, BF or VAF under a kept choice drops the choice.
+ * device fields and the model; a change of IS, BF or VAF under a kept choice drops the choice and
+ * the card's model (the values typed in are then the device).
  */
 export function withDeviceChoice(previous: Draft, next: Draft, library: readonly LibraryDevice[] | undefined): Draft {
   const chosen = refOf(next.deviceModel);
@@ -68,6 +70,7 @@ export function withDeviceChoice(previous: Draft, next: Draft, library: readonly
     if (!card) return next;
     const device = { ...((next.device as Draft | undefined) ?? {}) };
     for (const field of CARD_FIELDS) device[field] = card.device[field];
+    device.model = { ...card.device.model };
     return { ...next, device };
   }
   if (chosen && sameRef(chosen, before)) {
@@ -75,7 +78,8 @@ export function withDeviceChoice(previous: Draft, next: Draft, library: readonly
     const now = (next.device as Draft | undefined) ?? {};
     if (CARD_FIELDS.some((field) => was[field] !== now[field])) {
       const { deviceModel: _dropped, ...rest } = next;
-      return rest;
+      const { model: _card, ...device } = now;
+      return { ...rest, device };
     }
   }
   return next;

@@ -27,8 +27,20 @@ export function localizeSpecErrors(errors?: ErrorObject[] | null): void {
   }
 }
 
-/** The validator for `schema`; throws SchemaMismatchError when it is not the compiled one. */
+/**
+ * The validator for `schema`; throws SchemaMismatchError when it is not the compiled one.
+ *
+ * That check, once, is the check that the served schema is the compiled one. rjsf's validator
+ * repeats it on every call by comparing the schema it is handed with the root schema resolved
+ * against the raw form data; with a conditional in the schema (the device's `if`/`then`: BF and
+ * VAF defaults only without a card model) the form hands it the root resolved against the data
+ * with its defaults, which differs, and every validation would throw. The per-call comparison is
+ * therefore replaced by the hash check above (validation itself always runs the root's compiled
+ * function, whatever schema is handed in).
+ */
 export function specValidator(schema: RJSFSchema): ValidatorType {
   if (hashForSchema(schema) !== SPEC_SCHEMA_HASH) throw new SchemaMismatchError();
-  return createPrecompiledValidator(SPEC_VALIDATORS, schema, localizeSpecErrors);
+  const validator = createPrecompiledValidator(SPEC_VALIDATORS, schema, localizeSpecErrors);
+  (validator as unknown as { ensureSameRootSchema: () => boolean }).ensureSameRootSchema = () => true;
+  return validator;
 }
