@@ -99,8 +99,8 @@ describe('Longtail in the browser: a spec filled from a library card, checked in
     expect(await page.getByRole('textbox', { name: /^Current gain/ }).inputValue()).toMatch(/^180$/);
     const model = await visible(page.locator('[data-card-model]'));
     await model.locator('summary').click();
-    // IS, BF, VAF and the eleven Gummel-Poon parameters of the card; TNOM is not among them
-    await visible(model.getByText(/14 parameters/));
+    // IS, BF, VAF and the twelve other Gummel-Poon parameters of the card; TNOM is not among them
+    await visible(model.getByText(/15 parameters/));
     await visible(model.getByText('15 pF'));
     await visible(model.getByText('40 Ω'));
     expect(await model.getByText('TNOM').count()).toBe(0);
