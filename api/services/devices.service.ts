@@ -13,7 +13,7 @@
  */
 import { createHash } from 'node:crypto';
 import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
-import { cardCommentLines, cardDevice, cardModel, cardNotes, cardSpiceOnlyParameters, readModelFile, type CardDevice, type CardOrigin, type ModelCard } from '#shared/devices/model-card';
+import { cardCommentLines, cardDevice, cardModel, cardNotes, cardSpiceOnlyParameters, readModelFile, type CardOrigin, type ModelCard } from '#shared/devices/model-card';
 import { DEVICE_LIBRARY_QUOTA, type DeviceModelState, type DeviceModelView, type RecordedDeviceModel } from '#shared/devices/types';
 import type { DeviceParams } from '#shared/engine/types';
 import { DeviceModelEntity, type DeviceModel } from '../entities/device-model.entity';
