@@ -4,7 +4,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import type { LibraryDevice } from '../../../web/src/lib/device-library';
-import { libraryDeviceFor, withDeviceChoice } from '../../../web/src/features/specs/lib/device-choice';
+import { libraryDeviceFor, withDeviceChoice, withoutEmptyCard } from '../../../web/src/features/specs/lib/device-choice';
 
 const N150 = {
   id: 1,
@@ -51,5 +51,17 @@ describe('libraryDeviceFor', () => {
 
   test('when the checksum differs, then it is another upload and not this card', () => {
     expect(libraryDeviceFor({ name: 'FH-N150', checksum: 'b'.repeat(64) }, LIBRARY)).toBeUndefined();
+  });
+});
+
+describe('withoutEmptyCard', () => {
+  test('when the form hands back an empty deviceModel and a model of undefined values, then both are dropped and the rest kept', () => {
+    const draft = { title: 'a', deviceModel: {}, device: { beta: 100, model: { IS: undefined, CJE: undefined } } };
+    expect(withoutEmptyCard(draft)).toEqual({ title: 'a', device: { beta: 100 } });
+  });
+
+  test('when a card is recorded and its model filled, then nothing changes', () => {
+    const draft = { deviceModel: REF, device: { beta: 150, model: { BF: 150 } } };
+    expect(withoutEmptyCard(draft)).toBe(draft);
   });
 });

@@ -15,13 +15,13 @@ import { ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { ApiError } from '../../../lib/api';
 import { specSchemaQuery } from '../api/spec-queries';
 import { useDeviceLibrary } from '../hooks/use-device-library';
-import { refOf, withDeviceChoice, type DeviceChoiceContext } from '../lib/device-choice';
+import { refOf, withDeviceChoice, withoutEmptyCard, type DeviceChoiceContext } from '../lib/device-choice';
 import { errorCount, withoutEditedFieldErrors } from '../lib/edited-errors';
 import type { SchemaNode } from '../lib/schema-nodes';
 import { serverErrorsToErrorSchema } from '../lib/server-errors';
 import { specChecks, withoutUnreadableFieldErrors } from '../lib/spec-checks';
 import { SPEC_UI_SCHEMA, withQuantityWidgets } from '../lib/spec-ui-schema';
-import { specValidator } from '../lib/spec-validator';
+import { specFormSchema, specValidator } from '../lib/spec-validator';
 import { stableJson } from '../lib/stable-json';
 import { DeviceModelField } from './device-model-field';
 import { CardModelField } from './card-model-field';
@@ -59,7 +59,7 @@ export function SpecForm(props: SpecFormProps) {
   if (schemaQuery.isPending) return <Loading what="Loading the spec form" />;
   if (schemaQuery.isError) return <ErrorPanel error={schemaQuery.error} retry={() => void schemaQuery.refetch()} />;
   if (!validator || validator instanceof Error) return <ErrorPanel error={validator} />;
-  return <SpecFormBody {...props} schema={schemaQuery.data} validator={validator} />;
+  return <SpecFormBody {...props} schema={specFormSchema(schemaQuery.data)} validator={validator} />;
 }
 
 const withDefaults = (validator: ValidatorType, schema: RJSFSchema, data: SpecDraft) => stableJson(getDefaultFormState(validator, schema, data));
@@ -155,7 +155,7 @@ function SpecFormBody({
     setProblem(null);
     setServerErrors({});
     try {
-      await onSave(event.formData ?? {});
+      await onSave(withoutEmptyCard(event.formData ?? {}));
     } catch (error) {
       if (error instanceof ApiError && error.details.length > 0) {
         const errors = serverErrorsToErrorSchema(error.details, schema as SchemaNode);

@@ -84,3 +84,26 @@ export function withDeviceChoice(previous: Draft, next: Draft, library: readonly
   }
   return next;
 }
+
+/** An object with no value in it (rjsf may leave keys holding `undefined`). */
+const isEmptyRecord = (value: unknown) => value !== null && typeof value === 'object' && !Array.isArray(value) && Object.values(value).every((v) => v === undefined);
+
+/**
+ * The draft without an empty `deviceModel` or `device.model`: rjsf hands those back as `{}` for
+ * object fields nobody filled, and an empty one is no record of a card (`deviceModel` would miss
+ * its name) and no card (an empty `model` would make the typed device a card of SPICE's
+ * defaults). What the form checks and saves goes through this.
+ */
+export function withoutEmptyCard<T extends Draft>(draft: T): T {
+  let out: Draft = draft;
+  if (isEmptyRecord(out.deviceModel)) {
+    const { deviceModel: _empty, ...rest } = out;
+    out = rest;
+  }
+  const device = out.device as Draft | undefined;
+  if (device && isEmptyRecord(device.model)) {
+    const { model: _empty, ...rest } = device;
+    out = { ...out, device: rest };
+  }
+  return out as T;
+}

@@ -44,3 +44,25 @@ export function specValidator(schema: RJSFSchema): ValidatorType {
   (validator as unknown as { ensureSameRootSchema: () => boolean }).ensureSameRootSchema = () => true;
   return validator;
 }
+
+type Node = Record<string, unknown>;
+
+/**
+ * The schema the form lays out: the served one with the device's conditional (`if`/`then`: the
+ * BF and VAF defaults apply only without a card model) folded into plain defaults. rjsf re-sanitizes
+ * the data of a schema with a nested conditional on every change and then writes `{}` for each
+ * absent object field (`deviceModel`, `device.model`), which no spec means; without the
+ * conditional it leaves absent fields absent. Validation still runs the compiled served schema
+ * (`specValidator`), conditional included; the defaults matter only while no card is chosen,
+ * since choosing one sets BF and VAF to the card's.
+ */
+export function specFormSchema(schema: RJSFSchema): RJSFSchema {
+  const device = (schema.properties as Node | undefined)?.device as Node | undefined;
+  if (!device || !('if' in device)) return schema;
+  const { if: _if, then, else: _else, ...plain } = device;
+  const properties = { ...(plain.properties as Node) };
+  for (const [name, extra] of Object.entries(((then as Node | undefined)?.properties as Node | undefined) ?? {})) {
+    properties[name] = { ...(properties[name] as Node), ...(extra as Node) };
+  }
+  return { ...schema, properties: { ...(schema.properties as Node), device: { ...plain, properties } } } as RJSFSchema;
+}
