@@ -8,7 +8,7 @@
 import type { Design } from './types';
 import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
 import type { CircuitElement } from './circuit';
-import { BJT_PARAMETER_NAMES } from './bjt-parameters';
+import { BJT_PARAMETER_NAMES, hasModelCard } from './bjt-parameters';
 import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
@@ -82,7 +82,7 @@ function elementLine(element: CircuitElement): string {
  * one, IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE].
  */
 function modelCard(design: Design): string {
-  const card = design.device.model;
+  const card = hasModelCard(design.device) ? design.device.model : undefined;
   const parameters = card
     ? BJT_PARAMETER_NAMES.filter((name) => card[name] !== undefined).map((name) => `${name}=${spiceNumber(card[name]!)}`)
     : [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(forwardBeta(design.device))}`];

@@ -87,3 +87,12 @@ describe('derivatives equal finite differences of the currents', () => {
     close(at.dIbDVbcS, dBc('ibA'));
   });
 });
+
+describe('an empty card is no card', () => {
+  test('a device whose model gives no parameter is the three-parameter device', () => {
+    const plain = npnModel({ family: 'npn', beta: 150, earlyVoltageV: 60, saturationCurrentA: 2e-15 }, 50);
+    const blank = npnModel({ family: 'npn', beta: 150, earlyVoltageV: 60, saturationCurrentA: 2e-15, model: { IS: undefined } }, 50);
+    expect([blank.beta, blank.earlyVoltageV, blank.saturationCurrentA]).toEqual([plain.beta, plain.earlyVoltageV, plain.saturationCurrentA]);
+    expect(blank.evaluate(0.7, -3, 1)).toEqual(plain.evaluate(0.7, -3, 1));
+  });
+});
