@@ -5,6 +5,7 @@
  * cross-field rules. Errors are "/json/path: message".
  */
 import AjvImport, { type SchemaObject, type ValidateFunction } from 'ajv';
+import { hasModelCard, resolvedParameters } from './engine/bjt-parameters';
 import type { Design, Spec } from './engine/types';
 import designSchemaJson from './schema/design.schema.json';
 import specSchemaJson from './schema/spec.schema.json';
@@ -35,9 +36,37 @@ ajv.addKeyword('x-typical'); // the range a field's values usually fall in (shar
 const validateSpecSchema: ValidateFunction = ajv.compile(SPEC_SCHEMA);
 const validateDesignSchema: ValidateFunction = ajv.compile(DESIGN_SCHEMA);
 
-/** Validates a requirement spec; on success `value` is a copy with every default filled in. */
+/**
+ * Validates a requirement spec; on success `value` is a copy with every default filled in. With a
+ * model card (`device.model`), the device fields the spec leaves out are the card's: `beta` its
+ * BF, `earlyVoltageV` its VAF (0 when infinite), `saturationCurrentA` its IS, not the schema's
+ * defaults; fields it gives must equal them (a cross-field rule).
+ */
 export function validateSpec(input: unknown): ValidationResult<Spec> {
-  return validateWith<Spec>(input, validateSpecSchema, specCrossFieldIssues, upgradeSpecDocument);
+  return validateWith<Spec>(input, validateSpecSchema, specCrossFieldIssues, upgradeSpecDocument, withCardValues);
+}
+
+/** The device fields a card stands for, with its parameter. */
+const CARD_FIELDS = [
+  ['beta', 'BF'],
+  ['earlyVoltageV', 'VAF'],
+  ['saturationCurrentA', 'IS'],
+] as const;
+
+/**
+ * Before the schema's defaults: which card fields the document left out. After: those take the
+ * card's values (the schema has checked the card by then).
+ */
+function withCardValues(copy: unknown): ((value: Spec) => void) | undefined {
+  const device = (copy as { device?: unknown } | null)?.device;
+  if (device === null || typeof device !== 'object' || !('model' in device)) return undefined;
+  const missing = CARD_FIELDS.filter(([field]) => !(field in device));
+  return (value) => {
+    const { model } = value.device;
+    if (!model || !hasModelCard(value.device)) return;
+    const card = resolvedParameters(model);
+    for (const [field, parameter] of missing) value.device[field] = Number.isFinite(card[parameter]) ? card[parameter] : 0;
+  };
 }
 
 /** Validates an `analyze` input; on success `value` is a copy with the documented defaults filled in. */
@@ -73,12 +102,15 @@ function validateWith<T>(
   schemaCheck: ValidateFunction,
   crossFieldIssues: (value: T) => ValidationIssue[],
   upgrade: (copy: unknown) => ValidationIssue[] = () => [],
+  afterDefaults: (copy: unknown) => ((value: T) => void) | undefined = () => undefined,
 ): ValidationResult<T> {
   const copy = jsonCopy(input, 0); // defaults are written into the copy, never the caller's object
   if (copy === NOT_JSON) return { ok: false, errors: [{ path: '', message: 'must be plain JSON data' }] };
   const upgradeIssues = upgrade(copy); // older documents read as today's (renamed fields)
   if (upgradeIssues.length > 0) return { ok: false, errors: upgradeIssues };
+  const finish = afterDefaults(copy); // sees the document as written, acts once the schema has passed
   if (!schemaCheck(copy)) return { ok: false, errors: issuesFromAjvErrors(schemaCheck.errors ?? []) };
+  finish?.(copy as T);
   const issues = crossFieldIssues(copy as T);
   return issues.length > 0 ? { ok: false, errors: issues } : { ok: true, value: copy as T };
 }

@@ -82,11 +82,20 @@ function nominalIsA(device: DeviceParams): number {
 }
 
 /**
- * The device's card: `device.model` when present, else the three-parameter device (IS, BF, VAF)
+ * Whether the device carries a model card: `device.model` with at least one parameter given. An
+ * empty object, or one of blank fields (a form's untouched card section), is no card: the
+ * three-parameter device applies.
+ */
+export function hasModelCard(device: { model?: BjtModelCard }): boolean {
+  return device.model !== undefined && Object.values(device.model).some((value) => value !== undefined);
+}
+
+/**
+ * The device's card: `device.model` when it has a parameter, else the three-parameter device (IS, BF, VAF)
  * written as a card. Only the parameters given (nothing defaulted).
  */
 export function cardOf(device: DeviceParams): BjtModelCard {
-  if (device.model) return { ...device.model };
+  if (device.model && hasModelCard(device)) return { ...device.model };
   const card: BjtModelCard = { IS: nominalIsA(device), BF: device.beta ?? BJT_PARAMETERS.BF.default };
   if (device.earlyVoltageV !== undefined) card.VAF = device.earlyVoltageV;
   return card;

@@ -8,7 +8,7 @@
 import type { Design } from './types';
 import { GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
 import type { CircuitElement } from './circuit';
-import { BJT_PARAMETER_NAMES } from './bjt-parameters';
+import { BJT_PARAMETER_NAMES, hasModelCard } from './bjt-parameters';
 import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
@@ -94,7 +94,7 @@ function elementLine(element: CircuitElement): string {
  * card's SPICE-only parameters, when the netlist is given them.
  */
 function modelCard(design: Design, extra: NetlistCardSettings): string {
-  const card = design.device.model;
+  const card = hasModelCard(design.device) ? design.device.model : undefined;
   const parameters = card
     ? BJT_PARAMETER_NAMES.filter((name) => card[name] !== undefined).map((name) => `${name}=${spiceNumber(card[name]!)}`)
     : [`IS=${spiceNumber(nominalSaturationCurrentA(design.device))}`, `BF=${spiceNumber(forwardBeta(design.device))}`];

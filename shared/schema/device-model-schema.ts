@@ -1,9 +1,9 @@
 /**
  * The `device.model` part of the two schemas, built from the Gummel-Poon parameter list
  * (shared/engine/bjt-parameters.ts): an object of the named SPICE parameters, each a number in
- * SI units within physical bounds, any other name refused. With `model` present the device's
- * `beta` is no longer required (and the spec's BF and VAF defaults no longer apply): the card is
- * the device. That IS, BF and VAF, where also given, equal the card's is a cross-field rule
+ * SI units within physical bounds, any other name refused. With `model` present the design's
+ * `beta` is no longer required, and a spec's `beta`, `earlyVoltageV` and `saturationCurrentA`
+ * left out take the card's BF, VAF and IS (shared/validate.ts): the card is the device. That IS, BF and VAF, where also given, equal the card's is a cross-field rule
  * (shared/validation/cross-field-rules.ts). `npm run generate:topologies` writes this part into
  * design.schema.json and spec.schema.json; device-model-schema.test.ts fails when the files drift.
  * Pure.
@@ -153,25 +153,21 @@ export function designSchemaWithDeviceModel(designSchema: SchemaNode): SchemaNod
   };
 }
 
-/** A copy of the spec schema with `device.model`; the BF and VAF defaults apply only without a card. */
+/**
+ * A copy of the spec schema with `device.model`. No `if`/`then` here: the spec form's precompiled
+ * validator cannot evaluate conditions, so `beta` and `earlyVoltageV` keep their defaults and
+ * validation puts the card's BF, VAF and IS in the fields the spec left out
+ * (shared/validate.ts, `withCardValues`).
+ */
 export function specSchemaWithDeviceModel(specSchema: SchemaNode): SchemaNode {
   const properties = propertiesOf(specSchema);
   const { if: _if, then: _then, ...device } = properties.device;
   const deviceProperties = withModelProperty(device);
-  const defaults: Record<string, SchemaNode> = {};
   const thenDefaults = ((_then as SchemaNode | undefined)?.properties ?? {}) as Record<string, SchemaNode>;
   for (const field of CARD_FIELDS) {
-    const { default: value, ...fieldSchema } = deviceProperties[field];
-    const fallback = value ?? thenDefaults[field]?.default;
-    deviceProperties[field] = fieldSchema;
-    if (fallback !== undefined) defaults[field] = { default: fallback };
+    const fallback = thenDefaults[field]?.default;
+    if (fallback !== undefined) deviceProperties[field] = { ...deviceProperties[field], default: fallback };
   }
   const rest = Object.fromEntries(Object.entries(device).filter(([key]) => key !== 'properties'));
-  return {
-    ...specSchema,
-    properties: {
-      ...properties,
-      device: { ...rest, properties: deviceProperties, if: WITHOUT_MODEL, then: { properties: defaults } },
-    },
-  };
+  return { ...specSchema, properties: { ...properties, device: { ...rest, properties: deviceProperties } } };
 }

@@ -21,11 +21,11 @@ export interface Spec {
     /**
      * Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.
      */
-    beta?: number;
+    beta: number;
     /**
      * Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.
      */
-    earlyVoltageV?: number;
+    earlyVoltageV: number;
     /**
      * Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.
      */

@@ -3,7 +3,7 @@
  * that breaks the rule (its `path`) and names the other field by its label, with both numbers:
  * "must be below the positive rail (12 V), got 14 V".
  */
-import { BJT_PARAMETERS, resolvedParameters, type BjtModelCard, type BjtParameterName } from '../engine/bjt-parameters';
+import { BJT_PARAMETERS, hasModelCard, resolvedParameters, type BjtModelCard, type BjtParameterName } from '../engine/bjt-parameters';
 import type { Design, Spec, Supply } from '../engine/types';
 import { designFieldLabel, specFieldLabel } from './field-labels';
 import type { ValidationIssue } from './validation-issue';
@@ -59,7 +59,7 @@ function sameValue(a: number, b: number): boolean {
 
 /** With `device.model` given, `beta`, `earlyVoltageV` and `saturationCurrentA` may be left out, and where given equal BF, VAF and IS. */
 function deviceCardIssues(device: { model?: BjtModelCard; beta?: number; earlyVoltageV?: number; saturationCurrentA?: number } | undefined): ValidationIssue[] {
-  if (!device?.model) return [];
+  if (!device?.model || !hasModelCard(device)) return [];
   const card = resolvedParameters(device.model);
   const issues: ValidationIssue[] = [];
   for (const { field, parameter } of CARD_FIELDS) {

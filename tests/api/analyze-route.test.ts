@@ -12,8 +12,8 @@ const DESIGN = {
   collectorResistanceOhm: 10000,
   tail: { topology: 'simple-mirror', referenceResistanceOhm: 22000 },
 };
-/** 1 GΩ collector and tail resistors around a 1 Ω pair emitter resistor: no operating point found. */
-const HARD = { ...DESIGN, collectorResistanceOhm: 1e9, pairEmitterResistanceOhm: 1, tail: { topology: 'resistor', resistanceOhm: 1e9 } };
+/** 1 GΩ collector and tail resistors around a 2 Ω pair emitter resistor: no operating point found. */
+const HARD = { ...DESIGN, collectorResistanceOhm: 1e9, pairEmitterResistanceOhm: 2, tail: { topology: 'resistor', resistanceOhm: 1e9 } };
 
 describe('POST /api/analyze', () => {
   let api: TestApi;

@@ -3,6 +3,7 @@ import { describe, expect, test } from 'vitest';
 import { BJT_PARAMETERS, BJT_PARAMETER_NAMES } from '#shared/engine/bjt-parameters';
 import { designSchemaWithDeviceModel, specSchemaWithDeviceModel } from '#shared/schema/device-model-schema';
 import { validateDesign, validateSpec } from '#shared/validate';
+import { specCrossFieldIssues } from '#shared/validation/cross-field-rules';
 import { DESIGN_SCHEMA_PATH, SPEC_SCHEMA_PATH } from '../../../scripts/write-topology-schema';
 import { MINIMAL_DESIGN, MINIMAL_SPEC, paths, printed } from './schema-fixtures';
 
@@ -104,17 +105,31 @@ describe('validating a design with a model card', () => {
   });
 });
 
+describe('an empty card is no card', () => {
+  test('a design or spec whose model has no parameter given (a form\u2019s untouched card section) keeps its own beta and Early voltage', () => {
+    expect(validateDesign(designWithDevice({ beta: 120, earlyVoltageV: 80, model: {} })).ok).toBe(true);
+    const spec = validateSpec({ ...MINIMAL_SPEC, device: { beta: 150, earlyVoltageV: 60, model: {} } });
+    expect(spec.ok && [spec.value.device.beta, spec.value.device.earlyVoltageV]).toEqual([150, 60]);
+    // the spec form's cross-field check sees blank card fields as undefined
+    expect(specCrossFieldIssues({ ...(spec.ok ? spec.value : {}), device: { beta: 150, earlyVoltageV: 60, model: { IS: undefined, VAF: undefined } } } as never)).toEqual([]);
+  });
+});
+
 describe('validating a spec with a model card', () => {
-  test('with a card the spec gets no beta or Early voltage default; without one it does', () => {
+  test('with a card, the device fields the spec leaves out are the card\u2019s BF, VAF and IS, not the schema defaults', () => {
     const withCard = validateSpec({ ...MINIMAL_SPEC, device: { model: CARD } });
-    expect(withCard.ok).toBe(true);
-    if (withCard.ok) {
-      expect(withCard.value.device.beta).toBeUndefined();
-      expect(withCard.value.device.earlyVoltageV).toBeUndefined();
-      expect(withCard.value.device.model).toEqual(CARD);
-    }
+    expect(withCard.ok && withCard.value.device).toMatchObject({ beta: 180, earlyVoltageV: 90, saturationCurrentA: 2e-15, model: CARD });
+    // a card without VAF: infinite, written 0 as the device field writes it; BF left out: SPICE's 100
+    const sparse = validateSpec({ ...MINIMAL_SPEC, device: { model: { IS: 3e-15 } } });
+    expect(sparse.ok && sparse.value.device).toMatchObject({ beta: 100, earlyVoltageV: 0, saturationCurrentA: 3e-15 });
     const plain = validateSpec(MINIMAL_SPEC);
-    expect(plain.ok && [plain.value.device.beta, plain.value.device.earlyVoltageV]).toEqual([100, 100]);
+    expect(plain.ok && [plain.value.device.beta, plain.value.device.earlyVoltageV, plain.value.device.saturationCurrentA]).toEqual([100, 100, undefined]);
+  });
+
+  test('the spec form can validate it: no condition (if/then) in the spec schema, which its precompiled validator cannot evaluate', () => {
+    const device = fromFile(SPEC_SCHEMA_PATH).properties!.device;
+    expect(Object.keys(device)).not.toContain('if');
+    expect(device.properties!.beta.default).toBe(100);
   });
 
   test('a spec\u2019s beta beside a card must equal BF, at the JSON path', () => {

@@ -114,8 +114,6 @@ describe('spec schema against the Spec type', () => {
         '/cmrr',
         '/cmrr/minDb',
         '/device/saturationCurrentA', // absent means "derive IS from vbeOnV"
-        '/device/beta', // defaulted only without a model card (the card's BF otherwise)
-        '/device/earlyVoltageV', // defaulted only without a model card (the card's VAF otherwise)
         '/device/model', // absent means "the three-parameter device"
         ...BJT_PARAMETER_NAMES.map((name) => `/device/model/${name}`), // absent means SPICE's default
         '/tailCurrentA', // absent means "let the sizing choose"

@@ -16,7 +16,7 @@ function ucs2length(str) {
   }
   return length;
 }
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"default":{},"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"model":{"type":"object","title":"SPICE model card","description":"The transistor's Gummel-Poon parameters by their SPICE names, SI units; a parameter left out takes SPICE's default. When given, this card is the device: current gain, Early voltage and saturation current may be left out, and where given must equal BF, VAF and IS.","additionalProperties":false,"properties":{"IS":{"type":"number","title":"IS","description":"Transport saturation current, in amperes (A); 1e-20 or more, up to 1e-9. Left out: 1e-16 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"BF":{"type":"number","title":"BF","description":"Ideal maximum forward current gain, a ratio (A/A); 1 or more, up to 10000. Left out: 100 (SPICE's default).","x-unit":"A/A","x-typical":{"min":30,"max":800},"minimum":1,"maximum":10000},"NF":{"type":"number","title":"NF","description":"Forward current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAF":{"type":"number","title":"VAF","description":"Forward Early voltage, in volts (V); 0 (infinite) or 1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":10,"max":500},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"IKF":{"type":"number","title":"IKF","description":"Corner of forward gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISE":{"type":"number","title":"ISE","description":"Base-emitter leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NE":{"type":"number","title":"NE","description":"Base-emitter leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 1.5 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"BR":{"type":"number","title":"BR","description":"Ideal maximum reverse current gain, a ratio (A/A); more than 0, up to 10000. Left out: 1 (SPICE's default).","x-unit":"A/A","x-typical":{"min":0.1,"max":20},"exclusiveMinimum":0,"maximum":10000},"NR":{"type":"number","title":"NR","description":"Reverse current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAR":{"type":"number","title":"VAR","description":"Reverse Early voltage, in volts (V); 0 (infinite) or 0.1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":2,"max":100},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":0.1}},"IKR":{"type":"number","title":"IKR","description":"Corner of reverse gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISC":{"type":"number","title":"ISC","description":"Base-collector leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NC":{"type":"number","title":"NC","description":"Base-collector leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 2 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"RB":{"type":"number","title":"RB","description":"Base resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":1,"max":1000},"minimum":0,"maximum":1000000},"RE":{"type":"number","title":"RE","description":"Emitter resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":100},"minimum":0,"maximum":1000000},"RC":{"type":"number","title":"RC","description":"Collector resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":1000},"minimum":0,"maximum":1000000},"CJE":{"type":"number","title":"CJE","description":"Base-emitter zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJE":{"type":"number","title":"VJE","description":"Base-emitter built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJE":{"type":"number","title":"MJE","description":"Base-emitter junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJC":{"type":"number","title":"CJC","description":"Base-collector zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJC":{"type":"number","title":"VJC","description":"Base-collector built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.3,"max":1.1},"minimum":0.1,"maximum":2},"MJC":{"type":"number","title":"MJC","description":"Base-collector junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJS":{"type":"number","title":"CJS","description":"Collector-substrate zero-bias capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":0,"max":1e-11},"minimum":0,"maximum":1e-8},"VJS":{"type":"number","title":"VJS","description":"Substrate junction built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJS":{"type":"number","title":"MJS","description":"Substrate junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":0.6},"minimum":0,"maximum":0.9},"FC":{"type":"number","title":"FC","description":"Forward-bias depletion capacitance coefficient, dimensionless; 0 or more, up to 0.95. Left out: 0.5 (SPICE's default).","x-unit":"1","x-typical":{"min":0.5,"max":0.9},"minimum":0,"maximum":0.95},"TF":{"type":"number","title":"TF","description":"Ideal forward transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-12,"max":1e-8},"minimum":0,"maximum":0.001},"TR":{"type":"number","title":"TR","description":"Ideal reverse transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-10,"max":0.000001},"minimum":0,"maximum":0.001},"EG":{"type":"number","title":"EG","description":"Energy gap for the temperature effect on IS, in electronvolts (eV); 0.1 or more, up to 4. Left out: 1.11 (SPICE's default).","x-unit":"eV","x-typical":{"min":0.6,"max":1.5},"minimum":0.1,"maximum":4},"XTI":{"type":"number","title":"XTI","description":"Temperature exponent for IS, dimensionless; -10 or more, up to 10. Left out: 3 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":5},"minimum":-10,"maximum":10},"XTB":{"type":"number","title":"XTB","description":"Forward and reverse beta temperature exponent, dimensionless; -5 or more, up to 5. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":3},"minimum":-5,"maximum":5},"KF":{"type":"number","title":"KF","description":"Flicker-noise coefficient, dimensionless; 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":1e-12},"minimum":0,"maximum":0.001},"AF":{"type":"number","title":"AF","description":"Flicker-noise exponent, dimensionless; 0.1 or more, up to 4. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.8,"max":2},"minimum":0.1,"maximum":4}}},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Collector-emitter voltage below which a transistor counts as saturated, in volts (V).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001}},"if":{"not":{"required":["model"]}},"then":{"properties":{"beta":{"default":100},"earlyVoltageV":{"default":100}}}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"default":{},"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"model":{"type":"object","title":"SPICE model card","description":"The transistor's Gummel-Poon parameters by their SPICE names, SI units; a parameter left out takes SPICE's default. When given, this card is the device: current gain, Early voltage and saturation current may be left out, and where given must equal BF, VAF and IS.","additionalProperties":false,"properties":{"IS":{"type":"number","title":"IS","description":"Transport saturation current, in amperes (A); 1e-20 or more, up to 1e-9. Left out: 1e-16 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"BF":{"type":"number","title":"BF","description":"Ideal maximum forward current gain, a ratio (A/A); 1 or more, up to 10000. Left out: 100 (SPICE's default).","x-unit":"A/A","x-typical":{"min":30,"max":800},"minimum":1,"maximum":10000},"NF":{"type":"number","title":"NF","description":"Forward current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAF":{"type":"number","title":"VAF","description":"Forward Early voltage, in volts (V); 0 (infinite) or 1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":10,"max":500},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"IKF":{"type":"number","title":"IKF","description":"Corner of forward gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISE":{"type":"number","title":"ISE","description":"Base-emitter leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NE":{"type":"number","title":"NE","description":"Base-emitter leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 1.5 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"BR":{"type":"number","title":"BR","description":"Ideal maximum reverse current gain, a ratio (A/A); more than 0, up to 10000. Left out: 1 (SPICE's default).","x-unit":"A/A","x-typical":{"min":0.1,"max":20},"exclusiveMinimum":0,"maximum":10000},"NR":{"type":"number","title":"NR","description":"Reverse current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAR":{"type":"number","title":"VAR","description":"Reverse Early voltage, in volts (V); 0 (infinite) or 0.1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":2,"max":100},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":0.1}},"IKR":{"type":"number","title":"IKR","description":"Corner of reverse gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISC":{"type":"number","title":"ISC","description":"Base-collector leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NC":{"type":"number","title":"NC","description":"Base-collector leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 2 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"RB":{"type":"number","title":"RB","description":"Base resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":1,"max":1000},"minimum":0,"maximum":1000000},"RE":{"type":"number","title":"RE","description":"Emitter resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":100},"minimum":0,"maximum":1000000},"RC":{"type":"number","title":"RC","description":"Collector resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":1000},"minimum":0,"maximum":1000000},"CJE":{"type":"number","title":"CJE","description":"Base-emitter zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJE":{"type":"number","title":"VJE","description":"Base-emitter built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJE":{"type":"number","title":"MJE","description":"Base-emitter junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJC":{"type":"number","title":"CJC","description":"Base-collector zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJC":{"type":"number","title":"VJC","description":"Base-collector built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.3,"max":1.1},"minimum":0.1,"maximum":2},"MJC":{"type":"number","title":"MJC","description":"Base-collector junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJS":{"type":"number","title":"CJS","description":"Collector-substrate zero-bias capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":0,"max":1e-11},"minimum":0,"maximum":1e-8},"VJS":{"type":"number","title":"VJS","description":"Substrate junction built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJS":{"type":"number","title":"MJS","description":"Substrate junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":0.6},"minimum":0,"maximum":0.9},"FC":{"type":"number","title":"FC","description":"Forward-bias depletion capacitance coefficient, dimensionless; 0 or more, up to 0.95. Left out: 0.5 (SPICE's default).","x-unit":"1","x-typical":{"min":0.5,"max":0.9},"minimum":0,"maximum":0.95},"TF":{"type":"number","title":"TF","description":"Ideal forward transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-12,"max":1e-8},"minimum":0,"maximum":0.001},"TR":{"type":"number","title":"TR","description":"Ideal reverse transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-10,"max":0.000001},"minimum":0,"maximum":0.001},"EG":{"type":"number","title":"EG","description":"Energy gap for the temperature effect on IS, in electronvolts (eV); 0.1 or more, up to 4. Left out: 1.11 (SPICE's default).","x-unit":"eV","x-typical":{"min":0.6,"max":1.5},"minimum":0.1,"maximum":4},"XTI":{"type":"number","title":"XTI","description":"Temperature exponent for IS, dimensionless; -10 or more, up to 10. Left out: 3 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":5},"minimum":-10,"maximum":10},"XTB":{"type":"number","title":"XTB","description":"Forward and reverse beta temperature exponent, dimensionless; -5 or more, up to 5. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":3},"minimum":-5,"maximum":5},"KF":{"type":"number","title":"KF","description":"Flicker-noise coefficient, dimensionless; 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":1e-12},"minimum":0,"maximum":0.001},"AF":{"type":"number","title":"AF","description":"Flicker-noise exponent, dimensionless; 0.1 or more, up to 4. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.8,"max":2},"minimum":0.1,"maximum":4}}},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Collector-emitter voltage below which a transistor counts as saturated, in volts (V).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001}}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
 const func2 = Object.prototype.hasOwnProperty;
 const func3 = ucs2length;
 const pattern0 = new RegExp("^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$", "u");
@@ -126,15 +126,10 @@ errors++;
 }
 if(data.device !== undefined){
 let data1 = data.device;
-const _errs6 = errors;
-let valid1 = true;
-const _errs7 = errors;
-const _errs8 = errors;
-const _errs9 = errors;
 if(data1 && typeof data1 == "object" && !Array.isArray(data1)){
-let missing0;
-if((data1.model === undefined) && (missing0 = "model")){
-const err9 = {};
+for(const key1 in data1){
+if(!((((((((key1 === "family") || (key1 === "beta")) || (key1 === "earlyVoltageV")) || (key1 === "saturationCurrentA")) || (key1 === "model")) || (key1 === "vbeOnV")) || (key1 === "vceSatV")) || (key1 === "vbeMismatchSigmaV"))){
+const err9 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.device,data:data1};
 if(vErrors === null){
 vErrors = [err9];
 }
@@ -144,9 +139,10 @@ vErrors.push(err9);
 errors++;
 }
 }
-var valid2 = _errs9 === errors;
-if(valid2){
-const err10 = {};
+if(data1.family !== undefined){
+let data2 = data1.family;
+if(typeof data2 !== "string"){
+const err10 = {instancePath:instancePath+"/device/family",schemaPath:"#/properties/device/properties/family/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.device.properties.family.type,parentSchema:schema11.properties.device.properties.family,data:data2};
 if(vErrors === null){
 vErrors = [err10];
 }
@@ -155,34 +151,8 @@ vErrors.push(err10);
 }
 errors++;
 }
-else {
-errors = _errs8;
-if(vErrors !== null){
-if(_errs8){
-vErrors.length = _errs8;
-}
-else {
-vErrors = null;
-}
-}
-}
-var _valid0 = _errs7 === errors;
-errors = _errs6;
-if(vErrors !== null){
-if(_errs6){
-vErrors.length = _errs6;
-}
-else {
-vErrors = null;
-}
-}
-if(_valid0){
-const _errs10 = errors;
-var _valid0 = _errs10 === errors;
-valid1 = _valid0;
-}
-if(!valid1){
-const err11 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/if",keyword:"if",params:{failingKeyword: "then"},message:"must match \"then\" schema",schema:schema11.properties.device.if,parentSchema:schema11.properties.device,data:data1};
+if("npn" !== data2){
+const err11 = {instancePath:instancePath+"/device/family",schemaPath:"#/properties/device/properties/family/const",keyword:"const",params:{allowedValue: "npn"},message:"must be equal to constant",schema:"npn",parentSchema:schema11.properties.device.properties.family,data:data2};
 if(vErrors === null){
 vErrors = [err11];
 }
@@ -191,10 +161,12 @@ vErrors.push(err11);
 }
 errors++;
 }
-if(data1 && typeof data1 == "object" && !Array.isArray(data1)){
-for(const key1 in data1){
-if(!((((((((key1 === "family") || (key1 === "beta")) || (key1 === "earlyVoltageV")) || (key1 === "saturationCurrentA")) || (key1 === "model")) || (key1 === "vbeOnV")) || (key1 === "vceSatV")) || (key1 === "vbeMismatchSigmaV"))){
-const err12 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.device,data:data1};
+}
+if(data1.beta !== undefined){
+let data3 = data1.beta;
+if(typeof data3 == "number"){
+if(data3 > 2000 || isNaN(data3)){
+const err12 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2000},message:"must be <= 2000",schema:2000,parentSchema:schema11.properties.device.properties.beta,data:data3};
 if(vErrors === null){
 vErrors = [err12];
 }
@@ -203,11 +175,8 @@ vErrors.push(err12);
 }
 errors++;
 }
-}
-if(data1.family !== undefined){
-let data2 = data1.family;
-if(typeof data2 !== "string"){
-const err13 = {instancePath:instancePath+"/device/family",schemaPath:"#/properties/device/properties/family/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.device.properties.family.type,parentSchema:schema11.properties.device.properties.family,data:data2};
+if(data3 < 10 || isNaN(data3)){
+const err13 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/minimum",keyword:"minimum",params:{comparison: ">=", limit: 10},message:"must be >= 10",schema:10,parentSchema:schema11.properties.device.properties.beta,data:data3};
 if(vErrors === null){
 vErrors = [err13];
 }
@@ -216,8 +185,9 @@ vErrors.push(err13);
 }
 errors++;
 }
-if("npn" !== data2){
-const err14 = {instancePath:instancePath+"/device/family",schemaPath:"#/properties/device/properties/family/const",keyword:"const",params:{allowedValue: "npn"},message:"must be equal to constant",schema:"npn",parentSchema:schema11.properties.device.properties.family,data:data2};
+}
+else {
+const err14 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.beta.type,parentSchema:schema11.properties.device.properties.beta,data:data3};
 if(vErrors === null){
 vErrors = [err14];
 }
@@ -227,11 +197,13 @@ vErrors.push(err14);
 errors++;
 }
 }
-if(data1.beta !== undefined){
-let data3 = data1.beta;
-if(typeof data3 == "number"){
-if(data3 > 2000 || isNaN(data3)){
-const err15 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2000},message:"must be <= 2000",schema:2000,parentSchema:schema11.properties.device.properties.beta,data:data3};
+if(data1.earlyVoltageV !== undefined){
+let data4 = data1.earlyVoltageV;
+const _errs13 = errors;
+const _errs14 = errors;
+if(typeof data4 == "number"){
+if(data4 >= 1 || isNaN(data4)){
+const err15 = {};
 if(vErrors === null){
 vErrors = [err15];
 }
@@ -240,8 +212,9 @@ vErrors.push(err15);
 }
 errors++;
 }
-if(data3 < 10 || isNaN(data3)){
-const err16 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/minimum",keyword:"minimum",params:{comparison: ">=", limit: 10},message:"must be >= 10",schema:10,parentSchema:schema11.properties.device.properties.beta,data:data3};
+else {
+if(data4 <= 0 || isNaN(data4)){
+const err16 = {};
 if(vErrors === null){
 vErrors = [err16];
 }
@@ -251,8 +224,10 @@ vErrors.push(err16);
 errors++;
 }
 }
-else {
-const err17 = {instancePath:instancePath+"/device/beta",schemaPath:"#/properties/device/properties/beta/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.beta.type,parentSchema:schema11.properties.device.properties.beta,data:data3};
+}
+var valid2 = _errs14 === errors;
+if(valid2){
+const err17 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.earlyVoltageV.not,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
 if(vErrors === null){
 vErrors = [err17];
 }
@@ -261,14 +236,20 @@ vErrors.push(err17);
 }
 errors++;
 }
+else {
+errors = _errs13;
+if(vErrors !== null){
+if(_errs13){
+vErrors.length = _errs13;
 }
-if(data1.earlyVoltageV !== undefined){
-let data4 = data1.earlyVoltageV;
-const _errs18 = errors;
-const _errs19 = errors;
+else {
+vErrors = null;
+}
+}
+}
 if(typeof data4 == "number"){
-if(data4 >= 1 || isNaN(data4)){
-const err18 = {};
+if(data4 > 1000 || isNaN(data4)){
+const err18 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
 if(vErrors === null){
 vErrors = [err18];
 }
@@ -277,9 +258,8 @@ vErrors.push(err18);
 }
 errors++;
 }
-else {
-if(data4 <= 0 || isNaN(data4)){
-const err19 = {};
+if(data4 < 0 || isNaN(data4)){
+const err19 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
 if(vErrors === null){
 vErrors = [err19];
 }
@@ -289,10 +269,8 @@ vErrors.push(err19);
 errors++;
 }
 }
-}
-var valid4 = _errs19 === errors;
-if(valid4){
-const err20 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.earlyVoltageV.not,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
+else {
+const err20 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.earlyVoltageV.type,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
 if(vErrors === null){
 vErrors = [err20];
 }
@@ -301,20 +279,12 @@ vErrors.push(err20);
 }
 errors++;
 }
-else {
-errors = _errs18;
-if(vErrors !== null){
-if(_errs18){
-vErrors.length = _errs18;
 }
-else {
-vErrors = null;
-}
-}
-}
-if(typeof data4 == "number"){
-if(data4 > 1000 || isNaN(data4)){
-const err21 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
+if(data1.saturationCurrentA !== undefined){
+let data5 = data1.saturationCurrentA;
+if(typeof data5 == "number"){
+if(data5 > 1e-9 || isNaN(data5)){
+const err21 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
 if(vErrors === null){
 vErrors = [err21];
 }
@@ -323,8 +293,8 @@ vErrors.push(err21);
 }
 errors++;
 }
-if(data4 < 0 || isNaN(data4)){
-const err22 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
+if(data5 < 1e-20 || isNaN(data5)){
+const err22 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-20},message:"must be >= 1e-20",schema:1e-20,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
 if(vErrors === null){
 vErrors = [err22];
 }
@@ -335,7 +305,7 @@ errors++;
 }
 }
 else {
-const err23 = {instancePath:instancePath+"/device/earlyVoltageV",schemaPath:"#/properties/device/properties/earlyVoltageV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.earlyVoltageV.type,parentSchema:schema11.properties.device.properties.earlyVoltageV,data:data4};
+const err23 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.saturationCurrentA.type,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
 if(vErrors === null){
 vErrors = [err23];
 }
@@ -345,11 +315,12 @@ vErrors.push(err23);
 errors++;
 }
 }
-if(data1.saturationCurrentA !== undefined){
-let data5 = data1.saturationCurrentA;
-if(typeof data5 == "number"){
-if(data5 > 1e-9 || isNaN(data5)){
-const err24 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
+if(data1.model !== undefined){
+let data6 = data1.model;
+if(data6 && typeof data6 == "object" && !Array.isArray(data6)){
+for(const key2 in data6){
+if(!(func2.call(schema11.properties.device.properties.model.properties, key2))){
+const err24 = {instancePath:instancePath+"/device/model",schemaPath:"#/properties/device/properties/model/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.device.properties.model,data:data6};
 if(vErrors === null){
 vErrors = [err24];
 }
@@ -358,8 +329,12 @@ vErrors.push(err24);
 }
 errors++;
 }
-if(data5 < 1e-20 || isNaN(data5)){
-const err25 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-20},message:"must be >= 1e-20",schema:1e-20,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
+}
+if(data6.IS !== undefined){
+let data7 = data6.IS;
+if(typeof data7 == "number"){
+if(data7 > 1e-9 || isNaN(data7)){
+const err25 = {instancePath:instancePath+"/device/model/IS",schemaPath:"#/properties/device/properties/model/properties/IS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.device.properties.model.properties.IS,data:data7};
 if(vErrors === null){
 vErrors = [err25];
 }
@@ -368,9 +343,8 @@ vErrors.push(err25);
 }
 errors++;
 }
-}
-else {
-const err26 = {instancePath:instancePath+"/device/saturationCurrentA",schemaPath:"#/properties/device/properties/saturationCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.saturationCurrentA.type,parentSchema:schema11.properties.device.properties.saturationCurrentA,data:data5};
+if(data7 < 1e-20 || isNaN(data7)){
+const err26 = {instancePath:instancePath+"/device/model/IS",schemaPath:"#/properties/device/properties/model/properties/IS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-20},message:"must be >= 1e-20",schema:1e-20,parentSchema:schema11.properties.device.properties.model.properties.IS,data:data7};
 if(vErrors === null){
 vErrors = [err26];
 }
@@ -380,12 +354,8 @@ vErrors.push(err26);
 errors++;
 }
 }
-if(data1.model !== undefined){
-let data6 = data1.model;
-if(data6 && typeof data6 == "object" && !Array.isArray(data6)){
-for(const key2 in data6){
-if(!(func2.call(schema11.properties.device.properties.model.properties, key2))){
-const err27 = {instancePath:instancePath+"/device/model",schemaPath:"#/properties/device/properties/model/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.device.properties.model,data:data6};
+else {
+const err27 = {instancePath:instancePath+"/device/model/IS",schemaPath:"#/properties/device/properties/model/properties/IS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.IS.type,parentSchema:schema11.properties.device.properties.model.properties.IS,data:data7};
 if(vErrors === null){
 vErrors = [err27];
 }
@@ -395,11 +365,11 @@ vErrors.push(err27);
 errors++;
 }
 }
-if(data6.IS !== undefined){
-let data7 = data6.IS;
-if(typeof data7 == "number"){
-if(data7 > 1e-9 || isNaN(data7)){
-const err28 = {instancePath:instancePath+"/device/model/IS",schemaPath:"#/properties/device/properties/model/properties/IS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.device.properties.model.properties.IS,data:data7};
+if(data6.BF !== undefined){
+let data8 = data6.BF;
+if(typeof data8 == "number"){
+if(data8 > 10000 || isNaN(data8)){
+const err28 = {instancePath:instancePath+"/device/model/BF",schemaPath:"#/properties/device/properties/model/properties/BF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.model.properties.BF,data:data8};
 if(vErrors === null){
 vErrors = [err28];
 }
@@ -408,8 +378,8 @@ vErrors.push(err28);
 }
 errors++;
 }
-if(data7 < 1e-20 || isNaN(data7)){
-const err29 = {instancePath:instancePath+"/device/model/IS",schemaPath:"#/properties/device/properties/model/properties/IS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-20},message:"must be >= 1e-20",schema:1e-20,parentSchema:schema11.properties.device.properties.model.properties.IS,data:data7};
+if(data8 < 1 || isNaN(data8)){
+const err29 = {instancePath:instancePath+"/device/model/BF",schemaPath:"#/properties/device/properties/model/properties/BF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.device.properties.model.properties.BF,data:data8};
 if(vErrors === null){
 vErrors = [err29];
 }
@@ -420,7 +390,7 @@ errors++;
 }
 }
 else {
-const err30 = {instancePath:instancePath+"/device/model/IS",schemaPath:"#/properties/device/properties/model/properties/IS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.IS.type,parentSchema:schema11.properties.device.properties.model.properties.IS,data:data7};
+const err30 = {instancePath:instancePath+"/device/model/BF",schemaPath:"#/properties/device/properties/model/properties/BF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.BF.type,parentSchema:schema11.properties.device.properties.model.properties.BF,data:data8};
 if(vErrors === null){
 vErrors = [err30];
 }
@@ -430,11 +400,11 @@ vErrors.push(err30);
 errors++;
 }
 }
-if(data6.BF !== undefined){
-let data8 = data6.BF;
-if(typeof data8 == "number"){
-if(data8 > 10000 || isNaN(data8)){
-const err31 = {instancePath:instancePath+"/device/model/BF",schemaPath:"#/properties/device/properties/model/properties/BF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.model.properties.BF,data:data8};
+if(data6.NF !== undefined){
+let data9 = data6.NF;
+if(typeof data9 == "number"){
+if(data9 > 5 || isNaN(data9)){
+const err31 = {instancePath:instancePath+"/device/model/NF",schemaPath:"#/properties/device/properties/model/properties/NF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5},message:"must be <= 5",schema:5,parentSchema:schema11.properties.device.properties.model.properties.NF,data:data9};
 if(vErrors === null){
 vErrors = [err31];
 }
@@ -443,8 +413,8 @@ vErrors.push(err31);
 }
 errors++;
 }
-if(data8 < 1 || isNaN(data8)){
-const err32 = {instancePath:instancePath+"/device/model/BF",schemaPath:"#/properties/device/properties/model/properties/BF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.device.properties.model.properties.BF,data:data8};
+if(data9 < 0.5 || isNaN(data9)){
+const err32 = {instancePath:instancePath+"/device/model/NF",schemaPath:"#/properties/device/properties/model/properties/NF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.model.properties.NF,data:data9};
 if(vErrors === null){
 vErrors = [err32];
 }
@@ -455,7 +425,7 @@ errors++;
 }
 }
 else {
-const err33 = {instancePath:instancePath+"/device/model/BF",schemaPath:"#/properties/device/properties/model/properties/BF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.BF.type,parentSchema:schema11.properties.device.properties.model.properties.BF,data:data8};
+const err33 = {instancePath:instancePath+"/device/model/NF",schemaPath:"#/properties/device/properties/model/properties/NF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.NF.type,parentSchema:schema11.properties.device.properties.model.properties.NF,data:data9};
 if(vErrors === null){
 vErrors = [err33];
 }
@@ -465,11 +435,13 @@ vErrors.push(err33);
 errors++;
 }
 }
-if(data6.NF !== undefined){
-let data9 = data6.NF;
-if(typeof data9 == "number"){
-if(data9 > 5 || isNaN(data9)){
-const err34 = {instancePath:instancePath+"/device/model/NF",schemaPath:"#/properties/device/properties/model/properties/NF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5},message:"must be <= 5",schema:5,parentSchema:schema11.properties.device.properties.model.properties.NF,data:data9};
+if(data6.VAF !== undefined){
+let data10 = data6.VAF;
+const _errs28 = errors;
+const _errs29 = errors;
+if(typeof data10 == "number"){
+if(data10 >= 1 || isNaN(data10)){
+const err34 = {};
 if(vErrors === null){
 vErrors = [err34];
 }
@@ -478,8 +450,9 @@ vErrors.push(err34);
 }
 errors++;
 }
-if(data9 < 0.5 || isNaN(data9)){
-const err35 = {instancePath:instancePath+"/device/model/NF",schemaPath:"#/properties/device/properties/model/properties/NF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.model.properties.NF,data:data9};
+else {
+if(data10 <= 0 || isNaN(data10)){
+const err35 = {};
 if(vErrors === null){
 vErrors = [err35];
 }
@@ -489,8 +462,10 @@ vErrors.push(err35);
 errors++;
 }
 }
-else {
-const err36 = {instancePath:instancePath+"/device/model/NF",schemaPath:"#/properties/device/properties/model/properties/NF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.NF.type,parentSchema:schema11.properties.device.properties.model.properties.NF,data:data9};
+}
+var valid4 = _errs29 === errors;
+if(valid4){
+const err36 = {instancePath:instancePath+"/device/model/VAF",schemaPath:"#/properties/device/properties/model/properties/VAF/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.model.properties.VAF.not,parentSchema:schema11.properties.device.properties.model.properties.VAF,data:data10};
 if(vErrors === null){
 vErrors = [err36];
 }
@@ -499,14 +474,20 @@ vErrors.push(err36);
 }
 errors++;
 }
+else {
+errors = _errs28;
+if(vErrors !== null){
+if(_errs28){
+vErrors.length = _errs28;
 }
-if(data6.VAF !== undefined){
-let data10 = data6.VAF;
-const _errs33 = errors;
-const _errs34 = errors;
+else {
+vErrors = null;
+}
+}
+}
 if(typeof data10 == "number"){
-if(data10 >= 1 || isNaN(data10)){
-const err37 = {};
+if(data10 > 10000 || isNaN(data10)){
+const err37 = {instancePath:instancePath+"/device/model/VAF",schemaPath:"#/properties/device/properties/model/properties/VAF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.model.properties.VAF,data:data10};
 if(vErrors === null){
 vErrors = [err37];
 }
@@ -515,9 +496,8 @@ vErrors.push(err37);
 }
 errors++;
 }
-else {
-if(data10 <= 0 || isNaN(data10)){
-const err38 = {};
+if(data10 < 0 || isNaN(data10)){
+const err38 = {instancePath:instancePath+"/device/model/VAF",schemaPath:"#/properties/device/properties/model/properties/VAF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.VAF,data:data10};
 if(vErrors === null){
 vErrors = [err38];
 }
@@ -527,10 +507,8 @@ vErrors.push(err38);
 errors++;
 }
 }
-}
-var valid6 = _errs34 === errors;
-if(valid6){
-const err39 = {instancePath:instancePath+"/device/model/VAF",schemaPath:"#/properties/device/properties/model/properties/VAF/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.model.properties.VAF.not,parentSchema:schema11.properties.device.properties.model.properties.VAF,data:data10};
+else {
+const err39 = {instancePath:instancePath+"/device/model/VAF",schemaPath:"#/properties/device/properties/model/properties/VAF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.VAF.type,parentSchema:schema11.properties.device.properties.model.properties.VAF,data:data10};
 if(vErrors === null){
 vErrors = [err39];
 }
@@ -539,20 +517,12 @@ vErrors.push(err39);
 }
 errors++;
 }
-else {
-errors = _errs33;
-if(vErrors !== null){
-if(_errs33){
-vErrors.length = _errs33;
 }
-else {
-vErrors = null;
-}
-}
-}
-if(typeof data10 == "number"){
-if(data10 > 10000 || isNaN(data10)){
-const err40 = {instancePath:instancePath+"/device/model/VAF",schemaPath:"#/properties/device/properties/model/properties/VAF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.model.properties.VAF,data:data10};
+if(data6.IKF !== undefined){
+let data11 = data6.IKF;
+if(typeof data11 == "number"){
+if(data11 > 1000 || isNaN(data11)){
+const err40 = {instancePath:instancePath+"/device/model/IKF",schemaPath:"#/properties/device/properties/model/properties/IKF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.model.properties.IKF,data:data11};
 if(vErrors === null){
 vErrors = [err40];
 }
@@ -561,8 +531,8 @@ vErrors.push(err40);
 }
 errors++;
 }
-if(data10 < 0 || isNaN(data10)){
-const err41 = {instancePath:instancePath+"/device/model/VAF",schemaPath:"#/properties/device/properties/model/properties/VAF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.VAF,data:data10};
+if(data11 < 0 || isNaN(data11)){
+const err41 = {instancePath:instancePath+"/device/model/IKF",schemaPath:"#/properties/device/properties/model/properties/IKF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.IKF,data:data11};
 if(vErrors === null){
 vErrors = [err41];
 }
@@ -573,7 +543,7 @@ errors++;
 }
 }
 else {
-const err42 = {instancePath:instancePath+"/device/model/VAF",schemaPath:"#/properties/device/properties/model/properties/VAF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.VAF.type,parentSchema:schema11.properties.device.properties.model.properties.VAF,data:data10};
+const err42 = {instancePath:instancePath+"/device/model/IKF",schemaPath:"#/properties/device/properties/model/properties/IKF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.IKF.type,parentSchema:schema11.properties.device.properties.model.properties.IKF,data:data11};
 if(vErrors === null){
 vErrors = [err42];
 }
@@ -583,11 +553,11 @@ vErrors.push(err42);
 errors++;
 }
 }
-if(data6.IKF !== undefined){
-let data11 = data6.IKF;
-if(typeof data11 == "number"){
-if(data11 > 1000 || isNaN(data11)){
-const err43 = {instancePath:instancePath+"/device/model/IKF",schemaPath:"#/properties/device/properties/model/properties/IKF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.model.properties.IKF,data:data11};
+if(data6.ISE !== undefined){
+let data12 = data6.ISE;
+if(typeof data12 == "number"){
+if(data12 > 0.000001 || isNaN(data12)){
+const err43 = {instancePath:instancePath+"/device/model/ISE",schemaPath:"#/properties/device/properties/model/properties/ISE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.000001},message:"must be <= 0.000001",schema:0.000001,parentSchema:schema11.properties.device.properties.model.properties.ISE,data:data12};
 if(vErrors === null){
 vErrors = [err43];
 }
@@ -596,8 +566,8 @@ vErrors.push(err43);
 }
 errors++;
 }
-if(data11 < 0 || isNaN(data11)){
-const err44 = {instancePath:instancePath+"/device/model/IKF",schemaPath:"#/properties/device/properties/model/properties/IKF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.IKF,data:data11};
+if(data12 < 0 || isNaN(data12)){
+const err44 = {instancePath:instancePath+"/device/model/ISE",schemaPath:"#/properties/device/properties/model/properties/ISE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.ISE,data:data12};
 if(vErrors === null){
 vErrors = [err44];
 }
@@ -608,7 +578,7 @@ errors++;
 }
 }
 else {
-const err45 = {instancePath:instancePath+"/device/model/IKF",schemaPath:"#/properties/device/properties/model/properties/IKF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.IKF.type,parentSchema:schema11.properties.device.properties.model.properties.IKF,data:data11};
+const err45 = {instancePath:instancePath+"/device/model/ISE",schemaPath:"#/properties/device/properties/model/properties/ISE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.ISE.type,parentSchema:schema11.properties.device.properties.model.properties.ISE,data:data12};
 if(vErrors === null){
 vErrors = [err45];
 }
@@ -618,11 +588,11 @@ vErrors.push(err45);
 errors++;
 }
 }
-if(data6.ISE !== undefined){
-let data12 = data6.ISE;
-if(typeof data12 == "number"){
-if(data12 > 0.000001 || isNaN(data12)){
-const err46 = {instancePath:instancePath+"/device/model/ISE",schemaPath:"#/properties/device/properties/model/properties/ISE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.000001},message:"must be <= 0.000001",schema:0.000001,parentSchema:schema11.properties.device.properties.model.properties.ISE,data:data12};
+if(data6.NE !== undefined){
+let data13 = data6.NE;
+if(typeof data13 == "number"){
+if(data13 > 10 || isNaN(data13)){
+const err46 = {instancePath:instancePath+"/device/model/NE",schemaPath:"#/properties/device/properties/model/properties/NE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.device.properties.model.properties.NE,data:data13};
 if(vErrors === null){
 vErrors = [err46];
 }
@@ -631,8 +601,8 @@ vErrors.push(err46);
 }
 errors++;
 }
-if(data12 < 0 || isNaN(data12)){
-const err47 = {instancePath:instancePath+"/device/model/ISE",schemaPath:"#/properties/device/properties/model/properties/ISE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.ISE,data:data12};
+if(data13 < 0.5 || isNaN(data13)){
+const err47 = {instancePath:instancePath+"/device/model/NE",schemaPath:"#/properties/device/properties/model/properties/NE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.model.properties.NE,data:data13};
 if(vErrors === null){
 vErrors = [err47];
 }
@@ -643,7 +613,7 @@ errors++;
 }
 }
 else {
-const err48 = {instancePath:instancePath+"/device/model/ISE",schemaPath:"#/properties/device/properties/model/properties/ISE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.ISE.type,parentSchema:schema11.properties.device.properties.model.properties.ISE,data:data12};
+const err48 = {instancePath:instancePath+"/device/model/NE",schemaPath:"#/properties/device/properties/model/properties/NE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.NE.type,parentSchema:schema11.properties.device.properties.model.properties.NE,data:data13};
 if(vErrors === null){
 vErrors = [err48];
 }
@@ -653,11 +623,11 @@ vErrors.push(err48);
 errors++;
 }
 }
-if(data6.NE !== undefined){
-let data13 = data6.NE;
-if(typeof data13 == "number"){
-if(data13 > 10 || isNaN(data13)){
-const err49 = {instancePath:instancePath+"/device/model/NE",schemaPath:"#/properties/device/properties/model/properties/NE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.device.properties.model.properties.NE,data:data13};
+if(data6.BR !== undefined){
+let data14 = data6.BR;
+if(typeof data14 == "number"){
+if(data14 > 10000 || isNaN(data14)){
+const err49 = {instancePath:instancePath+"/device/model/BR",schemaPath:"#/properties/device/properties/model/properties/BR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.model.properties.BR,data:data14};
 if(vErrors === null){
 vErrors = [err49];
 }
@@ -666,8 +636,8 @@ vErrors.push(err49);
 }
 errors++;
 }
-if(data13 < 0.5 || isNaN(data13)){
-const err50 = {instancePath:instancePath+"/device/model/NE",schemaPath:"#/properties/device/properties/model/properties/NE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.model.properties.NE,data:data13};
+if(data14 <= 0 || isNaN(data14)){
+const err50 = {instancePath:instancePath+"/device/model/BR",schemaPath:"#/properties/device/properties/model/properties/BR/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.BR,data:data14};
 if(vErrors === null){
 vErrors = [err50];
 }
@@ -678,7 +648,7 @@ errors++;
 }
 }
 else {
-const err51 = {instancePath:instancePath+"/device/model/NE",schemaPath:"#/properties/device/properties/model/properties/NE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.NE.type,parentSchema:schema11.properties.device.properties.model.properties.NE,data:data13};
+const err51 = {instancePath:instancePath+"/device/model/BR",schemaPath:"#/properties/device/properties/model/properties/BR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.BR.type,parentSchema:schema11.properties.device.properties.model.properties.BR,data:data14};
 if(vErrors === null){
 vErrors = [err51];
 }
@@ -688,11 +658,11 @@ vErrors.push(err51);
 errors++;
 }
 }
-if(data6.BR !== undefined){
-let data14 = data6.BR;
-if(typeof data14 == "number"){
-if(data14 > 10000 || isNaN(data14)){
-const err52 = {instancePath:instancePath+"/device/model/BR",schemaPath:"#/properties/device/properties/model/properties/BR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.model.properties.BR,data:data14};
+if(data6.NR !== undefined){
+let data15 = data6.NR;
+if(typeof data15 == "number"){
+if(data15 > 5 || isNaN(data15)){
+const err52 = {instancePath:instancePath+"/device/model/NR",schemaPath:"#/properties/device/properties/model/properties/NR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5},message:"must be <= 5",schema:5,parentSchema:schema11.properties.device.properties.model.properties.NR,data:data15};
 if(vErrors === null){
 vErrors = [err52];
 }
@@ -701,8 +671,8 @@ vErrors.push(err52);
 }
 errors++;
 }
-if(data14 <= 0 || isNaN(data14)){
-const err53 = {instancePath:instancePath+"/device/model/BR",schemaPath:"#/properties/device/properties/model/properties/BR/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.BR,data:data14};
+if(data15 < 0.5 || isNaN(data15)){
+const err53 = {instancePath:instancePath+"/device/model/NR",schemaPath:"#/properties/device/properties/model/properties/NR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.model.properties.NR,data:data15};
 if(vErrors === null){
 vErrors = [err53];
 }
@@ -713,7 +683,7 @@ errors++;
 }
 }
 else {
-const err54 = {instancePath:instancePath+"/device/model/BR",schemaPath:"#/properties/device/properties/model/properties/BR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.BR.type,parentSchema:schema11.properties.device.properties.model.properties.BR,data:data14};
+const err54 = {instancePath:instancePath+"/device/model/NR",schemaPath:"#/properties/device/properties/model/properties/NR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.NR.type,parentSchema:schema11.properties.device.properties.model.properties.NR,data:data15};
 if(vErrors === null){
 vErrors = [err54];
 }
@@ -723,11 +693,13 @@ vErrors.push(err54);
 errors++;
 }
 }
-if(data6.NR !== undefined){
-let data15 = data6.NR;
-if(typeof data15 == "number"){
-if(data15 > 5 || isNaN(data15)){
-const err55 = {instancePath:instancePath+"/device/model/NR",schemaPath:"#/properties/device/properties/model/properties/NR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5},message:"must be <= 5",schema:5,parentSchema:schema11.properties.device.properties.model.properties.NR,data:data15};
+if(data6.VAR !== undefined){
+let data16 = data6.VAR;
+const _errs42 = errors;
+const _errs43 = errors;
+if(typeof data16 == "number"){
+if(data16 >= 0.1 || isNaN(data16)){
+const err55 = {};
 if(vErrors === null){
 vErrors = [err55];
 }
@@ -736,8 +708,9 @@ vErrors.push(err55);
 }
 errors++;
 }
-if(data15 < 0.5 || isNaN(data15)){
-const err56 = {instancePath:instancePath+"/device/model/NR",schemaPath:"#/properties/device/properties/model/properties/NR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.model.properties.NR,data:data15};
+else {
+if(data16 <= 0 || isNaN(data16)){
+const err56 = {};
 if(vErrors === null){
 vErrors = [err56];
 }
@@ -747,8 +720,10 @@ vErrors.push(err56);
 errors++;
 }
 }
-else {
-const err57 = {instancePath:instancePath+"/device/model/NR",schemaPath:"#/properties/device/properties/model/properties/NR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.NR.type,parentSchema:schema11.properties.device.properties.model.properties.NR,data:data15};
+}
+var valid5 = _errs43 === errors;
+if(valid5){
+const err57 = {instancePath:instancePath+"/device/model/VAR",schemaPath:"#/properties/device/properties/model/properties/VAR/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.model.properties.VAR.not,parentSchema:schema11.properties.device.properties.model.properties.VAR,data:data16};
 if(vErrors === null){
 vErrors = [err57];
 }
@@ -757,14 +732,20 @@ vErrors.push(err57);
 }
 errors++;
 }
+else {
+errors = _errs42;
+if(vErrors !== null){
+if(_errs42){
+vErrors.length = _errs42;
 }
-if(data6.VAR !== undefined){
-let data16 = data6.VAR;
-const _errs47 = errors;
-const _errs48 = errors;
+else {
+vErrors = null;
+}
+}
+}
 if(typeof data16 == "number"){
-if(data16 >= 0.1 || isNaN(data16)){
-const err58 = {};
+if(data16 > 10000 || isNaN(data16)){
+const err58 = {instancePath:instancePath+"/device/model/VAR",schemaPath:"#/properties/device/properties/model/properties/VAR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.model.properties.VAR,data:data16};
 if(vErrors === null){
 vErrors = [err58];
 }
@@ -773,9 +754,8 @@ vErrors.push(err58);
 }
 errors++;
 }
-else {
-if(data16 <= 0 || isNaN(data16)){
-const err59 = {};
+if(data16 < 0 || isNaN(data16)){
+const err59 = {instancePath:instancePath+"/device/model/VAR",schemaPath:"#/properties/device/properties/model/properties/VAR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.VAR,data:data16};
 if(vErrors === null){
 vErrors = [err59];
 }
@@ -785,10 +765,8 @@ vErrors.push(err59);
 errors++;
 }
 }
-}
-var valid7 = _errs48 === errors;
-if(valid7){
-const err60 = {instancePath:instancePath+"/device/model/VAR",schemaPath:"#/properties/device/properties/model/properties/VAR/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.model.properties.VAR.not,parentSchema:schema11.properties.device.properties.model.properties.VAR,data:data16};
+else {
+const err60 = {instancePath:instancePath+"/device/model/VAR",schemaPath:"#/properties/device/properties/model/properties/VAR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.VAR.type,parentSchema:schema11.properties.device.properties.model.properties.VAR,data:data16};
 if(vErrors === null){
 vErrors = [err60];
 }
@@ -797,20 +775,12 @@ vErrors.push(err60);
 }
 errors++;
 }
-else {
-errors = _errs47;
-if(vErrors !== null){
-if(_errs47){
-vErrors.length = _errs47;
 }
-else {
-vErrors = null;
-}
-}
-}
-if(typeof data16 == "number"){
-if(data16 > 10000 || isNaN(data16)){
-const err61 = {instancePath:instancePath+"/device/model/VAR",schemaPath:"#/properties/device/properties/model/properties/VAR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.model.properties.VAR,data:data16};
+if(data6.IKR !== undefined){
+let data17 = data6.IKR;
+if(typeof data17 == "number"){
+if(data17 > 1000 || isNaN(data17)){
+const err61 = {instancePath:instancePath+"/device/model/IKR",schemaPath:"#/properties/device/properties/model/properties/IKR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.model.properties.IKR,data:data17};
 if(vErrors === null){
 vErrors = [err61];
 }
@@ -819,8 +789,8 @@ vErrors.push(err61);
 }
 errors++;
 }
-if(data16 < 0 || isNaN(data16)){
-const err62 = {instancePath:instancePath+"/device/model/VAR",schemaPath:"#/properties/device/properties/model/properties/VAR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.VAR,data:data16};
+if(data17 < 0 || isNaN(data17)){
+const err62 = {instancePath:instancePath+"/device/model/IKR",schemaPath:"#/properties/device/properties/model/properties/IKR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.IKR,data:data17};
 if(vErrors === null){
 vErrors = [err62];
 }
@@ -831,7 +801,7 @@ errors++;
 }
 }
 else {
-const err63 = {instancePath:instancePath+"/device/model/VAR",schemaPath:"#/properties/device/properties/model/properties/VAR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.VAR.type,parentSchema:schema11.properties.device.properties.model.properties.VAR,data:data16};
+const err63 = {instancePath:instancePath+"/device/model/IKR",schemaPath:"#/properties/device/properties/model/properties/IKR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.IKR.type,parentSchema:schema11.properties.device.properties.model.properties.IKR,data:data17};
 if(vErrors === null){
 vErrors = [err63];
 }
@@ -841,11 +811,11 @@ vErrors.push(err63);
 errors++;
 }
 }
-if(data6.IKR !== undefined){
-let data17 = data6.IKR;
-if(typeof data17 == "number"){
-if(data17 > 1000 || isNaN(data17)){
-const err64 = {instancePath:instancePath+"/device/model/IKR",schemaPath:"#/properties/device/properties/model/properties/IKR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.model.properties.IKR,data:data17};
+if(data6.ISC !== undefined){
+let data18 = data6.ISC;
+if(typeof data18 == "number"){
+if(data18 > 0.000001 || isNaN(data18)){
+const err64 = {instancePath:instancePath+"/device/model/ISC",schemaPath:"#/properties/device/properties/model/properties/ISC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.000001},message:"must be <= 0.000001",schema:0.000001,parentSchema:schema11.properties.device.properties.model.properties.ISC,data:data18};
 if(vErrors === null){
 vErrors = [err64];
 }
@@ -854,8 +824,8 @@ vErrors.push(err64);
 }
 errors++;
 }
-if(data17 < 0 || isNaN(data17)){
-const err65 = {instancePath:instancePath+"/device/model/IKR",schemaPath:"#/properties/device/properties/model/properties/IKR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.IKR,data:data17};
+if(data18 < 0 || isNaN(data18)){
+const err65 = {instancePath:instancePath+"/device/model/ISC",schemaPath:"#/properties/device/properties/model/properties/ISC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.ISC,data:data18};
 if(vErrors === null){
 vErrors = [err65];
 }
@@ -866,7 +836,7 @@ errors++;
 }
 }
 else {
-const err66 = {instancePath:instancePath+"/device/model/IKR",schemaPath:"#/properties/device/properties/model/properties/IKR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.IKR.type,parentSchema:schema11.properties.device.properties.model.properties.IKR,data:data17};
+const err66 = {instancePath:instancePath+"/device/model/ISC",schemaPath:"#/properties/device/properties/model/properties/ISC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.ISC.type,parentSchema:schema11.properties.device.properties.model.properties.ISC,data:data18};
 if(vErrors === null){
 vErrors = [err66];
 }
@@ -876,11 +846,11 @@ vErrors.push(err66);
 errors++;
 }
 }
-if(data6.ISC !== undefined){
-let data18 = data6.ISC;
-if(typeof data18 == "number"){
-if(data18 > 0.000001 || isNaN(data18)){
-const err67 = {instancePath:instancePath+"/device/model/ISC",schemaPath:"#/properties/device/properties/model/properties/ISC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.000001},message:"must be <= 0.000001",schema:0.000001,parentSchema:schema11.properties.device.properties.model.properties.ISC,data:data18};
+if(data6.NC !== undefined){
+let data19 = data6.NC;
+if(typeof data19 == "number"){
+if(data19 > 10 || isNaN(data19)){
+const err67 = {instancePath:instancePath+"/device/model/NC",schemaPath:"#/properties/device/properties/model/properties/NC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.device.properties.model.properties.NC,data:data19};
 if(vErrors === null){
 vErrors = [err67];
 }
@@ -889,8 +859,8 @@ vErrors.push(err67);
 }
 errors++;
 }
-if(data18 < 0 || isNaN(data18)){
-const err68 = {instancePath:instancePath+"/device/model/ISC",schemaPath:"#/properties/device/properties/model/properties/ISC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.ISC,data:data18};
+if(data19 < 0.5 || isNaN(data19)){
+const err68 = {instancePath:instancePath+"/device/model/NC",schemaPath:"#/properties/device/properties/model/properties/NC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.model.properties.NC,data:data19};
 if(vErrors === null){
 vErrors = [err68];
 }
@@ -901,7 +871,7 @@ errors++;
 }
 }
 else {
-const err69 = {instancePath:instancePath+"/device/model/ISC",schemaPath:"#/properties/device/properties/model/properties/ISC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.ISC.type,parentSchema:schema11.properties.device.properties.model.properties.ISC,data:data18};
+const err69 = {instancePath:instancePath+"/device/model/NC",schemaPath:"#/properties/device/properties/model/properties/NC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.NC.type,parentSchema:schema11.properties.device.properties.model.properties.NC,data:data19};
 if(vErrors === null){
 vErrors = [err69];
 }
@@ -911,11 +881,11 @@ vErrors.push(err69);
 errors++;
 }
 }
-if(data6.NC !== undefined){
-let data19 = data6.NC;
-if(typeof data19 == "number"){
-if(data19 > 10 || isNaN(data19)){
-const err70 = {instancePath:instancePath+"/device/model/NC",schemaPath:"#/properties/device/properties/model/properties/NC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.device.properties.model.properties.NC,data:data19};
+if(data6.RB !== undefined){
+let data20 = data6.RB;
+if(typeof data20 == "number"){
+if(data20 > 1000000 || isNaN(data20)){
+const err70 = {instancePath:instancePath+"/device/model/RB",schemaPath:"#/properties/device/properties/model/properties/RB/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000},message:"must be <= 1000000",schema:1000000,parentSchema:schema11.properties.device.properties.model.properties.RB,data:data20};
 if(vErrors === null){
 vErrors = [err70];
 }
@@ -924,8 +894,8 @@ vErrors.push(err70);
 }
 errors++;
 }
-if(data19 < 0.5 || isNaN(data19)){
-const err71 = {instancePath:instancePath+"/device/model/NC",schemaPath:"#/properties/device/properties/model/properties/NC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.model.properties.NC,data:data19};
+if(data20 < 0 || isNaN(data20)){
+const err71 = {instancePath:instancePath+"/device/model/RB",schemaPath:"#/properties/device/properties/model/properties/RB/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.RB,data:data20};
 if(vErrors === null){
 vErrors = [err71];
 }
@@ -936,7 +906,7 @@ errors++;
 }
 }
 else {
-const err72 = {instancePath:instancePath+"/device/model/NC",schemaPath:"#/properties/device/properties/model/properties/NC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.NC.type,parentSchema:schema11.properties.device.properties.model.properties.NC,data:data19};
+const err72 = {instancePath:instancePath+"/device/model/RB",schemaPath:"#/properties/device/properties/model/properties/RB/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.RB.type,parentSchema:schema11.properties.device.properties.model.properties.RB,data:data20};
 if(vErrors === null){
 vErrors = [err72];
 }
@@ -946,11 +916,11 @@ vErrors.push(err72);
 errors++;
 }
 }
-if(data6.RB !== undefined){
-let data20 = data6.RB;
-if(typeof data20 == "number"){
-if(data20 > 1000000 || isNaN(data20)){
-const err73 = {instancePath:instancePath+"/device/model/RB",schemaPath:"#/properties/device/properties/model/properties/RB/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000},message:"must be <= 1000000",schema:1000000,parentSchema:schema11.properties.device.properties.model.properties.RB,data:data20};
+if(data6.RE !== undefined){
+let data21 = data6.RE;
+if(typeof data21 == "number"){
+if(data21 > 1000000 || isNaN(data21)){
+const err73 = {instancePath:instancePath+"/device/model/RE",schemaPath:"#/properties/device/properties/model/properties/RE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000},message:"must be <= 1000000",schema:1000000,parentSchema:schema11.properties.device.properties.model.properties.RE,data:data21};
 if(vErrors === null){
 vErrors = [err73];
 }
@@ -959,8 +929,8 @@ vErrors.push(err73);
 }
 errors++;
 }
-if(data20 < 0 || isNaN(data20)){
-const err74 = {instancePath:instancePath+"/device/model/RB",schemaPath:"#/properties/device/properties/model/properties/RB/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.RB,data:data20};
+if(data21 < 0 || isNaN(data21)){
+const err74 = {instancePath:instancePath+"/device/model/RE",schemaPath:"#/properties/device/properties/model/properties/RE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.RE,data:data21};
 if(vErrors === null){
 vErrors = [err74];
 }
@@ -971,7 +941,7 @@ errors++;
 }
 }
 else {
-const err75 = {instancePath:instancePath+"/device/model/RB",schemaPath:"#/properties/device/properties/model/properties/RB/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.RB.type,parentSchema:schema11.properties.device.properties.model.properties.RB,data:data20};
+const err75 = {instancePath:instancePath+"/device/model/RE",schemaPath:"#/properties/device/properties/model/properties/RE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.RE.type,parentSchema:schema11.properties.device.properties.model.properties.RE,data:data21};
 if(vErrors === null){
 vErrors = [err75];
 }
@@ -981,11 +951,11 @@ vErrors.push(err75);
 errors++;
 }
 }
-if(data6.RE !== undefined){
-let data21 = data6.RE;
-if(typeof data21 == "number"){
-if(data21 > 1000000 || isNaN(data21)){
-const err76 = {instancePath:instancePath+"/device/model/RE",schemaPath:"#/properties/device/properties/model/properties/RE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000},message:"must be <= 1000000",schema:1000000,parentSchema:schema11.properties.device.properties.model.properties.RE,data:data21};
+if(data6.RC !== undefined){
+let data22 = data6.RC;
+if(typeof data22 == "number"){
+if(data22 > 1000000 || isNaN(data22)){
+const err76 = {instancePath:instancePath+"/device/model/RC",schemaPath:"#/properties/device/properties/model/properties/RC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000},message:"must be <= 1000000",schema:1000000,parentSchema:schema11.properties.device.properties.model.properties.RC,data:data22};
 if(vErrors === null){
 vErrors = [err76];
 }
@@ -994,8 +964,8 @@ vErrors.push(err76);
 }
 errors++;
 }
-if(data21 < 0 || isNaN(data21)){
-const err77 = {instancePath:instancePath+"/device/model/RE",schemaPath:"#/properties/device/properties/model/properties/RE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.RE,data:data21};
+if(data22 < 0 || isNaN(data22)){
+const err77 = {instancePath:instancePath+"/device/model/RC",schemaPath:"#/properties/device/properties/model/properties/RC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.RC,data:data22};
 if(vErrors === null){
 vErrors = [err77];
 }
@@ -1006,7 +976,7 @@ errors++;
 }
 }
 else {
-const err78 = {instancePath:instancePath+"/device/model/RE",schemaPath:"#/properties/device/properties/model/properties/RE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.RE.type,parentSchema:schema11.properties.device.properties.model.properties.RE,data:data21};
+const err78 = {instancePath:instancePath+"/device/model/RC",schemaPath:"#/properties/device/properties/model/properties/RC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.RC.type,parentSchema:schema11.properties.device.properties.model.properties.RC,data:data22};
 if(vErrors === null){
 vErrors = [err78];
 }
@@ -1016,11 +986,11 @@ vErrors.push(err78);
 errors++;
 }
 }
-if(data6.RC !== undefined){
-let data22 = data6.RC;
-if(typeof data22 == "number"){
-if(data22 > 1000000 || isNaN(data22)){
-const err79 = {instancePath:instancePath+"/device/model/RC",schemaPath:"#/properties/device/properties/model/properties/RC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000},message:"must be <= 1000000",schema:1000000,parentSchema:schema11.properties.device.properties.model.properties.RC,data:data22};
+if(data6.CJE !== undefined){
+let data23 = data6.CJE;
+if(typeof data23 == "number"){
+if(data23 > 1e-8 || isNaN(data23)){
+const err79 = {instancePath:instancePath+"/device/model/CJE",schemaPath:"#/properties/device/properties/model/properties/CJE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.device.properties.model.properties.CJE,data:data23};
 if(vErrors === null){
 vErrors = [err79];
 }
@@ -1029,8 +999,8 @@ vErrors.push(err79);
 }
 errors++;
 }
-if(data22 < 0 || isNaN(data22)){
-const err80 = {instancePath:instancePath+"/device/model/RC",schemaPath:"#/properties/device/properties/model/properties/RC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.RC,data:data22};
+if(data23 < 0 || isNaN(data23)){
+const err80 = {instancePath:instancePath+"/device/model/CJE",schemaPath:"#/properties/device/properties/model/properties/CJE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.CJE,data:data23};
 if(vErrors === null){
 vErrors = [err80];
 }
@@ -1041,7 +1011,7 @@ errors++;
 }
 }
 else {
-const err81 = {instancePath:instancePath+"/device/model/RC",schemaPath:"#/properties/device/properties/model/properties/RC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.RC.type,parentSchema:schema11.properties.device.properties.model.properties.RC,data:data22};
+const err81 = {instancePath:instancePath+"/device/model/CJE",schemaPath:"#/properties/device/properties/model/properties/CJE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.CJE.type,parentSchema:schema11.properties.device.properties.model.properties.CJE,data:data23};
 if(vErrors === null){
 vErrors = [err81];
 }
@@ -1051,11 +1021,11 @@ vErrors.push(err81);
 errors++;
 }
 }
-if(data6.CJE !== undefined){
-let data23 = data6.CJE;
-if(typeof data23 == "number"){
-if(data23 > 1e-8 || isNaN(data23)){
-const err82 = {instancePath:instancePath+"/device/model/CJE",schemaPath:"#/properties/device/properties/model/properties/CJE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.device.properties.model.properties.CJE,data:data23};
+if(data6.VJE !== undefined){
+let data24 = data6.VJE;
+if(typeof data24 == "number"){
+if(data24 > 2 || isNaN(data24)){
+const err82 = {instancePath:instancePath+"/device/model/VJE",schemaPath:"#/properties/device/properties/model/properties/VJE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2},message:"must be <= 2",schema:2,parentSchema:schema11.properties.device.properties.model.properties.VJE,data:data24};
 if(vErrors === null){
 vErrors = [err82];
 }
@@ -1064,8 +1034,8 @@ vErrors.push(err82);
 }
 errors++;
 }
-if(data23 < 0 || isNaN(data23)){
-const err83 = {instancePath:instancePath+"/device/model/CJE",schemaPath:"#/properties/device/properties/model/properties/CJE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.CJE,data:data23};
+if(data24 < 0.1 || isNaN(data24)){
+const err83 = {instancePath:instancePath+"/device/model/VJE",schemaPath:"#/properties/device/properties/model/properties/VJE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.model.properties.VJE,data:data24};
 if(vErrors === null){
 vErrors = [err83];
 }
@@ -1076,7 +1046,7 @@ errors++;
 }
 }
 else {
-const err84 = {instancePath:instancePath+"/device/model/CJE",schemaPath:"#/properties/device/properties/model/properties/CJE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.CJE.type,parentSchema:schema11.properties.device.properties.model.properties.CJE,data:data23};
+const err84 = {instancePath:instancePath+"/device/model/VJE",schemaPath:"#/properties/device/properties/model/properties/VJE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.VJE.type,parentSchema:schema11.properties.device.properties.model.properties.VJE,data:data24};
 if(vErrors === null){
 vErrors = [err84];
 }
@@ -1086,11 +1056,11 @@ vErrors.push(err84);
 errors++;
 }
 }
-if(data6.VJE !== undefined){
-let data24 = data6.VJE;
-if(typeof data24 == "number"){
-if(data24 > 2 || isNaN(data24)){
-const err85 = {instancePath:instancePath+"/device/model/VJE",schemaPath:"#/properties/device/properties/model/properties/VJE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2},message:"must be <= 2",schema:2,parentSchema:schema11.properties.device.properties.model.properties.VJE,data:data24};
+if(data6.MJE !== undefined){
+let data25 = data6.MJE;
+if(typeof data25 == "number"){
+if(data25 > 0.9 || isNaN(data25)){
+const err85 = {instancePath:instancePath+"/device/model/MJE",schemaPath:"#/properties/device/properties/model/properties/MJE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.model.properties.MJE,data:data25};
 if(vErrors === null){
 vErrors = [err85];
 }
@@ -1099,8 +1069,8 @@ vErrors.push(err85);
 }
 errors++;
 }
-if(data24 < 0.1 || isNaN(data24)){
-const err86 = {instancePath:instancePath+"/device/model/VJE",schemaPath:"#/properties/device/properties/model/properties/VJE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.model.properties.VJE,data:data24};
+if(data25 < 0 || isNaN(data25)){
+const err86 = {instancePath:instancePath+"/device/model/MJE",schemaPath:"#/properties/device/properties/model/properties/MJE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.MJE,data:data25};
 if(vErrors === null){
 vErrors = [err86];
 }
@@ -1111,7 +1081,7 @@ errors++;
 }
 }
 else {
-const err87 = {instancePath:instancePath+"/device/model/VJE",schemaPath:"#/properties/device/properties/model/properties/VJE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.VJE.type,parentSchema:schema11.properties.device.properties.model.properties.VJE,data:data24};
+const err87 = {instancePath:instancePath+"/device/model/MJE",schemaPath:"#/properties/device/properties/model/properties/MJE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.MJE.type,parentSchema:schema11.properties.device.properties.model.properties.MJE,data:data25};
 if(vErrors === null){
 vErrors = [err87];
 }
@@ -1121,11 +1091,11 @@ vErrors.push(err87);
 errors++;
 }
 }
-if(data6.MJE !== undefined){
-let data25 = data6.MJE;
-if(typeof data25 == "number"){
-if(data25 > 0.9 || isNaN(data25)){
-const err88 = {instancePath:instancePath+"/device/model/MJE",schemaPath:"#/properties/device/properties/model/properties/MJE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.model.properties.MJE,data:data25};
+if(data6.CJC !== undefined){
+let data26 = data6.CJC;
+if(typeof data26 == "number"){
+if(data26 > 1e-8 || isNaN(data26)){
+const err88 = {instancePath:instancePath+"/device/model/CJC",schemaPath:"#/properties/device/properties/model/properties/CJC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.device.properties.model.properties.CJC,data:data26};
 if(vErrors === null){
 vErrors = [err88];
 }
@@ -1134,8 +1104,8 @@ vErrors.push(err88);
 }
 errors++;
 }
-if(data25 < 0 || isNaN(data25)){
-const err89 = {instancePath:instancePath+"/device/model/MJE",schemaPath:"#/properties/device/properties/model/properties/MJE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.MJE,data:data25};
+if(data26 < 0 || isNaN(data26)){
+const err89 = {instancePath:instancePath+"/device/model/CJC",schemaPath:"#/properties/device/properties/model/properties/CJC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.CJC,data:data26};
 if(vErrors === null){
 vErrors = [err89];
 }
@@ -1146,7 +1116,7 @@ errors++;
 }
 }
 else {
-const err90 = {instancePath:instancePath+"/device/model/MJE",schemaPath:"#/properties/device/properties/model/properties/MJE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.MJE.type,parentSchema:schema11.properties.device.properties.model.properties.MJE,data:data25};
+const err90 = {instancePath:instancePath+"/device/model/CJC",schemaPath:"#/properties/device/properties/model/properties/CJC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.CJC.type,parentSchema:schema11.properties.device.properties.model.properties.CJC,data:data26};
 if(vErrors === null){
 vErrors = [err90];
 }
@@ -1156,11 +1126,11 @@ vErrors.push(err90);
 errors++;
 }
 }
-if(data6.CJC !== undefined){
-let data26 = data6.CJC;
-if(typeof data26 == "number"){
-if(data26 > 1e-8 || isNaN(data26)){
-const err91 = {instancePath:instancePath+"/device/model/CJC",schemaPath:"#/properties/device/properties/model/properties/CJC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.device.properties.model.properties.CJC,data:data26};
+if(data6.VJC !== undefined){
+let data27 = data6.VJC;
+if(typeof data27 == "number"){
+if(data27 > 2 || isNaN(data27)){
+const err91 = {instancePath:instancePath+"/device/model/VJC",schemaPath:"#/properties/device/properties/model/properties/VJC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2},message:"must be <= 2",schema:2,parentSchema:schema11.properties.device.properties.model.properties.VJC,data:data27};
 if(vErrors === null){
 vErrors = [err91];
 }
@@ -1169,8 +1139,8 @@ vErrors.push(err91);
 }
 errors++;
 }
-if(data26 < 0 || isNaN(data26)){
-const err92 = {instancePath:instancePath+"/device/model/CJC",schemaPath:"#/properties/device/properties/model/properties/CJC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.CJC,data:data26};
+if(data27 < 0.1 || isNaN(data27)){
+const err92 = {instancePath:instancePath+"/device/model/VJC",schemaPath:"#/properties/device/properties/model/properties/VJC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.model.properties.VJC,data:data27};
 if(vErrors === null){
 vErrors = [err92];
 }
@@ -1181,7 +1151,7 @@ errors++;
 }
 }
 else {
-const err93 = {instancePath:instancePath+"/device/model/CJC",schemaPath:"#/properties/device/properties/model/properties/CJC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.CJC.type,parentSchema:schema11.properties.device.properties.model.properties.CJC,data:data26};
+const err93 = {instancePath:instancePath+"/device/model/VJC",schemaPath:"#/properties/device/properties/model/properties/VJC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.VJC.type,parentSchema:schema11.properties.device.properties.model.properties.VJC,data:data27};
 if(vErrors === null){
 vErrors = [err93];
 }
@@ -1191,11 +1161,11 @@ vErrors.push(err93);
 errors++;
 }
 }
-if(data6.VJC !== undefined){
-let data27 = data6.VJC;
-if(typeof data27 == "number"){
-if(data27 > 2 || isNaN(data27)){
-const err94 = {instancePath:instancePath+"/device/model/VJC",schemaPath:"#/properties/device/properties/model/properties/VJC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2},message:"must be <= 2",schema:2,parentSchema:schema11.properties.device.properties.model.properties.VJC,data:data27};
+if(data6.MJC !== undefined){
+let data28 = data6.MJC;
+if(typeof data28 == "number"){
+if(data28 > 0.9 || isNaN(data28)){
+const err94 = {instancePath:instancePath+"/device/model/MJC",schemaPath:"#/properties/device/properties/model/properties/MJC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.model.properties.MJC,data:data28};
 if(vErrors === null){
 vErrors = [err94];
 }
@@ -1204,8 +1174,8 @@ vErrors.push(err94);
 }
 errors++;
 }
-if(data27 < 0.1 || isNaN(data27)){
-const err95 = {instancePath:instancePath+"/device/model/VJC",schemaPath:"#/properties/device/properties/model/properties/VJC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.model.properties.VJC,data:data27};
+if(data28 < 0 || isNaN(data28)){
+const err95 = {instancePath:instancePath+"/device/model/MJC",schemaPath:"#/properties/device/properties/model/properties/MJC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.MJC,data:data28};
 if(vErrors === null){
 vErrors = [err95];
 }
@@ -1216,7 +1186,7 @@ errors++;
 }
 }
 else {
-const err96 = {instancePath:instancePath+"/device/model/VJC",schemaPath:"#/properties/device/properties/model/properties/VJC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.VJC.type,parentSchema:schema11.properties.device.properties.model.properties.VJC,data:data27};
+const err96 = {instancePath:instancePath+"/device/model/MJC",schemaPath:"#/properties/device/properties/model/properties/MJC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.MJC.type,parentSchema:schema11.properties.device.properties.model.properties.MJC,data:data28};
 if(vErrors === null){
 vErrors = [err96];
 }
@@ -1226,11 +1196,11 @@ vErrors.push(err96);
 errors++;
 }
 }
-if(data6.MJC !== undefined){
-let data28 = data6.MJC;
-if(typeof data28 == "number"){
-if(data28 > 0.9 || isNaN(data28)){
-const err97 = {instancePath:instancePath+"/device/model/MJC",schemaPath:"#/properties/device/properties/model/properties/MJC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.model.properties.MJC,data:data28};
+if(data6.CJS !== undefined){
+let data29 = data6.CJS;
+if(typeof data29 == "number"){
+if(data29 > 1e-8 || isNaN(data29)){
+const err97 = {instancePath:instancePath+"/device/model/CJS",schemaPath:"#/properties/device/properties/model/properties/CJS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.device.properties.model.properties.CJS,data:data29};
 if(vErrors === null){
 vErrors = [err97];
 }
@@ -1239,8 +1209,8 @@ vErrors.push(err97);
 }
 errors++;
 }
-if(data28 < 0 || isNaN(data28)){
-const err98 = {instancePath:instancePath+"/device/model/MJC",schemaPath:"#/properties/device/properties/model/properties/MJC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.MJC,data:data28};
+if(data29 < 0 || isNaN(data29)){
+const err98 = {instancePath:instancePath+"/device/model/CJS",schemaPath:"#/properties/device/properties/model/properties/CJS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.CJS,data:data29};
 if(vErrors === null){
 vErrors = [err98];
 }
@@ -1251,7 +1221,7 @@ errors++;
 }
 }
 else {
-const err99 = {instancePath:instancePath+"/device/model/MJC",schemaPath:"#/properties/device/properties/model/properties/MJC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.MJC.type,parentSchema:schema11.properties.device.properties.model.properties.MJC,data:data28};
+const err99 = {instancePath:instancePath+"/device/model/CJS",schemaPath:"#/properties/device/properties/model/properties/CJS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.CJS.type,parentSchema:schema11.properties.device.properties.model.properties.CJS,data:data29};
 if(vErrors === null){
 vErrors = [err99];
 }
@@ -1261,11 +1231,11 @@ vErrors.push(err99);
 errors++;
 }
 }
-if(data6.CJS !== undefined){
-let data29 = data6.CJS;
-if(typeof data29 == "number"){
-if(data29 > 1e-8 || isNaN(data29)){
-const err100 = {instancePath:instancePath+"/device/model/CJS",schemaPath:"#/properties/device/properties/model/properties/CJS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.device.properties.model.properties.CJS,data:data29};
+if(data6.VJS !== undefined){
+let data30 = data6.VJS;
+if(typeof data30 == "number"){
+if(data30 > 2 || isNaN(data30)){
+const err100 = {instancePath:instancePath+"/device/model/VJS",schemaPath:"#/properties/device/properties/model/properties/VJS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2},message:"must be <= 2",schema:2,parentSchema:schema11.properties.device.properties.model.properties.VJS,data:data30};
 if(vErrors === null){
 vErrors = [err100];
 }
@@ -1274,8 +1244,8 @@ vErrors.push(err100);
 }
 errors++;
 }
-if(data29 < 0 || isNaN(data29)){
-const err101 = {instancePath:instancePath+"/device/model/CJS",schemaPath:"#/properties/device/properties/model/properties/CJS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.CJS,data:data29};
+if(data30 < 0.1 || isNaN(data30)){
+const err101 = {instancePath:instancePath+"/device/model/VJS",schemaPath:"#/properties/device/properties/model/properties/VJS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.model.properties.VJS,data:data30};
 if(vErrors === null){
 vErrors = [err101];
 }
@@ -1286,7 +1256,7 @@ errors++;
 }
 }
 else {
-const err102 = {instancePath:instancePath+"/device/model/CJS",schemaPath:"#/properties/device/properties/model/properties/CJS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.CJS.type,parentSchema:schema11.properties.device.properties.model.properties.CJS,data:data29};
+const err102 = {instancePath:instancePath+"/device/model/VJS",schemaPath:"#/properties/device/properties/model/properties/VJS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.VJS.type,parentSchema:schema11.properties.device.properties.model.properties.VJS,data:data30};
 if(vErrors === null){
 vErrors = [err102];
 }
@@ -1296,11 +1266,11 @@ vErrors.push(err102);
 errors++;
 }
 }
-if(data6.VJS !== undefined){
-let data30 = data6.VJS;
-if(typeof data30 == "number"){
-if(data30 > 2 || isNaN(data30)){
-const err103 = {instancePath:instancePath+"/device/model/VJS",schemaPath:"#/properties/device/properties/model/properties/VJS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2},message:"must be <= 2",schema:2,parentSchema:schema11.properties.device.properties.model.properties.VJS,data:data30};
+if(data6.MJS !== undefined){
+let data31 = data6.MJS;
+if(typeof data31 == "number"){
+if(data31 > 0.9 || isNaN(data31)){
+const err103 = {instancePath:instancePath+"/device/model/MJS",schemaPath:"#/properties/device/properties/model/properties/MJS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.model.properties.MJS,data:data31};
 if(vErrors === null){
 vErrors = [err103];
 }
@@ -1309,8 +1279,8 @@ vErrors.push(err103);
 }
 errors++;
 }
-if(data30 < 0.1 || isNaN(data30)){
-const err104 = {instancePath:instancePath+"/device/model/VJS",schemaPath:"#/properties/device/properties/model/properties/VJS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.model.properties.VJS,data:data30};
+if(data31 < 0 || isNaN(data31)){
+const err104 = {instancePath:instancePath+"/device/model/MJS",schemaPath:"#/properties/device/properties/model/properties/MJS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.MJS,data:data31};
 if(vErrors === null){
 vErrors = [err104];
 }
@@ -1321,7 +1291,7 @@ errors++;
 }
 }
 else {
-const err105 = {instancePath:instancePath+"/device/model/VJS",schemaPath:"#/properties/device/properties/model/properties/VJS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.VJS.type,parentSchema:schema11.properties.device.properties.model.properties.VJS,data:data30};
+const err105 = {instancePath:instancePath+"/device/model/MJS",schemaPath:"#/properties/device/properties/model/properties/MJS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.MJS.type,parentSchema:schema11.properties.device.properties.model.properties.MJS,data:data31};
 if(vErrors === null){
 vErrors = [err105];
 }
@@ -1331,11 +1301,11 @@ vErrors.push(err105);
 errors++;
 }
 }
-if(data6.MJS !== undefined){
-let data31 = data6.MJS;
-if(typeof data31 == "number"){
-if(data31 > 0.9 || isNaN(data31)){
-const err106 = {instancePath:instancePath+"/device/model/MJS",schemaPath:"#/properties/device/properties/model/properties/MJS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.model.properties.MJS,data:data31};
+if(data6.FC !== undefined){
+let data32 = data6.FC;
+if(typeof data32 == "number"){
+if(data32 > 0.95 || isNaN(data32)){
+const err106 = {instancePath:instancePath+"/device/model/FC",schemaPath:"#/properties/device/properties/model/properties/FC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.95},message:"must be <= 0.95",schema:0.95,parentSchema:schema11.properties.device.properties.model.properties.FC,data:data32};
 if(vErrors === null){
 vErrors = [err106];
 }
@@ -1344,8 +1314,8 @@ vErrors.push(err106);
 }
 errors++;
 }
-if(data31 < 0 || isNaN(data31)){
-const err107 = {instancePath:instancePath+"/device/model/MJS",schemaPath:"#/properties/device/properties/model/properties/MJS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.MJS,data:data31};
+if(data32 < 0 || isNaN(data32)){
+const err107 = {instancePath:instancePath+"/device/model/FC",schemaPath:"#/properties/device/properties/model/properties/FC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.FC,data:data32};
 if(vErrors === null){
 vErrors = [err107];
 }
@@ -1356,7 +1326,7 @@ errors++;
 }
 }
 else {
-const err108 = {instancePath:instancePath+"/device/model/MJS",schemaPath:"#/properties/device/properties/model/properties/MJS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.MJS.type,parentSchema:schema11.properties.device.properties.model.properties.MJS,data:data31};
+const err108 = {instancePath:instancePath+"/device/model/FC",schemaPath:"#/properties/device/properties/model/properties/FC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.FC.type,parentSchema:schema11.properties.device.properties.model.properties.FC,data:data32};
 if(vErrors === null){
 vErrors = [err108];
 }
@@ -1366,11 +1336,11 @@ vErrors.push(err108);
 errors++;
 }
 }
-if(data6.FC !== undefined){
-let data32 = data6.FC;
-if(typeof data32 == "number"){
-if(data32 > 0.95 || isNaN(data32)){
-const err109 = {instancePath:instancePath+"/device/model/FC",schemaPath:"#/properties/device/properties/model/properties/FC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.95},message:"must be <= 0.95",schema:0.95,parentSchema:schema11.properties.device.properties.model.properties.FC,data:data32};
+if(data6.TF !== undefined){
+let data33 = data6.TF;
+if(typeof data33 == "number"){
+if(data33 > 0.001 || isNaN(data33)){
+const err109 = {instancePath:instancePath+"/device/model/TF",schemaPath:"#/properties/device/properties/model/properties/TF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.device.properties.model.properties.TF,data:data33};
 if(vErrors === null){
 vErrors = [err109];
 }
@@ -1379,8 +1349,8 @@ vErrors.push(err109);
 }
 errors++;
 }
-if(data32 < 0 || isNaN(data32)){
-const err110 = {instancePath:instancePath+"/device/model/FC",schemaPath:"#/properties/device/properties/model/properties/FC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.FC,data:data32};
+if(data33 < 0 || isNaN(data33)){
+const err110 = {instancePath:instancePath+"/device/model/TF",schemaPath:"#/properties/device/properties/model/properties/TF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.TF,data:data33};
 if(vErrors === null){
 vErrors = [err110];
 }
@@ -1391,7 +1361,7 @@ errors++;
 }
 }
 else {
-const err111 = {instancePath:instancePath+"/device/model/FC",schemaPath:"#/properties/device/properties/model/properties/FC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.FC.type,parentSchema:schema11.properties.device.properties.model.properties.FC,data:data32};
+const err111 = {instancePath:instancePath+"/device/model/TF",schemaPath:"#/properties/device/properties/model/properties/TF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.TF.type,parentSchema:schema11.properties.device.properties.model.properties.TF,data:data33};
 if(vErrors === null){
 vErrors = [err111];
 }
@@ -1401,11 +1371,11 @@ vErrors.push(err111);
 errors++;
 }
 }
-if(data6.TF !== undefined){
-let data33 = data6.TF;
-if(typeof data33 == "number"){
-if(data33 > 0.001 || isNaN(data33)){
-const err112 = {instancePath:instancePath+"/device/model/TF",schemaPath:"#/properties/device/properties/model/properties/TF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.device.properties.model.properties.TF,data:data33};
+if(data6.TR !== undefined){
+let data34 = data6.TR;
+if(typeof data34 == "number"){
+if(data34 > 0.001 || isNaN(data34)){
+const err112 = {instancePath:instancePath+"/device/model/TR",schemaPath:"#/properties/device/properties/model/properties/TR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.device.properties.model.properties.TR,data:data34};
 if(vErrors === null){
 vErrors = [err112];
 }
@@ -1414,8 +1384,8 @@ vErrors.push(err112);
 }
 errors++;
 }
-if(data33 < 0 || isNaN(data33)){
-const err113 = {instancePath:instancePath+"/device/model/TF",schemaPath:"#/properties/device/properties/model/properties/TF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.TF,data:data33};
+if(data34 < 0 || isNaN(data34)){
+const err113 = {instancePath:instancePath+"/device/model/TR",schemaPath:"#/properties/device/properties/model/properties/TR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.TR,data:data34};
 if(vErrors === null){
 vErrors = [err113];
 }
@@ -1426,7 +1396,7 @@ errors++;
 }
 }
 else {
-const err114 = {instancePath:instancePath+"/device/model/TF",schemaPath:"#/properties/device/properties/model/properties/TF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.TF.type,parentSchema:schema11.properties.device.properties.model.properties.TF,data:data33};
+const err114 = {instancePath:instancePath+"/device/model/TR",schemaPath:"#/properties/device/properties/model/properties/TR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.TR.type,parentSchema:schema11.properties.device.properties.model.properties.TR,data:data34};
 if(vErrors === null){
 vErrors = [err114];
 }
@@ -1436,11 +1406,11 @@ vErrors.push(err114);
 errors++;
 }
 }
-if(data6.TR !== undefined){
-let data34 = data6.TR;
-if(typeof data34 == "number"){
-if(data34 > 0.001 || isNaN(data34)){
-const err115 = {instancePath:instancePath+"/device/model/TR",schemaPath:"#/properties/device/properties/model/properties/TR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.device.properties.model.properties.TR,data:data34};
+if(data6.EG !== undefined){
+let data35 = data6.EG;
+if(typeof data35 == "number"){
+if(data35 > 4 || isNaN(data35)){
+const err115 = {instancePath:instancePath+"/device/model/EG",schemaPath:"#/properties/device/properties/model/properties/EG/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4},message:"must be <= 4",schema:4,parentSchema:schema11.properties.device.properties.model.properties.EG,data:data35};
 if(vErrors === null){
 vErrors = [err115];
 }
@@ -1449,8 +1419,8 @@ vErrors.push(err115);
 }
 errors++;
 }
-if(data34 < 0 || isNaN(data34)){
-const err116 = {instancePath:instancePath+"/device/model/TR",schemaPath:"#/properties/device/properties/model/properties/TR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.TR,data:data34};
+if(data35 < 0.1 || isNaN(data35)){
+const err116 = {instancePath:instancePath+"/device/model/EG",schemaPath:"#/properties/device/properties/model/properties/EG/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.model.properties.EG,data:data35};
 if(vErrors === null){
 vErrors = [err116];
 }
@@ -1461,7 +1431,7 @@ errors++;
 }
 }
 else {
-const err117 = {instancePath:instancePath+"/device/model/TR",schemaPath:"#/properties/device/properties/model/properties/TR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.TR.type,parentSchema:schema11.properties.device.properties.model.properties.TR,data:data34};
+const err117 = {instancePath:instancePath+"/device/model/EG",schemaPath:"#/properties/device/properties/model/properties/EG/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.EG.type,parentSchema:schema11.properties.device.properties.model.properties.EG,data:data35};
 if(vErrors === null){
 vErrors = [err117];
 }
@@ -1471,11 +1441,11 @@ vErrors.push(err117);
 errors++;
 }
 }
-if(data6.EG !== undefined){
-let data35 = data6.EG;
-if(typeof data35 == "number"){
-if(data35 > 4 || isNaN(data35)){
-const err118 = {instancePath:instancePath+"/device/model/EG",schemaPath:"#/properties/device/properties/model/properties/EG/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4},message:"must be <= 4",schema:4,parentSchema:schema11.properties.device.properties.model.properties.EG,data:data35};
+if(data6.XTI !== undefined){
+let data36 = data6.XTI;
+if(typeof data36 == "number"){
+if(data36 > 10 || isNaN(data36)){
+const err118 = {instancePath:instancePath+"/device/model/XTI",schemaPath:"#/properties/device/properties/model/properties/XTI/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.device.properties.model.properties.XTI,data:data36};
 if(vErrors === null){
 vErrors = [err118];
 }
@@ -1484,8 +1454,8 @@ vErrors.push(err118);
 }
 errors++;
 }
-if(data35 < 0.1 || isNaN(data35)){
-const err119 = {instancePath:instancePath+"/device/model/EG",schemaPath:"#/properties/device/properties/model/properties/EG/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.model.properties.EG,data:data35};
+if(data36 < -10 || isNaN(data36)){
+const err119 = {instancePath:instancePath+"/device/model/XTI",schemaPath:"#/properties/device/properties/model/properties/XTI/minimum",keyword:"minimum",params:{comparison: ">=", limit: -10},message:"must be >= -10",schema:-10,parentSchema:schema11.properties.device.properties.model.properties.XTI,data:data36};
 if(vErrors === null){
 vErrors = [err119];
 }
@@ -1496,7 +1466,7 @@ errors++;
 }
 }
 else {
-const err120 = {instancePath:instancePath+"/device/model/EG",schemaPath:"#/properties/device/properties/model/properties/EG/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.EG.type,parentSchema:schema11.properties.device.properties.model.properties.EG,data:data35};
+const err120 = {instancePath:instancePath+"/device/model/XTI",schemaPath:"#/properties/device/properties/model/properties/XTI/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.XTI.type,parentSchema:schema11.properties.device.properties.model.properties.XTI,data:data36};
 if(vErrors === null){
 vErrors = [err120];
 }
@@ -1506,11 +1476,11 @@ vErrors.push(err120);
 errors++;
 }
 }
-if(data6.XTI !== undefined){
-let data36 = data6.XTI;
-if(typeof data36 == "number"){
-if(data36 > 10 || isNaN(data36)){
-const err121 = {instancePath:instancePath+"/device/model/XTI",schemaPath:"#/properties/device/properties/model/properties/XTI/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.device.properties.model.properties.XTI,data:data36};
+if(data6.XTB !== undefined){
+let data37 = data6.XTB;
+if(typeof data37 == "number"){
+if(data37 > 5 || isNaN(data37)){
+const err121 = {instancePath:instancePath+"/device/model/XTB",schemaPath:"#/properties/device/properties/model/properties/XTB/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5},message:"must be <= 5",schema:5,parentSchema:schema11.properties.device.properties.model.properties.XTB,data:data37};
 if(vErrors === null){
 vErrors = [err121];
 }
@@ -1519,8 +1489,8 @@ vErrors.push(err121);
 }
 errors++;
 }
-if(data36 < -10 || isNaN(data36)){
-const err122 = {instancePath:instancePath+"/device/model/XTI",schemaPath:"#/properties/device/properties/model/properties/XTI/minimum",keyword:"minimum",params:{comparison: ">=", limit: -10},message:"must be >= -10",schema:-10,parentSchema:schema11.properties.device.properties.model.properties.XTI,data:data36};
+if(data37 < -5 || isNaN(data37)){
+const err122 = {instancePath:instancePath+"/device/model/XTB",schemaPath:"#/properties/device/properties/model/properties/XTB/minimum",keyword:"minimum",params:{comparison: ">=", limit: -5},message:"must be >= -5",schema:-5,parentSchema:schema11.properties.device.properties.model.properties.XTB,data:data37};
 if(vErrors === null){
 vErrors = [err122];
 }
@@ -1531,7 +1501,7 @@ errors++;
 }
 }
 else {
-const err123 = {instancePath:instancePath+"/device/model/XTI",schemaPath:"#/properties/device/properties/model/properties/XTI/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.XTI.type,parentSchema:schema11.properties.device.properties.model.properties.XTI,data:data36};
+const err123 = {instancePath:instancePath+"/device/model/XTB",schemaPath:"#/properties/device/properties/model/properties/XTB/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.XTB.type,parentSchema:schema11.properties.device.properties.model.properties.XTB,data:data37};
 if(vErrors === null){
 vErrors = [err123];
 }
@@ -1541,11 +1511,11 @@ vErrors.push(err123);
 errors++;
 }
 }
-if(data6.XTB !== undefined){
-let data37 = data6.XTB;
-if(typeof data37 == "number"){
-if(data37 > 5 || isNaN(data37)){
-const err124 = {instancePath:instancePath+"/device/model/XTB",schemaPath:"#/properties/device/properties/model/properties/XTB/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5},message:"must be <= 5",schema:5,parentSchema:schema11.properties.device.properties.model.properties.XTB,data:data37};
+if(data6.KF !== undefined){
+let data38 = data6.KF;
+if(typeof data38 == "number"){
+if(data38 > 0.001 || isNaN(data38)){
+const err124 = {instancePath:instancePath+"/device/model/KF",schemaPath:"#/properties/device/properties/model/properties/KF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.device.properties.model.properties.KF,data:data38};
 if(vErrors === null){
 vErrors = [err124];
 }
@@ -1554,8 +1524,8 @@ vErrors.push(err124);
 }
 errors++;
 }
-if(data37 < -5 || isNaN(data37)){
-const err125 = {instancePath:instancePath+"/device/model/XTB",schemaPath:"#/properties/device/properties/model/properties/XTB/minimum",keyword:"minimum",params:{comparison: ">=", limit: -5},message:"must be >= -5",schema:-5,parentSchema:schema11.properties.device.properties.model.properties.XTB,data:data37};
+if(data38 < 0 || isNaN(data38)){
+const err125 = {instancePath:instancePath+"/device/model/KF",schemaPath:"#/properties/device/properties/model/properties/KF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.KF,data:data38};
 if(vErrors === null){
 vErrors = [err125];
 }
@@ -1566,7 +1536,7 @@ errors++;
 }
 }
 else {
-const err126 = {instancePath:instancePath+"/device/model/XTB",schemaPath:"#/properties/device/properties/model/properties/XTB/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.XTB.type,parentSchema:schema11.properties.device.properties.model.properties.XTB,data:data37};
+const err126 = {instancePath:instancePath+"/device/model/KF",schemaPath:"#/properties/device/properties/model/properties/KF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.KF.type,parentSchema:schema11.properties.device.properties.model.properties.KF,data:data38};
 if(vErrors === null){
 vErrors = [err126];
 }
@@ -1576,11 +1546,11 @@ vErrors.push(err126);
 errors++;
 }
 }
-if(data6.KF !== undefined){
-let data38 = data6.KF;
-if(typeof data38 == "number"){
-if(data38 > 0.001 || isNaN(data38)){
-const err127 = {instancePath:instancePath+"/device/model/KF",schemaPath:"#/properties/device/properties/model/properties/KF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.device.properties.model.properties.KF,data:data38};
+if(data6.AF !== undefined){
+let data39 = data6.AF;
+if(typeof data39 == "number"){
+if(data39 > 4 || isNaN(data39)){
+const err127 = {instancePath:instancePath+"/device/model/AF",schemaPath:"#/properties/device/properties/model/properties/AF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4},message:"must be <= 4",schema:4,parentSchema:schema11.properties.device.properties.model.properties.AF,data:data39};
 if(vErrors === null){
 vErrors = [err127];
 }
@@ -1589,8 +1559,8 @@ vErrors.push(err127);
 }
 errors++;
 }
-if(data38 < 0 || isNaN(data38)){
-const err128 = {instancePath:instancePath+"/device/model/KF",schemaPath:"#/properties/device/properties/model/properties/KF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.model.properties.KF,data:data38};
+if(data39 < 0.1 || isNaN(data39)){
+const err128 = {instancePath:instancePath+"/device/model/AF",schemaPath:"#/properties/device/properties/model/properties/AF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.model.properties.AF,data:data39};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -1601,7 +1571,7 @@ errors++;
 }
 }
 else {
-const err129 = {instancePath:instancePath+"/device/model/KF",schemaPath:"#/properties/device/properties/model/properties/KF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.KF.type,parentSchema:schema11.properties.device.properties.model.properties.KF,data:data38};
+const err129 = {instancePath:instancePath+"/device/model/AF",schemaPath:"#/properties/device/properties/model/properties/AF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.AF.type,parentSchema:schema11.properties.device.properties.model.properties.AF,data:data39};
 if(vErrors === null){
 vErrors = [err129];
 }
@@ -1611,11 +1581,9 @@ vErrors.push(err129);
 errors++;
 }
 }
-if(data6.AF !== undefined){
-let data39 = data6.AF;
-if(typeof data39 == "number"){
-if(data39 > 4 || isNaN(data39)){
-const err130 = {instancePath:instancePath+"/device/model/AF",schemaPath:"#/properties/device/properties/model/properties/AF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4},message:"must be <= 4",schema:4,parentSchema:schema11.properties.device.properties.model.properties.AF,data:data39};
+}
+else {
+const err130 = {instancePath:instancePath+"/device/model",schemaPath:"#/properties/device/properties/model/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.properties.model.type,parentSchema:schema11.properties.device.properties.model,data:data6};
 if(vErrors === null){
 vErrors = [err130];
 }
@@ -1624,8 +1592,12 @@ vErrors.push(err130);
 }
 errors++;
 }
-if(data39 < 0.1 || isNaN(data39)){
-const err131 = {instancePath:instancePath+"/device/model/AF",schemaPath:"#/properties/device/properties/model/properties/AF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.model.properties.AF,data:data39};
+}
+if(data1.vbeOnV !== undefined){
+let data40 = data1.vbeOnV;
+if(typeof data40 == "number"){
+if(data40 > 0.9 || isNaN(data40)){
+const err131 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.vbeOnV,data:data40};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -1634,9 +1606,8 @@ vErrors.push(err131);
 }
 errors++;
 }
-}
-else {
-const err132 = {instancePath:instancePath+"/device/model/AF",schemaPath:"#/properties/device/properties/model/properties/AF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.model.properties.AF.type,parentSchema:schema11.properties.device.properties.model.properties.AF,data:data39};
+if(data40 < 0.4 || isNaN(data40)){
+const err132 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.4},message:"must be >= 0.4",schema:0.4,parentSchema:schema11.properties.device.properties.vbeOnV,data:data40};
 if(vErrors === null){
 vErrors = [err132];
 }
@@ -1646,9 +1617,8 @@ vErrors.push(err132);
 errors++;
 }
 }
-}
 else {
-const err133 = {instancePath:instancePath+"/device/model",schemaPath:"#/properties/device/properties/model/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.properties.model.type,parentSchema:schema11.properties.device.properties.model,data:data6};
+const err133 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vbeOnV.type,parentSchema:schema11.properties.device.properties.vbeOnV,data:data40};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -1658,11 +1628,11 @@ vErrors.push(err133);
 errors++;
 }
 }
-if(data1.vbeOnV !== undefined){
-let data40 = data1.vbeOnV;
-if(typeof data40 == "number"){
-if(data40 > 0.9 || isNaN(data40)){
-const err134 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.vbeOnV,data:data40};
+if(data1.vceSatV !== undefined){
+let data41 = data1.vceSatV;
+if(typeof data41 == "number"){
+if(data41 > 1 || isNaN(data41)){
+const err134 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.device.properties.vceSatV,data:data41};
 if(vErrors === null){
 vErrors = [err134];
 }
@@ -1671,8 +1641,8 @@ vErrors.push(err134);
 }
 errors++;
 }
-if(data40 < 0.4 || isNaN(data40)){
-const err135 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.4},message:"must be >= 0.4",schema:0.4,parentSchema:schema11.properties.device.properties.vbeOnV,data:data40};
+if(data41 < 0.05 || isNaN(data41)){
+const err135 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.device.properties.vceSatV,data:data41};
 if(vErrors === null){
 vErrors = [err135];
 }
@@ -1683,7 +1653,7 @@ errors++;
 }
 }
 else {
-const err136 = {instancePath:instancePath+"/device/vbeOnV",schemaPath:"#/properties/device/properties/vbeOnV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vbeOnV.type,parentSchema:schema11.properties.device.properties.vbeOnV,data:data40};
+const err136 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vceSatV.type,parentSchema:schema11.properties.device.properties.vceSatV,data:data41};
 if(vErrors === null){
 vErrors = [err136];
 }
@@ -1693,11 +1663,11 @@ vErrors.push(err136);
 errors++;
 }
 }
-if(data1.vceSatV !== undefined){
-let data41 = data1.vceSatV;
-if(typeof data41 == "number"){
-if(data41 > 1 || isNaN(data41)){
-const err137 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.device.properties.vceSatV,data:data41};
+if(data1.vbeMismatchSigmaV !== undefined){
+let data42 = data1.vbeMismatchSigmaV;
+if(typeof data42 == "number"){
+if(data42 > 0.02 || isNaN(data42)){
+const err137 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.02},message:"must be <= 0.02",schema:0.02,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data42};
 if(vErrors === null){
 vErrors = [err137];
 }
@@ -1706,8 +1676,8 @@ vErrors.push(err137);
 }
 errors++;
 }
-if(data41 < 0.05 || isNaN(data41)){
-const err138 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.device.properties.vceSatV,data:data41};
+if(data42 < 0 || isNaN(data42)){
+const err138 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data42};
 if(vErrors === null){
 vErrors = [err138];
 }
@@ -1718,7 +1688,7 @@ errors++;
 }
 }
 else {
-const err139 = {instancePath:instancePath+"/device/vceSatV",schemaPath:"#/properties/device/properties/vceSatV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vceSatV.type,parentSchema:schema11.properties.device.properties.vceSatV,data:data41};
+const err139 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vbeMismatchSigmaV.type,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data42};
 if(vErrors === null){
 vErrors = [err139];
 }
@@ -1728,11 +1698,9 @@ vErrors.push(err139);
 errors++;
 }
 }
-if(data1.vbeMismatchSigmaV !== undefined){
-let data42 = data1.vbeMismatchSigmaV;
-if(typeof data42 == "number"){
-if(data42 > 0.02 || isNaN(data42)){
-const err140 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.02},message:"must be <= 0.02",schema:0.02,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data42};
+}
+else {
+const err140 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.type,parentSchema:schema11.properties.device,data:data1};
 if(vErrors === null){
 vErrors = [err140];
 }
@@ -1741,8 +1709,12 @@ vErrors.push(err140);
 }
 errors++;
 }
-if(data42 < 0 || isNaN(data42)){
-const err141 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data42};
+}
+if(data.deviceModel !== undefined){
+let data43 = data.deviceModel;
+if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
+if(data43.name === undefined){
+const err141 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "name"},message:"must have required property '"+"name"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data43};
 if(vErrors === null){
 vErrors = [err141];
 }
@@ -1751,9 +1723,8 @@ vErrors.push(err141);
 }
 errors++;
 }
-}
-else {
-const err142 = {instancePath:instancePath+"/device/vbeMismatchSigmaV",schemaPath:"#/properties/device/properties/vbeMismatchSigmaV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.vbeMismatchSigmaV.type,parentSchema:schema11.properties.device.properties.vbeMismatchSigmaV,data:data42};
+if(data43.checksum === undefined){
+const err142 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "checksum"},message:"must have required property '"+"checksum"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data43};
 if(vErrors === null){
 vErrors = [err142];
 }
@@ -1762,10 +1733,9 @@ vErrors.push(err142);
 }
 errors++;
 }
-}
-}
-else {
-const err143 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.type,parentSchema:schema11.properties.device,data:data1};
+for(const key3 in data43){
+if(!((key3 === "name") || (key3 === "checksum"))){
+const err143 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.deviceModel,data:data43};
 if(vErrors === null){
 vErrors = [err143];
 }
@@ -1775,11 +1745,11 @@ vErrors.push(err143);
 errors++;
 }
 }
-if(data.deviceModel !== undefined){
-let data43 = data.deviceModel;
-if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
-if(data43.name === undefined){
-const err144 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "name"},message:"must have required property '"+"name"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data43};
+if(data43.name !== undefined){
+let data44 = data43.name;
+if(typeof data44 === "string"){
+if(func3(data44) > 64){
+const err144 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.deviceModel.properties.name,data:data44};
 if(vErrors === null){
 vErrors = [err144];
 }
@@ -1788,8 +1758,8 @@ vErrors.push(err144);
 }
 errors++;
 }
-if(data43.checksum === undefined){
-const err145 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "checksum"},message:"must have required property '"+"checksum"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data43};
+if(func3(data44) < 1){
+const err145 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.deviceModel.properties.name,data:data44};
 if(vErrors === null){
 vErrors = [err145];
 }
@@ -1798,9 +1768,8 @@ vErrors.push(err145);
 }
 errors++;
 }
-for(const key3 in data43){
-if(!((key3 === "name") || (key3 === "checksum"))){
-const err146 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.deviceModel,data:data43};
+if(!pattern0.test(data44)){
+const err146 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/pattern",keyword:"pattern",params:{pattern: "^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},message:"must match pattern \""+"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"+"\"",schema:"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$",parentSchema:schema11.properties.deviceModel.properties.name,data:data44};
 if(vErrors === null){
 vErrors = [err146];
 }
@@ -1810,11 +1779,8 @@ vErrors.push(err146);
 errors++;
 }
 }
-if(data43.name !== undefined){
-let data44 = data43.name;
-if(typeof data44 === "string"){
-if(func3(data44) > 64){
-const err147 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.deviceModel.properties.name,data:data44};
+else {
+const err147 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.name.type,parentSchema:schema11.properties.deviceModel.properties.name,data:data44};
 if(vErrors === null){
 vErrors = [err147];
 }
@@ -1823,8 +1789,12 @@ vErrors.push(err147);
 }
 errors++;
 }
-if(func3(data44) < 1){
-const err148 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.deviceModel.properties.name,data:data44};
+}
+if(data43.checksum !== undefined){
+let data45 = data43.checksum;
+if(typeof data45 === "string"){
+if(!pattern2.test(data45)){
+const err148 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/pattern",keyword:"pattern",params:{pattern: "^[0-9a-f]{64}$"},message:"must match pattern \""+"^[0-9a-f]{64}$"+"\"",schema:"^[0-9a-f]{64}$",parentSchema:schema11.properties.deviceModel.properties.checksum,data:data45};
 if(vErrors === null){
 vErrors = [err148];
 }
@@ -1833,8 +1803,9 @@ vErrors.push(err148);
 }
 errors++;
 }
-if(!pattern0.test(data44)){
-const err149 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/pattern",keyword:"pattern",params:{pattern: "^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},message:"must match pattern \""+"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"+"\"",schema:"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$",parentSchema:schema11.properties.deviceModel.properties.name,data:data44};
+}
+else {
+const err149 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.checksum.type,parentSchema:schema11.properties.deviceModel.properties.checksum,data:data45};
 if(vErrors === null){
 vErrors = [err149];
 }
@@ -1844,8 +1815,9 @@ vErrors.push(err149);
 errors++;
 }
 }
+}
 else {
-const err150 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.name.type,parentSchema:schema11.properties.deviceModel.properties.name,data:data44};
+const err150 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.deviceModel.type,parentSchema:schema11.properties.deviceModel,data:data43};
 if(vErrors === null){
 vErrors = [err150];
 }
@@ -1855,11 +1827,11 @@ vErrors.push(err150);
 errors++;
 }
 }
-if(data43.checksum !== undefined){
-let data45 = data43.checksum;
-if(typeof data45 === "string"){
-if(!pattern2.test(data45)){
-const err151 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/pattern",keyword:"pattern",params:{pattern: "^[0-9a-f]{64}$"},message:"must match pattern \""+"^[0-9a-f]{64}$"+"\"",schema:"^[0-9a-f]{64}$",parentSchema:schema11.properties.deviceModel.properties.checksum,data:data45};
+if(data.supply !== undefined){
+let data46 = data.supply;
+if(data46 && typeof data46 == "object" && !Array.isArray(data46)){
+if(data46.positiveV === undefined){
+const err151 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "positiveV"},message:"must have required property '"+"positiveV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data46};
 if(vErrors === null){
 vErrors = [err151];
 }
@@ -1868,9 +1840,8 @@ vErrors.push(err151);
 }
 errors++;
 }
-}
-else {
-const err152 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.checksum.type,parentSchema:schema11.properties.deviceModel.properties.checksum,data:data45};
+if(data46.negativeV === undefined){
+const err152 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "negativeV"},message:"must have required property '"+"negativeV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data46};
 if(vErrors === null){
 vErrors = [err152];
 }
@@ -1879,10 +1850,9 @@ vErrors.push(err152);
 }
 errors++;
 }
-}
-}
-else {
-const err153 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.deviceModel.type,parentSchema:schema11.properties.deviceModel,data:data43};
+for(const key4 in data46){
+if(!((key4 === "positiveV") || (key4 === "negativeV"))){
+const err153 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supply,data:data46};
 if(vErrors === null){
 vErrors = [err153];
 }
@@ -1892,11 +1862,11 @@ vErrors.push(err153);
 errors++;
 }
 }
-if(data.supply !== undefined){
-let data46 = data.supply;
-if(data46 && typeof data46 == "object" && !Array.isArray(data46)){
-if(data46.positiveV === undefined){
-const err154 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "positiveV"},message:"must have required property '"+"positiveV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data46};
+if(data46.positiveV !== undefined){
+let data47 = data46.positiveV;
+if(typeof data47 == "number"){
+if(data47 > 100 || isNaN(data47)){
+const err154 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.positiveV,data:data47};
 if(vErrors === null){
 vErrors = [err154];
 }
@@ -1905,8 +1875,8 @@ vErrors.push(err154);
 }
 errors++;
 }
-if(data46.negativeV === undefined){
-const err155 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "negativeV"},message:"must have required property '"+"negativeV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data46};
+if(data47 < -100 || isNaN(data47)){
+const err155 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.positiveV,data:data47};
 if(vErrors === null){
 vErrors = [err155];
 }
@@ -1915,9 +1885,9 @@ vErrors.push(err155);
 }
 errors++;
 }
-for(const key4 in data46){
-if(!((key4 === "positiveV") || (key4 === "negativeV"))){
-const err156 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supply,data:data46};
+}
+else {
+const err156 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.positiveV.type,parentSchema:schema11.properties.supply.properties.positiveV,data:data47};
 if(vErrors === null){
 vErrors = [err156];
 }
@@ -1927,11 +1897,11 @@ vErrors.push(err156);
 errors++;
 }
 }
-if(data46.positiveV !== undefined){
-let data47 = data46.positiveV;
-if(typeof data47 == "number"){
-if(data47 > 100 || isNaN(data47)){
-const err157 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.positiveV,data:data47};
+if(data46.negativeV !== undefined){
+let data48 = data46.negativeV;
+if(typeof data48 == "number"){
+if(data48 > 100 || isNaN(data48)){
+const err157 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.negativeV,data:data48};
 if(vErrors === null){
 vErrors = [err157];
 }
@@ -1940,8 +1910,8 @@ vErrors.push(err157);
 }
 errors++;
 }
-if(data47 < -100 || isNaN(data47)){
-const err158 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.positiveV,data:data47};
+if(data48 < -100 || isNaN(data48)){
+const err158 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.negativeV,data:data48};
 if(vErrors === null){
 vErrors = [err158];
 }
@@ -1952,7 +1922,7 @@ errors++;
 }
 }
 else {
-const err159 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.positiveV.type,parentSchema:schema11.properties.supply.properties.positiveV,data:data47};
+const err159 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.negativeV.type,parentSchema:schema11.properties.supply.properties.negativeV,data:data48};
 if(vErrors === null){
 vErrors = [err159];
 }
@@ -1962,11 +1932,9 @@ vErrors.push(err159);
 errors++;
 }
 }
-if(data46.negativeV !== undefined){
-let data48 = data46.negativeV;
-if(typeof data48 == "number"){
-if(data48 > 100 || isNaN(data48)){
-const err160 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.negativeV,data:data48};
+}
+else {
+const err160 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supply.type,parentSchema:schema11.properties.supply,data:data46};
 if(vErrors === null){
 vErrors = [err160];
 }
@@ -1975,8 +1943,12 @@ vErrors.push(err160);
 }
 errors++;
 }
-if(data48 < -100 || isNaN(data48)){
-const err161 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.negativeV,data:data48};
+}
+if(data.gain !== undefined){
+let data49 = data.gain;
+if(data49 && typeof data49 == "object" && !Array.isArray(data49)){
+if(data49.target === undefined){
+const err161 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/required",keyword:"required",params:{missingProperty: "target"},message:"must have required property '"+"target"+"'",schema:schema11.properties.gain.required,parentSchema:schema11.properties.gain,data:data49};
 if(vErrors === null){
 vErrors = [err161];
 }
@@ -1985,9 +1957,9 @@ vErrors.push(err161);
 }
 errors++;
 }
-}
-else {
-const err162 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.negativeV.type,parentSchema:schema11.properties.supply.properties.negativeV,data:data48};
+for(const key5 in data49){
+if(!(((key5 === "target") || (key5 === "tolerancePercent")) || (key5 === "output"))){
+const err162 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.gain,data:data49};
 if(vErrors === null){
 vErrors = [err162];
 }
@@ -1997,9 +1969,11 @@ vErrors.push(err162);
 errors++;
 }
 }
-}
-else {
-const err163 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supply.type,parentSchema:schema11.properties.supply,data:data46};
+if(data49.target !== undefined){
+let data50 = data49.target;
+if(typeof data50 == "number"){
+if(data50 > 10000 || isNaN(data50)){
+const err163 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.gain.properties.target,data:data50};
 if(vErrors === null){
 vErrors = [err163];
 }
@@ -2008,12 +1982,8 @@ vErrors.push(err163);
 }
 errors++;
 }
-}
-if(data.gain !== undefined){
-let data49 = data.gain;
-if(data49 && typeof data49 == "object" && !Array.isArray(data49)){
-if(data49.target === undefined){
-const err164 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/required",keyword:"required",params:{missingProperty: "target"},message:"must have required property '"+"target"+"'",schema:schema11.properties.gain.required,parentSchema:schema11.properties.gain,data:data49};
+if(data50 <= 0 || isNaN(data50)){
+const err164 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.gain.properties.target,data:data50};
 if(vErrors === null){
 vErrors = [err164];
 }
@@ -2022,9 +1992,9 @@ vErrors.push(err164);
 }
 errors++;
 }
-for(const key5 in data49){
-if(!(((key5 === "target") || (key5 === "tolerancePercent")) || (key5 === "output"))){
-const err165 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.gain,data:data49};
+}
+else {
+const err165 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.target.type,parentSchema:schema11.properties.gain.properties.target,data:data50};
 if(vErrors === null){
 vErrors = [err165];
 }
@@ -2034,11 +2004,11 @@ vErrors.push(err165);
 errors++;
 }
 }
-if(data49.target !== undefined){
-let data50 = data49.target;
-if(typeof data50 == "number"){
-if(data50 > 10000 || isNaN(data50)){
-const err166 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.gain.properties.target,data:data50};
+if(data49.tolerancePercent !== undefined){
+let data51 = data49.tolerancePercent;
+if(typeof data51 == "number"){
+if(data51 > 50 || isNaN(data51)){
+const err166 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data51};
 if(vErrors === null){
 vErrors = [err166];
 }
@@ -2047,8 +2017,8 @@ vErrors.push(err166);
 }
 errors++;
 }
-if(data50 <= 0 || isNaN(data50)){
-const err167 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.gain.properties.target,data:data50};
+if(data51 < 0.1 || isNaN(data51)){
+const err167 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data51};
 if(vErrors === null){
 vErrors = [err167];
 }
@@ -2059,7 +2029,7 @@ errors++;
 }
 }
 else {
-const err168 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.target.type,parentSchema:schema11.properties.gain.properties.target,data:data50};
+const err168 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.tolerancePercent.type,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data51};
 if(vErrors === null){
 vErrors = [err168];
 }
@@ -2069,11 +2039,10 @@ vErrors.push(err168);
 errors++;
 }
 }
-if(data49.tolerancePercent !== undefined){
-let data51 = data49.tolerancePercent;
-if(typeof data51 == "number"){
-if(data51 > 50 || isNaN(data51)){
-const err169 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data51};
+if(data49.output !== undefined){
+let data52 = data49.output;
+if(typeof data52 !== "string"){
+const err169 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.gain.properties.output.type,parentSchema:schema11.properties.gain.properties.output,data:data52};
 if(vErrors === null){
 vErrors = [err169];
 }
@@ -2082,8 +2051,8 @@ vErrors.push(err169);
 }
 errors++;
 }
-if(data51 < 0.1 || isNaN(data51)){
-const err170 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data51};
+if(!((data52 === "differential") || (data52 === "single-ended"))){
+const err170 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/enum",keyword:"enum",params:{allowedValues: schema11.properties.gain.properties.output.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.gain.properties.output.enum,parentSchema:schema11.properties.gain.properties.output,data:data52};
 if(vErrors === null){
 vErrors = [err170];
 }
@@ -2093,8 +2062,9 @@ vErrors.push(err170);
 errors++;
 }
 }
+}
 else {
-const err171 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.tolerancePercent.type,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data51};
+const err171 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.gain.type,parentSchema:schema11.properties.gain,data:data49};
 if(vErrors === null){
 vErrors = [err171];
 }
@@ -2104,10 +2074,11 @@ vErrors.push(err171);
 errors++;
 }
 }
-if(data49.output !== undefined){
-let data52 = data49.output;
-if(typeof data52 !== "string"){
-const err172 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.gain.properties.output.type,parentSchema:schema11.properties.gain.properties.output,data:data52};
+if(data.cmrr !== undefined){
+let data53 = data.cmrr;
+if(data53 && typeof data53 == "object" && !Array.isArray(data53)){
+if(data53.minDb === undefined){
+const err172 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/required",keyword:"required",params:{missingProperty: "minDb"},message:"must have required property '"+"minDb"+"'",schema:schema11.properties.cmrr.required,parentSchema:schema11.properties.cmrr,data:data53};
 if(vErrors === null){
 vErrors = [err172];
 }
@@ -2116,8 +2087,9 @@ vErrors.push(err172);
 }
 errors++;
 }
-if(!((data52 === "differential") || (data52 === "single-ended"))){
-const err173 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/enum",keyword:"enum",params:{allowedValues: schema11.properties.gain.properties.output.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.gain.properties.output.enum,parentSchema:schema11.properties.gain.properties.output,data:data52};
+for(const key6 in data53){
+if(!((((key6 === "minDb") || (key6 === "atFrequencyHz")) || (key6 === "marginDb")) || (key6 === "minYieldPercent"))){
+const err173 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.cmrr,data:data53};
 if(vErrors === null){
 vErrors = [err173];
 }
@@ -2127,9 +2099,11 @@ vErrors.push(err173);
 errors++;
 }
 }
-}
-else {
-const err174 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.gain.type,parentSchema:schema11.properties.gain,data:data49};
+if(data53.minDb !== undefined){
+let data54 = data53.minDb;
+if(typeof data54 == "number"){
+if(data54 > 200 || isNaN(data54)){
+const err174 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.cmrr.properties.minDb,data:data54};
 if(vErrors === null){
 vErrors = [err174];
 }
@@ -2138,12 +2112,8 @@ vErrors.push(err174);
 }
 errors++;
 }
-}
-if(data.cmrr !== undefined){
-let data53 = data.cmrr;
-if(data53 && typeof data53 == "object" && !Array.isArray(data53)){
-if(data53.minDb === undefined){
-const err175 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/required",keyword:"required",params:{missingProperty: "minDb"},message:"must have required property '"+"minDb"+"'",schema:schema11.properties.cmrr.required,parentSchema:schema11.properties.cmrr,data:data53};
+if(data54 < 0 || isNaN(data54)){
+const err175 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minDb,data:data54};
 if(vErrors === null){
 vErrors = [err175];
 }
@@ -2152,9 +2122,9 @@ vErrors.push(err175);
 }
 errors++;
 }
-for(const key6 in data53){
-if(!((((key6 === "minDb") || (key6 === "atFrequencyHz")) || (key6 === "marginDb")) || (key6 === "minYieldPercent"))){
-const err176 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.cmrr,data:data53};
+}
+else {
+const err176 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minDb.type,parentSchema:schema11.properties.cmrr.properties.minDb,data:data54};
 if(vErrors === null){
 vErrors = [err176];
 }
@@ -2164,11 +2134,11 @@ vErrors.push(err176);
 errors++;
 }
 }
-if(data53.minDb !== undefined){
-let data54 = data53.minDb;
-if(typeof data54 == "number"){
-if(data54 > 200 || isNaN(data54)){
-const err177 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.cmrr.properties.minDb,data:data54};
+if(data53.atFrequencyHz !== undefined){
+let data55 = data53.atFrequencyHz;
+if(typeof data55 == "number"){
+if(data55 > 1000000000 || isNaN(data55)){
+const err177 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data55};
 if(vErrors === null){
 vErrors = [err177];
 }
@@ -2177,8 +2147,8 @@ vErrors.push(err177);
 }
 errors++;
 }
-if(data54 < 0 || isNaN(data54)){
-const err178 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minDb,data:data54};
+if(data55 < 0 || isNaN(data55)){
+const err178 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data55};
 if(vErrors === null){
 vErrors = [err178];
 }
@@ -2189,7 +2159,7 @@ errors++;
 }
 }
 else {
-const err179 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minDb.type,parentSchema:schema11.properties.cmrr.properties.minDb,data:data54};
+const err179 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.atFrequencyHz.type,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data55};
 if(vErrors === null){
 vErrors = [err179];
 }
@@ -2199,11 +2169,11 @@ vErrors.push(err179);
 errors++;
 }
 }
-if(data53.atFrequencyHz !== undefined){
-let data55 = data53.atFrequencyHz;
-if(typeof data55 == "number"){
-if(data55 > 1000000000 || isNaN(data55)){
-const err180 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data55};
+if(data53.marginDb !== undefined){
+let data56 = data53.marginDb;
+if(typeof data56 == "number"){
+if(data56 > 40 || isNaN(data56)){
+const err180 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 40},message:"must be <= 40",schema:40,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data56};
 if(vErrors === null){
 vErrors = [err180];
 }
@@ -2212,8 +2182,8 @@ vErrors.push(err180);
 }
 errors++;
 }
-if(data55 < 0 || isNaN(data55)){
-const err181 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data55};
+if(data56 < 0 || isNaN(data56)){
+const err181 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data56};
 if(vErrors === null){
 vErrors = [err181];
 }
@@ -2224,7 +2194,7 @@ errors++;
 }
 }
 else {
-const err182 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.atFrequencyHz.type,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data55};
+const err182 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.marginDb.type,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data56};
 if(vErrors === null){
 vErrors = [err182];
 }
@@ -2234,11 +2204,11 @@ vErrors.push(err182);
 errors++;
 }
 }
-if(data53.marginDb !== undefined){
-let data56 = data53.marginDb;
-if(typeof data56 == "number"){
-if(data56 > 40 || isNaN(data56)){
-const err183 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 40},message:"must be <= 40",schema:40,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data56};
+if(data53.minYieldPercent !== undefined){
+let data57 = data53.minYieldPercent;
+if(typeof data57 == "number"){
+if(data57 > 100 || isNaN(data57)){
+const err183 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data57};
 if(vErrors === null){
 vErrors = [err183];
 }
@@ -2247,8 +2217,8 @@ vErrors.push(err183);
 }
 errors++;
 }
-if(data56 < 0 || isNaN(data56)){
-const err184 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data56};
+if(data57 < 0 || isNaN(data57)){
+const err184 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data57};
 if(vErrors === null){
 vErrors = [err184];
 }
@@ -2259,7 +2229,7 @@ errors++;
 }
 }
 else {
-const err185 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.marginDb.type,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data56};
+const err185 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minYieldPercent.type,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data57};
 if(vErrors === null){
 vErrors = [err185];
 }
@@ -2269,49 +2239,14 @@ vErrors.push(err185);
 errors++;
 }
 }
-if(data53.minYieldPercent !== undefined){
-let data57 = data53.minYieldPercent;
-if(typeof data57 == "number"){
-if(data57 > 100 || isNaN(data57)){
-const err186 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data57};
+}
+else {
+const err186 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.cmrr.type,parentSchema:schema11.properties.cmrr,data:data53};
 if(vErrors === null){
 vErrors = [err186];
 }
 else {
 vErrors.push(err186);
-}
-errors++;
-}
-if(data57 < 0 || isNaN(data57)){
-const err187 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data57};
-if(vErrors === null){
-vErrors = [err187];
-}
-else {
-vErrors.push(err187);
-}
-errors++;
-}
-}
-else {
-const err188 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minYieldPercent.type,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data57};
-if(vErrors === null){
-vErrors = [err188];
-}
-else {
-vErrors.push(err188);
-}
-errors++;
-}
-}
-}
-else {
-const err189 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.cmrr.type,parentSchema:schema11.properties.cmrr,data:data53};
-if(vErrors === null){
-vErrors = [err189];
-}
-else {
-vErrors.push(err189);
 }
 errors++;
 }
@@ -2321,7 +2256,42 @@ let data58 = data.inputCommonMode;
 if(data58 && typeof data58 == "object" && !Array.isArray(data58)){
 for(const key7 in data58){
 if(!((key7 === "minV") || (key7 === "maxV"))){
-const err190 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.inputCommonMode,data:data58};
+const err187 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.inputCommonMode,data:data58};
+if(vErrors === null){
+vErrors = [err187];
+}
+else {
+vErrors.push(err187);
+}
+errors++;
+}
+}
+if(data58.minV !== undefined){
+let data59 = data58.minV;
+if(typeof data59 == "number"){
+if(data59 > 100 || isNaN(data59)){
+const err188 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data59};
+if(vErrors === null){
+vErrors = [err188];
+}
+else {
+vErrors.push(err188);
+}
+errors++;
+}
+if(data59 < -100 || isNaN(data59)){
+const err189 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data59};
+if(vErrors === null){
+vErrors = [err189];
+}
+else {
+vErrors.push(err189);
+}
+errors++;
+}
+}
+else {
+const err190 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.minV.type,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data59};
 if(vErrors === null){
 vErrors = [err190];
 }
@@ -2331,11 +2301,11 @@ vErrors.push(err190);
 errors++;
 }
 }
-if(data58.minV !== undefined){
-let data59 = data58.minV;
-if(typeof data59 == "number"){
-if(data59 > 100 || isNaN(data59)){
-const err191 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data59};
+if(data58.maxV !== undefined){
+let data60 = data58.maxV;
+if(typeof data60 == "number"){
+if(data60 > 100 || isNaN(data60)){
+const err191 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data60};
 if(vErrors === null){
 vErrors = [err191];
 }
@@ -2344,8 +2314,8 @@ vErrors.push(err191);
 }
 errors++;
 }
-if(data59 < -100 || isNaN(data59)){
-const err192 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data59};
+if(data60 < -100 || isNaN(data60)){
+const err192 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data60};
 if(vErrors === null){
 vErrors = [err192];
 }
@@ -2356,7 +2326,7 @@ errors++;
 }
 }
 else {
-const err193 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.minV.type,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data59};
+const err193 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.maxV.type,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data60};
 if(vErrors === null){
 vErrors = [err193];
 }
@@ -2366,11 +2336,9 @@ vErrors.push(err193);
 errors++;
 }
 }
-if(data58.maxV !== undefined){
-let data60 = data58.maxV;
-if(typeof data60 == "number"){
-if(data60 > 100 || isNaN(data60)){
-const err194 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data60};
+}
+else {
+const err194 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.inputCommonMode.type,parentSchema:schema11.properties.inputCommonMode,data:data58};
 if(vErrors === null){
 vErrors = [err194];
 }
@@ -2379,8 +2347,12 @@ vErrors.push(err194);
 }
 errors++;
 }
-if(data60 < -100 || isNaN(data60)){
-const err195 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data60};
+}
+if(data.outputSwingVpp !== undefined){
+let data61 = data.outputSwingVpp;
+if(typeof data61 == "number"){
+if(data61 > 200 || isNaN(data61)){
+const err195 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.outputSwingVpp,data:data61};
 if(vErrors === null){
 vErrors = [err195];
 }
@@ -2389,9 +2361,8 @@ vErrors.push(err195);
 }
 errors++;
 }
-}
-else {
-const err196 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.maxV.type,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data60};
+if(data61 < 0 || isNaN(data61)){
+const err196 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.outputSwingVpp,data:data61};
 if(vErrors === null){
 vErrors = [err196];
 }
@@ -2401,9 +2372,8 @@ vErrors.push(err196);
 errors++;
 }
 }
-}
 else {
-const err197 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.inputCommonMode.type,parentSchema:schema11.properties.inputCommonMode,data:data58};
+const err197 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingVpp.type,parentSchema:schema11.properties.outputSwingVpp,data:data61};
 if(vErrors === null){
 vErrors = [err197];
 }
@@ -2413,11 +2383,11 @@ vErrors.push(err197);
 errors++;
 }
 }
-if(data.outputSwingVpp !== undefined){
-let data61 = data.outputSwingVpp;
-if(typeof data61 == "number"){
-if(data61 > 200 || isNaN(data61)){
-const err198 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.outputSwingVpp,data:data61};
+if(data.powerBudgetW !== undefined){
+let data62 = data.powerBudgetW;
+if(typeof data62 == "number"){
+if(data62 <= 0 || isNaN(data62)){
+const err198 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.powerBudgetW,data:data62};
 if(vErrors === null){
 vErrors = [err198];
 }
@@ -2426,8 +2396,9 @@ vErrors.push(err198);
 }
 errors++;
 }
-if(data61 < 0 || isNaN(data61)){
-const err199 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.outputSwingVpp,data:data61};
+}
+else {
+const err199 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.powerBudgetW.type,parentSchema:schema11.properties.powerBudgetW,data:data62};
 if(vErrors === null){
 vErrors = [err199];
 }
@@ -2437,8 +2408,11 @@ vErrors.push(err199);
 errors++;
 }
 }
-else {
-const err200 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingVpp.type,parentSchema:schema11.properties.outputSwingVpp,data:data61};
+if(data.tailCurrentA !== undefined){
+let data63 = data.tailCurrentA;
+if(typeof data63 == "number"){
+if(data63 > 0.1 || isNaN(data63)){
+const err200 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.tailCurrentA,data:data63};
 if(vErrors === null){
 vErrors = [err200];
 }
@@ -2447,12 +2421,8 @@ vErrors.push(err200);
 }
 errors++;
 }
-}
-if(data.powerBudgetW !== undefined){
-let data62 = data.powerBudgetW;
-if(typeof data62 == "number"){
-if(data62 <= 0 || isNaN(data62)){
-const err201 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.powerBudgetW,data:data62};
+if(data63 < 1e-7 || isNaN(data63)){
+const err201 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-7},message:"must be >= 1e-7",schema:1e-7,parentSchema:schema11.properties.tailCurrentA,data:data63};
 if(vErrors === null){
 vErrors = [err201];
 }
@@ -2463,7 +2433,7 @@ errors++;
 }
 }
 else {
-const err202 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.powerBudgetW.type,parentSchema:schema11.properties.powerBudgetW,data:data62};
+const err202 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCurrentA.type,parentSchema:schema11.properties.tailCurrentA,data:data63};
 if(vErrors === null){
 vErrors = [err202];
 }
@@ -2473,11 +2443,12 @@ vErrors.push(err202);
 errors++;
 }
 }
-if(data.tailCurrentA !== undefined){
-let data63 = data.tailCurrentA;
-if(typeof data63 == "number"){
-if(data63 > 0.1 || isNaN(data63)){
-const err203 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.tailCurrentA,data:data63};
+if(data.temperatureC !== undefined){
+let data64 = data.temperatureC;
+if(data64 && typeof data64 == "object" && !Array.isArray(data64)){
+for(const key8 in data64){
+if(!((key8 === "min") || (key8 === "max"))){
+const err203 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key8},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.temperatureC,data:data64};
 if(vErrors === null){
 vErrors = [err203];
 }
@@ -2486,8 +2457,12 @@ vErrors.push(err203);
 }
 errors++;
 }
-if(data63 < 1e-7 || isNaN(data63)){
-const err204 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-7},message:"must be >= 1e-7",schema:1e-7,parentSchema:schema11.properties.tailCurrentA,data:data63};
+}
+if(data64.min !== undefined){
+let data65 = data64.min;
+if(typeof data65 == "number"){
+if(data65 > 150 || isNaN(data65)){
+const err204 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.min,data:data65};
 if(vErrors === null){
 vErrors = [err204];
 }
@@ -2496,9 +2471,8 @@ vErrors.push(err204);
 }
 errors++;
 }
-}
-else {
-const err205 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCurrentA.type,parentSchema:schema11.properties.tailCurrentA,data:data63};
+if(data65 < -55 || isNaN(data65)){
+const err205 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.min,data:data65};
 if(vErrors === null){
 vErrors = [err205];
 }
@@ -2508,12 +2482,8 @@ vErrors.push(err205);
 errors++;
 }
 }
-if(data.temperatureC !== undefined){
-let data64 = data.temperatureC;
-if(data64 && typeof data64 == "object" && !Array.isArray(data64)){
-for(const key8 in data64){
-if(!((key8 === "min") || (key8 === "max"))){
-const err206 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key8},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.temperatureC,data:data64};
+else {
+const err206 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.min.type,parentSchema:schema11.properties.temperatureC.properties.min,data:data65};
 if(vErrors === null){
 vErrors = [err206];
 }
@@ -2523,11 +2493,11 @@ vErrors.push(err206);
 errors++;
 }
 }
-if(data64.min !== undefined){
-let data65 = data64.min;
-if(typeof data65 == "number"){
-if(data65 > 150 || isNaN(data65)){
-const err207 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.min,data:data65};
+if(data64.max !== undefined){
+let data66 = data64.max;
+if(typeof data66 == "number"){
+if(data66 > 150 || isNaN(data66)){
+const err207 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.max,data:data66};
 if(vErrors === null){
 vErrors = [err207];
 }
@@ -2536,8 +2506,8 @@ vErrors.push(err207);
 }
 errors++;
 }
-if(data65 < -55 || isNaN(data65)){
-const err208 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.min,data:data65};
+if(data66 < -55 || isNaN(data66)){
+const err208 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.max,data:data66};
 if(vErrors === null){
 vErrors = [err208];
 }
@@ -2548,7 +2518,7 @@ errors++;
 }
 }
 else {
-const err209 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.min.type,parentSchema:schema11.properties.temperatureC.properties.min,data:data65};
+const err209 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.max.type,parentSchema:schema11.properties.temperatureC.properties.max,data:data66};
 if(vErrors === null){
 vErrors = [err209];
 }
@@ -2558,49 +2528,14 @@ vErrors.push(err209);
 errors++;
 }
 }
-if(data64.max !== undefined){
-let data66 = data64.max;
-if(typeof data66 == "number"){
-if(data66 > 150 || isNaN(data66)){
-const err210 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.max,data:data66};
+}
+else {
+const err210 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.temperatureC.type,parentSchema:schema11.properties.temperatureC,data:data64};
 if(vErrors === null){
 vErrors = [err210];
 }
 else {
 vErrors.push(err210);
-}
-errors++;
-}
-if(data66 < -55 || isNaN(data66)){
-const err211 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.max,data:data66};
-if(vErrors === null){
-vErrors = [err211];
-}
-else {
-vErrors.push(err211);
-}
-errors++;
-}
-}
-else {
-const err212 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.max.type,parentSchema:schema11.properties.temperatureC.properties.max,data:data66};
-if(vErrors === null){
-vErrors = [err212];
-}
-else {
-vErrors.push(err212);
-}
-errors++;
-}
-}
-}
-else {
-const err213 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.temperatureC.type,parentSchema:schema11.properties.temperatureC,data:data64};
-if(vErrors === null){
-vErrors = [err213];
-}
-else {
-vErrors.push(err213);
 }
 errors++;
 }
@@ -2610,7 +2545,44 @@ let data67 = data.resistors;
 if(data67 && typeof data67 == "object" && !Array.isArray(data67)){
 for(const key9 in data67){
 if(!((key9 === "series") || (key9 === "tolerancePercent"))){
-const err214 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.resistors,data:data67};
+const err211 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.resistors,data:data67};
+if(vErrors === null){
+vErrors = [err211];
+}
+else {
+vErrors.push(err211);
+}
+errors++;
+}
+}
+if(data67.series !== undefined){
+let data68 = data67.series;
+if(typeof data68 !== "string"){
+const err212 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.resistors.properties.series.type,parentSchema:schema11.properties.resistors.properties.series,data:data68};
+if(vErrors === null){
+vErrors = [err212];
+}
+else {
+vErrors.push(err212);
+}
+errors++;
+}
+if(!(((data68 === "E24") || (data68 === "E96")) || (data68 === "E192"))){
+const err213 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/enum",keyword:"enum",params:{allowedValues: schema11.properties.resistors.properties.series.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.resistors.properties.series.enum,parentSchema:schema11.properties.resistors.properties.series,data:data68};
+if(vErrors === null){
+vErrors = [err213];
+}
+else {
+vErrors.push(err213);
+}
+errors++;
+}
+}
+if(data67.tolerancePercent !== undefined){
+let data69 = data67.tolerancePercent;
+if(typeof data69 == "number"){
+if(data69 > 20 || isNaN(data69)){
+const err214 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 20},message:"must be <= 20",schema:20,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data69};
 if(vErrors === null){
 vErrors = [err214];
 }
@@ -2619,11 +2591,8 @@ vErrors.push(err214);
 }
 errors++;
 }
-}
-if(data67.series !== undefined){
-let data68 = data67.series;
-if(typeof data68 !== "string"){
-const err215 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.resistors.properties.series.type,parentSchema:schema11.properties.resistors.properties.series,data:data68};
+if(data69 < 0.05 || isNaN(data69)){
+const err215 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data69};
 if(vErrors === null){
 vErrors = [err215];
 }
@@ -2632,8 +2601,9 @@ vErrors.push(err215);
 }
 errors++;
 }
-if(!(((data68 === "E24") || (data68 === "E96")) || (data68 === "E192"))){
-const err216 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/enum",keyword:"enum",params:{allowedValues: schema11.properties.resistors.properties.series.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.resistors.properties.series.enum,parentSchema:schema11.properties.resistors.properties.series,data:data68};
+}
+else {
+const err216 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tolerancePercent.type,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data69};
 if(vErrors === null){
 vErrors = [err216];
 }
@@ -2643,11 +2613,9 @@ vErrors.push(err216);
 errors++;
 }
 }
-if(data67.tolerancePercent !== undefined){
-let data69 = data67.tolerancePercent;
-if(typeof data69 == "number"){
-if(data69 > 20 || isNaN(data69)){
-const err217 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 20},message:"must be <= 20",schema:20,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data69};
+}
+else {
+const err217 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.resistors.type,parentSchema:schema11.properties.resistors,data:data67};
 if(vErrors === null){
 vErrors = [err217];
 }
@@ -2656,8 +2624,12 @@ vErrors.push(err217);
 }
 errors++;
 }
-if(data69 < 0.05 || isNaN(data69)){
-const err218 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data69};
+}
+if(data.tailCapacitanceF !== undefined){
+let data70 = data.tailCapacitanceF;
+if(typeof data70 == "number"){
+if(data70 > 1e-9 || isNaN(data70)){
+const err218 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.tailCapacitanceF,data:data70};
 if(vErrors === null){
 vErrors = [err218];
 }
@@ -2666,9 +2638,8 @@ vErrors.push(err218);
 }
 errors++;
 }
-}
-else {
-const err219 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tolerancePercent.type,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data69};
+if(data70 < 0 || isNaN(data70)){
+const err219 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.tailCapacitanceF,data:data70};
 if(vErrors === null){
 vErrors = [err219];
 }
@@ -2678,9 +2649,8 @@ vErrors.push(err219);
 errors++;
 }
 }
-}
 else {
-const err220 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.resistors.type,parentSchema:schema11.properties.resistors,data:data67};
+const err220 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCapacitanceF.type,parentSchema:schema11.properties.tailCapacitanceF,data:data70};
 if(vErrors === null){
 vErrors = [err220];
 }
@@ -2690,11 +2660,11 @@ vErrors.push(err220);
 errors++;
 }
 }
-if(data.tailCapacitanceF !== undefined){
-let data70 = data.tailCapacitanceF;
-if(typeof data70 == "number"){
-if(data70 > 1e-9 || isNaN(data70)){
-const err221 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.tailCapacitanceF,data:data70};
+if(data.topologies !== undefined){
+let data71 = data.topologies;
+if(Array.isArray(data71)){
+if(data71.length < 1){
+const err221 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data71};
 if(vErrors === null){
 vErrors = [err221];
 }
@@ -2703,8 +2673,11 @@ vErrors.push(err221);
 }
 errors++;
 }
-if(data70 < 0 || isNaN(data70)){
-const err222 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.tailCapacitanceF,data:data70};
+const len0 = data71.length;
+for(let i0=0; i0<len0; i0++){
+let data72 = data71[i0];
+if(typeof data72 !== "string"){
+const err222 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data72};
 if(vErrors === null){
 vErrors = [err222];
 }
@@ -2713,51 +2686,13 @@ vErrors.push(err222);
 }
 errors++;
 }
-}
-else {
-const err223 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCapacitanceF.type,parentSchema:schema11.properties.tailCapacitanceF,data:data70};
+if(!((((((data72 === "resistor") || (data72 === "simple-mirror")) || (data72 === "degenerated-mirror")) || (data72 === "widlar")) || (data72 === "wilson")) || (data72 === "cascode"))){
+const err223 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data72};
 if(vErrors === null){
 vErrors = [err223];
 }
 else {
 vErrors.push(err223);
-}
-errors++;
-}
-}
-if(data.topologies !== undefined){
-let data71 = data.topologies;
-if(Array.isArray(data71)){
-if(data71.length < 1){
-const err224 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data71};
-if(vErrors === null){
-vErrors = [err224];
-}
-else {
-vErrors.push(err224);
-}
-errors++;
-}
-const len0 = data71.length;
-for(let i0=0; i0<len0; i0++){
-let data72 = data71[i0];
-if(typeof data72 !== "string"){
-const err225 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data72};
-if(vErrors === null){
-vErrors = [err225];
-}
-else {
-vErrors.push(err225);
-}
-errors++;
-}
-if(!((((((data72 === "resistor") || (data72 === "simple-mirror")) || (data72 === "degenerated-mirror")) || (data72 === "widlar")) || (data72 === "wilson")) || (data72 === "cascode"))){
-const err226 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data72};
-if(vErrors === null){
-vErrors = [err226];
-}
-else {
-vErrors.push(err226);
 }
 errors++;
 }
@@ -2773,12 +2708,12 @@ continue;
 }
 if(typeof indices0[item0] == "number"){
 j0 = indices0[item0];
-const err227 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data71};
+const err224 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data71};
 if(vErrors === null){
-vErrors = [err227];
+vErrors = [err224];
 }
 else {
-vErrors.push(err227);
+vErrors.push(err224);
 }
 errors++;
 break;
@@ -2788,12 +2723,12 @@ indices0[item0] = i1;
 }
 }
 else {
-const err228 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data71};
+const err225 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data71};
 if(vErrors === null){
-vErrors = [err228];
+vErrors = [err225];
 }
 else {
-vErrors.push(err228);
+vErrors.push(err225);
 }
 errors++;
 }
@@ -2801,22 +2736,22 @@ errors++;
 if(data.policy !== undefined){
 let data73 = data.policy;
 if(typeof data73 !== "string"){
-const err229 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data73};
+const err226 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data73};
 if(vErrors === null){
-vErrors = [err229];
+vErrors = [err226];
 }
 else {
-vErrors.push(err229);
+vErrors.push(err226);
 }
 errors++;
 }
 if(!((data73 === "simplest-sufficient") || (data73 === "highest-rejection"))){
-const err230 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data73};
+const err227 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data73};
 if(vErrors === null){
-vErrors = [err230];
+vErrors = [err227];
 }
 else {
-vErrors.push(err230);
+vErrors.push(err227);
 }
 errors++;
 }
@@ -2826,7 +2761,45 @@ let data74 = data.hazards;
 if(data74 && typeof data74 == "object" && !Array.isArray(data74)){
 for(const key10 in data74){
 if(!((key10 === "patientConnected") || (key10 === "mainsReferenced"))){
-const err231 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data74};
+const err228 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data74};
+if(vErrors === null){
+vErrors = [err228];
+}
+else {
+vErrors.push(err228);
+}
+errors++;
+}
+}
+if(data74.patientConnected !== undefined){
+let data75 = data74.patientConnected;
+if(typeof data75 !== "boolean"){
+const err229 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data75};
+if(vErrors === null){
+vErrors = [err229];
+}
+else {
+vErrors.push(err229);
+}
+errors++;
+}
+}
+if(data74.mainsReferenced !== undefined){
+let data76 = data74.mainsReferenced;
+if(typeof data76 !== "boolean"){
+const err230 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data76};
+if(vErrors === null){
+vErrors = [err230];
+}
+else {
+vErrors.push(err230);
+}
+errors++;
+}
+}
+}
+else {
+const err231 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data74};
 if(vErrors === null){
 vErrors = [err231];
 }
@@ -2836,10 +2809,12 @@ vErrors.push(err231);
 errors++;
 }
 }
-if(data74.patientConnected !== undefined){
-let data75 = data74.patientConnected;
-if(typeof data75 !== "boolean"){
-const err232 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data75};
+if(data.monteCarlo !== undefined){
+let data77 = data.monteCarlo;
+if(data77 && typeof data77 == "object" && !Array.isArray(data77)){
+for(const key11 in data77){
+if(!((key11 === "samples") || (key11 === "seed"))){
+const err232 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key11},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data77};
 if(vErrors === null){
 vErrors = [err232];
 }
@@ -2849,10 +2824,10 @@ vErrors.push(err232);
 errors++;
 }
 }
-if(data74.mainsReferenced !== undefined){
-let data76 = data74.mainsReferenced;
-if(typeof data76 !== "boolean"){
-const err233 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data76};
+if(data77.samples !== undefined){
+let data78 = data77.samples;
+if(!((typeof data78 == "number") && (!(data78 % 1) && !isNaN(data78)))){
+const err233 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data78};
 if(vErrors === null){
 vErrors = [err233];
 }
@@ -2861,10 +2836,9 @@ vErrors.push(err233);
 }
 errors++;
 }
-}
-}
-else {
-const err234 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data74};
+if(typeof data78 == "number"){
+if(data78 > 100000 || isNaN(data78)){
+const err234 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data78};
 if(vErrors === null){
 vErrors = [err234];
 }
@@ -2873,13 +2847,8 @@ vErrors.push(err234);
 }
 errors++;
 }
-}
-if(data.monteCarlo !== undefined){
-let data77 = data.monteCarlo;
-if(data77 && typeof data77 == "object" && !Array.isArray(data77)){
-for(const key11 in data77){
-if(!((key11 === "samples") || (key11 === "seed"))){
-const err235 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key11},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data77};
+if(data78 < 100 || isNaN(data78)){
+const err235 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data78};
 if(vErrors === null){
 vErrors = [err235];
 }
@@ -2889,10 +2858,11 @@ vErrors.push(err235);
 errors++;
 }
 }
-if(data77.samples !== undefined){
-let data78 = data77.samples;
-if(!((typeof data78 == "number") && (!(data78 % 1) && !isNaN(data78)))){
-const err236 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data78};
+}
+if(data77.seed !== undefined){
+let data79 = data77.seed;
+if(!((typeof data79 == "number") && (!(data79 % 1) && !isNaN(data79)))){
+const err236 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data79};
 if(vErrors === null){
 vErrors = [err236];
 }
@@ -2901,9 +2871,9 @@ vErrors.push(err236);
 }
 errors++;
 }
-if(typeof data78 == "number"){
-if(data78 > 100000 || isNaN(data78)){
-const err237 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data78};
+if(typeof data79 == "number"){
+if(data79 > 4294967295 || isNaN(data79)){
+const err237 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data79};
 if(vErrors === null){
 vErrors = [err237];
 }
@@ -2912,8 +2882,8 @@ vErrors.push(err237);
 }
 errors++;
 }
-if(data78 < 100 || isNaN(data78)){
-const err238 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data78};
+if(data79 < 0 || isNaN(data79)){
+const err238 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data79};
 if(vErrors === null){
 vErrors = [err238];
 }
@@ -2924,10 +2894,9 @@ errors++;
 }
 }
 }
-if(data77.seed !== undefined){
-let data79 = data77.seed;
-if(!((typeof data79 == "number") && (!(data79 % 1) && !isNaN(data79)))){
-const err239 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data79};
+}
+else {
+const err239 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data77};
 if(vErrors === null){
 vErrors = [err239];
 }
@@ -2936,9 +2905,10 @@ vErrors.push(err239);
 }
 errors++;
 }
-if(typeof data79 == "number"){
-if(data79 > 4294967295 || isNaN(data79)){
-const err240 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data79};
+}
+}
+else {
+const err240 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
 if(vErrors === null){
 vErrors = [err240];
 }
@@ -2947,97 +2917,14 @@ vErrors.push(err240);
 }
 errors++;
 }
-if(data79 < 0 || isNaN(data79)){
-const err241 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data79};
-if(vErrors === null){
-vErrors = [err241];
-}
-else {
-vErrors.push(err241);
-}
-errors++;
-}
-}
-}
-}
-else {
-const err242 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data77};
-if(vErrors === null){
-vErrors = [err242];
-}
-else {
-vErrors.push(err242);
-}
-errors++;
-}
-}
-}
-else {
-const err243 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
-if(vErrors === null){
-vErrors = [err243];
-}
-else {
-vErrors.push(err243);
-}
-errors++;
-}
 validate10.errors = vErrors;
 return errors === 0;
 }
 
-const schema12 = {"not":{"required":["model"]},"$id":"4bd0df3b"};
-
-function validate11(data, {instancePath="", parentData, parentDataProperty, rootData=data}={}){
-/*# sourceURL="4bd0df3b" */;
-let vErrors = null;
-let errors = 0;
-const _errs0 = errors;
-const _errs1 = errors;
-if(data && typeof data == "object" && !Array.isArray(data)){
-let missing0;
-if((data.model === undefined) && (missing0 = "model")){
-const err0 = {};
-if(vErrors === null){
-vErrors = [err0];
-}
-else {
-vErrors.push(err0);
-}
-errors++;
-}
-}
-var valid0 = _errs1 === errors;
-if(valid0){
-const err1 = {instancePath,schemaPath:"#/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema12.not,parentSchema:schema12,data};
-if(vErrors === null){
-vErrors = [err1];
-}
-else {
-vErrors.push(err1);
-}
-errors++;
-}
-else {
-errors = _errs0;
-if(vErrors !== null){
-if(_errs0){
-vErrors.length = _errs0;
-}
-else {
-vErrors = null;
-}
-}
-}
-validate11.errors = vErrors;
-return errors === 0;
-}
-
 /** Hash (rjsf's hashForSchema) of the schema these validators were compiled from. */
-export const SPEC_SCHEMA_HASH = "-27f5ff6e";
+export const SPEC_SCHEMA_HASH = "7f581c23";
 
 /** rjsf precompiled validator functions, by schema $id. */
 export const SPEC_VALIDATORS = {
   "https://longtail.example/schema/spec.schema.json": validate10,
-  "4bd0df3b": validate11,
 };
