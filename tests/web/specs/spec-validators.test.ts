@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, test } from 'vitest';
 import type { RJSFSchema } from '@rjsf/utils';
 import specSchemaJson from '#shared/schema/spec.schema.json';
-import { specFormSchema, specValidator, SchemaMismatchError } from '../../../web/src/features/specs/lib/spec-validator';
+import { specValidator, SchemaMismatchError } from '../../../web/src/features/specs/lib/spec-validator';
 import { GENERATED_PATH, specValidatorsModule } from '../../../scripts/compile-spec-validators';
 
 const specSchema = specSchemaJson as RJSFSchema;
@@ -22,16 +22,5 @@ describe('precompiled spec validators', () => {
 
   test('a schema other than the compiled one is refused with a reload hint', () => {
     expect(() => specValidator({ ...specSchema, title: 'Changed' })).toThrow(SchemaMismatchError);
-  });
-});
-
-describe('specFormSchema', () => {
-  test("when the served schema gives BF and VAF defaults only without a card model, then the form's schema has them as plain defaults and no conditional", () => {
-    const form = specFormSchema(specSchemaJson as RJSFSchema) as { properties: { device: Record<string, unknown> & { properties: Record<string, { default?: unknown }> } } };
-    expect(form.properties.device.if).toBeUndefined();
-    expect(form.properties.device.then).toBeUndefined();
-    expect(form.properties.device.properties.beta.default).toBe(100);
-    expect(form.properties.device.properties.earlyVoltageV.default).toBe(100);
-    expect(form.properties.device.properties.model).toBeDefined();
   });
 });

@@ -21,7 +21,7 @@ import type { SchemaNode } from '../lib/schema-nodes';
 import { serverErrorsToErrorSchema } from '../lib/server-errors';
 import { specChecks, withoutUnreadableFieldErrors } from '../lib/spec-checks';
 import { SPEC_UI_SCHEMA, withQuantityWidgets } from '../lib/spec-ui-schema';
-import { specFormSchema, specValidator } from '../lib/spec-validator';
+import { specValidator } from '../lib/spec-validator';
 import { stableJson } from '../lib/stable-json';
 import { DeviceModelField } from './device-model-field';
 import { CardModelField } from './card-model-field';
@@ -59,7 +59,7 @@ export function SpecForm(props: SpecFormProps) {
   if (schemaQuery.isPending) return <Loading what="Loading the spec form" />;
   if (schemaQuery.isError) return <ErrorPanel error={schemaQuery.error} retry={() => void schemaQuery.refetch()} />;
   if (!validator || validator instanceof Error) return <ErrorPanel error={validator} />;
-  return <SpecFormBody {...props} schema={specFormSchema(schemaQuery.data)} validator={validator} />;
+  return <SpecFormBody {...props} schema={schemaQuery.data} validator={validator} />;
 }
 
 const withDefaults = (validator: ValidatorType, schema: RJSFSchema, data: SpecDraft) => stableJson(getDefaultFormState(validator, schema, data));

@@ -27,42 +27,8 @@ export function localizeSpecErrors(errors?: ErrorObject[] | null): void {
   }
 }
 
-/**
- * The validator for `schema`; throws SchemaMismatchError when it is not the compiled one.
- *
- * That check, once, is the check that the served schema is the compiled one. rjsf's validator
- * repeats it on every call by comparing the schema it is handed with the root schema resolved
- * against the raw form data; with a conditional in the schema (the device's `if`/`then`: BF and
- * VAF defaults only without a card model) the form hands it the root resolved against the data
- * with its defaults, which differs, and every validation would throw. The per-call comparison is
- * therefore replaced by the hash check above (validation itself always runs the root's compiled
- * function, whatever schema is handed in).
- */
+/** The validator for `schema`; throws SchemaMismatchError when it is not the compiled one. */
 export function specValidator(schema: RJSFSchema): ValidatorType {
   if (hashForSchema(schema) !== SPEC_SCHEMA_HASH) throw new SchemaMismatchError();
-  const validator = createPrecompiledValidator(SPEC_VALIDATORS, schema, localizeSpecErrors);
-  (validator as unknown as { ensureSameRootSchema: () => boolean }).ensureSameRootSchema = () => true;
-  return validator;
-}
-
-type Node = Record<string, unknown>;
-
-/**
- * The schema the form lays out: the served one with the device's conditional (`if`/`then`: the
- * BF and VAF defaults apply only without a card model) folded into plain defaults. rjsf re-sanitizes
- * the data of a schema with a nested conditional on every change and then writes `{}` for each
- * absent object field (`deviceModel`, `device.model`), which no spec means; without the
- * conditional it leaves absent fields absent. Validation still runs the compiled served schema
- * (`specValidator`), conditional included; the defaults matter only while no card is chosen,
- * since choosing one sets BF and VAF to the card's.
- */
-export function specFormSchema(schema: RJSFSchema): RJSFSchema {
-  const device = (schema.properties as Node | undefined)?.device as Node | undefined;
-  if (!device || !('if' in device)) return schema;
-  const { if: _if, then, else: _else, ...plain } = device;
-  const properties = { ...(plain.properties as Node) };
-  for (const [name, extra] of Object.entries(((then as Node | undefined)?.properties as Node | undefined) ?? {})) {
-    properties[name] = { ...(properties[name] as Node), ...(extra as Node) };
-  }
-  return { ...schema, properties: { ...(schema.properties as Node), device: { ...plain, properties } } } as RJSFSchema;
+  return createPrecompiledValidator(SPEC_VALIDATORS, schema, localizeSpecErrors);
 }
