@@ -13,7 +13,7 @@
  */
 import { createHash } from 'node:crypto';
 import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
-import { cardCommentLines, cardDevice, cardNotes, readModelFile, type CardDevice, type CardOrigin, type ModelCard } from '#shared/devices/model-card';
+import { cardCommentLines, cardDevice, cardModel, cardNotes, cardSpiceOnlyParameters, readModelFile, type CardOrigin, type ModelCard } from '#shared/devices/model-card';
 import { DEVICE_LIBRARY_QUOTA, type DeviceModelState, type DeviceModelView, type RecordedDeviceModel } from '#shared/devices/types';
 import type { DeviceParams } from '#shared/engine/types';
 import { DeviceModelEntity, type DeviceModel } from '../entities/device-model.entity';
@@ -333,34 +333,51 @@ export async function replaceDeviceModel(dataSource: DataSource, actor: Viewer, 
   });
 }
 
-/**
- * The card a spec names (`deviceModel: { name, checksum }`): the exact stored text, in the
- * library or retired (its state says which); null when the project never held it. For the
- * exported netlist's comment.
- */
-export async function libraryCardFor(
-  manager: EntityManager | DataSource,
-  projectId: number,
-  reference: { name: string; checksum: string },
-): Promise<(CardOrigin & { device: CardDevice; state: DeviceModelState }) | null> {
-  const row = await recordedRow(manager, projectId, reference);
-  if (!row) return null;
-  return { name: row.name, fileName: row.fileName, checksum: row.checksum, text: row.cardText, device: cardDevice(row.parameters), state: stateOf(row) };
+/** What a design's netlists take from the library card its spec was filled from. */
+export interface DesignCard {
+  /** Texts of comment lines for `spiceNetlist`'s header: the card, or why it is not used. */
+  comments: string[];
+  /**
+   * The card's parameters the design's device does not carry, for `spiceNetlist`'s
+   * `spiceOnlyParameters`: SPICE simulates them, the engine does not model them. Empty when the
+   * spec names no card or the design's device is no longer the card's.
+   */
+  spiceOnlyParameters: Record<string, number>;
+  /** The card's name when the design is the card's device, else null. */
+  cardName: string | null;
+}
+
+/** Whether a design's device is the card's: IS, BF, VAF equal, and every parameter of its `model` the card's. */
+function deviceIsCard(device: DeviceParams, parameters: Readonly<Record<string, number>>): boolean {
+  const card = cardDevice(parameters);
+  if (card.beta !== device.beta || card.saturationCurrentA !== device.saturationCurrentA || card.earlyVoltageV !== (device.earlyVoltageV ?? 0)) return false;
+  const model = (device as { model?: Record<string, number> }).model ?? {};
+  return Object.entries(model).every(([name, value]) => parameters[name] === value);
 }
 
 /**
- * Texts of comment lines for an exported netlist, for `spiceNetlist`'s header comments (decision: the netlist keeps the engine's own `.model`
- * card, so SPICE solves what the engine estimated; the library card the spec was filled from
- * follows as comments, to swap in by hand). Nothing when the spec names no card; a one-line note
- * when the card is gone from the library or the design's IS, BF, VAF are no longer the card's.
+ * The library card a spec names (`deviceModel`), for a design's netlists: every parameter of the
+ * card SPICE reads that the design's device does not carry goes into the netlist's `.model` card
+ * (the whole card is simulated), and the header comments name the card. Nothing when the spec
+ * names no card; a one-line note when the card is gone from the library or the design's device is
+ * no longer the card's (then the design's own values alone are simulated).
  */
-export async function libraryCardNetlistComment(manager: EntityManager | DataSource, projectId: number, specPayload: unknown, device: DeviceParams): Promise<string[]> {
+export async function designCard(manager: EntityManager | DataSource, projectId: number, specPayload: unknown, device: DeviceParams): Promise<DesignCard> {
+  const none = (comments: string[]): DesignCard => ({ comments, spiceOnlyParameters: {}, cardName: null });
   const reference = (specPayload as { deviceModel?: { name?: unknown; checksum?: unknown } } | null)?.deviceModel;
-  if (!reference || typeof reference.name !== 'string' || typeof reference.checksum !== 'string') return [];
-  const card = await libraryCardFor(manager, projectId, { name: reference.name, checksum: reference.checksum });
-  if (!card) return [`The spec names library card ${reference.name}, which this project's library has never held from that file.`];
-  const same = card.device.beta === device.beta && card.device.saturationCurrentA === device.saturationCurrentA && card.device.earlyVoltageV === (device.earlyVoltageV ?? 0);
-  if (!same) return [`The spec was filled from library card ${card.name} (file ${card.fileName}), but this design's IS, BF or VAF differ from the card's; the card is not repeated here.`];
-  const retired = card.state === 'library' ? [] : [`(This card has since been ${card.state} in the project's library; below is the text the spec was filled from.)`];
-  return [...retired, ...cardCommentLines(card)];
+  if (!reference || typeof reference.name !== 'string' || typeof reference.checksum !== 'string') return none([]);
+  const row = await recordedRow(manager, projectId, { name: reference.name, checksum: reference.checksum });
+  if (!row) return none([`The spec names library card ${reference.name}, which this project's library has never held from that file.`]);
+  if (!deviceIsCard(device, row.parameters)) {
+    return none([`The spec was filled from library card ${row.name} (file ${row.fileName}), but this design's device differs from the card's; the card is not simulated with it.`]);
+  }
+  const carried = new Set(['IS', 'BF', 'VAF', ...Object.keys((device as { model?: Record<string, number> }).model ?? {})]);
+  const spiceOnlyParameters: Record<string, number> = {};
+  for (const [name, value] of Object.entries({ ...cardModel(row.parameters), ...cardSpiceOnlyParameters(row.parameters) })) {
+    if (!carried.has(name) && value !== undefined) spiceOnlyParameters[name] = value;
+  }
+  const state = stateOf(row);
+  const retired = state === 'library' ? [] : [`(This card has since been ${state} in the project's library; below is the text the spec was filled from.)`];
+  const origin: CardOrigin = { name: row.name, fileName: row.fileName, checksum: row.checksum, text: row.cardText };
+  return { comments: [...retired, ...cardCommentLines(origin, Object.keys(spiceOnlyParameters))], spiceOnlyParameters, cardName: row.name };
 }

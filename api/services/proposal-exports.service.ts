@@ -11,7 +11,7 @@ import type { NetlistQuery } from '#shared/api/proposals';
 import { rankingCsv } from '#shared/export/ranking-csv';
 import { currentDesignName } from '#shared/workflow/current-design';
 import { invalid } from '../errors';
-import { libraryCardNetlistComment } from './devices.service';
+import { designCard } from './devices.service';
 import { allMeasurements } from './measurements.service';
 import { getProposal, proposalAudit } from './proposals.service';
 import type { PublicUser } from './users.service';
@@ -41,16 +41,17 @@ export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, pr
     if (!design) throw invalid([{ path: '?topology', message: `is not a sized option of this proposal: ${String(topology)}` }]);
     label = `ranked option ${topology}`;
   }
-  const libraryCard = await libraryCardNetlistComment(dataSource, proposal.projectId, proposal.specVersion.payload, design.device);
+  const card = await designCard(dataSource, proposal.projectId, proposal.specVersion.payload, design.device);
   // User text (the spec's title, the card's name and text) goes in as header comments only: the writer keeps each on comment lines.
   const header = [
     `Exported by Longtail: proposal #${proposal.id}, ${label}`,
     `spec "${proposal.specVersion.title}" version ${proposal.specVersion.version}, engine ${proposal.engineVersion}, rule set ${proposal.rulesetVersion.slice(0, 12)}`,
     `at ${design.temperatureC ?? 27} °C, input common mode ${design.inputCommonModeV ?? 0} V (nominal conditions)`,
     ESTIMATE_NOTICE,
-    ...libraryCard,
+    ...card.comments,
   ];
-  const text = spiceNetlist(design, { analysis: query.drive === 'differential' ? 'ac-differential' : 'ac-common-mode', ...NETLIST_SWEEP }, header);
+  const analysis = query.drive === 'differential' ? 'ac-differential' : 'ac-common-mode';
+  const text = spiceNetlist(design, { analysis, ...NETLIST_SWEEP, spiceOnlyParameters: card.spiceOnlyParameters }, header);
   return { fileName: `longtail-${proposal.id}-${design.tail.topology}-${query.drive}.cir`, text };
 }
 

@@ -14,6 +14,7 @@ import { solveStage } from '#shared/engine/analyze';
 import { mismatchCmrrDb, mismatchSensitivity, mismatchSigmas, mismatchStages, mismatchedDesign, monteCarloDraws, monteCarloSample, percentile } from '#shared/engine/mismatch';
 import type { RecommendOption } from '#shared/engine/recommend';
 import type { Design, Spec } from '#shared/engine/types';
+import type { NetlistCardSettings } from '#shared/engine/netlist';
 import type { MonteCarloVerificationResult } from '#shared/verification/types';
 import type { SpiceRunner } from './spice-analyses';
 import { acAt } from './verify-option';
@@ -84,6 +85,7 @@ export async function runMonteCarlo(
   simulator: string,
   onProgress: (done: number, step: string) => Promise<void> | void,
   slicing?: MonteCarloSlicing,
+  card: NetlistCardSettings = {},
 ): Promise<MonteCarloVerificationResult> {
   const t0 = performance.now();
   const design = option.design as Design;
@@ -105,6 +107,7 @@ export async function runMonteCarlo(
         run,
         { ...mismatchedDesign(cornerDesign, sample.mismatches), collectorResistanceOhm: design.collectorResistanceOhm * sample.load1Scale },
         { startHz: f, stopHz: f, pointsPerDecade: 1 },
+        card,
       );
       const db = ac.figuresAt(0).cmrrDifferentialDb;
       if (db === null || !Number.isFinite(db)) failedRuns += 1;

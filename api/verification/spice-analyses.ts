@@ -15,6 +15,7 @@ import {
   TAIL_TEST_SOURCE,
   spiceNetlist,
   type AcSweep,
+  type NetlistCardSettings,
   type NetlistOptions,
   type NetlistSolverSettings,
 } from '#shared/engine/netlist';
@@ -77,7 +78,11 @@ function splitVariables<T>(names: string[], values: T[]): { nodes: Record<string
 }
 
 /** Runs `.op` on a design's netlist (reference RELTOL unless `solver` says otherwise). */
-export async function spiceOperatingPoint(run: SpiceRunner, design: Design, solver: NetlistSolverSettings = REFERENCE_SOLVER): Promise<SpiceOperatingPoint> {
+export async function spiceOperatingPoint(
+  run: SpiceRunner,
+  design: Design,
+  solver: NetlistSolverSettings & NetlistCardSettings = REFERENCE_SOLVER,
+): Promise<SpiceOperatingPoint> {
   const netlist = spiceNetlist(design, { analysis: 'op', ...solver });
   const result = await run(netlist, PLOT_NAMES.op);
   if (result.dataType !== 'real') throw new Error('ngspice .op returned complex data');
@@ -283,4 +288,16 @@ export async function spiceFigures(run: SpiceRunner, design: Design, options: { 
     referenceCurrentA,
     transistors,
   };
+}
+
+/**
+ * The transistors whose base-collector junction SPICE's operating point forward-biases (VBC > 0
+ * at the terminals: saturated, or at the edge of it), with that VBC, in circuit order.
+ */
+export function saturatedTransistors(design: Design, op: SpiceOperatingPoint): { name: string; vbcV: number }[] {
+  const v = op.nodeVoltagesV;
+  return stageCircuit(design)
+    .elements.filter((e): e is TransistorElement => e.kind === 'npn')
+    .map((q) => ({ name: q.name, vbcV: v[q.base.toLowerCase()] - v[q.collector.toLowerCase()] }))
+    .filter((q) => Number.isFinite(q.vbcV) && q.vbcV > 0);
 }

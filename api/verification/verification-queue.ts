@@ -35,6 +35,7 @@ import { randomUUID } from 'node:crypto';
 import type { DataSource, EntityManager, Repository, SelectQueryBuilder } from 'typeorm';
 import { isPostgres } from '../data-source';
 import { specVersionDocument } from '../services/specs.service';
+import { designCard } from '../services/devices.service';
 import { rankingOf } from '../services/rankings.service';
 import { DecisionEntity } from '../entities/decision.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
@@ -325,6 +326,7 @@ export class VerificationQueue {
           simulator,
           (done, step) => progress(done, `${target.name}: ${step}`),
           { sliceRuns: MONTE_CARLO_SLICE_RUNS, betweenSlices: () => this.interleave(job, nested) },
+          await cardSettings(this.dataSource, proposal, spec, target.option),
         );
         const outcome: MonteCarloVerificationResult = { ...simulated, source: job.source, binding: target.binding };
         await this.finish(job, outcome, job.runs ?? 0);
@@ -430,6 +432,22 @@ async function decidedTarget(dataSource: DataSource, proposal: Proposal, result:
   return { option, name: `Own values (${topologyName(decision.topology)})`, binding };
 }
 
+/**
+ * The library card simulated with an option's design: when the spec was filled from a card and
+ * the design is still its device, the card's parameters the design does not carry
+ * (services/devices.service.ts `designCard`); undefined otherwise.
+ */
+async function simulatedCard(manager: DataSource | EntityManager, proposal: Proposal, spec: Spec, option: RecommendOption): Promise<OptionToVerify['card']> {
+  if (!option.design) return undefined;
+  const card = await designCard(manager, proposal.projectId, spec, option.design.device);
+  return card.cardName === null ? undefined : { name: card.cardName, spiceOnlyParameters: card.spiceOnlyParameters };
+}
+
+async function cardSettings(manager: DataSource | EntityManager, proposal: Proposal, spec: Spec, option: RecommendOption) {
+  const card = await simulatedCard(manager, proposal, spec, option);
+  return card ? { spiceOnlyParameters: card.spiceOnlyParameters } : {};
+}
+
 /** Every ranked option, then the latest decision's own design when it is an override. */
 async function verificationTargets(
   dataSource: DataSource,
@@ -440,15 +458,19 @@ async function verificationTargets(
   hook: VerificationQueueOptions['netlistHook'],
 ): Promise<OptionToVerify[]> {
   const common = { differentialOutput: spec.gain.output === 'differential', frequencyHz: spec.cmrr.atFrequencyHz };
-  const targets: OptionToVerify[] = result.options.map((option) => ({
-    ...common,
-    topology: option.topology,
-    source: 'option',
-    name: topologyName(option.topology),
-    option,
-    binding: rankedTarget(proposal, result, specVersion, option.topology)?.binding,
-    netlistHook: hook ? (netlist: string) => hook(option.topology, netlist) : undefined,
-  }));
+  const targets: OptionToVerify[] = [];
+  for (const option of result.options) {
+    targets.push({
+      ...common,
+      topology: option.topology,
+      source: 'option',
+      name: topologyName(option.topology),
+      option,
+      binding: rankedTarget(proposal, result, specVersion, option.topology)?.binding,
+      netlistHook: hook ? (netlist: string) => hook(option.topology, netlist) : undefined,
+      card: await simulatedCard(dataSource, proposal, spec, option),
+    });
+  }
   const decision = await dataSource.getRepository(DecisionEntity).findOne({ where: { proposalId: proposal.id }, order: { id: 'DESC' } });
   if (decision?.kind === 'override' && decision.evaluation) {
     const decided = await decidedTarget(dataSource, proposal, result, specVersion);
@@ -461,6 +483,7 @@ async function verificationTargets(
         option: decided.option,
         binding: decided.binding,
         netlistHook: hook ? (netlist: string) => hook(`override:${decision.topology}`, netlist) : undefined,
+        card: await simulatedCard(dataSource, proposal, spec, decided.option),
       });
     }
   }

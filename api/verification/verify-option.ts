@@ -15,16 +15,19 @@ import {
   type VerifiedCondition,
   type VerifiedFigure,
 } from '#shared/verification/types';
+import { likelyCause, type FigureKind, type SaturatedTransistor } from '#shared/verification/causes';
+import { spiceOnlyParameterMoves } from '#shared/devices/model-card';
 import {
   REFERENCE_RELATIVE_TOLERANCE,
   complexMagnitude,
   dcFigures,
   dropFrequencyHz,
+  saturatedTransistors,
   spiceAc,
   spiceOperatingPoint,
   type SpiceRunner,
 } from './spice-analyses';
-import { TAIL_TEST_SOURCE, type AcSweep } from '#shared/engine/netlist';
+import { TAIL_TEST_SOURCE, type AcSweep, type NetlistCardSettings } from '#shared/engine/netlist';
 import { singleEndedCmrrDbAt, solveStage } from '#shared/engine/analyze';
 import { conditionLabel } from '#shared/text/engine-notes';
 import { NOMINAL_TEMPERATURE_C } from '#shared/engine/constants';
@@ -61,6 +64,24 @@ export interface OptionToVerify {
   netlistHook?: (netlist: string) => string;
   /** What is simulated, recorded with the result (shared/verification/binding.ts). */
   binding?: DesignBinding;
+  /**
+   * The library card simulated with the design (its spec was filled from it and the design is
+   * still its device): the card's parameters the design's device does not carry go into every
+   * netlist, so SPICE simulates the whole card.
+   */
+  card?: { name: string; spiceOnlyParameters: Readonly<Record<string, number>> };
+}
+
+/** Figures read at a frequency (charges matter); every other figure is the operating point's or low-frequency. */
+const FREQUENCY_FIGURES = new Set(['cmrrAtFrequencyDb', 'cmrrCornerHz']);
+
+/** Each figure outside tolerance gets its likely cause (shared/verification/causes.ts). */
+function withCauses(figures: VerifiedFigure[], spiceOnly: readonly string[], saturated: readonly SaturatedTransistor[]): VerifiedFigure[] {
+  return figures.map((figure) => {
+    if (figure.agrees !== false) return figure;
+    const kind: FigureKind = FREQUENCY_FIGURES.has(figure.key) ? 'ac' : 'dc';
+    return { ...figure, cause: likelyCause(kind, spiceOnly, spiceOnlyParameterMoves, saturated) };
+  });
 }
 
 function percentFigure(key: string, label: string, unit: string, predicted: number | null, simulated: number | null, tolerance: number): VerifiedFigure {
@@ -91,9 +112,9 @@ interface AcFigures {
   cmrrDifferentialDb: number | null;
 }
 
-export async function acAt(run: SpiceRunner, design: Design, sweep: AcSweep) {
-  const differential = await spiceAc(run, design, { analysis: 'ac-differential', ...sweep, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
-  const commonMode = await spiceAc(run, design, { analysis: 'ac-common-mode', ...sweep, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
+export async function acAt(run: SpiceRunner, design: Design, sweep: AcSweep, card: NetlistCardSettings = {}) {
+  const differential = await spiceAc(run, design, { analysis: 'ac-differential', ...sweep, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE, ...card });
+  const commonMode = await spiceAc(run, design, { analysis: 'ac-common-mode', ...sweep, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE, ...card });
   const figuresAt = (k: number): AcFigures => {
     const d1 = differential.nodeVoltages.c1[k];
     const d2 = differential.nodeVoltages.c2[k];
@@ -114,10 +135,10 @@ export async function acAt(run: SpiceRunner, design: Design, sweep: AcSweep) {
   return { frequenciesHz: differential.frequenciesHz, figuresAt };
 }
 
-/** DC figures at one condition, with the node voltages the comparison shows. */
-async function dcAt(run: SpiceRunner, design: Design) {
-  const op = await spiceOperatingPoint(run, design, { relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
-  return { ...dcFigures(design, op), collectorVoltageV: op.nodeVoltagesV.c1, tailNodeVoltageV: op.nodeVoltagesV.t };
+/** DC figures at one condition, with the node voltages the comparison shows and the transistors SPICE finds saturated. */
+async function dcAt(run: SpiceRunner, design: Design, card: NetlistCardSettings) {
+  const op = await spiceOperatingPoint(run, design, { relativeTolerance: REFERENCE_RELATIVE_TOLERANCE, ...card });
+  return { ...dcFigures(design, op), collectorVoltageV: op.nodeVoltagesV.c1, tailNodeVoltageV: op.nodeVoltagesV.t, saturated: saturatedTransistors(design, op) };
 }
 
 /** Runs every analysis of one option and compares; a failing simulation becomes the option's error. */
@@ -129,6 +150,7 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
     topology: target.topology,
     source: target.source,
     ...(target.binding ? { binding: target.binding } : {}),
+    ...(target.card ? { card: { name: target.card.name, spiceOnlyParameters: Object.keys(target.card.spiceOnlyParameters) } } : {}),
     nominal: null,
     corners: [],
     rejectionCurve: [],
@@ -146,20 +168,22 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
   const predicted = option.predicted;
   const gainKey = target.differentialOutput ? 'differentialGain' : 'singleEndedGain';
   const gainLabel = target.differentialOutput ? 'Differential gain |Ad|' : 'Single-ended gain |Ase|';
+  const card: NetlistCardSettings = target.card ? { spiceOnlyParameters: target.card.spiceOnlyParameters } : {};
+  const spiceOnly = Object.keys(card.spiceOnlyParameters ?? {});
   try {
     const nominalLabel = conditionLabel(design.inputCommonModeV ?? 0, design.temperatureC ?? NOMINAL_TEMPERATURE_C);
     await onStep(`${target.name}: operating point`);
-    const dc = await dcAt(run, design);
+    const dc = await dcAt(run, design, card);
 
     const predictedCornerHz = predicted.cmrrCornerHz;
     const stopHz = Math.min(MAX_SWEEP_STOP_HZ, Math.max(MIN_SWEEP_STOP_HZ, (predictedCornerHz ?? 0) * SWEEP_STOP_OVER_CORNER));
     await onStep(`${target.name}: differential and common-mode sweeps, 1 Hz to ${stopHz.toExponential(0)} Hz`);
-    const sweep = await acAt(run, design, { startHz: 1, stopHz, pointsPerDecade: SWEEP_POINTS_PER_DECADE });
+    const sweep = await acAt(run, design, { startHz: 1, stopHz, pointsPerDecade: SWEEP_POINTS_PER_DECADE }, card);
     const low = sweep.figuresAt(0);
     const singleDb = sweep.frequenciesHz.map((_, k) => sweep.figuresAt(k).cmrrSingleEndedDb);
     const hasCapacitance = (design.tailCapacitanceF ?? 0) > 0;
     const simulatedCornerHz = hasCapacitance ? dropFrequencyHz(sweep.frequenciesHz, singleDb, 3) : null;
-    const atSpec = await acAt(run, design, { startHz: target.frequencyHz, stopHz: target.frequencyHz, pointsPerDecade: 1 });
+    const atSpec = await acAt(run, design, { startHz: target.frequencyHz, stopHz: target.frequencyHz, pointsPerDecade: 1 }, card);
 
     await onStep(`${target.name}: tail output resistance`);
     const tail = await spiceAc(run, design, {
@@ -169,6 +193,7 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
       stopHz: 1,
       pointsPerDecade: 1,
       relativeTolerance: REFERENCE_RELATIVE_TOLERANCE,
+      ...card,
     });
     const routOhm = 1 / complexMagnitude(tail.sourceCurrents[TAIL_TEST_SOURCE.toLowerCase()][0]);
 
@@ -187,7 +212,7 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
       label: nominalLabel,
       inputCommonModeV: design.inputCommonModeV ?? 0,
       temperatureC: design.temperatureC ?? NOMINAL_TEMPERATURE_C,
-      figures: [
+      figures: withCauses([
         percentFigure('tailCurrentA', 'Tail current', 'A', predicted.tailCurrentA, dc.tailCurrentA, TOL.currentPercent),
         percentFigure('collectorCurrentA', 'Collector current Q1', 'A', predicted.collectorCurrentA, dc.collectorCurrentA, TOL.currentPercent),
         absoluteFigure('collectorVoltageV', 'Collector voltage Q1', 'V', predicted.collectorVoltageV, dc.collectorVoltageV, TOL.voltageV, 'volts'),
@@ -208,26 +233,26 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
         percentFigure('tailOutputResistanceOhm', 'Tail output resistance', 'Ohm', predicted.tailOutputResistanceOhm, routOhm, TOL.tailOutputResistancePercent),
         percentFigure('cmrrCornerHz', 'Rejection corner (−3 dB)', 'Hz', predictedCornerHz, simulatedCornerHz, TOL.cornerFrequencyPercent),
         percentFigure('powerW', 'Power', 'W', predicted.powerW, dc.powerW, TOL.powerPercent),
-      ],
+      ], spiceOnly, dc.saturated),
     };
 
     const corners: VerifiedCondition[] = [];
     for (const corner of option.corners) {
       const cornerDesign: Design = { ...design, inputCommonModeV: corner.inputCommonModeV, temperatureC: corner.temperatureC };
       await onStep(`${target.name}: corner ${corner.label}`);
-      const cornerDc = await dcAt(run, cornerDesign);
-      const cornerAc = await acAt(run, cornerDesign, { startHz: target.frequencyHz, stopHz: target.frequencyHz, pointsPerDecade: 1 });
+      const cornerDc = await dcAt(run, cornerDesign, card);
+      const cornerAc = await acAt(run, cornerDesign, { startHz: target.frequencyHz, stopHz: target.frequencyHz, pointsPerDecade: 1 }, card);
       const ac = cornerAc.figuresAt(0);
       corners.push({
         label: corner.label,
         inputCommonModeV: corner.inputCommonModeV,
         temperatureC: corner.temperatureC,
-        figures: [
+        figures: withCauses([
           percentFigure('tailCurrentA', 'Tail current', 'A', corner.tailCurrentA, cornerDc.tailCurrentA, TOL.currentPercent),
           percentFigure('gain', gainLabel, '', corner.gain, ac[gainKey], TOL.gainPercent),
           absoluteFigure('cmrrAtFrequencyDb', `CMRR, single-ended, at ${formatQuantity(target.frequencyHz, 'Hz')}`, 'dB', corner.cmrrAtFrequencyDb, ac.cmrrSingleEndedDb, TOL.singleEndedCmrrDb, 'db'),
           percentFigure('powerW', 'Power', 'W', corner.powerW, cornerDc.powerW, TOL.powerPercent),
-        ],
+        ], spiceOnly, cornerDc.saturated),
       });
     }
 

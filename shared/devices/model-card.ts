@@ -16,14 +16,21 @@
  * Anything else (.subckt, .include, .lib, .param, braces, quotes, element lines, PNP or other
  * device types, other dot-cards) is a problem with its line number; one problem refuses the file.
  *
- * What the engine reads from a card: IS, BF, VAF (VA is VAF's other name in SPICE). They are
- * required, even though SPICE has defaults for them (IS = 1e-16 A, BF = 100, VAF infinite): a
- * library card that leaves them out would size the stage on values nobody chose. Write VAF=0
- * for no Early effect (SPICE reads 0 as infinite). Their limits are the spec schema's.
- * Every other parameter is kept (name → number) with the card's text, for reference and for the
- * exported netlist's comment; the engine models BR = 1 and nothing else of the card.
+ * What the engine reads from a card: the Gummel-Poon parameters of `shared/engine/bjt-parameters.ts`
+ * (IS, BF, NF, VAF, IKF, ISE, NE, BR, …, CJE, CJC, CJS, TF, RB, …), which a spec filled from the
+ * card carries as `device.model`; ngspice's other names for them (VA, IK, C2, VB, C4, PE, ME, PC,
+ * MC, CSUB, CCS, PS, MS; and NK, TRB, TRC, TRE, TREF for SPICE-only ones) are read as theirs. IS, BF and VAF are required, even though SPICE has
+ * defaults for them (IS = 1e-16 A, BF = 100, VAF infinite): a library card that leaves them out
+ * would size the stage on values nobody chose. Write VAF=0 for no Early effect (SPICE reads 0 as
+ * infinite). Their limits are the spec schema's.
+ * Every other parameter ngspice's bipolar model knows (TNOM, ITF, XTF, VTF, PTF, XCJC, RBM, IRB,
+ * ISS, NS, …: `SPICE_ONLY_PARAMETERS`) is kept with the card and written into every netlist the
+ * product writes or simulates, so SPICE simulates the whole card; the engine does not model them
+ * and the notes say so. A name ngspice does not know is kept with the card's text but written
+ * into no netlist.
  */
 import specSchema from '../schema/spec.schema.json';
+import { BJT_PARAMETER_NAMES, type BjtModelCard, type BjtParameterName } from '../engine/bjt-parameters';
 import { decodeUploadText, isStrayControl } from '../text/upload-text';
 import { formatSpiceNumber, readSpiceNumber } from '../units/spice-number';
 
@@ -66,6 +73,8 @@ export interface CardDevice {
   saturationCurrentA: number;
   /** 0 means infinite (no Early effect), as SPICE reads VAF = 0. */
   earlyVoltageV: number;
+  /** The card's Gummel-Poon parameters the engine models (`bjt-parameters.ts`), as the spec's `device.model` carries them. */
+  model: BjtModelCard;
 }
 
 export type ModelFileResult = { ok: true; cards: ModelCard[] } | { ok: false; problems: CardProblem[] };
@@ -264,8 +273,56 @@ const LIMITS = {
   VAF_GAP: DEVICE_FIELDS.earlyVoltageV.not.exclusiveMaximum,
 };
 
-/** SPICE's other names of parameters the engine reads (ngspice BJT model table: VA for VAF). */
-const ALIASES: Record<string, string> = { VA: 'VAF' };
+/** A number field of the schema's `device.model`: its bounds as written there. */
+interface ModelFieldBounds {
+  minimum?: number;
+  exclusiveMinimum?: number;
+  maximum?: number;
+  not?: { exclusiveMinimum: number; exclusiveMaximum: number };
+}
+
+/** The spec schema's `device.model` fields (one source of truth for each parameter's bounds). */
+const MODEL_FIELDS = DEVICE_FIELDS.model.properties as unknown as Record<string, ModelFieldBounds>;
+
+/** Whether a value lies within a `device.model` field's bounds. */
+function withinModelBounds(value: number, bounds: ModelFieldBounds): boolean {
+  if (bounds.minimum !== undefined && !(value >= bounds.minimum)) return false;
+  if (bounds.exclusiveMinimum !== undefined && !(value > bounds.exclusiveMinimum)) return false;
+  if (bounds.maximum !== undefined && !(value <= bounds.maximum)) return false;
+  if (bounds.not && value > bounds.not.exclusiveMinimum && value < bounds.not.exclusiveMaximum) return false;
+  return true;
+}
+
+function boundsText(bounds: ModelFieldBounds): string {
+  const low = bounds.exclusiveMinimum !== undefined ? `more than ${formatSpiceNumber(bounds.exclusiveMinimum)}` : `${formatSpiceNumber(bounds.minimum ?? -Infinity)}`;
+  const gap = bounds.not ? ` (0, or at least ${formatSpiceNumber(bounds.not.exclusiveMaximum)})` : '';
+  return `${low} to ${formatSpiceNumber(bounds.maximum ?? Infinity)}${gap}`;
+}
+
+/**
+ * ngspice's other names of the parameters the engine reads (its BJT model table, bjt.c [SPICE]),
+ * and TREF for TNOM: a card is stored under the one name.
+ */
+const ALIASES: Record<string, string> = {
+  VA: 'VAF',
+  IK: 'IKF',
+  C2: 'ISE',
+  VB: 'VAR',
+  C4: 'ISC',
+  PE: 'VJE',
+  ME: 'MJE',
+  PC: 'VJC',
+  MC: 'MJC',
+  CSUB: 'CJS',
+  CCS: 'CJS',
+  PS: 'VJS',
+  MS: 'MJS',
+  TREF: 'TNOM',
+  NK: 'NKF',
+  TRB: 'TRB1',
+  TRC: 'TRC1',
+  TRE: 'TRE1',
+};
 
 const REQUIRED: ReadonlyArray<[string, string]> = [
   ['IS', 'the saturation current'],
@@ -415,6 +472,12 @@ function readModel(statement: Statement, problems: Problems): ModelCard | null {
   };
   check('IS', ' A');
   check('BF', '');
+  for (const key of BJT_PARAMETER_NAMES) {
+    const value = parameters[key];
+    const bounds = MODEL_FIELDS[key];
+    if (key === 'IS' || key === 'BF' || key === 'VAF' || value === undefined || !bounds) continue;
+    if (!withinModelBounds(value, bounds)) problems.add(lineOf.get(key), `${name}: ${key}=${formatNumber(value)} is outside what a spec's device model accepts (${boundsText(bounds)}).`);
+  }
   const vaf = parameters.VAF;
   if (vaf !== undefined && vaf !== 0 && !(vaf >= LIMITS.VAF_GAP && vaf <= LIMITS.VAF.maximum)) {
     problems.add(lineOf.get('VAF'), `${name}: VAF=${formatNumber(vaf)} V is outside what a spec accepts (0 for none, or ${LIMITS.VAF_GAP} V to ${LIMITS.VAF.maximum} V).`);
@@ -515,28 +578,85 @@ export function readModelFile(bytes: Uint8Array): ModelFileResult {
 // ---------------------------------------------------------------------------------------------
 // What the product does with a card
 
-/** The spec's device fields a card fills (IS, BF, VAF; a parsed card always has them). */
-export function cardDevice(parameters: Readonly<Record<string, number>>): CardDevice {
-  return { family: 'npn', beta: parameters.BF, saturationCurrentA: parameters.IS, earlyVoltageV: parameters.VAF };
+const ENGINE_PARAMETERS: ReadonlySet<string> = new Set<string>(BJT_PARAMETER_NAMES);
+
+/**
+ * The model parameters of ngspice's bipolar transistor (BJT level 1, its model table in bjt.c
+ * [SPICE]) beyond the engine's (`bjt-parameters.ts`), by their upper-case names (the other names
+ * read as theirs by ALIASES). A card's values of these are written into every netlist, so SPICE
+ * simulates them; the engine does not model them.
+ */
+export const SPICE_ONLY_PARAMETERS: ReadonlySet<string> = new Set([
+  'SUBS', 'TNOM', 'IBE', 'IBC', 'IRB', 'RBM', 'XTF', 'VTF', 'ITF', 'PTF', 'XCJC', 'ISS', 'NS',
+  'RCO', 'VO', 'GAMMA', 'QCO', 'QUASIMOD', 'VG', 'CN', 'D', 'NKF', 'NK', 'TLEV', 'TLEVC',
+  'TBF1', 'TBF2', 'TBR1', 'TBR2', 'TIKF1', 'TIKF2', 'TIKR1', 'TIKR2', 'TIRB1', 'TIRB2', 'TNC1', 'TNC2',
+  'TNE1', 'TNE2', 'TNF1', 'TNF2', 'TNR1', 'TNR2', 'TRB1', 'TRB', 'TRB2', 'TRC1', 'TRC', 'TRC2',
+  'TRE1', 'TRE', 'TRE2', 'TRM1', 'TRM2', 'TVAF1', 'TVAF2', 'TVAR1', 'TVAR2', 'CTC', 'CTE', 'CTS',
+  'TVJC', 'TVJE', 'TVJS', 'TITF1', 'TITF2', 'TTF1', 'TTF2', 'TTR1', 'TTR2', 'TMJE1', 'TMJE2',
+  'TMJC1', 'TMJC2', 'TMJS1', 'TMJS2', 'TNS1', 'TNS2', 'TIS1', 'TIS2', 'TISE1', 'TISE2', 'TISC1',
+  'TISC2', 'TISS1', 'TISS2', 'VBE_MAX', 'VBC_MAX', 'VCE_MAX', 'PD_MAX', 'IC_MAX', 'IB_MAX', 'TE_MAX', 'RTH0',
+]);
+
+/**
+ * Of the SPICE-only parameters, those that change only the charges (transit time and its bias
+ * dependence, the split of CJC, the capacitances' temperature coefficients): they move figures
+ * over frequency, never the operating point. The safe-operating limits (…_MAX) change nothing
+ * ngspice computes. Every other SPICE-only parameter moves the operating point too.
+ */
+const CHARGE_ONLY_PARAMETERS: ReadonlySet<string> = new Set([
+  'XTF', 'VTF', 'ITF', 'PTF', 'XCJC', 'CTC', 'CTE', 'CTS', 'TVJC', 'TVJE', 'TVJS', 'TITF1', 'TITF2',
+  'TTF1', 'TTF2', 'TTR1', 'TTR2', 'TMJE1', 'TMJE2', 'TMJC1', 'TMJC2', 'TMJS1', 'TMJS2',
+]);
+const NO_EFFECT_PARAMETERS: ReadonlySet<string> = new Set(['VBE_MAX', 'VBC_MAX', 'VCE_MAX', 'PD_MAX', 'IC_MAX', 'IB_MAX', 'TE_MAX']);
+
+/** Whether a SPICE-only parameter can move a figure of this kind ('dc': operating point and low-frequency; 'ac': at a frequency). */
+export function spiceOnlyParameterMoves(name: string, kind: 'dc' | 'ac'): boolean {
+  if (!SPICE_ONLY_PARAMETERS.has(name) || NO_EFFECT_PARAMETERS.has(name)) return false;
+  return kind === 'ac' || !CHARGE_ONLY_PARAMETERS.has(name);
 }
 
-/** The parameters the engine reads or whose SPICE default it matches. */
-const MODELLED = new Set(['IS', 'BF', 'VAF', 'LEVEL']);
+/** The card's parameters the engine models (`bjt-parameters.ts`), as the spec's `device.model`. */
+export function cardModel(parameters: Readonly<Record<string, number>>): BjtModelCard {
+  const model: BjtModelCard = {};
+  for (const name of BJT_PARAMETER_NAMES) if (parameters[name] !== undefined) model[name as BjtParameterName] = parameters[name];
+  return model;
+}
 
-/** What a reader should know about how the engine uses a card. */
+/** The card's parameters SPICE reads and the engine does not model (`SPICE_ONLY_PARAMETERS`), in card order. */
+export function cardSpiceOnlyParameters(parameters: Readonly<Record<string, number>>): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const [name, value] of Object.entries(parameters)) if (SPICE_ONLY_PARAMETERS.has(name)) out[name] = value;
+  return out;
+}
+
+/** Names on the card that neither the engine nor ngspice's bipolar model knows (LEVEL aside). */
+function unknownParameters(parameters: Readonly<Record<string, number>>): string[] {
+  return Object.keys(parameters).filter((name) => name !== 'LEVEL' && !ENGINE_PARAMETERS.has(name) && !SPICE_ONLY_PARAMETERS.has(name));
+}
+
+/** The spec's device fields a card fills: IS, BF, VAF (a parsed card always has them) and `model`, every parameter the engine models. */
+export function cardDevice(parameters: Readonly<Record<string, number>>): CardDevice {
+  return { family: 'npn', beta: parameters.BF, saturationCurrentA: parameters.IS, earlyVoltageV: parameters.VAF, model: cardModel(parameters) };
+}
+
+const listed = (names: string[]) => (names.length > 10 ? `${names.slice(0, 10).join(', ')}, …` : names.join(', '));
+const plural = (n: number, one: string, many: string) => (n === 1 ? one : many);
+
+/** What a reader should know about how the engine and SPICE use a card. */
 export function cardNotes(parameters: Readonly<Record<string, number>>): string[] {
   const notes: string[] = [];
-  const others = Object.keys(parameters).filter((key) => !MODELLED.has(key));
-  if (others.length > 0) {
-    const listed = others.length > 8 ? `${others.slice(0, 8).join(', ')}, …` : others.join(', ');
+  const spiceOnly = Object.keys(cardSpiceOnlyParameters(parameters));
+  if (spiceOnly.length > 0) {
     notes.push(
-      `The engine models IS, BF and VAF with BR = 1; the card's ${others.length} other parameter${others.length === 1 ? '' : 's'} (${listed}) ${others.length === 1 ? 'is' : 'are'} kept with the card but not used, so a simulation with the full card will differ from the estimates.`,
+      `The engine does not model the card's ${listed(spiceOnly)}; ${plural(spiceOnly.length, 'it is', 'they are')} written into every netlist and simulated in the SPICE check, so SPICE may differ from the estimates where ${plural(spiceOnly.length, 'it matters', 'they matter')}.`,
     );
   }
-  const br = parameters.BR;
-  if (br !== undefined && br !== 1) notes.push(`BR = ${formatNumber(br)} in the card; the engine uses BR = 1 (the reverse gain matters only in saturation).`);
   const tnom = parameters.TNOM;
-  if (tnom !== undefined && tnom !== 27) notes.push(`TNOM = ${formatNumber(tnom)} °C in the card; the engine reads IS as its value at 27 °C.`);
+  if (tnom !== undefined && tnom !== 27) notes.push(`TNOM = ${formatNumber(tnom)} °C in the card: SPICE reads the card's values at ${formatNumber(tnom)} °C, the engine at 27 °C.`);
+  const unknown = unknownParameters(parameters);
+  if (unknown.length > 0) {
+    notes.push(`${listed(unknown)} ${plural(unknown.length, 'is not a parameter', 'are not parameters')} of SPICE's bipolar model: kept with the card's text, written into no netlist.`);
+  }
   return notes;
 }
 
@@ -550,14 +670,17 @@ export interface CardOrigin {
 
 /**
  * The texts of the comment lines for an exported netlist: the library card the device came
- * from, for `spiceNetlist`'s header comments (which write each behind `* `, so SPICE never reads it). The netlist keeps the engine's own `.model` card (IS, BF,
- * VAF), so the simulation agrees with the estimates; the original card is there to swap in by hand.
+ * from, for `spiceNetlist`'s header comments (which write each behind `* `, so SPICE never reads
+ * it). The netlist's `.model` card is the whole card (`spiceOnly`: the parameters the engine does
+ * not model, written after the design's own); the card as written follows for reference.
  */
-export function cardCommentLines(origin: CardOrigin): string[] {
+export function cardCommentLines(origin: CardOrigin, spiceOnly: readonly string[] = []): string[] {
   return [
     `Device from the project's library: ${origin.name} (file ${origin.fileName}, sha256 ${origin.checksum.slice(0, 16)}…).`,
-    "The .model card below keeps the engine's IS, BF and VAF only, so SPICE solves what the engine estimated.",
-    'The original card, for a simulation with every parameter (results will then differ from the estimates):',
+    spiceOnly.length > 0
+      ? `The .model card below carries every parameter of the card; the engine does not model ${listed([...spiceOnly])}, so SPICE may differ from the estimates there.`
+      : 'The .model card below carries every parameter of the card, each of them modelled by the engine.',
+    'The card as written in the library file:',
     ...splitLines(origin.text).map((line) => `  ${line}`),
   ];
 }

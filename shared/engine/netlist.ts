@@ -47,7 +47,18 @@ export type NetlistOptions = (
   | ({ analysis: 'ac-common-mode' } & AcSweep)
   | ({ analysis: 'ac-tail'; tailNodeV: number } & AcSweep)
 ) &
-  NetlistSolverSettings;
+  NetlistSolverSettings &
+  NetlistCardSettings;
+
+/**
+ * The rest of a library card: parameters SPICE reads that the design's device cannot carry
+ * (`SPICE_ONLY_PARAMETERS` of shared/devices/model-card.ts: TNOM, ITF, XTF, RBM, …), written into
+ * the `.model` card after the design's own so SPICE simulates the whole card. Names must be plain
+ * SPICE parameter names (letters, digits, `_`); anything else is refused.
+ */
+export interface NetlistCardSettings {
+  spiceOnlyParameters?: Readonly<Record<string, number>>;
+}
 
 /**
  * Solver settings written on the `.options` line. Omitted: ngspice's defaults (RELTOL = 1e-3),
@@ -98,22 +109,36 @@ function transistorModelName(element: TransistorElement): string {
 /**
  * `.model` card: with `device.model`, every parameter the card gives, by its SPICE name in the
  * list's order (a 0 for VAF, IKF, VAR or IKR stays 0, which SPICE reads as infinite); without
- * one, IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE].
+ * one, IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE]. Then the library
+ * card's SPICE-only parameters, when the netlist is given them.
  */
-function modelCard(device: Design['device'], name = SPICE_MODEL_NAME): string {
+function modelCard(device: Design['device'], extra: NetlistCardSettings, name = SPICE_MODEL_NAME): string {
   const card = hasModelCard(device) ? device.model : undefined;
   const parameters = card
     ? BJT_PARAMETER_NAMES.filter((parameter) => card[parameter] !== undefined).map((parameter) => `${parameter}=${spiceNumber(card[parameter]!)}`)
     : [`IS=${spiceNumber(nominalSaturationCurrentA(device))}`, `BF=${spiceNumber(forwardBeta(device))}`];
   const vafV = earlyVoltageOrInfinityV(device);
   if (!card && Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
-  return `.model ${name} NPN (${parameters.join(' ')})`;
+  return `.model ${name} NPN (${[...parameters, ...spiceOnlyWords(extra)].join(' ')})`;
 }
 
 /** The stage's `.model` card and one per transistor with its own BF or VAF. */
-function modelCards(design: Design, elements: readonly CircuitElement[]): string[] {
+function modelCards(design: Design, elements: readonly CircuitElement[], extra: NetlistCardSettings): string[] {
   const own = elements.filter((element): element is TransistorElement => element.kind === 'npn' && hasOwnModel(element));
-  return [modelCard(design.device), ...own.map((element) => modelCard(scaledDevice(design.device, element.betaScale, element.earlyVoltageScale), transistorModelName(element)))];
+  return [
+    modelCard(design.device, extra),
+    ...own.map((element) => modelCard(scaledDevice(design.device, element.betaScale, element.earlyVoltageScale), extra, transistorModelName(element))),
+  ];
+}
+
+const PARAMETER_NAME = /^[A-Za-z][A-Za-z0-9_]*$/;
+
+/** `NAME=value` words of the card's SPICE-only parameters. */
+function spiceOnlyWords(extra: NetlistCardSettings): string[] {
+  return Object.entries(extra.spiceOnlyParameters ?? {}).map(([name, value]) => {
+    if (!PARAMETER_NAME.test(name) || !Number.isFinite(value)) throw new RangeError(`not a SPICE model parameter: ${JSON.stringify(name)}`);
+    return `${name.toUpperCase()}=${spiceNumber(value)}`;
+  });
 }
 
 function dcSource(name: string, node: string, dcV: number, ac = ''): string {
@@ -205,7 +230,7 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
     `* --- tail element (${design.tail.topology}) ---`,
     ...tailLines,
     '* --- device model and conditions ---',
-    ...modelCards(design, circuit.elements),
+    ...modelCards(design, circuit.elements, options),
     optionsCard(options),
     `.temp ${spiceNumber(temperatureC)}`,
     '* --- analysis ---',

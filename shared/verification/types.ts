@@ -9,6 +9,7 @@
  */
 
 import type { DesignBinding } from './binding';
+import type { DifferenceCause } from './causes';
 
 /** Job kinds: the whole proposal, or SPICE Monte Carlo on one option. */
 export type VerificationKind = 'proposal' | 'monte-carlo';
@@ -73,6 +74,8 @@ export interface VerifiedFigure {
   tolerance: number;
   /** null when either side is missing (e.g. no corner below the sweep's end). */
   agrees: boolean | null;
+  /** When it does not agree: the likely cause (shared/verification/causes.ts). Absent on older results. */
+  cause?: DifferenceCause;
 }
 
 /** Figures at one operating condition (nominal, or a corner of input common mode × temperature). */
@@ -108,6 +111,12 @@ export interface OptionVerification {
   /** Count of figures outside tolerance. */
   disagreements: number;
   elapsedMs: number;
+  /**
+   * The library card simulated with the design, when its spec was filled from one and the design
+   * is still the card's device: its name and the parameters SPICE simulated that the engine does
+   * not model. Absent when no card was simulated (and on older results).
+   */
+  card?: { name: string; spiceOnlyParameters: string[] };
   /**
    * What was simulated: the design's values, spec version, engine and rule set, and their
    * fingerprint (`binding.ts`). Absent on results stored before fingerprints were recorded.

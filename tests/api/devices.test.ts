@@ -30,7 +30,7 @@ const GOOD_FILE = [
   '+ VAF = 86 BR=3.5 NF=1.005',
   '+ CJE=4.5p)',
   '',
-  '.model fh-n320 npn is=0.025p bf=320 vaf=0.12k ikf=80m',
+  '.model fh-n320 npn is=0.025p bf=320 vaf=0.12k ikf=80m itf=0.4',
 ].join('\n');
 
 const url = (id: number) => `/api/projects/${id}/devices`;
@@ -65,7 +65,7 @@ describe('POST /api/projects/:id/devices with a good file', () => {
     expect(response.status, JSON.stringify(response.body)).toBe(201);
     const [first, second] = response.body.items;
     expect(first.name).toBe('FH-N150');
-    expect(first.device).toEqual({ family: 'npn', saturationCurrentA: 1.2e-15, beta: 150, earlyVoltageV: 86 });
+    expect(first.device).toEqual({ family: 'npn', saturationCurrentA: 1.2e-15, beta: 150, earlyVoltageV: 86, model: { IS: 1.2e-15, BF: 150, VAF: 86, BR: 3.5, NF: 1.005, CJE: 4.5e-12 } });
     expect(first.parameters).toEqual({ IS: 1.2e-15, BF: 150, VAF: 86, BR: 3.5, NF: 1.005, CJE: 4.5e-12 });
     expect(first.line).toBe(2);
     expect(first.card).toBe(GOOD_FILE.split('\n').slice(1, 4).join('\n'));
@@ -79,7 +79,10 @@ describe('POST /api/projects/:id/devices with a good file', () => {
       expect(item.checksum).toBe(sha256(GOOD_FILE));
       expect(item.uploadedBy).toEqual({ id: api.users.designer.id, displayName: 'Test designer' });
     }
-    expect(first.notes.join(' ')).toMatch(/BR = 3\.5/);
+    // Every parameter of FH-N150 is the engine's; fh-n320's ITF (transit-time current corner) is SPICE's alone
+    expect(first.notes).toEqual([]);
+    expect(second.device.model).not.toHaveProperty('ITF');
+    expect(second.notes.join(' ')).toMatch(/does not model the card's ITF/);
     const after = await countRows(api.dataSource);
     expect(after.device_model - before.device_model).toBe(2);
     expect(after.audit_event - before.audit_event).toBe(2);
@@ -310,7 +313,7 @@ describe('who may upload and read', () => {
 });
 
 describe('the exported netlist of a spec filled from a library card', () => {
-  test('when the spec names the card and the design keeps its values, then the netlist keeps the engine card and carries the original card as comments', async () => {
+  test('when the spec names the card and the design keeps its values, then the netlist simulates the whole card and carries the card as written as comments', async () => {
     // Arrange: a spec whose device is FH-N150 (uploaded above) with the choice recorded
     const payload = { ...specPayload(), device: { beta: 150, earlyVoltageV: 86, saturationCurrentA: 1.2e-15 }, deviceModel: { name: 'FH-N150', checksum: sha256(GOOD_FILE) } };
     const spec = await api.createSpec(projectId, { payload });
@@ -323,9 +326,11 @@ describe('the exported netlist of a spec filled from a library card', () => {
     const lines = response.text.split('\n');
     expect(lines).toContain('*   .MODEL FH-N150 NPN (IS=1.2f BF=150 ; forward gain at 1 mA');
     expect(lines).toContain('*   + CJE=4.5p)');
-    expect(lines).toContain('.model QNPN NPN (IS=1.2e-15 BF=150 VAF=86)');
-    // No line of the original card is live: every one is behind "*"
-    expect(lines.filter((line) => /^\s*\.model/i.test(line))).toEqual(['.model QNPN NPN (IS=1.2e-15 BF=150 VAF=86)']);
+    // The spec carries IS, BF and VAF only: the card's NF, BR and CJE follow them on the one live .model card
+    const live = lines.filter((line) => /^\s*\.model/i.test(line));
+    expect(live).toHaveLength(1);
+    expect(live[0]).toMatch(/^\.model QNPN NPN \(IS=1\.2e-15 BF=150 VAF=86 NF=1\.005 BR=3\.5 CJE=4\.5(e-12|p)\)$/);
+    // No line of the card as written is live: every one is behind "*"
     expect(lines.filter((line) => /^\s*\+/.test(line))).toEqual([]);
   });
 });

@@ -14,7 +14,9 @@ import {
   cardCommentLines,
   cardDevice,
   cardNotes,
+  cardSpiceOnlyParameters,
   decodeModelFile,
+  spiceOnlyParameterMoves,
   MODEL_FILE_MAX_BYTES,
   parseModelCards,
   readModelFile,
@@ -103,8 +105,23 @@ describe('readModelFile: cards it accepts', () => {
     expect(result.ok && result.cards[0].text).toBe(['.model FH-N5 NPN ( ; the parameters follow', '+ IS=3.3f $ saturation current', '+ BF=180 // forward gain', '+ VAF=90 )'].join('\n'));
   });
 
-  test('when the parameters keep their order, then the card device takes IS, BF and VAF from them', () => {
-    expect(cardDevice({ IS: 1.2e-15, BF: 150, VAF: 86, NF: 1 })).toEqual({ family: 'npn', saturationCurrentA: 1.2e-15, beta: 150, earlyVoltageV: 86 });
+  test('when the parameters keep their order, then the card device takes IS, BF and VAF from them, and its model every Gummel-Poon parameter', () => {
+    // The model's names are the contract's list (ENGINE-CONTRACT "The full bipolar model"); ITF is ngspice's and not among them.
+    expect(cardDevice({ IS: 1.2e-15, BF: 150, VAF: 86, NF: 1, CJE: 18e-12, RB: 25, ITF: 0.3 })).toEqual({
+      family: 'npn',
+      saturationCurrentA: 1.2e-15,
+      beta: 150,
+      earlyVoltageV: 86,
+      model: { IS: 1.2e-15, BF: 150, VAF: 86, NF: 1, CJE: 18e-12, RB: 25 },
+    });
+  });
+
+  test("when a card uses ngspice's other names (PE, ME, PC, MC, CCS, PS, MS, IK, VB), then they are read as VJE, MJE, VJC, MJC, CJS, VJS, MJS, IKF, VAR", () => {
+    // Aliases as ngspice's BJT model table lists them (src/spicelib/devices/bjt/bjt.c, BJTmPTable).
+    const result = parseModelCards('.model FH-A1 NPN (IS=5f BF=120 VAF=70 PE=0.7 ME=0.35 PC=0.6 MC=0.4 CCS=2p PS=0.55 MS=0.3 IK=50m VB=12)');
+    expect(result.ok && result.cards[0].parameters).toEqual({
+      IS: 5e-15, BF: 120, VAF: 70, VJE: 0.7, MJE: 0.35, VJC: 0.6, MJC: 0.4, CJS: 2e-12, VJS: 0.55, MJS: 0.3, IKF: 0.05, VAR: 12,
+    });
   });
 });
 
@@ -230,16 +247,37 @@ describe('decodeModelFile: text by content, not by name', () => {
 });
 
 describe('what a card means to the engine', () => {
-  test('when the card has parameters the engine does not model, BR ≠ 1 and TNOM ≠ 27, then the notes say so', () => {
-    const notes = cardNotes({ IS: 1e-15, BF: 100, VAF: 50, BR: 4, TNOM: 25, NF: 1.01 });
+  test('when the card has parameters SPICE reads and the engine does not model, TNOM ≠ 27 and a name SPICE does not know, then the notes list each', () => {
+    const notes = cardNotes({ IS: 1e-15, BF: 100, VAF: 50, BR: 4, TNOM: 25, NF: 1.01, ITF: 0.2, XTF: 3, FOO: 1 });
     expect(notes).toHaveLength(3);
-    expect(notes[0]).toMatch(/3 other parameters \(BR, TNOM, NF\)/);
-    expect(notes[1]).toMatch(/BR = 4.*BR = 1/);
-    expect(notes[2]).toMatch(/TNOM = 25 °C/);
+    expect(notes[0]).toMatch(/does not model the card's TNOM, ITF, XTF; they are written into every netlist and simulated in the SPICE check/);
+    expect(notes[1]).toMatch(/TNOM = 25 °C/);
+    expect(notes[2]).toMatch(/^FOO is not a parameter of SPICE's bipolar model/);
   });
 
-  test('when the card has IS, BF and VAF only, then there is nothing to note', () => {
-    expect(cardNotes({ IS: 1e-15, BF: 100, VAF: 50 })).toEqual([]);
+  test('when every parameter of the card is a Gummel-Poon parameter the engine models, then there is nothing to note', () => {
+    expect(cardNotes({ IS: 1e-15, BF: 100, VAF: 50, BR: 4, NF: 1.01, CJE: 18e-12, CJC: 6e-12, CJS: 1e-12, RB: 25, TF: 0.4e-9 })).toEqual([]);
+  });
+
+  test("when a Gummel-Poon parameter lies outside the spec schema's device.model bounds, then the card is refused naming it and its line", () => {
+    // MJE is a grading exponent: a junction's is between 1/3 (graded) and 1/2 (abrupt); 5 is a slip, as is a negative RB.
+    const result = parseModelCards(['.model FH-B1 NPN (IS=5f BF=120 VAF=70', '+ MJE=5 RB=-10)'].join('\n'));
+    expect(result.ok).toBe(false);
+    const problems = result.ok ? [] : result.problems;
+    expect(problems).toEqual([
+      { line: 2, message: expect.stringMatching(/^FH-B1: RB=-10 is outside what a spec's device model accepts/) },
+      { line: 2, message: expect.stringMatching(/^FH-B1: MJE=5 is outside/) },
+    ]);
+  });
+
+  test('when a SPICE-only parameter changes only the charges, then it moves figures at a frequency and not the operating point', () => {
+    // ngspice bjtload.c: XTF, VTF, ITF shape the transit time (charge only); TNOM and IBE enter the currents.
+    expect(spiceOnlyParameterMoves('XTF', 'ac')).toBe(true);
+    expect(spiceOnlyParameterMoves('XTF', 'dc')).toBe(false);
+    expect(spiceOnlyParameterMoves('TNOM', 'dc')).toBe(true);
+    expect(spiceOnlyParameterMoves('VBE_MAX', 'ac')).toBe(false);
+    expect(spiceOnlyParameterMoves('CJE', 'ac')).toBe(false);
+    expect(cardSpiceOnlyParameters({ IS: 1e-15, BF: 100, VAF: 50, TNOM: 25, CJE: 1e-12, FOO: 1, ITF: 0.2 })).toEqual({ TNOM: 25, ITF: 0.2 });
   });
 
   test('when the card is written into a netlist, then every line of it is a comment', () => {

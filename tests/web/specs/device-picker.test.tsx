@@ -22,7 +22,7 @@ const card = (id: number, name: string, beta: number, saturationCurrentA: number
   id,
   projectId: 1,
   name,
-  device: { family: 'npn', beta, saturationCurrentA, earlyVoltageV },
+  device: { family: 'npn', beta, saturationCurrentA, earlyVoltageV, model: { IS: saturationCurrentA, BF: beta, VAF: earlyVoltageV } },
   parameters: { IS: saturationCurrentA, BF: beta, VAF: earlyVoltageV },
   notes: [],
   card: `.model ${name} NPN (IS=${saturationCurrentA} BF=${beta} VAF=${earlyVoltageV})`,

@@ -65,8 +65,8 @@ export function DeviceLibrary({ projectId, canUpload }: { projectId: number; can
   return (
     <Sheet title="Device library" aria-label="Device library" actions={control} className="mb-6">
       <p className="mb-3 text-xs leading-snug text-ink-soft dark:text-night-ink-soft">
-        NPN transistor models from SPICE .model cards. A spec can take a card’s IS, BF and VAF; the engine models nothing else of the card (BR = 1), so its figures are
-        estimates to confirm by simulation and bench measurement. A library holds up to {DEVICE_LIBRARY_QUOTA.cards} cards; a replaced or removed card stays readable for
+        NPN transistor models from SPICE .model cards. A spec filled from a card takes its whole Gummel-Poon model; parameters the engine does not model are listed under
+        the card and still simulated in the SPICE check. The figures are estimates to confirm by simulation and bench measurement. A library holds up to {DEVICE_LIBRARY_QUOTA.cards} cards; a replaced or removed card stays readable for
         the specs filled from it.
       </p>
       {error && <UploadProblems error={error} className="mb-3" />}

@@ -1,4 +1,6 @@
 import { useMemo, useState } from 'react';
+import { useQuery } from '@tanstack/react-query';
+import { recordedDeviceQuery } from '../../../lib/device-library';
 import type { TopologyId } from '#shared/engine/types';
 import { AfterFirstPaint } from '../../../components/ui/deferred';
 import { EmptyState } from '../../../components/ui/feedback';
@@ -33,6 +35,7 @@ export function RankingView({ proposal, detailAfterFirstPaint = false }: { propo
   const option = result.options.find((o) => o.topology === selected) ?? null;
   const resistors = proposal.specVersion.payload?.resistors;
   const explanation = useMemo(() => rankingExplanation(result), [result]);
+  const card = useRecordedCard(proposal);
   return (
     <div className="space-y-4">
       <CautionsBlock cautions={result.cautions} />
@@ -81,9 +84,25 @@ export function RankingView({ proposal, detailAfterFirstPaint = false }: { propo
       )}
       {option && (
         <AfterFirstPaint skip={!detailAfterFirstPaint}>
-          <OptionDetail option={option} recommended={option.topology === result.recommended} series={resistors?.series ?? null} tolerancePercent={resistors?.tolerancePercent ?? null} />
+          <OptionDetail
+            option={option}
+            recommended={option.topology === result.recommended}
+            series={resistors?.series ?? null}
+            tolerancePercent={resistors?.tolerancePercent ?? null}
+            card={card}
+          />
         </AfterFirstPaint>
       )}
     </div>
   );
+}
+
+/** The library card the spec was filled from, with what the engine leaves out of it (null when the spec names none or it is not found). */
+function useRecordedCard(proposal: Proposal): { name: string; notes: string[] } | null {
+  const reference = (proposal.specVersion.payload as { deviceModel?: { name?: unknown; checksum?: unknown } } | null)?.deviceModel;
+  const name = typeof reference?.name === 'string' ? reference.name : '';
+  const checksum = typeof reference?.checksum === 'string' ? reference.checksum : '';
+  const query = useQuery({ ...recordedDeviceQuery(proposal.projectId, name, checksum), enabled: name !== '' && checksum !== '' });
+  const recorded = query.data?.recorded;
+  return recorded ? { name: recorded.name, notes: recorded.notes } : null;
 }

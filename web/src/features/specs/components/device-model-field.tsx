@@ -1,6 +1,6 @@
 /**
  * The spec form's `deviceModel` field: a choice of the project's device-library cards (a page
- * of them, found by part of a name) that fills the transistor model (IS, BF, VAF) and records
+ * of them, found by part of a name) that fills the transistor model (IS, BF, VAF and `device.model`) and records
  * the card in the spec; the recorded card in words, with its state when it has since been
  * replaced by a new text or removed from the library (its text as recorded, on demand). The
  * form applies the choice (lib/device-choice.ts).
@@ -112,11 +112,12 @@ export function DeviceModelField({ fieldPathId, formData, onChange, readonly, di
         ) : chosen ? (
           <>
             <p className={NOTE}>
-              IS, BF and VAF below come from card {chosen.name} of {chosen.fileName} (sha256 {chosen.checksum.slice(0, 12)}…); changing one of them drops the link to the card.
+              IS, BF, VAF and the full model below come from card {chosen.name} of {chosen.fileName} (sha256 {chosen.checksum.slice(0, 12)}…); changing IS, BF or VAF drops the link to the card
+              and its model.
             </p>
             {chosen.notes.length > 0 && (
               <details className={NOTE}>
-                <summary className="cursor-pointer">What the estimates leave out of this card</summary>
+                <summary className="cursor-pointer">What the engine leaves out of this card (SPICE simulates it)</summary>
                 {chosen.notes.map((note) => (
                   <p key={note} className="mt-1">
                     <span aria-hidden="true">! </span>
@@ -134,7 +135,7 @@ export function DeviceModelField({ fieldPathId, formData, onChange, readonly, di
         ) : !library.loading && library.total === 0 && filter === '' ? (
           <p className={NOTE}>This project’s device library is empty; .model cards are uploaded on the project page.</p>
         ) : (
-          <p className={NOTE}>Choosing a card fills IS, BF and VAF and records the card with the spec.</p>
+          <p className={NOTE}>Choosing a card fills IS, BF, VAF and the card’s full transistor model, and records the card with the spec.</p>
         )}
         {more && !library.loading && (
           <p className={NOTE}>

@@ -15,7 +15,7 @@ import { ErrorPanel, Loading } from '../../../components/ui/feedback';
 import { ApiError } from '../../../lib/api';
 import { specSchemaQuery } from '../api/spec-queries';
 import { useDeviceLibrary } from '../hooks/use-device-library';
-import { refOf, withDeviceChoice, type DeviceChoiceContext } from '../lib/device-choice';
+import { refOf, withDeviceChoice, withoutEmptyCard, type DeviceChoiceContext } from '../lib/device-choice';
 import { errorCount, withoutEditedFieldErrors } from '../lib/edited-errors';
 import type { SchemaNode } from '../lib/schema-nodes';
 import { serverErrorsToErrorSchema } from '../lib/server-errors';
@@ -24,6 +24,7 @@ import { SPEC_UI_SCHEMA, withQuantityWidgets } from '../lib/spec-ui-schema';
 import { specValidator } from '../lib/spec-validator';
 import { stableJson } from '../lib/stable-json';
 import { DeviceModelField } from './device-model-field';
+import { CardModelField } from './card-model-field';
 
 export type SpecDraft = Record<string, unknown>;
 
@@ -42,8 +43,8 @@ export interface SpecFormProps {
   projectId?: number;
 }
 
-/** Fields of our own: the device-library picker (`deviceModel`). */
-const SPEC_FIELDS: RegistryFieldsType = { deviceModel: DeviceModelField };
+/** Fields of our own: the device-library picker (`deviceModel`) and the card's model it fills (`device.model`, read-only). */
+const SPEC_FIELDS: RegistryFieldsType = { deviceModel: DeviceModelField, cardModel: CardModelField };
 
 export function SpecForm(props: SpecFormProps) {
   const schemaQuery = useQuery(specSchemaQuery());
@@ -154,7 +155,7 @@ function SpecFormBody({
     setProblem(null);
     setServerErrors({});
     try {
-      await onSave(event.formData ?? {});
+      await onSave(withoutEmptyCard(event.formData ?? {}));
     } catch (error) {
       if (error instanceof ApiError && error.details.length > 0) {
         const errors = serverErrorsToErrorSchema(error.details, schema as SchemaNode);

@@ -1,8 +1,9 @@
 /**
  * The spec form's device picker as data: which library card a spec's `deviceModel` names, and
  * what a change of the form means for it. Choosing a card fills `device` with the card's IS, BF
- * and VAF (the rest of `device` is kept); editing one of those three afterwards drops
- * `deviceModel`, since the card no longer describes the values.
+ * and VAF and its `model` (every Gummel-Poon parameter of the card; the rest of `device` is
+ * kept); editing one of IS, BF or VAF afterwards drops `deviceModel` and `model`, since the card
+ * no longer describes the values.
  */
 import type { LibraryDevice, RecordedDeviceModel } from '../../../lib/device-library';
 
@@ -58,7 +59,8 @@ export const refFor = (device: LibraryDevice): DeviceModelRef => ({ name: device
 
 /**
  * The form's next data after a change from `previous` to `next`: a newly chosen card fills the
- * device fields; a change of IS, BF or VAF under a kept choice drops the choice.
+ * device fields and the model; a change of IS, BF or VAF under a kept choice drops the choice and
+ * the card's model (the values typed in are then the device).
  */
 export function withDeviceChoice(previous: Draft, next: Draft, library: readonly LibraryDevice[] | undefined): Draft {
   const chosen = refOf(next.deviceModel);
@@ -68,6 +70,7 @@ export function withDeviceChoice(previous: Draft, next: Draft, library: readonly
     if (!card) return next;
     const device = { ...((next.device as Draft | undefined) ?? {}) };
     for (const field of CARD_FIELDS) device[field] = card.device[field];
+    device.model = { ...card.device.model };
     return { ...next, device };
   }
   if (chosen && sameRef(chosen, before)) {
@@ -75,8 +78,32 @@ export function withDeviceChoice(previous: Draft, next: Draft, library: readonly
     const now = (next.device as Draft | undefined) ?? {};
     if (CARD_FIELDS.some((field) => was[field] !== now[field])) {
       const { deviceModel: _dropped, ...rest } = next;
-      return rest;
+      const { model: _card, ...device } = now;
+      return { ...rest, device };
     }
   }
   return next;
+}
+
+/** An object with no value in it (rjsf may leave keys holding `undefined`). */
+const isEmptyRecord = (value: unknown) => value !== null && typeof value === 'object' && !Array.isArray(value) && Object.values(value).every((v) => v === undefined);
+
+/**
+ * The draft without an empty `deviceModel` or `device.model`: rjsf hands those back as `{}` for
+ * object fields nobody filled, and an empty one is no record of a card (`deviceModel` would miss
+ * its name) and no card (an empty `model` would make the typed device a card of SPICE's
+ * defaults). What the form checks and saves goes through this.
+ */
+export function withoutEmptyCard<T extends Draft>(draft: T): T {
+  let out: Draft = draft;
+  if (isEmptyRecord(out.deviceModel)) {
+    const { deviceModel: _empty, ...rest } = out;
+    out = rest;
+  }
+  const device = out.device as Draft | undefined;
+  if (device && isEmptyRecord(device.model)) {
+    const { model: _empty, ...rest } = device;
+    out = { ...out, device: rest };
+  }
+  return out as T;
 }

@@ -7,6 +7,7 @@ import type { FormValidation, RJSFValidationError } from '@rjsf/utils';
 import type { Spec as SpecDocument } from '#shared/engine/types';
 import { specCrossFieldIssues } from '#shared/validation/cross-field-rules';
 import { pointerSegments } from './schema-nodes';
+import { withoutEmptyCard } from './device-choice';
 
 /** rjsf's field id ("root_supply_negativeV") as a property path; the spec's names have no "_". */
 export function pathFromFieldId(id: string): string[] {
@@ -36,7 +37,7 @@ export function specChecks(unreadable: ReadonlyMap<string, string>) {
   return (formData: Record<string, unknown> | undefined, errors: FormValidation): FormValidation => {
     for (const [id, message] of unreadable) addErrorAt(errors, pathFromFieldId(id), message);
     if (formData && crossFieldReady(formData)) {
-      for (const issue of specCrossFieldIssues(formData as unknown as SpecDocument)) addErrorAt(errors, pointerSegments(issue.path), issue.message);
+      for (const issue of specCrossFieldIssues(withoutEmptyCard(formData) as unknown as SpecDocument)) addErrorAt(errors, pointerSegments(issue.path), issue.message);
     }
     return errors;
   };

@@ -44,6 +44,7 @@ export const SPEC_UI_SCHEMA: UiSchema = {
   device: {
     family: { 'ui:widget': 'fixed', 'ui:options': { display: 'NPN bipolar' } },
     saturationCurrentA: { 'ui:placeholder': 'from VBE at 1 mA' },
+    model: { 'ui:field': 'cardModel' },
   },
   gain: { output: { 'ui:widget': 'radio', 'ui:enumNames': ENUM_WORDS.output, 'ui:options': { wide: true } } },
   resistors: { series: { 'ui:widget': 'radio' } },

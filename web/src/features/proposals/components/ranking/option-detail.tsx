@@ -22,7 +22,20 @@ function Part({ title, children }: { title: string; children: ReactNode }) {
 }
 
 /** Everything about the selected option: values, schematic, checks, plots, corners, notes. */
-export function OptionDetail({ option, recommended, series, tolerancePercent }: { option: RecommendOption; recommended: boolean; series: ResistorSeries | null; tolerancePercent: number | null }) {
+export function OptionDetail({
+  option,
+  recommended,
+  series,
+  tolerancePercent,
+  card = null,
+}: {
+  option: RecommendOption;
+  recommended: boolean;
+  series: ResistorSeries | null;
+  tolerancePercent: number | null;
+  /** The library card the spec was filled from, and what the engine leaves out of it. */
+  card?: { name: string; notes: string[] } | null;
+}) {
   const name = topologyName(option.topology);
   const short = blockingShortCount(option);
   return (
@@ -58,7 +71,7 @@ export function OptionDetail({ option, recommended, series, tolerancePercent }: 
         </Part>
       )}
       <Part title="Notes">
-        <OptionNotes option={option} />
+        <OptionNotes option={option} card={card} />
       </Part>
     </section>
   );

@@ -1,7 +1,10 @@
 import type { RecommendOption } from '#shared/engine/recommend';
 
-/** How the engine sized the option, and what it warns about (solver errors included). */
-export function OptionNotes({ option }: { option: RecommendOption }) {
+/**
+ * How the engine sized the option, and what it warns about (solver errors included); when the
+ * spec was filled from a library card, what the engine leaves out of that card (SPICE simulates it).
+ */
+export function OptionNotes({ option, card = null }: { option: RecommendOption; card?: { name: string; notes: string[] } | null }) {
   const warnings = [...(option.error ? [`Not solved: ${option.error}`] : []), ...(option.predicted?.warnings ?? [])];
   return (
     <div className="grid gap-6 md:grid-cols-2">
@@ -38,6 +41,22 @@ export function OptionNotes({ option }: { option: RecommendOption }) {
           </ul>
         )}
       </section>
+      {card && (
+        <section aria-labelledby="card-notes-title" className="md:col-span-2" data-card-notes>
+          <h3 id="card-notes-title" className="mb-1 text-sm font-medium">
+            Device card {card.name}
+          </h3>
+          {card.notes.length === 0 ? (
+            <p className="text-sm text-ink-soft dark:text-night-ink-soft">The engine models every parameter of the card; SPICE simulates the same card.</p>
+          ) : (
+            <ul className="space-y-1 text-sm">
+              {card.notes.map((note) => (
+                <li key={note}>{note}</li>
+              ))}
+            </ul>
+          )}
+        </section>
+      )}
     </div>
   );
 }

@@ -10,6 +10,7 @@ import type { DesignVerificationState } from '#shared/verification/types';
 import { currentDesignName, currentDesignWord } from '#shared/workflow/current-design';
 import { proposalCurrentDesign, resultFreshness, type ShownDesign } from '../../lib/current-design';
 import { formatDateTime } from '../../../../lib/dates';
+import { DifferenceCauses } from '../verification/difference-causes';
 
 const isProposalResult = (result: VerificationJobView['result']): result is ProposalVerificationResult => result !== null && 'options' in result;
 const isMonteCarloResult = (result: VerificationJobView['result']): result is MonteCarloVerificationResult => result !== null && 'histogram' in result;
@@ -144,6 +145,9 @@ function OptionBlock({ option, rank, freshness }: { option: OptionVerification; 
         <>
           {option.nominal && <FiguresTable condition={option.nominal} caption={`${option.nominal.label}: engine prediction beside ngspice`} />}
           <CornerLines corners={option.corners} />
+          <div className="mt-2">
+            <DifferenceCauses option={option} compact />
+          </div>
         </>
       )}
     </div>

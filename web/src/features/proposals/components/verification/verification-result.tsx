@@ -10,6 +10,7 @@ import { rejectionComparisonPlot } from '../../lib/verification-plots';
 import { When } from '../audit/when';
 import { PlotFigure } from '../../../../components/charts/plot-figure';
 import { FiguresTable, VerifiedCornersTable } from './figures-table';
+import { DifferenceCauses } from './difference-causes';
 import { RejectionComparisonChart } from './plots/lazy-verification-charts';
 import { FreshnessLabel } from './freshness-label';
 import { proposalCurrentDesign, resultFreshness, type ShownDesign } from '../../lib/current-design';
@@ -179,6 +180,7 @@ function OptionVerificationDetail({ option, proposal, freshness }: { option: Opt
               <VerifiedCornersTable corners={option.corners} />
             </section>
           )}
+          <DifferenceCauses option={option} />
           <RejectionComparison option={option} name={name} proposal={proposal} />
         </>
       )}
