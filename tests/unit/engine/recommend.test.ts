@@ -322,15 +322,16 @@ describe('scenario-specific outcomes', () => {
   /** The spec whose swing no option reaches within the compression limit (see the test below). */
   const SWING_COMPRESSED = 'QT-3 thermocouple, single rail';
 
-  test('QT-3 has no recommendation: at its 3 Vpp single-ended swing every option is compressed beyond 4 % at the peak, as the tanh law says', async () => {
+  test('QT-3: at its 3 Vpp single-ended swing every option is compressed beyond 4 % at the peak, as the tanh law says, and the advisory check says so', async () => {
     // 35 V/V single-ended from an undegenerated pair: Ase = Itail·RC/(4VT), so the fully switched swing of one
     // collector, Itail·RC/2 = 70·VT ≈ 1.8 V, puts the 1.5 V peak at x ≈ 0.83 of it: 1 − x/atanh(x) ≈ 30 % [GM];
     // the sizing's slight degeneration and the finite tail lower it a little.
+    // advisory until the sizing can add degeneration for linearity: the option is not refused for it
     const result = await resultOf(SWING_COMPRESSED);
-    expect(result.recommended).toBeNull();
     for (const option of result.options) {
       const check = option.checks.find((c) => c.rule === 'output-swing-compression')!;
       expect(check.passed, option.topology).toBe(false);
+      expect(check.severity, option.topology).toBe('advisory');
       expect(option.figures!.swingCompressionPercent, option.topology).toBeGreaterThan(15);
     }
   });
