@@ -239,3 +239,16 @@ describe('the collector resistor and pair degeneration', () => {
     },
   );
 });
+
+test('the gain\'s drop exactly equal to 1.25 × the peak swing per collector is enough: no pair degeneration', () => {
+  // gain 20 differential: 20·VT across each RC; a swing of 4·20·VT/1.25 V peak-to-peak needs exactly that
+  const spec = specWith({ tailCurrentA: 1e-3, gain: { target: 20, output: 'differential' }, outputSwingVpp: (4 * 20 * VT_27) / 1.25 });
+  expect(1.25 * swingPeakPerCollectorV(spec)).toBe(20 * VT_27); // the case sits on the boundary in floating point too
+  const { steps, design } = size(spec, 'resistor');
+  expect(steps.map((s) => s.step)).toEqual(['tail-current-fixed', 'resistor-tail', 'collector']);
+  expect(design.pairEmitterResistanceOhm).toBe(0);
+});
+
+test('a topology outside the catalogue is refused by name', () => {
+  expect(() => size(specWith({ tailCurrentA: 1e-3 }), 'zener-diode' as TopologyId)).toThrow('No case for the tail topology "zener-diode"');
+});
