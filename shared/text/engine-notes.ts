@@ -58,12 +58,12 @@ export function conditionLabel(inputCommonModeV: number, temperatureC: number): 
   return `ICM ${signedFigure(inputCommonModeV, 'V')}, ${signedFigure(temperatureC, '°C')}`;
 }
 
-/** One sentence on how a value was chosen. */
 /** " = 10.2 kΩ": a hand formula's value, where it is a resistance at all (the rails may leave it none). */
 function hand(valueOhm: number): string {
   return valueOhm > 0 ? ` = ${ohms(valueOhm)}` : '';
 }
 
+/** One sentence on how a value was chosen. */
 export function sizingNote(s: SizingStep): string {
   switch (s.step) {
     case 'designer-values':
