@@ -10,7 +10,16 @@
 import { describe, expect, test } from 'vitest';
 import { analyze } from '#shared/engine/index';
 import { evaluateOption } from '#shared/engine/option-evaluation';
-import { monteCarloDraws } from '#shared/engine/mismatch';
+import { solveCircuit } from '#shared/engine/analyze';
+import {
+  mismatchSensitivity,
+  mismatchStages,
+  monteCarloDraws,
+  resistorToleranceFraction,
+  screeningSensitivity,
+  screeningStages,
+  worstCaseMismatchCmrrDb,
+} from '#shared/engine/mismatch';
 import type { AnalyzeResult, Design, Spec, TailDesign } from '#shared/engine/types';
 import { validateSpec } from '#shared/validate';
 
@@ -276,6 +285,30 @@ describe('differential output: mismatch worst case and Monte Carlo', () => {
     // the curve's differential worst case at every frequency (a real number for a differential output)
     expect(curves.cmrrVsFrequency.every((p) => Number.isFinite(p.differentialWorstCaseDb))).toBe(true);
   });
+
+  test.each([
+    ['simple mirror', MIRROR],
+    ['degenerated mirror', { topology: 'degenerated-mirror', referenceResistanceOhm: 21500, emitterResistanceOhm: 1000 } as TailDesign],
+  ])(
+    '%s: the corner with the lowest first-order worst case governs and gets the second-order figure; the others keep the first-order one (DEVELOPERS.md, "Differential output")',
+    (_, tail) => {
+      const spec = differential();
+      const design = designFor(spec, tail);
+      const { corners, facts } = evaluateOption(spec, design);
+      const tolerance = resistorToleranceFraction(spec);
+      const sigmaV = spec.device.vbeMismatchSigmaV;
+      const f = spec.cmrr.atFrequencyHz;
+      const screened = corners.map((c) => screeningStages(solveCircuit({ ...design, inputCommonModeV: c.inputCommonModeV, temperatureC: c.temperatureC })));
+      const firstOrder = screened.map((stages) => worstCaseMismatchCmrrDb(screeningSensitivity(stages, f), tolerance, sigmaV));
+      const governing = firstOrder.indexOf(Math.min(...firstOrder));
+      // neither the first corner nor the last: the choice is a real one
+      expect(governing).toBeGreaterThan(0);
+      expect(governing).toBeLessThan(3);
+      const secondOrder = worstCaseMismatchCmrrDb(mismatchSensitivity(mismatchStages(screened[governing]), f), tolerance, sigmaV);
+      corners.forEach((c, i) => expect(c.cmrrDifferentialWorstCaseDb, c.label).toBeCloseTo(i === governing ? secondOrder : firstOrder[i], 9));
+      expect(facts.cmrrDifferentialWorstCaseDb).toBeCloseTo(secondOrder, 9);
+    },
+  );
 
   test('a single-ended output has no Monte Carlo, no mismatch figures and no differential curve', () => {
     const spec = specWith();
