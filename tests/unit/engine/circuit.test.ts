@@ -67,6 +67,8 @@ describe('starting guess', () => {
     expect(circuit.initialGuessV.c1).toBeCloseTo(12 - (iTail / 2) * 8200, 9);
     expect(circuit.initialGuessV.c2).toBe(circuit.initialGuessV.c1);
     expect(circuit.initialGuessV.ref).toBeCloseTo(-12 + 0.7, 12);
+    // a guess for every free node and no other: without degeneration there are no e1, e2
+    expect(Object.keys(circuit.initialGuessV).sort()).toEqual(['c1', 'c2', 'ref', 't']);
   });
 
   test('a VBE of 0.65 V when the caller gives none', () => {
