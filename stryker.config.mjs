@@ -14,9 +14,9 @@ export default {
   mutate: isFile ? [target] : [`${target}/**/*.ts`, `!${target}/**/*.d.ts`],
   coverageAnalysis: 'perTest',
   concurrency: 2,
-  // 10 s over each test's own time: a mutant that hangs a Newton loop (the LU solver, the
-  // operating point) is then scored a timeout after 10 s instead of 30 s; a run of linear-solve.ts
-  // met about one timeout in eight mutants, and no engine test comes near 10 s on its own.
+  // Stryker waits 1.5 × the covering tests' own time plus this: a mutant that hangs a Newton loop
+  // (the LU solver, the operating point) is scored a timeout 10 s late instead of 30 s (a run of
+  // linear-solve.ts met about one timeout in eight mutants).
   timeoutMS: 10000,
   incremental: true,
   incrementalFile: `${out}/incremental.json`,
