@@ -8,7 +8,7 @@
 import { describe, expect, test } from 'vitest';
 import { analyze } from '#shared/engine/index';
 import { nominalCondition } from '#shared/engine/conditions';
-import { designAt, outputGain, sizeTopology, swingPeakPerCollectorV, targetTailCurrentA, type SizingStep } from '#shared/engine/sizing';
+import { designAt, outputGain, sizeTopology, SizingError, swingPeakPerCollectorV, targetTailCurrentA, type SizingStep } from '#shared/engine/sizing';
 import type { AnalyzeResult, Spec, TopologyId } from '#shared/engine/types';
 import { E_SERIES } from '#shared/units/e-series';
 import { validateSpec } from '#shared/validate';
@@ -87,6 +87,33 @@ describe('tail current from the power budget: 80 % across the rail span, shared 
   test('a budget that allows exactly 2 mA is not capped (60 mW across 24 V: 0.8 × 60 mW / 24 V = 2 mA)', () => {
     const step = targetTailCurrentA(specWith({ powerBudgetW: 0.06 }), 'resistor');
     expect(step).toMatchObject({ currentA: 2e-3, capped: false });
+  });
+
+  test('a budget leaving less than 100 nA (the smallest tail current a spec may fix) refuses the option and says why', () => {
+    // ±15 V, 100 nW: 0.8 × 100 nW / 30 V = 2.67 nA for a resistor tail, half that beside a mirror's reference branch
+    const spec = specWith({ supply: { positiveV: 15, negativeV: -15 }, powerBudgetW: 1e-7 });
+    const refusal = (topology: TopologyId) => {
+      try {
+        targetTailCurrentA(spec, topology);
+      } catch (error) {
+        return error;
+      }
+      throw new Error('not refused');
+    };
+    const resistor = refusal('resistor') as Error;
+    expect(resistor).toBeInstanceOf(SizingError);
+    expect(resistor.name).toBe('SizingError');
+    expect(resistor.message).toBe(
+      'cannot be sized: 80 % of the 100 nW power budget across 30 V leaves 2.67 nA of tail current, below the 100 nA the sizing works at (the smallest tail current a spec may fix); raise the power budget',
+    );
+    expect((refusal('wilson') as Error).message).toBe(
+      'cannot be sized: 80 % of the 100 nW power budget across 30 V, shared with a reference branch of 1× the tail current, leaves 1.33 nA of tail current, below the 100 nA the sizing works at (the smallest tail current a spec may fix); raise the power budget',
+    );
+  });
+
+  test('a budget leaving exactly 100 nA is sized (1 µW across 8 V: 0.8 × 1 µW / 8 V = 100 nA)', () => {
+    const spec = specWith({ supply: { positiveV: 4, negativeV: -4 }, powerBudgetW: 1e-6, inputCommonMode: { minV: 0, maxV: 0 } });
+    expect(targetTailCurrentA(spec, 'resistor')).toMatchObject({ step: 'tail-current-from-budget', currentA: 1e-7, capped: false });
   });
 
   test('a tail current fixed by the spec is taken as it is, whatever the budget', () => {
@@ -251,4 +278,27 @@ test('the gain\'s drop exactly equal to 1.25 × the peak swing per collector is 
 
 test('a topology outside the catalogue is refused by name', () => {
   expect(() => size(specWith({ tailCurrentA: 1e-3 }), 'zener-diode' as TopologyId)).toThrow('No case for the tail topology "zener-diode"');
+});
+
+describe('a gain target out of reach', () => {
+  test('the gain peaks as RC grows (the collectors near saturation): the RC closest to the target is kept, and a step says the gain peaked', () => {
+    // |Ad| = IC·RC/VT: 600 V/V at 0.5 mA per collector asks 600 × 25.9 mV ≈ 15.5 V across RC, more than the 12 V rail leaves [SS]
+    const spec = specWith({ tailCurrentA: 1e-3, gain: { target: 600, output: 'differential' }, outputSwingVpp: 1 });
+    const { steps, design } = size(spec, 'simple-mirror');
+    const collector = stepOf(steps, 'collector');
+    const short = stepOf(steps, 'collector-short');
+    expect(short.limit).toBe('gain-peak');
+    expect(short.targetGain).toBe(600);
+    expect(short.reachedGain).toBeLessThan(600);
+    expect(short.resistanceOhm).toBe(collector.exactOhm);
+    // the kept RC gives the gain the step reports, and a larger RC gives less: the gain has peaked
+    const gainAt = (rOhm: number) => outputGain(spec, analyze({ ...design, collectorResistanceOhm: rOhm }));
+    expect(relative(gainAt(collector.exactOhm), short.reachedGain)).toBeLessThan(1e-6);
+    expect(gainAt(collector.exactOhm * 1.3)).toBeLessThan(short.reachedGain);
+    expect(collector.resistanceOhm).toBe(nearestOnSeries(collector.exactOhm, 'E192'));
+  });
+
+  test('a target in reach has no such step', () => {
+    expect(size(specWith({ tailCurrentA: 1e-3, gain: { target: 100, output: 'differential' } }), 'simple-mirror').steps.some((s) => s.step === 'collector-short')).toBe(false);
+  });
 });
