@@ -24,6 +24,8 @@ test('the sources in the order the domain notes list them, each cited as they ci
 test('author and title are the citation\'s own parts', () => {
   for (const source of ENGINE_SOURCES) {
     expect(source.citation, source.key).toContain(source.author === 'ngspice' ? 'ngspice' : source.author);
+    // every source the notes list names its edition or part, and the citation carries it
+    expect(source.edition.length, source.key).toBeGreaterThan(0);
     expect(DOMAIN_NOTES[source.key], source.key).toContain(source.edition);
   }
   expect(engineSource('GM')).toMatchObject({ author: 'Gray, Hurst, Lewis, Meyer', title: 'Analysis and Design of Analog Integrated Circuits', edition: 'ch. 3-4' });
