@@ -14,7 +14,10 @@ export default {
   mutate: isFile ? [target] : [`${target}/**/*.ts`, `!${target}/**/*.d.ts`],
   coverageAnalysis: 'perTest',
   concurrency: 2,
-  timeoutMS: 30000,
+  // Stryker waits 1.5 × the covering tests' own time plus this: a mutant that hangs a Newton loop
+  // (the LU solver, the operating point) is scored a timeout 10 s late instead of 30 s (a run of
+  // linear-solve.ts met about one timeout in eight mutants).
+  timeoutMS: 10000,
   incremental: true,
   incrementalFile: `${out}/incremental.json`,
   reporters: ['clear-text', 'progress', 'html', 'json'],

@@ -4,13 +4,7 @@
  */
 export function firstNonFinitePath(value: unknown, path = ''): string | null {
   if (typeof value === 'number') return Number.isFinite(value) ? null : path || '/';
-  if (Array.isArray(value)) {
-    for (let i = 0; i < value.length; i += 1) {
-      const found = firstNonFinitePath(value[i], `${path}/${i}`);
-      if (found) return found;
-    }
-    return null;
-  }
+  // an array's entries are its indices in order, so arrays and objects take one path
   if (value && typeof value === 'object') {
     for (const [key, child] of Object.entries(value)) {
       const found = firstNonFinitePath(child, `${path}/${key}`);

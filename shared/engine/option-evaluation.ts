@@ -119,6 +119,7 @@ function gainRemedy(cause: 'temperature' | 'input common mode', resistorTail: bo
 }
 
 function frequencyGrid(): number[] {
+  // Stryker disable next-line ArithmeticOperator: equivalent while the curve starts at 1 Hz (stop × 1 = stop ÷ 1)
   const decades = Math.log10(CURVE_STOP_HZ / CURVE_START_HZ);
   return Array.from({ length: decades * CURVE_POINTS_PER_DECADE + 1 }, (_, i) => CURVE_START_HZ * 10 ** (i / CURVE_POINTS_PER_DECADE));
 }
@@ -194,8 +195,11 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const gainCause = gainSpreadCause(cornerFigures, worstGain.label);
 
   const swingPeakV = swingPeakPerCollectorV(spec);
+  // Stryker disable next-line MethodExpression: equivalent, at either temperature the tail's compliance margin is least at the lowest input (the tail node, VICM − VBE, sits lowest there), so the least of all four corners is a low corner's
   const lowCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.minV);
+  // Stryker disable next-line MethodExpression: equivalent, at either temperature the pair's saturation margin is least at the highest input (its emitters sit highest there), so the least of all four corners is a high corner's
   const highCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.maxV);
+  // Stryker disable next-line MethodExpression: equivalent, the design is evaluated matched (designAt carries no mismatch), so both collectors sit at one voltage
   const upRoomV = spec.supply.positiveV - Math.max(predicted.collectorVoltageV, predicted.collector2VoltageV);
   const swingMarginV = Math.min(upRoomV - swingPeakV, predicted.pairSaturationMarginV - swingPeakV);
   // the swing's peak on the output the spec names, against the pair's large-signal transfer at nominal

@@ -150,6 +150,7 @@ export async function recommend(spec: Spec, ruleSet: RuleSet): Promise<Recommend
   const rankable = evaluated.map((o) => ({
     ...o,
     tailImpedanceAtFrequencyOhm: o.figures?.tailImpedanceAtFrequencyOhm ?? 0,
+    // Stryker disable next-line LogicalOperator,UnaryOperator: equivalent, only an option that could not be solved has no rejection, and it never passes, so the policy never compares this value
     rejectionDb: o.rejectionDb ?? -Infinity,
   }));
   const ranked = rankOptions(rankable);

@@ -56,7 +56,9 @@ export const REFERENCE_RATIO: Record<TopologyId, number> = {
 
 /**
  * How one value was chosen, as figures (SI, names carry the unit); the sentences are written at
- * the edge (shared/text/engine-notes.ts).
+ * the edge (shared/text/engine-notes.ts). `handOhm`: the hand formula's value the refinement
+ * against exact solves started from, so a reader sees how far base currents and the Early effect
+ * moved it.
  */
 export type SizingStep =
   | { step: 'designer-values' }
@@ -73,14 +75,14 @@ export type SizingStep =
       /** Reference-branch current per ampere of tail current (0: no reference branch). */
       referenceRatio: number;
     }
-  | { step: 'resistor-tail'; resistanceOhm: number; series: ResistorSeries }
-  | { step: 'mirror-reference'; stackedVbe: 1 | 2; resistanceOhm: number; series: ResistorSeries }
+  | { step: 'resistor-tail'; handOhm: number; resistanceOhm: number; series: ResistorSeries }
+  | { step: 'mirror-reference'; stackedVbe: 1 | 2; handOhm: number; resistanceOhm: number; series: ResistorSeries }
   | { step: 'degeneration-emitters'; dropV: number; resistanceOhm: number }
-  | { step: 'degenerated-reference'; resistanceOhm: number; series: ResistorSeries }
-  | { step: 'widlar-reference'; referenceRatio: number; resistanceOhm: number }
-  | { step: 'widlar-emitter'; resistanceOhm: number; series: ResistorSeries }
+  | { step: 'degenerated-reference'; handOhm: number; resistanceOhm: number; series: ResistorSeries }
+  | { step: 'widlar-reference'; referenceRatio: number; handOhm: number; resistanceOhm: number }
+  | { step: 'widlar-emitter'; handOhm: number; resistanceOhm: number; series: ResistorSeries }
   | { step: 'pair-degeneration'; gainDropV: number; neededDropV: number; swingDropFactor: number; resistanceOhm: number; series: ResistorSeries }
-  | { step: 'collector'; formula: 'degenerated' | 'differential' | 'single-ended'; exactOhm: number; resistanceOhm: number; series: ResistorSeries }
+  | { step: 'collector'; formula: 'degenerated' | 'differential' | 'single-ended'; handOhm: number; exactOhm: number; resistanceOhm: number; series: ResistorSeries }
   | {
       step: 'collector-short';
       /** Why the gain target is out of reach: RC at the largest value accepted, or the gain peaked (the pair nears saturation) as RC grew. */
@@ -217,7 +219,7 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
     case 'resistor': {
       const start = (nominal.inputCommonModeV - vbeV - vn) / tailA;
       const r = snap(tuneResistance((x) => withTail({ topology, resistanceOhm: x }), start, tailCurrent, tailA, -1));
-      steps.push({ step: 'resistor-tail', resistanceOhm: r, series });
+      steps.push({ step: 'resistor-tail', handOhm: start, resistanceOhm: r, series });
       return { topology, resistanceOhm: r };
     }
     case 'simple-mirror':
@@ -226,7 +228,7 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
       const stackedVbe = topology === 'simple-mirror' ? 1 : 2;
       const start = (vp - vn - stackedVbe * vbeV) / tailA;
       const r = snap(tuneResistance((x) => withTail({ topology, referenceResistanceOhm: x }), start, tailCurrent, tailA, -1));
-      steps.push({ step: 'mirror-reference', stackedVbe, resistanceOhm: r, series });
+      steps.push({ step: 'mirror-reference', stackedVbe, handOhm: start, resistanceOhm: r, series });
       return { topology, referenceResistanceOhm: r };
     }
     case 'degenerated-mirror': {
@@ -234,15 +236,17 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
       const re = snap(dropV / tailA);
       const start = (vp - vn - vbeV - dropV) / tailA;
       const r = snap(tuneResistance((x) => withTail({ topology, referenceResistanceOhm: x, emitterResistanceOhm: re }), start, tailCurrent, tailA, -1));
-      steps.push({ step: 'degeneration-emitters', dropV, resistanceOhm: re }, { step: 'degenerated-reference', resistanceOhm: r, series });
+      steps.push({ step: 'degeneration-emitters', dropV, resistanceOhm: re }, { step: 'degenerated-reference', handOhm: start, resistanceOhm: r, series });
       return { topology, referenceResistanceOhm: r, emitterResistanceOhm: re };
     }
     case 'widlar': {
       const refA = WIDLAR_REFERENCE_RATIO * tailA;
-      const rref = snap((vp - vn - vbeV) / refA);
+      // Q3 carries the reference current, so its VBE is VT·ln(Iref/IS), VT·ln(ratio) above the output's
+      const rrefHand = (vp - vn - model.thermalVoltageV * Math.log(refA / model.saturationCurrentA)) / refA;
+      const rref = snap(rrefHand);
       const start = (model.thermalVoltageV * Math.log(WIDLAR_REFERENCE_RATIO)) / tailA;
       const re = snap(tuneResistance((x) => withTail({ topology, referenceResistanceOhm: rref, emitterResistanceOhm: x }), start, tailCurrent, tailA, -1));
-      steps.push({ step: 'widlar-reference', referenceRatio: WIDLAR_REFERENCE_RATIO, resistanceOhm: rref }, { step: 'widlar-emitter', resistanceOhm: re, series });
+      steps.push({ step: 'widlar-reference', referenceRatio: WIDLAR_REFERENCE_RATIO, handOhm: rrefHand, resistanceOhm: rref }, { step: 'widlar-emitter', handOhm: start, resistanceOhm: re, series });
       return { topology, referenceResistanceOhm: rref, emitterResistanceOhm: re };
     }
     default:
@@ -295,7 +299,7 @@ export function sizeTopology(spec: Spec, topology: TopologyId, nominal: Conditio
   const tuned = tuneResistance((x) => designAt(spec, nominal, withRc(x)), pair.collectorResistanceOhm, (r) => outputGain(spec, r), spec.gain.target, 1);
   const rc = snapWithin(tuned.rOhm, spec.resistors.series);
   const formula = pair.pairEmitterResistanceOhm > 0 ? 'degenerated' : spec.gain.output;
-  steps.push({ step: 'collector', formula, exactOhm: tuned.rOhm, resistanceOhm: rc, series: spec.resistors.series });
+  steps.push({ step: 'collector', formula, handOhm: pair.collectorResistanceOhm, exactOhm: tuned.rOhm, resistanceOhm: rc, series: spec.resistors.series });
   if (!tuned.reached) {
     steps.push({ step: 'collector-short', limit: tuned.limit ?? 'gain-peak', targetGain: spec.gain.target, reachedGain: tuned.value, resistanceOhm: tuned.rOhm });
   }

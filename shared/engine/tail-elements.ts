@@ -36,6 +36,7 @@ function npn(name: string, collector: string, base: string, emitter: string): Ci
 
 /** Output current of a Widlar source from I·RE = VT·ln(Iref/I), by fixed-point iteration. */
 function widlarGuessA(referenceA: number, emitterOhm: number): number {
+  // Stryker disable next-line MethodExpression,ArithmeticOperator: equivalent, the iteration below reaches the same current from any start in (0, Iref] when Iref/Iout > e (each step divides the error by ln(Iref/Iout)); the sizing's ratio is 5, and the result is only the solver's guess
   let currentA = Math.min(referenceA, GUESS_VT_V / Math.max(emitterOhm, 1e-9));
   for (let i = 0; i < 30; i += 1) {
     currentA = (GUESS_VT_V * Math.log(referenceA / Math.max(currentA, 1e-15))) / emitterOhm;

@@ -169,7 +169,7 @@ export type TailDesign = { [K in TopologyId]: TailOf<K> }[TopologyId];
 
 /** Whether a string is a topology id. */
 export function isTopologyId(value: unknown): value is TopologyId {
-  return typeof value === 'string' && (TOPOLOGIES as readonly string[]).includes(value);
+  return (TOPOLOGIES as readonly unknown[]).includes(value);
 }
 
 /** A topology's design fields in order (each resistor field once). */

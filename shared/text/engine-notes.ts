@@ -60,6 +60,11 @@ export function conditionLabel(inputCommonModeV: number, temperatureC: number): 
   return `ICM ${signedFigure(inputCommonModeV, 'V')}, ${signedFigure(temperatureC, '°C')}`;
 }
 
+/** " = 10.2 kΩ": a hand formula's value, where it is a resistance at all (the rails may leave it none). */
+function hand(valueOhm: number): string {
+  return valueOhm > 0 ? ` = ${ohms(valueOhm)}` : '';
+}
+
 /** One sentence on how a value was chosen. */
 export function sizingNote(s: SizingStep): string {
   switch (s.step) {
@@ -73,21 +78,21 @@ export function sizingNote(s: SizingStep): string {
       return `Tail current ${amps(s.currentA)}: ${why}${split}.`;
     }
     case 'resistor-tail':
-      return `RT ≈ (VICM − VBE − V−)/Itail at the mid input common mode, refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+      return `RT ≈ (VICM − VBE − V−)/Itail${hand(s.handOhm)} at the mid input common mode, refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
     case 'mirror-reference':
-      return `RREF ≈ (V+ − V− − ${s.stackedVbe === 1 ? 'VBE' : '2·VBE'})/Itail, refined by solving the stage (base currents, Early effect), snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+      return `RREF ≈ (V+ − V− − ${s.stackedVbe === 1 ? 'VBE' : '2·VBE'})/Itail${hand(s.handOhm)}, refined by solving the stage (base currents, Early effect), snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
     case 'degeneration-emitters':
       return `RE for about ${volts(s.dropV)} across each emitter resistor (half the room above compliance at the lowest input common mode, kept within 0.1–1 V), snapped to ${ohms(s.resistanceOhm)}.`;
     case 'degenerated-reference':
-      return `RREF ≈ (V+ − V− − VBE − Itail·RE)/Itail, refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+      return `RREF ≈ (V+ − V− − VBE − Itail·RE)/Itail${hand(s.handOhm)}, refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
     case 'widlar-reference':
-      return `RREF for a reference current of ${s.referenceRatio}× the tail current, (V+ − V− − VBE)/Iref, snapped to ${ohms(s.resistanceOhm)}.`;
+      return `RREF for a reference current of ${s.referenceRatio}× the tail current, (V+ − V− − VBE)/Iref${hand(s.handOhm)}, snapped to ${ohms(s.resistanceOhm)}.`;
     case 'widlar-emitter':
-      return `RE from Iout·RE = VT·ln(Iref/Iout), refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+      return `RE from Iout·RE = VT·ln(Iref/Iout)${hand(s.handOhm)}, refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
     case 'pair-degeneration':
       return `The gain alone would drop only ${volts(s.gainDropV)} across RC, less than the ${volts(s.neededDropV)} the output swing needs (${s.swingDropFactor}× its peak per collector): pair emitter degeneration RE ≈ RC/|A| − 1/gm, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
     case 'collector':
-      return `RC ≈ ${COLLECTOR_FORMULAS[s.formula]}, refined by solving the stage with the sized tail to ${ohms(s.exactOhm)}, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+      return `RC ≈ ${COLLECTOR_FORMULAS[s.formula]}${hand(s.handOhm)}, refined by solving the stage with the sized tail to ${ohms(s.exactOhm)}, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
     case 'collector-short': {
       const [why, remedy] =
         s.limit === 'largest-resistance'

@@ -28,9 +28,14 @@ describe('sizing notes', () => {
     expect(note).toBe('Tail current 2 mA: capped at 2 mA.');
   });
 
-  test('when RC is sized for a single-ended output, then the note names 2·|Ase|·VT/IC and both values in ohms', () => {
-    const note = sizingNote({ step: 'collector', formula: 'single-ended', exactOhm: 8312, resistanceOhm: 8250, series: 'E96' });
-    expect(note).toBe('RC ≈ 2·|Ase|·VT/IC, refined by solving the stage with the sized tail to 8.31 kΩ, snapped to 8.25 kΩ (E96).');
+  test('when RC is sized for a single-ended output, then the note names 2·|Ase|·VT/IC and its three values in ohms', () => {
+    const note = sizingNote({ step: 'collector', formula: 'single-ended', handOhm: 8040, exactOhm: 8312, resistanceOhm: 8250, series: 'E96' });
+    expect(note).toBe('RC ≈ 2·|Ase|·VT/IC = 8.04 kΩ, refined by solving the stage with the sized tail to 8.31 kΩ, snapped to 8.25 kΩ (E96).');
+  });
+
+  test('when the rails leave a hand formula no positive resistance, then the note gives the formula without a value', () => {
+    const note = sizingNote({ step: 'resistor-tail', handOhm: -350, resistanceOhm: 1, series: 'E24' });
+    expect(note).toBe('RT ≈ (VICM − VBE − V−)/Itail at the mid input common mode, refined by solving the stage, snapped to 1 Ω (E24).');
   });
 });
 

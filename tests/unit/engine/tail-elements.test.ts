@@ -1,0 +1,130 @@
+/**
+ * The circuit stamp of each tail (shared/engine/tail-elements.ts): the connections the contract's
+ * table gives each topology (ENGINE-CONTRACT.md, "Tail elements": from the tail node `t` to the
+ * negative rail), and the solver's starting guesses, which are the hand analysis of
+ * docs/device-and-formulas.md: a diode-connected transistor's base one VBE above its emitter,
+ * Iref = (V+ − V− − n·VBE)/RREF, and the Widlar source's Iout·RE = VT·ln(Iref/Iout) [GM].
+ */
+import { describe, expect, test } from 'vitest';
+import type { CircuitElement } from '#shared/engine/circuit';
+import { tailElements, type TailGuessContext } from '#shared/engine/tail-elements';
+import type { TailDesign } from '#shared/engine/types';
+
+const CTX: TailGuessContext = { positiveV: 15, negativeV: -9, tailNodeGuessV: 0.35, vbeGuessV: 0.6 };
+/** The room temperature VT the guesses use, about kT/q at 27 °C [SI]. */
+const GUESS_VT = 0.0259;
+
+/** Each element as a line "name kind nodes value" (transistors: C B E). */
+function stamp(tail: TailDesign, ctx = CTX): string[] {
+  return tailElements(tail, ctx).elements.map((e: CircuitElement) => {
+    expect(e.part).toBe('tail');
+    if (e.kind === 'npn') {
+      expect(e.area).toBe(1);
+      return `${e.name} npn ${e.collector} ${e.base} ${e.emitter}`;
+    }
+    if (e.kind === 'resistor') return `${e.name} R ${e.nodes.join(' ')} ${e.resistanceOhm}`;
+    return `${e.name} C ${e.nodes.join(' ')} ${e.capacitanceF}`;
+  });
+}
+
+describe('connections, as the contract\'s table gives them', () => {
+  test('resistor: RT from t to the negative rail', () => {
+    expect(stamp({ topology: 'resistor', resistanceOhm: 9100 })).toEqual(['RT R t vn 9100']);
+  });
+
+  test('simple mirror: Q3 diode-connected fed through RREF, Q4 sharing its base with its collector at t, both emitters at V−', () => {
+    expect(stamp({ topology: 'simple-mirror', referenceResistanceOhm: 22000 }).sort()).toEqual(['Q3 npn ref ref vn', 'Q4 npn t ref vn', 'RREF R vp ref 22000']);
+  });
+
+  test('degenerated mirror: as the simple mirror, with an equal RE from each emitter to V−', () => {
+    expect(stamp({ topology: 'degenerated-mirror', referenceResistanceOhm: 20000, emitterResistanceOhm: 1000 }).sort()).toEqual([
+      'Q3 npn ref ref e3',
+      'Q4 npn t ref e4',
+      'RE3 R e3 vn 1000',
+      'RE4 R e4 vn 1000',
+      'RREF R vp ref 20000',
+    ]);
+  });
+
+  test('Widlar: as the simple mirror, with RE under Q4 only', () => {
+    expect(stamp({ topology: 'widlar', referenceResistanceOhm: 4700, emitterResistanceOhm: 82 }).sort()).toEqual([
+      'Q3 npn ref ref vn',
+      'Q4 npn t ref e4',
+      'RE4 R e4 vn 82',
+      'RREF R vp ref 4700',
+    ]);
+  });
+
+  test('Wilson: Q3 fed through RREF with its base at x; Q5 from t to x, base at Q3\'s collector; Q4 diode-connected at x', () => {
+    expect(stamp({ topology: 'wilson', referenceResistanceOhm: 22000 }).sort()).toEqual(['Q3 npn ref x vn', 'Q4 npn x x vn', 'Q5 npn t ref x', 'RREF R vp ref 22000']);
+  });
+
+  test('cascode: Q3/Q4 mirror at the bottom, Q5 diode-connected on Q3 fed through RREF, Q6 on Q4 with its base at Q5\'s, collector at t', () => {
+    expect(stamp({ topology: 'cascode', referenceResistanceOhm: 22000 }).sort()).toEqual([
+      'Q3 npn m3 m3 vn',
+      'Q4 npn m4 m3 vn',
+      'Q5 npn ref ref m3',
+      'Q6 npn t ref m4',
+      'RREF R vp ref 22000',
+    ]);
+  });
+});
+
+describe('starting guesses from hand analysis', () => {
+  const span = CTX.positiveV - CTX.negativeV;
+  const vbe = CTX.vbeGuessV;
+  const vn = CTX.negativeV;
+
+  test('resistor: the current the tail node\'s guess drives through RT; none when the guess sits below the rail', () => {
+    const guess = tailElements({ topology: 'resistor', resistanceOhm: 9400 }, CTX);
+    expect(guess.currentGuessA).toBeCloseTo((0.35 + 9) / 9400, 15);
+    expect(guess.initialGuessV).toEqual({});
+    expect(tailElements({ topology: 'resistor', resistanceOhm: 9400 }, { ...CTX, tailNodeGuessV: -9.5 }).currentGuessA).toBe(0);
+  });
+
+  test('simple mirror: Iref = (V+ − V− − VBE)/RREF, the shared base one VBE above V−', () => {
+    const guess = tailElements({ topology: 'simple-mirror', referenceResistanceOhm: 23400 }, CTX);
+    expect(guess.currentGuessA).toBeCloseTo((span - vbe) / 23400, 15);
+    expect(guess.initialGuessV).toEqual({ ref: expect.closeTo(vn + vbe, 12) });
+  });
+
+  test('degenerated mirror: Iref = (V+ − V− − VBE)/(RREF + RE); the emitters Iref·RE above V−, the base a VBE above them', () => {
+    const guess = tailElements({ topology: 'degenerated-mirror', referenceResistanceOhm: 20000, emitterResistanceOhm: 1000 }, CTX);
+    const iref = (span - vbe) / 21000;
+    expect(guess.currentGuessA).toBeCloseTo(iref, 15);
+    expect(guess.initialGuessV).toEqual({ ref: expect.closeTo(vn + iref * 1000 + vbe, 12), e3: expect.closeTo(vn + iref * 1000, 12), e4: expect.closeTo(vn + iref * 1000, 12) });
+  });
+
+  test('Widlar: the output current solves Iout·RE = VT·ln(Iref/Iout); RE\'s top sits Iout·RE above V−', () => {
+    const guess = tailElements({ topology: 'widlar', referenceResistanceOhm: 4680, emitterResistanceOhm: 150 }, CTX);
+    const iref = (span - vbe) / 4680;
+    const out = guess.currentGuessA;
+    expect(out).toBeGreaterThan(iref / 100);
+    expect(out).toBeLessThan(iref);
+    expect(out * 150).toBeCloseTo(GUESS_VT * Math.log(iref / out), 9);
+    expect(guess.initialGuessV).toEqual({ ref: expect.closeTo(vn + vbe, 12), e4: expect.closeTo(vn + out * 150, 12) });
+  });
+
+  test('Widlar with a huge RE: the output current stays at 10⁻⁴ of the reference current, its least', () => {
+    const guess = tailElements({ topology: 'widlar', referenceResistanceOhm: 4680, emitterResistanceOhm: 1e9 }, CTX);
+    expect(guess.currentGuessA).toBeCloseTo(((span - vbe) / 4680) * 1e-4, 18);
+  });
+
+  test.each(['wilson', 'cascode'] as const)('%s: Iref = (V+ − V− − 2·VBE)/RREF, two VBE stacked in the reference path', (topology) => {
+    const guess = tailElements({ topology, referenceResistanceOhm: 22800 }, CTX);
+    expect(guess.currentGuessA).toBeCloseTo((span - 2 * vbe) / 22800, 15);
+    const expected = topology === 'wilson' ? { ref: vn + 2 * vbe, x: vn + vbe } : { ref: vn + 2 * vbe, m3: vn + vbe, m4: vn + vbe };
+    expect(guess.initialGuessV).toEqual(Object.fromEntries(Object.entries(expected).map(([k, v]) => [k, expect.closeTo(v, 12)])));
+  });
+
+  test.each([
+    ['simple-mirror', { topology: 'simple-mirror', referenceResistanceOhm: 1000 }],
+    ['degenerated-mirror', { topology: 'degenerated-mirror', referenceResistanceOhm: 1000, emitterResistanceOhm: 100 }],
+    ['widlar', { topology: 'widlar', referenceResistanceOhm: 1000, emitterResistanceOhm: 100 }],
+    ['wilson', { topology: 'wilson', referenceResistanceOhm: 1000 }],
+    ['cascode', { topology: 'cascode', referenceResistanceOhm: 1000 }],
+  ] as const)('%s: rails closer than the VBEs guess no reference current rather than a negative one', (_, tail) => {
+    const guess = tailElements(tail as TailDesign, { positiveV: 0.5, negativeV: 0, tailNodeGuessV: 0, vbeGuessV: 0.6 });
+    expect(guess.currentGuessA).toBe(0);
+  });
+});
