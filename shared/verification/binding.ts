@@ -38,9 +38,13 @@ export function canonicalJson(value: unknown): string {
   return `{${entries.map(([k, v]) => `${JSON.stringify(k)}:${canonicalJson(v)}`).join(',')}}`;
 }
 
-/** The design with the schema's defaults written out, so "left out" and "0" fingerprint alike. */
+/**
+ * The design with the schema's defaults written out, so "left out" and "0" fingerprint alike.
+ * Fields added later (version 2 of the contract) are instead left out when at their defaults, so a
+ * design without them fingerprints as it did before they existed (stored results stay current).
+ */
 export function normalizedDesign(design: Design): Design {
-  return {
+  const normalized: Design = {
     ...design,
     collectorMismatch: design.collectorMismatch ?? 0,
     pairEmitterResistanceOhm: design.pairEmitterResistanceOhm ?? 0,
@@ -49,6 +53,15 @@ export function normalizedDesign(design: Design): Design {
     temperatureC: design.temperatureC ?? 27,
     tailCapacitanceF: design.tailCapacitanceF ?? 0,
   };
+  for (const field of ['loadCapacitanceF', 'sourceResistanceOhm', 'pairBetaMismatch', 'pairEarlyVoltageMismatch'] as const) {
+    if (normalized[field] === 0) delete normalized[field];
+  }
+  if (normalized.frequenciesHz?.length === 0) delete normalized.frequenciesHz;
+  if (normalized.device.model && Object.values(normalized.device.model).every((v) => v === undefined)) {
+    const { model: _empty, ...device } = normalized.device;
+    normalized.device = device;
+  }
+  return normalized;
 }
 
 export function bindingInputs(input: { topology: string; design: Design; specVersionId: number; specVersion: number; engineVersion: string; rulesetVersion: string }): BindingInputs {
@@ -85,6 +98,7 @@ function leaves(value: unknown, prefix = ''): Map<string, unknown> {
 
 function valueText(path: string, value: unknown): string {
   if (value === undefined || value === null) return 'none';
+  if (Array.isArray(value)) return value.length === 0 ? 'none' : value.join(', ');
   const unit = VALUE_NAMES[path]?.[1];
   if (typeof value === 'number') return unit === '°C' ? `${value} °C` : unit !== undefined ? formatQuantity(value, unit) : String(value);
   return String(value);
@@ -104,7 +118,7 @@ export function bindingChanges(simulated: BindingInputs, current: BindingInputs,
     for (const path of new Set([...before.keys(), ...after.keys()])) {
       const a = before.get(path);
       const b = after.get(path);
-      if (a === b) continue;
+      if (a === b || (Array.isArray(a) && Array.isArray(b) && canonicalJson(a) === canonicalJson(b))) continue;
       const name = VALUE_NAMES[path]?.[0] ?? path;
       changes.push(`simulated ${name} ${valueText(path, a)}, ${currentWord} ${valueText(path, b)}`);
     }

@@ -55,7 +55,7 @@ describe('PUT /api/projects/:id/devices/:deviceId replaces a card', () => {
     const { item, replaced } = response.body;
     expect(item.name).toBe('FH-K200');
     expect(item.state).toBe('library');
-    expect(item.device).toEqual({ family: 'npn', saturationCurrentA: 4.4e-15, beta: 185, earlyVoltageV: 95 });
+    expect(item.device).toEqual({ family: 'npn', saturationCurrentA: 4.4e-15, beta: 185, earlyVoltageV: 95, model: { IS: 4.4e-15, BF: 185, VAF: 95, BR: 2 } });
     expect(item.checksum).toBe(sha256(REPLACEMENT_FILE));
     expect(replaced.id).toBe(k200.id);
     expect(replaced.state).toBe('replaced');

@@ -62,6 +62,15 @@ describe('binding a result to what it simulated', () => {
     expect(fingerprint(designBinding(inputs(design(2260))).inputs)).toMatch(/^[0-9a-f]{64}$/);
   });
 
+  test('when the fields of the full model are at their defaults (no frequencies, no source resistance, no card), then the fingerprint is the one from before they existed', () => {
+    // the SHA-256 of the canonical inputs of design(2260) as stored before these fields existed: computed here from that older shape
+    const before = createHash('sha256').update(canonicalJson(designBinding(inputs(design(2260))).inputs)).digest('hex');
+    const withNewDefaults: Design = { ...design(2260), loadCapacitanceF: 0, sourceResistanceOhm: 0, pairBetaMismatch: 0, pairEarlyVoltageMismatch: 0, frequenciesHz: [], device: { ...design(2260).device, model: {} } };
+    expect(designBinding(inputs(withNewDefaults)).fingerprint).toBe(before);
+    expect(bindingChanges(inputs(design(2260)), inputs(withNewDefaults))).toEqual([]);
+    expect(bindingChanges(inputs({ ...design(2260), frequenciesHz: [1000] }), inputs({ ...design(2260), frequenciesHz: [1000, 1e6] }))).toEqual(['simulated frequenciesHz 1000, decided 1000, 1000000']);
+  });
+
   test('when RC and the pair RE changed, then the changes read as a designer would say them', () => {
     expect(bindingChanges(inputs(design(10_000, 78.7)), inputs(design(12_000, 100)))).toEqual(['simulated RC 10 kΩ, decided 12 kΩ', 'simulated pair RE 78.7 Ω, decided 100 Ω']);
   });
