@@ -1,6 +1,9 @@
 /** Version of the engine's figures: bump the minor for new fields, the major when a figure changes meaning. */
-export const ENGINE_VERSION = '1.0.0';
+// 2.0.0: the full Gummel-Poon model and the devices' capacitances; transconductanceS is gm as SPICE
+// reports it (VCE held), cmrrCornerHz comes from the whole circuit, saturation from each
+// transistor's own gain loss: figures changed meaning, so every record of 1.0.0 says which engine made it.
+export const ENGINE_VERSION = '2.0.0';
 
 /** The sentence every output carries: these are estimates. */
 export const ESTIMATE_NOTICE =
-  'Figures are engineering estimates from a simplified device model (IS, BF, VAF) and closed-form sizing; confirm them by SPICE simulation and bench measurement before committing a design.';
+  'Figures are engineering estimates from the device model given (its SPICE card, or IS, BF and VAF alone) and sizing on preferred values; confirm them by SPICE simulation and bench measurement before committing a design.';
