@@ -29,6 +29,18 @@ export interface BjtEval {
   dIcDVbcS: number;
   dIbDVbeS: number;
   dIbDVbcS: number;
+  /**
+   * The transport terms behind them, which the diffusion charges are taken from [SPICE]
+   * bjtload.c: the ideal forward and reverse currents IS·(exp(v/(N·VT)) − 1) and their slopes,
+   * and the normalised base charge qb with its derivatives.
+   */
+  forwardA: number;
+  forwardS: number;
+  reverseA: number;
+  reverseS: number;
+  qb: number;
+  dqbDVbe: number;
+  dqbDVbc: number;
 }
 
 /** The ohmic resistances of one transistor of area 1, ohms (0: the terminal is the junction's node). */
@@ -179,6 +191,13 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
         dIcDVbcS: -(goS + gmuS),
         dIbDVbeS: be.gS / bf + gbenS,
         dIbDVbcS: gmuS,
+        forwardA: be.iA,
+        forwardS: be.gS,
+        reverseA: bc.iA,
+        reverseS: bc.gS,
+        qb,
+        dqbDVbe,
+        dqbDVbc,
       };
     },
   };

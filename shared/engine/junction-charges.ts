@@ -12,7 +12,8 @@
  * has no capacitance at all (CJE = CJC = CJS = TF = TR = 0 by default).
  */
 import type { BjtParameters } from './bjt-parameters';
-import { BOLTZMANN_J_PER_K, ELEMENTARY_CHARGE_C, NOMINAL_TEMPERATURE_C, ZERO_CELSIUS_K, thermalVoltageV } from './constants';
+import type { BjtEval } from './device';
+import { BOLTZMANN_J_PER_K, ELEMENTARY_CHARGE_C, NOMINAL_TEMPERATURE_C, ZERO_CELSIUS_K } from './constants';
 
 /** ngspice's reference temperature for the junction-potential law, K [SPICE] (const.h REFTEMP). */
 const REFERENCE_TEMPERATURE_K = 27 + ZERO_CELSIUS_K;
@@ -118,22 +119,17 @@ export function substrateCapacitanceF(junction: DepletionJunction, czF: number, 
   return czF * (1 + (m * vsubV) / pv);
 }
 
-/** The transport currents and base charge the diffusion capacitances are taken from (one transistor, area included). */
-export interface TransportBias {
+/**
+ * The bias the diffusion capacitances are taken from: the junction voltages, and the transport
+ * terms of the device's own evaluation there (`BjtEval`, device.ts), so the charges and the
+ * currents come from one computation.
+ */
+export type TransportBias = Pick<BjtEval, 'forwardA' | 'forwardS' | 'reverseA' | 'reverseS' | 'qb' | 'dqbDVbe' | 'dqbDVbc'> & {
   vbeV: number;
   vbcV: number;
   /** v(substrate) − v(internal collector), V. */
   vsubV: number;
-  /** Ideal forward and reverse transport currents IS·(exp(v/(N·VT)) − 1) and their derivatives. */
-  forwardA: number;
-  forwardS: number;
-  reverseA: number;
-  reverseS: number;
-  /** Normalised base charge qb and its derivatives. */
-  qb: number;
-  dqbDVbe: number;
-  dqbDVbc: number;
-}
+};
 
 /** A transistor's small-signal capacitances at its operating point. */
 export interface TransistorCapacitances {
@@ -168,77 +164,5 @@ export function transistorCapacitances(c: ChargeParameters, bias: TransportBias,
     baseCollectorF: tr * bias.reverseS + depletionCapacitanceF(c.baseCollector, c.baseCollector.zeroBiasF * area, fc, bias.vbcV),
     collectorSubstrateF: substrateCapacitanceF(c.collectorSubstrate, c.collectorSubstrate.zeroBiasF * area, bias.vsubV),
     baseEmitterPerVbcF: perVbcF,
-  };
-}
-
-/** What the transport-current law needs at one temperature. */
-export interface TransportParameters {
-  thermalVoltageV: number;
-  /** IS at temperature (per unit area), A. */
-  saturationCurrentA: number;
-  nf: number;
-  nr: number;
-  inverseVafPerV: number;
-  inverseVarPerV: number;
-  /** 1/IKF, 1/IKR per unit area (0 when infinite), 1/A. */
-  inverseIkfPerA: number;
-  inverseIkrPerA: number;
-}
-
-/**
- * The transport law's parameters at a temperature: IS(T) = IS·exp((T/TNOM − 1)·EG/VT + XTI·ln(T/TNOM))
- * [SPICE] bjttemp.c, with the engine's VT.
- */
-export function transportParameters(p: BjtParameters, temperatureC: number): TransportParameters {
-  const vtV = thermalVoltageV(temperatureC);
-  const ratio = (temperatureC + ZERO_CELSIUS_K) / (NOMINAL_TEMPERATURE_C + ZERO_CELSIUS_K);
-  return {
-    thermalVoltageV: vtV,
-    saturationCurrentA: p.IS * Math.exp(((ratio - 1) * p.EG) / vtV + p.XTI * Math.log(ratio)),
-    nf: p.NF,
-    nr: p.NR,
-    inverseVafPerV: 1 / p.VAF,
-    inverseVarPerV: 1 / p.VAR,
-    inverseIkfPerA: 1 / p.IKF,
-    inverseIkrPerA: 1 / p.IKR,
-  };
-}
-
-/** An ideal diode current IS·(exp(v/nVT) − 1) and its slope, with SPICE's cubic continuation below −3·nVT [SPICE] bjtload.c. */
-function diode(isA: number, vV: number, nVtV: number): [number, number] {
-  if (vV >= -3 * nVtV) {
-    const e = Math.exp(vV / nVtV);
-    return [isA * (e - 1), (isA * e) / nVtV];
-  }
-  const a = (3 * nVtV) / (vV * Math.E);
-  const a3 = a * a * a;
-  return [-isA * (1 + a3), (isA * 3 * a3) / vV];
-}
-
-/** The transport currents and base charge of one transistor at its junction voltages [SPICE] bjtload.c. */
-export function transportBias(t: TransportParameters, vbeV: number, vbcV: number, vsubV: number, area: number): TransportBias {
-  const isA = t.saturationCurrentA * area;
-  const [forwardA, forwardS] = diode(isA, vbeV, t.nf * t.thermalVoltageV);
-  const [reverseA, reverseS] = diode(isA, vbcV, t.nr * t.thermalVoltageV);
-  const q1 = 1 / (1 - t.inverseVafPerV * vbcV - t.inverseVarPerV * vbeV);
-  const oik = t.inverseIkfPerA / area;
-  const oikr = t.inverseIkrPerA / area;
-  if (oik === 0 && oikr === 0) {
-    return { vbeV, vbcV, vsubV, forwardA, forwardS, reverseA, reverseS, qb: q1, dqbDVbe: q1 * q1 * t.inverseVarPerV, dqbDVbc: q1 * q1 * t.inverseVafPerV };
-  }
-  const arg = Math.max(0, 1 + 4 * (oik * forwardA + oikr * reverseA));
-  const sq = arg !== 0 ? Math.sqrt(arg) : 1;
-  const qb = (q1 * (1 + sq)) / 2;
-  return {
-    vbeV,
-    vbcV,
-    vsubV,
-    forwardA,
-    forwardS,
-    reverseA,
-    reverseS,
-    qb,
-    dqbDVbe: q1 * (qb * t.inverseVarPerV + (oik * forwardS) / sq),
-    dqbDVbc: q1 * (qb * t.inverseVafPerV + (oikr * reverseS) / sq),
   };
 }

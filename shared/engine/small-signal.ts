@@ -11,7 +11,7 @@
  */
 import { COLLECTOR_NODES, TAIL_NODE } from './circuit';
 import { solveComplex, type ComplexVector } from './complex-solve';
-import { chargeParameters, transistorCapacitances, transportBias, transportParameters } from './junction-charges';
+import { chargeParameters, transistorCapacitances } from './junction-charges';
 import type { BjtParameters } from './bjt-parameters';
 import { luFactor, luSolve, zeros } from './linear-solve';
 import {
@@ -125,14 +125,14 @@ function capacitanceStamp(op: OperatingPoint, parameters: BjtParameters | null, 
   }
   const charges = parameters ? chargeParameters(parameters, temperatureC) : null;
   if (parameters && charges && !charges.none) {
-    const transport = transportParameters(parameters, temperatureC);
     const v = op.voltagesV;
-    for (const q of ic.transistors) {
+    ic.transistors.forEach((q, k) => {
       // the junctions sit on the internal nodes (behind RB, RC, RE), the substrate at the negative rail
       const { bi: b, ci: c, ei: e, s } = q;
       const vb = nodeVoltage(ic, v, b);
       const vc = nodeVoltage(ic, v, c);
-      const bias = transportBias(transport, vb - nodeVoltage(ic, v, e), vb - vc, nodeVoltage(ic, v, s) - vc, q.area);
+      // the transport terms of the device's own evaluation at the solution (the transistor's own model when it has one)
+      const bias = { ...op.transistors[k], vbeV: vb - nodeVoltage(ic, v, e), vbcV: vb - vc, vsubV: nodeVoltage(ic, v, s) - vc };
       const caps = transistorCapacitances(charges, bias, q.area);
       if (caps.baseEmitterF !== 0) stampConductance(stamp, b, e, caps.baseEmitterF);
       if (caps.baseCollectorF !== 0) stampConductance(stamp, b, c, caps.baseCollectorF);
@@ -140,7 +140,7 @@ function capacitanceStamp(op: OperatingPoint, parameters: BjtParameters | null, 
       // d(qbe)/d(vbc): a current jω·C·vbc leaving the internal base into the internal emitter
       if (caps.baseEmitterPerVbcF !== 0) stampControlled(stamp, b, e, b, c, caps.baseEmitterPerVbcF);
       any = true;
-    }
+    });
   }
   return any ? stamp : null;
 }
