@@ -1,5 +1,6 @@
 import react from '@vitejs/plugin-react';
 import { configDefaults, defineConfig } from 'vitest/config';
+import { DEBIAN_NGSPICE_PROJECT, DEBIAN_NGSPICE_REFERENCE_FILES, debianNgspiceInstalled } from './tests/helpers/debian-ngspice-project.ts';
 
 // Two projects: everything but the browser tests, and the browser tests (tests/e2e), whose
 // globalSetup builds dist/web first. A project's globalSetup runs only when one of its files is
@@ -23,13 +24,32 @@ const postgresProjects = postgresUrl
       },
     ]
   : [];
+// A fourth, `reference-debian-ngspice`, exists only when Debian's ngspice is installed
+// (/usr/bin/ngspice; .ci/run installs it): the full-model reference files again, their ngspice
+// being that program instead of the registry's WebAssembly build (LONGTAIL_TEST_SPICE,
+// tests/helpers/spice.ts). A run that includes those files ends with one "Debian ngspice pass:
+// on/off" line (tests/helpers/debian-ngspice-pass-reporter.ts). The project's name, its files and
+// the check live in tests/helpers/debian-ngspice-project.ts.
+const debianNgspiceProjects = debianNgspiceInstalled()
+  ? [
+      {
+        extends: true,
+        test: {
+          name: DEBIAN_NGSPICE_PROJECT,
+          include: [...DEBIAN_NGSPICE_REFERENCE_FILES],
+          env: { LONGTAIL_TEST_SPICE: 'debian' },
+          globalSetup: ['tests/helpers/debian-ngspice-global-setup.ts'],
+        },
+      },
+    ]
+  : [];
 
 export default defineConfig({
   plugins: [react()],
   test: {
     environment: 'node',
     testTimeout: 60000,
-    reporters: ['default', './tests/helpers/postgres-pass-reporter.ts'],
+    reporters: ['default', './tests/helpers/postgres-pass-reporter.ts', './tests/helpers/debian-ngspice-pass-reporter.ts'],
     projects: [
       {
         extends: true,
@@ -40,6 +60,7 @@ export default defineConfig({
         test: { name: 'e2e', include: ['tests/e2e/**/*.test.ts'], globalSetup: ['tests/e2e/global-setup.ts'], testTimeout: 240_000, hookTimeout: 120_000 },
       },
       ...postgresProjects,
+      ...debianNgspiceProjects,
     ],
   },
 });

@@ -1,11 +1,17 @@
 /**
- * ngspice (eecircuit-engine, WebAssembly) as the tests' reference simulator, in process. One
- * long-lived `Simulation`, started lazily on first use (about a second) and reused; runs go through
- * a promise queue, so concurrent callers never share it mid-run. The measurements themselves are
- * the product's (`api/verification/spice-analyses.ts`), so tests and verification jobs read
- * ngspice the same way; every netlist comes from the product's writer, `spiceNetlist`.
+ * ngspice as the tests' reference simulator. Two builds can answer:
+ * - the registry's (eecircuit-engine, WebAssembly), in process: one long-lived `Simulation`,
+ *   started lazily on first use (about a second) and reused; runs go through a promise queue, so
+ *   concurrent callers never share it mid-run. The default.
+ * - Debian's (/usr/bin/ngspice, tests/helpers/debian-ngspice.ts), one batch process per run, when
+ *   the test process's LONGTAIL_TEST_SPICE is `debian`: vitest.config.ts sets it in the
+ *   `reference-debian-ngspice` project, which runs the full-model reference files again.
+ * Only "run this netlist, return its vectors" differs between them: the measurements are the
+ * product's (`api/verification/spice-analyses.ts`), so tests and verification jobs read ngspice
+ * the same way; every netlist comes from the product's writer, `spiceNetlist`.
  */
 import { Simulation, type ResultType } from 'eecircuit-engine';
+import { runDebianNgspice } from './debian-ngspice';
 import { spiceNetlist, type NetlistSolverSettings, type TransistorVector } from '#shared/engine/netlist';
 import type { Design } from '#shared/engine/types';
 import {
@@ -37,6 +43,9 @@ export {
   type SpiceTransistorBias,
 } from '../../api/verification/spice-analyses';
 
+/** Which build answers in this test process: `debian` (Debian's /usr/bin/ngspice) or `registry` (eecircuit-engine). */
+export const REFERENCE_SPICE_BUILD: 'debian' | 'registry' = process.env.LONGTAIL_TEST_SPICE === 'debian' ? 'debian' : 'registry';
+
 let simulation: Promise<Simulation> | null = null;
 let queue: Promise<unknown> = Promise.resolve();
 
@@ -51,16 +60,22 @@ function startedSimulation(): Promise<Simulation> {
   return simulation;
 }
 
-/** Starts the shared simulator (about a second the first time); later calls return at once. */
+/** Starts the shared simulator (about a second the first time; nothing to start for Debian's build); later calls return at once. */
 export async function startSpice(): Promise<void> {
-  await startedSimulation();
+  if (REFERENCE_SPICE_BUILD === 'registry') await startedSimulation();
 }
 
 /**
- * Runs one netlist (serialised with every other run) and returns ngspice's raw result. Throws
- * with ngspice's messages when the run fails or returns another plot than `expectedPlot`.
+ * Runs one netlist on this process's build (REFERENCE_SPICE_BUILD) and returns ngspice's raw
+ * result. Throws with ngspice's messages when the run fails or returns another plot than
+ * `expectedPlot`.
  */
 export function runSpice(netlist: string, expectedPlot?: string): Promise<ResultType> {
+  return REFERENCE_SPICE_BUILD === 'debian' ? runDebianNgspice(netlist, expectedPlot) : runRegistrySpice(netlist, expectedPlot);
+}
+
+/** Runs one netlist on the registry's build, serialised with every other run. */
+function runRegistrySpice(netlist: string, expectedPlot?: string): Promise<ResultType> {
   const run = queue.then(async () => {
     const sim = await startedSimulation();
     sim.setNetList(netlist);
