@@ -220,6 +220,15 @@ export function dcFigures(design: Design, op: SpiceOperatingPoint): SpiceDcFigur
 }
 
 /**
+ * A sweep whose first point is `frequencyHz`: that frequency and a decade above. Not the
+ * one-point `.ac dec 1 f f`, which ngspice-39 (Debian's build) answers with no point at all while
+ * later builds return f; every build returns both points of this one, and only the first is read.
+ */
+function readAtFirstPoint(frequencyHz: number): AcSweep {
+  return { startHz: frequencyHz, stopHz: 10 * frequencyHz, pointsPerDecade: 1 };
+}
+
+/**
  * Measures the contract's figures by simulation: one `.op`, a differential and a common-mode
  * AC run (swept 1 Hz–10 GHz when the design has a tail capacitance, for the CMRR corner), and
  * an `ac-tail` run at t's operating-point voltage for Rout = 1/|i(vtail)|.
@@ -236,17 +245,14 @@ export async function spiceFigures(run: SpiceRunner, design: Design, options: { 
   const { tailCurrentA, collectorCurrentA, referenceCurrentA, powerW } = dcFigures(design, op);
 
   const hasCapacitance = (design.tailCapacitanceF ?? 0) > 0;
-  const sweep: AcSweep = hasCapacitance
-    ? { ...CORNER_SWEEP, startHz: frequencyHz }
-    : { startHz: frequencyHz, stopHz: frequencyHz, pointsPerDecade: 1 };
+  const atFrequency = readAtFirstPoint(frequencyHz);
+  const sweep: AcSweep = hasCapacitance ? { ...CORNER_SWEEP, startHz: frequencyHz } : atFrequency;
   const differential = await spiceAc(run, design, { analysis: 'ac-differential', ...sweep });
   const commonMode = await spiceAc(run, design, { analysis: 'ac-common-mode', ...sweep });
   const tail = await spiceAc(run, design, {
     analysis: 'ac-tail',
     tailNodeV: v.t,
-    startHz: frequencyHz,
-    stopHz: frequencyHz,
-    pointsPerDecade: 1,
+    ...atFrequency,
   });
 
   // The drives are v(in1 − in2) = 1 and v_cm = 1, so node voltages are the transfers themselves.

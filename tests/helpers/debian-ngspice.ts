@@ -92,8 +92,8 @@ export function readRawFile(raw: Buffer): ResultType {
  * Runs one netlist through Debian's ngspice in batch mode, in its own temporary directory
  * (removed afterwards), and returns the result as the WebAssembly build does. Throws with
  * ngspice's messages when the process fails, writes anything to stderr (errors and warnings
- * alike, as the WebAssembly runner refuses any error line), or returns another plot than
- * `expectedPlot`.
+ * alike, as the WebAssembly runner refuses any error line), returns another plot than
+ * `expectedPlot`, or a plot without a single point.
  */
 export async function runDebianNgspice(netlist: string, expectedPlot?: string, path: string = DEBIAN_NGSPICE_PATH): Promise<ResultType> {
   const directory = await mkdtemp(join(tmpdir(), 'longtail-ngspice-'));
@@ -114,6 +114,8 @@ export async function runDebianNgspice(netlist: string, expectedPlot?: string, p
     const result = readRawFile(raw);
     const plot = /^Plotname:\s*(.*)$/m.exec(result.header)?.[1]?.trim() ?? '';
     if (result.numVariables === 0 || (expectedPlot !== undefined && plot !== expectedPlot)) fail(`plot "${plot}"`);
+    // ngspice-39 answers a one-point `.ac dec n f f` with an empty plot and no message
+    if (result.numPoints === 0) fail(`plot "${plot}" has no points`);
     return result;
   } finally {
     await rm(directory, { recursive: true, force: true });
