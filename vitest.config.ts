@@ -25,7 +25,7 @@ const postgresProjects = postgresUrl
     ]
   : [];
 // A fourth, `reference-debian-ngspice`, exists only when Debian's ngspice is installed
-// (/usr/bin/ngspice; .ci/run installs it): the full-model reference files again, their ngspice
+// (/usr/bin/ngspice; .ci/run installs it): the reference files again, their ngspice
 // being that program instead of the registry's WebAssembly build (LONGTAIL_TEST_SPICE,
 // tests/helpers/spice.ts). A run that includes those files ends with one "Debian ngspice pass:
 // on/off" line (tests/helpers/debian-ngspice-pass-reporter.ts). The project's name, its files and

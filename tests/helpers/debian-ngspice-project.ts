@@ -1,6 +1,6 @@
 /**
- * The Debian ngspice pass, as vitest.config.ts defines it: the full-model reference files run a
- * second time in their own project, their ngspice being Debian's program (/usr/bin/ngspice)
+ * The Debian ngspice pass, as vitest.config.ts defines it: the reference files run a second time
+ * in their own project, their ngspice being Debian's program (/usr/bin/ngspice)
  * instead of the registry's WebAssembly build. The project exists only where that program is
  * installed, so a machine without it shows no skipped tests; the pass's reporter
  * (debian-ngspice-pass-reporter.ts) says in one line whether it ran. Node built-ins only: the
@@ -14,15 +14,20 @@ export const DEBIAN_NGSPICE_PATH = '/usr/bin/ngspice';
 export const DEBIAN_NGSPICE_PROJECT = 'reference-debian-ngspice';
 
 /**
- * The files the pass runs again: the reference simulator's own check on closed-form circuits,
- * then `analyze` against ngspice with full model cards at DC and over frequency (every topology,
- * −40, 27 and 125 °C) and with saturated tails.
+ * The files the pass runs again, named one by one (a new reference file joins when it should
+ * hold on both builds): the reference simulator's own check on closed-form circuits; `analyze`
+ * against ngspice with full model cards at DC and over frequency up to the gain's −20 dB point
+ * (every topology, −40, 27 and 125 °C) and with saturated tails; and the three-parameter
+ * reference files (every topology over corners, gm and saturation, the smallest resistances).
  */
 export const DEBIAN_NGSPICE_REFERENCE_FILES = [
   'tests/reference/spice-runner.test.ts',
   'tests/reference/full-model-dc.test.ts',
   'tests/reference/frequency-agreement.test.ts',
   'tests/reference/saturated-tail-agreement.test.ts',
+  'tests/reference/spice-agreement.test.ts',
+  'tests/reference/saturation-and-transconductance.test.ts',
+  'tests/reference/smallest-resistances.test.ts',
 ] as const;
 
 /** Whether Debian's ngspice is installed (an executable at `path`). */

@@ -5,7 +5,8 @@
  *   concurrent callers never share it mid-run. The default.
  * - Debian's (/usr/bin/ngspice, tests/helpers/debian-ngspice.ts), one batch process per run, when
  *   the test process's LONGTAIL_TEST_SPICE is `debian`: vitest.config.ts sets it in the
- *   `reference-debian-ngspice` project, which runs the full-model reference files again.
+ *   `reference-debian-ngspice` project, which runs the reference files again
+ *   (tests/helpers/debian-ngspice-project.ts lists them).
  * Only "run this netlist, return its vectors" differs between them: the measurements are the
  * product's (`api/verification/spice-analyses.ts`), so tests and verification jobs read ngspice
  * the same way; every netlist comes from the product's writer, `spiceNetlist`.
