@@ -369,6 +369,8 @@ export function tailImpedanceOhm(solved: SolvedCircuit, frequencyHz: number): nu
   const { ic, elements } = parts;
   const n = ic.freeNodes.length;
   const tailParts = new Set<RejectionLimitPart>(['tail-resistance', 'tail-base-collector', 'tail-collector-substrate', 'tail-base-emitter', 'tail-wiring']);
+  // nothing in the tail stores charge: its impedance is its output resistance at every frequency
+  if (!elements.some((e) => tailParts.has(e.part) && e.capacitance.length > 0)) return solved.stage.tailOutputResistanceOhm;
   const m = nodeMatrix(ic, elements, 2 * Math.PI * frequencyHz, (e) => tailParts.has(e.part));
   // Nodes the tail does not touch get a unit diagonal so the system stays regular; they decouple.
   for (let k = 0; k < n; k += 1) {
