@@ -39,7 +39,9 @@ const LIMITS: RejectionLimits = {
 describe('rejectionLimitView', () => {
   test('each part named with its elements and values, its share and the rejection without it; parts under 1 % in one row', () => {
     const view = rejectionLimitView(LIMITS, '100 kHz')!;
-    expect(view.heading).toBe('At 100 kHz (ICM −6.5 V, 55 °C, the condition that governs it) the single-ended rejection is 67.3 dB.');
+    expect(view.heading).toBe('At 100 kHz and ICM −6.5 V, 55 °C (the condition that governs it) the single-ended rejection is 67.3 dB.');
+    // the largest parts until they hold 60 %
+    expect(view.lead).toBe('Mostly tail transistor CJC (Q6 1.48 pF), 49 % and tail wiring capacitance (CT 2.2 pF), 37 %.');
     expect(view.rows.map((r) => [r.name, r.elements, r.share, r.without])).toEqual([
       ['Tail transistor CJC', 'Q6 1.48 pF', '49 %', '79.1 dB (+11.8 dB)'],
       ['Tail wiring capacitance', 'CT 2.2 pF', '37 %', '74.6 dB (+7.2 dB)'],

@@ -10,6 +10,9 @@ import { formatQuantity } from '#shared/units/format-quantity';
 
 /** A part below this share (per cent) goes into the "other parts" row. */
 export const SMALL_SHARE_PERCENT = 1;
+/** The lead sentence names the largest parts until together they hold this share (per cent). */
+const LEAD_SHARE_PERCENT = 60;
+const LEAD_PARTS_AT_MOST = 3;
 
 const PART_NAMES: Record<RejectionLimitPart, string> = {
   'tail-resistance': 'Tail output resistance',
@@ -53,10 +56,14 @@ export interface RejectionLimitRow {
 export interface RejectionLimitView {
   /** One sentence: the rejection, the output, the frequency and the condition. */
   heading: string;
+  /** One sentence: the parts that set it, the largest first until they hold LEAD_SHARE_PERCENT (three at most). */
+  lead: string;
   rows: RejectionLimitRow[];
   /** Parts working against the common mode, worded. */
   offsetting: string[];
 }
+
+const lowerFirst = (text: string) => text.charAt(0).toLowerCase() + text.slice(1);
 
 function elementText(e: RejectionLimitElement): string {
   if (e.name === 'tail' && e.resistanceOhm !== undefined) return formatQuantity(e.resistanceOhm, 'Ohm');
@@ -101,7 +108,14 @@ export function rejectionLimitView(limits: RejectionLimits | null | undefined, f
     });
   }
   const output = limits.output === 'differential' ? 'differential (mismatch-limited, every mismatch at its worst case)' : 'single-ended';
-  const heading = `At ${frequencyText} (${limits.conditionLabel}, the condition that governs it) the ${output} rejection is ${formatDb(limits.rejectionDb)}.`;
+  const heading = `At ${frequencyText} and ${limits.conditionLabel} (the condition that governs it) the ${output} rejection is ${formatDb(limits.rejectionDb)}.`;
+  const leading: RejectionLimit[] = [];
+  for (const l of limits.limits) {
+    if (leading.length === LEAD_PARTS_AT_MOST || leading.reduce((s, p) => s + p.sharePercent, 0) >= LEAD_SHARE_PERCENT) break;
+    leading.push(l);
+  }
+  const named = leading.map((l) => `${lowerFirst(PART_NAMES[l.part])}${l.elements.length ? ` (${l.elements.map(elementText).join(', ')})` : ''}, ${formatPercent(l.sharePercent, { decimals: 0 })}`);
+  const lead = `${leading.length === 1 && leading[0].sharePercent >= 90 ? 'Set by' : 'Mostly'} ${named.length > 1 ? `${named.slice(0, -1).join('; ')} and ${named.at(-1)}` : named[0]}.`;
   const offsetting = limits.offsetting
     .filter((l) => -l.sharePercent >= SMALL_SHARE_PERCENT)
     .map((l) => {
@@ -109,5 +123,5 @@ export function rejectionLimitView(limits: RejectionLimits | null | undefined, f
       const without = l.rejectionWithoutDb === null ? '' : `; without it the rejection would be ${formatDb(l.rejectionWithoutDb)}`;
       return `${parts} works against the common mode (${formatPercent(l.sharePercent, { decimals: 0, sign: 'exceptZero' })})${without}.`;
     });
-  return { heading, rows, offsetting };
+  return { heading, lead, rows, offsetting };
 }

@@ -13,7 +13,9 @@ export function RejectionLimits({ option }: { option: RecommendOption }) {
   if (!view) return null;
   return (
     <div className="space-y-2 text-sm" data-rejection-limits>
-      <p>{view.heading}</p>
+      <p>
+        {view.heading} <span className="font-medium">{view.lead}</span>
+      </p>
       <table className="w-full">
         <caption className="sr-only">What limits the rejection at the spec frequency, with each part’s share</caption>
         <thead>
@@ -21,7 +23,7 @@ export function RejectionLimits({ option }: { option: RecommendOption }) {
             <th scope="col" className="pr-3 pb-1 font-medium">Part</th>
             <th scope="col" className="hidden pr-3 pb-1 font-medium sm:table-cell">At the operating point</th>
             <th scope="col" className="pr-3 pb-1 text-right font-medium">Share</th>
-            <th scope="col" className="pb-1 text-right font-medium">Without it</th>
+            <th scope="col" className="hidden pb-1 text-right font-medium sm:table-cell">Without it</th>
           </tr>
         </thead>
         <tbody>
@@ -31,6 +33,7 @@ export function RejectionLimits({ option }: { option: RecommendOption }) {
                 <span className="font-medium">{row.name}</span>
                 {row.elements && <span className="block tabular-nums sm:hidden">{row.elements}</span>}
                 <span className="block text-xs text-ink-soft dark:text-night-ink-soft">{row.note}</span>
+                {row.without && <span className="block text-xs tabular-nums sm:hidden">without it: {row.without}</span>}
               </th>
               <td className="hidden py-1.5 pr-3 tabular-nums sm:table-cell">{row.elements}</td>
               <td className="py-1.5 pr-3 text-right">
@@ -39,7 +42,7 @@ export function RejectionLimits({ option }: { option: RecommendOption }) {
                   <span className="block h-full rounded-sm bg-fern dark:bg-fern-bright" style={{ width: `${Math.max(0, Math.min(100, row.sharePercent))}%` }} />
                 </span>
               </td>
-              <td className="py-1.5 text-right text-xs whitespace-nowrap tabular-nums">{row.without || '—'}</td>
+              <td className="hidden py-1.5 text-right text-xs whitespace-nowrap tabular-nums sm:table-cell">{row.without || '—'}</td>
             </tr>
           ))}
         </tbody>
