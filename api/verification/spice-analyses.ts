@@ -8,7 +8,7 @@
  * current flowing into the source's + terminal (so a rail delivering current reads negative).
  */
 import type { ResultType } from 'eecircuit-engine';
-import { RAIL_NODES, stageCircuit, type CircuitElement, type ResistorElement, type TransistorElement } from '#shared/engine/circuit';
+import { RAIL_NODES, designStoresCharge, stageCircuit, type CircuitElement, type ResistorElement, type TransistorElement } from '#shared/engine/circuit';
 import {
   INPUT_SOURCES,
   SUPPLY_SOURCES,
@@ -230,8 +230,9 @@ function readAtFirstPoint(frequencyHz: number): AcSweep {
 
 /**
  * Measures the contract's figures by simulation: one `.op`, a differential and a common-mode
- * AC run (swept 1 Hz–10 GHz when the design has a tail capacitance, for the CMRR corner), and
- * an `ac-tail` run at t's operating-point voltage for Rout = 1/|i(vtail)|.
+ * AC run (swept 1 Hz–10 GHz, for the CMRR corner, when anything in the circuit stores charge:
+ * wiring or load capacitance, or the card's CJE, CJC, CJS, TF, TR), and an `ac-tail` run at t's operating-point voltage for
+ * Rout = 1/|i(vtail)|.
  * - tailCurrentA = IE1 + IE2 = Σ (VP − v(ck))/RCk − Σ i(vink) (KCL at the pair: collector
  *   currents from the load drops plus the base currents the input sources deliver).
  * - powerW = −(VP·i(vp) + VN·i(vn)): i(·) flows into the + terminal, so a delivering rail reads < 0.
@@ -244,7 +245,7 @@ export async function spiceFigures(run: SpiceRunner, design: Design, options: { 
   const v = op.nodeVoltagesV;
   const { tailCurrentA, collectorCurrentA, referenceCurrentA, powerW } = dcFigures(design, op);
 
-  const hasCapacitance = (design.tailCapacitanceF ?? 0) > 0;
+  const hasCapacitance = designStoresCharge(design);
   const atFrequency = readAtFirstPoint(frequencyHz);
   const sweep: AcSweep = hasCapacitance ? { ...CORNER_SWEEP, startHz: frequencyHz } : atFrequency;
   const differential = await spiceAc(run, design, { analysis: 'ac-differential', ...sweep });

@@ -29,6 +29,7 @@ import {
 } from './spice-analyses';
 import { TAIL_TEST_SOURCE, type AcSweep, type NetlistCardSettings } from '#shared/engine/netlist';
 import { singleEndedCmrrDbAt, solveStage } from '#shared/engine/analyze';
+import { designStoresCharge } from '#shared/engine/circuit';
 import { conditionLabel } from '#shared/text/engine-notes';
 import { NOMINAL_TEMPERATURE_C } from '#shared/engine/constants';
 import { formatQuantity } from '#shared/units/format-quantity';
@@ -181,7 +182,7 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
     const sweep = await acAt(run, design, { startHz: 1, stopHz, pointsPerDecade: SWEEP_POINTS_PER_DECADE }, card);
     const low = sweep.figuresAt(0);
     const singleDb = sweep.frequenciesHz.map((_, k) => sweep.figuresAt(k).cmrrSingleEndedDb);
-    const hasCapacitance = (design.tailCapacitanceF ?? 0) > 0;
+    const hasCapacitance = designStoresCharge(design);
     const simulatedCornerHz = hasCapacitance ? dropFrequencyHz(sweep.frequenciesHz, singleDb, 3) : null;
     const atSpec = await acAt(run, design, { startHz: target.frequencyHz, stopHz: target.frequencyHz, pointsPerDecade: 1 }, card);
 

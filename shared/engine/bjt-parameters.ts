@@ -111,3 +111,12 @@ export function resolvedParameters(card: BjtModelCard): BjtParameters {
   }
   return out;
 }
+
+/** The parameters that make a device store charge: junction capacitances and transit times. */
+const CHARGE_PARAMETERS = ['CJE', 'CJC', 'CJS', 'TF', 'TR'] as const satisfies readonly BjtParameterName[];
+
+/** Whether a card stores charge (a non-zero CJE, CJC, CJS, TF or TR), so its stage's figures move with frequency. */
+export function cardStoresCharge(card: BjtModelCard): boolean {
+  const p = resolvedParameters(card);
+  return CHARGE_PARAMETERS.some((name) => p[name] !== 0);
+}

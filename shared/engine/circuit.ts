@@ -5,6 +5,7 @@
  */
 import type { Design } from './types';
 import { tailElements } from './tail-elements';
+import { cardOf, cardStoresCharge } from './bjt-parameters';
 
 /** Which part of the stage an element belongs to: the pair and its loads, or the tail element. */
 export type CircuitPart = 'pair' | 'tail';
@@ -151,4 +152,13 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
     elements,
     initialGuessV,
   };
+}
+
+/**
+ * Whether anything in a design's circuit stores charge: the tail wiring or load capacitance, or
+ * the device's own capacitances (CJE, CJC, CJS, TF, TR). Only then do its gains and rejection
+ * move with frequency (and have a corner to look for).
+ */
+export function designStoresCharge(design: Design): boolean {
+  return (design.tailCapacitanceF ?? 0) > 0 || (design.loadCapacitanceF ?? 0) > 0 || cardStoresCharge(cardOf(design.device));
 }

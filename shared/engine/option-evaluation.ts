@@ -4,18 +4,25 @@
  * checks are decided on (worst corner taken, margins computed; rules only compare).
  */
 import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
-import { solveStage, singleEndedCmrrDbAt, transfersAt, type OperatingPointProblem, type StageSolution } from './analyze';
+import { solveCircuit, solveStage, singleEndedCmrrDbAt, transfersAt, type OperatingPointProblem, type SolvedCircuit, type StageSolution } from './analyze';
 import { magnitude } from './small-signal';
+import { firstNonFinitePath } from './finite';
+import { cardOf, cardStoresCharge } from './bjt-parameters';
+import { rejectionLimits, tailImpedanceOhm, type RejectionLimits } from './rejection-limits';
 import {
   mismatchSensitivity,
   mismatchStages,
   monteCarloCmrr,
   monteCarloDraws,
   mismatchSigmas,
+  mismatchedDesign,
   screeningSensitivity,
   screeningStages,
   worstCaseMismatchCmrrDb,
   worstCaseMismatchShares,
+  worstCaseMismatches,
+  type MismatchSensitivity,
+  type MismatchVector,
   type MismatchShares,
   type MonteCarloDraws,
   type MonteCarloResult,
@@ -30,8 +37,17 @@ export const HAZARDOUS_VOLTAGE_LIMIT_V = 60;
 /** Points per decade and range of the rejection-versus-frequency curve. */
 const CURVE_POINTS_PER_DECADE = 4;
 const CURVE_START_HZ = 1;
-// Stops at 10 MHz: device capacitances (CJE, CJC, TF) are not modelled, so higher figures would be fiction.
-const CURVE_STOP_HZ = 1e7;
+/**
+ * The grid runs to 1 GHz (past the transit frequency of small-signal NPNs, a few hundred MHz),
+ * and each option's curve stops at the last point where its differential gain is within
+ * CURVE_GAIN_DROP_DB of its low-frequency value: the range where the engine is held to ngspice
+ * (tests/reference/frequency-agreement.test.ts) and where a quasi-static transistor model still
+ * describes a real one.
+ */
+const CURVE_STOP_HZ = 1e9;
+const CURVE_GAIN_DROP_DB = 20;
+/** A device whose card gives no capacitance (CJE, CJC, CJS, TF, TR all 0) has its curve stop at 10 MHz: above, the figures would lack the capacitances every real transistor has. */
+const CURVE_STOP_WITHOUT_DEVICE_CHARGE_HZ = 1e7;
 
 export interface ConditionFigures {
   label: string;
@@ -81,6 +97,8 @@ export type MeasuredFacts = Omit<OptionFacts, WordedFact | 'operatingPointProble
 
 export interface OptionEvaluation {
   predicted: AnalyzeResult;
+  /** What limits the spec output's rejection at the spec frequency, at the condition that governs it (null when it cannot be told). */
+  rejectionLimits: RejectionLimits | null;
   facts: MeasuredFacts;
   corners: ConditionFigures[];
   curves: OptionCurves;
@@ -118,10 +136,50 @@ function gainRemedy(cause: 'temperature' | 'input common mode', resistorTail: bo
   return resistorTail ? 'current-source-tail' : 'higher-resistance-tail';
 }
 
+/**
+ * The mismatches at their worst-case extremes, each with the sign that makes its first-order
+ * term add to the largest one (as far as real signs can: the worst case adds them in magnitude).
+ */
+function alignedWorstCaseMismatches(sensitivity: MismatchSensitivity, sigmas: ReturnType<typeof mismatchSigmas>): MismatchVector {
+  const x = worstCaseMismatches(sigmas, sensitivity.thermalVoltageV);
+  const terms = sensitivity.linear.map((z, i) => ({ re: z.re * x[i], im: z.im * x[i] }));
+  const largest = terms.reduce((a, b) => (magnitude(b) > magnitude(a) ? b : a));
+  const sign = terms.map((z) => (z.re * largest.re + z.im * largest.im < 0 ? -1 : 1));
+  return [x[0] * sign[0], x[1] * sign[1], x[2] * sign[2], x[3] * sign[3]];
+}
+
+/**
+ * What limits the output's rejection at the spec frequency: on c1 for a single-ended output, on
+ * c1 − c2 with every mismatch at its worst-case extreme for a differential one. Null when a
+ * figure of it is not finite (it is a diagnosis: the option's checks never depend on it).
+ */
+function limitsOf(solved: SolvedCircuit, frequencyHz: number, output: Spec['gain']['output'], label: string): RejectionLimits | null {
+  try {
+    const limits = rejectionLimits(solved, frequencyHz, output, label);
+    return firstNonFinitePath(limits) === null ? limits : null;
+  } catch {
+    return null;
+  }
+}
+
 function frequencyGrid(): number[] {
   // Stryker disable next-line ArithmeticOperator: equivalent while the curve starts at 1 Hz (stop × 1 = stop ÷ 1)
   const decades = Math.log10(CURVE_STOP_HZ / CURVE_START_HZ);
   return Array.from({ length: decades * CURVE_POINTS_PER_DECADE + 1 }, (_, i) => CURVE_START_HZ * 10 ** (i / CURVE_POINTS_PER_DECADE));
+}
+
+/** The grid up to the last point where the stage's differential gain is within CURVE_GAIN_DROP_DB of its low-frequency value. */
+function curveGrid(solution: Pick<StageSolution, 'stage' | 'design'>): number[] {
+  const grid = frequencyGrid();
+  if (!cardStoresCharge(cardOf(solution.design.device))) return grid.filter((f) => f <= CURVE_STOP_WITHOUT_DEVICE_CHARGE_HZ * (1 + 1e-9));
+  if (!solution.stage.reactive) return grid;
+  const lowDb = 20 * Math.log10(magnitude(transfersAt(solution, 0).differentialGain));
+  const kept: number[] = [];
+  for (const frequencyHz of grid) {
+    if (20 * Math.log10(magnitude(transfersAt(solution, frequencyHz).differentialGain)) < lowDb - CURVE_GAIN_DROP_DB) break;
+    kept.push(frequencyHz);
+  }
+  return kept;
 }
 
 /**
@@ -160,7 +218,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     const transfers = transfersAt(solution, f);
     const commonModeGain = magnitude(transfers.commonModeGain);
     const commonModeRejectionDb = 20 * Math.log10(magnitude(transfers.differentialGain) / commonModeGain);
-    return { figures, screening, problems: solution.problems, commonModeGain, commonModeRejectionDb };
+    return { figures, solution, screening, problems: solution.problems, commonModeGain, commonModeRejectionDb };
   });
   const cornerFigures = corners.map((c) => c.figures);
   const worstCommonMode = corners.reduce((a, b) => (b.commonModeRejectionDb < a.commonModeRejectionDb ? b : a));
@@ -170,6 +228,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   let worstDifferential: number | null = null;
   let governingMismatch: ReturnType<typeof mismatchStages> | null = null;
   let shares: MismatchShares | null = null;
+  let limits: RejectionLimits | null = null;
   if (differentialOutput) {
     const worst = corners.reduce((a, b) => (b.figures.cmrrDifferentialWorstCaseDb! < a.figures.cmrrDifferentialWorstCaseDb! ? b : a));
     governingMismatch = mismatchStages(worst.screening as ScreeningStages);
@@ -179,6 +238,12 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     worst.figures.cmrrDifferentialWorstCaseDb = worstDifferential;
     const shared = draws ?? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
     monteCarlo = monteCarloCmrr(sensitivity, shared, sigmas, spec.cmrr.minDb);
+    const matched = governingMismatch.matched;
+    const mismatched = solveCircuit(mismatchedDesign(matched.design, alignedWorstCaseMismatches(sensitivity, sigmas)), matched);
+    limits = limitsOf(mismatched, f, 'differential', worst.figures.label);
+  } else {
+    const governing = corners.find((c) => c.figures === worstSingle)!;
+    limits = limitsOf(governing.solution, f, 'single-ended', worstSingle.label);
   }
 
   const sweepConditions = temperatureSweep(spec);
@@ -210,7 +275,6 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     ...nominalSolution.problems.map((problem) => ({ conditionLabel: nominal.label, problem })),
     ...corners.flatMap((c) => c.problems.map((problem) => ({ conditionLabel: c.figures.label, problem }))),
   ];
-  const omegaCt = 2 * Math.PI * f * spec.tailCapacitanceF;
   const rout = predicted.tailOutputResistanceOhm;
   const driftLimit = spec.gain.tolerancePercent;
   const cmrrRequired = spec.cmrr.minDb;
@@ -282,7 +346,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     mainsReferenced: spec.hazards.mainsReferenced,
     operatingPointProblemsAt: problems,
     operatingPointProblemCount: problems.length,
-    tailImpedanceAtFrequencyOhm: rout / Math.sqrt(1 + (omegaCt * rout) ** 2),
+    tailImpedanceAtFrequencyOhm: tailImpedanceOhm(nominalSolution, f),
     tailOutputResistanceOhm: rout,
     tailOutputResistanceClosedFormOhm: predicted.tailOutputResistanceClosedForm.valueOhm,
     tailOutputResistanceFormula: predicted.tailOutputResistanceClosedForm.formula,
@@ -290,13 +354,13 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
 
 
   const curves: OptionCurves = {
-    cmrrVsFrequency: frequencyGrid().map((frequencyHz) => ({
+    cmrrVsFrequency: curveGrid(nominalSolution).map((frequencyHz) => ({
       frequencyHz,
       singleEndedDb: singleEndedCmrrDbAt(nominalSolution, frequencyHz),
       differentialWorstCaseDb: governingMismatch ? worstCaseMismatchCmrrDb(mismatchSensitivity(governingMismatch, frequencyHz), sigmas) : null,
     })),
     temperatureSweep: sweep.map((r, i) => ({ temperatureC: sweepConditions[i].temperatureC, tailCurrentA: r.tailCurrentA, gain: outputGain(spec, r) })),
   };
-  return { predicted, facts, corners: cornerFigures, curves, monteCarlo };
+  return { predicted, rejectionLimits: limits, facts, corners: cornerFigures, curves, monteCarlo };
 }
 

@@ -9,6 +9,7 @@ import { firstNonFinitePath } from './finite';
 import { evaluateOption, type ConditionFigures, type OptionCurves } from './option-evaluation';
 import { monteCarloDraws, type MonteCarloDraws, type MonteCarloResult } from './mismatch';
 import { outputRejection } from './output-rejection';
+import type { RejectionLimits } from './rejection-limits';
 import { rankOptions, recommendedTopology } from './ranking';
 import { sizeTopology, type SizingStep } from './sizing';
 import type { AnalyzeResult, Check, Design, OptionFacts, RuleSet, SelectionPolicy, Spec, TopologyId } from './types';
@@ -27,6 +28,11 @@ export interface RecommendOption {
   /** The rejection that matters for the spec's output at the spec frequency, worst corner, dB. */
   rejectionDb: number | null;
   figures: OptionFacts | null;
+  /**
+   * Added: what limits the rejection of the spec's output at the spec frequency, each part's
+   * share (rejection-limits.ts); null when the option could not be solved or it cannot be told.
+   */
+  rejectionLimits?: RejectionLimits | null;
   corners: ConditionFigures[];
   curves: OptionCurves | null;
   monteCarlo: MonteCarloResult | null;
@@ -94,6 +100,7 @@ async function checkedOption(
       checks,
       rejectionDb: outputRejection(facts).valueDb,
       figures: facts,
+      rejectionLimits: evaluation.rejectionLimits,
       corners: evaluation.corners,
       curves: evaluation.curves,
       monteCarlo: evaluation.monteCarlo,
@@ -109,6 +116,7 @@ async function checkedOption(
       checks: unsolvedChecks(ruleSet, message),
       rejectionDb: null,
       figures: null,
+      rejectionLimits: null,
       corners: [],
       curves: null,
       monteCarlo: null,

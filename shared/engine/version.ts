@@ -2,7 +2,10 @@
 // 2.0.0: the full Gummel-Poon model and the devices' capacitances; transconductanceS is gm as SPICE
 // reports it (VCE held), cmrrCornerHz comes from the whole circuit, saturation from each
 // transistor's own gain loss: figures changed meaning, so every record of 1.0.0 says which engine made it.
-export const ENGINE_VERSION = '2.0.0';
+// 2.1.0: each option's rejectionLimits (what limits the rejection at the spec frequency); the tail
+// impedance at the spec frequency with the tail transistors' own capacitances; the rejection curve
+// to where the gain has fallen 20 dB (at most 1 GHz).
+export const ENGINE_VERSION = '2.1.0';
 
 /** The sentence every output carries: these are estimates. */
 export const ESTIMATE_NOTICE =

@@ -48,7 +48,14 @@ const COLUMNS: [header: string, value: (o: Option) => string | number | boolean 
   ['tail_values', (o) => (o.design ? tailValues(o.design.tail as unknown as Record<string, unknown>) : null)],
   ['blocking_checks_short', (o) => o.checks.filter((c) => !c.passed && c.severity === 'blocking').map((c) => c.rule).join(' ')],
   ['advisory_checks_not_met', (o) => o.checks.filter((c) => !c.passed && c.severity === 'advisory').map((c) => c.rule).join(' ')],
+  ['rejection_limits_at_spec_frequency_percent', (o) => rejectionLimitShares(o)],
 ];
+
+/** What limits the rejection at the spec frequency: each part's share, largest first ("tail-base-collector=48.9 tail-wiring=36.5"). */
+function rejectionLimitShares(o: Option): string | null {
+  const limits = o.rejectionLimits?.limits;
+  return limits ? limits.map((l) => `${l.part}=${toDecimals(l.sharePercent, 1)}`).join(' ') : null;
+}
 
 function tailValues(tail: Record<string, unknown>): string {
   return Object.entries(tail)

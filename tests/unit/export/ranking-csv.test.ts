@@ -53,3 +53,19 @@ describe('rankingCsv', () => {
     });
   });
 });
+
+describe('the rejection limits column', () => {
+  test('each part with its share in per cent to one decimal, largest first; empty for a ranking made before the engine gave them', () => {
+    const withLimits = result();
+    const limits = [
+      { part: 'tail-base-collector', sharePercent: 48.94, elements: [], sensitivity: 1, rejectionWithoutDb: 79 },
+      { part: 'tail-wiring', sharePercent: 36.46, elements: [], sensitivity: 0.7, rejectionWithoutDb: 74 },
+      { part: 'tail-resistance', sharePercent: 14.6, elements: [], sensitivity: 0.3, rejectionWithoutDb: null },
+    ];
+    Object.assign(withLimits.options[0], { rejectionLimits: { frequencyHz: 1e5, output: 'single-ended', conditionLabel: 'nominal', rejectionDb: 67, limits, offsetting: [] } });
+    const [row] = Papa.parse<Record<string, string>>(rankingCsv(withLimits).trimEnd(), { header: true, newline: '\r\n' }).data;
+    expect(row.rejection_limits_at_spec_frequency_percent).toBe('tail-base-collector=48.9 tail-wiring=36.5 tail-resistance=14.6');
+    const [older] = Papa.parse<Record<string, string>>(rankingCsv(result()).trimEnd(), { header: true, newline: '\r\n' }).data;
+    expect(older.rejection_limits_at_spec_frequency_percent).toBe('');
+  });
+});

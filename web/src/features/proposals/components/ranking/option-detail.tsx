@@ -10,6 +10,7 @@ import { CornersTable } from './corners-table';
 import { OptionNotes } from './option-notes';
 import { OptionPlots } from './plots/option-plots';
 import { OptionSchematic } from './schematic/option-schematic';
+import { RejectionLimits } from './rejection-limits';
 import { SizedValues } from './sized-values';
 
 function Part({ title, children }: { title: string; children: ReactNode }) {
@@ -62,6 +63,11 @@ export function OptionDetail({
       <Part title="Checks">
         <ChecksTable checks={option.checks} />
       </Part>
+      {option.rejectionLimits && option.rejectionLimits.limits.length > 0 && (
+        <Part title="What limits the rejection at the spec frequency">
+          <RejectionLimits option={option} />
+        </Part>
+      )}
       <Part title="Over mismatch and temperature">
         <OptionPlots option={option} />
       </Part>

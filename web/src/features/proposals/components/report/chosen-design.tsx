@@ -4,6 +4,7 @@ import { topologyName } from '../../../../lib/topology-names';
 import { blockingFailures, decisionKindWords } from '../decision/decided-option';
 import { OptionSchematic } from '../ranking/schematic/option-schematic';
 import { SizedValues } from '../ranking/sized-values';
+import { RejectionLimits } from '../ranking/rejection-limits';
 import type { ReportSubject } from '../../lib/report-subject';
 import { besideRecommendation, currentDesign, currentDesignName, currentDesignRole } from '#shared/workflow/current-design';
 import { formatDateTime } from '../../../../lib/dates';
@@ -91,6 +92,14 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
         </div>
       ) : (
         subject.option && <p className="text-sm">This option could not be sized{subject.option.error ? `: ${subject.option.error}` : '.'}</p>
+      )}
+      {option?.rejectionLimits && option.rejectionLimits.limits.length > 0 && (
+        <section className="report-keep" aria-labelledby="report-rejection-limits-title">
+          <h3 id="report-rejection-limits-title" className="mb-1 text-sm font-medium">
+            What limits the rejection at the spec frequency
+          </h3>
+          <RejectionLimits option={option} />
+        </section>
       )}
     </div>
   );

@@ -12,7 +12,7 @@ export function RejectionFigure({ result, selected }: { result: RecommendResult;
   if (!plot) return null;
   const mismatchNote = plot.mismatch ? ` The dotted line is the selected option's mismatch-limited worst case (differential output).` : '';
   return (
-    <PlotFigure title="Rejection against frequency, every option" summary={`${rejectionSummary(plot)} Curves at nominal conditions; diamonds mark each option's worst corner at the spec frequency.${mismatchNote}`}>
+    <PlotFigure title="Rejection against frequency, every option" summary={`${rejectionSummary(plot)} Curves at nominal conditions, each up to where its differential gain has fallen 20 dB (at most 1 GHz; 10 MHz for a device card without capacitances); diamonds mark each option's worst corner at the spec frequency.${mismatchNote}`}>
       <RejectionChart plot={plot} selected={selected} />
     </PlotFigure>
   );

@@ -68,7 +68,7 @@ export function RejectionPlotSvg({ plot, subject, ownValues }: { plot: Rejection
   return (
     <Figure
       title="Rejection against frequency, every option"
-      summary={`${rejectionSummary(plot)} Curves at nominal conditions; diamonds mark each option’s worst corner at ${f}; the dashed line is the required rejection, the solid one with the margin.${mismatchNote}`}
+      summary={`${rejectionSummary(plot)} Curves at nominal conditions, each up to where its differential gain has fallen 20 dB (at most 1 GHz; 10 MHz for a device card without capacitances); diamonds mark each option’s worst corner at ${f}; the dashed line is the required rejection, the solid one with the margin.${mismatchNote}`}
       legend={
         <Legend
           items={[
