@@ -55,8 +55,10 @@ export async function proposalNetlist(dataSource: DataSource, viewer: Viewer, pr
   return { fileName: `longtail-${proposal.id}-${design.tail.topology}-${query.drive}.cir`, text };
 }
 
-/** The AC sweep written into exported netlists: 1 Hz to 10 MHz, 20 points a decade. */
-const NETLIST_SWEEP = { startHz: 1, stopHz: 1e7, pointsPerDecade: 20 };
+/** The AC sweep written into exported netlists: 1 Hz to 1 GHz, 20 points a decade (the band where the
+ * engine's rejection curve and frequency figures are held to ngspice; the devices' own capacitances act
+ * there). */
+const NETLIST_SWEEP = { startHz: 1, stopHz: 1e9, pointsPerDecade: 20 };
 
 /** The proposal's ranking as CSV, with its file name. */
 export async function proposalRankingCsv(dataSource: DataSource, viewer: Viewer, proposalId: number) {

@@ -16,7 +16,7 @@ import type { RecommendOption } from '#shared/engine/recommend';
 import type { Design, Spec } from '#shared/engine/types';
 import type { NetlistCardSettings } from '#shared/engine/netlist';
 import type { MonteCarloVerificationResult } from '#shared/verification/types';
-import type { SpiceRunner } from './spice-analyses';
+import { singleFrequencySweep, type SpiceRunner } from './spice-analyses';
 import { acAt } from './verify-option';
 
 const HISTOGRAM_BINS = 30;
@@ -106,7 +106,7 @@ export async function runMonteCarlo(
       const ac = await acAt(
         run,
         { ...mismatchedDesign(cornerDesign, sample.mismatches), collectorResistanceOhm: design.collectorResistanceOhm * sample.load1Scale },
-        { startHz: f, stopHz: f, pointsPerDecade: 1 },
+        singleFrequencySweep(f),
         card,
       );
       const db = ac.figuresAt(0).cmrrDifferentialDb;

@@ -224,7 +224,7 @@ export function dcFigures(design: Design, op: SpiceOperatingPoint): SpiceDcFigur
  * one-point `.ac dec 1 f f`, which ngspice-39 (Debian's build) answers with no point at all while
  * later builds return f; every build returns both points of this one, and only the first is read.
  */
-function readAtFirstPoint(frequencyHz: number): AcSweep {
+export function singleFrequencySweep(frequencyHz: number): AcSweep {
   return { startHz: frequencyHz, stopHz: 10 * frequencyHz, pointsPerDecade: 1 };
 }
 
@@ -246,7 +246,7 @@ export async function spiceFigures(run: SpiceRunner, design: Design, options: { 
   const { tailCurrentA, collectorCurrentA, referenceCurrentA, powerW } = dcFigures(design, op);
 
   const hasCapacitance = designStoresCharge(design);
-  const atFrequency = readAtFirstPoint(frequencyHz);
+  const atFrequency = singleFrequencySweep(frequencyHz);
   const sweep: AcSweep = hasCapacitance ? { ...CORNER_SWEEP, startHz: frequencyHz } : atFrequency;
   const differential = await spiceAc(run, design, { analysis: 'ac-differential', ...sweep });
   const commonMode = await spiceAc(run, design, { analysis: 'ac-common-mode', ...sweep });

@@ -23,6 +23,7 @@ import {
   dcFigures,
   dropFrequencyHz,
   saturatedTransistors,
+  singleFrequencySweep,
   spiceAc,
   spiceOperatingPoint,
   type SpiceRunner,
@@ -184,15 +185,13 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
     const singleDb = sweep.frequenciesHz.map((_, k) => sweep.figuresAt(k).cmrrSingleEndedDb);
     const hasCapacitance = designStoresCharge(design);
     const simulatedCornerHz = hasCapacitance ? dropFrequencyHz(sweep.frequenciesHz, singleDb, 3) : null;
-    const atSpec = await acAt(run, design, { startHz: target.frequencyHz, stopHz: target.frequencyHz, pointsPerDecade: 1 }, card);
+    const atSpec = await acAt(run, design, singleFrequencySweep(target.frequencyHz), card);
 
     await onStep(`${target.name}: tail output resistance`);
     const tail = await spiceAc(run, design, {
       analysis: 'ac-tail',
       tailNodeV: dc.tailNodeVoltageV,
-      startHz: 1,
-      stopHz: 1,
-      pointsPerDecade: 1,
+      ...singleFrequencySweep(1),
       relativeTolerance: REFERENCE_RELATIVE_TOLERANCE,
       ...card,
     });
@@ -242,7 +241,7 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
       const cornerDesign: Design = { ...design, inputCommonModeV: corner.inputCommonModeV, temperatureC: corner.temperatureC };
       await onStep(`${target.name}: corner ${corner.label}`);
       const cornerDc = await dcAt(run, cornerDesign, card);
-      const cornerAc = await acAt(run, cornerDesign, { startHz: target.frequencyHz, stopHz: target.frequencyHz, pointsPerDecade: 1 }, card);
+      const cornerAc = await acAt(run, cornerDesign, singleFrequencySweep(target.frequencyHz), card);
       const ac = cornerAc.figuresAt(0);
       corners.push({
         label: corner.label,

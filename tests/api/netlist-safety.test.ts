@@ -80,7 +80,7 @@ async function expectHarmless(text: string) {
   expect(text).not.toMatch(/[\r\u000b\u000c\u0085\u2028\u2029\u202a-\u202e\u2066-\u2069]/);
   const proposal = (await designer.get(`/api/proposals/${proposalId}`).expect(200)).body;
   const design = proposal.result.options.find((o: { topology: string }) => o.topology === proposal.result.recommended).design as Design;
-  const own = spiceNetlist(design, { analysis: 'ac-differential', startHz: 1, stopHz: 1e7, pointsPerDecade: 20 });
+  const own = spiceNetlist(design, { analysis: 'ac-differential', startHz: 1, stopHz: 1e9, pointsPerDecade: 20 });
   expect(nonCommentLines(text)).toEqual(nonCommentLines(own));
   const result = await runSpice(text, 'AC Analysis');
   expect(result.numPoints).toBeGreaterThan(100);
