@@ -6,11 +6,12 @@
  * internal nodes when the model has RB, RC, RE; the substrate at the negative rail), plus the
  * circuit's capacitors (tail wiring, loads). At a frequency f the responses solve
  * (G + j·2πf·C)·x = −(G_fixed + j·2πf·C_fixed)·drive, as SPICE's AC analysis does
- * [SPICE] ngspice bjtacld.c. At f = 0, or when nothing stores charge, the real low-frequency
+ * [SPICE] ngspice bjtacld.c, through a reduction made once per operating point
+ * (frequency-response.ts). At f = 0, or when nothing stores charge, the real low-frequency
  * responses are the answer.
  */
 import { COLLECTOR_NODES, TAIL_NODE } from './circuit';
-import { solveComplex, type ComplexVector } from './complex-solve';
+import { reducedFrequencyModel, transfersAtOmega, type FrequencyModel, type OutputWeights } from './frequency-response';
 import { chargeParameters, transistorCapacitances } from './junction-charges';
 import type { BjtParameters } from './bjt-parameters';
 import { luFactor, luSolve, zeros } from './linear-solve';
@@ -30,14 +31,14 @@ export interface Complex {
   im: number;
 }
 
-/** The stage's reactive part: G and C with their drive columns (row-major n × n, columns of length n). */
-export interface ReactiveStage {
-  n: number;
-  conductance: number[];
-  capacitance: number[];
-  /** Coefficients of the two drive nodes in G and C (currents leaving each free node per volt of drive). */
-  conductanceDrive: [number[], number[]];
-  capacitanceDrive: [number[], number[]];
+export type { OutputWeights } from './frequency-response';
+
+/** The contract's four transfers at one frequency: differential drive to c1 − c2 and to c1, common-mode drive to c1 and to c1 − c2. */
+export interface StageTransfers {
+  differentialGain: Complex;
+  singleEndedGain: Complex;
+  commonModeGain: Complex;
+  differentialCommonModeGain: Complex;
 }
 
 /** Node responses to the two drives at low frequency, and what the frequency solve needs. */
@@ -53,15 +54,28 @@ export interface SmallSignalStage {
   tailOutputResistanceOhm: number;
   /** The outputs the contract names: c1 alone and c1 − c2. */
   outputs: { collector1: OutputWeights; betweenCollectors: OutputWeights };
-  /** G and C for the frequency solve; null when nothing in the circuit stores charge. */
-  reactive: ReactiveStage | null;
+  /** The transfers at f = 0 (real). */
+  low: StageTransfers;
+  /**
+   * The reduced model the transfers at any frequency come from (drives: differential, common
+   * mode; outputs: c1, c1 − c2); null when nothing in the circuit stores charge.
+   */
+  frequency: FrequencyModel | null;
 }
 
-/** The drive responses at one frequency. */
-export interface StageResponses {
-  differential: ComplexVector;
-  commonMode: ComplexVector;
-}
+/** Where each transfer sits in the reduced model: its drive (0 differential, 1 common mode) and output (0 c1, 1 c1 − c2). */
+export const TRANSFER_PARTS: Readonly<Record<keyof StageTransfers, { drive: number; output: number }>> = {
+  differentialGain: { drive: 0, output: 1 },
+  singleEndedGain: { drive: 0, output: 0 },
+  commonModeGain: { drive: 1, output: 0 },
+  differentialCommonModeGain: { drive: 1, output: 1 },
+};
+
+/** The two drives, in the order of the reduced model: differential (+½, −½) and common mode (1, 1), V. */
+const DRIVES: readonly (readonly [number, number])[] = [
+  [0.5, -0.5],
+  [1, 1],
+];
 
 function stampJacobian(op: OperatingPoint, onlyTail: boolean): NodeStamp {
   const ic = op.circuit;
@@ -161,28 +175,42 @@ export function smallSignalStage(
   const n = stamper.n;
   const gDrive = driveColumns(ic, stamper, driveNodes);
   const cStamp = capacitanceStamp(op, parameters, temperatureC);
-  const reactive: ReactiveStage | null = cStamp
-    ? { n, conductance: stamper.matrix.slice(), capacitance: cStamp.matrix, conductanceDrive: gDrive, capacitanceDrive: driveColumns(ic, cStamp, driveNodes) }
-    : null;
   const factors = luFactor(stamper.matrix, n, true);
   const tailIndex = ic.nodeRef(TAIL_NODE);
   const c1 = ic.nodeRef(COLLECTOR_NODES[0]);
   const c2 = ic.nodeRef(COLLECTOR_NODES[1]);
+  const outputs = { collector1: { nodes: [c1], weights: [1] }, betweenCollectors: { nodes: [c1, c2], weights: [1, -1] } };
+  const differential = driveResponse(gDrive, factors, 0.5, -0.5);
+  const commonMode = driveResponse(gDrive, factors, 1, 1);
+  const read = (response: number[], output: OutputWeights): Complex => {
+    let re = 0;
+    for (let k = 0; k < output.nodes.length; k += 1) re += output.weights[k] * response[output.nodes[k]];
+    return { re, im: 0 };
+  };
+  let frequency: FrequencyModel | null = null;
+  if (cStamp) {
+    const cDrive = driveColumns(ic, cStamp, driveNodes);
+    const capacitiveDrives = DRIVES.map(([d1, d2]) => {
+      const column = cDrive[0].map((x, row) => x * d1 + cDrive[1][row] * d2);
+      return column.some((x) => x !== 0) ? column : null;
+    });
+    frequency = reducedFrequencyModel(factors, cStamp.matrix, [differential, commonMode], capacitiveDrives, [outputs.collector1, outputs.betweenCollectors]);
+  }
   return {
-    outputs: { collector1: { nodes: [c1], weights: [1] }, betweenCollectors: { nodes: [c1, c2], weights: [1, -1] } },
-    differential: driveResponse(gDrive, factors, 0.5, -0.5),
-    commonMode: driveResponse(gDrive, factors, 1, 1),
+    outputs,
+    differential,
+    commonMode,
     tailIndex,
     index: (node) => ic.nodeRef(node),
     tailOutputResistanceOhm: tailOutputResistanceOhm(op, tailIndex),
-    reactive,
+    low: {
+      differentialGain: read(differential, outputs.betweenCollectors),
+      singleEndedGain: read(differential, outputs.collector1),
+      commonModeGain: read(commonMode, outputs.collector1),
+      differentialCommonModeGain: read(commonMode, outputs.betweenCollectors),
+    },
+    frequency,
   };
-}
-
-/** An output as weights on collector-side free nodes, e.g. {c1: 1, c2: −1} for c1 − c2. */
-export interface OutputWeights {
-  nodes: number[];
-  weights: number[];
 }
 
 /** Resolves named output weights to node indexes once. */
@@ -191,40 +219,17 @@ export function outputWeights(stage: SmallSignalStage, weights: Record<string, n
   return { nodes: names.map((n) => stage.index(n)), weights: names.map((n) => weights[n]) };
 }
 
-/** The differential and common-mode responses at a frequency (Hz): one complex factorisation for both. */
-export function responsesAt(stage: SmallSignalStage, frequencyHz: number): StageResponses {
-  const reactive = stage.reactive;
-  if (!reactive || frequencyHz === 0) {
-    const n = stage.differential.length;
-    return { differential: { re: stage.differential, im: zeros(n) }, commonMode: { re: stage.commonMode, im: zeros(n) } };
-  }
-  const { n, conductance, capacitance, conductanceDrive: g, capacitanceDrive: c } = reactive;
-  const omega = 2 * Math.PI * frequencyHz;
-  const aRe = conductance.slice();
-  const aIm = new Array<number>(n * n);
-  for (let k = 0; k < n * n; k += 1) aIm[k] = omega * capacitance[k];
-  const drive = (d1: number, d2: number): ComplexVector => {
-    const re = zeros(n);
-    const im = zeros(n);
-    for (let row = 0; row < n; row += 1) {
-      re[row] = -(g[0][row] * d1 + g[1][row] * d2);
-      im[row] = -omega * (c[0][row] * d1 + c[1][row] * d2);
-    }
-    return { re, im };
+/** The four transfers at a frequency (Hz): the low-frequency ones at f = 0 or when nothing stores charge. */
+export function stageTransfersAt(stage: SmallSignalStage, frequencyHz: number): StageTransfers {
+  if (!stage.frequency || frequencyHz === 0) return stage.low;
+  const t = transfersAtOmega(stage.frequency, 2 * Math.PI * frequencyHz);
+  const at = ({ drive, output }: { drive: number; output: number }) => t[drive][output];
+  return {
+    differentialGain: at(TRANSFER_PARTS.differentialGain),
+    singleEndedGain: at(TRANSFER_PARTS.singleEndedGain),
+    commonModeGain: at(TRANSFER_PARTS.commonModeGain),
+    differentialCommonModeGain: at(TRANSFER_PARTS.differentialCommonModeGain),
   };
-  const [differential, commonMode] = solveComplex(aRe, aIm, n, [drive(0.5, -0.5), drive(1, 1)]);
-  return { differential, commonMode };
-}
-
-/** A transfer to an output from a response. */
-export function transferOf(response: ComplexVector, output: OutputWeights): Complex {
-  let re = 0;
-  let im = 0;
-  for (let k = 0; k < output.nodes.length; k += 1) {
-    re += output.weights[k] * response.re[output.nodes[k]];
-    im += output.weights[k] * response.im[output.nodes[k]];
-  }
-  return { re, im };
 }
 
 /** Magnitude of a complex number. */
