@@ -12,7 +12,7 @@ import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './op
 import { withHardFields } from './convergence-hints';
 import { TRANSFER_PARTS, magnitude, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
 import { transferMoveBound } from './frequency-response';
-import { cardOf, hasModelCard, resolvedParameters } from './bjt-parameters';
+import { hasModelCard, resolvedParameters } from './bjt-parameters';
 import type { AcEntry, AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
 
@@ -179,15 +179,16 @@ function figureDb(figure: CornerFigure, t: StageTransfers): number {
 const SINGLE_TRANSFER_MOVE = (1 - Math.SQRT1_2) / 2;
 const RATIO_TRANSFER_MOVE = (3 - 2 * Math.SQRT2) / 2;
 
+/** Whether the bound on a transfer's move keeps it within `move` (relative) of its low-frequency value at ω. */
+function transferHolds(stage: SmallSignalStage, part: keyof StageTransfers, move: number, omega: number): boolean {
+  const { drive, output } = TRANSFER_PARTS[part];
+  return transferMoveBound(stage.frequency!, drive, output, omega) < move * magnitude(stage.low[part]);
+}
+
 /** Whether the bound on each transfer's move shows the figure cannot yet have fallen 3 dB at ω. */
 function cannotHaveFallen(stage: SmallSignalStage, figure: CornerFigure, omega: number): boolean {
-  const model = stage.frequency!;
-  const move = figure.denominator ? RATIO_TRANSFER_MOVE : SINGLE_TRANSFER_MOVE;
-  const parts = figure.denominator ? [figure.numerator, figure.denominator] : [figure.numerator];
-  return parts.every((part) => {
-    const { drive, output } = TRANSFER_PARTS[part];
-    return transferMoveBound(model, drive, output, omega) < move * magnitude(stage.low[part]);
-  });
+  if (!figure.denominator) return transferHolds(stage, figure.numerator, SINGLE_TRANSFER_MOVE, omega);
+  return transferHolds(stage, figure.numerator, RATIO_TRANSFER_MOVE, omega) && transferHolds(stage, figure.denominator, RATIO_TRANSFER_MOVE, omega);
 }
 
 /**
@@ -227,8 +228,8 @@ function cornersHz(stage: SmallSignalStage, figures: readonly CornerFigure[]): (
 /**
  * The crossing of f between a (f(a) > 0) and b (f(b) ≤ 0), to CORNER_RELATIVE_TOLERANCE in
  * 10^x: Brent's method (inverse quadratic or secant steps, bisection when they stall), which
- * keeps the crossing bracketed [BRENT] R. P. Brent, Algorithms for Minimization without
- * Derivatives (1973), ch. 4.
+ * keeps the crossing bracketed (R. P. Brent, Algorithms for Minimization without Derivatives,
+ * 1973, ch. 4).
  */
 function refineCrossing(f: (x: number) => number, a: number, fa: number, b: number, fb: number): number {
   const tolerance = CORNER_RELATIVE_TOLERANCE / Math.LN10 / 2;
@@ -398,8 +399,7 @@ export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedC
   } catch (error) {
     throw error instanceof ConvergenceError ? withHardFields(error, design) : error;
   }
-  const parameters = resolvedParameters(cardOf(design.device));
-  return { design, model, op, stage: smallSignalStage(op, circuit.driveNodes, parameters, temperatureC) };
+  return { design, model, op, stage: smallSignalStage(op, circuit.driveNodes, model.parameters, temperatureC) };
 }
 
 /** The contract's figures of a solved circuit, and its operating-point problems as figures. */

@@ -5,10 +5,10 @@
  * A has columns only at the nodes a capacitance touches (the set K), so only those k nodes
  * couple over frequency: (I + s·A_KK)·x_K = r0_K + s·r1_K, and an output w reads
  * wᵀx = wᵀr0 + s·wᵀr1 − s·(wᵀA_·K)·x_K. A_KK is brought to upper Hessenberg form once,
- * H = Qᵀ·A_KK·Q (Householder reflections [GVL] Golub and Van Loan, Matrix Computations,
+ * H = Qᵀ·A_KK·Q (Householder reflections: Golub and Van Loan, Matrix Computations,
  * 4th ed., §7.4.3), after which each frequency is a Hessenberg solve of (I + s·H)·y = Qᵀ(r0_K + s·r1_K),
- * O(k²) instead of a dense complex factorisation, O(n³) [LAUB] A. J. Laub, "Efficient
- * multivariable frequency response computations", IEEE Trans. Automatic Control 26 (1981) 407–408.
+ * O(k²) instead of a dense complex factorisation, O(n³) (A. J. Laub, "Efficient
+ * multivariable frequency response computations", IEEE Trans. Automatic Control 26 (1981) 407–408).
  * The algebra is exact: the transfers are those of SPICE's AC analysis [SPICE] ngspice bjtacld.c.
  */
 import { luSolve, zeros, type LuFactors } from './linear-solve';
@@ -64,7 +64,7 @@ export interface ComplexPair {
 }
 
 /** Σ weights·vector at the output's nodes. */
-function readOutput(vector: readonly number[], output: OutputWeights): number {
+export function readOutput(vector: readonly number[], output: OutputWeights): number {
   let sum = 0;
   for (let i = 0; i < output.nodes.length; i += 1) sum += output.weights[i] * vector[output.nodes[i]];
   return sum;
@@ -78,7 +78,7 @@ function norm(vector: readonly number[]): number {
 
 /**
  * Reduces A (k × k, row-major, overwritten with H) to upper Hessenberg form by Householder
- * reflections P = I − 2·v·vᵀ/(vᵀv), A ← P·A·P [GVL] §7.4.3, applying each P to `vectors` as
+ * reflections P = I − 2·v·vᵀ/(vᵀv), A ← P·A·P (Golub and Van Loan §7.4.3), applying each P to `vectors` as
  * well (they become Qᵀ·vector).
  */
 function toHessenberg(a: number[], k: number, vectors: number[][]): void {
@@ -157,9 +157,9 @@ export function reducedFrequencyModel(
   for (let i = 0; i < k; i += 1) for (let j = 0; j < k; j += 1) a[i * k + j] = columns[j][coupled[i]];
   // r1 = −G⁻¹·(c·d)
   const r1s = capacitiveDrives.map((c) => (c ? luSolve(factors, c.map((x) => -x)) : zeros(n)));
-  const restrict = (vector: readonly number[]) => coupled.map((node) => vector[node]);
-  const p0s = lowResponses.map(restrict);
-  const p1s = r1s.map(restrict);
+  // the vectors at K
+  const p0s = lowResponses.map((r0) => coupled.map((node) => r0[node]));
+  const p1s = r1s.map((r1) => coupled.map((node) => r1[node]));
   // (wᵀA_·K)ᵀ for each output
   const qs = outputs.map((w) => columns.map((column) => readOutput(column, w)));
   const driveNorms = p0s.map((p0, d) => [norm(p0), norm(p1s[d])]);

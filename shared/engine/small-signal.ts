@@ -11,7 +11,7 @@
  * responses are the answer.
  */
 import { COLLECTOR_NODES, TAIL_NODE } from './circuit';
-import { reducedFrequencyModel, transfersAtOmega, type FrequencyModel, type OutputWeights } from './frequency-response';
+import { readOutput, reducedFrequencyModel, transfersAtOmega, type FrequencyModel, type OutputWeights } from './frequency-response';
 import { chargeParameters, transistorCapacitances } from './junction-charges';
 import type { BjtParameters } from './bjt-parameters';
 import { luFactor, luSolve, zeros } from './linear-solve';
@@ -140,21 +140,22 @@ function capacitanceStamp(op: OperatingPoint, parameters: BjtParameters | null, 
   const charges = parameters ? chargeParameters(parameters, temperatureC) : null;
   if (parameters && charges && !charges.none) {
     const v = op.voltagesV;
-    ic.transistors.forEach((q, k) => {
+    for (let k = 0; k < ic.transistors.length; k += 1) {
+      const q = ic.transistors[k];
       // the junctions sit on the internal nodes (behind RB, RC, RE), the substrate at the negative rail
       const { bi: b, ci: c, ei: e, s } = q;
       const vb = nodeVoltage(ic, v, b);
       const vc = nodeVoltage(ic, v, c);
       // the transport terms of the device's own evaluation at the solution (the transistor's own model when it has one)
-      const bias = { ...op.transistors[k], vbeV: vb - nodeVoltage(ic, v, e), vbcV: vb - vc, vsubV: nodeVoltage(ic, v, s) - vc };
-      const caps = transistorCapacitances(charges, bias, q.area);
+      const bias = { vbeV: vb - nodeVoltage(ic, v, e), vbcV: vb - vc, vsubV: nodeVoltage(ic, v, s) - vc };
+      const caps = transistorCapacitances(charges, op.transistors[k], bias, q.area);
       if (caps.baseEmitterF !== 0) stampConductance(stamp, b, e, caps.baseEmitterF);
       if (caps.baseCollectorF !== 0) stampConductance(stamp, b, c, caps.baseCollectorF);
       if (caps.collectorSubstrateF !== 0) stampConductance(stamp, c, s, caps.collectorSubstrateF);
       // d(qbe)/d(vbc): a current jω·C·vbc leaving the internal base into the internal emitter
       if (caps.baseEmitterPerVbcF !== 0) stampControlled(stamp, b, e, b, c, caps.baseEmitterPerVbcF);
       any = true;
-    });
+    }
   }
   return any ? stamp : null;
 }
@@ -182,11 +183,6 @@ export function smallSignalStage(
   const outputs = { collector1: { nodes: [c1], weights: [1] }, betweenCollectors: { nodes: [c1, c2], weights: [1, -1] } };
   const differential = driveResponse(gDrive, factors, 0.5, -0.5);
   const commonMode = driveResponse(gDrive, factors, 1, 1);
-  const read = (response: number[], output: OutputWeights): Complex => {
-    let re = 0;
-    for (let k = 0; k < output.nodes.length; k += 1) re += output.weights[k] * response[output.nodes[k]];
-    return { re, im: 0 };
-  };
   let frequency: FrequencyModel | null = null;
   if (cStamp) {
     const cDrive = driveColumns(ic, cStamp, driveNodes);
@@ -201,13 +197,13 @@ export function smallSignalStage(
     differential,
     commonMode,
     tailIndex,
-    index: (node) => ic.nodeRef(node),
+    index: ic.nodeRef,
     tailOutputResistanceOhm: tailOutputResistanceOhm(op, tailIndex),
     low: {
-      differentialGain: read(differential, outputs.betweenCollectors),
-      singleEndedGain: read(differential, outputs.collector1),
-      commonModeGain: read(commonMode, outputs.collector1),
-      differentialCommonModeGain: read(commonMode, outputs.betweenCollectors),
+      differentialGain: { re: readOutput(differential, outputs.betweenCollectors), im: 0 },
+      singleEndedGain: { re: readOutput(differential, outputs.collector1), im: 0 },
+      commonModeGain: { re: readOutput(commonMode, outputs.collector1), im: 0 },
+      differentialCommonModeGain: { re: readOutput(commonMode, outputs.betweenCollectors), im: 0 },
     },
     frequency,
   };
@@ -223,12 +219,12 @@ export function outputWeights(stage: SmallSignalStage, weights: Record<string, n
 export function stageTransfersAt(stage: SmallSignalStage, frequencyHz: number): StageTransfers {
   if (!stage.frequency || frequencyHz === 0) return stage.low;
   const t = transfersAtOmega(stage.frequency, 2 * Math.PI * frequencyHz);
-  const at = ({ drive, output }: { drive: number; output: number }) => t[drive][output];
+  const { differentialGain, singleEndedGain, commonModeGain, differentialCommonModeGain } = TRANSFER_PARTS;
   return {
-    differentialGain: at(TRANSFER_PARTS.differentialGain),
-    singleEndedGain: at(TRANSFER_PARTS.singleEndedGain),
-    commonModeGain: at(TRANSFER_PARTS.commonModeGain),
-    differentialCommonModeGain: at(TRANSFER_PARTS.differentialCommonModeGain),
+    differentialGain: t[differentialGain.drive][differentialGain.output],
+    singleEndedGain: t[singleEndedGain.drive][singleEndedGain.output],
+    commonModeGain: t[commonModeGain.drive][commonModeGain.output],
+    differentialCommonModeGain: t[differentialCommonModeGain.drive][differentialCommonModeGain.output],
   };
 }
 
