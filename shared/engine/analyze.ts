@@ -153,7 +153,7 @@ const LOWEST_CORNER_HZ = 1e-4;
 const CORNER_GRID_PER_DECADE = 1;
 /** Relative accuracy of a corner frequency. */
 const CORNER_RELATIVE_TOLERANCE = 1e-6;
-/** Refinement steps at most (Brent's method in log-frequency; it needs about six). */
+/** Refinement steps at most (Brent's method; it needs three or four). */
 const CORNER_MAX_STEPS = 60;
 
 /** A figure whose 3 dB corner is searched: 20·log10|numerator| − 20·log10|denominator| (no denominator: 1). */
@@ -194,45 +194,66 @@ function cannotHaveFallen(stage: SmallSignalStage, figure: CornerFigure, omega: 
 /**
  * The lowest frequency where each figure has fallen 3 dB below its low-frequency value: a
  * logarithmic grid up to HIGHEST_CORNER_HZ finds the first grid point at or below the target,
- * then Brent's method in log-frequency refines the crossing between it and the grid point
- * before. Grid points where a bound on the transfers' move (transferMoveBound) shows the figure
+ * then Brent's method refines the crossing between it and the grid point before
+ * (refinedCornerHz). Grid points where a bound on the transfers' move (transferMoveBound) shows the figure
  * cannot have fallen 3 dB yet are passed without a solve: each figure's scan starts at the last
- * of them, so it finds the crossing a solve at every grid point would. A grid point's transfers
- * are solved once for every figure. Null where the figure never falls 3 dB there, and for every
+ * of them, so it finds the crossing a solve at every grid point would. Null where the figure never falls 3 dB there, and for every
  * figure when nothing in the circuit stores charge.
  */
 function cornersHz(stage: SmallSignalStage, figures: readonly CornerFigure[]): (number | null)[] {
   if (!stage.frequency) return figures.map(() => null);
   const steps = Math.round(Math.log10(HIGHEST_CORNER_HZ / LOWEST_CORNER_HZ) * CORNER_GRID_PER_DECADE);
   const gridLogF = (i: number) => Math.log10(LOWEST_CORNER_HZ) + i / CORNER_GRID_PER_DECADE;
-  const grid: StageTransfers[] = [];
-  const gridTransfers = (i: number) => (grid[i] ??= transfersAt({ stage }, 10 ** gridLogF(i)));
+  // the stage keeps what it solved (SmallSignalStage.solvedAt): a grid point serves every figure
+  const gridTransfers = (i: number) => transfersAt({ stage }, 10 ** gridLogF(i));
   return figures.map((figure) => {
     const target = figureDb(figure, stage.low) - HALF_POWER_DB;
     let first = 0;
     while (first < steps && cannotHaveFallen(stage, figure, 2 * Math.PI * 10 ** gridLogF(first + 1))) first += 1;
-    let previous = figureDb(figure, gridTransfers(first)) - target;
-    if (!(previous > 0)) return first === 0 ? 10 ** gridLogF(0) : null;
+    if (!(figureDb(figure, gridTransfers(first)) - target > 0)) return first === 0 ? 10 ** gridLogF(0) : null;
     for (let i = first + 1; i <= steps; i += 1) {
-      const value = figureDb(figure, gridTransfers(i)) - target;
-      if (value <= 0) {
-        const excess = (logF: number) => figureDb(figure, transfersAt({ stage }, 10 ** logF)) - target;
-        return 10 ** refineCrossing(excess, gridLogF(i - 1), previous, gridLogF(i), value);
-      }
-      previous = value;
+      if (figureDb(figure, gridTransfers(i)) - target <= 0) return refinedCornerHz(stage, figure, 10 ** gridLogF(i - 1), 10 ** gridLogF(i));
     }
     return null;
   });
 }
 
+/** The figure as a power ratio: |N|²/|D|² (|N|² without a denominator). */
+function figurePower(figure: CornerFigure, t: StageTransfers): number {
+  const n = t[figure.numerator];
+  const power = n.re * n.re + n.im * n.im;
+  if (!figure.denominator) return power;
+  const d = t[figure.denominator];
+  return power / (d.re * d.re + d.im * d.im);
+}
+
 /**
- * The crossing of f between a (f(a) > 0) and b (f(b) ≤ 0), to CORNER_RELATIVE_TOLERANCE in
- * 10^x: Brent's method (inverse quadratic or secant steps, bisection when they stall), which
- * keeps the crossing bracketed (R. P. Brent, Algorithms for Minimization without Derivatives,
- * 1973, ch. 4).
+ * The corner between two grid frequencies (the figure above its target at `aboveHz`, at or below
+ * at `belowHz`): the root of 2 − P0/P(f) in v = f², P the figure as a power ratio (figurePower,
+ * P0 at low frequency), which is 3 dB down where it is 0. For a single pole or zero P0/P is
+ * 1 + f²/fc², linear in f², so the interpolation steps land on the corner at once; a real stage
+ * is close to that near its corner.
+ */
+function refinedCornerHz(stage: SmallSignalStage, figure: CornerFigure, aboveHz: number, belowHz: number): number {
+  const lowPower = figurePower(figure, stage.low);
+  const shortfall = (v: number) => 2 - lowPower / figurePower(figure, transfersAt({ stage }, Math.sqrt(v)));
+  const a = aboveHz * aboveHz;
+  const b = belowHz * belowHz;
+  const fa = shortfall(a);
+  const fb = shortfall(b);
+  // The grid decided on the figure in dB; should rounding put an end exactly on the corner, that end is it
+  if (!(fa > 0)) return aboveHz;
+  if (fb > 0) return belowHz;
+  return Math.sqrt(refineCrossing(shortfall, a, fa, b, fb));
+}
+
+/**
+ * The crossing of f between a (f(a) > 0) and b (f(b) ≤ 0), to CORNER_RELATIVE_TOLERANCE of x:
+ * Brent's method (inverse quadratic or secant steps, bisection when they stall), which keeps
+ * the crossing bracketed (R. P. Brent, Algorithms for Minimization without Derivatives, 1973,
+ * ch. 4).
  */
 function refineCrossing(f: (x: number) => number, a: number, fa: number, b: number, fb: number): number {
-  const tolerance = CORNER_RELATIVE_TOLERANCE / Math.LN10 / 2;
   // b: the best estimate; c: the other end of the bracket; a: the previous b
   let c = a;
   let fc = fa;
@@ -247,6 +268,8 @@ function refineCrossing(f: (x: number) => number, a: number, fa: number, b: numb
       fb = fc;
       fc = fa;
     }
+    // half the bracket to within the tolerance: in v = f², (CORNER_RELATIVE_TOLERANCE / 2)·v keeps f to CORNER_RELATIVE_TOLERANCE / 2
+    const tolerance = (CORNER_RELATIVE_TOLERANCE / 2) * Math.abs(b);
     const half = (c - b) / 2;
     if (Math.abs(half) <= tolerance || fb === 0) return b;
     if (Math.abs(e) >= tolerance && Math.abs(fa) > Math.abs(fb)) {

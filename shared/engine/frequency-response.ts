@@ -25,8 +25,8 @@ export interface OutputWeights {
 /** One drive's part of the reduced system. */
 interface ReducedDrive {
   /** Qᵀ·r0_K and Qᵀ·r1_K. */
-  p0: number[];
-  p1: number[];
+  p0: Float64Array;
+  p1: Float64Array;
   /** ‖r0_K‖ and ‖r1_K‖ (Euclidean; Q keeps them). */
   p0Norm: number;
   p1Norm: number;
@@ -35,7 +35,7 @@ interface ReducedDrive {
 /** One output's part of the reduced system. */
 interface ReducedOutput {
   /** Qᵀ·(wᵀA_·K)ᵀ and its Euclidean norm. */
-  q: number[];
+  q: Float64Array;
   qNorm: number;
 }
 
@@ -47,7 +47,7 @@ export interface FrequencyModel {
   /** Nodes coupled over frequency (those a capacitance touches). */
   k: number;
   /** Upper Hessenberg H, row-major k × k. */
-  hessenberg: number[];
+  hessenberg: Float64Array;
   /** ‖H‖ (Frobenius, ≥ the 2-norm), for the bound on how far a transfer can move. */
   hessenbergNorm: number;
   drives: ReducedDrive[];
@@ -167,10 +167,10 @@ export function reducedFrequencyModel(
   toHessenberg(a, k, [...p0s, ...p1s, ...qs]);
   return {
     k,
-    hessenberg: a,
+    hessenberg: Float64Array.from(a),
     hessenbergNorm: norm(a),
-    drives: p0s.map((p0, d) => ({ p0, p1: p1s[d], p0Norm: driveNorms[d][0], p1Norm: driveNorms[d][1] })),
-    outputs: qs.map((q, w) => ({ q, qNorm: outputNorms[w] })),
+    drives: p0s.map((p0, d) => ({ p0: Float64Array.from(p0), p1: Float64Array.from(p1s[d]), p0Norm: driveNorms[d][0], p1Norm: driveNorms[d][1] })),
+    outputs: qs.map((q, w) => ({ q: Float64Array.from(q), qNorm: outputNorms[w] })),
     low: lowResponses.map((r0) => outputs.map((w) => readOutput(r0, w))),
     direct: r1s.map((r1) => outputs.map((w) => readOutput(r1, w))),
   };

@@ -61,6 +61,12 @@ export interface SmallSignalStage {
    * mode; outputs: c1, c1 − c2); null when nothing in the circuit stores charge.
    */
   frequency: FrequencyModel | null;
+  /**
+   * The transfers already solved, by frequency (Hz). The stage is never changed after it is
+   * built, so a frequency's transfers stay what they were: the corner searches' grid points and
+   * the `ac` entries or a rejection read twice at one frequency are solved once.
+   */
+  solvedAt: Map<number, StageTransfers>;
 }
 
 /** Where each transfer sits in the reduced model: its drive (0 differential, 1 common mode) and output (0 c1, 1 c1 − c2). */
@@ -206,6 +212,7 @@ export function smallSignalStage(
       differentialCommonModeGain: { re: readOutput(commonMode, outputs.betweenCollectors), im: 0 },
     },
     frequency,
+    solvedAt: new Map(),
   };
 }
 
@@ -218,14 +225,18 @@ export function outputWeights(stage: SmallSignalStage, weights: Record<string, n
 /** The four transfers at a frequency (Hz): the low-frequency ones at f = 0 or when nothing stores charge. */
 export function stageTransfersAt(stage: SmallSignalStage, frequencyHz: number): StageTransfers {
   if (!stage.frequency || frequencyHz === 0) return stage.low;
+  const solved = stage.solvedAt.get(frequencyHz);
+  if (solved) return solved;
   const t = transfersAtOmega(stage.frequency, 2 * Math.PI * frequencyHz);
   const { differentialGain, singleEndedGain, commonModeGain, differentialCommonModeGain } = TRANSFER_PARTS;
-  return {
+  const transfers: StageTransfers = {
     differentialGain: t[differentialGain.drive][differentialGain.output],
     singleEndedGain: t[singleEndedGain.drive][singleEndedGain.output],
     commonModeGain: t[commonModeGain.drive][commonModeGain.output],
     differentialCommonModeGain: t[differentialCommonModeGain.drive][differentialCommonModeGain.output],
   };
+  stage.solvedAt.set(frequencyHz, transfers);
+  return transfers;
 }
 
 /** Magnitude of a complex number. */
