@@ -10,8 +10,9 @@ import { NOMINAL_TEMPERATURE_C } from './constants';
 import { nodeVoltage, type IndexedCircuit } from './node-system';
 import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { withHardFields } from './convergence-hints';
-import { magnitude, responsesAt, smallSignalStage, transferOf, type Complex, type SmallSignalStage, type StageResponses } from './small-signal';
-import { cardOf, hasModelCard, resolvedParameters } from './bjt-parameters';
+import { TRANSFER_PARTS, magnitude, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
+import { transferMoveBound } from './frequency-response';
+import { hasModelCard, resolvedParameters } from './bjt-parameters';
 import type { AcEntry, AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
 
@@ -46,12 +47,7 @@ export interface StageSolution extends SolvedCircuit {
 }
 
 /** Small-signal transfers of a solved stage at a frequency (Hz). */
-export interface StageTransfers {
-  differentialGain: Complex;
-  singleEndedGain: Complex;
-  commonModeGain: Complex;
-  differentialCommonModeGain: Complex;
-}
+export type { StageTransfers } from './small-signal';
 
 /** Current leaving node `nodeName` into the elements of the circuit, A (KCL bookkeeping). */
 function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: boolean): number {
@@ -133,23 +129,12 @@ function transistorOperatingPoints(ic: IndexedCircuit, op: OperatingPoint, therm
   });
 }
 
-/** The four transfers of a stage's responses at one frequency. */
-function transfersOf(stage: SmallSignalStage, responses: StageResponses): StageTransfers {
-  const { collector1, betweenCollectors } = stage.outputs;
-  return {
-    differentialGain: transferOf(responses.differential, betweenCollectors),
-    singleEndedGain: transferOf(responses.differential, collector1),
-    commonModeGain: transferOf(responses.commonMode, collector1),
-    differentialCommonModeGain: transferOf(responses.commonMode, betweenCollectors),
-  };
-}
-
 /**
  * The contract's four transfers at a frequency (Hz), from the whole circuit: the devices'
  * junction and diffusion capacitances, the tail wiring capacitance and the loads.
  */
 export function transfersAt(solution: Pick<StageSolution, 'stage'>, frequencyHz: number): StageTransfers {
-  return transfersOf(solution.stage, responsesAt(solution.stage, frequencyHz));
+  return stageTransfersAt(solution.stage, frequencyHz);
 }
 
 /** Single-ended CMRR in dB at a frequency: 20·log10|Ase/Acm|. */
@@ -168,67 +153,166 @@ const LOWEST_CORNER_HZ = 1e-4;
 const CORNER_GRID_PER_DECADE = 1;
 /** Relative accuracy of a corner frequency. */
 const CORNER_RELATIVE_TOLERANCE = 1e-6;
-/** Refinement steps at most (regula falsi in log-frequency, Illinois variant). */
+/** Refinement steps at most (Brent's method; it needs three or four). */
 const CORNER_MAX_STEPS = 60;
 
-/** 20·log10 of a figure read from the responses at a frequency. */
-type FigureDb = (transfers: StageTransfers) => number;
+/** A figure whose 3 dB corner is searched: 20·log10|numerator| − 20·log10|denominator| (no denominator: 1). */
+interface CornerFigure {
+  numerator: keyof StageTransfers;
+  denominator?: keyof StageTransfers;
+}
 
-const DIFFERENTIAL_GAIN_DB: FigureDb = (t) => 20 * Math.log10(magnitude(t.differentialGain));
-const SINGLE_ENDED_CMRR_DB: FigureDb = (t) => 20 * Math.log10(magnitude(t.singleEndedGain) / magnitude(t.commonModeGain));
+const DIFFERENTIAL_GAIN: CornerFigure = { numerator: 'differentialGain' };
+const SINGLE_ENDED_CMRR: CornerFigure = { numerator: 'singleEndedGain', denominator: 'commonModeGain' };
+
+function figureDb(figure: CornerFigure, t: StageTransfers): number {
+  const numerator = magnitude(t[figure.numerator]);
+  return 20 * Math.log10(figure.denominator ? numerator / magnitude(t[figure.denominator]) : numerator);
+}
+
+/**
+ * How far (relative) each transfer of a figure must move from its low-frequency value before the
+ * figure can have fallen 3 dB: |H| ≤ |H0|/√2 needs |H − H0| ≥ (1 − 1/√2)·|H0|; a ratio |N|/|D|
+ * falls by √2 only if N falls or D rises by δ with (1 − δ)/(1 + δ) = 1/√2, δ = 3 − 2√2.
+ * Halved, so rounding never decides.
+ */
+const SINGLE_TRANSFER_MOVE = (1 - Math.SQRT1_2) / 2;
+const RATIO_TRANSFER_MOVE = (3 - 2 * Math.SQRT2) / 2;
+
+/** Whether the bound on a transfer's move keeps it within `move` (relative) of its low-frequency value at ω. */
+function transferHolds(stage: SmallSignalStage, part: keyof StageTransfers, move: number, omega: number): boolean {
+  const { drive, output } = TRANSFER_PARTS[part];
+  return transferMoveBound(stage.frequency!, drive, output, omega) < move * magnitude(stage.low[part]);
+}
+
+/** Whether the bound on each transfer's move shows the figure cannot yet have fallen 3 dB at ω. */
+function cannotHaveFallen(stage: SmallSignalStage, figure: CornerFigure, omega: number): boolean {
+  if (!figure.denominator) return transferHolds(stage, figure.numerator, SINGLE_TRANSFER_MOVE, omega);
+  return transferHolds(stage, figure.numerator, RATIO_TRANSFER_MOVE, omega) && transferHolds(stage, figure.denominator, RATIO_TRANSFER_MOVE, omega);
+}
 
 /**
  * The lowest frequency where each figure has fallen 3 dB below its low-frequency value: a
- * logarithmic grid up to HIGHEST_CORNER_HZ finds the first crossing (one solve per grid point
- * serves every figure), then regula falsi in log-frequency refines it. Null where the figure
- * never falls 3 dB there, and for every figure when nothing in the circuit stores charge.
+ * logarithmic grid up to HIGHEST_CORNER_HZ finds the first grid point at or below the target,
+ * then Brent's method refines the crossing between it and the grid point before
+ * (refinedCornerHz). Grid points where a bound on the transfers' move (transferMoveBound) shows the figure
+ * cannot have fallen 3 dB yet are passed without a solve: each figure's scan starts at the last
+ * of them, so it finds the crossing a solve at every grid point would. Null where the figure never falls 3 dB there, and for every
+ * figure when nothing in the circuit stores charge.
  */
-function cornersHz(stage: SmallSignalStage, figures: readonly FigureDb[]): (number | null)[] {
-  if (!stage.reactive) return figures.map(() => null);
-  const low = transfersOf(stage, responsesAt(stage, 0));
-  const targets = figures.map((figure) => figure(low) - HALF_POWER_DB);
-  const excess = (figure: FigureDb, k: number, logF: number): number => figure(transfersAt({ stage }, 10 ** logF)) - targets[k];
-  const found: (number | null)[] = figures.map(() => null);
-  const previous: { logF: number; values: number[] } = { logF: -Infinity, values: figures.map(() => 3) };
+function cornersHz(stage: SmallSignalStage, figures: readonly CornerFigure[]): (number | null)[] {
+  if (!stage.frequency) return figures.map(() => null);
   const steps = Math.round(Math.log10(HIGHEST_CORNER_HZ / LOWEST_CORNER_HZ) * CORNER_GRID_PER_DECADE);
-  for (let i = 0; i <= steps && found.some((f, k) => f === null && previous.values[k] > 0); i += 1) {
-    const logF = Math.log10(LOWEST_CORNER_HZ) + i / CORNER_GRID_PER_DECADE;
-    const t = transfersAt({ stage }, 10 ** logF);
-    const values = figures.map((figure, k) => figure(t) - targets[k]);
-    values.forEach((value, k) => {
-      if (found[k] !== null || previous.values[k] <= 0 || value > 0) return;
-      if (!Number.isFinite(previous.logF)) {
-        found[k] = 10 ** logF;
-        return;
-      }
-      found[k] = 10 ** refineCrossing((x) => excess(figures[k], k, x), previous.logF, previous.values[k], logF, value);
-    });
-    previous.logF = logF;
-    previous.values = values.map((value, k) => (found[k] !== null ? -1 : value));
-  }
-  return found;
+  const gridLogF = (i: number) => Math.log10(LOWEST_CORNER_HZ) + i / CORNER_GRID_PER_DECADE;
+  // the stage keeps what it solved (SmallSignalStage.solvedAt): a grid point serves every figure
+  const gridTransfers = (i: number) => transfersAt({ stage }, 10 ** gridLogF(i));
+  return figures.map((figure) => {
+    const target = figureDb(figure, stage.low) - HALF_POWER_DB;
+    let first = 0;
+    while (first < steps && cannotHaveFallen(stage, figure, 2 * Math.PI * 10 ** gridLogF(first + 1))) first += 1;
+    if (!(figureDb(figure, gridTransfers(first)) - target > 0)) return first === 0 ? 10 ** gridLogF(0) : null;
+    for (let i = first + 1; i <= steps; i += 1) {
+      if (figureDb(figure, gridTransfers(i)) - target <= 0) return refinedCornerHz(stage, figure, 10 ** gridLogF(i - 1), 10 ** gridLogF(i));
+    }
+    return null;
+  });
 }
 
-/** The crossing of a decreasing function between a (value > 0) and b (value ≤ 0), Illinois regula falsi. */
+/** The figure as a power ratio: |N|²/|D|² (|N|² without a denominator). */
+function figurePower(figure: CornerFigure, t: StageTransfers): number {
+  const n = t[figure.numerator];
+  const power = n.re * n.re + n.im * n.im;
+  if (!figure.denominator) return power;
+  const d = t[figure.denominator];
+  return power / (d.re * d.re + d.im * d.im);
+}
+
+/**
+ * The corner between two grid frequencies (the figure above its target at `aboveHz`, at or below
+ * at `belowHz`): the root of 2 − P0/P(f) in v = f², P the figure as a power ratio (figurePower,
+ * P0 at low frequency), which is 3 dB down where it is 0. For a single pole or zero P0/P is
+ * 1 + f²/fc², linear in f², so the interpolation steps land on the corner at once; a real stage
+ * is close to that near its corner.
+ */
+function refinedCornerHz(stage: SmallSignalStage, figure: CornerFigure, aboveHz: number, belowHz: number): number {
+  const lowPower = figurePower(figure, stage.low);
+  const shortfall = (v: number) => 2 - lowPower / figurePower(figure, transfersAt({ stage }, Math.sqrt(v)));
+  const a = aboveHz * aboveHz;
+  const b = belowHz * belowHz;
+  const fa = shortfall(a);
+  const fb = shortfall(b);
+  // The grid decided on the figure in dB; should rounding put an end exactly on the corner, that end is it
+  if (!(fa > 0)) return aboveHz;
+  if (fb > 0) return belowHz;
+  return Math.sqrt(refineCrossing(shortfall, a, fa, b, fb));
+}
+
+/**
+ * The crossing of f between a (f(a) > 0) and b (f(b) ≤ 0), to CORNER_RELATIVE_TOLERANCE of x:
+ * Brent's method (inverse quadratic or secant steps, bisection when they stall), which keeps
+ * the crossing bracketed (R. P. Brent, Algorithms for Minimization without Derivatives, 1973,
+ * ch. 4).
+ */
 function refineCrossing(f: (x: number) => number, a: number, fa: number, b: number, fb: number): number {
-  let side = 0;
-  for (let step = 0; step < CORNER_MAX_STEPS && b - a > CORNER_RELATIVE_TOLERANCE / Math.LN10; step += 1) {
-    const x = (a * fb - b * fa) / (fb - fa);
-    const fx = f(x);
-    if (fx > 0) {
-      a = x;
-      fa = fx;
-      if (side === -1) fb /= 2;
-      side = -1;
-    } else {
-      b = x;
-      fb = fx;
-      if (side === 1) fa /= 2;
-      side = 1;
+  // b: the best estimate; c: the other end of the bracket; a: the previous b
+  let c = a;
+  let fc = fa;
+  let d = b - a;
+  let e = d;
+  for (let step = 0; step < CORNER_MAX_STEPS; step += 1) {
+    if (Math.abs(fc) < Math.abs(fb)) {
+      a = b;
+      b = c;
+      c = a;
+      fa = fb;
+      fb = fc;
+      fc = fa;
     }
-    if (fx === 0) return x;
+    // half the bracket to within the tolerance: in v = f², (CORNER_RELATIVE_TOLERANCE / 2)·v keeps f to CORNER_RELATIVE_TOLERANCE / 2
+    const tolerance = (CORNER_RELATIVE_TOLERANCE / 2) * Math.abs(b);
+    const half = (c - b) / 2;
+    if (Math.abs(half) <= tolerance || fb === 0) return b;
+    if (Math.abs(e) >= tolerance && Math.abs(fa) > Math.abs(fb)) {
+      // Interpolate: secant when only two points are distinct, else inverse quadratic
+      const s = fb / fa;
+      let p: number;
+      let q: number;
+      if (a === c) {
+        p = 2 * half * s;
+        q = 1 - s;
+      } else {
+        const r = fb / fc;
+        const t = fa / fc;
+        p = s * (2 * half * t * (t - r) - (b - a) * (r - 1));
+        q = (t - 1) * (r - 1) * (s - 1);
+      }
+      if (p > 0) q = -q;
+      else p = -p;
+      // Accept the step only when it stays well inside the bracket and shrinks fast enough
+      if (2 * p < Math.min(3 * half * q - Math.abs(tolerance * q), Math.abs(e * q))) {
+        e = d;
+        d = p / q;
+      } else {
+        d = half;
+        e = d;
+      }
+    } else {
+      d = half;
+      e = d;
+    }
+    a = b;
+    fa = fb;
+    b += Math.abs(d) > tolerance ? d : Math.sign(half) * tolerance;
+    fb = f(b);
+    // Keep the crossing between b and c
+    if (fb > 0 === fc > 0) {
+      c = a;
+      fc = fa;
+      d = b - a;
+      e = d;
+    }
   }
-  return (a * fb - b * fa) / (fb - fa);
+  return b;
 }
 
 /** The `ac` entries at the requested frequencies. */
@@ -338,8 +422,7 @@ export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedC
   } catch (error) {
     throw error instanceof ConvergenceError ? withHardFields(error, design) : error;
   }
-  const parameters = resolvedParameters(cardOf(design.device));
-  return { design, model, op, stage: smallSignalStage(op, circuit.driveNodes, parameters, temperatureC) };
+  return { design, model, op, stage: smallSignalStage(op, circuit.driveNodes, model.parameters, temperatureC) };
 }
 
 /** The contract's figures of a solved circuit, and its operating-point problems as figures. */
@@ -355,8 +438,8 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): { result: An
   const referenceCurrentA = currentIntoElementsA(op, RAIL_NODES.positive, true);
   const positiveA = currentIntoElementsA(op, RAIL_NODES.positive, false);
   const negativeA = currentIntoElementsA(op, RAIL_NODES.negative, false);
-  const low = transfersAt({ stage }, 0);
-  const [differentialBandwidthHz, cornerHz] = cornersHz(stage, [DIFFERENTIAL_GAIN_DB, SINGLE_ENDED_CMRR_DB]);
+  const low = stage.low;
+  const [differentialBandwidthHz, cornerHz] = cornersHz(stage, [DIFFERENTIAL_GAIN, SINGLE_ENDED_CMRR]);
   const cmrrSingleDb = 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re));
   const matched = Math.abs(low.differentialCommonModeGain.re) <= MATCHED_PAIR_RATIO * Math.abs(low.commonModeGain.re);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);

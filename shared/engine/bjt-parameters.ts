@@ -101,13 +101,17 @@ export function cardOf(device: DeviceParams): BjtModelCard {
   return card;
 }
 
+/** Every parameter at its default, built once (resolvedParameters copies it). */
+const DEFAULT_PARAMETERS = Object.fromEntries(BJT_PARAMETER_NAMES.map((name) => [name, BJT_PARAMETERS[name].default])) as BjtParameters;
+
 /** Every parameter at 27 °C (TNOM): the card's values over ngspice's defaults, 0 read as infinite where SPICE does. */
 export function resolvedParameters(card: BjtModelCard): BjtParameters {
-  const out = {} as BjtParameters;
-  for (const name of BJT_PARAMETER_NAMES) {
-    const info = BJT_PARAMETERS[name];
-    const given = card[name];
-    out[name] = given === undefined || (info.zeroMeansInfinite && given === 0) ? info.default : given;
+  const out = { ...DEFAULT_PARAMETERS };
+  // Only the card's own parameters (a card is a few of the names): the defaults stand for the rest
+  for (const name of Object.keys(card)) {
+    if (!Object.hasOwn(BJT_PARAMETERS, name)) continue;
+    const given = card[name as BjtParameterName];
+    if (given !== undefined && !(BJT_PARAMETERS[name as BjtParameterName].zeroMeansInfinite && given === 0)) out[name as BjtParameterName] = given;
   }
   return out;
 }

@@ -6,7 +6,7 @@
  * are the frequency analysis's. Callers use only `DeviceModel`, so another family (MOS) can join
  * behind the same interface.
  */
-import { cardOf, resolvedParameters } from './bjt-parameters';
+import { cardOf, resolvedParameters, type BjtParameters } from './bjt-parameters';
 import type { DeviceParams } from './types';
 import {
   DEFAULT_VCE_SAT_V,
@@ -64,6 +64,8 @@ export interface DeviceModel {
   criticalVoltageV: number;
   /** RB, RE, RC of a transistor of area 1 (a transistor of area A has them divided by A) [SPICE]. */
   ohmic: OhmicResistances;
+  /** Every parameter of the card at 27 °C (resolvedParameters), for what else reads them (the junction charges). */
+  parameters: BjtParameters;
   /** Currents and derivatives for junction voltages vbe, vbc (internal nodes) and an area factor. */
   evaluate(vbeV: number, vbcV: number, area: number): BjtEval;
 }
@@ -148,6 +150,7 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
     // vcrit = VT·ln(VT/(√2·IS)) as in SPICE's junction limiting [SPICE]
     criticalVoltageV: vtV * Math.log(vtV / (Math.SQRT2 * isA)),
     ohmic: { baseOhm: p.RB, emitterOhm: p.RE, collectorOhm: p.RC },
+    parameters: p,
     evaluate(vbeV, vbcV, area) {
       const be = junction(isA * area, vbeV, vtfV);
       const bc = junction(isA * area, vbcV, vtrV);

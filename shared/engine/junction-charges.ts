@@ -120,16 +120,19 @@ export function substrateCapacitanceF(junction: DepletionJunction, czF: number, 
 }
 
 /**
- * The bias the diffusion capacitances are taken from: the junction voltages, and the transport
- * terms of the device's own evaluation there (`BjtEval`, device.ts), so the charges and the
- * currents come from one computation.
+ * The transport terms the diffusion capacitances are taken from: those of the device's own
+ * evaluation at the junction voltages (`BjtEval`, device.ts), so the charges and the currents
+ * come from one computation.
  */
-export type TransportBias = Pick<BjtEval, 'forwardA' | 'forwardS' | 'reverseA' | 'reverseS' | 'qb' | 'dqbDVbe' | 'dqbDVbc'> & {
+export type TransportTerms = Pick<BjtEval, 'forwardA' | 'forwardS' | 'reverseA' | 'reverseS' | 'qb' | 'dqbDVbe' | 'dqbDVbc'>;
+
+/** The junction voltages at the internal nodes, V. */
+export interface JunctionBias {
   vbeV: number;
   vbcV: number;
   /** v(substrate) − v(internal collector), V. */
   vsubV: number;
-};
+}
 
 /** A transistor's small-signal capacitances at its operating point. */
 export interface TransistorCapacitances {
@@ -147,21 +150,21 @@ export interface TransistorCapacitances {
 }
 
 /** Every capacitance of one transistor (area factor `area`) at its bias [SPICE] bjtload.c. */
-export function transistorCapacitances(c: ChargeParameters, bias: TransportBias, area: number): TransistorCapacitances {
+export function transistorCapacitances(c: ChargeParameters, transport: TransportTerms, bias: JunctionBias, area: number): TransistorCapacitances {
   const tf = c.transitTimeForwardS;
   const tr = c.transitTimeReverseS;
   const fc = c.forwardBiasCoefficient;
-  let forwardS = bias.forwardS;
+  let forwardS = transport.forwardS;
   let perVbcF = 0;
   // The forward diffusion charge TF·(forward current)/qb in forward bias; its derivatives in vbe and vbc.
   if (tf !== 0 && bias.vbeV > 0) {
-    const forwardOverQbA = bias.forwardA / bias.qb;
-    forwardS = (bias.forwardS - forwardOverQbA * bias.dqbDVbe) / bias.qb;
-    perVbcF = (tf * -forwardOverQbA * bias.dqbDVbc) / bias.qb;
+    const forwardOverQbA = transport.forwardA / transport.qb;
+    forwardS = (transport.forwardS - forwardOverQbA * transport.dqbDVbe) / transport.qb;
+    perVbcF = (tf * -forwardOverQbA * transport.dqbDVbc) / transport.qb;
   }
   return {
     baseEmitterF: tf * forwardS + depletionCapacitanceF(c.baseEmitter, c.baseEmitter.zeroBiasF * area, fc, bias.vbeV),
-    baseCollectorF: tr * bias.reverseS + depletionCapacitanceF(c.baseCollector, c.baseCollector.zeroBiasF * area, fc, bias.vbcV),
+    baseCollectorF: tr * transport.reverseS + depletionCapacitanceF(c.baseCollector, c.baseCollector.zeroBiasF * area, fc, bias.vbcV),
     collectorSubstrateF: substrateCapacitanceF(c.collectorSubstrate, c.collectorSubstrate.zeroBiasF * area, bias.vsubV),
     baseEmitterPerVbcF: perVbcF,
   };

@@ -315,18 +315,20 @@ export interface MonteCarloSample {
  */
 export function monteCarloSample(draws: MonteCarloDraws, i: number, sigmas: MismatchSigmas, thermalVoltageV: number): MonteCarloSample {
   const resistorSigma = sigmas.resistorTolerance / SIGMAS_PER_TOLERANCE;
+  const mismatches: [number, number, number, number] = [0, 0, 0, 0];
+  monteCarloMismatches(draws, i, sigmas, thermalVoltageV, mismatches);
+  return { load1Scale: 1 + resistorSigma * draws.normals[3 * i], load2Scale: 1 + resistorSigma * draws.normals[3 * i + 1], mismatches };
+}
+
+/** Sample `i`'s four mismatches (as monteCarloSample), written into `x`: the Monte Carlo's inner loop allocates nothing. */
+function monteCarloMismatches(draws: MonteCarloDraws, i: number, sigmas: MismatchSigmas, thermalVoltageV: number, x: [number, number, number, number]): void {
+  const resistorSigma = sigmas.resistorTolerance / SIGMAS_PER_TOLERANCE;
   const load1Scale = 1 + resistorSigma * draws.normals[3 * i];
   const load2Scale = 1 + resistorSigma * draws.normals[3 * i + 1];
-  return {
-    load1Scale,
-    load2Scale,
-    mismatches: [
-      load2Scale / load1Scale - 1,
-      Math.exp((sigmas.vbeSigmaV * draws.normals[3 * i + 2]) / thermalVoltageV) - 1,
-      sigmas.betaSigma * draws.deviceNormals[2 * i],
-      sigmas.earlyVoltageSigma * draws.deviceNormals[2 * i + 1],
-    ],
-  };
+  x[0] = load2Scale / load1Scale - 1;
+  x[1] = Math.exp((sigmas.vbeSigmaV * draws.normals[3 * i + 2]) / thermalVoltageV) - 1;
+  x[2] = sigmas.betaSigma * draws.deviceNormals[2 * i];
+  x[3] = sigmas.earlyVoltageSigma * draws.deviceNormals[2 * i + 1];
 }
 
 /**
@@ -337,9 +339,11 @@ export function monteCarloSample(draws: MonteCarloDraws, i: number, sigmas: Mism
 export function monteCarloCmrr(s: MismatchSensitivity, draws: MonteCarloDraws, sigmas: MismatchSigmas, requiredDb: number): MonteCarloResult {
   const { samples } = draws;
   const values = new Float64Array(samples);
+  const x: [number, number, number, number] = [0, 0, 0, 0];
   let passing = 0;
   for (let i = 0; i < samples; i += 1) {
-    const db = mismatchCmrrDb(s, monteCarloSample(draws, i, sigmas, s.thermalVoltageV).mismatches);
+    monteCarloMismatches(draws, i, sigmas, s.thermalVoltageV, x);
+    const db = mismatchCmrrDb(s, x);
     values[i] = Number.isFinite(db) ? db : Number.MAX_VALUE;
     if (db >= requiredDb) passing += 1;
   }

@@ -3,7 +3,7 @@
  * (linearised at junction voltages) into the node conductance matrix. Shared by the DC
  * operating-point solve (Newton) and the small-signal solve (the Jacobian at the solution).
  */
-import type { StageCircuit } from './circuit';
+import type { StageCircuit, TransistorElement } from './circuit';
 import { GMIN_S } from './constants';
 import type { BjtEval, DeviceModel, OhmicResistances } from './device';
 import { zeros } from './linear-solve';
@@ -74,48 +74,31 @@ const NO_OHMIC: OhmicResistances = { baseOhm: 0, emitterOhm: 0, collectorOhm: 0 
 export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO_OHMIC, ownModels: Readonly<Record<string, DeviceModel>> = {}): IndexedCircuit {
   const fixedNodes = Object.keys(circuit.fixedNodesV);
   const fixedV = fixedNodes.map((n) => circuit.fixedNodesV[n]);
-  const freeNodes: string[] = [];
-  const refs = new Map<string, NodeRef>();
-  fixedNodes.forEach((n, i) => refs.set(n, -i - 1));
-  const ref = (name: string): NodeRef => {
-    let r = refs.get(name);
-    if (r === undefined) {
-      r = freeNodes.length;
-      freeNodes.push(name);
-      refs.set(name, r);
-    }
-    return r;
-  };
+  const table: NodeTable = { refs: new Map(), freeNodes: [], terminalOf: [] };
+  fixedNodes.forEach((n, i) => table.refs.set(n, -i - 1));
   const resistors: IndexedResistor[] = [];
   const transistors: IndexedTransistor[] = [];
   const capacitors: IndexedCapacitor[] = [];
-  const terminalOf: (NodeRef | undefined)[] = [];
   for (const el of circuit.elements) {
     if (el.kind === 'resistor') {
-      resistors.push({ name: el.name, a: ref(el.nodes[0]), b: ref(el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
+      resistors.push({ name: el.name, a: refOf(table, el.nodes[0]), b: refOf(table, el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
     } else if (el.kind === 'npn') {
       const tail = el.part === 'tail';
-      const c = ref(el.collector);
-      const b = ref(el.base);
-      const e = ref(el.emitter);
-      const internal = (terminal: NodeRef, suffix: string, resistanceOhm: number): NodeRef => {
-        if (!(resistanceOhm > 0)) return terminal;
-        const node = ref(`${el.name}:${suffix}'`);
-        terminalOf[node] = terminal;
-        resistors.push({ name: `${el.name}.R${suffix.toUpperCase()}`, a: terminal, b: node, conductanceS: el.area / resistanceOhm, tail });
-        return node;
-      };
-      const ci = internal(c, 'c', ohmic.collectorOhm);
-      const bi = internal(b, 'b', ohmic.baseOhm);
-      const ei = internal(e, 'e', ohmic.emitterOhm);
-      const s = ref(el.substrate);
+      const c = refOf(table, el.collector);
+      const b = refOf(table, el.base);
+      const e = refOf(table, el.emitter);
+      const ci = internalNode(table, resistors, el, c, 'c', ohmic.collectorOhm);
+      const bi = internalNode(table, resistors, el, b, 'b', ohmic.baseOhm);
+      const ei = internalNode(table, resistors, el, e, 'e', ohmic.emitterOhm);
+      const s = refOf(table, el.substrate);
       resistors.push({ name: `${el.name}.GSUB`, a: ci, b: s, conductanceS: GMIN_S, tail });
       const own = ownModels[el.name];
       transistors.push({ name: el.name, c, b, e, ci, bi, ei, s, area: el.area, tail, ...(own ? { model: own } : {}) });
     } else {
-      capacitors.push({ name: el.name, a: ref(el.nodes[0]), b: ref(el.nodes[1]), capacitanceF: el.capacitanceF });
+      capacitors.push({ name: el.name, a: refOf(table, el.nodes[0]), b: refOf(table, el.nodes[1]), capacitanceF: el.capacitanceF });
     }
   }
+  const { refs, freeNodes } = table;
   return {
     freeNodes,
     fixedNodes,
@@ -123,13 +106,40 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
     resistors,
     transistors,
     capacitors,
-    terminalOf: freeNodes.map((_, k) => terminalOf[k]),
+    terminalOf: freeNodes.map((_, k) => table.terminalOf[k]),
     nodeRef(name) {
       const r = refs.get(name);
       if (r === undefined) throw new Error(`no node ${name}`);
       return r;
     },
   };
+}
+
+/** The node table `indexCircuit` builds: every node's reference, the free nodes in order, internal nodes' terminals. */
+interface NodeTable {
+  refs: Map<string, NodeRef>;
+  freeNodes: string[];
+  terminalOf: (NodeRef | undefined)[];
+}
+
+/** A node's reference, a new free node when it is not in the table yet. */
+function refOf(table: NodeTable, name: string): NodeRef {
+  let r = table.refs.get(name);
+  if (r === undefined) {
+    r = table.freeNodes.length;
+    table.freeNodes.push(name);
+    table.refs.set(name, r);
+  }
+  return r;
+}
+
+/** A transistor's internal node behind an ohmic resistance (`Q1:c'` joined to its terminal by R/A), or the terminal itself when R is 0. */
+function internalNode(table: NodeTable, resistors: IndexedResistor[], el: TransistorElement, terminal: NodeRef, suffix: string, resistanceOhm: number): NodeRef {
+  if (!(resistanceOhm > 0)) return terminal;
+  const node = refOf(table, `${el.name}:${suffix}'`);
+  table.terminalOf[node] = terminal;
+  resistors.push({ name: `${el.name}.R${suffix.toUpperCase()}`, a: terminal, b: node, conductanceS: el.area / resistanceOhm, tail: el.part === 'tail' });
+  return node;
 }
 
 /** Voltage of a node given the free-node vector. */

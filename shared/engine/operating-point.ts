@@ -14,6 +14,7 @@ import {
   evaluateTransistors,
   indexCircuit,
   junctionVoltages,
+  nodeVoltage,
   resetStamp,
   stampConductance,
   stampTransistor,
@@ -94,10 +95,12 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], sh
     let limited = false;
     for (let i = 0; i < nq; i += 1) {
       const q = ic.transistors[i];
-      const j = junctionVoltages(ic, v, q);
-      const vbeV = limitJunctionV(j.vbeV, vbeOld[i], model.thermalVoltageV, model.criticalVoltageV);
-      const vbcV = limitJunctionV(j.vbcV, vbcOld[i], model.thermalVoltageV, model.criticalVoltageV);
-      if (vbeV !== j.vbeV || vbcV !== j.vbcV) limited = true;
+      const vb = nodeVoltage(ic, v, q.bi);
+      const vbeNewV = vb - nodeVoltage(ic, v, q.ei);
+      const vbcNewV = vb - nodeVoltage(ic, v, q.ci);
+      const vbeV = limitJunctionV(vbeNewV, vbeOld[i], model.thermalVoltageV, model.criticalVoltageV);
+      const vbcV = limitJunctionV(vbcNewV, vbcOld[i], model.thermalVoltageV, model.criticalVoltageV);
+      if (vbeV !== vbeNewV || vbcV !== vbcNewV) limited = true;
       vbeOld[i] = vbeV;
       vbcOld[i] = vbcV;
       stampTransistor(stamp, q, (q.model ?? model).evaluate(vbeV, vbcV, q.area), vbeV, vbcV);

@@ -6,11 +6,12 @@
  * internal nodes when the model has RB, RC, RE; the substrate at the negative rail), plus the
  * circuit's capacitors (tail wiring, loads). At a frequency f the responses solve
  * (G + j·2πf·C)·x = −(G_fixed + j·2πf·C_fixed)·drive, as SPICE's AC analysis does
- * [SPICE] ngspice bjtacld.c. At f = 0, or when nothing stores charge, the real low-frequency
+ * [SPICE] ngspice bjtacld.c, through a reduction made once per operating point
+ * (frequency-response.ts). At f = 0, or when nothing stores charge, the real low-frequency
  * responses are the answer.
  */
 import { COLLECTOR_NODES, TAIL_NODE } from './circuit';
-import { solveComplex, type ComplexVector } from './complex-solve';
+import { readOutput, reducedFrequencyModel, transfersAtOmega, type FrequencyModel, type OutputWeights } from './frequency-response';
 import { chargeParameters, transistorCapacitances } from './junction-charges';
 import type { BjtParameters } from './bjt-parameters';
 import { luFactor, luSolve, zeros } from './linear-solve';
@@ -30,14 +31,14 @@ export interface Complex {
   im: number;
 }
 
-/** The stage's reactive part: G and C with their drive columns (row-major n × n, columns of length n). */
-export interface ReactiveStage {
-  n: number;
-  conductance: number[];
-  capacitance: number[];
-  /** Coefficients of the two drive nodes in G and C (currents leaving each free node per volt of drive). */
-  conductanceDrive: [number[], number[]];
-  capacitanceDrive: [number[], number[]];
+export type { OutputWeights } from './frequency-response';
+
+/** The contract's four transfers at one frequency: differential drive to c1 − c2 and to c1, common-mode drive to c1 and to c1 − c2. */
+export interface StageTransfers {
+  differentialGain: Complex;
+  singleEndedGain: Complex;
+  commonModeGain: Complex;
+  differentialCommonModeGain: Complex;
 }
 
 /** Node responses to the two drives at low frequency, and what the frequency solve needs. */
@@ -53,15 +54,34 @@ export interface SmallSignalStage {
   tailOutputResistanceOhm: number;
   /** The outputs the contract names: c1 alone and c1 − c2. */
   outputs: { collector1: OutputWeights; betweenCollectors: OutputWeights };
-  /** G and C for the frequency solve; null when nothing in the circuit stores charge. */
-  reactive: ReactiveStage | null;
+  /** The transfers at f = 0 (real). */
+  low: StageTransfers;
+  /**
+   * The reduced model the transfers at any frequency come from (drives: differential, common
+   * mode; outputs: c1, c1 − c2); null when nothing in the circuit stores charge.
+   */
+  frequency: FrequencyModel | null;
+  /**
+   * The transfers already solved, by frequency (Hz). The stage is never changed after it is
+   * built, so a frequency's transfers stay what they were: the corner searches' grid points and
+   * the `ac` entries or a rejection read twice at one frequency are solved once.
+   */
+  solvedAt: Map<number, StageTransfers>;
 }
 
-/** The drive responses at one frequency. */
-export interface StageResponses {
-  differential: ComplexVector;
-  commonMode: ComplexVector;
-}
+/** Where each transfer sits in the reduced model: its drive (0 differential, 1 common mode) and output (0 c1, 1 c1 − c2). */
+export const TRANSFER_PARTS: Readonly<Record<keyof StageTransfers, { drive: number; output: number }>> = {
+  differentialGain: { drive: 0, output: 1 },
+  singleEndedGain: { drive: 0, output: 0 },
+  commonModeGain: { drive: 1, output: 0 },
+  differentialCommonModeGain: { drive: 1, output: 1 },
+};
+
+/** The two drives, in the order of the reduced model: differential (+½, −½) and common mode (1, 1), V. */
+const DRIVES: readonly (readonly [number, number])[] = [
+  [0.5, -0.5],
+  [1, 1],
+];
 
 function stampJacobian(op: OperatingPoint, onlyTail: boolean): NodeStamp {
   const ic = op.circuit;
@@ -126,21 +146,22 @@ function capacitanceStamp(op: OperatingPoint, parameters: BjtParameters | null, 
   const charges = parameters ? chargeParameters(parameters, temperatureC) : null;
   if (parameters && charges && !charges.none) {
     const v = op.voltagesV;
-    ic.transistors.forEach((q, k) => {
+    for (let k = 0; k < ic.transistors.length; k += 1) {
+      const q = ic.transistors[k];
       // the junctions sit on the internal nodes (behind RB, RC, RE), the substrate at the negative rail
       const { bi: b, ci: c, ei: e, s } = q;
       const vb = nodeVoltage(ic, v, b);
       const vc = nodeVoltage(ic, v, c);
       // the transport terms of the device's own evaluation at the solution (the transistor's own model when it has one)
-      const bias = { ...op.transistors[k], vbeV: vb - nodeVoltage(ic, v, e), vbcV: vb - vc, vsubV: nodeVoltage(ic, v, s) - vc };
-      const caps = transistorCapacitances(charges, bias, q.area);
+      const bias = { vbeV: vb - nodeVoltage(ic, v, e), vbcV: vb - vc, vsubV: nodeVoltage(ic, v, s) - vc };
+      const caps = transistorCapacitances(charges, op.transistors[k], bias, q.area);
       if (caps.baseEmitterF !== 0) stampConductance(stamp, b, e, caps.baseEmitterF);
       if (caps.baseCollectorF !== 0) stampConductance(stamp, b, c, caps.baseCollectorF);
       if (caps.collectorSubstrateF !== 0) stampConductance(stamp, c, s, caps.collectorSubstrateF);
       // d(qbe)/d(vbc): a current jω·C·vbc leaving the internal base into the internal emitter
       if (caps.baseEmitterPerVbcF !== 0) stampControlled(stamp, b, e, b, c, caps.baseEmitterPerVbcF);
       any = true;
-    });
+    }
   }
   return any ? stamp : null;
 }
@@ -161,28 +182,38 @@ export function smallSignalStage(
   const n = stamper.n;
   const gDrive = driveColumns(ic, stamper, driveNodes);
   const cStamp = capacitanceStamp(op, parameters, temperatureC);
-  const reactive: ReactiveStage | null = cStamp
-    ? { n, conductance: stamper.matrix.slice(), capacitance: cStamp.matrix, conductanceDrive: gDrive, capacitanceDrive: driveColumns(ic, cStamp, driveNodes) }
-    : null;
   const factors = luFactor(stamper.matrix, n, true);
   const tailIndex = ic.nodeRef(TAIL_NODE);
   const c1 = ic.nodeRef(COLLECTOR_NODES[0]);
   const c2 = ic.nodeRef(COLLECTOR_NODES[1]);
+  const outputs = { collector1: { nodes: [c1], weights: [1] }, betweenCollectors: { nodes: [c1, c2], weights: [1, -1] } };
+  const differential = driveResponse(gDrive, factors, 0.5, -0.5);
+  const commonMode = driveResponse(gDrive, factors, 1, 1);
+  let frequency: FrequencyModel | null = null;
+  if (cStamp) {
+    const cDrive = driveColumns(ic, cStamp, driveNodes);
+    const capacitiveDrives = DRIVES.map(([d1, d2]) => {
+      const column = cDrive[0].map((x, row) => x * d1 + cDrive[1][row] * d2);
+      return column.some((x) => x !== 0) ? column : null;
+    });
+    frequency = reducedFrequencyModel(factors, cStamp.matrix, [differential, commonMode], capacitiveDrives, [outputs.collector1, outputs.betweenCollectors]);
+  }
   return {
-    outputs: { collector1: { nodes: [c1], weights: [1] }, betweenCollectors: { nodes: [c1, c2], weights: [1, -1] } },
-    differential: driveResponse(gDrive, factors, 0.5, -0.5),
-    commonMode: driveResponse(gDrive, factors, 1, 1),
+    outputs,
+    differential,
+    commonMode,
     tailIndex,
-    index: (node) => ic.nodeRef(node),
+    index: ic.nodeRef,
     tailOutputResistanceOhm: tailOutputResistanceOhm(op, tailIndex),
-    reactive,
+    low: {
+      differentialGain: { re: readOutput(differential, outputs.betweenCollectors), im: 0 },
+      singleEndedGain: { re: readOutput(differential, outputs.collector1), im: 0 },
+      commonModeGain: { re: readOutput(commonMode, outputs.collector1), im: 0 },
+      differentialCommonModeGain: { re: readOutput(commonMode, outputs.betweenCollectors), im: 0 },
+    },
+    frequency,
+    solvedAt: new Map(),
   };
-}
-
-/** An output as weights on collector-side free nodes, e.g. {c1: 1, c2: −1} for c1 − c2. */
-export interface OutputWeights {
-  nodes: number[];
-  weights: number[];
 }
 
 /** Resolves named output weights to node indexes once. */
@@ -191,40 +222,21 @@ export function outputWeights(stage: SmallSignalStage, weights: Record<string, n
   return { nodes: names.map((n) => stage.index(n)), weights: names.map((n) => weights[n]) };
 }
 
-/** The differential and common-mode responses at a frequency (Hz): one complex factorisation for both. */
-export function responsesAt(stage: SmallSignalStage, frequencyHz: number): StageResponses {
-  const reactive = stage.reactive;
-  if (!reactive || frequencyHz === 0) {
-    const n = stage.differential.length;
-    return { differential: { re: stage.differential, im: zeros(n) }, commonMode: { re: stage.commonMode, im: zeros(n) } };
-  }
-  const { n, conductance, capacitance, conductanceDrive: g, capacitanceDrive: c } = reactive;
-  const omega = 2 * Math.PI * frequencyHz;
-  const aRe = conductance.slice();
-  const aIm = new Array<number>(n * n);
-  for (let k = 0; k < n * n; k += 1) aIm[k] = omega * capacitance[k];
-  const drive = (d1: number, d2: number): ComplexVector => {
-    const re = zeros(n);
-    const im = zeros(n);
-    for (let row = 0; row < n; row += 1) {
-      re[row] = -(g[0][row] * d1 + g[1][row] * d2);
-      im[row] = -omega * (c[0][row] * d1 + c[1][row] * d2);
-    }
-    return { re, im };
+/** The four transfers at a frequency (Hz): the low-frequency ones at f = 0 or when nothing stores charge. */
+export function stageTransfersAt(stage: SmallSignalStage, frequencyHz: number): StageTransfers {
+  if (!stage.frequency || frequencyHz === 0) return stage.low;
+  const solved = stage.solvedAt.get(frequencyHz);
+  if (solved) return solved;
+  const t = transfersAtOmega(stage.frequency, 2 * Math.PI * frequencyHz);
+  const { differentialGain, singleEndedGain, commonModeGain, differentialCommonModeGain } = TRANSFER_PARTS;
+  const transfers: StageTransfers = {
+    differentialGain: t[differentialGain.drive][differentialGain.output],
+    singleEndedGain: t[singleEndedGain.drive][singleEndedGain.output],
+    commonModeGain: t[commonModeGain.drive][commonModeGain.output],
+    differentialCommonModeGain: t[differentialCommonModeGain.drive][differentialCommonModeGain.output],
   };
-  const [differential, commonMode] = solveComplex(aRe, aIm, n, [drive(0.5, -0.5), drive(1, 1)]);
-  return { differential, commonMode };
-}
-
-/** A transfer to an output from a response. */
-export function transferOf(response: ComplexVector, output: OutputWeights): Complex {
-  let re = 0;
-  let im = 0;
-  for (let k = 0; k < output.nodes.length; k += 1) {
-    re += output.weights[k] * response.re[output.nodes[k]];
-    im += output.weights[k] * response.im[output.nodes[k]];
-  }
-  return { re, im };
+  stage.solvedAt.set(frequencyHz, transfers);
+  return transfers;
 }
 
 /** Magnitude of a complex number. */

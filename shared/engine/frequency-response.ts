@@ -1,0 +1,316 @@
+/**
+ * The stage's transfers at any frequency from one reduction per operating point. The AC node
+ * equations (G + s·C)·x = −(g + s·c)·d (s = j·2πf; g, c the drive nodes' columns, d the drive)
+ * become, with G's factors, (I + s·A)·x = r0 + s·r1, A = G⁻¹·C, r0 = −G⁻¹·g·d, r1 = −G⁻¹·c·d.
+ * A has columns only at the nodes a capacitance touches (the set K), so only those k nodes
+ * couple over frequency: (I + s·A_KK)·x_K = r0_K + s·r1_K, and an output w reads
+ * wᵀx = wᵀr0 + s·wᵀr1 − s·(wᵀA_·K)·x_K. A_KK is brought to upper Hessenberg form once,
+ * H = Qᵀ·A_KK·Q (Householder reflections: Golub and Van Loan, Matrix Computations,
+ * 4th ed., §7.4.3), after which each frequency is a Hessenberg solve of (I + s·H)·y = Qᵀ(r0_K + s·r1_K),
+ * O(k²) instead of a dense complex factorisation, O(n³) (A. J. Laub, "Efficient
+ * multivariable frequency response computations", IEEE Trans. Automatic Control 26 (1981) 407–408).
+ * The algebra is exact: the transfers are those of SPICE's AC analysis [SPICE] ngspice bjtacld.c.
+ */
+import { luSolve, zeros, type LuFactors } from './linear-solve';
+
+/** Threshold below which a pivot's magnitude counts as zero: the system is singular. */
+const SINGULAR_PIVOT = 1e-300;
+
+/** An output as weights on free nodes, e.g. {c1: 1, c2: −1} for c1 − c2. */
+export interface OutputWeights {
+  nodes: number[];
+  weights: number[];
+}
+
+/** One drive's part of the reduced system. */
+interface ReducedDrive {
+  /** Qᵀ·r0_K and Qᵀ·r1_K. */
+  p0: Float64Array;
+  p1: Float64Array;
+  /** ‖r0_K‖ and ‖r1_K‖ (Euclidean; Q keeps them). */
+  p0Norm: number;
+  p1Norm: number;
+}
+
+/** One output's part of the reduced system. */
+interface ReducedOutput {
+  /** Qᵀ·(wᵀA_·K)ᵀ and its Euclidean norm. */
+  q: Float64Array;
+  qNorm: number;
+}
+
+/**
+ * The reduced frequency model of a stage: `transfer(d, w, f)` is output w's response to drive d
+ * at f. Built once per operating point (`reducedFrequencyModel`); read-only afterwards.
+ */
+export interface FrequencyModel {
+  /** Nodes coupled over frequency (those a capacitance touches). */
+  k: number;
+  /** Upper Hessenberg H, row-major k × k. */
+  hessenberg: Float64Array;
+  /** ‖H‖ (Frobenius, ≥ the 2-norm), for the bound on how far a transfer can move. */
+  hessenbergNorm: number;
+  drives: ReducedDrive[];
+  outputs: ReducedOutput[];
+  /** wᵀr0 and wᵀr1, [drive][output]: the low-frequency transfer and its direct s-term. */
+  low: number[][];
+  direct: number[][];
+}
+
+/** A complex value as real and imaginary parts. */
+export interface ComplexPair {
+  re: number;
+  im: number;
+}
+
+/** Σ weights·vector at the output's nodes. */
+export function readOutput(vector: readonly number[], output: OutputWeights): number {
+  let sum = 0;
+  for (let i = 0; i < output.nodes.length; i += 1) sum += output.weights[i] * vector[output.nodes[i]];
+  return sum;
+}
+
+function norm(vector: readonly number[]): number {
+  let sum = 0;
+  for (const x of vector) sum += x * x;
+  return Math.sqrt(sum);
+}
+
+/**
+ * Reduces A (k × k, row-major, overwritten with H) to upper Hessenberg form by Householder
+ * reflections P = I − 2·v·vᵀ/(vᵀv), A ← P·A·P (Golub and Van Loan §7.4.3), applying each P to `vectors` as
+ * well (they become Qᵀ·vector).
+ */
+function toHessenberg(a: number[], k: number, vectors: number[][]): void {
+  const v = zeros(k);
+  for (let col = 0; col < k - 2; col += 1) {
+    // The reflection that zeroes column `col` below its subdiagonal
+    let scale = 0;
+    for (let r = col + 1; r < k; r += 1) scale += Math.abs(a[r * k + col]);
+    if (scale === 0) continue;
+    let sigma = 0;
+    for (let r = col + 1; r < k; r += 1) {
+      v[r] = a[r * k + col] / scale;
+      sigma += v[r] * v[r];
+    }
+    // v = x − α·e1 with α = −sign(x1)·‖x‖ (no cancellation), so P·x = α·e1
+    const alpha = (v[col + 1] >= 0 ? -1 : 1) * Math.sqrt(sigma);
+    v[col + 1] -= alpha;
+    let vv = 0;
+    for (let r = col + 1; r < k; r += 1) vv += v[r] * v[r];
+    const beta = 2 / vv;
+    // A ← P·A (rows col+1…k−1)
+    for (let c = 0; c < k; c += 1) {
+      let dot = 0;
+      for (let r = col + 1; r < k; r += 1) dot += v[r] * a[r * k + c];
+      dot *= beta;
+      for (let r = col + 1; r < k; r += 1) a[r * k + c] -= dot * v[r];
+    }
+    // A ← A·P (columns col+1…k−1)
+    for (let r = 0; r < k; r += 1) {
+      let dot = 0;
+      for (let c = col + 1; c < k; c += 1) dot += a[r * k + c] * v[c];
+      dot *= beta;
+      for (let c = col + 1; c < k; c += 1) a[r * k + c] -= dot * v[c];
+    }
+    for (let r = col + 2; r < k; r += 1) a[r * k + col] = 0;
+    for (const x of vectors) {
+      let dot = 0;
+      for (let r = col + 1; r < k; r += 1) dot += v[r] * x[r];
+      dot *= beta;
+      for (let r = col + 1; r < k; r += 1) x[r] -= dot * v[r];
+    }
+  }
+}
+
+/**
+ * Builds the reduced model from G's factors, the capacitance matrix C (row-major n × n), the
+ * drives' right-hand sides r0 (the low-frequency responses) and their capacitive columns
+ * (c·d, length n, or null when no capacitance touches a drive node), and the outputs.
+ */
+export function reducedFrequencyModel(
+  factors: LuFactors,
+  capacitance: readonly number[],
+  lowResponses: readonly (readonly number[])[],
+  capacitiveDrives: readonly (readonly number[] | null)[],
+  outputs: readonly OutputWeights[],
+): FrequencyModel {
+  const n = factors.n;
+  // K: the nodes whose column of C is not empty
+  const coupled: number[] = [];
+  for (let col = 0; col < n; col += 1) {
+    for (let row = 0; row < n; row += 1) {
+      if (capacitance[row * n + col] !== 0) {
+        coupled.push(col);
+        break;
+      }
+    }
+  }
+  const k = coupled.length;
+  // A's columns at K: G⁻¹·C[:, K]
+  const columns = coupled.map((col) => {
+    const c = zeros(n);
+    for (let row = 0; row < n; row += 1) c[row] = capacitance[row * n + col];
+    return luSolve(factors, c);
+  });
+  const a = zeros(k * k);
+  for (let i = 0; i < k; i += 1) for (let j = 0; j < k; j += 1) a[i * k + j] = columns[j][coupled[i]];
+  // r1 = −G⁻¹·(c·d)
+  const r1s = capacitiveDrives.map((c) => (c ? luSolve(factors, c.map((x) => -x)) : zeros(n)));
+  // the vectors at K
+  const p0s = lowResponses.map((r0) => coupled.map((node) => r0[node]));
+  const p1s = r1s.map((r1) => coupled.map((node) => r1[node]));
+  // (wᵀA_·K)ᵀ for each output
+  const qs = outputs.map((w) => columns.map((column) => readOutput(column, w)));
+  const driveNorms = p0s.map((p0, d) => [norm(p0), norm(p1s[d])]);
+  const outputNorms = qs.map(norm);
+  toHessenberg(a, k, [...p0s, ...p1s, ...qs]);
+  return {
+    k,
+    hessenberg: Float64Array.from(a),
+    hessenbergNorm: norm(a),
+    drives: p0s.map((p0, d) => ({ p0: Float64Array.from(p0), p1: Float64Array.from(p1s[d]), p0Norm: driveNorms[d][0], p1Norm: driveNorms[d][1] })),
+    outputs: qs.map((q, w) => ({ q: Float64Array.from(q), qNorm: outputNorms[w] })),
+    low: lowResponses.map((r0) => outputs.map((w) => readOutput(r0, w))),
+    direct: r1s.map((r1) => outputs.map((w) => readOutput(r1, w))),
+  };
+}
+
+/** Working arrays of the frequency solve, one set per model size (reused: the solve runs to completion before the next). */
+interface Workspace {
+  mRe: Float64Array;
+  mIm: Float64Array;
+  yRe: Float64Array;
+  yIm: Float64Array;
+}
+
+const workspaces = new Map<number, Workspace>();
+
+function workspace(k: number, drives: number): Workspace {
+  const size = k * 1000 + drives;
+  let w = workspaces.get(size);
+  if (!w) {
+    w = { mRe: new Float64Array(k * k), mIm: new Float64Array(k * k), yRe: new Float64Array(drives * k), yIm: new Float64Array(drives * k) };
+    workspaces.set(size, w);
+  }
+  return w;
+}
+
+/**
+ * Every output's response to every drive at angular frequency ω (rad/s), [drive][output]:
+ * (I + jω·H)·y = p0 + jω·p1 by Gaussian elimination on the Hessenberg form (each step pivots
+ * between two rows), then wᵀr0 + jω·wᵀr1 − jω·qᵀy. Throws when the system is singular.
+ */
+export function transfersAtOmega(model: FrequencyModel, omega: number): ComplexPair[][] {
+  const { k, hessenberg: h } = model;
+  const nd = model.drives.length;
+  const { mRe, mIm, yRe, yIm } = workspace(k, nd);
+  // I + jω·H, and the right-hand sides (drive d at d·k…d·k + k − 1), as real and imaginary parts
+  for (let i = 0; i < k * k; i += 1) {
+    mRe[i] = 0;
+    mIm[i] = omega * h[i];
+  }
+  for (let i = 0; i < k; i += 1) mRe[i * k + i] = 1;
+  for (let d = 0; d < nd; d += 1) {
+    const { p0, p1 } = model.drives[d];
+    for (let i = 0; i < k; i += 1) {
+      yRe[d * k + i] = p0[i];
+      yIm[d * k + i] = omega * p1[i];
+    }
+  }
+  for (let col = 0; col < k; col += 1) {
+    const below = col + 1;
+    const pivotRow = col * k;
+    const belowRow = below * k;
+    if (below < k && Math.abs(mRe[belowRow + col]) + Math.abs(mIm[belowRow + col]) > Math.abs(mRe[pivotRow + col]) + Math.abs(mIm[pivotRow + col])) {
+      for (let c = col; c < k; c += 1) {
+        let t = mRe[pivotRow + c];
+        mRe[pivotRow + c] = mRe[belowRow + c];
+        mRe[belowRow + c] = t;
+        t = mIm[pivotRow + c];
+        mIm[pivotRow + c] = mIm[belowRow + c];
+        mIm[belowRow + c] = t;
+      }
+      for (let d = 0; d < nd; d += 1) {
+        let t = yRe[d * k + col];
+        yRe[d * k + col] = yRe[d * k + below];
+        yRe[d * k + below] = t;
+        t = yIm[d * k + col];
+        yIm[d * k + col] = yIm[d * k + below];
+        yIm[d * k + below] = t;
+      }
+    }
+    const pr = mRe[pivotRow + col];
+    const pi = mIm[pivotRow + col];
+    if (!(Math.abs(pr) + Math.abs(pi) > SINGULAR_PIVOT)) throw new Error('singular node system');
+    if (below === k) break;
+    const lr0 = mRe[belowRow + col];
+    const li0 = mIm[belowRow + col];
+    if (lr0 === 0 && li0 === 0) continue;
+    // l = m[below][col] / pivot
+    const pp = pr * pr + pi * pi;
+    const lr = (lr0 * pr + li0 * pi) / pp;
+    const li = (li0 * pr - lr0 * pi) / pp;
+    for (let c = below; c < k; c += 1) {
+      const ur = mRe[pivotRow + c];
+      const ui = mIm[pivotRow + c];
+      mRe[belowRow + c] -= lr * ur - li * ui;
+      mIm[belowRow + c] -= lr * ui + li * ur;
+    }
+    for (let d = 0; d < nd; d += 1) {
+      const br = yRe[d * k + col];
+      const bi = yIm[d * k + col];
+      yRe[d * k + below] -= lr * br - li * bi;
+      yIm[d * k + below] -= lr * bi + li * br;
+    }
+  }
+  // Back substitution (upper triangular now)
+  for (let d = 0; d < nd; d += 1) {
+    const base = d * k;
+    for (let r = k - 1; r >= 0; r -= 1) {
+      let sr = yRe[base + r];
+      let si = yIm[base + r];
+      for (let c = r + 1; c < k; c += 1) {
+        const ar = mRe[r * k + c];
+        const ai = mIm[r * k + c];
+        sr -= ar * yRe[base + c] - ai * yIm[base + c];
+        si -= ar * yIm[base + c] + ai * yRe[base + c];
+      }
+      const pr = mRe[r * k + r];
+      const pi = mIm[r * k + r];
+      const pp = pr * pr + pi * pi;
+      yRe[base + r] = (sr * pr + si * pi) / pp;
+      yIm[base + r] = (si * pr - sr * pi) / pp;
+    }
+  }
+  const result: ComplexPair[][] = [];
+  for (let d = 0; d < nd; d += 1) {
+    const row: ComplexPair[] = [];
+    for (let w = 0; w < model.outputs.length; w += 1) {
+      const q = model.outputs[w].q;
+      let qyRe = 0;
+      let qyIm = 0;
+      for (let i = 0; i < k; i += 1) {
+        qyRe += q[i] * yRe[d * k + i];
+        qyIm += q[i] * yIm[d * k + i];
+      }
+      // wᵀr0 + jω·wᵀr1 − jω·(qyRe + j·qyIm)
+      row.push({ re: model.low[d][w] + omega * qyIm, im: omega * (model.direct[d][w] - qyRe) });
+    }
+    result.push(row);
+  }
+  return result;
+}
+
+/**
+ * An upper bound on |transfer(ω) − transfer(0)| for drive d and output w: with ‖s·H‖ < 1,
+ * ‖(I + s·H)⁻¹‖ ≤ 1/(1 − |s|·‖H‖) (Neumann series), so
+ *   |s·wᵀr1 − s·qᵀy| ≤ ω·|wᵀr1| + ω·‖q‖·(‖p0‖ + ω·‖p1‖)/(1 − ω·‖H‖).
+ * Infinity where the series does not converge (ω·‖H‖ ≥ 1).
+ */
+export function transferMoveBound(model: FrequencyModel, drive: number, output: number, omega: number): number {
+  const shrink = 1 - omega * model.hessenbergNorm;
+  if (!(shrink > 0)) return Infinity;
+  const { p0Norm, p1Norm } = model.drives[drive];
+  return omega * Math.abs(model.direct[drive][output]) + (omega * model.outputs[output].qNorm * (p0Norm + omega * p1Norm)) / shrink;
+}
