@@ -172,7 +172,7 @@ function frequencyGrid(): number[] {
 function curveGrid(solution: Pick<StageSolution, 'stage' | 'design'>): number[] {
   const grid = frequencyGrid();
   if (!cardStoresCharge(cardOf(solution.design.device))) return grid.filter((f) => f <= CURVE_STOP_WITHOUT_DEVICE_CHARGE_HZ * (1 + 1e-9));
-  if (!solution.stage.reactive) return grid;
+  if (!solution.stage.frequency) return grid;
   const lowDb = 20 * Math.log10(magnitude(transfersAt(solution, 0).differentialGain));
   const kept: number[] = [];
   for (const frequencyHz of grid) {

@@ -185,8 +185,8 @@ function circuitElements(solved: SolvedCircuit): CircuitElements {
       const { bi: b, ci: c, ei: e, s } = q;
       const vb = nodeVoltage(ic, v, b);
       const vc = nodeVoltage(ic, v, c);
-      const bias = { ...op.transistors[k], vbeV: vb - nodeVoltage(ic, v, e), vbcV: vb - vc, vsubV: nodeVoltage(ic, v, s) - vc };
-      const caps = transistorCapacitances(charges, bias, q.area);
+      const bias = { vbeV: vb - nodeVoltage(ic, v, e), vbcV: vb - vc, vsubV: nodeVoltage(ic, v, s) - vc };
+      const caps = transistorCapacitances(charges, op.transistors[k], bias, q.area);
       const side = q.tail ? 'tail' : 'pair';
       const piece = (part: RejectionLimitPart, capacitance: Entry[], valueF: number) => {
         if (valueF !== 0) elements.push({ part, shown: { name: q.name, capacitanceF: valueF }, conductance: [], capacitance });
