@@ -36,6 +36,7 @@ export {
   REFERENCE_RELATIVE_TOLERANCE,
   complexMagnitude,
   dropFrequencyHz,
+  singleFrequencySweep,
   type AcOptions,
   type Complex,
   type SpiceAc,

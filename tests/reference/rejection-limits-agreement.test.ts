@@ -23,7 +23,7 @@ import { stageCircuit } from '#shared/engine/circuit';
 import { SPICE_MODEL_NAME, spiceNetlist } from '#shared/engine/netlist';
 import { rejectionLimits, tailImpedanceOhm, type RejectionLimit, type RejectionLimitPart } from '#shared/engine/rejection-limits';
 import type { Design, DeviceParams, OutputKind } from '#shared/engine/types';
-import { REFERENCE_RELATIVE_TOLERANCE, complexMagnitude, runSpice, spiceAc, spiceOperatingPoint, startSpice } from '../helpers/spice';
+import { REFERENCE_RELATIVE_TOLERANCE, complexMagnitude, runSpice, singleFrequencySweep, spiceAc, spiceOperatingPoint, startSpice } from '../helpers/spice';
 
 const ENGINE_START_TIMEOUT_MS = 120_000;
 const SAME_MODEL_DB = 0.01;
@@ -98,7 +98,7 @@ function scaledCard(cardLine: string, name: string, parameters: readonly string[
 
 /** The netlist of one AC drive at one frequency, with `part` scaled by `factor` (0: removed). */
 function changedNetlist(design: Design, analysis: 'ac-differential' | 'ac-common-mode', frequencyHz: number, part: RejectionLimitPart | null, factor: number): string {
-  const text = spiceNetlist(design, { analysis, startHz: frequencyHz, stopHz: frequencyHz, pointsPerDecade: 1, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
+  const text = spiceNetlist(design, { analysis, ...singleFrequencySweep(frequencyHz), relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
   if (part === null) return text;
   const lines = text.split('\n');
   const capacitors = CAPACITOR_PARTS[part];
@@ -172,7 +172,7 @@ describe('what limits the rejection, against ngspice with each part removed or c
     test('the tail’s impedance at the frequency: the tail alone with an AC source on its node', async () => {
       const solved = solveStage(design);
       const op = await spiceOperatingPoint(design);
-      const tail = await spiceAc(design, { analysis: 'ac-tail', tailNodeV: op.nodeVoltagesV.t, startHz: frequencyHz, stopHz: frequencyHz, pointsPerDecade: 1 });
+      const tail = await spiceAc(design, { analysis: 'ac-tail', tailNodeV: op.nodeVoltagesV.t, ...singleFrequencySweep(frequencyHz) });
       const simulatedOhm = 1 / complexMagnitude(tail.sourceCurrents.vtail[0]);
       const predictedOhm = tailImpedanceOhm(solved, frequencyHz);
       expect(Math.abs(predictedOhm / simulatedOhm - 1), `${predictedOhm} Ω vs ngspice ${simulatedOhm} Ω`).toBeLessThanOrEqual(SAME_MODEL_IMPEDANCE);
