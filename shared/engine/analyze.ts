@@ -210,7 +210,8 @@ function cornersHz(stage: SmallSignalStage, figures: readonly CornerFigure[]): (
     const target = figureDb(figure, stage.low) - HALF_POWER_DB;
     let first = 0;
     while (first < steps && cannotHaveFallen(stage, figure, 2 * Math.PI * 10 ** gridLogF(first + 1))) first += 1;
-    if (!(figureDb(figure, gridTransfers(first)) - target > 0)) return first === 0 ? 10 ** gridLogF(0) : null;
+    // a grid point the bound passed is above the target: only the lowest needs a solve to tell
+    if (first === 0 && !(figureDb(figure, gridTransfers(0)) - target > 0)) return 10 ** gridLogF(0);
     for (let i = first + 1; i <= steps; i += 1) {
       if (figureDb(figure, gridTransfers(i)) - target <= 0) return refinedCornerHz(stage, figure, 10 ** gridLogF(i - 1), 10 ** gridLogF(i));
     }

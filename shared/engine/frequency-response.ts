@@ -37,6 +37,22 @@ interface ReducedOutput {
   /** Qᵀ·(wᵀA_·K)ᵀ and its Euclidean norm. */
   q: Float64Array;
   qNorm: number;
+  /** ‖Hᵀ·q‖ and ‖(Hᵀ)²·q‖ (Euclidean), for the remainders of the transfer's series. */
+  hqNorm: number;
+  h2qNorm: number;
+}
+
+/**
+ * A transfer's first three Taylor coefficients in s about s = 0, exact:
+ * transfer(s) − transfer(0) = s·first + s²·second + s³·third + s³·qᵀH²(I + s·H)⁻¹(p0 + s·p1)·(−1).
+ */
+export interface TransferSeries {
+  /** wᵀr1 − qᵀp0 */
+  first: number;
+  /** qᵀH·p0 − qᵀp1 */
+  second: number;
+  /** qᵀH·p1 */
+  third: number;
 }
 
 /**
@@ -55,6 +71,8 @@ export interface FrequencyModel {
   /** wᵀr0 and wᵀr1, [drive][output]: the low-frequency transfer and its direct s-term. */
   low: number[][];
   direct: number[][];
+  /** Each transfer's Taylor coefficients, [drive][output] (transferMoveBound). */
+  series: TransferSeries[][];
 }
 
 /** A complex value as real and imaginary parts. */
@@ -70,10 +88,36 @@ export function readOutput(vector: readonly number[], output: OutputWeights): nu
   return sum;
 }
 
-function norm(vector: readonly number[]): number {
+function norm(vector: ArrayLike<number>): number {
   let sum = 0;
-  for (const x of vector) sum += x * x;
+  for (let i = 0; i < vector.length; i += 1) sum += vector[i] * vector[i];
   return Math.sqrt(sum);
+}
+
+function dot(a: ArrayLike<number>, b: ArrayLike<number>): number {
+  let sum = 0;
+  for (let i = 0; i < a.length; i += 1) sum += a[i] * b[i];
+  return sum;
+}
+
+/** H·x for the upper Hessenberg H (k × k, row-major). */
+function hessenbergTimes(h: ArrayLike<number>, k: number, x: ArrayLike<number>): number[] {
+  const y = zeros(k);
+  for (let r = 0; r < k; r += 1) {
+    let sum = 0;
+    for (let c = Math.max(r - 1, 0); c < k; c += 1) sum += h[r * k + c] * x[c];
+    y[r] = sum;
+  }
+  return y;
+}
+
+/** Hᵀ·x for the upper Hessenberg H (k × k, row-major). */
+function hessenbergTransposeTimes(h: ArrayLike<number>, k: number, x: ArrayLike<number>): number[] {
+  const y = zeros(k);
+  for (let r = 0; r < k; r += 1) {
+    for (let c = Math.max(r - 1, 0); c < k; c += 1) y[c] += h[r * k + c] * x[r];
+  }
+  return y;
 }
 
 /**
@@ -165,14 +209,21 @@ export function reducedFrequencyModel(
   const driveNorms = p0s.map((p0, d) => [norm(p0), norm(p1s[d])]);
   const outputNorms = qs.map(norm);
   toHessenberg(a, k, [...p0s, ...p1s, ...qs]);
+  const direct = r1s.map((r1) => outputs.map((w) => readOutput(r1, w)));
+  // Hᵀq and (Hᵀ)²q, for the series' coefficients and remainders
+  const hqs = qs.map((q) => hessenbergTransposeTimes(a, k, q));
+  const h2qNorms = hqs.map((hq) => norm(hessenbergTransposeTimes(a, k, hq)));
   return {
     k,
     hessenberg: Float64Array.from(a),
     hessenbergNorm: norm(a),
     drives: p0s.map((p0, d) => ({ p0: Float64Array.from(p0), p1: Float64Array.from(p1s[d]), p0Norm: driveNorms[d][0], p1Norm: driveNorms[d][1] })),
-    outputs: qs.map((q, w) => ({ q: Float64Array.from(q), qNorm: outputNorms[w] })),
+    outputs: qs.map((q, w) => ({ q: Float64Array.from(q), qNorm: outputNorms[w], hqNorm: norm(hqs[w]), h2qNorm: h2qNorms[w] })),
     low: lowResponses.map((r0) => outputs.map((w) => readOutput(r0, w))),
-    direct: r1s.map((r1) => outputs.map((w) => readOutput(r1, w))),
+    direct,
+    series: p0s.map((p0, d) =>
+      qs.map((q, w) => ({ first: direct[d][w] - dot(q, p0), second: dot(hqs[w], p0) - dot(q, p1s[d]), third: dot(hqs[w], p1s[d]) })),
+    ),
   };
 }
 
@@ -302,15 +353,34 @@ export function transfersAtOmega(model: FrequencyModel, omega: number): ComplexP
   return result;
 }
 
+/** Rounding allowance of the series bound, relative to the size of the terms that cancel in its coefficients (64 ulp). */
+const SERIES_ROUNDING = 64 * Number.EPSILON;
+
 /**
- * An upper bound on |transfer(ω) − transfer(0)| for drive d and output w: with ‖s·H‖ < 1,
- * ‖(I + s·H)⁻¹‖ ≤ 1/(1 − |s|·‖H‖) (Neumann series), so
- *   |s·wᵀr1 − s·qᵀy| ≤ ω·|wᵀr1| + ω·‖q‖·(‖p0‖ + ω·‖p1‖)/(1 − ω·‖H‖).
- * Infinity where the series does not converge (ω·‖H‖ ≥ 1).
+ * An upper bound on |transfer(ω) − transfer(0)| for drive d and output w, the smaller of two.
+ * With ‖s·H‖ < 1, ‖(I + s·H)⁻¹‖ ≤ 1/(1 − |s|·‖H‖) (Neumann series), so
+ *   |s·wᵀr1 − s·qᵀy| ≤ ω·|wᵀr1| + ω·‖q‖·(‖p0‖ + ω·‖p1‖)/(1 − ω·‖H‖);
+ * and, from the series' first three terms (TransferSeries) taken exactly,
+ *   |transfer(ω) − transfer(0)| ≤ |jω·first − ω²·second − jω³·third| + ω³·‖(Hᵀ)²q‖·(‖p0‖ + ω·‖p1‖)/(1 − ω·‖H‖),
+ * plus SERIES_ROUNDING times the terms whose cancellation gives the coefficients. The second is
+ * far tighter at low frequency, where the first term alone nearly is the move (a common-mode
+ * gain that is a small difference of large node responses, say). Infinity where the series
+ * does not converge (ω·‖H‖ ≥ 1).
  */
 export function transferMoveBound(model: FrequencyModel, drive: number, output: number, omega: number): number {
   const shrink = 1 - omega * model.hessenbergNorm;
   if (!(shrink > 0)) return Infinity;
   const { p0Norm, p1Norm } = model.drives[drive];
-  return omega * Math.abs(model.direct[drive][output]) + (omega * model.outputs[output].qNorm * (p0Norm + omega * p1Norm)) / shrink;
+  const { qNorm, hqNorm, h2qNorm } = model.outputs[output];
+  const direct = Math.abs(model.direct[drive][output]);
+  const feed = (p0Norm + omega * p1Norm) / shrink;
+  const neumann = omega * direct + omega * qNorm * feed;
+  const { first, second, third } = model.series[drive][output];
+  const w2 = omega * omega;
+  const w3 = w2 * omega;
+  const series =
+    Math.hypot(w2 * second, omega * first - w3 * third) +
+    w3 * h2qNorm * feed +
+    SERIES_ROUNDING * (omega * (direct + qNorm * p0Norm) + w2 * (hqNorm * p0Norm + qNorm * p1Norm) + w3 * hqNorm * p1Norm);
+  return Math.min(neumann, series);
 }
