@@ -46,6 +46,15 @@ export interface StageSolution extends SolvedCircuit {
   problems: OperatingPointProblem[];
 }
 
+/** The figures of a stage solved at one condition of a spec: every figure but the searched corners (cmrrCornerHz, differentialBandwidthHz). */
+export type ConditionResult = Omit<AnalyzeResult, 'cmrrCornerHz' | 'differentialBandwidthHz'>;
+
+/** A stage solved at one condition of a spec (a corner, a sweep point, a sizing step): its figures without the corner searches. */
+export interface ConditionSolution extends SolvedCircuit {
+  result: ConditionResult;
+  problems: OperatingPointProblem[];
+}
+
 /** Small-signal transfers of a solved stage at a frequency (Hz). */
 export type { StageTransfers } from './small-signal';
 
@@ -406,7 +415,16 @@ function ownTransistorModels(circuit: StageCircuit, device: Design['device'], te
  */
 export function solveStage(design: Design, warmStart?: SolvedCircuit): StageSolution {
   const solved = solveCircuit(design, warmStart);
-  return { ...solved, ...stageFigures(solved) };
+  return { ...solved, ...stageFigures(solved, true) };
+}
+
+/**
+ * Solves a design as solveStage does, without the corner searches (about a quarter of a plain
+ * solve): for the conditions, sweeps and sizing steps, which read only the other figures.
+ */
+export function solveCondition(design: Design, warmStart?: SolvedCircuit): ConditionSolution {
+  const solved = solveCircuit(design, warmStart);
+  return { ...solved, ...stageFigures(solved, false) };
 }
 
 /**
@@ -426,8 +444,14 @@ export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedC
   return { design, model, op, stage: smallSignalStage(op, circuit.driveNodes, model.parameters, temperatureC) };
 }
 
-/** The contract's figures of a solved circuit, and its operating-point problems as figures. */
-function stageFigures({ design, model, op, stage }: SolvedCircuit): { result: AnalyzeResult; problems: OperatingPointProblem[] } {
+/** The corners of a solve without the searches (ConditionResult has no such fields: nothing reads them). */
+const NOT_SEARCHED: readonly (number | null)[] = [null, null];
+
+/**
+ * The contract's figures of a solved circuit, and its operating-point problems as figures;
+ * without `searchCorners` the two corner fields are left null (ConditionResult).
+ */
+function stageFigures({ design, model, op, stage }: SolvedCircuit, searchCorners: boolean): { result: AnalyzeResult; problems: OperatingPointProblem[] } {
   const ic = op.circuit;
   const v = op.voltagesV;
   const transistors = transistorOperatingPoints(ic, op, model.thermalVoltageV);
@@ -440,7 +464,7 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit): { result: An
   const positiveA = currentIntoElementsA(op, RAIL_NODES.positive, false);
   const negativeA = currentIntoElementsA(op, RAIL_NODES.negative, false);
   const low = stage.low;
-  const [differentialBandwidthHz, cornerHz] = cornersHz(stage, [DIFFERENTIAL_GAIN, SINGLE_ENDED_CMRR]);
+  const [differentialBandwidthHz, cornerHz] = searchCorners ? cornersHz(stage, [DIFFERENTIAL_GAIN, SINGLE_ENDED_CMRR]) : NOT_SEARCHED;
   const cmrrSingleDb = 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re));
   const matched = Math.abs(low.differentialCommonModeGain.re) <= MATCHED_PAIR_RATIO * Math.abs(low.commonModeGain.re);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);

@@ -4,7 +4,7 @@
  * checks are decided on (worst corner taken, margins computed; rules only compare).
  */
 import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
-import { solveCircuit, solveStage, singleEndedCmrrDbAt, transfersAt, type OperatingPointProblem, type SolvedCircuit, type StageSolution } from './analyze';
+import { solveCircuit, solveCondition, solveStage, singleEndedCmrrDbAt, transfersAt, type ConditionSolution, type OperatingPointProblem, type SolvedCircuit, type StageSolution } from './analyze';
 import { magnitude } from './small-signal';
 import { firstNonFinitePath } from './finite';
 import { cardOf, cardStoresCharge } from './bjt-parameters';
@@ -105,10 +105,15 @@ export interface OptionEvaluation {
   monteCarlo: MonteCarloResult | null;
 }
 
-/** The sized design at another condition (a cold start: another bias is too far for a warm one). */
-function at(spec: Spec, design: Design, condition: Condition): StageSolution {
+/** The sized design at a condition (a cold start: another bias is too far for a warm one). */
+function designAtCondition(spec: Spec, design: Design, condition: Condition): Design {
   const values = { tail: design.tail, collectorResistanceOhm: design.collectorResistanceOhm, pairEmitterResistanceOhm: design.pairEmitterResistanceOhm ?? 0 };
-  return solveStage(designAt(spec, condition, values));
+  return designAt(spec, condition, values);
+}
+
+/** The sized design solved at another condition, without the corner searches (only the nominal solve's corners are read). */
+function at(spec: Spec, design: Design, condition: Condition): ConditionSolution {
+  return solveCondition(designAtCondition(spec, design, condition));
 }
 
 /**
@@ -191,7 +196,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const differentialOutput = spec.gain.output === 'differential';
   const sigmas = mismatchSigmas(spec);
   const nominal = nominalCondition(spec);
-  const nominalSolution = at(spec, design, nominal);
+  const nominalSolution = solveStage(designAtCondition(spec, design, nominal));
   const predicted = nominalSolution.result;
 
   // Differential output: a first-order mismatch model at every corner finds the governing one,

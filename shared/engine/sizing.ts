@@ -5,7 +5,7 @@
  */
 import { snapToSeries } from '../units/e-series';
 import { formatQuantity } from '../units/format-quantity';
-import { solveStage, type StageSolution } from './analyze';
+import { solveCondition, type ConditionResult, type ConditionSolution } from './analyze';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
 import { unhandledTopology, type TailDesign, type TopologyId } from './topologies';
@@ -166,18 +166,18 @@ interface Tuned {
 function tuneResistance(
   make: (resistanceOhm: number) => Design,
   startOhm: number,
-  measure: (result: AnalyzeResult) => number,
+  measure: (result: ConditionResult) => number,
   target: number,
   exponent: 1 | -1,
 ): Tuned {
   const bounded = (r: number) => Math.min(Math.max(r, MIN_RESISTANCE_OHM), MAX_RESISTANCE_OHM);
   let rOhm = bounded(startOhm);
-  let previous: StageSolution | undefined;
+  let previous: ConditionSolution | undefined;
   let best: Tuned | undefined;
   let last: Tuned | undefined;
   const distance = (t: Tuned) => Math.abs(Math.log(t.value / target));
   for (let i = 0; i < TUNE_MAX_ITERATIONS; i += 1) {
-    previous = solveStage(make(rOhm), previous);
+    previous = solveCondition(make(rOhm), previous);
     const value = measure(previous.result);
     if (!(value > 0)) return best ?? { rOhm, reached: false, value };
     const ratio = target / value;
@@ -196,7 +196,7 @@ function tuneResistance(
 }
 
 /** Gain magnitude of the spec's output kind. */
-export function outputGain(spec: Spec, result: AnalyzeResult): number {
+export function outputGain(spec: Spec, result: Pick<AnalyzeResult, 'differentialGain' | 'singleEndedGain'>): number {
   return Math.abs(spec.gain.output === 'differential' ? result.differentialGain : result.singleEndedGain);
 }
 
@@ -213,7 +213,7 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
   const model = deviceModel(spec.device, nominal.temperatureC);
   const vbeV = model.thermalVoltageV * Math.log(tailA / model.saturationCurrentA);
   const { positiveV: vp, negativeV: vn } = spec.supply;
-  const tailCurrent = (r: AnalyzeResult) => r.tailCurrentA;
+  const tailCurrent = (r: ConditionResult) => r.tailCurrentA;
   const withTail = (tail: TailDesign) => designAt(spec, nominal, { ...pair, tail });
   switch (topology) {
     case 'resistor': {
