@@ -337,13 +337,65 @@ function monteCarloMismatches(draws: MonteCarloDraws, i: number, sigmas: Mismatc
  * at or above `requiredDb`.
  */
 export function monteCarloCmrr(s: MismatchSensitivity, draws: MonteCarloDraws, sigmas: MismatchSigmas, requiredDb: number): MonteCarloResult {
-  const { samples } = draws;
+  const { samples, normals, deviceNormals } = draws;
   const values = new Float64Array(samples);
-  const x: [number, number, number, number] = [0, 0, 0, 0];
   let passing = 0;
+  // mismatchCmrrDb and monteCarloMismatches written out with the model's coefficients in locals
+  // (the same operations in the same order: the same figures); this loop runs 2000 times an option
+  const [l0, l1, l2, l3] = s.linear;
+  const [q0, q1, q2, q3] = s.squared;
+  const [g0, g1, g2, g3] = s.differentialGainPer;
+  const [c01, c02, c03, c12, c13, c23] = s.cross;
+  const resistorSigma = sigmas.resistorTolerance / SIGMAS_PER_TOLERANCE;
+  const { vbeSigmaV, betaSigma, earlyVoltageSigma } = sigmas;
+  const vt = s.thermalVoltageV;
   for (let i = 0; i < samples; i += 1) {
-    monteCarloMismatches(draws, i, sigmas, s.thermalVoltageV, x);
-    const db = mismatchCmrrDb(s, x);
+    const load1Scale = 1 + resistorSigma * normals[3 * i];
+    const load2Scale = 1 + resistorSigma * normals[3 * i + 1];
+    const x0 = load2Scale / load1Scale - 1;
+    const x1 = Math.exp((vbeSigmaV * normals[3 * i + 2]) / vt) - 1;
+    const x2 = betaSigma * deviceNormals[2 * i];
+    const x3 = earlyVoltageSigma * deviceNormals[2 * i + 1];
+    let cmRe = 0;
+    let cmIm = 0;
+    let adRe = s.differentialGain.re;
+    let adIm = s.differentialGain.im;
+    cmRe += (l0.re + q0.re * x0) * x0;
+    cmIm += (l0.im + q0.im * x0) * x0;
+    adRe += g0.re * x0;
+    adIm += g0.im * x0;
+    cmRe += (l1.re + q1.re * x1) * x1;
+    cmIm += (l1.im + q1.im * x1) * x1;
+    adRe += g1.re * x1;
+    adIm += g1.im * x1;
+    cmRe += (l2.re + q2.re * x2) * x2;
+    cmIm += (l2.im + q2.im * x2) * x2;
+    adRe += g2.re * x2;
+    adIm += g2.im * x2;
+    cmRe += (l3.re + q3.re * x3) * x3;
+    cmIm += (l3.im + q3.im * x3) * x3;
+    adRe += g3.re * x3;
+    adIm += g3.im * x3;
+    // the cross terms in PAIRS order
+    let xx = x0 * x1;
+    cmRe += c01.re * xx;
+    cmIm += c01.im * xx;
+    xx = x0 * x2;
+    cmRe += c02.re * xx;
+    cmIm += c02.im * xx;
+    xx = x0 * x3;
+    cmRe += c03.re * xx;
+    cmIm += c03.im * xx;
+    xx = x1 * x2;
+    cmRe += c12.re * xx;
+    cmIm += c12.im * xx;
+    xx = x1 * x3;
+    cmRe += c13.re * xx;
+    cmIm += c13.im * xx;
+    xx = x2 * x3;
+    cmRe += c23.re * xx;
+    cmIm += c23.im * xx;
+    const db = 10 * Math.log10((adRe * adRe + adIm * adIm) / (cmRe * cmRe + cmIm * cmIm));
     values[i] = Number.isFinite(db) ? db : Number.MAX_VALUE;
     if (db >= requiredDb) passing += 1;
   }
