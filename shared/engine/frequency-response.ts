@@ -100,17 +100,6 @@ function dot(a: ArrayLike<number>, b: ArrayLike<number>): number {
   return sum;
 }
 
-/** H·x for the upper Hessenberg H (k × k, row-major). */
-function hessenbergTimes(h: ArrayLike<number>, k: number, x: ArrayLike<number>): number[] {
-  const y = zeros(k);
-  for (let r = 0; r < k; r += 1) {
-    let sum = 0;
-    for (let c = Math.max(r - 1, 0); c < k; c += 1) sum += h[r * k + c] * x[c];
-    y[r] = sum;
-  }
-  return y;
-}
-
 /** Hᵀ·x for the upper Hessenberg H (k × k, row-major). */
 function hessenbergTransposeTimes(h: ArrayLike<number>, k: number, x: ArrayLike<number>): number[] {
   const y = zeros(k);
