@@ -9,7 +9,7 @@ import { stageCircuit } from '#shared/engine/circuit';
 import { deviceModel } from '#shared/engine/device';
 import { indexCircuit } from '#shared/engine/node-system';
 import { analyze } from '#shared/engine/analyze';
-import { hardFields } from '#shared/engine/convergence-hints';
+import { designResistances, hardFields, withHardFields } from '#shared/engine/convergence-hints';
 import { ConvergenceError, gminStepping, solveOperatingPoint, sourceStepping } from '#shared/engine/operating-point';
 import type { Design } from '#shared/engine/types';
 
@@ -84,5 +84,51 @@ describe('when the operating point cannot be found, the error names the fields t
     expect(hardFields({ ...hard, collectorResistanceOhm: 4700, pairEmitterResistanceOhm: 0, tail: { topology: 'simple-mirror', referenceResistanceOhm: 220000 } })).toEqual([
       '/tail/referenceResistanceOhm',
     ]);
+  });
+});
+
+describe('the resistances a convergence hint can name', () => {
+  const DESIGN: Design = {
+    device: DEVICE,
+    supply: { positiveV: 15, negativeV: -15 },
+    collectorResistanceOhm: 4700,
+    pairEmitterResistanceOhm: 100,
+    tail: { topology: 'widlar', referenceResistanceOhm: 27000, emitterResistanceOhm: 1200 },
+    inputCommonModeV: 0,
+  };
+  const error = () => new ConvergenceError('the operating point did not converge');
+
+  test('every resistance of the design with its JSON path; the tail\u2019s topology is no resistance, a pair emitter resistance of 0 is none', () => {
+    expect(designResistances(DESIGN)).toEqual([
+      { path: '/collectorResistanceOhm', valueOhm: 4700 },
+      { path: '/pairEmitterResistanceOhm', valueOhm: 100 },
+      { path: '/tail/referenceResistanceOhm', valueOhm: 27000 },
+      { path: '/tail/emitterResistanceOhm', valueOhm: 1200 },
+    ]);
+    expect(designResistances({ ...DESIGN, pairEmitterResistanceOhm: 0 }).map((r) => r.path)).not.toContain('/pairEmitterResistanceOhm');
+  });
+
+  test('inside the usual range the largest resistance is named, wherever it sits; on a tie the first in the design\u2019s order', () => {
+    expect(hardFields({ ...DESIGN, collectorResistanceOhm: 470000 })).toEqual(['/collectorResistanceOhm']);
+    expect(hardFields({ ...DESIGN, collectorResistanceOhm: 27000 })).toEqual(['/collectorResistanceOhm']);
+    expect(withHardFields(error(), DESIGN).message).toBe(
+      'the operating point did not converge; the fields that make it hard: /tail/referenceResistanceOhm (the largest resistance)',
+    );
+  });
+
+  test.each([
+    ['exactly 10 Ω is usual', 10, false],
+    ['exactly 1 MΩ is usual', 1e6, false],
+    ['9.9 Ω is below the usual range', 9.9, true],
+    ['1.01 MΩ is above the usual range', 1.01e6, true],
+  ])('%s', (_name, valueOhm, outside) => {
+    const hinted = withHardFields(error(), { ...DESIGN, collectorResistanceOhm: valueOhm });
+    expect(hinted).toBeInstanceOf(ConvergenceError);
+    if (outside) {
+      expect(hinted.fields).toEqual(['/collectorResistanceOhm']);
+      expect(hinted.message).toBe('the operating point did not converge; the fields that make it hard: /collectorResistanceOhm (outside the usual 10 Ω to 1 MΩ)');
+    } else {
+      expect(hinted.message).toMatch(/\(the largest resistance\)$/);
+    }
   });
 });
