@@ -11,6 +11,7 @@ export type CircuitPart = 'pair' | 'tail';
 
 export interface ResistorElement {
   kind: 'resistor';
+  /** Its SPICE name, starting with the element letter R (the netlist writes it as it is). */
   name: string;
   nodes: [string, string];
   resistanceOhm: number;
@@ -19,6 +20,7 @@ export interface ResistorElement {
 
 export interface TransistorElement {
   kind: 'npn';
+  /** Its SPICE name, starting with the element letter Q (the netlist writes it as it is). */
   name: string;
   collector: string;
   base: string;
@@ -35,6 +37,7 @@ export interface TransistorElement {
 
 export interface CapacitorElement {
   kind: 'capacitor';
+  /** Its SPICE name, starting with the element letter C (the netlist writes it as it is). */
   name: string;
   nodes: [string, string];
   capacitanceF: number;
