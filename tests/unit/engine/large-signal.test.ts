@@ -141,3 +141,58 @@ describe('a single-ended swing with a resistor tail (the tail current rises with
     expect(Math.abs(Math.min(down, up) / peakV - 1)).toBeLessThan(1e-5);
   });
 });
+
+describe('the large-signal output, as a change from zero input', () => {
+  const base = (): Design => ({
+    device: { family: 'npn', beta: 150, earlyVoltageV: 80, saturationCurrentA: 1e-14 },
+    supply: { positiveV: 12, negativeV: -12 },
+    collectorResistanceOhm: 10000,
+    tail: { topology: 'resistor', resistanceOhm: 11000 },
+    inputCommonModeV: 2,
+  });
+
+  test.each([
+    ['a common mode of 2 V on a resistor tail', {}],
+    ['mismatched loads', { collectorMismatch: 0.03 }],
+    ['a pair transistor with its own BF and VAF', { pairBetaMismatch: 0.2, pairEarlyVoltageMismatch: -0.3 }],
+  ])('%s: zero input, zero change on either output', (_name, overrides) => {
+    const solution = solveStage({ ...base(), ...overrides });
+    const out = outputAtDifferentialInput(solution, 0);
+    expect(Math.abs(out.differentialV)).toBeLessThan(1e-9);
+    expect(Math.abs(out.collector1V)).toBeLessThan(1e-9);
+  });
+
+  test('the peak is found to the stated accuracy: the output there is the peak to within a few parts per million', () => {
+    const solution = solveStage(base());
+    const peakV = 4;
+    const found = swingCompression(solution, 'differential', peakV, Math.abs(solution.result.differentialGain));
+    // a positive input lowers v(c1): the differential output goes negative
+    expect(Math.abs(-outputAtDifferentialInput(solution, found.peakInputV!).differentialV / peakV - 1)).toBeLessThan(5e-6);
+  });
+
+  test('a differential output is checked on one polarity (a positive input), the transfer being odd', () => {
+    const solution = solveStage({ ...base(), pairSaturationCurrentMismatch: 0.15 });
+    const peakV = 3;
+    const found = swingCompression(solution, 'differential', peakV, Math.abs(solution.result.differentialGain));
+    expect(Math.abs(-outputAtDifferentialInput(solution, found.peakInputV!).differentialV / peakV - 1)).toBeLessThan(5e-6);
+  });
+
+  test('single-ended: when v(c1) cannot fall by the peak, though it could rise by it, the swing is out of reach', () => {
+    // Q2's IS 40 % lower: Q1 carries more than half of an ideal tail's current, so v(c1) can rise by
+    // IC1·RC but fall only by (Itail − IC1)·RC
+    const design: Design = {
+      device: { family: 'npn', beta: 180, earlyVoltageV: 0, saturationCurrentA: 8.1e-15 },
+      supply: { positiveV: 12, negativeV: -12 },
+      collectorResistanceOhm: 9090,
+      tail: { topology: 'simple-mirror', referenceResistanceOhm: 23200 },
+      inputCommonModeV: 0,
+      pairSaturationCurrentMismatch: -0.4,
+    };
+    const solution = solveStage(design);
+    const rise = outputAtDifferentialInput(solution, -1).collector1V;
+    const fall = -outputAtDifferentialInput(solution, 1).collector1V;
+    expect(rise).toBeGreaterThan(fall * 1.2);
+    const found = swingCompression(solution, 'single-ended', (rise + fall) / 2, Math.abs(solution.result.singleEndedGain));
+    expect(found).toMatchObject({ peakInputV: null, compressionPercent: 100 });
+  });
+});
