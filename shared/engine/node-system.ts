@@ -61,6 +61,7 @@ export interface IndexedCircuit {
 }
 
 /** No ohmic resistances: every junction at its terminal. */
+// Stryker disable next-line ObjectLiteral: equivalent, an absent resistance reads as none (`!(r > 0)` below)
 const NO_OHMIC: OhmicResistances = { baseOhm: 0, emitterOhm: 0, collectorOhm: 0 };
 
 /**

@@ -341,6 +341,71 @@ describe('spiceNetlist: structure', () => {
   });
 });
 
+describe('spiceNetlist: every line and card', () => {
+  test.each(TOPOLOGIES)('%s: every element is named with its SPICE letter (R, C, Q), the netlist writes the names as they are', (topology) => {
+    const design = designFor(topology, { tailCapacitanceF: 1e-12, loadCapacitanceF: 2e-12, sourceResistanceOhm: 600, pairEmitterResistanceOhm: 100 });
+    const letter = { resistor: 'R', capacitor: 'C', npn: 'Q' } as const;
+    const circuit = stageCircuit(design);
+    for (const element of circuit.elements) expect(element.name, element.name).toMatch(new RegExp(`^${letter[element.kind]}`));
+    const names = parseNetlistElements(spiceNetlist(design, { analysis: 'op' })).filter((e) => e.kind !== 'V').map((e) => e.name);
+    expect(names.sort()).toEqual(circuit.elements.map((e) => e.name).sort());
+  });
+
+  test.each(ANALYSES.map((options) => [options.analysis, options] as const))('%s: no blank line; the title names the topology and the analysis; .end last', (_name, options) => {
+    const lines = spiceNetlist(designFor('widlar', { tailCapacitanceF: 1e-12 }), options).split('\n');
+    expect(lines[0]).toBe(`Longtail differential pair, widlar tail (${options.analysis})`);
+    expect(lines.at(-1)).toBe('');
+    expect(lines.at(-2)).toBe('.end');
+    expect(lines.slice(0, -1).filter((line) => line.trim() === '')).toEqual([]);
+  });
+
+  test('ac-tail: the pair is left out, and a comment says so; the other analyses hold the pair', () => {
+    const tailOnly = spiceNetlist(designFor('simple-mirror'), { analysis: 'ac-tail', tailNodeV: -0.7, ...AC_SWEEP }).split('\n');
+    expect(tailOnly.filter((line) => /^\*.*left out/.test(line))).toHaveLength(1);
+    expect(tailOnly.filter((line) => /^Q[12]\s/.test(line))).toEqual([]);
+    const whole = spiceNetlist(designFor('simple-mirror'), { analysis: 'op' }).split('\n');
+    expect(whole.filter((line) => /left out/.test(line))).toEqual([]);
+    expect(whole.filter((line) => /^Q[12]\s/.test(line))).toHaveLength(2);
+  });
+
+  test('without header comments the netlist is the one with an empty list of them', () => {
+    expect(spiceNetlist(designFor('wilson'), { analysis: 'op' })).toBe(spiceNetlist(designFor('wilson'), { analysis: 'op' }, []));
+  });
+
+  test('a pair transistor with its own BF or VAF uses its own card, QNPN_Q2, named the same on its Q line', () => {
+    const netlist = spiceNetlist(designFor('resistor', { pairBetaMismatch: 0.05 }), { analysis: 'op' });
+    const lines = netlist.split('\n');
+    expect(lines.filter((line) => line.startsWith('.model ')).map((line) => line.split(' ')[1])).toEqual(['QNPN', 'QNPN_Q2']);
+    expect(transistor(parseNetlistElements(netlist), 'Q2')).toMatchObject({ model: 'QNPN_Q2', substrate: 'vn' });
+    expect(transistor(parseNetlistElements(netlist), 'Q1')).toMatchObject({ model: 'QNPN', substrate: 'vn' });
+  });
+
+  test('device figures: `.save all` then @name[vector] for every transistor of the stage, lower case, before .op; none asked, no .save line', () => {
+    const lines = spiceNetlist(designFor('simple-mirror'), { analysis: 'op', transistorVectors: ['gm', 'ic'] }).split('\n');
+    expect(lines.filter((line) => line.startsWith('.save'))).toEqual(['.save all @q1[gm] @q1[ic] @q2[gm] @q2[ic] @q3[gm] @q3[ic] @q4[gm] @q4[ic]']);
+    expect(lines.indexOf('.op')).toBe(lines.findIndex((line) => line.startsWith('.save')) + 1);
+    expect(spiceNetlist(designFor('simple-mirror'), { analysis: 'op', transistorVectors: [] })).not.toMatch(/\.save/);
+    expect(spiceNetlist(designFor('simple-mirror'), { analysis: 'op' })).not.toMatch(/\.save/);
+  });
+
+  test.each([0, 1, 1.5, -1e-6])('a RELTOL of %d is refused (it must lie in (0, 1))', (relativeTolerance) => {
+    expect(() => spiceNetlist(designFor('widlar'), { analysis: 'op', relativeTolerance })).toThrow(/relativeTolerance must be in \(0, 1\)/);
+  });
+
+  test.each([
+    ['a start at 0 Hz', { startHz: 0, stopHz: 10, pointsPerDecade: 5 }],
+    ['a stop below the start', { startHz: 100, stopHz: 10, pointsPerDecade: 5 }],
+    ['no points per decade', { startHz: 1, stopHz: 10, pointsPerDecade: 0 }],
+    ['a fractional count of points', { startHz: 1, stopHz: 10, pointsPerDecade: 2.5 }],
+  ])('an AC sweep with %s is refused, naming what SPICE needs', (_name, sweep) => {
+    expect(() => spiceNetlist(designFor('resistor'), { analysis: 'ac-common-mode', ...sweep })).toThrow(/AC sweep needs 0 < startHz <= stopHz and an integer pointsPerDecade >= 1/);
+  });
+
+  test('an AC sweep of one frequency is a sweep SPICE runs', () => {
+    expect(analysisCards(spiceNetlist(designFor('resistor'), { analysis: 'ac-common-mode', startHz: 10, stopHz: 10, pointsPerDecade: 1 }))).toEqual(['.ac dec 1 10 10']);
+  });
+});
+
 describe('parseNetlistElements', () => {
   test('comments, inline comments, continuation lines, suffixes and area forms', () => {
     const text = [
@@ -368,6 +433,45 @@ describe('parseNetlistElements', () => {
       { kind: 'V', name: 'V1', nodes: ['in', '0'], dcV: -1.5, acMagnitude: 0.5, acPhaseDeg: 180 },
       { kind: 'V', name: 'V2', nodes: ['in2', '0'], dcV: 2.5, acMagnitude: 0, acPhaseDeg: 0 },
     ]);
+  });
+});
+
+describe('parseNetlistElements: what SPICE3 reads as an element card', () => {
+  test('the title is never an element, even when it reads like one; indented cards, runs of spaces and a trailing `*` are read', () => {
+    const text = ['R1 a b 1k', '   R2   a    b   2.2k', 'R7 a b 3.3k *', '*R9 a b 1k', '.end'].join('\n');
+    expect(parseNetlistElements(text)).toStrictEqual([
+      { kind: 'R', name: 'R2', nodes: ['a', 'b'], valueOhm: 2200 },
+      { kind: 'R', name: 'R7', nodes: ['a', 'b'], valueOhm: 3300 },
+    ]);
+  });
+
+  test('transistors: three terminals without an area, a model name with digits, an inline comment, an OFF keyword, a word that is not area=', () => {
+    const text = [
+      'title',
+      'Q11 c b e MOD',
+      'Q12 c b e vn QNPN_Q2',
+      'Q13 c b e MOD ; a note',
+      'Q14 c b e MOD 2 off',
+      'Q15 c b e vn MOD xarea=3',
+    ].join('\n');
+    expect(parseNetlistElements(text)).toStrictEqual([
+      { kind: 'Q', name: 'Q11', collector: 'c', base: 'b', emitter: 'e', model: 'MOD', area: 1 },
+      { kind: 'Q', name: 'Q12', collector: 'c', base: 'b', emitter: 'e', substrate: 'vn', model: 'QNPN_Q2', area: 1 },
+      { kind: 'Q', name: 'Q13', collector: 'c', base: 'b', emitter: 'e', model: 'MOD', area: 1 },
+      { kind: 'Q', name: 'Q14', collector: 'c', base: 'b', emitter: 'e', model: 'MOD', area: 2 },
+      { kind: 'Q', name: 'Q15', collector: 'c', base: 'b', emitter: 'e', substrate: 'vn', model: 'MOD', area: 1 },
+    ]);
+  });
+
+  test.each([
+    ['AC with no DC value', 'V3 x 0 AC 1', { dcV: 0, acMagnitude: 1, acPhaseDeg: 0 }],
+    ['AC magnitude and phase first', 'V6 x 0 AC 0.5 45', { dcV: 0, acMagnitude: 0.5, acPhaseDeg: 45 }],
+    ['AC with no magnitude before DC', 'V4 x 0 AC DC 2', { dcV: 2, acMagnitude: 1, acPhaseDeg: 0 }],
+    ['DC then AC with a phase', 'V5 x 0 DC 1 AC 0.5 90', { dcV: 1, acMagnitude: 0.5, acPhaseDeg: 90 }],
+    ['a bare DC value, an inline comment', 'V7 x 0 -3 ; AC 1', { dcV: -3, acMagnitude: 0, acPhaseDeg: 0 }],
+  ])('a voltage source: %s', (_name, line, expected) => {
+    const [parsed] = parseNetlistElements(`title\n${line}`);
+    expect(parsed).toStrictEqual({ kind: 'V', name: line.split(' ')[0], nodes: ['x', '0'], ...expected });
   });
 });
 

@@ -9,7 +9,7 @@ import { stageCircuit } from '#shared/engine/circuit';
 import { deviceModel } from '#shared/engine/device';
 import { indexCircuit } from '#shared/engine/node-system';
 import { analyze } from '#shared/engine/analyze';
-import { hardFields } from '#shared/engine/convergence-hints';
+import { designResistances, hardFields, withHardFields } from '#shared/engine/convergence-hints';
 import { ConvergenceError, gminStepping, solveOperatingPoint, sourceStepping } from '#shared/engine/operating-point';
 import type { Design } from '#shared/engine/types';
 
@@ -77,12 +77,103 @@ describe('when the operating point cannot be found, the error names the fields t
     // 1 mΩ is four decades below 10 Ω, 1 GΩ three decades above 1 MΩ
     expect(error.fields).toEqual(['/pairEmitterResistanceOhm', '/collectorResistanceOhm', '/tail/resistanceOhm']);
     expect(error.message).toContain('/pairEmitterResistanceOhm, /collectorResistanceOhm, /tail/resistanceOhm');
-    expect(error.message).toContain('gmin stepping');
+    expect(error.message).toMatch(/^the operating point did not converge \(gmin stepping failed, source stepping stalled at \d+(\.\d+)? % of the rails\); /);
   });
 
   test('with every resistance in the usual range, the largest is named (it sets the smallest current)', () => {
     expect(hardFields({ ...hard, collectorResistanceOhm: 4700, pairEmitterResistanceOhm: 0, tail: { topology: 'simple-mirror', referenceResistanceOhm: 220000 } })).toEqual([
       '/tail/referenceResistanceOhm',
     ]);
+  });
+});
+
+describe('the resistances a convergence hint can name', () => {
+  const DESIGN: Design = {
+    device: DEVICE,
+    supply: { positiveV: 15, negativeV: -15 },
+    collectorResistanceOhm: 4700,
+    pairEmitterResistanceOhm: 100,
+    tail: { topology: 'widlar', referenceResistanceOhm: 27000, emitterResistanceOhm: 1200 },
+    inputCommonModeV: 0,
+  };
+  const error = () => new ConvergenceError('the operating point did not converge');
+
+  test('every resistance of the design with its JSON path; the tail\u2019s topology is no resistance, a pair emitter resistance of 0 is none', () => {
+    expect(designResistances(DESIGN)).toEqual([
+      { path: '/collectorResistanceOhm', valueOhm: 4700 },
+      { path: '/pairEmitterResistanceOhm', valueOhm: 100 },
+      { path: '/tail/referenceResistanceOhm', valueOhm: 27000 },
+      { path: '/tail/emitterResistanceOhm', valueOhm: 1200 },
+    ]);
+    expect(designResistances({ ...DESIGN, pairEmitterResistanceOhm: 0 }).map((r) => r.path)).not.toContain('/pairEmitterResistanceOhm');
+  });
+
+  test('inside the usual range the largest resistance is named, wherever it sits; on a tie the first in the design\u2019s order', () => {
+    expect(hardFields({ ...DESIGN, collectorResistanceOhm: 470000 })).toEqual(['/collectorResistanceOhm']);
+    expect(hardFields({ ...DESIGN, collectorResistanceOhm: 27000 })).toEqual(['/collectorResistanceOhm']);
+    expect(withHardFields(error(), DESIGN).message).toBe(
+      'the operating point did not converge; the fields that make it hard: /tail/referenceResistanceOhm (the largest resistance)',
+    );
+  });
+
+  test.each([
+    ['exactly 10 Ω is usual', 10, false],
+    ['exactly 1 MΩ is usual', 1e6, false],
+    ['9.9 Ω is below the usual range', 9.9, true],
+    ['1.01 MΩ is above the usual range', 1.01e6, true],
+  ])('%s', (_name, valueOhm, outside) => {
+    const hinted = withHardFields(error(), { ...DESIGN, collectorResistanceOhm: valueOhm });
+    expect(hinted).toBeInstanceOf(ConvergenceError);
+    if (outside) {
+      expect(hinted.fields).toEqual(['/collectorResistanceOhm']);
+      expect(hinted.message).toBe('the operating point did not converge; the fields that make it hard: /collectorResistanceOhm (outside the usual 10 Ω to 1 MΩ)');
+    } else {
+      expect(hinted.message).toMatch(/\(the largest resistance\)$/);
+    }
+  });
+});
+
+describe('starting points', () => {
+  const design = designWith({ topology: 'widlar', referenceResistanceOhm: 10000, emitterResistanceOhm: 470 });
+
+  test('a warm start at the solution itself converges at the second Newton iteration (the first that can confirm a step) to the same voltages', () => {
+    const circuit = stageCircuit(design);
+    const model = deviceModel(DEVICE, 27);
+    const cold = solveOperatingPoint(circuit, model);
+    expect(cold.iterations).toBeGreaterThan(2);
+    const warm = solveOperatingPoint(circuit, model, cold);
+    expect(warm.iterations).toBe(2);
+    warm.voltagesV.forEach((v, k) => expect(Math.abs(v - cold.voltagesV[k]), cold.circuit.freeNodes[k]).toBeLessThan(SAME_SOLUTION_V));
+  });
+
+  test('a warm start from a circuit with other nodes is not used: the hand guess gives the same solution in the same iterations', () => {
+    const model = deviceModel(DEVICE, 27);
+    const other = solveOperatingPoint(stageCircuit(designWith({ topology: 'cascode', referenceResistanceOhm: 10000 })), model);
+    const circuit = stageCircuit(design);
+    const cold = solveOperatingPoint(circuit, model);
+    const fromOther = solveOperatingPoint(circuit, model, other);
+    expect(fromOther.iterations).toBe(cold.iterations);
+    expect(fromOther.voltagesV).toEqual(cold.voltagesV);
+  });
+
+  test('every transistor is evaluated at the solution: its currents are the ones the node voltages give', () => {
+    const circuit = stageCircuit(design);
+    const op = solveOperatingPoint(circuit, deviceModel(DEVICE, 27));
+    expect(op.transistors).toHaveLength(op.circuit.transistors.length);
+    // KCL at the tail node t: the pair's emitter currents leave through Q4 (the Widlar output)
+    const byName = Object.fromEntries(op.circuit.transistors.map((q, i) => [q.name, op.transistors[i]]));
+    const emitterA = (name: string) => byName[name].icA + byName[name].ibA;
+    // the pair emitters reach t through the 100 kΩ resistors: their currents add to Q4's collector current
+    expect(Math.abs(emitterA('Q1') + emitterA('Q2') - byName.Q4.icA) / byName.Q4.icA).toBeLessThan(1e-6);
+  });
+});
+
+describe('the convergence error', () => {
+  test('names itself and carries no fields until a hint adds them', () => {
+    const error = new ConvergenceError('did not converge');
+    expect(error).toBeInstanceOf(Error);
+    expect(error.name).toBe('ConvergenceError');
+    expect(error.fields).toEqual([]);
+    expect(new ConvergenceError('x', ['/collectorResistanceOhm']).fields).toEqual(['/collectorResistanceOhm']);
   });
 });

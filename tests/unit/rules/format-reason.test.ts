@@ -22,6 +22,12 @@ describe('formatReason', () => {
     { template: '{monteCarloSamples:int}', facts: { monteCarloSamples: 2000 }, expected: '2000' },
     { template: '{operatingPointProblems:list}', facts: { operatingPointProblems: ['Q3 cut off', 'Q4 saturated'] }, expected: 'Q3 cut off; Q4 saturated' },
     { template: '{operatingPointProblems:list}', facts: { operatingPointProblems: [] }, expected: 'none' },
+    // a nonzero figure that rounds to 0.0 keeps one significant digit, with its sign
+    { template: '{cmrrMarginDb:dB1}', facts: { cmrrMarginDb: -0.004 }, expected: '\u22120.004 dB' },
+    { template: '{cmrrMarginDb:dB1}', facts: { cmrrMarginDb: 0 }, expected: '0 dB' },
+    // only a leading minus is a sign; text is shown as given
+    { template: '{worstCmrrCorner:text}', facts: { worstCmrrCorner: 'ICM -2 V, 85 °C' }, expected: 'ICM -2 V, 85 °C' },
+    { template: '{gainPredicted:num} V/V', facts: { gainPredicted: -98.649 }, expected: '\u221298.6 V/V' },
   ])('when $template formats $facts, then it reads "$expected"', ({ template, facts, expected }) => {
     expect(formatReason(template, makeOptionFacts(facts))).toBe(expected);
   });
@@ -34,6 +40,25 @@ describe('formatReason', () => {
   );
 });
 
+describe('formatReason refuses a value of the wrong shape, naming it', () => {
+  test.each<[string, string, Partial<OptionFacts>, string]>([
+    ['a number format given text', '{gainPredicted:num}', { gainPredicted: 'high' as unknown as number }, 'fact "gainPredicted" is "high", not a number value'],
+    ['a number format given Infinity', '{gainPredicted:num}', { gainPredicted: Infinity }, 'fact "gainPredicted" is Infinity, not a number value'],
+    ['a text format given a number', '{worstCmrrCorner:text}', { worstCmrrCorner: 5 as unknown as string }, 'fact "worstCmrrCorner" is 5, not a text value'],
+    ['a list format given text', '{operatingPointProblems:list}', { operatingPointProblems: 'Q3 cut off' as unknown as string[] }, 'fact "operatingPointProblems" is "Q3 cut off", not a text-list value'],
+    ['a list format given a list with a number', '{operatingPointProblems:list}', { operatingPointProblems: ['Q3', 4] as unknown as string[] }, 'not a text-list value'],
+    ['an unknown format', '{gainPredicted:decibel}', { gainPredicted: 1 }, 'fact "gainPredicted" is 1, not a known format value'],
+  ])('%s', (_name, template, facts, message) => {
+    expect(() => formatReason(template, makeOptionFacts(facts))).toThrow(message);
+  });
+
+  test('a missing fact reads as undefined', () => {
+    const facts = makeOptionFacts({}) as unknown as Record<string, unknown>;
+    delete facts.gainPredicted;
+    expect(() => formatReason('{gainPredicted:num}', facts as unknown as OptionFacts)).toThrow('fact "gainPredicted" is undefined, not a number value');
+  });
+});
+
 describe('templateProblems', () => {
   test.each([
     { template: '{cmrrAtFrequencyDb:dB1} at {cmrrFrequencyHz:hz}', problem: undefined },
@@ -43,6 +68,8 @@ describe('templateProblems', () => {
     { template: '{powerWorstW:si}', problem: 'needs unit' },
     { template: '{|worstCmrrCorner|:text}', problem: 'applies to numbers only' },
     { template: 'margin {cmrrMarginDb}', problem: 'stray brace' },
+    { template: '{cmrrMarginDb:dB1} and a lone }', problem: 'stray brace' },
+    { template: '{gainPredicted:num:V}', problem: 'format "num" takes no unit' },
   ])('when the template is "$template", then the problem is $problem', ({ template, problem }) => {
     const problems = templateProblems(template);
     if (problem === undefined) expect(problems).toEqual([]);

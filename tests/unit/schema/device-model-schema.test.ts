@@ -105,6 +105,32 @@ describe('validating a design with a model card', () => {
   });
 });
 
+describe('comparing a device field with its card', () => {
+  test('a value read back from text may differ in the last digits (within 1e-9 relative): accepted; beyond, refused', () => {
+    expect(validateDesign(designWithDevice({ beta: 180.00000001, saturationCurrentA: 2.0000000001e-15, model: CARD })).ok).toBe(true);
+    expect(paths(validateDesign(designWithDevice({ beta: 180.001, model: CARD })))).toEqual(['/device/beta']);
+  });
+
+  test('an Early voltage of 0 (infinite) against a finite VAF is refused; a finite one against no VAF names the default as infinite', () => {
+    expect(printed(validateDesign(designWithDevice({ earlyVoltageV: 0, model: CARD })))).toEqual([
+      "/device/earlyVoltageV: must equal the model card's VAF (90 V), got 0 V",
+    ]);
+    expect(printed(validateDesign(designWithDevice({ earlyVoltageV: 50, model: { IS: 1e-15 } })))).toEqual([
+      "/device/earlyVoltageV: must equal the model card's VAF (infinite, SPICE's default as the card leaves it out), got 50 V",
+    ]);
+    expect(printed(validateDesign(designWithDevice({ earlyVoltageV: 50, model: { IS: 1e-15, VAF: 0 } })))).toEqual([
+      "/device/earlyVoltageV: must equal the model card's VAF (infinite), got 50 V",
+    ]);
+  });
+
+  test('a spec’s card is held to the same comparison at each field’s path', () => {
+    expect(paths(validateSpec({ ...MINIMAL_SPEC, device: { beta: 180, earlyVoltageV: 91, saturationCurrentA: 3e-15, model: CARD } }))).toEqual([
+      '/device/earlyVoltageV',
+      '/device/saturationCurrentA',
+    ]);
+  });
+});
+
 describe('an empty card is no card', () => {
   test('a design or spec whose model has no parameter given (a form\u2019s untouched card section) keeps its own beta and Early voltage', () => {
     expect(validateDesign(designWithDevice({ beta: 120, earlyVoltageV: 80, model: {} })).ok).toBe(true);
