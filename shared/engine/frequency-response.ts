@@ -246,11 +246,14 @@ export function transfersAtOmega(model: FrequencyModel, omega: number): ComplexP
   const nd = model.drives.length;
   const { mRe, mIm, yRe, yIm } = workspace(k, nd);
   // I + jω·H, and the right-hand sides (drive d at d·k…d·k + k − 1), as real and imaginary parts
-  for (let i = 0; i < k * k; i += 1) {
-    mRe[i] = 0;
-    mIm[i] = omega * h[i];
+  // (only the Hessenberg part: the elimination never reads below the subdiagonal)
+  for (let r = 0; r < k; r += 1) {
+    for (let i = r * k + (r > 0 ? r - 1 : 0); i < r * k + k; i += 1) {
+      mRe[i] = 0;
+      mIm[i] = omega * h[i];
+    }
+    mRe[r * k + r] = 1;
   }
-  for (let i = 0; i < k; i += 1) mRe[i * k + i] = 1;
   for (let d = 0; d < nd; d += 1) {
     const { p0, p1 } = model.drives[d];
     for (let i = 0; i < k; i += 1) {
@@ -304,23 +307,33 @@ export function transfersAtOmega(model: FrequencyModel, omega: number): ComplexP
       yIm[d * k + below] -= lr * bi + li * br;
     }
   }
-  // Back substitution (upper triangular now)
-  for (let d = 0; d < nd; d += 1) {
+  // Back substitution (upper triangular now), two drives at a time: each entry of U is read once per pair
+  for (let d = 0; d < nd; d += 2) {
     const base = d * k;
+    const pair = d + 1 < nd;
+    const base2 = pair ? base + k : base;
     for (let r = k - 1; r >= 0; r -= 1) {
       let sr = yRe[base + r];
       let si = yIm[base + r];
+      let tr = yRe[base2 + r];
+      let ti = yIm[base2 + r];
       for (let c = r + 1; c < k; c += 1) {
         const ar = mRe[r * k + c];
         const ai = mIm[r * k + c];
         sr -= ar * yRe[base + c] - ai * yIm[base + c];
         si -= ar * yIm[base + c] + ai * yRe[base + c];
+        tr -= ar * yRe[base2 + c] - ai * yIm[base2 + c];
+        ti -= ar * yIm[base2 + c] + ai * yRe[base2 + c];
       }
       const pr = mRe[r * k + r];
       const pi = mIm[r * k + r];
       const pp = pr * pr + pi * pi;
       yRe[base + r] = (sr * pr + si * pi) / pp;
       yIm[base + r] = (si * pr - sr * pi) / pp;
+      if (pair) {
+        yRe[base2 + r] = (tr * pr + ti * pi) / pp;
+        yIm[base2 + r] = (ti * pr - tr * pi) / pp;
+      }
     }
   }
   const result: ComplexPair[][] = [];
