@@ -11,7 +11,7 @@
  * multivariable frequency response computations", IEEE Trans. Automatic Control 26 (1981) 407–408).
  * The algebra is exact: the transfers are those of SPICE's AC analysis [SPICE] ngspice bjtacld.c.
  */
-import { luSolve, zeros, type LuFactors } from './linear-solve';
+import { sparseLuFactors, sparseLuSolve, zeros, type LuFactors } from './linear-solve';
 
 /** Threshold below which a pivot's magnitude counts as zero: the system is singular. */
 const SINGULAR_PIVOT = 1e-300;
@@ -25,8 +25,8 @@ export interface OutputWeights {
 /** One drive's part of the reduced system. */
 interface ReducedDrive {
   /** Qᵀ·r0_K and Qᵀ·r1_K. */
-  p0: Float64Array;
-  p1: Float64Array;
+  p0: readonly number[];
+  p1: readonly number[];
   /** ‖r0_K‖ and ‖r1_K‖ (Euclidean; Q keeps them). */
   p0Norm: number;
   p1Norm: number;
@@ -35,7 +35,7 @@ interface ReducedDrive {
 /** One output's part of the reduced system. */
 interface ReducedOutput {
   /** Qᵀ·(wᵀA_·K)ᵀ and its Euclidean norm. */
-  q: Float64Array;
+  q: readonly number[];
   qNorm: number;
   /** ‖Hᵀ·q‖ and ‖(Hᵀ)²·q‖ (Euclidean), for the remainders of the transfer's series. */
   hqNorm: number;
@@ -63,7 +63,7 @@ export interface FrequencyModel {
   /** Nodes coupled over frequency (those a capacitance touches). */
   k: number;
   /** Upper Hessenberg H, row-major k × k. */
-  hessenberg: Float64Array;
+  hessenberg: readonly number[];
   /** ‖H‖ (Frobenius, ≥ the 2-norm), for the bound on how far a transfer can move. */
   hessenbergNorm: number;
   drives: ReducedDrive[];
@@ -116,6 +116,7 @@ function hessenbergTransposeTimes(h: ArrayLike<number>, k: number, x: ArrayLike<
  */
 function toHessenberg(a: number[], k: number, vectors: number[][]): void {
   const v = zeros(k);
+  const w = zeros(k);
   for (let col = 0; col < k - 2; col += 1) {
     // The reflection that zeroes column `col` below its subdiagonal
     let scale = 0;
@@ -132,12 +133,17 @@ function toHessenberg(a: number[], k: number, vectors: number[][]): void {
     let vv = 0;
     for (let r = col + 1; r < k; r += 1) vv += v[r] * v[r];
     const beta = 2 / vv;
-    // A ← P·A (rows col+1…k−1)
-    for (let c = 0; c < k; c += 1) {
-      let dot = 0;
-      for (let r = col + 1; r < k; r += 1) dot += v[r] * a[r * k + c];
-      dot *= beta;
-      for (let r = col + 1; r < k; r += 1) a[r * k + c] -= dot * v[r];
+    // A ← P·A (rows col+1…k−1; their columns left of `col` are zero already), row by row:
+    // w = β·vᵀA, then each row less v[r]·w
+    for (let c = col; c < k; c += 1) w[c] = 0;
+    for (let r = col + 1; r < k; r += 1) {
+      const vr = v[r];
+      for (let c = col; c < k; c += 1) w[c] += vr * a[r * k + c];
+    }
+    for (let c = col; c < k; c += 1) w[c] *= beta;
+    for (let r = col + 1; r < k; r += 1) {
+      const vr = v[r];
+      for (let c = col; c < k; c += 1) a[r * k + c] -= w[c] * vr;
     }
     // A ← A·P (columns col+1…k−1)
     for (let r = 0; r < k; r += 1) {
@@ -181,15 +187,18 @@ export function reducedFrequencyModel(
   }
   const k = coupled.length;
   // A's columns at K: G⁻¹·C[:, K]
-  const columns = coupled.map((col) => {
-    const c = zeros(n);
+  // (k + 2 solves with one factorisation: they visit only the factors' nonzero entries)
+  const sparse = sparseLuFactors(factors);
+  const columns: number[][] = [];
+  const c = zeros(n);
+  for (const col of coupled) {
     for (let row = 0; row < n; row += 1) c[row] = capacitance[row * n + col];
-    return luSolve(factors, c);
-  });
+    columns.push(sparseLuSolve(sparse, c));
+  }
   const a = zeros(k * k);
   for (let i = 0; i < k; i += 1) for (let j = 0; j < k; j += 1) a[i * k + j] = columns[j][coupled[i]];
   // r1 = −G⁻¹·(c·d)
-  const r1s = capacitiveDrives.map((c) => (c ? luSolve(factors, c.map((x) => -x)) : zeros(n)));
+  const r1s = capacitiveDrives.map((drive) => (drive ? sparseLuSolve(sparse, drive.map((x) => -x)) : zeros(n)));
   // the vectors at K
   const p0s = lowResponses.map((r0) => coupled.map((node) => r0[node]));
   const p1s = r1s.map((r1) => coupled.map((node) => r1[node]));
@@ -204,10 +213,10 @@ export function reducedFrequencyModel(
   const h2qNorms = hqs.map((hq) => norm(hessenbergTransposeTimes(a, k, hq)));
   return {
     k,
-    hessenberg: Float64Array.from(a),
+    hessenberg: a,
     hessenbergNorm: norm(a),
-    drives: p0s.map((p0, d) => ({ p0: Float64Array.from(p0), p1: Float64Array.from(p1s[d]), p0Norm: driveNorms[d][0], p1Norm: driveNorms[d][1] })),
-    outputs: qs.map((q, w) => ({ q: Float64Array.from(q), qNorm: outputNorms[w], hqNorm: norm(hqs[w]), h2qNorm: h2qNorms[w] })),
+    drives: p0s.map((p0, d) => ({ p0, p1: p1s[d], p0Norm: driveNorms[d][0], p1Norm: driveNorms[d][1] })),
+    outputs: qs.map((q, w) => ({ q, qNorm: outputNorms[w], hqNorm: norm(hqs[w]), h2qNorm: h2qNorms[w] })),
     low: lowResponses.map((r0) => outputs.map((w) => readOutput(r0, w))),
     direct,
     series: p0s.map((p0, d) =>
