@@ -151,7 +151,7 @@ export function nodeVoltage(ic: IndexedCircuit, v: number[], node: NodeRef): num
 /**
  * KCL equations Σ (currents leaving a free node) = 0 in linear form J·v = rhs over the free
  * nodes; fixed-node terms move to the right-hand side, and their coefficients are kept in
- * `fixedColumns` (row-major n × fixed) for small-signal drives. Buffers are reused: `resetStamp`.
+ * `fixedColumns` (row-major n × fixed) for small-signal drives. Buffers are reused: `copyStamp`.
  */
 export interface NodeStamp {
   n: number;
@@ -168,10 +168,11 @@ export function createStamp(ic: IndexedCircuit): NodeStamp {
   return { n, nFixed, matrix: zeros(n * n), rhs: zeros(n), fixedColumns: zeros(n * nFixed), fixedV: ic.fixedV };
 }
 
-export function resetStamp(stamp: NodeStamp): void {
-  stamp.matrix.fill(0);
-  stamp.rhs.fill(0);
-  stamp.fixedColumns.fill(0);
+/** Copies one stamp's entries into another of the same circuit. */
+export function copyStamp(from: NodeStamp, to: NodeStamp): void {
+  for (let i = 0; i < from.matrix.length; i += 1) to.matrix[i] = from.matrix[i];
+  for (let i = 0; i < from.rhs.length; i += 1) to.rhs[i] = from.rhs[i];
+  for (let i = 0; i < from.fixedColumns.length; i += 1) to.fixedColumns[i] = from.fixedColumns[i];
 }
 
 /** Adds coefficient `g` of the voltage at `col` to the current leaving node `row`. */

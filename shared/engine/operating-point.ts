@@ -10,12 +10,12 @@ import type { StageCircuit } from './circuit';
 import type { BjtEval, DeviceModel } from './device';
 import { luFactor, luSolve, zeros } from './linear-solve';
 import {
+  copyStamp,
   createStamp,
   evaluateTransistors,
   indexCircuit,
   junctionVoltages,
   nodeVoltage,
-  resetStamp,
   stampConductance,
   stampTransistor,
   type IndexedCircuit,
@@ -87,11 +87,13 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], sh
     vbeOld[i] = Math.min(j.vbeV, model.criticalVoltageV);
     vbcOld[i] = Math.min(j.vbcV, model.criticalVoltageV);
   });
+  // The linear part (resistors, the gmin-stepping shunt) is the same every iteration: stamped once, copied in
+  const linear = createStamp(ic);
+  for (const r of ic.resistors) stampConductance(linear, r.a, r.b, r.conductanceS);
+  if (shuntS > 0) for (let k = 0; k < n; k += 1) linear.matrix[k * n + k] += shuntS;
   const stamp = createStamp(ic);
   for (let iter = 1; iter <= MAX_ITERATIONS; iter += 1) {
-    resetStamp(stamp);
-    for (const r of ic.resistors) stampConductance(stamp, r.a, r.b, r.conductanceS);
-    if (shuntS > 0) for (let k = 0; k < n; k += 1) stamp.matrix[k * n + k] += shuntS;
+    copyStamp(linear, stamp);
     let limited = false;
     for (let i = 0; i < nq; i += 1) {
       const q = ic.transistors[i];
