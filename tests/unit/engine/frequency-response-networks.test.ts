@@ -226,6 +226,7 @@ describe('five coupled nodes (three Householder reflections)', () => {
       for (let j = 0; j < n; j += 1) frobenius += a(i, j) ** 2;
     }
     const h = model.hessenberg;
+    expect(h).toHaveLength(n * n);
     for (let i = 0; i < n; i += 1) for (let j = 0; j < i - 1; j += 1) expect(h[i * n + j], `H[${i}][${j}]`).toBe(0);
     // the subdiagonal is not empty: the reduction left a coupled system
     expect(Math.abs(h[n + 0])).toBeGreaterThan(0);
@@ -262,6 +263,88 @@ describe('a singular (I + jωH)', () => {
     const t = transfersAtOmega(model, omega);
     expect(relative(t[0][0], { re: 1 / (1 - x * x), im: 0 })).toBeLessThan(1e-12);
     expect(relative(t[0][1], { re: 0, im: -x / (1 - x * x) })).toBeLessThan(1e-12);
+  });
+});
+
+describe('row exchanges in the frequency solve', () => {
+  test('the gyrator above ω = g/C: the subdiagonal jωC/g outgrows the diagonal 1, the rows are exchanged, and two drives (one with a capacitive feed) still match the 2 × 2 inverse', () => {
+    // (I + jωA) = [[1, −jx], [jx, 1]], x = ωC/g; its inverse [[1, jx], [−jx, 1]]/(1 − x²); the response
+    // to a drive is (I + jωA)⁻¹·(r0 + jω·r1), r1 = −G⁻¹·c for the drive's capacitive column c
+    const g = 1e-3;
+    const cap = 1e-9;
+    const factors = luFactor([0, g, -g, 0], 2);
+    // G⁻¹ = [[0, −1/g], [1/g, 0]]: c = (−2 nF, 1 nF) gives r1 = (c1/g, −c0/g) = (1e-6, 2e-6)
+    const r1 = [1e-6, 2e-6];
+    const drives = [
+      { r0: [1, 0], r1: [0, 0], c: null },
+      { r0: [0.5, -2], r1, c: [-2e-9, 1e-9] },
+    ];
+    const model = reducedFrequencyModel(factors, [cap, 0, 0, cap], drives.map((d) => d.r0), drives.map((d) => d.c), [{ nodes: [0], weights: [1] }, { nodes: [1, 0], weights: [1, -3] }]);
+    for (const x of [1.5, 2, 10, 1e3]) {
+      const omega = (x * g) / cap;
+      const t = transfersAtOmega(model, omega);
+      drives.forEach((d, di) => {
+        const b0 = { re: d.r0[0], im: omega * d.r1[0] };
+        const b1 = { re: d.r0[1], im: omega * d.r1[1] };
+        const scale = { re: 1 / (1 - x * x), im: 0 };
+        const v0 = mul(scale, add(b0, mul({ re: 0, im: x }, b1)));
+        const v1 = mul(scale, add(mul({ re: 0, im: -x }, b0), b1));
+        expect(relative(t[di][0], v0), `drive ${di} at x = ${x}`).toBeLessThan(1e-12);
+        expect(relative(t[di][1], sub(v1, mul({ re: 3, im: 0 }, v0))), `drive ${di} at x = ${x}`).toBeLessThan(1e-12);
+      });
+    }
+  });
+});
+
+describe('a first column with only its subdiagonal entry', () => {
+  // two separate two-node ladders fed from A: A –1k– n0 –2.2k– n1 –3.3k– 0 and A –4.7k– n2 –1k– n3 –2.2k– 0,
+  // each node with a capacitor to ground, n0–n1 coupled by cc. A = G⁻¹C is block diagonal, so the
+  // first reflection acts on x = (A10, 0, 0) alone and the second finds nothing below the
+  // subdiagonal. A10 ∝ G2·C0 − G1·cc: positive without cc, negative with a large one.
+  test.each([
+    ['positive', 0],
+    ['negative', 10e-12],
+  ])('A10 %s (cc = %s F): the transfers to every node match Cramer’s rule', (_, cc) => {
+    const net: Network = {
+      n: 4,
+      resistors: [[SOURCE_A, 0, 1e3], [0, 1, 2.2e3], [1, GROUND, 3.3e3], [SOURCE_A, 2, 4.7e3], [2, 3, 1e3], [3, GROUND, 2.2e3]],
+      capacitors: [[0, GROUND, 1e-12], [1, GROUND, 2e-12], [2, GROUND, 3e-12], [3, GROUND, 1.5e-12], ...(cc ? [[0, 1, cc] as [number, number, number]] : [])],
+    };
+    const outputs: OutputWeights[] = [0, 1, 2, 3].map((node) => ({ nodes: [node], weights: [1] }));
+    const model = modelOf(net, [[1, 0]], outputs);
+    expect(model.k).toBe(4);
+    for (const omega of omegas()) {
+      const t = transfersAtOmega(model, omega);
+      outputs.forEach((w, wi) => expect(relative(t[0][wi], direct(net, [1, 0], w, omega)), `n${wi} at ω ${omega}`).toBeLessThan(1e-11));
+    }
+  });
+});
+
+describe('no capacitance at all', () => {
+  test('an empty C couples no node (k = 0): every transfer is its low-frequency value at every frequency', () => {
+    // one node fed through 1k, 3.3k to ground: 3.3/4.3
+    const gS = 1 / 1e3 + 1 / 3.3e3;
+    const model = reducedFrequencyModel(luFactor([gS], 1), [0], [[1 / 1e3 / gS]], [null], [{ nodes: [0], weights: [1] }]);
+    expect(model.k).toBe(0);
+    expect(model.hessenberg).toHaveLength(0);
+    for (const omega of [0, 1, 1e6, 1e12]) {
+      const [[t]] = transfersAtOmega(model, omega);
+      expect(t.re).toBeCloseTo(3.3 / 4.3, 14);
+      expect(Math.abs(t.im)).toBe(0);
+    }
+  });
+});
+
+describe('the move bound at the edge of the Neumann series', () => {
+  test('exactly at ω·‖H‖ = 1 the bound is infinite, even for an output the capacitance does not reach', () => {
+    // two uncoupled nodes, G = diag(1, 2) S, C = diag(0.5, 0) F: H = 0.5 s, so ω = 2 puts ω·‖H‖ at 1 exactly;
+    // node 1 sees no capacitance (q = 0) and no capacitive drive
+    const model = reducedFrequencyModel(luFactor([1, 0, 0, 2], 2), [0.5, 0, 0, 0], [[1, 0.25]], [null], [{ nodes: [1], weights: [1] }]);
+    expect(model.hessenbergNorm).toBe(0.5);
+    expect(model.outputs[0].qNorm).toBe(0);
+    expect(transferMoveBound(model, 0, 0, 2)).toBe(Infinity);
+    // below it, nothing moves that output: the bound is 0
+    expect(transferMoveBound(model, 0, 0, 1)).toBe(0);
   });
 });
 
