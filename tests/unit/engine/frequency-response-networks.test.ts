@@ -296,6 +296,35 @@ describe('row exchanges in the frequency solve', () => {
   });
 });
 
+describe('a row exchange past the first column', () => {
+  test('an RC node beside a gyrator pair: the exchange happens at column 1 and moves both drives’ right-hand sides', () => {
+    // G = diag(g0) ⊕ [[0, g], [−g, 0]], C = c·I: A = diag(c/g0) ⊕ (c/g)·[[0, −1], [1, 0]], already Hessenberg.
+    // Node 0 answers r0/(1 + jωc/g0) (+ its r1 term); nodes 1, 2 as the gyrator's 2 × 2 inverse, x = ωc/g.
+    const [g0, g, cap] = [2e-3, 1e-3, 1e-9];
+    const factors = luFactor([g0, 0, 0, 0, 0, g, 0, -g, 0], 3);
+    // drive 1's capacitive column (−1 nF, −2 nF, 1 nF): r1 = −G⁻¹·c = (0.5e-6, 1e-6, 2e-6)
+    const drives = [
+      { r0: [1, 1, 0], r1: [0, 0, 0], c: null },
+      { r0: [-0.5, 0.5, -2], r1: [0.5e-6, 1e-6, 2e-6], c: [-1e-9, -2e-9, 1e-9] },
+    ];
+    const outputs: OutputWeights[] = [0, 1, 2].map((node) => ({ nodes: [node], weights: [1] }));
+    const model = reducedFrequencyModel(factors, [cap, 0, 0, 0, cap, 0, 0, 0, cap], drives.map((d) => d.r0), drives.map((d) => d.c), outputs);
+    expect(model.k).toBe(3);
+    for (const x of [0.5, 1.5, 4, 100]) {
+      const omega = (x * g) / cap;
+      const t = transfersAtOmega(model, omega);
+      drives.forEach((d, di) => {
+        const b = d.r0.map((r, i) => ({ re: r, im: omega * d.r1[i] }));
+        const v0 = div(b[0], { re: 1, im: (omega * cap) / g0 });
+        const scale = { re: 1 / (1 - x * x), im: 0 };
+        const v1 = mul(scale, add(b[1], mul({ re: 0, im: x }, b[2])));
+        const v2 = mul(scale, add(mul({ re: 0, im: -x }, b[1]), b[2]));
+        [v0, v1, v2].forEach((v, node) => expect(relative(t[di][node], v), `drive ${di} node ${node} at x = ${x}`).toBeLessThan(1e-12));
+      });
+    }
+  });
+});
+
 describe('a first column with only its subdiagonal entry', () => {
   // two separate two-node ladders fed from A: A –1k– n0 –2.2k– n1 –3.3k– 0 and A –4.7k– n2 –1k– n3 –2.2k– 0,
   // each node with a capacitor to ground, n0–n1 coupled by cc. A = G⁻¹C is block diagonal, so the
