@@ -42,6 +42,9 @@ function expectCramer(re: number[], im: number[], n: number, rhs: ComplexVector[
   const xs = solveComplex(re.slice(), im.slice(), n, rhs);
   expect(xs).toHaveLength(rhs.length);
   rhs.forEach((b, j) => {
+    // the solution has exactly n components
+    expect(xs[j].re).toHaveLength(n);
+    expect(xs[j].im).toHaveLength(n);
     const expected = cramer(re, im, n, b);
     const size = Math.max(...expected.map((z) => Math.hypot(z.re, z.im)));
     expected.forEach((z, k) => {
@@ -88,6 +91,18 @@ describe('solveComplex against Cramer’s rule', () => {
     const im = [1, 0, 2, 0, 5, -1, 1.5, 0, 1];
     // row 1 has a real entry under the pivot, row 2 an imaginary one
     expectCramer(re, im, 3, [{ re: [1, 1, 1], im: [0, 0, 0] }]);
+  });
+
+  test.each([
+    ['real', 1, 0],
+    ['imaginary', 0, 1],
+  ])('a zero pivot at the second column of a %s 4 × 4 system: the pivot is sought in that column, not beside it', (_, reScale, imScale) => {
+    // column 0 is e0·2, so the first step changes nothing; at column 1 the diagonal is 0 and the
+    // entries beside the candidates, (1,3) and (2,3), are 0 too: only column 1 itself finds row 3
+    const m = [2, 1, 0, 1, 0, 0, 3, 0, 0, 1, 1, 0, 0, 2, 1, 4];
+    const re = m.map((x) => x * reScale);
+    const im = m.map((x) => x * imScale);
+    expectCramer(re, im, 4, [{ re: [1, 2, 3, 4], im: [0, -1, 0, 1] }]);
   });
 
   test('a 1 × 1 system is a complex division', () => {
