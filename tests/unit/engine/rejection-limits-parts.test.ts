@@ -120,4 +120,20 @@ describe('a tail with nothing that stores charge', () => {
     const f = 2 / (2 * Math.PI * 22000 * 10e-12);
     expect(relativeError(tailImpedanceOhm(solved, f), 22000 / Math.sqrt(5))).toBeLessThan(1e-9);
   });
+
+  test('a simple mirror of a three-parameter device with a wiring capacitance: its nodes without charge stay in the circuit, |Z| = Rout ∥ 1/(jωC)', () => {
+    const design = {
+      device: { family: 'npn', beta: 150, earlyVoltageV: 80, saturationCurrentA: 1e-14 },
+      supply: { positiveV: 12, negativeV: -12 },
+      collectorResistanceOhm: 10000,
+      tail: { topology: 'simple-mirror', referenceResistanceOhm: 22000 },
+      tailCapacitanceF: 10e-12,
+    } as Design;
+    const solved = solveStage(design);
+    const rout = solved.result.tailOutputResistanceOhm;
+    for (const x of [0.3, 1, 3]) {
+      const f = x / (2 * Math.PI * rout * 10e-12);
+      expect(relativeError(tailImpedanceOhm(solved, f), rout / Math.sqrt(1 + x * x)), `ω·Rout·C = ${x}`).toBeLessThan(1e-9);
+    }
+  });
 });
