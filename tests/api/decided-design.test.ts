@@ -15,6 +15,7 @@ import type { Design } from '#shared/engine/types';
 import { VerificationJobEntity } from '../../api/entities/verification-job.entity';
 import type { OptionVerification, ProposalVerificationResult, VerificationJobView, VerificationStatus } from '#shared/verification/types';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
+import { settledJob, type JobPick } from '../helpers/verification-jobs';
 
 let api: TestApi;
 let designer: ApiClient;
@@ -39,15 +40,9 @@ const withValues = (rcOhm: number, pairReOhm: number): Design => ({ ...story.ran
 const FIRST = { rc: 2210, re: 78.7 };
 const SECOND = { rc: 2490, re: 100 };
 
-async function settled(pick: (s: VerificationStatus) => VerificationJobView | null | undefined, proposalId = story.proposalId): Promise<VerificationJobView> {
-  const t0 = Date.now();
-  for (;;) {
-    const status = (await reviewer.get(`/api/proposals/${proposalId}/verification`).expect(200)).body as VerificationStatus;
-    const job = pick(status);
-    if (job && ['finished', 'stopped', 'failed'].includes(job.state)) return job;
-    if (Date.now() - t0 > 120_000) throw new Error(`job not settled: ${JSON.stringify(job)}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
+/** The picked job of the story's proposal (or another), once settled, as the reviewer sees it. */
+async function settled(pick: JobPick, proposalId = story.proposalId): Promise<VerificationJobView> {
+  return (await settledJob(reviewer, proposalId, pick, { pollMs: 100 })).job;
 }
 
 async function status(): Promise<VerificationStatus> {

@@ -14,22 +14,13 @@
  */
 import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ProposalVerificationResult, VerificationJobView, VerificationStatus } from '#shared/verification/types';
+import type { ProposalVerificationResult } from '#shared/verification/types';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
+import { settledJob } from '../helpers/verification-jobs';
 
 const K_OVER_Q = 1.380649e-23 / 1.602176634e-19;
 const CARD_FILE = '.model FH-TN0 NPN (IS=9f BF=180 VAF=72 TNOM=0)\n';
 
-async function settled(client: ApiClient, proposalId: number, timeoutMs = 120_000): Promise<VerificationJobView> {
-  const t0 = Date.now();
-  for (;;) {
-    const status = (await client.get(`/api/proposals/${proposalId}/verification`).expect(200)).body as VerificationStatus;
-    const job = status.verification;
-    if (job && ['finished', 'stopped', 'failed'].includes(job.state)) return job;
-    if (Date.now() - t0 > timeoutMs) throw new Error(`job not settled: ${JSON.stringify(job)}`);
-    await new Promise((r) => setTimeout(r, 50));
-  }
-}
 
 describe('the SPICE check of a spec filled from a library card', () => {
   let api: TestApi;
@@ -61,7 +52,7 @@ describe('the SPICE check of a spec filled from a library card', () => {
 
     // Act
     await reviewer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
-    const job = await settled(reviewer, proposal.id);
+    const { job } = await settledJob(reviewer, proposal.id);
 
     // Assert
     expect(job.state).toBe('finished');

@@ -5,21 +5,12 @@
  * simulated value, as if nothing in the circuit moved with frequency). The card is invented.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ProposalVerificationResult, VerificationJobView, VerificationStatus } from '#shared/verification/types';
+import type { ProposalVerificationResult } from '#shared/verification/types';
 import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
+import { settledJob } from '../helpers/verification-jobs';
 
 const CARD = { IS: 9e-15, BF: 180, VAF: 72, CJE: 14e-12, CJC: 5e-12, CJS: 2.5e-12, TF: 0.5e-9 };
 
-async function settled(client: ApiClient, proposalId: number, timeoutMs = 120_000): Promise<VerificationJobView> {
-  const t0 = Date.now();
-  for (;;) {
-    const status = (await client.get(`/api/proposals/${proposalId}/verification`).expect(200)).body as VerificationStatus;
-    const job = status.verification;
-    if (job && ['finished', 'stopped', 'failed'].includes(job.state)) return job;
-    if (Date.now() - t0 > timeoutMs) throw new Error(`job not settled: ${JSON.stringify(job)}`);
-    await new Promise((r) => setTimeout(r, 50));
-  }
-}
 
 describe('the SPICE check of a design whose transistors store charge', () => {
   let api: TestApi;
@@ -41,7 +32,7 @@ describe('the SPICE check of a design whose transistors store charge', () => {
 
     // Act
     await reviewer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
-    const job = await settled(reviewer, proposal.id);
+    const { job } = await settledJob(reviewer, proposal.id);
 
     // Assert
     expect(job.state).toBe('finished');

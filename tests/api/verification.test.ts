@@ -12,11 +12,11 @@ import { SpiceEngine } from '../../api/verification/spice-engine';
 import type {
   MonteCarloVerificationResult,
   ProposalVerificationResult,
-  VerificationJobView,
   VerificationStatus,
   VerifiedFigure,
 } from '#shared/verification/types';
 import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
+import { settledJob } from '../helpers/verification-jobs';
 import { freshDatabase, type TestDatabase } from '../helpers/test-database';
 
 /** The tolerances as the engine's issue states them (not read from the product's constant). */
@@ -55,18 +55,6 @@ function expectWithinIssueTolerance(figure: VerifiedFigure, where: string): void
   expect(figure.agrees, `${where}: ${figure.label} marked as agreeing`).toBe(true);
 }
 
-async function settled(client: ApiClient, proposalId: number, pick: (s: VerificationStatus) => VerificationJobView | null | undefined, timeoutMs = 90_000) {
-  const t0 = Date.now();
-  const seen: VerificationJobView[] = [];
-  for (;;) {
-    const status = (await client.get(`/api/proposals/${proposalId}/verification`).expect(200)).body as VerificationStatus;
-    const job = pick(status);
-    if (job) seen.push(job);
-    if (job && ['finished', 'stopped', 'failed'].includes(job.state)) return { job, seen };
-    if (Date.now() - t0 > timeoutMs) throw new Error(`job not settled: ${JSON.stringify(job)}`);
-    await new Promise((r) => setTimeout(r, 50));
-  }
-}
 
 describe('verification of every option of the demo proposals', () => {
   let api: TestApi;
@@ -90,7 +78,7 @@ describe('verification of every option of the demo proposals', () => {
     for (const proposal of proposals) {
       const asked = await reviewer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
       expect(asked.body).toMatchObject({ kind: 'proposal', state: 'waiting', requestedBy: { id: api.users.reviewer.id } });
-      const { job, seen } = await settled(reviewer, proposal.id, (s) => s.verification);
+      const { job, seen } = await settledJob(reviewer, proposal.id, (s) => s.verification, { timeoutMs: 90_000 });
       expect(job.state, proposal.file).toBe('finished');
       expect(job.done).toBe(job.total);
       expect(job.total).toBeGreaterThan(0);
@@ -134,14 +122,14 @@ describe('verification of every option of the demo proposals', () => {
     ]);
     expect([first.status, second.status]).toEqual([202, 202]);
     expect(first.body.id).toBe(second.body.id);
-    await settled(reviewer, proposals[1].id, (s) => s.verification);
+    await settledJob(reviewer, proposals[1].id, (s) => s.verification, { timeoutMs: 90_000 });
   }, 60_000);
 
   it('runs a SPICE Monte Carlo of one option next to the closed-form one on the same draws', async () => {
     const bridge = proposals[0];
     const asked = await reviewer.post(`/api/proposals/${bridge.id}/verification/monte-carlo`).send({ topology: 'wilson', runs: 40 }).expect(202);
     expect(asked.body).toMatchObject({ kind: 'monte-carlo', topology: 'wilson', runs: 40, total: 40 });
-    const { job } = await settled(reviewer, bridge.id, (s) => s.monteCarlo.find((j) => j.topology === 'wilson'));
+    const { job } = await settledJob(reviewer, bridge.id, (s) => s.monteCarlo.find((j) => j.topology === 'wilson'), { timeoutMs: 90_000 });
     expect(job.state).toBe('finished');
     const result = job.result as MonteCarloVerificationResult;
     expect(result.failedRuns).toBe(0);
@@ -190,7 +178,7 @@ describe('a failing simulation', () => {
     const proposal = await api.createProposal(spec.id);
     const designer = await api.agentFor('designer');
     await designer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
-    const { job } = await settled(designer, proposal.id, (s) => s.verification);
+    const { job } = await settledJob(designer, proposal.id, (s) => s.verification, { timeoutMs: 90_000 });
     expect(job.state).toBe('finished');
     const options = (job.result as ProposalVerificationResult).options;
     const wilson = options.find((o) => o.topology === 'wilson')!;
@@ -219,7 +207,7 @@ describe('the time limit per analysis', () => {
     const proposal = await api.createProposal(spec.id);
     const reviewer = await api.agentFor('reviewer');
     await reviewer.post(`/api/proposals/${proposal.id}/verification`).expect(202);
-    const { job } = await settled(reviewer, proposal.id, (s) => s.verification);
+    const { job } = await settledJob(reviewer, proposal.id, (s) => s.verification, { timeoutMs: 90_000 });
     expect(job.state).toBe('finished');
     for (const option of (job.result as ProposalVerificationResult).options) {
       expect(option.outcome).toBe('error');
@@ -268,7 +256,7 @@ describe('a server restart while a job simulates', () => {
     // Asked again, it runs to the end on the second server.
     const again = await reviewerAgain.post(`/api/proposals/${proposal.id}/verification`).expect(202);
     expect(again.body.id).not.toBe(after.verification!.id);
-    const { job } = await settled(reviewerAgain, proposal.id, (s) => s.verification);
+    const { job } = await settledJob(reviewerAgain, proposal.id, (s) => s.verification, { timeoutMs: 90_000 });
     expect(job.state).toBe('finished');
   }, 120_000);
 });
