@@ -7,34 +7,11 @@
  */
 import { describe, expect, test } from 'vitest';
 import { solveComplex, type ComplexVector } from '#shared/engine/complex-solve';
+import { cramer, type C } from '../../helpers/complex-by-hand';
 
-type C = { re: number; im: number };
-const mul = (a: C, b: C): C => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
-const div = (a: C, b: C): C => {
-  const d = b.re * b.re + b.im * b.im;
-  return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
-};
-const sub = (a: C, b: C): C => ({ re: a.re - b.re, im: a.im - b.im });
-const add = (a: C, b: C): C => ({ re: a.re + b.re, im: a.im + b.im });
-
-function det(m: C[], n: number): C {
-  if (n === 1) return m[0];
-  let sum: C = { re: 0, im: 0 };
-  for (let col = 0; col < n; col += 1) {
-    const minor = m.filter((_, i) => i >= n && i % n !== col);
-    const term = mul(m[col], det(minor, n - 1));
-    sum = col % 2 === 0 ? add(sum, term) : sub(sum, term);
-  }
-  return sum;
-}
-
-/** x = A⁻¹·b by Cramer's rule. */
-function cramer(re: number[], im: number[], n: number, b: ComplexVector): C[] {
-  const a = re.map((x, i) => ({ re: x, im: im[i] }));
-  const whole = det(a, n);
-  return Array.from({ length: n }, (_, k) =>
-    div(det(a.map((x, i) => (i % n === k ? { re: b.re[Math.floor(i / n)], im: b.im[Math.floor(i / n)] } : x)), n), whole),
-  );
+/** x = A⁻¹·b by Cramer's rule, the system given as its real and imaginary parts. */
+function cramerOf(re: number[], im: number[], n: number, b: ComplexVector): C[] {
+  return cramer(re.map((x, i) => ({ re: x, im: im[i] })), b.re.map((x, i) => ({ re: x, im: b.im[i] })), n);
 }
 
 /** Solves with solveComplex (on copies) and checks every component against Cramer's rule, relative to the solution's size. */
@@ -45,7 +22,7 @@ function expectCramer(re: number[], im: number[], n: number, rhs: ComplexVector[
     // the solution has exactly n components
     expect(xs[j].re).toHaveLength(n);
     expect(xs[j].im).toHaveLength(n);
-    const expected = cramer(re, im, n, b);
+    const expected = cramerOf(re, im, n, b);
     const size = Math.max(...expected.map((z) => Math.hypot(z.re, z.im)));
     expected.forEach((z, k) => {
       expect(Math.abs(xs[j].re[k] - z.re) / size, `rhs ${j} x${k} re`).toBeLessThan(tolerance);

@@ -14,35 +14,10 @@
 import { describe, expect, test } from 'vitest';
 import { readOutput, reducedFrequencyModel, transferMoveBound, transfersAtOmega, type OutputWeights } from '#shared/engine/frequency-response';
 import { luFactor, luSolve } from '#shared/engine/linear-solve';
+import { abs, add, cramer, div, mul, sub, type C } from '../../helpers/complex-by-hand';
 
-type C = { re: number; im: number };
-const mul = (a: C, b: C): C => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
-const div = (a: C, b: C): C => {
-  const d = b.re * b.re + b.im * b.im;
-  return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
-};
-const sub = (a: C, b: C): C => ({ re: a.re - b.re, im: a.im - b.im });
-const add = (a: C, b: C): C => ({ re: a.re + b.re, im: a.im + b.im });
-const abs = (a: C) => Math.hypot(a.re, a.im);
 const relative = (a: C, b: C) => abs(sub(a, b)) / Math.max(abs(b), 1e-3);
 
-/** Determinant of an n × n complex matrix (row-major) by Laplace expansion along the first row. */
-function det(m: C[], n: number): C {
-  if (n === 1) return m[0];
-  let sum: C = { re: 0, im: 0 };
-  for (let col = 0; col < n; col += 1) {
-    const minor = m.filter((_, i) => i >= n && i % n !== col);
-    const term = mul(m[col], det(minor, n - 1));
-    sum = col % 2 === 0 ? add(sum, term) : sub(sum, term);
-  }
-  return sum;
-}
-
-/** Solves m·x = b by Cramer's rule. */
-function cramer(m: C[], b: C[], n: number): C[] {
-  const whole = det(m, n);
-  return b.map((_, k) => div(det(m.map((x, i) => (i % n === k ? b[Math.floor(i / n)] : x)), n), whole));
-}
 
 /** Ground and the two sources a drive sets (their voltages are the drive). */
 const GROUND = -1;

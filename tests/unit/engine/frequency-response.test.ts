@@ -8,16 +8,8 @@
 import { describe, expect, test } from 'vitest';
 import { reducedFrequencyModel, transferMoveBound, transfersAtOmega } from '#shared/engine/frequency-response';
 import { luFactor, luSolve } from '#shared/engine/linear-solve';
+import { abs, det, div, sub, type C } from '../../helpers/complex-by-hand';
 
-type C = { re: number; im: number };
-const mul = (a: C, b: C): C => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
-const div = (a: C, b: C): C => {
-  const d = b.re * b.re + b.im * b.im;
-  return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
-};
-const sub = (a: C, b: C): C => ({ re: a.re - b.re, im: a.im - b.im });
-const add = (a: C, b: C): C => ({ re: a.re + b.re, im: a.im + b.im });
-const abs = (a: C) => Math.hypot(a.re, a.im);
 
 /** The model of a node system: G and C (row-major), the drive's columns g and c, one output node. */
 function modelOf(n: number, g: number[], c: number[], gDrive: number[], cDrive: number[] | null, outputNode: number) {
@@ -63,16 +55,6 @@ describe('transfers', () => {
     const cap = [12e-12, 0, -2e-12, 0, 0, 0, 0, 0, -2e-12, 0, 8e-12, -1e-12, 0, 0, -1e-12, 4e-12];
     const model = modelOf(4, g, cap, [-r[0], 0, 0, 0], null, 3);
     expect(model.k).toBe(3);
-    const det = (m: C[], n: number): C => {
-      if (n === 1) return m[0];
-      let sum: C = { re: 0, im: 0 };
-      for (let col = 0; col < n; col += 1) {
-        const minor = m.filter((_, i) => i >= n && i % n !== col);
-        const term = mul(m[col], det(minor, n - 1));
-        sum = col % 2 === 0 ? add(sum, term) : sub(sum, term);
-      }
-      return sum;
-    };
     for (let f = 1e3; f <= 1e10; f *= 10) {
       const w = 2 * Math.PI * f;
       const a = g.map((x, i) => ({ re: x, im: w * cap[i] }));
