@@ -162,6 +162,11 @@ const LOWEST_CORNER_HZ = 1e-4;
 const CORNER_GRID_PER_DECADE = 1;
 /** Relative accuracy of a corner frequency. */
 const CORNER_RELATIVE_TOLERANCE = 1e-6;
+/**
+ * An interpolation step at most this long (relative, in f²) is the last: the next would move the
+ * estimate by about this squared, far below CORNER_RELATIVE_TOLERANCE.
+ */
+const CORNER_FINAL_STEP = 1e-4;
 /** Refinement steps at most (Brent's method; it needs three or four). */
 const CORNER_MAX_STEPS = 60;
 
@@ -302,6 +307,9 @@ function refineCrossing(f: (x: number) => number, a: number, fa: number, b: numb
       if (2 * p < Math.min(3 * half * q - Math.abs(tolerance * q), Math.abs(e * q))) {
         e = d;
         d = p / q;
+        // An interpolation step this small lands on the crossing to well within the tolerance
+        // (the steps converge superlinearly): take it without solving there to confirm
+        if (Math.abs(d) <= CORNER_FINAL_STEP * Math.abs(b)) return b + d;
       } else {
         d = half;
         e = d;
