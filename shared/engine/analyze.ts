@@ -11,7 +11,7 @@ import { nodeVoltage, type IndexedCircuit } from './node-system';
 import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { withHardFields } from './convergence-hints';
 import { TRANSFER_PARTS, magnitude, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
-import { transferMoveBound } from './frequency-response';
+import { transferMoveBound, transfersAtOmega, type ComplexPair } from './frequency-response';
 import { hasModelCard, resolvedParameters } from './bjt-parameters';
 import type { AcEntry, AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
@@ -251,11 +251,25 @@ function figurePower(figure: CornerFigure, t: StageTransfers): number {
  */
 function refinedCornerHz(stage: SmallSignalStage, figure: CornerFigure, aboveHz: number, belowHz: number): number {
   const lowPower = figurePower(figure, stage.low);
-  const shortfall = (v: number) => 2 - lowPower / figurePower(figure, transfersAt({ stage }, Math.sqrt(v)));
+  // the refinement's frequencies serve no other figure: solve only the drives this figure reads, uncached
+  const model = stage.frequency!;
+  const { numerator, denominator } = figure;
+  const driveCount = Math.max(TRANSFER_PARTS[numerator].drive, denominator ? TRANSFER_PARTS[denominator].drive : 0) + 1;
+  const partAt = (t: ComplexPair[][], part: keyof StageTransfers) => t[TRANSFER_PARTS[part].drive][TRANSFER_PARTS[part].output];
+  const powerAt = (hz: number) => {
+    const t = transfersAtOmega(model, 2 * Math.PI * hz, driveCount);
+    const n = partAt(t, numerator);
+    const power = n.re * n.re + n.im * n.im;
+    if (!denominator) return power;
+    const d = partAt(t, denominator);
+    return power / (d.re * d.re + d.im * d.im);
+  };
+  const shortfall = (v: number) => 2 - lowPower / powerAt(Math.sqrt(v));
   const a = aboveHz * aboveHz;
   const b = belowHz * belowHz;
-  const fa = shortfall(a);
-  const fb = shortfall(b);
+  // the ends are grid points, solved (and kept) by the scan
+  const fa = 2 - lowPower / figurePower(figure, transfersAt({ stage }, Math.sqrt(a)));
+  const fb = 2 - lowPower / figurePower(figure, transfersAt({ stage }, Math.sqrt(b)));
   // The grid decided on the figure in dB; should rounding put an end exactly on the corner, that end is it
   if (!(fa > 0)) return aboveHz;
   if (fb > 0) return belowHz;

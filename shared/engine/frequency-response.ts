@@ -248,11 +248,13 @@ function workspace(k: number, drives: number): Workspace {
 /**
  * Every output's response to every drive at angular frequency ω (rad/s), [drive][output]:
  * (I + jω·H)·y = p0 + jω·p1 by Gaussian elimination on the Hessenberg form (each step pivots
- * between two rows), then wᵀr0 + jω·wᵀr1 − jω·qᵀy. Throws when the system is singular.
+ * between two rows), then wᵀr0 + jω·wᵀr1 − jω·qᵀy. `driveCount`: solve only the first drives
+ * (each drive's figures are the same whichever others are solved with it). Throws when the
+ * system is singular.
  */
-export function transfersAtOmega(model: FrequencyModel, omega: number): ComplexPair[][] {
+export function transfersAtOmega(model: FrequencyModel, omega: number, driveCount = model.drives.length): ComplexPair[][] {
   const { k, hessenberg: h } = model;
-  const nd = model.drives.length;
+  const nd = driveCount;
   const { mRe, mIm, yRe, yIm } = workspace(k, nd);
   // I + jω·H, and the right-hand sides (drive d at d·k…d·k + k − 1), as real and imaginary parts
   // (only the Hessenberg part: the elimination never reads below the subdiagonal)

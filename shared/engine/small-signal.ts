@@ -227,7 +227,7 @@ export function stageTransfersAt(stage: SmallSignalStage, frequencyHz: number): 
   if (!stage.frequency || frequencyHz === 0) return stage.low;
   const solved = stage.solvedAt.get(frequencyHz);
   if (solved) return solved;
-  const t = transfersAtOmega(stage.frequency, 2 * Math.PI * frequencyHz);
+  const t = transfersAtOmega(stage.frequency, 2 * Math.PI * frequencyHz, stage.frequency.drives.length);
   const { differentialGain, singleEndedGain, commonModeGain, differentialCommonModeGain } = TRANSFER_PARTS;
   const transfers: StageTransfers = {
     differentialGain: t[differentialGain.drive][differentialGain.output],
