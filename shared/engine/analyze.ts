@@ -273,7 +273,14 @@ function refinedCornerHz(stage: SmallSignalStage, figure: CornerFigure, aboveHz:
   // The grid decided on the figure in dB; should rounding put an end exactly on the corner, that end is it
   if (!(fa > 0)) return aboveHz;
   if (fb > 0) return belowHz;
-  return Math.sqrt(refineCrossing(shortfall, a, fa, b, fb));
+  // A first step through the two ends and v = 0, where the shortfall is exactly 1 (P = P0):
+  // inverse quadratic interpolation, exact for a single pole and close for a dominant one
+  const x = a * (1 / (1 - fa)) * (fb / (fb - fa)) + b * (1 / (1 - fb)) * (fa / (fa - fb));
+  if (!(x > a && x < b)) return Math.sqrt(refineCrossing(shortfall, a, fa, b, fb));
+  const fx = shortfall(x);
+  if (fx === 0) return Math.sqrt(x);
+  // Brent's method from there: x the best estimate, the end of the other sign the bracket's other side, the third point the previous one
+  return Math.sqrt(fx > 0 ? refineCrossing(shortfall, a, fa, x, fx, b, fb) : refineCrossing(shortfall, b, fb, x, fx, a, fa));
 }
 
 /**
@@ -282,10 +289,8 @@ function refinedCornerHz(stage: SmallSignalStage, figure: CornerFigure, aboveHz:
  * the crossing bracketed (R. P. Brent, Algorithms for Minimization without Derivatives, 1973,
  * ch. 4).
  */
-function refineCrossing(f: (x: number) => number, a: number, fa: number, b: number, fb: number): number {
+function refineCrossing(f: (x: number) => number, a: number, fa: number, b: number, fb: number, c = a, fc = fa): number {
   // b: the best estimate; c: the other end of the bracket; a: the previous b
-  let c = a;
-  let fc = fa;
   let d = b - a;
   let e = d;
   for (let step = 0; step < CORNER_MAX_STEPS; step += 1) {
