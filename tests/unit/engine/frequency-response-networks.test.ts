@@ -180,6 +180,18 @@ describe('five coupled nodes (three Householder reflections)', () => {
     }
   });
 
+  test('solving only the first drive gives its transfers (Cramer’s rule) and no other drive’s', () => {
+    const net = fiveNodes();
+    const drives: [number, number][] = [[0.5, -0.5], [1, 1]];
+    const outputs: OutputWeights[] = [{ nodes: [3], weights: [1] }, { nodes: [3, 1], weights: [1, -1] }];
+    const model = modelOf(net, drives, outputs);
+    for (const omega of omegas()) {
+      const t = transfersAtOmega(model, omega, 1);
+      expect(t).toHaveLength(1);
+      outputs.forEach((w, wi) => expect(relative(t[0][wi], direct(net, drives[0], w, omega)), `output ${wi} at ω ${omega}`).toBeLessThan(1e-10));
+    }
+  });
+
   test('H is upper Hessenberg, with A_KK’s Frobenius norm and trace; the drives’ and outputs’ norms are those of r0_K, r1_K and wᵀA', () => {
     const net = fiveNodes();
     const output: OutputWeights = { nodes: [3, 1], weights: [1, -1] };
