@@ -11,7 +11,7 @@ import { nodeVoltage, type IndexedCircuit } from './node-system';
 import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { withHardFields } from './convergence-hints';
 import { TRANSFER_PARTS, magnitude, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
-import { transferMoveBound, transfersAtOmega, type ComplexPair } from './frequency-response';
+import { transferMoveBound, transfersAtOmega, type ComplexPair, type FrequencyModel } from './frequency-response';
 import { hasModelCard, resolvedParameters } from './bjt-parameters';
 import type { AcEntry, AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
@@ -242,6 +242,27 @@ function figurePower(figure: CornerFigure, t: StageTransfers): number {
   return power / (d.re * d.re + d.im * d.im);
 }
 
+/** One of a solve's transfers, [drive][output] as TRANSFER_PARTS places it. */
+function partOf(t: ComplexPair[][], part: keyof StageTransfers): ComplexPair {
+  const { drive, output } = TRANSFER_PARTS[part];
+  return t[drive][output];
+}
+
+/**
+ * The figure's power ratio at a frequency (Hz) from a solve of only the drives it reads,
+ * uncached: a refinement's frequencies serve no other figure.
+ */
+function solvedFigurePower(model: FrequencyModel, figure: CornerFigure, frequencyHz: number): number {
+  const { numerator, denominator } = figure;
+  const driveCount = Math.max(TRANSFER_PARTS[numerator].drive, denominator ? TRANSFER_PARTS[denominator].drive : 0) + 1;
+  const t = transfersAtOmega(model, 2 * Math.PI * frequencyHz, driveCount);
+  const n = partOf(t, numerator);
+  const power = n.re * n.re + n.im * n.im;
+  if (!denominator) return power;
+  const d = partOf(t, denominator);
+  return power / (d.re * d.re + d.im * d.im);
+}
+
 /**
  * The corner between two grid frequencies (the figure above its target at `aboveHz`, at or below
  * at `belowHz`): the root of 2 − P0/P(f) in v = f², P the figure as a power ratio (figurePower,
@@ -251,20 +272,8 @@ function figurePower(figure: CornerFigure, t: StageTransfers): number {
  */
 function refinedCornerHz(stage: SmallSignalStage, figure: CornerFigure, aboveHz: number, belowHz: number): number {
   const lowPower = figurePower(figure, stage.low);
-  // the refinement's frequencies serve no other figure: solve only the drives this figure reads, uncached
   const model = stage.frequency!;
-  const { numerator, denominator } = figure;
-  const driveCount = Math.max(TRANSFER_PARTS[numerator].drive, denominator ? TRANSFER_PARTS[denominator].drive : 0) + 1;
-  const partAt = (t: ComplexPair[][], part: keyof StageTransfers) => t[TRANSFER_PARTS[part].drive][TRANSFER_PARTS[part].output];
-  const powerAt = (hz: number) => {
-    const t = transfersAtOmega(model, 2 * Math.PI * hz, driveCount);
-    const n = partAt(t, numerator);
-    const power = n.re * n.re + n.im * n.im;
-    if (!denominator) return power;
-    const d = partAt(t, denominator);
-    return power / (d.re * d.re + d.im * d.im);
-  };
-  const shortfall = (v: number) => 2 - lowPower / powerAt(Math.sqrt(v));
+  const shortfall = (v: number) => 2 - lowPower / solvedFigurePower(model, figure, Math.sqrt(v));
   const a = aboveHz * aboveHz;
   const b = belowHz * belowHz;
   // the ends are grid points, solved (and kept) by the scan
