@@ -51,8 +51,8 @@ export function luFactor(matrix: number[], n: number, inPlace = false): LuFactor
   return { n, lu, pivot };
 }
 
-/** Solves A·x = b with the factors of A; returns a new vector. */
-export function luSolve({ n, lu, pivot }: LuFactors, rhs: number[]): number[] {
+/** A copy of b with the factorisation's row exchanges applied, in the order they were made. */
+function pivoted(rhs: readonly number[], pivot: readonly number[], n: number): number[] {
   const x = rhs.slice();
   for (let k = 0; k < n; k += 1) {
     const p = pivot[k];
@@ -62,6 +62,12 @@ export function luSolve({ n, lu, pivot }: LuFactors, rhs: number[]): number[] {
       x[p] = tmp;
     }
   }
+  return x;
+}
+
+/** Solves A·x = b with the factors of A; returns a new vector. */
+export function luSolve({ n, lu, pivot }: LuFactors, rhs: number[]): number[] {
+  const x = pivoted(rhs, pivot, n);
   for (let r = 1; r < n; r += 1) {
     let sum = x[r];
     for (let c = 0; c < r; c += 1) sum -= lu[r * n + c] * x[c];
@@ -110,15 +116,7 @@ export function sparseLuFactors(factors: LuFactors): SparseLuFactors {
 /** Solves A·x = b as luSolve does (the same operations in the same order, without the zero terms); returns a new vector. */
 export function sparseLuSolve({ factors, lowerStart, lowerCols, upperStart, upperCols }: SparseLuFactors, rhs: readonly number[]): number[] {
   const { n, lu, pivot } = factors;
-  const x = rhs.slice();
-  for (let k = 0; k < n; k += 1) {
-    const p = pivot[k];
-    if (p !== k) {
-      const tmp = x[k];
-      x[k] = x[p];
-      x[p] = tmp;
-    }
-  }
+  const x = pivoted(rhs, pivot, n);
   for (let r = 1; r < n; r += 1) {
     let sum = x[r];
     for (let i = lowerStart[r]; i < lowerStart[r + 1]; i += 1) {
