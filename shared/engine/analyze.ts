@@ -3,7 +3,7 @@
  * solved self-consistently and the small-signal stage as a whole (operating-point.ts,
  * small-signal.ts); this file turns the solution into the contract's figures.
  */
-import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE, stageCircuit, type StageCircuit } from './circuit';
+import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE, pairIsMatched, stageCircuit, type StageCircuit } from './circuit';
 import { closedFormTailRout } from './closed-form';
 import { deviceModel, forwardBeta, type BjtEval, type DeviceModel } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
@@ -28,8 +28,6 @@ const CUT_OFF_CURRENT_A = 1e-10;
  * 0.15 V at −55 °C (VT scales it); the product's choice, stated in docs/device-and-formulas.md.
  */
 export const SATURATION_GAIN_LOSS_LIMIT = 0.05;
-/** A differential common-mode gain below this fraction of the common-mode gain is "zero" (matched pair). */
-const MATCHED_PAIR_RATIO = 1e-9;
 
 /** A solved circuit: the operating point and the small-signal responses. */
 export interface SolvedCircuit {
@@ -361,15 +359,14 @@ function refineCrossing(f: (x: number) => number, a: number, fa: number, b: numb
   return b;
 }
 
-/** The `ac` entries at the requested frequencies. */
-function acEntries(stage: SmallSignalStage, frequenciesHz: readonly number[]): AcEntry[] {
+/** The `ac` entries at the requested frequencies; `matched`: the pair is matched (pairIsMatched). */
+function acEntries(stage: SmallSignalStage, frequenciesHz: readonly number[], matched: boolean): AcEntry[] {
   return frequenciesHz.map((frequencyHz) => {
     const t = transfersAt({ stage }, frequencyHz);
     const differentialGain = magnitude(t.differentialGain);
     const singleEndedGain = magnitude(t.singleEndedGain);
     const commonModeGain = magnitude(t.commonModeGain);
     const differentialCommonModeGain = magnitude(t.differentialCommonModeGain);
-    const matched = differentialCommonModeGain <= MATCHED_PAIR_RATIO * commonModeGain;
     return {
       frequencyHz,
       differentialGain,
@@ -411,11 +408,14 @@ function inputWarnings(earlyVoltageV: number): InputWarning[] {
   return Number.isFinite(earlyVoltageV) ? [] : ['no-early-voltage'];
 }
 
+/** The least current a starting-guess VBE is taken at, A. */
+const GUESS_LEAST_CURRENT_A = 1e-9;
+
 /** Starting-guess VBE: the device's VBE at a rough tail-current estimate (rails over the largest resistor). */
 function vbeGuessV(design: Design, model: DeviceModel): number {
   const tail = design.tail;
   const tailOhm = tail.topology === 'resistor' ? tail.resistanceOhm : tail.referenceResistanceOhm;
-  const currentA = Math.max((design.supply.positiveV - design.supply.negativeV) / (2 * tailOhm), 1e-9);
+  const currentA = Math.max((design.supply.positiveV - design.supply.negativeV) / (2 * tailOhm), GUESS_LEAST_CURRENT_A);
   return model.thermalVoltageV * Math.log(currentA / model.saturationCurrentA);
 }
 
@@ -470,7 +470,7 @@ export function solveCondition(design: Design, warmStart?: SolvedCircuit): Condi
 export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedCircuit {
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const model = deviceModel(design.device, temperatureC);
-  const circuit = stageCircuit(design, vbeGuessV(design, model));
+  const circuit = stageCircuit(design, vbeGuessV(design, model), (currentA) => model.thermalVoltageV * Math.log(Math.max(currentA, GUESS_LEAST_CURRENT_A) / model.saturationCurrentA));
   let op: OperatingPoint;
   try {
     op = solveOperatingPoint(circuit, model, warmStart?.op, ownTransistorModels(circuit, design.device, temperatureC));
@@ -502,7 +502,7 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit, searchCorners
   const low = stage.low;
   const [differentialBandwidthHz, cornerHz] = searchCorners ? cornersHz(stage, [DIFFERENTIAL_GAIN, SINGLE_ENDED_CMRR]) : NOT_SEARCHED;
   const cmrrSingleDb = 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re));
-  const matched = Math.abs(low.differentialCommonModeGain.re) <= MATCHED_PAIR_RATIO * Math.abs(low.commonModeGain.re);
+  const matched = pairIsMatched(design);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);
   const problems = operatingPointProblems(transistors, referenceCurrentA, design.tail.topology !== 'resistor');
   const problemTexts = problems.map(operatingPointProblemText);
@@ -523,7 +523,7 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit, searchCorners
     },
     cmrrCornerHz: cornerHz,
     differentialBandwidthHz,
-    ac: acEntries(stage, design.frequenciesHz ?? []),
+    ac: acEntries(stage, design.frequenciesHz ?? [], matched),
     // Power delivered by the rails: Σ V·I, I the current each rail sends into the circuit.
     powerW: design.supply.positiveV * positiveA + design.supply.negativeV * negativeA,
     warnings: [...problemTexts, ...inputWarnings(model.earlyVoltageV).map(inputWarningText)],

@@ -72,12 +72,15 @@ export interface StageCircuit {
 
 /** Rough VBE used only for starting guesses when the caller has none, V. */
 const GUESS_VBE_V = 0.65;
+/** Passes of the pair's VBE guess and the tail current guess, each from the other (with a device's VBE). */
+const PAIR_GUESS_PASSES = 2;
 
 /**
  * Builds the stage circuit of a design: the pair, its loads and the tail element.
- * `vbeGuessV` only shapes the solver's starting guess.
+ * `vbeGuessV` and `vbeAtV` (the device's VBE at a current, when known) only shape the
+ * solver's starting guess.
  */
-export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCircuit {
+export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V, vbeAtV?: (currentA: number) => number): StageCircuit {
   const { positiveV, negativeV } = design.supply;
   const vicmV = design.inputCommonModeV ?? 0;
   const rcOhm = design.collectorResistanceOhm;
@@ -87,7 +90,7 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
   const betaScale2 = 1 + (design.pairBetaMismatch ?? 0);
   const earlyVoltageScale2 = 1 + (design.pairEarlyVoltageMismatch ?? 0);
   const pair2Scales = { ...(betaScale2 !== 1 ? { betaScale: betaScale2 } : {}), ...(earlyVoltageScale2 !== 1 ? { earlyVoltageScale: earlyVoltageScale2 } : {}) };
-  const tailNodeGuessV = vicmV - vbeGuessV;
+  let tailNodeGuessV = vicmV - vbeGuessV;
   const emitterNodes = reOhm > 0 ? ['e1', 'e2'] : [TAIL_NODE, TAIL_NODE];
   const sourceOhm = design.sourceResistanceOhm ?? 0;
   const driveNodes = sourceOhm > 0 ? DRIVE_NODES_BEHIND_SOURCE : INPUT_NODES;
@@ -110,7 +113,15 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
       { kind: 'resistor', name: 'RE2', nodes: ['e2', TAIL_NODE], resistanceOhm: reOhm, part: 'pair' },
     );
   }
-  const tail = tailElements(design.tail, { positiveV, negativeV, tailNodeGuessV, vbeGuessV });
+  let tail = tailElements(design.tail, { positiveV, negativeV, tailNodeGuessV, vbeGuessV, vbeAtV });
+  if (vbeAtV) {
+    // The pair's VBE at half the tail current; the tail guessed again from there (a resistor
+    // tail's current follows the tail node), twice
+    for (let pass = 0; pass < PAIR_GUESS_PASSES; pass += 1) {
+      tailNodeGuessV = vicmV - vbeAtV(tail.currentGuessA / 2);
+      tail = tailElements(design.tail, { positiveV, negativeV, tailNodeGuessV, vbeGuessV, vbeAtV });
+    }
+  }
   elements.push(...tail.elements);
 
   const tailCapacitanceF = design.tailCapacitanceF ?? 0;
@@ -155,6 +166,15 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V): StageCirc
     elements,
     initialGuessV,
   };
+}
+
+/**
+ * Whether a design's two halves are the same circuit: no collector, IS, BF or VAF mismatch. Then
+ * a common-mode drive moves both collectors alike and the differential common-mode gain is zero
+ * exactly (the contract's "perfectly matched pair"), whatever rounding leaves in a solved figure.
+ */
+export function pairIsMatched(design: Design): boolean {
+  return !design.collectorMismatch && !design.pairSaturationCurrentMismatch && !design.pairBetaMismatch && !design.pairEarlyVoltageMismatch;
 }
 
 /**

@@ -17,7 +17,14 @@ export interface TailGuessContext {
   positiveV: number;
   negativeV: number;
   tailNodeGuessV: number;
+  /** One VBE for every junction, V. */
   vbeGuessV: number;
+  /**
+   * The device's VBE at a collector current (A), when the caller knows the device: each
+   * junction is then guessed at its own current (the reference transistors at the reference
+   * current), which starts Newton a few millivolts from the solution instead of tens.
+   */
+  vbeAtV?: (currentA: number) => number;
 }
 
 export interface TailElements {
@@ -45,9 +52,28 @@ function widlarGuessA(referenceA: number, emitterOhm: number): number {
   return currentA;
 }
 
+/** Fixed-point steps of Iref = (V+ − V− − n·VBE(Iref))/R (each divides the error by about R·Iref/(n·VT)). */
+const REFERENCE_GUESS_STEPS = 3;
+
+/**
+ * The reference current through `ohm` and `junctions` diode drops from V+ to V−, and the VBE at
+ * it: Iref = (V+ − V− − n·VBE)/R with VBE from the context's device when it gives one.
+ */
+function referenceGuess(ctx: TailGuessContext, junctions: number, ohm: number): { currentA: number; vbeV: number } {
+  let vbeV = ctx.vbeGuessV;
+  let currentA = Math.max(ctx.positiveV - ctx.negativeV - junctions * vbeV, 0) / ohm;
+  if (ctx.vbeAtV) {
+    for (let step = 0; step < REFERENCE_GUESS_STEPS && currentA > 0; step += 1) {
+      vbeV = ctx.vbeAtV(currentA);
+      currentA = Math.max(ctx.positiveV - ctx.negativeV - junctions * vbeV, 0) / ohm;
+    }
+  }
+  return { currentA, vbeV };
+}
+
 /** Elements and guesses of one tail element. */
 export function tailElements(tail: TailDesign, ctx: TailGuessContext): TailElements {
-  const { positiveV: vp, negativeV: vn, vbeGuessV: vbe } = ctx;
+  const { negativeV: vn } = ctx;
   switch (tail.topology) {
     case 'resistor':
       return {
@@ -56,7 +82,7 @@ export function tailElements(tail: TailDesign, ctx: TailGuessContext): TailEleme
         currentGuessA: Math.max(ctx.tailNodeGuessV - vn, 0) / tail.resistanceOhm,
       };
     case 'simple-mirror': {
-      const refA = Math.max(vp - vn - vbe, 0) / tail.referenceResistanceOhm;
+      const { currentA: refA, vbeV: vbe } = referenceGuess(ctx, 1, tail.referenceResistanceOhm);
       return {
         elements: [resistor('RREF', VP, 'ref', tail.referenceResistanceOhm), npn('Q3', 'ref', 'ref', VN), npn('Q4', T, 'ref', VN)],
         initialGuessV: { ref: vn + vbe },
@@ -65,7 +91,7 @@ export function tailElements(tail: TailDesign, ctx: TailGuessContext): TailEleme
     }
     case 'degenerated-mirror': {
       const reOhm = tail.emitterResistanceOhm;
-      const refA = Math.max(vp - vn - vbe, 0) / (tail.referenceResistanceOhm + reOhm);
+      const { currentA: refA, vbeV: vbe } = referenceGuess(ctx, 1, tail.referenceResistanceOhm + reOhm);
       return {
         elements: [
           resistor('RREF', VP, 'ref', tail.referenceResistanceOhm),
@@ -80,7 +106,7 @@ export function tailElements(tail: TailDesign, ctx: TailGuessContext): TailEleme
     }
     case 'widlar': {
       const reOhm = tail.emitterResistanceOhm;
-      const refA = Math.max(vp - vn - vbe, 0) / tail.referenceResistanceOhm;
+      const { currentA: refA, vbeV: vbe } = referenceGuess(ctx, 1, tail.referenceResistanceOhm);
       const outA = widlarGuessA(refA, reOhm);
       return {
         elements: [
@@ -94,7 +120,7 @@ export function tailElements(tail: TailDesign, ctx: TailGuessContext): TailEleme
       };
     }
     case 'wilson': {
-      const refA = Math.max(vp - vn - 2 * vbe, 0) / tail.referenceResistanceOhm;
+      const { currentA: refA, vbeV: vbe } = referenceGuess(ctx, 2, tail.referenceResistanceOhm);
       return {
         elements: [
           resistor('RREF', VP, 'ref', tail.referenceResistanceOhm),
@@ -107,7 +133,7 @@ export function tailElements(tail: TailDesign, ctx: TailGuessContext): TailEleme
       };
     }
     case 'cascode': {
-      const refA = Math.max(vp - vn - 2 * vbe, 0) / tail.referenceResistanceOhm;
+      const { currentA: refA, vbeV: vbe } = referenceGuess(ctx, 2, tail.referenceResistanceOhm);
       return {
         elements: [
           resistor('RREF', VP, 'ref', tail.referenceResistanceOhm),

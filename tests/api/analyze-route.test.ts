@@ -12,8 +12,8 @@ const DESIGN = {
   collectorResistanceOhm: 10000,
   tail: { topology: 'simple-mirror', referenceResistanceOhm: 22000 },
 };
-/** 1 GΩ collector and tail resistors around a 2 Ω pair emitter resistor: no operating point found. */
-const HARD = { ...DESIGN, collectorResistanceOhm: 1e9, pairEmitterResistanceOhm: 2, tail: { topology: 'resistor', resistanceOhm: 1e9 } };
+/** 1 GΩ collector and cascode reference resistors around a 1 mΩ pair emitter resistor: no operating point found. */
+const HARD = { ...DESIGN, collectorResistanceOhm: 1e9, pairEmitterResistanceOhm: 1e-3, tail: { topology: 'cascode', referenceResistanceOhm: 1e9 } };
 
 describe('POST /api/analyze', () => {
   let api: TestApi;
@@ -31,8 +31,8 @@ describe('POST /api/analyze', () => {
   test('a design that cannot be solved: 422, the message and details name the fields that make it hard', async () => {
     const answer = await designer.post('/api/analyze').send(HARD).expect(422);
     expect(answer.body.code).toBe('not-solvable');
-    expect(answer.body.error).toMatch(/the fields that make it hard: \/collectorResistanceOhm, \/tail\/resistanceOhm, \/pairEmitterResistanceOhm/);
-    expect(answer.body.details.map((d: { path: string }) => d.path)).toEqual(['/collectorResistanceOhm', '/tail/resistanceOhm', '/pairEmitterResistanceOhm']);
+    expect(answer.body.error).toMatch(/the fields that make it hard: \/pairEmitterResistanceOhm, \/collectorResistanceOhm, \/tail\/referenceResistanceOhm/);
+    expect(answer.body.details.map((d: { path: string }) => d.path)).toEqual(['/pairEmitterResistanceOhm', '/collectorResistanceOhm', '/tail/referenceResistanceOhm']);
   });
 
   test('a body with a UTF-8 byte-order mark in front gets the same answer as without', async () => {

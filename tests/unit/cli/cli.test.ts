@@ -122,7 +122,7 @@ describe('longtail on bad input: exit 2, one line on stderr, no stack trace', ()
     ['outOfRange', /^longtail: \/collectorResistanceOhm\b/],
     ['unknownTopology', /^longtail: \/tail\/topology\b/],
     ['railsReversed', /^longtail: \/supply\/negativeV\b/],
-    ['hardToSolve', /^longtail: \/pairEmitterResistanceOhm: this design cannot be solved: .*the fields that make it hard: \/pairEmitterResistanceOhm, \/collectorResistanceOhm, \/tail\/resistanceOhm/],
+    ['hardToSolve', /^longtail: \/pairEmitterResistanceOhm: this design cannot be solved: .*the fields that make it hard: \/pairEmitterResistanceOhm, \/collectorResistanceOhm, \/tail\/referenceResistanceOhm/],
     ['missingFile', /^longtail: .*no-such-file\.json/],
     ['noArguments', /^longtail: usage: /],
   ])('%s: stderr matches %s', (name, pattern) => {

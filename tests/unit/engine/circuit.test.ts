@@ -7,7 +7,7 @@
  * current's drop across RC below the rail).
  */
 import { describe, expect, test } from 'vitest';
-import { stageCircuit, type CircuitElement } from '#shared/engine/circuit';
+import { pairIsMatched, stageCircuit, type CircuitElement } from '#shared/engine/circuit';
 import type { Design } from '#shared/engine/types';
 
 const BASE: Design = {
@@ -86,5 +86,35 @@ describe('starting guess', () => {
     expect(circuit.initialGuessV.e1).toBeCloseTo(0.8, 12);
     expect(circuit.initialGuessV.e2).toBeCloseTo(0.8, 12);
     expect(circuit.initialGuessV.t).toBeCloseTo(0.8 - (iTail / 2) * 470, 12);
+  });
+});
+
+describe('starting guess with the device\'s VBE at each current', () => {
+  // VBE = VT·ln(I/IS), the forward junction [GM], at the room-temperature VT the guesses use
+  const VT_V = 0.0259;
+  const vbeAtV = (currentA: number) => VT_V * Math.log(currentA / 1e-15);
+
+  test('simple mirror: the tail node the VBE of half the tail current below the inputs', () => {
+    const circuit = stageCircuit(BASE, 0.7, vbeAtV);
+    const iTail = (24 - (circuit.initialGuessV.ref + 12)) / 22000;
+    expect(circuit.initialGuessV.t).toBeCloseTo(1.5 - vbeAtV(iTail / 2), 9);
+  });
+
+  test('resistor tail: the tail node and the tail current agree, I = (t − V−)/RT with t the VBE of I/2 below the inputs, to 0.1 mV', () => {
+    const circuit = stageCircuit({ ...BASE, tail: { topology: 'resistor', resistanceOhm: 15000 } }, 0.7, vbeAtV);
+    const t = circuit.initialGuessV.t;
+    const iTail = (t + 12) / 15000;
+    expect(Math.abs(t - (1.5 - vbeAtV(iTail / 2)))).toBeLessThan(1e-4);
+  });
+});
+
+describe('a matched pair', () => {
+  test('is one with no collector, IS, BF or VAF mismatch; any one of them makes it mismatched', () => {
+    expect(pairIsMatched(BASE)).toBe(true);
+    expect(pairIsMatched({ ...BASE, collectorMismatch: 0, pairSaturationCurrentMismatch: 0, pairBetaMismatch: 0, pairEarlyVoltageMismatch: 0 })).toBe(true);
+    for (const field of ['collectorMismatch', 'pairSaturationCurrentMismatch', 'pairBetaMismatch', 'pairEarlyVoltageMismatch'] as const) {
+      expect(pairIsMatched({ ...BASE, [field]: 1e-6 }), field).toBe(false);
+      expect(pairIsMatched({ ...BASE, [field]: -0.01 }), field).toBe(false);
+    }
   });
 });

@@ -128,3 +128,42 @@ describe('starting guesses from hand analysis', () => {
     expect(guess.currentGuessA).toBe(0);
   });
 });
+
+describe('starting guesses with the device\'s VBE at each current', () => {
+  // VBE = VT·ln(I/IS), the Ebers–Moll forward junction [GM]; IS invented for the test
+  const IS_A = 2e-15;
+  const vbeAtV = (currentA: number) => GUESS_VT * Math.log(currentA / IS_A);
+  const ctx: TailGuessContext = { ...CTX, vbeAtV };
+  /** Iref solving Iref = (V+ − V− − n·VBE(Iref))/R, by bisection (independent of the guess's fixed point). */
+  function referenceA(junctions: number, ohm: number): number {
+    let low = 1e-12;
+    let high = (CTX.positiveV - CTX.negativeV) / ohm;
+    for (let i = 0; i < 200; i += 1) {
+      const mid = Math.sqrt(low * high);
+      if (mid * ohm + junctions * vbeAtV(mid) > CTX.positiveV - CTX.negativeV) high = mid;
+      else low = mid;
+    }
+    return low;
+  }
+
+  test('simple mirror: the reference current and the shared base at the VBE of that current, within 0.1 % and 0.1 mV', () => {
+    const guess = tailElements({ topology: 'simple-mirror', referenceResistanceOhm: 23400 }, ctx);
+    const iref = referenceA(1, 23400);
+    expect(Math.abs(guess.currentGuessA / iref - 1)).toBeLessThan(1e-3);
+    expect(Math.abs(guess.initialGuessV.ref - (CTX.negativeV + vbeAtV(iref)))).toBeLessThan(1e-4);
+  });
+
+  test.each(['wilson', 'cascode'] as const)('%s: two VBE of the reference current stacked, within 0.1 % and 0.2 mV', (topology) => {
+    const guess = tailElements({ topology, referenceResistanceOhm: 22800 }, ctx);
+    const iref = referenceA(2, 22800);
+    expect(Math.abs(guess.currentGuessA / iref - 1)).toBeLessThan(1e-3);
+    expect(Math.abs(guess.initialGuessV.ref - (CTX.negativeV + 2 * vbeAtV(iref)))).toBeLessThan(2e-4);
+  });
+
+  test('Widlar: the reference side at the reference current; the output from Iout·RE = VT·ln(Iref/Iout) with that Iref', () => {
+    const guess = tailElements({ topology: 'widlar', referenceResistanceOhm: 4680, emitterResistanceOhm: 150 }, ctx);
+    const iref = referenceA(1, 4680);
+    expect(Math.abs(guess.initialGuessV.ref - (CTX.negativeV + vbeAtV(iref)))).toBeLessThan(1e-4);
+    expect(guess.currentGuessA * 150).toBeCloseTo(GUESS_VT * Math.log(iref / guess.currentGuessA), 4);
+  });
+});
