@@ -10,7 +10,10 @@ import path from 'node:path';
 
 /** The mutated folders, the tests that cover each, and the score each must reach (issue 14). */
 const FOLDERS = [
-  { folder: 'shared/engine', tests: ['tests/unit/engine/**/*.test.ts', 'tests/reference/**/*.test.ts'], target: 85 },
+  // The engine's unit tests only. The SPICE reference tests kill more mutants still, but each core
+  // mutant (the operating point, the device) would then run 500 ngspice comparisons: a whole-engine
+  // run took hours. Fewer tests can only kill fewer mutants, so the score printed is a lower bound.
+  { folder: 'shared/engine', tests: ['tests/unit/engine/**/*.test.ts'], target: 85 },
   { folder: 'shared/units', tests: ['tests/unit/units/**/*.test.ts'], target: 75 },
   {
     folder: 'shared/validation',
@@ -47,6 +50,20 @@ const named = args.filter((a) => !a.startsWith('--'));
 const fromEnvironment = (process.env.LONGTAIL_MUTATION_TARGETS ?? '').split(',').filter(Boolean);
 const targets = named.length ? named : fromEnvironment.length ? fromEnvironment : FOLDERS.map((f) => f.folder);
 
+/** A mutant the shared-module pass left alone because it runs when a module loads (stryker.config.mjs). */
+const isStaticIgnored = (m) => m.status === 'Ignored' && /static/i.test(m.statusReason ?? '');
+
+/** One Stryker run; `extra`: more environment (the isolated pass's). */
+function stryker(target, slug, tests, extra = {}) {
+  const started = Date.now();
+  const run = spawnSync('npx', ['stryker', 'run', 'stryker.config.mjs', ...(force ? ['--force'] : [])], {
+    stdio: 'inherit',
+    env: { ...process.env, LONGTAIL_MUTATION_TARGET: target, LONGTAIL_MUTATION_SLUG: slug, LONGTAIL_MUTATION_TESTS: tests.join(','), ...extra },
+  });
+  console.log(`== ${slug}: ${Math.round((Date.now() - started) / 1000)} s`);
+  if (run.status !== 0) process.exit(run.status ?? 1);
+}
+
 if (!summaryOnly) {
   for (const raw of targets) {
     const target = raw.replace(/^\.\//, '').replace(/\/$/, '');
@@ -57,25 +74,27 @@ if (!summaryOnly) {
     }
     const slug = target.replace(/\.ts$/, '').replace(/[^a-z0-9]+/gi, '-');
     console.log(`\n== mutating ${target} (tests: ${owner.tests.join(', ')})`);
-    const started = Date.now();
-    const run = spawnSync('npx', ['stryker', 'run', 'stryker.config.mjs', ...(force ? ['--force'] : [])], {
-      stdio: 'inherit',
-      env: {
-        ...process.env,
-        LONGTAIL_MUTATION_TARGET: target,
-        LONGTAIL_MUTATION_SLUG: slug,
-        LONGTAIL_MUTATION_TESTS: owner.tests.join(','),
-      },
-    });
-    console.log(`== ${target}: ${Math.round((Date.now() - started) / 1000)} s`);
-    if (run.status !== 0) process.exit(run.status ?? 1);
+    stryker(target, slug, owner.tests);
+    // The static mutants, each with a fresh module graph per test file: the lines that hold them
+    const report = JSON.parse(readFileSync(path.join('reports/mutation', slug, 'mutation.json'), 'utf8'));
+    const ranges = [];
+    for (const [name, result] of Object.entries(report.files)) {
+      const relative = path.relative(process.cwd(), path.resolve(name)).split(path.sep).join('/');
+      for (const m of result.mutants.filter(isStaticIgnored)) ranges.push(`${relative}:${m.location.start.line}-${m.location.end.line}`);
+    }
+    if (ranges.length) {
+      console.log(`\n== ${target}: the static mutants (${ranges.length}), each test file with its own modules`);
+      stryker(target, `${slug}-static`, owner.tests, { LONGTAIL_MUTATION_ISOLATE: '1', LONGTAIL_MUTATION_RANGES: [...new Set(ranges)].join(',') });
+    }
   }
 }
 
-// Score per folder from every report under reports/mutation/. A file reported by several runs (a
-// folder run and a one-file run) counts once, from the newest report.
+// Score per folder from every report under reports/mutation/ that was made from a file as it is
+// now (its source in the report equals the file): each mutant (mutator, place, replacement)
+// counts once, from the newest report that ran it; a static mutant the shared pass left alone
+// counts from the isolated pass that ran it, and as "static, not run" until one has.
 const root = 'reports/mutation';
-const newest = new Map();
+const byFile = new Map();
 for (const dir of existsSync(root) ? readdirSync(root) : []) {
   const file = path.join(root, dir, 'mutation.json');
   if (!existsSync(file)) continue;
@@ -83,18 +102,28 @@ for (const dir of existsSync(root) ? readdirSync(root) : []) {
   const report = JSON.parse(readFileSync(file, 'utf8'));
   for (const [name, result] of Object.entries(report.files)) {
     const relative = path.relative(process.cwd(), path.resolve(name)).split(path.sep).join('/');
-    const seen = newest.get(relative);
-    if (!seen || seen.when < when) newest.set(relative, { when, mutants: result.mutants });
+    if (!existsSync(relative) || readFileSync(relative, 'utf8') !== result.source) continue;
+    const mutants = byFile.get(relative) ?? new Map();
+    byFile.set(relative, mutants);
+    for (const m of result.mutants) {
+      const { start, end } = m.location;
+      const key = `${m.mutatorName}|${start.line}:${start.column}-${end.line}:${end.column}|${m.replacement ?? ''}`;
+      const seen = mutants.get(key);
+      const better = !seen || (isStaticIgnored(seen.m) && !isStaticIgnored(m)) || (isStaticIgnored(seen.m) === isStaticIgnored(m) && seen.when < when);
+      if (better) mutants.set(key, { when, m });
+    }
   }
 }
+const newest = new Map([...byFile].map(([file, mutants]) => [file, { mutants: [...mutants.values()].map((x) => x.m) }]));
 
 const rows = FOLDERS.map(({ folder, target }) => {
-  const count = { Killed: 0, Survived: 0, NoCoverage: 0, Timeout: 0, Ignored: 0, errors: 0, files: 0 };
+  const count = { Killed: 0, Survived: 0, NoCoverage: 0, Timeout: 0, Ignored: 0, static: 0, errors: 0, files: 0 };
   for (const [file, { mutants }] of newest) {
     if (folderOf(file)?.folder !== folder) continue;
     count.files += 1;
     for (const m of mutants) {
-      if (m.status in count) count[m.status] += 1;
+      if (isStaticIgnored(m)) count.static += 1;
+      else if (m.status in count) count[m.status] += 1;
       else count.errors += 1;
     }
   }
@@ -108,12 +137,12 @@ const rows = FOLDERS.map(({ folder, target }) => {
 const pad = (value, width) => String(value).padStart(width);
 console.log('\nMutation score per folder (reports/mutation/*/mutation.json)');
 console.log(
-  `${'folder'.padEnd(18)}${pad('files', 8)}${pad('killed', 8)}${pad('survived', 10)}${pad('no cover', 10)}${pad('timeout', 9)}${pad('ignored', 9)}${pad('score', 9)}${pad('target', 8)}`,
+  `${'folder'.padEnd(18)}${pad('files', 8)}${pad('killed', 8)}${pad('survived', 10)}${pad('no cover', 10)}${pad('timeout', 9)}${pad('ignored', 9)}${pad('static, not run', 17)}${pad('score', 9)}${pad('target', 8)}`,
 );
 for (const r of rows) {
   const score = r.score === null ? '—' : `${r.score.toFixed(1)} %`;
   const verdict = r.score === null ? 'not run' : r.score >= r.target ? 'ok' : 'below';
   console.log(
-    `${r.folder.padEnd(18)}${pad(`${r.files}/${r.all}`, 8)}${pad(r.Killed, 8)}${pad(r.Survived, 10)}${pad(r.NoCoverage, 10)}${pad(r.Timeout, 9)}${pad(r.Ignored, 9)}${pad(score, 9)}${pad(`${r.target} %`, 8)}  ${verdict}`,
+    `${r.folder.padEnd(18)}${pad(`${r.files}/${r.all}`, 8)}${pad(r.Killed, 8)}${pad(r.Survived, 10)}${pad(r.NoCoverage, 10)}${pad(r.Timeout, 9)}${pad(r.Ignored, 9)}${pad(r.static, 17)}${pad(score, 9)}${pad(`${r.target} %`, 8)}  ${verdict}`,
   );
 }

@@ -19,7 +19,8 @@ export const DEBIAN_NGSPICE_PROJECT = 'reference-debian-ngspice';
  * against ngspice with full model cards at DC and over frequency up to the gain's −20 dB point
  * (every topology, −40, 27 and 125 °C) and with saturated tails; and the three-parameter
  * reference files (every topology over corners, gm and saturation, the smallest resistances); what
- * limits the rejection, each part removed or changed in the netlist. Every file of tests/reference
+ * limits the rejection, each part removed or changed in the netlist; every topology's netlists
+ * run against hand formulas. Every file of tests/reference
  * is listed today (tests/unit/helpers/debian-ngspice-files.test.ts holds it so).
  */
 export const DEBIAN_NGSPICE_REFERENCE_FILES = [
@@ -31,6 +32,7 @@ export const DEBIAN_NGSPICE_REFERENCE_FILES = [
   'tests/reference/saturation-and-transconductance.test.ts',
   'tests/reference/smallest-resistances.test.ts',
   'tests/reference/rejection-limits-agreement.test.ts',
+  'tests/reference/netlist-runs.test.ts',
 ] as const;
 
 /** Whether Debian's ngspice is installed (an executable at `path`). */
