@@ -10,10 +10,11 @@ import path from 'node:path';
 
 /** The mutated folders, the tests that cover each, and the score each must reach (issue 14). */
 const FOLDERS = [
-  // The engine's unit tests only. The SPICE reference tests kill more mutants still, but each core
-  // mutant (the operating point, the device) would then run 500 ngspice comparisons: a whole-engine
-  // run took hours. Fewer tests can only kill fewer mutants, so the score printed is a lower bound.
-  { folder: 'shared/engine', tests: ['tests/unit/engine/**/*.test.ts'], target: 85 },
+  // The engine file by file, each against the unit tests that import it (perFile, importingTests). With every
+  // engine and reference test, a mutant of the code every figure passes through (the operating
+  // point, the device) ran hundreds of tests, some with ngspice: the engine took hours. Fewer
+  // tests can only kill fewer mutants, so the score printed is a lower bound of that one.
+  { folder: 'shared/engine', tests: ['tests/unit/engine/**/*.test.ts'], testDir: 'tests/unit/engine', perFile: true, target: 85 },
   { folder: 'shared/units', tests: ['tests/unit/units/**/*.test.ts'], target: 75 },
   {
     folder: 'shared/validation',
@@ -50,6 +51,25 @@ const named = args.filter((a) => !a.startsWith('--'));
 const fromEnvironment = (process.env.LONGTAIL_MUTATION_TARGETS ?? '').split(',').filter(Boolean);
 const targets = named.length ? named : fromEnvironment.length ? fromEnvironment : FOLDERS.map((f) => f.folder);
 
+/**
+ * The test files of `owner.testDir` that import `file`: by its own module specifier
+ * (#shared/engine/name), or the folder's index where the index re-exports from it; when none
+ * does, the folder's whole test set.
+ */
+function importingTests(owner, file) {
+  const name = path.basename(file, '.ts');
+  const base = owner.folder.replace(/^shared\//, '#shared/');
+  const testFiles = readdirSync(owner.testDir, { recursive: true })
+    .filter((f) => /\.test\.tsx?$/.test(f))
+    .map((f) => path.join(owner.testDir, f).split(path.sep).join('/'))
+    .sort();
+  const importing = (specifier) => testFiles.filter((f) => readFileSync(f, 'utf8').includes(`from '${specifier}'`));
+  const index = path.join(owner.folder, 'index.ts');
+  const reExported = existsSync(index) && readFileSync(index, 'utf8').includes(`from './${name}'`);
+  const tests = [...new Set([...importing(`${base}/${name}`), ...(reExported ? importing(`${base}/index`) : [])])].sort();
+  return tests.length ? tests : owner.tests;
+}
+
 /** A mutant the shared-module pass left alone because it runs when a module loads (stryker.config.mjs). */
 const isStaticIgnored = (m) => m.status === 'Ignored' && /static/i.test(m.statusReason ?? '');
 
@@ -72,20 +92,32 @@ if (!summaryOnly) {
       console.error(`mutation: "${raw}" is not one of ${FOLDERS.map((f) => f.folder).join(', ')} or a file in them`);
       process.exit(2);
     }
-    const slug = target.replace(/\.ts$/, '').replace(/[^a-z0-9]+/gi, '-');
-    console.log(`\n== mutating ${target} (tests: ${owner.tests.join(', ')})`);
-    stryker(target, slug, owner.tests);
-    // The static mutants, each with a fresh module graph per test file: the lines that hold them
-    const report = JSON.parse(readFileSync(path.join('reports/mutation', slug, 'mutation.json'), 'utf8'));
-    const ranges = [];
-    for (const [name, result] of Object.entries(report.files)) {
-      const relative = path.relative(process.cwd(), path.resolve(name)).split(path.sep).join('/');
-      for (const m of result.mutants.filter(isStaticIgnored)) ranges.push(`${relative}:${m.location.start.line}-${m.location.end.line}`);
-    }
-    if (ranges.length) {
-      console.log(`\n== ${target}: the static mutants (${ranges.length}), each test file with its own modules`);
-      stryker(target, `${slug}-static`, owner.tests, { LONGTAIL_MUTATION_ISOLATE: '1', LONGTAIL_MUTATION_RANGES: [...new Set(ranges)].join(',') });
-    }
+    const files = owner.perFile
+      ? target === owner.folder
+        ? readdirSync(target).filter((f) => /\.ts$/.test(f) && !/\.d\.ts$/.test(f)).map((f) => `${target}/${f}`)
+        : [target]
+      : [target];
+    for (const one of files) mutateTarget(one, owner.perFile ? importingTests(owner, one) : owner.tests);
+  }
+}
+
+/** One target's run with its tests, then its static mutants' isolated run. */
+function mutateTarget(target, tests) {
+  const slug = target.replace(/\.ts$/, '').replace(/[^a-z0-9]+/gi, '-');
+  console.log(`\n== mutating ${target} (tests: ${tests.join(', ')})`);
+  stryker(target, slug, tests);
+  // The static mutants, each with a fresh module graph per test file: the lines that hold them
+  const reportFile = path.join('reports/mutation', slug, 'mutation.json');
+  if (!existsSync(reportFile)) return; // a file with no mutants (types only) writes none
+  const report = JSON.parse(readFileSync(reportFile, 'utf8'));
+  const ranges = [];
+  for (const [name, result] of Object.entries(report.files)) {
+    const relative = path.relative(process.cwd(), path.resolve(name)).split(path.sep).join('/');
+    for (const m of result.mutants.filter(isStaticIgnored)) ranges.push(`${relative}:${m.location.start.line}-${m.location.end.line}`);
+  }
+  if (ranges.length) {
+    console.log(`\n== ${target}: the static mutants (${ranges.length}), each test file with its own modules`);
+    stryker(target, `${slug}-static`, tests, { LONGTAIL_MUTATION_ISOLATE: '1', LONGTAIL_MUTATION_RANGES: [...new Set(ranges)].join(',') });
   }
 }
 
