@@ -5,8 +5,10 @@
  * A has columns only at the nodes a capacitance touches (the set K), so only those k nodes
  * couple over frequency: (I + s·A_KK)·x_K = r0_K + s·r1_K, and an output w reads
  * wᵀx = wᵀr0 + s·wᵀr1 − s·(wᵀA_·K)·x_K. A_KK is brought to upper Hessenberg form once,
- * H = Qᵀ·A_KK·Q (Householder reflections: Golub and Van Loan, Matrix Computations,
- * 4th ed., §7.4.3), after which each frequency is a Hessenberg solve of (I + s·H)·y = Qᵀ(r0_K + s·r1_K),
+ * H = L⁻¹·A_KK·L, by Gaussian elimination with row interchanges as similarity transforms
+ * (J. H. Wilkinson, The Algebraic Eigenvalue Problem, 1965, ch. 6; half the work of Householder
+ * reflections, Golub and Van Loan, Matrix Computations, 4th ed., §7.4.3), after which each
+ * frequency is a Hessenberg solve of (I + s·H)·y = L⁻¹(r0_K + s·r1_K), read as (Lᵀq)ᵀy,
  * O(k²) instead of a dense complex factorisation, O(n³) (A. J. Laub, "Efficient
  * multivariable frequency response computations", IEEE Trans. Automatic Control 26 (1981) 407–408).
  * The algebra is exact: the transfers are those of SPICE's AC analysis [SPICE] ngspice bjtacld.c.
@@ -24,34 +26,36 @@ export interface OutputWeights {
 
 /** One drive's part of the reduced system. */
 interface ReducedDrive {
-  /** Qᵀ·r0_K and Qᵀ·r1_K. */
+  /** L⁻¹·r0_K and L⁻¹·r1_K. */
   p0: readonly number[];
   p1: readonly number[];
-  /** ‖r0_K‖ and ‖r1_K‖ (Euclidean; Q keeps them). */
+  /** ‖r0_K‖ and ‖r1_K‖ (Euclidean, before the reduction, as every norm of the bound). */
   p0Norm: number;
   p1Norm: number;
 }
 
 /** One output's part of the reduced system. */
 interface ReducedOutput {
-  /** Qᵀ·(wᵀA_·K)ᵀ and its Euclidean norm. */
+  /** Lᵀ·(wᵀA_·K)ᵀ. */
   q: readonly number[];
+  /** ‖(wᵀA_·K)ᵀ‖ (Euclidean, before the reduction). */
   qNorm: number;
-  /** ‖Hᵀ·q‖ and ‖(Hᵀ)²·q‖ (Euclidean), for the remainders of the transfer's series. */
+  /** ‖A_KKᵀ·q‖ and ‖(A_KKᵀ)²·q‖ (before the reduction), for the remainders of the transfer's series. */
   hqNorm: number;
   h2qNorm: number;
 }
 
 /**
- * A transfer's first three Taylor coefficients in s about s = 0, exact:
- * transfer(s) − transfer(0) = s·first + s²·second + s³·third + s³·qᵀH²(I + s·H)⁻¹(p0 + s·p1)·(−1).
+ * A transfer's first three Taylor coefficients in s about s = 0, exact (q, p before the
+ * reduction, A = A_KK): transfer(s) − transfer(0) = s·first + s²·second + s³·third
+ * + s³·qᵀA²(I + s·A)⁻¹(p0 + s·p1)·(−1).
  */
 export interface TransferSeries {
   /** wᵀr1 − qᵀp0 */
   first: number;
-  /** qᵀH·p0 − qᵀp1 */
+  /** qᵀA·p0 − qᵀp1 */
   second: number;
-  /** qᵀH·p1 */
+  /** qᵀA·p1 */
   third: number;
 }
 
@@ -64,8 +68,8 @@ export interface FrequencyModel {
   k: number;
   /** Upper Hessenberg H, row-major k × k. */
   hessenberg: readonly number[];
-  /** ‖H‖ (Frobenius, ≥ the 2-norm), for the bound on how far a transfer can move. */
-  hessenbergNorm: number;
+  /** ‖A_KK‖ (Frobenius, ≥ the 2-norm; before the reduction), for the bound on how far a transfer can move. */
+  couplingNorm: number;
   drives: ReducedDrive[];
   outputs: ReducedOutput[];
   /** wᵀr0 and wᵀr1, [drive][output]: the low-frequency transfer and its direct s-term. */
@@ -100,64 +104,63 @@ function dot(a: ArrayLike<number>, b: ArrayLike<number>): number {
   return sum;
 }
 
-/** Hᵀ·x for the upper Hessenberg H (k × k, row-major). */
-function hessenbergTransposeTimes(h: ArrayLike<number>, k: number, x: ArrayLike<number>): number[] {
+/** Aᵀ·x for a dense A (k × k, row-major). */
+function transposeTimes(a: ArrayLike<number>, k: number, x: ArrayLike<number>): number[] {
   const y = zeros(k);
   for (let r = 0; r < k; r += 1) {
-    for (let c = Math.max(r - 1, 0); c < k; c += 1) y[c] += h[r * k + c] * x[r];
+    const xr = x[r];
+    if (xr === 0) continue;
+    for (let c = 0; c < k; c += 1) y[c] += a[r * k + c] * xr;
   }
   return y;
 }
 
 /**
- * Reduces A (k × k, row-major, overwritten with H) to upper Hessenberg form by Householder
- * reflections P = I − 2·v·vᵀ/(vᵀv), A ← P·A·P (Golub and Van Loan §7.4.3), applying each P to `vectors` as
- * well (they become Qᵀ·vector).
+ * Reduces A (k × k, row-major, overwritten with H) to upper Hessenberg form by Gaussian
+ * elimination as similarity transforms, column by column: the largest entry below the
+ * subdiagonal brought up by a row and column interchange, then each row below less a multiple y
+ * of the pivot row (A ← E·A) and the pivot column plus y times that row's column (A ← A·E⁻¹)
+ * (Wilkinson ch. 6; the EISPACK routine ELMHES). The drives' vectors take each E (they become
+ * L⁻¹·p), the outputs' each E⁻ᵀ from the right (qᵀ becomes qᵀ·L).
  */
-function toHessenberg(a: number[], k: number, vectors: number[][]): void {
-  const v = zeros(k);
-  const w = zeros(k);
-  for (let col = 0; col < k - 2; col += 1) {
-    // The reflection that zeroes column `col` below its subdiagonal
-    let scale = 0;
-    for (let r = col + 1; r < k; r += 1) scale += Math.abs(a[r * k + col]);
-    if (scale === 0) continue;
-    let sigma = 0;
-    for (let r = col + 1; r < k; r += 1) {
-      v[r] = a[r * k + col] / scale;
-      sigma += v[r] * v[r];
+function toHessenberg(a: number[], k: number, drives: number[][], outputs: number[][]): void {
+  for (let m = 1; m < k - 1; m += 1) {
+    // the pivot: the largest |a[i][m−1]| for i ≥ m
+    let pivot = 0;
+    let at = m;
+    for (let i = m; i < k; i += 1) {
+      if (Math.abs(a[i * k + m - 1]) > Math.abs(pivot)) {
+        pivot = a[i * k + m - 1];
+        at = i;
+      }
     }
-    // v = x − α·e1 with α = −sign(x1)·‖x‖ (no cancellation), so P·x = α·e1
-    const alpha = (v[col + 1] >= 0 ? -1 : 1) * Math.sqrt(sigma);
-    v[col + 1] -= alpha;
-    let vv = 0;
-    for (let r = col + 1; r < k; r += 1) vv += v[r] * v[r];
-    const beta = 2 / vv;
-    // A ← P·A (rows col+1…k−1; their columns left of `col` are zero already), row by row:
-    // w = β·vᵀA, then each row less v[r]·w
-    for (let c = col; c < k; c += 1) w[c] = 0;
-    for (let r = col + 1; r < k; r += 1) {
-      const vr = v[r];
-      for (let c = col; c < k; c += 1) w[c] += vr * a[r * k + c];
+    if (at !== m) {
+      for (let j = m - 1; j < k; j += 1) {
+        const t = a[at * k + j];
+        a[at * k + j] = a[m * k + j];
+        a[m * k + j] = t;
+      }
+      for (let j = 0; j < k; j += 1) {
+        const t = a[j * k + at];
+        a[j * k + at] = a[j * k + m];
+        a[j * k + m] = t;
+      }
+      for (const x of [...drives, ...outputs]) {
+        const t = x[at];
+        x[at] = x[m];
+        x[m] = t;
+      }
     }
-    for (let c = col; c < k; c += 1) w[c] *= beta;
-    for (let r = col + 1; r < k; r += 1) {
-      const vr = v[r];
-      for (let c = col; c < k; c += 1) a[r * k + c] -= w[c] * vr;
-    }
-    // A ← A·P (columns col+1…k−1)
-    for (let r = 0; r < k; r += 1) {
-      let dot = 0;
-      for (let c = col + 1; c < k; c += 1) dot += a[r * k + c] * v[c];
-      dot *= beta;
-      for (let c = col + 1; c < k; c += 1) a[r * k + c] -= dot * v[c];
-    }
-    for (let r = col + 2; r < k; r += 1) a[r * k + col] = 0;
-    for (const x of vectors) {
-      let dot = 0;
-      for (let r = col + 1; r < k; r += 1) dot += v[r] * x[r];
-      dot *= beta;
-      for (let r = col + 1; r < k; r += 1) x[r] -= dot * v[r];
+    if (pivot === 0) continue;
+    for (let i = m + 1; i < k; i += 1) {
+      const below = a[i * k + m - 1];
+      if (below === 0) continue;
+      const y = below / pivot;
+      a[i * k + m - 1] = 0;
+      for (let j = m; j < k; j += 1) a[i * k + j] -= y * a[m * k + j];
+      for (let j = 0; j < k; j += 1) a[j * k + m] += y * a[j * k + i];
+      for (const x of drives) x[i] -= y * x[m];
+      for (const x of outputs) x[m] += y * x[i];
     }
   }
 }
@@ -204,24 +207,26 @@ export function reducedFrequencyModel(
   const p1s = r1s.map((r1) => coupled.map((node) => r1[node]));
   // (wᵀA_·K)ᵀ for each output
   const qs = outputs.map((w) => columns.map((column) => readOutput(column, w)));
+  const direct = r1s.map((r1) => outputs.map((w) => readOutput(r1, w)));
+  // Before the reduction: the bound's norms, and Aᵀq, (Aᵀ)²q for the series' coefficients and remainders
+  const couplingNorm = norm(a);
   const driveNorms = p0s.map((p0, d) => [norm(p0), norm(p1s[d])]);
   const outputNorms = qs.map(norm);
-  toHessenberg(a, k, [...p0s, ...p1s, ...qs]);
-  const direct = r1s.map((r1) => outputs.map((w) => readOutput(r1, w)));
-  // Hᵀq and (Hᵀ)²q, for the series' coefficients and remainders
-  const hqs = qs.map((q) => hessenbergTransposeTimes(a, k, q));
-  const h2qNorms = hqs.map((hq) => norm(hessenbergTransposeTimes(a, k, hq)));
+  const hqs = qs.map((q) => transposeTimes(a, k, q));
+  const h2qNorms = hqs.map((hq) => norm(transposeTimes(a, k, hq)));
+  const series = p0s.map((p0, d) =>
+    qs.map((q, w) => ({ first: direct[d][w] - dot(q, p0), second: dot(hqs[w], p0) - dot(q, p1s[d]), third: dot(hqs[w], p1s[d]) })),
+  );
+  toHessenberg(a, k, [...p0s, ...p1s], qs);
   return {
     k,
     hessenberg: a,
-    hessenbergNorm: norm(a),
+    couplingNorm,
     drives: p0s.map((p0, d) => ({ p0, p1: p1s[d], p0Norm: driveNorms[d][0], p1Norm: driveNorms[d][1] })),
     outputs: qs.map((q, w) => ({ q, qNorm: outputNorms[w], hqNorm: norm(hqs[w]), h2qNorm: h2qNorms[w] })),
     low: lowResponses.map((r0) => outputs.map((w) => readOutput(r0, w))),
     direct,
-    series: p0s.map((p0, d) =>
-      qs.map((q, w) => ({ first: direct[d][w] - dot(q, p0), second: dot(hqs[w], p0) - dot(q, p1s[d]), third: dot(hqs[w], p1s[d]) })),
-    ),
+    series,
   };
 }
 
@@ -370,18 +375,19 @@ export function transfersAtOmega(model: FrequencyModel, omega: number, driveCoun
 const SERIES_ROUNDING = 64 * Number.EPSILON;
 
 /**
- * An upper bound on |transfer(ω) − transfer(0)| for drive d and output w, the smaller of two.
- * With ‖s·H‖ < 1, ‖(I + s·H)⁻¹‖ ≤ 1/(1 − |s|·‖H‖) (Neumann series), so
- *   |s·wᵀr1 − s·qᵀy| ≤ ω·|wᵀr1| + ω·‖q‖·(‖p0‖ + ω·‖p1‖)/(1 − ω·‖H‖);
+ * An upper bound on |transfer(ω) − transfer(0)| for drive d and output w, the smaller of two,
+ * every norm taken before the reduction (A = A_KK, q = (wᵀA_·K)ᵀ, p = r_K).
+ * With ‖s·A‖ < 1, ‖(I + s·A)⁻¹‖ ≤ 1/(1 − |s|·‖A‖) (Neumann series), so
+ *   |s·wᵀr1 − s·qᵀx_K| ≤ ω·|wᵀr1| + ω·‖q‖·(‖p0‖ + ω·‖p1‖)/(1 − ω·‖A‖);
  * and, from the series' first three terms (TransferSeries) taken exactly,
- *   |transfer(ω) − transfer(0)| ≤ |jω·first − ω²·second − jω³·third| + ω³·‖(Hᵀ)²q‖·(‖p0‖ + ω·‖p1‖)/(1 − ω·‖H‖),
+ *   |transfer(ω) − transfer(0)| ≤ |jω·first − ω²·second − jω³·third| + ω³·‖(Aᵀ)²q‖·(‖p0‖ + ω·‖p1‖)/(1 − ω·‖A‖),
  * plus SERIES_ROUNDING times the terms whose cancellation gives the coefficients. The second is
  * far tighter at low frequency, where the first term alone nearly is the move (a common-mode
  * gain that is a small difference of large node responses, say). Infinity where the series
- * does not converge (ω·‖H‖ ≥ 1).
+ * does not converge (ω·‖A‖ ≥ 1).
  */
 export function transferMoveBound(model: FrequencyModel, drive: number, output: number, omega: number): number {
-  const shrink = 1 - omega * model.hessenbergNorm;
+  const shrink = 1 - omega * model.couplingNorm;
   if (!(shrink > 0)) return Infinity;
   const { p0Norm, p1Norm } = model.drives[drive];
   const { qNorm, hqNorm, h2qNorm } = model.outputs[output];

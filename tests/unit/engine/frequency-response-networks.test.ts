@@ -8,13 +8,13 @@
  * orthogonally similar to A_KK = (G⁻¹C)_KK, so its Frobenius norm and trace are A_KK's and it is
  * zero below the subdiagonal (Golub and Van Loan, Matrix Computations, 4th ed., §7.4.3); the
  * drives' norms are ‖r0_K‖ and ‖r1_K‖; the bound on a transfer's move lies between the move itself
- * and the Neumann-series bound ω·|wᵀr1| + ω·‖q‖·(‖p0‖ + ω·‖p1‖)/(1 − ω·‖H‖), written out for a one-node network.
+ * and the Neumann-series bound ω·|wᵀr1| + ω·‖q‖·(‖p0‖ + ω·‖p1‖)/(1 − ω·‖A‖), written out for a one-node network.
  * Every value is invented; every model is built inside its test.
  */
 import { describe, expect, test } from 'vitest';
 import { readOutput, reducedFrequencyModel, transferMoveBound, transfersAtOmega, type OutputWeights } from '#shared/engine/frequency-response';
 import { luFactor, luSolve } from '#shared/engine/linear-solve';
-import { abs, add, cramer, div, mul, sub, type C } from '../../helpers/complex-by-hand';
+import { abs, add, cramer, det, div, mul, sub, type C } from '../../helpers/complex-by-hand';
 
 const relative = (a: C, b: C) => abs(sub(a, b)) / Math.max(abs(b), 1e-3);
 
@@ -192,7 +192,7 @@ describe('five coupled nodes (three Householder reflections)', () => {
     }
   });
 
-  test('H is upper Hessenberg, with A_KK’s Frobenius norm and trace; the drives’ and outputs’ norms are those of r0_K, r1_K and wᵀA', () => {
+  test('H is upper Hessenberg and similar to A_KK (its trace and determinant); the bound’s norms are those of A_KK, r0_K, r1_K and wᵀA; the transformed drive and output keep qᵀp', () => {
     const net = fiveNodes();
     const output: OutputWeights = { nodes: [3, 1], weights: [1, -1] };
     const model = modelOf(net, [[1, 0.5]], [output]);
@@ -219,16 +219,19 @@ describe('five coupled nodes (three Householder reflections)', () => {
     expect(Math.abs(h[n + 0])).toBeGreaterThan(0);
     const hTrace = [0, 1, 2, 3, 4].reduce((sum, i) => sum + h[i * n + i], 0);
     expect(Math.abs(hTrace / trace - 1)).toBeLessThan(1e-12);
-    expect(Math.abs(model.hessenbergNorm / Math.sqrt(frobenius) - 1)).toBeLessThan(1e-12);
-    expect(Math.abs(Math.hypot(...h) / Math.sqrt(frobenius) - 1)).toBeLessThan(1e-12);
+    // a similarity keeps the determinant (Cramer's expansion of both, by hand)
+    const real = (m: ArrayLike<number>) => Array.from(m, (x) => ({ re: x, im: 0 }));
+    const aMatrix = Array.from({ length: n * n }, (_, i) => a(Math.floor(i / n), i % n));
+    expect(Math.abs(det(real(h), n).re / det(real(aMatrix), n).re - 1)).toBeLessThan(1e-10);
+    expect(Math.abs(model.couplingNorm / Math.sqrt(frobenius) - 1)).toBeLessThan(1e-12);
     expect(Math.abs(model.drives[0].p0Norm / norm(r0) - 1)).toBeLessThan(1e-12);
     expect(Math.abs(model.drives[0].p1Norm / norm(r1) - 1)).toBeLessThan(1e-12);
-    // Q keeps lengths: the reflected vectors have the norms of the originals
-    expect(Math.abs(norm([...model.drives[0].p0]) / norm(r0) - 1)).toBeLessThan(1e-12);
-    expect(Math.abs(norm([...model.drives[0].p1]) / norm(r1) - 1)).toBeLessThan(1e-12);
     const wA = columns.map((column) => column[3] - column[1]);
     expect(Math.abs(model.outputs[0].qNorm / norm(wA) - 1)).toBeLessThan(1e-12);
-    expect(Math.abs(norm([...model.outputs[0].q]) / norm(wA) - 1)).toBeLessThan(1e-12);
+    // (Lᵀq)ᵀ(L⁻¹p) = qᵀp: the low-frequency slope qᵀr0 read through the reduced vectors
+    const dotOf = (x: ArrayLike<number>, y: ArrayLike<number>) => Array.from(x).reduce((sum, xi, i) => sum + xi * y[i], 0);
+    expect(Math.abs(dotOf(model.outputs[0].q, model.drives[0].p0) / dotOf(wA, r0) - 1)).toBeLessThan(1e-12);
+    expect(Math.abs(dotOf(model.outputs[0].q, model.drives[0].p1) / dotOf(wA, r1) - 1)).toBeLessThan(1e-12);
     expect(Math.abs(model.low[0][0] - (r0[3] - r0[1]))).toBeLessThan(1e-12 * norm(r0));
     expect(Math.abs(model.direct[0][0] - (r1[3] - r1[1]))).toBeLessThan(1e-12 * norm(r1));
   });
@@ -352,11 +355,11 @@ describe('no capacitance at all', () => {
 });
 
 describe('the move bound at the edge of the Neumann series', () => {
-  test('exactly at ω·‖H‖ = 1 the bound is infinite, even for an output the capacitance does not reach', () => {
-    // two uncoupled nodes, G = diag(1, 2) S, C = diag(0.5, 0) F: H = 0.5 s, so ω = 2 puts ω·‖H‖ at 1 exactly;
+  test('exactly at ω·‖A‖ = 1 the bound is infinite, even for an output the capacitance does not reach', () => {
+    // two uncoupled nodes, G = diag(1, 2) S, C = diag(0.5, 0) F: A = 0.5 s, so ω = 2 puts ω·‖A‖ at 1 exactly;
     // node 1 sees no capacitance (q = 0) and no capacitive drive
     const model = reducedFrequencyModel(luFactor([1, 0, 0, 2], 2), [0.5, 0, 0, 0], [[1, 0.25]], [null], [{ nodes: [1], weights: [1] }]);
-    expect(model.hessenbergNorm).toBe(0.5);
+    expect(model.couplingNorm).toBe(0.5);
     expect(model.outputs[0].qNorm).toBe(0);
     expect(transferMoveBound(model, 0, 0, 2)).toBe(Infinity);
     // below it, nothing moves that output: the bound is 0
@@ -375,7 +378,7 @@ describe('the bound on a transfer’s move, written out for one node', () => {
     const h = cF / gS;
     expect(model.k).toBe(1);
     expect(Math.abs(model.hessenberg[0] / h - 1)).toBeLessThan(1e-14);
-    expect(Math.abs(model.hessenbergNorm / h - 1)).toBeLessThan(1e-14);
+    expect(Math.abs(model.couplingNorm / h - 1)).toBeLessThan(1e-14);
     expect(Math.abs(model.drives[0].p0Norm / (1 / r1 / gS) - 1)).toBeLessThan(1e-14);
     expect(Math.abs(model.drives[0].p1Norm / (c1 / gS) - 1)).toBeLessThan(1e-14);
     expect(Math.abs(model.direct[0][0] / (c1 / gS) - 1)).toBeLessThan(1e-14);
