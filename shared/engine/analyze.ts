@@ -470,7 +470,8 @@ export function solveCondition(design: Design, warmStart?: SolvedCircuit): Condi
 export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedCircuit {
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const model = deviceModel(design.device, temperatureC);
-  const circuit = stageCircuit(design, vbeGuessV(design, model), (currentA) => model.thermalVoltageV * Math.log(Math.max(currentA, GUESS_LEAST_CURRENT_A) / model.saturationCurrentA));
+  const vbeAtV = (currentA: number) => model.thermalVoltageV * Math.log(Math.max(currentA, GUESS_LEAST_CURRENT_A) / model.saturationCurrentA);
+  const circuit = stageCircuit(design, vbeGuessV(design, model), vbeAtV, model.thermalVoltageV);
   let op: OperatingPoint;
   try {
     op = solveOperatingPoint(circuit, model, warmStart?.op, ownTransistorModels(circuit, design.device, temperatureC));

@@ -77,10 +77,10 @@ const PAIR_GUESS_PASSES = 2;
 
 /**
  * Builds the stage circuit of a design: the pair, its loads and the tail element.
- * `vbeGuessV` and `vbeAtV` (the device's VBE at a current, when known) only shape the
- * solver's starting guess.
+ * `vbeGuessV`, `vbeAtV` (the device's VBE at a current) and `thermalVoltageV` (its VT), when
+ * known, only shape the solver's starting guess.
  */
-export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V, vbeAtV?: (currentA: number) => number): StageCircuit {
+export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V, vbeAtV?: (currentA: number) => number, thermalVoltageV?: number): StageCircuit {
   const { positiveV, negativeV } = design.supply;
   const vicmV = design.inputCommonModeV ?? 0;
   const rcOhm = design.collectorResistanceOhm;
@@ -113,13 +113,13 @@ export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V, vbeAtV?: (
       { kind: 'resistor', name: 'RE2', nodes: ['e2', TAIL_NODE], resistanceOhm: reOhm, part: 'pair' },
     );
   }
-  let tail = tailElements(design.tail, { positiveV, negativeV, tailNodeGuessV, vbeGuessV, vbeAtV });
+  let tail = tailElements(design.tail, { positiveV, negativeV, tailNodeGuessV, vbeGuessV, vbeAtV, thermalVoltageV });
   if (vbeAtV) {
     // The pair's VBE at half the tail current; the tail guessed again from there (a resistor
     // tail's current follows the tail node), twice
     for (let pass = 0; pass < PAIR_GUESS_PASSES; pass += 1) {
       tailNodeGuessV = vicmV - vbeAtV(tail.currentGuessA / 2);
-      tail = tailElements(design.tail, { positiveV, negativeV, tailNodeGuessV, vbeGuessV, vbeAtV });
+      tail = tailElements(design.tail, { positiveV, negativeV, tailNodeGuessV, vbeGuessV, vbeAtV, thermalVoltageV });
     }
   }
   elements.push(...tail.elements);

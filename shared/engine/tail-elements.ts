@@ -25,6 +25,8 @@ export interface TailGuessContext {
    * current), which starts Newton a few millivolts from the solution instead of tens.
    */
   vbeAtV?: (currentA: number) => number;
+  /** The device's VT at its temperature, V (the Widlar source's guess); absent: room temperature's. */
+  thermalVoltageV?: number;
 }
 
 export interface TailElements {
@@ -42,11 +44,11 @@ function npn(name: string, collector: string, base: string, emitter: string): Ci
 }
 
 /** Output current of a Widlar source from I·RE = VT·ln(Iref/I), by fixed-point iteration. */
-function widlarGuessA(referenceA: number, emitterOhm: number): number {
+function widlarGuessA(referenceA: number, emitterOhm: number, vtV = GUESS_VT_V): number {
   // Stryker disable next-line MethodExpression,ArithmeticOperator: equivalent, the iteration below reaches the same current from any start in (0, Iref] when Iref/Iout > e (each step divides the error by ln(Iref/Iout)); the sizing's ratio is 5, and the result is only the solver's guess
-  let currentA = Math.min(referenceA, GUESS_VT_V / Math.max(emitterOhm, 1e-9));
+  let currentA = Math.min(referenceA, vtV / Math.max(emitterOhm, 1e-9));
   for (let i = 0; i < 30; i += 1) {
-    currentA = (GUESS_VT_V * Math.log(referenceA / Math.max(currentA, 1e-15))) / emitterOhm;
+    currentA = (vtV * Math.log(referenceA / Math.max(currentA, 1e-15))) / emitterOhm;
     currentA = Math.min(Math.max(currentA, referenceA * 1e-4), referenceA);
   }
   return currentA;
@@ -107,7 +109,7 @@ export function tailElements(tail: TailDesign, ctx: TailGuessContext): TailEleme
     case 'widlar': {
       const reOhm = tail.emitterResistanceOhm;
       const { currentA: refA, vbeV: vbe } = referenceGuess(ctx, 1, tail.referenceResistanceOhm);
-      const outA = widlarGuessA(refA, reOhm);
+      const outA = widlarGuessA(refA, reOhm, ctx.thermalVoltageV);
       return {
         elements: [
           resistor('RREF', VP, 'ref', tail.referenceResistanceOhm),

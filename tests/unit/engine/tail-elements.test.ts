@@ -6,7 +6,9 @@
  * Iref = (V+ − V− − n·VBE)/RREF, and the Widlar source's Iout·RE = VT·ln(Iref/Iout) [GM].
  */
 import { describe, expect, test } from 'vitest';
-import type { CircuitElement } from '#shared/engine/circuit';
+import { stageCircuit, type CircuitElement } from '#shared/engine/circuit';
+import { deviceModel } from '#shared/engine/device';
+import { solveOperatingPoint } from '#shared/engine/operating-point';
 import { tailElements, type TailGuessContext } from '#shared/engine/tail-elements';
 import type { TailDesign } from '#shared/engine/types';
 
@@ -165,5 +167,36 @@ describe('starting guesses with the device\'s VBE at each current', () => {
     const iref = referenceA(1, 4680);
     expect(Math.abs(guess.initialGuessV.ref - (CTX.negativeV + vbeAtV(iref)))).toBeLessThan(1e-4);
     expect(guess.currentGuessA * 150).toBeCloseTo(GUESS_VT * Math.log(iref / guess.currentGuessA), 4);
+  });
+
+  test('Widlar at the device\'s own VT (34.3 mV, about 125 °C): Iout·RE = VT·ln(Iref/Iout) with that VT', () => {
+    const vtV = 0.0343;
+    const guess = tailElements({ topology: 'widlar', referenceResistanceOhm: 4680, emitterResistanceOhm: 150 }, { ...ctx, thermalVoltageV: vtV });
+    const iref = referenceA(1, 4680);
+    expect(guess.currentGuessA * 150).toBeCloseTo(vtV * Math.log(iref / guess.currentGuessA), 6);
+    expect(Math.abs(guess.currentGuessA * 150 - GUESS_VT * Math.log(iref / guess.currentGuessA))).toBeGreaterThan(1e-3);
+  });
+});
+
+describe('what the guesses are for: Newton starts close enough to need few steps', () => {
+  // The stage's device VBE at each current and its VT, as analyze passes them; the operating point then
+  // converges in at most four Newton steps (each a factorisation of the node equations) on every
+  // topology at three rails and three temperatures. With one VBE for every junction it took six.
+  const device = { family: 'npn' as const, beta: 150, earlyVoltageV: 80, saturationCurrentA: 6e-15 };
+  const tails: TailDesign[] = [
+    { topology: 'resistor', resistanceOhm: 18000 },
+    { topology: 'simple-mirror', referenceResistanceOhm: 33000 },
+    { topology: 'degenerated-mirror', referenceResistanceOhm: 30000, emitterResistanceOhm: 1500 },
+    { topology: 'widlar', referenceResistanceOhm: 8200, emitterResistanceOhm: 560 },
+    { topology: 'wilson', referenceResistanceOhm: 30000 },
+    { topology: 'cascode', referenceResistanceOhm: 30000 },
+  ];
+  const rows = tails.flatMap((tail) => [5, 12, 24].flatMap((railV) => [-40, 27, 125].map((temperatureC) => ({ topology: tail.topology, tail, railV, temperatureC }))));
+  test.each(rows)('$topology, ±$railV V, $temperatureC °C: at most 4 Newton steps', ({ tail, railV, temperatureC }) => {
+    const design = { device, supply: { positiveV: railV, negativeV: -railV }, collectorResistanceOhm: 4700 * (railV / 12), tail, inputCommonModeV: 0, temperatureC };
+    const model = deviceModel(device, temperatureC);
+    const vbeAtV = (currentA: number) => model.thermalVoltageV * Math.log(currentA / model.saturationCurrentA);
+    const op = solveOperatingPoint(stageCircuit(design, vbeAtV(1e-4), vbeAtV, model.thermalVoltageV), model);
+    expect(op.iterations).toBeLessThanOrEqual(4);
   });
 });
