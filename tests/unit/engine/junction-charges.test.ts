@@ -104,3 +104,57 @@ describe('depletion and diffusion capacitances, ngspice bjtload.c by hand', () =
     expect(Math.abs(c.collectorSubstrate.zeroBiasF / 2.2e-12 - 1)).toBeLessThan(RELATIVE);
   });
 });
+
+describe('junction capacitances and potentials over temperature [SPICE] ngspice bjttemp.c (TLEVC = 0), written out by hand', () => {
+  // bjttemp.c: vt = kT/q; Eg(T) = 1.16 − 7.02e-4·T²/(T + 1108) eV; arg = −Eg(T)/(2kT/q) + 1.1150877/(2k·300.15/q);
+  // pbfact(T) = −2·vt·(1.5·ln(T/300.15) + arg); pbo = (VJ − pbfact(TNOM))/(TNOM/300.15);
+  // VJ(T) = (T/300.15)·pbo + pbfact(T); CJ(T) = CJ·(1 + M·(4e-4·(T − 300.15) − (VJ(T) − pbo)/pbo))
+  //   / (1 + M·(4e-4·(TNOM − 300.15) − (VJ − pbo)/pbo)); TNOM = 27 °C = 300.15 K here (ngspice's default)
+  const K_OVER_Q = 1.380649e-23 / 1.602176634e-19; // CODATA 2018 exact values [SI]
+  const pbfact = (kelvin: number) => {
+    const vt = K_OVER_Q * kelvin;
+    const gap = 1.16 - (7.02e-4 * kelvin * kelvin) / (kelvin + 1108);
+    const arg = -gap / (2 * K_OVER_Q * kelvin) + 1.1150877 / (2 * K_OVER_Q * 300.15);
+    return -2 * vt * (1.5 * Math.log(kelvin / 300.15) + arg);
+  };
+  function byHand(cj: number, vj: number, m: number, celsius: number) {
+    const t = celsius + 273.15;
+    const pbo = (vj - pbfact(300.15)) / 1;
+    const vjT = (t / 300.15) * pbo + pbfact(t);
+    const cjT = (cj * (1 + m * (4e-4 * (t - 300.15) - (vjT - pbo) / pbo))) / (1 + m * (4e-4 * 0 - (vj - pbo) / pbo));
+    return { zeroBiasF: cjT, potentialV: vjT };
+  }
+  const card: BjtModelCard = { CJE: 12e-12, VJE: 0.8, MJE: 0.36, CJC: 5e-12, VJC: 0.65, MJC: 0.42, CJS: 3e-12, VJS: 0.6, MJS: 0.3 };
+
+  test.each([-55, -40, 27, 85, 125])('at %s °C: each junction\'s zero-bias capacitance and potential to 1e-12', (celsius) => {
+    const charges = chargeParameters(resolvedParameters(card), celsius);
+    const rows: [keyof typeof charges, number, number, number][] = [
+      ['baseEmitter', 12e-12, 0.8, 0.36],
+      ['baseCollector', 5e-12, 0.65, 0.42],
+      ['collectorSubstrate', 3e-12, 0.6, 0.3],
+    ];
+    for (const [name, cj, vj, m] of rows) {
+      const junction = charges[name] as { zeroBiasF: number; potentialV: number; exponent: number };
+      const hand = byHand(cj, vj, m, celsius);
+      expect(Math.abs(junction.zeroBiasF / hand.zeroBiasF - 1), `${name} CJ`).toBeLessThan(1e-12);
+      expect(Math.abs(junction.potentialV / hand.potentialV - 1), `${name} VJ`).toBeLessThan(1e-12);
+      expect(junction.exponent).toBe(m);
+    }
+  });
+
+  test('the potential falls and the capacitance rises with temperature (about −1.5 to −2.5 mV/K for VJ near 0.7 V, common practice)', () => {
+    const cold = chargeParameters(resolvedParameters(card), -40).baseEmitter;
+    const hot = chargeParameters(resolvedParameters(card), 125).baseEmitter;
+    const slope = (hot.potentialV - cold.potentialV) / 165;
+    expect(slope).toBeLessThan(-1.5e-3);
+    expect(slope).toBeGreaterThan(-2.5e-3);
+    expect(hot.zeroBiasF).toBeGreaterThan(cold.zeroBiasF);
+  });
+
+  test('a device stores charge when any one of CJE, CJC, CJS, TF or TR is not zero, and none when all are', () => {
+    expect(chargeParameters(resolvedParameters({}), 27).none).toBe(true);
+    for (const key of ['CJE', 'CJC', 'CJS', 'TF', 'TR'] as const) {
+      expect(chargeParameters(resolvedParameters({ [key]: 1e-12 }), 27).none, key).toBe(false);
+    }
+  });
+});
