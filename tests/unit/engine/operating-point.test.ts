@@ -52,6 +52,34 @@ describe.each(TAILS.map((tail) => [tail.topology, tail] as const))('continuation
   });
 });
 
+describe('continuation and junction limiting, step by step', () => {
+  const tail: Design['tail'] = { topology: 'cascode', referenceResistanceOhm: 10000 };
+
+  test('gmin stepping counts a Newton solve at each of its eleven shunts (10 mS to 1 pS) and the last without: at least twelve steps', () => {
+    const circuit = stageCircuit(designWith(tail));
+    const ic = indexCircuit(circuit);
+    const stepped = gminStepping(ic, deviceModel(DEVICE, 27), ic.freeNodes.map((name) => Math.max(Math.min(circuit.initialGuessV[name] ?? 0, 15), -15)));
+    expect(stepped!.iterations).toBeGreaterThanOrEqual(12);
+  });
+
+  test('source stepping counts every step\'s solves: at least five (5 %, then doubling steps, to 100 %)', () => {
+    const stepped = sourceStepping(indexCircuit(stageCircuit(designWith(tail))), deviceModel(DEVICE, 27));
+    expect('v' in stepped && stepped.iterations).toBeGreaterThanOrEqual(5);
+  });
+
+  test('a start with every junction about 3 V forward is limited (SPICE\'s pnjlim) and converges from there, not from the fallback guess', () => {
+    const circuit = stageCircuit(designWith(tail));
+    const model = deviceModel(DEVICE, 27);
+    const direct = solveOperatingPoint(circuit, model);
+    const names = direct.circuit.freeNodes;
+    const far = { ...direct, voltagesV: direct.voltagesV.map((v, k) => (/^(c|ref)/.test(names[k]) ? v + 3 : v - 3)) };
+    const fromFar = solveOperatingPoint(circuit, model, far);
+    // a failed start would count MAX_ITERATIONS (150) before the fallback
+    expect(fromFar.iterations).toBeLessThan(150);
+    fromFar.voltagesV.forEach((v, k) => expect(Math.abs(v - direct.voltagesV[k]), names[k]).toBeLessThan(SAME_SOLUTION_V));
+  });
+});
+
 describe('Newton stops once its quadratic steps show the solution', () => {
   // A solve warm-started from the solution confirms it in two steps with the plain test (every
   // node moved under 0.1 nV): the early stop must have left no more than that to move
@@ -93,6 +121,10 @@ describe('when the operating point cannot be found, the error names the fields t
     expect(error.fields).toEqual(['/pairEmitterResistanceOhm', '/collectorResistanceOhm', '/tail/referenceResistanceOhm']);
     expect(error.message).toContain('/pairEmitterResistanceOhm, /collectorResistanceOhm, /tail/referenceResistanceOhm');
     expect(error.message).toMatch(/^the operating point did not converge \(gmin stepping failed, source stepping stalled at \d+(\.\d+)? % of the rails\); /);
+    // a share of the rails in per cent, neither 0 nor all of them
+    const stalledPercent = Number(/stalled at ([\d.]+) %/.exec(error.message)![1]);
+    expect(stalledPercent).toBeGreaterThan(1);
+    expect(stalledPercent).toBeLessThan(100);
   });
 
   test('with every resistance in the usual range, the largest is named (it sets the smallest current)', () => {
