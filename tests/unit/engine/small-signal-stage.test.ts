@@ -60,3 +60,39 @@ describe('a stage that stores no charge', () => {
     expect(result.differentialBandwidthHz).toBeNull();
   });
 });
+
+describe('the tail\'s output resistance: the tail\'s own elements, a unit current into t', () => {
+  test('a resistor tail is its resistor, whatever the pair: 22 kΩ to 1e-12', () => {
+    const { stage } = solveStage(chargeless({ collectorResistanceOhm: 4700, pairEmitterResistanceOhm: 330 }));
+    expect(Math.abs(stage.tailOutputResistanceOhm / 22000 - 1)).toBeLessThan(1e-12);
+  });
+
+  test('a simple mirror: Q4\'s ro = (VAF + VCB)/IC to 1 % [GM] (the output transistor alone at its own bias)', () => {
+    const solution = solveStage(chargeless({ tail: { topology: 'simple-mirror', referenceResistanceOhm: 22000 } }));
+    const q4 = solution.result.transistors.find((q) => q.name === 'Q4')!;
+    const roOhm = (80 + q4.vcbV) / q4.collectorCurrentA;
+    expect(Math.abs(solution.stage.tailOutputResistanceOhm / roOhm - 1)).toBeLessThan(0.01);
+  });
+
+  test('a cascode: far above a simple mirror at the same current, about β·ro/2 [GM] (within a factor of two)', () => {
+    const cascode = solveStage(chargeless({ tail: { topology: 'cascode', referenceResistanceOhm: 22000 } }));
+    const q6 = cascode.result.transistors.find((q) => q.name === 'Q6')!;
+    const roOhm = (80 + q6.vcbV) / q6.collectorCurrentA;
+    const ratio = cascode.stage.tailOutputResistanceOhm / ((150 * roOhm) / 2);
+    expect(ratio).toBeGreaterThan(0.5);
+    expect(ratio).toBeLessThan(2);
+  });
+});
+
+describe('device capacitances in the stage', () => {
+  // An invented card: each capacitance alone on the cascode, and the transfer at 10 MHz must move from its 0 Hz value
+  const base = { family: 'npn' as const, beta: 150, earlyVoltageV: 80, saturationCurrentA: 1e-14 };
+  test.each(['CJE', 'CJC', 'CJS', 'TF'] as const)('%s alone makes the common-mode gain move with frequency (it is stamped)', (key) => {
+    const value = key === 'TF' ? 1e-9 : 5e-12;
+    const { stage } = solveStage(chargeless({ device: { ...base, model: { IS: 1e-14, BF: 150, VAF: 80, [key]: value } }, tail: { topology: 'cascode', referenceResistanceOhm: 22000 } }));
+    expect(stage.frequency).not.toBeNull();
+    const low = stageTransfersAt(stage, 0).commonModeGain;
+    const high = stageTransfersAt(stage, 1e7).commonModeGain;
+    expect(Math.hypot(high.re - low.re, high.im - low.im)).toBeGreaterThan(0.01 * Math.hypot(low.re, low.im));
+  });
+});
