@@ -5,7 +5,7 @@
  * the operating-point problems, and which transistor's gm is reported.
  */
 import { describe, expect, test } from 'vitest';
-import { analyze } from '#shared/engine/analyze';
+import { analyze, solveCondition } from '#shared/engine/analyze';
 import { thermalVoltageV } from '#shared/engine/constants';
 import { TOPOLOGIES, type Design, type TailDesign, type TopologyId } from '#shared/engine/types';
 
@@ -96,5 +96,31 @@ describe('regions and operating-point problems', () => {
     const result = analyze(designWith(topology));
     expect(result.transistors.every((q) => q.region === 'forward-active')).toBe(true);
     expect(result.operatingPointProblems).toEqual([]);
+  });
+});
+
+describe('the ac entries [contract]', () => {
+  test('a mismatched pair: each entry\'s rejections are 20·log10 of its own gains\' ratios; a matched pair\'s differential one is null', () => {
+    const card = { IS: 5e-15, BF: 140, VAF: 85, CJE: 6e-12, CJC: 2e-12, CJS: 2e-12 };
+    const mismatched = analyze(designWith('simple-mirror', { device: { ...DEVICE, model: card }, frequenciesHz: [1e3, 1e6] }));
+    for (const entry of mismatched.ac) {
+      expect(entry.cmrrDb.singleEnded).toBeCloseTo(20 * Math.log10(entry.singleEndedGain / entry.commonModeGain), 10);
+      expect(entry.cmrrDb.differential!).toBeCloseTo(20 * Math.log10(entry.differentialGain / entry.differentialCommonModeGain), 10);
+    }
+    const matched = analyze(designWith('simple-mirror', { device: { ...DEVICE, model: card }, frequenciesHz: [1e3, 1e6], collectorMismatch: 0 }));
+    for (const entry of matched.ac) {
+      expect(entry.differentialCommonModeGain).toBe(0);
+      expect(entry.cmrrDb.differential).toBeNull();
+    }
+  });
+});
+
+describe('a condition\'s solve', () => {
+  test('leaves the two searched corners unsearched (null) where the full solve finds them', () => {
+    const design = designWith('cascode', { tailCapacitanceF: 10e-12 });
+    expect(analyze(design).cmrrCornerHz).not.toBeNull();
+    const condition = solveCondition(design).result as Record<string, unknown>;
+    expect(condition.cmrrCornerHz).toBeNull();
+    expect(condition.differentialBandwidthHz).toBeNull();
   });
 });
