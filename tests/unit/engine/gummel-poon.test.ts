@@ -96,3 +96,47 @@ describe('an empty card is no card', () => {
     expect(blank.evaluate(0.7, -3, 1)).toEqual(plain.evaluate(0.7, -3, 1));
   });
 });
+
+describe('the DC currents written out by hand from ngspice bjtload.c and bjttemp.c [SPICE]', () => {
+  // bjttemp.c: factlog = (T/Tnom − 1)·EG/VT + XTI·ln(T/Tnom); IS·e^factlog; BF, BR × (T/Tnom)^XTB;
+  // ISE·e^(factlog/NE) and ISC·e^(factlog/NC), each ÷ (T/Tnom)^XTB.
+  // bjtload.c: a junction s·(e^(v/vtn) − 1), below −3·vtn −s·(1 + (3·vtn/(v·e))³); GMIN·v on the leakage
+  // junctions; q1 = 1/(1 − vbc/VAF − vbe/VAR), q2 = cbe/IKF + cbc/IKR, qb = q1·(1 + √(1 + 4·q2))/2;
+  // ic = (cbe − cbc)/qb − cbc/BR − cbcn, ib = cbe/BF + cben + cbc/BR + cbcn. Area A scales IS, ISE, ISC, IKF, IKR.
+  const FULL: BjtModelCard = { ...CARD, EG: 1.12, XTI: 3.2 };
+  const GMIN = 1e-12;
+  function byHand(vbe: number, vbc: number, area: number, celsius: number) {
+    const t = celsius + 273.15;
+    const ratio = t / 300.15;
+    const vt = (1.380649e-23 * t) / 1.602176634e-19;
+    const factlog = (ratio - 1) * (1.12 / vt) + 3.2 * Math.log(ratio);
+    const beta = ratio ** 1.55;
+    const is = 4.2e-15 * Math.exp(factlog) * area;
+    const ise = ((2.1e-14 * Math.exp(factlog / 1.55)) / beta) * area;
+    const isc = ((3e-14 * Math.exp(factlog / 1.8)) / beta) * area;
+    const diode = (s: number, v: number, vtn: number) => (v >= -3 * vtn ? s * (Math.exp(v / vtn) - 1) : -s * (1 + ((3 * vtn) / (v * Math.E)) ** 3));
+    const cbe = diode(is, vbe, 1.005 * vt);
+    const cbc = diode(is, vbc, 1.01 * vt);
+    const cben = diode(ise, vbe, 1.55 * vt) + GMIN * vbe;
+    const cbcn = diode(isc, vbc, 1.8 * vt) + GMIN * vbc;
+    const q1 = 1 / (1 - vbc / 74 - vbe / 18);
+    const q2 = cbe / (0.045 * area) + cbc / (0.012 * area);
+    const qb = (q1 * (1 + Math.sqrt(1 + 4 * q2))) / 2;
+    return { ic: (cbe - cbc) / qb - cbc / (4.2 * beta) - cbcn, ib: cbe / (165 * beta) + cben + cbc / (4.2 * beta) + cbcn };
+  }
+  const rows = [
+    { where: 'forward-active', vbe: 0.68, vbc: -4 },
+    { where: 'saturated', vbe: 0.72, vbc: 0.55 },
+    { where: 'reverse, VBC far below −3·NC·VT', vbe: 0.62, vbc: -12 },
+    { where: 'both junctions off', vbe: -0.4, vbc: -9 },
+  ];
+  test.each(rows.flatMap((r) => [27, 125, -40].flatMap((celsius) => [1, 2.5].map((area) => ({ ...r, celsius, area })))))(
+    '$where, VBE $vbe V, VBC $vbc V, $celsius °C, area $area: IC and IB to 1e-10',
+    ({ vbe, vbc, celsius, area }) => {
+      const ev = model(FULL, celsius).evaluate(vbe, vbc, area);
+      const hand = byHand(vbe, vbc, area, celsius);
+      expect(Math.abs(ev.icA - hand.ic)).toBeLessThanOrEqual(1e-10 * Math.max(Math.abs(hand.ic), Math.abs(hand.ib), 1e-15));
+      expect(Math.abs(ev.ibA - hand.ib)).toBeLessThanOrEqual(1e-10 * Math.max(Math.abs(hand.ib), 1e-15));
+    },
+  );
+});
