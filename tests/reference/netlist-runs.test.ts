@@ -8,36 +8,15 @@ import { beforeAll, describe, expect, test, vi } from 'vitest';
 import { stageCircuit } from '#shared/engine/circuit';
 import { thermalVoltageV } from '#shared/engine/constants';
 import { saturationCurrentAtA } from '#shared/engine/device';
-import { TOPOLOGIES, type Design, type DeviceParams, type TailDesign, type TopologyId } from '#shared/engine/types';
+import { TOPOLOGIES, type DeviceParams } from '#shared/engine/types';
+import { netlistDesign as designFor } from '../helpers/netlist-designs';
 import { runSpice, spiceAc, spiceFigures, spiceOperatingPoint, startSpice } from '../helpers/spice';
 
 /** ngspice's first start (WebAssembly instantiation) takes about a second; allow for a slow machine. */
 const ENGINE_START_TIMEOUT_MS = 120_000;
 
-const DEVICE: DeviceParams = { family: 'npn', beta: 165, earlyVoltageV: 92, saturationCurrentA: 1.1e-14 };
 /** The same device without the Early effect, for hand formulas that assume none. */
 const DEVICE_NO_EARLY: DeviceParams = { family: 'npn', beta: 165, saturationCurrentA: 1.1e-14 };
-
-const TAILS: Record<TopologyId, TailDesign> = {
-  resistor: { topology: 'resistor', resistanceOhm: 5100 },
-  'simple-mirror': { topology: 'simple-mirror', referenceResistanceOhm: 16000 },
-  'degenerated-mirror': { topology: 'degenerated-mirror', referenceResistanceOhm: 15000, emitterResistanceOhm: 680 },
-  widlar: { topology: 'widlar', referenceResistanceOhm: 11000, emitterResistanceOhm: 270 },
-  wilson: { topology: 'wilson', referenceResistanceOhm: 15000 },
-  cascode: { topology: 'cascode', referenceResistanceOhm: 15000 },
-};
-
-function designFor(topology: TopologyId, overrides: Partial<Design> = {}): Design {
-  return {
-    device: DEVICE,
-    supply: { positiveV: 9, negativeV: -9 },
-    collectorResistanceOhm: 6200,
-    tail: TAILS[topology],
-    inputCommonModeV: 0.5,
-    temperatureC: 27,
-    ...overrides,
-  };
-}
 
 describe('ngspice runs the netlists', () => {
   beforeAll(startSpice, ENGINE_START_TIMEOUT_MS);

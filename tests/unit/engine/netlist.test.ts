@@ -15,31 +15,10 @@ import {
   type NetlistOptions,
   type ParsedElement,
 } from '#shared/engine/netlist';
-import { TOPOLOGIES, type Design, type DeviceParams, type TailDesign, type TopologyId } from '#shared/engine/types';
+import { TOPOLOGIES, type DeviceParams, type TailDesign, type TopologyId } from '#shared/engine/types';
+import { netlistDesign as designFor } from '../../helpers/netlist-designs';
 import { parseSpiceNumber } from '#shared/units/spice-number';
 
-const DEVICE: DeviceParams = { family: 'npn', beta: 165, earlyVoltageV: 92, saturationCurrentA: 1.1e-14 };
-
-const TAILS: Record<TopologyId, TailDesign> = {
-  resistor: { topology: 'resistor', resistanceOhm: 5100 },
-  'simple-mirror': { topology: 'simple-mirror', referenceResistanceOhm: 16000 },
-  'degenerated-mirror': { topology: 'degenerated-mirror', referenceResistanceOhm: 15000, emitterResistanceOhm: 680 },
-  widlar: { topology: 'widlar', referenceResistanceOhm: 11000, emitterResistanceOhm: 270 },
-  wilson: { topology: 'wilson', referenceResistanceOhm: 15000 },
-  cascode: { topology: 'cascode', referenceResistanceOhm: 15000 },
-};
-
-function designFor(topology: TopologyId, overrides: Partial<Design> = {}): Design {
-  return {
-    device: DEVICE,
-    supply: { positiveV: 9, negativeV: -9 },
-    collectorResistanceOhm: 6200,
-    tail: TAILS[topology],
-    inputCommonModeV: 0.5,
-    temperatureC: 27,
-    ...overrides,
-  };
-}
 
 const AC_SWEEP = { startHz: 1, stopHz: 1e10, pointsPerDecade: 50 };
 const ANALYSES: NetlistOptions[] = [
