@@ -139,9 +139,9 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], sh
     // Newton converges quadratically near a solution: the step after δ_i is about C·δ_i², and
     // C ≈ δ_i/δ_{i−1}² from the last two steps, so the next is about δ_i·(δ_i/δ_{i−1})² (J. E.
     // Dennis and R. B. Schnabel, Numerical Methods for Unconstrained Optimization and Nonlinear
-    // Equations, 1983, §5.2). When an unlimited step under QUADRATIC_STEP_V fell by a tenth or more and that
-    // estimate is under the tolerance, the solution is already as close as the confirming step
-    // would show: the iteration that only confirms is saved.
+    // Equations, 1983, ch. 5, the chapter cited from memory). When an unlimited step under
+    // QUADRATIC_STEP_V fell by a tenth or more and that estimate is under the tolerance, the
+    // solution is already as close as the confirming step would show: that iteration is saved.
     if (!limited && stepV <= QUADRATIC_STEP_V && stepV <= QUADRATIC_CONTRACTION * lastStepV && stepV * (stepV / lastStepV) ** 2 <= VOLTAGE_TOLERANCE_V) {
       return { v, iterations: iter };
     }
