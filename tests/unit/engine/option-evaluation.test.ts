@@ -97,6 +97,20 @@ describe('facts: worst corners and margins from their definitions', () => {
     expect(facts.cmrrFrequencyHz).toBe(1000);
     expect(facts.cmrrRequiredDb).toBe(60);
     expect(facts.cmrrMarginRequiredDb).toBe(4);
+    // a single-ended output's rejection is that same figure, its margin the same
+    expect(facts.outputCmrrDb).toBe(worst.cmrrAtFrequencyDb);
+    expect(facts.outputCmrrMarginDb).toBeCloseTo(worst.cmrrAtFrequencyDb - 64, 9);
+  });
+
+  test('rejection of a differential output: the worst-case mismatch-limited figure against the required plus the margin; the common mode left for the next stage against the required alone', () => {
+    const spec = specWith({ gain: { target: 100, output: 'differential', tolerancePercent: 10 }, cmrr: { minDb: 60, atFrequencyHz: 1000, marginDb: 4 } });
+    const { facts, corners } = evaluateOption(spec, designFor(spec, MIRROR));
+    expect(facts.cmrrDifferentialWorstCaseDb).not.toBeNull();
+    expect(facts.outputCmrrDb).toBe(facts.cmrrDifferentialWorstCaseDb);
+    expect(facts.outputCmrrMarginDb).toBeCloseTo(facts.cmrrDifferentialWorstCaseDb! - 64, 9);
+    expect(facts.cmrrDifferentialWorstCaseMarginDb).toBeCloseTo(facts.cmrrDifferentialWorstCaseDb! - 60, 9);
+    expect(corners).toHaveLength(4);
+    expect(facts.outputCommonModeMarginDb).toBeCloseTo(facts.outputCommonModeRejectionDb - 60, 9);
   });
 
   test('gain: error at nominal, the corner with the largest error in magnitude, and both margins against the tolerance', () => {
