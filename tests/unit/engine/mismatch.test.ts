@@ -14,6 +14,8 @@ import {
   mismatchedDesign,
   monteCarloCmrr,
   monteCarloDraws,
+  monteCarloSample,
+  percentile,
   worstCaseMismatchCmrrDb,
   worstCaseMismatches,
   worstCaseMismatchShares,
@@ -102,6 +104,22 @@ describe.each(Object.entries(DESIGNS))('%s', (_name, design) => {
     const dc = analyze(mismatchedDesign(design, mismatches));
     const modelDb = mismatchCmrrDb(mismatchSensitivity(stagesOf(), 0), mismatches);
     expect(agrees(modelDb, dc.cmrrDb.differential ?? Infinity), `model ${modelDb} dB, analyze ${dc.cmrrDb.differential} dB`).toBe(true);
+  });
+
+  test('the Monte Carlo\'s unrolled loop gives, sample by sample, the model\'s figure for that sample\'s mismatches: the same yield, percentiles and histogram', () => {
+    const s = mismatchSensitivity(stagesOf(), 1000);
+    const draws = monteCarloDraws(500, 11);
+    const sigmas = { ...SIGMAS, betaSigma: 0.03, earlyVoltageSigma: 0.06 };
+    const values = Float64Array.from({ length: 500 }, (_, i) => mismatchCmrrDb(s, monteCarloSample(draws, i, sigmas, s.thermalVoltageV).mismatches)).sort();
+    // required at the samples' median: about half pass
+    const requiredDb = percentile(values, 50);
+    const mc = monteCarloCmrr(s, draws, sigmas, requiredDb);
+    expect(mc.yieldPercent).toBe((100 * values.filter((v) => v >= requiredDb).length) / 500);
+    expect(mc.yieldPercent).toBeGreaterThan(0);
+    expect(mc.yieldPercent).toBeLessThan(100);
+    for (const p of [1, 5, 50, 95] as const) expect(mc.percentilesDb[`p${p}`], `p${p}`).toBeCloseTo(percentile(values, p), 9);
+    expect(mc.histogram.binEdgesDb[0]).toBeCloseTo(values[0], 9);
+    expect(mc.histogram.counts.reduce((a, b) => a + b, 0)).toBe(500);
   });
 
   test('the worst case lies below the Monte Carlo 5th percentile (3σ extremes add in magnitude)', () => {
