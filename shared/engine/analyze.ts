@@ -231,13 +231,13 @@ function cornersHz(stage: SmallSignalStage, figures: readonly CornerFigure[]): (
   });
 }
 
+/** |z|². */
+const powerOf = (z: ComplexPair): number => z.re * z.re + z.im * z.im;
+
 /** The figure as a power ratio: |N|²/|D|² (|N|² without a denominator). */
 function figurePower(figure: CornerFigure, t: StageTransfers): number {
-  const n = t[figure.numerator];
-  const power = n.re * n.re + n.im * n.im;
-  if (!figure.denominator) return power;
-  const d = t[figure.denominator];
-  return power / (d.re * d.re + d.im * d.im);
+  const power = powerOf(t[figure.numerator]);
+  return figure.denominator ? power / powerOf(t[figure.denominator]) : power;
 }
 
 /** One of a solve's transfers, [drive][output] as TRANSFER_PARTS places it. */
@@ -254,11 +254,8 @@ function solvedFigurePower(model: FrequencyModel, figure: CornerFigure, frequenc
   const { numerator, denominator } = figure;
   const driveCount = Math.max(TRANSFER_PARTS[numerator].drive, denominator ? TRANSFER_PARTS[denominator].drive : 0) + 1;
   const t = transfersAtOmega(model, 2 * Math.PI * frequencyHz, driveCount);
-  const n = partOf(t, numerator);
-  const power = n.re * n.re + n.im * n.im;
-  if (!denominator) return power;
-  const d = partOf(t, denominator);
-  return power / (d.re * d.re + d.im * d.im);
+  const power = powerOf(partOf(t, numerator));
+  return denominator ? power / powerOf(partOf(t, denominator)) : power;
 }
 
 /**

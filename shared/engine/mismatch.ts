@@ -315,20 +315,18 @@ export interface MonteCarloSample {
  */
 export function monteCarloSample(draws: MonteCarloDraws, i: number, sigmas: MismatchSigmas, thermalVoltageV: number): MonteCarloSample {
   const resistorSigma = sigmas.resistorTolerance / SIGMAS_PER_TOLERANCE;
-  const mismatches: [number, number, number, number] = [0, 0, 0, 0];
-  monteCarloMismatches(draws, i, sigmas, thermalVoltageV, mismatches);
-  return { load1Scale: 1 + resistorSigma * draws.normals[3 * i], load2Scale: 1 + resistorSigma * draws.normals[3 * i + 1], mismatches };
-}
-
-/** Sample `i`'s four mismatches (as monteCarloSample), written into `x`: the Monte Carlo's inner loop allocates nothing. */
-function monteCarloMismatches(draws: MonteCarloDraws, i: number, sigmas: MismatchSigmas, thermalVoltageV: number, x: [number, number, number, number]): void {
-  const resistorSigma = sigmas.resistorTolerance / SIGMAS_PER_TOLERANCE;
   const load1Scale = 1 + resistorSigma * draws.normals[3 * i];
   const load2Scale = 1 + resistorSigma * draws.normals[3 * i + 1];
-  x[0] = load2Scale / load1Scale - 1;
-  x[1] = Math.exp((sigmas.vbeSigmaV * draws.normals[3 * i + 2]) / thermalVoltageV) - 1;
-  x[2] = sigmas.betaSigma * draws.deviceNormals[2 * i];
-  x[3] = sigmas.earlyVoltageSigma * draws.deviceNormals[2 * i + 1];
+  return {
+    load1Scale,
+    load2Scale,
+    mismatches: [
+      load2Scale / load1Scale - 1,
+      Math.exp((sigmas.vbeSigmaV * draws.normals[3 * i + 2]) / thermalVoltageV) - 1,
+      sigmas.betaSigma * draws.deviceNormals[2 * i],
+      sigmas.earlyVoltageSigma * draws.deviceNormals[2 * i + 1],
+    ],
+  };
 }
 
 /**
@@ -340,7 +338,7 @@ export function monteCarloCmrr(s: MismatchSensitivity, draws: MonteCarloDraws, s
   const { samples, normals, deviceNormals } = draws;
   const values = new Float64Array(samples);
   let passing = 0;
-  // mismatchCmrrDb and monteCarloMismatches written out with the model's coefficients in locals
+  // mismatchCmrrDb and monteCarloSample written out with the model's coefficients in locals
   // (the same operations in the same order: the same figures); this loop runs 2000 times an option
   const [l0, l1, l2, l3] = s.linear;
   const [q0, q1, q2, q3] = s.squared;

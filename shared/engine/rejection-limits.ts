@@ -23,7 +23,7 @@
  * Beside each capacitive group: the rejection with that group removed (its capacitances zeroed,
  * the circuit solved again), what a designer would win by getting rid of it.
  */
-import { COLLECTOR_NODES, DRIVE_NODES_BEHIND_SOURCE, INPUT_NODES, TAIL_NODE } from './circuit';
+import { DRIVE_NODES_BEHIND_SOURCE, INPUT_NODES, TAIL_NODE } from './circuit';
 import { solveComplex, type ComplexVector } from './complex-solve';
 import { chargeParameters, transistorCapacitances } from './junction-charges';
 import { cardOf, resolvedParameters } from './bjt-parameters';
@@ -31,6 +31,8 @@ import { nodeVoltage, type IndexedCircuit, type IndexedTransistor, type NodeRef 
 import type { BjtEval } from './device';
 import type { SolvedCircuit } from './analyze';
 import type { OutputKind } from './types';
+import { readOutput, type OutputWeights } from './frequency-response';
+import type { Complex, SmallSignalStage } from './small-signal';
 
 /** The parts a designer can act on, each a group of the circuit's elements. */
 export const REJECTION_LIMIT_PARTS = [
@@ -106,6 +108,8 @@ interface Element {
 interface CircuitElements {
   ic: IndexedCircuit;
   elements: Element[];
+  /** The stage's outputs (small-signal.ts): c1 alone and c1 − c2. */
+  outputs: SmallSignalStage['outputs'];
 }
 
 function add(entries: Entry[], row: NodeRef, col: NodeRef, value: number): void {
@@ -196,7 +200,7 @@ function circuitElements(solved: SolvedCircuit): CircuitElements {
       piece(`${side}-collector-substrate`, twoTerminal(c, s, caps.collectorSubstrateF), caps.collectorSubstrateF);
     });
   }
-  return { ic, elements };
+  return { ic, elements, outputs: solved.stage.outputs };
 }
 
 /** The complex node matrix (G + jωC) of the elements `keep` admits. */
@@ -252,22 +256,13 @@ function elementCurrents(e: Element, n: number, omega: number, x: ComplexVector,
   return { re, im };
 }
 
-interface C {
-  re: number;
-  im: number;
-}
+type C = Complex;
 const over = (a: C, b: C): C => {
   const d = b.re * b.re + b.im * b.im;
   return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
 };
-const dot = (w: readonly { node: number; weight: number }[], x: ComplexVector): C =>
-  w.reduce((s, { node, weight }) => ({ re: s.re + weight * x.re[node], im: s.im + weight * x.im[node] }), { re: 0, im: 0 });
-
-/** The output's weights on free nodes: c1, or c1 − c2. */
-function outputWeights(ic: IndexedCircuit, output: OutputKind): { node: number; weight: number }[] {
-  const c1 = { node: ic.nodeRef(COLLECTOR_NODES[0]), weight: 1 };
-  return output === 'differential' ? [c1, { node: ic.nodeRef(COLLECTOR_NODES[1]), weight: -1 }] : [c1];
-}
+/** The output's value in a complex node vector. */
+const dot = (w: OutputWeights, x: ComplexVector): C => ({ re: readOutput(x.re, w), im: readOutput(x.im, w) });
 
 /** Signal and common-mode transfers to the output with the elements `keep` admits. */
 function transfers(parts: CircuitElements, omega: number, output: OutputKind, keep: (e: Element) => boolean) {
@@ -278,7 +273,8 @@ function transfers(parts: CircuitElements, omega: number, output: OutputKind, ke
   const commonV = fixedDrive(ic, driveNodes, 1, 1);
   const m = nodeMatrix(ic, elements, omega, keep);
   const [signal, common] = solveComplex(m.re.slice(), m.im.slice(), n, [driveVector(ic, elements, omega, signalV, keep), driveVector(ic, elements, omega, commonV, keep)]);
-  const w = outputWeights(ic, output);
+  // the stage's own output weights: c1, or c1 − c2
+  const w = output === 'differential' ? parts.outputs.betweenCollectors : parts.outputs.collector1;
   return { matrix: m, signal, common, signalV, commonV, w, signalGain: dot(w, signal), commonGain: dot(w, common) };
 }
 
@@ -311,7 +307,7 @@ export function rejectionLimits(solved: SolvedCircuit, frequencyHz: number, outp
     }
   }
   const wVector = { re: new Array<number>(n).fill(0), im: new Array<number>(n).fill(0) };
-  for (const { node, weight } of t.w) wVector.re[node] += weight;
+  t.w.nodes.forEach((node, i) => (wVector.re[node] += t.w.weights[i]));
   const [lambda] = solveComplex(transposedRe, transposedIm, n, [wVector]);
   const sensitivityOf = (current: ComplexVector): C => {
     let re = 0;
