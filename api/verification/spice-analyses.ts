@@ -52,6 +52,10 @@ export const PLOT_NAMES: Record<NetlistOptions['analysis'], string> = {
   'ac-differential': 'AC Analysis',
   'ac-common-mode': 'AC Analysis',
   'ac-tail': 'AC Analysis',
+  'ac-rail': 'AC Analysis',
+  'dc-differential': 'DC transfer characteristic',
+  noise: 'Noise Spectral Density Curves',
+  'tran-step': 'Transient Analysis',
 };
 
 /** The plot name in a result's header. */
@@ -103,7 +107,7 @@ export interface SpiceAc {
   sourceCurrents: Record<string, Complex[]>;
 }
 
-export type AcOptions = Exclude<NetlistOptions, { analysis: 'op' }>;
+export type AcOptions = Extract<NetlistOptions, { analysis: 'ac-differential' | 'ac-common-mode' | 'ac-tail' | 'ac-rail' }>;
 
 /** Runs one AC analysis (differential, common-mode or tail drive) on a design's netlist (reference RELTOL unless `options` sets one). */
 export async function spiceAc(run: SpiceRunner, design: Design, options: AcOptions): Promise<SpiceAc> {

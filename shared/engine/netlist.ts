@@ -23,6 +23,18 @@ export const SUPPLY_SOURCES = { positive: 'VP', negative: 'VN' } as const;
 export const INPUT_SOURCES = ['VIN1', 'VIN2'] as const;
 /** The test source holding the tail node in an `ac-tail` netlist: Rout = 1/|i(vtail)|. */
 export const TAIL_TEST_SOURCE = 'VTAIL';
+/**
+ * The one differential source of a `dc-differential`, `noise` or `tran-step` netlist: v(VD) is
+ * the differential input, split over the two drive nodes by noiseless controlled sources (so a
+ * `.noise` analysis has a single input source and a `.dc` sweep a single swept one).
+ */
+export const DIFFERENTIAL_SOURCE = 'VD';
+/** The common-mode source under the two halves of the split differential drive. */
+export const COMMON_MODE_SOURCE = 'VCM';
+/** The controlled sources putting +v(VD)/2 and −v(VD)/2 on the drive nodes over the common mode. */
+export const SPLIT_SOURCES = ['EIN1', 'EIN2'] as const;
+/** Default edge of the `tran-step` drive, s (the contract's 1 ns). */
+export const STEP_EDGE_S = 1e-9;
 
 /** A logarithmic AC sweep, `.ac dec pointsPerDecade startHz stopHz`. */
 export interface AcSweep {
@@ -40,12 +52,25 @@ export interface AcSweep {
  * - `ac-common-mode`: in1 and in2 both AC 1 ∠0°, so v_cm = 1.
  * - `ac-tail`: the tail element alone (part 'tail'), its node t held by an ideal source at DC
  *   `tailNodeV` (t's operating-point voltage) and AC 1, so Rout = 1/|i(vtail)|.
+ * - `op` with `differentialInputV`: the drive nodes at the common mode ± half of it (an offset
+ *   input, v(drive1) − v(drive2) = differentialInputV).
+ * - `dc-differential`: `.dc VD start stop step`, the one differential source VD swept (a
+ *   negative step sweeps downwards).
+ * - `ac-rail`: that rail's source AC 1 ∠0°, the inputs at DC only (supply rejection).
+ * - `noise`: `.noise v(c1,c2) VD dec …`, VD with AC 1: ngspice's input-referred density is the
+ *   output noise over the gain from VD, i.e. from the differential drive.
+ * - `tran-step`: VD steps from `fromV` to `toV` in `edgeS` (default STEP_EDGE_S) after `delayS`,
+ *   `.tran stepS stopS` with the step as the largest internal step too.
  */
 export type NetlistOptions = (
-  | { analysis: 'op'; transistorVectors?: readonly TransistorVector[] }
+  | { analysis: 'op'; transistorVectors?: readonly TransistorVector[]; differentialInputV?: number }
   | ({ analysis: 'ac-differential' } & AcSweep)
   | ({ analysis: 'ac-common-mode' } & AcSweep)
   | ({ analysis: 'ac-tail'; tailNodeV: number } & AcSweep)
+  | { analysis: 'dc-differential'; startV: number; stopV: number; stepV: number }
+  | ({ analysis: 'ac-rail'; rail: keyof typeof RAIL_NODES } & AcSweep)
+  | ({ analysis: 'noise' } & AcSweep)
+  | { analysis: 'tran-step'; fromV: number; toV: number; delayS: number; stepS: number; stopS: number; edgeS?: number }
 ) &
   NetlistSolverSettings &
   NetlistCardSettings;
@@ -140,6 +165,12 @@ function dcSource(name: string, node: string, dcV: number, ac = ''): string {
   return `${name} ${node} ${GROUND} DC ${spiceNumber(dcV)}${ac}`;
 }
 
+/** A finite number, or a RangeError naming the field. */
+function finite(name: string, value: number): number {
+  if (!Number.isFinite(value)) throw new RangeError(`${name} must be a finite number`);
+  return value;
+}
+
 /** `.options tnom [reltol]`: TNOM = 27 °C, where the card's parameters hold [SPICE], and solver settings. */
 function optionsCard(settings: NetlistSolverSettings): string {
   const words = [`tnom=${spiceNumber(NOMINAL_TEMPERATURE_C)}`];
@@ -158,12 +189,48 @@ function saveCard(options: NetlistOptions, transistorNames: readonly string[]): 
 }
 
 function analysisCard(options: NetlistOptions): string {
-  if (options.analysis === 'op') return '.op';
-  const { startHz, stopHz, pointsPerDecade } = options;
-  if (!(startHz > 0 && stopHz >= startHz && Number.isInteger(pointsPerDecade) && pointsPerDecade >= 1)) {
-    throw new RangeError(`AC sweep needs 0 < startHz <= stopHz and an integer pointsPerDecade >= 1`);
+  switch (options.analysis) {
+    case 'op':
+      return '.op';
+    case 'dc-differential': {
+      const { startV, stopV, stepV } = options;
+      // a falling sweep (stopV < startV) takes a negative step
+      if (!(Number.isFinite(startV) && Number.isFinite(stopV) && Number.isFinite(stepV) && stepV !== 0 && Math.sign(stopV - startV) !== -Math.sign(stepV))) {
+        throw new RangeError('DC sweep needs finite startV and stopV and a non-zero stepV towards stopV');
+      }
+      return `.dc ${DIFFERENTIAL_SOURCE} ${spiceNumber(startV)} ${spiceNumber(stopV)} ${spiceNumber(stepV)}`;
+    }
+    case 'tran-step': {
+      const { stepS, stopS } = options;
+      if (!(stepS > 0 && stopS > stepS && Number.isFinite(stopS))) throw new RangeError('transient needs 0 < stepS < stopS');
+      // the step is also the largest internal step: a fast edge is never stepped over
+      return `.tran ${spiceNumber(stepS)} ${spiceNumber(stopS)} 0 ${spiceNumber(stepS)}`;
+    }
+    default: {
+      const { startHz, stopHz, pointsPerDecade } = options;
+      if (!(startHz > 0 && stopHz >= startHz && Number.isInteger(pointsPerDecade) && pointsPerDecade >= 1)) {
+        throw new RangeError(`AC sweep needs 0 < startHz <= stopHz and an integer pointsPerDecade >= 1`);
+      }
+      const sweep = `dec ${pointsPerDecade} ${spiceNumber(startHz)} ${spiceNumber(stopHz)}`;
+      return options.analysis === 'noise' ? `.noise v(c1,c2) ${DIFFERENTIAL_SOURCE} ${sweep}` : `.ac ${sweep}`;
+    }
   }
-  return `.ac dec ${pointsPerDecade} ${spiceNumber(startHz)} ${spiceNumber(stopHz)}`;
+}
+
+/**
+ * The split differential drive: VCM at the common mode, VD (its DC and AC words as given), and
+ * EIN1/EIN2 putting +v(VD)/2 and −v(VD)/2 over the common mode on the drive nodes.
+ */
+function splitDriveLines(commonModeV: number, driveNodes: readonly [string, string], differentialWords: string): string[] {
+  const [in1, in2] = driveNodes;
+  const [e1, e2] = SPLIT_SOURCES;
+  return [
+    '* one differential source VD, split symmetrically: v(in1) - v(in2) = v(VD)',
+    dcSource(COMMON_MODE_SOURCE, 'vcm', commonModeV),
+    `${DIFFERENTIAL_SOURCE} vd ${GROUND} ${differentialWords}`,
+    `${e1} ${in1} vcm vd ${GROUND} 0.5`,
+    `${e2} ${in2} vcm vd ${GROUND} -0.5`,
+  ];
 }
 
 /** Input-drive lines for the analysis: in1/in2 at the common-mode DC voltage, or the tail test source. */
@@ -171,8 +238,25 @@ function inputDriveLines(options: NetlistOptions, commonModeV: number, driveNode
   const [in1, in2] = driveNodes;
   const [vin1, vin2] = INPUT_SOURCES;
   switch (options.analysis) {
-    case 'op':
+    case 'op': {
+      const halfV = finite('differentialInputV', options.differentialInputV ?? 0) / 2;
+      const offset = halfV !== 0 ? ['* an offset input: v(in1) - v(in2) = differentialInputV'] : [];
+      return [...offset, dcSource(vin1, in1, commonModeV + halfV), dcSource(vin2, in2, commonModeV - halfV)];
+    }
+    case 'ac-rail':
       return [dcSource(vin1, in1, commonModeV), dcSource(vin2, in2, commonModeV)];
+    case 'dc-differential':
+      return splitDriveLines(commonModeV, driveNodes, 'DC 0');
+    case 'noise':
+      return splitDriveLines(commonModeV, driveNodes, 'DC 0 AC 1 0');
+    case 'tran-step': {
+      const { fromV, toV, delayS, stopS } = options;
+      const edgeS = options.edgeS ?? STEP_EDGE_S;
+      if (!(edgeS > 0 && delayS >= 0)) throw new RangeError('step needs edgeS > 0 and delayS >= 0');
+      // PULSE(v1 v2 delay rise fall width period): one rising edge held to the end of the run
+      const pulse = `DC ${spiceNumber(finite('fromV', fromV))} PULSE(${spiceNumber(fromV)} ${spiceNumber(finite('toV', toV))} ${spiceNumber(delayS)} ${spiceNumber(edgeS)} ${spiceNumber(edgeS)} ${spiceNumber(2 * stopS)} ${spiceNumber(4 * stopS)})`;
+      return splitDriveLines(commonModeV, driveNodes, pulse);
+    }
     case 'ac-differential':
       return [
         '* v(in1) - v(in2) = 1, split symmetrically',
@@ -187,6 +271,11 @@ function inputDriveLines(options: NetlistOptions, commonModeV: number, driveNode
         dcSource(TAIL_TEST_SOURCE, TAIL_NODE, options.tailNodeV, ' AC 1 0'),
       ];
   }
+}
+
+/** The AC words of a rail's source: AC 1 on the rail an `ac-rail` netlist drives. */
+function railAc(options: NetlistOptions, rail: keyof typeof RAIL_NODES): string {
+  return options.analysis === 'ac-rail' && options.rail === rail ? ' AC 1 0' : '';
 }
 
 /** The comment prefix of every header line; never `*#` (ngspice reads `*#` lines as commands). */
@@ -216,8 +305,8 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
     `Longtail differential pair, ${design.tail.topology} tail (${options.analysis})`,
     ...comments.flatMap((text) => commentLines(text, COMMENT_PREFIX)),
     '* --- supplies ---',
-    dcSource(SUPPLY_SOURCES.positive, RAIL_NODES.positive, circuit.fixedNodesV[RAIL_NODES.positive]),
-    dcSource(SUPPLY_SOURCES.negative, RAIL_NODES.negative, circuit.fixedNodesV[RAIL_NODES.negative]),
+    dcSource(SUPPLY_SOURCES.positive, RAIL_NODES.positive, circuit.fixedNodesV[RAIL_NODES.positive], railAc(options, 'positive')),
+    dcSource(SUPPLY_SOURCES.negative, RAIL_NODES.negative, circuit.fixedNodesV[RAIL_NODES.negative], railAc(options, 'negative')),
     '* --- input drive ---',
     ...inputDriveLines(options, circuit.fixedNodesV[circuit.driveNodes[0]], circuit.driveNodes),
     '* --- pair and loads ---',

@@ -26,6 +26,11 @@ const ANALYSES: NetlistOptions[] = [
   { analysis: 'ac-differential', ...AC_SWEEP },
   { analysis: 'ac-common-mode', ...AC_SWEEP },
   { analysis: 'ac-tail', tailNodeV: -0.2, ...AC_SWEEP },
+  { analysis: 'op', differentialInputV: 0.002 },
+  { analysis: 'dc-differential', startV: -0.1, stopV: 0.1, stepV: 0.001 },
+  { analysis: 'ac-rail', rail: 'negative', ...AC_SWEEP },
+  { analysis: 'noise', ...AC_SWEEP },
+  { analysis: 'tran-step', fromV: -1, toV: 1, delayS: 1e-9, stepS: 1e-10, stopS: 1e-6 },
 ];
 
 type ParsedQ = Extract<ParsedElement, { kind: 'Q' }>;
@@ -161,7 +166,17 @@ describe('spiceNetlist: structure', () => {
       modelParameters(netlist);
       const cards = analysisCards(netlist);
       expect(cards).toHaveLength(1);
-      expect(cards[0]).toBe(options.analysis === 'op' ? '.op' : '.ac dec 50 1 10000000000');
+      const expected: Record<NetlistOptions['analysis'], string> = {
+        op: '.op',
+        'ac-differential': '.ac dec 50 1 10000000000',
+        'ac-common-mode': '.ac dec 50 1 10000000000',
+        'ac-tail': '.ac dec 50 1 10000000000',
+        'ac-rail': '.ac dec 50 1 10000000000',
+        noise: '.noise v(c1,c2) VD dec 50 1 10000000000',
+        'dc-differential': '.dc VD -0.1 0.1 0.001',
+        'tran-step': '.tran 1e-10 0.000001 0 1e-10',
+      };
+      expect(cards[0]).toBe(expected[options.analysis]);
     },
   );
 
@@ -372,6 +387,62 @@ describe('spiceNetlist: every line and card', () => {
     ['a fractional count of points', { startHz: 1, stopHz: 10, pointsPerDecade: 2.5 }],
   ])('an AC sweep with %s is refused, naming what SPICE needs', (_name, sweep) => {
     expect(() => spiceNetlist(designFor('resistor'), { analysis: 'ac-common-mode', ...sweep })).toThrow(/AC sweep needs 0 < startHz <= stopHz and an integer pointsPerDecade >= 1/);
+  });
+
+  // The sources as SPICE3 reads them (the SPICE3 user's guide: V name n+ n- DC v AC mag phase,
+  // E name n+ n- nc+ nc- gain, PULSE(v1 v2 td tr tf pw per)), and each analysis card's syntax
+  test('an offset input: VIN1 and VIN2 at the common mode ± half of it, so v(in1) − v(in2) is the offset', () => {
+    const netlist = spiceNetlist(designFor('resistor', { inputCommonModeV: 1 }), { analysis: 'op', differentialInputV: 0.004 });
+    const sources = parseNetlistElements(netlist).filter((e): e is ParsedV => e.kind === 'V');
+    expect(sources.find((v) => v.name === 'VIN1')).toMatchObject({ nodes: ['in1', '0'], dcV: 1.002 });
+    expect(sources.find((v) => v.name === 'VIN2')).toMatchObject({ nodes: ['in2', '0'], dcV: 0.998 });
+    expect(() => spiceNetlist(designFor('resistor'), { analysis: 'op', differentialInputV: Number.NaN })).toThrow(/differentialInputV must be a finite number/);
+  });
+
+  test.each(['dc-differential', 'noise', 'tran-step'] as const)('%s: one differential source VD split by EIN1 (+½) and EIN2 (−½) over VCM at the common mode onto the drive nodes', (analysis) => {
+    const options = ANALYSES.find((o) => o.analysis === analysis)!;
+    const lines = spiceNetlist(designFor('simple-mirror', { inputCommonModeV: 0.5, sourceResistanceOhm: 1000 }), options).split('\n');
+    expect(lines).toContain('VCM vcm 0 DC 0.5');
+    expect(lines).toContain('EIN1 drv1 vcm vd 0 0.5');
+    expect(lines).toContain('EIN2 drv2 vcm vd 0 -0.5');
+    expect(lines.filter((line) => line.startsWith('VD vd 0 '))).toHaveLength(1);
+    expect(lines.filter((line) => /^VIN[12]\s/.test(line))).toEqual([]);
+  });
+
+  test('the analysis cards of the new analyses, as SPICE3 writes them', () => {
+    const card = (options: NetlistOptions) => analysisCards(spiceNetlist(designFor('widlar'), options));
+    expect(card({ analysis: 'dc-differential', startV: -0.1, stopV: 0.1, stepV: 0.001 })).toEqual(['.dc VD -0.1 0.1 0.001']);
+    expect(card({ analysis: 'dc-differential', startV: 0, stopV: -2, stepV: -0.01 })).toEqual(['.dc VD 0 -2 -0.01']);
+    expect(card({ analysis: 'noise', startHz: 10, stopHz: 100, pointsPerDecade: 1 })).toEqual(['.noise v(c1,c2) VD dec 1 10 100']);
+    expect(card({ analysis: 'tran-step', fromV: -1, toV: 1, delayS: 1e-9, stepS: 1e-10, stopS: 1e-6 })).toEqual(['.tran 1e-10 0.000001 0 1e-10']);
+    expect(card({ analysis: 'ac-rail', rail: 'positive', startHz: 1, stopHz: 10, pointsPerDecade: 1 })).toEqual(['.ac dec 1 1 10']);
+  });
+
+  test('noise: VD carries AC 1 (the gain ngspice refers the output noise through is from VD alone); tran-step: VD a single 1 ns edge from −1 V to +1 V held past the run', () => {
+    const noise = spiceNetlist(designFor('resistor'), { analysis: 'noise', ...AC_SWEEP }).split('\n');
+    expect(noise.find((line) => line.startsWith('VD '))).toBe('VD vd 0 DC 0 AC 1 0');
+    const step = spiceNetlist(designFor('resistor'), { analysis: 'tran-step', fromV: -1, toV: 1, delayS: 2e-9, stepS: 1e-10, stopS: 1e-6 }).split('\n');
+    expect(step.find((line) => line.startsWith('VD '))).toBe('VD vd 0 DC -1 PULSE(-1 1 2e-9 1e-9 1e-9 0.000002 0.000004)');
+  });
+
+  test('ac-rail: AC 1 on the chosen rail only; the inputs at DC', () => {
+    for (const rail of ['positive', 'negative'] as const) {
+      const sources = parseNetlistElements(spiceNetlist(designFor('cascode'), { analysis: 'ac-rail', rail, ...AC_SWEEP })).filter((e): e is ParsedV => e.kind === 'V');
+      expect(sources.filter((v) => v.acMagnitude !== 0).map((v) => v.name)).toEqual([rail === 'positive' ? 'VP' : 'VN']);
+    }
+  });
+
+  test.each([
+    ['a zero step', { startV: 0, stopV: 1, stepV: 0 }],
+    ['a step away from the stop', { startV: 0, stopV: 1, stepV: -0.1 }],
+    ['an infinite stop', { startV: 0, stopV: Number.POSITIVE_INFINITY, stepV: 0.1 }],
+  ])('a DC sweep with %s is refused', (_name, sweep) => {
+    expect(() => spiceNetlist(designFor('resistor'), { analysis: 'dc-differential', ...sweep })).toThrow(/DC sweep needs/);
+  });
+
+  test('a transient whose stop is not past its step, or whose edge is not positive, is refused', () => {
+    expect(() => spiceNetlist(designFor('resistor'), { analysis: 'tran-step', fromV: -1, toV: 1, delayS: 0, stepS: 1e-6, stopS: 1e-6 })).toThrow(/transient needs 0 < stepS < stopS/);
+    expect(() => spiceNetlist(designFor('resistor'), { analysis: 'tran-step', fromV: -1, toV: 1, delayS: 0, stepS: 1e-9, stopS: 1e-6, edgeS: 0 })).toThrow(/step needs edgeS > 0/);
   });
 
   test('an AC sweep of one frequency is a sweep SPICE runs', () => {
