@@ -3,17 +3,17 @@
  * solved self-consistently and the small-signal stage as a whole (operating-point.ts,
  * small-signal.ts); this file turns the solution into the contract's figures.
  */
-import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE, pairIsMatched, stageCircuit, type StageCircuit } from './circuit';
+import { COLLECTOR_NODES, INPUT_NODES, RAIL_NODES, TAIL_NODE, pairIsMatched } from './circuit';
+import { driveCurrentsA, inputOffset, linearInputRangeV, offsetDriftVPerC, withoutMismatch } from './input-transfer';
 import { closedFormTailRout } from './closed-form';
-import { deviceModel, forwardBeta, type BjtEval, type DeviceModel } from './device';
+import type { BjtEval, DeviceModel } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { nodeVoltage, type IndexedCircuit } from './node-system';
-import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
-import { withHardFields } from './convergence-hints';
-import { TRANSFER_PARTS, magnitude, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
-import { transferMoveBound, transfersAtOmega, type ComplexPair, type FrequencyModel } from './frequency-response';
-import { hasModelCard, resolvedParameters } from './bjt-parameters';
-import type { AcEntry, AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
+import type { OperatingPoint } from './operating-point';
+import { solveStageOperatingPoint, type SolvedOperatingPoint } from './stage-solve';
+import { TRANSFER_PARTS, magnitude, smallSignalCurrentIntoA, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
+import { readOutput, transferMoveBound, transfersAtOmega, type ComplexPair, type FrequencyModel } from './frequency-response';
+import type { AcEntry, AnalyzeResult, Design, RailRejection, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
 
 /**
@@ -44,14 +44,23 @@ export interface StageSolution extends SolvedCircuit {
   problems: OperatingPointProblem[];
 }
 
-/** The figures of a stage solved at one condition of a spec: every figure but the searched corners (cmrrCornerHz, differentialBandwidthHz). */
-export type ConditionResult = Omit<AnalyzeResult, 'cmrrCornerHz' | 'differentialBandwidthHz'>;
+/**
+ * The figures a full solve adds to a condition's: the searched corners (cmrrCornerHz,
+ * differentialBandwidthHz) and the figures that take further operating points (the offset and
+ * its current and drift, the linear range).
+ */
+export type FullSolveField = 'cmrrCornerHz' | 'differentialBandwidthHz' | 'inputOffsetCurrentA' | 'inputOffsetVoltageV' | 'offsetDriftVPerC' | 'linearInputRangeV';
+
+/** The figures of a stage solved at one condition of a spec: every figure but a full solve's own (FullSolveField). */
+export type ConditionResult = Omit<AnalyzeResult, FullSolveField>;
 
 /** A stage solved at one condition of a spec (a corner, a sweep point, a sizing step): its figures without the corner searches. */
 export interface ConditionSolution extends SolvedCircuit {
   result: ConditionResult;
   problems: OperatingPointProblem[];
 }
+
+export { scaledDevice } from './stage-solve';
 
 /** Small-signal transfers of a solved stage at a frequency (Hz). */
 export type { StageTransfers } from './small-signal';
@@ -405,50 +414,15 @@ function inputWarnings(earlyVoltageV: number): InputWarning[] {
   return Number.isFinite(earlyVoltageV) ? [] : ['no-early-voltage'];
 }
 
-/** The least current a starting-guess VBE is taken at, A. */
-const GUESS_LEAST_CURRENT_A = 1e-9;
-
-/** Starting-guess VBE: the device's VBE at a rough tail-current estimate (rails over the largest resistor). */
-function vbeGuessV(design: Design, model: DeviceModel): number {
-  const tail = design.tail;
-  const tailOhm = tail.topology === 'resistor' ? tail.resistanceOhm : tail.referenceResistanceOhm;
-  const currentA = Math.max((design.supply.positiveV - design.supply.negativeV) / (2 * tailOhm), GUESS_LEAST_CURRENT_A);
-  return model.thermalVoltageV * Math.log(currentA / model.saturationCurrentA);
-}
-
-/** The device of a transistor whose BF or VAF is scaled (a mismatched pair transistor): BF and VAF times their scales. */
-export function scaledDevice(device: Design['device'], betaScale = 1, earlyVoltageScale = 1): Design['device'] {
-  if (device.model && hasModelCard(device)) {
-    // A card: its BF and VAF scaled (VAF infinite stays infinite), every other parameter kept
-    const { BF, VAF } = resolvedParameters(device.model);
-    const model = { ...device.model, BF: BF * betaScale };
-    if (Number.isFinite(VAF)) model.VAF = VAF * earlyVoltageScale;
-    return { ...device, model, beta: undefined, earlyVoltageV: undefined };
-  }
-  const scaled = { ...device, beta: forwardBeta(device) * betaScale };
-  // VAF = 0 reads as infinite (no Early effect): a mismatch of it changes nothing
-  if (device.earlyVoltageV !== undefined && device.earlyVoltageV > 0) scaled.earlyVoltageV = device.earlyVoltageV * earlyVoltageScale;
-  return scaled;
-}
-
-/** Models of the transistors whose BF or VAF differ from the stage's device, by name. */
-function ownTransistorModels(circuit: StageCircuit, device: Design['device'], temperatureC: number): Record<string, DeviceModel> {
-  const models: Record<string, DeviceModel> = {};
-  for (const el of circuit.elements) {
-    if (el.kind === 'npn' && (el.betaScale !== undefined || el.earlyVoltageScale !== undefined)) {
-      models[el.name] = deviceModel(scaledDevice(device, el.betaScale, el.earlyVoltageScale), temperatureC);
-    }
-  }
-  return models;
-}
-
 /**
  * Solves a design and keeps the internals that sweeps and sensitivities reuse. `warmStart`: a
  * solved stage of the same topology whose operating point seeds the Newton iteration.
  */
 export function solveStage(design: Design, warmStart?: SolvedCircuit): StageSolution {
   const solved = solveCircuit(design, warmStart);
-  return { ...solved, ...stageFigures(solved, true) };
+  const { result, problems } = conditionFigures(solved);
+  const [differentialBandwidthHz, cmrrCornerHz] = cornersHz(solved.stage, [DIFFERENTIAL_GAIN, SINGLE_ENDED_CMRR]);
+  return { ...solved, result: { ...result, cmrrCornerHz, differentialBandwidthHz, ...transferFigures(solved) }, problems };
 }
 
 /**
@@ -457,7 +431,7 @@ export function solveStage(design: Design, warmStart?: SolvedCircuit): StageSolu
  */
 export function solveCondition(design: Design, warmStart?: SolvedCircuit): ConditionSolution {
   const solved = solveCircuit(design, warmStart);
-  return { ...solved, ...stageFigures(solved, false) };
+  return { ...solved, ...conditionFigures(solved) };
 }
 
 /**
@@ -465,27 +439,72 @@ export function solveCondition(design: Design, warmStart?: SolvedCircuit): Condi
  * where only transfers are read. `warmStart` as in solveStage.
  */
 export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedCircuit {
-  const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
-  const model = deviceModel(design.device, temperatureC);
-  const vbeAtV = (currentA: number) => model.thermalVoltageV * Math.log(Math.max(currentA, GUESS_LEAST_CURRENT_A) / model.saturationCurrentA);
-  const circuit = stageCircuit(design, vbeGuessV(design, model), vbeAtV, model.thermalVoltageV);
-  let op: OperatingPoint;
-  try {
-    op = solveOperatingPoint(circuit, model, warmStart?.op, ownTransistorModels(circuit, design.device, temperatureC));
-  } catch (error) {
-    throw error instanceof ConvergenceError ? withHardFields(error, design) : error;
-  }
-  return { design, model, op, stage: smallSignalStage(op, circuit.driveNodes, model.parameters, temperatureC) };
+  const { model, op, driveNodes } = solveStageOperatingPoint(design, warmStart?.op);
+  return { design, model, op, stage: smallSignalStage(op, driveNodes, model.parameters, design.temperatureC ?? NOMINAL_TEMPERATURE_C) };
 }
 
-/** The corners of a solve without the searches (ConditionResult has no such fields: nothing reads them). */
-const NOT_SEARCHED: readonly (number | null)[] = [null, null];
+/** dB of a gain's magnitude over another's; null where the second is zero. */
+function rejectionDb(gain: number, leak: number): number | null {
+  return leak === 0 ? null : 20 * Math.log10(Math.abs(gain / leak));
+}
 
 /**
- * The contract's figures of a solved circuit, and its operating-point problems as figures;
- * without `searchCorners` the two corner fields are left null (ConditionResult).
+ * Supply rejection from each rail at low frequency (ENGINE-CONTRACT.md `psrrDb`): the
+ * differential (single-ended) gain over the gain from the rail's small-signal voltage to
+ * v(c1,c2) (v(c1)); a matched pair moves both collectors alike, so its differential figure is null.
  */
-function stageFigures({ design, model, op, stage }: SolvedCircuit, searchCorners: boolean): { result: AnalyzeResult; problems: OperatingPointProblem[] } {
+function supplyRejectionDb(stage: SmallSignalStage, matched: boolean): AnalyzeResult['psrrDb'] {
+  const { collector1, betweenCollectors } = stage.outputs;
+  const rail = (response: number[]): RailRejection => ({
+    singleEnded: rejectionDb(stage.low.singleEndedGain.re, readOutput(response, collector1)) ?? Number.POSITIVE_INFINITY,
+    differential: matched ? null : rejectionDb(stage.low.differentialGain.re, readOutput(response, betweenCollectors)),
+  });
+  return { positive: rail(stage.supply.positive), negative: rail(stage.supply.negative) };
+}
+
+/**
+ * Small-signal differential input resistance (ENGINE-CONTRACT.md `inputResistanceOhm`): under
+ * the differential drive (+½ on drive1, −½ on drive2), v(in1) − v(in2) over the current drive1
+ * sends into the circuit; with source resistors that current flows through RS1 into in1, and
+ * v(in1) − v(in2) is read behind them, so they stay outside the figure.
+ */
+function inputResistanceOhm(op: OperatingPoint, stage: SmallSignalStage): number {
+  const ic = op.circuit;
+  const [drive1, drive2] = stage.driveNodes.map((name) => ic.nodeRef(name));
+  const x = stage.differential;
+  const fixed = (ref: number) => (ref === drive1 ? 0.5 : ref === drive2 ? -0.5 : 0);
+  const [in1, in2] = INPUT_NODES.map((name) => ic.nodeRef(name)).map((ref) => (ref >= 0 ? x[ref] : fixed(ref)));
+  return Math.abs((in1 - in2) / smallSignalCurrentIntoA(op, drive1, x, fixed));
+}
+
+/** The figures that take further operating points: the offset, its current and drift, and the linear range. */
+function transferFigures({ design, model, op, stage }: SolvedCircuit): Pick<AnalyzeResult, 'inputOffsetCurrentA' | 'inputOffsetVoltageV' | 'offsetDriftVPerC' | 'linearInputRangeV'> {
+  const base: SolvedOperatingPoint = { model, op, driveNodes: stage.driveNodes };
+  const gain = stage.low.differentialGain.re;
+  const offset = inputOffset(design, base, gain);
+  const [in1A, in2A] = driveCurrentsA(offset.at);
+  let symmetric = base;
+  let symmetricGain = gain;
+  const plain = withoutMismatch(design);
+  if (!pairIsMatched(design)) {
+    symmetric = solveStageOperatingPoint(plain, op);
+    symmetricGain = smallSignalStage(symmetric.op, symmetric.driveNodes).low.differentialGain.re;
+  }
+  return {
+    inputOffsetVoltageV: offset.offsetV,
+    // a matched pair's two input currents are equal by symmetry: rounding decides nothing
+    inputOffsetCurrentA: pairIsMatched(design) ? 0 : in1A - in2A,
+    offsetDriftVPerC: offsetDriftVPerC(design, offset, gain),
+    linearInputRangeV: linearInputRangeV(plain, symmetric, symmetricGain),
+  };
+}
+
+/**
+ * The figures of a solved circuit that need nothing but its solve (ConditionResult: every
+ * figure but a full solve's own, FullSolveField), and its operating-point problems as figures.
+ */
+function conditionFigures(solved: SolvedCircuit): { result: ConditionResult; problems: OperatingPointProblem[] } {
+  const { design, model, op, stage } = solved;
   const ic = op.circuit;
   const v = op.voltagesV;
   const transistors = transistorOperatingPoints(ic, op, model.thermalVoltageV);
@@ -498,13 +517,13 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit, searchCorners
   const positiveA = currentIntoElementsA(op, RAIL_NODES.positive, false);
   const negativeA = currentIntoElementsA(op, RAIL_NODES.negative, false);
   const low = stage.low;
-  const [differentialBandwidthHz, cornerHz] = searchCorners ? cornersHz(stage, [DIFFERENTIAL_GAIN, SINGLE_ENDED_CMRR]) : NOT_SEARCHED;
   const cmrrSingleDb = 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re));
   const matched = pairIsMatched(design);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);
   const problems = operatingPointProblems(transistors, referenceCurrentA, design.tail.topology !== 'resistor');
   const problemTexts = problems.map(operatingPointProblemText);
-  const result: AnalyzeResult = {
+  const inputCurrentsA = driveCurrentsA({ model, op, driveNodes: stage.driveNodes });
+  const result: ConditionResult = {
     tailCurrentA: currentIntoElementsA(op, TAIL_NODE, true),
     collectorCurrentA: q1.collectorCurrentA,
     collectorVoltageV: nodeVoltage(ic, v, ic.nodeRef(COLLECTOR_NODES[0])),
@@ -519,9 +538,10 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit, searchCorners
       singleEnded: cmrrSingleDb,
       differential: matched ? null : 20 * Math.log10(Math.abs(low.differentialGain.re / low.differentialCommonModeGain.re)),
     },
-    cmrrCornerHz: cornerHz,
-    differentialBandwidthHz,
     ac: acEntries(stage, design.frequenciesHz ?? [], matched),
+    inputBiasCurrentA: (inputCurrentsA[0] + inputCurrentsA[1]) / 2,
+    psrrDb: supplyRejectionDb(stage, matched),
+    inputResistanceOhm: inputResistanceOhm(op, stage),
     // Power delivered by the rails: Σ V·I, I the current each rail sends into the circuit.
     powerW: design.supply.positiveV * positiveA + design.supply.negativeV * negativeA,
     warnings: [...problemTexts, ...inputWarnings(model.earlyVoltageV).map(inputWarningText)],

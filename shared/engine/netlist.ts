@@ -8,7 +8,7 @@
 import type { Design } from './types';
 import { GROUND, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
 import type { CircuitElement, TransistorElement } from './circuit';
-import { scaledDevice } from './analyze';
+import { scaledDevice } from './stage-solve';
 import { BJT_PARAMETER_NAMES, hasModelCard } from './bjt-parameters';
 import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';

@@ -10,7 +10,7 @@
  * (frequency-response.ts). At f = 0, or when nothing stores charge, the real low-frequency
  * responses are the answer.
  */
-import { COLLECTOR_NODES, TAIL_NODE } from './circuit';
+import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE } from './circuit';
 import { readOutput, reducedFrequencyModel, transfersAtOmega, type FrequencyModel, type OutputWeights } from './frequency-response';
 import { chargeParameters, transistorCapacitances } from './junction-charges';
 import type { BjtParameters } from './bjt-parameters';
@@ -56,6 +56,10 @@ export interface SmallSignalStage {
   outputs: { collector1: OutputWeights; betweenCollectors: OutputWeights };
   /** The transfers at f = 0 (real). */
   low: StageTransfers;
+  /** Node responses to 1 V on each rail (the other rail and the drives held), at low frequency: supply rejection. */
+  supply: { positive: number[]; negative: number[] };
+  /** The two drive nodes (fixed nodes), where the differential drive puts +½ and −½. */
+  driveNodes: readonly [string, string];
   /**
    * The reduced model the transfers at any frequency come from (drives: differential, common
    * mode; outputs: c1, c1 − c2); null when nothing in the circuit stores charge.
@@ -189,6 +193,8 @@ export function smallSignalStage(
   const outputs = { collector1: { nodes: [c1], weights: [1] }, betweenCollectors: { nodes: [c1, c2], weights: [1, -1] } };
   const differential = driveResponse(gDrive, factors, 0.5, -0.5);
   const commonMode = driveResponse(gDrive, factors, 1, 1);
+  const railColumns = driveColumns(ic, stamper, [RAIL_NODES.positive, RAIL_NODES.negative]);
+  const supply = { positive: driveResponse(railColumns, factors, 1, 0), negative: driveResponse(railColumns, factors, 0, 1) };
   let frequency: FrequencyModel | null = null;
   if (cStamp) {
     const cDrive = driveColumns(ic, cStamp, driveNodes);
@@ -211,9 +217,41 @@ export function smallSignalStage(
       commonModeGain: { re: readOutput(commonMode, outputs.collector1), im: 0 },
       differentialCommonModeGain: { re: readOutput(commonMode, outputs.betweenCollectors), im: 0 },
     },
+    supply,
+    driveNodes,
     frequency,
     solvedAt: new Map(),
   };
+}
+
+/**
+ * The small-signal current (A) flowing from node `node` into the circuit's elements, for a
+ * response `x` of the free nodes and the fixed nodes' own small-signal values `fixed(ref)` (the
+ * drives, 0 for a held node): every resistor's g·Δv and every transistor's linearised terminal
+ * currents, ic = ∂IC/∂VBE·vbe + ∂IC/∂VBC·vbc and ib likewise at its internal nodes, at low
+ * frequency. The same bookkeeping as the DC currents (KCL), on the Jacobian's terms.
+ */
+export function smallSignalCurrentIntoA(op: OperatingPoint, node: number, x: readonly number[], fixed: (ref: number) => number): number {
+  const ic = op.circuit;
+  const at = (ref: number) => (ref >= 0 ? x[ref] : fixed(ref));
+  let totalA = 0;
+  for (const r of ic.resistors) {
+    const ia = (at(r.a) - at(r.b)) * r.conductanceS;
+    if (r.a === node) totalA += ia;
+    if (r.b === node) totalA -= ia;
+  }
+  ic.transistors.forEach((q, k) => {
+    if (q.ci !== node && q.bi !== node && q.ei !== node) return;
+    const ev = op.transistors[k];
+    const vbe = at(q.bi) - at(q.ei);
+    const vbc = at(q.bi) - at(q.ci);
+    const icA = ev.dIcDVbeS * vbe + ev.dIcDVbcS * vbc;
+    const ibA = ev.dIbDVbeS * vbe + ev.dIbDVbcS * vbc;
+    if (q.ci === node) totalA += icA;
+    if (q.bi === node) totalA += ibA;
+    if (q.ei === node) totalA -= icA + ibA;
+  });
+  return totalA;
 }
 
 /** Resolves named output weights to node indexes once. */

@@ -50,6 +50,12 @@ export interface AcEntry {
   inputNoiseVPerRtHz: number | null;
 }
 
+/** Supply rejection from one rail, dB: single-ended (to c1) and differential (to c1 − c2, null where that gain is zero). */
+export interface RailRejection {
+  singleEnded: number;
+  differential: number | null;
+}
+
 export interface AnalyzeResult {
   tailCurrentA: number;
   collectorCurrentA: number;
@@ -68,6 +74,24 @@ export interface AnalyzeResult {
   differentialBandwidthHz: number | null;
   /** One entry per `frequenciesHz` of the design. */
   ac: AcEntry[];
+  /** Mean of the DC currents the drive sends into in1 and in2, A. */
+  inputBiasCurrentA: number;
+  /** DC current into in1 minus into in2 with the input offset voltage applied, A. */
+  inputOffsetCurrentA: number;
+  /** The differential DC input (v(in1) − v(in2), at the drive) that makes v(c1) = v(c2), V. */
+  inputOffsetVoltageV: number;
+  /** (offset at T + 1 °C − offset at T − 1 °C)/2, V/°C. */
+  offsetDriftVPerC: number;
+  /**
+   * On the design without its mismatches: the largest differential DC amplitude at which
+   * v(c1,c2) stays within 1 % of differentialGain × input, V; null when it stays within 1 % up
+   * to twice the rails' span.
+   */
+  linearInputRangeV: number | null;
+  /** Supply rejection from each rail at low frequency, dB: |gain| over the gain from the rail to v(c1) (single-ended) or v(c1,c2) (differential); null where that gain is zero. */
+  psrrDb: { positive: RailRejection; negative: RailRejection };
+  /** Small-signal differential input resistance seen by the drive at low frequency (source resistors excluded), ohms. */
+  inputResistanceOhm: number;
   powerW: number;
   warnings: string[];
   /** Added: the textbook limit of the tail's output resistance and its formula. */
