@@ -33,6 +33,7 @@ export const DEBIAN_NGSPICE_REFERENCE_FILES = [
   'tests/reference/smallest-resistances.test.ts',
   'tests/reference/rejection-limits-agreement.test.ts',
   'tests/reference/netlist-runs.test.ts',
+  'tests/reference/input-figures-agreement.test.ts',
 ] as const;
 
 /** Whether Debian's ngspice is installed (an executable at `path`). */

@@ -116,11 +116,16 @@ describe('the ac entries [contract]', () => {
 });
 
 describe('a condition\'s solve', () => {
-  test('leaves the two searched corners unsearched (null) where the full solve finds them', () => {
-    const design = designWith('cascode', { tailCapacitanceF: 10e-12 });
-    expect(analyze(design).cmrrCornerHz).not.toBeNull();
+  test("leaves a full solve's own figures out (the two searched corners, the offset, its current and drift, the linear range) where the full solve finds them", () => {
+    const design = designWith('cascode', { tailCapacitanceF: 10e-12, loadCapacitanceF: 5e-12, collectorMismatch: 0.02 });
+    const full = analyze(design) as unknown as Record<string, unknown>;
     const condition = solveCondition(design).result as Record<string, unknown>;
-    expect(condition.cmrrCornerHz).toBeNull();
-    expect(condition.differentialBandwidthHz).toBeNull();
+    for (const field of ['cmrrCornerHz', 'differentialBandwidthHz', 'inputOffsetVoltageV', 'inputOffsetCurrentA', 'offsetDriftVPerC', 'linearInputRangeV']) {
+      expect(full[field], field).not.toBeNull();
+      expect(field in condition, field).toBe(false);
+    }
+    // the cheap ones are in both, equal
+    expect(condition.inputBiasCurrentA).toBe(full.inputBiasCurrentA);
+    expect(condition.psrrDb).toEqual(full.psrrDb);
   });
 });
