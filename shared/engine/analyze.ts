@@ -494,7 +494,7 @@ function transferFigures({ design, model, op, stage }: SolvedCircuit): Pick<Anal
     inputOffsetVoltageV: offset.offsetV,
     // a matched pair's two input currents are equal by symmetry: rounding decides nothing
     inputOffsetCurrentA: pairIsMatched(design) ? 0 : in1A - in2A,
-    offsetDriftVPerC: offsetDriftVPerC(design, offset, gain),
+    offsetDriftVPerC: offsetDriftVPerC(design, offset),
     linearInputRangeV: linearInputRangeV(plain, symmetric, symmetricGain),
   };
 }

@@ -49,10 +49,11 @@ const OFFSET_STEP_V = 1e-11;
 /** Secant steps at most; the transfer is smooth near its zero, three or four do. */
 const OFFSET_MAX_STEPS = 30;
 
-/** The input offset: the differential input, and the operating point solved there. */
+/** The input offset: the differential input, the operating point solved there, and the transfer's slope there (∂v(c1,c2)/∂vid). */
 export interface OffsetSolution {
   offsetV: number;
   at: SolvedOperatingPoint;
+  slope: number;
 }
 
 /**
@@ -62,7 +63,7 @@ export interface OffsetSolution {
  * same circuit has no offset: 0 exactly.
  */
 export function inputOffset(design: Design, base: SolvedOperatingPoint, gain: number): OffsetSolution {
-  return pairIsMatched(design) ? { offsetV: 0, at: base } : offsetFrom(design, base, 0, gain);
+  return pairIsMatched(design) ? { offsetV: 0, at: base, slope: gain } : offsetFrom(design, base, 0, gain);
 }
 
 /** The offset by secant steps from an operating point `start` solved at the input `fromV`. */
@@ -77,7 +78,7 @@ function offsetFrom(design: Design, start: SolvedOperatingPoint, fromV: number, 
     // a secant through the last two solves (their slope is the transfer's there); the gain when they coincide
     const slope = f1 !== f0 && x1 !== x0 ? (f1 - f0) / (x1 - x0) : gain;
     const next = x1 - f1 / slope;
-    if (f1 === 0 || Math.abs(next - x1) < OFFSET_STEP_V) return { offsetV: x1, at };
+    if (f1 === 0 || Math.abs(next - x1) < OFFSET_STEP_V) return { offsetV: x1, at, slope };
     x0 = x1;
     f0 = f1;
     x1 = next;
@@ -86,17 +87,16 @@ function offsetFrom(design: Design, start: SolvedOperatingPoint, fromV: number, 
 }
 
 /**
- * The contract's drift: (offset at T + 1 °C − offset at T − 1 °C)/2, V/°C; each search starts
- * from the offset at T. 0 for a matched pair.
+ * The contract's drift, (offset at T + 1 °C − offset at T − 1 °C)/2 in V/°C, from the output at
+ * the offset input: at T ± 1 °C the output there is v±, and each offset lies v±/slope from it
+ * (one Newton step on a transfer that is straight to a few parts per million over the
+ * microvolts the offset moves), so the drift is −(v+ − v−)/(2·slope). 0 for a matched pair.
  */
-export function offsetDriftVPerC(design: Design, offset: OffsetSolution, gain: number): number {
+export function offsetDriftVPerC(design: Design, offset: OffsetSolution): number {
   if (pairIsMatched(design)) return 0;
   const temperatureC = design.temperatureC ?? 27;
-  const at = (deltaC: number): number => {
-    const shifted = { ...design, temperatureC: temperatureC + deltaC };
-    return offsetFrom(shifted, solveStageOperatingPoint(shifted, offset.at.op, offset.offsetV), offset.offsetV, gain).offsetV;
-  };
-  return (at(1) - at(-1)) / 2;
+  const outputAt = (deltaC: number): number => outputDifferenceV(solveStageOperatingPoint({ ...design, temperatureC: temperatureC + deltaC }, offset.at.op, offset.offsetV).op);
+  return -(outputAt(1) - outputAt(-1)) / (2 * offset.slope);
 }
 
 /** The design with its pair mismatches set to zero: the contract's linear-range circuit. */
@@ -107,7 +107,7 @@ export function withoutMismatch(design: Design): Design {
 /** How far v(c1,c2) may depart from differentialGain × input inside the linear range (1 %). */
 export const LINEAR_RANGE_ERROR = 0.01;
 /** Relative accuracy of the linear range: far inside the contract's 5 %. */
-const LINEAR_RANGE_TOLERANCE = 1e-4;
+const LINEAR_RANGE_TOLERANCE = 1e-3;
 /** Bisection and interpolation steps at most. */
 const LINEAR_RANGE_MAX_STEPS = 60;
 
