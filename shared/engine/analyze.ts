@@ -13,6 +13,7 @@ import { withHardFields } from './convergence-hints';
 import { TRANSFER_PARTS, magnitude, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
 import { transferMoveBound, transfersAtOmega, type ComplexPair, type FrequencyModel } from './frequency-response';
 import { hasModelCard, resolvedParameters } from './bjt-parameters';
+import { inputNoiseVPerRtHz, stageNoise } from './noise';
 import type { AcEntry, AnalyzeResult, Design, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
 
@@ -356,8 +357,13 @@ function refineCrossing(f: (x: number) => number, a: number, fa: number, b: numb
   return b;
 }
 
-/** The `ac` entries at the requested frequencies; `matched`: the pair is matched (pairIsMatched). */
-function acEntries(stage: SmallSignalStage, frequenciesHz: readonly number[], matched: boolean): AcEntry[] {
+/**
+ * The `ac` entries at the design's frequencies, each with its input-referred noise (noise.ts);
+ * `matched`: the pair is matched (pairIsMatched).
+ */
+function acEntries({ design, model, op, stage }: SolvedCircuit, matched: boolean): AcEntry[] {
+  const frequenciesHz = design.frequenciesHz ?? [];
+  const noise = frequenciesHz.length > 0 ? stageNoise(op, model, design.temperatureC ?? NOMINAL_TEMPERATURE_C) : null;
   return frequenciesHz.map((frequencyHz) => {
     const t = transfersAt({ stage }, frequencyHz);
     const differentialGain = magnitude(t.differentialGain);
@@ -374,7 +380,7 @@ function acEntries(stage: SmallSignalStage, frequenciesHz: readonly number[], ma
         singleEnded: 20 * Math.log10(singleEndedGain / commonModeGain),
         differential: matched ? null : 20 * Math.log10(differentialGain / differentialCommonModeGain),
       },
-      inputNoiseVPerRtHz: null,
+      inputNoiseVPerRtHz: inputNoiseVPerRtHz(noise!, stage, frequencyHz),
     };
   });
 }
@@ -521,7 +527,7 @@ function stageFigures({ design, model, op, stage }: SolvedCircuit, searchCorners
     },
     cmrrCornerHz: cornerHz,
     differentialBandwidthHz,
-    ac: acEntries(stage, design.frequenciesHz ?? [], matched),
+    ac: acEntries({ design, model, op, stage }, matched),
     // Power delivered by the rails: Σ V·I, I the current each rail sends into the circuit.
     powerW: design.supply.positiveV * positiveA + design.supply.negativeV * negativeA,
     warnings: [...problemTexts, ...inputWarnings(model.earlyVoltageV).map(inputWarningText)],
