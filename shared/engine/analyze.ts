@@ -13,6 +13,7 @@ import type { OperatingPoint } from './operating-point';
 import { solveStageOperatingPoint, type SolvedOperatingPoint } from './stage-solve';
 import { TRANSFER_PARTS, magnitude, smallSignalCurrentIntoA, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
 import { readOutput, transferMoveBound, transfersAtOmega, type ComplexPair, type FrequencyModel } from './frequency-response';
+import { inputNoiseVPerRtHz, stageNoise } from './noise';
 import type { AcEntry, AnalyzeResult, Design, RailRejection, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
 
@@ -365,8 +366,13 @@ function refineCrossing(f: (x: number) => number, a: number, fa: number, b: numb
   return b;
 }
 
-/** The `ac` entries at the requested frequencies; `matched`: the pair is matched (pairIsMatched). */
-function acEntries(stage: SmallSignalStage, frequenciesHz: readonly number[], matched: boolean): AcEntry[] {
+/**
+ * The `ac` entries at the design's frequencies, each with its input-referred noise (noise.ts);
+ * `matched`: the pair is matched (pairIsMatched).
+ */
+function acEntries({ design, model, op, stage }: SolvedCircuit, matched: boolean): AcEntry[] {
+  const frequenciesHz = design.frequenciesHz ?? [];
+  const noise = frequenciesHz.length > 0 ? stageNoise(op, model, design.temperatureC ?? NOMINAL_TEMPERATURE_C) : null;
   return frequenciesHz.map((frequencyHz) => {
     const t = transfersAt({ stage }, frequencyHz);
     const differentialGain = magnitude(t.differentialGain);
@@ -383,7 +389,7 @@ function acEntries(stage: SmallSignalStage, frequenciesHz: readonly number[], ma
         singleEnded: 20 * Math.log10(singleEndedGain / commonModeGain),
         differential: matched ? null : 20 * Math.log10(differentialGain / differentialCommonModeGain),
       },
-      inputNoiseVPerRtHz: null,
+      inputNoiseVPerRtHz: inputNoiseVPerRtHz(noise!, stage, frequencyHz),
     };
   });
 }
@@ -538,7 +544,7 @@ function conditionFigures(solved: SolvedCircuit): { result: ConditionResult; pro
       singleEnded: cmrrSingleDb,
       differential: matched ? null : 20 * Math.log10(Math.abs(low.differentialGain.re / low.differentialCommonModeGain.re)),
     },
-    ac: acEntries(stage, design.frequenciesHz ?? [], matched),
+    ac: acEntries({ design, model, op, stage }, matched),
     inputBiasCurrentA: (inputCurrentsA[0] + inputCurrentsA[1]) / 2,
     psrrDb: supplyRejectionDb(stage, matched),
     inputResistanceOhm: inputResistanceOhm(op, stage),

@@ -17,6 +17,11 @@ export interface IndexedResistor {
   b: NodeRef;
   conductanceS: number;
   tail: boolean;
+  /**
+   * Set on the GMIN from an internal collector to the substrate: part of ngspice's junction
+   * model, not a resistor, so it carries no thermal noise [SPICE] ngspice bjtnoise.c.
+   */
+  noiseless?: true;
 }
 
 export interface IndexedTransistor {
@@ -92,7 +97,7 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
       const bi = internalNode(table, resistors, el, b, 'b', ohmic.baseOhm);
       const ei = internalNode(table, resistors, el, e, 'e', ohmic.emitterOhm);
       const s = refOf(table, el.substrate);
-      resistors.push({ name: `${el.name}.GSUB`, a: ci, b: s, conductanceS: GMIN_S, tail });
+      resistors.push({ name: `${el.name}.GSUB`, a: ci, b: s, conductanceS: GMIN_S, tail, noiseless: true });
       const own = ownModels[el.name];
       transistors.push({ name: el.name, c, b, e, ci, bi, ei, s, area: el.area, tail, ...(own ? { model: own } : {}) });
     } else {

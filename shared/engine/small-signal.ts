@@ -87,7 +87,8 @@ const DRIVES: readonly (readonly [number, number])[] = [
   [1, 1],
 ];
 
-function stampJacobian(op: OperatingPoint, onlyTail: boolean): NodeStamp {
+/** The conductance matrix G of the stage at its operating point (the Jacobian of its node equations); `onlyTail`: the tail's elements alone. */
+export function stampJacobian(op: OperatingPoint, onlyTail: boolean): NodeStamp {
   const ic = op.circuit;
   const stamp = createStamp(ic);
   for (const r of ic.resistors) if (!onlyTail || r.tail) stampConductance(stamp, r.a, r.b, r.conductanceS);
@@ -138,7 +139,7 @@ function tailOutputResistanceOhm(op: OperatingPoint, tailIndex: number): number 
  * forward charge's vbc dependence as a transcapacitance from base to emitter, CCS from the
  * internal collector to the substrate), and the circuit's capacitors. Null when all are zero.
  */
-function capacitanceStamp(op: OperatingPoint, parameters: BjtParameters | null, temperatureC: number): NodeStamp | null {
+export function capacitanceStamp(op: OperatingPoint, parameters: BjtParameters | null, temperatureC: number): NodeStamp | null {
   const ic = op.circuit;
   const stamp = createStamp(ic);
   let any = false;

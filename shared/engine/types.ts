@@ -46,7 +46,11 @@ export interface AcEntry {
   commonModeGain: number;
   differentialCommonModeGain: number;
   cmrrDb: { singleEnded: number; differential: number | null };
-  /** Input-referred noise density, V/√Hz; null until the noise analysis is part of the engine. */
+  /**
+   * Input-referred noise density, V/√Hz: the output noise density at v(c1) − v(c2) over
+   * |differentialGain|² at this frequency, square-rooted, as ngspice's `.noise v(c1,c2)` on the
+   * differential drive (shared/engine/noise.ts); null only where that gain is zero.
+   */
   inputNoiseVPerRtHz: number | null;
 }
 

@@ -20,8 +20,10 @@ export const DEBIAN_NGSPICE_PROJECT = 'reference-debian-ngspice';
  * (every topology, −40, 27 and 125 °C) and with saturated tails; and the three-parameter
  * reference files (every topology over corners, gm and saturation, the smallest resistances); what
  * limits the rejection, each part removed or changed in the netlist; every topology's netlists
- * run against hand formulas. Every file of tests/reference
- * is listed today (tests/unit/helpers/debian-ngspice-files.test.ts holds it so).
+ * run against hand formulas; the input-referred noise against `.noise` (Debian's batch mode
+ * writes the noise density plot first in its raw file, which the reader takes) and a handbook
+ * formula. Every file of tests/reference is listed today
+ * (tests/unit/helpers/debian-ngspice-files.test.ts holds it so).
  */
 export const DEBIAN_NGSPICE_REFERENCE_FILES = [
   'tests/reference/spice-runner.test.ts',
@@ -34,6 +36,7 @@ export const DEBIAN_NGSPICE_REFERENCE_FILES = [
   'tests/reference/rejection-limits-agreement.test.ts',
   'tests/reference/netlist-runs.test.ts',
   'tests/reference/input-figures-agreement.test.ts',
+  'tests/reference/noise-agreement.test.ts',
 ] as const;
 
 /** Whether Debian's ngspice is installed (an executable at `path`). */
