@@ -241,6 +241,11 @@ function cornersHz(stage: SmallSignalStage, figures: readonly CornerFigure[]): (
   });
 }
 
+/** The lowest frequency where |differentialGain| is 3 dB below its low-frequency value (the contract's `differentialBandwidthHz`); null above 10 GHz or when nothing stores charge. */
+export function differentialBandwidthHzOf(stage: SmallSignalStage): number | null {
+  return cornersHz(stage, [DIFFERENTIAL_GAIN])[0];
+}
+
 /** |z|². */
 const powerOf = (z: ComplexPair): number => z.re * z.re + z.im * z.im;
 

@@ -27,7 +27,8 @@ const COUNT = MISMATCH_KINDS.length;
  * Steps the model is fitted at: about the 1σ–3σ mismatch of 1 % parts, a 0.5 mV VBE spread, and a
  * few per cent of BF and VAF.
  */
-const STEPS: readonly number[] = [0.01, 0.02, 0.05, 0.05];
+export const MISMATCH_STEPS: readonly number[] = [0.01, 0.02, 0.05, 0.05];
+const STEPS = MISMATCH_STEPS;
 /** Index pairs of the cross terms, in the order of `MismatchSensitivity.cross`. */
 const PAIRS: readonly (readonly [number, number])[] = [
   [0, 1],

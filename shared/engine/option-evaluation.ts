@@ -31,6 +31,7 @@ import {
 import { designAt, outputGain, swingPeakPerCollectorV } from './sizing';
 import { swingCompression } from './large-signal';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
+import { driftSensitivitiesVPerC, offsetStatistics, tradeoffAtCondition, tradeoffFacts, tradeoffTargets, type OffsetFigures, type TradeoffAtCondition } from './tradeoff-figures';
 
 /** Usual safe-to-touch limit for DC rails [IEC62368]. */
 export const HAZARDOUS_VOLTAGE_LIMIT_V = 60;
@@ -226,6 +227,21 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     return { figures, solution, screening, problems: solution.problems, commonModeGain, commonModeRejectionDb };
   });
   const cornerFigures = corners.map((c) => c.figures);
+
+  // The spec's trade-off targets at every corner (only those it sets are computed)
+  const targets = tradeoffTargets(spec);
+  const anyTarget = Object.values(targets).some(Boolean);
+  const shared = draws ?? (anyTarget || differentialOutput ? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed) : null);
+  const tradeoffs: TradeoffAtCondition[] = anyTarget ? corners.map((c) => tradeoffAtCondition(spec, c.figures.label, c.solution, c.screening, sigmas)) : [];
+  let offsetFigures: OffsetFigures | null = null;
+  if (targets.offset || targets.drift) {
+    const sigmaCount = spec.offset?.sigmas ?? 3;
+    const stats = tradeoffs.map((t, i) => ({ i, stats: offsetStatistics(t.offsetPerMismatchV!, shared!, sigmas, corners[i].solution.model.thermalVoltageV, sigmaCount) }));
+    const governing = stats.reduce((a, b) => (b.stats.atSigmas > a.stats.atSigmas ? b : a));
+    const solution = corners[governing.i].solution;
+    const drift = targets.drift ? offsetStatistics(driftSensitivitiesVPerC(solution), shared!, sigmas, solution.model.thermalVoltageV, sigmaCount) : null;
+    offsetFigures = { offset: governing.stats, drift, label: corners[governing.i].figures.label };
+  }
   const worstCommonMode = corners.reduce((a, b) => (b.commonModeRejectionDb < a.commonModeRejectionDb ? b : a));
   const worstSingle = cornerFigures.reduce((a, b) => (b.cmrrAtFrequencyDb < a.cmrrAtFrequencyDb ? b : a));
 
@@ -241,8 +257,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     worstDifferential = worstCaseMismatchCmrrDb(sensitivity, sigmas);
     shares = worstCaseMismatchShares(sensitivity, sigmas);
     worst.figures.cmrrDifferentialWorstCaseDb = worstDifferential;
-    const shared = draws ?? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed);
-    monteCarlo = monteCarloCmrr(sensitivity, shared, sigmas, spec.cmrr.minDb);
+    monteCarlo = monteCarloCmrr(sensitivity, shared!, sigmas, spec.cmrr.minDb);
     const matched = governingMismatch.matched;
     const mismatched = solveCircuit(mismatchedDesign(matched.design, alignedWorstCaseMismatches(sensitivity, sigmas)), matched);
     limits = limitsOf(mismatched, f, 'differential', worst.figures.label);
@@ -355,6 +370,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     tailOutputResistanceOhm: rout,
     tailOutputResistanceClosedFormOhm: predicted.tailOutputResistanceClosedForm.valueOhm,
     tailOutputResistanceFormula: predicted.tailOutputResistanceClosedForm.formula,
+    ...tradeoffFacts(spec, tradeoffs, offsetFigures),
   };
 
 

@@ -289,6 +289,62 @@ export interface OptionFacts {
   tailOutputResistanceFormula: string;
   /** One sentence: the solved Rout beside its textbook limit, e.g. "5.48 MΩ by node analysis (textbook β·ro/2 ≈ 5.29 MΩ)". */
   tailOutputResistanceNote: string;
+  /**
+   * The trade-off targets (shared/engine/tradeoff-figures.ts): for each, whether the spec sets it,
+   * the figure at the condition where it is worst, the target, the margin (positive: met) and
+   * that condition's label; null and '' where the target is left out.
+   */
+  noiseTargetSet: boolean;
+  /** Input-referred noise density at the spec's frequency, V/√Hz. */
+  noiseVPerRtHz: number | null;
+  noiseMaxVPerRtHz: number | null;
+  noiseFrequencyHz: number | null;
+  noiseMarginVPerRtHz: number | null;
+  noiseCorner: string;
+  inputBiasTargetSet: boolean;
+  /** Mean DC current into the inputs, A. */
+  inputBiasCurrentWorstA: number | null;
+  inputBiasCurrentMaxA: number | null;
+  inputBiasCurrentMarginA: number | null;
+  inputBiasCorner: string;
+  offsetTargetSet: boolean;
+  /** The statistical input offset: `offsetSigmas` × its standard deviation over the Monte Carlo draws, V. */
+  offsetAtSigmasV: number | null;
+  /** Every mismatch at `offsetSigmas` standard deviations, adding in magnitude, V. */
+  offsetWorstCaseV: number | null;
+  offsetMaxV: number | null;
+  offsetMarginV: number | null;
+  offsetSigmas: number | null;
+  offsetCorner: string;
+  driftTargetSet: boolean;
+  /** The offset's drift at `offsetSigmas` standard deviations, and its worst case, V/°C (at the offset's corner). */
+  offsetDriftAtSigmasVPerC: number | null;
+  offsetDriftWorstCaseVPerC: number | null;
+  offsetDriftMaxVPerC: number | null;
+  offsetDriftMarginVPerC: number | null;
+  bandwidthTargetSet: boolean;
+  /** Differential bandwidth into the spec's load capacitance, Hz (10 GHz when above it). */
+  bandwidthWorstHz: number | null;
+  bandwidthMinHz: number | null;
+  bandwidthMarginHz: number | null;
+  bandwidthCorner: string;
+  psrrPositiveTargetSet: boolean;
+  /** Supply rejection of the positive rail for the spec's output (a differential output: its mismatch worst case), dB. */
+  psrrPositiveDb: number | null;
+  psrrPositiveMinDb: number | null;
+  psrrPositiveMarginDb: number | null;
+  psrrPositiveCorner: string;
+  psrrNegativeTargetSet: boolean;
+  psrrNegativeDb: number | null;
+  psrrNegativeMinDb: number | null;
+  psrrNegativeMarginDb: number | null;
+  psrrNegativeCorner: string;
+  linearRangeTargetSet: boolean;
+  /** Linear input range (1 % from the gain line), V (twice the rails' span when beyond it). */
+  linearInputRangeWorstV: number | null;
+  linearInputRangeMinV: number | null;
+  linearInputRangeMarginV: number | null;
+  linearRangeCorner: string;
 }
 
 /** A rule set as the engine sees it: a version, its rules, and an evaluator (rules/ provides it). */
