@@ -15,7 +15,7 @@ import type { SolvedCircuit } from './analyze';
 import { COLLECTOR_NODES, DRIVE_NODES_BEHIND_SOURCE, INPUT_NODES, stageCircuit } from './circuit';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { nodeVoltage } from './node-system';
-import { solveOperatingPoint, type OperatingPoint } from './operating-point';
+import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { integrateTransient } from './transient';
 
 /** The drive's two states (differential, V) and its edge, s (the contract's). */
@@ -112,7 +112,16 @@ export function slewRun(solved: SolvedCircuit): SlewRun {
   return { slewRateVPerS: largestVPerS, settlingS: settledAtS ?? lastS, points };
 }
 
-/** The contract's `slewRateVPerS` of a solved stage, V/s (slewRun's figure). */
-export function slewRateVPerS(solved: SolvedCircuit): number {
-  return slewRun(solved).slewRateVPerS;
+/**
+ * The contract's `slewRateVPerS` of a solved stage, V/s (slewRun's figure); null when the two DC
+ * states or the transient between them do not converge (ConvergenceError), the contract's "no
+ * figure" rather than a failed analysis.
+ */
+export function solvedSlewRateVPerS(solved: SolvedCircuit): number | null {
+  try {
+    return slewRun(solved).slewRateVPerS;
+  } catch (error) {
+    if (error instanceof ConvergenceError) return null;
+    throw error;
+  }
 }
