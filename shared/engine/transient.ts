@@ -31,6 +31,9 @@ import type { BjtParameters } from './bjt-parameters';
 /** Newton at a time point: converged when no node moved more than this (absolute, V, plus relative) in an unlimited iteration. */
 const NEWTON_TOLERANCE_V = 1e-9;
 const NEWTON_RELATIVE_TOLERANCE = 1e-9;
+/** Only a step this small (V), a tenth or less of the one before, is taken as Newton's quadratic phase. */
+const QUADRATIC_STEP_V = 1e-6;
+const QUADRATIC_CONTRACTION = 0.1;
 /** Newton iterations at one time point before the step is redone shorter. */
 const NEWTON_MAX_ITERATIONS = 40;
 /** A step whose Newton solve failed is redone this many times shorter. */
@@ -209,9 +212,16 @@ function newtonAt(
   historyA: readonly number[],
 ): number[] | null {
   const n = stamp.n;
-  const vbeOld = ic.transistors.map((q) => junctionVoltages(ic, lastV as number[], q).vbeV);
-  const vbcOld = ic.transistors.map((q) => junctionVoltages(ic, lastV as number[], q).vbcV);
+  const vbeOld: number[] = [];
+  const vbcOld: number[] = [];
+  for (const q of ic.transistors) {
+    const { vbeV, vbcV } = junctionVoltages(ic, lastV as number[], q);
+    vbeOld.push(vbeV);
+    vbcOld.push(vbcV);
+  }
   let v = startV;
+  // the largest node step of the last iteration, V (NaN: none yet, or limited)
+  let lastStepV = NaN;
   for (let iter = 1; iter <= NEWTON_MAX_ITERATIONS; iter += 1) {
     stamp.matrix.fill(0);
     stamp.rhs.fill(0);
@@ -248,12 +258,20 @@ function newtonAt(
       return null;
     }
     let converged = !limited;
+    let stepV = 0;
     for (let k = 0; k < n; k += 1) {
       if (!Number.isFinite(next[k])) return null;
-      if (Math.abs(next[k] - v[k]) > NEWTON_TOLERANCE_V + NEWTON_RELATIVE_TOLERANCE * Math.abs(next[k])) converged = false;
+      const moved = Math.abs(next[k] - v[k]);
+      if (moved > NEWTON_TOLERANCE_V + NEWTON_RELATIVE_TOLERANCE * Math.abs(next[k])) converged = false;
+      if (moved > stepV) stepV = moved;
     }
     v = next;
     if (converged) return v;
+    // Quadratic convergence: the next step would be about stepV·(stepV/lastStepV)², as in the
+    // operating point's Newton (operating-point.ts); when that is under the tolerance the
+    // confirming iteration is saved
+    if (!limited && stepV <= QUADRATIC_STEP_V && stepV <= QUADRATIC_CONTRACTION * lastStepV && stepV * (stepV / lastStepV) ** 2 <= NEWTON_TOLERANCE_V) return v;
+    lastStepV = limited ? NaN : stepV;
   }
   return null;
 }
