@@ -12,10 +12,11 @@
  * what the circuit does instead.
  */
 import type { SolvedCircuit } from './analyze';
-import { COLLECTOR_NODES, DRIVE_NODES_BEHIND_SOURCE, INPUT_NODES, stageCircuit } from './circuit';
+import { COLLECTOR_NODES } from './circuit';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { nodeVoltage } from './node-system';
-import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
+import { ConvergenceError, type OperatingPoint } from './operating-point';
+import { solveStageOperatingPoint } from './stage-solve';
 import { integrateTransient } from './transient';
 
 /** The drive's two states (differential, V) and its edge, s (the contract's). */
@@ -52,16 +53,6 @@ export interface SlewRun {
   points: number;
 }
 
-/** The design's circuit with the differential drive at `driveV`, solved at DC (warm from the solved stage). */
-function operatingPointAt(solved: SolvedCircuit, driveV: number, warmStart: OperatingPoint): OperatingPoint {
-  const circuit = stageCircuit(solved.design);
-  const vicmV = solved.design.inputCommonModeV ?? 0;
-  circuit.fixedNodesV[circuit.driveNodes[0]] = vicmV + driveV / 2;
-  circuit.fixedNodesV[circuit.driveNodes[1]] = vicmV - driveV / 2;
-  const ownModels = Object.fromEntries(solved.op.circuit.transistors.filter((q) => q.model).map((q) => [q.name, q.model!]));
-  return solveOperatingPoint(circuit, solved.model, warmStart, ownModels);
-}
-
 /** v(c1) − v(c2) of a solution, V. */
 function outputOf(op: OperatingPoint, v: readonly number[]): number {
   const ic = op.circuit;
@@ -75,13 +66,14 @@ function outputOf(op: OperatingPoint, v: readonly number[]): number {
  * accepted points, as SPICE's measure takes it.
  */
 export function slewRun(solved: SolvedCircuit): SlewRun {
-  const start = operatingPointAt(solved, SLEW_FROM_V, solved.op);
-  const final = operatingPointAt(solved, SLEW_TO_V, solved.op);
+  // both DC states warm-started from the design's own operating point (the same circuit, drive moved)
+  const { op: start, driveNodes } = solveStageOperatingPoint(solved.design, solved.op, SLEW_FROM_V);
+  const final = solveStageOperatingPoint(solved.design, solved.op, SLEW_TO_V).op;
   const ic = start.circuit;
   const startOutV = outputOf(start, start.voltagesV);
   const finalOutV = outputOf(final, final.voltagesV);
   const swingV = Math.abs(finalOutV - startOutV);
-  const drive = (ic.fixedNodes.includes(DRIVE_NODES_BEHIND_SOURCE[0]) ? DRIVE_NODES_BEHIND_SOURCE : INPUT_NODES).map((name) => -ic.nodeRef(name) - 1);
+  const drive = driveNodes.map((name) => -ic.nodeRef(name) - 1);
   const vicmV = solved.design.inputCommonModeV ?? 0;
   let largestVPerS = 0;
   let lastS = 0;
