@@ -10,7 +10,7 @@
  * SPICE restarts there [SPICE]. Gear-2 rather than the trapezoidal rule: both are second order,
  * but Gear-2 damps the fast modes a step longer than their time constant leaves behind, where the
  * trapezoidal rule lets them alternate from step to step (C. W. Gear, Numerical Initial Value
- * Problems in Ordinary Differential Equations, 1971, ch. 11); the slew rate is read from
+ * Problems in Ordinary Differential Equations, 1971, cited from memory); the slew rate is read from
  * difference quotients between the points, which such an alternation would corrupt.
  *
  * Step control: a predictor through the last points (quadratic, or linear on the second step
@@ -148,7 +148,7 @@ export function integrateTransient(
 /**
  * Gear-2 with variable steps: dq/dt(n+1) ≈ a0·q(n+1) + a1·q(n) + a2·q(n−1), h the step, hp the
  * one before, ω = h/hp: a0 = (1 + 2ω)/((1 + ω)·h), a1 = −(1 + ω)/h, a2 = ω²/((1 + ω)·h)
- * (the derivative of the quadratic through the three points at t(n+1); Gear 1971, ch. 9).
+ * (the derivative of the quadratic through the three points at t(n+1); Gear 1971, cited from memory).
  */
 export function gear2(hS: number, previousS: number): [number, number, number] {
   const w = hS / previousS;
