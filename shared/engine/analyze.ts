@@ -14,6 +14,7 @@ import { solveStageOperatingPoint, type SolvedOperatingPoint } from './stage-sol
 import { TRANSFER_PARTS, magnitude, smallSignalCurrentIntoA, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
 import { readOutput, transferMoveBound, transfersAtOmega, type ComplexPair, type FrequencyModel } from './frequency-response';
 import { inputNoiseVPerRtHz, stageNoise } from './noise';
+import { solvedSlewRateVPerS } from './slew-rate';
 import type { AcEntry, AnalyzeResult, Design, RailRejection, Region, TransistorOperatingPoint } from './types';
 import { inputWarningText, operatingPointProblemText } from '../text/engine-notes';
 
@@ -48,9 +49,9 @@ export interface StageSolution extends SolvedCircuit {
 /**
  * The figures a full solve adds to a condition's: the searched corners (cmrrCornerHz,
  * differentialBandwidthHz) and the figures that take further operating points (the offset and
- * its current and drift, the linear range).
+ * its current and drift, the linear range) or a transient (the slew rate).
  */
-export type FullSolveField = 'cmrrCornerHz' | 'differentialBandwidthHz' | 'inputOffsetCurrentA' | 'inputOffsetVoltageV' | 'offsetDriftVPerC' | 'linearInputRangeV';
+export type FullSolveField = 'cmrrCornerHz' | 'differentialBandwidthHz' | 'inputOffsetCurrentA' | 'inputOffsetVoltageV' | 'offsetDriftVPerC' | 'linearInputRangeV' | 'slewRateVPerS';
 
 /** The figures of a stage solved at one condition of a spec: every figure but a full solve's own (FullSolveField). */
 export type ConditionResult = Omit<AnalyzeResult, FullSolveField>;
@@ -433,7 +434,7 @@ export function solveStage(design: Design, warmStart?: SolvedCircuit): StageSolu
   const solved = solveCircuit(design, warmStart);
   const { result, problems } = conditionFigures(solved);
   const [differentialBandwidthHz, cmrrCornerHz] = cornersHz(solved.stage, [DIFFERENTIAL_GAIN, SINGLE_ENDED_CMRR]);
-  return { ...solved, result: { ...result, cmrrCornerHz, differentialBandwidthHz, ...transferFigures(solved) }, problems };
+  return { ...solved, result: { ...result, cmrrCornerHz, differentialBandwidthHz, ...transferFigures(solved), slewRateVPerS: solvedSlewRateVPerS(solved) }, problems };
 }
 
 /**

@@ -71,7 +71,7 @@ export class ConvergenceError extends Error {
 }
 
 /** SPICE's pnjlim: limits a junction's step so exp() stays tame [SPICE]. */
-function limitJunctionV(newV: number, oldV: number, vtV: number, criticalV: number): number {
+export function limitJunctionV(newV: number, oldV: number, vtV: number, criticalV: number): number {
   if (newV > criticalV && Math.abs(newV - oldV) > 2 * vtV) {
     if (oldV > 0) {
       const arg = 1 + (newV - oldV) / vtV;

@@ -76,6 +76,11 @@ export interface AnalyzeResult {
   cmrrCornerHz: number | null;
   /** Lowest frequency where |differentialGain| is 3 dB below its low-frequency value; null above 10 GHz. */
   differentialBandwidthHz: number | null;
+  /**
+   * Largest |d v(c1,c2)/dt| after the differential drive steps from −1 V to +1 V in 1 ns, V/s,
+   * from a transient solve of the stage (slew-rate.ts); null when that solve does not converge.
+   */
+  slewRateVPerS: number | null;
   /** One entry per `frequenciesHz` of the design. */
   ac: AcEntry[];
   /** Mean of the DC currents the drive sends into in1 and in2, A. */

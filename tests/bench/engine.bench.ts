@@ -8,7 +8,9 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { analyze, recommend, solveStage } from '#shared/engine/index';
+import { solveCircuit } from '#shared/engine/analyze';
 import { mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws } from '#shared/engine/mismatch';
+import { slewRun } from '#shared/engine/slew-rate';
 import { spiceNetlist } from '#shared/engine/netlist';
 import type { Design, Spec } from '#shared/engine/types';
 import { validateSpec } from '#shared/validate';
@@ -76,6 +78,19 @@ const analyzeUs = median(Array.from({ length: BATCHES }, () => analyzeBatchUs())
 for (let i = 0; i < WARM_UP_BATCHES; i += 1) analyzeBatchUs(fullModelDesigns);
 const analyzeFullUs = median(Array.from({ length: BATCHES }, () => analyzeBatchUs(fullModelDesigns)));
 
+// The slew rate's transient alone (part of every analyze call above), on the solved designs of
+// both sets: the three-parameter ones (nothing stores charge unless the spec loads them) and
+// the full-card ones with 5 pF loads.
+const SLEW_RUNS_PER_BATCH = 24;
+const slewSolved = [...designs, ...fullModelDesigns].map((design) => solveCircuit(design));
+function slewBatchMs(): number {
+  const start = performance.now();
+  for (let i = 0; i < SLEW_RUNS_PER_BATCH; i += 1) slewRun(slewSolved[i % slewSolved.length]);
+  return (performance.now() - start) / SLEW_RUNS_PER_BATCH;
+}
+for (let i = 0; i < WARM_UP_BATCHES / 4; i += 1) slewBatchMs();
+const slewMs = median(Array.from({ length: BATCHES }, () => slewBatchMs()));
+
 const recommendMs: Record<string, number> = {};
 for (const spec of specs) {
   for (let i = 0; i < 15; i += 1) await recommend(spec, ruleSet);
@@ -113,6 +128,7 @@ const row = (name: string, value: string, target: string) => console.log(`${name
 console.log(`Longtail engine benchmark — medians over ${BATCHES} batches, Node ${process.version}\n`);
 row('analyze, per call (six topologies in turn)', `${analyzeUs.toFixed(1)} µs`, 'target ≤ 50 µs');
 row('analyze, full model card, five frequencies, per call', `${analyzeFullUs.toFixed(1)} µs`, 'target ≤ 100 µs');
+row('slew rate transient, per design (both sets in turn)', `${slewMs.toFixed(2)} ms`, 'target: a few ms');
 row('ngspice (eecircuit-engine), per analysis (.op + one .ac)', `${(spiceUs / 1000).toFixed(2)} ms`, '');
 row('  ratio: SPICE analysis / analyze call', `${(spiceUs / analyzeUs).toFixed(0)}×`, '');
 for (const [title, ms] of Object.entries(recommendMs)) row(`recommend: ${title.slice(0, 46)}`, `${ms.toFixed(2)} ms`, 'target ≤ 20 ms');

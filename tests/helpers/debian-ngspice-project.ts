@@ -22,7 +22,7 @@ export const DEBIAN_NGSPICE_PROJECT = 'reference-debian-ngspice';
  * limits the rejection, each part removed or changed in the netlist; every topology's netlists
  * run against hand formulas; the input-referred noise against `.noise` (Debian's batch mode
  * writes the noise density plot first in its raw file, which the reader takes) and a handbook
- * formula. Every file of tests/reference is listed today
+ * formula; the slew rate against `.tran`. Every file of tests/reference is listed today
  * (tests/unit/helpers/debian-ngspice-files.test.ts holds it so).
  */
 export const DEBIAN_NGSPICE_REFERENCE_FILES = [
@@ -37,6 +37,7 @@ export const DEBIAN_NGSPICE_REFERENCE_FILES = [
   'tests/reference/netlist-runs.test.ts',
   'tests/reference/input-figures-agreement.test.ts',
   'tests/reference/noise-agreement.test.ts',
+  'tests/reference/slew-agreement.test.ts',
 ] as const;
 
 /** Whether Debian's ngspice is installed (an executable at `path`). */

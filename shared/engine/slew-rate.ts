@@ -1,0 +1,120 @@
+/**
+ * The contract's slew rate (ENGINE-CONTRACT.md, "New outputs"): the largest |d v(c1,c2)/dt|
+ * after the differential drive steps from −1 V to +1 V in 1 ns, from a transient solve of the
+ * stage's own circuit (transient.ts): every transistor's currents and stored charges, the tail,
+ * the loads and the source resistances as the operating point has them.
+ *
+ * Beside it, the hand figure [GM] (DOMAIN.md, "Slew rate"): a switched pair moves its whole tail
+ * current from one collector to the other, so at the start of the swing
+ * d(vc1 − vc2)/dt = 2·Itail/CL (a single collector Itail/CL). The solved figure is that limit
+ * when the load capacitance dominates; where the device's own capacitances matter, or the
+ * output follows the 1 ns edge itself (little or no capacitance: then about |Ad|·2 V/ns), it is
+ * what the circuit does instead.
+ */
+import type { SolvedCircuit } from './analyze';
+import { COLLECTOR_NODES } from './circuit';
+import { NOMINAL_TEMPERATURE_C } from './constants';
+import { nodeVoltage } from './node-system';
+import { ConvergenceError, type OperatingPoint } from './operating-point';
+import { solveStageOperatingPoint } from './stage-solve';
+import { integrateTransient } from './transient';
+
+/** The drive's two states (differential, V) and its edge, s (the contract's). */
+export const SLEW_FROM_V = -1;
+export const SLEW_TO_V = 1;
+export const SLEW_EDGE_S = 1e-9;
+/** Steps across the edge at the least, so its corners and the switching within it are resolved. */
+const EDGE_POINTS = 20;
+/** The first step, a share of the edge (the truncation error grows it from there). */
+const FIRST_STEP_SHARE = 1e-3;
+/** The shortest step before the run is given up, s. */
+const MIN_STEP_S = 1e-20;
+/**
+ * Local truncation error allowed per step on every node, as a share of the output's swing
+ * between the two DC states: 1e-4 keeps the largest difference quotient within 0.3 % of a run
+ * with a thousandth of it (measured on ten designs of every kind the reference file holds; 1e-3
+ * is 1.2 % off), far inside the contract's 10 %, in about half the points of 1e-5.
+ */
+const TRUNCATION_SHARE = 1e-4;
+/** A floor under that tolerance, V, for a stage whose output hardly moves. */
+const TRUNCATION_FLOOR_V = 1e-9;
+/** Settled: the output within this share of its swing from the final DC value… */
+const SETTLED_BAND = 0.01;
+/** …and held there until this multiple of the time it first got there (the run then stops). */
+const SETTLED_HOLD = 1.5;
+
+/** The slew rate and how the run went. */
+export interface SlewRun {
+  /** The largest |Δv(c1,c2)/Δt| between accepted points, V/s. */
+  slewRateVPerS: number;
+  /** When v(c1,c2) entered the 1 % band for good, s after the edge starts. */
+  settlingS: number;
+  /** Accepted time points. */
+  points: number;
+}
+
+/** v(c1) − v(c2) of a solution, V. */
+function outputOf(op: OperatingPoint, v: readonly number[]): number {
+  const ic = op.circuit;
+  return nodeVoltage(ic, v as number[], ic.nodeRef(COLLECTOR_NODES[0])) - nodeVoltage(ic, v as number[], ic.nodeRef(COLLECTOR_NODES[1]));
+}
+
+/**
+ * Runs the contract's step on a solved stage: the DC solutions at −1 V and +1 V, then the
+ * transient from the first with the drive ramping to +1 V over 1 ns, until v(c1,c2) has settled
+ * within 1 % of its value at the second; the figure is the largest difference quotient between
+ * accepted points, as SPICE's measure takes it.
+ */
+export function slewRun(solved: SolvedCircuit): SlewRun {
+  // both DC states warm-started from the design's own operating point (the same circuit, drive moved)
+  const { op: start, driveNodes } = solveStageOperatingPoint(solved.design, solved.op, SLEW_FROM_V);
+  const final = solveStageOperatingPoint(solved.design, solved.op, SLEW_TO_V).op;
+  const ic = start.circuit;
+  const startOutV = outputOf(start, start.voltagesV);
+  const finalOutV = outputOf(final, final.voltagesV);
+  const swingV = Math.abs(finalOutV - startOutV);
+  const drive = driveNodes.map((name) => -ic.nodeRef(name) - 1);
+  const vicmV = solved.design.inputCommonModeV ?? 0;
+  let largestVPerS = 0;
+  let lastS = 0;
+  let lastOutV = startOutV;
+  let settledAtS: number | null = null;
+  let points = 0;
+  integrateTransient(ic, solved.model, solved.model.parameters, solved.design.temperatureC ?? NOMINAL_TEMPERATURE_C, start.voltagesV, {
+    fixedVAt(tS, fixedV) {
+      const driveV = SLEW_FROM_V + (SLEW_TO_V - SLEW_FROM_V) * Math.min(Math.max(tS / SLEW_EDGE_S, 0), 1);
+      fixedV[drive[0]] = vicmV + driveV / 2;
+      fixedV[drive[1]] = vicmV - driveV / 2;
+    },
+    breakpointsS: [SLEW_EDGE_S],
+    maxStepAt: (tS) => (tS < SLEW_EDGE_S ? SLEW_EDGE_S / EDGE_POINTS : Infinity),
+    firstStepS: SLEW_EDGE_S * FIRST_STEP_SHARE,
+    minStepS: MIN_STEP_S,
+    toleranceV: TRUNCATION_SHARE * swingV + TRUNCATION_FLOOR_V,
+    onPoint(tS, v) {
+      points += 1;
+      const outV = outputOf(start, v);
+      if (tS > lastS) largestVPerS = Math.max(largestVPerS, Math.abs(outV - lastOutV) / (tS - lastS));
+      lastS = tS;
+      lastOutV = outV;
+      if (Math.abs(outV - finalOutV) > SETTLED_BAND * swingV) settledAtS = null;
+      else settledAtS ??= tS;
+      return tS >= SLEW_EDGE_S && settledAtS !== null && tS >= SETTLED_HOLD * settledAtS;
+    },
+  });
+  return { slewRateVPerS: largestVPerS, settlingS: settledAtS ?? lastS, points };
+}
+
+/**
+ * The contract's `slewRateVPerS` of a solved stage, V/s (slewRun's figure); null when the two DC
+ * states or the transient between them do not converge (ConvergenceError), the contract's "no
+ * figure" rather than a failed analysis.
+ */
+export function solvedSlewRateVPerS(solved: SolvedCircuit): number | null {
+  try {
+    return slewRun(solved).slewRateVPerS;
+  } catch (error) {
+    if (error instanceof ConvergenceError) return null;
+    throw error;
+  }
+}

@@ -1,0 +1,277 @@
+/**
+ * Transient solve of a stage circuit whose fixed nodes (the drive) move with time: the full
+ * nonlinear node equations f(v) + dq(v)/dt = 0 at every time point, f the resistive currents
+ * leaving each node (resistors, every transistor's Gummel-Poon currents: node-system.ts) and q
+ * the charges stored on it (the circuit's capacitors, every transistor's depletion and diffusion
+ * charges: stored-charge.ts), solved by Newton with SPICE's junction limiting at each point.
+ *
+ * Integration rule: the second-order backward difference (Gear-2, BDF2) with variable steps,
+ * backward Euler for the first step after a breakpoint (the start, a corner of the drive) as
+ * SPICE restarts there [SPICE]. Gear-2 rather than the trapezoidal rule: both are second order,
+ * but Gear-2 damps the fast modes a step longer than their time constant leaves behind, where the
+ * trapezoidal rule lets them alternate from step to step (C. W. Gear, Numerical Initial Value
+ * Problems in Ordinary Differential Equations, 1971, cited from memory); the slew rate is read from
+ * difference quotients between the points, which such an alternation would corrupt.
+ *
+ * Step control: a predictor through the last points (quadratic, or linear on the second step
+ * after a breakpoint) against the converged solution estimates the local truncation error
+ * (Milne's device: LTE ≈ h/(t(n+1) − t(oldest)) · |corrected − predicted|); a step whose error on
+ * any node exceeds the tolerance is redone shorter, and the next step grows by
+ * (tolerance/error)^(1/3), at most doubling. Steps land exactly on the breakpoints; a step whose
+ * Newton solve fails is redone an eighth as long.
+ */
+import type { DeviceModel } from './device';
+import { chargeParameters, transistorCapacitances, type ChargeParameters } from './junction-charges';
+import { luFactor, luSolve } from './linear-solve';
+import { createStamp, junctionVoltages, nodeVoltage, stampConductance, stampControlled, stampTransistor, type IndexedCircuit, type NodeRef, type NodeStamp } from './node-system';
+import { ConvergenceError, limitJunctionV } from './operating-point';
+import { transistorCharges } from './stored-charge';
+import type { BjtParameters } from './bjt-parameters';
+
+/** Newton at a time point: converged when no node moved more than this (absolute, V, plus relative) in an unlimited iteration. */
+const NEWTON_TOLERANCE_V = 1e-9;
+const NEWTON_RELATIVE_TOLERANCE = 1e-9;
+/** Only a step this small (V), a tenth or less of the one before, is taken as Newton's quadratic phase. */
+const QUADRATIC_STEP_V = 1e-6;
+const QUADRATIC_CONTRACTION = 0.1;
+/** Newton iterations at one time point before the step is redone shorter. */
+const NEWTON_MAX_ITERATIONS = 40;
+/** A step whose Newton solve failed is redone this many times shorter. */
+const FAILED_STEP_CUT = 8;
+/** A step is never grown more than this factor, nor cut below this share of itself after an LTE rejection. */
+const STEP_GROWTH_MAX = 2;
+const STEP_CUT_MIN = 0.2;
+/** Safety factor on the step the truncation error allows. */
+const STEP_SAFETY = 0.9;
+/** Steps of the whole run before it is given up (ConvergenceError). */
+const MAX_STEPS = 20_000;
+/** A breakpoint nearer than this share of the step is merged into it (no sliver step). */
+const BREAKPOINT_MERGE = 0.25;
+
+/** How a transient run is driven and watched. */
+export interface TransientRun {
+  /** Writes the fixed nodes' voltages at time t (s) into `fixedV` (the circuit's fixed-node order). */
+  fixedVAt(tS: number, fixedV: number[]): void;
+  /** Times where the drive's slope changes, s, ascending: steps land on them and restart at first order. */
+  breakpointsS: readonly number[];
+  /** The longest step allowed from time t, s. */
+  maxStepAt(tS: number): number;
+  /** The first step, s. */
+  firstStepS: number;
+  /** The local truncation error allowed on any node per step, V. */
+  toleranceV: number;
+  /** Called with every accepted point, t = 0 first; returns true to stop the run. */
+  onPoint(tS: number, v: readonly number[]): boolean;
+  /** The shortest step before the run is given up, s. */
+  minStepS: number;
+}
+
+/** Where each stored charge sits: charge q(va − vb…) leaves node `a` into node `b` (as a current dq/dt). */
+interface ChargeSet {
+  /** Charges at a node-voltage vector, C: the capacitors, then each transistor's qbe, qbc, qsub. */
+  values(v: readonly number[]): number[];
+}
+
+/**
+ * Integrates the circuit from `startV` (its DC solution with the fixed nodes at their t = 0
+ * voltages) until `run.onPoint` says stop. `parameters` and `temperatureC`: the device's charge
+ * parameters (none: only the circuit's capacitors store charge). Throws ConvergenceError when
+ * the step falls below `run.minStepS` or the run exceeds MAX_STEPS.
+ */
+export function integrateTransient(
+  circuit: IndexedCircuit,
+  model: DeviceModel,
+  parameters: BjtParameters | null,
+  temperatureC: number,
+  startV: readonly number[],
+  run: TransientRun,
+): { steps: number; endS: number } {
+  const ic: IndexedCircuit = { ...circuit, fixedV: circuit.fixedV.slice() };
+  const charges = parameters ? chargeParameters(parameters, temperatureC) : null;
+  const deviceCharges = charges && !charges.none ? charges : null;
+  const chargeSet = storedCharges(ic, model, deviceCharges);
+  const stamp = createStamp(ic);
+  run.fixedVAt(0, ic.fixedV);
+  // The points since the last breakpoint (at most three kept): times, solutions, charges
+  let times = [0];
+  let states = [startV.slice()];
+  let charged = [chargeSet.values(startV)];
+  let stepS = run.firstStepS;
+  let t = 0;
+  if (run.onPoint(0, startV)) return { steps: 0, endS: 0 };
+  let breakpoint = 0;
+  for (let steps = 1; steps <= MAX_STEPS; steps += 1) {
+    while (breakpoint < run.breakpointsS.length && run.breakpointsS[breakpoint] <= t) breakpoint += 1;
+    const nextBreakS = breakpoint < run.breakpointsS.length ? run.breakpointsS[breakpoint] : Infinity;
+    let h = Math.min(stepS, run.maxStepAt(t));
+    if (nextBreakS - t <= h * (1 + BREAKPOINT_MERGE)) h = nextBreakS - t;
+    if (!(h >= run.minStepS)) throw new ConvergenceError(`the transient step fell below ${run.minStepS} s at t = ${t} s`);
+    const tNext = nextBreakS - t === h ? nextBreakS : t + h;
+    run.fixedVAt(tNext, ic.fixedV);
+    const k = times.length;
+    const predicted = predictor(times, states, tNext);
+    const coefficients = k >= 2 ? gear2(tNext - t, t - times[k - 2]) : [1 / h, -1 / h, 0];
+    const historyA = charged[k - 1].map((q, j) => coefficients[1] * q + (k >= 2 ? coefficients[2] * charged[k - 2][j] : 0));
+    const solved = newtonAt(ic, model, deviceCharges, stamp, states[k - 1], predicted, coefficients[0], historyA);
+    if (!solved) {
+      stepS = h / FAILED_STEP_CUT;
+      continue;
+    }
+    // Milne's device: the truncation error from the predictor's distance (none checked on a first step)
+    let errorV = 0;
+    if (k >= 2) {
+      const ratio = h / (tNext - times[0]);
+      for (let j = 0; j < solved.length; j += 1) errorV = Math.max(errorV, ratio * Math.abs(solved[j] - predicted[j]));
+    }
+    const scale = errorV > 0 ? STEP_SAFETY * Math.cbrt(run.toleranceV / errorV) : STEP_GROWTH_MAX;
+    if (errorV > run.toleranceV) {
+      stepS = h * Math.max(STEP_CUT_MIN, scale);
+      continue;
+    }
+    t = tNext;
+    const q = chargeSet.values(solved);
+    if (t === nextBreakS) {
+      times = [t];
+      states = [solved];
+      charged = [q];
+    } else {
+      times = [...times.slice(-2), t];
+      states = [...states.slice(-2), solved];
+      charged = [...charged.slice(-2), q];
+    }
+    stepS = h * Math.min(STEP_GROWTH_MAX, scale);
+    if (run.onPoint(t, solved)) return { steps, endS: t };
+  }
+  throw new ConvergenceError(`the transient did not finish within ${MAX_STEPS} steps`);
+}
+
+/**
+ * Gear-2 with variable steps: dq/dt(n+1) ≈ a0·q(n+1) + a1·q(n) + a2·q(n−1), h the step, hp the
+ * one before, ω = h/hp: a0 = (1 + 2ω)/((1 + ω)·h), a1 = −(1 + ω)/h, a2 = ω²/((1 + ω)·h)
+ * (the derivative of the quadratic through the three points at t(n+1); Gear 1971, cited from memory).
+ */
+export function gear2(hS: number, previousS: number): [number, number, number] {
+  const w = hS / previousS;
+  return [(1 + 2 * w) / ((1 + w) * hS), -(1 + w) / hS, (w * w) / ((1 + w) * hS)];
+}
+
+/** The polynomial through the kept points (constant, linear or quadratic) at time t, per node. */
+function predictor(times: readonly number[], states: readonly number[][], tS: number): number[] {
+  const k = times.length;
+  if (k === 1) return states[0].slice();
+  // Lagrange weights of the kept points at tS
+  const weights = times.map((ti, i) => times.reduce((w, tj, j) => (j === i ? w : (w * (tS - tj)) / (ti - tj)), 1));
+  return states[0].map((_, node) => states.reduce((sum, s, i) => sum + weights[i] * s[node], 0));
+}
+
+/** The circuit's stored charges: its capacitors, and each transistor's when the device stores charge. */
+function storedCharges(ic: IndexedCircuit, model: DeviceModel, charges: ChargeParameters | null): ChargeSet {
+  return {
+    values(v) {
+      const out = ic.capacitors.map((cap) => cap.capacitanceF * (nodeVoltage(ic, v as number[], cap.a) - nodeVoltage(ic, v as number[], cap.b)));
+      if (!charges) return out;
+      for (const q of ic.transistors) {
+        const { vbeV, vbcV } = junctionVoltages(ic, v as number[], q);
+        const vsubV = nodeVoltage(ic, v as number[], q.s) - nodeVoltage(ic, v as number[], q.ci);
+        const held = transistorCharges(charges, (q.model ?? model).evaluate(vbeV, vbcV, q.area), { vbeV, vbcV, vsubV }, q.area);
+        out.push(held.baseEmitterC, held.baseCollectorC, held.substrateC);
+      }
+      return out;
+    },
+  };
+}
+
+/**
+ * Stamps a charge's current a0·q + history leaving `a` into `b`, linearised at the controlling
+ * voltages x0: a0·Σ g·(x − x0) with g = ∂q/∂x for each (plus, minus) pair.
+ */
+function stampCharge(stamp: NodeStamp, a: NodeRef, b: NodeRef, a0: number, qC: number, historyA: number, parts: readonly [NodeRef, NodeRef, number, number][]): void {
+  let constantA = a0 * qC + historyA;
+  for (const [plus, minus, gF, x0V] of parts) {
+    if (gF === 0) continue;
+    stampControlled(stamp, a, b, plus, minus, a0 * gF);
+    constantA -= a0 * gF * x0V;
+  }
+  if (a >= 0) stamp.rhs[a] -= constantA;
+  if (b >= 0) stamp.rhs[b] += constantA;
+}
+
+/**
+ * Newton at one time point: from the predicted voltages, junctions limited from their values at
+ * the last accepted point. `a0`: the rule's coefficient of the new charge; `historyA`: each
+ * charge's history current. Null when it does not converge.
+ */
+function newtonAt(
+  ic: IndexedCircuit,
+  model: DeviceModel,
+  charges: ChargeParameters | null,
+  stamp: NodeStamp,
+  lastV: readonly number[],
+  startV: number[],
+  a0: number,
+  historyA: readonly number[],
+): number[] | null {
+  const n = stamp.n;
+  const vbeOld: number[] = [];
+  const vbcOld: number[] = [];
+  for (const q of ic.transistors) {
+    const { vbeV, vbcV } = junctionVoltages(ic, lastV as number[], q);
+    vbeOld.push(vbeV);
+    vbcOld.push(vbcV);
+  }
+  let v = startV;
+  // the largest node step of the last iteration, V (NaN: none yet, or limited)
+  let lastStepV = NaN;
+  for (let iter = 1; iter <= NEWTON_MAX_ITERATIONS; iter += 1) {
+    stamp.matrix.fill(0);
+    stamp.rhs.fill(0);
+    for (const r of ic.resistors) stampConductance(stamp, r.a, r.b, r.conductanceS);
+    ic.capacitors.forEach((cap, j) => stampCharge(stamp, cap.a, cap.b, a0, 0, historyA[j], [[cap.a, cap.b, cap.capacitanceF, 0]]));
+    let limited = false;
+    ic.transistors.forEach((q, i) => {
+      const own = q.model ?? model;
+      const raw = junctionVoltages(ic, v, q);
+      const vbeV = limitJunctionV(raw.vbeV, vbeOld[i], own.thermalVoltageV, own.criticalVoltageV);
+      const vbcV = limitJunctionV(raw.vbcV, vbcOld[i], own.thermalVoltageV, own.criticalVoltageV);
+      if (vbeV !== raw.vbeV || vbcV !== raw.vbcV) limited = true;
+      vbeOld[i] = vbeV;
+      vbcOld[i] = vbcV;
+      const ev = own.evaluate(vbeV, vbcV, q.area);
+      stampTransistor(stamp, q, ev, vbeV, vbcV);
+      if (!charges) return;
+      const vsubV = nodeVoltage(ic, v, q.s) - nodeVoltage(ic, v, q.ci);
+      const bias = { vbeV, vbcV, vsubV };
+      const held = transistorCharges(charges, ev, bias, q.area);
+      const caps = transistorCapacitances(charges, ev, bias, q.area);
+      const at = ic.capacitors.length + 3 * i;
+      stampCharge(stamp, q.bi, q.ei, a0, held.baseEmitterC, historyA[at], [
+        [q.bi, q.ei, caps.baseEmitterF, vbeV],
+        [q.bi, q.ci, caps.baseEmitterPerVbcF, vbcV],
+      ]);
+      stampCharge(stamp, q.bi, q.ci, a0, held.baseCollectorC, historyA[at + 1], [[q.bi, q.ci, caps.baseCollectorF, vbcV]]);
+      stampCharge(stamp, q.s, q.ci, a0, held.substrateC, historyA[at + 2], [[q.s, q.ci, caps.collectorSubstrateF, vsubV]]);
+    });
+    let next: number[];
+    try {
+      next = luSolve(luFactor(stamp.matrix, n, true), stamp.rhs);
+    } catch {
+      return null;
+    }
+    let converged = !limited;
+    let stepV = 0;
+    for (let k = 0; k < n; k += 1) {
+      if (!Number.isFinite(next[k])) return null;
+      const moved = Math.abs(next[k] - v[k]);
+      if (moved > NEWTON_TOLERANCE_V + NEWTON_RELATIVE_TOLERANCE * Math.abs(next[k])) converged = false;
+      if (moved > stepV) stepV = moved;
+    }
+    v = next;
+    if (converged) return v;
+    // Quadratic convergence: the next step would be about stepV·(stepV/lastStepV)², as in the
+    // operating point's Newton (operating-point.ts); when that is under the tolerance the
+    // confirming iteration is saved
+    if (!limited && stepV <= QUADRATIC_STEP_V && stepV <= QUADRATIC_CONTRACTION * lastStepV && stepV * (stepV / lastStepV) ** 2 <= NEWTON_TOLERANCE_V) return v;
+    lastStepV = limited ? NaN : stepV;
+  }
+  return null;
+}
