@@ -133,6 +133,11 @@ export const FACT_KINDS: { readonly [K in keyof OptionFacts]-?: KindOf<OptionFac
   linearInputRangeMinV: 'number-or-null',
   linearInputRangeMarginV: 'number-or-null',
   linearRangeCorner: 'text',
+  slewRateTargetSet: 'boolean',
+  slewRateWorstVPerS: 'number-or-null',
+  slewRateMinVPerS: 'number-or-null',
+  slewRateMarginVPerS: 'number-or-null',
+  slewRateCorner: 'text',
   tailOutputResistanceNote: 'text',
 };
 

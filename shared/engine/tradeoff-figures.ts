@@ -22,6 +22,7 @@ import { readOutput } from './frequency-response';
 import { linearInputRangeV, outputDifferenceV } from './input-transfer';
 import { MISMATCH_KINDS, MISMATCH_STEPS, monteCarloSample, screeningStages, worstCaseMismatches, type MismatchSigmas, type MonteCarloDraws, type ScreeningStages } from './mismatch';
 import { inputNoiseVPerRtHz, stageNoise } from './noise';
+import { solvedSlewRateVPerS } from './slew-rate';
 import type { OptionFacts, Spec } from './types';
 
 /** One condition's figures for the spec's targets (null where the target is left out or the figure has none). */
@@ -33,6 +34,7 @@ export interface TradeoffAtCondition {
   psrrPositiveDb: number | null;
   psrrNegativeDb: number | null;
   linearInputRangeV: number | null;
+  slewRateVPerS: number | null;
   /** Offset per unit of each mismatch (V per unit of xᵢ), MISMATCH_KINDS order; null when no offset target. */
   offsetPerMismatchV: number[] | null;
 }
@@ -47,6 +49,7 @@ export interface TradeoffTargets {
   psrrPositive: boolean;
   psrrNegative: boolean;
   linearRange: boolean;
+  slewRate: boolean;
 }
 
 export function tradeoffTargets(spec: Spec): TradeoffTargets {
@@ -59,6 +62,7 @@ export function tradeoffTargets(spec: Spec): TradeoffTargets {
     psrrPositive: spec.psrrMinDb?.positive !== undefined,
     psrrNegative: spec.psrrMinDb?.negative !== undefined,
     linearRange: spec.linearInputRangeMinV !== undefined,
+    slewRate: spec.slewRateMinVPerS !== undefined,
   };
 }
 
@@ -122,6 +126,8 @@ export function tradeoffAtCondition(
     psrrPositiveDb: psrr('positive', targets.psrrPositive),
     psrrNegativeDb: psrr('negative', targets.psrrNegative),
     linearInputRangeV: targets.linearRange ? linearInputRangeV(solution.design, { model: solution.model, op: solution.op, driveNodes: solution.stage.driveNodes }, solution.stage.low.differentialGain.re) : null,
+    // the transient's own failure (null) counts as no slew at all: the check then fails
+    slewRateVPerS: targets.slewRate ? (solvedSlewRateVPerS(solution) ?? 0) : null,
     offsetPerMismatchV: stages && needsOffset(targets) ? offsetSensitivitiesV(stages) : null,
   };
 }
@@ -192,6 +198,7 @@ export type TradeoffFacts = Pick<
   | 'psrrPositiveTargetSet' | 'psrrPositiveDb' | 'psrrPositiveMinDb' | 'psrrPositiveMarginDb' | 'psrrPositiveCorner'
   | 'psrrNegativeTargetSet' | 'psrrNegativeDb' | 'psrrNegativeMinDb' | 'psrrNegativeMarginDb' | 'psrrNegativeCorner'
   | 'linearRangeTargetSet' | 'linearInputRangeWorstV' | 'linearInputRangeMinV' | 'linearInputRangeMarginV' | 'linearRangeCorner'
+  | 'slewRateTargetSet' | 'slewRateWorstVPerS' | 'slewRateMinVPerS' | 'slewRateMarginVPerS' | 'slewRateCorner'
 >;
 
 /** The condition where a figure is worst (largest when `largestIsWorst`), skipping nulls; a null figure counts as `nullAs`. */
@@ -228,6 +235,7 @@ export function tradeoffFacts(spec: Spec, conditions: readonly TradeoffAtConditi
   const psrrNegative = targets.psrrNegative ? worstOf(conditions, (c) => c.psrrNegativeDb, false, Number.POSITIVE_INFINITY) : null;
   // a transfer linear to 1 % over twice the rails' span counts as that span
   const linear = targets.linearRange ? worstOf(conditions, (c) => c.linearInputRangeV, false, 2 * railSpanV) : null;
+  const slew = targets.slewRate ? worstOf(conditions, (c) => c.slewRateVPerS, false, 0) : null;
   const offsetMaxV = spec.offset?.maxV ?? null;
   const driftMaxVPerC = spec.offset?.driftMaxVPerC ?? null;
   return {
@@ -274,5 +282,10 @@ export function tradeoffFacts(spec: Spec, conditions: readonly TradeoffAtConditi
     linearInputRangeMinV: spec.linearInputRangeMinV ?? null,
     linearInputRangeMarginV: linear ? linear.value - spec.linearInputRangeMinV! : null,
     linearRangeCorner: linear?.label ?? '',
+    slewRateTargetSet: targets.slewRate,
+    slewRateWorstVPerS: slew?.value ?? null,
+    slewRateMinVPerS: spec.slewRateMinVPerS ?? null,
+    slewRateMarginVPerS: slew ? slew.value - spec.slewRateMinVPerS! : null,
+    slewRateCorner: slew?.label ?? '',
   };
 }

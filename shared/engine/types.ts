@@ -350,6 +350,12 @@ export interface OptionFacts {
   linearInputRangeMinV: number | null;
   linearInputRangeMarginV: number | null;
   linearRangeCorner: string;
+  slewRateTargetSet: boolean;
+  /** The largest rate of change of v(c1,c2) after the contract's −1 V → +1 V input step, V/s. */
+  slewRateWorstVPerS: number | null;
+  slewRateMinVPerS: number | null;
+  slewRateMarginVPerS: number | null;
+  slewRateCorner: string;
 }
 
 /** A rule set as the engine sees it: a version, its rules, and an evaluator (rules/ provides it). */

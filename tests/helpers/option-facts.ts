@@ -120,6 +120,11 @@ export function makeOptionFacts(overrides: Partial<OptionFacts> = {}): OptionFac
     linearInputRangeMinV: 0.05,
     linearInputRangeMarginV: 0.01,
     linearRangeCorner: 'ICM 1.5 V, −40 °C',
+    slewRateTargetSet: true,
+    slewRateWorstVPerS: 9.5e6,
+    slewRateMinVPerS: 5e6,
+    slewRateMarginVPerS: 4.5e6,
+    slewRateCorner: 'ICM −1.5 V, −40 °C',
     ...overrides,
   };
 }
