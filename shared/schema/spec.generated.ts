@@ -202,6 +202,19 @@ export interface Spec {
     checksum: string;
   };
   /**
+   * Lowest and highest forward current gain (BF) of the transistors fitted, as a datasheet's hFE limits give them: a corner every requirement must hold at. Left out: half and twice the nominal current gain (a small-signal part's hFE group spans about 2:1; common practice, from memory).
+   */
+  betaRange?: {
+    /**
+     * Lowest forward current gain BF of a fitted transistor, a ratio (A/A); at most the nominal current gain. Left out: half the nominal.
+     */
+    min?: number;
+    /**
+     * Highest forward current gain BF of a fitted transistor, a ratio (A/A); at least the nominal current gain. Left out: twice the nominal.
+     */
+    max?: number;
+  };
+  /**
    * The two DC rails; the negative rail may be 0 V for a single supply.
    */
   supply: {
@@ -213,6 +226,19 @@ export interface Spec {
      * Voltage of the negative rail against ground, in volts (V); 0 for a single supply.
      */
     negativeV: number;
+  };
+  /**
+   * How far each rail may stray from its nominal voltage, plus or minus: every requirement must hold with each rail at either end. Left out: ±5 % on each rail, usual for a regulated rail (common practice).
+   */
+  supplyTolerance: {
+    /**
+     * Tolerance of the positive rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 %.
+     */
+    positivePercent: number;
+    /**
+     * Tolerance of the negative rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 % (nothing for a single supply at 0 V).
+     */
+    negativePercent: number;
   };
   /**
    * Required small-signal gain of the stage at low frequency.
@@ -306,6 +332,10 @@ export interface Spec {
      * Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.
      */
     tolerancePercent: number;
+    /**
+     * Temperature coefficient of every resistor, plus or minus, in parts per million per degree Celsius (ppm/°C): 100 means ±100 ppm/°C. Left out: ±100 ppm/°C, usual for 1 % thick-film and metal-film parts (common practice).
+     */
+    tempcoPpmPerC: number;
   };
   /**
    * Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.
@@ -319,6 +349,65 @@ export interface Spec {
    * Resistance in series with each base, between the drive and the pair's input, in ohms (Ω); 0 (none) or at least 1 mΩ, up to 10 MΩ. With the devices' capacitances it lowers the gain at high frequency.
    */
   sourceResistanceOhm: number;
+  /**
+   * Largest input-referred noise density allowed at one frequency; left out, the noise is not checked.
+   */
+  noise?: {
+    /**
+     * Largest input-referred voltage noise density, in volts per root hertz (V/√Hz); 8 nV/√Hz is 8e-9.
+     */
+    maxVPerRtHz: number;
+    /**
+     * Frequency at which the noise density is checked, in hertz (Hz); datasheets commonly quote 1 kHz, above the flicker-noise corner.
+     */
+    atFrequencyHz: number;
+  };
+  /**
+   * Largest DC current into each input (the mean of the two), in amperes (A), at every corner; left out, it is not checked.
+   */
+  inputBiasCurrentMaxA?: number;
+  /**
+   * Largest input offset voltage and drift, from the transistors' mismatch (VBE and current gain) and the resistor tolerance at the chosen number of standard deviations; give either limit or both. Left out, neither is checked.
+   */
+  offset?: {
+    /**
+     * Largest input offset voltage, in volts (V): the differential input that balances the outputs; 2 mV is 0.002.
+     */
+    maxV?: number;
+    /**
+     * Largest change of the input offset voltage with temperature, in volts per degree Celsius (V/°C); 5 µV/°C is 5e-6.
+     */
+    driftMaxVPerC?: number;
+    /**
+     * How many standard deviations of the mismatch the limits must hold at, dimensionless: 3 covers about 99.7 % of parts (common practice).
+     */
+    sigmas: number;
+  };
+  /**
+   * Lowest rate of change the differential output must reach after a large input step, in volts per second (V/s), at every corner; 2 V/µs is 2e6. Left out, it is not checked.
+   */
+  slewRateMinVPerS?: number;
+  /**
+   * Lowest acceptable differential bandwidth, in hertz (Hz): the frequency where the differential gain has fallen 3 dB below its low-frequency value must be at least this, at every corner. Left out, it is not checked.
+   */
+  bandwidthMinHz?: number;
+  /**
+   * Lowest power-supply rejection ratio (PSRR) of each rail, for the output named under Gain; a rail left out is not checked.
+   */
+  psrrMinDb?: {
+    /**
+     * Lowest rejection of the positive rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.
+     */
+    positive?: number;
+    /**
+     * Lowest rejection of the negative rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.
+     */
+    negative?: number;
+  };
+  /**
+   * Differential DC input amplitude, in volts (V), up to which the output must stay within 1 % of the gain times the input, for either sign and at every corner: the stage's linear range must reach at least this. Left out, it is not checked.
+   */
+  linearInputRangeMinV?: number;
   /**
    * Tail current sources to size and compare; at least one.
    *

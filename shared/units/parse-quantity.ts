@@ -37,7 +37,7 @@ export function parseQuantity(text: string, unit?: string): ParseQuantityResult 
     if (markExponent !== undefined) {
       const suffix = readSuffix(rest, expected, false);
       if (!suffix.ok) return suffix;
-      return finish(`${sign}${whole}.${fraction}e${markExponent}`, text);
+      return finish(`${sign}${whole}.${fraction}e${markExponent + suffix.exponent}`, text);
     }
   }
   const plain = NUMBER_PATTERN.exec(normalized);
@@ -61,20 +61,31 @@ function infixExponent(mark: string, expected: UnitSymbol | undefined): number |
   return PREFIX_SPELLINGS.find((p) => startsWithSpelling(mark, p) && mark.length === p.spelling.length)?.prefix.exponent;
 }
 
-/** Reads what follows the number: nothing, the unit, or a prefix and then optionally the unit. */
+/** The power of ten a scaled spelling of the unit stands for ("V/µs" in V/s: 6), if the text is one. */
+function scaledExponent(text: string, expected: UnitSymbol | undefined): number | undefined {
+  return expected?.scaledSpellings?.find((scaled) => scaled.spelling === text)?.exponent;
+}
+
+/**
+ * Reads what follows the number: nothing, the unit (or a scaled spelling of it, "V/µs"), or a
+ * prefix and then optionally the unit.
+ */
 function readSuffix(rest: string, expected: UnitSymbol | undefined, prefixAllowed: boolean): SuffixReading {
   const trimmed = rest.trim();
   if (trimmed === '' || (expected && spellsUnit(trimmed, expected))) return { ok: true, exponent: 0 };
+  const scaled = scaledExponent(trimmed, expected);
+  if (scaled !== undefined) return { ok: true, exponent: scaled };
   for (const entry of PREFIX_SPELLINGS) {
     if (!startsWithSpelling(trimmed, entry)) continue;
     const spelling = trimmed.slice(0, entry.spelling.length);
     const after = trimmed.slice(entry.spelling.length).trim();
-    if (after !== '' && !(expected && spellsUnitIgnoringCase(after, expected))) continue;
+    const afterScaled = scaledExponent(after, expected) ?? 0;
+    if (after !== '' && !(expected && spellsUnitIgnoringCase(after, expected)) && afterScaled === 0) continue;
     if (!prefixAllowed) return { ok: false, message: `has a second prefix "${spelling}"` };
     if (expected && !expected.takesPrefix) {
       return { ok: false, message: `${expected.symbol} takes no prefix: "${spelling}" is not allowed` };
     }
-    return { ok: true, exponent: entry.prefix.exponent };
+    return { ok: true, exponent: entry.prefix.exponent + afterScaled };
   }
   if (expected && spellsUnitIgnoringCase(trimmed, expected)) return { ok: true, exponent: 0 };
   const wanted = expected ? `expected ${expected.printed || 'a plain number'}` : 'expected a plain number';

@@ -13,12 +13,24 @@ export interface UnitSymbol {
   aliases: readonly string[];
   /** Whether "k", "µ"... may precede it (not for dB, %, °C or ratios: common practice). */
   takesPrefix: boolean;
+  /**
+   * Spellings of the same unit with a prefixed denominator, each with the power of ten it
+   * multiplies the number by: "2 V/µs" is 2e6 V/s (slew rates are quoted per microsecond).
+   */
+  scaledSpellings?: readonly ScaledSpelling[];
+}
+
+/** A spelling such as "V/µs" and the power of ten it stands for against the SI unit (6). */
+export interface ScaledSpelling {
+  spelling: string;
+  exponent: number;
 }
 
 /**
  * Units of the Longtail forms and reports [SI]; "1" is SI's unit of a dimensionless number. The
  * ohm is U+03A9 GREEK CAPITAL LETTER OMEGA, as Unicode recommends; U+2126 OHM SIGN (its canonical
- * equivalent, still produced by some keyboards and character maps) is accepted as an alias.
+ * equivalent, still produced by some keyboards and character maps) is accepted as an alias. A
+ * temperature difference of 1 K is one of 1 °C, so "/K" reads as "/°C" [SI].
  */
 export const UNIT_SYMBOLS: readonly UnitSymbol[] = [
   { symbol: 'V', printed: 'V', aliases: [], takesPrefix: true },
@@ -35,6 +47,22 @@ export const UNIT_SYMBOLS: readonly UnitSymbol[] = [
   { symbol: '°C', printed: '°C', aliases: ['℃', 'degC'], takesPrefix: false },
   { symbol: 'V/V', printed: 'V/V', aliases: [], takesPrefix: false },
   { symbol: 'A/A', printed: 'A/A', aliases: [], takesPrefix: false },
+  { symbol: 'V/√Hz', printed: 'V/√Hz', aliases: ['V/rtHz', 'V/sqrtHz', 'V/sqrt(Hz)', 'V/√(Hz)', 'V/Hz^0.5'], takesPrefix: true },
+  { symbol: 'V/°C', printed: 'V/°C', aliases: ['V/℃', 'V/degC', 'V/C', 'V/K'], takesPrefix: true },
+  {
+    symbol: 'V/s',
+    printed: 'V/s',
+    aliases: [],
+    takesPrefix: true,
+    scaledSpellings: [
+      { spelling: 'V/ms', exponent: 3 },
+      { spelling: 'V/µs', exponent: 6 },
+      { spelling: 'V/μs', exponent: 6 },
+      { spelling: 'V/us', exponent: 6 },
+      { spelling: 'V/ns', exponent: 9 },
+    ],
+  },
+  { symbol: 'ppm/°C', printed: 'ppm/°C', aliases: ['ppm/℃', 'ppm/degC', 'ppm/C', 'ppm/K'], takesPrefix: false },
   { symbol: '1', printed: '', aliases: [], takesPrefix: false },
 ];
 

@@ -14,7 +14,13 @@ type Label = (pointer: string) => string;
 /** Every cross-field problem of a schema-valid spec. */
 export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
   const label = specFieldLabel;
-  const issues = [...optionalResistanceIssues('/sourceResistanceOhm', spec.sourceResistanceOhm), ...railOrderIssues(spec.supply, label), ...deviceCardIssues(spec.device)];
+  const issues = [
+    ...optionalResistanceIssues('/sourceResistanceOhm', spec.sourceResistanceOhm),
+    ...railOrderIssues(spec.supply, label),
+    ...deviceCardIssues(spec.device),
+    ...betaRangeIssues(spec, label),
+    ...offsetLimitIssues(spec, label),
+  ];
   const { minV, maxV } = spec.inputCommonMode;
   if (minV > maxV) {
     issues.push({ path: '/inputCommonMode/minV', message: `must be at most ${label('/inputCommonMode/maxV')} (${volts(maxV)}), got ${volts(minV)}` });
@@ -78,6 +84,29 @@ function deviceCardIssues(device: { model?: BjtModelCard; beta?: number; earlyVo
     issues.push({ path: `/device/${field}`, message: `must equal the model card's ${parameter} (${cardText}${origin}), got ${given} ${unit}` });
   }
   return issues;
+}
+
+/**
+ * The current-gain spread holds the nominal current gain (`device.beta`, the card's BF with a
+ * model card): lowest at most nominal, highest at least nominal. An end left out has its
+ * documented default relative to the nominal, so it cannot contradict it.
+ */
+function betaRangeIssues(spec: Pick<Spec, 'betaRange' | 'device'>, label: Label): ValidationIssue[] {
+  const { min, max } = spec.betaRange ?? {};
+  const nominal = spec.device.beta;
+  const issues: ValidationIssue[] = [];
+  if (min !== undefined && max !== undefined && min > max) {
+    return [{ path: '/betaRange/min', message: `must be at most ${label('/betaRange/max')} (${max}), got ${min}` }];
+  }
+  if (min !== undefined && min > nominal) issues.push({ path: '/betaRange/min', message: `must be at most ${label('/device/beta')} (${nominal}), got ${min}` });
+  if (max !== undefined && max < nominal) issues.push({ path: '/betaRange/max', message: `must be at least ${label('/device/beta')} (${nominal}), got ${max}` });
+  return issues;
+}
+
+/** An offset target states what it limits: the offset, the drift, or both (the number of standard deviations alone checks nothing). */
+function offsetLimitIssues(spec: Pick<Spec, 'offset'>, label: Label): ValidationIssue[] {
+  if (!spec.offset || spec.offset.maxV !== undefined || spec.offset.driftMaxVPerC !== undefined) return [];
+  return [{ path: '/offset', message: `must give ${label('/offset/maxV')}, ${label('/offset/driftMaxVPerC')} or both (leave the input offset out to check neither)` }];
 }
 
 /** The smallest resistance a resistor field allows, ohms (1 mΩ, as the schema's resistor fields). */

@@ -16,7 +16,7 @@ function ucs2length(str) {
   }
   return length;
 }
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"default":{},"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"model":{"type":"object","title":"SPICE model card","description":"The transistor's Gummel-Poon parameters by their SPICE names, SI units; a parameter left out takes SPICE's default. When given, this card is the device: current gain, Early voltage and saturation current may be left out, and where given must equal BF, VAF and IS.","additionalProperties":false,"properties":{"IS":{"type":"number","title":"IS","description":"Transport saturation current, in amperes (A); 1e-20 or more, up to 1e-9. Left out: 1e-16 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"BF":{"type":"number","title":"BF","description":"Ideal maximum forward current gain, a ratio (A/A); 1 or more, up to 10000. Left out: 100 (SPICE's default).","x-unit":"A/A","x-typical":{"min":30,"max":800},"minimum":1,"maximum":10000},"NF":{"type":"number","title":"NF","description":"Forward current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAF":{"type":"number","title":"VAF","description":"Forward Early voltage, in volts (V); 0 (infinite) or 1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":10,"max":500},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"IKF":{"type":"number","title":"IKF","description":"Corner of forward gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISE":{"type":"number","title":"ISE","description":"Base-emitter leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NE":{"type":"number","title":"NE","description":"Base-emitter leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 1.5 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"BR":{"type":"number","title":"BR","description":"Ideal maximum reverse current gain, a ratio (A/A); more than 0, up to 10000. Left out: 1 (SPICE's default).","x-unit":"A/A","x-typical":{"min":0.1,"max":20},"exclusiveMinimum":0,"maximum":10000},"NR":{"type":"number","title":"NR","description":"Reverse current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAR":{"type":"number","title":"VAR","description":"Reverse Early voltage, in volts (V); 0 (infinite) or 0.1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":2,"max":100},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":0.1}},"IKR":{"type":"number","title":"IKR","description":"Corner of reverse gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISC":{"type":"number","title":"ISC","description":"Base-collector leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NC":{"type":"number","title":"NC","description":"Base-collector leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 2 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"RB":{"type":"number","title":"RB","description":"Base resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":1,"max":1000},"minimum":0,"maximum":1000000},"RE":{"type":"number","title":"RE","description":"Emitter resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":100},"minimum":0,"maximum":1000000},"RC":{"type":"number","title":"RC","description":"Collector resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":1000},"minimum":0,"maximum":1000000},"CJE":{"type":"number","title":"CJE","description":"Base-emitter zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJE":{"type":"number","title":"VJE","description":"Base-emitter built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJE":{"type":"number","title":"MJE","description":"Base-emitter junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJC":{"type":"number","title":"CJC","description":"Base-collector zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJC":{"type":"number","title":"VJC","description":"Base-collector built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.3,"max":1.1},"minimum":0.1,"maximum":2},"MJC":{"type":"number","title":"MJC","description":"Base-collector junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJS":{"type":"number","title":"CJS","description":"Collector-substrate zero-bias capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":0,"max":1e-11},"minimum":0,"maximum":1e-8},"VJS":{"type":"number","title":"VJS","description":"Substrate junction built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJS":{"type":"number","title":"MJS","description":"Substrate junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":0.6},"minimum":0,"maximum":0.9},"FC":{"type":"number","title":"FC","description":"Forward-bias depletion capacitance coefficient, dimensionless; 0 or more, up to 0.95. Left out: 0.5 (SPICE's default).","x-unit":"1","x-typical":{"min":0.5,"max":0.9},"minimum":0,"maximum":0.95},"TF":{"type":"number","title":"TF","description":"Ideal forward transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-12,"max":1e-8},"minimum":0,"maximum":0.001},"TR":{"type":"number","title":"TR","description":"Ideal reverse transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-10,"max":0.000001},"minimum":0,"maximum":0.001},"EG":{"type":"number","title":"EG","description":"Energy gap for the temperature effect on IS, in electronvolts (eV); 0.1 or more, up to 4. Left out: 1.11 (SPICE's default).","x-unit":"eV","x-typical":{"min":0.6,"max":1.5},"minimum":0.1,"maximum":4},"XTI":{"type":"number","title":"XTI","description":"Temperature exponent for IS, dimensionless; -10 or more, up to 10. Left out: 3 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":5},"minimum":-10,"maximum":10},"XTB":{"type":"number","title":"XTB","description":"Forward and reverse beta temperature exponent, dimensionless; -5 or more, up to 5. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":3},"minimum":-5,"maximum":5},"KF":{"type":"number","title":"KF","description":"Flicker-noise coefficient, dimensionless; 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":1e-12},"minimum":0,"maximum":0.001},"AF":{"type":"number","title":"AF","description":"Flicker-noise exponent, dimensionless; 0.1 or more, up to 4. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.8,"max":2},"minimum":0.1,"maximum":4}}},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Headroom allowance: the collector-emitter voltage the compliance, input-range and swing checks keep above, in volts (V). Whether a transistor is saturated comes from its own operating point (its current gain more than 5 % below forward-active).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001},"betaMismatchSigma":{"type":"number","title":"Beta mismatch (1 sigma)","description":"Standard deviation of the relative current-gain (BF) difference between the two pair transistors, dimensionless: 0.02 is 2 %. A few per cent is usual for a matched pair (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.02},"earlyVoltageMismatchSigma":{"type":"number","title":"Early-voltage mismatch (1 sigma)","description":"Standard deviation of the relative Early-voltage (VAF) difference between the two pair transistors, dimensionless: 0.05 is 5 %. A few per cent for a matched pair, more for separate parts (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.05}}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"outputSwingMaxCompressionPercent":{"type":"number","title":"Compression at the swing's peak","description":"Largest gain compression allowed at the peak of the output swing, in per cent (%): how far the pair's large-signal output falls below the small-signal gain times the input there. 4 % at the peak is about 1 % third-harmonic distortion of a sine (common practice).","x-unit":"%","minimum":0.1,"maximum":50,"default":4},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"loadCapacitanceF":{"type":"number","title":"Load capacitance","description":"Capacitance from each collector to AC ground (the next stage's input and wiring), in farads (F); it sets the differential bandwidth with the load resistors.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-8,"default":0},"sourceResistanceOhm":{"type":"number","title":"Source resistance","description":"Resistance in series with each base, between the drive and the pair's input, in ohms (Ω); 0 (none) or at least 1 mΩ, up to 10 MΩ. With the devices' capacitances it lowers the gain at high frequency.","x-unit":"Ω","x-typical":{"max":100000},"minimum":0,"maximum":10000000,"default":0},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"default":{},"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"model":{"type":"object","title":"SPICE model card","description":"The transistor's Gummel-Poon parameters by their SPICE names, SI units; a parameter left out takes SPICE's default. When given, this card is the device: current gain, Early voltage and saturation current may be left out, and where given must equal BF, VAF and IS.","additionalProperties":false,"properties":{"IS":{"type":"number","title":"IS","description":"Transport saturation current, in amperes (A); 1e-20 or more, up to 1e-9. Left out: 1e-16 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"BF":{"type":"number","title":"BF","description":"Ideal maximum forward current gain, a ratio (A/A); 1 or more, up to 10000. Left out: 100 (SPICE's default).","x-unit":"A/A","x-typical":{"min":30,"max":800},"minimum":1,"maximum":10000},"NF":{"type":"number","title":"NF","description":"Forward current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAF":{"type":"number","title":"VAF","description":"Forward Early voltage, in volts (V); 0 (infinite) or 1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":10,"max":500},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"IKF":{"type":"number","title":"IKF","description":"Corner of forward gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISE":{"type":"number","title":"ISE","description":"Base-emitter leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NE":{"type":"number","title":"NE","description":"Base-emitter leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 1.5 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"BR":{"type":"number","title":"BR","description":"Ideal maximum reverse current gain, a ratio (A/A); more than 0, up to 10000. Left out: 1 (SPICE's default).","x-unit":"A/A","x-typical":{"min":0.1,"max":20},"exclusiveMinimum":0,"maximum":10000},"NR":{"type":"number","title":"NR","description":"Reverse current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAR":{"type":"number","title":"VAR","description":"Reverse Early voltage, in volts (V); 0 (infinite) or 0.1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":2,"max":100},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":0.1}},"IKR":{"type":"number","title":"IKR","description":"Corner of reverse gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISC":{"type":"number","title":"ISC","description":"Base-collector leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NC":{"type":"number","title":"NC","description":"Base-collector leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 2 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"RB":{"type":"number","title":"RB","description":"Base resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":1,"max":1000},"minimum":0,"maximum":1000000},"RE":{"type":"number","title":"RE","description":"Emitter resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":100},"minimum":0,"maximum":1000000},"RC":{"type":"number","title":"RC","description":"Collector resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":1000},"minimum":0,"maximum":1000000},"CJE":{"type":"number","title":"CJE","description":"Base-emitter zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJE":{"type":"number","title":"VJE","description":"Base-emitter built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJE":{"type":"number","title":"MJE","description":"Base-emitter junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJC":{"type":"number","title":"CJC","description":"Base-collector zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJC":{"type":"number","title":"VJC","description":"Base-collector built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.3,"max":1.1},"minimum":0.1,"maximum":2},"MJC":{"type":"number","title":"MJC","description":"Base-collector junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJS":{"type":"number","title":"CJS","description":"Collector-substrate zero-bias capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":0,"max":1e-11},"minimum":0,"maximum":1e-8},"VJS":{"type":"number","title":"VJS","description":"Substrate junction built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJS":{"type":"number","title":"MJS","description":"Substrate junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":0.6},"minimum":0,"maximum":0.9},"FC":{"type":"number","title":"FC","description":"Forward-bias depletion capacitance coefficient, dimensionless; 0 or more, up to 0.95. Left out: 0.5 (SPICE's default).","x-unit":"1","x-typical":{"min":0.5,"max":0.9},"minimum":0,"maximum":0.95},"TF":{"type":"number","title":"TF","description":"Ideal forward transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-12,"max":1e-8},"minimum":0,"maximum":0.001},"TR":{"type":"number","title":"TR","description":"Ideal reverse transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-10,"max":0.000001},"minimum":0,"maximum":0.001},"EG":{"type":"number","title":"EG","description":"Energy gap for the temperature effect on IS, in electronvolts (eV); 0.1 or more, up to 4. Left out: 1.11 (SPICE's default).","x-unit":"eV","x-typical":{"min":0.6,"max":1.5},"minimum":0.1,"maximum":4},"XTI":{"type":"number","title":"XTI","description":"Temperature exponent for IS, dimensionless; -10 or more, up to 10. Left out: 3 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":5},"minimum":-10,"maximum":10},"XTB":{"type":"number","title":"XTB","description":"Forward and reverse beta temperature exponent, dimensionless; -5 or more, up to 5. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":3},"minimum":-5,"maximum":5},"KF":{"type":"number","title":"KF","description":"Flicker-noise coefficient, dimensionless; 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":1e-12},"minimum":0,"maximum":0.001},"AF":{"type":"number","title":"AF","description":"Flicker-noise exponent, dimensionless; 0.1 or more, up to 4. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.8,"max":2},"minimum":0.1,"maximum":4}}},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Headroom allowance: the collector-emitter voltage the compliance, input-range and swing checks keep above, in volts (V). Whether a transistor is saturated comes from its own operating point (its current gain more than 5 % below forward-active).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001},"betaMismatchSigma":{"type":"number","title":"Beta mismatch (1 sigma)","description":"Standard deviation of the relative current-gain (BF) difference between the two pair transistors, dimensionless: 0.02 is 2 %. A few per cent is usual for a matched pair (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.02},"earlyVoltageMismatchSigma":{"type":"number","title":"Early-voltage mismatch (1 sigma)","description":"Standard deviation of the relative Early-voltage (VAF) difference between the two pair transistors, dimensionless: 0.05 is 5 %. A few per cent for a matched pair, more for separate parts (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.05}}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"betaRange":{"type":"object","title":"Current-gain spread","description":"Lowest and highest forward current gain (BF) of the transistors fitted, as a datasheet's hFE limits give them: a corner every requirement must hold at. Left out: half and twice the nominal current gain (a small-signal part's hFE group spans about 2:1; common practice, from memory).","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest current gain","description":"Lowest forward current gain BF of a fitted transistor, a ratio (A/A); at most the nominal current gain. Left out: half the nominal.","x-unit":"A/A","x-typical":{"min":10,"max":2000},"minimum":1,"maximum":10000},"max":{"type":"number","title":"Highest current gain","description":"Highest forward current gain BF of a fitted transistor, a ratio (A/A); at least the nominal current gain. Left out: twice the nominal.","x-unit":"A/A","x-typical":{"min":10,"max":2000},"minimum":1,"maximum":10000}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"supplyTolerance":{"type":"object","title":"Supply tolerance","description":"How far each rail may stray from its nominal voltage, plus or minus: every requirement must hold with each rail at either end. Left out: ±5 % on each rail, usual for a regulated rail (common practice).","additionalProperties":false,"properties":{"positivePercent":{"type":"number","title":"Positive rail tolerance","description":"Tolerance of the positive rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 %.","x-unit":"%","minimum":0,"maximum":50,"default":5},"negativePercent":{"type":"number","title":"Negative rail tolerance","description":"Tolerance of the negative rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 % (nothing for a single supply at 0 V).","x-unit":"%","minimum":0,"maximum":50,"default":5}},"default":{}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"outputSwingMaxCompressionPercent":{"type":"number","title":"Compression at the swing's peak","description":"Largest gain compression allowed at the peak of the output swing, in per cent (%): how far the pair's large-signal output falls below the small-signal gain times the input there. 4 % at the peak is about 1 % third-harmonic distortion of a sine (common practice).","x-unit":"%","minimum":0.1,"maximum":50,"default":4},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1},"tempcoPpmPerC":{"type":"number","title":"Temperature coefficient","description":"Temperature coefficient of every resistor, plus or minus, in parts per million per degree Celsius (ppm/°C): 100 means ±100 ppm/°C. Left out: ±100 ppm/°C, usual for 1 % thick-film and metal-film parts (common practice).","x-unit":"ppm/°C","minimum":0,"maximum":5000,"default":100}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"loadCapacitanceF":{"type":"number","title":"Load capacitance","description":"Capacitance from each collector to AC ground (the next stage's input and wiring), in farads (F); it sets the differential bandwidth with the load resistors.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-8,"default":0},"sourceResistanceOhm":{"type":"number","title":"Source resistance","description":"Resistance in series with each base, between the drive and the pair's input, in ohms (Ω); 0 (none) or at least 1 mΩ, up to 10 MΩ. With the devices' capacitances it lowers the gain at high frequency.","x-unit":"Ω","x-typical":{"max":100000},"minimum":0,"maximum":10000000,"default":0},"noise":{"type":"object","title":"Input noise","description":"Largest input-referred noise density allowed at one frequency; left out, the noise is not checked.","additionalProperties":false,"required":["maxVPerRtHz","atFrequencyHz"],"properties":{"maxVPerRtHz":{"type":"number","title":"Largest noise density","description":"Largest input-referred voltage noise density, in volts per root hertz (V/√Hz); 8 nV/√Hz is 8e-9.","x-unit":"V/√Hz","x-typical":{"min":1e-10,"max":0.000001},"exclusiveMinimum":0,"maximum":0.001},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the noise density is checked, in hertz (Hz); datasheets commonly quote 1 kHz, above the flicker-noise corner.","x-unit":"Hz","x-typical":{"min":0.1,"max":100000000},"exclusiveMinimum":0,"maximum":1000000000}}},"inputBiasCurrentMaxA":{"type":"number","title":"Largest input bias current","description":"Largest DC current into each input (the mean of the two), in amperes (A), at every corner; left out, it is not checked.","x-unit":"A","x-typical":{"min":1e-12,"max":0.001},"exclusiveMinimum":0,"maximum":0.1},"offset":{"type":"object","title":"Input offset","description":"Largest input offset voltage and drift, from the transistors' mismatch (VBE and current gain) and the resistor tolerance at the chosen number of standard deviations; give either limit or both. Left out, neither is checked.","additionalProperties":false,"properties":{"maxV":{"type":"number","title":"Largest offset","description":"Largest input offset voltage, in volts (V): the differential input that balances the outputs; 2 mV is 0.002.","x-unit":"V","x-typical":{"min":0.000001,"max":0.05},"exclusiveMinimum":0,"maximum":1},"driftMaxVPerC":{"type":"number","title":"Largest drift","description":"Largest change of the input offset voltage with temperature, in volts per degree Celsius (V/°C); 5 µV/°C is 5e-6.","x-unit":"V/°C","x-typical":{"min":1e-8,"max":0.0001},"exclusiveMinimum":0,"maximum":0.01},"sigmas":{"type":"number","title":"Standard deviations","description":"How many standard deviations of the mismatch the limits must hold at, dimensionless: 3 covers about 99.7 % of parts (common practice).","x-unit":"1","minimum":1,"maximum":6,"default":3}}},"slewRateMinVPerS":{"type":"number","title":"Lowest slew rate","description":"Lowest rate of change the differential output must reach after a large input step, in volts per second (V/s), at every corner; 2 V/µs is 2e6. Left out, it is not checked.","x-unit":"V/s","x-typical":{"min":1000,"max":10000000000},"exclusiveMinimum":0,"maximum":1000000000000},"bandwidthMinHz":{"type":"number","title":"Lowest bandwidth","description":"Lowest acceptable differential bandwidth, in hertz (Hz): the frequency where the differential gain has fallen 3 dB below its low-frequency value must be at least this, at every corner. Left out, it is not checked.","x-unit":"Hz","x-typical":{"min":10,"max":1000000000},"exclusiveMinimum":0,"maximum":10000000000},"psrrMinDb":{"type":"object","title":"Supply rejection","description":"Lowest power-supply rejection ratio (PSRR) of each rail, for the output named under Gain; a rail left out is not checked.","additionalProperties":false,"properties":{"positive":{"type":"number","title":"Positive rail PSRR","description":"Lowest rejection of the positive rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.","x-unit":"dB","minimum":0,"maximum":200},"negative":{"type":"number","title":"Negative rail PSRR","description":"Lowest rejection of the negative rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.","x-unit":"dB","minimum":0,"maximum":200}}},"linearInputRangeMinV":{"type":"number","title":"Linear input range","description":"Differential DC input amplitude, in volts (V), up to which the output must stay within 1 % of the gain times the input, for either sign and at every corner: the stage's linear range must reach at least this. Left out, it is not checked.","x-unit":"V","x-typical":{"min":0.001,"max":10},"exclusiveMinimum":0,"maximum":100},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
 const func2 = Object.prototype.hasOwnProperty;
 const func3 = ucs2length;
 const pattern0 = new RegExp("^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$", "u");
@@ -1897,11 +1897,12 @@ vErrors.push(err156);
 errors++;
 }
 }
-if(data.supply !== undefined){
-let data48 = data.supply;
+if(data.betaRange !== undefined){
+let data48 = data.betaRange;
 if(data48 && typeof data48 == "object" && !Array.isArray(data48)){
-if(data48.positiveV === undefined){
-const err157 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "positiveV"},message:"must have required property '"+"positiveV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data48};
+for(const key4 in data48){
+if(!((key4 === "min") || (key4 === "max"))){
+const err157 = {instancePath:instancePath+"/betaRange",schemaPath:"#/properties/betaRange/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.betaRange,data:data48};
 if(vErrors === null){
 vErrors = [err157];
 }
@@ -1910,8 +1911,12 @@ vErrors.push(err157);
 }
 errors++;
 }
-if(data48.negativeV === undefined){
-const err158 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "negativeV"},message:"must have required property '"+"negativeV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data48};
+}
+if(data48.min !== undefined){
+let data49 = data48.min;
+if(typeof data49 == "number"){
+if(data49 > 10000 || isNaN(data49)){
+const err158 = {instancePath:instancePath+"/betaRange/min",schemaPath:"#/properties/betaRange/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.betaRange.properties.min,data:data49};
 if(vErrors === null){
 vErrors = [err158];
 }
@@ -1920,9 +1925,8 @@ vErrors.push(err158);
 }
 errors++;
 }
-for(const key4 in data48){
-if(!((key4 === "positiveV") || (key4 === "negativeV"))){
-const err159 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supply,data:data48};
+if(data49 < 1 || isNaN(data49)){
+const err159 = {instancePath:instancePath+"/betaRange/min",schemaPath:"#/properties/betaRange/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.betaRange.properties.min,data:data49};
 if(vErrors === null){
 vErrors = [err159];
 }
@@ -1932,11 +1936,8 @@ vErrors.push(err159);
 errors++;
 }
 }
-if(data48.positiveV !== undefined){
-let data49 = data48.positiveV;
-if(typeof data49 == "number"){
-if(data49 > 100 || isNaN(data49)){
-const err160 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.positiveV,data:data49};
+else {
+const err160 = {instancePath:instancePath+"/betaRange/min",schemaPath:"#/properties/betaRange/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.betaRange.properties.min.type,parentSchema:schema11.properties.betaRange.properties.min,data:data49};
 if(vErrors === null){
 vErrors = [err160];
 }
@@ -1945,8 +1946,12 @@ vErrors.push(err160);
 }
 errors++;
 }
-if(data49 < -100 || isNaN(data49)){
-const err161 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.positiveV,data:data49};
+}
+if(data48.max !== undefined){
+let data50 = data48.max;
+if(typeof data50 == "number"){
+if(data50 > 10000 || isNaN(data50)){
+const err161 = {instancePath:instancePath+"/betaRange/max",schemaPath:"#/properties/betaRange/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.betaRange.properties.max,data:data50};
 if(vErrors === null){
 vErrors = [err161];
 }
@@ -1955,9 +1960,8 @@ vErrors.push(err161);
 }
 errors++;
 }
-}
-else {
-const err162 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.positiveV.type,parentSchema:schema11.properties.supply.properties.positiveV,data:data49};
+if(data50 < 1 || isNaN(data50)){
+const err162 = {instancePath:instancePath+"/betaRange/max",schemaPath:"#/properties/betaRange/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.betaRange.properties.max,data:data50};
 if(vErrors === null){
 vErrors = [err162];
 }
@@ -1967,11 +1971,8 @@ vErrors.push(err162);
 errors++;
 }
 }
-if(data48.negativeV !== undefined){
-let data50 = data48.negativeV;
-if(typeof data50 == "number"){
-if(data50 > 100 || isNaN(data50)){
-const err163 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.negativeV,data:data50};
+else {
+const err163 = {instancePath:instancePath+"/betaRange/max",schemaPath:"#/properties/betaRange/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.betaRange.properties.max.type,parentSchema:schema11.properties.betaRange.properties.max,data:data50};
 if(vErrors === null){
 vErrors = [err163];
 }
@@ -1980,8 +1981,10 @@ vErrors.push(err163);
 }
 errors++;
 }
-if(data50 < -100 || isNaN(data50)){
-const err164 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.negativeV,data:data50};
+}
+}
+else {
+const err164 = {instancePath:instancePath+"/betaRange",schemaPath:"#/properties/betaRange/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.betaRange.type,parentSchema:schema11.properties.betaRange,data:data48};
 if(vErrors === null){
 vErrors = [err164];
 }
@@ -1991,8 +1994,11 @@ vErrors.push(err164);
 errors++;
 }
 }
-else {
-const err165 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.negativeV.type,parentSchema:schema11.properties.supply.properties.negativeV,data:data50};
+if(data.supply !== undefined){
+let data51 = data.supply;
+if(data51 && typeof data51 == "object" && !Array.isArray(data51)){
+if(data51.positiveV === undefined){
+const err165 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "positiveV"},message:"must have required property '"+"positiveV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data51};
 if(vErrors === null){
 vErrors = [err165];
 }
@@ -2001,10 +2007,8 @@ vErrors.push(err165);
 }
 errors++;
 }
-}
-}
-else {
-const err166 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supply.type,parentSchema:schema11.properties.supply,data:data48};
+if(data51.negativeV === undefined){
+const err166 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "negativeV"},message:"must have required property '"+"negativeV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data51};
 if(vErrors === null){
 vErrors = [err166];
 }
@@ -2013,12 +2017,9 @@ vErrors.push(err166);
 }
 errors++;
 }
-}
-if(data.gain !== undefined){
-let data51 = data.gain;
-if(data51 && typeof data51 == "object" && !Array.isArray(data51)){
-if(data51.target === undefined){
-const err167 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/required",keyword:"required",params:{missingProperty: "target"},message:"must have required property '"+"target"+"'",schema:schema11.properties.gain.required,parentSchema:schema11.properties.gain,data:data51};
+for(const key5 in data51){
+if(!((key5 === "positiveV") || (key5 === "negativeV"))){
+const err167 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supply,data:data51};
 if(vErrors === null){
 vErrors = [err167];
 }
@@ -2027,9 +2028,12 @@ vErrors.push(err167);
 }
 errors++;
 }
-for(const key5 in data51){
-if(!(((key5 === "target") || (key5 === "tolerancePercent")) || (key5 === "output"))){
-const err168 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.gain,data:data51};
+}
+if(data51.positiveV !== undefined){
+let data52 = data51.positiveV;
+if(typeof data52 == "number"){
+if(data52 > 100 || isNaN(data52)){
+const err168 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.positiveV,data:data52};
 if(vErrors === null){
 vErrors = [err168];
 }
@@ -2038,12 +2042,8 @@ vErrors.push(err168);
 }
 errors++;
 }
-}
-if(data51.target !== undefined){
-let data52 = data51.target;
-if(typeof data52 == "number"){
-if(data52 > 10000 || isNaN(data52)){
-const err169 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.gain.properties.target,data:data52};
+if(data52 < -100 || isNaN(data52)){
+const err169 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.positiveV,data:data52};
 if(vErrors === null){
 vErrors = [err169];
 }
@@ -2052,8 +2052,9 @@ vErrors.push(err169);
 }
 errors++;
 }
-if(data52 <= 0 || isNaN(data52)){
-const err170 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.gain.properties.target,data:data52};
+}
+else {
+const err170 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.positiveV.type,parentSchema:schema11.properties.supply.properties.positiveV,data:data52};
 if(vErrors === null){
 vErrors = [err170];
 }
@@ -2063,8 +2064,11 @@ vErrors.push(err170);
 errors++;
 }
 }
-else {
-const err171 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.target.type,parentSchema:schema11.properties.gain.properties.target,data:data52};
+if(data51.negativeV !== undefined){
+let data53 = data51.negativeV;
+if(typeof data53 == "number"){
+if(data53 > 100 || isNaN(data53)){
+const err171 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.negativeV,data:data53};
 if(vErrors === null){
 vErrors = [err171];
 }
@@ -2073,12 +2077,8 @@ vErrors.push(err171);
 }
 errors++;
 }
-}
-if(data51.tolerancePercent !== undefined){
-let data53 = data51.tolerancePercent;
-if(typeof data53 == "number"){
-if(data53 > 50 || isNaN(data53)){
-const err172 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data53};
+if(data53 < -100 || isNaN(data53)){
+const err172 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.negativeV,data:data53};
 if(vErrors === null){
 vErrors = [err172];
 }
@@ -2087,8 +2087,9 @@ vErrors.push(err172);
 }
 errors++;
 }
-if(data53 < 0.1 || isNaN(data53)){
-const err173 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data53};
+}
+else {
+const err173 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.negativeV.type,parentSchema:schema11.properties.supply.properties.negativeV,data:data53};
 if(vErrors === null){
 vErrors = [err173];
 }
@@ -2098,8 +2099,9 @@ vErrors.push(err173);
 errors++;
 }
 }
+}
 else {
-const err174 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.tolerancePercent.type,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data53};
+const err174 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supply.type,parentSchema:schema11.properties.supply,data:data51};
 if(vErrors === null){
 vErrors = [err174];
 }
@@ -2109,10 +2111,12 @@ vErrors.push(err174);
 errors++;
 }
 }
-if(data51.output !== undefined){
-let data54 = data51.output;
-if(typeof data54 !== "string"){
-const err175 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.gain.properties.output.type,parentSchema:schema11.properties.gain.properties.output,data:data54};
+if(data.supplyTolerance !== undefined){
+let data54 = data.supplyTolerance;
+if(data54 && typeof data54 == "object" && !Array.isArray(data54)){
+for(const key6 in data54){
+if(!((key6 === "positivePercent") || (key6 === "negativePercent"))){
+const err175 = {instancePath:instancePath+"/supplyTolerance",schemaPath:"#/properties/supplyTolerance/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supplyTolerance,data:data54};
 if(vErrors === null){
 vErrors = [err175];
 }
@@ -2121,8 +2125,12 @@ vErrors.push(err175);
 }
 errors++;
 }
-if(!((data54 === "differential") || (data54 === "single-ended"))){
-const err176 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/enum",keyword:"enum",params:{allowedValues: schema11.properties.gain.properties.output.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.gain.properties.output.enum,parentSchema:schema11.properties.gain.properties.output,data:data54};
+}
+if(data54.positivePercent !== undefined){
+let data55 = data54.positivePercent;
+if(typeof data55 == "number"){
+if(data55 > 50 || isNaN(data55)){
+const err176 = {instancePath:instancePath+"/supplyTolerance/positivePercent",schemaPath:"#/properties/supplyTolerance/properties/positivePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.supplyTolerance.properties.positivePercent,data:data55};
 if(vErrors === null){
 vErrors = [err176];
 }
@@ -2131,10 +2139,8 @@ vErrors.push(err176);
 }
 errors++;
 }
-}
-}
-else {
-const err177 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.gain.type,parentSchema:schema11.properties.gain,data:data51};
+if(data55 < 0 || isNaN(data55)){
+const err177 = {instancePath:instancePath+"/supplyTolerance/positivePercent",schemaPath:"#/properties/supplyTolerance/properties/positivePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.supplyTolerance.properties.positivePercent,data:data55};
 if(vErrors === null){
 vErrors = [err177];
 }
@@ -2144,11 +2150,8 @@ vErrors.push(err177);
 errors++;
 }
 }
-if(data.cmrr !== undefined){
-let data55 = data.cmrr;
-if(data55 && typeof data55 == "object" && !Array.isArray(data55)){
-if(data55.minDb === undefined){
-const err178 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/required",keyword:"required",params:{missingProperty: "minDb"},message:"must have required property '"+"minDb"+"'",schema:schema11.properties.cmrr.required,parentSchema:schema11.properties.cmrr,data:data55};
+else {
+const err178 = {instancePath:instancePath+"/supplyTolerance/positivePercent",schemaPath:"#/properties/supplyTolerance/properties/positivePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supplyTolerance.properties.positivePercent.type,parentSchema:schema11.properties.supplyTolerance.properties.positivePercent,data:data55};
 if(vErrors === null){
 vErrors = [err178];
 }
@@ -2157,9 +2160,12 @@ vErrors.push(err178);
 }
 errors++;
 }
-for(const key6 in data55){
-if(!((((key6 === "minDb") || (key6 === "atFrequencyHz")) || (key6 === "marginDb")) || (key6 === "minYieldPercent"))){
-const err179 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.cmrr,data:data55};
+}
+if(data54.negativePercent !== undefined){
+let data56 = data54.negativePercent;
+if(typeof data56 == "number"){
+if(data56 > 50 || isNaN(data56)){
+const err179 = {instancePath:instancePath+"/supplyTolerance/negativePercent",schemaPath:"#/properties/supplyTolerance/properties/negativePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.supplyTolerance.properties.negativePercent,data:data56};
 if(vErrors === null){
 vErrors = [err179];
 }
@@ -2168,12 +2174,8 @@ vErrors.push(err179);
 }
 errors++;
 }
-}
-if(data55.minDb !== undefined){
-let data56 = data55.minDb;
-if(typeof data56 == "number"){
-if(data56 > 200 || isNaN(data56)){
-const err180 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.cmrr.properties.minDb,data:data56};
+if(data56 < 0 || isNaN(data56)){
+const err180 = {instancePath:instancePath+"/supplyTolerance/negativePercent",schemaPath:"#/properties/supplyTolerance/properties/negativePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.supplyTolerance.properties.negativePercent,data:data56};
 if(vErrors === null){
 vErrors = [err180];
 }
@@ -2182,8 +2184,9 @@ vErrors.push(err180);
 }
 errors++;
 }
-if(data56 < 0 || isNaN(data56)){
-const err181 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minDb,data:data56};
+}
+else {
+const err181 = {instancePath:instancePath+"/supplyTolerance/negativePercent",schemaPath:"#/properties/supplyTolerance/properties/negativePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supplyTolerance.properties.negativePercent.type,parentSchema:schema11.properties.supplyTolerance.properties.negativePercent,data:data56};
 if(vErrors === null){
 vErrors = [err181];
 }
@@ -2193,8 +2196,9 @@ vErrors.push(err181);
 errors++;
 }
 }
+}
 else {
-const err182 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minDb.type,parentSchema:schema11.properties.cmrr.properties.minDb,data:data56};
+const err182 = {instancePath:instancePath+"/supplyTolerance",schemaPath:"#/properties/supplyTolerance/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supplyTolerance.type,parentSchema:schema11.properties.supplyTolerance,data:data54};
 if(vErrors === null){
 vErrors = [err182];
 }
@@ -2204,11 +2208,11 @@ vErrors.push(err182);
 errors++;
 }
 }
-if(data55.atFrequencyHz !== undefined){
-let data57 = data55.atFrequencyHz;
-if(typeof data57 == "number"){
-if(data57 > 1000000000 || isNaN(data57)){
-const err183 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data57};
+if(data.gain !== undefined){
+let data57 = data.gain;
+if(data57 && typeof data57 == "object" && !Array.isArray(data57)){
+if(data57.target === undefined){
+const err183 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/required",keyword:"required",params:{missingProperty: "target"},message:"must have required property '"+"target"+"'",schema:schema11.properties.gain.required,parentSchema:schema11.properties.gain,data:data57};
 if(vErrors === null){
 vErrors = [err183];
 }
@@ -2217,8 +2221,9 @@ vErrors.push(err183);
 }
 errors++;
 }
-if(data57 < 0 || isNaN(data57)){
-const err184 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data57};
+for(const key7 in data57){
+if(!(((key7 === "target") || (key7 === "tolerancePercent")) || (key7 === "output"))){
+const err184 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.gain,data:data57};
 if(vErrors === null){
 vErrors = [err184];
 }
@@ -2228,8 +2233,11 @@ vErrors.push(err184);
 errors++;
 }
 }
-else {
-const err185 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.atFrequencyHz.type,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data57};
+if(data57.target !== undefined){
+let data58 = data57.target;
+if(typeof data58 == "number"){
+if(data58 > 10000 || isNaN(data58)){
+const err185 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.gain.properties.target,data:data58};
 if(vErrors === null){
 vErrors = [err185];
 }
@@ -2238,12 +2246,8 @@ vErrors.push(err185);
 }
 errors++;
 }
-}
-if(data55.marginDb !== undefined){
-let data58 = data55.marginDb;
-if(typeof data58 == "number"){
-if(data58 > 40 || isNaN(data58)){
-const err186 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 40},message:"must be <= 40",schema:40,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data58};
+if(data58 <= 0 || isNaN(data58)){
+const err186 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.gain.properties.target,data:data58};
 if(vErrors === null){
 vErrors = [err186];
 }
@@ -2252,8 +2256,9 @@ vErrors.push(err186);
 }
 errors++;
 }
-if(data58 < 0 || isNaN(data58)){
-const err187 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data58};
+}
+else {
+const err187 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.target.type,parentSchema:schema11.properties.gain.properties.target,data:data58};
 if(vErrors === null){
 vErrors = [err187];
 }
@@ -2263,8 +2268,11 @@ vErrors.push(err187);
 errors++;
 }
 }
-else {
-const err188 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.marginDb.type,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data58};
+if(data57.tolerancePercent !== undefined){
+let data59 = data57.tolerancePercent;
+if(typeof data59 == "number"){
+if(data59 > 50 || isNaN(data59)){
+const err188 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data59};
 if(vErrors === null){
 vErrors = [err188];
 }
@@ -2273,12 +2281,8 @@ vErrors.push(err188);
 }
 errors++;
 }
-}
-if(data55.minYieldPercent !== undefined){
-let data59 = data55.minYieldPercent;
-if(typeof data59 == "number"){
-if(data59 > 100 || isNaN(data59)){
-const err189 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data59};
+if(data59 < 0.1 || isNaN(data59)){
+const err189 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data59};
 if(vErrors === null){
 vErrors = [err189];
 }
@@ -2287,8 +2291,9 @@ vErrors.push(err189);
 }
 errors++;
 }
-if(data59 < 0 || isNaN(data59)){
-const err190 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data59};
+}
+else {
+const err190 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.tolerancePercent.type,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data59};
 if(vErrors === null){
 vErrors = [err190];
 }
@@ -2298,8 +2303,10 @@ vErrors.push(err190);
 errors++;
 }
 }
-else {
-const err191 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minYieldPercent.type,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data59};
+if(data57.output !== undefined){
+let data60 = data57.output;
+if(typeof data60 !== "string"){
+const err191 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.gain.properties.output.type,parentSchema:schema11.properties.gain.properties.output,data:data60};
 if(vErrors === null){
 vErrors = [err191];
 }
@@ -2308,10 +2315,8 @@ vErrors.push(err191);
 }
 errors++;
 }
-}
-}
-else {
-const err192 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.cmrr.type,parentSchema:schema11.properties.cmrr,data:data55};
+if(!((data60 === "differential") || (data60 === "single-ended"))){
+const err192 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/enum",keyword:"enum",params:{allowedValues: schema11.properties.gain.properties.output.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.gain.properties.output.enum,parentSchema:schema11.properties.gain.properties.output,data:data60};
 if(vErrors === null){
 vErrors = [err192];
 }
@@ -2321,12 +2326,9 @@ vErrors.push(err192);
 errors++;
 }
 }
-if(data.inputCommonMode !== undefined){
-let data60 = data.inputCommonMode;
-if(data60 && typeof data60 == "object" && !Array.isArray(data60)){
-for(const key7 in data60){
-if(!((key7 === "minV") || (key7 === "maxV"))){
-const err193 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.inputCommonMode,data:data60};
+}
+else {
+const err193 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.gain.type,parentSchema:schema11.properties.gain,data:data57};
 if(vErrors === null){
 vErrors = [err193];
 }
@@ -2336,11 +2338,11 @@ vErrors.push(err193);
 errors++;
 }
 }
-if(data60.minV !== undefined){
-let data61 = data60.minV;
-if(typeof data61 == "number"){
-if(data61 > 100 || isNaN(data61)){
-const err194 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data61};
+if(data.cmrr !== undefined){
+let data61 = data.cmrr;
+if(data61 && typeof data61 == "object" && !Array.isArray(data61)){
+if(data61.minDb === undefined){
+const err194 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/required",keyword:"required",params:{missingProperty: "minDb"},message:"must have required property '"+"minDb"+"'",schema:schema11.properties.cmrr.required,parentSchema:schema11.properties.cmrr,data:data61};
 if(vErrors === null){
 vErrors = [err194];
 }
@@ -2349,8 +2351,9 @@ vErrors.push(err194);
 }
 errors++;
 }
-if(data61 < -100 || isNaN(data61)){
-const err195 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data61};
+for(const key8 in data61){
+if(!((((key8 === "minDb") || (key8 === "atFrequencyHz")) || (key8 === "marginDb")) || (key8 === "minYieldPercent"))){
+const err195 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key8},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.cmrr,data:data61};
 if(vErrors === null){
 vErrors = [err195];
 }
@@ -2360,8 +2363,11 @@ vErrors.push(err195);
 errors++;
 }
 }
-else {
-const err196 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.minV.type,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data61};
+if(data61.minDb !== undefined){
+let data62 = data61.minDb;
+if(typeof data62 == "number"){
+if(data62 > 200 || isNaN(data62)){
+const err196 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.cmrr.properties.minDb,data:data62};
 if(vErrors === null){
 vErrors = [err196];
 }
@@ -2370,12 +2376,8 @@ vErrors.push(err196);
 }
 errors++;
 }
-}
-if(data60.maxV !== undefined){
-let data62 = data60.maxV;
-if(typeof data62 == "number"){
-if(data62 > 100 || isNaN(data62)){
-const err197 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data62};
+if(data62 < 0 || isNaN(data62)){
+const err197 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minDb,data:data62};
 if(vErrors === null){
 vErrors = [err197];
 }
@@ -2384,8 +2386,9 @@ vErrors.push(err197);
 }
 errors++;
 }
-if(data62 < -100 || isNaN(data62)){
-const err198 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data62};
+}
+else {
+const err198 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minDb.type,parentSchema:schema11.properties.cmrr.properties.minDb,data:data62};
 if(vErrors === null){
 vErrors = [err198];
 }
@@ -2395,8 +2398,11 @@ vErrors.push(err198);
 errors++;
 }
 }
-else {
-const err199 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.maxV.type,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data62};
+if(data61.atFrequencyHz !== undefined){
+let data63 = data61.atFrequencyHz;
+if(typeof data63 == "number"){
+if(data63 > 1000000000 || isNaN(data63)){
+const err199 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data63};
 if(vErrors === null){
 vErrors = [err199];
 }
@@ -2405,10 +2411,8 @@ vErrors.push(err199);
 }
 errors++;
 }
-}
-}
-else {
-const err200 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.inputCommonMode.type,parentSchema:schema11.properties.inputCommonMode,data:data60};
+if(data63 < 0 || isNaN(data63)){
+const err200 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data63};
 if(vErrors === null){
 vErrors = [err200];
 }
@@ -2418,11 +2422,8 @@ vErrors.push(err200);
 errors++;
 }
 }
-if(data.outputSwingVpp !== undefined){
-let data63 = data.outputSwingVpp;
-if(typeof data63 == "number"){
-if(data63 > 200 || isNaN(data63)){
-const err201 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.outputSwingVpp,data:data63};
+else {
+const err201 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.atFrequencyHz.type,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data63};
 if(vErrors === null){
 vErrors = [err201];
 }
@@ -2431,8 +2432,12 @@ vErrors.push(err201);
 }
 errors++;
 }
-if(data63 < 0 || isNaN(data63)){
-const err202 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.outputSwingVpp,data:data63};
+}
+if(data61.marginDb !== undefined){
+let data64 = data61.marginDb;
+if(typeof data64 == "number"){
+if(data64 > 40 || isNaN(data64)){
+const err202 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 40},message:"must be <= 40",schema:40,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data64};
 if(vErrors === null){
 vErrors = [err202];
 }
@@ -2441,9 +2446,8 @@ vErrors.push(err202);
 }
 errors++;
 }
-}
-else {
-const err203 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingVpp.type,parentSchema:schema11.properties.outputSwingVpp,data:data63};
+if(data64 < 0 || isNaN(data64)){
+const err203 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data64};
 if(vErrors === null){
 vErrors = [err203];
 }
@@ -2453,11 +2457,8 @@ vErrors.push(err203);
 errors++;
 }
 }
-if(data.outputSwingMaxCompressionPercent !== undefined){
-let data64 = data.outputSwingMaxCompressionPercent;
-if(typeof data64 == "number"){
-if(data64 > 50 || isNaN(data64)){
-const err204 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data64};
+else {
+const err204 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.marginDb.type,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data64};
 if(vErrors === null){
 vErrors = [err204];
 }
@@ -2466,8 +2467,12 @@ vErrors.push(err204);
 }
 errors++;
 }
-if(data64 < 0.1 || isNaN(data64)){
-const err205 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data64};
+}
+if(data61.minYieldPercent !== undefined){
+let data65 = data61.minYieldPercent;
+if(typeof data65 == "number"){
+if(data65 > 100 || isNaN(data65)){
+const err205 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data65};
 if(vErrors === null){
 vErrors = [err205];
 }
@@ -2476,9 +2481,8 @@ vErrors.push(err205);
 }
 errors++;
 }
-}
-else {
-const err206 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingMaxCompressionPercent.type,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data64};
+if(data65 < 0 || isNaN(data65)){
+const err206 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data65};
 if(vErrors === null){
 vErrors = [err206];
 }
@@ -2488,11 +2492,8 @@ vErrors.push(err206);
 errors++;
 }
 }
-if(data.powerBudgetW !== undefined){
-let data65 = data.powerBudgetW;
-if(typeof data65 == "number"){
-if(data65 <= 0 || isNaN(data65)){
-const err207 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.powerBudgetW,data:data65};
+else {
+const err207 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minYieldPercent.type,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data65};
 if(vErrors === null){
 vErrors = [err207];
 }
@@ -2502,8 +2503,9 @@ vErrors.push(err207);
 errors++;
 }
 }
+}
 else {
-const err208 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.powerBudgetW.type,parentSchema:schema11.properties.powerBudgetW,data:data65};
+const err208 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.cmrr.type,parentSchema:schema11.properties.cmrr,data:data61};
 if(vErrors === null){
 vErrors = [err208];
 }
@@ -2513,11 +2515,12 @@ vErrors.push(err208);
 errors++;
 }
 }
-if(data.tailCurrentA !== undefined){
-let data66 = data.tailCurrentA;
-if(typeof data66 == "number"){
-if(data66 > 0.1 || isNaN(data66)){
-const err209 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.tailCurrentA,data:data66};
+if(data.inputCommonMode !== undefined){
+let data66 = data.inputCommonMode;
+if(data66 && typeof data66 == "object" && !Array.isArray(data66)){
+for(const key9 in data66){
+if(!((key9 === "minV") || (key9 === "maxV"))){
+const err209 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.inputCommonMode,data:data66};
 if(vErrors === null){
 vErrors = [err209];
 }
@@ -2526,8 +2529,12 @@ vErrors.push(err209);
 }
 errors++;
 }
-if(data66 < 1e-7 || isNaN(data66)){
-const err210 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-7},message:"must be >= 1e-7",schema:1e-7,parentSchema:schema11.properties.tailCurrentA,data:data66};
+}
+if(data66.minV !== undefined){
+let data67 = data66.minV;
+if(typeof data67 == "number"){
+if(data67 > 100 || isNaN(data67)){
+const err210 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data67};
 if(vErrors === null){
 vErrors = [err210];
 }
@@ -2536,9 +2543,8 @@ vErrors.push(err210);
 }
 errors++;
 }
-}
-else {
-const err211 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCurrentA.type,parentSchema:schema11.properties.tailCurrentA,data:data66};
+if(data67 < -100 || isNaN(data67)){
+const err211 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data67};
 if(vErrors === null){
 vErrors = [err211];
 }
@@ -2548,12 +2554,8 @@ vErrors.push(err211);
 errors++;
 }
 }
-if(data.temperatureC !== undefined){
-let data67 = data.temperatureC;
-if(data67 && typeof data67 == "object" && !Array.isArray(data67)){
-for(const key8 in data67){
-if(!((key8 === "min") || (key8 === "max"))){
-const err212 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key8},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.temperatureC,data:data67};
+else {
+const err212 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.minV.type,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data67};
 if(vErrors === null){
 vErrors = [err212];
 }
@@ -2563,11 +2565,11 @@ vErrors.push(err212);
 errors++;
 }
 }
-if(data67.min !== undefined){
-let data68 = data67.min;
+if(data66.maxV !== undefined){
+let data68 = data66.maxV;
 if(typeof data68 == "number"){
-if(data68 > 150 || isNaN(data68)){
-const err213 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.min,data:data68};
+if(data68 > 100 || isNaN(data68)){
+const err213 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data68};
 if(vErrors === null){
 vErrors = [err213];
 }
@@ -2576,8 +2578,8 @@ vErrors.push(err213);
 }
 errors++;
 }
-if(data68 < -55 || isNaN(data68)){
-const err214 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.min,data:data68};
+if(data68 < -100 || isNaN(data68)){
+const err214 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data68};
 if(vErrors === null){
 vErrors = [err214];
 }
@@ -2588,7 +2590,7 @@ errors++;
 }
 }
 else {
-const err215 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.min.type,parentSchema:schema11.properties.temperatureC.properties.min,data:data68};
+const err215 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.maxV.type,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data68};
 if(vErrors === null){
 vErrors = [err215];
 }
@@ -2598,11 +2600,9 @@ vErrors.push(err215);
 errors++;
 }
 }
-if(data67.max !== undefined){
-let data69 = data67.max;
-if(typeof data69 == "number"){
-if(data69 > 150 || isNaN(data69)){
-const err216 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.max,data:data69};
+}
+else {
+const err216 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.inputCommonMode.type,parentSchema:schema11.properties.inputCommonMode,data:data66};
 if(vErrors === null){
 vErrors = [err216];
 }
@@ -2611,8 +2611,12 @@ vErrors.push(err216);
 }
 errors++;
 }
-if(data69 < -55 || isNaN(data69)){
-const err217 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.max,data:data69};
+}
+if(data.outputSwingVpp !== undefined){
+let data69 = data.outputSwingVpp;
+if(typeof data69 == "number"){
+if(data69 > 200 || isNaN(data69)){
+const err217 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.outputSwingVpp,data:data69};
 if(vErrors === null){
 vErrors = [err217];
 }
@@ -2621,9 +2625,8 @@ vErrors.push(err217);
 }
 errors++;
 }
-}
-else {
-const err218 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.max.type,parentSchema:schema11.properties.temperatureC.properties.max,data:data69};
+if(data69 < 0 || isNaN(data69)){
+const err218 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.outputSwingVpp,data:data69};
 if(vErrors === null){
 vErrors = [err218];
 }
@@ -2633,9 +2636,8 @@ vErrors.push(err218);
 errors++;
 }
 }
-}
 else {
-const err219 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.temperatureC.type,parentSchema:schema11.properties.temperatureC,data:data67};
+const err219 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingVpp.type,parentSchema:schema11.properties.outputSwingVpp,data:data69};
 if(vErrors === null){
 vErrors = [err219];
 }
@@ -2645,12 +2647,11 @@ vErrors.push(err219);
 errors++;
 }
 }
-if(data.resistors !== undefined){
-let data70 = data.resistors;
-if(data70 && typeof data70 == "object" && !Array.isArray(data70)){
-for(const key9 in data70){
-if(!((key9 === "series") || (key9 === "tolerancePercent"))){
-const err220 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.resistors,data:data70};
+if(data.outputSwingMaxCompressionPercent !== undefined){
+let data70 = data.outputSwingMaxCompressionPercent;
+if(typeof data70 == "number"){
+if(data70 > 50 || isNaN(data70)){
+const err220 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data70};
 if(vErrors === null){
 vErrors = [err220];
 }
@@ -2659,11 +2660,8 @@ vErrors.push(err220);
 }
 errors++;
 }
-}
-if(data70.series !== undefined){
-let data71 = data70.series;
-if(typeof data71 !== "string"){
-const err221 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.resistors.properties.series.type,parentSchema:schema11.properties.resistors.properties.series,data:data71};
+if(data70 < 0.1 || isNaN(data70)){
+const err221 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data70};
 if(vErrors === null){
 vErrors = [err221];
 }
@@ -2672,8 +2670,9 @@ vErrors.push(err221);
 }
 errors++;
 }
-if(!(((data71 === "E24") || (data71 === "E96")) || (data71 === "E192"))){
-const err222 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/enum",keyword:"enum",params:{allowedValues: schema11.properties.resistors.properties.series.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.resistors.properties.series.enum,parentSchema:schema11.properties.resistors.properties.series,data:data71};
+}
+else {
+const err222 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingMaxCompressionPercent.type,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data70};
 if(vErrors === null){
 vErrors = [err222];
 }
@@ -2683,11 +2682,11 @@ vErrors.push(err222);
 errors++;
 }
 }
-if(data70.tolerancePercent !== undefined){
-let data72 = data70.tolerancePercent;
-if(typeof data72 == "number"){
-if(data72 > 20 || isNaN(data72)){
-const err223 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 20},message:"must be <= 20",schema:20,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data72};
+if(data.powerBudgetW !== undefined){
+let data71 = data.powerBudgetW;
+if(typeof data71 == "number"){
+if(data71 <= 0 || isNaN(data71)){
+const err223 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.powerBudgetW,data:data71};
 if(vErrors === null){
 vErrors = [err223];
 }
@@ -2696,8 +2695,9 @@ vErrors.push(err223);
 }
 errors++;
 }
-if(data72 < 0.05 || isNaN(data72)){
-const err224 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data72};
+}
+else {
+const err224 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.powerBudgetW.type,parentSchema:schema11.properties.powerBudgetW,data:data71};
 if(vErrors === null){
 vErrors = [err224];
 }
@@ -2707,8 +2707,11 @@ vErrors.push(err224);
 errors++;
 }
 }
-else {
-const err225 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tolerancePercent.type,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data72};
+if(data.tailCurrentA !== undefined){
+let data72 = data.tailCurrentA;
+if(typeof data72 == "number"){
+if(data72 > 0.1 || isNaN(data72)){
+const err225 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.tailCurrentA,data:data72};
 if(vErrors === null){
 vErrors = [err225];
 }
@@ -2717,10 +2720,8 @@ vErrors.push(err225);
 }
 errors++;
 }
-}
-}
-else {
-const err226 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.resistors.type,parentSchema:schema11.properties.resistors,data:data70};
+if(data72 < 1e-7 || isNaN(data72)){
+const err226 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-7},message:"must be >= 1e-7",schema:1e-7,parentSchema:schema11.properties.tailCurrentA,data:data72};
 if(vErrors === null){
 vErrors = [err226];
 }
@@ -2730,11 +2731,8 @@ vErrors.push(err226);
 errors++;
 }
 }
-if(data.tailCapacitanceF !== undefined){
-let data73 = data.tailCapacitanceF;
-if(typeof data73 == "number"){
-if(data73 > 1e-9 || isNaN(data73)){
-const err227 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.tailCapacitanceF,data:data73};
+else {
+const err227 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCurrentA.type,parentSchema:schema11.properties.tailCurrentA,data:data72};
 if(vErrors === null){
 vErrors = [err227];
 }
@@ -2743,8 +2741,13 @@ vErrors.push(err227);
 }
 errors++;
 }
-if(data73 < 0 || isNaN(data73)){
-const err228 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.tailCapacitanceF,data:data73};
+}
+if(data.temperatureC !== undefined){
+let data73 = data.temperatureC;
+if(data73 && typeof data73 == "object" && !Array.isArray(data73)){
+for(const key10 in data73){
+if(!((key10 === "min") || (key10 === "max"))){
+const err228 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.temperatureC,data:data73};
 if(vErrors === null){
 vErrors = [err228];
 }
@@ -2754,8 +2757,11 @@ vErrors.push(err228);
 errors++;
 }
 }
-else {
-const err229 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCapacitanceF.type,parentSchema:schema11.properties.tailCapacitanceF,data:data73};
+if(data73.min !== undefined){
+let data74 = data73.min;
+if(typeof data74 == "number"){
+if(data74 > 150 || isNaN(data74)){
+const err229 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.min,data:data74};
 if(vErrors === null){
 vErrors = [err229];
 }
@@ -2764,12 +2770,8 @@ vErrors.push(err229);
 }
 errors++;
 }
-}
-if(data.loadCapacitanceF !== undefined){
-let data74 = data.loadCapacitanceF;
-if(typeof data74 == "number"){
-if(data74 > 1e-8 || isNaN(data74)){
-const err230 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.loadCapacitanceF,data:data74};
+if(data74 < -55 || isNaN(data74)){
+const err230 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.min,data:data74};
 if(vErrors === null){
 vErrors = [err230];
 }
@@ -2778,8 +2780,9 @@ vErrors.push(err230);
 }
 errors++;
 }
-if(data74 < 0 || isNaN(data74)){
-const err231 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.loadCapacitanceF,data:data74};
+}
+else {
+const err231 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.min.type,parentSchema:schema11.properties.temperatureC.properties.min,data:data74};
 if(vErrors === null){
 vErrors = [err231];
 }
@@ -2789,8 +2792,11 @@ vErrors.push(err231);
 errors++;
 }
 }
-else {
-const err232 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.loadCapacitanceF.type,parentSchema:schema11.properties.loadCapacitanceF,data:data74};
+if(data73.max !== undefined){
+let data75 = data73.max;
+if(typeof data75 == "number"){
+if(data75 > 150 || isNaN(data75)){
+const err232 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.max,data:data75};
 if(vErrors === null){
 vErrors = [err232];
 }
@@ -2799,12 +2805,8 @@ vErrors.push(err232);
 }
 errors++;
 }
-}
-if(data.sourceResistanceOhm !== undefined){
-let data75 = data.sourceResistanceOhm;
-if(typeof data75 == "number"){
-if(data75 > 10000000 || isNaN(data75)){
-const err233 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000000},message:"must be <= 10000000",schema:10000000,parentSchema:schema11.properties.sourceResistanceOhm,data:data75};
+if(data75 < -55 || isNaN(data75)){
+const err233 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.max,data:data75};
 if(vErrors === null){
 vErrors = [err233];
 }
@@ -2813,8 +2815,9 @@ vErrors.push(err233);
 }
 errors++;
 }
-if(data75 < 0 || isNaN(data75)){
-const err234 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.sourceResistanceOhm,data:data75};
+}
+else {
+const err234 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.max.type,parentSchema:schema11.properties.temperatureC.properties.max,data:data75};
 if(vErrors === null){
 vErrors = [err234];
 }
@@ -2824,8 +2827,9 @@ vErrors.push(err234);
 errors++;
 }
 }
+}
 else {
-const err235 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.sourceResistanceOhm.type,parentSchema:schema11.properties.sourceResistanceOhm,data:data75};
+const err235 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.temperatureC.type,parentSchema:schema11.properties.temperatureC,data:data73};
 if(vErrors === null){
 vErrors = [err235];
 }
@@ -2835,11 +2839,12 @@ vErrors.push(err235);
 errors++;
 }
 }
-if(data.topologies !== undefined){
-let data76 = data.topologies;
-if(Array.isArray(data76)){
-if(data76.length < 1){
-const err236 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data76};
+if(data.resistors !== undefined){
+let data76 = data.resistors;
+if(data76 && typeof data76 == "object" && !Array.isArray(data76)){
+for(const key11 in data76){
+if(!(((key11 === "series") || (key11 === "tolerancePercent")) || (key11 === "tempcoPpmPerC"))){
+const err236 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key11},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.resistors,data:data76};
 if(vErrors === null){
 vErrors = [err236];
 }
@@ -2848,11 +2853,11 @@ vErrors.push(err236);
 }
 errors++;
 }
-const len0 = data76.length;
-for(let i0=0; i0<len0; i0++){
-let data77 = data76[i0];
+}
+if(data76.series !== undefined){
+let data77 = data76.series;
 if(typeof data77 !== "string"){
-const err237 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data77};
+const err237 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.resistors.properties.series.type,parentSchema:schema11.properties.resistors.properties.series,data:data77};
 if(vErrors === null){
 vErrors = [err237];
 }
@@ -2861,8 +2866,8 @@ vErrors.push(err237);
 }
 errors++;
 }
-if(!((((((data77 === "resistor") || (data77 === "simple-mirror")) || (data77 === "degenerated-mirror")) || (data77 === "widlar")) || (data77 === "wilson")) || (data77 === "cascode"))){
-const err238 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data77};
+if(!(((data77 === "E24") || (data77 === "E96")) || (data77 === "E192"))){
+const err238 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/enum",keyword:"enum",params:{allowedValues: schema11.properties.resistors.properties.series.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.resistors.properties.series.enum,parentSchema:schema11.properties.resistors.properties.series,data:data77};
 if(vErrors === null){
 vErrors = [err238];
 }
@@ -2872,18 +2877,11 @@ vErrors.push(err238);
 errors++;
 }
 }
-let i1 = data76.length;
-let j0;
-if(i1 > 1){
-const indices0 = {};
-for(;i1--;){
-let item0 = data76[i1];
-if(typeof item0 !== "string"){
-continue;
-}
-if(typeof indices0[item0] == "number"){
-j0 = indices0[item0];
-const err239 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data76};
+if(data76.tolerancePercent !== undefined){
+let data78 = data76.tolerancePercent;
+if(typeof data78 == "number"){
+if(data78 > 20 || isNaN(data78)){
+const err239 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 20},message:"must be <= 20",schema:20,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data78};
 if(vErrors === null){
 vErrors = [err239];
 }
@@ -2891,14 +2889,9 @@ else {
 vErrors.push(err239);
 }
 errors++;
-break;
 }
-indices0[item0] = i1;
-}
-}
-}
-else {
-const err240 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data76};
+if(data78 < 0.05 || isNaN(data78)){
+const err240 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data78};
 if(vErrors === null){
 vErrors = [err240];
 }
@@ -2908,10 +2901,8 @@ vErrors.push(err240);
 errors++;
 }
 }
-if(data.policy !== undefined){
-let data78 = data.policy;
-if(typeof data78 !== "string"){
-const err241 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data78};
+else {
+const err241 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tolerancePercent.type,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data78};
 if(vErrors === null){
 vErrors = [err241];
 }
@@ -2920,8 +2911,12 @@ vErrors.push(err241);
 }
 errors++;
 }
-if(!((data78 === "simplest-sufficient") || (data78 === "highest-rejection"))){
-const err242 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data78};
+}
+if(data76.tempcoPpmPerC !== undefined){
+let data79 = data76.tempcoPpmPerC;
+if(typeof data79 == "number"){
+if(data79 > 5000 || isNaN(data79)){
+const err242 = {instancePath:instancePath+"/resistors/tempcoPpmPerC",schemaPath:"#/properties/resistors/properties/tempcoPpmPerC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5000},message:"must be <= 5000",schema:5000,parentSchema:schema11.properties.resistors.properties.tempcoPpmPerC,data:data79};
 if(vErrors === null){
 vErrors = [err242];
 }
@@ -2930,13 +2925,8 @@ vErrors.push(err242);
 }
 errors++;
 }
-}
-if(data.hazards !== undefined){
-let data79 = data.hazards;
-if(data79 && typeof data79 == "object" && !Array.isArray(data79)){
-for(const key10 in data79){
-if(!((key10 === "patientConnected") || (key10 === "mainsReferenced"))){
-const err243 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data79};
+if(data79 < 0 || isNaN(data79)){
+const err243 = {instancePath:instancePath+"/resistors/tempcoPpmPerC",schemaPath:"#/properties/resistors/properties/tempcoPpmPerC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.resistors.properties.tempcoPpmPerC,data:data79};
 if(vErrors === null){
 vErrors = [err243];
 }
@@ -2946,10 +2936,8 @@ vErrors.push(err243);
 errors++;
 }
 }
-if(data79.patientConnected !== undefined){
-let data80 = data79.patientConnected;
-if(typeof data80 !== "boolean"){
-const err244 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data80};
+else {
+const err244 = {instancePath:instancePath+"/resistors/tempcoPpmPerC",schemaPath:"#/properties/resistors/properties/tempcoPpmPerC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tempcoPpmPerC.type,parentSchema:schema11.properties.resistors.properties.tempcoPpmPerC,data:data79};
 if(vErrors === null){
 vErrors = [err244];
 }
@@ -2959,10 +2947,9 @@ vErrors.push(err244);
 errors++;
 }
 }
-if(data79.mainsReferenced !== undefined){
-let data81 = data79.mainsReferenced;
-if(typeof data81 !== "boolean"){
-const err245 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data81};
+}
+else {
+const err245 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.resistors.type,parentSchema:schema11.properties.resistors,data:data76};
 if(vErrors === null){
 vErrors = [err245];
 }
@@ -2972,9 +2959,11 @@ vErrors.push(err245);
 errors++;
 }
 }
-}
-else {
-const err246 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data79};
+if(data.tailCapacitanceF !== undefined){
+let data80 = data.tailCapacitanceF;
+if(typeof data80 == "number"){
+if(data80 > 1e-9 || isNaN(data80)){
+const err246 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.tailCapacitanceF,data:data80};
 if(vErrors === null){
 vErrors = [err246];
 }
@@ -2983,13 +2972,8 @@ vErrors.push(err246);
 }
 errors++;
 }
-}
-if(data.monteCarlo !== undefined){
-let data82 = data.monteCarlo;
-if(data82 && typeof data82 == "object" && !Array.isArray(data82)){
-for(const key11 in data82){
-if(!((key11 === "samples") || (key11 === "seed"))){
-const err247 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key11},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data82};
+if(data80 < 0 || isNaN(data80)){
+const err247 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.tailCapacitanceF,data:data80};
 if(vErrors === null){
 vErrors = [err247];
 }
@@ -2999,10 +2983,8 @@ vErrors.push(err247);
 errors++;
 }
 }
-if(data82.samples !== undefined){
-let data83 = data82.samples;
-if(!((typeof data83 == "number") && (!(data83 % 1) && !isNaN(data83)))){
-const err248 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data83};
+else {
+const err248 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCapacitanceF.type,parentSchema:schema11.properties.tailCapacitanceF,data:data80};
 if(vErrors === null){
 vErrors = [err248];
 }
@@ -3011,9 +2993,12 @@ vErrors.push(err248);
 }
 errors++;
 }
-if(typeof data83 == "number"){
-if(data83 > 100000 || isNaN(data83)){
-const err249 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data83};
+}
+if(data.loadCapacitanceF !== undefined){
+let data81 = data.loadCapacitanceF;
+if(typeof data81 == "number"){
+if(data81 > 1e-8 || isNaN(data81)){
+const err249 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.loadCapacitanceF,data:data81};
 if(vErrors === null){
 vErrors = [err249];
 }
@@ -3022,8 +3007,8 @@ vErrors.push(err249);
 }
 errors++;
 }
-if(data83 < 100 || isNaN(data83)){
-const err250 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data83};
+if(data81 < 0 || isNaN(data81)){
+const err250 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.loadCapacitanceF,data:data81};
 if(vErrors === null){
 vErrors = [err250];
 }
@@ -3033,11 +3018,8 @@ vErrors.push(err250);
 errors++;
 }
 }
-}
-if(data82.seed !== undefined){
-let data84 = data82.seed;
-if(!((typeof data84 == "number") && (!(data84 % 1) && !isNaN(data84)))){
-const err251 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data84};
+else {
+const err251 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.loadCapacitanceF.type,parentSchema:schema11.properties.loadCapacitanceF,data:data81};
 if(vErrors === null){
 vErrors = [err251];
 }
@@ -3046,9 +3028,12 @@ vErrors.push(err251);
 }
 errors++;
 }
-if(typeof data84 == "number"){
-if(data84 > 4294967295 || isNaN(data84)){
-const err252 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data84};
+}
+if(data.sourceResistanceOhm !== undefined){
+let data82 = data.sourceResistanceOhm;
+if(typeof data82 == "number"){
+if(data82 > 10000000 || isNaN(data82)){
+const err252 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000000},message:"must be <= 10000000",schema:10000000,parentSchema:schema11.properties.sourceResistanceOhm,data:data82};
 if(vErrors === null){
 vErrors = [err252];
 }
@@ -3057,8 +3042,8 @@ vErrors.push(err252);
 }
 errors++;
 }
-if(data84 < 0 || isNaN(data84)){
-const err253 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data84};
+if(data82 < 0 || isNaN(data82)){
+const err253 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.sourceResistanceOhm,data:data82};
 if(vErrors === null){
 vErrors = [err253];
 }
@@ -3068,10 +3053,8 @@ vErrors.push(err253);
 errors++;
 }
 }
-}
-}
 else {
-const err254 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data82};
+const err254 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.sourceResistanceOhm.type,parentSchema:schema11.properties.sourceResistanceOhm,data:data82};
 if(vErrors === null){
 vErrors = [err254];
 }
@@ -3081,9 +3064,11 @@ vErrors.push(err254);
 errors++;
 }
 }
-}
-else {
-const err255 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(data.noise !== undefined){
+let data83 = data.noise;
+if(data83 && typeof data83 == "object" && !Array.isArray(data83)){
+if(data83.maxVPerRtHz === undefined){
+const err255 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/required",keyword:"required",params:{missingProperty: "maxVPerRtHz"},message:"must have required property '"+"maxVPerRtHz"+"'",schema:schema11.properties.noise.required,parentSchema:schema11.properties.noise,data:data83};
 if(vErrors === null){
 vErrors = [err255];
 }
@@ -3092,12 +3077,742 @@ vErrors.push(err255);
 }
 errors++;
 }
+if(data83.atFrequencyHz === undefined){
+const err256 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/required",keyword:"required",params:{missingProperty: "atFrequencyHz"},message:"must have required property '"+"atFrequencyHz"+"'",schema:schema11.properties.noise.required,parentSchema:schema11.properties.noise,data:data83};
+if(vErrors === null){
+vErrors = [err256];
+}
+else {
+vErrors.push(err256);
+}
+errors++;
+}
+for(const key12 in data83){
+if(!((key12 === "maxVPerRtHz") || (key12 === "atFrequencyHz"))){
+const err257 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.noise,data:data83};
+if(vErrors === null){
+vErrors = [err257];
+}
+else {
+vErrors.push(err257);
+}
+errors++;
+}
+}
+if(data83.maxVPerRtHz !== undefined){
+let data84 = data83.maxVPerRtHz;
+if(typeof data84 == "number"){
+if(data84 > 0.001 || isNaN(data84)){
+const err258 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
+if(vErrors === null){
+vErrors = [err258];
+}
+else {
+vErrors.push(err258);
+}
+errors++;
+}
+if(data84 <= 0 || isNaN(data84)){
+const err259 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
+if(vErrors === null){
+vErrors = [err259];
+}
+else {
+vErrors.push(err259);
+}
+errors++;
+}
+}
+else {
+const err260 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.noise.properties.maxVPerRtHz.type,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
+if(vErrors === null){
+vErrors = [err260];
+}
+else {
+vErrors.push(err260);
+}
+errors++;
+}
+}
+if(data83.atFrequencyHz !== undefined){
+let data85 = data83.atFrequencyHz;
+if(typeof data85 == "number"){
+if(data85 > 1000000000 || isNaN(data85)){
+const err261 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
+if(vErrors === null){
+vErrors = [err261];
+}
+else {
+vErrors.push(err261);
+}
+errors++;
+}
+if(data85 <= 0 || isNaN(data85)){
+const err262 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
+if(vErrors === null){
+vErrors = [err262];
+}
+else {
+vErrors.push(err262);
+}
+errors++;
+}
+}
+else {
+const err263 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.noise.properties.atFrequencyHz.type,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
+if(vErrors === null){
+vErrors = [err263];
+}
+else {
+vErrors.push(err263);
+}
+errors++;
+}
+}
+}
+else {
+const err264 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.noise.type,parentSchema:schema11.properties.noise,data:data83};
+if(vErrors === null){
+vErrors = [err264];
+}
+else {
+vErrors.push(err264);
+}
+errors++;
+}
+}
+if(data.inputBiasCurrentMaxA !== undefined){
+let data86 = data.inputBiasCurrentMaxA;
+if(typeof data86 == "number"){
+if(data86 > 0.1 || isNaN(data86)){
+const err265 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
+if(vErrors === null){
+vErrors = [err265];
+}
+else {
+vErrors.push(err265);
+}
+errors++;
+}
+if(data86 <= 0 || isNaN(data86)){
+const err266 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
+if(vErrors === null){
+vErrors = [err266];
+}
+else {
+vErrors.push(err266);
+}
+errors++;
+}
+}
+else {
+const err267 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputBiasCurrentMaxA.type,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
+if(vErrors === null){
+vErrors = [err267];
+}
+else {
+vErrors.push(err267);
+}
+errors++;
+}
+}
+if(data.offset !== undefined){
+let data87 = data.offset;
+if(data87 && typeof data87 == "object" && !Array.isArray(data87)){
+for(const key13 in data87){
+if(!(((key13 === "maxV") || (key13 === "driftMaxVPerC")) || (key13 === "sigmas"))){
+const err268 = {instancePath:instancePath+"/offset",schemaPath:"#/properties/offset/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.offset,data:data87};
+if(vErrors === null){
+vErrors = [err268];
+}
+else {
+vErrors.push(err268);
+}
+errors++;
+}
+}
+if(data87.maxV !== undefined){
+let data88 = data87.maxV;
+if(typeof data88 == "number"){
+if(data88 > 1 || isNaN(data88)){
+const err269 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
+if(vErrors === null){
+vErrors = [err269];
+}
+else {
+vErrors.push(err269);
+}
+errors++;
+}
+if(data88 <= 0 || isNaN(data88)){
+const err270 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
+if(vErrors === null){
+vErrors = [err270];
+}
+else {
+vErrors.push(err270);
+}
+errors++;
+}
+}
+else {
+const err271 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.maxV.type,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
+if(vErrors === null){
+vErrors = [err271];
+}
+else {
+vErrors.push(err271);
+}
+errors++;
+}
+}
+if(data87.driftMaxVPerC !== undefined){
+let data89 = data87.driftMaxVPerC;
+if(typeof data89 == "number"){
+if(data89 > 0.01 || isNaN(data89)){
+const err272 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.01},message:"must be <= 0.01",schema:0.01,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
+if(vErrors === null){
+vErrors = [err272];
+}
+else {
+vErrors.push(err272);
+}
+errors++;
+}
+if(data89 <= 0 || isNaN(data89)){
+const err273 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
+if(vErrors === null){
+vErrors = [err273];
+}
+else {
+vErrors.push(err273);
+}
+errors++;
+}
+}
+else {
+const err274 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.driftMaxVPerC.type,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
+if(vErrors === null){
+vErrors = [err274];
+}
+else {
+vErrors.push(err274);
+}
+errors++;
+}
+}
+if(data87.sigmas !== undefined){
+let data90 = data87.sigmas;
+if(typeof data90 == "number"){
+if(data90 > 6 || isNaN(data90)){
+const err275 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/maximum",keyword:"maximum",params:{comparison: "<=", limit: 6},message:"must be <= 6",schema:6,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
+if(vErrors === null){
+vErrors = [err275];
+}
+else {
+vErrors.push(err275);
+}
+errors++;
+}
+if(data90 < 1 || isNaN(data90)){
+const err276 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
+if(vErrors === null){
+vErrors = [err276];
+}
+else {
+vErrors.push(err276);
+}
+errors++;
+}
+}
+else {
+const err277 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.sigmas.type,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
+if(vErrors === null){
+vErrors = [err277];
+}
+else {
+vErrors.push(err277);
+}
+errors++;
+}
+}
+}
+else {
+const err278 = {instancePath:instancePath+"/offset",schemaPath:"#/properties/offset/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.offset.type,parentSchema:schema11.properties.offset,data:data87};
+if(vErrors === null){
+vErrors = [err278];
+}
+else {
+vErrors.push(err278);
+}
+errors++;
+}
+}
+if(data.slewRateMinVPerS !== undefined){
+let data91 = data.slewRateMinVPerS;
+if(typeof data91 == "number"){
+if(data91 > 1000000000000 || isNaN(data91)){
+const err279 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000000},message:"must be <= 1000000000000",schema:1000000000000,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
+if(vErrors === null){
+vErrors = [err279];
+}
+else {
+vErrors.push(err279);
+}
+errors++;
+}
+if(data91 <= 0 || isNaN(data91)){
+const err280 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
+if(vErrors === null){
+vErrors = [err280];
+}
+else {
+vErrors.push(err280);
+}
+errors++;
+}
+}
+else {
+const err281 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.slewRateMinVPerS.type,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
+if(vErrors === null){
+vErrors = [err281];
+}
+else {
+vErrors.push(err281);
+}
+errors++;
+}
+}
+if(data.bandwidthMinHz !== undefined){
+let data92 = data.bandwidthMinHz;
+if(typeof data92 == "number"){
+if(data92 > 10000000000 || isNaN(data92)){
+const err282 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000000000},message:"must be <= 10000000000",schema:10000000000,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
+if(vErrors === null){
+vErrors = [err282];
+}
+else {
+vErrors.push(err282);
+}
+errors++;
+}
+if(data92 <= 0 || isNaN(data92)){
+const err283 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
+if(vErrors === null){
+vErrors = [err283];
+}
+else {
+vErrors.push(err283);
+}
+errors++;
+}
+}
+else {
+const err284 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.bandwidthMinHz.type,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
+if(vErrors === null){
+vErrors = [err284];
+}
+else {
+vErrors.push(err284);
+}
+errors++;
+}
+}
+if(data.psrrMinDb !== undefined){
+let data93 = data.psrrMinDb;
+if(data93 && typeof data93 == "object" && !Array.isArray(data93)){
+for(const key14 in data93){
+if(!((key14 === "positive") || (key14 === "negative"))){
+const err285 = {instancePath:instancePath+"/psrrMinDb",schemaPath:"#/properties/psrrMinDb/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.psrrMinDb,data:data93};
+if(vErrors === null){
+vErrors = [err285];
+}
+else {
+vErrors.push(err285);
+}
+errors++;
+}
+}
+if(data93.positive !== undefined){
+let data94 = data93.positive;
+if(typeof data94 == "number"){
+if(data94 > 200 || isNaN(data94)){
+const err286 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
+if(vErrors === null){
+vErrors = [err286];
+}
+else {
+vErrors.push(err286);
+}
+errors++;
+}
+if(data94 < 0 || isNaN(data94)){
+const err287 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
+if(vErrors === null){
+vErrors = [err287];
+}
+else {
+vErrors.push(err287);
+}
+errors++;
+}
+}
+else {
+const err288 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.psrrMinDb.properties.positive.type,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
+if(vErrors === null){
+vErrors = [err288];
+}
+else {
+vErrors.push(err288);
+}
+errors++;
+}
+}
+if(data93.negative !== undefined){
+let data95 = data93.negative;
+if(typeof data95 == "number"){
+if(data95 > 200 || isNaN(data95)){
+const err289 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
+if(vErrors === null){
+vErrors = [err289];
+}
+else {
+vErrors.push(err289);
+}
+errors++;
+}
+if(data95 < 0 || isNaN(data95)){
+const err290 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
+if(vErrors === null){
+vErrors = [err290];
+}
+else {
+vErrors.push(err290);
+}
+errors++;
+}
+}
+else {
+const err291 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.psrrMinDb.properties.negative.type,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
+if(vErrors === null){
+vErrors = [err291];
+}
+else {
+vErrors.push(err291);
+}
+errors++;
+}
+}
+}
+else {
+const err292 = {instancePath:instancePath+"/psrrMinDb",schemaPath:"#/properties/psrrMinDb/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.psrrMinDb.type,parentSchema:schema11.properties.psrrMinDb,data:data93};
+if(vErrors === null){
+vErrors = [err292];
+}
+else {
+vErrors.push(err292);
+}
+errors++;
+}
+}
+if(data.linearInputRangeMinV !== undefined){
+let data96 = data.linearInputRangeMinV;
+if(typeof data96 == "number"){
+if(data96 > 100 || isNaN(data96)){
+const err293 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
+if(vErrors === null){
+vErrors = [err293];
+}
+else {
+vErrors.push(err293);
+}
+errors++;
+}
+if(data96 <= 0 || isNaN(data96)){
+const err294 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
+if(vErrors === null){
+vErrors = [err294];
+}
+else {
+vErrors.push(err294);
+}
+errors++;
+}
+}
+else {
+const err295 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.linearInputRangeMinV.type,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
+if(vErrors === null){
+vErrors = [err295];
+}
+else {
+vErrors.push(err295);
+}
+errors++;
+}
+}
+if(data.topologies !== undefined){
+let data97 = data.topologies;
+if(Array.isArray(data97)){
+if(data97.length < 1){
+const err296 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data97};
+if(vErrors === null){
+vErrors = [err296];
+}
+else {
+vErrors.push(err296);
+}
+errors++;
+}
+const len0 = data97.length;
+for(let i0=0; i0<len0; i0++){
+let data98 = data97[i0];
+if(typeof data98 !== "string"){
+const err297 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data98};
+if(vErrors === null){
+vErrors = [err297];
+}
+else {
+vErrors.push(err297);
+}
+errors++;
+}
+if(!((((((data98 === "resistor") || (data98 === "simple-mirror")) || (data98 === "degenerated-mirror")) || (data98 === "widlar")) || (data98 === "wilson")) || (data98 === "cascode"))){
+const err298 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data98};
+if(vErrors === null){
+vErrors = [err298];
+}
+else {
+vErrors.push(err298);
+}
+errors++;
+}
+}
+let i1 = data97.length;
+let j0;
+if(i1 > 1){
+const indices0 = {};
+for(;i1--;){
+let item0 = data97[i1];
+if(typeof item0 !== "string"){
+continue;
+}
+if(typeof indices0[item0] == "number"){
+j0 = indices0[item0];
+const err299 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data97};
+if(vErrors === null){
+vErrors = [err299];
+}
+else {
+vErrors.push(err299);
+}
+errors++;
+break;
+}
+indices0[item0] = i1;
+}
+}
+}
+else {
+const err300 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data97};
+if(vErrors === null){
+vErrors = [err300];
+}
+else {
+vErrors.push(err300);
+}
+errors++;
+}
+}
+if(data.policy !== undefined){
+let data99 = data.policy;
+if(typeof data99 !== "string"){
+const err301 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data99};
+if(vErrors === null){
+vErrors = [err301];
+}
+else {
+vErrors.push(err301);
+}
+errors++;
+}
+if(!((data99 === "simplest-sufficient") || (data99 === "highest-rejection"))){
+const err302 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data99};
+if(vErrors === null){
+vErrors = [err302];
+}
+else {
+vErrors.push(err302);
+}
+errors++;
+}
+}
+if(data.hazards !== undefined){
+let data100 = data.hazards;
+if(data100 && typeof data100 == "object" && !Array.isArray(data100)){
+for(const key15 in data100){
+if(!((key15 === "patientConnected") || (key15 === "mainsReferenced"))){
+const err303 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data100};
+if(vErrors === null){
+vErrors = [err303];
+}
+else {
+vErrors.push(err303);
+}
+errors++;
+}
+}
+if(data100.patientConnected !== undefined){
+let data101 = data100.patientConnected;
+if(typeof data101 !== "boolean"){
+const err304 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data101};
+if(vErrors === null){
+vErrors = [err304];
+}
+else {
+vErrors.push(err304);
+}
+errors++;
+}
+}
+if(data100.mainsReferenced !== undefined){
+let data102 = data100.mainsReferenced;
+if(typeof data102 !== "boolean"){
+const err305 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data102};
+if(vErrors === null){
+vErrors = [err305];
+}
+else {
+vErrors.push(err305);
+}
+errors++;
+}
+}
+}
+else {
+const err306 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data100};
+if(vErrors === null){
+vErrors = [err306];
+}
+else {
+vErrors.push(err306);
+}
+errors++;
+}
+}
+if(data.monteCarlo !== undefined){
+let data103 = data.monteCarlo;
+if(data103 && typeof data103 == "object" && !Array.isArray(data103)){
+for(const key16 in data103){
+if(!((key16 === "samples") || (key16 === "seed"))){
+const err307 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key16},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data103};
+if(vErrors === null){
+vErrors = [err307];
+}
+else {
+vErrors.push(err307);
+}
+errors++;
+}
+}
+if(data103.samples !== undefined){
+let data104 = data103.samples;
+if(!((typeof data104 == "number") && (!(data104 % 1) && !isNaN(data104)))){
+const err308 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
+if(vErrors === null){
+vErrors = [err308];
+}
+else {
+vErrors.push(err308);
+}
+errors++;
+}
+if(typeof data104 == "number"){
+if(data104 > 100000 || isNaN(data104)){
+const err309 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
+if(vErrors === null){
+vErrors = [err309];
+}
+else {
+vErrors.push(err309);
+}
+errors++;
+}
+if(data104 < 100 || isNaN(data104)){
+const err310 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
+if(vErrors === null){
+vErrors = [err310];
+}
+else {
+vErrors.push(err310);
+}
+errors++;
+}
+}
+}
+if(data103.seed !== undefined){
+let data105 = data103.seed;
+if(!((typeof data105 == "number") && (!(data105 % 1) && !isNaN(data105)))){
+const err311 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
+if(vErrors === null){
+vErrors = [err311];
+}
+else {
+vErrors.push(err311);
+}
+errors++;
+}
+if(typeof data105 == "number"){
+if(data105 > 4294967295 || isNaN(data105)){
+const err312 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
+if(vErrors === null){
+vErrors = [err312];
+}
+else {
+vErrors.push(err312);
+}
+errors++;
+}
+if(data105 < 0 || isNaN(data105)){
+const err313 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
+if(vErrors === null){
+vErrors = [err313];
+}
+else {
+vErrors.push(err313);
+}
+errors++;
+}
+}
+}
+}
+else {
+const err314 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data103};
+if(vErrors === null){
+vErrors = [err314];
+}
+else {
+vErrors.push(err314);
+}
+errors++;
+}
+}
+}
+else {
+const err315 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(vErrors === null){
+vErrors = [err315];
+}
+else {
+vErrors.push(err315);
+}
+errors++;
+}
 validate10.errors = vErrors;
 return errors === 0;
 }
 
 /** Hash (rjsf's hashForSchema) of the schema these validators were compiled from. */
-export const SPEC_SCHEMA_HASH = "4c619f38";
+export const SPEC_SCHEMA_HASH = "219755cb";
 
 /** rjsf precompiled validator functions, by schema $id. */
 export const SPEC_VALIDATORS = {
