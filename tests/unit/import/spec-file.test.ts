@@ -91,12 +91,12 @@ describe('cells in engineering notation, in the column’s unit', () => {
   test('when an older file gives resistors.tolerance as a fraction, then it is read into the tolerance in per cent', () => {
     const row = onlyRow(`${REQUIRED_HEADER},resistors.tolerance\r\nTarn probe,15,-15,20,60,0.05\r\n`);
     expect(row.errors).toEqual([]);
-    expect((row.document as { resistors: unknown }).resistors).toEqual({ series: 'E96', tolerancePercent: 5 });
+    expect((row.document as { resistors: unknown }).resistors).toEqual({ series: 'E96', tolerancePercent: 5, tempcoPpmPerC: 100 });
   });
 
   test('when the tolerance is given in per cent, "1 %" reads as 1 %', () => {
     const row = onlyRow(`${REQUIRED_HEADER},resistors.tolerancePercent\r\nTarn probe,15,-15,20,60,0.5 %\r\n`);
-    expect((row.document as { resistors: unknown }).resistors).toEqual({ series: 'E96', tolerancePercent: 0.5 });
+    expect((row.document as { resistors: unknown }).resistors).toEqual({ series: 'E96', tolerancePercent: 0.5, tempcoPpmPerC: 100 });
   });
 
   test('when yes/no, lists and words are given, then they become booleans, arrays and strings', () => {
