@@ -106,7 +106,7 @@ function betaRangeIssues(spec: Pick<Spec, 'betaRange' | 'device'>, label: Label)
 /** An offset target states what it limits: the offset, the drift, or both (the number of standard deviations alone checks nothing). */
 function offsetLimitIssues(spec: Pick<Spec, 'offset'>, label: Label): ValidationIssue[] {
   if (!spec.offset || spec.offset.maxV !== undefined || spec.offset.driftMaxVPerC !== undefined) return [];
-  return [{ path: '/offset', message: `must give ${label('/offset/maxV')}, ${label('/offset/driftMaxVPerC')} or both (leave the input offset out to check neither)` }];
+  return [{ path: '/offset/maxV', message: `is required unless ${label('/offset/driftMaxVPerC')} is given (leave the input offset out to check neither)` }];
 }
 
 /** The smallest resistance a resistor field allows, ohms (1 mΩ, as the schema's resistor fields). */

@@ -272,7 +272,7 @@ describe('validateSpec', () => {
     test('when a target is left out, then the spec has none (it is not checked) and no default stands in for it', () => {
       const result = validateSpec(MINIMAL_SPEC);
       expect(result.ok).toBe(true);
-      const value = result.ok ? (result.value as Record<string, unknown>) : {};
+      const value: object = result.ok ? result.value : {};
       for (const target of ['noise', 'inputBiasCurrentMaxA', 'offset', 'slewRateMinVPerS', 'bandwidthMinHz', 'psrrMinDb', 'linearInputRangeMinV', 'betaRange']) {
         expect(value).not.toHaveProperty(target);
       }
@@ -305,12 +305,12 @@ describe('validateSpec', () => {
       [
         'an offset target with neither limit',
         { offset: { sigmas: 3 } },
-        ['/offset: must give the largest offset, the largest drift or both (leave the input offset out to check neither)'],
+        ['/offset/maxV: is required unless the largest offset drift is given (leave the input offset out to check neither)'],
       ],
       [
         'an empty offset target',
         { offset: {} },
-        ['/offset: must give the largest offset, the largest drift or both (leave the input offset out to check neither)'],
+        ['/offset/maxV: is required unless the largest offset drift is given (leave the input offset out to check neither)'],
       ],
       ['a noise limit without its frequency', { noise: { maxVPerRtHz: 8e-9 } }, ['/noise/atFrequencyHz: is required']],
       ['a noise frequency without its limit', { noise: { atFrequencyHz: 1000 } }, ['/noise/maxVPerRtHz: is required']],
