@@ -88,7 +88,7 @@ describe('a spec with every optional target and corner', () => {
 describe('a spec with a half-stated target', () => {
   test.each([
     ['an offset target with only its sigmas', { offset: { sigmas: 4 } }, '/payload/offset/maxV', 'is required unless the largest offset drift is given (leave the input offset out to check neither)'],
-    ['a noise limit without its frequency', { noise: { maxVPerRtHz: 8e-9 } }, '/payload/noise/atFrequencyHz', 'is required'],
+    ['a noise limit without its frequency', { noise: { maxVPerRtHz: 8e-9 } }, '/payload/noise/atFrequencyHz', 'is required with the largest noise density (leave the input noise out to check no noise)'],
     ['a slew rate of zero', { slewRateMinVPerS: 0 }, '/payload/slewRateMinVPerS', 'must be > 0 V/s, got 0 V/s'],
     ['a current-gain spread above the nominal', { betaRange: { min: 200 } }, '/payload/betaRange/min', 'must be at most the current gain (beta) (180), got 200'],
   ])('when %s is sent, then 400 names the field and nothing is saved', async (_name, patch, path, message) => {

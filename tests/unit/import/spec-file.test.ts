@@ -121,7 +121,7 @@ describe('the optional targets and corners in CSV', () => {
 
   test('when a noise limit is given without its frequency, then the row is refused at the frequency column', () => {
     const row = onlyRow(`${REQUIRED_HEADER},noise.maxVPerRtHz\r\nTarn probe,15,-15,20,60,8n\r\n`);
-    expect(row.errors).toEqual([{ row: 2, field: 'noise.atFrequencyHz', message: 'is required' }]);
+    expect(row.errors).toEqual([{ row: 2, field: 'noise.atFrequencyHz', message: 'is required with the largest noise density (leave the input noise out to check no noise)' }]);
   });
 });
 

@@ -126,7 +126,7 @@ describe('SpecForm: optional targets and corners', () => {
     await typeInto(/^Largest noise density/, '8n');
     await save();
     const frequency = screen.getByLabelText(/^Noise frequency/);
-    await waitFor(() => expect(description(frequency)).toContain('is required'));
+    await waitFor(() => expect(description(frequency)).toContain('is required with the largest noise density'));
     expect(puts()).toHaveLength(0);
   });
 
