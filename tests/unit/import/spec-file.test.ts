@@ -102,7 +102,7 @@ describe('the optional targets and corners in CSV', () => {
     ['noise.maxVPerRtHz', '+8n', null],
     ['offset.maxV', '@SUM(1)', '"@SUM(1)" is not a number'],
   ])('when %s holds %j, then it is read as a number or refused, never evaluated', (column, cell, fragment) => {
-    const extra = column.startsWith('noise.') ? { 'noise.atFrequencyHz': '1k' } : {};
+    const extra: Record<string, string> = column.startsWith('noise.') ? { 'noise.atFrequencyHz': '1k' } : {};
     const values: Record<string, string> = { title: 'Tarn probe', 'supply.positiveV': '15', 'supply.negativeV': '-15', 'gain.target': '20', 'cmrr.minDb': '60', [column]: cell, ...extra };
     const names = [...REQUIRED_HEADER.split(','), column, ...Object.keys(extra)];
 
