@@ -5,7 +5,10 @@
  */
 import { snapToSeries } from '../units/e-series';
 import { formatQuantity } from '../units/format-quantity';
-import { solveCondition, type ConditionResult, type ConditionSolution } from './analyze';
+import { differentialBandwidthHzOf, solveCondition, solveStage, type ConditionResult, type ConditionSolution } from './analyze';
+import { currentWindow, pickCurrent, type CurrentBound, type CurrentWindow, type PickedCurrent, type SolvedAtCurrent } from './current-window';
+import { inputNoiseVPerRtHz, stageNoise } from './noise';
+import { solvedSlewRateVPerS } from './slew-rate';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
 import { unhandledTopology, type TailDesign, type TopologyId } from './topologies';
@@ -75,6 +78,17 @@ export type SizingStep =
       /** Reference-branch current per ampere of tail current (0: no reference branch). */
       referenceRatio: number;
     }
+  | {
+      step: 'tail-current-window';
+      /** Every bound of the window (current-window.ts), hand or calibrated on the solved circuit. */
+      bounds: CurrentBound[];
+      lower: CurrentBound | null;
+      upper: CurrentBound | null;
+      empty: boolean;
+      /** The current the option is sized at, and what set it. */
+      currentA: number;
+      setBy: PickedCurrent['setBy'];
+    }
   | { step: 'resistor-tail'; handOhm: number; resistanceOhm: number; series: ResistorSeries }
   | { step: 'mirror-reference'; stackedVbe: 1 | 2; handOhm: number; resistanceOhm: number; series: ResistorSeries }
   | { step: 'degeneration-emitters'; dropV: number; resistanceOhm: number }
@@ -96,6 +110,8 @@ export interface SizedOption {
   design: Design;
   /** How each value was chosen, in order. */
   steps: SizingStep[];
+  /** The tail-current window and the current picked in it; absent when the spec sets no target that bounds the current. */
+  window?: { window: CurrentWindow; pick: PickedCurrent };
 }
 
 /** The sized values of an option: what sizing chooses and every condition reuses. */
@@ -284,14 +300,55 @@ export function swingPeakPerCollectorV(spec: Spec): number {
   return spec.outputSwingVpp / (spec.gain.output === 'differential' ? 4 : 2);
 }
 
+/** Whether the spec sets a target that bounds the tail current (noise, slew rate, bandwidth, input bias current). */
+export function specBoundsCurrent(spec: Spec): boolean {
+  return (
+    (spec.noise?.maxVPerRtHz !== undefined && spec.noise.atFrequencyHz !== undefined) ||
+    spec.slewRateMinVPerS !== undefined ||
+    spec.bandwidthMinHz !== undefined ||
+    spec.inputBiasCurrentMaxA !== undefined
+  );
+}
+
+/** A current picked this close to the last (relative) needs no second sizing. */
+const REPICK_TOLERANCE = 0.02;
+
 /**
- * Sizes one topology for a spec: tail current, the pair's first values, the tail element, then
- * RC refined for the gain target with the sized tail, all on the spec's series.
+ * Sizes one topology for a spec: the tail current (the policy's share of the power budget, moved
+ * into the window the spec's targets set when it sets any: current-window.ts), the pair's first
+ * values, the tail element, then RC refined for the gain target with the sized tail, all on the
+ * spec's series. With a window, the option is solved once sized and the window recomputed from
+ * its figures; a current that moves by more than 2 % is sized again.
  */
 export function sizeTopology(spec: Spec, topology: TopologyId, nominal: Condition): SizedOption {
-  const current = targetTailCurrentA(spec, topology);
-  const tailA = current.currentA;
-  const steps: SizingStep[] = [current];
+  const preferred = targetTailCurrentA(spec, topology);
+  if (!specBoundsCurrent(spec)) return sizedAt(spec, topology, nominal, preferred.currentA, [preferred]);
+  const ratio = REFERENCE_RATIO[topology];
+  const handWindow = currentWindow(spec, ratio);
+  const handPick = pickCurrent(handWindow, preferred.currentA, spec.tailCurrentA);
+  let sized = sizedAt(spec, topology, nominal, handPick.currentA, []);
+  const window = currentWindow(spec, ratio, solvedAtCurrent(spec, sized.design));
+  const pick = pickCurrent(window, preferred.currentA, spec.tailCurrentA);
+  if (Math.abs(pick.currentA / handPick.currentA - 1) > REPICK_TOLERANCE) sized = sizedAt(spec, topology, nominal, pick.currentA, []);
+  const step: SizingStep = { step: 'tail-current-window', bounds: window.bounds, lower: window.lower, upper: window.upper, empty: window.empty, currentA: pick.currentA, setBy: pick.setBy };
+  return { design: sized.design, steps: [preferred, step, ...sized.steps], window: { window, pick } };
+}
+
+/** The figures of a sized design at nominal that calibrate the window: noise at the spec's frequency, slew rate, bandwidth and bias current, at its solved tail current. */
+function solvedAtCurrent(spec: Spec, design: Design): SolvedAtCurrent {
+  const solved = solveStage(design);
+  const noise = spec.noise?.atFrequencyHz !== undefined ? inputNoiseVPerRtHz(stageNoise(solved.op, solved.model, design.temperatureC ?? 27), solved.stage, spec.noise.atFrequencyHz) : null;
+  return {
+    currentA: solved.result.tailCurrentA,
+    noiseVPerRtHz: noise,
+    slewRateVPerS: spec.slewRateMinVPerS !== undefined ? solvedSlewRateVPerS(solved) : null,
+    bandwidthHz: spec.bandwidthMinHz !== undefined ? differentialBandwidthHzOf(solved.stage) : null,
+    inputBiasCurrentA: solved.result.inputBiasCurrentA,
+  };
+}
+
+/** Sizes the pair and the tail for a tail current (A), the steps so far before the sizing's own. */
+function sizedAt(spec: Spec, topology: TopologyId, nominal: Condition, tailA: number, steps: SizingStep[]): SizedOption {
   const model = deviceModel(spec.device, nominal.temperatureC);
   const pair = pairStart(spec, tailA, model.thermalVoltageV, steps);
   const tail = sizeTail(spec, topology, nominal, tailA, pair, steps);

@@ -8,6 +8,7 @@
 import type { InputWarning, OperatingPointProblem } from '../engine/analyze';
 import type { GainRemedy, MeasuredFacts, ProblemAt } from '../engine/option-evaluation';
 import type { SizingStep } from '../engine/sizing';
+import type { CurrentBound, WindowRequirement } from '../engine/current-window';
 import { MODEL_LIMITED_ABOVE_DB, type MismatchKind, type MismatchShares } from '../engine/mismatch';
 import type { OptionFacts, SelectionPolicy } from '../engine/types';
 import { formatQuantity } from '../units/format-quantity';
@@ -65,6 +66,42 @@ function hand(valueOhm: number): string {
   return valueOhm > 0 ? ` = ${ohms(valueOhm)}` : '';
 }
 
+/** The requirement that sets a bound of the tail-current window, or the picked current, in words. */
+export function windowRequirementText(requirement: WindowRequirement | 'preferred' | 'fixed'): string {
+  switch (requirement) {
+    case 'noise':
+      return 'the noise limit';
+    case 'noise-base-current':
+      return "the noise limit (the base current's noise in the source resistance)";
+    case 'slew-rate':
+      return 'the slew-rate target';
+    case 'bandwidth':
+      return 'the bandwidth target';
+    case 'power-budget':
+      return 'the power budget';
+    case 'input-bias-current':
+      return 'the input bias-current limit';
+    case 'preferred':
+      return "the policy's share of the power budget";
+    case 'fixed':
+      return 'the spec (a fixed tail current)';
+  }
+}
+
+/** A bound of the window: "≥ 640 µA for the noise limit (solved)". */
+function boundText(b: CurrentBound): string {
+  const value = Number.isFinite(b.currentA) ? amps(b.currentA) : 'no current';
+  return `${b.side === 'lower' ? '≥' : '≤'} ${value} for ${windowRequirementText(b.requirement)} (${b.basis === 'solved' ? 'hand formula scaled to the solved circuit' : 'hand formula'})`;
+}
+
+function tailCurrentWindowNote(s: Extract<SizingStep, { step: 'tail-current-window' }>): string {
+  const bounds = s.bounds.map(boundText).join('; ');
+  if (s.empty) {
+    return `No tail current meets every target: ${windowRequirementText(s.lower!.requirement)} needs ${amps(s.lower!.currentA)} or more, ${windowRequirementText(s.upper!.requirement)} allows ${amps(s.upper!.currentA)} at most (${bounds}); sized at ${amps(s.currentA)}, the ceiling.`;
+  }
+  return `Tail current ${amps(s.currentA)}, set by ${windowRequirementText(s.setBy)}, inside the window the targets allow (${bounds}).`;
+}
+
 /** One sentence on how a value was chosen. */
 export function sizingNote(s: SizingStep): string {
   switch (s.step) {
@@ -77,6 +114,8 @@ export function sizingNote(s: SizingStep): string {
       const split = s.referenceRatio > 0 ? `, shared with a reference branch of ${s.referenceRatio}× the tail current` : '';
       return `Tail current ${amps(s.currentA)}: ${why}${split}.`;
     }
+    case 'tail-current-window':
+      return tailCurrentWindowNote(s);
     case 'resistor-tail':
       return `RT ≈ (VICM − VBE − V−)/Itail${hand(s.handOhm)} at the mid input common mode, refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
     case 'mirror-reference':
