@@ -18,8 +18,10 @@
  * Itail = (vbase − VBE + 15 V)/15 kΩ, iterated to a fixed point.
  */
 import { describe, expect, test } from 'vitest';
-import { analyze, solveCondition } from '#shared/engine/analyze';
-import type { Design } from '#shared/engine/types';
+import { analyze, solveCircuit, solveCondition } from '#shared/engine/analyze';
+import { slewRun } from '#shared/engine/slew-rate';
+import type { Design, TailDesign, TopologyId } from '#shared/engine/types';
+import { NETLIST_TAILS, netlistDesign } from '../../helpers/netlist-designs';
 
 const VT_27C_V = (1.380649e-23 * 300.15) / 1.602176634e-19;
 const IS_A = 1e-15;
@@ -70,5 +72,56 @@ describe('slew rate against the handbook limits', () => {
   test('a condition\u2019s solve (corners, sweeps, sizing steps) runs no transient', () => {
     const { result } = solveCondition(design({ loadCapacitanceF: 1e-9 }));
     expect((result as { slewRateVPerS?: number | null }).slewRateVPerS ?? null).toBeNull();
+  });
+});
+
+/**
+ * Every run finishes, in a bounded number of steps. A step rejected just before the edge's end
+ * must come back shorter; the designs below (a tail capacitance makes the output's slope jump at
+ * the edge's end) once had it stretched back onto the breakpoint at every retry until the run
+ * gave up after 20,000 tries. A sound run takes under 200 steps; 400 is the bound held here.
+ */
+describe('the slew run finishes in a bounded number of steps', () => {
+  const STEP_BOUND = 400;
+
+  test('±4.8 V simple mirror, 2.4 kΩ loads with 20 pF, 4.7 pF on the tail', () => {
+    const design: Design = {
+      device: { family: 'npn', beta: 310, earlyVoltageV: 58, saturationCurrentA: 6.1e-15 },
+      supply: { positiveV: 4.8, negativeV: -4.8 },
+      collectorResistanceOhm: 2400,
+      tail: { topology: 'simple-mirror', referenceResistanceOhm: 18900 },
+      inputCommonModeV: 0.1,
+      temperatureC: 27,
+      tailCapacitanceF: 4.7e-12,
+      loadCapacitanceF: 20e-12,
+    };
+    const run = slewRun(solveCircuit(design));
+    expect(run.steps).toBeLessThan(STEP_BOUND);
+    expect(run.slewRateVPerS).toBeGreaterThan(0);
+  });
+
+  /** A tail's resistors scaled by `factor` (its current by about 1/factor). */
+  function scaledTail(tail: TailDesign, factor: number): TailDesign {
+    const scaled = { ...tail } as Record<string, unknown>;
+    for (const key of ['resistanceOhm', 'referenceResistanceOhm']) if (typeof scaled[key] === 'number') scaled[key] = (scaled[key] as number) * factor;
+    return scaled as unknown as TailDesign;
+  }
+
+  const GRID: [string, Design][] = (Object.keys(NETLIST_TAILS) as TopologyId[]).flatMap((topology) =>
+    [1e-12, 10e-12, 100e-12].flatMap((loadF) =>
+      [0.4, 1, 2.5].map((factor): [string, Design] => [
+        `${topology}, ${loadF * 1e12} pF, tail resistors ×${factor}`,
+        netlistDesign(topology, { tail: scaledTail(NETLIST_TAILS[topology], factor), collectorResistanceOhm: 6200 / factor, loadCapacitanceF: loadF, tailCapacitanceF: 4.7e-12 }),
+      ]),
+    ),
+  );
+
+  test(`${GRID.length} designs: every topology, loads 1–100 pF, tail currents 0.4–2.5× a sized one`, () => {
+    const slow: string[] = [];
+    for (const [title, design] of GRID) {
+      const run = slewRun(solveCircuit(design));
+      if (!(run.steps < STEP_BOUND && run.slewRateVPerS > 0)) slow.push(`${title}: ${run.steps} steps`);
+    }
+    expect(slow).toEqual([]);
   });
 });
