@@ -231,14 +231,18 @@ function storedCharges(ic: IndexedCircuit, model: DeviceModel, charges: ChargePa
 
 /**
  * Stamps a charge's current a0·q + history leaving `a` into `b`, linearised at the controlling
- * voltages x0: a0·Σ g·(x − x0) with g = ∂q/∂x for each (plus, minus) pair.
+ * voltages: a0·g·(x − x0) for x = v(a) − v(b) (g = ∂q/∂x at x0), plus a0·g2·(x2 − x2₀) for a
+ * second controlling pair when `g2F` ≠ 0 (positional, so Newton's inner loop allocates nothing).
  */
-function stampCharge(stamp: NodeStamp, a: NodeRef, b: NodeRef, a0: number, qC: number, historyA: number, parts: readonly [NodeRef, NodeRef, number, number][]): void {
+function stampCharge(stamp: NodeStamp, a: NodeRef, b: NodeRef, a0: number, qC: number, historyA: number, gF: number, x0V: number, plus2: NodeRef = a, minus2: NodeRef = b, g2F = 0, x20V = 0): void {
   let constantA = a0 * qC + historyA;
-  for (const [plus, minus, gF, x0V] of parts) {
-    if (gF === 0) continue;
-    stampControlled(stamp, a, b, plus, minus, a0 * gF);
+  if (gF !== 0) {
+    stampControlled(stamp, a, b, a, b, a0 * gF);
     constantA -= a0 * gF * x0V;
+  }
+  if (g2F !== 0) {
+    stampControlled(stamp, a, b, plus2, minus2, a0 * g2F);
+    constantA -= a0 * g2F * x20V;
   }
   if (a >= 0) stamp.rhs[a] -= constantA;
   if (b >= 0) stamp.rhs[b] += constantA;
@@ -274,7 +278,10 @@ function newtonAt(
     stamp.matrix.fill(0);
     stamp.rhs.fill(0);
     for (const r of ic.resistors) stampConductance(stamp, r.a, r.b, r.conductanceS);
-    ic.capacitors.forEach((cap, j) => stampCharge(stamp, cap.a, cap.b, a0, 0, historyA[j], [[cap.a, cap.b, cap.capacitanceF, 0]]));
+    for (let j = 0; j < ic.capacitors.length; j += 1) {
+      const cap = ic.capacitors[j];
+      stampCharge(stamp, cap.a, cap.b, a0, 0, historyA[j], cap.capacitanceF, 0);
+    }
     let limited = false;
     ic.transistors.forEach((q, i) => {
       const own = q.model ?? model;
@@ -292,12 +299,9 @@ function newtonAt(
       const held = transistorCharges(charges, ev, bias, q.area);
       const caps = transistorCapacitances(charges, ev, bias, q.area);
       const at = ic.capacitors.length + 3 * i;
-      stampCharge(stamp, q.bi, q.ei, a0, held.baseEmitterC, historyA[at], [
-        [q.bi, q.ei, caps.baseEmitterF, vbeV],
-        [q.bi, q.ci, caps.baseEmitterPerVbcF, vbcV],
-      ]);
-      stampCharge(stamp, q.bi, q.ci, a0, held.baseCollectorC, historyA[at + 1], [[q.bi, q.ci, caps.baseCollectorF, vbcV]]);
-      stampCharge(stamp, q.s, q.ci, a0, held.substrateC, historyA[at + 2], [[q.s, q.ci, caps.collectorSubstrateF, vsubV]]);
+      stampCharge(stamp, q.bi, q.ei, a0, held.baseEmitterC, historyA[at], caps.baseEmitterF, vbeV, q.bi, q.ci, caps.baseEmitterPerVbcF, vbcV);
+      stampCharge(stamp, q.bi, q.ci, a0, held.baseCollectorC, historyA[at + 1], caps.baseCollectorF, vbcV);
+      stampCharge(stamp, q.s, q.ci, a0, held.substrateC, historyA[at + 2], caps.collectorSubstrateF, vsubV);
     });
     let next: number[];
     try {
