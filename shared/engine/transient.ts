@@ -17,8 +17,12 @@
  * after a breakpoint) against the converged solution estimates the local truncation error
  * (Milne's device: LTE ≈ h/(t(n+1) − t(oldest)) · |corrected − predicted|); a step whose error on
  * any node exceeds the tolerance is redone shorter, and the next step grows by
- * (tolerance/error)^(1/3), at most doubling. Steps land exactly on the breakpoints; a step whose
- * Newton solve fails is redone an eighth as long.
+ * (tolerance/error)^(1/3), at most doubling. Steps land exactly on the breakpoints, never
+ * stretched to reach one (a breakpoint less than two steps off is reached in two equal halves),
+ * and the first step after one is a tenth of the one before, as SPICE restarts [SPICE] (ngspice
+ * dctran.c); a step whose Newton solve fails is redone an eighth as long. A run is given up
+ * (ConvergenceError) after 16 redone steps in a row at one point, a step under `minStepS` or the
+ * time's resolution, or `maxSteps` steps in all.
  */
 import type { DeviceModel } from './device';
 import { chargeParameters, transistorCapacitances, type ChargeParameters } from './junction-charges';
