@@ -54,7 +54,7 @@ export interface TradeoffTargets {
 
 export function tradeoffTargets(spec: Spec): TradeoffTargets {
   return {
-    noise: spec.noise !== undefined,
+    noise: spec.noise?.maxVPerRtHz !== undefined && spec.noise.atFrequencyHz !== undefined,
     inputBias: spec.inputBiasCurrentMaxA !== undefined,
     offset: spec.offset?.maxV !== undefined,
     drift: spec.offset?.driftMaxVPerC !== undefined,
@@ -117,7 +117,7 @@ export function tradeoffAtCondition(
     return differential ? differentialPsrrWorstCaseDb(stages!, rail, worst) : solution.result.psrrDb[rail].singleEnded;
   };
   let noiseVPerRtHz: number | null = null;
-  if (spec.noise) noiseVPerRtHz = inputNoiseVPerRtHz(stageNoise(solution.op, solution.model, temperatureC), solution.stage, spec.noise.atFrequencyHz);
+  if (targets.noise) noiseVPerRtHz = inputNoiseVPerRtHz(stageNoise(solution.op, solution.model, temperatureC), solution.stage, spec.noise!.atFrequencyHz!);
   return {
     label,
     inputBiasCurrentA: targets.inputBias ? solution.result.inputBiasCurrentA : null,
@@ -243,7 +243,7 @@ export function tradeoffFacts(spec: Spec, conditions: readonly TradeoffAtConditi
     noiseVPerRtHz: noise?.value ?? null,
     noiseMaxVPerRtHz: spec.noise?.maxVPerRtHz ?? null,
     noiseFrequencyHz: spec.noise?.atFrequencyHz ?? null,
-    noiseMarginVPerRtHz: noise ? spec.noise!.maxVPerRtHz - noise.value : null,
+    noiseMarginVPerRtHz: noise ? spec.noise!.maxVPerRtHz! - noise.value : null,
     noiseCorner: noise?.label ?? '',
     inputBiasTargetSet: targets.inputBias,
     inputBiasCurrentWorstA: bias?.value ?? null,

@@ -350,17 +350,17 @@ export interface Spec {
    */
   sourceResistanceOhm: number;
   /**
-   * Largest input-referred noise density allowed at one frequency; left out, the noise is not checked.
+   * Largest input-referred noise density allowed at one frequency; give both or leave both out (then the noise is not checked).
    */
   noise?: {
     /**
      * Largest input-referred voltage noise density, in volts per root hertz (V/√Hz); 8 nV/√Hz is 8e-9.
      */
-    maxVPerRtHz: number;
+    maxVPerRtHz?: number;
     /**
      * Frequency at which the noise density is checked, in hertz (Hz); datasheets commonly quote 1 kHz, above the flicker-noise corner.
      */
-    atFrequencyHz: number;
+    atFrequencyHz?: number;
   };
   /**
    * Largest DC current into each input (the mean of the two), in amperes (A), at every corner; left out, it is not checked.

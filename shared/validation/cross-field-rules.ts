@@ -20,6 +20,7 @@ export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
     ...deviceCardIssues(spec.device),
     ...betaRangeIssues(spec, label),
     ...offsetLimitIssues(spec, label),
+    ...noisePairIssues(spec, label),
   ];
   const { minV, maxV } = spec.inputCommonMode;
   if (minV > maxV) {
@@ -106,7 +107,19 @@ function betaRangeIssues(spec: Pick<Spec, 'betaRange' | 'device'>, label: Label)
 /** An offset target states what it limits: the offset, the drift, or both (the number of standard deviations alone checks nothing). */
 function offsetLimitIssues(spec: Pick<Spec, 'offset'>, label: Label): ValidationIssue[] {
   if (!spec.offset || spec.offset.maxV !== undefined || spec.offset.driftMaxVPerC !== undefined) return [];
-  return [{ path: '/offset', message: `must give ${label('/offset/maxV')}, ${label('/offset/driftMaxVPerC')} or both (leave the input offset out to check neither)` }];
+  return [{ path: '/offset/maxV', message: `is required unless ${label('/offset/driftMaxVPerC')} is given (leave the input offset out to check neither)` }];
+}
+
+/** A noise target is a density at a frequency: either one alone checks nothing. */
+function noisePairIssues(spec: Pick<Spec, 'noise'>, label: Label): ValidationIssue[] {
+  if (!spec.noise) return [];
+  const fields = ['maxVPerRtHz', 'atFrequencyHz'] as const;
+  return fields
+    .filter((field) => spec.noise?.[field] === undefined)
+    .map((field) => {
+      const other = fields.find((f) => f !== field)!;
+      return { path: `/noise/${field}`, message: `is required with ${label(`/noise/${other}`)} (leave the input noise out to check no noise)` };
+    });
 }
 
 /** The smallest resistance a resistor field allows, ohms (1 mΩ, as the schema's resistor fields). */

@@ -10,6 +10,7 @@ import { describe, expect, test } from 'vitest';
 import { cellText, SPEC_CSV_COLUMNS } from '#shared/import/spec-columns';
 import { detectFormat, readSpecFile, type SpecFileRow } from '#shared/import/spec-file';
 import { validateSpec } from '#shared/validate';
+import { FULL_SPEC } from '../schema/schema-fixtures';
 
 const REQUIRED_HEADER = 'title,supply.positiveV,supply.negativeV,gain.target,cmrr.minDb';
 
@@ -43,6 +44,85 @@ describe('a demo spec written as one CSV row', () => {
       expect(row.document).toEqual(expected.ok && expected.value);
     },
   );
+});
+
+describe('the optional targets and corners in CSV', () => {
+  const quote = (text: string) => (/[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text);
+
+  test('when a spec with every target and corner is written with every column and read back, then it is the same document', () => {
+    const valueAt = (path: readonly string[]) => path.reduce<unknown>((node, key) => (node as Record<string, unknown> | undefined)?.[key], FULL_SPEC);
+    const csv = `${SPEC_CSV_COLUMNS.map((c) => c.name).join(',')}\r\n${SPEC_CSV_COLUMNS.map((c) => quote(cellText(valueAt(c.path)))).join(',')}\r\n`;
+
+    const row = onlyRow(csv);
+
+    expect(row.errors).toEqual([]);
+    expect(row.document).toEqual(FULL_SPEC);
+  });
+
+  test('when the targets are written as a datasheet quotes them, then each is read in SI', () => {
+    const cells: Record<string, string> = {
+      'noise.maxVPerRtHz': '8 nV/√Hz',
+      'noise.atFrequencyHz': '1 kHz',
+      inputBiasCurrentMaxA: '3 µA',
+      'offset.maxV': '2 mV',
+      'offset.driftMaxVPerC': '5 µV/°C',
+      slewRateMinVPerS: '2 V/µs',
+      bandwidthMinHz: '1 MHz',
+      'psrrMinDb.positive': '60 dB',
+      linearInputRangeMinV: '20m',
+      loadCapacitanceF: '20 pF',
+      'supplyTolerance.negativePercent': '10 %',
+      'betaRange.min': '80',
+      'resistors.tempcoPpmPerC': '50 ppm/°C',
+    };
+    const names = [...REQUIRED_HEADER.split(','), ...Object.keys(cells)];
+    const values: Record<string, string> = { title: 'Tarn probe', 'supply.positiveV': '15', 'supply.negativeV': '-15', 'gain.target': '20', 'cmrr.minDb': '60', ...cells };
+
+    const row = onlyRow(`${names.join(',')}\r\n${names.map((n) => quote(values[n])).join(',')}\r\n`);
+
+    expect(row.errors).toEqual([]);
+    const document = row.document!;
+    // n = 1e-9, k = 1e3, µ = 1e-6, m = 1e-3, M = 1e6, p = 1e-12 [SI]; 1 V/µs = 1e6 V/s
+    expect(document.noise?.maxVPerRtHz).toBeCloseTo(8e-9, 21);
+    expect(document.noise?.atFrequencyHz).toBe(1000);
+    expect(document.inputBiasCurrentMaxA).toBeCloseTo(3e-6, 18);
+    expect(document.offset).toEqual({ maxV: 2e-3, driftMaxVPerC: 5e-6, sigmas: 3 });
+    expect(document.slewRateMinVPerS).toBe(2e6);
+    expect(document.bandwidthMinHz).toBe(1e6);
+    expect(document.psrrMinDb).toEqual({ positive: 60 });
+    expect(document.linearInputRangeMinV).toBe(0.02);
+    expect(document.loadCapacitanceF).toBeCloseTo(20e-12, 24);
+    expect(document.supplyTolerance).toEqual({ positivePercent: 5, negativePercent: 10 });
+    expect(document.betaRange).toEqual({ min: 80 });
+    expect(document.resistors.tempcoPpmPerC).toBe(50);
+  });
+
+  test.each([
+    ['slewRateMinVPerS', '=2*1E6', '"=2*1E6" is not a number'],
+    ['noise.maxVPerRtHz', '+8n', null],
+    ['offset.maxV', '@SUM(1)', '"@SUM(1)" is not a number'],
+  ])('when %s holds %j, then it is read as a number or refused, never evaluated', (column, cell, fragment) => {
+    const extra: Record<string, string> = column.startsWith('noise.') ? { 'noise.atFrequencyHz': '1k' } : {};
+    const values: Record<string, string> = { title: 'Tarn probe', 'supply.positiveV': '15', 'supply.negativeV': '-15', 'gain.target': '20', 'cmrr.minDb': '60', [column]: cell, ...extra };
+    const names = [...REQUIRED_HEADER.split(','), column, ...Object.keys(extra)];
+
+    const row = onlyRow(`${names.join(',')}\r\n${names.map((n) => quote(values[n])).join(',')}\r\n`);
+
+    if (fragment === null) {
+      expect(row.errors).toEqual([]);
+      expect(row.document?.noise?.maxVPerRtHz).toBeCloseTo(8e-9, 21);
+    } else {
+      expect(row.document).toBeNull();
+      expect(row.errors).toHaveLength(1);
+      expect(row.errors[0].field).toBe(column);
+      expect(row.errors[0].message).toContain(fragment);
+    }
+  });
+
+  test('when a noise limit is given without its frequency, then the row is refused at the frequency column', () => {
+    const row = onlyRow(`${REQUIRED_HEADER},noise.maxVPerRtHz\r\nTarn probe,15,-15,20,60,8n\r\n`);
+    expect(row.errors).toEqual([{ row: 2, field: 'noise.atFrequencyHz', message: 'is required with the largest noise density (leave the input noise out to check no noise)' }]);
+  });
 });
 
 describe('cells in engineering notation, in the column’s unit', () => {
@@ -91,12 +171,12 @@ describe('cells in engineering notation, in the column’s unit', () => {
   test('when an older file gives resistors.tolerance as a fraction, then it is read into the tolerance in per cent', () => {
     const row = onlyRow(`${REQUIRED_HEADER},resistors.tolerance\r\nTarn probe,15,-15,20,60,0.05\r\n`);
     expect(row.errors).toEqual([]);
-    expect((row.document as { resistors: unknown }).resistors).toEqual({ series: 'E96', tolerancePercent: 5 });
+    expect((row.document as { resistors: unknown }).resistors).toEqual({ series: 'E96', tolerancePercent: 5, tempcoPpmPerC: 100 });
   });
 
   test('when the tolerance is given in per cent, "1 %" reads as 1 %', () => {
     const row = onlyRow(`${REQUIRED_HEADER},resistors.tolerancePercent\r\nTarn probe,15,-15,20,60,0.5 %\r\n`);
-    expect((row.document as { resistors: unknown }).resistors).toEqual({ series: 'E96', tolerancePercent: 0.5 });
+    expect((row.document as { resistors: unknown }).resistors).toEqual({ series: 'E96', tolerancePercent: 0.5, tempcoPpmPerC: 100 });
   });
 
   test('when yes/no, lists and words are given, then they become booleans, arrays and strings', () => {

@@ -28,6 +28,15 @@ const RESISTOR_TAIL: Partial<OptionFacts> = { topology: 'resistor', isResistorTa
 
 /** One row per rule file. `context` makes the rule apply (its not-applicable side passes whatever the margin). */
 const BOUNDARIES: Record<string, Boundary> = {
+  bandwidth: { kind: 'margin', fact: 'bandwidthMarginHz', unit: 'Hz' },
+  'input-bias-current': { kind: 'margin', fact: 'inputBiasCurrentMarginA', unit: 'A' },
+  'input-noise': { kind: 'margin', fact: 'noiseMarginVPerRtHz', unit: 'V/√Hz' },
+  'input-offset': { kind: 'margin', fact: 'offsetMarginV', unit: 'V' },
+  'linear-input-range': { kind: 'margin', fact: 'linearInputRangeMarginV', unit: 'V' },
+  'offset-drift': { kind: 'margin', fact: 'offsetDriftMarginVPerC', unit: 'V/°C' },
+  'psrr-negative': { kind: 'margin', fact: 'psrrNegativeMarginDb', unit: 'dB' },
+  'psrr-positive': { kind: 'margin', fact: 'psrrPositiveMarginDb', unit: 'dB' },
+  'slew-rate': { kind: 'margin', fact: 'slewRateMarginVPerS', unit: 'V/s' },
   'cmrr-differential-worst-case': { kind: 'margin', fact: 'cmrrDifferentialWorstCaseMarginDb', unit: 'dB', context: DIFFERENTIAL },
   'cmrr-target': { kind: 'margin', fact: 'outputCmrrMarginDb', unit: 'dB' },
   'cmrr-yield': { kind: 'margin', fact: 'yieldMarginPercent', unit: '%', context: DIFFERENTIAL },

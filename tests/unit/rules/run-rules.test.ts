@@ -8,6 +8,7 @@ import type { OptionFacts } from '#shared/engine/types';
 import { makeOptionFacts } from '../../helpers/option-facts';
 
 const RULE_NAMES = [
+  'bandwidth',
   'cmrr-differential-worst-case',
   'cmrr-target',
   'cmrr-yield',
@@ -15,15 +16,23 @@ const RULE_NAMES = [
   'gain-tolerance',
   'gain-vs-common-mode',
   'hazardous-voltage',
+  'input-bias-current',
   'input-common-mode-high',
   'input-common-mode-low',
+  'input-noise',
+  'input-offset',
+  'linear-input-range',
   'mains-referenced',
+  'offset-drift',
   'operating-point',
   'output-common-mode',
   'output-swing',
   'output-swing-compression',
   'patient-connected',
   'power-budget',
+  'psrr-negative',
+  'psrr-positive',
+  'slew-rate',
   'tail-current-drift',
 ];
 
@@ -279,7 +288,7 @@ describe('createRuleSet', () => {
   });
 
   test('when two rules share a name, then it throws', () => {
-    expect(() => createRuleSet([realRules[0], realRules[0]])).toThrow(/Duplicate rule name "cmrr-differential-worst-case"/);
+    expect(() => createRuleSet([realRules[0], realRules[0]])).toThrow(/Duplicate rule name "bandwidth"/);
   });
 
   test('when a rule passed in directly is invalid, then it throws naming the rule', () => {

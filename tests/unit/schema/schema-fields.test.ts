@@ -99,7 +99,7 @@ describe('spec schema against the Spec type', () => {
     expect(SPEC_SCHEMA.required).toEqual(['title', 'supply', 'gain', 'cmrr']);
   });
 
-  test('every field has a default except what the user must state, the two optional overrides and the library record', () => {
+  test('every field has a default except what the user must state, the two optional overrides, the library record, the optional targets and the current-gain spread', () => {
     const withoutDefault = properties(SPEC_SCHEMA as Node)
       .filter(([, node]) => node.default === undefined)
       .map(([pointer]) => pointer);
@@ -120,6 +120,24 @@ describe('spec schema against the Spec type', () => {
         '/deviceModel', // absent means "the device values were typed in"
         '/deviceModel/name',
         '/deviceModel/checksum',
+        // Targets: absent means "not checked"
+        '/noise',
+        '/noise/maxVPerRtHz',
+        '/noise/atFrequencyHz',
+        '/inputBiasCurrentMaxA',
+        '/offset',
+        '/offset/maxV',
+        '/offset/driftMaxVPerC',
+        '/slewRateMinVPerS',
+        '/bandwidthMinHz',
+        '/psrrMinDb',
+        '/psrrMinDb/positive',
+        '/psrrMinDb/negative',
+        '/linearInputRangeMinV',
+        // absent means half and twice the nominal current gain (relative, so no fixed default)
+        '/betaRange',
+        '/betaRange/min',
+        '/betaRange/max',
       ].sort(),
     );
   });

@@ -20,7 +20,7 @@ export const FULL_SPEC: Spec = {
     earlyVoltageMismatchSigma: 0.08,
   },
   deviceModel: { name: 'QX-150', checksum: 'a'.repeat(64) },
-  betaRange: { min: 90, max: 320 },
+  betaRange: { min: 10, max: 2000 }, // the widest spread the nominal's own bounds allow, so any nominal fits
   supply: { positiveV: 15, negativeV: -15 },
   supplyTolerance: { positivePercent: 2, negativePercent: 10 },
   gain: { target: 50, tolerancePercent: 5, output: 'single-ended' },

@@ -50,7 +50,7 @@ describe('upgradeSpecDocument', () => {
 
   test('validateSpec reads the older form and reports a clash at the older field', () => {
     const upgraded = validateSpec({ ...MINIMAL_SPEC, resistors: { series: 'E24', tolerance: 0.05 } });
-    expect(upgraded.ok && upgraded.value.resistors).toEqual({ series: 'E24', tolerancePercent: 5 });
+    expect(upgraded.ok && upgraded.value.resistors).toEqual({ series: 'E24', tolerancePercent: 5, tempcoPpmPerC: 100 });
     expect(printed(validateSpec({ ...MINIMAL_SPEC, resistors: { tolerance: 'x' } }))).toEqual([
       '/resistors/tolerance: must be a number, a fraction (0.01 for ±1 %); better give the resistor tolerance in per cent',
     ]);

@@ -24,8 +24,11 @@ describe('validateSpec', () => {
         // 4 % compression at the peak ≈ 1 % third harmonic (a cubic: HD3 = compression/4)
         outputSwingMaxCompressionPercent: 4,
         powerBudgetW: 1,
+        // ±5 % on each rail: a regulated rail's usual tolerance (common practice)
+        supplyTolerance: { positivePercent: 5, negativePercent: 5 },
         temperatureC: { min: 0, max: 70 },
-        resistors: { series: 'E96', tolerancePercent: 1 }, // E96 is the ±1 % series (common practice)
+        // E96 is the ±1 % series; ±100 ppm/°C is usual for 1 % thick- and metal-film parts (common practice)
+        resistors: { series: 'E96', tolerancePercent: 1, tempcoPpmPerC: 100 },
         tailCapacitanceF: 0,
         loadCapacitanceF: 0,
         sourceResistanceOhm: 0,
@@ -139,6 +142,53 @@ describe('validateSpec', () => {
     ['/monteCarlo/seed', -1, '/monteCarlo/seed'],
     ['/monteCarlo/seed', 1.5, '/monteCarlo/seed'],
     ['/title', '', '/title'],
+    ['/noise/maxVPerRtHz', 0, '/noise/maxVPerRtHz'],
+    ['/noise/maxVPerRtHz', 1e-3, null],
+    ['/noise/maxVPerRtHz', 2e-3, '/noise/maxVPerRtHz'],
+    ['/noise/atFrequencyHz', 0, '/noise/atFrequencyHz'],
+    ['/noise/atFrequencyHz', 1e9, null],
+    ['/noise/atFrequencyHz', 2e9, '/noise/atFrequencyHz'],
+    ['/inputBiasCurrentMaxA', 0, '/inputBiasCurrentMaxA'],
+    ['/inputBiasCurrentMaxA', 0.1, null],
+    ['/inputBiasCurrentMaxA', 0.2, '/inputBiasCurrentMaxA'],
+    ['/offset/maxV', 0, '/offset/maxV'],
+    ['/offset/maxV', 1, null],
+    ['/offset/maxV', 1.5, '/offset/maxV'],
+    ['/offset/driftMaxVPerC', 0, '/offset/driftMaxVPerC'],
+    ['/offset/driftMaxVPerC', 0.01, null],
+    ['/offset/driftMaxVPerC', 0.02, '/offset/driftMaxVPerC'],
+    ['/offset/sigmas', 1, null],
+    ['/offset/sigmas', 0.5, '/offset/sigmas'],
+    ['/offset/sigmas', 6, null],
+    ['/offset/sigmas', 7, '/offset/sigmas'],
+    ['/slewRateMinVPerS', 0, '/slewRateMinVPerS'],
+    ['/slewRateMinVPerS', 1e12, null],
+    ['/slewRateMinVPerS', 2e12, '/slewRateMinVPerS'],
+    ['/bandwidthMinHz', 0, '/bandwidthMinHz'],
+    ['/bandwidthMinHz', 1e10, null],
+    ['/bandwidthMinHz', 2e10, '/bandwidthMinHz'],
+    ['/psrrMinDb/positive', 0, null],
+    ['/psrrMinDb/positive', -1, '/psrrMinDb/positive'],
+    ['/psrrMinDb/negative', 200, null],
+    ['/psrrMinDb/negative', 201, '/psrrMinDb/negative'],
+    ['/psrrMinDb', {}, null],
+    ['/psrrMinDb', { positive: 60 }, null],
+    ['/psrrMinDb', { zero: 60 }, '/psrrMinDb/zero'],
+    ['/linearInputRangeMinV', 0, '/linearInputRangeMinV'],
+    ['/linearInputRangeMinV', 100, null],
+    ['/linearInputRangeMinV', 101, '/linearInputRangeMinV'],
+    ['/supplyTolerance/positivePercent', 0, null],
+    ['/supplyTolerance/positivePercent', -1, '/supplyTolerance/positivePercent'],
+    ['/supplyTolerance/negativePercent', 50, null],
+    ['/supplyTolerance/negativePercent', 51, '/supplyTolerance/negativePercent'],
+    ['/betaRange/min', 1, null],
+    ['/betaRange/min', 0.5, '/betaRange/min'],
+    ['/betaRange/max', 10000, null],
+    ['/betaRange/max', 10001, '/betaRange/max'],
+    ['/resistors/tempcoPpmPerC', 0, null],
+    ['/resistors/tempcoPpmPerC', -25, '/resistors/tempcoPpmPerC'],
+    ['/resistors/tempcoPpmPerC', 5000, null],
+    ['/resistors/tempcoPpmPerC', 5001, '/resistors/tempcoPpmPerC'],
   ])('%s = %j: issue at %s', (pointer, value, expectedPath) => {
     const result = validateSpec(withField(FULL_SPEC, pointer, value));
     expect(paths(result)).toEqual(expectedPath === null ? [] : [expectedPath]);
@@ -167,6 +217,12 @@ describe('validateSpec', () => {
     ['/resistors/tolerancePercent', 30, '/resistors/tolerancePercent: must be <= 20 %, got 30 %'],
     ['/gain/output', 'both', '/gain/output: must be one of differential, single-ended, got "both"'],
     ['/device/family', 'pnp', '/device/family: must be "npn", got "pnp"'],
+    ['/noise/maxVPerRtHz', 0, '/noise/maxVPerRtHz: must be > 0 V/√Hz, got 0 V/√Hz'],
+    ['/offset/driftMaxVPerC', 0.02, '/offset/driftMaxVPerC: must be <= 0.01 V/°C, got 0.02 V/°C'],
+    ['/slewRateMinVPerS', -1, '/slewRateMinVPerS: must be > 0 V/s, got -1 V/s'],
+    ['/psrrMinDb/negative', 201, '/psrrMinDb/negative: must be <= 200 dB, got 201 dB'],
+    ['/resistors/tempcoPpmPerC', 5001, '/resistors/tempcoPpmPerC: must be <= 5000 ppm/°C, got 5001 ppm/°C'],
+    ['/supplyTolerance/positivePercent', 60, '/supplyTolerance/positivePercent: must be <= 50 %, got 60 %'],
   ])('range message for %s = %j names the limit and unit', (pointer, value, expected) => {
     expect(printed(validateSpec(withField(FULL_SPEC, pointer, value)))).toEqual([expected]);
   });
@@ -210,6 +266,72 @@ describe('validateSpec', () => {
     ],
   ])('%s', (_name, patch, expected) => {
     expect(printed(validateSpec({ ...MINIMAL_SPEC, ...patch }))).toEqual(expected);
+  });
+
+  describe('optional targets and corners', () => {
+    test('when a target is left out, then the spec has none (it is not checked) and no default stands in for it', () => {
+      const result = validateSpec(MINIMAL_SPEC);
+      expect(result.ok).toBe(true);
+      const value: object = result.ok ? result.value : {};
+      for (const target of ['noise', 'inputBiasCurrentMaxA', 'offset', 'slewRateMinVPerS', 'bandwidthMinHz', 'psrrMinDb', 'linearInputRangeMinV', 'betaRange']) {
+        expect(value).not.toHaveProperty(target);
+      }
+    });
+
+    test('when every target is given, then each is kept as written', () => {
+      const targets = {
+        noise: { maxVPerRtHz: 8e-9, atFrequencyHz: 1000 },
+        inputBiasCurrentMaxA: 3e-6,
+        offset: { maxV: 0.002, driftMaxVPerC: 5e-6, sigmas: 4 },
+        slewRateMinVPerS: 2e6,
+        bandwidthMinHz: 1e6,
+        psrrMinDb: { positive: 60, negative: 55 },
+        linearInputRangeMinV: 0.02,
+        betaRange: { min: 50, max: 300 },
+      };
+      const result = validateSpec({ ...MINIMAL_SPEC, ...targets });
+      expect(result.ok && result.value).toMatchObject(targets);
+    });
+
+    test.each([
+      ['the largest offset only', { maxV: 0.001 }],
+      ['the largest drift only', { driftMaxVPerC: 2e-6 }],
+    ])('when the offset target gives %s, then the standard deviations default to 3 (about 99.7 %% of a normal distribution)', (_name, offset) => {
+      const result = validateSpec({ ...MINIMAL_SPEC, offset });
+      expect(result.ok && result.value.offset).toEqual({ ...offset, sigmas: 3 });
+    });
+
+    test.each([
+      [
+        'an offset target with neither limit',
+        { offset: { sigmas: 3 } },
+        ['/offset/maxV: is required unless the largest offset drift is given (leave the input offset out to check neither)'],
+      ],
+      [
+        'an empty offset target',
+        { offset: {} },
+        ['/offset/maxV: is required unless the largest offset drift is given (leave the input offset out to check neither)'],
+      ],
+      ['a noise limit without its frequency', { noise: { maxVPerRtHz: 8e-9 } }, ['/noise/atFrequencyHz: is required with the largest noise density (leave the input noise out to check no noise)']],
+      ['a noise frequency without its limit', { noise: { atFrequencyHz: 1000 } }, ['/noise/maxVPerRtHz: is required with the noise frequency (leave the input noise out to check no noise)']],
+      ['an empty noise target', { noise: {} }, ['/noise/maxVPerRtHz: is required with the noise frequency (leave the input noise out to check no noise)', '/noise/atFrequencyHz: is required with the largest noise density (leave the input noise out to check no noise)']],
+      ['a spread whose lowest is above its highest', { betaRange: { min: 300, max: 200 } }, ['/betaRange/min: must be at most the highest current gain (200), got 300']],
+      ['a spread above the nominal current gain', { betaRange: { min: 120 } }, ['/betaRange/min: must be at most the current gain (beta) (100), got 120']],
+      ['a spread below the nominal current gain', { betaRange: { max: 80 } }, ['/betaRange/max: must be at least the current gain (beta) (100), got 80']],
+    ])('%s is refused, naming the field', (_name, patch, expected) => {
+      expect(printed(validateSpec({ ...MINIMAL_SPEC, ...patch }))).toEqual(expected);
+    });
+
+    test('when the spread is given with a model card, then the nominal it must hold is the card’s BF', () => {
+      const withCard = { ...MINIMAL_SPEC, device: { model: { BF: 400 } } };
+      expect(printed(validateSpec({ ...withCard, betaRange: { min: 200, max: 800 } }))).toEqual([]);
+      expect(printed(validateSpec({ ...withCard, betaRange: { max: 300 } }))).toEqual(['/betaRange/max: must be at least the current gain (beta) (400), got 300']);
+    });
+
+    test('when the supply tolerance gives one rail, then the other takes its default', () => {
+      const result = validateSpec({ ...MINIMAL_SPEC, supplyTolerance: { negativePercent: 10 } });
+      expect(result.ok && result.value.supplyTolerance).toEqual({ positivePercent: 5, negativePercent: 10 });
+    });
   });
 
   test('collects every cross-field issue, not just the first', () => {

@@ -175,7 +175,19 @@ describe('the spellings the forms accept', () => {
       ['°C', '°C', ['℃', 'degC'], false],
       ['V/V', 'V/V', [], false],
       ['A/A', 'A/A', [], false],
+      ['V/√Hz', 'V/√Hz', ['V/rtHz', 'V/sqrtHz', 'V/sqrt(Hz)', 'V/√(Hz)', 'V/Hz^0.5'], true],
+      ['V/°C', 'V/°C', ['V/℃', 'V/degC', 'V/C', 'V/K'], true],
+      ['V/s', 'V/s', [], true],
+      ['ppm/°C', 'ppm/°C', ['ppm/℃', 'ppm/degC', 'ppm/C', 'ppm/K'], false],
       ['1', '', [], false],
+    ]);
+    // A rate per millisecond, microsecond or nanosecond is 1e3, 1e6 or 1e9 per second [SI]
+    expect(unitSymbolFor('V/s').scaledSpellings?.map((s) => [s.spelling, s.exponent])).toEqual([
+      ['V/ms', 3],
+      ['V/µs', 6],
+      ['V/μs', 6],
+      ['V/us', 6],
+      ['V/ns', 9],
     ]);
     // U+2126 OHM SIGN is canonically equivalent to U+03A9 GREEK CAPITAL LETTER OMEGA (Unicode NFC)
     expect('\u2126'.normalize('NFC')).toBe('\u03a9');

@@ -64,6 +64,25 @@ describe('parseQuantity: what engineers type', () => {
     ['  42  ', undefined, 42],
     ['0', 'V', 0],
     ['-0', 'V', 0],
+    // The spec's targets as datasheets quote them: noise density, slew rate (per µs), drift, tempco
+    ['8 nV/√Hz', 'V/√Hz', 8e-9],
+    ['8nV/rtHz', 'V/√Hz', 8e-9],
+    ['8 nv/RTHZ', 'V/√Hz', 8e-9],
+    ['3.5n', 'V/√Hz', 3.5e-9],
+    ['2 V/µs', 'V/s', 2e6],
+    ['2V/us', 'V/s', 2e6],
+    ['0.5 V/ns', 'V/s', 5e8],
+    ['500 V/ms', 'V/s', 5e5],
+    ['2 MV/s', 'V/s', 2e6],
+    ['2M', 'V/s', 2e6],
+    ['1k5 V/µs', 'V/s', 1.5e9],
+    ['5 µV/°C', 'V/°C', 5e-6],
+    ['5uV/C', 'V/°C', 5e-6],
+    ['0.5 µV/K', 'V/°C', 5e-7],
+    ['100 ppm/°C', 'ppm/°C', 100],
+    ['25 ppm/K', 'ppm/°C', 25],
+    ['20 pF', 'F', 20e-12],
+    ['3 µA', 'A', 3e-6],
   ])('"%s" (unit %s) is %d', (text, unit, expected) => {
     const result = parseQuantity(text, unit);
     expect(result.ok).toBe(true);
@@ -97,6 +116,10 @@ describe('parseQuantity: what engineers type', () => {
     ['4R7', 'V', 'unexpected unit'],
     ['4.7 Pf', 'F', 'unexpected unit "Pf"'], // P would be peta, which no field takes: not guessed
     ['60 mw', 'V', 'unexpected unit "mw": expected V'],
+    ['100 kppm/°C', 'ppm/°C', 'ppm/°C takes no prefix'],
+    ['2 V/µs', 'V', 'unexpected unit "V/µs": expected V'], // a per-µs spelling belongs to V/s only
+    ['2 V/µs', 'V/°C', 'unexpected unit "V/µs"'],
+    ['8 nV/Hz', 'V/√Hz', 'unexpected unit "nV/Hz"'], // per hertz is not per root hertz
   ])('"%s" (unit %s) is rejected: %s', (text, unit, fragment) => {
     const result = parseQuantity(text, unit);
     expect(result.ok).toBe(false);

@@ -45,3 +45,35 @@ describe('readableChanges', () => {
     expect(row).toMatchObject({ label: 'Output & power › Tail current', kind: 'removed', before: '1.5 mA', after: 'not set' });
   });
 });
+
+describe('readableChanges of the optional targets and corners', () => {
+  const v1 = {
+    title: 'A',
+    noise: { maxVPerRtHz: 8e-9, atFrequencyHz: 1000 },
+    offset: { driftMaxVPerC: 5e-6, sigmas: 3 },
+    supplyTolerance: { positivePercent: 5, negativePercent: 5 },
+    resistors: { series: 'E96', tolerancePercent: 1, tempcoPpmPerC: 100 },
+  };
+  const v2 = {
+    title: 'A',
+    noise: { maxVPerRtHz: 6e-9, atFrequencyHz: 1000 },
+    offset: { driftMaxVPerC: 5e-6, sigmas: 3 },
+    slewRateMinVPerS: 2e6,
+    psrrMinDb: { negative: 55 },
+    supplyTolerance: { positivePercent: 5, negativePercent: 10 },
+    betaRange: { min: 80 },
+    resistors: { series: 'E96', tolerancePercent: 1, tempcoPpmPerC: 25 },
+  };
+
+  test('each reads with its card, its title and its unit, in the order of the form', () => {
+    expect(readableChanges(specSchema, diffJson(v1, v2), v1, v2)).toEqual([
+      { path: '/supplyTolerance/negativePercent', label: 'Supply › Tolerance of the negative rail', kind: 'changed', before: '5 %', after: '10 %' },
+      { path: '/psrrMinDb/negative', label: 'Rejection › PSRR of the negative rail', kind: 'added', before: 'not set', after: '55 dB' },
+      { path: '/noise/maxVPerRtHz', label: 'Input › Largest noise density', kind: 'changed', before: '8 nV/√Hz', after: '6 nV/√Hz' },
+      // 2 V/µs is 2 MV/s [SI]
+      { path: '/slewRateMinVPerS', label: 'Speed › Lowest slew rate', kind: 'added', before: 'not set', after: '2 MV/s' },
+      { path: '/betaRange/min', label: 'Device › Lowest current gain', kind: 'added', before: 'not set', after: '80 A/A' },
+      { path: '/resistors/tempcoPpmPerC', label: 'Resistors › Temperature coefficient', kind: 'changed', before: '100 ppm/°C', after: '25 ppm/°C' },
+    ]);
+  });
+});

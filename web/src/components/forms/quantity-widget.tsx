@@ -80,7 +80,7 @@ export function QuantityWidget(props: WidgetProps) {
         {symbol && (
           <span
             id={unitId}
-            className="flex min-w-9 items-center justify-center rounded-r-md border border-l-0 border-rule bg-paper px-2 text-xs text-ink-soft dark:border-night-rule dark:bg-night-sheet dark:text-night-ink-soft"
+            className="flex min-w-9 shrink-0 items-center justify-center whitespace-nowrap rounded-r-md border border-l-0 border-rule bg-paper px-2 text-xs text-ink-soft dark:border-night-rule dark:bg-night-sheet dark:text-night-ink-soft"
           >
             {symbol}
           </span>

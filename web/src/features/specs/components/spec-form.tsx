@@ -17,6 +17,7 @@ import { specSchemaQuery } from '../api/spec-queries';
 import { useDeviceLibrary } from '../hooks/use-device-library';
 import { refOf, withDeviceChoice, withoutEmptyCard, type DeviceChoiceContext } from '../lib/device-choice';
 import { errorCount, withoutEditedFieldErrors } from '../lib/edited-errors';
+import { withoutUnsetGroups } from '../lib/optional-groups';
 import type { SchemaNode } from '../lib/schema-nodes';
 import { serverErrorsToErrorSchema } from '../lib/server-errors';
 import { specChecks, withoutUnreadableFieldErrors } from '../lib/spec-checks';
@@ -135,7 +136,8 @@ function SpecFormBody({
 
   const onChange = (event: IChangeEvent<SpecDraft>) => {
     // A card chosen from the device library fills the device; editing its values drops the choice
-    const next = withDeviceChoice(latest.current, event.formData ?? {}, deviceLibrary?.items);
+    // An optional target emptied again (or never filled beyond its defaults) is no target
+    const next = withoutUnsetGroups(withDeviceChoice(latest.current, event.formData ?? {}, deviceLibrary?.items));
     const remaining = withoutEditedFieldErrors(serverErrors, latest.current, next);
     setServerErrors(remaining);
     if (problem?.kind === 'client' || (problem?.kind === 'server' && errorCount(remaining) === 0)) setProblem(null);
@@ -155,7 +157,7 @@ function SpecFormBody({
     setProblem(null);
     setServerErrors({});
     try {
-      await onSave(withoutEmptyCard(event.formData ?? {}));
+      await onSave(withoutUnsetGroups(withoutEmptyCard(event.formData ?? {})));
     } catch (error) {
       if (error instanceof ApiError && error.details.length > 0) {
         const errors = serverErrorsToErrorSchema(error.details, schema as SchemaNode);

@@ -1,13 +1,16 @@
 /**
  * Checks the form adds to the schema's: text a quantity field cannot read (the form must not
- * submit it), and the server's cross-field rules (rails in order, input range inside the rails),
- * placed on the same fields as the server places them.
+ * submit it), and the server's cross-field rules (rails in order, input range inside the rails,
+ * the current-gain spread around the nominal, an offset target with a limit), placed on the same
+ * fields as the server places them, on the document the form would save (unset optional groups
+ * left out).
  */
 import type { FormValidation, RJSFValidationError } from '@rjsf/utils';
 import type { Spec as SpecDocument } from '#shared/engine/types';
 import { specCrossFieldIssues } from '#shared/validation/cross-field-rules';
 import { pointerSegments } from './schema-nodes';
 import { withoutEmptyCard } from './device-choice';
+import { withoutUnsetGroups } from './optional-groups';
 
 /** rjsf's field id ("root_supply_negativeV") as a property path; the spec's names have no "_". */
 export function pathFromFieldId(id: string): string[] {
@@ -37,7 +40,7 @@ export function specChecks(unreadable: ReadonlyMap<string, string>) {
   return (formData: Record<string, unknown> | undefined, errors: FormValidation): FormValidation => {
     for (const [id, message] of unreadable) addErrorAt(errors, pathFromFieldId(id), message);
     if (formData && crossFieldReady(formData)) {
-      for (const issue of specCrossFieldIssues(withoutEmptyCard(formData) as unknown as SpecDocument)) addErrorAt(errors, pointerSegments(issue.path), issue.message);
+      for (const issue of specCrossFieldIssues(withoutUnsetGroups(withoutEmptyCard(formData)) as unknown as SpecDocument)) addErrorAt(errors, pointerSegments(issue.path), issue.message);
     }
     return errors;
   };

@@ -16,7 +16,7 @@ function ucs2length(str) {
   }
   return length;
 }
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"default":{},"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"model":{"type":"object","title":"SPICE model card","description":"The transistor's Gummel-Poon parameters by their SPICE names, SI units; a parameter left out takes SPICE's default. When given, this card is the device: current gain, Early voltage and saturation current may be left out, and where given must equal BF, VAF and IS.","additionalProperties":false,"properties":{"IS":{"type":"number","title":"IS","description":"Transport saturation current, in amperes (A); 1e-20 or more, up to 1e-9. Left out: 1e-16 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"BF":{"type":"number","title":"BF","description":"Ideal maximum forward current gain, a ratio (A/A); 1 or more, up to 10000. Left out: 100 (SPICE's default).","x-unit":"A/A","x-typical":{"min":30,"max":800},"minimum":1,"maximum":10000},"NF":{"type":"number","title":"NF","description":"Forward current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAF":{"type":"number","title":"VAF","description":"Forward Early voltage, in volts (V); 0 (infinite) or 1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":10,"max":500},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"IKF":{"type":"number","title":"IKF","description":"Corner of forward gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISE":{"type":"number","title":"ISE","description":"Base-emitter leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NE":{"type":"number","title":"NE","description":"Base-emitter leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 1.5 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"BR":{"type":"number","title":"BR","description":"Ideal maximum reverse current gain, a ratio (A/A); more than 0, up to 10000. Left out: 1 (SPICE's default).","x-unit":"A/A","x-typical":{"min":0.1,"max":20},"exclusiveMinimum":0,"maximum":10000},"NR":{"type":"number","title":"NR","description":"Reverse current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAR":{"type":"number","title":"VAR","description":"Reverse Early voltage, in volts (V); 0 (infinite) or 0.1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":2,"max":100},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":0.1}},"IKR":{"type":"number","title":"IKR","description":"Corner of reverse gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISC":{"type":"number","title":"ISC","description":"Base-collector leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NC":{"type":"number","title":"NC","description":"Base-collector leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 2 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"RB":{"type":"number","title":"RB","description":"Base resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":1,"max":1000},"minimum":0,"maximum":1000000},"RE":{"type":"number","title":"RE","description":"Emitter resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":100},"minimum":0,"maximum":1000000},"RC":{"type":"number","title":"RC","description":"Collector resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":1000},"minimum":0,"maximum":1000000},"CJE":{"type":"number","title":"CJE","description":"Base-emitter zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJE":{"type":"number","title":"VJE","description":"Base-emitter built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJE":{"type":"number","title":"MJE","description":"Base-emitter junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJC":{"type":"number","title":"CJC","description":"Base-collector zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJC":{"type":"number","title":"VJC","description":"Base-collector built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.3,"max":1.1},"minimum":0.1,"maximum":2},"MJC":{"type":"number","title":"MJC","description":"Base-collector junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJS":{"type":"number","title":"CJS","description":"Collector-substrate zero-bias capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":0,"max":1e-11},"minimum":0,"maximum":1e-8},"VJS":{"type":"number","title":"VJS","description":"Substrate junction built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJS":{"type":"number","title":"MJS","description":"Substrate junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":0.6},"minimum":0,"maximum":0.9},"FC":{"type":"number","title":"FC","description":"Forward-bias depletion capacitance coefficient, dimensionless; 0 or more, up to 0.95. Left out: 0.5 (SPICE's default).","x-unit":"1","x-typical":{"min":0.5,"max":0.9},"minimum":0,"maximum":0.95},"TF":{"type":"number","title":"TF","description":"Ideal forward transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-12,"max":1e-8},"minimum":0,"maximum":0.001},"TR":{"type":"number","title":"TR","description":"Ideal reverse transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-10,"max":0.000001},"minimum":0,"maximum":0.001},"EG":{"type":"number","title":"EG","description":"Energy gap for the temperature effect on IS, in electronvolts (eV); 0.1 or more, up to 4. Left out: 1.11 (SPICE's default).","x-unit":"eV","x-typical":{"min":0.6,"max":1.5},"minimum":0.1,"maximum":4},"XTI":{"type":"number","title":"XTI","description":"Temperature exponent for IS, dimensionless; -10 or more, up to 10. Left out: 3 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":5},"minimum":-10,"maximum":10},"XTB":{"type":"number","title":"XTB","description":"Forward and reverse beta temperature exponent, dimensionless; -5 or more, up to 5. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":3},"minimum":-5,"maximum":5},"KF":{"type":"number","title":"KF","description":"Flicker-noise coefficient, dimensionless; 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":1e-12},"minimum":0,"maximum":0.001},"AF":{"type":"number","title":"AF","description":"Flicker-noise exponent, dimensionless; 0.1 or more, up to 4. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.8,"max":2},"minimum":0.1,"maximum":4}}},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Headroom allowance: the collector-emitter voltage the compliance, input-range and swing checks keep above, in volts (V). Whether a transistor is saturated comes from its own operating point (its current gain more than 5 % below forward-active).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001},"betaMismatchSigma":{"type":"number","title":"Beta mismatch (1 sigma)","description":"Standard deviation of the relative current-gain (BF) difference between the two pair transistors, dimensionless: 0.02 is 2 %. A few per cent is usual for a matched pair (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.02},"earlyVoltageMismatchSigma":{"type":"number","title":"Early-voltage mismatch (1 sigma)","description":"Standard deviation of the relative Early-voltage (VAF) difference between the two pair transistors, dimensionless: 0.05 is 5 %. A few per cent for a matched pair, more for separate parts (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.05}}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"betaRange":{"type":"object","title":"Current-gain spread","description":"Lowest and highest forward current gain (BF) of the transistors fitted, as a datasheet's hFE limits give them: a corner every requirement must hold at. Left out: half and twice the nominal current gain (a small-signal part's hFE group spans about 2:1; common practice, from memory).","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest current gain","description":"Lowest forward current gain BF of a fitted transistor, a ratio (A/A); at most the nominal current gain. Left out: half the nominal.","x-unit":"A/A","x-typical":{"min":10,"max":2000},"minimum":1,"maximum":10000},"max":{"type":"number","title":"Highest current gain","description":"Highest forward current gain BF of a fitted transistor, a ratio (A/A); at least the nominal current gain. Left out: twice the nominal.","x-unit":"A/A","x-typical":{"min":10,"max":2000},"minimum":1,"maximum":10000}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"supplyTolerance":{"type":"object","title":"Supply tolerance","description":"How far each rail may stray from its nominal voltage, plus or minus: every requirement must hold with each rail at either end. Left out: ±5 % on each rail, usual for a regulated rail (common practice).","additionalProperties":false,"properties":{"positivePercent":{"type":"number","title":"Positive rail tolerance","description":"Tolerance of the positive rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 %.","x-unit":"%","minimum":0,"maximum":50,"default":5},"negativePercent":{"type":"number","title":"Negative rail tolerance","description":"Tolerance of the negative rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 % (nothing for a single supply at 0 V).","x-unit":"%","minimum":0,"maximum":50,"default":5}},"default":{}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"outputSwingMaxCompressionPercent":{"type":"number","title":"Compression at the swing's peak","description":"Largest gain compression allowed at the peak of the output swing, in per cent (%): how far the pair's large-signal output falls below the small-signal gain times the input there. 4 % at the peak is about 1 % third-harmonic distortion of a sine (common practice).","x-unit":"%","minimum":0.1,"maximum":50,"default":4},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1},"tempcoPpmPerC":{"type":"number","title":"Temperature coefficient","description":"Temperature coefficient of every resistor, plus or minus, in parts per million per degree Celsius (ppm/°C): 100 means ±100 ppm/°C. Left out: ±100 ppm/°C, usual for 1 % thick-film and metal-film parts (common practice).","x-unit":"ppm/°C","minimum":0,"maximum":5000,"default":100}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"loadCapacitanceF":{"type":"number","title":"Load capacitance","description":"Capacitance from each collector to AC ground (the next stage's input and wiring), in farads (F); it sets the differential bandwidth with the load resistors.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-8,"default":0},"sourceResistanceOhm":{"type":"number","title":"Source resistance","description":"Resistance in series with each base, between the drive and the pair's input, in ohms (Ω); 0 (none) or at least 1 mΩ, up to 10 MΩ. With the devices' capacitances it lowers the gain at high frequency.","x-unit":"Ω","x-typical":{"max":100000},"minimum":0,"maximum":10000000,"default":0},"noise":{"type":"object","title":"Input noise","description":"Largest input-referred noise density allowed at one frequency; left out, the noise is not checked.","additionalProperties":false,"required":["maxVPerRtHz","atFrequencyHz"],"properties":{"maxVPerRtHz":{"type":"number","title":"Largest noise density","description":"Largest input-referred voltage noise density, in volts per root hertz (V/√Hz); 8 nV/√Hz is 8e-9.","x-unit":"V/√Hz","x-typical":{"min":1e-10,"max":0.000001},"exclusiveMinimum":0,"maximum":0.001},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the noise density is checked, in hertz (Hz); datasheets commonly quote 1 kHz, above the flicker-noise corner.","x-unit":"Hz","x-typical":{"min":0.1,"max":100000000},"exclusiveMinimum":0,"maximum":1000000000}}},"inputBiasCurrentMaxA":{"type":"number","title":"Largest input bias current","description":"Largest DC current into each input (the mean of the two), in amperes (A), at every corner; left out, it is not checked.","x-unit":"A","x-typical":{"min":1e-12,"max":0.001},"exclusiveMinimum":0,"maximum":0.1},"offset":{"type":"object","title":"Input offset","description":"Largest input offset voltage and drift, from the transistors' mismatch (VBE and current gain) and the resistor tolerance at the chosen number of standard deviations; give either limit or both. Left out, neither is checked.","additionalProperties":false,"properties":{"maxV":{"type":"number","title":"Largest offset","description":"Largest input offset voltage, in volts (V): the differential input that balances the outputs; 2 mV is 0.002.","x-unit":"V","x-typical":{"min":0.000001,"max":0.05},"exclusiveMinimum":0,"maximum":1},"driftMaxVPerC":{"type":"number","title":"Largest drift","description":"Largest change of the input offset voltage with temperature, in volts per degree Celsius (V/°C); 5 µV/°C is 5e-6.","x-unit":"V/°C","x-typical":{"min":1e-8,"max":0.0001},"exclusiveMinimum":0,"maximum":0.01},"sigmas":{"type":"number","title":"Standard deviations","description":"How many standard deviations of the mismatch the limits must hold at, dimensionless: 3 covers about 99.7 % of parts (common practice).","x-unit":"1","minimum":1,"maximum":6,"default":3}}},"slewRateMinVPerS":{"type":"number","title":"Lowest slew rate","description":"Lowest rate of change the differential output must reach after a large input step, in volts per second (V/s), at every corner; 2 V/µs is 2e6. Left out, it is not checked.","x-unit":"V/s","x-typical":{"min":1000,"max":10000000000},"exclusiveMinimum":0,"maximum":1000000000000},"bandwidthMinHz":{"type":"number","title":"Lowest bandwidth","description":"Lowest acceptable differential bandwidth, in hertz (Hz): the frequency where the differential gain has fallen 3 dB below its low-frequency value must be at least this, at every corner. Left out, it is not checked.","x-unit":"Hz","x-typical":{"min":10,"max":1000000000},"exclusiveMinimum":0,"maximum":10000000000},"psrrMinDb":{"type":"object","title":"Supply rejection","description":"Lowest power-supply rejection ratio (PSRR) of each rail, for the output named under Gain; a rail left out is not checked.","additionalProperties":false,"properties":{"positive":{"type":"number","title":"Positive rail PSRR","description":"Lowest rejection of the positive rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.","x-unit":"dB","minimum":0,"maximum":200},"negative":{"type":"number","title":"Negative rail PSRR","description":"Lowest rejection of the negative rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.","x-unit":"dB","minimum":0,"maximum":200}}},"linearInputRangeMinV":{"type":"number","title":"Linear input range","description":"Differential DC input amplitude, in volts (V), up to which the output must stay within 1 % of the gain times the input, for either sign and at every corner: the stage's linear range must reach at least this. Left out, it is not checked.","x-unit":"V","x-typical":{"min":0.001,"max":10},"exclusiveMinimum":0,"maximum":100},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"default":{},"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"model":{"type":"object","title":"SPICE model card","description":"The transistor's Gummel-Poon parameters by their SPICE names, SI units; a parameter left out takes SPICE's default. When given, this card is the device: current gain, Early voltage and saturation current may be left out, and where given must equal BF, VAF and IS.","additionalProperties":false,"properties":{"IS":{"type":"number","title":"IS","description":"Transport saturation current, in amperes (A); 1e-20 or more, up to 1e-9. Left out: 1e-16 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"BF":{"type":"number","title":"BF","description":"Ideal maximum forward current gain, a ratio (A/A); 1 or more, up to 10000. Left out: 100 (SPICE's default).","x-unit":"A/A","x-typical":{"min":30,"max":800},"minimum":1,"maximum":10000},"NF":{"type":"number","title":"NF","description":"Forward current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAF":{"type":"number","title":"VAF","description":"Forward Early voltage, in volts (V); 0 (infinite) or 1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":10,"max":500},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"IKF":{"type":"number","title":"IKF","description":"Corner of forward gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISE":{"type":"number","title":"ISE","description":"Base-emitter leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NE":{"type":"number","title":"NE","description":"Base-emitter leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 1.5 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"BR":{"type":"number","title":"BR","description":"Ideal maximum reverse current gain, a ratio (A/A); more than 0, up to 10000. Left out: 1 (SPICE's default).","x-unit":"A/A","x-typical":{"min":0.1,"max":20},"exclusiveMinimum":0,"maximum":10000},"NR":{"type":"number","title":"NR","description":"Reverse current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAR":{"type":"number","title":"VAR","description":"Reverse Early voltage, in volts (V); 0 (infinite) or 0.1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":2,"max":100},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":0.1}},"IKR":{"type":"number","title":"IKR","description":"Corner of reverse gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISC":{"type":"number","title":"ISC","description":"Base-collector leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NC":{"type":"number","title":"NC","description":"Base-collector leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 2 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"RB":{"type":"number","title":"RB","description":"Base resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":1,"max":1000},"minimum":0,"maximum":1000000},"RE":{"type":"number","title":"RE","description":"Emitter resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":100},"minimum":0,"maximum":1000000},"RC":{"type":"number","title":"RC","description":"Collector resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":1000},"minimum":0,"maximum":1000000},"CJE":{"type":"number","title":"CJE","description":"Base-emitter zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJE":{"type":"number","title":"VJE","description":"Base-emitter built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJE":{"type":"number","title":"MJE","description":"Base-emitter junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJC":{"type":"number","title":"CJC","description":"Base-collector zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJC":{"type":"number","title":"VJC","description":"Base-collector built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.3,"max":1.1},"minimum":0.1,"maximum":2},"MJC":{"type":"number","title":"MJC","description":"Base-collector junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJS":{"type":"number","title":"CJS","description":"Collector-substrate zero-bias capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":0,"max":1e-11},"minimum":0,"maximum":1e-8},"VJS":{"type":"number","title":"VJS","description":"Substrate junction built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJS":{"type":"number","title":"MJS","description":"Substrate junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":0.6},"minimum":0,"maximum":0.9},"FC":{"type":"number","title":"FC","description":"Forward-bias depletion capacitance coefficient, dimensionless; 0 or more, up to 0.95. Left out: 0.5 (SPICE's default).","x-unit":"1","x-typical":{"min":0.5,"max":0.9},"minimum":0,"maximum":0.95},"TF":{"type":"number","title":"TF","description":"Ideal forward transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-12,"max":1e-8},"minimum":0,"maximum":0.001},"TR":{"type":"number","title":"TR","description":"Ideal reverse transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-10,"max":0.000001},"minimum":0,"maximum":0.001},"EG":{"type":"number","title":"EG","description":"Energy gap for the temperature effect on IS, in electronvolts (eV); 0.1 or more, up to 4. Left out: 1.11 (SPICE's default).","x-unit":"eV","x-typical":{"min":0.6,"max":1.5},"minimum":0.1,"maximum":4},"XTI":{"type":"number","title":"XTI","description":"Temperature exponent for IS, dimensionless; -10 or more, up to 10. Left out: 3 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":5},"minimum":-10,"maximum":10},"XTB":{"type":"number","title":"XTB","description":"Forward and reverse beta temperature exponent, dimensionless; -5 or more, up to 5. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":3},"minimum":-5,"maximum":5},"KF":{"type":"number","title":"KF","description":"Flicker-noise coefficient, dimensionless; 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":1e-12},"minimum":0,"maximum":0.001},"AF":{"type":"number","title":"AF","description":"Flicker-noise exponent, dimensionless; 0.1 or more, up to 4. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.8,"max":2},"minimum":0.1,"maximum":4}}},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Headroom allowance: the collector-emitter voltage the compliance, input-range and swing checks keep above, in volts (V). Whether a transistor is saturated comes from its own operating point (its current gain more than 5 % below forward-active).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001},"betaMismatchSigma":{"type":"number","title":"Beta mismatch (1 sigma)","description":"Standard deviation of the relative current-gain (BF) difference between the two pair transistors, dimensionless: 0.02 is 2 %. A few per cent is usual for a matched pair (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.02},"earlyVoltageMismatchSigma":{"type":"number","title":"Early-voltage mismatch (1 sigma)","description":"Standard deviation of the relative Early-voltage (VAF) difference between the two pair transistors, dimensionless: 0.05 is 5 %. A few per cent for a matched pair, more for separate parts (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.05}}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"betaRange":{"type":"object","title":"Current-gain spread","description":"Lowest and highest forward current gain (BF) of the transistors fitted, as a datasheet's hFE limits give them: a corner every requirement must hold at. Left out: half and twice the nominal current gain (a small-signal part's hFE group spans about 2:1; common practice, from memory).","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest current gain","description":"Lowest forward current gain BF of a fitted transistor, a ratio (A/A); at most the nominal current gain. Left out: half the nominal.","x-unit":"A/A","x-typical":{"min":10,"max":2000},"minimum":1,"maximum":10000},"max":{"type":"number","title":"Highest current gain","description":"Highest forward current gain BF of a fitted transistor, a ratio (A/A); at least the nominal current gain. Left out: twice the nominal.","x-unit":"A/A","x-typical":{"min":10,"max":2000},"minimum":1,"maximum":10000}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"supplyTolerance":{"type":"object","title":"Supply tolerance","description":"How far each rail may stray from its nominal voltage, plus or minus: every requirement must hold with each rail at either end. Left out: ±5 % on each rail, usual for a regulated rail (common practice).","additionalProperties":false,"properties":{"positivePercent":{"type":"number","title":"Tolerance of the positive rail","description":"Tolerance of the positive rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 %.","x-unit":"%","minimum":0,"maximum":50,"default":5},"negativePercent":{"type":"number","title":"Tolerance of the negative rail","description":"Tolerance of the negative rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 % (nothing for a single supply at 0 V).","x-unit":"%","minimum":0,"maximum":50,"default":5}},"default":{}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"outputSwingMaxCompressionPercent":{"type":"number","title":"Compression at the swing's peak","description":"Largest gain compression allowed at the peak of the output swing, in per cent (%): how far the pair's large-signal output falls below the small-signal gain times the input there. 4 % at the peak is about 1 % third-harmonic distortion of a sine (common practice).","x-unit":"%","minimum":0.1,"maximum":50,"default":4},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1},"tempcoPpmPerC":{"type":"number","title":"Temperature coefficient","description":"Temperature coefficient of every resistor, plus or minus, in parts per million per degree Celsius (ppm/°C): 100 means ±100 ppm/°C. Left out: ±100 ppm/°C, usual for 1 % thick-film and metal-film parts (common practice).","x-unit":"ppm/°C","minimum":0,"maximum":5000,"default":100}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"loadCapacitanceF":{"type":"number","title":"Load capacitance","description":"Capacitance from each collector to AC ground (the next stage's input and wiring), in farads (F); it sets the differential bandwidth with the load resistors.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-8,"default":0},"sourceResistanceOhm":{"type":"number","title":"Source resistance","description":"Resistance in series with each base, between the drive and the pair's input, in ohms (Ω); 0 (none) or at least 1 mΩ, up to 10 MΩ. With the devices' capacitances it lowers the gain at high frequency.","x-unit":"Ω","x-typical":{"max":100000},"minimum":0,"maximum":10000000,"default":0},"noise":{"type":"object","title":"Input noise","description":"Largest input-referred noise density allowed at one frequency; give both or leave both out (then the noise is not checked).","additionalProperties":false,"properties":{"maxVPerRtHz":{"type":"number","title":"Largest noise density","description":"Largest input-referred voltage noise density, in volts per root hertz (V/√Hz); 8 nV/√Hz is 8e-9.","x-unit":"V/√Hz","x-typical":{"min":1e-10,"max":0.000001},"exclusiveMinimum":0,"maximum":0.001},"atFrequencyHz":{"type":"number","title":"Noise frequency","description":"Frequency at which the noise density is checked, in hertz (Hz); datasheets commonly quote 1 kHz, above the flicker-noise corner.","x-unit":"Hz","x-typical":{"min":0.1,"max":100000000},"exclusiveMinimum":0,"maximum":1000000000}}},"inputBiasCurrentMaxA":{"type":"number","title":"Largest input bias current","description":"Largest DC current into each input (the mean of the two), in amperes (A), at every corner; left out, it is not checked.","x-unit":"A","x-typical":{"min":1e-12,"max":0.001},"exclusiveMinimum":0,"maximum":0.1},"offset":{"type":"object","title":"Input offset","description":"Largest input offset voltage and drift, from the transistors' mismatch (VBE and current gain) and the resistor tolerance at the chosen number of standard deviations; give either limit or both. Left out, neither is checked.","additionalProperties":false,"properties":{"maxV":{"type":"number","title":"Largest offset","description":"Largest input offset voltage, in volts (V): the differential input that balances the outputs; 2 mV is 0.002.","x-unit":"V","x-typical":{"min":0.000001,"max":0.05},"exclusiveMinimum":0,"maximum":1},"driftMaxVPerC":{"type":"number","title":"Largest offset drift","description":"Largest change of the input offset voltage with temperature, in volts per degree Celsius (V/°C); 5 µV/°C is 5e-6.","x-unit":"V/°C","x-typical":{"min":1e-8,"max":0.0001},"exclusiveMinimum":0,"maximum":0.01},"sigmas":{"type":"number","title":"Offset confidence (sigmas)","description":"How many standard deviations of the mismatch the limits must hold at, dimensionless: 3 covers about 99.7 % of parts (common practice).","x-unit":"1","minimum":1,"maximum":6,"default":3}}},"slewRateMinVPerS":{"type":"number","title":"Lowest slew rate","description":"Lowest rate of change the differential output must reach after a large input step, in volts per second (V/s), at every corner; 2 V/µs is 2e6. Left out, it is not checked.","x-unit":"V/s","x-typical":{"min":1000,"max":10000000000},"exclusiveMinimum":0,"maximum":1000000000000},"bandwidthMinHz":{"type":"number","title":"Lowest bandwidth","description":"Lowest acceptable differential bandwidth, in hertz (Hz): the frequency where the differential gain has fallen 3 dB below its low-frequency value must be at least this, at every corner. Left out, it is not checked.","x-unit":"Hz","x-typical":{"min":10,"max":1000000000},"exclusiveMinimum":0,"maximum":10000000000},"psrrMinDb":{"type":"object","title":"Supply rejection","description":"Lowest power-supply rejection ratio (PSRR) of each rail, for the output named under Gain; a rail left out is not checked.","additionalProperties":false,"properties":{"positive":{"type":"number","title":"PSRR of the positive rail","description":"Lowest rejection of the positive rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.","x-unit":"dB","minimum":0,"maximum":200},"negative":{"type":"number","title":"PSRR of the negative rail","description":"Lowest rejection of the negative rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.","x-unit":"dB","minimum":0,"maximum":200}}},"linearInputRangeMinV":{"type":"number","title":"Linear input range","description":"Differential DC input amplitude, in volts (V), up to which the output must stay within 1 % of the gain times the input, for either sign and at every corner: the stage's linear range must reach at least this. Left out, it is not checked.","x-unit":"V","x-typical":{"min":0.001,"max":10},"exclusiveMinimum":0,"maximum":100},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
 const func2 = Object.prototype.hasOwnProperty;
 const func3 = ucs2length;
 const pattern0 = new RegExp("^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$", "u");
@@ -3067,8 +3067,9 @@ errors++;
 if(data.noise !== undefined){
 let data83 = data.noise;
 if(data83 && typeof data83 == "object" && !Array.isArray(data83)){
-if(data83.maxVPerRtHz === undefined){
-const err255 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/required",keyword:"required",params:{missingProperty: "maxVPerRtHz"},message:"must have required property '"+"maxVPerRtHz"+"'",schema:schema11.properties.noise.required,parentSchema:schema11.properties.noise,data:data83};
+for(const key12 in data83){
+if(!((key12 === "maxVPerRtHz") || (key12 === "atFrequencyHz"))){
+const err255 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.noise,data:data83};
 if(vErrors === null){
 vErrors = [err255];
 }
@@ -3077,8 +3078,12 @@ vErrors.push(err255);
 }
 errors++;
 }
-if(data83.atFrequencyHz === undefined){
-const err256 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/required",keyword:"required",params:{missingProperty: "atFrequencyHz"},message:"must have required property '"+"atFrequencyHz"+"'",schema:schema11.properties.noise.required,parentSchema:schema11.properties.noise,data:data83};
+}
+if(data83.maxVPerRtHz !== undefined){
+let data84 = data83.maxVPerRtHz;
+if(typeof data84 == "number"){
+if(data84 > 0.001 || isNaN(data84)){
+const err256 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
 if(vErrors === null){
 vErrors = [err256];
 }
@@ -3087,9 +3092,8 @@ vErrors.push(err256);
 }
 errors++;
 }
-for(const key12 in data83){
-if(!((key12 === "maxVPerRtHz") || (key12 === "atFrequencyHz"))){
-const err257 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.noise,data:data83};
+if(data84 <= 0 || isNaN(data84)){
+const err257 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
 if(vErrors === null){
 vErrors = [err257];
 }
@@ -3099,11 +3103,8 @@ vErrors.push(err257);
 errors++;
 }
 }
-if(data83.maxVPerRtHz !== undefined){
-let data84 = data83.maxVPerRtHz;
-if(typeof data84 == "number"){
-if(data84 > 0.001 || isNaN(data84)){
-const err258 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
+else {
+const err258 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.noise.properties.maxVPerRtHz.type,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
 if(vErrors === null){
 vErrors = [err258];
 }
@@ -3112,8 +3113,12 @@ vErrors.push(err258);
 }
 errors++;
 }
-if(data84 <= 0 || isNaN(data84)){
-const err259 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
+}
+if(data83.atFrequencyHz !== undefined){
+let data85 = data83.atFrequencyHz;
+if(typeof data85 == "number"){
+if(data85 > 1000000000 || isNaN(data85)){
+const err259 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
 if(vErrors === null){
 vErrors = [err259];
 }
@@ -3122,9 +3127,8 @@ vErrors.push(err259);
 }
 errors++;
 }
-}
-else {
-const err260 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.noise.properties.maxVPerRtHz.type,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
+if(data85 <= 0 || isNaN(data85)){
+const err260 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
 if(vErrors === null){
 vErrors = [err260];
 }
@@ -3134,11 +3138,8 @@ vErrors.push(err260);
 errors++;
 }
 }
-if(data83.atFrequencyHz !== undefined){
-let data85 = data83.atFrequencyHz;
-if(typeof data85 == "number"){
-if(data85 > 1000000000 || isNaN(data85)){
-const err261 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
+else {
+const err261 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.noise.properties.atFrequencyHz.type,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
 if(vErrors === null){
 vErrors = [err261];
 }
@@ -3147,8 +3148,10 @@ vErrors.push(err261);
 }
 errors++;
 }
-if(data85 <= 0 || isNaN(data85)){
-const err262 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
+}
+}
+else {
+const err262 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.noise.type,parentSchema:schema11.properties.noise,data:data83};
 if(vErrors === null){
 vErrors = [err262];
 }
@@ -3158,8 +3161,11 @@ vErrors.push(err262);
 errors++;
 }
 }
-else {
-const err263 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.noise.properties.atFrequencyHz.type,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
+if(data.inputBiasCurrentMaxA !== undefined){
+let data86 = data.inputBiasCurrentMaxA;
+if(typeof data86 == "number"){
+if(data86 > 0.1 || isNaN(data86)){
+const err263 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
 if(vErrors === null){
 vErrors = [err263];
 }
@@ -3168,10 +3174,8 @@ vErrors.push(err263);
 }
 errors++;
 }
-}
-}
-else {
-const err264 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.noise.type,parentSchema:schema11.properties.noise,data:data83};
+if(data86 <= 0 || isNaN(data86)){
+const err264 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
 if(vErrors === null){
 vErrors = [err264];
 }
@@ -3181,37 +3185,13 @@ vErrors.push(err264);
 errors++;
 }
 }
-if(data.inputBiasCurrentMaxA !== undefined){
-let data86 = data.inputBiasCurrentMaxA;
-if(typeof data86 == "number"){
-if(data86 > 0.1 || isNaN(data86)){
-const err265 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
+else {
+const err265 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputBiasCurrentMaxA.type,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
 if(vErrors === null){
 vErrors = [err265];
 }
 else {
 vErrors.push(err265);
-}
-errors++;
-}
-if(data86 <= 0 || isNaN(data86)){
-const err266 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
-if(vErrors === null){
-vErrors = [err266];
-}
-else {
-vErrors.push(err266);
-}
-errors++;
-}
-}
-else {
-const err267 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputBiasCurrentMaxA.type,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
-if(vErrors === null){
-vErrors = [err267];
-}
-else {
-vErrors.push(err267);
 }
 errors++;
 }
@@ -3221,7 +3201,31 @@ let data87 = data.offset;
 if(data87 && typeof data87 == "object" && !Array.isArray(data87)){
 for(const key13 in data87){
 if(!(((key13 === "maxV") || (key13 === "driftMaxVPerC")) || (key13 === "sigmas"))){
-const err268 = {instancePath:instancePath+"/offset",schemaPath:"#/properties/offset/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.offset,data:data87};
+const err266 = {instancePath:instancePath+"/offset",schemaPath:"#/properties/offset/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.offset,data:data87};
+if(vErrors === null){
+vErrors = [err266];
+}
+else {
+vErrors.push(err266);
+}
+errors++;
+}
+}
+if(data87.maxV !== undefined){
+let data88 = data87.maxV;
+if(typeof data88 == "number"){
+if(data88 > 1 || isNaN(data88)){
+const err267 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
+if(vErrors === null){
+vErrors = [err267];
+}
+else {
+vErrors.push(err267);
+}
+errors++;
+}
+if(data88 <= 0 || isNaN(data88)){
+const err268 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
 if(vErrors === null){
 vErrors = [err268];
 }
@@ -3231,11 +3235,8 @@ vErrors.push(err268);
 errors++;
 }
 }
-if(data87.maxV !== undefined){
-let data88 = data87.maxV;
-if(typeof data88 == "number"){
-if(data88 > 1 || isNaN(data88)){
-const err269 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
+else {
+const err269 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.maxV.type,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
 if(vErrors === null){
 vErrors = [err269];
 }
@@ -3244,8 +3245,12 @@ vErrors.push(err269);
 }
 errors++;
 }
-if(data88 <= 0 || isNaN(data88)){
-const err270 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
+}
+if(data87.driftMaxVPerC !== undefined){
+let data89 = data87.driftMaxVPerC;
+if(typeof data89 == "number"){
+if(data89 > 0.01 || isNaN(data89)){
+const err270 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.01},message:"must be <= 0.01",schema:0.01,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
 if(vErrors === null){
 vErrors = [err270];
 }
@@ -3254,9 +3259,8 @@ vErrors.push(err270);
 }
 errors++;
 }
-}
-else {
-const err271 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.maxV.type,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
+if(data89 <= 0 || isNaN(data89)){
+const err271 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
 if(vErrors === null){
 vErrors = [err271];
 }
@@ -3266,11 +3270,8 @@ vErrors.push(err271);
 errors++;
 }
 }
-if(data87.driftMaxVPerC !== undefined){
-let data89 = data87.driftMaxVPerC;
-if(typeof data89 == "number"){
-if(data89 > 0.01 || isNaN(data89)){
-const err272 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.01},message:"must be <= 0.01",schema:0.01,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
+else {
+const err272 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.driftMaxVPerC.type,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
 if(vErrors === null){
 vErrors = [err272];
 }
@@ -3279,8 +3280,12 @@ vErrors.push(err272);
 }
 errors++;
 }
-if(data89 <= 0 || isNaN(data89)){
-const err273 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
+}
+if(data87.sigmas !== undefined){
+let data90 = data87.sigmas;
+if(typeof data90 == "number"){
+if(data90 > 6 || isNaN(data90)){
+const err273 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/maximum",keyword:"maximum",params:{comparison: "<=", limit: 6},message:"must be <= 6",schema:6,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
 if(vErrors === null){
 vErrors = [err273];
 }
@@ -3289,9 +3294,8 @@ vErrors.push(err273);
 }
 errors++;
 }
-}
-else {
-const err274 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.driftMaxVPerC.type,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
+if(data90 < 1 || isNaN(data90)){
+const err274 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
 if(vErrors === null){
 vErrors = [err274];
 }
@@ -3301,11 +3305,8 @@ vErrors.push(err274);
 errors++;
 }
 }
-if(data87.sigmas !== undefined){
-let data90 = data87.sigmas;
-if(typeof data90 == "number"){
-if(data90 > 6 || isNaN(data90)){
-const err275 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/maximum",keyword:"maximum",params:{comparison: "<=", limit: 6},message:"must be <= 6",schema:6,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
+else {
+const err275 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.sigmas.type,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
 if(vErrors === null){
 vErrors = [err275];
 }
@@ -3314,8 +3315,10 @@ vErrors.push(err275);
 }
 errors++;
 }
-if(data90 < 1 || isNaN(data90)){
-const err276 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
+}
+}
+else {
+const err276 = {instancePath:instancePath+"/offset",schemaPath:"#/properties/offset/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.offset.type,parentSchema:schema11.properties.offset,data:data87};
 if(vErrors === null){
 vErrors = [err276];
 }
@@ -3325,8 +3328,11 @@ vErrors.push(err276);
 errors++;
 }
 }
-else {
-const err277 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.sigmas.type,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
+if(data.slewRateMinVPerS !== undefined){
+let data91 = data.slewRateMinVPerS;
+if(typeof data91 == "number"){
+if(data91 > 1000000000000 || isNaN(data91)){
+const err277 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000000},message:"must be <= 1000000000000",schema:1000000000000,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
 if(vErrors === null){
 vErrors = [err277];
 }
@@ -3335,10 +3341,8 @@ vErrors.push(err277);
 }
 errors++;
 }
-}
-}
-else {
-const err278 = {instancePath:instancePath+"/offset",schemaPath:"#/properties/offset/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.offset.type,parentSchema:schema11.properties.offset,data:data87};
+if(data91 <= 0 || isNaN(data91)){
+const err278 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
 if(vErrors === null){
 vErrors = [err278];
 }
@@ -3348,11 +3352,8 @@ vErrors.push(err278);
 errors++;
 }
 }
-if(data.slewRateMinVPerS !== undefined){
-let data91 = data.slewRateMinVPerS;
-if(typeof data91 == "number"){
-if(data91 > 1000000000000 || isNaN(data91)){
-const err279 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000000},message:"must be <= 1000000000000",schema:1000000000000,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
+else {
+const err279 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.slewRateMinVPerS.type,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
 if(vErrors === null){
 vErrors = [err279];
 }
@@ -3361,8 +3362,12 @@ vErrors.push(err279);
 }
 errors++;
 }
-if(data91 <= 0 || isNaN(data91)){
-const err280 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
+}
+if(data.bandwidthMinHz !== undefined){
+let data92 = data.bandwidthMinHz;
+if(typeof data92 == "number"){
+if(data92 > 10000000000 || isNaN(data92)){
+const err280 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000000000},message:"must be <= 10000000000",schema:10000000000,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
 if(vErrors === null){
 vErrors = [err280];
 }
@@ -3371,9 +3376,8 @@ vErrors.push(err280);
 }
 errors++;
 }
-}
-else {
-const err281 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.slewRateMinVPerS.type,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
+if(data92 <= 0 || isNaN(data92)){
+const err281 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
 if(vErrors === null){
 vErrors = [err281];
 }
@@ -3383,37 +3387,13 @@ vErrors.push(err281);
 errors++;
 }
 }
-if(data.bandwidthMinHz !== undefined){
-let data92 = data.bandwidthMinHz;
-if(typeof data92 == "number"){
-if(data92 > 10000000000 || isNaN(data92)){
-const err282 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000000000},message:"must be <= 10000000000",schema:10000000000,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
+else {
+const err282 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.bandwidthMinHz.type,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
 if(vErrors === null){
 vErrors = [err282];
 }
 else {
 vErrors.push(err282);
-}
-errors++;
-}
-if(data92 <= 0 || isNaN(data92)){
-const err283 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
-if(vErrors === null){
-vErrors = [err283];
-}
-else {
-vErrors.push(err283);
-}
-errors++;
-}
-}
-else {
-const err284 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.bandwidthMinHz.type,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
-if(vErrors === null){
-vErrors = [err284];
-}
-else {
-vErrors.push(err284);
 }
 errors++;
 }
@@ -3423,7 +3403,31 @@ let data93 = data.psrrMinDb;
 if(data93 && typeof data93 == "object" && !Array.isArray(data93)){
 for(const key14 in data93){
 if(!((key14 === "positive") || (key14 === "negative"))){
-const err285 = {instancePath:instancePath+"/psrrMinDb",schemaPath:"#/properties/psrrMinDb/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.psrrMinDb,data:data93};
+const err283 = {instancePath:instancePath+"/psrrMinDb",schemaPath:"#/properties/psrrMinDb/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.psrrMinDb,data:data93};
+if(vErrors === null){
+vErrors = [err283];
+}
+else {
+vErrors.push(err283);
+}
+errors++;
+}
+}
+if(data93.positive !== undefined){
+let data94 = data93.positive;
+if(typeof data94 == "number"){
+if(data94 > 200 || isNaN(data94)){
+const err284 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
+if(vErrors === null){
+vErrors = [err284];
+}
+else {
+vErrors.push(err284);
+}
+errors++;
+}
+if(data94 < 0 || isNaN(data94)){
+const err285 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
 if(vErrors === null){
 vErrors = [err285];
 }
@@ -3433,11 +3437,8 @@ vErrors.push(err285);
 errors++;
 }
 }
-if(data93.positive !== undefined){
-let data94 = data93.positive;
-if(typeof data94 == "number"){
-if(data94 > 200 || isNaN(data94)){
-const err286 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
+else {
+const err286 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.psrrMinDb.properties.positive.type,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
 if(vErrors === null){
 vErrors = [err286];
 }
@@ -3446,8 +3447,12 @@ vErrors.push(err286);
 }
 errors++;
 }
-if(data94 < 0 || isNaN(data94)){
-const err287 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
+}
+if(data93.negative !== undefined){
+let data95 = data93.negative;
+if(typeof data95 == "number"){
+if(data95 > 200 || isNaN(data95)){
+const err287 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
 if(vErrors === null){
 vErrors = [err287];
 }
@@ -3456,9 +3461,8 @@ vErrors.push(err287);
 }
 errors++;
 }
-}
-else {
-const err288 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.psrrMinDb.properties.positive.type,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
+if(data95 < 0 || isNaN(data95)){
+const err288 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
 if(vErrors === null){
 vErrors = [err288];
 }
@@ -3468,11 +3472,8 @@ vErrors.push(err288);
 errors++;
 }
 }
-if(data93.negative !== undefined){
-let data95 = data93.negative;
-if(typeof data95 == "number"){
-if(data95 > 200 || isNaN(data95)){
-const err289 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
+else {
+const err289 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.psrrMinDb.properties.negative.type,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
 if(vErrors === null){
 vErrors = [err289];
 }
@@ -3481,8 +3482,10 @@ vErrors.push(err289);
 }
 errors++;
 }
-if(data95 < 0 || isNaN(data95)){
-const err290 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
+}
+}
+else {
+const err290 = {instancePath:instancePath+"/psrrMinDb",schemaPath:"#/properties/psrrMinDb/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.psrrMinDb.type,parentSchema:schema11.properties.psrrMinDb,data:data93};
 if(vErrors === null){
 vErrors = [err290];
 }
@@ -3492,8 +3495,11 @@ vErrors.push(err290);
 errors++;
 }
 }
-else {
-const err291 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.psrrMinDb.properties.negative.type,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
+if(data.linearInputRangeMinV !== undefined){
+let data96 = data.linearInputRangeMinV;
+if(typeof data96 == "number"){
+if(data96 > 100 || isNaN(data96)){
+const err291 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
 if(vErrors === null){
 vErrors = [err291];
 }
@@ -3502,10 +3508,8 @@ vErrors.push(err291);
 }
 errors++;
 }
-}
-}
-else {
-const err292 = {instancePath:instancePath+"/psrrMinDb",schemaPath:"#/properties/psrrMinDb/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.psrrMinDb.type,parentSchema:schema11.properties.psrrMinDb,data:data93};
+if(data96 <= 0 || isNaN(data96)){
+const err292 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
 if(vErrors === null){
 vErrors = [err292];
 }
@@ -3515,11 +3519,8 @@ vErrors.push(err292);
 errors++;
 }
 }
-if(data.linearInputRangeMinV !== undefined){
-let data96 = data.linearInputRangeMinV;
-if(typeof data96 == "number"){
-if(data96 > 100 || isNaN(data96)){
-const err293 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
+else {
+const err293 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.linearInputRangeMinV.type,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
 if(vErrors === null){
 vErrors = [err293];
 }
@@ -3528,8 +3529,12 @@ vErrors.push(err293);
 }
 errors++;
 }
-if(data96 <= 0 || isNaN(data96)){
-const err294 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
+}
+if(data.topologies !== undefined){
+let data97 = data.topologies;
+if(Array.isArray(data97)){
+if(data97.length < 1){
+const err294 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data97};
 if(vErrors === null){
 vErrors = [err294];
 }
@@ -3538,9 +3543,11 @@ vErrors.push(err294);
 }
 errors++;
 }
-}
-else {
-const err295 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.linearInputRangeMinV.type,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
+const len0 = data97.length;
+for(let i0=0; i0<len0; i0++){
+let data98 = data97[i0];
+if(typeof data98 !== "string"){
+const err295 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data98};
 if(vErrors === null){
 vErrors = [err295];
 }
@@ -3549,40 +3556,13 @@ vErrors.push(err295);
 }
 errors++;
 }
-}
-if(data.topologies !== undefined){
-let data97 = data.topologies;
-if(Array.isArray(data97)){
-if(data97.length < 1){
-const err296 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data97};
+if(!((((((data98 === "resistor") || (data98 === "simple-mirror")) || (data98 === "degenerated-mirror")) || (data98 === "widlar")) || (data98 === "wilson")) || (data98 === "cascode"))){
+const err296 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data98};
 if(vErrors === null){
 vErrors = [err296];
 }
 else {
 vErrors.push(err296);
-}
-errors++;
-}
-const len0 = data97.length;
-for(let i0=0; i0<len0; i0++){
-let data98 = data97[i0];
-if(typeof data98 !== "string"){
-const err297 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data98};
-if(vErrors === null){
-vErrors = [err297];
-}
-else {
-vErrors.push(err297);
-}
-errors++;
-}
-if(!((((((data98 === "resistor") || (data98 === "simple-mirror")) || (data98 === "degenerated-mirror")) || (data98 === "widlar")) || (data98 === "wilson")) || (data98 === "cascode"))){
-const err298 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data98};
-if(vErrors === null){
-vErrors = [err298];
-}
-else {
-vErrors.push(err298);
 }
 errors++;
 }
@@ -3598,12 +3578,12 @@ continue;
 }
 if(typeof indices0[item0] == "number"){
 j0 = indices0[item0];
-const err299 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data97};
+const err297 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data97};
 if(vErrors === null){
-vErrors = [err299];
+vErrors = [err297];
 }
 else {
-vErrors.push(err299);
+vErrors.push(err297);
 }
 errors++;
 break;
@@ -3613,7 +3593,30 @@ indices0[item0] = i1;
 }
 }
 else {
-const err300 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data97};
+const err298 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data97};
+if(vErrors === null){
+vErrors = [err298];
+}
+else {
+vErrors.push(err298);
+}
+errors++;
+}
+}
+if(data.policy !== undefined){
+let data99 = data.policy;
+if(typeof data99 !== "string"){
+const err299 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data99};
+if(vErrors === null){
+vErrors = [err299];
+}
+else {
+vErrors.push(err299);
+}
+errors++;
+}
+if(!((data99 === "simplest-sufficient") || (data99 === "highest-rejection"))){
+const err300 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data99};
 if(vErrors === null){
 vErrors = [err300];
 }
@@ -3623,10 +3626,12 @@ vErrors.push(err300);
 errors++;
 }
 }
-if(data.policy !== undefined){
-let data99 = data.policy;
-if(typeof data99 !== "string"){
-const err301 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data99};
+if(data.hazards !== undefined){
+let data100 = data.hazards;
+if(data100 && typeof data100 == "object" && !Array.isArray(data100)){
+for(const key15 in data100){
+if(!((key15 === "patientConnected") || (key15 === "mainsReferenced"))){
+const err301 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data100};
 if(vErrors === null){
 vErrors = [err301];
 }
@@ -3635,8 +3640,11 @@ vErrors.push(err301);
 }
 errors++;
 }
-if(!((data99 === "simplest-sufficient") || (data99 === "highest-rejection"))){
-const err302 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data99};
+}
+if(data100.patientConnected !== undefined){
+let data101 = data100.patientConnected;
+if(typeof data101 !== "boolean"){
+const err302 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data101};
 if(vErrors === null){
 vErrors = [err302];
 }
@@ -3646,12 +3654,10 @@ vErrors.push(err302);
 errors++;
 }
 }
-if(data.hazards !== undefined){
-let data100 = data.hazards;
-if(data100 && typeof data100 == "object" && !Array.isArray(data100)){
-for(const key15 in data100){
-if(!((key15 === "patientConnected") || (key15 === "mainsReferenced"))){
-const err303 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data100};
+if(data100.mainsReferenced !== undefined){
+let data102 = data100.mainsReferenced;
+if(typeof data102 !== "boolean"){
+const err303 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data102};
 if(vErrors === null){
 vErrors = [err303];
 }
@@ -3661,10 +3667,9 @@ vErrors.push(err303);
 errors++;
 }
 }
-if(data100.patientConnected !== undefined){
-let data101 = data100.patientConnected;
-if(typeof data101 !== "boolean"){
-const err304 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data101};
+}
+else {
+const err304 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data100};
 if(vErrors === null){
 vErrors = [err304];
 }
@@ -3674,10 +3679,12 @@ vErrors.push(err304);
 errors++;
 }
 }
-if(data100.mainsReferenced !== undefined){
-let data102 = data100.mainsReferenced;
-if(typeof data102 !== "boolean"){
-const err305 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data102};
+if(data.monteCarlo !== undefined){
+let data103 = data.monteCarlo;
+if(data103 && typeof data103 == "object" && !Array.isArray(data103)){
+for(const key16 in data103){
+if(!((key16 === "samples") || (key16 === "seed"))){
+const err305 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key16},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data103};
 if(vErrors === null){
 vErrors = [err305];
 }
@@ -3687,9 +3694,10 @@ vErrors.push(err305);
 errors++;
 }
 }
-}
-else {
-const err306 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data100};
+if(data103.samples !== undefined){
+let data104 = data103.samples;
+if(!((typeof data104 == "number") && (!(data104 % 1) && !isNaN(data104)))){
+const err306 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
 if(vErrors === null){
 vErrors = [err306];
 }
@@ -3698,13 +3706,9 @@ vErrors.push(err306);
 }
 errors++;
 }
-}
-if(data.monteCarlo !== undefined){
-let data103 = data.monteCarlo;
-if(data103 && typeof data103 == "object" && !Array.isArray(data103)){
-for(const key16 in data103){
-if(!((key16 === "samples") || (key16 === "seed"))){
-const err307 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key16},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data103};
+if(typeof data104 == "number"){
+if(data104 > 100000 || isNaN(data104)){
+const err307 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
 if(vErrors === null){
 vErrors = [err307];
 }
@@ -3713,11 +3717,8 @@ vErrors.push(err307);
 }
 errors++;
 }
-}
-if(data103.samples !== undefined){
-let data104 = data103.samples;
-if(!((typeof data104 == "number") && (!(data104 % 1) && !isNaN(data104)))){
-const err308 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
+if(data104 < 100 || isNaN(data104)){
+const err308 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
 if(vErrors === null){
 vErrors = [err308];
 }
@@ -3726,9 +3727,12 @@ vErrors.push(err308);
 }
 errors++;
 }
-if(typeof data104 == "number"){
-if(data104 > 100000 || isNaN(data104)){
-const err309 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
+}
+}
+if(data103.seed !== undefined){
+let data105 = data103.seed;
+if(!((typeof data105 == "number") && (!(data105 % 1) && !isNaN(data105)))){
+const err309 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
 if(vErrors === null){
 vErrors = [err309];
 }
@@ -3737,8 +3741,9 @@ vErrors.push(err309);
 }
 errors++;
 }
-if(data104 < 100 || isNaN(data104)){
-const err310 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
+if(typeof data105 == "number"){
+if(data105 > 4294967295 || isNaN(data105)){
+const err310 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
 if(vErrors === null){
 vErrors = [err310];
 }
@@ -3747,12 +3752,8 @@ vErrors.push(err310);
 }
 errors++;
 }
-}
-}
-if(data103.seed !== undefined){
-let data105 = data103.seed;
-if(!((typeof data105 == "number") && (!(data105 % 1) && !isNaN(data105)))){
-const err311 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
+if(data105 < 0 || isNaN(data105)){
+const err311 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
 if(vErrors === null){
 vErrors = [err311];
 }
@@ -3761,9 +3762,11 @@ vErrors.push(err311);
 }
 errors++;
 }
-if(typeof data105 == "number"){
-if(data105 > 4294967295 || isNaN(data105)){
-const err312 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
+}
+}
+}
+else {
+const err312 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data103};
 if(vErrors === null){
 vErrors = [err312];
 }
@@ -3772,8 +3775,10 @@ vErrors.push(err312);
 }
 errors++;
 }
-if(data105 < 0 || isNaN(data105)){
-const err313 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
+}
+}
+else {
+const err313 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
 if(vErrors === null){
 vErrors = [err313];
 }
@@ -3782,37 +3787,12 @@ vErrors.push(err313);
 }
 errors++;
 }
-}
-}
-}
-else {
-const err314 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data103};
-if(vErrors === null){
-vErrors = [err314];
-}
-else {
-vErrors.push(err314);
-}
-errors++;
-}
-}
-}
-else {
-const err315 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
-if(vErrors === null){
-vErrors = [err315];
-}
-else {
-vErrors.push(err315);
-}
-errors++;
-}
 validate10.errors = vErrors;
 return errors === 0;
 }
 
 /** Hash (rjsf's hashForSchema) of the schema these validators were compiled from. */
-export const SPEC_SCHEMA_HASH = "219755cb";
+export const SPEC_SCHEMA_HASH = "-19119133";
 
 /** rjsf precompiled validator functions, by schema $id. */
 export const SPEC_VALIDATORS = {
