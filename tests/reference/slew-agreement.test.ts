@@ -76,7 +76,7 @@ const SATURATING: [string, Design][] = [
 
 /** The reference figure, with the first window from the engine's settling time. */
 async function referenceSlewVPerS(design: Design): Promise<number> {
-  const { settlingS } = slewRun(solveCircuit(design));
+  const { settlingS } = slewRun(solveCircuit(design), { untilSettled: true });
   return spiceSlewRateVPerS(runSpice, design, EDGE_S + WINDOW_SETTLINGS * settlingS);
 }
 

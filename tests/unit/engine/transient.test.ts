@@ -10,6 +10,7 @@ import { GROUND, type CircuitElement, type StageCircuit } from '#shared/engine/c
 import { npnModel } from '#shared/engine/device';
 import { indexCircuit, nodeVoltage } from '#shared/engine/node-system';
 import { gear2, integrateTransient, type TransientRun } from '#shared/engine/transient';
+import { ConvergenceError } from '#shared/engine/operating-point';
 import type { BjtModelCard } from '#shared/engine/bjt-parameters';
 import { resolvedParameters } from '#shared/engine/bjt-parameters';
 
@@ -150,5 +151,30 @@ describe('nonlinear stored charge', () => {
     expect(Math.abs(deliveredC / expected - 1)).toBeLessThan(2e-3);
     // a linear capacitance at zero bias would have taken −60 pC: far outside that
     expect(Math.abs(expected / (30e-12 * -2) - 1)).toBeGreaterThan(0.2);
+  });
+});
+
+describe('a run that cannot meet its tolerance is given up early', () => {
+  test('a tolerance no step can meet, no shortest step: a ConvergenceError after a few dozen tries, not thousands', () => {
+    const ic = indexCircuit(circuitOf([
+      { kind: 'resistor', name: 'R1', nodes: ['src', 'out'], resistanceOhm: 1000, part: 'pair' },
+      { kind: 'capacitor', name: 'C1', nodes: ['out', GROUND], capacitanceF: 1e-9, part: 'pair' },
+    ]));
+    // 1e-30 V: far below the rounding of any node voltage, so every checked step is redone; and
+    // no floor under the step, so only a limit on the redone steps ends the run
+    const run = { ...rampRun(1, 100e-9, 5e-6, 1e-30, -ic.nodeRef('src') - 1, () => {}), minStepS: 0 };
+    let tries = 0;
+    const counted: TransientRun = { ...run, fixedVAt: (tS, fixedV) => { tries += 1; run.fixedVAt(tS, fixedV); } };
+    expect(() => integrateTransient(ic, MODEL, null, 27, [0], counted)).toThrow(ConvergenceError);
+    expect(tries).toBeLessThan(50);
+  });
+
+  test('a run that needs more steps than it allows: a ConvergenceError at that count', () => {
+    const ic = indexCircuit(circuitOf([
+      { kind: 'resistor', name: 'R1', nodes: ['src', 'out'], resistanceOhm: 1000, part: 'pair' },
+      { kind: 'capacitor', name: 'C1', nodes: ['out', GROUND], capacitanceF: 1e-9, part: 'pair' },
+    ]));
+    const run = { ...rampRun(1, 100e-9, 5e-6, 1e-7, -ic.nodeRef('src') - 1, () => {}), maxSteps: 30 };
+    expect(() => integrateTransient(ic, MODEL, null, 27, [0], run)).toThrow(/within 30 steps/);
   });
 });
