@@ -14,7 +14,7 @@ function unitOf(unit: string): string {
 }
 
 /** The unit each kind of difference is printed in. */
-const DELTA_UNITS: Record<VerifiedFigure['deltaKind'], string> = { percent: '%', db: 'dB', volts: 'V' };
+const DELTA_UNITS: Record<Exclude<VerifiedFigure['deltaKind'], 'absolute'>, string> = { percent: '%', db: 'dB', volts: 'V' };
 
 /** A predicted or simulated figure: "960 µA", "101.8 dB", "2.32 kΩ"; an em dash when missing. */
 export function figureText(value: number | null, unit: string): string {
@@ -22,18 +22,26 @@ export function figureText(value: number | null, unit: string): string {
   return formatFigure(value, unitOf(unit));
 }
 
-/** The engine minus ngspice: "+0.9 %", "−0.4 dB", "+12 mV"; an em dash when either side is missing. */
-export function deltaText(figure: Pick<VerifiedFigure, 'delta' | 'deltaKind'>): string {
+/** The engine minus ngspice: "+0.9 %", "−0.4 dB", "+12 mV", "+3 µV"; an em dash when either side is missing. */
+export function deltaText(figure: Pick<VerifiedFigure, 'delta' | 'deltaKind'> & { unit?: string }): string {
   const { delta, deltaKind } = figure;
   if (delta === null || !Number.isFinite(delta)) return '—';
   if (deltaKind === 'volts') return formatSignedQuantity(delta, 'V');
+  if (deltaKind === 'absolute') return formatSignedQuantity(delta, unitOf(figure.unit ?? ''));
   if (deltaKind === 'percent') return formatPercent(delta, { sign: 'exceptZero', trimZeros: false });
   return formatDb(delta, { sign: 'exceptZero' });
 }
 
-/** The tolerance a difference is held to: "±3 %", "±1.5 dB", "±50 mV". */
-export function toleranceText(figure: Pick<VerifiedFigure, 'tolerance' | 'deltaKind'>): string {
-  return formatTolerance(figure.tolerance, DELTA_UNITS[figure.deltaKind]);
+/** The tolerance a difference is held to: "±3 %", "±1.5 dB", "±50 mV", "±20 µV". */
+export function toleranceText(figure: Pick<VerifiedFigure, 'tolerance' | 'deltaKind'> & { unit?: string }): string {
+  return formatTolerance(figure.tolerance, figure.deltaKind === 'absolute' ? unitOf(figure.unit ?? '') : DELTA_UNITS[figure.deltaKind]);
+}
+
+/** Why a listed figure has no verdict, in words; null when it was compared (or could not be, for want of a side). */
+export function notComparedText(figure: Pick<VerifiedFigure, 'notCompared'>): string | null {
+  if (figure.notCompared === 'not-predicted') return 'Not predicted by the engine version that made this proposal: ngspice’s value alone.';
+  if (figure.notCompared === 'matched-pair') return 'The pair is matched, so this is zero by symmetry and nothing was simulated; its spread is in the SPICE Monte Carlo.';
+  return null;
 }
 
 export interface VerdictLook {
@@ -41,8 +49,10 @@ export interface VerdictLook {
   label: string;
 }
 
-/** One figure: within tolerance, outside it, or not compared (a side is missing). */
-export function figureVerdict(agrees: boolean | null): VerdictLook {
+/** One figure: within tolerance, outside it, or not compared (a side is missing, not predicted, or a matched pair's zero). */
+export function figureVerdict(agrees: boolean | null, notCompared?: VerifiedFigure['notCompared']): VerdictLook {
+  if (notCompared === 'not-predicted') return { kind: 'not-applicable', label: 'Not predicted' };
+  if (notCompared === 'matched-pair') return { kind: 'not-applicable', label: 'Zero by symmetry' };
   if (agrees === null) return { kind: 'not-applicable', label: 'Not compared' };
   return agrees ? { kind: 'holds', label: 'Agrees' } : { kind: 'short', label: 'Disagrees' };
 }
