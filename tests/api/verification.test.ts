@@ -9,6 +9,7 @@
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SpiceEngine } from '../../api/verification/spice-engine';
+import { monteCarloDraws } from '#shared/engine/mismatch';
 import type {
   MonteCarloVerificationResult,
   ProposalVerificationResult,
@@ -173,6 +174,31 @@ describe('verification of every option of the demo proposals', () => {
     expect(histogramTotal(result.histogram.simulatedCounts)).toBe(40);
     expect(histogramTotal(result.histogram.predictedCounts)).toBe(40);
     expect(result.histogram.binEdgesDb).toHaveLength(result.histogram.simulatedCounts.length + 1);
+
+    // Each run's offset at nominal against the pair's hand formula on the same draws (Gray, Hurst,
+    // Lewis, Meyer, the emitter-coupled pair's offset: VOS = ΔVBE + VT·ln(RC2/RC1)), BF and VAF
+    // differences left out (with no source resistance they move it by a few per cent of σ at most).
+    const offset = result.offset!;
+    expect(offset.failedRuns).toBe(0);
+    expect(offset.simulatedV).toHaveLength(40);
+    expect(offset.sigmas).toBe(3);
+    expect(offset.condition).toMatch(/27 °C/);
+    const spec = demoSpec('strain-bridge-receiver.json') as { device: { vbeMismatchSigmaV: number }; resistors: { tolerancePercent: number } };
+    const draws = monteCarloDraws(40, 7);
+    const resistorSigma = spec.resistors.tolerancePercent / 100 / 3;
+    const vt = (1.380649e-23 * 300.15) / 1.602176634e-19;
+    const hand = Array.from({ length: 40 }, (_, i) => {
+      const load1 = 1 + resistorSigma * draws.normals[3 * i];
+      const load2 = 1 + resistorSigma * draws.normals[3 * i + 1];
+      return spec.device.vbeMismatchSigmaV * draws.normals[3 * i + 2] + vt * Math.log(load2 / load1);
+    });
+    const mean = (v: number[]) => v.reduce((a, b) => a + b, 0) / v.length;
+    const deviation = (v: number[]) => Math.sqrt(v.reduce((a, x) => a + (x - mean(v)) ** 2, 0) / (v.length - 1));
+    expect(Math.abs(offset.simulated.standardDeviationV / deviation(hand) - 1), `σ ${offset.simulated.standardDeviationV} V, by hand ${deviation(hand)} V`).toBeLessThanOrEqual(0.03);
+    expect(Math.abs(offset.simulated.meanV - mean(hand))).toBeLessThanOrEqual(50e-6);
+    expect(offset.simulated.atSigmasV).toBeCloseTo(3 * offset.simulated.standardDeviationV, 12);
+    if (offset.predicted === null) expect(offset.predictedAbsent).toMatch(/stores no statistical offset/);
+    else expect(offset.predictedAbsent).toBeNull();
   }, 90_000);
 
   it('refuses a Monte Carlo for a single-ended output with the reason', async () => {
