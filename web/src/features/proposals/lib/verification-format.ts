@@ -3,7 +3,7 @@
  * unit and tolerances (all through shared/units/figures.ts), and the verdict of a figure or an option in the app's status language.
  */
 import { formatQuantity } from '#shared/units/format-quantity';
-import type { OptionVerification, VerifiedFigure } from '#shared/verification/types';
+import { FIGURE_GROUPS, type FigureGroup, type OptionVerification, type VerifiedFigure } from '#shared/verification/types';
 import type { VerdictKind } from '../../../components/ui/verdict';
 import { topologyName } from '../../../lib/topology-names';
 import { formatDb, formatFigure, formatFixed, formatPercent, formatSignedQuantity, formatTolerance } from '#shared/units/figures';
@@ -92,4 +92,39 @@ export function verificationTally(options: Pick<OptionVerification, 'outcome' | 
   if (differ > 0) parts.push(`${differ} ${differ === 1 ? 'has' : 'have'} figures outside it`);
   if (errors > 0) parts.push(`${errors} could not be simulated`);
   return `${parts.join('; ')}.`;
+}
+
+/** The nominal table's group headings. */
+export const FIGURE_GROUP_LABELS: Record<FigureGroup, string> = {
+  bias: 'Operating point',
+  gain: 'Gain and common-mode rejection',
+  input: 'Input',
+  supply: 'Supply rejection',
+  speed: 'Bandwidth, slew rate and noise',
+};
+
+/** Figures in their groups, in the table's order; one untitled group for results stored without groups. */
+export function figureGroups<F extends Pick<VerifiedFigure, 'group'>>(figures: readonly F[]): { heading: string | null; figures: F[] }[] {
+  if (!figures.some((f) => f.group)) return [{ heading: null, figures: [...figures] }];
+  const groups = FIGURE_GROUPS.map((group) => ({ heading: FIGURE_GROUP_LABELS[group], figures: figures.filter((f) => f.group === group) }));
+  const ungrouped = figures.filter((f) => !f.group);
+  return [...groups, { heading: 'Other', figures: ungrouped }].filter((g) => g.figures.length > 0);
+}
+
+/**
+ * The notes under a table: why rows are listed without a verdict, and how the floored tolerances
+ * (offset, drift) were set, each said once.
+ */
+export function figureNotes(figures: readonly Pick<VerifiedFigure, 'notCompared' | 'toleranceBasis' | 'label' | 'agrees'>[]): string[] {
+  const notes: string[] = [];
+  const notPredicted = figures.filter((f) => f.notCompared === 'not-predicted');
+  if (notPredicted.length > 0) {
+    notes.push(`Not predicted (${notPredicted.map((f) => f.label).join(', ')}): the engine version that made this proposal did not predict ${notPredicted.length === 1 ? 'this figure' : 'these figures'}, so only ngspice’s value is shown; nothing is recomputed now in its place.`);
+  }
+  const matched = figures.filter((f) => f.notCompared === 'matched-pair');
+  if (matched.length > 0) {
+    notes.push(`Zero by symmetry (${matched.map((f) => f.label).join(', ')}): this design’s pair is matched, so the engine and ngspice both give zero and nothing was simulated; the spread from mismatch is in the SPICE Monte Carlo.`);
+  }
+  for (const f of figures) if (f.toleranceBasis && f.agrees !== null) notes.push(`${f.label}: tolerance ${f.toleranceBasis}.`);
+  return notes;
 }
