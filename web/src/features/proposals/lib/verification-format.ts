@@ -115,7 +115,7 @@ export function figureGroups<F extends Pick<VerifiedFigure, 'group'>>(figures: r
  * The notes under a table: why rows are listed without a verdict, and how the floored tolerances
  * (offset, drift) were set, each said once.
  */
-export function figureNotes(figures: readonly Pick<VerifiedFigure, 'notCompared' | 'toleranceBasis' | 'label' | 'agrees'>[]): string[] {
+export function figureNotes(figures: readonly Pick<VerifiedFigure, 'key' | 'notCompared' | 'toleranceBasis' | 'label' | 'agrees' | 'predicted' | 'simulated'>[]): string[] {
   const notes: string[] = [];
   const notPredicted = figures.filter((f) => f.notCompared === 'not-predicted');
   if (notPredicted.length > 0) {
@@ -126,5 +126,9 @@ export function figureNotes(figures: readonly Pick<VerifiedFigure, 'notCompared'
     notes.push(`Zero by symmetry (${matched.map((f) => f.label).join(', ')}): this design’s pair is matched, so the engine and ngspice both give zero and nothing was simulated; the spread from mismatch is in the SPICE Monte Carlo.`);
   }
   for (const f of figures) if (f.toleranceBasis && f.agrees !== null) notes.push(`${f.label}: tolerance ${f.toleranceBasis}.`);
+  const bandwidth = figures.find((f) => f.key === 'differentialBandwidthHz');
+  if (bandwidth && !bandwidth.notCompared && bandwidth.predicted === null && bandwidth.simulated === null) {
+    notes.push(`${bandwidth.label}: neither the engine (to 10 GHz) nor ngspice’s sweep finds the gain 3 dB down: nothing in this circuit stores enough charge to slow it there.`);
+  }
   return notes;
 }

@@ -38,7 +38,7 @@ function notVerifiedWhy(job: VerificationJobView | null): string {
 
 function AgreementVerdict({ agrees, notCompared }: { agrees: boolean | null; notCompared?: VerifiedFigure['notCompared'] }) {
   if (notCompared === 'not-predicted') return <Verdict kind="not-applicable" label="Not predicted" />;
-  if (notCompared === 'matched-pair') return <Verdict kind="not-applicable" label="Zero by symmetry" />;
+  if (notCompared === 'matched-pair') return <Verdict kind="not-applicable" label="By symmetry" />;
   if (agrees === null) return <Verdict kind="not-applicable" label="Not compared" />;
   return agrees ? <Verdict kind="holds" label="Agrees" /> : <Verdict kind="short" label="Outside" />;
 }
