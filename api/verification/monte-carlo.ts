@@ -9,15 +9,27 @@
  *
  * The simulated circuit scales RC1 and RC2 by their own draws (the closed form sees only their
  * ratio); the difference that makes is part of what this run shows.
+ *
+ * Each run also yields its input offset voltage: the same draws at the option's nominal condition
+ * (ΔVBE turned into Q2's IS at that condition's thermal voltage), one `.dc` sweep of the
+ * differential drive over ±20 mV and the zero of v(c1,c2) interpolated in it
+ * (`spiceOffsetInWindowV`). That is the contract's own measure at the cost of one analysis a run;
+ * the first-order −v(c1,c2)/Ad from `.op` would take as many analyses (it needs Ad from that run)
+ * and drops the transfer's curvature. The offsets' standard deviation and its value at the spec's
+ * sigmas are set beside the engine's stored statistical offset when the option carries one.
  */
 import { solveStage } from '#shared/engine/analyze';
 import { mismatchCmrrDb, mismatchSensitivity, mismatchSigmas, mismatchStages, mismatchedDesign, monteCarloDraws, monteCarloSample, percentile } from '#shared/engine/mismatch';
 import type { RecommendOption } from '#shared/engine/recommend';
 import type { Design, Spec } from '#shared/engine/types';
 import type { NetlistCardSettings } from '#shared/engine/netlist';
-import type { MonteCarloVerificationResult } from '#shared/verification/types';
+import type { MonteCarloOffset, MonteCarloVerificationResult } from '#shared/verification/types';
 import { singleFrequencySweep, type SpiceRunner } from './spice-analyses';
+import { spiceOffsetInWindowV } from './spice-tradeoffs';
 import { acAt } from './verify-option';
+import { conditionLabel } from '#shared/text/engine-notes';
+import { NOMINAL_TEMPERATURE_C } from '#shared/engine/constants';
+import { storedOffsetStatistics } from './stored-offset';
 
 const HISTOGRAM_BINS = 30;
 /**
@@ -27,6 +39,25 @@ const HISTOGRAM_BINS = 30;
  */
 const STORED_DB_PER_UNIT = 1e4;
 const stored = (valuesDb: number[]) => valuesDb.map((v) => Math.round(v * STORED_DB_PER_UNIT) / STORED_DB_PER_UNIT);
+/** Stored per-run offsets are rounded to 1 nV: far below the contract's 20 µV floor and ngspice's own tolerance. */
+const STORED_V_PER_UNIT = 1e9;
+/** The spec's offset target is read at this many standard deviations when it names none (ENGINE-CONTRACT.md, `offset.sigmas`). */
+const DEFAULT_OFFSET_SIGMAS = 3;
+
+/** The spec's `offset.sigmas` when it sets an offset target, else the contract's default. */
+function offsetSigmas(spec: Spec): number {
+  const sigmas = (spec as { offset?: { sigmas?: unknown } }).offset?.sigmas;
+  return typeof sigmas === 'number' && sigmas > 0 ? sigmas : DEFAULT_OFFSET_SIGMAS;
+}
+
+/** Mean, sample standard deviation and the value at `sigmas` standard deviations (sigmas × σ) of the runs' offsets. */
+export function offsetStatistics(offsetsV: readonly number[], sigmas: number): MonteCarloOffset['simulated'] {
+  const n = offsetsV.length;
+  const meanV = n > 0 ? offsetsV.reduce((a, b) => a + b, 0) / n : 0;
+  const variance = n > 1 ? offsetsV.reduce((a, v) => a + (v - meanV) ** 2, 0) / (n - 1) : 0;
+  const standardDeviationV = Math.sqrt(variance);
+  return { meanV, standardDeviationV, atSigmasV: sigmas * standardDeviationV };
+}
 
 /** Why an option cannot have a SPICE Monte Carlo, or null when it can. */
 export function monteCarloRefusal(spec: Spec, option: RecommendOption | undefined): string | null {
@@ -97,11 +128,15 @@ export async function runMonteCarlo(
   const simulatedDb: number[] = [];
   const predictedDb: number[] = [];
   let failedRuns = 0;
+  // The offset at the nominal condition: ΔVBE drawn there becomes Q2's IS at that condition's VT.
+  const nominalThermalVoltageV = mismatchSensitivity(mismatchStages(solveStage(design)), f).thermalVoltageV;
+  const offsetsV: number[] = [];
+  let failedOffsets = 0;
   for (let i = 0; i < runs; i += 1) {
     if (slicing && i > 0 && i % slicing.sliceRuns === 0) await slicing.betweenSlices();
     const sample = monteCarloSample(draws, i, mismatchSigmas(spec), sensitivity.thermalVoltageV);
     predictedDb.push(mismatchCmrrDb(sensitivity, sample.mismatches));
-    await onProgress(i, `Run ${i + 1} of ${runs} at ${governing.label}`);
+    await onProgress(i, `Run ${i + 1} of ${runs}: rejection at ${governing.label}, offset at nominal`);
     try {
       const ac = await acAt(
         run,
@@ -115,11 +150,35 @@ export async function runMonteCarlo(
     } catch {
       failedRuns += 1;
     }
+    try {
+      const atNominal = monteCarloSample(draws, i, mismatchSigmas(spec), nominalThermalVoltageV);
+      const offsetV = await spiceOffsetInWindowV(
+        run,
+        { ...mismatchedDesign(design, atNominal.mismatches), collectorResistanceOhm: design.collectorResistanceOhm * atNominal.load1Scale },
+        card,
+      );
+      if (Number.isFinite(offsetV)) offsetsV.push(offsetV);
+      else failedOffsets += 1;
+    } catch {
+      failedOffsets += 1;
+    }
   }
   await onProgress(runs, 'Statistics');
   simulatedDb.sort((a, b) => a - b);
   predictedDb.sort((a, b) => a - b);
   const requiredDb = spec.cmrr.minDb;
+  offsetsV.sort((a, b) => a - b);
+  const sigmas = offsetSigmas(spec);
+  const engineOffset = storedOffsetStatistics(option, sigmas);
+  const offset: MonteCarloOffset = {
+    condition: conditionLabel(design.inputCommonModeV ?? 0, design.temperatureC ?? NOMINAL_TEMPERATURE_C),
+    sigmas,
+    failedRuns: failedOffsets,
+    simulatedV: offsetsV.map((v) => Math.round(v * STORED_V_PER_UNIT) / STORED_V_PER_UNIT),
+    simulated: offsetStatistics(offsetsV, sigmas),
+    predicted: engineOffset,
+    predictedAbsent: engineOffset ? null : 'The engine version that made this proposal stores no statistical offset for this option: the SPICE distribution is shown alone.',
+  };
   return {
     simulator,
     topology: option.topology,
@@ -134,6 +193,7 @@ export async function runMonteCarlo(
     predictedDb: stored(predictedDb),
     predicted: statistics(predictedDb, requiredDb),
     histogram: histogram(simulatedDb, predictedDb),
+    offset,
     elapsedMs: performance.now() - t0,
   };
 }

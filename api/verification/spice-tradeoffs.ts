@@ -5,10 +5,11 @@
  * from `.dc` sweeps of the one differential source, supply rejection from `.ac` on each rail,
  * input resistance from the differential `.ac` drive current, noise from `.noise`, slew rate
  * from `.tran`. Every function takes a `SpiceRunner`, so verification jobs and reference tests
- * read ngspice the same way.
+ * read ngspice the same way; each takes the library card's SPICE-only parameters (`card`) too, so a
+ * verification simulates the whole card as its other analyses do.
  */
 import { COLLECTOR_NODES, INPUT_NODES, RAIL_NODES, pairIsMatched } from '#shared/engine/circuit';
-import { INPUT_SOURCES, spiceNetlist, type NetlistOptions } from '#shared/engine/netlist';
+import { INPUT_SOURCES, spiceNetlist, type NetlistCardSettings, type NetlistOptions } from '#shared/engine/netlist';
 import type { Design } from '#shared/engine/types';
 import {
   LOW_FREQUENCY_HZ,
@@ -29,8 +30,13 @@ export interface SpiceSweep {
 }
 
 /** Runs a real-valued analysis (reference RELTOL) and returns its axis (first vector) and the others by name. */
-export async function spiceSweep(run: SpiceRunner, design: Design, options: Extract<NetlistOptions, { analysis: 'dc-differential' | 'noise' | 'tran-step' }>): Promise<SpiceSweep> {
-  const netlist = spiceNetlist(design, { relativeTolerance: REFERENCE_RELATIVE_TOLERANCE, ...options });
+export async function spiceSweep(
+  run: SpiceRunner,
+  design: Design,
+  options: Extract<NetlistOptions, { analysis: 'dc-differential' | 'noise' | 'tran-step' }>,
+  card: NetlistCardSettings = {},
+): Promise<SpiceSweep> {
+  const netlist = spiceNetlist(design, { relativeTolerance: REFERENCE_RELATIVE_TOLERANCE, ...options, ...card });
   const result = await run(netlist, PLOT_NAMES[options.analysis]);
   if (result.dataType !== 'real') throw new Error(`ngspice ${options.analysis} returned complex data`);
   const [axis, ...rest] = result.data;
@@ -46,8 +52,8 @@ function outputOf(sweep: SpiceSweep): number[] {
 }
 
 /** The DC currents into in1 and in2 (from the drive), A, at a differential DC input (V). */
-export async function spiceInputCurrentsA(run: SpiceRunner, design: Design, differentialInputV = 0): Promise<[number, number]> {
-  const netlist = spiceNetlist(design, { analysis: 'op', differentialInputV, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
+export async function spiceInputCurrentsA(run: SpiceRunner, design: Design, differentialInputV = 0, card: NetlistCardSettings = {}): Promise<[number, number]> {
+  const netlist = spiceNetlist(design, { analysis: 'op', differentialInputV, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE, ...card });
   const result = await run(netlist, PLOT_NAMES.op);
   const current = (source: string): number => {
     const vector = result.data.find((d) => d.name.toLowerCase() === `i(${source.toLowerCase()})`);
@@ -78,11 +84,11 @@ function interpolatedZero(x0: number, f0: number, x1: number, f1: number): numbe
  * v(c1) = v(c2), the interpolated zero of v(c1,c2) in a `.dc` sweep of VD. A sweep over ±0.1 V
  * (then ±1 V, ±10 V) finds the crossing; two sweeps each a hundred times finer around it refine it.
  */
-export async function spiceOffsetVoltageV(run: SpiceRunner, design: Design): Promise<number> {
+export async function spiceOffsetVoltageV(run: SpiceRunner, design: Design, card: NetlistCardSettings = {}): Promise<number> {
   let low = Number.NaN;
   let high = Number.NaN;
   for (const spanV of [0.1, 1, 10]) {
-    const sweep = await spiceSweep(run, design, { analysis: 'dc-differential', startV: -spanV, stopV: spanV, stepV: (2 * spanV) / SEARCH_POINTS });
+    const sweep = await spiceSweep(run, design, { analysis: 'dc-differential', startV: -spanV, stopV: spanV, stepV: (2 * spanV) / SEARCH_POINTS }, card);
     const out = outputOf(sweep);
     const k = firstSignChange(out);
     if (k > 0) {
@@ -95,7 +101,7 @@ export async function spiceOffsetVoltageV(run: SpiceRunner, design: Design): Pro
   let zeroV = (low + high) / 2;
   for (let pass = 0; pass < 2; pass += 1) {
     const stepV = (high - low) / REFINE_FACTOR;
-    const sweep = await spiceSweep(run, design, { analysis: 'dc-differential', startV: low, stopV: high + stepV / 2, stepV });
+    const sweep = await spiceSweep(run, design, { analysis: 'dc-differential', startV: low, stopV: high + stepV / 2, stepV }, card);
     const out = outputOf(sweep);
     const k = firstSignChange(out);
     if (k < 0) break;
@@ -106,6 +112,25 @@ export async function spiceOffsetVoltageV(run: SpiceRunner, design: Design): Pro
   return zeroV;
 }
 
+/** Half-width of the one sweep that finds a Monte Carlo run's offset, V: several σ of any pair's offset. */
+export const OFFSET_WINDOW_V = 0.02;
+
+/**
+ * One circuit's input offset voltage from a single `.dc` sweep of VD over ±20 mV in 0.2 mV steps,
+ * the zero of v(c1,c2) interpolated linearly between the two points around it (the Monte Carlo's
+ * per-run measure: one analysis instead of the three or more of the search above). Over 0.2 mV
+ * the transfer is straight to a few parts in 10⁴ (its curvature scale is 2·VT ≈ 52 mV), so the
+ * interpolation stays within a microvolt of the refined zero (tests/reference). An offset outside
+ * the window falls back to the full search.
+ */
+export async function spiceOffsetInWindowV(run: SpiceRunner, design: Design, card: NetlistCardSettings = {}): Promise<number> {
+  const sweep = await spiceSweep(run, design, { analysis: 'dc-differential', startV: -OFFSET_WINDOW_V, stopV: OFFSET_WINDOW_V * (1 + 0.5 / SEARCH_POINTS), stepV: (2 * OFFSET_WINDOW_V) / SEARCH_POINTS }, card);
+  const out = outputOf(sweep);
+  const k = firstSignChange(out);
+  if (k < 0) return spiceOffsetVoltageV(run, design, card);
+  return interpolatedZero(sweep.axis[k - 1], out[k - 1], sweep.axis[k], out[k]);
+}
+
 /** Input bias, offset current and offset voltage as the contract measures them. */
 export interface SpiceInputFigures {
   inputBiasCurrentA: number;
@@ -114,18 +139,18 @@ export interface SpiceInputFigures {
 }
 
 /** Bias current (mean of the two at zero input), offset voltage, and offset current (in1 − in2 at the offset input). */
-export async function spiceInputFigures(run: SpiceRunner, design: Design): Promise<SpiceInputFigures> {
-  const [bias1, bias2] = await spiceInputCurrentsA(run, design, 0);
-  const inputOffsetVoltageV = await spiceOffsetVoltageV(run, design);
-  const [at1, at2] = await spiceInputCurrentsA(run, design, inputOffsetVoltageV);
+export async function spiceInputFigures(run: SpiceRunner, design: Design, card: NetlistCardSettings = {}): Promise<SpiceInputFigures> {
+  const [bias1, bias2] = await spiceInputCurrentsA(run, design, 0, card);
+  const inputOffsetVoltageV = await spiceOffsetVoltageV(run, design, card);
+  const [at1, at2] = await spiceInputCurrentsA(run, design, inputOffsetVoltageV, card);
   return { inputBiasCurrentA: (bias1 + bias2) / 2, inputOffsetVoltageV, inputOffsetCurrentA: at1 - at2 };
 }
 
 /** The contract's drift: (offset at T + 1 °C − offset at T − 1 °C) / 2, V/°C. */
-export async function spiceOffsetDriftVPerC(run: SpiceRunner, design: Design): Promise<number> {
+export async function spiceOffsetDriftVPerC(run: SpiceRunner, design: Design, card: NetlistCardSettings = {}): Promise<number> {
   const temperatureC = design.temperatureC ?? 27;
-  const above = await spiceOffsetVoltageV(run, { ...design, temperatureC: temperatureC + 1 });
-  const below = await spiceOffsetVoltageV(run, { ...design, temperatureC: temperatureC - 1 });
+  const above = await spiceOffsetVoltageV(run, { ...design, temperatureC: temperatureC + 1 }, card);
+  const below = await spiceOffsetVoltageV(run, { ...design, temperatureC: temperatureC - 1 }, card);
   return (above - below) / 2;
 }
 
@@ -133,6 +158,9 @@ export async function spiceOffsetDriftVPerC(run: SpiceRunner, design: Design): P
 export function unmismatchedDesign(design: Design): Design {
   return { ...design, collectorMismatch: 0, pairSaturationCurrentMismatch: 0, pairBetaMismatch: 0, pairEarlyVoltageMismatch: 0 };
 }
+
+/** Thrown when the stage stays within 1 % of its gain line to ±20 V of differential input: no linear range to read. */
+export class StaysLinearError extends Error {}
 
 /** How far v(c1,c2) may depart from differentialGain × the input within the linear range: 1 %. */
 export const LINEAR_RANGE_ERROR = 0.01;
@@ -144,16 +172,16 @@ export const LINEAR_RANGE_ERROR = 0.01;
  * from 0 outwards (0.2 V, then 2 V, then 20 V) find the first point past 1 %, and a sweep a
  * hundred times finer between the two points around it is interpolated.
  */
-export async function spiceLinearInputRangeV(run: SpiceRunner, design: Design): Promise<number> {
+export async function spiceLinearInputRangeV(run: SpiceRunner, design: Design, card: NetlistCardSettings = {}): Promise<number> {
   const symmetric = unmismatchedDesign(design);
-  const ac = await spiceAc(run, symmetric, { analysis: 'ac-differential', ...singleFrequencySweep(LOW_FREQUENCY_HZ) });
+  const ac = await spiceAc(run, symmetric, { analysis: 'ac-differential', ...singleFrequencySweep(LOW_FREQUENCY_HZ), ...card });
   const gain = ac.nodeVoltages.c1[0].re - ac.nodeVoltages.c2[0].re;
   const excess = (sweep: SpiceSweep): number[] =>
     outputOf(sweep).map((out, k) => (sweep.axis[k] === 0 ? -LINEAR_RANGE_ERROR : Math.abs(out - gain * sweep.axis[k]) / Math.abs(gain * sweep.axis[k]) - LINEAR_RANGE_ERROR));
   const rangeFor = async (sign: 1 | -1): Promise<number> => {
     for (const spanV of [0.2, 2, 20]) {
       const stepV = spanV / SEARCH_POINTS;
-      const sweep = await spiceSweep(run, symmetric, sign > 0 ? { analysis: 'dc-differential', startV: stepV, stopV: spanV, stepV } : { analysis: 'dc-differential', startV: -stepV, stopV: -spanV, stepV: -stepV });
+      const sweep = await spiceSweep(run, symmetric, sign > 0 ? { analysis: 'dc-differential', startV: stepV, stopV: spanV, stepV } : { analysis: 'dc-differential', startV: -stepV, stopV: -spanV, stepV: -stepV }, card);
       const e = excess(sweep);
       // a point past 1 % already at the first step: look between 0 and it
       const k = e[0] > 0 ? 0 : firstSignChange(e);
@@ -161,13 +189,13 @@ export async function spiceLinearInputRangeV(run: SpiceRunner, design: Design): 
       const from = k === 0 ? 0 : sweep.axis[k - 1];
       const to = sweep.axis[k];
       const fine = (to - from) / REFINE_FACTOR;
-      const refined = await spiceSweep(run, symmetric, { analysis: 'dc-differential', startV: from === 0 ? fine : from, stopV: to + fine / 2, stepV: Math.abs(fine) * Math.sign(to - from) });
+      const refined = await spiceSweep(run, symmetric, { analysis: 'dc-differential', startV: from === 0 ? fine : from, stopV: to + fine / 2, stepV: Math.abs(fine) * Math.sign(to - from) }, card);
       const r = excess(refined);
       const j = r[0] > 0 ? 0 : firstSignChange(r);
       if (j <= 0) return Math.abs(refined.axis[Math.max(j, 0)]);
       return Math.abs(interpolatedZero(refined.axis[j - 1], r[j - 1], refined.axis[j], r[j]));
     }
-    throw new Error('the stage stays linear within 1 % to ±20 V of differential input');
+    throw new StaysLinearError('the stage stays linear within 1 % to ±20 V of differential input');
   };
   return Math.min(await rangeFor(1), await rangeFor(-1));
 }
@@ -183,8 +211,8 @@ export interface SpicePsrr {
  * the rail's AC source to v(c1,c2) (or v(c1)), all at 1 Hz. A matched pair (pairIsMatched) moves
  * both collectors alike: its differential rejection is null, as the engine reports it.
  */
-export async function spicePsrrDb(run: SpiceRunner, design: Design): Promise<SpicePsrr> {
-  const sweep = singleFrequencySweep(LOW_FREQUENCY_HZ);
+export async function spicePsrrDb(run: SpiceRunner, design: Design, card: NetlistCardSettings = {}): Promise<SpicePsrr> {
+  const sweep = { ...singleFrequencySweep(LOW_FREQUENCY_HZ), ...card };
   const drive = await spiceAc(run, design, { analysis: 'ac-differential', ...sweep });
   const ad = complexMagnitude(difference(drive.nodeVoltages.c1[0], drive.nodeVoltages.c2[0]));
   const ase = complexMagnitude(drive.nodeVoltages.c1[0]);
@@ -208,8 +236,8 @@ function difference(a: Complex, b: Complex): Complex {
  * The contract's input resistance: v(in1) − v(in2) over the current the differential drive sends
  * into in1, at 1 Hz (the source resistors, between the drive and in1/in2, are outside it).
  */
-export async function spiceInputResistanceOhm(run: SpiceRunner, design: Design): Promise<number> {
-  const ac = await spiceAc(run, design, { analysis: 'ac-differential', ...singleFrequencySweep(LOW_FREQUENCY_HZ) });
+export async function spiceInputResistanceOhm(run: SpiceRunner, design: Design, card: NetlistCardSettings = {}): Promise<number> {
+  const ac = await spiceAc(run, design, { analysis: 'ac-differential', ...singleFrequencySweep(LOW_FREQUENCY_HZ), ...card });
   const [in1, in2] = INPUT_NODES.map((node) => ac.nodeVoltages[node][0]);
   // i(VIN1) flows into the source's + terminal; the drive's current into the circuit is its negative
   const current = ac.sourceCurrents[INPUT_SOURCES[0].toLowerCase()][0];
@@ -220,10 +248,10 @@ export async function spiceInputResistanceOhm(run: SpiceRunner, design: Design):
  * The contract's input-referred noise density at each frequency, V/√Hz: ngspice's
  * `inoise_spectrum` of `.noise v(c1,c2) VD`, one run per frequency (its first point).
  */
-export async function spiceInputNoiseVPerRtHz(run: SpiceRunner, design: Design, frequenciesHz: readonly number[]): Promise<number[]> {
+export async function spiceInputNoiseVPerRtHz(run: SpiceRunner, design: Design, frequenciesHz: readonly number[], card: NetlistCardSettings = {}): Promise<number[]> {
   const densities: number[] = [];
   for (const frequencyHz of frequenciesHz) {
-    const sweep = await spiceSweep(run, design, { analysis: 'noise', ...singleFrequencySweep(frequencyHz) });
+    const sweep = await spiceSweep(run, design, { analysis: 'noise', ...singleFrequencySweep(frequencyHz) }, card);
     densities.push(sweep.vectors.inoise_spectrum[0]);
   }
   return densities;
@@ -238,9 +266,9 @@ const STEP_DELAY_S = 1e-9;
  * the second runs to twice that with a step (and largest internal step) of 1/200 of it, and the
  * largest difference quotient between its points is the figure.
  */
-export async function spiceSlewRateVPerS(run: SpiceRunner, design: Design, windowS: number): Promise<number> {
+export async function spiceSlewRateVPerS(run: SpiceRunner, design: Design, windowS: number, card: NetlistCardSettings = {}): Promise<number> {
   const settle = async (stopS: number, stepS: number) => {
-    const sweep = await spiceSweep(run, design, { analysis: 'tran-step', fromV: -1, toV: 1, delayS: STEP_DELAY_S, stepS, stopS });
+    const sweep = await spiceSweep(run, design, { analysis: 'tran-step', fromV: -1, toV: 1, delayS: STEP_DELAY_S, stepS, stopS }, card);
     const out = outputOf(sweep);
     const final = out[out.length - 1];
     const swing = Math.abs(final - out[0]);

@@ -305,7 +305,7 @@ export class VerificationQueue {
     try {
       const { proposal, spec, result, specVersion } = await loadProposal(this.dataSource, job.proposalId);
       const targets = job.kind === 'proposal' ? await verificationTargets(this.dataSource, proposal, spec, result, specVersion, this.options.netlistHook) : [];
-      const sizes = targets.map((t) => analysesPerOption(t.option.corners.length));
+      const sizes = targets.map((t) => analysesPerOption(t.option));
       const offsets = sizes.map((_, i) => sizes.slice(0, i).reduce((a, b) => a + b, 0));
       const total = job.kind === 'proposal' ? sizes.reduce((a, b) => a + b, 0) : (job.runs ?? 0);
       await this.write(job.id, { total, done: 0, step: 'Starting the simulator' });

@@ -1,15 +1,19 @@
 /**
  * Verifying one option (or an override) in ngspice: the operating point, differential and
- * common-mode AC sweeps from 1 Hz to well past the rejection corner, the tail's output resistance
- * at nominal conditions, then the operating point and the spec-frequency AC runs at each corner
- * of input common mode × temperature. Every simulated figure is set beside the engine's stored
- * prediction with its delta and the documented tolerance (`VERIFICATION_TOLERANCES`).
+ * common-mode AC sweeps from 1 Hz to well past the rejection corner and the bandwidth, the tail's
+ * output resistance and the trade-off figures (tradeoff-figures.ts: input, supply rejection,
+ * bandwidth, noise, slew rate) at nominal conditions, then the operating point and the
+ * spec-frequency AC runs at each corner of input common mode × temperature. Every simulated
+ * figure is set beside the engine's stored prediction with its delta and the documented
+ * tolerance (`VERIFICATION_TOLERANCES`).
  */
 import type { RecommendOption } from '#shared/engine/recommend';
 import type { Design } from '#shared/engine/types';
 import type { DesignBinding } from '#shared/verification/binding';
 import {
+  FIGURE_GROUPS,
   VERIFICATION_TOLERANCES as TOL,
+  type FigureGroup,
   type OptionVerification,
   type RejectionPoint,
   type VerifiedCondition,
@@ -34,6 +38,8 @@ import { designStoresCharge } from '#shared/engine/circuit';
 import { conditionLabel } from '#shared/text/engine-notes';
 import { NOMINAL_TEMPERATURE_C } from '#shared/engine/constants';
 import { formatQuantity } from '#shared/units/format-quantity';
+import { absoluteFigure as absoluteNamed, percentFigure as percentNamed } from './figure-comparison';
+import { tradeoffAnalyses, tradeoffFigures, type StoredPrediction } from './tradeoff-figures';
 
 /** Points per decade of the nominal sweeps; every fifth point lands on the engine's 4-per-decade curve. */
 const SWEEP_POINTS_PER_DECADE = 20;
@@ -41,15 +47,26 @@ const SWEEP_POINTS_PER_DECADE = 20;
 const MIN_SWEEP_STOP_HZ = 1e9;
 const SWEEP_STOP_OVER_CORNER = 100;
 const MAX_SWEEP_STOP_HZ = 1e12;
+/** … and to 10× the predicted differential bandwidth, so its −3 dB point is inside the sweep. */
+const SWEEP_STOP_OVER_BANDWIDTH = 10;
 /** The engine's curve points fall every `SWEEP_POINTS_PER_DECADE / 4` sweep points. */
 const CURVE_STRIDE = SWEEP_POINTS_PER_DECADE / 4;
 
 /** Reports a step about to run: a readable description. */
 export type StepReporter = (step: string) => Promise<void> | void;
 
-/** Analyses one option's verification runs: nominal (op, two sweeps, tail) + each corner (op, two AC). */
-export function analysesPerOption(cornerCount: number): number {
-  return 4 + 3 * cornerCount;
+/** Analyses of the nominal runs: op, the two sweeps, the two AC runs at the spec frequency, the tail. */
+const NOMINAL_ANALYSES = 6;
+/** Analyses at each corner: op and the two AC runs at the spec frequency. */
+const CORNER_ANALYSES = 3;
+
+/**
+ * Analyses one option's verification runs (its progress steps): the nominal runs, the trade-off
+ * figures (the searches' least count; progress is clamped to the option's share), each corner.
+ */
+export function analysesPerOption(option: Pick<RecommendOption, 'design' | 'predicted' | 'corners'>): number {
+  const tradeoffs = option.design && option.predicted ? tradeoffAnalyses(option.design, option.predicted as StoredPrediction) : 0;
+  return NOMINAL_ANALYSES + tradeoffs + CORNER_ANALYSES * option.corners.length;
 }
 
 export interface OptionToVerify {
@@ -74,28 +91,48 @@ export interface OptionToVerify {
   card?: { name: string; spiceOnlyParameters: Readonly<Record<string, number>> };
 }
 
-/** Figures read at a frequency (charges matter); every other figure is the operating point's or low-frequency. */
-const FREQUENCY_FIGURES = new Set(['cmrrAtFrequencyDb', 'cmrrCornerHz']);
+/** Figures read at a frequency or over time (charges matter); every other figure is the operating point's or low-frequency. */
+const FREQUENCY_FIGURES = new Set(['cmrrAtFrequencyDb', 'cmrrCornerHz', 'differentialBandwidthHz', 'slewRateVPerS']);
+const isFrequencyFigure = (key: string) => FREQUENCY_FIGURES.has(key) || key.startsWith('inputNoiseVPerRtHz@');
+
+/** The nominal table's group of each established figure (the trade-off figures carry their own). */
+const ESTABLISHED_GROUPS: Record<string, FigureGroup> = {
+  tailCurrentA: 'bias',
+  collectorCurrentA: 'bias',
+  collectorVoltageV: 'bias',
+  tailNodeVoltageV: 'bias',
+  powerW: 'bias',
+  differentialGain: 'gain',
+  singleEndedGain: 'gain',
+  commonModeGain: 'gain',
+  cmrrSingleEndedDb: 'gain',
+  cmrrAtFrequencyDb: 'gain',
+  tailOutputResistanceOhm: 'gain',
+  cmrrCornerHz: 'gain',
+};
+
+/** The nominal figures in the table's group order (stable within a group). */
+function grouped(figures: VerifiedFigure[]): VerifiedFigure[] {
+  const withGroup = figures.map((f) => (f.group || !ESTABLISHED_GROUPS[f.key] ? f : { ...f, group: ESTABLISHED_GROUPS[f.key] }));
+  const rank = (f: VerifiedFigure) => (f.group ? FIGURE_GROUPS.indexOf(f.group) : FIGURE_GROUPS.length);
+  return withGroup.map((f, i) => ({ f, i })).sort((a, b) => rank(a.f) - rank(b.f) || a.i - b.i).map(({ f }) => f);
+}
 
 /** Each figure outside tolerance gets its likely cause (shared/verification/causes.ts). */
 function withCauses(figures: VerifiedFigure[], spiceOnly: readonly string[], saturated: readonly SaturatedTransistor[]): VerifiedFigure[] {
   return figures.map((figure) => {
     if (figure.agrees !== false) return figure;
-    const kind: FigureKind = FREQUENCY_FIGURES.has(figure.key) ? 'ac' : 'dc';
+    const kind: FigureKind = isFrequencyFigure(figure.key) ? 'ac' : 'dc';
     return { ...figure, cause: likelyCause(kind, spiceOnly, spiceOnlyParameterMoves, saturated) };
   });
 }
 
 function percentFigure(key: string, label: string, unit: string, predicted: number | null, simulated: number | null, tolerance: number): VerifiedFigure {
-  const comparable = predicted !== null && simulated !== null && Number.isFinite(predicted) && Number.isFinite(simulated) && simulated !== 0;
-  const delta = comparable ? ((predicted - simulated) / Math.abs(simulated)) * 100 : null;
-  return { key, label, unit, predicted, simulated, delta, deltaKind: 'percent', tolerance, agrees: delta === null ? null : Math.abs(delta) <= tolerance };
+  return percentNamed({ key, label, unit }, predicted, simulated, tolerance);
 }
 
 function absoluteFigure(key: string, label: string, unit: string, predicted: number | null, simulated: number | null, tolerance: number, kind: 'db' | 'volts'): VerifiedFigure {
-  const comparable = predicted !== null && simulated !== null && Number.isFinite(predicted) && Number.isFinite(simulated);
-  const delta = comparable ? predicted - simulated : null;
-  return { key, label, unit, predicted, simulated, delta, deltaKind: kind, tolerance, agrees: delta === null ? null : Math.abs(delta) <= tolerance };
+  return absoluteNamed({ key, label, unit }, predicted, simulated, tolerance, kind);
 }
 
 function withHook(run: SpiceRunner, hook: ((netlist: string) => string) | undefined): SpiceRunner {
@@ -140,7 +177,7 @@ export async function acAt(run: SpiceRunner, design: Design, sweep: AcSweep, car
 /** DC figures at one condition, with the node voltages the comparison shows and the transistors SPICE finds saturated. */
 async function dcAt(run: SpiceRunner, design: Design, card: NetlistCardSettings) {
   const op = await spiceOperatingPoint(run, design, { relativeTolerance: REFERENCE_RELATIVE_TOLERANCE, ...card });
-  return { ...dcFigures(design, op), collectorVoltageV: op.nodeVoltagesV.c1, tailNodeVoltageV: op.nodeVoltagesV.t, saturated: saturatedTransistors(design, op) };
+  return { ...dcFigures(design, op), op, collectorVoltageV: op.nodeVoltagesV.c1, tailNodeVoltageV: op.nodeVoltagesV.t, saturated: saturatedTransistors(design, op) };
 }
 
 /** Runs every analysis of one option and compares; a failing simulation becomes the option's error. */
@@ -178,7 +215,8 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
     const dc = await dcAt(run, design, card);
 
     const predictedCornerHz = predicted.cmrrCornerHz;
-    const stopHz = Math.min(MAX_SWEEP_STOP_HZ, Math.max(MIN_SWEEP_STOP_HZ, (predictedCornerHz ?? 0) * SWEEP_STOP_OVER_CORNER));
+    const predictedBandwidthHz = (predicted as StoredPrediction).differentialBandwidthHz ?? 0;
+    const stopHz = Math.min(MAX_SWEEP_STOP_HZ, Math.max(MIN_SWEEP_STOP_HZ, (predictedCornerHz ?? 0) * SWEEP_STOP_OVER_CORNER, predictedBandwidthHz * SWEEP_STOP_OVER_BANDWIDTH));
     await onStep(`${target.name}: differential and common-mode sweeps, 1 Hz to ${stopHz.toExponential(0)} Hz`);
     const sweep = await acAt(run, design, { startHz: 1, stopHz, pointsPerDecade: SWEEP_POINTS_PER_DECADE }, card);
     const low = sweep.figuresAt(0);
@@ -197,6 +235,16 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
     });
     const routOhm = 1 / complexMagnitude(tail.sourceCurrents[TAIL_TEST_SOURCE.toLowerCase()][0]);
 
+    const tradeoffs = await tradeoffFigures({
+      run,
+      design,
+      predicted: predicted as StoredPrediction,
+      op: dc.op,
+      sweep: { frequenciesHz: sweep.frequenciesHz, differentialGain: sweep.frequenciesHz.map((_, k) => sweep.figuresAt(k).differentialGain) },
+      card,
+      step: (what) => onStep(`${target.name}: ${what}`),
+    });
+
     const predictedCurve = option.curves?.cmrrVsFrequency ?? [];
     const rejectionCurve: RejectionPoint[] = [];
     for (let k = 0; k < sweep.frequenciesHz.length; k += CURVE_STRIDE) {
@@ -212,7 +260,7 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
       label: nominalLabel,
       inputCommonModeV: design.inputCommonModeV ?? 0,
       temperatureC: design.temperatureC ?? NOMINAL_TEMPERATURE_C,
-      figures: withCauses([
+      figures: grouped(withCauses([
         percentFigure('tailCurrentA', 'Tail current', 'A', predicted.tailCurrentA, dc.tailCurrentA, TOL.currentPercent),
         percentFigure('collectorCurrentA', 'Collector current Q1', 'A', predicted.collectorCurrentA, dc.collectorCurrentA, TOL.currentPercent),
         absoluteFigure('collectorVoltageV', 'Collector voltage Q1', 'V', predicted.collectorVoltageV, dc.collectorVoltageV, TOL.voltageV, 'volts'),
@@ -233,7 +281,8 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
         percentFigure('tailOutputResistanceOhm', 'Tail output resistance', 'Ohm', predicted.tailOutputResistanceOhm, routOhm, TOL.tailOutputResistancePercent),
         percentFigure('cmrrCornerHz', 'Rejection corner (−3 dB)', 'Hz', predictedCornerHz, simulatedCornerHz, TOL.cornerFrequencyPercent),
         percentFigure('powerW', 'Power', 'W', predicted.powerW, dc.powerW, TOL.powerPercent),
-      ], spiceOnly, dc.saturated),
+        ...tradeoffs,
+      ], spiceOnly, dc.saturated)),
     };
 
     const corners: VerifiedCondition[] = [];

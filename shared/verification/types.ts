@@ -38,8 +38,12 @@ export const ACTIVE_VERIFICATION_STATES = ['waiting', 'simulating'] as const;
  */
 export const MAX_ACTIVE_JOBS_PER_PERSON = 6;
 
-/** How a figure's difference is expressed: relative (% of the simulated value) or absolute dB. */
-export type DeltaKind = 'percent' | 'db';
+/**
+ * How a figure's difference is expressed: relative (% of the simulated value), absolute dB, or
+ * absolute in the figure's own unit (`absolute`: offset voltage and drift, whose tolerance is a
+ * percentage with a floor, so it is stated in the unit and worked out per figure).
+ */
+export type DeltaKind = 'percent' | 'db' | 'absolute';
 
 /**
  * Agreement tolerances between the engine and ngspice (the engine's issue; DEVELOPERS.md,
@@ -55,7 +59,39 @@ export const VERIFICATION_TOLERANCES = {
   powerPercent: 5,
   /** Node voltages (collector, tail node): absolute, in volts. */
   voltageV: 0.05,
+  /** The trade-off figures (ENGINE-CONTRACT.md, version 2 "New outputs"), the contract's tolerances. */
+  biasCurrentPercent: 3,
+  offsetCurrentPercent: 3,
+  /** Offset voltage: 3 % of ngspice's, or 20 µV, whichever is larger. */
+  offsetVoltagePercent: 3,
+  offsetVoltageFloorV: 20e-6,
+  /** Offset drift: 5 % of ngspice's, or 0.1 µV/°C, whichever is larger. */
+  offsetDriftPercent: 5,
+  offsetDriftFloorVPerC: 0.1e-6,
+  noiseDensityPercent: 5,
+  bandwidthPercent: 10,
+  slewRatePercent: 10,
+  linearRangePercent: 5,
+  psrrDb: 1.5,
+  inputResistancePercent: 5,
 } as const;
+
+/**
+ * Groups of the nominal figures, in the order the table shows them. Results stored before the
+ * groups were recorded have none on their figures and are shown as one list.
+ */
+export const FIGURE_GROUPS = ['bias', 'gain', 'input', 'supply', 'speed'] as const;
+export type FigureGroup = (typeof FIGURE_GROUPS)[number];
+
+/**
+ * Why a figure has no verdict although it was (or could have been) simulated:
+ * - `not-predicted`: the stored prediction lacks it (made by an engine version before the figure
+ *   existed, or with no frequency to predict it at); the simulated value is shown alone, never a
+ *   value the engine would give now.
+ * - `matched-pair`: the design's pair has no mismatch, so the figure is zero by symmetry in both
+ *   the engine and SPICE and nothing is simulated; the spread is the Monte Carlo's.
+ */
+export type NotCompared = 'not-predicted' | 'matched-pair';
 
 /** One figure, predicted and simulated. */
 export interface VerifiedFigure {
@@ -67,11 +103,17 @@ export interface VerifiedFigure {
   unit: string;
   predicted: number | null;
   simulated: number | null;
-  /** predicted − simulated, as a percentage of |simulated| (`percent`) or in dB/V (`db` / volts). */
+  /** predicted − simulated, as a percentage of |simulated| (`percent`), in dB (`db`), volts (`volts`) or the figure's unit (`absolute`). */
   delta: number | null;
   deltaKind: DeltaKind | 'volts';
   /** The tolerance the delta is held to, in the delta's own unit. */
   tolerance: number;
+  /** How the tolerance was set when it is more than one number, e.g. "3 % of ngspice's, at least 20 µV". Absent otherwise. */
+  toleranceBasis?: string;
+  /** Where the figure sits in the nominal table (absent on older results and at the corners). */
+  group?: FigureGroup;
+  /** Why the figure has no verdict although it is listed (absent when it was compared, and on older results). */
+  notCompared?: NotCompared;
   /** null when either side is missing (e.g. no corner below the sweep's end). */
   agrees: boolean | null;
   /** When it does not agree: the likely cause (shared/verification/causes.ts). Absent on older results. */
@@ -127,7 +169,8 @@ export interface OptionVerification {
 export interface ProposalVerificationResult {
   /** ngspice's banner version, e.g. "ngspice-45". */
   simulator: string;
-  tolerances: typeof VERIFICATION_TOLERANCES;
+  /** The tolerances the job held figures to (results stored before the trade-off figures lack theirs). */
+  tolerances: Partial<Record<keyof typeof VERIFICATION_TOLERANCES, number>>;
   options: OptionVerification[];
   /** Time spent starting the simulator for this job (0 when it was already running), ms. */
   simulatorStartMs: number;
@@ -159,7 +202,32 @@ export interface MonteCarloVerificationResult {
   predicted: { yieldPercent: number; percentilesDb: { p1: number; p5: number; p50: number; p95: number } };
   /** Shared bin edges for overlaying both histograms, dB; counts per bin for each. */
   histogram: { binEdgesDb: number[]; simulatedCounts: number[]; predictedCounts: number[] };
+  /** Each run's input offset voltage and their spread, beside the engine's statistical offset when it stores one. Absent on older results. */
+  offset?: MonteCarloOffset;
   elapsedMs: number;
+}
+
+/**
+ * The input offset voltage of the Monte Carlo's circuits: each run's zero of v(c1,c2) in a `.dc`
+ * sweep of the differential drive (at the option's nominal condition, with that run's draws), and
+ * the spread of those offsets beside the engine's stored statistical offset.
+ */
+export interface MonteCarloOffset {
+  /** The condition the offsets were simulated at (the design's nominal one), e.g. "ICM 0 V, 27 °C". */
+  condition: string;
+  /** How many standard deviations the spec's offset target is read at (its `sigmas`, default 3). */
+  sigmas: number;
+  /** Runs whose offset could not be found (left out of the statistics). */
+  failedRuns: number;
+  /** Each successful run's offset, V (sorted ascending, rounded to 1 nV). */
+  simulatedV: number[];
+  simulated: { meanV: number; standardDeviationV: number; atSigmasV: number };
+  /**
+   * The engine's stored statistical offset for this option (its standard deviation and the value
+   * at `sigmas`), or null when the stored option carries none (`predictedAbsent` says why).
+   */
+  predicted: { standardDeviationV: number | null; atSigmasV: number | null } | null;
+  predictedAbsent: string | null;
 }
 
 /** A job as the API returns it. */

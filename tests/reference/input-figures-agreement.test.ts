@@ -17,6 +17,8 @@ import {
   spiceInputResistanceOhm,
   spiceLinearInputRangeV,
   spiceOffsetDriftVPerC,
+  spiceOffsetInWindowV,
+  spiceOffsetVoltageV,
   spicePsrrDb,
 } from '../../api/verification/spice-tradeoffs';
 import { netlistDesign } from '../helpers/netlist-designs';
@@ -83,6 +85,27 @@ describe('input and supply figures agree with ngspice on every topology at three
   ] as [string, Partial<Design>][])('simple mirror, %s', async (_title, overrides) => {
     const topology: TopologyId = overrides.inputCommonModeV !== undefined ? 'widlar' : 'simple-mirror';
     await expectAgreement(netlistDesign(topology, { ...MISMATCHES, ...overrides }));
+  }, RUN_TIMEOUT_MS);
+});
+
+// The SPICE Monte Carlo reads each run's offset from one ±20 mV sweep (spiceOffsetInWindowV); the
+// contract's measure refines the crossing twice more. Draw-sized mismatches (ΔVBE of a few mV,
+// 1 % loads, 5 % BF), a degenerated pair, a card with ohmic resistances, and an offset of about
+// 30 mV outside the window (the fallback to the full search).
+describe('the Monte Carlo’s one-sweep offset equals the refined zero within 1 µV', () => {
+  beforeAll(startSpice, ENGINE_START_TIMEOUT_MS);
+  const ONE_SWEEP_TOLERANCE_V = 1e-6;
+  test.each([
+    ['simple mirror, ΔVBE ≈ +2.6 mV, loads −1 %, BF +5 %', 'simple-mirror', { pairSaturationCurrentMismatch: 0.105, collectorMismatch: -0.01, pairBetaMismatch: 0.05 }],
+    ['Wilson, ΔVBE ≈ −5 mV, loads +2 %', 'wilson', { pairSaturationCurrentMismatch: -0.175, collectorMismatch: 0.02 }],
+    ['resistor tail, 470 Ω degeneration, ΔVBE ≈ +1 mV', 'resistor', { pairSaturationCurrentMismatch: 0.04, pairEmitterResistanceOhm: 470 }],
+    ['cascode with a card (RB, RE, RC), BF −8 %', 'cascode', { pairBetaMismatch: -0.08, collectorMismatch: 0.005, device: { family: 'npn' as const, model: { IS: 6e-15, BF: 140, VAF: 75, RB: 180, RE: 1.5, RC: 40 } } }],
+    ['simple mirror, ΔVBE ≈ 30 mV (outside the window)', 'simple-mirror', { pairSaturationCurrentMismatch: 2.2 }],
+  ] as [string, TopologyId, Partial<Design>][])('%s', async (_title, topology, overrides) => {
+    const design = netlistDesign(topology, overrides);
+    const refined = await spiceOffsetVoltageV(runSpice, design);
+    const oneSweep = await spiceOffsetInWindowV(runSpice, design);
+    expect(Math.abs(oneSweep - refined), `one sweep ${oneSweep} V, refined ${refined} V`).toBeLessThanOrEqual(ONE_SWEEP_TOLERANCE_V);
   }, RUN_TIMEOUT_MS);
 });
 

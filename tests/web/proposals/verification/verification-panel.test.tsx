@@ -13,6 +13,7 @@ import {
   job,
   MONTE_CARLO_URL,
   monteCarloJob,
+  monteCarloWithOffset,
   overrideVerification,
   proposalResult,
   RESISTOR_ERROR,
@@ -23,6 +24,7 @@ import {
   status,
   STATUS_URL,
   SYSTEMS,
+  tradeoffVerification,
 } from './verification-fixtures';
 
 // uPlot needs a canvas; jsdom has none. The lazy chart module is replaced by stand-ins that show what they were given.
@@ -401,5 +403,50 @@ describe('VerificationPanel: Monte Carlo in SPICE', () => {
     expect(await screen.findByText(/Not offered for this proposal: the spec asks for a single-ended output/)).toBeTruthy();
     expect(screen.queryByRole('combobox', { name: 'Option' })).toBeNull();
     expect(screen.queryByRole('button', { name: /Monte Carlo/ })).toBeNull();
+  });
+});
+
+describe('VerificationPanel: the trade-off figures', () => {
+  test('when a result records groups, then the nominal table shows them under headings, with the offset in microvolts, noise in nV/√Hz and a not-predicted row explained', async () => {
+    const result = proposalResult([...sixOptions(), tradeoffVerification()]);
+    fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: status(job({ result })) }) });
+    const user = userEvent.setup();
+    renderWithClient(<VerificationPanel proposal={differentialProposal()} user={DESIGNER} />);
+
+    await user.click(await screen.findByRole('button', { name: /Designer’s own values/ }));
+    const table = screen.getByRole('table', { name: /at nominal conditions/ });
+    const headings = within(table).getAllByRole('columnheader').map((h) => h.textContent);
+    expect(headings).toEqual(expect.arrayContaining(['Operating point', 'Gain and common-mode rejection', 'Input', 'Supply rejection', 'Bandwidth, slew rate and noise']));
+    // 2.05 mV against 2.00 mV: +50 µV, within max(3 % of 2 mV, 20 µV) = 60 µV.
+    const offset = cellsOf(table, 'Input offset voltage');
+    expect(offset.slice(0, 4)).toEqual(['2.05 mV', '2 mV', '+50 µV', '±60 µV']);
+    expect(offset[4]).toContain('Agrees');
+    expect(cellsOf(table, 'Input noise density at 1 kHz').slice(0, 4)).toEqual(['8.3 nV/√Hz', '8.1 nV/√Hz', '+2.5 %', '±5 %']);
+    expect(cellsOf(table, 'PSRR, positive rail, single-ended').slice(0, 4)).toEqual(['41.2 dB', '40.6 dB', '+0.6 dB', '±1.5 dB']);
+    const rin = cellsOf(table, 'Input resistance');
+    expect(rin.slice(0, 3)).toEqual(['not predicted', '12.3 kΩ', '—']);
+    expect(rin[4]).toContain('Not predicted');
+    expect(screen.getByText(/did not predict this figure, so only ngspice’s value is shown/)).toBeTruthy();
+    expect(screen.getByText('Input offset voltage: tolerance 3 % of ngspice’s, at least 20 µV.')).toBeTruthy();
+  });
+
+  test('when a result was stored before groups, then its figures stay one list with no headings', async () => {
+    fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: status(job()) }) });
+    const user = userEvent.setup();
+    renderWithClient(<VerificationPanel proposal={differentialProposal()} user={DESIGNER} />);
+    await user.click(await screen.findByRole('button', { name: 'Cascode mirror' }));
+    const table = screen.getByRole('table', { name: /Cascode mirror at nominal conditions/ });
+    expect(within(table).queryByRole('columnheader', { name: 'Operating point' })).toBeNull();
+  });
+
+  test('when a Monte Carlo carries offsets, then σ and 3σ stand beside an absent engine figure, and the absence is said', async () => {
+    fetchMock = mockFetch({ [`GET ${STATUS_URL}`]: () => ({ body: status(job(), [monteCarloJob({ result: monteCarloWithOffset() })]) }) });
+    renderWithClient(<VerificationPanel proposal={differentialProposal()} user={DESIGNER} />);
+
+    const table = await screen.findByRole('table', { name: /Wilson mirror: input offset voltage at ICM 0 V, 27 °C over 200 of 200 runs/ });
+    expect(cellsOf(table, 'Standard deviation σ')).toEqual(['690 µV', 'absent']);
+    expect(cellsOf(table, 'At 3 σ')).toEqual(['2.07 mV', 'absent']);
+    expect(cellsOf(table, 'Mean')).toEqual(['12 µV', 'absent']);
+    expect(screen.getByText(/stores no statistical offset for this option/)).toBeTruthy();
   });
 });

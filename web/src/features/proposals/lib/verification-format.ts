@@ -3,7 +3,7 @@
  * unit and tolerances (all through shared/units/figures.ts), and the verdict of a figure or an option in the app's status language.
  */
 import { formatQuantity } from '#shared/units/format-quantity';
-import type { OptionVerification, VerifiedFigure } from '#shared/verification/types';
+import { FIGURE_GROUPS, type FigureGroup, type OptionVerification, type VerifiedFigure } from '#shared/verification/types';
 import type { VerdictKind } from '../../../components/ui/verdict';
 import { topologyName } from '../../../lib/topology-names';
 import { formatDb, formatFigure, formatFixed, formatPercent, formatSignedQuantity, formatTolerance } from '#shared/units/figures';
@@ -14,7 +14,7 @@ function unitOf(unit: string): string {
 }
 
 /** The unit each kind of difference is printed in. */
-const DELTA_UNITS: Record<VerifiedFigure['deltaKind'], string> = { percent: '%', db: 'dB', volts: 'V' };
+const DELTA_UNITS: Record<Exclude<VerifiedFigure['deltaKind'], 'absolute'>, string> = { percent: '%', db: 'dB', volts: 'V' };
 
 /** A predicted or simulated figure: "960 µA", "101.8 dB", "2.32 kΩ"; an em dash when missing. */
 export function figureText(value: number | null, unit: string): string {
@@ -22,18 +22,26 @@ export function figureText(value: number | null, unit: string): string {
   return formatFigure(value, unitOf(unit));
 }
 
-/** The engine minus ngspice: "+0.9 %", "−0.4 dB", "+12 mV"; an em dash when either side is missing. */
-export function deltaText(figure: Pick<VerifiedFigure, 'delta' | 'deltaKind'>): string {
+/** The engine minus ngspice: "+0.9 %", "−0.4 dB", "+12 mV", "+3 µV"; an em dash when either side is missing. */
+export function deltaText(figure: Pick<VerifiedFigure, 'delta' | 'deltaKind'> & { unit?: string }): string {
   const { delta, deltaKind } = figure;
   if (delta === null || !Number.isFinite(delta)) return '—';
   if (deltaKind === 'volts') return formatSignedQuantity(delta, 'V');
+  if (deltaKind === 'absolute') return formatSignedQuantity(delta, unitOf(figure.unit ?? ''));
   if (deltaKind === 'percent') return formatPercent(delta, { sign: 'exceptZero', trimZeros: false });
   return formatDb(delta, { sign: 'exceptZero' });
 }
 
-/** The tolerance a difference is held to: "±3 %", "±1.5 dB", "±50 mV". */
-export function toleranceText(figure: Pick<VerifiedFigure, 'tolerance' | 'deltaKind'>): string {
-  return formatTolerance(figure.tolerance, DELTA_UNITS[figure.deltaKind]);
+/** The tolerance a difference is held to: "±3 %", "±1.5 dB", "±50 mV", "±20 µV". */
+export function toleranceText(figure: Pick<VerifiedFigure, 'tolerance' | 'deltaKind'> & { unit?: string }): string {
+  return formatTolerance(figure.tolerance, figure.deltaKind === 'absolute' ? unitOf(figure.unit ?? '') : DELTA_UNITS[figure.deltaKind]);
+}
+
+/** Why a listed figure has no verdict, in words; null when it was compared (or could not be, for want of a side). */
+export function notComparedText(figure: Pick<VerifiedFigure, 'notCompared'>): string | null {
+  if (figure.notCompared === 'not-predicted') return 'Not predicted by the engine version that made this proposal: ngspice’s value alone.';
+  if (figure.notCompared === 'matched-pair') return 'The pair is matched, so this is zero by symmetry and nothing was simulated; its spread is in the SPICE Monte Carlo.';
+  return null;
 }
 
 export interface VerdictLook {
@@ -41,8 +49,10 @@ export interface VerdictLook {
   label: string;
 }
 
-/** One figure: within tolerance, outside it, or not compared (a side is missing). */
-export function figureVerdict(agrees: boolean | null): VerdictLook {
+/** One figure: within tolerance, outside it, or not compared (a side is missing, not predicted, or a matched pair's zero). */
+export function figureVerdict(agrees: boolean | null, notCompared?: VerifiedFigure['notCompared']): VerdictLook {
+  if (notCompared === 'not-predicted') return { kind: 'not-applicable', label: 'Not predicted' };
+  if (notCompared === 'matched-pair') return { kind: 'not-applicable', label: 'Zero by symmetry' };
   if (agrees === null) return { kind: 'not-applicable', label: 'Not compared' };
   return agrees ? { kind: 'holds', label: 'Agrees' } : { kind: 'short', label: 'Disagrees' };
 }
@@ -82,4 +92,43 @@ export function verificationTally(options: Pick<OptionVerification, 'outcome' | 
   if (differ > 0) parts.push(`${differ} ${differ === 1 ? 'has' : 'have'} figures outside it`);
   if (errors > 0) parts.push(`${errors} could not be simulated`);
   return `${parts.join('; ')}.`;
+}
+
+/** The nominal table's group headings. */
+export const FIGURE_GROUP_LABELS: Record<FigureGroup, string> = {
+  bias: 'Operating point',
+  gain: 'Gain and common-mode rejection',
+  input: 'Input',
+  supply: 'Supply rejection',
+  speed: 'Bandwidth, slew rate and noise',
+};
+
+/** Figures in their groups, in the table's order; one untitled group for results stored without groups. */
+export function figureGroups<F extends Pick<VerifiedFigure, 'group'>>(figures: readonly F[]): { heading: string | null; figures: F[] }[] {
+  if (!figures.some((f) => f.group)) return [{ heading: null, figures: [...figures] }];
+  const groups = FIGURE_GROUPS.map((group) => ({ heading: FIGURE_GROUP_LABELS[group], figures: figures.filter((f) => f.group === group) }));
+  const ungrouped = figures.filter((f) => !f.group);
+  return [...groups, { heading: 'Other', figures: ungrouped }].filter((g) => g.figures.length > 0);
+}
+
+/**
+ * The notes under a table: why rows are listed without a verdict, and how the floored tolerances
+ * (offset, drift) were set, each said once.
+ */
+export function figureNotes(figures: readonly Pick<VerifiedFigure, 'key' | 'notCompared' | 'toleranceBasis' | 'label' | 'agrees' | 'predicted' | 'simulated'>[]): string[] {
+  const notes: string[] = [];
+  const notPredicted = figures.filter((f) => f.notCompared === 'not-predicted');
+  if (notPredicted.length > 0) {
+    notes.push(`Not predicted (${notPredicted.map((f) => f.label).join(', ')}): the engine version that made this proposal did not predict ${notPredicted.length === 1 ? 'this figure' : 'these figures'}, so only ngspice’s value is shown; nothing is recomputed now in its place.`);
+  }
+  const matched = figures.filter((f) => f.notCompared === 'matched-pair');
+  if (matched.length > 0) {
+    notes.push(`Zero by symmetry (${matched.map((f) => f.label).join(', ')}): this design’s pair is matched, so the engine and ngspice both give zero and nothing was simulated; the spread from mismatch is in the SPICE Monte Carlo.`);
+  }
+  for (const f of figures) if (f.toleranceBasis && f.agrees !== null) notes.push(`${f.label}: tolerance ${f.toleranceBasis}.`);
+  const bandwidth = figures.find((f) => f.key === 'differentialBandwidthHz');
+  if (bandwidth && !bandwidth.notCompared && bandwidth.predicted === null && bandwidth.simulated === null) {
+    notes.push(`${bandwidth.label}: neither the engine (to 10 GHz) nor ngspice’s sweep finds the gain 3 dB down: nothing in this circuit stores enough charge to slow it there.`);
+  }
+  return notes;
 }

@@ -1,9 +1,10 @@
-import type { MonteCarloVerificationResult, OptionVerification, ProposalVerificationResult, VerificationJobView, VerificationStatus, VerifiedCondition } from '#shared/verification/types';
+import type { MonteCarloVerificationResult, OptionVerification, ProposalVerificationResult, VerificationJobView, VerificationStatus, VerifiedCondition, VerifiedFigure } from '#shared/verification/types';
 import { Verdict } from '../../../../components/ui/verdict';
 import type { Proposal } from '#shared/api/proposals';
 import { topologyName } from '../../../../lib/topology-names';
-import { formatDb, formatFixed, formatPercent, formatTargetDb } from '#shared/units/figures';
+import { formatDb, formatFigure, formatFixed, formatPercent, formatTargetDb } from '#shared/units/figures';
 import { deltaText, toleranceText, verifiedValue } from '../../lib/report-format';
+import { figureGroups, figureNotes } from '../../lib/verification-format';
 import { ReportNote, ReportSubheading } from './report-section';
 import { freshness, freshnessText, UNBOUND_WORDS, type Freshness } from '#shared/verification/binding';
 import type { DesignVerificationState } from '#shared/verification/types';
@@ -35,45 +36,64 @@ function notVerifiedWhy(job: VerificationJobView | null): string {
   }
 }
 
-function AgreementVerdict({ agrees }: { agrees: boolean | null }) {
+function AgreementVerdict({ agrees, notCompared }: { agrees: boolean | null; notCompared?: VerifiedFigure['notCompared'] }) {
+  if (notCompared === 'not-predicted') return <Verdict kind="not-applicable" label="Not predicted" />;
+  if (notCompared === 'matched-pair') return <Verdict kind="not-applicable" label="By symmetry" />;
   if (agrees === null) return <Verdict kind="not-applicable" label="Not compared" />;
   return agrees ? <Verdict kind="holds" label="Agrees" /> : <Verdict kind="short" label="Outside" />;
 }
 
 function FiguresTable({ condition, caption }: { condition: VerifiedCondition; caption: string }) {
+  const notes = figureNotes(condition.figures);
   return (
-    <table className="w-full table-fixed text-sm">
-      <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">{caption}</caption>
-      <colgroup>
-        <col className="w-[28%]" />
-        <col span={4} className="w-[14%]" />
-        <col className="w-[16%]" />
-      </colgroup>
-      <thead className="text-xs text-ink-soft dark:text-night-ink-soft">
-        <tr className="border-b border-rule dark:border-night-rule">
-          <th scope="col" className="py-1 pr-2 text-left font-medium">Figure</th>
-          <th scope="col" className="px-1.5 py-1 text-right font-medium">Predicted</th>
-          <th scope="col" className="px-1.5 py-1 text-right font-medium">Simulated</th>
-          <th scope="col" className="px-1.5 py-1 text-right font-medium">Difference</th>
-          <th scope="col" className="px-1.5 py-1 text-right font-medium">Tolerance</th>
-          <th scope="col" className="py-1 pl-1.5 text-left font-medium">Agreement</th>
-        </tr>
-      </thead>
-      <tbody>
-        {condition.figures.map((figure) => (
-          <tr key={figure.key} className="border-b border-rule/60 dark:border-night-rule/60">
-            <th scope="row" className="py-1 pr-2 text-left font-normal">{figure.label}</th>
-            <td className="px-1.5 py-1 text-right whitespace-nowrap tabular-nums">{verifiedValue(figure.predicted, figure)}</td>
-            <td className="px-1.5 py-1 text-right whitespace-nowrap tabular-nums">{verifiedValue(figure.simulated, figure)}</td>
-            <td className="px-1.5 py-1 text-right whitespace-nowrap tabular-nums">{deltaText(figure)}</td>
-            <td className="px-1.5 py-1 text-right whitespace-nowrap tabular-nums">{toleranceText(figure)}</td>
-            <td className="py-1 pl-1.5">
-              <AgreementVerdict agrees={figure.agrees} />
-            </td>
+    <>
+      <table className="w-full table-fixed text-sm">
+        <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">{caption}</caption>
+        <colgroup>
+          <col className="w-[28%]" />
+          <col span={4} className="w-[14%]" />
+          <col className="w-[16%]" />
+        </colgroup>
+        <thead className="text-xs text-ink-soft dark:text-night-ink-soft">
+          <tr className="border-b border-rule dark:border-night-rule">
+            <th scope="col" className="py-1 pr-2 text-left font-medium">Figure</th>
+            <th scope="col" className="px-1.5 py-1 text-right font-medium">Predicted</th>
+            <th scope="col" className="px-1.5 py-1 text-right font-medium">Simulated</th>
+            <th scope="col" className="px-1.5 py-1 text-right font-medium">Difference</th>
+            <th scope="col" className="px-1.5 py-1 text-right font-medium">Tolerance</th>
+            <th scope="col" className="py-1 pl-1.5 text-left font-medium">Agreement</th>
           </tr>
+        </thead>
+        {figureGroups(condition.figures).map((group) => (
+          <tbody key={group.heading ?? 'figures'}>
+            {group.heading && (
+              <tr className="border-b border-rule dark:border-night-rule">
+                <th scope="colgroup" colSpan={6} className="pt-2 pb-0.5 text-left text-xs font-medium text-ink-soft dark:text-night-ink-soft">{group.heading}</th>
+              </tr>
+            )}
+            {group.figures.map((figure) => (
+              <tr key={figure.key} className="border-b border-rule/60 dark:border-night-rule/60">
+                <th scope="row" className="py-1 pr-2 text-left font-normal">{figure.label}</th>
+                <td className="px-1.5 py-1 text-right whitespace-nowrap tabular-nums">{figure.notCompared === 'not-predicted' ? 'not predicted' : verifiedValue(figure.predicted, figure)}</td>
+                <td className="px-1.5 py-1 text-right whitespace-nowrap tabular-nums">{figure.notCompared === 'matched-pair' ? 'not simulated' : verifiedValue(figure.simulated, figure)}</td>
+                <td className="px-1.5 py-1 text-right whitespace-nowrap tabular-nums">{deltaText(figure)}</td>
+                <td className="px-1.5 py-1 text-right whitespace-nowrap tabular-nums">{toleranceText(figure)}</td>
+                <td className="py-1 pl-1.5">
+                  <AgreementVerdict agrees={figure.agrees} notCompared={figure.notCompared} />
+                </td>
+              </tr>
+            ))}
+          </tbody>
         ))}
-      </tbody>
-    </table>
+      </table>
+      {notes.length > 0 && (
+        <ul className="mt-1 space-y-0.5 text-xs text-ink-soft dark:text-night-ink-soft">
+          {notes.map((note) => (
+            <li key={note}>{note}</li>
+          ))}
+        </ul>
+      )}
+    </>
   );
 }
 
@@ -170,6 +190,7 @@ function MonteCarloTable({ jobs, current }: { jobs: VerificationJobView[]; curre
             <th scope="col" className="px-1.5 py-1 text-right font-medium">Yield, simulated</th>
             <th scope="col" className="px-1.5 py-1 text-right font-medium">Yield, predicted</th>
             <th scope="col" className="px-1.5 py-1 text-right font-medium">1st percentile, simulated / predicted</th>
+            <th scope="col" className="px-1.5 py-1 text-right font-medium">Offset σ, simulated / stored</th>
           </tr>
         </thead>
         <tbody>
@@ -193,6 +214,9 @@ function MonteCarloTable({ jobs, current }: { jobs: VerificationJobView[]; curre
                 <td className="px-1.5 py-1 text-right tabular-nums">{formatPercent(r.predicted.yieldPercent)}</td>
                 <td className="px-1.5 py-1 text-right tabular-nums">
                   {formatFixed(r.simulated.percentilesDb.p1, 1)} / {formatDb(r.predicted.percentilesDb.p1)}
+                </td>
+                <td className="px-1.5 py-1 text-right tabular-nums">
+                  {r.offset ? `${formatFigure(r.offset.simulated.standardDeviationV, 'V')} / ${r.offset.predicted?.standardDeviationV != null ? formatFigure(r.offset.predicted.standardDeviationV, 'V') : 'absent'}` : '—'}
                 </td>
               </tr>
             );

@@ -3,7 +3,7 @@ import type { VerifiedCondition, VerifiedFigure } from '#shared/verification/typ
 import { formatQuantity } from '#shared/units/format-quantity';
 import { Verdict } from '../../../../components/ui/verdict';
 import { cn } from '../../../../lib/cn';
-import { deltaText, figureText, figureVerdict, toleranceText } from '../../lib/verification-format';
+import { deltaText, figureGroups, figureNotes, figureText, figureVerdict, toleranceText } from '../../lib/verification-format';
 
 function Head({ children, left }: { children: ReactNode; left?: boolean }) {
   return (
@@ -22,8 +22,14 @@ export function conditionText(condition: Pick<VerifiedCondition, 'inputCommonMod
   return `input common mode ${formatQuantity(condition.inputCommonModeV, 'V')}, ${formatQuantity(condition.temperatureC, '°C')}`;
 }
 
-/** Every figure at one condition: the engine's, ngspice's, the difference, the tolerance it is held to, and the verdict. */
+/**
+ * Every figure at one condition: the engine's, ngspice's, the difference, the tolerance it is held
+ * to, and the verdict; in groups (operating point, gain and rejection, input, supply, speed) when
+ * the result records them, with notes on rows listed without a verdict.
+ */
 export function FiguresTable({ condition, caption }: { condition: VerifiedCondition; caption: string }) {
+  const groups = figureGroups(condition.figures);
+  const notes = figureNotes(condition.figures);
   return (
     <div className="relative overflow-x-auto">
       <table className="w-full text-sm">
@@ -42,25 +48,41 @@ export function FiguresTable({ condition, caption }: { condition: VerifiedCondit
             </th>
           </tr>
         </thead>
-        <tbody>
-          {condition.figures.map((figure) => (
-            <FigureRow key={figure.key} figure={figure} />
-          ))}
-        </tbody>
+        {groups.map((group) => (
+          <tbody key={group.heading ?? 'figures'}>
+            {group.heading && (
+              <tr className="border-b border-rule dark:border-night-rule">
+                <th scope="colgroup" colSpan={6} className="pt-3 pb-1 text-left text-xs font-medium text-ink-soft dark:text-night-ink-soft">
+                  {group.heading}
+                </th>
+              </tr>
+            )}
+            {group.figures.map((figure) => (
+              <FigureRow key={figure.key} figure={figure} />
+            ))}
+          </tbody>
+        ))}
       </table>
+      {notes.length > 0 && (
+        <ul className="mt-2 space-y-1 text-xs text-ink-soft dark:text-night-ink-soft">
+          {notes.map((note) => (
+            <li key={note}>{note}</li>
+          ))}
+        </ul>
+      )}
     </div>
   );
 }
 
 function FigureRow({ figure }: { figure: VerifiedFigure }) {
-  const verdict = figureVerdict(figure.agrees);
+  const verdict = figureVerdict(figure.agrees, figure.notCompared);
   return (
     <tr className="border-b border-rule/60 last:border-0 dark:border-night-rule/60">
       <th scope="row" className="py-1.5 pr-3 text-left font-normal">
         {figure.label}
       </th>
-      <Num>{figureText(figure.predicted, figure.unit)}</Num>
-      <Num>{figureText(figure.simulated, figure.unit)}</Num>
+      <Num>{figure.notCompared === 'not-predicted' ? <span className="text-ink-soft dark:text-night-ink-soft">not predicted</span> : figureText(figure.predicted, figure.unit)}</Num>
+      <Num>{figure.notCompared === 'matched-pair' ? <span className="text-ink-soft dark:text-night-ink-soft">not simulated</span> : figureText(figure.simulated, figure.unit)}</Num>
       <Num className={figure.agrees === false ? 'font-medium text-short dark:text-short-bright' : undefined}>{deltaText(figure)}</Num>
       <Num className="text-ink-soft dark:text-night-ink-soft">{toleranceText(figure)}</Num>
       <td className="py-1.5 pl-2">
@@ -110,7 +132,7 @@ export function VerifiedCornersTable({ corners }: { corners: VerifiedCondition[]
 }
 
 function CornerCell({ figure }: { figure: VerifiedFigure }) {
-  const verdict = figureVerdict(figure.agrees);
+  const verdict = figureVerdict(figure.agrees, figure.notCompared);
   const glyph = figure.agrees === null ? '–' : figure.agrees ? '✓' : '✕';
   const colour = figure.agrees === null ? 'text-ink-soft dark:text-night-ink-soft' : figure.agrees ? 'text-holds dark:text-holds-bright' : 'text-short dark:text-short-bright';
   return (

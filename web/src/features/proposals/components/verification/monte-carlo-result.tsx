@@ -1,8 +1,8 @@
 import { useMemo, type ReactNode } from 'react';
-import type { MonteCarloVerificationResult, VerificationJobView } from '#shared/verification/types';
+import type { MonteCarloOffset, MonteCarloVerificationResult, VerificationJobView } from '#shared/verification/types';
 import { Verdict } from '../../../../components/ui/verdict';
 import { topologyName } from '../../../../lib/topology-names';
-import { formatDb, formatPercent, formatTargetDb } from '#shared/units/figures';
+import { formatDb, formatFigure, formatPercent, formatTargetDb } from '#shared/units/figures';
 import { monteCarloPlot } from '../../lib/verification-plots';
 import { PlotFigure } from '../../../../components/charts/plot-figure';
 import { JobFacts } from './verification-result';
@@ -96,6 +96,7 @@ export function MonteCarloResult({
           {result.failedRuns} of {result.runs} runs did not converge in ngspice and are left out of its figures.
         </p>
       )}
+      {result.offset && <OffsetTable offset={result.offset} runs={result.runs} name={name} />}
       {plot && (
         <PlotFigure
           title="Monte Carlo rejection: ngspice and the engine"
@@ -106,6 +107,61 @@ export function MonteCarloResult({
         >
           <MonteCarloComparisonChart plot={plot} frequencyHz={frequencyHz} />
         </PlotFigure>
+      )}
+    </div>
+  );
+}
+
+const volts = (value: number | null | undefined) => (value === null || value === undefined || !Number.isFinite(value) ? '—' : formatFigure(value, 'V'));
+
+/**
+ * The runs' input offset voltages: their spread (σ) and its value at the spec's sigmas beside the
+ * engine's stored statistical offset, or the SPICE distribution alone when the proposal stores none.
+ */
+function OffsetTable({ offset, runs, name }: { offset: MonteCarloOffset; runs: number; name: string }) {
+  const counted = runs - offset.failedRuns;
+  const rows: { label: string; simulated: number; predicted: number | null | undefined }[] = [
+    { label: 'Standard deviation σ', simulated: offset.simulated.standardDeviationV, predicted: offset.predicted?.standardDeviationV },
+    { label: `At ${offset.sigmas} σ`, simulated: offset.simulated.atSigmasV, predicted: offset.predicted?.atSigmasV },
+    { label: 'Mean', simulated: offset.simulated.meanV, predicted: undefined },
+  ];
+  return (
+    <div className="relative overflow-x-auto">
+      <table className="w-full max-w-xl text-sm">
+        <caption className="mb-1 text-left text-xs text-ink-soft dark:text-night-ink-soft">
+          {name}: input offset voltage at {offset.condition} over {counted} of {runs} runs, the same draws at the nominal condition; each run’s offset is the zero of v(c1) − v(c2) in a .dc sweep of the differential input.
+        </caption>
+        <thead className="text-xs text-ink-soft dark:text-night-ink-soft">
+          <tr className="border-b border-rule dark:border-night-rule">
+            <th scope="col" className="py-1 pr-3 text-left font-normal">
+              Offset
+            </th>
+            <th scope="col" className="px-2 py-1 text-right font-normal">
+              ngspice
+            </th>
+            <th scope="col" className="px-2 py-1 text-right font-normal">
+              Engine, stored
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((row) => (
+            <tr key={row.label} className="border-b border-rule/60 last:border-0 dark:border-night-rule/60">
+              <th scope="row" className="py-1.5 pr-3 text-left font-normal">
+                {row.label}
+              </th>
+              <Cell>{volts(row.simulated)}</Cell>
+              <Cell>{offset.predicted ? volts(row.predicted) : <span className="text-ink-soft dark:text-night-ink-soft">absent</span>}</Cell>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {offset.predictedAbsent && <p className="mt-1 text-xs text-ink-soft dark:text-night-ink-soft">{offset.predictedAbsent}</p>}
+      {offset.failedRuns > 0 && (
+        <p className="mt-1 text-sm text-note dark:text-note-bright">
+          <span aria-hidden="true">! </span>
+          {offset.failedRuns} of {runs} runs gave no offset in ngspice and are left out of it.
+        </p>
       )}
     </div>
   );
