@@ -13,6 +13,8 @@
  * A figure the stored prediction lacks (an engine version before it) is simulated all the same
  * and listed as not predicted: its engine side stays empty, never recomputed now.
  */
+import { solveCircuit } from '#shared/engine/analyze';
+import { slewRun } from '#shared/engine/slew-rate';
 import type { AnalyzeResult, Design } from '#shared/engine/types';
 import type { NetlistCardSettings } from '#shared/engine/netlist';
 import { pairIsMatched } from '#shared/engine/circuit';
@@ -74,16 +76,27 @@ export function predictsSlewRate(predicted: StoredPrediction): predicted is Stor
   return typeof predicted.slewRateVPerS === 'number' && predicted.slewRateVPerS > 0;
 }
 
-/** Settling periods of the slowest edge the slew window covers, and time constants of the bandwidth pole. */
+/** Settling periods of the slowest edge the fallback window covers, and time constants of the bandwidth pole. */
 const SLEW_WINDOW_SLEWS = 20;
 const SLEW_WINDOW_TIME_CONSTANTS = 10;
+/** The drive's edge, s, and how many of the engine's settling times the first transient covers after it. */
+const SLEW_EDGE_S = 1e-9;
+const SLEW_WINDOW_SETTLINGS = 3;
 
 /**
- * The first transient's window, s, from the prediction: 20 × (output swing / slew rate) plus ten
- * time constants of the bandwidth pole, 10/(2π·BW). The swing of v(c1,c2) for the ±1 V step is
- * |Ad|·2 V, capped at the fully switched 2·Itail·RC.
+ * The first transient's window, s: three of the engine's own settling times of this design after
+ * the 1 ns edge (the window only places ngspice's runs, which find their own settling inside it;
+ * the figure compared is the stored one). Where the engine's run to settling fails, 20 × (output
+ * swing / slew rate) plus ten time constants of the bandwidth pole, 10/(2π·BW), with the swing of
+ * v(c1,c2) |Ad|·2 V capped at the fully switched 2·Itail·RC.
  */
 export function slewWindowS(design: Design, predicted: StoredPrediction & { slewRateVPerS: number }): number {
+  try {
+    const { settlingS } = slewRun(solveCircuit(design), { untilSettled: true });
+    if (settlingS > 0) return SLEW_EDGE_S + SLEW_WINDOW_SETTLINGS * settlingS;
+  } catch {
+    // fall back to the prediction's own figures below
+  }
   const swingV = Math.min(2 * Math.abs(predicted.differentialGain), 2 * predicted.tailCurrentA * design.collectorResistanceOhm);
   const poleS = predicted.differentialBandwidthHz ? SLEW_WINDOW_TIME_CONSTANTS / (2 * Math.PI * predicted.differentialBandwidthHz) : 0;
   return (SLEW_WINDOW_SLEWS * swingV) / predicted.slewRateVPerS + poleS;

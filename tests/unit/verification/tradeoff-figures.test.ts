@@ -63,9 +63,12 @@ describe('the Monte Carlo offset statistics', () => {
     expect(s.atSigmasV).toBeCloseTo(3 * Math.sqrt(5 / 3) * 1e-3, 15);
   });
 
-  test('the engine figure: absent on an option without it, σ × sigmas when only σ is stored', () => {
+  test('the engine figure: absent on an option without it; σ is the stored value over its sigmas, and the asked sigmas scale it', () => {
     expect(storedOffsetStatistics({ figures: null }, 3)).toBeNull();
     expect(storedOffsetStatistics({ figures: {} as never }, 3)).toBeNull();
-    expect(storedOffsetStatistics({ figures: { inputOffsetVoltageSigmaV: 1e-3 } as never }, 4)).toEqual({ standardDeviationV: 1e-3, atSigmasV: 4e-3 });
+    expect(storedOffsetStatistics({ figures: { offsetAtSigmasV: null, offsetSigmas: null } as never }, 3)).toBeNull();
+    const stored = storedOffsetStatistics({ figures: { offsetAtSigmasV: 3e-3, offsetSigmas: 3 } as never }, 4)!;
+    expect(stored.standardDeviationV).toBeCloseTo(1e-3, 15);
+    expect(stored.atSigmasV).toBeCloseTo(4e-3, 15);
   });
 });
