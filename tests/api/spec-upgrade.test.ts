@@ -27,12 +27,12 @@ const withResistors = (title: string, resistors: Record<string, unknown>) => ({ 
 describe('POST /api/projects/:id/specs with the resistor tolerance', () => {
   test('when given in per cent, then it is stored in per cent', async () => {
     const response = await author.post(`/api/projects/${projectId}/specs`).send({ title: 'Tern probe A', payload: withResistors('Tern probe A', { tolerancePercent: 0.5 }) }).expect(201);
-    expect(response.body.latest.payload.resistors).toEqual({ series: 'E96', tolerancePercent: 0.5 });
+    expect(response.body.latest.payload.resistors).toEqual({ series: 'E96', tolerancePercent: 0.5, tempcoPpmPerC: 100 });
   });
 
   test('when given as the older fraction, then it is stored in per cent (0.07 is 7 %, without binary noise)', async () => {
     const response = await author.post(`/api/projects/${projectId}/specs`).send({ title: 'Tern probe B', payload: withResistors('Tern probe B', { tolerance: 0.07 }) }).expect(201);
-    expect(response.body.latest.payload.resistors).toEqual({ series: 'E96', tolerancePercent: 7 });
+    expect(response.body.latest.payload.resistors).toEqual({ series: 'E96', tolerancePercent: 7, tempcoPpmPerC: 100 });
   });
 
   test('when both are given and disagree, then 400 names the older field and says what each says', async () => {
