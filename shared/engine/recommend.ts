@@ -11,7 +11,7 @@ import { monteCarloDraws, type MonteCarloDraws, type MonteCarloResult } from './
 import { outputRejection } from './output-rejection';
 import type { RejectionLimits } from './rejection-limits';
 import { rankOptions, recommendedTopology } from './ranking';
-import { sizeTopology, type SizingStep } from './sizing';
+import { sizeTopology, type SizedOption } from './sizing';
 import type { AnalyzeResult, Check, Design, OptionFacts, RuleSet, SelectionPolicy, Spec, TopologyId } from './types';
 import { ENGINE_VERSION, ESTIMATE_NOTICE } from './version';
 import { recommendationSummary, sizingNote, undecidedReason, wordedFacts } from '../text/engine-notes';
@@ -77,7 +77,7 @@ async function checkedOption(
   topology: TopologyId,
   ruleSet: RuleSet,
   draws: MonteCarloDraws,
-  size: () => { design: Design; steps: SizingStep[] },
+  size: () => SizedOption,
 ): Promise<Omit<RecommendOption, 'rank'>> {
   let design: Design | null = null;
   let notes: string[] = [];
@@ -85,7 +85,7 @@ async function checkedOption(
     const sized = size();
     design = sized.design;
     notes = sized.steps.map(sizingNote);
-    const evaluation = evaluateOption(spec, design, draws);
+    const evaluation = evaluateOption(spec, design, draws, sized.window ?? null);
     // A figure the option cannot reach (a rejection with no common-mode gain left to divide by)
     // fails the option with its name; it never reaches the answer as NaN or Infinity
     const unreachable = firstNonFinitePath({ figures: evaluation.facts, predicted: evaluation.predicted, corners: evaluation.corners, curves: evaluation.curves, monteCarlo: evaluation.monteCarlo });
