@@ -35,6 +35,7 @@ import {
 import { TAIL_TEST_SOURCE, type AcSweep, type NetlistCardSettings } from '#shared/engine/netlist';
 import { singleEndedCmrrDbAt, solveStage } from '#shared/engine/analyze';
 import { designStoresCharge } from '#shared/engine/circuit';
+import { shiftedDesign } from '#shared/engine/sign-off-corners';
 import { conditionLabel } from '#shared/text/engine-notes';
 import { NOMINAL_TEMPERATURE_C } from '#shared/engine/constants';
 import { formatQuantity } from '#shared/units/format-quantity';
@@ -287,7 +288,8 @@ export async function verifyOption(runSpice: SpiceRunner, target: OptionToVerify
 
     const corners: VerifiedCondition[] = [];
     for (const corner of option.corners) {
-      const cornerDesign: Design = { ...design, inputCommonModeV: corner.inputCommonModeV, temperatureC: corner.temperatureC };
+      // a sign-off corner moves the rails, the current gain and the resistors too (stored resolved)
+      const cornerDesign: Design = shiftedDesign({ ...design, inputCommonModeV: corner.inputCommonModeV, temperatureC: corner.temperatureC }, corner.shift);
       await onStep(`${target.name}: corner ${corner.label}`);
       const cornerDc = await dcAt(run, cornerDesign, card);
       const cornerAc = await acAt(run, cornerDesign, singleFrequencySweep(target.frequencyHz), card);

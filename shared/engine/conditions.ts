@@ -5,11 +5,22 @@
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import type { Spec } from './types';
 import { conditionLabel } from '../text/engine-notes';
+import { resolveShift, shiftLabel, specNominalBeta, type CornerShift, type ShiftSigns } from './sign-off-corners';
 
 export interface Condition {
   label: string;
   inputCommonModeV: number;
   temperatureC: number;
+  /** The rails, current gain and resistor tempco moved off nominal (sign-off-corners.ts); absent: nominal. */
+  shift?: CornerShift;
+}
+
+/** A condition with rails, current gain and resistor tempco moved to the ends a sign vector names, labelled with them. */
+export function shiftedCondition(spec: Spec, base: Condition, signs: ShiftSigns): Condition {
+  const shift = resolveShift(spec, base.temperatureC, signs);
+  const words = shiftLabel(shift, specNominalBeta(spec));
+  const plain = conditionLabel(base.inputCommonModeV, base.temperatureC);
+  return { label: words ? `${plain}, ${words}` : plain, inputCommonModeV: base.inputCommonModeV, temperatureC: base.temperatureC, ...(words ? { shift } : {}) };
 }
 
 /** Points in the temperature sweep (endpoints included). */

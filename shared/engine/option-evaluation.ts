@@ -3,7 +3,8 @@
  * sweep, the mismatch worst case and Monte Carlo for differential outputs, and the facts its
  * checks are decided on (worst corner taken, margins computed; rules only compare).
  */
-import { cornerConditions, nominalCondition, temperatureSweep, type Condition } from './conditions';
+import { cornerConditions, nominalCondition, shiftedCondition, temperatureSweep, type Condition } from './conditions';
+import { activeDimensions, NO_SHIFT, type CornerShift, type ShiftSigns } from './sign-off-corners';
 import { solveCircuit, solveCondition, solveStage, singleEndedCmrrDbAt, transfersAt, type ConditionSolution, type OperatingPointProblem, type SolvedCircuit, type StageSolution } from './analyze';
 import { magnitude } from './small-signal';
 import { firstNonFinitePath } from './finite';
@@ -31,7 +32,7 @@ import {
 import { designAt, outputGain, swingPeakPerCollectorV, type SizedOption } from './sizing';
 import { swingCompression } from './large-signal';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
-import { driftSensitivitiesVPerC, offsetStatistics, tradeoffAtCondition, tradeoffFacts, tradeoffTargets, type OffsetFigures, type TradeoffAtCondition } from './tradeoff-figures';
+import { driftSensitivitiesVPerC, mismatchSpread, offsetStatistics, tradeoffAtCondition, tradeoffFacts, tradeoffTargets, type ConditionEntry, type OffsetFigures, type TradeoffAtCondition } from './tradeoff-figures';
 
 /** Usual safe-to-touch limit for DC rails [IEC62368]. */
 export const HAZARDOUS_VOLTAGE_LIMIT_V = 60;
@@ -54,6 +55,8 @@ export interface ConditionFigures {
   label: string;
   inputCommonModeV: number;
   temperatureC: number;
+  /** Rails, current gain and resistor tempco moved off nominal at this corner (sign-off-corners.ts); absent at a base corner. */
+  shift?: CornerShift;
   tailCurrentA: number;
   gain: number;
   cmrrAtFrequencyDb: number;
@@ -78,6 +81,18 @@ export interface OptionCurves {
 
 /** What would hold the gain over the spec's range (worded at the edge, shared/text/engine-notes.ts). */
 export type GainRemedy = 'degeneration-or-rising-tail-current' | 'current-source-tail' | 'higher-resistance-tail';
+
+/** The trade-off figures searched over the sign-off corners: the figure, its target, whether higher is worse, and the value a null (no figure) counts as. */
+type SearchedTradeoff = 'inputBiasCurrentA' | 'noiseVPerRtHz' | 'bandwidthHz' | 'psrrPositiveDb' | 'psrrNegativeDb' | 'linearInputRangeV' | 'slewRateVPerS';
+const SEARCHED_TRADEOFFS: readonly (readonly [SearchedTradeoff, keyof ReturnType<typeof tradeoffTargets>, boolean, number])[] = [
+  ['inputBiasCurrentA', 'inputBias', true, Number.POSITIVE_INFINITY],
+  ['noiseVPerRtHz', 'noise', true, Number.POSITIVE_INFINITY],
+  ['bandwidthHz', 'bandwidth', false, Number.POSITIVE_INFINITY],
+  ['psrrPositiveDb', 'psrrPositive', false, Number.POSITIVE_INFINITY],
+  ['psrrNegativeDb', 'psrrNegative', false, Number.POSITIVE_INFINITY],
+  ['linearInputRangeV', 'linearRange', false, Number.POSITIVE_INFINITY],
+  ['slewRateVPerS', 'slewRate', false, 0],
+];
 
 /** The facts whose value is a sentence: written at the edge from the figures beside them. */
 export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote' | 'cmrrDifferentialLimitNote' | 'outputCmrrBasis' | 'tailCurrentWindowNote';
@@ -205,16 +220,16 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const nominalSolution = solveStage(design.frequenciesHz ? { ...nominalDesign, frequenciesHz: design.frequenciesHz } : nominalDesign);
   const predicted = nominalSolution.result;
 
-  // Differential output: a first-order mismatch model at every corner finds the governing one,
-  // where the second-order model then gives the worst case, the Monte Carlo and the curve.
-  const corners = cornerConditions(spec).map((condition) => {
+  // One corner: its solution, figures, and (for a differential output's base corners) the screening solves
+  const cornerRecord = (condition: Condition, screen: boolean) => {
     const solution = at(spec, design, condition);
-    const screening = differentialOutput ? screeningStages(solution) : null;
+    const screening = screen ? screeningStages(solution) : null;
     const sensitivity = screening ? screeningSensitivity(screening, f) : null;
     const figures: ConditionFigures = {
       label: condition.label,
       inputCommonModeV: condition.inputCommonModeV,
       temperatureC: condition.temperatureC,
+      ...(condition.shift ? { shift: condition.shift } : {}),
       tailCurrentA: solution.result.tailCurrentA,
       gain: outputGain(spec, solution.result),
       cmrrAtFrequencyDb: singleEndedCmrrDbAt(solution, f),
@@ -229,23 +244,100 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     const transfers = transfersAt(solution, f);
     const commonModeGain = magnitude(transfers.commonModeGain);
     const commonModeRejectionDb = 20 * Math.log10(magnitude(transfers.differentialGain) / commonModeGain);
-    return { figures, solution, screening, problems: solution.problems, commonModeGain, commonModeRejectionDb };
-  });
+    return { condition, figures, solution, screening, problems: solution.problems, commonModeGain, commonModeRejectionDb };
+  };
+  type CornerRecord = ReturnType<typeof cornerRecord>;
+
+  // Differential output: a first-order mismatch model at every base corner finds the governing one,
+  // where the second-order model then gives the worst case, the Monte Carlo and the curve.
+  const baseCorners = cornerConditions(spec).map((condition) => cornerRecord(condition, differentialOutput));
+
+  // The sign-off search (sign-off-corners.ts): for each figure, from the base corner where it is
+  // worst, each rail, the current gain and the resistors' tempco moved alone to one end show which
+  // end worsens it; the corner with all of them there is solved and kept when it is worse still.
+  const perturbed = new Map<string, CornerRecord>();
+  const combined = new Map<string, CornerRecord>();
+  const recordAt = (cache: Map<string, CornerRecord>, condition: Condition): CornerRecord => {
+    let record = cache.get(condition.label);
+    if (!record) {
+      record = cornerRecord(condition, false);
+      cache.set(condition.label, record);
+    }
+    return record;
+  };
+  function signOffWorst(
+    candidates: readonly CornerRecord[],
+    read: (c: CornerRecord) => number,
+    higherIsWorse: boolean,
+    direction: (c: CornerRecord) => number = read,
+  ): CornerRecord {
+    const worse = (a: number, b: number) => (higherIsWorse ? b > a : b < a);
+    const base = candidates.reduce((a, b) => (worse(read(a), read(b)) ? b : a));
+    const dimensions = activeDimensions(spec, base.condition.temperatureC);
+    if (dimensions.length === 0) return base;
+    const signs: Record<string, -1 | 0 | 1> = { ...NO_SHIFT };
+    const here = direction(base);
+    for (const dimension of dimensions) {
+      const moved = recordAt(perturbed, shiftedCondition(spec, base.condition, { ...NO_SHIFT, [dimension]: 1 }));
+      signs[dimension] = worse(here, direction(moved)) ? 1 : -1;
+    }
+    const corner = recordAt(combined, shiftedCondition(spec, base.condition, signs as unknown as ShiftSigns));
+    return worse(read(base), read(corner)) ? corner : base;
+  }
+  const lowIcm = baseCorners.filter((c) => c.condition.inputCommonModeV === spec.inputCommonMode.minV);
+  const highIcm = baseCorners.filter((c) => c.condition.inputCommonModeV === spec.inputCommonMode.maxV);
+  const found = [
+    signOffWorst(baseCorners, (c) => c.figures.gain, true),
+    signOffWorst(baseCorners, (c) => c.figures.gain, false),
+    signOffWorst(baseCorners, (c) => c.figures.cmrrAtFrequencyDb, false),
+    signOffWorst(baseCorners, (c) => c.figures.powerW, true),
+    signOffWorst(baseCorners, (c) => c.commonModeRejectionDb, false),
+    signOffWorst(lowIcm.length ? lowIcm : baseCorners, (c) => c.figures.tailComplianceMarginV, false),
+    signOffWorst(highIcm.length ? highIcm : baseCorners, (c) => c.figures.pairSaturationMarginV, false),
+  ];
+  const corners: CornerRecord[] = [...baseCorners];
+  for (const record of found) if (!corners.includes(record)) corners.push(record);
   const cornerFigures = corners.map((c) => c.figures);
 
-  // The spec's trade-off targets at every corner (only those it sets are computed)
+  // The spec's trade-off targets at every base corner (only those it sets are computed), then
+  // each one's own sign-off search; the slew rate's direction is read from the tail current it
+  // follows (2·Itail/CL), so the transient runs only at the corners it is judged at
   const targets = tradeoffTargets(spec);
   const anyTarget = Object.values(targets).some(Boolean);
   const shared = draws ?? (anyTarget || differentialOutput ? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed) : null);
-  const tradeoffs: TradeoffAtCondition[] = anyTarget ? corners.map((c) => tradeoffAtCondition(spec, c.figures.label, c.solution, c.screening, sigmas)) : [];
+  const tradeoffs: TradeoffAtCondition[] = anyTarget ? baseCorners.map((c) => tradeoffAtCondition(spec, c.figures.label, c.solution, c.screening, sigmas)) : [];
+  const searched: ConditionEntry[] = [];
+  if (anyTarget) {
+    const tradeoffCache = new Map<CornerRecord, Partial<TradeoffAtCondition>>();
+    baseCorners.forEach((c, i) => tradeoffCache.set(c, tradeoffs[i]));
+    const figureAt = (key: SearchedTradeoff, record: CornerRecord): number => {
+      let entry = tradeoffCache.get(record);
+      if (!entry) {
+        entry = { label: record.figures.label };
+        tradeoffCache.set(record, entry);
+      }
+      if (entry[key] === undefined) entry[key] = tradeoffAtCondition(spec, record.figures.label, record.solution, null, sigmas, key)[key];
+      return entry[key] as number;
+    };
+    for (const [key, set, higherIsWorse, nullAs] of SEARCHED_TRADEOFFS) {
+      if (!targets[set]) continue;
+      const read = (c: CornerRecord) => figureAt(key, c) ?? nullAs;
+      const direction = key === 'slewRateVPerS' ? (c: CornerRecord) => c.figures.tailCurrentA : read;
+      const worst = signOffWorst(baseCorners, read, higherIsWorse, direction);
+      if (!baseCorners.includes(worst)) searched.push({ label: worst.figures.label, [key]: figureAt(key, worst) });
+    }
+  }
   let offsetFigures: OffsetFigures | null = null;
   if (targets.offset || targets.drift) {
     const sigmaCount = spec.offset?.sigmas ?? 3;
-    const stats = tradeoffs.map((t, i) => ({ i, stats: offsetStatistics(t.offsetPerMismatchV!, shared!, sigmas, corners[i].solution.model.thermalVoltageV, sigmaCount) }));
-    const governing = stats.reduce((a, b) => (b.stats.atSigmas > a.stats.atSigmas ? b : a));
-    const solution = corners[governing.i].solution;
+    // the governing corner by the offset's spread (the root of the sum of each mismatch's share
+    // squared), then the Monte Carlo draws there
+    const spreadAt = (i: number) => Math.hypot(...tradeoffs[i].offsetPerMismatchV!.map((x, k) => x * mismatchSpread(sigmas, baseCorners[i].solution.model.thermalVoltageV, k)));
+    const governing = baseCorners.reduce((best, _, i) => (spreadAt(i) > spreadAt(best) ? i : best), 0);
+    const solution = baseCorners[governing].solution;
+    const offset = offsetStatistics(tradeoffs[governing].offsetPerMismatchV!, shared!, sigmas, solution.model.thermalVoltageV, sigmaCount);
     const drift = targets.drift ? offsetStatistics(driftSensitivitiesVPerC(solution), shared!, sigmas, solution.model.thermalVoltageV, sigmaCount) : null;
-    offsetFigures = { offset: governing.stats, drift, label: corners[governing.i].figures.label };
+    offsetFigures = { offset, drift, label: baseCorners[governing].figures.label };
   }
   const worstCommonMode = corners.reduce((a, b) => (b.commonModeRejectionDb < a.commonModeRejectionDb ? b : a));
   const worstSingle = cornerFigures.reduce((a, b) => (b.cmrrAtFrequencyDb < a.cmrrAtFrequencyDb ? b : a));
@@ -256,7 +348,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   let shares: MismatchShares | null = null;
   let limits: RejectionLimits | null = null;
   if (differentialOutput) {
-    const worst = corners.reduce((a, b) => (b.figures.cmrrDifferentialWorstCaseDb! < a.figures.cmrrDifferentialWorstCaseDb! ? b : a));
+    const worst = baseCorners.reduce((a, b) => (b.figures.cmrrDifferentialWorstCaseDb! < a.figures.cmrrDifferentialWorstCaseDb! ? b : a));
     governingMismatch = mismatchStages(worst.screening as ScreeningStages);
     const sensitivity = mismatchSensitivity(governingMismatch, f);
     worstDifferential = worstCaseMismatchCmrrDb(sensitivity, sigmas);
@@ -273,8 +365,12 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
 
   const sweepConditions = temperatureSweep(spec);
   const sweep = sweepConditions.map((condition) => at(spec, design, condition).result);
-  const sweepCurrents = sweep.map((r) => r.tailCurrentA);
-  const driftPercent = ((Math.max(...sweepCurrents) - Math.min(...sweepCurrents)) / predicted.tailCurrentA) * 100;
+  const spreadPercent = (currents: number[]) => ((Math.max(...currents) - Math.min(...currents)) / predicted.tailCurrentA) * 100;
+  // the tail resistors' tempco at either sign moves the tail current with temperature too: the larger drift counts
+  const tempcoSweeps = (spec.resistors.tempcoPpmPerC ?? 0) > 0
+    ? ([-1, 1] as const).map((sign) => sweepConditions.map((c) => at(spec, design, shiftedCondition(spec, c, { ...NO_SHIFT, tailTempco: sign })).result.tailCurrentA))
+    : [];
+  const driftPercent = Math.max(spreadPercent(sweep.map((r) => r.tailCurrentA)), ...tempcoSweeps.map(spreadPercent));
   const icmLow = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.minV }).result;
   const icmHigh = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.maxV }).result;
   const gainNominal = outputGain(spec, predicted);
@@ -375,7 +471,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     tailOutputResistanceOhm: rout,
     tailOutputResistanceClosedFormOhm: predicted.tailOutputResistanceClosedForm.valueOhm,
     tailOutputResistanceFormula: predicted.tailOutputResistanceClosedForm.formula,
-    ...tradeoffFacts(spec, tradeoffs, offsetFigures),
+    ...tradeoffFacts(spec, [...tradeoffs, ...searched], offsetFigures),
     tailCurrentWindowSet: window !== null,
     tailCurrentWindowEmpty: window?.window.empty ?? false,
     tailCurrentWindow: window,

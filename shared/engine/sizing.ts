@@ -5,10 +5,11 @@
  */
 import { snapToSeries } from '../units/e-series';
 import { formatQuantity } from '../units/format-quantity';
-import { differentialBandwidthHzOf, solveCondition, solveStage, type ConditionResult, type ConditionSolution } from './analyze';
+import { differentialBandwidthHzOf, solveCondition, type ConditionResult, type ConditionSolution } from './analyze';
 import { currentWindow, pickCurrent, type CurrentBound, type CurrentWindow, type PickedCurrent, type SolvedAtCurrent } from './current-window';
 import { inputNoiseVPerRtHz, stageNoise } from './noise';
 import { solvedSlewRateVPerS } from './slew-rate';
+import { shiftedDesign } from './sign-off-corners';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
 import { unhandledTopology, type TailDesign, type TopologyId } from './topologies';
@@ -121,8 +122,12 @@ export interface SizedValues {
   pairEmitterResistanceOhm: number;
 }
 
-/** The analyze input of sized values at one condition. */
+/** The analyze input of sized values at one condition (its rails, current gain and resistors shifted when the condition moves them). */
 export function designAt(spec: Spec, condition: Condition, values: SizedValues): Design {
+  return shiftedDesign(plainDesignAt(spec, condition, values), condition.shift);
+}
+
+function plainDesignAt(spec: Spec, condition: Condition, values: SizedValues): Design {
   return {
     device: spec.device,
     supply: spec.supply,
@@ -336,7 +341,7 @@ export function sizeTopology(spec: Spec, topology: TopologyId, nominal: Conditio
 
 /** The figures of a sized design at nominal that calibrate the window: noise at the spec's frequency, slew rate, bandwidth and bias current, at its solved tail current. */
 function solvedAtCurrent(spec: Spec, design: Design): SolvedAtCurrent {
-  const solved = solveStage(design);
+  const solved = solveCondition(design);
   const noise = spec.noise?.atFrequencyHz !== undefined ? inputNoiseVPerRtHz(stageNoise(solved.op, solved.model, design.temperatureC ?? 27), solved.stage, spec.noise.atFrequencyHz) : null;
   return {
     currentA: solved.result.tailCurrentA,

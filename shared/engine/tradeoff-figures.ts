@@ -105,11 +105,15 @@ export function tradeoffAtCondition(
   solution: SolvedCircuit & { result: { inputBiasCurrentA: number; psrrDb: { positive: { singleEnded: number }; negative: { singleEnded: number } } } },
   screening: ScreeningStages | null,
   sigmas: MismatchSigmas,
+  only?: keyof Omit<TradeoffAtCondition, 'label'>,
 ): TradeoffAtCondition {
   const targets = tradeoffTargets(spec);
+  const want = (key: keyof Omit<TradeoffAtCondition, 'label'>) => only === undefined || only === key;
   const differential = spec.gain.output === 'differential';
   const temperatureC = solution.design.temperatureC ?? 27;
-  const needsScreening = needsOffset(targets) || (differential && (targets.psrrPositive || targets.psrrNegative));
+  const psrrSet = (targets.psrrPositive && want('psrrPositiveDb')) || (targets.psrrNegative && want('psrrNegativeDb'));
+  const offsetWanted = needsOffset(targets) && want('offsetPerMismatchV');
+  const needsScreening = offsetWanted || (differential && psrrSet);
   const stages = needsScreening ? (screening ?? screeningStages(solution)) : null;
   const worst = worstCaseMismatches(sigmas, solution.model.thermalVoltageV);
   const psrr = (rail: 'positive' | 'negative', set: boolean): number | null => {
@@ -117,19 +121,29 @@ export function tradeoffAtCondition(
     return differential ? differentialPsrrWorstCaseDb(stages!, rail, worst) : solution.result.psrrDb[rail].singleEnded;
   };
   let noiseVPerRtHz: number | null = null;
-  if (targets.noise) noiseVPerRtHz = inputNoiseVPerRtHz(stageNoise(solution.op, solution.model, temperatureC), solution.stage, spec.noise!.atFrequencyHz!);
+  if (targets.noise && want('noiseVPerRtHz')) noiseVPerRtHz = inputNoiseVPerRtHz(stageNoise(solution.op, solution.model, temperatureC), solution.stage, spec.noise!.atFrequencyHz!);
+  const operatingPoint = { model: solution.model, op: solution.op, driveNodes: solution.stage.driveNodes };
   return {
     label,
-    inputBiasCurrentA: targets.inputBias ? solution.result.inputBiasCurrentA : null,
+    inputBiasCurrentA: targets.inputBias && want('inputBiasCurrentA') ? solution.result.inputBiasCurrentA : null,
     noiseVPerRtHz,
-    bandwidthHz: targets.bandwidth ? differentialBandwidthHzOf(solution.stage) : null,
-    psrrPositiveDb: psrr('positive', targets.psrrPositive),
-    psrrNegativeDb: psrr('negative', targets.psrrNegative),
-    linearInputRangeV: targets.linearRange ? linearInputRangeV(solution.design, { model: solution.model, op: solution.op, driveNodes: solution.stage.driveNodes }, solution.stage.low.differentialGain.re) : null,
+    bandwidthHz: targets.bandwidth && want('bandwidthHz') ? differentialBandwidthHzOf(solution.stage) : null,
+    psrrPositiveDb: psrr('positive', targets.psrrPositive && want('psrrPositiveDb')),
+    psrrNegativeDb: psrr('negative', targets.psrrNegative && want('psrrNegativeDb')),
+    linearInputRangeV: targets.linearRange && want('linearInputRangeV') ? linearInputRangeV(solution.design, operatingPoint, solution.stage.low.differentialGain.re) : null,
     // the transient's own failure (null) counts as no slew at all: the check then fails
-    slewRateVPerS: targets.slewRate ? (solvedSlewRateVPerS(solution) ?? 0) : null,
-    offsetPerMismatchV: stages && needsOffset(targets) ? offsetSensitivitiesV(stages) : null,
+    slewRateVPerS: targets.slewRate && want('slewRateVPerS') ? (solvedSlewRateVPerS(solution) ?? 0) : null,
+    offsetPerMismatchV: stages && offsetWanted ? offsetSensitivitiesV(stages) : null,
   };
+}
+
+/**
+ * The standard deviation of mismatch k as the Monte Carlo draws it (monteCarloSample): the load
+ * ratio of two resistors each with σ = tolerance/3, about √2·tolerance/3; δ = exp(ΔVBE/VT) − 1,
+ * about σVBE/VT; BF and VAF as given.
+ */
+export function mismatchSpread(sigmas: MismatchSigmas, thermalVoltageV: number, k: number): number {
+  return [(Math.SQRT2 * sigmas.resistorTolerance) / 3, sigmas.vbeSigmaV / thermalVoltageV, sigmas.betaSigma, sigmas.earlyVoltageSigma][k];
 }
 
 /** The spread (one standard deviation) of each mismatch xᵢ the Monte Carlo draws, MISMATCH_KINDS order. */
@@ -202,14 +216,20 @@ export type TradeoffFacts = Pick<
 >;
 
 /** The condition where a figure is worst (largest when `largestIsWorst`), skipping nulls; a null figure counts as `nullAs`. */
-function worstOf(conditions: readonly TradeoffAtCondition[], figure: (c: TradeoffAtCondition) => number | null, largestIsWorst: boolean, nullAs: number): { value: number; label: string } {
+function worstOf(conditions: readonly ConditionEntry[], figure: (c: ConditionEntry) => number | null | undefined, largestIsWorst: boolean, nullAs: number): { value: number; label: string } {
   let best: { value: number; label: string } | null = null;
   for (const c of conditions) {
-    const value = figure(c) ?? nullAs;
+    const raw = figure(c);
+    // undefined: not computed at this condition (a searched corner holds only its own figure)
+    if (raw === undefined) continue;
+    const value = raw ?? nullAs;
     if (!best || (largestIsWorst ? value > best.value : value < best.value)) best = { value, label: c.label };
   }
   return best!;
 }
+
+/** A condition's trade-off figures: every figure at a base corner, only its own at a searched one (the others undefined). */
+export type ConditionEntry = Partial<TradeoffAtCondition> & { label: string };
 
 /** A bandwidth above the corner searches' top counts as that top, Hz (the figure is "above 10 GHz"). */
 const BANDWIDTH_CEILING_HZ = 1e10;
@@ -225,7 +245,7 @@ export interface OffsetFigures {
  * The trade-off facts from every condition's figures: each target's figure at the condition
  * where it is worst, that condition's label, and the margin (positive when the target is met).
  */
-export function tradeoffFacts(spec: Spec, conditions: readonly TradeoffAtCondition[], offset: OffsetFigures | null): TradeoffFacts {
+export function tradeoffFacts(spec: Spec, conditions: readonly ConditionEntry[], offset: OffsetFigures | null): TradeoffFacts {
   const targets = tradeoffTargets(spec);
   const railSpanV = spec.supply.positiveV - spec.supply.negativeV;
   const noise = targets.noise ? worstOf(conditions, (c) => c.noiseVPerRtHz, true, Number.POSITIVE_INFINITY) : null;

@@ -24,8 +24,23 @@ import type { AnalyzeResult, Design, Spec, TailDesign } from '#shared/engine/typ
 import { validateSpec } from '#shared/validate';
 
 /** An invented spec of Quillfen Instruments with the given overrides. */
+/**
+ * The rails, current gain and resistor tempco held at nominal (no spread): these tests check the
+ * base corners' figures from their definitions; tests/unit/engine/sign-off-corners.test.ts checks
+ * the search over the spreads.
+ */
+function withoutSpreads(raw: Record<string, unknown>): Record<string, unknown> {
+  const beta = (raw.device as { beta: number }).beta;
+  return {
+    supplyTolerance: { positivePercent: 0, negativePercent: 0 },
+    betaRange: { min: beta, max: beta },
+    ...raw,
+    resistors: { tempcoPpmPerC: 0, ...(raw.resistors as Record<string, unknown>) },
+  };
+}
+
 function specWith(overrides: Record<string, unknown> = {}): Spec {
-  const result = validateSpec({
+  const result = validateSpec(withoutSpreads({
     title: 'Quillfen evaluation bench case',
     device: { beta: 150, earlyVoltageV: 80, saturationCurrentA: 1e-14 },
     supply: { positiveV: 12, negativeV: -12 },
@@ -39,7 +54,7 @@ function specWith(overrides: Record<string, unknown> = {}): Spec {
     tailCapacitanceF: 1e-11,
     monteCarlo: { samples: 200, seed: 5 },
     ...overrides,
-  });
+  }));
   if (!result.ok) throw new Error(JSON.stringify(result.errors));
   return result.value;
 }

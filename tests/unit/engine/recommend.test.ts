@@ -87,8 +87,20 @@ const RAW_SPECS: Record<string, unknown> = {
 };
 const SPEC_NAMES = Object.keys(RAW_SPECS);
 
+/**
+ * A spec with its rails, current gain and resistor tempco held at nominal unless it states them:
+ * these cases check sizing, temperature and input common mode against hand analysis;
+ * tests/unit/engine/sign-off-corners.test.ts checks the search over the spreads.
+ */
 function specFrom(raw: unknown): Spec {
-  const result = validateSpec(raw);
+  const given = raw as Record<string, unknown>;
+  const device = given.device as { beta?: number } | undefined;
+  const result = validateSpec({
+    supplyTolerance: { positivePercent: 0, negativePercent: 0 },
+    ...(device?.beta !== undefined ? { betaRange: { min: device.beta, max: device.beta } } : {}),
+    ...given,
+    resistors: { tempcoPpmPerC: 0, ...(given.resistors as Record<string, unknown> | undefined) },
+  });
   if (!result.ok) throw new Error(`invalid test spec: ${JSON.stringify(result.errors)}`);
   return result.value;
 }
