@@ -27,12 +27,13 @@ function fontPx(style: MarkStyle): number {
   return Number(/(\d+(\.\d+)?)px/.exec(style.font)?.[1] ?? 11) * uPlot.pxRatio;
 }
 
-/** A vertical line at `value` on the x scale, labelled at the top. */
-export function verticalMark(u: uPlot, value: number, label: string, style: MarkStyle, align: CanvasTextAlign = 'left') {
+/** A vertical line at `value` on the x scale, labelled at the top (or at the bottom, clear of labels along the top). */
+export function verticalMark(u: uPlot, value: number, label: string, style: MarkStyle, align: CanvasTextAlign = 'left', labelAt: 'top' | 'bottom' = 'top') {
   const x = u.valToPos(value, 'x', true);
   line(u, [x, u.bbox.top], [x, u.bbox.top + u.bbox.height], style);
   const dx = (align === 'left' ? 4 : -4) * uPlot.pxRatio;
-  text(u, label, x + dx, u.bbox.top + 12 * uPlot.pxRatio, align, style);
+  const y = labelAt === 'top' ? u.bbox.top + 12 * uPlot.pxRatio : u.bbox.top + u.bbox.height - 3 * uPlot.pxRatio;
+  text(u, label, x + dx, y, align, style);
 }
 
 /** A shaded stretch of the x axis, full plot height, from `fromValue` to `toValue` (null: the plot's edge), drawn under the marks. */

@@ -89,11 +89,6 @@ export function optionColumns(targets: SpecTargets | null): AnyColumn[] {
     }),
     figureColumn('tailCurrentA', quantity('A'), 'Tail current', 'nominal'),
     figureColumn('powerWorstW', quantity('W'), 'Power', targets ? `worst, ≤ ${formatQuantity(targets.powerBudgetW, 'W')}` : 'worst corner'),
-    column.group({
-      id: 'headroom',
-      header: () => <ColumnTitle title="Headroom margin" group />,
-      columns: [figureColumn('icmLowMarginV', margin, 'ICM low'), figureColumn('icmHighMarginV', margin, 'ICM high'), figureColumn('swingMarginV', margin, 'Swing')],
-    }),
     ...(tradeoffs.length
       ? [
           column.group({
@@ -103,5 +98,10 @@ export function optionColumns(targets: SpecTargets | null): AnyColumn[] {
           }),
         ]
       : []),
+    column.group({
+      id: 'headroom',
+      header: () => <ColumnTitle title="Headroom margin" group />,
+      columns: [figureColumn('icmLowMarginV', margin, 'ICM low'), figureColumn('icmHighMarginV', margin, 'ICM high'), figureColumn('swingMarginV', margin, 'Swing')],
+    }),
   ];
 }

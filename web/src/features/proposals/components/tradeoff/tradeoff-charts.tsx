@@ -12,7 +12,6 @@ import { mixHex } from '../../../../lib/colour-mix';
 import { tickLabels } from '../../../../lib/plot-axes';
 import { axis, NO_ZOOM, valueAt } from '../../../../components/charts/axes';
 import { horizontalMark, verticalMark, xBand, yBand } from '../../../../components/charts/draw-marks';
-import { ChartLegend } from '../../../../components/charts/chart-legend';
 import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../../../components/charts/uplot-box';
 import { formatTradeoff } from '../../lib/tradeoff-columns';
 import type { TradeoffChart } from '../../lib/tradeoff-plot';
@@ -64,7 +63,8 @@ export function TradeoffChartView({
     return {
       series: [{}, { stroke: theme.accent, width: 2, points: { show: true, size: 4, fill: theme.accent }, spanGaps: false }],
       cursor: NO_ZOOM,
-      scales: { x: { time: false, distr: 3, log: 10 }, y: chart.logY ? { distr: 3, log: 10, range: [low, high] } : { range: [low, high] } },
+      // the x axis spans exactly the swept currents
+      scales: { x: { time: false, distr: 3, log: 10, range: () => [currentsA[0], currentsA[currentsA.length - 1]] }, y: chart.logY ? { distr: 3, log: 10, range: [low, high] } : { range: [low, high] } },
       axes: [
         axis(theme, 'Tail current (A)', (_u, splits) => tickLabels(splits, (v) => formatQuantity(v, 'A', 2)), { splits: (u) => decadeSplits(u.scales.x.min!, u.scales.x.max!) }),
         axis(theme, chart.unit === 'dB' ? 'dB' : chart.unit, (_u, splits) => tickLabels(splits, (v) => formatTradeoff(v, chart.unit).replace(/ ?(dB)$/, '')), { size: 64, ...(chart.logY ? { splits: (u: uPlot) => decadeSplits(u.scales.y.min!, u.scales.y.max!) } : {}) }),
@@ -80,19 +80,23 @@ export function TradeoffChartView({
         draw: [
           (u) => {
             if (chart.limit !== null) horizontalMark(u, chart.limit, 'y', chart.side === 'band' ? `target ${chart.limitText}` : chart.limitText, { ...mark, colour: theme.ink, dash: [6, 4], width: 1.2 }, chart.side === 'min');
-            verticalMark(u, sizedA, 'sized', { ...mark, colour: theme.ink, width: 1.4 });
-            if (whatIfA !== null && Math.abs(whatIfA / sizedA - 1) > 1e-6) verticalMark(u, whatIfA, 'what-if', { ...mark, colour: theme.note, dash: [2, 3], width: 1.6 }, whatIfA < sizedA ? 'right' : 'left');
+            // the current marks label at the bottom, clear of the limit's label along its line
+            verticalMark(u, sizedA, 'sized', { ...mark, colour: theme.ink, width: 1.4 }, whatIfA !== null && whatIfA > sizedA ? 'right' : 'left', 'bottom');
+            if (whatIfA !== null && Math.abs(whatIfA / sizedA - 1) > 1e-6) verticalMark(u, whatIfA, 'what-if', { ...mark, colour: theme.note, dash: [2, 3], width: 1.6 }, whatIfA < sizedA ? 'right' : 'left', 'bottom');
           },
         ],
       },
     };
-  }, [chart, feasible, sizedA, whatIfA, theme, shade, gainShade, onCursor]);
+  }, [chart, currentsA, feasible, sizedA, whatIfA, theme, shade, gainShade, onCursor]);
   const data = useMemo(() => [currentsA, chart.values] as unknown as uPlot.AlignedData, [currentsA, chart.values]);
-  const at = index === null ? null : formatQuantity(currentsA[index], 'A');
+  const value = valueAt(chart.values, index, (v) => formatTradeoff(v, chart.unit));
   return (
     <>
-      <UplotBox options={options} data={data} height={200} />
-      <ChartLegend items={[{ label: chart.title, stroke: theme.accent, width: 2, marker: 'filled', value: valueAt(chart.values, index, (v) => formatTradeoff(v, chart.unit)) }]} at={at} />
+      <UplotBox options={options} data={data} height={190} />
+      {/* one line under the plot: the figure under the cursor (the what-if list beside the charts reads any current exactly) */}
+      <p className="min-h-4 text-xs text-ink-soft tabular-nums dark:text-night-ink-soft">
+        {index === null ? '\u00a0' : `${chart.title} ${value ?? 'not solved'} at ${formatQuantity(currentsA[index], 'A')}`}
+      </p>
     </>
   );
 }

@@ -50,9 +50,10 @@ function TradeoffView({ proposal, option, ownA, facts }: { proposal: Proposal; o
   return (
     <Sheet title={`What the tail current trades: ${name}`} aria-label="What the tail current trades">
       <p className="mb-3 max-w-3xl text-sm text-ink-soft dark:text-night-ink-soft">
-        <WindowSentence option={option} />
+        <WindowSentence option={option} /> Point at a plot to read a figure at a swept current.
       </p>
       <CurrentControl text={text} onText={setText} reading={reading} ownA={ownA} lowA={currentsA[0]} highA={currentsA[currentsA.length - 1]} />
+      {/* On a phone the what-if figures come first, next to the control that moves them. */}
       <div className="mt-4 grid gap-6 lg:grid-cols-[minmax(0,1fr)_19rem]">
         <div className="min-w-0">
           {sweep.isError ? (
@@ -166,7 +167,7 @@ function CurrentControl({
 function WhatIfFigures({ charts, point, updating, pending, error }: { charts: TradeoffChart[]; point: TradeoffSweepPoint | null; updating: boolean; pending: boolean; error: string | null }) {
   const rows = point?.ok && charts.length ? whatIfRows(charts, point) : null;
   return (
-    <section aria-labelledby="what-if-current-title" className="self-start rounded-md border border-rule p-3 dark:border-night-rule">
+    <section aria-labelledby="what-if-current-title" className="self-start rounded-md border border-rule p-3 max-lg:order-first lg:sticky lg:top-4 dark:border-night-rule">
       <header className="mb-2 flex items-baseline justify-between gap-2">
         <h3 id="what-if-current-title" className="text-sm font-medium">
           At the what-if current
