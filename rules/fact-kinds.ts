@@ -138,6 +138,9 @@ export const FACT_KINDS: { readonly [K in keyof OptionFacts]-?: KindOf<OptionFac
   slewRateMinVPerS: 'number-or-null',
   slewRateMarginVPerS: 'number-or-null',
   slewRateCorner: 'text',
+  tailCurrentWindowSet: 'boolean',
+  tailCurrentWindowEmpty: 'boolean',
+  tailCurrentWindowNote: 'text',
   tailOutputResistanceNote: 'text',
 };
 

@@ -28,7 +28,7 @@ import {
   type MonteCarloResult,
   type ScreeningStages,
 } from './mismatch';
-import { designAt, outputGain, swingPeakPerCollectorV } from './sizing';
+import { designAt, outputGain, swingPeakPerCollectorV, type SizedOption } from './sizing';
 import { swingCompression } from './large-signal';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
 import { driftSensitivitiesVPerC, offsetStatistics, tradeoffAtCondition, tradeoffFacts, tradeoffTargets, type OffsetFigures, type TradeoffAtCondition } from './tradeoff-figures';
@@ -80,7 +80,7 @@ export interface OptionCurves {
 export type GainRemedy = 'degeneration-or-rising-tail-current' | 'current-source-tail' | 'higher-resistance-tail';
 
 /** The facts whose value is a sentence: written at the edge from the figures beside them. */
-export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote' | 'cmrrDifferentialLimitNote' | 'outputCmrrBasis';
+export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote' | 'cmrrDifferentialLimitNote' | 'outputCmrrBasis' | 'tailCurrentWindowNote';
 
 /** An operating-point problem and the condition it appears at. */
 export interface ProblemAt {
@@ -94,6 +94,8 @@ export type MeasuredFacts = Omit<OptionFacts, WordedFact | 'operatingPointProble
   operatingPointProblemsAt: ProblemAt[];
   /** Each mismatch's share of the differential worst case's common-mode gain, per cent (null when single-ended). */
   cmrrDifferentialSharesPercent: MismatchShares | null;
+  /** The tail-current window sizing picked the current in (null: the spec sets no bounding target, or the design is a designer's own). */
+  tailCurrentWindow: SizedOption['window'] | null;
 };
 
 export interface OptionEvaluation {
@@ -190,14 +192,17 @@ function curveGrid(solution: Pick<StageSolution, 'stage' | 'design'>): number[] 
 
 /**
  * Evaluates a sized design against its spec. `draws`: the spec's Monte Carlo draws, shared by
- * every option of one recommendation (made here when absent).
+ * every option of one recommendation (made here when absent); `window`: the tail-current window
+ * sizing picked its current in, when it did.
  */
-export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDraws): OptionEvaluation {
+export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDraws, window: SizedOption['window'] | null = null): OptionEvaluation {
   const f = spec.cmrr.atFrequencyHz;
   const differentialOutput = spec.gain.output === 'differential';
   const sigmas = mismatchSigmas(spec);
   const nominal = nominalCondition(spec);
-  const nominalSolution = solveStage(designAtCondition(spec, design, nominal));
+  // the prediction at nominal keeps the design's own `ac` frequencies (the spec's noise frequency)
+  const nominalDesign = designAtCondition(spec, design, nominal);
+  const nominalSolution = solveStage(design.frequenciesHz ? { ...nominalDesign, frequenciesHz: design.frequenciesHz } : nominalDesign);
   const predicted = nominalSolution.result;
 
   // Differential output: a first-order mismatch model at every corner finds the governing one,
@@ -371,6 +376,9 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     tailOutputResistanceClosedFormOhm: predicted.tailOutputResistanceClosedForm.valueOhm,
     tailOutputResistanceFormula: predicted.tailOutputResistanceClosedForm.formula,
     ...tradeoffFacts(spec, tradeoffs, offsetFigures),
+    tailCurrentWindowSet: window !== null,
+    tailCurrentWindowEmpty: window?.window.empty ?? false,
+    tailCurrentWindow: window,
   };
 
 

@@ -116,7 +116,7 @@ async function checkedOption(
     design = sized.design;
     notes = sized.steps.map(sizingNote);
     tailCurrentWindow = windowOf(sized);
-    const evaluation = evaluateOption(spec, design, draws);
+    const evaluation = evaluateOption(spec, design, draws, sized.window ?? null);
     // A figure the option cannot reach (a rejection with no common-mode gain left to divide by)
     // fails the option with its name; it never reaches the answer as NaN or Infinity
     const unreachable = firstNonFinitePath({ figures: evaluation.facts, predicted: evaluation.predicted, corners: evaluation.corners, curves: evaluation.curves, monteCarlo: evaluation.monteCarlo });

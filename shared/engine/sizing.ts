@@ -368,5 +368,14 @@ function sizedAt(spec: Spec, topology: TopologyId, nominal: Condition, tailA: nu
   if (!tuned.reached) {
     steps.push({ step: 'collector-short', limit: tuned.limit ?? 'gain-peak', targetGain: spec.gain.target, reachedGain: tuned.value, resistanceOhm: tuned.rOhm });
   }
-  return { design: designAt(spec, nominal, withRc(rc)), steps };
+  return { design: withNoiseFrequency(spec, designAt(spec, nominal, withRc(rc))), steps };
+}
+
+/**
+ * The sized design with the spec's noise frequency as its `frequenciesHz`, so its prediction
+ * carries the input noise there (`ac[0].inputNoiseVPerRtHz`) beside the other figures.
+ */
+function withNoiseFrequency(spec: Spec, design: Design): Design {
+  const frequencyHz = spec.noise?.maxVPerRtHz !== undefined ? spec.noise.atFrequencyHz : undefined;
+  return frequencyHz === undefined ? design : { ...design, frequenciesHz: [frequencyHz] };
 }

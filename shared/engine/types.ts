@@ -356,6 +356,12 @@ export interface OptionFacts {
   slewRateMinVPerS: number | null;
   slewRateMarginVPerS: number | null;
   slewRateCorner: string;
+  /** Whether the spec sets a target that bounds the tail current (sizing picked it inside a window: current-window.ts). */
+  tailCurrentWindowSet: boolean;
+  /** Whether the window is empty: a floor above a ceiling. */
+  tailCurrentWindowEmpty: boolean;
+  /** The current the option was sized at, and the window around it, in words (the bounds and the requirement behind each). */
+  tailCurrentWindowNote: string;
 }
 
 /** A rule set as the engine sees it: a version, its rules, and an evaluator (rules/ provides it). */

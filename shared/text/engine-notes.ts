@@ -94,6 +94,13 @@ function boundText(b: CurrentBound): string {
   return `${b.side === 'lower' ? '≥' : '≤'} ${value} for ${windowRequirementText(b.requirement)} (${b.basis === 'solved' ? 'hand formula scaled to the solved circuit' : 'hand formula'})`;
 }
 
+/** The tail-current window as a fact's sentence; without a window, what set the current instead. */
+function tailCurrentWindowFact(sized: MeasuredFacts['tailCurrentWindow']): string {
+  if (!sized) return "No target bounds the tail current: it is the power budget's share, or the spec's or the designer's own.";
+  const { window, pick } = sized;
+  return tailCurrentWindowNote({ step: 'tail-current-window', bounds: window.bounds, lower: window.lower, upper: window.upper, empty: window.empty, currentA: pick.currentA, setBy: pick.setBy });
+}
+
 function tailCurrentWindowNote(s: Extract<SizingStep, { step: 'tail-current-window' }>): string {
   const bounds = s.bounds.map(boundText).join('; ');
   if (s.empty) {
@@ -184,6 +191,7 @@ export function wordedFacts(measured: MeasuredFacts): OptionFacts {
     if (key === 'gainOverConditionsRemedyId') facts.gainOverConditionsRemedy = GAIN_REMEDY_WORDS[value as GainRemedy];
     else if (key === 'operatingPointProblemsAt') facts.operatingPointProblems = (value as ProblemAt[]).map(problemAtText);
     else if (key === 'cmrrDifferentialSharesPercent') facts.cmrrDifferentialLimitNote = cmrrDifferentialLimitNote(measured.cmrrDifferentialWorstCaseDb, value as MismatchShares | null);
+    else if (key === 'tailCurrentWindow') facts.tailCurrentWindowNote = tailCurrentWindowFact(measured.tailCurrentWindow);
     else facts[key] = value;
   }
   const closedForm = { valueOhm: measured.tailOutputResistanceClosedFormOhm, formula: measured.tailOutputResistanceFormula };

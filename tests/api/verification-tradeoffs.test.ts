@@ -30,7 +30,7 @@ const CONTRACT_PERCENT: Record<string, number> = {
 };
 const CONTRACT_PSRR_DB = 1.5;
 
-const TRADEOFF_FIELDS = ['inputBiasCurrentA', 'inputOffsetCurrentA', 'inputOffsetVoltageV', 'offsetDriftVPerC', 'linearInputRangeV', 'psrrDb', 'inputResistanceOhm', 'differentialBandwidthHz'] as const;
+const TRADEOFF_FIELDS = ['inputBiasCurrentA', 'inputOffsetCurrentA', 'inputOffsetVoltageV', 'offsetDriftVPerC', 'linearInputRangeV', 'psrrDb', 'inputResistanceOhm', 'differentialBandwidthHz', 'slewRateVPerS'] as const;
 
 function figure(option: OptionVerification, key: string): VerifiedFigure {
   const found = option.nominal!.figures.find((f) => f.key === key);

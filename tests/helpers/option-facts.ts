@@ -125,6 +125,9 @@ export function makeOptionFacts(overrides: Partial<OptionFacts> = {}): OptionFac
     slewRateMinVPerS: 5e6,
     slewRateMarginVPerS: 4.5e6,
     slewRateCorner: 'ICM −1.5 V, −40 °C',
+    tailCurrentWindowSet: true,
+    tailCurrentWindowEmpty: false,
+    tailCurrentWindowNote: 'Tail current 431 µA, set by the input bias-current limit, inside the window (≥ 9.03 µA for the noise limit; ≤ 538 µA for the input bias-current limit)',
     ...overrides,
   };
 }

@@ -21,7 +21,9 @@ type Boundary =
   /** A count of problems: 0 passes, 1 fails. */
   | { kind: 'count'; fact: NumericFact }
   /** A caution flag: false passes, true fails. */
-  | { kind: 'flag'; fact: FlagFact };
+  | { kind: 'flag'; fact: FlagFact }
+  /** A collision flag of a rule that applies (its `context` makes it apply): false passes, true fails. */
+  | { kind: 'collision'; fact: FlagFact };
 
 const DIFFERENTIAL: Partial<OptionFacts> = { output: 'differential', isDifferentialOutput: true };
 const RESISTOR_TAIL: Partial<OptionFacts> = { topology: 'resistor', isResistorTail: true };
@@ -54,6 +56,7 @@ const BOUNDARIES: Record<string, Boundary> = {
   'patient-connected': { kind: 'flag', fact: 'patientConnected' },
   'power-budget': { kind: 'margin', fact: 'powerMarginW', unit: 'W' },
   'tail-current-drift': { kind: 'margin', fact: 'tailCurrentDriftMarginPercent', unit: '%' },
+  'tail-current-window': { kind: 'collision', fact: 'tailCurrentWindowEmpty' },
 };
 
 /** Margins tried on each side, in the rule's unit: one unit, a hundredth (the finest step a reason prints) and a millionth. */
@@ -103,6 +106,16 @@ describe.each(allRules.map((rule) => [rule.name, rule] as const))('%s', (name, r
       const check = await checkOf(rule, { [boundary.fact]: flag });
       // A caution applies only when its flag is set; unset, it passes as not applicable.
       expect(check).toMatchObject({ passed, applicable: flag });
+    });
+  }
+
+  if (boundary.kind === 'collision') {
+    test.each([
+      [false, true],
+      [true, false],
+    ] as const)(`${boundary.fact} = %s: passed %s`, async (flag, passed) => {
+      const check = await checkOf(rule, { [boundary.fact]: flag });
+      expect(check).toMatchObject({ passed, applicable: true });
     });
   }
 });

@@ -34,6 +34,7 @@ const RULE_NAMES = [
   'psrr-positive',
   'slew-rate',
   'tail-current-drift',
+  'tail-current-window',
 ];
 
 const realRules = await loadRuleFiles();

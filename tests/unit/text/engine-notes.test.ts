@@ -66,8 +66,14 @@ describe('figures worded', () => {
     expect(tailOutputResistanceNote(5.48e6, { valueOhm: 5.29e6, formula: 'β·ro/2' })).toBe('5.48 MΩ by node analysis (textbook β·ro/2 ≈ 5.29 MΩ)');
   });
 
+  /** Measured facts from the shared option facts (their worded ones left out). */
+  function wordedInput(): MeasuredFacts {
+    const { gainOverConditionsRemedy: _w, tailOutputResistanceNote: _n, operatingPointProblems: _p, cmrrDifferentialLimitNote: _l, tailCurrentWindowNote: _t, ...rest } = makeOptionFacts();
+    return { ...rest, gainOverConditionsRemedyId: 'current-source-tail', operatingPointProblemsAt: [], cmrrDifferentialSharesPercent: null, tailCurrentWindow: null };
+  }
+
   test('when an option\'s facts are worded, then the remedy id and the problems become words in their places and the Rout note is written from the figures', () => {
-    const { gainOverConditionsRemedy: _words, tailOutputResistanceNote: _note, operatingPointProblems: _problems, cmrrDifferentialLimitNote: _limit, ...rest } = makeOptionFacts();
+    const { gainOverConditionsRemedy: _words, tailOutputResistanceNote: _note, operatingPointProblems: _problems, cmrrDifferentialLimitNote: _limit, tailCurrentWindowNote: _window, ...rest } = makeOptionFacts();
     const measured: MeasuredFacts = {
       ...rest,
       gainOverConditionsRemedyId: 'current-source-tail',
@@ -80,8 +86,23 @@ describe('figures worded', () => {
       tailOutputResistanceClosedFormOhm: 2.5e6,
       tailOutputResistanceFormula: 'ro·(1 + gm·(RE ∥ rπ))',
       cmrrDifferentialSharesPercent: { load: 12.4, is: 6.1, beta: 0.6, early: 80.9 },
+      tailCurrentWindow: {
+        window: {
+          bounds: [
+            { requirement: 'noise', side: 'lower', currentA: 9.03e-6, basis: 'solved' },
+            { requirement: 'input-bias-current', side: 'upper', currentA: 538e-6, basis: 'hand' },
+          ],
+          lower: { requirement: 'noise', side: 'lower', currentA: 9.03e-6, basis: 'solved' },
+          upper: { requirement: 'input-bias-current', side: 'upper', currentA: 538e-6, basis: 'hand' },
+          empty: false,
+        },
+        pick: { currentA: 431e-6, setBy: 'input-bias-current' },
+      },
     };
     const facts = wordedFacts(measured);
+    expect(facts.tailCurrentWindowNote).toBe(
+      'Tail current 431 µA, set by the input bias-current limit, inside the window the targets allow (≥ 9.03 µA for the noise limit (hand formula scaled to the solved circuit); ≤ 538 µA for the input bias-current limit (hand formula)).',
+    );
     expect(facts.cmrrDifferentialLimitNote).toBe('Shares of the worst-case common-mode gain by mismatch: Early voltage 81 %, load resistors 12 %, VBE 6 %, beta 1 %.');
     expect(facts.gainOverConditionsRemedy).toBe('a current-source tail instead of the resistor (the tail current then stops following the input common mode)');
     expect(facts.tailOutputResistanceNote).toBe('2.3 MΩ by node analysis (textbook ro·(1 + gm·(RE ∥ rπ)) ≈ 2.5 MΩ)');
@@ -94,8 +115,30 @@ describe('figures worded', () => {
       gainOverConditionsRemedyId: 'gainOverConditionsRemedy',
       operatingPointProblemsAt: 'operatingPointProblems',
       cmrrDifferentialSharesPercent: 'cmrrDifferentialLimitNote',
+      tailCurrentWindow: 'tailCurrentWindowNote',
     };
     const measuredKeys = Object.keys(measured).map((key) => worded[key] ?? key);
     expect(Object.keys(facts)).toEqual([...measuredKeys, 'tailOutputResistanceNote']);
+  });
+
+  test('when the targets collide, then the window note names both requirements and their currents; without a window, what set the current', () => {
+    const collide = wordedFacts({
+      ...wordedInput(),
+      tailCurrentWindow: {
+        window: {
+          bounds: [
+            { requirement: 'slew-rate', side: 'lower', currentA: 1.2e-3, basis: 'solved' },
+            { requirement: 'input-bias-current', side: 'upper', currentA: 400e-6, basis: 'solved' },
+          ],
+          lower: { requirement: 'slew-rate', side: 'lower', currentA: 1.2e-3, basis: 'solved' },
+          upper: { requirement: 'input-bias-current', side: 'upper', currentA: 400e-6, basis: 'solved' },
+          empty: true,
+        },
+        pick: { currentA: 400e-6, setBy: 'input-bias-current' },
+      },
+    }).tailCurrentWindowNote;
+    expect(collide).toContain('No tail current meets every target: the slew-rate target needs 1.2 mA or more, the input bias-current limit allows 400 µA at most');
+    expect(collide).toContain('sized at 400 µA, the ceiling');
+    expect(wordedFacts({ ...wordedInput(), tailCurrentWindow: null }).tailCurrentWindowNote).toContain('No target bounds the tail current');
   });
 });
