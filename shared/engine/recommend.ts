@@ -94,7 +94,7 @@ function unsolvedChecks(ruleSet: RuleSet, message: string): Check[] {
 function windowOf(sized: SizedOption): TailCurrentWindow | null {
   if (!sized.window) return null;
   const { window, pick, sizedAtA } = sized.window;
-  return { bounds: window.bounds, lower: window.lower, upper: window.upper, empty: window.empty, currentA: pick.currentA, setBy: pick.setBy, sizedAtA };
+  return { bounds: window.bounds, lower: window.lower, upper: window.upper, empty: window.empty, currentA: pick.currentA, setBy: pick.setBy, sizedAtA: sizedAtA ?? pick.currentA };
 }
 
 /**

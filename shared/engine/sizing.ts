@@ -113,9 +113,10 @@ export interface SizedOption {
   /**
    * The tail-current window and the current picked in it; absent when the spec sets no target that
    * bounds the current. `sizedAtA`: the current the design was sized for (the first pick when the
-   * window's second look moved it by under REPICK_TOLERANCE).
+   * window's second look moved it by under REPICK_TOLERANCE); sizeTopology always gives it, a
+   * window described by hand (a note's test) may leave it out.
    */
-  window?: { window: CurrentWindow; pick: PickedCurrent; sizedAtA: number };
+  window?: { window: CurrentWindow; pick: PickedCurrent; sizedAtA?: number };
 }
 
 /** The sized values of an option: what sizing chooses and every condition reuses. */
