@@ -80,9 +80,18 @@ export function TradeoffChartView({
         draw: [
           (u) => {
             if (chart.limit !== null) horizontalMark(u, chart.limit, 'y', chart.side === 'band' ? `target ${chart.limitText}` : chart.limitText, { ...mark, colour: theme.ink, dash: [6, 4], width: 1.2 }, chart.side === 'min');
-            // the current marks label at the bottom, clear of the limit's label along its line
-            verticalMark(u, sizedA, 'sized', { ...mark, colour: theme.ink, width: 1.4 }, whatIfA !== null && whatIfA > sizedA ? 'right' : 'left', 'bottom');
-            if (whatIfA !== null && Math.abs(whatIfA / sizedA - 1) > 1e-6) verticalMark(u, whatIfA, 'what-if', { ...mark, colour: theme.note, dash: [2, 3], width: 1.6 }, whatIfA < sizedA ? 'right' : 'left', 'bottom');
+            // the current marks label at the bottom, clear of the limit's label along its line; the two labels
+            // face away from each other, and a label near a plot edge faces inward
+            const inward = (value: number, away: CanvasTextAlign): CanvasTextAlign => {
+              const x = u.valToPos(value, 'x', true);
+              const near = 60 * devicePixelRatio;
+              if (x - u.bbox.left < near) return 'left';
+              if (u.bbox.left + u.bbox.width - x < near) return 'right';
+              return away;
+            };
+            const apart = whatIfA !== null && Math.abs(whatIfA / sizedA - 1) > 1e-6;
+            verticalMark(u, sizedA, 'sized', { ...mark, colour: theme.ink, width: 1.4 }, inward(sizedA, apart && whatIfA! > sizedA ? 'right' : 'left'), 'bottom');
+            if (apart) verticalMark(u, whatIfA!, 'what-if', { ...mark, colour: theme.note, dash: [2, 3], width: 1.6 }, inward(whatIfA!, whatIfA! < sizedA ? 'right' : 'left'), 'bottom');
           },
         ],
       },
