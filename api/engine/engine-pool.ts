@@ -1,6 +1,6 @@
 /**
  * Where the engine runs for a request: rankings (proposal creation, and so every ranking of a
- * batch) and override evaluations. The engine is CPU work of 10 to 20 ms per ranking; on the
+ * batch), override evaluations and trade-off sweeps (tens to hundreds of ms each). The engine is CPU work of 10 to 20 ms per ranking; on the
  * request thread it holds every other request behind it, so a server runs it in a pool of worker
  * threads (piscina) sized to the cores, one pool per process shared by every app in it.
  *
@@ -20,7 +20,8 @@ import { fileURLToPath } from 'node:url';
 import { Piscina } from 'piscina';
 import { evaluateDesign } from '#shared/engine/index';
 import type { RecommendOption } from '#shared/engine/recommend';
-import type { Design, RuleSet, Spec } from '#shared/engine/types';
+import { tradeoffSweep, type TradeoffSweepPoint } from '#shared/engine/tradeoff-sweep';
+import type { Design, RuleSet, Spec, TopologyId } from '#shared/engine/types';
 import { ruleFilesOf } from '../../rules/index';
 import { errorFrom, rankingJson, type EngineAnswer, type EngineTask, type RulesInTask } from './engine-tasks';
 
@@ -124,6 +125,12 @@ export async function evaluateSpecDesign(spec: Spec, design: Design, ruleSet: Ru
   const target = poolFor(ruleSet);
   if (!target) return evaluateDesign(spec, design, ruleSet);
   return answered(target.pool.run({ kind: 'evaluate', spec, design, rules: target.rules }), (a) => ('option' in a ? a.option : unexpected(a)));
+}
+
+/** A topology of a checked spec sized and solved at each tail current (tradeoff-sweep.ts); no rule set, so any pool takes it. */
+export async function sweepTradeoff(spec: Spec, topology: TopologyId, tailCurrentsA: number[]): Promise<TradeoffSweepPoint[]> {
+  if (!shared) return tradeoffSweep(spec, topology, tailCurrentsA);
+  return answered(shared.pool.run({ kind: 'sweep', spec, topology, tailCurrentsA }), (a) => ('points' in a ? a.points : unexpected(a)));
 }
 
 function unexpected(answer: unknown): never {

@@ -1,6 +1,6 @@
 /**
- * What the engine's worker threads run (loaded through engine-worker.mjs): a ranking or a design
- * evaluation, by calling the pure engine in shared/engine exactly as the request thread would.
+ * What the engine's worker threads run (loaded through engine-worker.mjs): a ranking, a design
+ * evaluation or a trade-off sweep, by calling the pure engine in shared/engine exactly as the request thread would.
  * Each task carries the rule list as JSON text with its version; a thread builds that RuleSet
  * once and keeps it. An error the engine throws comes back as a description (never thrown
  * across the thread boundary, where its class would be lost): engine-pool.ts throws it again as
@@ -10,7 +10,8 @@ import { recommend, evaluateDesign } from '#shared/engine/index';
 import { ConvergenceError } from '#shared/engine/operating-point';
 import { InputError } from '#shared/engine/errors';
 import type { RecommendOption } from '#shared/engine/recommend';
-import type { Design, RuleSet, Spec } from '#shared/engine/types';
+import { tradeoffSweep, type TradeoffSweepPoint } from '#shared/engine/tradeoff-sweep';
+import type { Design, RuleSet, Spec, TopologyId } from '#shared/engine/types';
 import { createRuleSet } from '../../rules/index';
 import type { RuleFile } from '../../rules/run-rules';
 
@@ -20,7 +21,10 @@ export interface RulesInTask {
   json: string;
 }
 
-export type EngineTask = { kind: 'rank'; spec: Spec; rules: RulesInTask } | { kind: 'evaluate'; spec: Spec; design: Design; rules: RulesInTask };
+export type EngineTask =
+  | { kind: 'rank'; spec: Spec; rules: RulesInTask }
+  | { kind: 'evaluate'; spec: Spec; design: Design; rules: RulesInTask }
+  | { kind: 'sweep'; spec: Spec; topology: TopologyId; tailCurrentsA: number[] };
 
 /** An error thrown by the engine, as plain data. */
 export interface EngineErrorDescription {
@@ -33,7 +37,11 @@ export interface EngineErrorDescription {
   stack?: string;
 }
 
-export type EngineAnswer = { ok: true; rankingJson: string } | { ok: true; option: RecommendOption } | { ok: false; error: EngineErrorDescription };
+export type EngineAnswer =
+  | { ok: true; rankingJson: string }
+  | { ok: true; option: RecommendOption }
+  | { ok: true; points: TradeoffSweepPoint[] }
+  | { ok: false; error: EngineErrorDescription };
 
 /** The engine's ranking of a spec as the JSON text proposals store (the same text on any thread). */
 export async function rankingJson(spec: Spec, ruleSet: RuleSet): Promise<string> {
@@ -76,6 +84,8 @@ function ruleSetFor(rules: RulesInTask): RuleSet {
 /** One task, on a worker thread. */
 export async function runEngineTask(task: EngineTask): Promise<EngineAnswer> {
   try {
+    // a sweep checks no rule: it needs no rule set
+    if (task.kind === 'sweep') return { ok: true, points: tradeoffSweep(task.spec, task.topology, task.tailCurrentsA) };
     const ruleSet = ruleSetFor(task.rules);
     if (task.kind === 'rank') return { ok: true, rankingJson: await rankingJson(task.spec, ruleSet) };
     return { ok: true, option: await evaluateDesign(task.spec, task.design, ruleSet) };

@@ -1,11 +1,14 @@
-/** The stateless parts: what-if analysis, the spec schema for the form (and as a CSV template), the topology catalogue, health. */
+/** The stateless parts: what-if analysis, the trade-off sweep, the spec schema for the form (and as a CSV template), the topology catalogue, health. */
 import { Router } from 'express';
 import { analyze, ConvergenceError, ENGINE_VERSION, ESTIMATE_NOTICE } from '#shared/engine/index';
 import { TOPOLOGIES, type Design, type RuleSet } from '#shared/engine/types';
 import { specCsvTemplate } from '#shared/import/spec-columns';
-import { DESIGN_SCHEMA, SPEC_SCHEMA, validateDesign } from '#shared/validate';
+import type { TradeoffInput, TradeoffResponse } from '#shared/api/engine';
+import { DESIGN_SCHEMA, SPEC_SCHEMA, validateDesign, validateSpec } from '#shared/validate';
+import { sweepTradeoff } from '../engine/engine-pool';
+import { TRADEOFF_BODY } from '../validation/bodies';
 import { requireSignIn } from '../auth/require';
-import { AppError } from '../errors';
+import { AppError, invalid } from '../errors';
 import { validateBody } from '../validation/validate-request';
 
 export function engineRoutes(ruleSet: RuleSet): Router {
@@ -35,6 +38,14 @@ export function engineRoutes(ruleSet: RuleSet): Router {
       }
       throw error;
     }
+  });
+  // A topology sized at each tail current, each point's nominal figures or its message (on the engine pool: up to 40 sizings).
+  router.post('/tradeoff', requireSignIn, validateBody(TRADEOFF_BODY), async (req, res) => {
+    const body = req.body as TradeoffInput;
+    const checked = validateSpec(body.spec);
+    if (!checked.ok) throw invalid(checked.errors.map((e) => ({ path: `/spec${e.path}`, message: e.message })));
+    const answer: TradeoffResponse = { topology: body.topology, points: await sweepTradeoff(checked.value, body.topology, body.tailCurrentsA), notice: ESTIMATE_NOTICE };
+    res.json(answer);
   });
   return router;
 }

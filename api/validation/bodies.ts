@@ -21,6 +21,8 @@ import type { MembershipInput, NewProject } from '#shared/api/projects';
 import type { DecisionInput, EvaluationInput, NetlistQuery, ProposalListQuery, ReviewInput, WithdrawalInput } from '#shared/api/proposals';
 import type { DiffQuery, SpecInput } from '#shared/api/specs';
 import type { ImportQuery } from '#shared/api/batch';
+import type { TradeoffInput } from '#shared/api/engine';
+import { TRADEOFF_SWEEP_MAX_POINTS } from '#shared/engine/tradeoff-sweep';
 import type { LoginInput, NewUser, PasswordChangeInput, PasswordResetInput, PreferencesInput, UserChanges } from '#shared/api/users';
 import type { MonteCarloInput } from '#shared/api/verification';
 import { wire, type Defaulted } from './wire-schema';
@@ -116,6 +118,20 @@ export const DEVICE_RECORDED_QUERY = wire<RecordedDeviceQuery>()({ name: { type:
 export const DIFF_QUERY = wire<DiffQuery>()({ from: { type: 'integer', minimum: 1 }, to: { type: 'integer', minimum: 1 } }, ['from', 'to']);
 
 export const EVALUATION_BODY = wire<EvaluationInput>()({ design: DESIGN_SCHEMA }, ['design']);
+
+/**
+ * POST /api/tradeoff: a spec (checked against the spec schema by the route, its errors under
+ * /spec), one of the topologies, and 1 to 40 tail currents in amperes. A current the sizing cannot
+ * use is not refused here: its point answers with the reason, so one bad value loses nothing else.
+ */
+export const TRADEOFF_BODY = wire<TradeoffInput>()(
+  {
+    spec: { type: 'object' },
+    topology: { enum: [...TOPOLOGIES] },
+    tailCurrentsA: { type: 'array', minItems: 1, maxItems: TRADEOFF_SWEEP_MAX_POINTS, items: { type: 'number' } },
+  },
+  ['spec', 'topology', 'tailCurrentsA'],
+);
 
 /** POST /api/proposals/:id/verification/monte-carlo. */
 export const MONTE_CARLO_BODY = wire<MonteCarloInput>()(

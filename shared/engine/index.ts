@@ -2,7 +2,7 @@
  * The engine's public surface: pure functions, SI units, no I/O (ENGINE-CONTRACT.md).
  */
 export { analyze, solveStage, transfersAt, singleEndedCmrrDbAt, type StageSolution } from './analyze';
-export { evaluateDesign, recommend, type RecommendOption, type RecommendResult } from './recommend';
+export { evaluateDesign, recommend, type RecommendOption, type RecommendResult, type TailCurrentWindow } from './recommend';
 export { stageCircuit, type StageCircuit, type CircuitElement } from './circuit';
 export { InputError } from './errors';
 export { ConvergenceError } from './operating-point';

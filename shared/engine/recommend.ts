@@ -12,6 +12,7 @@ import { outputRejection } from './output-rejection';
 import type { RejectionLimits } from './rejection-limits';
 import { rankOptions, recommendedTopology } from './ranking';
 import { sizeTopology, type SizedOption } from './sizing';
+import type { CurrentBound, PickedCurrent } from './current-window';
 import type { AnalyzeResult, Check, Design, OptionFacts, RuleSet, SelectionPolicy, Spec, TopologyId } from './types';
 import { ENGINE_VERSION, ESTIMATE_NOTICE } from './version';
 import { recommendationSummary, sizingNote, undecidedReason, wordedFacts } from '../text/engine-notes';
@@ -37,7 +38,28 @@ export interface RecommendOption {
   curves: OptionCurves | null;
   monteCarlo: MonteCarloResult | null;
   sizingNotes: string[];
+  /**
+   * Added: the tail-current window the option was sized in; null for a designer's own values and
+   * when the spec sets no target that bounds the current (absent from rankings made before it).
+   */
+  tailCurrentWindow?: TailCurrentWindow | null;
   error?: string;
+}
+
+/**
+ * The window of tail current the option may run at (current-window.ts) and the current it is
+ * sized at, as data for a reader's trade-off view: every bound with the requirement that sets it,
+ * the tightest floor and ceiling, whether they collide, the current picked and what set it, and
+ * `sizedAtA`, the current the sizing aimed the design at (the pick, or within 2 % of it).
+ */
+export interface TailCurrentWindow {
+  bounds: CurrentBound[];
+  lower: CurrentBound | null;
+  upper: CurrentBound | null;
+  empty: boolean;
+  currentA: number;
+  setBy: PickedCurrent['setBy'];
+  sizedAtA: number;
 }
 
 export interface RecommendResult {
@@ -68,6 +90,13 @@ function unsolvedChecks(ruleSet: RuleSet, message: string): Check[] {
   }));
 }
 
+/** The sizing's window as the option carries it (null when the spec set no bounding target). */
+function windowOf(sized: SizedOption): TailCurrentWindow | null {
+  if (!sized.window) return null;
+  const { window, pick, sizedAtA } = sized.window;
+  return { bounds: window.bounds, lower: window.lower, upper: window.upper, empty: window.empty, currentA: pick.currentA, setBy: pick.setBy, sizedAtA: sizedAtA ?? pick.currentA };
+}
+
 /**
  * Evaluates and checks one sized design; a stage that cannot be solved becomes an option that
  * fails with every rule undecided and the solver's message.
@@ -81,10 +110,12 @@ async function checkedOption(
 ): Promise<Omit<RecommendOption, 'rank'>> {
   let design: Design | null = null;
   let notes: string[] = [];
+  let tailCurrentWindow: TailCurrentWindow | null = null;
   try {
     const sized = size();
     design = sized.design;
     notes = sized.steps.map(sizingNote);
+    tailCurrentWindow = windowOf(sized);
     const evaluation = evaluateOption(spec, design, draws, sized.window ?? null);
     // A figure the option cannot reach (a rejection with no common-mode gain left to divide by)
     // fails the option with its name; it never reaches the answer as NaN or Infinity
@@ -105,6 +136,7 @@ async function checkedOption(
       curves: evaluation.curves,
       monteCarlo: evaluation.monteCarlo,
       sizingNotes: notes,
+      tailCurrentWindow,
     };
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error);
@@ -121,6 +153,7 @@ async function checkedOption(
       curves: null,
       monteCarlo: null,
       sizingNotes: notes,
+      tailCurrentWindow,
       error: message,
     };
   }

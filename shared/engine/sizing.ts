@@ -111,8 +111,13 @@ export interface SizedOption {
   design: Design;
   /** How each value was chosen, in order. */
   steps: SizingStep[];
-  /** The tail-current window and the current picked in it; absent when the spec sets no target that bounds the current. */
-  window?: { window: CurrentWindow; pick: PickedCurrent };
+  /**
+   * The tail-current window and the current picked in it; absent when the spec sets no target that
+   * bounds the current. `sizedAtA`: the current the design was sized for (the first pick when the
+   * window's second look moved it by under REPICK_TOLERANCE); sizeTopology always gives it, a
+   * window described by hand (a note's test) may leave it out.
+   */
+  window?: { window: CurrentWindow; pick: PickedCurrent; sizedAtA?: number };
 }
 
 /** The sized values of an option: what sizing chooses and every condition reuses. */
@@ -332,11 +337,15 @@ export function sizeTopology(spec: Spec, topology: TopologyId, nominal: Conditio
   const handWindow = currentWindow(spec, ratio);
   const handPick = pickCurrent(handWindow, preferred.currentA, spec.tailCurrentA);
   let sized = sizedAt(spec, topology, nominal, handPick.currentA, []);
+  let sizedAtA = handPick.currentA;
   const window = currentWindow(spec, ratio, solvedAtCurrent(spec, sized.design));
   const pick = pickCurrent(window, preferred.currentA, spec.tailCurrentA);
-  if (Math.abs(pick.currentA / handPick.currentA - 1) > REPICK_TOLERANCE) sized = sizedAt(spec, topology, nominal, pick.currentA, []);
+  if (Math.abs(pick.currentA / handPick.currentA - 1) > REPICK_TOLERANCE) {
+    sized = sizedAt(spec, topology, nominal, pick.currentA, []);
+    sizedAtA = pick.currentA;
+  }
   const step: SizingStep = { step: 'tail-current-window', bounds: window.bounds, lower: window.lower, upper: window.upper, empty: window.empty, currentA: pick.currentA, setBy: pick.setBy };
-  return { design: sized.design, steps: [preferred, step, ...sized.steps], window: { window, pick } };
+  return { design: sized.design, steps: [preferred, step, ...sized.steps], window: { window, pick, sizedAtA } };
 }
 
 /** The figures of a sized design at nominal that calibrate the window: noise at the spec's frequency, slew rate, bandwidth and bias current, at its solved tail current. */

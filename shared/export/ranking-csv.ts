@@ -49,6 +49,33 @@ const COLUMNS: [header: string, value: (o: Option) => string | number | boolean 
   ['blocking_checks_short', (o) => o.checks.filter((c) => !c.passed && c.severity === 'blocking').map((c) => c.rule).join(' ')],
   ['advisory_checks_not_met', (o) => o.checks.filter((c) => !c.passed && c.severity === 'advisory').map((c) => c.rule).join(' ')],
   ['rejection_limits_at_spec_frequency_percent', (o) => rejectionLimitShares(o)],
+  // The spec's optional targets: the worst-corner figure each check judges and the limit, empty where the spec sets no such target
+  ['noise_worst_v_per_rthz', (o) => sig(o.figures?.noiseVPerRtHz)],
+  ['noise_limit_v_per_rthz', (o) => o.figures?.noiseMaxVPerRtHz],
+  ['noise_frequency_hz', (o) => o.figures?.noiseFrequencyHz],
+  ['input_bias_current_worst_a', (o) => sig(o.figures?.inputBiasCurrentWorstA)],
+  ['input_bias_current_limit_a', (o) => o.figures?.inputBiasCurrentMaxA],
+  ['offset_at_sigmas_v', (o) => sig(o.figures?.offsetAtSigmasV)],
+  ['offset_worst_case_v', (o) => sig(o.figures?.offsetWorstCaseV)],
+  ['offset_limit_v', (o) => o.figures?.offsetMaxV],
+  ['offset_sigmas', (o) => o.figures?.offsetSigmas],
+  ['offset_drift_at_sigmas_v_per_c', (o) => sig(o.figures?.offsetDriftAtSigmasVPerC)],
+  ['offset_drift_limit_v_per_c', (o) => o.figures?.offsetDriftMaxVPerC],
+  ['bandwidth_worst_hz', (o) => sig(o.figures?.bandwidthWorstHz)],
+  ['bandwidth_limit_hz', (o) => o.figures?.bandwidthMinHz],
+  ['slew_rate_worst_v_per_s', (o) => sig(o.figures?.slewRateWorstVPerS)],
+  ['slew_rate_limit_v_per_s', (o) => o.figures?.slewRateMinVPerS],
+  ['psrr_positive_worst_db', (o) => db(o.figures?.psrrPositiveDb)],
+  ['psrr_positive_limit_db', (o) => o.figures?.psrrPositiveMinDb],
+  ['psrr_negative_worst_db', (o) => db(o.figures?.psrrNegativeDb)],
+  ['psrr_negative_limit_db', (o) => o.figures?.psrrNegativeMinDb],
+  ['linear_input_range_worst_v', (o) => sig(o.figures?.linearInputRangeWorstV)],
+  ['linear_input_range_limit_v', (o) => o.figures?.linearInputRangeMinV],
+  // The tail-current window the option was sized in (empty without a bounding target)
+  ['tail_current_window_low_a', (o) => sig(o.tailCurrentWindow?.lower?.currentA)],
+  ['tail_current_window_high_a', (o) => sig(o.tailCurrentWindow?.upper?.currentA)],
+  ['tail_current_window_empty', (o) => o.tailCurrentWindow?.empty],
+  ['tail_current_set_by', (o) => o.tailCurrentWindow?.setBy],
 ];
 
 /** What limits the rejection at the spec frequency: each part's share, largest first ("tail-base-collector=48.9 tail-wiring=36.5"). */

@@ -7,6 +7,7 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { evaluateDesign, recommend } from '#shared/engine/index';
 import { ConvergenceError } from '#shared/engine/operating-point';
+import { tradeoffSweep } from '#shared/engine/tradeoff-sweep';
 import { InputError } from '#shared/engine/errors';
 import type { Design, Spec } from '#shared/engine/types';
 import { enginePoolState, rankSpec } from '../../api/engine/engine-pool';
@@ -49,6 +50,13 @@ describe('the engine pool', () => {
     for (let i = 0; i < 8; i += 1) specs.push(await api.createSpec(project.id, { payload: { ...specPayload(), title: `Concurrent ${i}` } }));
     const responses = await Promise.all(specs.map((s) => designer.post(`/api/specs/${s.id}/proposals`)));
     expect(responses.map((r) => r.status)).toEqual(specs.map(() => 201));
+  });
+
+  test('when a trade-off sweep is asked for, then a thread runs it and answers what the engine gives on this thread', async () => {
+    const before = enginePoolState()!.completedTasks;
+    const response = await designer.post('/api/tradeoff').send({ spec: specPayload(), topology: 'cascode', tailCurrentsA: [2e-4, 8e-4, -1] }).expect(200);
+    expect(enginePoolState()!.completedTasks).toBe(before + 1);
+    expect(response.body.points).toEqual(asJson(tradeoffSweep(spec, 'cascode', [2e-4, 8e-4, -1])));
   });
 
   test('when a designer has own values evaluated, then the thread answers what the engine gives on this thread', async () => {

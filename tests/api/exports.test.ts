@@ -5,17 +5,22 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { parseNetlistElements } from '#shared/engine/netlist';
 import { csvField } from '#shared/export/ranking-csv';
 import { runSpice } from '../helpers/spice';
-import { buildApiApp, type ApiClient, type TestApi } from '../helpers/api-app';
+import { buildApiApp, specPayload, type ApiClient, type TestApi } from '../helpers/api-app';
 
 let api: TestApi;
 let designer: ApiClient;
 let proposalId: number;
+/** A proposal of a spec with noise, bias-current, slew-rate and offset targets. */
+let targetsProposalId: number;
 
 beforeAll(async () => {
   api = await buildApiApp({ accounts: ['admin', 'requirements', 'designer'] });
   const project = await api.createProject(['requirements', 'designer']);
   const spec = await api.createSpec(project.id);
   proposalId = (await api.createProposal(spec.id)).id;
+  const targets = { noise: { maxVPerRtHz: 1e-8, atFrequencyHz: 1000 }, inputBiasCurrentMaxA: 3e-6, loadCapacitanceF: 2e-11, slewRateMinVPerS: 5e6, offset: { maxV: 0.004 } };
+  const targetSpec = await api.createSpec(project.id, { title: 'Quillon sensor head — quiet channel', payload: { ...specPayload(), title: 'Quillon sensor head — quiet channel', ...targets } });
+  targetsProposalId = (await api.createProposal(targetSpec.id)).id;
   designer = await api.agentFor('designer');
 });
 
@@ -55,6 +60,34 @@ describe('GET /api/proposals/:id/ranking.csv', () => {
     expect(Number(rows[0][column('tail_current_a')])).toBe(Number(first.predicted.tailCurrentA.toPrecision(3)));
     for (const row of rows) for (const name of header.filter((h) => h.endsWith('_db'))) expect(row[column(name)]).toMatch(/^(|-?\d+(\.\d)?)$/);
     expect(rows.filter((r) => r[column('recommended')] === 'true').map((r) => r[column('topology')])).toEqual(proposal.result.recommended ? [proposal.result.recommended] : []);
+  });
+
+  test('when the spec sets optional targets, then each option carries their worst-corner figures, the limits and its tail-current window', async () => {
+    const csv = await designer.get(`/api/proposals/${targetsProposalId}/ranking.csv`).expect(200);
+    const proposal = (await designer.get(`/api/proposals/${targetsProposalId}`).expect(200)).body;
+    const [header, ...rows] = parseCsv(csv.text);
+    const column = (name: string) => header.indexOf(name);
+    const sig = (v: number) => Number(v.toPrecision(3));
+    proposal.result.options.forEach((option: { figures: Record<string, number>; tailCurrentWindow: { lower: { currentA: number }; upper: { currentA: number }; setBy: string } }, i: number) => {
+      const row = rows[i];
+      expect(Number(row[column('noise_worst_v_per_rthz')])).toBe(sig(option.figures.noiseVPerRtHz));
+      expect(Number(row[column('noise_limit_v_per_rthz')])).toBe(1e-8);
+      expect(Number(row[column('noise_frequency_hz')])).toBe(1000);
+      expect(Number(row[column('input_bias_current_worst_a')])).toBe(sig(option.figures.inputBiasCurrentWorstA));
+      expect(Number(row[column('input_bias_current_limit_a')])).toBe(3e-6);
+      expect(Number(row[column('slew_rate_worst_v_per_s')])).toBe(sig(option.figures.slewRateWorstVPerS));
+      expect(Number(row[column('offset_at_sigmas_v')])).toBe(sig(option.figures.offsetAtSigmasV));
+      expect(Number(row[column('offset_limit_v')])).toBe(0.004);
+      // targets the spec leaves out stay empty
+      for (const name of ['bandwidth_worst_hz', 'bandwidth_limit_hz', 'psrr_positive_worst_db', 'linear_input_range_worst_v', 'offset_drift_at_sigmas_v_per_c']) expect(row[column(name)]).toBe('');
+      expect(Number(row[column('tail_current_window_low_a')])).toBe(sig(option.tailCurrentWindow.lower.currentA));
+      expect(Number(row[column('tail_current_window_high_a')])).toBe(sig(option.tailCurrentWindow.upper.currentA));
+      expect(row[column('tail_current_set_by')]).toBe(option.tailCurrentWindow.setBy);
+    });
+    // the first proposal's spec sets none of them: the columns are there, empty
+    const plain = parseCsv((await designer.get(`/api/proposals/${proposalId}/ranking.csv`).expect(200)).text);
+    expect(plain[0]).toEqual(header);
+    for (const row of plain.slice(1)) for (const name of ['noise_worst_v_per_rthz', 'tail_current_window_low_a', 'tail_current_set_by']) expect(row[plain[0].indexOf(name)]).toBe('');
   });
 
   test.each([
@@ -102,5 +135,16 @@ describe('GET /api/proposals/:id/export.json', () => {
     expect(response.body.proposal.rulesetVersion).toMatch(/^[0-9a-f]{64}$/);
     expect(response.body.audit.map((e: { action: string }) => e.action)).toContain('proposal.ranked');
     expect(response.body.notice).toMatch(/simulation and bench measurement/);
+  });
+
+  test('when the spec sets optional targets, then every option carries their facts and its tail-current window', async () => {
+    const response = await designer.get(`/api/proposals/${targetsProposalId}/export.json`).expect(200);
+    for (const option of response.body.proposal.result.options) {
+      expect(option.figures).toMatchObject({ noiseTargetSet: true, noiseMaxVPerRtHz: 1e-8, inputBiasTargetSet: true, slewRateTargetSet: true, offsetTargetSet: true, bandwidthTargetSet: false });
+      expect(option.figures.noiseVPerRtHz).toBeGreaterThan(0);
+      expect(option.tailCurrentWindow.bounds.map((b: { requirement: string }) => b.requirement)).toEqual(expect.arrayContaining(['noise', 'slew-rate', 'input-bias-current', 'power-budget']));
+      // the option runs at the window's current (within the sizing's 2 % and the series' snapping)
+      expect(Math.abs(option.predicted.tailCurrentA / option.tailCurrentWindow.currentA - 1)).toBeLessThan(0.05);
+    }
   });
 });

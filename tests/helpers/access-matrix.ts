@@ -367,6 +367,7 @@ export const MATRIX: Row[] = [
 
   // Stateless what-if.
   { route: 'POST /api/analyze', url: '/api/analyze', rule: 'signed-in', body: () => ANALYZE_DESIGN, expected: [401, 200, 200, 200, 200] },
+  { route: 'POST /api/tradeoff', url: '/api/tradeoff', rule: 'signed-in', body: () => ({ spec: specPayload(), topology: 'simple-mirror', tailCurrentsA: [2e-4, 1e-3] }), expected: [401, 200, 200, 200, 200] },
 ];
 
 /** A small invented design for the what-if route (a Wilson tail on ±9 V rails). */

@@ -22,6 +22,7 @@ import {
   LOGIN_BODY,
   MEMBERSHIP_BODY,
   MONTE_CARLO_BODY,
+  TRADEOFF_BODY,
   NETLIST_QUERY,
   NEW_PROJECT_BODY,
   NEW_USER_BODY,
@@ -66,6 +67,7 @@ const BODIES: Record<string, fc.Arbitrary<unknown>> = {
   'POST /api/proposals/:id/withdrawal': arbitraryFromSchema(WITHDRAWAL_BODY),
   'POST /api/proposals/:id/verification/monte-carlo': arbitraryFromSchema(MONTE_CARLO_BODY),
   'POST /api/analyze': arbitraryFromSchema(DESIGN_SCHEMA as Schema),
+  'POST /api/tradeoff': arbitraryFromSchema(TRADEOFF_BODY as Schema),
 };
 
 /** Query arbitraries by route; values go out as text, as a browser sends them. */

@@ -69,3 +69,36 @@ describe('the rejection limits column', () => {
     expect(older.rejection_limits_at_spec_frequency_percent).toBe('');
   });
 });
+
+describe('the spec targets’ columns', () => {
+  test('each worst-corner figure at the page’s precision beside its limit, the window’s bounds and what set the current', () => {
+    const withTargets = result();
+    Object.assign(withTargets.options[0].figures!, {
+      noiseVPerRtHz: 3.45678e-9,
+      noiseMaxVPerRtHz: 1e-8,
+      noiseFrequencyHz: 1000,
+      inputBiasCurrentWorstA: 2.56789e-7,
+      psrrPositiveDb: 63.456,
+      psrrPositiveMinDb: 60,
+      slewRateWorstVPerS: 12_345_678,
+    });
+    Object.assign(withTargets.options[0], {
+      tailCurrentWindow: { bounds: [], lower: { requirement: 'noise', side: 'lower', currentA: 2.3456e-5, basis: 'solved' }, upper: { requirement: 'power-budget', side: 'upper', currentA: 6.25e-4, basis: 'hand' }, empty: false, currentA: 5e-4, setBy: 'power-budget', sizedAtA: 5e-4 },
+    });
+    const [row] = Papa.parse<Record<string, string>>(rankingCsv(withTargets).trimEnd(), { header: true, newline: '\r\n' }).data;
+    expect(row).toMatchObject({
+      noise_worst_v_per_rthz: '3.46e-9',
+      noise_limit_v_per_rthz: '1e-8',
+      noise_frequency_hz: '1000',
+      input_bias_current_worst_a: '2.57e-7',
+      psrr_positive_worst_db: '63.5',
+      psrr_positive_limit_db: '60',
+      slew_rate_worst_v_per_s: '12300000',
+      bandwidth_worst_hz: '',
+      tail_current_window_low_a: '0.0000235',
+      tail_current_window_high_a: '0.000625',
+      tail_current_window_empty: 'false',
+      tail_current_set_by: 'power-budget',
+    });
+  });
+});

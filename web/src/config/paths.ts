@@ -83,6 +83,7 @@ export const api = {
   /** DELETE: withdraw a waiting or simulating SPICE job (its requester, a reviewer or an administrator). */
   verificationJob: (id: number, jobId: number) => `/api/proposals/${id}/verification/${jobId}`,
   analyze: '/api/analyze',
+  tradeoff: '/api/tradeoff',
   specSchema: '/api/schema/spec',
   /** The spec CSV template: every column, and one example row. */
   specCsvTemplate: '/api/schema/spec.csv',

@@ -16,8 +16,10 @@ function json<T>(relative: string): T {
 
 export const strainBridge = (): RecommendResult => json('../../fixtures/bridge-receiver.generated.json');
 export const studioLine = (): RecommendResult => json('../../fixtures/line-receiver.generated.json');
+/** Differential output with noise, bias-current, slew-rate and offset targets; noise and offset fall short on every option. */
+export const hydrophonePreamp = (): RecommendResult => json('../../fixtures/hydrophone-preamp.generated.json');
 
-const SPEC_FILES = { strain: '../../fixtures/specs/bridge-receiver.json', studio: '../../fixtures/specs/line-receiver.json' } as const;
+const SPEC_FILES = { strain: '../../fixtures/specs/bridge-receiver.json', studio: '../../fixtures/specs/line-receiver.json', hydrophone: '../../fixtures/specs/hydrophone-preamp.json' } as const;
 
 /** The spec a fixture was ranked from. */
 export const specOf = (spec: keyof typeof SPEC_FILES = 'strain'): Spec => json<Spec>(SPEC_FILES[spec]);

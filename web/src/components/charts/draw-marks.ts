@@ -27,12 +27,36 @@ function fontPx(style: MarkStyle): number {
   return Number(/(\d+(\.\d+)?)px/.exec(style.font)?.[1] ?? 11) * uPlot.pxRatio;
 }
 
-/** A vertical line at `value` on the x scale, labelled at the top. */
-export function verticalMark(u: uPlot, value: number, label: string, style: MarkStyle, align: CanvasTextAlign = 'left') {
+/** A vertical line at `value` on the x scale, labelled at the top (or at the bottom, clear of labels along the top). */
+export function verticalMark(u: uPlot, value: number, label: string, style: MarkStyle, align: CanvasTextAlign = 'left', labelAt: 'top' | 'bottom' = 'top') {
   const x = u.valToPos(value, 'x', true);
   line(u, [x, u.bbox.top], [x, u.bbox.top + u.bbox.height], style);
   const dx = (align === 'left' ? 4 : -4) * uPlot.pxRatio;
-  text(u, label, x + dx, u.bbox.top + 12 * uPlot.pxRatio, align, style);
+  const y = labelAt === 'top' ? u.bbox.top + 12 * uPlot.pxRatio : u.bbox.top + u.bbox.height - 3 * uPlot.pxRatio;
+  text(u, label, x + dx, y, align, style);
+}
+
+/** A shaded stretch of the x axis, full plot height, from `fromValue` to `toValue` (null: the plot's edge), drawn under the marks. */
+export function xBand(u: uPlot, fromValue: number | null, toValue: number | null, colour: string) {
+  const left = fromValue === null ? u.bbox.left : Math.max(u.bbox.left, u.valToPos(fromValue, 'x', true));
+  const right = toValue === null ? u.bbox.left + u.bbox.width : Math.min(u.bbox.left + u.bbox.width, u.valToPos(toValue, 'x', true));
+  if (!(right > left)) return;
+  const ctx = u.ctx;
+  ctx.save();
+  ctx.fillStyle = colour;
+  ctx.fillRect(left, u.bbox.top, right - left, u.bbox.height);
+  ctx.restore();
+}
+
+/** A shaded stretch of the y axis on scale `scale`, full plot width (a tolerance band). */
+export function yBand(u: uPlot, fromValue: number, toValue: number, scale: string, colour: string) {
+  const top = u.valToPos(Math.max(fromValue, toValue), scale, true);
+  const bottom = u.valToPos(Math.min(fromValue, toValue), scale, true);
+  const ctx = u.ctx;
+  ctx.save();
+  ctx.fillStyle = colour;
+  ctx.fillRect(u.bbox.left, top, u.bbox.width, bottom - top);
+  ctx.restore();
 }
 
 /** A small filled diamond at data coordinates (x, y on scale `scale`). */

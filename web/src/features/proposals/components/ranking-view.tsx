@@ -15,14 +15,16 @@ import { RejectionFigure } from './ranking/plots/rejection-figure';
 import { CautionsBlock, RecommendationSummary } from './ranking/preamble';
 import { proposalCurrentDesign } from '../lib/current-design';
 import { topologyName } from '../../../lib/topology-names';
+import { TradeoffPanel } from './tradeoff/tradeoff-panel';
 
 const downloadLink = 'rounded-md border border-rule px-2.5 py-1 text-sm hover:bg-paper dark:border-night-rule dark:hover:bg-night';
 
 /**
  * The ranked options: cautions and notice, the table (with its downloads), the selected option's detail, the plots.
  * With `detailAfterFirstPaint` (the proposal page) the detail mounts a frame after the table, so the table paints first.
+ * `withTradeoffs` (the proposal page by default): the selected option's trade-off view below its detail (it asks the server for a sweep).
  */
-export function RankingView({ proposal, detailAfterFirstPaint = false }: { proposal: Proposal; detailAfterFirstPaint?: boolean }) {
+export function RankingView({ proposal, detailAfterFirstPaint = false, withTradeoffs = detailAfterFirstPaint }: { proposal: Proposal; detailAfterFirstPaint?: boolean; withTradeoffs?: boolean }) {
   const result = proposal.result;
   const rows = useMemo(() => optionRows(result), [result]);
   const targets = useMemo(() => specTargets(result), [result]);
@@ -91,6 +93,7 @@ export function RankingView({ proposal, detailAfterFirstPaint = false }: { propo
             tolerancePercent={resistors?.tolerancePercent ?? null}
             card={card}
           />
+          {withTradeoffs && <TradeoffPanel proposal={proposal} option={option} />}
         </AfterFirstPaint>
       )}
     </div>

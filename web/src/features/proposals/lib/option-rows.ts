@@ -8,6 +8,7 @@ import type { Check, OptionFacts, TopologyId } from '#shared/engine/types';
 import { formatQuantity } from '#shared/units/format-quantity';
 import { topologyName } from '../../../lib/topology-names';
 import { formatPercent, formatTargetDb } from '#shared/units/figures';
+import { TRADEOFF_FIELDS, tradeoffColumns, type TradeoffField } from './tradeoff-columns';
 
 /**
  * Figures of the table read from the option's facts, each by the fact it shows; a failing check
@@ -22,6 +23,8 @@ const FACT_FIGURES = {
   icmLowMarginV: 'icmLowMarginV',
   icmHighMarginV: 'icmHighMarginV',
   swingMarginV: 'swingMarginV',
+  // the trade-off targets' worst-corner figures (each column shown only when the spec sets its target)
+  ...(Object.fromEntries(TRADEOFF_FIELDS.map((f) => [f, f])) as { [F in TradeoffField]: F }),
 } as const satisfies Record<string, keyof OptionFacts>;
 
 export type RuledFigure = keyof typeof FACT_FIGURES;
@@ -49,6 +52,16 @@ export interface OptionRow {
   icmLowMarginV: number | null;
   icmHighMarginV: number | null;
   swingMarginV: number | null;
+  /** The trade-off targets' worst-corner figures (null when the spec sets no such target, or the ranking predates them). */
+  noiseVPerRtHz: number | null;
+  inputBiasCurrentWorstA: number | null;
+  offsetAtSigmasV: number | null;
+  offsetDriftAtSigmasVPerC: number | null;
+  bandwidthWorstHz: number | null;
+  slewRateWorstVPerS: number | null;
+  psrrPositiveDb: number | null;
+  psrrNegativeDb: number | null;
+  linearInputRangeWorstV: number | null;
   standing: Partial<Record<RuledFigure, FigureStanding>>;
 }
 
@@ -81,7 +94,8 @@ function standingOf(checks: Check[], differentialOutput: boolean): OptionRow['st
 function factFigures(facts: OptionFacts | null): Record<RuledFigure, number | null> {
   const figures = {} as Record<RuledFigure, number | null>;
   for (const [field, fact] of Object.entries(FACT_FIGURES) as [RuledFigure, keyof OptionFacts][]) {
-    figures[field] = facts ? (facts[fact] as number | null) : null;
+    // a ranking made before a fact existed lacks it: missing, not zero
+    figures[field] = facts ? ((facts[fact] as number | null | undefined) ?? null) : null;
   }
   return figures;
 }
@@ -133,6 +147,8 @@ export function specTargets(result: RecommendResult) {
     temperatureMaxC: f.temperatureMaxC,
     /** The rejection for the spec's output and its target (shared/engine/output-rejection). */
     output: { kind: output.kind, requiredDb: output.requiredDb, field: (output.kind === 'differential' ? 'mismatchWorstCaseDb' : 'cmrrAtFrequencyDb') as RejectionField },
+    /** One column per trade-off target the spec sets (lib/tradeoff-columns.ts); empty when it sets none. */
+    tradeoffs: tradeoffColumns(f),
   };
 }
 

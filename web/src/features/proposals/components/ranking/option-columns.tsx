@@ -8,6 +8,7 @@ import { formatQuantity } from '#shared/units/format-quantity';
 import { OptionVerdict } from '../../../../components/ui/verdict';
 import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '#shared/units/figures';
 import { matchesTopologyText, rejectionColumns, type OptionRow, type RuledFigure, type SpecTargets } from '../../lib/option-rows';
+import { formatTradeoff } from '../../lib/tradeoff-columns';
 import { ColumnTitle } from './column-title';
 import { FigureCell } from './figure-cell';
 
@@ -48,9 +49,13 @@ function figureColumn(id: NumericField, format: (v: number) => string, title: st
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 type AnyColumn = ColumnDef<OptionRow, any>;
 
-/** The table's columns for a spec (the mismatch and yield figures only for differential outputs). */
+/**
+ * The table's columns for a spec (the mismatch and yield figures only for differential outputs;
+ * a trade-off column only for each target the spec sets, its worst-corner figure with its unit).
+ */
 export function optionColumns(targets: SpecTargets | null): AnyColumn[] {
   const f = targets ? formatQuantity(targets.frequencyHz, 'Hz') : 'spec f';
+  const tradeoffs = targets?.tradeoffs ?? [];
   const rejection: AnyColumn[] = rejectionColumns(targets).map((c) => figureColumn(c.field, c.unit === '%' ? percentText : dbText, c.title, c.sub, c.forOutput));
   return [
     column.accessor('rank', { header: () => <ColumnTitle title="#" />, meta: { numeric: true }, cell: ({ getValue }) => <span className="tabular-nums">{getValue()}</span> }),
@@ -84,6 +89,15 @@ export function optionColumns(targets: SpecTargets | null): AnyColumn[] {
     }),
     figureColumn('tailCurrentA', quantity('A'), 'Tail current', 'nominal'),
     figureColumn('powerWorstW', quantity('W'), 'Power', targets ? `worst, ≤ ${formatQuantity(targets.powerBudgetW, 'W')}` : 'worst corner'),
+    ...(tradeoffs.length
+      ? [
+          column.group({
+            id: 'tradeoffs',
+            header: () => <ColumnTitle title="Spec targets, worst corner" group />,
+            columns: tradeoffs.map((c) => figureColumn(c.field, (v) => formatTradeoff(v, c.unit), c.title, c.sub)),
+          }),
+        ]
+      : []),
     column.group({
       id: 'headroom',
       header: () => <ColumnTitle title="Headroom margin" group />,

@@ -6,6 +6,7 @@ import { ColumnTitle } from '../ranking/column-title';
 import { FigureCell } from '../ranking/figure-cell';
 import { formatDeviationPercent, formatFixed, formatMargin, formatPercent, formatSignificant } from '#shared/units/figures';
 import { optionRows, outputRejectionNote, rejectionColumns, specTargets } from '../../lib/option-rows';
+import { formatTradeoff } from '../../lib/tradeoff-columns';
 
 function Head({ children, left }: { children: ReactNode; left?: boolean }) {
   return (
@@ -24,14 +25,15 @@ const text = (value: number | null, format: (v: number) => string) => (value ===
 /**
  * Every ranked option in one table, with the page's figures against the page's targets
  * (rejectionColumns and optionVerdictWords are the page's own): rank, name, verdict, the
- * rejection columns (● the one for the spec's output), tail impedance, gain, tail current, power
- * and the smallest headroom margin.
+ * rejection columns (● the one for the spec's output), tail impedance, gain, tail current, power,
+ * the worst-corner figure of each target the spec sets, and the smallest headroom margin.
  */
 export function RankedOptions({ proposal, decided }: { proposal: Proposal; decided: { topology: string; ownValues: boolean } | null }) {
   const result = proposal.result;
   const rows = optionRows(result);
   const targets = specTargets(result);
   const rejections = rejectionColumns(targets);
+  const tradeoffs = targets?.tradeoffs ?? [];
   const f = targets ? formatQuantity(targets.frequencyHz, 'Hz') : 'the spec frequency';
   const note = outputRejectionNote(targets);
   const headroom = (row: (typeof rows)[number]) => {
@@ -52,7 +54,13 @@ export function RankedOptions({ proposal, decided }: { proposal: Proposal; decid
               <th scope="colgroup" colSpan={rejections.length} className="px-1.5 pt-1 text-center font-medium">
                 <span className="block border-b border-rule pb-0.5 dark:border-night-rule">CM rejection, dB</span>
               </th>
-              <td colSpan={5} />
+              <td colSpan={4} />
+              {tradeoffs.length > 0 && (
+                <th scope="colgroup" colSpan={tradeoffs.length} className="px-1.5 pt-1 text-center font-medium">
+                  <span className="block border-b border-rule pb-0.5 dark:border-night-rule">Spec targets, worst corner</span>
+                </th>
+              )}
+              <td />
             </tr>
             <tr className="border-b border-rule dark:border-night-rule">
               <Head left>#</Head>
@@ -75,6 +83,11 @@ export function RankedOptions({ proposal, decided }: { proposal: Proposal; decid
               <Head>
                 <ColumnTitle title="Power" sub={targets ? `worst, ≤ ${formatQuantity(targets.powerBudgetW, 'W')}` : 'worst corner'} />
               </Head>
+              {tradeoffs.map((c) => (
+                <Head key={c.field}>
+                  <ColumnTitle title={c.title} sub={c.sub} />
+                </Head>
+              ))}
               <Head>
                 <ColumnTitle title="Headroom" sub="smallest margin" />
               </Head>
@@ -118,6 +131,11 @@ export function RankedOptions({ proposal, decided }: { proposal: Proposal; decid
                   <Num>
                     <FigureCell text={text(row.powerWorstW, (v) => formatQuantity(v, 'W'))} standing={row.standing.powerWorstW} />
                   </Num>
+                  {tradeoffs.map((c) => (
+                    <Num key={c.field}>
+                      <FigureCell text={text(row[c.field], (v) => formatTradeoff(v, c.unit))} standing={row.standing[c.field]} />
+                    </Num>
+                  ))}
                   <Num>
                     <FigureCell text={text(headroom(row), (v) => formatMargin(v, 'V'))} />
                   </Num>
