@@ -5,7 +5,11 @@
 // 2.1.0: each option's rejectionLimits (what limits the rejection at the spec frequency); the tail
 // impedance at the spec frequency with the tail transistors' own capacitances; the rejection curve
 // to where the gain has fallen 20 dB (at most 1 GHz).
-export const ENGINE_VERSION = '2.1.0';
+// 3.0.0: the trade-off figures (input bias and offset currents, offset and drift, linear range,
+// supply rejection, input resistance, noise, slew rate), the spec's trade-off targets and the
+// tail-current window; the worst corner of every check now searched over the sign-off corners
+// (rails, current gain, resistor tempco) as well as input common mode × temperature: figures changed meaning.
+export const ENGINE_VERSION = '3.0.0';
 
 /** The sentence every output carries: these are estimates. */
 export const ESTIMATE_NOTICE =

@@ -70,8 +70,8 @@ describe('the trade-off target columns', () => {
       expect(noise.textContent!.startsWith('✕')).toBe(failed('input-noise'));
       expect(noise.textContent!.includes('short of its check')).toBe(failed('input-noise'));
       const bias = cellOf(table, option.topology, /^Bias current/);
-      expect(bare(bias.textContent)).toBe(bare(formatQuantity(f.inputBiasCurrentWorstA!, 'A')));
-      expect(failed('input-bias-current')).toBe(false);
+      expect(bare(bias.textContent)).toContain(bare(formatQuantity(f.inputBiasCurrentWorstA!, 'A')));
+      expect(bias.textContent!.startsWith('✕')).toBe(failed('input-bias-current'));
       const slew = cellOf(table, option.topology, /^Slew rate/);
       expect(bare(slew.textContent)).toBe(bare(formatQuantity(f.slewRateWorstVPerS!, 'V/s')));
     }
