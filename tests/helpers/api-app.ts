@@ -44,7 +44,7 @@ export const emailOf = (key: AccountKey) => `${key}@${TEST_DOMAIN}`;
  * optional fields are given, so the server fills the rest with the schema's defaults. 300 Monte
  * Carlo samples (the schema allows ≥ 100) keep one proposal near 50 ms; four of the six
  * options pass and the recommendation is the degenerated mirror. Its sign-off spreads are
- * stated tight (rails ±0.2 %, BF 175–185, 10 ppm/°C resistors, as on a bench supply), so the
+ * stated tight (rails ±0.2 %, 10 ppm/°C resistors, as on a bench supply), so the
  * sign-off corners leave that outcome as the workflow tests expect it.
  */
 export function specPayload(): Record<string, unknown> {
@@ -58,7 +58,6 @@ export function specPayload(): Record<string, unknown> {
     outputSwingVpp: 2.4,
     powerBudgetW: 0.03,
     supplyTolerance: { positivePercent: 0.2, negativePercent: 0.2 },
-    betaRange: { min: 175, max: 185 },
     resistors: { series: 'E96', tolerancePercent: 1, tempcoPpmPerC: 10 },
     monteCarlo: { samples: 300, seed: 17 },
   };
