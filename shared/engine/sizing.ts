@@ -12,6 +12,7 @@ import { solvedSlewRateVPerS } from './slew-rate';
 import { shiftedDesign } from './sign-off-corners';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
+import { BOLTZMANN_J_PER_K, ELEMENTARY_CHARGE_C, NOMINAL_TEMPERATURE_C, ZERO_CELSIUS_K } from './constants';
 import { unhandledTopology, type TailDesign, type TopologyId } from './topologies';
 import type { AnalyzeResult, Design, ResistorSeries, Spec } from './types';
 
@@ -97,6 +98,17 @@ export type SizingStep =
   | { step: 'widlar-reference'; referenceRatio: number; handOhm: number; resistanceOhm: number }
   | { step: 'widlar-emitter'; handOhm: number; resistanceOhm: number; series: ResistorSeries }
   | { step: 'pair-degeneration'; gainDropV: number; neededDropV: number; swingDropFactor: number; resistanceOhm: number; series: ResistorSeries }
+  | {
+      step: 'temperature-degeneration';
+      /** The gain's half-spread over the spec's temperature range with gm alone (re = VT/IC, IC held), per cent. */
+      spreadPercent: number;
+      /** The share of the gain tolerance the sizing lets temperature take, per cent of the target. */
+      allowedPercent: number;
+      temperatureMinC: number;
+      temperatureMaxC: number;
+      resistanceOhm: number;
+      series: ResistorSeries;
+    }
   | { step: 'collector'; formula: 'degenerated' | 'differential' | 'single-ended'; handOhm: number; exactOhm: number; resistanceOhm: number; series: ResistorSeries }
   | {
       step: 'collector-short';
@@ -281,9 +293,36 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
 }
 
 /**
+ * Share of the gain tolerance the temperature's own swing of gm may take before the sizing
+ * degenerates the pair for it (design choice: half; the rest is left for the rails, the current
+ * gain, the resistors' tempco, the input common mode and snapping).
+ */
+export const TEMPERATURE_SHARE_OF_TOLERANCE = 0.5;
+
+/**
+ * Pair emitter degeneration that holds the gain over the spec's temperature range: with the tail
+ * current held, re = VT/IC grows with T, and a resistor-loaded gain RC/(RE + re) moves by a half
+ * spread of (re(Tmax) − re(Tmin)) / (2·(RE + re(T0))) [GM]. RE is the least that keeps it within
+ * TEMPERATURE_SHARE_OF_TOLERANCE of the tolerance; 0 when gm alone already does.
+ */
+function temperatureDegeneration(spec: Spec, collectorA: number): { reOhm: number; spreadPercent: number; allowedPercent: number } {
+  const kelvin = (c: number) => c + ZERO_CELSIUS_K;
+  const re = (c: number) => (BOLTZMANN_J_PER_K * kelvin(c)) / (ELEMENTARY_CHARGE_C * collectorA);
+  const { min, max } = spec.temperatureC;
+  const nominalC = Math.min(Math.max(NOMINAL_TEMPERATURE_C, min), max);
+  const swingOhm = re(max) - re(min);
+  const spreadPercent = (swingOhm / (2 * re(nominalC))) * 100;
+  const allowedPercent = TEMPERATURE_SHARE_OF_TOLERANCE * spec.gain.tolerancePercent;
+  const reOhm = Math.max(swingOhm / (2 * (allowedPercent / 100)) - re(nominalC), 0);
+  return { reOhm, spreadPercent, allowedPercent };
+}
+
+/**
  * The pair's first values: RC from the gain target (|Ad| = gm·RC = IC·RC/VT: the DC drop across
  * RC sets the gain [SS]); when that drop is too small for the collector's upward swing, a larger
- * drop with emitter degeneration RE in each pair emitter, Ad = RC/(RE + 1/gm) [SS].
+ * drop with emitter degeneration RE in each pair emitter, Ad = RC/(RE + 1/gm) [SS]; and when gm
+ * alone would move the gain over the temperature range by more than half its tolerance, at least
+ * the RE that holds it (temperatureDegeneration), RC raised to keep the gain.
  */
 function pairStart(spec: Spec, tailA: number, thermalVoltageV: number, steps: SizingStep[]): Omit<SizedValues, 'tail'> {
   const series = spec.resistors.series;
@@ -291,12 +330,27 @@ function pairStart(spec: Spec, tailA: number, thermalVoltageV: number, steps: Si
   const collectorA = tailA / 2;
   const gainDropV = perCollectorGain * thermalVoltageV;
   const neededDropV = SWING_DROP_FACTOR * swingPeakPerCollectorV(spec);
-  if (gainDropV >= neededDropV) {
-    return { collectorResistanceOhm: gainDropV / collectorA, pairEmitterResistanceOhm: 0 };
+  const temperature = temperatureDegeneration(spec, collectorA);
+  let reOhm = 0;
+  let rcOhm = gainDropV / collectorA;
+  if (gainDropV < neededDropV) {
+    rcOhm = neededDropV / collectorA;
+    reOhm = snapWithin(rcOhm / perCollectorGain - thermalVoltageV / collectorA, series);
+    steps.push({ step: 'pair-degeneration', gainDropV, neededDropV, swingDropFactor: SWING_DROP_FACTOR, resistanceOhm: reOhm, series });
   }
-  const rcOhm = neededDropV / collectorA;
-  const reOhm = snapWithin(rcOhm / perCollectorGain - thermalVoltageV / collectorA, series);
-  steps.push({ step: 'pair-degeneration', gainDropV, neededDropV, swingDropFactor: SWING_DROP_FACTOR, resistanceOhm: reOhm, series });
+  if (temperature.reOhm > reOhm) {
+    reOhm = snapWithin(temperature.reOhm, series);
+    rcOhm = perCollectorGain * (reOhm + thermalVoltageV / collectorA);
+    steps.push({
+      step: 'temperature-degeneration',
+      spreadPercent: temperature.spreadPercent,
+      allowedPercent: temperature.allowedPercent,
+      temperatureMinC: spec.temperatureC.min,
+      temperatureMaxC: spec.temperatureC.max,
+      resistanceOhm: reOhm,
+      series,
+    });
+  }
   return { collectorResistanceOhm: rcOhm, pairEmitterResistanceOhm: reOhm };
 }
 

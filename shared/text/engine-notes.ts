@@ -135,6 +135,8 @@ export function sizingNote(s: SizingStep): string {
       return `RREF for a reference current of ${s.referenceRatio}× the tail current, (V+ − V− − VBE)/Iref${hand(s.handOhm)}, snapped to ${ohms(s.resistanceOhm)}.`;
     case 'widlar-emitter':
       return `RE from Iout·RE = VT·ln(Iref/Iout)${hand(s.handOhm)}, refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+    case 'temperature-degeneration':
+      return `With gm alone the gain would move by ±${s.spreadPercent.toFixed(1)} % from ${signedFigure(s.temperatureMinC, '°C')} to ${signedFigure(s.temperatureMaxC, '°C')} (re = VT/IC grows with T), more than the ±${s.allowedPercent.toFixed(1)} % of the tolerance the sizing lets temperature take: pair emitter degeneration RE ≈ (re(Tmax) − re(Tmin))/(2·${s.allowedPercent.toFixed(1)} %) − re, snapped to ${ohms(s.resistanceOhm)} (${s.series}), so the gain rests on RC/(RE + re).`;
     case 'pair-degeneration':
       return `The gain alone would drop only ${volts(s.gainDropV)} across RC, less than the ${volts(s.neededDropV)} the output swing needs (${s.swingDropFactor}× its peak per collector): pair emitter degeneration RE ≈ RC/|A| − 1/gm, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
     case 'collector':
