@@ -214,6 +214,7 @@ describe('Longtail in the browser: the decision the tail current sets', () => {
     expect(after.value('Noise') / before.value('Noise') / Math.sqrt(1 / ratio)).toBeLessThan(1.08);
     await record(actor, shots, 'what-if-slider');
     await detail(view, 'tradeoff-view-moved');
+    await detail(view.getByRole('figure', { name: 'Noise against tail current' }), 'noise-chart');
 
     // Below the window's floor, the noise misses its limit
     const belowA = floorA * 0.6;
