@@ -12,14 +12,14 @@
  * The steps depend on each other and run in order. Screenshots land in
  * test-results/screenshots/tradeoff/.
  */
-import { join } from 'node:path';
+import { join, relative } from 'node:path';
 import type { Browser, Locator } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { formatQuantity } from '#shared/units/format-quantity';
 import { parseQuantity } from '#shared/units/parse-quantity';
 import { openActor, record, visible, type Actor } from './helpers/actors';
 import { launchBrowser } from './helpers/browser';
-import { screenshotDir } from './helpers/paths';
+import { repoRoot, screenshotDir } from './helpers/paths';
 import { screenshots, type Screenshots } from './helpers/screenshots';
 import { startServer, type RunningServer } from './helpers/server';
 import { signInAs, type DemoRole } from './helpers/sign-in';
@@ -59,7 +59,7 @@ const tradeoffView = (actor: Actor): Locator => actor.page.getByRole('region', {
 async function detail(locator: Locator, step: string): Promise<void> {
   const file = join(screenshotDir, 'tradeoff', `detail-${step}.png`);
   await locator.screenshot({ path: file, animations: 'disabled' });
-  shots.taken.push(file);
+  shots.taken.push(relative(repoRoot, file));
 }
 
 interface WhatIfRow {
@@ -115,13 +115,20 @@ describe('Longtail in the browser: the decision the tail current sets', () => {
     await visible(page.getByRole('heading', { level: 1, name: SPEC_TITLE }));
     await visible(page.getByRole('button', { name: 'Save as new version' }));
 
-    await page.getByRole('textbox', { name: /^Largest noise density/ }).fill('10 nV/√Hz');
-    await page.getByRole('textbox', { name: /^Noise frequency/ }).fill('1 kHz');
-    await page.getByRole('textbox', { name: /^Largest input bias current/ }).fill('3 µA');
-    await page.getByRole('textbox', { name: /^Lowest slew rate/ }).fill('5 V/µs');
-    await page.getByRole('textbox', { name: /^Load capacitance/ }).fill('20 pF');
+    // The new targets in their cards: noise and bias current under Input, slew rate under Speed,
+    // the collectors' load under Source and load
+    const input = await visible(page.getByRole('region', { name: 'Input', exact: true }));
+    await input.getByRole('textbox', { name: /^Largest noise density/ }).fill('10 nV/√Hz');
+    await input.getByRole('textbox', { name: /^Noise frequency/ }).fill('1 kHz');
+    await input.getByRole('textbox', { name: /^Largest input bias current/ }).fill('3 µA');
+    await page.getByRole('region', { name: 'Speed', exact: true }).getByRole('textbox', { name: /^Lowest slew rate/ }).fill('5 V/µs');
+    await page.getByRole('region', { name: 'Source and load', exact: true }).getByRole('textbox', { name: /^Load capacitance/ }).fill('20 pF');
     await page.getByRole('textbox', { name: /^Change note/ }).fill(CHANGE_NOTE);
+    // Each entry shows the SI value it was read as (5 V/µs is 5 MV/s)
+    for (const reading of ['= 10 nV/√Hz', '= 1 kHz', '= 3 µA', '= 5 MV/s', '= 20 pF']) await visible(page.getByText(reading, { exact: true }));
+    expect(await page.getByText(/cannot read/).count()).toBe(0);
     await shots.take(page, 'spec-targets-filled');
+    await detail(input, 'spec-input-card');
     await page.getByRole('button', { name: 'Save as new version' }).click();
     await visible(page.getByText('Saved as version 2.'));
     await record(actor, shots, 'spec-targets-saved');
@@ -165,8 +172,9 @@ describe('Longtail in the browser: the decision the tail current sets', () => {
     expect(match![3]).toMatch(/power budget|bias current/);
     expect(floorA).toBeLessThan(sizedA);
     expect(sizedA).toBeLessThanOrEqual(ceilingA);
-    // The floor is no lower than the pair's own shot noise allows: en² = 8kT·VT/I for the two
-    // transistors at I/2 each (DOMAIN.md, "Noise"), so 10 nV/√Hz needs I ≥ 8kT·VT/(10 nV)²
+    // The floor is no lower than the pair's own collector shot noise allows: 2kT·VT/IC per
+    // transistor referred to its base, both halves added, IC = I/2, so en² = 8kT·VT/I (Gray and
+    // Meyer; docs/device-and-formulas.md) and 10 nV/√Hz needs I ≥ 8kT·VT/(10 nV)²
     const kT = 1.380649e-23 * 300.15;
     const vt = kT / 1.602176634e-19;
     expect(floorA).toBeGreaterThan((8 * kT * vt) / 1e-8 ** 2);
@@ -202,8 +210,9 @@ describe('Longtail in the browser: the decision the tail current sets', () => {
     // Every figure inside the window meets its limit
     for (const row of after.rows) expect(row.verdict, row.title).toBe('Meets');
     // The figures move as the hand formulas say for a stage re-sized at the same gain: slew rate
-    // 2·I/CL while the load capacitance dominates (DOMAIN.md, "Slew rate"); bias current I/(2β);
-    // noise density as 1/√I (every resistor scales as 1/I, every shot noise as √I)
+    // 2·I/CL for the full switch while the load capacitance dominates (Gray and Meyer;
+    // docs/device-and-formulas.md); bias current I/(2β); noise density as 1/√I (every resistor
+    // scales as 1/I, every shot noise as √I)
     const ratio = after.drawsA / before.drawsA;
     expect(after.value('Slew rate') / before.value('Slew rate')).toBeCloseTo(ratio, 1);
     expect(after.value('Slew rate') / ((2 * after.drawsA) / 20e-12)).toBeGreaterThan(0.85);
