@@ -18,3 +18,13 @@ export function decadeTicksHz(minHz: number, maxHz: number): number[] {
   for (let d = Math.ceil(Math.log10(minHz) - 1e-9); d <= Math.floor(Math.log10(maxHz) + 1e-9); d++) ticks.push(Number(`1e${d}`));
   return ticks;
 }
+
+/**
+ * Room an axis needs beside the plot (uPlot's axis `size`, in CSS pixels): the widest tick label
+ * as `measure` gives it, plus the tick and the gap between tick and label, never under `min`.
+ * A fixed size lets a long label ("10 nV/√Hz") run into the axis title.
+ */
+export function axisSizeForLabels(labels: readonly (string | null)[], measure: (text: string) => number, { tick, gap, min }: { tick: number; gap: number; min: number }): number {
+  const widest = labels.reduce((most, label) => (label ? Math.max(most, measure(label)) : most), 0);
+  return Math.max(min, Math.ceil(widest + tick + gap));
+}

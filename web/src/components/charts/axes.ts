@@ -5,7 +5,7 @@
  */
 import type uPlot from 'uplot';
 import { formatQuantity } from '#shared/units/format-quantity';
-import { decadeTicksHz, tickLabels } from '../../lib/plot-axes';
+import { axisSizeForLabels, decadeTicksHz, tickLabels } from '../../lib/plot-axes';
 import type { ChartTheme } from './chart-theme';
 import type { ChartOptions } from './uplot-box';
 
@@ -19,6 +19,26 @@ export function axis(theme: ChartTheme, label: string, values: uPlot.Axis['value
     grid: { stroke: theme.rule, width: 1 },
     ticks: { stroke: theme.rule, width: 1, size: 4 },
     ...extra,
+  };
+}
+
+/** Room kept between an axis's widest tick label and its title, CSS px. */
+const LABEL_CLEARANCE_PX = 6;
+
+/**
+ * An axis `size` as wide as its longest tick label with some room before the axis title, never
+ * under `min` (uPlot measures nothing itself). uPlot asks again while the labels change the layout; after two rounds it keeps the size
+ * it has, so a label list that flips between two widths cannot keep it redrawing.
+ */
+export function sizeToLabels(min: number): uPlot.Axis.Size {
+  return (self, values, axisIdx, cycleNum) => {
+    // after init uPlot holds the font as [font scaled to the device pixels, size, CSS size]
+    const axis = self.axes[axisIdx] as Omit<uPlot.Axis, 'font'> & { font?: string | [string, number, number]; _size?: number };
+    if (cycleNum > 1 && axis._size) return axis._size;
+    if (!values || !axis.font) return min;
+    self.ctx.font = typeof axis.font === 'string' ? axis.font : axis.font[0];
+    const ratio = typeof devicePixelRatio === 'number' && devicePixelRatio > 0 ? devicePixelRatio : 1;
+    return axisSizeForLabels(values, (text) => self.ctx.measureText(text).width / ratio, { tick: axis.ticks?.size ?? 10, gap: (axis.gap ?? 5) + LABEL_CLEARANCE_PX, min });
   };
 }
 

@@ -10,7 +10,7 @@ import type uPlot from 'uplot';
 import { formatQuantity } from '#shared/units/format-quantity';
 import { mixHex } from '../../../../lib/colour-mix';
 import { tickLabels } from '../../../../lib/plot-axes';
-import { axis, NO_ZOOM, valueAt } from '../../../../components/charts/axes';
+import { axis, NO_ZOOM, sizeToLabels, valueAt } from '../../../../components/charts/axes';
 import { horizontalMark, verticalMark, xBand, yBand } from '../../../../components/charts/draw-marks';
 import { UplotBox, useChartTheme, useCursorIndex, type ChartOptions } from '../../../../components/charts/uplot-box';
 import { formatTradeoff } from '../../lib/tradeoff-columns';
@@ -67,7 +67,7 @@ export function TradeoffChartView({
       scales: { x: { time: false, distr: 3, log: 10, range: () => [currentsA[0], currentsA[currentsA.length - 1]] }, y: chart.logY ? { distr: 3, log: 10, range: [low, high] } : { range: [low, high] } },
       axes: [
         axis(theme, 'Tail current (A)', (_u, splits) => tickLabels(splits, (v) => formatQuantity(v, 'A', 2)), { splits: (u) => decadeSplits(u.scales.x.min!, u.scales.x.max!) }),
-        axis(theme, chart.unit === 'dB' ? 'dB' : chart.unit, (_u, splits) => tickLabels(splits, (v) => formatTradeoff(v, chart.unit).replace(/ ?(dB)$/, '')), { size: 64, ...(chart.logY ? { splits: (u: uPlot) => decadeSplits(u.scales.y.min!, u.scales.y.max!) } : {}) }),
+        axis(theme, chart.unit === 'dB' ? 'dB' : chart.unit, (_u, splits) => tickLabels(splits, (v) => formatTradeoff(v, chart.unit).replace(/ ?(dB)$/, '')), { size: sizeToLabels(64), ...(chart.logY ? { splits: (u: uPlot) => decadeSplits(u.scales.y.min!, u.scales.y.max!) } : {}) }),
       ],
       hooks: {
         setCursor: [onCursor],
