@@ -1,8 +1,8 @@
 /**
  * `npm run bench`: speed of the engine beside a real SPICE engine, printed as medians and
  * ratios (not a test: nothing here passes or fails). Targets on the 2-core machine (the issue):
- * recommend ≤ 20 ms per spec, analyze ≤ 50 µs per call, closed-form Monte Carlo ≥ 1,000× the
- * SPICE analyses per second.
+ * recommend ≤ 20 ms per spec (≤ 30 ms with every trade-off target set), analyze ≤ 50 µs per
+ * call, closed-form Monte Carlo ≥ 1,000× the SPICE analyses per second.
  */
 import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
@@ -91,8 +91,29 @@ function slewBatchMs(): number {
 for (let i = 0; i < WARM_UP_BATCHES / 4; i += 1) slewBatchMs();
 const slewMs = median(Array.from({ length: BATCHES }, () => slewBatchMs()));
 
+/**
+ * Each demo spec with every trade-off target set (invented, lenient enough to keep the window
+ * open): noise 10 nV/√Hz at 1 kHz, 5 V/µs into 20 pF, 3 µA bias, offset 5 mV and 20 µV/°C at 3σ,
+ * 100 kHz, 40 dB from each rail, 5 mV of linear range. The issue's target: ≤ 30 ms each.
+ */
+const EVERY_TARGET = {
+  loadCapacitanceF: 20e-12,
+  noise: { maxVPerRtHz: 10e-9, atFrequencyHz: 1000 },
+  slewRateMinVPerS: 5e6,
+  inputBiasCurrentMaxA: 3e-6,
+  offset: { maxV: 5e-3, driftMaxVPerC: 20e-6, sigmas: 3 },
+  bandwidthMinHz: 1e5,
+  psrrMinDb: { positive: 40, negative: 40 },
+  linearInputRangeMinV: 5e-3,
+};
+const everyTargetSpecs: Spec[] = specs.map((spec) => {
+  const checked = validateSpec({ ...spec, ...EVERY_TARGET, title: `${spec.title} (every target)` });
+  if (!checked.ok) throw new Error(`${spec.title} with every target is not a valid spec`);
+  return checked.value;
+});
+
 const recommendMs: Record<string, number> = {};
-for (const spec of specs) {
+for (const spec of [...specs, ...everyTargetSpecs]) {
   for (let i = 0; i < 15; i += 1) await recommend(spec, ruleSet);
   const samples: number[] = [];
   for (let i = 0; i < RECOMMEND_RUNS; i += 1) {
@@ -131,7 +152,10 @@ row('analyze, full model card, five frequencies, per call', `${analyzeFullUs.toF
 row('slew rate transient, per design (both sets in turn)', `${slewMs.toFixed(2)} ms`, 'target: a few ms');
 row('ngspice (eecircuit-engine), per analysis (.op + one .ac)', `${(spiceUs / 1000).toFixed(2)} ms`, '');
 row('  ratio: SPICE analysis / analyze call', `${(spiceUs / analyzeUs).toFixed(0)}×`, '');
-for (const [title, ms] of Object.entries(recommendMs)) row(`recommend: ${title.slice(0, 46)}`, `${ms.toFixed(2)} ms`, 'target ≤ 20 ms');
+for (const [title, ms] of Object.entries(recommendMs)) {
+  const everyTarget = title.endsWith('(every target)');
+  row(`recommend: ${everyTarget ? `${title.slice(0, 30)}…, every target` : title.slice(0, 46)}`, `${ms.toFixed(2)} ms`, everyTarget ? 'target ≤ 30 ms' : 'target ≤ 20 ms');
+}
 row(`closed-form Monte Carlo (${MONTE_CARLO_SAMPLES} samples)`, `${monteCarloMs.toFixed(3)} ms`, '');
 row('  Monte Carlo samples per second', `${Math.round(monteCarloPerS).toLocaleString('en')}`, '');
 row('  SPICE analyses per second', `${spicePerS.toFixed(1)}`, '');
