@@ -82,7 +82,7 @@ function expectWithinIssueTolerance(figure: VerifiedFigure, where: string): void
 describe('verification of every option of the demo proposals', () => {
   let api: TestApi;
   let reviewer: ApiClient;
-  const proposals: { file: string; id: number; optionCount: number }[] = [];
+  const proposals: { file: string; id: number; optionCount: number; options: { topology: string; design: { pairEmitterResistanceOhm?: number } | null; predicted: { collectorCurrentA: number } | null }[] }[] = [];
 
   beforeAll(async () => {
     api = await buildApiApp();
@@ -92,7 +92,7 @@ describe('verification of every option of the demo proposals', () => {
       const payload = demoSpec(file);
       const spec = await api.createSpec(project.id, { payload, title: String(payload.title) });
       const proposal = await api.createProposal(spec.id);
-      proposals.push({ file, id: proposal.id, optionCount: proposal.result.options.length });
+      proposals.push({ file, id: proposal.id, optionCount: proposal.result.options.length, options: proposal.result.options });
     }
   }, 60_000);
   afterAll(() => api.close());
@@ -179,8 +179,9 @@ describe('verification of every option of the demo proposals', () => {
     expect(result.histogram.binEdgesDb).toHaveLength(result.histogram.simulatedCounts.length + 1);
 
     // Each run's offset at nominal against the pair's hand formula on the same draws (Gray, Hurst,
-    // Lewis, Meyer, the emitter-coupled pair's offset: VOS = ΔVBE + VT·ln(RC2/RC1)), BF and VAF
-    // differences left out (with no source resistance they move it by a few per cent of σ at most).
+    // Lewis, Meyer, the emitter-coupled pair's offset: VOS = ΔVBE + (VT + IC·RE)·ln(RC2/RC1), the
+    // load mismatch referred through the degenerated gain RC/(RE + re)), BF and VAF differences
+    // left out (with no source resistance they move it by a few per cent of σ at most).
     const offset = result.offset!;
     expect(offset.failedRuns).toBe(0);
     expect(offset.simulatedV).toHaveLength(40);
@@ -190,10 +191,12 @@ describe('verification of every option of the demo proposals', () => {
     const draws = monteCarloDraws(40, 7);
     const resistorSigma = spec.resistors.tolerancePercent / 100 / 3;
     const vt = (1.380649e-23 * 300.15) / 1.602176634e-19;
+    const wilson = proposals.find((p) => p.file === 'strain-bridge-receiver.json')!.options.find((o) => o.topology === 'wilson')!;
+    const degenerationV = wilson.predicted!.collectorCurrentA * (wilson.design!.pairEmitterResistanceOhm ?? 0);
     const hand = Array.from({ length: 40 }, (_, i) => {
       const load1 = 1 + resistorSigma * draws.normals[3 * i];
       const load2 = 1 + resistorSigma * draws.normals[3 * i + 1];
-      return spec.device.vbeMismatchSigmaV * draws.normals[3 * i + 2] + vt * Math.log(load2 / load1);
+      return spec.device.vbeMismatchSigmaV * draws.normals[3 * i + 2] + (vt + degenerationV) * Math.log(load2 / load1);
     });
     const mean = (v: number[]) => v.reduce((a, b) => a + b, 0) / v.length;
     const deviation = (v: number[]) => Math.sqrt(v.reduce((a, x) => a + (x - mean(v)) ** 2, 0) / (v.length - 1));
