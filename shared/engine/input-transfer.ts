@@ -11,7 +11,7 @@
  */
 import { COLLECTOR_NODES, pairIsMatched } from './circuit';
 import { nodeVoltage } from './node-system';
-import type { OperatingPoint } from './operating-point';
+import { ConvergenceError, type OperatingPoint } from './operating-point';
 import { solveStageOperatingPoint, type SolvedOperatingPoint } from './stage-solve';
 import type { Design } from './types';
 
@@ -118,9 +118,20 @@ const LINEAR_RANGE_MAX_STEPS = 60;
  * the same amplitude and one is searched. From 0.2·VT (inside the 1 % point of any pair) the
  * amplitude doubles, each solve warm-started from the last, until the error passes 1 %, up to
  * twice the rails' span; then false position with bisection safeguards (the Illinois method)
- * narrows the bracket. Null when the transfer stays within 1 % up to that span.
+ * narrows the bracket. Null when the transfer stays within 1 % up to that span, or when an
+ * operating point on the way cannot be solved (ConvergenceError).
  */
 export function linearInputRangeV(symmetric: Design, base: SolvedOperatingPoint, gain: number): number | null {
+  try {
+    return searchLinearRangeV(symmetric, base, gain);
+  } catch (error) {
+    // an operating point at a large input the solver cannot reach leaves the figure unknown, not the analysis failed
+    if (error instanceof ConvergenceError) return null;
+    throw error;
+  }
+}
+
+function searchLinearRangeV(symmetric: Design, base: SolvedOperatingPoint, gain: number): number | null {
   const excess = (at: SolvedOperatingPoint, vid: number) => Math.abs(outputDifferenceV(at.op) - gain * vid) / Math.abs(gain * vid) - LINEAR_RANGE_ERROR;
   const spanV = 2 * (symmetric.supply.positiveV - symmetric.supply.negativeV);
   let low = 0;

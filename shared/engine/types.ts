@@ -94,7 +94,7 @@ export interface AnalyzeResult {
   /**
    * On the design without its mismatches: the largest differential DC amplitude at which
    * v(c1,c2) stays within 1 % of differentialGain × input, V; null when it stays within 1 % up
-   * to twice the rails' span.
+   * to twice the rails' span, or when an operating point on the way cannot be solved.
    */
   linearInputRangeV: number | null;
   /** Supply rejection from each rail at low frequency, dB: |gain| over the gain from the rail to v(c1) (single-ended) or v(c1,c2) (differential); null where that gain is zero. */

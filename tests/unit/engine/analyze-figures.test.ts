@@ -129,3 +129,19 @@ describe('a condition\'s solve', () => {
     expect(condition.psrrDb).toEqual(full.psrrDb);
   });
 });
+
+describe('a linear-range search the solver cannot finish', () => {
+  test('leaves linearInputRangeV null and the rest of the analysis answering (1 GΩ collectors, 1 mΩ pair emitters)', () => {
+    const design: Design = {
+      device: { family: 'npn', beta: 210, earlyVoltageV: 62, saturationCurrentA: 1.4e-14 },
+      supply: { positiveV: 15, negativeV: -15 },
+      collectorResistanceOhm: 1e9,
+      pairEmitterResistanceOhm: 1e-3,
+      tail: { topology: 'resistor', resistanceOhm: 1e9 },
+      inputCommonModeV: 0,
+    };
+    const result = analyze(design);
+    expect(result.linearInputRangeV).toBeNull();
+    expect(result.tailCurrentA).toBeGreaterThan(0);
+  });
+});
