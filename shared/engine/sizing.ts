@@ -326,7 +326,7 @@ function temperatureDegeneration(spec: Spec, collectorA: number): { reOhm: numbe
  * alone would move the gain over the temperature range by more than 80 % of its tolerance, at
  * least the RE that holds it there (temperatureDegeneration), RC raised to keep the gain.
  */
-function pairStart(spec: Spec, tailA: number, thermalVoltageV: number, steps: SizingStep[]): Omit<SizedValues, 'tail'> {
+function pairStart(spec: Spec, tailA: number, thermalVoltageV: number, steps: SizingStep[], forTemperature = true): Omit<SizedValues, 'tail'> {
   const series = spec.resistors.series;
   const perCollectorGain = spec.gain.output === 'differential' ? spec.gain.target : 2 * spec.gain.target;
   const collectorA = tailA / 2;
@@ -340,7 +340,7 @@ function pairStart(spec: Spec, tailA: number, thermalVoltageV: number, steps: Si
     reOhm = snapWithin(rcOhm / perCollectorGain - thermalVoltageV / collectorA, series);
     steps.push({ step: 'pair-degeneration', gainDropV, neededDropV, swingDropFactor: SWING_DROP_FACTOR, resistanceOhm: reOhm, series });
   }
-  if (temperature.reOhm > reOhm) {
+  if (forTemperature && temperature.reOhm > reOhm) {
     reOhm = snapWithin(temperature.reOhm, series);
     rcOhm = perCollectorGain * (reOhm + thermalVoltageV / collectorA);
     steps.push({
@@ -417,10 +417,20 @@ function solvedAtCurrent(spec: Spec, design: Design): SolvedAtCurrent {
   };
 }
 
-/** Sizes the pair and the tail for a tail current (A), the steps so far before the sizing's own. */
+/**
+ * Sizes the pair and the tail for a tail current (A), the steps so far before the sizing's own.
+ * A pair degenerated for temperature whose gain target then lies out of reach (RC at its largest,
+ * or the gain peaking) is sized again without that degeneration: the gain comes first.
+ */
 function sizedAt(spec: Spec, topology: TopologyId, nominal: Condition, tailA: number, steps: SizingStep[]): SizedOption {
+  const first = sizedPairAt(spec, topology, nominal, tailA, [...steps], true);
+  const chosen = first.reached || !first.steps.some((s) => s.step === 'temperature-degeneration') ? first : sizedPairAt(spec, topology, nominal, tailA, [...steps], false);
+  return { design: chosen.design, steps: chosen.steps };
+}
+
+function sizedPairAt(spec: Spec, topology: TopologyId, nominal: Condition, tailA: number, steps: SizingStep[], forTemperature: boolean): SizedOption & { reached: boolean } {
   const model = deviceModel(spec.device, nominal.temperatureC);
-  const pair = pairStart(spec, tailA, model.thermalVoltageV, steps);
+  const pair = pairStart(spec, tailA, model.thermalVoltageV, steps, forTemperature);
   const tail = sizeTail(spec, topology, nominal, tailA, pair, steps);
   const withRc = (rcOhm: number): SizedValues => ({ tail, collectorResistanceOhm: rcOhm, pairEmitterResistanceOhm: pair.pairEmitterResistanceOhm });
   const tuned = tuneResistance((x) => designAt(spec, nominal, withRc(x)), pair.collectorResistanceOhm, (r) => outputGain(spec, r), spec.gain.target, 1);
@@ -430,7 +440,7 @@ function sizedAt(spec: Spec, topology: TopologyId, nominal: Condition, tailA: nu
   if (!tuned.reached) {
     steps.push({ step: 'collector-short', limit: tuned.limit ?? 'gain-peak', targetGain: spec.gain.target, reachedGain: tuned.value, resistanceOhm: tuned.rOhm });
   }
-  return { design: withNoiseFrequency(spec, designAt(spec, nominal, withRc(rc))), steps };
+  return { design: withNoiseFrequency(spec, designAt(spec, nominal, withRc(rc))), steps, reached: tuned.reached };
 }
 
 /**
