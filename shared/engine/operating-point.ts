@@ -19,6 +19,7 @@ import {
   stampConductance,
   stampTransistor,
   type IndexedCircuit,
+  type NodeStamp,
 } from './node-system';
 
 /** Convergence: every node moved less than this between iterations, V (far tighter than SPICE's 1 µV). */
@@ -82,6 +83,37 @@ export function limitJunctionV(newV: number, oldV: number, vtV: number, critical
   return newV;
 }
 
+/** One Newton update: the next node voltages, the largest move, and whether every move is within tolerance. */
+export interface NewtonStep {
+  next: number[];
+  largestMoveV: number;
+  within: boolean;
+}
+
+/**
+ * Solves a stamped linear system for the next iterate from `v`: null when the matrix is singular
+ * or a voltage comes out non-finite; `within` when no node moved more than `absoluteV` plus
+ * `relative` of its new value. Shared by the operating point's and the transient's Newton.
+ */
+export function newtonStep(stamp: NodeStamp, v: readonly number[], absoluteV: number, relative: number): NewtonStep | null {
+  const n = stamp.n;
+  let next: number[];
+  try {
+    next = luSolve(luFactor(stamp.matrix, n, true), stamp.rhs);
+  } catch {
+    return null;
+  }
+  let within = true;
+  let largestMoveV = 0;
+  for (let k = 0; k < n; k += 1) {
+    if (!Number.isFinite(next[k])) return null;
+    const moved = Math.abs(next[k] - v[k]);
+    if (moved > absoluteV + relative * Math.abs(next[k])) within = false;
+    if (moved > largestMoveV) largestMoveV = moved;
+  }
+  return { next, largestMoveV, within };
+}
+
 /**
  * Newton from `start`; `shuntS` is a conductance from every free node to ground (gmin stepping).
  * A junction starts no further forward than the critical voltage, so a far-off guess is limited
@@ -120,21 +152,11 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], sh
       vbcOld[i] = vbcV;
       stampTransistor(stamp, q, (q.model ?? model).evaluate(vbeV, vbcV, q.area), vbeV, vbcV);
     }
-    let next: number[];
-    try {
-      next = luSolve(luFactor(stamp.matrix, n, true), stamp.rhs);
-    } catch {
-      return null;
-    }
-    let converged = !limited;
-    let stepV = 0;
-    for (let k = 0; k < n; k += 1) {
-      if (!Number.isFinite(next[k])) return null;
-      const moved = Math.abs(next[k] - v[k]);
-      if (moved > VOLTAGE_TOLERANCE_V + RELATIVE_TOLERANCE * Math.abs(next[k])) converged = false;
-      if (moved > stepV) stepV = moved;
-    }
-    v = next;
+    const step = newtonStep(stamp, v, VOLTAGE_TOLERANCE_V, RELATIVE_TOLERANCE);
+    if (!step) return null;
+    const converged = !limited && step.within;
+    const stepV = step.largestMoveV;
+    v = step.next;
     if (converged && iter > 1) return { v, iterations: iter };
     // Newton converges quadratically near a solution: the step after δ_i is about C·δ_i², and
     // C ≈ δ_i/δ_{i−1}² from the last two steps, so the next is about δ_i·(δ_i/δ_{i−1})² (J. E.

@@ -26,9 +26,8 @@
  */
 import type { DeviceModel } from './device';
 import { chargeParameters, transistorCapacitances, type ChargeParameters } from './junction-charges';
-import { luFactor, luSolve } from './linear-solve';
 import { createStamp, junctionVoltages, nodeVoltage, stampConductance, stampControlled, stampTransistor, type IndexedCircuit, type NodeRef, type NodeStamp } from './node-system';
-import { ConvergenceError, limitJunctionV } from './operating-point';
+import { ConvergenceError, limitJunctionV, newtonStep } from './operating-point';
 import { transistorCharges } from './stored-charge';
 import type { BjtParameters } from './bjt-parameters';
 
@@ -267,7 +266,6 @@ function newtonAt(
   a0: number,
   historyA: readonly number[],
 ): number[] | null {
-  const n = stamp.n;
   const vbeOld: number[] = [];
   const vbcOld: number[] = [];
   for (const q of ic.transistors) {
@@ -307,22 +305,11 @@ function newtonAt(
       stampCharge(stamp, q.bi, q.ci, a0, held.baseCollectorC, historyA[at + 1], caps.baseCollectorF, vbcV);
       stampCharge(stamp, q.s, q.ci, a0, held.substrateC, historyA[at + 2], caps.collectorSubstrateF, vsubV);
     });
-    let next: number[];
-    try {
-      next = luSolve(luFactor(stamp.matrix, n, true), stamp.rhs);
-    } catch {
-      return null;
-    }
-    let converged = !limited;
-    let stepV = 0;
-    for (let k = 0; k < n; k += 1) {
-      if (!Number.isFinite(next[k])) return null;
-      const moved = Math.abs(next[k] - v[k]);
-      if (moved > NEWTON_TOLERANCE_V + NEWTON_RELATIVE_TOLERANCE * Math.abs(next[k])) converged = false;
-      if (moved > stepV) stepV = moved;
-    }
-    v = next;
-    if (converged) return v;
+    const step = newtonStep(stamp, v, NEWTON_TOLERANCE_V, NEWTON_RELATIVE_TOLERANCE);
+    if (!step) return null;
+    const stepV = step.largestMoveV;
+    v = step.next;
+    if (!limited && step.within) return v;
     // Quadratic convergence: the next step would be about stepV·(stepV/lastStepV)², as in the
     // operating point's Newton (operating-point.ts); when that is under the tolerance the
     // confirming iteration is saved
