@@ -94,6 +94,12 @@ const SEARCHED_TRADEOFFS: readonly (readonly [SearchedTradeoff, keyof ReturnType
   ['slewRateVPerS', 'slewRate', false, 0],
 ];
 
+/** A base corner's trade-off figures without the slew rate (left undefined: computed on demand by its search). */
+function withoutSlew(entry: TradeoffAtCondition): ConditionEntry {
+  const { slewRateVPerS: _slew, ...rest } = entry;
+  return rest;
+}
+
 /** The facts whose value is a sentence: written at the edge from the figures beside them. */
 export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote' | 'cmrrDifferentialLimitNote' | 'outputCmrrBasis' | 'tailCurrentWindowNote';
 
@@ -272,7 +278,8 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     direction: (c: CornerRecord) => number = read,
   ): CornerRecord {
     const worse = (a: number, b: number) => (higherIsWorse ? b > a : b < a);
-    const base = candidates.reduce((a, b) => (worse(read(a), read(b)) ? b : a));
+    // the base corner where the figure is worst (by its direction's proxy where the figure is dear to compute)
+    const base = candidates.reduce((a, b) => (worse(direction(a), direction(b)) ? b : a));
     const dimensions = activeDimensions(spec, base.condition.temperatureC);
     if (dimensions.length === 0) return base;
     const signs: Record<string, -1 | 0 | 1> = { ...NO_SHIFT };
@@ -305,10 +312,11 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const targets = tradeoffTargets(spec);
   const anyTarget = Object.values(targets).some(Boolean);
   const shared = draws ?? (anyTarget || differentialOutput ? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed) : null);
-  const tradeoffs: TradeoffAtCondition[] = anyTarget ? baseCorners.map((c) => tradeoffAtCondition(spec, c.figures.label, c.solution, c.screening, sigmas)) : [];
+  // the slew rate (a transient) only where its search needs it: not at every base corner
+  const tradeoffs: ConditionEntry[] = anyTarget ? baseCorners.map((c) => withoutSlew(tradeoffAtCondition(spec, c.figures.label, c.solution, c.screening, sigmas, undefined, 'slewRateVPerS'))) : [];
   const searched: ConditionEntry[] = [];
   if (anyTarget) {
-    const tradeoffCache = new Map<CornerRecord, Partial<TradeoffAtCondition>>();
+    const tradeoffCache = new Map<CornerRecord, ConditionEntry>();
     baseCorners.forEach((c, i) => tradeoffCache.set(c, tradeoffs[i]));
     const figureAt = (key: SearchedTradeoff, record: CornerRecord): number => {
       let entry = tradeoffCache.get(record);

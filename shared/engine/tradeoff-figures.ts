@@ -106,9 +106,10 @@ export function tradeoffAtCondition(
   screening: ScreeningStages | null,
   sigmas: MismatchSigmas,
   only?: keyof Omit<TradeoffAtCondition, 'label'>,
+  except?: keyof Omit<TradeoffAtCondition, 'label'>,
 ): TradeoffAtCondition {
   const targets = tradeoffTargets(spec);
-  const want = (key: keyof Omit<TradeoffAtCondition, 'label'>) => only === undefined || only === key;
+  const want = (key: keyof Omit<TradeoffAtCondition, 'label'>) => (only === undefined || only === key) && key !== except;
   const differential = spec.gain.output === 'differential';
   const temperatureC = solution.design.temperatureC ?? 27;
   const psrrSet = (targets.psrrPositive && want('psrrPositiveDb')) || (targets.psrrNegative && want('psrrNegativeDb'));
