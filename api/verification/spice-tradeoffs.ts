@@ -11,6 +11,7 @@
 import { COLLECTOR_NODES, INPUT_NODES, RAIL_NODES, pairIsMatched } from '#shared/engine/circuit';
 import { INPUT_SOURCES, spiceNetlist, type NetlistCardSettings, type NetlistOptions } from '#shared/engine/netlist';
 import type { Design } from '#shared/engine/types';
+import { withoutMismatch } from '#shared/engine/input-transfer';
 import {
   LOW_FREQUENCY_HZ,
   PLOT_NAMES,
@@ -154,11 +155,6 @@ export async function spiceOffsetDriftVPerC(run: SpiceRunner, design: Design, ca
   return (above - below) / 2;
 }
 
-/** The design with its pair mismatches set to zero (the contract's linear-range circuit). */
-export function unmismatchedDesign(design: Design): Design {
-  return { ...design, collectorMismatch: 0, pairSaturationCurrentMismatch: 0, pairBetaMismatch: 0, pairEarlyVoltageMismatch: 0 };
-}
-
 /** Thrown when the stage stays within 1 % of its gain line to ±20 V of differential input: no linear range to read. */
 export class StaysLinearError extends Error {}
 
@@ -173,7 +169,7 @@ export const LINEAR_RANGE_ERROR = 0.01;
  * hundred times finer between the two points around it is interpolated.
  */
 export async function spiceLinearInputRangeV(run: SpiceRunner, design: Design, card: NetlistCardSettings = {}): Promise<number> {
-  const symmetric = unmismatchedDesign(design);
+  const symmetric = withoutMismatch(design);
   const ac = await spiceAc(run, symmetric, { analysis: 'ac-differential', ...singleFrequencySweep(LOW_FREQUENCY_HZ), ...card });
   const gain = ac.nodeVoltages.c1[0].re - ac.nodeVoltages.c2[0].re;
   const excess = (sweep: SpiceSweep): number[] =>
