@@ -20,6 +20,7 @@ import { TypeormSessionStore } from './auth/session-store';
 import { acquireEnginePool, type EnginePoolLease } from './engine/engine-pool';
 import { errorHandler } from './error-handler';
 import { AppError } from './errors';
+import { activityRoutes } from './routes/activity.routes';
 import { adminRoutes } from './routes/admin.routes';
 import { authRoutes } from './routes/auth.routes';
 import { batchRoutes } from './routes/batch.routes';
@@ -32,6 +33,7 @@ import { VerificationQueue } from './verification/verification-queue';
 import { SpiceEngine, type SpiceEngineOptions } from './verification/spice-engine';
 import { specsRoutes } from './routes/specs.routes';
 import { usersRoutes } from './routes/users.routes';
+import { waitingRoutes } from './routes/waiting.routes';
 
 /** Largest JSON body accepted (a spec or a design is a few kB). */
 export const BODY_LIMIT = '256kb';
@@ -144,6 +146,8 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.use('/api/projects', projectsRoutes(deps.dataSource));
   app.use('/api/projects/:projectId/devices', devicesRoutes(deps.dataSource));
   app.use('/api/projects', batchRoutes(deps.dataSource));
+  app.use('/api/projects', activityRoutes(deps.dataSource));
+  app.use('/api/waiting', waitingRoutes(deps.dataSource));
   app.use('/api/specs', specsRoutes(deps.dataSource, deps.ruleSet, deps.proposalsPerMinute));
   const verification =
     deps.verification ??

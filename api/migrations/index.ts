@@ -13,6 +13,7 @@ import { DesignBinding1764800500000 } from './1764800500000-design-binding';
 import { SpecLifecycle1764800600000 } from './1764800600000-spec-lifecycle';
 import { DistinctRankings1764900000000 } from './1764900000000-distinct-rankings';
 import { CheckMetadata1764900100000 } from './1764900100000-check-metadata';
+import { WaitingAndActivityIndexes1796000000000 } from './1796000000000-waiting-and-activity-indexes';
 
 export const MIGRATIONS = [
   InitialSchema1764612000000,
@@ -29,4 +30,5 @@ export const MIGRATIONS = [
   SpecLifecycle1764800600000,
   DistinctRankings1764900000000,
   CheckMetadata1764900100000,
+  WaitingAndActivityIndexes1796000000000,
 ];

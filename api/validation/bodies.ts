@@ -12,6 +12,8 @@ import { PROPOSAL_STATES } from '#shared/workflow/proposal-states';
 import { TOPOLOGIES } from '#shared/engine/types';
 import { DESIGN_SCHEMA } from '#shared/validate';
 import { MONTE_CARLO_RUNS } from '#shared/verification/types';
+import { WAITING_KINDS } from '#shared/workflow/waiting';
+import { ACTIVITY_KINDS } from '#shared/workflow/activity';
 import { MIN_PASSWORD_LENGTH } from '../auth/password';
 import { PLAIN_EMAIL_PATTERN, PLAIN_LINES_PATTERN, PLAIN_NAME_PATTERN } from '#shared/text/plain-text';
 import type { DeviceListQuery, RecordedDeviceQuery } from '#shared/api/devices';
@@ -25,6 +27,8 @@ import type { TradeoffInput } from '#shared/api/engine';
 import { TRADEOFF_SWEEP_MAX_POINTS } from '#shared/engine/tradeoff-sweep';
 import type { LoginInput, NewUser, PasswordChangeInput, PasswordResetInput, PreferencesInput, UserChanges } from '#shared/api/users';
 import type { MonteCarloInput } from '#shared/api/verification';
+import type { WaitingQuery } from '#shared/api/waiting';
+import type { ActivityFilter, ActivityQuery } from '#shared/api/activity';
 import { wire, type Defaulted } from './wire-schema';
 
 const email = { type: 'string', minLength: 3, maxLength: 254, pattern: PLAIN_EMAIL_PATTERN } as const;
@@ -99,6 +103,18 @@ export const PROPOSAL_LIST_QUERY = wire<Defaulted<ProposalListQuery, keyof PageQ
   { status: { enum: [...PROPOSAL_STATES] }, ...PAGE_FIELDS, cursor: { type: 'string', maxLength: 48, pattern: '^\\d{4}-\\d{2}-\\d{2}T\\d{2}:\\d{2}:\\d{2}\\.\\d{3}Z~[1-9]\\d{0,14}$' } },
   [],
 );
+
+/** GET /api/waiting: one kind of what waits for the signed-in person, paged like every list (oldest first). */
+export const WAITING_QUERY = wire<Defaulted<WaitingQuery, keyof PageQuery>>()({ kind: { enum: [...WAITING_KINDS] }, ...PAGE_FIELDS }, ['kind']);
+
+/** A project's activity: `actor` keeps one person's events, `kind` one kind of event (shared/workflow/activity.ts). */
+const ACTIVITY_FILTER_FIELDS = { actor: { type: 'integer', minimum: 1, maximum: 2147483647 }, kind: { enum: [...ACTIVITY_KINDS] } } as const;
+
+/** GET /api/projects/:id/activity: paged like every list, newest first. */
+export const ACTIVITY_QUERY = wire<Defaulted<ActivityQuery, keyof PageQuery>>()({ ...ACTIVITY_FILTER_FIELDS, ...PAGE_FIELDS }, []);
+
+/** GET /api/projects/:id/activity.csv: the same filters, every event. */
+export const ACTIVITY_CSV_QUERY = wire<ActivityFilter>()({ ...ACTIVITY_FILTER_FIELDS }, []);
 
 /** GET /api/proposals/:id/measurements: paged like the proposal list. */
 export const MEASUREMENT_LIST_QUERY = wire<Partial<MeasurementListQuery>>()({ ...PAGE_FIELDS }, []);
