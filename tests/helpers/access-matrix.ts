@@ -210,6 +210,14 @@ export const MATRIX: Row[] = [
   { route: 'POST /api/projects/:id/specs', url: '/api/projects/{otherProject}/specs', rule: 'specs:write', body: newSpec, expected: [401, 403, 404, 403, 403] },
   { route: 'GET /api/projects/:id/proposals', url: '/api/projects/{project}/proposals', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/projects/:id/proposals', url: '/api/projects/{otherProject}/proposals', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/projects/:id/activity', url: '/api/projects/{project}/activity', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:id/activity', url: '/api/projects/{otherProject}/activity', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/projects/:id/activity.csv', url: '/api/projects/{project}/activity.csv', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/projects/:id/activity.csv', url: '/api/projects/{otherProject}/activity.csv', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+
+  // What waits for the signed-in person, across their own projects (nothing of anyone else's).
+  { route: 'GET /api/waiting/counts', url: '/api/waiting/counts', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/waiting', url: '/api/waiting?kind=decide', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/projects/:projectId/devices', url: '/api/projects/{project}/devices', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/projects/:projectId/devices', url: '/api/projects/{otherProject}/devices', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
   { route: 'POST /api/projects/:projectId/devices', url: '/api/projects/{project}/devices', rule: 'devices:write', file: DEVICE_FILE, arrange: removeMatrixDevice, expected: [401, 403, 201, 201, 403] },

@@ -15,6 +15,8 @@ import fc from 'fast-check';
 import type request from 'supertest';
 import { DESIGN_SCHEMA, SPEC_SCHEMA } from '#shared/validate';
 import {
+  ACTIVITY_CSV_QUERY,
+  ACTIVITY_QUERY,
   DECISION_BODY,
   DIFF_QUERY,
   EVALUATION_BODY,
@@ -34,6 +36,7 @@ import {
   DEVICE_LIST_QUERY,
   DEVICE_RECORDED_QUERY,
   REVIEW_BODY,
+  WAITING_QUERY,
   WITHDRAWAL_BODY,
   USER_CHANGES_BODY,
 } from '../../api/validation/bodies';
@@ -73,6 +76,9 @@ const BODIES: Record<string, fc.Arbitrary<unknown>> = {
 /** Query arbitraries by route; values go out as text, as a browser sends them. */
 const QUERIES: Record<string, fc.Arbitrary<unknown>> = {
   'GET /api/projects/:id/proposals': arbitraryFromSchema(PROPOSAL_LIST_QUERY),
+  'GET /api/projects/:id/activity': arbitraryFromSchema(ACTIVITY_QUERY),
+  'GET /api/projects/:id/activity.csv': arbitraryFromSchema(ACTIVITY_CSV_QUERY),
+  'GET /api/waiting': arbitraryFromSchema(WAITING_QUERY),
   'GET /api/proposals/:proposalId/measurements': arbitraryFromSchema(MEASUREMENT_LIST_QUERY),
   'GET /api/projects/:projectId/devices': arbitraryFromSchema(DEVICE_LIST_QUERY),
   'GET /api/projects/:projectId/devices/recorded': arbitraryFromSchema(DEVICE_RECORDED_QUERY),
