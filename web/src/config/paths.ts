@@ -3,7 +3,11 @@ export const paths = {
   signIn: { path: '/sign-in', href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in') },
   /** The home page: your projects (the app's first page after signing in). */
   home: { path: '/', href: () => '/' },
+  /** The home page's list of what waits for you (the navigation's count links here). */
+  waiting: { href: () => '/#waiting' },
   project: { path: '/projects/:projectId', href: (projectId: number) => `/projects/${projectId}` },
+  /** A project's activity; `query` is the filter and page (`?person=7&kind=decisions&page=2`). */
+  activity: { path: '/projects/:projectId/activity', href: (projectId: number, query = '') => `/projects/${projectId}/activity${query}` },
   newSpec: { path: '/projects/:projectId/specs/new', href: (projectId: number) => `/projects/${projectId}/specs/new` },
   specImport: { path: '/projects/:projectId/specs/import', href: (projectId: number) => `/projects/${projectId}/specs/import` },
   spec: { path: '/specs/:specId', href: (specId: number) => `/specs/${specId}` },
@@ -41,6 +45,14 @@ export const api = {
   members: (projectId: number) => `/api/projects/${projectId}/members`,
   member: (projectId: number, userId: number) => `/api/projects/${projectId}/members/${userId}`,
   projectSpecs: (projectId: number) => `/api/projects/${projectId}/specs`,
+  /** GET (`?actor=&kind=&page=&pageSize=`): a page of the project's activity, newest first. */
+  projectActivity: (projectId: number, query: string) => `/api/projects/${projectId}/activity${query}`,
+  /** The project's activity as CSV (`?actor=&kind=`: the same filters, every event). */
+  projectActivityCsv: (projectId: number, query: string) => `/api/projects/${projectId}/activity.csv${query}`,
+  /** How many of each kind of work wait for the signed-in person, across their projects. */
+  waitingCounts: '/api/waiting/counts',
+  /** GET (`?kind=&page=&pageSize=`): one kind of what waits for the signed-in person, oldest first. */
+  waiting: (query: string) => `/api/waiting${query}`,
   projectProposals: (projectId: number, query: string) => `/api/projects/${projectId}/proposals${query}`,
   /** POST multipart (field `file`): many specs from one CSV or JSON file; `dryRun` reports without saving. */
   specImport: (projectId: number, dryRun: boolean) => `/api/projects/${projectId}/specs/import${dryRun ? '?dryRun=true' : ''}`,

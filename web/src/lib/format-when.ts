@@ -18,3 +18,21 @@ export function formatWhen(iso: string, nowMs: number = Date.now()): string {
   }
   return 'just now';
 }
+
+/** How long something has waited, in one rounded unit: "under a minute", "12 min", "5 h", "3 days", "2 weeks", "4 months". */
+const AGE_UNITS: [limitMs: number, sizeMs: number, one: string, many: string][] = [
+  [60 * 60_000, 60_000, 'min', 'min'],
+  [48 * 3_600_000, 3_600_000, 'h', 'h'],
+  [14 * 86_400_000, 86_400_000, 'day', 'days'],
+  [9 * WEEK_MS, WEEK_MS, 'week', 'weeks'],
+  [Infinity, 30 * 86_400_000, 'month', 'months'],
+];
+
+export function formatAge(iso: string, nowMs: number = Date.now()): string {
+  const ageMs = nowMs - Date.parse(iso);
+  if (Number.isNaN(ageMs)) return '—';
+  if (ageMs < 60_000) return 'under a minute';
+  const [, sizeMs, one, many] = AGE_UNITS.find(([limitMs]) => ageMs < limitMs)!;
+  const n = Math.floor(ageMs / sizeMs);
+  return `${n} ${n === 1 ? one : many}`;
+}

@@ -1,10 +1,12 @@
 /**
  * The query keys of the resources other parts of the app nest their own keys under or refresh:
- * projects, specs and proposals. A key's prefix is what invalidation matches, so a proposal's
+ * projects, specs, proposals, and what waits for the signed-in person (which every workflow write
+ * refreshes). A key's prefix is what invalidation matches, so a proposal's
  * measurements and report live under the proposal's key and a project's device library under the
  * project's. Each feature's own keys stay with its queries.
  */
 import type { ProposalState } from '#shared/workflow/proposal-states';
+import type { WaitingKind } from '#shared/workflow/waiting';
 
 export const projectKeys = {
   all: ['projects'] as const,
@@ -29,4 +31,11 @@ export const proposalKeys = {
   detail: (id: number) => ['proposals', 'detail', id] as const,
   audit: (id: number) => ['proposals', 'detail', id, 'audit'] as const,
   people: (projectId: number) => ['proposals', 'people', projectId] as const,
+};
+
+/** What waits for the signed-in person: the navigation's counts and the home page's lists; every workflow write invalidates `all`. */
+export const waitingKeys = {
+  all: ['waiting'] as const,
+  counts: () => ['waiting', 'counts'] as const,
+  list: (kind: WaitingKind, page: number) => ['waiting', 'list', kind, page] as const,
 };

@@ -9,9 +9,19 @@ import { projectListQuery } from '../features/projects/api/project-queries';
 import { NewProjectForm } from '../features/projects/components/new-project-form';
 import { heldRoles, heldRoleTitles, mayAs, projectRoleOf, ROLE_TITLES } from '#shared/workflow/roles';
 import { roleHint } from '../features/projects/utils/role-hint';
+import { waitingListQuery } from '../features/waiting/api/waiting-queries';
+import { WaitingList } from '../features/waiting/components/waiting-list';
+import { mayWait, waitingCountsQuery } from '../lib/waiting-queries';
+
+/** What waits for the person, then their projects. The waiting lists are asked for beside the projects; a failure there shows in its own panel, never as the page's error. */
+async function prefetchWaiting(queryClient: QueryClient) {
+  const counts = await queryClient.fetchQuery(waitingCountsQuery()).catch(() => null);
+  await Promise.all((counts?.kinds ?? []).filter((kind) => counts!.counts[kind] > 0).map((kind) => queryClient.prefetchQuery(waitingListQuery(kind, 1))));
+}
 
 export const loader = (queryClient: QueryClient) => async () => {
-  await queryClient.ensureQueryData(projectListQuery());
+  const user = await queryClient.ensureQueryData(meQuery());
+  await Promise.all([queryClient.ensureQueryData(projectListQuery()), mayWait(user) ? prefetchWaiting(queryClient) : null]);
   return null;
 };
 
@@ -24,6 +34,7 @@ export function Component() {
       <PageHeader title="Projects" eyebrow={heldRoleTitles(user).join(' · ') || 'Member'}>
         {roleHint(heldRoles(user)) || 'An administrator adds you to a project with your role in it; it then appears here.'}
       </PageHeader>
+      {mayWait(user) && <WaitingList />}
       <section aria-labelledby="projects-heading">
         <h2 id="projects-heading" className="mb-3 text-sm font-medium tracking-wide text-ink-soft uppercase dark:text-night-ink-soft">
           Your projects

@@ -12,7 +12,7 @@ import { ProjectPageHeader, SpecWritersOnly } from '../features/specs/components
 import { specBody } from '../features/specs/lib/spec-body';
 import { exampleFromSchema } from '../features/specs/lib/spec-example';
 import type { SchemaNode } from '../features/specs/lib/schema-nodes';
-import { projectKeys, specKeys } from '../lib/query-keys';
+import { projectKeys, specKeys, waitingKeys } from '../lib/query-keys';
 
 export const loader =
   (queryClient: QueryClient) =>
@@ -35,7 +35,7 @@ export function Component() {
   const onSave = async (draft: SpecDraft) => {
     const spec = await createSpec(projectId, specBody(draft));
     queryClient.setQueryData(specKeys.detail(spec.id), spec);
-    await queryClient.invalidateQueries({ queryKey: projectKeys.specs(projectId) });
+    await Promise.all([queryClient.invalidateQueries({ queryKey: projectKeys.specs(projectId) }), queryClient.invalidateQueries({ queryKey: waitingKeys.all })]);
     navigate(paths.spec.href(spec.id), { state: { savedVersion: spec.latestVersion } });
   };
 

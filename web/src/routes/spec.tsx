@@ -13,7 +13,7 @@ import { RankButton } from '../features/specs/components/rank-button';
 import { SpecForm, type SpecDraft } from '../features/specs/components/spec-form';
 import { When } from '../features/specs/components/when';
 import { specBody } from '../features/specs/lib/spec-body';
-import { projectKeys, specKeys } from '../lib/query-keys';
+import { projectKeys, specKeys, waitingKeys } from '../lib/query-keys';
 
 export const loader =
   (queryClient: QueryClient) =>
@@ -47,7 +47,11 @@ export function Component() {
   const onSave = async (draft: SpecDraft) => {
     const saved = await saveSpecVersion(specId, { ...specBody(draft), ...(changeNote.trim() ? { note: changeNote.trim() } : {}) });
     queryClient.setQueryData(specKeys.detail(specId), saved);
-    await Promise.all([queryClient.invalidateQueries({ queryKey: specKeys.detail(specId) }), queryClient.invalidateQueries({ queryKey: projectKeys.specs(spec.projectId) })]);
+    await Promise.all([
+      queryClient.invalidateQueries({ queryKey: specKeys.detail(specId) }),
+      queryClient.invalidateQueries({ queryKey: projectKeys.specs(spec.projectId) }),
+      queryClient.invalidateQueries({ queryKey: waitingKeys.all }),
+    ]);
     setSavedVersion(saved.latestVersion);
     setUnchanged(saved.unchanged === true);
     if (!saved.unchanged) setChangeNote('');

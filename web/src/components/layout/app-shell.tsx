@@ -1,11 +1,13 @@
-import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
+import { useQuery, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { NavLink, Outlet, useNavigate } from 'react-router-dom';
+import { Link, NavLink, Outlet, useNavigate } from 'react-router-dom';
+import type { WaitingCounts } from '#shared/api/waiting';
 import { heldRoleTitles, mayAs } from '#shared/workflow/roles';
 import { paths } from '../../config/paths';
 import { meQuery, signOut } from '../../lib/auth-queries';
 import { cn } from '../../lib/cn';
 import { applyTheme, storedTheme, type ThemeChoice } from '../../lib/theme';
+import { mayWait, waitingCountsQuery, waitingSentence, waitingTotal } from '../../lib/waiting-queries';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   cn('rounded-md px-3 py-1.5 text-sm', isActive ? 'bg-fern-soft text-fern dark:bg-night dark:text-fern-bright' : 'text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink');
@@ -13,12 +15,32 @@ const navClass = ({ isActive }: { isActive: boolean }) =>
 const NEXT_THEME: Record<ThemeChoice, ThemeChoice> = { system: 'light', light: 'dark', dark: 'system' };
 const THEME_WORDS: Record<ThemeChoice, string> = { system: 'system', light: 'light', dark: 'dark' };
 
+/** The count of what waits for the person, linking to the home page's list (its words in the link's name). */
+function WaitingLink({ counts }: { counts: WaitingCounts }) {
+  const total = waitingTotal(counts);
+  return (
+    <Link to={paths.waiting.href()} className={cn(navClass({ isActive: false }), 'inline-flex items-center gap-1.5')} aria-label={`Waiting for you: ${waitingSentence(counts)}`} title={waitingSentence(counts)}>
+      Waiting
+      <span
+        data-waiting-count={total}
+        className={cn(
+          'min-w-5 rounded-sm px-1 text-center text-xs font-medium tabular-nums',
+          total > 0 ? 'bg-fern text-sheet dark:bg-fern-bright dark:text-night' : 'border border-rule text-ink-soft dark:border-night-rule dark:text-night-ink-soft',
+        )}
+      >
+        {total}
+      </span>
+    </Link>
+  );
+}
+
 /** The signed-in frame: wordmark, navigation the role may use, theme, the user and sign-out. */
 export function AppShell() {
   const { data: user } = useSuspenseQuery(meQuery());
   const queryClient = useQueryClient();
   const navigate = useNavigate();
   const [theme, setTheme] = useState<ThemeChoice>(storedTheme);
+  const waiting = useQuery({ ...waitingCountsQuery(), enabled: mayWait(user) });
   if (!user) return null;
   const onSignOut = async () => {
     await signOut().catch(() => undefined);
@@ -45,6 +67,7 @@ export function AppShell() {
             <NavLink to={paths.home.href()} end className={navClass}>
               Projects
             </NavLink>
+            {mayWait(user) && waiting.data && waiting.data.kinds.length > 0 && <WaitingLink counts={waiting.data} />}
             {mayAs(user, null, 'users:manage') && (
               <NavLink to={paths.people.href()} className={navClass}>
                 People

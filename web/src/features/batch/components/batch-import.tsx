@@ -16,7 +16,7 @@ import { DenseTable, Td, Th } from '../../../components/ui/dense-table';
 import { importSpecs, rankImportedSpec, type ImportReport } from '../api/batch-api';
 import { rankInTurn, type RankItem, type RankOutcome, type RankProgress } from '../lib/rank-in-turn';
 import { ImportReportTable } from './import-report-table';
-import { projectKeys, specKeys } from '../../../lib/query-keys';
+import { projectKeys, specKeys, waitingKeys } from '../../../lib/query-keys';
 
 const MAX_FILE_BYTES = 1024 * 1024;
 
@@ -57,7 +57,7 @@ export function BatchImport({ projectId, canRank }: { projectId: number; canRank
   const save = useMutation({
     mutationFn: (chosen: File) => importSpecs(projectId, chosen, false),
     onSuccess: async () => {
-      await Promise.all([queryClient.invalidateQueries({ queryKey: projectKeys.specs(projectId) }), queryClient.invalidateQueries({ queryKey: specKeys.all })]);
+      await Promise.all([queryClient.invalidateQueries({ queryKey: projectKeys.specs(projectId) }), queryClient.invalidateQueries({ queryKey: specKeys.all }), queryClient.invalidateQueries({ queryKey: waitingKeys.all })]);
     },
   });
 
@@ -225,7 +225,7 @@ function RankBatch({ projectId, report, canRank, alreadyImported = false }: { pr
       const kept = (before ?? []).filter((o) => !results.some((r) => r.item.specId === o.item.specId));
       return [...kept, ...results];
     });
-    await queryClient.invalidateQueries({ queryKey: projectKeys.detail(projectId) });
+    await Promise.all([queryClient.invalidateQueries({ queryKey: projectKeys.detail(projectId) }), queryClient.invalidateQueries({ queryKey: waitingKeys.all })]);
   };
 
   if (!canRank) {

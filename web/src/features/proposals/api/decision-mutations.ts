@@ -1,8 +1,8 @@
 /**
  * The workflow's writes (decide, review, withdraw), the what-if analysis behind the override editor and the
  * full check of own values. Decide and review answer with the whole proposal: it goes into the
- * cache, then every proposal query is invalidated and awaited so the page shows the new state
- * before the mutation settles. The full check records nothing, so it touches no cache.
+ * cache, then every proposal query and what waits for the person (the navigation's count) are
+ * invalidated and awaited so the page shows the new state before the mutation settles. The full check records nothing, so it touches no cache.
  */
 import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Design } from '#shared/engine/types';
@@ -10,7 +10,7 @@ import { api } from '../../../config/paths';
 import { apiClient } from '../../../lib/api';
 import type { AnalyzeResponse } from '#shared/api/engine';
 import type { DecisionInput, OptionEvaluation, Proposal, ReviewInput } from '#shared/api/proposals';
-import { proposalKeys } from '../../../lib/query-keys';
+import { proposalKeys, waitingKeys } from '../../../lib/query-keys';
 
 /** What-if keys hold the design itself (as JSON), so a changed value is a new query and a stale answer is never shown for it. */
 export const whatIfKeys = {
@@ -46,12 +46,12 @@ export function withdrawProposal(proposalId: number, reason: string): Promise<Pr
   return apiClient.post<Proposal>(api.withdrawal(proposalId), { reason });
 }
 
-/** Puts the server's answer in the cache, then refreshes every proposal query (the audit trail included). */
+/** Puts the server's answer in the cache, then refreshes every proposal query (the audit trail included) and what waits for the person (the navigation's count). */
 function useSettleProposal(proposalId: number) {
   const queryClient = useQueryClient();
   return async (proposal: Proposal) => {
     queryClient.setQueryData(proposalKeys.detail(proposalId), proposal);
-    await queryClient.invalidateQueries({ queryKey: proposalKeys.all });
+    await Promise.all([queryClient.invalidateQueries({ queryKey: proposalKeys.all }), queryClient.invalidateQueries({ queryKey: waitingKeys.all })]);
   };
 }
 

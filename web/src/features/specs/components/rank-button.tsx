@@ -8,7 +8,7 @@ import { Button } from '../../../components/ui/button';
 import { paths } from '../../../config/paths';
 import { ApiError } from '../../../lib/api';
 import { rankSpec } from '../api/spec-queries';
-import { specKeys } from '../../../lib/query-keys';
+import { specKeys, waitingKeys } from '../../../lib/query-keys';
 
 export function RankButton({ specId, version, unsaved }: { specId: number; version: number; unsaved: boolean }) {
   const navigate = useNavigate();
@@ -16,7 +16,7 @@ export function RankButton({ specId, version, unsaved }: { specId: number; versi
   const rank = useMutation({
     mutationFn: () => rankSpec(specId),
     onSuccess: async (proposal) => {
-      await queryClient.invalidateQueries({ queryKey: specKeys.all });
+      await Promise.all([queryClient.invalidateQueries({ queryKey: specKeys.all }), queryClient.invalidateQueries({ queryKey: waitingKeys.all })]);
       navigate(paths.proposal.href(proposal.id));
     },
   });
