@@ -44,6 +44,7 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
       children: [
         { index: true, lazy: lazyRoute(queryClient, () => import('../routes/home')) },
         { path: paths.project.path, lazy: lazyRoute(queryClient, () => import('../routes/project')) },
+        { path: paths.activity.path, lazy: lazyRoute(queryClient, () => import('../routes/project-activity')) },
         { path: paths.newSpec.path, lazy: lazyRoute(queryClient, () => import('../routes/spec-new')) },
         { path: paths.specImport.path, lazy: lazyRoute(queryClient, () => import('../routes/spec-import')) },
         { path: paths.spec.path, lazy: lazyRoute(queryClient, () => import('../routes/spec')) },

@@ -1,6 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQuery, useSuspenseQuery } from '@tanstack/react-query';
-import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { paths } from '../config/paths';
 import { mayAs, projectRoleOf } from '#shared/workflow/roles';
 import { RouteError } from '../components/layout/route-error';
 import { PageHeader } from '../components/ui/page-header';
@@ -46,7 +47,15 @@ export function Component() {
   };
   return (
     <>
-      <PageHeader title={project.name} eyebrow="Project">
+      <PageHeader
+        title={project.name}
+        eyebrow="Project"
+        actions={
+          <Link to={paths.activity.href(projectId)} className="rounded-md border border-rule px-2.5 py-1 text-sm hover:bg-paper dark:border-night-rule dark:hover:bg-night">
+            Activity
+          </Link>
+        }
+      >
         {project.description || 'No description.'}
       </PageHeader>
       <NeedsYou projectId={projectId} role={projectRoleOf(user.projectRoles, projectId) ?? (user.role === 'admin' ? 'admin' : null)} onShow={showProposals} />
