@@ -45,11 +45,12 @@ async function withContext(dataSource: DataSource, events: AuditEvent[]): Promis
   const reviewIds = ids((e) => (e.entityType === 'review' ? e.entityId : null));
   const [people, proposals, decisions, reviews] = await Promise.all([
     actorIds.length ? dataSource.getRepository(UserEntity).find({ select: { id: true, displayName: true }, where: { id: In(actorIds) } }) : [],
-    proposalIds.length ? dataSource.getRepository(ProposalEntity).find({ select: { id: true, specId: true }, where: { id: In(proposalIds) } }) : [],
+    proposalIds.length ? dataSource.getRepository(ProposalEntity).find({ select: { id: true, specId: true, recommendedTopology: true }, where: { id: In(proposalIds) } }) : [],
     decisionIds.length ? dataSource.getRepository(DecisionEntity).find({ select: { id: true, kind: true, topology: true, reason: true }, where: { id: In(decisionIds) } }) : [],
     reviewIds.length ? dataSource.getRepository(ReviewEntity).find({ select: { id: true, comment: true }, where: { id: In(reviewIds) } }) : [],
   ]);
   const specOfProposal = new Map(proposals.map((p) => [p.id, p.specId]));
+  const recommendsNothing = new Set(proposals.filter((p) => p.recommendedTopology === null).map((p) => p.id));
   const specOf = (e: AuditEvent) => (e.entityType === 'spec' ? e.entityId : e.proposalId !== null ? (specOfProposal.get(e.proposalId) ?? null) : null);
   const specIds = ids(specOf);
   const specs = specIds.length ? await dataSource.getRepository(SpecEntity).find({ select: { id: true, title: true }, where: { id: In(specIds) } }) : [];
@@ -66,6 +67,7 @@ async function withContext(dataSource: DataSource, events: AuditEvent[]): Promis
       records: {
         decision: event.entityType === 'decision' ? (decisionOf.get(event.entityId) ?? null) : undefined,
         review: event.entityType === 'review' ? (reviewOf.get(event.entityId) ?? null) : undefined,
+        nothingRecommended: event.proposalId !== null ? recommendsNothing.has(event.proposalId) : undefined,
       },
     };
   });

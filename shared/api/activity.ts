@@ -14,6 +14,8 @@ export interface EventRecords {
   decision?: { kind: string; topology: string; reason: string | null } | null;
   /** The review a sign-off or send-back recorded. */
   review?: { comment: string | null } | null;
+  /** The proposal's ranking recommends nothing (a choice then departs from no recommendation). */
+  nothingRecommended?: boolean;
 }
 
 /** One event with what a reader needs beside it: who, which spec, and the records it quotes. */

@@ -25,9 +25,7 @@ export interface EventWords {
 }
 
 /** What the words need besides the event: the records it quotes, and whether the proposal's ranking recommends nothing. */
-export interface EventContext extends EventRecords {
-  nothingRecommended?: boolean;
-}
+export type EventContext = EventRecords;
 
 const DECIDED_WORDS: Record<string, (topology: string) => string> = {
   accept: (t) => `decided: accepted the recommendation (${t})`,
@@ -51,10 +49,8 @@ export function describeEvent(event: AuditEvent, context: EventContext = {}): Ev
   const details = event.details;
   const transition = { from: asState(details.from), to: asState(details.to) };
   switch (event.action) {
-    case 'spec.created': {
-      const title = asText(details.title);
-      return { what: `wrote the spec${title ? ` “${title}”` : ''} (version 1)${importSource(details)}` };
-    }
+    case 'spec.created':
+      return { what: `wrote the spec (version 1)${importSource(details)}` };
     case 'spec.version-created': {
       const version = typeof details.version === 'number' ? `version ${details.version}` : 'a new version';
       const changes = typeof details.changes === 'number' ? `: ${plural(details.changes, 'field', 'fields')} changed` : '';

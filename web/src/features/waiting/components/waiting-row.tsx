@@ -21,10 +21,10 @@ export function WaitingRow({ item }: { item: WaitingItem }) {
   const target = item.proposalId === null ? paths.spec.href(item.spec.id) : paths.proposal.href(item.proposalId);
   const name = item.proposalId === null ? item.spec.title : `#${item.proposalId} ${item.spec.title}`;
   return (
-    <li className="relative grid gap-x-4 gap-y-0.5 border-b border-rule/70 px-1 py-2 last:border-b-0 hover:bg-paper sm:grid-cols-[6.5rem_minmax(0,1fr)_minmax(0,14rem)] sm:items-baseline dark:border-night-rule/70 dark:hover:bg-night">
-      <p className={`order-3 text-xs tabular-nums sm:order-none sm:text-sm ${soft}`}>
-        <span className="sr-only">Waiting for </span>
-        <time dateTime={item.since} title={`Since ${formatDateTime(item.since)}`}>
+    <li className="relative grid gap-x-4 gap-y-0.5 border-b border-rule/70 px-1 py-2 last:border-b-0 hover:bg-paper sm:grid-cols-[9.5rem_minmax(0,1fr)_minmax(0,15rem)] sm:items-baseline dark:border-night-rule/70 dark:hover:bg-night">
+      <p className={`order-3 text-xs tabular-nums sm:order-none ${soft}`}>
+        waiting{' '}
+        <time dateTime={item.since} title={`Since ${formatDateTime(item.since)}`} className="text-ink sm:text-sm dark:text-night-ink">
           {formatAge(item.since)}
         </time>
       </p>
@@ -37,7 +37,7 @@ export function WaitingRow({ item }: { item: WaitingItem }) {
       </div>
       <p className={`text-xs ${soft}`}>
         {item.by ? `${BY_WORDS[item.kind]} ${item.by.displayName}` : null}
-        {item.yours && <span className="ml-1.5 rounded-sm border border-rule px-1 py-px whitespace-nowrap text-ink dark:border-night-rule dark:text-night-ink">your decision</span>}
+        {item.yours && <span className="ml-1.5 inline-block rounded-sm border border-rule px-1 whitespace-nowrap text-ink sm:mt-0.5 sm:ml-0 sm:block sm:w-fit dark:border-night-rule dark:text-night-ink">your decision</span>}
       </p>
     </li>
   );
