@@ -34,8 +34,12 @@ const SPEC = event(59, { action: 'spec.version-created', entityType: 'spec', ent
 const ALL = [RETURNED, DECIDED, SPEC];
 const TOTAL = 53;
 
-const stub = useFetchStub((request) => {
+/** When set, the answers to the activity wait for it (a slow server). */
+let hold: Promise<void> | null = null;
+
+const stub = useFetchStub(async (request) => {
   const url = new URL(request.path, 'http://longtail.test');
+  if (hold && url.pathname === '/api/projects/1/activity') await hold;
   if (url.pathname === '/api/projects/1') return json(200, { id: 1, name: 'Kestrel load-cell amplifier', description: '', createdById: 1, createdAt: '2026-01-01T00:00:00Z' });
   if (url.pathname === '/api/projects/1/members') return json(200, { items: MEMBERS });
   if (url.pathname === '/api/projects/1/activity') {
@@ -114,6 +118,22 @@ describe('project activity page', () => {
     expect(Object.fromEntries(last.searchParams)).toEqual({ actor: '2', kind: 'decisions', page: '1', pageSize: '25' });
     expect(screen.getByRole('link', { name: 'These events as CSV' }).getAttribute('href')).toBe('/api/projects/1/activity.csv?actor=2&kind=decisions');
     expect(await screen.findByText('1–1 of 1')).toBeTruthy();
+  });
+
+  test('when a person is chosen while the page for a chosen kind still loads, then the address keeps both choices', async () => {
+    renderActivity();
+    const kind = await screen.findByRole('combobox', { name: 'Show' });
+    let answer = () => {};
+    hold = new Promise<void>((resolve) => (answer = resolve));
+
+    await userEvent.selectOptions(kind, 'decisions');
+    await userEvent.selectOptions(screen.getByRole('combobox', { name: 'by' }), 'Priya Valcourt');
+    hold = null;
+    answer();
+
+    await screen.findByText('1–1 of 1');
+    expect(screen.getByTestId('where').textContent).toBe('/projects/1/activity?kind=decisions&person=2');
+    expect(Object.fromEntries(activityRequests().at(-1)!.searchParams)).toEqual({ actor: '2', kind: 'decisions', page: '1', pageSize: '25' });
   });
 
   test('when next is pressed, then the next page is asked for and the address keeps it', async () => {

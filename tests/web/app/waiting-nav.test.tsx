@@ -64,19 +64,19 @@ function renderShell(user: SessionUser) {
 describe('the Waiting count in the navigation', () => {
   test('when work waits, then the link shows the total, says each kind in its name and leads to the home page’s list', async () => {
     renderShell(LEAD);
-    const link = await screen.findByRole('link', { name: 'Waiting for you: 2 rankings to decide, 1 sent back for a new decision' });
-    expect(link.textContent).toBe('Waiting3');
+    const link = await screen.findByRole('link', { name: 'Waiting 3 : 2 rankings to decide, 1 sent back for a new decision' });
+    expect(link.querySelector('[data-waiting-count]')!.textContent).toBe('3');
     expect(link.getAttribute('href')).toBe('/#waiting');
   });
 
   test('when a decision is made, then the count is asked for again and drops at once', async () => {
     renderShell(LEAD);
-    await screen.findByRole('link', { name: /^Waiting for you: 2 rankings/ });
+    await screen.findByRole('link', { name: /^Waiting 3 : 2 rankings/ });
 
     await userEvent.click(screen.getByRole('button', { name: 'Accept the recommendation' }));
 
-    const link = await screen.findByRole('link', { name: 'Waiting for you: 1 ranking to decide, 1 sent back for a new decision' });
-    expect(link.textContent).toBe('Waiting2');
+    const link = await screen.findByRole('link', { name: 'Waiting 2 : 1 ranking to decide, 1 sent back for a new decision' });
+    expect(link.querySelector('[data-waiting-count]')!.textContent).toBe('2');
     expect(stub.sent.filter((r) => r.key === 'GET /api/waiting/counts')).toHaveLength(2);
     expect(stub.sent.find((r) => r.key === 'POST /api/proposals/31/decision')?.body).toEqual({ kind: 'accept' });
   });

@@ -17,7 +17,11 @@ export const loader =
   async ({ params, request }: LoaderFunctionArgs) => {
     const projectId = projectIdFrom(params.projectId);
     const view = readActivityView(new URL(request.url).searchParams);
-    await Promise.all([queryClient.ensureQueryData(projectQuery(projectId)), queryClient.ensureQueryData(projectMembersQuery(projectId)), queryClient.prefetchQuery(activityQuery(projectId, view))]);
+    // The events are asked for here but not waited for: a new filter or page shows in the address at
+    // once (the previous page stays, dimmed, until its answer comes), so a second choice made
+    // meanwhile builds on the first.
+    void queryClient.prefetchQuery(activityQuery(projectId, view));
+    await Promise.all([queryClient.ensureQueryData(projectQuery(projectId)), queryClient.ensureQueryData(projectMembersQuery(projectId))]);
     return null;
   };
 
@@ -30,7 +34,7 @@ export function Component() {
   const [params, setParams] = useSearchParams();
   const view = readActivityView(params);
   if (!user) return null;
-  const onView = (next: ActivityView) => setParams((current) => writeActivityView(current, next), { preventScrollReset: true });
+  const onView = (changes: Partial<ActivityView>) => setParams((current) => writeActivityView(current, { ...readActivityView(current), ...changes }), { preventScrollReset: true });
   return (
     <>
       <PageHeader

@@ -15,11 +15,11 @@ const navClass = ({ isActive }: { isActive: boolean }) =>
 const NEXT_THEME: Record<ThemeChoice, ThemeChoice> = { system: 'light', light: 'dark', dark: 'system' };
 const THEME_WORDS: Record<ThemeChoice, string> = { system: 'system', light: 'light', dark: 'dark' };
 
-/** The count of what waits for the person, linking to the home page's list (its words in the link's name). */
+/** The count of what waits for the person, linking to the home page's list; its name reads the count, then each kind in words. */
 function WaitingLink({ counts }: { counts: WaitingCounts }) {
   const total = waitingTotal(counts);
   return (
-    <Link to={paths.waiting.href()} className={cn(navClass({ isActive: false }), 'inline-flex items-center gap-1.5')} aria-label={`Waiting for you: ${waitingSentence(counts)}`} title={waitingSentence(counts)}>
+    <Link to={paths.waiting.href()} className={cn(navClass({ isActive: false }), 'inline-flex items-center gap-1.5')} title={waitingSentence(counts)}>
       Waiting
       <span
         data-waiting-count={total}
@@ -30,6 +30,7 @@ function WaitingLink({ counts }: { counts: WaitingCounts }) {
       >
         {total}
       </span>
+      <span className="sr-only">: {waitingSentence(counts)}</span>
     </Link>
   );
 }

@@ -13,13 +13,13 @@ import { ActivityFilter } from './activity-filter';
 const downloadLink = 'rounded-md border border-rule px-2.5 py-1 text-sm hover:bg-paper dark:border-night-rule dark:hover:bg-night';
 
 /** The project's activity, newest first: the filter sentence, the CSV of what it keeps, the events, the pages. */
-export function ActivityPanel({ projectId, view, members, viewerId, onView }: { projectId: number; view: ActivityView; members: readonly ProjectMember[]; viewerId: number; onView: (next: ActivityView) => void }) {
+export function ActivityPanel({ projectId, view, members, viewerId, onView }: { projectId: number; view: ActivityView; members: readonly ProjectMember[]; viewerId: number; onView: (changes: Partial<ActivityView>) => void }) {
   const activity = useQuery(activityQuery(projectId, view));
   const filtered = view.person !== null || view.kind !== null;
   return (
     <Sheet aria-label="Events">
       <div className="mb-3 flex flex-wrap items-center justify-between gap-x-4 gap-y-2">
-        <ActivityFilter view={view} members={members} onChange={(next) => onView({ ...next, page: 1 })} />
+        <ActivityFilter view={view} members={members} onChange={(changes) => onView({ ...changes, page: 1 })} />
         <a href={api.projectActivityCsv(projectId, activityApiQuery(view))} download className={`${downloadLink} whitespace-nowrap`}>
           {filtered ? 'These events as CSV' : 'Every event as CSV'}
         </a>
@@ -41,7 +41,7 @@ export function ActivityPanel({ projectId, view, members, viewerId, onView }: { 
               ))}
             </ol>
           )}
-          {activity.data.total > 0 && <Pagination page={view.page} pageSize={ACTIVITY_PAGE_SIZE} total={activity.data.total} onPage={(page) => onView({ ...view, page })} label="Activity pages" />}
+          {activity.data.total > 0 && <Pagination page={view.page} pageSize={ACTIVITY_PAGE_SIZE} total={activity.data.total} onPage={(page) => onView({ page })} label="Activity pages" />}
         </div>
       )}
     </Sheet>
