@@ -121,10 +121,16 @@ describe('Longtail in the browser: what waits for whom, and a project’s activi
     expect(await navCount(page)).toBe(total);
     expect(await decide.getByRole('heading').textContent()).toMatch(new RegExp(`${counts.body.counts.decide}$`));
     await bothWidths(actor, 'designer-waiting');
+    // The app follows the system theme as it opens: the dark one, then back.
     await page.emulateMedia({ colorScheme: 'dark' });
+    await page.reload();
+    await visible(page.getByRole('region', { name: /^Rankings to decide/ }).getByRole('listitem'));
+    expect(await page.evaluate(() => document.documentElement.classList.contains('dark'))).toBe(true);
+    await actor.quiet();
     await checkAccessibility(page, 'designer home, dark theme');
     await shots.take(page, 'designer-waiting-dark');
     await page.emulateMedia({ colorScheme: 'light' });
+    await page.reload();
   });
 
   it('the designer follows the count from a project page back to the list, opens the ranking and decides; the count drops at once', async () => {
