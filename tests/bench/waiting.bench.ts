@@ -195,7 +195,7 @@ for (const role of ['designer', 'reviewer', 'requirements'] as const) {
 }
 row('slowest waiting-list request (HTTP median)', ms(Math.max(...worst)), verdict(Math.max(...worst)));
 
-console.log(`\nActivity of one project (${Math.round(Number(events) / PROJECTS).toLocaleString('en')} events), first page of ${PAGE_SIZE}`);
+console.log(`\nActivity of one project, first page of ${PAGE_SIZE} (the events the filter keeps beside each)`);
 const session = await signIn(designer);
 const activityOf = (query: string, filter: { actor?: number; kind?: 'decisions' }) =>
   latency(`/api/projects/${firstProject}/activity?pageSize=${PAGE_SIZE}${query}`, session, () => listActivity(dataSource, designer, firstProject, { page: 1, pageSize: PAGE_SIZE, ...filter }));
