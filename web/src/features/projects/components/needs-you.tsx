@@ -2,6 +2,8 @@ import { useQueries } from '@tanstack/react-query';
 import type { ProposalState } from '#shared/workflow/proposal-states';
 import type { Role } from '#shared/workflow/roles';
 import { STATE_LABELS, StateGlyph } from '../../../components/ui/state-badge';
+import { Link } from 'react-router-dom';
+import { paths } from '../../../config/paths';
 import { cn } from '../../../lib/cn';
 import { projectProposalCountQuery } from '../api/project-queries';
 import type { ProposalFilter } from '../utils/proposal-filter';
@@ -28,6 +30,11 @@ export function NeedsYou({ projectId, role, onShow }: { projectId: number; role:
   const counts = useQueries({ queries: queue.map((q) => projectProposalCountQuery(projectId, q.status)) });
   const frame = 'mb-6 flex flex-wrap items-center gap-x-4 gap-y-2 rounded-lg border-l-4 border-fern bg-fern-soft/60 px-4 py-2.5 text-sm dark:bg-night-sheet';
   const heading = <h2 className="font-medium text-fern dark:text-fern-bright">What needs you</h2>;
+  const everywhere = (
+    <Link to={paths.waiting.href()} className="ml-auto text-xs text-fern underline dark:text-fern-bright">
+      What waits for you in every project
+    </Link>
+  );
   if (role === null) return null;
   if (queue.length === 0)
     return (
@@ -74,6 +81,7 @@ export function NeedsYou({ projectId, role, onShow }: { projectId: number; role:
           ))}
         </ul>
       )}
+      {everywhere}
     </section>
   );
 }
