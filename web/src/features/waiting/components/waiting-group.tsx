@@ -10,7 +10,9 @@ import { WaitingRow } from './waiting-row';
 
 /** One kind of what waits for the person: its heading with the count, its items oldest first, paged. */
 export function WaitingGroup({ kind, count }: { kind: WaitingKind; count: number }) {
-  const [page, setPage] = useState(1);
+  const [chosenPage, setPage] = useState(1);
+  // Once others' work has shortened the list, a page past its end becomes its last page.
+  const page = Math.min(chosenPage, Math.max(1, Math.ceil(count / WAITING_PAGE_SIZE)));
   const list = useQuery({ ...waitingListQuery(kind, page), enabled: count > 0 });
   const words = WAITING_WORDS[kind];
   const headingId = `waiting-${kind}`;
