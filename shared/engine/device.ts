@@ -210,3 +210,13 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
 export function deviceModel(device: DeviceParams, temperatureC: number): DeviceModel {
   return npnModel(device, temperatureC);
 }
+
+/** The PNP a design's tail needs (`device.pnp`), as a device the model reads: IS, BF, VAF or a card. */
+export type PnpDevice = NonNullable<DeviceParams['pnp']>;
+
+/** The design's PNP device; a RangeError naming the field when the design has none. */
+export function pnpDeviceOf(design: { device: DeviceParams; tail: { topology: string } }): PnpDevice {
+  const given = design.device.pnp;
+  if (!given) throw new RangeError(`the ${design.tail.topology} tail has PNP transistors: device.pnp (its IS, BF and VAF, or a model card) is required`);
+  return given;
+}

@@ -20,9 +20,9 @@ const GUESS_VT = 0.0259;
 function stamp(tail: TailDesign, ctx = CTX): string[] {
   return tailElements(tail, ctx).elements.map((e: CircuitElement) => {
     expect(e.part).toBe('tail');
-    if (e.kind === 'npn') {
+    if (e.kind === 'npn' || e.kind === 'pnp') {
       expect(e.area).toBe(1);
-      return `${e.name} npn ${e.collector} ${e.base} ${e.emitter}`;
+      return `${e.name} ${e.kind} ${e.collector} ${e.base} ${e.emitter}`;
     }
     if (e.kind === 'resistor') return `${e.name} R ${e.nodes.join(' ')} ${e.resistanceOhm}`;
     return `${e.name} C ${e.nodes.join(' ')} ${e.capacitanceF}`;
