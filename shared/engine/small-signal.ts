@@ -18,7 +18,6 @@ import { luFactor, luSolve, zeros } from './linear-solve';
 import {
   createStamp,
   junctionVoltages,
-  nodeVoltage,
   stampConductance,
   stampControlled,
   stampTransistor,

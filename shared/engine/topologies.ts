@@ -179,7 +179,7 @@ const CATALOGUE = {
     family: 'npn',
     name: 'PTAT (constant-gm) source',
     resistors: [
-      { names: ['RE4'], field: 'emitterResistanceOhm', role: 'ΔVBE resistor under Q4: sets the current, VT·ln(N)/R' },
+      { names: ['RE4'], field: 'emitterResistanceOhm', role: 'ΔVBE emitter resistor of Q4: sets the current, VT·ln(N)/R' },
       { names: ['RSU'], field: 'startupResistanceOhm', role: "Start-up, V+ to Q3's collector" },
     ],
     ratios: [
