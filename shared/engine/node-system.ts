@@ -82,8 +82,8 @@ const NO_OHMIC: OhmicResistances = { baseOhm: 0, emitterOhm: 0, collectorOhm: 0 
  * ohmic resistances each transistor gets internal nodes (`Q1:c'`, …) joined to its terminals by
  * RC/A, RB/A, RE/A (A its area), and, as ngspice's substrate junction with ISS = 0, GMIN from
  * its internal collector to the substrate at the negative rail [SPICE] ngspice bjtload.c.
- * `ownModels`: models of transistors that differ from the stage's, by name (the same ohmic
- * resistances: only BF or VAF differ).
+ * `ownModels`: models of transistors that differ from the stage's, by name (a mismatched pair
+ * transistor's BF or VAF, a PNP's whole card with its own RB, RE, RC).
  */
 export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO_OHMIC, ownModels: Readonly<Record<string, DeviceModel>> = {}): IndexedCircuit {
   const fixedNodes = Object.keys(circuit.fixedNodesV);
@@ -98,17 +98,19 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
       resistors.push({ name: el.name, a: refOf(table, el.nodes[0]), b: refOf(table, el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
     } else if (isTransistor(el)) {
       const tail = el.part === 'tail';
+      const own = ownModels[el.name];
+      // a transistor's own card (a PNP's) brings its own RB, RE, RC
+      const resistances = own?.ohmic ?? ohmic;
       const c = refOf(table, el.collector);
       const b = refOf(table, el.base);
       const e = refOf(table, el.emitter);
-      const ci = internalNode(table, resistors, el, c, 'c', ohmic.collectorOhm);
-      const bi = internalNode(table, resistors, el, b, 'b', ohmic.baseOhm);
-      const ei = internalNode(table, resistors, el, e, 'e', ohmic.emitterOhm);
+      const ci = internalNode(table, resistors, el, c, 'c', resistances.collectorOhm);
+      const bi = internalNode(table, resistors, el, b, 'b', resistances.baseOhm);
+      const ei = internalNode(table, resistors, el, e, 'e', resistances.emitterOhm);
       const s = refOf(table, el.substrate);
       const polarity = el.kind === 'pnp' ? -1 : 1;
       const sc = polarity === 1 ? ci : bi;
       resistors.push({ name: `${el.name}.GSUB`, a: sc, b: s, conductanceS: GMIN_S, tail, noiseless: true });
-      const own = ownModels[el.name];
       transistors.push({ name: el.name, c, b, e, ci, bi, ei, s, sc, polarity, area: el.area, tail, ...(own ? { model: own } : {}) });
     } else {
       capacitors.push({ name: el.name, a: refOf(table, el.nodes[0]), b: refOf(table, el.nodes[1]), capacitanceF: el.capacitanceF });
