@@ -13,7 +13,7 @@ import { shiftedDesign } from './sign-off-corners';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
 import { BOLTZMANN_J_PER_K, ELEMENTARY_CHARGE_C, NOMINAL_TEMPERATURE_C, ZERO_CELSIUS_K } from './constants';
-import { unhandledTopology, type TailDesign, type TopologyId } from './topologies';
+import { TOPOLOGY_CATALOGUE, unhandledTopology, type TailDesign, type TopologyId } from './topologies';
 import type { AnalyzeResult, Design, ResistorSeries, Spec } from './types';
 
 /** Share of the power budget the sizing aims at, leaving room for corners and snapping (design choice). */
@@ -450,7 +450,9 @@ function solvedAtCurrent(spec: Spec, design: Design): SolvedAtCurrent {
  * or the gain peaking) is sized again without that degeneration: the gain comes first.
  */
 function sizedAt(spec: Spec, topology: TopologyId, nominal: Condition, tailA: number, steps: SizingStep[]): SizedOption {
-  const first = sizedPairAt(spec, topology, nominal, tailA, [...steps], true);
+  // a PTAT tail holds gm over temperature itself: no pair degeneration for it
+  const forTemperature = TOPOLOGY_CATALOGUE[topology]?.currentLaw !== 'ptat';
+  const first = sizedPairAt(spec, topology, nominal, tailA, [...steps], forTemperature);
   const chosen = first.reached || !first.steps.some((s) => s.step === 'temperature-degeneration') ? first : sizedPairAt(spec, topology, nominal, tailA, [...steps], false);
   return { design: chosen.design, steps: chosen.steps };
 }

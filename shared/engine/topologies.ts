@@ -69,6 +69,13 @@ export interface Topology {
   readonly ratios: readonly TailRatio[];
   /** A second device the tail needs beside the NPN (`device.pnp`), if any: a spec lists such a tail only by choice. */
   readonly needsDevice?: 'pnp';
+  /**
+   * How the tail current is meant to move with temperature: held (every mirror, the resistor) or
+   * in proportion to absolute temperature ('ptat': gm = IC/VT, and a resistor-loaded gain, held).
+   * The drift check judges the departure from this law; sizing needs no pair degeneration for
+   * temperature with a 'ptat' tail.
+   */
+  readonly currentLaw?: 'ptat';
   readonly transistors: readonly TailTransistor[];
   readonly routLimit: RoutLimit;
   /** The tail's circuit in words, each `{field}` to be filled with the formatted value (the schematic's description). */
@@ -187,6 +194,7 @@ const CATALOGUE = {
       { field: 'outputAreaRatio', role: "Q9's emitter area over Q3's", default: 1 },
     ],
     needsDevice: 'pnp',
+    currentLaw: 'ptat',
     transistors: [
       { name: 'Q3', role: 'ΔVBE cell, diode-connected at V−' },
       { name: 'Q4', role: 'ΔVBE cell, N× area, emitter through RE4' },

@@ -118,11 +118,11 @@ export interface Design {
          */
         startupResistanceOhm: number;
         /**
-         * Emitter area of the PTAT cell's degenerated transistor (Q4) over the diode-connected one's (Q3), a ratio (IS·N); more than 1, up to 100. The cell's current is VT·ln(N)/R.
+         * Emitter area of the PTAT cell's degenerated transistor (Q4) over the diode-connected one's (Q3), a dimensionless ratio (IS·N); more than 1, up to 100. The cell's current is VT·ln(N)/R.
          */
         areaRatio: number;
         /**
-         * Emitter area of the tail's output transistor (Q9) over the diode-connected one's (Q3), a ratio; the tail current is about this times the cell's. From 0.01 to 100; left out: 1.
+         * Emitter area of the tail's output transistor (Q9) over the diode-connected one's (Q3), a dimensionless ratio; the tail current is about this times the cell's. From 0.01 to 100; left out: 1.
          */
         outputAreaRatio?: number;
       };

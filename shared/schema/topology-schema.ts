@@ -72,7 +72,7 @@ const TAIL_RATIO_SCHEMAS: Record<TailRatioField, SchemaNode> = {
   areaRatio: {
     type: 'number',
     title: 'Area ratio N',
-    description: "Emitter area of the PTAT cell's degenerated transistor (Q4) over the diode-connected one's (Q3), a ratio (IS·N); more than 1, up to 100. The cell's current is VT·ln(N)/R.",
+    description: "Emitter area of the PTAT cell's degenerated transistor (Q4) over the diode-connected one's (Q3), a dimensionless ratio (IS·N); more than 1, up to 100. The cell's current is VT·ln(N)/R.",
     'x-unit': '1',
     'x-typical': { min: 2, max: 24 },
     exclusiveMinimum: 1,
@@ -81,7 +81,7 @@ const TAIL_RATIO_SCHEMAS: Record<TailRatioField, SchemaNode> = {
   outputAreaRatio: {
     type: 'number',
     title: 'Output area ratio',
-    description: "Emitter area of the tail's output transistor (Q9) over the diode-connected one's (Q3), a ratio; the tail current is about this times the cell's. From 0.01 to 100; left out: 1.",
+    description: "Emitter area of the tail's output transistor (Q9) over the diode-connected one's (Q3), a dimensionless ratio; the tail current is about this times the cell's. From 0.01 to 100; left out: 1.",
     'x-unit': '1',
     'x-typical': { min: 0.5, max: 4 },
     minimum: 0.01,

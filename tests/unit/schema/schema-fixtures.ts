@@ -18,6 +18,7 @@ export const FULL_SPEC: Spec = {
     vbeMismatchSigmaV: 0.0005,
     betaMismatchSigma: 0.015,
     earlyVoltageMismatchSigma: 0.08,
+    pnp: { beta: 95, earlyVoltageV: 52, saturationCurrentA: 3e-15 },
   },
   deviceModel: { name: 'QX-150', checksum: 'a'.repeat(64) },
   betaRange: { min: 10, max: 2000 }, // the widest spread the nominal's own bounds allow, so any nominal fits
