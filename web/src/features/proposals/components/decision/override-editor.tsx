@@ -14,7 +14,7 @@ import { WhatIfPanel } from './what-if-panel';
 
 /**
  * Own values: the pair's and the tail's resistors (and optionally another topology), typed in
- * engineering notation, with the server's what-if beside the ranked option of the same topology
+ * engineering notation, and the tail's emitter-area ratios where it has them, with the server's what-if beside the ranked option of the same topology
  * and, on request, its full check over every rule and corner.
  */
 export function OverrideEditor({
@@ -49,7 +49,7 @@ export function OverrideEditor({
       reading={readings.get(info.key)!}
       serverError={serverErrors[info.key] ?? fullCheck.fieldErrors[info.key] ?? whatIfFieldErrors[info.key]}
       series={series}
-      rankedOhm={ranked?.design ? fieldValue(ranked.design, info.key) : undefined}
+      ranked={ranked?.design ? fieldValue(ranked.design, info.key) : undefined}
       onChange={(text) => setText(info.key, text)}
     />
   );
@@ -110,7 +110,7 @@ export function OverrideEditor({
 }
 
 function readingOf(reading: FieldReading | undefined): number | undefined {
-  return reading?.ok ? reading.valueOhm : undefined;
+  return reading?.ok ? reading.value : undefined;
 }
 
 /** The ranked option of the edited topology was sized with other pair values: say so, and offer them. */
