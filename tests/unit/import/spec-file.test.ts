@@ -125,6 +125,37 @@ describe('the optional targets and corners in CSV', () => {
   });
 });
 
+describe('the PNP transistor in CSV', () => {
+  const PNP_HEADER = `${REQUIRED_HEADER},topologies,device.pnp.beta,device.pnp.earlyVoltageV,device.pnp.saturationCurrentA`;
+
+  test('when a row lists the PTAT source with its PNP, then the PNP is read in SI from its columns', () => {
+    const row = onlyRow(`${PNP_HEADER}\r\nFen gauge input,9,-9,36,66,widlar ptat,110,46 V,6.3f\r\n`);
+    expect(row.errors).toEqual([]);
+    expect(row.document?.topologies).toEqual(['widlar', 'ptat']);
+    // f = 1e-15 [SI]
+    expect(row.document?.device.pnp).toEqual({ beta: 110, earlyVoltageV: 46, saturationCurrentA: 6.3e-15 });
+  });
+
+  test('when a row lists the PTAT source without its PNP, then it is refused at the PNP’s first column, saying why', () => {
+    const row = onlyRow(`${PNP_HEADER}\r\nFen gauge input,9,-9,36,66,widlar ptat,,,\r\n`);
+    expect(row.document).toBeNull();
+    expect(row.errors).toHaveLength(1);
+    expect(row.errors[0].field).toBe('device.pnp.beta');
+    expect(row.errors[0].message).toMatch(/^is required: the tail options include the PTAT \(constant-gm\) source, whose mirror is PNP/);
+  });
+
+  test('when a row gives the PNP’s Early voltage but not its current gain, then the current gain’s column is named', () => {
+    const row = onlyRow(`${PNP_HEADER}\r\nFen gauge input,9,-9,36,66,ptat,,46,\r\n`);
+    expect(row.errors).toEqual([{ row: 2, field: 'device.pnp.beta', message: 'is required unless the PNP SPICE model card is given' }]);
+  });
+
+  test('when a row does not list the PTAT source, then it needs no PNP columns', () => {
+    const row = onlyRow(`${REQUIRED_HEADER},topologies\r\nFen gauge input,9,-9,36,66,widlar cascode\r\n`);
+    expect(row.errors).toEqual([]);
+    expect(row.document?.device.pnp).toBeUndefined();
+  });
+});
+
 describe('cells in engineering notation, in the column’s unit', () => {
   test.each([
     ['tailCurrentA', '10u', 10e-6],
