@@ -74,6 +74,7 @@ describe('OptionSchematic', () => {
     expect(labels).not.toContain('8 Ω');
     expect(labels).not.toContain('1 Ω');
     const words = screen.getByRole('img').getAttribute('aria-label')!;
+    expect(words).toMatch(/^Schematic, PTAT \(constant-gm\) source tail\./);
     expect(words).toContain("Q4 (8× Q3's area)");
     expect(words).toContain('RE4 348 Ω');
     expect(words).toContain('RSU 2.74 MΩ');

@@ -1,7 +1,8 @@
 /** The words behind the schematic (its aria-label): the circuit of ENGINE-CONTRACT.md, with values. */
 import type { Design, TailDesign } from '#shared/engine/types';
 import { formatQuantity } from '#shared/units/format-quantity';
-import { TOPOLOGY_CATALOGUE, tailRatio, tailRatioFieldsOf, tailValueOhm, topologyName, type TailField, type TailRatioField } from '#shared/engine/topologies';
+import { TOPOLOGY_CATALOGUE, tailRatio, tailRatioFieldsOf, tailValueOhm, type TailField, type TailRatioField } from '#shared/engine/topologies';
+import { topologyNameInText } from '../../../lib/topology-names';
 
 const ohm = (valueOhm: number) => formatQuantity(valueOhm, 'Ohm');
 
@@ -22,7 +23,7 @@ export function schematicDescription(design: Design): string {
   const reOhm = design.pairEmitterResistanceOhm ?? 0;
   const emitters = reOhm > 0 ? `emitters through RE1 and RE2 ${ohm(reOhm)} each to the tail node t` : 'emitters joined at the tail node t';
   return (
-    `Schematic, ${topologyName(design.tail.topology).toLowerCase()} tail. Emitter-coupled pair Q1 and Q2, bases at in1 and in2, ` +
+    `Schematic, ${topologyNameInText(design.tail.topology)} tail. Emitter-coupled pair Q1 and Q2, bases at in1 and in2, ` +
     `collectors c1 and c2 through RC1 and RC2 ${ohm(design.collectorResistanceOhm)} to V+ (${formatQuantity(positiveV, 'V')}), ${emitters}. ` +
     `Tail: ${tailWords(design.tail)}. V− is ${formatQuantity(negativeV, 'V')}.`
   );

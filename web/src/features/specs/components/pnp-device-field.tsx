@@ -21,7 +21,7 @@ export function PnpDeviceField(props: FieldProps) {
   const headingId = `${fieldPathId.$id}__heading`;
   const names = tails.map((id) => topologyName(id)).join(' and ');
   return (
-    <section aria-labelledby={headingId} className="mt-1 border-t border-rule pt-3 dark:border-night-rule" data-pnp-device>
+    <section aria-labelledby={headingId} className="mt-1 rounded-md border border-rule p-3 dark:border-night-rule" data-pnp-device>
       <h3 id={headingId} className="text-sm font-semibold">
         PNP transistor
       </h3>
