@@ -61,13 +61,17 @@ describe('POST /api/specs/:id/proposals with the PTAT tail', () => {
     expect(step).toContain('VT·ln(N)');
   });
 
-  test('when ranked, then the tail current rises as absolute temperature does: its spread over the range is ΔT/T of the nominal (within 10 %)', () => {
+  test('when ranked, then the tail current rises as absolute temperature does: hot over cold is the ratio of their kelvins (within 5 %)', () => {
     // ENGINE-CONTRACT.md: the current is VT·ln(N)/R per branch, VT = kT/q, so I ∝ T (in kelvin)
     const { min, max } = SPEC.temperatureC;
-    const middleK = (min + max) / 2 + 273.15;
-    const idealPercent = ((max - min) / middleK) * 100;
-    expect(ptat.figures?.tailCurrentDriftPercent).toBeGreaterThan(idealPercent * 0.9);
-    expect(ptat.figures?.tailCurrentDriftPercent).toBeLessThan(idealPercent * 1.1);
+    const at = (temperatureC: number) => ptat.corners!.find((c) => c.temperatureC === temperatureC && c.inputCommonModeV === ptat.corners![0].inputCommonModeV)!.tailCurrentA;
+    const idealRatio = (max + 273.15) / (min + 273.15);
+    expect(at(max) / at(min)).toBeGreaterThan(idealRatio * 0.95);
+    expect(at(max) / at(min)).toBeLessThan(idealRatio * 1.05);
+    // and the drift check judges it against that law, not against a flat current
+    const drift = ptat.checks.find((c) => c.rule === 'tail-current-drift')!;
+    expect(drift.passed).toBe(true);
+    expect(drift.reason).toContain('PTAT law');
   });
 
   test('when ranked, then the PTAT option holds the gain over temperature where the flat-current mirrors do not', () => {
