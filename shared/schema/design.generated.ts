@@ -66,7 +66,7 @@ export interface Design {
          */
         referenceResistanceOhm: number;
         /**
-         * Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); from 1 mΩ to 1 GΩ.
+         * Emitter resistor of the tail's transistors (under both mirror transistors for the degenerated mirror, under the output transistor only for the Widlar source, under the N× transistor Q4 of the PTAT source, where it sets the current VT·ln(N)/R), in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         emitterResistanceOhm: number;
       }
@@ -80,7 +80,7 @@ export interface Design {
          */
         referenceResistanceOhm: number;
         /**
-         * Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); from 1 mΩ to 1 GΩ.
+         * Emitter resistor of the tail's transistors (under both mirror transistors for the degenerated mirror, under the output transistor only for the Widlar source, under the N× transistor Q4 of the PTAT source, where it sets the current VT·ln(N)/R), in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         emitterResistanceOhm: number;
       }
@@ -110,7 +110,7 @@ export interface Design {
          */
         topology: 'ptat';
         /**
-         * Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); from 1 mΩ to 1 GΩ.
+         * Emitter resistor of the tail's transistors (under both mirror transistors for the degenerated mirror, under the output transistor only for the Widlar source, under the N× transistor Q4 of the PTAT source, where it sets the current VT·ln(N)/R), in ohms (Ω); from 1 mΩ to 1 GΩ.
          */
         emitterResistanceOhm: number;
         /**

@@ -44,9 +44,9 @@ const TAIL_FIELD_SCHEMAS: Record<TailField, SchemaNode> = {
   },
   emitterResistanceOhm: {
     type: 'number',
-    title: 'Mirror emitter resistor',
+    title: 'Emitter resistor',
     description:
-      'Emitter degeneration resistor of the mirror (under both transistors for the degenerated mirror, under the output transistor only for the Widlar source), in ohms (Ω); from 1 mΩ to 1 GΩ.',
+      "Emitter resistor of the tail's transistors (under both mirror transistors for the degenerated mirror, under the output transistor only for the Widlar source, under the N× transistor Q4 of the PTAT source, where it sets the current VT·ln(N)/R), in ohms (Ω); from 1 mΩ to 1 GΩ.",
     'x-unit': 'Ω',
     'x-typical': { min: 1, max: 1e6 },
     minimum: MIN_RESISTANCE_OHM,
