@@ -71,6 +71,7 @@ export const FACT_KINDS: { readonly [K in keyof OptionFacts]-?: KindOf<OptionFac
   powerWorstW: 'number',
   powerBudgetW: 'number',
   powerMarginW: 'number',
+  tailCurrentDriftBasis: 'text',
   tailCurrentDriftPercent: 'number',
   tailCurrentDriftLimitPercent: 'number',
   tailCurrentDriftMarginPercent: 'number',

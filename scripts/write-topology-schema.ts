@@ -38,15 +38,17 @@ export function tailTopologiesMarkdown(): string {
     'SPICE netlist. The textbook output resistance is quoted beside the node solution in the',
     'reasons; every figure is an estimate to confirm by simulation and bench measurement.',
     '',
-    '| Id | Name | Family | Circuit, from `t` to the negative rail | Resistors (design field) | Transistors | Textbook Rout |',
-    '|---|---|---|---|---|---|---|',
+    '| Id | Name | Family | Circuit, from `t` to the negative rail | Resistors (design field) | Area ratios (design field) | Transistors | Textbook Rout |',
+    '|---|---|---|---|---|---|---|---|',
   ];
   for (const id of TOPOLOGIES) {
     const entry = TOPOLOGY_CATALOGUE[id];
     const resistors = entry.resistors.map((r) => `${r.names.join(', ')}: ${r.role} (\`${r.field}\`)`).join('<br>');
-    const transistors = entry.transistors.map((q) => `${q.name}: ${q.role}`).join('<br>') || '—';
+    const ratios = entry.ratios.map((r) => `${r.role} (\`${r.field}\`${r.default !== undefined ? `, default ${r.default}` : ''})`).join('<br>') || '—';
+    const transistors = entry.transistors.map((q) => `${q.name}${q.type ? ` (${q.type.toUpperCase()})` : ''}: ${q.role}`).join('<br>') || '—';
+    const family = entry.needsDevice ? `${FAMILY_WORDS[entry.family]} (needs \`device.${entry.needsDevice}\`)` : FAMILY_WORDS[entry.family];
     const circuit = entry.circuitWords.replace(/\{(\w+)\}/g, '`$1`');
-    lines.push(`| \`${id}\` | ${entry.name} | ${FAMILY_WORDS[entry.family]} | ${circuit} | ${resistors} | ${transistors} | ${routWords(entry.routLimit)} |`);
+    lines.push(`| \`${id}\` | ${entry.name} | ${family} | ${circuit} | ${resistors} | ${ratios} | ${transistors} | ${routWords(entry.routLimit)} |`);
   }
   return `${lines.join('\n')}\n`;
 }

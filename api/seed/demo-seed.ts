@@ -1,9 +1,10 @@
 /**
  * The demo organisation, seeded on an empty database for the local run: Fernhollow Instruments
  * (invented), five accounts (an administrator, a systems engineer, a designer, a reviewer, and a
- * lead who designs in one project and reviews in another), three projects with specs in different states and
+ * lead who designs in one project and reviews in another), four projects with specs in different states and
  * proposals through the workflow, and a small device library (invented NPN .model cards) in the
- * load-cell project. Everything goes through the services, so the audit trail is real.
+ * load-cell project. The seismic node's spec compares the PTAT tail (with its PNP) for a gain held
+ * over a wide temperature range. Everything goes through the services, so the audit trail is real.
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -94,6 +95,14 @@ export async function seedDemo(dataSource: DataSource, ruleSet: RuleSet, passwor
     await decide(dataSource, people.designer, electrodeProposal.id, { kind: 'override', design, reason: 'Stock on hand: doubling the emitter resistors of the degenerated mirror instead of adding the Wilson’s third transistor.' }, ruleSet);
     await review(dataSource, people.reviewer, electrodeProposal.id, { verdict: 'return', comment: 'Check the rejection at the low end of the input range with the doubled emitter resistors before we commit.' });
   }
+
+  // 4. Seismic node: a gain held to ±2 % from −40 to 85 °C, ranked and waiting for the designer. The
+  // spec lists the PTAT (constant-gm) tail with its PNP: the tail current rises with absolute
+  // temperature, so gm, and the resistor-loaded gain, hold where a flat tail current lets it drift.
+  const seismic = await project('Harrier seismic node', 'Geophone receiver of an outdoor seismic node; the sealed enclosure sees −40 to 85 °C and the gain is calibrated once, at the factory.');
+  const geophone = demoSpec('seismic-node-receiver.json');
+  const geophoneSpec = await createSpec(dataSource, people.requirements, seismic.id, { title: geophone.title, payload: geophone });
+  await createProposal(dataSource, people.designer, geophoneSpec.id, ruleSet);
   return true;
 }
 

@@ -8,7 +8,7 @@
  * current flowing into the source's + terminal (so a rail delivering current reads negative).
  */
 import type { ResultType } from 'eecircuit-engine';
-import { RAIL_NODES, designStoresCharge, stageCircuit, type CircuitElement, type ResistorElement, type TransistorElement } from '#shared/engine/circuit';
+import { RAIL_NODES, designStoresCharge, isTransistor, stageCircuit, type CircuitElement, type ResistorElement } from '#shared/engine/circuit';
 import {
   INPUT_SOURCES,
   SUPPLY_SOURCES,
@@ -275,9 +275,11 @@ export async function spiceFigures(run: SpiceRunner, design: Design, options: { 
     cmrrCornerHz = dropFrequencyHz(differential.frequenciesHz, cmrrDb, 3);
   }
 
-  const transistors = circuit.elements
-    .filter((e): e is TransistorElement => e.kind === 'npn')
-    .map((q) => ({ name: q.name, vbeV: v[q.base] - v[q.emitter], vceV: v[q.collector] - v[q.emitter], vcbV: v[q.collector] - v[q.base] }));
+  // in the direction each transistor conducts (a PNP's voltages turned round), as analyze reports them
+  const transistors = circuit.elements.filter(isTransistor).map((q) => {
+    const polarity = q.kind === 'pnp' ? -1 : 1;
+    return { name: q.name, vbeV: polarity * (v[q.base] - v[q.emitter]), vceV: polarity * (v[q.collector] - v[q.emitter]), vcbV: polarity * (v[q.collector] - v[q.base]) };
+  });
 
   return {
     tailCurrentA,
@@ -308,7 +310,7 @@ export async function spiceFigures(run: SpiceRunner, design: Design, options: { 
 export function saturatedTransistors(design: Design, op: SpiceOperatingPoint): { name: string; vbcV: number }[] {
   const v = op.nodeVoltagesV;
   return stageCircuit(design)
-    .elements.filter((e): e is TransistorElement => e.kind === 'npn')
-    .map((q) => ({ name: q.name, vbcV: v[q.base.toLowerCase()] - v[q.collector.toLowerCase()] }))
+    .elements.filter(isTransistor)
+    .map((q) => ({ name: q.name, vbcV: (q.kind === 'pnp' ? -1 : 1) * (v[q.base.toLowerCase()] - v[q.collector.toLowerCase()]) }))
     .filter((q) => Number.isFinite(q.vbcV) && q.vbcV > 0);
 }

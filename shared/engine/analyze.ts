@@ -8,7 +8,7 @@ import { driveCurrentsA, inputOffset, linearInputRangeV, offsetDriftVPerC, witho
 import { closedFormTailRout } from './closed-form';
 import type { BjtEval, DeviceModel } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
-import { nodeVoltage, type IndexedCircuit } from './node-system';
+import { nodeVoltage, terminalCurrentsA, type IndexedCircuit } from './node-system';
 import type { OperatingPoint } from './operating-point';
 import { solveStageOperatingPoint, type SolvedOperatingPoint } from './stage-solve';
 import { TRANSFER_PARTS, magnitude, smallSignalCurrentIntoA, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
@@ -81,10 +81,10 @@ function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: bo
   }
   ic.transistors.forEach((q, i) => {
     if (onlyTail && !q.tail) return;
-    const ev = op.transistors[i];
-    if (q.ci === node) totalA += ev.icA;
-    if (q.bi === node) totalA += ev.ibA;
-    if (q.ei === node) totalA -= ev.icA + ev.ibA;
+    const into = terminalCurrentsA(q, op.transistors[i]);
+    if (q.ci === node) totalA += into.collectorA;
+    if (q.bi === node) totalA += into.baseA;
+    if (q.ei === node) totalA += into.emitterA;
   });
   return totalA;
 }
@@ -128,10 +128,11 @@ function regionOf(ev: BjtEval, thermalVoltageV: number, gainLossFraction: number
 function transistorOperatingPoints(ic: IndexedCircuit, op: OperatingPoint, thermalVoltageV: number): TransistorOperatingPoint[] {
   return ic.transistors.map((q, i) => {
     const v = op.voltagesV;
-    // At the junctions (internal nodes), as SPICE reports vbe, vbc and vce
-    const vc = nodeVoltage(ic, v, q.ci);
-    const vb = nodeVoltage(ic, v, q.bi);
-    const ve = nodeVoltage(ic, v, q.ei);
+    // At the junctions (internal nodes), as SPICE reports vbe, vbc and vce: in the direction the
+    // transistor conducts (a PNP's times −1), its currents likewise positive when it conducts
+    const vc = q.polarity * nodeVoltage(ic, v, q.ci);
+    const vb = q.polarity * nodeVoltage(ic, v, q.bi);
+    const ve = q.polarity * nodeVoltage(ic, v, q.ei);
     const ev = op.transistors[i];
     const gainLossFraction = currentGainLossFraction(ev);
     return {

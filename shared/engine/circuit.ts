@@ -20,7 +20,8 @@ export interface ResistorElement {
 }
 
 export interface TransistorElement {
-  kind: 'npn';
+  /** NPN, or PNP: the same model with every junction voltage and terminal current reversed [SPICE]. */
+  kind: 'npn' | 'pnp';
   /** Its SPICE name, starting with the element letter Q (the netlist writes it as it is). */
   name: string;
   collector: string;
@@ -46,6 +47,11 @@ export interface CapacitorElement {
 }
 
 export type CircuitElement = ResistorElement | TransistorElement | CapacitorElement;
+
+/** Whether an element is a bipolar transistor (either polarity). */
+export function isTransistor(element: CircuitElement): element is TransistorElement {
+  return element.kind === 'npn' || element.kind === 'pnp';
+}
 
 /** The ground node's name (SPICE's node 0). */
 export const GROUND = '0';

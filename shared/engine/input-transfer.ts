@@ -35,7 +35,7 @@ export function driveCurrentsA(solved: SolvedOperatingPoint): [number, number] {
       if (r.b === node) totalA -= ia;
     }
     ic.transistors.forEach((q, k) => {
-      if (q.bi === node) totalA += op.transistors[k].ibA;
+      if (q.bi === node) totalA += q.polarity * op.transistors[k].ibA;
     });
     return totalA;
   }) as [number, number];

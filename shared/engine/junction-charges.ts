@@ -5,8 +5,9 @@
  * diffusion capacitances of the forward and reverse transport currents (TF, TR), as ngspice's
  * BJT level 1 computes them for an AC analysis [SPICE] ngspice bjtload.c (charge storage
  * section) and bjttemp.c (junction capacitances and potentials over temperature). XCJC is 1 (the
- * whole of CJC at the internal base), the substrate is vertical (CJS from the internal collector
- * to the substrate), XTF = ITF = PTF = 0 (no bias-dependent transit time, no excess phase).
+ * whole of CJC at the internal base), the substrate junction at ngspice's default place for the
+ * type (an NPN's vertical, CJS from the internal collector; a PNP's lateral, from the internal
+ * base: node-system.ts `sc`), XTF = ITF = PTF = 0 (no bias-dependent transit time, no excess phase).
  *
  * Every parameter comes from `resolvedParameters(cardOf(device))`; a three-parameter device
  * has no capacitance at all (CJE = CJC = CJS = TF = TR = 0 by default).
@@ -134,7 +135,7 @@ export type TransportTerms = Pick<BjtEval, 'forwardA' | 'forwardS' | 'reverseA' 
 export interface JunctionBias {
   vbeV: number;
   vbcV: number;
-  /** v(substrate) − v(internal collector), V. */
+  /** v(substrate) − v(the node the substrate junction meets: an NPN's internal collector, a PNP's internal base), V. */
   vsubV: number;
 }
 
@@ -144,7 +145,7 @@ export interface TransistorCapacitances {
   baseEmitterF: number;
   /** Between the internal base and collector: depletion plus reverse diffusion, F. */
   baseCollectorF: number;
-  /** From the internal collector to the substrate, F. */
+  /** From the substrate junction's node (an NPN's internal collector, a PNP's internal base) to the substrate, F. */
   collectorSubstrateF: number;
   /**
    * The forward diffusion charge's dependence on vbc (base-width modulation): a current
@@ -173,4 +174,28 @@ export function transistorCapacitances(c: ChargeParameters, transport: Transport
     collectorSubstrateF: substrateCapacitanceF(c.collectorSubstrate, c.collectorSubstrate.zeroBiasF * area, bias.vsubV),
     baseEmitterPerVbcF: perVbcF,
   };
+}
+
+/**
+ * Each transistor's charge parameters at a temperature: its own model's card (a PNP's, or a
+ * mismatched pair transistor's, whose charges are the stage's) or the stage's `parameters`;
+ * null for every one when `parameters` is null (the device's charges left out). Computed once
+ * per card.
+ */
+export function chargeParametersOf(
+  transistors: readonly { model?: { parameters: BjtParameters } }[],
+  parameters: BjtParameters | null,
+  temperatureC: number,
+): (ChargeParameters | null)[] {
+  if (!parameters) return transistors.map(() => null);
+  const byCard = new Map<BjtParameters, ChargeParameters>();
+  return transistors.map((q) => {
+    const card = q.model?.parameters ?? parameters;
+    let charges = byCard.get(card);
+    if (!charges) {
+      charges = chargeParameters(card, temperatureC);
+      byCard.set(card, charges);
+    }
+    return charges;
+  });
 }

@@ -254,12 +254,17 @@ function worstCaseTerms(s: MismatchSensitivity, x: MismatchVector): number[] {
 
 /**
  * Worst case: every mismatch at its worst-case extreme (worstCaseMismatches), every term of the
- * model adding in magnitude and the differential gain at its lowest.
+ * model adding in magnitude and the differential gain at its lowest: |Ad|·exp(−Σ|∂Ad/∂x|·x/|Ad|),
+ * the first-order fall |Ad| − Σ|∂Ad/∂x|·x taken in the logarithm, so it stays positive where the
+ * mismatches move the gain by more than itself (a pair near saturation at its corner, where
+ * the linear fall went below zero and the figure was lost): the same to first order elsewhere.
  */
 export function worstCaseMismatchCmrrDb(s: MismatchSensitivity, sigmas: MismatchSigmas): number {
   const x = worstCaseMismatches(sigmas, s.thermalVoltageV);
   const adcm = worstCaseTerms(s, x).reduce((a, b) => a + b, 0);
-  const ad = magnitude(s.differentialGain) - MISMATCH_KINDS.reduce((sum, _, i) => sum + magnitude(s.differentialGainPer[i]) * x[i], 0);
+  const nominal = magnitude(s.differentialGain);
+  const fall = MISMATCH_KINDS.reduce((sum, _, i) => sum + magnitude(s.differentialGainPer[i]) * x[i], 0);
+  const ad = nominal * Math.exp(-fall / nominal);
   return 20 * Math.log10(ad / adcm);
 }
 

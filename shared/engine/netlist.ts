@@ -5,18 +5,20 @@
  * all go through `spiceNetlist`: to get another analysis, call it with other options — never
  * edit a netlist's text with string replaces (".options" contains ".op").
  */
-import type { Design } from './types';
-import { GROUND, RAIL_NODES, TAIL_NODE, stageCircuit } from './circuit';
+import type { Design, DeviceParams } from './types';
+import { GROUND, RAIL_NODES, TAIL_NODE, isTransistor, stageCircuit } from './circuit';
 import type { CircuitElement, TransistorElement } from './circuit';
 import { scaledDevice } from './stage-solve';
 import { BJT_PARAMETER_NAMES, hasModelCard } from './bjt-parameters';
-import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA } from './device';
+import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA, pnpDeviceOf } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
 import { formatSpiceNumber as spiceNumber, parseSpiceNumber } from '../units/spice-number';
 
 /** The `.model` name every transistor of the stage uses. */
 export const SPICE_MODEL_NAME = 'QNPN';
+/** The PNP's `.model` name (the `ptat` tail's mirror). */
+export const PNP_MODEL_NAME = 'QPNP';
 /** Supply sources: `i(vp)`, `i(vn)` in ngspice's output. */
 export const SUPPLY_SOURCES = { positive: 'VP', negative: 'VN' } as const;
 /** Input sources on in1 and in2: `i(vin1)`, `i(vin2)`. */
@@ -109,7 +111,8 @@ function elementLine(element: CircuitElement): string {
       return `${element.name} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.resistanceOhm)}`;
     case 'capacitor':
       return `${element.name} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.capacitanceF)}`;
-    case 'npn': {
+    case 'npn':
+    case 'pnp': {
       const area = element.area !== 1 ? ` area=${spiceNumber(element.area)}` : '';
       return `${element.name} ${element.collector} ${element.base} ${element.emitter} ${element.substrate} ${transistorModelName(element)}${area}`;
     }
@@ -121,8 +124,9 @@ function hasOwnModel(element: TransistorElement): boolean {
   return element.betaScale !== undefined || element.earlyVoltageScale !== undefined;
 }
 
-/** The `.model` a transistor uses: the stage's, or its own (`QNPN_Q2`) when its BF or VAF differ. */
+/** The `.model` a transistor uses: the stage's, or its own (`QNPN_Q2`) when its BF or VAF differ; a PNP's, `QPNP`. */
 function transistorModelName(element: TransistorElement): string {
+  if (element.kind === 'pnp') return PNP_MODEL_NAME;
   return hasOwnModel(element) ? `${SPICE_MODEL_NAME}_${element.name.toUpperCase()}` : SPICE_MODEL_NAME;
 }
 
@@ -132,22 +136,28 @@ function transistorModelName(element: TransistorElement): string {
  * one, IS at TNOM (the effective one), BF, and VAF unless infinite [SPICE]. Then the library
  * card's SPICE-only parameters, when the netlist is given them.
  */
-function modelCard(device: Design['device'], extra: NetlistCardSettings, name = SPICE_MODEL_NAME): string {
+function modelCard(device: DeviceParams, extra: NetlistCardSettings, name = SPICE_MODEL_NAME, type: 'NPN' | 'PNP' = 'NPN'): string {
   const card = hasModelCard(device) ? device.model : undefined;
   const parameters = card
     ? BJT_PARAMETER_NAMES.filter((parameter) => card[parameter] !== undefined).map((parameter) => `${parameter}=${spiceNumber(card[parameter]!)}`)
     : [`IS=${spiceNumber(nominalSaturationCurrentA(device))}`, `BF=${spiceNumber(forwardBeta(device))}`];
   const vafV = earlyVoltageOrInfinityV(device);
   if (!card && Number.isFinite(vafV)) parameters.push(`VAF=${spiceNumber(vafV)}`);
-  return `.model ${name} NPN (${[...parameters, ...spiceOnlyWords(extra)].join(' ')})`;
+  return `.model ${name} ${type} (${[...parameters, ...spiceOnlyWords(extra)].join(' ')})`;
 }
 
-/** The stage's `.model` card and one per transistor with its own BF or VAF. */
+/**
+ * The stage's `.model` card, one per transistor with its own BF or VAF, and the PNP's card
+ * (`device.pnp`, without the library card's SPICE-only parameters, which belong to the NPN) when
+ * the circuit has a PNP.
+ */
 function modelCards(design: Design, elements: readonly CircuitElement[], extra: NetlistCardSettings): string[] {
   const own = elements.filter((element): element is TransistorElement => element.kind === 'npn' && hasOwnModel(element));
+  const pnp = elements.some((element) => element.kind === 'pnp') ? [modelCard(pnpDeviceOf(design), {}, PNP_MODEL_NAME, 'PNP')] : [];
   return [
     modelCard(design.device, extra),
     ...own.map((element) => modelCard(scaledDevice(design.device, element.betaScale, element.earlyVoltageScale), extra, transistorModelName(element))),
+    ...pnp,
   ];
 }
 
@@ -321,7 +331,7 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
     ...saveCard(
       options,
       // only an `op` netlist saves device figures, and it always holds the pair
-      circuit.elements.filter((element) => element.kind === 'npn').map((element) => element.name),
+      circuit.elements.filter(isTransistor).map((element) => element.name),
     ),
     analysisCard(options),
     '.end',

@@ -3,7 +3,7 @@
  * (linearised at junction voltages) into the node conductance matrix. Shared by the DC
  * operating-point solve (Newton) and the small-signal solve (the Jacobian at the solution).
  */
-import type { StageCircuit, TransistorElement } from './circuit';
+import { isTransistor, type StageCircuit, type TransistorElement } from './circuit';
 import { GMIN_S } from './constants';
 import type { BjtEval, DeviceModel, OhmicResistances } from './device';
 import { zeros } from './linear-solve';
@@ -39,6 +39,14 @@ export interface IndexedTransistor {
   ei: NodeRef;
   /** Substrate terminal (the negative rail in every stage). */
   s: NodeRef;
+  /**
+   * The node the substrate junction (its GMIN, its capacitance CJS) meets: the internal collector
+   * of an NPN (vertical), the internal base of a PNP (lateral), as ngspice places it by default
+   * for each type (BJTsubs) [SPICE]; measured on both ngspice builds with a PNP card's CJS.
+   */
+  sc: NodeRef;
+  /** +1 for an NPN, −1 for a PNP: the model sees polarity × each junction voltage and gives polarity × each current [SPICE]. */
+  polarity: 1 | -1;
   area: number;
   tail: boolean;
   /** The transistor's own model where it differs from the stage's (a mismatched BF or VAF). */
@@ -74,8 +82,8 @@ const NO_OHMIC: OhmicResistances = { baseOhm: 0, emitterOhm: 0, collectorOhm: 0 
  * ohmic resistances each transistor gets internal nodes (`Q1:c'`, …) joined to its terminals by
  * RC/A, RB/A, RE/A (A its area), and, as ngspice's substrate junction with ISS = 0, GMIN from
  * its internal collector to the substrate at the negative rail [SPICE] ngspice bjtload.c.
- * `ownModels`: models of transistors that differ from the stage's, by name (the same ohmic
- * resistances: only BF or VAF differ).
+ * `ownModels`: models of transistors that differ from the stage's, by name (a mismatched pair
+ * transistor's BF or VAF, a PNP's whole card with its own RB, RE, RC).
  */
 export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO_OHMIC, ownModels: Readonly<Record<string, DeviceModel>> = {}): IndexedCircuit {
   const fixedNodes = Object.keys(circuit.fixedNodesV);
@@ -88,18 +96,22 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
   for (const el of circuit.elements) {
     if (el.kind === 'resistor') {
       resistors.push({ name: el.name, a: refOf(table, el.nodes[0]), b: refOf(table, el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
-    } else if (el.kind === 'npn') {
+    } else if (isTransistor(el)) {
       const tail = el.part === 'tail';
+      const own = ownModels[el.name];
+      // a transistor's own card (a PNP's) brings its own RB, RE, RC
+      const resistances = own?.ohmic ?? ohmic;
       const c = refOf(table, el.collector);
       const b = refOf(table, el.base);
       const e = refOf(table, el.emitter);
-      const ci = internalNode(table, resistors, el, c, 'c', ohmic.collectorOhm);
-      const bi = internalNode(table, resistors, el, b, 'b', ohmic.baseOhm);
-      const ei = internalNode(table, resistors, el, e, 'e', ohmic.emitterOhm);
+      const ci = internalNode(table, resistors, el, c, 'c', resistances.collectorOhm);
+      const bi = internalNode(table, resistors, el, b, 'b', resistances.baseOhm);
+      const ei = internalNode(table, resistors, el, e, 'e', resistances.emitterOhm);
       const s = refOf(table, el.substrate);
-      resistors.push({ name: `${el.name}.GSUB`, a: ci, b: s, conductanceS: GMIN_S, tail, noiseless: true });
-      const own = ownModels[el.name];
-      transistors.push({ name: el.name, c, b, e, ci, bi, ei, s, area: el.area, tail, ...(own ? { model: own } : {}) });
+      const polarity = el.kind === 'pnp' ? -1 : 1;
+      const sc = polarity === 1 ? ci : bi;
+      resistors.push({ name: `${el.name}.GSUB`, a: sc, b: s, conductanceS: GMIN_S, tail, noiseless: true });
+      transistors.push({ name: el.name, c, b, e, ci, bi, ei, s, sc, polarity, area: el.area, tail, ...(own ? { model: own } : {}) });
     } else {
       capacitors.push({ name: el.name, a: refOf(table, el.nodes[0]), b: refOf(table, el.nodes[1]), capacitanceF: el.capacitanceF });
     }
@@ -149,7 +161,7 @@ function internalNode(table: NodeTable, resistors: IndexedResistor[], el: Transi
 }
 
 /** Voltage of a node given the free-node vector. */
-export function nodeVoltage(ic: IndexedCircuit, v: number[], node: NodeRef): number {
+export function nodeVoltage(ic: IndexedCircuit, v: readonly number[], node: NodeRef): number {
   return node >= 0 ? v[node] : ic.fixedV[-node - 1];
 }
 
@@ -208,16 +220,19 @@ export function stampConductance(stamp: NodeStamp, a: NodeRef, b: NodeRef, g: nu
 }
 
 /**
- * Stamps a transistor linearised at junction voltages (vbe0, vbc0) with evaluation `ev`:
- * ic = ic0 + A·(vbe − vbe0) + B·(vbc − vbc0), ib likewise, ie = −ic − ib.
+ * Stamps a transistor linearised at junction voltages (vbe0, vbc0, the model's: polarity × the
+ * node differences) with evaluation `ev`: ic = ic0 + A·(vbe − vbe0) + B·(vbc − vbc0), ib
+ * likewise, ie = −ic − ib. For a PNP the currents into the terminals are −ic, −ib and the model's
+ * voltages −(vb − ve), −(vb − vc): the conductances are the NPN's, only the constant parts change
+ * sign [SPICE] (ngspice bjtload.c multiplies them by the model's type).
  */
 export function stampTransistor(stamp: NodeStamp, q: IndexedTransistor, ev: BjtEval, vbe0V: number, vbc0V: number): void {
   const a = ev.dIcDVbeS;
   const b = ev.dIcDVbcS;
   const c = ev.dIbDVbeS;
   const d = ev.dIbDVbcS;
-  const icEqA = ev.icA - a * vbe0V - b * vbc0V;
-  const ibEqA = ev.ibA - c * vbe0V - d * vbc0V;
+  const icEqA = q.polarity * (ev.icA - a * vbe0V - b * vbc0V);
+  const ibEqA = q.polarity * (ev.ibA - c * vbe0V - d * vbc0V);
   const qc = q.ci;
   const qb = q.bi;
   const qe = q.ei;
@@ -238,10 +253,25 @@ export function stampTransistor(stamp: NodeStamp, q: IndexedTransistor, ev: BjtE
   if (qe >= 0) stamp.rhs[qe] += icEqA + ibEqA;
 }
 
-/** Junction voltages of a transistor (at its internal nodes) at a node-voltage vector. */
-export function junctionVoltages(ic: IndexedCircuit, v: number[], q: IndexedTransistor): { vbeV: number; vbcV: number } {
+/**
+ * Junction voltages of a transistor as its model sees them (at its internal nodes, times its
+ * polarity) at a node-voltage vector, and its substrate junction's vsub = v(substrate) − v(the
+ * node it meets), which ngspice takes with the sign of type × BJTsubs, +1 for either default [SPICE].
+ */
+export function junctionVoltages(ic: IndexedCircuit, v: readonly number[], q: IndexedTransistor): { vbeV: number; vbcV: number; vsubV: number } {
   const vb = nodeVoltage(ic, v, q.bi);
-  return { vbeV: vb - nodeVoltage(ic, v, q.ei), vbcV: vb - nodeVoltage(ic, v, q.ci) };
+  return {
+    vbeV: q.polarity * (vb - nodeVoltage(ic, v, q.ei)),
+    vbcV: q.polarity * (vb - nodeVoltage(ic, v, q.ci)),
+    vsubV: nodeVoltage(ic, v, q.s) - nodeVoltage(ic, v, q.sc),
+  };
+}
+
+/** The DC currents into a transistor's internal collector, base and emitter from its evaluation, A (polarity applied). */
+export function terminalCurrentsA(q: IndexedTransistor, ev: BjtEval): { collectorA: number; baseA: number; emitterA: number } {
+  const collectorA = q.polarity * ev.icA;
+  const baseA = q.polarity * ev.ibA;
+  return { collectorA, baseA, emitterA: -(collectorA + baseA) };
 }
 
 /** Evaluates every transistor at its junction voltages. */

@@ -127,8 +127,9 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], sh
   const vbcOld = zeros(nq);
   ic.transistors.forEach((q, i) => {
     const j = junctionVoltages(ic, v, q);
-    vbeOld[i] = Math.min(j.vbeV, model.criticalVoltageV);
-    vbcOld[i] = Math.min(j.vbcV, model.criticalVoltageV);
+    const own = q.model ?? model;
+    vbeOld[i] = Math.min(j.vbeV, own.criticalVoltageV);
+    vbcOld[i] = Math.min(j.vbcV, own.criticalVoltageV);
   });
   // The linear part (resistors, the gmin-stepping shunt) is the same every iteration: stamped once, copied in
   const linear = createStamp(ic);
@@ -142,15 +143,17 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], sh
     let limited = false;
     for (let i = 0; i < nq; i += 1) {
       const q = ic.transistors[i];
+      const own = q.model ?? model;
+      // the model's junction voltages: polarity × the node differences (junctionVoltages, inline: the innermost loop)
       const vb = nodeVoltage(ic, v, q.bi);
-      const vbeNewV = vb - nodeVoltage(ic, v, q.ei);
-      const vbcNewV = vb - nodeVoltage(ic, v, q.ci);
-      const vbeV = limitJunctionV(vbeNewV, vbeOld[i], model.thermalVoltageV, model.criticalVoltageV);
-      const vbcV = limitJunctionV(vbcNewV, vbcOld[i], model.thermalVoltageV, model.criticalVoltageV);
+      const vbeNewV = q.polarity * (vb - nodeVoltage(ic, v, q.ei));
+      const vbcNewV = q.polarity * (vb - nodeVoltage(ic, v, q.ci));
+      const vbeV = limitJunctionV(vbeNewV, vbeOld[i], own.thermalVoltageV, own.criticalVoltageV);
+      const vbcV = limitJunctionV(vbcNewV, vbcOld[i], own.thermalVoltageV, own.criticalVoltageV);
       if (vbeV !== vbeNewV || vbcV !== vbcNewV) limited = true;
       vbeOld[i] = vbeV;
       vbcOld[i] = vbcV;
-      stampTransistor(stamp, q, (q.model ?? model).evaluate(vbeV, vbcV, q.area), vbeV, vbcV);
+      stampTransistor(stamp, q, own.evaluate(vbeV, vbcV, q.area), vbeV, vbcV);
     }
     const step = newtonStep(stamp, v, VOLTAGE_TOLERANCE_V, RELATIVE_TOLERANCE);
     if (!step) return null;

@@ -32,6 +32,8 @@ import {
 import { designAt, outputGain, swingPeakPerCollectorV, type SizedOption } from './sizing';
 import { swingCompression } from './large-signal';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
+import { TOPOLOGY_CATALOGUE } from './topologies';
+import { ZERO_CELSIUS_K } from './constants';
 import { driftSensitivitiesVPerC, mismatchSpread, offsetStatistics, tradeoffAtCondition, tradeoffFacts, tradeoffTargets, type ConditionEntry, type OffsetFigures, type TradeoffAtCondition } from './tradeoff-figures';
 
 /** Usual safe-to-touch limit for DC rails [IEC62368]. */
@@ -373,7 +375,14 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
 
   const sweepConditions = temperatureSweep(spec);
   const sweep = sweepConditions.map((condition) => at(spec, design, condition).result);
-  const spreadPercent = (currents: number[]) => ((Math.max(...currents) - Math.min(...currents)) / predicted.tailCurrentA) * 100;
+  // a PTAT tail's current is meant to rise as T: its drift is the departure from I·T0/T
+  const ptat = TOPOLOGY_CATALOGUE[design.tail.topology].currentLaw === 'ptat';
+  const nominalK = nominal.temperatureC + ZERO_CELSIUS_K;
+  const lawOf = (currents: number[]) => (ptat ? currents.map((i, k) => (i * nominalK) / (sweepConditions[k].temperatureC + ZERO_CELSIUS_K)) : currents);
+  const spreadPercent = (currents: number[]) => {
+    const judged = lawOf(currents);
+    return ((Math.max(...judged) - Math.min(...judged)) / predicted.tailCurrentA) * 100;
+  };
   // the tail resistors' tempco at either sign moves the tail current with temperature too: the larger drift counts
   const tempcoSweeps = (spec.resistors.tempcoPpmPerC ?? 0) > 0
     ? ([-1, 1] as const).map((sign) => sweepConditions.map((c) => at(spec, design, shiftedCondition(spec, c, { ...NO_SHIFT, tailTempco: sign })).result.tailCurrentA))
@@ -461,6 +470,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     powerBudgetW: spec.powerBudgetW,
     powerMarginW: spec.powerBudgetW - powerWorstW,
     tailCurrentDriftPercent: driftPercent,
+    tailCurrentDriftBasis: ptat ? ' beyond its rise in proportion to absolute temperature (the PTAT law, which holds gm)' : '',
     tailCurrentDriftLimitPercent: driftLimit,
     tailCurrentDriftMarginPercent: driftLimit - driftPercent,
     temperatureMinC: spec.temperatureC.min,

@@ -25,9 +25,9 @@
  */
 import { DRIVE_NODES_BEHIND_SOURCE, INPUT_NODES, TAIL_NODE } from './circuit';
 import { solveComplex, type ComplexVector } from './complex-solve';
-import { chargeParameters, transistorCapacitances } from './junction-charges';
+import { chargeParametersOf, transistorCapacitances } from './junction-charges';
 import { cardOf, resolvedParameters } from './bjt-parameters';
-import { nodeVoltage, type IndexedCircuit, type IndexedTransistor, type NodeRef } from './node-system';
+import { junctionVoltages, type IndexedCircuit, type IndexedTransistor, type NodeRef } from './node-system';
 import type { BjtEval } from './device';
 import type { SolvedCircuit } from './analyze';
 import type { OutputKind } from './types';
@@ -182,24 +182,21 @@ function circuitElements(solved: SolvedCircuit): CircuitElements {
     const part: RejectionLimitPart = cap.name === 'CT' ? 'tail-wiring' : 'load';
     elements.push({ part, shown: { name: cap.name, capacitanceF: cap.capacitanceF }, conductance: [], capacitance: twoTerminal(cap.a, cap.b, cap.capacitanceF) });
   }
-  const charges = chargeParameters(resolvedParameters(cardOf(design.device)), temperatureC);
-  if (!charges.none) {
-    const v = op.voltagesV;
-    ic.transistors.forEach((q, k) => {
-      const { bi: b, ci: c, ei: e, s } = q;
-      const vb = nodeVoltage(ic, v, b);
-      const vc = nodeVoltage(ic, v, c);
-      const bias = { vbeV: vb - nodeVoltage(ic, v, e), vbcV: vb - vc, vsubV: nodeVoltage(ic, v, s) - vc };
-      const caps = transistorCapacitances(charges, op.transistors[k], bias, q.area);
-      const side = q.tail ? 'tail' : 'pair';
-      const piece = (part: RejectionLimitPart, capacitance: Entry[], valueF: number) => {
-        if (valueF !== 0) elements.push({ part, shown: { name: q.name, capacitanceF: valueF }, conductance: [], capacitance });
-      };
-      piece(`${side}-base-emitter`, [...twoTerminal(b, e, caps.baseEmitterF), ...controlled(b, e, b, c, caps.baseEmitterPerVbcF)], caps.baseEmitterF);
-      piece(`${side}-base-collector`, twoTerminal(b, c, caps.baseCollectorF), caps.baseCollectorF);
-      piece(`${side}-collector-substrate`, twoTerminal(c, s, caps.collectorSubstrateF), caps.collectorSubstrateF);
-    });
-  }
+  const charges = chargeParametersOf(ic.transistors, resolvedParameters(cardOf(design.device)), temperatureC);
+  const v = op.voltagesV;
+  ic.transistors.forEach((q, k) => {
+    const own = charges[k];
+    if (!own || own.none) return;
+    const { bi: b, ci: c, ei: e, s, sc } = q;
+    const caps = transistorCapacitances(own, op.transistors[k], junctionVoltages(ic, v, q), q.area);
+    const side = q.tail ? 'tail' : 'pair';
+    const piece = (part: RejectionLimitPart, capacitance: Entry[], valueF: number) => {
+      if (valueF !== 0) elements.push({ part, shown: { name: q.name, capacitanceF: valueF }, conductance: [], capacitance });
+    };
+    piece(`${side}-base-emitter`, [...twoTerminal(b, e, caps.baseEmitterF), ...controlled(b, e, b, c, caps.baseEmitterPerVbcF)], caps.baseEmitterF);
+    piece(`${side}-base-collector`, twoTerminal(b, c, caps.baseCollectorF), caps.baseCollectorF);
+    piece(`${side}-collector-substrate`, twoTerminal(sc, s, caps.collectorSubstrateF), caps.collectorSubstrateF);
+  });
   return { ic, elements, outputs: solved.stage.outputs };
 }
 

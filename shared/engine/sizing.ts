@@ -13,7 +13,7 @@ import { shiftedDesign } from './sign-off-corners';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
 import { BOLTZMANN_J_PER_K, ELEMENTARY_CHARGE_C, NOMINAL_TEMPERATURE_C, ZERO_CELSIUS_K } from './constants';
-import { unhandledTopology, type TailDesign, type TopologyId } from './topologies';
+import { TOPOLOGY_CATALOGUE, unhandledTopology, type TailDesign, type TopologyId } from './topologies';
 import type { AnalyzeResult, Design, ResistorSeries, Spec } from './types';
 
 /** Share of the power budget the sizing aims at, leaving room for corners and snapping (design choice). */
@@ -22,6 +22,10 @@ export const POWER_USE_FRACTION = 0.8;
 export const MAX_TAIL_CURRENT_A = 2e-3;
 /** The Widlar source's reference runs at this multiple of its output current (design choice: VT·ln 5 ≈ 42 mV on RE). */
 export const WIDLAR_REFERENCE_RATIO = 5;
+/** The PTAT source's emitter-area ratio N (common practice: 8, a unit transistor ringed by eight in layout; VT·ln 8 ≈ 54 mV on RE4). */
+export const PTAT_AREA_RATIO = 8;
+/** The PTAT source's start-up current, a share of the tail current (design choice: small, as it is not itself PTAT). */
+export const PTAT_STARTUP_SHARE = 0.02;
 /** Degenerated mirror: emitter-resistor drop aimed at, as a share of the room left at the lowest input common mode. */
 const DEGENERATION_SHARE_OF_ROOM = 0.5;
 /** Degenerated mirror: bounds on that drop, V (common practice: a few VT to about a volt). */
@@ -57,6 +61,8 @@ export const REFERENCE_RATIO: Record<TopologyId, number> = {
   widlar: WIDLAR_REFERENCE_RATIO,
   wilson: 1,
   cascode: 1,
+  // the ΔVBE cell's two branches, each about the tail current (the output area ratio is 1)
+  ptat: 2,
 };
 
 /**
@@ -97,6 +103,17 @@ export type SizingStep =
   | { step: 'degenerated-reference'; handOhm: number; resistanceOhm: number; series: ResistorSeries }
   | { step: 'widlar-reference'; referenceRatio: number; handOhm: number; resistanceOhm: number }
   | { step: 'widlar-emitter'; handOhm: number; resistanceOhm: number; series: ResistorSeries }
+  | {
+      step: 'ptat-cell';
+      /** Q4's emitter area over Q3's. */
+      areaRatio: number;
+      /** The start-up resistor's current as a share of the tail current, and the resistor. */
+      startupShare: number;
+      startupOhm: number;
+      handOhm: number;
+      resistanceOhm: number;
+      series: ResistorSeries;
+    }
   | { step: 'pair-degeneration'; gainDropV: number; neededDropV: number; swingDropFactor: number; resistanceOhm: number; series: ResistorSeries }
   | {
       step: 'temperature-degeneration';
@@ -287,6 +304,16 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
       steps.push({ step: 'widlar-reference', referenceRatio: WIDLAR_REFERENCE_RATIO, handOhm: rrefHand, resistanceOhm: rref }, { step: 'widlar-emitter', handOhm: start, resistanceOhm: re, series });
       return { topology, referenceResistanceOhm: rref, emitterResistanceOhm: re };
     }
+    case 'ptat': {
+      // Each branch of the cell carries the tail current (Q9 is Q3's size): I·RE4 = VT·ln(N) at
+      // the nominal temperature, so the current, and with it gm, rises as T [GM]
+      const startupOhm = snap((vp - vn - vbeV) / (PTAT_STARTUP_SHARE * tailA));
+      const start = (model.thermalVoltageV * Math.log(PTAT_AREA_RATIO)) / tailA;
+      const withRe = (x: number) => withTail({ topology, emitterResistanceOhm: x, startupResistanceOhm: startupOhm, areaRatio: PTAT_AREA_RATIO });
+      const re = snap(tuneResistance(withRe, start, tailCurrent, tailA, -1));
+      steps.push({ step: 'ptat-cell', areaRatio: PTAT_AREA_RATIO, startupShare: PTAT_STARTUP_SHARE, startupOhm, handOhm: start, resistanceOhm: re, series });
+      return { topology, emitterResistanceOhm: re, startupResistanceOhm: startupOhm, areaRatio: PTAT_AREA_RATIO };
+    }
     default:
       return unhandledTopology(topology);
   }
@@ -423,7 +450,9 @@ function solvedAtCurrent(spec: Spec, design: Design): SolvedAtCurrent {
  * or the gain peaking) is sized again without that degeneration: the gain comes first.
  */
 function sizedAt(spec: Spec, topology: TopologyId, nominal: Condition, tailA: number, steps: SizingStep[]): SizedOption {
-  const first = sizedPairAt(spec, topology, nominal, tailA, [...steps], true);
+  // a PTAT tail holds gm over temperature itself: no pair degeneration for it
+  const forTemperature = TOPOLOGY_CATALOGUE[topology]?.currentLaw !== 'ptat';
+  const first = sizedPairAt(spec, topology, nominal, tailA, [...steps], forTemperature);
   const chosen = first.reached || !first.steps.some((s) => s.step === 'temperature-degeneration') ? first : sizedPairAt(spec, topology, nominal, tailA, [...steps], false);
   return { design: chosen.design, steps: chosen.steps };
 }

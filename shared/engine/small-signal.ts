@@ -12,12 +12,12 @@
  */
 import { COLLECTOR_NODES, RAIL_NODES, TAIL_NODE } from './circuit';
 import { readOutput, reducedFrequencyModel, transfersAtOmega, type FrequencyModel, type OutputWeights } from './frequency-response';
-import { chargeParameters, transistorCapacitances } from './junction-charges';
+import { chargeParametersOf, transistorCapacitances } from './junction-charges';
 import type { BjtParameters } from './bjt-parameters';
 import { luFactor, luSolve, zeros } from './linear-solve';
 import {
   createStamp,
-  nodeVoltage,
+  junctionVoltages,
   stampConductance,
   stampControlled,
   stampTransistor,
@@ -137,7 +137,7 @@ function tailOutputResistanceOhm(op: OperatingPoint, tailIndex: number): number 
  * The capacitance matrix: every transistor's capacitances at its bias [SPICE] ngspice bjtacld.c
  * (CBE between internal base and emitter, CBC between internal base and collector, the
  * forward charge's vbc dependence as a transcapacitance from base to emitter, CCS from the
- * internal collector to the substrate), and the circuit's capacitors. Null when all are zero.
+ * substrate junction's node to the substrate), and the circuit's capacitors. Null when all are zero.
  */
 export function capacitanceStamp(op: OperatingPoint, parameters: BjtParameters | null, temperatureC: number): NodeStamp | null {
   const ic = op.circuit;
@@ -148,25 +148,22 @@ export function capacitanceStamp(op: OperatingPoint, parameters: BjtParameters |
     stampConductance(stamp, cap.a, cap.b, cap.capacitanceF);
     any = true;
   }
-  const charges = parameters ? chargeParameters(parameters, temperatureC) : null;
-  if (parameters && charges && !charges.none) {
-    const v = op.voltagesV;
-    for (let k = 0; k < ic.transistors.length; k += 1) {
-      const q = ic.transistors[k];
-      // the junctions sit on the internal nodes (behind RB, RC, RE), the substrate at the negative rail
-      const { bi: b, ci: c, ei: e, s } = q;
-      const vb = nodeVoltage(ic, v, b);
-      const vc = nodeVoltage(ic, v, c);
-      // the transport terms of the device's own evaluation at the solution (the transistor's own model when it has one)
-      const bias = { vbeV: vb - nodeVoltage(ic, v, e), vbcV: vb - vc, vsubV: nodeVoltage(ic, v, s) - vc };
-      const caps = transistorCapacitances(charges, op.transistors[k], bias, q.area);
-      if (caps.baseEmitterF !== 0) stampConductance(stamp, b, e, caps.baseEmitterF);
-      if (caps.baseCollectorF !== 0) stampConductance(stamp, b, c, caps.baseCollectorF);
-      if (caps.collectorSubstrateF !== 0) stampConductance(stamp, c, s, caps.collectorSubstrateF);
-      // d(qbe)/d(vbc): a current jω·C·vbc leaving the internal base into the internal emitter
-      if (caps.baseEmitterPerVbcF !== 0) stampControlled(stamp, b, e, b, c, caps.baseEmitterPerVbcF);
-      any = true;
-    }
+  const charges = chargeParametersOf(ic.transistors, parameters, temperatureC);
+  const v = op.voltagesV;
+  for (let k = 0; k < ic.transistors.length; k += 1) {
+    const q = ic.transistors[k];
+    const own = charges[k];
+    if (!own || own.none) continue;
+    // the junctions sit on the internal nodes (behind RB, RC, RE), the substrate junction on `sc`
+    const { bi: b, ci: c, ei: e, s, sc } = q;
+    // the transport terms of the device's own evaluation at the solution (the transistor's own model when it has one)
+    const caps = transistorCapacitances(own, op.transistors[k], junctionVoltages(ic, v, q), q.area);
+    if (caps.baseEmitterF !== 0) stampConductance(stamp, b, e, caps.baseEmitterF);
+    if (caps.baseCollectorF !== 0) stampConductance(stamp, b, c, caps.baseCollectorF);
+    if (caps.collectorSubstrateF !== 0) stampConductance(stamp, sc, s, caps.collectorSubstrateF);
+    // d(qbe)/d(vbc): a current jω·C·vbc leaving the internal base into the internal emitter
+    if (caps.baseEmitterPerVbcF !== 0) stampControlled(stamp, b, e, b, c, caps.baseEmitterPerVbcF);
+    any = true;
   }
   return any ? stamp : null;
 }

@@ -7,7 +7,7 @@
 import { stageCircuit, type StageCircuit } from './circuit';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { withHardFields } from './convergence-hints';
-import { deviceModel, forwardBeta, type DeviceModel } from './device';
+import { deviceModel, forwardBeta, pnpDeviceOf, type DeviceModel } from './device';
 import { hasModelCard, resolvedParameters } from './bjt-parameters';
 import { ConvergenceError, solveOperatingPoint, type OperatingPoint } from './operating-point';
 import type { Design } from './types';
@@ -18,8 +18,12 @@ const GUESS_LEAST_CURRENT_A = 1e-9;
 /** Starting-guess VBE: the device's VBE at a rough tail-current estimate (rails over the largest resistor). */
 function vbeGuessV(design: Design, model: DeviceModel): number {
   const tail = design.tail;
-  const tailOhm = tail.topology === 'resistor' ? tail.resistanceOhm : tail.referenceResistanceOhm;
-  const currentA = Math.max((design.supply.positiveV - design.supply.negativeV) / (2 * tailOhm), GUESS_LEAST_CURRENT_A);
+  // the PTAT cell: about 3·VT (ln 20) over its resistor; every other tail: the rails over its largest resistor
+  const roughA =
+    tail.topology === 'ptat'
+      ? (3 * model.thermalVoltageV) / tail.emitterResistanceOhm
+      : (design.supply.positiveV - design.supply.negativeV) / (2 * (tail.topology === 'resistor' ? tail.resistanceOhm : tail.referenceResistanceOhm));
+  const currentA = Math.max(roughA, GUESS_LEAST_CURRENT_A);
   return model.thermalVoltageV * Math.log(currentA / model.saturationCurrentA);
 }
 
@@ -38,12 +42,16 @@ export function scaledDevice(device: Design['device'], betaScale = 1, earlyVolta
   return scaled;
 }
 
-/** Models of the transistors whose BF or VAF differ from the stage's device, by name. */
-function ownTransistorModels(circuit: StageCircuit, device: Design['device'], temperatureC: number): Record<string, DeviceModel> {
+/** Models of the transistors whose device differs from the stage's NPN (a mismatched pair transistor's BF or VAF, a PNP's), by name. */
+function ownTransistorModels(circuit: StageCircuit, design: Design, temperatureC: number): Record<string, DeviceModel> {
   const models: Record<string, DeviceModel> = {};
+  let pnpModel: DeviceModel | undefined;
   for (const el of circuit.elements) {
     if (el.kind === 'npn' && (el.betaScale !== undefined || el.earlyVoltageScale !== undefined)) {
-      models[el.name] = deviceModel(scaledDevice(device, el.betaScale, el.earlyVoltageScale), temperatureC);
+      models[el.name] = deviceModel(scaledDevice(design.device, el.betaScale, el.earlyVoltageScale), temperatureC);
+    } else if (el.kind === 'pnp') {
+      pnpModel ??= deviceModel(pnpDeviceOf(design), temperatureC);
+      models[el.name] = pnpModel;
     }
   }
   return models;
@@ -73,7 +81,7 @@ export function solveStageOperatingPoint(design: Design, warmStart?: OperatingPo
     circuit.fixedNodesV[drive2] -= differentialInputV / 2;
   }
   try {
-    const op = solveOperatingPoint(circuit, model, warmStart, ownTransistorModels(circuit, design.device, temperatureC));
+    const op = solveOperatingPoint(circuit, model, warmStart, ownTransistorModels(circuit, design, temperatureC));
     return { model, op, driveNodes: circuit.driveNodes };
   } catch (error) {
     throw error instanceof ConvergenceError ? withHardFields(error, design) : error;

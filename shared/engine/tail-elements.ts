@@ -3,7 +3,7 @@
  * the tail node `t` and the negative rail, named as the catalogue names its parts, each with a
  * hand-analysis starting guess for the solver.
  */
-import { unhandledTopology, type TailDesign } from './topologies';
+import { tailRatio, unhandledTopology, type TailDesign } from './topologies';
 import type { CircuitElement } from './circuit';
 
 const VP = 'vp';
@@ -39,8 +39,20 @@ function resistor(name: string, a: string, b: string, resistanceOhm: number): Ci
   return { kind: 'resistor', name, nodes: [a, b], resistanceOhm, part: 'tail' };
 }
 
-function npn(name: string, collector: string, base: string, emitter: string): CircuitElement {
-  return { kind: 'npn', name, collector, base, emitter, substrate: VN, area: 1, part: 'tail' };
+function npn(name: string, collector: string, base: string, emitter: string, area = 1): CircuitElement {
+  return { kind: 'npn', name, collector, base, emitter, substrate: VN, area, part: 'tail' };
+}
+
+/** A PNP of the tail (its substrate, like every transistor's, at the negative rail). */
+function pnp(name: string, collector: string, base: string, emitter: string): CircuitElement {
+  return { kind: 'pnp', name, collector, base, emitter, substrate: VN, area: 1, part: 'tail' };
+}
+
+/** The PTAT cell's current from I·R = VT·ln(N·I3/I) with I3 = I plus the start-up current, by fixed-point iteration (a guess only). */
+function ptatGuessA(areaRatio: number, emitterOhm: number, startupA: number, vtV: number): number {
+  let currentA = (vtV * Math.log(areaRatio)) / emitterOhm;
+  for (let i = 0; i < 20; i += 1) currentA = (vtV * Math.log((areaRatio * (currentA + startupA)) / currentA)) / emitterOhm;
+  return currentA;
 }
 
 /** Output current of a Widlar source from I·RE = VT·ln(Iref/I), by fixed-point iteration. */
@@ -146,6 +158,31 @@ export function tailElements(tail: TailDesign, ctx: TailGuessContext): TailEleme
         ],
         initialGuessV: { ref: vn + 2 * vbe, m3: vn + vbe, m4: vn + vbe },
         currentGuessA: refA,
+      };
+    }
+    case 'ptat': {
+      // Q3 and Q4 carry about VT·ln(N)/R each (Q3 the start-up current too); the PNP mirror's
+      // diode Q8 sits on Q4's collector; Q9 copies Q3's current times its area
+      const reOhm = tail.emitterResistanceOhm;
+      const areaRatio = tailRatio(tail, 'areaRatio');
+      const outputArea = tailRatio(tail, 'outputAreaRatio');
+      const vtV = ctx.thermalVoltageV ?? GUESS_VT_V;
+      const startupA = Math.max(ctx.positiveV - ctx.negativeV - ctx.vbeGuessV, 0) / tail.startupResistanceOhm;
+      const cellA = ptatGuessA(areaRatio, reOhm, startupA, vtV);
+      const vbe3V = ctx.vbeAtV ? ctx.vbeAtV(cellA + startupA) : ctx.vbeGuessV;
+      const vebV = ctx.vbeAtV ? ctx.vbeAtV(cellA) : ctx.vbeGuessV;
+      return {
+        elements: [
+          pnp('Q7', 'ref', 'p4', VP),
+          pnp('Q8', 'p4', 'p4', VP),
+          resistor('RSU', VP, 'ref', tail.startupResistanceOhm),
+          npn('Q3', 'ref', 'ref', VN),
+          npn('Q4', 'p4', 'ref', 'e4', areaRatio),
+          resistor('RE4', 'e4', VN, reOhm),
+          npn('Q9', T, 'ref', VN, outputArea),
+        ],
+        initialGuessV: { ref: vn + vbe3V, e4: vn + cellA * reOhm, p4: ctx.positiveV - vebV },
+        currentGuessA: outputArea * (cellA + startupA),
       };
     }
     default:

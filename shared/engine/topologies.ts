@@ -11,14 +11,24 @@
 import type { DeviceParams } from './types';
 
 /** Tail topology ids in order of simplicity. */
-export const TOPOLOGIES = ['resistor', 'simple-mirror', 'degenerated-mirror', 'widlar', 'wilson', 'cascode'] as const;
+export const TOPOLOGIES = ['resistor', 'simple-mirror', 'degenerated-mirror', 'widlar', 'wilson', 'cascode', 'ptat'] as const;
 export type TopologyId = (typeof TOPOLOGIES)[number];
 
 /** The device family a topology is built for (the pair's and the tail's transistors); bipolar NPN only today. */
 export type DeviceFamily = NonNullable<DeviceParams['family']>;
 
 /** The design fields (ohms) a tail's resistors take their values from. */
-export type TailField = 'resistanceOhm' | 'referenceResistanceOhm' | 'emitterResistanceOhm';
+export type TailField = 'resistanceOhm' | 'referenceResistanceOhm' | 'emitterResistanceOhm' | 'startupResistanceOhm';
+
+/** The design fields (pure numbers) a tail's transistor sizes take their values from: emitter areas relative to a unit transistor. */
+export type TailRatioField = 'areaRatio' | 'outputAreaRatio';
+
+/** An emitter-area ratio of the tail: its field, its role, and its default when the design may leave it out. */
+export interface TailRatio {
+  readonly field: TailRatioField;
+  readonly role: string;
+  readonly default?: number;
+}
 
 /** Resistors of the tail sharing one value: their reference designators (as in the netlist and the schematic), the field, their role. */
 export interface TailResistor {
@@ -27,10 +37,11 @@ export interface TailResistor {
   readonly role: string;
 }
 
-/** A transistor of the tail: its reference designator and its role. */
+/** A transistor of the tail: its reference designator, its role, and its type when it is not the pair's NPN. */
 export interface TailTransistor {
   readonly name: string;
   readonly role: string;
+  readonly type?: 'pnp';
 }
 
 /**
@@ -54,6 +65,17 @@ export interface Topology {
   readonly name: string;
   /** Resistors with a design value, in the design schema's field order. */
   readonly resistors: readonly TailResistor[];
+  /** Emitter-area ratios with a design value, after the resistors in the design schema. */
+  readonly ratios: readonly TailRatio[];
+  /** A second device the tail needs beside the NPN (`device.pnp`), if any: a spec lists such a tail only by choice. */
+  readonly needsDevice?: 'pnp';
+  /**
+   * How the tail current is meant to move with temperature: held (every mirror, the resistor) or
+   * in proportion to absolute temperature ('ptat': gm = IC/VT, and a resistor-loaded gain, held).
+   * The drift check judges the departure from this law; sizing needs no pair degeneration for
+   * temperature with a 'ptat' tail.
+   */
+  readonly currentLaw?: 'ptat';
   readonly transistors: readonly TailTransistor[];
   readonly routLimit: RoutLimit;
   /** The tail's circuit in words, each `{field}` to be filled with the formatted value (the schematic's description). */
@@ -71,6 +93,7 @@ const CATALOGUE = {
     name: 'Resistor',
     resistors: [{ names: ['RT'], field: 'resistanceOhm', role: 'Tail resistor, t to V−' }],
     transistors: [],
+    ratios: [],
     routLimit: { form: 'resistor', field: 'resistanceOhm' },
     circuitWords: 'resistor RT {resistanceOhm} from t to V−',
     plotLine: { tone: 'ink-soft', dash: [2, 3] },
@@ -84,6 +107,7 @@ const CATALOGUE = {
       { name: 'Q3', role: 'Reference, diode-connected' },
       { name: 'Q4', role: 'Output, collector at t' },
     ],
+    ratios: [],
     routLimit: { form: 'ro', transistor: 'Q4' },
     circuitWords: "Q3 diode-connected, fed from V+ through RREF {referenceResistanceOhm}; Q4 shares Q3's base, collector at t; both emitters at V−",
     plotLine: { tone: 'note', dash: [8, 4] },
@@ -100,6 +124,7 @@ const CATALOGUE = {
       { name: 'Q3', role: 'Reference, diode-connected, emitter through RE3' },
       { name: 'Q4', role: 'Output, collector at t, emitter through RE4' },
     ],
+    ratios: [],
     routLimit: { form: 'degenerated-ro', transistor: 'Q4', emitterField: 'emitterResistanceOhm' },
     circuitWords:
       "Q3 diode-connected, fed from V+ through RREF {referenceResistanceOhm}; Q4 shares Q3's base, collector at t; emitter resistors RE3 and RE4 {emitterResistanceOhm} each to V−",
@@ -117,6 +142,7 @@ const CATALOGUE = {
       { name: 'Q3', role: 'Reference, diode-connected' },
       { name: 'Q4', role: 'Output, collector at t, emitter through RE4' },
     ],
+    ratios: [],
     routLimit: { form: 'degenerated-ro', transistor: 'Q4', emitterField: 'emitterResistanceOhm' },
     circuitWords:
       "Q3 diode-connected, fed from V+ through RREF {referenceResistanceOhm}, emitter at V−; Q4 shares Q3's base, collector at t, emitter through RE4 {emitterResistanceOhm} to V−",
@@ -132,6 +158,7 @@ const CATALOGUE = {
       { name: 'Q4', role: 'Diode-connected at x, carries the output current' },
       { name: 'Q5', role: "Output, collector at t, base at Q3's collector" },
     ],
+    ratios: [],
     routLimit: { form: 'beta-ro-half', transistor: 'Q5' },
     circuitWords:
       "Q3 collector fed from V+ through RREF {referenceResistanceOhm}, emitter at V−; Q5 collector at t, base at Q3's collector, emitter at node x; Q4 diode-connected at x, emitter at V−; Q3's base tied to x",
@@ -148,10 +175,37 @@ const CATALOGUE = {
       { name: 'Q5', role: 'Upper reference, diode-connected on Q3, fed by RREF' },
       { name: 'Q6', role: "Cascode on Q4, base at Q5's base, collector at t" },
     ],
+    ratios: [],
     routLimit: { form: 'beta-ro-half', transistor: 'Q6' },
     circuitWords:
       "mirror Q3 (diode-connected) and Q4 at the bottom, emitters at V−; Q5 diode-connected on Q3, fed from V+ through RREF {referenceResistanceOhm}; Q6 on Q4 with its base tied to Q5's base, collector at t",
     plotLine: { tone: 'accent', dash: [] },
+  },
+  ptat: {
+    id: 'ptat',
+    family: 'npn',
+    name: 'PTAT (constant-gm) source',
+    resistors: [
+      { names: ['RE4'], field: 'emitterResistanceOhm', role: 'ΔVBE emitter resistor of Q4: sets the current, VT·ln(N)/R' },
+      { names: ['RSU'], field: 'startupResistanceOhm', role: "Start-up, V+ to Q3's collector" },
+    ],
+    ratios: [
+      { field: 'areaRatio', role: "Q4's emitter area over Q3's (N)" },
+      { field: 'outputAreaRatio', role: "Q9's emitter area over Q3's", default: 1 },
+    ],
+    needsDevice: 'pnp',
+    currentLaw: 'ptat',
+    transistors: [
+      { name: 'Q3', role: 'ΔVBE cell, diode-connected at V−' },
+      { name: 'Q4', role: 'ΔVBE cell, N× area, emitter through RE4' },
+      { name: 'Q7', role: 'PNP mirror output, feeds Q3', type: 'pnp' },
+      { name: 'Q8', role: "PNP mirror, diode-connected on Q4's collector", type: 'pnp' },
+      { name: 'Q9', role: "Output, shares Q3's base, collector at t" },
+    ],
+    routLimit: { form: 'ro', transistor: 'Q9' },
+    circuitWords:
+      "Q3 diode-connected, emitter at V−; Q4 ({areaRatio}× Q3's area) shares Q3's base, emitter through RE4 {emitterResistanceOhm} to V−; PNP mirror from V+, Q8 diode-connected on Q4's collector, Q7 feeding Q3; start-up RSU {startupResistanceOhm} from V+ to Q3's collector; Q9 ({outputAreaRatio}× area) shares Q3's base, collector at t",
+    plotLine: { tone: 'ink', dash: [3, 2, 8, 2] },
   },
 } as const satisfies { readonly [K in TopologyId]: Topology & { readonly id: K } };
 
@@ -161,8 +215,17 @@ export const TOPOLOGY_CATALOGUE: Readonly<Record<TopologyId, Topology>> = CATALO
 /** The design fields of a topology's tail. */
 type TailFieldsOf<K extends TopologyId> = (typeof CATALOGUE)[K]['resistors'][number]['field'];
 
-/** The tail of one topology in a design: its id and the value of each of its resistor fields, ohms. */
-export type TailOf<K extends TopologyId> = { topology: K } & { [F in TailFieldsOf<K>]: number } extends infer T ? { [P in keyof T]: T[P] } : never;
+/** The area-ratio fields of a topology's tail: required ones, and those with a default. */
+type RatiosOf<K extends TopologyId> = (typeof CATALOGUE)[K]['ratios'][number];
+type RequiredRatioFieldsOf<K extends TopologyId> = Exclude<RatiosOf<K>, { default: number }>['field'];
+type DefaultedRatioFieldsOf<K extends TopologyId> = Extract<RatiosOf<K>, { default: number }>['field'];
+
+/** The tail of one topology in a design: its id, the value of each of its resistor fields (ohms) and of its area ratios. */
+export type TailOf<K extends TopologyId> = { topology: K } & { [F in TailFieldsOf<K>]: number } & { [F in RequiredRatioFieldsOf<K>]: number } & {
+  [F in DefaultedRatioFieldsOf<K>]?: number;
+} extends infer T
+  ? { [P in keyof T]: T[P] }
+  : never;
 
 /** The tail element of a design, one member per topology (derived from the catalogue). */
 export type TailDesign = { [K in TopologyId]: TailOf<K> }[TopologyId];
@@ -175,6 +238,20 @@ export function isTopologyId(value: unknown): value is TopologyId {
 /** A topology's design fields in order (each resistor field once). */
 export function tailFieldsOf(id: TopologyId): TailField[] {
   return [...new Set(TOPOLOGY_CATALOGUE[id].resistors.map((r) => r.field))];
+}
+
+/** A topology's area-ratio fields in order. */
+export function tailRatioFieldsOf(id: TopologyId): TailRatioField[] {
+  return TOPOLOGY_CATALOGUE[id].ratios.map((r) => r.field);
+}
+
+/** The value of one of a tail's area ratios: the design's, or the catalogue's default. */
+export function tailRatio(tail: TailDesign, field: TailRatioField): number {
+  const given = (tail as Partial<Record<TailRatioField, number>>)[field];
+  if (typeof given === 'number') return given;
+  const fallback = TOPOLOGY_CATALOGUE[tail.topology].ratios.find((r) => r.field === field)?.default;
+  if (fallback === undefined) throw new Error(`The ${tail.topology} tail has no ${field}`);
+  return fallback;
 }
 
 /** The value of one of a tail's resistor fields, ohms. */

@@ -25,7 +25,7 @@
  * time's resolution, or `maxSteps` steps in all.
  */
 import type { DeviceModel } from './device';
-import { chargeParameters, transistorCapacitances, type ChargeParameters } from './junction-charges';
+import { chargeParametersOf, transistorCapacitances, type ChargeParameters } from './junction-charges';
 import { createStamp, junctionVoltages, nodeVoltage, stampConductance, stampControlled, stampTransistor, type IndexedCircuit, type NodeRef, type NodeStamp } from './node-system';
 import { ConvergenceError, limitJunctionV, newtonStep } from './operating-point';
 import { transistorCharges } from './stored-charge';
@@ -99,8 +99,9 @@ export function integrateTransient(
   run: TransientRun,
 ): { steps: number; endS: number } {
   const ic: IndexedCircuit = { ...circuit, fixedV: circuit.fixedV.slice() };
-  const charges = parameters ? chargeParameters(parameters, temperatureC) : null;
-  const deviceCharges = charges && !charges.none ? charges : null;
+  // each transistor's own charges (a PNP's card may differ from the NPN's); none at all: null
+  const perTransistor = chargeParametersOf(ic.transistors, parameters, temperatureC).map((c) => (c && !c.none ? c : null));
+  const deviceCharges = perTransistor.some((c) => c !== null) ? perTransistor : null;
   const chargeSet = storedCharges(ic, model, deviceCharges);
   const stamp = createStamp(ic);
   run.fixedVAt(0, ic.fixedV);
@@ -215,18 +216,26 @@ function lagrange(times: readonly number[], i: number, tS: number): number {
   return w;
 }
 
-/** The circuit's stored charges: its capacitors, and each transistor's when the device stores charge. */
-function storedCharges(ic: IndexedCircuit, model: DeviceModel, charges: ChargeParameters | null): ChargeSet {
+/**
+ * The circuit's stored charges: its capacitors, and three per transistor when any stores charge
+ * (zeros for one whose card does not), each transistor's in its model's frame (a PNP's with the
+ * polarity its junction voltages have there: stampCharge turns them round).
+ */
+function storedCharges(ic: IndexedCircuit, model: DeviceModel, charges: (ChargeParameters | null)[] | null): ChargeSet {
   return {
     values(v) {
-      const out = ic.capacitors.map((cap) => cap.capacitanceF * (nodeVoltage(ic, v as number[], cap.a) - nodeVoltage(ic, v as number[], cap.b)));
+      const out = ic.capacitors.map((cap) => cap.capacitanceF * (nodeVoltage(ic, v, cap.a) - nodeVoltage(ic, v, cap.b)));
       if (!charges) return out;
-      for (const q of ic.transistors) {
-        const { vbeV, vbcV } = junctionVoltages(ic, v as number[], q);
-        const vsubV = nodeVoltage(ic, v as number[], q.s) - nodeVoltage(ic, v as number[], q.ci);
-        const held = transistorCharges(charges, (q.model ?? model).evaluate(vbeV, vbcV, q.area), { vbeV, vbcV, vsubV }, q.area);
+      ic.transistors.forEach((q, i) => {
+        const own = charges[i];
+        if (!own) {
+          out.push(0, 0, 0);
+          return;
+        }
+        const bias = junctionVoltages(ic, v, q);
+        const held = transistorCharges(own, (q.model ?? model).evaluate(bias.vbeV, bias.vbcV, q.area), bias, q.area);
         out.push(held.baseEmitterC, held.baseCollectorC, held.substrateC);
-      }
+      });
       return out;
     },
   };
@@ -236,8 +245,25 @@ function storedCharges(ic: IndexedCircuit, model: DeviceModel, charges: ChargePa
  * Stamps a charge's current a0·q + history leaving `a` into `b`, linearised at the controlling
  * voltages: a0·g·(x − x0) for x = v(a) − v(b) (g = ∂q/∂x at x0), plus a0·g2·(x2 − x2₀) for a
  * second controlling pair when `g2F` ≠ 0 (positional, so Newton's inner loop allocates nothing).
+ * `polarity` −1: q, the history and x0, x2₀ are in a PNP's model frame (its voltages and charges
+ * turned round): the current is then −(a0·q + history + a0·g·(−x − x0)), whose conductances are
+ * the same and whose constant part changes sign [SPICE] (ngspice bjtload.c, by the model's type).
  */
-function stampCharge(stamp: NodeStamp, a: NodeRef, b: NodeRef, a0: number, qC: number, historyA: number, gF: number, x0V: number, plus2: NodeRef = a, minus2: NodeRef = b, g2F = 0, x20V = 0): void {
+function stampCharge(
+  stamp: NodeStamp,
+  a: NodeRef,
+  b: NodeRef,
+  a0: number,
+  qC: number,
+  historyA: number,
+  gF: number,
+  x0V: number,
+  plus2: NodeRef = a,
+  minus2: NodeRef = b,
+  g2F = 0,
+  x20V = 0,
+  polarity: 1 | -1 = 1,
+): void {
   let constantA = a0 * qC + historyA;
   if (gF !== 0) {
     stampControlled(stamp, a, b, a, b, a0 * gF);
@@ -247,6 +273,7 @@ function stampCharge(stamp: NodeStamp, a: NodeRef, b: NodeRef, a0: number, qC: n
     stampControlled(stamp, a, b, plus2, minus2, a0 * g2F);
     constantA -= a0 * g2F * x20V;
   }
+  constantA *= polarity;
   if (a >= 0) stamp.rhs[a] -= constantA;
   if (b >= 0) stamp.rhs[b] += constantA;
 }
@@ -259,7 +286,7 @@ function stampCharge(stamp: NodeStamp, a: NodeRef, b: NodeRef, a0: number, qC: n
 function newtonAt(
   ic: IndexedCircuit,
   model: DeviceModel,
-  charges: ChargeParameters | null,
+  charges: (ChargeParameters | null)[] | null,
   stamp: NodeStamp,
   lastV: readonly number[],
   startV: number[],
@@ -295,15 +322,17 @@ function newtonAt(
       vbcOld[i] = vbcV;
       const ev = own.evaluate(vbeV, vbcV, q.area);
       stampTransistor(stamp, q, ev, vbeV, vbcV);
-      if (!charges) return;
-      const vsubV = nodeVoltage(ic, v, q.s) - nodeVoltage(ic, v, q.ci);
+      const ownCharges = charges?.[i];
+      if (!ownCharges) return;
+      const vsubV = nodeVoltage(ic, v, q.s) - nodeVoltage(ic, v, q.sc);
       const bias = { vbeV, vbcV, vsubV };
-      const held = transistorCharges(charges, ev, bias, q.area);
-      const caps = transistorCapacitances(charges, ev, bias, q.area);
+      const held = transistorCharges(ownCharges, ev, bias, q.area);
+      const caps = transistorCapacitances(ownCharges, ev, bias, q.area);
       const at = ic.capacitors.length + 3 * i;
-      stampCharge(stamp, q.bi, q.ei, a0, held.baseEmitterC, historyA[at], caps.baseEmitterF, vbeV, q.bi, q.ci, caps.baseEmitterPerVbcF, vbcV);
-      stampCharge(stamp, q.bi, q.ci, a0, held.baseCollectorC, historyA[at + 1], caps.baseCollectorF, vbcV);
-      stampCharge(stamp, q.s, q.ci, a0, held.substrateC, historyA[at + 2], caps.collectorSubstrateF, vsubV);
+      stampCharge(stamp, q.bi, q.ei, a0, held.baseEmitterC, historyA[at], caps.baseEmitterF, vbeV, q.bi, q.ci, caps.baseEmitterPerVbcF, vbcV, q.polarity);
+      stampCharge(stamp, q.bi, q.ci, a0, held.baseCollectorC, historyA[at + 1], caps.baseCollectorF, vbcV, q.bi, q.ci, 0, 0, q.polarity);
+      // the substrate junction takes its sign from type × BJTsubs, +1 for either default [SPICE]: not turned round
+      stampCharge(stamp, q.s, q.sc, a0, held.substrateC, historyA[at + 2], caps.collectorSubstrateF, vsubV);
     });
     const step = newtonStep(stamp, v, NEWTON_TOLERANCE_V, NEWTON_RELATIVE_TOLERANCE);
     if (!step) return null;

@@ -269,6 +269,8 @@ export interface OptionFacts {
   powerMarginW: number;
   /** Tail-current change over the temperature range, per cent of the nominal. */
   tailCurrentDriftPercent: number;
+  /** What the drift is measured against: '' (the current itself), or the PTAT law's words for a PTAT tail. */
+  tailCurrentDriftBasis: string;
   tailCurrentDriftLimitPercent: number;
   tailCurrentDriftMarginPercent: number;
   temperatureMinC: number;

@@ -9,7 +9,10 @@
 // supply rejection, input resistance, noise, slew rate), the spec's trade-off targets and the
 // tail-current window; the worst corner of every check now searched over the sign-off corners
 // (rails, current gain, resistor tempco) as well as input common mode × temperature: figures changed meaning.
-export const ENGINE_VERSION = '3.0.0';
+// 3.1.0: the ptat tail (its PNP mirror from device.pnp); each transistor's own card brings its own
+// RB, RE, RC; the reverse transport current's IS takes the area twice as ngspice's does (a figure
+// of a design with an area other than 1, i.e. an IS mismatch, moves by far under its tolerance).
+export const ENGINE_VERSION = '3.1.0';
 
 /** The sentence every output carries: these are estimates. */
 export const ESTIMATE_NOTICE =

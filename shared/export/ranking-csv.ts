@@ -6,6 +6,7 @@
  * precision is in export.json.
  */
 import type { RecommendResult } from '../engine/recommend';
+import { tailFieldsOf, tailRatio, tailRatioFieldsOf, tailValueOhm, type TailDesign } from '../engine/topologies';
 import { spreadsheetCell } from '../text/plain-text';
 
 type Option = RecommendResult['options'][number];
@@ -45,7 +46,7 @@ const COLUMNS: [header: string, value: (o: Option) => string | number | boolean 
   ['swing_margin_v', (o) => sig(o.figures?.swingMarginV)],
   ['collector_resistance_ohm', (o) => o.design?.collectorResistanceOhm],
   ['pair_emitter_resistance_ohm', (o) => o.design?.pairEmitterResistanceOhm ?? 0],
-  ['tail_values', (o) => (o.design ? tailValues(o.design.tail as unknown as Record<string, unknown>) : null)],
+  ['tail_values', (o) => (o.design ? tailValues(o.design.tail) : null)],
   ['blocking_checks_short', (o) => o.checks.filter((c) => !c.passed && c.severity === 'blocking').map((c) => c.rule).join(' ')],
   ['advisory_checks_not_met', (o) => o.checks.filter((c) => !c.passed && c.severity === 'advisory').map((c) => c.rule).join(' ')],
   ['rejection_limits_at_spec_frequency_percent', (o) => rejectionLimitShares(o)],
@@ -84,11 +85,15 @@ function rejectionLimitShares(o: Option): string | null {
   return limits ? limits.map((l) => `${l.part}=${toDecimals(l.sharePercent, 1)}`).join(' ') : null;
 }
 
-function tailValues(tail: Record<string, unknown>): string {
-  return Object.entries(tail)
-    .filter(([key]) => key !== 'topology')
-    .map(([key, value]) => `${key}=${String(value)}`)
-    .join(' ');
+/**
+ * The tail's values by their design field: resistors in ohms (the field names say so), then the
+ * emitter-area ratios as plain numbers, the catalogue's default written out where the design
+ * leaves one out ("emitterResistanceOhm=340 startupResistanceOhm=2940000 areaRatio=8 outputAreaRatio=1").
+ */
+function tailValues(tail: TailDesign): string {
+  const resistors = tailFieldsOf(tail.topology).map((field) => `${field}=${String(tailValueOhm(tail, field))}`);
+  const ratios = tailRatioFieldsOf(tail.topology).map((field) => `${field}=${String(tailRatio(tail, field))}`);
+  return [...resistors, ...ratios].join(' ');
 }
 
 /**

@@ -286,7 +286,10 @@ function jsonItemToInput(item: unknown, rowNumber: number): RawRow {
 // ---------------------------------------------------------------------------------------------
 // Validation
 
-/** "/supply/positiveV" -> "supply.positiveV"; in a CSV, an item of a list is reported at its column. */
+/**
+ * "/supply/positiveV" -> "supply.positiveV"; in a CSV, an item of a list is reported at its
+ * column, and a group that has no column of its own (a missing `device.pnp`) at its first column.
+ */
 function fieldOf(pointer: string, format: SpecFileFormat): string {
   const segments = pointer
     .split('/')
@@ -294,6 +297,8 @@ function fieldOf(pointer: string, format: SpecFileFormat): string {
     .map((s) => s.replace(/~1/g, '/').replace(/~0/g, '~'));
   const dotted = segments.join('.');
   if (format === 'json') return dotted;
+  const firstOfGroup = columnNamed(dotted) ? undefined : SPEC_CSV_COLUMNS.find((c) => c.name.startsWith(`${dotted}.`));
+  if (firstOfGroup) return firstOfGroup.name;
   for (let n = segments.length; n > 0; n -= 1) {
     const column = columnNamed(segments.slice(0, n).join('.'));
     if (column) return column.name;

@@ -139,6 +139,55 @@ function withModelProperty(device: SchemaNode): Record<string, SchemaNode> {
 
 const WITHOUT_MODEL = { not: { required: ['model'] } };
 
+/**
+ * `device.pnp`: the PNP transistor some tails need (the `ptat` tail's mirror), as the NPN device
+ * is given: IS, BF, VAF, or a `model` card of the same parameters. Optional; a design or spec
+ * whose tail has a PNP must give it (shared/validation/cross-field-rules.ts).
+ */
+export function pnpDeviceSchema(): SchemaNode {
+  return {
+    type: 'object',
+    title: 'PNP transistor',
+    description:
+      "The PNP transistor of tails that need one (the PTAT tail's mirror), SPICE's Gummel-Poon model as for the NPN: current gain, Early voltage and saturation current, or a model card. Needed only when such a tail is chosen.",
+    additionalProperties: false,
+    properties: {
+      beta: {
+        type: 'number',
+        title: 'PNP current gain (beta)',
+        description: 'Forward current gain BF of the PNP, a ratio (A/A). Typical small-signal PNP: 50 to 300.',
+        'x-unit': 'A/A',
+        minimum: 10,
+        maximum: 2000,
+      },
+      earlyVoltageV: {
+        type: 'number',
+        title: 'PNP Early voltage',
+        description: 'Forward Early voltage VAF of the PNP, in volts (V), as SPICE writes it (positive). 0 means infinite (no Early effect); otherwise 1 to 1000 V.',
+        'x-unit': 'V',
+        minimum: 0,
+        maximum: 1000,
+        not: { exclusiveMinimum: 0, exclusiveMaximum: 1 },
+      },
+      saturationCurrentA: {
+        type: 'number',
+        title: 'PNP saturation current IS',
+        description: 'Transport saturation current IS of the PNP at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from a VBE of 0.65 V at 1 mA.',
+        'x-unit': 'A',
+        minimum: 1e-20,
+        maximum: 1e-9,
+      },
+      model: { ...deviceModelSchema(), title: 'PNP SPICE model card' },
+    },
+  };
+}
+
+/** A device schema's properties with `pnp` (after `model`). */
+function withPnpProperty(properties: Record<string, SchemaNode>): Record<string, SchemaNode> {
+  const { pnp: _pnp, ...rest } = properties;
+  return { ...rest, pnp: pnpDeviceSchema() };
+}
+
 /** A copy of the design schema with `device.model`; `beta` required only without a card. */
 export function designSchemaWithDeviceModel(designSchema: SchemaNode): SchemaNode {
   const properties = propertiesOf(designSchema);
@@ -148,7 +197,7 @@ export function designSchemaWithDeviceModel(designSchema: SchemaNode): SchemaNod
     ...designSchema,
     properties: {
       ...properties,
-      device: { ...rest, properties: withModelProperty(device), if: WITHOUT_MODEL, then: { required: ['beta'] } },
+      device: { ...rest, properties: withPnpProperty(withModelProperty(device)), if: WITHOUT_MODEL, then: { required: ['beta'] } },
     },
   };
 }
@@ -169,5 +218,5 @@ export function specSchemaWithDeviceModel(specSchema: SchemaNode): SchemaNode {
     if (fallback !== undefined) deviceProperties[field] = { ...deviceProperties[field], default: fallback };
   }
   const rest = Object.fromEntries(Object.entries(device).filter(([key]) => key !== 'properties'));
-  return { ...specSchema, properties: { ...properties, device: { ...rest, properties: deviceProperties } } };
+  return { ...specSchema, properties: { ...properties, device: { ...rest, properties: withPnpProperty(deviceProperties) } } };
 }

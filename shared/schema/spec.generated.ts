@@ -187,6 +187,160 @@ export interface Spec {
      * Standard deviation of the relative Early-voltage (VAF) difference between the two pair transistors, dimensionless: 0.05 is 5 %. A few per cent for a matched pair, more for separate parts (common practice, from memory).
      */
     earlyVoltageMismatchSigma: number;
+    /**
+     * The PNP transistor of tails that need one (the PTAT tail's mirror), SPICE's Gummel-Poon model as for the NPN: current gain, Early voltage and saturation current, or a model card. Needed only when such a tail is chosen.
+     */
+    pnp?: {
+      /**
+       * Forward current gain BF of the PNP, a ratio (A/A). Typical small-signal PNP: 50 to 300.
+       */
+      beta?: number;
+      /**
+       * Forward Early voltage VAF of the PNP, in volts (V), as SPICE writes it (positive). 0 means infinite (no Early effect); otherwise 1 to 1000 V.
+       */
+      earlyVoltageV?: number;
+      /**
+       * Transport saturation current IS of the PNP at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from a VBE of 0.65 V at 1 mA.
+       */
+      saturationCurrentA?: number;
+      /**
+       * The transistor's Gummel-Poon parameters by their SPICE names, SI units; a parameter left out takes SPICE's default. When given, this card is the device: current gain, Early voltage and saturation current may be left out, and where given must equal BF, VAF and IS.
+       */
+      model?: {
+        /**
+         * Transport saturation current, in amperes (A); 1e-20 or more, up to 1e-9. Left out: 1e-16 (SPICE's default).
+         */
+        IS?: number;
+        /**
+         * Ideal maximum forward current gain, a ratio (A/A); 1 or more, up to 10000. Left out: 100 (SPICE's default).
+         */
+        BF?: number;
+        /**
+         * Forward current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).
+         */
+        NF?: number;
+        /**
+         * Forward Early voltage, in volts (V); 0 (infinite) or 1 to 10000. Left out: infinite (SPICE's default).
+         */
+        VAF?: number;
+        /**
+         * Corner of forward gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).
+         */
+        IKF?: number;
+        /**
+         * Base-emitter leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).
+         */
+        ISE?: number;
+        /**
+         * Base-emitter leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 1.5 (SPICE's default).
+         */
+        NE?: number;
+        /**
+         * Ideal maximum reverse current gain, a ratio (A/A); more than 0, up to 10000. Left out: 1 (SPICE's default).
+         */
+        BR?: number;
+        /**
+         * Reverse current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).
+         */
+        NR?: number;
+        /**
+         * Reverse Early voltage, in volts (V); 0 (infinite) or 0.1 to 10000. Left out: infinite (SPICE's default).
+         */
+        VAR?: number;
+        /**
+         * Corner of reverse gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).
+         */
+        IKR?: number;
+        /**
+         * Base-collector leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).
+         */
+        ISC?: number;
+        /**
+         * Base-collector leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 2 (SPICE's default).
+         */
+        NC?: number;
+        /**
+         * Base resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).
+         */
+        RB?: number;
+        /**
+         * Emitter resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).
+         */
+        RE?: number;
+        /**
+         * Collector resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).
+         */
+        RC?: number;
+        /**
+         * Base-emitter zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).
+         */
+        CJE?: number;
+        /**
+         * Base-emitter built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).
+         */
+        VJE?: number;
+        /**
+         * Base-emitter junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).
+         */
+        MJE?: number;
+        /**
+         * Base-collector zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).
+         */
+        CJC?: number;
+        /**
+         * Base-collector built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).
+         */
+        VJC?: number;
+        /**
+         * Base-collector junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).
+         */
+        MJC?: number;
+        /**
+         * Collector-substrate zero-bias capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).
+         */
+        CJS?: number;
+        /**
+         * Substrate junction built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).
+         */
+        VJS?: number;
+        /**
+         * Substrate junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0 (SPICE's default).
+         */
+        MJS?: number;
+        /**
+         * Forward-bias depletion capacitance coefficient, dimensionless; 0 or more, up to 0.95. Left out: 0.5 (SPICE's default).
+         */
+        FC?: number;
+        /**
+         * Ideal forward transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).
+         */
+        TF?: number;
+        /**
+         * Ideal reverse transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).
+         */
+        TR?: number;
+        /**
+         * Energy gap for the temperature effect on IS, in electronvolts (eV); 0.1 or more, up to 4. Left out: 1.11 (SPICE's default).
+         */
+        EG?: number;
+        /**
+         * Temperature exponent for IS, dimensionless; -10 or more, up to 10. Left out: 3 (SPICE's default).
+         */
+        XTI?: number;
+        /**
+         * Forward and reverse beta temperature exponent, dimensionless; -5 or more, up to 5. Left out: 0 (SPICE's default).
+         */
+        XTB?: number;
+        /**
+         * Flicker-noise coefficient, dimensionless; 0 or more, up to 0.001. Left out: 0 (SPICE's default).
+         */
+        KF?: number;
+        /**
+         * Flicker-noise exponent, dimensionless; 0.1 or more, up to 4. Left out: 1 (SPICE's default).
+         */
+        AF?: number;
+      };
+    };
   };
   /**
    * The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.
@@ -413,7 +567,7 @@ export interface Spec {
    *
    * @minItems 1
    */
-  topologies: ('resistor' | 'simple-mirror' | 'degenerated-mirror' | 'widlar' | 'wilson' | 'cascode')[];
+  topologies: ('resistor' | 'simple-mirror' | 'degenerated-mirror' | 'widlar' | 'wilson' | 'cascode' | 'ptat')[];
   /**
    * Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.
    */

@@ -135,6 +135,8 @@ export function sizingNote(s: SizingStep): string {
       return `RREF for a reference current of ${s.referenceRatio}× the tail current, (V+ − V− − VBE)/Iref${hand(s.handOhm)}, snapped to ${ohms(s.resistanceOhm)}.`;
     case 'widlar-emitter':
       return `RE from Iout·RE = VT·ln(Iref/Iout)${hand(s.handOhm)}, refined by solving the stage, snapped to ${ohms(s.resistanceOhm)} (${s.series}).`;
+    case 'ptat-cell':
+      return `PTAT (constant-gm) cell: Q4 at ${s.areaRatio}× Q3's emitter area, RE4 from Itail·RE4 = VT·ln(N)${hand(s.handOhm)}, refined by solving the stage (base currents, the start-up current, the PNP mirror's Early effect), snapped to ${ohms(s.resistanceOhm)} (${s.series}); the tail current then rises in proportion to absolute temperature, so gm = IC/VT, and a resistor-loaded gain, hold over temperature. Start-up RSU ${ohms(s.startupOhm)} feeds about ${Math.round(s.startupShare * 100)} % of the tail current into Q3.`;
     case 'temperature-degeneration':
       return `With gm alone the gain would move by ±${s.spreadPercent.toFixed(1)} % from ${signedFigure(s.temperatureMinC, '°C')} to ${signedFigure(s.temperatureMaxC, '°C')} (re = VT/IC grows with T), more than the ±${s.allowedPercent.toFixed(1)} % of the tolerance the sizing lets temperature take: pair emitter degeneration RE ≈ (re(Tmax) − re(Tmin))/(2·${s.allowedPercent.toFixed(1)} %) − re, snapped to ${ohms(s.resistanceOhm)} (${s.series}), so the gain rests on RC/(RE + re).`;
     case 'pair-degeneration':

@@ -1,6 +1,6 @@
 /**
  * The one figure formatter for text people read: decibels, per cent, percentage points, signed
- * margins and differences, tolerances. The app's tables and charts, the report, the measurement
+ * margins and differences, tolerances, size ratios. The app's tables and charts, the report, the measurement
  * comparison, the audit trail and the reason templates all print figures through it, so a figure
  * reads the same everywhere. Formatting is the edges' job, never the engine's.
  *
@@ -115,6 +115,11 @@ export function formatMargin(value: number, unit: string | undefined): string {
 export function formatTolerance(tolerance: number, unit: string): string {
   if (unit === '%' || unit === 'dB') return `±${String(tolerance)} ${unit}`;
   return `±${formatQuantity(tolerance, unit)}`;
+}
+
+/** A ratio of sizes (an emitter area over a unit transistor's): "8×", "1.5×", never a unit of its own. */
+export function formatRatio(value: number, digits = 3): string {
+  return `${formatQuantity(value, '1', digits)}×`;
 }
 
 /** A plain number with `digits` significant digits, zeros kept ("23.0", "6.29", "177"); engineering form past 1000. */

@@ -8,5 +8,5 @@ export { UNIT_SYMBOLS, unitSymbolFor, type UnitSymbol } from './unit-symbols';
 export { parseQuantity, type ParseQuantityResult } from './parse-quantity';
 export { formatQuantity } from './format-quantity';
 export { E_SERIES, isOnSeries, seriesTolerance, snapToSeries } from './e-series';
-export { formatDb, formatDeviationPercent, formatFigure, formatFixed, formatMargin, formatPercent, formatSignedQuantity, formatSignificant, formatTargetDb, formatTolerance } from './figures';
+export { formatDb, formatDeviationPercent, formatFigure, formatFixed, formatMargin, formatPercent, formatRatio, formatSignedQuantity, formatSignificant, formatTargetDb, formatTolerance } from './figures';
 export { formatSpiceNumber, parseSpiceNumber, readSpiceNumber } from './spice-number';

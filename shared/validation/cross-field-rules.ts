@@ -4,7 +4,8 @@
  * "must be below the positive rail (12 V), got 14 V".
  */
 import { BJT_PARAMETERS, hasModelCard, resolvedParameters, type BjtModelCard, type BjtParameterName } from '../engine/bjt-parameters';
-import type { Design, Spec, Supply } from '../engine/types';
+import { TOPOLOGY_CATALOGUE, type TopologyId } from '../engine/topologies';
+import type { Design, DeviceParams, Spec, Supply } from '../engine/types';
 import { designFieldLabel, specFieldLabel } from './field-labels';
 import type { ValidationIssue } from './validation-issue';
 
@@ -18,6 +19,7 @@ export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
     ...optionalResistanceIssues('/sourceResistanceOhm', spec.sourceResistanceOhm),
     ...railOrderIssues(spec.supply, label),
     ...deviceCardIssues(spec.device),
+    ...pnpIssues(spec.device, spec.topologies, 'the tail options include', label),
     ...betaRangeIssues(spec, label),
     ...offsetLimitIssues(spec, label),
     ...noisePairIssues(spec, label),
@@ -50,7 +52,7 @@ export function designCrossFieldIssues(design: Design): ValidationIssue[] {
     ...optionalResistanceIssues('/sourceResistanceOhm', design.sourceResistanceOhm),
     ...railOrderIssues(design.supply, designFieldLabel),
   ];
-  const cardIssues = deviceCardIssues(design.device);
+  const cardIssues = [...deviceCardIssues(design.device), ...pnpIssues(design.device, [design.tail.topology], 'the tail is', designFieldLabel)];
   // Stryker disable next-line ConditionalExpression: equivalent, an undefined voltage compares false with both rails and gives no issue
   if (issues.length > 0 || design.inputCommonModeV === undefined) return [...issues, ...cardIssues];
   return [...cardIssues, ...insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, designFieldLabel)];
@@ -68,8 +70,27 @@ function sameValue(a: number, b: number): boolean {
   return a === b || (Number.isFinite(a) && Number.isFinite(b) && Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b)));
 }
 
+/**
+ * The PNP transistor (`device.pnp`) of the tails that need one (the catalogue's `needsDevice`):
+ * required when such a tail is chosen, given by its current gain or a model card, and its card
+ * holds to the same rule as the NPN's.
+ */
+function pnpIssues(device: DeviceParams | undefined, topologies: readonly TopologyId[], chosen: string, label: Label): ValidationIssue[] {
+  const needing = topologies.filter((id) => TOPOLOGY_CATALOGUE[id].needsDevice === 'pnp');
+  const pnp = device?.pnp;
+  if (!pnp) {
+    if (needing.length === 0) return [];
+    const names = needing.map((id) => TOPOLOGY_CATALOGUE[id].name).join(' and ');
+    return [{ path: '/device/pnp', message: `is required: ${chosen} the ${names}, whose mirror is PNP; give ${label('/device/pnp/beta')}, ${label('/device/pnp/earlyVoltageV')} and ${label('/device/pnp/saturationCurrentA')}, or its model card` }];
+  }
+  if (pnp.beta === undefined && !hasModelCard(pnp)) {
+    return [{ path: '/device/pnp/beta', message: `is required unless ${label('/device/pnp/model')} is given` }];
+  }
+  return deviceCardIssues(pnp, '/device/pnp');
+}
+
 /** With `device.model` given, `beta`, `earlyVoltageV` and `saturationCurrentA` may be left out, and where given equal BF, VAF and IS. */
-function deviceCardIssues(device: { model?: BjtModelCard; beta?: number; earlyVoltageV?: number; saturationCurrentA?: number } | undefined): ValidationIssue[] {
+function deviceCardIssues(device: { model?: BjtModelCard; beta?: number; earlyVoltageV?: number; saturationCurrentA?: number } | undefined, at = '/device'): ValidationIssue[] {
   if (!device?.model || !hasModelCard(device)) return [];
   const card = resolvedParameters(device.model);
   const issues: ValidationIssue[] = [];
@@ -82,7 +103,7 @@ function deviceCardIssues(device: { model?: BjtModelCard; beta?: number; earlyVo
     const unit = BJT_PARAMETERS[parameter].unit;
     const cardText = Number.isFinite(card[parameter]) ? `${card[parameter]} ${unit}` : 'infinite';
     const origin = device.model[parameter] === undefined ? ", SPICE's default as the card leaves it out" : '';
-    issues.push({ path: `/device/${field}`, message: `must equal the model card's ${parameter} (${cardText}${origin}), got ${given} ${unit}` });
+    issues.push({ path: `${at}/${field}`, message: `must equal the model card's ${parameter} (${cardText}${origin}), got ${given} ${unit}` });
   }
   return issues;
 }

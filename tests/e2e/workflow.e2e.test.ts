@@ -247,7 +247,7 @@ describe('Longtail in the browser: spec to approved proposal', () => {
     await decision.getByRole('combobox', { name: 'Tail topology' }).selectOption({ label: 'Degenerated mirror' });
     await decision.getByRole('textbox', { name: 'Collector resistor', exact: true }).fill('4k75');
     await decision.getByRole('textbox', { name: 'Reference resistor', exact: true }).fill('12k1');
-    await decision.getByRole('textbox', { name: 'Mirror emitter resistor', exact: true }).fill('1k');
+    await decision.getByRole('textbox', { name: 'Emitter resistor', exact: true }).fill('1k');
     for (const reading of ['= 4.75 kΩ', '= 12.1 kΩ', '= 1 kΩ']) await visible(decision.getByText(new RegExp(`^${reading}`)));
     // The live what-if answers for the typed values
     await visible(decision.getByRole('status').filter({ hasText: 'Up to date' }));

@@ -5,7 +5,7 @@
  */
 import type { Design, DeviceParams, TailDesign, TopologyId } from '#shared/engine/types';
 
-export const NETLIST_DEVICE: DeviceParams = { family: 'npn', beta: 165, earlyVoltageV: 92, saturationCurrentA: 1.1e-14 };
+export const NETLIST_DEVICE: DeviceParams = { family: 'npn', beta: 165, earlyVoltageV: 92, saturationCurrentA: 1.1e-14, pnp: { beta: 85, earlyVoltageV: 48, saturationCurrentA: 6e-15 } };
 
 export const NETLIST_TAILS: Record<TopologyId, TailDesign> = {
   resistor: { topology: 'resistor', resistanceOhm: 5100 },
@@ -14,6 +14,7 @@ export const NETLIST_TAILS: Record<TopologyId, TailDesign> = {
   widlar: { topology: 'widlar', referenceResistanceOhm: 11000, emitterResistanceOhm: 270 },
   wilson: { topology: 'wilson', referenceResistanceOhm: 15000 },
   cascode: { topology: 'cascode', referenceResistanceOhm: 15000 },
+  ptat: { topology: 'ptat', emitterResistanceOhm: 150, startupResistanceOhm: 820000, areaRatio: 8 },
 };
 
 /** A design with the topology's tail, the shared device and rails, and any fields overridden. */

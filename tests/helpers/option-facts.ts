@@ -57,6 +57,7 @@ export function makeOptionFacts(overrides: Partial<OptionFacts> = {}): OptionFac
     powerBudgetW: 0.05,
     powerMarginW: 0.0216,
     tailCurrentDriftPercent: 2.1,
+    tailCurrentDriftBasis: '',
     tailCurrentDriftLimitPercent: 10,
     tailCurrentDriftMarginPercent: 7.9,
     temperatureMinC: -40,

@@ -49,6 +49,9 @@ const CARD_A: BjtModelCard = { IS: 1.4e-14, BF: 210, VAF: 62, RB: 120, RE: 1.5, 
 const CARD_B: BjtModelCard = { IS: 6.5e-15, BF: 95, VAF: 118, CJE: 22e-12, VJE: 0.8, MJE: 0.3, CJC: 7e-12, VJC: 0.7, MJC: 0.33, CJS: 0, TF: 0.7e-9, TR: 120e-9, FC: 0.6 };
 const CARD_C: BjtModelCard = { IS: 1.9e-14, BF: 275, VAF: 45, RB: 40, RC: 8, NF: 1.005, BR: 4, VAR: 30, CJE: 6e-12, MJE: 0.4, CJC: 2.5e-12, MJC: 0.5, CJS: 1.2e-12, MJS: 0.3, TF: 0.32e-9 };
 
+/** An invented PNP card for the PTAT tail's mirror: its own ohmic resistances and charges (a lateral PNP's CJS sits at its base). */
+const PNP_CARD: BjtModelCard = { IS: 3e-15, BF: 90, VAF: 42, RB: 200, RE: 2, RC: 25, CJE: 5e-12, MJE: 0.38, CJC: 6e-12, MJC: 0.45, CJS: 3e-12, MJS: 0.35, TF: 1.2e-9, TR: 90e-9 };
+
 /** The three-parameter device of a card plus the card as `device.model` (the same IS, BF, VAF). */
 function deviceOf(card: BjtModelCard): DeviceParams {
   return { family: 'npn', beta: card.BF!, earlyVoltageV: card.VAF!, saturationCurrentA: card.IS!, model: card } as DeviceParams;
@@ -65,6 +68,7 @@ const BASES: Design[] = [
   { device: deviceOf(CARD_A), supply: split(9), collectorResistanceOhm: 27000, tail: { topology: 'widlar', referenceResistanceOhm: 12000, emitterResistanceOhm: 220 }, sourceResistanceOhm: 300, loadCapacitanceF: 1e-12 },
   { device: deviceOf(CARD_B), supply: split(15), collectorResistanceOhm: 20000, tail: { topology: 'wilson', referenceResistanceOhm: 47000 }, sourceResistanceOhm: 5000, loadCapacitanceF: 10e-12, tailCapacitanceF: 0.5e-12 },
   { device: deviceOf(CARD_C), supply: split(9), collectorResistanceOhm: 8200, tail: { topology: 'cascode', referenceResistanceOhm: 18000 }, sourceResistanceOhm: 1000, loadCapacitanceF: 4e-12 },
+  { device: { ...deviceOf(CARD_A), pnp: { model: PNP_CARD } }, supply: split(12), collectorResistanceOhm: 18000, tail: { topology: 'ptat', emitterResistanceOhm: 330, startupResistanceOhm: 3.3e6, areaRatio: 8 }, sourceResistanceOhm: 1000, loadCapacitanceF: 3e-12, tailCapacitanceF: 2e-12 },
 ];
 
 const MISMATCHES = { collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, pairBetaMismatch: 0.05 } as const;

@@ -52,7 +52,9 @@ const NOISY_CARD: BjtModelCard = {
   IS: 1.1e-14, BF: 165, VAF: 92, RB: 180, RE: 1.2, RC: 15, KF: 1e-15, AF: 1, ISE: 1e-14, NE: 1.6,
   CJE: 9e-12, MJE: 0.35, CJC: 3.5e-12, MJC: 0.4, CJS: 1.5e-12, TF: 0.4e-9, TR: 50e-9,
 };
-const CARD_DEVICE: DeviceParams = { family: 'npn', model: NOISY_CARD } as DeviceParams;
+/** An invented PNP card for the PTAT tail's mirror: its own flicker noise, base resistance and charge. */
+const NOISY_PNP_CARD: BjtModelCard = { IS: 4e-15, BF: 80, VAF: 40, RB: 250, KF: 3e-15, AF: 1.1, CJE: 6e-12, CJC: 4e-12, CJS: 2e-12, TF: 1e-9, TR: 80e-9 };
+const CARD_DEVICE: DeviceParams = { family: 'npn', model: NOISY_CARD, pnp: { model: NOISY_PNP_CARD } } as DeviceParams;
 
 const TEMPERATURES_C = [-40, 27, 125] as const;
 const DEVICES = [

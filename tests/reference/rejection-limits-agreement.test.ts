@@ -34,7 +34,7 @@ const CONTRACT_DB: Record<OutputKind, number> = { 'single-ended': 1.5, different
 const CARD_A: BjtModelCard = { IS: 1.4e-14, BF: 210, VAF: 62, RB: 120, CJE: 12e-12, VJE: 0.72, MJE: 0.36, CJC: 4.5e-12, VJC: 0.6, MJC: 0.42, CJS: 2.2e-12, VJS: 0.65, MJS: 0.4, TF: 0.45e-9 };
 const CARD_B: BjtModelCard = { IS: 6.5e-15, BF: 95, VAF: 118, CJE: 22e-12, VJE: 0.8, MJE: 0.3, CJC: 7e-12, VJC: 0.7, MJC: 0.33, CJS: 1.5e-12, TF: 0.7e-9, FC: 0.6 };
 
-const deviceOf = (card: BjtModelCard): DeviceParams => ({ family: 'npn', beta: card.BF!, earlyVoltageV: card.VAF!, saturationCurrentA: card.IS!, model: card }) as DeviceParams;
+const deviceOf = (card: BjtModelCard): DeviceParams => ({ family: 'npn', beta: card.BF!, earlyVoltageV: card.VAF!, saturationCurrentA: card.IS!, model: card, pnp: { model: { ...card, BF: card.BF! / 2 } } }) as DeviceParams;
 
 interface Case {
   title: string;

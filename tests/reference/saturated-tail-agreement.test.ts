@@ -48,7 +48,7 @@ const DESIGNS: Design[] = TAILS.flatMap((tail) =>
 
 /** The tail transistor whose collector is the tail node: the last one the stage lists. */
 function tailOutputName(design: Design): string {
-  return { resistor: '', 'simple-mirror': 'Q4', 'degenerated-mirror': 'Q4', widlar: 'Q4', wilson: 'Q5', cascode: 'Q6' }[design.tail.topology];
+  return { resistor: '', 'simple-mirror': 'Q4', 'degenerated-mirror': 'Q4', widlar: 'Q4', wilson: 'Q5', cascode: 'Q6', ptat: 'Q9' }[design.tail.topology];
 }
 
 function expectRelative(what: string, predicted: number, reference: number, tolerance: number): void {

@@ -41,8 +41,11 @@ const SAME_MODEL_CORNER_TOLERANCE = 0.01;
 
 /** ngspice's first start (WebAssembly instantiation) takes about a second; allow for a slow machine. */
 const ENGINE_START_TIMEOUT_MS = 120_000;
-/** A transistor counts as forward-active in the reference when VBE and VCE exceed these, V. */
-const MIN_ACTIVE_VBE_V = 0.4;
+/**
+ * A transistor counts as forward-active in the reference when VBE and VCE exceed these, V (a
+ * PTAT cell's 16× transistor at 125 °C conducts a milliampere at 0.38 V: 0.3 V, not 0.4).
+ */
+const MIN_ACTIVE_VBE_V = 0.3;
 const MIN_ACTIVE_VCE_V = 0.3;
 
 /** Four invented small-signal NPN devices (IS at 27 °C, BF, VAF). */
@@ -50,6 +53,9 @@ const DEVICE_A: DeviceParams = { family: 'npn', beta: 210, earlyVoltageV: 62, sa
 const DEVICE_B: DeviceParams = { family: 'npn', beta: 95, earlyVoltageV: 118, saturationCurrentA: 6.5e-15 };
 const DEVICE_C: DeviceParams = { family: 'npn', beta: 275, earlyVoltageV: 45, saturationCurrentA: 1.9e-14 };
 const DEVICE_D: DeviceParams = { family: 'npn', beta: 140, earlyVoltageV: 87, saturationCurrentA: 9.3e-15 };
+/** Two invented small-signal PNP devices for the PTAT tail's mirror (IS at 27 °C, BF, VAF). */
+const PNP_A = { beta: 85, earlyVoltageV: 48, saturationCurrentA: 6e-15 };
+const PNP_B = { beta: 140, earlyVoltageV: 30, saturationCurrentA: 2.5e-15 };
 
 interface AgreementCase {
   title: string;
@@ -107,6 +113,11 @@ const DESIGNS: Design[] = [
   { device: DEVICE_C, supply: single(12), collectorResistanceOhm: 18000, collectorMismatch: 0.01, tail: { topology: 'cascode', referenceResistanceOhm: 22000 }, inputCommonModeV: 3.5, temperatureC: -40 },
   { device: DEVICE_D, supply: split(15), collectorResistanceOhm: 27000, pairEmitterResistanceOhm: 150, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'cascode', referenceResistanceOhm: 56000 }, inputCommonModeV: 0, temperatureC: 85, tailCapacitanceF: 2e-12 },
   { device: DEVICE_A, supply: split(5), collectorResistanceOhm: 5600, collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'cascode', referenceResistanceOhm: 9100 }, inputCommonModeV: -0.5, temperatureC: -40, tailCapacitanceF: 20e-12 },
+  // PTAT (its PNP mirror from device.pnp)
+  { device: { ...DEVICE_A, pnp: PNP_A }, supply: split(9), collectorResistanceOhm: 12000, tail: { topology: 'ptat', emitterResistanceOhm: 180, startupResistanceOhm: 1.5e6, areaRatio: 8 }, inputCommonModeV: 0, temperatureC: 27 },
+  { device: { ...DEVICE_B, pnp: PNP_B }, supply: single(12), collectorResistanceOhm: 22000, collectorMismatch: 0.01, tail: { topology: 'ptat', emitterResistanceOhm: 390, startupResistanceOhm: 3.3e6, areaRatio: 4, outputAreaRatio: 2 }, inputCommonModeV: 3, temperatureC: -40 },
+  { device: { ...DEVICE_C, pnp: PNP_A }, supply: split(15), collectorResistanceOhm: 27000, pairEmitterResistanceOhm: 150, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'ptat', emitterResistanceOhm: 560, startupResistanceOhm: 4.7e6, areaRatio: 8 }, inputCommonModeV: 0, temperatureC: 85, tailCapacitanceF: 2e-12 },
+  { device: { ...DEVICE_D, pnp: PNP_B }, supply: split(5), collectorResistanceOhm: 5600, collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, tail: { topology: 'ptat', emitterResistanceOhm: 120, startupResistanceOhm: 820000, areaRatio: 16, outputAreaRatio: 0.5 }, inputCommonModeV: -0.5, temperatureC: 125, tailCapacitanceF: 20e-12 },
 ];
 const CASES: AgreementCase[] = DESIGNS.map(caseOf);
 

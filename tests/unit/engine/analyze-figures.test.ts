@@ -11,7 +11,7 @@ import { TOPOLOGIES, type Design, type TailDesign, type TopologyId } from '#shar
 
 /** The device's VCE(sat), V: set apart from the 0.2 V default so the margins must read it. */
 const VCE_SAT_V = 0.25;
-const DEVICE = { family: 'npn' as const, beta: 140, earlyVoltageV: 85, saturationCurrentA: 5e-15, vceSatV: VCE_SAT_V };
+const DEVICE = { family: 'npn' as const, beta: 140, earlyVoltageV: 85, saturationCurrentA: 5e-15, vceSatV: VCE_SAT_V, pnp: { beta: 70, earlyVoltageV: 40, saturationCurrentA: 3e-15 } };
 const TAILS: Record<TopologyId, TailDesign> = {
   resistor: { topology: 'resistor', resistanceOhm: 15000 },
   'simple-mirror': { topology: 'simple-mirror', referenceResistanceOhm: 27000 },
@@ -19,6 +19,7 @@ const TAILS: Record<TopologyId, TailDesign> = {
   widlar: { topology: 'widlar', referenceResistanceOhm: 6800, emitterResistanceOhm: 390 },
   wilson: { topology: 'wilson', referenceResistanceOhm: 24000 },
   cascode: { topology: 'cascode', referenceResistanceOhm: 24000 },
+  ptat: { topology: 'ptat', emitterResistanceOhm: 220, startupResistanceOhm: 1.2e6, areaRatio: 8 },
 };
 /** The tail transistor whose collector is the tail node, as the contract's circuit table connects it. */
 const OUTPUT_TRANSISTOR: Record<Exclude<TopologyId, 'resistor'>, string> = {
@@ -27,6 +28,7 @@ const OUTPUT_TRANSISTOR: Record<Exclude<TopologyId, 'resistor'>, string> = {
   widlar: 'Q4',
   wilson: 'Q5',
   cascode: 'Q6',
+  ptat: 'Q9',
 };
 
 function designWith(topology: TopologyId, overrides: Partial<Design> = {}): Design {

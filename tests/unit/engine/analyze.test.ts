@@ -13,8 +13,8 @@ import { CONTRACT_NUMBER_FIELDS } from '../../helpers/contract-fields';
 import { firstNonFinitePath } from '#shared/engine/finite';
 
 /** An invented small-signal NPN (not a catalogue part). */
-const DEVICE: DeviceParams = { family: 'npn', beta: 150, earlyVoltageV: 90, saturationCurrentA: 4e-15 };
-const DEVICE_NO_EARLY: DeviceParams = { family: 'npn', beta: 150, saturationCurrentA: 4e-15 };
+const DEVICE: DeviceParams = { family: 'npn', beta: 150, earlyVoltageV: 90, saturationCurrentA: 4e-15, pnp: { beta: 90, earlyVoltageV: 55, saturationCurrentA: 2e-15 } };
+const DEVICE_NO_EARLY: DeviceParams = { family: 'npn', beta: 150, saturationCurrentA: 4e-15, pnp: { beta: 90, saturationCurrentA: 2e-15 } };
 const IS_A = 4e-15;
 const BETA = 150;
 const VAF_V = 90;
@@ -28,6 +28,7 @@ const TAILS: Record<TopologyId, TailDesign> = {
   widlar: { topology: 'widlar', referenceResistanceOhm: 3900, emitterResistanceOhm: 120 },
   wilson: { topology: 'wilson', referenceResistanceOhm: 18000 },
   cascode: { topology: 'cascode', referenceResistanceOhm: 18000 },
+  ptat: { topology: 'ptat', emitterResistanceOhm: 180, startupResistanceOhm: 1e6, areaRatio: 8 },
 };
 
 function designWith(overrides: Partial<Design> = {}): Design {
@@ -367,6 +368,7 @@ describe('solveStage with a warm start (sizing and mismatch sensitivities reuse 
     widlar: (k) => ({ topology: 'widlar', referenceResistanceOhm: 8000, emitterResistanceOhm: 50 * k }),
     wilson: (k) => ({ topology: 'wilson', referenceResistanceOhm: 40000 * k }),
     cascode: (k) => ({ topology: 'cascode', referenceResistanceOhm: 40000 * k }),
+    ptat: (k) => ({ topology: 'ptat', emitterResistanceOhm: 300 * k, startupResistanceOhm: 4e6, areaRatio: 8 }),
   };
   const highRail = (tail: TailDesign, overrides: Partial<Design> = {}): Design =>
     designWith({ supply: { positiveV: 40, negativeV: -40 }, collectorResistanceOhm: 2000, tail, ...overrides });

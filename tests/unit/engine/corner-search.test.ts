@@ -26,13 +26,17 @@ const TAILS: Record<TopologyId, TailDesign> = {
   widlar: { topology: 'widlar', referenceResistanceOhm: 5600, emitterResistanceOhm: 430 },
   wilson: { topology: 'wilson', referenceResistanceOhm: 22000 },
   cascode: { topology: 'cascode', referenceResistanceOhm: 22000 },
+  ptat: { topology: 'ptat', emitterResistanceOhm: 240, startupResistanceOhm: 1.5e6, areaRatio: 8 },
 };
 /** An invented card with capacitances, transit time and ohmic resistances (values plausible for a small-signal NPN). */
 const CARD = { IS: 2e-14, BF: 160, VAF: 75, RB: 120, RE: 0.8, RC: 20, CJE: 8e-12, CJC: 3e-12, CJS: 2.5e-12, MJS: 0.4, TF: 0.35e-9, TR: 40e-9 };
 
+/** An invented PNP card for the PTAT tail's mirror, with its own capacitances. */
+const PNP_CARD = { IS: 1e-14, BF: 90, VAF: 50, RB: 150, CJE: 6e-12, CJC: 4e-12, CJS: 3e-12, TF: 0.8e-9, TR: 60e-9 };
+
 function designWith(topology: TopologyId, overrides: Partial<Design> = {}): Design {
   return {
-    device: { family: 'npn', beta: 160, earlyVoltageV: 75, saturationCurrentA: 2e-14, model: CARD },
+    device: { family: 'npn', beta: 160, earlyVoltageV: 75, saturationCurrentA: 2e-14, model: CARD, pnp: { model: PNP_CARD } },
     supply: { positiveV: 12, negativeV: -12 },
     collectorResistanceOhm: 10000,
     tail: TAILS[topology],
@@ -84,7 +88,7 @@ describe('the corner searches find the first 3 dB crossing, to 1e-7 of the frequ
   });
 
   test.each([...TOPOLOGIES])('%s, three-parameter device with 22 pF on the tail only: the rejection corner (the gain never falls)', (topology) => {
-    const design = designWith(topology, { device: { family: 'npn', beta: 160, earlyVoltageV: 75, saturationCurrentA: 2e-14 }, sourceResistanceOhm: 0, loadCapacitanceF: 0, tailCapacitanceF: 22e-12 });
+    const design = designWith(topology, { device: { family: 'npn', beta: 160, earlyVoltageV: 75, saturationCurrentA: 2e-14, pnp: { beta: 90, earlyVoltageV: 50, saturationCurrentA: 1e-14 } }, sourceResistanceOhm: 0, loadCapacitanceF: 0, tailCapacitanceF: 22e-12 });
     const solution = solveStage(design);
     expect(solution.result.differentialBandwidthHz).toBeNull();
     expect(crossingHz(solution, differentialGainDb)).toBeNull();

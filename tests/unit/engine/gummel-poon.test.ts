@@ -102,7 +102,9 @@ describe('the DC currents written out by hand from ngspice bjtload.c and bjttemp
   // ISE·e^(factlog/NE) and ISC·e^(factlog/NC), each ÷ (T/Tnom)^XTB.
   // bjtload.c: a junction s·(e^(v/vtn) − 1), below −3·vtn −s·(1 + (3·vtn/(v·e))³); GMIN·v on the leakage
   // junctions; q1 = 1/(1 − vbc/VAF − vbe/VAR), q2 = cbe/IKF + cbc/IKR, qb = q1·(1 + √(1 + 4·q2))/2;
-  // ic = (cbe − cbc)/qb − cbc/BR − cbcn, ib = cbe/BF + cben + cbc/BR + cbcn. Area A scales IS, ISE, ISC, IKF, IKR.
+  // ic = (cbe − cbc)/qb − cbc/BR − cbcn, ib = cbe/BF + cben + cbc/BR + cbcn. Area A scales IS, ISE, ISC, IKF, IKR;
+  // the reverse transport current's IS is IS·A·areab, areab defaulting to A (bjttemp.c BJTBCtSatCur,
+  // bjtsetup.c), so cbc takes A twice: both ngspice builds the tests run do so.
   const FULL: BjtModelCard = { ...CARD, EG: 1.12, XTI: 3.2 };
   const GMIN = 1e-12;
   function byHand(vbe: number, vbc: number, area: number, celsius: number) {
@@ -116,7 +118,7 @@ describe('the DC currents written out by hand from ngspice bjtload.c and bjttemp
     const isc = ((3e-14 * Math.exp(factlog / 1.8)) / beta) * area;
     const diode = (s: number, v: number, vtn: number) => (v >= -3 * vtn ? s * (Math.exp(v / vtn) - 1) : -s * (1 + ((3 * vtn) / (v * Math.E)) ** 3));
     const cbe = diode(is, vbe, 1.005 * vt);
-    const cbc = diode(is, vbc, 1.01 * vt);
+    const cbc = diode(is * area, vbc, 1.01 * vt);
     const cben = diode(ise, vbe, 1.55 * vt) + GMIN * vbe;
     const cbcn = diode(isc, vbc, 1.8 * vt) + GMIN * vbc;
     const q1 = 1 / (1 - vbc / 74 - vbe / 18);

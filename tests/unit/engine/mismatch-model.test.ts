@@ -82,6 +82,15 @@ describe('the worst case', () => {
     expect(x[3]).toBeCloseTo(0.15, 14);
   });
 
+  test('a gain the mismatches move by more than itself (a pair near saturation at its corner) still gives a finite worst case, below 0 dB', () => {
+    const sigmas: MismatchSigmas = { resistorTolerance: 0.01, vbeSigmaV: 0.0005, betaSigma: 0.02, earlyVoltageSigma: 0.05 };
+    // measured at a saturating corner of a resistor tail: |Ad| 16 V/V falling 882 V/V per unit load mismatch
+    const s = model({ differentialGain: c(-16), differentialGainPer: [c(882), c(6), c(6.2), c(0.03)], linear: [c(200), c(30), c(1), c(0)], squared: [c(0), c(0), c(0), c(0)], cross: [c(0), c(0), c(0), c(0), c(0), c(0)] });
+    const worst = worstCaseMismatchCmrrDb(s, sigmas);
+    expect(Number.isFinite(worst)).toBe(true);
+    expect(worst).toBeLessThan(0);
+  });
+
   test('every term in magnitude, the gain at its lowest; shares per mismatch with each cross term split evenly', () => {
     const sigmas: MismatchSigmas = { resistorTolerance: 0.01, vbeSigmaV: 0.0005, betaSigma: 0.02, earlyVoltageSigma: 0.05 };
     const s = model({
@@ -99,8 +108,11 @@ describe('the worst case', () => {
       0.05 * x3 + 0.5 * x3 * x3 + (10 * x2 * x3) / 2,
     ];
     const adcm = terms.reduce((p, q) => p + q, 0);
-    const ad = 130 - 3 * x0 - 4 * x1 - 5 * x2;
+    // the gain's first-order fall taken in the logarithm: 130·exp(−(3·x0 + 4·x1 + 5·x2)/130)
+    const ad = 130 * Math.exp(-(3 * x0 + 4 * x1 + 5 * x2) / 130);
     expect(worstCaseMismatchCmrrDb(s, sigmas)).toBeCloseTo(db(ad / adcm), 9);
+    // to first order the plain fall, 130 − 3·x0 − 4·x1 − 5·x2 (within 1e-4 dB here)
+    expect(Math.abs(worstCaseMismatchCmrrDb(s, sigmas) - db((130 - 3 * x0 - 4 * x1 - 5 * x2) / adcm))).toBeLessThan(1e-3);
     const shares = worstCaseMismatchShares(s, sigmas);
     expect(shares.load).toBeCloseTo((100 * terms[0]) / adcm, 9);
     expect(shares.is).toBeCloseTo((100 * terms[1]) / adcm, 9);

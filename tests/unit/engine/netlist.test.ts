@@ -8,6 +8,7 @@ import { describe, expect, test } from 'vitest';
 import { stageCircuit } from '#shared/engine/circuit';
 import { nominalSaturationCurrentA } from '#shared/engine/device';
 import {
+  PNP_MODEL_NAME,
   SPICE_MODEL_NAME,
   TAIL_TEST_SOURCE,
   parseNetlistElements,
@@ -16,7 +17,7 @@ import {
   type ParsedElement,
 } from '#shared/engine/netlist';
 import { TOPOLOGIES, type DeviceParams, type TailDesign, type TopologyId } from '#shared/engine/types';
-import { netlistDesign as designFor } from '../../helpers/netlist-designs';
+import { NETLIST_DEVICE, netlistDesign as designFor } from '../../helpers/netlist-designs';
 import { parseSpiceNumber } from '#shared/units/spice-number';
 
 
@@ -63,8 +64,9 @@ function expectResistor(elements: ParsedElement[], a: string, b: string, valueOh
   expect(found[0].valueOhm).toBe(valueOhm);
 }
 
+/** The NPN card's parameters (the stage's one NPN card; a PTAT tail adds the PNP's, `QPNP`, checked on its own). */
 function modelParameters(netlist: string): Record<string, number> {
-  const cards = netlist.split('\n').filter((line) => /^\.model\s/i.test(line));
+  const cards = netlist.split('\n').filter((line) => /^\.model\s+\S+\s+npn\b/i.test(line));
   expect(cards).toHaveLength(1);
   const match = /^\.model\s+(\S+)\s+npn\s*\((.*)\)\s*$/i.exec(cards[0]);
   expect(match, cards[0]).not.toBeNull();
@@ -150,6 +152,28 @@ const CONTRACT_CONNECTIONS: Record<TopologyId, (elements: ParsedElement[], tail:
     expect(q6.base, "Q6's base tied to Q5's base").toBe(q5.base);
     expect(q6.collector).toBe('t');
   },
+  ptat: (elements, tail) => {
+    const { emitterResistanceOhm, startupResistanceOhm, areaRatio } = tail as { emitterResistanceOhm: number; startupResistanceOhm: number; areaRatio: number };
+    const [q3, q4, q7, q8, q9] = ['Q3', 'Q4', 'Q7', 'Q8', 'Q9'].map((name) => transistor(elements, name));
+    expect(q3.collector, 'Q3 diode-connected').toBe(q3.base);
+    expect(q3.emitter).toBe('vn');
+    expect(q4.base, "Q4 shares Q3's base").toBe(q3.base);
+    expect(q4.area, 'Q4 is N times Q3').toBe(areaRatio);
+    expectResistor(elements, q4.emitter, 'vn', emitterResistanceOhm);
+    for (const q of [q7, q8]) {
+      expect(q.model, `${q.name} is the PNP`).toBe(PNP_MODEL_NAME);
+      expect(q.emitter, `${q.name} from the positive rail`).toBe('vp');
+    }
+    expect(q8.collector, 'Q8 diode-connected').toBe(q8.base);
+    expect(q8.collector, "Q8 on Q4's collector").toBe(q4.collector);
+    expect(q7.base).toBe(q8.base);
+    expect(q7.collector, 'Q7 feeds Q3').toBe(q3.collector);
+    expectResistor(elements, 'vp', q3.collector, startupResistanceOhm);
+    expect(q9.base, "Q9 shares Q3's base").toBe(q3.base);
+    expect(q9.emitter).toBe('vn');
+    expect(q9.collector).toBe('t');
+    expect(q9.area, 'output area ratio, 1 by default').toBe(1);
+  },
 };
 
 describe('spiceNetlist: structure', () => {
@@ -195,7 +219,7 @@ describe('spiceNetlist: structure', () => {
       expect(found, element.name).toBeDefined();
       if (element.kind === 'resistor') expect(found).toEqual({ kind: 'R', name: element.name, nodes: element.nodes, valueOhm: element.resistanceOhm });
       if (element.kind === 'capacitor') expect(found).toEqual({ kind: 'C', name: element.name, nodes: element.nodes, valueF: element.capacitanceF });
-      if (element.kind === 'npn') {
+      if (element.kind === 'npn' || element.kind === 'pnp') {
         expect(found).toEqual({
           kind: 'Q',
           name: element.name,
@@ -203,7 +227,7 @@ describe('spiceNetlist: structure', () => {
           base: element.base,
           emitter: element.emitter,
           substrate: 'vn', // every substrate at the negative rail (contract, version 2)
-          model: SPICE_MODEL_NAME,
+          model: element.kind === 'pnp' ? PNP_MODEL_NAME : SPICE_MODEL_NAME,
           area: element.area,
         });
       }
@@ -282,6 +306,16 @@ describe('spiceNetlist: structure', () => {
     expect(lines.filter((line) => /^\.temp\s/i.test(line))).toEqual([`.temp ${temperatureC}`]);
   });
 
+  test('a tail with PNPs gets the PNP\'s card from device.pnp, as SPICE writes a PNP model; a design without PNPs none', () => {
+    const cards = (topology: TopologyId) => spiceNetlist(designFor(topology), { analysis: 'op' }).split('\n').filter((line) => /^\.model\s/i.test(line));
+    expect(cards('ptat')).toContain(`.model ${PNP_MODEL_NAME} PNP (IS=6e-15 BF=85 VAF=48)`);
+    expect(cards('widlar').some((line) => /\bpnp\b/i.test(line))).toBe(false);
+    const card = { IS: 9e-15, BF: 70, VAF: 35, CJS: 2e-12 };
+    expect(cards('ptat').length).toBe(2);
+    const withCard = spiceNetlist(designFor('ptat', { device: { ...NETLIST_DEVICE, pnp: { model: card } } }), { analysis: 'op' });
+    expect(withCard).toContain(`.model ${PNP_MODEL_NAME} PNP (IS=9e-15 BF=70 VAF=35 CJS=2e-12)`);
+  });
+
   test('a design with a model card writes every parameter the card gives, in the list\u2019s order, and nothing else', () => {
     const model = { CJE: 8e-12, IS: 3e-15, BF: 210, VAF: 0, IKF: 0.06, ISE: 4e-15, NE: 1.7, RB: 90, RE: 0.8, RC: 12, XTB: 1.4 };
     const parameters = modelParameters(spiceNetlist(designFor('resistor', { device: { family: 'npn', model } }), { analysis: 'op' }));
@@ -332,7 +366,7 @@ describe('spiceNetlist: structure', () => {
 describe('spiceNetlist: every line and card', () => {
   test.each(TOPOLOGIES)('%s: every element is named with its SPICE letter (R, C, Q), the netlist writes the names as they are', (topology) => {
     const design = designFor(topology, { tailCapacitanceF: 1e-12, loadCapacitanceF: 2e-12, sourceResistanceOhm: 600, pairEmitterResistanceOhm: 100 });
-    const letter = { resistor: 'R', capacitor: 'C', npn: 'Q' } as const;
+    const letter = { resistor: 'R', capacitor: 'C', npn: 'Q', pnp: 'Q' } as const;
     const circuit = stageCircuit(design);
     for (const element of circuit.elements) expect(element.name, element.name).toMatch(new RegExp(`^${letter[element.kind]}`));
     const names = parseNetlistElements(spiceNetlist(design, { analysis: 'op' })).filter((e) => e.kind !== 'V').map((e) => e.name);

@@ -34,8 +34,9 @@ const CASES = [
 describe.each(CASES)('tail current fixed at $tailCurrentA A, ±$railV V rails, E192', (c) => {
   const validated = validateSpec({
     title: 'Quillfen fixed-current front end',
-    device: { beta: c.beta, earlyVoltageV: c.earlyVoltageV, saturationCurrentA: 1e-14 },
+    device: { beta: c.beta, earlyVoltageV: c.earlyVoltageV, saturationCurrentA: 1e-14, pnp: { beta: c.beta / 2, earlyVoltageV: c.earlyVoltageV / 2, saturationCurrentA: 5e-15 } },
     supply: { positiveV: c.railV, negativeV: -c.railV },
+    topologies: [...TOPOLOGIES],
     gain: { target: c.gain, output: 'differential' },
     cmrr: { minDb: 60 },
     inputCommonMode: { minV: -1, maxV: 1 },

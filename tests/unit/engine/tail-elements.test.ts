@@ -6,7 +6,7 @@
  * Iref = (V+ − V− − n·VBE)/RREF, and the Widlar source's Iout·RE = VT·ln(Iref/Iout) [GM].
  */
 import { describe, expect, test } from 'vitest';
-import { stageCircuit, type CircuitElement } from '#shared/engine/circuit';
+import { isTransistor, stageCircuit, type CircuitElement } from '#shared/engine/circuit';
 import { deviceModel } from '#shared/engine/device';
 import { solveOperatingPoint } from '#shared/engine/operating-point';
 import { tailElements, type TailGuessContext } from '#shared/engine/tail-elements';
@@ -20,9 +20,9 @@ const GUESS_VT = 0.0259;
 function stamp(tail: TailDesign, ctx = CTX): string[] {
   return tailElements(tail, ctx).elements.map((e: CircuitElement) => {
     expect(e.part).toBe('tail');
-    if (e.kind === 'npn') {
-      expect(e.area).toBe(1);
-      return `${e.name} npn ${e.collector} ${e.base} ${e.emitter}`;
+    if (isTransistor(e)) {
+      expect(e.substrate).toBe('vn');
+      return `${e.name} ${e.kind} ${e.collector} ${e.base} ${e.emitter}${e.area !== 1 ? ` area ${e.area}` : ''}`;
     }
     if (e.kind === 'resistor') return `${e.name} R ${e.nodes.join(' ')} ${e.resistanceOhm}`;
     return `${e.name} C ${e.nodes.join(' ')} ${e.capacitanceF}`;
@@ -32,6 +32,21 @@ function stamp(tail: TailDesign, ctx = CTX): string[] {
 describe('connections, as the contract\'s table gives them', () => {
   test('resistor: RT from t to the negative rail', () => {
     expect(stamp({ topology: 'resistor', resistanceOhm: 9100 })).toEqual(['RT R t vn 9100']);
+  });
+
+  test('ptat: the ΔVBE cell Q3 (diode, at V−) and Q4 (area N, emitter through R), the PNP mirror Q7/Q8 from V+ (Q8 diode-connected), the start-up resistor to Q3, Q9 sharing Q3\'s base with its collector at t (contract, "New topology: ptat")', () => {
+    const lines = stamp({ topology: 'ptat', emitterResistanceOhm: 330, startupResistanceOhm: 1.5e6, areaRatio: 8, outputAreaRatio: 2 }).sort();
+    expect(lines).toEqual([
+      'Q3 npn ref ref vn',
+      'Q4 npn p4 ref e4 area 8',
+      'Q7 pnp ref p4 vp',
+      'Q8 pnp p4 p4 vp',
+      'Q9 npn t ref vn area 2',
+      'RE4 R e4 vn 330',
+      'RSU R vp ref 1500000',
+    ]);
+    // the output area ratio defaults to 1
+    expect(stamp({ topology: 'ptat', emitterResistanceOhm: 330, startupResistanceOhm: 1.5e6, areaRatio: 8 })).toContain('Q9 npn t ref vn');
   });
 
   test('simple mirror: Q3 diode-connected fed through RREF, Q4 sharing its base with its collector at t, both emitters at V−', () => {

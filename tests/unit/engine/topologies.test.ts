@@ -8,7 +8,7 @@
 import { describe, expect, test } from 'vitest';
 import type { CircuitElement } from '#shared/engine/circuit';
 import { tailElements } from '#shared/engine/tail-elements';
-import { TOPOLOGIES, TOPOLOGY_CATALOGUE, tailValueOhm, topologyName, unhandledTopology } from '#shared/engine/topologies';
+import { TOPOLOGIES, TOPOLOGY_CATALOGUE, tailRatio, tailValueOhm, topologyName, unhandledTopology } from '#shared/engine/topologies';
 import { SPEC_SCHEMA } from '#shared/validate';
 import { TAILS } from '../schema/schema-fixtures';
 
@@ -22,7 +22,7 @@ describe.each(TAILS.map((tail) => [tail.topology, tail] as const))('%s', (id, ta
 
   test("the circuit stamp's parts are the catalogue's, resistors and transistors", () => {
     const resistors = elementsOf().filter((e) => e.kind === 'resistor').map((e) => e.name);
-    const transistors = elementsOf().filter((e) => e.kind === 'npn').map((e) => e.name);
+    const transistors = elementsOf().filter((e) => e.kind === 'npn' || e.kind === 'pnp').map((e) => e.name);
     expect(resistors.sort()).toEqual(entry.resistors.flatMap((r) => r.names).sort());
     expect(transistors.sort()).toEqual(entry.transistors.map((q) => q.name).sort());
   });
@@ -33,6 +33,19 @@ describe.each(TAILS.map((tail) => [tail.topology, tail] as const))('%s', (id, ta
         const element = named(name);
         expect(element.kind === 'resistor' && element.resistanceOhm, name).toBe(tailValueOhm(tail, resistor.field));
       }
+    }
+  });
+
+  test('each area ratio is the emitter area the stamp gives: N on the ΔVBE transistor, the output ratio on the output', () => {
+    for (const ratio of entry.ratios) {
+      const value = tailRatio(tail, ratio.field);
+      const withArea = elementsOf().filter((e) => (e.kind === 'npn' || e.kind === 'pnp') && e.area === value);
+      expect(withArea.length, ratio.field).toBeGreaterThan(0);
+    }
+    const tailWithOutput = { ...tail, outputAreaRatio: 3 } as typeof tail;
+    if (entry.ratios.some((r) => r.field === 'outputAreaRatio')) {
+      const output = tailElements(tailWithOutput, GUESS).elements.find((e) => e.kind === 'npn' && e.collector === 't');
+      expect(output?.kind === 'npn' && output.area).toBe(3);
     }
   });
 
@@ -50,7 +63,7 @@ describe.each(TAILS.map((tail) => [tail.topology, tail] as const))('%s', (id, ta
   test('its words name every part and every field to fill', () => {
     for (const name of [...entry.resistors.flatMap((r) => r.names), ...entry.transistors.map((q) => q.name)]) expect(entry.circuitWords).toContain(name);
     const fields = [...entry.circuitWords.matchAll(/\{(\w+)\}/g)].map((m) => m[1]);
-    expect(new Set(fields)).toEqual(new Set(entry.resistors.map((r) => r.field)));
+    expect(new Set(fields)).toEqual(new Set([...entry.resistors.map((r) => r.field), ...entry.ratios.map((r) => r.field)]));
   });
 });
 

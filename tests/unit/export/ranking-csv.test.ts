@@ -102,3 +102,18 @@ describe('the spec targets’ columns', () => {
     });
   });
 });
+
+describe('the tail values column', () => {
+  test('a PTAT tail lists its resistors in ohms, then its emitter-area ratios as plain numbers, the output ratio the design leaves out at its default of 1', () => {
+    // ENGINE-CONTRACT.md, "New topology: ptat": areaRatio N, outputAreaRatio (default 1), emitterResistanceOhm, startupResistanceOhm
+    const ptat = result();
+    Object.assign(ptat.options[0], { topology: 'ptat', design: { collectorResistanceOhm: 6340, tail: { topology: 'ptat', emitterResistanceOhm: 340, startupResistanceOhm: 2_940_000, areaRatio: 8 } } });
+    const [row] = Papa.parse<Record<string, string>>(rankingCsv(ptat).trimEnd(), { header: true, newline: '\r\n' }).data;
+    expect(row.tail_values).toBe('emitterResistanceOhm=340 startupResistanceOhm=2940000 areaRatio=8 outputAreaRatio=1');
+  });
+
+  test('a mirror lists its resistors only', () => {
+    const [row] = Papa.parse<Record<string, string>>(rankingCsv(result()).trimEnd(), { header: true, newline: '\r\n' }).data;
+    expect(row.tail_values).toBe('referenceResistanceOhm=11500');
+  });
+});

@@ -28,7 +28,7 @@ function onlyRow(text: string): SpecFileRow {
 }
 
 describe('a demo spec written as one CSV row', () => {
-  test.each(['studio-line-receiver.json', 'strain-bridge-receiver.json', 'electrode-amplifier-input.json'])(
+  test.each(['studio-line-receiver.json', 'strain-bridge-receiver.json', 'electrode-amplifier-input.json', 'seismic-node-receiver.json'])(
     'when %s is written with every column and read back, then it is the same document as the JSON gives',
     (file) => {
       const spec = JSON.parse(readFileSync(new URL(`../../../api/demo/specs/${file}`, import.meta.url), 'utf8')) as Record<string, unknown>;
@@ -122,6 +122,37 @@ describe('the optional targets and corners in CSV', () => {
   test('when a noise limit is given without its frequency, then the row is refused at the frequency column', () => {
     const row = onlyRow(`${REQUIRED_HEADER},noise.maxVPerRtHz\r\nTarn probe,15,-15,20,60,8n\r\n`);
     expect(row.errors).toEqual([{ row: 2, field: 'noise.atFrequencyHz', message: 'is required with the largest noise density (leave the input noise out to check no noise)' }]);
+  });
+});
+
+describe('the PNP transistor in CSV', () => {
+  const PNP_HEADER = `${REQUIRED_HEADER},topologies,device.pnp.beta,device.pnp.earlyVoltageV,device.pnp.saturationCurrentA`;
+
+  test('when a row lists the PTAT source with its PNP, then the PNP is read in SI from its columns', () => {
+    const row = onlyRow(`${PNP_HEADER}\r\nFen gauge input,9,-9,36,66,widlar ptat,110,46 V,6.3f\r\n`);
+    expect(row.errors).toEqual([]);
+    expect(row.document?.topologies).toEqual(['widlar', 'ptat']);
+    // f = 1e-15 [SI]
+    expect(row.document?.device.pnp).toEqual({ beta: 110, earlyVoltageV: 46, saturationCurrentA: 6.3e-15 });
+  });
+
+  test('when a row lists the PTAT source without its PNP, then it is refused at the PNP’s first column, saying why', () => {
+    const row = onlyRow(`${PNP_HEADER}\r\nFen gauge input,9,-9,36,66,widlar ptat,,,\r\n`);
+    expect(row.document).toBeNull();
+    expect(row.errors).toHaveLength(1);
+    expect(row.errors[0].field).toBe('device.pnp.beta');
+    expect(row.errors[0].message).toMatch(/^is required: the tail options include the PTAT \(constant-gm\) source, whose mirror is PNP/);
+  });
+
+  test('when a row gives the PNP’s Early voltage but not its current gain, then the current gain’s column is named', () => {
+    const row = onlyRow(`${PNP_HEADER}\r\nFen gauge input,9,-9,36,66,ptat,,46,\r\n`);
+    expect(row.errors).toEqual([{ row: 2, field: 'device.pnp.beta', message: 'is required unless the PNP SPICE model card is given' }]);
+  });
+
+  test('when a row does not list the PTAT source, then it needs no PNP columns', () => {
+    const row = onlyRow(`${REQUIRED_HEADER},topologies\r\nFen gauge input,9,-9,36,66,widlar cascode\r\n`);
+    expect(row.errors).toEqual([]);
+    expect(row.document?.device.pnp).toBeUndefined();
   });
 });
 

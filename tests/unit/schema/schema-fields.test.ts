@@ -92,7 +92,7 @@ describe.each(SCHEMAS)('%s schema', (_name, schema) => {
 
 describe('spec schema against the Spec type', () => {
   test('declares exactly the fields of Spec, level by level', () => {
-    expect(objectKeys(SPEC_SCHEMA as Node)).toEqual(valueKeys([FULL_SPEC, { device: { model: FULL_CARD } }]));
+    expect(objectKeys(SPEC_SCHEMA as Node)).toEqual(valueKeys([FULL_SPEC, { device: { model: FULL_CARD, pnp: { model: FULL_CARD } } }]));
   });
 
   test('requires title, supply, gain and cmrr', () => {
@@ -116,6 +116,13 @@ describe('spec schema against the Spec type', () => {
         '/device/saturationCurrentA', // absent means "derive IS from vbeOnV"
         '/device/model', // absent means "the three-parameter device"
         ...BJT_PARAMETER_NAMES.map((name) => `/device/model/${name}`), // absent means SPICE's default
+        // the PNP, needed only by a tail that has one (the PTAT source): absent means none given
+        '/device/pnp',
+        '/device/pnp/beta',
+        '/device/pnp/earlyVoltageV',
+        '/device/pnp/saturationCurrentA',
+        '/device/pnp/model',
+        ...BJT_PARAMETER_NAMES.map((name) => `/device/pnp/model/${name}`),
         '/tailCurrentA', // absent means "let the sizing choose"
         '/deviceModel', // absent means "the device values were typed in"
         '/deviceModel/name',
@@ -142,17 +149,17 @@ describe('spec schema against the Spec type', () => {
     );
   });
 
-  test('lists the topologies of types.ts, all by default', () => {
+  test('lists the topologies of types.ts, by default all but those needing a second device (the PTAT source\'s PNP)', () => {
     const topologies = (SPEC_SCHEMA.properties as Record<string, Node>).topologies;
     expect((topologies.items as Node).enum).toEqual([...TOPOLOGIES]);
-    expect(topologies.default).toEqual([...TOPOLOGIES]);
+    expect(topologies.default).toEqual(TOPOLOGIES.filter((id) => id !== 'ptat'));
   });
 });
 
 describe('design schema against the Design type', () => {
   test('declares exactly the fields of Design and of each TailDesign, level by level', () => {
     const designs = TAILS.map((tail) => ({ ...FULL_DESIGN, tail }));
-    expect(objectKeys(DESIGN_SCHEMA as Node)).toEqual(valueKeys([...designs, { device: { model: FULL_CARD } }]));
+    expect(objectKeys(DESIGN_SCHEMA as Node)).toEqual(valueKeys([...designs, { device: { model: FULL_CARD, pnp: { model: FULL_CARD } } }]));
   });
 
   test('requires what the contract requires', () => {

@@ -18,6 +18,7 @@ export const FULL_SPEC: Spec = {
     vbeMismatchSigmaV: 0.0005,
     betaMismatchSigma: 0.015,
     earlyVoltageMismatchSigma: 0.08,
+    pnp: { beta: 95, earlyVoltageV: 52, saturationCurrentA: 3e-15 },
   },
   deviceModel: { name: 'QX-150', checksum: 'a'.repeat(64) },
   betaRange: { min: 10, max: 2000 }, // the widest spread the nominal's own bounds allow, so any nominal fits
@@ -64,6 +65,7 @@ export const TAILS: TailDesign[] = [
   { topology: 'widlar', referenceResistanceOhm: 4700, emitterResistanceOhm: 1000 },
   { topology: 'wilson', referenceResistanceOhm: 22000 },
   { topology: 'cascode', referenceResistanceOhm: 22000 },
+  { topology: 'ptat', emitterResistanceOhm: 270, startupResistanceOhm: 1.5e6, areaRatio: 8, outputAreaRatio: 1 },
 ];
 
 /** A design with every field, optional ones included (the contract's example, filled out). */
@@ -78,6 +80,7 @@ export const FULL_DESIGN: Design = {
     vbeMismatchSigmaV: 0.001,
     betaMismatchSigma: 0.02,
     earlyVoltageMismatchSigma: 0.05,
+    pnp: { beta: 90, earlyVoltageV: 50, saturationCurrentA: 8e-16 },
   },
   supply: { positiveV: 12, negativeV: -12 },
   collectorResistanceOhm: 8200,

@@ -25,13 +25,16 @@ describe('the schemas follow the topology catalogue', () => {
     expect(branches.map((b) => [b.properties!.topology.const, b.title])).toEqual(TOPOLOGIES.map((id) => [id, TOPOLOGY_CATALOGUE[id].name]));
   });
 
-  test("each branch's fields are the values of the topology's resistors", () => {
+  test("each branch's fields are the values of the topology's resistors, then its area ratios (those with a default not required)", () => {
     const branches = fromFile(DESIGN_SCHEMA_PATH).properties!.tail.oneOf!;
     for (const branch of branches) {
       const id = branch.properties!.topology.const as (typeof TOPOLOGIES)[number];
       const fields = Object.keys(branch.properties!).filter((name) => name !== 'topology');
-      expect(fields, id).toEqual([...new Set(TOPOLOGY_CATALOGUE[id].resistors.map((r) => r.field))]);
-      expect(branch.required, id).toEqual(['topology', ...fields]);
+      const resistors = [...new Set(TOPOLOGY_CATALOGUE[id].resistors.map((r) => r.field))];
+      const ratios = TOPOLOGY_CATALOGUE[id].ratios;
+      expect(fields, id).toEqual([...resistors, ...ratios.map((r) => r.field)]);
+      expect(branch.required, id).toEqual(['topology', ...resistors, ...ratios.filter((r) => r.default === undefined).map((r) => r.field)]);
+      for (const ratio of ratios) expect((branch.properties![ratio.field] as { default?: number }).default, `${id} ${ratio.field}`).toBe(ratio.default);
     }
   });
 

@@ -33,13 +33,13 @@ describe('validateDesign', () => {
   test('an unknown topology gives one clear message at /tail/topology', () => {
     const result = validateDesign({ ...MINIMAL_DESIGN, tail: { topology: 'mirror', referenceResistanceOhm: 22000 } });
     expect(printed(result)).toEqual([
-      '/tail/topology: must be one of resistor, simple-mirror, degenerated-mirror, widlar, wilson, cascode, got "mirror"',
+      '/tail/topology: must be one of resistor, simple-mirror, degenerated-mirror, widlar, wilson, cascode, ptat, got "mirror"',
     ]);
   });
 
   test.each([
     [{}, '/tail/topology: is required'],
-    [{ topology: 3 }, '/tail/topology: must be one of resistor, simple-mirror, degenerated-mirror, widlar, wilson, cascode, got 3'],
+    [{ topology: 3 }, '/tail/topology: must be one of resistor, simple-mirror, degenerated-mirror, widlar, wilson, cascode, ptat, got 3'],
     ['mirror', '/tail: must be an object, got "mirror"'],
   ])('tail %j: %s', (tail, expected) => {
     expect(printed(validateDesign({ ...MINIMAL_DESIGN, tail }))).toEqual([expected]);

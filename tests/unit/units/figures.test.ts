@@ -17,6 +17,7 @@ import {
   formatFixed,
   formatMargin,
   formatPercent,
+  formatRatio,
   formatSignedQuantity,
   formatSignificant,
   formatTargetDb,
@@ -113,4 +114,15 @@ describe('tolerances', () => {
     [1.5, 'dB', '±1.5 dB'],
     [0.05, 'V', '±50 mV'],
   ])('formatTolerance(%d, %s) is %s', (tolerance, unit, text) => expect(formatTolerance(tolerance, unit)).toBe(text));
+});
+
+describe('size ratios', () => {
+  // An emitter-area ratio is a pure number (SI: quantity of dimension one), written with the multiplication sign U+00D7
+  test.each([
+    [8, '8×'],
+    [1, '1×'],
+    [1.5, '1.5×'],
+    [0.25, '0.25×'],
+    [12.345, '12.3×'],
+  ])('formatRatio(%d) is %s, no unit and no prefix', (value, text) => expect(formatRatio(value)).toBe(text));
 });

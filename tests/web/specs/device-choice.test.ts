@@ -64,4 +64,19 @@ describe('withoutEmptyCard', () => {
     const draft = { deviceModel: REF, device: { beta: 150, model: { BF: 150 } } };
     expect(withoutEmptyCard(draft)).toBe(draft);
   });
+
+  test('when the PNP section was emptied again (its values and its model undefined), then there is no PNP', () => {
+    const draft = { title: 'a', device: { beta: 100, pnp: { beta: undefined, earlyVoltageV: undefined, model: { BF: undefined } } } };
+    expect(withoutEmptyCard(draft)).toEqual({ title: 'a', device: { beta: 100 } });
+  });
+
+  test('when the PNP has a value and an empty model, then the model goes and the value stays', () => {
+    const draft = { device: { beta: 100, pnp: { beta: 110, model: {} } } };
+    expect(withoutEmptyCard(draft)).toEqual({ device: { beta: 100, pnp: { beta: 110 } } });
+  });
+
+  test('when the PNP is given, then nothing changes', () => {
+    const draft = { device: { beta: 100, pnp: { beta: 110, earlyVoltageV: 46 } } };
+    expect(withoutEmptyCard(draft)).toBe(draft);
+  });
 });

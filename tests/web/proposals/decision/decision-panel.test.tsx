@@ -175,7 +175,7 @@ describe('DecisionPanel', () => {
     renderWithClient(<DecisionPanel proposal={proposalFixture()} user={DESIGNER} />);
 
     await user.click(screen.getByRole('radio', { name: 'Use my own values' }));
-    const emitter = screen.getByRole('textbox', { name: 'Mirror emitter resistor' });
+    const emitter = screen.getByRole('textbox', { name: 'Emitter resistor' });
     await user.clear(emitter);
     await user.type(emitter, '2k2');
     await user.type(screen.getByRole('textbox', { name: /Reason/ }), 'Twice the degeneration for drift.');

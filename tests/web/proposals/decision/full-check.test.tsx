@@ -61,7 +61,7 @@ function failingEvaluation(): OptionEvaluation {
 /** Opens own values and types a mirror emitter resistor of 2k2. */
 async function editEmitter(user: ReturnType<typeof userEvent.setup>) {
   await user.click(screen.getByRole('radio', { name: 'Use my own values' }));
-  const emitter = screen.getByRole('textbox', { name: 'Mirror emitter resistor' });
+  const emitter = screen.getByRole('textbox', { name: 'Emitter resistor' });
   await user.clear(emitter);
   await user.type(emitter, '2k2');
 }
@@ -211,7 +211,7 @@ describe('Full check of own values', () => {
     await editEmitter(user);
     await user.click(checkButton());
 
-    const emitter = screen.getByRole('textbox', { name: 'Mirror emitter resistor' });
+    const emitter = screen.getByRole('textbox', { name: 'Emitter resistor' });
     await waitFor(() => expect(emitter.getAttribute('aria-invalid')).toBe('true'));
     expect(screen.getByText(/The server says: must be > 0/)).toBeTruthy();
     const alert = screen.getByRole('alert');

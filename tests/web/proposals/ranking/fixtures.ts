@@ -18,8 +18,15 @@ export const strainBridge = (): RecommendResult => json('../../fixtures/bridge-r
 export const studioLine = (): RecommendResult => json('../../fixtures/line-receiver.generated.json');
 /** Differential output with noise, bias-current, slew-rate and offset targets; noise and offset fall short on every option. */
 export const hydrophonePreamp = (): RecommendResult => json('../../fixtures/hydrophone-preamp.generated.json');
+/** Gain ±2 % from −40 to 85 °C, with the PTAT tail and its PNP among the options. */
+export const geophoneNode = (): RecommendResult => json('../../fixtures/geophone-node.generated.json');
 
-const SPEC_FILES = { strain: '../../fixtures/specs/bridge-receiver.json', studio: '../../fixtures/specs/line-receiver.json', hydrophone: '../../fixtures/specs/hydrophone-preamp.json' } as const;
+const SPEC_FILES = {
+  strain: '../../fixtures/specs/bridge-receiver.json',
+  studio: '../../fixtures/specs/line-receiver.json',
+  hydrophone: '../../fixtures/specs/hydrophone-preamp.json',
+  geophone: '../../fixtures/specs/geophone-node.json',
+} as const;
 
 /** The spec a fixture was ranked from. */
 export const specOf = (spec: keyof typeof SPEC_FILES = 'strain'): Spec => json<Spec>(SPEC_FILES[spec]);

@@ -3,11 +3,11 @@ import { cleanup, render, screen } from '@testing-library/react';
 import { afterEach, describe, expect, test } from 'vitest';
 import type { Design, TopologyId } from '#shared/engine/types';
 import { OptionSchematic } from '../../../../web/src/features/proposals/components/ranking/schematic/option-schematic';
-import { strainBridge, studioLine } from './fixtures';
+import { geophoneNode, strainBridge, studioLine } from './fixtures';
 
 afterEach(cleanup);
 
-const designs = new Map(strainBridge().options.map((o) => [o.topology, o.design!]));
+const designs = new Map([...strainBridge().options, ...geophoneNode().options.filter((o) => o.topology === 'ptat')].map((o) => [o.topology, o.design!]));
 
 function drawn(design: Design) {
   const { container } = render(<OptionSchematic design={design} />);
@@ -24,6 +24,7 @@ describe('OptionSchematic', () => {
     ['widlar', ['Q1', 'Q2', 'Q3', 'Q4'], ['RC1', 'RC2', 'RE4', 'RREF']],
     ['wilson', ['Q1', 'Q2', 'Q3', 'Q4', 'Q5'], ['RC1', 'RC2', 'RREF']],
     ['cascode', ['Q1', 'Q2', 'Q3', 'Q4', 'Q5', 'Q6'], ['RC1', 'RC2', 'RREF']],
+    ['ptat', ['Q1', 'Q2', 'Q3', 'Q4', 'Q7', 'Q8', 'Q9'], ['RC1', 'RC2', 'RE4', 'RSU']],
   ])('%s draws transistors %j and resistors %j', (topology, devices, parts) => {
     const result = drawn(designs.get(topology)!);
     expect(result.devices).toEqual(devices);
@@ -60,6 +61,50 @@ describe('OptionSchematic', () => {
     expect(words).toContain('V− is −7.5 V');
   });
 
+  test('the PTAT tail labels its area ratios as plain ratios under Q4 and Q9, and its resistors in ohms', () => {
+    // Hand-set values on the engine's sized design, so the labels are known text; the output ratio left out is 1 (ENGINE-CONTRACT.md)
+    const design: Design = { ...designs.get('ptat')!, tail: { topology: 'ptat', emitterResistanceOhm: 348, startupResistanceOhm: 2_740_000, areaRatio: 8 } };
+    const { container } = drawn(design);
+    const labelsOf = (name: string) => [...container.querySelectorAll(`[data-device="${name}"] text`)].map((t) => t.textContent);
+    expect(labelsOf('Q4')).toEqual(['Q4', '8×']);
+    expect(labelsOf('Q9')).toEqual(['Q9', '1×']);
+    expect(labelsOf('Q3')).toEqual(['Q3']);
+    const labels = [...container.querySelectorAll('text')].map((t) => t.textContent);
+    expect(labels).toEqual(expect.arrayContaining(['RE4', '348 Ω', 'RSU', '2.74 MΩ']));
+    expect(labels).not.toContain('8 Ω');
+    expect(labels).not.toContain('1 Ω');
+    const words = screen.getByRole('img').getAttribute('aria-label')!;
+    expect(words).toMatch(/^Schematic, PTAT \(constant-gm\) source tail\./);
+    expect(words).toContain("Q4 (8× Q3's area)");
+    expect(words).toContain('RE4 348 Ω');
+    expect(words).toContain('RSU 2.74 MΩ');
+    expect(words).toContain('Q9 (1× area)');
+  });
+
+  test('a PTAT tail with another output ratio labels Q9 with it', () => {
+    const design: Design = { ...designs.get('ptat')!, tail: { topology: 'ptat', emitterResistanceOhm: 348, startupResistanceOhm: 2_740_000, areaRatio: 24, outputAreaRatio: 2.5 } };
+    const { container } = drawn(design);
+    expect([...container.querySelectorAll('[data-device="Q9"] text')].map((t) => t.textContent)).toEqual(['Q9', '2.5×']);
+    expect([...container.querySelectorAll('[data-device="Q4"] text')].map((t) => t.textContent)).toEqual(['Q4', '24×']);
+  });
+
+  test('the PTAT tail’s mirror is drawn as PNPs: the emitter arrow points into the bar, as the NPNs’ points out of it', () => {
+    // IEEE 315 / IEC 60617: the arrow sits on the emitter, pointing out of the base for an NPN and into it for a PNP
+    const { container } = drawn(designs.get('ptat')!);
+    const arrow = (name: string) => {
+      const device = container.querySelector(`[data-device="${name}"]`)!;
+      const bar = device.querySelector('line')!;
+      const barX = Number(bar.getAttribute('x1'));
+      const [tip, ...back] = device.querySelector('polygon')!.getAttribute('points')!.split(' ').map((p) => p.split(',').map(Number));
+      const backX = (back[0][0] + back[1][0]) / 2;
+      return Math.abs(tip[0] - barX) < Math.abs(backX - barX) ? 'into the bar' : 'out of the bar';
+    };
+    expect(['Q7', 'Q8'].map(arrow)).toEqual(['into the bar', 'into the bar']);
+    expect(['Q1', 'Q2', 'Q3', 'Q4', 'Q9'].map(arrow)).toEqual(Array(5).fill('out of the bar'));
+    const pnps = [...container.querySelectorAll('[data-polarity="pnp"]')].map((g) => g.getAttribute('data-device'));
+    expect(pnps.sort()).toEqual(['Q7', 'Q8']);
+  });
+
   test('a single supply says its negative rail is ground', () => {
     const design = { ...designs.get('resistor')!, supply: { positiveV: 12, negativeV: 0 } };
     const { container } = drawn(design);
@@ -71,7 +116,7 @@ describe('OptionSchematic colours', () => {
   /** The colour an element draws in: its own stroke or fill, or currentColor from its group. */
   const paints = (el: Element) => [el.getAttribute('stroke'), el.getAttribute('fill')].filter((p) => p !== null && p !== 'none');
 
-  test.each<TopologyId>(['resistor', 'simple-mirror', 'degenerated-mirror', 'widlar', 'wilson', 'cascode'])('%s: the whole tail is drawn in the accent group and only there, every stroke in currentColor', (topology) => {
+  test.each<TopologyId>(['resistor', 'simple-mirror', 'degenerated-mirror', 'widlar', 'wilson', 'cascode', 'ptat'])('%s: the whole tail is drawn in the accent group and only there, every stroke in currentColor', (topology) => {
     const { container } = render(<OptionSchematic design={designs.get(topology)!} />);
     const accent = container.querySelector('g[data-accent="tail"]')!;
     expect(accent.getAttribute('class')).toMatch(/\btext-fern\b/);

@@ -1,13 +1,20 @@
 /** The words behind the schematic (its aria-label): the circuit of ENGINE-CONTRACT.md, with values. */
 import type { Design, TailDesign } from '#shared/engine/types';
 import { formatQuantity } from '#shared/units/format-quantity';
-import { TOPOLOGY_CATALOGUE, tailValueOhm, topologyName, type TailField } from '#shared/engine/topologies';
+import { TOPOLOGY_CATALOGUE, tailRatio, tailRatioFieldsOf, tailValueOhm, type TailField, type TailRatioField } from '#shared/engine/topologies';
+import { topologyNameInText } from '../../../lib/topology-names';
 
 const ohm = (valueOhm: number) => formatQuantity(valueOhm, 'Ohm');
 
-/** The tail's circuit in the catalogue's words, each `{field}` filled with its value. */
+/**
+ * The tail's circuit in the catalogue's words, each `{field}` filled with its value: a resistor in
+ * ohms, an area ratio as the plain number the words follow with "×" ("Q4 (8× Q3's area)").
+ */
 function tailWords(tail: TailDesign): string {
-  return TOPOLOGY_CATALOGUE[tail.topology].circuitWords.replace(/\{(\w+)\}/g, (_, field: TailField) => ohm(tailValueOhm(tail, field)));
+  const ratios: readonly string[] = tailRatioFieldsOf(tail.topology);
+  return TOPOLOGY_CATALOGUE[tail.topology].circuitWords.replace(/\{(\w+)\}/g, (_, field: string) =>
+    ratios.includes(field) ? formatQuantity(tailRatio(tail, field as TailRatioField), '1') : ohm(tailValueOhm(tail, field as TailField)),
+  );
 }
 
 /** A sentence describing the whole stage with its sized values. */
@@ -16,7 +23,7 @@ export function schematicDescription(design: Design): string {
   const reOhm = design.pairEmitterResistanceOhm ?? 0;
   const emitters = reOhm > 0 ? `emitters through RE1 and RE2 ${ohm(reOhm)} each to the tail node t` : 'emitters joined at the tail node t';
   return (
-    `Schematic, ${topologyName(design.tail.topology).toLowerCase()} tail. Emitter-coupled pair Q1 and Q2, bases at in1 and in2, ` +
+    `Schematic, ${topologyNameInText(design.tail.topology)} tail. Emitter-coupled pair Q1 and Q2, bases at in1 and in2, ` +
     `collectors c1 and c2 through RC1 and RC2 ${ohm(design.collectorResistanceOhm)} to V+ (${formatQuantity(positiveV, 'V')}), ${emitters}. ` +
     `Tail: ${tailWords(design.tail)}. V− is ${formatQuantity(negativeV, 'V')}.`
   );

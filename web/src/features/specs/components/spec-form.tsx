@@ -26,6 +26,8 @@ import { specValidator } from '../lib/spec-validator';
 import { stableJson } from '../lib/stable-json';
 import { DeviceModelField } from './device-model-field';
 import { CardModelField } from './card-model-field';
+import { PnpDeviceField } from './pnp-device-field';
+import { tailsNeedingPnp, type PnpChoiceContext } from '../lib/pnp-choice';
 
 export type SpecDraft = Record<string, unknown>;
 
@@ -44,8 +46,8 @@ export interface SpecFormProps {
   projectId?: number;
 }
 
-/** Fields of our own: the device-library picker (`deviceModel`) and the card's model it fills (`device.model`, read-only). */
-const SPEC_FIELDS: RegistryFieldsType = { deviceModel: DeviceModelField, cardModel: CardModelField };
+/** Fields of our own: the device-library picker (`deviceModel`), the card's model it fills (`device.model`, read-only), and the PNP section (`device.pnp`). */
+const SPEC_FIELDS: RegistryFieldsType = { deviceModel: DeviceModelField, cardModel: CardModelField, pnpDevice: PnpDeviceField };
 
 export function SpecForm(props: SpecFormProps) {
   const schemaQuery = useQuery(specSchemaQuery());
@@ -132,7 +134,12 @@ function SpecFormBody({
   ) : (
     note
   );
-  const formContext = useMemo<FormContext & DeviceChoiceContext>(() => ({ reportUnreadable, submitNote, deviceLibrary }), [reportUnreadable, submitNote, deviceLibrary]);
+  const pnpTailsKey = tailsNeedingPnp(formData).join(' ');
+  const pnpTails = useMemo(() => (pnpTailsKey === '' ? [] : pnpTailsKey.split(' ')), [pnpTailsKey]) as PnpChoiceContext['pnpTails'];
+  const formContext = useMemo<FormContext & DeviceChoiceContext & PnpChoiceContext>(
+    () => ({ reportUnreadable, submitNote, deviceLibrary, pnpTails }),
+    [reportUnreadable, submitNote, deviceLibrary, pnpTails],
+  );
 
   const onChange = (event: IChangeEvent<SpecDraft>) => {
     // A card chosen from the device library fills the device; editing its values drops the choice

@@ -88,22 +88,32 @@ export function withDeviceChoice(previous: Draft, next: Draft, library: readonly
 /** An object with no value in it (rjsf may leave keys holding `undefined`). */
 const isEmptyRecord = (value: unknown) => value !== null && typeof value === 'object' && !Array.isArray(value) && Object.values(value).every((v) => v === undefined);
 
+/** The object without its key `key` when that holds an empty record (the same object otherwise). */
+function withoutEmpty(record: Draft, key: string): Draft {
+  if (!isEmptyRecord(record[key])) return record;
+  const { [key]: _empty, ...rest } = record;
+  return rest;
+}
+
 /**
- * The draft without an empty `deviceModel` or `device.model`: rjsf hands those back as `{}` for
- * object fields nobody filled, and an empty one is no record of a card (`deviceModel` would miss
- * its name) and no card (an empty `model` would make the typed device a card of SPICE's
- * defaults). What the form checks and saves goes through this.
+ * The draft without an empty `deviceModel`, `device.model`, `device.pnp` or `device.pnp.model`:
+ * rjsf hands those back as `{}` for object fields nobody filled, and an empty one is no record of
+ * a card (`deviceModel` would miss its name), no card (an empty `model` would make the typed device
+ * a card of SPICE's defaults) and no PNP (the PNP section emptied again). What the form checks and
+ * saves goes through this.
  */
 export function withoutEmptyCard<T extends Draft>(draft: T): T {
-  let out: Draft = draft;
-  if (isEmptyRecord(out.deviceModel)) {
-    const { deviceModel: _empty, ...rest } = out;
-    out = rest;
-  }
+  let out: Draft = withoutEmpty(draft, 'deviceModel');
   const device = out.device as Draft | undefined;
-  if (device && isEmptyRecord(device.model)) {
-    const { model: _empty, ...rest } = device;
-    out = { ...out, device: rest };
+  if (device) {
+    let next = withoutEmpty(device, 'model');
+    const pnp = next.pnp as Draft | undefined;
+    if (pnp) {
+      const pnpNext = withoutEmpty(pnp, 'model');
+      if (pnpNext !== pnp) next = { ...next, pnp: pnpNext };
+      next = withoutEmpty(next, 'pnp');
+    }
+    if (next !== device) out = { ...out, device: next };
   }
   return out as T;
 }

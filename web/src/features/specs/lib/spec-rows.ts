@@ -38,16 +38,26 @@ function titleOf(node: SchemaNode | undefined, fallback: string): string {
   return typeof node?.title === 'string' ? node.title : fallback;
 }
 
-/** The rows of one top-level field: its own row, or one row per property of an object, in schema order. */
+/**
+ * The rows of one top-level field: its own row, or one row per property of an object, in schema
+ * order; an object inside it that the document gives (the PNP transistor, a model card) as one
+ * row per value it holds, never as JSON.
+ */
 function fieldRows(document: Record<string, unknown>, name: string): SpecRow[] {
   const node = propertySchema(SCHEMA, name);
   const value = document[name];
   if (node?.type === 'object' && isObject(node.properties)) {
     const inner = isObject(value) ? value : {};
     const names = [...Object.keys(node.properties), ...Object.keys(inner).filter((k) => !(k in (node.properties as object)))];
-    return names.map((key) => {
+    return names.flatMap((key) => {
       const child = propertySchema(node, key);
-      return { path: `/${name}/${key}`, label: titleOf(child, key), value: valueText(inner[key], child, key) };
+      const given = inner[key];
+      if (child?.type === 'object' && isObject(given)) {
+        return Object.entries(given)
+          .filter(([, v]) => v !== undefined)
+          .map(([sub, v]) => ({ path: `/${name}/${key}/${sub}`, label: titleOf(propertySchema(child, sub), sub), value: valueText(v, propertySchema(child, sub), sub) }));
+      }
+      return [{ path: `/${name}/${key}`, label: titleOf(child, key), value: valueText(given, child, key) }];
     });
   }
   return [{ path: `/${name}`, label: titleOf(node, name), value: valueText(value, node, name) }];

@@ -6,7 +6,8 @@
 import type { UiSchema } from '@rjsf/utils';
 import type { FormLayout } from '../../../components/forms/object-field-template';
 import type { SchemaNode } from './schema-nodes';
-import { TOPOLOGIES, topologyName } from '#shared/engine/topologies';
+import { TOPOLOGIES, TOPOLOGY_CATALOGUE, topologyName } from '#shared/engine/topologies';
+import { PNP_TAILS } from './pnp-choice';
 
 export const SPEC_LAYOUT: FormLayout = {
   lead: ['title'],
@@ -21,7 +22,7 @@ export const SPEC_LAYOUT: FormLayout = {
     { title: 'Output & power', fields: ['outputSwingVpp', 'outputSwingMaxCompressionPercent', 'powerBudgetW', 'tailCurrentA'] },
     { title: 'Temperature', fields: ['temperatureC'] },
     { title: 'Options', fields: ['topologies', 'policy'] },
-    { title: 'Device', fields: ['deviceModel', 'device', 'betaRange'], note: 'One NPN model for every transistor of the stage.' },
+    { title: 'Device', fields: ['deviceModel', 'device', 'betaRange'], note: 'One NPN model for every NPN transistor of the stage; a PNP too when a chosen tail needs one.' },
     { title: 'Resistors', fields: ['resistors'] },
     { title: 'Monte Carlo', fields: ['monteCarlo'], note: 'Yield of the differential CMRR under tolerance and mismatch.' },
     { title: 'Hazards', fields: ['hazards'], note: 'Conditions that add safety cautions to the report.' },
@@ -30,6 +31,14 @@ export const SPEC_LAYOUT: FormLayout = {
 
 /** The tail options' names: the catalogue's, as on every other page. */
 export const TOPOLOGY_WORDS: Record<string, string> = Object.fromEntries(TOPOLOGIES.map((id) => [id, topologyName(id)]));
+
+/** The tail options as the picker offers them: a tail that needs a second device says so beside its name. */
+const TOPOLOGY_PICKER_WORDS: Record<string, string> = Object.fromEntries(
+  TOPOLOGIES.map((id) => [id, TOPOLOGY_CATALOGUE[id].needsDevice === 'pnp' ? `${topologyName(id)} — needs a PNP transistor` : topologyName(id)]),
+);
+
+/** What the picker says under the options about the tails that need a PNP. */
+const TOPOLOGY_PICKER_HELP = `${PNP_TAILS.map((id) => topologyName(id)).join(' and ')}: its current rises with absolute temperature, so the pair’s gm, and a resistor-loaded gain, hold over temperature. It mirrors through PNP transistors, so choosing it asks for the PNP under Device; it is left out unless chosen.`;
 
 /** Words for enum values, by property name; also used to print values in the version history. */
 export const ENUM_WORDS: Record<string, Record<string, string>> = {
@@ -47,6 +56,11 @@ export const SPEC_UI_SCHEMA: UiSchema = {
     family: { 'ui:widget': 'fixed', 'ui:options': { display: 'NPN bipolar' } },
     saturationCurrentA: { 'ui:placeholder': 'from VBE at 1 mA' },
     model: { 'ui:field': 'cardModel' },
+    pnp: {
+      'ui:field': 'pnpDevice',
+      saturationCurrentA: { 'ui:placeholder': 'from VBE at 1 mA' },
+      model: { 'ui:field': 'cardModel' },
+    },
   },
   gain: { output: { 'ui:widget': 'radio', 'ui:enumNames': ENUM_WORDS.output, 'ui:options': { wide: true } } },
   resistors: { series: { 'ui:widget': 'radio' } },
@@ -61,7 +75,7 @@ export const SPEC_UI_SCHEMA: UiSchema = {
   slewRateMinVPerS: { 'ui:placeholder': 'not checked' },
   bandwidthMinHz: { 'ui:placeholder': 'not checked' },
   betaRange: { min: { 'ui:placeholder': 'half the nominal' }, max: { 'ui:placeholder': 'twice the nominal' } },
-  topologies: { 'ui:widget': 'checkboxes', 'ui:enumNames': TOPOLOGY_WORDS, 'ui:options': { wide: true } },
+  topologies: { 'ui:widget': 'checkboxes', 'ui:enumNames': TOPOLOGY_PICKER_WORDS, 'ui:help': TOPOLOGY_PICKER_HELP, 'ui:options': { wide: true } },
   policy: { 'ui:widget': 'radio', 'ui:enumNames': ENUM_WORDS.policy, 'ui:options': { wide: true } },
 };
 

@@ -16,7 +16,7 @@ function ucs2length(str) {
   }
   return length;
 }
-const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"default":{},"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"model":{"type":"object","title":"SPICE model card","description":"The transistor's Gummel-Poon parameters by their SPICE names, SI units; a parameter left out takes SPICE's default. When given, this card is the device: current gain, Early voltage and saturation current may be left out, and where given must equal BF, VAF and IS.","additionalProperties":false,"properties":{"IS":{"type":"number","title":"IS","description":"Transport saturation current, in amperes (A); 1e-20 or more, up to 1e-9. Left out: 1e-16 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"BF":{"type":"number","title":"BF","description":"Ideal maximum forward current gain, a ratio (A/A); 1 or more, up to 10000. Left out: 100 (SPICE's default).","x-unit":"A/A","x-typical":{"min":30,"max":800},"minimum":1,"maximum":10000},"NF":{"type":"number","title":"NF","description":"Forward current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAF":{"type":"number","title":"VAF","description":"Forward Early voltage, in volts (V); 0 (infinite) or 1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":10,"max":500},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"IKF":{"type":"number","title":"IKF","description":"Corner of forward gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISE":{"type":"number","title":"ISE","description":"Base-emitter leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NE":{"type":"number","title":"NE","description":"Base-emitter leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 1.5 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"BR":{"type":"number","title":"BR","description":"Ideal maximum reverse current gain, a ratio (A/A); more than 0, up to 10000. Left out: 1 (SPICE's default).","x-unit":"A/A","x-typical":{"min":0.1,"max":20},"exclusiveMinimum":0,"maximum":10000},"NR":{"type":"number","title":"NR","description":"Reverse current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAR":{"type":"number","title":"VAR","description":"Reverse Early voltage, in volts (V); 0 (infinite) or 0.1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":2,"max":100},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":0.1}},"IKR":{"type":"number","title":"IKR","description":"Corner of reverse gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISC":{"type":"number","title":"ISC","description":"Base-collector leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NC":{"type":"number","title":"NC","description":"Base-collector leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 2 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"RB":{"type":"number","title":"RB","description":"Base resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":1,"max":1000},"minimum":0,"maximum":1000000},"RE":{"type":"number","title":"RE","description":"Emitter resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":100},"minimum":0,"maximum":1000000},"RC":{"type":"number","title":"RC","description":"Collector resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":1000},"minimum":0,"maximum":1000000},"CJE":{"type":"number","title":"CJE","description":"Base-emitter zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJE":{"type":"number","title":"VJE","description":"Base-emitter built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJE":{"type":"number","title":"MJE","description":"Base-emitter junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJC":{"type":"number","title":"CJC","description":"Base-collector zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJC":{"type":"number","title":"VJC","description":"Base-collector built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.3,"max":1.1},"minimum":0.1,"maximum":2},"MJC":{"type":"number","title":"MJC","description":"Base-collector junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJS":{"type":"number","title":"CJS","description":"Collector-substrate zero-bias capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":0,"max":1e-11},"minimum":0,"maximum":1e-8},"VJS":{"type":"number","title":"VJS","description":"Substrate junction built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJS":{"type":"number","title":"MJS","description":"Substrate junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":0.6},"minimum":0,"maximum":0.9},"FC":{"type":"number","title":"FC","description":"Forward-bias depletion capacitance coefficient, dimensionless; 0 or more, up to 0.95. Left out: 0.5 (SPICE's default).","x-unit":"1","x-typical":{"min":0.5,"max":0.9},"minimum":0,"maximum":0.95},"TF":{"type":"number","title":"TF","description":"Ideal forward transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-12,"max":1e-8},"minimum":0,"maximum":0.001},"TR":{"type":"number","title":"TR","description":"Ideal reverse transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-10,"max":0.000001},"minimum":0,"maximum":0.001},"EG":{"type":"number","title":"EG","description":"Energy gap for the temperature effect on IS, in electronvolts (eV); 0.1 or more, up to 4. Left out: 1.11 (SPICE's default).","x-unit":"eV","x-typical":{"min":0.6,"max":1.5},"minimum":0.1,"maximum":4},"XTI":{"type":"number","title":"XTI","description":"Temperature exponent for IS, dimensionless; -10 or more, up to 10. Left out: 3 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":5},"minimum":-10,"maximum":10},"XTB":{"type":"number","title":"XTB","description":"Forward and reverse beta temperature exponent, dimensionless; -5 or more, up to 5. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":3},"minimum":-5,"maximum":5},"KF":{"type":"number","title":"KF","description":"Flicker-noise coefficient, dimensionless; 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":1e-12},"minimum":0,"maximum":0.001},"AF":{"type":"number","title":"AF","description":"Flicker-noise exponent, dimensionless; 0.1 or more, up to 4. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.8,"max":2},"minimum":0.1,"maximum":4}}},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Headroom allowance: the collector-emitter voltage the compliance, input-range and swing checks keep above, in volts (V). Whether a transistor is saturated comes from its own operating point (its current gain more than 5 % below forward-active).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001},"betaMismatchSigma":{"type":"number","title":"Beta mismatch (1 sigma)","description":"Standard deviation of the relative current-gain (BF) difference between the two pair transistors, dimensionless: 0.02 is 2 %. A few per cent is usual for a matched pair (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.02},"earlyVoltageMismatchSigma":{"type":"number","title":"Early-voltage mismatch (1 sigma)","description":"Standard deviation of the relative Early-voltage (VAF) difference between the two pair transistors, dimensionless: 0.05 is 5 %. A few per cent for a matched pair, more for separate parts (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.05}}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"betaRange":{"type":"object","title":"Current-gain spread","description":"Lowest and highest forward current gain (BF) of the transistors fitted, as a datasheet's hFE limits give them: a corner every requirement must hold at. Left out: half and twice the nominal current gain (a small-signal part's hFE group spans about 2:1; common practice, from memory).","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest current gain","description":"Lowest forward current gain BF of a fitted transistor, a ratio (A/A); at most the nominal current gain. Left out: half the nominal.","x-unit":"A/A","x-typical":{"min":10,"max":2000},"minimum":1,"maximum":10000},"max":{"type":"number","title":"Highest current gain","description":"Highest forward current gain BF of a fitted transistor, a ratio (A/A); at least the nominal current gain. Left out: twice the nominal.","x-unit":"A/A","x-typical":{"min":10,"max":2000},"minimum":1,"maximum":10000}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"supplyTolerance":{"type":"object","title":"Supply tolerance","description":"How far each rail may stray from its nominal voltage, plus or minus: every requirement must hold with each rail at either end. Left out: ±5 % on each rail, usual for a regulated rail (common practice).","additionalProperties":false,"properties":{"positivePercent":{"type":"number","title":"Tolerance of the positive rail","description":"Tolerance of the positive rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 %.","x-unit":"%","minimum":0,"maximum":50,"default":5},"negativePercent":{"type":"number","title":"Tolerance of the negative rail","description":"Tolerance of the negative rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 % (nothing for a single supply at 0 V).","x-unit":"%","minimum":0,"maximum":50,"default":5}},"default":{}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"outputSwingMaxCompressionPercent":{"type":"number","title":"Compression at the swing's peak","description":"Largest gain compression allowed at the peak of the output swing, in per cent (%): how far the pair's large-signal output falls below the small-signal gain times the input there. 4 % at the peak is about 1 % third-harmonic distortion of a sine (common practice).","x-unit":"%","minimum":0.1,"maximum":50,"default":4},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1},"tempcoPpmPerC":{"type":"number","title":"Temperature coefficient","description":"Temperature coefficient of every resistor, plus or minus, in parts per million per degree Celsius (ppm/°C): 100 means ±100 ppm/°C. Left out: ±100 ppm/°C, usual for 1 % thick-film and metal-film parts (common practice).","x-unit":"ppm/°C","minimum":0,"maximum":5000,"default":100}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"loadCapacitanceF":{"type":"number","title":"Load capacitance","description":"Capacitance from each collector to AC ground (the next stage's input and wiring), in farads (F); it sets the differential bandwidth with the load resistors.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-8,"default":0},"sourceResistanceOhm":{"type":"number","title":"Source resistance","description":"Resistance in series with each base, between the drive and the pair's input, in ohms (Ω); 0 (none) or at least 1 mΩ, up to 10 MΩ. With the devices' capacitances it lowers the gain at high frequency.","x-unit":"Ω","x-typical":{"max":100000},"minimum":0,"maximum":10000000,"default":0},"noise":{"type":"object","title":"Input noise","description":"Largest input-referred noise density allowed at one frequency; give both or leave both out (then the noise is not checked).","additionalProperties":false,"properties":{"maxVPerRtHz":{"type":"number","title":"Largest noise density","description":"Largest input-referred voltage noise density, in volts per root hertz (V/√Hz); 8 nV/√Hz is 8e-9.","x-unit":"V/√Hz","x-typical":{"min":1e-10,"max":0.000001},"exclusiveMinimum":0,"maximum":0.001},"atFrequencyHz":{"type":"number","title":"Noise frequency","description":"Frequency at which the noise density is checked, in hertz (Hz); datasheets commonly quote 1 kHz, above the flicker-noise corner.","x-unit":"Hz","x-typical":{"min":0.1,"max":100000000},"exclusiveMinimum":0,"maximum":1000000000}}},"inputBiasCurrentMaxA":{"type":"number","title":"Largest input bias current","description":"Largest DC current into each input (the mean of the two), in amperes (A), at every corner; left out, it is not checked.","x-unit":"A","x-typical":{"min":1e-12,"max":0.001},"exclusiveMinimum":0,"maximum":0.1},"offset":{"type":"object","title":"Input offset","description":"Largest input offset voltage and drift, from the transistors' mismatch (VBE and current gain) and the resistor tolerance at the chosen number of standard deviations; give either limit or both. Left out, neither is checked.","additionalProperties":false,"properties":{"maxV":{"type":"number","title":"Largest offset","description":"Largest input offset voltage, in volts (V): the differential input that balances the outputs; 2 mV is 0.002.","x-unit":"V","x-typical":{"min":0.000001,"max":0.05},"exclusiveMinimum":0,"maximum":1},"driftMaxVPerC":{"type":"number","title":"Largest offset drift","description":"Largest change of the input offset voltage with temperature, in volts per degree Celsius (V/°C); 5 µV/°C is 5e-6.","x-unit":"V/°C","x-typical":{"min":1e-8,"max":0.0001},"exclusiveMinimum":0,"maximum":0.01},"sigmas":{"type":"number","title":"Offset confidence (sigmas)","description":"How many standard deviations of the mismatch the limits must hold at, dimensionless: 3 covers about 99.7 % of parts (common practice).","x-unit":"1","minimum":1,"maximum":6,"default":3}}},"slewRateMinVPerS":{"type":"number","title":"Lowest slew rate","description":"Lowest rate of change the differential output must reach after a large input step, in volts per second (V/s), at every corner; 2 V/µs is 2e6. Left out, it is not checked.","x-unit":"V/s","x-typical":{"min":1000,"max":10000000000},"exclusiveMinimum":0,"maximum":1000000000000},"bandwidthMinHz":{"type":"number","title":"Lowest bandwidth","description":"Lowest acceptable differential bandwidth, in hertz (Hz): the frequency where the differential gain has fallen 3 dB below its low-frequency value must be at least this, at every corner. Left out, it is not checked.","x-unit":"Hz","x-typical":{"min":10,"max":1000000000},"exclusiveMinimum":0,"maximum":10000000000},"psrrMinDb":{"type":"object","title":"Supply rejection","description":"Lowest power-supply rejection ratio (PSRR) of each rail, for the output named under Gain; a rail left out is not checked.","additionalProperties":false,"properties":{"positive":{"type":"number","title":"PSRR of the positive rail","description":"Lowest rejection of the positive rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.","x-unit":"dB","minimum":0,"maximum":200},"negative":{"type":"number","title":"PSRR of the negative rail","description":"Lowest rejection of the negative rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.","x-unit":"dB","minimum":0,"maximum":200}}},"linearInputRangeMinV":{"type":"number","title":"Linear input range","description":"Differential DC input amplitude, in volts (V), up to which the output must stay within 1 % of the gain times the input, for either sign and at every corner: the stage's linear range must reach at least this. Left out, it is not checked.","x-unit":"V","x-typical":{"min":0.001,"max":10},"exclusiveMinimum":0,"maximum":100},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
+const schema11 = {"$schema":"http://json-schema.org/draft-07/schema#","$id":"https://longtail.example/schema/spec.schema.json","title":"Requirement spec","description":"What the differential stage must achieve; Longtail sizes and ranks tail current sources against it. All quantities in SI units.","type":"object","additionalProperties":false,"required":["title","supply","gain","cmrr"],"properties":{"title":{"type":"string","title":"Title","description":"Short name of this spec, shown in lists and reports (one line of plain text: no line breaks, tabs or other control characters; no unit).","minLength":1,"maxLength":200,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"device":{"type":"object","title":"Transistor model","description":"One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.","additionalProperties":false,"default":{},"properties":{"family":{"type":"string","const":"npn","title":"Device family","description":"Transistor type of the pair and the tail; only NPN bipolar transistors today.","default":"npn"},"beta":{"type":"number","title":"Current gain (beta)","description":"Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.","x-unit":"A/A","minimum":10,"maximum":2000,"default":100},"earlyVoltageV":{"type":"number","title":"Early voltage","description":"Forward Early voltage VAF of every transistor, in volts (V). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1},"default":100},"saturationCurrentA":{"type":"number","title":"Saturation current IS","description":"Transport saturation current IS at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from the VBE at 1 mA.","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"model":{"type":"object","title":"SPICE model card","description":"The transistor's Gummel-Poon parameters by their SPICE names, SI units; a parameter left out takes SPICE's default. When given, this card is the device: current gain, Early voltage and saturation current may be left out, and where given must equal BF, VAF and IS.","additionalProperties":false,"properties":{"IS":{"type":"number","title":"IS","description":"Transport saturation current, in amperes (A); 1e-20 or more, up to 1e-9. Left out: 1e-16 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"BF":{"type":"number","title":"BF","description":"Ideal maximum forward current gain, a ratio (A/A); 1 or more, up to 10000. Left out: 100 (SPICE's default).","x-unit":"A/A","x-typical":{"min":30,"max":800},"minimum":1,"maximum":10000},"NF":{"type":"number","title":"NF","description":"Forward current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAF":{"type":"number","title":"VAF","description":"Forward Early voltage, in volts (V); 0 (infinite) or 1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":10,"max":500},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"IKF":{"type":"number","title":"IKF","description":"Corner of forward gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISE":{"type":"number","title":"ISE","description":"Base-emitter leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NE":{"type":"number","title":"NE","description":"Base-emitter leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 1.5 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"BR":{"type":"number","title":"BR","description":"Ideal maximum reverse current gain, a ratio (A/A); more than 0, up to 10000. Left out: 1 (SPICE's default).","x-unit":"A/A","x-typical":{"min":0.1,"max":20},"exclusiveMinimum":0,"maximum":10000},"NR":{"type":"number","title":"NR","description":"Reverse current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAR":{"type":"number","title":"VAR","description":"Reverse Early voltage, in volts (V); 0 (infinite) or 0.1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":2,"max":100},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":0.1}},"IKR":{"type":"number","title":"IKR","description":"Corner of reverse gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISC":{"type":"number","title":"ISC","description":"Base-collector leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NC":{"type":"number","title":"NC","description":"Base-collector leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 2 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"RB":{"type":"number","title":"RB","description":"Base resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":1,"max":1000},"minimum":0,"maximum":1000000},"RE":{"type":"number","title":"RE","description":"Emitter resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":100},"minimum":0,"maximum":1000000},"RC":{"type":"number","title":"RC","description":"Collector resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":1000},"minimum":0,"maximum":1000000},"CJE":{"type":"number","title":"CJE","description":"Base-emitter zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJE":{"type":"number","title":"VJE","description":"Base-emitter built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJE":{"type":"number","title":"MJE","description":"Base-emitter junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJC":{"type":"number","title":"CJC","description":"Base-collector zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJC":{"type":"number","title":"VJC","description":"Base-collector built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.3,"max":1.1},"minimum":0.1,"maximum":2},"MJC":{"type":"number","title":"MJC","description":"Base-collector junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJS":{"type":"number","title":"CJS","description":"Collector-substrate zero-bias capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":0,"max":1e-11},"minimum":0,"maximum":1e-8},"VJS":{"type":"number","title":"VJS","description":"Substrate junction built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJS":{"type":"number","title":"MJS","description":"Substrate junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":0.6},"minimum":0,"maximum":0.9},"FC":{"type":"number","title":"FC","description":"Forward-bias depletion capacitance coefficient, dimensionless; 0 or more, up to 0.95. Left out: 0.5 (SPICE's default).","x-unit":"1","x-typical":{"min":0.5,"max":0.9},"minimum":0,"maximum":0.95},"TF":{"type":"number","title":"TF","description":"Ideal forward transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-12,"max":1e-8},"minimum":0,"maximum":0.001},"TR":{"type":"number","title":"TR","description":"Ideal reverse transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-10,"max":0.000001},"minimum":0,"maximum":0.001},"EG":{"type":"number","title":"EG","description":"Energy gap for the temperature effect on IS, in electronvolts (eV); 0.1 or more, up to 4. Left out: 1.11 (SPICE's default).","x-unit":"eV","x-typical":{"min":0.6,"max":1.5},"minimum":0.1,"maximum":4},"XTI":{"type":"number","title":"XTI","description":"Temperature exponent for IS, dimensionless; -10 or more, up to 10. Left out: 3 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":5},"minimum":-10,"maximum":10},"XTB":{"type":"number","title":"XTB","description":"Forward and reverse beta temperature exponent, dimensionless; -5 or more, up to 5. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":3},"minimum":-5,"maximum":5},"KF":{"type":"number","title":"KF","description":"Flicker-noise coefficient, dimensionless; 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":1e-12},"minimum":0,"maximum":0.001},"AF":{"type":"number","title":"AF","description":"Flicker-noise exponent, dimensionless; 0.1 or more, up to 4. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.8,"max":2},"minimum":0.1,"maximum":4}}},"vbeOnV":{"type":"number","title":"VBE at 1 mA","description":"Base-emitter voltage at 1 mA collector current and 27 °C, in volts (V); sets IS when IS is not given.","x-unit":"V","minimum":0.4,"maximum":0.9,"default":0.65},"vceSatV":{"type":"number","title":"VCE(sat)","description":"Headroom allowance: the collector-emitter voltage the compliance, input-range and swing checks keep above, in volts (V). Whether a transistor is saturated comes from its own operating point (its current gain more than 5 % below forward-active).","x-unit":"V","minimum":0.05,"maximum":1,"default":0.2},"vbeMismatchSigmaV":{"type":"number","title":"VBE mismatch (1 sigma)","description":"Standard deviation of the VBE difference between the two pair transistors at equal currents, in volts (V); 0.001 V is 1 mV.","x-unit":"V","minimum":0,"maximum":0.02,"default":0.001},"betaMismatchSigma":{"type":"number","title":"Beta mismatch (1 sigma)","description":"Standard deviation of the relative current-gain (BF) difference between the two pair transistors, dimensionless: 0.02 is 2 %. A few per cent is usual for a matched pair (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.02},"earlyVoltageMismatchSigma":{"type":"number","title":"Early-voltage mismatch (1 sigma)","description":"Standard deviation of the relative Early-voltage (VAF) difference between the two pair transistors, dimensionless: 0.05 is 5 %. A few per cent for a matched pair, more for separate parts (common practice, from memory).","x-unit":"1","minimum":0,"maximum":0.3,"default":0.05},"pnp":{"type":"object","title":"PNP transistor","description":"The PNP transistor of tails that need one (the PTAT tail's mirror), SPICE's Gummel-Poon model as for the NPN: current gain, Early voltage and saturation current, or a model card. Needed only when such a tail is chosen.","additionalProperties":false,"properties":{"beta":{"type":"number","title":"PNP current gain (beta)","description":"Forward current gain BF of the PNP, a ratio (A/A). Typical small-signal PNP: 50 to 300.","x-unit":"A/A","minimum":10,"maximum":2000},"earlyVoltageV":{"type":"number","title":"PNP Early voltage","description":"Forward Early voltage VAF of the PNP, in volts (V), as SPICE writes it (positive). 0 means infinite (no Early effect); otherwise 1 to 1000 V.","x-unit":"V","minimum":0,"maximum":1000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"saturationCurrentA":{"type":"number","title":"PNP saturation current IS","description":"Transport saturation current IS of the PNP at 27 °C, in amperes (A); from 1e-20 A to 1 nA. Leave empty to derive it from a VBE of 0.65 V at 1 mA.","x-unit":"A","minimum":1e-20,"maximum":1e-9},"model":{"type":"object","title":"PNP SPICE model card","description":"The transistor's Gummel-Poon parameters by their SPICE names, SI units; a parameter left out takes SPICE's default. When given, this card is the device: current gain, Early voltage and saturation current may be left out, and where given must equal BF, VAF and IS.","additionalProperties":false,"properties":{"IS":{"type":"number","title":"IS","description":"Transport saturation current, in amperes (A); 1e-20 or more, up to 1e-9. Left out: 1e-16 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-12},"minimum":1e-20,"maximum":1e-9},"BF":{"type":"number","title":"BF","description":"Ideal maximum forward current gain, a ratio (A/A); 1 or more, up to 10000. Left out: 100 (SPICE's default).","x-unit":"A/A","x-typical":{"min":30,"max":800},"minimum":1,"maximum":10000},"NF":{"type":"number","title":"NF","description":"Forward current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAF":{"type":"number","title":"VAF","description":"Forward Early voltage, in volts (V); 0 (infinite) or 1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":10,"max":500},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":1}},"IKF":{"type":"number","title":"IKF","description":"Corner of forward gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISE":{"type":"number","title":"ISE","description":"Base-emitter leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NE":{"type":"number","title":"NE","description":"Base-emitter leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 1.5 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"BR":{"type":"number","title":"BR","description":"Ideal maximum reverse current gain, a ratio (A/A); more than 0, up to 10000. Left out: 1 (SPICE's default).","x-unit":"A/A","x-typical":{"min":0.1,"max":20},"exclusiveMinimum":0,"maximum":10000},"NR":{"type":"number","title":"NR","description":"Reverse current emission coefficient, dimensionless; 0.5 or more, up to 5. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.98,"max":1.1},"minimum":0.5,"maximum":5},"VAR":{"type":"number","title":"VAR","description":"Reverse Early voltage, in volts (V); 0 (infinite) or 0.1 to 10000. Left out: infinite (SPICE's default).","x-unit":"V","x-typical":{"min":2,"max":100},"minimum":0,"maximum":10000,"not":{"exclusiveMinimum":0,"exclusiveMaximum":0.1}},"IKR":{"type":"number","title":"IKR","description":"Corner of reverse gain high-current roll-off, in amperes (A); 0 or more, up to 1000. 0 means infinite. Left out: infinite (SPICE's default).","x-unit":"A","x-typical":{"min":0.001,"max":10},"minimum":0,"maximum":1000},"ISC":{"type":"number","title":"ISC","description":"Base-collector leakage saturation current, in amperes (A); 0 or more, up to 0.000001. Left out: 0 (SPICE's default).","x-unit":"A","x-typical":{"min":1e-18,"max":1e-11},"minimum":0,"maximum":0.000001},"NC":{"type":"number","title":"NC","description":"Base-collector leakage emission coefficient, dimensionless; 0.5 or more, up to 10. Left out: 2 (SPICE's default).","x-unit":"1","x-typical":{"min":1.2,"max":2.5},"minimum":0.5,"maximum":10},"RB":{"type":"number","title":"RB","description":"Base resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":1,"max":1000},"minimum":0,"maximum":1000000},"RE":{"type":"number","title":"RE","description":"Emitter resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":100},"minimum":0,"maximum":1000000},"RC":{"type":"number","title":"RC","description":"Collector resistance, in ohms (Ω); 0 or more, up to 1000000. Left out: 0 (SPICE's default).","x-unit":"Ω","x-typical":{"min":0.1,"max":1000},"minimum":0,"maximum":1000000},"CJE":{"type":"number","title":"CJE","description":"Base-emitter zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJE":{"type":"number","title":"VJE","description":"Base-emitter built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJE":{"type":"number","title":"MJE","description":"Base-emitter junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJC":{"type":"number","title":"CJC","description":"Base-collector zero-bias depletion capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":1e-13,"max":1e-10},"minimum":0,"maximum":1e-8},"VJC":{"type":"number","title":"VJC","description":"Base-collector built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.3,"max":1.1},"minimum":0.1,"maximum":2},"MJC":{"type":"number","title":"MJC","description":"Base-collector junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0.33 (SPICE's default).","x-unit":"1","x-typical":{"min":0.2,"max":0.6},"minimum":0,"maximum":0.9},"CJS":{"type":"number","title":"CJS","description":"Collector-substrate zero-bias capacitance, in farads (F); 0 or more, up to 1e-8. Left out: 0 (SPICE's default).","x-unit":"F","x-typical":{"min":0,"max":1e-11},"minimum":0,"maximum":1e-8},"VJS":{"type":"number","title":"VJS","description":"Substrate junction built-in potential, in volts (V); 0.1 or more, up to 2. Left out: 0.75 (SPICE's default).","x-unit":"V","x-typical":{"min":0.4,"max":1.1},"minimum":0.1,"maximum":2},"MJS":{"type":"number","title":"MJS","description":"Substrate junction grading exponent, dimensionless; 0 or more, up to 0.9. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":0.6},"minimum":0,"maximum":0.9},"FC":{"type":"number","title":"FC","description":"Forward-bias depletion capacitance coefficient, dimensionless; 0 or more, up to 0.95. Left out: 0.5 (SPICE's default).","x-unit":"1","x-typical":{"min":0.5,"max":0.9},"minimum":0,"maximum":0.95},"TF":{"type":"number","title":"TF","description":"Ideal forward transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-12,"max":1e-8},"minimum":0,"maximum":0.001},"TR":{"type":"number","title":"TR","description":"Ideal reverse transit time, in seconds (s); 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"s","x-typical":{"min":1e-10,"max":0.000001},"minimum":0,"maximum":0.001},"EG":{"type":"number","title":"EG","description":"Energy gap for the temperature effect on IS, in electronvolts (eV); 0.1 or more, up to 4. Left out: 1.11 (SPICE's default).","x-unit":"eV","x-typical":{"min":0.6,"max":1.5},"minimum":0.1,"maximum":4},"XTI":{"type":"number","title":"XTI","description":"Temperature exponent for IS, dimensionless; -10 or more, up to 10. Left out: 3 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":5},"minimum":-10,"maximum":10},"XTB":{"type":"number","title":"XTB","description":"Forward and reverse beta temperature exponent, dimensionless; -5 or more, up to 5. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":3},"minimum":-5,"maximum":5},"KF":{"type":"number","title":"KF","description":"Flicker-noise coefficient, dimensionless; 0 or more, up to 0.001. Left out: 0 (SPICE's default).","x-unit":"1","x-typical":{"min":0,"max":1e-12},"minimum":0,"maximum":0.001},"AF":{"type":"number","title":"AF","description":"Flicker-noise exponent, dimensionless; 0.1 or more, up to 4. Left out: 1 (SPICE's default).","x-unit":"1","x-typical":{"min":0.8,"max":2},"minimum":0.1,"maximum":4}}}}}}},"deviceModel":{"type":"object","title":"Device from the library","description":"The card of the project's device library the transistor model was filled from: its model name and the sha256 checksum of the file it came from. Absent when the device values were typed in.","additionalProperties":false,"required":["name","checksum"],"properties":{"name":{"type":"string","title":"Model name","description":"Name of the .model card in the project's device library, as written in the card (plain text, no unit).","minLength":1,"maxLength":64,"pattern":"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},"checksum":{"type":"string","title":"Library file checksum","description":"sha256 of the uploaded library file the card came from, as 64 lower-case hexadecimal digits (plain text, no unit).","pattern":"^[0-9a-f]{64}$"}}},"betaRange":{"type":"object","title":"Current-gain spread","description":"Lowest and highest forward current gain (BF) of the transistors fitted, as a datasheet's hFE limits give them: a corner every requirement must hold at. Left out: half and twice the nominal current gain (a small-signal part's hFE group spans about 2:1; common practice, from memory).","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest current gain","description":"Lowest forward current gain BF of a fitted transistor, a ratio (A/A); at most the nominal current gain. Left out: half the nominal.","x-unit":"A/A","x-typical":{"min":10,"max":2000},"minimum":1,"maximum":10000},"max":{"type":"number","title":"Highest current gain","description":"Highest forward current gain BF of a fitted transistor, a ratio (A/A); at least the nominal current gain. Left out: twice the nominal.","x-unit":"A/A","x-typical":{"min":10,"max":2000},"minimum":1,"maximum":10000}}},"supply":{"type":"object","title":"Supply rails","description":"The two DC rails; the negative rail may be 0 V for a single supply.","additionalProperties":false,"required":["positiveV","negativeV"],"properties":{"positiveV":{"type":"number","title":"Positive rail","description":"Voltage of the positive rail against ground, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"examples":[12]},"negativeV":{"type":"number","title":"Negative rail","description":"Voltage of the negative rail against ground, in volts (V); 0 for a single supply.","x-unit":"V","minimum":-100,"maximum":100,"examples":[-12]}}},"supplyTolerance":{"type":"object","title":"Supply tolerance","description":"How far each rail may stray from its nominal voltage, plus or minus: every requirement must hold with each rail at either end. Left out: ±5 % on each rail, usual for a regulated rail (common practice).","additionalProperties":false,"properties":{"positivePercent":{"type":"number","title":"Tolerance of the positive rail","description":"Tolerance of the positive rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 %.","x-unit":"%","minimum":0,"maximum":50,"default":5},"negativePercent":{"type":"number","title":"Tolerance of the negative rail","description":"Tolerance of the negative rail, plus or minus, in per cent (%) of its voltage: 5 means ±5 % (nothing for a single supply at 0 V).","x-unit":"%","minimum":0,"maximum":50,"default":5}},"default":{}},"gain":{"type":"object","title":"Gain","description":"Required small-signal gain of the stage at low frequency.","additionalProperties":false,"required":["target"],"properties":{"target":{"type":"number","title":"Gain target","description":"Required gain magnitude as a ratio (V/V), for the output named below.","x-unit":"V/V","exclusiveMinimum":0,"maximum":10000,"examples":[100]},"tolerancePercent":{"type":"number","title":"Gain tolerance","description":"Allowed deviation of the predicted gain from the target, in per cent (%).","x-unit":"%","minimum":0.1,"maximum":50,"default":10},"output":{"type":"string","enum":["differential","single-ended"],"title":"Output","description":"Where the gain is taken: between the two collectors (differential) or from one collector to ground (single-ended).","default":"differential"}}},"cmrr":{"type":"object","title":"Common-mode rejection","description":"Required common-mode rejection ratio (CMRR) for the output named under Gain.","additionalProperties":false,"required":["minDb"],"properties":{"minDb":{"type":"number","title":"Minimum CMRR","description":"Lowest acceptable common-mode rejection ratio, in decibels (dB), as a positive number.","x-unit":"dB","minimum":0,"maximum":200,"examples":[80]},"atFrequencyHz":{"type":"number","title":"At frequency","description":"Frequency at which the CMRR must be met, in hertz (Hz); 0 means DC.","x-unit":"Hz","x-typical":{"max":100000000},"minimum":0,"maximum":1000000000,"default":0},"marginDb":{"type":"number","title":"Design margin","description":"Extra rejection the nominal design must show above the minimum, in decibels (dB).","x-unit":"dB","minimum":0,"maximum":40,"default":6},"minYieldPercent":{"type":"number","title":"Minimum yield","description":"Share of Monte Carlo samples (resistor tolerance and transistor mismatch) that must meet the minimum CMRR, in per cent (%); differential output only.","x-unit":"%","minimum":0,"maximum":100,"default":99}}},"inputCommonMode":{"type":"object","title":"Input common-mode range","description":"DC voltage range on both bases over which every requirement must hold; strictly between the rails.","additionalProperties":false,"properties":{"minV":{"type":"number","title":"Lowest input common mode","description":"Lowest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0},"maxV":{"type":"number","title":"Highest input common mode","description":"Highest DC voltage on both bases, in volts (V).","x-unit":"V","minimum":-100,"maximum":100,"default":0}},"default":{}},"outputSwingVpp":{"type":"number","title":"Output swing","description":"Peak-to-peak signal swing the output must reach without saturating a transistor, in volts peak-to-peak (V); less than the rail span.","x-unit":"V","minimum":0,"maximum":200,"default":1},"outputSwingMaxCompressionPercent":{"type":"number","title":"Compression at the swing's peak","description":"Largest gain compression allowed at the peak of the output swing, in per cent (%): how far the pair's large-signal output falls below the small-signal gain times the input there. 4 % at the peak is about 1 % third-harmonic distortion of a sine (common practice).","x-unit":"%","minimum":0.1,"maximum":50,"default":4},"powerBudgetW":{"type":"number","title":"Power budget","description":"Highest DC power the stage may draw from both rails, reference branches included, in watts (W).","x-unit":"W","x-typical":{"min":0.00001,"max":10},"exclusiveMinimum":0,"default":1},"tailCurrentA":{"type":"number","title":"Tail current","description":"Fixes the tail current instead of letting the sizing choose it, in amperes (A); from 100 nA (the smallest current the sizing works at) to 100 mA. Leave empty to let Longtail choose.","x-unit":"A","x-typical":{"min":0.000001,"max":0.02},"minimum":1e-7,"maximum":0.1},"temperatureC":{"type":"object","title":"Temperature range","description":"Ambient temperature range over which every requirement must hold.","additionalProperties":false,"properties":{"min":{"type":"number","title":"Lowest temperature","description":"Lowest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":0},"max":{"type":"number","title":"Highest temperature","description":"Highest operating temperature, in degrees Celsius (°C).","x-unit":"°C","minimum":-55,"maximum":150,"default":70}},"default":{}},"resistors":{"type":"object","title":"Resistors","description":"Which resistor values and tolerances the sized design may use.","additionalProperties":false,"properties":{"series":{"type":"string","enum":["E24","E96","E192"],"title":"Preferred-value series","description":"IEC 60063 series every sized resistor is snapped to: E24 (usually 5 %), E96 (1 %) or E192 (0.5 % and tighter).","default":"E96"},"tolerancePercent":{"type":"number","title":"Resistor tolerance","description":"Tolerance of every resistor, plus or minus, in per cent (%): 1 means ±1 %. Older specs that gave it as a fraction (0.01 for ±1 %) are read and converted.","x-unit":"%","minimum":0.05,"maximum":20,"default":1},"tempcoPpmPerC":{"type":"number","title":"Temperature coefficient","description":"Temperature coefficient of every resistor, plus or minus, in parts per million per degree Celsius (ppm/°C): 100 means ±100 ppm/°C. Left out: ±100 ppm/°C, usual for 1 % thick-film and metal-film parts (common practice).","x-unit":"ppm/°C","minimum":0,"maximum":5000,"default":100}},"default":{}},"tailCapacitanceF":{"type":"number","title":"Tail capacitance","description":"Parasitic capacitance from the tail node to AC ground, in farads (F); it lowers the rejection at high frequency.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-9,"default":0},"loadCapacitanceF":{"type":"number","title":"Load capacitance","description":"Capacitance from each collector to AC ground (the next stage's input and wiring), in farads (F); it sets the differential bandwidth with the load resistors.","x-unit":"F","x-typical":{"max":1e-10},"minimum":0,"maximum":1e-8,"default":0},"sourceResistanceOhm":{"type":"number","title":"Source resistance","description":"Resistance in series with each base, between the drive and the pair's input, in ohms (Ω); 0 (none) or at least 1 mΩ, up to 10 MΩ. With the devices' capacitances it lowers the gain at high frequency.","x-unit":"Ω","x-typical":{"max":100000},"minimum":0,"maximum":10000000,"default":0},"noise":{"type":"object","title":"Input noise","description":"Largest input-referred noise density allowed at one frequency; give both or leave both out (then the noise is not checked).","additionalProperties":false,"properties":{"maxVPerRtHz":{"type":"number","title":"Largest noise density","description":"Largest input-referred voltage noise density, in volts per root hertz (V/√Hz); 8 nV/√Hz is 8e-9.","x-unit":"V/√Hz","x-typical":{"min":1e-10,"max":0.000001},"exclusiveMinimum":0,"maximum":0.001},"atFrequencyHz":{"type":"number","title":"Noise frequency","description":"Frequency at which the noise density is checked, in hertz (Hz); datasheets commonly quote 1 kHz, above the flicker-noise corner.","x-unit":"Hz","x-typical":{"min":0.1,"max":100000000},"exclusiveMinimum":0,"maximum":1000000000}}},"inputBiasCurrentMaxA":{"type":"number","title":"Largest input bias current","description":"Largest DC current into each input (the mean of the two), in amperes (A), at every corner; left out, it is not checked.","x-unit":"A","x-typical":{"min":1e-12,"max":0.001},"exclusiveMinimum":0,"maximum":0.1},"offset":{"type":"object","title":"Input offset","description":"Largest input offset voltage and drift, from the transistors' mismatch (VBE and current gain) and the resistor tolerance at the chosen number of standard deviations; give either limit or both. Left out, neither is checked.","additionalProperties":false,"properties":{"maxV":{"type":"number","title":"Largest offset","description":"Largest input offset voltage, in volts (V): the differential input that balances the outputs; 2 mV is 0.002.","x-unit":"V","x-typical":{"min":0.000001,"max":0.05},"exclusiveMinimum":0,"maximum":1},"driftMaxVPerC":{"type":"number","title":"Largest offset drift","description":"Largest change of the input offset voltage with temperature, in volts per degree Celsius (V/°C); 5 µV/°C is 5e-6.","x-unit":"V/°C","x-typical":{"min":1e-8,"max":0.0001},"exclusiveMinimum":0,"maximum":0.01},"sigmas":{"type":"number","title":"Offset confidence (sigmas)","description":"How many standard deviations of the mismatch the limits must hold at, dimensionless: 3 covers about 99.7 % of parts (common practice).","x-unit":"1","minimum":1,"maximum":6,"default":3}}},"slewRateMinVPerS":{"type":"number","title":"Lowest slew rate","description":"Lowest rate of change the differential output must reach after a large input step, in volts per second (V/s), at every corner; 2 V/µs is 2e6. Left out, it is not checked.","x-unit":"V/s","x-typical":{"min":1000,"max":10000000000},"exclusiveMinimum":0,"maximum":1000000000000},"bandwidthMinHz":{"type":"number","title":"Lowest bandwidth","description":"Lowest acceptable differential bandwidth, in hertz (Hz): the frequency where the differential gain has fallen 3 dB below its low-frequency value must be at least this, at every corner. Left out, it is not checked.","x-unit":"Hz","x-typical":{"min":10,"max":1000000000},"exclusiveMinimum":0,"maximum":10000000000},"psrrMinDb":{"type":"object","title":"Supply rejection","description":"Lowest power-supply rejection ratio (PSRR) of each rail, for the output named under Gain; a rail left out is not checked.","additionalProperties":false,"properties":{"positive":{"type":"number","title":"PSRR of the positive rail","description":"Lowest rejection of the positive rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.","x-unit":"dB","minimum":0,"maximum":200},"negative":{"type":"number","title":"PSRR of the negative rail","description":"Lowest rejection of the negative rail at low frequency, in decibels (dB), as a positive number: the gain over the gain from the rail to the output.","x-unit":"dB","minimum":0,"maximum":200}}},"linearInputRangeMinV":{"type":"number","title":"Linear input range","description":"Differential DC input amplitude, in volts (V), up to which the output must stay within 1 % of the gain times the input, for either sign and at every corner: the stage's linear range must reach at least this. Left out, it is not checked.","x-unit":"V","x-typical":{"min":0.001,"max":10},"exclusiveMinimum":0,"maximum":100},"topologies":{"type":"array","title":"Tail options","description":"Tail current sources to size and compare; at least one.","minItems":1,"uniqueItems":true,"items":{"type":"string","enum":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode","ptat"]},"default":["resistor","simple-mirror","degenerated-mirror","widlar","wilson","cascode"]},"policy":{"type":"string","enum":["simplest-sufficient","highest-rejection"],"title":"Selection policy","description":"Which passing option is recommended: the simplest that meets every requirement, or the one with the highest rejection.","default":"simplest-sufficient"},"hazards":{"type":"object","title":"Hazards","description":"Conditions that add safety cautions to the report.","additionalProperties":false,"properties":{"patientConnected":{"type":"boolean","title":"Patient-connected input","description":"The inputs connect to a patient (medical equipment); adds a caution deferring to IEC 60601-1.","default":false},"mainsReferenced":{"type":"boolean","title":"Mains-referenced input","description":"The inputs are referenced to the mains; adds a caution deferring to the applicable standard.","default":false}},"default":{}},"monteCarlo":{"type":"object","title":"Monte Carlo","description":"Statistical yield analysis of the differential CMRR.","additionalProperties":false,"properties":{"samples":{"type":"integer","title":"Samples","description":"Number of random circuits drawn, a count (dimensionless).","x-unit":"1","minimum":100,"maximum":100000,"default":2000},"seed":{"type":"integer","title":"Seed","description":"Seed of the pseudo-random generator, a non-negative 32-bit integer (dimensionless); the same seed gives the same result.","x-unit":"1","minimum":0,"maximum":4294967295,"default":1}},"default":{}}}};
 const func2 = Object.prototype.hasOwnProperty;
 const func3 = ucs2length;
 const pattern0 = new RegExp("^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$", "u");
@@ -1768,9 +1768,12 @@ vErrors.push(err145);
 errors++;
 }
 }
-}
-else {
-const err146 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.type,parentSchema:schema11.properties.device,data:data1};
+if(data1.pnp !== undefined){
+let data45 = data1.pnp;
+if(data45 && typeof data45 == "object" && !Array.isArray(data45)){
+for(const key3 in data45){
+if(!((((key3 === "beta") || (key3 === "earlyVoltageV")) || (key3 === "saturationCurrentA")) || (key3 === "model"))){
+const err146 = {instancePath:instancePath+"/device/pnp",schemaPath:"#/properties/device/properties/pnp/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.device.properties.pnp,data:data45};
 if(vErrors === null){
 vErrors = [err146];
 }
@@ -1780,11 +1783,11 @@ vErrors.push(err146);
 errors++;
 }
 }
-if(data.deviceModel !== undefined){
-let data45 = data.deviceModel;
-if(data45 && typeof data45 == "object" && !Array.isArray(data45)){
-if(data45.name === undefined){
-const err147 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "name"},message:"must have required property '"+"name"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data45};
+if(data45.beta !== undefined){
+let data46 = data45.beta;
+if(typeof data46 == "number"){
+if(data46 > 2000 || isNaN(data46)){
+const err147 = {instancePath:instancePath+"/device/pnp/beta",schemaPath:"#/properties/device/properties/pnp/properties/beta/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2000},message:"must be <= 2000",schema:2000,parentSchema:schema11.properties.device.properties.pnp.properties.beta,data:data46};
 if(vErrors === null){
 vErrors = [err147];
 }
@@ -1793,8 +1796,8 @@ vErrors.push(err147);
 }
 errors++;
 }
-if(data45.checksum === undefined){
-const err148 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "checksum"},message:"must have required property '"+"checksum"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data45};
+if(data46 < 10 || isNaN(data46)){
+const err148 = {instancePath:instancePath+"/device/pnp/beta",schemaPath:"#/properties/device/properties/pnp/properties/beta/minimum",keyword:"minimum",params:{comparison: ">=", limit: 10},message:"must be >= 10",schema:10,parentSchema:schema11.properties.device.properties.pnp.properties.beta,data:data46};
 if(vErrors === null){
 vErrors = [err148];
 }
@@ -1803,9 +1806,9 @@ vErrors.push(err148);
 }
 errors++;
 }
-for(const key3 in data45){
-if(!((key3 === "name") || (key3 === "checksum"))){
-const err149 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.deviceModel,data:data45};
+}
+else {
+const err149 = {instancePath:instancePath+"/device/pnp/beta",schemaPath:"#/properties/device/properties/pnp/properties/beta/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.beta.type,parentSchema:schema11.properties.device.properties.pnp.properties.beta,data:data46};
 if(vErrors === null){
 vErrors = [err149];
 }
@@ -1815,11 +1818,13 @@ vErrors.push(err149);
 errors++;
 }
 }
-if(data45.name !== undefined){
-let data46 = data45.name;
-if(typeof data46 === "string"){
-if(func3(data46) > 64){
-const err150 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.deviceModel.properties.name,data:data46};
+if(data45.earlyVoltageV !== undefined){
+let data47 = data45.earlyVoltageV;
+const _errs107 = errors;
+const _errs108 = errors;
+if(typeof data47 == "number"){
+if(data47 >= 1 || isNaN(data47)){
+const err150 = {};
 if(vErrors === null){
 vErrors = [err150];
 }
@@ -1828,8 +1833,9 @@ vErrors.push(err150);
 }
 errors++;
 }
-if(func3(data46) < 1){
-const err151 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.deviceModel.properties.name,data:data46};
+else {
+if(data47 <= 0 || isNaN(data47)){
+const err151 = {};
 if(vErrors === null){
 vErrors = [err151];
 }
@@ -1838,8 +1844,11 @@ vErrors.push(err151);
 }
 errors++;
 }
-if(!pattern0.test(data46)){
-const err152 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/pattern",keyword:"pattern",params:{pattern: "^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},message:"must match pattern \""+"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"+"\"",schema:"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$",parentSchema:schema11.properties.deviceModel.properties.name,data:data46};
+}
+}
+var valid7 = _errs108 === errors;
+if(valid7){
+const err152 = {instancePath:instancePath+"/device/pnp/earlyVoltageV",schemaPath:"#/properties/device/properties/pnp/properties/earlyVoltageV/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.pnp.properties.earlyVoltageV.not,parentSchema:schema11.properties.device.properties.pnp.properties.earlyVoltageV,data:data47};
 if(vErrors === null){
 vErrors = [err152];
 }
@@ -1848,9 +1857,20 @@ vErrors.push(err152);
 }
 errors++;
 }
+else {
+errors = _errs107;
+if(vErrors !== null){
+if(_errs107){
+vErrors.length = _errs107;
 }
 else {
-const err153 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.name.type,parentSchema:schema11.properties.deviceModel.properties.name,data:data46};
+vErrors = null;
+}
+}
+}
+if(typeof data47 == "number"){
+if(data47 > 1000 || isNaN(data47)){
+const err153 = {instancePath:instancePath+"/device/pnp/earlyVoltageV",schemaPath:"#/properties/device/properties/pnp/properties/earlyVoltageV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.pnp.properties.earlyVoltageV,data:data47};
 if(vErrors === null){
 vErrors = [err153];
 }
@@ -1859,12 +1879,8 @@ vErrors.push(err153);
 }
 errors++;
 }
-}
-if(data45.checksum !== undefined){
-let data47 = data45.checksum;
-if(typeof data47 === "string"){
-if(!pattern2.test(data47)){
-const err154 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/pattern",keyword:"pattern",params:{pattern: "^[0-9a-f]{64}$"},message:"must match pattern \""+"^[0-9a-f]{64}$"+"\"",schema:"^[0-9a-f]{64}$",parentSchema:schema11.properties.deviceModel.properties.checksum,data:data47};
+if(data47 < 0 || isNaN(data47)){
+const err154 = {instancePath:instancePath+"/device/pnp/earlyVoltageV",schemaPath:"#/properties/device/properties/pnp/properties/earlyVoltageV/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.earlyVoltageV,data:data47};
 if(vErrors === null){
 vErrors = [err154];
 }
@@ -1875,7 +1891,7 @@ errors++;
 }
 }
 else {
-const err155 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.checksum.type,parentSchema:schema11.properties.deviceModel.properties.checksum,data:data47};
+const err155 = {instancePath:instancePath+"/device/pnp/earlyVoltageV",schemaPath:"#/properties/device/properties/pnp/properties/earlyVoltageV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.earlyVoltageV.type,parentSchema:schema11.properties.device.properties.pnp.properties.earlyVoltageV,data:data47};
 if(vErrors === null){
 vErrors = [err155];
 }
@@ -1885,9 +1901,11 @@ vErrors.push(err155);
 errors++;
 }
 }
-}
-else {
-const err156 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.deviceModel.type,parentSchema:schema11.properties.deviceModel,data:data45};
+if(data45.saturationCurrentA !== undefined){
+let data48 = data45.saturationCurrentA;
+if(typeof data48 == "number"){
+if(data48 > 1e-9 || isNaN(data48)){
+const err156 = {instancePath:instancePath+"/device/pnp/saturationCurrentA",schemaPath:"#/properties/device/properties/pnp/properties/saturationCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.device.properties.pnp.properties.saturationCurrentA,data:data48};
 if(vErrors === null){
 vErrors = [err156];
 }
@@ -1896,13 +1914,8 @@ vErrors.push(err156);
 }
 errors++;
 }
-}
-if(data.betaRange !== undefined){
-let data48 = data.betaRange;
-if(data48 && typeof data48 == "object" && !Array.isArray(data48)){
-for(const key4 in data48){
-if(!((key4 === "min") || (key4 === "max"))){
-const err157 = {instancePath:instancePath+"/betaRange",schemaPath:"#/properties/betaRange/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.betaRange,data:data48};
+if(data48 < 1e-20 || isNaN(data48)){
+const err157 = {instancePath:instancePath+"/device/pnp/saturationCurrentA",schemaPath:"#/properties/device/properties/pnp/properties/saturationCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-20},message:"must be >= 1e-20",schema:1e-20,parentSchema:schema11.properties.device.properties.pnp.properties.saturationCurrentA,data:data48};
 if(vErrors === null){
 vErrors = [err157];
 }
@@ -1912,11 +1925,8 @@ vErrors.push(err157);
 errors++;
 }
 }
-if(data48.min !== undefined){
-let data49 = data48.min;
-if(typeof data49 == "number"){
-if(data49 > 10000 || isNaN(data49)){
-const err158 = {instancePath:instancePath+"/betaRange/min",schemaPath:"#/properties/betaRange/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.betaRange.properties.min,data:data49};
+else {
+const err158 = {instancePath:instancePath+"/device/pnp/saturationCurrentA",schemaPath:"#/properties/device/properties/pnp/properties/saturationCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.saturationCurrentA.type,parentSchema:schema11.properties.device.properties.pnp.properties.saturationCurrentA,data:data48};
 if(vErrors === null){
 vErrors = [err158];
 }
@@ -1925,8 +1935,13 @@ vErrors.push(err158);
 }
 errors++;
 }
-if(data49 < 1 || isNaN(data49)){
-const err159 = {instancePath:instancePath+"/betaRange/min",schemaPath:"#/properties/betaRange/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.betaRange.properties.min,data:data49};
+}
+if(data45.model !== undefined){
+let data49 = data45.model;
+if(data49 && typeof data49 == "object" && !Array.isArray(data49)){
+for(const key4 in data49){
+if(!(func2.call(schema11.properties.device.properties.pnp.properties.model.properties, key4))){
+const err159 = {instancePath:instancePath+"/device/pnp/model",schemaPath:"#/properties/device/properties/pnp/properties/model/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.device.properties.pnp.properties.model,data:data49};
 if(vErrors === null){
 vErrors = [err159];
 }
@@ -1936,8 +1951,11 @@ vErrors.push(err159);
 errors++;
 }
 }
-else {
-const err160 = {instancePath:instancePath+"/betaRange/min",schemaPath:"#/properties/betaRange/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.betaRange.properties.min.type,parentSchema:schema11.properties.betaRange.properties.min,data:data49};
+if(data49.IS !== undefined){
+let data50 = data49.IS;
+if(typeof data50 == "number"){
+if(data50 > 1e-9 || isNaN(data50)){
+const err160 = {instancePath:instancePath+"/device/pnp/model/IS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/IS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.IS,data:data50};
 if(vErrors === null){
 vErrors = [err160];
 }
@@ -1946,12 +1964,8 @@ vErrors.push(err160);
 }
 errors++;
 }
-}
-if(data48.max !== undefined){
-let data50 = data48.max;
-if(typeof data50 == "number"){
-if(data50 > 10000 || isNaN(data50)){
-const err161 = {instancePath:instancePath+"/betaRange/max",schemaPath:"#/properties/betaRange/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.betaRange.properties.max,data:data50};
+if(data50 < 1e-20 || isNaN(data50)){
+const err161 = {instancePath:instancePath+"/device/pnp/model/IS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/IS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-20},message:"must be >= 1e-20",schema:1e-20,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.IS,data:data50};
 if(vErrors === null){
 vErrors = [err161];
 }
@@ -1960,8 +1974,9 @@ vErrors.push(err161);
 }
 errors++;
 }
-if(data50 < 1 || isNaN(data50)){
-const err162 = {instancePath:instancePath+"/betaRange/max",schemaPath:"#/properties/betaRange/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.betaRange.properties.max,data:data50};
+}
+else {
+const err162 = {instancePath:instancePath+"/device/pnp/model/IS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/IS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.IS.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.IS,data:data50};
 if(vErrors === null){
 vErrors = [err162];
 }
@@ -1971,8 +1986,11 @@ vErrors.push(err162);
 errors++;
 }
 }
-else {
-const err163 = {instancePath:instancePath+"/betaRange/max",schemaPath:"#/properties/betaRange/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.betaRange.properties.max.type,parentSchema:schema11.properties.betaRange.properties.max,data:data50};
+if(data49.BF !== undefined){
+let data51 = data49.BF;
+if(typeof data51 == "number"){
+if(data51 > 10000 || isNaN(data51)){
+const err163 = {instancePath:instancePath+"/device/pnp/model/BF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/BF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.BF,data:data51};
 if(vErrors === null){
 vErrors = [err163];
 }
@@ -1981,10 +1999,8 @@ vErrors.push(err163);
 }
 errors++;
 }
-}
-}
-else {
-const err164 = {instancePath:instancePath+"/betaRange",schemaPath:"#/properties/betaRange/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.betaRange.type,parentSchema:schema11.properties.betaRange,data:data48};
+if(data51 < 1 || isNaN(data51)){
+const err164 = {instancePath:instancePath+"/device/pnp/model/BF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/BF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.BF,data:data51};
 if(vErrors === null){
 vErrors = [err164];
 }
@@ -1994,11 +2010,8 @@ vErrors.push(err164);
 errors++;
 }
 }
-if(data.supply !== undefined){
-let data51 = data.supply;
-if(data51 && typeof data51 == "object" && !Array.isArray(data51)){
-if(data51.positiveV === undefined){
-const err165 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "positiveV"},message:"must have required property '"+"positiveV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data51};
+else {
+const err165 = {instancePath:instancePath+"/device/pnp/model/BF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/BF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.BF.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.BF,data:data51};
 if(vErrors === null){
 vErrors = [err165];
 }
@@ -2007,8 +2020,12 @@ vErrors.push(err165);
 }
 errors++;
 }
-if(data51.negativeV === undefined){
-const err166 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "negativeV"},message:"must have required property '"+"negativeV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data51};
+}
+if(data49.NF !== undefined){
+let data52 = data49.NF;
+if(typeof data52 == "number"){
+if(data52 > 5 || isNaN(data52)){
+const err166 = {instancePath:instancePath+"/device/pnp/model/NF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5},message:"must be <= 5",schema:5,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NF,data:data52};
 if(vErrors === null){
 vErrors = [err166];
 }
@@ -2017,9 +2034,8 @@ vErrors.push(err166);
 }
 errors++;
 }
-for(const key5 in data51){
-if(!((key5 === "positiveV") || (key5 === "negativeV"))){
-const err167 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supply,data:data51};
+if(data52 < 0.5 || isNaN(data52)){
+const err167 = {instancePath:instancePath+"/device/pnp/model/NF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NF,data:data52};
 if(vErrors === null){
 vErrors = [err167];
 }
@@ -2029,11 +2045,8 @@ vErrors.push(err167);
 errors++;
 }
 }
-if(data51.positiveV !== undefined){
-let data52 = data51.positiveV;
-if(typeof data52 == "number"){
-if(data52 > 100 || isNaN(data52)){
-const err168 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.positiveV,data:data52};
+else {
+const err168 = {instancePath:instancePath+"/device/pnp/model/NF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.NF.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NF,data:data52};
 if(vErrors === null){
 vErrors = [err168];
 }
@@ -2042,8 +2055,14 @@ vErrors.push(err168);
 }
 errors++;
 }
-if(data52 < -100 || isNaN(data52)){
-const err169 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.positiveV,data:data52};
+}
+if(data49.VAF !== undefined){
+let data53 = data49.VAF;
+const _errs122 = errors;
+const _errs123 = errors;
+if(typeof data53 == "number"){
+if(data53 >= 1 || isNaN(data53)){
+const err169 = {};
 if(vErrors === null){
 vErrors = [err169];
 }
@@ -2052,9 +2071,9 @@ vErrors.push(err169);
 }
 errors++;
 }
-}
 else {
-const err170 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.positiveV.type,parentSchema:schema11.properties.supply.properties.positiveV,data:data52};
+if(data53 <= 0 || isNaN(data53)){
+const err170 = {};
 if(vErrors === null){
 vErrors = [err170];
 }
@@ -2064,11 +2083,10 @@ vErrors.push(err170);
 errors++;
 }
 }
-if(data51.negativeV !== undefined){
-let data53 = data51.negativeV;
-if(typeof data53 == "number"){
-if(data53 > 100 || isNaN(data53)){
-const err171 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.negativeV,data:data53};
+}
+var valid9 = _errs123 === errors;
+if(valid9){
+const err171 = {instancePath:instancePath+"/device/pnp/model/VAF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VAF/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.pnp.properties.model.properties.VAF.not,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VAF,data:data53};
 if(vErrors === null){
 vErrors = [err171];
 }
@@ -2077,8 +2095,20 @@ vErrors.push(err171);
 }
 errors++;
 }
-if(data53 < -100 || isNaN(data53)){
-const err172 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.negativeV,data:data53};
+else {
+errors = _errs122;
+if(vErrors !== null){
+if(_errs122){
+vErrors.length = _errs122;
+}
+else {
+vErrors = null;
+}
+}
+}
+if(typeof data53 == "number"){
+if(data53 > 10000 || isNaN(data53)){
+const err172 = {instancePath:instancePath+"/device/pnp/model/VAF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VAF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VAF,data:data53};
 if(vErrors === null){
 vErrors = [err172];
 }
@@ -2087,9 +2117,8 @@ vErrors.push(err172);
 }
 errors++;
 }
-}
-else {
-const err173 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.negativeV.type,parentSchema:schema11.properties.supply.properties.negativeV,data:data53};
+if(data53 < 0 || isNaN(data53)){
+const err173 = {instancePath:instancePath+"/device/pnp/model/VAF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VAF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VAF,data:data53};
 if(vErrors === null){
 vErrors = [err173];
 }
@@ -2099,9 +2128,8 @@ vErrors.push(err173);
 errors++;
 }
 }
-}
 else {
-const err174 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supply.type,parentSchema:schema11.properties.supply,data:data51};
+const err174 = {instancePath:instancePath+"/device/pnp/model/VAF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VAF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.VAF.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VAF,data:data53};
 if(vErrors === null){
 vErrors = [err174];
 }
@@ -2111,12 +2139,11 @@ vErrors.push(err174);
 errors++;
 }
 }
-if(data.supplyTolerance !== undefined){
-let data54 = data.supplyTolerance;
-if(data54 && typeof data54 == "object" && !Array.isArray(data54)){
-for(const key6 in data54){
-if(!((key6 === "positivePercent") || (key6 === "negativePercent"))){
-const err175 = {instancePath:instancePath+"/supplyTolerance",schemaPath:"#/properties/supplyTolerance/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supplyTolerance,data:data54};
+if(data49.IKF !== undefined){
+let data54 = data49.IKF;
+if(typeof data54 == "number"){
+if(data54 > 1000 || isNaN(data54)){
+const err175 = {instancePath:instancePath+"/device/pnp/model/IKF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/IKF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.IKF,data:data54};
 if(vErrors === null){
 vErrors = [err175];
 }
@@ -2125,12 +2152,8 @@ vErrors.push(err175);
 }
 errors++;
 }
-}
-if(data54.positivePercent !== undefined){
-let data55 = data54.positivePercent;
-if(typeof data55 == "number"){
-if(data55 > 50 || isNaN(data55)){
-const err176 = {instancePath:instancePath+"/supplyTolerance/positivePercent",schemaPath:"#/properties/supplyTolerance/properties/positivePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.supplyTolerance.properties.positivePercent,data:data55};
+if(data54 < 0 || isNaN(data54)){
+const err176 = {instancePath:instancePath+"/device/pnp/model/IKF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/IKF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.IKF,data:data54};
 if(vErrors === null){
 vErrors = [err176];
 }
@@ -2139,8 +2162,9 @@ vErrors.push(err176);
 }
 errors++;
 }
-if(data55 < 0 || isNaN(data55)){
-const err177 = {instancePath:instancePath+"/supplyTolerance/positivePercent",schemaPath:"#/properties/supplyTolerance/properties/positivePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.supplyTolerance.properties.positivePercent,data:data55};
+}
+else {
+const err177 = {instancePath:instancePath+"/device/pnp/model/IKF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/IKF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.IKF.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.IKF,data:data54};
 if(vErrors === null){
 vErrors = [err177];
 }
@@ -2150,8 +2174,11 @@ vErrors.push(err177);
 errors++;
 }
 }
-else {
-const err178 = {instancePath:instancePath+"/supplyTolerance/positivePercent",schemaPath:"#/properties/supplyTolerance/properties/positivePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supplyTolerance.properties.positivePercent.type,parentSchema:schema11.properties.supplyTolerance.properties.positivePercent,data:data55};
+if(data49.ISE !== undefined){
+let data55 = data49.ISE;
+if(typeof data55 == "number"){
+if(data55 > 0.000001 || isNaN(data55)){
+const err178 = {instancePath:instancePath+"/device/pnp/model/ISE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/ISE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.000001},message:"must be <= 0.000001",schema:0.000001,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.ISE,data:data55};
 if(vErrors === null){
 vErrors = [err178];
 }
@@ -2160,12 +2187,8 @@ vErrors.push(err178);
 }
 errors++;
 }
-}
-if(data54.negativePercent !== undefined){
-let data56 = data54.negativePercent;
-if(typeof data56 == "number"){
-if(data56 > 50 || isNaN(data56)){
-const err179 = {instancePath:instancePath+"/supplyTolerance/negativePercent",schemaPath:"#/properties/supplyTolerance/properties/negativePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.supplyTolerance.properties.negativePercent,data:data56};
+if(data55 < 0 || isNaN(data55)){
+const err179 = {instancePath:instancePath+"/device/pnp/model/ISE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/ISE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.ISE,data:data55};
 if(vErrors === null){
 vErrors = [err179];
 }
@@ -2174,8 +2197,9 @@ vErrors.push(err179);
 }
 errors++;
 }
-if(data56 < 0 || isNaN(data56)){
-const err180 = {instancePath:instancePath+"/supplyTolerance/negativePercent",schemaPath:"#/properties/supplyTolerance/properties/negativePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.supplyTolerance.properties.negativePercent,data:data56};
+}
+else {
+const err180 = {instancePath:instancePath+"/device/pnp/model/ISE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/ISE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.ISE.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.ISE,data:data55};
 if(vErrors === null){
 vErrors = [err180];
 }
@@ -2185,8 +2209,11 @@ vErrors.push(err180);
 errors++;
 }
 }
-else {
-const err181 = {instancePath:instancePath+"/supplyTolerance/negativePercent",schemaPath:"#/properties/supplyTolerance/properties/negativePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supplyTolerance.properties.negativePercent.type,parentSchema:schema11.properties.supplyTolerance.properties.negativePercent,data:data56};
+if(data49.NE !== undefined){
+let data56 = data49.NE;
+if(typeof data56 == "number"){
+if(data56 > 10 || isNaN(data56)){
+const err181 = {instancePath:instancePath+"/device/pnp/model/NE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NE,data:data56};
 if(vErrors === null){
 vErrors = [err181];
 }
@@ -2195,10 +2222,8 @@ vErrors.push(err181);
 }
 errors++;
 }
-}
-}
-else {
-const err182 = {instancePath:instancePath+"/supplyTolerance",schemaPath:"#/properties/supplyTolerance/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supplyTolerance.type,parentSchema:schema11.properties.supplyTolerance,data:data54};
+if(data56 < 0.5 || isNaN(data56)){
+const err182 = {instancePath:instancePath+"/device/pnp/model/NE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NE,data:data56};
 if(vErrors === null){
 vErrors = [err182];
 }
@@ -2208,11 +2233,8 @@ vErrors.push(err182);
 errors++;
 }
 }
-if(data.gain !== undefined){
-let data57 = data.gain;
-if(data57 && typeof data57 == "object" && !Array.isArray(data57)){
-if(data57.target === undefined){
-const err183 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/required",keyword:"required",params:{missingProperty: "target"},message:"must have required property '"+"target"+"'",schema:schema11.properties.gain.required,parentSchema:schema11.properties.gain,data:data57};
+else {
+const err183 = {instancePath:instancePath+"/device/pnp/model/NE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.NE.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NE,data:data56};
 if(vErrors === null){
 vErrors = [err183];
 }
@@ -2221,9 +2243,12 @@ vErrors.push(err183);
 }
 errors++;
 }
-for(const key7 in data57){
-if(!(((key7 === "target") || (key7 === "tolerancePercent")) || (key7 === "output"))){
-const err184 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.gain,data:data57};
+}
+if(data49.BR !== undefined){
+let data57 = data49.BR;
+if(typeof data57 == "number"){
+if(data57 > 10000 || isNaN(data57)){
+const err184 = {instancePath:instancePath+"/device/pnp/model/BR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/BR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.BR,data:data57};
 if(vErrors === null){
 vErrors = [err184];
 }
@@ -2232,12 +2257,8 @@ vErrors.push(err184);
 }
 errors++;
 }
-}
-if(data57.target !== undefined){
-let data58 = data57.target;
-if(typeof data58 == "number"){
-if(data58 > 10000 || isNaN(data58)){
-const err185 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.gain.properties.target,data:data58};
+if(data57 <= 0 || isNaN(data57)){
+const err185 = {instancePath:instancePath+"/device/pnp/model/BR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/BR/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.BR,data:data57};
 if(vErrors === null){
 vErrors = [err185];
 }
@@ -2246,8 +2267,9 @@ vErrors.push(err185);
 }
 errors++;
 }
-if(data58 <= 0 || isNaN(data58)){
-const err186 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.gain.properties.target,data:data58};
+}
+else {
+const err186 = {instancePath:instancePath+"/device/pnp/model/BR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/BR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.BR.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.BR,data:data57};
 if(vErrors === null){
 vErrors = [err186];
 }
@@ -2257,8 +2279,11 @@ vErrors.push(err186);
 errors++;
 }
 }
-else {
-const err187 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.target.type,parentSchema:schema11.properties.gain.properties.target,data:data58};
+if(data49.NR !== undefined){
+let data58 = data49.NR;
+if(typeof data58 == "number"){
+if(data58 > 5 || isNaN(data58)){
+const err187 = {instancePath:instancePath+"/device/pnp/model/NR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5},message:"must be <= 5",schema:5,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NR,data:data58};
 if(vErrors === null){
 vErrors = [err187];
 }
@@ -2267,12 +2292,8 @@ vErrors.push(err187);
 }
 errors++;
 }
-}
-if(data57.tolerancePercent !== undefined){
-let data59 = data57.tolerancePercent;
-if(typeof data59 == "number"){
-if(data59 > 50 || isNaN(data59)){
-const err188 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data59};
+if(data58 < 0.5 || isNaN(data58)){
+const err188 = {instancePath:instancePath+"/device/pnp/model/NR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NR,data:data58};
 if(vErrors === null){
 vErrors = [err188];
 }
@@ -2281,8 +2302,9 @@ vErrors.push(err188);
 }
 errors++;
 }
-if(data59 < 0.1 || isNaN(data59)){
-const err189 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data59};
+}
+else {
+const err189 = {instancePath:instancePath+"/device/pnp/model/NR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.NR.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NR,data:data58};
 if(vErrors === null){
 vErrors = [err189];
 }
@@ -2292,8 +2314,13 @@ vErrors.push(err189);
 errors++;
 }
 }
-else {
-const err190 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.tolerancePercent.type,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data59};
+if(data49.VAR !== undefined){
+let data59 = data49.VAR;
+const _errs136 = errors;
+const _errs137 = errors;
+if(typeof data59 == "number"){
+if(data59 >= 0.1 || isNaN(data59)){
+const err190 = {};
 if(vErrors === null){
 vErrors = [err190];
 }
@@ -2302,11 +2329,9 @@ vErrors.push(err190);
 }
 errors++;
 }
-}
-if(data57.output !== undefined){
-let data60 = data57.output;
-if(typeof data60 !== "string"){
-const err191 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.gain.properties.output.type,parentSchema:schema11.properties.gain.properties.output,data:data60};
+else {
+if(data59 <= 0 || isNaN(data59)){
+const err191 = {};
 if(vErrors === null){
 vErrors = [err191];
 }
@@ -2315,8 +2340,11 @@ vErrors.push(err191);
 }
 errors++;
 }
-if(!((data60 === "differential") || (data60 === "single-ended"))){
-const err192 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/enum",keyword:"enum",params:{allowedValues: schema11.properties.gain.properties.output.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.gain.properties.output.enum,parentSchema:schema11.properties.gain.properties.output,data:data60};
+}
+}
+var valid10 = _errs137 === errors;
+if(valid10){
+const err192 = {instancePath:instancePath+"/device/pnp/model/VAR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VAR/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema11.properties.device.properties.pnp.properties.model.properties.VAR.not,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VAR,data:data59};
 if(vErrors === null){
 vErrors = [err192];
 }
@@ -2325,10 +2353,20 @@ vErrors.push(err192);
 }
 errors++;
 }
-}
+else {
+errors = _errs136;
+if(vErrors !== null){
+if(_errs136){
+vErrors.length = _errs136;
 }
 else {
-const err193 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.gain.type,parentSchema:schema11.properties.gain,data:data57};
+vErrors = null;
+}
+}
+}
+if(typeof data59 == "number"){
+if(data59 > 10000 || isNaN(data59)){
+const err193 = {instancePath:instancePath+"/device/pnp/model/VAR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VAR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VAR,data:data59};
 if(vErrors === null){
 vErrors = [err193];
 }
@@ -2337,12 +2375,8 @@ vErrors.push(err193);
 }
 errors++;
 }
-}
-if(data.cmrr !== undefined){
-let data61 = data.cmrr;
-if(data61 && typeof data61 == "object" && !Array.isArray(data61)){
-if(data61.minDb === undefined){
-const err194 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/required",keyword:"required",params:{missingProperty: "minDb"},message:"must have required property '"+"minDb"+"'",schema:schema11.properties.cmrr.required,parentSchema:schema11.properties.cmrr,data:data61};
+if(data59 < 0 || isNaN(data59)){
+const err194 = {instancePath:instancePath+"/device/pnp/model/VAR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VAR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VAR,data:data59};
 if(vErrors === null){
 vErrors = [err194];
 }
@@ -2351,9 +2385,9 @@ vErrors.push(err194);
 }
 errors++;
 }
-for(const key8 in data61){
-if(!((((key8 === "minDb") || (key8 === "atFrequencyHz")) || (key8 === "marginDb")) || (key8 === "minYieldPercent"))){
-const err195 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key8},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.cmrr,data:data61};
+}
+else {
+const err195 = {instancePath:instancePath+"/device/pnp/model/VAR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VAR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.VAR.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VAR,data:data59};
 if(vErrors === null){
 vErrors = [err195];
 }
@@ -2363,11 +2397,11 @@ vErrors.push(err195);
 errors++;
 }
 }
-if(data61.minDb !== undefined){
-let data62 = data61.minDb;
-if(typeof data62 == "number"){
-if(data62 > 200 || isNaN(data62)){
-const err196 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.cmrr.properties.minDb,data:data62};
+if(data49.IKR !== undefined){
+let data60 = data49.IKR;
+if(typeof data60 == "number"){
+if(data60 > 1000 || isNaN(data60)){
+const err196 = {instancePath:instancePath+"/device/pnp/model/IKR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/IKR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.IKR,data:data60};
 if(vErrors === null){
 vErrors = [err196];
 }
@@ -2376,8 +2410,8 @@ vErrors.push(err196);
 }
 errors++;
 }
-if(data62 < 0 || isNaN(data62)){
-const err197 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minDb,data:data62};
+if(data60 < 0 || isNaN(data60)){
+const err197 = {instancePath:instancePath+"/device/pnp/model/IKR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/IKR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.IKR,data:data60};
 if(vErrors === null){
 vErrors = [err197];
 }
@@ -2388,7 +2422,7 @@ errors++;
 }
 }
 else {
-const err198 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minDb.type,parentSchema:schema11.properties.cmrr.properties.minDb,data:data62};
+const err198 = {instancePath:instancePath+"/device/pnp/model/IKR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/IKR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.IKR.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.IKR,data:data60};
 if(vErrors === null){
 vErrors = [err198];
 }
@@ -2398,11 +2432,11 @@ vErrors.push(err198);
 errors++;
 }
 }
-if(data61.atFrequencyHz !== undefined){
-let data63 = data61.atFrequencyHz;
-if(typeof data63 == "number"){
-if(data63 > 1000000000 || isNaN(data63)){
-const err199 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data63};
+if(data49.ISC !== undefined){
+let data61 = data49.ISC;
+if(typeof data61 == "number"){
+if(data61 > 0.000001 || isNaN(data61)){
+const err199 = {instancePath:instancePath+"/device/pnp/model/ISC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/ISC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.000001},message:"must be <= 0.000001",schema:0.000001,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.ISC,data:data61};
 if(vErrors === null){
 vErrors = [err199];
 }
@@ -2411,8 +2445,8 @@ vErrors.push(err199);
 }
 errors++;
 }
-if(data63 < 0 || isNaN(data63)){
-const err200 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data63};
+if(data61 < 0 || isNaN(data61)){
+const err200 = {instancePath:instancePath+"/device/pnp/model/ISC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/ISC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.ISC,data:data61};
 if(vErrors === null){
 vErrors = [err200];
 }
@@ -2423,7 +2457,7 @@ errors++;
 }
 }
 else {
-const err201 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.atFrequencyHz.type,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data63};
+const err201 = {instancePath:instancePath+"/device/pnp/model/ISC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/ISC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.ISC.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.ISC,data:data61};
 if(vErrors === null){
 vErrors = [err201];
 }
@@ -2433,11 +2467,11 @@ vErrors.push(err201);
 errors++;
 }
 }
-if(data61.marginDb !== undefined){
-let data64 = data61.marginDb;
-if(typeof data64 == "number"){
-if(data64 > 40 || isNaN(data64)){
-const err202 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 40},message:"must be <= 40",schema:40,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data64};
+if(data49.NC !== undefined){
+let data62 = data49.NC;
+if(typeof data62 == "number"){
+if(data62 > 10 || isNaN(data62)){
+const err202 = {instancePath:instancePath+"/device/pnp/model/NC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NC,data:data62};
 if(vErrors === null){
 vErrors = [err202];
 }
@@ -2446,8 +2480,8 @@ vErrors.push(err202);
 }
 errors++;
 }
-if(data64 < 0 || isNaN(data64)){
-const err203 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data64};
+if(data62 < 0.5 || isNaN(data62)){
+const err203 = {instancePath:instancePath+"/device/pnp/model/NC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.5},message:"must be >= 0.5",schema:0.5,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NC,data:data62};
 if(vErrors === null){
 vErrors = [err203];
 }
@@ -2458,7 +2492,7 @@ errors++;
 }
 }
 else {
-const err204 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.marginDb.type,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data64};
+const err204 = {instancePath:instancePath+"/device/pnp/model/NC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/NC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.NC.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.NC,data:data62};
 if(vErrors === null){
 vErrors = [err204];
 }
@@ -2468,11 +2502,11 @@ vErrors.push(err204);
 errors++;
 }
 }
-if(data61.minYieldPercent !== undefined){
-let data65 = data61.minYieldPercent;
-if(typeof data65 == "number"){
-if(data65 > 100 || isNaN(data65)){
-const err205 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data65};
+if(data49.RB !== undefined){
+let data63 = data49.RB;
+if(typeof data63 == "number"){
+if(data63 > 1000000 || isNaN(data63)){
+const err205 = {instancePath:instancePath+"/device/pnp/model/RB",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/RB/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000},message:"must be <= 1000000",schema:1000000,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.RB,data:data63};
 if(vErrors === null){
 vErrors = [err205];
 }
@@ -2481,8 +2515,8 @@ vErrors.push(err205);
 }
 errors++;
 }
-if(data65 < 0 || isNaN(data65)){
-const err206 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data65};
+if(data63 < 0 || isNaN(data63)){
+const err206 = {instancePath:instancePath+"/device/pnp/model/RB",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/RB/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.RB,data:data63};
 if(vErrors === null){
 vErrors = [err206];
 }
@@ -2493,7 +2527,7 @@ errors++;
 }
 }
 else {
-const err207 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minYieldPercent.type,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data65};
+const err207 = {instancePath:instancePath+"/device/pnp/model/RB",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/RB/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.RB.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.RB,data:data63};
 if(vErrors === null){
 vErrors = [err207];
 }
@@ -2503,9 +2537,11 @@ vErrors.push(err207);
 errors++;
 }
 }
-}
-else {
-const err208 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.cmrr.type,parentSchema:schema11.properties.cmrr,data:data61};
+if(data49.RE !== undefined){
+let data64 = data49.RE;
+if(typeof data64 == "number"){
+if(data64 > 1000000 || isNaN(data64)){
+const err208 = {instancePath:instancePath+"/device/pnp/model/RE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/RE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000},message:"must be <= 1000000",schema:1000000,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.RE,data:data64};
 if(vErrors === null){
 vErrors = [err208];
 }
@@ -2514,13 +2550,8 @@ vErrors.push(err208);
 }
 errors++;
 }
-}
-if(data.inputCommonMode !== undefined){
-let data66 = data.inputCommonMode;
-if(data66 && typeof data66 == "object" && !Array.isArray(data66)){
-for(const key9 in data66){
-if(!((key9 === "minV") || (key9 === "maxV"))){
-const err209 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.inputCommonMode,data:data66};
+if(data64 < 0 || isNaN(data64)){
+const err209 = {instancePath:instancePath+"/device/pnp/model/RE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/RE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.RE,data:data64};
 if(vErrors === null){
 vErrors = [err209];
 }
@@ -2530,11 +2561,8 @@ vErrors.push(err209);
 errors++;
 }
 }
-if(data66.minV !== undefined){
-let data67 = data66.minV;
-if(typeof data67 == "number"){
-if(data67 > 100 || isNaN(data67)){
-const err210 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data67};
+else {
+const err210 = {instancePath:instancePath+"/device/pnp/model/RE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/RE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.RE.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.RE,data:data64};
 if(vErrors === null){
 vErrors = [err210];
 }
@@ -2543,8 +2571,12 @@ vErrors.push(err210);
 }
 errors++;
 }
-if(data67 < -100 || isNaN(data67)){
-const err211 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data67};
+}
+if(data49.RC !== undefined){
+let data65 = data49.RC;
+if(typeof data65 == "number"){
+if(data65 > 1000000 || isNaN(data65)){
+const err211 = {instancePath:instancePath+"/device/pnp/model/RC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/RC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000},message:"must be <= 1000000",schema:1000000,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.RC,data:data65};
 if(vErrors === null){
 vErrors = [err211];
 }
@@ -2553,9 +2585,8 @@ vErrors.push(err211);
 }
 errors++;
 }
-}
-else {
-const err212 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.minV.type,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data67};
+if(data65 < 0 || isNaN(data65)){
+const err212 = {instancePath:instancePath+"/device/pnp/model/RC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/RC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.RC,data:data65};
 if(vErrors === null){
 vErrors = [err212];
 }
@@ -2565,11 +2596,8 @@ vErrors.push(err212);
 errors++;
 }
 }
-if(data66.maxV !== undefined){
-let data68 = data66.maxV;
-if(typeof data68 == "number"){
-if(data68 > 100 || isNaN(data68)){
-const err213 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data68};
+else {
+const err213 = {instancePath:instancePath+"/device/pnp/model/RC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/RC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.RC.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.RC,data:data65};
 if(vErrors === null){
 vErrors = [err213];
 }
@@ -2578,8 +2606,12 @@ vErrors.push(err213);
 }
 errors++;
 }
-if(data68 < -100 || isNaN(data68)){
-const err214 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data68};
+}
+if(data49.CJE !== undefined){
+let data66 = data49.CJE;
+if(typeof data66 == "number"){
+if(data66 > 1e-8 || isNaN(data66)){
+const err214 = {instancePath:instancePath+"/device/pnp/model/CJE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/CJE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.CJE,data:data66};
 if(vErrors === null){
 vErrors = [err214];
 }
@@ -2588,9 +2620,8 @@ vErrors.push(err214);
 }
 errors++;
 }
-}
-else {
-const err215 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.maxV.type,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data68};
+if(data66 < 0 || isNaN(data66)){
+const err215 = {instancePath:instancePath+"/device/pnp/model/CJE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/CJE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.CJE,data:data66};
 if(vErrors === null){
 vErrors = [err215];
 }
@@ -2600,9 +2631,8 @@ vErrors.push(err215);
 errors++;
 }
 }
-}
 else {
-const err216 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.inputCommonMode.type,parentSchema:schema11.properties.inputCommonMode,data:data66};
+const err216 = {instancePath:instancePath+"/device/pnp/model/CJE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/CJE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.CJE.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.CJE,data:data66};
 if(vErrors === null){
 vErrors = [err216];
 }
@@ -2612,11 +2642,11 @@ vErrors.push(err216);
 errors++;
 }
 }
-if(data.outputSwingVpp !== undefined){
-let data69 = data.outputSwingVpp;
-if(typeof data69 == "number"){
-if(data69 > 200 || isNaN(data69)){
-const err217 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.outputSwingVpp,data:data69};
+if(data49.VJE !== undefined){
+let data67 = data49.VJE;
+if(typeof data67 == "number"){
+if(data67 > 2 || isNaN(data67)){
+const err217 = {instancePath:instancePath+"/device/pnp/model/VJE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VJE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2},message:"must be <= 2",schema:2,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VJE,data:data67};
 if(vErrors === null){
 vErrors = [err217];
 }
@@ -2625,8 +2655,8 @@ vErrors.push(err217);
 }
 errors++;
 }
-if(data69 < 0 || isNaN(data69)){
-const err218 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.outputSwingVpp,data:data69};
+if(data67 < 0.1 || isNaN(data67)){
+const err218 = {instancePath:instancePath+"/device/pnp/model/VJE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VJE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VJE,data:data67};
 if(vErrors === null){
 vErrors = [err218];
 }
@@ -2637,7 +2667,7 @@ errors++;
 }
 }
 else {
-const err219 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingVpp.type,parentSchema:schema11.properties.outputSwingVpp,data:data69};
+const err219 = {instancePath:instancePath+"/device/pnp/model/VJE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VJE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.VJE.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VJE,data:data67};
 if(vErrors === null){
 vErrors = [err219];
 }
@@ -2647,11 +2677,11 @@ vErrors.push(err219);
 errors++;
 }
 }
-if(data.outputSwingMaxCompressionPercent !== undefined){
-let data70 = data.outputSwingMaxCompressionPercent;
-if(typeof data70 == "number"){
-if(data70 > 50 || isNaN(data70)){
-const err220 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data70};
+if(data49.MJE !== undefined){
+let data68 = data49.MJE;
+if(typeof data68 == "number"){
+if(data68 > 0.9 || isNaN(data68)){
+const err220 = {instancePath:instancePath+"/device/pnp/model/MJE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/MJE/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.MJE,data:data68};
 if(vErrors === null){
 vErrors = [err220];
 }
@@ -2660,8 +2690,8 @@ vErrors.push(err220);
 }
 errors++;
 }
-if(data70 < 0.1 || isNaN(data70)){
-const err221 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data70};
+if(data68 < 0 || isNaN(data68)){
+const err221 = {instancePath:instancePath+"/device/pnp/model/MJE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/MJE/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.MJE,data:data68};
 if(vErrors === null){
 vErrors = [err221];
 }
@@ -2672,7 +2702,7 @@ errors++;
 }
 }
 else {
-const err222 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingMaxCompressionPercent.type,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data70};
+const err222 = {instancePath:instancePath+"/device/pnp/model/MJE",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/MJE/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.MJE.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.MJE,data:data68};
 if(vErrors === null){
 vErrors = [err222];
 }
@@ -2682,11 +2712,11 @@ vErrors.push(err222);
 errors++;
 }
 }
-if(data.powerBudgetW !== undefined){
-let data71 = data.powerBudgetW;
-if(typeof data71 == "number"){
-if(data71 <= 0 || isNaN(data71)){
-const err223 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.powerBudgetW,data:data71};
+if(data49.CJC !== undefined){
+let data69 = data49.CJC;
+if(typeof data69 == "number"){
+if(data69 > 1e-8 || isNaN(data69)){
+const err223 = {instancePath:instancePath+"/device/pnp/model/CJC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/CJC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.CJC,data:data69};
 if(vErrors === null){
 vErrors = [err223];
 }
@@ -2695,9 +2725,8 @@ vErrors.push(err223);
 }
 errors++;
 }
-}
-else {
-const err224 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.powerBudgetW.type,parentSchema:schema11.properties.powerBudgetW,data:data71};
+if(data69 < 0 || isNaN(data69)){
+const err224 = {instancePath:instancePath+"/device/pnp/model/CJC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/CJC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.CJC,data:data69};
 if(vErrors === null){
 vErrors = [err224];
 }
@@ -2707,11 +2736,8 @@ vErrors.push(err224);
 errors++;
 }
 }
-if(data.tailCurrentA !== undefined){
-let data72 = data.tailCurrentA;
-if(typeof data72 == "number"){
-if(data72 > 0.1 || isNaN(data72)){
-const err225 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.tailCurrentA,data:data72};
+else {
+const err225 = {instancePath:instancePath+"/device/pnp/model/CJC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/CJC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.CJC.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.CJC,data:data69};
 if(vErrors === null){
 vErrors = [err225];
 }
@@ -2720,8 +2746,12 @@ vErrors.push(err225);
 }
 errors++;
 }
-if(data72 < 1e-7 || isNaN(data72)){
-const err226 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-7},message:"must be >= 1e-7",schema:1e-7,parentSchema:schema11.properties.tailCurrentA,data:data72};
+}
+if(data49.VJC !== undefined){
+let data70 = data49.VJC;
+if(typeof data70 == "number"){
+if(data70 > 2 || isNaN(data70)){
+const err226 = {instancePath:instancePath+"/device/pnp/model/VJC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VJC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2},message:"must be <= 2",schema:2,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VJC,data:data70};
 if(vErrors === null){
 vErrors = [err226];
 }
@@ -2730,9 +2760,8 @@ vErrors.push(err226);
 }
 errors++;
 }
-}
-else {
-const err227 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCurrentA.type,parentSchema:schema11.properties.tailCurrentA,data:data72};
+if(data70 < 0.1 || isNaN(data70)){
+const err227 = {instancePath:instancePath+"/device/pnp/model/VJC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VJC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VJC,data:data70};
 if(vErrors === null){
 vErrors = [err227];
 }
@@ -2742,12 +2771,8 @@ vErrors.push(err227);
 errors++;
 }
 }
-if(data.temperatureC !== undefined){
-let data73 = data.temperatureC;
-if(data73 && typeof data73 == "object" && !Array.isArray(data73)){
-for(const key10 in data73){
-if(!((key10 === "min") || (key10 === "max"))){
-const err228 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.temperatureC,data:data73};
+else {
+const err228 = {instancePath:instancePath+"/device/pnp/model/VJC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VJC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.VJC.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VJC,data:data70};
 if(vErrors === null){
 vErrors = [err228];
 }
@@ -2757,11 +2782,11 @@ vErrors.push(err228);
 errors++;
 }
 }
-if(data73.min !== undefined){
-let data74 = data73.min;
-if(typeof data74 == "number"){
-if(data74 > 150 || isNaN(data74)){
-const err229 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.min,data:data74};
+if(data49.MJC !== undefined){
+let data71 = data49.MJC;
+if(typeof data71 == "number"){
+if(data71 > 0.9 || isNaN(data71)){
+const err229 = {instancePath:instancePath+"/device/pnp/model/MJC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/MJC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.MJC,data:data71};
 if(vErrors === null){
 vErrors = [err229];
 }
@@ -2770,8 +2795,8 @@ vErrors.push(err229);
 }
 errors++;
 }
-if(data74 < -55 || isNaN(data74)){
-const err230 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.min,data:data74};
+if(data71 < 0 || isNaN(data71)){
+const err230 = {instancePath:instancePath+"/device/pnp/model/MJC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/MJC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.MJC,data:data71};
 if(vErrors === null){
 vErrors = [err230];
 }
@@ -2782,7 +2807,7 @@ errors++;
 }
 }
 else {
-const err231 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.min.type,parentSchema:schema11.properties.temperatureC.properties.min,data:data74};
+const err231 = {instancePath:instancePath+"/device/pnp/model/MJC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/MJC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.MJC.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.MJC,data:data71};
 if(vErrors === null){
 vErrors = [err231];
 }
@@ -2792,11 +2817,11 @@ vErrors.push(err231);
 errors++;
 }
 }
-if(data73.max !== undefined){
-let data75 = data73.max;
-if(typeof data75 == "number"){
-if(data75 > 150 || isNaN(data75)){
-const err232 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.max,data:data75};
+if(data49.CJS !== undefined){
+let data72 = data49.CJS;
+if(typeof data72 == "number"){
+if(data72 > 1e-8 || isNaN(data72)){
+const err232 = {instancePath:instancePath+"/device/pnp/model/CJS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/CJS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.CJS,data:data72};
 if(vErrors === null){
 vErrors = [err232];
 }
@@ -2805,8 +2830,8 @@ vErrors.push(err232);
 }
 errors++;
 }
-if(data75 < -55 || isNaN(data75)){
-const err233 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.max,data:data75};
+if(data72 < 0 || isNaN(data72)){
+const err233 = {instancePath:instancePath+"/device/pnp/model/CJS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/CJS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.CJS,data:data72};
 if(vErrors === null){
 vErrors = [err233];
 }
@@ -2817,7 +2842,7 @@ errors++;
 }
 }
 else {
-const err234 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.max.type,parentSchema:schema11.properties.temperatureC.properties.max,data:data75};
+const err234 = {instancePath:instancePath+"/device/pnp/model/CJS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/CJS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.CJS.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.CJS,data:data72};
 if(vErrors === null){
 vErrors = [err234];
 }
@@ -2827,9 +2852,11 @@ vErrors.push(err234);
 errors++;
 }
 }
-}
-else {
-const err235 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.temperatureC.type,parentSchema:schema11.properties.temperatureC,data:data73};
+if(data49.VJS !== undefined){
+let data73 = data49.VJS;
+if(typeof data73 == "number"){
+if(data73 > 2 || isNaN(data73)){
+const err235 = {instancePath:instancePath+"/device/pnp/model/VJS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VJS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 2},message:"must be <= 2",schema:2,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VJS,data:data73};
 if(vErrors === null){
 vErrors = [err235];
 }
@@ -2838,13 +2865,8 @@ vErrors.push(err235);
 }
 errors++;
 }
-}
-if(data.resistors !== undefined){
-let data76 = data.resistors;
-if(data76 && typeof data76 == "object" && !Array.isArray(data76)){
-for(const key11 in data76){
-if(!(((key11 === "series") || (key11 === "tolerancePercent")) || (key11 === "tempcoPpmPerC"))){
-const err236 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key11},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.resistors,data:data76};
+if(data73 < 0.1 || isNaN(data73)){
+const err236 = {instancePath:instancePath+"/device/pnp/model/VJS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VJS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VJS,data:data73};
 if(vErrors === null){
 vErrors = [err236];
 }
@@ -2854,10 +2876,8 @@ vErrors.push(err236);
 errors++;
 }
 }
-if(data76.series !== undefined){
-let data77 = data76.series;
-if(typeof data77 !== "string"){
-const err237 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.resistors.properties.series.type,parentSchema:schema11.properties.resistors.properties.series,data:data77};
+else {
+const err237 = {instancePath:instancePath+"/device/pnp/model/VJS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/VJS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.VJS.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.VJS,data:data73};
 if(vErrors === null){
 vErrors = [err237];
 }
@@ -2866,8 +2886,12 @@ vErrors.push(err237);
 }
 errors++;
 }
-if(!(((data77 === "E24") || (data77 === "E96")) || (data77 === "E192"))){
-const err238 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/enum",keyword:"enum",params:{allowedValues: schema11.properties.resistors.properties.series.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.resistors.properties.series.enum,parentSchema:schema11.properties.resistors.properties.series,data:data77};
+}
+if(data49.MJS !== undefined){
+let data74 = data49.MJS;
+if(typeof data74 == "number"){
+if(data74 > 0.9 || isNaN(data74)){
+const err238 = {instancePath:instancePath+"/device/pnp/model/MJS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/MJS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.9},message:"must be <= 0.9",schema:0.9,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.MJS,data:data74};
 if(vErrors === null){
 vErrors = [err238];
 }
@@ -2876,12 +2900,8 @@ vErrors.push(err238);
 }
 errors++;
 }
-}
-if(data76.tolerancePercent !== undefined){
-let data78 = data76.tolerancePercent;
-if(typeof data78 == "number"){
-if(data78 > 20 || isNaN(data78)){
-const err239 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 20},message:"must be <= 20",schema:20,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data78};
+if(data74 < 0 || isNaN(data74)){
+const err239 = {instancePath:instancePath+"/device/pnp/model/MJS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/MJS/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.MJS,data:data74};
 if(vErrors === null){
 vErrors = [err239];
 }
@@ -2890,8 +2910,9 @@ vErrors.push(err239);
 }
 errors++;
 }
-if(data78 < 0.05 || isNaN(data78)){
-const err240 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data78};
+}
+else {
+const err240 = {instancePath:instancePath+"/device/pnp/model/MJS",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/MJS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.MJS.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.MJS,data:data74};
 if(vErrors === null){
 vErrors = [err240];
 }
@@ -2901,8 +2922,11 @@ vErrors.push(err240);
 errors++;
 }
 }
-else {
-const err241 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tolerancePercent.type,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data78};
+if(data49.FC !== undefined){
+let data75 = data49.FC;
+if(typeof data75 == "number"){
+if(data75 > 0.95 || isNaN(data75)){
+const err241 = {instancePath:instancePath+"/device/pnp/model/FC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/FC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.95},message:"must be <= 0.95",schema:0.95,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.FC,data:data75};
 if(vErrors === null){
 vErrors = [err241];
 }
@@ -2911,12 +2935,8 @@ vErrors.push(err241);
 }
 errors++;
 }
-}
-if(data76.tempcoPpmPerC !== undefined){
-let data79 = data76.tempcoPpmPerC;
-if(typeof data79 == "number"){
-if(data79 > 5000 || isNaN(data79)){
-const err242 = {instancePath:instancePath+"/resistors/tempcoPpmPerC",schemaPath:"#/properties/resistors/properties/tempcoPpmPerC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5000},message:"must be <= 5000",schema:5000,parentSchema:schema11.properties.resistors.properties.tempcoPpmPerC,data:data79};
+if(data75 < 0 || isNaN(data75)){
+const err242 = {instancePath:instancePath+"/device/pnp/model/FC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/FC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.FC,data:data75};
 if(vErrors === null){
 vErrors = [err242];
 }
@@ -2925,8 +2945,9 @@ vErrors.push(err242);
 }
 errors++;
 }
-if(data79 < 0 || isNaN(data79)){
-const err243 = {instancePath:instancePath+"/resistors/tempcoPpmPerC",schemaPath:"#/properties/resistors/properties/tempcoPpmPerC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.resistors.properties.tempcoPpmPerC,data:data79};
+}
+else {
+const err243 = {instancePath:instancePath+"/device/pnp/model/FC",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/FC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.FC.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.FC,data:data75};
 if(vErrors === null){
 vErrors = [err243];
 }
@@ -2936,8 +2957,11 @@ vErrors.push(err243);
 errors++;
 }
 }
-else {
-const err244 = {instancePath:instancePath+"/resistors/tempcoPpmPerC",schemaPath:"#/properties/resistors/properties/tempcoPpmPerC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tempcoPpmPerC.type,parentSchema:schema11.properties.resistors.properties.tempcoPpmPerC,data:data79};
+if(data49.TF !== undefined){
+let data76 = data49.TF;
+if(typeof data76 == "number"){
+if(data76 > 0.001 || isNaN(data76)){
+const err244 = {instancePath:instancePath+"/device/pnp/model/TF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/TF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.TF,data:data76};
 if(vErrors === null){
 vErrors = [err244];
 }
@@ -2946,10 +2970,8 @@ vErrors.push(err244);
 }
 errors++;
 }
-}
-}
-else {
-const err245 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.resistors.type,parentSchema:schema11.properties.resistors,data:data76};
+if(data76 < 0 || isNaN(data76)){
+const err245 = {instancePath:instancePath+"/device/pnp/model/TF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/TF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.TF,data:data76};
 if(vErrors === null){
 vErrors = [err245];
 }
@@ -2959,11 +2981,8 @@ vErrors.push(err245);
 errors++;
 }
 }
-if(data.tailCapacitanceF !== undefined){
-let data80 = data.tailCapacitanceF;
-if(typeof data80 == "number"){
-if(data80 > 1e-9 || isNaN(data80)){
-const err246 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.tailCapacitanceF,data:data80};
+else {
+const err246 = {instancePath:instancePath+"/device/pnp/model/TF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/TF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.TF.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.TF,data:data76};
 if(vErrors === null){
 vErrors = [err246];
 }
@@ -2972,8 +2991,12 @@ vErrors.push(err246);
 }
 errors++;
 }
-if(data80 < 0 || isNaN(data80)){
-const err247 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.tailCapacitanceF,data:data80};
+}
+if(data49.TR !== undefined){
+let data77 = data49.TR;
+if(typeof data77 == "number"){
+if(data77 > 0.001 || isNaN(data77)){
+const err247 = {instancePath:instancePath+"/device/pnp/model/TR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/TR/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.TR,data:data77};
 if(vErrors === null){
 vErrors = [err247];
 }
@@ -2982,9 +3005,8 @@ vErrors.push(err247);
 }
 errors++;
 }
-}
-else {
-const err248 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCapacitanceF.type,parentSchema:schema11.properties.tailCapacitanceF,data:data80};
+if(data77 < 0 || isNaN(data77)){
+const err248 = {instancePath:instancePath+"/device/pnp/model/TR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/TR/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.TR,data:data77};
 if(vErrors === null){
 vErrors = [err248];
 }
@@ -2994,11 +3016,8 @@ vErrors.push(err248);
 errors++;
 }
 }
-if(data.loadCapacitanceF !== undefined){
-let data81 = data.loadCapacitanceF;
-if(typeof data81 == "number"){
-if(data81 > 1e-8 || isNaN(data81)){
-const err249 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.loadCapacitanceF,data:data81};
+else {
+const err249 = {instancePath:instancePath+"/device/pnp/model/TR",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/TR/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.TR.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.TR,data:data77};
 if(vErrors === null){
 vErrors = [err249];
 }
@@ -3007,8 +3026,12 @@ vErrors.push(err249);
 }
 errors++;
 }
-if(data81 < 0 || isNaN(data81)){
-const err250 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.loadCapacitanceF,data:data81};
+}
+if(data49.EG !== undefined){
+let data78 = data49.EG;
+if(typeof data78 == "number"){
+if(data78 > 4 || isNaN(data78)){
+const err250 = {instancePath:instancePath+"/device/pnp/model/EG",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/EG/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4},message:"must be <= 4",schema:4,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.EG,data:data78};
 if(vErrors === null){
 vErrors = [err250];
 }
@@ -3017,9 +3040,8 @@ vErrors.push(err250);
 }
 errors++;
 }
-}
-else {
-const err251 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.loadCapacitanceF.type,parentSchema:schema11.properties.loadCapacitanceF,data:data81};
+if(data78 < 0.1 || isNaN(data78)){
+const err251 = {instancePath:instancePath+"/device/pnp/model/EG",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/EG/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.EG,data:data78};
 if(vErrors === null){
 vErrors = [err251];
 }
@@ -3029,11 +3051,8 @@ vErrors.push(err251);
 errors++;
 }
 }
-if(data.sourceResistanceOhm !== undefined){
-let data82 = data.sourceResistanceOhm;
-if(typeof data82 == "number"){
-if(data82 > 10000000 || isNaN(data82)){
-const err252 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000000},message:"must be <= 10000000",schema:10000000,parentSchema:schema11.properties.sourceResistanceOhm,data:data82};
+else {
+const err252 = {instancePath:instancePath+"/device/pnp/model/EG",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/EG/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.EG.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.EG,data:data78};
 if(vErrors === null){
 vErrors = [err252];
 }
@@ -3042,8 +3061,12 @@ vErrors.push(err252);
 }
 errors++;
 }
-if(data82 < 0 || isNaN(data82)){
-const err253 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.sourceResistanceOhm,data:data82};
+}
+if(data49.XTI !== undefined){
+let data79 = data49.XTI;
+if(typeof data79 == "number"){
+if(data79 > 10 || isNaN(data79)){
+const err253 = {instancePath:instancePath+"/device/pnp/model/XTI",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/XTI/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10},message:"must be <= 10",schema:10,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.XTI,data:data79};
 if(vErrors === null){
 vErrors = [err253];
 }
@@ -3052,9 +3075,8 @@ vErrors.push(err253);
 }
 errors++;
 }
-}
-else {
-const err254 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.sourceResistanceOhm.type,parentSchema:schema11.properties.sourceResistanceOhm,data:data82};
+if(data79 < -10 || isNaN(data79)){
+const err254 = {instancePath:instancePath+"/device/pnp/model/XTI",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/XTI/minimum",keyword:"minimum",params:{comparison: ">=", limit: -10},message:"must be >= -10",schema:-10,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.XTI,data:data79};
 if(vErrors === null){
 vErrors = [err254];
 }
@@ -3064,12 +3086,8 @@ vErrors.push(err254);
 errors++;
 }
 }
-if(data.noise !== undefined){
-let data83 = data.noise;
-if(data83 && typeof data83 == "object" && !Array.isArray(data83)){
-for(const key12 in data83){
-if(!((key12 === "maxVPerRtHz") || (key12 === "atFrequencyHz"))){
-const err255 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.noise,data:data83};
+else {
+const err255 = {instancePath:instancePath+"/device/pnp/model/XTI",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/XTI/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.XTI.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.XTI,data:data79};
 if(vErrors === null){
 vErrors = [err255];
 }
@@ -3079,11 +3097,11 @@ vErrors.push(err255);
 errors++;
 }
 }
-if(data83.maxVPerRtHz !== undefined){
-let data84 = data83.maxVPerRtHz;
-if(typeof data84 == "number"){
-if(data84 > 0.001 || isNaN(data84)){
-const err256 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
+if(data49.XTB !== undefined){
+let data80 = data49.XTB;
+if(typeof data80 == "number"){
+if(data80 > 5 || isNaN(data80)){
+const err256 = {instancePath:instancePath+"/device/pnp/model/XTB",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/XTB/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5},message:"must be <= 5",schema:5,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.XTB,data:data80};
 if(vErrors === null){
 vErrors = [err256];
 }
@@ -3092,8 +3110,8 @@ vErrors.push(err256);
 }
 errors++;
 }
-if(data84 <= 0 || isNaN(data84)){
-const err257 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
+if(data80 < -5 || isNaN(data80)){
+const err257 = {instancePath:instancePath+"/device/pnp/model/XTB",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/XTB/minimum",keyword:"minimum",params:{comparison: ">=", limit: -5},message:"must be >= -5",schema:-5,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.XTB,data:data80};
 if(vErrors === null){
 vErrors = [err257];
 }
@@ -3104,7 +3122,7 @@ errors++;
 }
 }
 else {
-const err258 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.noise.properties.maxVPerRtHz.type,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data84};
+const err258 = {instancePath:instancePath+"/device/pnp/model/XTB",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/XTB/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.XTB.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.XTB,data:data80};
 if(vErrors === null){
 vErrors = [err258];
 }
@@ -3114,11 +3132,11 @@ vErrors.push(err258);
 errors++;
 }
 }
-if(data83.atFrequencyHz !== undefined){
-let data85 = data83.atFrequencyHz;
-if(typeof data85 == "number"){
-if(data85 > 1000000000 || isNaN(data85)){
-const err259 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
+if(data49.KF !== undefined){
+let data81 = data49.KF;
+if(typeof data81 == "number"){
+if(data81 > 0.001 || isNaN(data81)){
+const err259 = {instancePath:instancePath+"/device/pnp/model/KF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/KF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.KF,data:data81};
 if(vErrors === null){
 vErrors = [err259];
 }
@@ -3127,8 +3145,8 @@ vErrors.push(err259);
 }
 errors++;
 }
-if(data85 <= 0 || isNaN(data85)){
-const err260 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
+if(data81 < 0 || isNaN(data81)){
+const err260 = {instancePath:instancePath+"/device/pnp/model/KF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/KF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.KF,data:data81};
 if(vErrors === null){
 vErrors = [err260];
 }
@@ -3139,7 +3157,7 @@ errors++;
 }
 }
 else {
-const err261 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.noise.properties.atFrequencyHz.type,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data85};
+const err261 = {instancePath:instancePath+"/device/pnp/model/KF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/KF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.KF.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.KF,data:data81};
 if(vErrors === null){
 vErrors = [err261];
 }
@@ -3149,9 +3167,11 @@ vErrors.push(err261);
 errors++;
 }
 }
-}
-else {
-const err262 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.noise.type,parentSchema:schema11.properties.noise,data:data83};
+if(data49.AF !== undefined){
+let data82 = data49.AF;
+if(typeof data82 == "number"){
+if(data82 > 4 || isNaN(data82)){
+const err262 = {instancePath:instancePath+"/device/pnp/model/AF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/AF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4},message:"must be <= 4",schema:4,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.AF,data:data82};
 if(vErrors === null){
 vErrors = [err262];
 }
@@ -3160,12 +3180,8 @@ vErrors.push(err262);
 }
 errors++;
 }
-}
-if(data.inputBiasCurrentMaxA !== undefined){
-let data86 = data.inputBiasCurrentMaxA;
-if(typeof data86 == "number"){
-if(data86 > 0.1 || isNaN(data86)){
-const err263 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
+if(data82 < 0.1 || isNaN(data82)){
+const err263 = {instancePath:instancePath+"/device/pnp/model/AF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/AF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.AF,data:data82};
 if(vErrors === null){
 vErrors = [err263];
 }
@@ -3174,8 +3190,9 @@ vErrors.push(err263);
 }
 errors++;
 }
-if(data86 <= 0 || isNaN(data86)){
-const err264 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
+}
+else {
+const err264 = {instancePath:instancePath+"/device/pnp/model/AF",schemaPath:"#/properties/device/properties/pnp/properties/model/properties/AF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.device.properties.pnp.properties.model.properties.AF.type,parentSchema:schema11.properties.device.properties.pnp.properties.model.properties.AF,data:data82};
 if(vErrors === null){
 vErrors = [err264];
 }
@@ -3185,8 +3202,9 @@ vErrors.push(err264);
 errors++;
 }
 }
+}
 else {
-const err265 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputBiasCurrentMaxA.type,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data86};
+const err265 = {instancePath:instancePath+"/device/pnp/model",schemaPath:"#/properties/device/properties/pnp/properties/model/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.properties.pnp.properties.model.type,parentSchema:schema11.properties.device.properties.pnp.properties.model,data:data49};
 if(vErrors === null){
 vErrors = [err265];
 }
@@ -3196,12 +3214,9 @@ vErrors.push(err265);
 errors++;
 }
 }
-if(data.offset !== undefined){
-let data87 = data.offset;
-if(data87 && typeof data87 == "object" && !Array.isArray(data87)){
-for(const key13 in data87){
-if(!(((key13 === "maxV") || (key13 === "driftMaxVPerC")) || (key13 === "sigmas"))){
-const err266 = {instancePath:instancePath+"/offset",schemaPath:"#/properties/offset/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.offset,data:data87};
+}
+else {
+const err266 = {instancePath:instancePath+"/device/pnp",schemaPath:"#/properties/device/properties/pnp/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.properties.pnp.type,parentSchema:schema11.properties.device.properties.pnp,data:data45};
 if(vErrors === null){
 vErrors = [err266];
 }
@@ -3211,11 +3226,9 @@ vErrors.push(err266);
 errors++;
 }
 }
-if(data87.maxV !== undefined){
-let data88 = data87.maxV;
-if(typeof data88 == "number"){
-if(data88 > 1 || isNaN(data88)){
-const err267 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
+}
+else {
+const err267 = {instancePath:instancePath+"/device",schemaPath:"#/properties/device/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.device.type,parentSchema:schema11.properties.device,data:data1};
 if(vErrors === null){
 vErrors = [err267];
 }
@@ -3224,8 +3237,12 @@ vErrors.push(err267);
 }
 errors++;
 }
-if(data88 <= 0 || isNaN(data88)){
-const err268 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
+}
+if(data.deviceModel !== undefined){
+let data83 = data.deviceModel;
+if(data83 && typeof data83 == "object" && !Array.isArray(data83)){
+if(data83.name === undefined){
+const err268 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "name"},message:"must have required property '"+"name"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data83};
 if(vErrors === null){
 vErrors = [err268];
 }
@@ -3234,9 +3251,8 @@ vErrors.push(err268);
 }
 errors++;
 }
-}
-else {
-const err269 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.maxV.type,parentSchema:schema11.properties.offset.properties.maxV,data:data88};
+if(data83.checksum === undefined){
+const err269 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/required",keyword:"required",params:{missingProperty: "checksum"},message:"must have required property '"+"checksum"+"'",schema:schema11.properties.deviceModel.required,parentSchema:schema11.properties.deviceModel,data:data83};
 if(vErrors === null){
 vErrors = [err269];
 }
@@ -3245,12 +3261,9 @@ vErrors.push(err269);
 }
 errors++;
 }
-}
-if(data87.driftMaxVPerC !== undefined){
-let data89 = data87.driftMaxVPerC;
-if(typeof data89 == "number"){
-if(data89 > 0.01 || isNaN(data89)){
-const err270 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.01},message:"must be <= 0.01",schema:0.01,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
+for(const key5 in data83){
+if(!((key5 === "name") || (key5 === "checksum"))){
+const err270 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.deviceModel,data:data83};
 if(vErrors === null){
 vErrors = [err270];
 }
@@ -3259,8 +3272,12 @@ vErrors.push(err270);
 }
 errors++;
 }
-if(data89 <= 0 || isNaN(data89)){
-const err271 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
+}
+if(data83.name !== undefined){
+let data84 = data83.name;
+if(typeof data84 === "string"){
+if(func3(data84) > 64){
+const err271 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/maxLength",keyword:"maxLength",params:{limit: 64},message:"must NOT have more than 64 characters",schema:64,parentSchema:schema11.properties.deviceModel.properties.name,data:data84};
 if(vErrors === null){
 vErrors = [err271];
 }
@@ -3269,9 +3286,8 @@ vErrors.push(err271);
 }
 errors++;
 }
-}
-else {
-const err272 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.driftMaxVPerC.type,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data89};
+if(func3(data84) < 1){
+const err272 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema11.properties.deviceModel.properties.name,data:data84};
 if(vErrors === null){
 vErrors = [err272];
 }
@@ -3280,12 +3296,8 @@ vErrors.push(err272);
 }
 errors++;
 }
-}
-if(data87.sigmas !== undefined){
-let data90 = data87.sigmas;
-if(typeof data90 == "number"){
-if(data90 > 6 || isNaN(data90)){
-const err273 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/maximum",keyword:"maximum",params:{comparison: "<=", limit: 6},message:"must be <= 6",schema:6,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
+if(!pattern0.test(data84)){
+const err273 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/pattern",keyword:"pattern",params:{pattern: "^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"},message:"must match pattern \""+"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$"+"\"",schema:"^[^\\u0000-\\u001f\\u007f-\\u009f\\u2028\\u2029\\u202a-\\u202e\\u2066-\\u2069]*$",parentSchema:schema11.properties.deviceModel.properties.name,data:data84};
 if(vErrors === null){
 vErrors = [err273];
 }
@@ -3294,8 +3306,9 @@ vErrors.push(err273);
 }
 errors++;
 }
-if(data90 < 1 || isNaN(data90)){
-const err274 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
+}
+else {
+const err274 = {instancePath:instancePath+"/deviceModel/name",schemaPath:"#/properties/deviceModel/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.name.type,parentSchema:schema11.properties.deviceModel.properties.name,data:data84};
 if(vErrors === null){
 vErrors = [err274];
 }
@@ -3305,8 +3318,11 @@ vErrors.push(err274);
 errors++;
 }
 }
-else {
-const err275 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.sigmas.type,parentSchema:schema11.properties.offset.properties.sigmas,data:data90};
+if(data83.checksum !== undefined){
+let data85 = data83.checksum;
+if(typeof data85 === "string"){
+if(!pattern2.test(data85)){
+const err275 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/pattern",keyword:"pattern",params:{pattern: "^[0-9a-f]{64}$"},message:"must match pattern \""+"^[0-9a-f]{64}$"+"\"",schema:"^[0-9a-f]{64}$",parentSchema:schema11.properties.deviceModel.properties.checksum,data:data85};
 if(vErrors === null){
 vErrors = [err275];
 }
@@ -3316,9 +3332,8 @@ vErrors.push(err275);
 errors++;
 }
 }
-}
 else {
-const err276 = {instancePath:instancePath+"/offset",schemaPath:"#/properties/offset/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.offset.type,parentSchema:schema11.properties.offset,data:data87};
+const err276 = {instancePath:instancePath+"/deviceModel/checksum",schemaPath:"#/properties/deviceModel/properties/checksum/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.deviceModel.properties.checksum.type,parentSchema:schema11.properties.deviceModel.properties.checksum,data:data85};
 if(vErrors === null){
 vErrors = [err276];
 }
@@ -3328,11 +3343,9 @@ vErrors.push(err276);
 errors++;
 }
 }
-if(data.slewRateMinVPerS !== undefined){
-let data91 = data.slewRateMinVPerS;
-if(typeof data91 == "number"){
-if(data91 > 1000000000000 || isNaN(data91)){
-const err277 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000000},message:"must be <= 1000000000000",schema:1000000000000,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
+}
+else {
+const err277 = {instancePath:instancePath+"/deviceModel",schemaPath:"#/properties/deviceModel/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.deviceModel.type,parentSchema:schema11.properties.deviceModel,data:data83};
 if(vErrors === null){
 vErrors = [err277];
 }
@@ -3341,8 +3354,13 @@ vErrors.push(err277);
 }
 errors++;
 }
-if(data91 <= 0 || isNaN(data91)){
-const err278 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
+}
+if(data.betaRange !== undefined){
+let data86 = data.betaRange;
+if(data86 && typeof data86 == "object" && !Array.isArray(data86)){
+for(const key6 in data86){
+if(!((key6 === "min") || (key6 === "max"))){
+const err278 = {instancePath:instancePath+"/betaRange",schemaPath:"#/properties/betaRange/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.betaRange,data:data86};
 if(vErrors === null){
 vErrors = [err278];
 }
@@ -3352,8 +3370,11 @@ vErrors.push(err278);
 errors++;
 }
 }
-else {
-const err279 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.slewRateMinVPerS.type,parentSchema:schema11.properties.slewRateMinVPerS,data:data91};
+if(data86.min !== undefined){
+let data87 = data86.min;
+if(typeof data87 == "number"){
+if(data87 > 10000 || isNaN(data87)){
+const err279 = {instancePath:instancePath+"/betaRange/min",schemaPath:"#/properties/betaRange/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.betaRange.properties.min,data:data87};
 if(vErrors === null){
 vErrors = [err279];
 }
@@ -3362,12 +3383,8 @@ vErrors.push(err279);
 }
 errors++;
 }
-}
-if(data.bandwidthMinHz !== undefined){
-let data92 = data.bandwidthMinHz;
-if(typeof data92 == "number"){
-if(data92 > 10000000000 || isNaN(data92)){
-const err280 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000000000},message:"must be <= 10000000000",schema:10000000000,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
+if(data87 < 1 || isNaN(data87)){
+const err280 = {instancePath:instancePath+"/betaRange/min",schemaPath:"#/properties/betaRange/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.betaRange.properties.min,data:data87};
 if(vErrors === null){
 vErrors = [err280];
 }
@@ -3376,8 +3393,9 @@ vErrors.push(err280);
 }
 errors++;
 }
-if(data92 <= 0 || isNaN(data92)){
-const err281 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
+}
+else {
+const err281 = {instancePath:instancePath+"/betaRange/min",schemaPath:"#/properties/betaRange/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.betaRange.properties.min.type,parentSchema:schema11.properties.betaRange.properties.min,data:data87};
 if(vErrors === null){
 vErrors = [err281];
 }
@@ -3387,8 +3405,11 @@ vErrors.push(err281);
 errors++;
 }
 }
-else {
-const err282 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.bandwidthMinHz.type,parentSchema:schema11.properties.bandwidthMinHz,data:data92};
+if(data86.max !== undefined){
+let data88 = data86.max;
+if(typeof data88 == "number"){
+if(data88 > 10000 || isNaN(data88)){
+const err282 = {instancePath:instancePath+"/betaRange/max",schemaPath:"#/properties/betaRange/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.betaRange.properties.max,data:data88};
 if(vErrors === null){
 vErrors = [err282];
 }
@@ -3397,13 +3418,8 @@ vErrors.push(err282);
 }
 errors++;
 }
-}
-if(data.psrrMinDb !== undefined){
-let data93 = data.psrrMinDb;
-if(data93 && typeof data93 == "object" && !Array.isArray(data93)){
-for(const key14 in data93){
-if(!((key14 === "positive") || (key14 === "negative"))){
-const err283 = {instancePath:instancePath+"/psrrMinDb",schemaPath:"#/properties/psrrMinDb/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.psrrMinDb,data:data93};
+if(data88 < 1 || isNaN(data88)){
+const err283 = {instancePath:instancePath+"/betaRange/max",schemaPath:"#/properties/betaRange/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.betaRange.properties.max,data:data88};
 if(vErrors === null){
 vErrors = [err283];
 }
@@ -3413,11 +3429,8 @@ vErrors.push(err283);
 errors++;
 }
 }
-if(data93.positive !== undefined){
-let data94 = data93.positive;
-if(typeof data94 == "number"){
-if(data94 > 200 || isNaN(data94)){
-const err284 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
+else {
+const err284 = {instancePath:instancePath+"/betaRange/max",schemaPath:"#/properties/betaRange/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.betaRange.properties.max.type,parentSchema:schema11.properties.betaRange.properties.max,data:data88};
 if(vErrors === null){
 vErrors = [err284];
 }
@@ -3426,8 +3439,10 @@ vErrors.push(err284);
 }
 errors++;
 }
-if(data94 < 0 || isNaN(data94)){
-const err285 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
+}
+}
+else {
+const err285 = {instancePath:instancePath+"/betaRange",schemaPath:"#/properties/betaRange/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.betaRange.type,parentSchema:schema11.properties.betaRange,data:data86};
 if(vErrors === null){
 vErrors = [err285];
 }
@@ -3437,8 +3452,11 @@ vErrors.push(err285);
 errors++;
 }
 }
-else {
-const err286 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.psrrMinDb.properties.positive.type,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data94};
+if(data.supply !== undefined){
+let data89 = data.supply;
+if(data89 && typeof data89 == "object" && !Array.isArray(data89)){
+if(data89.positiveV === undefined){
+const err286 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "positiveV"},message:"must have required property '"+"positiveV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data89};
 if(vErrors === null){
 vErrors = [err286];
 }
@@ -3447,12 +3465,8 @@ vErrors.push(err286);
 }
 errors++;
 }
-}
-if(data93.negative !== undefined){
-let data95 = data93.negative;
-if(typeof data95 == "number"){
-if(data95 > 200 || isNaN(data95)){
-const err287 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
+if(data89.negativeV === undefined){
+const err287 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/required",keyword:"required",params:{missingProperty: "negativeV"},message:"must have required property '"+"negativeV"+"'",schema:schema11.properties.supply.required,parentSchema:schema11.properties.supply,data:data89};
 if(vErrors === null){
 vErrors = [err287];
 }
@@ -3461,8 +3475,9 @@ vErrors.push(err287);
 }
 errors++;
 }
-if(data95 < 0 || isNaN(data95)){
-const err288 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
+for(const key7 in data89){
+if(!((key7 === "positiveV") || (key7 === "negativeV"))){
+const err288 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supply,data:data89};
 if(vErrors === null){
 vErrors = [err288];
 }
@@ -3472,8 +3487,11 @@ vErrors.push(err288);
 errors++;
 }
 }
-else {
-const err289 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.psrrMinDb.properties.negative.type,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data95};
+if(data89.positiveV !== undefined){
+let data90 = data89.positiveV;
+if(typeof data90 == "number"){
+if(data90 > 100 || isNaN(data90)){
+const err289 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.positiveV,data:data90};
 if(vErrors === null){
 vErrors = [err289];
 }
@@ -3482,10 +3500,8 @@ vErrors.push(err289);
 }
 errors++;
 }
-}
-}
-else {
-const err290 = {instancePath:instancePath+"/psrrMinDb",schemaPath:"#/properties/psrrMinDb/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.psrrMinDb.type,parentSchema:schema11.properties.psrrMinDb,data:data93};
+if(data90 < -100 || isNaN(data90)){
+const err290 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.positiveV,data:data90};
 if(vErrors === null){
 vErrors = [err290];
 }
@@ -3495,11 +3511,8 @@ vErrors.push(err290);
 errors++;
 }
 }
-if(data.linearInputRangeMinV !== undefined){
-let data96 = data.linearInputRangeMinV;
-if(typeof data96 == "number"){
-if(data96 > 100 || isNaN(data96)){
-const err291 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
+else {
+const err291 = {instancePath:instancePath+"/supply/positiveV",schemaPath:"#/properties/supply/properties/positiveV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.positiveV.type,parentSchema:schema11.properties.supply.properties.positiveV,data:data90};
 if(vErrors === null){
 vErrors = [err291];
 }
@@ -3508,8 +3521,12 @@ vErrors.push(err291);
 }
 errors++;
 }
-if(data96 <= 0 || isNaN(data96)){
-const err292 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
+}
+if(data89.negativeV !== undefined){
+let data91 = data89.negativeV;
+if(typeof data91 == "number"){
+if(data91 > 100 || isNaN(data91)){
+const err292 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.supply.properties.negativeV,data:data91};
 if(vErrors === null){
 vErrors = [err292];
 }
@@ -3518,9 +3535,8 @@ vErrors.push(err292);
 }
 errors++;
 }
-}
-else {
-const err293 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.linearInputRangeMinV.type,parentSchema:schema11.properties.linearInputRangeMinV,data:data96};
+if(data91 < -100 || isNaN(data91)){
+const err293 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.supply.properties.negativeV,data:data91};
 if(vErrors === null){
 vErrors = [err293];
 }
@@ -3530,11 +3546,8 @@ vErrors.push(err293);
 errors++;
 }
 }
-if(data.topologies !== undefined){
-let data97 = data.topologies;
-if(Array.isArray(data97)){
-if(data97.length < 1){
-const err294 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data97};
+else {
+const err294 = {instancePath:instancePath+"/supply/negativeV",schemaPath:"#/properties/supply/properties/negativeV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supply.properties.negativeV.type,parentSchema:schema11.properties.supply.properties.negativeV,data:data91};
 if(vErrors === null){
 vErrors = [err294];
 }
@@ -3543,11 +3556,10 @@ vErrors.push(err294);
 }
 errors++;
 }
-const len0 = data97.length;
-for(let i0=0; i0<len0; i0++){
-let data98 = data97[i0];
-if(typeof data98 !== "string"){
-const err295 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data98};
+}
+}
+else {
+const err295 = {instancePath:instancePath+"/supply",schemaPath:"#/properties/supply/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supply.type,parentSchema:schema11.properties.supply,data:data89};
 if(vErrors === null){
 vErrors = [err295];
 }
@@ -3556,8 +3568,13 @@ vErrors.push(err295);
 }
 errors++;
 }
-if(!((((((data98 === "resistor") || (data98 === "simple-mirror")) || (data98 === "degenerated-mirror")) || (data98 === "widlar")) || (data98 === "wilson")) || (data98 === "cascode"))){
-const err296 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data98};
+}
+if(data.supplyTolerance !== undefined){
+let data92 = data.supplyTolerance;
+if(data92 && typeof data92 == "object" && !Array.isArray(data92)){
+for(const key8 in data92){
+if(!((key8 === "positivePercent") || (key8 === "negativePercent"))){
+const err296 = {instancePath:instancePath+"/supplyTolerance",schemaPath:"#/properties/supplyTolerance/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key8},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.supplyTolerance,data:data92};
 if(vErrors === null){
 vErrors = [err296];
 }
@@ -3567,18 +3584,11 @@ vErrors.push(err296);
 errors++;
 }
 }
-let i1 = data97.length;
-let j0;
-if(i1 > 1){
-const indices0 = {};
-for(;i1--;){
-let item0 = data97[i1];
-if(typeof item0 !== "string"){
-continue;
-}
-if(typeof indices0[item0] == "number"){
-j0 = indices0[item0];
-const err297 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data97};
+if(data92.positivePercent !== undefined){
+let data93 = data92.positivePercent;
+if(typeof data93 == "number"){
+if(data93 > 50 || isNaN(data93)){
+const err297 = {instancePath:instancePath+"/supplyTolerance/positivePercent",schemaPath:"#/properties/supplyTolerance/properties/positivePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.supplyTolerance.properties.positivePercent,data:data93};
 if(vErrors === null){
 vErrors = [err297];
 }
@@ -3586,14 +3596,9 @@ else {
 vErrors.push(err297);
 }
 errors++;
-break;
 }
-indices0[item0] = i1;
-}
-}
-}
-else {
-const err298 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data97};
+if(data93 < 0 || isNaN(data93)){
+const err298 = {instancePath:instancePath+"/supplyTolerance/positivePercent",schemaPath:"#/properties/supplyTolerance/properties/positivePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.supplyTolerance.properties.positivePercent,data:data93};
 if(vErrors === null){
 vErrors = [err298];
 }
@@ -3603,10 +3608,8 @@ vErrors.push(err298);
 errors++;
 }
 }
-if(data.policy !== undefined){
-let data99 = data.policy;
-if(typeof data99 !== "string"){
-const err299 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data99};
+else {
+const err299 = {instancePath:instancePath+"/supplyTolerance/positivePercent",schemaPath:"#/properties/supplyTolerance/properties/positivePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supplyTolerance.properties.positivePercent.type,parentSchema:schema11.properties.supplyTolerance.properties.positivePercent,data:data93};
 if(vErrors === null){
 vErrors = [err299];
 }
@@ -3615,8 +3618,12 @@ vErrors.push(err299);
 }
 errors++;
 }
-if(!((data99 === "simplest-sufficient") || (data99 === "highest-rejection"))){
-const err300 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data99};
+}
+if(data92.negativePercent !== undefined){
+let data94 = data92.negativePercent;
+if(typeof data94 == "number"){
+if(data94 > 50 || isNaN(data94)){
+const err300 = {instancePath:instancePath+"/supplyTolerance/negativePercent",schemaPath:"#/properties/supplyTolerance/properties/negativePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.supplyTolerance.properties.negativePercent,data:data94};
 if(vErrors === null){
 vErrors = [err300];
 }
@@ -3625,13 +3632,8 @@ vErrors.push(err300);
 }
 errors++;
 }
-}
-if(data.hazards !== undefined){
-let data100 = data.hazards;
-if(data100 && typeof data100 == "object" && !Array.isArray(data100)){
-for(const key15 in data100){
-if(!((key15 === "patientConnected") || (key15 === "mainsReferenced"))){
-const err301 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data100};
+if(data94 < 0 || isNaN(data94)){
+const err301 = {instancePath:instancePath+"/supplyTolerance/negativePercent",schemaPath:"#/properties/supplyTolerance/properties/negativePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.supplyTolerance.properties.negativePercent,data:data94};
 if(vErrors === null){
 vErrors = [err301];
 }
@@ -3641,10 +3643,8 @@ vErrors.push(err301);
 errors++;
 }
 }
-if(data100.patientConnected !== undefined){
-let data101 = data100.patientConnected;
-if(typeof data101 !== "boolean"){
-const err302 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data101};
+else {
+const err302 = {instancePath:instancePath+"/supplyTolerance/negativePercent",schemaPath:"#/properties/supplyTolerance/properties/negativePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.supplyTolerance.properties.negativePercent.type,parentSchema:schema11.properties.supplyTolerance.properties.negativePercent,data:data94};
 if(vErrors === null){
 vErrors = [err302];
 }
@@ -3654,10 +3654,9 @@ vErrors.push(err302);
 errors++;
 }
 }
-if(data100.mainsReferenced !== undefined){
-let data102 = data100.mainsReferenced;
-if(typeof data102 !== "boolean"){
-const err303 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data102};
+}
+else {
+const err303 = {instancePath:instancePath+"/supplyTolerance",schemaPath:"#/properties/supplyTolerance/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.supplyTolerance.type,parentSchema:schema11.properties.supplyTolerance,data:data92};
 if(vErrors === null){
 vErrors = [err303];
 }
@@ -3667,9 +3666,11 @@ vErrors.push(err303);
 errors++;
 }
 }
-}
-else {
-const err304 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data100};
+if(data.gain !== undefined){
+let data95 = data.gain;
+if(data95 && typeof data95 == "object" && !Array.isArray(data95)){
+if(data95.target === undefined){
+const err304 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/required",keyword:"required",params:{missingProperty: "target"},message:"must have required property '"+"target"+"'",schema:schema11.properties.gain.required,parentSchema:schema11.properties.gain,data:data95};
 if(vErrors === null){
 vErrors = [err304];
 }
@@ -3678,13 +3679,9 @@ vErrors.push(err304);
 }
 errors++;
 }
-}
-if(data.monteCarlo !== undefined){
-let data103 = data.monteCarlo;
-if(data103 && typeof data103 == "object" && !Array.isArray(data103)){
-for(const key16 in data103){
-if(!((key16 === "samples") || (key16 === "seed"))){
-const err305 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key16},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data103};
+for(const key9 in data95){
+if(!(((key9 === "target") || (key9 === "tolerancePercent")) || (key9 === "output"))){
+const err305 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key9},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.gain,data:data95};
 if(vErrors === null){
 vErrors = [err305];
 }
@@ -3694,10 +3691,11 @@ vErrors.push(err305);
 errors++;
 }
 }
-if(data103.samples !== undefined){
-let data104 = data103.samples;
-if(!((typeof data104 == "number") && (!(data104 % 1) && !isNaN(data104)))){
-const err306 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
+if(data95.target !== undefined){
+let data96 = data95.target;
+if(typeof data96 == "number"){
+if(data96 > 10000 || isNaN(data96)){
+const err306 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000},message:"must be <= 10000",schema:10000,parentSchema:schema11.properties.gain.properties.target,data:data96};
 if(vErrors === null){
 vErrors = [err306];
 }
@@ -3706,9 +3704,8 @@ vErrors.push(err306);
 }
 errors++;
 }
-if(typeof data104 == "number"){
-if(data104 > 100000 || isNaN(data104)){
-const err307 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
+if(data96 <= 0 || isNaN(data96)){
+const err307 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.gain.properties.target,data:data96};
 if(vErrors === null){
 vErrors = [err307];
 }
@@ -3717,8 +3714,9 @@ vErrors.push(err307);
 }
 errors++;
 }
-if(data104 < 100 || isNaN(data104)){
-const err308 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data104};
+}
+else {
+const err308 = {instancePath:instancePath+"/gain/target",schemaPath:"#/properties/gain/properties/target/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.target.type,parentSchema:schema11.properties.gain.properties.target,data:data96};
 if(vErrors === null){
 vErrors = [err308];
 }
@@ -3728,11 +3726,11 @@ vErrors.push(err308);
 errors++;
 }
 }
-}
-if(data103.seed !== undefined){
-let data105 = data103.seed;
-if(!((typeof data105 == "number") && (!(data105 % 1) && !isNaN(data105)))){
-const err309 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
+if(data95.tolerancePercent !== undefined){
+let data97 = data95.tolerancePercent;
+if(typeof data97 == "number"){
+if(data97 > 50 || isNaN(data97)){
+const err309 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data97};
 if(vErrors === null){
 vErrors = [err309];
 }
@@ -3741,9 +3739,8 @@ vErrors.push(err309);
 }
 errors++;
 }
-if(typeof data105 == "number"){
-if(data105 > 4294967295 || isNaN(data105)){
-const err310 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
+if(data97 < 0.1 || isNaN(data97)){
+const err310 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data97};
 if(vErrors === null){
 vErrors = [err310];
 }
@@ -3752,8 +3749,9 @@ vErrors.push(err310);
 }
 errors++;
 }
-if(data105 < 0 || isNaN(data105)){
-const err311 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data105};
+}
+else {
+const err311 = {instancePath:instancePath+"/gain/tolerancePercent",schemaPath:"#/properties/gain/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.gain.properties.tolerancePercent.type,parentSchema:schema11.properties.gain.properties.tolerancePercent,data:data97};
 if(vErrors === null){
 vErrors = [err311];
 }
@@ -3763,10 +3761,10 @@ vErrors.push(err311);
 errors++;
 }
 }
-}
-}
-else {
-const err312 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data103};
+if(data95.output !== undefined){
+let data98 = data95.output;
+if(typeof data98 !== "string"){
+const err312 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.gain.properties.output.type,parentSchema:schema11.properties.gain.properties.output,data:data98};
 if(vErrors === null){
 vErrors = [err312];
 }
@@ -3775,10 +3773,8 @@ vErrors.push(err312);
 }
 errors++;
 }
-}
-}
-else {
-const err313 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(!((data98 === "differential") || (data98 === "single-ended"))){
+const err313 = {instancePath:instancePath+"/gain/output",schemaPath:"#/properties/gain/properties/output/enum",keyword:"enum",params:{allowedValues: schema11.properties.gain.properties.output.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.gain.properties.output.enum,parentSchema:schema11.properties.gain.properties.output,data:data98};
 if(vErrors === null){
 vErrors = [err313];
 }
@@ -3787,12 +3783,1474 @@ vErrors.push(err313);
 }
 errors++;
 }
+}
+}
+else {
+const err314 = {instancePath:instancePath+"/gain",schemaPath:"#/properties/gain/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.gain.type,parentSchema:schema11.properties.gain,data:data95};
+if(vErrors === null){
+vErrors = [err314];
+}
+else {
+vErrors.push(err314);
+}
+errors++;
+}
+}
+if(data.cmrr !== undefined){
+let data99 = data.cmrr;
+if(data99 && typeof data99 == "object" && !Array.isArray(data99)){
+if(data99.minDb === undefined){
+const err315 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/required",keyword:"required",params:{missingProperty: "minDb"},message:"must have required property '"+"minDb"+"'",schema:schema11.properties.cmrr.required,parentSchema:schema11.properties.cmrr,data:data99};
+if(vErrors === null){
+vErrors = [err315];
+}
+else {
+vErrors.push(err315);
+}
+errors++;
+}
+for(const key10 in data99){
+if(!((((key10 === "minDb") || (key10 === "atFrequencyHz")) || (key10 === "marginDb")) || (key10 === "minYieldPercent"))){
+const err316 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key10},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.cmrr,data:data99};
+if(vErrors === null){
+vErrors = [err316];
+}
+else {
+vErrors.push(err316);
+}
+errors++;
+}
+}
+if(data99.minDb !== undefined){
+let data100 = data99.minDb;
+if(typeof data100 == "number"){
+if(data100 > 200 || isNaN(data100)){
+const err317 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.cmrr.properties.minDb,data:data100};
+if(vErrors === null){
+vErrors = [err317];
+}
+else {
+vErrors.push(err317);
+}
+errors++;
+}
+if(data100 < 0 || isNaN(data100)){
+const err318 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minDb,data:data100};
+if(vErrors === null){
+vErrors = [err318];
+}
+else {
+vErrors.push(err318);
+}
+errors++;
+}
+}
+else {
+const err319 = {instancePath:instancePath+"/cmrr/minDb",schemaPath:"#/properties/cmrr/properties/minDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minDb.type,parentSchema:schema11.properties.cmrr.properties.minDb,data:data100};
+if(vErrors === null){
+vErrors = [err319];
+}
+else {
+vErrors.push(err319);
+}
+errors++;
+}
+}
+if(data99.atFrequencyHz !== undefined){
+let data101 = data99.atFrequencyHz;
+if(typeof data101 == "number"){
+if(data101 > 1000000000 || isNaN(data101)){
+const err320 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data101};
+if(vErrors === null){
+vErrors = [err320];
+}
+else {
+vErrors.push(err320);
+}
+errors++;
+}
+if(data101 < 0 || isNaN(data101)){
+const err321 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data101};
+if(vErrors === null){
+vErrors = [err321];
+}
+else {
+vErrors.push(err321);
+}
+errors++;
+}
+}
+else {
+const err322 = {instancePath:instancePath+"/cmrr/atFrequencyHz",schemaPath:"#/properties/cmrr/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.atFrequencyHz.type,parentSchema:schema11.properties.cmrr.properties.atFrequencyHz,data:data101};
+if(vErrors === null){
+vErrors = [err322];
+}
+else {
+vErrors.push(err322);
+}
+errors++;
+}
+}
+if(data99.marginDb !== undefined){
+let data102 = data99.marginDb;
+if(typeof data102 == "number"){
+if(data102 > 40 || isNaN(data102)){
+const err323 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/maximum",keyword:"maximum",params:{comparison: "<=", limit: 40},message:"must be <= 40",schema:40,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data102};
+if(vErrors === null){
+vErrors = [err323];
+}
+else {
+vErrors.push(err323);
+}
+errors++;
+}
+if(data102 < 0 || isNaN(data102)){
+const err324 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data102};
+if(vErrors === null){
+vErrors = [err324];
+}
+else {
+vErrors.push(err324);
+}
+errors++;
+}
+}
+else {
+const err325 = {instancePath:instancePath+"/cmrr/marginDb",schemaPath:"#/properties/cmrr/properties/marginDb/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.marginDb.type,parentSchema:schema11.properties.cmrr.properties.marginDb,data:data102};
+if(vErrors === null){
+vErrors = [err325];
+}
+else {
+vErrors.push(err325);
+}
+errors++;
+}
+}
+if(data99.minYieldPercent !== undefined){
+let data103 = data99.minYieldPercent;
+if(typeof data103 == "number"){
+if(data103 > 100 || isNaN(data103)){
+const err326 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data103};
+if(vErrors === null){
+vErrors = [err326];
+}
+else {
+vErrors.push(err326);
+}
+errors++;
+}
+if(data103 < 0 || isNaN(data103)){
+const err327 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data103};
+if(vErrors === null){
+vErrors = [err327];
+}
+else {
+vErrors.push(err327);
+}
+errors++;
+}
+}
+else {
+const err328 = {instancePath:instancePath+"/cmrr/minYieldPercent",schemaPath:"#/properties/cmrr/properties/minYieldPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.cmrr.properties.minYieldPercent.type,parentSchema:schema11.properties.cmrr.properties.minYieldPercent,data:data103};
+if(vErrors === null){
+vErrors = [err328];
+}
+else {
+vErrors.push(err328);
+}
+errors++;
+}
+}
+}
+else {
+const err329 = {instancePath:instancePath+"/cmrr",schemaPath:"#/properties/cmrr/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.cmrr.type,parentSchema:schema11.properties.cmrr,data:data99};
+if(vErrors === null){
+vErrors = [err329];
+}
+else {
+vErrors.push(err329);
+}
+errors++;
+}
+}
+if(data.inputCommonMode !== undefined){
+let data104 = data.inputCommonMode;
+if(data104 && typeof data104 == "object" && !Array.isArray(data104)){
+for(const key11 in data104){
+if(!((key11 === "minV") || (key11 === "maxV"))){
+const err330 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key11},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.inputCommonMode,data:data104};
+if(vErrors === null){
+vErrors = [err330];
+}
+else {
+vErrors.push(err330);
+}
+errors++;
+}
+}
+if(data104.minV !== undefined){
+let data105 = data104.minV;
+if(typeof data105 == "number"){
+if(data105 > 100 || isNaN(data105)){
+const err331 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data105};
+if(vErrors === null){
+vErrors = [err331];
+}
+else {
+vErrors.push(err331);
+}
+errors++;
+}
+if(data105 < -100 || isNaN(data105)){
+const err332 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data105};
+if(vErrors === null){
+vErrors = [err332];
+}
+else {
+vErrors.push(err332);
+}
+errors++;
+}
+}
+else {
+const err333 = {instancePath:instancePath+"/inputCommonMode/minV",schemaPath:"#/properties/inputCommonMode/properties/minV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.minV.type,parentSchema:schema11.properties.inputCommonMode.properties.minV,data:data105};
+if(vErrors === null){
+vErrors = [err333];
+}
+else {
+vErrors.push(err333);
+}
+errors++;
+}
+}
+if(data104.maxV !== undefined){
+let data106 = data104.maxV;
+if(typeof data106 == "number"){
+if(data106 > 100 || isNaN(data106)){
+const err334 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data106};
+if(vErrors === null){
+vErrors = [err334];
+}
+else {
+vErrors.push(err334);
+}
+errors++;
+}
+if(data106 < -100 || isNaN(data106)){
+const err335 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/minimum",keyword:"minimum",params:{comparison: ">=", limit: -100},message:"must be >= -100",schema:-100,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data106};
+if(vErrors === null){
+vErrors = [err335];
+}
+else {
+vErrors.push(err335);
+}
+errors++;
+}
+}
+else {
+const err336 = {instancePath:instancePath+"/inputCommonMode/maxV",schemaPath:"#/properties/inputCommonMode/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputCommonMode.properties.maxV.type,parentSchema:schema11.properties.inputCommonMode.properties.maxV,data:data106};
+if(vErrors === null){
+vErrors = [err336];
+}
+else {
+vErrors.push(err336);
+}
+errors++;
+}
+}
+}
+else {
+const err337 = {instancePath:instancePath+"/inputCommonMode",schemaPath:"#/properties/inputCommonMode/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.inputCommonMode.type,parentSchema:schema11.properties.inputCommonMode,data:data104};
+if(vErrors === null){
+vErrors = [err337];
+}
+else {
+vErrors.push(err337);
+}
+errors++;
+}
+}
+if(data.outputSwingVpp !== undefined){
+let data107 = data.outputSwingVpp;
+if(typeof data107 == "number"){
+if(data107 > 200 || isNaN(data107)){
+const err338 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.outputSwingVpp,data:data107};
+if(vErrors === null){
+vErrors = [err338];
+}
+else {
+vErrors.push(err338);
+}
+errors++;
+}
+if(data107 < 0 || isNaN(data107)){
+const err339 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.outputSwingVpp,data:data107};
+if(vErrors === null){
+vErrors = [err339];
+}
+else {
+vErrors.push(err339);
+}
+errors++;
+}
+}
+else {
+const err340 = {instancePath:instancePath+"/outputSwingVpp",schemaPath:"#/properties/outputSwingVpp/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingVpp.type,parentSchema:schema11.properties.outputSwingVpp,data:data107};
+if(vErrors === null){
+vErrors = [err340];
+}
+else {
+vErrors.push(err340);
+}
+errors++;
+}
+}
+if(data.outputSwingMaxCompressionPercent !== undefined){
+let data108 = data.outputSwingMaxCompressionPercent;
+if(typeof data108 == "number"){
+if(data108 > 50 || isNaN(data108)){
+const err341 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 50},message:"must be <= 50",schema:50,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data108};
+if(vErrors === null){
+vErrors = [err341];
+}
+else {
+vErrors.push(err341);
+}
+errors++;
+}
+if(data108 < 0.1 || isNaN(data108)){
+const err342 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.1},message:"must be >= 0.1",schema:0.1,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data108};
+if(vErrors === null){
+vErrors = [err342];
+}
+else {
+vErrors.push(err342);
+}
+errors++;
+}
+}
+else {
+const err343 = {instancePath:instancePath+"/outputSwingMaxCompressionPercent",schemaPath:"#/properties/outputSwingMaxCompressionPercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.outputSwingMaxCompressionPercent.type,parentSchema:schema11.properties.outputSwingMaxCompressionPercent,data:data108};
+if(vErrors === null){
+vErrors = [err343];
+}
+else {
+vErrors.push(err343);
+}
+errors++;
+}
+}
+if(data.powerBudgetW !== undefined){
+let data109 = data.powerBudgetW;
+if(typeof data109 == "number"){
+if(data109 <= 0 || isNaN(data109)){
+const err344 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.powerBudgetW,data:data109};
+if(vErrors === null){
+vErrors = [err344];
+}
+else {
+vErrors.push(err344);
+}
+errors++;
+}
+}
+else {
+const err345 = {instancePath:instancePath+"/powerBudgetW",schemaPath:"#/properties/powerBudgetW/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.powerBudgetW.type,parentSchema:schema11.properties.powerBudgetW,data:data109};
+if(vErrors === null){
+vErrors = [err345];
+}
+else {
+vErrors.push(err345);
+}
+errors++;
+}
+}
+if(data.tailCurrentA !== undefined){
+let data110 = data.tailCurrentA;
+if(typeof data110 == "number"){
+if(data110 > 0.1 || isNaN(data110)){
+const err346 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.tailCurrentA,data:data110};
+if(vErrors === null){
+vErrors = [err346];
+}
+else {
+vErrors.push(err346);
+}
+errors++;
+}
+if(data110 < 1e-7 || isNaN(data110)){
+const err347 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1e-7},message:"must be >= 1e-7",schema:1e-7,parentSchema:schema11.properties.tailCurrentA,data:data110};
+if(vErrors === null){
+vErrors = [err347];
+}
+else {
+vErrors.push(err347);
+}
+errors++;
+}
+}
+else {
+const err348 = {instancePath:instancePath+"/tailCurrentA",schemaPath:"#/properties/tailCurrentA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCurrentA.type,parentSchema:schema11.properties.tailCurrentA,data:data110};
+if(vErrors === null){
+vErrors = [err348];
+}
+else {
+vErrors.push(err348);
+}
+errors++;
+}
+}
+if(data.temperatureC !== undefined){
+let data111 = data.temperatureC;
+if(data111 && typeof data111 == "object" && !Array.isArray(data111)){
+for(const key12 in data111){
+if(!((key12 === "min") || (key12 === "max"))){
+const err349 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key12},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.temperatureC,data:data111};
+if(vErrors === null){
+vErrors = [err349];
+}
+else {
+vErrors.push(err349);
+}
+errors++;
+}
+}
+if(data111.min !== undefined){
+let data112 = data111.min;
+if(typeof data112 == "number"){
+if(data112 > 150 || isNaN(data112)){
+const err350 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.min,data:data112};
+if(vErrors === null){
+vErrors = [err350];
+}
+else {
+vErrors.push(err350);
+}
+errors++;
+}
+if(data112 < -55 || isNaN(data112)){
+const err351 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.min,data:data112};
+if(vErrors === null){
+vErrors = [err351];
+}
+else {
+vErrors.push(err351);
+}
+errors++;
+}
+}
+else {
+const err352 = {instancePath:instancePath+"/temperatureC/min",schemaPath:"#/properties/temperatureC/properties/min/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.min.type,parentSchema:schema11.properties.temperatureC.properties.min,data:data112};
+if(vErrors === null){
+vErrors = [err352];
+}
+else {
+vErrors.push(err352);
+}
+errors++;
+}
+}
+if(data111.max !== undefined){
+let data113 = data111.max;
+if(typeof data113 == "number"){
+if(data113 > 150 || isNaN(data113)){
+const err353 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/maximum",keyword:"maximum",params:{comparison: "<=", limit: 150},message:"must be <= 150",schema:150,parentSchema:schema11.properties.temperatureC.properties.max,data:data113};
+if(vErrors === null){
+vErrors = [err353];
+}
+else {
+vErrors.push(err353);
+}
+errors++;
+}
+if(data113 < -55 || isNaN(data113)){
+const err354 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/minimum",keyword:"minimum",params:{comparison: ">=", limit: -55},message:"must be >= -55",schema:-55,parentSchema:schema11.properties.temperatureC.properties.max,data:data113};
+if(vErrors === null){
+vErrors = [err354];
+}
+else {
+vErrors.push(err354);
+}
+errors++;
+}
+}
+else {
+const err355 = {instancePath:instancePath+"/temperatureC/max",schemaPath:"#/properties/temperatureC/properties/max/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.temperatureC.properties.max.type,parentSchema:schema11.properties.temperatureC.properties.max,data:data113};
+if(vErrors === null){
+vErrors = [err355];
+}
+else {
+vErrors.push(err355);
+}
+errors++;
+}
+}
+}
+else {
+const err356 = {instancePath:instancePath+"/temperatureC",schemaPath:"#/properties/temperatureC/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.temperatureC.type,parentSchema:schema11.properties.temperatureC,data:data111};
+if(vErrors === null){
+vErrors = [err356];
+}
+else {
+vErrors.push(err356);
+}
+errors++;
+}
+}
+if(data.resistors !== undefined){
+let data114 = data.resistors;
+if(data114 && typeof data114 == "object" && !Array.isArray(data114)){
+for(const key13 in data114){
+if(!(((key13 === "series") || (key13 === "tolerancePercent")) || (key13 === "tempcoPpmPerC"))){
+const err357 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key13},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.resistors,data:data114};
+if(vErrors === null){
+vErrors = [err357];
+}
+else {
+vErrors.push(err357);
+}
+errors++;
+}
+}
+if(data114.series !== undefined){
+let data115 = data114.series;
+if(typeof data115 !== "string"){
+const err358 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.resistors.properties.series.type,parentSchema:schema11.properties.resistors.properties.series,data:data115};
+if(vErrors === null){
+vErrors = [err358];
+}
+else {
+vErrors.push(err358);
+}
+errors++;
+}
+if(!(((data115 === "E24") || (data115 === "E96")) || (data115 === "E192"))){
+const err359 = {instancePath:instancePath+"/resistors/series",schemaPath:"#/properties/resistors/properties/series/enum",keyword:"enum",params:{allowedValues: schema11.properties.resistors.properties.series.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.resistors.properties.series.enum,parentSchema:schema11.properties.resistors.properties.series,data:data115};
+if(vErrors === null){
+vErrors = [err359];
+}
+else {
+vErrors.push(err359);
+}
+errors++;
+}
+}
+if(data114.tolerancePercent !== undefined){
+let data116 = data114.tolerancePercent;
+if(typeof data116 == "number"){
+if(data116 > 20 || isNaN(data116)){
+const err360 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/maximum",keyword:"maximum",params:{comparison: "<=", limit: 20},message:"must be <= 20",schema:20,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data116};
+if(vErrors === null){
+vErrors = [err360];
+}
+else {
+vErrors.push(err360);
+}
+errors++;
+}
+if(data116 < 0.05 || isNaN(data116)){
+const err361 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0.05},message:"must be >= 0.05",schema:0.05,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data116};
+if(vErrors === null){
+vErrors = [err361];
+}
+else {
+vErrors.push(err361);
+}
+errors++;
+}
+}
+else {
+const err362 = {instancePath:instancePath+"/resistors/tolerancePercent",schemaPath:"#/properties/resistors/properties/tolerancePercent/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tolerancePercent.type,parentSchema:schema11.properties.resistors.properties.tolerancePercent,data:data116};
+if(vErrors === null){
+vErrors = [err362];
+}
+else {
+vErrors.push(err362);
+}
+errors++;
+}
+}
+if(data114.tempcoPpmPerC !== undefined){
+let data117 = data114.tempcoPpmPerC;
+if(typeof data117 == "number"){
+if(data117 > 5000 || isNaN(data117)){
+const err363 = {instancePath:instancePath+"/resistors/tempcoPpmPerC",schemaPath:"#/properties/resistors/properties/tempcoPpmPerC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 5000},message:"must be <= 5000",schema:5000,parentSchema:schema11.properties.resistors.properties.tempcoPpmPerC,data:data117};
+if(vErrors === null){
+vErrors = [err363];
+}
+else {
+vErrors.push(err363);
+}
+errors++;
+}
+if(data117 < 0 || isNaN(data117)){
+const err364 = {instancePath:instancePath+"/resistors/tempcoPpmPerC",schemaPath:"#/properties/resistors/properties/tempcoPpmPerC/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.resistors.properties.tempcoPpmPerC,data:data117};
+if(vErrors === null){
+vErrors = [err364];
+}
+else {
+vErrors.push(err364);
+}
+errors++;
+}
+}
+else {
+const err365 = {instancePath:instancePath+"/resistors/tempcoPpmPerC",schemaPath:"#/properties/resistors/properties/tempcoPpmPerC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.resistors.properties.tempcoPpmPerC.type,parentSchema:schema11.properties.resistors.properties.tempcoPpmPerC,data:data117};
+if(vErrors === null){
+vErrors = [err365];
+}
+else {
+vErrors.push(err365);
+}
+errors++;
+}
+}
+}
+else {
+const err366 = {instancePath:instancePath+"/resistors",schemaPath:"#/properties/resistors/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.resistors.type,parentSchema:schema11.properties.resistors,data:data114};
+if(vErrors === null){
+vErrors = [err366];
+}
+else {
+vErrors.push(err366);
+}
+errors++;
+}
+}
+if(data.tailCapacitanceF !== undefined){
+let data118 = data.tailCapacitanceF;
+if(typeof data118 == "number"){
+if(data118 > 1e-9 || isNaN(data118)){
+const err367 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-9},message:"must be <= 1e-9",schema:1e-9,parentSchema:schema11.properties.tailCapacitanceF,data:data118};
+if(vErrors === null){
+vErrors = [err367];
+}
+else {
+vErrors.push(err367);
+}
+errors++;
+}
+if(data118 < 0 || isNaN(data118)){
+const err368 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.tailCapacitanceF,data:data118};
+if(vErrors === null){
+vErrors = [err368];
+}
+else {
+vErrors.push(err368);
+}
+errors++;
+}
+}
+else {
+const err369 = {instancePath:instancePath+"/tailCapacitanceF",schemaPath:"#/properties/tailCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.tailCapacitanceF.type,parentSchema:schema11.properties.tailCapacitanceF,data:data118};
+if(vErrors === null){
+vErrors = [err369];
+}
+else {
+vErrors.push(err369);
+}
+errors++;
+}
+}
+if(data.loadCapacitanceF !== undefined){
+let data119 = data.loadCapacitanceF;
+if(typeof data119 == "number"){
+if(data119 > 1e-8 || isNaN(data119)){
+const err370 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1e-8},message:"must be <= 1e-8",schema:1e-8,parentSchema:schema11.properties.loadCapacitanceF,data:data119};
+if(vErrors === null){
+vErrors = [err370];
+}
+else {
+vErrors.push(err370);
+}
+errors++;
+}
+if(data119 < 0 || isNaN(data119)){
+const err371 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.loadCapacitanceF,data:data119};
+if(vErrors === null){
+vErrors = [err371];
+}
+else {
+vErrors.push(err371);
+}
+errors++;
+}
+}
+else {
+const err372 = {instancePath:instancePath+"/loadCapacitanceF",schemaPath:"#/properties/loadCapacitanceF/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.loadCapacitanceF.type,parentSchema:schema11.properties.loadCapacitanceF,data:data119};
+if(vErrors === null){
+vErrors = [err372];
+}
+else {
+vErrors.push(err372);
+}
+errors++;
+}
+}
+if(data.sourceResistanceOhm !== undefined){
+let data120 = data.sourceResistanceOhm;
+if(typeof data120 == "number"){
+if(data120 > 10000000 || isNaN(data120)){
+const err373 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000000},message:"must be <= 10000000",schema:10000000,parentSchema:schema11.properties.sourceResistanceOhm,data:data120};
+if(vErrors === null){
+vErrors = [err373];
+}
+else {
+vErrors.push(err373);
+}
+errors++;
+}
+if(data120 < 0 || isNaN(data120)){
+const err374 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.sourceResistanceOhm,data:data120};
+if(vErrors === null){
+vErrors = [err374];
+}
+else {
+vErrors.push(err374);
+}
+errors++;
+}
+}
+else {
+const err375 = {instancePath:instancePath+"/sourceResistanceOhm",schemaPath:"#/properties/sourceResistanceOhm/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.sourceResistanceOhm.type,parentSchema:schema11.properties.sourceResistanceOhm,data:data120};
+if(vErrors === null){
+vErrors = [err375];
+}
+else {
+vErrors.push(err375);
+}
+errors++;
+}
+}
+if(data.noise !== undefined){
+let data121 = data.noise;
+if(data121 && typeof data121 == "object" && !Array.isArray(data121)){
+for(const key14 in data121){
+if(!((key14 === "maxVPerRtHz") || (key14 === "atFrequencyHz"))){
+const err376 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key14},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.noise,data:data121};
+if(vErrors === null){
+vErrors = [err376];
+}
+else {
+vErrors.push(err376);
+}
+errors++;
+}
+}
+if(data121.maxVPerRtHz !== undefined){
+let data122 = data121.maxVPerRtHz;
+if(typeof data122 == "number"){
+if(data122 > 0.001 || isNaN(data122)){
+const err377 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.001},message:"must be <= 0.001",schema:0.001,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data122};
+if(vErrors === null){
+vErrors = [err377];
+}
+else {
+vErrors.push(err377);
+}
+errors++;
+}
+if(data122 <= 0 || isNaN(data122)){
+const err378 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data122};
+if(vErrors === null){
+vErrors = [err378];
+}
+else {
+vErrors.push(err378);
+}
+errors++;
+}
+}
+else {
+const err379 = {instancePath:instancePath+"/noise/maxVPerRtHz",schemaPath:"#/properties/noise/properties/maxVPerRtHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.noise.properties.maxVPerRtHz.type,parentSchema:schema11.properties.noise.properties.maxVPerRtHz,data:data122};
+if(vErrors === null){
+vErrors = [err379];
+}
+else {
+vErrors.push(err379);
+}
+errors++;
+}
+}
+if(data121.atFrequencyHz !== undefined){
+let data123 = data121.atFrequencyHz;
+if(typeof data123 == "number"){
+if(data123 > 1000000000 || isNaN(data123)){
+const err380 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000},message:"must be <= 1000000000",schema:1000000000,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data123};
+if(vErrors === null){
+vErrors = [err380];
+}
+else {
+vErrors.push(err380);
+}
+errors++;
+}
+if(data123 <= 0 || isNaN(data123)){
+const err381 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data123};
+if(vErrors === null){
+vErrors = [err381];
+}
+else {
+vErrors.push(err381);
+}
+errors++;
+}
+}
+else {
+const err382 = {instancePath:instancePath+"/noise/atFrequencyHz",schemaPath:"#/properties/noise/properties/atFrequencyHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.noise.properties.atFrequencyHz.type,parentSchema:schema11.properties.noise.properties.atFrequencyHz,data:data123};
+if(vErrors === null){
+vErrors = [err382];
+}
+else {
+vErrors.push(err382);
+}
+errors++;
+}
+}
+}
+else {
+const err383 = {instancePath:instancePath+"/noise",schemaPath:"#/properties/noise/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.noise.type,parentSchema:schema11.properties.noise,data:data121};
+if(vErrors === null){
+vErrors = [err383];
+}
+else {
+vErrors.push(err383);
+}
+errors++;
+}
+}
+if(data.inputBiasCurrentMaxA !== undefined){
+let data124 = data.inputBiasCurrentMaxA;
+if(typeof data124 == "number"){
+if(data124 > 0.1 || isNaN(data124)){
+const err384 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.1},message:"must be <= 0.1",schema:0.1,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data124};
+if(vErrors === null){
+vErrors = [err384];
+}
+else {
+vErrors.push(err384);
+}
+errors++;
+}
+if(data124 <= 0 || isNaN(data124)){
+const err385 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data124};
+if(vErrors === null){
+vErrors = [err385];
+}
+else {
+vErrors.push(err385);
+}
+errors++;
+}
+}
+else {
+const err386 = {instancePath:instancePath+"/inputBiasCurrentMaxA",schemaPath:"#/properties/inputBiasCurrentMaxA/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.inputBiasCurrentMaxA.type,parentSchema:schema11.properties.inputBiasCurrentMaxA,data:data124};
+if(vErrors === null){
+vErrors = [err386];
+}
+else {
+vErrors.push(err386);
+}
+errors++;
+}
+}
+if(data.offset !== undefined){
+let data125 = data.offset;
+if(data125 && typeof data125 == "object" && !Array.isArray(data125)){
+for(const key15 in data125){
+if(!(((key15 === "maxV") || (key15 === "driftMaxVPerC")) || (key15 === "sigmas"))){
+const err387 = {instancePath:instancePath+"/offset",schemaPath:"#/properties/offset/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key15},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.offset,data:data125};
+if(vErrors === null){
+vErrors = [err387];
+}
+else {
+vErrors.push(err387);
+}
+errors++;
+}
+}
+if(data125.maxV !== undefined){
+let data126 = data125.maxV;
+if(typeof data126 == "number"){
+if(data126 > 1 || isNaN(data126)){
+const err388 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1},message:"must be <= 1",schema:1,parentSchema:schema11.properties.offset.properties.maxV,data:data126};
+if(vErrors === null){
+vErrors = [err388];
+}
+else {
+vErrors.push(err388);
+}
+errors++;
+}
+if(data126 <= 0 || isNaN(data126)){
+const err389 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.offset.properties.maxV,data:data126};
+if(vErrors === null){
+vErrors = [err389];
+}
+else {
+vErrors.push(err389);
+}
+errors++;
+}
+}
+else {
+const err390 = {instancePath:instancePath+"/offset/maxV",schemaPath:"#/properties/offset/properties/maxV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.maxV.type,parentSchema:schema11.properties.offset.properties.maxV,data:data126};
+if(vErrors === null){
+vErrors = [err390];
+}
+else {
+vErrors.push(err390);
+}
+errors++;
+}
+}
+if(data125.driftMaxVPerC !== undefined){
+let data127 = data125.driftMaxVPerC;
+if(typeof data127 == "number"){
+if(data127 > 0.01 || isNaN(data127)){
+const err391 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/maximum",keyword:"maximum",params:{comparison: "<=", limit: 0.01},message:"must be <= 0.01",schema:0.01,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data127};
+if(vErrors === null){
+vErrors = [err391];
+}
+else {
+vErrors.push(err391);
+}
+errors++;
+}
+if(data127 <= 0 || isNaN(data127)){
+const err392 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data127};
+if(vErrors === null){
+vErrors = [err392];
+}
+else {
+vErrors.push(err392);
+}
+errors++;
+}
+}
+else {
+const err393 = {instancePath:instancePath+"/offset/driftMaxVPerC",schemaPath:"#/properties/offset/properties/driftMaxVPerC/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.driftMaxVPerC.type,parentSchema:schema11.properties.offset.properties.driftMaxVPerC,data:data127};
+if(vErrors === null){
+vErrors = [err393];
+}
+else {
+vErrors.push(err393);
+}
+errors++;
+}
+}
+if(data125.sigmas !== undefined){
+let data128 = data125.sigmas;
+if(typeof data128 == "number"){
+if(data128 > 6 || isNaN(data128)){
+const err394 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/maximum",keyword:"maximum",params:{comparison: "<=", limit: 6},message:"must be <= 6",schema:6,parentSchema:schema11.properties.offset.properties.sigmas,data:data128};
+if(vErrors === null){
+vErrors = [err394];
+}
+else {
+vErrors.push(err394);
+}
+errors++;
+}
+if(data128 < 1 || isNaN(data128)){
+const err395 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema11.properties.offset.properties.sigmas,data:data128};
+if(vErrors === null){
+vErrors = [err395];
+}
+else {
+vErrors.push(err395);
+}
+errors++;
+}
+}
+else {
+const err396 = {instancePath:instancePath+"/offset/sigmas",schemaPath:"#/properties/offset/properties/sigmas/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.offset.properties.sigmas.type,parentSchema:schema11.properties.offset.properties.sigmas,data:data128};
+if(vErrors === null){
+vErrors = [err396];
+}
+else {
+vErrors.push(err396);
+}
+errors++;
+}
+}
+}
+else {
+const err397 = {instancePath:instancePath+"/offset",schemaPath:"#/properties/offset/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.offset.type,parentSchema:schema11.properties.offset,data:data125};
+if(vErrors === null){
+vErrors = [err397];
+}
+else {
+vErrors.push(err397);
+}
+errors++;
+}
+}
+if(data.slewRateMinVPerS !== undefined){
+let data129 = data.slewRateMinVPerS;
+if(typeof data129 == "number"){
+if(data129 > 1000000000000 || isNaN(data129)){
+const err398 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000000000000},message:"must be <= 1000000000000",schema:1000000000000,parentSchema:schema11.properties.slewRateMinVPerS,data:data129};
+if(vErrors === null){
+vErrors = [err398];
+}
+else {
+vErrors.push(err398);
+}
+errors++;
+}
+if(data129 <= 0 || isNaN(data129)){
+const err399 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.slewRateMinVPerS,data:data129};
+if(vErrors === null){
+vErrors = [err399];
+}
+else {
+vErrors.push(err399);
+}
+errors++;
+}
+}
+else {
+const err400 = {instancePath:instancePath+"/slewRateMinVPerS",schemaPath:"#/properties/slewRateMinVPerS/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.slewRateMinVPerS.type,parentSchema:schema11.properties.slewRateMinVPerS,data:data129};
+if(vErrors === null){
+vErrors = [err400];
+}
+else {
+vErrors.push(err400);
+}
+errors++;
+}
+}
+if(data.bandwidthMinHz !== undefined){
+let data130 = data.bandwidthMinHz;
+if(typeof data130 == "number"){
+if(data130 > 10000000000 || isNaN(data130)){
+const err401 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/maximum",keyword:"maximum",params:{comparison: "<=", limit: 10000000000},message:"must be <= 10000000000",schema:10000000000,parentSchema:schema11.properties.bandwidthMinHz,data:data130};
+if(vErrors === null){
+vErrors = [err401];
+}
+else {
+vErrors.push(err401);
+}
+errors++;
+}
+if(data130 <= 0 || isNaN(data130)){
+const err402 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.bandwidthMinHz,data:data130};
+if(vErrors === null){
+vErrors = [err402];
+}
+else {
+vErrors.push(err402);
+}
+errors++;
+}
+}
+else {
+const err403 = {instancePath:instancePath+"/bandwidthMinHz",schemaPath:"#/properties/bandwidthMinHz/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.bandwidthMinHz.type,parentSchema:schema11.properties.bandwidthMinHz,data:data130};
+if(vErrors === null){
+vErrors = [err403];
+}
+else {
+vErrors.push(err403);
+}
+errors++;
+}
+}
+if(data.psrrMinDb !== undefined){
+let data131 = data.psrrMinDb;
+if(data131 && typeof data131 == "object" && !Array.isArray(data131)){
+for(const key16 in data131){
+if(!((key16 === "positive") || (key16 === "negative"))){
+const err404 = {instancePath:instancePath+"/psrrMinDb",schemaPath:"#/properties/psrrMinDb/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key16},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.psrrMinDb,data:data131};
+if(vErrors === null){
+vErrors = [err404];
+}
+else {
+vErrors.push(err404);
+}
+errors++;
+}
+}
+if(data131.positive !== undefined){
+let data132 = data131.positive;
+if(typeof data132 == "number"){
+if(data132 > 200 || isNaN(data132)){
+const err405 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data132};
+if(vErrors === null){
+vErrors = [err405];
+}
+else {
+vErrors.push(err405);
+}
+errors++;
+}
+if(data132 < 0 || isNaN(data132)){
+const err406 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data132};
+if(vErrors === null){
+vErrors = [err406];
+}
+else {
+vErrors.push(err406);
+}
+errors++;
+}
+}
+else {
+const err407 = {instancePath:instancePath+"/psrrMinDb/positive",schemaPath:"#/properties/psrrMinDb/properties/positive/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.psrrMinDb.properties.positive.type,parentSchema:schema11.properties.psrrMinDb.properties.positive,data:data132};
+if(vErrors === null){
+vErrors = [err407];
+}
+else {
+vErrors.push(err407);
+}
+errors++;
+}
+}
+if(data131.negative !== undefined){
+let data133 = data131.negative;
+if(typeof data133 == "number"){
+if(data133 > 200 || isNaN(data133)){
+const err408 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/maximum",keyword:"maximum",params:{comparison: "<=", limit: 200},message:"must be <= 200",schema:200,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data133};
+if(vErrors === null){
+vErrors = [err408];
+}
+else {
+vErrors.push(err408);
+}
+errors++;
+}
+if(data133 < 0 || isNaN(data133)){
+const err409 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data133};
+if(vErrors === null){
+vErrors = [err409];
+}
+else {
+vErrors.push(err409);
+}
+errors++;
+}
+}
+else {
+const err410 = {instancePath:instancePath+"/psrrMinDb/negative",schemaPath:"#/properties/psrrMinDb/properties/negative/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.psrrMinDb.properties.negative.type,parentSchema:schema11.properties.psrrMinDb.properties.negative,data:data133};
+if(vErrors === null){
+vErrors = [err410];
+}
+else {
+vErrors.push(err410);
+}
+errors++;
+}
+}
+}
+else {
+const err411 = {instancePath:instancePath+"/psrrMinDb",schemaPath:"#/properties/psrrMinDb/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.psrrMinDb.type,parentSchema:schema11.properties.psrrMinDb,data:data131};
+if(vErrors === null){
+vErrors = [err411];
+}
+else {
+vErrors.push(err411);
+}
+errors++;
+}
+}
+if(data.linearInputRangeMinV !== undefined){
+let data134 = data.linearInputRangeMinV;
+if(typeof data134 == "number"){
+if(data134 > 100 || isNaN(data134)){
+const err412 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100},message:"must be <= 100",schema:100,parentSchema:schema11.properties.linearInputRangeMinV,data:data134};
+if(vErrors === null){
+vErrors = [err412];
+}
+else {
+vErrors.push(err412);
+}
+errors++;
+}
+if(data134 <= 0 || isNaN(data134)){
+const err413 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema11.properties.linearInputRangeMinV,data:data134};
+if(vErrors === null){
+vErrors = [err413];
+}
+else {
+vErrors.push(err413);
+}
+errors++;
+}
+}
+else {
+const err414 = {instancePath:instancePath+"/linearInputRangeMinV",schemaPath:"#/properties/linearInputRangeMinV/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema11.properties.linearInputRangeMinV.type,parentSchema:schema11.properties.linearInputRangeMinV,data:data134};
+if(vErrors === null){
+vErrors = [err414];
+}
+else {
+vErrors.push(err414);
+}
+errors++;
+}
+}
+if(data.topologies !== undefined){
+let data135 = data.topologies;
+if(Array.isArray(data135)){
+if(data135.length < 1){
+const err415 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema11.properties.topologies,data:data135};
+if(vErrors === null){
+vErrors = [err415];
+}
+else {
+vErrors.push(err415);
+}
+errors++;
+}
+const len0 = data135.length;
+for(let i0=0; i0<len0; i0++){
+let data136 = data135[i0];
+if(typeof data136 !== "string"){
+const err416 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.topologies.items.type,parentSchema:schema11.properties.topologies.items,data:data136};
+if(vErrors === null){
+vErrors = [err416];
+}
+else {
+vErrors.push(err416);
+}
+errors++;
+}
+if(!(((((((data136 === "resistor") || (data136 === "simple-mirror")) || (data136 === "degenerated-mirror")) || (data136 === "widlar")) || (data136 === "wilson")) || (data136 === "cascode")) || (data136 === "ptat"))){
+const err417 = {instancePath:instancePath+"/topologies/" + i0,schemaPath:"#/properties/topologies/items/enum",keyword:"enum",params:{allowedValues: schema11.properties.topologies.items.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.topologies.items.enum,parentSchema:schema11.properties.topologies.items,data:data136};
+if(vErrors === null){
+vErrors = [err417];
+}
+else {
+vErrors.push(err417);
+}
+errors++;
+}
+}
+let i1 = data135.length;
+let j0;
+if(i1 > 1){
+const indices0 = {};
+for(;i1--;){
+let item0 = data135[i1];
+if(typeof item0 !== "string"){
+continue;
+}
+if(typeof indices0[item0] == "number"){
+j0 = indices0[item0];
+const err418 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/uniqueItems",keyword:"uniqueItems",params:{i: i1, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i1+" are identical)",schema:true,parentSchema:schema11.properties.topologies,data:data135};
+if(vErrors === null){
+vErrors = [err418];
+}
+else {
+vErrors.push(err418);
+}
+errors++;
+break;
+}
+indices0[item0] = i1;
+}
+}
+}
+else {
+const err419 = {instancePath:instancePath+"/topologies",schemaPath:"#/properties/topologies/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema11.properties.topologies.type,parentSchema:schema11.properties.topologies,data:data135};
+if(vErrors === null){
+vErrors = [err419];
+}
+else {
+vErrors.push(err419);
+}
+errors++;
+}
+}
+if(data.policy !== undefined){
+let data137 = data.policy;
+if(typeof data137 !== "string"){
+const err420 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema11.properties.policy.type,parentSchema:schema11.properties.policy,data:data137};
+if(vErrors === null){
+vErrors = [err420];
+}
+else {
+vErrors.push(err420);
+}
+errors++;
+}
+if(!((data137 === "simplest-sufficient") || (data137 === "highest-rejection"))){
+const err421 = {instancePath:instancePath+"/policy",schemaPath:"#/properties/policy/enum",keyword:"enum",params:{allowedValues: schema11.properties.policy.enum},message:"must be equal to one of the allowed values",schema:schema11.properties.policy.enum,parentSchema:schema11.properties.policy,data:data137};
+if(vErrors === null){
+vErrors = [err421];
+}
+else {
+vErrors.push(err421);
+}
+errors++;
+}
+}
+if(data.hazards !== undefined){
+let data138 = data.hazards;
+if(data138 && typeof data138 == "object" && !Array.isArray(data138)){
+for(const key17 in data138){
+if(!((key17 === "patientConnected") || (key17 === "mainsReferenced"))){
+const err422 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key17},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.hazards,data:data138};
+if(vErrors === null){
+vErrors = [err422];
+}
+else {
+vErrors.push(err422);
+}
+errors++;
+}
+}
+if(data138.patientConnected !== undefined){
+let data139 = data138.patientConnected;
+if(typeof data139 !== "boolean"){
+const err423 = {instancePath:instancePath+"/hazards/patientConnected",schemaPath:"#/properties/hazards/properties/patientConnected/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.patientConnected.type,parentSchema:schema11.properties.hazards.properties.patientConnected,data:data139};
+if(vErrors === null){
+vErrors = [err423];
+}
+else {
+vErrors.push(err423);
+}
+errors++;
+}
+}
+if(data138.mainsReferenced !== undefined){
+let data140 = data138.mainsReferenced;
+if(typeof data140 !== "boolean"){
+const err424 = {instancePath:instancePath+"/hazards/mainsReferenced",schemaPath:"#/properties/hazards/properties/mainsReferenced/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema11.properties.hazards.properties.mainsReferenced.type,parentSchema:schema11.properties.hazards.properties.mainsReferenced,data:data140};
+if(vErrors === null){
+vErrors = [err424];
+}
+else {
+vErrors.push(err424);
+}
+errors++;
+}
+}
+}
+else {
+const err425 = {instancePath:instancePath+"/hazards",schemaPath:"#/properties/hazards/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.hazards.type,parentSchema:schema11.properties.hazards,data:data138};
+if(vErrors === null){
+vErrors = [err425];
+}
+else {
+vErrors.push(err425);
+}
+errors++;
+}
+}
+if(data.monteCarlo !== undefined){
+let data141 = data.monteCarlo;
+if(data141 && typeof data141 == "object" && !Array.isArray(data141)){
+for(const key18 in data141){
+if(!((key18 === "samples") || (key18 === "seed"))){
+const err426 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key18},message:"must NOT have additional properties",schema:false,parentSchema:schema11.properties.monteCarlo,data:data141};
+if(vErrors === null){
+vErrors = [err426];
+}
+else {
+vErrors.push(err426);
+}
+errors++;
+}
+}
+if(data141.samples !== undefined){
+let data142 = data141.samples;
+if(!((typeof data142 == "number") && (!(data142 % 1) && !isNaN(data142)))){
+const err427 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.samples.type,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data142};
+if(vErrors === null){
+vErrors = [err427];
+}
+else {
+vErrors.push(err427);
+}
+errors++;
+}
+if(typeof data142 == "number"){
+if(data142 > 100000 || isNaN(data142)){
+const err428 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/maximum",keyword:"maximum",params:{comparison: "<=", limit: 100000},message:"must be <= 100000",schema:100000,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data142};
+if(vErrors === null){
+vErrors = [err428];
+}
+else {
+vErrors.push(err428);
+}
+errors++;
+}
+if(data142 < 100 || isNaN(data142)){
+const err429 = {instancePath:instancePath+"/monteCarlo/samples",schemaPath:"#/properties/monteCarlo/properties/samples/minimum",keyword:"minimum",params:{comparison: ">=", limit: 100},message:"must be >= 100",schema:100,parentSchema:schema11.properties.monteCarlo.properties.samples,data:data142};
+if(vErrors === null){
+vErrors = [err429];
+}
+else {
+vErrors.push(err429);
+}
+errors++;
+}
+}
+}
+if(data141.seed !== undefined){
+let data143 = data141.seed;
+if(!((typeof data143 == "number") && (!(data143 % 1) && !isNaN(data143)))){
+const err430 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema11.properties.monteCarlo.properties.seed.type,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data143};
+if(vErrors === null){
+vErrors = [err430];
+}
+else {
+vErrors.push(err430);
+}
+errors++;
+}
+if(typeof data143 == "number"){
+if(data143 > 4294967295 || isNaN(data143)){
+const err431 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/maximum",keyword:"maximum",params:{comparison: "<=", limit: 4294967295},message:"must be <= 4294967295",schema:4294967295,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data143};
+if(vErrors === null){
+vErrors = [err431];
+}
+else {
+vErrors.push(err431);
+}
+errors++;
+}
+if(data143 < 0 || isNaN(data143)){
+const err432 = {instancePath:instancePath+"/monteCarlo/seed",schemaPath:"#/properties/monteCarlo/properties/seed/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema11.properties.monteCarlo.properties.seed,data:data143};
+if(vErrors === null){
+vErrors = [err432];
+}
+else {
+vErrors.push(err432);
+}
+errors++;
+}
+}
+}
+}
+else {
+const err433 = {instancePath:instancePath+"/monteCarlo",schemaPath:"#/properties/monteCarlo/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.properties.monteCarlo.type,parentSchema:schema11.properties.monteCarlo,data:data141};
+if(vErrors === null){
+vErrors = [err433];
+}
+else {
+vErrors.push(err433);
+}
+errors++;
+}
+}
+}
+else {
+const err434 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema11.type,parentSchema:schema11,data};
+if(vErrors === null){
+vErrors = [err434];
+}
+else {
+vErrors.push(err434);
+}
+errors++;
+}
 validate10.errors = vErrors;
 return errors === 0;
 }
 
 /** Hash (rjsf's hashForSchema) of the schema these validators were compiled from. */
-export const SPEC_SCHEMA_HASH = "-19119133";
+export const SPEC_SCHEMA_HASH = "64752db9";
 
 /** rjsf precompiled validator functions, by schema $id. */
 export const SPEC_VALIDATORS = {

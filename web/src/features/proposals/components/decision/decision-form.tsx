@@ -6,7 +6,7 @@ import { cn } from '../../../../lib/cn';
 import type { useDecideMutation } from '../../api/decision-mutations';
 import { ChoiceOptions } from './choice-options';
 import { decisionStart, startingDesign, type DecisionKind } from './decision-draft';
-import { topologyName } from '../../../../lib/topology-names';
+import { topologyNameInText } from '../../../../lib/topology-names';
 import { designFromDraft, draftFromDesign, type OverrideDraft } from './override-draft';
 import { OverrideConfirmation } from './override-confirmation';
 import { OverrideEditor } from './override-editor';
@@ -104,12 +104,12 @@ export function DecisionForm({ proposal, mutation }: { proposal: Proposal; mutat
 
   const what =
     kind === 'accept'
-      ? `accept the ${topologyName(proposal.result.recommended).toLowerCase()}`
+      ? `accept the ${topologyNameInText(proposal.result.recommended)}`
       : kind === 'choose'
         ? chosen
-          ? `choose the ${topologyName(chosen).toLowerCase()}`
+          ? `choose the ${topologyNameInText(chosen)}`
           : 'choose an option'
-        : `own values (${topologyName(draft?.topology).toLowerCase()})`;
+        : `own values (${topologyNameInText(draft?.topology)})`;
 
   return (
     <form ref={formRef} onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Decision">

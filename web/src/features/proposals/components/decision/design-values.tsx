@@ -1,9 +1,15 @@
 import type { Design } from '#shared/engine/types';
 import { Quantity } from '../../../../components/ui/quantity';
-import { fieldValue, fieldsFor } from './design-fields';
+import { fieldText, fieldValue, fieldsFor, type FieldInfo } from './design-fields';
 import { topologyName } from '../../../../lib/topology-names';
 
-/** A design's resistor values, each beside the ranked option's when they differ. */
+/** A design's value of one field: a quantity ("4.7 kΩ"), or a ratio as a plain ratio ("8×"). */
+function FieldValue({ info, value }: { info: FieldInfo; value: number | undefined }) {
+  if (info.kind === 'ratio' && value !== undefined) return <span className="tabular-nums whitespace-nowrap">{fieldText(info, value, 4)}</span>;
+  return <Quantity value={value} unit={info.unit} digits={4} />;
+}
+
+/** A design's resistor values and area ratios, each beside the ranked option's when they differ. */
 export function DesignValues({ design, compareWith }: { design: Design; compareWith?: Design | null }) {
   const fields = fieldsFor(design.tail.topology);
   return (
@@ -17,10 +23,10 @@ export function DesignValues({ design, compareWith }: { design: Design; compareW
           <div key={info.key} className="contents">
             <dt className="text-ink-soft dark:text-night-ink-soft">{info.title}</dt>
             <dd>
-              <Quantity value={value} unit={info.unit} digits={4} />
+              <FieldValue info={info} value={value} />
               {ranked !== undefined && ranked !== value && (
                 <span className="ml-2 text-xs text-ink-soft dark:text-night-ink-soft">
-                  (ranked <Quantity value={ranked} unit={info.unit} digits={4} />)
+                  (ranked <FieldValue info={info} value={ranked} />)
                 </span>
               )}
             </dd>

@@ -6,7 +6,7 @@
 import type { Design, TailDesign, TopologyId } from '#shared/engine/types';
 import { formatQuantity, parseQuantity } from '#shared/units/index';
 import { ApiError } from '../../../../lib/api';
-import { fieldValue, fieldsFor, type FieldInfo, type FieldKey } from './design-fields';
+import { fieldText, fieldValue, fieldsFor, TAIL_FIELD_KEYS, type FieldInfo, type FieldKey } from './design-fields';
 
 export interface OverrideDraft {
   /** The design the draft started from: device, rails, common mode, temperature and tail capacitance come from it. */
@@ -15,25 +15,30 @@ export interface OverrideDraft {
   text: Partial<Record<FieldKey, string>>;
 }
 
-export type FieldReading = { ok: true; valueOhm: number } | { ok: false; message: string };
+/** A field's text read as a value (ohms, or a plain ratio), or why it cannot be used. */
+export type FieldReading = { ok: true; value: number } | { ok: false; message: string };
 
 /** Enough digits that a value read back from its text is the value itself (E192 needs three). */
 const TEXT_DIGITS = 6;
 
-/** A value as the editor shows it to start with: "13.7 kΩ". */
-export function valueText(valueOhm: number, unit: string): string {
-  return formatQuantity(valueOhm, unit, TEXT_DIGITS);
+/** A value as the editor shows it to start with: "13.7 kΩ"; a ratio as the plain number typed ("8"). */
+export function valueText(value: number, unit: string): string {
+  return formatQuantity(value, unit, TEXT_DIGITS);
 }
 
-/** The typed text read as ohms and checked against the schema's limits, or why it cannot be used. */
+/** A ratio may be typed with its sign ("8×", "8x", "8 ×"): the number is what counts. */
+const RATIO_SIGN = /\s*[×xX]$/;
+
+/** The typed text read as ohms (or a plain ratio) and checked against the schema's limits, or why it cannot be used. */
 export function readField(info: FieldInfo, text: string | undefined): FieldReading {
-  const parsed = parseQuantity(text ?? '', info.unit);
+  const typed = info.kind === 'ratio' ? (text ?? '').trim().replace(RATIO_SIGN, '') : (text ?? '');
+  const parsed = parseQuantity(typed, info.unit);
   if (!parsed.ok) return { ok: false, message: parsed.message.startsWith('"') ? parsed.message : `This value ${parsed.message}` };
   const value = parsed.value;
-  const limit = valueText(info.min, info.unit);
+  const limit = fieldText(info, info.min, TEXT_DIGITS);
   if (info.minAllowed ? value < info.min : value <= info.min) return { ok: false, message: `Must be ${info.minAllowed ? 'at least' : 'more than'} ${limit}` };
-  if (value > info.maxOhm) return { ok: false, message: `Must be at most ${valueText(info.maxOhm, info.unit)}` };
-  return { ok: true, valueOhm: value };
+  if (value > info.max) return { ok: false, message: `Must be at most ${fieldText(info, info.max, TEXT_DIGITS)}` };
+  return { ok: true, value };
 }
 
 /** The text of every field of a design's topology. */
@@ -74,7 +79,7 @@ export function designFromDraft(draft: OverrideDraft): Design | null {
   const values: Partial<Record<FieldKey, number>> = {};
   for (const [key, reading] of readDraft(draft)) {
     if (!reading.ok) return null;
-    values[key] = reading.valueOhm;
+    values[key] = reading.value;
   }
   const tail = { topology: draft.topology } as Record<string, unknown>;
   for (const [key, value] of Object.entries(values)) if (key.startsWith('tail/')) tail[key.slice('tail/'.length)] = value;
@@ -86,10 +91,10 @@ export function designFromDraft(draft: OverrideDraft): Design | null {
   };
 }
 
-/** Server paths ("/design/tail/emitterResistanceOhm", "/tail/emitterResistanceOhm") as field keys, when they name one. */
+/** Server paths ("/design/tail/emitterResistanceOhm", "/tail/areaRatio") as field keys, when they name one. */
 export function fieldKeyOfPath(path: string): FieldKey | null {
   const key = path.replace(/^\/design\//, '').replace(/^\//, '');
-  const known: FieldKey[] = ['collectorResistanceOhm', 'pairEmitterResistanceOhm', 'tail/resistanceOhm', 'tail/referenceResistanceOhm', 'tail/emitterResistanceOhm'];
+  const known: FieldKey[] = ['collectorResistanceOhm', 'pairEmitterResistanceOhm', ...TAIL_FIELD_KEYS];
   return known.find((k) => key === k) ?? null;
 }
 

@@ -4,7 +4,7 @@ import { formatQuantity } from '#shared/units/index';
 import { Button } from '../../../../components/ui/button';
 import type { OptionEvaluation, Proposal } from '#shared/api/proposals';
 import { fieldValue, PAIR_FIELDS, tailFields, type FieldInfo, type FieldKey } from './design-fields';
-import { topologyName } from '../../../../lib/topology-names';
+import { topologyName, topologyNameInText } from '../../../../lib/topology-names';
 import { FullCheckPanel } from './full-check-panel';
 import { designFromDraft, draftFromDesign, fieldErrorsOf, readDraft, withTopology, type FieldReading, type OverrideDraft } from './override-draft';
 import { QuantityField } from './quantity-field';
@@ -14,7 +14,7 @@ import { WhatIfPanel } from './what-if-panel';
 
 /**
  * Own values: the pair's and the tail's resistors (and optionally another topology), typed in
- * engineering notation, with the server's what-if beside the ranked option of the same topology
+ * engineering notation, and the tail's emitter-area ratios where it has them, with the server's what-if beside the ranked option of the same topology
  * and, on request, its full check over every rule and corner.
  */
 export function OverrideEditor({
@@ -49,7 +49,7 @@ export function OverrideEditor({
       reading={readings.get(info.key)!}
       serverError={serverErrors[info.key] ?? fullCheck.fieldErrors[info.key] ?? whatIfFieldErrors[info.key]}
       series={series}
-      rankedOhm={ranked?.design ? fieldValue(ranked.design, info.key) : undefined}
+      ranked={ranked?.design ? fieldValue(ranked.design, info.key) : undefined}
       onChange={(text) => setText(info.key, text)}
     />
   );
@@ -79,7 +79,7 @@ export function OverrideEditor({
         </div>
         {ranked?.design && (
           <Button variant="secondary" onClick={() => onDraftChange(draftFromDesign(ranked.design!))}>
-            Reset every value to the ranked {topologyName(draft.topology).toLowerCase()}
+            Reset every value to the ranked {topologyNameInText(draft.topology)}
           </Button>
         )}
       </div>
@@ -110,7 +110,7 @@ export function OverrideEditor({
 }
 
 function readingOf(reading: FieldReading | undefined): number | undefined {
-  return reading?.ok ? reading.valueOhm : undefined;
+  return reading?.ok ? reading.value : undefined;
 }
 
 /** The ranked option of the edited topology was sized with other pair values: say so, and offer them. */
@@ -118,7 +118,7 @@ function PairHint({ ranked, onUse }: { ranked: OptionEvaluation & { design: Desi
   const values = PAIR_FIELDS.map((f) => `${f.title.toLowerCase()} ${formatQuantity(fieldValue(ranked.design, f.key) ?? 0, f.unit, 4)}`).join(' and ');
   return (
     <p className="rounded-md bg-note-soft p-2 text-xs text-note dark:bg-note/20 dark:text-note-bright">
-      The ranked {topologyName(ranked.topology).toLowerCase()} was sized with {values}; your pair values differ.{' '}
+      The ranked {topologyNameInText(ranked.topology)} was sized with {values}; your pair values differ.{' '}
       <button type="button" className="font-medium underline" onClick={onUse}>
         Use its pair values
       </button>

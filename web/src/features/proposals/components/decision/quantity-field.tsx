@@ -3,13 +3,13 @@ import type { ResistorSeries } from '#shared/engine/types';
 import { formatQuantity, isOnSeries, snapToSeries } from '#shared/units/index';
 import { plausibilityNote } from '#shared/units/plausibility';
 import { cn } from '../../../../lib/cn';
-import type { FieldInfo } from './design-fields';
+import { fieldText, type FieldInfo } from './design-fields';
 import type { FieldReading } from './override-draft';
 
 /**
- * A resistor value as engineers type it ("4k7", "10 kΩ", "1meg"), with the value understood
- * shown beneath it, whether it is a member of the spec's series, and the reason when it cannot
- * be read or the server refused it.
+ * A resistor value as engineers type it ("4k7", "10 kΩ", "1meg"), or an emitter-area ratio as a
+ * plain number ("8", "8×"), with the value understood shown beneath it, for a resistor whether it
+ * is a member of the spec's series, and the reason when it cannot be read or the server refused it.
  */
 export function QuantityField({
   info,
@@ -17,7 +17,7 @@ export function QuantityField({
   reading,
   serverError,
   series,
-  rankedOhm,
+  ranked,
   onChange,
 }: {
   info: FieldInfo;
@@ -26,7 +26,7 @@ export function QuantityField({
   serverError?: string;
   series: ResistorSeries;
   /** The ranked option's value for the same field, for comparison. */
-  rankedOhm?: number;
+  ranked?: number;
   onChange: (text: string) => void;
 }) {
   const id = useId();
@@ -58,25 +58,26 @@ export function QuantityField({
             {problem}
           </>
         ) : reading.ok ? (
-          <Understood valueOhm={reading.valueOhm} unit={info.unit} series={series} rankedOhm={rankedOhm} note={plausibilityNote(reading.valueOhm, info.unit, info.typical)} />
+          <Understood value={reading.value} info={info} series={series} ranked={ranked} note={plausibilityNote(reading.value, info.unit, info.typical)} />
         ) : null}
       </p>
     </div>
   );
 }
 
-function Understood({ valueOhm, unit, series, rankedOhm, note }: { valueOhm: number; unit: string; series: ResistorSeries; rankedOhm?: number; note: string | null }) {
-  const offSeries = valueOhm > 0 && !isOnSeries(valueOhm, series);
+function Understood({ value, info, series, ranked, note }: { value: number; info: FieldInfo; series: ResistorSeries; ranked?: number; note: string | null }) {
+  // A ratio of emitter areas is no resistor: the series says nothing about it
+  const offSeries = info.kind === 'resistor' && value > 0 && !isOnSeries(value, series);
   return (
     <>
-      <span className="tabular-nums">= {formatQuantity(valueOhm, unit, 4)}</span>
+      <span className="tabular-nums">= {fieldText(info, value, 4)}</span>
       {offSeries && (
         <span className="text-note dark:text-note-bright">
           {' '}
-          · not an {series} value (nearest {formatQuantity(snapToSeries(valueOhm, series), unit, 3)})
+          · not an {series} value (nearest {formatQuantity(snapToSeries(value, series), info.unit, 3)})
         </span>
       )}
-      {rankedOhm !== undefined && rankedOhm !== valueOhm && <span> · ranked {formatQuantity(rankedOhm, unit, 4)}</span>}
+      {ranked !== undefined && ranked !== value && <span> · ranked {fieldText(info, ranked, 4)}</span>}
       {note && (
         <span className="block text-note dark:text-note-bright">
           <span aria-hidden="true">! </span>

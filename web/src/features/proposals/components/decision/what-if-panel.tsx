@@ -5,7 +5,7 @@ import { Verdict } from '../../../../components/ui/verdict';
 import { ApiError } from '../../../../lib/api';
 import type { Proposal } from '#shared/api/proposals';
 import { cn } from '../../../../lib/cn';
-import { topologyName } from '../../../../lib/topology-names';
+import { topologyNameInText } from '../../../../lib/topology-names';
 import type { WhatIf } from './use-what-if';
 import { changeText, whatIfFigures } from './what-if-figures';
 
@@ -24,7 +24,7 @@ export function WhatIfPanel({ proposal, whatIf, ranked }: { proposal: Proposal; 
   const error = hasDesign && !settling && query.error ? query.error : null;
   // Figures of an earlier design stay on screen while the next is analysed, in the soft ink, never faded below legibility.
   const stale = Boolean(edited) && (updating || !hasDesign);
-  const rankedLabel = ranked ? `Ranked ${topologyName(ranked.topology).toLowerCase()}` : 'Ranked option';
+  const rankedLabel = ranked ? `Ranked ${topologyNameInText(ranked.topology)}` : 'Ranked option';
   return (
     <section aria-labelledby="what-if-title" className="rounded-md border border-rule p-3 dark:border-night-rule">
       <header className="mb-2 flex flex-wrap items-baseline justify-between gap-2">

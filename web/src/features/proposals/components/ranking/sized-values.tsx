@@ -1,10 +1,11 @@
 import type { ReactNode } from 'react';
 import { cardOf, resolvedParameters } from '#shared/engine/bjt-parameters';
-import type { Design, ResistorSeries } from '#shared/engine/types';
+import { TOPOLOGY_CATALOGUE } from '#shared/engine/topologies';
+import type { Design, DeviceParams, ResistorSeries } from '#shared/engine/types';
 import { formatQuantity } from '#shared/units/format-quantity';
 import type { AnalyzeResult, OptionFacts } from '#shared/engine/types';
-import { formatPercent } from '#shared/units/figures';
-import { onSeries, sizedResistors } from '../../lib/sized-values';
+import { formatPercent, formatRatio } from '#shared/units/figures';
+import { onSeries, sizedRatios, sizedResistors } from '../../lib/sized-values';
 
 function Row({ name, value, note }: { name: string; value: string; note?: string }) {
   return (
@@ -31,7 +32,20 @@ function Group({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-/** The option's sized values: resistors on the spec's series, rails, operating point and the device. */
+/** The tail's PNP transistors (`device.pnp`): current gain, Early voltage, IS, from its card when it has one. */
+function PnpGroup({ pnp, names }: { pnp: NonNullable<DeviceParams['pnp']>; names: string[] }) {
+  // The card the engine reads: the model card when given, else IS, BF and VAF (an Early voltage of 0 is infinite)
+  const card = resolvedParameters(cardOf(pnp as DeviceParams));
+  return (
+    <Group title={`PNP transistors (${names.join(', ')})`}>
+      <Row name="β (BF)" value={formatQuantity(card.BF, '1')} />
+      <Row name="VAF" value={Number.isFinite(card.VAF) ? formatQuantity(card.VAF, 'V') : '∞'} note="Early voltage" />
+      <Row name="IS" value={formatQuantity(card.IS, 'A')} note={pnp.saturationCurrentA === undefined && !pnp.model ? 'at 27 °C, from a VBE of 0.65 V at 1 mA' : 'at 27 °C'} />
+    </Group>
+  );
+}
+
+/** The option's sized values: resistors on the spec's series, the tail's emitter-area ratios, rails, operating point and the device. */
 export function SizedValues({
   design,
   series,
@@ -47,6 +61,9 @@ export function SizedValues({
   predicted: AnalyzeResult | null;
 }) {
   const d = design.device;
+  const family = (d.family ?? 'npn').toUpperCase();
+  const ratios = sizedRatios(design);
+  const pnpNames = TOPOLOGY_CATALOGUE[design.tail.topology].transistors.filter((q) => q.type === 'pnp').map((q) => q.name);
   const seriesNote = (valueOhm: number) =>
     series === null ? undefined : onSeries(valueOhm, series) ? `${series}${tolerancePercent ? `, ±${formatPercent(tolerancePercent).replace(' ', '\u00a0')}` : ''}` : `not on ${series}`;
   return (
@@ -57,6 +74,13 @@ export function SizedValues({
           <Row key={r.names.join()} name={r.names.join(', ')} value={formatQuantity(r.valueOhm, 'Ohm')} note={`${r.role} · ${seriesNote(r.valueOhm) ?? ''}`.replace(/ · $/, '')} />
         ))}
       </Group>
+      {ratios.length > 0 && (
+        <Group title="Emitter-area ratios">
+          {ratios.map((r) => (
+            <Row key={r.name} name={r.name} value={formatRatio(r.ratio)} note={r.role} />
+          ))}
+        </Group>
+      )}
       <Group title="Rails and bias">
         <Row name="V+" value={formatQuantity(design.supply.positiveV, 'V')} />
         <Row name="V−" value={formatQuantity(design.supply.negativeV, 'V')} note={design.supply.negativeV === 0 ? 'single supply' : undefined} />
@@ -72,13 +96,14 @@ export function SizedValues({
           {facts && <Row name="Tail Rout" value={formatQuantity(facts.tailOutputResistanceOhm, 'Ohm')} note={facts.tailOutputResistanceNote} />}
         </Group>
       )}
-      <Group title={`Transistors (${(d.family ?? 'npn').toUpperCase()}, all alike)`}>
+      <Group title={pnpNames.length > 0 ? `${family} transistors (all alike)` : `Transistors (${family}, all alike)`}>
         <Row name="β (BF)" value={formatQuantity(resolvedParameters(cardOf(d)).BF, '1')} />
         <Row name="VAF" value={d.earlyVoltageV ? formatQuantity(d.earlyVoltageV, 'V') : '∞'} note="Early voltage" />
         {d.saturationCurrentA !== undefined && <Row name="IS" value={formatQuantity(d.saturationCurrentA, 'A')} note="at 27 °C" />}
         {d.vceSatV !== undefined && <Row name="VCE(sat)" value={formatQuantity(d.vceSatV, 'V')} />}
         {d.vbeMismatchSigmaV !== undefined && <Row name="σ(ΔVBE)" value={formatQuantity(d.vbeMismatchSigmaV, 'V')} note="pair mismatch, 1 σ" />}
       </Group>
+      {pnpNames.length > 0 && d.pnp && <PnpGroup pnp={d.pnp} names={pnpNames} />}
     </table>
   );
 }

@@ -1,6 +1,6 @@
 import { OptionVerdict } from '../../../../components/ui/verdict';
 import type { Proposal } from '#shared/api/proposals';
-import { topologyName } from '../../../../lib/topology-names';
+import { topologyName, topologyNameInText } from '../../../../lib/topology-names';
 import { blockingFailures, decisionKindWords } from '../decision/decided-option';
 import { OptionSchematic } from '../ranking/schematic/option-schematic';
 import { SizedValues } from '../ranking/sized-values';
@@ -85,7 +85,7 @@ export function ChosenDesign({ proposal, subject, nameOf }: { proposal: Proposal
           <figure className="report-keep min-w-0">
             <OptionSchematic design={design} className="mx-auto w-full max-w-[480px] print:max-w-[95mm]" />
             <figcaption className="mt-1 text-center text-xs text-ink-soft dark:text-night-ink-soft">
-              The stage with the {topologyName(design.tail.topology).toLowerCase()} tail, as sized; the tail element in the accent colour.
+              The stage with the {topologyNameInText(design.tail.topology)} tail, as sized; the tail element in the accent colour.
             </figcaption>
           </figure>
           <SizedValues design={design} series={payload?.resistors?.series ?? null} tolerancePercent={payload?.resistors?.tolerancePercent ?? null} facts={option?.figures ?? null} predicted={option?.predicted ?? null} />

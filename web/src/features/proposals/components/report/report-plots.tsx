@@ -4,7 +4,7 @@
  */
 import type { MonteCarloVerificationResult, VerificationJobView } from '#shared/verification/types';
 import type { Proposal } from '#shared/api/proposals';
-import { topologyName } from '../../../../lib/topology-names';
+import { topologyName, topologyNameInText } from '../../../../lib/topology-names';
 import { histogramPlot, rejectionPlot } from '../../lib/plot-data';
 import type { ReportSubject } from '../../lib/report-subject';
 import { EngineMonteCarloSvg, RejectionPlotSvg, SpiceMonteCarloSvg } from './plots/report-plots';
@@ -29,7 +29,7 @@ export function RankingPlot({ proposal, subject }: { proposal: Proposal; subject
 export function DesignMonteCarlo({ subject, monteCarlo }: { subject: ReportSubject; monteCarlo: VerificationJobView[] | undefined }) {
   const option = subject.option;
   if (!option || !subject.topology) return null;
-  const name = topologyName(subject.topology).toLowerCase();
+  const name = topologyNameInText(subject.topology);
   const engine = histogramPlot(option);
   const spice = (monteCarlo ?? []).find((j) => j.state === 'finished' && j.topology === subject.topology && isMonteCarloResult(j.result));
   if (!engine && !spice) {

@@ -11,5 +11,5 @@ export const OUTPUT_X = TAIL_NODE.x;
 /** Column where a diode connection drops from a collector to its base line. */
 export const DIODE_TIE_X = 172;
 /** x of the drawing's left and right rails' ends. */
-export const RAIL_LEFT_X = 56;
+export const RAIL_LEFT_X = 40;
 export const RAIL_RIGHT_X = 500;

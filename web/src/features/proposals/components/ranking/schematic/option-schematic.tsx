@@ -8,6 +8,7 @@ import { DegeneratedMirrorTail } from './degenerated-mirror-tail';
 import { RAIL_BOTTOM_Y, RAIL_LEFT_X, RAIL_RIGHT_X, RAIL_TOP_Y, VIEW } from './layout';
 import { PairDrawing } from './pair-drawing';
 import { Rail } from './parts';
+import { PtatTail } from './ptat-tail';
 import { ResistorTail } from './resistor-tail';
 import { SimpleMirrorTail } from './simple-mirror-tail';
 import { WidlarTail } from './widlar-tail';
@@ -24,6 +25,7 @@ const TAIL_DRAWINGS: { [K in TopologyId]: ComponentType<TailOf<K>> } = {
   widlar: WidlarTail,
   wilson: WilsonTail,
   cascode: CascodeTail,
+  ptat: PtatTail,
 };
 
 function TailDrawing({ tail }: { tail: TailDesign }) {

@@ -1,7 +1,9 @@
 /**
  * Drawing parts for the app's own schematics: wires, junctions, rails, resistors (a plain box)
- * and NPN transistors (bar, collector, emitter with its arrow, a light envelope). Coordinates are
- * viewBox units; strokes follow currentColor so the theme colours them.
+ * and bipolar transistors (bar, collector, emitter with its arrow, a light envelope): the NPN with
+ * its emitter down and the arrow pointing out, the PNP with its emitter up (towards V+) and the
+ * arrow pointing in. Coordinates are viewBox units; strokes follow currentColor so the theme
+ * colours them.
  */
 import type { ReactNode } from 'react';
 
@@ -53,27 +55,83 @@ export function transistorPins(cx: number, cy: number, base: 'left' | 'right') {
   return { collector: [cx, cy - 30] as Point, emitter: [cx, cy + 30] as Point, base: [cx - 30 * dx, cy] as Point };
 }
 
-/** An NPN transistor: base lead on `base` side, collector up, emitter down with its arrow pointing out. */
-export function Npn({ cx, cy, base, name }: { cx: number; cy: number; base: 'left' | 'right'; name: string }) {
+/** An NPN transistor: base lead on `base` side, collector up, emitter down with its arrow pointing out; `detail` (an emitter-area ratio, say) under its name. */
+export function Npn({ cx, cy, base, name, detail }: { cx: number; cy: number; base: 'left' | 'right'; name: string; detail?: string }) {
   const dx = base === 'left' ? 1 : -1;
   const barX = cx - 14 * dx;
   const pins = transistorPins(cx, cy, base);
   // Arrow on the emitter leg, 80 % of the way from the bar, pointing away from the bar (NPN).
   const [ux, uy] = unit(cx - barX, 9);
   const tip: Point = [barX + 0.8 * (cx - barX), cy + 7 + 0.8 * 9];
-  const head = [tip, [tip[0] - 6 * ux - 3.2 * uy, tip[1] - 6 * uy + 3.2 * ux], [tip[0] - 6 * ux + 3.2 * uy, tip[1] - 6 * uy - 3.2 * ux]];
   return (
     <g data-device={name}>
-      <circle cx={cx - 6 * dx} cy={cy} r={20} fill="none" stroke="currentColor" strokeWidth={0.8} opacity={0.45} />
-      <line x1={barX} y1={cy - 11} x2={barX} y2={cy + 11} stroke="currentColor" strokeWidth={2.4} />
-      <Wire points={[pins.base, [barX, cy]]} />
+      <TransistorBody cx={cx} cy={cy} dx={dx} base={pins.base} />
       <Wire points={[[barX, cy - 6], [cx, cy - 15], pins.collector]} />
       <Wire points={[[barX, cy + 6], [cx, cy + 15], pins.emitter]} />
-      <polygon points={head.map(([x, y]) => `${x},${y}`).join(' ')} fill="currentColor" />
-      <Label at={[cx + 18 * dx, cy + 4]} anchor={dx > 0 ? 'start' : 'end'} strong>
+      <ArrowHead tip={tip} direction={[ux, uy]} />
+      <TransistorName cx={cx} cy={cy} dx={dx} name={name} detail={detail} />
+    </g>
+  );
+}
+
+/** Terminal points of a PNP drawn with its emitter/collector column at cx: emitter up, collector down. */
+export function pnpPins(cx: number, cy: number, base: 'left' | 'right') {
+  const { collector, emitter, base: basePin } = transistorPins(cx, cy, base);
+  return { emitter: collector, collector: emitter, base: basePin };
+}
+
+/** A PNP transistor: base lead on `base` side, emitter up with its arrow pointing in (towards the bar), collector down. */
+export function Pnp({ cx, cy, base, name, detail }: { cx: number; cy: number; base: 'left' | 'right'; name: string; detail?: string }) {
+  const dx = base === 'left' ? 1 : -1;
+  const barX = cx - 14 * dx;
+  const pins = pnpPins(cx, cy, base);
+  // Arrow on the emitter leg, 30 % of the way from the bar, pointing into the bar (PNP).
+  const [ux, uy] = unit(barX - cx, 9);
+  const tip: Point = [barX + 0.3 * (cx - barX), cy - 7 - 0.3 * 9];
+  return (
+    <g data-device={name} data-polarity="pnp">
+      <TransistorBody cx={cx} cy={cy} dx={dx} base={pins.base} />
+      <Wire points={[[barX, cy - 6], [cx, cy - 15], pins.emitter]} />
+      <Wire points={[[barX, cy + 6], [cx, cy + 15], pins.collector]} />
+      <ArrowHead tip={tip} direction={[ux, uy]} />
+      <TransistorName cx={cx} cy={cy} dx={dx} name={name} detail={detail} />
+    </g>
+  );
+}
+
+/** The envelope, the bar and the base lead every bipolar symbol shares. */
+function TransistorBody({ cx, cy, dx, base }: { cx: number; cy: number; dx: number; base: Point }) {
+  const barX = cx - 14 * dx;
+  return (
+    <>
+      <circle cx={cx - 6 * dx} cy={cy} r={20} fill="none" stroke="currentColor" strokeWidth={0.8} opacity={0.45} />
+      <line x1={barX} y1={cy - 11} x2={barX} y2={cy + 11} stroke="currentColor" strokeWidth={2.4} />
+      <Wire points={[base, [barX, cy]]} />
+    </>
+  );
+}
+
+/** An emitter arrow: a filled head whose point is `tip`, pointing along the unit vector `direction`. */
+function ArrowHead({ tip, direction: [ux, uy] }: { tip: Point; direction: [number, number] }) {
+  const head = [tip, [tip[0] - 6 * ux - 3.2 * uy, tip[1] - 6 * uy + 3.2 * ux], [tip[0] - 6 * ux + 3.2 * uy, tip[1] - 6 * uy - 3.2 * ux]];
+  return <polygon points={head.map(([x, y]) => `${x},${y}`).join(' ')} fill="currentColor" />;
+}
+
+/** The designator on the side away from the base, and the detail line under it. */
+function TransistorName({ cx, cy, dx, name, detail }: { cx: number; cy: number; dx: number; name: string; detail?: string }) {
+  const at: Point = [cx + 18 * dx, cy + 4];
+  const anchor = dx > 0 ? 'start' : 'end';
+  return (
+    <>
+      <Label at={at} anchor={anchor} strong>
         {name}
       </Label>
-    </g>
+      {detail !== undefined && (
+        <Label at={[at[0], at[1] + 14]} anchor={anchor}>
+          {detail}
+        </Label>
+      )}
+    </>
   );
 }
 
