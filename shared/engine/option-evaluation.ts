@@ -82,7 +82,7 @@ export interface OptionCurves {
 }
 
 /** What would hold the gain over the spec's range (worded at the edge, shared/text/engine-notes.ts). */
-export type GainRemedy = 'degeneration-or-rising-tail-current' | 'current-source-tail' | 'higher-resistance-tail';
+export type GainRemedy = 'degeneration-or-rising-tail-current' | 'ptat-or-more-degeneration' | 'beyond-ptat' | 'current-source-tail' | 'higher-resistance-tail';
 
 /** The trade-off figures searched over the sign-off corners: the figure, its target, whether higher is worse, and the value a null (no figure) counts as. */
 type SearchedTradeoff = 'inputBiasCurrentA' | 'noiseVPerRtHz' | 'bandwidthHz' | 'psrrPositiveDb' | 'psrrNegativeDb' | 'linearInputRangeV' | 'slewRateVPerS';
@@ -160,11 +160,16 @@ function gainSpreadCause(corners: readonly ConditionFigures[], worstLabel: strin
  * What would hold the gain over the spec's range. Temperature: |Ad| = IC·RC/VT falls as VT rises
  * unless IC rises with T (a PTAT tail, e.g. a ΔVBE cell [GM]), or pair emitter degeneration makes
  * the gain lean on RC/RE rather than on gm. Common mode: the tail current follows the input through
- * a resistor tail, and through a current source's finite output resistance.
+ * a resistor tail, and through a current source's finite output resistance. A pair already
+ * degenerated needs more of it (or the PTAT tail); with the PTAT tail what is left over
+ * temperature is what it does not cancel (the resistors' tempco, the current gain's drift).
  */
-function gainRemedy(cause: 'temperature' | 'input common mode', resistorTail: boolean): GainRemedy {
-  if (cause === 'temperature') return 'degeneration-or-rising-tail-current';
-  return resistorTail ? 'current-source-tail' : 'higher-resistance-tail';
+function gainRemedy(cause: 'temperature' | 'input common mode', design: Design): GainRemedy {
+  if (cause === 'temperature') {
+    if (TOPOLOGY_CATALOGUE[design.tail.topology].currentLaw === 'ptat') return 'beyond-ptat';
+    return (design.pairEmitterResistanceOhm ?? 0) > 0 ? 'ptat-or-more-degeneration' : 'degeneration-or-rising-tail-current';
+  }
+  return design.tail.topology === 'resistor' ? 'current-source-tail' : 'higher-resistance-tail';
 }
 
 /**
@@ -453,7 +458,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     gainWorstCorner: worstGain.label,
     gainOverConditionsMarginPercent: spec.gain.tolerancePercent - Math.abs(worstGain.errorPercent),
     gainOverConditionsCause: gainCause,
-    gainOverConditionsRemedyId: gainRemedy(gainCause, design.tail.topology === 'resistor'),
+    gainOverConditionsRemedyId: gainRemedy(gainCause, design),
     icmLowMarginV: Math.min(...lowCorners.map((c) => c.tailComplianceMarginV)),
     icmLowV: spec.inputCommonMode.minV,
     icmHighMarginV: Math.min(...highCorners.map((c) => c.pairSaturationMarginV)) - swingPeakV,

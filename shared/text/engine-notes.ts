@@ -179,7 +179,11 @@ export function cmrrDifferentialLimitNote(worstCaseDb: number | null, shares: Mi
 /** What would hold the gain over the spec's range, in plain words (why each: option-evaluation.ts). */
 export const GAIN_REMEDY_WORDS: Readonly<Record<GainRemedy, string>> = {
   'degeneration-or-rising-tail-current':
-    'pair emitter degeneration (the gain then rests on RC/RE more than on IC/VT) or a tail current that rises with temperature (proportional to absolute temperature, as from a ΔVBE cell)',
+    'pair emitter degeneration (the gain then rests on RC/RE more than on IC/VT) or a tail current that rises with temperature (the PTAT (constant-gm) source, a ΔVBE cell, listed with a PNP in the spec)',
+  'ptat-or-more-degeneration':
+    'more pair emitter degeneration than this pair has (the gain then rests on RC/RE still more than on IC/VT) or a tail current that rises with temperature (the PTAT (constant-gm) source, a ΔVBE cell, listed with a PNP in the spec)',
+  'beyond-ptat':
+    "what the PTAT source does not cancel: the resistors' temperature coefficient (tighter-tempco loads and RE4), the current gain's drift (a device with less XTB) and its PNP mirror's Early effect",
   'current-source-tail': 'a current-source tail instead of the resistor (the tail current then stops following the input common mode)',
   'higher-resistance-tail': 'a tail with a higher output resistance (its current then moves less with the input common mode)',
 };

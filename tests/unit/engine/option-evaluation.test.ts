@@ -7,6 +7,7 @@
  * impedance |Rout ∥ 1/(j2πf·Ct)| [DOMAIN]. Designs are written by hand on E-series values
  * [IEC60063]; each test evaluates its own.
  */
+import { GAIN_REMEDY_WORDS } from '#shared/text/engine-notes';
 import { describe, expect, test } from 'vitest';
 import { analyze } from '#shared/engine/index';
 import { evaluateOption } from '#shared/engine/option-evaluation';
@@ -262,6 +263,24 @@ describe('what moves the gain most, and the remedy', () => {
     const { facts } = evaluateOption(spec, designFor(spec, MIRROR));
     expect(facts.gainOverConditionsCause).toBe('temperature');
     expect(facts.gainOverConditionsRemedyId).toBe('degeneration-or-rising-tail-current');
+  });
+
+  test('the same mirror with its pair already degenerated: more degeneration, or the PTAT tail (not "degeneration" as if it had none)', () => {
+    const spec = specWith({ inputCommonMode: { minV: -0.1, maxV: 0.1 }, temperatureC: { min: -40, max: 85 } });
+    const { facts } = evaluateOption(spec, { ...designFor(spec, MIRROR), pairEmitterResistanceOhm: 20 });
+    expect(facts.gainOverConditionsCause).toBe('temperature');
+    expect(facts.gainOverConditionsRemedyId).toBe('ptat-or-more-degeneration');
+    expect(GAIN_REMEDY_WORDS[facts.gainOverConditionsRemedyId]).toMatch(/^more pair emitter degeneration than this pair has/);
+  });
+
+  test('a PTAT tail whose gain still moves most with temperature: what the PTAT law does not cancel', () => {
+    // a 5 % resistor tempco spread moves the cell's current, which the PTAT law does not cancel
+    const spec = specWith({ device: { ...specWith({}).device, pnp: { beta: 90, earlyVoltageV: 45, saturationCurrentA: 4e-15 } }, inputCommonMode: { minV: -0.1, maxV: 0.1 }, temperatureC: { min: -40, max: 85 }, resistors: { series: 'E96', tolerancePercent: 1, tempcoPpmPerC: 2000 } });
+    const ptat: TailDesign = { topology: 'ptat', emitterResistanceOhm: 220, startupResistanceOhm: 2.2e6, areaRatio: 8 };
+    const { facts } = evaluateOption(spec, designFor(spec, ptat));
+    expect(facts.gainOverConditionsCause).toBe('temperature');
+    expect(facts.gainOverConditionsRemedyId).toBe('beyond-ptat');
+    expect(GAIN_REMEDY_WORDS[facts.gainOverConditionsRemedyId]).toMatch(/what the PTAT source does not cancel/);
   });
 });
 
