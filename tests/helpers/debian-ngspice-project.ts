@@ -22,8 +22,9 @@ export const DEBIAN_NGSPICE_PROJECT = 'reference-debian-ngspice';
  * limits the rejection, each part removed or changed in the netlist; every topology's netlists
  * run against hand formulas; the input-referred noise against `.noise` (Debian's batch mode
  * writes the noise density plot first in its raw file, which the reader takes) and a handbook
- * formula; the slew rate against `.tran`. Every file of tests/reference is listed today
- * (tests/unit/helpers/debian-ngspice-files.test.ts holds it so).
+ * formula; the slew rate against `.tran`; the MOS level-1 device on single transistors. Every
+ * file of tests/reference is listed today (tests/unit/helpers/debian-ngspice-files.test.ts holds
+ * it so).
  */
 export const DEBIAN_NGSPICE_REFERENCE_FILES = [
   'tests/reference/spice-runner.test.ts',
@@ -38,6 +39,7 @@ export const DEBIAN_NGSPICE_REFERENCE_FILES = [
   'tests/reference/input-figures-agreement.test.ts',
   'tests/reference/noise-agreement.test.ts',
   'tests/reference/slew-agreement.test.ts',
+  'tests/reference/mos-device-agreement.test.ts',
 ] as const;
 
 /** Whether Debian's ngspice is installed (an executable at `path`). */
