@@ -18,7 +18,9 @@ import { SignInThrottle } from './auth/sign-in-throttle';
 import { SECURE_SESSION_COOKIE, SESSION_COOKIE } from './auth/session-cookie';
 import { TypeormSessionStore } from './auth/session-store';
 import { acquireEnginePool, type EnginePoolLease } from './engine/engine-pool';
+import { ENGINE_VERSION } from '#shared/engine/index';
 import { errorHandler } from './error-handler';
+import { openApiDocument } from './openapi';
 import { AppError } from './errors';
 import { activityRoutes } from './routes/activity.routes';
 import { adminRoutes } from './routes/admin.routes';
@@ -159,6 +161,12 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.use('/api/proposals', proposalsRoutes(deps.dataSource, deps.ruleSet, verification));
   app.use('/api/admin', adminRoutes(deps.dataSource));
   app.use('/api', engineRoutes(deps.ruleSet));
+  // The API's own description, built from the routes above on the first request (api/openapi.ts).
+  let description: object | undefined;
+  app.get('/api/openapi.json', (_req, res) => {
+    description ??= openApiDocument(app, ENGINE_VERSION);
+    res.json(description);
+  });
   app.use('/api', (_req, _res, next) => next(new AppError('route-not-found', 404, 'No such API route.')));
   if (deps.staticDir) {
     const indexHtml = join(deps.staticDir, 'index.html');

@@ -16,6 +16,7 @@
 import type { Request, RequestHandler } from 'express';
 import multer from 'multer';
 import { AppError, invalid } from './errors';
+import { describeCheck } from './validation/validate-request';
 
 /** Text fields sent beside the file: by name (each optional, at most `maxLength` characters), or only a number of them. */
 export type UploadTextFields = { names: readonly string[]; maxLength: number } | { count: number };
@@ -96,10 +97,23 @@ export function fileUpload(options: UploadOptions): FileUpload {
     return invalid([{ path: '', message: 'is not a readable multipart/form-data upload' }], 'The upload could not be read.');
   }
 
-  return {
-    receive: (req, res, next) => {
-      upload(req, res, (error?: unknown) => next(error ? refusal(error) : undefined));
+  const receive: RequestHandler = (req, res, next) => {
+    upload(req, res, (error?: unknown) => next(error ? refusal(error) : undefined));
+  };
+  const textNames = textFields && 'names' in textFields ? textFields.names : [];
+  describeCheck(receive, {
+    part: 'multipart',
+    schema: {
+      type: 'object',
+      required: [field],
+      properties: {
+        [field]: { type: 'string', contentMediaType: 'application/octet-stream', description: `${options.what}, at most ${size}` },
+        ...Object.fromEntries(textNames.map((name) => [name, { type: 'string', ...(textFields && 'maxLength' in textFields ? { maxLength: textFields.maxLength } : {}) }])),
+      },
     },
+  });
+  return {
+    receive,
     file(req) {
       if (!req.file) {
         throw invalid([{ path: `/${field}`, message: `attach ${options.what} in the form field "${field}" (multipart/form-data)` }], 'No file was uploaded.');

@@ -28,7 +28,7 @@ export function engineRoutes(ruleSet: RuleSet): Router {
   router.get('/topologies', (_req, res) => {
     res.json({ items: TOPOLOGIES.map((id, i) => ({ id, simplicityRank: i + 1 })) });
   });
-  router.post('/analyze', requireSignIn, validateBody(validateDesign), (req, res) => {
+  router.post('/analyze', requireSignIn, validateBody(validateDesign, DESIGN_SCHEMA), (req, res) => {
     try {
       res.json({ ...analyze(req.body as Design), notice: ESTIMATE_NOTICE });
     } catch (error) {

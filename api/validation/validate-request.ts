@@ -7,18 +7,40 @@ import { compileValidator, type ValidationResult } from '#shared/validate';
 import { invalid, notFound } from '../errors';
 
 /**
- * Validates `req.body` against a JSON Schema, or with a ready validator (validateDesign, which
- * adds the cross-field rules); non-JSON bodies (wrong content type, bare values) are refused too.
+ * What a validating middleware checks, kept for the API description (api/openapi.ts): the JSON
+ * body, the query, or a multipart upload (api/uploads.ts), and its JSON Schema.
  */
-export function validateBody(schema: object | ((input: unknown) => ValidationResult<unknown>)): RequestHandler {
+export interface CheckedPart {
+  part: 'body' | 'query' | 'multipart';
+  schema: object;
+}
+const CHECKED = new WeakMap<RequestHandler, CheckedPart>();
+
+/** Records what `handler` checks (the two validators below and the upload middleware call this). */
+export function describeCheck(handler: RequestHandler, checked: CheckedPart): RequestHandler {
+  CHECKED.set(handler, checked);
+  return handler;
+}
+
+/** The body or query schema a middleware of a route checks against, if it is one of the two below. */
+export const checkedPart = (handler: unknown): CheckedPart | undefined => CHECKED.get(handler as RequestHandler);
+
+/**
+ * Validates `req.body` against a JSON Schema, or with a ready validator (validateDesign, which
+ * adds the cross-field rules; `described` is then the JSON Schema it starts from, for the API
+ * description); non-JSON bodies (wrong content type, bare values) are refused too.
+ */
+export function validateBody(schema: object | ((input: unknown) => ValidationResult<unknown>), described?: object): RequestHandler {
   const check = typeof schema === 'function' ? schema : compileValidator<unknown>(schema);
-  return (req, _res, next) => {
+  const handler: RequestHandler = (req, _res, next) => {
     if (!req.is('application/json')) return next(invalid([{ path: '', message: 'must be JSON (Content-Type: application/json)' }]));
     const result = check(req.body);
     if (!result.ok) return next(invalid(result.errors));
     req.body = result.value;
     next();
   };
+  const documented = typeof schema === 'function' ? described : schema;
+  return documented ? describeCheck(handler, { part: 'body', schema: documented }) : handler;
 }
 
 /**
@@ -39,12 +61,13 @@ function numericFields(schema: object): Set<string> {
 export function validateQuery(schema: object): RequestHandler {
   const check = compileValidator<unknown>(schema);
   const numeric = numericFields(schema);
-  return (req, res, next) => {
+  const handler: RequestHandler = (req, res, next) => {
     const result = check(coerceQuery(req.query as Record<string, unknown>, numeric));
     if (!result.ok) return next(invalid(result.errors.map((e) => ({ ...e, path: `?${e.path.replace(/^\//, '')}` }))));
     res.locals.query = result.value;
     next();
   };
+  return describeCheck(handler, { part: 'query', schema });
 }
 
 /** A positive integer route parameter, else 404 (a malformed id names no record). */

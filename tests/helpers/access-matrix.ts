@@ -19,6 +19,7 @@ import { updateSpec } from '../../api/services/specs.service';
 import type { PublicUser } from '../../api/services/users.service';
 import type { Action } from '#shared/workflow/roles';
 import { In, IsNull, Not } from 'typeorm';
+import { registeredRoutes as listRoutes } from '../../api/openapi';
 import { emailOf, specPayload, TEST_PASSWORD, type TestApi } from './api-app';
 
 /** A designer's own values for the evaluation rows (invented; a simple mirror on ±9 V). */
@@ -147,6 +148,7 @@ export const MATRIX: Row[] = [
   { route: 'GET /api/schema/spec', url: '/api/schema/spec', rule: 'public', expected: [200, 200, 200, 200, 200] },
   { route: 'GET /api/schema/design', url: '/api/schema/design', rule: 'public', expected: [200, 200, 200, 200, 200] },
   { route: 'GET /api/schema/spec.csv', url: '/api/schema/spec.csv', rule: 'public', expected: [200, 200, 200, 200, 200] },
+  { route: 'GET /api/openapi.json', url: '/api/openapi.json', rule: 'public', expected: [200, 200, 200, 200, 200] },
   { route: 'GET /api/topologies', url: '/api/topologies', rule: 'public', expected: [200, 200, 200, 200, 200] },
   { route: 'GET /api/auth/csrf', url: '/api/auth/csrf', rule: 'public', expected: [200, 200, 200, 200, 200] },
   {
@@ -454,19 +456,7 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
 /** The row's URL with `{name}` filled from the ids. */
 export const fillUrl = (url: string, ids: Ids) => url.replace(/\{(\w+)\}/g, (_m, key: keyof Ids) => String(ids[key]));
 
-/** The (method, path) pairs the app registers, read from Express 5's router. */
+/** The (method, path) pairs the app registers, read from Express 5's router (api/openapi.ts). */
 export function registeredRoutes(app: TestApi['app']): string[] {
-  type Layer = { rawPath?: string; route?: { path: string; methods: Record<string, boolean> }; handle: { stack?: Layer[] } };
-  const routes: string[] = [];
-  const walk = (stack: Layer[], prefix: string) => {
-    for (const layer of stack) {
-      if (layer.route) {
-        for (const method of Object.keys(layer.route.methods)) routes.push(`${method.toUpperCase()} ${prefix}${layer.route.path === '/' ? '' : layer.route.path}`);
-      } else if (layer.handle.stack) {
-        walk(layer.handle.stack, `${prefix}${layer.rawPath === '/' ? '' : (layer.rawPath ?? '')}`);
-      }
-    }
-  };
-  walk((app as unknown as { router: { stack: Layer[] } }).router.stack, '');
-  return [...new Set(routes)].sort();
+  return [...new Set(listRoutes(app).map((route) => `${route.method.toUpperCase()} ${route.path}`))].sort();
 }
