@@ -5,11 +5,13 @@
  * to); every state-changing request must echo it in `X-CSRF-Token`. Sign-in gives a new session
  * id, so a new token (in the sign-in answer, and from `GET /api/auth/csrf`); sign-out ends it.
  * A page on another site can make the browser send the session cookie but cannot read the token,
- * and cannot compute one without the secret.
+ * and cannot compute one without the secret. A request authenticated by a personal API token
+ * (`Authorization: Bearer`, api/auth/bearer.ts) needs none.
  */
 import { createHmac, timingSafeEqual } from 'node:crypto';
 import type { Request, RequestHandler } from 'express';
 import { AppError } from '../errors';
+import { viaApiToken } from './bearer';
 
 export const CSRF_HEADER = 'x-csrf-token';
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
@@ -57,7 +59,8 @@ export function csrfProtection(secret: string): CsrfProtection {
       res.json({ token: tokenOf(req) });
     },
     require: (req, _res, next) => {
-      if (SAFE_METHODS.has(req.method)) return next();
+      // A personal API token carries its own proof (api/auth/bearer.ts): no cookie, so nothing to forge.
+      if (SAFE_METHODS.has(req.method) || viaApiToken(req)) return next();
       const header = req.get(CSRF_HEADER);
       if (typeof header !== 'string' || !req.sessionID || !sameToken(header, tokenOf(req))) {
         return next(new AppError('csrf-failed', 403, 'Missing or wrong X-CSRF-Token header: fetch one from GET /api/auth/csrf (it changes when you sign in).'));

@@ -1,4 +1,5 @@
 /** Every entity the data source knows. */
+import { ApiTokenEntity } from './api-token.entity';
 import { AuditEventEntity } from './audit-event.entity';
 import { DecisionEntity } from './decision.entity';
 import { DeviceModelEntity } from './device-model.entity';
@@ -35,4 +36,5 @@ export const ENTITIES = [
   MailMessageEntity,
   MeasurementEntity,
   PasswordResetEntity,
+  ApiTokenEntity,
 ];

@@ -25,7 +25,7 @@ import type { DiffQuery, SpecInput } from '#shared/api/specs';
 import type { ImportQuery } from '#shared/api/batch';
 import type { TradeoffInput } from '#shared/api/engine';
 import { TRADEOFF_SWEEP_MAX_POINTS } from '#shared/engine/tradeoff-sweep';
-import type { LoginInput, NewUser, PasswordChangeInput, PasswordResetInput, PreferencesInput, UserChanges } from '#shared/api/users';
+import type { ApiTokenInput, LoginInput, NewUser, PasswordChangeInput, PasswordResetInput, PreferencesInput, UserChanges } from '#shared/api/users';
 import type { MonteCarloInput } from '#shared/api/verification';
 import type { WaitingQuery } from '#shared/api/waiting';
 import type { ActivityFilter, ActivityQuery } from '#shared/api/activity';
@@ -57,6 +57,9 @@ export const PASSWORD_RESET_BODY = wire<PasswordResetInput>()({ token: { type: '
 
 /** PATCH /api/auth/me: the signed-in person's own preferences. */
 export const PREFERENCES_BODY = wire<PreferencesInput>()({ notify: { type: 'boolean' } }, ['notify']);
+
+/** POST /api/auth/tokens: a personal API token's name, one line. */
+export const API_TOKEN_BODY = wire<ApiTokenInput>()({ name: name(120) }, ['name']);
 
 export const NEW_PROJECT_BODY = wire<NewProject>()({ name: name(160), description: text(4000) }, ['name']);
 

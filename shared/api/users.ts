@@ -87,3 +87,24 @@ export interface PasswordChanged {
 export interface PasswordResetDone {
   email: string;
 }
+
+/** POST /api/auth/tokens: the name of a new personal API token (what it is for). */
+export interface ApiTokenInput {
+  name: string;
+}
+
+/** A personal API token as its owner's list shows it: never the token, only its first characters. */
+export interface ApiToken {
+  id: number;
+  name: string;
+  /** The token's first characters (`ltk_` and 6 more). */
+  start: string;
+  createdAt: string;
+  lastUsedAt: string | null;
+  revokedAt: string | null;
+}
+
+/** The answer to POST /api/auth/tokens: the token itself, shown this once (only its SHA-256 is kept). */
+export interface NewApiToken extends ApiToken {
+  token: string;
+}
