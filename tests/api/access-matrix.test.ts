@@ -6,6 +6,7 @@
  * Each proposal is put in the state where the allowed role succeeds, so a cell measures the
  * access decision; the two "state" rows show the role check still comes before the 409.
  */
+import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { may, PERMISSIONS, type Action, type Role } from '#shared/workflow/roles';
 import { buildApiApp, type AccountKey, type ApiClient, type TestApi } from '../helpers/api-app';
@@ -69,6 +70,27 @@ describe('when each caller calls each route, then the answer is the one the perm
     if (status === 403) expect(response.body.code).toBe('forbidden');
     if (status === 404) expect(response.body.code).toMatch(/-not-found$/);
     if (status === 409) expect(response.body.code).toBe('invalid-transition');
+  });
+});
+
+/** The reading rows for the signed-in callers, each called with a personal API token of the caller's instead of the session. */
+const TOKEN_CELLS: Cell[] = CELLS.filter((cell) => cell.caller !== 'anonymous' && cell.row.route.startsWith('GET ') && !cell.row.route.startsWith('GET /api/auth/csrf'));
+
+describe('when a signed-in caller reads each route with a personal API token instead of a session, then the answer is the session’s', () => {
+  const tokens = {} as Record<Caller, string>;
+  beforeAll(async () => {
+    for (const role of ['admin', 'requirements', 'designer', 'reviewer'] as const) {
+      const made = await clients[role].post('/api/auth/tokens').send({ name: `matrix reader ${role}` });
+      tokens[role] = made.body.token as string;
+    }
+  });
+
+  test.each(TOKEN_CELLS.map((cell) => [cell.title, cell] as const))('%s', async (_title, { caller, row, status }) => {
+    await row.arrange?.(api, ids);
+    const response = await request(api.app).get(fill(row.url)).set('Authorization', `Bearer ${tokens[caller]}`);
+    // Managing tokens needs the session itself (a token cannot list or make tokens).
+    const expected = row.route.startsWith('GET /api/auth/tokens') ? 403 : status;
+    expect(response.status, JSON.stringify(response.body)).toBe(expected);
   });
 });
 

@@ -8,6 +8,8 @@
  * role succeeds, so a cell measures the access decision; the two "state" rows show the role
  * check still comes before the 409.
  */
+import { ApiTokenEntity } from '../../api/entities/api-token.entity';
+import { createApiToken } from '../../api/services/api-tokens.service';
 import { DeviceModelEntity } from '../../api/entities/device-model.entity';
 import { uploadDeviceModels } from '../../api/services/devices.service';
 import { ProposalEntity } from '../../api/entities/proposal.entity';
@@ -64,6 +66,8 @@ export interface Ids {
   otherDevice: number;
   /** the sha256 of the file both cards came from (a spec's record of them) */
   deviceChecksum: string;
+  /** a personal API token of the designer (put back unrevoked before each cell) */
+  designerToken: number;
   /** a Monte Carlo job asked for by the second designer on {ranked}, and one on {otherProposal}: each withdraw cell finds it waiting or simulating */
   withdrawableJob: number;
   otherWithdrawableJob: number;
@@ -138,6 +142,9 @@ const rearmJob = (key: 'withdrawableJob' | 'otherWithdrawableJob') => async (api
     .getRepository(VerificationJobEntity)
     .update({ id: ids[key], state: In(['withdrawn', 'finished', 'stopped', 'failed']) }, { state: 'waiting', message: null, finishedAt: null, claimToken: null, step: null });
 };
+const unrevokeToken = async (api: TestApi, ids: Ids) => {
+  await api.dataSource.getRepository(ApiTokenEntity).update({ id: ids.designerToken }, { revokedAt: null });
+};
 const ensureReviewer2Member = (key: 'project' | 'otherProject') => async (api: TestApi, ids: Ids) => {
   await addMember(api.dataSource, api.users.admin, ids[key], ids.reviewer2, 'reviewer');
 };
@@ -177,6 +184,23 @@ export const MATRIX: Row[] = [
     body: () => ({ token: 'no-such-reset-link-token-0000', newPassword: 'moss-granary-5521-tide' }),
     expected: [400, 400, 400, 400, 400],
     note: 'anyone holding a link; an unknown token answers 400 reset-link-invalid',
+  },
+  { route: 'GET /api/auth/tokens', url: '/api/auth/tokens', rule: 'signed-in', expected: [401, 200, 200, 200, 200], note: 'own personal API tokens' },
+  {
+    route: 'POST /api/auth/tokens',
+    url: '/api/auth/tokens',
+    rule: 'signed-in',
+    body: (_ids, caller) => ({ name: `matrix ${caller}` }),
+    expected: [401, 201, 201, 201, 201],
+    note: 'a token of your own (a session is needed: tests/api/api-tokens.test.ts)',
+  },
+  {
+    route: 'DELETE /api/auth/tokens/:id',
+    url: '/api/auth/tokens/{designerToken}',
+    rule: 'per-record',
+    arrange: unrevokeToken,
+    expected: [401, 404, 404, 200, 404],
+    note: 'only its owner (the designer) revokes a token; anyone else’s is not found',
   },
 
   // Accounts: the admin only.
@@ -428,6 +452,7 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
   const otherDevice = await card(otherProject.id, users.designer2);
   const job = await withdrawableJob(api, ranked.id);
   const otherJob = await withdrawableJob(api, otherProposal.id);
+  const designerToken = await createApiToken(dataSource, users.designer.id, { name: 'matrix designer script' });
 
   return {
     project: project.id,
@@ -450,6 +475,7 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
     deviceChecksum: device.checksum,
     withdrawableJob: job.id,
     otherWithdrawableJob: otherJob.id,
+    designerToken: designerToken.id,
   };
 }
 
