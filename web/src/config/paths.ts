@@ -34,6 +34,10 @@ export const api = {
   ownPassword: '/api/auth/password',
   /** POST { token, newPassword }: a new password through a one-time reset link. */
   passwordReset: '/api/auth/password-reset',
+  /** GET: your personal API tokens; POST { name }: a new one (its token answered once). */
+  apiTokens: '/api/auth/tokens',
+  /** DELETE: revoke one of your personal API tokens. */
+  apiToken: (id: number) => `/api/auth/tokens/${id}`,
   /** Messages the built-in local mail server received, newest first (admins). */
   adminMail: '/api/admin/mail',
   users: '/api/users',

@@ -5,6 +5,7 @@ import { RouteError } from '../components/layout/route-error';
 import { PageHeader } from '../components/ui/page-header';
 import { Sheet } from '../components/ui/sheet';
 import { meQuery } from '../lib/auth-queries';
+import { ApiTokensSection } from '../features/profile/components/api-tokens-section';
 import { NotificationSwitch } from '../features/profile/components/notification-switch';
 import { PasswordChangeForm } from '../features/profile/components/password-change-form';
 
@@ -13,7 +14,7 @@ export const loader = (queryClient: QueryClient) => async () => {
   return null;
 };
 
-/** Your own account: who you are here, your password, and whether Longtail e-mails you. */
+/** Your own account: who you are here, your password, whether Longtail e-mails you, and your API tokens. */
 export function Component() {
   const { data: user } = useSuspenseQuery(meQuery());
   if (!user) return null;
@@ -39,6 +40,9 @@ export function Component() {
         </Sheet>
         <Sheet title="E-mail notifications" aria-label="E-mail notifications">
           <NotificationSwitch user={user} />
+        </Sheet>
+        <Sheet title="API tokens" aria-label="API tokens">
+          <ApiTokensSection />
         </Sheet>
       </div>
     </>
