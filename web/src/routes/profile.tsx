@@ -21,7 +21,7 @@ export function Component() {
   return (
     <>
       <PageHeader title="Your profile" eyebrow="Account">
-        Your name and your role in each project are set by an administrator; your password and the e-mail switch are yours.
+        Your name and your role in each project are set by an administrator; your password, the e-mail switch and your API tokens are yours.
       </PageHeader>
       <div className="grid max-w-3xl gap-6">
         <Sheet title="Account" aria-label="Account">
