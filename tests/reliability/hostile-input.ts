@@ -17,6 +17,7 @@ import { DESIGN_SCHEMA, SPEC_SCHEMA } from '#shared/validate';
 import {
   ACTIVITY_CSV_QUERY,
   ACTIVITY_QUERY,
+  API_TOKEN_BODY,
   DECISION_BODY,
   DIFF_QUERY,
   EVALUATION_BODY,
@@ -58,6 +59,7 @@ const BODIES: Record<string, fc.Arbitrary<unknown>> = {
   'PATCH /api/auth/me': arbitraryFromSchema(PREFERENCES_BODY),
   'POST /api/auth/password': arbitraryFromSchema(PASSWORD_CHANGE_BODY),
   'POST /api/auth/password-reset': arbitraryFromSchema(PASSWORD_RESET_BODY),
+  'POST /api/auth/tokens': arbitraryFromSchema(API_TOKEN_BODY),
   'POST /api/users': arbitraryFromSchema(NEW_USER_BODY),
   'PATCH /api/users/:id': arbitraryFromSchema(USER_CHANGES_BODY),
   'POST /api/projects': arbitraryFromSchema(NEW_PROJECT_BODY),
