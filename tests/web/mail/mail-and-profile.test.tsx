@@ -9,7 +9,7 @@ import { configure, render, screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import type { ReactNode } from 'react';
 import { createRoutesStub } from 'react-router-dom';
-import { describe, expect, test } from 'vitest';
+import { beforeEach, describe, expect, test } from 'vitest';
 import { authKeys } from '../../../web/src/lib/auth-queries';
 import type { Mailbox } from '#shared/api/admin';
 import type { SessionUser, User } from '#shared/api/users';
@@ -88,6 +88,11 @@ describe('mail page', () => {
 });
 
 describe('profile page', () => {
+  // the page's API-token section reads the person's tokens (none here)
+  beforeEach(() => {
+    api.routes['GET /api/auth/tokens'] = { status: 200, body: { items: [] } };
+  });
+
   test('when the designer unticks the e-mail box, then PATCH /api/auth/me carries notify false with the CSRF token and the box stays off', async () => {
     api.routes['PATCH /api/auth/me'] = { status: 200, body: { user: { ...DESIGNER, notify: false } } };
     api.routes['GET /api/auth/me'] = { status: 200, body: { user: { ...DESIGNER, notify: false } } };
