@@ -1,0 +1,116 @@
+/**
+ * The search's words: how indexed text and a query are cut into words (the one rule for both, so
+ * SQLite's FTS5 and PostgreSQL's text search see the same words), how a query becomes a match
+ * expression for each, and which words of a text a query matched. Pure.
+ *
+ * A word is a run of letters and digits, or a decimal number ("4.7", kept whole so "4.7 kΩ" is
+ * not any 4 and any 7); everything else (punctuation, quotes, operators, symbols) only separates
+ * words. Words are compared in lower case with accents dropped and compatibility forms folded
+ * (NFKD: "µ" is "μ", "Ω" the ohm sign is "Ω", "²" is "2"). So no character a person types ever
+ * reaches a match expression except letters, digits and the point inside a number: user text is
+ * data, and the expressions are passed as parameters.
+ */
+import type { MarkedText } from '#shared/api/search';
+
+/** A word as the index and the query keep it: a decimal number, or letters and digits. */
+const WORD = /\p{N}+(?:\.\p{N}+)+|[\p{L}\p{N}]+/gu;
+/** What the expressions below may contain of a word (a check on WORD's output, never relied on alone). */
+const SAFE_WORD = /^[\p{L}\p{N}.]+$/u;
+/** A number, possibly decimal: with the word after it ("80 dB"), a phrase. */
+const NUMBER = /^\p{N}+(?:\.\p{N}+)*$/u;
+/** A run of text the marking reads as one piece (a word with its accents as typed). */
+const PIECE = /\p{N}+(?:\.\p{N}+)+|[\p{L}\p{N}\p{M}]+/gu;
+
+/** Longer runs are not words anyone types (checksums, pasted data): left out of the index and the query. */
+export const MAX_WORD_LENGTH = 48;
+/** Words of a query past this many are ignored (each costs a look-up). */
+export const MAX_QUERY_WORDS = 12;
+
+/** Lower case, accents dropped, compatibility forms folded. */
+function folded(text: string): string {
+  return text.normalize('NFKD').toLowerCase().replace(/\p{M}+/gu, '').normalize('NFC');
+}
+
+/** The words of a text, in order, as the index stores them. */
+export function searchWords(text: string): string[] {
+  return [...folded(text).matchAll(WORD)].map((m) => m[0]).filter((word) => word.length <= MAX_WORD_LENGTH);
+}
+
+/** The words of a text joined by single spaces: what the index's word columns hold. */
+export function indexedWords(text: string): string {
+  return searchWords(text).join(' ');
+}
+
+/**
+ * One part of a query: a word, or a number and the word after it as a phrase ("80 dB": 80
+ * followed by dB, not any 80 and any dB); `prefix` when its last word may be the start of a
+ * longer one (the query's last part while it is being typed).
+ */
+export interface QueryPart {
+  words: string[];
+  prefix: boolean;
+}
+
+/** The parts of a query; none when it holds no word. Every part must match (AND). */
+export function queryParts(query: string): QueryPart[] {
+  const words = searchWords(query).slice(0, MAX_QUERY_WORDS);
+  const parts: QueryPart[] = [];
+  for (let i = 0; i < words.length; i += 1) {
+    const unit = NUMBER.test(words[i]) && i + 1 < words.length && !NUMBER.test(words[i + 1]) ? words[i + 1] : null;
+    parts.push({ words: unit ? [words[i], unit] : [words[i]], prefix: false });
+    if (unit) i += 1;
+  }
+  // A query that ends in a blank or a punctuation mark has its last word typed out.
+  const last = parts.at(-1);
+  if (last && /[\p{L}\p{N}]$/u.test(query)) last.prefix = true;
+  return parts;
+}
+
+function checkedWord(word: string): string {
+  if (!SAFE_WORD.test(word)) throw new Error(`Not a search word: ${JSON.stringify(word)}`);
+  return word;
+}
+
+/** The FTS5 MATCH expression: each part a quoted string (a phrase when it holds two words), `*` after a prefix; parts side by side (AND). */
+export function fts5Expression(parts: readonly QueryPart[]): string {
+  return parts.map((part) => `"${part.words.map(checkedWord).join(' ')}"${part.prefix ? '*' : ''}`).join(' ');
+}
+
+/** The PostgreSQL tsquery text: each word a quoted lexeme, `<->` inside a phrase, `:*` after a prefix, parts joined by `&`. */
+export function tsqueryText(parts: readonly QueryPart[]): string {
+  return parts
+    .map((part) => part.words.map((word, i) => `'${checkedWord(word)}'${part.prefix && i === part.words.length - 1 ? ':*' : ''}`).join(' <-> '))
+    .join(' & ');
+}
+
+/** Whether a word of a text is one the query asked for (the whole word, or its start for a prefix). */
+function matches(word: string, parts: readonly QueryPart[]): boolean {
+  return parts.some((part) => part.words.some((asked, i) => word === asked || (part.prefix && i === part.words.length - 1 && word.startsWith(asked))));
+}
+
+/** The text cut into plain and marked pieces: each run of letters and digits whose words the query asked for is marked. */
+export function markWords(text: string, parts: readonly QueryPart[]): MarkedText {
+  const pieces: MarkedText = [];
+  const push = (piece: string, marked: boolean) => {
+    if (piece === '') return;
+    const last = pieces.at(-1);
+    if (last && last.marked === marked) last.text += piece;
+    else pieces.push({ text: piece, marked });
+  };
+  let at = 0;
+  for (const match of text.matchAll(PIECE)) {
+    const words = searchWords(match[0]);
+    if (words.length === 0 || !words.some((word) => matches(word, parts))) continue;
+    push(text.slice(at, match.index), false);
+    push(match[0], true);
+    at = match.index + match[0].length;
+  }
+  push(text.slice(at), false);
+  return pieces;
+}
+
+/** The parts of the query (by index) that some word of the text answers. */
+export function partsMatched(text: string, parts: readonly QueryPart[]): Set<number> {
+  const words = searchWords(text);
+  return new Set(parts.flatMap((_part, i) => (words.some((word) => matches(word, [parts[i]])) ? [i] : [])));
+}
