@@ -1,9 +1,10 @@
 /**
  * Parameters of a hand-written statement, numbered for the back end (`?` on SQLite, `$n` on
- * PostgreSQL): every value a statement uses goes through `add`, never into its text.
+ * PostgreSQL): every value a statement uses goes through `add`, never into its text. (The same
+ * rule as data-source.ts's sqlParameter, without importing it: the search-index migration uses
+ * this, and data-source.ts imports every migration.)
  */
 import type { DataSource } from 'typeorm';
-import { sqlParameter } from '../data-source';
 
 export class SqlParameters {
   readonly values: unknown[] = [];
@@ -13,7 +14,7 @@ export class SqlParameters {
   /** The placeholder of one more value. */
   add(value: unknown): string {
     this.values.push(value);
-    return sqlParameter(this.dataSource, this.values.length);
+    return this.dataSource.options.type === 'postgres' ? `$${this.values.length}` : '?';
   }
 
   /** Placeholders of a list of values, comma-separated (for `IN (...)`; the list must not be empty). */

@@ -7,7 +7,7 @@
  * The query is cut into words (api/search/search-words.ts) and handed to the back end's full-text
  * index as a parameter: FTS5 `MATCH` ranked by bm25 with the title ten times the rest (SQLite), or
  * `@@` a tsquery ranked by ts_rank with the title weighted A (PostgreSQL). Best match first, then
- * the most recently indexed. Without a kind, one statement gives every kind's first page and count
+ * the newest record. Without a kind, one statement gives every kind's first page and count
  * (window functions over the matches); with a kind, its page and every kind's count.
  */
 import { In, type DataSource } from 'typeorm';
@@ -69,8 +69,8 @@ async function firstPages(dataSource: DataSource, viewer: Viewer, projects: numb
   const p = new SqlParameters(dataSource);
   const { from, score } = matching(dataSource, p, parts);
   const sql = `SELECT e.id, e.kind, e.ref_id, e.project_id, e.title, e.body, ranked.total FROM (
-      SELECT m.id, row_number() OVER (PARTITION BY m.kind ORDER BY m.score, m.id DESC) AS place, count(*) OVER (PARTITION BY m.kind) AS total
-      FROM (SELECT e.id, e.kind, ${score} AS score ${from} AND ${visibility(p, viewer, projects)}) m
+      SELECT m.id, row_number() OVER (PARTITION BY m.kind ORDER BY m.score, m.ref_id DESC) AS place, count(*) OVER (PARTITION BY m.kind) AS total
+      FROM (SELECT e.id, e.kind, e.ref_id, ${score} AS score ${from} AND ${visibility(p, viewer, projects)}) m
     ) ranked JOIN search_entry e ON e.id = ranked.id WHERE ranked.place <= ${p.add(pageSize)} ORDER BY ranked.place`;
   return dataSource.query(sql, p.values);
 }
@@ -87,7 +87,7 @@ async function kindPage(dataSource: DataSource, viewer: Viewer, projects: number
   const p = new SqlParameters(dataSource);
   const { from, score } = matching(dataSource, p, parts);
   const sql = `SELECT e.id, e.kind, e.ref_id, e.project_id, e.title, e.body, ${score} AS score ${from} AND e.kind = ${p.add(query.kind)} AND ${visibility(p, viewer, projects)}
-    ORDER BY score, e.id DESC LIMIT ${p.add(query.pageSize)} OFFSET ${p.add((query.page - 1) * query.pageSize)}`;
+    ORDER BY score, e.ref_id DESC LIMIT ${p.add(query.pageSize)} OFFSET ${p.add((query.page - 1) * query.pageSize)}`;
   return dataSource.query(sql, p.values);
 }
 
