@@ -9,22 +9,31 @@ import { markWords, partsMatched, type QueryPart } from './search-words';
 /** Lines an excerpt quotes at most. */
 const EXCERPT_LINES = 2;
 /** A quoted line is clipped to about this many characters, around its first matched word. */
-const LINE_CHARACTERS = 160;
-/** Characters kept before the first matched word of a clipped line. */
-const LEAD_CHARACTERS = 40;
+const LINE_CHARACTERS = 90;
+/** Characters of a clipped value kept before its first matched word. */
+const LEAD_CHARACTERS = 20;
+/** A line's label ("Tail options: ") is kept whole when it is no longer than this. */
+const LABEL_CHARACTERS = 60;
 const SEPARATOR = ' · ';
 
-/** The line clipped to LINE_CHARACTERS around its first matched word, with "…" where it was cut. */
+/**
+ * The line clipped to about LINE_CHARACTERS around its first matched word, its label kept ("Tail
+ * options: …Wilson mirror, Cascode…"), with "…" where it was cut.
+ */
 function clipped(line: string, parts: readonly QueryPart[]): string {
   if (line.length <= LINE_CHARACTERS) return line;
-  const pieces = markWords(line, parts);
+  const colon = line.indexOf(': ');
+  const label = colon > 0 && colon < LABEL_CHARACTERS ? line.slice(0, colon + 2) : '';
+  const value = line.slice(label.length);
+  const pieces = markWords(value, parts);
   const firstMarked = pieces.findIndex((piece) => piece.marked);
-  const at = pieces.slice(0, Math.max(0, firstMarked)).reduce((sum, piece) => sum + piece.text.length, 0);
-  let start = Math.max(0, at - LEAD_CHARACTERS);
+  const matchAt = pieces.slice(0, Math.max(0, firstMarked)).reduce((sum, piece) => sum + piece.text.length, 0);
+  let start = Math.max(0, matchAt - LEAD_CHARACTERS);
   // Start at a word's beginning.
-  if (start > 0) start = line.indexOf(' ', start) + 1 || start;
-  const end = Math.min(line.length, start + LINE_CHARACTERS);
-  return `${start > 0 ? '…' : ''}${line.slice(start, end)}${end < line.length ? '…' : ''}`;
+  if (start > 0) start = value.indexOf(' ', start) + 1 || start;
+  if (start > matchAt) start = matchAt;
+  const end = Math.min(value.length, start + Math.max(LINE_CHARACTERS - label.length, LEAD_CHARACTERS * 2));
+  return `${label}${start > 0 ? '…' : ''}${value.slice(start, end)}${end < value.length ? '…' : ''}`;
 }
 
 /** The title with the query's words marked. */

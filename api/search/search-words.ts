@@ -83,13 +83,37 @@ export function tsqueryText(parts: readonly QueryPart[]): string {
     .join(' & ');
 }
 
-/** Whether a word of a text is one the query asked for (the whole word, or its start for a prefix). */
-function matches(word: string, parts: readonly QueryPart[]): boolean {
-  return parts.some((part) => part.words.some((asked, i) => word === asked || (part.prefix && i === part.words.length - 1 && word.startsWith(asked))));
+/** Whether a word of a text answers a word asked for (the whole word, or its start for a prefix). */
+function answers(word: string, asked: string, prefix: boolean): boolean {
+  return word === asked || (prefix && word.startsWith(asked));
 }
 
-/** The text cut into plain and marked pieces: each run of letters and digits whose words the query asked for is marked. */
+/**
+ * Where the query's parts match a text's words: each part's words in a row (a phrase's number and
+ * unit side by side), its last one as a prefix while being typed. Which words matched, and which
+ * parts (by index) did.
+ */
+function matchesIn(words: readonly string[], parts: readonly QueryPart[]): { matched: boolean[]; parts: Set<number> } {
+  const matched = words.map(() => false);
+  const found = new Set<number>();
+  parts.forEach((part, p) => {
+    const last = part.words.length - 1;
+    for (let at = 0; at + last < words.length; at += 1) {
+      if (!part.words.every((asked, k) => answers(words[at + k], asked, part.prefix && k === last))) continue;
+      found.add(p);
+      for (let k = 0; k <= last; k += 1) matched[at + k] = true;
+    }
+  });
+  return { matched, parts: found };
+}
+
+/** The text cut into plain and marked pieces: each run of letters and digits holding a word the query matched is marked. */
 export function markWords(text: string, parts: readonly QueryPart[]): MarkedText {
+  const runs = [...text.matchAll(PIECE)].map((match) => ({ at: match.index, text: match[0], words: searchWords(match[0]) }));
+  const { matched } = matchesIn(
+    runs.flatMap((run) => run.words),
+    parts,
+  );
   const pieces: MarkedText = [];
   const push = (piece: string, marked: boolean) => {
     if (piece === '') return;
@@ -98,19 +122,20 @@ export function markWords(text: string, parts: readonly QueryPart[]): MarkedText
     else pieces.push({ text: piece, marked });
   };
   let at = 0;
-  for (const match of text.matchAll(PIECE)) {
-    const words = searchWords(match[0]);
-    if (words.length === 0 || !words.some((word) => matches(word, parts))) continue;
-    push(text.slice(at, match.index), false);
-    push(match[0], true);
-    at = match.index + match[0].length;
+  let word = 0;
+  for (const run of runs) {
+    const hit = run.words.some((_w, k) => matched[word + k]);
+    word += run.words.length;
+    if (!hit) continue;
+    push(text.slice(at, run.at), false);
+    push(run.text, true);
+    at = run.at + run.text.length;
   }
   push(text.slice(at), false);
   return pieces;
 }
 
-/** The parts of the query (by index) that some word of the text answers. */
+/** The parts of the query (by index) that the text's words match. */
 export function partsMatched(text: string, parts: readonly QueryPart[]): Set<number> {
-  const words = searchWords(text);
-  return new Set(parts.flatMap((_part, i) => (words.some((word) => matches(word, [parts[i]])) ? [i] : [])));
+  return matchesIn(searchWords(text), parts).parts;
 }
