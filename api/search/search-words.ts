@@ -132,6 +132,13 @@ export function markWords(text: string, parts: readonly QueryPart[]): MarkedText
     at = run.at + run.text.length;
   }
   push(text.slice(at), false);
+  // Marked words with only blanks between them read as one mark ("80 dB").
+  for (let i = pieces.length - 2; i > 0; i -= 1) {
+    if (!pieces[i].marked && /^\s+$/u.test(pieces[i].text) && pieces[i - 1].marked && pieces[i + 1].marked) {
+      pieces.splice(i - 1, 3, { text: pieces[i - 1].text + pieces[i].text + pieces[i + 1].text, marked: true });
+      i -= 1;
+    }
+  }
   return pieces;
 }
 

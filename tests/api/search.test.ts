@@ -125,7 +125,7 @@ describe('GET /api/search: what it finds', () => {
     const [hit] = hits(answer, 'spec');
     expect(hit.id).toBe(specs.a);
     expect(plain(hit.excerpt)).toBe('Minimum CMRR: 71 dB');
-    expect(marked(hit.excerpt)).toEqual(['71', 'dB']);
+    expect(marked(hit.excerpt)).toEqual(['71 dB']);
   });
 
   test('when a quantity is written with its prefix and unit symbol ("4.7 kΩ", "4.7 kΩ" with the ohm sign), then the spec with a 4,700 Ω source resistance is found', async () => {

@@ -91,19 +91,16 @@ describe('queryParts and the expressions', () => {
 });
 
 describe('markWords', () => {
-  test('when words of the text were asked for, then they are marked as typed, accents and case kept; a number and its unit only side by side', () => {
+  test('when words of the text were asked for, then they are marked as typed, accents and case kept; a number and its unit only side by side, as one mark', () => {
     const parts = queryParts('bruck 80 dB');
     expect(markWords('Brück: 80 dB, 800 dBm, 80 dBm; 3 dB', parts)).toEqual([
       { text: 'Brück', marked: true },
       { text: ': ', marked: false },
-      { text: '80', marked: true },
-      { text: ' ', marked: false },
-      { text: 'dB', marked: true },
+      // Marked words with only a blank between them are one mark.
+      { text: '80 dB', marked: true },
       { text: ', 800 dBm, ', marked: false },
       // The last word is a prefix while being typed: dBm starts with it.
-      { text: '80', marked: true },
-      { text: ' ', marked: false },
-      { text: 'dBm', marked: true },
+      { text: '80 dBm', marked: true },
       { text: '; 3 dB', marked: false },
     ]);
   });

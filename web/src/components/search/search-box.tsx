@@ -188,7 +188,7 @@ export function SearchBox() {
                 onMouseDown={(event) => event.preventDefault()}
                 onClick={() => go(searchHref(asked))}
               >
-                {total === 1 ? 'The result' : `All ${total} results`} for “{asked}” on a page of their own <span aria-hidden="true">→</span>
+                {total === 1 ? 'Open the results page' : `All ${total} results`} for “{asked}” <span aria-hidden="true">→</span>
               </div>
             </div>
           ) : (
