@@ -38,8 +38,8 @@ const ANSWER: SearchAnswer = {
   words: ['80', 'db'],
   counts: { project: 0, spec: 1, proposal: 3, person: 0 },
   groups: [
-    { kind: 'spec', items: [SPEC], total: 1, page: 1, pageSize: 4 },
-    { kind: 'proposal', items: [PROPOSAL], total: 3, page: 1, pageSize: 4 },
+    { kind: 'spec', items: [SPEC], total: 1, page: 1, pageSize: 3 },
+    { kind: 'proposal', items: [PROPOSAL], total: 3, page: 1, pageSize: 3 },
   ],
 };
 
@@ -97,7 +97,7 @@ describe('the navigation’s search box', () => {
     await userEvent.keyboard('80 dB');
 
     const list = await screen.findByRole('listbox', { name: 'Search results' });
-    expect(searches().map((u) => u.search)).toEqual(['?q=80+dB&page=1&pageSize=4']);
+    expect(searches().map((u) => u.search)).toEqual(['?q=80+dB&page=1&pageSize=3']);
     expect(within(list).getByRole('group', { name: 'Specs: 1' })).toBeTruthy();
     expect(within(list).getByRole('group', { name: 'Proposals: 3' })).toBeTruthy();
     const spec = within(list).getAllByRole('option')[0];

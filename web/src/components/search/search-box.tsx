@@ -15,8 +15,8 @@ import { cn } from '../../lib/cn';
 import { hitHref, SEARCH_KIND_WORDS, SEARCH_PAUSE_MS, searchHref, searchQuery } from '../../lib/search-queries';
 import { HitSummary } from './hit-summary';
 
-/** Hits of each kind the box lists. */
-const BOX_PAGE = 4;
+/** Hits of each kind the box lists (four kinds of three fit under the box on a phone without a scrolling list). */
+const BOX_PAGE = 3;
 
 /** Whether a key press lands in something that takes typing (where `/` is a character, not a shortcut). */
 function typingInto(target: EventTarget | null): boolean {
@@ -70,15 +70,19 @@ export function SearchBox() {
   }, [location.pathname, location.search]);
 
   const answer = useQuery({ ...searchQuery({ q: asked, pageSize: BOX_PAGE }), enabled: open && asked !== '' });
-  if (!user) return null;
   const current = answer.data && !answer.isPlaceholderData ? answer.data : undefined;
   const groups = current?.groups ?? [];
   const total = current ? SEARCH_KINDS.reduce((sum, kind) => sum + current.counts[kind], 0) : 0;
-  const options = [
-    ...groups.flatMap((group) => group.items.map((hit) => ({ id: `${id}-${hit.kind}-${hit.id}`, href: hitHref(hit, user) }))),
-    { id: `${id}-all`, href: searchHref(asked) },
-  ];
+  /** The options in order: every hit listed, then the results page (null). */
+  const options = [...groups.flatMap((group) => group.items.map((hit) => ({ id: `${id}-${hit.kind}-${hit.id}`, hit }))), { id: `${id}-all`, hit: null }];
   const listed = open && current !== undefined && total > 0;
+  const activeId = listed && active >= 0 ? (options[active]?.id ?? null) : null;
+  // The chosen option in view (the list is long on a small screen).
+  useEffect(() => {
+    if (activeId) document.getElementById(activeId)?.scrollIntoView?.({ block: 'nearest' });
+  }, [activeId]);
+  if (!user) return null;
+  const hrefOf = (option: (typeof options)[number]) => (option.hit ? hitHref(option.hit, user) : searchHref(asked));
 
   /** Opens a page; the box keeps its text only for the results page, which shows that query. */
   const go = (href: string) => {
@@ -100,7 +104,7 @@ export function SearchBox() {
       setActive((at) => (at === -1 && step < 0 ? options.length - 1 : (at + step + options.length) % options.length));
     } else if (event.key === 'Enter') {
       event.preventDefault();
-      if (listed && active >= 0 && active < options.length) go(options[active].href);
+      if (activeId) go(hrefOf(options[active]));
       else if (text.trim() !== '') go(searchHref(text.trim()));
     } else if (event.key === 'Escape') {
       event.preventDefault();
@@ -114,7 +118,7 @@ export function SearchBox() {
   };
 
   const optionClass = (optionId: string) =>
-    cn('cursor-pointer px-3 py-1.5', options[active]?.id === optionId ? 'bg-fern-soft dark:bg-night' : 'hover:bg-paper dark:hover:bg-night/60');
+    cn('cursor-pointer px-3 py-1.5', activeId === optionId ? 'bg-fern-soft dark:bg-night' : 'hover:bg-paper dark:hover:bg-night/60');
   return (
     <form role="search" aria-label="Projects, specs, proposals and people" className="relative order-last w-full sm:order-none sm:w-60 lg:w-72" onSubmit={(event) => event.preventDefault()}>
       <label htmlFor={`${id}-input`} className="sr-only">
@@ -128,7 +132,7 @@ export function SearchBox() {
         aria-expanded={listed}
         aria-controls={listed ? listId : undefined}
         aria-autocomplete="list"
-        aria-activedescendant={listed && active >= 0 ? options[active]?.id : undefined}
+        aria-activedescendant={activeId ?? undefined}
         autoComplete="off"
         spellCheck={false}
         maxLength={SEARCH_QUERY_MAX_LENGTH}
@@ -153,7 +157,7 @@ export function SearchBox() {
         {open ? foundSentence(current, asked) : ''}
       </p>
       {open && current !== undefined && asked !== '' && (
-        <div className="absolute top-full left-0 z-30 mt-1 max-h-[70vh] w-full overflow-y-auto rounded-md border border-rule bg-sheet py-1 shadow-lg sm:w-[28rem] dark:border-night-rule dark:bg-night-sheet">
+        <div className="absolute top-full left-0 z-30 mt-1 w-full rounded-md border border-rule bg-sheet py-1 shadow-lg sm:w-[28rem] dark:border-night-rule dark:bg-night-sheet">
           {listed ? (
             <div id={listId} role="listbox" aria-label="Search results">
               {groups.map((group) => (
@@ -169,7 +173,7 @@ export function SearchBox() {
                         key={optionId}
                         id={optionId}
                         role="option"
-                        aria-selected={options[active]?.id === optionId}
+                        aria-selected={activeId === optionId}
                         className={optionClass(optionId)}
                         onMouseDown={(event) => event.preventDefault()}
                         onClick={() => go(hitHref(hit, user))}
@@ -183,7 +187,7 @@ export function SearchBox() {
               <div
                 id={`${id}-all`}
                 role="option"
-                aria-selected={options[active]?.id === `${id}-all`}
+                aria-selected={activeId === `${id}-all`}
                 className={cn(optionClass(`${id}-all`), 'text-sm text-fern dark:text-fern-bright')}
                 onMouseDown={(event) => event.preventDefault()}
                 onClick={() => go(searchHref(asked))}

@@ -17,7 +17,7 @@ export const KIND_PAGE_SIZE = 20;
 export const resultsQuery = (view: SearchView) => searchQuery({ q: view.q, kind: view.kind, page: view.page, pageSize: view.kind ? KIND_PAGE_SIZE : OVERVIEW_SIZE });
 
 const HOW_TO =
-  'Words are matched whole, the last one also as the start of a longer word; a number and its unit go together ("80 dB", "4.7 kΩ"). Search for a name, a value, a proposal number ("#42") or state ("awaiting review").';
+  'Words are matched whole, the last one also as the start of a longer word; a number and its unit go together (“80 dB”, “4.7 kΩ”). Search for a name, a value, a proposal number (“#42”) or state (“awaiting review”).';
 
 /** Every kind and each one alone, with their counts: the current one marked. */
 function KindSwitch({ q, answer, current }: { q: string; answer: SearchAnswer; current: SearchKind | null }) {
