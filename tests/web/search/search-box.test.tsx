@@ -6,7 +6,7 @@
  * or the results page, Escape clears and then leaves; a person's hit leads where the viewer may go.
  */
 import { QueryClientProvider } from '@tanstack/react-query';
-import { configure, render, screen, within } from '@testing-library/react';
+import { configure, render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { createRoutesStub, useLocation } from 'react-router-dom';
 import { describe, expect, test } from 'vitest';
@@ -118,7 +118,7 @@ describe('the navigation’s search box', () => {
     expect(box.getAttribute('aria-activedescendant')).toBe(chosen.id);
     expect(chosen.textContent).toContain('#31 Kestrel rev B');
     await userEvent.keyboard('{Enter}');
-    expect(screen.getByTestId('where').textContent).toBe('/proposals/31');
+    await waitFor(() => expect(screen.getByTestId('where').textContent).toBe('/proposals/31'));
     expect(screen.queryByRole('listbox')).toBeNull();
   });
 
@@ -131,11 +131,11 @@ describe('the navigation’s search box', () => {
     expect(screen.getByRole('option', { selected: true }).textContent).toMatch(/^All 4 results/);
     await userEvent.keyboard('{ArrowDown}{Enter}');
     // Down from the last option wraps to the first hit.
-    expect(screen.getByTestId('where').textContent).toBe('/specs/7');
+    await waitFor(() => expect(screen.getByTestId('where').textContent).toBe('/specs/7'));
 
     await userEvent.click(box);
     await userEvent.keyboard('80 dB{Enter}');
-    expect(screen.getByTestId('where').textContent).toBe('/search?q=80+dB');
+    await waitFor(() => expect(screen.getByTestId('where').textContent).toBe('/search?q=80+dB'));
   });
 
   test('when Escape is pressed, then the box is cleared and the list closed; pressed again, the cursor leaves the box', async () => {

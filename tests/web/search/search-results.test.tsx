@@ -6,7 +6,7 @@
  * nothing matches or no query is given.
  */
 import { QueryClientProvider } from '@tanstack/react-query';
-import { configure, render, screen, within } from '@testing-library/react';
+import { configure, render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { createRoutesStub, useLocation } from 'react-router-dom';
 import { describe, expect, test } from 'vitest';
@@ -110,7 +110,7 @@ describe('the search results page', () => {
 
     await userEvent.click(screen.getByRole('button', { name: /Next/ }));
 
-    expect(screen.getByTestId('where').textContent).toBe('/search?q=kestrel&kind=proposal&page=2');
+    await waitFor(() => expect(screen.getByTestId('where').textContent).toBe('/search?q=kestrel&kind=proposal&page=2'));
     expect(await screen.findByRole('link', { name: /^#18 Kestrel/ })).toBeTruthy();
     expect(searches().map((u) => u.search)).toContain('?q=kestrel&kind=proposal&page=2&pageSize=20');
   });
