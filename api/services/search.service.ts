@@ -7,8 +7,8 @@
  * The query is cut into words (api/search/search-words.ts) and handed to the back end's full-text
  * index as a parameter: FTS5 `MATCH` ranked by bm25 with the title ten times the rest (SQLite), or
  * `@@` a tsquery ranked by ts_rank with the title weighted A (PostgreSQL). Best match first, then
- * the newest record. Without a kind, one statement gives every kind's first page and count
- * (window functions over the matches); with a kind, its page and every kind's count.
+ * the newest record. Every kind's count in one statement, then each page asked for (without a
+ * kind, the first page of every kind that has hits).
  */
 import { In, type DataSource } from 'typeorm';
 import { SEARCH_KINDS, type SearchAnswer, type SearchGroup, type SearchHit, type SearchKind, type SearchQuery } from '#shared/api/search';
@@ -36,7 +36,6 @@ interface EntryRow {
   project_id: number | null;
   title: string;
   body: string;
-  total?: number;
 }
 
 /** The projects whose records the viewer sees (null: all of them). */
@@ -62,17 +61,6 @@ function visibility(p: SqlParameters, viewer: Viewer, projects: number[] | null)
     ? `e.kind = ${p.add('person')}`
     : `(e.kind = ${p.add('person')} AND (e.ref_id = ${p.add(viewer.id)}${projects?.length ? ` OR e.ref_id IN (SELECT pm.user_id FROM project_member pm WHERE pm.project_id IN (${p.list(projects)}))` : ''}))`;
   return records ? `(${records} OR ${people})` : people;
-}
-
-/** Every kind's first page and count, in one statement. */
-async function firstPages(dataSource: DataSource, viewer: Viewer, projects: number[] | null, parts: readonly QueryPart[], pageSize: number): Promise<EntryRow[]> {
-  const p = new SqlParameters(dataSource);
-  const { from, score } = matching(dataSource, p, parts);
-  const sql = `SELECT e.id, e.kind, e.ref_id, e.project_id, e.title, e.body, ranked.total FROM (
-      SELECT m.id, row_number() OVER (PARTITION BY m.kind ORDER BY m.score, m.ref_id DESC) AS place, count(*) OVER (PARTITION BY m.kind) AS total
-      FROM (SELECT e.id, e.kind, e.ref_id, ${score} AS score ${from} AND ${visibility(p, viewer, projects)}) m
-    ) ranked JOIN search_entry e ON e.id = ranked.id WHERE ranked.place <= ${p.add(pageSize)} ORDER BY ranked.place`;
-  return dataSource.query(sql, p.values);
 }
 
 /** Every kind's count. */
@@ -146,8 +134,12 @@ export async function search(dataSource: DataSource, viewer: Viewer, query: Sear
     for (const row of totals) counts[row.kind] = Number(row.total);
     return { words, counts, groups: [group(kind, await hitsOf(dataSource, rows, projects, parts), query.page)] };
   }
-  const rows = await firstPages(dataSource, viewer, projects, parts, query.pageSize);
-  for (const row of rows) counts[row.kind] = Number(row.total);
+  // Every kind's count, then the first page of each kind that has hits (a sort with a limit each:
+  // cheaper than numbering every match of every kind when a word is in thousands of records).
+  for (const row of await kindCounts(dataSource, viewer, projects, parts)) counts[row.kind] = Number(row.total);
+  const found = SEARCH_KINDS.filter((kind) => counts[kind] > 0);
+  const rows: EntryRow[] = [];
+  for (const kind of found) rows.push(...(await kindPage(dataSource, viewer, projects, parts, { ...query, kind, page: 1 })));
   const hits = await hitsOf(dataSource, rows, projects, parts);
-  return { words, counts, groups: SEARCH_KINDS.filter((kind) => counts[kind] > 0).map((kind) => group(kind, hits.filter((hit) => hit.kind === kind))) };
+  return { words, counts, groups: found.map((kind) => group(kind, hits.filter((hit) => hit.kind === kind))) };
 }
