@@ -38,6 +38,7 @@ import { SpiceEngine, type SpiceEngineOptions } from './verification/spice-engin
 import { specsRoutes } from './routes/specs.routes';
 import { usersRoutes } from './routes/users.routes';
 import { waitingRoutes } from './routes/waiting.routes';
+import { searchRoutes } from './routes/search.routes';
 
 /** Largest JSON body accepted (a spec or a design is a few kB). */
 export const BODY_LIMIT = '256kb';
@@ -154,6 +155,7 @@ export function createApp(deps: AppDeps): LongtailApp {
   app.use('/api/projects', batchRoutes(deps.dataSource));
   app.use('/api/projects', activityRoutes(deps.dataSource));
   app.use('/api/waiting', waitingRoutes(deps.dataSource));
+  app.use('/api/search', searchRoutes(deps.dataSource));
   app.use('/api/specs', specsRoutes(deps.dataSource, deps.ruleSet, deps.proposalsPerMinute));
   const verification =
     deps.verification ??

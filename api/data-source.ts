@@ -8,6 +8,7 @@
  *
  * The same migrations build both (TypeORM's portable Table API); never synchronize.
  */
+import { AsyncLocalStorage } from 'node:async_hooks';
 import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { DataSource, type EntityManager, type EntityTarget, type ObjectLiteral } from 'typeorm';
@@ -67,7 +68,7 @@ export function createDataSource(location: string, options: DatabaseOptions = {}
     });
   }
   if (location !== ':memory:') mkdirSync(dirname(location), { recursive: true });
-  return new DataSource({
+  const dataSource = new DataSource({
     type: 'better-sqlite3',
     database: location,
     entities: ENTITIES,
@@ -82,6 +83,28 @@ export function createDataSource(location: string, options: DatabaseOptions = {}
       db.pragma('synchronous = NORMAL');
     },
   });
+  transactionsTakeTurns(dataSource);
+  return dataSource;
+}
+
+/**
+ * SQLite: the data source has one connection, and TypeORM runs every transaction on it, so a
+ * transaction begun while another is open (two requests writing at once) would run inside the
+ * first (BEGIN refused, or a savepoint one commit releases for the other). Transactions begun on
+ * the data source take turns instead; one begun inside another's callback (the same async flow)
+ * still runs within it.
+ */
+function transactionsTakeTurns(dataSource: DataSource): void {
+  const inside = new AsyncLocalStorage<true>();
+  const { manager } = dataSource;
+  const transaction = manager.transaction.bind(manager) as (...args: unknown[]) => Promise<unknown>;
+  let previous: Promise<unknown> = Promise.resolve();
+  manager.transaction = ((...args: unknown[]) => {
+    if (inside.getStore()) return transaction(...args);
+    const turn = previous.then(() => inside.run(true, () => transaction(...args)));
+    previous = turn.catch(() => undefined);
+    return turn;
+  }) as typeof manager.transaction;
 }
 
 /**

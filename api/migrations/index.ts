@@ -14,6 +14,7 @@ import { SpecLifecycle1764800600000 } from './1764800600000-spec-lifecycle';
 import { DistinctRankings1764900000000 } from './1764900000000-distinct-rankings';
 import { CheckMetadata1764900100000 } from './1764900100000-check-metadata';
 import { WaitingAndActivityIndexes1796000000000 } from './1796000000000-waiting-and-activity-indexes';
+import { SearchIndex1796100000000 } from './1796100000000-search-index';
 import { PersonalApiTokens1796200000000 } from './1796200000000-personal-api-tokens';
 
 export const MIGRATIONS = [
@@ -32,5 +33,6 @@ export const MIGRATIONS = [
   DistinctRankings1764900000000,
   CheckMetadata1764900100000,
   WaitingAndActivityIndexes1796000000000,
+  SearchIndex1796100000000,
   PersonalApiTokens1796200000000,
 ];

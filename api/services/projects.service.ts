@@ -11,6 +11,7 @@ import { ProjectEntity, type Project } from '../entities/project.entity';
 import { UserEntity } from '../entities/user.entity';
 import { AppError, forbidden, notFound } from '../errors';
 import { recordEvent } from './audit.service';
+import { indexRecords } from './search-index.service';
 import { publicUser, type PublicUser } from './users.service';
 import type { NewProject, ProjectMember as ProjectMemberView } from '#shared/api/projects';
 
@@ -56,6 +57,7 @@ export async function createProject(dataSource: DataSource, actorId: number, inp
       createdAt: new Date().toISOString(),
     });
     await recordEvent(manager, { actorId, action: 'project.created', entityType: 'project', entityId: project.id, projectId: project.id, afterId: project.id, details: { name: project.name } });
+    await indexRecords(manager, 'project', [project.id]);
     return project;
   });
 }

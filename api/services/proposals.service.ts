@@ -27,6 +27,7 @@ import { currentDesignName, currentDesignSummary } from '#shared/workflow/curren
 import { topologyName } from '#shared/engine/topologies';
 import { queueNotification } from './notifications.service';
 import { projectFor } from './projects.service';
+import { indexRecords } from './search-index.service';
 import { specMovedOn, supersedeOlderRankings } from './spec-lifecycle.service';
 import { latestVersion, specFor, specVersionDocument, storedSpecDocument } from './specs.service';
 import { rankingOf, rankingText, storeRanking } from './rankings.service';
@@ -198,6 +199,7 @@ async function storeProposal(dataSource: DataSource, actor: Viewer, specId: numb
     });
     await queueNotification(manager, { kind: 'proposal.ready', proposalId: saved.id, actorId: actor.id });
     await supersedeOlderRankings(manager, actor.id, saved, version);
+    await indexRecords(manager, 'proposal', [saved.id]);
     return saved;
   });
   const envelope = {
@@ -361,6 +363,7 @@ export async function decide(dataSource: DataSource, actor: Viewer, proposalId: 
       details: { kind: input.kind, topology: settled.topology, from: proposal.status, to: status, passes: settled.evaluation?.passes },
     });
     await queueNotification(manager, { kind: 'proposal.decided', proposalId, decisionId: decision.id, actorId: actor.id });
+    await indexRecords(manager, 'proposal', [proposalId]);
   });
   return getProposal(dataSource, actor, proposalId);
 }
@@ -447,6 +450,7 @@ export async function review(dataSource: DataSource, actor: Viewer, proposalId: 
       },
     });
     await queueNotification(manager, { kind: input.verdict === 'approve' ? 'proposal.approved' : 'proposal.returned', proposalId, reviewId: saved.id, actorId: actor.id });
+    await indexRecords(manager, 'proposal', [proposalId]);
   });
   return getProposal(dataSource, actor, proposalId);
 }
@@ -479,6 +483,7 @@ export async function withdraw(dataSource: DataSource, actor: Viewer, proposalId
       afterId: proposalId,
       details: { from: proposal.status, to: status, reason },
     });
+    await indexRecords(manager, 'proposal', [proposalId]);
   });
   return getProposal(dataSource, actor, proposalId);
 }

@@ -14,6 +14,7 @@ import { SpecEntity } from '../entities/spec.entity';
 import { lockRowForUpdate } from '../data-source';
 import { recordEvent } from './audit.service';
 import { queueNotification } from './notifications.service';
+import { indexRecords } from './search-index.service';
 
 /**
  * Inside the transaction that stores `newer` (a proposal of `version`): every proposal of an
@@ -52,6 +53,7 @@ export async function supersedeOlderRankings(manager: EntityManager, actorId: nu
     closed.push(id);
   }
   if (closed.length > 0) await queueNotification(manager, { kind: 'proposal.superseded', proposalId: newer.id, closedIds: closed, actorId });
+  await indexRecords(manager, 'proposal', closed);
   return closed;
 }
 

@@ -13,6 +13,7 @@ import { lockRowForUpdate } from '../data-source';
 import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { projectFor } from './projects.service';
+import { indexRecords } from './search-index.service';
 import type { PublicUser } from './users.service';
 import type { SpecDiff, SpecInput, SpecVersion as SpecVersionView, SpecWithLatest } from '#shared/api/specs';
 
@@ -95,6 +96,7 @@ export async function insertSpec(manager: EntityManager, actor: Viewer, projectI
   const spec = await manager.getRepository(SpecEntity).save({ projectId, title, latestVersion: 1, createdById: actor.id, createdAt: now, updatedAt: now });
   const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: 1, title: spec.title, payload: document, note, createdById: actor.id, createdAt: now });
   await recordEvent(manager, { actorId: actor.id, action: 'spec.created', entityType: 'spec', entityId: spec.id, projectId, afterId: version.id, details: { title: spec.title, version: 1, ...details } });
+  await indexRecords(manager, 'spec', [spec.id]);
   return { spec, version };
 }
 
@@ -117,6 +119,7 @@ export async function insertSpecVersion(manager: EntityManager, actor: Viewer, s
     afterId: version.id,
     details: { version: number, changes: diffJson(previous.payload, document).length, ...(note ? { note } : {}), ...details },
   });
+  await indexRecords(manager, 'spec', [spec.id]);
   return { spec: { ...spec, title: version.title, latestVersion: number, updatedAt: now }, version };
 }
 

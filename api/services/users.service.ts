@@ -20,6 +20,7 @@ import { UserEntity, type User } from '../entities/user.entity';
 import { AppError, invalid, notFound } from '../errors';
 import { recordEvent } from './audit.service';
 import { notificationSettings } from './notifications.service';
+import { indexRecords } from './search-index.service';
 
 /** An account as the API shows it (shared/api/users.ts): never its password hash. */
 export type { PublicUser, SessionUser };
@@ -103,6 +104,7 @@ export async function createUser(dataSource: DataSource, actorId: number | null,
     if (await repository.existsBy({ email })) throw new AppError('email-taken', 409, 'An account with this e-mail address exists already.', [{ path: '/email', message: 'is taken' }]);
     const user = await repository.save({ email, displayName: input.displayName.trim(), role: input.role, passwordHash, createdAt: new Date().toISOString() });
     await recordEvent(manager, { actorId, action: 'user.created', entityType: 'user', entityId: user.id, afterId: user.id, details: { email, role: input.role } });
+    await indexRecords(manager, 'person', [user.id]);
     return publicUser(user);
   });
 }
@@ -118,6 +120,7 @@ export async function updateUser(dataSource: DataSource, actorId: number, id: nu
     const updated = { ...user, ...(changes.displayName !== undefined ? { displayName: changes.displayName.trim() } : {}), ...(changes.role !== undefined ? { role: changes.role } : {}) };
     await repository.update({ id }, { displayName: updated.displayName, role: updated.role });
     await recordEvent(manager, { actorId, action: 'user.updated', entityType: 'user', entityId: id, beforeId: id, afterId: id, details: { before: { displayName: user.displayName, role: user.role }, after: { displayName: updated.displayName, role: updated.role } } });
+    if (updated.displayName !== user.displayName) await indexRecords(manager, 'person', [id]);
     return publicUser(updated);
   });
 }

@@ -29,6 +29,7 @@ import type { ApiTokenInput, LoginInput, NewUser, PasswordChangeInput, PasswordR
 import type { MonteCarloInput } from '#shared/api/verification';
 import type { WaitingQuery } from '#shared/api/waiting';
 import type { ActivityFilter, ActivityQuery } from '#shared/api/activity';
+import { SEARCH_KINDS, SEARCH_QUERY_MAX_LENGTH, type SearchQuery } from '#shared/api/search';
 import { wire, type Defaulted } from './wire-schema';
 
 const email = { type: 'string', minLength: 3, maxLength: 254, pattern: PLAIN_EMAIL_PATTERN } as const;
@@ -118,6 +119,15 @@ export const ACTIVITY_QUERY = wire<Defaulted<ActivityQuery, keyof PageQuery>>()(
 
 /** GET /api/projects/:id/activity.csv: the same filters, every event. */
 export const ACTIVITY_CSV_QUERY = wire<ActivityFilter>()({ ...ACTIVITY_FILTER_FIELDS }, []);
+
+/**
+ * GET /api/search: `q` is any text up to SEARCH_QUERY_MAX_LENGTH characters (only its words are
+ * searched: punctuation and operators are data); `kind` pages one kind; paged like every list.
+ */
+export const SEARCH_QUERY = wire<Defaulted<SearchQuery, keyof PageQuery>>()(
+  { q: { type: 'string', minLength: 1, maxLength: SEARCH_QUERY_MAX_LENGTH }, kind: { enum: [...SEARCH_KINDS] }, ...PAGE_FIELDS },
+  ['q'],
+);
 
 /** GET /api/proposals/:id/measurements: paged like the proposal list. */
 export const MEASUREMENT_LIST_QUERY = wire<Partial<MeasurementListQuery>>()({ ...PAGE_FIELDS }, []);

@@ -244,6 +244,8 @@ export const MATRIX: Row[] = [
   // What waits for the signed-in person, across their own projects (nothing of anyone else's).
   { route: 'GET /api/waiting/counts', url: '/api/waiting/counts', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/waiting', url: '/api/waiting?kind=decide', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  // The one search: signed in; it only ever answers from the caller's own projects (and the people in them).
+  { route: 'GET /api/search', url: '/api/search?q=quillon', rule: 'signed-in', expected: [401, 200, 200, 200, 200], note: 'only what each may see: tests/api/search.test.ts' },
   { route: 'GET /api/projects/:projectId/devices', url: '/api/projects/{project}/devices', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
   { route: 'GET /api/projects/:projectId/devices', url: '/api/projects/{otherProject}/devices', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
   { route: 'POST /api/projects/:projectId/devices', url: '/api/projects/{project}/devices', rule: 'devices:write', file: DEVICE_FILE, arrange: removeMatrixDevice, expected: [401, 403, 201, 201, 403] },

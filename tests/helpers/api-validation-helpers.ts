@@ -10,7 +10,8 @@ const onPostgres = (dataSource: DataSource) => dataSource.options.type === 'post
 async function tableNames(dataSource: DataSource): Promise<string[]> {
   const rows: { name: string }[] = onPostgres(dataSource)
     ? await dataSource.query("SELECT table_name AS name FROM information_schema.tables WHERE table_schema = current_schema() AND table_type = 'BASE TABLE' ORDER BY table_name")
-    : await dataSource.query("SELECT name FROM sqlite_master WHERE type = 'table' ORDER BY name");
+    : // Ordinary tables only: the search's FTS5 table and its shadow tables are an index of search_entry, dumped itself.
+      await dataSource.query("SELECT name FROM pragma_table_list WHERE schema = 'main' AND type = 'table' AND name <> 'sqlite_schema' ORDER BY name");
   return rows.map((r) => r.name);
 }
 

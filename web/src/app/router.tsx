@@ -53,6 +53,7 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
         { path: paths.proposal.path, loader: proposalLoader(queryClient), lazy: lazyRoute(queryClient, () => import('../routes/proposal')) },
         { path: paths.report.path, lazy: lazyRoute(queryClient, () => import('../routes/proposal-report')) },
         { path: paths.people.path, lazy: lazyRoute(queryClient, () => import('../routes/people')) },
+        { path: paths.search.path, lazy: lazyRoute(queryClient, () => import('../routes/search')) },
         { path: paths.profile.path, lazy: lazyRoute(queryClient, () => import('../routes/profile')) },
         { path: paths.mail.path, lazy: lazyRoute(queryClient, () => import('../routes/mail')) },
         // Any other address: a page of its own that says so (not the error page).

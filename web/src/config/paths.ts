@@ -15,6 +15,8 @@ export const paths = {
   proposal: { path: '/proposals/:proposalId', href: (proposalId: number) => `/proposals/${proposalId}` },
   report: { path: '/proposals/:proposalId/report', href: (proposalId: number) => `/proposals/${proposalId}/report` },
   people: { path: '/people', href: () => '/people' },
+  /** The search's results: `query` is `?q=…`, with `&kind=…&page=…` for one kind's pages. */
+  search: { path: '/search', href: (query = '') => `/search${query}` },
   /** Your own account and e-mail preference (linked from e-mails, so keep it stable). */
   profile: { path: '/profile', href: () => '/profile' },
   /** The local mail server's messages (admins). */
@@ -57,6 +59,8 @@ export const api = {
   waitingCounts: '/api/waiting/counts',
   /** GET (`?kind=&page=&pageSize=`): one kind of what waits for the signed-in person, oldest first. */
   waiting: (query: string) => `/api/waiting${query}`,
+  /** GET (`?q=&kind=&page=&pageSize=`): projects, specs, proposals and people the signed-in person may see. */
+  search: (query: string) => `/api/search${query}`,
   projectProposals: (projectId: number, query: string) => `/api/projects/${projectId}/proposals${query}`,
   /** POST multipart (field `file`): many specs from one CSV or JSON file; `dryRun` reports without saving. */
   specImport: (projectId: number, dryRun: boolean) => `/api/projects/${projectId}/specs/import${dryRun ? '?dryRun=true' : ''}`,

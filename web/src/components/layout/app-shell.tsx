@@ -8,6 +8,7 @@ import { meQuery, signOut } from '../../lib/auth-queries';
 import { cn } from '../../lib/cn';
 import { applyTheme, storedTheme, type ThemeChoice } from '../../lib/theme';
 import { mayWait, waitingCountsQuery, waitingSentence, waitingTotal } from '../../lib/waiting-queries';
+import { SearchBox } from '../search/search-box';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   cn('rounded-md px-3 py-1.5 text-sm', isActive ? 'bg-fern-soft text-fern dark:bg-night dark:text-fern-bright' : 'text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink');
@@ -80,6 +81,7 @@ export function AppShell() {
               </NavLink>
             )}
           </nav>
+          <SearchBox />
           <div className="ml-auto flex items-center gap-2 text-sm sm:gap-3">
             <button type="button" onClick={cycleTheme} className="rounded-md px-2 py-1 text-ink-soft hover:text-ink dark:text-night-ink-soft dark:hover:text-night-ink">
               <span className="max-sm:sr-only">Theme: </span>
