@@ -1,10 +1,10 @@
 import { Link } from 'react-router-dom';
 import type { TopologyId } from '#shared/engine/types';
-import { OptionVerdict } from '../../../components/ui/verdict';
-import { paths } from '../../../config/paths';
-import { topologyName } from '../../../lib/topology-names';
-import { blockingShortCount } from '../../proposals/lib/option-rows';
-import { provenanceOf, type Side } from '../lib/comparison';
+import { OptionVerdict } from '../../../../components/ui/verdict';
+import { paths } from '../../../../config/paths';
+import { topologyName } from '../../../../lib/topology-names';
+import { blockingShortCount } from '../../lib/option-rows';
+import { provenanceOf, type Side } from '../../lib/comparison';
 
 /**
  * The record each column comes from, exactly: proposal, spec and version, engine version, rule set,

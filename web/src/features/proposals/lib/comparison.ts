@@ -12,10 +12,10 @@ import { formatDb, formatMargin, formatPercent, formatSignificant } from '#share
 import { checkVerdict, type VerdictKind } from '../../../components/ui/verdict';
 import { checkTitle } from '../../../lib/checks';
 import { topologyName } from '../../../lib/topology-names';
-import { optionRows, rejectionColumns, specTargets, type FigureStanding, type OptionRow, type RuledFigure } from '../../proposals/lib/option-rows';
-import { rejectionPlot, type RejectionPlot } from '../../proposals/lib/plot-data';
-import { proposalCurrentDesign } from '../../proposals/lib/current-design';
-import { formatTradeoff, tradeoffColumns } from '../../proposals/lib/tradeoff-columns';
+import { optionRows, rejectionColumns, specTargets, type FigureStanding, type OptionRow, type RuledFigure } from './option-rows';
+import { rejectionPlot, type RejectionPlot } from './plot-data';
+import { proposalCurrentDesign } from './current-design';
+import { formatTradeoff, tradeoffColumns } from './tradeoff-columns';
 
 /** A figure "moved" when the two sides differ by more than this share of the larger magnitude (1 %). */
 export const MOVED_FRACTION = 0.01;

@@ -1,7 +1,7 @@
-import { Verdict } from '../../../components/ui/verdict';
-import { cn } from '../../../lib/cn';
-import { FigureCell } from '../../proposals/components/ranking/figure-cell';
-import type { CheckRow, FigureRow } from '../lib/comparison';
+import { Verdict } from '../../../../components/ui/verdict';
+import { cn } from '../../../../lib/cn';
+import { FigureCell } from '../ranking/figure-cell';
+import type { CheckRow, FigureRow } from '../../lib/comparison';
 import { DifferenceMarks } from './difference-marks';
 
 const HEAD = 'py-1 pr-3 font-normal';

@@ -1,11 +1,11 @@
 import { useMemo } from 'react';
 import type { TopologyId } from '#shared/engine/types';
 import { formatPercent } from '#shared/units/figures';
-import { PlotFigure } from '../../../components/charts/plot-figure';
-import { Sheet } from '../../../components/ui/sheet';
-import { RejectionChart } from '../../proposals/components/ranking/plots/lazy-charts';
-import { rejectionSummary } from '../../proposals/lib/plot-summaries';
-import { checkRows, comparisonPlot, differenceCount, figureRows, MOVED_FRACTION, provenanceWarnings, sideLabel, type Side } from '../lib/comparison';
+import { PlotFigure } from '../../../../components/charts/plot-figure';
+import { Sheet } from '../../../../components/ui/sheet';
+import { RejectionChart } from '../ranking/plots/lazy-charts';
+import { rejectionSummary } from '../../lib/plot-summaries';
+import { checkRows, comparisonPlot, differenceCount, figureRows, MOVED_FRACTION, provenanceWarnings, sideLabel, type Side } from '../../lib/comparison';
 import { ChecksComparison, FiguresComparison } from './comparison-tables';
 import { DifferenceKey } from './difference-marks';
 import { SideRecords } from './side-records';

@@ -1,4 +1,4 @@
-import { markWords, type DifferenceMark } from '../lib/comparison';
+import { markWords, type DifferenceMark } from '../../lib/comparison';
 
 /** A row's differences: each a symbol and its words (never colour alone); "same" when nothing differs. */
 export function DifferenceMarks({ marks }: { marks: readonly DifferenceMark[] }) {
