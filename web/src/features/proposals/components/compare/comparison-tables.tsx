@@ -11,7 +11,8 @@ const bodyRow = (marked: boolean) => cn('border-b border-rule/60 align-top last:
 /** Every figure of the two options in two columns, the differences in a third. */
 export function FiguresComparison({ rows, nameA, nameB }: { rows: FigureRow[]; nameA: string; nameB: string }) {
   return (
-    <div className="relative overflow-x-auto">
+    // Focusable, so a keyboard can scroll it sideways on a narrow screen.
+    <div className="relative overflow-x-auto" tabIndex={0} role="group" aria-label="Figures, side A and side B">
       <table className="w-full text-sm">
         <caption className="sr-only">Figures of side A and side B, with what differs</caption>
         <thead>
@@ -73,7 +74,7 @@ function CheckSide({ row, side }: { row: CheckRow; side: 'a' | 'b' }) {
 /** Every check of either option: each side's verdict, margin and reason, the differences in a fourth column. */
 export function ChecksComparison({ rows, nameA, nameB }: { rows: CheckRow[]; nameA: string; nameB: string }) {
   return (
-    <div className="relative overflow-x-auto">
+    <div className="relative overflow-x-auto" tabIndex={0} role="group" aria-label="Checks, side A and side B">
       <table className="w-full text-sm">
         <caption className="sr-only">Checks of side A and side B: verdict, margin and reason, with what differs</caption>
         <thead>
