@@ -68,6 +68,12 @@ describe('Longtail in the browser: side by side', () => {
     const picker = await visible(page.getByRole('region', { name: 'Side by side' }));
     await picker.getByRole('combobox', { name: 'Compare', exact: true }).selectOption('simple-mirror');
     await picker.getByRole('combobox', { name: 'with', exact: true }).selectOption('cascode');
+    await picker.scrollIntoViewIfNeeded();
+    await picker.screenshot({ path: join(screenshotDir, 'compare', 'picker-1440.png') });
+    await checkAccessibility(page, 'proposal page with the side-by-side choices');
+    await page.setViewportSize({ width: 390, height: 844 });
+    await picker.screenshot({ path: join(screenshotDir, 'compare', 'picker-390.png') });
+    await page.setViewportSize({ width: 1440, height: 900 });
     await picker.getByRole('link', { name: 'Set these two options side by side' }).click();
     await page.waitForURL(/\/compare\?a=\d+&b=\d+&tailA=simple-mirror&tailB=cascode$/);
     optionsUrl = new URL(page.url()).pathname + new URL(page.url()).search;

@@ -144,6 +144,9 @@ describe('check rows', () => {
     ]);
     expect(markWords(row.marks[0])).toEqual({ symbol: '≠', words: 'verdict changed: holds → short' });
     expect(rows.filter((r) => r.marks.length > 0)).toHaveLength(1);
+    // the row that differs comes first; every rule of the option is there once
+    expect(rows[0].rule).toBe(check.rule);
+    expect(rows.map((r) => r.rule).sort()).toEqual(option.checks.map((c) => c.rule).sort());
   });
 
   test('two options of the studio line: a verdict is marked changed exactly where the two options’ checks pass differently', () => {
@@ -173,7 +176,7 @@ describe('both rejection curves on one plot', () => {
     const { plot } = plotted;
     expect(plot.series.map((s) => s.name)).toEqual([expect.stringMatching(/^A · .+, #7 v1$/), expect.stringMatching(/^B · .+, #8 v2$/)]);
     expect(plot.series[0].width).toBeGreaterThan(plot.series[1].width!);
-    expect(plot.series[0].dash).toBeUndefined();
+    expect(plot.series[0].dash).toEqual([]);
     expect(plot.series[1].dash).toBeDefined();
     const f = first.curves!.cmrrVsFrequency;
     const i = plot.frequencyHz.indexOf(f[3].frequencyHz);

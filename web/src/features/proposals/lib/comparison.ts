@@ -228,10 +228,13 @@ export function figureRows(a: Side, b: Side): FigureRow[] {
 
 const marginText = (check: Check | null) => (check && check.margin !== null && check.margin !== undefined ? formatMargin(check.margin, check.marginUnit) : null);
 
-/** Every check of either option, by rule, with a changed verdict and a margin that changed sign marked. */
+/**
+ * Every check of either option, by rule, with a changed verdict and a margin that changed sign
+ * marked; the rows that differ first, each group in side A's order.
+ */
 export function checkRows(a: Side, b: Side): CheckRow[] {
   const rules = [...new Set([...a.option.checks.map((c) => c.rule), ...b.option.checks.map((c) => c.rule)])];
-  return rules.map((rule) => {
+  const rows = rules.map((rule): CheckRow => {
     const ca = a.option.checks.find((c) => c.rule === rule) ?? null;
     const cb = b.option.checks.find((c) => c.rule === rule) ?? null;
     const verdictA = ca ? checkVerdict(ca) : null;
@@ -248,6 +251,7 @@ export function checkRows(a: Side, b: Side): CheckRow[] {
     const check = (ca ?? cb)!;
     return { rule, title: checkTitle(check), severity: check.severity, a: ca, b: cb, verdictA, verdictB, marginTextA: marginText(ca), marginTextB: marginText(cb), marks };
   });
+  return [...rows.filter((r) => r.marks.length > 0), ...rows.filter((r) => r.marks.length === 0)];
 }
 
 const VERDICT_WORDS: Record<VerdictKind, string> = { holds: 'holds', short: 'short', note: 'note', 'not-applicable': 'n/a', undecided: 'undecided' };
@@ -290,8 +294,9 @@ export function comparisonPlot(a: Side, b: Side): { plot: RejectionPlot; targets
     const byFrequency = new Map(p.frequencyHz.map((f, i) => [f, p.series[0].valuesDb[i]]));
     return grid.map((f) => byFrequency.get(f) ?? null);
   };
+  // Side A solid (an empty dash) whatever its topology's own dash; side B dashed.
   const series = [
-    ...(pa ? [{ ...pa.series[0], name: sideLabel(a), valuesDb: onGrid(pa), width: 3 }] : []),
+    ...(pa ? [{ ...pa.series[0], name: sideLabel(a), valuesDb: onGrid(pa), width: 3, dash: [] }] : []),
     ...(pb ? [{ ...pb.series[0], name: sideLabel(b), valuesDb: onGrid(pb), width: 2, dash: [9, 5] }] : []),
   ];
   const base = (pa ?? pb)!;

@@ -44,7 +44,7 @@ export function FiguresComparison({ rows, nameA, nameB }: { rows: FigureRow[]; n
               <td className="py-1.5 pr-3 text-right">
                 <FigureCell text={row.textB} standing={row.standingB ?? undefined} />
               </td>
-              <td className="py-1.5 text-xs whitespace-nowrap">
+              <td className="min-w-32 py-1.5 text-xs sm:whitespace-nowrap">
                 <DifferenceMarks marks={row.marks} />
               </td>
             </tr>
@@ -108,7 +108,7 @@ export function ChecksComparison({ rows, nameA, nameB }: { rows: CheckRow[]; nam
               <td className="py-1.5 pr-3">
                 <CheckSide row={row} side="b" />
               </td>
-              <td className="py-1.5 text-xs whitespace-nowrap">
+              <td className="min-w-32 py-1.5 text-xs sm:whitespace-nowrap">
                 <DifferenceMarks marks={row.marks} />
               </td>
             </tr>
