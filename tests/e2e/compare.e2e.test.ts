@@ -105,7 +105,7 @@ describe('Longtail in the browser: side by side', () => {
     await page.close();
   });
 
-  it('sets the rev B ranking beside the rev A one: the spec version said above the table, the spec’s changes field by field', async () => {
+  it('sets the rev B ranking beside the rev A one (rev A on side A): the spec version said above the table, the spec’s changes field by field', async () => {
     const { page } = designer;
     await page.goBack();
     const picker = await visible(page.getByRole('region', { name: 'Side by side' }));
@@ -116,7 +116,8 @@ describe('Longtail in the browser: side by side', () => {
     await page.waitForURL(/\/compare\?a=\d+&b=\d+/);
     rankingsUrl = new URL(page.url()).pathname + new URL(page.url()).search;
     const note = await visible(page.getByRole('note', { name: 'Read with care' }));
-    expect(await note.innerText()).toContain('A: version 2, B: version 1');
+    // the earlier version on side A: before, then after
+    expect(await note.innerText()).toContain('A: version 1, B: version 2');
     const changes = await visible(page.getByRole('region', { name: 'What the spec changed' }));
     await expect.poll(() => changes.innerText()).toMatch(/3 dB/);
     expect(await changes.innerText()).toMatch(/6 dB/);

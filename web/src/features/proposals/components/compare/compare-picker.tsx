@@ -1,7 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { useId, useState } from 'react';
 import { Link } from 'react-router-dom';
-import type { Proposal } from '#shared/api/proposals';
+import type { Proposal, ProposalSummary } from '#shared/api/proposals';
 import type { TopologyId } from '#shared/engine/types';
 import { STATE_WORDS } from '#shared/workflow/proposal-states';
 import { Sheet } from '../../../../components/ui/sheet';
@@ -12,6 +12,12 @@ import { compareQuery } from '../../lib/compare-address';
 
 const FIELD = 'min-w-0 max-w-full rounded-md border border-rule bg-sheet px-2 py-1 text-sm dark:border-night-rule dark:bg-night-sheet';
 const GO = 'rounded-md border border-fern bg-fern px-2.5 py-1 text-sm font-medium whitespace-nowrap text-white hover:bg-fern/90 dark:border-fern-bright dark:bg-fern-bright dark:text-night';
+
+/** The address of this proposal's option beside another proposal: an earlier version of the same spec on side A (before, then after). */
+function beside(proposal: Proposal, other: ProposalSummary, tail: string): string {
+  const otherFirst = other.specId === proposal.specId && (other.specVersionNumber ?? Infinity) < proposal.specVersion.version;
+  return compareQuery(otherFirst ? { a: other.id, b: proposal.id, tailA: tail, tailB: tail } : { a: proposal.id, b: other.id, tailA: tail, tailB: tail });
+}
 
 /**
  * The ways into the side-by-side view from a proposal: two of its options, or one of them beside
@@ -74,7 +80,7 @@ export function ComparePicker({ proposal, selected }: { proposal: Proposal; sele
                 ))}
               </select>
               {otherId !== null && (
-                <Link to={paths.compare.href(compareQuery({ a: proposal.id, b: otherId, tailA: a, tailB: a }))} className={GO}>
+                <Link to={paths.compare.href(beside(proposal, others.find((p) => p.id === otherId)!, a))} className={GO}>
                   Set it beside this one
                 </Link>
               )}
