@@ -126,7 +126,7 @@ describe('Longtail in the browser: side by side', () => {
 
   it('reaches the two versions’ rankings from the spec’s version history', async () => {
     const { page } = designer;
-    await page.getByRole('region', { name: 'Side A', exact: true }).getByRole('link', { name: /rev B/ }).click();
+    await page.getByRole('region', { name: 'Side B', exact: true }).getByRole('link', { name: /rev B/ }).click();
     await page.waitForURL(/\/specs\/\d+$/);
     await page.goto(`${new URL(page.url()).pathname}/history`);
     const link = await visible(page.getByRole('link', { name: /^Set the rankings of versions 1 and 2 side by side/ }));
