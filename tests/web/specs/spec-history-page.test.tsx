@@ -39,6 +39,11 @@ function answer(url: URL): unknown {
   if (url.pathname === '/api/specs/7/versions') return { items: VERSIONS };
   if (url.pathname === '/api/schema/spec') return schema;
   if (url.pathname === '/api/projects/1/members') return { items: [{ id: 2, email: 'r@example.test', displayName: 'Tomasz Rehn', role: 'requirements', createdAt: at, notify: true, disabledAt: null }] };
+  // The project's newest proposals: version 3 ranked (#92), version 1 ranked (#90), version 2 never; one of another spec.
+  if (url.pathname === '/api/projects/1/proposals' && url.searchParams.get('pageSize') === '100') {
+    const summary = (id: number, specId: number, specVersionNumber: number) => ({ id, specId, specVersionNumber, specTitle: 'Tarn probe', projectId: 1, status: 'ranked' });
+    return { items: [summary(93, 8, 3), summary(92, 7, 3), summary(90, 7, 1)], total: 3, page: 1, pageSize: 100 };
+  }
   if (url.pathname === '/api/specs/7/diff') {
     const key = `${url.searchParams.get('from')}-${url.searchParams.get('to')}`;
     diffs.push(key);
@@ -105,6 +110,18 @@ describe('spec history page', () => {
       'Version 2: “Rejection margin raised to 6 dB after the bench run.”',
       'Version 3: “Indoor use only.”',
     ]);
+  });
+
+  test('when both compared versions have a ranking, then a link sets the two rankings side by side; when one has none, that is said', async () => {
+    renderHistory();
+    expect(await screen.findByText('1 field differs between version 2 and version 3.')).toBeTruthy();
+    expect((await screen.findByText(/^Version 2 has no ranking/)).textContent).toContain('cannot be set side by side yet');
+
+    await userEvent.selectOptions(within(screen.getByRole('form', { name: 'Versions to compare' })).getByRole('combobox', { name: 'since' }), 'version 1');
+
+    const link = await screen.findByRole('link', { name: 'Set the rankings of versions 1 and 3 side by side (proposals #90 and #92)' });
+    // The older version's ranking on side A, the same spec's (not the other spec's #93).
+    expect(link.getAttribute('href')).toBe('/compare?a=90&b=92');
   });
 
   test('when a version’s own changes are asked for, then it is compared with the version before it', async () => {

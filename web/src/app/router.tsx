@@ -52,6 +52,7 @@ export function appRoutes(queryClient: QueryClient): RouteObject[] {
         // The ranking page's loader is in the entry, so its data is asked for while its module loads.
         { path: paths.proposal.path, loader: proposalLoader(queryClient), lazy: lazyRoute(queryClient, () => import('../routes/proposal')) },
         { path: paths.report.path, lazy: lazyRoute(queryClient, () => import('../routes/proposal-report')) },
+        { path: paths.compare.path, lazy: lazyRoute(queryClient, () => import('../routes/compare')) },
         { path: paths.people.path, lazy: lazyRoute(queryClient, () => import('../routes/people')) },
         { path: paths.search.path, lazy: lazyRoute(queryClient, () => import('../routes/search')) },
         { path: paths.profile.path, lazy: lazyRoute(queryClient, () => import('../routes/profile')) },

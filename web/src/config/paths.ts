@@ -13,6 +13,8 @@ export const paths = {
   spec: { path: '/specs/:specId', href: (specId: number) => `/specs/${specId}` },
   specHistory: { path: '/specs/:specId/history', href: (specId: number) => `/specs/${specId}/history` },
   proposal: { path: '/proposals/:proposalId', href: (proposalId: number) => `/proposals/${proposalId}` },
+  /** Two options side by side; the state is the query (`?a=12&b=15&tailA=wilson&tailB=cascode`, features/compare/lib/compare-address.ts). */
+  compare: { path: '/compare', href: (query: string) => `/compare${query}` },
   report: { path: '/proposals/:proposalId/report', href: (proposalId: number) => `/proposals/${proposalId}/report` },
   people: { path: '/people', href: () => '/people' },
   /** The search's results: `query` is `?q=…`, with `&kind=…&page=…` for one kind's pages. */

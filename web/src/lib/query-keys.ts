@@ -15,6 +15,8 @@ export const projectKeys = {
   specs: (id: number) => ['projects', 'detail', id, 'specs'] as const,
   members: (id: number) => ['projects', 'detail', id, 'members'] as const,
   proposals: (id: number, status: ProposalState | 'all', page: number) => ['projects', 'detail', id, 'proposals', status, page] as const,
+  /** The newest proposals of a project, for choosing one to set beside another (side by side). */
+  recentProposals: (id: number) => ['projects', 'detail', id, 'proposals', 'recent'] as const,
   proposalCount: (id: number, status: ProposalState) => ['projects', 'detail', id, 'proposal-count', status] as const,
 };
 

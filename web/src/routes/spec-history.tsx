@@ -9,6 +9,8 @@ import { Sheet } from '../components/ui/sheet';
 import { paths } from '../config/paths';
 import { meQuery } from '../lib/auth-queries';
 import { projectMembersQuery } from '../features/projects/api/project-queries';
+import { recentProposalsQuery } from '../features/proposals/api/proposal-queries';
+import { compareQuery } from '../features/proposals/lib/compare-address';
 import { specDiffQuery, specQuery, specSchemaQuery, specVersionsQuery } from '../features/specs/api/spec-queries';
 import { ChangesTable } from '../features/specs/components/changes-table';
 import { CompareSentence, VersionPicker } from '../features/specs/components/version-picker';
@@ -54,6 +56,11 @@ export function Component() {
   // The notes of the versions the comparison spans (after the older side, up to the newer one).
   const notes = versions.items.filter((v) => v.note && v.version > Math.min(from, to) && v.version <= Math.max(from, to)).sort((a, b) => a.version - b.version);
   const authorName = (id: number) => (id === user?.id ? `${user.displayName} (you)` : (members.data?.items.find((m) => m.id === id)?.displayName ?? `User #${id}`));
+  // The newest ranking of each compared version, for the side-by-side view of the two rankings.
+  const proposals = useQuery({ ...recentProposalsQuery(spec.projectId), enabled: comparable });
+  const rankingOf = (version: number) => proposals.data?.items.find((p) => p.specId === specId && p.specVersionNumber === version) ?? null;
+  const rankingFrom = rankingOf(Math.min(from, to));
+  const rankingTo = rankingOf(Math.max(from, to));
   const onPick = (nextFrom: number, nextTo: number) => setParams({ from: String(nextFrom), to: String(nextTo) }, { replace: true });
 
   return (
@@ -100,6 +107,20 @@ export function Component() {
                 </ul>
               )}
               <ChangesTable rows={rows} from={diff.data.from} to={diff.data.to} />
+              {proposals.data && (
+                <p className="mt-3 border-t border-rule/60 pt-2 text-sm dark:border-night-rule/60">
+                  {rankingFrom && rankingTo ? (
+                    <Link to={paths.compare.href(compareQuery({ a: rankingFrom.id, b: rankingTo.id, tailA: null, tailB: null }))} className="font-medium text-fern underline dark:text-fern-bright">
+                      Set the rankings of versions {Math.min(from, to)} and {Math.max(from, to)} side by side (proposals #{rankingFrom.id} and #{rankingTo.id})
+                    </Link>
+                  ) : (
+                    <span className="text-ink-soft dark:text-night-ink-soft">
+                      {[!rankingFrom && Math.min(from, to), !rankingTo && Math.max(from, to)].filter(Boolean).map((v) => `Version ${v}`).join(' and ')} {rankingFrom || rankingTo ? 'has' : 'have'} no ranking
+                      among the project’s newest 100 proposals, so their rankings cannot be set side by side yet.
+                    </span>
+                  )}
+                </p>
+              )}
             </>
           )}
         </Sheet>

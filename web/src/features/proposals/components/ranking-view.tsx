@@ -16,6 +16,7 @@ import { CautionsBlock, RecommendationSummary } from './ranking/preamble';
 import { proposalCurrentDesign } from '../lib/current-design';
 import { topologyName } from '../../../lib/topology-names';
 import { TradeoffPanel } from './tradeoff/tradeoff-panel';
+import { ComparePicker } from './compare/compare-picker';
 
 const downloadLink = 'rounded-md border border-rule px-2.5 py-1 text-sm hover:bg-paper dark:border-night-rule dark:hover:bg-night';
 
@@ -23,8 +24,19 @@ const downloadLink = 'rounded-md border border-rule px-2.5 py-1 text-sm hover:bg
  * The ranked options: cautions and notice, the table (with its downloads), the selected option's detail, the plots.
  * With `detailAfterFirstPaint` (the proposal page) the detail mounts a frame after the table, so the table paints first.
  * `withTradeoffs` (the proposal page by default): the selected option's trade-off view below its detail (it asks the server for a sweep).
+ * `withCompare` (the proposal page by default): the ways into the side-by-side view, under the table (it asks for the project's proposals).
  */
-export function RankingView({ proposal, detailAfterFirstPaint = false, withTradeoffs = detailAfterFirstPaint }: { proposal: Proposal; detailAfterFirstPaint?: boolean; withTradeoffs?: boolean }) {
+export function RankingView({
+  proposal,
+  detailAfterFirstPaint = false,
+  withTradeoffs = detailAfterFirstPaint,
+  withCompare = detailAfterFirstPaint,
+}: {
+  proposal: Proposal;
+  detailAfterFirstPaint?: boolean;
+  withTradeoffs?: boolean;
+  withCompare?: boolean;
+}) {
   const result = proposal.result;
   const rows = useMemo(() => optionRows(result), [result]);
   const targets = useMemo(() => specTargets(result), [result]);
@@ -79,6 +91,11 @@ export function RankingView({ proposal, detailAfterFirstPaint = false, withTrade
         )}
         {explanation && <p className="mt-3 border-t border-rule/60 pt-2 text-sm text-ink-soft dark:border-night-rule/60 dark:text-night-ink-soft">{explanation}</p>}
       </Sheet>
+      {withCompare && rows.length > 0 && (
+        <AfterFirstPaint skip={!detailAfterFirstPaint}>
+          <ComparePicker proposal={proposal} selected={selected} />
+        </AfterFirstPaint>
+      )}
       {rows.length > 0 && (
         <Sheet>
           <RejectionFigure result={result} selected={selected} />

@@ -15,6 +15,9 @@ export interface RejectionSeries {
   valuesDb: (number | null)[];
   /** Worst-corner rejection at the spec frequency (the table's figure), dB. */
   worstAtFrequencyDb: number | null;
+  /** Line width and dash in place of the selection's and the topology's (a side-by-side comparison draws two sides apart). */
+  width?: number;
+  dash?: number[];
 }
 
 export interface RejectionPlot {

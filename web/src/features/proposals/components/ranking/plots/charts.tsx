@@ -22,6 +22,9 @@ function decimalsFor(increment: number): number {
   return Math.max(0, Math.min(6, -Math.floor(Math.log10(increment) + 1e-9)));
 }
 
+/** A curve's width: its own when the plot sets one, else heavier for the selected option. */
+const lineWidth = (s: RejectionPlot['series'][number], selected: TopologyId | null) => s.width ?? (s.topology === selected ? 3 : 1.5);
+
 /** Rejection against frequency for every option, log frequency, with the spec's target lines and frequency. */
 export function RejectionChart({ plot, selected }: { plot: RejectionPlot; selected: TopologyId | null }) {
   const theme = useChartTheme();
@@ -31,7 +34,7 @@ export function RejectionChart({ plot, selected }: { plot: RejectionPlot; select
     const style = (t: TopologyId) => theme.topology[t];
     const series: uPlot.Series[] = [
       {},
-      ...plot.series.map((s) => ({ stroke: style(s.topology).stroke, dash: style(s.topology).dash, width: s.topology === selected ? 3 : 1.5, points: { show: false } })),
+      ...plot.series.map((s) => ({ stroke: style(s.topology).stroke, dash: s.dash ?? style(s.topology).dash, width: lineWidth(s, selected), points: { show: false } })),
     ];
     if (plot.mismatch) series.push({ stroke: style(plot.mismatch.topology).stroke, dash: [1, 3], width: 1.6, points: { show: false } });
     const low = Math.min(plot.requiredDb, ...plot.series.flatMap((s) => s.valuesDb.filter((v): v is number => v !== null)));
@@ -54,7 +57,8 @@ export function RejectionChart({ plot, selected }: { plot: RejectionPlot; select
     label: s.name,
     note: s.passes ? undefined : 'falls short',
     ...theme.topology[s.topology],
-    width: s.topology === selected ? 3 : 1.5,
+    ...(s.dash ? { dash: s.dash } : {}),
+    width: lineWidth(s, selected),
     value: valueAt(s.valuesDb, index, formatDb),
   }));
   if (plot.mismatch) items.push({ label: `${plot.mismatch.name}, mismatch worst case`, stroke: theme.topology[plot.mismatch.topology].stroke, dash: [1, 3], value: valueAt(plot.mismatch.valuesDb, index, formatDb) });
