@@ -21,7 +21,8 @@ export function CornersTable({ option }: { option: RecommendOption }) {
   const worst = option.figures?.worstCmrrCorner;
   const f = option.figures ? formatQuantity(option.figures.cmrrFrequencyHz, 'Hz') : 'f';
   return (
-    <div className="relative overflow-x-auto">
+    // focusable so a keyboard can scroll it sideways on a narrow screen (axe: scrollable-region-focusable)
+    <div className="relative overflow-x-auto" tabIndex={0} role="group" aria-label="Figures at each corner of the spec (scrolls sideways on a narrow screen)">
       <table className="w-full text-sm">
         <caption className="sr-only">Figures at each corner of the spec</caption>
         <thead className="text-xs text-ink-soft dark:text-night-ink-soft">
