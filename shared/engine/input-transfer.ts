@@ -10,7 +10,7 @@
  * Design of Analog Integrated Circuits, the emitter-coupled pair's transfer and offset sections).
  */
 import { COLLECTOR_NODES, pairIsMatched } from './circuit';
-import { nodeVoltage } from './node-system';
+import { nodeVoltage, terminalCurrentsA } from './node-system';
 import { ConvergenceError, type OperatingPoint } from './operating-point';
 import { solveStageOperatingPoint, type SolvedOperatingPoint } from './stage-solve';
 import type { Design } from './types';
@@ -35,7 +35,7 @@ export function driveCurrentsA(solved: SolvedOperatingPoint): [number, number] {
       if (r.b === node) totalA -= ia;
     }
     ic.transistors.forEach((q, k) => {
-      if (q.bi === node) totalA += q.polarity * op.transistors[k].ibA;
+      if (q.bi === node) totalA += terminalCurrentsA(q, op.transistors[k]).baseA;
     });
     return totalA;
   }) as [number, number];
