@@ -10,6 +10,7 @@ import { MailOutboxEntity } from './mail-outbox.entity';
 import { ProjectMemberEntity } from './project-member.entity';
 import { ProjectEntity } from './project.entity';
 import { ProposalEntity } from './proposal.entity';
+import { ProposalCommentEntity } from './proposal-comment.entity';
 import { RankingEntity } from './ranking.entity';
 import { ReviewEntity } from './review.entity';
 import { SessionEntity } from './session.entity';
@@ -37,4 +38,5 @@ export const ENTITIES = [
   MeasurementEntity,
   PasswordResetEntity,
   ApiTokenEntity,
+  ProposalCommentEntity,
 ];

@@ -11,7 +11,7 @@ import { commentLines, singleLine } from '#shared/text/plain-text';
 import type { DecisionKind } from '../entities/decision.entity';
 import { currentDesignName, currentDesignSummary } from '#shared/workflow/current-design';
 
-export type NotificationKind = 'proposal.ready' | 'proposal.decided' | 'proposal.approved' | 'proposal.returned' | 'proposal.superseded';
+export type NotificationKind = 'proposal.ready' | 'proposal.decided' | 'proposal.approved' | 'proposal.returned' | 'proposal.superseded' | 'proposal.commented';
 
 /** What every message says about the proposal. */
 export interface ProposalFacts {
@@ -46,7 +46,11 @@ export type MessageFacts =
       decision: DecisionFacts;
       /** A sign-off: the SPICE verification job it relied on (null: none about the design), and whether that job simulated another design. */
       verification?: { jobId: number | null; staleAccepted: boolean };
+      /** A send-back: the comment threads still open, each with its anchor in words. */
+      openComments?: { id: number; anchor: string; author: string; body: string }[];
     })
+  /** A comment or reply on the proposal: who wrote it, where it hangs (in words), the text. */
+  | (ProposalFacts & { kind: 'proposal.commented'; commentedBy: string; anchor: string; reply: boolean; body: string })
   /** The facts of the newer proposal, and the older ones it closed. */
   | (ProposalFacts & { kind: 'proposal.superseded'; rankedBy: string; closed: { proposalId: number; specVersion: number; link: string }[] });
 
@@ -89,6 +93,15 @@ function verificationLine(verification: { jobId: number | null; staleAccepted: b
   return [`SPICE verification relied on: job #${verification.jobId}, which simulated exactly this design.`];
 }
 
+/** A send-back's open comment threads: each one's anchor, author and text, indented. */
+function openCommentLines(open: { id: number; anchor: string; author: string; body: string }[] | undefined): string[] {
+  if (!open || open.length === 0) return [];
+  return [
+    `Open comments (${open.length}):`,
+    ...open.flatMap((c) => [`  #${c.id} on ${singleLine(c.anchor)}, by ${singleLine(c.author)}:`, ...commentLines(c.body, '    ')]),
+  ];
+}
+
 /** How a message's project and spec lines start (a digest lists them under each entry). */
 const PROJECT_LABEL = 'Project: ';
 const SPEC_LABEL = 'Spec: ';
@@ -101,6 +114,7 @@ const quoted = (label: string, text: string | null) => (text ? [`${label}:`, ...
 function plainFacts(facts: MessageFacts): MessageFacts {
   const common = { ...facts, projectName: singleLine(facts.projectName), specTitle: singleLine(facts.specTitle) };
   if (common.kind === 'proposal.ready' || common.kind === 'proposal.superseded') return { ...common, rankedBy: singleLine(common.rankedBy) };
+  if (common.kind === 'proposal.commented') return { ...common, commentedBy: singleLine(common.commentedBy), anchor: singleLine(common.anchor) };
   const decision = { ...common.decision, decidedBy: singleLine(common.decision.decidedBy) };
   if (common.kind === 'proposal.decided') return { ...common, decision };
   return { ...common, decision, reviewedBy: singleLine(common.reviewedBy) };
@@ -171,8 +185,21 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
         projectLine(facts),
         specLine(facts),
         ...quoted('Review comment', facts.comment),
+        ...openCommentLines(facts.openComments),
         '',
         `The review and the proposal: ${facts.link}`,
+      ];
+      break;
+    case 'proposal.commented':
+      subject = `Proposal #${facts.proposalId}: a new ${facts.reply ? 'reply' : 'comment'} (${spec})`;
+      body = [
+        `${facts.commentedBy} ${facts.reply ? 'replied to a comment on' : 'commented on'} ${facts.anchor} in ${name}.`,
+        '',
+        projectLine(facts),
+        specLine(facts),
+        ...quoted(facts.reply ? 'Reply' : 'Comment', facts.body),
+        '',
+        `Read the thread, reply or resolve it: ${facts.link}`,
       ];
       break;
     case 'proposal.superseded': {

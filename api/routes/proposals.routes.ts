@@ -1,4 +1,4 @@
-/** One proposal: read it, check own values, decide, review, withdraw, its audit trail, and its exports (CSV, JSON, SPICE netlist). */
+/** One proposal: read it, check own values, decide, review, withdraw, its comment threads, its audit trail, and its exports (CSV, JSON, SPICE netlist). */
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import type { RuleSet } from '#shared/engine/types';
@@ -7,7 +7,8 @@ import { currentUser, requirePermission, requireSignIn } from '../auth/require';
 import { invalid } from '../errors';
 import { decide, evaluateOverride, getProposal, proposalAudit, review, withdraw } from '../services/proposals.service';
 import { proposalExport, proposalNetlist, proposalRankingCsv } from '../services/proposal-exports.service';
-import { DECISION_BODY, EVALUATION_BODY, MONTE_CARLO_BODY, NETLIST_QUERY, REVIEW_BODY, WITHDRAWAL_BODY } from '../validation/bodies';
+import { COMMENT_BODY, DECISION_BODY, EVALUATION_BODY, MONTE_CARLO_BODY, NETLIST_QUERY, REPLY_BODY, REVIEW_BODY, THREAD_STATE_BODY, WITHDRAWAL_BODY } from '../validation/bodies';
+import { listComments, postComment, replyToComment, setThreadState } from '../services/comments.service';
 import { requestMonteCarlo, requestVerification, verificationStatus, withdrawJob } from '../services/verification.service';
 import type { VerificationQueue } from '../verification/verification-queue';
 import { idParam, validateBody, validateQuery } from '../validation/validate-request';
@@ -63,6 +64,18 @@ export function proposalsRoutes(dataSource: DataSource, ruleSet: RuleSet, verifi
     const job = await withdrawJob(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), idParam(req.params.jobId, 'verification-job'));
     verification.withdrawn(job.id);
     res.json(job);
+  });
+  router.get('/:id/comments', async (req, res) => {
+    res.json({ items: await listComments(dataSource, currentUser(req), idParam(req.params.id, 'proposal')) });
+  });
+  router.post('/:id/comments', requirePermission('proposals:comment'), validateBody(COMMENT_BODY), async (req, res) => {
+    res.status(201).json(await postComment(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), req.body));
+  });
+  router.post('/:id/comments/:commentId/replies', requirePermission('proposals:comment'), validateBody(REPLY_BODY), async (req, res) => {
+    res.status(201).json(await replyToComment(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), idParam(req.params.commentId, 'comment'), req.body));
+  });
+  router.patch('/:id/comments/:commentId', requirePermission('proposals:comment'), validateBody(THREAD_STATE_BODY), async (req, res) => {
+    res.json(await setThreadState(dataSource, currentUser(req), idParam(req.params.id, 'proposal'), idParam(req.params.commentId, 'comment'), req.body));
   });
   router.get('/:id/audit', async (req, res) => {
     res.json({ items: await proposalAudit(dataSource, currentUser(req), idParam(req.params.id, 'proposal')) });

@@ -12,7 +12,8 @@
  * - a review: the spec's author (and the author of the ranked version, when another person)
  *   and the designer whose decision was reviewed ("approved" / "returned");
  * - older rankings closed as superseded by a newer one: the project's designers, whoever asked
- *   for a closed ranking and the designer of a closed one's last decision, in one digest each.
+ *   for a closed ranking and the designer of a closed one's last decision, in one digest each;
+ * - a comment or reply: the designer of the proposal's latest decision (none before a decision).
  */
 import { In, MoreThan, type DataSource, type EntityManager } from 'typeorm';
 import { DecisionEntity, type Decision } from '../entities/decision.entity';
@@ -26,6 +27,9 @@ import { SpecVersionEntity } from '../entities/spec-version.entity';
 import { SpecEntity } from '../entities/spec.entity';
 import { UserEntity, type User } from '../entities/user.entity';
 import type { Mailbox } from '#shared/mail/types';
+import { ProposalCommentEntity } from '../entities/proposal-comment.entity';
+import { anchorWords } from '#shared/workflow/comments';
+import { anchorOf, openThreadSummaries } from './comments.service';
 import { composeMessage, DIGEST_AFTER, DIGEST_WINDOW_MS, type DecisionFacts, type MessageFacts, type NotificationKind, type ProposalFacts } from '../mail/compose';
 
 export type NotificationEvent =
@@ -33,7 +37,9 @@ export type NotificationEvent =
   | { kind: 'proposal.decided'; proposalId: number; decisionId: number; actorId: number }
   | { kind: 'proposal.approved' | 'proposal.returned'; proposalId: number; reviewId: number; actorId: number }
   /** `proposalId` is the newer proposal; `closedIds` the older ones it superseded. */
-  | { kind: 'proposal.superseded'; proposalId: number; closedIds: number[]; actorId: number };
+  | { kind: 'proposal.superseded'; proposalId: number; closedIds: number[]; actorId: number }
+  /** A comment or reply: the latest decision's designer is told. */
+  | { kind: 'proposal.commented'; proposalId: number; commentId: number; actorId: number };
 
 export interface NotificationSettings {
   /** Where links in messages point (the app's public address, no trailing slash). */
@@ -149,6 +155,11 @@ export async function queueNotification(manager: EntityManager, event: Notificat
     for (const c of closed) tell(c.createdById, `you asked for proposal #${c.id}`);
     const decisions = await manager.getRepository(DecisionEntity).find({ select: { id: true, proposalId: true, decidedById: true }, where: { proposalId: In(event.closedIds) }, order: { id: 'ASC' } });
     for (const d of decisions) tell(d.decidedById, `you decided proposal #${d.proposalId}`);
+  } else if (event.kind === 'proposal.commented') {
+    const comment = await manager.getRepository(ProposalCommentEntity).findOneByOrFail({ id: event.commentId });
+    const decision = await manager.getRepository(DecisionEntity).findOne({ select: { id: true, decidedById: true }, where: { proposalId: proposal.id }, order: { id: 'DESC' } });
+    facts = { ...base, kind: event.kind, commentedBy: nameOf(comment.authorId), anchor: anchorWords(anchorOf(comment)), reply: comment.parentId !== null, body: quote(comment.body) ?? '' };
+    if (decision) tell(decision.decidedById, 'you made the latest decision on this proposal');
   } else {
     const review = await manager.getRepository(ReviewEntity).findOneByOrFail({ id: event.reviewId });
     const decision = await manager.getRepository(DecisionEntity).findOneByOrFail({ id: review.decisionId });
@@ -159,6 +170,7 @@ export async function queueNotification(manager: EntityManager, event: Notificat
       comment: quote(review.comment),
       decision: decisionFacts(decision, proposal.recommendedTopology, nameOf(decision.decidedById)),
       ...(review.verdict === 'approve' ? { verification: { jobId: review.verificationJobId ?? null, staleAccepted: Boolean(review.staleVerificationAccepted) } } : {}),
+      ...(review.verdict === 'return' ? { openComments: (await openThreadSummaries(manager, proposal.id)).map((c) => ({ ...c, body: quote(c.body) ?? '' })) } : {}),
     };
     tell(spec.createdById, `you wrote the spec "${spec.title}"`);
     if (version.createdById !== spec.createdById) tell(version.createdById, `you wrote version ${version.version} of the spec`);

@@ -26,6 +26,7 @@ import { designVerificationState } from './design-verification';
 import { currentDesignName, currentDesignSummary } from '#shared/workflow/current-design';
 import { topologyName } from '#shared/engine/topologies';
 import { queueNotification } from './notifications.service';
+import { openThreadSummaries } from './comments.service';
 import { projectFor } from './projects.service';
 import { indexRecords } from './search-index.service';
 import { specMovedOn, supersedeOlderRankings } from './spec-lifecycle.service';
@@ -420,6 +421,8 @@ export async function review(dataSource: DataSource, actor: Viewer, proposalId: 
       }
       verificationJobId = verification.jobId;
     }
+    // A send-back records the comment threads still open, so the record says what was left to answer.
+    const openComments = input.verdict === 'return' ? (await openThreadSummaries(manager, proposalId)).map((c) => c.id) : [];
     const saved: Review = await manager.getRepository(ReviewEntity).save({
       proposalId,
       decisionId: decision.id,
@@ -446,7 +449,7 @@ export async function review(dataSource: DataSource, actor: Viewer, proposalId: 
         to: status,
         topology: decision.topology,
         ownValues: decision.kind === 'override',
-        ...(input.verdict === 'approve' ? { verificationJobId, staleVerificationAccepted } : {}),
+        ...(input.verdict === 'approve' ? { verificationJobId, staleVerificationAccepted } : { openComments }),
       },
     });
     await queueNotification(manager, { kind: input.verdict === 'approve' ? 'proposal.approved' : 'proposal.returned', proposalId, reviewId: saved.id, actorId: actor.id });

@@ -30,6 +30,8 @@ import type { MonteCarloInput } from '#shared/api/verification';
 import type { WaitingQuery } from '#shared/api/waiting';
 import type { ActivityFilter, ActivityQuery } from '#shared/api/activity';
 import { SEARCH_KINDS, SEARCH_QUERY_MAX_LENGTH, type SearchQuery } from '#shared/api/search';
+import type { CommentInput, ReplyInput, ThreadStateInput } from '#shared/api/comments';
+import { COMMENT_ANCHOR_KINDS, COMMENT_FIGURE_KEYS, COMMENT_MAX_LENGTH } from '#shared/workflow/comments';
 import { wire, type Defaulted } from './wire-schema';
 
 const email = { type: 'string', minLength: 3, maxLength: 254, pattern: PLAIN_EMAIL_PATTERN } as const;
@@ -186,3 +188,25 @@ export const IMPORT_QUERY = wire<Partial<ImportQuery>>()({ dryRun: { enum: ['tru
 
 /** GET /api/projects/:id/proposals.csv?ids=12,13,14: the ids' form is checked by the route (the value arrives as text). */
 export const BATCH_CSV_QUERY = wire<{ ids: unknown }>()({ ids: {} }, ['ids']);
+
+/** A comment's or reply's text: multi-line plain text, not empty, at most COMMENT_MAX_LENGTH characters (blank is refused by the service). */
+const commentBody = { type: 'string', minLength: 1, maxLength: COMMENT_MAX_LENGTH, pattern: PLAIN_LINES_PATTERN } as const;
+
+/** POST /api/proposals/:id/comments: a new thread on one anchor (the service checks the anchor's fields belong to its kind and to the proposal). */
+export const COMMENT_BODY = wire<CommentInput>()(
+  {
+    anchorKind: { enum: [...COMMENT_ANCHOR_KINDS] },
+    topology: { enum: [...TOPOLOGIES] },
+    checkId: { type: 'string', minLength: 1, maxLength: 80, pattern: '^[a-z0-9][a-z0-9-]*$' },
+    figureKey: { enum: [...COMMENT_FIGURE_KEYS] },
+    jobId: { type: 'integer', minimum: 1 },
+    body: commentBody,
+  },
+  ['anchorKind', 'topology', 'body'],
+);
+
+/** POST /api/proposals/:id/comments/:commentId/replies. */
+export const REPLY_BODY = wire<ReplyInput>()({ body: commentBody }, ['body']);
+
+/** PATCH /api/proposals/:id/comments/:commentId: resolve or reopen the thread. */
+export const THREAD_STATE_BODY = wire<ThreadStateInput>()({ resolved: { type: 'boolean' } }, ['resolved']);

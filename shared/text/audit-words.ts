@@ -10,6 +10,7 @@ import { topologyName } from '../engine/topologies';
 import { formatDb } from '../units/figures';
 import { formatQuantity } from '../units/format-quantity';
 import type { ProposalState } from '../workflow/proposal-states';
+import { anchorOfDetails, anchorWords } from '../workflow/comments';
 
 export type { EventRecords };
 
@@ -95,11 +96,13 @@ export function describeEvent(event: AuditEvent, context: EventContext = {}): Ev
           : details.staleVerificationAccepted === true
             ? `Relied on SPICE job #${jobId}, which simulated another design; accepted in the comment.`
             : `Relied on SPICE job #${jobId}, which simulated exactly this design.`;
+      const open = Array.isArray(details.openComments) ? details.openComments.filter((id): id is number => typeof id === 'number') : [];
+      const openNote = open.length > 0 ? `Comments still open when sent back: ${open.map((id) => `#${id}`).join(', ')}.` : undefined;
       return {
         what: approved ? `signed off the decided design${topology}` : `sent the decided design${topology} back for rework`,
         quote: review?.comment ? { label: 'Comment', text: review.comment } : undefined,
         // Reviews recorded before sign-offs kept their verification say nothing about it.
-        note: approved && 'verificationJobId' in details ? note : undefined,
+        note: approved && 'verificationJobId' in details ? note : openNote,
         ...transition,
       };
     }
@@ -110,6 +113,22 @@ export function describeEvent(event: AuditEvent, context: EventContext = {}): Ev
     }
     case 'proposal.withdrawn':
       return { what: 'withdrew this ranking', quote: typeof details.reason === 'string' ? { label: 'Reason', text: details.reason } : undefined, ...transition };
+    case 'proposal.commented':
+    case 'proposal.comment-replied':
+    case 'proposal.comment-resolved':
+    case 'proposal.comment-reopened': {
+      const anchor = anchorOfDetails(details);
+      const where = anchor ? anchorWords(anchor) : 'an option';
+      const thread = typeof details.threadId === 'number' ? ` #${details.threadId}` : '';
+      const body = asText(details.body);
+      const words: Record<string, string> = {
+        'proposal.commented': `commented (thread${thread}) on ${where}`,
+        'proposal.comment-replied': `replied to comment${thread} on ${where}`,
+        'proposal.comment-resolved': `resolved comment${thread} on ${where}`,
+        'proposal.comment-reopened': `reopened comment${thread} on ${where}`,
+      };
+      return { what: words[event.action]!, quote: body ? { label: event.action === 'proposal.comment-replied' ? 'Reply' : 'Comment', text: body } : undefined };
+    }
     case 'proposal.verification-requested':
       return { what: 'asked for a SPICE check of every option' };
     case 'proposal.verification-withdrawn': {

@@ -3,7 +3,7 @@
  * filters by. Pure data, read by the server's query and the app's filter.
  */
 
-export const ACTIVITY_KINDS = ['specs', 'rankings', 'decisions', 'reviews', 'spice', 'bench'] as const;
+export const ACTIVITY_KINDS = ['specs', 'rankings', 'decisions', 'reviews', 'comments', 'spice', 'bench'] as const;
 export type ActivityKind = (typeof ACTIVITY_KINDS)[number];
 
 /** The audit actions of each kind (api/services write them with recordEvent). */
@@ -12,6 +12,7 @@ export const ACTIVITY_ACTIONS: Record<ActivityKind, readonly string[]> = {
   rankings: ['proposal.ranked', 'proposal.superseded', 'proposal.withdrawn'],
   decisions: ['proposal.decided'],
   reviews: ['proposal.approved', 'proposal.returned'],
+  comments: ['proposal.commented', 'proposal.comment-replied', 'proposal.comment-resolved', 'proposal.comment-reopened'],
   spice: ['proposal.verification-requested', 'proposal.monte-carlo-requested', 'proposal.verification-withdrawn'],
   bench: ['measurement.uploaded'],
 };
@@ -22,6 +23,7 @@ export const ACTIVITY_KIND_WORDS: Record<ActivityKind, string> = {
   rankings: 'Rankings asked for and closed',
   decisions: 'Decisions',
   reviews: 'Sign-offs and send-backs',
+  comments: 'Comments',
   spice: 'SPICE checks',
   bench: 'Bench measurements',
 };

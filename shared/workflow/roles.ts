@@ -41,6 +41,7 @@ export type Action =
   | 'proposals:review'
   | 'proposals:verify'
   | 'proposals:withdraw'
+  | 'proposals:comment'
   | 'devices:write'
   | 'measurements:write'
   | 'mail:read';
@@ -59,6 +60,8 @@ export const PERMISSIONS: Record<Action, readonly Role[]> = {
   'proposals:verify': ['designer', 'reviewer'],
   /** Withdraw an open proposal with a reason: a designer, or the person who asked for it (the service checks authorship). */
   'proposals:withdraw': ['requirements', 'designer'],
+  /** Comment on a check, a figure or a SPICE result of an option, reply, resolve and reopen threads (reading needs only project access). */
+  'proposals:comment': ['designer', 'reviewer'],
   /** Upload SPICE .model cards to a project's device library (reading it needs only project access). */
   'devices:write': ['requirements', 'designer'],
   /** Upload bench measurements of a decided design (bench engineers are designers here; reading needs only project access). */

@@ -17,6 +17,9 @@ import { VerificationJobEntity } from '../../api/entities/verification-job.entit
 import { uploadMeasurement } from '../../api/services/measurements.service';
 import { addMember } from '../../api/services/projects.service';
 import { decide, review } from '../../api/services/proposals.service';
+import { postComment } from '../../api/services/comments.service';
+import { ProposalCommentEntity } from '../../api/entities/proposal-comment.entity';
+import type { CommentInput } from '#shared/api/comments';
 import { updateSpec } from '../../api/services/specs.service';
 import type { PublicUser } from '../../api/services/users.service';
 import type { Action } from '#shared/workflow/roles';
@@ -71,6 +74,9 @@ export interface Ids {
   /** a Monte Carlo job asked for by the second designer on {ranked}, and one on {otherProposal}: each withdraw cell finds it waiting or simulating */
   withdrawableJob: number;
   otherWithdrawableJob: number;
+  /** a comment thread on {ranked} by the reviewer, and one on {otherProposal} by the second designer (reopened before each resolve cell) */
+  comment: number;
+  otherComment: number;
 }
 
 export interface Row {
@@ -142,6 +148,12 @@ const rearmJob = (key: 'withdrawableJob' | 'otherWithdrawableJob') => async (api
     .getRepository(VerificationJobEntity)
     .update({ id: ids[key], state: In(['withdrawn', 'finished', 'stopped', 'failed']) }, { state: 'waiting', message: null, finishedAt: null, claimToken: null, step: null });
 };
+/** The resolve cells each find the thread open (idempotent). */
+const reopenComment = (key: 'comment' | 'otherComment') => async (api: TestApi, ids: Ids) => {
+  await api.dataSource.getRepository(ProposalCommentEntity).update({ id: ids[key] }, { resolvedAt: null, resolvedById: null });
+};
+/** A comment on the rejection figure of the first ranked option (the same each time). */
+const matrixComment = () => ({ anchorKind: 'figure', topology: 'simple-mirror', figureKey: 'rejection', body: 'Matrix: is this corner the governing one?' });
 const unrevokeToken = async (api: TestApi, ids: Ids) => {
   await api.dataSource.getRepository(ApiTokenEntity).update({ id: ids.designerToken }, { revokedAt: null });
 };
@@ -400,6 +412,40 @@ export const MATRIX: Row[] = [
     expected: [401, 200, 404, 404, 404],
   },
   { route: 'GET /api/proposals/:id/audit', url: '/api/proposals/{otherProposal}/audit', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'GET /api/proposals/:id/comments', url: '/api/proposals/{ranked}/comments', rule: 'signed-in', expected: [401, 200, 200, 200, 200] },
+  { route: 'GET /api/proposals/:id/comments', url: '/api/proposals/{otherProposal}/comments', rule: 'signed-in', expected: [401, 200, 404, 404, 404] },
+  { route: 'POST /api/proposals/:id/comments', url: '/api/proposals/{ranked}/comments', rule: 'proposals:comment', body: matrixComment, expected: [401, 403, 403, 201, 201] },
+  { route: 'POST /api/proposals/:id/comments', url: '/api/proposals/{otherProposal}/comments', rule: 'proposals:comment', body: matrixComment, expected: [401, 403, 403, 404, 404] },
+  {
+    route: 'POST /api/proposals/:id/comments/:commentId/replies',
+    url: '/api/proposals/{ranked}/comments/{comment}/replies',
+    rule: 'proposals:comment',
+    body: () => ({ body: 'Matrix reply.' }),
+    expected: [401, 403, 403, 201, 201],
+  },
+  {
+    route: 'POST /api/proposals/:id/comments/:commentId/replies',
+    url: '/api/proposals/{otherProposal}/comments/{otherComment}/replies',
+    rule: 'proposals:comment',
+    body: () => ({ body: 'Matrix reply.' }),
+    expected: [401, 403, 403, 404, 404],
+  },
+  {
+    route: 'PATCH /api/proposals/:id/comments/:commentId',
+    url: '/api/proposals/{ranked}/comments/{comment}',
+    rule: 'proposals:comment',
+    arrange: reopenComment('comment'),
+    body: () => ({ resolved: true }),
+    expected: [401, 403, 403, 200, 200],
+  },
+  {
+    route: 'PATCH /api/proposals/:id/comments/:commentId',
+    url: '/api/proposals/{otherProposal}/comments/{otherComment}',
+    rule: 'proposals:comment',
+    arrange: reopenComment('otherComment'),
+    body: () => ({ resolved: true }),
+    expected: [401, 403, 403, 404, 404],
+  },
 
   // Stateless what-if.
   { route: 'POST /api/analyze', url: '/api/analyze', rule: 'signed-in', body: () => ANALYZE_DESIGN, expected: [401, 200, 200, 200, 200] },
@@ -455,6 +501,8 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
   const job = await withdrawableJob(api, ranked.id);
   const otherJob = await withdrawableJob(api, otherProposal.id);
   const designerToken = await createApiToken(dataSource, users.designer.id, { name: 'matrix designer script' });
+  const comment = await postComment(dataSource, users.reviewer, ranked.id, matrixComment() as CommentInput);
+  const otherComment = await postComment(dataSource, users.designer2, otherProposal.id, matrixComment() as CommentInput);
 
   return {
     project: project.id,
@@ -478,6 +526,8 @@ export async function arrangeMatrix(api: TestApi): Promise<Ids> {
     withdrawableJob: job.id,
     otherWithdrawableJob: otherJob.id,
     designerToken: designerToken.id,
+    comment: comment.id,
+    otherComment: otherComment.id,
   };
 }
 
