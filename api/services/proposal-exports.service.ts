@@ -1,7 +1,7 @@
 /**
  * What a proposal is exported as: a SPICE netlist of an option or of the decided design, its
- * ranking as CSV, and the whole record as JSON (the proposal, its verification, measurements and
- * audit trail). Composed here from the services that own each part; the routes only send them.
+ * ranking as CSV, and the whole record as JSON (the proposal, its verification, measurements,
+ * comment threads and audit trail). Composed here from the services that own each part; the routes only send them.
  */
 import type { DataSource } from 'typeorm';
 import { ESTIMATE_NOTICE } from '#shared/engine/index';
@@ -16,6 +16,7 @@ import { allMeasurements } from './measurements.service';
 import { getProposal, proposalAudit } from './proposals.service';
 import type { PublicUser } from './users.service';
 import { verificationStatus } from './verification.service';
+import { listComments } from './comments.service';
 
 type Viewer = Pick<PublicUser, 'id' | 'role'>;
 
@@ -68,11 +69,15 @@ export async function proposalRankingCsv(dataSource: DataSource, viewer: Viewer,
 
 /** The whole record of a proposal as one JSON document, with its file name. */
 export async function proposalExport(dataSource: DataSource, viewer: Viewer, proposalId: number) {
-  const [proposal, audit, verification, measurements] = await Promise.all([
+  const [proposal, audit, verification, measurements, comments] = await Promise.all([
     getProposal(dataSource, viewer, proposalId),
     proposalAudit(dataSource, viewer, proposalId),
     verificationStatus(dataSource, viewer, proposalId),
     allMeasurements(dataSource, viewer, proposalId),
+    listComments(dataSource, viewer, proposalId),
   ]);
-  return { fileName: `longtail-proposal-${proposal.id}.json`, document: { exportedAt: new Date().toISOString(), notice: ESTIMATE_NOTICE, proposal, verification, measurements, audit } };
+  return {
+    fileName: `longtail-proposal-${proposal.id}.json`,
+    document: { exportedAt: new Date().toISOString(), notice: ESTIMATE_NOTICE, proposal, verification, measurements, comments, audit },
+  };
 }

@@ -86,6 +86,12 @@ export const api = {
   review: (id: number) => `/api/proposals/${id}/review`,
   withdrawal: (id: number) => `/api/proposals/${id}/withdrawal`,
   audit: (id: number) => `/api/proposals/${id}/audit`,
+  /** GET: the proposal's comment threads; POST: a new thread on one anchor. */
+  comments: (id: number) => `/api/proposals/${id}/comments`,
+  /** PATCH `{ resolved }`: resolve or reopen a thread. */
+  commentThread: (id: number, threadId: number) => `/api/proposals/${id}/comments/${threadId}`,
+  /** POST: a reply to a thread. */
+  commentReplies: (id: number, threadId: number) => `/api/proposals/${id}/comments/${threadId}/replies`,
   rankingCsv: (id: number) => `/api/proposals/${id}/ranking.csv`,
   exportJson: (id: number) => `/api/proposals/${id}/export.json`,
   netlist: (id: number, topology: string, drive: 'differential' | 'common-mode' = 'differential') =>

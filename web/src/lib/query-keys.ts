@@ -32,6 +32,7 @@ export const proposalKeys = {
   all: ['proposals'] as const,
   detail: (id: number) => ['proposals', 'detail', id] as const,
   audit: (id: number) => ['proposals', 'detail', id, 'audit'] as const,
+  comments: (id: number) => ['proposals', 'detail', id, 'comments'] as const,
   people: (projectId: number) => ['proposals', 'people', projectId] as const,
 };
 

@@ -1,7 +1,7 @@
 /**
  * The review report of one proposal: one page meant to be printed or saved as PDF (print styles
  * in styles/app.css). Title block, cautions, the spec, the ranking, the chosen design, its
- * checks, the plots (static SVG, so they print), the SPICE verification, the bench measurements, the audit trail and the sources, with
+ * checks, the plots (static SVG, so they print), the SPICE verification, the bench measurements, the comment threads, the audit trail and the sources, with
  * the estimates notice.
  */
 import type { QueryClient } from '@tanstack/react-query';
@@ -30,6 +30,8 @@ import { ReportMeasurements } from '../features/proposals/components/report/repo
 import { MEASUREMENT_MAX_PAGE_SIZE, measurementsQuery } from '../features/measurements/api/measurement-queries';
 import { SpecTable } from '../features/specs/components/spec-table';
 import { reportSubject } from '../features/proposals/lib/report-subject';
+import { commentsQuery } from '../features/proposals/api/comment-queries';
+import { ReportComments } from '../features/proposals/components/report/report-comments';
 
 export const loader =
   (queryClient: QueryClient) =>
@@ -40,6 +42,7 @@ export const loader =
     // shows in its own section rather than stopping the report.
     await Promise.all([
       queryClient.prefetchQuery(proposalAuditQuery(proposalId)),
+      queryClient.prefetchQuery(commentsQuery(proposalId)),
       queryClient.prefetchQuery(reportVerificationQuery(proposalId)),
       queryClient.prefetchQuery(measurementsQuery(proposalId, 1, MEASUREMENT_MAX_PAGE_SIZE)),
       queryClient.prefetchQuery(projectQuery(proposal.projectId)),
@@ -55,6 +58,7 @@ export function Component() {
   const proposalId = Number(useParams().proposalId);
   const { data: proposal } = useSuspenseQuery(proposalQuery(proposalId));
   const audit = useQuery(proposalAuditQuery(proposalId));
+  const comments = useQuery(commentsQuery(proposalId));
   const verification = useQuery(reportVerificationQuery(proposalId));
   const measurements = useQuery(measurementsQuery(proposalId, 1, MEASUREMENT_MAX_PAGE_SIZE));
   const project = useQuery(projectQuery(proposal.projectId));
@@ -106,6 +110,9 @@ export function Component() {
       </ReportSection>
       <ReportSection id="report-measurements" number={next()} title="Bench measurements">
         <ReportMeasurements items={measurements.data ? [...measurements.data.items].reverse() : undefined} error={measurements.error} />
+      </ReportSection>
+      <ReportSection id="report-comments" number={next()} title="Comments">
+        <ReportComments proposal={proposal} threads={comments.data?.items} error={comments.error} />
       </ReportSection>
       <ReportSection id="report-audit" number={next()} title="Audit trail">
         <ReportAudit proposal={proposal} events={audit.data?.items} error={audit.error} nameOf={nameOf} />

@@ -22,6 +22,8 @@ import { RouteError } from '../components/layout/route-error';
 import { proposalCurrentDesign } from '../features/proposals/lib/current-design';
 import { currentDesignName, currentDesignRole } from '#shared/workflow/current-design';
 import { formatDateTime } from '../lib/dates';
+import { CommentsProvider } from '../features/proposals/components/comments/comments-context';
+import { CommentsSheet } from '../features/proposals/components/comments/comments-sheet';
 
 /** The ranking page; its loader is in ./proposal-loader.ts, which the router keeps in the entry chunk. */
 export function Component() {
@@ -31,7 +33,7 @@ export function Component() {
   if (!user) return null;
   const current = proposalCurrentDesign(proposal);
   return (
-    <>
+    <CommentsProvider proposal={proposal} user={user}>
       <PageHeader
         eyebrow={
           <Link to={paths.spec.href(proposal.specId)} className="hover:underline">
@@ -76,10 +78,13 @@ export function Component() {
           <div id="review" className="scroll-mt-4">
             <ReviewPanel proposal={proposal} user={user} />
           </div>
+          <div id="comments" className="scroll-mt-4">
+            <CommentsSheet />
+          </div>
           <AuditTimeline proposalId={proposal.id} />
         </AfterFirstPaint>
       </div>
-    </>
+    </CommentsProvider>
   );
 }
 

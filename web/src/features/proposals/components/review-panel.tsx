@@ -11,6 +11,7 @@ import { DecisionSummary } from './decision/decision-summary';
 import { CheckList } from './review/check-list';
 import { PastReviews } from './review/past-reviews';
 import { ReviewForm } from './review/review-form';
+import { OpenCommentsNote } from './comments/comments-sheet';
 
 /** The reviewer's verdict on the latest decision: sign off, or send back for rework with a comment. */
 export function ReviewPanel({ proposal, user }: { proposal: Proposal; user: User }) {
@@ -31,6 +32,7 @@ export function ReviewPanel({ proposal, user }: { proposal: Proposal; user: User
           ) : (
             <p className="text-sm text-ink-soft">No checks were kept with this decision.</p>
           )}
+          <OpenCommentsNote />
           <ReviewForm option={option} mutation={mutation} verification={verification.data?.currentDesign ?? null} />
           {proposal.reviews.length > 0 && (
             <section aria-label="Earlier reviews">

@@ -3,12 +3,13 @@ import { checkVerdict, Verdict, type VerdictKind } from '../../../../components/
 import { formatMargin } from '#shared/units/figures';
 import { checkTitle } from '../../../../lib/checks';
 import { CHECK_ROW_STACK } from '../review/check-list';
+import { CommentMark } from '../comments/comments-context';
 
 /** Failures first, then undecided, advisory notes, holds, and the checks that do not apply. */
 const ORDER: Record<VerdictKind, number> = { short: 0, undecided: 1, note: 2, holds: 3, 'not-applicable': 4 };
 
 /** Every check of the option with its verdict, reason and signed margin. */
-export function ChecksTable({ checks }: { checks: Check[] }) {
+export function ChecksTable({ checks, topology }: { checks: Check[]; /** The option's topology: each row then offers comments on its check (on the proposal page). */ topology?: string }) {
   const ordered = checks.map((check) => ({ check, kind: checkVerdict(check) })).sort((a, b) => ORDER[a.kind] - ORDER[b.kind]);
   return (
     <div className="relative overflow-x-auto">
@@ -41,6 +42,7 @@ export function ChecksTable({ checks }: { checks: Check[] }) {
                 <span className="block text-xs text-ink-soft dark:text-night-ink-soft">
                   {check.severity} · <code className="font-mono whitespace-nowrap">{check.rule}</code>
                 </span>
+                {topology && <CommentMark anchor={{ kind: 'check', topology, checkId: check.rule }} className="mt-1" />}
               </th>
               <td role="cell" className={`py-1.5 pr-3 ${CHECK_ROW_STACK.reason}`}>
                 {check.reason}

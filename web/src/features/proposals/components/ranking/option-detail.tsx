@@ -61,7 +61,7 @@ export function OptionDetail({
         <EmptyState title="This option could not be sized">{option.error}</EmptyState>
       )}
       <Part title="Checks">
-        <ChecksTable checks={option.checks} />
+        <ChecksTable checks={option.checks} topology={option.topology} />
       </Part>
       {option.rejectionLimits && option.rejectionLimits.limits.length > 0 && (
         <Part title="What limits the rejection at the spec frequency">

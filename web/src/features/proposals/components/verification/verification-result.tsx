@@ -15,6 +15,7 @@ import { RejectionComparisonChart } from './plots/lazy-verification-charts';
 import { FreshnessLabel } from './freshness-label';
 import { proposalCurrentDesign, resultFreshness, type ShownDesign } from '../../lib/current-design';
 import { resultForDesign, type Freshness } from '#shared/verification/binding';
+import { CommentMark } from '../comments/comments-context';
 
 /** Which option the detail opens on: the result about the current design, else the first one listed. */
 function firstShown(options: OptionVerification[], current: ShownDesign | null): string | null {
@@ -34,7 +35,7 @@ export function VerificationResult({ job, result, proposal }: { job: Verificatio
       <JobFacts job={job} result={result} />
       <p className="text-sm">{verificationTally(result.options)}</p>
       <OverviewTable options={result.options} selectedKey={selectedKey} onSelect={setChosen} freshnessOf={freshnessOf} />
-      {selected && <OptionVerificationDetail key={verifiedOptionKey(selected)} option={selected} proposal={proposal} freshness={freshnessOf(selected)} />}
+      {selected && <OptionVerificationDetail key={verifiedOptionKey(selected)} option={selected} proposal={proposal} freshness={freshnessOf(selected)} jobId={job.id} />}
     </div>
   );
 }
@@ -151,7 +152,7 @@ function OverviewTable({
 }
 
 /** The selected option: ngspice's error, or its nominal figures, corners and rejection curve beside the engine's. */
-function OptionVerificationDetail({ option, proposal, freshness }: { option: OptionVerification; proposal: Proposal; freshness: Freshness | null }) {
+function OptionVerificationDetail({ option, proposal, freshness, jobId }: { option: OptionVerification; proposal: Proposal; freshness: Freshness | null; jobId: number }) {
   const name = verifiedOptionName(option);
   const verdict = optionVerdict(option);
   return (
@@ -159,6 +160,8 @@ function OptionVerificationDetail({ option, proposal, freshness }: { option: Opt
       <header className="flex flex-wrap items-center gap-x-3 gap-y-1">
         <h3 className="text-base font-medium">{name}</h3>
         <Verdict kind={verdict.kind} label={verdict.label} />
+        {/* Comments hang on a ranked option's result (the designer's own values are no option of the ranking). */}
+        {option.source === 'option' && <CommentMark anchor={{ kind: 'spice', topology: option.topology, jobId }} />}
         {freshness && <FreshnessLabel state={freshness} className="basis-full" />}
       </header>
       {option.outcome === 'error' ? (

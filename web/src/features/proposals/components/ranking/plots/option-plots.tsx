@@ -5,6 +5,7 @@ import { histogramSummary, temperatureSummary } from '../../../lib/plot-summarie
 import { topologyName } from '../../../../../lib/topology-names';
 import { HistogramChart, TemperatureChart } from './lazy-charts';
 import { PlotFigure } from '../../../../../components/charts/plot-figure';
+import { CommentMark } from '../../comments/comments-context';
 
 /** The selected option's Monte Carlo histogram (differential outputs) and its temperature sweep. */
 export function OptionPlots({ option }: { option: RecommendOption }) {
@@ -15,9 +16,12 @@ export function OptionPlots({ option }: { option: RecommendOption }) {
   return (
     <div className="grid gap-6 lg:grid-cols-2">
       {histogram && f ? (
-        <PlotFigure title="Monte Carlo rejection (pair and load mismatch)" summary={histogramSummary(name, histogram, f.requiredYieldPercent)}>
-          <HistogramChart plot={histogram} frequencyHz={f.cmrrFrequencyHz} />
-        </PlotFigure>
+        <div className="min-w-0">
+          <PlotFigure title="Monte Carlo rejection (pair and load mismatch)" summary={histogramSummary(name, histogram, f.requiredYieldPercent)}>
+            <HistogramChart plot={histogram} frequencyHz={f.cmrrFrequencyHz} />
+          </PlotFigure>
+          <CommentMark anchor={{ kind: 'figure', topology: option.topology, figureKey: 'monte-carlo' }} className="mt-1" />
+        </div>
       ) : (
         <figure className="min-w-0">
           <figcaption className="mb-2 text-sm font-medium">Monte Carlo rejection</figcaption>
@@ -29,9 +33,12 @@ export function OptionPlots({ option }: { option: RecommendOption }) {
         </figure>
       )}
       {temperature ? (
-        <PlotFigure title="Tail current and gain over temperature" summary={temperatureSummary(name, temperature)}>
-          <TemperatureChart plot={temperature} />
-        </PlotFigure>
+        <div className="min-w-0">
+          <PlotFigure title="Tail current and gain over temperature" summary={temperatureSummary(name, temperature)}>
+            <TemperatureChart plot={temperature} />
+          </PlotFigure>
+          <CommentMark anchor={{ kind: 'figure', topology: option.topology, figureKey: 'temperature' }} className="mt-1" />
+        </div>
       ) : null}
     </div>
   );
