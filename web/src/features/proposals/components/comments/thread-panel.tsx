@@ -282,7 +282,7 @@ function NewThread({ anchor }: { anchor: CommentAnchor }) {
     <form
       onSubmit={submit}
       className="space-y-1 border-t border-rule pt-3 dark:border-night-rule"
-      aria-label="New comment"
+      aria-label="Start a thread here"
     >
       <TextField label="New comment" value={body} onChange={setBody} />
       {post.error && <WriteError error={post.error} />}
