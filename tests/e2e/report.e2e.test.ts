@@ -3,7 +3,8 @@
  * dist/web by the e2e globalSetup, served in-process on a fresh SQLite file with the demo
  * organisation): the demo reviewer opens the biosignal project's proposal (an override the
  * reviewer returned; the spec marks the input patient-connected), follows "Review report" from
- * the proposal page, and finds every section with the caution; the page passes axe-core; it is
+ * the proposal page (after commenting on a check, replying and resolving the thread there), and
+ * finds every section with the caution and the comment thread; the page passes axe-core; it is
  * screenshotted on screen and with print media, and printed to PDF.
  *
  * Output (ignored by git): test-results/screenshots/report/report-screen.png and
@@ -23,7 +24,10 @@ import { signInAs } from './helpers/sign-in';
 
 /** The demo project whose proposal carries a caution (api/seed/demo-seed.ts, electrode-amplifier-input.json). */
 const PROJECT = 'Marram biosignal front end';
-const SECTIONS = ['Cautions', 'Requirement spec', 'Ranked options', 'Chosen design', 'Checks', 'SPICE verification', 'Bench measurements', 'Audit trail', 'Sources of the formulas'];
+const SECTIONS = ['Cautions', 'Requirement spec', 'Ranked options', 'Chosen design', 'Checks', 'SPICE verification', 'Bench measurements', 'Comments', 'Audit trail', 'Sources of the formulas'];
+/** The reviewer's comment on a check and the reply (invented). */
+const COMMENT = 'Is the patient-leakage margin taken at the hot corner?';
+const REPLY = 'Yes: 45 °C with the supply high.';
 
 const shotDir = join(screenshotDir, 'report');
 const pdfPath = join(repoRoot, 'test-results', 'report.pdf');
@@ -54,6 +58,21 @@ describe('the review report, printed', () => {
     await openFirstProposal(page, PROJECT);
     proposalId = Number(/\/proposals\/(\d+)$/.exec(page.url())?.[1]);
     await visible(page.getByRole('heading', { level: 1, name: `Proposal #${proposalId}` }));
+
+    // A comment on a check of the decided option, a reply, the thread resolved: the record the report prints.
+    await page.getByRole('button', { name: /^Comment on the check / }).first().click();
+    const panel = page.getByRole('dialog', { name: 'Comments' });
+    await panel.getByRole('textbox', { name: 'New comment' }).fill(COMMENT);
+    await panel.getByRole('button', { name: 'Post comment' }).click();
+    const thread = panel.getByRole('article', { name: /^Comment #\d+ by / });
+    await visible(thread.getByText(COMMENT));
+    await thread.getByRole('textbox', { name: 'Reply' }).fill(REPLY);
+    await thread.getByRole('button', { name: 'Reply' }).click();
+    await visible(thread.getByText(REPLY));
+    await thread.getByRole('button', { name: 'Resolve' }).click();
+    await visible(thread.getByText(/Resolved by/));
+    await page.keyboard.press('Escape');
+    await visible(page.getByRole('region', { name: 'Comments' }).getByText('0 open, 1 resolved.'));
 
     await page.getByRole('link', { name: 'Review report' }).click();
     await page.waitForURL(new RegExp(`/proposals/${proposalId}/report$`));
@@ -91,6 +110,13 @@ describe('the review report, printed', () => {
 
     // Nothing was verified in the demo (or the server has no verification route yet)
     await visible(page.getByRole('region', { name: /SPICE verification/ }).getByText('Not verified yet.'));
+
+    // The comment thread: its anchor, state, author, text and reply
+    const comments = page.getByRole('region', { name: /^\d+\s*Comments$/ });
+    await visible(comments.getByText(/^#\d+ on the check “.+” of the /));
+    await visible(comments.getByText(/Resolved by/));
+    await visible(comments.getByText(COMMENT));
+    await visible(comments.getByText(REPLY));
 
     // The audit trail, each time to the second
     const auditTimes = await page.getByRole('region', { name: /Audit trail/ }).locator('time').allTextContents();
