@@ -35,6 +35,14 @@ export function ThreadPanel({
   const headingId = useId();
   const heading = useRef<HTMLHeadingElement>(null);
   useEffect(() => heading.current?.focus(), []);
+  // Escape closes the panel wherever the focus is (a button disabled while it sends drops the focus to the page).
+  useEffect(() => {
+    const onKey = (event: KeyboardEvent) => {
+      if (event.key === "Escape" && !event.defaultPrevented) onClose();
+    };
+    document.addEventListener("keydown", onKey);
+    return () => document.removeEventListener("keydown", onKey);
+  }, [onClose]);
   if (!comments) return null;
   const { threads } = threadsOn(comments.threads, anchor);
   const where = threadAnchorWords(anchor, comments.proposal.result);
@@ -43,12 +51,6 @@ export function ThreadPanel({
       role="dialog"
       aria-modal="false"
       aria-labelledby={headingId}
-      onKeyDown={(event) => {
-        if (event.key === "Escape") {
-          event.stopPropagation();
-          onClose();
-        }
-      }}
       className="fixed inset-x-0 bottom-0 z-40 flex max-h-[85vh] flex-col rounded-t-lg border border-rule bg-sheet shadow-lg sm:inset-x-auto sm:top-0 sm:right-0 sm:bottom-0 sm:max-h-none sm:w-[28rem] sm:rounded-none sm:border-y-0 sm:border-r-0 dark:border-night-rule dark:bg-night-sheet print:hidden"
     >
       <header className="flex items-start justify-between gap-3 border-b border-rule p-4 dark:border-night-rule">
@@ -166,8 +168,10 @@ function Thread({ thread }: { thread: CommentThread }) {
             <Button
               variant="secondary"
               className="px-2.5 py-1"
-              disabled={state.isPending}
+              // aria-disabled rather than disabled while it sends, so the focus stays on the button.
+              aria-disabled={state.isPending}
               onClick={() =>
+                !state.isPending &&
                 state.mutate({
                   threadId: thread.id,
                   resolved: thread.resolvedAt === null,
