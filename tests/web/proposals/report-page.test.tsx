@@ -23,7 +23,28 @@ configure({ asyncUtilTimeout: 5000 });
 // The reader of these reports sits in Berlin (UTC+1 in March, CET, by the IANA time zone database).
 process.env.TZ = 'Europe/Berlin';
 
-const SECTION_HEADINGS = ['Cautions', 'Requirement spec', 'Ranked options', 'Chosen design', 'Checks', 'SPICE verification', 'Bench measurements', 'Audit trail', 'Sources of the formulas'];
+const SECTION_HEADINGS = ['Cautions', 'Requirement spec', 'Ranked options', 'Chosen design', 'Checks', 'SPICE verification', 'Bench measurements', 'Comments', 'Audit trail', 'Sources of the formulas'];
+
+/** One resolved thread on a check of the Wilson mirror, with a reply (invented). */
+const THREADS = {
+  items: [
+    {
+      id: 31,
+      proposalId: 2,
+      anchor: { kind: 'check', topology: 'wilson', checkId: rankedOptionOf('wilson').checks[0]!.rule },
+      specVersionId: 1,
+      specVersion: 1,
+      engineVersion: RANKING.engineVersion,
+      rulesetVersion: RANKING.rulesetVersion,
+      body: 'Which corner sets this margin?',
+      author: { id: REVIEWER.id, displayName: REVIEWER.displayName },
+      createdAt: '2026-03-02T10:40:00.000Z',
+      resolvedAt: '2026-03-02T11:05:00.000Z',
+      resolvedBy: { id: REVIEWER.id, displayName: REVIEWER.displayName },
+      replies: [{ id: 32, body: 'The hot one, supply low.', author: { id: DESIGNER.id, displayName: DESIGNER.displayName }, createdAt: '2026-03-02T10:50:00.000Z' }],
+    },
+  ],
+};
 
 const PATIENT_CAUTION = 'Caution: the input is patient-connected. Medical electrical equipment falls under IEC 60601-1, with its isolation and leakage-current limits.';
 const CHOOSE_REASON = 'The Wilson mirror keeps the tail current steadier over the 0–70 °C range on this board.';
@@ -118,6 +139,7 @@ function renderReport(proposal: Proposal, verification: { status?: number; body:
   fetchMock = mockFetch({
     'GET /api/proposals/2': () => ({ body: proposal }),
     'GET /api/proposals/2/audit': () => ({ body: AUDIT }),
+    'GET /api/proposals/2/comments': () => ({ body: THREADS }),
     'GET /api/proposals/2/verification': () => verification,
     'GET /api/proposals/2/measurements?page=1&pageSize=100': () => ({ body: { items: [], total: 0, page: 1, pageSize: 100 } }),
     'GET /api/projects/1': () => ({ body: PROJECT }),
@@ -188,6 +210,14 @@ describe('review report page', () => {
     expect(within(checks).getByRole('heading', { level: 3, name: 'Failed checks of the other options' })).toBeTruthy();
 
     expect(section('SPICE verification').textContent).toMatch(/Not verified yet/);
+
+    const comments = section('Comments');
+    const wilsonCheck = rankedOptionOf('wilson').checks[0]!;
+    expect(comments.textContent).toContain('1 thread: 0 open, 1 resolved.');
+    expect(comments.textContent).toContain(`#31 on the check “${wilsonCheck.title ?? wilsonCheck.rule}” of the Wilson mirror`);
+    expect(comments.textContent).toMatch(/Resolved by Samir Edelstein, 2 Mar 2026/);
+    expect(comments.textContent).toContain('Which corner sets this margin?');
+    expect(comments.textContent).toMatch(/Priya Valcourt, 2 Mar 2026.*:The hot one, supply low\./);
 
     const audit = section('Audit trail');
     const rows = within(audit).getAllByRole('row').slice(1);
