@@ -16,6 +16,7 @@ import { CheckMetadata1764900100000 } from './1764900100000-check-metadata';
 import { WaitingAndActivityIndexes1796000000000 } from './1796000000000-waiting-and-activity-indexes';
 import { SearchIndex1796100000000 } from './1796100000000-search-index';
 import { PersonalApiTokens1796200000000 } from './1796200000000-personal-api-tokens';
+import { NoticePreferences1796300000000 } from './1796300000000-notice-preferences';
 
 export const MIGRATIONS = [
   InitialSchema1764612000000,
@@ -35,4 +36,5 @@ export const MIGRATIONS = [
   WaitingAndActivityIndexes1796000000000,
   SearchIndex1796100000000,
   PersonalApiTokens1796200000000,
+  NoticePreferences1796300000000,
 ];
