@@ -120,21 +120,21 @@ const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one :
 const jobName = (job: VerificationJobFacts) => (job.kind === 'monte-carlo' ? `SPICE Monte Carlo #${job.id}` : `SPICE check #${job.id}`);
 
 /**
- * How a settled job came out: one sentence (the message's summary) and the lines under it. A
+ * How a settled job came out: the end of one sentence ("… finished: …", the message's summary) and the lines under it. A
  * whole-proposal check: how many options agree with the engine within the tolerances, differ or
  * could not be simulated, and each option's verdict; a Monte Carlo: the share of runs that meet
  * the required rejection; a failed job: why it could not run.
  */
 export function verificationOutcome(job: VerificationJobFacts): { sentence: string; lines: string[] } {
-  if (job.state === 'failed' || !job.result) return { sentence: 'it could not run, so nothing was simulated.', lines: [] };
+  if (job.state === 'failed' || !job.result) return { sentence: 'could not run, so nothing was simulated.', lines: [] };
   if ('options' in job.result) {
     const options = job.result.options;
     const errors = options.filter((o) => o.outcome === 'error').length;
     const agreeing = options.filter((o) => o.outcome === 'verified' && o.agrees).length;
     const differing = options.length - errors - agreeing;
-    const parts = [`${agreeing} agree with the engine within the tolerances`, ...(differing > 0 ? [`${differing} differ`] : []), ...(errors > 0 ? [`${errors} could not be simulated`] : [])];
+    const parts = [`${agreeing} ${agreeing === 1 ? 'agrees' : 'agree'} with the engine within the tolerances`, ...(differing > 0 ? [`${differing} ${differing === 1 ? 'differs' : 'differ'}`] : []), ...(errors > 0 ? [`${errors} could not be simulated`] : [])];
     return {
-      sentence: `it finished: ${plural(options.length, 'option', 'options')} simulated; ${parts.join(', ')}.`,
+      sentence: `finished: ${plural(options.length, 'option', 'options')} simulated; ${parts.join(', ')}.`,
       lines: options.map((o) => {
         const name = `${tail(o.topology)}${o.source === 'decision' ? ' (own values)' : ''}`;
         if (o.outcome === 'error') return `  ${name}: could not be simulated (${singleLine(o.error ?? 'no reason given')})`;
@@ -145,7 +145,7 @@ export function verificationOutcome(job: VerificationJobFacts): { sentence: stri
   const mc = job.result;
   const { yieldPercent, percentilesDb } = mc.simulated;
   return {
-    sentence: `it finished: ${yieldPercent.toFixed(1)} % of ${mc.runs} runs of the ${tail(mc.topology)} meet the required ${mc.requiredDb} dB rejection.`,
+    sentence: `finished: ${yieldPercent.toFixed(1)} % of ${mc.runs} runs of the ${tail(mc.topology)} meet the required ${mc.requiredDb} dB rejection.`,
     lines: [
       `  Condition simulated: ${singleLine(mc.condition)}`,
       `  Rejection over the runs: 5th percentile ${percentilesDb.p5.toFixed(1)} dB, median ${percentilesDb.p50.toFixed(1)} dB, 95th percentile ${percentilesDb.p95.toFixed(1)} dB`,
@@ -252,7 +252,7 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
       const outcome = verificationOutcome(facts.job);
       subject = `${jobName(facts.job)} ${facts.job.state === 'finished' ? 'finished' : 'could not run'} (proposal #${facts.proposalId}, ${spec})`;
       body = [
-        `The ${jobName(facts.job)} you asked for on ${name}: ${outcome.sentence}`,
+        `The ${jobName(facts.job)} you asked for on ${name} ${outcome.sentence}`,
         ...outcome.lines,
         ...(facts.job.state === 'failed' ? quoted('Why', facts.job.message) : []),
         '',
