@@ -60,7 +60,8 @@ describe('when a database from before notice preferences is opened', () => {
   });
 
   test('then reverting the migration drops the column and keeps the accounts', async () => {
-    await upgraded.undoLastMigration();
+    // The migrations after it first (the newest is undone first), then this one
+    for (let n = MIGRATIONS.length - MIGRATIONS.indexOf(NoticePreferences1796300000000); n > 0; n -= 1) await upgraded.undoLastMigration();
     const runner = upgraded.createQueryRunner();
     try {
       expect(await runner.hasColumn('user_account', 'notices_off')).toBe(false);
