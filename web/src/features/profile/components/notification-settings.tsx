@@ -44,7 +44,7 @@ export function NotificationSettings({ user }: { user: User }) {
           disabled={update.isPending}
           onChange={(event) => saveMaster(event.target.checked)}
           aria-describedby="notify-help"
-          className="mt-1 h-4 w-4 accent-fern"
+          className="mt-1 h-4 w-4 shrink-0 accent-fern"
         />
         <span>
           <span className="block font-medium">E-mail me about the workflow</span>
@@ -74,7 +74,7 @@ export function NotificationSettings({ user }: { user: User }) {
                     disabled={!on || update.isPending}
                     onChange={(event) => saveKind(notice.kind, event.target.checked)}
                     aria-describedby={helpId}
-                    className="mt-1 h-4 w-4 accent-fern"
+                    className="mt-1 h-4 w-4 shrink-0 accent-fern"
                   />
                   <span>
                     <span className="block text-sm font-medium">{notice.title}</span>
