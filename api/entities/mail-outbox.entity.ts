@@ -11,7 +11,7 @@ export type OutboxStatus = 'pending' | 'sent' | 'failed';
 export interface MailOutbox {
   id: number;
   createdAt: string;
-  /** What happened, e.g. "proposal.ready", "proposal.decided", "proposal.approved", "proposal.returned". */
+  /** What happened: a notice kind (shared/workflow/notices.ts, e.g. "proposal.ready", "verification.ended"), or "account.password-reset". */
   kind: string;
   projectId: number | null;
   proposalId: number | null;

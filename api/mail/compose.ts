@@ -1,7 +1,7 @@
 /**
  * The text of every notification, in one place: plain text, our own words. Each message names
- * the proposal, the spec title and version, the project, who did what and their reason or
- * comment, links to the proposal, and ends with the estimates notice. Subjects carry only our
+ * the proposal (or the spec), the spec title and version, the project, who did what and their
+ * reason or comment (or a SPICE check's outcome), links to the page, and ends with the estimates notice. Subjects carry only our
  * words and numbers: user text (titles, names, comments) stays in the body, never in a header.
  * A digest puts several messages to one person into one. Pure: no I/O.
  */
@@ -10,19 +10,36 @@ import { ESTIMATE_NOTICE } from '#shared/engine/version';
 import { commentLines, singleLine } from '#shared/text/plain-text';
 import type { DecisionKind } from '../entities/decision.entity';
 import { currentDesignName, currentDesignSummary } from '#shared/workflow/current-design';
+import type { NoticeKind } from '#shared/workflow/notices';
+import type { MonteCarloVerificationResult, ProposalVerificationResult, VerificationKind } from '#shared/verification/types';
 
-export type NotificationKind = 'proposal.ready' | 'proposal.decided' | 'proposal.approved' | 'proposal.returned' | 'proposal.superseded' | 'proposal.commented';
+/** The kinds of notice (their names, titles and descriptions: shared/workflow/notices.ts). */
+export type NotificationKind = NoticeKind;
 
-/** What every message says about the proposal. */
-export interface ProposalFacts {
-  proposalId: number;
+/** What every message says about the work it is about. */
+export interface WorkFacts {
   projectName: string;
   specTitle: string;
   specVersion: number;
-  /** The proposal's page. */
+  /** The page the message points to (the proposal's, or the spec's history). */
   link: string;
-  /** The profile page, where a person turns notifications off. */
+  /** The profile page, where a person turns notices off. */
   profileLink: string;
+}
+
+/** What every message about a proposal says. */
+export interface ProposalFacts extends WorkFacts {
+  proposalId: number;
+}
+
+/** A settled SPICE check or Monte Carlo as a notice tells it: what ran and how it ended. */
+export interface VerificationJobFacts {
+  id: number;
+  kind: VerificationKind;
+  state: 'finished' | 'failed';
+  /** Why it could not run (a failed job), in the queue's words. */
+  message: string | null;
+  result: ProposalVerificationResult | MonteCarloVerificationResult | null;
 }
 
 export interface DecisionFacts {
@@ -52,7 +69,11 @@ export type MessageFacts =
   /** A comment or reply on the proposal: who wrote it, where it hangs (in words), the text. */
   | (ProposalFacts & { kind: 'proposal.commented'; commentedBy: string; anchor: string; reply: boolean; body: string })
   /** The facts of the newer proposal, and the older ones it closed. */
-  | (ProposalFacts & { kind: 'proposal.superseded'; rankedBy: string; closed: { proposalId: number; specVersion: number; link: string }[] });
+  | (ProposalFacts & { kind: 'proposal.superseded'; rankedBy: string; closed: { proposalId: number; specVersion: number; link: string }[] })
+  /** A new version of a spec (`specVersion` is the new one): who saved it, their note, how many fields changed since the version before. */
+  | (WorkFacts & { kind: 'spec.new-version'; savedBy: string; note: string | null; changes: number })
+  /** A SPICE check or Monte Carlo settled: told to whoever asked for it. */
+  | (ProposalFacts & { kind: 'verification.ended'; job: VerificationJobFacts });
 
 export interface ComposedMessage {
   subject: string;
@@ -105,14 +126,54 @@ function openCommentLines(open: { id: number; anchor: string; author: string; bo
 /** How a message's project and spec lines start (a digest lists them under each entry). */
 const PROJECT_LABEL = 'Project: ';
 const SPEC_LABEL = 'Spec: ';
-const specLine = (facts: ProposalFacts) => `${SPEC_LABEL}"${facts.specTitle}", version ${facts.specVersion}`;
-const projectLine = (facts: ProposalFacts) => `${PROJECT_LABEL}${facts.projectName}`;
+const specLine = (facts: WorkFacts) => `${SPEC_LABEL}"${facts.specTitle}", version ${facts.specVersion}`;
+const projectLine = (facts: WorkFacts) => `${PROJECT_LABEL}${facts.projectName}`;
+
+const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+const jobName = (job: VerificationJobFacts) => (job.kind === 'monte-carlo' ? `SPICE Monte Carlo #${job.id}` : `SPICE check #${job.id}`);
+
+/**
+ * How a settled job came out: the end of one sentence ("… finished: …", the message's summary) and the lines under it. A
+ * whole-proposal check: how many options agree with the engine within the tolerances, differ or
+ * could not be simulated, and each option's verdict; a Monte Carlo: the share of runs that meet
+ * the required rejection; a failed job: why it could not run.
+ */
+export function verificationOutcome(job: VerificationJobFacts): { sentence: string; lines: string[] } {
+  if (job.state === 'failed' || !job.result) return { sentence: 'could not run, so nothing was simulated.', lines: [] };
+  if ('options' in job.result) {
+    const options = job.result.options;
+    const errors = options.filter((o) => o.outcome === 'error').length;
+    const agreeing = options.filter((o) => o.outcome === 'verified' && o.agrees).length;
+    const differing = options.length - errors - agreeing;
+    const parts = [`${agreeing} ${agreeing === 1 ? 'agrees' : 'agree'} with the engine within the tolerances`, ...(differing > 0 ? [`${differing} ${differing === 1 ? 'differs' : 'differ'}`] : []), ...(errors > 0 ? [`${errors} could not be simulated`] : [])];
+    return {
+      sentence: `finished: ${plural(options.length, 'option', 'options')} simulated; ${parts.join(', ')}.`,
+      lines: options.map((o) => {
+        const name = `${tail(o.topology)}${o.source === 'decision' ? ' (own values)' : ''}`;
+        if (o.outcome === 'error') return `  ${name}: could not be simulated (${singleLine(o.error ?? 'no reason given')})`;
+        return `  ${name}: ${o.agrees ? 'agrees within the tolerances' : `${plural(o.disagreements, 'figure', 'figures')} outside the tolerances`}`;
+      }),
+    };
+  }
+  const mc = job.result;
+  const { yieldPercent, percentilesDb } = mc.simulated;
+  return {
+    sentence: `finished: ${yieldPercent.toFixed(1)} % of ${mc.runs} runs of the ${tail(mc.topology)} meet the required ${mc.requiredDb} dB rejection.`,
+    lines: [
+      `  Condition simulated: ${singleLine(mc.condition)}`,
+      `  Rejection over the runs: 5th percentile ${percentilesDb.p5.toFixed(1)} dB, median ${percentilesDb.p50.toFixed(1)} dB, 95th percentile ${percentilesDb.p95.toFixed(1)} dB`,
+      ...(mc.failedRuns > 0 ? [`  ${plural(mc.failedRuns, 'run', 'runs')} did not converge and are left out`] : []),
+    ],
+  };
+}
 /** Multi-line user text (a reason, a comment): indented, one line each, control characters blanked. */
 const quoted = (label: string, text: string | null) => (text ? [`${label}:`, ...commentLines(text, '  ')] : []);
 
 /** The facts with every one-line user text (titles, names) on one line, control characters and bidi controls blanked. */
 function plainFacts(facts: MessageFacts): MessageFacts {
   const common = { ...facts, projectName: singleLine(facts.projectName), specTitle: singleLine(facts.specTitle) };
+  if (common.kind === 'verification.ended') return common;
+  if (common.kind === 'spec.new-version') return { ...common, savedBy: singleLine(common.savedBy) };
   if (common.kind === 'proposal.ready' || common.kind === 'proposal.superseded') return { ...common, rankedBy: singleLine(common.rankedBy) };
   if (common.kind === 'proposal.commented') return { ...common, commentedBy: singleLine(common.commentedBy), anchor: singleLine(common.anchor) };
   const decision = { ...common.decision, decidedBy: singleLine(common.decision.decidedBy) };
@@ -128,7 +189,7 @@ function plainFacts(facts: MessageFacts): MessageFacts {
 export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: string, because: string): ComposedMessage {
   const facts = plainFacts(unsafeFacts);
   const recipientName = singleLine(unsafeRecipientName);
-  const name = `proposal #${facts.proposalId}`;
+  const name = 'proposalId' in facts ? `proposal #${facts.proposalId}` : '';
   const spec = `spec version ${facts.specVersion}`;
   let subject: string;
   let body: string[];
@@ -202,6 +263,33 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
         `Read the thread, reply or resolve it: ${facts.link}`,
       ];
       break;
+    case 'spec.new-version':
+      subject = `New version ${facts.specVersion} of a spec you ranked`;
+      body = [
+        `${facts.savedBy} saved version ${facts.specVersion} of a spec you had ranked; ${plural(facts.changes, 'field differs', 'fields differ')} from version ${facts.specVersion - 1}.`,
+        '',
+        projectLine(facts),
+        specLine(facts),
+        ...quoted('Change note', facts.note),
+        '',
+        `What changed, and ranking the new version: ${facts.link}`,
+      ];
+      break;
+    case 'verification.ended': {
+      const outcome = verificationOutcome(facts.job);
+      subject = `${jobName(facts.job)} ${facts.job.state === 'finished' ? 'finished' : 'could not run'} (proposal #${facts.proposalId}, ${spec})`;
+      body = [
+        `The ${jobName(facts.job)} you asked for on ${name} ${outcome.sentence}`,
+        ...outcome.lines,
+        ...(facts.job.state === 'failed' ? quoted('Why', facts.job.message) : []),
+        '',
+        projectLine(facts),
+        specLine(facts),
+        '',
+        `${facts.job.state === 'finished' ? 'The figures beside the engine’s' : 'The proposal, to ask for it again'}: ${facts.link}`,
+      ];
+      break;
+    }
     case 'proposal.superseded': {
       const many = facts.closed.length > 1;
       subject = `${many ? `${facts.closed.length} proposals` : `Proposal #${facts.closed[0]?.proposalId}`} closed: the spec moved on to version ${facts.specVersion}`;
@@ -223,7 +311,7 @@ export function composeMessage(unsafeFacts: MessageFacts, unsafeRecipientName: s
     '',
     ...body,
     '',
-    `You get this e-mail because ${because}. Turn these e-mails off on your profile: ${facts.profileLink}`,
+    `You get this e-mail because ${because}. Turn this kind of e-mail (or all of them) off on your profile: ${facts.profileLink}`,
     '',
     ESTIMATE_NOTICE,
     '',

@@ -17,6 +17,7 @@ import { WaitingAndActivityIndexes1796000000000 } from './1796000000000-waiting-
 import { SearchIndex1796100000000 } from './1796100000000-search-index';
 import { PersonalApiTokens1796200000000 } from './1796200000000-personal-api-tokens';
 import { ProposalComments1796300000000 } from './1796300000000-proposal-comments';
+import { NoticePreferences1796400000000 } from './1796400000000-notice-preferences';
 
 export const MIGRATIONS = [
   InitialSchema1764612000000,
@@ -37,4 +38,5 @@ export const MIGRATIONS = [
   SearchIndex1796100000000,
   PersonalApiTokens1796200000000,
   ProposalComments1796300000000,
+  NoticePreferences1796400000000,
 ];

@@ -5,6 +5,7 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import type { Spec as SpecDocument } from '#shared/engine/types';
 import { diffJson } from '#shared/json-diff';
+import { queueNotification } from './notifications.service';
 import { validateSpec } from '#shared/validate';
 import type { Action } from '#shared/workflow/roles';
 import { SpecVersionEntity, type SpecVersion } from '../entities/spec-version.entity';
@@ -102,13 +103,15 @@ export async function insertSpec(manager: EntityManager, actor: Viewer, projectI
 
 /**
  * Inside the caller's transaction: the spec's next version (after `previous`, its latest), the
- * spec moved to it, and the `spec.version-created` event with the number of changed fields.
+ * spec moved to it, the `spec.version-created` event with the number of changed fields, and the
+ * notice to whoever ranked an earlier version.
  */
 export async function insertSpecVersion(manager: EntityManager, actor: Viewer, spec: Spec, previous: SpecVersion, title: string, document: SpecDocument, details: Record<string, unknown> = {}, note: string | null = null) {
   const now = new Date().toISOString();
   const number = spec.latestVersion + 1;
   const version = await manager.getRepository(SpecVersionEntity).save({ specId: spec.id, version: number, title, payload: document, note, createdById: actor.id, createdAt: now });
   await manager.getRepository(SpecEntity).update({ id: spec.id }, { latestVersion: number, title: version.title, updatedAt: now });
+  const changes = diffJson(previous.payload, document).length;
   await recordEvent(manager, {
     actorId: actor.id,
     action: 'spec.version-created',
@@ -117,9 +120,11 @@ export async function insertSpecVersion(manager: EntityManager, actor: Viewer, s
     projectId: spec.projectId,
     beforeId: previous.id,
     afterId: version.id,
-    details: { version: number, changes: diffJson(previous.payload, document).length, ...(note ? { note } : {}), ...details },
+    details: { version: number, changes, ...(note ? { note } : {}), ...details },
   });
   await indexRecords(manager, 'spec', [spec.id]);
+  // Whoever ranked an earlier version hears of the new one (spec.new-version), with this change.
+  await queueNotification(manager, { kind: 'spec.new-version', specVersionId: version.id, changes, actorId: actor.id });
   return { spec: { ...spec, title: version.title, latestVersion: number, updatedAt: now }, version };
 }
 

@@ -8,6 +8,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
 import { formatDateTime } from '#shared/text/dates';
 import type { NewUser, PasswordChanged, PasswordChangeInput, PasswordResetDone, PasswordResetInput, PasswordResetIssued, PreferencesInput, SessionUser, User as PublicUser, UserChanges } from '#shared/api/users';
+import { knownNoticesOff, type NoticeKind } from '#shared/workflow/notices';
 import type { ProjectRoleOf } from '#shared/workflow/roles';
 import { hashPassword, verifyPassword } from '../auth/password';
 import { sqlParameter } from '../data-source';
@@ -27,7 +28,7 @@ export type { PublicUser, SessionUser };
 
 export function publicUser(user: User | PublicUser): PublicUser {
   const { id, email, displayName, role, notify, createdAt } = user;
-  return { id, email, displayName, role, notify, createdAt, disabledAt: user.disabledAt ?? null };
+  return { id, email, displayName, role, notify, noticesOff: knownNoticesOff(user.noticesOff), createdAt, disabledAt: user.disabledAt ?? null };
 }
 
 export async function listUsers(dataSource: DataSource): Promise<PublicUser[]> {
@@ -52,6 +53,8 @@ interface SessionUserRow {
   display_name: string;
   role: User['role'];
   notify: boolean | number;
+  /** JSON text (raw SQL sees the column as stored). */
+  notices_off: string | null;
   created_at: string;
   disabled_at: string | null;
   project_id: number | null;
@@ -64,7 +67,7 @@ interface SessionUserRow {
  */
 export async function findSessionUser(dataSource: DataSource, id: number): Promise<SessionUser | null> {
   const rows: SessionUserRow[] = await dataSource.query(
-    `SELECT u.id, u.email, u.display_name, u.role, u.notify, u.created_at, u.disabled_at, m.project_id, m.role AS project_role
+    `SELECT u.id, u.email, u.display_name, u.role, u.notify, u.notices_off, u.created_at, u.disabled_at, m.project_id, m.role AS project_role
      FROM user_account u LEFT JOIN project_member m ON m.user_id = u.id
      WHERE u.id = ${sqlParameter(dataSource, 1)} ORDER BY m.project_id`,
     [id],
@@ -78,6 +81,7 @@ export async function findSessionUser(dataSource: DataSource, id: number): Promi
       displayName: first.display_name,
       role: first.role,
       notify: Boolean(first.notify),
+      noticesOff: storedNoticesOff(first.notices_off),
       createdAt: first.created_at,
       disabledAt: first.disabled_at,
     }),
@@ -125,17 +129,36 @@ export async function updateUser(dataSource: DataSource, actorId: number, id: nu
   });
 }
 
-/** A person's own preferences (today: e-mail notifications on or off); returns the account. */
+/** A stored `notices_off` text as the known kinds it lists (unreadable text: none off). */
+function storedNoticesOff(text: string | null): NoticeKind[] {
+  try {
+    const value: unknown = text ? JSON.parse(text) : [];
+    return knownNoticesOff(Array.isArray(value) ? value.filter((k): k is string => typeof k === 'string') : []);
+  } catch {
+    return [];
+  }
+}
+
+/**
+ * A person's own e-mail preferences: the master switch and / or the whole list of notice kinds
+ * turned off (shared/workflow/notices.ts); a change is recorded with what it became. Returns the account.
+ */
 export async function updatePreferences(dataSource: DataSource, userId: number, changes: PreferencesInput): Promise<PublicUser> {
   return dataSource.transaction(async (manager) => {
     const repository = manager.getRepository(UserEntity);
     const user = await repository.findOneBy({ id: userId });
     if (!user) throw notFound('user');
-    if (user.notify !== changes.notify) {
-      await repository.update({ id: userId }, { notify: changes.notify });
-      await recordEvent(manager, { actorId: userId, action: 'user.preferences-changed', entityType: 'user', entityId: userId, beforeId: userId, afterId: userId, details: { notify: changes.notify } });
+    const before = { notify: user.notify, noticesOff: knownNoticesOff(user.noticesOff) };
+    const after = { notify: changes.notify ?? before.notify, noticesOff: changes.noticesOff ? knownNoticesOff(changes.noticesOff) : before.noticesOff };
+    const changed: Partial<typeof after> = {
+      ...(after.notify !== before.notify ? { notify: after.notify } : {}),
+      ...(after.noticesOff.join() !== before.noticesOff.join() ? { noticesOff: after.noticesOff } : {}),
+    };
+    if (Object.keys(changed).length > 0) {
+      await repository.update({ id: userId }, changed);
+      await recordEvent(manager, { actorId: userId, action: 'user.preferences-changed', entityType: 'user', entityId: userId, beforeId: userId, afterId: userId, details: changed });
     }
-    return publicUser({ ...user, notify: changes.notify });
+    return publicUser({ ...user, ...after });
   });
 }
 

@@ -14,6 +14,7 @@ import { DESIGN_SCHEMA } from '#shared/validate';
 import { MONTE_CARLO_RUNS } from '#shared/verification/types';
 import { WAITING_KINDS } from '#shared/workflow/waiting';
 import { ACTIVITY_KINDS } from '#shared/workflow/activity';
+import { NOTICE_KINDS } from '#shared/workflow/notices';
 import { MIN_PASSWORD_LENGTH } from '../auth/password';
 import { PLAIN_EMAIL_PATTERN, PLAIN_LINES_PATTERN, PLAIN_NAME_PATTERN } from '#shared/text/plain-text';
 import type { DeviceListQuery, RecordedDeviceQuery } from '#shared/api/devices';
@@ -58,8 +59,14 @@ export const PASSWORD_CHANGE_BODY = wire<PasswordChangeInput>()({ currentPasswor
 /** POST /api/auth/password-reset: a new password through a one-time link's token. */
 export const PASSWORD_RESET_BODY = wire<PasswordResetInput>()({ token: { type: 'string', minLength: 16, maxLength: 200, pattern: '^[A-Za-z0-9_-]{16,200}$' }, newPassword }, ['token', 'newPassword']);
 
-/** PATCH /api/auth/me: the signed-in person's own preferences. */
-export const PREFERENCES_BODY = wire<PreferencesInput>()({ notify: { type: 'boolean' } }, ['notify']);
+/**
+ * PATCH /api/auth/me: the signed-in person's own preferences, the master switch and / or the
+ * whole list of notice kinds turned off (each a known kind, once).
+ */
+export const PREFERENCES_BODY = {
+  ...wire<PreferencesInput>()({ notify: { type: 'boolean' }, noticesOff: { type: 'array', items: { enum: [...NOTICE_KINDS] }, uniqueItems: true, maxItems: NOTICE_KINDS.length } }, []),
+  minProperties: 1,
+};
 
 /** POST /api/auth/tokens: a personal API token's name, one line. */
 export const API_TOKEN_BODY = wire<ApiTokenInput>()({ name: name(120) }, ['name']);

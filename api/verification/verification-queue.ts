@@ -30,6 +30,9 @@
  *   otherwise those whose heartbeat is older than `staleAfterMs`), and the same sweep runs before
  *   each claim. They can be asked for again; none stays "simulating" forever.
  * - A failing or non-converging simulation becomes that option's error; the job still finishes.
+ * - A job's last state (finished, failed) is written in one transaction with the e-mail notice to
+ *   whoever asked for it (`verification.ended`). Stopped and withdrawn jobs are not mailed: a
+ *   person withdrew it, or the server stopped (the job page says so; it can be asked for again).
  */
 import { randomUUID } from 'node:crypto';
 import type { DataSource, EntityManager, Repository, SelectQueryBuilder } from 'typeorm';
@@ -37,6 +40,7 @@ import { isPostgres } from '../data-source';
 import { specVersionDocument } from '../services/specs.service';
 import { designCard } from '../services/devices.service';
 import { rankingOf } from '../services/rankings.service';
+import { queueNotification } from '../services/notifications.service';
 import { DecisionEntity } from '../entities/decision.entity';
 import { ProposalEntity, type Proposal } from '../entities/proposal.entity';
 import { VerificationJobEntity, type VerificationJob } from '../entities/verification-job.entity';
@@ -371,20 +375,30 @@ export class VerificationQueue {
       }
       const message = error instanceof Error ? error.message : String(error);
       this.log(`verification job ${job.id} failed: ${message}`);
-      await this.dataSource
-        .getRepository(VerificationJobEntity)
-        .update({ id: job.id, claimToken: this.claimToken, state: 'simulating' }, { state: 'failed', message: `The job could not run: ${message}`, finishedAt: now(), step: null });
+      const failed = { state: 'failed' as const, message: `The job could not run: ${message}`, finishedAt: now(), step: null };
+      await this.settle(job.id, failed).catch(async (noticeError: unknown) => {
+        // The job's state matters more than its e-mail: written alone when the notice cannot be.
+        this.log(`verification job ${job.id}: its notice could not be queued: ${noticeError instanceof Error ? noticeError.message : String(noticeError)}`);
+        await this.dataSource.getRepository(VerificationJobEntity).update({ id: job.id, claimToken: this.claimToken, state: 'simulating' }, failed);
+      });
     }
   }
 
   private async finish(job: VerificationJob, result: ProposalVerificationResult | MonteCarloVerificationResult, total: number): Promise<void> {
     this.checkStillWanted(job.id);
-    await this.dataSource
-      .getRepository(VerificationJobEntity)
-      .update(
-        { id: job.id, claimToken: this.claimToken, state: 'simulating' },
-        { state: 'finished', done: total, total, step: null, result, finishedAt: now(), heartbeatAt: now() },
-      );
+    await this.settle(job.id, { state: 'finished', done: total, total, step: null, result, finishedAt: now(), heartbeatAt: now() });
+  }
+
+  /**
+   * Writes a job's last state (finished or failed) while this instance still holds it, and in the
+   * same transaction queues the notice to whoever asked for it (api/services/notifications.service.ts):
+   * both or neither. A job no longer held (withdrawn, taken over) is left alone and nobody is told.
+   */
+  private async settle(jobId: number, changes: Partial<VerificationJob> & { state: 'finished' | 'failed' }): Promise<void> {
+    await this.dataSource.transaction(async (manager) => {
+      const written = await manager.getRepository(VerificationJobEntity).update({ id: jobId, claimToken: this.claimToken, state: 'simulating' }, changes);
+      if (written.affected === 1) await queueNotification(manager, { kind: 'verification.ended', jobId });
+    });
   }
 }
 

@@ -3,6 +3,7 @@
  * and /api/users (administrators). Bodies are checked by the schemas in api/validation/bodies.ts,
  * which the compiler holds to these shapes.
  */
+import type { NoticeKind } from '../workflow/notices';
 import type { AccountRole, ProjectRoleOf } from '../workflow/roles';
 
 /** An account as the API shows it (never its password hash). */
@@ -12,8 +13,10 @@ export interface User {
   displayName: string;
   /** The account's own role: administrator or member (what a member may do is per project). */
   role: AccountRole;
-  /** E-mail notifications about the workflow (on unless the person turns them off). */
+  /** E-mail notices about the workflow, the master switch (on unless the person turns it off). */
   notify: boolean;
+  /** The kinds of notice turned off one by one (shared/workflow/notices.ts); the rest come while `notify` is on. */
+  noticesOff: NoticeKind[];
   createdAt: string;
   /** When an administrator disabled the account (it cannot sign in), or null. */
   disabledAt: string | null;
@@ -62,9 +65,10 @@ export interface PasswordResetInput {
   newPassword: string;
 }
 
-/** PATCH /api/auth/me: the signed-in person's own preferences. */
+/** PATCH /api/auth/me: the signed-in person's own preferences (at least one field; `noticesOff` replaces the whole list). */
 export interface PreferencesInput {
-  notify: boolean;
+  notify?: boolean;
+  noticesOff?: NoticeKind[];
 }
 
 /** The answer of sign-in: the person and the session's CSRF token (the session rotates it). */

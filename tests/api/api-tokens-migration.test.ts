@@ -53,7 +53,8 @@ describe('when a database from before personal API tokens is opened', () => {
   });
 
   test('then reverting the migration drops the token table and nothing else', async () => {
-    await upgraded.undoLastMigration();
+    // The migrations after it first (the newest is undone first), then this one
+    for (let n = MIGRATIONS.length - MIGRATIONS.indexOf(PersonalApiTokens1796200000000); n > 0; n -= 1) await upgraded.undoLastMigration();
     const runner = upgraded.createQueryRunner();
     try {
       expect(await runner.hasTable('api_token')).toBe(false);

@@ -10,8 +10,8 @@
  *   the example file (tests/fixtures/fernhollow-batch-specs.csv) is checked, saved, ranked with a
  *   progress bar and its results downloaded as CSV, one row per spec;
  * - notifications: the administrator reads the "waits for a decision" e-mails those rankings sent
- *   to the project's designer; the designer turns e-mail off on the profile page, and the next
- *   ranking writes no e-mail to them.
+ *   to the project's designer; the designer turns one kind of e-mail off on the profile page (the
+ *   server keeps it), then all e-mail, and the next ranking writes no e-mail to them.
  * Every step is screenshotted into test-results/screenshots/team-features/ (its own folder: the
  * workflow test empties test-results/screenshots/*.png), and every page passes axe-core with no
  * serious or critical violation (light theme, and the import page once in the dark theme).
@@ -23,6 +23,7 @@ import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MailMessageEntity } from '../../api/entities/mail-message.entity';
 import { MailOutboxEntity } from '../../api/entities/mail-outbox.entity';
+import { UserEntity } from '../../api/entities/user.entity';
 import { openActor, record, visible, type Actor } from './helpers/actors';
 import { launchBrowser } from './helpers/browser';
 import { repoRoot, screenshotDir } from './helpers/paths';
@@ -260,7 +261,7 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     await record(actor, shots, 'mail-open');
   });
 
-  it('the designer turns e-mail off on the profile page, and the next ranking writes them none', async () => {
+  it('the designer turns one kind of e-mail off, then all e-mail, on the profile page, and the next ranking writes them none', async () => {
     const actor = actors.designer;
     const { page } = actor;
     await signInAs(page, 'designer');
@@ -269,6 +270,17 @@ describe('Longtail in the browser: device library, batch import and e-mail', () 
     const toggle = page.getByRole('checkbox', { name: 'E-mail me about the workflow' });
     expect(await toggle.isChecked()).toBe(true);
     await record(actor, shots, 'profile-email-on');
+    // One kind off on its own: the switch stays off after a reload, and the server keeps exactly that kind
+    const kind = page.getByRole('switch', { name: /New version of a spec you ranked/ });
+    expect(await kind.isChecked()).toBe(true);
+    await kind.uncheck();
+    await visible(page.getByRole('status').filter({ hasText: /Saved: .*New version of a spec you ranked.* off\./ }));
+    await page.reload();
+    expect(await page.getByRole('switch', { name: /New version of a spec you ranked/ }).isChecked()).toBe(false);
+    expect(await page.getByRole('checkbox', { name: 'E-mail me about the workflow' }).isChecked()).toBe(true);
+    const stored = await server.dataSource.getRepository(UserEntity).findOneByOrFail({ email: demoEmail('designer') });
+    expect(stored.noticesOff).toEqual(['spec.new-version']);
+    await record(actor, shots, 'profile-one-kind-off');
     await toggle.uncheck();
     await visible(page.getByRole('status').filter({ hasText: 'Saved: e-mail is off.' }));
     await page.reload();

@@ -18,10 +18,10 @@ import { testQueryClient } from '../helpers/render';
 
 configure({ asyncUtilTimeout: 5000 });
 
-const VIEWER: SessionUser = { id: 3, email: 'samir@example.test', displayName: 'Samir Edelstein', role: 'member', projectRoles: [{ projectId: 1, role: 'reviewer' }], createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null };
+const VIEWER: SessionUser = { id: 3, email: 'samir@example.test', displayName: 'Samir Edelstein', role: 'member', projectRoles: [{ projectId: 1, role: 'reviewer' }], createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null };
 const MEMBERS = [
-  { id: 2, email: 'priya@example.test', displayName: 'Priya Valcourt', role: 'member', createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null, projectRole: 'designer' },
-  { id: 3, email: 'samir@example.test', displayName: 'Samir Edelstein', role: 'member', createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null, projectRole: 'reviewer' },
+  { id: 2, email: 'priya@example.test', displayName: 'Priya Valcourt', role: 'member', createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null, projectRole: 'designer' },
+  { id: 3, email: 'samir@example.test', displayName: 'Samir Edelstein', role: 'member', createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null, projectRole: 'reviewer' },
 ];
 
 const event = (id: number, fields: Partial<ActivityEvent>): ActivityEvent => ({

@@ -20,7 +20,7 @@ import { testQueryClient } from '../helpers/render';
 configure({ asyncUtilTimeout: 5000 });
 
 const person = (projectRoles: SessionUser['projectRoles'], role: SessionUser['role'] = 'member'): SessionUser => ({
-  id: 3, email: 'lead@example.test', displayName: 'Wren Halloway-Ito', role, projectRoles, createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null,
+  id: 3, email: 'lead@example.test', displayName: 'Wren Halloway-Ito', role, projectRoles, createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null,
 });
 const LEAD = person([{ projectId: 1, role: 'designer' }, { projectId: 2, role: 'reviewer' }]);
 

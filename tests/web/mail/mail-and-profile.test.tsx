@@ -21,8 +21,8 @@ configure({ asyncUtilTimeout: 5000 });
 
 const api = useMockedApi();
 
-const ADMIN: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', notify: true, createdAt: '2026-01-01T00:00:00Z', disabledAt: null };
-const DESIGNER: SessionUser = { id: 3, email: 'priya@example.test', displayName: 'Priya Example', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], notify: true, createdAt: '2026-01-01T00:00:00Z', disabledAt: null };
+const ADMIN: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', notify: true, noticesOff: [], createdAt: '2026-01-01T00:00:00Z', disabledAt: null };
+const DESIGNER: SessionUser = { id: 3, email: 'priya@example.test', displayName: 'Priya Example', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], notify: true, noticesOff: [], createdAt: '2026-01-01T00:00:00Z', disabledAt: null };
 
 const MAILBOX: Mailbox = {
   items: [

@@ -67,7 +67,7 @@ describe('new account form', () => {
   });
 
   test('when the account is created, then the form empties and says who can sign in', async () => {
-    const created: User = { id: 9, email: 'new.person@example.test', displayName: 'New Person', role: 'member', createdAt: '2026-12-01T00:00:00Z', notify: true, disabledAt: null };
+    const created: User = { id: 9, email: 'new.person@example.test', displayName: 'New Person', role: 'member', createdAt: '2026-12-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null };
     api.routes['POST /api/users'] = { status: 201, body: created };
     renderWithClient(<NewUserForm />);
     await fillNewUser();
@@ -78,7 +78,7 @@ describe('new account form', () => {
 });
 
 describe('accounts table', () => {
-  const me: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null };
+  const me: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null };
 
   test('when you confirm taking the admin role from yourself, then the server’s refusal (409) is shown', async () => {
     api.routes['PATCH /api/users/1'] = { status: 409, body: { error: 'You cannot take the administrator role from yourself.', code: 'last-admin', details: [] } };
@@ -97,7 +97,7 @@ describe('accounts table', () => {
 describe('people page', () => {
   test('when someone other than an admin opens it, then it says so and asks the server for nothing', async () => {
     const queryClient = testQueryClient();
-    queryClient.setQueryData(authKeys.me(), { id: 3, email: 'd@example.test', displayName: 'Dee', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null } satisfies SessionUser);
+    queryClient.setQueryData(authKeys.me(), { id: 3, email: 'd@example.test', displayName: 'Dee', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null } satisfies SessionUser);
     const Stub = createRoutesStub([{ path: '/people', Component: PeoplePage, loader: loader(queryClient), HydrateFallback: () => null }]);
     renderWithClient(<Stub initialEntries={['/people']} />, queryClient);
 

@@ -95,8 +95,8 @@ describe('the page a password link opens', () => {
 });
 
 describe('account controls on the people page', () => {
-  const me: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null };
-  const dee: User = { id: 3, email: 'dee@example.test', displayName: 'Dee Ormond', role: 'member', createdAt: '2026-01-02T00:00:00Z', notify: true, disabledAt: null };
+  const me: User = { id: 1, email: 'admin@example.test', displayName: 'Ines Admin', role: 'admin', createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null };
+  const dee: User = { id: 3, email: 'dee@example.test', displayName: 'Dee Ormond', role: 'member', createdAt: '2026-01-02T00:00:00Z', notify: true, noticesOff: [], disabledAt: null };
 
   test('when Disable is confirmed, then PATCH { disabled: true } is sent; your own row offers no Disable', async () => {
     api.routes['PATCH /api/users/3'] = { status: 200, body: { ...dee, disabledAt: '2026-03-02T09:00:00Z' } };

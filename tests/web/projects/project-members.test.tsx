@@ -11,7 +11,7 @@ import { renderWithClient } from '../helpers/render';
 
 configure({ asyncUtilTimeout: 5000 });
 
-const person = (id: number, displayName: string): User => ({ id, email: `${id}@example.test`, displayName, role: 'member', createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null });
+const person = (id: number, displayName: string): User => ({ id, email: `${id}@example.test`, displayName, role: 'member', createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null });
 const PRIYA = person(3, 'Priya Valcourt');
 const SAMIR = person(4, 'Samir Edelstein');
 

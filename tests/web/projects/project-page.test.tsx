@@ -78,7 +78,7 @@ function LocationProbe() {
 function renderProjectPage(role: Role, entry = '/projects/1') {
   const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
   // The role is held in this project (id 1); the administrator holds none here.
-  const user: SessionUser = role === 'admin' ? { id: 3, email: 'admin@example.test', displayName: 'Pat Example', role: 'admin', projectRoles: [], createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null } : { id: 3, email: `${role}@example.test`, displayName: 'Pat Example', role: 'member', projectRoles: [{ projectId: 1, role }], createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null };
+  const user: SessionUser = role === 'admin' ? { id: 3, email: 'admin@example.test', displayName: 'Pat Example', role: 'admin', projectRoles: [], createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null } : { id: 3, email: `${role}@example.test`, displayName: 'Pat Example', role: 'member', projectRoles: [{ projectId: 1, role }], createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null };
   queryClient.setQueryData(authKeys.me(), user);
   const Stub = createRoutesStub([
     {

@@ -20,7 +20,7 @@ import { testQueryClient } from '../helpers/render';
 
 configure({ asyncUtilTimeout: 5000 });
 
-const MEMBER: SessionUser = { id: 3, email: 'priya@example.test', displayName: 'Priya Valcourt', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null };
+const MEMBER: SessionUser = { id: 3, email: 'priya@example.test', displayName: 'Priya Valcourt', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null };
 const ADMIN: SessionUser = { ...MEMBER, id: 1, role: 'admin', projectRoles: [] };
 
 const hit = (fields: Partial<SearchHit> & Pick<SearchHit, 'kind' | 'id'>): SearchHit => ({ title: [{ text: 'Untitled', marked: false }], excerpt: null, project: { id: 1, name: 'Kestrel load-cell amplifier' }, state: null, ...fields });

@@ -19,7 +19,7 @@ import { testQueryClient } from '../helpers/render';
 
 configure({ asyncUtilTimeout: 5000 });
 
-const VIEWER: SessionUser = { id: 3, email: 'priya@example.test', displayName: 'Priya Valcourt', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null };
+const VIEWER: SessionUser = { id: 3, email: 'priya@example.test', displayName: 'Priya Valcourt', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null };
 const KESTREL = { id: 1, name: 'Kestrel load-cell amplifier' };
 const marked = (before: string, word: string, after = '') => [
   { text: before, marked: false },

@@ -38,7 +38,7 @@ function answer(url: URL): unknown {
   if (url.pathname === '/api/specs/7') return { id: 7, projectId: 1, title: 'Tarn probe', latestVersion: 3, createdById: 2, createdAt: at, updatedAt: at, latest: VERSIONS[2] };
   if (url.pathname === '/api/specs/7/versions') return { items: VERSIONS };
   if (url.pathname === '/api/schema/spec') return schema;
-  if (url.pathname === '/api/projects/1/members') return { items: [{ id: 2, email: 'r@example.test', displayName: 'Tomasz Rehn', role: 'requirements', createdAt: at, notify: true, disabledAt: null }] };
+  if (url.pathname === '/api/projects/1/members') return { items: [{ id: 2, email: 'r@example.test', displayName: 'Tomasz Rehn', role: 'requirements', createdAt: at, notify: true, noticesOff: [], disabledAt: null }] };
   // The project's newest proposals: version 3 ranked (#92), version 1 ranked (#90), version 2 never; one of another spec.
   if (url.pathname === '/api/projects/1/proposals' && url.searchParams.get('pageSize') === '100') {
     const summary = (id: number, specId: number, specVersionNumber: number) => ({ id, specId, specVersionNumber, specTitle: 'Tarn probe', projectId: 1, status: 'ranked' });
@@ -74,7 +74,7 @@ afterEach(() => {
 
 function renderHistory() {
   const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
-  const user: SessionUser = { id: 3, email: 'd@example.test', displayName: 'Pat Example', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: at, notify: true, disabledAt: null };
+  const user: SessionUser = { id: 3, email: 'd@example.test', displayName: 'Pat Example', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: at, notify: true, noticesOff: [], disabledAt: null };
   queryClient.setQueryData(authKeys.me(), user);
   const Stub = createRoutesStub([{ path: '/specs/:specId/history', Component, loader: loader(queryClient), ErrorBoundary, HydrateFallback: () => <p>Loading…</p> }]);
   render(

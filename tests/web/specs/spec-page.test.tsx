@@ -22,7 +22,7 @@ const at = '2026-12-01T09:00:00.000Z';
 const PAYLOAD = { title: 'Tarn probe', supply: { positiveV: 9, negativeV: -9 }, gain: { target: 20, tolerancePercent: 10, output: 'differential' }, cmrr: { minDb: 80, atFrequencyHz: 50, marginDb: 3, minYieldPercent: 95 } };
 const LATEST: SpecVersion = { id: 72, specId: 7, version: 2, title: 'Tarn probe', payload: PAYLOAD as never, note: null, createdById: 5, createdAt: at };
 const SPEC = { id: 7, projectId: 1, title: 'Tarn probe', latestVersion: 2, createdById: 5, createdAt: at, updatedAt: at, latest: LATEST };
-const WRITER: SessionUser = { id: 5, email: 'r@example.test', displayName: 'Tomasz Rehn', role: 'member', projectRoles: [{ projectId: 1, role: 'requirements' }], createdAt: at, notify: true, disabledAt: null };
+const WRITER: SessionUser = { id: 5, email: 'r@example.test', displayName: 'Tomasz Rehn', role: 'member', projectRoles: [{ projectId: 1, role: 'requirements' }], createdAt: at, notify: true, noticesOff: [], disabledAt: null };
 
 let network: ReturnType<typeof mockFetch> | undefined;
 afterEach(() => {

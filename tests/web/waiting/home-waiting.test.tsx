@@ -22,7 +22,7 @@ const DAY_MS = 86_400_000;
 /** The moment the fixtures' ages count from. */
 const NOW = Date.now();
 const person = (projectRoles: SessionUser['projectRoles'], role: SessionUser['role'] = 'member'): SessionUser => ({
-  id: 3, email: 'priya@example.test', displayName: 'Priya Valcourt', role, projectRoles, createdAt: '2026-01-01T00:00:00Z', notify: true, disabledAt: null,
+  id: 3, email: 'priya@example.test', displayName: 'Priya Valcourt', role, projectRoles, createdAt: '2026-01-01T00:00:00Z', notify: true, noticesOff: [], disabledAt: null,
 });
 const DESIGNER = person([{ projectId: 1, role: 'designer' }, { projectId: 2, role: 'designer' }]);
 const PROJECTS = { items: [{ id: 1, name: 'Kestrel load-cell amplifier', description: '', createdById: 1, createdAt: '2026-01-01T00:00:00Z' }] };

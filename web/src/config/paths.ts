@@ -32,7 +32,7 @@ export const api = {
   csrf: '/api/auth/csrf',
   login: '/api/auth/login',
   logout: '/api/auth/logout',
-  /** GET: the signed-in user; PATCH { notify }: their own e-mail preference. */
+  /** GET: the signed-in user; PATCH { notify?, noticesOff? }: their own e-mail preferences (the master switch, the kinds turned off). */
   me: '/api/auth/me',
   /** POST { currentPassword, newPassword }: the signed-in person's own password. */
   ownPassword: '/api/auth/password',

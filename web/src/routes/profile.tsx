@@ -6,7 +6,7 @@ import { PageHeader } from '../components/ui/page-header';
 import { Sheet } from '../components/ui/sheet';
 import { meQuery } from '../lib/auth-queries';
 import { ApiTokensSection } from '../features/profile/components/api-tokens-section';
-import { NotificationSwitch } from '../features/profile/components/notification-switch';
+import { NotificationSettings } from '../features/profile/components/notification-settings';
 import { PasswordChangeForm } from '../features/profile/components/password-change-form';
 
 export const loader = (queryClient: QueryClient) => async () => {
@@ -14,14 +14,14 @@ export const loader = (queryClient: QueryClient) => async () => {
   return null;
 };
 
-/** Your own account: who you are here, your password, whether Longtail e-mails you, and your API tokens. */
+/** Your own account: who you are here, your password, which e-mails Longtail sends you, and your API tokens. */
 export function Component() {
   const { data: user } = useSuspenseQuery(meQuery());
   if (!user) return null;
   return (
     <>
       <PageHeader title="Your profile" eyebrow="Account">
-        Your name and your role in each project are set by an administrator; your password, the e-mail switch and your API tokens are yours.
+        Your name and your role in each project are set by an administrator; your password, which e-mails you get and your API tokens are yours.
       </PageHeader>
       <div className="grid max-w-3xl gap-6">
         <Sheet title="Account" aria-label="Account">
@@ -39,7 +39,7 @@ export function Component() {
           <PasswordChangeForm />
         </Sheet>
         <Sheet title="E-mail notifications" aria-label="E-mail notifications">
-          <NotificationSwitch user={user} />
+          <NotificationSettings user={user} />
         </Sheet>
         <Sheet title="API tokens" aria-label="API tokens">
           <ApiTokensSection />

@@ -14,7 +14,7 @@ import { renderWithClient } from '../../helpers/render';
 import { mockFetch } from './fixtures/fetch-mock';
 import { DESIGNER, proposalFixture, REVIEWER } from './fixtures/proposal-fixture';
 
-const REQUIREMENTS: SessionUser = { id: 5, email: 'requirements@demo.longtail.test', displayName: 'Tomasz Rehn', role: 'member', projectRoles: [{ projectId: 1, role: 'requirements' }], createdAt: '2026-12-01T09:00:00.000Z', notify: true, disabledAt: null };
+const REQUIREMENTS: SessionUser = { id: 5, email: 'requirements@demo.longtail.test', displayName: 'Tomasz Rehn', role: 'member', projectRoles: [{ projectId: 1, role: 'requirements' }], createdAt: '2026-12-01T09:00:00.000Z', notify: true, noticesOff: [], disabledAt: null };
 const MEMBERS = { 'GET /api/projects/1/members': () => ({ body: { items: [DESIGNER, REVIEWER, REQUIREMENTS] } }) };
 const open = () => proposalFixture({ allowedEvents: ['decide', 'withdraw'] });
 

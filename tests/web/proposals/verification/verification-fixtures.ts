@@ -29,9 +29,9 @@ export const differentialProposal = () => proposalOf(strainBridge(), 'strain');
 export const singleEndedProposal = () => proposalOf(studioLine(), 'studio');
 
 const at = '2026-03-02T09:30:00.000Z';
-export const DESIGNER: SessionUser = { id: 3, email: 'designer@demo.longtail.test', displayName: 'Priya Valcourt', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: at, notify: true, disabledAt: null };
-export const REVIEWER: SessionUser = { id: 4, email: 'reviewer@demo.longtail.test', displayName: 'Samir Edelstein', role: 'member', projectRoles: [{ projectId: 1, role: 'reviewer' }], createdAt: at, notify: true, disabledAt: null };
-export const SYSTEMS: SessionUser = { id: 2, email: 'systems@demo.longtail.test', displayName: 'Odile Marchetti', role: 'member', projectRoles: [{ projectId: 1, role: 'requirements' }], createdAt: at, notify: true, disabledAt: null };
+export const DESIGNER: SessionUser = { id: 3, email: 'designer@demo.longtail.test', displayName: 'Priya Valcourt', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], createdAt: at, notify: true, noticesOff: [], disabledAt: null };
+export const REVIEWER: SessionUser = { id: 4, email: 'reviewer@demo.longtail.test', displayName: 'Samir Edelstein', role: 'member', projectRoles: [{ projectId: 1, role: 'reviewer' }], createdAt: at, notify: true, noticesOff: [], disabledAt: null };
+export const SYSTEMS: SessionUser = { id: 2, email: 'systems@demo.longtail.test', displayName: 'Odile Marchetti', role: 'member', projectRoles: [{ projectId: 1, role: 'requirements' }], createdAt: at, notify: true, noticesOff: [], disabledAt: null };
 
 function figure(f: Omit<VerifiedFigure, 'agrees'>): VerifiedFigure {
   return { ...f, agrees: f.delta === null ? null : Math.abs(f.delta) <= f.tolerance };
