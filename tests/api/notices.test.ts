@@ -22,7 +22,7 @@ const LEAVER = 'leaver@tests.longtail.test';
 /** The closing line every message carries: figures are estimates to confirm by simulation and bench measurement. */
 const ESTIMATES_LINE = /Figures are .*estimates.*confirm .*simulation and bench measurement/;
 /** The kinds as the brief names them (not read from the product's list). */
-const KINDS = ['proposal.ready', 'proposal.decided', 'proposal.approved', 'proposal.returned', 'proposal.superseded', 'spec.new-version', 'verification.ended'];
+const KINDS = ['proposal.ready', 'proposal.decided', 'proposal.approved', 'proposal.returned', 'proposal.superseded', 'proposal.commented', 'spec.new-version', 'verification.ended'];
 
 let api: TestApi;
 let projectId: number;
@@ -100,11 +100,11 @@ describe('when a person turns kinds of notice off on their own', () => {
   });
 
   test('when the list names a kind the server does not know, then 400 naming the field and the known kinds, and nothing changes', async () => {
-    const response = await clients.designer2.patch('/api/auth/me').send({ noticesOff: ['spec.new-version', 'proposal.commented'] });
+    const response = await clients.designer2.patch('/api/auth/me').send({ noticesOff: ['spec.new-version', 'proposal.rumoured'] });
     expect(response.status).toBe(400);
     expect(response.body.code).toBe('invalid-request');
     const detail = response.body.details.find((d: { path: string }) => d.path === '/noticesOff/1');
-    expect(detail?.message).toContain('proposal.commented');
+    expect(detail?.message).toContain('proposal.rumoured');
     for (const kind of KINDS) expect(detail?.message).toContain(kind);
     expect((await clients.designer2.get('/api/auth/me')).body.user.noticesOff).toEqual(['spec.new-version']);
   });

@@ -23,7 +23,7 @@ const api = useMockedApi();
 const DESIGNER: SessionUser = { id: 3, email: 'oriel@example.test', displayName: 'Oriel Banfield', role: 'member', projectRoles: [{ projectId: 1, role: 'designer' }], notify: true, noticesOff: [], createdAt: '2026-01-01T00:00:00Z', disabledAt: null };
 
 /** The kinds as the feature's brief words them: what each switch must be about. */
-const KINDS_IN_WORDS = [/waits for a decision/i, /waits for review/i, /signed off/i, /sent back/i, /spec moved on/i, /new version of a spec you ranked/i, /SPICE check/i];
+const KINDS_IN_WORDS = [/waits for a decision/i, /waits for review/i, /signed off/i, /sent back/i, /spec moved on/i, /comment on your decision/i, /new version of a spec you ranked/i, /SPICE check/i];
 
 function renderProfile(me: SessionUser) {
   const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false } } });
