@@ -16,7 +16,10 @@ import { describe, expect, test } from 'vitest';
 import { analyze } from '#shared/engine/analyze';
 import { isTransistor, mirroredDesign, stageCircuit } from '#shared/engine/circuit';
 import { spiceNetlist, PNP_MODEL_NAME } from '#shared/engine/netlist';
+import { recommend } from '#shared/engine/recommend';
 import type { AnalyzeResult, Design, TailDesign } from '#shared/engine/types';
+import { validateSpec } from '#shared/validate';
+import { loadRuleSet } from '../../../rules/index';
 
 const PNP_DEVICE: Design['device'] = { family: 'pnp', beta: 80, earlyVoltageV: 45, saturationCurrentA: 2.5e-15 };
 
@@ -135,4 +138,52 @@ describe('a PNP design reports what its NPN mirror image reports (mirror symmetr
     expect(pnp.warnings).toEqual(npn.warnings);
     expect(pnp.transistors.map((q) => q.region)).toEqual(npn.transistors.map((q) => q.region));
   });
+});
+
+describe('recommend for a PNP spec sizes and judges the mirror image of its NPN spec (mirror symmetry, common practice)', () => {
+  /** Rails and input range off-centre, so a check that read the NPN direction would show. */
+  const PNP_SPEC = {
+    title: 'Sallowmere sensor front end, PNP input',
+    device: { family: 'pnp', beta: 90, earlyVoltageV: 50, saturationCurrentA: 2e-15 },
+    supply: { positiveV: 12, negativeV: -9 },
+    gain: { target: 50 },
+    cmrr: { minDb: 70 },
+    inputCommonMode: { minV: -6, maxV: 2 },
+    outputSwingVpp: 2,
+    topologies: ['resistor', 'simple-mirror', 'widlar', 'cascode'],
+  };
+  const NPN_MIRROR = { ...PNP_SPEC, device: { ...PNP_SPEC.device, family: 'npn' }, supply: { positiveV: 9, negativeV: -12 }, inputCommonMode: { minV: -2, maxV: 6 } };
+  /** A rule at one end of the input range is the other end's in the mirror image. */
+  const MIRRORED_RULE: Record<string, string> = { 'input-common-mode-low': 'input-common-mode-high', 'input-common-mode-high': 'input-common-mode-low' };
+
+  test('the same tails and loads, the same verdicts (the input range’s ends swapped), the same headroom margins', async () => {
+    const rules = await loadRuleSet();
+    const [pnp, npn] = await Promise.all(
+      [PNP_SPEC, NPN_MIRROR].map((document) => {
+        const checked = validateSpec(document);
+        if (!checked.ok) throw new Error(checked.errors.map((e) => `${e.path}: ${e.message}`).join('; '));
+        return recommend(checked.value, rules);
+      }),
+    );
+    expect(pnp.recommended).toBe(npn.recommended);
+    for (const option of pnp.options) {
+      const mirror = npn.options.find((o) => o.topology === option.topology)!;
+      if (!option.design || !option.predicted || !mirror.design || !mirror.predicted) throw new Error(`${option.topology}: no design (${option.error ?? mirror.error})`);
+      expect(option.design.tail, option.topology).toEqual(mirror.design.tail);
+      expect(option.design.collectorResistanceOhm).toBe(mirror.design.collectorResistanceOhm);
+      expect(option.design.device.family).toBe('pnp');
+      expectClose(`${option.topology} tailCurrentA`, option.predicted.tailCurrentA, mirror.predicted.tailCurrentA, CURRENT_BOUND);
+      for (const check of option.checks) {
+        const other = mirror.checks.find((c) => c.rule === (MIRRORED_RULE[check.rule] ?? check.rule))!;
+        expect(`${option.topology} ${check.rule}: ${check.passed}`).toBe(`${option.topology} ${check.rule}: ${other.passed}`);
+      }
+      const facts = option.figures!;
+      const mirrorFacts = mirror.figures!;
+      expectClose(`${option.topology} icmLowMarginV`, facts.icmLowMarginV, mirrorFacts.icmHighMarginV, 1e-4);
+      expectClose(`${option.topology} icmHighMarginV`, facts.icmHighMarginV, mirrorFacts.icmLowMarginV, 1e-4);
+      expectClose(`${option.topology} swingMarginV`, facts.swingMarginV, mirrorFacts.swingMarginV, 1e-4);
+      expect(facts.icmLowShortfall).toBe('the pair saturates');
+      expect(facts.icmHighShortfall).toBe('the tail node sits too close to the positive rail');
+    }
+  }, 60_000);
 });
