@@ -18,7 +18,7 @@ export const DESIGN_SCHEMA_PATH = fileURLToPath(new URL('../shared/schema/design
 export const SPEC_SCHEMA_PATH = fileURLToPath(new URL('../shared/schema/spec.schema.json', import.meta.url));
 export const TOPOLOGIES_DOC_PATH = fileURLToPath(new URL('../docs/tail-topologies.md', import.meta.url));
 
-const FAMILY_WORDS: Record<DeviceFamily, string> = { npn: 'NPN bipolar' };
+const FAMILY_WORDS: Record<DeviceFamily, string> = { npn: 'NPN bipolar', pnp: 'PNP bipolar' };
 
 function routWords(limit: RoutLimit): string {
   return limit.form === 'resistor' ? ROUT_FORMULAS[limit.form] : `${ROUT_FORMULAS[limit.form]} of ${limit.transistor}`;
@@ -37,6 +37,10 @@ export function tailTopologiesMarkdown(): string {
     'values of the fields below in ohms. Part names are those of the schematic and the exported',
     'SPICE netlist. The textbook output resistance is quoted beside the node solution in the',
     'reasons; every figure is an estimate to confirm by simulation and bench measurement.',
+    '',
+    'Each tail is drawn here for an NPN pair. A PNP pair (`device.family` "pnp") takes the mirror',
+    'image of every tail that needs no second device: PNP transistors, the tail element from `t` to',
+    'the positive rail, reference resistors and loads to the negative rail.',
     '',
     '| Id | Name | Family | Circuit, from `t` to the negative rail | Resistors (design field) | Area ratios (design field) | Transistors | Textbook Rout |',
     '|---|---|---|---|---|---|---|---|',

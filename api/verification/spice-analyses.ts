@@ -8,7 +8,7 @@
  * current flowing into the source's + terminal (so a rail delivering current reads negative).
  */
 import type { ResultType } from 'eecircuit-engine';
-import { RAIL_NODES, designStoresCharge, isTransistor, stageCircuit, type CircuitElement, type ResistorElement } from '#shared/engine/circuit';
+import { RAIL_NODES, designStoresCharge, isTransistor, stageCircuit, stagePolarity, stageRails, type CircuitElement, type ResistorElement } from '#shared/engine/circuit';
 import {
   INPUT_SOURCES,
   SUPPLY_SOURCES,
@@ -210,15 +210,21 @@ export function dcFigures(design: Design, op: SpiceOperatingPoint): SpiceDcFigur
   const v = op.nodeVoltagesV;
   const i = op.sourceCurrentsA;
   const [vin1, vin2] = INPUT_SOURCES.map((name) => name.toLowerCase());
-  const collectorCurrentA = (positiveV - v.c1) / resistanceOf(circuit.elements, 'RC1');
-  const collector2CurrentA = (positiveV - v.c2) / resistanceOf(circuit.elements, 'RC2');
+  // In the direction the stage's transistors conduct: an NPN stage's loads and reference resistor
+  // hang from the positive rail, a PNP stage's from the negative one, carrying current into it
+  const polarity = stagePolarity(design);
+  const loadRail = stageRails(design).load;
+  const loadRailV = loadRail === RAIL_NODES.positive ? positiveV : negativeV;
+  const collectorCurrentA = (polarity * (loadRailV - v.c1)) / resistanceOf(circuit.elements, 'RC1');
+  const collector2CurrentA = (polarity * (loadRailV - v.c2)) / resistanceOf(circuit.elements, 'RC2');
   const reference = circuit.elements.find((e): e is ResistorElement => e.kind === 'resistor' && e.name === 'RREF');
-  const referenceNode = reference?.nodes.find((node) => node !== RAIL_NODES.positive);
+  const referenceNode = reference?.nodes.find((node) => node !== loadRail);
   return {
-    tailCurrentA: collectorCurrentA + collector2CurrentA - i[vin1] - i[vin2],
+    // the pair's emitter currents: collector currents plus the base currents the inputs deliver (a PNP pair's flow back into the sources)
+    tailCurrentA: collectorCurrentA + collector2CurrentA - polarity * i[vin1] - polarity * i[vin2],
     collectorCurrentA,
     collector2CurrentA,
-    referenceCurrentA: referenceNode ? (positiveV - v[referenceNode]) / resistanceOf(circuit.elements, 'RREF') : 0,
+    referenceCurrentA: referenceNode ? (polarity * (loadRailV - v[referenceNode])) / resistanceOf(circuit.elements, 'RREF') : 0,
     powerW: -(positiveV * i[SUPPLY_SOURCES.positive.toLowerCase()] + negativeV * i[SUPPLY_SOURCES.negative.toLowerCase()]),
   };
 }

@@ -8,7 +8,7 @@
  * read ngspice the same way; each takes the library card's SPICE-only parameters (`card`) too, so a
  * verification simulates the whole card as its other analyses do.
  */
-import { COLLECTOR_NODES, INPUT_NODES, RAIL_NODES, pairIsMatched } from '#shared/engine/circuit';
+import { COLLECTOR_NODES, INPUT_NODES, RAIL_NODES, pairIsMatched, stagePolarity } from '#shared/engine/circuit';
 import { INPUT_SOURCES, spiceNetlist, type NetlistCardSettings, type NetlistOptions } from '#shared/engine/netlist';
 import type { Design } from '#shared/engine/types';
 import { withoutMismatch } from '#shared/engine/input-transfer';
@@ -52,15 +52,20 @@ function outputOf(sweep: SpiceSweep): number[] {
   return c1.map((v, k) => v - c2[k]);
 }
 
-/** The DC currents into in1 and in2 (from the drive), A, at a differential DC input (V). */
+/**
+ * The DC currents of in1 and in2 (from the drive), A, at a differential DC input (V): into the
+ * inputs for an NPN pair, out of them for a PNP pair (the direction its transistors conduct, as
+ * analyze reports them).
+ */
 export async function spiceInputCurrentsA(run: SpiceRunner, design: Design, differentialInputV = 0, card: NetlistCardSettings = {}): Promise<[number, number]> {
+  const polarity = stagePolarity(design);
   const netlist = spiceNetlist(design, { analysis: 'op', differentialInputV, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE, ...card });
   const result = await run(netlist, PLOT_NAMES.op);
   const current = (source: string): number => {
     const vector = result.data.find((d) => d.name.toLowerCase() === `i(${source.toLowerCase()})`);
     if (!vector) throw new Error(`ngspice .op has no current of ${source}`);
     // i(source) flows into its + terminal: the current it sends into the circuit is the negative
-    return -(vector.values[0] as number);
+    return -polarity * (vector.values[0] as number);
   };
   return [current(INPUT_SOURCES[0]), current(INPUT_SOURCES[1])];
 }

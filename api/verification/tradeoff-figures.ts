@@ -17,7 +17,7 @@ import { solveCircuit } from '#shared/engine/analyze';
 import { slewRun } from '#shared/engine/slew-rate';
 import type { AnalyzeResult, Design } from '#shared/engine/types';
 import type { NetlistCardSettings } from '#shared/engine/netlist';
-import { pairIsMatched } from '#shared/engine/circuit';
+import { pairIsMatched, stagePolarity } from '#shared/engine/circuit';
 import { formatQuantity } from '#shared/units/format-quantity';
 import { formatFigure } from '#shared/units/figures';
 import { VERIFICATION_TOLERANCES as TOL, type VerifiedFigure } from '#shared/verification/types';
@@ -133,7 +133,8 @@ const driftBasis = `${TOL.offsetDriftPercent} % of ngspice’s, at least ${forma
 async function inputFigures({ run, design, predicted, op, card, step }: TradeoffInputs): Promise<VerifiedFigure[]> {
   const [vin1, vin2] = INPUT_SOURCES.map((source) => source.toLowerCase());
   // i(source) flows into its + terminal: the current it sends into the circuit is the negative
-  const biasA = -(op.sourceCurrentsA[vin1] + op.sourceCurrentsA[vin2]) / 2;
+  // (a PNP pair's base currents leave the inputs: reported in the direction it conducts)
+  const biasA = (-stagePolarity(design) * (op.sourceCurrentsA[vin1] + op.sourceCurrentsA[vin2])) / 2;
   const figures = [withPrediction(percentFigure(name('inputBiasCurrentA', 'Input bias current', 'A', 'input'), predicted.inputBiasCurrentA ?? null, biasA, TOL.biasCurrentPercent), predicted.inputBiasCurrentA)];
 
   const offsetName = name('inputOffsetVoltageV', 'Input offset voltage', 'V', 'input');

@@ -3,7 +3,7 @@
  * solved self-consistently and the small-signal stage as a whole (operating-point.ts,
  * small-signal.ts); this file turns the solution into the contract's figures.
  */
-import { COLLECTOR_NODES, INPUT_NODES, RAIL_NODES, TAIL_NODE, pairIsMatched } from './circuit';
+import { COLLECTOR_NODES, INPUT_NODES, RAIL_NODES, TAIL_NODE, pairIsMatched, stagePolarity, stageRails } from './circuit';
 import { driveCurrentsA, inputOffset, linearInputRangeV, offsetDriftVPerC, withoutMismatch } from './input-transfer';
 import { closedFormTailRout } from './closed-form';
 import type { BjtEval, DeviceModel } from './device';
@@ -505,8 +505,9 @@ function transferFigures({ design, model, op, stage }: SolvedCircuit): Pick<Anal
   }
   return {
     inputOffsetVoltageV: offset.offsetV,
-    // a matched pair's two input currents are equal by symmetry: rounding decides nothing
-    inputOffsetCurrentA: pairIsMatched(design) ? 0 : in1A - in2A,
+    // a matched pair's two input currents are equal by symmetry: rounding decides nothing; a PNP
+    // pair's base currents leave the inputs, reported in the direction its transistors conduct
+    inputOffsetCurrentA: pairIsMatched(design) ? 0 : stagePolarity(design) * (in1A - in2A),
     offsetDriftVPerC: offsetDriftVPerC(design, offset),
     linearInputRangeV: linearInputRangeV(plain, symmetric, symmetricGain),
   };
@@ -526,7 +527,11 @@ function conditionFigures(solved: SolvedCircuit): { result: ConditionResult; pro
   const tailNodeRef = ic.nodeRef(TAIL_NODE);
   const outputTransistors = transistors.filter((_, i) => ic.transistors[i].tail && ic.transistors[i].c === tailNodeRef);
   const tailNodeV = nodeVoltage(ic, v, tailNodeRef);
-  const referenceCurrentA = currentIntoElementsA(op, RAIL_NODES.positive, true);
+  // Currents in the direction the stage's transistors conduct: a PNP stage's tail delivers its
+  // current into t, and its reference branch returns to the negative rail (circuit.ts, stageRails)
+  const polarity = stagePolarity(design);
+  const rails = stageRails(design);
+  const referenceCurrentA = polarity * currentIntoElementsA(op, rails.load, true);
   const positiveA = currentIntoElementsA(op, RAIL_NODES.positive, false);
   const negativeA = currentIntoElementsA(op, RAIL_NODES.negative, false);
   const low = stage.low;
@@ -537,7 +542,7 @@ function conditionFigures(solved: SolvedCircuit): { result: ConditionResult; pro
   const problemTexts = problems.map(operatingPointProblemText);
   const inputCurrentsA = driveCurrentsA({ model, op, driveNodes: stage.driveNodes });
   const result: ConditionResult = {
-    tailCurrentA: currentIntoElementsA(op, TAIL_NODE, true),
+    tailCurrentA: polarity * currentIntoElementsA(op, TAIL_NODE, true),
     collectorCurrentA: q1.collectorCurrentA,
     collectorVoltageV: nodeVoltage(ic, v, ic.nodeRef(COLLECTOR_NODES[0])),
     tailNodeVoltageV: tailNodeV,
@@ -552,7 +557,7 @@ function conditionFigures(solved: SolvedCircuit): { result: ConditionResult; pro
       differential: matched ? null : 20 * Math.log10(Math.abs(low.differentialGain.re / low.differentialCommonModeGain.re)),
     },
     ac: acEntries({ design, model, op, stage }, matched),
-    inputBiasCurrentA: (inputCurrentsA[0] + inputCurrentsA[1]) / 2,
+    inputBiasCurrentA: (polarity * (inputCurrentsA[0] + inputCurrentsA[1])) / 2,
     psrrDb: supplyRejectionDb(stage, matched),
     inputResistanceOhm: inputResistanceOhm(op, stage),
     // Power delivered by the rails: Σ V·I, I the current each rail sends into the circuit.
@@ -565,7 +570,7 @@ function conditionFigures(solved: SolvedCircuit): { result: ConditionResult; pro
     referenceCurrentA,
     tailComplianceMarginV:
       design.tail.topology === 'resistor'
-        ? tailNodeV - design.supply.negativeV
+        ? polarity * (tailNodeV - nodeVoltage(ic, v, ic.nodeRef(rails.tail)))
         : Math.min(...outputTransistors.map((q) => q.vceV - model.vceSatV)),
     pairSaturationMarginV: Math.min(...pair.map((q) => q.vceV - model.vceSatV)),
   };

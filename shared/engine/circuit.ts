@@ -5,6 +5,7 @@
  */
 import type { Design } from './types';
 import { tailElements } from './tail-elements';
+import { TOPOLOGY_CATALOGUE } from './topologies';
 import { cardOf, cardStoresCharge } from './bjt-parameters';
 
 /** Which part of the stage an element belongs to: the pair and its loads, or the tail element. */
@@ -87,6 +88,81 @@ const PAIR_GUESS_PASSES = 2;
  * known, only shape the solver's starting guess.
  */
 export function stageCircuit(design: Design, vbeGuessV = GUESS_VBE_V, vbeAtV?: (currentA: number) => number, thermalVoltageV?: number): StageCircuit {
+  if (stageFamily(design) === 'pnp') {
+    const needs = TOPOLOGY_CATALOGUE[design.tail.topology].needsDevice;
+    // its second device is the stage's own type mirrored: a PNP stage has no NPN card to give it
+    if (needs) throw new RangeError(`the ${TOPOLOGY_CATALOGUE[design.tail.topology].name} tail needs an NPN stage (device.family "npn"): its ${needs.toUpperCase()} mirror would be the stage's own type`);
+    return mirroredCircuit(npnStageCircuit(mirroredDesign(design), vbeGuessV, vbeAtV, thermalVoltageV));
+  }
+  return npnStageCircuit(design, vbeGuessV, vbeAtV, thermalVoltageV);
+}
+
+/** The transistor type of a stage's pair and tail (`device.family`; absent reads as "npn"). */
+export function stageFamily(design: Pick<Design, 'device'>): 'npn' | 'pnp' {
+  return design.device.family === 'pnp' ? 'pnp' : 'npn';
+}
+
+/**
+ * +1 for an NPN stage, −1 for a PNP one: the sign that turns a current into or out of a node of
+ * the solved circuit into the direction the stage's transistors conduct (the contract reports a
+ * PNP stage's currents as positive magnitudes).
+ */
+export function stagePolarity(design: Pick<Design, 'device'>): 1 | -1 {
+  return stageFamily(design) === 'pnp' ? -1 : 1;
+}
+
+/**
+ * The rail the stage's loads and reference resistors hang from (the positive one for an NPN
+ * stage) and the rail its tail returns to (the negative one), by node name: a PNP stage swaps them.
+ */
+export function stageRails(design: Pick<Design, 'device'>): { load: string; tail: string } {
+  return stageFamily(design) === 'pnp' ? { load: RAIL_NODES.negative, tail: RAIL_NODES.positive } : { load: RAIL_NODES.positive, tail: RAIL_NODES.negative };
+}
+
+/**
+ * A PNP stage's NPN mirror image: rails negated and swapped, the input common mode negated, the
+ * device read as an NPN (the same parameters: the model is polarity-free, node-system.ts).
+ */
+export function mirroredDesign(design: Design): Design {
+  const { positiveV, negativeV } = design.supply;
+  return {
+    ...design,
+    device: { ...design.device, family: 'npn' },
+    supply: { positiveV: -negativeV, negativeV: -positiveV },
+    ...(design.inputCommonModeV !== undefined ? { inputCommonModeV: -design.inputCommonModeV } : {}),
+  };
+}
+
+/** A node of a stage circuit in its mirror image: the rails swap names, every other node keeps its own. */
+function mirroredNode(name: string): string {
+  if (name === RAIL_NODES.positive) return RAIL_NODES.negative;
+  if (name === RAIL_NODES.negative) return RAIL_NODES.positive;
+  return name;
+}
+
+/** Negated voltages under the mirrored node names. */
+function mirroredVoltages(voltagesV: Record<string, number>): Record<string, number> {
+  return Object.fromEntries(Object.entries(voltagesV).map(([name, valueV]) => [mirroredNode(name), valueV === 0 ? 0 : -valueV]));
+}
+
+/**
+ * The mirror image of an NPN stage circuit (every voltage negated): the rails' names swapped, every
+ * NPN a PNP (and a PNP an NPN), fixed voltages and the starting guess negated; every substrate stays
+ * at the most negative rail, `vn` [SPICE: the substrate is tied to the lowest potential; common practice].
+ */
+function mirroredCircuit(circuit: StageCircuit): StageCircuit {
+  const elements = circuit.elements.map((el): CircuitElement => {
+    if (isTransistor(el)) {
+      return { ...el, kind: el.kind === 'npn' ? 'pnp' : 'npn', collector: mirroredNode(el.collector), base: mirroredNode(el.base), emitter: mirroredNode(el.emitter), substrate: RAIL_NODES.negative };
+    }
+    const nodes: [string, string] = [mirroredNode(el.nodes[0]), mirroredNode(el.nodes[1])];
+    return el.kind === 'resistor' ? { ...el, nodes } : { ...el, nodes };
+  });
+  return { fixedNodesV: mirroredVoltages(circuit.fixedNodesV), driveNodes: circuit.driveNodes, elements, initialGuessV: mirroredVoltages(circuit.initialGuessV) };
+}
+
+/** The NPN stage circuit of a design (stageCircuit for the "npn" family). */
+function npnStageCircuit(design: Design, vbeGuessV: number, vbeAtV?: (currentA: number) => number, thermalVoltageV?: number): StageCircuit {
   const { positiveV, negativeV } = design.supply;
   const vicmV = design.inputCommonModeV ?? 0;
   const rcOhm = design.collectorResistanceOhm;

@@ -6,7 +6,7 @@
  * edit a netlist's text with string replaces (".options" contains ".op").
  */
 import type { Design, DeviceParams } from './types';
-import { GROUND, RAIL_NODES, TAIL_NODE, isTransistor, stageCircuit } from './circuit';
+import { GROUND, RAIL_NODES, TAIL_NODE, isTransistor, stageCircuit, stageFamily } from './circuit';
 import type { CircuitElement, TransistorElement } from './circuit';
 import { scaledDevice } from './stage-solve';
 import { BJT_PARAMETER_NAMES, hasModelCard } from './bjt-parameters';
@@ -15,9 +15,9 @@ import { NOMINAL_TEMPERATURE_C } from './constants';
 import { commentLines } from '../text/plain-text';
 import { formatSpiceNumber as spiceNumber, parseSpiceNumber } from '../units/spice-number';
 
-/** The `.model` name every transistor of the stage uses. */
+/** The `.model` name every transistor of an NPN stage uses. */
 export const SPICE_MODEL_NAME = 'QNPN';
-/** The PNP's `.model` name (the `ptat` tail's mirror). */
+/** The PNP's `.model` name: every transistor of a PNP stage (`device.family` "pnp"), or an NPN stage's PNPs (the `ptat` tail's mirror, `device.pnp`). */
 export const PNP_MODEL_NAME = 'QPNP';
 /** Supply sources: `i(vp)`, `i(vn)` in ngspice's output. */
 export const SUPPLY_SOURCES = { positive: 'VP', negative: 'VN' } as const;
@@ -105,7 +105,7 @@ export type NetlistAnalysis = NetlistOptions['analysis'];
  */
 export type TransistorVector = 'gm' | 'go' | 'gpi' | 'gmu' | 'ic' | 'ib';
 
-function elementLine(element: CircuitElement): string {
+function elementLine(element: CircuitElement, stageKind: StageKind): string {
   switch (element.kind) {
     case 'resistor':
       return `${element.name} ${element.nodes[0]} ${element.nodes[1]} ${spiceNumber(element.resistanceOhm)}`;
@@ -114,7 +114,7 @@ function elementLine(element: CircuitElement): string {
     case 'npn':
     case 'pnp': {
       const area = element.area !== 1 ? ` area=${spiceNumber(element.area)}` : '';
-      return `${element.name} ${element.collector} ${element.base} ${element.emitter} ${element.substrate} ${transistorModelName(element)}${area}`;
+      return `${element.name} ${element.collector} ${element.base} ${element.emitter} ${element.substrate} ${transistorModelName(element, stageKind)}${area}`;
     }
   }
 }
@@ -124,10 +124,22 @@ function hasOwnModel(element: TransistorElement): boolean {
   return element.betaScale !== undefined || element.earlyVoltageScale !== undefined;
 }
 
-/** The `.model` a transistor uses: the stage's, or its own (`QNPN_Q2`) when its BF or VAF differ; a PNP's, `QPNP`. */
-function transistorModelName(element: TransistorElement): string {
-  if (element.kind === 'pnp') return PNP_MODEL_NAME;
-  return hasOwnModel(element) ? `${SPICE_MODEL_NAME}_${element.name.toUpperCase()}` : SPICE_MODEL_NAME;
+/** The transistor type of a stage (`device.family`). */
+type StageKind = ReturnType<typeof stageFamily>;
+
+/** The `.model` name of a stage's own device: `QNPN`, or `QPNP` for a PNP stage. */
+function stageModelName(stageKind: StageKind): string {
+  return stageKind === 'pnp' ? PNP_MODEL_NAME : SPICE_MODEL_NAME;
+}
+
+/**
+ * The `.model` a transistor uses: the stage's, or its own (`QNPN_Q2`, `QPNP_Q2`) when its BF or
+ * VAF differ; an NPN stage's PNP, `QPNP`.
+ */
+function transistorModelName(element: TransistorElement, stageKind: StageKind): string {
+  if (element.kind !== stageKind) return PNP_MODEL_NAME;
+  const stageName = stageModelName(stageKind);
+  return hasOwnModel(element) ? `${stageName}_${element.name.toUpperCase()}` : stageName;
 }
 
 /**
@@ -147,16 +159,18 @@ function modelCard(device: DeviceParams, extra: NetlistCardSettings, name = SPIC
 }
 
 /**
- * The stage's `.model` card, one per transistor with its own BF or VAF, and the PNP's card
- * (`device.pnp`, without the library card's SPICE-only parameters, which belong to the NPN) when
- * the circuit has a PNP.
+ * The stage's `.model` card (NPN, or PNP for a PNP stage), one per transistor with its own BF or
+ * VAF, and an NPN stage's PNP card (`device.pnp`, without the library card's SPICE-only
+ * parameters, which belong to the NPN) when the circuit has a PNP.
  */
 function modelCards(design: Design, elements: readonly CircuitElement[], extra: NetlistCardSettings): string[] {
-  const own = elements.filter((element): element is TransistorElement => element.kind === 'npn' && hasOwnModel(element));
-  const pnp = elements.some((element) => element.kind === 'pnp') ? [modelCard(pnpDeviceOf(design), {}, PNP_MODEL_NAME, 'PNP')] : [];
+  const stageKind = stageFamily(design);
+  const type = stageKind === 'pnp' ? 'PNP' : 'NPN';
+  const own = elements.filter((element): element is TransistorElement => element.kind === stageKind && hasOwnModel(element));
+  const pnp = stageKind === 'npn' && elements.some((element) => element.kind === 'pnp') ? [modelCard(pnpDeviceOf(design), {}, PNP_MODEL_NAME, 'PNP')] : [];
   return [
-    modelCard(design.device, extra),
-    ...own.map((element) => modelCard(scaledDevice(design.device, element.betaScale, element.earlyVoltageScale), extra, transistorModelName(element))),
+    modelCard(design.device, extra, stageModelName(stageKind), type),
+    ...own.map((element) => modelCard(scaledDevice(design.device, element.betaScale, element.earlyVoltageScale), extra, transistorModelName(element, stageKind), type)),
     ...pnp,
   ];
 }
@@ -308,7 +322,8 @@ export function spiceNetlist(design: Design, options: NetlistOptions, comments: 
   const circuit = stageCircuit(design);
   const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
   const includePair = options.analysis !== 'ac-tail';
-  const line = (element: CircuitElement): string => elementLine(element);
+  const stageKind = stageFamily(design);
+  const line = (element: CircuitElement): string => elementLine(element, stageKind);
   const pairLines = circuit.elements.filter((element) => element.part === 'pair').map(line);
   const tailLines = circuit.elements.filter((element) => element.part === 'tail').map(line);
   const lines = [

@@ -33,6 +33,7 @@ import { designAt, outputGain, swingPeakPerCollectorV, type SizedOption } from '
 import { swingCompression } from './large-signal';
 import type { AnalyzeResult, Design, OptionFacts, Spec } from './types';
 import { TOPOLOGY_CATALOGUE } from './topologies';
+import { stageFamily } from './circuit';
 import { ZERO_CELSIUS_K } from './constants';
 import { driftSensitivitiesVPerC, mismatchSpread, offsetStatistics, tradeoffAtCondition, tradeoffFacts, tradeoffTargets, type ConditionEntry, type OffsetFigures, type TradeoffAtCondition } from './tradeoff-figures';
 
@@ -82,7 +83,7 @@ export interface OptionCurves {
 }
 
 /** What would hold the gain over the spec's range (worded at the edge, shared/text/engine-notes.ts). */
-export type GainRemedy = 'degeneration-or-rising-tail-current' | 'ptat-or-more-degeneration' | 'beyond-ptat' | 'current-source-tail' | 'higher-resistance-tail';
+export type GainRemedy = 'degeneration-or-rising-tail-current' | 'ptat-or-more-degeneration' | 'more-degeneration' | 'beyond-ptat' | 'current-source-tail' | 'higher-resistance-tail';
 
 /** The trade-off figures searched over the sign-off corners: the figure, its target, whether higher is worse, and the value a null (no figure) counts as. */
 type SearchedTradeoff = 'inputBiasCurrentA' | 'noiseVPerRtHz' | 'bandwidthHz' | 'psrrPositiveDb' | 'psrrNegativeDb' | 'linearInputRangeV' | 'slewRateVPerS';
@@ -103,7 +104,19 @@ function withoutSlew(entry: TradeoffAtCondition): ConditionEntry {
 }
 
 /** The facts whose value is a sentence: written at the edge from the figures beside them. */
-export type WordedFact = 'gainOverConditionsRemedy' | 'tailOutputResistanceNote' | 'cmrrDifferentialLimitNote' | 'outputCmrrBasis' | 'tailCurrentWindowNote';
+export type WordedFact =
+  | 'gainOverConditionsRemedy'
+  | 'tailOutputResistanceNote'
+  | 'cmrrDifferentialLimitNote'
+  | 'outputCmrrBasis'
+  | 'tailCurrentWindowNote'
+  | 'icmLowHeadroom'
+  | 'icmLowShortfall'
+  | 'icmHighHeadroom'
+  | 'icmHighShortfall';
+
+/** What limits the input common-mode range at one end: the tail source's compliance, or the pair's saturation. */
+export type HeadroomLimit = 'tail-compliance' | 'pair-saturation';
 
 /** An operating-point problem and the condition it appears at. */
 export interface ProblemAt {
@@ -114,6 +127,9 @@ export interface ProblemAt {
 /** The facts as the engine computes them: figures and ids, the remedy as an id, the problems as figures. */
 export type MeasuredFacts = Omit<OptionFacts, WordedFact | 'operatingPointProblems'> & {
   gainOverConditionsRemedyId: GainRemedy;
+  /** What limits each end of the input common-mode range (an NPN stage: the tail at the low end; a PNP stage: the pair there). */
+  icmLowLimitId: HeadroomLimit;
+  icmHighLimitId: HeadroomLimit;
   operatingPointProblemsAt: ProblemAt[];
   /** Each mismatch's share of the differential worst case's common-mode gain, per cent (null when single-ended). */
   cmrrDifferentialSharesPercent: MismatchShares | null;
@@ -167,6 +183,8 @@ function gainSpreadCause(corners: readonly ConditionFigures[], worstLabel: strin
 function gainRemedy(cause: 'temperature' | 'input common mode', design: Design): GainRemedy {
   if (cause === 'temperature') {
     if (TOPOLOGY_CATALOGUE[design.tail.topology].currentLaw === 'ptat') return 'beyond-ptat';
+    // a PNP pair has no PTAT tail (its ΔVBE cell's mirror would be the opposite device)
+    if (stageFamily(design) === 'pnp') return 'more-degeneration';
     return (design.pairEmitterResistanceOhm ?? 0) > 0 ? 'ptat-or-more-degeneration' : 'degeneration-or-rising-tail-current';
   }
   return design.tail.topology === 'resistor' ? 'current-source-tail' : 'higher-resistance-tail';
@@ -300,14 +318,19 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   }
   const lowIcm = baseCorners.filter((c) => c.condition.inputCommonModeV === spec.inputCommonMode.minV);
   const highIcm = baseCorners.filter((c) => c.condition.inputCommonModeV === spec.inputCommonMode.maxV);
+  // A PNP stage is the mirror image: its tail runs out of compliance at the highest input (the
+  // tail node, VICM + VEB, nearest the positive rail) and its pair saturates at the lowest (its
+  // emitters nearest its collectors, which hang from the negative rail)
+  const pnpStage = stageFamily(design) === 'pnp';
+  const [tailComplianceIcm, pairSaturationIcm] = pnpStage ? [highIcm, lowIcm] : [lowIcm, highIcm];
   const found = [
     signOffWorst(baseCorners, (c) => c.figures.gain, true),
     signOffWorst(baseCorners, (c) => c.figures.gain, false),
     signOffWorst(baseCorners, (c) => c.figures.cmrrAtFrequencyDb, false),
     signOffWorst(baseCorners, (c) => c.figures.powerW, true),
     signOffWorst(baseCorners, (c) => c.commonModeRejectionDb, false),
-    signOffWorst(lowIcm.length ? lowIcm : baseCorners, (c) => c.figures.tailComplianceMarginV, false),
-    signOffWorst(highIcm.length ? highIcm : baseCorners, (c) => c.figures.pairSaturationMarginV, false),
+    signOffWorst(tailComplianceIcm.length ? tailComplianceIcm : baseCorners, (c) => c.figures.tailComplianceMarginV, false),
+    signOffWorst(pairSaturationIcm.length ? pairSaturationIcm : baseCorners, (c) => c.figures.pairSaturationMarginV, false),
   ];
   const corners: CornerRecord[] = [...baseCorners];
   for (const record of found) if (!corners.includes(record)) corners.push(record);
@@ -407,8 +430,15 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const lowCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.minV);
   // Stryker disable next-line MethodExpression: equivalent, at either temperature the pair's saturation margin is least at the highest input (its emitters sit highest there), so the least of all four corners is a high corner's
   const highCorners = cornerFigures.filter((c) => c.inputCommonModeV === spec.inputCommonMode.maxV);
+  // the PNP stage's ends the other way round, as in the sign-off search above
+  const tailComplianceCorners = pnpStage ? highCorners : lowCorners;
+  const pairSaturationCorners = pnpStage ? lowCorners : highCorners;
+  const tailComplianceMarginV = Math.min(...tailComplianceCorners.map((c) => c.tailComplianceMarginV));
+  const pairSaturationMarginV = Math.min(...pairSaturationCorners.map((c) => c.pairSaturationMarginV)) - swingPeakV;
   // Stryker disable next-line MethodExpression: equivalent, the design is evaluated matched (designAt carries no mismatch), so both collectors sit at one voltage
-  const upRoomV = spec.supply.positiveV - Math.max(predicted.collectorVoltageV, predicted.collector2VoltageV);
+  const upRoomV = pnpStage
+    ? Math.min(predicted.collectorVoltageV, predicted.collector2VoltageV) - spec.supply.negativeV
+    : spec.supply.positiveV - Math.max(predicted.collectorVoltageV, predicted.collector2VoltageV);
   const swingMarginV = Math.min(upRoomV - swingPeakV, predicted.pairSaturationMarginV - swingPeakV);
   // the swing's peak on the output the spec names, against the pair's large-signal transfer at nominal
   const compression = swingCompression(nominalSolution, spec.gain.output, spec.outputSwingVpp / 2, outputGain(spec, predicted));
@@ -459,9 +489,11 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     gainOverConditionsMarginPercent: spec.gain.tolerancePercent - Math.abs(worstGain.errorPercent),
     gainOverConditionsCause: gainCause,
     gainOverConditionsRemedyId: gainRemedy(gainCause, design),
-    icmLowMarginV: Math.min(...lowCorners.map((c) => c.tailComplianceMarginV)),
+    icmLowMarginV: pnpStage ? pairSaturationMarginV : tailComplianceMarginV,
     icmLowV: spec.inputCommonMode.minV,
-    icmHighMarginV: Math.min(...highCorners.map((c) => c.pairSaturationMarginV)) - swingPeakV,
+    icmLowLimitId: pnpStage ? 'pair-saturation' : 'tail-compliance',
+    icmHighMarginV: pnpStage ? tailComplianceMarginV : pairSaturationMarginV,
+    icmHighLimitId: pnpStage ? 'tail-compliance' : 'pair-saturation',
     icmHighV: spec.inputCommonMode.maxV,
     swingMarginV,
     swingPeakPerCollectorV: swingPeakV,

@@ -12,6 +12,7 @@ import { solvedSlewRateVPerS } from './slew-rate';
 import { shiftedDesign } from './sign-off-corners';
 import type { Condition } from './conditions';
 import { deviceModel } from './device';
+import { stageFamily } from './circuit';
 import { BOLTZMANN_J_PER_K, ELEMENTARY_CHARGE_C, NOMINAL_TEMPERATURE_C, ZERO_CELSIUS_K } from './constants';
 import { TOPOLOGY_CATALOGUE, unhandledTopology, type TailDesign, type TopologyId } from './topologies';
 import type { AnalyzeResult, Design, ResistorSeries, Spec } from './types';
@@ -255,9 +256,15 @@ export function outputGain(spec: Spec, result: Pick<AnalyzeResult, 'differential
   return Math.abs(spec.gain.output === 'differential' ? result.differentialGain : result.singleEndedGain);
 }
 
-/** Room below the tail node at the lowest input common mode for emitter degeneration, V. */
+/**
+ * Room between the tail node and the tail's rail for emitter degeneration, V: below it at the
+ * lowest input common mode (NPN), above it at the highest (a PNP stage, the mirror image).
+ */
 function degenerationDropV(spec: Spec, vbeV: number): number {
-  const roomV = spec.inputCommonMode.minV - vbeV - spec.supply.negativeV - spec.device.vceSatV - COMPLIANCE_ROOM_V;
+  const roomV =
+    stageFamily(spec) === 'pnp'
+      ? spec.supply.positiveV - spec.inputCommonMode.maxV - vbeV - spec.device.vceSatV - COMPLIANCE_ROOM_V
+      : spec.inputCommonMode.minV - vbeV - spec.supply.negativeV - spec.device.vceSatV - COMPLIANCE_ROOM_V;
   return Math.min(Math.max(roomV * DEGENERATION_SHARE_OF_ROOM, DEGENERATION_DROP_MIN_V), DEGENERATION_DROP_MAX_V);
 }
 
@@ -272,7 +279,8 @@ function sizeTail(spec: Spec, topology: TopologyId, nominal: Condition, tailA: n
   const withTail = (tail: TailDesign) => designAt(spec, nominal, { ...pair, tail });
   switch (topology) {
     case 'resistor': {
-      const start = (nominal.inputCommonModeV - vbeV - vn) / tailA;
+      // the tail node a VBE below the inputs (a PNP stage: a VEB above), the resistor to the tail's rail
+      const start = (stageFamily(spec) === 'pnp' ? vp - nominal.inputCommonModeV - vbeV : nominal.inputCommonModeV - vbeV - vn) / tailA;
       const r = snap(tuneResistance((x) => withTail({ topology, resistanceOhm: x }), start, tailCurrent, tailA, -1));
       steps.push({ step: 'resistor-tail', handOhm: start, resistanceOhm: r, series });
       return { topology, resistanceOhm: r };

@@ -4,7 +4,7 @@
  * differential DC input on the drive nodes when one is asked (offset and transfer searches).
  * `analyze` builds the small-signal stage and the figures on top (analyze.ts).
  */
-import { stageCircuit, type StageCircuit } from './circuit';
+import { stageCircuit, stageFamily, type StageCircuit } from './circuit';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { withHardFields } from './convergence-hints';
 import { deviceModel, forwardBeta, pnpDeviceOf, type DeviceModel } from './device';
@@ -42,14 +42,18 @@ export function scaledDevice(device: Design['device'], betaScale = 1, earlyVolta
   return scaled;
 }
 
-/** Models of the transistors whose device differs from the stage's NPN (a mismatched pair transistor's BF or VAF, a PNP's), by name. */
+/**
+ * Models of the transistors whose device differs from the stage's own (`device`, NPN or PNP by
+ * its family): a mismatched pair transistor's BF or VAF, and an NPN stage's PNPs (`device.pnp`), by name.
+ */
 function ownTransistorModels(circuit: StageCircuit, design: Design, temperatureC: number): Record<string, DeviceModel> {
   const models: Record<string, DeviceModel> = {};
+  const stageKind = stageFamily(design);
   let pnpModel: DeviceModel | undefined;
   for (const el of circuit.elements) {
-    if (el.kind === 'npn' && (el.betaScale !== undefined || el.earlyVoltageScale !== undefined)) {
+    if (el.kind === stageKind && (el.betaScale !== undefined || el.earlyVoltageScale !== undefined)) {
       models[el.name] = deviceModel(scaledDevice(design.device, el.betaScale, el.earlyVoltageScale), temperatureC);
-    } else if (el.kind === 'pnp') {
+    } else if (el.kind === 'pnp' && stageKind === 'npn') {
       pnpModel ??= deviceModel(pnpDeviceOf(design), temperatureC);
       models[el.name] = pnpModel;
     }

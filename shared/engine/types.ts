@@ -241,12 +241,23 @@ export interface OptionFacts {
   gainOverConditionsCause: string;
   /** Plain words for what would hold the gain over the range, for that cause and tail. */
   gainOverConditionsRemedy: string;
-  /** Tail compliance at the lowest input common-mode voltage (worst temperature), V. */
+  /**
+   * Headroom at the lowest input common-mode voltage (worst temperature), V: an NPN stage's tail
+   * compliance; a PNP stage's pair out of saturation with the swing's positive peak (the mirror image).
+   */
   icmLowMarginV: number;
   icmLowV: number;
-  /** Pair out of saturation at the highest input common-mode voltage with the swing's negative peak, V. */
+  /** Which headroom that is, in words ("the tail source's compliance headroom"), and what a shortfall means. */
+  icmLowHeadroom: string;
+  icmLowShortfall: string;
+  /**
+   * Headroom at the highest input common-mode voltage (worst temperature), V: an NPN stage's pair
+   * out of saturation with the swing's negative peak; a PNP stage's tail compliance.
+   */
   icmHighMarginV: number;
   icmHighV: number;
+  icmHighHeadroom: string;
+  icmHighShortfall: string;
   /** Output swing margin at nominal input common mode: min of upward and downward room, V. */
   swingMarginV: number;
   swingPeakPerCollectorV: number;

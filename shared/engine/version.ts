@@ -12,7 +12,9 @@
 // 3.1.0: the ptat tail (its PNP mirror from device.pnp); each transistor's own card brings its own
 // RB, RE, RC; the reverse transport current's IS takes the area twice as ngspice's does (a figure
 // of a design with an area other than 1, i.e. an IS mismatch, moves by far under its tolerance).
-export const ENGINE_VERSION = '3.1.0';
+// 3.2.0: the "pnp" device family (a PNP pair and tail fed from the other rail, the NPN stage's
+// mirror image); the input common-mode checks' facts name what limits each end of the range.
+export const ENGINE_VERSION = '3.2.0';
 
 /** The sentence every output carries: these are estimates. */
 export const ESTIMATE_NOTICE =

@@ -11,13 +11,13 @@ export interface Spec {
    */
   title: string;
   /**
-   * One NPN model for every transistor of the stage: SPICE's Gummel-Poon model reduced to IS, BF and VAF.
+   * One model for every transistor of the stage (the NPN, or the PNP of a "pnp" stage): SPICE's Gummel-Poon model reduced to IS, BF and VAF.
    */
   device: {
     /**
-     * Transistor type of the pair and the tail; only NPN bipolar transistors today.
+     * Transistor type of the pair and the tail. "npn": emitters to the tail at the bottom, tail element to the negative rail, loads to the positive rail. "pnp": the mirror image (tail element to the positive rail, loads and reference resistors to the negative rail); the device fields then describe the PNP, and the ptat tail (which needs the opposite device) is not available.
      */
-    family: 'npn';
+    family: 'npn' | 'pnp';
     /**
      * Forward current gain BF: collector current over base current, a ratio (A/A). Typical small-signal NPN: 100 to 300.
      */

@@ -6,7 +6,7 @@
  * fields with it).
  */
 import type { InputWarning, OperatingPointProblem } from '../engine/analyze';
-import type { GainRemedy, MeasuredFacts, ProblemAt } from '../engine/option-evaluation';
+import type { GainRemedy, HeadroomLimit, MeasuredFacts, ProblemAt } from '../engine/option-evaluation';
 import type { SizingStep } from '../engine/sizing';
 import type { CurrentBound, WindowRequirement } from '../engine/current-window';
 import { MODEL_LIMITED_ABOVE_DB, type MismatchKind, type MismatchShares } from '../engine/mismatch';
@@ -180,6 +180,8 @@ export function cmrrDifferentialLimitNote(worstCaseDb: number | null, shares: Mi
 export const GAIN_REMEDY_WORDS: Readonly<Record<GainRemedy, string>> = {
   'degeneration-or-rising-tail-current':
     'pair emitter degeneration (the gain then rests on RC/RE more than on IC/VT) or a tail current that rises with temperature (the PTAT (constant-gm) source, a ΔVBE cell, listed with a PNP in the spec)',
+  'more-degeneration':
+    'more pair emitter degeneration (the gain then rests on RC/RE more than on IC/VT); a tail current that rises with temperature, the PTAT source, needs an NPN pair (its mirror is of the opposite type)',
   'ptat-or-more-degeneration':
     'more pair emitter degeneration than this pair has (the gain then rests on RC/RE still more than on IC/VT) or a tail current that rises with temperature (the PTAT (constant-gm) source, a ΔVBE cell, listed with a PNP in the spec)',
   'beyond-ptat':
@@ -187,6 +189,21 @@ export const GAIN_REMEDY_WORDS: Readonly<Record<GainRemedy, string>> = {
   'current-source-tail': 'a current-source tail instead of the resistor (the tail current then stops following the input common mode)',
   'higher-resistance-tail': 'a tail with a higher output resistance (its current then moves less with the input common mode)',
 };
+
+/**
+ * The words for what limits one end of the input common-mode range: the headroom it is and what
+ * running out of it means. The tail's compliance runs out towards the rail its element returns
+ * to (the negative one at an NPN stage's low end, the positive one at a PNP stage's high end); the
+ * pair saturates with the output swing's peak towards its own inputs (negative at an NPN stage's
+ * high end, positive at a PNP stage's low end).
+ */
+function headroomFacts(prefix: 'icmLow' | 'icmHigh', end: 'low' | 'high', limit: HeadroomLimit): Record<string, string> {
+  const words =
+    limit === 'tail-compliance'
+      ? { headroom: "the tail source's compliance headroom", shortfall: `the tail node sits too close to the ${end === 'low' ? 'negative' : 'positive'} rail` }
+      : { headroom: `the pair's collector headroom with the output swing's ${end === 'low' ? 'positive' : 'negative'} peak`, shortfall: 'the pair saturates' };
+  return { [`${prefix}Headroom`]: words.headroom, [`${prefix}Shortfall`]: words.shortfall };
+}
 
 /**
  * An option's facts with their worded ones written from the figures beside them: the remedy's
@@ -197,6 +214,8 @@ export function wordedFacts(measured: MeasuredFacts): OptionFacts {
   const facts: Record<string, unknown> = {};
   for (const [key, value] of Object.entries(measured)) {
     if (key === 'gainOverConditionsRemedyId') facts.gainOverConditionsRemedy = GAIN_REMEDY_WORDS[value as GainRemedy];
+    else if (key === 'icmLowLimitId') Object.assign(facts, headroomFacts('icmLow', 'low', value as HeadroomLimit));
+    else if (key === 'icmHighLimitId') Object.assign(facts, headroomFacts('icmHigh', 'high', value as HeadroomLimit));
     else if (key === 'operatingPointProblemsAt') facts.operatingPointProblems = (value as ProblemAt[]).map(problemAtText);
     else if (key === 'cmrrDifferentialSharesPercent') facts.cmrrDifferentialLimitNote = cmrrDifferentialLimitNote(measured.cmrrDifferentialWorstCaseDb, value as MismatchShares | null);
     else if (key === 'tailCurrentWindow') facts.tailCurrentWindowNote = tailCurrentWindowFact(measured.tailCurrentWindow);

@@ -19,7 +19,8 @@ export function specCrossFieldIssues(spec: Spec): ValidationIssue[] {
     ...optionalResistanceIssues('/sourceResistanceOhm', spec.sourceResistanceOhm),
     ...railOrderIssues(spec.supply, label),
     ...deviceCardIssues(spec.device),
-    ...pnpIssues(spec.device, spec.topologies, 'the tail options include', label),
+    ...familyIssues(spec.device, spec.topologies, '/topologies', 'the tail options include'),
+    ...(spec.device.family === 'pnp' ? [] : pnpIssues(spec.device, spec.topologies, 'the tail options include', label)),
     ...betaRangeIssues(spec, label),
     ...offsetLimitIssues(spec, label),
     ...noisePairIssues(spec, label),
@@ -52,7 +53,11 @@ export function designCrossFieldIssues(design: Design): ValidationIssue[] {
     ...optionalResistanceIssues('/sourceResistanceOhm', design.sourceResistanceOhm),
     ...railOrderIssues(design.supply, designFieldLabel),
   ];
-  const cardIssues = [...deviceCardIssues(design.device), ...pnpIssues(design.device, [design.tail.topology], 'the tail is', designFieldLabel)];
+  const cardIssues = [
+    ...deviceCardIssues(design.device),
+    ...familyIssues(design.device, [design.tail.topology], '/tail/topology', 'the tail is'),
+    ...(design.device.family === 'pnp' ? [] : pnpIssues(design.device, [design.tail.topology], 'the tail is', designFieldLabel)),
+  ];
   // Stryker disable next-line ConditionalExpression: equivalent, an undefined voltage compares false with both rails and gives no issue
   if (issues.length > 0 || design.inputCommonModeV === undefined) return [...issues, ...cardIssues];
   return [...cardIssues, ...insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, designFieldLabel)];
@@ -87,6 +92,20 @@ function pnpIssues(device: DeviceParams | undefined, topologies: readonly Topolo
     return [{ path: '/device/pnp/beta', message: `is required unless ${label('/device/pnp/model')} is given` }];
   }
   return deviceCardIssues(pnp, '/device/pnp');
+}
+
+/**
+ * A PNP stage (`device.family` "pnp") takes the mirror image of every tail built from the stage's
+ * own device; a tail that needs a second device of the opposite type (the catalogue's
+ * `needsDevice`, the PTAT tail's PNP mirror) would need an NPN there, which a design cannot carry.
+ */
+function familyIssues(device: DeviceParams | undefined, topologies: readonly TopologyId[], path: string, chosen: string): ValidationIssue[] {
+  if (device?.family !== 'pnp') return [];
+  const needing = topologies.filter((id) => TOPOLOGY_CATALOGUE[id].needsDevice !== undefined);
+  if (needing.length === 0) return [];
+  const names = needing.map((id) => TOPOLOGY_CATALOGUE[id].name).join(' and ');
+  const verb = needing.length > 1 ? 'need' : 'needs';
+  return [{ path, message: `${chosen} the ${names}, which ${verb} an NPN pair (device family "npn"): its mirror is of the opposite type, an NPN for a PNP pair, which a design cannot carry; choose another tail or the NPN family` }];
 }
 
 /** With `device.model` given, `beta`, `earlyVoltageV` and `saturationCurrentA` may be left out, and where given equal BF, VAF and IS. */

@@ -68,15 +68,17 @@ describe('figures worded', () => {
 
   /** Measured facts from the shared option facts (their worded ones left out). */
   function wordedInput(): MeasuredFacts {
-    const { gainOverConditionsRemedy: _w, tailOutputResistanceNote: _n, operatingPointProblems: _p, cmrrDifferentialLimitNote: _l, tailCurrentWindowNote: _t, ...rest } = makeOptionFacts();
-    return { ...rest, gainOverConditionsRemedyId: 'current-source-tail', operatingPointProblemsAt: [], cmrrDifferentialSharesPercent: null, tailCurrentWindow: null };
+    const { gainOverConditionsRemedy: _w, tailOutputResistanceNote: _n, operatingPointProblems: _p, cmrrDifferentialLimitNote: _l, tailCurrentWindowNote: _t, icmLowHeadroom: _lh, icmLowShortfall: _ls, icmHighHeadroom: _hh, icmHighShortfall: _hs, ...rest } = makeOptionFacts();
+    return { ...rest, gainOverConditionsRemedyId: 'current-source-tail', icmLowLimitId: 'tail-compliance', icmHighLimitId: 'pair-saturation', operatingPointProblemsAt: [], cmrrDifferentialSharesPercent: null, tailCurrentWindow: null };
   }
 
   test('when an option\'s facts are worded, then the remedy id and the problems become words in their places and the Rout note is written from the figures', () => {
-    const { gainOverConditionsRemedy: _words, tailOutputResistanceNote: _note, operatingPointProblems: _problems, cmrrDifferentialLimitNote: _limit, tailCurrentWindowNote: _window, ...rest } = makeOptionFacts();
+    const { gainOverConditionsRemedy: _words, tailOutputResistanceNote: _note, operatingPointProblems: _problems, cmrrDifferentialLimitNote: _limit, tailCurrentWindowNote: _window, icmLowHeadroom: _lh, icmLowShortfall: _ls, icmHighHeadroom: _hh, icmHighShortfall: _hs, ...rest } = makeOptionFacts();
     const measured: MeasuredFacts = {
       ...rest,
       gainOverConditionsRemedyId: 'current-source-tail',
+      icmLowLimitId: 'tail-compliance',
+      icmHighLimitId: 'pair-saturation',
       operatingPointProblemsAt: [
         { conditionLabel: 'ICM 3.5 V, 5 °C', problem: { problem: 'saturated', transistor: 'Q2', vceV: 0.0204, currentGainLossFraction: 0.9981, limitFraction: 0.05 } },
         { conditionLabel: 'ICM \u22123.2 V, 5 °C', problem: { problem: 'dead-reference' } },
@@ -111,14 +113,25 @@ describe('figures worded', () => {
       'ICM \u22123.2 V, 5 °C: The reference branch carries no current: the rails are too close for this tail.',
     ]);
     expect('gainOverConditionsRemedyId' in facts).toBe(false);
-    const worded: Record<string, string> = {
-      gainOverConditionsRemedyId: 'gainOverConditionsRemedy',
-      operatingPointProblemsAt: 'operatingPointProblems',
-      cmrrDifferentialSharesPercent: 'cmrrDifferentialLimitNote',
-      tailCurrentWindow: 'tailCurrentWindowNote',
+    const worded: Record<string, string[]> = {
+      gainOverConditionsRemedyId: ['gainOverConditionsRemedy'],
+      icmLowLimitId: ['icmLowHeadroom', 'icmLowShortfall'],
+      icmHighLimitId: ['icmHighHeadroom', 'icmHighShortfall'],
+      operatingPointProblemsAt: ['operatingPointProblems'],
+      cmrrDifferentialSharesPercent: ['cmrrDifferentialLimitNote'],
+      tailCurrentWindow: ['tailCurrentWindowNote'],
     };
-    const measuredKeys = Object.keys(measured).map((key) => worded[key] ?? key);
+    const measuredKeys = Object.keys(measured).flatMap((key) => worded[key] ?? [key]);
     expect(Object.keys(facts)).toEqual([...measuredKeys, 'tailOutputResistanceNote']);
+  });
+
+  test('when an end of the input common-mode range is worded, then an NPN stage’s low end is the tail’s compliance towards the negative rail and a PNP stage’s the pair’s saturation (the mirror image)', () => {
+    const npn = wordedFacts(wordedInput());
+    expect([npn.icmLowHeadroom, npn.icmLowShortfall]).toEqual(["the tail source's compliance headroom", 'the tail node sits too close to the negative rail']);
+    expect([npn.icmHighHeadroom, npn.icmHighShortfall]).toEqual(["the pair's collector headroom with the output swing's negative peak", 'the pair saturates']);
+    const pnp = wordedFacts({ ...wordedInput(), icmLowLimitId: 'pair-saturation', icmHighLimitId: 'tail-compliance' });
+    expect([pnp.icmLowHeadroom, pnp.icmLowShortfall]).toEqual(["the pair's collector headroom with the output swing's positive peak", 'the pair saturates']);
+    expect([pnp.icmHighHeadroom, pnp.icmHighShortfall]).toEqual(["the tail source's compliance headroom", 'the tail node sits too close to the positive rail']);
   });
 
   test('when the targets collide, then the window note names both requirements and their currents; without a window, what set the current', () => {

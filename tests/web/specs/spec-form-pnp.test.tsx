@@ -109,3 +109,14 @@ describe('the spec form’s PNP transistor', () => {
     expect((screen.getByLabelText(/^PNP saturation current/) as HTMLInputElement).value).toBe('6.3 fA');
   });
 });
+
+describe('the spec form’s device family', () => {
+  test('when the spec is an NPN one, then the family reads NPN bipolar; when it is a PNP one (from the API or an import), it reads PNP, not NPN', async () => {
+    renderForm();
+    expect(((await screen.findByLabelText(/^Device family/)) as HTMLInputElement).value).toBe('NPN bipolar');
+    cleanup();
+    network?.assertNoUnexpectedRequests();
+    renderForm({ ...SAVED, device: { family: 'pnp' } });
+    expect(((await screen.findByLabelText(/^Device family/)) as HTMLInputElement).value).toBe('PNP bipolar (mirror image, fed from the other rail)');
+  });
+});

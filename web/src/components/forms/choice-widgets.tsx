@@ -155,8 +155,13 @@ export function CheckboxWidget({ id, htmlName, label, value, disabled, readonly,
   );
 }
 
-/** A value the schema fixes (a `const`): shown, not edited. `ui:options.display` names it in words. */
+/**
+ * A value the form does not edit (a `const`, or a choice made outside the form): shown, not
+ * edited. `ui:options.display` names it in words, or `ui:options.displayByValue` each value.
+ */
 export function FixedWidget({ id, htmlName, value, options }: WidgetProps) {
-  const shown = typeof options.display === 'string' ? options.display : String(value ?? '');
+  const byValue = options.displayByValue as Record<string, string> | undefined;
+  const named = byValue && typeof value === 'string' ? byValue[value] : undefined;
+  const shown = named ?? (typeof options.display === 'string' ? options.display : String(value ?? ''));
   return <input id={id} name={htmlName || id} readOnly value={shown} aria-describedby={ariaDescribedByIds(id)} className={inputClass({ readonly: true })} />;
 }

@@ -45,7 +45,7 @@ export const ENUM_WORDS: Record<string, Record<string, string>> = {
   topologies: TOPOLOGY_WORDS,
   policy: { 'simplest-sufficient': 'Simplest sufficient', 'highest-rejection': 'Highest rejection' },
   output: { differential: 'Differential', 'single-ended': 'Single-ended' },
-  family: { npn: 'NPN' },
+  family: { npn: 'NPN', pnp: 'PNP' },
 };
 
 export const SPEC_UI_SCHEMA: UiSchema = {
@@ -53,7 +53,8 @@ export const SPEC_UI_SCHEMA: UiSchema = {
   title: { 'ui:placeholder': 'e.g. Bridge amplifier input stage', 'ui:options': { large: true, wide: true } },
   deviceModel: { 'ui:field': 'deviceModel' },
   device: {
-    family: { 'ui:widget': 'fixed', 'ui:options': { display: 'NPN bipolar' } },
+    // the form builds NPN stages; a PNP spec (from the API, the command line or an import) shows as one
+    family: { 'ui:widget': 'fixed', 'ui:options': { display: 'NPN bipolar', displayByValue: { npn: 'NPN bipolar', pnp: 'PNP bipolar (mirror image, fed from the other rail)' } } },
     saturationCurrentA: { 'ui:placeholder': 'from VBE at 1 mA' },
     model: { 'ui:field': 'cardModel' },
     pnp: {
