@@ -320,7 +320,9 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const anyTarget = Object.values(targets).some(Boolean);
   const shared = draws ?? (anyTarget || differentialOutput ? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed) : null);
   // the slew rate (a transient) only where its search needs it: not at every base corner
-  const tradeoffs: ConditionEntry[] = anyTarget ? baseCorners.map((c) => withoutSlew(tradeoffAtCondition(spec, c.figures.label, c.solution, c.screening, sigmas, undefined, 'slewRateVPerS'))) : [];
+  const tradeoffs: ConditionEntry[] = anyTarget
+    ? baseCorners.map((c) => withoutSlew(tradeoffAtCondition(spec, c.figures.label, c.solution, c.screening, sigmas, undefined, 'slewRateVPerS', predicted.linearInputRangeV)))
+    : [];
   const searched: ConditionEntry[] = [];
   if (anyTarget) {
     const tradeoffCache = new Map<CornerRecord, ConditionEntry>();
@@ -331,7 +333,14 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
         entry = { label: record.figures.label };
         tradeoffCache.set(record, entry);
       }
-      if (entry[key] === undefined) entry[key] = tradeoffAtCondition(spec, record.figures.label, record.solution, null, sigmas, key)[key];
+      if (entry[key] === undefined) {
+        // a shifted corner's search starts from its base corner's linear range; its screening solves serve both rails' rejection
+        const baseIndex = baseCorners.findIndex((c) => c.condition.temperatureC === record.condition.temperatureC && c.condition.inputCommonModeV === record.condition.inputCommonModeV);
+        const hint = baseIndex >= 0 ? (tradeoffs[baseIndex].linearInputRangeV ?? null) : predicted.linearInputRangeV;
+        const needsScreening = differentialOutput && (key === 'psrrPositiveDb' || key === 'psrrNegativeDb');
+        if (needsScreening) record.screening ??= screeningStages(record.solution);
+        entry[key] = tradeoffAtCondition(spec, record.figures.label, record.solution, record.screening, sigmas, key, undefined, hint)[key];
+      }
       return entry[key] as number;
     };
     for (const [key, set, higherIsWorse, nullAs] of SEARCHED_TRADEOFFS) {

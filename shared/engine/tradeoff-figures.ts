@@ -98,6 +98,7 @@ function differentialPsrrWorstCaseDb(stages: ScreeningStages, rail: 'positive' |
 /**
  * The trade-off figures of one condition's solution. `screening`: its screening solves when the
  * caller made them (a differential output); made here when a target needs them.
+ * `linearRangeHintV`: the linear range at a nearby condition, where its search starts.
  */
 export function tradeoffAtCondition(
   spec: Spec,
@@ -107,6 +108,7 @@ export function tradeoffAtCondition(
   sigmas: MismatchSigmas,
   only?: keyof Omit<TradeoffAtCondition, 'label'>,
   except?: keyof Omit<TradeoffAtCondition, 'label'>,
+  linearRangeHintV: number | null = null,
 ): TradeoffAtCondition {
   const targets = tradeoffTargets(spec);
   const want = (key: keyof Omit<TradeoffAtCondition, 'label'>) => (only === undefined || only === key) && key !== except;
@@ -131,7 +133,7 @@ export function tradeoffAtCondition(
     bandwidthHz: targets.bandwidth && want('bandwidthHz') ? differentialBandwidthHzOf(solution.stage) : null,
     psrrPositiveDb: psrr('positive', targets.psrrPositive && want('psrrPositiveDb')),
     psrrNegativeDb: psrr('negative', targets.psrrNegative && want('psrrNegativeDb')),
-    linearInputRangeV: targets.linearRange && want('linearInputRangeV') ? linearInputRangeV(solution.design, operatingPoint, solution.stage.low.differentialGain.re) : null,
+    linearInputRangeV: targets.linearRange && want('linearInputRangeV') ? linearInputRangeV(solution.design, operatingPoint, solution.stage.low.differentialGain.re, linearRangeHintV) : null,
     // the transient's own failure (null) counts as no slew at all: the check then fails
     slewRateVPerS: targets.slewRate && want('slewRateVPerS') ? (solvedSlewRateVPerS(solution) ?? 0) : null,
     offsetPerMismatchV: stages && offsetWanted ? offsetSensitivitiesV(stages) : null,
