@@ -4,7 +4,7 @@
  * checks are decided on (worst corner taken, margins computed; rules only compare).
  */
 import { cornerConditions, nominalCondition, shiftedCondition, temperatureSweep, type Condition } from './conditions';
-import { activeDimensions, NO_SHIFT, type CornerShift, type ShiftSigns } from './sign-off-corners';
+import { activeDimensions, NO_SHIFT, SHIFT_DIMENSIONS, type CornerShift, type ShiftSigns } from './sign-off-corners';
 import { solveCircuit, solveCondition, solveStage, singleEndedCmrrDbAt, transfersAt, type ConditionSolution, type OperatingPointProblem, type SolvedCircuit, type StageSolution } from './analyze';
 import { magnitude } from './small-signal';
 import { firstNonFinitePath } from './finite';
@@ -270,11 +270,14 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   // end worsens it; the corner with all of them there is solved and kept when it is worse still.
   const perturbed = new Map<string, CornerRecord>();
   const combined = new Map<string, CornerRecord>();
-  const recordAt = (cache: Map<string, CornerRecord>, condition: Condition): CornerRecord => {
-    let record = cache.get(condition.label);
+  // by the base corner and the sign vector (each sign vector names one condition): the condition
+  // and its worded label are built only for a corner not solved yet
+  const recordAt = (cache: Map<string, CornerRecord>, base: CornerRecord, signs: ShiftSigns): CornerRecord => {
+    const key = `${base.condition.label}|${SHIFT_DIMENSIONS.map((d) => signs[d]).join()}`;
+    let record = cache.get(key);
     if (!record) {
-      record = cornerRecord(condition, false);
-      cache.set(condition.label, record);
+      record = cornerRecord(shiftedCondition(spec, base.condition, signs), false);
+      cache.set(key, record);
     }
     return record;
   };
@@ -292,10 +295,10 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     const signs: Record<string, -1 | 0 | 1> = { ...NO_SHIFT };
     const here = direction(base);
     for (const dimension of dimensions) {
-      const moved = recordAt(perturbed, shiftedCondition(spec, base.condition, { ...NO_SHIFT, [dimension]: 1 }));
+      const moved = recordAt(perturbed, base, { ...NO_SHIFT, [dimension]: 1 });
       signs[dimension] = worse(here, direction(moved)) ? 1 : -1;
     }
-    const corner = recordAt(combined, shiftedCondition(spec, base.condition, signs as unknown as ShiftSigns));
+    const corner = recordAt(combined, base, signs as unknown as ShiftSigns);
     return worse(read(base), read(corner)) ? corner : base;
   }
   const lowIcm = baseCorners.filter((c) => c.condition.inputCommonModeV === spec.inputCommonMode.minV);
