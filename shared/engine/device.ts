@@ -96,15 +96,22 @@ export function saturationCurrentAtA(isNominalA: number, temperatureC: number, e
 /**
  * A diode current s·(exp(v/vtn) − 1) and its derivative, as ngspice bjtload.c writes it: below
  * −3·vtn the exponential gives way to −s·(1 + (3·vtn/(v·e))³), which joins it smoothly [SPICE].
+ * The result is left in `junctionA` and `junctionS` (read at once by the caller): the innermost
+ * loop of every solve allocates nothing for it.
  */
-function junction(saturationA: number, vV: number, vtnV: number): { iA: number; gS: number } {
+let junctionA = 0;
+let junctionS = 0;
+function junction(saturationA: number, vV: number, vtnV: number): void {
   if (vV >= -3 * vtnV) {
     const ev = Math.exp(vV / vtnV);
-    return { iA: saturationA * (ev - 1), gS: (saturationA * ev) / vtnV };
+    junctionA = saturationA * (ev - 1);
+    junctionS = (saturationA * ev) / vtnV;
+    return;
   }
   let arg = (3 * vtnV) / (vV * Math.E);
   arg = arg * arg * arg;
-  return { iA: -saturationA * (1 + arg), gS: (saturationA * 3 * arg) / vV };
+  junctionA = -saturationA * (1 + arg);
+  junctionS = (saturationA * 3 * arg) / vV;
 }
 
 /**
@@ -153,25 +160,29 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
     ohmic: { baseOhm: p.RB, emitterOhm: p.RE, collectorOhm: p.RC },
     parameters: p,
     evaluate(vbeV, vbcV, area) {
-      const be = junction(isA * area, vbeV, vtfV);
+      junction(isA * area, vbeV, vtfV);
+      const beA = junctionA;
+      const beS = junctionS;
       // The reverse transport current's IS is IS·area·areab (areac for a lateral PNP), and an
       // instance's areab and areac default to its area [SPICE] (ngspice bjttemp.c BJTBCtSatCur,
       // bjtsetup.c): IS·area² (measured on both builds: at 125 °C an area-16 transistor's base
       // current moves by 4 % with it)
-      const bc = junction(isA * area * area, vbcV, vtrV);
+      junction(isA * area * area, vbcV, vtrV);
+      const bcA = junctionA;
+      const bcS = junctionS;
       let cbenA = gminS * vbeV;
       let gbenS = gminS;
       if (iseA !== 0) {
-        const leak = junction(iseA * area, vbeV, vteV);
-        cbenA += leak.iA;
-        gbenS += leak.gS;
+        junction(iseA * area, vbeV, vteV);
+        cbenA += junctionA;
+        gbenS += junctionS;
       }
       let cbcnA = gminS * vbcV;
       let gbcnS = gminS;
       if (iscA !== 0) {
-        const leak = junction(iscA * area, vbcV, vtcV);
-        cbcnA += leak.iA;
-        gbcnS += leak.gS;
+        junction(iscA * area, vbcV, vtcV);
+        cbcnA += junctionA;
+        gbcnS += junctionS;
       }
       // Base charge qb and its derivatives (ngspice bjtload.c, "determine base charge terms") [SPICE]
       const q1 = 1 / (1 - vbcV * inverseVafPerV - vbeV * inverseVarPerV);
@@ -181,28 +192,28 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
       if (highInjection) {
         const oik = inverseIkfPerA / area;
         const oikr = inverseIkrPerA / area;
-        const arg = Math.max(0, 1 + 4 * (oik * be.iA + oikr * bc.iA));
+        const arg = Math.max(0, 1 + 4 * (oik * beA + oikr * bcA));
         const sqarg = arg !== 0 ? Math.sqrt(arg) : 1;
         qb = (q1 * (1 + sqarg)) / 2;
-        dqbDVbe = q1 * (qb * inverseVarPerV + (oik * be.gS) / sqarg);
-        dqbDVbc = q1 * (qb * inverseVafPerV + (oikr * bc.gS) / sqarg);
+        dqbDVbe = q1 * (qb * inverseVarPerV + (oik * beS) / sqarg);
+        dqbDVbc = q1 * (qb * inverseVafPerV + (oikr * bcS) / sqarg);
       }
-      const transportA = be.iA - bc.iA;
+      const transportA = beA - bcA;
       // go, gm as ngspice defines them: ∂ic/∂vbe = gm + go, ∂ic/∂vbc = −(go + gmu) [SPICE]
-      const goS = (bc.gS + (transportA * dqbDVbc) / qb) / qb;
-      const gmS = (be.gS - (transportA * dqbDVbe) / qb) / qb - goS;
-      const gmuS = bc.gS / br + gbcnS;
+      const goS = (bcS + (transportA * dqbDVbc) / qb) / qb;
+      const gmS = (beS - (transportA * dqbDVbe) / qb) / qb - goS;
+      const gmuS = bcS / br + gbcnS;
       return {
-        icA: transportA / qb - bc.iA / br - cbcnA,
-        ibA: be.iA / bf + cbenA + bc.iA / br + cbcnA,
+        icA: transportA / qb - bcA / br - cbcnA,
+        ibA: beA / bf + cbenA + bcA / br + cbcnA,
         dIcDVbeS: gmS + goS,
         dIcDVbcS: -(goS + gmuS),
-        dIbDVbeS: be.gS / bf + gbenS,
+        dIbDVbeS: beS / bf + gbenS,
         dIbDVbcS: gmuS,
-        forwardA: be.iA,
-        forwardS: be.gS,
-        reverseA: bc.iA,
-        reverseS: bc.gS,
+        forwardA: beA,
+        forwardS: beS,
+        reverseA: bcA,
+        reverseS: bcS,
         qb,
         dqbDVbe,
         dqbDVbc,
@@ -213,26 +224,22 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
 
 /** The device model for a family; today only "npn". */
 export function deviceModel(device: DeviceParams, temperatureC: number): DeviceModel {
-  let byTemperature = modelsByDevice.get(device);
-  if (!byTemperature) {
-    byTemperature = new Map();
-    modelsByDevice.set(device, byTemperature);
-  }
-  let model = byTemperature.get(temperatureC);
-  if (!model) {
-    model = npnModel(device, temperatureC);
-    byTemperature.set(temperatureC, model);
-  }
+  for (const entry of recentModels) if (entry.device === device && entry.temperatureC === temperatureC) return entry.model;
+  const model = npnModel(device, temperatureC);
+  recentModels.unshift({ device, temperatureC, model });
+  if (recentModels.length > RECENT_MODELS) recentModels.pop();
   return model;
 }
 
 /**
- * Models already built, by device object and temperature: one recommendation solves each sized
+ * The models last built, by device object and temperature: one recommendation solves each sized
  * design at dozens of conditions that share a device and a few temperatures. A device object is
  * never changed once a design holds it (the engine builds new ones, as a mismatch's scaled BF
- * does), so its model stays what it was built as.
+ * does), so its model stays what it was built as. A short list, not a map keyed by every device
+ * ever seen: the scaled devices of the mismatch solves are each used once.
  */
-const modelsByDevice = new WeakMap<DeviceParams, Map<number, DeviceModel>>();
+const RECENT_MODELS = 16;
+const recentModels: { device: DeviceParams; temperatureC: number; model: DeviceModel }[] = [];
 
 /** The PNP a design's tail needs (`device.pnp`), as a device the model reads: IS, BF, VAF or a card. */
 export type PnpDevice = NonNullable<DeviceParams['pnp']>;
