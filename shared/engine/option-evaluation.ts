@@ -5,7 +5,7 @@
  */
 import { cornerConditions, nominalCondition, shiftedCondition, temperatureSweep, type Condition } from './conditions';
 import { activeDimensions, NO_SHIFT, SHIFT_DIMENSIONS, type CornerShift, type ShiftSigns } from './sign-off-corners';
-import { solveCircuit, solveCondition, solveStage, singleEndedCmrrDbAt, transfersAt, type ConditionSolution, type OperatingPointProblem, type SolvedCircuit, type StageSolution } from './analyze';
+import { solveCircuit, solveCondition, solvedTailCurrentA, solveStage, singleEndedCmrrDbAt, transfersAt, type ConditionSolution, type OperatingPointProblem, type SolvedCircuit, type StageSolution } from './analyze';
 import { magnitude } from './small-signal';
 import { firstNonFinitePath } from './finite';
 import { cardOf, cardStoresCharge } from './bjt-parameters';
@@ -402,7 +402,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   };
   // the tail resistors' tempco at either sign moves the tail current with temperature too: the larger drift counts
   const tempcoSweeps = (spec.resistors.tempcoPpmPerC ?? 0) > 0
-    ? ([-1, 1] as const).map((sign) => sweepConditions.map((c) => at(spec, design, shiftedCondition(spec, c, { ...NO_SHIFT, tailTempco: sign })).result.tailCurrentA))
+    ? ([-1, 1] as const).map((sign) => sweepConditions.map((c) => solvedTailCurrentA(designAtCondition(spec, design, shiftedCondition(spec, c, { ...NO_SHIFT, tailTempco: sign })))))
     : [];
   const driftPercent = Math.max(spreadPercent(sweep.map((r) => r.tailCurrentA)), ...tempcoSweeps.map(spreadPercent));
   const icmLow = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.minV }).result;
