@@ -96,22 +96,15 @@ export function saturationCurrentAtA(isNominalA: number, temperatureC: number, e
 /**
  * A diode current s·(exp(v/vtn) − 1) and its derivative, as ngspice bjtload.c writes it: below
  * −3·vtn the exponential gives way to −s·(1 + (3·vtn/(v·e))³), which joins it smoothly [SPICE].
- * The result is left in `junctionA` and `junctionS` (read at once by the caller): the innermost
- * loop of every solve allocates nothing for it.
  */
-let junctionA = 0;
-let junctionS = 0;
-function junction(saturationA: number, vV: number, vtnV: number): void {
+function junction(saturationA: number, vV: number, vtnV: number): { iA: number; gS: number } {
   if (vV >= -3 * vtnV) {
     const ev = Math.exp(vV / vtnV);
-    junctionA = saturationA * (ev - 1);
-    junctionS = (saturationA * ev) / vtnV;
-    return;
+    return { iA: saturationA * (ev - 1), gS: (saturationA * ev) / vtnV };
   }
   let arg = (3 * vtnV) / (vV * Math.E);
   arg = arg * arg * arg;
-  junctionA = -saturationA * (1 + arg);
-  junctionS = (saturationA * 3 * arg) / vV;
+  return { iA: -saturationA * (1 + arg), gS: (saturationA * 3 * arg) / vV };
 }
 
 /**
@@ -160,29 +153,25 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
     ohmic: { baseOhm: p.RB, emitterOhm: p.RE, collectorOhm: p.RC },
     parameters: p,
     evaluate(vbeV, vbcV, area) {
-      junction(isA * area, vbeV, vtfV);
-      const beA = junctionA;
-      const beS = junctionS;
+      const be = junction(isA * area, vbeV, vtfV);
       // The reverse transport current's IS is IS·area·areab (areac for a lateral PNP), and an
       // instance's areab and areac default to its area [SPICE] (ngspice bjttemp.c BJTBCtSatCur,
       // bjtsetup.c): IS·area² (measured on both builds: at 125 °C an area-16 transistor's base
       // current moves by 4 % with it)
-      junction(isA * area * area, vbcV, vtrV);
-      const bcA = junctionA;
-      const bcS = junctionS;
+      const bc = junction(isA * area * area, vbcV, vtrV);
       let cbenA = gminS * vbeV;
       let gbenS = gminS;
       if (iseA !== 0) {
-        junction(iseA * area, vbeV, vteV);
-        cbenA += junctionA;
-        gbenS += junctionS;
+        const leak = junction(iseA * area, vbeV, vteV);
+        cbenA += leak.iA;
+        gbenS += leak.gS;
       }
       let cbcnA = gminS * vbcV;
       let gbcnS = gminS;
       if (iscA !== 0) {
-        junction(iscA * area, vbcV, vtcV);
-        cbcnA += junctionA;
-        gbcnS += junctionS;
+        const leak = junction(iscA * area, vbcV, vtcV);
+        cbcnA += leak.iA;
+        gbcnS += leak.gS;
       }
       // Base charge qb and its derivatives (ngspice bjtload.c, "determine base charge terms") [SPICE]
       const q1 = 1 / (1 - vbcV * inverseVafPerV - vbeV * inverseVarPerV);
@@ -192,28 +181,28 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
       if (highInjection) {
         const oik = inverseIkfPerA / area;
         const oikr = inverseIkrPerA / area;
-        const arg = Math.max(0, 1 + 4 * (oik * beA + oikr * bcA));
+        const arg = Math.max(0, 1 + 4 * (oik * be.iA + oikr * bc.iA));
         const sqarg = arg !== 0 ? Math.sqrt(arg) : 1;
         qb = (q1 * (1 + sqarg)) / 2;
-        dqbDVbe = q1 * (qb * inverseVarPerV + (oik * beS) / sqarg);
-        dqbDVbc = q1 * (qb * inverseVafPerV + (oikr * bcS) / sqarg);
+        dqbDVbe = q1 * (qb * inverseVarPerV + (oik * be.gS) / sqarg);
+        dqbDVbc = q1 * (qb * inverseVafPerV + (oikr * bc.gS) / sqarg);
       }
-      const transportA = beA - bcA;
+      const transportA = be.iA - bc.iA;
       // go, gm as ngspice defines them: ∂ic/∂vbe = gm + go, ∂ic/∂vbc = −(go + gmu) [SPICE]
-      const goS = (bcS + (transportA * dqbDVbc) / qb) / qb;
-      const gmS = (beS - (transportA * dqbDVbe) / qb) / qb - goS;
-      const gmuS = bcS / br + gbcnS;
+      const goS = (bc.gS + (transportA * dqbDVbc) / qb) / qb;
+      const gmS = (be.gS - (transportA * dqbDVbe) / qb) / qb - goS;
+      const gmuS = bc.gS / br + gbcnS;
       return {
-        icA: transportA / qb - bcA / br - cbcnA,
-        ibA: beA / bf + cbenA + bcA / br + cbcnA,
+        icA: transportA / qb - bc.iA / br - cbcnA,
+        ibA: be.iA / bf + cbenA + bc.iA / br + cbcnA,
         dIcDVbeS: gmS + goS,
         dIcDVbcS: -(goS + gmuS),
-        dIbDVbeS: beS / bf + gbenS,
+        dIbDVbeS: be.gS / bf + gbenS,
         dIbDVbcS: gmuS,
-        forwardA: beA,
-        forwardS: beS,
-        reverseA: bcA,
-        reverseS: bcS,
+        forwardA: be.iA,
+        forwardS: be.gS,
+        reverseA: bc.iA,
+        reverseS: bc.gS,
         qb,
         dqbDVbe,
         dqbDVbc,
@@ -224,22 +213,26 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
 
 /** The device model for a family; today only "npn". */
 export function deviceModel(device: DeviceParams, temperatureC: number): DeviceModel {
-  for (const entry of recentModels) if (entry.device === device && entry.temperatureC === temperatureC) return entry.model;
-  const model = npnModel(device, temperatureC);
-  recentModels.unshift({ device, temperatureC, model });
-  if (recentModels.length > RECENT_MODELS) recentModels.pop();
+  let byTemperature = modelsByDevice.get(device);
+  if (!byTemperature) {
+    byTemperature = new Map();
+    modelsByDevice.set(device, byTemperature);
+  }
+  let model = byTemperature.get(temperatureC);
+  if (!model) {
+    model = npnModel(device, temperatureC);
+    byTemperature.set(temperatureC, model);
+  }
   return model;
 }
 
 /**
- * The models last built, by device object and temperature: one recommendation solves each sized
+ * Models already built, by device object and temperature: one recommendation solves each sized
  * design at dozens of conditions that share a device and a few temperatures. A device object is
  * never changed once a design holds it (the engine builds new ones, as a mismatch's scaled BF
- * does), so its model stays what it was built as. A short list, not a map keyed by every device
- * ever seen: the scaled devices of the mismatch solves are each used once.
+ * does), so its model stays what it was built as.
  */
-const RECENT_MODELS = 16;
-const recentModels: { device: DeviceParams; temperatureC: number; model: DeviceModel }[] = [];
+const modelsByDevice = new WeakMap<DeviceParams, Map<number, DeviceModel>>();
 
 /** The PNP a design's tail needs (`device.pnp`), as a device the model reads: IS, BF, VAF or a card. */
 export type PnpDevice = NonNullable<DeviceParams['pnp']>;
