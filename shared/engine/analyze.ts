@@ -451,6 +451,11 @@ export function solveCondition(design: Design, warmStart?: SolvedCircuit): Condi
  * Solves the operating point and the small-signal stage only (no figures): for sensitivities,
  * where only transfers are read. `warmStart` as in solveStage.
  */
+/** The tail current of a design's operating point alone, A (no small-signal solve): a sweep that reads nothing else. */
+export function solvedTailCurrentA(design: Design): number {
+  return currentIntoElementsA(solveStageOperatingPoint(design).op, TAIL_NODE, true);
+}
+
 export function solveCircuit(design: Design, warmStart?: SolvedCircuit): SolvedCircuit {
   const { model, op, driveNodes } = solveStageOperatingPoint(design, warmStart?.op);
   return { design, model, op, stage: smallSignalStage(op, driveNodes, model.parameters, design.temperatureC ?? NOMINAL_TEMPERATURE_C) };

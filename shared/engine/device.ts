@@ -213,8 +213,26 @@ export function npnModel(device: DeviceParams, temperatureC: number): DeviceMode
 
 /** The device model for a family; today only "npn". */
 export function deviceModel(device: DeviceParams, temperatureC: number): DeviceModel {
-  return npnModel(device, temperatureC);
+  let byTemperature = modelsByDevice.get(device);
+  if (!byTemperature) {
+    byTemperature = new Map();
+    modelsByDevice.set(device, byTemperature);
+  }
+  let model = byTemperature.get(temperatureC);
+  if (!model) {
+    model = npnModel(device, temperatureC);
+    byTemperature.set(temperatureC, model);
+  }
+  return model;
 }
+
+/**
+ * Models already built, by device object and temperature: one recommendation solves each sized
+ * design at dozens of conditions that share a device and a few temperatures. A device object is
+ * never changed once a design holds it (the engine builds new ones, as a mismatch's scaled BF
+ * does), so its model stays what it was built as.
+ */
+const modelsByDevice = new WeakMap<DeviceParams, Map<number, DeviceModel>>();
 
 /** The PNP a design's tail needs (`device.pnp`), as a device the model reads: IS, BF, VAF or a card. */
 export type PnpDevice = NonNullable<DeviceParams['pnp']>;

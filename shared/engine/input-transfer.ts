@@ -110,20 +110,30 @@ export const LINEAR_RANGE_ERROR = 0.01;
 const LINEAR_RANGE_TOLERANCE = 1e-3;
 /** Bisection and interpolation steps at most. */
 const LINEAR_RANGE_MAX_STEPS = 60;
+/**
+ * Before the 1 % point is bracketed, each solve jumps to where the error would reach 1 % if it
+ * grew as the input squared (the pair's first distortion term: tanh(x) = x − x³/3 + …, a
+ * relative error ∝ x²), aimed this share past it so that the jump lands across the point…
+ */
+const LINEAR_RANGE_OVERSHOOT = 0.01;
+/** …and by at most this factor either way (a jump of two doublings at most: every solve stays warm-started from a nearby one). */
+const LINEAR_RANGE_LARGEST_JUMP = 4;
 
 /**
  * The contract's linear input range, V: on the design without mismatches (`symmetric`, solved
  * at zero input as `base` with differential gain `gain`), the smallest amplitude where
  * |v(c1,c2) − gain·vid| reaches 1 % of |gain·vid|. The design is symmetric, so both signs give
- * the same amplitude and one is searched. From 0.2·VT (inside the 1 % point of any pair) the
- * amplitude doubles, each solve warm-started from the last, until the error passes 1 %, up to
- * twice the rails' span; then false position with bisection safeguards (the Illinois method)
- * narrows the bracket. Null when the transfer stays within 1 % up to that span, or when an
- * operating point on the way cannot be solved (ConvergenceError).
+ * the same amplitude and one is searched. From `hintV` (the figure at a nearby condition, when
+ * the caller has one) or else from 0.2·VT (inside the 1 % point of any pair), each solve
+ * warm-started from the nearest one before it, the amplitude jumps by the error's square law
+ * (LINEAR_RANGE_OVERSHOOT) until the 1 % point is bracketed, up to twice the rails' span; then
+ * false position with bisection safeguards (the Illinois method) narrows the bracket to a
+ * thousandth. Null when the transfer stays within 1 % up to that span, or when an operating
+ * point on the way cannot be solved (ConvergenceError).
  */
-export function linearInputRangeV(symmetric: Design, base: SolvedOperatingPoint, gain: number): number | null {
+export function linearInputRangeV(symmetric: Design, base: SolvedOperatingPoint, gain: number, hintV: number | null = null): number | null {
   try {
-    return searchLinearRangeV(symmetric, base, gain);
+    return searchLinearRangeV(symmetric, base, gain, hintV);
   } catch (error) {
     // an operating point at a large input the solver cannot reach leaves the figure unknown, not the analysis failed
     if (error instanceof ConvergenceError) return null;
@@ -131,25 +141,53 @@ export function linearInputRangeV(symmetric: Design, base: SolvedOperatingPoint,
   }
 }
 
-function searchLinearRangeV(symmetric: Design, base: SolvedOperatingPoint, gain: number): number | null {
+/** The next amplitude while the 1 % point is not yet bracketed: the square law's estimate from (x, its excess), just past it, within the largest jump. */
+function squareLawJump(x: number, excess: number): number {
+  const ratio = Math.sqrt(LINEAR_RANGE_ERROR / (LINEAR_RANGE_ERROR + excess)) * (excess < 0 ? 1 + LINEAR_RANGE_OVERSHOOT : 1 - LINEAR_RANGE_OVERSHOOT);
+  // Stryker disable next-line ConditionalExpression: a NaN ratio (no error at all to scale) takes the largest jump up, as the clamp does for an infinite one
+  const safe = ratio > 0 ? ratio : LINEAR_RANGE_LARGEST_JUMP;
+  return x * Math.min(Math.max(safe, 1 / LINEAR_RANGE_LARGEST_JUMP), LINEAR_RANGE_LARGEST_JUMP);
+}
+
+function searchLinearRangeV(symmetric: Design, base: SolvedOperatingPoint, gain: number, hintV: number | null): number | null {
   const excess = (at: SolvedOperatingPoint, vid: number) => Math.abs(outputDifferenceV(at.op) - gain * vid) / Math.abs(gain * vid) - LINEAR_RANGE_ERROR;
   const spanV = 2 * (symmetric.supply.positiveV - symmetric.supply.negativeV);
+  // the bracket: below, the largest amplitude known within 1 % (0: the base); above, the least known past it (null: none yet)
   let low = 0;
   let lowExcess = -LINEAR_RANGE_ERROR;
   let lowAt = base;
-  let high = 0.2 * base.model.thermalVoltageV;
-  let highAt = solveStageOperatingPoint(symmetric, lowAt.op, high);
-  let highExcess = excess(highAt, high);
-  while (highExcess < 0) {
-    if (high > spanV) return null;
-    low = high;
-    lowExcess = highExcess;
-    lowAt = highAt;
-    high *= 2;
-    highAt = solveStageOperatingPoint(symmetric, lowAt.op, high);
-    highExcess = excess(highAt, high);
+  let high: { x: number; excess: number; at: SolvedOperatingPoint } | null = null;
+  let x = hintV !== null && hintV > 0 && Number.isFinite(hintV) ? Math.min(hintV, spanV) : 0.2 * base.model.thermalVoltageV;
+  for (;;) {
+    // warm-started from the nearest solve: the last one below, or the last above while coming down
+    const at = solveStageOperatingPoint(symmetric, (high ? high.at : lowAt).op, x);
+    const e = excess(at, x);
+    if (e < 0) {
+      low = x;
+      lowExcess = e;
+      lowAt = at;
+      if (high) break;
+      if (x > spanV) return null;
+    } else {
+      high = { x, excess: e, at };
+      if (low > 0) break;
+    }
+    x = squareLawJump(x, e);
   }
-  // Illinois: false position, halving the kept end's value when the same end stays twice
+  return illinois(symmetric, excess, low, lowExcess, lowAt, high.x, high.excess);
+}
+
+/** Illinois: false position, halving the kept end's value when the same end stays twice, until the bracket is a thousandth of its top. */
+function illinois(
+  symmetric: Design,
+  excess: (at: SolvedOperatingPoint, vid: number) => number,
+  lowStart: number,
+  lowExcessStart: number,
+  lowAtStart: SolvedOperatingPoint,
+  highStart: number,
+  highExcessStart: number,
+): number {
+  let [low, lowExcess, lowAt, high, highExcess] = [lowStart, lowExcessStart, lowAtStart, highStart, highExcessStart];
   let side = 0;
   for (let step = 0; step < LINEAR_RANGE_MAX_STEPS && high - low > LINEAR_RANGE_TOLERANCE * high; step += 1) {
     const x = (low * highExcess - high * lowExcess) / (highExcess - lowExcess);

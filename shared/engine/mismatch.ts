@@ -321,18 +321,20 @@ export interface MonteCarloSample {
  */
 export function monteCarloSample(draws: MonteCarloDraws, i: number, sigmas: MismatchSigmas, thermalVoltageV: number): MonteCarloSample {
   const resistorSigma = sigmas.resistorTolerance / SIGMAS_PER_TOLERANCE;
+  const mismatches = [0, 0, 0, 0];
+  sampleMismatchesInto(draws, i, sigmas, thermalVoltageV, mismatches);
+  return { load1Scale: 1 + resistorSigma * draws.normals[3 * i], load2Scale: 1 + resistorSigma * draws.normals[3 * i + 1], mismatches: mismatches as unknown as MismatchVector };
+}
+
+/** Sample i's four mismatches (monteCarloSample's `mismatches`) written into `into`: a loop over every sample allocates nothing. */
+export function sampleMismatchesInto(draws: MonteCarloDraws, i: number, sigmas: MismatchSigmas, thermalVoltageV: number, into: number[]): void {
+  const resistorSigma = sigmas.resistorTolerance / SIGMAS_PER_TOLERANCE;
   const load1Scale = 1 + resistorSigma * draws.normals[3 * i];
   const load2Scale = 1 + resistorSigma * draws.normals[3 * i + 1];
-  return {
-    load1Scale,
-    load2Scale,
-    mismatches: [
-      load2Scale / load1Scale - 1,
-      Math.exp((sigmas.vbeSigmaV * draws.normals[3 * i + 2]) / thermalVoltageV) - 1,
-      sigmas.betaSigma * draws.deviceNormals[2 * i],
-      sigmas.earlyVoltageSigma * draws.deviceNormals[2 * i + 1],
-    ],
-  };
+  into[0] = load2Scale / load1Scale - 1;
+  into[1] = Math.exp((sigmas.vbeSigmaV * draws.normals[3 * i + 2]) / thermalVoltageV) - 1;
+  into[2] = sigmas.betaSigma * draws.deviceNormals[2 * i];
+  into[3] = sigmas.earlyVoltageSigma * draws.deviceNormals[2 * i + 1];
 }
 
 /**

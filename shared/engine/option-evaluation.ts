@@ -4,8 +4,8 @@
  * checks are decided on (worst corner taken, margins computed; rules only compare).
  */
 import { cornerConditions, nominalCondition, shiftedCondition, temperatureSweep, type Condition } from './conditions';
-import { activeDimensions, NO_SHIFT, type CornerShift, type ShiftSigns } from './sign-off-corners';
-import { solveCircuit, solveCondition, solveStage, singleEndedCmrrDbAt, transfersAt, type ConditionSolution, type OperatingPointProblem, type SolvedCircuit, type StageSolution } from './analyze';
+import { activeDimensions, NO_SHIFT, SHIFT_DIMENSIONS, type CornerShift, type ShiftSigns } from './sign-off-corners';
+import { solveCircuit, solveCondition, solvedTailCurrentA, solveStage, singleEndedCmrrDbAt, transfersAt, type ConditionSolution, type OperatingPointProblem, type SolvedCircuit, type StageSolution } from './analyze';
 import { magnitude } from './small-signal';
 import { firstNonFinitePath } from './finite';
 import { cardOf, cardStoresCharge } from './bjt-parameters';
@@ -288,11 +288,14 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   // end worsens it; the corner with all of them there is solved and kept when it is worse still.
   const perturbed = new Map<string, CornerRecord>();
   const combined = new Map<string, CornerRecord>();
-  const recordAt = (cache: Map<string, CornerRecord>, condition: Condition): CornerRecord => {
-    let record = cache.get(condition.label);
+  // by the base corner and the sign vector (each sign vector names one condition): the condition
+  // and its worded label are built only for a corner not solved yet
+  const recordAt = (cache: Map<string, CornerRecord>, base: CornerRecord, signs: ShiftSigns): CornerRecord => {
+    const key = `${base.condition.label}|${SHIFT_DIMENSIONS.map((d) => signs[d]).join()}`;
+    let record = cache.get(key);
     if (!record) {
-      record = cornerRecord(condition, false);
-      cache.set(condition.label, record);
+      record = cornerRecord(shiftedCondition(spec, base.condition, signs), false);
+      cache.set(key, record);
     }
     return record;
   };
@@ -310,10 +313,10 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
     const signs: Record<string, -1 | 0 | 1> = { ...NO_SHIFT };
     const here = direction(base);
     for (const dimension of dimensions) {
-      const moved = recordAt(perturbed, shiftedCondition(spec, base.condition, { ...NO_SHIFT, [dimension]: 1 }));
+      const moved = recordAt(perturbed, base, { ...NO_SHIFT, [dimension]: 1 });
       signs[dimension] = worse(here, direction(moved)) ? 1 : -1;
     }
-    const corner = recordAt(combined, shiftedCondition(spec, base.condition, signs as unknown as ShiftSigns));
+    const corner = recordAt(combined, base, signs as unknown as ShiftSigns);
     return worse(read(base), read(corner)) ? corner : base;
   }
   const lowIcm = baseCorners.filter((c) => c.condition.inputCommonModeV === spec.inputCommonMode.minV);
@@ -343,7 +346,9 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   const anyTarget = Object.values(targets).some(Boolean);
   const shared = draws ?? (anyTarget || differentialOutput ? monteCarloDraws(spec.monteCarlo.samples, spec.monteCarlo.seed) : null);
   // the slew rate (a transient) only where its search needs it: not at every base corner
-  const tradeoffs: ConditionEntry[] = anyTarget ? baseCorners.map((c) => withoutSlew(tradeoffAtCondition(spec, c.figures.label, c.solution, c.screening, sigmas, undefined, 'slewRateVPerS'))) : [];
+  const tradeoffs: ConditionEntry[] = anyTarget
+    ? baseCorners.map((c) => withoutSlew(tradeoffAtCondition(spec, c.figures.label, c.solution, c.screening, sigmas, undefined, 'slewRateVPerS', predicted.linearInputRangeV)))
+    : [];
   const searched: ConditionEntry[] = [];
   if (anyTarget) {
     const tradeoffCache = new Map<CornerRecord, ConditionEntry>();
@@ -354,7 +359,14 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
         entry = { label: record.figures.label };
         tradeoffCache.set(record, entry);
       }
-      if (entry[key] === undefined) entry[key] = tradeoffAtCondition(spec, record.figures.label, record.solution, null, sigmas, key)[key];
+      if (entry[key] === undefined) {
+        // a shifted corner's search starts from its base corner's linear range; its screening solves serve both rails' rejection
+        const baseIndex = baseCorners.findIndex((c) => c.condition.temperatureC === record.condition.temperatureC && c.condition.inputCommonModeV === record.condition.inputCommonModeV);
+        const hint = baseIndex >= 0 ? (tradeoffs[baseIndex].linearInputRangeV ?? null) : predicted.linearInputRangeV;
+        const needsScreening = differentialOutput && (key === 'psrrPositiveDb' || key === 'psrrNegativeDb');
+        if (needsScreening) record.screening ??= screeningStages(record.solution);
+        entry[key] = tradeoffAtCondition(spec, record.figures.label, record.solution, record.screening, sigmas, key, undefined, hint)[key];
+      }
       return entry[key] as number;
     };
     for (const [key, set, higherIsWorse, nullAs] of SEARCHED_TRADEOFFS) {
@@ -413,7 +425,7 @@ export function evaluateOption(spec: Spec, design: Design, draws?: MonteCarloDra
   };
   // the tail resistors' tempco at either sign moves the tail current with temperature too: the larger drift counts
   const tempcoSweeps = (spec.resistors.tempcoPpmPerC ?? 0) > 0
-    ? ([-1, 1] as const).map((sign) => sweepConditions.map((c) => at(spec, design, shiftedCondition(spec, c, { ...NO_SHIFT, tailTempco: sign })).result.tailCurrentA))
+    ? ([-1, 1] as const).map((sign) => sweepConditions.map((c) => solvedTailCurrentA(designAtCondition(spec, design, shiftedCondition(spec, c, { ...NO_SHIFT, tailTempco: sign })))))
     : [];
   const driftPercent = Math.max(spreadPercent(sweep.map((r) => r.tailCurrentA)), ...tempcoSweeps.map(spreadPercent));
   const icmLow = at(spec, design, { ...nominal, inputCommonModeV: spec.inputCommonMode.minV }).result;

@@ -183,7 +183,6 @@ export function smallSignalStage(
   const stamper = stampJacobian(op, false);
   const n = stamper.n;
   const gDrive = driveColumns(ic, stamper, driveNodes);
-  const cStamp = capacitanceStamp(op, parameters, temperatureC);
   const factors = luFactor(stamper.matrix, n, true);
   const tailIndex = ic.nodeRef(TAIL_NODE);
   const c1 = ic.nodeRef(COLLECTOR_NODES[0]);
@@ -193,15 +192,20 @@ export function smallSignalStage(
   const commonMode = driveResponse(gDrive, factors, 1, 1);
   const railColumns = driveColumns(ic, stamper, [RAIL_NODES.positive, RAIL_NODES.negative]);
   const supply = { positive: driveResponse(railColumns, factors, 1, 0), negative: driveResponse(railColumns, factors, 0, 1) };
-  let frequency: FrequencyModel | null = null;
-  if (cStamp) {
+  // The reduced frequency model, built when a figure first reads it (many solves read only the
+  // low-frequency responses: an offset's screening, a sweep's gain): the factors it reads are
+  // the Jacobian's, never changed after this
+  let frequency: FrequencyModel | null | undefined;
+  const frequencyModel = (): FrequencyModel | null => {
+    const cStamp = capacitanceStamp(op, parameters, temperatureC);
+    if (!cStamp) return null;
     const cDrive = driveColumns(ic, cStamp, driveNodes);
     const capacitiveDrives = DRIVES.map(([d1, d2]) => {
       const column = cDrive[0].map((x, row) => x * d1 + cDrive[1][row] * d2);
       return column.some((x) => x !== 0) ? column : null;
     });
-    frequency = reducedFrequencyModel(factors, cStamp.matrix, [differential, commonMode], capacitiveDrives, [outputs.collector1, outputs.betweenCollectors]);
-  }
+    return reducedFrequencyModel(factors, cStamp.matrix, [differential, commonMode], capacitiveDrives, [outputs.collector1, outputs.betweenCollectors]);
+  };
   return {
     outputs,
     differential,
@@ -217,7 +221,10 @@ export function smallSignalStage(
     },
     supply,
     driveNodes,
-    frequency,
+    get frequency() {
+      if (frequency === undefined) frequency = frequencyModel();
+      return frequency;
+    },
     solvedAt: new Map(),
   };
 }

@@ -20,7 +20,7 @@
 import { differentialBandwidthHzOf, solveCircuit, type SolvedCircuit } from './analyze';
 import { readOutput } from './frequency-response';
 import { linearInputRangeV, outputDifferenceV } from './input-transfer';
-import { MISMATCH_KINDS, MISMATCH_STEPS, monteCarloSample, screeningStages, worstCaseMismatches, type MismatchSigmas, type MonteCarloDraws, type ScreeningStages } from './mismatch';
+import { MISMATCH_KINDS, MISMATCH_STEPS, sampleMismatchesInto, screeningStages, worstCaseMismatches, type MismatchSigmas, type MonteCarloDraws, type ScreeningStages } from './mismatch';
 import { inputNoiseVPerRtHz, stageNoise } from './noise';
 import { solvedSlewRateVPerS } from './slew-rate';
 import type { OptionFacts, Spec } from './types';
@@ -98,6 +98,7 @@ function differentialPsrrWorstCaseDb(stages: ScreeningStages, rail: 'positive' |
 /**
  * The trade-off figures of one condition's solution. `screening`: its screening solves when the
  * caller made them (a differential output); made here when a target needs them.
+ * `linearRangeHintV`: the linear range at a nearby condition, where its search starts.
  */
 export function tradeoffAtCondition(
   spec: Spec,
@@ -107,6 +108,7 @@ export function tradeoffAtCondition(
   sigmas: MismatchSigmas,
   only?: keyof Omit<TradeoffAtCondition, 'label'>,
   except?: keyof Omit<TradeoffAtCondition, 'label'>,
+  linearRangeHintV: number | null = null,
 ): TradeoffAtCondition {
   const targets = tradeoffTargets(spec);
   const want = (key: keyof Omit<TradeoffAtCondition, 'label'>) => (only === undefined || only === key) && key !== except;
@@ -131,7 +133,7 @@ export function tradeoffAtCondition(
     bandwidthHz: targets.bandwidth && want('bandwidthHz') ? differentialBandwidthHzOf(solution.stage) : null,
     psrrPositiveDb: psrr('positive', targets.psrrPositive && want('psrrPositiveDb')),
     psrrNegativeDb: psrr('negative', targets.psrrNegative && want('psrrNegativeDb')),
-    linearInputRangeV: targets.linearRange && want('linearInputRangeV') ? linearInputRangeV(solution.design, operatingPoint, solution.stage.low.differentialGain.re) : null,
+    linearInputRangeV: targets.linearRange && want('linearInputRangeV') ? linearInputRangeV(solution.design, operatingPoint, solution.stage.low.differentialGain.re, linearRangeHintV) : null,
     // the transient's own failure (null) counts as no slew at all: the check then fails
     slewRateVPerS: targets.slewRate && want('slewRateVPerS') ? (solvedSlewRateVPerS(solution) ?? 0) : null,
     offsetPerMismatchV: stages && offsetWanted ? offsetSensitivitiesV(stages) : null,
@@ -150,9 +152,10 @@ export function mismatchSpread(sigmas: MismatchSigmas, thermalVoltageV: number, 
 /** The spread (one standard deviation) of each mismatch xᵢ the Monte Carlo draws, MISMATCH_KINDS order. */
 function mismatchSpreads(draws: MonteCarloDraws, sigmas: MismatchSigmas, thermalVoltageV: number): number[] {
   const sums = MISMATCH_KINDS.map(() => 0);
+  const x = [0, 0, 0, 0];
   for (let k = 0; k < draws.samples; k += 1) {
-    const x = monteCarloSample(draws, k, sigmas, thermalVoltageV).mismatches;
-    x.forEach((v, i) => (sums[i] += v * v));
+    sampleMismatchesInto(draws, k, sigmas, thermalVoltageV, x);
+    for (let i = 0; i < x.length; i += 1) sums[i] += x[i] * x[i];
   }
   return sums.map((s) => Math.sqrt(s / draws.samples));
 }
@@ -174,8 +177,9 @@ export interface OffsetStatistics {
 export function offsetStatistics(perMismatch: readonly number[], draws: MonteCarloDraws, sigmas: MismatchSigmas, thermalVoltageV: number, sigmaCount: number): OffsetStatistics {
   let sum = 0;
   let sumSquares = 0;
+  const x = [0, 0, 0, 0];
   for (let k = 0; k < draws.samples; k += 1) {
-    const x = monteCarloSample(draws, k, sigmas, thermalVoltageV).mismatches;
+    sampleMismatchesInto(draws, k, sigmas, thermalVoltageV, x);
     let value = 0;
     for (let i = 0; i < perMismatch.length; i += 1) value += perMismatch[i] * x[i];
     sum += value;

@@ -7,6 +7,9 @@
 import { describe, expect, test } from 'vitest';
 import { analyze, solveCondition } from '#shared/engine/analyze';
 import { thermalVoltageV } from '#shared/engine/constants';
+import { linearInputRangeV } from '#shared/engine/input-transfer';
+import { ConvergenceError } from '#shared/engine/operating-point';
+import { solveStageOperatingPoint } from '#shared/engine/stage-solve';
 import { TOPOLOGIES, type Design, type TailDesign, type TopologyId } from '#shared/engine/types';
 
 /** The device's VCE(sat), V: set apart from the 0.2 V default so the margins must read it. */
@@ -133,17 +136,29 @@ describe('a condition\'s solve', () => {
 });
 
 describe('a linear-range search the solver cannot finish', () => {
-  test('leaves linearInputRangeV null and the rest of the analysis answering (1 GΩ collectors, 1 mΩ pair emitters)', () => {
-    const design: Design = {
-      device: { family: 'npn', beta: 210, earlyVoltageV: 62, saturationCurrentA: 1.4e-14 },
-      supply: { positiveV: 15, negativeV: -15 },
-      collectorResistanceOhm: 1e9,
-      pairEmitterResistanceOhm: 1e-3,
-      tail: { topology: 'resistor', resistanceOhm: 1e9 },
-      inputCommonModeV: 0,
-    };
-    const result = analyze(design);
-    expect(result.linearInputRangeV).toBeNull();
+  // 1 GΩ collectors and a 10 GΩ tail: no operating point of this stage converges, so the search's
+  // first solve at a nonzero input (warm-started from a solvable stage's) fails
+  const solvable: Design = {
+    device: { family: 'npn', beta: 210, earlyVoltageV: 62, saturationCurrentA: 1.4e-14 },
+    supply: { positiveV: 15, negativeV: -15 },
+    collectorResistanceOhm: 1e9,
+    pairEmitterResistanceOhm: 1e-3,
+    tail: { topology: 'resistor', resistanceOhm: 1e9 },
+    inputCommonModeV: 0,
+  };
+  const unsolvable: Design = { ...solvable, tail: { topology: 'resistor', resistanceOhm: 1e10 } };
+
+  test('leaves the linear range null (a ConvergenceError on the way is no figure, not a failed analysis)', () => {
+    expect(() => analyze(unsolvable)).toThrow(ConvergenceError);
+    const base = solveStageOperatingPoint(solvable);
+    expect(linearInputRangeV(unsolvable, base, analyze(solvable).differentialGain)).toBeNull();
+  });
+
+  test('the solvable stage answers with every figure, its linear range included', () => {
+    const result = analyze(solvable);
     expect(result.tailCurrentA).toBeGreaterThan(0);
+    // an undegenerated pair's 1 % point is about 0.35·VT (GHLM, the emitter-coupled pair's transfer): here within a factor of two of it
+    expect(result.linearInputRangeV).toBeGreaterThan(0.5 * 0.35 * thermalVoltageV(27));
+    expect(result.linearInputRangeV).toBeLessThan(2 * 0.35 * thermalVoltageV(27));
   });
 });
