@@ -349,6 +349,17 @@ describe('Longtail in the browser: a team’s day over three projects', () => {
     await expect(message.textContent()).resolves.toContain(REVIEWER);
     await record(actor, shots, 'mail-comment-1280');
 
+    // On a phone the message comes after the whole list: picking one brings it into view.
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await list.getByRole('button').filter({ hasText: `Proposal #${proposalOf.get(DECIDED)} decided, waiting for review` }).filter({ hasText: `To ${demoEmail('reviewer')}` }).click();
+    await visible(message.getByText(`Hello ${REVIEWER},`, { exact: false }));
+    await expect.poll(() => message.evaluate((element) => element.getBoundingClientRect().top)).toBeLessThan(844 / 2);
+    await expect(message.textContent()).resolves.toContain(DESIGNER);
+    await actor.quiet();
+    await shots.take(page, 'mail-reviewer-390');
+    await page.setViewportSize({ width: 1280, height: 800 });
+
     for (const person of Object.keys(actors) as Person[]) expect(actors[person].problems.list, person).toEqual([]);
     expect(server.serverErrors).toEqual([]);
   });
