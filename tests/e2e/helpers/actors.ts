@@ -7,10 +7,10 @@ import type { Browser, BrowserContext, BrowserContextOptions, Locator, Page } fr
 import { checkAccessibility } from './accessibility';
 import { networkQuiet, newContext, watchPage, type PageProblems } from './browser';
 import type { Screenshots } from './screenshots';
-import type { DemoRole } from './sign-in';
+import type { DemoAccount } from './sign-in';
 
 export interface Actor {
-  role: DemoRole;
+  role: DemoAccount;
   context: BrowserContext;
   page: Page;
   quiet: (idleMs?: number, timeoutMs?: number) => Promise<void>;
@@ -18,7 +18,7 @@ export interface Actor {
 }
 
 /** A fresh context and page for `role` (not signed in yet), waiting up to 20 s by default. */
-export async function openActor(browser: Browser, baseUrl: string, role: DemoRole, options: BrowserContextOptions = {}): Promise<Actor> {
+export async function openActor(browser: Browser, baseUrl: string, role: DemoAccount, options: BrowserContextOptions = {}): Promise<Actor> {
   const context = await newContext(browser, baseUrl, options);
   const page = await context.newPage();
   page.setDefaultTimeout(20_000);

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { EmptyState } from '../../../components/ui/feedback';
 import { Sheet } from '../../../components/ui/sheet';
 import { cn } from '../../../lib/cn';
@@ -8,9 +8,20 @@ import { formatDateTime } from '../../../lib/dates';
 
 const soft = 'text-ink-soft dark:text-night-ink-soft';
 
-/** The messages on the left, newest first; the one picked (the newest at first) read on the right. */
+/** Wide enough for the list and the message side by side (Tailwind's lg, as the grid below). */
+const SIDE_BY_SIDE = '(min-width: 64rem)';
+
+/**
+ * The messages on the left, newest first; the one picked (the newest at first) read on the right.
+ * On a narrow screen the message comes after the whole list, so picking one scrolls to it.
+ */
 export function MailReader({ messages }: { messages: ReceivedMail[] }) {
   const [pickedId, setPickedId] = useState<number | null>(null);
+  const reader = useRef<HTMLDivElement>(null);
+  const pick = (id: number) => {
+    setPickedId(id);
+    if (window.matchMedia?.(SIDE_BY_SIDE).matches === false) requestAnimationFrame(() => reader.current?.scrollIntoView({ block: 'start' }));
+  };
   if (messages.length === 0) {
     return (
       <EmptyState title="No messages yet">
@@ -31,7 +42,7 @@ export function MailReader({ messages }: { messages: ReceivedMail[] }) {
                 <button
                   type="button"
                   aria-current={current ? 'true' : undefined}
-                  onClick={() => setPickedId(message.id)}
+                  onClick={() => pick(message.id)}
                   className={cn('block w-full px-3 py-2 text-left text-sm hover:bg-paper dark:hover:bg-night', current && 'bg-fern-soft dark:bg-night')}
                 >
                   <span className="line-clamp-2 font-medium break-words">{message.subject || '(no subject)'}</span>
@@ -45,19 +56,21 @@ export function MailReader({ messages }: { messages: ReceivedMail[] }) {
           })}
         </ul>
       </nav>
-      <Sheet aria-label="Message" title={open.subject || '(no subject)'}>
-        <dl className="mb-4 grid grid-cols-[5rem_minmax(0,1fr)] gap-y-1 text-sm">
-          <dt className={soft}>To</dt>
-          <dd>{open.to.join(', ')}</dd>
-          <dt className={soft}>From</dt>
-          <dd>{open.from ?? '—'}</dd>
-          <dt className={soft}>Received</dt>
-          <dd>
-            <time dateTime={open.at}>{formatDateTime(open.at, { seconds: true })}</time>
-          </dd>
-        </dl>
-        <pre className="font-sans text-sm leading-relaxed whitespace-pre-wrap [overflow-wrap:anywhere]">{open.text}</pre>
-      </Sheet>
+      <div ref={reader} className="min-w-0 scroll-mt-4">
+        <Sheet aria-label="Message" title={open.subject || '(no subject)'}>
+          <dl className="mb-4 grid grid-cols-[5rem_minmax(0,1fr)] gap-y-1 text-sm">
+            <dt className={soft}>To</dt>
+            <dd>{open.to.join(', ')}</dd>
+            <dt className={soft}>From</dt>
+            <dd>{open.from ?? '—'}</dd>
+            <dt className={soft}>Received</dt>
+            <dd>
+              <time dateTime={open.at}>{formatDateTime(open.at, { seconds: true })}</time>
+            </dd>
+          </dl>
+          <pre className="font-sans text-sm leading-relaxed whitespace-pre-wrap [overflow-wrap:anywhere]">{open.text}</pre>
+        </Sheet>
+      </div>
     </div>
   );
 }
