@@ -130,6 +130,20 @@ async function checkedAnchor(manager: EntityManager, proposal: Proposal, result:
   return { kind: 'spice', topology: input.topology, jobId: input.jobId! };
 }
 
+/** What every new comment row records: the proposal's spec version, engine and rule versions it was written on, its text, author and time, open. */
+function writtenNow(proposal: Pick<Proposal, 'specVersionId' | 'engineVersion' | 'rulesetVersion'>, body: string, actor: Viewer) {
+  return {
+    specVersionId: proposal.specVersionId,
+    engineVersion: proposal.engineVersion,
+    rulesetVersion: proposal.rulesetVersion,
+    body,
+    authorId: actor.id,
+    createdAt: new Date().toISOString(),
+    resolvedAt: null,
+    resolvedById: null,
+  };
+}
+
 /** A new thread on one anchor of a ranked option. */
 export async function postComment(dataSource: DataSource, actor: Viewer, proposalId: number, input: CommentInput): Promise<CommentThread> {
   const body = bodyOf(input.body);
@@ -147,14 +161,7 @@ export async function postComment(dataSource: DataSource, actor: Viewer, proposa
       checkId: anchor.kind === 'check' ? anchor.checkId : null,
       figureKey: anchor.kind === 'figure' ? anchor.figureKey : null,
       verificationJobId: anchor.kind === 'spice' ? anchor.jobId : null,
-      specVersionId: proposal.specVersionId,
-      engineVersion: proposal.engineVersion,
-      rulesetVersion: proposal.rulesetVersion,
-      body,
-      authorId: actor.id,
-      createdAt: new Date().toISOString(),
-      resolvedAt: null,
-      resolvedById: null,
+      ...writtenNow(proposal, body, actor),
     });
     await recordEvent(manager, {
       actorId: actor.id,
@@ -190,14 +197,7 @@ export async function replyToComment(dataSource: DataSource, actor: Viewer, prop
       ...thread,
       id: undefined,
       parentId: thread.id,
-      specVersionId: proposal.specVersionId,
-      engineVersion: proposal.engineVersion,
-      rulesetVersion: proposal.rulesetVersion,
-      body,
-      authorId: actor.id,
-      createdAt: new Date().toISOString(),
-      resolvedAt: null,
-      resolvedById: null,
+      ...writtenNow(proposal, body, actor),
     } as Omit<ProposalComment, 'id'>);
     await recordEvent(manager, {
       actorId: actor.id,

@@ -149,14 +149,7 @@ async function proposalNotice(manager: EntityManager, event: Extract<Notificatio
   const holding = (role: string) => memberships.filter((m) => m.role === role).map((m) => m.userId);
 
   const { baseUrl } = settings;
-  const base: ProposalFacts = {
-    proposalId: proposal.id,
-    projectName: project.name,
-    specTitle: version.title,
-    specVersion: version.version,
-    link: `${baseUrl}/proposals/${proposal.id}`,
-    profileLink: `${baseUrl}/profile`,
-  };
+  const base = proposalFactsOf(proposal, project, version, baseUrl);
   const { told, tell } = tellingList();
   let facts: MessageFacts;
   const inProject = `the project "${project.name}"`;
@@ -241,6 +234,18 @@ async function specVersionNotice(manager: EntityManager, event: Extract<Notifica
   };
 }
 
+/** What every message about one proposal says of it: its number, project, spec version and links. */
+function proposalFactsOf(proposal: { id: number }, project: { name: string }, version: { title: string; version: number }, baseUrl: string): ProposalFacts {
+  return {
+    proposalId: proposal.id,
+    projectName: project.name,
+    specTitle: version.title,
+    specVersion: version.version,
+    link: `${baseUrl}/proposals/${proposal.id}`,
+    profileLink: `${baseUrl}/profile`,
+  };
+}
+
 /** A SPICE check or Monte Carlo settled (finished or failed): whoever asked for it. */
 async function verificationNotice(manager: EntityManager, event: Extract<NotificationEvent, { kind: 'verification.ended' }>): Promise<Notice | null> {
   const job = await manager.getRepository(VerificationJobEntity).findOneByOrFail({ id: event.jobId });
@@ -254,12 +259,7 @@ async function verificationNotice(manager: EntityManager, event: Extract<Notific
   return {
     facts: {
       kind: 'verification.ended',
-      proposalId: proposal.id,
-      projectName: project.name,
-      specTitle: version.title,
-      specVersion: version.version,
-      link: `${baseUrl}/proposals/${proposal.id}`,
-      profileLink: `${baseUrl}/profile`,
+      ...proposalFactsOf(proposal, project, version, baseUrl),
       job: { id: job.id, kind: job.kind, state: job.state, message: quote(job.message), result: job.result },
     },
     projectId: proposal.projectId,
