@@ -54,14 +54,16 @@ const PNP_STAGE_PICKER_HELP = `With a PNP pair, not offered: ${pnpStageRefusal(P
  */
 export function uiSchemaForFamily(ui: UiSchema, family: unknown, chosenTopologies: readonly string[]): UiSchema {
   if (family !== 'pnp') return ui;
-  const topologies = ui.topologies as UiSchema;
+  const { 'ui:help': _npnHelp, ...topologies } = ui.topologies as UiSchema;
+  const refusedChosen = PNP_TAILS.some((id) => chosenTopologies.includes(id));
   return {
     ...ui,
     topologies: {
       ...topologies,
       'ui:enumNames': PNP_STAGE_PICKER_WORDS,
       'ui:enumDisabled': PNP_TAILS.filter((id) => !chosenTopologies.includes(id)),
-      'ui:help': PNP_STAGE_PICKER_HELP,
+      // While such a tail is still chosen, the refusal beside the options says it
+      ...(refusedChosen ? {} : { 'ui:help': PNP_STAGE_PICKER_HELP }),
     },
   };
 }
