@@ -108,7 +108,7 @@ export async function seedDemo(dataSource: DataSource, ruleSet: RuleSet, passwor
   // 5. Soil probe: a PNP pair on a single 5 V supply, ranked and waiting for the designer. The
   // sensor's output sits a few millivolts above ground, so the pair hangs from a tail at +5 V and
   // its input range reaches 0 V, where an NPN pair's would stop a VBE and a tail's headroom above it.
-  const soil = await project('Marram soil probe', 'Ground-referenced input of a buried soil-moisture probe, powered from a single 5 V rail; the sensor bridge sits a few millivolts above 0 V.');
+  const soil = await project('Sandpiper soil probe', 'Ground-referenced input of a buried soil-moisture probe, powered from a single 5 V rail; the sensor bridge sits a few millivolts above 0 V.');
   const soilInput = demoSpec('soil-probe-input.json');
   const soilSpec = await createSpec(dataSource, people.requirements, soil.id, { title: soilInput.title, payload: soilInput });
   await createProposal(dataSource, people.designer, soilSpec.id, ruleSet);

@@ -21,8 +21,8 @@ import { startServer, type RunningServer } from './helpers/server';
 import { signInAs } from './helpers/sign-in';
 
 /** The demo project of the PNP stage (api/seed/demo-seed.ts). */
-const PROJECT = 'Marram soil probe';
-const SPEC_TITLE = 'Marram rev B — PNP input on 5 V, range to 0 V (browser test)';
+const PROJECT = 'Sandpiper soil probe';
+const SPEC_TITLE = 'Sandpiper rev B — PNP input on 5 V, range to 0 V (browser test)';
 const APPROVE_COMMENT = 'PNP pair on the ranked Widlar values; the input range reaches the sensor’s 20 mV and ngspice agrees.';
 
 let server: RunningServer;
