@@ -11,7 +11,7 @@ const designs = new Map([...strainBridge().options, ...geophoneNode().options.fi
 
 function drawn(design: Design) {
   const { container } = render(<OptionSchematic design={design} />);
-  const devices = [...container.querySelectorAll('[data-device]')].map((g) => g.getAttribute('data-device')).sort();
+  const devices = [...container.querySelectorAll('[data-device]')].map((g) => g.getAttribute('data-device') ?? '').sort();
   const parts = [...container.querySelectorAll('[data-part^="R"]')].map((g) => g.getAttribute('data-part')).sort();
   return { container, devices, parts };
 }
