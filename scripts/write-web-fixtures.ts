@@ -17,9 +17,10 @@ import { loadRuleSet } from '../rules/index';
 /**
  * Differential output, Monte Carlo, simplest-sufficient; single-ended, highest-rejection; the
  * trade-off targets (noise, bias current, slew rate, offset) with a window too narrow for noise and
- * bias at once; a gain held to ±2 % from −40 to 85 °C with the PTAT tail (and its PNP) among the options.
+ * bias at once; a gain held to ±2 % from −40 to 85 °C with the PTAT tail (and its PNP) among the options;
+ * a PNP pair on a single 5 V supply whose input range reaches the negative rail.
  */
-export const WEB_FIXTURES = ['bridge-receiver', 'line-receiver', 'hydrophone-preamp', 'geophone-node'] as const;
+export const WEB_FIXTURES = ['bridge-receiver', 'line-receiver', 'hydrophone-preamp', 'geophone-node', 'pressure-probe'] as const;
 export type WebFixtureName = (typeof WEB_FIXTURES)[number];
 
 const FIXTURES_DIR = new URL('../tests/web/fixtures/', import.meta.url);

@@ -1,10 +1,11 @@
 /**
  * The demo organisation, seeded on an empty database for the local run: Fernhollow Instruments
  * (invented), five accounts (an administrator, a systems engineer, a designer, a reviewer, and a
- * lead who designs in one project and reviews in another), four projects with specs in different states and
+ * lead who designs in one project and reviews in another), five projects with specs in different states and
  * proposals through the workflow, and a small device library (invented NPN .model cards) in the
  * load-cell project. The seismic node's spec compares the PTAT tail (with its PNP) for a gain held
- * over a wide temperature range. Everything goes through the services, so the audit trail is real.
+ * over a wide temperature range; the soil probe's is a PNP pair on a single 5 V supply, its input range
+ * reaching the negative rail. Everything goes through the services, so the audit trail is real.
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -103,6 +104,14 @@ export async function seedDemo(dataSource: DataSource, ruleSet: RuleSet, passwor
   const geophone = demoSpec('seismic-node-receiver.json');
   const geophoneSpec = await createSpec(dataSource, people.requirements, seismic.id, { title: geophone.title, payload: geophone });
   await createProposal(dataSource, people.designer, geophoneSpec.id, ruleSet);
+
+  // 5. Soil probe: a PNP pair on a single 5 V supply, ranked and waiting for the designer. The
+  // sensor's output sits a few millivolts above ground, so the pair hangs from a tail at +5 V and
+  // its input range reaches 0 V, where an NPN pair's would stop a VBE and a tail's headroom above it.
+  const soil = await project('Sandpiper soil probe', 'Ground-referenced input of a buried soil-moisture probe, powered from a single 5 V rail; the sensor bridge sits a few millivolts above 0 V.');
+  const soilInput = demoSpec('soil-probe-input.json');
+  const soilSpec = await createSpec(dataSource, people.requirements, soil.id, { title: soilInput.title, payload: soilInput });
+  await createProposal(dataSource, people.designer, soilSpec.id, ruleSet);
   return true;
 }
 

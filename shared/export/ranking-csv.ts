@@ -29,6 +29,8 @@ const sig = (value: number | null | undefined) => toSignificant(value, 3);
 const COLUMNS: [header: string, value: (o: Option) => string | number | boolean | null | undefined][] = [
   ['rank', (o) => o.rank],
   ['topology', (o) => o.topology],
+  // The stage's transistor type: "npn", or "pnp" for the mirror image fed from the other rail
+  ['device_family', (o) => (o.design ? ((o.design.device as Partial<typeof o.design.device> | undefined)?.family ?? 'npn') : null)],
   ['passes', (o) => o.passes],
   ['recommended', () => null],
   ['tail_impedance_at_spec_frequency_ohm', (o) => sig(o.figures?.tailImpedanceAtFrequencyOhm)],

@@ -99,13 +99,18 @@ function pnpIssues(device: DeviceParams | undefined, topologies: readonly Topolo
  * own device; a tail that needs a second device of the opposite type (the catalogue's
  * `needsDevice`, the PTAT tail's PNP mirror) would need an NPN there, which a design cannot carry.
  */
-function familyIssues(device: DeviceParams | undefined, topologies: readonly TopologyId[], path: string, chosen: string): ValidationIssue[] {
+export function familyIssues(device: DeviceParams | undefined, topologies: readonly TopologyId[], path: string, chosen: string): ValidationIssue[] {
   if (device?.family !== 'pnp') return [];
   const needing = topologies.filter((id) => TOPOLOGY_CATALOGUE[id].needsDevice !== undefined);
   if (needing.length === 0) return [];
+  return [{ path, message: `${chosen} ${pnpStageRefusal(needing)}` }];
+}
+
+/** Why a PNP stage cannot take these tails (each needs a second device of the opposite type), in the words of the refusal; the spec form says it under its tail options too. */
+export function pnpStageRefusal(needing: readonly TopologyId[]): string {
   const names = needing.map((id) => TOPOLOGY_CATALOGUE[id].name).join(' and ');
   const verb = needing.length > 1 ? 'need' : 'needs';
-  return [{ path, message: `${chosen} the ${names}, which ${verb} an NPN pair (device family "npn"): its mirror is of the opposite type, an NPN for a PNP pair, which a design cannot carry; choose another tail or the NPN family` }];
+  return `the ${names}, which ${verb} an NPN pair (device family "npn"): its mirror is of the opposite type, an NPN for a PNP pair, which a design cannot carry; choose another tail or the NPN family`;
 }
 
 /** With `device.model` given, `beta`, `earlyVoltageV` and `saturationCurrentA` may be left out, and where given equal BF, VAF and IS. */

@@ -117,3 +117,22 @@ describe('the tail values column', () => {
     expect(row.tail_values).toBe('referenceResistanceOhm=11500');
   });
 });
+
+describe('the device family column', () => {
+  test('a PNP stage’s options say pnp, an NPN stage’s npn, a design that names no family npn (the schema’s default), an option without a design nothing', () => {
+    // ENGINE-CONTRACT.md / docs/command-line.md: device.family is "npn" (the default) or "pnp"
+    const withFamily = (family: 'npn' | 'pnp' | undefined) => {
+      const r = result();
+      const design = r.options[0].design as unknown as Record<string, unknown>;
+      design.device = family === undefined ? { beta: 120 } : { family, beta: 120 };
+      return r;
+    };
+    const family = (r: RecommendResult) => Papa.parse<Record<string, string>>(rankingCsv(r).trimEnd(), { header: true, newline: '\r\n' }).data[0].device_family;
+    expect(family(withFamily('pnp'))).toBe('pnp');
+    expect(family(withFamily('npn'))).toBe('npn');
+    expect(family(withFamily(undefined))).toBe('npn');
+    const none = result();
+    (none.options[0] as unknown as Record<string, unknown>).design = null;
+    expect(family(none)).toBe('');
+  });
+});

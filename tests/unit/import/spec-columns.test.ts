@@ -18,7 +18,7 @@ function leafPaths(value: Record<string, unknown>, prefix = ''): string[] {
 }
 
 describe('the column set', () => {
-  test.each(['studio-line-receiver.json', 'strain-bridge-receiver.json', 'electrode-amplifier-input.json', 'seismic-node-receiver.json'])('when %s is flattened, then every field it has is a column', (file) => {
+  test.each(['studio-line-receiver.json', 'strain-bridge-receiver.json', 'electrode-amplifier-input.json', 'seismic-node-receiver.json', 'soil-probe-input.json'])('when %s is flattened, then every field it has is a column', (file) => {
     const spec = JSON.parse(readFileSync(new URL(`../../../api/demo/specs/${file}`, import.meta.url), 'utf8')) as Record<string, unknown>;
     const names = new Set(SPEC_CSV_COLUMNS.map((c) => c.name));
     expect(leafPaths(spec).filter((path) => !names.has(path))).toEqual([]);

@@ -28,7 +28,7 @@ function onlyRow(text: string): SpecFileRow {
 }
 
 describe('a demo spec written as one CSV row', () => {
-  test.each(['studio-line-receiver.json', 'strain-bridge-receiver.json', 'electrode-amplifier-input.json', 'seismic-node-receiver.json'])(
+  test.each(['studio-line-receiver.json', 'strain-bridge-receiver.json', 'electrode-amplifier-input.json', 'seismic-node-receiver.json', 'soil-probe-input.json'])(
     'when %s is written with every column and read back, then it is the same document as the JSON gives',
     (file) => {
       const spec = JSON.parse(readFileSync(new URL(`../../../api/demo/specs/${file}`, import.meta.url), 'utf8')) as Record<string, unknown>;

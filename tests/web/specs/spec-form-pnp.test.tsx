@@ -6,10 +6,11 @@
  * The PTAT source is not among the default options.
  */
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
-import { cleanup, render, screen, waitFor } from '@testing-library/react';
+import { cleanup, render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, test, vi } from 'vitest';
 import specSchema from '#shared/schema/spec.schema.json';
+import { validateSpec } from '#shared/validate';
 import { saveSpecVersion } from '../../../web/src/features/specs/api/spec-queries';
 import { SpecForm, type SpecDraft } from '../../../web/src/features/specs/components/spec-form';
 import { mockFetch } from './fetch-mock';
@@ -111,12 +112,67 @@ describe('the spec form’s PNP transistor', () => {
 });
 
 describe('the spec form’s device family', () => {
-  test('when the spec is an NPN one, then the family reads NPN bipolar; when it is a PNP one (from the API or an import), it reads PNP, not NPN', async () => {
+  const family = (name: RegExp) => within(screen.getByRole('group', { name: /^Device family/ })).getByRole('radio', { name });
+  const PTAT_FOR_PNP = /^PTAT \(constant-gm\) source — needs an NPN pair$/;
+  /** What the server answers for a PNP spec with the PTAT source among its options (its own validation, run here). */
+  const serverRefusal = () => {
+    const checked = validateSpec({ ...SAVED, device: { family: 'pnp' }, topologies: ['widlar', 'ptat'] });
+    if (checked.ok) throw new Error('the server takes a PNP spec with the PTAT source');
+    const issue = checked.errors.find((e) => e.path === '/topologies')!;
+    return issue.message;
+  };
+
+  test('when an NPN spec is edited, then the family is a choice of NPN and PNP bipolar, NPN chosen', async () => {
     renderForm();
-    expect(((await screen.findByLabelText(/^Device family/)) as HTMLInputElement).value).toBe('NPN bipolar');
-    cleanup();
-    network?.assertNoUnexpectedRequests();
-    renderForm({ ...SAVED, device: { family: 'pnp' } });
-    expect(((await screen.findByLabelText(/^Device family/)) as HTMLInputElement).value).toBe('PNP bipolar (mirror image, fed from the other rail)');
+    await screen.findByRole('group', { name: /^Device family/ });
+    expect((family(/^NPN bipolar$/) as HTMLInputElement).checked).toBe(true);
+    expect((family(/^PNP bipolar$/) as HTMLInputElement).checked).toBe(false);
+  });
+
+  test('when PNP is chosen, then the PTAT source is offered disabled, with the server’s reason under the options, and the spec saves as a PNP one', async () => {
+    const { puts } = renderForm();
+    await screen.findByRole('group', { name: /^Device family/ });
+    expect((screen.getByRole('checkbox', { name: PTAT_OPTION }) as HTMLInputElement).disabled).toBe(false);
+    await userEvent.click(family(/^PNP bipolar$/));
+    const ptat = await screen.findByRole('checkbox', { name: PTAT_FOR_PNP });
+    expect((ptat as HTMLInputElement).disabled).toBe(true);
+    // The server's words after "the tail options include"
+    const reason = serverRefusal().replace(/^the tail options include /, '');
+    expect(screen.getByText((text) => text.includes(reason))).toBeTruthy();
+    await userEvent.click(screen.getByRole('button', { name: 'Save as new version' }));
+    await waitFor(() => expect(puts()).toHaveLength(1));
+    const payload = (puts()[0].body as { payload: { device: { family: string }; topologies?: string[] } }).payload;
+    expect(payload.device.family).toBe('pnp');
+    expect(payload.topologies ?? []).not.toContain('ptat');
+  });
+
+  test('when PNP is chosen with the PTAT source among the options, then the form refuses it at once in the server’s words, sends nothing, and takes the spec once it is left out', async () => {
+    const { puts } = renderForm({ ...SAVED, device: { pnp: { beta: 110, earlyVoltageV: 46 } }, topologies: ['widlar', 'ptat'] });
+    await screen.findByRole('region', { name: 'PNP transistor' });
+    await userEvent.click(family(/^PNP bipolar$/));
+    const message = await screen.findByText(serverRefusal());
+    const ptat = screen.getByRole('checkbox', { name: PTAT_FOR_PNP }) as HTMLInputElement;
+    expect(ptat.checked).toBe(true);
+    expect(ptat.disabled).toBe(false);
+    expect(screen.getByRole('group', { name: /^Tail options/ }).parentElement!.parentElement!.contains(message)).toBe(true);
+    // The PNP of the PTAT tail: not asked for a PNP stage; its values stay with the spec, said unused
+    expect(pnpSection()!.textContent).toContain('The stage is a PNP one');
+    await userEvent.click(screen.getByRole('button', { name: 'Save as new version' }));
+    expect(await screen.findAllByText(serverRefusal())).toHaveLength(1);
+    expect(puts()).toHaveLength(0);
+    await userEvent.click(ptat);
+    await waitFor(() => expect(screen.queryByText(serverRefusal())).toBeNull());
+    expect(ptat.disabled).toBe(true);
+    await userEvent.click(screen.getByRole('button', { name: 'Save as new version' }));
+    await waitFor(() => expect(puts()).toHaveLength(1));
+    const payload = (puts()[0].body as { payload: { device: { family: string }; topologies: string[] } }).payload;
+    expect(payload.device.family).toBe('pnp');
+    expect(payload.topologies).toEqual(['widlar']);
+  });
+
+  test('when a PNP spec is shown read-only, then the family reads PNP bipolar', async () => {
+    renderForm({ ...SAVED, device: { family: 'pnp' } }, true);
+    expect(await screen.findByText('PNP bipolar')).toBeTruthy();
+    expect(screen.queryByText('NPN bipolar')).toBeNull();
   });
 });

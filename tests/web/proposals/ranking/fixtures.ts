@@ -20,12 +20,15 @@ export const studioLine = (): RecommendResult => json('../../fixtures/line-recei
 export const hydrophonePreamp = (): RecommendResult => json('../../fixtures/hydrophone-preamp.generated.json');
 /** Gain ±2 % from −40 to 85 °C, with the PTAT tail and its PNP among the options. */
 export const geophoneNode = (): RecommendResult => json('../../fixtures/geophone-node.generated.json');
+/** A PNP pair on a single 5 V supply (rails 5 V and 0 V), its input range reaching 0 V. */
+export const pressureProbe = (): RecommendResult => json('../../fixtures/pressure-probe.generated.json');
 
 const SPEC_FILES = {
   strain: '../../fixtures/specs/bridge-receiver.json',
   studio: '../../fixtures/specs/line-receiver.json',
   hydrophone: '../../fixtures/specs/hydrophone-preamp.json',
   geophone: '../../fixtures/specs/geophone-node.json',
+  pressure: '../../fixtures/specs/pressure-probe.json',
 } as const;
 
 /** The spec a fixture was ranked from. */

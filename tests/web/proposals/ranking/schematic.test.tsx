@@ -3,7 +3,7 @@ import { cleanup, render, screen } from '@testing-library/react';
 import { afterEach, describe, expect, test } from 'vitest';
 import type { Design, TopologyId } from '#shared/engine/types';
 import { OptionSchematic } from '../../../../web/src/features/proposals/components/ranking/schematic/option-schematic';
-import { geophoneNode, strainBridge, studioLine } from './fixtures';
+import { geophoneNode, pressureProbe, strainBridge, studioLine } from './fixtures';
 
 afterEach(cleanup);
 
@@ -11,7 +11,7 @@ const designs = new Map([...strainBridge().options, ...geophoneNode().options.fi
 
 function drawn(design: Design) {
   const { container } = render(<OptionSchematic design={design} />);
-  const devices = [...container.querySelectorAll('[data-device]')].map((g) => g.getAttribute('data-device')).sort();
+  const devices = [...container.querySelectorAll('[data-device]')].map((g) => g.getAttribute('data-device') ?? '').sort();
   const parts = [...container.querySelectorAll('[data-part^="R"]')].map((g) => g.getAttribute('data-part')).sort();
   return { container, devices, parts };
 }
@@ -109,6 +109,105 @@ describe('OptionSchematic', () => {
     const design = { ...designs.get('resistor')!, supply: { positiveV: 12, negativeV: 0 } };
     const { container } = drawn(design);
     expect(container.textContent).toContain('0 V (ground)');
+  });
+});
+
+/** The PNP stage's designs (a PNP pair on 5 V and 0 V), one per tail it ranks: every bipolar tail but the PTAT source. */
+const pnpDesigns = new Map(pressureProbe().options.map((o) => [o.topology, o.design!]));
+const PNP_TAILS: [TopologyId, string[]][] = [
+  ['resistor', ['RT']],
+  ['simple-mirror', ['RREF']],
+  ['degenerated-mirror', ['RE3', 'RE4', 'RREF']],
+  ['widlar', ['RE4', 'RREF']],
+  ['wilson', ['RREF']],
+  ['cascode', ['RREF']],
+];
+
+/** Heights in the drawing (SVG y grows downwards): a part's middle, the rails, the tail node. */
+function heights(container: Element) {
+  const railY = (name: string) => Number(container.querySelector(`[data-part="${name}"] line`)!.getAttribute('y1'));
+  const barMiddle = (name: string) => {
+    const bar = container.querySelector(`[data-device="${name}"] line`)!;
+    return (Number(bar.getAttribute('y1')) + Number(bar.getAttribute('y2'))) / 2;
+  };
+  const bodyMiddle = (name: string) => {
+    const body = container.querySelector(`[data-part="${name}"] rect`)!;
+    return Number(body.getAttribute('y')) + Number(body.getAttribute('height')) / 2;
+  };
+  /** Every height a part's wires reach. */
+  const wireEnds = (name: string) => [...container.querySelectorAll(`[data-part="${name}"] polyline`)].flatMap((l) => l.getAttribute('points')!.split(' ').map((p) => Number(p.split(',')[1])));
+  const tLabel = [...container.querySelectorAll('text')].find((t) => t.textContent === 't')!;
+  return { positive: railY('V+'), negative: railY('V−'), barMiddle, bodyMiddle, wireEnds, tailLabel: Number(tLabel.getAttribute('y')) };
+}
+
+describe('OptionSchematic of a PNP stage', () => {
+  test.each(PNP_TAILS)('%s: every transistor is a PNP, the pair hangs under the tail from V+ and its loads go down to V−', (topology, tailResistors) => {
+    const design = pnpDesigns.get(topology)!;
+    expect(design.device.family).toBe('pnp');
+    const { container, devices, parts } = drawn(design);
+    // The same parts as the NPN stage of that tail
+    const npn = drawn(designs.get(topology)!);
+    expect(devices).toEqual(npn.devices);
+    expect(parts).toEqual(['RC1', 'RC2', ...(design.pairEmitterResistanceOhm ? ['RE1', 'RE2'] : []), ...tailResistors].sort());
+    expect([...container.querySelectorAll('[data-device]')].map((d) => d.getAttribute('data-polarity'))).toEqual(Array(devices.length).fill('pnp'));
+    const h = heights(container);
+    // Top to bottom: V+, the tail's transistors, t, the pair, the loads, V−
+    for (const name of devices.filter((d) => d !== 'Q1' && d !== 'Q2')) {
+      expect(h.barMiddle(name)).toBeGreaterThan(h.positive);
+      expect(h.barMiddle(name)).toBeLessThan(h.tailLabel);
+    }
+    for (const name of ['Q1', 'Q2']) {
+      expect(h.barMiddle(name)).toBeGreaterThan(h.tailLabel);
+      expect(h.bodyMiddle(`RC${name[1]}`)).toBeGreaterThan(h.barMiddle(name));
+      expect(h.wireEnds(`RC${name[1]}`)).toContain(h.negative);
+    }
+    // The tail returns to V+; a mirror's reference resistor runs down to V−
+    if (topology === 'resistor') expect(h.wireEnds('RT')).toContain(h.positive);
+    else expect(h.wireEnds('RREF')).toContain(h.negative);
+    npn.container.remove();
+  });
+
+  test('the NPN stage of the same tail stays the other way up: its pair above t, its loads from V+', () => {
+    const { container } = drawn(designs.get('simple-mirror')!);
+    const h = heights(container);
+    expect(h.barMiddle('Q1')).toBeLessThan(h.tailLabel);
+    expect(h.barMiddle('Q3')).toBeGreaterThan(h.tailLabel);
+    expect(h.wireEnds('RC1')).toContain(h.positive);
+    expect([...container.querySelectorAll('[data-device]')].every((d) => d.getAttribute('data-polarity') === 'npn')).toBe(true);
+  });
+
+  test('every emitter arrow of a PNP stage points into the bar (IEEE 315 / IEC 60617: a PNP’s arrow points into the base)', () => {
+    const { container, devices } = drawn(pnpDesigns.get('cascode')!);
+    for (const name of devices) {
+      const device = container.querySelector(`[data-device="${name}"]`)!;
+      const barX = Number(device.querySelector('line')!.getAttribute('x1'));
+      const [tip, ...back] = device.querySelector('polygon')!.getAttribute('points')!.split(' ').map((p) => p.split(',').map(Number));
+      expect(Math.abs(tip[0] - barX)).toBeLessThan(Math.abs((back[0][0] + back[1][0]) / 2 - barX));
+    }
+  });
+
+  test('its labels stay upright: a resistor’s name above its value, each within its own body’s height', () => {
+    const { container } = drawn(pnpDesigns.get('widlar')!);
+    for (const name of ['RC1', 'RREF', 'RE4']) {
+      const [label, value] = [...container.querySelectorAll(`[data-part="${name}"] text`)].map((t) => Number(t.getAttribute('y')));
+      expect(label).toBeLessThan(value);
+      const body = container.querySelector(`[data-part="${name}"] rect`)!;
+      const top = Number(body.getAttribute('y'));
+      expect(label).toBeGreaterThan(top);
+      expect(value).toBeLessThan(top + Number(body.getAttribute('height')) + 4);
+    }
+  });
+
+  test('its description names the PNP stage, the tail from V+ and the loads down to V−, with the mirror’s reference resistor to V−', () => {
+    const design: Design = { ...pnpDesigns.get('cascode')!, collectorResistanceOhm: 1210, supply: { positiveV: 5, negativeV: 0 }, tail: { topology: 'cascode', referenceResistanceOhm: 8870 } };
+    render(<OptionSchematic design={design} />);
+    const words = screen.getByRole('img').getAttribute('aria-label')!;
+    expect(words).toMatch(/^Schematic, cascode mirror tail, PNP stage \(every transistor a PNP/i);
+    expect(words).toContain('Tail from V+ (5 V) at the top');
+    expect(words).toContain('fed from V− through RREF 8.87 kΩ');
+    expect(words).toContain('mirror Q3 (diode-connected) and Q4 at the top, emitters at V+');
+    expect(words).toContain('RC1 and RC2 1.21 kΩ down to V− (0 V)');
+    expect(words).not.toContain('to V+ (5 V)');
   });
 });
 

@@ -97,7 +97,7 @@ export function RadioWidget({ id, htmlName, label, options, value, disabled, rea
 }
 
 export function CheckboxesWidget({ id, htmlName, label, options, value, disabled, readonly, required, onChange, onBlur, onFocus }: WidgetProps) {
-  const { enumOptions = [] } = options;
+  const { enumOptions = [], enumDisabled = [] } = options;
   const values: unknown[] = Array.isArray(value) ? value : [];
   if (readonly) {
     const chosen = enumOptions.filter((o) => enumOptionsIsSelected(o.value, values)).map((o) => o.label);
@@ -114,7 +114,7 @@ export function CheckboxesWidget({ id, htmlName, label, options, value, disabled
             name={htmlName || id}
             className={CONTROL}
             checked={enumOptionsIsSelected(option.value, values)}
-            disabled={disabled || readonly}
+            disabled={disabled || readonly || (enumDisabled as unknown[]).includes(option.value)}
             onChange={(e) => onChange(e.target.checked ? enumOptionsSelectValue(index, values, enumOptions) : enumOptionsDeselectValue(index, values, enumOptions))}
             onBlur={() => onBlur(id, values)}
             onFocus={() => onFocus(id, values)}

@@ -12,6 +12,7 @@ import { formatDate } from '../../../lib/dates';
 import { inputClass } from '../../../components/forms/input-class';
 import { DEVICE_PICKER_PAGE_SIZE, type LibraryDevice, type RecordedDeviceModel } from '../../../lib/device-library';
 import { libraryDeviceFor, refFor, type DeviceChoiceContext, type DeviceLibraryState, type DeviceModelRef } from '../lib/device-choice';
+import type { PnpChoiceContext } from '../lib/pnp-choice';
 
 const NOTE = 'mt-1 text-xs leading-snug text-ink-soft dark:text-night-ink-soft';
 
@@ -56,7 +57,15 @@ export function DeviceModelField({ fieldPathId, formData, onChange, readonly, di
   const resolved = library?.recorded ?? null;
   const stateNote = recorded ? recordedState(recorded, resolved) : null;
 
-  if (readonly || !library) {
+  const pnpStage = (registry.formContext as PnpChoiceContext | undefined)?.pnpStage === true;
+  if (readonly || !library || (pnpStage && !recorded)) {
+    if (pnpStage && !recorded && !readonly && library) {
+      return (
+        <p id={id} className={NOTE}>
+          The device library holds NPN cards: a PNP stage’s transistor is typed in below.
+        </p>
+      );
+    }
     if (!recorded) return null;
     return (
       <div id={id}>

@@ -15,7 +15,8 @@ const holdsValues = (value: unknown) => value !== null && typeof value === 'obje
 
 export function PnpDeviceField(props: FieldProps) {
   const { registry, formData, fieldPathId } = props;
-  const tails = (registry.formContext as PnpChoiceContext | undefined)?.pnpTails ?? [];
+  const context = registry.formContext as PnpChoiceContext | undefined;
+  const tails = context?.pnpTails ?? [];
   if (tails.length === 0 && !holdsValues(formData)) return null;
   const ObjectField = registry.fields.ObjectField;
   const headingId = `${fieldPathId.$id}__heading`;
@@ -28,7 +29,9 @@ export function PnpDeviceField(props: FieldProps) {
       <p className={`${NOTE} mb-2`}>
         {tails.length > 0
           ? `The ${names} mirrors its current through PNP transistors (${pnpTransistorNames(tails).join(', ')}): give the PNP’s current gain, and its Early voltage and IS as the data sheet or model states them.`
-          : 'No chosen tail needs a PNP: these values stay with the spec but nothing uses them.'}
+          : context?.pnpStage
+            ? 'The stage is a PNP one, its own transistor given above: these values stay with the spec but nothing uses them.'
+            : 'No chosen tail needs a PNP: these values stay with the spec but nothing uses them.'}
       </p>
       <ObjectField {...props} />
     </section>

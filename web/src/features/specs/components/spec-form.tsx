@@ -21,13 +21,15 @@ import { withoutUnsetGroups } from '../lib/optional-groups';
 import type { SchemaNode } from '../lib/schema-nodes';
 import { serverErrorsToErrorSchema } from '../lib/server-errors';
 import { specChecks, withoutUnreadableFieldErrors } from '../lib/spec-checks';
-import { SPEC_UI_SCHEMA, withQuantityWidgets } from '../lib/spec-ui-schema';
+import { SPEC_UI_SCHEMA, uiSchemaForFamily, withQuantityWidgets } from '../lib/spec-ui-schema';
 import { specValidator } from '../lib/spec-validator';
 import { stableJson } from '../lib/stable-json';
 import { DeviceModelField } from './device-model-field';
 import { CardModelField } from './card-model-field';
 import { PnpDeviceField } from './pnp-device-field';
-import { tailsNeedingPnp, type PnpChoiceContext } from '../lib/pnp-choice';
+import { chosenTopologies, isPnpStage, tailsNeedingPnp, type PnpChoiceContext } from '../lib/pnp-choice';
+import { familyIssues } from '#shared/validation/cross-field-rules';
+import type { DeviceParams } from '#shared/engine/types';
 
 export type SpecDraft = Record<string, unknown>;
 
@@ -116,12 +118,23 @@ function SpecFormBody({
     container.current?.querySelector<HTMLElement>('[aria-invalid="true"]')?.focus();
   }, [serverErrors]);
 
+  // The device family decides which tails the picker offers (a PNP stage cannot take a tail that needs a PNP mirror)
+  const pnpStage = isPnpStage(formData);
+  const topologiesKey = chosenTopologies(formData).join(' ');
   const uiSchema = useMemo<UiSchema>(
     () => ({
-      ...withQuantityWidgets(schema as SchemaNode, SPEC_UI_SCHEMA),
+      ...uiSchemaForFamily(withQuantityWidgets(schema as SchemaNode, SPEC_UI_SCHEMA), pnpStage ? 'pnp' : 'npn', topologiesKey.split(' ')),
       'ui:submitButtonOptions': { submitText: saving ? savingLabel : saveLabel, norender: !onSave, props: { disabled: saving } },
     }),
-    [schema, saving, savingLabel, saveLabel, onSave],
+    [schema, saving, savingLabel, saveLabel, onSave, pnpStage, topologiesKey],
+  );
+
+  // A PNP stage with such a tail still chosen is refused at once, in the server's words, not only on saving
+  // (after a save attempt the form's own checks say it)
+  const familyMessage = submitted || !pnpStage ? undefined : familyIssues(formData.device as DeviceParams | undefined, chosenTopologies(formData), '/topologies', 'the tail options include')[0]?.message;
+  const shownErrors = useMemo<ErrorSchema>(
+    () => (familyMessage ? ({ ...serverErrors, topologies: { __errors: [...(serverErrors.topologies?.__errors ?? []), familyMessage] } } as unknown as ErrorSchema) : serverErrors),
+    [serverErrors, familyMessage],
   );
 
   const submitNote: ReactNode = saving ? (
@@ -137,8 +150,8 @@ function SpecFormBody({
   const pnpTailsKey = tailsNeedingPnp(formData).join(' ');
   const pnpTails = useMemo(() => (pnpTailsKey === '' ? [] : pnpTailsKey.split(' ')), [pnpTailsKey]) as PnpChoiceContext['pnpTails'];
   const formContext = useMemo<FormContext & DeviceChoiceContext & PnpChoiceContext>(
-    () => ({ reportUnreadable, submitNote, deviceLibrary, pnpTails }),
-    [reportUnreadable, submitNote, deviceLibrary, pnpTails],
+    () => ({ reportUnreadable, submitNote, deviceLibrary, pnpTails, pnpStage }),
+    [reportUnreadable, submitNote, deviceLibrary, pnpTails, pnpStage],
   );
 
   const onChange = (event: IChangeEvent<SpecDraft>) => {
@@ -190,7 +203,7 @@ function SpecFormBody({
         templates={FORM_TEMPLATES}
         widgets={FORM_WIDGETS}
         fields={SPEC_FIELDS}
-        extraErrors={serverErrors}
+        extraErrors={shownErrors}
         customValidate={customValidate}
         transformErrors={transformErrors}
         liveValidate={submitted ? 'onChange' : undefined}

@@ -12,10 +12,22 @@ export const PNP_TAILS: readonly TopologyId[] = TOPOLOGIES.filter((id) => TOPOLO
 /** The options a spec compares when it names none: the schema's default. */
 const DEFAULT_TOPOLOGIES = specSchema.properties.topologies.default as readonly string[];
 
-/** The tails of the form's choice (the schema's default when it has none) that need the PNP. */
-export function tailsNeedingPnp(draft: Record<string, unknown>): TopologyId[] {
+/** The tail options of the form's choice (the schema's default when it has none). */
+export function chosenTopologies(draft: Record<string, unknown>): TopologyId[] {
   const chosen = Array.isArray(draft.topologies) ? (draft.topologies as unknown[]) : DEFAULT_TOPOLOGIES;
-  return chosen.filter(isTopologyId).filter((id) => PNP_TAILS.includes(id));
+  return chosen.filter(isTopologyId);
+}
+
+/** Whether the draft describes a PNP stage (`device.family` "pnp"). */
+export function isPnpStage(draft: Record<string, unknown>): boolean {
+  const device = draft.device as Record<string, unknown> | undefined;
+  return device?.family === 'pnp';
+}
+
+/** The tails of the form's choice that need the PNP (none for a PNP stage, which cannot take them). */
+export function tailsNeedingPnp(draft: Record<string, unknown>): TopologyId[] {
+  if (isPnpStage(draft)) return [];
+  return chosenTopologies(draft).filter((id) => PNP_TAILS.includes(id));
 }
 
 /** The PNP transistors of those tails, by their reference designators ("Q7, Q8"). */
@@ -27,4 +39,6 @@ export function pnpTransistorNames(tails: readonly TopologyId[]): string[] {
 export interface PnpChoiceContext {
   /** The chosen tails that need a PNP (empty: the section shows only when it holds values). */
   pnpTails?: readonly TopologyId[];
+  /** The stage itself is a PNP one: the section's values are not read, and the device library (NPN cards) is not offered. */
+  pnpStage?: boolean;
 }

@@ -7,6 +7,7 @@ import type { UiSchema } from '@rjsf/utils';
 import type { FormLayout } from '../../../components/forms/object-field-template';
 import type { SchemaNode } from './schema-nodes';
 import { TOPOLOGIES, TOPOLOGY_CATALOGUE, topologyName } from '#shared/engine/topologies';
+import { pnpStageRefusal } from '#shared/validation/cross-field-rules';
 import { PNP_TAILS } from './pnp-choice';
 
 export const SPEC_LAYOUT: FormLayout = {
@@ -22,7 +23,7 @@ export const SPEC_LAYOUT: FormLayout = {
     { title: 'Output & power', fields: ['outputSwingVpp', 'outputSwingMaxCompressionPercent', 'powerBudgetW', 'tailCurrentA'] },
     { title: 'Temperature', fields: ['temperatureC'] },
     { title: 'Options', fields: ['topologies', 'policy'] },
-    { title: 'Device', fields: ['deviceModel', 'device', 'betaRange'], note: 'One NPN model for every NPN transistor of the stage; a PNP too when a chosen tail needs one.' },
+    { title: 'Device', fields: ['deviceModel', 'device', 'betaRange'], note: 'One model for every transistor of the stage, NPN or PNP as its family; an NPN stage takes a PNP too when a chosen tail needs one.' },
     { title: 'Resistors', fields: ['resistors'] },
     { title: 'Monte Carlo', fields: ['monteCarlo'], note: 'Yield of the differential CMRR under tolerance and mismatch.' },
     { title: 'Hazards', fields: ['hazards'], note: 'Conditions that add safety cautions to the report.' },
@@ -40,6 +41,36 @@ const TOPOLOGY_PICKER_WORDS: Record<string, string> = Object.fromEntries(
 /** What the picker says under the options about the tails that need a PNP. */
 const TOPOLOGY_PICKER_HELP = `${PNP_TAILS.map((id) => topologyName(id)).join(' and ')}: its current rises with absolute temperature, so the pair’s gm, and a resistor-loaded gain, hold over temperature. It mirrors through PNP transistors, so choosing it asks for the PNP under Device; it is left out unless chosen.`;
 
+/** The tail options as the picker offers them to a PNP stage: the tails that need a PNP mirror would need an NPN one there. */
+const PNP_STAGE_PICKER_WORDS: Record<string, string> = { ...TOPOLOGY_PICKER_WORDS, ...Object.fromEntries(PNP_TAILS.map((id) => [id, `${topologyName(id)} — needs an NPN pair`])) };
+
+/** What the picker says under the options for a PNP stage: the server's refusal of those tails, in its words. */
+const PNP_STAGE_PICKER_HELP = `With a PNP pair, not offered: ${pnpStageRefusal(PNP_TAILS)}.`;
+
+/**
+ * The form's settings for the device family chosen: a PNP stage (`device.family` "pnp") offers
+ * the tails that need a PNP mirror disabled, with the reason under the options (one already chosen
+ * stays enabled, so it can be left out; the form says it is refused until then).
+ */
+export function uiSchemaForFamily(ui: UiSchema, family: unknown, chosenTopologies: readonly string[]): UiSchema {
+  if (family !== 'pnp') return ui;
+  const { 'ui:help': _npnHelp, ...topologies } = ui.topologies as UiSchema;
+  const refusedChosen = PNP_TAILS.some((id) => chosenTopologies.includes(id));
+  return {
+    ...ui,
+    topologies: {
+      ...topologies,
+      'ui:enumNames': PNP_STAGE_PICKER_WORDS,
+      'ui:enumDisabled': PNP_TAILS.filter((id) => !chosenTopologies.includes(id)),
+      // While such a tail is still chosen, the refusal beside the options says it
+      ...(refusedChosen ? {} : { 'ui:help': PNP_STAGE_PICKER_HELP }),
+    },
+  };
+}
+
+/** The device families in the form's words. */
+const FAMILY_WORDS: Record<string, string> = { npn: 'NPN bipolar', pnp: 'PNP bipolar' };
+
 /** Words for enum values, by property name; also used to print values in the version history. */
 export const ENUM_WORDS: Record<string, Record<string, string>> = {
   topologies: TOPOLOGY_WORDS,
@@ -53,8 +84,8 @@ export const SPEC_UI_SCHEMA: UiSchema = {
   title: { 'ui:placeholder': 'e.g. Bridge amplifier input stage', 'ui:options': { large: true, wide: true } },
   deviceModel: { 'ui:field': 'deviceModel' },
   device: {
-    // the form builds NPN stages; a PNP spec (from the API, the command line or an import) shows as one
-    family: { 'ui:widget': 'fixed', 'ui:options': { display: 'NPN bipolar', displayByValue: { npn: 'NPN bipolar', pnp: 'PNP bipolar (mirror image, fed from the other rail)' } } },
+    // NPN or PNP pair: the PNP stage is the NPN one's mirror image (tail from the positive rail, loads to the negative)
+    family: { 'ui:widget': 'radio', 'ui:enumNames': FAMILY_WORDS, 'ui:options': { wide: true } },
     saturationCurrentA: { 'ui:placeholder': 'from VBE at 1 mA' },
     model: { 'ui:field': 'cardModel' },
     pnp: {

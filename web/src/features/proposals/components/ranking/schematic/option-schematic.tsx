@@ -7,7 +7,7 @@ import { CascodeTail } from './cascode-tail';
 import { DegeneratedMirrorTail } from './degenerated-mirror-tail';
 import { RAIL_BOTTOM_Y, RAIL_LEFT_X, RAIL_RIGHT_X, RAIL_TOP_Y, VIEW } from './layout';
 import { PairDrawing } from './pair-drawing';
-import { Rail } from './parts';
+import { MirroredStage, Rail } from './parts';
 import { PtatTail } from './ptat-tail';
 import { ResistorTail } from './resistor-tail';
 import { SimpleMirrorTail } from './simple-mirror-tail';
@@ -36,19 +36,26 @@ function TailDrawing({ tail }: { tail: TailDesign }) {
 /**
  * The option's stage drawn by the app: the pair in soft ink, the tail element (what differs
  * between options) in the accent colour, on screen and on paper (styles/app.css keeps it when
- * printing). Every part draws in currentColor, so its group decides its colour.
+ * printing). Every part draws in currentColor, so its group decides its colour. A PNP stage
+ * (`device.family` "pnp") is drawn as its own mirror image: the tail from V+ at the top, the pair of
+ * PNPs hanging from it, the loads down to V−.
  */
 export function OptionSchematic({ design, className }: { design: Design; className?: string }) {
   const negativeV = design.supply.negativeV;
+  const pnp = design.device.family === 'pnp';
   return (
-    <svg viewBox={`0 0 ${VIEW.width} ${VIEW.height}`} role="img" aria-label={schematicDescription(design)} className={className}>
+    <svg viewBox={`0 0 ${VIEW.width} ${VIEW.height}`} data-family={pnp ? 'pnp' : 'npn'} role="img" aria-label={schematicDescription(design)} className={className}>
       <g data-accent="none" className="text-ink-soft opacity-60 dark:text-night-ink-soft">
         <Rail y={RAIL_TOP_Y} x1={RAIL_LEFT_X} x2={RAIL_RIGHT_X} name="V+" volts={formatQuantity(design.supply.positiveV, 'V')} />
         <Rail y={RAIL_BOTTOM_Y} x1={RAIL_LEFT_X} x2={RAIL_RIGHT_X} name="V−" volts={negativeV === 0 ? '0 V (ground)' : formatQuantity(negativeV, 'V')} below />
-        <PairDrawing design={design} />
+        <MirroredStage mirrored={pnp}>
+          <PairDrawing design={design} />
+        </MirroredStage>
       </g>
       <g data-accent="tail" className="schematic-tail text-fern dark:text-fern-bright">
-        <TailDrawing tail={design.tail} />
+        <MirroredStage mirrored={pnp}>
+          <TailDrawing tail={design.tail} />
+        </MirroredStage>
       </g>
     </svg>
   );

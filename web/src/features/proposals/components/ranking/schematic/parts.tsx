@@ -4,23 +4,51 @@
  * its emitter down and the arrow pointing out, the PNP with its emitter up (towards V+) and the
  * arrow pointing in. Coordinates are viewBox units; strokes follow currentColor so the theme
  * colours them.
+ *
+ * A PNP stage is the NPN drawing turned upside down between the rails (`MirroredStage`): every
+ * part inside it is placed at its mirrored height, an NPN drawn there becomes a PNP (emitter up,
+ * arrow in) and a PNP an NPN, while text, resistor labels and symbols stay upright. So each tail
+ * is drawn once, and its PNP version hangs from V+ with its reference resistor down to V−.
  */
-import type { ReactNode } from 'react';
+import { createContext, useContext, type ReactNode } from 'react';
+import { RAIL_BOTTOM_Y, RAIL_TOP_Y } from './layout';
 
 export type Point = readonly [number, number];
 
+/** The mirrored height of a drawn height, or null when the drawing is upright. */
+const MirrorContext = createContext<((y: number) => number) | null>(null);
+const mirrorY = (y: number) => RAIL_TOP_Y + RAIL_BOTTOM_Y - y;
+
+/** Draws `children` (laid out as an NPN stage) as the PNP stage: upside down between the rails. */
+export function MirroredStage({ mirrored, children }: { mirrored: boolean; children: ReactNode }) {
+  return <MirrorContext value={mirrored ? mirrorY : null}>{children}</MirrorContext>;
+}
+
+/** Inside a composite part that has already placed itself: its pieces draw as given. */
+function Upright({ children }: { children: ReactNode }) {
+  return <MirrorContext value={null}>{children}</MirrorContext>;
+}
+
 export function Wire({ points }: { points: Point[] }) {
-  return <polyline points={points.map(([x, y]) => `${x},${y}`).join(' ')} fill="none" stroke="currentColor" strokeWidth={1.4} strokeLinejoin="round" />;
+  const mirror = useContext(MirrorContext);
+  const placed = mirror ? points.map(([x, y]) => [x, mirror(y)] as const) : points;
+  return <polyline points={placed.map(([x, y]) => `${x},${y}`).join(' ')} fill="none" stroke="currentColor" strokeWidth={1.4} strokeLinejoin="round" />;
 }
 
 export function Dot({ at: [x, y] }: { at: Point }) {
-  return <circle cx={x} cy={y} r={2.6} fill="currentColor" />;
+  const mirror = useContext(MirrorContext);
+  return <circle cx={x} cy={mirror ? mirror(y) : y} r={2.6} fill="currentColor" />;
 }
+
+/** Half a label's height above its baseline: a mirrored label keeps its box, not its baseline, opposite its point. */
+const LABEL_MIDDLE = 4;
 
 /** A text label; `anchor` as SVG's text-anchor. */
 export function Label({ at: [x, y], anchor = 'start', strong, soft, children }: { at: Point; anchor?: 'start' | 'middle' | 'end'; strong?: boolean; soft?: boolean; children: ReactNode }) {
+  const mirror = useContext(MirrorContext);
+  const baseline = mirror ? mirror(y - LABEL_MIDDLE) + LABEL_MIDDLE : y;
   return (
-    <text x={x} y={y} textAnchor={anchor} fontSize={11} fill="currentColor" stroke="none" fontWeight={strong ? 600 : 400} opacity={soft ? 0.75 : 1}>
+    <text x={x} y={baseline} textAnchor={anchor} fontSize={11} fill="currentColor" stroke="none" fontWeight={strong ? 600 : 400} opacity={soft ? 0.75 : 1}>
       {children}
     </text>
   );
@@ -31,6 +59,14 @@ const BODY_HALF_WIDTH = 6;
 
 /** A vertical resistor from y1 to y2 at x, its name and value beside it. */
 export function Resistor({ x, y1, y2, name, value, side = 'right' }: { x: number; y1: number; y2: number; name: string; value: string; side?: 'left' | 'right' }) {
+  const mirror = useContext(MirrorContext);
+  if (mirror) {
+    return (
+      <Upright>
+        <Resistor x={x} y1={mirror(y2)} y2={mirror(y1)} name={name} value={value} side={side} />
+      </Upright>
+    );
+  }
   const mid = (y1 + y2) / 2;
   const dx = side === 'right' ? 12 : -12;
   const anchor = side === 'right' ? 'start' : 'end';
@@ -57,6 +93,14 @@ export function transistorPins(cx: number, cy: number, base: 'left' | 'right') {
 
 /** An NPN transistor: base lead on `base` side, collector up, emitter down with its arrow pointing out; `detail` (an emitter-area ratio, say) under its name. */
 export function Npn({ cx, cy, base, name, detail }: { cx: number; cy: number; base: 'left' | 'right'; name: string; detail?: string }) {
+  const mirror = useContext(MirrorContext);
+  if (mirror) {
+    return (
+      <Upright>
+        <Pnp cx={cx} cy={mirror(cy)} base={base} name={name} detail={detail} />
+      </Upright>
+    );
+  }
   const dx = base === 'left' ? 1 : -1;
   const barX = cx - 14 * dx;
   const pins = transistorPins(cx, cy, base);
@@ -64,7 +108,7 @@ export function Npn({ cx, cy, base, name, detail }: { cx: number; cy: number; ba
   const [ux, uy] = unit(cx - barX, 9);
   const tip: Point = [barX + 0.8 * (cx - barX), cy + 7 + 0.8 * 9];
   return (
-    <g data-device={name}>
+    <g data-device={name} data-polarity="npn">
       <TransistorBody cx={cx} cy={cy} dx={dx} base={pins.base} />
       <Wire points={[[barX, cy - 6], [cx, cy - 15], pins.collector]} />
       <Wire points={[[barX, cy + 6], [cx, cy + 15], pins.emitter]} />
@@ -82,6 +126,14 @@ export function pnpPins(cx: number, cy: number, base: 'left' | 'right') {
 
 /** A PNP transistor: base lead on `base` side, emitter up with its arrow pointing in (towards the bar), collector down. */
 export function Pnp({ cx, cy, base, name, detail }: { cx: number; cy: number; base: 'left' | 'right'; name: string; detail?: string }) {
+  const mirror = useContext(MirrorContext);
+  if (mirror) {
+    return (
+      <Upright>
+        <Npn cx={cx} cy={mirror(cy)} base={base} name={name} detail={detail} />
+      </Upright>
+    );
+  }
   const dx = base === 'left' ? 1 : -1;
   const barX = cx - 14 * dx;
   const pins = pnpPins(cx, cy, base);
@@ -154,6 +206,14 @@ export function Rail({ y, x1, x2, name, volts, below }: { y: number; x1: number;
 
 /** An input terminal: an open circle with its net name. */
 export function Terminal({ at, name, side }: { at: Point; name: string; side: 'left' | 'right' }) {
+  const mirror = useContext(MirrorContext);
+  if (mirror) {
+    return (
+      <Upright>
+        <Terminal at={[at[0], mirror(at[1])]} name={name} side={side} />
+      </Upright>
+    );
+  }
   return (
     <g>
       <circle cx={at[0]} cy={at[1]} r={3.2} fill="none" stroke="currentColor" strokeWidth={1.4} />
