@@ -27,7 +27,7 @@ function elementLine(el: CircuitElement): string {
 }
 
 /** The netlist of a MOS design for one analysis. */
-export function mosSpiceNetlist(design: MosDesign, options: MosNetlistAnalysis): string {
+export function mosSpiceNetlist(design: MosDesign, options: MosNetlistAnalysis & { relativeTolerance?: number }): string {
   const circuit = mosStageCircuit(design);
   const family = design.device.family;
   const type = family === 'pmos' ? -1 : 1;
@@ -48,7 +48,7 @@ export function mosSpiceNetlist(design: MosDesign, options: MosNetlistAnalysis):
   for (const el of elements) {
     if (isMosfet(el) && mosfetHasOwnModel(el)) lines.push(modelCardLine(mosfetModelName(el as MosfetElement), family, mosfetOwnCard(design.device.model, el, type)));
   }
-  lines.push(`.options tnom=${spiceNumber(NOMINAL_TEMPERATURE_C)}`, `.temp ${spiceNumber(design.temperatureC ?? NOMINAL_TEMPERATURE_C)}`);
+  lines.push(`.options tnom=${spiceNumber(NOMINAL_TEMPERATURE_C)}${options.relativeTolerance !== undefined ? ` reltol=${spiceNumber(options.relativeTolerance)}` : ''}`, `.temp ${spiceNumber(design.temperatureC ?? NOMINAL_TEMPERATURE_C)}`);
   lines.push(options.analysis === 'op' ? '.op' : `.ac lin 1 ${spiceNumber(options.frequencyHz)} ${spiceNumber(options.frequencyHz)}`);
   lines.push('.end', '');
   return lines.join('\n');

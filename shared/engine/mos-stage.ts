@@ -8,7 +8,7 @@
  * device with the PMOS card's own model at the temperature (ngspice's threshold equations are
  * not symmetric between the polarities, mos-device.ts).
  */
-import { COLLECTOR_NODES, DRIVE_NODES_BEHIND_SOURCE, GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, mirroredCircuit, type CircuitElement, type MosfetElement, type StageCircuit } from './circuit';
+import { COLLECTOR_NODES, GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, mirroredCircuit, type CircuitElement, type MosfetElement, type StageCircuit } from './circuit';
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { mosModel, type MosFamily, type MosModel } from './mos-device';
 import { resolvedMosParameters, type MosModelCard } from './mos-parameters';
@@ -75,8 +75,6 @@ export interface MosDesign {
   inputCommonModeV?: number;
   temperatureC?: number;
   tailCapacitanceF?: number;
-  loadCapacitanceF?: number;
-  sourceResistanceOhm?: number;
 }
 
 /** `analyze`'s figures for a MOS stage (the contract's names; currents as positive magnitudes in the direction the devices conduct). */
@@ -238,8 +236,7 @@ function nmosStageCircuit(design: MosDesign): StageCircuit {
   const vicmV = design.inputCommonModeV ?? 0;
   const rdOhm = design.drainResistanceOhm;
   const rsOhm = design.pairSourceResistanceOhm ?? 0;
-  const sourceOhm = design.sourceResistanceOhm ?? 0;
-  const driveNodes = sourceOhm > 0 ? DRIVE_NODES_BEHIND_SOURCE : INPUT_NODES;
+  const driveNodes = INPUT_NODES;
   const sources = rsOhm > 0 ? ['s1', 's2'] : [TAIL_NODE, TAIL_NODE];
   const bodies = design.pairBodyTiedToSource ? sources : [RAIL_NODES.negative, RAIL_NODES.negative];
   const m2: MosfetElement = mosfet('M2', COLLECTOR_NODES[1], INPUT_NODES[1], sources[1], bodies[1], design.pair, 'pair');
@@ -251,9 +248,6 @@ function nmosStageCircuit(design: MosDesign): StageCircuit {
     mosfet('M1', COLLECTOR_NODES[0], INPUT_NODES[0], sources[0], bodies[0], design.pair, 'pair'),
     m2,
   ];
-  if (sourceOhm > 0) {
-    elements.push(resistor('RS1', driveNodes[0], INPUT_NODES[0], sourceOhm, 'pair'), resistor('RS2', driveNodes[1], INPUT_NODES[1], sourceOhm, 'pair'));
-  }
   if (rsOhm > 0) elements.push(resistor('RSS1', 's1', TAIL_NODE, rsOhm, 'pair'), resistor('RSS2', 's2', TAIL_NODE, rsOhm, 'pair'));
   // The tail node a gate–source drop below the inputs at half the tail current, the tail guessed from there, a few passes
   let tailNodeGuessV = vicmV - vgsGuessV(card, design.pair, 0);
@@ -264,21 +258,11 @@ function nmosStageCircuit(design: MosDesign): StageCircuit {
   }
   elements.push(...tail.elements);
   if ((design.tailCapacitanceF ?? 0) > 0) elements.push({ kind: 'capacitor', name: 'CT', nodes: [TAIL_NODE, GROUND], capacitanceF: design.tailCapacitanceF!, part: 'tail' });
-  if ((design.loadCapacitanceF ?? 0) > 0) {
-    elements.push(
-      { kind: 'capacitor', name: 'CL1', nodes: [COLLECTOR_NODES[0], GROUND], capacitanceF: design.loadCapacitanceF!, part: 'pair' },
-      { kind: 'capacitor', name: 'CL2', nodes: [COLLECTOR_NODES[1], GROUND], capacitanceF: design.loadCapacitanceF!, part: 'pair' },
-    );
-  }
   const drainGuessV = Math.max(positiveV - (tail.currentA / 2) * rdOhm, tailNodeGuessV + 0.1);
   const initialGuessV: Record<string, number> = { c1: drainGuessV, c2: drainGuessV, [TAIL_NODE]: tailNodeGuessV - (tail.currentA / 2) * rsOhm, ...tail.guessV };
   if (rsOhm > 0) {
     initialGuessV.s1 = tailNodeGuessV;
     initialGuessV.s2 = tailNodeGuessV;
-  }
-  if (sourceOhm > 0) {
-    initialGuessV.in1 = vicmV;
-    initialGuessV.in2 = vicmV;
   }
   return {
     fixedNodesV: { [GROUND]: 0, [RAIL_NODES.positive]: positiveV, [RAIL_NODES.negative]: negativeV, [driveNodes[0]]: vicmV, [driveNodes[1]]: vicmV },

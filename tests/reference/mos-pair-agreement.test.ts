@@ -1,0 +1,112 @@
+/**
+ * The MOS input stage (ENGINE-CONTRACT.md "Families", "nmos" / "pmos") against ngspice [SPICE]:
+ * for each MOS tail, an NMOS and a PMOS stage at −40, 27 and 125 °C, the engine's operating
+ * point, low-frequency gains and tail output resistance against ngspice's `.op` and `.ac` on the
+ * product's own netlist (mos-netlist.ts), run on this process's ngspice build (the registry's,
+ * or Debian's with LONGTAIL_TEST_SPICE=debian). Tolerances: the contract's for the bipolar pair
+ * (5 % for gains, 1.5 dB for rejection), held far tighter here (1e-4) since both solve the same
+ * level-1 equations: what is left is ngspice's RELTOL.
+ */
+import { beforeAll, describe, expect, test } from 'vitest';
+import { runSpice, startSpice } from '../helpers/spice';
+import { REFERENCE_RELATIVE_TOLERANCE } from '../../api/verification/spice-analyses';
+import { analyzeMos, type MosDesign, type MosTailDesign } from '#shared/engine/mos-stage';
+import { mosSpiceNetlist } from '#shared/engine/mos-netlist';
+
+const ENGINE_START_TIMEOUT_MS = 30_000;
+/** Same equations on both sides: the engine within this of ngspice (relative). */
+const SAME_MODEL_TOLERANCE = 1e-4;
+
+const SIZE = { widthM: 20e-6, lengthM: 2e-6 };
+const TAILS: MosTailDesign[] = [
+  { topology: 'resistor', resistanceOhm: 10000 },
+  { topology: 'simple-mirror', referenceResistanceOhm: 22000, ...SIZE, referenceWidthM: 20e-6, referenceLengthM: 2e-6 },
+  { topology: 'cascode', referenceResistanceOhm: 22000, ...SIZE, referenceWidthM: 20e-6, referenceLengthM: 2e-6, cascodeWidthM: 20e-6, cascodeLengthM: 2e-6 },
+  {
+    topology: 'wide-swing-cascode',
+    referenceResistanceOhm: 22000,
+    ...SIZE,
+    referenceWidthM: 20e-6,
+    referenceLengthM: 2e-6,
+    cascodeWidthM: 20e-6,
+    cascodeLengthM: 2e-6,
+    biasResistanceOhm: 47000,
+    biasWidthM: 5e-6,
+    biasLengthM: 2e-6,
+  },
+  {
+    topology: 'regulated-cascode',
+    referenceResistanceOhm: 22000,
+    ...SIZE,
+    referenceWidthM: 20e-6,
+    referenceLengthM: 2e-6,
+    cascodeWidthM: 20e-6,
+    cascodeLengthM: 2e-6,
+    boosterResistanceOhm: 100000,
+    boosterWidthM: 10e-6,
+    boosterLengthM: 2e-6,
+  },
+];
+
+/** Level-1 cards of the usual textbook size (from memory: a few-micron process); the PMOS with its lower KP and negative VTO. */
+const NMOS_CARD = { VTO: 0.7, KP: 110e-6, LAMBDA: 0.04, GAMMA: 0.4, PHI: 0.65 };
+const PMOS_CARD = { VTO: -0.7, KP: 40e-6, LAMBDA: 0.05, GAMMA: 0.5, PHI: 0.65 };
+
+function designFor(family: 'nmos' | 'pmos', tail: MosTailDesign, temperatureC: number): MosDesign {
+  return {
+    device: { family, model: family === 'nmos' ? NMOS_CARD : PMOS_CARD },
+    supply: { positiveV: 5, negativeV: -5 },
+    drainResistanceOhm: 10000,
+    drainMismatch: 0.01,
+    pair: { widthM: 40e-6, lengthM: 2e-6 },
+    pairThresholdMismatchV: 0.002,
+    pairBetaMismatch: 0.01,
+    tail,
+    inputCommonModeV: family === 'nmos' ? 0.5 : -0.5,
+    temperatureC,
+  };
+}
+
+async function spiceReal(netlist: string, vector: string): Promise<number> {
+  const result = await runSpice(netlist, 'Operating Point');
+  const found = result.data.find((d) => d.name.toLowerCase() === vector);
+  if (!found) throw new Error(`no ${vector}`);
+  return found.values[0] as number;
+}
+
+async function spiceAcReal(netlist: string, vector: string): Promise<number> {
+  const result = await runSpice(netlist);
+  const found = result.data.find((d) => d.name.toLowerCase() === vector);
+  if (!found) throw new Error(`no ${vector}`);
+  return (found.values[0] as { real: number; img: number }).real;
+}
+
+function expectClose(engine: number, spice: number, what: string, tolerance = SAME_MODEL_TOLERANCE): void {
+  expect(Math.abs(engine - spice), `${what}: engine ${engine}, ngspice ${spice}`).toBeLessThanOrEqual(tolerance * Math.abs(spice));
+}
+
+const CASES = (['nmos', 'pmos'] as const).flatMap((family) => [-40, 27, 125].flatMap((temperatureC) => TAILS.map((tail) => [`${family} ${tail.topology} ${temperatureC} °C`, designFor(family, tail, temperatureC)] as const)));
+
+describe('MOS stage against ngspice (level 1, same card)', () => {
+  beforeAll(startSpice, ENGINE_START_TIMEOUT_MS);
+
+  test.each(CASES)('%s: operating point, gains and tail output resistance', async (_title, design) => {
+    const r = analyzeMos(design);
+    const op = (analysis: 'op') => mosSpiceNetlist(design, { analysis, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
+    const ac = (analysis: 'ac-differential' | 'ac-common-mode') => mosSpiceNetlist(design, { analysis, frequencyHz: 1, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
+    // ngspice .op: node voltages; the rails' currents for the power
+    expectClose(r.drainVoltageV, await spiceReal(op('op'), 'v(c1)'), 'v(c1)');
+    expectClose(r.tailNodeVoltageV, await spiceReal(op('op'), 'v(t)'), 'v(t)');
+    const powerW = -design.supply.positiveV * (await spiceReal(op('op'), 'i(vp)')) - design.supply.negativeV * (await spiceReal(op('op'), 'i(vn)'));
+    expectClose(r.powerW, powerW, 'power');
+    // ngspice .ac at 1 Hz (nothing stores charge): v(c1) under each drive
+    expectClose(r.singleEndedGain, await spiceAcReal(ac('ac-differential'), 'v(c1)'), 'single-ended gain');
+    expectClose(r.commonModeGain, await spiceAcReal(ac('ac-common-mode'), 'v(c1)'), 'common-mode gain');
+    const differential = (await spiceAcReal(ac('ac-differential'), 'v(c1)')) - (await spiceAcReal(ac('ac-differential'), 'v(c2)'));
+    expectClose(r.differentialGain, differential, 'differential gain');
+    // the tail alone with t held at its operating point: Rout = 1/|i(VTAIL)|
+    const tailNetlist = mosSpiceNetlist(design, { analysis: 'ac-tail', frequencyHz: 1, tailNodeV: r.tailNodeVoltageV, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
+    expectClose(r.tailOutputResistanceOhm, 1 / Math.abs(await spiceAcReal(tailNetlist, 'i(vtail)')), 'tail output resistance');
+    expect(r.inputBiasCurrentA).toBe(0);
+  });
+});
