@@ -1,0 +1,58 @@
+/**
+ * Validation of a MOS `analyze` design (shared/schema/mos-design.schema.json, ENGINE-CONTRACT.md
+ * "Families"): defaults, the refusals of the schema and of the cross-field rules, each naming its
+ * field; and the bipolar design check refusing a MOS family in one issue (the web app's form).
+ */
+import { describe, expect, test } from 'vitest';
+import { formatIssue, isMosDesignInput, validateDesign, validateMosDesign } from '#shared/validate';
+
+const NMOS = {
+  device: { family: 'nmos', model: { VTO: 0.7, KP: 100e-6 } },
+  supply: { positiveV: 5, negativeV: -5 },
+  drainResistanceOhm: 10_000,
+  pair: { widthM: 40e-6, lengthM: 2e-6 },
+  tail: { topology: 'simple-mirror', referenceResistanceOhm: 22_000, widthM: 20e-6, lengthM: 2e-6, referenceWidthM: 20e-6, referenceLengthM: 2e-6 },
+};
+
+function printed(input: unknown): string[] {
+  const result = validateMosDesign(input);
+  return result.ok ? [] : result.errors.map(formatIssue);
+}
+
+describe('validateMosDesign', () => {
+  test('a complete design passes with the contract\'s defaults filled in', () => {
+    const result = validateMosDesign(NMOS);
+    expect(result.ok).toBe(true);
+    if (!result.ok) return;
+    expect(result.value).toMatchObject({ drainMismatch: 0, pairSourceResistanceOhm: 0, pairBodyTiedToSource: false, pairThresholdMismatchV: 0, pairBetaMismatch: 0, inputCommonModeV: 0, temperatureC: 27, tailCapacitanceF: 0 });
+  });
+
+  test.each([
+    ['a bipolar field', { ...NMOS, collectorResistanceOhm: 1000 }, '/collectorResistanceOhm: is not a known field here (remove it or check its spelling)'],
+    ['a level-1 parameter the contract does not name', { ...NMOS, device: { family: 'nmos', model: { VTO: 0.7, KP: 1e-4, TOX: 1e-8 } } }, '/device/model/TOX: is not a known field here (remove it or check its spelling)'],
+    ['no KP', { ...NMOS, device: { family: 'nmos', model: { VTO: 0.7 } } }, '/device/model/KP: is required'],
+    ['no channel length', { ...NMOS, pair: { widthM: 1e-5 } }, '/pair/lengthM: is required'],
+    ['a bipolar tail', { ...NMOS, tail: { topology: 'widlar', referenceResistanceOhm: 1e4, emitterResistanceOhm: 100 } }, '/tail/topology: must be one of resistor, simple-mirror, cascode, wide-swing-cascode, regulated-cascode, got "widlar"'],
+    ['an NMOS with a negative VTO', { ...NMOS, device: { family: 'nmos', model: { VTO: -0.7, KP: 1e-4 } } }, "/device/model/VTO: must be above 0 V for an NMOS (SPICE's sign: an enhancement NMOS has a positive threshold), got -0.7 V"],
+    ['a PMOS with a positive VTO', { ...NMOS, device: { family: 'pmos', model: { VTO: 0.7, KP: 1e-4 } } }, "/device/model/VTO: must be below 0 V for a PMOS (SPICE's sign: an enhancement PMOS has a negative threshold), got 0.7 V"],
+    ['rails in the wrong order', { ...NMOS, supply: { positiveV: 5, negativeV: 6 } }, '/supply/negativeV: must be below the positive rail (5 V), got 6 V'],
+    ['the common mode on a rail', { ...NMOS, inputCommonModeV: 5 }, '/inputCommonModeV: must be below the positive rail (5 V), got 5 V'],
+  ])('%s is refused naming the field', (_what, input, expected) => {
+    expect(printed(input)).toEqual([expected]);
+  });
+
+  test('the wide-swing cascode asks for its bias branch', () => {
+    const { referenceResistanceOhm, widthM, lengthM, referenceWidthM, referenceLengthM } = NMOS.tail;
+    const tail = { topology: 'wide-swing-cascode', referenceResistanceOhm, widthM, lengthM, referenceWidthM, referenceLengthM, cascodeWidthM: 2e-5, cascodeLengthM: 2e-6 };
+    expect(printed({ ...NMOS, tail })).toEqual(['/tail/biasResistanceOhm: is required', '/tail/biasWidthM: is required', '/tail/biasLengthM: is required']);
+  });
+});
+
+describe('the bipolar design check meets a MOS design', () => {
+  test('one issue naming /device/family and where MOS pairs are analysed', () => {
+    const result = validateDesign(NMOS);
+    expect(result.ok ? [] : result.errors.map(formatIssue)).toEqual(['/device/family: "nmos" is not available here yet: MOS pairs are analysed by `longtail analyze` alone (sizing and ranking take "npn" or "pnp")']);
+    expect(isMosDesignInput(NMOS)).toBe(true);
+    expect(isMosDesignInput({ device: { family: 'pnp' } })).toBe(false);
+  });
+});
