@@ -4,7 +4,52 @@
  * field; and the bipolar design check refusing a MOS family in one issue (the web app's form).
  */
 import { describe, expect, test } from 'vitest';
-import { formatIssue, isMosDesignInput, validateDesign, validateMosDesign } from '#shared/validate';
+import { MOS_DESIGN_SCHEMA, formatIssue, isMosDesignInput, validateDesign, validateMosDesign } from '#shared/validate';
+import { MOS_TAIL_TOPOLOGIES, type MosDesign, type MosTailDesign } from '#shared/engine/mos-stage';
+
+/** Every field of the hand-written MosDesign type (the compiler holds this list to the type). */
+const DESIGN_FIELDS: Record<keyof MosDesign, true> = {
+  device: true,
+  supply: true,
+  drainResistanceOhm: true,
+  drainMismatch: true,
+  pairSourceResistanceOhm: true,
+  pair: true,
+  pairBodyTiedToSource: true,
+  pairThresholdMismatchV: true,
+  pairBetaMismatch: true,
+  tail: true,
+  inputCommonModeV: true,
+  temperatureC: true,
+  tailCapacitanceF: true,
+};
+
+/** Every tail field of the hand-written type, per topology (the compiler holds each list to its branch). */
+type FieldsOf<T> = Record<Exclude<keyof T, 'topology'>, true>;
+const SIZE = { widthM: true, lengthM: true, referenceResistanceOhm: true, referenceWidthM: true, referenceLengthM: true } as const;
+const TAIL_FIELDS: { [K in MosTailDesign['topology']]: FieldsOf<Extract<MosTailDesign, { topology: K }>> } = {
+  resistor: { resistanceOhm: true },
+  'simple-mirror': SIZE,
+  cascode: { ...SIZE, cascodeWidthM: true, cascodeLengthM: true },
+  'wide-swing-cascode': { ...SIZE, cascodeWidthM: true, cascodeLengthM: true, biasResistanceOhm: true, biasWidthM: true, biasLengthM: true },
+  'regulated-cascode': { ...SIZE, cascodeWidthM: true, cascodeLengthM: true, boosterResistanceOhm: true, boosterWidthM: true, boosterLengthM: true },
+};
+
+describe('the MOS design schema and the engine\'s MosDesign type describe the same document', () => {
+  test('the same top-level fields', () => {
+    expect(Object.keys(MOS_DESIGN_SCHEMA.properties as object).sort()).toEqual(Object.keys(DESIGN_FIELDS).sort());
+  });
+  test('the same tails, in the same order, each with the same fields (all required)', () => {
+    const branches = (MOS_DESIGN_SCHEMA.properties as { tail: { oneOf: { properties: Record<string, { const?: string }>; required: string[] }[] } }).tail.oneOf;
+    expect(branches.map((b) => b.properties.topology.const)).toEqual([...MOS_TAIL_TOPOLOGIES]);
+    for (const branch of branches) {
+      const topology = branch.properties.topology.const as MosTailDesign['topology'];
+      const fields = Object.keys(TAIL_FIELDS[topology]).sort();
+      expect(Object.keys(branch.properties).filter((k) => k !== 'topology').sort(), topology).toEqual(fields);
+      expect(branch.required.filter((k) => k !== 'topology').sort(), topology).toEqual(fields);
+    }
+  });
+});
 
 const NMOS = {
   device: { family: 'nmos', model: { VTO: 0.7, KP: 100e-6 } },
