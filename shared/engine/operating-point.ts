@@ -148,24 +148,56 @@ function limitedMosfetVoltages(model: MosModel, state: MosfetState, vgsNewReal: 
   let vgs = type * vgsNewReal;
   let vds = type * vdsNewReal;
   let vbs = type * vbsNewReal;
-  const vgdOld = state.vgsV - state.vdsV;
+  let limited = false;
+  // A voltage moves only when its limiter cuts it (a recomputed difference would differ by rounding)
   if (state.vdsV >= 0) {
-    const vgd = vgs - vds;
-    vgs = limitGateV(vgs, state.vgsV, state.vonV);
-    vds = limitDrainV(vgs - vgd, state.vdsV);
+    const vgsCut = limitGateV(vgs, state.vgsV, state.vonV);
+    if (vgsCut !== vgs) {
+      // ngspice keeps vgd as it came and moves vds with the cut vgs
+      vds = vgsCut - (vgs - vds);
+      vgs = vgsCut;
+      limited = true;
+    }
+    const vdsCut = limitDrainV(vds, state.vdsV);
+    if (vdsCut !== vds) {
+      vds = vdsCut;
+      limited = true;
+    }
   } else {
-    const vgd = limitGateV(vgs - vds, vgdOld, state.vonV);
-    vds = -limitDrainV(-(vgs - vgd), -state.vdsV);
-    vgs = vgd + vds;
+    const vgd = vgs - vds;
+    const vgdCut = limitGateV(vgd, state.vgsV - state.vdsV, state.vonV);
+    if (vgdCut !== vgd) {
+      // vgs kept, vds moves with the cut vgd
+      vds = vgs - vgdCut;
+      limited = true;
+    }
+    const vdsCut = -limitDrainV(-vds, -state.vdsV);
+    if (vdsCut !== vds) {
+      vds = vdsCut;
+      limited = true;
+    }
+    // ngspice then sets vgs = vgd + vds: vgs moves with the cut vds, vgd as cut
+    if (limited) vgs = vgdCut + vds;
   }
   const vt = model.parameters.thermalVoltageV;
-  if (vds >= 0) vbs = limitJunctionV(vbs, state.vbsV, vt, model.criticalVoltageV);
-  else vbs = limitJunctionV(vbs - vds, state.vbsV - state.vdsV, vt, model.criticalVoltageV) + vds;
-  const limited = vgs !== type * vgsNewReal || vds !== type * vdsNewReal || vbs !== type * vbsNewReal;
+  if (vds >= 0) {
+    const vbsCut = limitJunctionV(vbs, state.vbsV, vt, model.criticalVoltageV);
+    if (vbsCut !== vbs) {
+      vbs = vbsCut;
+      limited = true;
+    }
+  } else {
+    const vbd = vbs - vds;
+    const vbdCut = limitJunctionV(vbd, state.vbsV - state.vdsV, vt, model.criticalVoltageV);
+    if (vbdCut !== vbd) {
+      vbs = vbdCut + vds;
+      limited = true;
+    }
+  }
   state.vgsV = vgs;
   state.vdsV = vds;
   state.vbsV = vbs;
-  return { vgsV: type * vgs, vdsV: type * vds, vbsV: type * vbs, limited };
+  return limited ? { vgsV: type * vgs, vdsV: type * vds, vbsV: type * vbs, limited } : { vgsV: vgsNewReal, vdsV: vdsNewReal, vbsV: vbsNewReal, limited };
 }
 
 /** The bipolar model of a transistor: its own, else the stage's (a circuit with transistors always has one). */

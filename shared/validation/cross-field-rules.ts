@@ -8,6 +8,9 @@ import { TOPOLOGY_CATALOGUE, type TopologyId } from '../engine/topologies';
 import type { Design, DeviceParams, Spec, Supply } from '../engine/types';
 import { designFieldLabel, mosDesignFieldLabel, specFieldLabel } from './field-labels';
 import type { MosDesign } from '../engine/mos-stage';
+import { mosSurfacePotentialV } from '../engine/mos-device';
+import { resolvedMosParameters } from '../engine/mos-parameters';
+import { NOMINAL_TEMPERATURE_C } from '../engine/constants';
 import type { ValidationIssue } from './validation-issue';
 
 /** How the spec's and the design's rails are named (the same titles in both schemas). */
@@ -80,8 +83,23 @@ export function mosDesignCrossFieldIssues(design: MosDesign): ValidationIssue[] 
   if (design.device.family === 'pmos' && !(vto! < 0)) {
     issues.push({ path: '/device/model/VTO', message: `must be below 0 V for a PMOS (SPICE's sign: an enhancement PMOS has a negative threshold), got ${volts(vto!)}` });
   }
+  issues.push(...surfacePotentialIssues(design));
   if (issues.length > 0 || design.inputCommonModeV === undefined) return issues;
   return insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, label);
+}
+
+/**
+ * PHI carried to the design's temperature by ngspice's law (mos-device.ts) must stay positive:
+ * a small PHI falls through zero when hot (PHI = 0.3 V does near 120 °C), where the level-1
+ * threshold has no meaning and ngspice's figures turn to NaN.
+ */
+function surfacePotentialIssues(design: MosDesign): ValidationIssue[] {
+  const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
+  const phiV = resolvedMosParameters(design.device.model).PHI;
+  if (!(phiV > 0)) return [];
+  const atTemperatureV = mosSurfacePotentialV(phiV, temperatureC);
+  if (atTemperatureV > 0) return [];
+  return [{ path: '/device/model/PHI', message: `must stay positive at ${temperatureC} °C: ${phiV} V falls to ${atTemperatureV.toPrecision(3)} V there by ngspice's level-1 temperature law; give a larger PHI (about 0.6 V is usual) or lower ${mosDesignFieldLabel('/temperatureC')}` }];
 }
 
 /** The MOS families: not a device `recommend` or the web forms know yet. */

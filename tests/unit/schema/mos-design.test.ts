@@ -81,6 +81,11 @@ describe('validateMosDesign', () => {
     ['an NMOS with a negative VTO', { ...NMOS, device: { family: 'nmos', model: { VTO: -0.7, KP: 1e-4 } } }, "/device/model/VTO: must be above 0 V for an NMOS (SPICE's sign: an enhancement NMOS has a positive threshold), got -0.7 V"],
     ['a PMOS with a positive VTO', { ...NMOS, device: { family: 'pmos', model: { VTO: 0.7, KP: 1e-4 } } }, "/device/model/VTO: must be below 0 V for a PMOS (SPICE's sign: an enhancement PMOS has a negative threshold), got 0.7 V"],
     ['rails in the wrong order', { ...NMOS, supply: { positiveV: 5, negativeV: 6 } }, '/supply/negativeV: must be below the positive rail (5 V), got 6 V'],
+    [
+      'a PHI that ngspice\'s temperature law takes below zero when hot (mos1temp.c: 0.3 V falls to about −0.075 V at 140 °C)',
+      { ...NMOS, device: { family: 'nmos', model: { VTO: 0.7, KP: 1e-4, PHI: 0.3 } }, temperatureC: 140 },
+      "/device/model/PHI: must stay positive at 140 °C: 0.3 V falls to -0.0749 V there by ngspice's level-1 temperature law; give a larger PHI (about 0.6 V is usual) or lower the temperature",
+    ],
     ['the common mode on a rail', { ...NMOS, inputCommonModeV: 5 }, '/inputCommonModeV: must be below the positive rail (5 V), got 5 V'],
   ])('%s is refused naming the field', (_what, input, expected) => {
     expect(printed(input)).toEqual([expected]);
