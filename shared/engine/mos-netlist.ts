@@ -2,8 +2,9 @@
  * The SPICE netlist of a MOS stage (mos-stage.ts): the same circuit the engine solves, each
  * MOSFET an M line with its W and L and its body terminal, one `.model NMOS1 NMOS (LEVEL=1 …)`
  * (or PMOS1) card with the design's VTO, KP, LAMBDA, GAMMA, PHI, and a card of its own for a
- * mismatched M2. Analyses: `.op`, the AC differential and common-mode drives, and the tail
- * alone with `t` held at its operating-point voltage (1/|i(VTAIL)| is its output resistance).
+ * mismatched M2. Analyses: `.op`, the AC differential and common-mode drives, AC 1 on one rail
+ * (supply rejection), and the tail alone with `t` held at its operating-point voltage
+ * (1/|i(VTAIL)| is its output resistance).
  */
 import { GROUND, RAIL_NODES, TAIL_NODE, isMosfet, type CircuitElement, type MosfetElement } from './circuit';
 import { NOMINAL_TEMPERATURE_C } from './constants';
@@ -12,7 +13,11 @@ import { mosStageCircuit, mosfetOwnCard, type MosDesign } from './mos-stage';
 import { mosfetHasOwnModel, mosfetModelName } from './netlist';
 import { formatSpiceNumber as spiceNumber } from '../units/spice-number';
 
-export type MosNetlistAnalysis = { analysis: 'op' } | { analysis: 'ac-differential' | 'ac-common-mode'; frequencyHz: number } | { analysis: 'ac-tail'; frequencyHz: number; tailNodeV: number };
+export type MosNetlistAnalysis =
+  | { analysis: 'op' }
+  | { analysis: 'ac-differential' | 'ac-common-mode'; frequencyHz: number }
+  | { analysis: 'ac-tail'; frequencyHz: number; tailNodeV: number }
+  | { analysis: 'ac-rail'; frequencyHz: number; rail: 'positive' | 'negative' };
 
 function modelCardLine(name: string, family: 'nmos' | 'pmos', card: MosModelCard): string {
   const words = MOS_PARAMETER_NAMES.filter((p) => card[p] !== undefined).map((p) => `${p}=${spiceNumber(card[p]!)}`);
@@ -36,7 +41,8 @@ export function mosSpiceNetlist(design: MosDesign, options: MosNetlistAnalysis &
   const tailOnly = options.analysis === 'ac-tail';
   const elements = circuit.elements.filter((el) => !tailOnly || el.part === 'tail');
   const lines = ['Longtail MOS input stage (figures are estimates to confirm by simulation and bench measurement)'];
-  lines.push(`VP ${RAIL_NODES.positive} ${GROUND} DC ${spiceNumber(design.supply.positiveV)}`, `VN ${RAIL_NODES.negative} ${GROUND} DC ${spiceNumber(design.supply.negativeV)}`);
+  const railAc = (rail: 'positive' | 'negative') => (options.analysis === 'ac-rail' && options.rail === rail ? ' AC 1 0' : '');
+  lines.push(`VP ${RAIL_NODES.positive} ${GROUND} DC ${spiceNumber(design.supply.positiveV)}${railAc('positive')}`, `VN ${RAIL_NODES.negative} ${GROUND} DC ${spiceNumber(design.supply.negativeV)}${railAc('negative')}`);
   if (options.analysis === 'ac-tail') lines.push(`VTAIL ${TAIL_NODE} ${GROUND} DC ${spiceNumber(options.tailNodeV)} AC 1 0`);
   else {
     const ac1 = options.analysis === 'ac-differential' ? ' AC 0.5 0' : options.analysis === 'ac-common-mode' ? ' AC 1 0' : '';

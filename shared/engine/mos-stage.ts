@@ -16,6 +16,8 @@ import { mosfetCurrentsA, nodeVoltage, terminalCurrentsA } from './node-system';
 import { solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { smallSignalStage, type SmallSignalStage } from './small-signal';
 import { cmrrCornerHzOf } from './analyze';
+import { readOutput } from './frequency-response';
+import type { RailRejection } from './types';
 
 /** A MOSFET's channel size, m. */
 export interface MosSize {
@@ -92,6 +94,8 @@ export interface MosAnalyzeResult {
   cmrrDb: { singleEnded: number; differential: number | null };
   cmrrCornerHz: number | null;
   inputBiasCurrentA: number;
+  /** Supply rejection at low frequency, as the bipolar pair's (`psrrDb`): differential `null` for a matched pair. */
+  psrrDb: { positive: RailRejection; negative: RailRejection };
   powerW: number;
   warnings: string[];
 }
@@ -367,6 +371,21 @@ export function mosPairIsMatched(design: MosDesign): boolean {
   return !design.drainMismatch && !design.pairThresholdMismatchV && !design.pairBetaMismatch;
 }
 
+/**
+ * Supply rejection from each rail at low frequency (ENGINE-CONTRACT.md `psrrDb`): the
+ * single-ended (differential) gain over the gain from the rail's small-signal voltage to v(c1)
+ * (v(c1,c2)); a matched pair moves both drains alike, so its differential figure is null.
+ */
+function supplyRejectionDb(stage: SmallSignalStage, matched: boolean): MosAnalyzeResult['psrrDb'] {
+  const { collector1, betweenCollectors } = stage.outputs;
+  const db = (gain: number, leak: number): number | null => (leak === 0 ? null : 20 * Math.log10(Math.abs(gain / leak)));
+  const rail = (response: number[]): RailRejection => ({
+    singleEnded: db(stage.low.singleEndedGain.re, readOutput(response, collector1)) ?? Number.POSITIVE_INFINITY,
+    differential: matched ? null : db(stage.low.differentialGain.re, readOutput(response, betweenCollectors)),
+  });
+  return { positive: rail(stage.supply.positive), negative: rail(stage.supply.negative) };
+}
+
 /** `analyze` for a MOS design: the contract's figures at DC and low frequency, the CMRR corner, power and warnings. */
 export function analyzeMos(design: MosDesign): MosAnalyzeResult {
   const { op, stage } = solveMosStage(design);
@@ -395,6 +414,7 @@ export function analyzeMos(design: MosDesign): MosAnalyzeResult {
     },
     cmrrCornerHz: (design.tailCapacitanceF ?? 0) > 0 ? cmrrCornerHzOf(stage) : null,
     inputBiasCurrentA: 0,
+    psrrDb: supplyRejectionDb(stage, matched),
     powerW: design.supply.positiveV * positiveA + design.supply.negativeV * negativeA,
     warnings: regionWarnings(op),
   };

@@ -108,6 +108,14 @@ describe('MOS stage against ngspice (level 1, same card)', () => {
     const tailNetlist = mosSpiceNetlist(design, { analysis: 'ac-tail', frequencyHz: 1, tailNodeV: r.tailNodeVoltageV, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
     expectClose(r.tailOutputResistanceOhm, 1 / Math.abs(await spiceAcReal(tailNetlist, 'i(vtail)')), 'tail output resistance');
     expect(r.inputBiasCurrentA).toBe(0);
+    // .ac with AC 1 on each rail: the supply rejection (the contract's 1.5 dB; same equations, so 0.01 dB)
+    for (const rail of ['positive', 'negative'] as const) {
+      const netlist = mosSpiceNetlist(design, { analysis: 'ac-rail', rail, frequencyHz: 1, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
+      const c1 = await spiceAcReal(netlist, 'v(c1)');
+      const c2 = await spiceAcReal(netlist, 'v(c2)');
+      expect(Math.abs(r.psrrDb[rail].singleEnded - 20 * Math.log10(Math.abs(r.singleEndedGain / c1))), `${rail} single-ended`).toBeLessThan(0.01);
+      expect(Math.abs(r.psrrDb[rail].differential! - 20 * Math.log10(Math.abs(r.differentialGain / (c1 - c2)))), `${rail} differential`).toBeLessThan(0.01);
+    }
   });
 });
 

@@ -69,6 +69,13 @@ describe('square-law pair with a resistor tail (hand analysis: Razavi, Design of
     expect(r.warnings).toEqual([]);
   });
 
+  test('supply rejection: with λ = 0 the positive rail reaches c1 whole through RD (gain 1); the negative rail acts as a common-mode drive from the tail, gm·RD/(1 + 2·gm·R)', () => {
+    expect(Math.abs(r.psrrDb.positive.singleEnded - 20 * Math.log10(Math.abs(r.singleEndedGain)))).toBeLessThan(1e-5);
+    expect(Math.abs(r.psrrDb.negative.singleEnded - 20 * Math.log10(Math.abs(r.singleEndedGain) / ((gmS * 10_000) / (1 + 2 * gmS * R))))).toBeLessThan(1e-5);
+    expect(r.psrrDb.positive.differential).toBeNull();
+    expect(r.psrrDb.negative.differential).toBeNull();
+  });
+
   test('a pair source resistor RS degenerates the gain: Ad = −gm·RD/(1 + gm·RS) (Razavi ch. 4)', () => {
     const rs = 1000;
     const d = analyzeMos(resistorDesign({ pairSourceResistanceOhm: rs }));
