@@ -16,6 +16,7 @@ import { mosfetCurrentsA, nodeVoltage, terminalCurrentsA } from './node-system';
 import { solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { smallSignalStage, type SmallSignalStage } from './small-signal';
 import { cmrrCornerHzOf } from './analyze';
+import { InputError } from './errors';
 import { readOutput } from './frequency-response';
 import type { RailRejection } from './types';
 
@@ -393,6 +394,11 @@ export function analyzeMos(design: MosDesign): MosAnalyzeResult {
   const v = op.voltagesV;
   const polarity = polarityOf(design);
   const m1 = op.mosfets[ic.mosfets.findIndex((m) => m.name === 'M1')];
+  const m2 = op.mosfets[ic.mosfets.findIndex((m) => m.name === 'M2')];
+  // level 1 has no subthreshold current: a cut-off pair has no gain at all, and no rejection to report
+  if (m1.region === 'cut-off' || m2.region === 'cut-off') {
+    throw new InputError('/inputCommonModeV', `the pair is cut off at this operating point (${m1.region === 'cut-off' ? 'M1' : 'M2'}'s gate–source voltage is below its threshold of ${Math.abs((m1.region === 'cut-off' ? m1 : m2).thresholdV).toPrecision(3)} V), so it has no gain to report: move the input common mode ${polarity === 1 ? 'up' : 'down'} or give the tail more room`);
+  }
   const low = stage.low;
   const matched = mosPairIsMatched(design);
   const positiveA = currentIntoElementsA(op, RAIL_NODES.positive, false);

@@ -11,6 +11,7 @@ import { mosSpiceNetlist } from '#shared/engine/mos-netlist';
 import { parseSpiceNumber } from '#shared/units/spice-number';
 import { analyze } from '#shared/engine/index';
 import type { Design } from '#shared/engine/types';
+import { InputError } from '#shared/engine/errors';
 
 const KP = 100e-6;
 const VTO = 0.8;
@@ -119,8 +120,13 @@ describe('simple mirror tail (hand analysis, square law: Razavi ch. 5, current m
   });
 
   test('a starved tail warns: M4 in its linear region when the gates sit near the negative rail', () => {
-    const r = analyzeMos({ ...design(0.05, 20e-6), inputCommonModeV: -4.2 });
+    const r = analyzeMos({ ...design(0.05, 20e-6), inputCommonModeV: -3.8 });
     expect(r.warnings.some((w) => w.startsWith('M4 is in the linear (triode) region'))).toBe(true);
+  });
+
+  test('a pair cut off (gates under a threshold above the negative rail: −4.2 V on −5 V, VTO 0.8 V) is refused at /inputCommonModeV: level 1 has no subthreshold current, so no gain', () => {
+    expect(() => analyzeMos({ ...design(0.05, 20e-6), inputCommonModeV: -4.2 })).toThrow(InputError);
+    expect(() => analyzeMos({ ...design(0.05, 20e-6), inputCommonModeV: -4.2 })).toThrow(/^\/inputCommonModeV: the pair is cut off/);
   });
 });
 
