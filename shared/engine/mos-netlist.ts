@@ -14,7 +14,7 @@ import { mosfetHasOwnModel, mosfetModelName } from './netlist';
 import { formatSpiceNumber as spiceNumber } from '../units/spice-number';
 
 export type MosNetlistAnalysis =
-  | { analysis: 'op' }
+  | { analysis: 'op'; differentialInputV?: number }
   | { analysis: 'ac-differential' | 'ac-common-mode'; frequencyHz: number }
   | { analysis: 'ac-tail'; frequencyHz: number; tailNodeV: number }
   | { analysis: 'ac-rail'; frequencyHz: number; rail: 'positive' | 'negative' };
@@ -47,7 +47,9 @@ export function mosSpiceNetlist(design: MosDesign, options: MosNetlistAnalysis &
   else {
     const ac1 = options.analysis === 'ac-differential' ? ' AC 0.5 0' : options.analysis === 'ac-common-mode' ? ' AC 1 0' : '';
     const ac2 = options.analysis === 'ac-differential' ? ' AC 0.5 180' : options.analysis === 'ac-common-mode' ? ' AC 1 0' : '';
-    lines.push(`VIN1 ${d1} ${GROUND} DC ${spiceNumber(vicmV)}${ac1}`, `VIN2 ${d2} ${GROUND} DC ${spiceNumber(vicmV)}${ac2}`);
+    const halfV = options.analysis === 'op' ? (options.differentialInputV ?? 0) / 2 : 0;
+    if (!Number.isFinite(halfV)) throw new RangeError('differentialInputV must be a finite number');
+    lines.push(`VIN1 ${d1} ${GROUND} DC ${spiceNumber(vicmV + halfV)}${ac1}`, `VIN2 ${d2} ${GROUND} DC ${spiceNumber(vicmV - halfV)}${ac2}`);
   }
   lines.push(...elements.map(elementLine));
   lines.push(modelCardLine(type === -1 ? 'PMOS1' : 'NMOS1', family, design.device.model));

@@ -95,6 +95,10 @@ export interface MosAnalyzeResult {
   cmrrDb: { singleEnded: number; differential: number | null };
   cmrrCornerHz: number | null;
   inputBiasCurrentA: number;
+  /** The differential DC input v(in1) − v(in2) that brings v(c1) = v(c2), V; 0 exactly for a matched pair. */
+  inputOffsetVoltageV: number;
+  /** (offset at T + 1 °C − offset at T − 1 °C)/2, V/°C; 0 exactly for a matched pair. */
+  offsetDriftVPerC: number;
   /** Supply rejection at low frequency, as the bipolar pair's (`psrrDb`): differential `null` for a matched pair. */
   psrrDb: { positive: RailRejection; negative: RailRejection };
   powerW: number;
@@ -372,6 +376,59 @@ export function mosPairIsMatched(design: MosDesign): boolean {
   return !design.drainMismatch && !design.pairThresholdMismatchV && !design.pairBetaMismatch;
 }
 
+/** Secant steps of the offset search at most, and the input step below which it has converged, V. */
+const OFFSET_MAX_STEPS = 40;
+const OFFSET_TOLERANCE_V = 1e-11;
+
+/** The operating point with a differential DC input: in1 at vicm + x/2, in2 at vicm − x/2 (warm-started). */
+function solvedWithInput(design: MosDesign, circuit: StageCircuit, models: Record<string, MosModel>, inputV: number, warmStart?: OperatingPoint): OperatingPoint {
+  const vicmV = design.inputCommonModeV ?? 0;
+  const fixedNodesV = { ...circuit.fixedNodesV, [INPUT_NODES[0]]: vicmV + inputV / 2, [INPUT_NODES[1]]: vicmV - inputV / 2 };
+  return solveOperatingPoint({ ...circuit, fixedNodesV }, null, warmStart, undefined, models);
+}
+
+/** v(c1) − v(c2) of a solved operating point, V. */
+function outputV(op: OperatingPoint): number {
+  const ic = op.circuit;
+  return nodeVoltage(ic, op.voltagesV, ic.nodeRef(COLLECTOR_NODES[0])) - nodeVoltage(ic, op.voltagesV, ic.nodeRef(COLLECTOR_NODES[1]));
+}
+
+/**
+ * The input offset voltage (ENGINE-CONTRACT.md `inputOffsetVoltageV`): the differential DC input
+ * at which v(c1) = v(c2), by secant steps on operating points of the whole circuit from the
+ * first guess −v(c1,c2)/Ad, to 10 pV.
+ */
+export function mosInputOffsetV(design: MosDesign, op: OperatingPoint, differentialGain: number): number {
+  const circuit = mosStageCircuit(design);
+  const models = mosModelsOf(design, circuit);
+  let x0 = 0;
+  let f0 = outputV(op);
+  let x1 = -f0 / differentialGain;
+  let last = solvedWithInput(design, circuit, models, x1, op);
+  for (let step = 0; step < OFFSET_MAX_STEPS; step += 1) {
+    const f1 = outputV(last);
+    if (f1 === 0 || f1 === f0) return x1;
+    const x2 = x1 - (f1 * (x1 - x0)) / (f1 - f0);
+    x0 = x1;
+    f0 = f1;
+    x1 = x2;
+    if (Math.abs(x1 - x0) <= OFFSET_TOLERANCE_V) return x1;
+    last = solvedWithInput(design, circuit, models, x1, last);
+  }
+  return x1;
+}
+
+/** The offset's drift (ENGINE-CONTRACT.md `offsetDriftVPerC`): (offset at T + 1 °C − offset at T − 1 °C)/2. */
+export function mosOffsetDriftVPerC(design: MosDesign): number {
+  const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
+  const at = (t: number) => {
+    const shifted = { ...design, temperatureC: t };
+    const { op, stage } = solveMosStage(shifted);
+    return mosInputOffsetV(shifted, op, stage.low.differentialGain.re);
+  };
+  return (at(temperatureC + 1) - at(temperatureC - 1)) / 2;
+}
+
 /**
  * Supply rejection from each rail at low frequency (ENGINE-CONTRACT.md `psrrDb`): the
  * single-ended (differential) gain over the gain from the rail's small-signal voltage to v(c1)
@@ -420,6 +477,8 @@ export function analyzeMos(design: MosDesign): MosAnalyzeResult {
     },
     cmrrCornerHz: (design.tailCapacitanceF ?? 0) > 0 ? cmrrCornerHzOf(stage) : null,
     inputBiasCurrentA: 0,
+    inputOffsetVoltageV: matched ? 0 : mosInputOffsetV(design, op, low.differentialGain.re),
+    offsetDriftVPerC: matched ? 0 : mosOffsetDriftVPerC(design),
     psrrDb: supplyRejectionDb(stage, matched),
     powerW: design.supply.positiveV * positiveA + design.supply.negativeV * negativeA,
     warnings: regionWarnings(op),

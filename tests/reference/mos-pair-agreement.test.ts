@@ -108,6 +108,12 @@ describe('MOS stage against ngspice (level 1, same card)', () => {
     const tailNetlist = mosSpiceNetlist(design, { analysis: 'ac-tail', frequencyHz: 1, tailNodeV: r.tailNodeVoltageV, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
     expectClose(r.tailOutputResistanceOhm, 1 / Math.abs(await spiceAcReal(tailNetlist, 'i(vtail)')), 'tail output resistance');
     expect(r.inputBiasCurrentA).toBe(0);
+    // .op with the engine's offset applied: ngspice's v(c1) − v(c2) there is within the contract's
+    // offset tolerance (3 % or 20 µV, whichever is larger) times the gain of zero
+    const atOffset = mosSpiceNetlist(design, { analysis: 'op', differentialInputV: r.inputOffsetVoltageV, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
+    const residualV = (await spiceReal(atOffset, 'v(c1)')) - (await spiceReal(atOffset, 'v(c2)'));
+    expect(Math.abs(residualV), `offset ${r.inputOffsetVoltageV} V`).toBeLessThanOrEqual(Math.abs(r.differentialGain) * Math.max(0.03 * Math.abs(r.inputOffsetVoltageV), 20e-6));
+    expect(r.inputOffsetVoltageV).not.toBe(0);
     // .ac with AC 1 on each rail: the supply rejection (the contract's 1.5 dB; same equations, so 0.01 dB)
     for (const rail of ['positive', 'negative'] as const) {
       const netlist = mosSpiceNetlist(design, { analysis: 'ac-rail', rail, frequencyHz: 1, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });

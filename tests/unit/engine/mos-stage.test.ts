@@ -85,6 +85,28 @@ describe('square-law pair with a resistor tail (hand analysis: Razavi, Design of
   });
 });
 
+describe('input offset of the square-law pair (GAMMA = 0; equal loads need equal currents: Razavi ch. 14, offset of the differential pair, exact square law)', () => {
+  test('a threshold mismatch δ alone: VGS2 = VGS1 + δ, so the offset is −δ', () => {
+    const r = analyzeMos(resistorDesign({ pairThresholdMismatchV: 0.003 }));
+    expect(Math.abs(r.inputOffsetVoltageV - -0.003)).toBeLessThan(1e-9);
+  });
+
+  test('a KP mismatch δβ alone: Vov2 = Vov1/√(1 + δβ), so the offset is Vov1·(1 − 1/√(1 + δβ))', () => {
+    const r = analyzeMos(resistorDesign({ pairBetaMismatch: 0.02 }));
+    const vov1 = Math.sqrt((2 * r.drainCurrentA) / BETA);
+    // at the offset the two currents are equal, ID1 = ID2 = Itail/2 (the loads are equal); the
+    // tail current there differs from the zero-input one by a few parts per million (the tail node moves)
+    const vov1AtOffset = Math.sqrt(r.tailCurrentA / BETA);
+    expect(Math.abs(r.inputOffsetVoltageV - vov1AtOffset * (1 - 1 / Math.sqrt(1.02)))).toBeLessThan(2e-6 * vov1);
+  });
+
+  test('a matched pair has no offset and no drift, exactly', () => {
+    const r = analyzeMos(resistorDesign());
+    expect(r.inputOffsetVoltageV).toBe(0);
+    expect(r.offsetDriftVPerC).toBe(0);
+  });
+});
+
 describe('simple mirror tail (hand analysis, square law: Razavi ch. 5, current mirrors)', () => {
   const ref = { widthM: 20e-6, lengthM: 2e-6 };
   const design = (lambda: number, outputWidthM: number): MosDesign =>
