@@ -146,3 +146,37 @@ describe('MOS stage CMRR corner against ngspice (.ac with the tail capacitance)'
     expect(Math.abs(lowDb - (await cmrrDbAt(r.cmrrCornerHz!)) - 10 * Math.log10(2))).toBeLessThan(0.05);
   });
 });
+
+describe('MOS stage offset drift against ngspice (.op at T ± 1 °C)', () => {
+  beforeAll(startSpice, ENGINE_START_TIMEOUT_MS);
+
+  /** ngspice's own offset at a temperature: the zero of v(c1) − v(c2) interpolated between two .op runs around the engine's offset. */
+  async function spiceOffsetV(design: MosDesign, guessV: number): Promise<number> {
+    const residual = async (inputV: number) => {
+      const netlist = mosSpiceNetlist(design, { analysis: 'op', differentialInputV: inputV, relativeTolerance: REFERENCE_RELATIVE_TOLERANCE });
+      return (await spiceReal(netlist, 'v(c1)')) - (await spiceReal(netlist, 'v(c2)'));
+    };
+    const stepV = 1e-4;
+    const r0 = await residual(guessV);
+    const r1 = await residual(guessV + stepV);
+    return guessV - (r0 * stepV) / (r1 - r0);
+  }
+
+  // Designs with every device saturated: where one is in its linear region (the wide-swing
+  // cascode's M5/M6 here) ngspice itself needs gmin stepping at some inputs, which the runner
+  // reports as a failed run; their offset is held above
+  const SATURATED = CASES.filter(([, design]) => analyzeMos(design).warnings.length === 0);
+
+  test('most cases have every device saturated', () => {
+    expect(SATURATED.length).toBeGreaterThanOrEqual(20);
+  });
+
+  test.each(SATURATED)('%s: the drift within the contract\'s 5 % or 0.1 µV/°C', async (_title, design) => {
+    const r = analyzeMos(design);
+    const t = design.temperatureC ?? 27;
+    const hot = { ...design, temperatureC: t + 1 };
+    const cold = { ...design, temperatureC: t - 1 };
+    const spiceDrift = ((await spiceOffsetV(hot, analyzeMos(hot).inputOffsetVoltageV)) - (await spiceOffsetV(cold, analyzeMos(cold).inputOffsetVoltageV))) / 2;
+    expect(Math.abs(r.offsetDriftVPerC - spiceDrift), `engine ${r.offsetDriftVPerC}, ngspice ${spiceDrift}`).toBeLessThanOrEqual(Math.max(0.05 * Math.abs(spiceDrift), 0.1e-6));
+  });
+});
