@@ -10,7 +10,7 @@
  * its currents negated, as the bipolar PNP is in this engine (node-system.ts, `polarity`).
  * Only ngspice's temperature equations are not mirror images between the polarities (below).
  *
- * Not yet part of any circuit: the node solver stamps it when the MOS pair joins.
+ * The node solver stamps it in the MOS stage (mos-stage.ts; node-system.ts, `stampMosfet`).
  */
 import { BOLTZMANN_J_PER_K, ELEMENTARY_CHARGE_C, GMIN_S, NOMINAL_TEMPERATURE_C, ZERO_CELSIUS_K } from './constants';
 import { resolvedMosParameters, type MosModelCard } from './mos-parameters';
