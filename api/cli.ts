@@ -7,7 +7,8 @@
 import { readFileSync } from 'node:fs';
 import { analyze, recommend, ConvergenceError, InputError } from '#shared/engine/index';
 import { firstNonFinitePath } from '#shared/engine/finite';
-import { formatIssue, validateDesign, validateSpec, type ValidationResult } from '#shared/validate';
+import { formatIssue, isMosDesignInput, validateDesign, validateMosDesign, validateSpec, type ValidationResult } from '#shared/validate';
+import { analyzeMos } from '#shared/engine/mos-stage';
 import { loadRuleSet } from '../rules/index';
 
 const USAGE = 'usage: longtail analyze FILE | longtail recommend FILE   (FILE may be "-" for standard input)';
@@ -38,7 +39,7 @@ function validated<T>(result: ValidationResult<T>): T {
 }
 
 async function run(command: string, input: unknown): Promise<unknown> {
-  if (command === 'analyze') return analyze(validated(validateDesign(input)));
+  if (command === 'analyze') return isMosDesignInput(input) ? analyzeMos(validated(validateMosDesign(input))) : analyze(validated(validateDesign(input)));
   if (command === 'recommend') return recommend(validated(validateSpec(input)), await loadRuleSet());
   throw new UsageError(USAGE);
 }

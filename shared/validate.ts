@@ -8,9 +8,11 @@ import AjvImport, { type SchemaObject, type ValidateFunction } from 'ajv';
 import { hasModelCard, resolvedParameters } from './engine/bjt-parameters';
 import type { Design, Spec } from './engine/types';
 import designSchemaJson from './schema/design.schema.json';
+import mosDesignSchemaJson from './schema/mos-design.schema.json';
+import type { MosDesign } from './engine/mos-stage';
 import specSchemaJson from './schema/spec.schema.json';
 import { issuesFromAjvErrors } from './validation/ajv-issues';
-import { designCrossFieldIssues, specCrossFieldIssues } from './validation/cross-field-rules';
+import { designCrossFieldIssues, mosDesignCrossFieldIssues, mosFamilyRefusal, specCrossFieldIssues } from './validation/cross-field-rules';
 import { upgradeSpecDocument } from './validation/spec-upgrade';
 import type { ValidationIssue, ValidationResult } from './validation/validation-issue';
 
@@ -20,6 +22,8 @@ export { formatIssue, type ValidationIssue, type ValidationResult } from './vali
 export const SPEC_SCHEMA: SchemaObject = specSchemaJson;
 /** The `analyze` design JSON Schema (draft-07), for the web form and the server. Do not mutate. */
 export const DESIGN_SCHEMA: SchemaObject = designSchemaJson;
+/** The `analyze` design JSON Schema of the MOS families ("nmos", "pmos"). Do not mutate. */
+export const MOS_DESIGN_SCHEMA: SchemaObject = mosDesignSchemaJson;
 
 // ajv is CommonJS: under Node's ESM loader the default import is module.exports, elsewhere .default
 const Ajv = (AjvImport as unknown as { default?: typeof AjvImport }).default ?? AjvImport;
@@ -35,6 +39,7 @@ ajv.addKeyword('x-typical'); // the range a field's values usually fall in (shar
 
 const validateSpecSchema: ValidateFunction = ajv.compile(SPEC_SCHEMA);
 const validateDesignSchema: ValidateFunction = ajv.compile(DESIGN_SCHEMA);
+const validateMosDesignSchema: ValidateFunction = ajv.compile(MOS_DESIGN_SCHEMA);
 
 /**
  * Validates a requirement spec; on success `value` is a copy with every default filled in. With a
@@ -43,6 +48,8 @@ const validateDesignSchema: ValidateFunction = ajv.compile(DESIGN_SCHEMA);
  * defaults; fields it gives must equal them (a cross-field rule).
  */
 export function validateSpec(input: unknown): ValidationResult<Spec> {
+  const refusal = mosFamilyRefusal(input, 'to recommend');
+  if (refusal.length > 0) return { ok: false, errors: refusal };
   return validateWith<Spec>(input, validateSpecSchema, specCrossFieldIssues, upgradeSpecDocument, withCardValues);
 }
 
@@ -71,7 +78,19 @@ function withCardValues(copy: unknown): ((value: Spec) => void) | undefined {
 
 /** Validates an `analyze` input; on success `value` is a copy with the documented defaults filled in. */
 export function validateDesign(input: unknown): ValidationResult<Design> {
+  const refusal = mosFamilyRefusal(input, 'here');
+  if (refusal.length > 0) return { ok: false, errors: refusal };
   return validateWith<Design>(input, validateDesignSchema, designCrossFieldIssues);
+}
+
+/** Validates an `analyze` input of a MOS family ("nmos", "pmos"); on success `value` is a copy with the defaults filled in. */
+export function validateMosDesign(input: unknown): ValidationResult<MosDesign> {
+  return validateWith<MosDesign>(input, validateMosDesignSchema, mosDesignCrossFieldIssues);
+}
+
+/** Whether an `analyze` input names a MOS family (`device.family` "nmos" or "pmos"): validateMosDesign takes it. */
+export function isMosDesignInput(input: unknown): boolean {
+  return mosFamilyRefusal(input, '').length > 0;
 }
 
 /** Nesting kept when copying input; anything deeper is cut (no schema here nests past a few levels). */

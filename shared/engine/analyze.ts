@@ -248,6 +248,11 @@ export function differentialBandwidthHzOf(stage: SmallSignalStage): number | nul
   return cornersHz(stage, [DIFFERENTIAL_GAIN])[0];
 }
 
+/** The frequency where the single-ended CMRR has fallen 3 dB (the contract's `cmrrCornerHz`); null above 10 GHz or when nothing stores charge. */
+export function cmrrCornerHzOf(stage: SmallSignalStage): number | null {
+  return cornersHz(stage, [SINGLE_ENDED_CMRR])[0];
+}
+
 /** |z|². */
 const powerOf = (z: ComplexPair): number => z.re * z.re + z.im * z.im;
 

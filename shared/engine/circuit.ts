@@ -47,7 +47,34 @@ export interface CapacitorElement {
   part: CircuitPart;
 }
 
-export type CircuitElement = ResistorElement | TransistorElement | CapacitorElement;
+/**
+ * A MOSFET (SPICE level 1, mos-device.ts): drain, gate, source and body terminals, its channel's
+ * width and length in metres. Its model at the stage's temperature comes with the circuit's
+ * indexing (node-system.ts, by name), so two devices of one card may differ (a mismatched pair).
+ */
+export interface MosfetElement {
+  kind: 'nmos' | 'pmos';
+  /** Its SPICE name, starting with the element letter M (the netlist writes it as it is). */
+  name: string;
+  drain: string;
+  gate: string;
+  source: string;
+  body: string;
+  widthM: number;
+  lengthM: number;
+  /** The pair's threshold mismatch δ, V: this device's VTO is the card's + δ for an NMOS, − δ for a PMOS; absent = 0. */
+  thresholdMismatchV?: number;
+  /** This device's KP over the card's (the pair's KP mismatch); absent = 1. */
+  transconductanceScale?: number;
+  part: CircuitPart;
+}
+
+export type CircuitElement = ResistorElement | TransistorElement | CapacitorElement | MosfetElement;
+
+/** Whether an element is a MOSFET (either polarity). */
+export function isMosfet(element: CircuitElement): element is MosfetElement {
+  return element.kind === 'nmos' || element.kind === 'pmos';
+}
 
 /** Whether an element is a bipolar transistor (either polarity). */
 export function isTransistor(element: CircuitElement): element is TransistorElement {
@@ -150,10 +177,13 @@ function mirroredVoltages(voltagesV: Record<string, number>): Record<string, num
  * NPN a PNP (and a PNP an NPN), fixed voltages and the starting guess negated; every substrate stays
  * at the most negative rail, `vn` [SPICE: the substrate is tied to the lowest potential; common practice].
  */
-function mirroredCircuit(circuit: StageCircuit): StageCircuit {
+export function mirroredCircuit(circuit: StageCircuit): StageCircuit {
   const elements = circuit.elements.map((el): CircuitElement => {
     if (isTransistor(el)) {
       return { ...el, kind: el.kind === 'npn' ? 'pnp' : 'npn', collector: mirroredNode(el.collector), base: mirroredNode(el.base), emitter: mirroredNode(el.emitter), substrate: RAIL_NODES.negative };
+    }
+    if (isMosfet(el)) {
+      return { ...el, kind: el.kind === 'nmos' ? 'pmos' : 'nmos', drain: mirroredNode(el.drain), gate: mirroredNode(el.gate), source: mirroredNode(el.source), body: mirroredNode(el.body) };
     }
     const nodes: [string, string] = [mirroredNode(el.nodes[0]), mirroredNode(el.nodes[1])];
     return el.kind === 'resistor' ? { ...el, nodes } : { ...el, nodes };

@@ -10,7 +10,7 @@
  * its currents negated, as the bipolar PNP is in this engine (node-system.ts, `polarity`).
  * Only ngspice's temperature equations are not mirror images between the polarities (below).
  *
- * Not yet part of any circuit: the node solver stamps it when the MOS pair joins.
+ * The node solver stamps it in the MOS stage (mos-stage.ts; node-system.ts, `stampMosfet`).
  */
 import { BOLTZMANN_J_PER_K, ELEMENTARY_CHARGE_C, GMIN_S, NOMINAL_TEMPERATURE_C, ZERO_CELSIUS_K } from './constants';
 import { resolvedMosParameters, type MosModelCard } from './mos-parameters';
@@ -86,9 +86,7 @@ export function mosTemperatureParameters(card: MosModelCard, family: MosFamily, 
   const ratio = temperatureK / nominalK;
   const nominalGapEV = mosEnergyGapEV(nominalK);
   const gapEV = mosEnergyGapEV(temperatureK);
-  // phio: PHI brought back to REFTEMP; PHI(T) from it (mos1temp.c) [SPICE]
-  const phiAtReferenceV = (p.PHI - potentialShiftV(nominalK)) / (nominalK / REFERENCE_TEMPERATURE_K);
-  const surfacePotentialV = (temperatureK / REFERENCE_TEMPERATURE_K) * phiAtReferenceV + potentialShiftV(temperatureK);
+  const surfacePotentialV = mosSurfacePotentialV(p.PHI, temperatureC);
   if (!(surfacePotentialV > 0)) throw new RangeError(`PHI at ${temperatureC} °C is not positive (${surfacePotentialV} V from PHI = ${p.PHI} V)`);
   const builtInV = p.VTO - type * p.GAMMA * Math.sqrt(p.PHI) + 0.5 * (nominalGapEV - gapEV) + type * 0.5 * (surfacePotentialV - p.PHI);
   return {
@@ -100,6 +98,17 @@ export function mosTemperatureParameters(card: MosModelCard, family: MosFamily, 
     thresholdV: builtInV + type * p.GAMMA * Math.sqrt(surfacePotentialV),
     junctionSaturationA: MOS_JUNCTION_SATURATION_CURRENT_A * Math.exp(-gapEV / thermalVoltageV + nominalGapEV / nominalVtV),
   };
+}
+
+/**
+ * PHI(T), V, from the card's PHI at TNOM (27 °C): brought back to REFTEMP, then carried to T
+ * (mos1temp.c, `phio`) [SPICE]. It falls as T rises and may pass through zero for a small PHI.
+ */
+export function mosSurfacePotentialV(phiV: number, temperatureC: number): number {
+  const nominalK = NOMINAL_TEMPERATURE_C + ZERO_CELSIUS_K;
+  const temperatureK = temperatureC + ZERO_CELSIUS_K;
+  const phiAtReferenceV = (phiV - potentialShiftV(nominalK)) / (nominalK / REFERENCE_TEMPERATURE_K);
+  return (temperatureK / REFERENCE_TEMPERATURE_K) * phiAtReferenceV + potentialShiftV(temperatureK);
 }
 
 /** Which of ngspice's three regions the channel is in. */

@@ -7,7 +7,7 @@
  */
 import type { Design, DeviceParams } from './types';
 import { GROUND, RAIL_NODES, TAIL_NODE, isTransistor, stageCircuit, stageFamily } from './circuit';
-import type { CircuitElement, TransistorElement } from './circuit';
+import type { CircuitElement, MosfetElement, TransistorElement } from './circuit';
 import { scaledDevice } from './stage-solve';
 import { BJT_PARAMETER_NAMES, hasModelCard } from './bjt-parameters';
 import { earlyVoltageOrInfinityV, forwardBeta, nominalSaturationCurrentA, pnpDeviceOf } from './device';
@@ -116,7 +116,21 @@ function elementLine(element: CircuitElement, stageKind: StageKind): string {
       const area = element.area !== 1 ? ` area=${spiceNumber(element.area)}` : '';
       return `${element.name} ${element.collector} ${element.base} ${element.emitter} ${element.substrate} ${transistorModelName(element, stageKind)}${area}`;
     }
+    case 'nmos':
+    case 'pmos':
+      return `${element.name} ${element.drain} ${element.gate} ${element.source} ${element.body} ${mosfetModelName(element)} W=${spiceNumber(element.widthM)} L=${spiceNumber(element.lengthM)}`;
   }
+}
+
+/** The `.model` a MOSFET uses: `NMOS1` or `PMOS1`, or its own (`NMOS1_M2`) when its VTO or KP differ from the card's. */
+export function mosfetModelName(element: MosfetElement): string {
+  const base = element.kind === 'pmos' ? 'PMOS1' : 'NMOS1';
+  return mosfetHasOwnModel(element) ? `${base}_${element.name.toUpperCase()}` : base;
+}
+
+/** Whether a MOSFET has its own VTO or KP (a mismatched pair device), and so its own `.model` card. */
+export function mosfetHasOwnModel(element: MosfetElement): boolean {
+  return element.thresholdMismatchV !== undefined || element.transconductanceScale !== undefined;
 }
 
 /** Whether a transistor has its own BF or VAF (a mismatched pair transistor), and so its own `.model` card. */

@@ -3,9 +3,10 @@
  * (linearised at junction voltages) into the node conductance matrix. Shared by the DC
  * operating-point solve (Newton) and the small-signal solve (the Jacobian at the solution).
  */
-import { isTransistor, type StageCircuit, type TransistorElement } from './circuit';
+import { isMosfet, isTransistor, type StageCircuit, type TransistorElement } from './circuit';
 import { GMIN_S } from './constants';
 import type { BjtEval, DeviceModel, OhmicResistances } from './device';
+import type { MosEval, MosModel } from './mos-device';
 import { zeros } from './linear-solve';
 
 /** A node reference: index ≥ 0 is a free node, index < 0 is fixed node −index − 1. */
@@ -53,6 +54,22 @@ export interface IndexedTransistor {
   model?: DeviceModel;
 }
 
+export interface IndexedMosfet {
+  name: string;
+  d: NodeRef;
+  g: NodeRef;
+  s: NodeRef;
+  /** Body (bulk) terminal. */
+  b: NodeRef;
+  /** +1 for an NMOS, −1 for a PMOS (the model's own `polarity`). */
+  polarity: 1 | -1;
+  widthM: number;
+  lengthM: number;
+  tail: boolean;
+  /** Its level-1 model at the stage's temperature. */
+  model: MosModel;
+}
+
 export interface IndexedCapacitor {
   name: string;
   a: NodeRef;
@@ -66,6 +83,8 @@ export interface IndexedCircuit {
   fixedV: number[];
   resistors: IndexedResistor[];
   transistors: IndexedTransistor[];
+  /** MOSFETs of the circuit (none in a bipolar stage). */
+  mosfets: IndexedMosfet[];
   /** Capacitors of the circuit (tail, load): open at DC, part of the small-signal solve. */
   capacitors: IndexedCapacitor[];
   /** For each free node that is a transistor's internal node, its external terminal (else undefined). */
@@ -83,9 +102,15 @@ const NO_OHMIC: OhmicResistances = { baseOhm: 0, emitterOhm: 0, collectorOhm: 0 
  * RC/A, RB/A, RE/A (A its area), and, as ngspice's substrate junction with ISS = 0, GMIN from
  * its internal collector to the substrate at the negative rail [SPICE] ngspice bjtload.c.
  * `ownModels`: models of transistors that differ from the stage's, by name (a mismatched pair
- * transistor's BF or VAF, a PNP's whole card with its own RB, RE, RC).
+ * transistor's BF or VAF, a PNP's whole card with its own RB, RE, RC). `mosModels`: every
+ * MOSFET's model, by name (a MOSFET without one is refused).
  */
-export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO_OHMIC, ownModels: Readonly<Record<string, DeviceModel>> = {}): IndexedCircuit {
+export function indexCircuit(
+  circuit: StageCircuit,
+  ohmic: OhmicResistances = NO_OHMIC,
+  ownModels: Readonly<Record<string, DeviceModel>> = {},
+  mosModels: Readonly<Record<string, MosModel>> = {},
+): IndexedCircuit {
   const fixedNodes = Object.keys(circuit.fixedNodesV);
   const fixedV = fixedNodes.map((n) => circuit.fixedNodesV[n]);
   const table: NodeTable = { refs: new Map(), freeNodes: [], terminalOf: [] };
@@ -93,6 +118,7 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
   const resistors: IndexedResistor[] = [];
   const transistors: IndexedTransistor[] = [];
   const capacitors: IndexedCapacitor[] = [];
+  const mosfets: IndexedMosfet[] = [];
   for (const el of circuit.elements) {
     if (el.kind === 'resistor') {
       resistors.push({ name: el.name, a: refOf(table, el.nodes[0]), b: refOf(table, el.nodes[1]), conductanceS: 1 / el.resistanceOhm, tail: el.part === 'tail' });
@@ -112,6 +138,23 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
       const sc = polarity === 1 ? ci : bi;
       resistors.push({ name: `${el.name}.GSUB`, a: sc, b: s, conductanceS: GMIN_S, tail, noiseless: true });
       transistors.push({ name: el.name, c, b, e, ci, bi, ei, s, sc, polarity, area: el.area, tail, ...(own ? { model: own } : {}) });
+    } else if (isMosfet(el)) {
+      const model = mosModels[el.name];
+      if (!model) throw new Error(`no model for MOSFET ${el.name}`);
+      const polarity = el.kind === 'pmos' ? -1 : 1;
+      if (model.polarity !== polarity) throw new Error(`MOSFET ${el.name} is ${el.kind.toUpperCase()} but its model is ${model.family.toUpperCase()}`);
+      mosfets.push({
+        name: el.name,
+        d: refOf(table, el.drain),
+        g: refOf(table, el.gate),
+        s: refOf(table, el.source),
+        b: refOf(table, el.body),
+        polarity,
+        widthM: el.widthM,
+        lengthM: el.lengthM,
+        tail: el.part === 'tail',
+        model,
+      });
     } else {
       capacitors.push({ name: el.name, a: refOf(table, el.nodes[0]), b: refOf(table, el.nodes[1]), capacitanceF: el.capacitanceF });
     }
@@ -123,6 +166,7 @@ export function indexCircuit(circuit: StageCircuit, ohmic: OhmicResistances = NO
     fixedV,
     resistors,
     transistors,
+    mosfets,
     capacitors,
     terminalOf: freeNodes.map((_, k) => table.terminalOf[k]),
     nodeRef(name) {
@@ -279,5 +323,53 @@ export function evaluateTransistors(ic: IndexedCircuit, model: DeviceModel, v: n
   return ic.transistors.map((q) => {
     const { vbeV, vbcV } = junctionVoltages(ic, v, q);
     return (q.model ?? model).evaluate(vbeV, vbcV, q.area);
+  });
+}
+
+/** A MOSFET's terminal voltages vgs, vds, vbs (node differences, real polarity) at a node-voltage vector, V. */
+export function mosfetVoltages(ic: IndexedCircuit, v: readonly number[], m: IndexedMosfet): { vgsV: number; vdsV: number; vbsV: number } {
+  const vs = nodeVoltage(ic, v, m.s);
+  return { vgsV: nodeVoltage(ic, v, m.g) - vs, vdsV: nodeVoltage(ic, v, m.d) - vs, vbsV: nodeVoltage(ic, v, m.b) - vs };
+}
+
+/**
+ * Stamps a MOSFET linearised at terminal voltages vgs0, vds0, vbs0 (real polarity) with
+ * evaluation `ev` there, as ngspice mos1load.c loads it [SPICE]: the channel current from drain
+ * to source, id = id0 + ∂id/∂vgs·Δvgs + ∂id/∂vds·Δvds + ∂id/∂vbs·Δvbs, and each bulk junction,
+ * from the body to the drain (its voltage vbd = vbs − vds) and to the source (vbs), as a
+ * conductance with its constant part. The derivatives are the model's terminal ones (the
+ * reversed device's included), the same for either polarity; only the currents carry its sign.
+ */
+export function stampMosfet(stamp: NodeStamp, m: IndexedMosfet, ev: MosEval, vgs0V: number, vds0V: number, vbs0V: number): void {
+  const { d, g, s, b } = m;
+  // channel: current into the drain terminal, out of the source terminal
+  stampControlled(stamp, d, s, g, s, ev.dChannelDVgsS);
+  stampControlled(stamp, d, s, d, s, ev.dChannelDVdsS);
+  stampControlled(stamp, d, s, b, s, ev.dChannelDVbsS);
+  const channelEqA = ev.channelA - ev.dChannelDVgsS * vgs0V - ev.dChannelDVdsS * vds0V - ev.dChannelDVbsS * vbs0V;
+  if (d >= 0) stamp.rhs[d] -= channelEqA;
+  if (s >= 0) stamp.rhs[s] += channelEqA;
+  // bulk junctions: current from the body into the drain and into the source
+  const vbd0V = vbs0V - vds0V;
+  stampControlled(stamp, b, d, b, d, ev.bulkDrainS);
+  const bulkDrainEqA = ev.bulkDrainA - ev.bulkDrainS * vbd0V;
+  if (b >= 0) stamp.rhs[b] -= bulkDrainEqA;
+  if (d >= 0) stamp.rhs[d] += bulkDrainEqA;
+  stampControlled(stamp, b, s, b, s, ev.bulkSourceS);
+  const bulkSourceEqA = ev.bulkSourceA - ev.bulkSourceS * vbs0V;
+  if (b >= 0) stamp.rhs[b] -= bulkSourceEqA;
+  if (s >= 0) stamp.rhs[s] += bulkSourceEqA;
+}
+
+/** The DC currents into a MOSFET's drain, gate, source and body from its evaluation, A. */
+export function mosfetCurrentsA(ev: MosEval): { drainA: number; gateA: number; sourceA: number; bodyA: number } {
+  return { drainA: ev.channelA - ev.bulkDrainA, gateA: 0, sourceA: -ev.channelA - ev.bulkSourceA, bodyA: ev.bulkDrainA + ev.bulkSourceA };
+}
+
+/** Evaluates every MOSFET at its terminal voltages. */
+export function evaluateMosfets(ic: IndexedCircuit, v: readonly number[]): MosEval[] {
+  return ic.mosfets.map((m) => {
+    const { vgsV, vdsV, vbsV } = mosfetVoltages(ic, v, m);
+    return m.model.evaluate(vgsV, vdsV, vbsV, m.widthM, m.lengthM);
   });
 }

@@ -8,17 +8,22 @@
  */
 import type { StageCircuit } from './circuit';
 import type { BjtEval, DeviceModel } from './device';
+import type { MosEval, MosModel } from './mos-device';
 import { luFactor, luSolve, zeros } from './linear-solve';
 import {
   copyStamp,
   createStamp,
+  evaluateMosfets,
   evaluateTransistors,
   indexCircuit,
   junctionVoltages,
+  mosfetVoltages,
   nodeVoltage,
   stampConductance,
+  stampMosfet,
   stampTransistor,
   type IndexedCircuit,
+  type IndexedTransistor,
   type NodeStamp,
 } from './node-system';
 
@@ -56,6 +61,8 @@ export interface OperatingPoint {
   voltagesV: number[];
   /** Each transistor's evaluation at the solution (same order as circuit.transistors). */
   transistors: BjtEval[];
+  /** Each MOSFET's evaluation at the solution (same order as circuit.mosfets; empty in a bipolar stage). */
+  mosfets: MosEval[];
   iterations: number;
 }
 
@@ -81,6 +88,123 @@ export function limitJunctionV(newV: number, oldV: number, vtV: number, critical
     return vtV * Math.log(newV / vtV);
   }
   return newV;
+}
+
+/**
+ * SPICE's fetlim: limits a step of a MOSFET's gate–source voltage (the model's sign) around its
+ * threshold `vtoV`, so Newton does not jump across cut-off and back [SPICE] ngspice devsup.c
+ * (DEVfetlim, with its present vtstlo = |vold − vto| + 1).
+ */
+export function limitGateV(newV: number, oldV: number, vtoV: number): number {
+  const vtsthi = Math.abs(2 * (oldV - vtoV)) + 2;
+  const vtstlo = Math.abs(oldV - vtoV) + 1;
+  const vtox = vtoV + 3.5;
+  const delv = newV - oldV;
+  if (oldV >= vtoV) {
+    if (oldV >= vtox) {
+      if (delv <= 0) {
+        // going off
+        if (newV >= vtox) return -delv > vtstlo ? oldV - vtstlo : newV;
+        return Math.max(newV, vtoV + 2);
+      }
+      // staying on
+      return delv >= vtsthi ? oldV + vtsthi : newV;
+    }
+    // the middle region
+    return delv <= 0 ? Math.max(newV, vtoV - 0.5) : Math.min(newV, vtoV + 4);
+  }
+  // off
+  if (delv <= 0) return -delv > vtsthi ? oldV - vtsthi : newV;
+  const vtemp = vtoV + 0.5;
+  if (newV <= vtemp) return delv > vtstlo ? oldV + vtstlo : newV;
+  return vtemp;
+}
+
+/** SPICE's limvds: limits a step of a MOSFET's drain–source voltage (the model's sign) [SPICE] ngspice devsup.c (DEVlimvds). */
+export function limitDrainV(newV: number, oldV: number): number {
+  if (oldV >= 3.5) {
+    if (newV > oldV) return Math.min(newV, 3 * oldV + 2);
+    return newV < 3.5 ? Math.max(newV, 2) : newV;
+  }
+  return newV > oldV ? Math.min(newV, 4) : Math.max(newV, -0.5);
+}
+
+/** A MOSFET's last limited voltages in the model's sign (×polarity), V: vgs, vds, vbs, and its threshold `von` there. */
+interface MosfetState {
+  vgsV: number;
+  vdsV: number;
+  vbsV: number;
+  vonV: number;
+}
+
+/**
+ * One MOSFET's voltages for this iteration, limited as ngspice mos1load.c does [SPICE]: in the
+ * model's sign, fetlim on vgs (vgd when the device conducts reversed) around the last threshold,
+ * limvds on vds, pnjlim on the forward-biasing bulk junction (vbs, or vbd reversed). Returns the
+ * real-polarity voltages and whether any was limited; the state holds the model-sign ones.
+ */
+function limitedMosfetVoltages(model: MosModel, state: MosfetState, vgsNewReal: number, vdsNewReal: number, vbsNewReal: number): { vgsV: number; vdsV: number; vbsV: number; limited: boolean } {
+  const type = model.polarity;
+  let vgs = type * vgsNewReal;
+  let vds = type * vdsNewReal;
+  let vbs = type * vbsNewReal;
+  let limited = false;
+  // A voltage moves only when its limiter cuts it (a recomputed difference would differ by rounding)
+  if (state.vdsV >= 0) {
+    const vgsCut = limitGateV(vgs, state.vgsV, state.vonV);
+    if (vgsCut !== vgs) {
+      // ngspice keeps vgd as it came and moves vds with the cut vgs
+      vds = vgsCut - (vgs - vds);
+      vgs = vgsCut;
+      limited = true;
+    }
+    const vdsCut = limitDrainV(vds, state.vdsV);
+    if (vdsCut !== vds) {
+      vds = vdsCut;
+      limited = true;
+    }
+  } else {
+    const vgd = vgs - vds;
+    const vgdCut = limitGateV(vgd, state.vgsV - state.vdsV, state.vonV);
+    if (vgdCut !== vgd) {
+      // vgs kept, vds moves with the cut vgd
+      vds = vgs - vgdCut;
+      limited = true;
+    }
+    const vdsCut = -limitDrainV(-vds, -state.vdsV);
+    if (vdsCut !== vds) {
+      vds = vdsCut;
+      limited = true;
+    }
+    // ngspice then sets vgs = vgd + vds: vgs moves with the cut vds, vgd as cut
+    if (limited) vgs = vgdCut + vds;
+  }
+  const vt = model.parameters.thermalVoltageV;
+  if (vds >= 0) {
+    const vbsCut = limitJunctionV(vbs, state.vbsV, vt, model.criticalVoltageV);
+    if (vbsCut !== vbs) {
+      vbs = vbsCut;
+      limited = true;
+    }
+  } else {
+    const vbd = vbs - vds;
+    const vbdCut = limitJunctionV(vbd, state.vbsV - state.vdsV, vt, model.criticalVoltageV);
+    if (vbdCut !== vbd) {
+      vbs = vbdCut + vds;
+      limited = true;
+    }
+  }
+  state.vgsV = vgs;
+  state.vdsV = vds;
+  state.vbsV = vbs;
+  return limited ? { vgsV: type * vgs, vdsV: type * vds, vbsV: type * vbs, limited } : { vgsV: vgsNewReal, vdsV: vdsNewReal, vbsV: vbsNewReal, limited };
+}
+
+/** The bipolar model of a transistor: its own, else the stage's (a circuit with transistors always has one). */
+function modelOf(q: IndexedTransistor, model: DeviceModel | null): DeviceModel {
+  const own = q.model ?? model;
+  if (!own) throw new Error(`no device model for transistor ${q.name}`);
+  return own;
 }
 
 /** One Newton update: the next node voltages, the largest move, and whether every move is within tolerance. */
@@ -119,7 +243,7 @@ export function newtonStep(stamp: NodeStamp, v: readonly number[], absoluteV: nu
  * A junction starts no further forward than the critical voltage, so a far-off guess is limited
  * from there rather than evaluated where exp() overflows.
  */
-function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], shuntS = 0): { v: number[]; iterations: number } | null {
+function newtonSolve(ic: IndexedCircuit, model: DeviceModel | null, start: number[], shuntS = 0): { v: number[]; iterations: number } | null {
   const n = ic.freeNodes.length;
   let v: number[] = start.slice();
   const nq = ic.transistors.length;
@@ -127,9 +251,18 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], sh
   const vbcOld = zeros(nq);
   ic.transistors.forEach((q, i) => {
     const j = junctionVoltages(ic, v, q);
-    const own = q.model ?? model;
+    const own = modelOf(q, model);
     vbeOld[i] = Math.min(j.vbeV, own.criticalVoltageV);
     vbcOld[i] = Math.min(j.vbcV, own.criticalVoltageV);
+  });
+  // A MOSFET starts from its voltages at the start (a bulk junction no further forward than its critical voltage), its threshold there
+  const mosStates: MosfetState[] = ic.mosfets.map((m) => {
+    const { vgsV, vdsV, vbsV } = mosfetVoltages(ic, v, m);
+    const type = m.polarity;
+    const vds = type * vdsV;
+    const vbs = vds >= 0 ? Math.min(type * vbsV, m.model.criticalVoltageV) : Math.min(type * vbsV - vds, m.model.criticalVoltageV) + vds;
+    const vonV = type * m.model.evaluate(vgsV, vdsV, type * vbs, m.widthM, m.lengthM).thresholdV;
+    return { vgsV: type * vgsV, vdsV: vds, vbsV: vbs, vonV };
   });
   // The linear part (resistors, the gmin-stepping shunt) is the same every iteration: stamped once, copied in
   const linear = createStamp(ic);
@@ -143,7 +276,7 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], sh
     let limited = false;
     for (let i = 0; i < nq; i += 1) {
       const q = ic.transistors[i];
-      const own = q.model ?? model;
+      const own = modelOf(q, model);
       // the model's junction voltages: polarity × the node differences (junctionVoltages, inline: the innermost loop)
       const vb = nodeVoltage(ic, v, q.bi);
       const vbeNewV = q.polarity * (vb - nodeVoltage(ic, v, q.ei));
@@ -154,6 +287,16 @@ function newtonSolve(ic: IndexedCircuit, model: DeviceModel, start: number[], sh
       vbeOld[i] = vbeV;
       vbcOld[i] = vbcV;
       stampTransistor(stamp, q, own.evaluate(vbeV, vbcV, q.area), vbeV, vbcV);
+    }
+    for (let i = 0; i < ic.mosfets.length; i += 1) {
+      const m = ic.mosfets[i];
+      const state = mosStates[i];
+      const raw = mosfetVoltages(ic, v, m);
+      const lim = limitedMosfetVoltages(m.model, state, raw.vgsV, raw.vdsV, raw.vbsV);
+      if (lim.limited) limited = true;
+      const ev = m.model.evaluate(lim.vgsV, lim.vdsV, lim.vbsV, m.widthM, m.lengthM);
+      state.vonV = m.polarity * ev.thresholdV;
+      stampMosfet(stamp, m, ev, lim.vgsV, lim.vdsV, lim.vbsV);
     }
     const step = newtonStep(stamp, v, VOLTAGE_TOLERANCE_V, RELATIVE_TOLERANCE);
     if (!step) return null;
@@ -184,7 +327,7 @@ function scaledCircuit(ic: IndexedCircuit, fraction: number): IndexedCircuit {
 export type Solved = { v: number[]; iterations: number };
 
 /** Gmin stepping [SPICE]: solve with a large shunt, then lower it a decade at a time from the last solution, then without. */
-export function gminStepping(ic: IndexedCircuit, model: DeviceModel, start: number[]): Solved | null {
+export function gminStepping(ic: IndexedCircuit, model: DeviceModel | null, start: number[]): Solved | null {
   let v = start;
   let iterations = 0;
   for (let shuntS = GMIN_START_S; shuntS >= GMIN_END_S; shuntS /= GMIN_FACTOR) {
@@ -202,7 +345,7 @@ export function gminStepping(ic: IndexedCircuit, model: DeviceModel, start: numb
  * step doubles after a solved point and is cut to a quarter after a failed one. Returns the
  * solution, or the share of the rails reached when the step became too small.
  */
-export function sourceStepping(ic: IndexedCircuit, model: DeviceModel): Solved | { stalledAt: number } {
+export function sourceStepping(ic: IndexedCircuit, model: DeviceModel | null): Solved | { stalledAt: number } {
   let v = zeros(ic.freeNodes.length);
   let iterations = 0;
   let fraction = 0;
@@ -236,9 +379,16 @@ function guessWithinRails(ic: IndexedCircuit, guess: number[]): number[] {
  * mismatch, a resistor being tuned), replaces the hand-analysis guess and saves iterations; for
  * another bias or temperature the hand guess converges faster. `ownModels`: the models of
  * transistors that differ from the stage's (a pair transistor with its own BF or VAF), by name.
+ * `model` is null for a stage of MOSFETs alone; `mosModels`: each MOSFET's model, by name.
  */
-export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, warmStart?: OperatingPoint, ownModels?: Readonly<Record<string, DeviceModel>>): OperatingPoint {
-  const ic = indexCircuit(circuit, model.ohmic, ownModels);
+export function solveOperatingPoint(
+  circuit: StageCircuit,
+  model: DeviceModel | null,
+  warmStart?: OperatingPoint,
+  ownModels?: Readonly<Record<string, DeviceModel>>,
+  mosModels?: Readonly<Record<string, MosModel>>,
+): OperatingPoint {
+  const ic = indexCircuit(circuit, model?.ohmic, ownModels, mosModels);
   const rawGuess = ic.freeNodes.map((name) => circuit.initialGuessV[name] ?? 0);
   // An internal node (behind RB, RE or RC) starts at its terminal's guess: the drop is small
   ic.terminalOf.forEach((terminal, k) => {
@@ -265,5 +415,5 @@ export function solveOperatingPoint(circuit: StageCircuit, model: DeviceModel, w
     iterations += continued.iterations;
     solved = { v: continued.v, iterations };
   }
-  return { circuit: ic, voltagesV: solved.v, transistors: evaluateTransistors(ic, model, solved.v), iterations };
+  return { circuit: ic, voltagesV: solved.v, transistors: model ? evaluateTransistors(ic, model, solved.v) : [], mosfets: evaluateMosfets(ic, solved.v), iterations };
 }

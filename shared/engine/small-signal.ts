@@ -20,6 +20,7 @@ import {
   junctionVoltages,
   stampConductance,
   stampControlled,
+  stampMosfet,
   stampTransistor,
   type IndexedCircuit,
   type NodeStamp,
@@ -94,6 +95,9 @@ export function stampJacobian(op: OperatingPoint, onlyTail: boolean): NodeStamp 
   for (const r of ic.resistors) if (!onlyTail || r.tail) stampConductance(stamp, r.a, r.b, r.conductanceS);
   ic.transistors.forEach((q, i) => {
     if (!onlyTail || q.tail) stampTransistor(stamp, q, op.transistors[i], 0, 0);
+  });
+  ic.mosfets.forEach((m, i) => {
+    if (!onlyTail || m.tail) stampMosfet(stamp, m, op.mosfets[i], 0, 0, 0);
   });
   return stamp;
 }
@@ -255,6 +259,19 @@ export function smallSignalCurrentIntoA(op: OperatingPoint, node: number, x: rea
     if (q.ci === node) totalA += icA;
     if (q.bi === node) totalA += ibA;
     if (q.ei === node) totalA -= icA + ibA;
+  });
+  ic.mosfets.forEach((m, k) => {
+    if (m.d !== node && m.s !== node && m.b !== node) return;
+    const ev = op.mosfets[k];
+    const vgs = at(m.g) - at(m.s);
+    const vds = at(m.d) - at(m.s);
+    const vbs = at(m.b) - at(m.s);
+    const channelA = ev.dChannelDVgsS * vgs + ev.dChannelDVdsS * vds + ev.dChannelDVbsS * vbs;
+    const bulkDrainA = ev.bulkDrainS * (vbs - vds);
+    const bulkSourceA = ev.bulkSourceS * vbs;
+    if (m.d === node) totalA += channelA - bulkDrainA;
+    if (m.s === node) totalA -= channelA + bulkSourceA;
+    if (m.b === node) totalA += bulkDrainA + bulkSourceA;
   });
   return totalA;
 }

@@ -6,7 +6,11 @@
 import { BJT_PARAMETERS, hasModelCard, resolvedParameters, type BjtModelCard, type BjtParameterName } from '../engine/bjt-parameters';
 import { TOPOLOGY_CATALOGUE, type TopologyId } from '../engine/topologies';
 import type { Design, DeviceParams, Spec, Supply } from '../engine/types';
-import { designFieldLabel, specFieldLabel } from './field-labels';
+import { designFieldLabel, mosDesignFieldLabel, specFieldLabel } from './field-labels';
+import type { MosDesign } from '../engine/mos-stage';
+import { mosSurfacePotentialV } from '../engine/mos-device';
+import { resolvedMosParameters } from '../engine/mos-parameters';
+import { NOMINAL_TEMPERATURE_C } from '../engine/constants';
 import type { ValidationIssue } from './validation-issue';
 
 /** How the spec's and the design's rails are named (the same titles in both schemas). */
@@ -61,6 +65,56 @@ export function designCrossFieldIssues(design: Design): ValidationIssue[] {
   // Stryker disable next-line ConditionalExpression: equivalent, an undefined voltage compares false with both rails and gives no issue
   if (issues.length > 0 || design.inputCommonModeV === undefined) return [...issues, ...cardIssues];
   return [...cardIssues, ...insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, designFieldLabel)];
+}
+
+/**
+ * The cross-field rules of a MOS design ("nmos" / "pmos"): the rails in order, the input common
+ * mode between them, and VTO signed as SPICE writes it for the family (positive for an
+ * enhancement NMOS, negative for an enhancement PMOS): a card of the other sign describes a
+ * depletion device, which none of the MOS tails can bias.
+ */
+export function mosDesignCrossFieldIssues(design: MosDesign): ValidationIssue[] {
+  const label = mosDesignFieldLabel;
+  const issues = railOrderIssues(design.supply, label);
+  const vto = design.device.model.VTO;
+  if (design.device.family === 'nmos' && !(vto! > 0)) {
+    issues.push({ path: '/device/model/VTO', message: `must be above 0 V for an NMOS (SPICE's sign: an enhancement NMOS has a positive threshold), got ${volts(vto!)}` });
+  }
+  if (design.device.family === 'pmos' && !(vto! < 0)) {
+    issues.push({ path: '/device/model/VTO', message: `must be below 0 V for a PMOS (SPICE's sign: an enhancement PMOS has a negative threshold), got ${volts(vto!)}` });
+  }
+  issues.push(...surfacePotentialIssues(design));
+  if (issues.length > 0 || design.inputCommonModeV === undefined) return issues;
+  return insideRailsIssues('/inputCommonModeV', design.inputCommonModeV, design.supply, label);
+}
+
+/**
+ * PHI carried to the design's temperature by ngspice's law (mos-device.ts) must stay positive:
+ * a small PHI falls through zero when hot (PHI = 0.3 V does near 120 °C), where the level-1
+ * threshold has no meaning and ngspice's figures turn to NaN.
+ */
+function surfacePotentialIssues(design: MosDesign): ValidationIssue[] {
+  const temperatureC = design.temperatureC ?? NOMINAL_TEMPERATURE_C;
+  const phiV = resolvedMosParameters(design.device.model).PHI;
+  if (!(phiV > 0)) return [];
+  const atTemperatureV = mosSurfacePotentialV(phiV, temperatureC);
+  if (atTemperatureV > 0) return [];
+  return [{ path: '/device/model/PHI', message: `must stay positive at ${temperatureC} °C: ${phiV} V falls to ${atTemperatureV.toPrecision(3)} V there by ngspice's level-1 temperature law; give a larger PHI (about 0.6 V is usual) or lower ${mosDesignFieldLabel('/temperatureC')}` }];
+}
+
+/** The MOS families: not a device `recommend` or the web forms know yet. */
+const MOS_FAMILIES: readonly unknown[] = ['nmos', 'pmos'];
+
+/**
+ * A document whose device is of a MOS family, where only bipolar pairs are taken (`recommend`,
+ * the web app's spec and design forms): one issue naming the field and where MOS pairs are
+ * analysed, instead of the schema's every field it does not know.
+ */
+export function mosFamilyRefusal(input: unknown, where: string): ValidationIssue[] {
+  const device = (input as { device?: unknown } | null)?.device;
+  const family = device !== null && typeof device === 'object' ? (device as { family?: unknown }).family : undefined;
+  if (!MOS_FAMILIES.includes(family)) return [];
+  return [{ path: '/device/family', message: `"${String(family)}" is not available ${where} yet: MOS pairs are analysed by \`longtail analyze\` alone (sizing and ranking take "npn" or "pnp")` }];
 }
 
 /** The device fields a model card stands for, each with the card's parameter. */

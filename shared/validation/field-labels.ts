@@ -4,6 +4,7 @@
  * stays in each issue's `path` for the UI to place the message.
  */
 import designSchemaJson from '../schema/design.schema.json';
+import mosDesignSchemaJson from '../schema/mos-design.schema.json';
 import specSchemaJson from '../schema/spec.schema.json';
 
 type SchemaNode = { title?: string; properties?: Record<string, SchemaNode> };
@@ -24,6 +25,12 @@ function inRunningText(title: string): string {
 /** A spec field in running text ("the highest input common mode"); the pointer's last word when untitled. */
 export function specFieldLabel(pointer: string): string {
   const title = fieldTitle(specSchemaJson as SchemaNode, pointer);
+  return title ? inRunningText(title) : pointer.split('/').at(-1) ?? pointer;
+}
+
+/** A MOS design field in running text, as specFieldLabel. */
+export function mosDesignFieldLabel(pointer: string): string {
+  const title = fieldTitle(mosDesignSchemaJson as SchemaNode, pointer);
   return title ? inRunningText(title) : pointer.split('/').at(-1) ?? pointer;
 }
 

@@ -41,6 +41,7 @@ export const DEBIAN_NGSPICE_REFERENCE_FILES = [
   'tests/reference/slew-agreement.test.ts',
   'tests/reference/mos-device-agreement.test.ts',
   'tests/reference/pnp-pair-agreement.test.ts',
+  'tests/reference/mos-pair-agreement.test.ts',
 ] as const;
 
 /** Whether Debian's ngspice is installed (an executable at `path`). */

@@ -5,7 +5,7 @@
  * tests/unit/engine/netlist.test.ts, which read the text back and start no simulator.
  */
 import { beforeAll, describe, expect, test, vi } from 'vitest';
-import { isTransistor, stageCircuit } from '#shared/engine/circuit';
+import { isMosfet, isTransistor, stageCircuit } from '#shared/engine/circuit';
 import { thermalVoltageV } from '#shared/engine/constants';
 import { saturationCurrentAtA } from '#shared/engine/device';
 import { TOPOLOGIES, type DeviceParams } from '#shared/engine/types';
@@ -24,7 +24,7 @@ describe('ngspice runs the netlists', () => {
   test.each(TOPOLOGIES)('%s: .op and every AC analysis run without errors', async (topology) => {
     const design = designFor(topology, { pairEmitterResistanceOhm: 82, collectorMismatch: 0.01, pairSaturationCurrentMismatch: 0.02, tailCapacitanceF: 3.3e-12 });
     const op = await spiceOperatingPoint(design);
-    const tailNodes = stageCircuit(design).elements.flatMap((e) => (isTransistor(e) ? [e.collector, e.base, e.emitter] : e.nodes));
+    const tailNodes = stageCircuit(design).elements.flatMap((e) => (isTransistor(e) ? [e.collector, e.base, e.emitter] : isMosfet(e) ? [e.drain, e.gate, e.source] : e.nodes));
     for (const node of tailNodes) expect(Number.isFinite(op.nodeVoltagesV[node]), `v(${node})`).toBe(true);
     const sweep = { startHz: 1, stopHz: 1e6, pointsPerDecade: 5 };
     for (const options of [

@@ -134,3 +134,33 @@ describe('longtail on bad input: exit 2, one line on stderr, no stack trace', ()
     expect(run.stderr).not.toContain('    at ');
   });
 });
+
+describe('a MOS design ("nmos" / "pmos", ENGINE-CONTRACT.md "Families")', () => {
+  const design = {
+    device: { family: 'pmos', model: { VTO: -0.7, KP: 40e-6, LAMBDA: 0.05, GAMMA: 0.5, PHI: 0.65 } },
+    supply: { positiveV: 5, negativeV: -5 },
+    drainResistanceOhm: 10_000,
+    pair: { widthM: 40e-6, lengthM: 2e-6 },
+    tail: { topology: 'resistor', resistanceOhm: 10_000 },
+  };
+
+  test('analyze prints the MOS figures (drain names for collector ones) and exits 0', async () => {
+    const run = await runCli(['analyze', '-'], JSON.stringify(design));
+    expect(run.stderr).toBe('');
+    expect(run.code).toBe(0);
+    const out = JSON.parse(run.stdout) as Record<string, unknown>;
+    for (const field of ['tailCurrentA', 'drainCurrentA', 'drainVoltageV', 'tailNodeVoltageV', 'transconductanceS', 'tailOutputResistanceOhm', 'differentialGain', 'singleEndedGain', 'commonModeGain', 'differentialCommonModeGain', 'cmrrDb', 'cmrrCornerHz', 'inputBiasCurrentA', 'powerW', 'warnings']) {
+      expect(out, field).toHaveProperty(field);
+    }
+    expect(out).not.toHaveProperty('collectorCurrentA');
+    expect(out.inputBiasCurrentA).toBe(0);
+    // a PMOS pair's drains hang below the tail towards the negative rail
+    expect(out.drainVoltageV as number).toBeLessThan(0);
+  }, 20_000);
+
+  test('a MOS design with a bipolar field exits 2 naming it', async () => {
+    const run = await runCli(['analyze', '-'], JSON.stringify({ ...design, collectorResistanceOhm: 1000 }));
+    expect(run.code).toBe(2);
+    expect(run.stderr).toBe('longtail: /collectorResistanceOhm: is not a known field here (remove it or check its spelling)\n');
+  }, 20_000);
+});

@@ -366,7 +366,7 @@ describe('spiceNetlist: structure', () => {
 describe('spiceNetlist: every line and card', () => {
   test.each(TOPOLOGIES)('%s: every element is named with its SPICE letter (R, C, Q), the netlist writes the names as they are', (topology) => {
     const design = designFor(topology, { tailCapacitanceF: 1e-12, loadCapacitanceF: 2e-12, sourceResistanceOhm: 600, pairEmitterResistanceOhm: 100 });
-    const letter = { resistor: 'R', capacitor: 'C', npn: 'Q', pnp: 'Q' } as const;
+    const letter = { resistor: 'R', capacitor: 'C', npn: 'Q', pnp: 'Q', nmos: 'M', pmos: 'M' } as const;
     const circuit = stageCircuit(design);
     for (const element of circuit.elements) expect(element.name, element.name).toMatch(new RegExp(`^${letter[element.kind]}`));
     const names = parseNetlistElements(spiceNetlist(design, { analysis: 'op' })).filter((e) => e.kind !== 'V').map((e) => e.name);

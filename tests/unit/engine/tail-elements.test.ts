@@ -6,7 +6,7 @@
  * Iref = (V+ − V− − n·VBE)/RREF, and the Widlar source's Iout·RE = VT·ln(Iref/Iout) [GM].
  */
 import { describe, expect, test } from 'vitest';
-import { isTransistor, stageCircuit, type CircuitElement } from '#shared/engine/circuit';
+import { isMosfet, isTransistor, stageCircuit, type CircuitElement } from '#shared/engine/circuit';
 import { deviceModel } from '#shared/engine/device';
 import { solveOperatingPoint } from '#shared/engine/operating-point';
 import { tailElements, type TailGuessContext } from '#shared/engine/tail-elements';
@@ -25,6 +25,7 @@ function stamp(tail: TailDesign, ctx = CTX): string[] {
       return `${e.name} ${e.kind} ${e.collector} ${e.base} ${e.emitter}${e.area !== 1 ? ` area ${e.area}` : ''}`;
     }
     if (e.kind === 'resistor') return `${e.name} R ${e.nodes.join(' ')} ${e.resistanceOhm}`;
+    if (isMosfet(e)) return `${e.name} ${e.kind} ${e.drain} ${e.gate} ${e.source} ${e.body}`;
     return `${e.name} C ${e.nodes.join(' ')} ${e.capacitanceF}`;
   });
 }
