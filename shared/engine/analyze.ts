@@ -8,7 +8,7 @@ import { driveCurrentsA, inputOffset, linearInputRangeV, offsetDriftVPerC, witho
 import { closedFormTailRout } from './closed-form';
 import type { BjtEval, DeviceModel } from './device';
 import { NOMINAL_TEMPERATURE_C } from './constants';
-import { nodeVoltage, terminalCurrentsA, type IndexedCircuit } from './node-system';
+import { mosfetCurrentsA, nodeVoltage, terminalCurrentsA, type IndexedCircuit } from './node-system';
 import type { OperatingPoint } from './operating-point';
 import { solveStageOperatingPoint, type SolvedOperatingPoint } from './stage-solve';
 import { TRANSFER_PARTS, magnitude, smallSignalCurrentIntoA, smallSignalStage, stageTransfersAt, type SmallSignalStage, type StageTransfers } from './small-signal';
@@ -67,8 +67,8 @@ export { scaledDevice } from './stage-solve';
 /** Small-signal transfers of a solved stage at a frequency (Hz). */
 export type { StageTransfers } from './small-signal';
 
-/** Current leaving node `nodeName` into the elements of the circuit, A (KCL bookkeeping). */
-function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: boolean): number {
+/** Current leaving node `nodeName` into the elements of the circuit (the tail's alone when `onlyTail`), A: KCL bookkeeping over resistors, transistors and MOSFETs. */
+export function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: boolean): number {
   const ic = op.circuit;
   const node = ic.nodeRef(nodeName);
   const v = op.voltagesV;
@@ -85,6 +85,13 @@ function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: bo
     if (q.ci === node) totalA += into.collectorA;
     if (q.bi === node) totalA += into.baseA;
     if (q.ei === node) totalA += into.emitterA;
+  });
+  ic.mosfets.forEach((m, i) => {
+    if (onlyTail && !m.tail) return;
+    const into = mosfetCurrentsA(op.mosfets[i]);
+    if (m.d === node) totalA += into.drainA;
+    if (m.s === node) totalA += into.sourceA;
+    if (m.b === node) totalA += into.bodyA;
   });
   return totalA;
 }

@@ -12,10 +12,10 @@ import { COLLECTOR_NODES, GROUND, INPUT_NODES, RAIL_NODES, TAIL_NODE, mirroredCi
 import { NOMINAL_TEMPERATURE_C } from './constants';
 import { mosModel, type MosFamily, type MosModel } from './mos-device';
 import { resolvedMosParameters, type MosModelCard } from './mos-parameters';
-import { mosfetCurrentsA, nodeVoltage, terminalCurrentsA } from './node-system';
+import { mosfetCurrentsA, nodeVoltage } from './node-system';
 import { solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { smallSignalStage, type SmallSignalStage } from './small-signal';
-import { cmrrCornerHzOf } from './analyze';
+import { cmrrCornerHzOf, currentIntoElementsA } from './analyze';
 import { InputError } from './errors';
 import { readOutput } from './frequency-response';
 import type { RailRejection } from './types';
@@ -326,35 +326,6 @@ export function solveMosStage(design: MosDesign): MosSolution {
   const circuit = mosStageCircuit(design);
   const op = solveOperatingPoint(circuit, null, undefined, undefined, mosModelsOf(design, circuit));
   return { design, circuit, op, stage: smallSignalStage(op, circuit.driveNodes) };
-}
-
-/** The DC current leaving a node into the circuit's elements (the tail's alone when `onlyTail`), A. */
-function currentIntoElementsA(op: OperatingPoint, nodeName: string, onlyTail: boolean): number {
-  const ic = op.circuit;
-  const node = ic.nodeRef(nodeName);
-  const v = op.voltagesV;
-  let totalA = 0;
-  for (const r of ic.resistors) {
-    if (onlyTail && !r.tail) continue;
-    const ia = (nodeVoltage(ic, v, r.a) - nodeVoltage(ic, v, r.b)) * r.conductanceS;
-    if (r.a === node) totalA += ia;
-    if (r.b === node) totalA -= ia;
-  }
-  ic.transistors.forEach((q, i) => {
-    if (onlyTail && !q.tail) return;
-    const into = terminalCurrentsA(q, op.transistors[i]);
-    if (q.ci === node) totalA += into.collectorA;
-    if (q.bi === node) totalA += into.baseA;
-    if (q.ei === node) totalA += into.emitterA;
-  });
-  ic.mosfets.forEach((m, i) => {
-    if (onlyTail && !m.tail) return;
-    const into = mosfetCurrentsA(op.mosfets[i]);
-    if (m.d === node) totalA += into.drainA;
-    if (m.s === node) totalA += into.sourceA;
-    if (m.b === node) totalA += into.bodyA;
-  });
-  return totalA;
 }
 
 /** Plain sentences for devices out of saturation: a pair or tail device in the linear (triode) region or cut off. */
