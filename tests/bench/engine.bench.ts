@@ -12,6 +12,7 @@ import { solveCircuit } from '#shared/engine/analyze';
 import { mismatchSensitivity, mismatchStages, monteCarloCmrr, monteCarloDraws } from '#shared/engine/mismatch';
 import { slewRun } from '#shared/engine/slew-rate';
 import { spiceNetlist } from '#shared/engine/netlist';
+import { analyzeMos, type MosDesign } from '#shared/engine/mos-stage';
 import type { Design, Spec } from '#shared/engine/types';
 import { validateSpec } from '#shared/validate';
 import { loadRuleSet } from '../../rules/index';
@@ -77,6 +78,31 @@ for (let i = 0; i < WARM_UP_BATCHES; i += 1) analyzeBatchUs();
 const analyzeUs = median(Array.from({ length: BATCHES }, () => analyzeBatchUs()));
 for (let i = 0; i < WARM_UP_BATCHES; i += 1) analyzeBatchUs(fullModelDesigns);
 const analyzeFullUs = median(Array.from({ length: BATCHES }, () => analyzeBatchUs(fullModelDesigns)));
+
+// MOS pairs (`analyze` only: MOS sizing and `recommend` are still to come): an invented NMOS and
+// PMOS card on ±5 V, each with a resistor, a simple-mirror and a cascode tail, in turn.
+const MOS_SIZE = { widthM: 20e-6, lengthM: 2e-6, referenceWidthM: 20e-6, referenceLengthM: 2e-6 };
+const mosDesigns: MosDesign[] = (['nmos', 'pmos'] as const).flatMap((family) =>
+  [
+    { topology: 'resistor', resistanceOhm: 10000 } as const,
+    { topology: 'simple-mirror', referenceResistanceOhm: 22000, ...MOS_SIZE } as const,
+    { topology: 'cascode', referenceResistanceOhm: 22000, ...MOS_SIZE, cascodeWidthM: 20e-6, cascodeLengthM: 2e-6 } as const,
+  ].map((tail) => ({
+    device: { family, model: family === 'nmos' ? { VTO: 0.65, KP: 120e-6, LAMBDA: 0.03, GAMMA: 0.45, PHI: 0.7 } : { VTO: -0.75, KP: 45e-6, LAMBDA: 0.04, GAMMA: 0.5, PHI: 0.7 } },
+    supply: { positiveV: 5, negativeV: -5 },
+    drainResistanceOhm: 12000,
+    pair: { widthM: 40e-6, lengthM: 2e-6 },
+    tail,
+    inputCommonModeV: family === 'nmos' ? 0.5 : -0.5,
+  })),
+);
+function analyzeMosBatchUs(): number {
+  const start = performance.now();
+  for (let i = 0; i < ANALYZE_CALLS_PER_BATCH; i += 1) analyzeMos(mosDesigns[i % mosDesigns.length]);
+  return ((performance.now() - start) * 1000) / ANALYZE_CALLS_PER_BATCH;
+}
+for (let i = 0; i < WARM_UP_BATCHES / 4; i += 1) analyzeMosBatchUs();
+const analyzeMosUs = median(Array.from({ length: BATCHES }, () => analyzeMosBatchUs()));
 
 // The slew rate's transient alone (part of every analyze call above), on the solved designs of
 // both sets: the three-parameter ones (nothing stores charge unless the spec loads them) and
@@ -149,6 +175,7 @@ const row = (name: string, value: string, target: string) => console.log(`${name
 console.log(`Longtail engine benchmark — medians over ${BATCHES} batches, Node ${process.version}\n`);
 row('analyze, per call (six topologies in turn)', `${analyzeUs.toFixed(1)} µs`, 'target ≤ 50 µs');
 row('analyze, full model card, five frequencies, per call', `${analyzeFullUs.toFixed(1)} µs`, 'target ≤ 100 µs');
+row('analyze, MOS pair (NMOS and PMOS, three tails in turn), per call', `${analyzeMosUs.toFixed(1)} µs`, 'MOS recommend: not yet built');
 row('slew rate transient, per design (both sets in turn)', `${slewMs.toFixed(2)} ms`, 'target: a few ms');
 row('ngspice (eecircuit-engine), per analysis (.op + one .ac)', `${(spiceUs / 1000).toFixed(2)} ms`, '');
 row('  ratio: SPICE analysis / analyze call', `${(spiceUs / analyzeUs).toFixed(0)}×`, '');
