@@ -18,7 +18,7 @@ import { smallSignalStage, type SmallSignalStage } from './small-signal';
 import { cmrrCornerHzOf, currentIntoElementsA } from './analyze';
 import { InputError } from './errors';
 import { readOutput } from './frequency-response';
-import type { RailRejection } from './types';
+import type { AnalyzeResult, RailRejection } from './types';
 
 /** A MOSFET's channel size, m. */
 export interface MosSize {
@@ -81,29 +81,29 @@ export interface MosDesign {
 }
 
 /** `analyze`'s figures for a MOS stage (the contract's names; currents as positive magnitudes in the direction the devices conduct). */
-export interface MosAnalyzeResult {
-  tailCurrentA: number;
+export type MosAnalyzeResult = Pick<
+  AnalyzeResult,
+  | 'tailCurrentA'
+  | 'tailNodeVoltageV'
+  | 'transconductanceS'
+  | 'tailOutputResistanceOhm'
+  | 'differentialGain'
+  | 'singleEndedGain'
+  | 'commonModeGain'
+  | 'differentialCommonModeGain'
+  | 'cmrrDb'
+  | 'cmrrCornerHz'
+  | 'inputBiasCurrentA'
+  | 'inputOffsetVoltageV'
+  | 'offsetDriftVPerC'
+  | 'psrrDb'
+  | 'powerW'
+  | 'warnings'
+> & {
+  /** M1's drain current and drain voltage (the bipolar pair's collectorCurrentA and collectorVoltageV). */
   drainCurrentA: number;
   drainVoltageV: number;
-  tailNodeVoltageV: number;
-  transconductanceS: number;
-  tailOutputResistanceOhm: number;
-  differentialGain: number;
-  singleEndedGain: number;
-  commonModeGain: number;
-  differentialCommonModeGain: number;
-  cmrrDb: { singleEnded: number; differential: number | null };
-  cmrrCornerHz: number | null;
-  inputBiasCurrentA: number;
-  /** The differential DC input v(in1) − v(in2) that brings v(c1) = v(c2), V; 0 exactly for a matched pair. */
-  inputOffsetVoltageV: number;
-  /** (offset at T + 1 °C − offset at T − 1 °C)/2, V/°C; 0 exactly for a matched pair. */
-  offsetDriftVPerC: number;
-  /** Supply rejection at low frequency, as the bipolar pair's (`psrrDb`): differential `null` for a matched pair. */
-  psrrDb: { positive: RailRejection; negative: RailRejection };
-  powerW: number;
-  warnings: string[];
-}
+};
 
 /** The device's polarity: +1 for "nmos", −1 for "pmos". */
 function polarityOf(design: MosDesign): 1 | -1 {
