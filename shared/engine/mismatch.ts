@@ -321,9 +321,9 @@ export interface MonteCarloSample {
  */
 export function monteCarloSample(draws: MonteCarloDraws, i: number, sigmas: MismatchSigmas, thermalVoltageV: number): MonteCarloSample {
   const resistorSigma = sigmas.resistorTolerance / SIGMAS_PER_TOLERANCE;
-  const mismatches = [0, 0, 0, 0];
+  const mismatches: [number, number, number, number] = [0, 0, 0, 0];
   sampleMismatchesInto(draws, i, sigmas, thermalVoltageV, mismatches);
-  return { load1Scale: 1 + resistorSigma * draws.normals[3 * i], load2Scale: 1 + resistorSigma * draws.normals[3 * i + 1], mismatches: mismatches as unknown as MismatchVector };
+  return { load1Scale: 1 + resistorSigma * draws.normals[3 * i], load2Scale: 1 + resistorSigma * draws.normals[3 * i + 1], mismatches };
 }
 
 /** Sample i's four mismatches (monteCarloSample's `mismatches`) written into `into`: a loop over every sample allocates nothing. */
