@@ -530,6 +530,25 @@ function transferFigures({ design, model, op, stage }: SolvedCircuit): Pick<Anal
   };
 }
 
+
+/**
+ * The four low-frequency gains and the rejection they give, as every stage (bipolar or MOS)
+ * reports them: a matched pair's differential common-mode gain is 0 exactly and its differential
+ * rejection null (`pairIsMatched`).
+ */
+export function lowFrequencyFigures(stage: SmallSignalStage, matched: boolean): Pick<AnalyzeResult, 'differentialGain' | 'singleEndedGain' | 'commonModeGain' | 'differentialCommonModeGain' | 'cmrrDb'> {
+  const low = stage.low;
+  return {
+    differentialGain: low.differentialGain.re,
+    singleEndedGain: low.singleEndedGain.re,
+    commonModeGain: low.commonModeGain.re,
+    differentialCommonModeGain: matched ? 0 : low.differentialCommonModeGain.re,
+    cmrrDb: {
+      singleEnded: 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re)),
+      differential: matched ? null : 20 * Math.log10(Math.abs(low.differentialGain.re / low.differentialCommonModeGain.re)),
+    },
+  };
+}
 /**
  * The figures of a solved circuit that need nothing but its solve (ConditionResult: every
  * figure but a full solve's own, FullSolveField), and its operating-point problems as figures.
@@ -551,8 +570,6 @@ function conditionFigures(solved: SolvedCircuit): { result: ConditionResult; pro
   const referenceCurrentA = polarity * currentIntoElementsA(op, rails.load, true);
   const positiveA = currentIntoElementsA(op, RAIL_NODES.positive, false);
   const negativeA = currentIntoElementsA(op, RAIL_NODES.negative, false);
-  const low = stage.low;
-  const cmrrSingleDb = 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re));
   const matched = pairIsMatched(design);
   const closedForm = closedFormTailRout(design.tail, transistors, model.beta, model.earlyVoltageV, model.thermalVoltageV);
   const problems = operatingPointProblems(transistors, referenceCurrentA, design.tail.topology !== 'resistor');
@@ -565,14 +582,7 @@ function conditionFigures(solved: SolvedCircuit): { result: ConditionResult; pro
     tailNodeVoltageV: tailNodeV,
     transconductanceS: spiceTransconductanceS(op.transistors[ic.transistors.findIndex((q) => q.name === 'Q1')]),
     tailOutputResistanceOhm: stage.tailOutputResistanceOhm,
-    differentialGain: low.differentialGain.re,
-    singleEndedGain: low.singleEndedGain.re,
-    commonModeGain: low.commonModeGain.re,
-    differentialCommonModeGain: matched ? 0 : low.differentialCommonModeGain.re,
-    cmrrDb: {
-      singleEnded: cmrrSingleDb,
-      differential: matched ? null : 20 * Math.log10(Math.abs(low.differentialGain.re / low.differentialCommonModeGain.re)),
-    },
+    ...lowFrequencyFigures(stage, matched),
     ac: acEntries({ design, model, op, stage }, matched),
     inputBiasCurrentA: (polarity * (inputCurrentsA[0] + inputCurrentsA[1])) / 2,
     psrrDb: supplyRejectionDb(stage, matched),

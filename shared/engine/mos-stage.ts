@@ -15,7 +15,7 @@ import { resolvedMosParameters, type MosModelCard } from './mos-parameters';
 import { mosfetCurrentsA, nodeVoltage } from './node-system';
 import { solveOperatingPoint, type OperatingPoint } from './operating-point';
 import { smallSignalStage, type SmallSignalStage } from './small-signal';
-import { cmrrCornerHzOf, currentIntoElementsA } from './analyze';
+import { cmrrCornerHzOf, currentIntoElementsA, lowFrequencyFigures } from './analyze';
 import { InputError } from './errors';
 import { readOutput } from './frequency-response';
 import type { AnalyzeResult, RailRejection } from './types';
@@ -438,14 +438,7 @@ export function analyzeMos(design: MosDesign): MosAnalyzeResult {
     tailNodeVoltageV: nodeVoltage(ic, v, ic.nodeRef(TAIL_NODE)),
     transconductanceS: m1.gmS,
     tailOutputResistanceOhm: stage.tailOutputResistanceOhm,
-    differentialGain: low.differentialGain.re,
-    singleEndedGain: low.singleEndedGain.re,
-    commonModeGain: low.commonModeGain.re,
-    differentialCommonModeGain: matched ? 0 : low.differentialCommonModeGain.re,
-    cmrrDb: {
-      singleEnded: 20 * Math.log10(Math.abs(low.singleEndedGain.re / low.commonModeGain.re)),
-      differential: matched ? null : 20 * Math.log10(Math.abs(low.differentialGain.re / low.differentialCommonModeGain.re)),
-    },
+    ...lowFrequencyFigures(stage, matched),
     cmrrCornerHz: (design.tailCapacitanceF ?? 0) > 0 ? cmrrCornerHzOf(stage) : null,
     inputBiasCurrentA: 0,
     inputOffsetVoltageV: matched ? 0 : mosInputOffsetV(design, op, low.differentialGain.re),
